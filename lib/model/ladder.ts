@@ -1,0 +1,283 @@
+/**
+ * Sequential tunnelling through the discrete levels of one band of a dot (orthodox theory):
+ * the occupation state space, the rates at a given bias, the steady state of the master
+ * equation and the current.
+ *
+ * One band is modelled as a ladder of electron-like levels with energies ε_j (eV, relative to the
+ * common Fermi level at zero bias) and degeneracies g_j. The valence band uses the same code:
+ * holes are electrons of the mirrored ladder (ε → −ε) at the mirrored bias (V → −V); see
+ * {@link bandLadders}.
+ *
+ * Energetics (tip Fermi level = 0, substrate Fermi level = −e·V, a fraction η of the bias across
+ * the tip junction): adding an electron to level j of a dot that holds N extra electrons costs
+ *
+ *     E_j(N) = ε_j + Ec·(N + ½) − η·e·V          relative to the tip's Fermi level,
+ *     E_j(N) + e·V                                relative to the substrate's.
+ *
+ * Rates, with f(x) = 1/(1 + eˣ) and x in units of kB·T:
+ *
+ *     tip → level j        Γ_tip · (g_j − n_j) · f(E_j(N)/kT)
+ *     level j → tip        Γ_tip · n_j · f(−E_j(N−1)/kT)
+ *     substrate → level j  Γ_sub · (g_j − n_j) · f((E_j(N) + eV)/kT)
+ *     level j → substrate  Γ_sub · n_j · f(−(E_j(N−1) + eV)/kT)
+ *     level k → level j    Γ_relax · n_k   (j the lowest non-full level with ε_j < ε_k)
+ *
+ * The current is e × the net electron flow from the tip into the dot.
+ *
+ * References: D. V. Averin and K. K. Likharev, in Mesoscopic Phenomena in Solids (Elsevier,
+ * 1991); H. Grabert and M. H. Devoret (eds.), Single Charge Tunneling (Plenum, 1992);
+ * C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991) (discrete levels).
+ */
+import { ELEMENTARY_CHARGE_C, BOLTZMANN_EV_PER_K } from "../util/constants.ts";
+import { fermi } from "../util/special.ts";
+import { stationaryDistribution } from "./stationaryDistribution.ts";
+import type { Level } from "./scenario.ts";
+
+/** Rates and energetics shared by both bands. */
+export interface JunctionParams {
+  /** Addition energy in eV. */
+  chargingEnergyEV: number;
+  /** Voltage-division factor η (0 < η ≤ 1). */
+  eta: number;
+  /** Tip-barrier rate per free slot, 1/s. */
+  tipRatePerS: number;
+  /** Substrate-barrier rate per occupied slot, 1/s. */
+  substrateRatePerS: number;
+  /** In-dot relaxation rate per carrier, 1/s. */
+  relaxationRatePerS: number;
+  /** Temperature in K. */
+  temperatureK: number;
+}
+
+/**
+ * The bias-independent structure of one band: states, transitions and the energies at which
+ * the rates switch on. Build once with {@link buildLadder}, evaluate at many biases.
+ */
+export interface Ladder {
+  levels: readonly Level[];
+  chargingEnergyEV: number;
+  /** Number of occupation states (product of g_j + 1). */
+  nStates: number;
+  /** Total carriers of each state; states are sorted by it (state 0 is the empty dot). */
+  carriers: Int32Array;
+  /** Occupation of each level per state: occupation[state * nLevels + j]. */
+  occupation: Int32Array;
+  /** For each state, the first state index of the block with one carrier fewer (band limit of the solver). */
+  lowerBlockStart: Int32Array;
+  /** Addition energies ε_j + Ec·(N + ½) in eV, indexed key = j·maxCarriers + N. */
+  keyEnergyEV: Float64Array;
+  /** Tunnelling transitions: from, to, multiplicity (free or occupied slots), key, +1 add / −1 remove. */
+  tunnelFrom: Int32Array;
+  tunnelTo: Int32Array;
+  tunnelSlots: Float64Array;
+  tunnelKey: Int32Array;
+  tunnelSign: Int8Array;
+  /** Relaxation transitions: from, to, carriers in the upper level. */
+  relaxFrom: Int32Array;
+  relaxTo: Int32Array;
+  relaxCarriers: Float64Array;
+}
+
+/**
+ * Builds the state space and transition lists of one band.
+ *
+ * @param levels - levels in the order carriers fill them (lowest cost first).
+ * @param chargingEnergyEV - addition energy Ec in eV.
+ */
+export function buildLadder(levels: readonly Level[], chargingEnergyEV: number): Ladder {
+  const nLevels = levels.length;
+  const maxCarriers = levels.reduce((s, l) => s + l.degeneracy, 0);
+  // Enumerate occupations in mixed radix, then sort by total carriers (stable).
+  let total = 1;
+  for (const l of levels) total *= l.degeneracy + 1;
+  const raw: number[][] = [];
+  for (let code = 0; code < total; code++) {
+    const occ: number[] = [];
+    let c = code;
+    for (const l of levels) {
+      occ.push(c % (l.degeneracy + 1));
+      c = Math.floor(c / (l.degeneracy + 1));
+    }
+    raw.push(occ);
+  }
+  const sum = (o: number[]) => o.reduce((a, b) => a + b, 0);
+  raw.sort((a, b) => sum(a) - sum(b));
+  const nStates = raw.length;
+  const carriers = new Int32Array(nStates);
+  const occupation = new Int32Array(nStates * Math.max(nLevels, 1));
+  const index = new Map<string, number>();
+  raw.forEach((occ, s) => {
+    carriers[s] = sum(occ);
+    occ.forEach((n, j) => (occupation[s * nLevels + j] = n));
+    index.set(occ.join(","), s);
+  });
+  const blockStart = new Int32Array(maxCarriers + 2);
+  for (let N = 0, s = 0; N <= maxCarriers + 1; N++) {
+    while (s < nStates && carriers[s] < N) s++;
+    blockStart[N] = s;
+  }
+  const lowerBlockStart = new Int32Array(nStates);
+  for (let s = 0; s < nStates; s++) lowerBlockStart[s] = blockStart[Math.max(carriers[s] - 1, 0)];
+
+  const keyCount = Math.max(maxCarriers, 1);
+  const keyEnergyEV = new Float64Array(nLevels * keyCount);
+  for (let j = 0; j < nLevels; j++) {
+    for (let N = 0; N < keyCount; N++) keyEnergyEV[j * keyCount + N] = levels[j].energyEV + chargingEnergyEV * (N + 0.5);
+  }
+
+  const tFrom: number[] = [], tTo: number[] = [], tSlots: number[] = [], tKey: number[] = [], tSign: number[] = [];
+  const rFrom: number[] = [], rTo: number[] = [], rCarriers: number[] = [];
+  raw.forEach((occ, s) => {
+    const N = carriers[s];
+    for (let j = 0; j < nLevels; j++) {
+      const g = levels[j].degeneracy;
+      if (occ[j] < g) {
+        const next = occ.slice();
+        next[j]++;
+        tFrom.push(s), tTo.push(index.get(next.join(","))!), tSlots.push(g - occ[j]), tKey.push(j * keyCount + N), tSign.push(1);
+      }
+      if (occ[j] > 0) {
+        const next = occ.slice();
+        next[j]--;
+        tFrom.push(s), tTo.push(index.get(next.join(","))!), tSlots.push(occ[j]), tKey.push(j * keyCount + N - 1), tSign.push(-1);
+      }
+    }
+    // Relaxation: a carrier in level k drops to the lowest non-full level of lower energy.
+    for (let k = 1; k < nLevels; k++) {
+      if (occ[k] === 0) continue;
+      let target = -1;
+      for (let j = 0; j < k; j++) {
+        if (occ[j] < levels[j].degeneracy && levels[j].energyEV < levels[k].energyEV) {
+          target = j;
+          break;
+        }
+      }
+      if (target < 0) continue;
+      const next = occ.slice();
+      next[k]--;
+      next[target]++;
+      rFrom.push(s), rTo.push(index.get(next.join(","))!), rCarriers.push(occ[k]);
+    }
+  });
+
+  return {
+    levels,
+    chargingEnergyEV,
+    nStates,
+    carriers,
+    occupation,
+    lowerBlockStart,
+    keyEnergyEV,
+    tunnelFrom: Int32Array.from(tFrom),
+    tunnelTo: Int32Array.from(tTo),
+    tunnelSlots: Float64Array.from(tSlots),
+    tunnelKey: Int32Array.from(tKey),
+    tunnelSign: Int8Array.from(tSign),
+    relaxFrom: Int32Array.from(rFrom),
+    relaxTo: Int32Array.from(rTo),
+    relaxCarriers: Float64Array.from(rCarriers),
+  };
+}
+
+/** |x| (in kB·T) beyond which a Fermi factor is taken as exactly 0 or 1 (e^−36 ≈ 2e−16). */
+export const SATURATION_KT = 36;
+
+/** Reusable buffers for one ladder, so evaluating many biases allocates nothing. */
+export interface LadderWorkspace {
+  rates: Float64Array;
+  probability: Float64Array;
+  tipIn: Float64Array;
+  tipOut: Float64Array;
+  subIn: Float64Array;
+  subOut: Float64Array;
+}
+
+export function ladderWorkspace(ladder: Ladder): LadderWorkspace {
+  const k = ladder.keyEnergyEV.length;
+  return {
+    rates: new Float64Array(ladder.nStates * ladder.nStates),
+    probability: new Float64Array(ladder.nStates),
+    tipIn: new Float64Array(k),
+    tipOut: new Float64Array(k),
+    subIn: new Float64Array(k),
+    subOut: new Float64Array(k),
+  };
+}
+
+function saturatedFermi(x: number, hard: boolean): number {
+  if (hard) return x > 0 ? 0 : x < 0 ? 1 : 0.5;
+  if (x > SATURATION_KT) return 0;
+  if (x < -SATURATION_KT) return 1;
+  return fermi(x);
+}
+
+/**
+ * Steady-state occupation probabilities and current of one band at one bias.
+ *
+ * @param ladder - from {@link buildLadder}.
+ * @param params - junction parameters.
+ * @param biasV - sample bias in V (electron-like sign convention of this ladder).
+ * @param work - buffers from {@link ladderWorkspace}; `work.probability` holds the state
+ *   probabilities afterwards.
+ * @param zeroTemperature - use step Fermi functions (the T → 0 limit) instead of thermal ones.
+ * @returns the current in A (e × net electron flow from the tip into the dot).
+ */
+export function ladderCurrent(
+  ladder: Ladder,
+  params: JunctionParams,
+  biasV: number,
+  work: LadderWorkspace,
+  zeroTemperature = false,
+): number {
+  const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
+  const { eta, tipRatePerS: gt, substrateRatePerS: gs } = params;
+  const { keyEnergyEV, nStates } = ladder;
+  const { tipIn, tipOut, subIn, subOut, rates, probability } = work;
+  for (let k = 0; k < keyEnergyEV.length; k++) {
+    const a = (keyEnergyEV[k] - eta * biasV) / kT;
+    const b = a + biasV / kT;
+    tipIn[k] = saturatedFermi(a, zeroTemperature);
+    tipOut[k] = saturatedFermi(-a, zeroTemperature);
+    subIn[k] = saturatedFermi(b, zeroTemperature);
+    subOut[k] = saturatedFermi(-b, zeroTemperature);
+  }
+  rates.fill(0);
+  const { tunnelFrom, tunnelTo, tunnelSlots, tunnelKey, tunnelSign } = ladder;
+  for (let t = 0; t < tunnelFrom.length; t++) {
+    const k = tunnelKey[t];
+    const r = tunnelSign[t] > 0 ? gt * tipIn[k] + gs * subIn[k] : gt * tipOut[k] + gs * subOut[k];
+    rates[tunnelFrom[t] * nStates + tunnelTo[t]] = tunnelSlots[t] * r;
+  }
+  const { relaxFrom, relaxTo, relaxCarriers } = ladder;
+  for (let t = 0; t < relaxFrom.length; t++) {
+    rates[relaxFrom[t] * nStates + relaxTo[t]] += params.relaxationRatePerS * relaxCarriers[t];
+  }
+  stationaryDistribution(rates, nStates, ladder.lowerBlockStart, probability);
+  let flow = 0;
+  for (let t = 0; t < tunnelFrom.length; t++) {
+    const p = probability[tunnelFrom[t]];
+    if (p === 0) continue;
+    const k = tunnelKey[t];
+    flow += tunnelSign[t] > 0 ? p * tunnelSlots[t] * gt * tipIn[k] : -p * tunnelSlots[t] * gt * tipOut[k];
+  }
+  return ELEMENTARY_CHARGE_C * flow;
+}
+
+/**
+ * The biases (V) at which some rate of the ladder switches on or off: tip crossings
+ * E_k/η and substrate crossings −E_k/(1 − η), sorted ascending, duplicates merged. Each carries
+ * the bias width of its thermal step, kB·T/(e·η) or kB·T/(e·(1 − η)).
+ */
+export function ladderCrossings(ladder: Ladder, params: JunctionParams): { biasV: number; thermalWidthV: number }[] {
+  const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
+  const out: { biasV: number; thermalWidthV: number }[] = [];
+  const seen = new Set<number>();
+  for (const e of ladder.keyEnergyEV) {
+    if (seen.has(e)) continue;
+    seen.add(e);
+    out.push({ biasV: e / params.eta, thermalWidthV: kT / params.eta });
+    if (params.eta < 1) out.push({ biasV: -e / (1 - params.eta), thermalWidthV: kT / (1 - params.eta) });
+  }
+  out.sort((a, b) => a.biasV - b.biasV);
+  return out;
+}

@@ -1,0 +1,225 @@
+/**
+ * The description of a simulated measurement: the dot's levels, the junction and the sweep.
+ *
+ * A scenario is plain JSON (the `dotspec simulate --config` file). {@link parseScenario}
+ * validates it once, at the boundary, and fills the defaults; everything downstream trusts it.
+ */
+import { DotspecError } from "../util/errors.ts";
+import { checkFinite, checkInteger, checkKnownKeys, checkNonNegative, checkPositive, checkRange } from "../util/check.ts";
+
+/** One single-particle level of the dot. */
+export interface Level {
+  /** Level energy in eV relative to the common Fermi level at zero bias. */
+  energyEV: number;
+  /** Number of electrons (holes) the level holds: 2 for s, 6 for p, 10 for d. */
+  degeneracy: number;
+}
+
+/** The sampled bias axis of a simulated curve. */
+export interface BiasSweep {
+  /** First bias in V. */
+  fromV: number;
+  /** Last bias in V (greater than fromV). */
+  toV: number;
+  /** Bias step in V (> 0). */
+  stepV: number;
+}
+
+/** Gaussian noise added to the simulated signals. */
+export interface NoiseSpec {
+  /** Standard deviation as a fraction of the full-scale (largest |value|) signal, e.g. 0.003. */
+  relative: number;
+  /** Seed of the pseudo-random generator: the same seed gives the same noise. Default 1. */
+  seed?: number;
+}
+
+/** A complete scenario (all defaults filled by {@link parseScenario}). */
+export interface Scenario {
+  /** Conduction-band levels, probed at positive sample bias, in ascending energy. */
+  cb: Level[];
+  /** Valence-band levels, probed at negative sample bias, in descending energy (from the gap edge down). */
+  vb: Level[];
+  /** Addition (charging) energy Ec = e²/CΣ in eV, the same for electrons and holes. */
+  chargingEnergyEV: number;
+  /** Voltage-division factor η = C2/(C1 + C2), the fraction of the bias across the tip junction; 0 < η ≤ 1. */
+  eta: number;
+  /** Tunnelling rate through the tip barrier per free slot, 1/s. */
+  tipRatePerS: number;
+  /** Tunnelling rate through the substrate barrier per occupied slot, 1/s. */
+  substrateRatePerS: number;
+  /** Temperature of both electrodes in K. */
+  temperatureK: number;
+  /** Standard deviation of a Gaussian spread of the level energies, eV (0 = none). Default 0. */
+  broadeningEV: number;
+  /** Rate at which a carrier in a higher level drops to the lowest free level, 1/s. Default 1000 × the faster tunnelling rate. */
+  relaxationRatePerS: number;
+  /** Lock-in modulation amplitude in V rms for the simulated dI/dV (0 = exact derivative). Default 0. */
+  lockInVrms: number;
+  /** Bias axis of the output. */
+  bias: BiasSweep;
+  /** Noise; null for none. */
+  noise: NoiseSpec | null;
+}
+
+/** Defaults of the optional scenario keys. */
+export const SCENARIO_DEFAULTS = {
+  broadeningEV: 0,
+  /** Relaxation rate as a multiple of the faster of the two tunnelling rates. */
+  relaxationRateFactor: 1000,
+  lockInVrms: 0,
+  noiseSeed: 1,
+  /** The state space (product of degeneracy + 1 over levels, per band) may not exceed this. */
+  maxStates: 1200,
+  /** The output may not have more points than this. */
+  maxPoints: 1_000_000,
+} as const;
+
+const SCENARIO_KEYS = [
+  "cb",
+  "vb",
+  "chargingEnergyEV",
+  "eta",
+  "tipRatePerS",
+  "substrateRatePerS",
+  "temperatureK",
+  "broadeningEV",
+  "relaxationRatePerS",
+  "lockInVrms",
+  "bias",
+  "noise",
+  "description",
+] as const;
+
+function isObject(v: unknown): v is Record<string, unknown> {
+  return typeof v === "object" && v !== null && !Array.isArray(v);
+}
+
+function parseLevels(key: "cb" | "vb", value: unknown): Level[] {
+  if (value === undefined) return [];
+  if (!Array.isArray(value)) throw new DotspecError("scenario/bad-levels", `scenario.${key} must be an array of {energyEV, degeneracy}; got ${typeof value}`);
+  const levels = value.map((item, i): Level => {
+    const where = `scenario.${key}[${i}]`;
+    if (!isObject(item)) throw new DotspecError("scenario/bad-levels", `${where} must be an object {energyEV, degeneracy}`);
+    checkKnownKeys(where, item, ["energyEV", "degeneracy", "label"]);
+    if (item.energyEV === undefined) throw new DotspecError("scenario/missing-key", `${where}.energyEV is missing`);
+    if (item.degeneracy === undefined) throw new DotspecError("scenario/missing-key", `${where}.degeneracy is missing`);
+    return {
+      energyEV: checkFinite(`${where}.energyEV`, item.energyEV),
+      degeneracy: checkInteger(`${where}.degeneracy`, item.degeneracy, 1, 18),
+    };
+  });
+  for (let i = 1; i < levels.length; i++) {
+    const ok = key === "cb" ? levels[i].energyEV > levels[i - 1].energyEV : levels[i].energyEV < levels[i - 1].energyEV;
+    if (!ok) {
+      const order = key === "cb" ? "ascending (lowest CB level first)" : "descending (VB level nearest the gap first)";
+      throw new DotspecError(
+        "scenario/levels-out-of-order",
+        `scenario.${key} must be in ${order} energy; ${key}[${i}].energyEV = ${levels[i].energyEV} follows ${levels[i - 1].energyEV}`,
+      );
+    }
+  }
+  return levels;
+}
+
+function stateCount(levels: Level[]): number {
+  return levels.reduce((n, l) => n * (l.degeneracy + 1), 1);
+}
+
+/**
+ * Validates a scenario object (for example parsed from JSON) and fills its defaults.
+ *
+ * @param input - the scenario as plain data.
+ * @returns a complete {@link Scenario}.
+ * @throws DotspecError naming the key for an unknown or missing key, a non-finite or negative
+ *   rate or temperature, η outside (0, 1], levels out of order, an empty bias range, or a state
+ *   space too large to solve.
+ *
+ * @example
+ * parseScenario({ cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, temperatureK: 4.5,
+ *   bias: { fromV: -1, toV: 1.5, stepV: 0.005 } }).relaxationRatePerS; // => 1e12
+ */
+export function parseScenario(input: unknown): Scenario {
+  if (!isObject(input)) throw new DotspecError("scenario/not-object", "a scenario must be a JSON object");
+  checkKnownKeys("scenario", input, SCENARIO_KEYS);
+  for (const key of ["chargingEnergyEV", "eta", "tipRatePerS", "substrateRatePerS", "temperatureK", "bias"] as const) {
+    if (input[key] === undefined) throw new DotspecError("scenario/missing-key", `scenario.${key} is missing`);
+  }
+  const cb = parseLevels("cb", input.cb);
+  const vb = parseLevels("vb", input.vb);
+  if (cb.length === 0 && vb.length === 0) throw new DotspecError("scenario/no-levels", "scenario needs at least one level in cb or vb");
+  if (cb.length > 0 && vb.length > 0 && !(cb[0].energyEV > vb[0].energyEV)) {
+    throw new DotspecError(
+      "scenario/levels-out-of-order",
+      `scenario.cb[0].energyEV (${cb[0].energyEV}) must lie above scenario.vb[0].energyEV (${vb[0].energyEV})`,
+    );
+  }
+  for (const [key, levels] of [["cb", cb], ["vb", vb]] as const) {
+    const n = stateCount(levels);
+    if (n > SCENARIO_DEFAULTS.maxStates) {
+      throw new DotspecError(
+        "scenario/too-many-states",
+        `scenario.${key} gives ${n} occupation states (product of degeneracy + 1); at most ${SCENARIO_DEFAULTS.maxStates} can be solved: use fewer or less degenerate levels`,
+      );
+    }
+  }
+  const tipRatePerS = checkPositive("scenario.tipRatePerS", input.tipRatePerS);
+  const substrateRatePerS = checkPositive("scenario.substrateRatePerS", input.substrateRatePerS);
+  const relaxationRatePerS =
+    input.relaxationRatePerS === undefined
+      ? SCENARIO_DEFAULTS.relaxationRateFactor * Math.max(tipRatePerS, substrateRatePerS)
+      : checkPositive("scenario.relaxationRatePerS", input.relaxationRatePerS);
+
+  const bias = input.bias;
+  if (!isObject(bias)) throw new DotspecError("scenario/bad-bias", "scenario.bias must be an object {fromV, toV, stepV}");
+  checkKnownKeys("scenario.bias", bias, ["fromV", "toV", "stepV"]);
+  for (const key of ["fromV", "toV", "stepV"]) {
+    if (bias[key] === undefined) throw new DotspecError("scenario/missing-key", `scenario.bias.${key} is missing`);
+  }
+  const fromV = checkFinite("scenario.bias.fromV", bias.fromV);
+  const toV = checkFinite("scenario.bias.toV", bias.toV);
+  const stepV = checkPositive("scenario.bias.stepV", bias.stepV);
+  if (!(toV > fromV)) throw new DotspecError("scenario/bad-bias", `scenario.bias.toV (${toV}) must be greater than scenario.bias.fromV (${fromV})`);
+  const points = Math.floor((toV - fromV) / stepV + 1e-9) + 1;
+  if (points < 5 || points > SCENARIO_DEFAULTS.maxPoints) {
+    throw new DotspecError("scenario/bad-bias", `scenario.bias gives ${points} points; between 5 and ${SCENARIO_DEFAULTS.maxPoints} are allowed: change stepV`);
+  }
+
+  let noise: NoiseSpec | null = null;
+  if (input.noise !== undefined && input.noise !== null) {
+    if (!isObject(input.noise)) throw new DotspecError("scenario/bad-noise", "scenario.noise must be an object {relative, seed}");
+    checkKnownKeys("scenario.noise", input.noise, ["relative", "seed"]);
+    if (input.noise.relative === undefined) throw new DotspecError("scenario/missing-key", "scenario.noise.relative is missing");
+    noise = {
+      relative: checkRange("scenario.noise.relative", input.noise.relative, 0, 1),
+      seed: input.noise.seed === undefined ? SCENARIO_DEFAULTS.noiseSeed : checkInteger("scenario.noise.seed", input.noise.seed, 0, 2 ** 32 - 1),
+    };
+  }
+
+  return {
+    cb,
+    vb,
+    chargingEnergyEV: checkNonNegative("scenario.chargingEnergyEV", input.chargingEnergyEV),
+    eta: (() => {
+      const eta = checkFinite("scenario.eta", input.eta);
+      if (!(eta > 0 && eta <= 1)) throw new DotspecError("options/out-of-range", `scenario.eta must be in (0, 1]; got ${eta}`);
+      return eta;
+    })(),
+    tipRatePerS,
+    substrateRatePerS,
+    temperatureK: checkPositive("scenario.temperatureK", input.temperatureK),
+    broadeningEV: input.broadeningEV === undefined ? SCENARIO_DEFAULTS.broadeningEV : checkNonNegative("scenario.broadeningEV", input.broadeningEV),
+    relaxationRatePerS,
+    lockInVrms: input.lockInVrms === undefined ? SCENARIO_DEFAULTS.lockInVrms : checkNonNegative("scenario.lockInVrms", input.lockInVrms),
+    bias: { fromV, toV, stepV },
+    noise,
+  };
+}
+
+/** The bias points of a sweep: fromV, fromV + stepV, … up to toV (inclusive within rounding). */
+export function biasAxis(sweep: BiasSweep): Float64Array {
+  const n = Math.floor((sweep.toV - sweep.fromV) / sweep.stepV + 1e-9) + 1;
+  const out = new Float64Array(n);
+  for (let i = 0; i < n; i++) out[i] = sweep.fromV + i * sweep.stepV;
+  return out;
+}

@@ -1,0 +1,31 @@
+// erfc and Φ checked against mathjs's erf (general-purpose reference library) and against
+// table values of Φ (Abramowitz & Stegun, Handbook of Mathematical Functions, table 26.1).
+import { describe, it, expect } from "vitest";
+import { erf } from "mathjs";
+import { expectClose } from "../helpers/expectClose.ts";
+import { erfc, normalCdf, fermi } from "../../lib/util/special.ts";
+
+describe("special functions", () => {
+  it("erfc(x) matches 1 − erf(x) from mathjs to 1.2e-7 (relative) over −5…5", () => {
+    for (let x = -5; x <= 5; x += 0.0625) {
+      const ref = 1 - (erf(x) as number);
+      // atol 1e-15: 1 − erf(x) from the reference itself loses digits to cancellation at large x.
+      expectClose(erfc(x), ref, { rtol: 1.3e-7, atol: 1e-15, what: `erfc(${x})` });
+    }
+  });
+
+  it("normalCdf(x) matches Φ table values (Abramowitz & Stegun 26.1)", () => {
+    expectClose(normalCdf(0), 0.5, { atol: 1e-7 });
+    expectClose(normalCdf(1), 0.8413447461, { atol: 2e-7 });
+    expectClose(normalCdf(-1.96), 0.0249978952, { atol: 2e-7 });
+    expectClose(normalCdf(3), 0.9986501020, { atol: 2e-7 });
+  });
+
+  it("fermi(x) is 1/(1+e^x), symmetric f(x) + f(−x) = 1, and does not overflow (closed form)", () => {
+    expectClose(fermi(0), 0.5);
+    expectClose(fermi(2) + fermi(-2), 1, { rtol: 1e-15 });
+    expectClose(fermi(1), 1 / (1 + Math.E), { rtol: 1e-15 });
+    expect(fermi(1000)).toBe(0);
+    expect(fermi(-1000)).toBe(1);
+  });
+});
