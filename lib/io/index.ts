@@ -1,0 +1,43 @@
+/**
+ * dotspec I/O: reading I–V sweeps from delimited text and files, writing tables and text files.
+ * The only module that touches the file system.
+ */
+export {
+  ACCEPTED_UNITS,
+  BIAS_UNITS,
+  CONDUCTANCE_UNITS,
+  CURRENT_UNITS,
+  SI_UNIT,
+  findUnit,
+  parseUnit,
+  toSI,
+  type Quantity,
+  type UnitInfo,
+} from "./units.ts";
+export {
+  PARSE_DEFAULTS,
+  parseCurveText,
+  type BiasDirection,
+  type ColumnRef,
+  type ImportColumn,
+  type ImportRecord,
+  type ParseOptions,
+  type ParsedCurve,
+} from "./parseCurveText.ts";
+export type { ColumnRole } from "./readColumnHeader.ts";
+export type { Delimiter } from "./cells.ts";
+export {
+  CURVE_FILE_EXTENSIONS,
+  MAX_CURVE_FILE_BYTES,
+  listCurveFiles,
+  readCurveFile,
+  type ReadCurveOptions,
+} from "./readCurveFile.ts";
+export {
+  CURVE_CSV_DIGITS,
+  formatCsv,
+  formatCurveCsv,
+  writeTextFile,
+  type CellValue,
+  type CurveColumns,
+} from "./writeTable.ts";

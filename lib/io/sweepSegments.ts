@@ -1,0 +1,179 @@
+/**
+ * Cutting a bias sequence into monotonic sweeps, merging repeated bias points, and carrying a
+ * sweep onto another sweep's bias points. Used by the importer only.
+ */
+
+/** One monotonic run of a bias sequence: rows `start..end` (inclusive). */
+export interface Segment {
+  start: number;
+  end: number;
+  /** +1 rising, −1 falling, 0 constant (a single bias value). */
+  direction: 1 | -1 | 0;
+}
+
+/**
+ * Cut a bias sequence into monotonic segments.
+ *
+ * Parameters
+ * ----------
+ * biasV : ArrayLike<number>
+ *     Bias in file order (finite values), V.
+ *
+ * Returns
+ * -------
+ * Segment[]
+ *     Consecutive segments covering every row; one segment when the sequence is monotonic.
+ *
+ * Notes
+ * -----
+ * Repeated values do not change the direction. At a turning point:
+ * 1. a turning value that occurs once belongs to both segments (the end of one sweep and the
+ *    start of the next: `0 1 2 1 0` → rows 0–2 and 2–4);
+ * 2. a turning value that is repeated is split: its last occurrence starts the next segment and
+ *    the others end the previous one (`0 1 2 2 1 0` → rows 0–2 and 3–5).
+ *
+ * Example
+ * -------
+ * splitMonotonic([0, 1, 2, 1, 0]);
+ * // => [{start: 0, end: 2, direction: 1}, {start: 2, end: 4, direction: -1}]
+ */
+export function splitMonotonic(biasV: ArrayLike<number>): Segment[] {
+  const n = biasV.length;
+  const out: Segment[] = [];
+  if (n === 0) return out;
+  let start = 0;
+  let direction: 1 | -1 | 0 = 0;
+  let lastMove = 0; // first index of the current run of equal values
+  for (let i = 1; i < n; i++) {
+    const d = biasV[i] > biasV[i - 1] ? 1 : biasV[i] < biasV[i - 1] ? -1 : 0;
+    if (d === 0) continue;
+    if (direction !== 0 && d !== direction) {
+      const runStart = lastMove;
+      const runEnd = i - 1;
+      if (runStart === runEnd) {
+        out.push({ start, end: runEnd, direction });
+        start = runEnd;
+      } else {
+        out.push({ start, end: runEnd - 1, direction });
+        start = runEnd;
+      }
+    }
+    direction = d;
+    lastMove = i;
+  }
+  out.push({ start, end: n - 1, direction });
+  return out;
+}
+
+/** Bias points in ascending order with one or more value columns, repeated points merged. */
+export interface MergedSweep {
+  /** Distinct bias values, strictly ascending, V. */
+  biasV: Float64Array;
+  /** One array per input column, on `biasV`. */
+  values: Float64Array[];
+  /** Rows removed by merging repeated bias values (rows in − points out). */
+  merged: number;
+}
+
+/**
+ * Order rows by bias and average the rows that share a bias value.
+ *
+ * Parameters
+ * ----------
+ * biasV : ArrayLike<number>
+ *     Bias of every row, V.
+ * columns : ArrayLike<number>[]
+ *     Values of every row, one array per column (any unit).
+ * order : ArrayLike<number>
+ *     Row indices in ascending bias order (ties adjacent).
+ *
+ * Returns
+ * -------
+ * MergedSweep
+ *     Strictly ascending bias, the mean of each column over the rows at each bias, and the count
+ *     of rows merged away.
+ *
+ * Notes
+ * -----
+ * Means are summed as Σ xᵢ/n so that values near the largest double cannot overflow.
+ *
+ * Example
+ * -------
+ * mergeDuplicates([0, 1, 1, 2], [[0, 10, 20, 30]], [0, 1, 2, 3]);
+ * // => {biasV: [0, 1, 2], values: [[0, 15, 30]], merged: 1}
+ */
+export function mergeDuplicates(
+  biasV: ArrayLike<number>,
+  columns: readonly ArrayLike<number>[],
+  order: ArrayLike<number>,
+): MergedSweep {
+  const n = order.length;
+  const outBias: number[] = [];
+  const outValues: number[][] = columns.map(() => []);
+  let i = 0;
+  while (i < n) {
+    const b = biasV[order[i]];
+    let j = i + 1;
+    while (j < n && biasV[order[j]] === b) j++;
+    outBias.push(b);
+    const k = j - i;
+    for (let c = 0; c < columns.length; c++) {
+      const col = columns[c];
+      if (k === 1) {
+        outValues[c].push(col[order[i]]);
+      } else {
+        let s = 0;
+        for (let r = i; r < j; r++) s += col[order[r]] / k;
+        outValues[c].push(s);
+      }
+    }
+    i = j;
+  }
+  return {
+    biasV: Float64Array.from(outBias),
+    values: outValues.map((v) => Float64Array.from(v)),
+    merged: n - outBias.length,
+  };
+}
+
+/**
+ * Linear interpolation of a sweep onto other bias points.
+ *
+ * Parameters
+ * ----------
+ * fromBiasV : Float64Array
+ *     Strictly ascending bias of the sweep, V.
+ * values : Float64Array
+ *     The sweep's values on `fromBiasV`.
+ * toBiasV : Float64Array
+ *     Ascending target bias, V, inside [fromBiasV[0], fromBiasV[last]].
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     Values on `toBiasV`; exact at shared points. Computed as y0·(1 − t) + y1·t, which stays
+ *     finite for finite inputs.
+ *
+ * Example
+ * -------
+ * interpolateOnto(Float64Array.of(0, 2), Float64Array.of(0, 4), Float64Array.of(0.5, 1));  // => [1, 2]
+ */
+export function interpolateOnto(fromBiasV: Float64Array, values: Float64Array, toBiasV: Float64Array): Float64Array {
+  const out = new Float64Array(toBiasV.length);
+  const last = fromBiasV.length - 1;
+  let j = 0;
+  for (let i = 0; i < toBiasV.length; i++) {
+    const x = toBiasV[i];
+    while (j < last - 1 && fromBiasV[j + 1] < x) j++;
+    if (last === 0 || x <= fromBiasV[j]) {
+      out[i] = values[j];
+    } else if (x >= fromBiasV[j + 1]) {
+      out[i] = values[j + 1];
+    } else {
+      // Halves keep the differences finite even for biases near the largest double.
+      const t = (x / 2 - fromBiasV[j] / 2) / (fromBiasV[j + 1] / 2 - fromBiasV[j] / 2);
+      out[i] = values[j] * (1 - t) + values[j + 1] * t;
+    }
+  }
+  return out;
+}

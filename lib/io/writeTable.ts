@@ -1,0 +1,145 @@
+/**
+ * Writing tables: CSV text for result tables and curves, and text files for reports.
+ */
+import { mkdirSync, writeFileSync } from "node:fs";
+import { dirname } from "node:path";
+import { csvFormat } from "d3-dsv";
+import { DotspecError } from "../util/errors.ts";
+
+/** A value of a table cell. null is written as an empty cell. */
+export type CellValue = string | number | boolean | null;
+
+/** Significant digits of the numbers written by {@link formatCurveCsv}. */
+export const CURVE_CSV_DIGITS = 10;
+
+/**
+ * Format rows as CSV text.
+ *
+ * Parameters
+ * ----------
+ * rows : Record<string, CellValue>[]
+ *     One object per row.
+ * columns : string[], optional
+ *     Column order. Default: every key, in order of first appearance.
+ *
+ * Returns
+ * -------
+ * string
+ *     RFC 4180 CSV with a header line and a final line end (`\n`). Cells that hold a comma, a
+ *     double quote or a line end are quoted (d3-dsv's `csvFormat`). Numbers are written in full
+ *     (JavaScript's shortest exact form, so they read back to the same double); null as an empty
+ *     cell; booleans as `true`/`false`; NaN and ±Infinity as `NaN`, `Infinity`, `-Infinity`.
+ *
+ * Example
+ * -------
+ * formatCsv([{ file: "a,b.csv", gapV: 0.1 + 0.2, ec: null }]);
+ * // => 'file,gapV,ec\n"a,b.csv",0.30000000000000004,\n'
+ */
+export function formatCsv(rows: readonly Record<string, CellValue>[], columns?: readonly string[]): string {
+  if (!Array.isArray(rows)) {
+    throw new DotspecError("io/not-rows", `formatCsv: rows must be a list of objects; got ${typeof rows}`);
+  }
+  const text = columns ? csvFormat(rows as Record<string, CellValue>[], columns as string[]) : csvFormat(rows as Record<string, CellValue>[]);
+  return text + "\n";
+}
+
+/** The arrays {@link formatCurveCsv} writes: a Curve, or any object with these fields. */
+export interface CurveColumns {
+  /** Bias, V. */
+  biasV: ArrayLike<number>;
+  /** Current, A; same length as `biasV`. */
+  currentA: ArrayLike<number>;
+  /** Conductance, S; same length, or null/absent for no column. */
+  didvS?: ArrayLike<number> | null;
+}
+
+/**
+ * Format a curve as CSV that {@link parseCurveText} reads back.
+ *
+ * Parameters
+ * ----------
+ * curve : CurveColumns
+ *     `biasV` in V, `currentA` in A, optionally `didvS` in S; equal lengths, finite values.
+ *
+ * Returns
+ * -------
+ * string
+ *     Header `bias (V),current (A)` (plus `,dI/dV (S)`), then one row per point with each number
+ *     rounded to 10 significant digits and written in its shortest form (`0.001`, `1.234567891e-12`),
+ *     and a final `\n`.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/length-mismatch` when the arrays differ in length; `io/not-finite` for a NaN or infinite
+ *     value (names the array and index).
+ *
+ * Example
+ * -------
+ * formatCurveCsv({ biasV: [-0.1, 0.1], currentA: [-2e-12, 2.0000000001234e-12] });
+ * // => "bias (V),current (A)\n-0.1,-2e-12\n0.1,2e-12\n"
+ */
+export function formatCurveCsv(curve: CurveColumns): string {
+  const { biasV, currentA } = curve;
+  const didvS = curve.didvS ?? null;
+  const n = biasV.length;
+  const arrays: [string, ArrayLike<number>][] = [
+    ["biasV", biasV],
+    ["currentA", currentA],
+  ];
+  if (didvS) arrays.push(["didvS", didvS]);
+  for (const [name, a] of arrays) {
+    if (a.length !== n) {
+      throw new DotspecError("io/length-mismatch", `formatCurveCsv: ${name} has ${a.length} values but biasV has ${n}; give arrays of equal length`);
+    }
+    for (let i = 0; i < n; i++) {
+      if (!Number.isFinite(a[i])) {
+        throw new DotspecError("io/not-finite", `formatCurveCsv: ${name}[${i}] is ${a[i]}; a curve holds finite numbers only`);
+      }
+    }
+  }
+  const parts: string[] = [didvS ? "bias (V),current (A),dI/dV (S)" : "bias (V),current (A)"];
+  for (let i = 0; i < n; i++) {
+    parts.push(didvS ? `${compact(biasV[i])},${compact(currentA[i])},${compact(didvS[i])}` : `${compact(biasV[i])},${compact(currentA[i])}`);
+  }
+  return parts.join("\n") + "\n";
+}
+
+function compact(x: number): string {
+  return String(Number(x.toPrecision(CURVE_CSV_DIGITS)));
+}
+
+/**
+ * Write a text file, creating its folder if needed.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     Where to write; parent folders are created.
+ * text : string
+ *     The content, written as UTF-8. An existing file is replaced.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/write-failed` naming the path and the reason (permission, a file where a folder should be…).
+ *
+ * Example
+ * -------
+ * writeTextFile("report/summary.csv", formatCsv(rows));
+ */
+export function writeTextFile(path: string, text: string): void {
+  if (typeof path !== "string" || path === "") {
+    throw new DotspecError("io/write-failed", `writeTextFile: path must be a non-empty string; got ${JSON.stringify(path)}`);
+  }
+  if (typeof text !== "string") {
+    throw new DotspecError("io/write-failed", `writeTextFile: text must be a string; got ${typeof text}`);
+  }
+  try {
+    mkdirSync(dirname(path), { recursive: true });
+    writeFileSync(path, text, "utf8");
+  } catch (err) {
+    const reason = err instanceof Error ? err.message : String(err);
+    throw new DotspecError("io/write-failed", `${path}: could not be written (${reason}); check the folder exists and is writable`);
+  }
+}

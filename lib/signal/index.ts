@@ -1,0 +1,36 @@
+/**
+ * The signal stage: resampling, sweep averaging, noise estimates, Savitzky–Golay smoothing and
+ * differentiation, the conductance dI/dV and the normalised conductance.
+ */
+export {
+  savitzkyGolay,
+  savitzkyGolayWeights,
+  savitzkyGolayNoiseGain,
+  minimumWindowSamples,
+  SAVITZKY_GOLAY_DEFAULTS,
+  type SavitzkyGolayOptions,
+} from "./savitzkyGolay.ts";
+export {
+  median,
+  medianAbsoluteDeviation,
+  whiteNoiseSigma,
+  MAD_TO_SIGMA,
+  WHITE_NOISE_DEFAULTS,
+  type WhiteNoiseSigmaOptions,
+} from "./noise.ts";
+export { isUniformStep, resampleUniform, RESAMPLE_DEFAULTS, type ResampledSeries } from "./resample.ts";
+export { averageSweeps, type SweepAverage } from "./averageSweeps.ts";
+export {
+  conductance,
+  CONDUCTANCE_DEFAULTS,
+  type ConductanceOptions,
+  type ConductanceRecord,
+  type ConductanceResult,
+} from "./conductance.ts";
+export {
+  normalizedConductance,
+  NORMALIZED_CONDUCTANCE_DEFAULTS,
+  type NormalizedConductanceInput,
+  type NormalizedConductanceOptions,
+  type NormalizedConductanceResult,
+} from "./normalizedConductance.ts";

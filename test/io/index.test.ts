@@ -1,0 +1,25 @@
+// The public entry point of lib/io re-exports the pieces other modules and the CLI use
+// (by construction of the module's contract).
+import { describe, expect, it } from "vitest";
+import * as io from "../../lib/io/index.ts";
+
+describe("lib/io/index", () => {
+  it("re-exports the readers, writers, units and defaults", () => {
+    for (const name of [
+      "parseCurveText",
+      "readCurveFile",
+      "listCurveFiles",
+      "formatCsv",
+      "formatCurveCsv",
+      "writeTextFile",
+      "parseUnit",
+      "findUnit",
+      "toSI",
+    ]) {
+      expect(typeof (io as Record<string, unknown>)[name], name).toBe("function");
+    }
+    expect(io.PARSE_DEFAULTS.minPoints).toBe(5);
+    expect(io.ACCEPTED_UNITS.current).toContain("pA");
+    expect(io.CURVE_FILE_EXTENSIONS).toEqual([".csv", ".txt", ".dat", ".tsv"]);
+  });
+});

@@ -1,0 +1,137 @@
+// Writing CSV and text files. References: d3-dsv's csvParse (RFC 4180 reader, reference library)
+// for quoting; ECMA-262 Number::toString, whose shortest form reads back to the same double, for
+// "full precision"; 10 significant digits bound the relative rounding error by 5e-10 (closed form:
+// half a unit in the 10th digit).
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import fc from "fast-check";
+import { csvParse, csvParseRows } from "d3-dsv";
+import { expectClose } from "../helpers/expectClose.ts";
+import { isDotspecError } from "../../lib/util/errors.ts";
+import { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, writeTextFile } from "../../lib/io/writeTable.ts";
+import { parseCurveText } from "../../lib/io/parseCurveText.ts";
+
+let tmp = "";
+beforeAll(() => {
+  tmp = mkdtempSync(join(tmpdir(), "dotspec-write-"));
+});
+afterAll(() => {
+  if (tmp) rmSync(tmp, { recursive: true, force: true });
+});
+
+function errorOf(f: () => unknown): { code: string; message: string } {
+  try {
+    f();
+  } catch (e) {
+    if (!isDotspecError(e)) throw e;
+    return e;
+  }
+  throw new Error("expected a DotspecError, but the call returned");
+}
+
+describe("formatCsv", () => {
+  it("formatCsv(rows) quotes cells so that d3-dsv's csvParse reads them back", () => {
+    const rows = [{ file: 'a,b "c".csv', note: "two\nlines", gapV: 1.5 }];
+    const text = formatCsv(rows);
+    // d3-dsv csvParse (reference library)
+    expect(csvParse(text)[0]).toMatchObject({ file: 'a,b "c".csv', note: "two\nlines", gapV: "1.5" });
+    expect(text.endsWith("\n")).toBe(true);
+  });
+
+  it("formatCsv(rows) writes numbers in full precision, null as empty, booleans as words", () => {
+    const text = formatCsv([{ x: 0.1 + 0.2, y: null, ok: true, n: -1e-300 }]);
+    // ECMA-262 Number::toString: 0.1 + 0.2 is 0.30000000000000004
+    expect(text).toBe("x,y,ok,n\n0.30000000000000004,,true,-1e-300\n");
+  });
+
+  it("formatCsv(rows) numbers read back to the same double (property)", () => {
+    // ECMA-262 Number::toString round-trips every finite double
+    fc.assert(
+      fc.property(fc.array(fc.double({ noNaN: true, noDefaultInfinity: true }), { minLength: 1, maxLength: 20 }), (xs) => {
+        const rows = csvParseRows(formatCsv(xs.map((x) => ({ x }))).trimEnd());
+        return rows.slice(1).every((r, i) => Object.is(Number(r[0]), xs[i]) || (xs[i] === 0 && Number(r[0]) === 0));
+      }),
+      { numRuns: 300 },
+    );
+  });
+
+  it("formatCsv(rows, columns) follows the given column order and leaves out other keys", () => {
+    // by construction of the input
+    expect(formatCsv([{ a: 1, b: 2, c: 3 }], ["c", "a"])).toBe("c,a\n3,1\n");
+  });
+
+  it("formatCsv(rows) takes the columns from every row, in order of first appearance", () => {
+    // d3-dsv csvFormat's documented column inference
+    expect(formatCsv([{ a: 1 }, { b: 2 }])).toBe("a,b\n1,\n,2\n");
+  });
+});
+
+describe("formatCurveCsv", () => {
+  it("formatCurveCsv(curve) writes the header `bias (V),current (A)` and compact numbers", () => {
+    const text = formatCurveCsv({ biasV: [-0.1, 0, 0.1], currentA: [-2e-12, 0, 2.0000000001234e-12] });
+    // 10 significant digits: 2.0000000001234e-12 → 2.000000000e-12 → "2e-12"
+    expect(text).toBe("bias (V),current (A)\n-0.1,-2e-12\n0,0\n0.1,2e-12\n");
+  });
+
+  it("formatCurveCsv(curve with didvS) adds the column `dI/dV (S)`", () => {
+    const text = formatCurveCsv({ biasV: [0, 1], currentA: [0, 1e-9], didvS: [1e-9, 2e-9] });
+    expect(text.split("\n")[0]).toBe("bias (V),current (A),dI/dV (S)");
+    expect(text.split("\n")[2]).toBe("1,1e-9,2e-9");
+  });
+
+  it("parseCurveText(formatCurveCsv(curve)) gives the curve back to 10 significant digits (property)", () => {
+    const arb = fc.record({
+      ks: fc.uniqueArray(fc.integer({ min: -3000, max: 3000 }), { minLength: 5, maxLength: 80 }),
+      currents: fc.array(fc.double({ min: -1e-6, max: 1e-6, noNaN: true }), { minLength: 80, maxLength: 80 }),
+      withDidv: fc.boolean(),
+    });
+    fc.assert(
+      fc.property(arb, ({ ks, currents, withDidv }) => {
+        const biasV = Float64Array.from([...ks].sort((a, b) => a - b).map((k) => k * 1e-3));
+        const currentA = Float64Array.from(biasV, (_, i) => currents[i]);
+        const didvS = withDidv ? Float64Array.from(biasV, (_, i) => Math.abs(currents[i]) * 1e3) : null;
+        const { curve, record } = parseCurveText(formatCurveCsv({ biasV, currentA, didvS }));
+        // half a unit in the 10th significant digit: relative error ≤ 5e-10
+        expectClose(curve.biasV, biasV, { rtol: 5e-10 });
+        expectClose(curve.currentA, currentA, { rtol: 5e-10 });
+        if (didvS) expectClose(curve.didvS!, didvS, { rtol: 5e-10 });
+        else expect(curve.didvS).toBeNull();
+        expect(record.warnings).toEqual([]);
+        expect(record.columns.map((c) => c.unitFrom)).toEqual(withDidv ? ["header", "header", "header"] : ["header", "header"]);
+        return true;
+      }),
+      { numRuns: 300 },
+    );
+    expect(CURVE_CSV_DIGITS).toBe(10);
+  });
+
+  it("formatCurveCsv throws io/length-mismatch and io/not-finite naming the array", () => {
+    const a = errorOf(() => formatCurveCsv({ biasV: [0, 1], currentA: [0] }));
+    expect(a.code).toBe("io/length-mismatch");
+    expect(a.message).toContain("currentA has 1 values but biasV has 2");
+    const b = errorOf(() => formatCurveCsv({ biasV: [0, 1], currentA: [0, NaN] }));
+    expect(b.code).toBe("io/not-finite");
+    expect(b.message).toContain("currentA[1]");
+  });
+});
+
+describe("writeTextFile", () => {
+  it("writeTextFile(path, text) creates the parent folders and writes UTF-8", () => {
+    const path = join(tmp, "a", "b", "report.csv");
+    writeTextFile(path, "µ,Ω\n");
+    expect(readFileSync(path, "utf8")).toBe("µ,Ω\n");
+    writeTextFile(path, "second\n");
+    expect(readFileSync(path, "utf8")).toBe("second\n");
+  });
+
+  it("writeTextFile throws io/write-failed naming the path when a file stands where a folder should be", () => {
+    const file = join(tmp, "plain-file");
+    writeFileSync(file, "x");
+    const path = join(file, "report.csv");
+    const e = errorOf(() => writeTextFile(path, "y"));
+    expect(e.code).toBe("io/write-failed");
+    expect(e.message).toContain(path);
+  });
+});
