@@ -1,0 +1,50 @@
+/**
+ * The zero-conductance region around 0 V: where dI/dV stays within the noise.
+ */
+
+/** Options of {@link gapEdges}. */
+export interface GapEdgesOptions {
+  /** Conductance noise σ_G in S (of the curve passed in). */
+  noiseS: number;
+  /** The region ends where dI/dV exceeds this many σ_G … Default 3. */
+  thresholdSigma?: number;
+  /** … for this many samples in a row. Default 3. */
+  runSamples?: number;
+}
+
+export const GAP_EDGES_DEFAULTS = { thresholdSigma: 3, runSamples: 3 } as const;
+
+/**
+ * Edges of the zero-conductance region (the gap seen directly in dI/dV).
+ *
+ * Notes:
+ * 1. Start at the bias point nearest 0 V.
+ * 2. Walk outward on each side until dI/dV exceeds thresholdSigma·σ_G for runSamples samples in a
+ *    row; the edge is the first of those samples.
+ * 3. Null when 0 V is outside the bias range, or dI/dV at 0 V is itself above the threshold
+ *    (no gap: a metallic or charged dot).
+ *
+ * @param biasV - ascending bias in V.
+ * @param didvS - conductance in S.
+ * @returns [negative edge, positive edge] in V; an edge that runs to the end of the data is the last bias point.
+ */
+export function gapEdges(biasV: Float64Array, didvS: Float64Array, options: GapEdgesOptions): [number, number] | null {
+  const n = biasV.length;
+  if (n === 0 || biasV[0] > 0 || biasV[n - 1] < 0) return null;
+  const threshold = (options.thresholdSigma ?? GAP_EDGES_DEFAULTS.thresholdSigma) * options.noiseS;
+  const run = options.runSamples ?? GAP_EDGES_DEFAULTS.runSamples;
+  let i0 = 0;
+  for (let i = 1; i < n; i++) if (Math.abs(biasV[i]) < Math.abs(biasV[i0])) i0 = i;
+  if (didvS[i0] > threshold) return null;
+  const walk = (dir: 1 | -1): number => {
+    let count = 0;
+    for (let i = i0; i >= 0 && i < n; i += dir) {
+      if (didvS[i] > threshold) {
+        count++;
+        if (count >= run) return biasV[i - dir * (run - 1)];
+      } else count = 0;
+    }
+    return dir > 0 ? biasV[n - 1] : biasV[0];
+  };
+  return [walk(-1), walk(1)];
+}

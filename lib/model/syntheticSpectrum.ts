@@ -1,0 +1,171 @@
+/**
+ * Random scenarios with known truth, for the accuracy benchmark and round-trip tests: a dot
+ * with an s level, a p level (split or not) and two valence levels, in a chosen regime.
+ */
+import { seededRandom } from "../util/random.ts";
+import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
+import type { Level, Scenario } from "./scenario.ts";
+
+export type SyntheticRegime = "shell-filling" | "shell-tunneling" | "intermediate";
+
+/** Ranges the spectra are drawn from (uniform unless said otherwise). */
+export interface SyntheticRanges {
+  /** Charging energy, eV. */
+  chargingEnergyEV: [number, number];
+  /** Voltage-division factor. */
+  eta: [number, number];
+  /** dI/dV peak FWHM in bias, V (capped so neighbouring peaks stay resolvable, see `resolvability`). */
+  peakFwhmV: [number, number];
+  /** Noise, fraction of full-scale current. */
+  noiseRelative: [number, number];
+  /** s–p level spacing, eV. */
+  levelSpacingSPEV: [number, number];
+  /** Splitting between p sub-levels when split, eV. */
+  pSplittingEV: [number, number];
+  /** Probability that p is split (half 2+4, half 2+2+2). */
+  pSplitProbability: number;
+  /** Single-particle gap ε_s − ε_v1, eV. */
+  singleParticleGapEV: [number, number];
+  /** Γtip/Γsub per regime (log-uniform). */
+  rateRatio: Record<SyntheticRegime, [number, number]>;
+  /**
+   * The FWHM is at most this fraction of the smallest peak spacing in bias. Draws whose
+   * second-junction resonances (levels crossing the substrate's Fermi level, at |V| ≈ E/(1 − η))
+   * would fall inside the bias window are rejected and redrawn.
+   */
+  resolvability: number;
+  /** Points per curve. */
+  points: number;
+  temperatureK: number;
+}
+
+export const SYNTHETIC_DEFAULTS: SyntheticRanges = {
+  chargingEnergyEV: [0.06, 0.2],
+  eta: [0.65, 0.95],
+  peakFwhmV: [0.02, 0.1],
+  noiseRelative: [0.002, 0.01],
+  levelSpacingSPEV: [0.15, 0.45],
+  pSplittingEV: [0.04, 0.1],
+  pSplitProbability: 0.5,
+  singleParticleGapEV: [1.6, 2.4],
+  rateRatio: { "shell-filling": [5, 50], "shell-tunneling": [0.002, 0.03], intermediate: [0.3, 2] },
+  resolvability: 0.7,
+  points: 2000,
+  temperatureK: 4.5,
+};
+
+/** What the analysis should find. Bias-referred values in V. */
+export interface SyntheticTruth {
+  regime: SyntheticRegime;
+  rateRatio: number;
+  eta: number;
+  chargingEnergyEV: number;
+  levelSpacingSPEV: number;
+  /** First CB peak − first VB peak, V. */
+  gapV: number;
+  /** Expected peak positions (V) of the s and p multiplets in the analysis' convention (one per charging peak in shell filling, one per level in shell tunnelling). */
+  sPeaksV: number[];
+  pPeaksV: number[];
+  pSubgroups: number[];
+  peakFwhmV: number;
+  noiseRelative: number;
+}
+
+/**
+ * Draws one scenario and its truth from a seed.
+ *
+ * @example
+ * const { scenario, truth } = syntheticSpectrum(1, "shell-filling");
+ * truth.sPeaksV.length; // => 2
+ */
+export function syntheticSpectrum(seed: number, regime: SyntheticRegime, ranges: SyntheticRanges = SYNTHETIC_DEFAULTS): { scenario: Scenario; truth: SyntheticTruth } {
+  const rng = seededRandom(seed * 7919 + 17);
+  for (let attempt = 1; ; attempt++) {
+    const drawn = draw(rng, seed, regime, ranges, attempt);
+    if (drawn) return drawn;
+  }
+}
+
+/** One draw, or null when a second-junction resonance would fall inside the bias window. */
+function draw(rng: ReturnType<typeof seededRandom>, seed: number, regime: SyntheticRegime, ranges: SyntheticRanges, attempt: number): { scenario: Scenario; truth: SyntheticTruth } | null {
+  const u = ([a, b]: [number, number]) => a + (b - a) * rng.uniform();
+  const logU = ([a, b]: [number, number]) => Math.exp(Math.log(a) + (Math.log(b) - Math.log(a)) * rng.uniform());
+  const ec = u(ranges.chargingEnergyEV);
+  const eta = u(ranges.eta);
+  const sp = u(ranges.levelSpacingSPEV);
+  const gapSP = u(ranges.singleParticleGapEV);
+  const r = logU(ranges.rateRatio[regime]);
+  const noise = u(ranges.noiseRelative);
+  const split = rng.uniform() < ranges.pSplitProbability ? (rng.uniform() < 0.5 ? [2, 4] : [2, 2, 2]) : [6];
+  const delta = u(ranges.pSplittingEV);
+  const fermiFraction = u([0.4, 0.6]);
+  const es = gapSP * fermiFraction;
+  const ev1 = es - gapSP;
+  const ev2 = ev1 - u([0.12, 0.3]);
+  const pLevels: Level[] = split.map((g, k) => ({ energyEV: es + sp + k * delta, degeneracy: g }));
+  const cb: Level[] = [{ energyEV: es, degeneracy: 2 }, ...pLevels];
+  const vb: Level[] = [
+    { energyEV: ev1, degeneracy: 2 },
+    { energyEV: ev2, degeneracy: 4 },
+  ];
+  const filling = regime !== "shell-tunneling";
+  // Expected peaks in the analysis' convention.
+  const sPeaksV = regime === "shell-tunneling" ? [(es + ec / 2) / eta] : [(es + ec / 2) / eta, (es + 1.5 * ec) / eta];
+  const pPeaksV: number[] = [];
+  if (regime === "shell-tunneling") for (const l of pLevels) pPeaksV.push((l.energyEV + ec / 2) / eta);
+  else {
+    let n = 2;
+    for (const l of pLevels) for (let k = 0; k < l.degeneracy; k++, n++) pPeaksV.push((l.energyEV + ec * (n + 0.5)) / eta);
+  }
+  // Smallest spacing between expected main peaks in bias, to keep peaks resolvable.
+  const vbPeaks = filling
+    ? [(-ev1 + ec / 2) / eta, (-ev1 + 1.5 * ec) / eta, ...[2, 3, 4, 5].map((n) => (-ev2 + ec * (n + 0.5)) / eta)]
+    : [(-ev1 + ec / 2) / eta, (-ev2 + ec / 2) / eta];
+  const all = [...sPeaksV, ...pPeaksV].sort((a, b) => a - b);
+  const vbSorted = [...vbPeaks].sort((a, b) => a - b);
+  let minSpacing = Infinity;
+  for (const list of [all, vbSorted]) for (let i = 1; i < list.length; i++) minSpacing = Math.min(minSpacing, list[i] - list[i - 1]);
+  const fwhm = Math.min(u(ranges.peakFwhmV), ranges.resolvability * minSpacing);
+  // Level broadening in energy that gives this FWHM in bias (the thermal width, ≈ 1.7 mV at 4.5 K, adds in quadrature and is neglected).
+  const broadeningEV = (fwhm / GAUSSIAN_FWHM_PER_SIGMA) * eta;
+  const top = Math.max(...all) + 4 * fwhm + 0.05;
+  const bottom = -(Math.max(...vbPeaks) + 4 * fwhm + 0.05);
+  // Through the substrate junction the CB opens at −(ε_s + Ec/2)/(1 − η) and the VB at
+  // (|ε_v1| + Ec/2)/(1 − η); keep those resonances out of the window (they are not part of the
+  // single-junction ladder the criteria describe).
+  const cbSecond = -(es + ec / 2) / (1 - eta);
+  const vbSecond = (-ev1 + ec / 2) / (1 - eta);
+  if (cbSecond > bottom - 3 * fwhm || vbSecond < top + 3 * fwhm) return null;
+  const stepV = (top - bottom) / (ranges.points - 1);
+  const substrateRatePerS = 1e8;
+  const scenario: Scenario = {
+    cb,
+    vb,
+    chargingEnergyEV: ec,
+    eta,
+    tipRatePerS: r * substrateRatePerS,
+    substrateRatePerS,
+    temperatureK: ranges.temperatureK,
+    broadeningEV,
+    relaxationRatePerS: 1000 * Math.max(r, 1) * substrateRatePerS,
+    lockInVrms: 0,
+    bias: { fromV: bottom, toV: bottom + (ranges.points - 1) * stepV, stepV },
+    noise: { relative: noise, seed: seed * 100 + attempt },
+  };
+  return {
+    scenario,
+    truth: {
+      regime,
+      rateRatio: r,
+      eta,
+      chargingEnergyEV: ec,
+      levelSpacingSPEV: sp,
+      gapV: sPeaksV[0] + (-ev1 + ec / 2) / eta,
+      sPeaksV,
+      pPeaksV,
+      pSubgroups: regime === "shell-tunneling" ? split.map(() => 1) : split,
+      peakFwhmV: fwhm,
+      noiseRelative: noise,
+    },
+  };
+}
