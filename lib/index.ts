@@ -1,0 +1,48 @@
+/**
+ * dotspec: tunnelling spectroscopy of single quantum dots, from I–V sweeps to assigned shells,
+ * gaps and charging energies. The public API: the CLI and the notebooks import only this module.
+ */
+export type { Curve, CurveMeta } from "./curve.ts";
+export { DotspecError, isDotspecError } from "./util/errors.ts";
+export * as constants from "./util/constants.ts";
+export { seededRandom, type SeededRandom } from "./util/random.ts";
+
+// Import and export.
+export * from "./io/index.ts";
+
+// Signal stage.
+export * from "./signal/index.ts";
+
+// Peaks.
+export { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksOptions, type FindPeaksRecord } from "./peaks/findPeaks.ts";
+export { peakAreas, type PeakAreasOptions, type PeakAreasResult } from "./peaks/peakAreas.ts";
+export { edgeStepWidth, type EdgeStepWidthOptions } from "./peaks/edgeStepWidth.ts";
+
+// Assignment.
+export {
+  assignSpectrum,
+  ASSIGN_DEFAULTS,
+  type Assignment,
+  type AssignOptions,
+  type Band,
+  type Multiplet,
+  type Regime,
+  type RegimeEvidence,
+  type SpectrumEnergies,
+  type SpectrumQuantities,
+  type SpectrumUncertainties,
+} from "./assign/assignSpectrum.ts";
+export { gapEdges, GAP_EDGES_DEFAULTS, type GapEdgesOptions } from "./assign/gapEdges.ts";
+export { fitLadderSpacing, type LadderSpacing } from "./assign/ladderFit.ts";
+
+// The whole job on one curve.
+export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettings, type AnalyzedPeak, type CurveAnalysis } from "./pipeline/analyzeCurve.ts";
+
+// Physics model.
+export { parseScenario, biasAxis, SCENARIO_DEFAULTS, type Scenario, type Level, type BiasSweep, type NoiseSpec } from "./model/scenario.ts";
+export { simulateCurve, lockInKernel, scenarioModel, SIMULATE_DEFAULTS, type SimulateOptions, type SimulatedCurve } from "./model/simulate.ts";
+export { bandLadders, exactCurrent, currentSteps, fastCurrent, fastConductance, type DotModel, type CurrentStep } from "./model/bandCurrent.ts";
+export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type SyntheticRanges, type SyntheticTruth } from "./model/syntheticSpectrum.ts";
+
+// Reports.
+export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson } from "./report/analysisJson.ts";
