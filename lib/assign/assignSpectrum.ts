@@ -118,6 +118,10 @@ export const ASSIGN_DEFAULTS = {
   noiseStepRatioMax: 0.2,
   /** Shell filling: the s→p jump must exceed the s spacing by this factor (Δsp > 0.25·Ec). */
   fillingJumpRatioMin: 1.25,
+  /** Shell filling: a CB peak closer than this fraction of Ec to the previous charging peak is off the ladder (set aside). */
+  minLadderSpacingFraction: 0.65,
+  /** When a shell has more charging-ladder candidates than it holds, the extras weaker than this fraction of the candidates' median step are charging satellites. */
+  leadingSatelliteRatioMax: 0.6,
   /** Inside a multiplet, a spacing above (1 + this)·Ec starts a sub-group. */
   subgroupExtraMin: 0.2,
   /** A jump whose excess over Ec exceeds this fraction of the s→p excess starts a new shell. */
@@ -162,7 +166,10 @@ interface Indexed {
  * 4. Shell filling: s = the first two CB peaks; the p multiplet the next peaks, up to six, d the
  *    next up to ten. Inside a multiplet a spacing above 1.2·Ec starts a sub-group (anisotropic
  *    split); a jump whose excess over Ec is more than 0.9 × the s→p excess starts the next
- *    shell early (a partly resolved multiplet). Ec = common spacing of all groups by weighted
+ *    shell early (a partly resolved multiplet); a peak closer than 0.65·Ec to the previous
+ *    charging peak is not on the ladder and is set aside. When more candidates than the shell
+ *    holds come before the jump to the next shell, the weakest (below 0.6 × the median step)
+ *    are charging satellites; if they are not that weak, the shell takes the first g. Ec = common spacing of all groups by weighted
  *    least squares ({@link fitLadderSpacing}), sub-groups with their own intercepts.
  * 5. Shell tunnelling: one peak per level; main peaks closer to the previous main peak than half
  *    the s→p distance are sub-levels of the same shell (a split p).
@@ -208,6 +215,10 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (regime === "shell-filling") {
     const built = fillingShells(cb);
     cbGroups.push(...built.shells);
+    if (built.offLadder.length) {
+      evidence.satellitePeaksV = [...evidence.satellitePeaksV, ...built.offLadder.map((p) => p.peak.biasV)].sort((a, b) => a - b);
+      evidence.reasons.push(`${built.offLadder.length} CB peak(s) closer than ${ASSIGN_DEFAULTS.minLadderSpacingFraction} × Ec to the previous charging peak set aside`);
+    }
     const fit = fitLadderSpacing(
       built.shells.flat().map((g) => ({ positionsV: g.map((p) => p.x), sigmasV: g.map((p) => p.peak.biasUncertaintyV) })),
     );
@@ -404,31 +415,61 @@ function splitSatellites(list: Indexed[]): { main: Indexed[]; satellites: Indexe
   return { main, satellites };
 }
 
-function fillingShells(cb: Indexed[]): { shells: Indexed[][][]; leftover: Indexed[] } {
+function fillingShells(cb: Indexed[]): { shells: Indexed[][][]; leftover: Indexed[]; offLadder: Indexed[] } {
   const D = ASSIGN_DEFAULTS;
   const shells: Indexed[][][] = [[cb.slice(0, 2)]];
   const ec0 = cb[1].x - cb[0].x;
+  const offLadder: Indexed[] = [];
   let spExcess: number | null = null;
+  let last = cb[1];
   let i = 2;
   for (let s = 1; s < SHELLS.length && i < cb.length; s++) {
     const g = SHELLS[s].degeneracy;
-    const jump = cb[i].x - cb[i - 1].x;
-    if (spExcess === null) spExcess = jump - ec0;
-    const subgroups: Indexed[][] = [[cb[i]]];
-    let count = 1;
-    i++;
-    while (i < cb.length && count < g) {
-      const d = cb[i].x - cb[i - 1].x;
-      const excess = d - ec0;
-      if (spExcess > 0 && excess > D.newShellExcessFraction * spExcess) break; // next shell starts early
-      if (d > (1 + D.subgroupExtraMin) * ec0) subgroups.push([cb[i]]);
-      else subgroups[subgroups.length - 1].push(cb[i]);
-      count++;
-      i++;
+    // 1. Candidates: peaks up to the jump that opens the next shell (or the end of the data).
+    //    Successive charging peaks lie at least Ec apart; a peak much closer to the previous one
+    //    is not on the ladder.
+    const run: Indexed[] = [];
+    let prev = last;
+    let excess = spExcess;
+    let k = i;
+    for (; k < cb.length; k++) {
+      const d = cb[k].x - prev.x;
+      if (d < D.minLadderSpacingFraction * ec0) {
+        offLadder.push(cb[k]);
+        continue;
+      }
+      if (run.length === 0) excess ??= d - ec0;
+      else if (excess !== null && excess > 0 && d - ec0 > D.newShellExcessFraction * excess) break;
+      run.push(cb[k]);
+      prev = cb[k];
+    }
+    // 2. More candidates than the shell holds: the weak extras are charging satellites (a level
+    //    entered before the previous one is full); otherwise the shell ends after g peaks.
+    let members = run;
+    if (run.length > g) {
+      const steps = run.map((p) => p.peak.stepA).sort((a, b) => a - b);
+      const typical = steps[steps.length >> 1];
+      const byWeakness = [...run].sort((a, b) => a.peak.stepA - b.peak.stepA);
+      const extras = byWeakness.slice(0, run.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * typical);
+      if (extras.length === run.length - g) {
+        offLadder.push(...extras);
+        members = run.filter((p) => !extras.includes(p));
+      } else members = run.slice(0, g);
+    }
+    if (!members.length) break;
+    const end = members[members.length - 1];
+    // 3. Sub-groups: a spacing above (1 + subgroupExtraMin)·Ec inside the shell.
+    const subgroups: Indexed[][] = [[members[0]]];
+    for (let j = 1; j < members.length; j++) {
+      if (members[j].x - members[j - 1].x > (1 + D.subgroupExtraMin) * ec0) subgroups.push([members[j]]);
+      else subgroups[subgroups.length - 1].push(members[j]);
     }
     shells.push(subgroups);
+    spExcess ??= members[0].x - last.x - ec0;
+    last = end;
+    i = cb.indexOf(end) + 1;
   }
-  return { shells, leftover: cb.slice(i) };
+  return { shells, leftover: cb.slice(i), offLadder: [...new Set(offLadder)].filter((p) => p.x < last.x).sort((a, b) => a.x - b.x) };
 }
 
 function tunnelingShells(main: Indexed[]): Indexed[][] {

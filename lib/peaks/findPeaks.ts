@@ -50,6 +50,12 @@ export interface FindPeaksOptions {
    * step test. Default: each peak's own width at half prominence.
    */
   expectedFwhmV?: number;
+  /**
+   * Refine positions by fitting the step model to the current (with `current`). Default true;
+   * false keeps the parabola through the top of the conductance peak (use it when the
+   * conductance is a measured signal of its own, e.g. a lock-in).
+   */
+  refineOnCurrent?: boolean;
   /** Minimum step significance (with `current`). Default 5 (≈ 0 false peaks per 2,000 samples of white noise; 4 gives ≈ 0.02). */
   minStepSigma?: number;
   /** Peaks closer than this keep only the more prominent one, mV. Default 20. */
@@ -87,6 +93,8 @@ export const FIND_PEAKS_DEFAULTS = {
   /** Without the step test, prominence alone must keep noise out (≈ 0.05 false peaks per 2,000 samples of smoothed white noise). */
   minProminenceSigmaAlone: 8,
   minStepSigma: 5,
+  /** Gauss–Newton iterations of the position refinement on the current. */
+  refineIterations: 3,
   minSeparationMV: 20,
   /** The parabola uses the points above this fraction of the prominence. */
   fitLevel: 0.7,
@@ -208,6 +216,28 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
 
   // 4–6. Refinement.
   const peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
+  if (current && (options.refineOnCurrent ?? true)) {
+    const halfWidthOf = (k: number) =>
+      Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
+    for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations; iteration++) {
+      const positions = peaks.map((p) => p.biasV);
+      peaks.forEach((peak, k) => {
+        const neighbours = positions.filter((_, j) => j !== k);
+        const index = Math.min(n - 1, Math.max(0, Math.round((peak.biasV - biasV[0]) / stepV)));
+        const fit = localStepFit(biasV, current.currentA, index, peak.biasV, neighbours, halfWidthOf(k), true);
+        if (!fit || !(fit.step > 0) || !Number.isFinite(fit.shiftVar) || !(fit.shiftVar > 0)) return;
+        // At most half a width per step, and never past halfway to a neighbour.
+        let lo = -halfWidthOf(k) * stepV, hi = halfWidthOf(k) * stepV;
+        if (k > 0) lo = Math.max(lo, (positions[k - 1] - positions[k]) / 2);
+        if (k < peaks.length - 1) hi = Math.min(hi, (positions[k + 1] - positions[k]) / 2);
+        const shift = Math.max(lo, Math.min(hi, fit.shift));
+        peak.biasV += shift;
+        // Noise from the current's white noise, widened when the local model leaves larger residuals.
+        const sigma = Math.max(current.noiseA, fit.rms);
+        peak.biasUncertaintyV = sigma * Math.sqrt(fit.shiftVar);
+      });
+    }
+  }
   return {
     peaks,
     record: { noiseS, minProminenceSigma, minStepSigma, minSeparationMV, candidates: maxima.length, belowProminence, belowStepSignificance, tooClose, warnings },
@@ -288,53 +318,99 @@ function refine(
   };
 }
 
+/** Result of {@link localStepFit}: coefficients and their covariance in units of the noise variance. */
+interface LocalStepFit {
+  /** Height of the tested step, A. */
+  step: number;
+  /** Var(step)/σ². */
+  stepVar: number;
+  /** Shift of the step position, V (with `withShift`), and Var(shift)/σ². */
+  shift: number;
+  shiftVar: number;
+  /** RMS residual of the fit, A. */
+  rms: number;
+}
+
 /**
- * t-statistic of the step of candidate k in a local least-squares fit of the unsmoothed current:
- * I = a + b·u + Σ_j c_j·Φ((x − x_j)/s) over ±6·halfWidth samples (±3 FWHM) around it, with a
- * step for every candidate at least one FWHM away that lies within the window or within
- * 2·halfWidth of it, all of width s = 2·halfWidth·h/2.3548. Neighbouring steps are fitted,
- * not mistaken for background.
+ * Local linear least-squares fit of the unsmoothed current around one peak:
+ * I = a + b·u + Σ_j c_j·Φ((x − x_j)/s) + c·Φ((x − x₀)/s) [+ d·φ((x − x₀)/s)], u = x − x₀,
+ * over ±6·halfWidth samples (±3 FWHM) around sample p, with a step for every neighbour at least
+ * one FWHM away that lies within the window or within 2·halfWidth of it, all of width
+ * s = 2·halfWidth·h/2.3548. Neighbouring steps are fitted, not mistaken for background. With
+ * `withShift`, the φ column linearises a shift of x₀: Φ((x − x₀ − δ)/s) ≈ Φ − (δ/s)·φ, so
+ * δ = −d·s/c (one Gauss–Newton step).
  */
-function stepSignificance(x: Float64Array, current: Float64Array, indices: number[], k: number, halfWidth: number, noiseA: number): number {
+function localStepFit(
+  x: Float64Array,
+  current: Float64Array,
+  p: number,
+  x0: number,
+  neighboursV: readonly number[],
+  halfWidth: number,
+  withShift: boolean,
+): LocalStepFit | null {
   const n = x.length;
-  const p = indices[k];
   const lo = Math.max(0, p - 6 * halfWidth), hi = Math.min(n - 1, p + 6 * halfWidth);
-  if (hi - lo < 4) return 0;
+  if (hi - lo < 5) return null;
   const h = (x[n - 1] - x[0]) / (n - 1);
   const s = (2 * halfWidth * h) / GAUSSIAN_FWHM_PER_SIGMA;
   // Neighbours closer than one FWHM are the same feature (noise on its flank), not another step.
-  const steps = indices.filter((j) => j === p || (j >= lo - 2 * halfWidth && j <= hi + 2 * halfWidth && Math.abs(j - p) >= 2 * halfWidth));
-  const self = steps.indexOf(p);
-  const m = 2 + steps.length;
-  const ata = Matrix.zeros(m, m);
-  const row = new Float64Array(m);
-  const a = ata.to2DArray();
-  for (let i = lo; i <= hi; i++) {
-    row[0] = 1;
-    row[1] = x[i] - x[p];
-    for (let j = 0; j < steps.length; j++) row[2 + j] = normalCdf((x[i] - x[steps[j]]) / s);
-    for (let r = 0; r < m; r++) for (let c = r; c < m; c++) a[r][c] += row[r] * row[c];
-  }
+  const reach = 2 * halfWidth * h;
+  const steps = neighboursV.filter((v) => Math.abs(v - x0) >= reach && v >= x[lo] - reach && v <= x[hi] + reach);
+  const self = 2 + steps.length;
+  const m = self + 1 + (withShift ? 1 : 0);
+  const a = Array.from({ length: m }, () => new Array<number>(m).fill(0));
   const atb = new Float64Array(m);
-  for (let i = lo; i <= hi; i++) {
+  const row = new Float64Array(m);
+  const fill = (i: number) => {
+    const u = x[i] - x0;
     row[0] = 1;
-    row[1] = x[i] - x[p];
-    for (let j = 0; j < steps.length; j++) row[2 + j] = normalCdf((x[i] - x[steps[j]]) / s);
-    for (let r = 0; r < m; r++) atb[r] += row[r] * current[i];
+    row[1] = u;
+    for (let j = 0; j < steps.length; j++) row[2 + j] = normalCdf((x[i] - steps[j]) / s);
+    row[self] = normalCdf(u / s);
+    if (withShift) row[self + 1] = Math.exp((-0.5 * u * u) / (s * s)) / Math.sqrt(2 * Math.PI);
+  };
+  for (let i = lo; i <= hi; i++) {
+    fill(i);
+    for (let r = 0; r < m; r++) {
+      atb[r] += row[r] * current[i];
+      for (let c = r; c < m; c++) a[r][c] += row[r] * row[c];
+    }
   }
   for (let r = 0; r < m; r++) for (let c = 0; c < r; c++) a[r][c] = a[c][r];
   let inv: Matrix;
   try {
     inv = inverse(new Matrix(a));
   } catch {
-    return 0;
+    return null;
   }
-  const q = 2 + self;
-  const variance = inv.get(q, q);
-  if (!(variance > 0)) return 0;
-  let c = 0;
-  for (let r = 0; r < m; r++) c += inv.get(q, r) * atb[r];
-  return c / (noiseA * Math.sqrt(variance));
+  const coef = new Float64Array(m);
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) coef[r] += inv.get(r, c) * atb[c];
+  let ss = 0;
+  for (let i = lo; i <= hi; i++) {
+    fill(i);
+    let f = 0;
+    for (let r = 0; r < m; r++) f += row[r] * coef[r];
+    ss += (current[i] - f) ** 2;
+  }
+  const rms = Math.sqrt(ss / Math.max(1, hi - lo + 1 - m));
+  const step = coef[self];
+  let shift = 0, shiftVar = Infinity;
+  if (withShift && step !== 0) {
+    const d = coef[self + 1];
+    shift = (-d * s) / step;
+    // δ = −s·d/c: first-order propagation with the covariance of (c, d).
+    const gC = (s * d) / (step * step), gD = -s / step;
+    shiftVar = gC * gC * inv.get(self, self) + 2 * gC * gD * inv.get(self, self + 1) + gD * gD * inv.get(self + 1, self + 1);
+  }
+  return { step, stepVar: inv.get(self, self), shift, shiftVar, rms };
+}
+
+/** t-statistic of the step at candidate index p (neighbours at the other candidates). */
+function stepSignificance(x: Float64Array, current: Float64Array, indices: number[], k: number, halfWidth: number, noiseA: number): number {
+  const fit = localStepFit(x, current, indices[k], x[indices[k]], indices.filter((_, j) => j !== k).map((j) => x[j]), halfWidth, false);
+  if (!fit || !(fit.stepVar > 0)) return 0;
+  return fit.step / (noiseA * Math.sqrt(fit.stepVar));
 }
 
 /** Samples from the peak to where the curve first drops below `level` (the nearer side), bounded by the bases. */

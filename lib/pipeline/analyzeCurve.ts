@@ -80,8 +80,6 @@ export interface CurveAnalysis {
 export const ANALYZE_DEFAULTS = {
   /** Peak width of the first pass when the width is measured, mV. */
   firstPassPeakWidthMV: CONDUCTANCE_DEFAULTS.peakWidthMV,
-  /** Peaks with at least this SNR inform the measured width. */
-  widthSnrMin: 10,
   /** The measured width is kept within these bounds, mV. */
   peakWidthBoundsMV: [10, 200] as readonly [number, number],
   /** The default minimum separation is this fraction of the window … */
@@ -148,6 +146,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   if (windowMV === "auto" && options.peakWidthMV === undefined) {
     const widths = edgeWidths(signal, peaksOf(signal, signal.didvS, true).peaks).map((w) => w * 1000);
     if (widths.length) {
+      // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
       peakWidthMeasured = true;
       if (peakWidthMV !== A.firstPassPeakWidthMV) signal = conductance(curve, { windowMV, order, peakWidthMV, useMeasured });
