@@ -75,7 +75,7 @@ export interface SpectrumEnergies {
 export interface RegimeEvidence {
   /** Step of the second CB peak over the first (areas); null with fewer than two CB peaks. */
   secondToFirstStepRatio: number | null;
-  /** Spacing of CB peaks 2–3 over that of 1–2; null with fewer than three. */
+  /** Spacing from CB peak 2 to the next peak that is not its weak satellite, over that of peaks 1–2; null without one. */
   thirdToSecondSpacingRatio: number | null;
   /** CB peaks taken as charging satellites (weak peaks after a main peak) in shell tunnelling. */
   satellitePeaksV: number[];
@@ -110,6 +110,8 @@ export const ASSIGN_DEFAULTS = {
    * r/(1 + r) for r = Γtip/Γsub (≥ 0.6 ⇔ r ≥ 1.5, never above 1); the upper bound leaves room for noise.
    */
   fillingStepRatio: [0.6, 1.3] as readonly [number, number],
+  /** Shell tunnelling: a second CB step at most this fraction of the first is a charging satellite of s (r/(1 + r) ≤ 0.3 ⇔ r ≤ 0.43); between this and the filling range the spectrum is intermediate. */
+  tunnelingSatelliteRatioMax: 0.3,
   /** Shell tunnelling: the p shell (its sub-levels together) carries at least this many times the s step (p: 6 vs 2 electrons). */
   tunnelingStepRatioMin: 1.4,
   /** A CB peak whose step is below this fraction of the preceding main peak is a charging satellite (shell tunnelling). */
@@ -151,18 +153,18 @@ interface Indexed {
  * Notes:
  * 1. CB peaks are those at positive bias, VB at negative; each list is ordered from the gap
  *    edge outward.
- * 2. Weak peaks, whose step is below 0.5 × that of the preceding main peak of the same band
- *    (charging satellites: they mark an intermediate rate ratio) or below 0.2 × the band's
- *    median step, are set aside.
- * 3. Regime, from the first main CB peaks (in shell filling the s level gives two charging peaks
+ * 2. Peaks whose step is below 0.2 × the band's median step are noise and set aside.
+ * 3. Regime, from the first CB peaks (in shell filling the s level gives two charging peaks
  *    of similar height, the second r/(1 + r) of the first for r = Γtip/Γsub; in shell tunnelling
  *    one peak, followed by a p peak two to three times higher):
  *    a. second/first step ratio in [0.6, 1.3] and, if a third peak exists, a jump to it of at
  *       least 1.25 × the first spacing → shell filling;
- *    b. the p shell — the second main peak with the main peaks closer to it than half its
- *       distance from s (sub-levels of a split p) — carries ≥ 1.4 × the s step → shell
- *       tunnelling;
- *    c. otherwise undetermined.
+ *    b. ratio in (0.3, 0.6) → undetermined (intermediate: too strong for a satellite, too weak
+ *       for a doublet);
+ *    c. otherwise, after setting aside charging satellites (steps below 0.5 × the preceding
+ *       main peak), the p shell — the second main peak with the main peaks closer to it than
+ *       half its distance from s (sub-levels of a split p) — carries ≥ 1.4 × the s step →
+ *       shell tunnelling; else undetermined.
  * 4. Shell filling: s = the first two CB peaks; the p multiplet the next peaks, up to six, d the
  *    next up to ten. Inside a multiplet a spacing above 1.2·Ec starts a sub-group (anisotropic
  *    split); a jump whose excess over Ec is more than 0.9 × the s→p excess starts the next
@@ -197,15 +199,23 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
     .sort((a, b) => a.x - b.x);
 
   const evidence: RegimeEvidence = { secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null, satellitePeaksV: [], reasons: [] };
-  const cbSplit = splitSatellites(cbAll);
-  const vbSplit = splitSatellites(vbAll);
-  const cb = cbSplit.main;
+  // Peaks at the noise level of their band go first; charging satellites (weak peaks after a
+  // main peak) are told apart only once the regime is known.
+  const cbNoise = splitSatellites(cbAll, D.noiseStepRatioMax, 0);
+  const vbNoise = splitSatellites(vbAll, D.noiseStepRatioMax, 0);
+  const cbClean = cbNoise.main;
+  const cbSplit = splitSatellites(cbClean, 0, D.satelliteStepRatioMax);
+  const vbSplit = splitSatellites(vbNoise.main, 0, D.satelliteStepRatioMax);
   const vb = vbSplit.main;
-  evidence.satellitePeaksV = [...cbSplit.satellites, ...vbSplit.satellites].map((p) => p.peak.biasV).sort((a, b) => a - b);
-  if (cb.length >= 2) evidence.secondToFirstStepRatio = cb[1].peak.stepA / cb[0].peak.stepA;
-  if (cb.length >= 3) evidence.thirdToSecondSpacingRatio = (cb[2].x - cb[1].x) / (cb[1].x - cb[0].x);
+  if (cbClean.length >= 2) evidence.secondToFirstStepRatio = cbClean[1].peak.stepA / cbClean[0].peak.stepA;
+  // The jump to the next peak that is not a weak satellite of the second.
+  const third = cbClean.slice(2).find((p) => p.peak.stepA >= D.satelliteStepRatioMax * cbClean[1].peak.stepA);
+  if (third) evidence.thirdToSecondSpacingRatio = (third.x - cbClean[1].x) / (cbClean[1].x - cbClean[0].x);
 
-  let regime: Regime = options.regime ?? classify(cb, evidence);
+  let regime: Regime = options.regime ?? classify(cbClean, cbSplit.main, evidence);
+  const cb = regime === "shell-filling" ? cbClean : cbSplit.main;
+  const setAside = [...cbNoise.satellites, ...vbNoise.satellites, ...vbSplit.satellites, ...(regime === "shell-filling" ? [] : cbSplit.satellites)];
+  evidence.satellitePeaksV = setAside.map((p) => p.peak.biasV).sort((a, b) => a - b);
   if (options.regime) evidence.reasons.push(`regime ${options.regime} given by the user`);
 
   const multiplets: Multiplet[] = [];
@@ -349,18 +359,15 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   return { regime, evidence, multiplets, quantities: q, uncertainties: u, energies, warnings };
 }
 
-function classify(cb: Indexed[], evidence: RegimeEvidence): Regime {
+function classify(cb: Indexed[], main: Indexed[], evidence: RegimeEvidence): Regime {
   const D = ASSIGN_DEFAULTS;
   const reasons = evidence.reasons;
-  const satellites = evidence.satellitePeaksV.length
-    ? `; ${evidence.satellitePeaksV.length} weak peak(s) set aside as charging satellites`
-    : "";
   if (cb.length === 0) {
     reasons.push("no CB peaks");
     return "undetermined";
   }
   if (cb.length === 1) {
-    reasons.push("one main CB peak only: the regime cannot be told" + satellites);
+    reasons.push("one CB peak only: the regime cannot be told");
     return "undetermined";
   }
   const ratio = evidence.secondToFirstStepRatio!;
@@ -370,46 +377,48 @@ function classify(cb: Indexed[], evidence: RegimeEvidence): Regime {
       reasons.push(
         `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")})` +
           (jump === null ? " and no third CB peak" : ` and the next jump is ${jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin})`) +
-          ": an s doublet of charging peaks" +
-          satellites,
+          ": an s doublet of charging peaks",
       );
       return "shell-filling";
     }
     reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump!.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
+  } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
+    reasons.push(
+      `the second CB step is ${ratio.toFixed(2)} × the first: too strong for a charging satellite (≤ ${D.tunnelingSatelliteRatioMax}), too weak for an s doublet (≥ ${D.fillingStepRatio[0]}): an intermediate rate ratio`,
+    );
+    return "undetermined";
   }
   // Shell tunnelling: the p shell (the second main peak and any sub-levels close to it) carries
   // more than the s step.
-  const pShell = tunnelingShells(cb)[1] ?? [];
-  const pRatio = pShell.reduce((a, p) => a + p.peak.stepA, 0) / cb[0].peak.stepA;
+  const satellites = cb.length - main.length;
+  const note = satellites ? `; ${satellites} weak peak(s) set aside as charging satellites` : "";
+  const pShell = main.length >= 2 ? tunnelingShells(main)[1] : [];
+  const pRatio = pShell.reduce((a, p) => a + p.peak.stepA, 0) / main[0].peak.stepA;
   if (pRatio >= D.tunnelingStepRatioMin) {
     const sub = pShell.length > 1 ? ` (${pShell.length} sub-levels together)` : "";
-    reasons.push(
-      `the p shell${sub} carries ${pRatio.toFixed(2)} × the s step (≥ ${D.tunnelingStepRatioMin}; p holds 6 electrons, s 2): single levels` + satellites,
-    );
+    reasons.push(`the p shell${sub} carries ${pRatio.toFixed(2)} × the s step (≥ ${D.tunnelingStepRatioMin}; p holds 6 electrons, s 2): single levels` + note);
     return "shell-tunneling";
   }
   reasons.push(
-    `the second main CB peak carries ${ratio.toFixed(2)} × the first step and the p shell ${pRatio.toFixed(2)} ×: neither an s doublet (${D.fillingStepRatio.join("–")} with a larger jump to p) nor an s/p pair (≥ ${D.tunnelingStepRatioMin})` +
-      satellites,
+    `the p shell carries ${pShell.length ? pRatio.toFixed(2) : "no"} × the s step: neither an s doublet (${D.fillingStepRatio.join("–")} with a larger jump to p) nor an s/p pair (≥ ${D.tunnelingStepRatioMin})` +
+      note,
   );
   return "undetermined";
 }
 
 /**
  * Splits peaks (ordered from the gap edge) into main peaks and weak ones: a peak is weak when its
- * step is below satelliteStepRatioMax × the preceding main peak's (a charging satellite), or
- * below noiseStepRatioMax × the median step of the band (noise anywhere, also before the first
- * level).
+ * step is below `ofMedian` × the median step of the list (noise wherever it lies, also before
+ * the first level) or below `ofPrevious` × the preceding main peak's (a charging satellite).
  */
-function splitSatellites(list: Indexed[]): { main: Indexed[]; satellites: Indexed[] } {
-  const D = ASSIGN_DEFAULTS;
+function splitSatellites(list: Indexed[], ofMedian: number, ofPrevious: number): { main: Indexed[]; satellites: Indexed[] } {
   const main: Indexed[] = [];
   const satellites: Indexed[] = [];
   const steps = list.map((p) => p.peak.stepA).sort((a, b) => a - b);
   const typical = steps.length ? steps[steps.length >> 1] : 0;
   for (const p of list) {
     const prev = main[main.length - 1];
-    const weak = p.peak.stepA < D.noiseStepRatioMax * typical || (prev && p.peak.stepA < D.satelliteStepRatioMax * prev.peak.stepA);
+    const weak = p.peak.stepA < ofMedian * typical || (prev !== undefined && p.peak.stepA < ofPrevious * prev.peak.stepA);
     (weak ? satellites : main).push(p);
   }
   return { main, satellites };

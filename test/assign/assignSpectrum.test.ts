@@ -1,0 +1,144 @@
+// assignSpectrum checked on peak lists built from the closed-form peak positions of orthodox
+// theory, (ε + Ec·(n + ½))/η (domain brief §3, §6), and the trade's formulas for the extracted
+// quantities (domain brief §3).
+import { describe, it, expect } from "vitest";
+import { expectClose } from "../helpers/expectClose.ts";
+import { assignSpectrum, ASSIGN_DEFAULTS } from "../../lib/assign/assignSpectrum.ts";
+import type { Peak } from "../../lib/peaks/findPeaks.ts";
+
+const peak = (biasV: number, stepA = 1e-11, sigma = 0.001): Peak => ({
+  biasV,
+  biasUncertaintyV: sigma,
+  index: 0,
+  heightS: stepA / 0.05,
+  prominenceS: stepA / 0.05,
+  fwhmV: 0.04,
+  stepA,
+  snr: 20,
+  stepSignificance: 30,
+});
+
+// Levels ε_s = 0.5, ε_p = 0.8 (CB), ε_v1 = −0.6 (g 2), ε_v2 = −0.8 (g 4); Ec = 0.1 eV; η = 0.8.
+const eta = 0.8, ec = 0.1;
+const cbFilling = [0.5 + 0.05, 0.5 + 0.15, ...[2, 3, 4, 5, 6, 7].map((n) => 0.8 + ec * (n + 0.5))].map((e) => e / eta);
+const vbFilling = [0.6 + 0.05, 0.6 + 0.15, ...[2, 3, 4, 5].map((n) => 0.8 + ec * (n + 0.5))].map((e) => -e / eta);
+
+describe("assignSpectrum(peaks, {eta}) in shell filling", () => {
+  const a = assignSpectrum([...vbFilling, ...cbFilling].sort((x, y) => x - y).map((v) => peak(v)), { eta });
+
+  it("finds the s doublet, the p sextet and the valence groups", () => {
+    expect(a.regime).toBe("shell-filling");
+    const byLabel = Object.fromEntries(a.multiplets.map((m) => [m.label, m]));
+    expectClose(byLabel.s.peaksV, cbFilling.slice(0, 2), { rtol: 1e-12 });
+    expectClose(byLabel.p.peaksV, cbFilling.slice(2), { rtol: 1e-12 });
+    expect([byLabel.p.found, byLabel.p.expected, byLabel.s.degeneracy, byLabel.p.degeneracy]).toEqual([6, 6, 2, 6]);
+    // VB ordered from the gap edge, degeneracy not assumed.
+    expectClose(byLabel.v1.peaksV, vbFilling.slice(0, 2), { rtol: 1e-12 });
+    expectClose(byLabel.v2.peaksV, vbFilling.slice(2), { rtol: 1e-12 });
+    expect(byLabel.v1.degeneracy).toBeNull();
+  });
+
+  it("extracts gap, Ec, single-particle gap, Δsp and the VB spacing by the formulas of the trade (closed form)", () => {
+    const q = a.quantities;
+    expectClose(q.gapV!, (0.55 + 0.65) / eta, { rtol: 1e-12, what: "gap = first CB − first VB" });
+    expectClose(q.chargingEnergyV!, ec / eta, { rtol: 1e-12, what: "Ec in bias" });
+    expectClose(q.levelSpacingSPV!, (0.8 - 0.5) / eta, { rtol: 1e-12, what: "Δsp = (first p − last s) − Ec" });
+    expectClose(q.valenceSpacingsV, [(0.8 - 0.6) / eta], { rtol: 1e-12, what: "VB group spacing less Ec" });
+    const e = a.energies;
+    expectClose(e.chargingEnergyEV!, ec, { rtol: 1e-12 });
+    expectClose(e.singleParticleGapEV!, 0.5 + 0.6, { rtol: 1e-12, what: "η·gap − Ec = ε_s − ε_v1" });
+    expectClose(e.levelSpacingSPEV!, 0.3, { rtol: 1e-12 });
+    expectClose(e.valenceSpacingsEV, [0.2], { rtol: 1e-12 });
+  });
+
+  it("propagates the peak uncertainties: σ_gap = √(σ_c² + σ_v²), SE(Ec) = σ/√Σ(k − k̄)² over the multiplets (least squares)", () => {
+    expectClose(a.uncertainties.gapV!, Math.SQRT2 * 0.001, { rtol: 1e-9 });
+    // s: k = 0, 1 → Σ(k − k̄)² = 0.5; p: k = 0…5 → 17.5.
+    expectClose(a.uncertainties.chargingEnergyV!, 0.001 / Math.sqrt(0.5 + 17.5), { rtol: 1e-6 });
+    expectClose(a.energies.uncertainties.chargingEnergyEV!, (eta * 0.001) / Math.sqrt(18), { rtol: 1e-6 });
+  });
+
+  it("reports a partly resolved p multiplet with found/expected counts", () => {
+    const r = assignSpectrum(cbFilling.slice(0, 6).map((v) => peak(v)), { eta });
+    const p = r.multiplets.find((m) => m.label === "p")!;
+    expect([p.found, p.expected]).toEqual([4, 6]);
+  });
+
+  it("splits the p sextet into sub-groups 2 + 4 when shape anisotropy opens a gap inside it", () => {
+    // p split: ε_p1 = 0.8 (g 2), ε_p2 = 0.86 (g 4).
+    const cb = [0.55, 0.65, 0.8 + 0.25, 0.8 + 0.35, 0.86 + 0.45, 0.86 + 0.55, 0.86 + 0.65, 0.86 + 0.75].map((e) => e / eta);
+    const r = assignSpectrum(cb.map((v) => peak(v)), { eta });
+    const p = r.multiplets.find((m) => m.label === "p")!;
+    expect(p.subgroups).toEqual([2, 4]);
+    expectClose(r.energies.chargingEnergyEV!, ec, { rtol: 1e-9, what: "Ec unaffected by the split (separate intercepts)" });
+  });
+
+  it("sets aside a weak charging satellite before the p multiplet", () => {
+    const cb = [...cbFilling.slice(0, 2), (0.8 + 0.15) / eta, ...cbFilling.slice(2)];
+    const steps = cb.map((_, i) => (i === 2 ? 2e-12 : 1e-11));
+    const r = assignSpectrum(cb.map((v, i) => peak(v, steps[i])), { eta });
+    expect(r.multiplets.find((m) => m.label === "p")!.peaksV.length).toBe(6);
+    expectClose(r.evidence.satellitePeaksV, [(0.8 + 0.15) / eta], { rtol: 1e-12 });
+  });
+});
+
+describe("assignSpectrum(peaks, {eta}) in shell tunnelling", () => {
+  // One peak per level at (ε + Ec/2)/η; steps in proportion to degeneracy (s:p = 2:6).
+  const cb = [peak((0.5 + 0.05) / eta, 2e-11), peak((0.5 + 0.15) / eta, 1e-12), peak((0.8 + 0.05) / eta, 6e-11)];
+  const vb = [peak(-(0.6 + 0.05) / eta, 2e-11), peak(-(0.8 + 0.05) / eta, 4e-11)];
+  const a = assignSpectrum([...vb.reverse(), ...cb], { eta });
+
+  it("gives one peak per level, sets the charging satellite aside, and reports Ec as null", () => {
+    expect(a.regime).toBe("shell-tunneling");
+    const byLabel = Object.fromEntries(a.multiplets.map((m) => [m.label, m]));
+    expect(byLabel.s.peaksV.length).toBe(1);
+    expect(byLabel.p.peaksV.length).toBe(1);
+    expect(a.quantities.chargingEnergyV).toBeNull();
+    expect(a.quantities.singleParticleGapV).toBeNull();
+    expectClose(a.evidence.satellitePeaksV, [(0.5 + 0.15) / eta], { rtol: 1e-12 });
+  });
+
+  it("reads Δsp as the s–p distance and the gap (which still holds one Ec) between first peaks (domain brief §3)", () => {
+    expectClose(a.quantities.levelSpacingSPV!, 0.3 / eta, { rtol: 1e-12 });
+    expectClose(a.energies.gapEV!, 0.5 + 0.6 + ec, { rtol: 1e-12, what: "η·gap = ε_s − ε_v1 + Ec" });
+    expectClose(a.energies.valenceSpacingsEV, [0.2], { rtol: 1e-12 });
+  });
+});
+
+describe("assignSpectrum(peaks, options): other cases", () => {
+  it("says undetermined when the second CB step is neither alike nor much larger (intermediate rate ratio)", () => {
+    const r = assignSpectrum([peak(0.7, 1e-11), peak(0.82, 0.45e-11), peak(1.3, 1e-11)]);
+    expect(r.regime).toBe("undetermined");
+    expect(r.evidence.reasons.join(" ")).toMatch(/intermediate rate ratio/);
+  });
+
+  it("without η uses 1 and says so", () => {
+    const r = assignSpectrum(cbFilling.map((v) => peak(v)));
+    expect(r.energies.eta).toBe(1);
+    expect(r.energies.etaGiven).toBe(false);
+    expect(r.warnings.join(" ")).toMatch(/eta not given/);
+    expectClose(r.energies.chargingEnergyEV!, r.quantities.chargingEnergyV!, { rtol: 0 });
+  });
+
+  it("rejects η outside (0, 1]", () => {
+    expect(() => assignSpectrum([], { eta: 1.3 })).toThrow(/eta/);
+  });
+
+  it("ASSIGN_DEFAULTS are as documented (locked)", () => {
+    expect(ASSIGN_DEFAULTS).toEqual({
+      eta: 1,
+      fillingStepRatio: [0.6, 1.3],
+      tunnelingStepRatioMin: 1.4,
+      satelliteStepRatioMax: 0.5,
+      noiseStepRatioMax: 0.2,
+      tunnelingSatelliteRatioMax: 0.3,
+      fillingJumpRatioMin: 1.25,
+      minLadderSpacingFraction: 0.65,
+      leadingSatelliteRatioMax: 0.6,
+      subgroupExtraMin: 0.2,
+      newShellExcessFraction: 0.9,
+      tunnelingSublevelFraction: 0.5,
+      valenceChargingTolerance: 0.3,
+    });
+  });
+});
