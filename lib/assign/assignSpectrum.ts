@@ -170,8 +170,10 @@ interface Indexed {
  *    split); a jump whose excess over Ec is more than 0.9 × the s→p excess starts the next
  *    shell early (a partly resolved multiplet); a peak closer than 0.65·Ec to the previous
  *    charging peak is not on the ladder and is set aside. When more candidates than the shell
- *    holds come before the jump to the next shell, the weakest (below 0.6 × the median step)
- *    are charging satellites; if they are not that weak, the shell takes the first g. Ec = common spacing of all groups by weighted
+ *    holds come before the jump to the next shell, a first candidate below 0.5 × the second is
+ *    the shell's charging satellite (steps fall along a multiplet); then the weakest extras
+ *    (below 0.6 × the median step) are satellites; if they are not that weak, the shell takes
+ *    the first g. Ec = common spacing of all groups by weighted
  *    least squares ({@link fitLadderSpacing}), sub-groups with their own intercepts.
  * 5. Shell tunnelling: one peak per level; main peaks closer to the previous main peak than half
  *    the s→p distance are sub-levels of the same shell (a split p).
@@ -455,15 +457,21 @@ function fillingShells(cb: Indexed[]): { shells: Indexed[][][]; leftover: Indexe
     // 2. More candidates than the shell holds: the weak extras are charging satellites (a level
     //    entered before the previous one is full); otherwise the shell ends after g peaks.
     let members = run;
-    if (run.length > g) {
-      const steps = run.map((p) => p.peak.stepA).sort((a, b) => a - b);
+    if (members.length > g && members[0].peak.stepA < D.satelliteStepRatioMax * members[1].peak.stepA) {
+      // Steps fall along a charging multiplet (each added electron leaves faster), so a weak
+      // first peak followed by a much stronger one is the shell's level entered early.
+      offLadder.push(members[0]);
+      members = members.slice(1);
+    }
+    if (members.length > g) {
+      const steps = members.map((p) => p.peak.stepA).sort((a, b) => a - b);
       const typical = steps[steps.length >> 1];
-      const byWeakness = [...run].sort((a, b) => a.peak.stepA - b.peak.stepA);
-      const extras = byWeakness.slice(0, run.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * typical);
-      if (extras.length === run.length - g) {
+      const byWeakness = [...members].sort((a, b) => a.peak.stepA - b.peak.stepA);
+      const extras = byWeakness.slice(0, members.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * typical);
+      if (extras.length === members.length - g) {
         offLadder.push(...extras);
-        members = run.filter((p) => !extras.includes(p));
-      } else members = run.slice(0, g);
+        members = members.filter((p) => !extras.includes(p));
+      } else members = members.slice(0, g);
     }
     if (!members.length) break;
     const end = members[members.length - 1];

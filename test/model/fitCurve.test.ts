@@ -1,0 +1,80 @@
+// fitCurve round trips: curves simulated by the exact master equation (a closed-form-tested
+// reference, test/model/ladder.test.ts) are fitted; the quality bar of the model issue is
+// Ec within 3 % and Γtip/Γsub within a factor 1.5 at 0.3 % noise.
+import { describe, it, expect } from "vitest";
+import { expectClose } from "../helpers/expectClose.ts";
+import { fitCurve, FIT_DEFAULTS } from "../../lib/model/fitCurve.ts";
+import { simulateCurve } from "../../lib/model/simulate.ts";
+import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
+import { DotspecError } from "../../lib/util/errors.ts";
+
+const eta = 0.85;
+function analysisOf(tipRatePerS: number, extra: Record<string, unknown> = {}) {
+  const sim = simulateCurve({
+    cb: [{ energyEV: 0.45, degeneracy: 2 }, { energyEV: 0.78, degeneracy: 6 }],
+    vb: [{ energyEV: -0.62, degeneracy: 2 }, { energyEV: -0.85, degeneracy: 4 }],
+    chargingEnergyEV: 0.12,
+    eta,
+    tipRatePerS,
+    substrateRatePerS: 2e8,
+    temperatureK: 4.5,
+    broadeningEV: 0.012,
+    bias: { fromV: -2.2, toV: 2.3, stepV: 0.0025 },
+    noise: { relative: 0.003, seed: 3 },
+    ...extra,
+  });
+  return analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
+}
+
+describe("fitCurve(analysis)", () => {
+  for (const [name, rate, ratio] of [
+    ["shell filling", 1.2e9, 6],
+    ["shell filling near the intermediate boundary", 6e8, 3],
+    ["shell tunnelling", 4e6, 0.02],
+  ] as const) {
+    it(`recovers Ec within 3 % and Γtip/Γsub within × 1.5 in ${name} (r = ${ratio})`, () => {
+      const fit = fitCurve(analysisOf(rate));
+      expect(fit.converged).toBe(true);
+      expectClose(fit.chargingEnergyEV.value, 0.12, { rtol: 0.03, what: "Ec" });
+      expect(fit.rateRatio.value / ratio).toBeGreaterThan(1 / 1.5);
+      expect(fit.rateRatio.value / ratio).toBeLessThan(1.5);
+      expectClose(fit.chargingEnergyV.value, fit.chargingEnergyEV.value / eta, { rtol: 1e-12, what: "bias-referred = energy/η" });
+      expect(fit.reducedChiSquare).toBeLessThan(10);
+      const s = fit.levels.find((l) => l.label === "s")!;
+      expectClose(s.energyEV.value, 0.45, { atol: 0.01, what: "ε_s" });
+    });
+  }
+
+  it("names the regime implied by the fitted rate ratio (thresholds locked with the defaults)", () => {
+    expect(fitCurve(analysisOf(1.2e9)).regime).toBe("shell-filling");
+    expect(fitCurve(analysisOf(4e6)).regime).toBe("shell-tunneling");
+  });
+
+  it("stops at its time limit, says so, and still returns the best values found", () => {
+    const fit = fitCurve(analysisOf(1.2e9), { timeLimitMs: 1 });
+    expect(fit.converged).toBe(false);
+    expect(fit.message).toMatch(/time limit/);
+    expect(fit.warnings.join(" ")).toMatch(/did not converge/);
+    expect(Number.isFinite(fit.chargingEnergyEV.value)).toBe(true);
+  });
+
+  it("refuses an analysis without multiplets", () => {
+    const a = analysisOf(1.2e9);
+    const empty = { ...a, assignment: { ...a.assignment, multiplets: [] } };
+    expect(() => fitCurve(empty)).toThrow(DotspecError);
+  });
+
+  it("FIT_DEFAULTS are as documented (locked)", () => {
+    expect(FIT_DEFAULTS).toEqual({
+      temperatureK: 4.5,
+      maxIterations: 60,
+      timeLimitMs: 5000,
+      maxPoints: 800,
+      chargingEnergyGuessEV: 0.1,
+      convergenceTolerance: 1e-5,
+      chunkIterations: 4,
+      fillingRatioMin: 1.5,
+      tunnelingRatioMax: 0.1,
+    });
+  });
+});

@@ -1,0 +1,90 @@
+// Round trips through the whole job: curves simulated by the orthodox-theory model (exact master
+// equation) are analysed, and the result is checked against the closed-form peak positions
+// (ε + Ec·(n + ½))/η and the trade's formulas (domain brief §3, §6) within the project's
+// quality bar (peaks within 25 % of Ec, gap within 2 %, Ec and Δsp within 10 %).
+import { describe, it, expect } from "vitest";
+import { expectClose } from "../helpers/expectClose.ts";
+import { analyzeCurve, ANALYZE_DEFAULTS } from "../../lib/pipeline/analyzeCurve.ts";
+import { simulateCurve } from "../../lib/model/simulate.ts";
+import type { Curve } from "../../lib/curve.ts";
+
+const eta = 0.8, ec = 0.1;
+const scenario = (tipRatePerS: number, seed = 7) => ({
+  cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
+  vb: [{ energyEV: -0.6, degeneracy: 2 }, { energyEV: -0.8, degeneracy: 4 }],
+  chargingEnergyEV: ec,
+  eta,
+  tipRatePerS,
+  substrateRatePerS: 1e8,
+  temperatureK: 4.5,
+  broadeningEV: 0.01,
+  bias: { fromV: -2.0, toV: 2.2, stepV: 0.0025 },
+  noise: { relative: 0.003, seed },
+});
+const curveOf = (s: ReturnType<typeof simulateCurve>, sweeps?: Float64Array[]): Curve => ({
+  biasV: s.biasV,
+  currentA: s.currentA,
+  sweeps: sweeps ?? [s.currentA],
+  didvS: s.didvS,
+  meta: { source: "simulated", metadata: {} },
+});
+
+describe("analyzeCurve(curve, options): round trip through the model", () => {
+  it("shell filling (Γtip/Γsub = 10): s doublet, p sextet, gap, Ec and Δsp from their closed forms", () => {
+    const a = analyzeCurve(curveOf(simulateCurve(scenario(1e9))), { eta });
+    const asg = a.assignment;
+    expect(asg.regime).toBe("shell-filling");
+    const tol = (0.25 * ec) / eta;
+    const s = asg.multiplets.find((m) => m.label === "s")!;
+    const p = asg.multiplets.find((m) => m.label === "p")!;
+    expectClose(s.peaksV, [0.55 / eta, 0.65 / eta], { atol: tol / 10, what: "s peaks" });
+    expectClose(p.peaksV, [2, 3, 4, 5, 6, 7].map((n) => (0.8 + ec * (n + 0.5)) / eta), { atol: tol / 10, what: "p peaks" });
+    expectClose(asg.quantities.gapV!, (0.55 + 0.65) / eta, { rtol: 0.005 });
+    expectClose(asg.energies.chargingEnergyEV!, ec, { rtol: 0.02 });
+    expectClose(asg.energies.levelSpacingSPEV!, 0.3, { rtol: 0.02 });
+    expectClose(asg.energies.singleParticleGapEV!, 1.1, { rtol: 0.01 });
+    expect(a.settings.peakWidthMeasured).toBe(true);
+  });
+
+  it("shell tunnelling (Γtip/Γsub = 0.01): one peak per level, Δsp = p − s, Ec null", () => {
+    const a = analyzeCurve(curveOf(simulateCurve(scenario(1e6))), { eta });
+    const asg = a.assignment;
+    expect(asg.regime).toBe("shell-tunneling");
+    expectClose(asg.multiplets.find((m) => m.label === "s")!.peaksV, [0.55 / eta], { atol: 0.003 });
+    expectClose(asg.multiplets.find((m) => m.label === "p")!.peaksV, [0.85 / eta], { atol: 0.003 });
+    expectClose(asg.energies.levelSpacingSPEV!, 0.3, { rtol: 0.02 });
+    expect(asg.quantities.chargingEnergyV).toBeNull();
+  });
+
+  it("with several sweeps, records each peak's sweep scatter and never reports less than scatter/√sweeps", () => {
+    const sweeps = [7, 8, 9].map((seed) => simulateCurve(scenario(1e9, seed)).currentA);
+    const mean = sweeps[0].map((_, i) => (sweeps[0][i] + sweeps[1][i] + sweeps[2][i]) / 3);
+    const sim = simulateCurve(scenario(1e9));
+    const a = analyzeCurve({ ...curveOf(sim, sweeps), currentA: mean }, { eta });
+    const withSpread = a.peaks.filter((p) => p.sweepSpreadV !== null);
+    expect(withSpread.length).toBeGreaterThan(10);
+    for (const p of withSpread) expect(p.biasUncertaintyV).toBeGreaterThanOrEqual(p.sweepSpreadV! / Math.sqrt(p.sweepsFound) - 1e-15);
+  });
+
+  it("can use a measured dI/dV column and finds the same levels", () => {
+    const sim = simulateCurve({ ...scenario(1e9), lockInVrms: 0.002 });
+    const a = analyzeCurve(curveOf(sim), { eta, useMeasured: true });
+    expect(a.settings.useMeasured).toBe(true);
+    expect(a.assignment.regime).toBe("shell-filling");
+    expectClose(a.assignment.energies.chargingEnergyEV!, ec, { rtol: 0.05 });
+  });
+
+  it("rejects unknown options by name", () => {
+    const sim = simulateCurve(scenario(1e9));
+    expect(() => analyzeCurve(curveOf(sim), { windowMv: 3 } as never)).toThrow(/windowMv/);
+  });
+
+  it("ANALYZE_DEFAULTS are as documented (locked)", () => {
+    expect(ANALYZE_DEFAULTS).toEqual({
+      firstPassPeakWidthMV: 40,
+      peakWidthBoundsMV: [10, 200],
+      separationPerWindow: 0.5,
+      minSeparationFloorMV: 10,
+    });
+  });
+});
