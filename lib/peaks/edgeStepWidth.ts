@@ -2,7 +2,7 @@
  * The width of a band's first step, measured on the raw current: the one step whose lower side
  * (the gap) no other level overlaps.
  */
-import { normalCdf } from "../util/special.ts";
+import { normalCdfFast } from "../util/special.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 
 /** Options of {@link edgeStepWidth}. */
@@ -20,7 +20,7 @@ export interface EdgeStepWidthOptions {
  *
  * Notes:
  * 1. Model I(V) = a + c·Φ((V − V₀)/s) on the given range; for each trial s the best a and c
- *    follow linearly, so only s is searched: 24 log-spaced trials between the bounds, then a
+ *    follow linearly, so only s is searched: 16 log-spaced trials between the bounds, then a
  *    golden-section refinement around the best.
  * 2. Returns FWHM = 2√(2 ln 2)·s, or null when the range holds fewer than 5 points or the
  *    fitted step is not positive.
@@ -38,7 +38,7 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
   const residual = (s: number): { r: number; c: number } => {
     let n = 0, sf = 0, sff = 0, sy = 0, sfy = 0, syy = 0;
     for (let i = 0; i < xs.length; i++) {
-      const f = normalCdf((xs[i] - x0) / s);
+      const f = normalCdfFast((xs[i] - x0) / s);
       n++, (sf += f), (sff += f * f), (sy += ys[i]), (sfy += f * ys[i]), (syy += ys[i] * ys[i]);
     }
     const det = n * sff - sf * sf;
@@ -50,19 +50,28 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
     return { r, c };
   };
   const [lo, hi] = (options.boundsV ?? [0.005, 0.4]).map((w) => w / GAUSSIAN_FWHM_PER_SIGMA);
-  const trials = 24;
+  const trials = 16;
   let best = 0, bestR = Infinity;
   const grid = Array.from({ length: trials }, (_, k) => lo * (hi / lo) ** (k / (trials - 1)));
   grid.forEach((s, k) => {
     const { r } = residual(s);
     if (r < bestR) (bestR = r), (best = k);
   });
+  // Golden-section search in log s between the neighbours of the best trial, one new evaluation per step.
   let a = Math.log(grid[Math.max(0, best - 1)]), b = Math.log(grid[Math.min(trials - 1, best + 1)]);
   const g = (Math.sqrt(5) - 1) / 2;
-  for (let it = 0; it < 30; it++) {
-    const c1 = b - g * (b - a), c2 = a + g * (b - a);
-    if (residual(Math.exp(c1)).r < residual(Math.exp(c2)).r) b = c2;
-    else a = c1;
+  let c1 = b - g * (b - a), c2 = a + g * (b - a);
+  let r1 = residual(Math.exp(c1)).r, r2 = residual(Math.exp(c2)).r;
+  for (let it = 0; it < 20; it++) {
+    if (r1 < r2) {
+      b = c2, c2 = c1, r2 = r1;
+      c1 = b - g * (b - a);
+      r1 = residual(Math.exp(c1)).r;
+    } else {
+      a = c1, c1 = c2, r1 = r2;
+      c2 = a + g * (b - a);
+      r2 = residual(Math.exp(c2)).r;
+    }
   }
   const s = Math.exp((a + b) / 2);
   if (!(residual(s).c > 0)) return null;

@@ -4,8 +4,10 @@
 import { DotspecError } from "../util/errors.ts";
 import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
-import { normalCdf } from "../util/special.ts";
-import { Matrix, inverse } from "ml-matrix";
+import { normalCdfFast } from "../util/special.ts";
+import { symmetricInverse } from "../util/smallSymmetric.ts";
+
+const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -93,8 +95,10 @@ export const FIND_PEAKS_DEFAULTS = {
   /** Without the step test, prominence alone must keep noise out (≈ 0.05 false peaks per 2,000 samples of smoothed white noise). */
   minProminenceSigmaAlone: 8,
   minStepSigma: 5,
+  /** Pre-screen of the step test: the mean current over one half-width beyond ±1.5 FWHM must rise by this many σ. */
+  preScreenSigma: 2,
   /** Gauss–Newton iterations of the position refinement on the current. */
-  refineIterations: 3,
+  refineIterations: 2,
   minSeparationMV: 20,
   /** The parabola uses the points above this fraction of the prominence. */
   fitLevel: 0.7,
@@ -195,9 +199,25 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   const halfWidths = prominent.map((c) =>
     Math.max(1, Math.round(expectedHalfWidth ?? halfWidthSamples(didvS, c.index, c.floor + c.prominence / 2, c.leftBase, c.rightBase))),
   );
+  const indices = prominent.map((q) => q.index);
   prominent.forEach((c, k) => {
     if (current) {
-      c.significance = stepSignificance(biasV, current.currentA, prominent.map((q) => q.index), k, halfWidths[k], current.noiseA);
+      // Cheap necessary condition first: the mean current must rise across the peak by more than
+      // its noise (a falling or flat current cannot hold a step); only then the local fit.
+      const hw = halfWidths[k];
+      const lo = Math.max(0, c.index - 3 * hw), hi = Math.min(n - 1, c.index + 3 * hw);
+      const m = Math.max(1, hw);
+      let before = 0, after = 0;
+      for (let i = 0; i < m; i++) {
+        before += current.currentA[Math.min(n - 1, lo + i)];
+        after += current.currentA[Math.max(0, hi - i)];
+      }
+      const rise = (after - before) / m / (current.noiseA * Math.sqrt(2 / m));
+      if (!(rise >= FIND_PEAKS_DEFAULTS.preScreenSigma)) {
+        belowStepSignificance++;
+        return;
+      }
+      c.significance = stepSignificance(biasV, current.currentA, indices, k, halfWidths[k], current.noiseA);
       if (!(c.significance >= minStepSigma!)) {
         belowStepSignificance++;
         return;
@@ -219,9 +239,11 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   if (current && (options.refineOnCurrent ?? true)) {
     const halfWidthOf = (k: number) =>
       Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
+    const settled = new Set<number>();
     for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations; iteration++) {
       const positions = peaks.map((p) => p.biasV);
       peaks.forEach((peak, k) => {
+        if (settled.has(k)) return;
         const neighbours = positions.filter((_, j) => j !== k);
         const index = Math.min(n - 1, Math.max(0, Math.round((peak.biasV - biasV[0]) / stepV)));
         const fit = localStepFit(biasV, current.currentA, index, peak.biasV, neighbours, halfWidthOf(k), true);
@@ -232,6 +254,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
         if (k < peaks.length - 1) hi = Math.min(hi, (positions[k + 1] - positions[k]) / 2);
         const shift = Math.max(lo, Math.min(hi, fit.shift));
         peak.biasV += shift;
+        if (Math.abs(shift) < 0.01 * halfWidthOf(k) * stepV) settled.add(k);
         // Noise from the current's white noise, widened when the local model leaves larger residuals.
         const sigma = Math.max(current.noiseA, fit.rms);
         peak.biasUncertaintyV = sigma * Math.sqrt(fit.shiftVar);
@@ -359,41 +382,48 @@ function localStepFit(
   const steps = neighboursV.filter((v) => Math.abs(v - x0) >= reach && v >= x[lo] - reach && v <= x[hi] + reach);
   const self = 2 + steps.length;
   const m = self + 1 + (withShift ? 1 : 0);
-  const a = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+  // Design matrix, column by column (each Φ evaluated once).
+  const rows = hi - lo + 1;
+  const cols = new Float64Array(m * rows);
+  for (let i = 0; i < rows; i++) {
+    const u = x[lo + i] - x0;
+    cols[i] = 1;
+    cols[rows + i] = u;
+    for (let j = 0; j < steps.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
+    cols[self * rows + i] = normalCdfFast(u / s);
+    if (withShift) cols[(self + 1) * rows + i] = Math.exp((-0.5 * u * u) / (s * s)) * INV_SQRT_2PI;
+  }
+  const ata = new Float64Array(m * m);
   const atb = new Float64Array(m);
-  const row = new Float64Array(m);
-  const fill = (i: number) => {
-    const u = x[i] - x0;
-    row[0] = 1;
-    row[1] = u;
-    for (let j = 0; j < steps.length; j++) row[2 + j] = normalCdf((x[i] - steps[j]) / s);
-    row[self] = normalCdf(u / s);
-    if (withShift) row[self + 1] = Math.exp((-0.5 * u * u) / (s * s)) / Math.sqrt(2 * Math.PI);
-  };
-  for (let i = lo; i <= hi; i++) {
-    fill(i);
-    for (let r = 0; r < m; r++) {
-      atb[r] += row[r] * current[i];
-      for (let c = r; c < m; c++) a[r][c] += row[r] * row[c];
+  for (let r = 0; r < m; r++) {
+    const or = r * rows;
+    let t = 0;
+    for (let i = 0; i < rows; i++) t += cols[or + i] * current[lo + i];
+    atb[r] = t;
+    for (let c = r; c < m; c++) {
+      const oc = c * rows;
+      let v = 0;
+      for (let i = 0; i < rows; i++) v += cols[or + i] * cols[oc + i];
+      ata[r * m + c] = v;
+      ata[c * m + r] = v;
     }
   }
-  for (let r = 0; r < m; r++) for (let c = 0; c < r; c++) a[r][c] = a[c][r];
-  let inv: Matrix;
-  try {
-    inv = inverse(new Matrix(a));
-  } catch {
-    return null;
-  }
+  // Scale to unit diagonal before inverting (the columns differ by orders of magnitude).
+  const d = new Float64Array(m);
+  for (let r = 0; r < m; r++) d[r] = Math.sqrt(ata[r * m + r]) || 1;
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) ata[r * m + c] /= d[r] * d[c];
+  const scaled = symmetricInverse(ata, m);
+  if (!scaled) return null;
+  const inv = (r: number, c: number) => scaled[r * m + c] / (d[r] * d[c]);
   const coef = new Float64Array(m);
-  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) coef[r] += inv.get(r, c) * atb[c];
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) coef[r] += inv(r, c) * atb[c];
   let ss = 0;
-  for (let i = lo; i <= hi; i++) {
-    fill(i);
+  for (let i = 0; i < rows; i++) {
     let f = 0;
-    for (let r = 0; r < m; r++) f += row[r] * coef[r];
-    ss += (current[i] - f) ** 2;
+    for (let r = 0; r < m; r++) f += cols[r * rows + i] * coef[r];
+    ss += (current[lo + i] - f) ** 2;
   }
-  const rms = Math.sqrt(ss / Math.max(1, hi - lo + 1 - m));
+  const rms = Math.sqrt(ss / Math.max(1, rows - m));
   const step = coef[self];
   let shift = 0, shiftVar = Infinity;
   if (withShift && step !== 0) {
@@ -401,9 +431,9 @@ function localStepFit(
     shift = (-d * s) / step;
     // δ = −s·d/c: first-order propagation with the covariance of (c, d).
     const gC = (s * d) / (step * step), gD = -s / step;
-    shiftVar = gC * gC * inv.get(self, self) + 2 * gC * gD * inv.get(self, self + 1) + gD * gD * inv.get(self + 1, self + 1);
+    shiftVar = gC * gC * inv(self, self) + 2 * gC * gD * inv(self, self + 1) + gD * gD * inv(self + 1, self + 1);
   }
-  return { step, stepVar: inv.get(self, self), shift, shiftVar, rms };
+  return { step, stepVar: inv(self, self), shift, shiftVar, rms };
 }
 
 /** t-statistic of the step at candidate index p (neighbours at the other candidates). */

@@ -80,6 +80,10 @@ export interface CurveAnalysis {
 export const ANALYZE_DEFAULTS = {
   /** Peak width of the first pass when the width is measured, mV. */
   firstPassPeakWidthMV: CONDUCTANCE_DEFAULTS.peakWidthMV,
+  /** The peak whose step width is measured must have at least this SNR … */
+  edgePeakSnrMin: 5,
+  /** … and at least this fraction of the SNR of the band's strongest peak. */
+  edgePeakSnrFraction: 0.3,
   /** The measured width is kept within these bounds, mV. */
   peakWidthBoundsMV: [10, 200] as readonly [number, number],
   /** The default minimum separation is this fraction of the window … */
@@ -129,22 +133,22 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     options.minSeparationMV ?? Math.max(A.minSeparationFloorMV, A.separationPerWindow * s.record.windowMV);
   const rawNoise = (s: ConductanceResult) =>
     s.record.usedMeasured ? undefined : ({ quantity: "current", sigmaA: s.record.noiseCurrentA } as const);
-  // The mean curve is tested for a significant current step under each peak; the single sweeps
-  // only supply positions near those peaks, so prominence suffices there.
-  const peaksOf = (s: ConductanceResult, didv: Float64Array, withStepTest: boolean) =>
+  // "full": each peak tested for a significant current step and refined on the current;
+  // "sweeps": single sweeps, which only supply positions near peaks already found.
+  const peaksOf = (s: ConductanceResult, didv: Float64Array, mode: "full" | "sweeps") =>
     findPeaks(s.biasV, didv, {
       noiseS: Math.max(s.record.noiseConductanceS, Number.MIN_VALUE),
-      minProminenceSigma: withStepTest ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
+      minProminenceSigma: mode === "full" ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
       minStepSigma,
       minSeparationMV: separationFor(s),
       rawNoise: rawNoise(s),
       expectedFwhmV: peakWidthMV / 1000,
-      current: withStepTest
-        ? { currentA: s.currentA, noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) }
-        : undefined,
+      refineOnCurrent: !s.record.usedMeasured,
+      current: mode === "full" ? { currentA: s.currentA, noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) } : undefined,
     });
   if (windowMV === "auto" && options.peakWidthMV === undefined) {
-    const widths = edgeWidths(signal, peaksOf(signal, signal.didvS, true).peaks).map((w) => w * 1000);
+    // The first pass only has to find the clear gap-edge peaks: prominence alone does.
+    const widths = edgeWidths(signal, peaksOf(signal, signal.didvS, "full").peaks).map((w) => w * 1000);
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
@@ -154,10 +158,10 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   }
   if (options.peakWidthMV !== undefined) checkPositive("peakWidthMV", options.peakWidthMV);
 
-  const found = peaksOf(signal, signal.didvS, true);
+  const found = peaksOf(signal, signal.didvS, "full");
   const bandWidthsV = decomposeBands(signal.biasV, signal.didvS, found.peaks);
   const sweeps = signal.didvSweepsS;
-  const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, false).peaks);
+  const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps").peaks);
   const peaks: AnalyzedPeak[] = found.peaks.map((p) => {
     if (sweeps.length < 2) return { ...p, sweepSpreadV: null, sweepsFound: sweeps.length || 1 };
     const positions: number[] = [];
@@ -249,7 +253,12 @@ function edgeWidths(signal: ConductanceResult, peaks: Peak[]): number[] {
   const { biasV, currentA } = signal;
   for (const sign of [1, -1]) {
     // Work in the band's own direction: x = sign·V, y = sign·I rises at its first step.
-    const band = peaks.filter((p) => sign * p.biasV > 0).sort((a, b) => sign * (a.biasV - b.biasV));
+    // The band's first clear peak: weak maxima near the gap edge would give a width of noise.
+    const inBand = peaks.filter((p) => sign * p.biasV > 0);
+    const strongest = Math.max(0, ...inBand.map((p) => p.snr));
+    const band = inBand
+      .filter((p) => p.snr >= Math.max(ANALYZE_DEFAULTS.edgePeakSnrMin, ANALYZE_DEFAULTS.edgePeakSnrFraction * strongest))
+      .sort((a, b) => sign * (a.biasV - b.biasV));
     if (!band.length) continue;
     const x0 = sign * band[0].biasV;
     // Stop halfway to the next peak, and within half the gap-side FWHM of the step, so a

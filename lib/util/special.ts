@@ -47,3 +47,26 @@ export function fermi(x: number): number {
   }
   return 1 / (1 + Math.exp(x));
 }
+
+const TABLE_STEP = 1 / 512;
+const TABLE_REACH = 9;
+let cdfTable: Float64Array | null = null;
+
+/**
+ * Φ(x) by linear interpolation in a table of step 1/512 over |x| ≤ 9 (0 or 1 beyond): absolute
+ * error below 2e-7, about ten times faster than {@link normalCdf}. For inner loops of fits
+ * where Φ is evaluated millions of times; the table is built once, on first use.
+ */
+export function normalCdfFast(x: number): number {
+  if (x <= -TABLE_REACH) return 0;
+  if (x >= TABLE_REACH) return 1;
+  if (cdfTable === null) {
+    const n = Math.round((2 * TABLE_REACH) / TABLE_STEP) + 2;
+    cdfTable = new Float64Array(n);
+    for (let i = 0; i < n; i++) cdfTable[i] = normalCdf(-TABLE_REACH + i * TABLE_STEP);
+  }
+  const u = (x + TABLE_REACH) / TABLE_STEP;
+  const i = u | 0;
+  const f = u - i;
+  return cdfTable[i] + f * (cdfTable[i + 1] - cdfTable[i]);
+}

@@ -104,7 +104,8 @@ describe("findPeaks(biasV, didvS, options)", () => {
       minProminenceSigma: 3,
       minProminenceSigmaAlone: 8,
       minStepSigma: 5,
-      refineIterations: 3,
+      preScreenSigma: 2,
+      refineIterations: 2,
       minSeparationMV: 20,
       fitLevel: 0.7,
     });

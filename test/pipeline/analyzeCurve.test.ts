@@ -82,6 +82,8 @@ describe("analyzeCurve(curve, options): round trip through the model", () => {
   it("ANALYZE_DEFAULTS are as documented (locked)", () => {
     expect(ANALYZE_DEFAULTS).toEqual({
       firstPassPeakWidthMV: 40,
+      edgePeakSnrMin: 5,
+      edgePeakSnrFraction: 0.3,
       peakWidthBoundsMV: [10, 200],
       separationPerWindow: 0.5,
       minSeparationFloorMV: 10,

@@ -3,7 +3,7 @@
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
 import { expectClose } from "../helpers/expectClose.ts";
-import { erfc, normalCdf, fermi } from "../../lib/util/special.ts";
+import { erfc, normalCdf, normalCdfFast, fermi } from "../../lib/util/special.ts";
 
 describe("special functions", () => {
   it("erfc(x) matches 1 − erf(x) from mathjs to 1.2e-7 (relative) over −5…5", () => {
@@ -27,5 +27,11 @@ describe("special functions", () => {
     expectClose(fermi(1), 1 / (1 + Math.E), { rtol: 1e-15 });
     expect(fermi(1000)).toBe(0);
     expect(fermi(-1000)).toBe(1);
+  });
+});
+
+describe("normalCdfFast", () => {
+  it("agrees with normalCdf within 2e-7 absolute over −10…10 (linear interpolation error bound h²/8·max|Φ''| with h = 1/512)", () => {
+    for (let x = -10; x <= 10; x += 0.00377) expectClose(normalCdfFast(x), normalCdf(x), { atol: 2e-7, what: `Φ(${x})` });
   });
 });
