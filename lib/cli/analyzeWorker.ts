@@ -1,0 +1,18 @@
+/**
+ * Worker thread of `dotspec analyze` for large batches: receives jobs, answers with results, in
+ * order. Started through analyzeWorker.mjs, which registers TypeScript support in the thread.
+ */
+import { parentPort, workerData } from "node:worker_threads";
+import { loadCurveFigure, type CurveFigureRenderer } from "../index.ts";
+import { analyzeFile, type AnalyzeBatchSettings, type AnalyzeJob } from "./analyzeFile.ts";
+
+const settings = workerData as AnalyzeBatchSettings;
+let figure: Promise<CurveFigureRenderer> | null = null;
+const loadFigure = () => (figure ??= loadCurveFigure());
+let queue: Promise<void> = Promise.resolve();
+
+parentPort!.on("message", (job: AnalyzeJob) => {
+  queue = queue.then(async () => {
+    parentPort!.postMessage(await analyzeFile(job, settings, loadFigure));
+  });
+});

@@ -1,0 +1,11 @@
+/**
+ * The registry of dotspec sub-commands, in the order `dotspec --help` lists them.
+ * A new command is one module exporting a CliCommand, added here.
+ */
+import type { CliCommand } from "./command.ts";
+import { analyzeCommand } from "./analyze.ts";
+import { simulateCommand } from "./simulate.ts";
+
+export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, simulateCommand]);
+
+export type { CliCommand } from "./command.ts";

@@ -1,0 +1,88 @@
+/**
+ * The dotspec command line: parses the arguments, runs one sub-command, returns the exit code.
+ * Thin by design: the work is done by the library (lib/index.ts).
+ */
+import { fileURLToPath } from "node:url";
+import { Command, CommanderError } from "commander";
+import { isDotspecError } from "../index.ts";
+import { COMMANDS } from "./commands/index.ts";
+import { EXIT, makeContext, UsageError, type CliContext, type CliIO } from "./context.ts";
+import { readJsonFile } from "./readJsonFile.ts";
+
+export { EXIT, type CliIO, type CliStream } from "./context.ts";
+
+/** The package version, from package.json. */
+function packageVersion(): string {
+  const manifest = readJsonFile(fileURLToPath(new URL("../../package.json", import.meta.url))) as { version?: unknown };
+  return typeof manifest.version === "string" ? manifest.version : "unknown";
+}
+
+/**
+ * Runs the dotspec command.
+ *
+ * Parameters
+ * ----------
+ * argv : string[]
+ *     The arguments after the program name, e.g. `["analyze", "dot.csv", "--eta", "0.85"]`.
+ * io : Partial<CliIO>, optional
+ *     Streams and environment. Default: the process's stdout, stderr and env.
+ *
+ * Returns
+ * -------
+ * Promise<number>
+ *     The exit code: 0 success (also for --help and --version), 1 some file failed, 2 usage error.
+ *     Never calls `process.exit`; the caller sets the process's exit code.
+ *
+ * Notes
+ * -----
+ * 1. commander parses with `exitOverride`, so its errors come back as exceptions: help and
+ *    version map to 0, every parse error (unknown option or command, missing argument, an option
+ *    value out of range) to 2, its message already printed on stderr.
+ * 2. Sub-commands come from the registry in lib/cli/commands/index.ts.
+ * 3. A DotspecError that escapes a command prints `dotspec: <message>` (exit 1); any other error
+ *    is a bug and prints its stack (exit 1).
+ *
+ * Example
+ * -------
+ * const code = await main(["analyze", "data/", "--eta", "0.85", "--out", "report"]);
+ */
+export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<number> {
+  const ctx = makeContext(io);
+  const program = new Command("dotspec");
+  program
+    .description("Tunnelling spectroscopy of single quantum dots: from I–V sweeps to assigned shells, gaps and charging energies.")
+    .version(packageVersion(), "-V, --version", "print the version")
+    .helpOption("-h, --help", "print help")
+    .helpCommand(false)
+    .exitOverride()
+    .configureOutput({
+      writeOut: (s) => void ctx.stdout.write(s),
+      writeErr: (s) => void ctx.stderr.write(s),
+      outputError: (s, write) => write(`dotspec: ${s.replace(/^error: /, "")}`),
+    })
+    .showHelpAfterError("(add --help for usage)")
+    .addHelpText("after", "\nRun dotspec <command> --help for a command's options.\n");
+  for (const command of COMMANDS) command.register(program, ctx);
+
+  try {
+    await program.parseAsync(argv, { from: "user" });
+    return ctx.exitCode;
+  } catch (err) {
+    return failure(err, ctx);
+  }
+}
+
+/** The exit code for an error that ended a command, after printing it. */
+function failure(err: unknown, ctx: CliContext): number {
+  if (err instanceof CommanderError) return err.exitCode === 0 ? EXIT.ok : EXIT.usage;
+  if (err instanceof UsageError) {
+    ctx.error(err.message);
+    return EXIT.usage;
+  }
+  if (isDotspecError(err)) {
+    ctx.error(err.message);
+    return EXIT.failed;
+  }
+  ctx.error(`internal error: ${err instanceof Error ? (err.stack ?? err.message) : String(err)}`);
+  return EXIT.failed;
+}

@@ -1,0 +1,45 @@
+/**
+ * Reading a small JSON file (a scenario, the package manifest) for the command line.
+ */
+import { readFileSync } from "node:fs";
+import { DotspecError } from "../index.ts";
+
+/**
+ * Reads and parses a JSON file.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file, as the user gave it.
+ *
+ * Returns
+ * -------
+ * unknown
+ *     The parsed value (validate it before use).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `cli/unreadable-json` when the file cannot be read (missing, a folder, no permission);
+ *     `cli/invalid-json` when it is not valid JSON (the parser's message names the position).
+ *
+ * Example
+ * -------
+ * parseScenario(readJsonFile("scenario.json"));
+ */
+export function readJsonFile(path: string): unknown {
+  let text: string;
+  try {
+    text = readFileSync(path, "utf8");
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why =
+      code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a JSON file" : code === "EACCES" ? "permission denied" : (err as Error).message;
+    throw new DotspecError("cli/unreadable-json", `${path}: cannot be read (${why})`);
+  }
+  try {
+    return JSON.parse(text.replace(/^\uFEFF/, ""));
+  } catch (err) {
+    throw new DotspecError("cli/invalid-json", `${path}: not valid JSON (${(err as Error).message})`);
+  }
+}

@@ -1,0 +1,111 @@
+/**
+ * Runs the files of a `dotspec analyze` batch, in the main thread or spread over worker threads.
+ */
+import { Worker } from "node:worker_threads";
+import { loadCurveFigure, type CurveFigureRenderer } from "../index.ts";
+import { analyzeFile, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "./analyzeFile.ts";
+
+/** Tuning of the worker pool. */
+export const ANALYZE_JOBS_DEFAULTS = Object.freeze({
+  /** Jobs handed to a worker ahead of its results, so it never waits for the next file. */
+  jobsAhead: 2,
+});
+
+/**
+ * Analyses every job and reports each result as it comes.
+ *
+ * Parameters
+ * ----------
+ * jobs : AnalyzeJob[]
+ *     The files, with their place in the batch.
+ * settings : AnalyzeBatchSettings
+ *     Shared by all files (sent to the workers as plain data).
+ * threads : number
+ *     Worker threads; 1 runs everything in this thread.
+ * onResult : (result) => void
+ *     Called once per job, in completion order (not batch order when threads > 1).
+ * stop : () => boolean
+ *     Checked before each job is started; once true, the remaining jobs are skipped.
+ *
+ * Notes
+ * -----
+ * 1. Each worker gets two jobs ahead and one more per result, so faster workers take more.
+ * 2. In this thread the event loop gets a turn between files, so stream errors (a closed pipe)
+ *    and timers are seen during a long batch.
+ * 3. A worker that fails before its first result (for example it cannot start) hands its jobs
+ *    back; one that fails later fails the jobs it held (one of them made it fail). When no
+ *    worker is left the remaining jobs run in this thread.
+ */
+export async function runAnalyzeJobs(
+  jobs: readonly AnalyzeJob[],
+  settings: AnalyzeBatchSettings,
+  threads: number,
+  onResult: (result: AnalyzeJobResult) => void,
+  stop: () => boolean = () => false,
+): Promise<void> {
+  let figure: Promise<CurveFigureRenderer> | null = null;
+  const loadFigure = () => (figure ??= loadCurveFigure());
+  const queue = [...jobs];
+  if (threads > 1 && queue.length > 1) await runInWorkers(queue, settings, Math.min(threads, queue.length), onResult, stop);
+  for (const job of queue.splice(0)) {
+    // Let the event loop run between files (stream errors, the progress bar's timer).
+    await new Promise<void>((resolve) => setImmediate(resolve));
+    if (stop()) return;
+    onResult(await analyzeFile(job, settings, loadFigure));
+  }
+}
+
+/** Runs jobs from `queue` on worker threads until it is empty or no worker is left. */
+function runInWorkers(
+  queue: AnalyzeJob[],
+  settings: AnalyzeBatchSettings,
+  threads: number,
+  onResult: (r: AnalyzeJobResult) => void,
+  stop: () => boolean,
+): Promise<void> {
+  return new Promise((done) => {
+    let alive = 0;
+    const finish = () => {
+      if (alive === 0) done();
+    };
+    for (let w = 0; w < threads; w++) {
+      const worker = new Worker(new URL("./analyzeWorker.mjs", import.meta.url), { workerData: settings });
+      alive++;
+      const held = new Map<number, AnalyzeJob>();
+      let answered = 0;
+      let closed = false;
+      const feed = () => {
+        if (stop()) queue.length = 0;
+        while (held.size < ANALYZE_JOBS_DEFAULTS.jobsAhead && queue.length) {
+          const job = queue.shift()!;
+          held.set(job.index, job);
+          worker.postMessage(job);
+        }
+        if (held.size === 0) close();
+      };
+      const close = () => {
+        if (closed) return;
+        closed = true;
+        alive--;
+        void worker.terminate();
+        finish();
+      };
+      const lost = (why: string) => {
+        if (closed) return;
+        if (answered === 0) queue.unshift(...held.values());
+        else for (const job of held.values()) onResult({ index: job.index, ok: false, error: `internal error (the worker thread stopped: ${why}); please report it with the file` });
+        held.clear();
+        close();
+      };
+      worker.on("message", (result: AnalyzeJobResult) => {
+        held.delete(result.index);
+        answered++;
+        onResult(result);
+        feed();
+      });
+      worker.on("error", (err) => lost(err instanceof Error ? err.message : String(err)));
+      worker.on("exit", (code) => lost(`exit code ${code}`));
+      feed();
+    }
+  });
+}

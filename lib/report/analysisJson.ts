@@ -1,0 +1,157 @@
+/**
+ * The JSON record of one analysed curve: what `dotspec analyze --json` prints (one per file) and
+ * `--out` writes. Plain data, bias-referred values in volts, energies in eV.
+ */
+import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
+import type { ImportRecord } from "../io/parseCurveText.ts";
+
+/** Version of the record layout; bumped when a field changes meaning. */
+export const ANALYSIS_JSON_VERSION = 1;
+
+export interface AnalysisJson {
+  version: number;
+  /** The file name as given. */
+  source: string;
+  regime: "shell-filling" | "shell-tunneling" | "undetermined";
+  /** First CB peak − first VB peak, V; null when a band has no peak. */
+  gapV: number | null;
+  /** Zero-conductance region [negative edge, positive edge], V. */
+  gapEdgesV: [number, number] | null;
+  /** Charging energy in bias (mean spacing inside the CB multiplets), V; null outside shell filling. */
+  chargingEnergyV: number | null;
+  singleParticleGapV: number | null;
+  /** s–p spacing in bias, V (regime-aware, see the docs). */
+  levelSpacingSPV: number | null;
+  levelSpacingPDV: number | null;
+  /** Spacings between successive VB groups from the gap edge, V. */
+  valenceSpacingsV: number[];
+  multiplets: {
+    band: "CB" | "VB";
+    label: string;
+    degeneracy: number | null;
+    /** Peak positions sorted by |bias| from the gap edge, V. */
+    peaksV: number[];
+    peakUncertaintiesV: number[];
+    found: number;
+    expected: number | null;
+    subgroups: number[];
+  }[];
+  peaks: {
+    biasV: number;
+    biasUncertaintyV: number;
+    /** dI/dV at the peak, S. */
+    height: number;
+    prominenceS: number;
+    fwhmV: number;
+    /** Current step carried by the peak, A. */
+    stepA: number;
+    snr: number;
+    stepSignificance: number | null;
+    sweepSpreadV: number | null;
+    /** Label of the multiplet holding the peak, or null (satellite or unassigned). */
+    multiplet: string | null;
+  }[];
+  energies: {
+    eta: number;
+    etaGiven: boolean;
+    gapEV: number | null;
+    chargingEnergyEV: number | null;
+    singleParticleGapEV: number | null;
+    levelSpacingSPEV: number | null;
+    levelSpacingPDEV: number | null;
+    valenceSpacingsEV: number[];
+    uncertainties: {
+      gapEV: number | null;
+      chargingEnergyEV: number | null;
+      singleParticleGapEV: number | null;
+      levelSpacingSPEV: number | null;
+      levelSpacingPDEV: number | null;
+      valenceSpacingsEV: number[];
+    };
+  };
+  /** 1σ uncertainties of the bias-referred quantities, V. */
+  uncertainties: {
+    gapV: number | null;
+    chargingEnergyV: number | null;
+    singleParticleGapV: number | null;
+    levelSpacingSPV: number | null;
+    levelSpacingPDV: number | null;
+    valenceSpacingsV: number[];
+  };
+  evidence: { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null; satellitePeaksV: number[]; reasons: string[] };
+  settings: CurveAnalysis["settings"] & {
+    biasStepV: number;
+    noiseCurrentA: number;
+    noiseConductanceS: number;
+    offsetA: number;
+    resampled: boolean;
+    windowReason: string;
+  };
+  /** What the importer understood, when the curve came from a file. */
+  import: {
+    delimiter: string;
+    columns: { name: string; role: string; unit: string | null }[];
+    sweeps: number;
+    points: number;
+  } | null;
+  warnings: string[];
+}
+
+/**
+ * Turns an analysis into its JSON record.
+ *
+ * @param analysis - from analyzeCurve.
+ * @param importRecord - what the importer reported (optional).
+ */
+export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRecord): AnalysisJson {
+  const a = analysis.assignment;
+  const label = new Map<number, string>();
+  for (const m of a.multiplets) for (const v of m.peaksV) label.set(v, m.label);
+  const rec = analysis.conductance.record;
+  return {
+    version: ANALYSIS_JSON_VERSION,
+    source: analysis.source,
+    regime: a.regime,
+    gapV: a.quantities.gapV,
+    gapEdgesV: analysis.gapEdgesV,
+    chargingEnergyV: a.quantities.chargingEnergyV,
+    singleParticleGapV: a.quantities.singleParticleGapV,
+    levelSpacingSPV: a.quantities.levelSpacingSPV,
+    levelSpacingPDV: a.quantities.levelSpacingPDV,
+    valenceSpacingsV: a.quantities.valenceSpacingsV,
+    multiplets: a.multiplets.map((m) => ({ ...m, peaksV: [...m.peaksV], peakUncertaintiesV: [...m.peakUncertaintiesV], subgroups: [...m.subgroups] })),
+    peaks: analysis.peaks.map((p) => ({
+      biasV: p.biasV,
+      biasUncertaintyV: p.biasUncertaintyV,
+      height: p.heightS,
+      prominenceS: p.prominenceS,
+      fwhmV: p.fwhmV,
+      stepA: p.stepA,
+      snr: p.snr,
+      stepSignificance: p.stepSignificance,
+      sweepSpreadV: p.sweepSpreadV,
+      multiplet: label.get(p.biasV) ?? null,
+    })),
+    energies: a.energies,
+    uncertainties: a.uncertainties,
+    evidence: a.evidence,
+    settings: {
+      ...analysis.settings,
+      biasStepV: analysis.conductance.stepV,
+      noiseCurrentA: rec.noiseCurrentA,
+      noiseConductanceS: rec.noiseConductanceS,
+      offsetA: rec.offsetA,
+      resampled: rec.resampled,
+      windowReason: rec.windowReason,
+    },
+    import: importRecord
+      ? {
+          delimiter: importRecord.delimiter,
+          columns: importRecord.columns.map((c) => ({ name: c.name, role: c.role, unit: c.unit })),
+          sweeps: importRecord.sweeps,
+          points: importRecord.points,
+        }
+      : null,
+    warnings: [...(importRecord?.warnings ?? []), ...analysis.warnings],
+  };
+}

@@ -1,0 +1,215 @@
+/**
+ * A readable plain-text report of one analysed curve: what `dotspec analyze` prints per file.
+ * Works on the JSON record only, so notebooks and scripts can print saved records the same way.
+ */
+import type { AnalysisJson } from "./analysisJson.ts";
+
+/** Options of {@link formatAnalysisText}. */
+export interface FormatAnalysisTextOptions {
+  /**
+   * Emphasise headings with ANSI bold and faint (for a terminal). Default false: plain UTF-8
+   * text without control codes.
+   */
+  color?: boolean;
+}
+
+/** Defaults and layout constants of {@link formatAnalysisText} (locked by a test). */
+export const FORMAT_TEXT_DEFAULTS = Object.freeze({
+  color: false,
+  /** Indentation of everything under the file's header line. */
+  indent: "  ",
+  /** Decimals of peak positions in V (0.1 mV). */
+  biasDecimals: 4,
+  /** Significant digits of an uncertainty; the value is rounded to the same decimal place. */
+  uncertaintyDigits: 2,
+  /** Most decimals shown for a value with an uncertainty (in mV or meV). */
+  maxDecimals: 3,
+  /** Written for a quantity the analysis did not define. */
+  missing: "—",
+});
+
+const REGIME_WORDS: Record<AnalysisJson["regime"], string> = {
+  "shell-filling": "shell filling",
+  "shell-tunneling": "shell tunnelling",
+  undetermined: "regime undetermined",
+};
+
+type Align = "left" | "right";
+
+/** Pads the cells of a table into aligned columns (widths by code points, which suits this text). */
+function table(headers: string[], rows: string[][], align: Align[], indent: string): string[] {
+  const width = headers.map((h, c) => Math.max([...h].length, ...rows.map((r) => [...r[c]].length)));
+  const pad = (s: string, c: number) => {
+    const fill = " ".repeat(width[c] - [...s].length);
+    return align[c] === "right" ? fill + s : s + fill;
+  };
+  const line = (cells: string[]) => (indent + cells.map(pad).join("  ")).trimEnd();
+  return [line(headers), ...rows.map(line)];
+}
+
+/** Number of decimals that shows `sigma` with the configured significant digits (0…maxDecimals). */
+function decimalsFor(sigma: number | null): number {
+  const D = FORMAT_TEXT_DEFAULTS;
+  if (sigma === null || !(sigma > 0) || !Number.isFinite(sigma)) return 1;
+  const d = D.uncertaintyDigits - 1 - Math.floor(Math.log10(sigma));
+  return Math.min(D.maxDecimals, Math.max(0, d));
+}
+
+/** "142.3 ± 1.8" (value and σ already in display units), or the value alone without a σ. */
+function withSigma(value: number, sigma: number | null): string {
+  const d = decimalsFor(sigma);
+  return sigma === null || !Number.isFinite(sigma) ? value.toFixed(d) : `${value.toFixed(d)} ± ${sigma.toFixed(d)}`;
+}
+
+/** Three significant digits without exponent for everyday magnitudes. */
+function sig3(x: number): string {
+  if (!Number.isFinite(x)) return String(x);
+  if (x === 0) return "0";
+  const a = Math.abs(x);
+  if (a >= 1e5 || a < 1e-3) return x.toExponential(2);
+  const d = Math.max(0, 2 - Math.floor(Math.log10(a)));
+  return x.toFixed(d);
+}
+
+/**
+ * Formats the JSON record of one analysed curve as a readable text report.
+ *
+ * Parameters
+ * ----------
+ * json : AnalysisJson
+ *     The record from {@link analysisToJson}.
+ * options : FormatAnalysisTextOptions, optional
+ *     `color` (default false) adds ANSI bold/faint to headings, for terminals only.
+ *
+ * Returns
+ * -------
+ * string
+ *     Lines ending in `\n`: a header line (source, regime, η and whether it was given); the
+ *     settings used; a peak table (bias in V, 1σ in mV, height in nS, FWHM in mV, SNR, multiplet
+ *     label or "—"); a multiplet table (band, label, found/expected, sub-groups, peak positions);
+ *     the extracted quantities bias-referred in mV and as energies in meV after η
+ *     (`Ec = 142.3 ± 1.8 mV  →  121.0 ± 1.5 meV (η = 0.85)`), and the warnings.
+ *
+ * Notes
+ * -----
+ * 1. An uncertainty is shown with two significant digits and its value rounded to the same
+ *    decimal place (at most three decimals in mV/meV): common practice (no source).
+ * 2. Quantities the regime does not define (Ec and the single-particle gap outside shell
+ *    filling) are written "—" with the reason.
+ * 3. Settings in the report are analysis settings, not instrument settings.
+ *
+ * Example
+ * -------
+ * formatAnalysisText(analysisToJson(analyzeCurve(curve, { eta: 0.85 })));
+ * // => "dot-07.csv  ·  shell filling  ·  η = 0.85\n  …\n"
+ */
+export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTextOptions = {}): string {
+  const D = FORMAT_TEXT_DEFAULTS;
+  const color = options.color ?? D.color;
+  const bold = (s: string) => (color ? `\x1b[1m${s}\x1b[22m` : s);
+  const faint = (s: string) => (color ? `\x1b[2m${s}\x1b[22m` : s);
+  const I = D.indent;
+  const eta = json.energies.eta;
+  const etaText = json.energies.etaGiven ? `η = ${eta}` : `η = ${eta} (not given: energies equal bias values)`;
+  const out: string[] = [];
+
+  out.push(bold(`${json.source}  ·  ${REGIME_WORDS[json.regime]}  ·  ${etaText}`));
+  const s = json.settings;
+  const sweeps = json.import ? `${json.import.points} points, ${json.import.sweeps} sweep${json.import.sweeps === 1 ? "" : "s"}; ` : "";
+  const how = s.useMeasured ? "measured dI/dV" : `dI/dV by Savitzky–Golay, window ${s.windowMV.toFixed(1)} mV (${s.automaticWindow ? "automatic" : "given"}), order ${s.order}`;
+  out.push(faint(`${I}${sweeps}${how}; step ${(s.biasStepV * 1000).toPrecision(3)} mV`));
+
+  // Peaks.
+  out.push("");
+  if (json.peaks.length === 0) out.push(`${I}${bold("Peaks")}: none found`);
+  else {
+    out.push(`${I}${bold("Peaks")} (${json.peaks.length})`);
+    const rows = json.peaks.map((p, i) => [
+      String(i + 1),
+      p.biasV.toFixed(D.biasDecimals),
+      (p.biasUncertaintyV * 1000).toFixed(p.biasUncertaintyV * 1000 < 0.1 ? 2 : 1),
+      sig3(p.height * 1e9),
+      (p.fwhmV * 1000).toFixed(1),
+      p.snr >= 10 ? p.snr.toFixed(0) : p.snr.toFixed(1),
+      p.multiplet ?? (json.evidence.satellitePeaksV.includes(p.biasV) ? "satellite" : D.missing),
+    ]);
+    out.push(
+      ...table(
+        ["#", "bias (V)", "±σ (mV)", "height (nS)", "FWHM (mV)", "SNR", "multiplet"],
+        rows,
+        ["right", "right", "right", "right", "right", "right", "left"],
+        I + I,
+      ),
+    );
+  }
+
+  // Multiplets.
+  if (json.multiplets.length) {
+    out.push("");
+    out.push(`${I}${bold("Multiplets")}`);
+    const split = json.multiplets.some((m) => m.subgroups.length > 1);
+    const rows = json.multiplets.map((m) => [
+      m.band,
+      m.label,
+      `${m.found}/${m.expected ?? D.missing}`,
+      ...(split ? [m.subgroups.length > 1 ? m.subgroups.join("+") : ""] : []),
+      m.peaksV.map((v) => v.toFixed(D.biasDecimals)).join("  "),
+    ]);
+    const headers = ["band", "label", "found/expected", ...(split ? ["split"] : []), "peaks (V)"];
+    const align: Align[] = ["left", "left", "right", ...(split ? (["left"] as Align[]) : []), "left"];
+    out.push(...table(headers, rows, align, I + I));
+  }
+
+  // Quantities.
+  out.push("");
+  out.push(`${I}${bold("Quantities")}  (bias-referred  →  energy after η)`);
+  const e = json.energies;
+  const notInRegime =
+    json.regime === "shell-tunneling" ? "not measurable in shell tunnelling" : json.regime === "undetermined" ? "regime undetermined" : null;
+  const items: { name: string; v: number | null; sv: number | null; e: number | null; se: number | null; why?: string | null }[] = [
+    { name: "gap", v: json.gapV, sv: json.uncertainties.gapV, e: e.gapEV, se: e.uncertainties.gapEV, why: "needs a peak on each side of 0 V" },
+    { name: "Ec", v: json.chargingEnergyV, sv: json.uncertainties.chargingEnergyV, e: e.chargingEnergyEV, se: e.uncertainties.chargingEnergyEV, why: notInRegime },
+    {
+      name: "single-particle gap",
+      v: json.singleParticleGapV,
+      sv: json.uncertainties.singleParticleGapV,
+      e: e.singleParticleGapEV,
+      se: e.uncertainties.singleParticleGapEV,
+      why: notInRegime,
+    },
+    { name: "Δsp", v: json.levelSpacingSPV, sv: json.uncertainties.levelSpacingSPV, e: e.levelSpacingSPEV, se: e.uncertainties.levelSpacingSPEV, why: null },
+    { name: "Δpd", v: json.levelSpacingPDV, sv: json.uncertainties.levelSpacingPDV, e: e.levelSpacingPDEV, se: e.uncertainties.levelSpacingPDEV, why: null },
+  ];
+  json.valenceSpacingsV.forEach((v, i) => {
+    const from = json.multiplets.filter((m) => m.band === "VB")[i]?.label ?? `v${i + 1}`;
+    const to = json.multiplets.filter((m) => m.band === "VB")[i + 1]?.label ?? `v${i + 2}`;
+    items.push({
+      name: `VB ${from}→${to}`,
+      v,
+      sv: json.uncertainties.valenceSpacingsV[i] ?? null,
+      e: e.valenceSpacingsEV[i] ?? null,
+      se: e.uncertainties.valenceSpacingsEV[i] ?? null,
+    });
+  });
+  const biasCells = items.map((q) => (q.v === null ? "" : `${withSigma(q.v * 1000, q.sv === null ? null : q.sv * 1000)} mV`));
+  const nameWidth = Math.max(...items.map((q) => [...q.name].length));
+  const biasWidth = Math.max(...biasCells.map((c) => [...c].length));
+  items.forEach((q, i) => {
+    const name = q.name + " ".repeat(nameWidth - [...q.name].length);
+    if (q.v === null) {
+      out.push(`${I}${I}${name} = ${D.missing}${q.why ? ` (${q.why})` : ""}`);
+      return;
+    }
+    const bias = " ".repeat(biasWidth - [...biasCells[i]].length) + biasCells[i];
+    const energy = q.e === null ? D.missing : `${withSigma(q.e * 1000, q.se === null ? null : q.se * 1000)} meV (η = ${eta})`;
+    out.push(`${I}${I}${name} = ${bias}  →  ${energy}`);
+  });
+
+  // Warnings.
+  if (json.warnings.length) {
+    out.push("");
+    out.push(`${I}${bold("Warnings")} (${json.warnings.length})`);
+    for (const w of json.warnings) out.push(`${I}${I}! ${w}`);
+  }
+  return out.join("\n") + "\n";
+}

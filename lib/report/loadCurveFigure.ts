@@ -1,0 +1,42 @@
+/**
+ * On-demand loading of the figure code. Observable Plot and jsdom take most of a second to
+ * import; the public entry point stays light by importing them only when a figure is wanted.
+ */
+import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
+import type { CurveFigureOptions } from "./curveFigure.ts";
+
+/** {@link curveFigure} with its document bound. */
+export type CurveFigureRenderer = (analysis: CurveAnalysis, options?: Omit<CurveFigureOptions, "document">) => string;
+
+/**
+ * Loads Observable Plot (and, outside a browser, jsdom) and returns the figure function.
+ *
+ * Parameters
+ * ----------
+ * document : Document, optional
+ *     The DOM document to draw in. Default: `globalThis.document` in a browser; in Node a new
+ *     jsdom document, created once and reused by every call of the returned function.
+ *
+ * Returns
+ * -------
+ * Promise<CurveFigureRenderer>
+ *     `(analysis, options?) => svg`: {@link curveFigure} with the document bound.
+ *
+ * Example
+ * -------
+ * const curveFigure = await loadCurveFigure();
+ * writeTextFile("report/dot-07.svg", curveFigure(analysis, { curve }));
+ */
+export async function loadCurveFigure(document?: Document): Promise<CurveFigureRenderer> {
+  const [{ curveFigure }, doc] = await Promise.all([import("./curveFigure.ts"), document ?? defaultDocument()]);
+  return (analysis, options = {}) => curveFigure(analysis, { ...options, document: doc });
+}
+
+async function defaultDocument(): Promise<Document> {
+  const browser = (globalThis as { document?: Document }).document;
+  if (browser) return browser;
+  // A variable specifier keeps browser bundlers from pulling jsdom into a page that never needs it.
+  const specifier = "jsdom";
+  const { JSDOM } = (await import(/* @vite-ignore */ specifier)) as typeof import("jsdom");
+  return new JSDOM("").window.document;
+}

@@ -1,0 +1,98 @@
+// The real binary under plain Node (not vitest's module loader): bin/dotspec.js registers tsx and
+// runs main. This catches module-format traps that in-process tests cannot see (for example the
+// CommonJS default export of ml-savitzky-golay, toolchain notes).
+import { describe, it, expect, afterAll } from "vitest";
+import { execFile, spawn } from "node:child_process";
+import { readFileSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { promisify } from "node:util";
+import { expectClose } from "../helpers/expectClose.ts";
+import type { AnalysisJson } from "../../lib/index.ts";
+import { chargingPeakV, FILLING, removeTempDirs, tempDir, writeCurve } from "./harness.ts";
+
+const BIN = fileURLToPath(new URL("../../bin/dotspec.js", import.meta.url));
+const exec = promisify(execFile);
+
+afterAll(removeTempDirs);
+
+async function dotspec(args: string[], cwd: string): Promise<{ code: number; stdout: string; stderr: string }> {
+  try {
+    const { stdout, stderr } = await exec(process.execPath, [BIN, ...args], { cwd, env: { ...process.env, NO_COLOR: "1" } });
+    return { code: 0, stdout, stderr };
+  } catch (err) {
+    const e = err as { code: number; stdout: string; stderr: string };
+    return { code: e.code, stdout: e.stdout, stderr: e.stderr };
+  }
+}
+
+describe("node bin/dotspec.js", () => {
+  it("simulate writes a CSV and analyze --json reads it back, peaks at (ε + Ec(n + ½))/η (closed form, domain brief §3/§6)", async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, "dot.json"), JSON.stringify(FILLING));
+    const sim = await dotspec(["simulate", "--config", "dot.json", "--out", "curves/dot.csv", "--method", "fast"], dir);
+    expect(sim.code).toBe(0);
+    expect(sim.stdout).toBe("");
+    expect(readFileSync(join(dir, "curves/dot.csv"), "utf8").split("\n")[0]).toBe("bias (V),current (A)");
+
+    const r = await dotspec(["analyze", "curves", "--eta", "0.8", "--json"], dir);
+    expect(r.stderr).toBe("");
+    expect(r.code).toBe(0);
+    const [j] = JSON.parse(r.stdout) as AnalysisJson[];
+    expect(j.source).toBe(join("curves", "dot.csv"));
+    const p = j.multiplets.find((m) => m.label === "p")!;
+    expectClose(p.peaksV, [2, 3, 4].map((n) => chargingPeakV(0.8, n)), { atol: 0.003, what: "p peaks" });
+  });
+
+  it("analyze --out loads Observable Plot and jsdom under plain Node and writes the figure", async () => {
+    const dir = tempDir();
+    writeFileSync(join(dir, "dot.json"), JSON.stringify(FILLING));
+    await dotspec(["simulate", "--config", "dot.json", "--out", "in/dot.csv", "--method", "fast"], dir);
+    const r = await dotspec(["analyze", "in/dot.csv", "--out", "report"], dir);
+    expect(r.code).toBe(0);
+    expect(readFileSync(join(dir, "report/dot.svg"), "utf8")).toMatch(/^<svg xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+  });
+
+  it("passes the exit code to the process: 2 for a usage error, 1 for a failed file", async () => {
+    const dir = tempDir();
+    const usage = await dotspec(["analyze", "x.csv", "--eta", "1.5"], dir);
+    expect(usage.code).toBe(2);
+    expect(usage.stderr).toMatch(/--eta/);
+    const failed = await dotspec(["analyze", "missing.csv"], dir);
+    expect(failed.code).toBe(1);
+    expect(failed.stderr).toBe("dotspec: missing.csv: no such file or folder (from " + dir + "); check the path\n");
+  });
+
+  it("stops quietly when the reader of stdout goes away (`dotspec analyze … | head`)", async () => {
+    const dir = tempDir();
+    for (let k = 0; k < 8; k++) writeCurve(join(dir, `dot-${k}.csv`), { ...FILLING, noise: { relative: 0.003, seed: 30 + k } });
+    const child = spawn(process.execPath, [BIN, "analyze", dir, "--jobs", "1"], { stdio: ["ignore", "pipe", "pipe"] });
+    let stderr = "";
+    child.stderr.on("data", (d) => (stderr += d));
+    child.stdout.once("data", () => child.stdout.destroy());
+    const code = await new Promise<number | null>((resolve) => child.on("close", resolve));
+    expect(stderr).toBe("");
+    expect(code).toBe(0);
+  });
+
+  it("loads neither Observable Plot nor jsdom without --out (they take most of a second to import)", async () => {
+    const dir = tempDir();
+    writeCurve(join(dir, "dot.csv"), FILLING);
+    // A module-resolution hook that refuses the two packages: analyze must not need them…
+    writeFileSync(
+      join(dir, "hooks.mjs"),
+      'export async function resolve(s, c, next) { if (/^(jsdom|@observablehq\\/plot)(\\/|$)/.test(s)) throw new Error("blocked " + s); return next(s, c); }\n',
+    );
+    writeFileSync(join(dir, "block.mjs"), 'import { register } from "node:module"; register("./hooks.mjs", import.meta.url);\n');
+    const withHook = (args: string[]) =>
+      exec(process.execPath, ["--import", join(dir, "block.mjs"), BIN, ...args], { cwd: dir }).then(
+        () => 0,
+        (e: { code: number; stderr: string }) => ({ code: e.code, stderr: e.stderr }),
+      );
+    expect(await withHook(["analyze", "dot.csv", "--json"])).toBe(0);
+    // …and the hook does bite when they are needed.
+    const out = await withHook(["analyze", "dot.csv", "--out", "report"]);
+    expect(out).toMatchObject({ code: 1 });
+    expect((out as { stderr: string }).stderr).toMatch(/blocked (jsdom|@observablehq\/plot)/);
+  });
+});

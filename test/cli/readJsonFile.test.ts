@@ -1,0 +1,37 @@
+// readJsonFile: the scenario reader of dotspec simulate.
+import { describe, it, expect, afterAll } from "vitest";
+import { writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { readJsonFile } from "../../lib/cli/readJsonFile.ts";
+import { isDotspecError } from "../../lib/index.ts";
+import { removeTempDirs, tempDir } from "./harness.ts";
+
+afterAll(removeTempDirs);
+
+function codeOf(f: () => unknown): string | null {
+  try {
+    f();
+    return null;
+  } catch (err) {
+    return isDotspecError(err) ? err.code : "not a DotspecError";
+  }
+}
+
+describe("readJsonFile(path)", () => {
+  it("parses a JSON file (a UTF-8 byte-order mark is ignored)", () => {
+    const path = join(tempDir(), "a.json");
+    writeFileSync(path, '\uFEFF{"eta": 0.8, "cb": []}');
+    expect(readJsonFile(path)).toEqual({ eta: 0.8, cb: [] });
+  });
+  it("throws cli/invalid-json naming the file for bad JSON", () => {
+    const path = join(tempDir(), "bad.json");
+    writeFileSync(path, "{ eta: 0.8 }");
+    expect(codeOf(() => readJsonFile(path))).toBe("cli/invalid-json");
+    expect(() => readJsonFile(path)).toThrow(/bad\.json: not valid JSON/);
+  });
+  it("throws cli/unreadable-json for a missing file or a folder", () => {
+    const dir = tempDir();
+    expect(codeOf(() => readJsonFile(join(dir, "none.json")))).toBe("cli/unreadable-json");
+    expect(() => readJsonFile(dir)).toThrow(/is a folder/);
+  });
+});

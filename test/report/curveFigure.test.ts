@@ -1,0 +1,174 @@
+// curveFigure: the SVG of one analysed curve. Structure checked directly; the drawing as a
+// snapshot with numbers rounded (the habit of Observable Plot's own tests).
+import { describe, it, expect } from "vitest";
+import { JSDOM } from "jsdom";
+import { curveFigure, CURVE_FIGURE_DEFAULTS } from "../../lib/report/curveFigure.ts";
+import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, DotspecError } from "../../lib/index.ts";
+import { simulatedAnalysis } from "./fixture.ts";
+
+const document = new JSDOM("").window.document;
+const { curve, analysis } = simulatedAnalysis("dots/dot-filling.csv");
+const svg = curveFigure(analysis, { document, curve });
+
+/** Parses SVG markup as XML (image/svg+xml): jsdom throws on markup that is not well-formed. */
+function parseXml(markup: string): Document {
+  return new JSDOM(markup, { contentType: "image/svg+xml" }).window.document;
+}
+
+/** An attribute as inherited: from the element or its nearest ancestor that sets it. */
+function inherited(el: Element, name: string): string | null {
+  for (let e: Element | null = el; e; e = e.parentElement) if (e.hasAttribute(name)) return e.getAttribute(name);
+  return null;
+}
+
+/** Numbers rounded to one decimal, so the snapshot does not hang on floating-point noise. */
+function rounded(markup: string): string {
+  return markup.replace(/-?\d+\.\d+(e-?\d+)?/g, (x) => {
+    const r = Number(Number(x).toFixed(1));
+    return String(Object.is(r, -0) ? 0 : r);
+  });
+}
+
+describe("curveFigure(analysis, options)", () => {
+  it("CURVE_FIGURE_DEFAULTS and MULTIPLET_COLORS are locked", () => {
+    expect(CURVE_FIGURE_DEFAULTS).toMatchInlineSnapshot(`
+      {
+        "colors": {
+          "background": "#ffffff",
+          "gap": "#f3e3b5",
+          "line": "#263238",
+          "subtitle": "#5c5c60",
+          "sweeps": "#90a4ae",
+          "title": "#1d1d1f",
+          "zero": "#c9c9c9",
+        },
+        "conductancePanelHeight": 290,
+        "currentPanelHeight": 190,
+        "dotRadius": 4.5,
+        "fontFamily": "system-ui, -apple-system, 'Segoe UI', sans-serif",
+        "headerHeight": 78,
+        "legendRowHeight": 16,
+        "marginLeft": 72,
+        "marginRight": 24,
+        "pointsPerPixel": 2,
+        "width": 760,
+      }
+    `);
+    expect(MULTIPLET_COLORS).toMatchInlineSnapshot(`
+      {
+        "d": "#d39b2a",
+        "f": "#6b8e4e",
+        "none": "#a3a3a3",
+        "other": "#4f4f4f",
+        "p": "#2a7f8f",
+        "s": "#c8553d",
+        "valence": [
+          "#3d5a98",
+          "#8a5a9e",
+          "#5e7d8c",
+          "#a26769",
+        ],
+      }
+    `);
+  });
+
+  it("is well-formed standalone SVG: XML root <svg> with the SVG namespace", () => {
+    expect(svg.startsWith("<svg ")).toBe(true);
+    const root = parseXml(svg).documentElement;
+    expect(root.localName).toBe("svg");
+    expect(root.namespaceURI).toBe("http://www.w3.org/2000/svg");
+    expect(svg).toMatch(/^<svg [^>]*xmlns="http:\/\/www\.w3\.org\/2000\/svg"/);
+  });
+
+  it("the XML check rejects markup that is not well-formed (so the test above means something)", () => {
+    expect(() => parseXml('<svg xmlns="http://www.w3.org/2000/svg"><g></svg>')).toThrow();
+  });
+
+  it("holds two panels (I–V above dI/dV) sharing the width, at their y offsets", () => {
+    const root = parseXml(svg).documentElement;
+    const panels = Array.from(root.children).filter((e) => e.localName === "svg");
+    const D = CURVE_FIGURE_DEFAULTS;
+    expect(panels.map((p) => [p.getAttribute("y"), p.getAttribute("width")])).toEqual([
+      [String(D.headerHeight), String(D.width)],
+      [String(D.headerHeight + D.currentPanelHeight), String(D.width)],
+    ]);
+    expect(root.getAttribute("height")).toBe(String(D.headerHeight + D.currentPanelHeight + D.conductancePanelHeight));
+    expect(panels[0].textContent).toContain("current (pA)");
+    expect(panels[1].textContent).toContain("dI/dV (nS)");
+    expect(panels[1].textContent).toContain("sample bias (V)");
+    // Plot's HTML stylesheet (height: auto) would resize a nested <svg>: it is left out.
+    expect(root.getElementsByTagName("style")).toHaveLength(0);
+  });
+
+  it("wraps the legend into more rows on a narrow figure and moves the panels down by the rows added", () => {
+    const D = CURVE_FIGURE_DEFAULTS;
+    const root = parseXml(curveFigure(analysis, { document, width: 360 })).documentElement;
+    const rows = new Set(Array.from(root.getElementsByTagName("g")[0].getElementsByTagName("rect")).map((r) => r.getAttribute("y"))).size;
+    expect(rows).toBeGreaterThan(1);
+    const header = D.headerHeight + (rows - 1) * D.legendRowHeight;
+    const panels = Array.from(root.children).filter((e) => e.localName === "svg");
+    expect(panels.map((p) => Number(p.getAttribute("y")))).toEqual([header, header + D.currentPanelHeight]);
+    expect(Number(root.getAttribute("height"))).toBe(header + D.currentPanelHeight + D.conductancePanelHeight);
+  });
+
+  it("marks each peak with one circle, coloured by its multiplet (grey without one)", () => {
+    const doc = parseXml(svg);
+    const circles = Array.from(doc.getElementsByTagName("circle"));
+    expect(circles).toHaveLength(analysis.peaks.length);
+    const label = new Map<number, string>();
+    for (const m of analysis.assignment.multiplets) for (const v of m.peaksV) label.set(v, m.label);
+    const expected = analysis.peaks.map((p) => multipletColor(label.get(p.biasV) ?? null)).sort();
+    expect(circles.map((c) => inherited(c, "fill")).sort()).toEqual(expected);
+  });
+
+  it("draws the individual sweeps faintly behind the mean when there are several", () => {
+    const doc = parseXml(svg);
+    const sweepPaths = Array.from(doc.getElementsByTagName("path")).filter((p) => inherited(p, "stroke") === CURVE_FIGURE_DEFAULTS.colors.sweeps);
+    expect(sweepPaths).toHaveLength(curve.sweeps.length);
+  });
+
+  it("titles the figure with the source, the regime and η", () => {
+    const title = parseXml(svg).documentElement.getElementsByTagName("title")[0].textContent;
+    expect(title).toBe("dots/dot-filling.csv  —  shell filling, η = 0.8");
+  });
+
+  it("shades the zero-conductance region in both panels", () => {
+    const fills = Array.from(parseXml(svg).getElementsByTagName("rect")).filter((r) => inherited(r, "fill") === CURVE_FIGURE_DEFAULTS.colors.gap);
+    expect(analysis.gapEdgesV).not.toBeNull();
+    // Two panel rectangles and the legend swatch.
+    expect(fills.length).toBe(3);
+  });
+
+  it("escapes a source name with markup characters", () => {
+    const hostile = simulatedAnalysis('a<b>&"c".csv');
+    const markup = curveFigure(hostile.analysis, { document });
+    expect(parseXml(markup).documentElement.getElementsByTagName("title")[0].textContent).toContain('a<b>&"c".csv');
+  });
+
+  it("matches the stored drawing (numbers rounded to 0.1)", async () => {
+    await expect(rounded(svg)).toMatchFileSnapshot("./__snapshots__/curveFigure.svg");
+  });
+
+  it("throws report/no-document without a document outside a browser", () => {
+    expect(() => curveFigure(analysis)).toThrow(DotspecError);
+    expect(() => curveFigure(analysis)).toThrow(/document/);
+  });
+});
+
+describe("loadCurveFigure()", () => {
+  it("loads Plot and jsdom on demand and returns the same drawing", async () => {
+    const draw = await loadCurveFigure();
+    expect(rounded(draw(analysis, { curve }))).toBe(rounded(svg));
+  });
+});
+
+describe("multipletColor(label)", () => {
+  it("gives shells and valence groups their colours and grey to peaks without a multiplet", () => {
+    expect(multipletColor("s")).toBe(MULTIPLET_COLORS.s);
+    expect(multipletColor("p")).toBe(MULTIPLET_COLORS.p);
+    expect(multipletColor("v1")).toBe(MULTIPLET_COLORS.valence[0]);
+    expect(multipletColor("v5")).toBe(MULTIPLET_COLORS.valence[0]);
+    expect(multipletColor(null)).toBe(MULTIPLET_COLORS.none);
+    expect(multipletColor("x")).toBe(MULTIPLET_COLORS.other);
+  });
+});

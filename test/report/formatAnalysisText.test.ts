@@ -1,0 +1,77 @@
+// formatAnalysisText: the readable report of `dotspec analyze`.
+import { describe, it, expect } from "vitest";
+import { analysisToJson, formatAnalysisText, FORMAT_TEXT_DEFAULTS, type AnalysisJson } from "../../lib/index.ts";
+import { simulatedAnalysis } from "./fixture.ts";
+
+const { analysis } = simulatedAnalysis("dots/dot-07.csv");
+const base = analysisToJson(analysis);
+
+/** The record with Ec set to the example of the CLI specification: 142.3 ± 1.8 mV at η = 0.85. */
+function withExampleEc(): AnalysisJson {
+  const j = structuredClone(base);
+  j.chargingEnergyV = 0.1423;
+  j.uncertainties.chargingEnergyV = 0.0018;
+  j.energies.eta = 0.85;
+  j.energies.etaGiven = true;
+  j.energies.chargingEnergyEV = 0.1423 * 0.85; // 120.955 meV: energy = η × bias (domain brief §2)
+  j.energies.uncertainties.chargingEnergyEV = 0.0018 * 0.85; // 1.53 meV
+  return j;
+}
+
+describe("formatAnalysisText(json)", () => {
+  it("FORMAT_TEXT_DEFAULTS are locked", () => {
+    expect(FORMAT_TEXT_DEFAULTS).toEqual({ color: false, indent: "  ", biasDecimals: 4, uncertaintyDigits: 2, maxDecimals: 3, missing: "—" });
+  });
+
+  it("prints Ec bias-referred and in meV after η as in the specification: `Ec = 142.3 ± 1.8 mV  →  121.0 ± 1.5 meV (η = 0.85)`", () => {
+    // Two significant digits of σ, value rounded to the same place: common practice (no source).
+    expect(formatAnalysisText(withExampleEc())).toMatch(/\n {4}Ec +=  *142\.3 ± 1\.8 mV  →  121\.0 ± 1\.5 meV \(η = 0\.85\)\n/);
+  });
+
+  it("starts with a header line naming the file, the regime and η", () => {
+    const first = formatAnalysisText(base).split("\n")[0];
+    expect(first).toBe("dots/dot-07.csv  ·  shell filling  ·  η = 0.8");
+  });
+
+  it("says when η was not given (energies then equal bias values, η = 1: lib/assign defaults)", () => {
+    const j = structuredClone(base);
+    j.energies.eta = 1;
+    j.energies.etaGiven = false;
+    expect(formatAnalysisText(j).split("\n")[0]).toContain("η = 1 (not given: energies equal bias values)");
+  });
+
+  it("has one peak row per peak with bias in V (4 decimals), and the multiplet label", () => {
+    const text = formatAnalysisText(base);
+    for (const p of base.peaks) {
+      const row = text.split("\n").find((l) => l.includes(` ${p.biasV.toFixed(4)} `));
+      expect(row, `row of the peak at ${p.biasV}`).toBeDefined();
+      expect(row!.trimEnd().endsWith(p.multiplet ?? (base.evidence.satellitePeaksV.includes(p.biasV) ? "satellite" : "—"))).toBe(true);
+    }
+  });
+
+  it("lists each multiplet with found/expected (s of shell filling: 2/2, domain brief §3)", () => {
+    expect(formatAnalysisText(base)).toMatch(/\n {4}CB +s +2\/2 /);
+  });
+
+  it("writes a quantity the regime does not define as — with the reason (Ec in shell tunnelling, domain brief §3)", () => {
+    const j = structuredClone(base);
+    j.regime = "shell-tunneling";
+    j.chargingEnergyV = null;
+    j.energies.chargingEnergyEV = null;
+    expect(formatAnalysisText(j)).toMatch(/\n {4}Ec += — \(not measurable in shell tunnelling\)\n/);
+  });
+
+  it("lists every warning", () => {
+    const j = structuredClone(base);
+    j.warnings = ["first warning", "second warning"];
+    const text = formatAnalysisText(j);
+    expect(text).toContain("Warnings (2)");
+    expect(text).toContain("! first warning\n");
+    expect(text).toContain("! second warning\n");
+  });
+
+  it("has no control codes unless color is asked for", () => {
+    expect(formatAnalysisText(base)).not.toMatch(/\x1b/);
+    expect(formatAnalysisText(base, { color: true })).toMatch(/\x1b\[1m/);
+  });
+});
