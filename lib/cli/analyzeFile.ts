@@ -6,6 +6,7 @@ import { join } from "node:path";
 import {
   analysisToJson,
   analyzeCurve,
+  etaFromMetadata,
   formatAnalysisText,
   isDotspecError,
   readCurveFile,
@@ -87,7 +88,10 @@ export async function analyzeFile(job: AnalyzeJob, settings: AnalyzeBatchSetting
   const { index, file } = job;
   try {
     const { curve, record } = readCurveFile(file);
-    const analysis = analyzeCurve(curve, settings.options);
+    // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
+    const stated = settings.options.eta === undefined ? etaFromMetadata(curve.meta.metadata) : null;
+    const analysis = analyzeCurve(curve, stated ? { ...settings.options, eta: stated.eta } : settings.options);
+    if (stated) analysis.warnings.unshift(`η = ${stated.eta} taken from the file's metadata ("${stated.key}")`);
     const result = analysisToJson(analysis, record);
     let row: SummaryRow | null = null;
     if (settings.outDir !== null && job.outName !== null) {

@@ -41,3 +41,4 @@ export {
   type CellValue,
   type CurveColumns,
 } from "./writeTable.ts";
+export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";

@@ -67,7 +67,7 @@ export const analyzeCommand: CliCommand = {
       .argument("<FILE...>", "curve files or folders of curve files")
       .option(
         "--eta <η>",
-        "voltage-division factor η in (0, 1] that converts bias to energy (default: 1, energies then equal bias values)",
+        "voltage-division factor η in (0, 1] that converts bias to energy (default: the file's `# eta:` metadata line, else 1: energies then equal bias values)",
         numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number greater than 0 and at most 1 (the voltage-division factor η, e.g. 0.85)" }),
       )
       .option(

@@ -1,0 +1,17 @@
+// etaFromMetadata: by construction of the inputs (η must lie in (0, 1], domain brief §2).
+import { describe, it, expect } from "vitest";
+import { etaFromMetadata } from "../../lib/io/etaFromMetadata.ts";
+
+describe("etaFromMetadata(metadata)", () => {
+  it("reads eta, η or voltage division, with a decimal comma too", () => {
+    expect(etaFromMetadata({ eta: "0.88" })).toEqual({ eta: 0.88, key: "eta" });
+    expect(etaFromMetadata({ "Voltage division": "0,9" })).toEqual({ eta: 0.9, key: "Voltage division" });
+    expect(etaFromMetadata({ "η": "1" })).toEqual({ eta: 1, key: "η" });
+  });
+
+  it("ignores values outside (0, 1] and other keys", () => {
+    expect(etaFromMetadata({ eta: "1.2" })).toBeNull();
+    expect(etaFromMetadata({ eta: "n/a" })).toBeNull();
+    expect(etaFromMetadata({ beta: "0.5" })).toBeNull();
+  });
+});
