@@ -52,3 +52,7 @@ export { multipletColor, MULTIPLET_COLORS } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.
 export { loadCurveFigure, type CurveFigureRenderer } from "./report/loadCurveFigure.ts";
 export type { CurveFigureOptions } from "./report/curveFigure.ts";
+
+// Model fit.
+export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./model/fitCurve.ts";
+export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";

@@ -5,7 +5,8 @@
 import type { CliCommand } from "./command.ts";
 import { analyzeCommand } from "./analyze.ts";
 import { simulateCommand } from "./simulate.ts";
+import { fitCommand } from "./fit.ts";
 
-export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, simulateCommand]);
+export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, fitCommand, simulateCommand]);
 
 export type { CliCommand } from "./command.ts";

@@ -1,0 +1,105 @@
+/**
+ * `dotspec fit FILE...`: fit the orthodox-theory model to measured curves, starting from the
+ * peak-based assignment of `dotspec analyze`.
+ */
+import type { Command } from "commander";
+import { analysisToJson, analyzeCurve, etaFromMetadata, fitCurve, fitToJson, formatFitText, listCurveFiles, readCurveFile, writeTextFile, FIT_DEFAULTS, type FitJson } from "../../index.ts";
+import { join, basename, extname } from "node:path";
+import { failureReason } from "../analyzeFile.ts";
+import { EXIT, type CliContext } from "../context.ts";
+import { numberOption } from "../optionValue.ts";
+import type { CliCommand } from "./command.ts";
+
+/** Options of `dotspec fit` as commander hands them over. */
+export interface FitCliOptions {
+  eta?: number;
+  json?: boolean;
+  out?: string;
+  timeLimitMs?: number;
+  maxIterations?: number;
+}
+
+const HELP_AFTER = `
+The fit starts from the peak-based assignment (as dotspec analyze finds it) and adjusts the level
+energies, the charging energy, the tip/substrate rate ratio, the rate scale, the level broadening,
+a current offset and a smooth background (b1·V + b3·V³). η is held fixed: one curve barely
+constrains it (it trades off against every level energy); give the value you trust.
+
+A fit that does not converge says so; the peak-based result then stands, and it is included in
+the JSON output (field "peakBased"). The fit stops at --time-limit-ms in any case.
+
+The fitted rate ratio is a property of the recorded curve, not an instrument setting; any change
+to the tip height or setpoint it suggests must be checked against the instrument's own limits.
+
+Example:
+  dotspec fit dot-07.csv --eta 0.85 --json > fit.json
+`;
+
+export const fitCommand: CliCommand = {
+  name: "fit",
+  register(program: Command, ctx: CliContext) {
+    program
+      .command("fit")
+      .summary("fit the double-barrier model to I–V curves")
+      .description("Fit the orthodox-theory model of a dot in a double-barrier junction to measured I–V curves.")
+      .argument("<FILE...>", "curve files or folders of curve files")
+      .option(
+        "--eta <η>",
+        "voltage-division factor η in (0, 1], held fixed (default: the file's `# eta:` metadata line, else 1)",
+        numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number greater than 0 and at most 1 (the voltage-division factor η, e.g. 0.85)" }),
+      )
+      .option("--json", "print one JSON array, one record per file")
+      .option("--out <DIR>", "write DIR/<name>.fit.json per file")
+      .option(
+        "--time-limit-ms <ms>",
+        `stop each fit after this long (default: ${FIT_DEFAULTS.timeLimitMs})`,
+        numberOption({ min: 0, minExclusive: true, accepted: "a time in milliseconds greater than 0" }),
+      )
+      .option(
+        "--max-iterations <n>",
+        `most Levenberg–Marquardt iterations (default: ${FIT_DEFAULTS.maxIterations})`,
+        numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }),
+      )
+      .addHelpText("after", HELP_AFTER)
+      .action(async (files: string[], opts: FitCliOptions) => {
+        ctx.exitCode = runFit(files, opts, ctx);
+      });
+  },
+};
+
+/**
+ * Runs `dotspec fit`: 0 when every file was fitted (converged or not: a non-converged fit is
+ * reported, not an error), 1 when a file could not be read or analysed.
+ */
+export function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): number {
+  let failed = false;
+  const files: string[] = [];
+  for (const arg of args) {
+    try {
+      files.push(...listCurveFiles([arg]));
+    } catch (err) {
+      ctx.error(`${arg}: ${failureReason(arg, err)}`);
+      failed = true;
+    }
+  }
+  const records: FitJson[] = [];
+  for (const file of files) {
+    try {
+      const { curve, record } = readCurveFile(file);
+      const stated = opts.eta === undefined ? etaFromMetadata(curve.meta.metadata) : null;
+      const eta = opts.eta ?? stated?.eta;
+      const analysis = analyzeCurve(curve, eta === undefined ? {} : { eta });
+      const fit = fitCurve(analysis, { timeLimitMs: opts.timeLimitMs, maxIterations: opts.maxIterations });
+      if (stated) fit.warnings.unshift(`η = ${stated.eta} taken from the file's metadata ("${stated.key}")`);
+      const json = fitToJson(fit, analysisToJson(analysis, record));
+      records.push(json);
+      if (opts.out) writeTextFile(join(opts.out, basename(file, extname(file)) + ".fit.json"), JSON.stringify(json, null, 2) + "\n");
+      if (!opts.json && !ctx.stdoutGone()) ctx.stdout.write(formatFitText(json) + "\n");
+    } catch (err) {
+      ctx.error(`${file}: ${failureReason(file, err)}`);
+      failed = true;
+    }
+  }
+  if (opts.json && !ctx.stdoutGone()) ctx.stdout.write(JSON.stringify(records) + "\n");
+  return failed ? EXIT.failed : EXIT.ok;
+}

@@ -1,0 +1,64 @@
+// `dotspec fit`: curves simulated by the model in closed-form-known regimes (harness FILLING and
+// TUNNELING; Ec = 0.1 eV, η = 0.8, Γtip/Γsub = 10 and 0.01) are fitted; the model issue's bar is
+// Ec within 3 % and the rate ratio within a factor 1.5.
+import { afterAll, describe, expect, it } from "vitest";
+import { existsSync, readFileSync } from "node:fs";
+import { join } from "node:path";
+import { expectClose } from "../helpers/expectClose.ts";
+import { FILLING, TUNNELING, removeTempDirs, run, tempDir, writeCurve } from "./harness.ts";
+
+afterAll(removeTempDirs);
+
+describe("dotspec fit FILE... --eta η", () => {
+  const dir = tempDir();
+  const filling = writeCurve(join(dir, "filling.csv"), FILLING, "exact");
+  const tunneling = writeCurve(join(dir, "tunneling.csv"), TUNNELING, "exact");
+
+  it("--json prints one record per file with Ec, the rate ratio, the levels and χ² (keys of the model issue)", async () => {
+    const r = await run(["fit", filling, tunneling, "--eta", "0.8", "--json"]);
+    expect(r.code).toBe(0);
+    const records = JSON.parse(r.stdout);
+    expect(records).toHaveLength(2);
+    const [f, t] = records;
+    for (const rec of records) for (const key of ["source", "chargingEnergyV", "rateRatio", "levelsV", "reducedChiSquare", "peakBased"]) expect(rec).toHaveProperty(key);
+    expectClose(f.energies.chargingEnergyEV.value, 0.1, { rtol: 0.03, what: "Ec, filling" });
+    expectClose(f.chargingEnergyV, 0.1 / 0.8, { rtol: 0.03, what: "Ec/η in bias" });
+    expect(f.rateRatio).toBeGreaterThan(10 / 1.5);
+    expect(f.rateRatio).toBeLessThan(10 * 1.5);
+    expect(f.regime).toBe("shell-filling");
+    expect(t.rateRatio).toBeGreaterThan(0.01 / 1.5);
+    expect(t.rateRatio).toBeLessThan(0.01 * 1.5);
+    expect(t.regime).toBe("shell-tunneling");
+    // Levels referred to bias: ε/η (closed form from the scenario).
+    expectClose(f.levelsV.CB, [0.5 / 0.8, 0.8 / 0.8], { atol: 0.01 });
+    expectClose(f.levelsV.VB, [-0.6 / 0.8], { atol: 0.01 });
+    expect(f.residuals.biasV.length).toBe(f.residuals.residualA.length);
+  });
+
+  it("prints a readable report and writes DIR/<name>.fit.json with --out", async () => {
+    const out = join(dir, "fits");
+    const r = await run(["fit", filling, "--eta", "0.8", "--out", out]);
+    expect(r.code).toBe(0);
+    expect(r.stdout).toMatch(/Γtip\/Γsub/);
+    expect(r.stdout).toMatch(/model fit converged/);
+    expect(existsSync(join(out, "filling.fit.json"))).toBe(true);
+    expect(JSON.parse(readFileSync(join(out, "filling.fit.json"), "utf8")).source).toBe(filling);
+  });
+
+  it("a fit cut short by its time limit says so and keeps the peak-based result, exit 0", async () => {
+    const r = await run(["fit", filling, "--eta", "0.8", "--json", "--time-limit-ms", "1"]);
+    expect(r.code).toBe(0);
+    const [rec] = JSON.parse(r.stdout);
+    expect(rec.converged).toBe(false);
+    expect(rec.message).toMatch(/time limit/);
+    expect(rec.peakBased.regime).toBe("shell-filling");
+  });
+
+  it("a missing file fails alone (exit 1); a bad option is a usage error (exit 2)", async () => {
+    const r = await run(["fit", join(dir, "missing.csv"), filling, "--eta", "0.8", "--json"]);
+    expect(r.code).toBe(1);
+    expect(r.stderr).toMatch(/missing\.csv/);
+    expect(JSON.parse(r.stdout)).toHaveLength(1);
+    expect((await run(["fit", filling, "--eta", "2"])).code).toBe(2);
+  });
+});
