@@ -13,6 +13,11 @@ export interface EdgeStepWidthOptions {
   rangeV: [number, number];
   /** Smallest and largest FWHM tried, V. Default [0.005, 0.4]. */
   boundsV?: [number, number];
+  /**
+   * −1 for a valence-band step: the fit then works on −V and −I (positionV and rangeV given in
+   * that mirrored frame, so the step rises with the coordinate). Default 1.
+   */
+  sign?: 1 | -1;
 }
 
 /**
@@ -27,12 +32,16 @@ export interface EdgeStepWidthOptions {
  * Measured on the unsmoothed current, the width carries no smoothing bias.
  *
  * @param biasV - ascending bias, V.
- * @param currentA - current, A (for a valence-band step pass −I at −V, so the step rises).
+ * @param currentA - current, A.
  */
 export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<number>, options: EdgeStepWidthOptions): number | null {
   const [from, to] = options.rangeV;
+  const sign = options.sign ?? 1;
   const xs: number[] = [], ys: number[] = [];
-  for (let i = 0; i < biasV.length; i++) if (biasV[i] >= from && biasV[i] <= to) xs.push(biasV[i]), ys.push(currentA[i]);
+  for (let i = 0; i < biasV.length; i++) {
+    const x = sign * biasV[i];
+    if (x >= from && x <= to) xs.push(x), ys.push(sign * currentA[i]);
+  }
   if (xs.length < 5) return null;
   const x0 = options.positionV;
   const residual = (s: number): { r: number; c: number } => {

@@ -350,7 +350,7 @@ interface LocalStepFit {
   /** Shift of the step position, V (with `withShift`), and Var(shift)/σ². */
   shift: number;
   shiftVar: number;
-  /** RMS residual of the fit, A. */
+  /** RMS residual of the fit, A (with `withShift`; 0 otherwise). */
   rms: number;
 }
 
@@ -395,19 +395,17 @@ function localStepFit(
   }
   const ata = new Float64Array(m * m);
   const atb = new Float64Array(m);
-  for (let r = 0; r < m; r++) {
-    const or = r * rows;
-    let t = 0;
-    for (let i = 0; i < rows; i++) t += cols[or + i] * current[lo + i];
-    atb[r] = t;
-    for (let c = r; c < m; c++) {
-      const oc = c * rows;
-      let v = 0;
-      for (let i = 0; i < rows; i++) v += cols[or + i] * cols[oc + i];
-      ata[r * m + c] = v;
-      ata[c * m + r] = v;
+  const row = new Float64Array(m);
+  for (let i = 0; i < rows; i++) {
+    for (let r = 0; r < m; r++) row[r] = cols[r * rows + i];
+    const y = current[lo + i];
+    for (let r = 0; r < m; r++) {
+      const v = row[r];
+      atb[r] += v * y;
+      for (let c = r; c < m; c++) ata[r * m + c] += v * row[c];
     }
   }
+  for (let r = 0; r < m; r++) for (let c = 0; c < r; c++) ata[r * m + c] = ata[c * m + r];
   // Scale to unit diagonal before inverting (the columns differ by orders of magnitude).
   const d = new Float64Array(m);
   for (let r = 0; r < m; r++) d[r] = Math.sqrt(ata[r * m + r]) || 1;
@@ -418,10 +416,13 @@ function localStepFit(
   const coef = new Float64Array(m);
   for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) coef[r] += inv(r, c) * atb[c];
   let ss = 0;
-  for (let i = 0; i < rows; i++) {
-    let f = 0;
-    for (let r = 0; r < m; r++) f += cols[r * rows + i] * coef[r];
-    ss += (current[lo + i] - f) ** 2;
+  if (withShift) {
+    // The residual RMS widens the position error; the significance test does not use it.
+    for (let i = 0; i < rows; i++) {
+      let f = 0;
+      for (let r = 0; r < m; r++) f += cols[r * rows + i] * coef[r];
+      ss += (current[lo + i] - f) ** 2;
+    }
   }
   const rms = Math.sqrt(ss / Math.max(1, rows - m));
   const step = coef[self];

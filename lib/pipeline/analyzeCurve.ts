@@ -84,6 +84,8 @@ export const ANALYZE_DEFAULTS = {
   edgePeakSnrMin: 5,
   /** … and at least this fraction of the SNR of the band's strongest peak. */
   edgePeakSnrFraction: 0.3,
+  /** The first pass looks for the gap-edge peaks this far beyond the zero-conductance region, V. */
+  firstPassReachV: 0.6,
   /** The measured width is kept within these bounds, mV. */
   peakWidthBoundsMV: [10, 200] as readonly [number, number],
   /** The default minimum separation is this fraction of the window … */
@@ -135,8 +137,8 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     s.record.usedMeasured ? undefined : ({ quantity: "current", sigmaA: s.record.noiseCurrentA } as const);
   // "full": each peak tested for a significant current step and refined on the current;
   // "sweeps": single sweeps, which only supply positions near peaks already found.
-  const peaksOf = (s: ConductanceResult, didv: Float64Array, mode: "full" | "sweeps") =>
-    findPeaks(s.biasV, didv, {
+  const peaksOf = (s: ConductanceResult, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length) =>
+    findPeaks(s.biasV.subarray(lo, hi), didv.subarray(lo, hi), {
       noiseS: Math.max(s.record.noiseConductanceS, Number.MIN_VALUE),
       minProminenceSigma: mode === "full" ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
       minStepSigma,
@@ -144,11 +146,13 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       rawNoise: rawNoise(s),
       expectedFwhmV: peakWidthMV / 1000,
       refineOnCurrent: !s.record.usedMeasured,
-      current: mode === "full" ? { currentA: s.currentA, noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) } : undefined,
+      current: mode === "full" ? { currentA: s.currentA.subarray(lo, hi), noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) } : undefined,
     });
   if (windowMV === "auto" && options.peakWidthMV === undefined) {
-    // The first pass only has to find the clear gap-edge peaks: prominence alone does.
-    const widths = edgeWidths(signal, peaksOf(signal, signal.didvS, "full").peaks).map((w) => w * 1000);
+    // The first pass only has to find the gap-edge peaks: it looks near the zero-conductance region.
+    const [lo, hi] = nearGap(signal, A.firstPassReachV);
+    const edgePeaks = peaksOf(signal, signal.didvS, "full", lo, hi).peaks.map((p) => ({ ...p, index: p.index + lo }));
+    const widths = edgeWidths(signal, edgePeaks).map((w) => w * 1000);
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
@@ -266,13 +270,19 @@ function edgeWidths(signal: ConductanceResult, peaks: Peak[]): number[] {
     const gapSide = gapSideFwhm(signal.biasV, signal.didvS, band[0]);
     let right = band.length > 1 ? x0 + 0.5 * (sign * band[1].biasV - x0) : x0 + 0.15;
     if (gapSide !== null) right = Math.min(right, x0 + 0.5 * gapSide);
-    const x = Array.from(biasV, (v) => sign * v);
-    const y = Array.from(currentA, (i) => sign * i);
-    const order = sign > 0 ? null : x.map((_, i) => x.length - 1 - i);
-    const xs = order ? order.map((i) => x[i]) : x;
-    const ys = order ? order.map((i) => y[i]) : y;
-    const w = edgeStepWidth(xs, ys, { positionV: x0, rangeV: [Math.max(0, x0 - 0.4), right] });
+    const w = edgeStepWidth(biasV, currentA, { positionV: x0, rangeV: [Math.max(0, x0 - 0.4), right], sign: sign as 1 | -1 });
     if (w !== null) out.push(w);
   }
   return out;
+}
+
+/** Index range [lo, hi) of the bias points within `reachV` of the zero-conductance region (all points without one). */
+function nearGap(signal: ConductanceResult, reachV: number): [number, number] {
+  const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
+  const n = signal.biasV.length;
+  if (!edges) return [0, n];
+  let lo = 0, hi = n;
+  while (lo < n - 1 && signal.biasV[lo] < edges[0] - reachV) lo++;
+  while (hi > lo + 1 && signal.biasV[hi - 1] > edges[1] + reachV) hi--;
+  return [lo, hi];
 }

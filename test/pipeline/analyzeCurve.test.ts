@@ -84,6 +84,7 @@ describe("analyzeCurve(curve, options): round trip through the model", () => {
       firstPassPeakWidthMV: 40,
       edgePeakSnrMin: 5,
       edgePeakSnrFraction: 0.3,
+      firstPassReachV: 0.6,
       peakWidthBoundsMV: [10, 200],
       separationPerWindow: 0.5,
       minSeparationFloorMV: 10,
