@@ -26,9 +26,13 @@ const analysis = analyzeCurve(curve, { eta: 0.8 });
 const csv = formatCurveCsv({ biasV: sim.biasV, currentA: sim.currentA });
 
 describe("one 2,000-point curve", () => {
-  bench("analyzeCurve (conductance, peaks, assignment)", () => {
-    analyzeCurve(curve, { eta: 0.8 });
-  });
+  bench(
+    "analyzeCurve (conductance, peaks, assignment)",
+    () => {
+      analyzeCurve(curve, { eta: 0.8 });
+    },
+    { warmupIterations: 100, time: 3000 },
+  );
   bench("parseCurveText (2,000 rows)", () => {
     parseCurveText(csv);
   });

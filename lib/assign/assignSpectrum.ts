@@ -449,8 +449,16 @@ function fillingShells(cb: Indexed[]): { shells: Indexed[][][]; leftover: Indexe
         offLadder.push(cb[k]);
         continue;
       }
-      if (run.length === 0) excess ??= d - ec0;
-      else if (excess !== null && excess > 0 && d - ec0 > D.newShellExcessFraction * excess) break;
+      if (run.length === 0) {
+        // The shell's level entered early (its charging satellite) sits one Ec before the
+        // shell's first peak and is much weaker: it must not set the s→p jump.
+        const next = cb[k + 1];
+        if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.satelliteStepRatioMax * next.peak.stepA) {
+          offLadder.push(cb[k]);
+          continue;
+        }
+        excess ??= d - ec0;
+      } else if (excess !== null && excess > 0 && d - ec0 > D.newShellExcessFraction * excess) break;
       run.push(cb[k]);
       prev = cb[k];
     }
