@@ -3,19 +3,9 @@
  * in ≤ 2 ms). Runs under plain Node with tsx, as the command does. Part of `npm run bench`.
  */
 import { simulateCurve, analyzeCurve, fitCurve, type Curve } from "../lib/index.ts";
+import { BENCH_SCENARIO } from "../test/fixtures/exampleScenario.ts";
 
-const scenario = {
-  cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
-  vb: [{ energyEV: -0.6, degeneracy: 2 }, { energyEV: -0.8, degeneracy: 4 }],
-  chargingEnergyEV: 0.1,
-  eta: 0.8,
-  tipRatePerS: 1e9,
-  substrateRatePerS: 1e8,
-  temperatureK: 4.5,
-  broadeningEV: 0.01,
-  bias: { fromV: -2.0, toV: 2.2, stepV: 0.0021 },
-  noise: { relative: 0.003, seed: 7 },
-};
+const scenario = BENCH_SCENARIO;
 const sim = simulateCurve(scenario);
 const curve: Curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "bench", metadata: {} } };
 const analysis = analyzeCurve(curve, { eta: 0.8 });

@@ -6,19 +6,9 @@
 import { bench, describe } from "vitest";
 import { simulateCurve, analyzeCurve, parseCurveText, formatCurveCsv, type Curve } from "../lib/index.ts";
 import { fitCurve } from "../lib/model/fitCurve.ts";
+import { BENCH_SCENARIO } from "../test/fixtures/exampleScenario.ts";
 
-const scenario = {
-  cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
-  vb: [{ energyEV: -0.6, degeneracy: 2 }, { energyEV: -0.8, degeneracy: 4 }],
-  chargingEnergyEV: 0.1,
-  eta: 0.8,
-  tipRatePerS: 1e9,
-  substrateRatePerS: 1e8,
-  temperatureK: 4.5,
-  broadeningEV: 0.01,
-  bias: { fromV: -2.0, toV: 2.2, stepV: 0.0021 }, // 2,001 points
-  noise: { relative: 0.003, seed: 7 },
-};
+const scenario = BENCH_SCENARIO;
 const spOnly = { ...scenario, vb: [] };
 const sim = simulateCurve(scenario);
 const curve: Curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "bench", metadata: {} } };

@@ -50,25 +50,22 @@ export interface SpectrumQuantities {
 /** 1σ uncertainties of {@link SpectrumQuantities}, same keys, V. */
 export type SpectrumUncertainties = { [K in keyof SpectrumQuantities]: SpectrumQuantities[K] };
 
-/** The same quantities as energies after voltage division (eV), with the η used. */
-export interface SpectrumEnergies {
-  eta: number;
-  /** Whether η came from the user (false: the default 1 was used and energies equal bias values). */
-  etaGiven: boolean;
+/** The quantities as energies after voltage division, eV (null where the regime does not define them). */
+export interface EnergyValues {
   gapEV: number | null;
   chargingEnergyEV: number | null;
   singleParticleGapEV: number | null;
   levelSpacingSPEV: number | null;
   levelSpacingPDEV: number | null;
   valenceSpacingsEV: number[];
-  uncertainties: {
-    gapEV: number | null;
-    chargingEnergyEV: number | null;
-    singleParticleGapEV: number | null;
-    levelSpacingSPEV: number | null;
-    levelSpacingPDEV: number | null;
-    valenceSpacingsEV: number[];
-  };
+}
+
+/** The same quantities as energies after voltage division (eV), with the η used and 1σ uncertainties. */
+export interface SpectrumEnergies extends EnergyValues {
+  eta: number;
+  /** Whether η came from the user (false: the default 1 was used and energies equal bias values). */
+  etaGiven: boolean;
+  uncertainties: EnergyValues;
 }
 
 /** Why the regime was chosen: the numbers the rules looked at. */

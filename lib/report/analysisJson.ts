@@ -3,6 +3,7 @@
  * `--out` writes. Plain data, bias-referred values in volts, energies in eV.
  */
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
+import type { Multiplet, RegimeEvidence, SpectrumEnergies, SpectrumUncertainties } from "../assign/assignSpectrum.ts";
 import type { ImportRecord } from "../io/parseCurveText.ts";
 
 /** Version of the record layout; bumped when a field changes meaning. */
@@ -25,17 +26,8 @@ export interface AnalysisJson {
   levelSpacingPDV: number | null;
   /** Spacings between successive VB groups from the gap edge, V. */
   valenceSpacingsV: number[];
-  multiplets: {
-    band: "CB" | "VB";
-    label: string;
-    degeneracy: number | null;
-    /** Peak positions sorted by |bias| from the gap edge, V. */
-    peaksV: number[];
-    peakUncertaintiesV: number[];
-    found: number;
-    expected: number | null;
-    subgroups: number[];
-  }[];
+  /** Peak positions of each multiplet sorted by |bias| from the gap edge, V. */
+  multiplets: Multiplet[];
   peaks: {
     biasV: number;
     biasUncertaintyV: number;
@@ -51,34 +43,10 @@ export interface AnalysisJson {
     /** Label of the multiplet holding the peak, or null (satellite or unassigned). */
     multiplet: string | null;
   }[];
-  energies: {
-    eta: number;
-    etaGiven: boolean;
-    gapEV: number | null;
-    chargingEnergyEV: number | null;
-    singleParticleGapEV: number | null;
-    levelSpacingSPEV: number | null;
-    levelSpacingPDEV: number | null;
-    valenceSpacingsEV: number[];
-    uncertainties: {
-      gapEV: number | null;
-      chargingEnergyEV: number | null;
-      singleParticleGapEV: number | null;
-      levelSpacingSPEV: number | null;
-      levelSpacingPDEV: number | null;
-      valenceSpacingsEV: number[];
-    };
-  };
+  energies: SpectrumEnergies;
   /** 1σ uncertainties of the bias-referred quantities, V. */
-  uncertainties: {
-    gapV: number | null;
-    chargingEnergyV: number | null;
-    singleParticleGapV: number | null;
-    levelSpacingSPV: number | null;
-    levelSpacingPDV: number | null;
-    valenceSpacingsV: number[];
-  };
-  evidence: { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null; satellitePeaksV: number[]; reasons: string[] };
+  uncertainties: SpectrumUncertainties;
+  evidence: RegimeEvidence;
   settings: CurveAnalysis["settings"] & {
     biasStepV: number;
     noiseCurrentA: number;

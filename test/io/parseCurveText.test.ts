@@ -12,17 +12,9 @@ import { expectClose } from "../helpers/expectClose.ts";
 import { isDotspecError } from "../../lib/util/errors.ts";
 import { PARSE_DEFAULTS, parseCurveText, type ParseOptions, type ParsedCurve } from "../../lib/io/parseCurveText.ts";
 import { ACCEPTED_UNITS, parseUnit, toSI } from "../../lib/io/units.ts";
+import { errorOf } from "../helpers/errors.ts";
 
 /** The DotspecError thrown by f (fails the test when f returns or throws something else). */
-function errorOf(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (!isDotspecError(e)) throw e;
-    return e;
-  }
-  throw new Error("expected a DotspecError, but the call returned");
-}
 
 const parse = (text: string, options?: ParseOptions) => parseCurveText(text, options);
 const arr = (a: ArrayLike<number>) => Array.from(a);

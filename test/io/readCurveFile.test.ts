@@ -8,9 +8,9 @@ import { tmpdir } from "node:os";
 import { join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { expectClose } from "../helpers/expectClose.ts";
-import { isDotspecError } from "../../lib/util/errors.ts";
 import { parseCurveText } from "../../lib/io/parseCurveText.ts";
 import { listCurveFiles, readCurveFile } from "../../lib/io/readCurveFile.ts";
+import { errorOf } from "../helpers/errors.ts";
 
 const FIXTURES = fileURLToPath(new URL("../fixtures/io/", import.meta.url));
 const fixture = (name: string) => join(FIXTURES, name);
@@ -23,15 +23,6 @@ afterAll(() => {
   if (tmp) rmSync(tmp, { recursive: true, force: true });
 });
 
-function errorOf(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (!isDotspecError(e)) throw e;
-    return e;
-  }
-  throw new Error("expected a DotspecError, but the call returned");
-}
 
 describe("readCurveFile", () => {
   it("readCurveFile(path) gives the same result as parseCurveText on the file's text, with source = path", () => {

@@ -9,9 +9,9 @@ import { join } from "node:path";
 import fc from "fast-check";
 import { csvParse, csvParseRows } from "d3-dsv";
 import { expectClose } from "../helpers/expectClose.ts";
-import { isDotspecError } from "../../lib/util/errors.ts";
 import { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, writeTextFile } from "../../lib/io/writeTable.ts";
 import { parseCurveText } from "../../lib/io/parseCurveText.ts";
+import { errorOf } from "../helpers/errors.ts";
 
 let tmp = "";
 beforeAll(() => {
@@ -21,15 +21,6 @@ afterAll(() => {
   if (tmp) rmSync(tmp, { recursive: true, force: true });
 });
 
-function errorOf(f: () => unknown): { code: string; message: string } {
-  try {
-    f();
-  } catch (e) {
-    if (!isDotspecError(e)) throw e;
-    return e;
-  }
-  throw new Error("expected a DotspecError, but the call returned");
-}
 
 describe("formatCsv", () => {
   it("formatCsv(rows) quotes cells so that d3-dsv's csvParse reads them back", () => {

@@ -3,6 +3,7 @@
 // the Fermi-function width.
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
+import { fwhm } from "../helpers/lineShape.ts";
 import { bandLadders, exactCurrent, currentSteps, fastCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
 import { ELEMENTARY_CHARGE_C as E, BOLTZMANN_EV_PER_K as KB, FERMI_DERIVATIVE_FWHM_KT } from "../../lib/util/constants.ts";
 
@@ -20,19 +21,6 @@ function model(partial: Partial<DotModel>): DotModel {
   };
 }
 
-/** FWHM of a sampled single peak by linear interpolation of the half-maximum crossings. */
-function fwhm(x: ArrayLike<number>, y: ArrayLike<number>): number {
-  let iMax = 0;
-  for (let i = 1; i < y.length; i++) if (y[i] > y[iMax]) iMax = i;
-  const half = y[iMax] / 2;
-  let l = iMax;
-  while (l > 0 && y[l] > half) l--;
-  let r = iMax;
-  while (r < y.length - 1 && y[r] > half) r++;
-  const xl = x[l] + ((half - y[l]) / (y[l + 1] - y[l])) * (x[l + 1] - x[l]);
-  const xr = x[r - 1] + ((half - y[r - 1]) / (y[r] - y[r - 1])) * (x[r] - x[r - 1]);
-  return xr - xl;
-}
 
 describe("exactCurrent(model, biasV): plateau currents", () => {
   it("one non-degenerate level carries e·Γ1·Γ2/(Γ1 + Γ2) (orthodox theory, closed form)", () => {

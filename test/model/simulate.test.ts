@@ -1,36 +1,15 @@
 // simulateCurve: line widths against closed forms, noise statistics, scenario validation.
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
+import { fwhm } from "../helpers/lineShape.ts";
+import { EXAMPLE_SCENARIO } from "../fixtures/exampleScenario.ts";
 import { simulateCurve, lockInKernel, SIMULATE_DEFAULTS } from "../../lib/model/simulate.ts";
 import { parseScenario, SCENARIO_DEFAULTS } from "../../lib/model/scenario.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA, BOLTZMANN_EV_PER_K } from "../../lib/util/constants.ts";
 import { DotspecError } from "../../lib/util/errors.ts";
 
-const base = {
-  cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
-  vb: [{ energyEV: -0.6, degeneracy: 2 }, { energyEV: -0.8, degeneracy: 4 }],
-  chargingEnergyEV: 0.1,
-  eta: 0.8,
-  tipRatePerS: 1e9,
-  substrateRatePerS: 1e8,
-  temperatureK: 4.5,
-  broadeningEV: 0.01,
-  relaxationRatePerS: 1e12,
-  bias: { fromV: -1.6, toV: 2.2, stepV: 0.005 },
-  noise: { relative: 0.003, seed: 7 },
-};
+const base = EXAMPLE_SCENARIO;
 
-function fwhm(x: ArrayLike<number>, y: ArrayLike<number>): number {
-  let iMax = 0;
-  for (let i = 1; i < y.length; i++) if (y[i] > y[iMax]) iMax = i;
-  const half = y[iMax] / 2;
-  let l = iMax, r = iMax;
-  while (l > 0 && y[l] > half) l--;
-  while (r < y.length - 1 && y[r] > half) r++;
-  const xl = x[l] + ((half - y[l]) / (y[l + 1] - y[l])) * (x[l + 1] - x[l]);
-  const xr = x[r - 1] + ((half - y[r - 1]) / (y[r] - y[r - 1])) * (x[r] - x[r - 1]);
-  return xr - xl;
-}
 
 /** One tunnelling-limited level at 0.5 eV, probed around its peak. */
 function singleLine(extra: Record<string, unknown>) {

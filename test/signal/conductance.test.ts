@@ -3,23 +3,12 @@ import { describe, expect, it } from "vitest";
 import type { Curve } from "../../lib/curve.ts";
 import { CONDUCTANCE_DEFAULTS, conductance } from "../../lib/signal/conductance.ts";
 import { savitzkyGolay, savitzkyGolayNoiseGain } from "../../lib/signal/savitzkyGolay.ts";
-import { isDotspecError } from "../../lib/util/errors.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { erfStep, erfStepDerivative, peakShape, uniformBias } from "./fixtures/curves.ts";
 import { whiteNoise } from "./fixtures/random.ts";
 import { filteredPeak } from "./fixtures/windowFactors.ts";
+import { expectError } from "../helpers/errors.ts";
 
-function expectError(f: () => unknown, code: string, ...fragments: string[]): void {
-  try {
-    f();
-  } catch (err) {
-    expect(isDotspecError(err), String(err)).toBe(true);
-    expect((err as { code: string }).code).toBe(code);
-    for (const fragment of fragments) expect((err as Error).message).toContain(fragment);
-    return;
-  }
-  expect.fail(`expected a DotspecError ${code}`);
-}
 
 function makeCurve(biasV: Float64Array, sweeps: Float64Array[], didvS: Float64Array | null = null): Curve {
   const currentA = new Float64Array(biasV.length);

@@ -7,22 +7,11 @@ import {
   medianAbsoluteDeviation,
   whiteNoiseSigma,
 } from "../../lib/signal/noise.ts";
-import { isDotspecError } from "../../lib/util/errors.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { steppedCurrent } from "./fixtures/noiseEstimators.ts";
 import { mulberry32, whiteNoise } from "./fixtures/random.ts";
+import { expectError } from "../helpers/errors.ts";
 
-function expectError(f: () => unknown, code: string, ...fragments: string[]): void {
-  try {
-    f();
-  } catch (err) {
-    expect(isDotspecError(err), String(err)).toBe(true);
-    expect((err as { code: string }).code).toBe(code);
-    for (const fragment of fragments) expect((err as Error).message).toContain(fragment);
-    return;
-  }
-  expect.fail(`expected a DotspecError ${code}`);
-}
 
 describe("median(values)", () => {
   it("of small arrays (hand-computed)", () => {

@@ -1,20 +1,9 @@
 import { describe, expect, it } from "vitest";
 import { RESAMPLE_DEFAULTS, isUniformStep, resampleUniform } from "../../lib/signal/resample.ts";
-import { isDotspecError } from "../../lib/util/errors.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { mulberry32 } from "./fixtures/random.ts";
+import { expectError } from "../helpers/errors.ts";
 
-function expectError(f: () => unknown, code: string, ...fragments: string[]): void {
-  try {
-    f();
-  } catch (err) {
-    expect(isDotspecError(err), String(err)).toBe(true);
-    expect((err as { code: string }).code).toBe(code);
-    for (const fragment of fragments) expect((err as Error).message).toContain(fragment);
-    return;
-  }
-  expect.fail(`expected a DotspecError ${code}`);
-}
 
 /** A strictly ascending, irregular bias axis from −1.5 V to 2 V (seeded). */
 function irregularBias(n: number, seed: number): Float64Array {

@@ -8,9 +8,9 @@ import {
   savitzkyGolayNoiseGain,
   savitzkyGolayWeights,
 } from "../../lib/signal/savitzkyGolay.ts";
-import { isDotspecError } from "../../lib/util/errors.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { whiteNoise } from "./fixtures/random.ts";
+import { expectError } from "../helpers/errors.ts";
 
 /** ml-savitzky-golay's default export called directly (CommonJS default-export trap handled here too). */
 type Reference = typeof sg.default;
@@ -22,18 +22,6 @@ function scaled(values: number[], norm: number): number[] {
   return values.map((v) => v / norm);
 }
 
-function expectError(f: () => unknown, code: string, ...fragments: string[]): void {
-  try {
-    f();
-  } catch (err) {
-    expect(isDotspecError(err), String(err)).toBe(true);
-    const e = err as Error & { code: string };
-    expect(e.code).toBe(code);
-    for (const fragment of fragments) expect(e.message).toContain(fragment);
-    return;
-  }
-  expect.fail(`expected a DotspecError ${code}`);
-}
 
 describe("savitzkyGolayWeights(windowSamples, order, derivative)", () => {
   it("smoothing weights equal the published tables", () => {
