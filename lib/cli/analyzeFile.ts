@@ -13,6 +13,7 @@ import {
   summaryRow,
   writeTextFile,
   type AnalyzeOptions,
+  type ReadCurveOptions,
   type CurveFigureRenderer,
   type SummaryRow,
 } from "../index.ts";
@@ -21,6 +22,8 @@ import {
 export interface AnalyzeBatchSettings {
   /** Options for analyzeCurve. */
   options: AnalyzeOptions;
+  /** Importer options (units for headers that give none). */
+  read: ReadCurveOptions;
   /** Output JSON (true) or the readable report (false). */
   json: boolean;
   /** ANSI emphasis in the readable report. */
@@ -87,7 +90,7 @@ export function failureReason(file: string, err: unknown): string {
 export async function analyzeFile(job: AnalyzeJob, settings: AnalyzeBatchSettings, figure: () => Promise<CurveFigureRenderer>): Promise<AnalyzeJobResult> {
   const { index, file } = job;
   try {
-    const { curve, record } = readCurveFile(file);
+    const { curve, record } = readCurveFile(file, settings.read);
     // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
     const stated = settings.options.eta === undefined ? etaFromMetadata(curve.meta.metadata) : null;
     const analysis = analyzeCurve(curve, stated ? { ...settings.options, eta: stated.eta } : settings.options);

@@ -293,3 +293,23 @@ it("never writes beside its inputs: a run without --out leaves the input folder 
   expect(readdirSync(folder)).toEqual(["dot.csv"]);
   expect(existsSync(join(folder, "summary.csv"))).toBe(false);
 });
+
+describe("dotspec analyze --bias-unit U --current-unit U (headerless files)", () => {
+  it("reads a headerless two-column file in mV and pA with the units given, and finds the same peaks (SI prefixes: 1 mV = 1e-3 V, 1 pA = 1e-12 A)", async () => {
+    const csv = readFileSync(filling, "utf8").trimEnd().split("\n").slice(1);
+    const headerless = join(dir, "headerless.dat");
+    writeFileSync(headerless, csv.map((line) => { const [v, i] = line.split(",").map(Number); return `${v * 1e3} ${i * 1e12}`; }).join("\n") + "\n");
+    const r = await run(["analyze", headerless, "--eta", "0.8", "--json", "--bias-unit", "mV", "--current-unit", "pA"]);
+    expect(r.code).toBe(0);
+    const [rec] = parseRecords(r.stdout);
+    const s = rec.multiplets.find((m) => m.label === "s")!;
+    expectClose(s.peaksV, [chargingPeakV(0.5, 0), chargingPeakV(0.5, 1)], { atol: PEAK_ATOL_V });
+    expect(rec.warnings.join(" ")).not.toMatch(/assumed/);
+  });
+
+  it("rejects an unknown unit as a usage error naming the accepted ones (exit 2)", async () => {
+    const r = await run(["analyze", filling, "--bias-unit", "furlong"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/mV/);
+  });
+});

@@ -6,6 +6,8 @@ import { basename, dirname, extname, join, resolve } from "node:path";
 import type { Command } from "commander";
 import {
   CONDUCTANCE_DEFAULTS,
+  BIAS_UNITS,
+  CURRENT_UNITS,
   CURVE_FILE_EXTENSIONS,
   FIND_PEAKS_DEFAULTS,
   formatCsv,
@@ -20,10 +22,11 @@ import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
+import { readOptions, unitOption, type UnitCliOptions } from "../unitOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec analyze` as commander hands them over. */
-export interface AnalyzeCliOptions {
+export interface AnalyzeCliOptions extends UnitCliOptions {
   eta?: number;
   windowMv?: number | "auto";
   order?: number;
@@ -86,6 +89,8 @@ export const analyzeCommand: CliCommand = {
         numberOption({ min: 0, accepted: "a number of standard errors, 0 or more (e.g. 5)" }),
       )
       .option("--use-measured", "use the file's measured dI/dV column (lock-in) instead of differentiating the current")
+      .option("--bias-unit <unit>", `unit of a bias column whose header gives none (${BIAS_UNITS.join(", ")}; default V, with a warning)`, unitOption("bias", BIAS_UNITS))
+      .option("--current-unit <unit>", "unit of current columns whose header gives none (A, mA, µA, nA, pA, fA; default A, with a warning)", unitOption("current", CURRENT_UNITS))
       .option("--json", "print one JSON array of the analysis records on stdout instead of the report")
       .option("--out <DIR>", "write DIR/<name>.json, DIR/<name>.svg per file and DIR/summary.csv")
       .option(
@@ -196,6 +201,7 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
   const json = opts.json === true;
   const settings: AnalyzeBatchSettings = {
     options: analyzeOptions,
+    read: readOptions(opts),
     json,
     color: ctx.stdout.isTTY === true && !ctx.env.NO_COLOR && !json,
     outDir: outDir ?? null,

@@ -3,15 +3,16 @@
  * peak-based assignment of `dotspec analyze`.
  */
 import type { Command } from "commander";
-import { analysisToJson, analyzeCurve, etaFromMetadata, fitCurve, fitToJson, formatFitText, listCurveFiles, readCurveFile, writeTextFile, FIT_DEFAULTS, type FitJson } from "../../index.ts";
+import { BIAS_UNITS, CURRENT_UNITS, analysisToJson, analyzeCurve, etaFromMetadata, fitCurve, fitToJson, formatFitText, listCurveFiles, readCurveFile, writeTextFile, FIT_DEFAULTS, type FitJson } from "../../index.ts";
 import { join, basename, extname } from "node:path";
 import { failureReason } from "../analyzeFile.ts";
 import { EXIT, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
+import { readOptions, unitOption, type UnitCliOptions } from "../unitOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec fit` as commander hands them over. */
-export interface FitCliOptions {
+export interface FitCliOptions extends UnitCliOptions {
   eta?: number;
   json?: boolean;
   out?: string;
@@ -48,6 +49,8 @@ export const fitCommand: CliCommand = {
         "voltage-division factor η in (0, 1], held fixed (default: the file's `# eta:` metadata line, else 1)",
         numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number greater than 0 and at most 1 (the voltage-division factor η, e.g. 0.85)" }),
       )
+      .option("--bias-unit <unit>", `unit of a bias column whose header gives none (${BIAS_UNITS.join(", ")}; default V)`, unitOption("bias", BIAS_UNITS))
+      .option("--current-unit <unit>", "unit of current columns whose header gives none (A, mA, µA, nA, pA, fA; default A)", unitOption("current", CURRENT_UNITS))
       .option("--json", "print one JSON array, one record per file")
       .option("--out <DIR>", "write DIR/<name>.fit.json per file")
       .option(
@@ -85,7 +88,7 @@ export function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): nu
   const records: FitJson[] = [];
   for (const file of files) {
     try {
-      const { curve, record } = readCurveFile(file);
+      const { curve, record } = readCurveFile(file, readOptions(opts));
       const stated = opts.eta === undefined ? etaFromMetadata(curve.meta.metadata) : null;
       const eta = opts.eta ?? stated?.eta;
       const analysis = analyzeCurve(curve, eta === undefined ? {} : { eta });
