@@ -360,8 +360,9 @@ function chooseAutomaticWindow(
  *    sample std. Its rms over points divided by √(sweeps) measures σ_G from the data
  *    (noiseConductanceSweepsS); a value above 1.5 σ_G gives a warning (noise not white, or the
  *    sweeps differ).
- * 8. useMeasured with a measured dI/dV: didvS is that conductance (resampled, not smoothed) and
- *    σ_G its white-noise σ (an underestimate if the lock-in output is low-pass filtered).
+ * 8. useMeasured with a measured dI/dV: didvS is that conductance (resampled), smoothed by the
+ *    same filter (derivative 0), and σ_G its white-noise σ times the filter's noise gain (an
+ *    underestimate if the lock-in output is already low-pass filtered).
  *
  * References
  * ----------
@@ -489,8 +490,10 @@ export function conductance(curve: Curve, options: ConductanceOptions = {}): Con
   let noiseConductanceS: number;
   let usedMeasured = false;
   if (useMeasured && measured) {
-    didvS = Float64Array.from(measured);
-    noiseConductanceS = whiteNoiseSigmaUnchecked(didvS, 3);
+    // Smoothed with the same window (derivative 0), so its peaks are found like the derivative's.
+    const raw = Float64Array.from(measured);
+    didvS = savitzkyGolayUnchecked(raw, windowSamples, order, 0, stepV);
+    noiseConductanceS = whiteNoiseSigmaUnchecked(raw, 3) * noiseGainUnchecked(windowSamples, order, 0);
     usedMeasured = true;
   } else {
     if (useMeasured) warnings.push("useMeasured: the curve has no measured dI/dV, so the current was differentiated.");
