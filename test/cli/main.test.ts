@@ -1,4 +1,5 @@
 // main(argv, io): help, version, and the registry of sub-commands.
+// Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 import { describe, it, expect } from "vitest";
 import { readFileSync } from "node:fs";
 import { EXIT } from "../../lib/cli/main.ts";

@@ -1,4 +1,5 @@
 // numberOption: the parser behind --eta, --order, --window-mv, --min-step-sigma, --jobs.
+// Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 import { describe, it, expect } from "vitest";
 import { InvalidArgumentError } from "commander";
 import { numberOption } from "../../lib/cli/optionValue.ts";

@@ -1,4 +1,5 @@
 // readJsonFile: the scenario reader of dotspec simulate.
+// Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 import { describe, it, expect, afterAll } from "vitest";
 import { writeFileSync } from "node:fs";
 import { join } from "node:path";

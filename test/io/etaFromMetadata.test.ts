@@ -1,4 +1,5 @@
 // etaFromMetadata: by construction of the inputs (η must lie in (0, 1], domain brief §2).
+// Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 import { describe, it, expect } from "vitest";
 import { etaFromMetadata } from "../../lib/io/etaFromMetadata.ts";
 
