@@ -1,6 +1,6 @@
 // The public entry point of lib/io re-exports the pieces other modules and the CLI use
-// Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 // (by construction of the module's contract).
+// Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 import { describe, expect, it } from "vitest";
 import * as io from "../../lib/io/index.ts";
 
