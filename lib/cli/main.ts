@@ -7,7 +7,7 @@ import { Command, CommanderError } from "commander";
 import { isDotspecError } from "../index.ts";
 import { COMMANDS } from "./commands/index.ts";
 import { EXIT, makeContext, UsageError, type CliContext, type CliIO } from "./context.ts";
-import { readJsonFile } from "./readJsonFile.ts";
+import { readJsonFile } from "../index.ts";
 
 export { EXIT, type CliIO, type CliStream } from "./context.ts";
 

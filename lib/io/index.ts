@@ -42,3 +42,4 @@ export {
   type CurveColumns,
 } from "./writeTable.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";
+export { readJsonFile } from "./readJsonFile.ts";

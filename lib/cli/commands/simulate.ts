@@ -6,7 +6,7 @@ import { resolve } from "node:path";
 import { Option, type Command } from "commander";
 import { formatCurveCsv, isDotspecError, parseScenario, simulateCurve, SIMULATE_DEFAULTS, writeTextFile } from "../../index.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
-import { readJsonFile } from "../readJsonFile.ts";
+import { readJsonFile } from "../../index.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec simulate` as commander hands them over. */
@@ -79,7 +79,7 @@ export function runSimulate(opts: SimulateCliOptions, ctx: CliContext): number {
   } catch (err) {
     if (!isDotspecError(err)) throw err;
     ctx.error(err.message);
-    return err.code === "cli/invalid-json" ? EXIT.usage : EXIT.failed;
+    return err.code === "io/invalid-json" ? EXIT.usage : EXIT.failed;
   }
   let scenario;
   try {

@@ -3,20 +3,13 @@
 import { describe, it, expect, afterAll } from "vitest";
 import { writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { readJsonFile } from "../../lib/cli/readJsonFile.ts";
-import { isDotspecError } from "../../lib/index.ts";
-import { removeTempDirs, tempDir } from "./harness.ts";
+import { readJsonFile } from "../../lib/io/readJsonFile.ts";
+import { errorOf } from "../helpers/errors.ts";
+import { removeTempDirs, tempDir } from "../cli/harness.ts";
 
 afterAll(removeTempDirs);
 
-function codeOf(f: () => unknown): string | null {
-  try {
-    f();
-    return null;
-  } catch (err) {
-    return isDotspecError(err) ? err.code : "not a DotspecError";
-  }
-}
+const codeOf = (f: () => unknown) => errorOf(f).code;
 
 describe("readJsonFile(path)", () => {
   it("parses a JSON file (a UTF-8 byte-order mark is ignored)", () => {
@@ -24,15 +17,15 @@ describe("readJsonFile(path)", () => {
     writeFileSync(path, '\uFEFF{"eta": 0.8, "cb": []}');
     expect(readJsonFile(path)).toEqual({ eta: 0.8, cb: [] });
   });
-  it("throws cli/invalid-json naming the file for bad JSON", () => {
+  it("throws io/invalid-json naming the file for bad JSON", () => {
     const path = join(tempDir(), "bad.json");
     writeFileSync(path, "{ eta: 0.8 }");
-    expect(codeOf(() => readJsonFile(path))).toBe("cli/invalid-json");
+    expect(codeOf(() => readJsonFile(path))).toBe("io/invalid-json");
     expect(() => readJsonFile(path)).toThrow(/bad\.json: not valid JSON/);
   });
-  it("throws cli/unreadable-json for a missing file or a folder", () => {
+  it("throws io/unreadable-json for a missing file or a folder", () => {
     const dir = tempDir();
-    expect(codeOf(() => readJsonFile(join(dir, "none.json")))).toBe("cli/unreadable-json");
+    expect(codeOf(() => readJsonFile(join(dir, "none.json")))).toBe("io/unreadable-json");
     expect(() => readJsonFile(dir)).toThrow(/is a folder/);
   });
 });

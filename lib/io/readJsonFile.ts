@@ -2,7 +2,7 @@
  * Reading a small JSON file (a scenario, the package manifest) for the command line.
  */
 import { readFileSync } from "node:fs";
-import { DotspecError } from "../index.ts";
+import { DotspecError } from "../util/errors.ts";
 
 /**
  * Reads and parses a JSON file.
@@ -20,8 +20,8 @@ import { DotspecError } from "../index.ts";
  * Throws
  * ------
  * DotspecError
- *     `cli/unreadable-json` when the file cannot be read (missing, a folder, no permission);
- *     `cli/invalid-json` when it is not valid JSON (the parser's message names the position).
+ *     `io/unreadable-json` when the file cannot be read (missing, a folder, no permission);
+ *     `io/invalid-json` when it is not valid JSON (the parser's message names the position).
  *
  * Example
  * -------
@@ -35,11 +35,11 @@ export function readJsonFile(path: string): unknown {
     const code = (err as NodeJS.ErrnoException).code;
     const why =
       code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a JSON file" : code === "EACCES" ? "permission denied" : (err as Error).message;
-    throw new DotspecError("cli/unreadable-json", `${path}: cannot be read (${why})`);
+    throw new DotspecError("io/unreadable-json", `${path}: cannot be read (${why})`);
   }
   try {
     return JSON.parse(text.replace(/^\uFEFF/, ""));
   } catch (err) {
-    throw new DotspecError("cli/invalid-json", `${path}: not valid JSON (${(err as Error).message})`);
+    throw new DotspecError("io/invalid-json", `${path}: not valid JSON (${(err as Error).message})`);
   }
 }
