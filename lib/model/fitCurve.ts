@@ -41,6 +41,8 @@ export const FIT_DEFAULTS = {
   fillingRatioMin: 1.5,
   /** … and at or below which it is in shell tunnelling (in between: intermediate). */
   tunnelingRatioMax: 0.1,
+  /** A reduced χ² above this says the model, as started from the assignment, does not describe the curve. */
+  poorFitChiSquare: 10,
 } as const;
 
 /** One fitted parameter with its standard error. */
@@ -331,6 +333,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   };
   const steps = [...gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
   const se = standardErrors(fullModel, full, steps, reducedChiSquare, warnings);
+  if (reducedChiSquare > F.poorFitChiSquare) {
+    warnings.push(
+      `reduced χ² = ${reducedChiSquare.toFixed(1)}: the model started from this assignment does not describe the curve (levels missing or mis-assigned); treat the fitted values with suspicion`,
+    );
+  }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratio = 10 ** params[nl + 1];
   const ratioSE = Math.LN10 * ratio * se[nl + 1];

@@ -58,6 +58,15 @@ describe("fitCurve(analysis)", () => {
     expect(Number.isFinite(fit.chargingEnergyEV.value)).toBe(true);
   });
 
+  it("warns when the model started from the assignment does not describe the curve (χ²_red > 10)", () => {
+    // Drop the p multiplet: the model then misses six CB steps.
+    const a = analysisOf(1.2e9);
+    const partial = { ...a, assignment: { ...a.assignment, multiplets: a.assignment.multiplets.filter((m) => m.label !== "p") } };
+    const fit = fitCurve(partial);
+    expect(fit.reducedChiSquare).toBeGreaterThan(10);
+    expect(fit.warnings.join(" ")).toMatch(/does not describe the curve/);
+  });
+
   it("refuses an analysis without multiplets", () => {
     const a = analysisOf(1.2e9);
     const empty = { ...a, assignment: { ...a.assignment, multiplets: [] } };
@@ -75,6 +84,7 @@ describe("fitCurve(analysis)", () => {
       chunkIterations: 4,
       fillingRatioMin: 1.5,
       tunnelingRatioMax: 0.1,
+      poorFitChiSquare: 10,
     });
   });
 });
