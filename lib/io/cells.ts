@@ -1,5 +1,6 @@
 /**
- * Cells of delimited text: finding the delimiter, splitting a line, reading a number.
+ * Cells of delimited text: finding the delimiter, splitting a line, reading a number, telling a
+ * row of data from a row of words.
  *
  * These are the inner loops of the importer, so they avoid per-cell regular expressions: a cell is
  * read with `Number()` and only cells that fail take the slower path (decimal comma, Unicode minus,
@@ -111,6 +112,46 @@ function parseSlow(text: string): number {
  */
 export function isMissingCell(cell: string): boolean {
   return MISSING.has(cell.trim().toLowerCase());
+}
+
+/**
+ * True when a line starts like a number: after leading space, a digit, `+`, `-`, `.` or a Unicode
+ * minus (U+2212). The importer samples such lines for {@link detectDelimiter}.
+ *
+ * Example
+ * -------
+ * startsLikeNumber("  -1.5,2e-12");  // => true
+ * startsLikeNumber("bias,current");  // => false
+ */
+export function startsLikeNumber(line: string): boolean {
+  const s = line.trimStart();
+  const c = s.charCodeAt(0);
+  return (c >= 48 && c <= 57) || c === 43 || c === 45 || c === 46 || c === 0x2212;
+}
+
+/**
+ * True when a row of cells is mostly numbers: at least one finite number, and words (cells that are
+ * neither numbers nor missing values, see {@link isMissingCell}) in fewer than half the cells. The
+ * importer starts the data at the first such row.
+ *
+ * Example
+ * -------
+ * isDataRow(["-1.5", "NaN", "2e-12"], false);  // => true
+ * isDataRow(["bias", "current", "0"], false);  // => false
+ */
+export function isDataRow(cells: readonly string[], decimalComma: boolean): boolean {
+  let numbers = 0;
+  let words = 0;
+  for (const cell of cells) {
+    if (Number.isFinite(parseNumberCell(cell, decimalComma))) numbers++;
+    else if (!isMissingCell(cell)) words++;
+  }
+  return numbers > 0 && words * 2 < cells.length;
+}
+
+/** True when a row of two or more cells ends with a blank cell, as after a trailing delimiter (`1,2,`). */
+export function endsBlank(cells: readonly string[]): boolean {
+  return cells.length > 1 && cells[cells.length - 1].trim() === "";
 }
 
 /** What {@link detectDelimiter} found. */

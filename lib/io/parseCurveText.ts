@@ -4,10 +4,19 @@
 import type { Curve } from "../curve.ts";
 import { DotspecError } from "../util/errors.ts";
 import { checkInteger, checkKnownKeys, checkOneOf } from "../util/check.ts";
-import { detectDelimiter, isMissingCell, parseNumberCell, splitLine, type Delimiter } from "./cells.ts";
-import { readColumnHeader, type ColumnRole } from "./readColumnHeader.ts";
+import {
+  detectDelimiter,
+  endsBlank,
+  isDataRow,
+  parseNumberCell,
+  splitLine,
+  startsLikeNumber,
+  type Delimiter,
+  type DelimiterGuess,
+} from "./cells.ts";
+import { isUnitsRow, readColumnHeader, splitSpacedHeader, stripBrackets, type ColumnRole } from "./readColumnHeader.ts";
 import { ACCEPTED_UNITS, SI_UNIT, findUnit, parseUnit, toSI, type Quantity, type UnitInfo } from "./units.ts";
-import { interpolateOnto, mergeDuplicates, splitMonotonic, type Segment } from "./sweepSegments.ts";
+import { chooseSweeps, interpolateOnto, mergeDuplicates, splitMonotonic, type Segment } from "./sweepSegments.ts";
 
 /** A column chosen by its header (name with or without unit, any letter case) or its index from 0. */
 export type ColumnRef = string | number;
@@ -139,16 +148,121 @@ const UNIFORM_STEP_RTOL = 0.01;
 /** Lines used to detect the delimiter. */
 const SAMPLE_LINES = 50;
 
+/** {@link ParseOptions} checked, with the defaults filled in and the unit options parsed. */
+type ResolvedOptions = ReturnType<typeof resolveOptions>;
+
+/** Stage 1: the text as lines, sorted into content and comments. */
+interface TextLines {
+  /** Every line of the text (BOM dropped), without its line end. */
+  lines: string[];
+  /** Indices in `lines` of the lines that are neither blank nor comments, in file order. */
+  content: number[];
+  /** Indices in `lines` of the comment lines (first non-space character `#` or `%`). */
+  comments: number[];
+  /** The `key: value` / `key = value` metadata of the comments; stage 3 adds that of a preamble. */
+  metadata: Map<string, string>;
+}
+
+/** Stage 3: the content lines as cells, and where the data starts. */
+interface DataRows {
+  /** Cells of every content line: `rows[r]` is line `content[r]`. */
+  rows: string[][];
+  /** Index in `rows` of the first data row; the data runs to the last row. */
+  first: number;
+  /** Cells per data row (an empty last column already dropped). */
+  ncols: number;
+}
+
+/** Stage 3: the header of the columns. */
+interface Header {
+  /** One cell per column (a row of units already joined to the names); null when the file has no header. */
+  cells: string[] | null;
+  /** Line number (from 1) of the header, or null. */
+  line: number | null;
+}
+
+/** A column while it is read: {@link ImportColumn} and what its header says. */
 interface Column extends ImportColumn {
+  /** The unit as written in the header (not yet validated), or null. */
   unitText: string | null;
+  /** The header names a tip bias. */
   tipBias: boolean;
+  /** The unit used, chosen in stage 4; null for ignored columns. */
   unitInfo: UnitInfo | null;
 }
 
+/** Stage 5: a bias column with the current and conductance columns read against it. */
+interface ColumnGroup {
+  /** Index of the bias column. */
+  bias: number;
+  /** Indices of its current columns (at least one). */
+  currents: number[];
+  /** Indices of its conductance columns. */
+  conductances: number[];
+}
+
+/** Stage 5: the columns grouped. */
+interface ColumnGroups {
+  /** Every column read as bias in stage 4, ignored ones included (named in io/too-few-points). */
+  biasColumns: Column[];
+  /** The groups that have a current column, in column order. */
+  groups: ColumnGroup[];
+}
+
+/** Stage 6: the numbers of the used columns in SI units, indexed by column then data row; null for ignored columns. */
+type ColumnValues = (Float64Array | null)[];
+
+/** Stage 7: the data rows each group keeps. */
+interface KeptRows {
+  /** Per group (same order), the data rows (from 0) with a finite value in every cell of the group. */
+  perGroup: number[][];
+  /** Data rows left out of at least one group. */
+  dropped: number;
+}
+
+/** Sweeps on a common bias: one bias array, the current and conductance columns on it. */
 interface SweepSet {
+  /** Strictly ascending bias, V. */
   biasV: Float64Array;
+  /** Current of each sweep on `biasV`, A. */
   currents: Float64Array[];
+  /** Measured conductance of each conductance column on `biasV`, S. */
   conductances: Float64Array[];
+}
+
+/** Stage 7: the sweeps of every group. */
+interface Sweeps {
+  /** One set per segment used (or per sorted group), in column order then file order. */
+  sets: SweepSet[];
+  /** Directions of the bias of the segments used; `"unordered"` for a sorted group. */
+  directions: Set<BiasDirection>;
+  /** Monotonic bias segments used, summed over the groups. */
+  segments: number;
+  /** Rows merged into another row with the same bias. */
+  duplicatesMerged: number;
+}
+
+/** Stages 6 and 7: what happened to the data rows, for the record and the io/too-few-points message. */
+interface RowCounts {
+  /** Data rows read. */
+  dataRows: number;
+  /** Data rows left out for a missing or non-numeric value. */
+  rowsDropped: number;
+  /** Rows merged into another row with the same bias. */
+  duplicatesMerged: number;
+}
+
+/** Stage 9: everything the {@link ImportRecord} reports. */
+interface RecordParts {
+  src: string;
+  format: DelimiterGuess;
+  header: Header;
+  columns: readonly Column[];
+  counts: RowCounts;
+  sweeps: Sweeps;
+  curve: Curve;
+  metadata: Map<string, string>;
+  warnings: string[];
 }
 
 /**
@@ -222,9 +336,55 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
     throw new DotspecError("io/not-text", `${src}: the input must be text (a string); got ${typeof text}`);
   }
   const warnings: string[] = [];
-  const metadata = new Map<string, string>();
 
   // 1. Lines, comments, metadata.
+  const file = splitLines(text, src);
+
+  // 2. Delimiter and decimal separator.
+  const format = detectFormat(file, o.delimiter);
+
+  // 3. Rows, start of the data, header (and the preamble above it).
+  const table = findDataRows(file, format, src);
+  const header = findHeader(file, format.delimiter, table, src, warnings);
+
+  // 4. Columns: names, roles, overrides, units.
+  const columns = nameColumns(header, table.ncols, o, src);
+  const defaulted = assignUnits(columns, header.cells !== null, o.units, src, warnings);
+  warnColumnAssumptions(columns, header, table, format.decimalComma, defaulted, warnings);
+
+  // 5. Group current and conductance columns with their bias column.
+  const { biasColumns, groups } = groupColumns(columns, warnings);
+
+  // 6. Numbers.
+  const values = readNumbers(file, format, table, header, columns, src);
+
+  // 7. Rows per group, segments, sweeps.
+  const kept = keepCompleteRows(file, format, table, groups, values, src, warnings);
+  const sweeps = cutSweeps(file, table, columns, groups, values, kept, o.minPoints, warnings);
+  const counts: RowCounts = {
+    dataRows: table.rows.length - table.first,
+    rowsDropped: kept.dropped,
+    duplicatesMerged: sweeps.duplicatesMerged,
+  };
+
+  // 8. Common bias points.
+  const common = ontoCommonBias(sweeps.sets, o.minPoints, src, counts, biasColumns, warnings);
+
+  // 9. Curve and record.
+  const curve = makeCurve(common, src, file.metadata);
+  const record = makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata: file.metadata, warnings });
+  return { curve, record };
+}
+
+/* ---------------------------------------------------------------------------------------------- */
+/* Stages                                                                                          */
+
+/**
+ * Stage 1 (Notes 1): drop a BOM, cut the text into lines, sort them into content and comments,
+ * and read the `key: value` metadata of the comments. Throws io/empty, and io/no-numeric-rows
+ * when every line is a comment.
+ */
+function splitLines(text: string, src: string): TextLines {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
   if (body.trim() === "") {
     throw new DotspecError(
@@ -235,6 +395,7 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   const lines = body.indexOf("\r") < 0 ? body.split("\n") : body.split(/\r\n|\r|\n/);
   const content: number[] = [];
   const comments: number[] = [];
+  const metadata = new Map<string, string>();
   for (let i = 0; i < lines.length; i++) {
     const s = lines[i].trimStart();
     if (s === "") continue;
@@ -253,19 +414,33 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
         `expected rows like "-1.5,2.3e-12" below the header`,
     );
   }
+  return { lines, content, comments, metadata };
+}
 
-  // 2. Delimiter and decimal separator.
+/**
+ * Stage 2 (Notes 2): the delimiter and decimal separator, detected on up to {@link SAMPLE_LINES}
+ * content lines that start like a number (the first content lines when none does). A `delimiter`
+ * option other than `"auto"` is the only candidate: then only the decimal separator is detected.
+ */
+function detectFormat(file: TextLines, delimiter: "auto" | Delimiter): DelimiterGuess {
+  const { lines, content } = file;
   const sample: string[] = [];
   for (const i of content) {
     if (sample.length >= SAMPLE_LINES) break;
     if (startsLikeNumber(lines[i])) sample.push(lines[i]);
   }
   if (sample.length === 0) for (const i of content.slice(0, SAMPLE_LINES)) sample.push(lines[i]);
-  const guess = detectDelimiter(sample, o.delimiter === "auto" ? undefined : [o.delimiter]);
-  const delimiter = guess.delimiter;
-  const decimalComma = guess.decimalComma;
+  return detectDelimiter(sample, delimiter === "auto" ? undefined : [delimiter]);
+}
 
-  // 3. Rows, start of the data, header.
+/**
+ * Stage 3 (Notes 3), the data: split every content line into cells and find the first row that is
+ * mostly numbers. An empty last cell in every data row (a trailing delimiter) is dropped. Throws
+ * io/no-numeric-rows and io/one-column.
+ */
+function findDataRows(file: TextLines, format: DelimiterGuess, src: string): DataRows {
+  const { lines, content } = file;
+  const { delimiter, decimalComma } = format;
   const rows = content.map((i) => splitLine(lines[i], delimiter));
   let first = -1;
   for (let r = 0; r < rows.length; r++) {
@@ -281,7 +456,6 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
         `${quote(lines[content[0]])}); expected rows like "-1.5,2.3e-12" below the header`,
     );
   }
-  const lineOf = (r: number) => content[r] + 1;
   let ncols = rows[first].length;
   if (delimiter !== "whitespace" && endsBlank(rows[first])) {
     let all = true;
@@ -294,59 +468,98 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   if (ncols < 2) {
     throw new DotspecError(
       "io/one-column",
-      `${src}: the data rows have a single column (line ${lineOf(first)}: ${quote(lines[content[first]])}); ` +
+      `${src}: the data rows have a single column (line ${lineNumber(file, first)}: ${quote(lineText(file, first))}); ` +
         `a curve needs a bias column and at least one current column, separated by commas, semicolons, tabs or spaces`,
     );
   }
+  return { rows, first, ncols };
+}
 
-  let headerCells: string[] | null = null;
-  let headerLine: number | null = null;
-  if (first > 0) {
-    let h = first - 1;
-    headerCells = rows[h];
-    if (headerCells.length === ncols + 1 && endsBlank(headerCells)) headerCells = headerCells.slice(0, -1);
-    if (delimiter === "whitespace" && headerCells.length !== ncols) headerCells = splitSpacedHeader(lines[content[h]], ncols);
-    // A row of units under a row of names ("Bias,Current" then "V,pA"): join them.
-    if (h > 0 && headerCells.length === ncols && isUnitsRow(headerCells)) {
-      let names = rows[h - 1];
-      if (names.length === ncols + 1 && endsBlank(names)) names = names.slice(0, -1);
-      if (delimiter === "whitespace" && names.length !== ncols) names = splitSpacedHeader(lines[content[h - 1]], ncols);
-      if (names.length === ncols) {
-        const units = headerCells;
-        headerCells = names.map((name, i) => (units[i].trim() === "" ? name : `${name.trim()} (${stripBrackets(units[i])})`));
-        h--;
-      }
-    }
-    headerLine = lineOf(h);
-    if (headerCells.length !== ncols) {
-      throw new DotspecError(
-        "io/ragged-row",
-        `${src}: line ${headerLine} (the header) has ${headerCells.length} cells but the data rows from line ` +
-          `${lineOf(first)} have ${ncols}; give every column one header cell` +
-          (delimiter === "whitespace" ? " (with space-separated columns, write names without spaces, e.g. bias_V current_nA)" : ""),
-      );
-    }
-    if (h > 0) {
-      for (let r = 0; r < h; r++) readMetadata(lines[content[r]], metadata);
-      warnings.push(
-        `lines ${lineOf(0)}–${lineOf(h - 1)} above the header are not data; read for key: value metadata and otherwise skipped`,
-      );
-    }
-  } else {
-    const above = comments.filter((i) => i < content[first]);
-    if (above.length > 0) {
-      const line = lines[above[above.length - 1]].trimStart().replace(/^[#%]+/, "");
-      const cells = delimiter === "whitespace" ? splitSpacedHeader(line, ncols) : splitLine(line, delimiter);
-      if (cells.length === ncols + 1 && endsBlank(cells)) cells.pop();
-      const roles = cells.map((c) => readColumnHeader(c).role);
-      if (cells.length === ncols && roles.includes("bias") && roles.includes("current")) {
-        headerCells = cells;
-        headerLine = above[above.length - 1] + 1;
-      }
+/**
+ * Stage 3 (Notes 3), the header: the line just above the data (see {@link headerAbove}); when the
+ * data starts on the first content line, a `#` comment line just above it that names a bias and a
+ * current column (see {@link commentHeader}); otherwise none.
+ */
+function findHeader(file: TextLines, delimiter: Delimiter, table: DataRows, src: string, warnings: string[]): Header {
+  return table.first > 0 ? headerAbove(file, delimiter, table, src, warnings) : commentHeader(file, delimiter, table);
+}
+
+/**
+ * The header when content lines precede the data: the line just above it, joined to the row of
+ * names above when it holds units only (`V,pA`). Earlier content lines are a preamble: read into
+ * `file.metadata`, and reported. Throws io/ragged-row when the header has another number of cells.
+ */
+function headerAbove(file: TextLines, delimiter: Delimiter, table: DataRows, src: string, warnings: string[]): Header {
+  const { rows, first, ncols } = table;
+  let h = first - 1;
+  let cells = headerCells(file, rows, h, ncols, delimiter);
+  // A row of units under a row of names ("Bias,Current" then "V,pA"): join them.
+  if (h > 0 && cells.length === ncols && isUnitsRow(cells)) {
+    const names = headerCells(file, rows, h - 1, ncols, delimiter);
+    if (names.length === ncols) {
+      const units = cells;
+      cells = names.map((name, i) => (units[i].trim() === "" ? name : `${name.trim()} (${stripBrackets(units[i])})`));
+      h--;
     }
   }
+  const line = lineNumber(file, h);
+  if (cells.length !== ncols) {
+    throw new DotspecError(
+      "io/ragged-row",
+      `${src}: line ${line} (the header) has ${cells.length} cells but the data rows from line ` +
+        `${lineNumber(file, first)} have ${ncols}; give every column one header cell` +
+        (delimiter === "whitespace" ? " (with space-separated columns, write names without spaces, e.g. bias_V current_nA)" : ""),
+    );
+  }
+  if (h > 0) {
+    for (let r = 0; r < h; r++) readMetadata(lineText(file, r), file.metadata);
+    warnings.push(
+      `lines ${lineNumber(file, 0)}–${lineNumber(file, h - 1)} above the header are not data; ` +
+        `read for key: value metadata and otherwise skipped`,
+    );
+  }
+  return { cells, line };
+}
 
-  // 4. Columns: names, roles, overrides, units.
+/**
+ * The cells of content row `r` read as a header of `ncols` columns: an empty last cell beyond
+ * `ncols` dropped, and a whitespace-separated line split again so that names may hold spaces.
+ */
+function headerCells(file: TextLines, rows: readonly string[][], r: number, ncols: number, delimiter: Delimiter): string[] {
+  let cells = rows[r];
+  if (cells.length === ncols + 1 && endsBlank(cells)) cells = cells.slice(0, -1);
+  if (delimiter === "whitespace" && cells.length !== ncols) cells = splitSpacedHeader(lineText(file, r), ncols);
+  return cells;
+}
+
+/**
+ * The header of data that starts on the first content line: the last comment line above the data,
+ * without its `#` or `%`, when it has one cell per column and names a bias and a current column.
+ */
+function commentHeader(file: TextLines, delimiter: Delimiter, table: DataRows): Header {
+  const { lines, content, comments } = file;
+  const { first, ncols } = table;
+  const above = comments.filter((i) => i < content[first]);
+  if (above.length > 0) {
+    const line = lines[above[above.length - 1]].trimStart().replace(/^[#%]+/, "");
+    const cells = delimiter === "whitespace" ? splitSpacedHeader(line, ncols) : splitLine(line, delimiter);
+    if (cells.length === ncols + 1 && endsBlank(cells)) cells.pop();
+    const roles = cells.map((c) => readColumnHeader(c).role);
+    if (cells.length === ncols && roles.includes("bias") && roles.includes("current")) {
+      return { cells, line: above[above.length - 1] + 1 };
+    }
+  }
+  return { cells: null, line: null };
+}
+
+/**
+ * Stage 4 (Notes 3–4), roles: one {@link Column} per data cell, named and given a role by its
+ * header (see `readColumnHeader`); without header, column 0 is the bias and the others currents.
+ * Then the options `biasColumn` and `currentColumns` override the roles. Throws io/no-such-column,
+ * options/column-twice, io/no-bias-column and io/no-current-column.
+ */
+function nameColumns(header: Header, ncols: number, o: ResolvedOptions, src: string): Column[] {
+  const headerCells = header.cells;
   const columns: Column[] = [];
   for (let index = 0; index < ncols; index++) {
     if (headerCells) {
@@ -394,12 +607,27 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
         `"I", "It") or pass the option currentColumns (headers or indices from 0)`,
     );
   }
+  return columns;
+}
 
+/**
+ * Stage 4 (Notes 4), units: each used column takes the unit of its header, else the unit option of
+ * its quantity (`biasUnit`, `currentUnit`, `conductanceUnit`), else the SI unit. A conductance column
+ * in volts (a lock-in signal) is ignored. Returns the columns given the SI unit by default, described
+ * for a warning. Throws io/unknown-unit.
+ */
+function assignUnits(
+  columns: Column[],
+  hasHeader: boolean,
+  units: Record<Quantity, UnitInfo | null>,
+  src: string,
+  warnings: string[],
+): string[] {
   const defaulted: string[] = [];
   for (const c of columns) {
     if (c.role === "other") continue;
     const q = c.role;
-    const optionUnit = o.units[q];
+    const optionUnit = units[q];
     const optionName = `${q}Unit`;
     if (c.unitText !== null) {
       const u = findUnit(c.unitText, q);
@@ -441,14 +669,29 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
     } else {
       c.unitInfo = parseUnit(SI_UNIT[q], q);
       c.unitFrom = "default";
-      defaulted.push(headerCells ? `${quote(c.header)} as ${SI_UNIT[q]}` : `column ${c.index} (${q}) as ${SI_UNIT[q]}`);
+      defaulted.push(hasHeader ? `${quote(c.header)} as ${SI_UNIT[q]}` : `column ${c.index} (${q}) as ${SI_UNIT[q]}`);
     }
   }
-  if (!headerCells) {
+  return defaulted;
+}
+
+/**
+ * Stage 4 (Notes 3–4), warnings: the roles read without header (and a bias column that counts like a
+ * row number), the units assumed (`defaulted`, from {@link assignUnits}), a tip bias read as sample bias.
+ */
+function warnColumnAssumptions(
+  columns: readonly Column[],
+  header: Header,
+  table: DataRows,
+  decimalComma: boolean,
+  defaulted: readonly string[],
+  warnings: string[],
+): void {
+  if (!header.cells) {
     const currents = columns.filter((c) => c.role === "current").map((c) => c.index);
     const bias = columns.find((c) => c.role === "bias")!.index;
     warnings.push(`no header line: column ${bias} read as bias, column${currents.length > 1 ? "s" : ""} ${currents.join(", ")} as current`);
-    if (ncols >= 3 && looksLikeIndex(rows, first, bias, decimalComma)) {
+    if (table.ncols >= 3 && looksLikeIndex(table.rows, table.first, bias, decimalComma)) {
       warnings.push(`column ${bias} counts 0, 1, 2… or 1, 2, 3… like a row number; if it is not the bias, pass biasColumn and currentColumns`);
     }
   }
@@ -463,53 +706,88 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
       warnings.push(`column ${describeColumn(c)} is read as sample bias without changing its sign; negate it if the bias was applied to the tip`);
     }
   }
+}
 
-  // 5. Group current and conductance columns with their bias column.
-  const biasIdx = columns.filter((c) => c.role === "bias").map((c) => c.index);
-  const groups = new Map<number, { currents: number[]; conductances: number[] }>();
-  for (const b of biasIdx) groups.set(b, { currents: [], conductances: [] });
+/**
+ * Stage 5 (Notes 5): each current and conductance column joins the nearest bias column to its left
+ * (or the first bias column). A bias column with no current column is ignored, with its conductance
+ * columns (their role set to `"other"`) and a warning.
+ */
+function groupColumns(columns: Column[], warnings: string[]): ColumnGroups {
+  const biasColumns = columns.filter((c) => c.role === "bias");
+  const all: ColumnGroup[] = biasColumns.map((c) => ({ bias: c.index, currents: [], conductances: [] }));
   for (const c of columns) {
     if (c.role !== "current" && c.role !== "conductance") continue;
-    let b = biasIdx[0];
-    for (const k of biasIdx) if (k < c.index) b = k;
-    const g = groups.get(b)!;
+    let g = all[0];
+    for (const k of all) if (k.bias < c.index) g = k;
     (c.role === "current" ? g.currents : g.conductances).push(c.index);
   }
-  for (const [b, g] of groups) {
-    if (g.currents.length > 0) continue;
-    columns[b].role = "other";
+  const groups: ColumnGroup[] = [];
+  for (const g of all) {
+    if (g.currents.length > 0) {
+      groups.push(g);
+      continue;
+    }
+    columns[g.bias].role = "other";
     for (const k of g.conductances) columns[k].role = "other";
-    groups.delete(b);
-    warnings.push(`column ${describeColumn(columns[b])} is a further bias column with no current column after it; ignored`);
+    warnings.push(`column ${describeColumn(columns[g.bias])} is a further bias column with no current column after it; ignored`);
   }
+  return { biasColumns, groups };
+}
 
-  // 6. Numbers.
+/**
+ * Stage 6 (Notes 4): every cell of the used columns read as a number and converted to SI (NaN for a
+ * missing or non-numeric cell). Throws io/ragged-row for a data row with another number of cells.
+ */
+function readNumbers(
+  file: TextLines,
+  format: DelimiterGuess,
+  table: DataRows,
+  header: Header,
+  columns: readonly Column[],
+  src: string,
+): ColumnValues {
+  const { rows, first, ncols } = table;
+  const { delimiter, decimalComma } = format;
   const nData = rows.length - first;
-  const values: (Float64Array | null)[] = columns.map((c) => (c.role === "other" ? null : new Float64Array(nData)));
+  const values: ColumnValues = columns.map((c) => (c.role === "other" ? null : new Float64Array(nData)));
   const used = columns.filter((c) => c.role !== "other");
   for (let r = first; r < rows.length; r++) {
     const row = rows[r];
     if (row.length !== ncols) {
       throw new DotspecError(
         "io/ragged-row",
-        `${src}: line ${lineOf(r)} has ${row.length} cell${row.length === 1 ? "" : "s"} but the ` +
-          `${headerLine !== null ? `header (line ${headerLine})` : `first data row (line ${lineOf(first)})`} has ${ncols}: ` +
-          `${quote(lines[content[r]])}; give every row the same number of cells or delete the line` +
+        `${src}: line ${lineNumber(file, r)} has ${row.length} cell${row.length === 1 ? "" : "s"} but the ` +
+          `${header.line !== null ? `header (line ${header.line})` : `first data row (line ${lineNumber(file, first)})`} has ${ncols}: ` +
+          `${quote(lineText(file, r))}; give every row the same number of cells or delete the line` +
           (delimiter === "whitespace" ? " (with space-separated columns, write NaN for a missing value)" : ""),
       );
     }
     for (const c of used) values[c.index]![r - first] = toSI(parseNumberCell(row[c.index], decimalComma), c.unitInfo!);
   }
+  return values;
+}
 
-  // 7. Rows per group, segments, sweeps.
+/**
+ * Stage 7 (Notes 6), rows: per group, the data rows whose bias, current and conductance values are
+ * all finite. Throws io/too-many-bad-rows when more than half the data rows are left out of a group;
+ * otherwise warns with the count and the first line left out.
+ */
+function keepCompleteRows(
+  file: TextLines,
+  format: DelimiterGuess,
+  table: DataRows,
+  groups: readonly ColumnGroup[],
+  values: ColumnValues,
+  src: string,
+  warnings: string[],
+): KeptRows {
+  const first = table.first;
+  const nData = table.rows.length - first;
   const rowBad = new Uint8Array(nData);
-  const sets: SweepSet[] = [];
-  const directions = new Set<BiasDirection>();
-  let segmentsUsed = 0;
-  let duplicatesMerged = 0;
-  const keep: { b: number; g: { currents: number[]; conductances: number[] }; idx: number[] }[] = [];
-  for (const [b, g] of groups) {
-    const cols = [b, ...g.currents, ...g.conductances].map((k) => values[k]!);
+  const perGroup: number[][] = [];
+  for (const g of groups) {
+    const cols = [g.bias, ...g.currents, ...g.conductances].map((k) => values[k]!);
     const idx: number[] = [];
     for (let r = 0; r < nData; r++) {
       let ok = true;
@@ -523,41 +801,60 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
       if (ok) idx.push(r);
       else rowBad[r] = 1;
     }
-    keep.push({ b, g, idx });
+    perGroup.push(idx);
   }
-  let rowsDropped = 0;
+  let dropped = 0;
   let firstBad = -1;
   for (let r = 0; r < nData; r++) {
     if (rowBad[r]) {
-      rowsDropped++;
+      dropped++;
       if (firstBad < 0) firstBad = r;
     }
   }
-  if (rowsDropped * 2 > nData) {
+  if (dropped * 2 > nData) {
     throw new DotspecError(
       "io/too-many-bad-rows",
-      `${src}: ${rowsDropped} of ${nData} data rows have a missing or non-numeric value in a bias, current or ` +
-        `conductance column (first: line ${lineOf(first + firstBad)}, ${quote(lines[content[first + firstBad]])}); ` +
-        `delimiter read as ${delimiterName(delimiter)} with decimal ${decimalComma ? "comma" : "point"}: ` +
+      `${src}: ${dropped} of ${nData} data rows have a missing or non-numeric value in a bias, current or ` +
+        `conductance column (first: line ${lineNumber(file, first + firstBad)}, ${quote(lineText(file, first + firstBad))}); ` +
+        `delimiter read as ${delimiterName(format.delimiter)} with decimal ${format.decimalComma ? "comma" : "point"}: ` +
         `if that is wrong pass the option delimiter, otherwise clean the file`,
     );
   }
-  if (rowsDropped > 0) {
+  if (dropped > 0) {
     warnings.push(
-      `${rowsDropped} data row${rowsDropped === 1 ? "" : "s"} with a missing or non-numeric value (NaN, inf, -, empty…) ` +
-        `left out (first: line ${lineOf(first + firstBad)})`,
+      `${dropped} data row${dropped === 1 ? "" : "s"} with a missing or non-numeric value (NaN, inf, -, empty…) ` +
+        `left out (first: line ${lineNumber(file, first + firstBad)})`,
     );
   }
+  return { perGroup, dropped };
+}
 
-  for (const { b, g, idx } of keep) {
-    const gb = new Float64Array(idx.length);
-    for (let i = 0; i < idx.length; i++) gb[i] = values[b]![idx[i]];
-    const gcols = [...g.currents, ...g.conductances].map((k) => {
-      const col = values[k]!;
-      const out = new Float64Array(idx.length);
-      for (let i = 0; i < idx.length; i++) out[i] = col[idx[i]];
-      return out;
-    });
+/**
+ * Stage 7 (Notes 7–8), sweeps: each group's bias is cut into monotonic segments (see
+ * `splitMonotonic`). The segments that are full sweeps (see `chooseSweeps`, with
+ * {@link FULL_SWEEP_SHARE}) are read as sweeps and up to two partial ones left out, with warnings; a
+ * group whose segments are not a set of sweeps is sorted by bias and read as one sweep. Each sweep
+ * is ordered by ascending bias and its repeated bias values are averaged (see `mergeDuplicates`).
+ */
+function cutSweeps(
+  file: TextLines,
+  table: DataRows,
+  columns: readonly Column[],
+  groups: readonly ColumnGroup[],
+  values: ColumnValues,
+  kept: KeptRows,
+  minPoints: number,
+  warnings: string[],
+): Sweeps {
+  const sets: SweepSet[] = [];
+  const directions = new Set<BiasDirection>();
+  let segments = 0;
+  let duplicatesMerged = 0;
+  for (let k = 0; k < groups.length; k++) {
+    const g = groups[k];
+    const idx = kept.perGroup[k];
+    const gb = pickRows(values[g.bias]!, idx);
+    const gcols = [...g.currents, ...g.conductances].map((c) => pickRows(values[c]!, idx));
     const nc = g.currents.length;
     const toSet = (order: ArrayLike<number>): SweepSet => {
       const m = mergeDuplicates(gb, gcols, order);
@@ -565,9 +862,10 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
       return { biasV: m.biasV, currents: m.values.slice(0, nc), conductances: m.values.slice(nc) };
     };
     const segs = splitMonotonic(gb);
-    const fullSegs = segs.length === 1 ? segs : chooseSweeps(gb, segs, o.minPoints);
-    const name = describeColumn(columns[b]);
-    const lineRange = (s: Segment) => `lines ${lineOf(first + idx[s.start])}–${lineOf(first + idx[s.end])}`;
+    const fullSegs = segs.length === 1 ? segs : chooseSweeps(gb, segs, minPoints, FULL_SWEEP_SHARE);
+    const name = describeColumn(columns[g.bias]);
+    const lineRange = (s: Segment) =>
+      `lines ${lineNumber(file, table.first + idx[s.start])}–${lineNumber(file, table.first + idx[s.end])}`;
     if (fullSegs) {
       for (const s of fullSegs) {
         const order: number[] = [];
@@ -576,7 +874,7 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
         sets.push(toSet(order));
         directions.add(s.direction >= 0 ? "ascending" : "descending");
       }
-      segmentsUsed += fullSegs.length;
+      segments += fullSegs.length;
       if (segs.length > 1) {
         const parts = fullSegs.map((s) => `${s.direction >= 0 ? "up" : "down"} on ${lineRange(s)}`);
         warnings.push(`bias column ${name} changes direction: read as ${fullSegs.length} sweep${fullSegs.length > 1 ? "s" : ""} (${parts.join(", ")})`);
@@ -592,7 +890,7 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
       const order = Array.from(gb.keys()).sort((i, j) => gb[i] - gb[j] || i - j);
       sets.push(toSet(order));
       directions.add("unordered");
-      segmentsUsed += 1;
+      segments += 1;
       warnings.push(
         `bias column ${name} is not monotonic (${segs.length - 1} changes of direction that do not form whole sweeps); ` +
           `rows sorted by bias and read as one sweep`,
@@ -602,81 +900,108 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   if (duplicatesMerged > 0) {
     warnings.push(`${duplicatesMerged} repeated bias value${duplicatesMerged === 1 ? "" : "s"} within a sweep averaged with the row${duplicatesMerged === 1 ? "" : "s"} of the same bias`);
   }
+  return { sets, directions, segments, duplicatesMerged };
+}
 
-  // 8. Common bias points.
+/**
+ * Stage 8 (Notes 9): every sweep on the same bias points. When the sweeps' points differ, each is
+ * carried by linear interpolation (see `interpolateOnto`) onto the points of the first sweep inside
+ * the range they all cover, with a warning. Returns one set holding every sweep, in order. Throws
+ * io/too-few-points (for a sweep, or for the common points) and io/no-common-range.
+ */
+function ontoCommonBias(
+  sets: readonly SweepSet[],
+  minPoints: number,
+  src: string,
+  counts: RowCounts,
+  biasColumns: readonly Column[],
+  warnings: string[],
+): SweepSet {
   const tooFew = (n: number, where = "after cleaning") =>
     new DotspecError(
       "io/too-few-points",
-      `${src}: only ${n} distinct bias point${n === 1 ? "" : "s"} ${where}; at least ${o.minPoints} are needed ` +
-        `(${nData} data rows, ${rowsDropped} left out, ${duplicatesMerged} repeated bias values merged); ` +
-        `check that the bias column (${biasIdx.map((k) => describeColumn(columns[k])).join(", ")}) is the swept one`,
+      `${src}: only ${n} distinct bias point${n === 1 ? "" : "s"} ${where}; at least ${minPoints} are needed ` +
+        `(${counts.dataRows} data rows, ${counts.rowsDropped} left out, ${counts.duplicatesMerged} repeated bias values merged); ` +
+        `check that the bias column (${biasColumns.map(describeColumn).join(", ")}) is the swept one`,
     );
-  for (const s of sets) if (s.biasV.length < o.minPoints) throw tooFew(s.biasV.length);
-  let grid = sets[0].biasV;
-  if (!sets.every((s) => sameValues(s.biasV, grid))) {
-    let lo = -Infinity;
-    let hi = Infinity;
-    for (const s of sets) {
-      lo = Math.max(lo, s.biasV[0]);
-      hi = Math.min(hi, s.biasV[s.biasV.length - 1]);
-    }
-    if (!(lo < hi)) {
-      throw new DotspecError(
-        "io/no-common-range",
-        `${src}: the sweeps cover bias ranges that do not overlap (${sets.map((s) => `${s.biasV[0]} to ${s.biasV[s.biasV.length - 1]} V`).join("; ")}); ` +
-          `pass biasColumn and currentColumns to read one sweep`,
-      );
-    }
-    let a = 0;
-    while (grid[a] < lo) a++;
-    let z = grid.length;
-    while (grid[z - 1] > hi) z--;
-    const lost = grid.length - (z - a);
-    grid = grid.slice(a, z);
-    for (const s of sets) {
-      s.currents = s.currents.map((v) => interpolateOnto(s.biasV, v, grid));
-      s.conductances = s.conductances.map((v) => interpolateOnto(s.biasV, v, grid));
-      s.biasV = grid;
-    }
-    warnings.push(
-      `the sweeps have different bias points: carried by linear interpolation onto the ${grid.length} points of the first ` +
-        `sweep inside their common range ${lo} to ${hi} V` + (lost > 0 ? ` (${lost} points outside it left out)` : ""),
-    );
-    if (grid.length < o.minPoints) throw tooFew(grid.length, `inside the bias range shared by all sweeps (${lo} to ${hi} V)`);
+  for (const s of sets) if (s.biasV.length < minPoints) throw tooFew(s.biasV.length);
+  const first = sets[0].biasV;
+  if (sets.every((s) => sameValues(s.biasV, first))) {
+    return { biasV: first, currents: sets.flatMap((s) => s.currents), conductances: sets.flatMap((s) => s.conductances) };
   }
-
-  // 9. Curve and record.
-  const sweeps = sets.flatMap((s) => s.currents);
-  const conductances = sets.flatMap((s) => s.conductances);
-  const curve: Curve = {
+  let lo = -Infinity;
+  let hi = Infinity;
+  for (const s of sets) {
+    lo = Math.max(lo, s.biasV[0]);
+    hi = Math.min(hi, s.biasV[s.biasV.length - 1]);
+  }
+  if (!(lo < hi)) {
+    throw new DotspecError(
+      "io/no-common-range",
+      `${src}: the sweeps cover bias ranges that do not overlap (${sets.map((s) => `${s.biasV[0]} to ${s.biasV[s.biasV.length - 1]} V`).join("; ")}); ` +
+        `pass biasColumn and currentColumns to read one sweep`,
+    );
+  }
+  let a = 0;
+  while (first[a] < lo) a++;
+  let z = first.length;
+  while (first[z - 1] > hi) z--;
+  const lost = first.length - (z - a);
+  const grid = first.slice(a, z);
+  const common: SweepSet = {
     biasV: grid,
-    currentA: mean(sweeps, grid.length),
-    sweeps,
-    didvS: conductances.length > 0 ? mean(conductances, grid.length) : null,
+    currents: sets.flatMap((s) => s.currents.map((v) => interpolateOnto(s.biasV, v, grid))),
+    conductances: sets.flatMap((s) => s.conductances.map((v) => interpolateOnto(s.biasV, v, grid))),
+  };
+  warnings.push(
+    `the sweeps have different bias points: carried by linear interpolation onto the ${grid.length} points of the first ` +
+      `sweep inside their common range ${lo} to ${hi} V` + (lost > 0 ? ` (${lost} points outside it left out)` : ""),
+  );
+  if (grid.length < minPoints) throw tooFew(grid.length, `inside the bias range shared by all sweeps (${lo} to ${hi} V)`);
+  return common;
+}
+
+/**
+ * Stage 9 (Notes 10), the curve: the common bias, every sweep and their mean current, the mean of
+ * the conductance columns (or null), and the metadata.
+ */
+function makeCurve(common: SweepSet, src: string, metadata: Map<string, string>): Curve {
+  const grid = common.biasV;
+  return {
+    biasV: grid,
+    currentA: mean(common.currents, grid.length),
+    sweeps: common.currents,
+    didvS: common.conductances.length > 0 ? mean(common.conductances, grid.length) : null,
     meta: { source: src, metadata: Object.fromEntries(metadata) },
   };
+}
+
+/** Stage 9, the record: how the file was read, from the results of every stage. */
+function makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata, warnings }: RecordParts): ImportRecord {
+  const grid = curve.biasV;
   const step = stepOf(grid);
-  const record: ImportRecord = {
+  const { directions } = sweeps;
+  return {
     source: src,
-    delimiter,
-    decimalSeparator: decimalComma ? "," : ".",
-    hasHeader: headerCells !== null,
-    headerLine,
-    columns: columns.map(({ index, header, name, role, unitInfo }) => ({
-      index,
-      header,
-      name,
-      role,
-      unit: role === "other" ? null : unitInfo!.unit,
-      scale: role === "other" ? null : unitInfo!.scale,
-      unitFrom: role === "other" ? null : columns[index].unitFrom,
+    delimiter: format.delimiter,
+    decimalSeparator: format.decimalComma ? "," : ".",
+    hasHeader: header.cells !== null,
+    headerLine: header.line,
+    columns: columns.map((c) => ({
+      index: c.index,
+      header: c.header,
+      name: c.name,
+      role: c.role,
+      unit: c.role === "other" ? null : c.unitInfo!.unit,
+      scale: c.role === "other" ? null : c.unitInfo!.scale,
+      unitFrom: c.role === "other" ? null : c.unitFrom,
     })),
     ignoredColumns: columns.filter((c) => c.role === "other").map((c) => c.header || c.name),
-    dataRows: nData,
-    rowsDropped,
-    duplicatesMerged,
-    sweeps: sweeps.length,
-    segments: segmentsUsed,
+    dataRows: counts.dataRows,
+    rowsDropped: counts.rowsDropped,
+    duplicatesMerged: counts.duplicatesMerged,
+    sweeps: curve.sweeps.length,
+    segments: sweeps.segments,
     biasDirection: directions.has("unordered")
       ? "unordered"
       : directions.size === 1
@@ -689,11 +1014,15 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
     metadataKeys: [...metadata.keys()],
     warnings,
   };
-  return { curve, record };
 }
 
 /* ---------------------------------------------------------------------------------------------- */
+/* Helpers                                                                                         */
 
+/**
+ * The options checked and completed with {@link PARSE_DEFAULTS}; the unit options parsed into
+ * `units`. Throws options/* errors naming the option.
+ */
 function resolveOptions(options: ParseOptions) {
   if (options === null || typeof options !== "object") {
     throw new DotspecError("options/not-object", `parseCurveText options must be an object; got ${options === null ? "null" : typeof options}`);
@@ -733,6 +1062,17 @@ function resolveOptions(options: ParseOptions) {
   return { ...o, units };
 }
 
+/** Line number (from 1) of content row `r`. */
+function lineNumber(file: TextLines, r: number): number {
+  return file.content[r] + 1;
+}
+
+/** Content row `r` as written. */
+function lineText(file: TextLines, r: number): string {
+  return file.lines[file.content[r]];
+}
+
+/** Add the `key: value` or `key = value` of a comment or preamble line to the metadata (a repeated key joins its values with `; `). */
 function readMetadata(line: string, into: Map<string, string>): void {
   let s = line.trimStart();
   let k = 0;
@@ -749,39 +1089,6 @@ function readMetadata(line: string, into: Map<string, string>): void {
   into.set(key, prev === undefined ? value : `${prev}; ${value}`);
 }
 
-function startsLikeNumber(line: string): boolean {
-  const s = line.trimStart();
-  const c = s.charCodeAt(0);
-  return (c >= 48 && c <= 57) || c === 43 || c === 45 || c === 46 || c === 0x2212;
-}
-
-/** Mostly numbers: at least one finite number, and words in fewer than half the cells. */
-function isDataRow(cells: readonly string[], decimalComma: boolean): boolean {
-  let numbers = 0;
-  let words = 0;
-  for (const cell of cells) {
-    if (Number.isFinite(parseNumberCell(cell, decimalComma))) numbers++;
-    else if (!isMissingCell(cell)) words++;
-  }
-  return numbers > 0 && words * 2 < cells.length;
-}
-
-/** Every cell empty or a unit, at least one unit: `V,pA` or `[V]\t[pA]`. */
-function isUnitsRow(cells: readonly string[]): boolean {
-  let units = 0;
-  for (const cell of cells) {
-    if (cell.trim() === "") continue;
-    if (findUnit(stripBrackets(cell)) === null) return false;
-    units++;
-  }
-  return units > 0;
-}
-
-function stripBrackets(cell: string): string {
-  const t = cell.trim();
-  return /^[([{].*[)\]}]$/.test(t) ? t.slice(1, -1).trim() : t;
-}
-
 /** The first rows of a column are 0, 1, 2… or 1, 2, 3… (a row number written by a spreadsheet or script). */
 function looksLikeIndex(rows: readonly string[][], first: number, col: number, decimalComma: boolean): boolean {
   const n = Math.min(rows.length - first, 10);
@@ -792,28 +1099,7 @@ function looksLikeIndex(rows: readonly string[][], first: number, col: number, d
   return true;
 }
 
-function endsBlank(cells: readonly string[]): boolean {
-  return cells.length > 1 && cells[cells.length - 1].trim() === "";
-}
-
-/** A space-separated header whose names contain spaces: try tabs or 2+ spaces, then join `(unit)` tokens. */
-function splitSpacedHeader(line: string, n: number): string[] {
-  const t = line.trim();
-  if (t.indexOf('"') >= 0) {
-    const quoted = (t.match(/"[^"]*"|[^\s"]+/g) ?? []).map((c) => c.replace(/^"|"$/g, ""));
-    if (quoted.length === n) return quoted;
-  }
-  const wide = t.split(/\t|\s{2,}/);
-  if (wide.length === n) return wide;
-  const tokens = t.split(/\s+/);
-  const joined: string[] = [];
-  for (const tok of tokens) {
-    if (joined.length > 0 && /^[([{]/.test(tok)) joined[joined.length - 1] += " " + tok;
-    else joined.push(tok);
-  }
-  return joined.length === n ? joined : tokens;
-}
-
+/** Index of the column a `biasColumn` or `currentColumns` option names. Throws io/no-such-column. */
 function findColumn(src: string, option: string, ref: ColumnRef, columns: readonly Column[]): number {
   if (typeof ref === "number") {
     if (ref < columns.length) return ref;
@@ -829,38 +1115,30 @@ function findColumn(src: string, option: string, ref: ColumnRef, columns: readon
   );
 }
 
+/** A column as messages name it: its header, quoted, or `column 2` without header. */
 function describeColumn(c: Pick<Column, "header" | "name">): string {
   return c.header ? quote(c.header) : c.name;
 }
 
+/** A text quoted for a message, cut to 60 characters. */
 function quote(s: string): string {
   const t = s.length > 60 ? s.slice(0, 57) + "..." : s;
   return JSON.stringify(t);
 }
 
+/** The delimiter in words, for messages. */
 function delimiterName(d: Delimiter): string {
   return d === "\t" ? "tab" : d === "," ? "comma" : d === ";" ? "semicolon" : "whitespace";
 }
 
-/** Full sweeps among several monotonic segments, or null when the column is not a set of sweeps. */
-function chooseSweeps(biasV: Float64Array, segs: Segment[], minPoints: number): Segment[] | null {
-  let lo = Infinity;
-  let hi = -Infinity;
-  for (let i = 0; i < biasV.length; i++) {
-    if (biasV[i] < lo) lo = biasV[i];
-    if (biasV[i] > hi) hi = biasV[i];
-  }
-  const span = hi / 2 - lo / 2;
-  const full = segs.filter((s) => {
-    const segSpan = Math.abs(biasV[s.end] / 2 - biasV[s.start] / 2);
-    if (!(segSpan >= FULL_SWEEP_SHARE * span)) return false;
-    let distinct = 1;
-    for (let i = s.start + 1; i <= s.end; i++) if (biasV[i] !== biasV[i - 1]) distinct++;
-    return distinct >= minPoints;
-  });
-  return full.length >= 1 && segs.length - full.length <= 2 ? full : null;
+/** The values of `col` at the rows `idx`, as a new array. */
+function pickRows(col: Float64Array, idx: readonly number[]): Float64Array {
+  const out = new Float64Array(idx.length);
+  for (let i = 0; i < idx.length; i++) out[i] = col[idx[i]];
+  return out;
 }
 
+/** The same numbers in the same order. */
 function sameValues(a: Float64Array, b: Float64Array): boolean {
   if (a === b) return true;
   if (a.length !== b.length) return false;
@@ -868,6 +1146,7 @@ function sameValues(a: Float64Array, b: Float64Array): boolean {
   return true;
 }
 
+/** Element-wise mean of arrays of length `n` (summed as Σ a/k), always a new array. */
 function mean(arrays: readonly Float64Array[], n: number): Float64Array {
   if (arrays.length === 1) return Float64Array.from(arrays[0]);
   const out = new Float64Array(n);
@@ -876,6 +1155,7 @@ function mean(arrays: readonly Float64Array[], n: number): Float64Array {
   return out;
 }
 
+/** Median bias step, V, and whether every step is within {@link UNIFORM_STEP_RTOL} of it. */
 function stepOf(biasV: Float64Array): { medianV: number; uniform: boolean } {
   const n = biasV.length - 1;
   const steps = new Float64Array(n);

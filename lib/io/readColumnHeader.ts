@@ -1,5 +1,6 @@
 /**
- * Reading one column header: its name, its unit as written, and the role of the column.
+ * Reading one column header: its name, its unit as written, and the role of the column; and
+ * putting a header row together (a row of units under the names, names that contain spaces).
  */
 import { findUnit, type Quantity } from "./units.ts";
 
@@ -83,6 +84,64 @@ export function readColumnHeader(text: string): ColumnHeader {
   const words = name.toLowerCase().split(/[^a-z0-9]+/);
   const tipBias = role === "bias" && (words.includes("tip") || ["vt", "vtip", "ut", "utip"].includes(words[0]));
   return { header, name, unitText, role, tipBias };
+}
+
+/**
+ * True when a header row holds units only: every cell blank or a unit (bare or in brackets), at
+ * least one unit. Such a row (`V,pA`, `[V]\t[pA]`) belongs to the row of names above it.
+ *
+ * Example
+ * -------
+ * isUnitsRow(["V", "[pA]"]);  // => true
+ * isUnitsRow(["Bias", "Current"]);  // => false
+ */
+export function isUnitsRow(cells: readonly string[]): boolean {
+  let units = 0;
+  for (const cell of cells) {
+    if (cell.trim() === "") continue;
+    if (findUnit(stripBrackets(cell)) === null) return false;
+    units++;
+  }
+  return units > 0;
+}
+
+/**
+ * A cell trimmed, without one pair of brackets around the whole of it.
+ *
+ * Example
+ * -------
+ * stripBrackets(" [pA] ");  // => "pA"
+ */
+export function stripBrackets(cell: string): string {
+  const t = cell.trim();
+  return /^[([{].*[)\]}]$/.test(t) ? t.slice(1, -1).trim() : t;
+}
+
+/**
+ * Split a space-separated header line whose names contain spaces into `n` cells: by double quotes,
+ * else at tabs or runs of two or more spaces, else at single spaces with each `(unit)` token joined
+ * to the name before it. When none of these gives `n` cells, the single-space tokens.
+ *
+ * Example
+ * -------
+ * splitSpacedHeader("bias (mV) current (pA)", 2);  // => ["bias (mV)", "current (pA)"]
+ * splitSpacedHeader("sample bias  tunnel current", 2);  // => ["sample bias", "tunnel current"]
+ */
+export function splitSpacedHeader(line: string, n: number): string[] {
+  const t = line.trim();
+  if (t.indexOf('"') >= 0) {
+    const quoted = (t.match(/"[^"]*"|[^\s"]+/g) ?? []).map((c) => c.replace(/^"|"$/g, ""));
+    if (quoted.length === n) return quoted;
+  }
+  const wide = t.split(/\t|\s{2,}/);
+  if (wide.length === n) return wide;
+  const tokens = t.split(/\s+/);
+  const joined: string[] = [];
+  for (const tok of tokens) {
+    if (joined.length > 0 && /^[([{]/.test(tok)) joined[joined.length - 1] += " " + tok;
+    else joined.push(tok);
+  }
+  return joined.length === n ? joined : tokens;
 }
 
 function tidy(s: string): string {

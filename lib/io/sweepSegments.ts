@@ -1,6 +1,7 @@
 /**
- * Cutting a bias sequence into monotonic sweeps, merging repeated bias points, and carrying a
- * sweep onto another sweep's bias points. Used by the importer only.
+ * Cutting a bias sequence into monotonic sweeps, choosing the full sweeps among them, merging
+ * repeated bias points, and carrying a sweep onto another sweep's bias points. Used by the importer
+ * only.
  */
 
 /** One monotonic run of a bias sequence: rows `start..end` (inclusive). */
@@ -63,6 +64,58 @@ export function splitMonotonic(biasV: ArrayLike<number>): Segment[] {
   }
   out.push({ start, end: n - 1, direction });
   return out;
+}
+
+/**
+ * The full sweeps among the monotonic segments of a bias column.
+ *
+ * Parameters
+ * ----------
+ * biasV : Float64Array
+ *     Bias in file order (finite values), V.
+ * segments : Segment[]
+ *     Its monotonic segments, from {@link splitMonotonic}.
+ * minPoints : number
+ *     Fewest distinct bias values a full sweep has, in samples.
+ * fullShare : number
+ *     Share (0 to 1) of the span of the whole column that a full sweep covers.
+ *
+ * Returns
+ * -------
+ * Segment[] | null
+ *     The full sweeps in file order, when there is at least one and at most two other (partial)
+ *     segments; otherwise null: the column is not a set of sweeps.
+ *
+ * Notes
+ * -----
+ * Spans are computed from halves (max/2 − min/2), which stay finite for any finite bias.
+ *
+ * Example
+ * -------
+ * chooseSweeps(Float64Array.of(0, 1, 2, 1, 0), splitMonotonic([0, 1, 2, 1, 0]), 3, 0.9);
+ * // => [{start: 0, end: 2, direction: 1}, {start: 2, end: 4, direction: -1}]
+ */
+export function chooseSweeps(
+  biasV: Float64Array,
+  segments: readonly Segment[],
+  minPoints: number,
+  fullShare: number,
+): Segment[] | null {
+  let lo = Infinity;
+  let hi = -Infinity;
+  for (let i = 0; i < biasV.length; i++) {
+    if (biasV[i] < lo) lo = biasV[i];
+    if (biasV[i] > hi) hi = biasV[i];
+  }
+  const span = hi / 2 - lo / 2;
+  const full = segments.filter((s) => {
+    const segSpan = Math.abs(biasV[s.end] / 2 - biasV[s.start] / 2);
+    if (!(segSpan >= fullShare * span)) return false;
+    let distinct = 1;
+    for (let i = s.start + 1; i <= s.end; i++) if (biasV[i] !== biasV[i - 1]) distinct++;
+    return distinct >= minPoints;
+  });
+  return full.length >= 1 && segments.length - full.length <= 2 ? full : null;
 }
 
 /** Bias points in ascending order with one or more value columns, repeated points merged. */
