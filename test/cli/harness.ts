@@ -5,6 +5,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { main, type CliStream } from "../../lib/cli/main.ts";
 import { formatCurveCsv, simulateCurve, writeTextFile } from "../../lib/index.ts";
+import { EXAMPLE_SCENARIO } from "../fixtures/exampleScenario.ts";
 
 export interface Captured extends CliStream {
   text: string;
@@ -56,16 +57,9 @@ export function removeTempDirs(): void {
  * on level ε lies at |V| = (|ε| + Ec·(n + ½))/η (domain brief §3 and §6, closed form).
  */
 export const FILLING = Object.freeze({
-  cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
-  vb: [{ energyEV: -0.6, degeneracy: 2 }],
-  chargingEnergyEV: 0.1,
-  eta: 0.8,
-  tipRatePerS: 1e9,
-  substrateRatePerS: 1e8,
-  temperatureK: 4.5,
-  broadeningEV: 0.01,
+  ...EXAMPLE_SCENARIO,
+  vb: [EXAMPLE_SCENARIO.vb[0]],
   bias: { fromV: -1.2, toV: 1.6, stepV: 0.002 },
-  noise: { relative: 0.003, seed: 7 },
 });
 
 /** The same dot in shell tunnelling (Γtip/Γsub = 0.01): one peak per level at (|ε| + Ec/2)/η (closed form). */
