@@ -6,7 +6,6 @@ import { join } from "node:path";
 import {
   analysisToJson,
   analyzeCurve,
-  etaFromMetadata,
   formatAnalysisText,
   isDotspecError,
   readCurveFile,
@@ -17,6 +16,7 @@ import {
   type CurveFigureRenderer,
   type SummaryRow,
 } from "../index.ts";
+import { etaForCurve } from "./curveOptions.ts";
 
 /** Settings shared by every file of a batch (plain data: it is sent to worker threads). */
 export interface AnalyzeBatchSettings {
@@ -92,9 +92,9 @@ export async function analyzeFile(job: AnalyzeJob, settings: AnalyzeBatchSetting
   try {
     const { curve, record } = readCurveFile(file, settings.read);
     // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
-    const stated = settings.options.eta === undefined ? etaFromMetadata(curve.meta.metadata) : null;
-    const analysis = analyzeCurve(curve, stated ? { ...settings.options, eta: stated.eta } : settings.options);
-    if (stated) analysis.warnings.unshift(`η = ${stated.eta} taken from the file's metadata ("${stated.key}")`);
+    const { eta, note } = etaForCurve(settings.options.eta, curve);
+    const analysis = analyzeCurve(curve, eta === undefined ? settings.options : { ...settings.options, eta });
+    if (note) analysis.warnings.unshift(note);
     const result = analysisToJson(analysis, record);
     let row: SummaryRow | null = null;
     if (settings.outDir !== null && job.outName !== null) {

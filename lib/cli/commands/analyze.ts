@@ -6,8 +6,6 @@ import { basename, dirname, extname, join, resolve } from "node:path";
 import type { Command } from "commander";
 import {
   CONDUCTANCE_DEFAULTS,
-  BIAS_UNITS,
-  CURRENT_UNITS,
   CURVE_FILE_EXTENSIONS,
   FIND_PEAKS_DEFAULTS,
   formatCsv,
@@ -22,12 +20,11 @@ import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
-import { readOptions, unitOption, type UnitCliOptions } from "../unitOptions.ts";
+import { addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec analyze` as commander hands them over. */
-export interface AnalyzeCliOptions extends UnitCliOptions {
-  eta?: number;
+export interface AnalyzeCliOptions extends CurveCliOptions {
   windowMv?: number | "auto";
   order?: number;
   minStepSigma?: number;
@@ -63,7 +60,7 @@ Examples:
 export const analyzeCommand: CliCommand = {
   name: "analyze",
   register(program: Command, ctx: CliContext) {
-    program
+    const command = program
       .command("analyze")
       .summary("find, assign and measure the peaks of I–V curves")
       .description("Analyse I–V curves of single quantum dots: dI/dV, peaks, shells, gap, charging energy and level spacings.")
@@ -71,7 +68,7 @@ export const analyzeCommand: CliCommand = {
       .option(
         "--eta <η>",
         "voltage-division factor η in (0, 1] that converts bias to energy (default: the file's `# eta:` metadata line, else 1: energies then equal bias values)",
-        numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number greater than 0 and at most 1 (the voltage-division factor η, e.g. 0.85)" }),
+        etaOption,
       )
       .option(
         "--window-mv <mV>",
@@ -88,9 +85,8 @@ export const analyzeCommand: CliCommand = {
         `least significance of the current step under a peak, in standard errors (default: ${FIND_PEAKS_DEFAULTS.minStepSigma})`,
         numberOption({ min: 0, accepted: "a number of standard errors, 0 or more (e.g. 5)" }),
       )
-      .option("--use-measured", "use the file's measured dI/dV column (lock-in) instead of differentiating the current")
-      .option("--bias-unit <unit>", `unit of a bias column whose header gives none (${BIAS_UNITS.join(", ")}; default V, with a warning)`, unitOption("bias", BIAS_UNITS))
-      .option("--current-unit <unit>", "unit of current columns whose header gives none (A, mA, µA, nA, pA, fA; default A, with a warning)", unitOption("current", CURRENT_UNITS))
+      .option("--use-measured", "use the file's measured dI/dV column (lock-in) instead of differentiating the current");
+    addUnitOptions(command)
       .option("--json", "print one JSON array of the analysis records on stdout instead of the report")
       .option("--out <DIR>", "write DIR/<name>.json, DIR/<name>.svg per file and DIR/summary.csv")
       .option(

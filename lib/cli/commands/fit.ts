@@ -3,17 +3,16 @@
  * peak-based assignment of `dotspec analyze`.
  */
 import type { Command } from "commander";
-import { BIAS_UNITS, CURRENT_UNITS, analysisToJson, analyzeCurve, etaFromMetadata, fitCurve, fitToJson, formatFitText, listCurveFiles, readCurveFile, writeTextFile, FIT_DEFAULTS, type FitJson } from "../../index.ts";
+import { analysisToJson, analyzeCurve, fitCurve, fitToJson, formatFitText, listCurveFiles, readCurveFile, writeTextFile, FIT_DEFAULTS, type FitJson } from "../../index.ts";
 import { join, basename, extname } from "node:path";
 import { failureReason } from "../analyzeFile.ts";
 import { EXIT, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
-import { readOptions, unitOption, type UnitCliOptions } from "../unitOptions.ts";
+import { addUnitOptions, etaForCurve, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec fit` as commander hands them over. */
-export interface FitCliOptions extends UnitCliOptions {
-  eta?: number;
+export interface FitCliOptions extends CurveCliOptions {
   json?: boolean;
   out?: string;
   timeLimitMs?: number;
@@ -39,7 +38,7 @@ Example:
 export const fitCommand: CliCommand = {
   name: "fit",
   register(program: Command, ctx: CliContext) {
-    program
+    const command = program
       .command("fit")
       .summary("fit the double-barrier model to I–V curves")
       .description("Fit the orthodox-theory model of a dot in a double-barrier junction to measured I–V curves.")
@@ -47,10 +46,9 @@ export const fitCommand: CliCommand = {
       .option(
         "--eta <η>",
         "voltage-division factor η in (0, 1], held fixed (default: the file's `# eta:` metadata line, else 1)",
-        numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number greater than 0 and at most 1 (the voltage-division factor η, e.g. 0.85)" }),
-      )
-      .option("--bias-unit <unit>", `unit of a bias column whose header gives none (${BIAS_UNITS.join(", ")}; default V)`, unitOption("bias", BIAS_UNITS))
-      .option("--current-unit <unit>", "unit of current columns whose header gives none (A, mA, µA, nA, pA, fA; default A)", unitOption("current", CURRENT_UNITS))
+        etaOption,
+      );
+    addUnitOptions(command)
       .option("--json", "print one JSON array, one record per file")
       .option("--out <DIR>", "write DIR/<name>.fit.json per file")
       .option(
@@ -89,11 +87,10 @@ export function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): nu
   for (const file of files) {
     try {
       const { curve, record } = readCurveFile(file, readOptions(opts));
-      const stated = opts.eta === undefined ? etaFromMetadata(curve.meta.metadata) : null;
-      const eta = opts.eta ?? stated?.eta;
+      const { eta, note } = etaForCurve(opts.eta, curve);
       const analysis = analyzeCurve(curve, eta === undefined ? {} : { eta });
       const fit = fitCurve(analysis, { timeLimitMs: opts.timeLimitMs, maxIterations: opts.maxIterations });
-      if (stated) fit.warnings.unshift(`η = ${stated.eta} taken from the file's metadata ("${stated.key}")`);
+      if (note) fit.warnings.unshift(note);
       const json = fitToJson(fit, analysisToJson(analysis, record));
       records.push(json);
       if (opts.out) writeTextFile(join(opts.out, basename(file, extname(file)) + ".fit.json"), JSON.stringify(json, null, 2) + "\n");

@@ -1,0 +1,52 @@
+/**
+ * Options shared by the commands that read curves (`analyze`, `fit`): η, and the units of files
+ * whose header does not give them (headerless two-column files, or names without units).
+ */
+import { InvalidArgumentError, type Command } from "commander";
+import { BIAS_UNITS, CURRENT_UNITS, etaFromMetadata, findUnit, type Curve, type ReadCurveOptions } from "../index.ts";
+import { numberOption } from "./optionValue.ts";
+
+/** The options as commander hands them over. */
+export interface CurveCliOptions {
+  eta?: number;
+  biasUnit?: string;
+  currentUnit?: string;
+}
+
+/** The parser of `--eta`: a number in (0, 1]. */
+export const etaOption = numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number greater than 0 and at most 1 (the voltage-division factor η, e.g. 0.85)" });
+
+/** A commander parser accepting the units of one quantity. */
+export function unitOption(quantity: "bias" | "current", accepted: readonly string[]) {
+  return (value: string): string => {
+    if (!findUnit(value, quantity)) {
+      throw new InvalidArgumentError(`${JSON.stringify(value)} is not a ${quantity} unit; accepted: ${accepted.join(", ")}`);
+    }
+    return value;
+  };
+}
+
+/** Declares `--bias-unit` and `--current-unit` on a command. */
+export function addUnitOptions(command: Command): Command {
+  return command
+    .option("--bias-unit <unit>", `unit of a bias column whose header gives none (${BIAS_UNITS.join(", ")}; default V, with a warning)`, unitOption("bias", BIAS_UNITS))
+    .option("--current-unit <unit>", "unit of current columns whose header gives none (A, mA, µA, nA, pA, fA; default A, with a warning)", unitOption("current", CURRENT_UNITS));
+}
+
+/** The importer options the unit options stand for. */
+export function readOptions(opts: CurveCliOptions): ReadCurveOptions {
+  const read: ReadCurveOptions = {};
+  if (opts.biasUnit !== undefined) read.biasUnit = opts.biasUnit;
+  if (opts.currentUnit !== undefined) read.currentUnit = opts.currentUnit;
+  return read;
+}
+
+/**
+ * The η to use for one curve: `--eta` when given, else the file's `# eta:` metadata line (with a
+ * note for the warnings), else undefined (the library then uses 1 and says so).
+ */
+export function etaForCurve(cliEta: number | undefined, curve: Curve): { eta: number | undefined; note: string | null } {
+  if (cliEta !== undefined) return { eta: cliEta, note: null };
+  const stated = etaFromMetadata(curve.meta.metadata);
+  return stated ? { eta: stated.eta, note: `η = ${stated.eta} taken from the file's metadata ("${stated.key}")` } : { eta: undefined, note: null };
+}
