@@ -194,7 +194,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
   const biasV = sig.biasV.filter((_, i) => i % stride === 0);
   const dataA = sig.currentA.filter((_, i) => i % stride === 0);
-  const noiseA = Math.max(sig.record.noiseCurrentA * Math.sqrt(1), Number.MIN_VALUE);
+  const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
   const n = biasV.length;
 
   // Start values.
@@ -217,10 +217,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     return { cb, vb, chargingEnergyEV: p[nl], eta, tipRatePerS: r, substrateRatePerS: 1, relaxationRatePerS: 1000 * Math.max(r, 1), temperatureK };
   };
   const v3 = biasV.map((v) => v * v * v);
-  /** Unit-scale model current (Γsub = 1/s) and the best linear coefficients [scale, offset, b1, b3]. */
-  const evaluate = (p: ArrayLike<number>) => {
+  /** Model current at unit rate scale (Γsub = 1/s), before offset and background. */
+  const unitCurrent = (p: ArrayLike<number>) => {
     const model = build(p);
-    const unit = fastCurrent(currentSteps(model, bandLadders(model)), biasV, 10 ** p[nl + 2] / eta);
+    return fastCurrent(currentSteps(model, bandLadders(model)), biasV, 10 ** p[nl + 2] / eta);
+  };
+  /** Unit-scale model current and the best linear coefficients [scale, offset, b1, b3]. */
+  const evaluate = (p: ArrayLike<number>) => {
+    const unit = unitCurrent(p);
     // Linear least squares for [scale, offset, b1, b3].
     const cols = [unit, new Float64Array(n).fill(1), biasV, v3];
     const ata = Matrix.zeros(4, 4), atb = Matrix.zeros(4, 1);
@@ -325,8 +329,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const reducedChiSquare = chi2 / dof;
   const full = [...params, ...final.coef];
   const fullModel = (q: number[]) => {
-    const model = build(q);
-    const unit = fastCurrent(currentSteps(model, bandLadders(model)), biasV, 10 ** q[nl + 2] / eta);
+    const unit = unitCurrent(q);
     const out = new Float64Array(n);
     for (let i = 0; i < n; i++) out[i] = (q[nl + 3] * unit[i] + q[nl + 4] + q[nl + 5] * biasV[i] + q[nl + 6] * v3[i]) / noiseA;
     return out;

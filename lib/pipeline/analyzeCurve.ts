@@ -8,7 +8,7 @@ import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
-import { checkKnownKeys, checkPositive, checkRange } from "../util/check.ts";
+import { checkKnownKeys, checkRange } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
 /** Options of {@link analyzeCurve}; every field optional. */
@@ -160,7 +160,6 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       if (peakWidthMV !== A.firstPassPeakWidthMV) signal = conductance(curve, { windowMV, order, peakWidthMV, useMeasured });
     }
   }
-  if (options.peakWidthMV !== undefined) checkPositive("peakWidthMV", options.peakWidthMV);
 
   const found = peaksOf(signal, signal.didvS, "full");
   const bandWidthsV = decomposeBands(signal.biasV, signal.didvS, found.peaks);
