@@ -5,7 +5,7 @@ import { DotspecError } from "../util/errors.ts";
 import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { normalCdfFast } from "../util/special.ts";
-import { symmetricInverse } from "../util/smallSymmetric.ts";
+import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
 
@@ -415,13 +415,10 @@ function localStepFit(
     }
   }
   for (let r = 0; r < m; r++) for (let c = 0; c < r; c++) ata[r * m + c] = ata[c * m + r];
-  // Scale to unit diagonal before inverting (the columns differ by orders of magnitude).
-  const d = new Float64Array(m);
-  for (let r = 0; r < m; r++) d[r] = Math.sqrt(ata[r * m + r]) || 1;
-  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) ata[r * m + c] /= d[r] * d[c];
-  const scaled = symmetricInverse(ata, m);
-  if (!scaled) return null;
-  const inv = (r: number, c: number) => scaled[r * m + c] / (d[r] * d[c]);
+  // The columns differ by orders of magnitude: invert at unit diagonal.
+  const full = scaledSymmetricInverse(ata, m);
+  if (!full) return null;
+  const inv = (r: number, c: number) => full[r * m + c];
   const coef = new Float64Array(m);
   for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) coef[r] += inv(r, c) * atb[c];
   let ss = 0;
@@ -470,22 +467,12 @@ function parabola(x: Float64Array, y: Float64Array, l: number, r: number, x0: nu
     t0 += y[i], t1 += y[i] * u, t2 += y[i] * u2;
   }
   if (s0 < 3) return null;
-  // Solve [[s4 s3 s2][s3 s2 s1][s2 s1 s0]] [a b c]ᵀ = [t2 t1 t0]ᵀ by the adjugate.
-  const m = [s4, s3, s2, s3, s2, s1, s2, s1, s0];
-  const inv = invert3(m);
+  // Solve [[s4 s3 s2][s3 s2 s1][s2 s1 s0]] [a b c]ᵀ = [t2 t1 t0]ᵀ.
+  const inv = scaledSymmetricInverse([s4, s3, s2, s3, s2, s1, s2, s1, s0], 3);
   if (!inv) return null;
   const a = inv[0] * t2 + inv[1] * t1 + inv[2] * t0;
   const b = inv[3] * t2 + inv[4] * t1 + inv[5] * t0;
   const c = inv[6] * t2 + inv[7] * t1 + inv[8] * t0;
   // Covariance of (a, b) in units of the noise variance: [[Vaa, Vab], [Vba, Vbb]].
   return { a, b, c, cov: [inv[0], inv[1], inv[3], inv[4]] };
-}
-
-function invert3(m: number[]): number[] | null {
-  const [a, b, c, d, e, f, g, h, i] = m;
-  const A = e * i - f * h, B = -(d * i - f * g), C = d * h - e * g;
-  const det = a * A + b * B + c * C;
-  if (!(Math.abs(det) > 0)) return null;
-  const k = 1 / det;
-  return [A * k, -(b * i - c * h) * k, (b * f - c * e) * k, B * k, (a * i - c * g) * k, -(a * f - c * d) * k, C * k, -(a * h - b * g) * k, (a * e - b * d) * k];
 }

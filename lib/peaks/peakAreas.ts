@@ -3,6 +3,7 @@
  * least-squares decomposition into Gaussians at the found positions.
  */
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
+import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 
 /** Options of {@link peakAreas}. */
 export interface PeakAreasOptions {
@@ -29,8 +30,8 @@ export interface PeakAreasResult {
  * Notes:
  * 1. Model: G(V) = b₀ + b₁·(V − V₁) + Σ_k A_k·exp(−(V − V_k)²/2σ²) over
  *    [min V_k − mσ, max V_k + mσ], σ = FWHM/2√(2 ln 2); the positions and σ are held fixed, so
- *    the amplitudes and baseline follow from the normal equations (Cholesky-free Gaussian
- *    elimination with partial pivoting; K + 2 unknowns).
+ *    the amplitudes and baseline follow from the normal equations (K + 2 unknowns, inverted by
+ *    Cholesky at unit diagonal).
  * 2. Area = A_k·σ·√(2π): the current step under the peak. Overlapping peaks share their flanks
  *    correctly, which a prominence (height above the valley) does not.
  * 3. Negative amplitudes (a spurious peak, or a shoulder the model cannot place) are set to 0.
@@ -68,37 +69,12 @@ export function peakAreas(biasV: Float64Array, didvS: Float64Array, positionsV: 
     }
   }
   for (let a = 0; a < m; a++) for (let b = 0; b < a; b++) ata[a * m + b] = ata[b * m + a];
-  const x = solve(ata, atb, m);
+  const inv = scaledSymmetricInverse(ata, m);
+  const x = inv ? Float64Array.from({ length: m }, (_, r) => atb.reduce((acc, t, c) => acc + inv[r * m + c] * t, 0)) : null;
   const amplitudesS = positionsV.map((_, j) => (x ? Math.max(0, x[j + 2]) : 0));
   return {
     amplitudesS,
     areasA: amplitudesS.map((a) => a * sigma * Math.sqrt(2 * Math.PI)),
     baseline: x ? [x[0], x[1]] : [0, 0],
   };
-}
-
-/** Solves the m×m system in place by Gaussian elimination with partial pivoting; null if singular. */
-function solve(a: Float64Array, b: Float64Array, m: number): Float64Array | null {
-  for (let c = 0; c < m; c++) {
-    let p = c;
-    for (let r = c + 1; r < m; r++) if (Math.abs(a[r * m + c]) > Math.abs(a[p * m + c])) p = r;
-    if (!(Math.abs(a[p * m + c]) > 0)) return null;
-    if (p !== c) {
-      for (let j = 0; j < m; j++) [a[c * m + j], a[p * m + j]] = [a[p * m + j], a[c * m + j]];
-      [b[c], b[p]] = [b[p], b[c]];
-    }
-    for (let r = c + 1; r < m; r++) {
-      const f = a[r * m + c] / a[c * m + c];
-      if (f === 0) continue;
-      for (let j = c; j < m; j++) a[r * m + j] -= f * a[c * m + j];
-      b[r] -= f * b[c];
-    }
-  }
-  const x = new Float64Array(m);
-  for (let r = m - 1; r >= 0; r--) {
-    let s = b[r];
-    for (let j = r + 1; j < m; j++) s -= a[r * m + j] * x[j];
-    x[r] = s / a[r * m + r];
-  }
-  return x;
 }

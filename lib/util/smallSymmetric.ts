@@ -45,3 +45,19 @@ export function symmetricInverse(a: Float64Array, m: number): Float64Array | nul
   }
   return inv;
 }
+
+/**
+ * {@link symmetricInverse} after scaling to unit diagonal (D⁻¹AD⁻¹, D = √diag A), then scaled
+ * back: for normal equations whose columns differ by orders of magnitude (a constant, a bias in
+ * volts, its powers, unit-height peaks). Not modified: `a`.
+ */
+export function scaledSymmetricInverse(a: Float64Array | readonly number[], m: number): Float64Array | null {
+  const d = new Float64Array(m);
+  for (let r = 0; r < m; r++) d[r] = Math.sqrt(a[r * m + r]) || 1;
+  const s = new Float64Array(m * m);
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) s[r * m + c] = a[r * m + c] / (d[r] * d[c]);
+  const inv = symmetricInverse(s, m);
+  if (!inv) return null;
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) inv[r * m + c] /= d[r] * d[c];
+  return inv;
+}

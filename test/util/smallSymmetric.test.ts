@@ -3,7 +3,7 @@
 import { describe, it, expect } from "vitest";
 import { Matrix, inverse } from "ml-matrix";
 import { expectClose } from "../helpers/expectClose.ts";
-import { symmetricInverse } from "../../lib/util/smallSymmetric.ts";
+import { scaledSymmetricInverse, symmetricInverse } from "../../lib/util/smallSymmetric.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 
 describe("symmetricInverse(a, m)", () => {
@@ -20,5 +20,15 @@ describe("symmetricInverse(a, m)", () => {
 
   it("returns null for a singular matrix", () => {
     expect(symmetricInverse(Float64Array.from([1, 1, 1, 1]), 2)).toBeNull();
+  });
+
+  it("scaledSymmetricInverse matches ml-matrix on normal equations whose columns span 10 decades (1, u, u², u³ with u in volts ~1e-2)", () => {
+    const u = Array.from({ length: 40 }, (_, i) => (i - 20) * 5e-4);
+    const cols = [u.map(() => 1), u, u.map((v) => v * v), u.map((v) => v ** 3)];
+    const a = Matrix.zeros(4, 4);
+    for (let r = 0; r < 4; r++) for (let c = 0; c < 4; c++) a.set(r, c, cols[r].reduce((acc, v, i) => acc + v * cols[c][i], 0));
+    const got = scaledSymmetricInverse(Float64Array.from(a.to1DArray()), 4)!;
+    const ref = inverse(a).to1DArray();
+    ref.forEach((v, i) => expectClose(got[i], v, { rtol: 1e-6, atol: 1e-9 * Math.abs(ref[15]), what: `entry ${i}` }));
   });
 });
