@@ -2,13 +2,14 @@
  * The main job on one curve: conductance, peaks, assignment, with the record of how.
  */
 import type { Curve } from "../curve.ts";
-import { conductance, CONDUCTANCE_DEFAULTS, type ConductanceResult } from "../signal/conductance.ts";
+import { conductanceFromPrepared, CONDUCTANCE_DEFAULTS, type ConductanceResult } from "../signal/conductance.ts";
+import { prepareCurve, type PreparedCurve } from "../signal/prepareCurve.ts";
 import { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from "../peaks/findPeaks.ts";
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
-import { checkKnownKeys, checkRange } from "../util/check.ts";
+import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
 /** Options of {@link analyzeCurve}; every field optional. */
@@ -24,9 +25,9 @@ export interface AnalyzeOptions {
    * the curve (a first pass with 40 mV, then the fitted width of each band's first current step).
    */
   peakWidthMV?: number;
-  /** Minimum peak prominence in units of the dI/dV noise. Default 4. */
+  /** Minimum peak prominence in units of the dI/dV noise. Default: FIND_PEAKS_DEFAULTS.minProminenceSigma (3). */
   minProminenceSigma?: number;
-  /** Minimum significance of the current step under a peak, in units of its noise. Default 5. */
+  /** Minimum significance of the current step under a peak, in units of its noise. Default: FIND_PEAKS_DEFAULTS.minStepSigma (5). */
   minStepSigma?: number;
   /** Minimum separation of two peaks in mV. Default: half the Savitzky–Golay window, at least 10 mV. */
   minSeparationMV?: number;
@@ -53,8 +54,19 @@ export interface AnalyzeSettings {
   regimeForced: boolean;
 }
 
-/** One peak with its sweep-to-sweep scatter. */
+/**
+ * One peak of the analysis: a {@link Peak} from the final pass with its sweep-to-sweep scatter
+ * and, in `stepA`, the current step from the Gaussian decomposition of its band (see the notes of
+ * {@link analyzeCurve}), which shares overlapping flanks correctly.
+ */
 export interface AnalyzedPeak extends Peak {
+  /**
+   * The current step the peak carries, A: its area in the Gaussian decomposition of its band
+   * ({@link peakAreas}); findPeaks' prominence estimate where that decomposition found no area at all.
+   */
+  stepA: number;
+  /** findPeaks' estimate of the same step, prominence × FWHM × 1.0645 (Gaussian area), A. */
+  prominenceStepA: number;
   /** Standard deviation of the position over the individual sweeps, V; null with one sweep. */
   sweepSpreadV: number | null;
   /** Sweeps in which the peak was found (of all sweeps). */
@@ -77,7 +89,7 @@ export interface CurveAnalysis {
   warnings: string[];
 }
 
-export const ANALYZE_DEFAULTS = {
+export const ANALYZE_DEFAULTS = Object.freeze({
   /** Peak width of the first pass when the width is measured, mV. */
   firstPassPeakWidthMV: CONDUCTANCE_DEFAULTS.peakWidthMV,
   /** The peak whose step width is measured must have at least this SNR … */
@@ -92,49 +104,92 @@ export const ANALYZE_DEFAULTS = {
   separationPerWindow: 0.5,
   /** … but not below this, mV. */
   minSeparationFloorMV: 10,
-} as const;
+});
 
 const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "minStepSigma", "minSeparationMV", "useMeasured", "regime"] as const;
 
 /**
- * Analyses one I–V curve over a quantum dot.
+ * Analyses one I–V curve over a quantum dot: conductance, peaks, assignment, with the record of
+ * how each was obtained.
  *
- * Notes:
- * 1. Conductance by Savitzky–Golay differentiation ({@link conductance}). Unless a window or a
- *    peak width is given, the expected peak width is measured first: a pass with 40 mV finds
- *    the first CB and first VB peak; the width of each band's first current step is fitted on
- *    the raw current from the gap up to halfway to the next peak or half the peak's gap-side
- *    FWHM past it, whichever is nearer ({@link edgeStepWidth}; no other level overlaps that
- *    stretch); the smaller (a neighbour the first pass missed can only widen a fit), bounded to
- *    10–200 mV, sets the automatic window of the final pass.
- * 2. Peaks ({@link findPeaks}) with the position uncertainty from the current noise.
- * 3. With several sweeps, the peaks are also found in each sweep's dI/dV; each peak's sweep
+ * Parameters
+ * ----------
+ * curve : Curve
+ *     Bias (V, ascending), mean current (A), sweeps (A), optional measured dI/dV (S).
+ * options : AnalyzeOptions, optional
+ *     eta (η, default 1 with a warning), windowMV (mV or "auto", default "auto"), order (default
+ *     CONDUCTANCE_DEFAULTS.order), peakWidthMV (mV, default measured), minProminenceSigma and
+ *     minStepSigma (defaults in FIND_PEAKS_DEFAULTS), minSeparationMV (mV, default from the
+ *     window), useMeasured (default false), regime (default: classified).
+ *
+ * Returns
+ * -------
+ * CurveAnalysis
+ *     The conductance, the peaks (new objects: nothing returned is modified afterwards), the zero-
+ *     conductance region, the assignment, the settings as used and every warning.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/…` for an unknown key or a value out of range (η outside (0, 1], …);
+ *     `signal/…` for a curve the signal stage cannot use (too short for the window, not
+ *     ascending, not finite).
+ *
+ * Notes
+ * -----
+ * 1. Prepare once ({@link prepareCurve}): uniform grid, current noise, offset. Every window below
+ *    is applied to this one preparation ({@link conductanceFromPrepared}).
+ * 2. Width. Unless a window or a peak width is given, the expected peak width is measured: a
+ *    pass with ANALYZE_DEFAULTS.firstPassPeakWidthMV (the mean curve only) finds the first CB and
+ *    first VB peak within ANALYZE_DEFAULTS.firstPassReachV of the zero-current region; the width
+ *    of each band's first current step is fitted on the raw current from the gap up to halfway to
+ *    the next peak or half the peak's gap-side FWHM past it, whichever is nearer
+ *    ({@link edgeStepWidth}; no other level overlaps that stretch); the smaller (a neighbour the
+ *    first pass missed can only widen a fit), bounded to ANALYZE_DEFAULTS.peakWidthBoundsMV, sets
+ *    the automatic window of the final pass. The final pass is the first one again when the
+ *    window comes out the same and there is only one sweep.
+ * 3. Peaks ({@link findPeaks}) with the position uncertainty from the noise of the measured signal
+ *    (the current, or a measured conductance), with the same floor for both.
+ * 4. With several sweeps, the peaks are also found in each sweep's dI/dV; each peak's sweep
  *    scatter is the standard deviation of the nearest sweep peaks (within half its FWHM), and its
  *    uncertainty is raised to scatter/√sweeps when that is larger.
- * 4. Peak areas (current steps) per band by linear decomposition into Gaussians of a common
+ * 5. Peak areas (current steps) per band by linear decomposition into Gaussians of a common
  *    width ({@link peakAreas}); the width is twice the half width at half maximum of the band's
  *    gap-edge peak on its gap side, the one flank no neighbour overlaps.
- * 5. The zero-conductance region ({@link gapEdges}) and the assignment ({@link assignSpectrum}).
+ * 6. The zero-conductance region ({@link gapEdges}, once, on the final conductance) and the
+ *    assignment ({@link assignSpectrum}).
  *
- * @throws DotspecError for invalid options or a curve too short for the window.
+ * References
+ * ----------
+ * A. Savitzky and M. J. E. Golay, Anal. Chem. 36, 1627 (1964) (the filters); the method of each
+ * stage is in its own notes.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
+ * const a = analyzeCurve(curve, { eta: 0.88 });
+ * a.assignment.regime;                                 // => "shell-filling"
+ * a.assignment.multiplets.map((m) => m.label);         // => ["s", "p", "v1", "v2"]
+ * ```
  */
 export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveAnalysis {
   const A = ANALYZE_DEFAULTS;
   checkKnownKeys("analyze options", options, KEYS);
-  if (options.eta !== undefined) checkRange("eta", options.eta, 1e-6, 1);
+  const eta = options.eta === undefined ? undefined : checkEta("eta", options.eta);
   const order = options.order ?? CONDUCTANCE_DEFAULTS.order;
   const minProminenceSigma = options.minProminenceSigma ?? FIND_PEAKS_DEFAULTS.minProminenceSigma;
   const minStepSigma = options.minStepSigma ?? FIND_PEAKS_DEFAULTS.minStepSigma;
   const useMeasured = options.useMeasured ?? false;
   const windowMV = options.windowMV ?? "auto";
 
+  const prepared = prepareCurve(curve);
+  const measureWidth = windowMV === "auto" && options.peakWidthMV === undefined;
   let peakWidthMV = options.peakWidthMV ?? A.firstPassPeakWidthMV;
   let peakWidthMeasured = false;
-  let signal = conductance(curve, { windowMV, order, peakWidthMV, useMeasured });
+  let signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured, sweeps: !measureWidth });
   const separationFor = (s: ConductanceResult) =>
     options.minSeparationMV ?? Math.max(A.minSeparationFloorMV, A.separationPerWindow * s.record.windowMV);
-  const rawNoise = (s: ConductanceResult) =>
-    s.record.usedMeasured ? undefined : ({ quantity: "current", sigmaA: s.record.noiseCurrentA } as const);
   // "full": each peak tested for a significant current step and refined on the current;
   // "sweeps": single sweeps, which only supply positions near peaks already found.
   const peaksOf = (s: ConductanceResult, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length) =>
@@ -143,30 +198,37 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       minProminenceSigma: mode === "full" ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
       minStepSigma,
       minSeparationMV: separationFor(s),
-      rawNoise: rawNoise(s),
+      rawNoise: s.record.usedMeasured
+        ? { quantity: "conductance", sigmaS: s.record.noiseConductanceRawS ?? s.record.noiseConductanceS }
+        : { quantity: "current", sigmaA: s.record.noiseCurrentA },
       expectedFwhmV: peakWidthMV / 1000,
       refineOnCurrent: !s.record.usedMeasured,
       current: mode === "full" ? { currentA: s.currentA.subarray(lo, hi), noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) } : undefined,
     });
-  if (windowMV === "auto" && options.peakWidthMV === undefined) {
-    // The first pass only has to find the gap-edge peaks: it looks near the zero-conductance region.
-    const [lo, hi] = nearGap(signal, A.firstPassReachV);
+  if (measureWidth) {
+    // The first pass only has to find the gap-edge peaks: it looks near the zero-current region.
+    const [lo, hi] = nearRegion(prepared, A.firstPassReachV);
     const edgePeaks = peaksOf(signal, signal.didvS, "full", lo, hi).peaks.map((p) => ({ ...p, index: p.index + lo }));
     const widths = edgeWidths(signal, edgePeaks).map((w) => w * 1000);
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
       peakWidthMeasured = true;
-      if (peakWidthMV !== A.firstPassPeakWidthMV) signal = conductance(curve, { windowMV, order, peakWidthMV, useMeasured });
+    }
+    // The final pass: the same filter again only when neither the window nor the sweeps ask for more.
+    const sameWindow = peakWidthMV === A.firstPassPeakWidthMV;
+    if (!sameWindow || prepared.sweepsA.length >= 2) {
+      signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured });
     }
   }
 
   const found = peaksOf(signal, signal.didvS, "full");
-  const bandWidthsV = decomposeBands(signal.biasV, signal.didvS, found.peaks);
+  const areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
   const sweeps = signal.didvSweepsS;
   const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps").peaks);
-  const peaks: AnalyzedPeak[] = found.peaks.map((p) => {
-    if (sweeps.length < 2) return { ...p, sweepSpreadV: null, sweepsFound: sweeps.length || 1 };
+  const peaks: AnalyzedPeak[] = found.peaks.map((p, k) => {
+    const own = { ...p, stepA: areas.stepsA[k], prominenceStepA: p.stepA };
+    if (sweeps.length < 2) return { ...own, sweepSpreadV: null, sweepsFound: sweeps.length || 1 };
     const positions: number[] = [];
     for (const list of sweepPeaks) {
       let best: Peak | null = null;
@@ -180,11 +242,11 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       spread = Math.sqrt(positions.reduce((a, b) => a + (b - mean) ** 2, 0) / (positions.length - 1));
       uncertainty = Math.max(uncertainty, spread / Math.sqrt(positions.length));
     }
-    return { ...p, biasUncertaintyV: uncertainty, sweepSpreadV: spread, sweepsFound: positions.length };
+    return { ...own, biasUncertaintyV: uncertainty, sweepSpreadV: spread, sweepsFound: positions.length };
   });
 
   const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
-  const assignment = assignSpectrum(peaks, { eta: options.eta, regime: options.regime });
+  const assignment = assignSpectrum(peaks, { eta, regime: options.regime });
   const settings: AnalyzeSettings = {
     eta: assignment.energies.eta,
     etaGiven: assignment.energies.etaGiven,
@@ -206,7 +268,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     conductance: signal,
     peaks,
     peakRecord: found.record,
-    bandWidthsV,
+    bandWidthsV: areas.widthsV,
     gapEdgesV: edges,
     assignment,
     warnings: [...signal.record.warnings, ...found.record.warnings, ...assignment.warnings],
@@ -214,25 +276,25 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
 }
 
 /**
- * Replaces each peak's prominence-based step by the area from a Gaussian decomposition of its
- * band (in place) and returns the common widths used.
+ * The current step of each peak from a Gaussian decomposition of its band (findPeaks' own
+ * estimate where the decomposition gives nothing), and the common widths used; the peaks are
+ * not modified.
  */
-function decomposeBands(biasV: Float64Array, didvS: Float64Array, peaks: Peak[]): { CB: number | null; VB: number | null } {
-  const widths: { CB: number | null; VB: number | null } = { CB: null, VB: null };
+function bandAreas(biasV: Float64Array, didvS: Float64Array, peaks: readonly Peak[]): { stepsA: number[]; widthsV: { CB: number | null; VB: number | null } } {
+  const widthsV: { CB: number | null; VB: number | null } = { CB: null, VB: null };
+  const stepsA = peaks.map((p) => p.stepA);
   for (const band of ["CB", "VB"] as const) {
-    const list = peaks.filter((p) => (band === "CB" ? p.biasV > 0 : p.biasV < 0));
-    if (!list.length) continue;
-    const edge = band === "CB" ? list[0] : list[list.length - 1];
-    const fwhm = gapSideFwhm(biasV, didvS, edge) ?? median(list.map((p) => p.fwhmV));
-    widths[band] = fwhm;
-    const areas = peakAreas(biasV, didvS, list.map((p) => p.biasV), { fwhmV: fwhm });
-    list.forEach((p, i) => {
-      if (areas.areasA[i] > 0 || areas.amplitudesS.some((a) => a > 0)) p.stepA = areas.areasA[i];
-    });
+    const members = peaks.map((p, k) => [p, k] as const).filter(([p]) => (band === "CB" ? p.biasV > 0 : p.biasV < 0));
+    if (!members.length) continue;
+    const edge = band === "CB" ? members[0][0] : members[members.length - 1][0];
+    const fwhm = gapSideFwhm(biasV, didvS, edge) ?? median(members.map(([p]) => p.fwhmV));
+    widthsV[band] = fwhm;
+    const areas = peakAreas(biasV, didvS, members.map(([p]) => p.biasV), { fwhmV: fwhm });
+    if (!areas.amplitudesS.some((a) => a > 0)) continue;
+    members.forEach(([, k], i) => (stepsA[k] = areas.areasA[i]));
   }
-  return widths;
+  return { stepsA, widthsV };
 }
-
 /** Twice the half width at half maximum of a peak on its side facing 0 V (above the gap floor), V; null if not reached. */
 function gapSideFwhm(biasV: Float64Array, didvS: Float64Array, peak: Peak): number | null {
   const dir = peak.biasV > 0 ? -1 : 1;
@@ -275,13 +337,17 @@ function edgeWidths(signal: ConductanceResult, peaks: Peak[]): number[] {
   return out;
 }
 
-/** Index range [lo, hi) of the bias points within `reachV` of the zero-conductance region (all points without one). */
-function nearGap(signal: ConductanceResult, reachV: number): [number, number] {
-  const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
-  const n = signal.biasV.length;
-  if (!edges) return [0, n];
+/**
+ * Index range [lo, hi) of the bias points within `reachV` of the zero-current region found when
+ * the curve was prepared (all points without one).
+ */
+function nearRegion(prepared: PreparedCurve, reachV: number): [number, number] {
+  const region = prepared.offsetRegionV;
+  const { biasV } = prepared;
+  const n = biasV.length;
+  if (!region) return [0, n];
   let lo = 0, hi = n;
-  while (lo < n - 1 && signal.biasV[lo] < edges[0] - reachV) lo++;
-  while (hi > lo + 1 && signal.biasV[hi - 1] > edges[1] + reachV) hi--;
+  while (lo < n - 1 && biasV[lo] < region[0] - reachV) lo++;
+  while (hi > lo + 1 && biasV[hi - 1] > region[1] + reachV) hi--;
   return [lo, hi];
 }

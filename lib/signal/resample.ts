@@ -3,12 +3,12 @@
  * uniform grid when it is not.
  */
 import { DotspecError } from "../util/errors.ts";
-import { medianInPlace } from "./noise.ts";
+import { biasStep, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
 
 /** Defaults of {@link isUniformStep} and {@link resampleUniform} (locked by test/signal/resample.test.ts). */
 export const RESAMPLE_DEFAULTS = Object.freeze({
   /** Largest accepted |step − median step| as a fraction of the median step. */
-  tolerance: 0.01,
+  tolerance: UNIFORM_STEP_TOLERANCE,
 });
 
 /** What {@link resampleUniform} returns. */
@@ -41,9 +41,7 @@ export function checkAscending(biasV: ArrayLike<number>): void {
 
 /** Median of the steps of an ascending axis with at least 2 points. */
 export function medianStep(biasV: ArrayLike<number>): number {
-  const d = new Float64Array(biasV.length - 1);
-  for (let i = 0; i < d.length; i++) d[i] = biasV[i + 1] - biasV[i];
-  return medianInPlace(d);
+  return biasStep(biasV).medianV;
 }
 
 /**
@@ -92,13 +90,7 @@ export function isUniformStep(biasV: ArrayLike<number>, tolerance: number = RESA
 
 /** {@link isUniformStep} for a validated, strictly ascending axis. */
 export function isUniformStepUnchecked(biasV: ArrayLike<number>, tolerance: number): boolean {
-  if (biasV.length < 3) return true;
-  const h = medianStep(biasV);
-  const limit = tolerance * h;
-  for (let i = 1; i < biasV.length; i++) {
-    if (Math.abs(biasV[i] - biasV[i - 1] - h) > limit) return false;
-  }
-  return true;
+  return biasV.length < 3 || biasStep(biasV, tolerance).uniform;
 }
 
 /**

@@ -77,3 +77,18 @@ export function checkKnownKeys(where: string, obj: object, allowed: readonly str
     }
   }
 }
+
+/**
+ * The voltage-division factor η: the fraction of the bias across the tip–dot junction,
+ * η = C2/(C1 + C2), so a number in (0, 1]. One rule for every function that takes η.
+ */
+export function checkEta(name: string, value: unknown): number {
+  const v = checkFinite(name, value);
+  if (!(v > 0 && v <= 1)) {
+    throw new DotspecError(
+      "options/out-of-range",
+      `${name} must be greater than 0 and at most 1 (the voltage-division factor η = C2/(C1 + C2)); got ${v}`,
+    );
+  }
+  return v;
+}

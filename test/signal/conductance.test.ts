@@ -1,7 +1,8 @@
 import { std as mathStd } from "mathjs";
 import { describe, expect, it } from "vitest";
 import type { Curve } from "../../lib/curve.ts";
-import { CONDUCTANCE_DEFAULTS, conductance } from "../../lib/signal/conductance.ts";
+import { CONDUCTANCE_DEFAULTS, conductance, conductanceFromPrepared } from "../../lib/signal/conductance.ts";
+import { prepareCurve } from "../../lib/signal/prepareCurve.ts";
 import { savitzkyGolay, savitzkyGolayNoiseGain } from "../../lib/signal/savitzkyGolay.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { erfStep, erfStepDerivative, peakShape, uniformBias } from "./fixtures/curves.ts";
@@ -46,6 +47,7 @@ describe("CONDUCTANCE_DEFAULTS", () => {
       order: 3,
       peakWidthMV: 40,
       useMeasured: false,
+      sweeps: true,
       offset: "gap",
       windowFraction: { 1: 0.55, 2: 0.55, 3: 1.35, 4: 1.35, 5: 2.25 },
       noiseTargetFraction: 0.01,
@@ -322,5 +324,27 @@ describe("conductance(curve, options): options and special cases", () => {
     expectError(() => conductance({ ...c, currentA: bad }), "signal/not-finite", "index 7");
     const reversed = c.biasV.slice().reverse();
     expectError(() => conductance({ ...c, biasV: reversed }), "signal/not-ascending");
+  });
+});
+
+describe("conductanceFromPrepared(prepareCurve(curve), options)", () => {
+  // Derived by construction: conductance() is defined as this composition, so one preparation
+  // differentiated with several windows must give what conductance() gives for each.
+  const curve = makeCurve(BIAS, [CLEAN, CLEAN.map((v) => v * 1.01)]);
+  const prepared = prepareCurve(curve);
+  for (const windowMV of [20, 54, "auto"] as const) {
+    it(`equals conductance(curve, { windowMV: ${JSON.stringify(windowMV)} })`, () => {
+      const a = conductanceFromPrepared(prepared, { windowMV });
+      const b = conductance(curve, { windowMV });
+      expect(Array.from(a.didvS)).toEqual(Array.from(b.didvS));
+      expect(a.record).toEqual(b.record);
+    });
+  }
+  it("does not modify the prepared curve and skips the sweeps when asked", () => {
+    const before = Array.from(prepared.currentA);
+    const r = conductanceFromPrepared(prepared, { windowMV: 20, sweeps: false });
+    expect(r.didvSweepsS).toEqual([]);
+    expect(r.didvSpreadS).toBeNull();
+    expect(Array.from(prepared.currentA)).toEqual(before);
   });
 });
