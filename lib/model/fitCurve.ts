@@ -8,7 +8,8 @@ import { Matrix, inverse, solve } from "ml-matrix";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { Level } from "./scenario.ts";
 import { bandLadders, currentSteps, fastCurrent, type DotModel } from "./bandCurrent.ts";
-import { checkKnownKeys, checkPositive, checkRange } from "../util/check.ts";
+import { REGIME_LIMITS } from "./regimeLimits.ts";
+import { checkEta, checkKnownKeys, checkPositive } from "../util/check.ts";
 import { DotspecError } from "../util/errors.ts";
 
 /** Options of {@link fitCurve}. */
@@ -27,7 +28,7 @@ export interface FitOptions {
   chargingEnergyGuessEV?: number;
 }
 
-export const FIT_DEFAULTS = {
+export const FIT_DEFAULTS = Object.freeze({
   temperatureK: 4.5,
   maxIterations: 60,
   timeLimitMs: 5000,
@@ -37,13 +38,13 @@ export const FIT_DEFAULTS = {
   convergenceTolerance: 1e-5,
   /** Iterations per chunk between convergence checks. */
   chunkIterations: 4,
-  /** Fitted Γtip/Γsub at or above which the curve is in shell filling … */
-  fillingRatioMin: 1.5,
+  /** Fitted Γtip/Γsub at or above which the curve is in shell filling ({@link REGIME_LIMITS}) … */
+  fillingRatioMin: REGIME_LIMITS.fillingRateRatioMin,
   /** … and at or below which it is in shell tunnelling (in between: intermediate). */
-  tunnelingRatioMax: 0.1,
+  tunnelingRatioMax: REGIME_LIMITS.tunnelingRateRatioMax,
   /** A reduced χ² above this says the model, as started from the assignment, does not describe the curve. */
   poorFitChiSquare: 10,
-} as const;
+});
 
 /** One fitted parameter with its standard error. */
 export interface FittedValue {
@@ -175,7 +176,7 @@ function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
 export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): CurveFit {
   checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV"]);
   const F = FIT_DEFAULTS;
-  const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkRange("eta", options.eta, 1e-6, 1);
+  const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkEta("eta", options.eta);
   const temperatureK = checkPositive("temperatureK", options.temperatureK ?? F.temperatureK);
   const maxIterations = checkPositive("maxIterations", options.maxIterations ?? F.maxIterations);
   const timeLimitMs = checkPositive("timeLimitMs", options.timeLimitMs ?? F.timeLimitMs);

@@ -5,6 +5,7 @@
 import { seededRandom } from "../util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import type { Level, Scenario } from "./scenario.ts";
+import { REGIME_LIMITS } from "./regimeLimits.ts";
 
 export type SyntheticRegime = "shell-filling" | "shell-tunneling" | "intermediate";
 
@@ -48,7 +49,8 @@ export const SYNTHETIC_DEFAULTS: SyntheticRanges = {
   pSplittingEV: [0.04, 0.1],
   pSplitProbability: 0.5,
   singleParticleGapEV: [1.6, 2.4],
-  rateRatio: { "shell-filling": [5, 50], "shell-tunneling": [0.002, 0.03], intermediate: [0.3, 2] },
+  // Intermediate spectra lie between the regime boundaries of REGIME_LIMITS.
+  rateRatio: { "shell-filling": [5, 50], "shell-tunneling": [0.002, 0.03], intermediate: [REGIME_LIMITS.tunnelingRateRatioMax, REGIME_LIMITS.fillingRateRatioMin] },
   resolvability: 0.7,
   points: 2000,
   temperatureK: 4.5,

@@ -83,7 +83,7 @@ describe("fitCurve(analysis)", () => {
       convergenceTolerance: 1e-5,
       chunkIterations: 4,
       fillingRatioMin: 1.5,
-      tunnelingRatioMax: 0.1,
+      tunnelingRatioMax: 3 / 7,
       poorFitChiSquare: 10,
     });
   });

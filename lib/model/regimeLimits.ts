@@ -1,0 +1,77 @@
+/**
+ * Where shell filling ends and shell tunnelling begins: the rate-ratio boundaries of the two
+ * regimes, shared by the assignment (which reads them as step ratios), the model fit (which
+ * classifies its fitted Γtip/Γsub) and the accuracy benchmark (whose intermediate spectra lie
+ * between them).
+ */
+
+/**
+ * Step of the second CB charging peak over the first for Γtip/Γsub = r, in orthodox theory.
+ *
+ * Parameters
+ * ----------
+ * rateRatio : number
+ *     r = Γtip/Γsub, the tunnelling rate into the dot through the tip junction over the rate out
+ *     through the substrate junction (both for one electron, one spin state), > 0.
+ *
+ * Returns
+ * -------
+ * number
+ *     r/(1 + r), in (0, 1).
+ *
+ * Notes
+ * -----
+ * Derivation (closed form, master equation of a spin-degenerate level with strong charging):
+ * electrons enter through the tip at Γt per spin state and leave through the substrate at Γs
+ * per electron; r = Γt/Γs.
+ * 1. First step (only the first electron fits): states 0 ⇄ 1 with rates 2Γt and Γs give
+ *    I₁ = e·2ΓtΓs/(2Γt + Γs) = e·Γs·2r/(1 + 2r).
+ * 2. Second step: 0 ⇄ 1 ⇄ 2 with 0→1 at 2Γt, 1→2 at Γt, 1→0 at Γs, 2→1 at 2Γs. Detailed balance
+ *    of the chain gives P₁ = 2r·P₀, P₂ = r²·P₀, P₀ = 1/(1 + r)², and
+ *    I₂ = e·Γs·(P₁ + 2P₂) = e·Γs·2r/(1 + r).
+ * 3. (I₂ − I₁)/I₁ = (1 + 2r)/(1 + r) − 1 = r/(1 + r).
+ * So the second step is about as high as the first deep in shell filling (r ≫ 1) and about r
+ * times it deep in shell tunnelling (r ≪ 1), where the second peak is a weak charging satellite.
+ * test/model/regimeLimits.test.ts checks it against the master equation of lib/model.
+ *
+ * References
+ * ----------
+ * E. Bonet, M. M. Deshmukh and D. C. Ralph, Phys. Rev. B 65, 045317 (2002) (rate equations of a
+ * spin-degenerate level); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * secondToFirstStepRatio(1.5); // => 0.6
+ * ```
+ */
+export function secondToFirstStepRatio(rateRatio: number): number {
+  return rateRatio / (1 + rateRatio);
+}
+
+/** The inverse of {@link secondToFirstStepRatio}: r = q/(1 − q) for a step ratio q in [0, 1). */
+export function rateRatioFromStepRatio(stepRatio: number): number {
+  return stepRatio / (1 - stepRatio);
+}
+
+/**
+ * The regime boundaries in Γtip/Γsub and their reading as second/first CB step ratios.
+ * Common practice (no source) for where to draw them; their step-ratio reading is the closed form
+ * of {@link secondToFirstStepRatio}.
+ */
+export const REGIME_LIMITS = Object.freeze({
+  /**
+   * Shell filling at Γtip/Γsub ≥ 1.5: the second charging peak of s carries at least 60 % of the
+   * first step (r/(1 + r) ≥ 0.6), so the doublet reads as two peaks of similar height.
+   */
+  fillingRateRatioMin: 1.5,
+  /**
+   * Shell tunnelling at Γtip/Γsub ≤ 3/7 ≈ 0.43: the second peak carries at most 30 % of the first
+   * (r/(1 + r) ≤ 0.3), weak enough to be told from a level as a charging satellite.
+   */
+  tunnelingRateRatioMax: 3 / 7,
+  /** {@link secondToFirstStepRatio} at fillingRateRatioMin: 0.6. */
+  fillingStepRatioMin: secondToFirstStepRatio(1.5),
+  /** {@link secondToFirstStepRatio} at tunnelingRateRatioMax: 0.3. */
+  tunnelingStepRatioMax: secondToFirstStepRatio(3 / 7),
+});

@@ -1,0 +1,46 @@
+// The regime boundaries: the step-ratio reading r/(1 + r) is a closed form of the master equation
+// of a spin-degenerate level (derived in lib/model/regimeLimits.ts; E. Bonet, M. M. Deshmukh and
+// D. C. Ralph, Phys. Rev. B 65, 045317 (2002) for the rate equations); here it is checked against
+// the project's own master-equation solver, which test/model/ladder.test.ts checks against the
+// closed-form plateau currents.
+import { describe, it, expect } from "vitest";
+import { REGIME_LIMITS, rateRatioFromStepRatio, secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
+import { exactCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
+import { expectClose } from "../helpers/expectClose.ts";
+
+function sLevel(rateRatio: number): DotModel {
+  return {
+    cb: [{ energyEV: 0.5, degeneracy: 2 }],
+    vb: [],
+    chargingEnergyEV: 0.2,
+    eta: 0.8,
+    tipRatePerS: rateRatio * 1e8,
+    substrateRatePerS: 1e8,
+    relaxationRatePerS: 1e12,
+    temperatureK: 4.5,
+  };
+}
+
+describe("secondToFirstStepRatio(r)", () => {
+  it("is the ratio of the second to the first current step of the s doublet in the master equation", () => {
+    for (const r of [0.05, 3 / 7, 1, 1.5, 20]) {
+      // Plateaus after the first and second charging steps at (ε + Ec/2)/η and (ε + 3Ec/2)/η.
+      const [first, second] = exactCurrent(sLevel(r), [(0.5 + 0.2) / 0.8, (0.5 + 0.4) / 0.8]);
+      expectClose((second - first) / first, secondToFirstStepRatio(r), { rtol: 1e-8, what: `r = ${r}` });
+    }
+  });
+
+  it("has rateRatioFromStepRatio as its inverse (closed form q/(1 − q))", () => {
+    for (const r of [0.01, 0.43, 1.5, 50]) expectClose(rateRatioFromStepRatio(secondToFirstStepRatio(r)), r, { rtol: 1e-12 });
+  });
+});
+
+describe("REGIME_LIMITS", () => {
+  it("are locked: filling at r ≥ 1.5 (step ratio 0.6), tunnelling at r ≤ 3/7 (step ratio 0.3) — common practice (no source)", () => {
+    expect(Object.isFrozen(REGIME_LIMITS)).toBe(true);
+    expect(REGIME_LIMITS.fillingRateRatioMin).toBe(1.5);
+    expectClose(REGIME_LIMITS.tunnelingRateRatioMax, 3 / 7);
+    expectClose(REGIME_LIMITS.fillingStepRatioMin, 0.6, { rtol: 1e-12 });
+    expectClose(REGIME_LIMITS.tunnelingStepRatioMax, 0.3, { rtol: 1e-12 });
+  });
+});
