@@ -100,7 +100,7 @@ export interface Assignment {
 }
 
 /** Thresholds of the classification and grouping rules (locked by a test). */
-export const ASSIGN_DEFAULTS = {
+export const ASSIGN_DEFAULTS = Object.freeze({
   eta: 1,
   /**
    * Shell filling: the second CB step over the first lies in this range. In orthodox theory it is
@@ -129,7 +129,7 @@ export const ASSIGN_DEFAULTS = {
   tunnelingSublevelFraction: 0.5,
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
-} as const;
+});
 
 const SHELLS = [
   { label: "s", degeneracy: 2 },

@@ -12,7 +12,7 @@ export interface GapEdgesOptions {
   runSamples?: number;
 }
 
-export const GAP_EDGES_DEFAULTS = { thresholdSigma: 3, runSamples: 3 } as const;
+export const GAP_EDGES_DEFAULTS = Object.freeze({ thresholdSigma: 3, runSamples: 3 });
 
 /**
  * Edges of the zero-conductance region (the gap seen directly in dI/dV).

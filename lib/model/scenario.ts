@@ -62,7 +62,7 @@ export interface Scenario {
 }
 
 /** Defaults of the optional scenario keys. */
-export const SCENARIO_DEFAULTS = {
+export const SCENARIO_DEFAULTS = Object.freeze({
   broadeningEV: 0,
   /** Relaxation rate as a multiple of the faster of the two tunnelling rates. */
   relaxationRateFactor: 1000,
@@ -72,7 +72,7 @@ export const SCENARIO_DEFAULTS = {
   maxStates: 1200,
   /** The output may not have more points than this. */
   maxPoints: 1_000_000,
-} as const;
+});
 
 const SCENARIO_KEYS = [
   "cb",

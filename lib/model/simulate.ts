@@ -48,13 +48,15 @@ export interface SimulatedCurve {
 }
 
 /** Tuning constants of the simulation, locked by a test. */
-export const SIMULATE_DEFAULTS = {
+export const SIMULATE_DEFAULTS = Object.freeze({
   method: "exact" as const,
+  /** Compute dI/dV as well as I. */
+  conductance: true,
   /** Fine grid step as a fraction of kB·T/(e·η). */
   fineStepPerThermalWidth: 1 / 3,
   /** Gaussian kernels are cut at this many standard deviations. */
   kernelReachSigma: 8,
-} as const;
+});
 
 /** The dot model of a scenario. */
 export function scenarioModel(s: Scenario): DotModel {
@@ -151,7 +153,7 @@ function convolveAt(y: Float64Array, kernel: Float64Array, i: number): number {
 export function simulateCurve(input: Scenario | unknown, options: SimulateOptions = {}): SimulatedCurve {
   const scenario = parseScenario(input);
   const method = options.method ?? SIMULATE_DEFAULTS.method;
-  const wantConductance = options.conductance ?? true;
+  const wantConductance = options.conductance ?? SIMULATE_DEFAULTS.conductance;
   const model = scenarioModel(scenario);
   const ladders = bandLadders(model);
   const biasV = biasAxis(scenario.bias);

@@ -39,7 +39,10 @@ export interface Peak {
 export interface FindPeaksOptions {
   /** Standard deviation of the noise of the (smoothed) conductance curve, S. Required. */
   noiseS: number;
-  /** Minimum prominence in units of noiseS. Default 4 with `current`, 8 without. */
+  /**
+   * Minimum prominence in units of noiseS. Default: FIND_PEAKS_DEFAULTS.minProminenceSigma (3)
+   * with `current` (the step test then rejects noise), FIND_PEAKS_DEFAULTS.minProminenceSigmaAlone (8) without.
+   */
   minProminenceSigma?: number;
   /**
    * The (unsmoothed) current the conductance came from, in A, and its white noise per sample.
@@ -89,12 +92,14 @@ export interface FindPeaksRecord {
   warnings: string[];
 }
 
-export const FIND_PEAKS_DEFAULTS = {
+export const FIND_PEAKS_DEFAULTS = Object.freeze({
   /** With the step test, prominence only screens candidates. */
   minProminenceSigma: 3,
   /** Without the step test, prominence alone must keep noise out (≈ 0.05 false peaks per 2,000 samples of smoothed white noise). */
   minProminenceSigmaAlone: 8,
   minStepSigma: 5,
+  /** Refine positions on the current when it is given. */
+  refineOnCurrent: true,
   /** Pre-screen of the step test: the mean current over one half-width beyond ±1.5 FWHM must rise by this many σ. */
   preScreenSigma: 2,
   /** Gauss–Newton iterations of the position refinement on the current. */
@@ -105,10 +110,16 @@ export const FIND_PEAKS_DEFAULTS = {
    * Chosen so that about 95 % of errors lie within 2σ on the accuracy benchmark's spectra.
    */
   positionFloorPerFwhm: 0.02,
+  /**
+   * The same floor for positions from the parabola through a conductance peak (a measured dI/dV,
+   * not refined on the current), chosen the same way on the benchmark's simulated lock-in
+   * spectra (`npm run bench:accuracy -- --path measured`).
+   */
+  positionFloorPerFwhmParabola: 0.008,
   minSeparationMV: 20,
   /** The parabola uses the points above this fraction of the prominence. */
   fitLevel: 0.7,
-} as const;
+});
 
 /**
  * Finds and refines the peaks of a conductance curve.
@@ -244,7 +255,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
 
   // 4–6. Refinement.
   const peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
-  if (current && (options.refineOnCurrent ?? true)) {
+  if (current && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent)) {
     const halfWidthOf = (k: number) =>
       Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
     const settled = new Set<number>();
@@ -337,9 +348,13 @@ function refine(
   const raw = options.rawNoise;
   if (raw && raw.quantity === "current" && stepA > 0) bound = Math.sqrt((2 * Math.sqrt(Math.PI) * stepV * sigmaX * raw.sigmaA ** 2) / (stepA * stepA));
   else if (raw && raw.quantity === "conductance" && prominence > 0) bound = Math.sqrt((2 * stepV * sigmaX * raw.sigmaS ** 2) / (Math.sqrt(Math.PI) * prominence ** 2));
+  // The same floor as the refinement on the current (overlap and line shape the bound does not see).
+  const onCurrent = options.current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
+  const floorPerFwhm = onCurrent ? FIND_PEAKS_DEFAULTS.positionFloorPerFwhm : FIND_PEAKS_DEFAULTS.positionFloorPerFwhmParabola;
+  const floorV = floorPerFwhm * (options.expectedFwhmV ?? fwhmV);
   return {
     biasV: position,
-    biasUncertaintyV: bound > 0 ? bound : vertexSE,
+    biasUncertaintyV: Math.hypot(bound > 0 ? bound : vertexSE, floorV),
     index: p,
     heightS: height,
     prominenceS: prominence,

@@ -43,7 +43,7 @@ describe("dotspec analyze --json", () => {
     expect(records.map((j) => j.source)).toEqual([filling, tunneling]);
   });
 
-  it("shell filling: charging peaks at (ε + Ec(n + ½))/η (closed form, domain brief §3/§6)", () => {
+  it("shell filling: charging peaks at (ε + Ec(n + ½))/η (closed form of orthodox theory: Beenakker, Phys. Rev. B 44, 1646 (1991))", () => {
     const [j] = records;
     expect(j.regime).toBe("shell-filling");
     // s (g = 2): n = 0, 1; p (g = 6): n = 2, 3, 4 inside the 1.6 V sweep; VB level: n = 0, 1.
@@ -52,7 +52,7 @@ describe("dotspec analyze --json", () => {
     expectClose(multiplet(j, "v1").peaksV, [0, 1].map((n) => chargingPeakV(-0.6, n)), { atol: PEAK_ATOL_V, what: "v1 peaks" });
   });
 
-  it("shell filling: Ec = 0.1 eV (0.125 V in bias), gap = first CB − first VB peak, Δsp = εp − εs (closed forms, domain brief §3)", () => {
+  it("shell filling: Ec = 0.1 eV (0.125 V in bias), gap = first CB − first VB peak, Δsp = εp − εs (closed forms; Banin et al., Nature 400, 542 (1999), from memory)", () => {
     const [j] = records;
     expectClose(j.chargingEnergyV!, 0.1 / 0.8, { atol: 0.002, what: "Ec in bias" });
     expectClose(j.energies.chargingEnergyEV!, 0.1, { atol: 0.002, what: "Ec in eV" });
@@ -62,7 +62,7 @@ describe("dotspec analyze --json", () => {
     expect(j.energies.etaGiven).toBe(true);
   });
 
-  it("shell tunnelling: one peak per level at (ε + Ec/2)/η and no Ec (closed form, domain brief §3)", () => {
+  it("shell tunnelling: one peak per level at (ε + Ec/2)/η and no Ec (closed form; Banin et al., Nature 400, 542 (1999), from memory)", () => {
     const [, j] = records;
     expect(j.regime).toBe("shell-tunneling");
     expectClose(multiplet(j, "s").peaksV, [chargingPeakV(0.5, 0)], { atol: PEAK_ATOL_V, what: "s" });

@@ -27,7 +27,7 @@ async function dotspec(args: string[], cwd: string): Promise<{ code: number; std
 }
 
 describe("node bin/dotspec.js", () => {
-  it("simulate writes a CSV and analyze --json reads it back, peaks at (ε + Ec(n + ½))/η (closed form, domain brief §3/§6)", async () => {
+  it("simulate writes a CSV and analyze --json reads it back, peaks at (ε + Ec(n + ½))/η (closed form of orthodox theory: Beenakker, Phys. Rev. B 44, 1646 (1991))", async () => {
     const dir = tempDir();
     writeFileSync(join(dir, "dot.json"), JSON.stringify(FILLING));
     const sim = await dotspec(["simulate", "--config", "dot.json", "--out", "curves/dot.csv", "--method", "fast"], dir);

@@ -54,7 +54,7 @@ export function removeTempDirs(): void {
 /**
  * A dot in shell filling (Γtip/Γsub = 10): CB s (g = 2) at 0.5 eV and p (g = 6) at 0.8 eV, one
  * VB level (g = 2) at −0.6 eV, Ec = 0.1 eV, η = 0.8. The charging peak of the (n+1)-th carrier
- * on level ε lies at |V| = (|ε| + Ec·(n + ½))/η (domain brief §3 and §6, closed form).
+ * on level ε lies at |V| = (|ε| + Ec·(n + ½))/η (closed form of orthodox theory: Beenakker, Phys. Rev. B 44, 1646 (1991)).
  */
 export const FILLING = Object.freeze({
   ...EXAMPLE_SCENARIO,

@@ -55,7 +55,7 @@ describe("dotspec simulate --config SCENARIO.json --out CURVE.csv", () => {
     expect(readFileSync(a, "utf8")).toBe(readFileSync(b, "utf8"));
   });
 
-  it("writes a curve that analyze reads back, with the peaks at (ε + Ec(n + ½))/η (closed form, domain brief §3/§6)", async () => {
+  it("writes a curve that analyze reads back, with the peaks at (ε + Ec(n + ½))/η (closed form of orthodox theory: Beenakker, Phys. Rev. B 44, 1646 (1991))", async () => {
     const out = join(tempDir(), "dot.csv");
     expect((await run(["simulate", "--config", scenarioFile(FILLING), "--out", out])).code).toBe(0);
     const r = await run(["analyze", out, "--eta", "0.8", "--json"]);

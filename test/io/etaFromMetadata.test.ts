@@ -1,4 +1,4 @@
-// etaFromMetadata: by construction of the inputs (η must lie in (0, 1], domain brief §2).
+// etaFromMetadata: by construction of the inputs (η = C2/(C1 + C2) of a capacitive divider lies in (0, 1]: closed form).
 // Expected values are derived from the inputs by construction: this is the project's own interface, with no outside reference value to name.
 import { describe, it, expect } from "vitest";
 import { etaFromMetadata } from "../../lib/io/etaFromMetadata.ts";

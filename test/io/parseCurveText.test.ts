@@ -377,7 +377,7 @@ describe("parseCurveText: layouts", () => {
   });
 
   it("parseCurveText(text) warns that a tip bias is read as sample bias", () => {
-    // domain brief §1: bias is the sample bias unless a file says otherwise
+    // the project's convention (README, Conventions): bias is the sample bias unless a file says otherwise
     const r = parse("Tip bias (V),I (A)\n0,0\n1,1\n2,2\n3,3\n4,4\n");
     expect(r.record.warnings.join(" ")).toContain("negate it if the bias was applied to the tip");
   });

@@ -58,7 +58,7 @@ describe("readColumnHeader", () => {
   });
 
   it("readColumnHeader('Tip bias (V)') flags a tip bias", () => {
-    // domain brief §1: dotspec reads bias as sample bias
+    // the project's convention (README, Conventions): dotspec reads bias as sample bias
     expect(readColumnHeader("Tip bias (V)").tipBias).toBe(true);
     expect(readColumnHeader("sample bias (V)").tipBias).toBe(false);
   });

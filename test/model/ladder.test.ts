@@ -56,7 +56,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
     }
   });
 
-  it("in shell tunnelling the s and p steps approach 2:6 (orthodox theory, degeneracy counting; domain brief §3)", () => {
+  it("in shell tunnelling the s and p steps approach 2:6 (orthodox theory, degeneracy counting; U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory)", () => {
     const m = model({
       cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
       chargingEnergyEV: 0.1,
@@ -76,7 +76,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
 });
 
 describe("exactCurrent(model, biasV): positions and line shapes", () => {
-  it("the n-th added electron appears at (ε + Ec·(n + ½))/η in shell filling (orthodox theory, domain brief §3)", () => {
+  it("the n-th added electron appears at (ε + Ec·(n + ½))/η in shell filling (orthodox theory: C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991))", () => {
     const eta = 0.85, ec = 0.12, es = 0.4, ep = 0.7;
     const m = model({
       cb: [{ energyEV: es, degeneracy: 2 }, { energyEV: ep, degeneracy: 6 }],

@@ -34,7 +34,7 @@ describe("simulateCurve(scenario)", () => {
     expectClose(fwhm(r.biasV, r.didvS!), expected, { rtol: 5e-3 });
   });
 
-  it("lock-in modulation Vp gives the semicircle instrument function of FWHM √3·Vp (derived, domain brief §4)", () => {
+  it("lock-in modulation Vp gives the semicircle instrument function of FWHM √3·Vp (derived; J. Klein et al., Phys. Rev. B 7, 2336 (1973), from memory)", () => {
     const vrms = 0.005;
     const r = simulateCurve(singleLine({ lockInVrms: vrms }));
     // Thermal width 3.5·kT/η ≈ 0.19 mV widens the 12.2 mV semicircle by well under 1 %.
@@ -77,7 +77,7 @@ describe("simulateCurve(scenario)", () => {
   });
 
   it("SIMULATE_DEFAULTS and SCENARIO_DEFAULTS are as documented (locked)", () => {
-    expect(SIMULATE_DEFAULTS).toEqual({ method: "exact", fineStepPerThermalWidth: 1 / 3, kernelReachSigma: 8 });
+    expect(SIMULATE_DEFAULTS).toEqual({ method: "exact", conductance: true, fineStepPerThermalWidth: 1 / 3, kernelReachSigma: 8 });
     expect(SCENARIO_DEFAULTS).toEqual({ broadeningEV: 0, relaxationRateFactor: 1000, lockInVrms: 0, noiseSeed: 1, maxStates: 1200, maxPoints: 1_000_000 });
   });
 });

@@ -106,9 +106,11 @@ describe("findPeaks(biasV, didvS, options)", () => {
       minProminenceSigma: 3,
       minProminenceSigmaAlone: 8,
       minStepSigma: 5,
+      refineOnCurrent: true,
       preScreenSigma: 2,
       refineIterations: 1,
       positionFloorPerFwhm: 0.02,
+      positionFloorPerFwhmParabola: 0.008,
       minSeparationMV: 20,
       fitLevel: 0.7,
     });

@@ -1,6 +1,6 @@
 // Round trips through the whole job: curves simulated by the orthodox-theory model (exact master
 // equation) are analysed, and the result is checked against the closed-form peak positions
-// (ε + Ec·(n + ½))/η and the trade's formulas (domain brief §3, §6) within the project's
+// (ε + Ec·(n + ½))/η and the trade's formulas (orthodox theory: C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991); U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory) within the project's
 // quality bar (peaks within 25 % of Ec, gap within 2 %, Ec and Δsp within 10 %).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";

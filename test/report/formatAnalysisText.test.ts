@@ -13,7 +13,7 @@ function withExampleEc(): AnalysisJson {
   j.uncertainties.chargingEnergyV = 0.0018;
   j.energies.eta = 0.85;
   j.energies.etaGiven = true;
-  j.energies.chargingEnergyEV = 0.1423 * 0.85; // 120.955 meV: energy = η × bias (domain brief §2)
+  j.energies.chargingEnergyEV = 0.1423 * 0.85; // 120.955 meV: energy = η × bias (closed form: the capacitive divider η = C2/(C1 + C2))
   j.energies.uncertainties.chargingEnergyEV = 0.0018 * 0.85; // 1.53 meV
   return j;
 }
@@ -49,11 +49,11 @@ describe("formatAnalysisText(json)", () => {
     }
   });
 
-  it("lists each multiplet with found/expected (s of shell filling: 2/2, domain brief §3)", () => {
+  it("lists each multiplet with found/expected (s of shell filling: 2/2, U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory)", () => {
     expect(formatAnalysisText(base)).toMatch(/\n {4}CB +s +2\/2 /);
   });
 
-  it("writes a quantity the regime does not define as — with the reason (Ec in shell tunnelling, domain brief §3)", () => {
+  it("writes a quantity the regime does not define as — with the reason (Ec in shell tunnelling, U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory)", () => {
     const j = structuredClone(base);
     j.regime = "shell-tunneling";
     j.chargingEnergyV = null;

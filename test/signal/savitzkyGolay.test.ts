@@ -256,7 +256,7 @@ describe("mlSavitzkyGolay (the one wrapper of ml-savitzky-golay's default export
   });
 
   it("is a function under tsx (Node ESM), where the default import is the module object", () => {
-    // ml-savitzky-golay 5.0.0 is CommonJS with exports.default (see /work/shared/toolchain.md).
+    // ml-savitzky-golay 5.0.0 is CommonJS with exports.default (its package.json has no "type": "module").
     const script =
       "const m = await import('./lib/signal/savitzkyGolay.ts');" +
       "const y = Float64Array.from({length: 9}, (_, i) => i * i);" +
