@@ -2,29 +2,13 @@
  * Savitzky–Golay smoothing and differentiation of uniformly sampled data, with least-squares
  * fits at both ends instead of padding.
  *
- * The interior is filtered by the reference library ml-savitzky-golay (its output, with pad
- * 'none', is shorter by windowSamples − 1 and centred); the first and last (windowSamples − 1)/2
- * points are evaluated from asymmetric fits of the same polynomial order over the first and last
- * windowSamples points, so the ends are neither padded nor distorted.
+ * The interior is a convolution with the centre weights of the least-squares fit (computed once
+ * per window, order and derivative, and cached); the first and last (windowSamples − 1)/2 points
+ * are evaluated from asymmetric fits of the same polynomial order over the first and last
+ * windowSamples points, so the ends are neither padded nor distorted. The tests compare the
+ * interior with the general-purpose library ml-savitzky-golay and with the published tables.
  */
-import sg from "ml-savitzky-golay";
 import { DotspecError } from "../util/errors.ts";
-
-/** The signature of ml-savitzky-golay's default export (version 5.0.0). */
-type MlSavitzkyGolay = (
-  data: ArrayLike<number>,
-  h: number,
-  options: { windowSize: number; derivative: number; polynomial: number; pad: "none" },
-) => number[];
-
-/*
- * ml-savitzky-golay 5.0.0 is CommonJS with `exports.default`: under plain Node ESM and tsx the
- * default import is the module object (the function sits on `.default`), under vitest it is the
- * function itself. Resolve it once here; nothing else in dotspec imports the package.
- */
-const imported = sg as unknown as MlSavitzkyGolay | { default: MlSavitzkyGolay };
-/** ml-savitzky-golay's filter function, resolved for Node ESM, tsx and vitest alike. */
-export const mlSavitzkyGolay: MlSavitzkyGolay = typeof imported === "function" ? imported : imported.default;
 
 /** Options of {@link savitzkyGolay}. */
 export interface SavitzkyGolayOptions {
@@ -46,7 +30,7 @@ export const SAVITZKY_GOLAY_DEFAULTS = Object.freeze({
   order: 3,
   derivative: 0,
   stepV: 1,
-  /** Smallest window ml-savitzky-golay accepts. */
+  /** Smallest window: five points, the shortest in the published tables. */
   minWindowSamples: 5,
   minOrder: 1,
   maxOrder: 5,
@@ -202,6 +186,21 @@ function derivativeOfMonomials(p: Projector, derivative: number, position: numbe
     out[k] = (falling * x0 ** (k - derivative)) / sd;
   }
   return out;
+}
+
+/* Centre weights by (windowSamples, order, derivative): a pure cache like the projectors'. */
+const centreCache = new Map<number, Float64Array>();
+
+/** The centre weights of (windowSamples, order, derivative), computed on first use; never handed out. */
+function centreWeights(windowSamples: number, order: number, derivative: number): Float64Array {
+  const key = (windowSamples * 8 + order) * 4 + derivative;
+  let w = centreCache.get(key);
+  if (w === undefined) {
+    w = weightsUnchecked(windowSamples, order, derivative, (windowSamples - 1) / 2);
+    if (centreCache.size >= PROJECTOR_CACHE_LIMIT) centreCache.clear();
+    centreCache.set(key, w);
+  }
+  return w;
 }
 
 /** Weights for (derivative, position) as a new array; arguments assumed valid. */
@@ -371,8 +370,8 @@ function checkStep(stepV: number): void {
  *
  * Notes
  * -----
- * 1. Interior points m … n−1−m (m = (windowSamples − 1)/2) come from ml-savitzky-golay with
- *    pad 'none'; its i-th output belongs to sample i + m.
+ * 1. Interior points m … n−1−m (m = (windowSamples − 1)/2) are the convolution of y with the
+ *    centre weights (position m of the window): out_i = Σ_j w_j·y_{i−m+j}.
  * 2. Points 0 … m−1 are evaluated at positions 0 … m−1 of a fit over samples 0 … windowSamples−1;
  *    points n−m … n−1 at positions m+1 … windowSamples−1 of a fit over the last windowSamples
  *    samples (asymmetric weights, same order). A polynomial of degree ≤ order is therefore
@@ -423,8 +422,14 @@ export function savitzkyGolayUnchecked(
   const n = y.length;
   const m = (windowSamples - 1) / 2;
   const out = new Float64Array(n);
-  const interior = mlSavitzkyGolay(y, stepV, { windowSize: windowSamples, derivative, polynomial: order, pad: "none" });
-  for (let k = 0; k < interior.length; k++) out[k + m] = interior[k];
+  // Interior: convolution with the centre weights.
+  const w = centreWeights(windowSamples, order, derivative);
+  const scaleInterior = 1 / stepV ** derivative;
+  for (let i = m; i < n - m; i++) {
+    let acc = 0;
+    for (let j = 0, k = i - m; j < windowSamples; j++, k++) acc += w[j] * y[k];
+    out[i] = acc * scaleInterior;
+  }
   // Ends: fit the first and last windows once (order + 1 coefficients each) and evaluate the
   // derivative of each fit at the m outer positions.
   const p = projector(windowSamples, order);
