@@ -417,19 +417,22 @@ function localStepFit(
     cols[self * rows + i] = normalCdfFast(u / s);
     if (withShift) cols[(self + 1) * rows + i] = Math.exp((-0.5 * u * u) / (s * s)) * INV_SQRT_2PI;
   }
+  // Normal equations column by column (contiguous dot products; the same sums in the same order).
   const ata = new Float64Array(m * m);
   const atb = new Float64Array(m);
-  const row = new Float64Array(m);
-  for (let i = 0; i < rows; i++) {
-    for (let r = 0; r < m; r++) row[r] = cols[r * rows + i];
-    const y = current[lo + i];
-    for (let r = 0; r < m; r++) {
-      const v = row[r];
-      atb[r] += v * y;
-      for (let c = r; c < m; c++) ata[r * m + c] += v * row[c];
+  for (let r = 0; r < m; r++) {
+    const a = r * rows;
+    let sb = 0;
+    for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
+    atb[r] = sb;
+    for (let c = r; c < m; c++) {
+      const b = c * rows;
+      let sum = 0;
+      for (let i = 0; i < rows; i++) sum += cols[a + i] * cols[b + i];
+      ata[r * m + c] = sum;
+      ata[c * m + r] = sum;
     }
   }
-  for (let r = 0; r < m; r++) for (let c = 0; c < r; c++) ata[r * m + c] = ata[c * m + r];
   // The columns differ by orders of magnitude: invert at unit diagonal.
   const full = scaledSymmetricInverse(ata, m);
   if (!full) return null;
