@@ -2,6 +2,8 @@
 import { describe, it, expect } from "vitest";
 import { analysisToJson, formatCsv, summaryRow, SUMMARY_COLUMNS } from "../../lib/index.ts";
 import { simulatedAnalysis } from "./fixture.ts";
+import { FILLING, chargingPeakV } from "../cli/harness.ts";
+import { expectClose } from "../helpers/expectClose.ts";
 
 describe("summaryRow(json)", () => {
   const { analysis } = simulatedAnalysis();
@@ -16,25 +18,30 @@ describe("summaryRow(json)", () => {
     expect(Object.keys(row)).toEqual([...SUMMARY_COLUMNS]);
   });
 
-  it("copies each value from its field of the record (bias-referred V, energies eV, counts)", () => {
-    expect(row).toEqual({
-      source: json.source,
-      regime: json.regime,
-      gap_V: json.gapV,
-      gap_sigma_V: json.uncertainties.gapV,
-      Ec_V: json.chargingEnergyV,
-      Ec_sigma_V: json.uncertainties.chargingEnergyV,
-      single_particle_gap_V: json.singleParticleGapV,
-      dSP_V: json.levelSpacingSPV,
-      dSP_sigma_V: json.uncertainties.levelSpacingSPV,
-      eta: json.energies.eta,
-      gap_eV: json.energies.gapEV,
-      Ec_eV: json.energies.chargingEnergyEV,
-      single_particle_gap_eV: json.energies.singleParticleGapEV,
-      dSP_eV: json.energies.levelSpacingSPEV,
-      n_peaks: json.peaks.length,
-      n_warnings: json.warnings.length,
-    });
+  it("holds the dot's numbers: gap, Ec and Δsp of the simulated scenario, in V and in eV (closed forms of orthodox theory)", () => {
+    // Closed form (C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991)): the (n+1)-th carrier on a
+    // level ε appears at ±(|ε| + Ec(n + ½))/η. So gap = s₁ − v₁ = (εs − εv + Ec)/η,
+    // Ec in bias = Ec/η, Δsp = (p₁ − s₂) − Ec/η = (εp − εs)/η; energies are η × bias values.
+    const { eta, chargingEnergyEV: ec } = FILLING;
+    const [s, p] = FILLING.cb.map((l) => l.energyEV);
+    const v = FILLING.vb[0].energyEV;
+    const gapV = chargingPeakV(s, 0) - chargingPeakV(v, 0);
+    expectClose(gapV, (s - v + ec) / eta, { rtol: 1e-12, what: "closed form of the gap" });
+    const tol = { rtol: 0, atol: 0.01 }; // 10 mV: a few peak σ at 0.3 % noise (README, Accuracy)
+    expect(row.source).toBe("dot-filling.csv");
+    expect(row.regime).toBe("shell-filling");
+    expectClose(row.gap_V as number, gapV, { ...tol, what: "gap_V" });
+    expectClose(row.Ec_V as number, ec / eta, { ...tol, what: "Ec_V" });
+    expectClose(row.dSP_V as number, (p - s) / eta, { ...tol, what: "dSP_V" });
+    expectClose(row.single_particle_gap_V as number, gapV - ec / eta, { ...tol, what: "single_particle_gap_V" });
+    expect(row.eta).toBe(eta);
+    expectClose(row.gap_eV as number, eta * (row.gap_V as number), { rtol: 1e-12, what: "gap_eV = η·gap_V" });
+    expectClose(row.Ec_eV as number, ec, { atol: eta * tol.atol, what: "Ec_eV" });
+    expectClose(row.dSP_eV as number, p - s, { atol: eta * tol.atol, what: "dSP_eV" });
+    for (const k of ["gap_sigma_V", "Ec_sigma_V", "dSP_sigma_V"] as const) {
+      expect(row[k] as number, k).toBeGreaterThan(0);
+      expect(row[k] as number, k).toBeLessThan(tol.atol);
+    }
   });
 
   it("a null quantity becomes an empty CSV cell (formatCsv writes null as empty, lib/io/writeTable.ts)", () => {
