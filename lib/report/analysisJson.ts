@@ -4,7 +4,7 @@
  */
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { Multiplet, RegimeEvidence, SpectrumEnergies, SpectrumUncertainties } from "../assign/assignSpectrum.ts";
-import type { ImportRecord } from "../io/parseCurveText.ts";
+import type { ImportRecord } from "../io/parse/record.ts";
 
 /** Version of the record layout; bumped when a field changes meaning. */
 export const ANALYSIS_JSON_VERSION = 1;
