@@ -31,6 +31,7 @@ const OBJECTS: Record<string, object> = {
 /** [source file, options interface, the DEFAULTS objects its fields default to, in lookup order]. */
 const CASES: [string, string, string[]][] = [
   ["../lib/peaks/findPeaks.ts", "FindPeaksOptions", ["FIND_PEAKS_DEFAULTS"]],
+  ["../lib/assign/assignSpectrum.ts", "AssignOptions", ["ASSIGN_DEFAULTS"]],
   ["../lib/pipeline/analyzeCurve.ts", "AnalyzeOptions", ["ANALYZE_DEFAULTS", "FIND_PEAKS_DEFAULTS", "CONDUCTANCE_DEFAULTS", "ASSIGN_DEFAULTS"]],
   ["../lib/signal/conductance.ts", "ConductanceOptions", ["CONDUCTANCE_DEFAULTS"]],
   ["../lib/signal/prepareCurve.ts", "PrepareCurveOptions", ["PREPARE_CURVE_DEFAULTS"]],

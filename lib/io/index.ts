@@ -23,7 +23,7 @@ export {
   type ImportRecord,
   type ParseOptions,
   type ParsedCurve,
-} from "./parseCurveText.ts";
+} from "./parse/index.ts";
 export type { ColumnRole } from "./readColumnHeader.ts";
 export type { Delimiter } from "./cells.ts";
 export {

@@ -5,7 +5,7 @@
 import { readdirSync, readFileSync, statSync, type Stats } from "node:fs";
 import { extname, join, resolve } from "node:path";
 import { DotspecError } from "../util/errors.ts";
-import { parseCurveText, type ParseOptions, type ParsedCurve } from "./parseCurveText.ts";
+import { parseCurveText, type ParseOptions, type ParsedCurve } from "./parse/index.ts";
 
 /** Options of {@link readCurveFile}: those of {@link parseCurveText} except `source`, which is the path. */
 export type ReadCurveOptions = Omit<ParseOptions, "source">;

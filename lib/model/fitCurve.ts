@@ -129,14 +129,14 @@ function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
         // Single levels, whose steps in shell tunnelling scale with the degeneracy: a split CB
         // shell shares its degeneracy out in proportion to the steps; a VB level is given
         // 2 × its step over the band's first step (degeneracy is not assumed there).
-        const stepOf = (v: number) => analysis.peaks.find((p) => p.biasV === v)?.stepA ?? 0;
-        const steps = m.peaksV.map(stepOf);
+        const stepOf = (i: number) => analysis.peaks[i].stepA;
+        const steps = m.peakIndices.map(stepOf);
         const total = steps.reduce((a, b) => a + b, 0);
         m.peaksV.forEach((v, j) => {
           let g: number;
           if (band === "CB" && m.degeneracy) g = total > 0 ? Math.max(1, Math.round((m.degeneracy * steps[j]) / total)) : Math.max(1, Math.round(m.degeneracy / m.found));
           else {
-            const first = stepOf(a.multiplets.find((x) => x.band === band)!.peaksV[0]);
+            const first = stepOf(a.multiplets.find((x) => x.band === band)!.peakIndices[0]);
             g = first > 0 ? Math.max(1, Math.round((2 * steps[j]) / first)) : 2;
           }
           seeds.push({ band, label: m.found > 1 ? `${m.label}${j + 1}` : m.label, degeneracy: g, firstPeakV: v, before: 0 });

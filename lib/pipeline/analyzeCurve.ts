@@ -8,6 +8,7 @@ import { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from 
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
+import { withMultiplets } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
@@ -71,6 +72,8 @@ export interface AnalyzedPeak extends Peak {
   sweepSpreadV: number | null;
   /** Sweeps in which the peak was found (of all sweeps). */
   sweepsFound: number;
+  /** Index in `assignment.multiplets` of the multiplet holding the peak; null outside every multiplet. */
+  multiplet: number | null;
 }
 
 /** Everything the analysis of one curve produced. */
@@ -226,7 +229,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
   const sweeps = signal.didvSweepsS;
   const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps").peaks);
-  const peaks: AnalyzedPeak[] = found.peaks.map((p, k) => {
+  const peaks: Omit<AnalyzedPeak, "multiplet">[] = found.peaks.map((p, k) => {
     const own = { ...p, stepA: areas.stepsA[k], prominenceStepA: p.stepA };
     if (sweeps.length < 2) return { ...own, sweepSpreadV: null, sweepsFound: sweeps.length || 1 };
     const positions: number[] = [];
@@ -266,7 +269,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     source: curve.meta.source,
     settings,
     conductance: signal,
-    peaks,
+    peaks: withMultiplets(peaks, assignment.multiplets),
     peakRecord: found.record,
     bandWidthsV: areas.widthsV,
     gapEdgesV: edges,

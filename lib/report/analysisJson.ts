@@ -4,7 +4,7 @@
  */
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { Multiplet, RegimeEvidence, SpectrumEnergies, SpectrumUncertainties } from "../assign/assignSpectrum.ts";
-import type { ImportRecord } from "../io/parseCurveText.ts";
+import type { ImportRecord } from "../io/parse/record.ts";
 
 /** Version of the record layout; bumped when a field changes meaning. */
 export const ANALYSIS_JSON_VERSION = 1;
@@ -26,7 +26,10 @@ export interface AnalysisJson {
   levelSpacingPDV: number | null;
   /** Spacings between successive VB groups from the gap edge, V. */
   valenceSpacingsV: number[];
-  /** Peak positions of each multiplet sorted by |bias| from the gap edge, V. */
+  /**
+   * Peak positions of each multiplet sorted by |bias| from the gap edge, V; `peakIndices` name
+   * the multiplet's peaks by their index in `peaks`.
+   */
   multiplets: Multiplet[];
   peaks: {
     biasV: number;
@@ -42,6 +45,8 @@ export interface AnalysisJson {
     sweepSpreadV: number | null;
     /** Label of the multiplet holding the peak, or null (satellite or unassigned). */
     multiplet: string | null;
+    /** Index in `multiplets` of the multiplet holding the peak, or null (satellite or unassigned). */
+    multipletIndex: number | null;
   }[];
   energies: SpectrumEnergies;
   /** 1σ uncertainties of the bias-referred quantities, V. */
@@ -73,8 +78,6 @@ export interface AnalysisJson {
  */
 export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRecord): AnalysisJson {
   const a = analysis.assignment;
-  const label = new Map<number, string>();
-  for (const m of a.multiplets) for (const v of m.peaksV) label.set(v, m.label);
   const rec = analysis.conductance.record;
   return {
     version: ANALYSIS_JSON_VERSION,
@@ -87,7 +90,13 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
     levelSpacingSPV: a.quantities.levelSpacingSPV,
     levelSpacingPDV: a.quantities.levelSpacingPDV,
     valenceSpacingsV: a.quantities.valenceSpacingsV,
-    multiplets: a.multiplets.map((m) => ({ ...m, peaksV: [...m.peaksV], peakUncertaintiesV: [...m.peakUncertaintiesV], subgroups: [...m.subgroups] })),
+    multiplets: a.multiplets.map((m) => ({
+      ...m,
+      peakIndices: [...m.peakIndices],
+      peaksV: [...m.peaksV],
+      peakUncertaintiesV: [...m.peakUncertaintiesV],
+      subgroups: [...m.subgroups],
+    })),
     peaks: analysis.peaks.map((p) => ({
       biasV: p.biasV,
       biasUncertaintyV: p.biasUncertaintyV,
@@ -98,7 +107,8 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
       snr: p.snr,
       stepSignificance: p.stepSignificance,
       sweepSpreadV: p.sweepSpreadV,
-      multiplet: label.get(p.biasV) ?? null,
+      multiplet: p.multiplet === null ? null : a.multiplets[p.multiplet].label,
+      multipletIndex: p.multiplet,
     })),
     energies: a.energies,
     uncertainties: a.uncertainties,

@@ -242,13 +242,12 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
 
   // Bottom panel: dI/dV and peaks.
   const didv = envelope(biasV, sig.didvS, plotColumns, 1e9);
-  const label = new Map<number, string>();
-  for (const m of analysis.assignment.multiplets) for (const v of m.peaksV) label.set(v, m.label);
+  const multiplets = analysis.assignment.multiplets;
   const peaks = analysis.peaks.map((p) => ({
     biasV: p.biasV,
     heightNS: p.heightS * 1e9,
     sigmaMV: p.biasUncertaintyV * 1000,
-    label: label.get(p.biasV) ?? null,
+    label: p.multiplet === null ? null : multiplets[p.multiplet].label,
   }));
   let yMax = 0;
   let yMin = 0;

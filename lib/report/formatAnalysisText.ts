@@ -124,6 +124,7 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
   if (json.peaks.length === 0) out.push(`${I}${bold("Peaks")}: none found`);
   else {
     out.push(`${I}${bold("Peaks")} (${json.peaks.length})`);
+    const satellites = new Set(json.evidence.satellitePeakIndices);
     const rows = json.peaks.map((p, i) => [
       String(i + 1),
       p.biasV.toFixed(D.biasDecimals),
@@ -131,7 +132,7 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
       sig3(p.height * 1e9),
       (p.fwhmV * 1000).toFixed(1),
       p.snr >= 10 ? p.snr.toFixed(0) : p.snr.toFixed(1),
-      p.multiplet ?? (json.evidence.satellitePeaksV.includes(p.biasV) ? "satellite" : D.missing),
+      p.multiplet ?? (satellites.has(i) ? "satellite" : D.missing),
     ]);
     out.push(
       ...table(

@@ -10,7 +10,7 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { expectClose } from "../helpers/expectClose.ts";
 import { isDotspecError } from "../../lib/util/errors.ts";
-import { PARSE_DEFAULTS, parseCurveText, type ParseOptions, type ParsedCurve } from "../../lib/io/parseCurveText.ts";
+import { PARSE_DEFAULTS, parseCurveText, type ParseOptions, type ParsedCurve } from "../../lib/io/parse/index.ts";
 import { ACCEPTED_UNITS, parseUnit, toSI } from "../../lib/io/units.ts";
 import { errorOf } from "../helpers/errors.ts";
 

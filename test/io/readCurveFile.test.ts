@@ -8,7 +8,7 @@ import { tmpdir } from "node:os";
 import { join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { expectClose } from "../helpers/expectClose.ts";
-import { parseCurveText } from "../../lib/io/parseCurveText.ts";
+import { parseCurveText } from "../../lib/io/parse/index.ts";
 import { listCurveFiles, readCurveFile } from "../../lib/io/readCurveFile.ts";
 import { errorOf } from "../helpers/errors.ts";
 

@@ -10,7 +10,7 @@ import fc from "fast-check";
 import { csvParse, csvParseRows } from "d3-dsv";
 import { expectClose } from "../helpers/expectClose.ts";
 import { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, writeTextFile } from "../../lib/io/writeTable.ts";
-import { parseCurveText } from "../../lib/io/parseCurveText.ts";
+import { parseCurveText } from "../../lib/io/parse/index.ts";
 import { errorOf } from "../helpers/errors.ts";
 
 let tmp = "";

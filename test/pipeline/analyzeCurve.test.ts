@@ -46,6 +46,29 @@ describe("analyzeCurve(curve, options): round trip through the model", () => {
     expect(a.settings.peakWidthMeasured).toBe(true);
   });
 
+  it("links every analysed peak to its multiplet by index: the closed-form s and p positions carry s and p", () => {
+    const a = analyzeCurve(curveOf(simulateCurve(scenario(1e9))), { eta });
+    const ms = a.assignment.multiplets;
+    // The link both ways: peak i names multiplet k exactly when k lists i.
+    a.peaks.forEach((p, i) => {
+      const owners = ms.flatMap((m, k) => (m.peakIndices.includes(i) ? [k] : []));
+      expect(owners.length).toBeLessThanOrEqual(1);
+      expect(p.multiplet).toBe(owners.length ? owners[0] : null);
+    });
+    for (const m of ms) m.peakIndices.forEach((i, k) => expect(a.peaks[i].biasV).toBe(m.peaksV[k]));
+    // Closed form (|ε| + Ec(n + ½))/η: the peak nearest each s and p position is linked to that shell.
+    const tol = (0.25 * ec) / eta;
+    const expected = [
+      ...[0, 1].map((n) => ["s", (0.5 + ec * (n + 0.5)) / eta] as const),
+      ...[2, 3, 4, 5, 6, 7].map((n) => ["p", (0.8 + ec * (n + 0.5)) / eta] as const),
+    ];
+    for (const [label, v] of expected) {
+      const near = a.peaks.filter((p) => Math.abs(p.biasV - v) < tol);
+      expect(near, `one peak within ${tol} V of ${v} V`).toHaveLength(1);
+      expect(near[0].multiplet === null ? null : ms[near[0].multiplet].label).toBe(label);
+    }
+  });
+
   it("shell tunnelling (Γtip/Γsub = 0.01): one peak per level, Δsp = p − s, Ec null", () => {
     const a = analyzeCurve(curveOf(simulateCurve(scenario(1e6))), { eta });
     const asg = a.assignment;

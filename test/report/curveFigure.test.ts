@@ -5,6 +5,7 @@ import { JSDOM } from "jsdom";
 import { curveFigure, CURVE_FIGURE_DEFAULTS } from "../../lib/report/curveFigure.ts";
 import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, DotspecError } from "../../lib/index.ts";
 import { simulatedAnalysis } from "./fixture.ts";
+import { FILLING, chargingPeakV } from "../cli/harness.ts";
 
 const document = new JSDOM("").window.document;
 const { curve, analysis } = simulatedAnalysis("dots/dot-filling.csv");
@@ -112,13 +113,34 @@ describe("curveFigure(analysis, options)", () => {
   });
 
   it("marks each peak with one circle, coloured by its multiplet (grey without one)", () => {
-    const doc = parseXml(svg);
-    const circles = Array.from(doc.getElementsByTagName("circle"));
-    expect(circles).toHaveLength(analysis.peaks.length);
-    const label = new Map<number, string>();
-    for (const m of analysis.assignment.multiplets) for (const v of m.peaksV) label.set(v, m.label);
-    const expected = analysis.peaks.map((p) => multipletColor(label.get(p.biasV) ?? null)).sort();
-    expect(circles.map((c) => inherited(c, "fill")).sort()).toEqual(expected);
+    // The fixture's dot (FILLING: ε_s = 0.5, ε_p = 0.8, ε_v = −0.6 eV, g = 2, 6, 2; Ec = 0.1 eV;
+    // η = 0.8; bias −1.2…1.6 V). Closed form: the (n+1)-th carrier on level ε charges at
+    // ±(|ε| + Ec(n + ½))/η. s: n = 0, 1; p: n = 2, 3, 4 (n = 5 lies beyond 1.6 V); the VB level:
+    // n = 0, 1. The p level entered while s holds one carrier (n = 1, at 1.1875 V) is a charging
+    // satellite, outside every multiplet.
+    const expected = [
+      { v: chargingPeakV(0.5, 0), label: "s", color: MULTIPLET_COLORS.s },
+      { v: chargingPeakV(0.5, 1), label: "s", color: MULTIPLET_COLORS.s },
+      ...[2, 3, 4].map((n) => ({ v: chargingPeakV(0.8, n), label: "p", color: MULTIPLET_COLORS.p })),
+      { v: chargingPeakV(-0.6, 0), label: "v1", color: MULTIPLET_COLORS.valence[0] },
+      { v: chargingPeakV(-0.6, 1), label: "v1", color: MULTIPLET_COLORS.valence[0] },
+      { v: chargingPeakV(0.8, 1), label: "no multiplet", color: MULTIPLET_COLORS.none },
+    ];
+    // A quarter of Ec in bias: half the distance to the nearest other peak, so each circle
+    // matches one position at most.
+    const tolV = (0.25 * FILLING.chargingEnergyEV) / FILLING.eta;
+    const circles = Array.from(parseXml(svg).getElementsByTagName("circle")).map((c) => {
+      const title = c.getElementsByTagName("title")[0]?.textContent ?? "";
+      const m = /^(.+): (-?\d+\.\d+) V ±/.exec(title);
+      expect(m, `circle title ${JSON.stringify(title)}`).not.toBeNull();
+      return { label: m![1], biasV: Number(m![2]), fill: inherited(c, "fill") };
+    });
+    expect(circles).toHaveLength(expected.length);
+    for (const e of expected) {
+      const hits = circles.filter((c) => Math.abs(c.biasV - e.v) < tolV);
+      expect(hits, `one circle within ${tolV} V of ${e.v} V`).toHaveLength(1);
+      expect([hits[0].label, hits[0].fill]).toEqual([e.label, e.color]);
+    }
   });
 
   it("draws the individual sweeps faintly behind the mean when there are several", () => {

@@ -1,0 +1,41 @@
+/**
+ * The thresholds of the assignment's classification and grouping rules, in one place for every
+ * stage of {@link assignSpectrum} (regime, satellites, shells, valence groups).
+ */
+
+import { REGIME_LIMITS } from "../model/regimeLimits.ts";
+
+/**
+ * Thresholds of the classification and grouping rules (locked by a test). Re-exported by
+ * `assignSpectrum.ts`, where users import it.
+ */
+export const ASSIGN_DEFAULTS = Object.freeze({
+  eta: 1,
+  /**
+   * Shell filling: the second CB step over the first lies in this range. In orthodox theory it is
+   * r/(1 + r) for r = Γtip/Γsub (≥ 0.6 ⇔ r ≥ 1.5, never above 1); the upper bound leaves room for noise.
+   */
+  fillingStepRatio: [REGIME_LIMITS.fillingStepRatioMin, 1.3] as readonly [number, number],
+  /** Shell tunnelling: a second CB step at most this fraction of the first is a charging satellite of s (r/(1 + r) ≤ 0.3 ⇔ r ≤ 0.43); between this and the filling range the spectrum is intermediate. */
+  tunnelingSatelliteRatioMax: REGIME_LIMITS.tunnelingStepRatioMax,
+  /** Shell tunnelling: the p shell (its sub-levels together) carries at least this many times the s step (p: 6 vs 2 electrons). */
+  tunnelingStepRatioMin: 1.4,
+  /** A CB peak whose step is below this fraction of the preceding main peak is a charging satellite (shell tunnelling). */
+  satelliteStepRatioMax: 0.5,
+  /** A peak whose step is below this fraction of the band's median step is noise or a satellite wherever it lies. */
+  noiseStepRatioMax: 0.2,
+  /** Shell filling: the s→p jump must exceed the s spacing by this factor (Δsp > 0.25·Ec). */
+  fillingJumpRatioMin: 1.25,
+  /** Shell filling: a CB peak closer than this fraction of Ec to the previous charging peak is off the ladder (set aside). */
+  minLadderSpacingFraction: 0.65,
+  /** When a shell has more charging-ladder candidates than it holds, the extras weaker than this fraction of the candidates' median step are charging satellites. */
+  leadingSatelliteRatioMax: 0.6,
+  /** Inside a multiplet, a spacing above (1 + this)·Ec starts a sub-group. */
+  subgroupExtraMin: 0.2,
+  /** A jump whose excess over Ec exceeds this fraction of the s→p excess starts a new shell. */
+  newShellExcessFraction: 0.9,
+  /** Shell tunnelling: a main peak closer to the previous one than this fraction of the s→p distance is a sub-level of the same shell. */
+  tunnelingSublevelFraction: 0.5,
+  /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
+  valenceChargingTolerance: 0.3,
+});

@@ -1,0 +1,155 @@
+/**
+ * The regime of a spectrum (shell filling, shell tunnelling or undetermined) from its first
+ * conduction-band peaks, with the numbers that decided it.
+ */
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { BandPeak } from "./bandPeaks.ts";
+import { tunnelingShells } from "./shells.ts";
+
+/** Shell filling (Γtip ≫ Γsub: charging multiplets), shell tunnelling (Γtip ≪ Γsub: one peak per level), or neither. */
+export type Regime = "shell-filling" | "shell-tunneling" | "undetermined";
+
+/** Why the regime was chosen: the numbers the rules looked at. */
+export interface RegimeEvidence {
+  /** Step of the second CB peak over the first (areas); null with fewer than two CB peaks. */
+  secondToFirstStepRatio: number | null;
+  /** Spacing from CB peak 2 to the next peak that is not its weak satellite, over that of peaks 1–2; null without one. */
+  thirdToSecondSpacingRatio: number | null;
+  /** CB peaks taken as charging satellites (weak peaks after a main peak) in shell tunnelling. */
+  satellitePeaksV: number[];
+  /**
+   * Indices (into the peak list given to `assignSpectrum`) of the peaks in `satellitePeaksV`, in
+   * the same order.
+   */
+  satellitePeakIndices: number[];
+  /** The rules that decided, in words. */
+  reasons: string[];
+}
+
+/**
+ * The two ratios the regime rules read, from the CB peaks left after the noise rule.
+ *
+ * Parameters
+ * ----------
+ * cb : readonly BandPeak[]
+ *     CB peaks from the gap edge outward, noise set aside.
+ *
+ * Returns
+ * -------
+ * { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null }
+ *     See {@link RegimeEvidence}; both dimensionless.
+ *
+ * Notes
+ * -----
+ * 1. Step ratio = stepA of peak 2 / stepA of peak 1 (null with fewer than two peaks).
+ * 2. The third peak is the first after peak 2 whose step is at least
+ *    `ASSIGN_DEFAULTS.satelliteStepRatioMax` × that of peak 2 (a weaker one is its satellite);
+ *    spacing ratio = (x₃ − x₂)/(x₂ − x₁), null without such a peak.
+ *
+ * Example
+ * -------
+ * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
+ * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)]);
+ * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4 }
+ */
+export function regimeRatios(cb: readonly BandPeak[]): { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null } {
+  const D = ASSIGN_DEFAULTS;
+  let secondToFirstStepRatio: number | null = null;
+  let thirdToSecondSpacingRatio: number | null = null;
+  if (cb.length >= 2) secondToFirstStepRatio = cb[1].peak.stepA / cb[0].peak.stepA;
+  // The jump to the next peak that is not a weak satellite of the second.
+  const third = cb.slice(2).find((p) => p.peak.stepA >= D.satelliteStepRatioMax * cb[1].peak.stepA);
+  if (third) thirdToSecondSpacingRatio = (third.x - cb[1].x) / (cb[1].x - cb[0].x);
+  return { secondToFirstStepRatio, thirdToSecondSpacingRatio };
+}
+
+/**
+ * Classify a spectrum from its first CB peaks.
+ *
+ * Parameters
+ * ----------
+ * cb : readonly BandPeak[]
+ *     CB peaks from the gap edge outward, noise set aside.
+ * main : readonly BandPeak[]
+ *     The same with the charging satellites also set aside (see `splitSatellites`).
+ * evidence : RegimeEvidence
+ *     Holds the ratios of {@link regimeRatios}; the rules append their reasons to
+ *     `evidence.reasons` (the only field written).
+ *
+ * Returns
+ * -------
+ * Regime
+ *
+ * Notes
+ * -----
+ * In shell filling the s level gives two charging peaks of similar height, the second r/(1 + r)
+ * of the first for r = Γtip/Γsub; in shell tunnelling one peak, followed by a p peak two to three
+ * times higher. With D = `ASSIGN_DEFAULTS`:
+ * 1. Fewer than two CB peaks: undetermined.
+ * 2. Step ratio within `D.fillingStepRatio` and, if a third peak exists, a jump to it of at least
+ *    `D.fillingJumpRatioMin` × the first spacing: shell filling.
+ * 3. Step ratio between `D.tunnelingSatelliteRatioMax` and the filling range: undetermined (an
+ *    intermediate rate ratio: too strong for a satellite, too weak for a doublet).
+ * 4. Otherwise the p shell — the second main peak with the sub-levels close to it (see
+ *    `tunnelingShells`) — carrying at least `D.tunnelingStepRatioMin` × the s step: shell
+ *    tunnelling; else undetermined.
+ *
+ * References
+ * ----------
+ * The step ratio r/(1 + r) of the s doublet follows from the stationary master equation of the
+ * charging ladder (orthodox theory; see `lib/model/ladder.ts` and its references, among them
+ * C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991)).
+ *
+ * Example
+ * -------
+ * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
+ * const cb = [at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)];
+ * const evidence = { ...regimeRatios(cb), satellitePeaksV: [], satellitePeakIndices: [], reasons: [] };
+ * classifyRegime(cb, cb, evidence);  // => "shell-filling"
+ */
+export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[], evidence: RegimeEvidence): Regime {
+  const D = ASSIGN_DEFAULTS;
+  const reasons = evidence.reasons;
+  if (cb.length === 0) {
+    reasons.push("no CB peaks");
+    return "undetermined";
+  }
+  if (cb.length === 1) {
+    reasons.push("one CB peak only: the regime cannot be told");
+    return "undetermined";
+  }
+  const ratio = evidence.secondToFirstStepRatio!;
+  const jump = evidence.thirdToSecondSpacingRatio;
+  if (ratio >= D.fillingStepRatio[0] && ratio <= D.fillingStepRatio[1]) {
+    if (jump === null || jump >= D.fillingJumpRatioMin) {
+      reasons.push(
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")})` +
+          (jump === null ? " and no third CB peak" : ` and the next jump is ${jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin})`) +
+          ": an s doublet of charging peaks",
+      );
+      return "shell-filling";
+    }
+    reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump!.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
+  } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
+    reasons.push(
+      `the second CB step is ${ratio.toFixed(2)} × the first: too strong for a charging satellite (≤ ${D.tunnelingSatelliteRatioMax}), too weak for an s doublet (≥ ${D.fillingStepRatio[0]}): an intermediate rate ratio`,
+    );
+    return "undetermined";
+  }
+  // Shell tunnelling: the p shell (the second main peak and any sub-levels close to it) carries
+  // more than the s step.
+  const satellites = cb.length - main.length;
+  const note = satellites ? `; ${satellites} weak peak(s) set aside as charging satellites` : "";
+  const pShell = main.length >= 2 ? tunnelingShells(main)[1] : [];
+  const pRatio = pShell.reduce((a, p) => a + p.peak.stepA, 0) / main[0].peak.stepA;
+  if (pRatio >= D.tunnelingStepRatioMin) {
+    const sub = pShell.length > 1 ? ` (${pShell.length} sub-levels together)` : "";
+    reasons.push(`the p shell${sub} carries ${pRatio.toFixed(2)} × the s step (≥ ${D.tunnelingStepRatioMin}; p holds 6 electrons, s 2): single levels` + note);
+    return "shell-tunneling";
+  }
+  reasons.push(
+    `the p shell carries ${pShell.length ? pRatio.toFixed(2) : "no"} × the s step: neither an s doublet (${D.fillingStepRatio.join("–")} with a larger jump to p) nor an s/p pair (≥ ${D.tunnelingStepRatioMin})` +
+      note,
+  );
+  return "undetermined";
+}

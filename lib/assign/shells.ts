@@ -1,0 +1,179 @@
+/**
+ * Conduction-band peaks grouped into shells: charging multiplets in shell filling, single levels
+ * in shell tunnelling.
+ */
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { BandPeak } from "./bandPeaks.ts";
+
+/** The shells of the conduction band, in filling order, with their degeneracy (spin included). */
+export const SHELLS = Object.freeze([
+  Object.freeze({ label: "s", degeneracy: 2 }),
+  Object.freeze({ label: "p", degeneracy: 6 }),
+  Object.freeze({ label: "d", degeneracy: 10 }),
+  Object.freeze({ label: "f", degeneracy: 14 }),
+] as const);
+
+/** Result of {@link fillingShells}. */
+export interface FillingShells {
+  /** Per shell (s, p, d, … in order), its sub-groups, each a run of charging peaks. */
+  shells: BandPeak[][][];
+  /** CB peaks after the last assigned shell. */
+  leftover: BandPeak[];
+  /** Peaks set aside as off the charging ladder (satellites), sorted by |bias|. */
+  offLadder: BandPeak[];
+}
+
+/**
+ * Group the CB peaks of a shell-filling spectrum into charging multiplets.
+ *
+ * Parameters
+ * ----------
+ * cb : readonly BandPeak[]
+ *     The CB peaks left after the noise rule, from the gap edge outward; at least two (the s
+ *     doublet).
+ *
+ * Returns
+ * -------
+ * FillingShells
+ *     The shells with their sub-groups, the peaks beyond them and the peaks set aside.
+ *
+ * Notes
+ * -----
+ * 1. s = the first two peaks; their spacing is the first estimate of Ec (in bias).
+ * 2. For each further shell (p, d, f with g = 6, 10, 14): candidates are the peaks up to the
+ *    jump that opens the next shell, a jump whose excess over Ec is more than
+ *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
+ *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
+ *    candidate within (1 + `subgroupExtraMin`)·Ec of the next and weaker than
+ *    `satelliteStepRatioMax` × its step is the shell's level entered early and does not set the
+ *    s→p jump.
+ * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
+ *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
+ *    `leadingSatelliteRatioMax` × the candidates' median step, the weakest extras are set aside,
+ *    otherwise the shell takes its first g candidates.
+ * 4. Inside a shell, a spacing above (1 + `subgroupExtraMin`)·Ec starts a sub-group (a
+ *    multiplet split by shape anisotropy).
+ * 5. Peaks set aside beyond the last assigned peak are not reported as off the ladder.
+ *
+ * Example
+ * -------
+ * // s at 0.6875, 0.8125 V; p from 1.3125 V in steps of 0.125 V (ε_s = 0.5, ε_p = 0.8 eV,
+ * // Ec = 0.1 eV, η = 0.8), equal steps.
+ * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
+ * const ladder = [0.6875, 0.8125, 1.3125, 1.4375, 1.5625, 1.6875, 1.8125, 1.9375].map(at);
+ * const r = fillingShells(ladder);
+ * r.shells.map((s) => s.flat().map((p) => p.index));  // => [[0, 1], [2, 3, 4, 5, 6, 7]]
+ */
+export function fillingShells(cb: readonly BandPeak[]): FillingShells {
+  const D = ASSIGN_DEFAULTS;
+  const shells: BandPeak[][][] = [[cb.slice(0, 2)]];
+  const ec0 = cb[1].x - cb[0].x;
+  const offLadder: BandPeak[] = [];
+  let spExcess: number | null = null;
+  let last = cb[1];
+  let i = 2;
+  for (let s = 1; s < SHELLS.length && i < cb.length; s++) {
+    const g = SHELLS[s].degeneracy;
+    // 1. Candidates: peaks up to the jump that opens the next shell (or the end of the data).
+    //    Successive charging peaks lie at least Ec apart; a peak much closer to the previous one
+    //    is not on the ladder.
+    const run: BandPeak[] = [];
+    let prev = last;
+    let excess = spExcess;
+    let k = i;
+    for (; k < cb.length; k++) {
+      const d = cb[k].x - prev.x;
+      if (d < D.minLadderSpacingFraction * ec0) {
+        offLadder.push(cb[k]);
+        continue;
+      }
+      if (run.length === 0) {
+        // The shell's level entered early (its charging satellite) sits one Ec before the
+        // shell's first peak and is much weaker: it must not set the s→p jump.
+        const next = cb[k + 1];
+        if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.satelliteStepRatioMax * next.peak.stepA) {
+          offLadder.push(cb[k]);
+          continue;
+        }
+        excess ??= d - ec0;
+      } else if (excess !== null && excess > 0 && d - ec0 > D.newShellExcessFraction * excess) break;
+      run.push(cb[k]);
+      prev = cb[k];
+    }
+    // 2. More candidates than the shell holds: the weak extras are charging satellites (a level
+    //    entered before the previous one is full); otherwise the shell ends after g peaks.
+    let members = run;
+    if (members.length > g && members[0].peak.stepA < D.satelliteStepRatioMax * members[1].peak.stepA) {
+      // Steps fall along a charging multiplet (each added electron leaves faster), so a weak
+      // first peak followed by a much stronger one is the shell's level entered early.
+      offLadder.push(members[0]);
+      members = members.slice(1);
+    }
+    if (members.length > g) {
+      const steps = members.map((p) => p.peak.stepA).sort((a, b) => a - b);
+      const typical = steps[steps.length >> 1];
+      const byWeakness = [...members].sort((a, b) => a.peak.stepA - b.peak.stepA);
+      const extras = byWeakness.slice(0, members.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * typical);
+      if (extras.length === members.length - g) {
+        offLadder.push(...extras);
+        members = members.filter((p) => !extras.includes(p));
+      } else members = members.slice(0, g);
+    }
+    if (!members.length) break;
+    const end = members[members.length - 1];
+    // 3. Sub-groups: a spacing above (1 + subgroupExtraMin)·Ec inside the shell.
+    const subgroups: BandPeak[][] = [[members[0]]];
+    for (let j = 1; j < members.length; j++) {
+      if (members[j].x - members[j - 1].x > (1 + D.subgroupExtraMin) * ec0) subgroups.push([members[j]]);
+      else subgroups[subgroups.length - 1].push(members[j]);
+    }
+    shells.push(subgroups);
+    spExcess ??= members[0].x - last.x - ec0;
+    last = end;
+    i = cb.indexOf(end) + 1;
+  }
+  return { shells, leftover: cb.slice(i), offLadder: [...new Set(offLadder)].filter((p) => p.x < last.x).sort((a, b) => a.x - b.x) };
+}
+
+/**
+ * Group the main CB peaks of a shell-tunnelling spectrum into levels of shells.
+ *
+ * Parameters
+ * ----------
+ * main : readonly BandPeak[]
+ *     The CB main peaks (noise and charging satellites set aside), from the gap edge outward; at
+ *     least one.
+ *
+ * Returns
+ * -------
+ * BandPeak[][]
+ *     Per shell (s, p, … in order) its peaks, one per level: s holds the first peak; p the
+ *     second and the sub-levels after it; at most `SHELLS.length` shells.
+ *
+ * Notes
+ * -----
+ * 1. s = the first peak, p starts at the second; their distance is the s→p distance.
+ * 2. A main peak closer to the previous one than `ASSIGN_DEFAULTS.tunnelingSublevelFraction` ×
+ *    the s→p distance is a sub-level of the same shell (a split p); otherwise it opens the next
+ *    shell. Peaks beyond the last shell are left out.
+ *
+ * Example
+ * -------
+ * // Levels at 0.6875, 1.0625, 1.1 and 1.6 V: s, p (split in two), d.
+ * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
+ * tunnelingShells([0.6875, 1.0625, 1.1, 1.6].map(at)).map((s) => s.length);  // => [1, 2, 1]
+ */
+export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
+  const shells: BandPeak[][] = [[main[0]]];
+  if (main.length < 2) return shells;
+  const sp = main[1].x - main[0].x;
+  shells.push([main[1]]);
+  for (let i = 2; i < main.length && shells.length <= SHELLS.length; i++) {
+    const d = main[i].x - main[i - 1].x;
+    const shell = shells[shells.length - 1];
+    if (d < ASSIGN_DEFAULTS.tunnelingSublevelFraction * sp && shells.length > 1) shell.push(main[i]);
+    else if (shells.length < SHELLS.length) shells.push([main[i]]);
+    else break;
+  }
+  return shells;
+}

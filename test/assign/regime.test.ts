@@ -1,0 +1,47 @@
+// classifyRegime / regimeRatios on the first CB peaks of closed-form spectra.
+// Closed forms (orthodox theory, the charging ladder of an s level with g = 2): the second s
+// charging step over the first is r/(1 + r) for r = Γtip/Γsub; in shell tunnelling the p step over
+// the s step is the degeneracy ratio 6/2 = 3. Peaks at (ε + Ec(n + ½))/η with ε_s = 0.5 eV,
+// ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8.
+import { describe, it, expect } from "vitest";
+import { classifyRegime, regimeRatios, type RegimeEvidence } from "../../lib/assign/regime.ts";
+import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
+import type { Peak } from "../../lib/peaks/findPeaks.ts";
+import { expectClose } from "../helpers/expectClose.ts";
+
+const at = (x: number, stepA: number, index: number): BandPeak => ({ x, index, peak: { biasV: x, stepA } as Peak });
+const V = (e: number) => e / 0.8;
+
+function classify(cb: BandPeak[], main = cb): { regime: string; evidence: RegimeEvidence } {
+  const evidence: RegimeEvidence = { ...regimeRatios(cb), satellitePeaksV: [], satellitePeakIndices: [], reasons: [] };
+  return { regime: classifyRegime(cb, main, evidence), evidence };
+}
+
+describe("regimeRatios(cb) and classifyRegime(cb, main, evidence)", () => {
+  it("shell filling at r = 10: s doublet with step ratio 10/11, then the jump to p", () => {
+    const r = 10;
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), (r / (1 + r)) * 1e-11, 1), at(V(0.8 + 0.25), 1e-11, 2)];
+    const { regime, evidence } = classify(cb);
+    expectClose(evidence.secondToFirstStepRatio!, r / (1 + r), { rtol: 1e-12, what: "r/(1 + r)" });
+    expectClose(evidence.thirdToSecondSpacingRatio!, (0.8 + 0.25 - 0.65) / 0.1, { rtol: 1e-12, what: "(V3 − V2)/(V2 − V1)" });
+    expect(regime).toBe("shell-filling");
+  });
+
+  it("intermediate at r = 1: step ratio 1/2 is neither a satellite nor a doublet", () => {
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), 0.5e-11, 1), at(V(0.85), 1.5e-11, 2)];
+    expect(classify(cb).regime).toBe("undetermined");
+  });
+
+  it("shell tunnelling: one s peak, then p carrying 3 × its step (6 vs 2 carriers)", () => {
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.85), 6e-11, 1)];
+    const { regime, evidence } = classify(cb);
+    expectClose(evidence.secondToFirstStepRatio!, 3, { rtol: 1e-12 });
+    expect(regime).toBe("shell-tunneling");
+  });
+
+  it("cannot tell from fewer than two CB peaks", () => {
+    expect(classify([]).regime).toBe("undetermined");
+    expect(classify([at(0.7, 1e-11, 0)]).regime).toBe("undetermined");
+    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null });
+  });
+});

@@ -1,0 +1,42 @@
+// fillingShells / tunnelingShells on closed-form peak positions (|ε| + Ec(n + ½))/η, n counting
+// the carriers already in the CB, with ε_s = 0.5, ε_p = 0.8, ε_d = 1.2 eV, Ec = 0.1 eV, η = 0.8.
+import { describe, it, expect } from "vitest";
+import { fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";
+import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
+import type { Peak } from "../../lib/peaks/findPeaks.ts";
+
+const eta = 0.8, ec = 0.1;
+const at = (x: number, index: number, stepA = 1e-11): BandPeak => ({ x, index, peak: { biasV: x, stepA, biasUncertaintyV: 0.001 } as Peak });
+const V = (e: number, n: number) => (e + ec * (n + 0.5)) / eta;
+const ids = (groups: BandPeak[][]) => groups.map((g) => g.map((p) => p.index));
+
+describe("SHELLS", () => {
+  it("holds s, p, d, f with degeneracies 2, 6, 10, 14 (2(2l + 1), spin included)", () => {
+    expect(SHELLS.map((s) => [s.label, s.degeneracy])).toEqual([["s", 2], ["p", 6], ["d", 10], ["f", 14]]);
+  });
+});
+
+describe("fillingShells(cb)", () => {
+  it("fills s (n = 0, 1), p (n = 2 … 7) and d (n = 8, 9) and leaves nothing over", () => {
+    const xs = [V(0.5, 0), V(0.5, 1), ...[2, 3, 4, 5, 6, 7].map((n) => V(0.8, n)), V(1.2, 8), V(1.2, 9)];
+    const r = fillingShells(xs.map((x, i) => at(x, i)));
+    expect(r.shells.map((s) => s.flat().map((p) => p.index))).toEqual([[0, 1], [2, 3, 4, 5, 6, 7], [8, 9]]);
+    expect(r.leftover).toEqual([]);
+    expect(r.offLadder).toEqual([]);
+  });
+
+  it("sets aside a peak much closer than Ec to the previous charging peak", () => {
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 2) + 0.2 * (ec / eta), V(0.8, 3), V(0.8, 4)];
+    const r = fillingShells(xs.map((x, i) => at(x, i)));
+    expect(r.offLadder.map((p) => p.index)).toEqual([3]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([2, 4, 5]);
+  });
+});
+
+describe("tunnelingShells(main)", () => {
+  it("one level per shell; a level close to p (split p) joins it", () => {
+    // s at 0.5, p at 0.8 and 0.83 (split by 30 meV, well under half the s–p distance), d at 1.2 eV.
+    const xs = [V(0.5, 0), V(0.8, 0), V(0.83, 0), V(1.2, 0)];
+    expect(ids(tunnelingShells(xs.map((x, i) => at(x, i))))).toEqual([[0], [1, 2], [3]]);
+  });
+});
