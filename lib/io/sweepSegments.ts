@@ -1,8 +1,11 @@
 /**
  * Cutting a bias sequence into monotonic sweeps, choosing the full sweeps among them, merging
- * repeated bias points, and carrying a sweep onto another sweep's bias points. Used by the importer
- * only.
+ * repeated bias points, and carrying a sweep onto another sweep's bias points
+ * ({@link interpolateOnto}, shared with the signal stage). Used by the importer only.
  */
+import { interpolateOnto } from "../util/interpolateOnto.ts";
+
+export { interpolateOnto };
 
 /** One monotonic run of a bias sequence: rows `start..end` (inclusive). */
 export interface Segment {
@@ -187,46 +190,4 @@ export function mergeDuplicates(
     values: outValues.map((v) => Float64Array.from(v)),
     merged: n - outBias.length,
   };
-}
-
-/**
- * Linear interpolation of a sweep onto other bias points.
- *
- * Parameters
- * ----------
- * fromBiasV : Float64Array
- *     Strictly ascending bias of the sweep, V.
- * values : Float64Array
- *     The sweep's values on `fromBiasV`.
- * toBiasV : Float64Array
- *     Ascending target bias, V, inside [fromBiasV[0], fromBiasV[last]].
- *
- * Returns
- * -------
- * Float64Array
- *     Values on `toBiasV`; exact at shared points. Computed as y0·(1 − t) + y1·t, which stays
- *     finite for finite inputs.
- *
- * Example
- * -------
- * interpolateOnto(Float64Array.of(0, 2), Float64Array.of(0, 4), Float64Array.of(0.5, 1));  // => [1, 2]
- */
-export function interpolateOnto(fromBiasV: Float64Array, values: Float64Array, toBiasV: Float64Array): Float64Array {
-  const out = new Float64Array(toBiasV.length);
-  const last = fromBiasV.length - 1;
-  let j = 0;
-  for (let i = 0; i < toBiasV.length; i++) {
-    const x = toBiasV[i];
-    while (j < last - 1 && fromBiasV[j + 1] < x) j++;
-    if (last === 0 || x <= fromBiasV[j]) {
-      out[i] = values[j];
-    } else if (x >= fromBiasV[j + 1]) {
-      out[i] = values[j + 1];
-    } else {
-      // Halves keep the differences finite even for biases near the largest double.
-      const t = (x / 2 - fromBiasV[j] / 2) / (fromBiasV[j + 1] / 2 - fromBiasV[j] / 2);
-      out[i] = values[j] * (1 - t) + values[j + 1] * t;
-    }
-  }
-  return out;
 }

@@ -2,6 +2,7 @@
  * Point-by-point mean and spread of repeated sweeps on a common bias axis.
  */
 import { DotspecError } from "../util/errors.ts";
+import { meanOfSeries } from "../util/meanOfSeries.ts";
 
 /** What {@link averageSweeps} returns. */
 export interface SweepAverage {
@@ -69,10 +70,8 @@ export function averageSweeps(sweeps: readonly ArrayLike<number>[]): SweepAverag
 export function averageSweepsUnchecked(sweeps: readonly ArrayLike<number>[]): SweepAverage {
   const n = sweeps.length;
   const m = sweeps[0].length;
-  const mean = new Float64Array(m);
+  const mean = meanOfSeries(sweeps, m);
   const std = new Float64Array(m);
-  for (const y of sweeps) for (let i = 0; i < m; i++) mean[i] += y[i];
-  for (let i = 0; i < m; i++) mean[i] /= n;
   if (n === 1) return { mean, std, rmsStd: 0, sweepCount: 1 };
   for (const y of sweeps) {
     for (let i = 0; i < m; i++) {

@@ -4,6 +4,7 @@
  */
 import { DotspecError } from "../util/errors.ts";
 import { biasStep, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
+import { interpolateOnto } from "../util/interpolateOnto.ts";
 
 /** Defaults of {@link isUniformStep} and {@link resampleUniform} (locked by test/signal/resample.test.ts). */
 export const RESAMPLE_DEFAULTS = Object.freeze({
@@ -122,8 +123,8 @@ export function isUniformStepUnchecked(biasV: ArrayLike<number>, tolerance: numb
  * 1. span = max − min; the number of grid points is n = round(span/stepV) + 1 and the step is
  *    adjusted to span/(n − 1), so the grid ends exactly at the last measured bias (the adjustment
  *    is at most half a step over the whole span; the returned stepV is the one used).
- * 2. Each grid point is interpolated linearly between the two measured points around it, found by
- *    one forward pass (both axes are ascending): O(n + m).
+ * 2. Each grid point is interpolated linearly between the two measured points around it
+ *    ({@link interpolateOnto}, one forward pass since both axes are ascending): O(n + m).
  * 3. Linear interpolation reproduces linear functions exactly but averages neighbouring noise: the
  *    white-noise σ of a resampled series is lower than that of the data, and its noise is
  *    correlated between neighbouring points.
@@ -174,26 +175,7 @@ export function resampleUniformUnchecked(
   const n = Math.max(2, Math.round(span / requestedStepV) + 1);
   const step = span / (n - 1);
   const grid = new Float64Array(n);
-  // Source interval index and interpolation fraction of each grid point, shared by all series.
-  const index = new Int32Array(n);
-  const frac = new Float64Array(n);
-  let j = 0;
-  for (let k = 0; k < n; k++) {
-    const v = k === n - 1 ? biasV[m - 1] : v0 + k * step;
-    grid[k] = v;
-    while (j < m - 2 && biasV[j + 1] <= v) j++;
-    index[k] = j;
-    const t = (v - biasV[j]) / (biasV[j + 1] - biasV[j]);
-    frac[k] = t < 0 ? 0 : t > 1 ? 1 : t;
-  }
-  const out = series.map((y) => {
-    const r = new Float64Array(n);
-    for (let k = 0; k < n; k++) {
-      const i = index[k];
-      const t = frac[k];
-      r[k] = t === 0 ? y[i] : t === 1 ? y[i + 1] : y[i] + t * (y[i + 1] - y[i]);
-    }
-    return r;
-  });
+  for (let k = 0; k < n; k++) grid[k] = k === n - 1 ? biasV[m - 1] : v0 + k * step;
+  const out = series.map((y) => interpolateOnto(biasV, y, grid));
   return { biasV: grid, series: out, stepV: step };
 }

@@ -4,6 +4,7 @@
  */
 import type { Curve } from "../../curve.ts";
 import type { SweepSet } from "./sweeps.ts";
+import { meanOfSeries } from "../../util/meanOfSeries.ts";
 
 /**
  * Make the {@link Curve} value.
@@ -25,7 +26,7 @@ import type { SweepSet } from "./sweeps.ts";
  *
  * Notes
  * -----
- * 1. The mean of k arrays is summed as Σ a/k ({@link mean}).
+ * 1. The mean of k arrays is summed as Σ a/k ({@link meanOfSeries}).
  *
  * Example
  * -------
@@ -37,36 +38,9 @@ export function makeCurve(common: SweepSet, src: string, metadata: Map<string, s
   const grid = common.biasV;
   return {
     biasV: grid,
-    currentA: mean(common.currents, grid.length),
+    currentA: meanOfSeries(common.currents, grid.length),
     sweeps: common.currents,
-    didvS: common.conductances.length > 0 ? mean(common.conductances, grid.length) : null,
+    didvS: common.conductances.length > 0 ? meanOfSeries(common.conductances, grid.length) : null,
     meta: { source: src, metadata: Object.fromEntries(metadata) },
   };
-}
-
-/**
- * Element-wise mean of arrays.
- *
- * Parameters
- * ----------
- * arrays : readonly Float64Array[]
- *     At least one array, each of length `n`.
- * n : number
- *     Their length.
- *
- * Returns
- * -------
- * Float64Array
- *     A new array: a copy of the only array, or Σ a/k element by element for k arrays.
- *
- * Example
- * -------
- * mean([Float64Array.of(1, 2), Float64Array.of(3, 4)], 2);  // => Float64Array [2, 3]
- */
-export function mean(arrays: readonly Float64Array[], n: number): Float64Array {
-  if (arrays.length === 1) return Float64Array.from(arrays[0]);
-  const out = new Float64Array(n);
-  const k = arrays.length;
-  for (const a of arrays) for (let i = 0; i < n; i++) out[i] += a[i] / k;
-  return out;
 }
