@@ -11,6 +11,8 @@ import { REGIME_LIMITS } from "../model/regimeLimits.ts";
  */
 export const ASSIGN_DEFAULTS = Object.freeze({
   eta: 1,
+  /** Set aside second-junction resonances (with η given and below 1). */
+  secondJunction: true,
   /**
    * Shell filling: the second CB step over the first lies in this range. In orthodox theory it is
    * r/(1 + r) for r = Γtip/Γsub (≥ 0.6 ⇔ r ≥ 1.5, never above 1); the upper bound leaves room for noise.

@@ -13,6 +13,7 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
 import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
+import { secondJunctionResonances } from "./secondJunction.ts";
 import { fillingShells, tunnelingShells } from "./shells.ts";
 import { valenceGroups } from "./valenceGroups.ts";
 
@@ -22,6 +23,7 @@ export type { EnergyValues, SpectrumEnergies } from "./energies.ts";
 export type { Multiplet } from "./multiplets.ts";
 export type { SpectrumQuantities, SpectrumUncertainties } from "./quantities.ts";
 export type { Regime, RegimeEvidence } from "./regime.ts";
+export { secondJunctionResonances, SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
 
 /** Options of {@link assignSpectrum}. */
 export interface AssignOptions {
@@ -29,6 +31,11 @@ export interface AssignOptions {
   eta?: number;
   /** Force a regime instead of classifying. Default: classify. */
   regime?: Regime;
+  /**
+   * Set aside the peaks that are second-junction resonances of other peaks (needs η given and
+   * below 1; see {@link secondJunctionResonances}). Default true.
+   */
+  secondJunction?: boolean;
 }
 
 /** Assigned spectrum of one curve. */
@@ -109,7 +116,12 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
 
   // 1–2. Bands; peaks at the noise level of their band go first; charging satellites (weak peaks
   // after a main peak) are told apart only once the regime is known.
-  const { cb: cbAll, vb: vbAll } = bandPeaks(peaks);
+  // Resonances through the substrate junction are not levels of the tip-junction ladder.
+  const resonances = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
+  const resonant = new Set(resonances.map((r) => r.index));
+  const bands = bandPeaks(peaks);
+  const cbAll = bands.cb.filter((p) => !resonant.has(p.index));
+  const vbAll = bands.vb.filter((p) => !resonant.has(p.index));
   const cbNoise = splitSatellites(cbAll, D.noiseStepRatioMax, 0);
   const vbNoise = splitSatellites(vbAll, D.noiseStepRatioMax, 0);
   const cbClean = cbNoise.main;
@@ -118,7 +130,12 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const vb = vbSplit.main;
 
   // 3. Regime.
-  const evidence: RegimeEvidence = { ...regimeRatios(cbClean), satellitePeaksV: [], satellitePeakIndices: [], reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: resonances, reasons: [] };
+  for (const r of resonances) {
+    evidence.reasons.push(
+      `peak at ${peaks[r.index].biasV.toFixed(3)} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V`,
+    );
+  }
   const regime: Regime = options.regime ?? classifyRegime(cbClean, cbSplit.main, evidence);
   const cb = regime === "shell-filling" ? cbClean : cbSplit.main;
   let setAside: BandPeak[] = [...cbNoise.satellites, ...vbNoise.satellites, ...vbSplit.satellites, ...(regime === "shell-filling" ? [] : cbSplit.satellites)];

@@ -58,3 +58,47 @@ export function withMultiplets<P extends object>(peaks: readonly P[], multiplets
   });
   return peaks.map((p, i) => ({ ...p, multiplet: of[i] }));
 }
+
+/**
+ * What a peak is in an assignment: a member of a multiplet (`"level"`), a charging satellite or
+ * noise peak set aside (`"satellite"`), a resonance through the dot–substrate junction
+ * (`"second-junction"`), or left out of every group (`"unassigned"`, e.g. beyond the assigned
+ * shells or in an undetermined spectrum).
+ */
+export type PeakRole = "level" | "satellite" | "second-junction" | "unassigned";
+
+/**
+ * The role of every peak of an assignment.
+ *
+ * Parameters
+ * ----------
+ * peakCount : number
+ *     Number of peaks given to `assignSpectrum`.
+ * assignment : { multiplets, evidence }
+ *     Its multiplets (`peakIndices`) and evidence (`satellitePeakIndices`, `secondJunction`).
+ *
+ * Returns
+ * -------
+ * PeakRole[]
+ *     One role per peak, by index.
+ *
+ * Example
+ * -------
+ * ```ts
+ * peakRoles(3, { multiplets: [{ peakIndices: [1, 2] }], evidence: { satellitePeakIndices: [0], secondJunction: [] } });
+ * // => ["satellite", "level", "level"]
+ * ```
+ */
+export function peakRoles(
+  peakCount: number,
+  assignment: {
+    multiplets: readonly Pick<Multiplet, "peakIndices">[];
+    evidence: { satellitePeakIndices: readonly number[]; secondJunction: readonly { index: number }[] };
+  },
+): PeakRole[] {
+  const roles: PeakRole[] = Array.from({ length: peakCount }, () => "unassigned");
+  for (const i of assignment.evidence.satellitePeakIndices) roles[i] = "satellite";
+  for (const r of assignment.evidence.secondJunction) roles[r.index] = "second-junction";
+  for (const m of assignment.multiplets) for (const i of m.peakIndices) roles[i] = "level";
+  return roles;
+}

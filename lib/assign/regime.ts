@@ -5,6 +5,7 @@
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { BandPeak } from "./bandPeaks.ts";
 import { tunnelingShells } from "./shells.ts";
+import type { SecondJunctionResonance } from "./secondJunction.ts";
 
 /** Shell filling (Γtip ≫ Γsub: charging multiplets), shell tunnelling (Γtip ≪ Γsub: one peak per level), or neither. */
 export type Regime = "shell-filling" | "shell-tunneling" | "undetermined";
@@ -22,6 +23,11 @@ export interface RegimeEvidence {
    * the same order.
    */
   satellitePeakIndices: number[];
+  /**
+   * Peaks set aside as resonances through the dot–substrate junction (opposite bias, at
+   * −η·V/(1 − η) of a tip-junction peak V); empty when η was not given.
+   */
+  secondJunction: SecondJunctionResonance[];
   /** The rules that decided, in words. */
   reasons: string[];
 }

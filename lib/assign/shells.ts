@@ -66,6 +66,8 @@ export interface FillingShells {
  */
 export function fillingShells(cb: readonly BandPeak[]): FillingShells {
   const D = ASSIGN_DEFAULTS;
+  // Fewer than two peaks make no charging ladder: an s shell of what there is, nothing else.
+  if (cb.length < 2) return { shells: cb.length ? [[cb.slice()]] : [], offLadder: [], leftover: [] };
   const shells: BandPeak[][][] = [[cb.slice(0, 2)]];
   const ec0 = cb[1].x - cb[0].x;
   const offLadder: BandPeak[] = [];
@@ -164,6 +166,7 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
  * tunnelingShells([0.6875, 1.0625, 1.1, 1.6].map(at)).map((s) => s.length);  // => [1, 2, 1]
  */
 export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
+  if (main.length === 0) return [];
   const shells: BandPeak[][] = [[main[0]]];
   if (main.length < 2) return shells;
   const sp = main[1].x - main[0].x;

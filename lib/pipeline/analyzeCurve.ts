@@ -8,7 +8,7 @@ import { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from 
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
-import { withMultiplets } from "../assign/peakMultiplets.ts";
+import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
@@ -74,6 +74,8 @@ export interface AnalyzedPeak extends Peak {
   sweepsFound: number;
   /** Index in `assignment.multiplets` of the multiplet holding the peak; null outside every multiplet. */
   multiplet: number | null;
+  /** What the peak is in the assignment: a level of a multiplet, a satellite, a second-junction resonance, or unassigned. */
+  role: PeakRole;
 }
 
 /** Everything the analysis of one curve produced. */
@@ -229,7 +231,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
   const sweeps = signal.didvSweepsS;
   const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps").peaks);
-  const peaks: Omit<AnalyzedPeak, "multiplet">[] = found.peaks.map((p, k) => {
+  const peaks: Omit<AnalyzedPeak, "multiplet" | "role">[] = found.peaks.map((p, k) => {
     const own = { ...p, stepA: areas.stepsA[k], prominenceStepA: p.stepA };
     if (sweeps.length < 2) return { ...own, sweepSpreadV: null, sweepsFound: sweeps.length || 1 };
     const positions: number[] = [];
@@ -250,6 +252,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
 
   const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
   const assignment = assignSpectrum(peaks, { eta, regime: options.regime });
+  const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {
     eta: assignment.energies.eta,
     etaGiven: assignment.energies.etaGiven,
@@ -269,7 +272,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     source: curve.meta.source,
     settings,
     conductance: signal,
-    peaks: withMultiplets(peaks, assignment.multiplets),
+    peaks: withMultiplets(peaks, assignment.multiplets).map((p, k) => ({ ...p, role: roles[k] })),
     peakRecord: found.record,
     bandWidthsV: areas.widthsV,
     gapEdgesV: edges,

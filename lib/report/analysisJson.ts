@@ -5,6 +5,7 @@
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { Multiplet, RegimeEvidence, SpectrumEnergies, SpectrumUncertainties } from "../assign/assignSpectrum.ts";
 import type { ImportRecord } from "../io/parse/record.ts";
+import type { PeakRole } from "../assign/peakMultiplets.ts";
 
 /** Version of the record layout; bumped when a field changes meaning. */
 export const ANALYSIS_JSON_VERSION = 1;
@@ -47,6 +48,8 @@ export interface AnalysisJson {
     multiplet: string | null;
     /** Index in `multiplets` of the multiplet holding the peak, or null (satellite or unassigned). */
     multipletIndex: number | null;
+    /** "level" (in a multiplet), "satellite", "second-junction" (a resonance through the substrate junction) or "unassigned". */
+    role: PeakRole;
   }[];
   energies: SpectrumEnergies;
   /** 1σ uncertainties of the bias-referred quantities, V. */
@@ -109,6 +112,7 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
       sweepSpreadV: p.sweepSpreadV,
       multiplet: p.multiplet === null ? null : a.multiplets[p.multiplet].label,
       multipletIndex: p.multiplet,
+      role: p.role,
     })),
     energies: a.energies,
     uncertainties: a.uncertainties,

@@ -13,7 +13,7 @@ const at = (x: number, stepA: number, index: number): BandPeak => ({ x, index, p
 const V = (e: number) => e / 0.8;
 
 function classify(cb: BandPeak[], main = cb): { regime: string; evidence: RegimeEvidence } {
-  const evidence: RegimeEvidence = { ...regimeRatios(cb), satellitePeaksV: [], satellitePeakIndices: [], reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
   return { regime: classifyRegime(cb, main, evidence), evidence };
 }
 

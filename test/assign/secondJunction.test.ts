@@ -1,0 +1,88 @@
+// Second-junction resonances. Closed form (orthodox theory of the double-barrier junction with a
+// capacitive divider: D. V. Averin and K. K. Likharev, in Mesoscopic Phenomena in Solids (Elsevier,
+// 1991); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991)): a level seen through the tip junction
+// at V₁ = (ε + Ec/2)/η lines up with the substrate's Fermi level at V₂ = −(ε + Ec/2)/(1 − η)
+// = −η·V₁/(1 − η). The model check uses the project's master equation, whose closed-form plateaus
+// are tested in test/model/ladder.test.ts.
+import { describe, it, expect } from "vitest";
+import { secondJunctionResonances, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { analyzeCurve, assignSpectrum, simulateCurve, type Peak } from "../../lib/index.ts";
+import { expectClose } from "../helpers/expectClose.ts";
+
+const peak = (biasV: number, sigma = 0.002): Peak => ({
+  biasV, biasUncertaintyV: sigma, index: 0, heightS: 1e-9, prominenceS: 1e-9, fwhmV: 0.04, stepA: 1e-11, snr: 20, stepSignificance: 30,
+});
+
+describe("secondJunctionResonances(peaks, eta)", () => {
+  it("finds the resonance of a CB peak at −η·V/(1 − η) on the VB side (closed form)", () => {
+    const eta = 0.62;
+    const vs = 0.9;
+    const v2 = (-eta * vs) / (1 - eta); // −1.4684 V
+    const r = secondJunctionResonances([peak(v2 + 0.003), peak(-1.0), peak(vs)], eta);
+    expect(r.map((x) => [x.index, x.sourceIndex])).toEqual([[0, 2]]);
+    expectClose(r[0].predictedV, v2, { rtol: 1e-12 });
+  });
+
+  it("finds the resonance of a VB peak on the CB side, and none at η = 1 or without a match", () => {
+    const eta = 0.6;
+    const vv = -0.8;
+    expect(secondJunctionResonances([peak(vv), peak(0.7), peak((-eta * vv) / (1 - eta))], eta).map((x) => x.index)).toEqual([2]);
+    expect(secondJunctionResonances([peak(vv), peak(0.7), peak(1.2)], 1)).toEqual([]);
+    expect(secondJunctionResonances([peak(vv), peak(0.7), peak(1.5)], eta)).toEqual([]); // predicted 1.2 V, 0.3 V away
+  });
+
+  it("a resonance predicts nothing further (it is not a level)", () => {
+    const eta = 0.6; // gain 1.5
+    // 0.5 → −0.75 (resonance); −0.75 would predict +1.125, but that peak is a level here.
+    const r = secondJunctionResonances([peak(-0.75), peak(0.5), peak(1.125)], eta);
+    expect(r.map((x) => x.index)).toEqual([0]);
+  });
+
+  it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %)", () => {
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5 });
+  });
+});
+
+describe("analyzeCurve at η = 0.62: the substrate-junction resonance of s is set aside, not read as a valence group", () => {
+  // A dot with CB s at 0.5 eV and VB levels at −0.55 and −0.75 eV, Ec = 0.05 eV, shell tunnelling.
+  // Closed form: s at (0.5 + 0.025)/0.62 = 0.847 V through the tip junction, and at
+  // −0.525/0.38 = −1.382 V through the substrate junction; VB levels at −(0.55 + 0.025)/0.62 =
+  // −0.927 V and −(0.75 + 0.025)/0.62 = −1.25 V. (The window stops at −1.45 V, before the second
+  // electron enters s from the substrate at −(0.5 + 0.075)/0.38 = −1.513 V: charging peaks that
+  // only the substrate junction shows are not predicted.)
+  const scenario = {
+    cb: [{ energyEV: 0.5, degeneracy: 2 }],
+    vb: [{ energyEV: -0.55, degeneracy: 2 }, { energyEV: -0.75, degeneracy: 2 }],
+    chargingEnergyEV: 0.05,
+    eta: 0.62,
+    tipRatePerS: 1e7,
+    substrateRatePerS: 1e9,
+    temperatureK: 4.5,
+    broadeningEV: 0.008,
+    bias: { fromV: -1.45, toV: 1.2, stepV: 0.002 },
+    noise: { relative: 0.002, seed: 3 },
+  };
+  const sim = simulateCurve(scenario, { method: "exact", conductance: false });
+  const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "low-eta", metadata: {} } };
+  const a = analyzeCurve(curve, { eta: 0.62 });
+
+  it("labels the peak near −0.525/(1 − 0.62) V a second-junction resonance of s", () => {
+    const res = a.peaks.filter((p) => p.role === "second-junction");
+    expect(res.length).toBe(1);
+    expectClose(res[0].biasV, -0.525 / 0.38, { atol: 0.02, what: "resonance position" });
+    expect(res[0].multiplet).toBeNull();
+  });
+
+  it("keeps two valence groups at the tip-junction positions, spacing (0.75 − 0.55)/0.62 V", () => {
+    const vb = a.assignment.multiplets.filter((m) => m.band === "VB");
+    expect(vb.map((m) => m.label)).toEqual(["v1", "v2"]);
+    expectClose(vb[0].peaksV[0], -0.575 / 0.62, { atol: 0.01, what: "v1" });
+    expectClose(vb[1].peaksV[0], -0.775 / 0.62, { atol: 0.01, what: "v2" });
+  });
+
+  it("without the stage the resonance is read as a third valence group", () => {
+    expect(a.assignment.evidence.secondJunction.map((r) => r.index)).toEqual(a.peaks.flatMap((p, k) => (p.role === "second-junction" ? [k] : [])));
+    const plain = assignSpectrum(a.peaks, { eta: 0.62, secondJunction: false });
+    expect(plain.multiplets.filter((m) => m.band === "VB").map((m) => m.label)).toEqual(["v1", "v2", "v3"]);
+  });
+});
