@@ -11,6 +11,7 @@ export interface CurveCliOptions {
   eta?: number;
   biasUnit?: string;
   currentUnit?: string;
+  biasPolarity?: "sample" | "tip";
 }
 
 /** The parser of `--eta`: a number in (0, 1]. */
@@ -26,9 +27,20 @@ export function unitOption(quantity: "bias" | "current", accepted: readonly stri
   };
 }
 
-/** Declares `--bias-unit` and `--current-unit` on a command. */
+/** The parser of `--bias-polarity`. */
+function polarityOption(value: string): "sample" | "tip" {
+  if (value !== "sample" && value !== "tip") throw new InvalidArgumentError(`${JSON.stringify(value)} is not a polarity; accepted: sample, tip`);
+  return value;
+}
+
+/** Declares how to read a file: `--bias-unit`, `--current-unit` and `--bias-polarity`. */
 export function addUnitOptions(command: Command): Command {
   return command
+    .option(
+      "--bias-polarity <sample|tip>",
+      "electrode the file's bias was applied to: sample (default) or tip (the sample bias is then minus the file's; so is the current)",
+      polarityOption,
+    )
     .option("--bias-unit <unit>", `unit of a bias column whose header gives none (${BIAS_UNITS.join(", ")}; default V, with a warning)`, unitOption("bias", BIAS_UNITS))
     .option("--current-unit <unit>", "unit of current columns whose header gives none (A, mA, µA, nA, pA, fA; default A, with a warning)", unitOption("current", CURRENT_UNITS));
 }
@@ -38,6 +50,7 @@ export function readOptions(opts: CurveCliOptions): ReadCurveOptions {
   const read: ReadCurveOptions = {};
   if (opts.biasUnit !== undefined) read.biasUnit = opts.biasUnit;
   if (opts.currentUnit !== undefined) read.currentUnit = opts.currentUnit;
+  if (opts.biasPolarity !== undefined) read.biasPolarity = opts.biasPolarity;
   return read;
 }
 

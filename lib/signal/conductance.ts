@@ -110,6 +110,10 @@ export interface ConductanceRecord {
   usedMeasured: boolean;
   /** Whether the curve was interpolated onto a uniform bias grid. */
   resampled: boolean;
+  /** Whether the current had the sign opposite to the bias and was flipped ({@link prepareCurve}). */
+  currentSignFlipped: boolean;
+  /** Whether the measured conductance was mostly negative and was flipped. */
+  conductanceSignFlipped: boolean;
   /** Anything the user should know about this curve's processing. */
   warnings: string[];
 }
@@ -347,6 +351,8 @@ export function conductanceFromPrepared(prepared: PreparedCurve, options: Differ
       noiseConductanceRawS,
       usedMeasured,
       resampled: prepared.resampled,
+      currentSignFlipped: prepared.currentSignFlipped,
+      conductanceSignFlipped: prepared.conductanceSignFlipped,
       warnings,
     },
   };

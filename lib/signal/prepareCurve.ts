@@ -33,6 +33,10 @@ export const PREPARE_CURVE_DEFAULTS = Object.freeze({
   offsetMinSamples: 5,
   /** Relative tolerance on the bias step before the curve is resampled ({@link UNIFORM_STEP_TOLERANCE}). */
   uniformStepTolerance: UNIFORM_STEP_TOLERANCE,
+  /** The sign check counts the points where |I| exceeds this many σ_I (above the noise) … */
+  signCheckSigma: 4,
+  /** … and flips the current when at least this fraction of them has the sign opposite to the bias. */
+  oppositeSignFraction: 0.8,
 });
 
 const OPTION_KEYS = ["offset"] as const;
@@ -59,6 +63,10 @@ export interface PreparedCurve {
   offsetRegionV: [number, number] | null;
   /** Whether the curve was interpolated onto a uniform bias grid. */
   resampled: boolean;
+  /** Whether the current (and its sweeps) had the sign opposite to the bias and was flipped. */
+  currentSignFlipped: boolean;
+  /** Whether the measured conductance was mostly negative and was flipped. */
+  conductanceSignFlipped: boolean;
   /** What the user should know about these steps (non-uniform grid, no zero-current region). */
   warnings: string[];
 }
@@ -178,6 +186,11 @@ function estimateOffset(biasV: Float64Array, currentA: Float64Array, sigmaA: num
  *    0 V; a side stops after 3 samples in a row outside. The offset is the median current of the
  *    interval and is subtracted from the current. 0 V outside the bias range, or an interval of
  *    fewer than 5 samples, gives a warning. The constants are in {@link PREPARE_CURVE_DEFAULTS}.
+ * 4. Sign: of the points where the offset-corrected |I| > 4σ_I, if at least 80 % have
+ *    I·V < 0, the current and its sweeps are negated (warning): the project's convention is
+ *    that the current has the sign of the (sample) bias. A measured conductance negative at 80 %
+ *    of its points above 4σ is negated too (an inverted lock-in phase). The constants are in
+ *    {@link PREPARE_CURVE_DEFAULTS}.
  *
  * Example
  * -------
@@ -258,5 +271,46 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
       for (let i = 0; i < n; i++) currentA[i] -= offsetA;
     }
   }
-  return { biasV, currentA, sweepsA, measuredS, stepV, noiseCurrentA, noiseMeasuredS, offsetA, offsetRegionV, resampled, warnings };
+  // 4. Sign (on the offset-corrected current; the offset stays as the file has it): the current has the sign of the bias (sample-bias convention); a file that records it
+  // the other way round is flipped, with a warning.
+  const currentSignFlipped = opposesBias(biasV, currentA, D.signCheckSigma * noiseCurrentA, D.oppositeSignFraction);
+  if (currentSignFlipped) {
+    for (let i = 0; i < n; i++) currentA[i] = -currentA[i];
+    sweepsA = sweepsA.map((sw) => Float64Array.from(sw, (v) => -v));
+    warnings.push(
+      "the current has the sign opposite to the bias over most of the curve: it was flipped (sample-bias convention: current has the sign of the bias). If the bias was applied to the tip, read the file with biasPolarity \"tip\" instead.",
+    );
+  }
+  let conductanceSignFlipped = false;
+  if (measuredS && noiseMeasuredS !== null && mostlyNegative(measuredS, D.signCheckSigma * noiseMeasuredS, D.oppositeSignFraction)) {
+    measuredS = Float64Array.from(measuredS, (v) => -v);
+    conductanceSignFlipped = true;
+    warnings.push("the measured dI/dV is negative over most of the curve (an inverted lock-in phase?): it was flipped.");
+  }
+
+  return { biasV, currentA, sweepsA, measuredS, stepV, noiseCurrentA, noiseMeasuredS, offsetA, offsetRegionV, resampled, currentSignFlipped, conductanceSignFlipped, warnings };
+}
+
+/** Whether, of the points with |I| > threshold, at least `fraction` have I·V < 0. */
+function opposesBias(biasV: ArrayLike<number>, currentA: ArrayLike<number>, threshold: number, fraction: number): boolean {
+  let counted = 0;
+  let opposite = 0;
+  for (let i = 0; i < biasV.length; i++) {
+    if (Math.abs(currentA[i]) <= threshold || biasV[i] === 0) continue;
+    counted++;
+    if (currentA[i] * biasV[i] < 0) opposite++;
+  }
+  return counted > 0 && opposite >= fraction * counted;
+}
+
+/** Whether, of the points with |G| > threshold, at least `fraction` are negative. */
+function mostlyNegative(values: ArrayLike<number>, threshold: number, fraction: number): boolean {
+  let counted = 0;
+  let negative = 0;
+  for (let i = 0; i < values.length; i++) {
+    if (Math.abs(values[i]) <= threshold) continue;
+    counted++;
+    if (values[i] < 0) negative++;
+  }
+  return counted > 0 && negative >= fraction * counted;
 }

@@ -313,3 +313,44 @@ describe("dotspec analyze --bias-unit U --current-unit U (headerless files)", ()
     expect(r.stderr).toMatch(/mV/);
   });
 });
+
+describe("dotspec analyze: sign conventions", () => {
+  // A file written with the bias applied to the tip (V_tip = −V_sample, current with it) and one
+  // whose current has the sign opposite to the bias: both give the peaks of the sample-bias file,
+  // s at +(|ε| + Ec/2)/η (closed form of orthodox theory: Beenakker, Phys. Rev. B 44, 1646 (1991)).
+  let tipFile: string;
+  let invertedFile: string;
+  beforeAll(() => {
+    const lines = readFileSync(filling, "utf8").split("\n");
+    const header = lines.findIndex((l) => /^bias/i.test(l));
+    const rows = lines.slice(header + 1).filter((l) => l.trim() !== "").map((l) => l.split(",").map(Number));
+    const neg = (x: number) => (x === 0 ? 0 : -x);
+    tipFile = join(dir, "tip.csv");
+    writeFileSync(tipFile, [lines[header], ...rows.map((r) => r.map(neg).join(","))].join("\n") + "\n");
+    invertedFile = join(dir, "inverted.csv");
+    writeFileSync(invertedFile, [lines[header], ...rows.map(([v, ...i]) => [v, ...i.map(neg)].join(","))].join("\n") + "\n");
+  });
+
+  it("--bias-polarity tip reads a tip-bias file as sample bias", async () => {
+    const r = await run(["analyze", tipFile, "--eta", "0.8", "--bias-polarity", "tip", "--json"]);
+    expect(r.code).toBe(0);
+    const [j] = parseRecords(r.stdout);
+    expectClose(multiplet(j, "s").peaksV[0], chargingPeakV(FILLING.cb[0].energyEV, 0), { atol: PEAK_ATOL_V, what: "s1" });
+    expect(j.regime).toBe("shell-filling");
+  });
+
+  it("a current with the sign opposite to the bias is flipped, with a warning that names the tip option", async () => {
+    const r = await run(["analyze", invertedFile, "--eta", "0.8", "--json"]);
+    expect(r.code).toBe(0);
+    const [j] = parseRecords(r.stdout);
+    expect(j.warnings.join(" ")).toMatch(/opposite to the bias.*tip/);
+    expectClose(multiplet(j, "s").peaksV[0], chargingPeakV(FILLING.cb[0].energyEV, 0), { atol: PEAK_ATOL_V, what: "s1" });
+    expect(j.regime).toBe("shell-filling");
+  });
+
+  it("--bias-polarity takes only sample or tip", async () => {
+    const r = await run(["analyze", filling, "--bias-polarity", "anode"]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/sample, tip/);
+  });
+});

@@ -47,6 +47,7 @@ describe("PARSE_DEFAULTS", () => {
       biasColumn: null,
       currentColumns: null,
       minPoints: 5,
+      biasPolarity: "sample",
     });
     expect(Object.isFrozen(PARSE_DEFAULTS)).toBe(true);
   });
@@ -684,5 +685,16 @@ describe("parseCurveText: random input (fast-check)", () => {
       }),
       { numRuns: 300 },
     );
+  });
+});
+
+describe("parseCurveText(text, { biasPolarity: \"tip\" })", () => {
+  it("turns a tip-bias file into sample bias: V → −V, I → −I, order ascending (closed form of the junction's electrostatics)", () => {
+    const text = "bias (V),current (nA)\n-1,-3\n0,0\n1,1\n2,5\n3,6\n";
+    const { curve, record } = parseCurveText(text, { biasPolarity: "tip" });
+    expect(Array.from(curve.biasV)).toEqual([-3, -2, -1, 0, 1]);
+    expectClose(curve.currentA, [-6e-9, -5e-9, -1e-9, 0, 3e-9], { rtol: 1e-12 });
+    expect(record.biasPolarity).toBe("tip");
+    expect(parseCurveText(text).record.biasPolarity).toBe("sample");
   });
 });

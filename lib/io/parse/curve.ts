@@ -44,3 +44,41 @@ export function makeCurve(common: SweepSet, src: string, metadata: Map<string, s
     meta: { source: src, metadata: Object.fromEntries(metadata) },
   };
 }
+
+/**
+ * The curve of a file whose bias was applied to the tip, in the project's sample-bias convention.
+ *
+ * Parameters
+ * ----------
+ * curve : Curve
+ *     As read, bias ascending in the file's (tip) convention.
+ *
+ * Returns
+ * -------
+ * Curve
+ *     New arrays: bias V_sample = −V_tip (reordered to ascend), currents negated with it (the
+ *     current keeps the sign of the bias), a measured dI/dV reordered only (d(−I)/d(−V) = dI/dV).
+ *
+ * Notes
+ * -----
+ * With the sample grounded and the bias V on the tip, the sample sits at −V relative to the tip:
+ * the states probed at tip bias +V are the sample's filled states (closed form of the
+ * electrostatics of the junction).
+ *
+ * Example
+ * -------
+ * const c = toSampleBias({ biasV: Float64Array.of(-1, 0, 2), currentA: Float64Array.of(-3, 0, 5),
+ *   sweeps: [Float64Array.of(-3, 0, 5)], didvS: null, meta: { source: "t", metadata: {} } });
+ * [Array.from(c.biasV), Array.from(c.currentA)];  // => [[-2, 0, 1], [-5, 0, 3]]
+ */
+export function toSampleBias(curve: Curve): Curve {
+  // 0 − x rather than −x: no −0 in the bias axis.
+  const flip = (a: Float64Array, sign: 1 | -1) => Float64Array.from(a, (_, i) => (sign === 1 ? a[a.length - 1 - i] : 0 - a[a.length - 1 - i]));
+  return {
+    biasV: flip(curve.biasV, -1),
+    currentA: flip(curve.currentA, -1),
+    sweeps: curve.sweeps.map((s) => flip(s, -1)),
+    didvS: curve.didvS ? flip(curve.didvS, 1) : null,
+    meta: curve.meta,
+  };
+}

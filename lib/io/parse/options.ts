@@ -46,6 +46,12 @@ export interface ParseOptions {
   currentColumns?: readonly ColumnRef[] | null;
   /** Fewest distinct bias points a curve may have after cleaning, in samples. Default 5. */
   minPoints?: number;
+  /**
+   * Which electrode the file's bias was applied to: `"sample"` (the project's convention) or
+   * `"tip"` (sample grounded; the sample bias is then minus the file's, and so is the current).
+   * Default `"sample"`.
+   */
+  biasPolarity?: "sample" | "tip";
 }
 
 /** Defaults of {@link ParseOptions}. */
@@ -58,6 +64,7 @@ export const PARSE_DEFAULTS = Object.freeze({
   biasColumn: null as ColumnRef | null,
   currentColumns: null as readonly ColumnRef[] | null,
   minPoints: 5,
+  biasPolarity: "sample" as "sample" | "tip",
 });
 
 
@@ -110,6 +117,7 @@ export function resolveParseOptions(options: ParseOptions) {
   }
   checkOneOf("delimiter", o.delimiter, ["auto", ",", ";", "\t", "whitespace"] as const);
   checkInteger("minPoints", o.minPoints, 2);
+  checkOneOf("biasPolarity", o.biasPolarity, ["sample", "tip"] as const);
   const unit = (name: string, value: unknown, q: Quantity): UnitInfo | null => {
     if (value === null) return null;
     if (typeof value !== "string") {

@@ -9,7 +9,7 @@ import { assignUnits } from "./columnUnits.ts";
 import { nameColumns } from "./columns.ts";
 import { ontoCommonBias } from "./commonBias.ts";
 import { keepCompleteRows } from "./completeRows.ts";
-import { makeCurve } from "./curve.ts";
+import { makeCurve, toSampleBias } from "./curve.ts";
 import { findDataRows } from "./dataRows.ts";
 import { detectFormat } from "./format.ts";
 import { groupColumns } from "./groups.ts";
@@ -139,7 +139,8 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   const common = ontoCommonBias(sweeps.sets, o.minPoints, src, counts, biasColumns, warnings);
 
   // 9. Curve and record.
-  const curve = makeCurve(common, src, file.metadata);
-  const record = makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata: file.metadata, warnings });
+  const asRead = makeCurve(common, src, file.metadata);
+  const curve = o.biasPolarity === "tip" ? toSampleBias(asRead) : asRead;
+  const record = makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata: file.metadata, warnings, biasPolarity: o.biasPolarity });
   return { curve, record };
 }

@@ -46,6 +46,8 @@ export interface ImportRecord {
   uniformStep: boolean;
   /** Keys of the `key: value` / `key = value` metadata, in file order. */
   metadataKeys: string[];
+  /** The electrode the file's bias was applied to (option `biasPolarity`); the curve is in sample bias either way. */
+  biasPolarity: "sample" | "tip";
   /** Everything assumed or repaired, in plain words. */
   warnings: string[];
 }
@@ -71,6 +73,7 @@ export interface RecordParts {
   curve: Curve;
   metadata: Map<string, string>;
   warnings: string[];
+  biasPolarity: "sample" | "tip";
 }
 
 /**
@@ -97,7 +100,7 @@ export interface RecordParts {
  * -------
  * parseCurveText("bias (mV),current (pA)\n-2,-5\n-1,-1\n0,0\n1,1\n2,5\n").record.biasDirection;  // => "ascending"
  */
-export function makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata, warnings }: RecordParts): ImportRecord {
+export function makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata, warnings, biasPolarity }: RecordParts): ImportRecord {
   const grid = curve.biasV;
   const step = biasStep(grid);
   const { directions } = sweeps;
@@ -132,6 +135,7 @@ export function makeRecord({ src, format, header, columns, counts, sweeps, curve
     biasStepV: step.medianV,
     uniformStep: step.uniform,
     metadataKeys: [...metadata.keys()],
+    biasPolarity,
     warnings,
   };
 }
