@@ -14,20 +14,21 @@ import { DotspecError } from "../util/errors.ts";
 
 /** Options of {@link fitCurve}. */
 export interface FitOptions {
-  /** Voltage-division factor η (held fixed: one curve barely constrains it). Default: the analysis' η. */
+  /** Voltage-division factor η, 0 < η ≤ 1 (held fixed: one curve barely constrains it). Default: the analysis' η. */
   eta?: number;
-  /** Temperature in K (sets the thermal step width; barely matters next to the broadening). Default 4.5. */
+  /** Temperature in K (sets the thermal step width; barely matters next to the broadening). Default: FIT_DEFAULTS.temperatureK (4.5). */
   temperatureK?: number;
-  /** Most Levenberg–Marquardt iterations. Default 60. */
+  /** Most Levenberg–Marquardt iterations. Default: FIT_DEFAULTS.maxIterations (60). */
   maxIterations?: number;
-  /** Wall-clock limit in ms; the fit stops and reports non-convergence after it. Default 5000. */
+  /** Wall-clock limit in ms; the fit stops and reports non-convergence after it. Default: FIT_DEFAULTS.timeLimitMs (5000). */
   timeLimitMs?: number;
-  /** Most data points used (the curve is thinned evenly beyond this). Default 800. */
+  /** Most data points used (the curve is thinned evenly beyond this). Default: FIT_DEFAULTS.maxPoints (800). */
   maxPoints?: number;
-  /** Starting charging energy in eV where the peaks do not give one (shell tunnelling). Default 0.1. */
+  /** Starting charging energy in eV where the peaks do not give one (shell tunnelling). Default: FIT_DEFAULTS.chargingEnergyGuessEV (0.1). */
   chargingEnergyGuessEV?: number;
 }
 
+/** Defaults and constants of {@link fitCurve} (locked by test/model/fitCurve.test.ts). */
 export const FIT_DEFAULTS = Object.freeze({
   temperatureK: 4.5,
   maxIterations: 60,
@@ -148,9 +149,36 @@ function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
 }
 
 /**
- * Fits the model of a dot in a double-barrier junction to one measured curve.
+ * Fits the model of a dot in a double-barrier junction to one measured curve, starting from its
+ * peak-based analysis.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     The peak-based analysis of the curve ({@link analyzeCurve}): its conductance record (bias in
+ *     V, current in A, current noise in A), assignment and settings.
+ * options : FitOptions, optional
+ *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
+ *     timeLimitMs (ms, default 5000); maxPoints (default 800); chargingEnergyGuessEV (eV, default
+ *     0.1). Defaults in {@link FIT_DEFAULTS}.
+ *
+ * Returns
+ * -------
+ * CurveFit
+ *     Each fitted level (energy in eV and referred to bias in V), Ec (eV and V), Γtip/Γsub, Γsub
+ *     (1/s), the broadening (eV), offset (A) and background, all with standard errors; the
+ *     reduced χ², the regime the fitted rate ratio implies, the residuals, whether it converged
+ *     and why it stopped, and warnings.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `fit/no-levels` when the assignment gives no level to fit; `options/unknown-key`,
+ *     `options/not-positive`, `options/not-finite`, `options/out-of-range` (η outside (0, 1])
+ *     for a bad option.
+ *
+ * Notes
+ * -----
  * 1. Start: the levels, their degeneracies and Ec from the assignment (shell filling: one level
  *    per multiplet or sub-group, ε = η·V_first − Ec·(N_before + ½); shell tunnelling: one level
  *    per peak, ε = η·V − Ec/2, Ec from `chargingEnergyGuessEV`); rate ratio 10 (filling),
@@ -165,13 +193,34 @@ function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
  * 4. Standard errors from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
  *    reduced χ² when the model does not reach the noise).
+ * 5. Regime from the fitted Γtip/Γsub: shell filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5),
+ *    shell tunnelling at ≤ FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between
+ *    ({@link REGIME_LIMITS}); a reduced χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a
+ *    warning.
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
- * References: K. Levenberg, Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, J. SIAM 11, 431
- * (1963); G. H. Golub and V. Pereyra, SIAM J. Numer. Anal. 10, 413 (1973) (variable projection).
+ * References
+ * ----------
+ * K. Levenberg, "A method for the solution of certain non-linear problems in least squares",
+ * Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, "An algorithm for least-squares estimation of
+ * nonlinear parameters", J. SIAM 11, 431 (1963); G. H. Golub and V. Pereyra, "The
+ * differentiation of pseudo-inverses and nonlinear least squares problems whose variables
+ * separate", SIAM J. Numer. Anal. 10, 413 (1973) (variable projection).
  *
- * @param analysis - the peak-based analysis of the curve (analyzeCurve).
- * @throws DotspecError when the assignment gives no level to fit.
+ * Example
+ * -------
+ * ```ts
+ * const sim = simulateCurve({ cb: [{ energyEV: 0.6, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 6 }],
+ *   vb: [{ energyEV: -1.2, degeneracy: 2 }], chargingEnergyEV: 0.1, eta: 0.85, tipRatePerS: 1e9,
+ *   substrateRatePerS: 1e8, temperatureK: 4.5, broadeningEV: 0.01,
+ *   bias: { fromV: -2, toV: 2.2, stepV: 0.002 }, noise: { relative: 0.003, seed: 1 } }, { method: "fast" });
+ * const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "demo", metadata: {} } };
+ * const fit = fitCurve(analyzeCurve(curve, { eta: 0.85 }));
+ * fit.regime;                       // => "shell-filling"
+ * fit.chargingEnergyEV;             // => { value: 0.1000, standardError: 0.00009 } (eV; simulated 0.1)
+ * fit.rateRatio.value;              // => 10.1 (± 0.15; simulated 10)
+ * fit.levels.map((l) => l.energyEV.value); // => [0.6001, 0.9001, -1.2000] (eV; simulated 0.6, 0.9, −1.2)
+ * ```
  */
 export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): CurveFit {
   checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV"]);
