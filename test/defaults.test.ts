@@ -10,7 +10,7 @@ import { CONDUCTANCE_DEFAULTS } from "../lib/signal/conductance.ts";
 import { PREPARE_CURVE_DEFAULTS } from "../lib/signal/prepareCurve.ts";
 import { GAP_EDGES_DEFAULTS } from "../lib/assign/gapEdges.ts";
 import { ASSIGN_DEFAULTS } from "../lib/assign/assignSpectrum.ts";
-import { FIT_DEFAULTS } from "../lib/model/fitCurve.ts";
+import { FIT_DEFAULTS } from "../lib/model/fit/fitCurve.ts";
 import { SIMULATE_DEFAULTS } from "../lib/model/simulate.ts";
 import { NORMALIZED_CONDUCTANCE_DEFAULTS } from "../lib/signal/normalizedConductance.ts";
 import { SAVITZKY_GOLAY_DEFAULTS } from "../lib/signal/savitzkyGolay.ts";
@@ -43,7 +43,7 @@ const CASES: [string, string, string[]][] = [
   ["../lib/signal/conductance.ts", "ConductanceOptions", ["CONDUCTANCE_DEFAULTS"]],
   ["../lib/signal/prepareCurve.ts", "PrepareCurveOptions", ["PREPARE_CURVE_DEFAULTS"]],
   ["../lib/assign/gapEdges.ts", "GapEdgesOptions", ["GAP_EDGES_DEFAULTS"]],
-  ["../lib/model/fitCurve.ts", "FitOptions", ["FIT_DEFAULTS"]],
+  ["../lib/model/fit/fitCurve.ts", "FitOptions", ["FIT_DEFAULTS"]],
   ["../lib/model/simulate.ts", "SimulateOptions", ["SIMULATE_DEFAULTS"]],
   ["../lib/signal/normalizedConductance.ts", "NormalizedConductanceOptions", ["NORMALIZED_CONDUCTANCE_DEFAULTS"]],
   ["../lib/signal/savitzkyGolay.ts", "SavitzkyGolayOptions", ["SAVITZKY_GOLAY_DEFAULTS"]],
