@@ -5,7 +5,7 @@
  */
 import { bench, describe } from "vitest";
 import { simulateCurve, analyzeCurve, parseCurveText, formatCurveCsv, type Curve } from "../lib/index.ts";
-import { fitCurve } from "../lib/model/fitCurve.ts";
+import { fitCurve } from "../lib/model/fit/fitCurve.ts";
 import { BENCH_SCENARIO } from "../test/fixtures/exampleScenario.ts";
 
 const scenario = BENCH_SCENARIO;

@@ -54,5 +54,5 @@ export { loadCurveFigure, type CurveFigureRenderer } from "./report/loadCurveFig
 export type { CurveFigureOptions } from "./report/curveFigure.ts";
 
 // Model fit.
-export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./model/fitCurve.ts";
+export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./model/fit/index.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";

@@ -10,10 +10,14 @@ import { CONDUCTANCE_DEFAULTS } from "../lib/signal/conductance.ts";
 import { PREPARE_CURVE_DEFAULTS } from "../lib/signal/prepareCurve.ts";
 import { GAP_EDGES_DEFAULTS } from "../lib/assign/gapEdges.ts";
 import { ASSIGN_DEFAULTS } from "../lib/assign/assignSpectrum.ts";
-import { FIT_DEFAULTS } from "../lib/model/fitCurve.ts";
+import { FIT_DEFAULTS } from "../lib/model/fit/fitCurve.ts";
 import { SIMULATE_DEFAULTS } from "../lib/model/simulate.ts";
 import { NORMALIZED_CONDUCTANCE_DEFAULTS } from "../lib/signal/normalizedConductance.ts";
 import { SAVITZKY_GOLAY_DEFAULTS } from "../lib/signal/savitzkyGolay.ts";
+import { PEAK_AREAS_DEFAULTS } from "../lib/peaks/peakAreas.ts";
+import { EDGE_STEP_WIDTH_DEFAULTS } from "../lib/peaks/edgeStepWidth.ts";
+import { SCENARIO_DEFAULTS } from "../lib/model/scenario.ts";
+import { SYNTHETIC_DEFAULTS } from "../lib/model/syntheticSpectrum.ts";
 
 const OBJECTS: Record<string, object> = {
   FIND_PEAKS_DEFAULTS,
@@ -26,6 +30,10 @@ const OBJECTS: Record<string, object> = {
   SIMULATE_DEFAULTS,
   NORMALIZED_CONDUCTANCE_DEFAULTS,
   SAVITZKY_GOLAY_DEFAULTS,
+  PEAK_AREAS_DEFAULTS,
+  EDGE_STEP_WIDTH_DEFAULTS,
+  SCENARIO_DEFAULTS,
+  SYNTHETIC_DEFAULTS,
 };
 
 /** [source file, options interface, the DEFAULTS objects its fields default to, in lookup order]. */
@@ -36,10 +44,15 @@ const CASES: [string, string, string[]][] = [
   ["../lib/signal/conductance.ts", "ConductanceOptions", ["CONDUCTANCE_DEFAULTS"]],
   ["../lib/signal/prepareCurve.ts", "PrepareCurveOptions", ["PREPARE_CURVE_DEFAULTS"]],
   ["../lib/assign/gapEdges.ts", "GapEdgesOptions", ["GAP_EDGES_DEFAULTS"]],
-  ["../lib/model/fitCurve.ts", "FitOptions", ["FIT_DEFAULTS"]],
+  ["../lib/model/fit/fitCurve.ts", "FitOptions", ["FIT_DEFAULTS"]],
   ["../lib/model/simulate.ts", "SimulateOptions", ["SIMULATE_DEFAULTS"]],
   ["../lib/signal/normalizedConductance.ts", "NormalizedConductanceOptions", ["NORMALIZED_CONDUCTANCE_DEFAULTS"]],
   ["../lib/signal/savitzkyGolay.ts", "SavitzkyGolayOptions", ["SAVITZKY_GOLAY_DEFAULTS"]],
+  ["../lib/peaks/peakAreas.ts", "PeakAreasOptions", ["PEAK_AREAS_DEFAULTS"]],
+  ["../lib/peaks/edgeStepWidth.ts", "EdgeStepWidthOptions", ["EDGE_STEP_WIDTH_DEFAULTS"]],
+  ["../lib/model/scenario.ts", "Scenario", ["SCENARIO_DEFAULTS"]],
+  ["../lib/model/scenario.ts", "NoiseSpec", ["SCENARIO_DEFAULTS"]],
+  ["../lib/model/syntheticSpectrum.ts", "SyntheticRanges", ["SYNTHETIC_DEFAULTS"]],
 ];
 
 describe("documented defaults", () => {

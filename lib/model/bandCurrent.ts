@@ -21,8 +21,40 @@ export interface BandLadders {
 }
 
 /**
- * Builds both ladders. Carriers of the two bands are counted separately (an electron and a
- * hole never share the dot in this model: each band's charging counts its own carriers).
+ * Builds the ladders of both bands of a dot.
+ *
+ * Parameters
+ * ----------
+ * model : DotModel
+ *     CB levels (ascending), VB levels (descending), charging energy (eV) and the junction.
+ *
+ * Returns
+ * -------
+ * BandLadders
+ *     `{ cb, vb }`: the CB ladder as is and the VB as the mirrored hole ladder (ε → −ε); null
+ *     for a band without levels.
+ *
+ * Throws
+ * ------
+ * Nothing: the model comes validated ({@link parseScenario}).
+ *
+ * Notes
+ * -----
+ * 1. CB: {@link buildLadder} of the CB levels with Ec.
+ * 2. VB: {@link buildLadder} of the VB levels with ε → −ε: holes are electrons of the mirrored
+ *    ladder, evaluated at −V.
+ * Carriers of the two bands are counted separately (an electron and a hole never share the dot
+ * in this model: each band's charging counts its own carriers).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * const ladders = bandLadders(model);
+ * ladders.cb?.nStates; // => 3
+ * ladders.vb;          // => null
+ * ```
  */
 export function bandLadders(model: DotModel): BandLadders {
   return {
@@ -38,14 +70,48 @@ const BANDS = [
 ] as const;
 
 /**
- * Exact current at each bias (thermal Fermi functions). Biases whose Fermi factors are all
- * saturated (more than {@link SATURATION_KT} kB·T from every crossing) lie on a plateau and share
- * one solution, so only the thermal steps cost a solve each.
+ * Exact current of a dot at each bias, both bands, with thermal Fermi functions.
  *
- * @param model - the dot.
- * @param biasV - sample biases in V, any order.
- * @param ladders - prebuilt ladders (optional).
- * @returns current in A at each bias.
+ * Parameters
+ * ----------
+ * model : DotModel
+ *     The dot and the junction.
+ * biasV : ArrayLike<number>
+ *     Sample biases in V, any order.
+ * ladders : BandLadders, optional
+ *     Prebuilt ladders. Default: bandLadders(model).
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     Current in A at each bias (CB electrons at positive bias, VB holes at negative bias, with
+ *     the sign of the bias).
+ *
+ * Throws
+ * ------
+ * Nothing: the model comes validated.
+ *
+ * Notes
+ * -----
+ * 1. Per band, the crossings of {@link ladderCrossings} split the bias axis into intervals.
+ * 2. A bias farther than {@link SATURATION_KT} kB·T from every crossing lies on a plateau, where
+ *    all Fermi factors are saturated: the first such bias of an interval is solved
+ *    ({@link ladderCurrent}) and the others reuse its current.
+ * 3. Biases near a crossing (the thermal steps) are solved one by one.
+ * 4. The VB hole ladder is evaluated at −V and its current enters with sign −1.
+ *
+ * References
+ * ----------
+ * C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * exactCurrent(model, [0, 0.75, 1]);
+ * // => [0, 1.526e-11, 2.913e-11] (A; plateaus e·Γsub·2r/(1 + 2r) and e·Γsub·2r/(1 + r), r = 10)
+ * ```
  */
 export function exactCurrent(model: DotModel, biasV: ArrayLike<number>, ladders: BandLadders = bandLadders(model)): Float64Array {
   const out = new Float64Array(biasV.length);
@@ -94,8 +160,43 @@ export interface CurrentStep {
 }
 
 /**
- * The zero-temperature current as plateaus and steps: I(V) = baseA + Σ heightA·H(V − biasV).
- * Each plateau is one master-equation solve with step Fermi functions.
+ * The zero-temperature current of a dot as plateaus and steps:
+ * I(V) = baseA + Σ heightA·H(V − biasV).
+ *
+ * Parameters
+ * ----------
+ * model : DotModel
+ *     The dot and the junction.
+ * ladders : BandLadders, optional
+ *     Prebuilt ladders. Default: bandLadders(model).
+ *
+ * Returns
+ * -------
+ * { baseA: number; steps: CurrentStep[] }
+ *     The current below every step (A) and the steps sorted by bias: position (V), height (A),
+ *     thermal width (V).
+ *
+ * Throws
+ * ------
+ * Nothing: the model comes validated.
+ *
+ * Notes
+ * -----
+ * 1. Per band, the crossings of {@link ladderCrossings}, merging those closer than 1e-12 V.
+ * 2. One master-equation solve with step Fermi functions ({@link ladderCurrent}, zero
+ *    temperature) at the middle of each plateau (and 1 V beyond the outer crossings).
+ * 3. Each step's height is the difference of the plateaus either side; zero steps are dropped.
+ * 4. The VB hole ladder runs at −V: its crossings and steps mirror to negative sample bias.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * currentSteps(model).steps.map((s) => [s.biasV, s.heightA]);
+ * // => [[-3.25, 2.43e-12], [-2.75, 2.67e-11], [0.6875, 1.526e-11], [0.8125, 1.387e-11]]
+ * //    (V, A; the negative ones are the substrate-junction crossings −E/(1 − η))
+ * ```
  */
 export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders(model)): { baseA: number; steps: CurrentStep[] } {
   let baseA = 0;
@@ -145,15 +246,50 @@ export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders
 }
 
 /**
- * Fast current: zero-temperature steps, each broadened by a Gaussian of standard deviation
- * √(σ_b² + σ_T²) where σ_b is the level broadening in bias and σ_T = π·kB·T/(√3·e·η) has the
- * variance of the thermal (logistic) step. With σ_b = 0 the thermal step is a Fermi function.
+ * Fast current: the zero-temperature steps of {@link currentSteps}, each broadened by a Gaussian.
+ *
+ * Parameters
+ * ----------
+ * steps : { baseA: number; steps: CurrentStep[] }
+ *     From {@link currentSteps}.
+ * biasV : ArrayLike<number>
+ *     Sample biases in V, any order.
+ * broadeningV : number
+ *     Gaussian level broadening expressed in bias (σ in V, ≥ 0).
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     Current in A at each bias.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. Each step is broadened by a Gaussian of standard deviation √(σ_b² + σ_T²) where σ_b is the
+ *    level broadening in bias and σ_T = π·kB·T/(√3·e·η) has the variance of the thermal
+ *    (logistic) step: I(V) = baseA + Σ h·Φ((V − V_k)/σ), taken as 0 or h beyond 9σ.
+ * 2. With σ_b = 0 the thermal step is a Fermi function: h·f(−(V − V_k)/w), w its thermal width.
  * Accurate when σ_b ≫ kB·T/(e·η), the usual case (peaks tens of mV wide, kB·T/e ≈ 0.4 mV).
  * It places every step at its zero-temperature crossing and so ignores the shift of about
  * kB·T·ln g/(e·η) of the step of a g-fold degenerate level; the dI/dV error that causes is about
  * that shift over σ_b of the peak height (≈ 4 % at 4.5 K and σ_b = 12.5 mV, < 1 % at 1 K).
  *
- * @param broadeningV - Gaussian level broadening expressed in bias (σ in V).
+ * References
+ * ----------
+ * M. Abramowitz and I. A. Stegun (eds.), Handbook of Mathematical Functions (National Bureau of
+ * Standards, 1964), 26.2 (the normal distribution function Φ).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * fastCurrent(currentSteps(model), [0.5, 0.75, 1], 0.01);
+ * // => [0, 1.526e-11, 2.913e-11] (A; the exact plateaus, away from the steps)
+ * ```
  */
 export function fastCurrent(
   steps: { baseA: number; steps: CurrentStep[] },
@@ -163,7 +299,42 @@ export function fastCurrent(
   return fastSum(steps, biasV, broadeningV, false);
 }
 
-/** dI/dV in S of {@link fastCurrent}, differentiated analytically. */
+/**
+ * dI/dV of {@link fastCurrent}, differentiated analytically.
+ *
+ * Parameters
+ * ----------
+ * steps : { baseA: number; steps: CurrentStep[] }
+ *     From {@link currentSteps}.
+ * biasV : ArrayLike<number>
+ *     Sample biases in V, any order.
+ * broadeningV : number
+ *     Gaussian level broadening expressed in bias (σ in V, ≥ 0).
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     Conductance in S at each bias.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. Each step of height h contributes the Gaussian h·φ((V − V_k)/σ)/σ, σ as in note 1 of
+ *    {@link fastCurrent}, taken as 0 beyond 9σ.
+ * 2. With σ_b = 0: h·f·(1 − f)/w, the derivative of the Fermi step.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * fastConductance(currentSteps(model), [0.6875, 0.8125], 0.01);
+ * // => [6.06e-10, 5.51e-10] (S; at the tops, ≈ h/(σ√(2π)) with σ ≈ 10 mV)
+ * ```
+ */
 export function fastConductance(
   steps: { baseA: number; steps: CurrentStep[] },
   biasV: ArrayLike<number>,

@@ -81,8 +81,51 @@ export interface Ladder {
 /**
  * Builds the state space and transition lists of one band.
  *
- * @param levels - levels in the order carriers fill them (lowest cost first).
- * @param chargingEnergyEV - addition energy Ec in eV.
+ * Parameters
+ * ----------
+ * levels : readonly Level[]
+ *     Levels in the order carriers fill them (lowest cost first): energy in eV relative to the
+ *     Fermi level at zero bias, degeneracy (carriers the level holds).
+ * chargingEnergyEV : number
+ *     Addition energy Ec in eV.
+ *
+ * Returns
+ * -------
+ * Ladder
+ *     The occupation states sorted by carrier number, their occupations, the addition energies
+ *     and the tunnelling and relaxation transitions, all bias-independent.
+ *
+ * Throws
+ * ------
+ * Nothing: the levels come validated ({@link parseScenario}, which also bounds the number of
+ * states).
+ *
+ * Notes
+ * -----
+ * 1. Enumerate every occupation (n_1 … n_L), 0 ≤ n_j ≤ g_j, in mixed radix: ∏(g_j + 1) states.
+ * 2. Sort them (stably) by the total carriers N, so every transition links block N to N ± 1;
+ *    record for each state the first state of block N − 1 (the band limit of
+ *    {@link stationaryDistribution}).
+ * 3. Addition energies ε_j + Ec·(N + ½), one per level j and carrier number N (the "key" of a
+ *    transition).
+ * 4. Tunnelling transitions: into level j from state s with g_j − n_j free slots (key j, N), out
+ *    of level j with n_j occupied slots (key j, N − 1).
+ * 5. Relaxation transitions: a carrier of level k drops to the lowest non-full level of lower
+ *    energy, at a rate proportional to n_k.
+ *
+ * References
+ * ----------
+ * C. W. J. Beenakker, "Theory of Coulomb-blockade oscillations in the conductance of a quantum
+ * dot", Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
+ * ladder.nStates;            // => 3 (0, 1 or 2 electrons)
+ * ladder.keyEnergyEV;        // => [0.55, 0.65] (eV: ε + Ec/2, ε + 3Ec/2)
+ * ladder.tunnelFrom.length;  // => 4 (0⇄1, 1⇄2)
+ * ```
  */
 export function buildLadder(levels: readonly Level[], chargingEnergyEV: number): Ladder {
   const nLevels = levels.length;
@@ -192,6 +235,36 @@ export interface LadderWorkspace {
   subOut: Float64Array;
 }
 
+/**
+ * Allocates the buffers {@link ladderCurrent} works in, once per ladder.
+ *
+ * Parameters
+ * ----------
+ * ladder : Ladder
+ *     From {@link buildLadder}.
+ *
+ * Returns
+ * -------
+ * LadderWorkspace
+ *     Zeroed arrays: the n×n rate matrix, the n state probabilities and the four Fermi factors
+ *     per addition energy.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. One workspace serves any number of biases of one ladder; it is not shared between threads.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const work = ladderWorkspace(buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1));
+ * work.rates.length;        // => 9 (3 × 3 states)
+ * work.probability.length;  // => 3
+ * ```
+ */
 export function ladderWorkspace(ladder: Ladder): LadderWorkspace {
   const k = ladder.keyEnergyEV.length;
   return {
@@ -214,13 +287,56 @@ function saturatedFermi(x: number, hard: boolean): number {
 /**
  * Steady-state occupation probabilities and current of one band at one bias.
  *
- * @param ladder - from {@link buildLadder}.
- * @param params - junction parameters.
- * @param biasV - sample bias in V (electron-like sign convention of this ladder).
- * @param work - buffers from {@link ladderWorkspace}; `work.probability` holds the state
- *   probabilities afterwards.
- * @param zeroTemperature - use step Fermi functions (the T → 0 limit) instead of thermal ones.
- * @returns the current in A (e × net electron flow from the tip into the dot).
+ * Parameters
+ * ----------
+ * ladder : Ladder
+ *     From {@link buildLadder}.
+ * params : JunctionParams
+ *     Charging energy (eV), η, tip, substrate and relaxation rates (1/s), temperature (K).
+ * biasV : number
+ *     Sample bias in V (electron-like sign convention of this ladder).
+ * work : LadderWorkspace
+ *     Buffers from {@link ladderWorkspace}; `work.probability` holds the state probabilities
+ *     afterwards.
+ * zeroTemperature : boolean, optional
+ *     Use step Fermi functions (the T → 0 limit) instead of thermal ones. Default false.
+ *
+ * Returns
+ * -------
+ * number
+ *     The current in A (e × net electron flow from the tip into the dot).
+ *
+ * Throws
+ * ------
+ * Nothing: the parameters come validated.
+ *
+ * Notes
+ * -----
+ * 1. For each addition energy E = ε_j + Ec·(N + ½): a = (E − η·e·V)/kT (tip side) and
+ *    b = a + e·V/kT (substrate side); the Fermi factors f(a), f(−a), f(b), f(−b), taken as exactly
+ *    0 or 1 beyond {@link SATURATION_KT} (or steps when zeroTemperature).
+ * 2. Rate matrix: each tunnelling transition gets slots × (Γ_tip·f_tip + Γ_sub·f_sub) (rates of
+ *    the module notes); each relaxation transition Γ_relax × carriers in the upper level.
+ * 3. Stationary probabilities by state reduction ({@link stationaryDistribution}).
+ * 4. Current = e·Σ_transitions P(from)·slots·Γ_tip·(f_tip in − f_tip out): the net flow through
+ *    the tip junction.
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, "Single electronics: a correlated transfer of single electrons
+ * and Cooper pairs in systems of small tunnel junctions", in Mesoscopic Phenomena in Solids,
+ * B. L. Altshuler, P. A. Lee and R. A. Webb (eds.) (Elsevier, 1991), p. 173;
+ * C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
+ * const work = ladderWorkspace(ladder);
+ * const params = { chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * ladderCurrent(ladder, params, 1, work);  // => 2.913e-11 (A; closed form e·Γsub·2r/(1 + r), r = 10)
+ * work.probability;                        // => [0.00826, 0.165, 0.826] (1, 2r, r² over (1 + r)²)
+ * ```
  */
 export function ladderCurrent(
   ladder: Ladder,
@@ -264,9 +380,40 @@ export function ladderCurrent(
 }
 
 /**
- * The biases (V) at which some rate of the ladder switches on or off: tip crossings
- * E_k/η and substrate crossings −E_k/(1 − η), sorted ascending, duplicates merged. Each carries
- * the bias width of its thermal step, kB·T/(e·η) or kB·T/(e·(1 − η)).
+ * The biases at which some rate of the ladder switches on or off.
+ *
+ * Parameters
+ * ----------
+ * ladder : Ladder
+ *     From {@link buildLadder}.
+ * params : JunctionParams
+ *     η and the temperature (K) are used.
+ *
+ * Returns
+ * -------
+ * { biasV: number; thermalWidthV: number }[]
+ *     Crossings in V, ascending, duplicates merged, each with the bias width of its thermal step
+ *     in V.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. For each distinct addition energy E (eV): the tip crossing at V = E/η, thermal width
+ *    kB·T/(e·η), and, when η < 1, the substrate crossing at V = −E/(1 − η), thermal width
+ *    kB·T/(e·(1 − η)).
+ * 2. Sort by bias.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
+ * ladderCrossings(ladder, { chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 })
+ *   .map((c) => c.biasV);
+ * // => [-3.25, -2.75, 0.6875, 0.8125] (V: −0.65/0.2, −0.55/0.2, 0.55/0.8, 0.65/0.8)
+ * ```
  */
 export function ladderCrossings(ladder: Ladder, params: JunctionParams): { biasV: number; thermalWidthV: number }[] {
   const kT = BOLTZMANN_EV_PER_K * params.temperatureK;

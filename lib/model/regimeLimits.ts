@@ -19,6 +19,10 @@
  * number
  *     r/(1 + r), in (0, 1).
  *
+ * Throws
+ * ------
+ * Nothing: callers pass constants or fitted ratios.
+ *
  * Notes
  * -----
  * Derivation (closed form, master equation of a spin-degenerate level with strong charging):
@@ -49,7 +53,39 @@ export function secondToFirstStepRatio(rateRatio: number): number {
   return rateRatio / (1 + rateRatio);
 }
 
-/** The inverse of {@link secondToFirstStepRatio}: r = q/(1 − q) for a step ratio q in [0, 1). */
+/**
+ * The rate ratio Γtip/Γsub whose second CB charging step is a given fraction of the first: the
+ * inverse of {@link secondToFirstStepRatio}.
+ *
+ * Parameters
+ * ----------
+ * stepRatio : number
+ *     q = (I₂ − I₁)/I₁, the second CB step over the first, in [0, 1).
+ *
+ * Returns
+ * -------
+ * number
+ *     r = q/(1 − q) ≥ 0 (Infinity at q = 1).
+ *
+ * Throws
+ * ------
+ * Nothing: callers pass constants.
+ *
+ * Notes
+ * -----
+ * 1. Solve q = r/(1 + r) (note 3 of {@link secondToFirstStepRatio}) for r: r = q/(1 − q).
+ *
+ * References
+ * ----------
+ * E. Bonet, M. M. Deshmukh and D. C. Ralph, Phys. Rev. B 65, 045317 (2002).
+ *
+ * Example
+ * -------
+ * ```ts
+ * rateRatioFromStepRatio(0.6); // => 1.5
+ * rateRatioFromStepRatio(0.3); // => 0.4286 (3/7)
+ * ```
+ */
 export function rateRatioFromStepRatio(stepRatio: number): number {
   return stepRatio / (1 - stepRatio);
 }

@@ -29,7 +29,7 @@ export interface BiasSweep {
 export interface NoiseSpec {
   /** Standard deviation as a fraction of the full-scale (largest |value|) signal, e.g. 0.003. */
   relative: number;
-  /** Seed of the pseudo-random generator: the same seed gives the same noise. Default 1. */
+  /** Seed of the pseudo-random generator (integer 0 … 2³² − 1): the same seed gives the same noise. Default: SCENARIO_DEFAULTS.noiseSeed (1). */
   seed?: number;
 }
 
@@ -49,19 +49,22 @@ export interface Scenario {
   substrateRatePerS: number;
   /** Temperature of both electrodes in K. */
   temperatureK: number;
-  /** Standard deviation of a Gaussian spread of the level energies, eV (0 = none). Default 0. */
+  /** Standard deviation of a Gaussian spread of the level energies, eV (0 = none). Default: SCENARIO_DEFAULTS.broadeningEV (0). */
   broadeningEV: number;
-  /** Rate at which a carrier in a higher level drops to the lowest free level, 1/s. Default 1000 × the faster tunnelling rate. */
+  /**
+   * Rate at which a carrier in a higher level drops to the lowest free level, 1/s.
+   * Default: SCENARIO_DEFAULTS.relaxationRateFactor (1000) × the faster tunnelling rate.
+   */
   relaxationRatePerS: number;
-  /** Lock-in modulation amplitude in V rms for the simulated dI/dV (0 = exact derivative). Default 0. */
+  /** Lock-in modulation amplitude in V rms for the simulated dI/dV (0 = exact derivative). Default: SCENARIO_DEFAULTS.lockInVrms (0). */
   lockInVrms: number;
   /** Bias axis of the output. */
   bias: BiasSweep;
-  /** Noise; null for none. */
+  /** Noise; null for none. Default: none. */
   noise: NoiseSpec | null;
 }
 
-/** Defaults of the optional scenario keys. */
+/** Defaults of the optional scenario keys and the size limits (locked by test/model/simulate.test.ts). */
 export const SCENARIO_DEFAULTS = Object.freeze({
   broadeningEV: 0,
   /** Relaxation rate as a multiple of the faster of the two tunnelling rates. */
@@ -128,16 +131,47 @@ function stateCount(levels: Level[]): number {
 /**
  * Validates a scenario object (for example parsed from JSON) and fills its defaults.
  *
- * @param input - the scenario as plain data.
- * @returns a complete {@link Scenario}.
- * @throws DotspecError naming the key for an unknown or missing key, a non-finite or negative
- *   rate or temperature, η outside (0, 1], levels out of order, an empty bias range, or a state
- *   space too large to solve.
+ * Parameters
+ * ----------
+ * input : unknown
+ *     The scenario as plain data: cb and vb levels ({energyEV (eV), degeneracy 1–18}, optional
+ *     label), chargingEnergyEV (eV, ≥ 0), eta (0 < η ≤ 1), tipRatePerS and substrateRatePerS
+ *     (1/s, > 0), temperatureK (K, > 0), bias {fromV, toV, stepV} (V); optional broadeningEV (eV,
+ *     default 0), relaxationRatePerS (1/s, default 1000 × the faster tunnelling rate),
+ *     lockInVrms (V rms, default 0), noise {relative, seed (default 1)} (default none),
+ *     description (ignored). Defaults in {@link SCENARIO_DEFAULTS}.
  *
- * @example
+ * Returns
+ * -------
+ * Scenario
+ *     A complete scenario: new objects, every default filled.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     Naming the key: `scenario/not-object`, `scenario/missing-key`, `scenario/bad-levels`,
+ *     `scenario/no-levels`, `scenario/levels-out-of-order` (CB ascending, VB descending, CB above
+ *     VB), `scenario/too-many-states` (∏(g + 1) per band above SCENARIO_DEFAULTS.maxStates),
+ *     `scenario/bad-bias` (toV ≤ fromV, or fewer than 5 or more than SCENARIO_DEFAULTS.maxPoints
+ *     points), `scenario/bad-noise`; `options/…` for an unknown key, a non-finite, negative or
+ *     out-of-range number (η outside (0, 1], relative noise outside [0, 1]).
+ *
+ * Notes
+ * -----
+ * 1. Check the keys (unknown and required ones), then the levels of each band (order, degeneracy)
+ *    and the size of each band's state space.
+ * 2. Rates, temperature, bias sweep and noise, each against its rule.
+ * 3. Fill the defaults: relaxation rate = relaxationRateFactor × max(Γtip, Γsub), broadening 0,
+ *    lock-in 0, noise seed 1.
+ *
+ * Example
+ * -------
+ * ```ts
  * parseScenario({ cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.1, eta: 0.8,
  *   tipRatePerS: 1e9, substrateRatePerS: 1e8, temperatureK: 4.5,
- *   bias: { fromV: -1, toV: 1.5, stepV: 0.005 } }).relaxationRatePerS; // => 1e12
+ *   bias: { fromV: -1, toV: 1.5, stepV: 0.005 } }).relaxationRatePerS;
+ * // => 1e12 (1/s: 1000 × the tip rate)
+ * ```
  */
 export function parseScenario(input: unknown): Scenario {
   if (!isObject(input)) throw new DotspecError("scenario/not-object", "a scenario must be a JSON object");
@@ -216,7 +250,34 @@ export function parseScenario(input: unknown): Scenario {
   };
 }
 
-/** The bias points of a sweep: fromV, fromV + stepV, … up to toV (inclusive within rounding). */
+/**
+ * The bias points of a sweep.
+ *
+ * Parameters
+ * ----------
+ * sweep : BiasSweep
+ *     fromV, toV (V, toV > fromV) and stepV (V, > 0).
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     fromV, fromV + stepV, … up to toV (inclusive within a rounding of 1e-9 steps), in V.
+ *
+ * Throws
+ * ------
+ * Nothing: the sweep comes validated ({@link parseScenario}).
+ *
+ * Notes
+ * -----
+ * 1. n = ⌊(toV − fromV)/stepV + 1e-9⌋ + 1 points; point i is fromV + i·stepV (no accumulated
+ *    rounding).
+ *
+ * Example
+ * -------
+ * ```ts
+ * biasAxis({ fromV: 0, toV: 0.01, stepV: 0.0025 }); // => [0, 0.0025, 0.005, 0.0075, 0.01] (V)
+ * ```
+ */
 export function biasAxis(sweep: BiasSweep): Float64Array {
   const n = Math.floor((sweep.toV - sweep.fromV) / sweep.stepV + 1e-9) + 1;
   const out = new Float64Array(n);

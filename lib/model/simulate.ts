@@ -9,13 +9,13 @@ import { seededRandom } from "../util/random.ts";
 /** Options of {@link simulateCurve}. */
 export interface SimulateOptions {
   /**
-   * "exact" (default): thermal master equation on a grid of step ≤ kB·T/(3·e·η), convolved with
-   * the broadening and lock-in kernels — the reference. "fast": zero-temperature plateaus joined
-   * by Gaussian-broadened steps ({@link fastCurrent}); accurate when the broadening is much wider
-   * than kB·T, and about 100 times quicker.
+   * "exact": thermal master equation on a grid of step ≤ kB·T/(3·e·η), convolved with the
+   * broadening and lock-in kernels — the reference. "fast": zero-temperature plateaus joined by
+   * Gaussian-broadened steps ({@link fastCurrent}); accurate when the broadening is much wider
+   * than kB·T, and about 100 times quicker. Default: SIMULATE_DEFAULTS.method ("exact").
    */
   method?: "exact" | "fast";
-  /** Also compute dI/dV. Default true. */
+  /** Also compute dI/dV. Default: SIMULATE_DEFAULTS.conductance (true). */
   conductance?: boolean;
 }
 
@@ -31,7 +31,9 @@ export interface SimulatedCurve {
   cleanCurrentA: Float64Array;
   /** The noise-free dI/dV in S, or null. */
   cleanDidvS: Float64Array | null;
+  /** How it was made. */
   record: {
+    /** The method used. */
     method: "exact" | "fast";
     /** Step of the internal fine grid in V (exact method). */
     fineStepV: number | null;
@@ -43,11 +45,12 @@ export interface SimulatedCurve {
     noiseCurrentA: number;
     /** Standard deviation of the added dI/dV noise in S (0 if none). */
     noiseConductanceS: number;
+    /** The scenario, validated and with its defaults filled. */
     scenario: Scenario;
   };
 }
 
-/** Tuning constants of the simulation, locked by a test. */
+/** Defaults and tuning constants of {@link simulateCurve} (locked by test/model/simulate.test.ts). */
 export const SIMULATE_DEFAULTS = Object.freeze({
   method: "exact" as const,
   /** Compute dI/dV as well as I. */
@@ -58,7 +61,37 @@ export const SIMULATE_DEFAULTS = Object.freeze({
   kernelReachSigma: 8,
 });
 
-/** The dot model of a scenario. */
+/**
+ * The dot model of a scenario: its levels and junction, without the sweep, broadening, lock-in
+ * and noise.
+ *
+ * Parameters
+ * ----------
+ * s : Scenario
+ *     A complete scenario ({@link parseScenario}).
+ *
+ * Returns
+ * -------
+ * DotModel
+ *     cb, vb, chargingEnergyEV (eV), eta, tipRatePerS, substrateRatePerS, relaxationRatePerS
+ *     (1/s), temperatureK (K), shared with the scenario (not copied).
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. A field-by-field selection; nothing is computed.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const s = parseScenario({ cb: [{ energyEV: 0.5, degeneracy: 2 }], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, temperatureK: 4.5, bias: { fromV: -1, toV: 1.5, stepV: 0.005 } });
+ * scenarioModel(s).relaxationRatePerS; // => 1e12 (1/s)
+ * ```
+ */
 export function scenarioModel(s: Scenario): DotModel {
   return {
     cb: s.cb,
@@ -73,9 +106,42 @@ export function scenarioModel(s: Scenario): DotModel {
 }
 
 /**
- * Semicircle kernel of first-harmonic lock-in detection, w(v) = (2/(π·Vp²))·√(Vp² − v²) for
- * |v| ≤ Vp: the measured dI/dV is the true dI/dV convolved with it. Its FWHM is √3·Vp.
- * Sampled on a grid of step h and normalised to unit sum.
+ * Semicircle kernel of first-harmonic lock-in detection, sampled: the measured dI/dV is the true
+ * dI/dV convolved with it.
+ *
+ * Parameters
+ * ----------
+ * peakV : number
+ *     Modulation amplitude (peak, √2 × rms) in V.
+ * stepV : number
+ *     Grid step in V.
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     2·⌊peakV/stepV⌋ + 1 weights, centred, summing to 1; [1] when the amplitude is below one step.
+ *
+ * Throws
+ * ------
+ * Nothing: the caller passes a validated amplitude and step.
+ *
+ * Notes
+ * -----
+ * 1. w(v) = (2/(π·Vp²))·√(Vp² − v²) for |v| ≤ Vp, sampled at v = i·h, |i| ≤ ⌊Vp/h⌋. Its FWHM is
+ *    √3·Vp.
+ * 2. Normalised to unit sum on the grid.
+ *
+ * References
+ * ----------
+ * J. Klein, A. Léger, M. Belin, D. Défourneau and M. J. L. Sangster, "Inelastic-electron-tunneling
+ * spectroscopy of metal-insulator-metal junctions", Phys. Rev. B 7, 2336 (1973) (the lock-in
+ * broadening function).
+ *
+ * Example
+ * -------
+ * ```ts
+ * lockInKernel(0.002, 0.001); // => [0, 0.317, 0.366, 0.317, 0] (√(1 − (i/2)²), normalised)
+ * ```
  */
 export function lockInKernel(peakV: number, stepV: number): Float64Array {
   const half = Math.floor(peakV / stepV);
@@ -133,22 +199,57 @@ function convolveAt(y: Float64Array, kernel: Float64Array, i: number): number {
 }
 
 /**
- * Simulates one curve of a scenario.
+ * Simulates one curve of a scenario: the current and its dI/dV, with noise if the scenario asks
+ * for it, and the noise-free signals.
  *
- * Notes (exact method):
- * 1. A fine grid of step h ≤ kB·T/(3·e·η), aligned with the output points and extended by the
- *    kernel reach beyond the bias range.
+ * Parameters
+ * ----------
+ * input : Scenario | unknown
+ *     A scenario (validated with {@link parseScenario} if not already).
+ * options : SimulateOptions, optional
+ *     method ("exact" or "fast", default "exact"); conductance (also compute dI/dV, default
+ *     true). Defaults in {@link SIMULATE_DEFAULTS}.
+ *
+ * Returns
+ * -------
+ * SimulatedCurve
+ *     Bias (V), current (A), dI/dV (S, or null), the noise-free current and dI/dV, and a record
+ *     (method, fine grid step, broadening and lock-in amplitude in V, noise σ, the scenario).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `scenario/…` or `options/…` for an invalid scenario (see {@link parseScenario}).
+ *
+ * Notes
+ * -----
+ * Exact method:
+ * 1. A fine grid of step h ≤ kB·T/(3·e·η) (and ≤ σ/4 of the broadening), aligned with the output
+ *    points and extended by the kernel reach beyond the bias range.
  * 2. The exact current (both bands, {@link exactCurrent}) at every fine point.
- * 3. Level broadening: I ⊗ Gaussian of σ = broadeningEV/η (in bias).
+ * 3. Level broadening: I ⊗ Gaussian of σ = broadeningEV/η (in bias), cut at
+ *    SIMULATE_DEFAULTS.kernelReachSigma (8) σ.
  * 4. dI/dV: central difference on the fine grid, then ⊗ the lock-in semicircle kernel when
- *    lockInVrms > 0 (peak amplitude √2·Vrms).
- * 5. Sample at the output points; add seeded Gaussian noise of σ = relative × full scale.
+ *    lockInVrms > 0 (peak amplitude √2·Vrms) — applied as one kernel to the raw current.
+ * 5. Sample at the output points; add seeded Gaussian noise of σ = relative × full scale (the
+ *    largest |value| of each signal).
+ * Fast method: {@link fastCurrent} and {@link fastConductance} at the output points (the
+ * conductance on a sub-grid convolved with the lock-in kernel when lockInVrms > 0), then step 5.
  *
- * @param input - a scenario (validated with {@link parseScenario} if not already).
- * @throws DotspecError for an invalid scenario.
+ * References
+ * ----------
+ * C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991) (the master equation);
+ * J. Klein et al., Phys. Rev. B 7, 2336 (1973) (the lock-in kernel).
  *
- * @example
- * const { biasV, currentA } = simulateCurve(scenario); // exact reference curve
+ * Example
+ * -------
+ * ```ts
+ * const curve = simulateCurve({ cb: [{ energyEV: 0.5, degeneracy: 2 }], chargingEnergyEV: 0.1, eta: 0.8,
+ *   tipRatePerS: 1e9, substrateRatePerS: 1e8, temperatureK: 4.5, bias: { fromV: 0, toV: 1.5, stepV: 0.005 } });
+ * curve.biasV.length;  // => 301
+ * curve.currentA[140]; // => 1.526e-11 (A at 0.7 V: e·Γsub·2r/(1 + 2r), r = 10)
+ * curve.currentA[280]; // => 2.913e-11 (A at 1.4 V: e·Γsub·2r/(1 + r))
+ * ```
  */
 export function simulateCurve(input: Scenario | unknown, options: SimulateOptions = {}): SimulatedCurve {
   const scenario = parseScenario(input);

@@ -2,8 +2,36 @@
  * Stationary distribution of a continuous-time Markov chain by state reduction (the
  * Grassmann–Taksar–Heyman algorithm): subtraction-free, so it stays accurate when rates span
  * many orders of magnitude (fast relaxation next to thermally suppressed tunnelling).
+ */
+
+/**
+ * The stationary probabilities π of a continuous-time Markov chain whose transitions change the
+ * state's block (carrier number) by at most one, in place.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * rates : Float64Array
+ *     n×n row-major transition rates q_ij (i → j, i ≠ j) in 1/s; the diagonal is ignored.
+ *     Overwritten.
+ * n : number
+ *     Number of states.
+ * lowerBlockStart : Int32Array
+ *     For each state, the lowest state index it (or its fill-in) can reach: the first state of
+ *     the block with one carrier fewer ({@link Ladder}.lowerBlockStart).
+ * out : Float64Array
+ *     Receives the probabilities (length n, summing to 1).
+ *
+ * Returns
+ * -------
+ * void
+ *     The result is written to `out`.
+ *
+ * Throws
+ * ------
+ * Nothing. A state with no way down is treated as absorbing (it collects the probability).
+ *
+ * Notes
+ * -----
  * 1. For k = n−1 down to 1: s_k = Σ_{j<k} q_kj; q_ik ← q_ik/s_k for i < k;
  *    q_ij ← q_ij + q_ik·q_kj for i, j < k (state k is censored out of the chain).
  * 2. π_0 = 1; π_k = Σ_{i<k} π_i·q_ik for k = 1 … n−1; normalise.
@@ -12,13 +40,19 @@
  * `lowerBlockStart[k]` (the first state of block N(k) − 1) bounds every loop, which makes the
  * cost about n·b² for blocks of size b instead of n³/3.
  *
- * Reference: W. K. Grassmann, M. I. Taksar and D. P. Heyman, "Regenerative analysis and
- * steady state distributions for Markov chains", Operations Research 33, 1107 (1985).
+ * References
+ * ----------
+ * W. K. Grassmann, M. I. Taksar and D. P. Heyman, "Regenerative analysis and steady state
+ * distributions for Markov chains", Operations Research 33, 1107 (1985).
  *
- * @param rates - n×n row-major transition rates q_ij (i → j, i ≠ j), overwritten.
- * @param n - number of states.
- * @param lowerBlockStart - for each state, the lowest state index it (or its fill-in) can reach.
- * @param out - receives the probabilities (length n).
+ * Example
+ * -------
+ * ```ts
+ * // Two states: 0 → 1 at 1/s, 1 → 0 at 3/s.
+ * const out = new Float64Array(2);
+ * stationaryDistribution(Float64Array.of(0, 1, 3, 0), 2, Int32Array.of(0, 0), out);
+ * out; // => [0.75, 0.25] (detailed balance: π₀·1 = π₁·3)
+ * ```
  */
 export function stationaryDistribution(rates: Float64Array, n: number, lowerBlockStart: Int32Array, out: Float64Array): void {
   for (let k = n - 1; k >= 1; k--) {

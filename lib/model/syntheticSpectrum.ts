@@ -11,36 +11,45 @@ export type SyntheticRegime = "shell-filling" | "shell-tunneling" | "intermediat
 
 /** Ranges the spectra are drawn from (uniform unless said otherwise). */
 export interface SyntheticRanges {
-  /** Charging energy, eV. */
+  /** Charging energy, eV. Default: SYNTHETIC_DEFAULTS.chargingEnergyEV ([0.06, 0.2]). */
   chargingEnergyEV: [number, number];
-  /** Voltage-division factor. */
+  /** Voltage-division factor η. Default: SYNTHETIC_DEFAULTS.eta ([0.65, 0.95]). */
   eta: [number, number];
-  /** dI/dV peak FWHM in bias, V (capped so neighbouring peaks stay resolvable, see `resolvability`). */
+  /**
+   * dI/dV peak FWHM in bias, V (capped so neighbouring peaks stay resolvable, see `resolvability`).
+   * Default: SYNTHETIC_DEFAULTS.peakFwhmV ([0.02, 0.1]).
+   */
   peakFwhmV: [number, number];
-  /** Noise, fraction of full-scale current. */
+  /** Noise, fraction of full-scale current. Default: SYNTHETIC_DEFAULTS.noiseRelative ([0.002, 0.01]). */
   noiseRelative: [number, number];
-  /** s–p level spacing, eV. */
+  /** s–p level spacing, eV. Default: SYNTHETIC_DEFAULTS.levelSpacingSPEV ([0.15, 0.45]). */
   levelSpacingSPEV: [number, number];
-  /** Splitting between p sub-levels when split, eV. */
+  /** Splitting between p sub-levels when split, eV. Default: SYNTHETIC_DEFAULTS.pSplittingEV ([0.04, 0.1]). */
   pSplittingEV: [number, number];
-  /** Probability that p is split (half 2+4, half 2+2+2). */
+  /** Probability that p is split (half 2+4, half 2+2+2). Default: SYNTHETIC_DEFAULTS.pSplitProbability (0.5). */
   pSplitProbability: number;
-  /** Single-particle gap ε_s − ε_v1, eV. */
+  /** Single-particle gap ε_s − ε_v1, eV. Default: SYNTHETIC_DEFAULTS.singleParticleGapEV ([1.6, 2.4]). */
   singleParticleGapEV: [number, number];
-  /** Γtip/Γsub per regime (log-uniform). */
+  /**
+   * Γtip/Γsub per regime (log-uniform). Default: SYNTHETIC_DEFAULTS.rateRatio (filling [5, 50],
+   * tunnelling [0.002, 0.03], intermediate between the {@link REGIME_LIMITS} boundaries, 3/7–1.5).
+   */
   rateRatio: Record<SyntheticRegime, [number, number]>;
   /**
    * The FWHM is at most this fraction of the smallest peak spacing in bias. Draws whose
    * second-junction resonances (levels crossing the substrate's Fermi level, at |V| ≈ E/(1 − η))
    * would fall inside the bias window are rejected and redrawn.
+   * Default: SYNTHETIC_DEFAULTS.resolvability (0.7).
    */
   resolvability: number;
-  /** Points per curve. */
+  /** Points per curve. Default: SYNTHETIC_DEFAULTS.points (2000). */
   points: number;
+  /** Temperature, K. Default: SYNTHETIC_DEFAULTS.temperatureK (4.5). */
   temperatureK: number;
 }
 
-export const SYNTHETIC_DEFAULTS: SyntheticRanges = {
+/** The ranges of the accuracy benchmark (frozen; pass a copy with changes to draw elsewhere). */
+export const SYNTHETIC_DEFAULTS: Readonly<SyntheticRanges> = Object.freeze({
   chargingEnergyEV: [0.06, 0.2],
   eta: [0.65, 0.95],
   peakFwhmV: [0.02, 0.1],
@@ -54,7 +63,7 @@ export const SYNTHETIC_DEFAULTS: SyntheticRanges = {
   resolvability: 0.7,
   points: 2000,
   temperatureK: 4.5,
-};
+} satisfies SyntheticRanges);
 
 /** What the analysis should find. Bias-referred values in V. */
 export interface SyntheticTruth {
@@ -74,11 +83,50 @@ export interface SyntheticTruth {
 }
 
 /**
- * Draws one scenario and its truth from a seed.
+ * Draws one scenario with known truth from a seed: a dot with an s level, a p level (whole or
+ * split) and two valence levels, in a chosen regime.
  *
- * @example
+ * Parameters
+ * ----------
+ * seed : number
+ *     Integer seed: the same seed, regime and ranges give the same scenario.
+ * regime : SyntheticRegime
+ *     "shell-filling", "shell-tunneling" or "intermediate": sets the range of Γtip/Γsub.
+ * ranges : SyntheticRanges, optional
+ *     The ranges drawn from. Default: {@link SYNTHETIC_DEFAULTS}.
+ *
+ * Returns
+ * -------
+ * { scenario: Scenario; truth: SyntheticTruth }
+ *     A complete scenario (with noise) and what the analysis should find: regime, rate ratio,
+ *     η, Ec (eV), Δsp (eV), the gap and the expected s and p peak positions (V), the p
+ *     sub-groups, the peak FWHM (V) and the noise.
+ *
+ * Throws
+ * ------
+ * Nothing: the ranges are trusted (a range that never gives a valid draw would loop).
+ *
+ * Notes
+ * -----
+ * 1. Draw Ec, η, Δsp, the single-particle gap, the noise (uniform) and Γtip/Γsub (log-uniform);
+ *    p whole (6) or split (2+4 or 2+2+2, probability pSplitProbability) with a sub-level spacing;
+ *    ε_s at 40–60 % of the single-particle gap above the Fermi level; a second VB level 0.12–0.3 eV below the first.
+ * 2. Expected peaks: in shell filling one per charging step, V = (ε + Ec·(N + ½))/η; in shell
+ *    tunnelling one per level, V = (ε + Ec/2)/η.
+ * 3. The FWHM is drawn, then capped at `resolvability` × the smallest spacing of expected peaks;
+ *    the broadening in energy is FWHM/2√(2 ln 2)·η (the thermal width is neglected).
+ * 4. The bias window covers every expected peak by 4 FWHM + 50 mV; a draw whose substrate-junction
+ *    resonances (at −(ε_s + Ec/2)/(1 − η) and (|ε_v1| + Ec/2)/(1 − η)) fall within 3 FWHM of the
+ *    window is rejected and drawn again from the same generator.
+ *
+ * Example
+ * -------
+ * ```ts
  * const { scenario, truth } = syntheticSpectrum(1, "shell-filling");
- * truth.sPeaksV.length; // => 2
+ * truth.sPeaksV;        // => [0.921, 0.994] (V: the s doublet)
+ * truth.pSubgroups;     // => [2, 4]
+ * scenario.cb.length;   // => 3 (s and p split in two)
+ * ```
  */
 export function syntheticSpectrum(seed: number, regime: SyntheticRegime, ranges: SyntheticRanges = SYNTHETIC_DEFAULTS): { scenario: Scenario; truth: SyntheticTruth } {
   const rng = seededRandom(seed * 7919 + 17);

@@ -7,42 +7,90 @@ import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 
 /** Options of {@link edgeStepWidth}. */
 export interface EdgeStepWidthOptions {
-  /** Position of the step (the peak of dI/dV), V. */
+  /** Position of the step (the peak of dI/dV), V. Required. */
   positionV: number;
-  /** Bias range of the fit [from, to], V; should cover the gap side and stop before the next step. */
+  /** Bias range of the fit [from, to], V; should cover the gap side and stop before the next step. Required. */
   rangeV: [number, number];
-  /** Smallest and largest FWHM tried, V. Default [0.005, 0.4]. */
+  /** Smallest and largest FWHM tried, V. Default: EDGE_STEP_WIDTH_DEFAULTS.boundsV ([0.005, 0.4]). */
   boundsV?: [number, number];
   /**
-   * −1 for a valence-band step: the fit then works on −V and −I (positionV and rangeV given in
-   * that mirrored frame, so the step rises with the coordinate). Default 1.
+   * +1 for a conduction-band step; −1 for a valence-band step: the fit then works on −V and −I
+   * (positionV and rangeV given in that mirrored frame, so the step rises with the coordinate).
+   * Default: EDGE_STEP_WIDTH_DEFAULTS.sign (1).
    */
   sign?: 1 | -1;
 }
 
+/** Defaults and constants of {@link edgeStepWidth} (locked by test/peaks/peakAreas.test.ts). */
+export const EDGE_STEP_WIDTH_DEFAULTS = Object.freeze({
+  boundsV: Object.freeze([0.005, 0.4]) as readonly [number, number],
+  sign: 1 as 1 | -1,
+  /** Fewer points than this in the range give null. */
+  minPoints: 5,
+  /** Log-spaced trial widths between the bounds (note 1). */
+  trialCount: 16,
+  /** Golden-section steps after the trials (note 1). */
+  goldenSectionSteps: 20,
+});
+
 /**
  * FWHM of a Gaussian-broadened current step at a known position, by least squares.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * biasV : ArrayLike<number>
+ *     Bias in volts, ascending.
+ * currentA : ArrayLike<number>
+ *     Current in amperes at each bias (unsmoothed).
+ * options : EdgeStepWidthOptions
+ *     positionV (V) and rangeV ([from, to], V), required; boundsV ([min, max] FWHM, V, default
+ *     [0.005, 0.4]); sign (+1 CB, −1 VB, default +1).
+ *
+ * Returns
+ * -------
+ * number | null
+ *     The FWHM of the step in volts, or null when the range holds fewer than 5 points or the
+ *     fitted step is not positive.
+ *
+ * Throws
+ * ------
+ * Nothing: the caller (the pipeline) passes checked arrays; an unusable range gives null.
+ *
+ * Notes
+ * -----
  * 1. Model I(V) = a + c·Φ((V − V₀)/s) on the given range; for each trial s the best a and c
  *    follow linearly, so only s is searched: 16 log-spaced trials between the bounds, then a
  *    golden-section refinement around the best.
  * 2. Returns FWHM = 2√(2 ln 2)·s, or null when the range holds fewer than 5 points or the
  *    fitted step is not positive.
- * Measured on the unsmoothed current, the width carries no smoothing bias.
+ * Measured on the unsmoothed current, the width carries no smoothing bias. The constants are in
+ * {@link EDGE_STEP_WIDTH_DEFAULTS}.
  *
- * @param biasV - ascending bias, V.
- * @param currentA - current, A.
+ * References
+ * ----------
+ * J. Kiefer, "Sequential minimax search for a maximum", Proc. Amer. Math. Soc. 4, 502 (1953)
+ * (golden-section search).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const biasV = Float64Array.from({ length: 1001 }, (_, i) => -1 + i * 0.002);
+ * // A 0.1 nA step at 0.3 V broadened by a Gaussian of σ = 20 mV (FWHM 47.1 mV).
+ * const currentA = fastCurrent({ baseA: 0, steps: [{ biasV: 0.3, heightA: 1e-10, thermalWidthV: 0 }] }, biasV, 0.02);
+ * edgeStepWidth(biasV, currentA, { positionV: 0.3, rangeV: [0, 0.32] });
+ * // => 0.0471 (V)
+ * ```
  */
 export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<number>, options: EdgeStepWidthOptions): number | null {
   const [from, to] = options.rangeV;
-  const sign = options.sign ?? 1;
+  const D = EDGE_STEP_WIDTH_DEFAULTS;
+  const sign = options.sign ?? D.sign;
   const xs: number[] = [], ys: number[] = [];
   for (let i = 0; i < biasV.length; i++) {
     const x = sign * biasV[i];
     if (x >= from && x <= to) xs.push(x), ys.push(sign * currentA[i]);
   }
-  if (xs.length < 5) return null;
+  if (xs.length < D.minPoints) return null;
   const x0 = options.positionV;
   const residual = (s: number): { r: number; c: number } => {
     let n = 0, sf = 0, sff = 0, sy = 0, sfy = 0, syy = 0;
@@ -58,8 +106,8 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
     const r = syy - 2 * a * sy - 2 * c * sfy + n * a * a + 2 * a * c * sf + c * c * sff;
     return { r, c };
   };
-  const [lo, hi] = (options.boundsV ?? [0.005, 0.4]).map((w) => w / GAUSSIAN_FWHM_PER_SIGMA);
-  const trials = 16;
+  const [lo, hi] = (options.boundsV ?? D.boundsV).map((w) => w / GAUSSIAN_FWHM_PER_SIGMA);
+  const trials = D.trialCount;
   let best = 0, bestR = Infinity;
   const grid = Array.from({ length: trials }, (_, k) => lo * (hi / lo) ** (k / (trials - 1)));
   grid.forEach((s, k) => {
@@ -71,7 +119,7 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
   const g = (Math.sqrt(5) - 1) / 2;
   let c1 = b - g * (b - a), c2 = a + g * (b - a);
   let r1 = residual(Math.exp(c1)).r, r2 = residual(Math.exp(c2)).r;
-  for (let it = 0; it < 20; it++) {
+  for (let it = 0; it < D.goldenSectionSteps; it++) {
     if (r1 < r2) {
       b = c2, c2 = c1, r2 = r1;
       c1 = b - g * (b - a);

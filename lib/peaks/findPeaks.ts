@@ -37,7 +37,7 @@ export interface Peak {
 
 /** Options of {@link findPeaks}. */
 export interface FindPeaksOptions {
-  /** Standard deviation of the noise of the (smoothed) conductance curve, S. Required. */
+  /** Standard deviation of the noise of the (smoothed) conductance curve, S (> 0). Required. */
   noiseS: number;
   /**
    * Minimum prominence in units of noiseS. Default: FIND_PEAKS_DEFAULTS.minProminenceSigma (3)
@@ -45,9 +45,9 @@ export interface FindPeaksOptions {
    */
   minProminenceSigma?: number;
   /**
-   * The (unsmoothed) current the conductance came from, in A, and its white noise per sample.
-   * Enables the step-significance test, which rejects noise peaks far better than prominence
-   * alone.
+   * The (unsmoothed) current the conductance came from, in A, on the same bias points, and its
+   * white noise per sample, A. Enables the step-significance test, which rejects noise peaks far
+   * better than prominence alone. Default: none (prominence alone).
    */
   current?: { currentA: Float64Array; noiseA: number };
   /**
@@ -56,29 +56,40 @@ export interface FindPeaksOptions {
    */
   expectedFwhmV?: number;
   /**
-   * Refine positions by fitting the step model to the current (with `current`). Default true;
-   * false keeps the parabola through the top of the conductance peak (use it when the
-   * conductance is a measured signal of its own, e.g. a lock-in).
+   * Refine positions by fitting the step model to the current (with `current`).
+   * Default: FIND_PEAKS_DEFAULTS.refineOnCurrent (true); false keeps the parabola through the top
+   * of the conductance peak (use it when the conductance is a measured signal of its own, e.g. a
+   * lock-in).
    */
   refineOnCurrent?: boolean;
-  /** Minimum step significance (with `current`). Default 5 (≈ 0 false peaks per 2,000 samples of white noise; 4 gives ≈ 0.02). */
+  /**
+   * Minimum step significance (with `current`), in standard errors of the step.
+   * Default: FIND_PEAKS_DEFAULTS.minStepSigma (5) (≈ 0 false peaks per 2,000 samples of white
+   * noise; 4 gives ≈ 0.02).
+   */
   minStepSigma?: number;
-  /** Peaks closer than this keep only the more prominent one, mV. Default 20. */
+  /** Peaks closer than this keep only the more prominent one, mV. Default: FIND_PEAKS_DEFAULTS.minSeparationMV (20). */
   minSeparationMV?: number;
   /**
    * White noise of the measured signal before smoothing, for the position uncertainty: a
    * current noise (when dI/dV was computed from I) or a conductance noise (a measured dI/dV),
-   * per sample. When absent the uncertainty comes from the parabola fit alone.
+   * per sample (A or S). Default: none; the uncertainty then comes from the parabola fit alone.
    */
   rawNoise?: { quantity: "current"; sigmaA: number } | { quantity: "conductance"; sigmaS: number };
-  /** Points on each side used for the parabola at most; default: as many as lie above 70 % of the prominence, at least 2. */
+  /**
+   * Samples on each side used for the parabola at most. Default: FIND_PEAKS_DEFAULTS.fitLevel
+   * (0.7): as many as lie above that fraction of the prominence, at least 2.
+   */
   maxFitHalfWidthSamples?: number;
 }
 
 /** The settings findPeaks used and what it saw. */
 export interface FindPeaksRecord {
+  /** Noise of the conductance curve used, S. */
   noiseS: number;
+  /** Prominence threshold used, in units of noiseS. */
   minProminenceSigma: number;
+  /** Minimum peak separation used, mV. */
   minSeparationMV: number;
   /** Local maxima examined. */
   candidates: number;
@@ -88,10 +99,13 @@ export interface FindPeaksRecord {
   belowStepSignificance: number;
   /** Rejected as too close to a more prominent peak. */
   tooClose: number;
+  /** Step-significance threshold used; null without the current (no step test). */
   minStepSigma: number | null;
+  /** What the user should know. */
   warnings: string[];
 }
 
+/** Defaults and constants of {@link findPeaks} (locked by test/peaks/findPeaks.test.ts). */
 export const FIND_PEAKS_DEFAULTS = Object.freeze({
   /** With the step test, prominence only screens candidates. */
   minProminenceSigma: 3,
@@ -124,7 +138,36 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
 /**
  * Finds and refines the peaks of a conductance curve.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * biasV : Float64Array
+ *     Bias in volts, uniformly spaced, ascending.
+ * didvS : Float64Array
+ *     Conductance in siemens at each bias (smoothed).
+ * options : FindPeaksOptions
+ *     noiseS (S, required); minProminenceSigma (default 3 with `current`, 8 without);
+ *     current ({currentA (A), noiseA (A)}, default none); expectedFwhmV (V, default each peak's
+ *     own width); refineOnCurrent (default true); minStepSigma (default 5); minSeparationMV (mV,
+ *     default 20); rawNoise (default none); maxFitHalfWidthSamples (samples, default from the
+ *     70 % level). Defaults in {@link FIND_PEAKS_DEFAULTS}.
+ *
+ * Returns
+ * -------
+ * { peaks: Peak[]; record: FindPeaksRecord }
+ *     The peaks sorted by bias (position ± 1σ in V, height and prominence in S, FWHM in V, current
+ *     step in A, SNR, step significance), and a record of the thresholds used and of how many
+ *     candidates each test rejected.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `peaks/length-mismatch` (biasV, didvS or current.currentA of different lengths),
+ *     `peaks/too-few-points` (fewer than 3 points); `options/not-positive` (noiseS,
+ *     expectedFwhmV), `options/negative` (minProminenceSigma, minStepSigma, minSeparationMV),
+ *     `options/not-finite` for a non-number.
+ *
+ * Notes
+ * -----
  * 1. Local maxima of `didvS` (the middle of a flat top).
  * 2. Prominence of each: from the peak, walk left and right until a higher point or the end;
  *    the prominence is the height above the higher of the two minima found on the way.
@@ -132,35 +175,52 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    significant current step: fit I(x) = a + b·(x − x₀) + Σ_j c_j·Φ((x − x_j)/s) by linear
  *    least squares to the unsmoothed current within ±3·FWHM of the peak, with a step at this
  *    and every neighbouring candidate (s = FWHM/2.3548), and keep the peak if c/SE(c) ≥
- *    minStepSigma, SE from the current's white noise. The line absorbs a smooth background
- *    conductance; the neighbours' steps are fitted rather than mistaken for background. Prominence of the derivative alone is a poor test:
- *    peak-to-valley swings of smoothed white noise exceed 5σ about 7 times per 2,000 samples.
- *    Then, strongest first, drop any peak within minSeparationMV of one already kept.
+ *    minStepSigma, SE from the current's white noise (after a cheap pre-screen: the mean current
+ *    over one half-width at the far ends of ±3 half-widths must rise by
+ *    FIND_PEAKS_DEFAULTS.preScreenSigma (2) σ). The line absorbs a smooth background
+ *    conductance; the neighbours' steps are fitted rather than mistaken for background.
+ *    Prominence of the derivative alone is a poor test: peak-to-valley swings of smoothed white
+ *    noise exceed 5σ about 7 times per 2,000 samples. Then, strongest first, drop any peak
+ *    within minSeparationMV of one already kept.
  * 4. Refine: least-squares parabola through the top points (above 70 % of the prominence,
- *    at least 2 either side): position = vertex, height = vertex value.
+ *    FIND_PEAKS_DEFAULTS.fitLevel, at least 2 either side): position = vertex, height = vertex
+ *    value. With the current (and refineOnCurrent), the position is then moved by one
+ *    Gauss–Newton step of the local step fit of note 3 with a shift term
+ *    (FIND_PEAKS_DEFAULTS.refineIterations), by at most half a width and never past halfway to
+ *    a neighbour.
  * 5. Width: full width at half prominence by linear interpolation; if a valley comes first on
  *    one side, the width is taken from the curvature at the top, FWHM = 2√(2 ln 2)·√(P/|G''|),
  *    exact for a Gaussian of prominence P.
  * 6. Position uncertainty (with the current: from the covariance of the local fit, widened by
- *    the residual RMS when that exceeds the noise, plus 2 % of the FWHM in quadrature).
+ *    the residual RMS when that exceeds the noise, plus 2 % of the FWHM in quadrature,
+ *    FIND_PEAKS_DEFAULTS.positionFloorPerFwhm).
  *    Without the current: for white current noise σ_I per sample of step h under a
  *    Gaussian-broadened current step of height ΔI and standard deviation s, the least-squares
  *    position has variance σ_x² = 2√π·h·s·σ_I²/ΔI² (Cramér–Rao bound from the Fisher
  *    information of the step position); for white conductance noise σ_G per sample under a
  *    Gaussian peak of height A, σ_x² = 2h·s·σ_G²/(√π·A²). Without `rawNoise`, the standard
- *    error of the parabola's vertex (noiseS taken as white) is reported instead.
+ *    error of the parabola's vertex (noiseS taken as white) is reported instead. Either way a
+ *    floor of FIND_PEAKS_DEFAULTS.positionFloorPerFwhmParabola (0.8 %) of the FWHM is added in
+ *    quadrature (positionFloorPerFwhm when refined on the current).
  *
- * References: P. Virtanen et al., "SciPy 1.0", Nat. Methods 17, 261 (2020) (prominence as in
- * scipy.signal.peak_prominences); S. M. Kay, Fundamentals of Statistical Signal Processing:
- * Estimation Theory (Prentice Hall, 1993), ch. 3 (Cramér–Rao bound).
+ * References
+ * ----------
+ * P. Virtanen et al., "SciPy 1.0: fundamental algorithms for scientific computing in Python",
+ * Nat. Methods 17, 261 (2020) (prominence as in scipy.signal.peak_prominences);
+ * S. M. Kay, Fundamentals of Statistical Signal Processing: Estimation Theory (Prentice Hall,
+ * 1993), ch. 3 (Cramér–Rao bound).
  *
- * @param biasV - uniformly spaced bias in V, ascending.
- * @param didvS - conductance in S at each bias (smoothed).
- * @returns peaks sorted by bias, and a record.
- * @throws DotspecError if the arrays differ in length, hold fewer than 3 points, or an option is invalid.
- *
- * @example
- * findPeaks(biasV, didvS, { noiseS: 2e-12 }).peaks.map((p) => p.biasV); // => [-0.94, -0.81, 0.69, 0.81, …]
+ * Example
+ * -------
+ * ```ts
+ * const biasV = Float64Array.from({ length: 1001 }, (_, i) => i * 0.001);
+ * const gauss = (v: number, at: number) => Math.exp(-0.5 * ((v - at) / 0.01) ** 2);
+ * const didvS = biasV.map((v) => 2e-9 * gauss(v, 0.3) + 1e-9 * gauss(v, 0.6));
+ * const { peaks } = findPeaks(biasV, didvS, { noiseS: 1e-12 });
+ * peaks.map((p) => p.biasV); // => [0.3, 0.6] (V)
+ * peaks.map((p) => p.fwhmV); // => [0.0236, 0.0236] (V; 2√(2 ln 2) × 10 mV = 23.5 mV)
+ * peaks.map((p) => p.stepA); // => [5.01e-11, 2.51e-11] (A)
+ * ```
  */
 export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: FindPeaksOptions): { peaks: Peak[]; record: FindPeaksRecord } {
   if (biasV.length !== didvS.length) {

@@ -7,11 +7,18 @@ import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 
 /** Options of {@link peakAreas}. */
 export interface PeakAreasOptions {
-  /** Common Gaussian FWHM of the peaks, V. */
+  /** Common Gaussian FWHM of the peaks, V. Required. */
   fwhmV: number;
-  /** The fit spans the peaks ± this many standard deviations. Default 3. */
+  /** The fit spans the peaks ± this many Gaussian standard deviations. Default: PEAK_AREAS_DEFAULTS.marginSigma (3). */
   marginSigma?: number;
 }
+
+/** Defaults and constants of {@link peakAreas} (locked by test/peaks/peakAreas.test.ts). */
+export const PEAK_AREAS_DEFAULTS = Object.freeze({
+  marginSigma: 3,
+  /** Each basis Gaussian is cut at ± this many standard deviations (e^−18 ≈ 1.5e−8 of its top). */
+  basisReachSigma: 6,
+});
 
 /** Result of {@link peakAreas}. */
 export interface PeakAreasResult {
@@ -27,7 +34,31 @@ export interface PeakAreasResult {
  * Decomposes a stretch of dI/dV into Gaussians of a common width at given positions plus a
  * linear baseline, by linear least squares.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * biasV : Float64Array
+ *     Bias in volts, ascending.
+ * didvS : Float64Array
+ *     Conductance in siemens at each bias.
+ * positionsV : readonly number[]
+ *     Peak positions in volts, ascending (held fixed).
+ * options : PeakAreasOptions
+ *     fwhmV (the common FWHM, V, required); marginSigma (the fit's reach beyond the outer peaks
+ *     in Gaussian standard deviations, default 3).
+ *
+ * Returns
+ * -------
+ * PeakAreasResult
+ *     `{ amplitudesS, areasA, baseline }`: each peak's Gaussian amplitude (S, ≥ 0) and area (the
+ *     current step it carries, A), and the baseline [b₀ (S), b₁ (S/V)] at the first peak. No
+ *     positions give empty arrays; singular normal equations give zeros.
+ *
+ * Throws
+ * ------
+ * Nothing: the caller (the pipeline) passes checked arrays.
+ *
+ * Notes
+ * -----
  * 1. Model: G(V) = b₀ + b₁·(V − V₁) + Σ_k A_k·exp(−(V − V_k)²/2σ²) over
  *    [min V_k − mσ, max V_k + mσ], σ = FWHM/2√(2 ln 2); the positions and σ are held fixed, so
  *    the amplitudes and baseline follow from the normal equations (K + 2 unknowns, inverted by
@@ -35,22 +66,37 @@ export interface PeakAreasResult {
  * 2. Area = A_k·σ·√(2π): the current step under the peak. Overlapping peaks share their flanks
  *    correctly, which a prominence (height above the valley) does not.
  * 3. Negative amplitudes (a spurious peak, or a shoulder the model cannot place) are set to 0.
+ * The constants are in {@link PEAK_AREAS_DEFAULTS}.
  *
- * @param biasV - ascending bias, V.
- * @param didvS - conductance, S.
- * @param positionsV - peak positions, V, ascending.
+ * References
+ * ----------
+ * G. H. Golub and C. F. Van Loan, Matrix Computations, 4th ed. (Johns Hopkins University Press,
+ * 2013), §4.2 and §5.3 (Cholesky factorisation; linear least squares by the normal equations).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const biasV = Float64Array.from({ length: 1001 }, (_, i) => i * 0.001);
+ * const gauss = (v: number, at: number) => Math.exp(-0.5 * ((v - at) / 0.02) ** 2);
+ * // Two peaks 2.5σ apart on a flat 0.1 nS baseline.
+ * const didvS = biasV.map((v) => 1e-10 + 2e-9 * gauss(v, 0.45) + 1e-9 * gauss(v, 0.5));
+ * const r = peakAreas(biasV, didvS, [0.45, 0.5], { fwhmV: 0.02 * 2.35482 });
+ * r.amplitudesS; // => [2e-9, 1e-9] (S)
+ * r.areasA;      // => [1.003e-10, 5.01e-11] (A: amplitude × σ√(2π))
+ * r.baseline;    // => [1e-10, 0] (S, S/V)
+ * ```
  */
 export function peakAreas(biasV: Float64Array, didvS: Float64Array, positionsV: readonly number[], options: PeakAreasOptions): PeakAreasResult {
   const k = positionsV.length;
   if (k === 0) return { amplitudesS: [], areasA: [], baseline: [0, 0] };
   const sigma = options.fwhmV / GAUSSIAN_FWHM_PER_SIGMA;
-  const margin = (options.marginSigma ?? 3) * sigma;
+  const margin = (options.marginSigma ?? PEAK_AREAS_DEFAULTS.marginSigma) * sigma;
   const lo = positionsV[0] - margin, hi = positionsV[k - 1] + margin;
   const m = k + 2;
   const ata = new Float64Array(m * m);
   const atb = new Float64Array(m);
   const row = new Float64Array(m);
-  const reach = 6 * sigma;
+  const reach = PEAK_AREAS_DEFAULTS.basisReachSigma * sigma;
   for (let i = 0; i < biasV.length; i++) {
     const v = biasV[i];
     if (v < lo || v > hi) continue;

@@ -2,7 +2,7 @@
  * The JSON record of a model fit: what `dotspec fit --json` prints (one per file).
  * Bias-referred values in volts (ε/η, Ec/η), energies in eV alongside.
  */
-import type { CurveFit, FittedValue } from "../model/fitCurve.ts";
+import type { CurveFit, FittedValue } from "../model/fit/fitCurve.ts";
 import type { AnalysisJson } from "./analysisJson.ts";
 
 export interface FitJson {

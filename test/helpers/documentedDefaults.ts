@@ -1,7 +1,7 @@
 /**
  * Reads the defaults that an options interface documents, from the source text: for each field of
  * `interface NAME { … }`, the value written after "Default" in its doc comment (a number, a quoted
- * string, true/false), and the DEFAULTS constant it names, if any (`Default: X_DEFAULTS.key (3)`).
+ * string, true/false, or a list of numbers `[a, b]`), and the DEFAULTS constant it names, if any (`Default: X_DEFAULTS.key (3)`).
  * Fields whose default is described in words ("measured from the curve") have no literal and are
  * left out. Used by the lock tests so that a doc comment and its DEFAULTS object cannot drift.
  */
@@ -10,7 +10,7 @@ import { readFileSync } from "node:fs";
 export interface DocumentedDefault {
   field: string;
   /** The literal after "Default", or undefined when only words follow. */
-  literal: number | string | boolean | undefined;
+  literal: number | string | boolean | number[] | undefined;
   /** `X_DEFAULTS.key` named in the comment, if any. */
   constant: { object: string; key: string } | null;
   /** The whole comment, for failure messages. */
@@ -40,8 +40,11 @@ export function documentedDefaults(sourceUrl: URL, interfaceName: string): Docum
     const rest = after[1];
     const constMatch = /\b([A-Z][A-Z_]*_DEFAULTS)\.(\w+)/.exec(rest);
     let literal: DocumentedDefault["literal"];
-    const lit = /^(?:[A-Z][A-Z_]*_DEFAULTS\.\w+\s*\()?\s*(-?\d+(?:\.\d+)?(?:e-?\d+)?|"[^"]*"|true|false)(?!\w|\.\d)/.exec(rest);
-    if (lit) literal = lit[1].startsWith('"') ? lit[1].slice(1, -1) : lit[1] === "true" ? true : lit[1] === "false" ? false : Number(lit[1]);
+    const lit = /^(?:[A-Z][A-Z_]*_DEFAULTS\.\w+\s*\()?\s*(-?\d+(?:\.\d+)?(?:e-?\d+)?|"[^"]*"|true|false|\[\s*-?\d[\d.e\s,-]*\])(?!\w|\.\d)/.exec(rest);
+    if (lit) {
+      const t = lit[1];
+      literal = t.startsWith('"') ? t.slice(1, -1) : t === "true" ? true : t === "false" ? false : t.startsWith("[") ? (JSON.parse(t) as number[]) : Number(t);
+    }
     out.push({ field: m[2], literal, constant: constMatch ? { object: constMatch[1], key: constMatch[2] } : null, comment });
   }
   return out;

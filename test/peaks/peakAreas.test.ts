@@ -1,8 +1,8 @@
 // peakAreas and edgeStepWidth checked against closed forms: sums of Gaussians and an erf step.
-import { describe, it } from "vitest";
+import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
-import { peakAreas } from "../../lib/peaks/peakAreas.ts";
-import { edgeStepWidth } from "../../lib/peaks/edgeStepWidth.ts";
+import { peakAreas, PEAK_AREAS_DEFAULTS } from "../../lib/peaks/peakAreas.ts";
+import { edgeStepWidth, EDGE_STEP_WIDTH_DEFAULTS } from "../../lib/peaks/edgeStepWidth.ts";
 import { normalCdf } from "../../lib/util/special.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
 
@@ -31,5 +31,16 @@ describe("edgeStepWidth(biasV, currentA, options)", () => {
       const w = edgeStepWidth(x, y, { positionV: 0.3, rangeV: [-0.1, 0.3 + s] });
       expectClose(w!, GAUSSIAN_FWHM_PER_SIGMA * s, { rtol: 1e-4, what: `σ = ${s}` });
     }
+  });
+});
+
+describe("PEAK_AREAS_DEFAULTS and EDGE_STEP_WIDTH_DEFAULTS", () => {
+  it("are as documented (locked): change them on purpose, with the doc comments", () => {
+    // Common practice (no source): a fit window of ±3σ beyond the outer peaks; basis Gaussians
+    // cut at ±6σ, where e^−18 ≈ 1.5e−8 of the top (closed form).
+    expect({ ...PEAK_AREAS_DEFAULTS }).toEqual({ marginSigma: 3, basisReachSigma: 6 });
+    // Common practice (no source): FWHM bounds 5–400 mV cover dI/dV peaks of dots at 4.5 K;
+    // 16 log-spaced trials, then 20 golden-section steps (interval × 0.618^20 ≈ 6.6e−5).
+    expect({ ...EDGE_STEP_WIDTH_DEFAULTS }).toEqual({ boundsV: [0.005, 0.4], sign: 1, minPoints: 5, trialCount: 16, goldenSectionSteps: 20 });
   });
 });

@@ -2,11 +2,11 @@
 // reference, test/model/ladder.test.ts) are fitted; the quality bar of the model issue is
 // Ec within 3 % and Γtip/Γsub within a factor 1.5 at 0.3 % noise.
 import { describe, it, expect } from "vitest";
-import { expectClose } from "../helpers/expectClose.ts";
-import { fitCurve, FIT_DEFAULTS } from "../../lib/model/fitCurve.ts";
-import { simulateCurve } from "../../lib/model/simulate.ts";
-import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
-import { DotspecError } from "../../lib/util/errors.ts";
+import { expectClose } from "../../helpers/expectClose.ts";
+import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
+import { simulateCurve } from "../../../lib/model/simulate.ts";
+import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
+import { DotspecError } from "../../../lib/util/errors.ts";
 
 const eta = 0.85;
 function analysisOf(tipRatePerS: number, extra: Record<string, unknown> = {}) {

@@ -1,0 +1,15 @@
+/**
+ * The model fit, stage by stage: the levels from the assignment, the starting values, the
+ * parameter vector and its dot model, the model current at unit scale, the linear projection of
+ * scale, offset and background, the Levenberg–Marquardt loop, the standard errors, the verdict,
+ * and fitCurve, which composes them.
+ */
+export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
+export { seedLevels, type LevelSeed } from "./seedLevels.ts";
+export { startingValues, type StartingValues } from "./startingValues.ts";
+export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";
+export { unitCurrent } from "./unitCurrent.ts";
+export { projectLinear, type LinearProjection } from "./projectLinear.ts";
+export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
+export { standardErrors } from "./standardErrors.ts";
+export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";

@@ -1,0 +1,140 @@
+/**
+ * The Levenberg–Marquardt iterations of the model fit, in chunks, with the fit's own convergence
+ * test and wall-clock limit.
+ */
+import { levenbergMarquardt } from "ml-levenberg-marquardt";
+
+/** Settings of {@link levenbergMarquardtLoop}. */
+export interface LoopSettings {
+  /** Start of the parameters (their own units). */
+  initialValues: number[];
+  /** Lower and upper bound of each parameter. */
+  minValues: number[];
+  maxValues: number[];
+  /** Finite-difference step of each parameter. */
+  gradientDifference: number[];
+  /** Most iterations in all. */
+  maxIterations: number;
+  /** Wall-clock limit, ms. */
+  timeLimitMs: number;
+  /** Iterations per chunk between convergence checks. */
+  chunkIterations: number;
+  /** Relative χ² improvement over one chunk below which the fit has converged. */
+  convergenceTolerance: number;
+}
+
+/** What {@link levenbergMarquardtLoop} returns. */
+export interface LoopResult {
+  /** The best parameters found. */
+  parameters: number[];
+  /** χ² at those parameters (residuals in units of the noise). */
+  chiSquare: number;
+  /** Iterations run. */
+  iterations: number;
+  /** Whether the convergence test was met. */
+  converged: boolean;
+  /** Why the loop stopped. */
+  message: string;
+}
+
+/** Σ (y_i − f(i))². */
+function chiSquare(f: (x: number) => number, y: number[]): number {
+  let s = 0;
+  for (let i = 0; i < y.length; i++) s += (y[i] - f(i)) ** 2;
+  return s;
+}
+
+/**
+ * Minimises χ² of a model over bounded parameters by Levenberg–Marquardt, in chunks of a few
+ * iterations, keeping the best parameters seen.
+ *
+ * Parameters
+ * ----------
+ * data : { x: number[]; y: number[] }
+ *     Point indices and data, the data divided by their noise σ (dimensionless).
+ * model : (p: number[]) => (x: number) => number
+ *     The model at parameters p, as a function of the point index, in the units of data.y.
+ * settings : LoopSettings
+ *     Start, bounds and difference steps; maxIterations; timeLimitMs (ms); chunkIterations;
+ *     convergenceTolerance (relative).
+ *
+ * Returns
+ * -------
+ * LoopResult
+ *     `{ parameters, chiSquare, iterations, converged, message }`.
+ *
+ * Throws
+ * ------
+ * Nothing: an error of the iterations (the library's timeout) ends the loop with a message.
+ *
+ * Notes
+ * -----
+ * 1. Run up to chunkIterations iterations of ml-levenberg-marquardt (damping 1e-2, bounded,
+ *    with the time left as its timeout).
+ * 2. Keep the new parameters only if χ² did not grow.
+ * 3. Converged when χ² improved by less than convergenceTolerance (relative) over the chunk;
+ *    stop at the time limit or after maxIterations otherwise (converged false, the message says
+ *    why).
+ *
+ * References
+ * ----------
+ * K. Levenberg, "A method for the solution of certain non-linear problems in least squares",
+ * Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, "An algorithm for least-squares estimation of
+ * nonlinear parameters", J. SIAM 11, 431 (1963).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // y = 2·exp(−0.3·x) on x = 0 … 19, started from (1, 0.1).
+ * const x = Array.from({ length: 20 }, (_, i) => i);
+ * const r = levenbergMarquardtLoop({ x, y: x.map((v) => 2 * Math.exp(-0.3 * v)) }, (p) => (v) => p[0] * Math.exp(-p[1] * v), {
+ *   initialValues: [1, 0.1], minValues: [0, 0], maxValues: [10, 1], gradientDifference: [1e-6, 1e-6],
+ *   maxIterations: 100, timeLimitMs: 5000, chunkIterations: 4, convergenceTolerance: 1e-5 });
+ * r.parameters; // => [2.000, 0.300]
+ * r.converged;  // => true
+ * ```
+ */
+export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model: (p: number[]) => (x: number) => number, settings: LoopSettings): LoopResult {
+  const { maxIterations, timeLimitMs } = settings;
+  const started = Date.now();
+  let params = settings.initialValues;
+  let chi2 = chiSquare(model(params), data.y);
+  let iterations = 0;
+  let converged = false;
+  let message = "";
+  while (iterations < maxIterations) {
+    const chunk = Math.min(settings.chunkIterations, maxIterations - iterations);
+    let result;
+    try {
+      result = levenbergMarquardt(data, model, {
+        initialValues: params,
+        minValues: settings.minValues,
+        maxValues: settings.maxValues,
+        gradientDifference: settings.gradientDifference,
+        maxIterations: chunk,
+        damping: 1e-2,
+        errorTolerance: 1e-10,
+        timeout: Math.max(0.001, (timeLimitMs - (Date.now() - started)) / 1000),
+      });
+    } catch (err) {
+      message = `stopped at the time limit of ${timeLimitMs} ms`;
+      break;
+    }
+    iterations += result.iterations;
+    const next = chiSquare(model(result.parameterValues), data.y);
+    const improvement = (chi2 - next) / Math.max(chi2, 1e-300);
+    if (next <= chi2) params = result.parameterValues;
+    chi2 = Math.min(chi2, next);
+    if (improvement >= 0 && improvement < settings.convergenceTolerance) {
+      converged = true;
+      message = `converged: χ² changed by ${improvement.toExponential(1)} over ${result.iterations} iterations`;
+      break;
+    }
+    if (Date.now() - started > timeLimitMs) {
+      message = `stopped at the time limit of ${timeLimitMs} ms`;
+      break;
+    }
+  }
+  if (!converged && !message) message = `stopped after ${iterations} iterations without converging`;
+  return { parameters: params, chiSquare: chi2, iterations, converged, message };
+}

@@ -1,0 +1,25 @@
+// fitVerdict: the regime of a fitted rate ratio read through the closed-form step ratio
+// r/(1 + r) of the second CB charging step over the first (E. Bonet, M. M. Deshmukh and
+// D. C. Ralph, Phys. Rev. B 65, 045317 (2002); derivation in lib/model/regimeLimits.ts).
+import { describe, it, expect } from "vitest";
+import { fitVerdict } from "../../../lib/model/fit/fitVerdict.ts";
+import { FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
+
+describe("fitVerdict(rateRatio, reducedChiSquare, limits)", () => {
+  it("calls shell filling where the second step is ≥ 60 % of the first (r ≥ 1.5, closed form 0.6/(1 − 0.6))", () => {
+    // + 1e-12: 0.6/(1 − 0.6) rounds to 1.4999999999999998 in floating point.
+    expect(fitVerdict(0.6 / (1 - 0.6) + 1e-12, 1, FIT_DEFAULTS).regime).toBe("shell-filling");
+    expect(fitVerdict(20, 1, FIT_DEFAULTS).regime).toBe("shell-filling");
+  });
+
+  it("calls shell tunnelling where it is ≤ 30 % (r ≤ 3/7, closed form 0.3/(1 − 0.3)), intermediate in between", () => {
+    expect(fitVerdict(0.3 / (1 - 0.3) - 1e-12, 1, FIT_DEFAULTS).regime).toBe("shell-tunneling");
+    expect(fitVerdict(0.01, 1, FIT_DEFAULTS).regime).toBe("shell-tunneling");
+    expect(fitVerdict(1, 1, FIT_DEFAULTS).regime).toBe("intermediate");
+  });
+
+  it("warns only when the reduced χ² exceeds poorFitChiSquare", () => {
+    expect(fitVerdict(10, FIT_DEFAULTS.poorFitChiSquare, FIT_DEFAULTS).warning).toBeNull();
+    expect(fitVerdict(10, 2 * FIT_DEFAULTS.poorFitChiSquare, FIT_DEFAULTS).warning).toMatch(/reduced χ² = 20\.0/);
+  });
+});

@@ -1,0 +1,37 @@
+// levenbergMarquardtLoop on a model with a known answer: noise-free data y = A·exp(−k·x) are fitted
+// exactly at the A and k they were made from (closed form: χ² = 0 there).
+import { describe, it, expect } from "vitest";
+import { expectClose } from "../../helpers/expectClose.ts";
+import { levenbergMarquardtLoop } from "../../../lib/model/fit/levenbergMarquardtLoop.ts";
+
+const x = Array.from({ length: 30 }, (_, i) => i);
+const data = { x, y: x.map((v) => 2 * Math.exp(-0.3 * v)) };
+const model = (p: number[]) => (v: number) => p[0] * Math.exp(-p[1] * v);
+const settings = {
+  initialValues: [1, 0.1],
+  minValues: [0, 0],
+  maxValues: [10, 1],
+  gradientDifference: [1e-6, 1e-6],
+  maxIterations: 100,
+  timeLimitMs: 10_000,
+  chunkIterations: 4,
+  convergenceTolerance: 1e-5,
+};
+
+describe("levenbergMarquardtLoop(data, model, settings)", () => {
+  it("recovers the parameters of noise-free exponential data (closed form: A = 2, k = 0.3)", () => {
+    const r = levenbergMarquardtLoop(data, model, settings);
+    expect(r.converged).toBe(true);
+    expectClose(r.parameters, [2, 0.3], { rtol: 1e-6 });
+    expect(r.chiSquare).toBeLessThan(1e-10);
+  });
+
+  it("stops after maxIterations without claiming convergence, keeping χ² no worse than at the start", () => {
+    const start = data.y.reduce((s, y, i) => s + (y - model(settings.initialValues)(i)) ** 2, 0);
+    const r = levenbergMarquardtLoop(data, model, { ...settings, maxIterations: 1 });
+    expect(r.iterations).toBeLessThanOrEqual(1);
+    expect(r.converged).toBe(false);
+    expect(r.message).toMatch(/without converging/);
+    expect(r.chiSquare).toBeLessThanOrEqual(start);
+  });
+});

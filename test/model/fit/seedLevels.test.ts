@@ -1,0 +1,57 @@
+// seedLevels and startingValues on a simulated shell-filling curve: the levels, degeneracies and
+// energies the fit starts from are compared with the scenario the curve was simulated from (its
+// inputs: s doublet at 0.6 eV, p sextet at 0.9 eV, VB doublet at −1.2 eV, Ec 0.1 eV, η 0.85).
+import { describe, it, expect } from "vitest";
+import { expectClose } from "../../helpers/expectClose.ts";
+import { seedLevels } from "../../../lib/model/fit/seedLevels.ts";
+import { startingValues } from "../../../lib/model/fit/startingValues.ts";
+import { simulateCurve } from "../../../lib/model/simulate.ts";
+import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
+
+const eta = 0.85;
+const sim = simulateCurve(
+  {
+    cb: [{ energyEV: 0.6, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 6 }],
+    vb: [{ energyEV: -1.2, degeneracy: 2 }],
+    chargingEnergyEV: 0.1,
+    eta,
+    tipRatePerS: 1e9,
+    substrateRatePerS: 1e8,
+    temperatureK: 4.5,
+    broadeningEV: 0.01,
+    bias: { fromV: -2, toV: 2.2, stepV: 0.002 },
+    noise: { relative: 0.003, seed: 1 },
+  },
+  { method: "fast" },
+);
+const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
+
+describe("seedLevels(analysis)", () => {
+  it("gives one level per shell with the simulated degeneracies and the carriers before it (s 2/0, p 6/2, v1 2/0)", () => {
+    expect(analysis.assignment.regime).toBe("shell-filling");
+    expect(seedLevels(analysis).map((s) => [s.band, s.label, s.degeneracy, s.before])).toEqual([
+      ["CB", "s", 2, 0],
+      ["CB", "p", 6, 2],
+      ["VB", "v1", 2, 0],
+    ]);
+  });
+});
+
+describe("startingValues(analysis, seeds, eta, chargingEnergyGuessEV)", () => {
+  const seeds = seedLevels(analysis);
+  const start = startingValues(analysis, seeds, eta, 0.1);
+
+  it("starts |ε| within 10 meV of the simulated 0.6, 0.9 and 1.2 eV and Ec within 10 % of the simulated 0.1 eV", () => {
+    expectClose(start.initialValues.slice(0, 3), [0.6, 0.9, 1.2], { atol: 0.01, what: "start vs the simulated levels" });
+    expectClose(start.initialValues[3], 0.1, { rtol: 0.1, what: "Ec" });
+  });
+
+  it("bounds every parameter around its start, and keeps same-band levels from crossing", () => {
+    start.initialValues.forEach((v, k) => {
+      expect(start.minValues[k]).toBeLessThanOrEqual(v);
+      expect(start.maxValues[k]).toBeGreaterThanOrEqual(v);
+    });
+    // s and p (CB): the upper bound of s stays below the lower bound of p.
+    expect(start.maxValues[0]).toBeLessThan(start.minValues[1]);
+  });
+});
