@@ -1,0 +1,96 @@
+/**
+ * Reading the tables of a size series from disk: the size table (META.csv), whose rows must name
+ * curve files inside the series folder, and the optical table.
+ */
+import { readFileSync, statSync } from "node:fs";
+import { join } from "node:path";
+import { DotspecError } from "../util/errors.ts";
+import { parseOpticalTable, type OpticalTableRow } from "./parseOpticalTable.ts";
+import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
+
+/** The text of a small table file, or a DotspecError `io/unreadable` naming it. */
+function readTableText(path: string, what: string): string {
+  try {
+    return readFileSync(path, "utf8");
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a table" : code === "EACCES" ? "permission denied" : (err as Error).message;
+    throw new DotspecError("io/unreadable", `${path}: the ${what} cannot be read (${why})`);
+  }
+}
+
+/** A size-table row with the curve file's path as it can be opened. */
+export interface SizeMetaFileRow extends SizeMetaRow {
+  /** `dir` joined with the row's file. */
+  path: string;
+}
+
+/**
+ * Reads a size table and checks that every file it names exists in the series folder.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The size table (META.csv).
+ * dir : string
+ *     The series folder the table's file names are relative to.
+ *
+ * Returns
+ * -------
+ * SizeMetaFileRow[]
+ *     The rows of {@link parseSizeMeta}, each with `path` = dir/file.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable` (the table), `io/meta-missing-file` naming the line and the file when a
+ *     file does not exist or is not a file, and every error of {@link parseSizeMeta}.
+ *
+ * Example
+ * -------
+ * readSizeMetaFile("series/META.csv", "series/curves");
+ * // => [{ line: 2, file: "qd7-a01-1.csv", path: "series/curves/qd7-a01-1.csv", dot: "QD-7-A01", … }, …]
+ */
+export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
+  const rows = parseSizeMeta(readTableText(path, "size table"), path);
+  return rows.map((row) => {
+    const full = join(dir, row.file);
+    let isFile = false;
+    try {
+      isFile = statSync(full).isFile();
+    } catch {
+      isFile = false;
+    }
+    if (!isFile) {
+      throw new DotspecError("io/meta-missing-file", `${path}: line ${row.line} (${row.file}): no such file in ${dir}; check the name, or remove the row`);
+    }
+    return { ...row, path: full };
+  });
+}
+
+/**
+ * Reads an optical table.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The table file.
+ *
+ * Returns
+ * -------
+ * OpticalTableRow[]
+ *     See {@link parseOpticalTable}.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable`, and every error of {@link parseOpticalTable}.
+ *
+ * Example
+ * -------
+ * readOpticalFile("series/optical.csv");
+ * // => [{ line: 3, radiusNM: 1.5, peaksEV: [2.31, 2.62] }, …]
+ */
+export function readOpticalFile(path: string): OpticalTableRow[] {
+  return parseOpticalTable(readTableText(path, "optical table"), path);
+}
