@@ -8,8 +8,31 @@ import { DotspecError } from "../util/errors.ts";
 import { parseOpticalTable, type OpticalTableRow } from "./parseOpticalTable.ts";
 import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
 
-/** The text of a small table file, or a DotspecError `io/unreadable` naming it. */
-function readTableText(path: string, what: string): string {
+/**
+ * Reads a small text file (a table, a material file) as UTF-8.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file.
+ * what : string
+ *     What it is, for the message ("size table", "material file").
+ *
+ * Returns
+ * -------
+ * string
+ *     Its text.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable` naming the file and the reason (no such file, a folder, permission).
+ *
+ * Example
+ * -------
+ * parseMaterialJson(readTextFile("InP-ours.json", "material file"), "InP-ours.json");
+ */
+export function readTextFile(path: string, what: string): string {
   try {
     return readFileSync(path, "utf8");
   } catch (err) {
@@ -52,7 +75,7 @@ export interface SizeMetaFileRow extends SizeMetaRow {
  * // => [{ line: 2, file: "qd7-a01-1.csv", path: "series/curves/qd7-a01-1.csv", dot: "QD-7-A01", … }, …]
  */
 export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
-  const rows = parseSizeMeta(readTableText(path, "size table"), path);
+  const rows = parseSizeMeta(readTextFile(path, "size table"), path);
   return rows.map((row) => {
     const full = join(dir, row.file);
     let isFile = false;
@@ -92,5 +115,5 @@ export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
  * // => [{ line: 3, radiusNM: 1.5, peaksEV: [2.31, 2.62] }, …]
  */
 export function readOpticalFile(path: string): OpticalTableRow[] {
-  return parseOpticalTable(readTableText(path, "optical table"), path);
+  return parseOpticalTable(readTextFile(path, "optical table"), path);
 }

@@ -28,8 +28,9 @@ export interface CombinedValue {
   /** Mean of the curves kept. */
   mean: number;
   /**
-   * Standard error of the mean: sample standard deviation / √n with n ≥ 2; with one curve, that
-   * curve's own 1σ (null when it has none).
+   * Standard error of the mean. With n ≥ 2 curves the larger of SD/√n (the scatter) and
+   * rms(σᵢ)/√n (the curves' own 1σ propagated to the mean); with one curve, its own 1σ (null
+   * when it has none).
    */
   standardError: number | null;
   /** Sample standard deviation (n − 1), null with one curve. */
@@ -202,7 +203,11 @@ function summarize(values: readonly number[], sigmas: readonly (number | null)[]
   const mean = values.reduce((s, v) => s + v, 0) / n;
   if (n === 1) return { mean, standardError: sigmas[0] ?? null, sd: null, n, files: [...files] };
   const sd = Math.sqrt(values.reduce((s, v) => s + (v - mean) ** 2, 0) / (n - 1));
-  return { mean, standardError: sd / Math.sqrt(n), sd, n, files: [...files] };
+  // The larger of the scatter's SE and the curves' own 1σ propagated to the mean (rms σ / √n):
+  // two or three curves can agree by chance far better than their noise allows.
+  const known = sigmas.filter((x): x is number => x !== null && Number.isFinite(x));
+  const propagated = known.length === n ? Math.sqrt(known.reduce((s, x) => s + x * x, 0) / n) / Math.sqrt(n) : 0;
+  return { mean, standardError: Math.max(sd / Math.sqrt(n), propagated), sd, n, files: [...files] };
 }
 
 interface Column {
@@ -242,8 +247,10 @@ interface Column {
  * 2. With three or more curves an outlier is flagged with the reason and left out of that
  *    quantity's mean (bias and energy alike); it stays in the others. Two curves that disagree
  *    are both flagged and both kept (which one is off cannot be told), with a warning.
- * 3. Mean of the curves kept; standard error = sample SD / √n for n ≥ 2 (the scatter between
- *    repeated sweeps of one dot is the honest uncertainty); with one curve its own 1σ.
+ * 3. Mean of the curves kept. Standard error for n ≥ 2: the larger of SD/√n (the scatter
+ *    between repeated sweeps of the dot) and rms(σᵢ)/√n (their own 1σ propagated to the mean),
+ *    since two or three curves can agree by chance far better than their noise allows (common
+ *    practice, no source); with one curve its own 1σ.
  * 4. Regime: the one most curves have; a tie gives "undetermined". Curves of another regime stay
  *    in the means (gap and Δsp are defined in both regimes; Ec only in shell filling).
  *
