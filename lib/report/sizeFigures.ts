@@ -120,7 +120,8 @@ function modelCurves(series: SizeSeries, quantities: SizeQuantity[], grid: numbe
   const fits = series.fits.filter((f) => quantities.includes(f.quantity) && f.status !== "failed");
   return fits.map((f, k) => ({
     name: label(f),
-    color: colors[(first + k) % colors.length],
+    color: f.model === "brus" ? SIZE_FIGURE_DEFAULTS.colors.brus : colors[(first + k) % colors.length],
+    dashed: f.model === "brus",
     line: grid.flatMap((r) => {
       let y: number;
       try {
@@ -284,7 +285,7 @@ function drawPanel(document: Document, width: number, panel: Panel): string {
     height: plotHeight,
     marginLeft: D.marginLeft,
     marginRight: D.marginRight,
-    marginTop: 12,
+    marginTop: 26,
     marginBottom: 40,
     style: { background: "transparent" },
     x: { label: panel.xLabel, labelAnchor: "center", labelArrow: "none", nice: true },
@@ -293,20 +294,21 @@ function drawPanel(document: Document, width: number, panel: Panel): string {
   });
   for (const style of Array.from(plot.querySelectorAll("style"))) style.remove();
 
-  const entries: [string, string, boolean][] = [
-    ...panel.points.filter((s) => s.points.length).map((s): [string, string, boolean] => [s.name, s.color, false]),
-    ...panel.curves.filter((c) => c.line.length > 1).map((c): [string, string, boolean] => [c.name, c.color, true]),
+  type Swatch = "circle" | "times" | "line" | "dashed";
+  const entries: [string, string, Swatch][] = [
+    ...panel.points.filter((s) => s.points.length).map((s): [string, string, Swatch] => [s.name, s.color, s.symbol ?? "circle"]),
+    ...panel.curves.filter((c) => c.line.length > 1).map((c): [string, string, Swatch] => [c.name, c.color, c.dashed ? "dashed" : "line"]),
   ];
-  const placed: { text: string; fill: string; line: boolean; x: number; row: number }[] = [];
+  const placed: { text: string; fill: string; swatch: Swatch; x: number; row: number }[] = [];
   let lx = 0;
   let row = 0;
-  for (const [text, fill, line] of entries) {
+  for (const [text, fill, swatch] of entries) {
     const w = 26 + text.length * 6.2;
     if (lx > 0 && 16 + lx + w > width - 8) {
       lx = 0;
       row++;
     }
-    placed.push({ text, fill, line, x: lx, row });
+    placed.push({ text, fill, swatch, x: lx, row });
     lx += w;
   }
   const header = D.headerHeight + row * D.legendRowHeight;
@@ -327,10 +329,15 @@ function drawPanel(document: Document, width: number, panel: Panel): string {
   const legend = el("g", { transform: "translate(16, 50)", "font-size": 11, fill: C.subtitle });
   for (const e of placed) {
     const y = e.row * D.legendRowHeight;
-    legend.append(
-      e.line ? el("rect", { x: e.x, y: y + 4, width: 14, height: 2.5, fill: e.fill }) : el("circle", { cx: e.x + 5, cy: y + 5, r: 4, fill: e.fill }),
-      el("text", { x: e.x + 18, y: y + 9 }, e.text),
-    );
+    const swatch =
+      e.swatch === "line"
+        ? el("rect", { x: e.x, y: y + 4, width: 14, height: 2.5, fill: e.fill })
+        : e.swatch === "dashed"
+          ? el("line", { x1: e.x, y1: y + 5, x2: e.x + 14, y2: y + 5, stroke: e.fill, "stroke-width": 2, "stroke-dasharray": "4,2" })
+          : e.swatch === "times"
+            ? el("path", { d: `M${e.x + 1},${y + 1}L${e.x + 9},${y + 9}M${e.x + 9},${y + 1}L${e.x + 1},${y + 9}`, stroke: e.fill, "stroke-width": 2 })
+            : el("circle", { cx: e.x + 5, cy: y + 5, r: 4, fill: e.fill });
+    legend.append(swatch, el("text", { x: e.x + 18, y: y + 9 }, e.text));
   }
   root.append(legend);
   plot.setAttribute("x", "0");
