@@ -27,18 +27,26 @@ export const SIZE_FORMULA_DEFAULTS = Object.freeze({
 // instance or parse further input (import, createUnit, evaluate, parse, simplify, derivative,
 // and their relatives) by ones that throw. Formulas are also checked node by node against a
 // whitelist before they are compiled, so a disabled function is never even reached.
-const math = create(all);
-const limitedParse = math.parse;
-const disabled = (name: string) => () => {
-  throw new Error(`function ${name} is disabled`);
-};
-math.import(
-  Object.fromEntries(
-    ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "simplifyConstant", "simplifyCore", "derivative", "resolve", "reviver", "replacer", "chain", "rationalize", "leafCount", "symbolicEqual", "parser"]
-      .map((name) => [name, disabled(name)]),
-  ),
-  { override: true },
-);
+// Created on first use (a pure cache: creating the instance costs time at start-up).
+let limitedParse: ((expression: string) => MathNode) | null = null;
+function restrictedParse(expression: string): MathNode {
+  if (!limitedParse) {
+    const math = create(all);
+    const parse = math.parse;
+    const disabled = (name: string) => () => {
+      throw new Error(`function ${name} is disabled`);
+    };
+    math.import(
+      Object.fromEntries(
+        ["import", "createUnit", "evaluate", "parse", "compile", "simplify", "simplifyConstant", "simplifyCore", "derivative", "resolve", "reviver", "replacer", "chain", "rationalize", "leafCount", "symbolicEqual", "parser"]
+          .map((name) => [name, disabled(name)]),
+      ),
+      { override: true },
+    );
+    limitedParse = (text: string) => parse(text);
+  }
+  return limitedParse(expression);
+}
 
 /** A parsed user formula. */
 export interface SizeFormula {
@@ -87,6 +95,7 @@ function checkNode(node: MathNode, text: string, parameters: string[]): void {
       const name = (node as unknown as { name: string }).name;
       if (allowedFunctions.includes(name)) fail(text, `${name} is a function, not a value`, `call it: ${name}(…)`);
       if (!/^[A-Za-z][A-Za-z0-9_]{0,31}$/.test(name)) fail(text, `symbol ${JSON.stringify(name)} is not a plain name`, "use letters, digits and _ (up to 32 characters)");
+      if (name in Object.prototype) fail(text, `${JSON.stringify(name)} cannot be a parameter name`, "rename it");
       if (!(SIZE_FORMULA_DEFAULTS.reserved as readonly string[]).includes(name) && !parameters.includes(name)) parameters.push(name);
       return;
     }
@@ -166,7 +175,7 @@ export function parseSizeFormula(text: string): SizeFormula {
 
   let node: MathNode;
   try {
-    node = limitedParse(expression);
+    node = restrictedParse(expression);
   } catch (err) {
     const message = (err as Error).message ?? String(err);
     const ch = (err as { char?: number }).char;

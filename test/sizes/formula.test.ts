@@ -61,6 +61,8 @@ describe("parseSizeFormula(text)", () => {
       ["a and b", "operator"],
       ["sqrt", "function, not a value"],
       ["a\nb", "several statements"],
+      ["R * constructor", "cannot be a parameter name"],
+      ["R * __proto__", "not a plain name"],
       ["R + " + "1 + ".repeat(100) + "1", "longer than the limit"],
       ["a+b+c+d+e+f+g+h+k+R", "exceed the limit"],
     ];
