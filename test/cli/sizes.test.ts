@@ -159,3 +159,14 @@ describe("dotspec sizes: refused options (exit 2)", () => {
     }
   });
 });
+
+describe("dotspec sizes --help", () => {
+  it("documents the options and says they are analysis settings, not instrument settings", async () => {
+    const r = await run(["sizes", "--help"]);
+    expect(r.code).toBe(0);
+    for (const option of ["--meta", "--eta", "--material", "--material-file", "--optical", "--formula", "--bin-nm", "--window-mv", "--order", "--json", "--out", "--jobs"]) {
+      expect(r.stdout).toContain(option);
+    }
+    expect(r.stdout.replace(/\s+/g, " ")).toContain("analysis settings, not instrument settings");
+  });
+});
