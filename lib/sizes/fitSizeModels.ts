@@ -114,6 +114,7 @@ function formulaOf(text: string): SizeFormula {
   let f = formulaCache.get(text);
   if (!f) {
     f = parseSizeFormula(text);
+    if (formulaCache.size >= 100) formulaCache.clear();
     formulaCache.set(text, f);
   }
   return f;

@@ -6,6 +6,7 @@
 // x·cot x = −√(X² − x²), X² = 2mV0R²/ħ² (same textbook problem, from memory), solved here by
 // plain bisection independent of the library's matching; the Kane relation E(1 + αE) = ħ²k²/2m*.
 import { describe, expect, it } from "vitest";
+import fc from "fast-check";
 import { create, all, type Unit } from "mathjs";
 import { expectClose } from "../helpers/expectClose.ts";
 import { expectError } from "../helpers/errors.ts";
@@ -107,5 +108,25 @@ describe("sphereLevelEV — finite wall (BenDaniel–Duke)", () => {
     expectError(() => sphereLevelEV(0, 0.1), "options/not-positive", "radiusNM");
     expectError(() => sphereLevelEV(2, -1), "options/not-positive", "massE");
     expectError(() => sphereLevelEV(2, 0.1, { wall: "soft" as "finite" }), "options/not-allowed", "wall");
+  });
+
+  it("for random wells: 0 < E < min(V0, infinite-wall level), and E(n−1) < E(n) (min–max principle, closed form of the ordering)", () => {
+    fc.assert(
+      fc.property(
+        fc.double({ min: 0.5, max: 5, noNaN: true }), fc.double({ min: 0.01, max: 1, noNaN: true }), fc.double({ min: 0.05, max: 2, noNaN: true }),
+        fc.double({ min: 0.05, max: 6, noNaN: true }), fc.integer({ min: 0, max: 3 }), fc.integer({ min: 2, max: 3 }), fc.double({ min: 0, max: 3, noNaN: true }),
+        (R, m, mb, V0, l, n, alpha) => {
+          const o = { l, wall: "finite" as const, barrierEV: V0, barrierMassE: mb, nonParabolicityPerEV: alpha };
+          const upper = sphereLevelEV(R, m, { ...o, n });
+          const lower = sphereLevelEV(R, m, { ...o, n: n - 1 });
+          if (upper === null) return;
+          expect(lower).not.toBeNull();
+          expect(upper).toBeGreaterThan(lower!);
+          expect(upper).toBeLessThan(V0);
+          expect(upper).toBeLessThan(sphereLevelEV(R, m, { l, n, nonParabolicityPerEV: alpha })!);
+        },
+      ),
+      { numRuns: 300, seed: 7 },
+    );
   });
 });
