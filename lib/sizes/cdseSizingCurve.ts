@@ -40,7 +40,10 @@ export function cdseDiameterNM(wavelengthNM: number): number {
  *
  * @param diameterNM - diameter, nm (within the curve's range, about 1.55–10.9 nm).
  * @returns wavelength, nm.
- * @throws DotspecError `sizes/out-of-sizing-range` outside the curve's range.
+ * @throws DotspecError `options/out-of-range` outside the curve's range.
+ *
+ * @example
+ * cdseFirstExcitonWavelengthNM(4); // => 585.3
  */
 export function cdseFirstExcitonWavelengthNM(diameterNM: number): number {
   checkPositive("diameterNM", diameterNM);

@@ -215,6 +215,10 @@ export function fitSizeModel(points: readonly SizeModelPoint[], options: FitSize
   while (iterations < maxIterations && !converged) {
     iterations++;
     const J = jacobian(p);
+    if (!J.every(Number.isFinite)) {
+      warnings.push("the model is not finite next to the current values (a derivative could not be formed); stopped there");
+      break;
+    }
     const A = new Float64Array(m * m);
     const g = new Float64Array(m);
     for (let i = 0; i < n; i++) {

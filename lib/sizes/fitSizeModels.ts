@@ -290,6 +290,15 @@ export function fitSizeModels(points: Partial<Record<SizeQuantity, SizePoint[]>>
  * @param material - the material the fit used.
  * @returns the model's value, eV (NaN for a failed fit or where the model is undefined, such as
  *   a finite well that binds no level).
+ *
+ * Notes:
+ * 1. The model is rebuilt from `fit.model` and `fit.quantity` and evaluated with `fit.params`
+ *    (formulas are parsed again from the text after "formula: ").
+ * 2. "brus" gives the Brus optical gap of `material`.
+ *
+ * @example
+ * const fit = fitSizeModels({ chargingEnergyEV: points }, { material })[0]; // charging-sphere
+ * evaluateSizeFit(fit, 2, material); // => 1.439965/(ε_eff·2) + c₀
  */
 export function evaluateSizeFit(fit: SizeFit, radiusNM: number, material: Material): number {
   if (fit.status === "failed" || !(radiusNM > 0)) return NaN;

@@ -113,6 +113,12 @@ describe("fitSizeModel(points, options)", () => {
     expect(fit.warnings.join(" ")).toContain("singular");
   });
 
+  it("stops with a warning, not a false convergence, where the model is undefined next to the start", () => {
+    const fit = fitSizeModel(scattered, { model: (r, [a]) => Math.sqrt(a) * r, parameters: [{ name: "a", initial: 0 }] });
+    expect(fit.converged).toBe(false);
+    expect(fit.warnings.join(" ")).toContain("not finite");
+  });
+
   it("refuses a start outside the bounds and an empty parameter list", () => {
     expectError(() => fitSizeModel(scattered, { model: (r, [a]) => a, parameters: [{ name: "a", initial: 5, max: 1 }] }), "sizes/bad-parameter", "a", "bounds");
     expectError(() => fitSizeModel(scattered, { model: () => 0, parameters: [] }), "sizes/bad-parameter", "1 to 10");
