@@ -32,7 +32,7 @@ export interface SizeFit {
   quantity: SizeQuantity;
   /** "sphere-infinite", "sphere-finite", "sphere-nonparabolic", "charging-sphere", "power-law", "brus" or "formula: <text>". */
   model: string;
-  /** Fitted values (and values derived from them, such as the masses from the mass scale), by name. */
+  /** Fitted values (and values derived from them, such as the masses from the mass scale), by name; empty for a failed fit. */
   params: Record<string, number>;
   /** 1σ standard errors by name; null where not available. */
   stderr: Record<string, number | null>;
@@ -216,8 +216,9 @@ function fitOne(quantity: SizeQuantity, model: string, material: Material, point
       warnings.push(`reduced χ² ${fit.reducedChiSquare.toPrecision(3)} exceeds ${poorChi2}: the model does not describe the points within their uncertainties`);
     }
   }
-  let params = { ...fit.params };
-  let stderr = { ...fit.stderr };
+  // A failed fit reports no values (its starting values would read like results).
+  let params: Record<string, number> = status === "failed" ? {} : { ...fit.params };
+  let stderr: Record<string, number | null> = status === "failed" ? {} : { ...fit.stderr };
   if (spec.derived && status !== "failed") {
     const extra = spec.derived(fit.params, fit.stderr);
     params = { ...params, ...extra.params };

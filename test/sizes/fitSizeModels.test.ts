@@ -67,6 +67,18 @@ describe("fitSizeModels(points, options)", () => {
     expect(fits.filter((f) => f.quantity === "levelSpacingSPEV").map((f) => f.model)).toEqual(["sphere-infinite", "sphere-finite", "sphere-nonparabolic", "power-law"]);
   });
 
+  it("Δsp, non-parabolic: recovers mₑ* = 0.05 from Kane levels E(1 + αE) = ħ²x²/(2mₑ*R²), α = 1/Eg (closed form, A&S x_11)", () => {
+    const m = 0.05, a = 1 / inp.bandGapEV;
+    const pts = pointsOf((r) => kane((C * 4.493409457909064 ** 2) / (m * r * r), a) - kane((C * Math.PI ** 2) / (m * r * r), a));
+    expectClose(find(fitSizeModels({ levelSpacingSPEV: pts }, { material: inp }), "levelSpacingSPEV", "sphere-nonparabolic").params.electronMassE, m, { rtol: 1e-7 });
+  });
+
+  it("Δsp, finite wall: recovers a known mₑ* = 0.12 from the finite-wall 1S and 1P levels", () => {
+    const o = { wall: "finite" as const, barrierEV: inp.barrierEV, barrierMassE: inp.barrierMassE };
+    const pts = pointsOf((r) => sphereLevelEV(r, 0.12, { ...o, l: 1 })! - sphereLevelEV(r, 0.12, o)!);
+    expectClose(find(fitSizeModels({ levelSpacingSPEV: pts }, { material: inp }), "levelSpacingSPEV", "sphere-finite").params.electronMassE, 0.12, { rtol: 1e-6 });
+  });
+
   it("charging energy: recovers ε_eff = 5.5 and c₀ = 0.015 eV from 1.439965/(εR) + c₀ (CODATA 2018 by hand)", () => {
     const pts = pointsOf((r) => 1.439965 / (5.5 * r) + 0.015, 0.002);
     const fit = find(fitSizeModels({ chargingEnergyEV: pts }, { material: inp }), "chargingEnergyEV", "charging-sphere");
@@ -125,6 +137,7 @@ describe("fitSizeModels(points, options)", () => {
     expect(fit.warnings.join(" ")).toContain("reduced χ²");
     const few = find(fitSizeModels({ chargingEnergyEV: noisy.slice(0, 2) }, { material: inp }), "chargingEnergyEV", "power-law");
     expect(few.status).toBe("failed");
+    expect(few.params).toEqual({});
   });
 
   it("evaluateSizeFit reproduces the fitted curve at the data (noiseless), and is NaN for a failed fit", () => {
