@@ -123,6 +123,21 @@ describe("dotspec sizes DIR --meta META.csv", () => {
   });
 });
 
+describe("dotspec sizes --material-file M.json", () => {
+  it("uses a built-in with fields changed; an unknown key is a usage error naming it", async () => {
+    const m = join(tempDir(), "m.json");
+    writeFileSync(m, JSON.stringify({ base: "InP", dielectricConstant: 10 }));
+    const r = await run(["sizes", join(dir, "t1-1.csv"), join(dir, "t2-1.csv"), "--material-file", m, "--json"]);
+    expect(r.code).toBe(0);
+    const out = JSON.parse(r.stdout) as SizeSeriesJson;
+    expect(out.material).toMatchObject({ bandGapEV: 1.421, dielectricConstant: 10 });
+    writeFileSync(m, JSON.stringify({ base: "InP", dielectric: 10 }));
+    const bad = await run(["sizes", dir, "--material-file", m]);
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toContain("dielectric");
+  }, 60_000);
+});
+
 describe("dotspec sizes DIR --out REPORT", () => {
   it("writes sizes.json, the four tables, the figures and the per-curve records", async () => {
     const out = join(tempDir(), "report");
