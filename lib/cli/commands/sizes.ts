@@ -390,8 +390,8 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
     return EXIT.failed;
   }
   const record = sizeSeriesToJson(series);
-  if (ctx.stdoutGone()) return failed ? EXIT.failed : EXIT.ok;
-  ctx.stdout.write(opts.json ? JSON.stringify(record, null, 2) + "\n" : formatSizeSeriesText(record));
+  // Nobody reads stdout any more (`dotspec sizes … | head`): skip it, still write the report.
+  if (!ctx.stdoutGone()) ctx.stdout.write(opts.json ? JSON.stringify(record, null, 2) + "\n" : formatSizeSeriesText(record));
 
   if (outDir !== undefined) {
     try {
