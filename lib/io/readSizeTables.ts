@@ -71,8 +71,9 @@ export interface SizeMetaFileRow extends SizeMetaRow {
  *
  * Example
  * -------
- * readSizeMetaFile("series/META.csv", "series/curves");
- * // => [{ line: 2, file: "qd7-a01-1.csv", path: "series/curves/qd7-a01-1.csv", dot: "QD-7-A01", … }, …]
+ * readSizeMetaFile("sample-curves/series/META.csv", "sample-curves/series/curves")[0];
+ * // => { line: 3, file: "qd-7-s01-1.csv", dot: "QD-7-S01", radiusNM: 1.5, eta: 0.86, notes: null,
+ * //      path: "sample-curves/series/curves/qd-7-s01-1.csv" }
  */
 export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
   const rows = parseSizeMeta(readTextFile(path, "size table"), path);
@@ -111,8 +112,8 @@ export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
  *
  * Example
  * -------
- * readOpticalFile("series/optical.csv");
- * // => [{ line: 3, radiusNM: 1.5, peaksEV: [2.31, 2.62] }, …]
+ * readOpticalFile("sample-curves/series/optical.csv")[0];
+ * // => { line: 3, radiusNM: 1.5, peaksEV: [2.671, 3.581] }
  */
 export function readOpticalFile(path: string): OpticalTableRow[] {
   return parseOpticalTable(readTextFile(path, "optical table"), path);

@@ -256,8 +256,10 @@ interface Column {
  *
  * Example
  * -------
+ * // a, b: analysis records with gaps 2.00 and 2.02 V (1σ 1 mV each), η 0.8
  * const dot = combineCurves([{ file: "a.csv", values: a }, { file: "b.csv", values: b }]);
- * dot.energies.gapEV;  // => { mean: 2.91, standardError: 0.004, sd: 0.0057, n: 2, files: [...] }
+ * dot.bias.gapV;      // => { mean: 2.01, standardError: 0.01, sd: 0.01414, n: 2, files: ["a.csv", "b.csv"] }
+ * dot.energies.gapEV; // => { mean: 1.608, standardError: 0.008, sd: 0.01131, n: 2, files: ["a.csv", "b.csv"] }
  */
 export function combineCurves(curves: readonly DotCurve[], options: CombineCurvesOptions = {}): DotCombination {
   if (!Array.isArray(curves) || curves.length === 0) {

@@ -137,7 +137,7 @@ export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; s
  * -------
  * const series = sizeSeries(curves, { material: resolveMaterial("InP") });
  * series.dots.map((d) => [d.dot, d.radiusNM, d.energies.gapEV?.mean]);
- * // => [["QD-7-A01", 1.5, 3.02], …]
+ * // => [["QD-7-S01", 1.5, 2.949], ["QD-7-S02", 1.62, 2.792], …]  (the demo series)
  */
 export function sizeSeries(curves: readonly SeriesCurveInput[], options: SizeSeriesOptions = {}): SizeSeries {
   checkKnownKeys("sizeSeries options", options, Object.keys(SIZE_SERIES_DEFAULTS));
