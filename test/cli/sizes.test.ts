@@ -149,7 +149,7 @@ describe("dotspec sizes DIR --out REPORT", () => {
     for (const f of ["sizes.json", "sizes-curves.csv", "sizes-dots.csv", "sizes-bins.csv", "sizes-fits.csv", "sizes-gap.svg", "sizes-charging-energy.svg", "sizes-level-spacing.svg", "sizes-valence.svg", "sizes-optical.svg"]) {
       expect(existsSync(join(out, f)), f).toBe(true);
     }
-    for (const f of ["t1-1.json", "t1-1.svg", "t2-3.json"]) expect(existsSync(join(out, "curves", f)), f).toBe(true);
+    for (const f of ["t1-1.json", "t1-1.svg", "t2-3.json", "summary.csv"]) expect(existsSync(join(out, "curves", f)), f).toBe(true);
     const curves = readFileSync(join(out, "sizes-curves.csv"), "utf8").trim().split("\n");
     expect(curves).toHaveLength(1 + 7);
     expect(JSON.parse(readFileSync(join(out, "sizes.json"), "utf8")).optical).toHaveLength(1);

@@ -11,6 +11,7 @@ import {
   SIZE_BINS_DEFAULTS,
   SIZE_FIGURE_FILES,
   SIZE_TABLE_FILES,
+  SUMMARY_COLUMNS,
   formatCsv,
   formatSizeSeriesText,
   isDotspecError,
@@ -35,7 +36,7 @@ import {
   type SeriesCurveInput,
   type SizeFigureName,
 } from "../../index.ts";
-import { failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
+import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
@@ -87,7 +88,7 @@ Output:
                 model fits and the optical pairing
   --json        one JSON object { dots, unassigned, bins, fits, optical, … } on stdout
   --out DIR     DIR/sizes.json, DIR/sizes-{curves,dots,bins,fits}.csv, DIR/sizes-*.svg figures,
-                and DIR/curves/<name>.json and .svg per curve (as analyze --out writes them)
+                and DIR/curves/<name>.json, <name>.svg and summary.csv (as analyze --out writes them)
 
 Exit status: 0 every curve analysed, 1 some curve or table failed (one "dotspec: …" line each on
 stderr; the rest is still reported), 2 usage error.
@@ -396,6 +397,9 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
   if (outDir !== undefined) {
     try {
       writeTextFile(join(outDir, SIZES_OUTPUT.json), JSON.stringify(record, null, 2) + "\n");
+      // The per-curve summary, as `analyze --out` writes it, beside the per-curve records.
+      const rows = results.flatMap((r) => (r && r.ok && r.row ? [r.row] : []));
+      writeTextFile(join(curvesDir!, ANALYZE_OUTPUT.summary), formatCsv(rows, SUMMARY_COLUMNS));
       const t = sizeSeriesTables(record, curves);
       for (const key of ["curves", "dots", "bins", "fits"] as const) {
         writeTextFile(join(outDir, SIZE_TABLE_FILES[key]), formatCsv(t[key].rows, t[key].columns));
