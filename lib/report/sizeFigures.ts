@@ -303,7 +303,7 @@ function drawPanel(document: Document, width: number, panel: Panel): string {
   let lx = 0;
   let row = 0;
   for (const [text, fill, swatch] of entries) {
-    const w = 26 + text.length * 6.2;
+    const w = 34 + text.length * 6.4;
     if (lx > 0 && 16 + lx + w > width - 8) {
       lx = 0;
       row++;
