@@ -11,6 +11,7 @@ import { simulateCurve, writeTextFile, resolveMaterial, type SizeSeriesJson } fr
 import { seriesDotLevels, seriesDotScenario, type SeriesModel } from "../../scripts/make-size-series.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { removeTempDirs, run, tempDir } from "./harness.ts";
+import { SIZES_CLI_DEFAULTS } from "../../lib/cli/commands/sizes.ts";
 
 const MODEL: SeriesModel = {
   material: resolveMaterial("InP"),
@@ -172,6 +173,12 @@ describe("dotspec sizes: refused options (exit 2)", () => {
       expect(r.code, argv.join(" ")).toBe(2);
       expect(r.stderr).toMatch(message);
     }
+  });
+});
+
+describe("SIZES_CLI_DEFAULTS", () => {
+  it("is locked", () => {
+    expect(SIZES_CLI_DEFAULTS).toEqual({ minCurvesPerPool: 40 });
   });
 });
 

@@ -99,6 +99,16 @@ Examples:
   dotspec sizes series/ --material CdSe --formula "Eg + a / R^2 - b / R ; a=1, b=0.5" --json
 `;
 
+/** Tuning of `dotspec sizes`. */
+export const SIZES_CLI_DEFAULTS = Object.freeze({
+  /**
+   * With --jobs > 1, a group of curves sharing one η is spread over worker threads only when it
+   * holds at least this many curves; smaller groups (a size table with an η per dot) run in this
+   * thread, since starting a pool of workers costs about as much as analysing a few dozen curves.
+   */
+  minCurvesPerPool: 40,
+});
+
 /** Collects a repeatable option. */
 const collect = (value: string, previous: string[] = []) => [...previous, value];
 
@@ -220,8 +230,9 @@ function outputNames(files: readonly string[]): string[] {
  *    other curve files of DIR as unassigned; without, every curve file of the arguments with
  *    the dot and size of its metadata lines (read with the importer).
  * 2. The curves are analysed by the same code as `analyze` (analyzeFile, on worker threads with
- *    --jobs), in groups of equal η so that a size table's per-curve η is used; with --out each
- *    curve's JSON and figure go to DIR/curves as `analyze --out` writes them.
+ *    --jobs for groups of at least {@link SIZES_CLI_DEFAULTS}.minCurvesPerPool curves), in
+ *    groups of equal η so that a size table's per-curve η is used; with --out each curve's JSON
+ *    and figure go to DIR/curves as `analyze --out` writes them.
  * 3. The analysed curves go to sizeSeries (dots, bins, fits, optical pairing); the result is
  *    printed or written.
  */
@@ -358,7 +369,8 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
       color: false,
       outDir: curvesDir,
     };
-    await runAnalyzeJobs(jobs, settings, opts.jobs ?? 1, (r) => {
+    const threads = jobs.length >= SIZES_CLI_DEFAULTS.minCurvesPerPool ? (opts.jobs ?? 1) : 1;
+    await runAnalyzeJobs(jobs, settings, threads, (r) => {
       progress.tick();
       results[r.index] = r;
     });
