@@ -176,6 +176,15 @@ describe("dotspec sizes: refused options (exit 2)", () => {
   });
 });
 
+describe("dotspec sizes with stderr a terminal", () => {
+  it("draws a progress bar there and still prints the summary on stdout", async () => {
+    const r = await run(["sizes", dir], { stderrTTY: true });
+    expect(r.code).toBe(0);
+    expect(r.stdout).toContain("Per dot");
+    expect(r.stderr).toContain("sizes [");
+  }, 60_000);
+});
+
 describe("SIZES_CLI_DEFAULTS", () => {
   it("is locked", () => {
     expect(SIZES_CLI_DEFAULTS).toEqual({ minCurvesPerPool: 40 });
