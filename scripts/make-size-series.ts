@@ -16,12 +16,17 @@
 import { readFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
-import { simulateCurve, writeTextFile } from "../lib/index.ts";
-import { resolveMaterial, type Material } from "../lib/sizes/materials.ts";
-import { chargingEnergyEV } from "../lib/sizes/chargingEnergy.ts";
-import { brusGap } from "../lib/sizes/brus.ts";
-import { sphereLevelEV } from "../lib/sizes/sphereLevels.ts";
-import { COULOMB_EV_NM } from "../lib/sizes/sizeConstants.ts";
+import {
+  BRUS_DEFAULTS,
+  COULOMB_EV_NM,
+  brusGap,
+  chargingEnergyEV,
+  resolveMaterial,
+  simulateCurve,
+  sphereLevelEV,
+  writeTextFile,
+  type Material,
+} from "../lib/index.ts";
 
 /** How radii become model dots: the material, the wall model and the electrostatics. */
 export interface SeriesModel {
@@ -190,7 +195,7 @@ function main(): void {
   const optical = ["# Invented demo data (not measurements): ensemble absorption peaks of batch " + p.batch, "radius_nm,peak_ev_1,peak_ev_2"];
   for (const r of p.optical.radiiNM) {
     const lv = seriesDotLevels(r, model);
-    const jeh = (1.786 * COULOMB_EV_NM) / (material.dielectricConstant * r);
+    const jeh = (BRUS_DEFAULTS.coulombCoefficient * COULOMB_EV_NM) / (material.dielectricConstant * r);
     const p1 = lv.cb[0].energyEV - lv.vb[0].energyEV - jeh + p.optical.noiseEV * uniform();
     const p2 = lv.cb[1].energyEV - lv.vb[1].energyEV - jeh + p.optical.noiseEV * uniform();
     optical.push(`${r},${p1.toFixed(3)},${p2.toFixed(3)}`);
