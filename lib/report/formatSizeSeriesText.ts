@@ -116,7 +116,7 @@ export function formatSizeSeriesText(series: SizeSeriesJson, options: FormatSize
         })
         .join(", ");
       const chi = fit.reducedChiSquare === null ? "—" : fit.reducedChiSquare.toFixed(2);
-      out.push(`  ${fit.quantity} · ${fit.model}: ${params || "no free parameters"}; χ²_red ${chi}; ${fit.pointsUsed} points${fit.status === "ok" ? "" : ` [${fit.status}]`}`);
+      out.push(`  ${fit.quantity} · ${fit.model}: ${params || (fit.status === "failed" ? "no fit" : "no free parameters")}; χ²_red ${chi}; ${fit.pointsUsed} points${fit.status === "ok" ? "" : ` [${fit.status}]`}`);
       for (const w of fit.warnings) out.push(`      ${w}`);
     }
   }
