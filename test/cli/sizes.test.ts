@@ -7,7 +7,7 @@
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { existsSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { simulateCurve, writeTextFile, resolveMaterial, type SizeSeriesJson } from "../../lib/index.ts";
+import { listCurveFiles, readSizeMetaFile, simulateCurve, writeTextFile, resolveMaterial, type SizeSeriesJson } from "../../lib/index.ts";
 import { seriesDotLevels, seriesDotScenario, type SeriesModel } from "../../scripts/make-size-series.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { removeTempDirs, run, tempDir } from "./harness.ts";
@@ -183,6 +183,19 @@ describe("dotspec sizes with stderr a terminal", () => {
     expect(r.stdout).toContain("Per dot");
     expect(r.stderr).toContain("sizes [");
   }, 60_000);
+});
+
+describe("the bundled demo series", () => {
+  it("lives in a sub-folder that `dotspec analyze sample-curves` does not read, so the six single-curve demos stay as they were", () => {
+    expect(listCurveFiles(["sample-curves"]).map((f) => f.replace(/\\/g, "/"))).toEqual(
+      ["dot-01.csv", "dot-02.tsv", "dot-03.txt", "dot-04.csv", "dot-05.dat", "dot-06.tsv"].map((f) => `sample-curves/${f}`),
+    );
+  });
+  it("lists every curve file of its folder in META.csv except the one left unassigned on purpose", () => {
+    const listed = readSizeMetaFile("sample-curves/series/META.csv", "sample-curves/series/curves").map((r) => r.file);
+    const files = listCurveFiles(["sample-curves/series/curves"]).map((f) => f.split(/[\\/]/).pop()!);
+    expect(files.filter((f) => !listed.includes(f))).toEqual(["qd-7-s07-3.csv"]);
+  });
 });
 
 describe("SIZES_CLI_DEFAULTS", () => {
