@@ -56,3 +56,12 @@ export type { CurveFigureOptions } from "./report/curveFigure.ts";
 // Model fit.
 export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./model/fit/index.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
+
+// Size series: many dots → per-dot table, size bins, model fits, optical pairing.
+export * from "./sizes/index.ts";
+export { sizeSeriesToJson, SIZE_SERIES_JSON_VERSION, type SizeSeriesJson, type SizeDotJson } from "./report/sizeSeriesJson.ts";
+export { formatSizeSeriesText, FORMAT_SIZES_TEXT_DEFAULTS, type FormatSizeSeriesTextOptions } from "./report/formatSizeSeriesText.ts";
+export { sizeSeriesTables, SIZE_TABLE_FILES, type SizeSeriesTables, type SizeTable } from "./report/sizeSeriesTables.ts";
+// Size figures load Observable Plot (and jsdom in Node) on demand: `const sizeFigures = await loadSizeFigures()`.
+export { loadSizeFigures, SIZE_FIGURE_FILES, type SizeFiguresRenderer, type SizeFigureName } from "./report/loadSizeFigures.ts";
+export type { SizeFiguresOptions } from "./report/sizeFigures.ts";

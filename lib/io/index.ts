@@ -43,3 +43,7 @@ export {
 } from "./writeTable.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";
 export { readJsonFile } from "./readJsonFile.ts";
+export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./parseSizeMeta.ts";
+export { parseOpticalTable, OPTICAL_PEAK_RANGE_EV, type OpticalTableRow } from "./parseOpticalTable.ts";
+export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./readSizeTables.ts";
+export { sizeFromMetadata, SIZE_METADATA_KEYS, type MetadataSize } from "./sizeFromMetadata.ts";

@@ -1,0 +1,120 @@
+/**
+ * Reading the tables of a size series from disk: the size table (META.csv), whose rows must name
+ * curve files inside the series folder, and the optical table.
+ */
+import { readFileSync, statSync } from "node:fs";
+import { join } from "node:path";
+import { DotspecError } from "../util/errors.ts";
+import { parseOpticalTable, type OpticalTableRow } from "./parseOpticalTable.ts";
+import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
+
+/**
+ * Reads a small text file (a table, a material file) as UTF-8.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file.
+ * what : string
+ *     What it is, for the message ("size table", "material file").
+ *
+ * Returns
+ * -------
+ * string
+ *     Its text.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable` naming the file and the reason (no such file, a folder, permission).
+ *
+ * Example
+ * -------
+ * parseMaterialJson(readTextFile("InP-ours.json", "material file"), "InP-ours.json");
+ */
+export function readTextFile(path: string, what: string): string {
+  try {
+    return readFileSync(path, "utf8");
+  } catch (err) {
+    const code = (err as NodeJS.ErrnoException).code;
+    const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a table" : code === "EACCES" ? "permission denied" : (err as Error).message;
+    throw new DotspecError("io/unreadable", `${path}: the ${what} cannot be read (${why})`);
+  }
+}
+
+/** A size-table row with the curve file's path as it can be opened. */
+export interface SizeMetaFileRow extends SizeMetaRow {
+  /** `dir` joined with the row's file. */
+  path: string;
+}
+
+/**
+ * Reads a size table and checks that every file it names exists in the series folder.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The size table (META.csv).
+ * dir : string
+ *     The series folder the table's file names are relative to.
+ *
+ * Returns
+ * -------
+ * SizeMetaFileRow[]
+ *     The rows of {@link parseSizeMeta}, each with `path` = dir/file.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable` (the table), `io/meta-missing-file` naming the line and the file when a
+ *     file does not exist or is not a file, and every error of {@link parseSizeMeta}.
+ *
+ * Example
+ * -------
+ * readSizeMetaFile("sample-curves/series/META.csv", "sample-curves/series/curves")[0];
+ * // => { line: 3, file: "qd-7-s01-1.csv", dot: "QD-7-S01", radiusNM: 1.5, eta: 0.86, notes: null,
+ * //      path: "sample-curves/series/curves/qd-7-s01-1.csv" }
+ */
+export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
+  const rows = parseSizeMeta(readTextFile(path, "size table"), path);
+  return rows.map((row) => {
+    const full = join(dir, row.file);
+    let isFile = false;
+    try {
+      isFile = statSync(full).isFile();
+    } catch {
+      isFile = false;
+    }
+    if (!isFile) {
+      throw new DotspecError("io/meta-missing-file", `${path}: line ${row.line} (${row.file}): no such file in ${dir}; check the name, or remove the row`);
+    }
+    return { ...row, path: full };
+  });
+}
+
+/**
+ * Reads an optical table.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The table file.
+ *
+ * Returns
+ * -------
+ * OpticalTableRow[]
+ *     See {@link parseOpticalTable}.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable`, and every error of {@link parseOpticalTable}.
+ *
+ * Example
+ * -------
+ * readOpticalFile("sample-curves/series/optical.csv")[0];
+ * // => { line: 3, radiusNM: 1.5, peaksEV: [2.671, 3.581] }
+ */
+export function readOpticalFile(path: string): OpticalTableRow[] {
+  return parseOpticalTable(readTextFile(path, "optical table"), path);
+}
