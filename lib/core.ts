@@ -76,7 +76,7 @@ export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type Synth
 export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson } from "./report/analysisJson.ts";
 export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
 export { summaryRow, SUMMARY_COLUMNS, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
-export { multipletColor, MULTIPLET_COLORS } from "./report/multipletColor.ts";
+export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.
 export { loadCurveFigure, type CurveFigureRenderer } from "./report/loadCurveFigure.ts";
 export type { CurveFigureOptions } from "./report/curveFigure.ts";

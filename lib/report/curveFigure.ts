@@ -1,6 +1,7 @@
 /**
- * The figure of one analysed curve: I–V above, dI/dV below with the assigned peaks, as one
- * standalone SVG document drawn with Observable Plot.
+ * The figure of one analysed curve: I–V above, dI/dV below with the assigned peaks (and, on
+ * request, the normalised conductance), as one standalone SVG document drawn with Observable Plot.
+ * The same drawing serves the CLI's `--out` and the notebooks.
  *
  * This module loads Observable Plot when imported. The public entry point does not import it
  * statically: use {@link loadCurveFigure}, which imports it (and, in Node, jsdom) on demand.
@@ -8,8 +9,9 @@
 import * as Plot from "@observablehq/plot";
 import type { Curve } from "../curve.ts";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
+import { normalizedConductance } from "../signal/normalizedConductance.ts";
 import { DotspecError } from "../util/errors.ts";
-import { MULTIPLET_COLORS, multipletColor } from "./multipletColor.ts";
+import { MULTIPLET_COLORS, NO_MULTIPLET, multipletColor } from "./multipletColor.ts";
 
 /** Options of {@link curveFigure}. */
 export interface CurveFigureOptions {
@@ -25,8 +27,16 @@ export interface CurveFigureOptions {
   curve?: Curve;
   /** Width of the figure in px. Default 760. */
   width?: number;
-  /** Title line. Default: the source, the regime and η. */
+  /**
+   * Title line. Default: the base name of the source (the full path stays in the record), the
+   * regime and η.
+   */
   title?: string;
+  /**
+   * Add a third panel with the normalised conductance (dI/dV)/(I/V), I/V broadened as in
+   * {@link normalizedConductance} with its default width. Default false.
+   */
+  normalized?: boolean;
 }
 
 /** Layout and colours of {@link curveFigure} (locked by a test). */
@@ -36,10 +46,14 @@ export const CURVE_FIGURE_DEFAULTS = Object.freeze({
   headerHeight: 78,
   /** Height added per further row of legend, px. */
   legendRowHeight: 16,
-  /** Height of the I–V panel, px. */
-  currentPanelHeight: 190,
+  /** Height of the I–V panel (with the energy axis on top), px. */
+  currentPanelHeight: 220,
   /** Height of the dI/dV panel, px. */
   conductancePanelHeight: 290,
+  /** Height of the optional normalised-conductance panel, px. */
+  normalizedPanelHeight: 170,
+  /** Target number of ticks on the energy axis. */
+  energyTicks: 10,
   marginLeft: 72,
   marginRight: 24,
   /** Lines keep at most this many points per px of plot width (min/max per column beyond). */
@@ -56,6 +70,8 @@ export const CURVE_FIGURE_DEFAULTS = Object.freeze({
     /** The zero-conductance region. */
     gap: "#f3e3b5",
     zero: "#c9c9c9",
+    /** The normalised conductance line. */
+    normalized: "#4a4a8c",
   }),
   /** Peak dot radius, px. */
   dotRadius: 4.5,
@@ -115,6 +131,25 @@ function envelope(x: ArrayLike<number>, y: ArrayLike<number>, columns: number, s
   return { x: xs, y: ys };
 }
 
+/** The last part of a path (after the last "/" or "\\"), or the whole source when it has none. */
+export function sourceBaseName(source: string): string {
+  const i = Math.max(source.lastIndexOf("/"), source.lastIndexOf("\\"));
+  const base = i >= 0 ? source.slice(i + 1) : source;
+  return base === "" ? source : base;
+}
+
+/** Round tick values covering [lo, hi]: steps of 1, 2 or 5 × 10^k, about `count` of them. */
+function niceTicks(lo: number, hi: number, count: number): number[] {
+  const span = hi - lo;
+  if (!(span > 0) || !Number.isFinite(span)) return [];
+  const raw = span / Math.max(1, count);
+  const power = 10 ** Math.floor(Math.log10(raw));
+  const step = [1, 2, 5, 10].map((m) => m * power).find((m) => m >= raw) ?? 10 * power;
+  const out: number[] = [];
+  for (let k = Math.ceil(lo / step); k * step <= hi + step * 1e-9; k++) out.push(Number((k * step).toPrecision(12)));
+  return out;
+}
+
 /** "1499.4 mV" style number for the quantities line. */
 function mv(v: number): string {
   return `${(v * 1000).toFixed(1)} mV`;
@@ -145,17 +180,18 @@ function quantitiesLine(analysis: CurveAnalysis): string {
  *     From {@link analyzeCurve}.
  * options : CurveFigureOptions, optional
  *     `document` (required outside a browser), `curve` (for the individual sweeps), `width` in
- *     px (default 760), `title`.
+ *     px (default 760), `title`, `normalized` (default false).
  *
  * Returns
  * -------
  * string
- *     SVG markup with `xmlns="http://www.w3.org/2000/svg"` on the root: a title block (source,
- *     regime, η; the extracted quantities; a legend of the multiplets), then two panels sharing
- *     the bias axis: the current (mean, and each sweep faintly when there are several) and the
- *     smoothed dI/dV in nS with one dot per peak coloured by multiplet
- *     ({@link multipletColor}; grey for satellites and unassigned peaks), the multiplet labels,
- *     and the zero-conductance region shaded in both panels.
+ *     SVG markup with `xmlns="http://www.w3.org/2000/svg"` on the root: a title block (the
+ *     source's base name, regime, η; the extracted quantities; a legend of the multiplets), then
+ *     panels sharing the bias axis: the current (mean, and each sweep faintly when there are
+ *     several) under an energy axis in eV (η × bias), the smoothed dI/dV in nS with one dot per
+ *     peak coloured by multiplet ({@link multipletColor}; grey and "no multiplet" for satellites
+ *     and unassigned peaks), the multiplet labels, the zero-conductance region shaded, and with
+ *     `normalized` the normalised conductance; the sample-bias axis in V at the bottom.
  *
  * Throws
  * ------
@@ -170,6 +206,8 @@ function quantitiesLine(analysis: CurveAnalysis): string {
  *    each px column, which keeps every peak and step visible while bounding the file size.
  * 3. The current is drawn offset-corrected (the offset the analysis removed is removed from the
  *    sweeps too), in the SI prefix that suits its range.
+ * 4. The energy axis places round energies E at bias E/η, so it reads the same curve in eV; with
+ *    η not given it is 1 and the axis says so.
  *
  * Example
  * -------
@@ -221,16 +259,28 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     sweepMarks.push(Plot.line(all.x, { x: all.x, y: all.y, z: all.z, stroke: C.sweeps, strokeOpacity: 0.55, strokeWidth: 1 }));
   }
   const mean = envelope(biasV, sig.currentA, plotColumns, unit.scale);
+  const eta = analysis.assignment.energies.eta;
+  const energyTicks = niceTicks(Math.min(domain[0], domain[1]) * eta, Math.max(domain[0], domain[1]) * eta, D.energyTicks);
+  const energyDecimals = energyTicks.length > 1 ? Math.max(0, -Math.floor(Math.log10(energyTicks[1] - energyTicks[0]) + 1e-9)) : 1;
+  const energyLabel = analysis.assignment.energies.etaGiven ? `energy after η = ${eta} (eV)` : "energy (eV; η not given, taken as 1)";
   const top = Plot.plot({
     document,
     width,
     height: D.currentPanelHeight,
     marginLeft: D.marginLeft,
     marginRight: D.marginRight,
-    marginTop: 22,
+    marginTop: 52,
     marginBottom: 10,
     style: { background: "transparent" },
-    x: { domain, label: null, tickFormat: () => "" },
+    x: {
+      domain,
+      axis: "top",
+      ticks: energyTicks.map((e) => e / eta),
+      tickFormat: (v: number) => (v * eta).toFixed(energyDecimals).replace(/^-(?=.*[1-9])/, "−").replace(/^-/, ""),
+      label: energyLabel,
+      labelAnchor: "center",
+      labelArrow: "none",
+    },
     y: { label: `current (${unit.label})`, grid: true, nice: true },
     marks: [
       ...gapMarks(false),
@@ -270,7 +320,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
         fill,
         stroke: C.background,
         strokeWidth: 1.2,
-        title: (d: (typeof peaks)[number]) => `${d.label ?? "no multiplet"}: ${d.biasV.toFixed(4)} V ± ${d.sigmaMV.toFixed(1)} mV`,
+        title: (d: (typeof peaks)[number]) => `${d.label ?? NO_MULTIPLET}: ${d.biasV.toFixed(4)} V ± ${d.sigmaMV.toFixed(1)} mV`,
       }),
     );
     if (name !== null) {
@@ -279,6 +329,9 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
       labelMarks.push(Plot.text([{ x, y: at.heightNS }], { x: "x", y: "y", text: () => name, dy: -13, fill, fontWeight: "bold", fontSize: 12 }));
     }
   }
+  const biasAxis = { domain, label: "sample bias (V)", labelAnchor: "center", labelArrow: "none" } as const;
+  const hiddenAxis = { domain, label: null, tickFormat: () => "" };
+  const normalized = options.normalized ?? false;
   const bottom = Plot.plot({
     document,
     width,
@@ -286,9 +339,9 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     marginLeft: D.marginLeft,
     marginRight: D.marginRight,
     marginTop: 22,
-    marginBottom: 40,
+    marginBottom: normalized ? 10 : 40,
     style: { background: "transparent" },
-    x: { domain, label: "sample bias (V)", labelAnchor: "center", labelArrow: "none" },
+    x: normalized ? hiddenAxis : biasAxis,
     y: { label: "dI/dV (nS)", grid: true, domain: [yMin, yMax > 0 ? yMax * 1.15 : 1] },
     marks: [
       ...gapMarks(true),
@@ -299,6 +352,28 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     ],
   });
 
+  // Optional third panel: the normalised conductance.
+  const panels = [top, bottom];
+  if (normalized) {
+    const nc = normalizedConductance(sig);
+    const line = envelope(biasV, nc.normalized, plotColumns, 1);
+    panels.push(
+      Plot.plot({
+        document,
+        width,
+        height: D.normalizedPanelHeight,
+        marginLeft: D.marginLeft,
+        marginRight: D.marginRight,
+        marginTop: 16,
+        marginBottom: 40,
+        style: { background: "transparent" },
+        x: biasAxis,
+        y: { label: `(dI/dV)/(I/V), ΔV = ${nc.broadeningV} V (1)`, grid: true, nice: true },
+        marks: [...gapMarks(false), Plot.ruleY([0], { stroke: C.zero }), Plot.line(line.x, { x: line.x, y: line.y, stroke: C.normalized, strokeWidth: 1.5 })],
+      }),
+    );
+  }
+
   // Legend entries: one swatch per multiplet, then "no multiplet" and the gap; laid out in rows
   // that fit the width (text width estimated at 6.2 px per character of 11 px type).
   const a = analysis.assignment;
@@ -306,7 +381,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     `${m.label} (${m.band}, ${m.found}${m.expected === null ? "" : "/" + m.expected} peak${(m.expected ?? m.found) === 1 ? "" : "s"})`,
     multipletColor(m.label),
   ]);
-  if (peaks.some((p) => p.label === null)) entries.push(["no multiplet", MULTIPLET_COLORS.none]);
+  if (peaks.some((p) => p.label === null)) entries.push([NO_MULTIPLET, MULTIPLET_COLORS.none]);
   if (gap) entries.push(["zero-conductance region", C.gap]);
   const placed: { text: string; fill: string; x: number; row: number }[] = [];
   let lx = 0;
@@ -323,7 +398,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   const headerHeight = D.headerHeight + row * D.legendRowHeight;
 
   // Compose one SVG document.
-  const height = headerHeight + D.currentPanelHeight + D.conductancePanelHeight;
+  const height = headerHeight + D.currentPanelHeight + D.conductancePanelHeight + (normalized ? D.normalizedPanelHeight : 0);
   const el = (name: string, attrs: Record<string, string | number>, text?: string) => {
     const e = document.createElementNS(SVG_NS, name);
     for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
@@ -338,8 +413,8 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     "font-family": D.fontFamily,
     "font-size": 12,
   });
-  const eta = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
-  const title = options.title ?? `${analysis.source}  —  ${REGIME_WORDS[a.regime]}, ${eta}`;
+  const etaText = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
+  const title = options.title ?? `${sourceBaseName(analysis.source)}  —  ${REGIME_WORDS[a.regime]}, ${etaText}`;
   root.append(
     el("title", {}, title),
     el("rect", { width, height, fill: C.background }),
@@ -354,12 +429,15 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   root.append(legend);
   // Plot's stylesheet is meant for HTML pages (display: block; height: auto), which would resize
   // a nested <svg>; the panels need none of it.
-  for (const panel of [top, bottom]) for (const style of Array.from(panel.querySelectorAll("style"))) style.remove();
-  top.setAttribute("x", "0");
-  top.setAttribute("y", String(headerHeight));
-  bottom.setAttribute("x", "0");
-  bottom.setAttribute("y", String(headerHeight + D.currentPanelHeight));
-  root.append(top, bottom);
+  let y = headerHeight;
+  const heights = [D.currentPanelHeight, D.conductancePanelHeight, D.normalizedPanelHeight];
+  panels.forEach((panel, i) => {
+    for (const style of Array.from(panel.querySelectorAll("style"))) style.remove();
+    panel.setAttribute("x", "0");
+    panel.setAttribute("y", String(y));
+    y += heights[i];
+    root.append(panel);
+  });
   return serialize(root);
 }
 

@@ -3,6 +3,7 @@
  * Works on the JSON record only, so notebooks and scripts can print saved records the same way.
  */
 import type { AnalysisJson } from "./analysisJson.ts";
+import { NO_MULTIPLET } from "./multipletColor.ts";
 
 /** Options of {@link formatAnalysisText}. */
 export interface FormatAnalysisTextOptions {
@@ -86,7 +87,8 @@ function sig3(x: number): string {
  * string
  *     Lines ending in `\n`: a header line (source, regime, η and whether it was given); the
  *     settings used; a peak table (bias in V, 1σ in mV, height in nS, FWHM in mV, SNR, multiplet
- *     label or "—"); a multiplet table (band, label, found/expected, sub-groups, peak positions);
+ *     label or "no multiplet"); a multiplet table (band, label, found/expected, sub-groups, peak
+ *     positions) and the peaks set aside as charging satellites;
  *     the extracted quantities bias-referred in mV and as energies in meV after η
  *     (`Ec = 142.3 ± 1.8 mV  →  121.0 ± 1.5 meV (η = 0.85)`), and the warnings.
  *
@@ -131,7 +133,7 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
       sig3(p.height * 1e9),
       (p.fwhmV * 1000).toFixed(1),
       p.snr >= 10 ? p.snr.toFixed(0) : p.snr.toFixed(1),
-      p.multiplet ?? (json.evidence.satellitePeaksV.includes(p.biasV) ? "satellite" : D.missing),
+      p.multiplet ?? NO_MULTIPLET,
     ]);
     out.push(
       ...table(
@@ -158,6 +160,10 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
     const headers = ["band", "label", "found/expected", ...(split ? ["split"] : []), "peaks (V)"];
     const align: Align[] = ["left", "left", "right", ...(split ? (["left"] as Align[]) : []), "left"];
     out.push(...table(headers, rows, align, I + I));
+  }
+  if (json.evidence.satellitePeaksV.length) {
+    const list = json.evidence.satellitePeaksV.map((v) => v.toFixed(D.biasDecimals)).join("  ");
+    out.push(`${I}${I}${faint(`set aside as charging satellites (${NO_MULTIPLET}): ${list} V`)}`);
   }
 
   // Quantities.
