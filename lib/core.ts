@@ -82,5 +82,6 @@ export { loadCurveFigure, type CurveFigureRenderer } from "./report/loadCurveFig
 export type { CurveFigureOptions } from "./report/curveFigure.ts";
 
 // Model fit.
-export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./model/fitCurve.ts";
+export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed } from "./model/fitCurve.ts";
+export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";

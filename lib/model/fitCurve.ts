@@ -95,7 +95,8 @@ export interface CurveFit {
   warnings: string[];
 }
 
-interface LevelSeed {
+/** A level the fit starts from (see {@link fitStart}). */
+export interface LevelSeed {
   band: "CB" | "VB";
   label: string;
   degeneracy: number;
@@ -146,6 +147,70 @@ function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
   return seeds;
 }
 
+/** Where {@link fitCurve} starts: the levels and parameters read from the peak-based assignment. */
+export interface FitStart {
+  /** Levels in the order of the assignment (CB then VB), each with its band, label and degeneracy. */
+  seeds: LevelSeed[];
+  /** |ε| of each seed in eV, same order (CB levels at +ε, VB levels at −ε). */
+  levelMagnitudesEV: number[];
+  /** Starting charging energy Ec, eV. */
+  chargingEnergyEV: number;
+  /** Starting Γtip/Γsub. */
+  rateRatio: number;
+  /** Starting Gaussian level broadening σ, eV. */
+  broadeningEV: number;
+  /** η used (held fixed by the fit). */
+  eta: number;
+  /** Temperature, K. */
+  temperatureK: number;
+}
+
+/**
+ * The start of {@link fitCurve}: levels, Ec, rate ratio and broadening from an analysis.
+ *
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     From {@link analyzeCurve}.
+ * options : FitOptions, optional
+ *     `eta` (default the analysis' η), `temperatureK` (default 4.5), `chargingEnergyGuessEV`
+ *     (default 0.1 eV, used outside shell filling); other fields are ignored here.
+ *
+ * Returns
+ * -------
+ * FitStart
+ *     See Notes 1 of {@link fitCurve} for the rules.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `fit/no-levels` when the assignment gives no level; the checks of `eta` and `temperatureK`.
+ *
+ * Example
+ * -------
+ * fitStart(analyzeCurve(curve, { eta: 0.85 })).seeds.map((s) => s.label); // => ["s", "p", "v1"]
+ */
+export function fitStart(analysis: CurveAnalysis, options: FitOptions = {}): FitStart {
+  const F = FIT_DEFAULTS;
+  const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkRange("eta", options.eta, 1e-6, 1);
+  const temperatureK = checkPositive("temperatureK", options.temperatureK ?? F.temperatureK);
+  const seeds = seedLevels(analysis);
+  if (!seeds.length) {
+    throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
+  }
+  const filling = analysis.assignment.regime === "shell-filling";
+  const ec0 = analysis.assignment.energies.chargingEnergyEV ?? (options.chargingEnergyGuessEV ?? F.chargingEnergyGuessEV);
+  return {
+    seeds,
+    levelMagnitudesEV: seeds.map((s) => eta * Math.abs(s.firstPeakV) - ec0 * (s.before + 0.5)),
+    chargingEnergyEV: ec0,
+    rateRatio: filling ? 10 : analysis.assignment.regime === "shell-tunneling" ? 0.02 : 1,
+    broadeningEV: Math.max(1e-4, ((analysis.settings.peakWidthMV / 1000) * eta) / 2.3548),
+    eta,
+    temperatureK,
+  };
+}
+
 /**
  * Fits the model of a dot in a double-barrier junction to one measured curve.
  *
@@ -175,18 +240,13 @@ function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
 export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): CurveFit {
   checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV"]);
   const F = FIT_DEFAULTS;
-  const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkRange("eta", options.eta, 1e-6, 1);
-  const temperatureK = checkPositive("temperatureK", options.temperatureK ?? F.temperatureK);
+  const start = fitStart(analysis, options);
+  const { seeds, eta, temperatureK } = start;
   const maxIterations = checkPositive("maxIterations", options.maxIterations ?? F.maxIterations);
   const timeLimitMs = checkPositive("timeLimitMs", options.timeLimitMs ?? F.timeLimitMs);
   const maxPoints = checkPositive("maxPoints", options.maxPoints ?? F.maxPoints);
   const warnings: string[] = [];
   if (!analysis.assignment.energies.etaGiven && options.eta === undefined) warnings.push("eta not given: the fit used η = 1");
-
-  const seeds = seedLevels(analysis);
-  if (!seeds.length) {
-    throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
-  }
   if (analysis.assignment.regime === "undetermined") warnings.push("regime undetermined: the fit starts from single levels");
 
   // Data, thinned evenly.
@@ -198,11 +258,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const n = biasV.length;
 
   // Start values.
-  const filling = analysis.assignment.regime === "shell-filling";
-  const ec0 = analysis.assignment.energies.chargingEnergyEV ?? (options.chargingEnergyGuessEV ?? F.chargingEnergyGuessEV);
-  const levels0 = seeds.map((s) => eta * Math.abs(s.firstPeakV) - ec0 * (s.before + 0.5));
-  const ratio0 = filling ? 10 : analysis.assignment.regime === "shell-tunneling" ? 0.02 : 1;
-  const sigma0 = Math.max(1e-4, ((analysis.settings.peakWidthMV / 1000) * eta) / 2.3548);
+  const levels0 = start.levelMagnitudesEV;
+  const ec0 = start.chargingEnergyEV;
+  const ratio0 = start.rateRatio;
+  const sigma0 = start.broadeningEV;
   // Nonlinear parameters: |ε| per level, Ec, log10 r, log10 σ.
   const p0 = [...levels0, ec0, Math.log10(ratio0), Math.log10(sigma0)];
   const nl = seeds.length;

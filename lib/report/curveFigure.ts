@@ -12,6 +12,9 @@ import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import { normalizedConductance } from "../signal/normalizedConductance.ts";
 import { DotspecError } from "../util/errors.ts";
 import { MULTIPLET_COLORS, NO_MULTIPLET, multipletColor } from "./multipletColor.ts";
+import { currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
+
+export { sourceBaseName };
 
 /** Options of {@link curveFigure}. */
 export interface CurveFigureOptions {
@@ -84,71 +87,6 @@ const REGIME_WORDS: Record<CurveAnalysis["assignment"]["regime"], string> = {
   "shell-tunneling": "shell tunnelling",
   undetermined: "regime undetermined",
 };
-
-/** Current unit for the I–V axis: the prefix that puts the largest |I| between 1 and 1000. */
-function currentUnit(currentA: ArrayLike<number>): { label: string; scale: number } {
-  let m = 0;
-  for (let i = 0; i < currentA.length; i++) m = Math.max(m, Math.abs(currentA[i]));
-  const units: [string, number][] = [["fA", 1e15], ["pA", 1e12], ["nA", 1e9], ["µA", 1e6], ["mA", 1e3]];
-  for (const [label, scale] of units) if (m * scale < 1000) return { label, scale };
-  return { label: "A", scale: 1 };
-}
-
-/**
- * Keeps the shape of a long line for a plot `columns` px wide: the first, lowest, highest and last
- * point of each column (in bias order), so no peak or step is lost. Short lines are returned whole.
- */
-function envelope(x: ArrayLike<number>, y: ArrayLike<number>, columns: number, scale: number): { x: number[]; y: number[] } {
-  const n = x.length;
-  const xs: number[] = [];
-  const ys: number[] = [];
-  if (n <= 4 * columns) {
-    for (let i = 0; i < n; i++) {
-      xs.push(x[i]);
-      ys.push(y[i] * scale);
-    }
-    return { x: xs, y: ys };
-  }
-  const x0 = x[0];
-  const span = x[n - 1] - x0 || 1;
-  let start = 0;
-  while (start < n) {
-    const col = Math.min(columns - 1, Math.floor(((x[start] - x0) / span) * columns));
-    let end = start;
-    while (end + 1 < n && Math.min(columns - 1, Math.floor(((x[end + 1] - x0) / span) * columns)) === col) end++;
-    let lo = start;
-    let hi = start;
-    for (let i = start; i <= end; i++) {
-      if (y[i] < y[lo]) lo = i;
-      if (y[i] > y[hi]) hi = i;
-    }
-    for (const i of [...new Set([start, Math.min(lo, hi), Math.max(lo, hi), end])]) {
-      xs.push(x[i]);
-      ys.push(y[i] * scale);
-    }
-    start = end + 1;
-  }
-  return { x: xs, y: ys };
-}
-
-/** The last part of a path (after the last "/" or "\\"), or the whole source when it has none. */
-export function sourceBaseName(source: string): string {
-  const i = Math.max(source.lastIndexOf("/"), source.lastIndexOf("\\"));
-  const base = i >= 0 ? source.slice(i + 1) : source;
-  return base === "" ? source : base;
-}
-
-/** Round tick values covering [lo, hi]: steps of 1, 2 or 5 × 10^k, about `count` of them. */
-function niceTicks(lo: number, hi: number, count: number): number[] {
-  const span = hi - lo;
-  if (!(span > 0) || !Number.isFinite(span)) return [];
-  const raw = span / Math.max(1, count);
-  const power = 10 ** Math.floor(Math.log10(raw));
-  const step = [1, 2, 5, 10].map((m) => m * power).find((m) => m >= raw) ?? 10 * power;
-  const out: number[] = [];
-  for (let k = Math.ceil(lo / step); k * step <= hi + step * 1e-9; k++) out.push(Number((k * step).toPrecision(12)));
-  return out;
-}
 
 /** "1499.4 mV" style number for the quantities line. */
 function mv(v: number): string {
@@ -259,10 +197,6 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     sweepMarks.push(Plot.line(all.x, { x: all.x, y: all.y, z: all.z, stroke: C.sweeps, strokeOpacity: 0.55, strokeWidth: 1 }));
   }
   const mean = envelope(biasV, sig.currentA, plotColumns, unit.scale);
-  const eta = analysis.assignment.energies.eta;
-  const energyTicks = niceTicks(Math.min(domain[0], domain[1]) * eta, Math.max(domain[0], domain[1]) * eta, D.energyTicks);
-  const energyDecimals = energyTicks.length > 1 ? Math.max(0, -Math.floor(Math.log10(energyTicks[1] - energyTicks[0]) + 1e-9)) : 1;
-  const energyLabel = analysis.assignment.energies.etaGiven ? `energy after η = ${eta} (eV)` : "energy (eV; η not given, taken as 1)";
   const top = Plot.plot({
     document,
     width,
@@ -272,15 +206,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     marginTop: 52,
     marginBottom: 10,
     style: { background: "transparent" },
-    x: {
-      domain,
-      axis: "top",
-      ticks: energyTicks.map((e) => e / eta),
-      tickFormat: (v: number) => (v * eta).toFixed(energyDecimals).replace(/^-(?=.*[1-9])/, "−").replace(/^-/, ""),
-      label: energyLabel,
-      labelAnchor: "center",
-      labelArrow: "none",
-    },
+    x: energyAxis(domain, analysis.assignment.energies, D.energyTicks),
     y: { label: `current (${unit.label})`, grid: true, nice: true },
     marks: [
       ...gapMarks(false),
