@@ -5,7 +5,7 @@
  * loader. The notebooks import only this module; `lib/index.ts` re-exports it and adds file I/O.
  */
 export type { Curve, CurveMeta } from "./curve.ts";
-export { DotspecError, isDotspecError } from "./util/errors.ts";
+export { DotspecError, failureReason, isDotspecError } from "./util/errors.ts";
 export * as constants from "./util/constants.ts";
 export { seededRandom, type SeededRandom } from "./util/random.ts";
 
@@ -78,8 +78,9 @@ export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOption
 export { summaryRow, SUMMARY_COLUMNS, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
 export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.
-export { loadCurveFigure, type CurveFigureRenderer } from "./report/loadCurveFigure.ts";
+export { loadCurveFigure, loadModelFigure, type CurveFigureRenderer, type ModelFigureRenderer } from "./report/loadCurveFigure.ts";
 export type { CurveFigureOptions } from "./report/curveFigure.ts";
+export type { ModelCurve, ModelFigureOptions } from "./report/modelFigure.ts";
 
 // Model fit.
 export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed } from "./model/fitCurve.ts";
