@@ -75,6 +75,7 @@ export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type Synth
 // Reports.
 export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson } from "./report/analysisJson.ts";
 export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
+export { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
 export { summaryRow, SUMMARY_COLUMNS, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
 export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.

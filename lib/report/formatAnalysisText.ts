@@ -4,6 +4,7 @@
  */
 import type { AnalysisJson } from "./analysisJson.ts";
 import { NO_MULTIPLET } from "./multipletColor.ts";
+import { formatUncertain } from "./formatUncertain.ts";
 
 /** Options of {@link formatAnalysisText}. */
 export interface FormatAnalysisTextOptions {
@@ -48,18 +49,9 @@ function table(headers: string[], rows: string[][], align: Align[], indent: stri
   return [line(headers), ...rows.map(line)];
 }
 
-/** Number of decimals that shows `sigma` with the configured significant digits (0…maxDecimals). */
-function decimalsFor(sigma: number | null): number {
-  const D = FORMAT_TEXT_DEFAULTS;
-  if (sigma === null || !(sigma > 0) || !Number.isFinite(sigma)) return 1;
-  const d = D.uncertaintyDigits - 1 - Math.floor(Math.log10(sigma));
-  return Math.min(D.maxDecimals, Math.max(0, d));
-}
-
 /** "142.3 ± 1.8" (value and σ already in display units), or the value alone without a σ. */
 function withSigma(value: number, sigma: number | null): string {
-  const d = decimalsFor(sigma);
-  return sigma === null || !Number.isFinite(sigma) ? value.toFixed(d) : `${value.toFixed(d)} ± ${sigma.toFixed(d)}`;
+  return formatUncertain(value, sigma, { digits: FORMAT_TEXT_DEFAULTS.uncertaintyDigits, maxDecimals: FORMAT_TEXT_DEFAULTS.maxDecimals });
 }
 
 /** Three significant digits without exponent for everyday magnitudes. */
