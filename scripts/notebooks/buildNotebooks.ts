@@ -57,8 +57,14 @@ export function buildIsStale(out = NOTEBOOK_PATHS.out): boolean {
 export async function buildNotebooks(out = NOTEBOOK_PATHS.out): Promise<string> {
   const { build } = await import("vite");
   const { config, observable } = await import("@observablehq/notebook-kit/vite");
+  const kit = config();
+  // Only the kit's own `observable:` alias is kept: its `npm:` and `jsr:` aliases would turn an
+  // import into a CDN URL fetched at run time, which an offline page must never do.
+  type Alias = { find: RegExp | string; replacement: string };
+  const alias = ((kit.resolve?.alias ?? []) as unknown as Alias[]).filter((a) => String(a.find).includes("observable:"));
   await build({
-    ...config(),
+    ...kit,
+    resolve: { ...kit.resolve, alias },
     configFile: false,
     logLevel: "warn",
     plugins: [observable({ template: NOTEBOOK_PATHS.template })],
