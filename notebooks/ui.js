@@ -3,10 +3,44 @@
 // happens here: the notebooks call the library (lib/core.ts) for that.
 import { html } from "htl";
 
+/** Where the chosen curve is kept between the notebooks: this tab's session storage (never sent). */
+const REMEMBER_KEY = "dotspec-notebooks-curve";
+/** Files larger than this are not remembered between pages (session storage is small). */
+const REMEMBER_MAX_BYTES = 2_000_000;
+
+function toBase64(bytes) {
+  let text = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return btoa(text);
+}
+
+function fromBase64(b64) {
+  return Uint8Array.from(atob(b64), (c) => c.charCodeAt(0));
+}
+
+/** The curve chosen last in this tab, if any: a sample index or a file's name and bytes. */
+function remembered() {
+  try {
+    const saved = JSON.parse(sessionStorage.getItem(REMEMBER_KEY) ?? "null");
+    return saved && (typeof saved.sample === "number" || (typeof saved.name === "string" && typeof saved.bytes === "string")) ? saved : null;
+  } catch {
+    return null;
+  }
+}
+
+function remember(saved) {
+  try {
+    sessionStorage.setItem(REMEMBER_KEY, JSON.stringify(saved));
+  } catch {
+    // Storage full or disabled: the next page starts from the first sample.
+  }
+}
+
 /**
  * A picker for one curve: a bundled sample, a file chosen with the file picker, or a file
  * dropped on the zone. Its value is whichever was chosen last: an object with `name` and
- * `arrayBuffer()` (a bundled sample or a File). Files are read in the page only.
+ * `arrayBuffer()` (a bundled sample or a File). Files are read in the page only; the choice is
+ * kept in this tab's session storage, so the other notebook opens on the same curve.
  *
  * @param {{name: string, file: {arrayBuffer(): Promise<ArrayBuffer>}}[]} samples - bundled curves
  *   under their own names (a built page renames its files).
@@ -23,15 +57,27 @@ export function curvePicker(samples, { label = "Curve" } = {}) {
     <div class="dotspec-hint">…or drop a file here. Files are read in this page only; nothing is sent anywhere.</div>
     <div>Showing: ${status}</div>
   </div>`;
-  const set = (value) => {
+  const show = (value) => {
     zone.value = value;
     status.textContent = value.name;
+  };
+  const set = (value) => {
+    show(value);
     zone.dispatchEvent(new Event("input", { bubbles: true }));
   };
   const sample = (i) => ({ name: samples[i].name, arrayBuffer: () => samples[i].file.arrayBuffer() });
-  select.addEventListener("change", () => set(sample(Number(select.value))));
+  const chooseFile = (f) => {
+    set(f);
+    f.arrayBuffer().then((buffer) => {
+      if (buffer.byteLength <= REMEMBER_MAX_BYTES) remember({ name: f.name, bytes: toBase64(new Uint8Array(buffer)) });
+    }, () => {});
+  };
+  select.addEventListener("change", () => {
+    set(sample(Number(select.value)));
+    remember({ sample: Number(select.value) });
+  });
   file.addEventListener("change", () => {
-    if (file.files && file.files.length) set(file.files[0]);
+    if (file.files && file.files.length) chooseFile(file.files[0]);
   });
   zone.addEventListener("dragover", (event) => {
     event.preventDefault();
@@ -42,10 +88,16 @@ export function curvePicker(samples, { label = "Curve" } = {}) {
     event.preventDefault();
     zone.classList.remove("dotspec-drop-over");
     const dropped = event.dataTransfer && event.dataTransfer.files;
-    if (dropped && dropped.length) set(dropped[0]);
+    if (dropped && dropped.length) chooseFile(dropped[0]);
   });
-  zone.value = sample(0);
-  status.textContent = samples[0].name;
+  const saved = remembered();
+  if (saved && typeof saved.sample === "number" && saved.sample < samples.length) {
+    select.value = String(saved.sample);
+    show(sample(saved.sample));
+  } else if (saved && typeof saved.name === "string") {
+    const bytes = fromBase64(saved.bytes);
+    show({ name: saved.name, arrayBuffer: async () => bytes.buffer });
+  } else show(sample(0));
   return zone;
 }
 

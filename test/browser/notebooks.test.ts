@@ -199,6 +199,29 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await page.close();
   });
 
+  it("the curve chosen in one notebook opens in the other (kept in the tab, not sent anywhere)", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    await page.locator("[data-testid=sample-select]").selectOption({ label: "dot-03.txt" });
+    await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dot-03.txt");
+    await page.goto(served.url + "model.html");
+    await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("dot-03.txt");
+    expect(await page.locator("[data-testid=sample-select]").inputValue()).toBe("2");
+    const text = readFileSync(join(ROOT, "sample-curves", "dot-02.tsv"), "utf8");
+    const transfer = await page.evaluateHandle((t) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([t], "my-dot.tsv", { type: "text/tab-separated-values" }));
+      return dt;
+    }, text);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
+    await page.goto(served.url + "curve.html");
+    await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
+    expect(await page.locator("[data-testid=picked]").textContent()).toBe("my-dot.tsv");
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
   it("one curve: bad files give the CLI's one-line reason in the page, and no cell breaks", async () => {
     const page = await open("curve.html");
     await page.locator("[data-testid=curve-figure] > svg").waitFor();
