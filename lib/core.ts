@@ -86,4 +86,5 @@ export type { ModelCurve, ModelFigureOptions } from "./report/modelFigure.ts";
 // Model fit.
 export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed } from "./model/fitCurve.ts";
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
+export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";

@@ -315,6 +315,8 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await page.locator("[data-testid=fit-values]").waitFor({ timeout: 20_000 });
     expect(await page.locator("[data-testid=fit-status]").getAttribute("data-converged")).toBe("true");
     await expect.poll(panels).toBe(3);
+    // The controls now start from the fit.
+    await page.locator(".dotspec-note:has-text('The controls hold the fitted values')").waitFor();
     expect(await page.locator("[data-testid=model-figure]").textContent()).toContain("residual, data − fitted model (pA)");
     const rows = await page.locator("[data-testid=fit-values] tbody tr").allTextContents();
     expect(rows.some((r) => r.startsWith("charging energy Ec") && r.includes("±"))).toBe(true);
