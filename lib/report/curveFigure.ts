@@ -14,8 +14,6 @@ import { DotspecError } from "../util/errors.ts";
 import { MULTIPLET_COLORS, NO_MULTIPLET, multipletColor } from "./multipletColor.ts";
 import { currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
 
-export { sourceBaseName };
-
 /** Options of {@link curveFigure}. */
 export interface CurveFigureOptions {
   /**

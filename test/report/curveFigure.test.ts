@@ -2,7 +2,7 @@
 // snapshot with numbers rounded (the habit of Observable Plot's own tests).
 import { describe, it, expect } from "vitest";
 import { JSDOM } from "jsdom";
-import { curveFigure, CURVE_FIGURE_DEFAULTS, sourceBaseName } from "../../lib/report/curveFigure.ts";
+import { curveFigure, CURVE_FIGURE_DEFAULTS } from "../../lib/report/curveFigure.ts";
 import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, DotspecError, analyzeCurve } from "../../lib/index.ts";
 import { simulatedAnalysis } from "./fixture.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -133,13 +133,6 @@ describe("curveFigure(analysis, options)", () => {
     const title = parseXml(svg).documentElement.getElementsByTagName("title")[0].textContent;
     expect(title).toBe("dot-filling.csv  —  shell filling, η = 0.8");
     expect(analysis.source).toBe("dots/dot-filling.csv");
-  });
-
-  it("sourceBaseName(path) keeps the part after the last / or \\ (common practice, no source)", () => {
-    expect(sourceBaseName("a/b/dot-1.csv")).toBe("dot-1.csv");
-    expect(sourceBaseName("C:\\data\\dot-2.tsv")).toBe("dot-2.tsv");
-    expect(sourceBaseName("dot-3.dat")).toBe("dot-3.dat");
-    expect(sourceBaseName("folder/")).toBe("folder/");
   });
 
   it("labels every axis with its unit, and puts an energy axis (eV) whose ticks sit at E/η on the bias axis", () => {
