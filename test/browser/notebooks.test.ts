@@ -195,6 +195,9 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dropped-dot.csv");
     // The file's semicolon layout with a lock-in column: the measured dI/dV control is offered.
     expect(await checkbox(page, "use the measured dI/dV column").isDisabled()).toBe(false);
+    await checkbox(page, "use the measured dI/dV column").check();
+    await expect.poll(() => page.locator("[data-testid=settings]").textContent()).toContain("measured dI/dV");
+    expect(await page.locator("[data-testid=peak-table] tbody tr").count()).toBeGreaterThan(0);
     expect(await errorCells(page)).toBe(0);
     await page.close();
   });
