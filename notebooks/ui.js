@@ -159,11 +159,47 @@ export function note(text) {
   return html`<div class="dotspec-note">${text}</div>`;
 }
 
-/** SVG markup (from the library's figure code) as an element. */
-export function figure(svgMarkup, testid) {
+/**
+ * SVG markup (from the library's figure code) as an element. When the figure says how its panels
+ * map bias to px (its `data-*` axis attributes), a line follows the pointer across the panels and
+ * a line of text below reads the bias, the energy after η and whatever `describe(biasV)` adds.
+ *
+ * @param {string} svgMarkup
+ * @param {string} [testid]
+ * @param {{describe?: (biasV: number) => string}} [options]
+ */
+export function figure(svgMarkup, testid, { describe } = {}) {
   const div = html`<div class="dotspec-figure"></div>`;
   if (testid) div.dataset.testid = testid;
   div.innerHTML = svgMarkup;
+  const svg = div.querySelector(":scope > svg");
+  if (!svg || !svg.hasAttribute("data-bias-range-v")) return div;
+  const numbers = (name) => svg.getAttribute(name).split(" ").map(Number);
+  const [v0, v1] = numbers("data-bias-range-v");
+  const [x0, x1] = numbers("data-plot-x-px");
+  const [y0, y1] = numbers("data-panels-y-px");
+  const eta = Number(svg.getAttribute("data-eta"));
+  const line = document.createElementNS("http://www.w3.org/2000/svg", "line");
+  for (const [k, v] of Object.entries({ y1: y0, y2: y1, stroke: "#5c5c60", "stroke-dasharray": "3,3", visibility: "hidden", "pointer-events": "none" })) line.setAttribute(k, String(v));
+  svg.append(line);
+  const hint = "Point at the figure to read the bias and the energy.";
+  const readout = html`<div class="dotspec-note" data-testid="readout">${hint}</div>`;
+  div.append(readout);
+  svg.addEventListener("pointermove", (event) => {
+    const box = svg.getBoundingClientRect();
+    const px = ((event.clientX - box.left) * svg.viewBox.baseVal.width) / box.width;
+    if (px < x0 || px > x1) return;
+    const biasV = v0 + ((px - x0) / (x1 - x0)) * (v1 - v0);
+    line.setAttribute("x1", String(px));
+    line.setAttribute("x2", String(px));
+    line.setAttribute("visibility", "visible");
+    const more = describe ? describe(biasV) : "";
+    readout.textContent = `bias ${biasV.toFixed(3)} V · energy ${(eta * biasV).toFixed(3)} eV (η = ${eta})${more ? ` · ${more}` : ""}`;
+  });
+  svg.addEventListener("pointerleave", () => {
+    line.setAttribute("visibility", "hidden");
+    readout.textContent = hint;
+  });
   return div;
 }
 

@@ -12,7 +12,7 @@ import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import { normalizedConductance } from "../signal/normalizedConductance.ts";
 import { DotspecError } from "../util/errors.ts";
 import { MULTIPLET_COLORS, NO_MULTIPLET, multipletColor } from "./multipletColor.ts";
-import { currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
+import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
 
 /** Options of {@link curveFigure}. */
 export interface CurveFigureOptions {
@@ -127,7 +127,9 @@ function quantitiesLine(analysis: CurveAnalysis): string {
  *     several) under an energy axis in eV (η × bias), the smoothed dI/dV in nS with one dot per
  *     peak coloured by multiplet ({@link multipletColor}; grey and "no multiplet" for satellites
  *     and unassigned peaks), the multiplet labels, the zero-conductance region shaded, and with
- *     `normalized` the normalised conductance; the sample-bias axis in V at the bottom.
+ *     `normalized` the normalised conductance; the sample-bias axis in V at the bottom. The root
+ *     carries `data-bias-range-v`, `data-plot-x-px`, `data-panels-y-px` and `data-eta`, so a page
+ *     can map the pointer to a bias.
  *
  * Throws
  * ------
@@ -336,6 +338,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     viewBox: `0 0 ${width} ${height}`,
     "font-family": D.fontFamily,
     "font-size": 12,
+    ...axisAttributes(domain, [D.marginLeft, width - D.marginRight], [headerHeight, height], a.energies.eta),
   });
   const etaText = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
   const title = options.title ?? `${sourceBaseName(analysis.source)}  —  ${REGIME_WORDS[a.regime]}, ${etaText}`;

@@ -87,3 +87,17 @@ export function energyAxis(domain: [number, number], energies: { eta: number; et
     labelArrow: "none" as const,
   };
 }
+
+/**
+ * Attributes that tell a page how the figure's panels map bias to px, so it can follow the
+ * pointer across them: the bias range (V) and the px range of the plot area (of the figure's
+ * viewBox), the panels' top and bottom (px), and η.
+ */
+export function axisAttributes(domain: [number, number], plotX: [number, number], panelsY: [number, number], eta: number): Record<string, string> {
+  return {
+    "data-bias-range-v": `${domain[0]} ${domain[1]}`,
+    "data-plot-x-px": `${plotX[0]} ${plotX[1]}`,
+    "data-panels-y-px": `${panelsY[0]} ${panelsY[1]}`,
+    "data-eta": String(eta),
+  };
+}

@@ -10,7 +10,7 @@ import * as Plot from "@observablehq/plot";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { CurveFit } from "../model/fitCurve.ts";
 import { DotspecError } from "../util/errors.ts";
-import { currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
+import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
 
 /** A model curve to draw: `simulateCurve`'s result fits as it is. */
 export interface ModelCurve {
@@ -86,7 +86,8 @@ const SVG_NS = "http://www.w3.org/2000/svg";
  *     SVG markup: a title block with a legend, then panels sharing the bias axis: the current in
  *     the SI prefix that suits it under an energy axis in eV (η × bias), with the model and the
  *     fitted model; the dI/dV in nS with the model's dI/dV; with a fit, its residuals
- *     (data − fitted model) in the same current unit over the ±1σ band of the current noise.
+ *     (data − fitted model) in the same current unit over the ±1σ band of the current noise. The
+ *     root carries the same `data-*` axis attributes as {@link curveFigure}.
  *
  * Throws
  * ------
@@ -187,7 +188,15 @@ export function modelFigure(analysis: CurveAnalysis, options: ModelFigureOptions
     if (text !== undefined) e.textContent = text;
     return e;
   };
-  const root = el("svg", { xmlns: SVG_NS, width, height, viewBox: `0 0 ${width} ${height}`, "font-family": D.fontFamily, "font-size": 12 });
+  const root = el("svg", {
+    xmlns: SVG_NS,
+    width,
+    height,
+    viewBox: `0 0 ${width} ${height}`,
+    "font-family": D.fontFamily,
+    "font-size": 12,
+    ...axisAttributes(domain, [D.marginLeft, width - D.marginRight], [D.headerHeight, height], analysis.assignment.energies.eta),
+  });
   const title = options.title ?? `${sourceBaseName(analysis.source)}  —  measured curve and model`;
   root.append(el("title", {}, title), el("rect", { width, height, fill: C.background }), el("text", { x: 16, y: 24, "font-size": 15, "font-weight": 600, fill: C.title }, title));
   const g = el("g", { transform: "translate(16, 40)", "font-size": 11, fill: C.subtitle });

@@ -182,6 +182,27 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await page.close();
   });
 
+  it("one curve: pointing at a peak's dot reads its bias, its energy (η × bias) and names its multiplet", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    const rows = await peakRows(page);
+    const s1 = rows.find((p) => p.multiplet === "s")!;
+    const dot = page.locator("[data-testid=curve-figure] circle", { hasText: `s: ${s1.biasV.toFixed(4)} V` });
+    await dot.hover();
+    await expect.poll(() => page.locator("[data-testid=readout]").textContent()).toMatch(/^bias /);
+    const text = (await page.locator("[data-testid=readout]").textContent())!;
+    // One px of the figure is (bias span)/(plot width) ≈ 10 mV here: the bias read is within 0.02 V.
+    const bias = Number(/bias (-?[\d.]+) V/.exec(text)![1]);
+    expect(Math.abs(bias - s1.biasV)).toBeLessThan(0.02);
+    const energy = Number(/energy (-?[\d.]+) eV \(η = ([\d.]+)\)/.exec(text)![1]);
+    const eta = Number(/η = ([\d.]+)\)/.exec(text)![1]);
+    expect(Math.abs(energy - eta * bias)).toBeLessThanOrEqual(0.0015); // E = η·V, both shown to 1 meV / 1 mV
+    expect(text).toContain(`peak at ${s1.biasV.toFixed(4)} V`);
+    expect(text).toContain("(s)");
+    await page.locator("[data-testid=curve-figure]").screenshot({ path: join(ARTIFACTS, "curve-pointer.png") });
+    await page.close();
+  });
+
   it("one curve: a file dropped on the zone is read like a picked one", async () => {
     const page = await open("curve.html");
     await page.locator("[data-testid=curve-figure] > svg").waitFor();

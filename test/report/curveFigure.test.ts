@@ -156,6 +156,20 @@ describe("curveFigure(analysis, options)", () => {
     }
   });
 
+  it("says on its root how bias maps to px: a peak's dot sits where the linear map puts its bias", () => {
+    const root = parseXml(svg).documentElement;
+    const [v0, v1] = root.getAttribute("data-bias-range-v")!.split(" ").map(Number);
+    const [x0, x1] = root.getAttribute("data-plot-x-px")!.split(" ").map(Number);
+    expect(Number(root.getAttribute("data-eta"))).toBe(0.8);
+    const circles = Array.from(root.getElementsByTagName("circle"));
+    const byTitle = new Map(circles.map((c) => [c.textContent, Number(c.getAttribute("cx"))]));
+    for (const p of analysis.peaks) {
+      const cx = [...byTitle].find(([t]) => t!.includes(`: ${p.biasV.toFixed(4)} V`))![1];
+      // Linear scale (closed form): px = x0 + (V − v0)/(v1 − v0)·(x1 − x0)
+      expectClose(cx, x0 + ((p.biasV - v0) / (v1 - v0)) * (x1 - x0), { atol: 0.01, what: `dot of the peak at ${p.biasV} V` });
+    }
+  });
+
   it("calls peaks in no multiplet by the one word of the text report, in the legend and the tooltips", () => {
     const forced = analyzeCurve(curve, { eta: 0.8, regime: "undetermined" });
     const markup = curveFigure(forced, { document });
