@@ -6,8 +6,8 @@ import { join } from "node:path";
 import {
   analysisToJson,
   analyzeCurve,
+  failureReason,
   formatAnalysisText,
-  isDotspecError,
   readCurveFile,
   summaryRow,
   writeTextFile,
@@ -54,15 +54,8 @@ export const ANALYZE_OUTPUT = Object.freeze({
   figureExtension: ".svg",
 });
 
-/** The reason of a failure, without the file name the library already put in front. */
-export function failureReason(file: string, err: unknown): string {
-  if (isDotspecError(err)) {
-    const prefix = `${file}: `;
-    return err.message.startsWith(prefix) ? err.message.slice(prefix.length) : err.message;
-  }
-  const e = err instanceof Error ? err : new Error(String(err));
-  return `internal error (${e.name}: ${e.message}); please report it with the file`;
-}
+/** The reason of a failure (the library's, shared with the notebooks). */
+export { failureReason };
 
 /**
  * Analyses one file of a batch.

@@ -1,6 +1,7 @@
 /**
- * dotspec I/O: reading I–V sweeps from delimited text and files, writing tables and text files.
- * The only module that touches the file system.
+ * dotspec I/O: reading I–V sweeps from delimited text, bytes and files, writing tables and text
+ * files. The only module that touches the file system (readCurveFile, readJsonFile, writeTextFile);
+ * the browser-safe entry lib/core.ts takes the other modules one by one.
  */
 export {
   ACCEPTED_UNITS,
@@ -33,14 +34,9 @@ export {
   readCurveFile,
   type ReadCurveOptions,
 } from "./readCurveFile.ts";
-export {
-  CURVE_CSV_DIGITS,
-  formatCsv,
-  formatCurveCsv,
-  writeTextFile,
-  type CellValue,
-  type CurveColumns,
-} from "./writeTable.ts";
+export { parseCurveBytes } from "./parseCurveBytes.ts";
+export { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, type CellValue, type CurveColumns } from "./formatCsv.ts";
+export { writeTextFile } from "./writeTextFile.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";
 export { readJsonFile } from "./readJsonFile.ts";
 export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./parseSizeMeta.ts";

@@ -1,7 +1,6 @@
 /**
  * The size table of a series (META.csv): which curve file belongs to which dot, and its size.
  */
-import { isAbsolute, normalize, sep } from "node:path/posix";
 import { DotspecError } from "../util/errors.ts";
 import { numberCell, readSizeTableRows } from "./sizeTableRows.ts";
 
@@ -92,8 +91,8 @@ export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
     const file = cells.file ?? "";
     const where = `${source}: line ${line}${file ? ` (${file})` : ""}`;
     if (file === "") throw new DotspecError("io/meta-file", `${where}: the file cell is empty; give the curve file relative to the series folder`);
-    const path = normalize(file.replaceAll("\\", "/"));
-    if (isAbsolute(path) || /^[A-Za-z]:/.test(path) || path === ".." || path.startsWith(".." + sep)) {
+    const path = normalizeRelative(file.replaceAll("\\", "/"));
+    if (path.startsWith("/") || /^[A-Za-z]:/.test(path) || path === ".." || path.startsWith("../")) {
       throw new DotspecError("io/meta-file", `${where}: the file points outside the series folder; give a path relative to that folder, without ".."`);
     }
     const previous = byFile.get(path);
@@ -131,4 +130,19 @@ export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
     out.push({ line, file: path, dot, radiusNM, eta, notes: notes === "" ? null : notes });
   }
   return out;
+}
+
+/**
+ * A "/"-separated path with "." and ".." segments resolved (POSIX rules; a leading ".." that
+ * cannot be resolved is kept, so a path leaving its folder stays visible). Pure, so that the
+ * parser runs in a browser too.
+ */
+function normalizeRelative(path: string): string {
+  const out: string[] = [];
+  for (const segment of path.split("/")) {
+    if (segment === "" || segment === ".") continue;
+    if (segment === ".." && out.length && out[out.length - 1] !== "..") out.pop();
+    else out.push(segment);
+  }
+  return (path.startsWith("/") ? "/" : "") + (out.join("/") || (path.startsWith("/") ? "" : "."));
 }

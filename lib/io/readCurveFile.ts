@@ -5,7 +5,8 @@
 import { readdirSync, readFileSync, statSync, type Stats } from "node:fs";
 import { extname, join, resolve } from "node:path";
 import { DotspecError } from "../util/errors.ts";
-import { parseCurveText, type ParseOptions, type ParsedCurve } from "./parse/index.ts";
+import { parseCurveBytes } from "./parseCurveBytes.ts";
+import type { ParseOptions, ParsedCurve } from "./parse/index.ts";
 
 /** Options of {@link readCurveFile}: those of {@link parseCurveText} except `source`, which is the path. */
 export type ReadCurveOptions = Omit<ParseOptions, "source">;
@@ -29,7 +30,7 @@ export const MAX_CURVE_FILE_BYTES = 256 * 1024 * 1024;
  * Returns
  * -------
  * ParsedCurve
- *     The same as {@link parseCurveText} on the file's text.
+ *     The same as {@link parseCurveBytes} on the file's bytes (decoded, then {@link parseCurveText}).
  *
  * Throws
  * ------
@@ -74,30 +75,7 @@ export function readCurveFile(path: string, options: ReadCurveOptions = {}): Par
   } catch (err) {
     throw fsError(path, err);
   }
-  const { text, warning } = decode(path, bytes);
-  const result = parseCurveText(text, { ...options, source: path });
-  if (warning) result.record.warnings.unshift(warning);
-  return result;
-}
-
-function decode(path: string, bytes: Buffer): { text: string; warning: string | null } {
-  if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return { text: new TextDecoder("utf-16le").decode(bytes), warning: null };
-  if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) return { text: new TextDecoder("utf-16be").decode(bytes), warning: null };
-  if (bytes.indexOf(0) >= 0) {
-    throw new DotspecError(
-      "io/binary",
-      `${path}: the file holds NUL bytes, so it is not a text table (a binary file, or UTF-16 text without a byte-order mark); ` +
-        `export the sweep as CSV or plain text`,
-    );
-  }
-  try {
-    return { text: new TextDecoder("utf-8", { fatal: true }).decode(bytes), warning: null };
-  } catch {
-    return {
-      text: new TextDecoder("windows-1252").decode(bytes),
-      warning: "the file is not valid UTF-8; read as Windows-1252 (Latin-1) text",
-    };
-  }
+  return parseCurveBytes(bytes, { ...options, source: path });
 }
 
 function statOrThrow(path: string): Stats {

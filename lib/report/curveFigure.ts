@@ -1,6 +1,7 @@
 /**
- * The figure of one analysed curve: I–V above, dI/dV below with the assigned peaks, as one
- * standalone SVG document drawn with Observable Plot.
+ * The figure of one analysed curve: I–V above, dI/dV below with the assigned peaks (and, on
+ * request, the normalised conductance), as one standalone SVG document drawn with Observable Plot.
+ * The same drawing serves the CLI's `--out` and the notebooks.
  *
  * This module loads Observable Plot when imported. The public entry point does not import it
  * statically: use {@link loadCurveFigure}, which imports it (and, in Node, jsdom) on demand.
@@ -8,8 +9,10 @@
 import * as Plot from "@observablehq/plot";
 import type { Curve } from "../curve.ts";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
+import { normalizedConductance } from "../signal/normalizedConductance.ts";
 import { DotspecError } from "../util/errors.ts";
-import { MULTIPLET_COLORS, multipletColor } from "./multipletColor.ts";
+import { MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION, multipletColor } from "./multipletColor.ts";
+import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
 
 /** Options of {@link curveFigure}. */
 export interface CurveFigureOptions {
@@ -25,8 +28,16 @@ export interface CurveFigureOptions {
   curve?: Curve;
   /** Width of the figure in px. Default 760. */
   width?: number;
-  /** Title line. Default: the source, the regime and η. */
+  /**
+   * Title line. Default: the base name of the source (the full path stays in the record), the
+   * regime and η.
+   */
   title?: string;
+  /**
+   * Add a third panel with the normalised conductance (dI/dV)/(I/V), I/V broadened as in
+   * {@link normalizedConductance} with its default width. Default false.
+   */
+  normalized?: boolean;
 }
 
 /** Layout and colours of {@link curveFigure} (locked by a test). */
@@ -36,10 +47,14 @@ export const CURVE_FIGURE_DEFAULTS = Object.freeze({
   headerHeight: 78,
   /** Height added per further row of legend, px. */
   legendRowHeight: 16,
-  /** Height of the I–V panel, px. */
-  currentPanelHeight: 190,
+  /** Height of the I–V panel (with the energy axis on top), px. */
+  currentPanelHeight: 220,
   /** Height of the dI/dV panel, px. */
   conductancePanelHeight: 290,
+  /** Height of the optional normalised-conductance panel, px. */
+  normalizedPanelHeight: 170,
+  /** Target number of ticks on the energy axis. */
+  energyTicks: 10,
   marginLeft: 72,
   marginRight: 24,
   /** Lines keep at most this many points per px of plot width (min/max per column beyond). */
@@ -56,6 +71,8 @@ export const CURVE_FIGURE_DEFAULTS = Object.freeze({
     /** The zero-conductance region. */
     gap: "#f3e3b5",
     zero: "#c9c9c9",
+    /** The normalised conductance line. */
+    normalized: "#4a4a8c",
   }),
   /** Peak dot radius, px. */
   dotRadius: 4.5,
@@ -68,52 +85,6 @@ const REGIME_WORDS: Record<CurveAnalysis["assignment"]["regime"], string> = {
   "shell-tunneling": "shell tunnelling",
   undetermined: "regime undetermined",
 };
-
-/** Current unit for the I–V axis: the prefix that puts the largest |I| between 1 and 1000. */
-function currentUnit(currentA: ArrayLike<number>): { label: string; scale: number } {
-  let m = 0;
-  for (let i = 0; i < currentA.length; i++) m = Math.max(m, Math.abs(currentA[i]));
-  const units: [string, number][] = [["fA", 1e15], ["pA", 1e12], ["nA", 1e9], ["µA", 1e6], ["mA", 1e3]];
-  for (const [label, scale] of units) if (m * scale < 1000) return { label, scale };
-  return { label: "A", scale: 1 };
-}
-
-/**
- * Keeps the shape of a long line for a plot `columns` px wide: the first, lowest, highest and last
- * point of each column (in bias order), so no peak or step is lost. Short lines are returned whole.
- */
-function envelope(x: ArrayLike<number>, y: ArrayLike<number>, columns: number, scale: number): { x: number[]; y: number[] } {
-  const n = x.length;
-  const xs: number[] = [];
-  const ys: number[] = [];
-  if (n <= 4 * columns) {
-    for (let i = 0; i < n; i++) {
-      xs.push(x[i]);
-      ys.push(y[i] * scale);
-    }
-    return { x: xs, y: ys };
-  }
-  const x0 = x[0];
-  const span = x[n - 1] - x0 || 1;
-  let start = 0;
-  while (start < n) {
-    const col = Math.min(columns - 1, Math.floor(((x[start] - x0) / span) * columns));
-    let end = start;
-    while (end + 1 < n && Math.min(columns - 1, Math.floor(((x[end + 1] - x0) / span) * columns)) === col) end++;
-    let lo = start;
-    let hi = start;
-    for (let i = start; i <= end; i++) {
-      if (y[i] < y[lo]) lo = i;
-      if (y[i] > y[hi]) hi = i;
-    }
-    for (const i of [...new Set([start, Math.min(lo, hi), Math.max(lo, hi), end])]) {
-      xs.push(x[i]);
-      ys.push(y[i] * scale);
-    }
-    start = end + 1;
-  }
-  return { x: xs, y: ys };
-}
 
 /** "1499.4 mV" style number for the quantities line. */
 function mv(v: number): string {
@@ -145,17 +116,20 @@ function quantitiesLine(analysis: CurveAnalysis): string {
  *     From {@link analyzeCurve}.
  * options : CurveFigureOptions, optional
  *     `document` (required outside a browser), `curve` (for the individual sweeps), `width` in
- *     px (default 760), `title`.
+ *     px (default 760), `title`, `normalized` (default false).
  *
  * Returns
  * -------
  * string
- *     SVG markup with `xmlns="http://www.w3.org/2000/svg"` on the root: a title block (source,
- *     regime, η; the extracted quantities; a legend of the multiplets), then two panels sharing
- *     the bias axis: the current (mean, and each sweep faintly when there are several) and the
- *     smoothed dI/dV in nS with one dot per peak coloured by multiplet
- *     ({@link multipletColor}; grey for satellites and unassigned peaks), the multiplet labels,
- *     and the zero-conductance region shaded in both panels.
+ *     SVG markup with `xmlns="http://www.w3.org/2000/svg"` on the root: a title block (the
+ *     source's base name, regime, η; the extracted quantities; a legend of the multiplets), then
+ *     panels sharing the bias axis: the current (mean, and each sweep faintly when there are
+ *     several) under an energy axis in eV (η × bias), the smoothed dI/dV in nS with one dot per
+ *     peak coloured by multiplet ({@link multipletColor}; grey and "no multiplet" for satellites
+ *     and unassigned peaks), the multiplet labels, the zero-conductance region shaded, and with
+ *     `normalized` the normalised conductance; the sample-bias axis in V at the bottom. The root
+ *     carries `data-bias-range-v`, `data-plot-x-px`, `data-panels-y-px` and `data-eta`, so a page
+ *     can map the pointer to a bias.
  *
  * Throws
  * ------
@@ -170,6 +144,8 @@ function quantitiesLine(analysis: CurveAnalysis): string {
  *    each px column, which keeps every peak and step visible while bounding the file size.
  * 3. The current is drawn offset-corrected (the offset the analysis removed is removed from the
  *    sweeps too), in the SI prefix that suits its range.
+ * 4. The energy axis places round energies E at bias E/η, so it reads the same curve in eV; with
+ *    η not given it is 1 and the axis says so.
  *
  * Example
  * -------
@@ -227,10 +203,10 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     height: D.currentPanelHeight,
     marginLeft: D.marginLeft,
     marginRight: D.marginRight,
-    marginTop: 22,
+    marginTop: 52,
     marginBottom: 10,
     style: { background: "transparent" },
-    x: { domain, label: null, tickFormat: () => "" },
+    x: energyAxis(domain, analysis.assignment.energies, D.energyTicks),
     y: { label: `current (${unit.label})`, grid: true, nice: true },
     marks: [
       ...gapMarks(false),
@@ -247,7 +223,8 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     biasV: p.biasV,
     heightNS: p.heightS * 1e9,
     sigmaMV: p.biasUncertaintyV * 1000,
-    label: p.multiplet === null ? null : multiplets[p.multiplet].label,
+    // A second-junction resonance is in no multiplet but is named as what it is.
+    label: p.multiplet !== null ? multiplets[p.multiplet].label : p.role === "second-junction" ? SECOND_JUNCTION : null,
   }));
   let yMax = 0;
   let yMin = 0;
@@ -269,7 +246,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
         fill,
         stroke: C.background,
         strokeWidth: 1.2,
-        title: (d: (typeof peaks)[number]) => `${d.label ?? "no multiplet"}: ${d.biasV.toFixed(4)} V ± ${d.sigmaMV.toFixed(1)} mV`,
+        title: (d: (typeof peaks)[number]) => `${d.label ?? NO_MULTIPLET}: ${d.biasV.toFixed(4)} V ± ${d.sigmaMV.toFixed(1)} mV`,
       }),
     );
     if (name !== null) {
@@ -278,6 +255,9 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
       labelMarks.push(Plot.text([{ x, y: at.heightNS }], { x: "x", y: "y", text: () => name, dy: -13, fill, fontWeight: "bold", fontSize: 12 }));
     }
   }
+  const biasAxis = { domain, label: "sample bias (V)", labelAnchor: "center", labelArrow: "none" } as const;
+  const hiddenAxis = { domain, label: null, tickFormat: () => "" };
+  const normalized = options.normalized ?? false;
   const bottom = Plot.plot({
     document,
     width,
@@ -285,9 +265,9 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     marginLeft: D.marginLeft,
     marginRight: D.marginRight,
     marginTop: 22,
-    marginBottom: 40,
+    marginBottom: normalized ? 10 : 40,
     style: { background: "transparent" },
-    x: { domain, label: "sample bias (V)", labelAnchor: "center", labelArrow: "none" },
+    x: normalized ? hiddenAxis : biasAxis,
     y: { label: "dI/dV (nS)", grid: true, domain: [yMin, yMax > 0 ? yMax * 1.15 : 1] },
     marks: [
       ...gapMarks(true),
@@ -298,6 +278,28 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     ],
   });
 
+  // Optional third panel: the normalised conductance.
+  const panels = [top, bottom];
+  if (normalized) {
+    const nc = normalizedConductance(sig);
+    const line = envelope(biasV, nc.normalized, plotColumns, 1);
+    panels.push(
+      Plot.plot({
+        document,
+        width,
+        height: D.normalizedPanelHeight,
+        marginLeft: D.marginLeft,
+        marginRight: D.marginRight,
+        marginTop: 16,
+        marginBottom: 40,
+        style: { background: "transparent" },
+        x: biasAxis,
+        y: { label: `(dI/dV)/(I/V), ΔV = ${nc.broadeningV} V (1)`, grid: true, nice: true },
+        marks: [...gapMarks(false), Plot.ruleY([0], { stroke: C.zero }), Plot.line(line.x, { x: line.x, y: line.y, stroke: C.normalized, strokeWidth: 1.5 })],
+      }),
+    );
+  }
+
   // Legend entries: one swatch per multiplet, then "no multiplet" and the gap; laid out in rows
   // that fit the width (text width estimated at 6.2 px per character of 11 px type).
   const a = analysis.assignment;
@@ -305,7 +307,8 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     `${m.label} (${m.band}, ${m.found}${m.expected === null ? "" : "/" + m.expected} peak${(m.expected ?? m.found) === 1 ? "" : "s"})`,
     multipletColor(m.label),
   ]);
-  if (peaks.some((p) => p.label === null)) entries.push(["no multiplet", MULTIPLET_COLORS.none]);
+  if (peaks.some((p) => p.label === SECOND_JUNCTION)) entries.push([`${SECOND_JUNCTION} (−η·V/(1 − η) of a level)`, multipletColor(SECOND_JUNCTION)]);
+  if (peaks.some((p) => p.label === null)) entries.push([NO_MULTIPLET, MULTIPLET_COLORS.none]);
   if (gap) entries.push(["zero-conductance region", C.gap]);
   const placed: { text: string; fill: string; x: number; row: number }[] = [];
   let lx = 0;
@@ -322,7 +325,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   const headerHeight = D.headerHeight + row * D.legendRowHeight;
 
   // Compose one SVG document.
-  const height = headerHeight + D.currentPanelHeight + D.conductancePanelHeight;
+  const height = headerHeight + D.currentPanelHeight + D.conductancePanelHeight + (normalized ? D.normalizedPanelHeight : 0);
   const el = (name: string, attrs: Record<string, string | number>, text?: string) => {
     const e = document.createElementNS(SVG_NS, name);
     for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
@@ -336,9 +339,10 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
     viewBox: `0 0 ${width} ${height}`,
     "font-family": D.fontFamily,
     "font-size": 12,
+    ...axisAttributes(domain, [D.marginLeft, width - D.marginRight], [headerHeight, height], a.energies.eta),
   });
-  const eta = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
-  const title = options.title ?? `${analysis.source}  —  ${REGIME_WORDS[a.regime]}, ${eta}`;
+  const etaText = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
+  const title = options.title ?? `${sourceBaseName(analysis.source)}  —  ${REGIME_WORDS[a.regime]}, ${etaText}`;
   root.append(
     el("title", {}, title),
     el("rect", { width, height, fill: C.background }),
@@ -353,12 +357,15 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   root.append(legend);
   // Plot's stylesheet is meant for HTML pages (display: block; height: auto), which would resize
   // a nested <svg>; the panels need none of it.
-  for (const panel of [top, bottom]) for (const style of Array.from(panel.querySelectorAll("style"))) style.remove();
-  top.setAttribute("x", "0");
-  top.setAttribute("y", String(headerHeight));
-  bottom.setAttribute("x", "0");
-  bottom.setAttribute("y", String(headerHeight + D.currentPanelHeight));
-  root.append(top, bottom);
+  let y = headerHeight;
+  const heights = [D.currentPanelHeight, D.conductancePanelHeight, D.normalizedPanelHeight];
+  panels.forEach((panel, i) => {
+    for (const style of Array.from(panel.querySelectorAll("style"))) style.remove();
+    panel.setAttribute("x", "0");
+    panel.setAttribute("y", String(y));
+    y += heights[i];
+    root.append(panel);
+  });
   return serialize(root);
 }
 

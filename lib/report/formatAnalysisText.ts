@@ -3,6 +3,8 @@
  * Works on the JSON record only, so notebooks and scripts can print saved records the same way.
  */
 import type { AnalysisJson } from "./analysisJson.ts";
+import { NO_MULTIPLET, SECOND_JUNCTION } from "./multipletColor.ts";
+import { formatUncertain } from "./formatUncertain.ts";
 
 /** Options of {@link formatAnalysisText}. */
 export interface FormatAnalysisTextOptions {
@@ -47,18 +49,9 @@ function table(headers: string[], rows: string[][], align: Align[], indent: stri
   return [line(headers), ...rows.map(line)];
 }
 
-/** Number of decimals that shows `sigma` with the configured significant digits (0…maxDecimals). */
-function decimalsFor(sigma: number | null): number {
-  const D = FORMAT_TEXT_DEFAULTS;
-  if (sigma === null || !(sigma > 0) || !Number.isFinite(sigma)) return 1;
-  const d = D.uncertaintyDigits - 1 - Math.floor(Math.log10(sigma));
-  return Math.min(D.maxDecimals, Math.max(0, d));
-}
-
 /** "142.3 ± 1.8" (value and σ already in display units), or the value alone without a σ. */
 function withSigma(value: number, sigma: number | null): string {
-  const d = decimalsFor(sigma);
-  return sigma === null || !Number.isFinite(sigma) ? value.toFixed(d) : `${value.toFixed(d)} ± ${sigma.toFixed(d)}`;
+  return formatUncertain(value, sigma, { digits: FORMAT_TEXT_DEFAULTS.uncertaintyDigits, maxDecimals: FORMAT_TEXT_DEFAULTS.maxDecimals });
 }
 
 /** Three significant digits without exponent for everyday magnitudes. */
@@ -86,7 +79,8 @@ function sig3(x: number): string {
  * string
  *     Lines ending in `\n`: a header line (source, regime, η and whether it was given); the
  *     settings used; a peak table (bias in V, 1σ in mV, height in nS, FWHM in mV, SNR, multiplet
- *     label or "—"); a multiplet table (band, label, found/expected, sub-groups, peak positions);
+ *     label or "no multiplet"); a multiplet table (band, label, found/expected, sub-groups, peak
+ *     positions) and the peaks set aside as charging satellites;
  *     the extracted quantities bias-referred in mV and as energies in meV after η
  *     (`Ec = 142.3 ± 1.8 mV  →  121.0 ± 1.5 meV (η = 0.85)`), and the warnings.
  *
@@ -124,7 +118,6 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
   if (json.peaks.length === 0) out.push(`${I}${bold("Peaks")}: none found`);
   else {
     out.push(`${I}${bold("Peaks")} (${json.peaks.length})`);
-    const satellites = new Set(json.evidence.satellitePeakIndices);
     const rows = json.peaks.map((p, i) => [
       String(i + 1),
       p.biasV.toFixed(D.biasDecimals),
@@ -132,7 +125,7 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
       sig3(p.height * 1e9),
       (p.fwhmV * 1000).toFixed(1),
       p.snr >= 10 ? p.snr.toFixed(0) : p.snr.toFixed(1),
-      p.multiplet ?? (satellites.has(i) ? "satellite" : D.missing),
+      p.multiplet ?? (p.role === "second-junction" ? SECOND_JUNCTION : NO_MULTIPLET),
     ]);
     out.push(
       ...table(
@@ -159,6 +152,14 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
     const headers = ["band", "label", "found/expected", ...(split ? ["split"] : []), "peaks (V)"];
     const align: Align[] = ["left", "left", "right", ...(split ? (["left"] as Align[]) : []), "left"];
     out.push(...table(headers, rows, align, I + I));
+  }
+  if (json.evidence.satellitePeaksV.length) {
+    const list = json.evidence.satellitePeaksV.map((v) => v.toFixed(D.biasDecimals)).join("  ");
+    out.push(`${I}${I}${faint(`set aside as charging satellites (${NO_MULTIPLET}): ${list} V`)}`);
+  }
+  if (json.evidence.secondJunction.length) {
+    const list = json.evidence.secondJunction.map((r) => `${json.peaks[r.index].biasV.toFixed(D.biasDecimals)} (of ${json.peaks[r.sourceIndex].biasV.toFixed(D.biasDecimals)})`).join("  ");
+    out.push(`${I}${I}${faint(`set aside as ${SECOND_JUNCTION} resonances, −η·V/(1 − η) of a tip-junction peak: ${list} V`)}`);
   }
 
   // Quantities.

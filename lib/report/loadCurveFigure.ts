@@ -1,9 +1,10 @@
 /**
- * On-demand loading of the figure code. Observable Plot and jsdom take most of a second to
+ * On-demand loading of the figure code (the curve figure and the model figure). Observable Plot and jsdom take most of a second to
  * import; the public entry point stays light by importing them only when a figure is wanted.
  */
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { CurveFigureOptions } from "./curveFigure.ts";
+import type { ModelFigureOptions } from "./modelFigure.ts";
 
 /** {@link curveFigure} with its document bound. */
 export type CurveFigureRenderer = (analysis: CurveAnalysis, options?: Omit<CurveFigureOptions, "document">) => string;
@@ -30,6 +31,32 @@ export type CurveFigureRenderer = (analysis: CurveAnalysis, options?: Omit<Curve
 export async function loadCurveFigure(document?: Document): Promise<CurveFigureRenderer> {
   const [{ curveFigure }, doc] = await Promise.all([import("./curveFigure.ts"), document ?? defaultDocument()]);
   return (analysis, options = {}) => curveFigure(analysis, { ...options, document: doc });
+}
+
+/** {@link modelFigure} with its document bound. */
+export type ModelFigureRenderer = (analysis: CurveAnalysis, options?: Omit<ModelFigureOptions, "document">) => string;
+
+/**
+ * Loads Observable Plot (and, outside a browser, jsdom) and returns the model figure function.
+ *
+ * Parameters
+ * ----------
+ * document : Document, optional
+ *     As for {@link loadCurveFigure}.
+ *
+ * Returns
+ * -------
+ * Promise<ModelFigureRenderer>
+ *     `(analysis, { model, fit }?) => svg`: {@link modelFigure} with the document bound.
+ *
+ * Example
+ * -------
+ * const modelFigure = await loadModelFigure();
+ * const svg = modelFigure(analysis, { fit: fitCurve(analysis) });
+ */
+export async function loadModelFigure(document?: Document): Promise<ModelFigureRenderer> {
+  const [{ modelFigure }, doc] = await Promise.all([import("./modelFigure.ts"), document ?? defaultDocument()]);
+  return (analysis, options = {}) => modelFigure(analysis, { ...options, document: doc });
 }
 
 async function defaultDocument(): Promise<Document> {

@@ -4,21 +4,38 @@
  */
 
 /**
- * Colours of the multiplet labels (CSS hex). Conduction-band shells s, p, d, f in warm-to-cool
- * order; valence-band groups v1, v2, … in a second family; peaks without a multiplet (satellites,
- * unassigned) in grey.
+ * The word dotspec uses, in every table, report and legend, for a peak that belongs to no
+ * multiplet (a charging satellite set aside, or a peak the assignment did not place).
+ */
+export const NO_MULTIPLET = "no multiplet";
+
+/**
+ * The word for a peak that is a resonance through the dot–substrate junction (a level of the
+ * other band seen at −η·V/(1 − η)): in no multiplet either, but not a level of its own.
+ */
+export const SECOND_JUNCTION = "second junction";
+
+/**
+ * Colours of the multiplet labels (CSS hex), from the palette of Okabe & Ito, chosen to stay
+ * distinct with the common forms of colour-vision deficiency: conduction-band shells s
+ * (vermillion), p (blue), d (bluish green), f (reddish purple); valence-band groups v1, v2, …
+ * (orange, sky blue, then again); peaks in no multiplet in grey. Every label is also written
+ * beside its peaks, so no reading depends on colour alone.
+ *
+ * Reference: M. Okabe and K. Ito, "Color Universal Design (CUD): how to make figures and
+ * presentations that are friendly to colorblind people", J*FLY (2002, revised 2008).
  */
 export const MULTIPLET_COLORS = Object.freeze({
-  s: "#c8553d",
-  p: "#2a7f8f",
-  d: "#d39b2a",
-  f: "#6b8e4e",
+  s: "#D55E00",
+  p: "#0072B2",
+  d: "#009E73",
+  f: "#CC79A7",
   /** Valence-band groups v1, v2, … cycle through these. */
-  valence: Object.freeze(["#3d5a98", "#8a5a9e", "#5e7d8c", "#a26769"]) as readonly string[],
+  valence: Object.freeze(["#E69F00", "#56B4E9"]) as readonly string[],
   /** Any other label. */
-  other: "#4f4f4f",
-  /** Peaks outside every multiplet (charging satellites, unassigned). */
-  none: "#a3a3a3",
+  other: "#000000",
+  /** Peaks in no multiplet (charging satellites, unassigned). */
+  none: "#B3B3B3",
 });
 
 /**
@@ -36,8 +53,8 @@ export const MULTIPLET_COLORS = Object.freeze({
  *
  * Example
  * -------
- * multipletColor("p");  // => "#2a7f8f"
- * multipletColor(null); // => "#a3a3a3"
+ * multipletColor("p");  // => "#0072B2"
+ * multipletColor(null); // => "#B3B3B3"
  */
 export function multipletColor(label: string | null): string {
   const C = MULTIPLET_COLORS;

@@ -2,7 +2,7 @@
  * The CSV tables of a size series (`dotspec sizes --out`): one row per curve, per dot, per size
  * bin and per model fit.
  */
-import type { CellValue } from "../io/writeTable.ts";
+import type { CellValue } from "../io/formatCsv.ts";
 import type { SeriesCurveInput } from "../sizes/sizeSeries.ts";
 import type { SizeSeriesJson } from "./sizeSeriesJson.ts";
 

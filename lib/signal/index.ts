@@ -20,9 +20,13 @@ export {
 } from "./noise.ts";
 export { isUniformStep, resampleUniform, RESAMPLE_DEFAULTS, type ResampledSeries } from "./resample.ts";
 export { averageSweeps, type SweepAverage } from "./averageSweeps.ts";
+export { prepareCurve, PREPARE_CURVE_DEFAULTS, type PrepareCurveOptions, type PreparedCurve } from "./prepareCurve.ts";
+export { savitzkyGolayWindow, SAVITZKY_GOLAY_WINDOW_DEFAULTS, type WindowChoice, type WindowInput } from "./savitzkyGolayWindow.ts";
 export {
   conductance,
+  conductanceFromPrepared,
   CONDUCTANCE_DEFAULTS,
+  type DifferentiateOptions,
   type ConductanceOptions,
   type ConductanceRecord,
   type ConductanceResult,

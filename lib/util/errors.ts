@@ -20,3 +20,35 @@ export class DotspecError extends Error {
 export function isDotspecError(err: unknown): err is DotspecError {
   return err instanceof DotspecError || (err instanceof Error && err.name === "DotspecError" && "code" in err);
 }
+
+/**
+ * The one-line reason of a failure on one input, as `dotspec` prints it after `dotspec: FILE: `
+ * and the notebooks show it after the file's name.
+ *
+ * Parameters
+ * ----------
+ * source : string
+ *     The file (or label) the failure is about; a message that already starts with `source: ` has
+ *     that prefix removed, so the name is not repeated.
+ * err : unknown
+ *     What was thrown.
+ *
+ * Returns
+ * -------
+ * string
+ *     The message of a {@link DotspecError}; for anything else (a bug, not bad input)
+ *     `internal error (Name: message); please report it with the file`.
+ *
+ * Example
+ * -------
+ * failureReason("a.csv", new DotspecError("io/binary", "a.csv: the file holds NUL bytes, …"));
+ * // => "the file holds NUL bytes, …"
+ */
+export function failureReason(source: string, err: unknown): string {
+  if (isDotspecError(err)) {
+    const prefix = `${source}: `;
+    return err.message.startsWith(prefix) ? err.message.slice(prefix.length) : err.message;
+  }
+  const e = err instanceof Error ? err : new Error(String(err));
+  return `internal error (${e.name}: ${e.message}); please report it with the file`;
+}

@@ -6,7 +6,7 @@
 // are tested in test/model/ladder.test.ts.
 import { describe, it, expect } from "vitest";
 import { secondJunctionResonances, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
-import { analyzeCurve, assignSpectrum, simulateCurve, type Peak } from "../../lib/index.ts";
+import { analyzeCurve, assignSpectrum, analysisToJson, formatAnalysisText, loadCurveFigure, simulateCurve, SECOND_JUNCTION, type Peak } from "../../lib/index.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 
 const peak = (biasV: number, sigma = 0.002): Peak => ({
@@ -84,5 +84,11 @@ describe("analyzeCurve at η = 0.62: the substrate-junction resonance of s is se
     expect(a.assignment.evidence.secondJunction.map((r) => r.index)).toEqual(a.peaks.flatMap((p, k) => (p.role === "second-junction" ? [k] : [])));
     const plain = assignSpectrum(a.peaks, { eta: 0.62, secondJunction: false });
     expect(plain.multiplets.filter((m) => m.band === "VB").map((m) => m.label)).toEqual(["v1", "v2", "v3"]);
+  });
+
+  it("names the resonance in the text report and the figure (the same word in both)", async () => {
+    expect(formatAnalysisText(analysisToJson(a))).toContain(`set aside as ${SECOND_JUNCTION} resonances`);
+    const svg = (await loadCurveFigure())(a, { curve });
+    expect(svg).toContain(SECOND_JUNCTION);
   });
 });

@@ -35,7 +35,7 @@ describe("dotspec fit FILE... --eta η", () => {
     expect(f.residuals.biasV.length).toBe(f.residuals.residualA.length);
   });
 
-  it("prints a readable report and writes DIR/<name>.fit.json with --out", async () => {
+  it("prints a readable report and writes DIR/<name>.fit.json and the figure DIR/<name>.fit.svg with --out", async () => {
     const out = join(dir, "fits");
     const r = await run(["fit", filling, "--eta", "0.8", "--out", out]);
     expect(r.code).toBe(0);
@@ -43,6 +43,10 @@ describe("dotspec fit FILE... --eta η", () => {
     expect(r.stdout).toMatch(/model fit converged/);
     expect(existsSync(join(out, "filling.fit.json"))).toBe(true);
     expect(JSON.parse(readFileSync(join(out, "filling.fit.json"), "utf8")).source).toBe(filling);
+    const svg = readFileSync(join(out, "filling.fit.svg"), "utf8");
+    expect(svg.startsWith("<svg")).toBe(true);
+    expect(svg).toContain("filling.csv  —  measured curve and model");
+    expect(svg).toContain("residual, data − fitted model");
   });
 
   it("a fit cut short by its time limit says so and keeps the peak-based result, exit 0", async () => {

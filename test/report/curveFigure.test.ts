@@ -3,9 +3,10 @@
 import { describe, it, expect } from "vitest";
 import { JSDOM } from "jsdom";
 import { curveFigure, CURVE_FIGURE_DEFAULTS } from "../../lib/report/curveFigure.ts";
-import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, DotspecError } from "../../lib/index.ts";
+import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, DotspecError, analyzeCurve } from "../../lib/index.ts";
 import { simulatedAnalysis } from "./fixture.ts";
 import { FILLING, chargingPeakV } from "../cli/harness.ts";
+import { expectClose } from "../helpers/expectClose.ts";
 
 const document = new JSDOM("").window.document;
 const { curve, analysis } = simulatedAnalysis("dots/dot-filling.csv");
@@ -38,36 +39,37 @@ describe("curveFigure(analysis, options)", () => {
           "background": "#ffffff",
           "gap": "#f3e3b5",
           "line": "#263238",
+          "normalized": "#4a4a8c",
           "subtitle": "#5c5c60",
           "sweeps": "#90a4ae",
           "title": "#1d1d1f",
           "zero": "#c9c9c9",
         },
         "conductancePanelHeight": 290,
-        "currentPanelHeight": 190,
+        "currentPanelHeight": 220,
         "dotRadius": 4.5,
+        "energyTicks": 10,
         "fontFamily": "system-ui, -apple-system, 'Segoe UI', sans-serif",
         "headerHeight": 78,
         "legendRowHeight": 16,
         "marginLeft": 72,
         "marginRight": 24,
+        "normalizedPanelHeight": 170,
         "pointsPerPixel": 2,
         "width": 760,
       }
     `);
     expect(MULTIPLET_COLORS).toMatchInlineSnapshot(`
       {
-        "d": "#d39b2a",
-        "f": "#6b8e4e",
-        "none": "#a3a3a3",
-        "other": "#4f4f4f",
-        "p": "#2a7f8f",
-        "s": "#c8553d",
+        "d": "#009E73",
+        "f": "#CC79A7",
+        "none": "#B3B3B3",
+        "other": "#000000",
+        "p": "#0072B2",
+        "s": "#D55E00",
         "valence": [
-          "#3d5a98",
-          "#8a5a9e",
-          "#5e7d8c",
-          "#a26769",
+          "#E69F00",
+          "#56B4E9",
         ],
       }
     `);
@@ -149,9 +151,64 @@ describe("curveFigure(analysis, options)", () => {
     expect(sweepPaths).toHaveLength(curve.sweeps.length);
   });
 
-  it("titles the figure with the source, the regime and η", () => {
+  it("titles the figure with the source's base name (not its folders), the regime and η", () => {
     const title = parseXml(svg).documentElement.getElementsByTagName("title")[0].textContent;
-    expect(title).toBe("dots/dot-filling.csv  —  shell filling, η = 0.8");
+    expect(title).toBe("dot-filling.csv  —  shell filling, η = 0.8");
+    expect(analysis.source).toBe("dots/dot-filling.csv");
+  });
+
+  it("labels every axis with its unit, and puts an energy axis (eV) whose ticks sit at E/η on the bias axis", () => {
+    const root = parseXml(svg).documentElement;
+    const panels = Array.from(root.children).filter((e) => e.localName === "svg");
+    const text = panels.map((p) => p.textContent ?? "").join(" ");
+    for (const label of ["current (pA)", "dI/dV (nS)", "sample bias (V)", "energy after η = 0.8 (eV)"]) expect(text).toContain(label);
+    // Energy ticks: a tick labelled E lies where the bias axis reads E/η (closed form: E = η·e·V).
+    const ticks = Array.from(panels[0].querySelectorAll("g[aria-label='x-axis tick label'] text"));
+    expect(ticks.length).toBeGreaterThan(3);
+    const bottomTicks = Array.from(panels[1].querySelectorAll("g[aria-label='x-axis tick label'] text"));
+    const xOf = (t: Element) => Number(/translate\(([-\d.]+)/.exec(t.getAttribute("transform") ?? "")?.[1]);
+    // Bias ticks give the linear map px ↔ V.
+    const [b0, b1] = [bottomTicks[0], bottomTicks[bottomTicks.length - 1]];
+    const v0 = Number(b0.textContent!.replace("−", "-"));
+    const v1 = Number(b1.textContent!.replace("−", "-"));
+    const pxPerV = (xOf(b1) - xOf(b0)) / (v1 - v0);
+    for (const t of ticks) {
+      const e = Number(t.textContent!.replace("−", "-"));
+      expectClose(xOf(t), xOf(b0) + (e / 0.8 - v0) * pxPerV, { atol: 0.6, what: `energy tick ${e} eV` });
+    }
+  });
+
+  it("says on its root how bias maps to px: a peak's dot sits where the linear map puts its bias", () => {
+    const root = parseXml(svg).documentElement;
+    const [v0, v1] = root.getAttribute("data-bias-range-v")!.split(" ").map(Number);
+    const [x0, x1] = root.getAttribute("data-plot-x-px")!.split(" ").map(Number);
+    expect(Number(root.getAttribute("data-eta"))).toBe(0.8);
+    const circles = Array.from(root.getElementsByTagName("circle"));
+    const byTitle = new Map(circles.map((c) => [c.textContent, Number(c.getAttribute("cx"))]));
+    for (const p of analysis.peaks) {
+      const cx = [...byTitle].find(([t]) => t!.includes(`: ${p.biasV.toFixed(4)} V`))![1];
+      // Linear scale (closed form): px = x0 + (V − v0)/(v1 − v0)·(x1 − x0)
+      expectClose(cx, x0 + ((p.biasV - v0) / (v1 - v0)) * (x1 - x0), { atol: 0.01, what: `dot of the peak at ${p.biasV} V` });
+    }
+  });
+
+  it("calls peaks in no multiplet by the one word of the text report, in the legend and the tooltips", () => {
+    const forced = analyzeCurve(curve, { eta: 0.8, regime: "undetermined" });
+    const markup = curveFigure(forced, { document });
+    expect(NO_MULTIPLET).toBe("no multiplet");
+    if (forced.peaks.length && forced.assignment.multiplets.length === 0) expect(markup).toContain(">no multiplet<");
+    expect(markup).not.toMatch(/satellite/);
+  });
+
+  it("adds the normalised conductance as a third panel on request, with the bias axis moved to it", () => {
+    const D = CURVE_FIGURE_DEFAULTS;
+    const root = parseXml(curveFigure(analysis, { document, normalized: true })).documentElement;
+    const panels = Array.from(root.children).filter((e) => e.localName === "svg");
+    expect(panels).toHaveLength(3);
+    expect(Number(root.getAttribute("height"))).toBe(D.headerHeight + D.currentPanelHeight + D.conductancePanelHeight + D.normalizedPanelHeight);
+    expect(panels[2].textContent).toContain("sample bias (V)");
+    expect(panels[1].textContent).not.toContain("sample bias (V)");
+    expect(panels[2].textContent).toContain("(dI/dV)/(I/V)");
   });
 
   it("shades the zero-conductance region in both panels", () => {

@@ -1,6 +1,6 @@
 // formatAnalysisText: the readable report of `dotspec analyze`.
 import { describe, it, expect } from "vitest";
-import { analysisToJson, formatAnalysisText, FORMAT_TEXT_DEFAULTS, type AnalysisJson } from "../../lib/index.ts";
+import { analysisToJson, formatAnalysisText, FORMAT_TEXT_DEFAULTS, NO_MULTIPLET, type AnalysisJson } from "../../lib/index.ts";
 import { simulatedAnalysis } from "./fixture.ts";
 
 const { analysis } = simulatedAnalysis("dots/dot-07.csv");
@@ -13,7 +13,7 @@ function withExampleEc(): AnalysisJson {
   j.uncertainties.chargingEnergyV = 0.0018;
   j.energies.eta = 0.85;
   j.energies.etaGiven = true;
-  j.energies.chargingEnergyEV = 0.1423 * 0.85; // 120.955 meV: energy = η × bias (closed form: the capacitive divider η = C2/(C1 + C2))
+  j.energies.chargingEnergyEV = 0.1423 * 0.85; // 120.955 meV: energy = η × bias (definition of η: energy = η × bias)
   j.energies.uncertainties.chargingEnergyEV = 0.0018 * 0.85; // 1.53 meV
   return j;
 }
@@ -45,15 +45,29 @@ describe("formatAnalysisText(json)", () => {
     for (const p of base.peaks) {
       const row = text.split("\n").find((l) => l.includes(` ${p.biasV.toFixed(4)} `));
       expect(row, `row of the peak at ${p.biasV}`).toBeDefined();
-      expect(row!.trimEnd().endsWith(p.multiplet ?? (base.evidence.satellitePeaksV.includes(p.biasV) ? "satellite" : "—"))).toBe(true);
+      expect(row!.trimEnd().endsWith(p.multiplet ?? NO_MULTIPLET)).toBe(true);
     }
   });
 
-  it("lists each multiplet with found/expected (s of shell filling: 2/2, U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory)", () => {
+  it("calls a peak in no multiplet by the figure legend's word, and lists the charging satellites set aside", () => {
+    const j: AnalysisJson = structuredClone(base);
+    j.peaks[0].multiplet = null;
+    j.peaks[0].role = "satellite";
+    j.evidence.satellitePeaksV = [j.peaks[0].biasV];
+    const text = formatAnalysisText(j);
+    const row = text.split("\n").find((l) => l.includes(` ${j.peaks[0].biasV.toFixed(4)} `))!;
+    // The one word, shared with the figure's legend (project convention, by construction).
+    expect(NO_MULTIPLET).toBe("no multiplet");
+    expect(row.trimEnd().endsWith("no multiplet")).toBe(true);
+    expect(text).not.toMatch(/\bsatellite\s*$/m);
+    expect(text).toContain(`set aside as charging satellites (no multiplet): ${j.peaks[0].biasV.toFixed(4)} V`);
+  });
+
+  it("lists each multiplet with found/expected (s of shell filling: 2/2, spin degeneracy of the s level)", () => {
     expect(formatAnalysisText(base)).toMatch(/\n {4}CB +s +2\/2 /);
   });
 
-  it("writes a quantity the regime does not define as — with the reason (Ec in shell tunnelling, U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory)", () => {
+  it("writes a quantity the regime does not define as — with the reason (Ec in shell tunnelling: one peak per level, so no charging ladder to read Ec from)", () => {
     const j = structuredClone(base);
     j.regime = "shell-tunneling";
     j.chargingEnergyV = null;

@@ -5,7 +5,7 @@ import { describe, it, expect } from "vitest";
 import { sizeSeriesToJson, SIZE_SERIES_JSON_VERSION } from "../../lib/report/sizeSeriesJson.ts";
 import { formatSizeSeriesText, FORMAT_SIZES_TEXT_DEFAULTS } from "../../lib/report/formatSizeSeriesText.ts";
 import { sizeSeriesTables, SIZE_TABLE_FILES } from "../../lib/report/sizeSeriesTables.ts";
-import { formatCsv } from "../../lib/io/writeTable.ts";
+import { formatCsv } from "../../lib/io/formatCsv.ts";
 import { SERIES, SERIES_CURVES } from "./sizeSeriesFixture.ts";
 
 const json = sizeSeriesToJson(SERIES);

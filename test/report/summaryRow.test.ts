@@ -44,7 +44,7 @@ describe("summaryRow(json)", () => {
     }
   });
 
-  it("a null quantity becomes an empty CSV cell (formatCsv writes null as empty, lib/io/writeTable.ts)", () => {
+  it("a null quantity becomes an empty CSV cell (formatCsv writes null as empty, lib/io/formatCsv.ts)", () => {
     const csv = formatCsv([{ ...row, Ec_V: null }], SUMMARY_COLUMNS);
     const [header, line] = csv.trimEnd().split("\n");
     expect(header).toBe(SUMMARY_COLUMNS.join(","));

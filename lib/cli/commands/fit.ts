@@ -3,7 +3,20 @@
  * peak-based assignment of `dotspec analyze`.
  */
 import type { Command } from "commander";
-import { analysisToJson, analyzeCurve, fitCurve, fitToJson, formatFitText, listCurveFiles, readCurveFile, writeTextFile, FIT_DEFAULTS, type FitJson } from "../../index.ts";
+import {
+  analysisToJson,
+  analyzeCurve,
+  fitCurve,
+  fitToJson,
+  formatFitText,
+  listCurveFiles,
+  loadModelFigure,
+  readCurveFile,
+  writeTextFile,
+  FIT_DEFAULTS,
+  type FitJson,
+  type ModelFigureRenderer,
+} from "../../index.ts";
 import { join, basename, extname } from "node:path";
 import { failureReason } from "../analyzeFile.ts";
 import { EXIT, type CliContext } from "../context.ts";
@@ -50,7 +63,7 @@ export const fitCommand: CliCommand = {
       );
     addUnitOptions(command)
       .option("--json", "print one JSON array, one record per file")
-      .option("--out <DIR>", "write DIR/<name>.fit.json per file")
+      .option("--out <DIR>", "write DIR/<name>.fit.json and DIR/<name>.fit.svg (curve, fitted model, residuals) per file")
       .option(
         "--time-limit-ms <ms>",
         `stop each fit after this long (default: ${FIT_DEFAULTS.timeLimitMs})`,
@@ -63,7 +76,7 @@ export const fitCommand: CliCommand = {
       )
       .addHelpText("after", HELP_AFTER)
       .action(async (files: string[], opts: FitCliOptions) => {
-        ctx.exitCode = runFit(files, opts, ctx);
+        ctx.exitCode = await runFit(files, opts, ctx);
       });
   },
 };
@@ -72,7 +85,7 @@ export const fitCommand: CliCommand = {
  * Runs `dotspec fit`: 0 when every file was fitted (converged or not: a non-converged fit is
  * reported, not an error), 1 when a file could not be read or analysed.
  */
-export function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): number {
+export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): Promise<number> {
   let failed = false;
   const files: string[] = [];
   for (const arg of args) {
@@ -84,6 +97,7 @@ export function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): nu
     }
   }
   const records: FitJson[] = [];
+  let figure: ModelFigureRenderer | null = null;
   for (const file of files) {
     try {
       const { curve, record } = readCurveFile(file, readOptions(opts));
@@ -93,7 +107,12 @@ export function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): nu
       if (note) fit.warnings.unshift(note);
       const json = fitToJson(fit, analysisToJson(analysis, record));
       records.push(json);
-      if (opts.out) writeTextFile(join(opts.out, basename(file, extname(file)) + ".fit.json"), JSON.stringify(json, null, 2) + "\n");
+      if (opts.out) {
+        figure ??= await loadModelFigure();
+        const name = basename(file, extname(file));
+        writeTextFile(join(opts.out, name + ".fit.json"), JSON.stringify(json, null, 2) + "\n");
+        writeTextFile(join(opts.out, name + ".fit.svg"), figure(analysis, { fit }));
+      }
       if (!opts.json && !ctx.stdoutGone()) ctx.stdout.write(formatFitText(json) + "\n");
     } catch (err) {
       ctx.error(`${file}: ${failureReason(file, err)}`);

@@ -6,6 +6,7 @@
  */
 export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
 export { seedLevels, type LevelSeed } from "./seedLevels.ts";
+export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";
 export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";
 export { unitCurrent } from "./unitCurrent.ts";

@@ -1,26 +1,14 @@
-// Writing CSV and text files. References: d3-dsv's csvParse (RFC 4180 reader, reference library)
+// CSV text for tables and curves. References: d3-dsv's csvParse (RFC 4180 reader, reference library)
 // for quoting; ECMA-262 Number::toString, whose shortest form reads back to the same double, for
 // "full precision"; 10 significant digits bound the relative rounding error by 5e-10 (closed form:
 // half a unit in the 10th digit).
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { csvParse, csvParseRows } from "d3-dsv";
 import { expectClose } from "../helpers/expectClose.ts";
-import { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, writeTextFile } from "../../lib/io/writeTable.ts";
+import { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv } from "../../lib/io/formatCsv.ts";
 import { parseCurveText } from "../../lib/io/parse/index.ts";
 import { errorOf } from "../helpers/errors.ts";
-
-let tmp = "";
-beforeAll(() => {
-  tmp = mkdtempSync(join(tmpdir(), "dotspec-write-"));
-});
-afterAll(() => {
-  if (tmp) rmSync(tmp, { recursive: true, force: true });
-});
-
 
 describe("formatCsv", () => {
   it("formatCsv(rows) quotes cells so that d3-dsv's csvParse reads them back", () => {
@@ -105,24 +93,5 @@ describe("formatCurveCsv", () => {
     const b = errorOf(() => formatCurveCsv({ biasV: [0, 1], currentA: [0, NaN] }));
     expect(b.code).toBe("io/not-finite");
     expect(b.message).toContain("currentA[1]");
-  });
-});
-
-describe("writeTextFile", () => {
-  it("writeTextFile(path, text) creates the parent folders and writes UTF-8", () => {
-    const path = join(tmp, "a", "b", "report.csv");
-    writeTextFile(path, "µ,Ω\n");
-    expect(readFileSync(path, "utf8")).toBe("µ,Ω\n");
-    writeTextFile(path, "second\n");
-    expect(readFileSync(path, "utf8")).toBe("second\n");
-  });
-
-  it("writeTextFile throws io/write-failed naming the path when a file stands where a folder should be", () => {
-    const file = join(tmp, "plain-file");
-    writeFileSync(file, "x");
-    const path = join(file, "report.csv");
-    const e = errorOf(() => writeTextFile(path, "y"));
-    expect(e.code).toBe("io/write-failed");
-    expect(e.message).toContain(path);
   });
 });

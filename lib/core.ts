@@ -1,0 +1,107 @@
+/**
+ * dotspec's browser-safe public entry: everything of the library that touches neither the file
+ * system nor jsdom — the parsers of curve text and bytes, CSV formatting, the signal stage, peaks,
+ * assignment, the pipeline, the model and its fit, the JSON/text/summary reports and the figure
+ * loader. The notebooks import only this module; `lib/index.ts` re-exports it and adds file I/O.
+ */
+export type { Curve, CurveMeta } from "./curve.ts";
+export { DotspecError, failureReason, isDotspecError } from "./util/errors.ts";
+export * as constants from "./util/constants.ts";
+export { seededRandom, type SeededRandom } from "./util/random.ts";
+
+// Import and export without files: text and bytes in, CSV text out.
+export {
+  ACCEPTED_UNITS,
+  BIAS_UNITS,
+  CONDUCTANCE_UNITS,
+  CURRENT_UNITS,
+  SI_UNIT,
+  findUnit,
+  parseUnit,
+  toSI,
+  type Quantity,
+  type UnitInfo,
+} from "./io/units.ts";
+export {
+  PARSE_DEFAULTS,
+  parseCurveText,
+  type BiasDirection,
+  type ColumnRef,
+  type ImportColumn,
+  type ImportRecord,
+  type ParseOptions,
+  type ParsedCurve,
+} from "./io/parse/index.ts";
+export type { ColumnRole } from "./io/readColumnHeader.ts";
+export type { Delimiter } from "./io/cells.ts";
+export { parseCurveBytes } from "./io/parseCurveBytes.ts";
+export { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, type CellValue, type CurveColumns } from "./io/formatCsv.ts";
+export { etaFromMetadata, ETA_METADATA_KEYS } from "./io/etaFromMetadata.ts";
+export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./io/parseSizeMeta.ts";
+export { parseOpticalTable, OPTICAL_PEAK_RANGE_EV, type OpticalTableRow } from "./io/parseOpticalTable.ts";
+export { sizeFromMetadata, SIZE_METADATA_KEYS, type MetadataSize } from "./io/sizeFromMetadata.ts";
+
+// Signal stage.
+export * from "./signal/index.ts";
+
+// Peaks.
+export { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksOptions, type FindPeaksRecord } from "./peaks/findPeaks.ts";
+export { peakAreas, type PeakAreasOptions, type PeakAreasResult } from "./peaks/peakAreas.ts";
+export { edgeStepWidth, type EdgeStepWidthOptions } from "./peaks/edgeStepWidth.ts";
+
+// Assignment.
+export {
+  assignSpectrum,
+  ASSIGN_DEFAULTS,
+  type Assignment,
+  type AssignOptions,
+  type Band,
+  type Multiplet,
+  type Regime,
+  type RegimeEvidence,
+  type SpectrumEnergies,
+  type SpectrumQuantities,
+  type SpectrumUncertainties,
+  secondJunctionResonances,
+  SECOND_JUNCTION_DEFAULTS,
+  type SecondJunctionResonance,
+} from "./assign/assignSpectrum.ts";
+export { peakRoles, type PeakRole } from "./assign/peakMultiplets.ts";
+export { gapEdges, GAP_EDGES_DEFAULTS, type GapEdgesOptions } from "./assign/gapEdges.ts";
+export { fitLadderSpacing, type LadderSpacing } from "./assign/ladderFit.ts";
+
+// The whole job on one curve.
+export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettings, type AnalyzedPeak, type CurveAnalysis } from "./pipeline/analyzeCurve.ts";
+
+// Physics model.
+export { parseScenario, biasAxis, SCENARIO_DEFAULTS, type Scenario, type Level, type BiasSweep, type NoiseSpec } from "./model/scenario.ts";
+export { simulateCurve, lockInKernel, scenarioModel, SIMULATE_DEFAULTS, type SimulateOptions, type SimulatedCurve } from "./model/simulate.ts";
+export { bandLadders, exactCurrent, currentSteps, fastCurrent, fastConductance, type DotModel, type CurrentStep } from "./model/bandCurrent.ts";
+export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type SyntheticRanges, type SyntheticTruth } from "./model/syntheticSpectrum.ts";
+export { REGIME_LIMITS, secondToFirstStepRatio, rateRatioFromStepRatio } from "./model/regimeLimits.ts";
+
+// Reports.
+export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson } from "./report/analysisJson.ts";
+export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
+export { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
+export { summaryRow, SUMMARY_COLUMNS, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
+export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION } from "./report/multipletColor.ts";
+// Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.
+export { loadCurveFigure, loadModelFigure, type CurveFigureRenderer, type ModelFigureRenderer } from "./report/loadCurveFigure.ts";
+export type { CurveFigureOptions } from "./report/curveFigure.ts";
+export type { ModelCurve, ModelFigureOptions } from "./report/modelFigure.ts";
+
+// Model fit.
+export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed } from "./model/fit/index.ts";
+export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
+export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
+export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
+
+// Size series: many dots → per-dot table, size bins, model fits, optical pairing.
+export * from "./sizes/index.ts";
+export { sizeSeriesToJson, SIZE_SERIES_JSON_VERSION, type SizeSeriesJson, type SizeDotJson } from "./report/sizeSeriesJson.ts";
+export { formatSizeSeriesText, FORMAT_SIZES_TEXT_DEFAULTS, type FormatSizeSeriesTextOptions } from "./report/formatSizeSeriesText.ts";
+export { sizeSeriesTables, SIZE_TABLE_FILES, type SizeSeriesTables, type SizeTable } from "./report/sizeSeriesTables.ts";
+// Size figures load Observable Plot (and jsdom in Node) on demand: `const sizeFigures = await loadSizeFigures()`.
+export { loadSizeFigures, SIZE_FIGURE_FILES, type SizeFiguresRenderer, type SizeFigureName } from "./report/loadSizeFigures.ts";
+export type { SizeFiguresOptions } from "./report/sizeFigures.ts";

@@ -1,0 +1,209 @@
+// Page furniture shared by the dotspec notebooks: the curve picker (bundled samples, a file
+// picker and a drop zone), download buttons, plain tables and message boxes. No analysis
+// happens here: the notebooks call the library (lib/core.ts) for that.
+import { html } from "htl";
+
+/** Where the chosen curve is kept between the notebooks: this tab's session storage (never sent). */
+const REMEMBER_KEY = "dotspec-notebooks-curve";
+/** Files larger than this are not remembered between pages (session storage is small). */
+const REMEMBER_MAX_BYTES = 2_000_000;
+
+function toBase64(bytes) {
+  let text = "";
+  for (let i = 0; i < bytes.length; i += 0x8000) text += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+  return btoa(text);
+}
+
+function fromBase64(b64) {
+  return Uint8Array.from(atob(b64), (c) => c.charCodeAt(0));
+}
+
+/** The curve chosen last in this tab, if any: a sample index or a file's name and bytes. */
+function remembered() {
+  try {
+    const saved = JSON.parse(sessionStorage.getItem(REMEMBER_KEY) ?? "null");
+    return saved && (typeof saved.sample === "number" || (typeof saved.name === "string" && typeof saved.bytes === "string")) ? saved : null;
+  } catch {
+    return null;
+  }
+}
+
+function remember(saved) {
+  try {
+    sessionStorage.setItem(REMEMBER_KEY, JSON.stringify(saved));
+  } catch {
+    // Storage full or disabled: the next page starts from the first sample.
+  }
+}
+
+/**
+ * A picker for one curve: a bundled sample, a file chosen with the file picker, or a file
+ * dropped on the zone. Its value is whichever was chosen last: an object with `name` and
+ * `arrayBuffer()` (a bundled sample or a File). Files are read in the page only; the choice is
+ * kept in this tab's session storage, so the other notebook opens on the same curve.
+ *
+ * @param {{name: string, file: {arrayBuffer(): Promise<ArrayBuffer>}}[]} samples - bundled curves
+ *   under their own names (a built page renames its files).
+ * @param {{label?: string}} [options]
+ */
+export function curvePicker(samples, { label = "Curve" } = {}) {
+  const select = html`<select data-testid="sample-select" aria-label="bundled sample">${samples.map(
+    (s, i) => html`<option value=${i}>${s.name}</option>`,
+  )}</select>`;
+  const file = html`<input type="file" data-testid="file-input" accept=".csv,.tsv,.txt,.dat,text/plain,text/csv" aria-label="open a curve file">`;
+  const status = html`<span class="dotspec-picked" data-testid="picked"></span>`;
+  const zone = html`<div class="dotspec-drop" data-testid="drop-zone">
+    <div><strong>${label}</strong>: a bundled sample ${select} or your own file ${file}</div>
+    <div class="dotspec-hint">…or drop a file here. Files are read in this page only; nothing is sent anywhere.</div>
+    <div>Showing: ${status}</div>
+  </div>`;
+  const show = (value) => {
+    zone.value = value;
+    status.textContent = value.name;
+  };
+  const set = (value) => {
+    show(value);
+    zone.dispatchEvent(new Event("input", { bubbles: true }));
+  };
+  const sample = (i) => ({ name: samples[i].name, arrayBuffer: () => samples[i].file.arrayBuffer() });
+  const chooseFile = (f) => {
+    set(f);
+    f.arrayBuffer().then((buffer) => {
+      if (buffer.byteLength <= REMEMBER_MAX_BYTES) remember({ name: f.name, bytes: toBase64(new Uint8Array(buffer)) });
+    }, () => {});
+  };
+  select.addEventListener("change", () => {
+    set(sample(Number(select.value)));
+    remember({ sample: Number(select.value) });
+  });
+  file.addEventListener("change", () => {
+    if (file.files && file.files.length) chooseFile(file.files[0]);
+  });
+  zone.addEventListener("dragover", (event) => {
+    event.preventDefault();
+    zone.classList.add("dotspec-drop-over");
+  });
+  zone.addEventListener("dragleave", () => zone.classList.remove("dotspec-drop-over"));
+  zone.addEventListener("drop", (event) => {
+    event.preventDefault();
+    zone.classList.remove("dotspec-drop-over");
+    const dropped = event.dataTransfer && event.dataTransfer.files;
+    if (dropped && dropped.length) chooseFile(dropped[0]);
+  });
+  const saved = remembered();
+  if (saved && typeof saved.sample === "number" && saved.sample < samples.length) {
+    select.value = String(saved.sample);
+    show(sample(saved.sample));
+  } else if (saved && typeof saved.name === "string") {
+    const bytes = fromBase64(saved.bytes);
+    show({ name: saved.name, arrayBuffer: async () => bytes.buffer });
+  } else show(sample(0));
+  return zone;
+}
+
+/**
+ * A button that saves text as a file in the browser (no request leaves the page).
+ *
+ * @param {string} label - the button's text.
+ * @param {string} filename - the name offered to the user.
+ * @param {string} type - the MIME type.
+ * @param {() => string} text - called on click.
+ */
+export function downloadButton(label, filename, type, text) {
+  const button = html`<button type="button" class="dotspec-download">${label}</button>`;
+  button.dataset.filename = filename;
+  button.addEventListener("click", () => {
+    const url = URL.createObjectURL(new Blob([text()], { type }));
+    const a = html`<a href=${url} download=${filename} hidden></a>`;
+    document.body.append(a);
+    a.click();
+    a.remove();
+    setTimeout(() => URL.revokeObjectURL(url), 1000);
+  });
+  return button;
+}
+
+/**
+ * A plain table.
+ *
+ * @param {string[]} headers
+ * @param {(string|number|Node)[][]} rows
+ * @param {{testid?: string, rowData?: (i: number) => Record<string, string>, align?: ("left"|"right")[]}} [options]
+ */
+export function table(headers, rows, { testid, rowData, align = [] } = {}) {
+  const cell = (tag, content, i) => {
+    const el = document.createElement(tag);
+    el.append(content instanceof Node ? content : String(content));
+    if (align[i] === "right") el.style.textAlign = "right";
+    return el;
+  };
+  const t = html`<table class="dotspec-table"><thead><tr>${headers.map((h, i) => cell("th", h, i))}</tr></thead><tbody></tbody></table>`;
+  if (testid) t.dataset.testid = testid;
+  const body = t.querySelector("tbody");
+  rows.forEach((row, r) => {
+    const tr = document.createElement("tr");
+    for (const [k, v] of Object.entries(rowData ? rowData(r) : {})) tr.dataset[k] = v;
+    row.forEach((c, i) => tr.append(cell("td", c, i)));
+    body.append(tr);
+  });
+  return t;
+}
+
+/** A one-line problem (a file that cannot be read or analysed), shown in place of results. */
+export function problem(text) {
+  return html`<div class="dotspec-problem" role="alert" data-testid="problem">${text}</div>`;
+}
+
+/** A quiet note. */
+export function note(text) {
+  return html`<div class="dotspec-note">${text}</div>`;
+}
+
+/**
+ * SVG markup (from the library's figure code) as an element. When the figure says how its panels
+ * map bias to px (its `data-*` axis attributes), a line follows the pointer across the panels and
+ * a line of text below reads the bias, the energy after η and whatever `describe(biasV)` adds.
+ *
+ * @param {string} svgMarkup
+ * @param {string} [testid]
+ * @param {{describe?: (biasV: number) => string}} [options]
+ */
+export function figure(svgMarkup, testid, { describe } = {}) {
+  const div = html`<div class="dotspec-figure"></div>`;
+  if (testid) div.dataset.testid = testid;
+  div.innerHTML = svgMarkup;
+  const svg = div.querySelector(":scope > svg");
+  if (!svg || !svg.hasAttribute("data-bias-range-v")) return div;
+  const numbers = (name) => svg.getAttribute(name).split(" ").map(Number);
+  const [v0, v1] = numbers("data-bias-range-v");
+  const [x0, x1] = numbers("data-plot-x-px");
+  const [y0, y1] = numbers("data-panels-y-px");
+  const eta = Number(svg.getAttribute("data-eta"));
+  const line = document.createElementNS("http://www.w3.org/2000/svg", "line");
+  for (const [k, v] of Object.entries({ y1: y0, y2: y1, stroke: "#5c5c60", "stroke-dasharray": "3,3", visibility: "hidden", "pointer-events": "none" })) line.setAttribute(k, String(v));
+  svg.append(line);
+  const hint = "Point at the figure to read the bias and the energy.";
+  const readout = html`<div class="dotspec-note" data-testid="readout">${hint}</div>`;
+  div.append(readout);
+  svg.addEventListener("pointermove", (event) => {
+    const box = svg.getBoundingClientRect();
+    const px = ((event.clientX - box.left) * svg.viewBox.baseVal.width) / box.width;
+    if (px < x0 || px > x1) return;
+    const biasV = v0 + ((px - x0) / (x1 - x0)) * (v1 - v0);
+    line.setAttribute("x1", String(px));
+    line.setAttribute("x2", String(px));
+    line.setAttribute("visibility", "visible");
+    const more = describe ? describe(biasV) : "";
+    readout.textContent = `bias ${biasV.toFixed(3)} V · energy ${(eta * biasV).toFixed(3)} eV (η = ${eta})${more ? ` · ${more}` : ""}`;
+  });
+  svg.addEventListener("pointerleave", () => {
+    line.setAttribute("visibility", "hidden");
+    readout.textContent = hint;
+  });
+  return div;
+}
+
+/** Nothing to show (an empty, invisible element: a cell that has nothing to say stays blank). */
+export function nothing() {
+  return html`<span hidden></span>`;
+}

@@ -1,0 +1,386 @@
+// The notebooks in a real browser: Debian's Chromium driven by playwright-core, the static build
+// served on 127.0.0.1. Check values: facts of the trade and closed forms, named beside each check:
+// the s level of a dot in shell filling holds two electrons, so its multiplet has two peaks
+// whatever the smoothing; smoothing with a longer Savitzky–Golay window broadens the peaks (the
+// filter's pass band narrows as the window grows: Savitzky & Golay, Anal. Chem. 36, 1627 (1964));
+// a window in mV becomes the nearest odd number of bias steps, so the window shown is within one
+// step of the window set (the project's documented rule); a bad file gives the line that
+// `dotspec analyze` prints for it (the CLI itself is run as the reference).
+//
+// Screenshots go to artifacts/browser/ (git-ignored); so do the measured control-to-redraw
+// times (timings.json), which are reported, not asserted: speed is not a test here.
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { execFile } from "node:child_process";
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { cpus, loadavg, tmpdir } from "node:os";
+import { join } from "node:path";
+import { promisify } from "node:util";
+import type { BrowserContext, Page } from "playwright-core";
+import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts";
+import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
+import { parseCurveText, parseScenario } from "../../lib/index.ts";
+
+const CHROMIUM = "/usr/bin/chromium";
+const HAVE_CHROMIUM = existsSync(CHROMIUM);
+const ARTIFACTS = join(ROOT, "artifacts", "browser");
+const LAUNCH_ARGS = [
+  "--headless",
+  "--no-sandbox",
+  "--disable-gpu",
+  "--disable-quic",
+  "--no-first-run",
+  "--disable-background-networking",
+  "--disable-component-update",
+  "--disable-sync",
+];
+
+if (!HAVE_CHROMIUM && !process.env.CI) {
+  console.warn(
+    "\n" +
+      "!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n" +
+      "!! SKIPPING the notebook browser tests: /usr/bin/chromium is not installed.\n" +
+      "!! Install it with:  sudo apt-get update && sudo apt-get install -y chromium\n" +
+      "!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!!\n",
+  );
+}
+
+describe.runIf(!HAVE_CHROMIUM && process.env.CI)("notebooks in Chromium (CI)", () => {
+  it("needs /usr/bin/chromium", () => {
+    throw new Error("/usr/bin/chromium is missing on CI: .ci/run must install it (apt-get install -y chromium) before npm test");
+  });
+});
+
+describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
+  let out = "";
+  let profile = "";
+  let served: StaticServer;
+  let context: BrowserContext;
+  /** Requests per host, and those refused because they left 127.0.0.1. */
+  const requests = { local: 0, offHost: [] as string[] };
+  const pageErrors: string[] = [];
+  const work = mkdtempSync(join(tmpdir(), "dotspec-browser-files-"));
+
+  beforeAll(async () => {
+    mkdirSync(ARTIFACTS, { recursive: true });
+    out = mkdtempSync(join(tmpdir(), "dotspec-notebooks-"));
+    profile = mkdtempSync(join(tmpdir(), "dotspec-chromium-"));
+    await buildNotebooks(out);
+    served = await serveStatic(out, 0);
+    const { chromium } = await import("playwright-core");
+    context = await chromium.launchPersistentContext(profile, {
+      executablePath: CHROMIUM,
+      headless: true,
+      args: LAUNCH_ARGS,
+      viewport: { width: 1000, height: 900 },
+      acceptDownloads: true,
+    });
+    await context.route("**/*", (route) => {
+      const url = new URL(route.request().url());
+      if (url.protocol === "blob:" || url.protocol === "data:") return route.continue();
+      if (url.hostname === "127.0.0.1") {
+        requests.local++;
+        return route.continue();
+      }
+      requests.offHost.push(url.href);
+      return route.abort();
+    });
+  }, 180_000);
+
+  afterAll(async () => {
+    await context?.close();
+    await served?.close();
+    for (const dir of [out, profile, work]) if (dir) rmSync(dir, { recursive: true, force: true });
+  });
+
+  async function open(name: string): Promise<Page> {
+    const page = await context.newPage();
+    page.on("pageerror", (e) => pageErrors.push(`${name}: ${e.message}`));
+    await page.goto(served.url + name);
+    return page;
+  }
+
+  /** The range input of an Inputs control, by its label. */
+  const range = (page: Page, label: string) => page.locator(`form:has(> label:text-is("${label}")) input[type=range]`);
+  const checkbox = (page: Page, label: string) => page.locator(`form:has(> label:text-is("${label}")) input[type=checkbox]`);
+
+  async function setRange(page: Page, label: string, value: number): Promise<void> {
+    await range(page, label).evaluate((el: HTMLInputElement, v: number) => {
+      el.value = String(v);
+      el.dispatchEvent(new Event("input", { bubbles: true }));
+    }, value);
+  }
+
+  /** Peaks of the peak table: bias, FWHM (mV) and multiplet. */
+  async function peakRows(page: Page): Promise<{ biasV: number; fwhmMV: number; multiplet: string }[]> {
+    return page.locator("[data-testid=peak-table] tbody tr").evaluateAll((rows) =>
+      rows.map((r) => ({
+        biasV: Number((r as HTMLElement).dataset.biasV),
+        fwhmMV: Number(r.children[4].textContent),
+        multiplet: (r as HTMLElement).dataset.multiplet ?? "",
+      })),
+    );
+  }
+
+  async function errorCells(page: Page): Promise<number> {
+    return page.locator(".observablehq--error").count();
+  }
+
+  /** The line `dotspec analyze FILE` prints for a file it cannot read, without "dotspec: ". */
+  async function cliLine(dir: string, file: string): Promise<string> {
+    const run = promisify(execFile);
+    const result = await run(process.execPath, [join(ROOT, "bin", "dotspec.js"), "analyze", file], { cwd: dir }).then(
+      () => ({ stderr: "" }),
+      (err: { stderr: string }) => err,
+    );
+    const line = result.stderr.split("\n").find((l) => l.startsWith("dotspec: "));
+    expect(line, `the CLI's message for ${file}`).toBeDefined();
+    return line!.slice("dotspec: ".length);
+  }
+
+  it("the start page links both notebooks and loads nothing from elsewhere", async () => {
+    const page = await open("index.html");
+    await expect.poll(() => page.locator("main a[href='./curve.html']").count()).toBe(1);
+    expect(await page.locator("main a[href='./model.html']").count()).toBe(1);
+    await page.close();
+  });
+
+  it("one curve: a sample through the file input; moving the smoothing window keeps the s doublet and broadens the peaks", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    await page.setInputFiles("[data-testid=file-input]", join(ROOT, "sample-curves", "dot-01.csv"));
+    await expect.poll(() => page.locator("[data-testid=picked]").textContent()).toBe("dot-01.csv");
+    await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dot-01.csv");
+    expect(await page.locator("[data-testid=import-columns] tbody tr").count()).toBe(4); // bias + 3 current sweeps, as in the file's header
+
+    await checkbox(page, "automatic window").uncheck();
+    const step = Number((await page.locator("[data-testid=import-summary]").textContent())!.match(/step ([\d.]+) mV/)![1]);
+    const figures: string[] = [];
+    const peaksAt: Record<number, Awaited<ReturnType<typeof peakRows>>> = {};
+    for (const windowMV of [40, 80]) {
+      await setRange(page, "smoothing window (mV)", windowMV);
+      await expect
+        .poll(async () => Math.abs(Number(await page.locator("[data-testid=settings]").getAttribute("data-window-mv")) - windowMV))
+        .toBeLessThanOrEqual(step); // nearest odd number of bias steps: within one step of the window set
+      expect(await page.locator("[data-testid=settings]").textContent()).toContain("as set");
+      expect(await range(page, "smoothing window (mV)").inputValue()).toBe(String(windowMV));
+      peaksAt[windowMV] = await peakRows(page);
+      figures.push((await page.locator("[data-testid=curve-figure]").innerHTML())!);
+      await page.screenshot({ path: join(ARTIFACTS, `curve-window-${windowMV}.png`), fullPage: true });
+    }
+    // Shell filling: the s doublet keeps its two peaks (spin degeneracy of the s level).
+    expect(await page.locator("[data-testid=regime]").getAttribute("data-regime")).toBe("shell-filling");
+    for (const w of [40, 80]) expect(peaksAt[w].filter((p) => p.multiplet === "s")).toHaveLength(2);
+    // A longer window broadens the peaks: the mean FWHM of the s and p peaks grows.
+    const meanFwhm = (rows: typeof peaksAt[number]) => {
+      const sp = rows.filter((p) => p.multiplet === "s" || p.multiplet === "p");
+      return sp.reduce((s, p) => s + p.fwhmMV, 0) / sp.length;
+    };
+    expect(meanFwhm(peaksAt[80])).toBeGreaterThan(meanFwhm(peaksAt[40]));
+    // The plot changed with the window.
+    expect(figures[0]).not.toBe(figures[1]);
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("one curve: pointing at a peak's dot reads its bias, its energy (η × bias) and names its multiplet", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    const rows = await peakRows(page);
+    const s1 = rows.find((p) => p.multiplet === "s")!;
+    const dot = page.locator("[data-testid=curve-figure] circle", { hasText: `s: ${s1.biasV.toFixed(4)} V` });
+    await dot.hover();
+    await expect.poll(() => page.locator("[data-testid=readout]").textContent()).toMatch(/^bias /);
+    const text = (await page.locator("[data-testid=readout]").textContent())!;
+    // One px of the figure is (bias span)/(plot width) ≈ 10 mV here: the bias read is within 0.02 V.
+    const bias = Number(/bias (-?[\d.]+) V/.exec(text)![1]);
+    expect(Math.abs(bias - s1.biasV)).toBeLessThan(0.02);
+    const energy = Number(/energy (-?[\d.]+) eV \(η = ([\d.]+)\)/.exec(text)![1]);
+    const eta = Number(/η = ([\d.]+)\)/.exec(text)![1]);
+    expect(Math.abs(energy - eta * bias)).toBeLessThanOrEqual(0.0015); // E = η·V, both shown to 1 meV / 1 mV
+    expect(text).toContain(`peak at ${s1.biasV.toFixed(4)} V`);
+    expect(text).toContain("(s)");
+    await page.locator("[data-testid=curve-figure]").screenshot({ path: join(ARTIFACTS, "curve-pointer.png") });
+    await page.close();
+  });
+
+  it("one curve: a file dropped on the zone is read like a picked one", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    const text = readFileSync(join(ROOT, "sample-curves", "dot-04.csv"), "utf8");
+    const transfer = await page.evaluateHandle((t) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([t], "dropped-dot.csv", { type: "text/csv" }));
+      return dt;
+    }, text);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dropped-dot.csv");
+    // The file's semicolon layout with a lock-in column: the measured dI/dV control is offered.
+    expect(await checkbox(page, "use the measured dI/dV column").isDisabled()).toBe(false);
+    await checkbox(page, "use the measured dI/dV column").check();
+    await expect.poll(() => page.locator("[data-testid=settings]").textContent()).toContain("measured dI/dV");
+    expect(await page.locator("[data-testid=peak-table] tbody tr").count()).toBeGreaterThan(0);
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("the curve chosen in one notebook opens in the other (kept in the tab, not sent anywhere)", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    await page.locator("[data-testid=sample-select]").selectOption({ label: "dot-03.txt" });
+    await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dot-03.txt");
+    await page.goto(served.url + "model.html");
+    await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("dot-03.txt");
+    expect(await page.locator("[data-testid=sample-select]").inputValue()).toBe("2");
+    const text = readFileSync(join(ROOT, "sample-curves", "dot-02.tsv"), "utf8");
+    const transfer = await page.evaluateHandle((t) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([t], "my-dot.tsv", { type: "text/tab-separated-values" }));
+      return dt;
+    }, text);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
+    await page.goto(served.url + "curve.html");
+    await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
+    expect(await page.locator("[data-testid=picked]").textContent()).toBe("my-dot.tsv");
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("one curve: bad files give the CLI's one-line reason in the page, and no cell breaks", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    writeFileSync(join(work, "scan.dat"), Uint8Array.from([0x31, 0x2c, 0x00, 0x32, 0x0a, 0xff, 0x00]));
+    writeFileSync(join(work, "notes.csv"), "# a lab note, not a sweep\nsample A looked fine\nno numbers here\n");
+    for (const name of ["scan.dat", "notes.csv"]) {
+      const expected = await cliLine(work, name);
+      await page.setInputFiles("[data-testid=file-input]", join(work, name));
+      await expect.poll(() => page.locator("[data-testid=problem]").first().textContent(), { timeout: 10_000 }).toBe(expected);
+      // Nothing of the previous curve stays on the page.
+      for (const stale of ["curve-figure", "peak-table", "quantities", "multiplets", "downloads", "settings", "regime"]) {
+        expect(await page.locator(`[data-testid=${stale}]`).count(), stale).toBe(0);
+      }
+      expect(await errorCells(page)).toBe(0);
+      await page.screenshot({ path: join(ARTIFACTS, `curve-bad-${name}.png`), fullPage: true });
+    }
+    // A good file afterwards clears the message.
+    await page.locator("[data-testid=sample-select]").selectOption({ label: "dot-02.tsv" });
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    expect(await page.locator("[data-testid=problem]").count()).toBe(0);
+    await page.close();
+  });
+
+  it("one curve: the downloads are the JSON record, the summary row and the figure", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    const save = async (label: string) => {
+      const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: label }).click()]);
+      return { name: download.suggestedFilename(), text: readFileSync((await download.path())!, "utf8") };
+    };
+    const json = await save("JSON record");
+    expect(json.name).toBe("dot-01.json");
+    expect(JSON.parse(json.text).source).toBe("dot-01.csv");
+    const csv = await save("CSV summary row");
+    expect(csv.text.split("\n")[0].startsWith("source,regime,gap_V")).toBe(true);
+    const svg = await save("SVG figure");
+    expect(svg.text.startsWith("<svg")).toBe(true);
+    await page.close();
+  });
+
+  it("one curve: measures control-to-redraw time on a 2,000-point curve (reported, not asserted)", async () => {
+    const page = await open("curve.html");
+    await page.locator("[data-testid=curve-figure] > svg").waitFor();
+    expect(await page.locator("[data-testid=import-summary]").textContent()).toContain("2000 points");
+    await checkbox(page, "automatic window").uncheck();
+    await page.locator("[data-testid=settings]:has-text('as set')").waitFor();
+    const times: number[] = [];
+    const load = loadavg()[0];
+    for (const windowMV of [30, 50, 35, 55, 40, 60, 45, 65, 30, 50, 35, 55, 40, 60, 45, 65, 30, 50, 35, 55]) {
+      const ms = await page.evaluate((w) => {
+        const input = [...document.querySelectorAll("form")].find((f) => f.querySelector(":scope > label")?.textContent === "smoothing window (mV)")!.querySelector("input[type=range]") as HTMLInputElement;
+        const cell = document.querySelector("[data-testid=curve-figure]")!.parentElement!;
+        const before = cell.querySelector("[data-testid=curve-figure]");
+        return new Promise<number>((resolve) => {
+          const t0 = performance.now();
+          const seen = new MutationObserver(() => {
+            const now = cell.querySelector("[data-testid=curve-figure]");
+            if (now && now !== before) {
+              seen.disconnect();
+              requestAnimationFrame(() => resolve(performance.now() - t0));
+            }
+          });
+          seen.observe(cell, { childList: true });
+          input.value = String(w);
+          input.dispatchEvent(new Event("input", { bubbles: true }));
+        });
+      }, windowMV);
+      times.push(ms);
+    }
+    times.sort((a, b) => a - b);
+    const median = (times[9] + times[10]) / 2;
+    const version = context.browser()?.version() ?? (await page.evaluate(() => navigator.userAgent));
+    writeFileSync(join(ARTIFACTS, "timings.json"), JSON.stringify({ what: "control to redraw, one-curve notebook, 2,000 points", chromium: version, loadAverage1min: load, msSorted: times, medianMs: median }, null, 2) + "\n");
+    console.log(`control-to-redraw (2,000 points): median ${median.toFixed(1)} ms, range ${times[0].toFixed(1)}–${times[times.length - 1].toFixed(1)} ms (load average ${load.toFixed(1)} on ${cpus().length} cores)`);
+    expect(times.every((t) => t > 0)).toBe(true);
+    await page.close();
+  });
+
+  it("model: the fit runs from a button, its values come with errors and its residuals are drawn", async () => {
+    const page = await open("model.html");
+    await page.locator("[data-testid=model-figure] > svg").waitFor();
+    const panels = () => page.locator("[data-testid=model-figure] > svg > svg").count();
+    expect(await panels()).toBe(2);
+    // Moving Ec redraws the model.
+    const before = await page.locator("[data-testid=model-figure]").innerHTML();
+    const ec = Number(await range(page, "charging energy Ec (eV)").inputValue());
+    await setRange(page, "charging energy Ec (eV)", +(ec + 0.02).toFixed(3));
+    await expect.poll(() => page.locator("[data-testid=model-figure]").innerHTML()).not.toBe(before);
+
+    await page.getByRole("button", { name: "Run the fit" }).click();
+    await page.locator("[data-testid=fit-values]").waitFor({ timeout: 20_000 });
+    expect(await page.locator("[data-testid=fit-status]").getAttribute("data-converged")).toBe("true");
+    await expect.poll(panels).toBe(3);
+    // The controls now start from the fit.
+    await page.locator(".dotspec-note:has-text('The controls hold the fitted values')").waitFor();
+    expect(await page.locator("[data-testid=model-figure]").textContent()).toContain("residual, data − fitted model (pA)");
+    const rows = await page.locator("[data-testid=fit-values] tbody tr").allTextContents();
+    expect(rows.some((r) => r.startsWith("charging energy Ec") && r.includes("±"))).toBe(true);
+    await page.screenshot({ path: join(ARTIFACTS, "model-fit.png"), fullPage: true });
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("model: the simulated curve and its scenario download and read back with the library", async () => {
+    const page = await open("model.html");
+    await page.locator("[data-testid=model-figure] > svg").waitFor();
+    const save = async (label: string) => {
+      const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: label }).click()]);
+      return readFileSync((await download.path())!, "utf8");
+    };
+    const scenario = parseScenario(JSON.parse(await save("Scenario (JSON)")));
+    const { curve } = parseCurveText(await save("Simulated curve (CSV)"), { source: "model.csv" });
+    // The curve spans the scenario's bias axis: (to − from)/step + 1 points (closed form).
+    expect(curve.biasV.length).toBe(Math.floor((scenario.bias.toV - scenario.bias.fromV) / scenario.bias.stepV + 1e-9) + 1);
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("model: a bad file gives its reason in the page and no cell breaks", async () => {
+    const page = await open("model.html");
+    await page.locator("[data-testid=model-figure] > svg").waitFor();
+    writeFileSync(join(work, "empty.csv"), "");
+    const expected = await cliLine(work, "empty.csv");
+    await page.setInputFiles("[data-testid=file-input]", join(work, "empty.csv"));
+    await expect.poll(() => page.locator("[data-testid=problem]").first().textContent()).toBe(expected);
+    for (const stale of ["model-figure", "fit-values", "simulate-downloads"]) expect(await page.locator(`[data-testid=${stale}]`).count(), stale).toBe(0);
+    expect(await page.getByRole("button", { name: "Run the fit" }).count()).toBe(0);
+    expect(await range(page, "charging energy Ec (eV)").count()).toBe(0);
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("no page raised an error and no request left 127.0.0.1", () => {
+    expect(pageErrors).toEqual([]);
+    expect(requests.offHost).toEqual([]);
+    expect(requests.local).toBeGreaterThan(10); // the counting saw the page's own requests
+  });
+});
