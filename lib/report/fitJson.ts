@@ -7,6 +7,19 @@ import type { AnalysisJson } from "./analysisJson.ts";
 
 export interface FitJson {
   source: string;
+  /** "good", "poor" or "failed" (no fit: do not use the values), from χ² and the parameter errors. */
+  status: CurveFit["status"];
+  statusReasons: string[];
+  /** The grouping of the peaks the values come from, and every start tried with its BIC weight. */
+  hypothesis: CurveFit["hypothesis"];
+  alternatives: CurveFit["alternatives"];
+  /**
+   * The quantities the fit implies, in eV, beside the peak-based ones (`peakBased.energies`):
+   * gap = ε_s + |ε_v1| + Ec (the first carrier of each band), Ec, Δsp = ε_p − ε_s; 1σ from the
+   * level and Ec errors in quadrature (their correlations neglected); null where the fit has no
+   * such level.
+   */
+  quantities: { gapEV: FittedValue | null; chargingEnergyEV: FittedValue; levelSpacingSPEV: FittedValue | null };
   converged: boolean;
   message: string;
   iterations: number;
@@ -52,8 +65,23 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
       .filter((l) => l.band === b)
       .map((l) => l.energyV.value)
       .sort((x, y) => (b === "CB" ? x - y : y - x));
+  const first = (band: "CB" | "VB", prefix: string) => fit.levels.find((l) => l.band === band && l.label.startsWith(prefix));
+  const s1 = first("CB", "s"), p1 = first("CB", "p"), v1 = first("VB", "v");
+  const sum = (parts: FittedValue[], signs: number[]): FittedValue => ({
+    value: parts.reduce((acc, x, i) => acc + signs[i] * x.value, 0),
+    standardError: Math.hypot(...parts.map((x) => x.standardError)),
+  });
   return {
     source: fit.source,
+    status: fit.status,
+    statusReasons: fit.statusReasons,
+    hypothesis: fit.hypothesis,
+    alternatives: fit.alternatives,
+    quantities: {
+      gapEV: s1 && v1 ? sum([s1.energyEV, v1.energyEV, fit.chargingEnergyEV], [1, -1, 1]) : null,
+      chargingEnergyEV: fit.chargingEnergyEV,
+      levelSpacingSPEV: s1 && p1 ? sum([p1.energyEV, s1.energyEV], [1, -1]) : null,
+    },
     converged: fit.converged,
     message: fit.message,
     iterations: fit.iterations,
@@ -90,19 +118,39 @@ export function formatFitText(fit: FitJson): string {
   const pm = (v: FittedValue, scale = 1, digits = 4) =>
     `${(v.value * scale).toFixed(digits)} ± ${Number.isFinite(v.standardError) ? (v.standardError * scale).toFixed(digits) : "—"}`;
   const lines: string[] = [];
-  lines.push(`${fit.source}  ·  model fit ${fit.converged ? "converged" : "DID NOT CONVERGE"}  ·  η = ${fit.eta} (held fixed)`);
-  lines.push(`  ${fit.message}; ${fit.iterations} iterations; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}`);
+  const headline = fit.status === "good" ? "model fit: good" : fit.status === "poor" ? "model fit: POOR" : "NO FIT";
+  lines.push(`${fit.source}  ·  ${headline}  ·  η = ${fit.eta} (held fixed)`);
+  lines.push(`  ${fit.statusReasons.join("; ")}`);
+  lines.push(`  ${fit.message}; ${fit.iterations} iterations; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
+  if (fit.status === "failed") {
+    const best = fit.alternatives.reduce((a, b) => (b.bic < a.bic ? b : a));
+    lines.push(`  No start describes the curve (best reduced χ² ${best.reducedChiSquare.toPrecision(4)}, from Γtip/Γsub = ${best.rateRatioStart.toPrecision(2)}); the peak-based result (dotspec analyze) stands.`);
+    if (fit.warnings.length) {
+      lines.push("");
+      lines.push(`  Warnings (${fit.warnings.length})`);
+      for (const w of fit.warnings) lines.push(`    ! ${w}`);
+    }
+    return lines.join("\n") + "\n";
+  }
   if (!fit.converged) lines.push("  The peak-based result (dotspec analyze) stands; the values below are the best the fit reached.");
-  lines.push("");
-  lines.push(`  Ec                 = ${pm(fit.energies.chargingEnergyEV, 1000, 2)} meV   (${pm({ value: fit.chargingEnergyV, standardError: fit.chargingEnergyVSE }, 1000, 2)} mV of bias)`);
-  lines.push(`  Γtip/Γsub          = ${fit.rateRatio.toPrecision(3)} ± ${fit.rateRatioSE.toPrecision(2)}  →  ${fit.regime}`);
-  lines.push(`  Γsub               = ${fit.substrateRatePerS.value.toExponential(3)} /s`);
-  lines.push(`  broadening σ       = ${pm(fit.energies.broadeningEV, 1000, 2)} meV`);
   lines.push("");
   lines.push("  Levels  (energy relative to the Fermi level at zero bias)");
   for (const l of fit.energies.levels) {
     lines.push(`    ${l.band} ${l.label.padEnd(4)} g = ${String(l.degeneracy).padStart(2)}   ε = ${pm(l.energyEV, 1, 4)} eV   (${pm(l.energyV, 1, 4)} V of bias)`);
   }
+  lines.push("");
+  lines.push("  Quantities (eV)         fit                 peaks (dotspec analyze)");
+  const pe = fit.peakBased.energies;
+  const row = (name: string, f: FittedValue | null, v: number | null, sv: number | null) =>
+    `    ${name.padEnd(20)} ${(f ? pm(f, 1, 4) : "—").padEnd(19)} ${v === null ? "—" : `${v.toFixed(4)} ± ${sv === null ? "—" : sv.toFixed(4)}`}`;
+  lines.push(row("gap", fit.quantities.gapEV, pe.gapEV, pe.uncertainties.gapEV));
+  lines.push(row("Ec", fit.quantities.chargingEnergyEV, pe.chargingEnergyEV, pe.uncertainties.chargingEnergyEV));
+  lines.push(row("Δsp", fit.quantities.levelSpacingSPEV, pe.levelSpacingSPEV, pe.uncertainties.levelSpacingSPEV));
+  lines.push("");
+  lines.push(`  Ec                 = ${pm(fit.energies.chargingEnergyEV, 1000, 2)} meV   (${pm({ value: fit.chargingEnergyV, standardError: fit.chargingEnergyVSE }, 1000, 2)} mV of bias)`);
+  lines.push(`  Γtip/Γsub          = ${fit.rateRatio.toPrecision(3)} ± ${fit.rateRatioSE.toPrecision(2)}  →  ${fit.regime}`);
+  lines.push(`  Γsub               = ${fit.substrateRatePerS.value.toExponential(3)} ± ${Number.isFinite(fit.substrateRatePerS.standardError) ? fit.substrateRatePerS.standardError.toExponential(1) : "—"} /s`);
+  lines.push(`  broadening σ       = ${pm(fit.energies.broadeningEV, 1000, 2)} meV`);
   if (fit.warnings.length) {
     lines.push("");
     lines.push(`  Warnings (${fit.warnings.length})`);

@@ -40,7 +40,8 @@ describe("dotspec fit FILE... --eta η", () => {
     const r = await run(["fit", filling, "--eta", "0.8", "--out", out]);
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/Γtip\/Γsub/);
-    expect(r.stdout).toMatch(/model fit converged/);
+    expect(r.stdout).toMatch(/model fit: good/);
+    expect(r.stdout).toMatch(/Quantities \(eV\) +fit +peaks/);
     expect(existsSync(join(out, "filling.fit.json"))).toBe(true);
     expect(JSON.parse(readFileSync(join(out, "filling.fit.json"), "utf8")).source).toBe(filling);
     const svg = readFileSync(join(out, "filling.fit.svg"), "utf8");
@@ -49,13 +50,33 @@ describe("dotspec fit FILE... --eta η", () => {
     expect(svg).toContain("residual, data − fitted model");
   });
 
-  it("a fit cut short by its time limit says so and keeps the peak-based result, exit 0", async () => {
+  it("a fit cut short by its time limit says so and keeps the peak-based result; its status, not convergence, sets the exit code", async () => {
     const r = await run(["fit", filling, "--eta", "0.8", "--json", "--time-limit-ms", "1"]);
-    expect(r.code).toBe(0);
     const [rec] = JSON.parse(r.stdout);
     expect(rec.converged).toBe(false);
     expect(rec.message).toMatch(/time limit/);
     expect(rec.peakBased.regime).toBe("shell-filling");
+    expect(["good", "poor", "failed"]).toContain(rec.status);
+    expect(r.code).toBe(rec.status === "failed" ? 1 : 0);
+  });
+
+  it("an intermediate dot (Γtip/Γsub = 1) that the peak rules leave undetermined gets a status with reasons, never a silent collapse", async () => {
+    // The crossover case: the assignment gives no CB ladder, so the single-level model cannot
+    // describe the curve; the fit must say so (status failed: "NO FIT", exit 1) or, if a start
+    // does describe it, give a determined Ec (closed form: 0.1 eV in the scenario).
+    const mid = writeCurve(join(dir, "mid.csv"), { ...FILLING, tipRatePerS: 1e8, substrateRatePerS: 1e8 }, "fast");
+    const r = await run(["fit", mid, "--eta", "0.8", "--json"]);
+    const [rec] = JSON.parse(r.stdout);
+    expect(rec.statusReasons.length).toBeGreaterThan(0);
+    if (rec.status === "failed") {
+      expect(r.code).toBe(1);
+      expect(r.stderr).toMatch(/mid\.csv: no fit \(/);
+    } else {
+      expectClose(rec.energies.chargingEnergyEV.value, 0.1, { rtol: 0.1, what: "Ec of a fit that claims success" });
+    }
+    expect(rec.alternatives.length).toBeGreaterThan(1); // the rate-ratio grid was tried
+    const text = await run(["fit", mid, "--eta", "0.8"]);
+    if (rec.status === "failed") expect(text.stdout).toMatch(/NO FIT/);
   });
 
   it("a missing file fails alone (exit 1); a bad option is a usage error (exit 2)", async () => {

@@ -30,6 +30,7 @@ export interface FitCliOptions extends CurveCliOptions {
   out?: string;
   timeLimitMs?: number;
   maxIterations?: number;
+  compareModels?: boolean;
 }
 
 const HELP_AFTER = `
@@ -38,8 +39,12 @@ energies, the charging energy, the tip/substrate rate ratio, the rate scale, the
 a current offset and a smooth background (b1·V + b3·V³). η is held fixed: one curve barely
 constrains it (it trades off against every level energy); give the value you trust.
 
-A fit that does not converge says so; the peak-based result then stands, and it is included in
-the JSON output (field "peakBased"). The fit stops at --time-limit-ms in any case.
+Each fit gets a status from its reduced χ² and the errors of Ec and Γtip/Γsub, not from the
+optimiser: good, poor, or failed ("NO FIT": no start describes the curve; exit status 1). When the
+first fit does not describe the curve, or the regime is undetermined, the fit is started again
+from Γtip/Γsub = 0.01 … 100 and the best is kept; --compare-models also tries the other regimes'
+groupings of the peaks and keeps the best by BIC. The peak-based result is always included in the
+JSON output (field "peakBased"). The fit stops at --time-limit-ms in any case.
 
 The fitted rate ratio is a property of the recorded curve, not an instrument setting; any change
 to the tip height or setpoint it suggests must be checked against the instrument's own limits.
@@ -74,6 +79,7 @@ export const fitCommand: CliCommand = {
         `most Levenberg–Marquardt iterations (default: ${FIT_DEFAULTS.maxIterations})`,
         numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }),
       )
+      .option("--compare-models", "also fit the shell-filling and shell-tunnelling groupings of the same peaks and keep the best by BIC (slower)")
       .addHelpText("after", HELP_AFTER)
       .action(async (files: string[], opts: FitCliOptions) => {
         ctx.exitCode = await runFit(files, opts, ctx);
@@ -83,7 +89,8 @@ export const fitCommand: CliCommand = {
 
 /**
  * Runs `dotspec fit`: 0 when every file was fitted (converged or not: a non-converged fit is
- * reported, not an error), 1 when a file could not be read or analysed.
+ * reported, not an error), 1 when a file could not be read or analysed or no start of the fit
+ * described it (status "failed": the record is still printed, with the reasons).
  */
 export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): Promise<number> {
   let failed = false;
@@ -103,7 +110,7 @@ export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContex
       const { curve, record } = readCurveFile(file, readOptions(opts));
       const { eta, note } = etaForCurve(opts.eta, curve);
       const analysis = analyzeCurve(curve, eta === undefined ? {} : { eta });
-      const fit = fitCurve(analysis, { timeLimitMs: opts.timeLimitMs, maxIterations: opts.maxIterations });
+      const fit = fitCurve(analysis, { timeLimitMs: opts.timeLimitMs, maxIterations: opts.maxIterations, compareModels: opts.compareModels });
       if (note) fit.warnings.unshift(note);
       const json = fitToJson(fit, analysisToJson(analysis, record));
       records.push(json);
@@ -114,6 +121,11 @@ export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContex
         writeTextFile(join(opts.out, name + ".fit.svg"), figure(analysis, { fit }));
       }
       if (!opts.json && !ctx.stdoutGone()) ctx.stdout.write(formatFitText(json) + "\n");
+      if (fit.status === "failed") {
+        // Reported in full above (or in the JSON); the file still counts as failed.
+        ctx.error(`${file}: no fit (${fit.statusReasons[0]})`);
+        failed = true;
+      }
     } catch (err) {
       ctx.error(`${file}: ${failureReason(file, err)}`);
       failed = true;

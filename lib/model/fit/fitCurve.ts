@@ -7,12 +7,15 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { seedLevels } from "./seedLevels.ts";
-import { startingValues } from "./startingValues.ts";
+import { seedLevels, type LevelSeed } from "./seedLevels.ts";
+import { startingValues, type StartingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
-import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
+import { levenbergMarquardtLoop, type LoopResult } from "./levenbergMarquardtLoop.ts";
+import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
+import { assignSpectrum } from "../../assign/assignSpectrum.ts";
+import { SCENARIO_DEFAULTS } from "../scenario.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 
@@ -30,6 +33,14 @@ export interface FitOptions {
   maxPoints?: number;
   /** Starting charging energy in eV where the peaks do not give one (shell tunnelling). Default: FIT_DEFAULTS.chargingEnergyGuessEV (0.1). */
   chargingEnergyGuessEV?: number;
+  /**
+   * Also fit the other regimes' groupings of the same peaks (shell filling and shell tunnelling
+   * forced), each from every rate-ratio start, and keep the best by BIC; without it only the
+   * assignment's own grouping is fitted (from the whole rate-ratio grid when its first fit does not
+   * describe the curve). Slower: a grouping with many single levels has a large state space.
+   * Default: FIT_DEFAULTS.compareModels (false).
+   */
+  compareModels?: boolean;
 }
 
 /** Defaults and constants of {@link fitCurve} (locked by test/model/fit/fitCurve.test.ts). */
@@ -47,8 +58,13 @@ export const FIT_DEFAULTS = Object.freeze({
   fillingRatioMin: REGIME_LIMITS.fillingRateRatioMin,
   /** … and at or below which it is in shell tunnelling (in between: intermediate). */
   tunnelingRatioMax: REGIME_LIMITS.tunnelingRateRatioMax,
-  /** A reduced χ² above this says the model, as started from the assignment, does not describe the curve. */
-  poorFitChiSquare: 10,
+  /** A reduced χ² above this says the model does not describe the curve well (FIT_STATUS_DEFAULTS.poorChiSquare). */
+  poorFitChiSquare: FIT_STATUS_DEFAULTS.poorChiSquare,
+  compareModels: false,
+  /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
+  rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
+  /** Iterations of each extra start; the best is then finished with maxIterations. */
+  exploreIterations: 8,
 });
 
 /** One fitted parameter with its standard error. */
@@ -69,6 +85,24 @@ export interface FittedLevel {
   energyV: FittedValue;
 }
 
+/** One start of one hypothesis that {@link fitCurve} tried. */
+export interface FitAlternative {
+  /** "assigned", or the regime forced on the same peaks. */
+  hypothesis: "assigned" | "shell-filling" | "shell-tunneling";
+  /** Regime of that grouping of the peaks. */
+  regime: string;
+  /** Levels fitted. */
+  levels: number;
+  /** Γtip/Γsub it started from and ended at. */
+  rateRatioStart: number;
+  rateRatio: number;
+  reducedChiSquare: number;
+  /** Bayesian information criterion χ² + k·ln n. */
+  bic: number;
+  /** exp(−ΔBIC/2), normalised over the alternatives: the relative weight of evidence. */
+  weight: number;
+}
+
 /** Result of {@link fitCurve}. */
 export interface CurveFit {
   source: string;
@@ -77,6 +111,19 @@ export interface CurveFit {
   message: string;
   iterations: number;
   eta: number;
+  /**
+   * "good" (the model describes the curve and Ec and Γtip/Γsub are determined), "poor" (it
+   * describes it only roughly, or a key parameter is poorly determined) or "failed" (no start
+   * describes the curve: no fit; the values are not to be used). From the reduced χ² and the
+   * parameter errors, not from the optimiser's convergence.
+   */
+  status: FitStatus;
+  /** Why the status is what it is, in words. */
+  statusReasons: string[];
+  /** The hypothesis the values come from. */
+  hypothesis: FitAlternative["hypothesis"];
+  /** Every start of every hypothesis tried, with its score. */
+  alternatives: FitAlternative[];
   levels: FittedLevel[];
   chargingEnergyEV: FittedValue;
   /** Ec/η, V. */
@@ -177,22 +224,23 @@ export interface CurveFit {
  * ```
  */
 export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): CurveFit {
-  checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV"]);
+  checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV", "compareModels"]);
   const F = FIT_DEFAULTS;
   const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkEta("eta", options.eta);
   const temperatureK = checkPositive("temperatureK", options.temperatureK ?? F.temperatureK);
   const maxIterations = checkPositive("maxIterations", options.maxIterations ?? F.maxIterations);
   const timeLimitMs = checkPositive("timeLimitMs", options.timeLimitMs ?? F.timeLimitMs);
   const maxPoints = checkPositive("maxPoints", options.maxPoints ?? F.maxPoints);
+  const compareModels = options.compareModels ?? F.compareModels;
+  const guessEC = options.chargingEnergyGuessEV ?? F.chargingEnergyGuessEV;
   const warnings: string[] = [];
   if (!analysis.assignment.energies.etaGiven && options.eta === undefined) warnings.push("eta not given: the fit used η = 1");
 
-  // 1. Levels and starting values from the assignment.
-  const seeds = seedLevels(analysis);
-  if (!seeds.length) {
+  // 1. Hypotheses: the assignment as it stands, and the other regimes' groupings of the same peaks.
+  const hypotheses = fitHypotheses(analysis, eta, compareModels);
+  if (!hypotheses.length) {
     throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
   }
-  if (analysis.assignment.regime === "undetermined") warnings.push("regime undetermined: the fit starts from single levels");
 
   // Data, thinned evenly.
   const sig = analysis.conductance;
@@ -201,40 +249,70 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const dataA = sig.currentA.filter((_, i) => i % stride === 0);
   const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
   const n = biasV.length;
-
-  const start = startingValues(analysis, seeds, eta, options.chargingEnergyGuessEV ?? F.chargingEnergyGuessEV);
-  const nl = seeds.length;
-  const at = parameterIndex(nl);
-
-  // 2. The model current: nonlinear shape, linear scale, offset and background.
   const v3 = biasV.map((v) => v * v * v);
-  const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
-  let cacheKey = "";
-  let cacheOut = new Float64Array(n);
-  const modelScaled = (p: number[]) => {
-    const key = p.join(",");
-    if (key !== cacheKey) {
-      cacheKey = key;
-      cacheOut = evaluate(p).out.map((v) => v / noiseA);
-    }
-    const out = cacheOut;
-    return (x: number) => out[x];
-  };
   const data = { x: Array.from({ length: n }, (_, i) => i), y: Array.from(dataA, (v) => v / noiseA) };
+  const started = Date.now();
 
-  // 3. Levenberg–Marquardt in chunks, with our own convergence test and time limit.
-  const loop = levenbergMarquardtLoop(data, modelScaled, {
-    ...start,
-    maxIterations,
-    timeLimitMs,
-    chunkIterations: F.chunkIterations,
-    convergenceTolerance: F.convergenceTolerance,
-  });
-  const { parameters: params, chiSquare: chi2, iterations, converged, message } = loop;
+  /** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
+  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[]): FitTrial => {
+    const start = startingValues(h.analysis, h.seeds, eta, guessEC);
+    const at = parameterIndex(h.seeds.length);
+    const initialValues = from ? [...from] : [...start.initialValues];
+    if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
+    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, biasV), biasV, v3, dataA);
+    let cacheKey = "";
+    let cacheOut = new Float64Array(n);
+    const modelScaled = (p: number[]) => {
+      const key = p.join(",");
+      if (key !== cacheKey) {
+        cacheKey = key;
+        cacheOut = evaluate(p).out.map((v) => v / noiseA);
+      }
+      const out = cacheOut;
+      return (x: number) => out[x];
+    };
+    const loop = levenbergMarquardtLoop(data, modelScaled, {
+      ...start,
+      initialValues,
+      maxIterations: iterations,
+      timeLimitMs: Math.max(1, timeLimitMs - (Date.now() - started)),
+      chunkIterations: F.chunkIterations,
+      convergenceTolerance: F.convergenceTolerance,
+    });
+    // k: the nonlinear parameters and the four linear ones (scale, offset, b1, b3).
+    const k = loop.parameters.length + 4;
+    return { hypothesis: h, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: loop.chiSquare + k * Math.log(n) };
+  };
+
+  // 2. Starts: the assignment's hypothesis from its own rate ratio first; then, when that does not
+  // describe the curve or the regime is undetermined, the same hypothesis from a grid of rate
+  // ratios; the other hypotheses (the regimes forced on the same peaks) only when asked to compare.
+  const trials: FitTrial[] = [run(hypotheses[0], null, maxIterations)];
+  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, n - t.k);
+  const decisive = analysis.assignment.regime !== "undetermined" && reduced(trials[0]) <= F.poorFitChiSquare;
+  const startLog0 = trials[0].start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
+  for (const h of compareModels ? hypotheses : decisive ? [] : [hypotheses[0]]) {
+    for (const logRatio of F.rateRatioStartsLog10) {
+      if (h === hypotheses[0] && Math.abs(logRatio - startLog0) < 0.5) continue;
+      trials.push(run(h, logRatio, Math.min(maxIterations, F.exploreIterations)));
+    }
+  }
+  // The best start by BIC, finished with the full iteration budget if it was only explored.
+  let best = trials.reduce((a, b) => (b.bic < a.bic ? b : a));
+  if (best !== trials[0]) {
+    const finished = run(best.hypothesis, null, maxIterations, best.loop.parameters);
+    best = { ...finished, rateRatio0: best.rateRatio0 };
+  }
+  const { hypothesis } = best;
+  const { seeds } = hypothesis;
+  const at = parameterIndex(seeds.length);
+  const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
+  if (hypothesis.name !== "assigned") warnings.push(`the ${hypothesis.label} describes the curve better than the assignment it started from (BIC lower by ${(trials[0].bic - best.bic).toFixed(0)})`);
+  if (analysis.assignment.regime === "undetermined" && hypothesis.name === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
 
-  // 4. Final linear coefficients and standard errors from the full Jacobian.
-  const final = evaluate(params);
+  // 3. Final linear coefficients and standard errors from the full Jacobian.
+  const final = projectLinear(unitCurrent(params, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
   const full = [...params, ...final.coef];
@@ -244,24 +322,50 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     for (let i = 0; i < n; i++) out[i] = (q[at.rateScale] * unit[i] + q[at.offset] + q[at.backgroundLinear] * biasV[i] + q[at.backgroundCubic] * v3[i]) / noiseA;
     return out;
   };
-  const steps = [...start.gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
+  const steps = [...best.start.gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
   const se = standardErrors(fullModel, full, steps, reducedChiSquare, warnings);
 
-  // 5. The verdict and the result.
+  // 4. The verdict, the status and the result.
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F);
   if (verdict.warning) warnings.push(verdict.warning);
+  const status = fitStatus({
+    reducedChiSquare,
+    regime: verdict.regime,
+    chargingEnergyEV: params[at.chargingEnergy],
+    chargingEnergySE: se[at.chargingEnergy],
+    logRateRatioSE: se[at.logRateRatio],
+    atBound: [at.chargingEnergy, at.logRateRatio].filter((j) => {
+      const span = best.start.maxValues[j] - best.start.minValues[j];
+      return params[j] - best.start.minValues[j] < 1e-3 * span || best.start.maxValues[j] - params[j] < 1e-3 * span;
+    }).map((j) => (j === at.chargingEnergy ? "Ec" : "Γtip/Γsub")),
+  });
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
   const sigmaEV = 10 ** params[at.logBroadening];
   const scaleRate = final.coef[0];
   const modelA = final.out;
+  const minBic = Math.min(...trials.map((t) => t.bic), best.bic);
+  const weightSum = trials.reduce((s, t) => s + Math.exp(-(t.bic - minBic) / 2), 0);
   return {
     source: analysis.source,
     converged,
     message,
     iterations,
     eta,
+    status: status.status,
+    statusReasons: status.reasons,
+    hypothesis: hypothesis.name,
+    alternatives: trials.map((t) => ({
+      hypothesis: t.hypothesis.name,
+      regime: t.hypothesis.analysis.assignment.regime,
+      levels: t.hypothesis.seeds.length,
+      rateRatioStart: t.rateRatio0,
+      rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
+      reducedChiSquare: t.loop.chiSquare / Math.max(1, n - t.k),
+      bic: t.bic,
+      weight: Math.exp(-(t.bic - minBic) / 2) / weightSum,
+    })),
     levels: seeds.map((s, j) => ({
       band: s.band,
       label: s.label,
@@ -282,4 +386,57 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     residuals: { biasV, currentA: dataA, modelA, residualA: dataA.map((v, i) => v - modelA[i]) },
     warnings,
   };
+}
+
+/** One grouping of the peaks into levels that the fit tries. */
+interface FitHypothesis {
+  /** "assigned" (the analysis' own assignment) or the regime forced on the same peaks. */
+  name: "assigned" | "shell-filling" | "shell-tunneling";
+  /** In words, for warnings. */
+  label: string;
+  /** The analysis with that assignment. */
+  analysis: CurveAnalysis;
+  seeds: LevelSeed[];
+}
+
+/** One Levenberg–Marquardt run of one hypothesis from one start. */
+interface FitTrial {
+  hypothesis: FitHypothesis;
+  rateRatio0: number;
+  loop: LoopResult;
+  start: StartingValues;
+  /** Free parameters, nonlinear and linear. */
+  k: number;
+  /** Bayesian information criterion χ² + k·ln n (σ known). */
+  bic: number;
+}
+
+/**
+ * The groupings of the peaks the fit compares: the assignment, then shell filling and shell
+ * tunnelling forced on the same peaks where they differ from it (as level lists).
+ */
+function fitHypotheses(analysis: CurveAnalysis, eta: number, alternatives: boolean): FitHypothesis[] {
+  const out: FitHypothesis[] = [];
+  const seen = new Set<string>();
+  const add = (name: FitHypothesis["name"], label: string, a: CurveAnalysis) => {
+    const seeds = seedLevels(a);
+    const key = seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV}/${s.before}`).join(" ");
+    if (!seeds.length || seen.has(key)) return;
+    // An alternative grouping whose master equation would be too large to solve is not tried.
+    for (const band of name === "assigned" ? [] : (["CB", "VB"] as const)) {
+      const states = seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1);
+      if (states > SCENARIO_DEFAULTS.maxStates) return;
+    }
+    seen.add(key);
+    out.push({ name, label, analysis: a, seeds });
+  };
+  add("assigned", "assignment", analysis);
+  if (!alternatives) return out;
+  const etaOption = analysis.assignment.energies.etaGiven ? { eta } : {};
+  for (const regime of ["shell-filling", "shell-tunneling"] as const) {
+    if (analysis.assignment.regime === regime) continue;
+    const assignment = assignSpectrum(analysis.peaks, { ...etaOption, regime });
+    add(regime, `${regime === "shell-filling" ? "shell-filling" : "shell-tunnelling"} grouping of the same peaks`, { ...analysis, assignment });
+  }
+  return out;
 }

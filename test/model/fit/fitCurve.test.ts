@@ -85,6 +85,9 @@ describe("fitCurve(analysis)", () => {
       fillingRatioMin: 1.5,
       tunnelingRatioMax: 3 / 7,
       poorFitChiSquare: 10,
+      compareModels: false,
+      rateRatioStartsLog10: [-2, -1, 0, 1, 2],
+      exploreIterations: 8,
     });
   });
 });

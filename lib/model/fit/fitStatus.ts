@@ -1,0 +1,82 @@
+/**
+ * The status of a model fit from what it achieved — the reduced χ² and the errors of the
+ * parameters that matter — rather than from whether the optimiser stopped by its own test.
+ */
+
+/** "good", "poor" or "failed" (no fit). */
+export type FitStatus = "good" | "poor" | "failed";
+
+/** Limits of {@link fitStatus} (locked by test/model/fit/fitStatus.test.ts). */
+export const FIT_STATUS_DEFAULTS = Object.freeze({
+  /** Reduced χ² above which the fit is poor … */
+  poorChiSquare: 10,
+  /** … and above which there is no fit. */
+  failedChiSquare: 100,
+  /** Relative error of Ec above which it is poorly determined (where the regime defines it) … */
+  poorRelativeError: 0.25,
+  /** … and above which it is not determined at all. */
+  failedRelativeError: 1,
+  /** Error of log₁₀ Γtip/Γsub above which the rate ratio is poorly determined (a factor 2). */
+  poorLogRatioError: 0.3,
+});
+
+/** What {@link fitStatus} looks at. */
+export interface FitStatusInput {
+  reducedChiSquare: number;
+  /** Regime of the fitted rate ratio: Ec counts only where the charging ladder shows it. */
+  regime: "shell-filling" | "shell-tunneling" | "intermediate";
+  chargingEnergyEV: number;
+  chargingEnergySE: number;
+  logRateRatioSE: number;
+  /** Key parameters that ended on a bound of the fit. */
+  atBound: string[];
+}
+
+/**
+ * The status of a fit and the reasons for it.
+ *
+ * Parameters
+ * ----------
+ * input : FitStatusInput
+ *     Reduced χ², fitted regime, Ec (eV) and its 1σ, the 1σ of log₁₀ Γtip/Γsub, and the key
+ *     parameters at a bound.
+ *
+ * Returns
+ * -------
+ * { status: FitStatus; reasons: string[] }
+ *
+ * Notes
+ * -----
+ * 1. failed: reduced χ² > 100, or Ec undetermined (non-finite error, or an error above 100 % of
+ *    Ec where the regime defines it), or Ec or the rate ratio on a bound.
+ * 2. poor: reduced χ² > 10, or Ec's relative error > 25 % (filling, intermediate), or log₁₀ of
+ *    the rate ratio uncertain by more than 0.3 (a factor 2).
+ * 3. good otherwise. The limits are in {@link FIT_STATUS_DEFAULTS}; common practice (no source)
+ *    for χ²-based acceptance with a model known to be approximate.
+ *
+ * Example
+ * -------
+ * ```ts
+ * fitStatus({ reducedChiSquare: 1326, regime: "shell-tunneling", chargingEnergyEV: 0.115, chargingEnergySE: 0.134, logRateRatioSE: 2, atBound: [] });
+ * // => { status: "failed", reasons: ["reduced χ² 1326 > 100: the model does not describe the curve", …] }
+ * ```
+ */
+export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: string[] } {
+  const D = FIT_STATUS_DEFAULTS;
+  const failed: string[] = [];
+  const poor: string[] = [];
+  const chi = input.reducedChiSquare;
+  if (!(chi <= D.failedChiSquare)) failed.push(`reduced χ² ${chi.toPrecision(4)} > ${D.failedChiSquare}: the model does not describe the curve`);
+  else if (chi > D.poorChiSquare) poor.push(`reduced χ² ${chi.toPrecision(3)} > ${D.poorChiSquare}: the model describes the curve only roughly`);
+  if (input.regime !== "shell-tunneling") {
+    const rel = input.chargingEnergySE / Math.abs(input.chargingEnergyEV);
+    if (!Number.isFinite(rel) || rel > D.failedRelativeError) failed.push(`Ec is not determined (${(input.chargingEnergyEV * 1000).toFixed(1)} ± ${Number.isFinite(input.chargingEnergySE) ? (input.chargingEnergySE * 1000).toFixed(1) : "∞"} meV)`);
+    else if (rel > D.poorRelativeError) poor.push(`Ec is poorly determined (±${(100 * rel).toFixed(0)} %)`);
+  }
+  if (!Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
+  else if (input.logRateRatioSE > D.poorLogRatioError) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
+  for (const name of input.atBound) failed.push(`${name} ended on a bound of the fit (a degenerate solution)`);
+  if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
+  if (poor.length) return { status: "poor", reasons: poor };
+  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, Ec and Γtip/Γsub determined`] };
+}

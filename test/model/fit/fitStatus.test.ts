@@ -1,0 +1,34 @@
+// fitStatus: the status rules on constructed inputs (by construction of the documented limits,
+// which are common practice (no source) for χ²-based acceptance of an approximate model).
+import { describe, it, expect } from "vitest";
+import { fitStatus, FIT_STATUS_DEFAULTS } from "../../../lib/model/fit/fitStatus.ts";
+
+const ok = { reducedChiSquare: 1.2, regime: "shell-filling" as const, chargingEnergyEV: 0.1, chargingEnergySE: 0.001, logRateRatioSE: 0.05, atBound: [] };
+
+describe("fitStatus(input)", () => {
+  it("FIT_STATUS_DEFAULTS are locked", () => {
+    expect(FIT_STATUS_DEFAULTS).toEqual({ poorChiSquare: 10, failedChiSquare: 100, poorRelativeError: 0.25, failedRelativeError: 1, poorLogRatioError: 0.3 });
+    expect(Object.isFrozen(FIT_STATUS_DEFAULTS)).toBe(true);
+  });
+  it("good when χ² is small and Ec and the rate ratio are determined", () => {
+    expect(fitStatus(ok).status).toBe("good");
+  });
+  it("poor for χ²_red in (10, 100], Ec known to worse than 25 %, or a rate ratio uncertain by more than a factor 2", () => {
+    expect(fitStatus({ ...ok, reducedChiSquare: 47 }).status).toBe("poor");
+    expect(fitStatus({ ...ok, chargingEnergySE: 0.03 }).status).toBe("poor");
+    expect(fitStatus({ ...ok, logRateRatioSE: 0.5 }).status).toBe("poor");
+  });
+  it("failed for the collapse seen in the crossover: χ²_red 1326 and Ec 115 ± 134 meV", () => {
+    const r = fitStatus({ ...ok, reducedChiSquare: 1326, chargingEnergyEV: 0.115, chargingEnergySE: 0.134 });
+    expect(r.status).toBe("failed");
+    expect(r.reasons.join(" ")).toMatch(/1326.*Ec is not determined/);
+  });
+  it("failed when Ec or the rate ratio ends on a bound, or an error is not finite", () => {
+    expect(fitStatus({ ...ok, atBound: ["Ec"] }).status).toBe("failed");
+    expect(fitStatus({ ...ok, logRateRatioSE: Infinity }).status).toBe("failed");
+    expect(fitStatus({ ...ok, chargingEnergySE: NaN }).status).toBe("failed");
+  });
+  it("does not judge Ec in shell tunnelling, where the ladder does not show it", () => {
+    expect(fitStatus({ ...ok, regime: "shell-tunneling", chargingEnergySE: 0.5 }).status).toBe("good");
+  });
+});
