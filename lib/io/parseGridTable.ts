@@ -215,5 +215,6 @@ function regularAxis(values: readonly number[], name: string, unit: string, sour
     }
   }
   const count = Math.round((merged[merged.length - 1] - start) / step) + 1;
-  return { start, step, count };
+  // The step over the whole span: less rounding than the smallest spacing.
+  return { start, step: (merged[merged.length - 1] - start) / (count - 1), count };
 }

@@ -6,7 +6,8 @@ import type { CliCommand } from "./command.ts";
 import { analyzeCommand } from "./analyze.ts";
 import { simulateCommand } from "./simulate.ts";
 import { fitCommand } from "./fit.ts";
+import { gridCommand } from "./grid.ts";
 
-export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, fitCommand, simulateCommand]);
+export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, fitCommand, gridCommand, simulateCommand]);
 
 export type { CliCommand } from "./command.ts";
