@@ -6,7 +6,7 @@
  * temporary folder, then times the real command as a child process under /usr/bin/time (wall
  * time and maximum resident set size).
  *
- *   npm run bench:grid                      # the three sizes, --jobs 2, then --jobs 1 on the largest
+ *   npm run bench:grid                      # four sizes: the command (default, --jobs 2), then in-process
  *   npm run bench:grid -- --numpy           # also time bench/grid_numpy.py on the same files
  */
 import { mkdtempSync, rmSync, writeFileSync, openSync, writeSync, closeSync } from "node:fs";
@@ -14,7 +14,7 @@ import { tmpdir } from "node:os";
 import { join, dirname } from "node:path";
 import { spawnSync } from "node:child_process";
 import { fileURLToPath } from "node:url";
-import { simulateCurve, seededRandom } from "../lib/index.ts";
+import { analyzeGrid, readGridFile, simulateCurve, seededRandom } from "../lib/index.ts";
 import { projectedDensity, SPHERE_DOT_JUNCTION, SPHERE_DOT_LEVELS } from "../test/fixtures/gridCubes.ts";
 
 const args = process.argv.slice(2);
@@ -94,17 +94,30 @@ try {
     const path = writeCube(`cube-${nx}x${ny}x${nb}`, nx, ny, nb);
     const cubeMB = (nx * ny * nb * 4) / 2 ** 20;
     const made = (performance.now() - t0) / 1000;
-    for (const jobs of nx * ny * nb >= 8_000_000 ? [2, 1] : [2]) {
-      for (const out of [false, true]) {
-        const argv = [bin, "grid", path, "--eta", "0.8", "--jobs", String(jobs), ...(out ? ["--out", join(dir, "out")] : ["--json"])];
+    for (const jobs of [null, 2]) {
+      for (const out of jobs === null ? [false, true] : [false]) {
+        const argv = [bin, "grid", path, "--eta", "0.8", ...(jobs === null ? [] : ["--jobs", String(jobs)]), ...(out ? ["--out", join(dir, "out")] : ["--json"])];
         const r = timed(process.execPath, argv);
         console.log(
-          `${nx} × ${ny} × ${nb} (${cubeMB.toFixed(1)} MB, ${(nx * ny * nb / 1e6).toFixed(1)} M samples, written in ${made.toFixed(1)} s) --jobs ${jobs} ${out ? "--out " : "--json"}: ` +
+          `${nx} × ${ny} × ${nb} (${cubeMB.toFixed(1)} MB, ${(nx * ny * nb / 1e6).toFixed(1)} M samples, written in ${made.toFixed(1)} s) ${jobs === null ? "default jobs" : `--jobs ${jobs}`} ${out ? "--out " : "--json"}: ` +
             `${r.s.toFixed(2)} s wall, max RSS ${r.rssMB.toFixed(0)} MB (${(r.rssMB / cubeMB).toFixed(1)} × the cube; ${((r.rssMB - base.rssMB) / cubeMB).toFixed(1)} × above dotspec --help)` +
             (r.status === 0 ? "" : ` exit ${r.status}: ${r.stderr.trim().split("\n").slice(-2).join(" ")}`),
         );
       }
     }
+    // In this process: reading and analysis only (no start-up, no figures), best of three.
+    let read = Infinity, analyse = Infinity;
+    for (let rep = 0; rep < 3; rep++) {
+      const t1 = performance.now();
+      const { cube } = readGridFile(path);
+      const t2 = performance.now();
+      analyzeGrid(cube, { eta: 0.8 });
+      const t3 = performance.now();
+      read = Math.min(read, t2 - t1);
+      analyse = Math.min(analyse, t3 - t2);
+    }
+    const samples = nx * ny * nb;
+    console.log(`  in process, one thread: read ${read.toFixed(0)} ms, analyzeGrid ${analyse.toFixed(0)} ms: ${(((read + analyse) * 1e6) / samples).toFixed(1)} ns per sample`);
     if (withNumpy) {
       const r = timed("python3", [join(root, "bench", "grid_numpy.py"), path]);
       console.log(`  NumPy/SciPy script (smoothing + maps only) on the same file: ${r.s.toFixed(2)} s wall, max RSS ${r.rssMB.toFixed(0)} MB${r.status === 0 ? "" : ` exit ${r.status}: ${r.stderr.trim()}`}`);

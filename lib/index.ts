@@ -59,7 +59,7 @@ export { parseNpyHeader, type NpyHeader } from "./io/npyHeader.ts";
 export { parseGridSidecar, type GridSidecar } from "./io/gridSidecar.ts";
 export { readNpyGrid, READ_NPY_DEFAULTS, type ReadNpyGridOptions, type NpyGridResult } from "./io/readNpyGrid.ts";
 export { parseGridTable, GRID_TABLE_DEFAULTS, type ParseGridTableOptions, type GridTableRecord } from "./io/parseGridTable.ts";
-export { readGridFile, type ReadGridFileOptions, type GridFileResult } from "./io/readGridFile.ts";
+export { readGridFile, fileBytes, type ReadGridFileOptions, type GridFileResult } from "./io/readGridFile.ts";
 export { gridToJson, gridProfileRows, GRID_JSON_VERSION, GRID_PROFILE_COLUMNS, type GridJson, type GridMapJson } from "./report/gridJson.ts";
 // Grid map figures load Observable Plot (and jsdom in Node) on demand: `const draw = await loadGridMapFigure()`.
 export { loadGridMapFigure, type GridMapFigureRenderer } from "./report/loadGridMapFigure.ts";

@@ -7,8 +7,18 @@ import { analyzeGrid, combinePixelPass, gridAnalysisSteps, pixelCount, runPixelP
 
 /** Tuning of the grid worker pool (locked by a test). */
 export const GRID_JOBS_DEFAULTS = Object.freeze({
-  /** Below this many current samples (pixels × bias points) everything runs in this thread. */
+  /**
+   * Below this many current samples (pixels × bias points) everything runs in this thread even
+   * when workers were asked for: the passes take about 25 ns per sample in one thread, well under
+   * a worker's start-up.
+   */
   minSamplesForWorkers: 2_000_000,
+  /**
+   * Without --jobs, workers are started only for input files at least this large, bytes (128 MiB:
+   * 32 M float32 samples, passes of about a second). Smaller cubes finish their passes in this
+   * thread before workers would have loaded the library (measured: npm run bench:grid).
+   */
+  autoWorkersMinBytes: 128 * 1024 * 1024,
   /** Each pass is cut into this many parts per worker (the progress bar moves per part). */
   partsPerWorker: 4,
 });

@@ -72,3 +72,20 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
   const r = parseGridTable(readFileSync(path, "utf8"), { source: path });
   return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: r.record.warnings };
 }
+
+/**
+ * Size of a file in bytes; NaN when it cannot be read (the reader then says why).
+ *
+ * Example
+ * -------
+ * ```ts
+ * fileBytes("dot.npy"); // => 33554560
+ * ```
+ */
+export function fileBytes(path: string): number {
+  try {
+    return statSync(path).size;
+  } catch {
+    return NaN;
+  }
+}

@@ -5,6 +5,7 @@ import { InvalidArgumentError, type Command } from "commander";
 import { availableParallelism } from "node:os";
 import { join } from "node:path";
 import {
+  fileBytes,
   formatCsv,
   gridProfileRows,
   gridToJson,
@@ -21,7 +22,7 @@ import { EXIT, type CliContext } from "../context.ts";
 import { etaOption } from "../curveOptions.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
-import { runGridAnalysis, sharedCube, startGridPool, type GridPool } from "../gridPool.ts";
+import { runGridAnalysis, sharedCube, startGridPool, GRID_JOBS_DEFAULTS, type GridPool } from "../gridPool.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec grid` as commander hands them over. */
@@ -89,7 +90,7 @@ export const gridCommand: CliCommand = {
       .option("--floor-sigma <k>", "noise floor of the shape measures in σ of each map (default 3)", numberOption({ min: 0, accepted: "a number of σ, 0 or more" }))
       .option("--out <DIR>", "write summary.json, profiles.csv, reference.svg and maps/*.svg")
       .option("--json", "print the JSON summary")
-      .option("--jobs <n>", "worker threads for the per-pixel work (default: the CPU count)", numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }))
+      .option("--jobs <n>", "worker threads for the per-pixel work (default: the CPU count for inputs of 128 MiB or more, else 1)", numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }))
       .addHelpText("after", HELP_AFTER)
       .action(async (input: string, opts: GridCliOptions) => {
         ctx.exitCode = await runGrid(input, opts, ctx);
@@ -99,7 +100,8 @@ export const gridCommand: CliCommand = {
 
 /** Runs `dotspec grid`: 0 on success, 1 when the input cannot be read or analysed. */
 export async function runGrid(input: string, opts: GridCliOptions, ctx: CliContext): Promise<number> {
-  const threads = opts.jobs ?? Math.max(1, availableParallelism());
+  let threads = opts.jobs ?? Math.max(1, availableParallelism());
+  if (opts.jobs === undefined && !(fileBytes(input) >= GRID_JOBS_DEFAULTS.autoWorkersMinBytes)) threads = 1;
   // Workers load the library while this thread reads the file.
   let pool: GridPool | null = threads > 1 ? startGridPool(threads) : null;
   const progress = startProgress(opts.json ? 0 : 100, ctx.stderr, "grid", "%");
