@@ -85,7 +85,7 @@ function timed(cmd: string, argv: string[]): { s: number; rssMB: number; status:
 }
 
 try {
-  const sizes: [number, number, number][] = [[64, 64, 256], [64, 64, 512], [128, 128, 256], [128, 128, 512]];
+  const sizes: [number, number, number][] = [[64, 64, 512], [128, 128, 256], [128, 128, 512], [256, 256, 512]];
   const baseline = timed(process.execPath, ["-e", "0"]);
   const base = timed(process.execPath, [bin, "--help"]);
   console.log(`node alone: ${baseline.s.toFixed(2)} s, ${baseline.rssMB.toFixed(0)} MB; dotspec --help: ${base.s.toFixed(2)} s, ${base.rssMB.toFixed(0)} MB`);
