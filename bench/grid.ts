@@ -6,7 +6,7 @@
  * temporary folder, then times the real command as a child process under /usr/bin/time (wall
  * time and maximum resident set size).
  *
- *   npm run bench:grid                      # four sizes: the command (default, --jobs 2), then in-process
+ *   npm run bench:grid                      # four sizes: the command (default, --jobs 1, --jobs 2), then in process
  *   npm run bench:grid -- --numpy           # also time bench/grid_numpy.py on the same files
  */
 import { mkdtempSync, rmSync, writeFileSync, openSync, writeSync, closeSync } from "node:fs";
@@ -94,7 +94,7 @@ try {
     const path = writeCube(`cube-${nx}x${ny}x${nb}`, nx, ny, nb);
     const cubeMB = (nx * ny * nb * 4) / 2 ** 20;
     const made = (performance.now() - t0) / 1000;
-    for (const jobs of [null, 2]) {
+    for (const jobs of [null, 1, 2]) {
       for (const out of jobs === null ? [false, true] : [false]) {
         const argv = [bin, "grid", path, "--eta", "0.8", ...(jobs === null ? [] : ["--jobs", String(jobs)]), ...(out ? ["--out", join(dir, "out")] : ["--json"])];
         const r = timed(process.execPath, argv);

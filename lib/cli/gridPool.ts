@@ -14,11 +14,13 @@ export const GRID_JOBS_DEFAULTS = Object.freeze({
    */
   minSamplesForWorkers: 2_000_000,
   /**
-   * Without --jobs, workers are started only for input files at least this large, bytes (128 MiB:
-   * 32 M float32 samples, passes of about a second). Smaller cubes finish their passes in this
-   * thread before workers would have loaded the library (measured: npm run bench:grid).
+   * Without --jobs, workers are started only for input files at least this large, bytes (1 GiB:
+   * 256 M float32 samples). Measured with npm run bench:grid on 2 cores: up to 256 × 256 × 512
+   * (128 MiB) one thread was faster (its passes take about 8 ns per sample, 0.2 s there, while two
+   * workers need 0.5–1.2 s to load tsx and the library); at 1 GiB the passes take about 2 s and
+   * halving them should repay the start-up (extrapolated, not measured).
    */
-  autoWorkersMinBytes: 128 * 1024 * 1024,
+  autoWorkersMinBytes: 1024 * 1024 * 1024,
   /** Each pass is cut into this many parts per worker (the progress bar moves per part). */
   partsPerWorker: 4,
 });

@@ -5,7 +5,7 @@
 import type { Curve } from "../curve.ts";
 import { analyzeCurve, type AnalyzeOptions, type CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import { checkKnownKeys, checkNonNegative } from "../util/check.ts";
-import { checkGridCube, pixelCount, type GridCube } from "./gridCube.ts";
+import { checkGridCube, pixelCount, type GridAxis, type GridCube } from "./gridCube.ts";
 import { gridCurrentNoise, functionalNoise } from "./gridNoise.ts";
 import type { GridFilter } from "./mapFunctional.ts";
 import type { MapImage } from "./mapImage.ts";
@@ -72,6 +72,8 @@ export interface GridAnalysis {
   filter: GridFilter;
   /** White-noise σ of the current per sample (median over pixels), A. */
   noiseCurrentA: number;
+  /** The cube's axes: x and y (nm), bias (V). */
+  axes: { xNM: GridAxis; yNM: GridAxis; biasV: GridAxis };
   maps: GridMap[];
   settings: { floorSigma: number; eta: number; etaGiven: boolean; atV: number[] | null; profileBinNM: number; nx: number; ny: number; nbias: number };
   warnings: string[];
@@ -145,6 +147,7 @@ export function* gridAnalysisSteps(cube: GridCube, options: AnalyzeGridOptions =
     reference: { selection, pixels: sums[cube.biasV.count], curve, analysis },
     filter,
     noiseCurrentA,
+    axes: { xNM: cube.xNM, yNM: cube.yNM, biasV: cube.biasV },
     maps,
     settings: {
       floorSigma,

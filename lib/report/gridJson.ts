@@ -77,7 +77,6 @@ export interface GridJson {
  * ```
  */
 export function gridToJson(grid: GridAnalysis, missingPixels = 0, warnings: readonly string[] = []): GridJson {
-  const first = grid.maps[0]?.image;
   return {
     version: GRID_JSON_VERSION,
     source: grid.source,
@@ -85,9 +84,9 @@ export function gridToJson(grid: GridAnalysis, missingPixels = 0, warnings: read
       nx: grid.settings.nx,
       ny: grid.settings.ny,
       nbias: grid.settings.nbias,
-      xNM: first?.xNM ?? { start: 0, step: 1, count: grid.settings.nx },
-      yNM: first?.yNM ?? { start: 0, step: 1, count: grid.settings.ny },
-      biasV: { start: grid.reference.curve.biasV[0], step: grid.reference.analysis.conductance.biasV[1] - grid.reference.analysis.conductance.biasV[0], count: grid.settings.nbias },
+      xNM: grid.axes.xNM,
+      yNM: grid.axes.yNM,
+      biasV: grid.axes.biasV,
       missingPixels,
     },
     reference: { selection: grid.reference.selection, pixels: grid.reference.pixels, analysis: analysisToJson(grid.reference.analysis) },

@@ -5,7 +5,8 @@ import { existsSync, readFileSync, readdirSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { formatGridText } from "../../lib/cli/commands/grid.ts";
 import type { GridJson } from "../../lib/index.ts";
-import { GRID_JOBS_DEFAULTS } from "../../lib/cli/gridPool.ts";
+import { GRID_JOBS_DEFAULTS, runGridAnalysis, startGridPool } from "../../lib/cli/gridPool.ts";
+import { readGridFile } from "../../lib/index.ts";
 import { sphereDotCube } from "../fixtures/gridCubes.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { removeTempDirs, run, tempDir } from "./harness.ts";
@@ -65,9 +66,51 @@ describe("dotspec grid", () => {
     const lines = formatGridText(j).split("\n");
     for (const m of j.maps) expect(lines.filter((l) => l.startsWith(m.label.padEnd(16))), m.label).toHaveLength(1);
   });
+  it("--jobs 2 runs the pixel passes on worker threads over a shared NPY cube and gives the same maps as one thread", async () => {
+    // 64 × 64 pixels × 512 bias points = 2.1 M samples, above GRID_JOBS_DEFAULTS.minSamplesForWorkers
+    const c = sphereDotCube({ nx: 4, ny: 4, stepNM: 1.8 });
+    const nb = 512, nx = 64, ny = 64;
+    const data = new Float32Array(nx * ny * nb);
+    // each pixel: the fixture's pixel (ix mod 4, iy mod 4), first 401 points, then the last value repeated
+    for (let iy = 0; iy < ny; iy++)
+      for (let ix = 0; ix < nx; ix++)
+        for (let k = 0; k < nb; k++) data[(iy * nx + ix) * nb + k] = c.currentA[((iy % 4) * 4 + (ix % 4)) * c.biasV.count + Math.min(k, c.biasV.count - 1)];
+    const dict = `{'descr': '<f4', 'fortran_order': False, 'shape': (${ny}, ${nx}, ${nb}), }`.padEnd(117, " ") + "\n";
+    const head = Buffer.alloc(10);
+    Buffer.from([0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59, 1, 0]).copy(head);
+    head.writeUInt16LE(dict.length, 8);
+    const npy = join(dir, "tiled.npy");
+    writeFileSync(npy, Buffer.concat([head, Buffer.from(dict, "latin1"), Buffer.from(data.buffer)]));
+    writeFileSync(join(dir, "tiled.json"), JSON.stringify({ xNM: [0, 0.45, nx], yNM: [0, 0.45, ny], biasV: [c.biasV.start, c.biasV.step, nb], currentUnit: "A" }));
+    const one = await run(["grid", npy, "--eta", "0.8", "--json", "--jobs", "1"]);
+    const two = await run(["grid", npy, "--eta", "0.8", "--json", "--jobs", "2"]);
+    expect(one.code, one.stderr).toBe(0);
+    expect(two.code, two.stderr).toBe(0);
+    const a = JSON.parse(one.stdout) as GridJson, b = JSON.parse(two.stdout) as GridJson;
+    expect(b.maps.map((m) => m.label)).toEqual(a.maps.map((m) => m.label));
+    // the same arithmetic, only the spectrum sum is added in parts: equal to rounding
+    expectClose(b.maps.map((m) => m.rmsRadiusNM!), a.maps.map((m) => m.rmsRadiusNM!), { rtol: 1e-9, what: "one thread" });
+  }, 60_000);
+  it("runGridAnalysis spreads both passes over the pool in parts (2 workers × 4 parts each)", async () => {
+    const { cube } = readGridFile(join(dir, "tiled.npy"), { shared: true });
+    const pool = startGridPool(2);
+    const totals = new Set<number>();
+    let calls = 0;
+    try {
+      const g = await runGridAnalysis(cube, { eta: 0.8 }, pool, (_done, total) => {
+        totals.add(total);
+        calls++;
+      });
+      expect(g.maps.length).toBeGreaterThan(3);
+    } finally {
+      await pool.close();
+    }
+    expect([...totals]).toEqual([16]); // closed form: 2 passes × 2 workers × partsPerWorker (4)
+    expect(calls).toBe(16);
+  }, 60_000);
   it("GRID_JOBS_DEFAULTS are locked", () => {
     expect(Object.isFrozen(GRID_JOBS_DEFAULTS)).toBe(true);
     // measured on this machine (npm run bench:grid), see the README
-    expect(GRID_JOBS_DEFAULTS).toEqual({ minSamplesForWorkers: 2_000_000, autoWorkersMinBytes: 128 * 1024 * 1024, partsPerWorker: 4 });
+    expect(GRID_JOBS_DEFAULTS).toEqual({ minSamplesForWorkers: 2_000_000, autoWorkersMinBytes: 1024 * 1024 * 1024, partsPerWorker: 4 });
   });
 });

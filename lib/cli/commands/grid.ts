@@ -90,7 +90,7 @@ export const gridCommand: CliCommand = {
       .option("--floor-sigma <k>", "noise floor of the shape measures in σ of each map (default 3)", numberOption({ min: 0, accepted: "a number of σ, 0 or more" }))
       .option("--out <DIR>", "write summary.json, profiles.csv, reference.svg and maps/*.svg")
       .option("--json", "print the JSON summary")
-      .option("--jobs <n>", "worker threads for the per-pixel work (default: the CPU count for inputs of 128 MiB or more, else 1)", numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }))
+      .option("--jobs <n>", "worker threads for the per-pixel work (default: the CPU count for inputs of 1 GiB or more, else 1)", numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }))
       .addHelpText("after", HELP_AFTER)
       .action(async (input: string, opts: GridCliOptions) => {
         ctx.exitCode = await runGrid(input, opts, ctx);
@@ -104,7 +104,8 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
   if (opts.jobs === undefined && !(fileBytes(input) >= GRID_JOBS_DEFAULTS.autoWorkersMinBytes)) threads = 1;
   // Workers load the library while this thread reads the file.
   let pool: GridPool | null = threads > 1 ? startGridPool(threads) : null;
-  const progress = startProgress(opts.json ? 0 : 100, ctx.stderr, "grid", "%");
+  // The bar shows only on a terminal (stderr); it moves per finished part of a pass on workers.
+  const progress = startProgress(100, ctx.stderr, "grid", "%");
   try {
     const file = readGridFile(input, { sidecar: opts.sidecar, shared: pool !== null });
     let cube = file.cube;
