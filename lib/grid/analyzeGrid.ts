@@ -213,7 +213,8 @@ export function* gridAnalysisSteps(cube: GridCube, options: AnalyzeGridOptions =
  * ```ts
  * const g = analyzeGrid(readGridFile("dot.npy").cube, { eta: 0.8 });
  * g.maps.map((m) => [m.label, m.rmsRadiusNM?.toFixed(2), m.dipDepth?.toFixed(2)]);
- * // => [["s", "1.09", "0.00"], ["p1", …], …]
+ * // => [["v1", "1.02", "0.00"], ["s", "1.03", "0.00"], ["p1", "0.90", "0.00"], ["p2", "1.31", "0.75"], …]
+ * //    (the particle-in-a-sphere dot of the tests, R = 2.4 nm: p2 is the (px, py) ring)
  * ```
  */
 export function analyzeGrid(cube: GridCube, options: AnalyzeGridOptions = {}): GridAnalysis {

@@ -33,12 +33,28 @@ export interface GridCube {
   source: string;
 }
 
-/** Number of pixels nx·ny of a cube. */
+/**
+ * Number of pixels nx·ny of a cube.
+ *
+ * Example
+ * -------
+ * ```ts
+ * pixelCount({ xNM: { start: 0, step: 0.5, count: 16 }, yNM: { start: 0, step: 0.5, count: 8 } }); // => 128
+ * ```
+ */
 export function pixelCount(cube: Pick<GridCube, "xNM" | "yNM">): number {
   return cube.xNM.count * cube.yNM.count;
 }
 
-/** The values of an axis as a new Float64Array. */
+/**
+ * The values of an axis as a new Float64Array.
+ *
+ * Example
+ * -------
+ * ```ts
+ * axisValues({ start: -1, step: 0.5, count: 3 }); // => Float64Array [-1, -0.5, 0]
+ * ```
+ */
 export function axisValues(axis: GridAxis): Float64Array {
   const out = new Float64Array(axis.count);
   for (let i = 0; i < axis.count; i++) out[i] = axis.start + i * axis.step;

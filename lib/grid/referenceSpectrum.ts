@@ -20,6 +20,13 @@ export type ReferenceSelection = "mean" | { pixel: [number, number] } | { centre
  * DotspecError
  *     `grid/bad-reference` for a pixel outside the grid, a bad circle, or a selection with no
  *     pixel holding data.
+ *
+ * Example
+ * -------
+ * ```ts
+ * referenceMask(cube, { centreNM: [0, 0], radiusNM: 1.5 }); // => Uint8Array, 1 for the pixels within 1.5 nm
+ * referenceMask(cube, "mean");                               // => null (every pixel)
+ * ```
  */
 export function referenceMask(cube: GridCube, selection: ReferenceSelection): Uint8Array | null {
   const nx = cube.xNM.count, ny = cube.yNM.count;
@@ -61,6 +68,13 @@ export function referenceMask(cube: GridCube, selection: ReferenceSelection): Ui
  * Throws
  * ------
  * DotspecError `grid/bad-reference` when no pixel was summed.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const sums = runPixelPass(cube, { kind: "spectrumSum", mask: null }, 0, pixelCount(cube));
+ * referenceCurve(cube, sums, "mean").meta.source; // => "dot.npy (reference: mean of 256 pixels)"
+ * ```
  */
 export function referenceCurve(cube: GridCube, sums: Float64Array, selection: ReferenceSelection): Curve {
   const nb = cube.biasV.count;

@@ -60,6 +60,17 @@ describe("dotspec grid", () => {
     expect(usage.code).toBe(2);
     expect(usage.stderr).toContain("--at");
   });
+  it("--reference-circle and --reference-pixel choose the reference spectrum", async () => {
+    const c = await run(["grid", table, "--eta", "0.8", "--json", "--jobs", "1", "--reference-circle", "0,0,1.45"]);
+    expect(c.code, c.stderr).toBe(0);
+    const j = JSON.parse(c.stdout) as GridJson;
+    // closed form: pixels at |x|, |y| ∈ {0.35, 1.05} nm with x² + y² ≤ 1.45² = 2.1025: (0.35, 0.35) 0.245 and (0.35, 1.05) 1.225 in, (1.05, 1.05) 2.205 out: 4 + 8 = 12
+    expect(j.reference.pixels).toBe(12);
+    const p = await run(["grid", table, "--eta", "0.8", "--json", "--jobs", "1", "--reference-pixel", "5,5"]);
+    expect(JSON.parse(p.stdout).reference.pixels).toBe(1);
+    const both = await run(["grid", table, "--reference-pixel", "5,5", "--reference-circle", "0,0,1"]);
+    expect(both.code).toBe(2);
+  });
   it("formatGridText prints one line per map", async () => {
     const r = await run(["grid", table, "--eta", "0.8", "--json", "--jobs", "1"]);
     const j = JSON.parse(r.stdout) as GridJson;

@@ -34,6 +34,7 @@ export interface GridCliOptions {
   json?: boolean;
   jobs?: number;
   referencePixel?: [number, number];
+  referenceCircle?: [number, number, number];
   floorSigma?: number;
 }
 
@@ -75,6 +76,12 @@ function pixelPair(raw: string): [number, number] {
   return [v[0], v[1]];
 }
 
+function circle(raw: string): [number, number, number] {
+  const v = raw.split(",").map((s) => Number(s.trim()));
+  if (v.length !== 3 || !v.every(Number.isFinite) || !(v[2] > 0)) throw new InvalidArgumentError(`--reference-circle expects X,Y,R in nm with R > 0, e.g. 0,0,2.5; got ${JSON.stringify(raw)}`);
+  return [v[0], v[1], v[2]];
+}
+
 export const gridCommand: CliCommand = {
   name: "grid",
   register(program: Command, ctx: CliContext) {
@@ -87,6 +94,7 @@ export const gridCommand: CliCommand = {
       .option("--eta <η>", "voltage-division factor η in (0, 1] (default 1, with a warning)", etaOption)
       .option("--at <V,...>", "map biases in V instead of the assigned peaks, e.g. 0.7,1.05", biasList)
       .option("--reference-pixel <IX,IY>", "analyse this pixel's spectrum instead of the mean over the grid", pixelPair)
+      .option("--reference-circle <X,Y,R>", "analyse the mean spectrum of the pixels within R nm of (X, Y) nm", circle)
       .option("--floor-sigma <k>", "noise floor of the shape measures in σ of each map (default 3)", numberOption({ min: 0, accepted: "a number of σ, 0 or more" }))
       .option("--out <DIR>", "write summary.json, profiles.csv, reference.svg and maps/*.svg")
       .option("--json", "print the JSON summary")
@@ -100,6 +108,10 @@ export const gridCommand: CliCommand = {
 
 /** Runs `dotspec grid`: 0 on success, 1 when the input cannot be read or analysed. */
 export async function runGrid(input: string, opts: GridCliOptions, ctx: CliContext): Promise<number> {
+  if (opts.referencePixel && opts.referenceCircle) {
+    ctx.error("give --reference-pixel or --reference-circle, not both");
+    return EXIT.usage;
+  }
   let threads = opts.jobs ?? Math.max(1, availableParallelism());
   if (opts.jobs === undefined && !(fileBytes(input) >= GRID_JOBS_DEFAULTS.autoWorkersMinBytes)) threads = 1;
   // Workers load the library while this thread reads the file.
@@ -114,6 +126,7 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
       ...(opts.eta !== undefined ? { eta: opts.eta } : {}),
       ...(opts.at ? { atV: opts.at } : {}),
       ...(opts.referencePixel ? { reference: { pixel: opts.referencePixel } } : {}),
+      ...(opts.referenceCircle ? { reference: { centreNM: [opts.referenceCircle[0], opts.referenceCircle[1]] as [number, number], radiusNM: opts.referenceCircle[2] } } : {}),
       ...(opts.floorSigma !== undefined ? { floorSigma: opts.floorSigma } : {}),
     };
     let shown = 0;
