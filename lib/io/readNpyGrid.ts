@@ -96,9 +96,12 @@ export function readNpyGrid(path: string, sidecar: unknown, options: ReadNpyGrid
     try {
       header = parseNpyHeader(head, path);
     } catch (err) {
-      if (!(err instanceof DotspecError && err.code === "io/npy-truncated" && size > head.length)) throw err;
-      head = new Uint8Array(size);
-      readSync(fd, head, 0, size, 0);
+      if (!(err instanceof DotspecError && err.code === "io/npy-truncated" && size > head.length && head.length >= 12)) throw err;
+      // A header longer than the first read: read exactly as much as its length field says.
+      const view = new DataView(head.buffer);
+      const need = head[6] === 1 ? 10 + view.getUint16(8, true) : 12 + view.getUint32(8, true);
+      head = new Uint8Array(Math.min(size, need));
+      readSync(fd, head, 0, head.length, 0);
       header = parseNpyHeader(head, path);
     }
     if (header.fortranOrder) {

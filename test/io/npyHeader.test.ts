@@ -43,6 +43,8 @@ describe("parseNpyHeader(bytes)", () => {
   it("rejects other dtypes with the fix, a bad magic string and an unknown version", () => {
     expectError(() => parseNpyHeader(header("{'descr': '<i4', 'fortran_order': False, 'shape': (2, 3, 5), }")), "io/npy-dtype", "<i4", "float32 or float64");
     expectError(() => parseNpyHeader(header("{'descr': '|u1', 'fortran_order': False, 'shape': (2,), }")), "io/npy-dtype");
+    // '=' (native order) is not written by NumPy's writer and would make the file's meaning depend on the machine
+    expectError(() => parseNpyHeader(header("{'descr': '=f4', 'fortran_order': False, 'shape': (2,), }")), "io/npy-dtype", "explicit byte order");
     expectError(() => parseNpyHeader(new TextEncoder().encode("x,y,bias,current\n0,0,0,0\n")), "io/npy-magic");
     const v9 = header("{'descr': '<f4', 'fortran_order': False, 'shape': (2,), }");
     v9[6] = 9;

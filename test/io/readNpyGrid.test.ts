@@ -45,6 +45,21 @@ describe("readNpyGrid(path, sidecar)", () => {
     expectError(() => readNpyGrid(join(DIR, "wrong-shape.npy"), SIDECAR), "io/npy-shape", "(6, 5)", "[2, 3, 5]");
     expectError(() => readNpyGrid(join(DIR, "le-f4-v1.npy"), { ...SIDECAR, xNM: [0, 0.5, 4] }), "io/npy-shape");
   });
+  it("reads a header longer than the first read (4 KiB) in a second read", () => {
+    // NEP 1 allows any header length; pad the dictionary of le-f4-v1.npy to 8,192 bytes (version 2.0 length field)
+    const src = readFileSync(join(DIR, "le-f4-v1.npy"));
+    const len = src.readUInt16LE(8);
+    const dict = src.subarray(10, 10 + len).toString("latin1").trimEnd();
+    const body = dict.padEnd(8192 - 12 - 1, " ") + "\n";
+    const head = Buffer.alloc(12);
+    Buffer.from([0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59, 2, 0]).copy(head);
+    head.writeUInt32LE(body.length, 8);
+    const p = join(scratch, "long-header.npy");
+    writeFileSync(p, Buffer.concat([head, Buffer.from(body, "latin1"), src.subarray(10 + len)]));
+    const { cube, header } = readNpyGrid(p, SIDECAR);
+    expect(header.dataOffset).toBe(8192);
+    expectClose(cube.currentA, expected, { rtol: 2e-7, what: "generator formula" });
+  });
   it("rejects a truncated file and a missing file", () => {
     const cut = join(scratch, "cut.npy");
     writeFileSync(cut, readFileSync(join(DIR, "le-f4-v1.npy")).subarray(0, 200));
