@@ -11,7 +11,7 @@ import { parseNpyHeader, type NpyHeader } from "./npyHeader.ts";
 export interface ReadNpyGridOptions {
   /** Put the cube on a SharedArrayBuffer, so worker threads can read it without a copy. Default false. */
   shared?: boolean;
-  /** Bytes read per call. Default 8 MiB (READ_NPY_DEFAULTS.chunkBytes). */
+  /** Bytes read per call. Default 8388608 (8 MiB, READ_NPY_DEFAULTS.chunkBytes). */
   chunkBytes?: number;
 }
 
