@@ -3,7 +3,7 @@
  * SharedArrayBuffer: each worker reads its share of pixels in place, nothing is copied.
  */
 import { Worker } from "node:worker_threads";
-import { analyzeGrid, combinePixelPass, gridAnalysisSteps, pixelCount, runPixelPass, type AnalyzeGridOptions, type GridAnalysis, type GridCube, type PixelPass, type PixelPassPart } from "../index.ts";
+import { analyzeGrid, combinePixelPass, gridAnalysisSteps, pixelCount, type AnalyzeGridOptions, type GridAnalysis, type GridCube, type PixelPass, type PixelPassPart } from "../index.ts";
 
 /** Tuning of the grid worker pool (locked by a test). */
 export const GRID_JOBS_DEFAULTS = Object.freeze({
@@ -49,8 +49,8 @@ export interface GridPool {
  * Notes
  * -----
  * 1. Each worker gets the cube once (`setCube`: the SharedArrayBuffer and the axes), then parts
- *    `{ pass, fromPixel, toPixel }`, and answers each with the Float64Array of
- *    {@link runPixelPass} (transferred, not copied).
+ *    `{ pass, fromPixel, toPixel }`, and answers each with the Float64Array of `runPixelPass`
+ *    (transferred, not copied).
  * 2. Parts are handed to the least busy worker.
  * 3. A worker that fails rejects the parts it holds; the command reports it and exits 1.
  */
@@ -150,4 +150,3 @@ export async function runGridAnalysis(
   return step.value;
 }
 
-export { runPixelPass };

@@ -113,7 +113,10 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
     return EXIT.usage;
   }
   let threads = opts.jobs ?? Math.max(1, availableParallelism());
-  if (opts.jobs === undefined && !(fileBytes(input) >= GRID_JOBS_DEFAULTS.autoWorkersMinBytes)) threads = 1;
+  const bytes = fileBytes(input);
+  if (opts.jobs === undefined && !(bytes >= GRID_JOBS_DEFAULTS.autoWorkersMinBytes)) threads = 1;
+  // No cube under this size reaches minSamplesForWorkers (4 bytes per sample at least).
+  if (!(bytes >= 4 * GRID_JOBS_DEFAULTS.minSamplesForWorkers)) threads = 1;
   // Workers load the library while this thread reads the file.
   let pool: GridPool | null = threads > 1 ? startGridPool(threads) : null;
   // The bar shows only on a terminal (stderr); it moves per finished part of a pass on workers.
