@@ -66,6 +66,16 @@ describe("analyzeGrid(cube) on a particle-in-a-sphere dot (model spectra, shell 
       expect(m.pixelsAboveFloor).toBeGreaterThan(20);
     }
   });
+  it("leaves missing pixels out: NaN in the maps, not in the reference, the s map still centred", () => {
+    const cube = sphereDotCube({ radiusNM: R, centreNM: CENTRE });
+    const missing = new Uint8Array(256);
+    for (const p of [0, 17, 100, 255]) missing[p] = 1;
+    const g = analyzeGrid({ ...cube, missing }, { eta: 0.8 });
+    expect(g.reference.pixels).toBe(252);
+    const s = g.maps.find((m) => m.label === "s")!;
+    expect(Number.isNaN(s.image.values[100])).toBe(true);
+    expectClose(s.centreNM!, CENTRE, { atol: 0.05, what: "the dot centre of the fixture" });
+  });
   it("maps at given biases replace the peak maps", () => {
     const g = analyzeGrid(sphereDotCube({ nx: 8, ny: 8, stepNM: 0.9 }), { eta: 0.8, atV: [0.625, 1.1875] });
     expect(g.maps.filter((m) => m.kind === "bias").map((m) => m.label)).toEqual(["at 0.625 V", "at 1.188 V"]);

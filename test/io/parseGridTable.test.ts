@@ -41,6 +41,13 @@ describe("parseGridTable(text)", () => {
     expect(a.record.delimiter).toBe("\t");
     expectClose(a.cube.currentA[5 * 3 + 2], (100 + 20 + 2) * 1e-12, { rtol: 1e-15, what: "table formula" });
   });
+  it("reads a whitespace-separated table whose header names contain spaces (the curve importer's header rules)", () => {
+    const text = table({ delimiter: " ", header: "x (nm)   y (nm)   bias (mV)   current (pA)" });
+    const { cube, record } = parseGridTable(text);
+    expect(record.delimiter).toBe("whitespace");
+    expect(record.columns).toEqual({ x: "x (nm)", y: "y (nm)", bias: "bias (mV)", current: "current (pA)" });
+    expect(cube.xNM.count).toBe(3);
+  });
   it("names the missing column, a position unit other than nm and an off-grid value", () => {
     expectError(() => parseGridTable(table({ header: "x (nm),y (nm),bias (mV),z (nm)" })), "io/missing-column", "current", '"z (nm)"');
     expectError(() => parseGridTable(table({ header: "x (pm),y (nm),bias (mV),current (pA)" })), "io/position-unit", "x (nm)");
