@@ -57,6 +57,20 @@ describe("gridMapFigure(map)", () => {
     // grid x = −3.3 + 0.6·col: the dot centre 1.2 nm is column 7.5, so column 7 or 8
     expect([7, 8]).toContain(col);
   });
+  it("matches the snapshot (numbers rounded to 0.1, the PNG replaced by its size)", () => {
+    // A snapshot of our own output, not a check value: inspect a difference, then update with
+    // npx vitest run test/report -u.
+    const rounded = svg
+      .replace(/data:image\/png;base64,([^"]+)/g, (_m, b64: string) => {
+        const png = Buffer.from(b64, "base64");
+        return `png ${png.readUInt32BE(16)}x${png.readUInt32BE(20)}`;
+      })
+      .replace(/-?\d+\.\d+(e-?\d+)?/g, (x) => {
+        const r = Number(Number(x).toFixed(1));
+        return String(Object.is(r, -0) ? 0 : r);
+      });
+    expect(rounded).toMatchSnapshot();
+  });
   it("defaults are locked", () => {
     expect(Object.isFrozen(GRID_MAP_FIGURE_DEFAULTS)).toBe(true);
     expect(GRID_MAP_FIGURE_DEFAULTS.scheme).toBe("viridis"); // perceptually uniform, colour-blind safe (common practice (no source))
