@@ -105,3 +105,10 @@ export { sizeSeriesTables, SIZE_TABLE_FILES, type SizeSeriesTables, type SizeTab
 // Size figures load Observable Plot (and jsdom in Node) on demand: `const sizeFigures = await loadSizeFigures()`.
 export { loadSizeFigures, SIZE_FIGURE_FILES, type SizeFiguresRenderer, type SizeFigureName } from "./report/loadSizeFigures.ts";
 export type { SizeFiguresOptions } from "./report/sizeFigures.ts";
+
+// Grid spectroscopy: maps of each assigned state across a dot (the cube in memory; files in lib/index.ts).
+export * from "./grid/index.ts";
+export { parseNpyHeader, type NpyHeader } from "./io/npyHeader.ts";
+export { parseGridSidecar, type GridSidecar } from "./io/gridSidecar.ts";
+export { parseGridTable, GRID_TABLE_DEFAULTS, type ParseGridTableOptions, type GridTableRecord } from "./io/parseGridTable.ts";
+export { gridToJson, gridProfileRows, GRID_JSON_VERSION, GRID_PROFILE_COLUMNS, type GridJson, type GridMapJson } from "./report/gridJson.ts";

@@ -10,3 +10,10 @@ export { CURVE_FILE_EXTENSIONS, MAX_CURVE_FILE_BYTES, listCurveFiles, readCurveF
 export { readJsonFile } from "./io/readJsonFile.ts";
 export { writeTextFile } from "./io/writeTextFile.ts";
 export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./io/readSizeTables.ts";
+
+// Grid spectroscopy, Node-only parts: reading cubes from files, and the map figures (PNG raster by node:zlib).
+export { readNpyGrid, READ_NPY_DEFAULTS, type ReadNpyGridOptions, type NpyGridResult } from "./io/readNpyGrid.ts";
+export { readGridFile, fileBytes, type ReadGridFileOptions, type GridFileResult } from "./io/readGridFile.ts";
+// Grid map figures load Observable Plot (and jsdom in Node) on demand: `const draw = await loadGridMapFigure()`.
+export { loadGridMapFigure, type GridMapFigureRenderer } from "./report/loadGridMapFigure.ts";
+export type { GridMapFigureOptions } from "./report/gridMapFigure.ts";

@@ -32,15 +32,17 @@ export const PROGRESS_DEFAULTS = Object.freeze({
  *     Where to draw (stderr).
  * label : string
  *     Word before the bar, e.g. "analyze".
+ * unit : string, optional
+ *     What is counted, after the numbers. Default "files".
  */
-export function startProgress(total: number, stream: CliStream, label: string): Progress {
+export function startProgress(total: number, stream: CliStream, label: string, unit = "files"): Progress {
   if (!(total > PROGRESS_DEFAULTS.minFiles && stream.isTTY === true)) {
     return { tick() {}, log: (line) => void stream.write(line), stop() {} };
   }
   const bars = new cliProgress.MultiBar(
     {
       stream: stream as unknown as NodeJS.WritableStream,
-      format: `${label} [{bar}] {value}/{total} files  {percentage}%  eta {eta_formatted}`,
+      format: `${label} [{bar}] {value}/{total} ${unit}  {percentage}%  eta {eta_formatted}`,
       barCompleteChar: "#",
       barIncompleteChar: "-",
       hideCursor: false,

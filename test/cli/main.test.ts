@@ -24,8 +24,8 @@ describe("main(argv, io)", () => {
     for (const c of COMMANDS) expect(r.stdout).toMatch(new RegExp(`\\n  ${c.name} `));
   });
 
-  it("the registry holds analyze, sizes, fit and simulate, in the order --help lists them", () => {
-    expect(COMMANDS.map((c) => c.name)).toEqual(["analyze", "sizes", "fit", "simulate"]);
+  it("the registry holds analyze, sizes, fit, grid and simulate, in the order --help lists them", () => {
+    expect(COMMANDS.map((c) => c.name)).toEqual(["analyze", "sizes", "fit", "grid", "simulate"]);
   });
 
   it("analyze --help documents the options and says they are analysis settings, not instrument settings", async () => {

@@ -7,7 +7,8 @@ import { analyzeCommand } from "./analyze.ts";
 import { simulateCommand } from "./simulate.ts";
 import { fitCommand } from "./fit.ts";
 import { sizesCommand } from "./sizes.ts";
+import { gridCommand } from "./grid.ts";
 
-export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, sizesCommand, fitCommand, simulateCommand]);
+export const COMMANDS: readonly CliCommand[] = Object.freeze([analyzeCommand, sizesCommand, fitCommand, gridCommand, simulateCommand]);
 
 export type { CliCommand } from "./command.ts";

@@ -1,0 +1,190 @@
+/**
+ * `dotspec grid INPUT`: maps of each assigned state across a dot from a grid of I–V sweeps.
+ */
+import { InvalidArgumentError, type Command } from "commander";
+import { availableParallelism } from "node:os";
+import { join } from "node:path";
+import {
+  fileBytes,
+  formatCsv,
+  gridProfileRows,
+  gridToJson,
+  loadCurveFigure,
+  loadGridMapFigure,
+  readGridFile,
+  writeTextFile,
+  GRID_PROFILE_COLUMNS,
+  type AnalyzeGridOptions,
+  type GridJson,
+} from "../../index.ts";
+import { failureReason } from "../analyzeFile.ts";
+import { EXIT, type CliContext } from "../context.ts";
+import { etaOption } from "../curveOptions.ts";
+import { numberOption } from "../optionValue.ts";
+import { startProgress } from "../progress.ts";
+import { runGridAnalysis, sharedCube, startGridPool, GRID_JOBS_DEFAULTS, type GridPool } from "../gridPool.ts";
+import type { CliCommand } from "./command.ts";
+
+/** Options of `dotspec grid` as commander hands them over. */
+export interface GridCliOptions {
+  sidecar?: string;
+  eta?: number;
+  at?: number[];
+  out?: string;
+  json?: boolean;
+  jobs?: number;
+  referencePixel?: [number, number];
+  referenceCircle?: [number, number, number];
+  floorSigma?: number;
+}
+
+const HELP_AFTER = `
+Input layouts:
+  INPUT.npy   float32 or float64, C order, shape [ny, nx, nbias] of current, with a JSON sidecar
+              (default INPUT.json): {"xNM": [x0, dx, nx], "yNM": [y0, dy, ny],
+              "biasV": [v0, dv, nbias], "currentUnit": "A"}
+  other       a long table: delimited text with columns x (nm), y (nm), bias and current (units
+              as for curves), one row per sample; pixels missing from the grid are reported
+
+The mean spectrum over the grid (or --reference-pixel) is analysed as dotspec analyze does; its
+assigned peaks set the map biases (or --at). Every pixel uses the same Savitzky–Golay filter.
+Maps: dI/dV at each peak, ∫ dI/dV over each multiplet, the current. Each map is thresholded at
+--floor-sigma × its noise before its centre, RMS radius, radial profile and dip depth are measured.
+
+--out DIR writes DIR/summary.json, DIR/profiles.csv, DIR/reference.svg and DIR/maps/<label>.svg.
+
+These are analysis settings; a map that suggests measuring again with other settings (bias, grid
+spacing, setpoint) must be checked against the instrument's own limits and local practice.
+
+Example:
+  dotspec grid dot-03.npy --eta 0.8 --out grid-03
+  dotspec grid dot-03.csv --eta 0.8 --at 0.7,1.05 --json > grid-03.json
+`;
+
+function biasList(raw: string): number[] {
+  const parts = raw.split(",").map((s) => s.trim());
+  const values = parts.map(Number);
+  if (!parts.length || parts.some((s) => s === "") || !values.every(Number.isFinite)) {
+    throw new InvalidArgumentError(`--at expects biases in V separated by commas, e.g. --at 0.7,1.05; got ${JSON.stringify(raw)}`);
+  }
+  return values;
+}
+
+function pixelPair(raw: string): [number, number] {
+  const v = raw.split(",").map((s) => Number(s.trim()));
+  if (v.length !== 2 || !v.every((x) => Number.isInteger(x) && x >= 0)) throw new InvalidArgumentError(`--reference-pixel expects IX,IY (column and row from 0), e.g. 8,8; got ${JSON.stringify(raw)}`);
+  return [v[0], v[1]];
+}
+
+function circle(raw: string): [number, number, number] {
+  const v = raw.split(",").map((s) => Number(s.trim()));
+  if (v.length !== 3 || !v.every(Number.isFinite) || !(v[2] > 0)) throw new InvalidArgumentError(`--reference-circle expects X,Y,R in nm with R > 0, e.g. 0,0,2.5; got ${JSON.stringify(raw)}`);
+  return [v[0], v[1], v[2]];
+}
+
+export const gridCommand: CliCommand = {
+  name: "grid",
+  register(program: Command, ctx: CliContext) {
+    program
+      .command("grid")
+      .summary("maps of each assigned state across a dot from a grid of I–V sweeps")
+      .description("Analyse a grid of I–V sweeps over one dot: dI/dV maps at each assigned peak and over each multiplet, with centre, RMS radius, radial profile and dip depth.")
+      .argument("<INPUT>", "a .npy current cube (with its JSON sidecar) or a long table (x, y, bias, current)")
+      .option("--sidecar <S.json>", "the sidecar of an .npy input (default: INPUT with .json)")
+      .option("--eta <η>", "voltage-division factor η in (0, 1] (default 1, with a warning)", etaOption)
+      .option("--at <V,...>", "map biases in V instead of the assigned peaks, e.g. 0.7,1.05", biasList)
+      .option("--reference-pixel <IX,IY>", "analyse this pixel's spectrum instead of the mean over the grid", pixelPair)
+      .option("--reference-circle <X,Y,R>", "analyse the mean spectrum of the pixels within R nm of (X, Y) nm", circle)
+      .option("--floor-sigma <k>", "noise floor of the shape measures in σ of each map (default 3)", numberOption({ min: 0, accepted: "a number of σ, 0 or more" }))
+      .option("--out <DIR>", "write summary.json, profiles.csv, reference.svg and maps/*.svg")
+      .option("--json", "print the JSON summary")
+      .option("--jobs <n>", "worker threads for the per-pixel work (default: the CPU count for inputs of 1 GiB or more, else 1)", numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }))
+      .addHelpText("after", HELP_AFTER)
+      .action(async (input: string, opts: GridCliOptions) => {
+        ctx.exitCode = await runGrid(input, opts, ctx);
+      });
+  },
+};
+
+/** Runs `dotspec grid`: 0 on success, 1 when the input cannot be read or analysed. */
+export async function runGrid(input: string, opts: GridCliOptions, ctx: CliContext): Promise<number> {
+  if (opts.referencePixel && opts.referenceCircle) {
+    ctx.error("give --reference-pixel or --reference-circle, not both");
+    return EXIT.usage;
+  }
+  let threads = opts.jobs ?? Math.max(1, availableParallelism());
+  const bytes = fileBytes(input);
+  if (opts.jobs === undefined && !(bytes >= GRID_JOBS_DEFAULTS.autoWorkersMinBytes)) threads = 1;
+  // No cube under this size reaches minSamplesForWorkers (4 bytes per sample at least).
+  if (!(bytes >= 4 * GRID_JOBS_DEFAULTS.minSamplesForWorkers)) threads = 1;
+  // Workers load the library while this thread reads the file.
+  let pool: GridPool | null = threads > 1 ? startGridPool(threads) : null;
+  // The bar shows only on a terminal (stderr); it moves per finished part of a pass on workers.
+  const progress = startProgress(100, ctx.stderr, "grid", "%");
+  try {
+    const file = readGridFile(input, { sidecar: opts.sidecar, shared: pool !== null });
+    let cube = file.cube;
+    if (pool && !(cube.currentA.buffer instanceof SharedArrayBuffer)) cube = sharedCube(cube);
+    const options: AnalyzeGridOptions = {
+      ...(opts.eta !== undefined ? { eta: opts.eta } : {}),
+      ...(opts.at ? { atV: opts.at } : {}),
+      ...(opts.referencePixel ? { reference: { pixel: opts.referencePixel } } : {}),
+      ...(opts.referenceCircle ? { reference: { centreNM: [opts.referenceCircle[0], opts.referenceCircle[1]] as [number, number], radiusNM: opts.referenceCircle[2] } } : {}),
+      ...(opts.floorSigma !== undefined ? { floorSigma: opts.floorSigma } : {}),
+    };
+    let shown = 0;
+    const grid = await runGridAnalysis(cube, options, pool, (done, total) => {
+      const pct = Math.round((100 * done) / total);
+      for (; shown < pct; shown++) progress.tick();
+    });
+    if (pool) {
+      await pool.close();
+      pool = null;
+    }
+    const missing = cube.missing ? cube.missing.reduce((a, b) => a + b, 0) : 0;
+    const json = gridToJson(grid, missing, file.warnings);
+    if (opts.out) {
+      const [drawMap, drawCurve] = await Promise.all([loadGridMapFigure(), loadCurveFigure()]);
+      writeTextFile(join(opts.out, "summary.json"), JSON.stringify(json, null, 2) + "\n");
+      writeTextFile(join(opts.out, "profiles.csv"), formatCsv(gridProfileRows(grid), GRID_PROFILE_COLUMNS));
+      writeTextFile(join(opts.out, "reference.svg"), drawCurve(grid.reference.analysis, { curve: grid.reference.curve }));
+      const used = new Set<string>();
+      for (const m of grid.maps) {
+        let name = m.label.replace(/[^A-Za-z0-9.+-]+/g, "_").replace(/^_+|_+$/g, "") || "map";
+        while (used.has(name)) name += "_";
+        used.add(name);
+        writeTextFile(join(opts.out, "maps", `${name}.svg`), drawMap(m));
+      }
+    }
+    progress.stop();
+    if (ctx.stdoutGone()) return EXIT.ok;
+    if (opts.json) ctx.stdout.write(JSON.stringify(json) + "\n");
+    else ctx.stdout.write(formatGridText(json) + "\n");
+    return EXIT.ok;
+  } catch (err) {
+    progress.stop();
+    ctx.error(`${input}: ${failureReason(input, err)}`);
+    return EXIT.failed;
+  } finally {
+    if (pool) await pool.close();
+  }
+}
+
+/** The readable report of `dotspec grid`: the reference assignment and one line per map. */
+export function formatGridText(json: GridJson): string {
+  const a = json.reference.analysis;
+  const g = json.grid;
+  const lines = [
+    `${json.source}: ${g.nx} × ${g.ny} pixels (${Number(g.xNM.step.toPrecision(6))} × ${Number(g.yNM.step.toPrecision(6))} nm), ${g.nbias} bias points${g.missingPixels ? `, ${g.missingPixels} missing` : ""}`,
+    `reference: ${json.reference.pixels} pixel${json.reference.pixels === 1 ? "" : "s"}, ${a.regime}, multiplets ${a.multiplets.map((m) => m.label).join(" ") || "none"}; Savitzky–Golay ${json.filter.windowSamples} samples (${json.filter.windowMV.toFixed(1)} mV), order ${json.filter.order}`,
+    "",
+    `${"map".padEnd(16)} ${"bias (V)".padStart(9)} ${"RMS r (nm)".padStart(10)} ${"centre (nm)".padStart(15)} ${"dip".padStart(5)} ${"round".padStart(5)} ${"pixels".padStart(6)}`,
+  ];
+  const f = (v: number | null, d: number, w: number) => (v === null ? "–" : v.toFixed(d)).padStart(w);
+  for (const m of json.maps) {
+    const c = m.centreNM ? `${m.centreNM[0].toFixed(2)}, ${m.centreNM[1].toFixed(2)}` : "–";
+    lines.push(`${m.label.padEnd(16)} ${f(m.biasV, 3, 9)} ${f(m.rmsRadiusNM, 2, 10)} ${c.padStart(15)} ${f(m.dipDepth, 2, 5)} ${f(m.roundness, 2, 5)} ${String(m.pixelsAboveFloor).padStart(6)}`);
+  }
+  for (const w of json.warnings) lines.push(`warning: ${w}`);
+  return lines.join("\n");
+}

@@ -1,0 +1,91 @@
+/**
+ * Reading a grid from disk: an NPY array with its JSON sidecar, or a long table.
+ */
+import { readFileSync, statSync } from "node:fs";
+import { extname } from "node:path";
+import type { GridCube } from "../grid/gridCube.ts";
+import { DotspecError } from "../util/errors.ts";
+import { parseGridTable, type GridTableRecord } from "./parseGridTable.ts";
+import { readJsonFile } from "./readJsonFile.ts";
+import { readNpyGrid, type NpyGridResult } from "./readNpyGrid.ts";
+import { MAX_CURVE_FILE_BYTES } from "./readCurveFile.ts";
+
+/** Options of {@link readGridFile}. */
+export interface ReadGridFileOptions {
+  /** The sidecar of an `.npy` file. Default: the same path with `.json` in place of `.npy`. */
+  sidecar?: string;
+  /** Put an NPY cube on a SharedArrayBuffer (for worker threads). Default false. */
+  shared?: boolean;
+}
+
+/** What {@link readGridFile} read: the cube and, by layout, how. */
+export interface GridFileResult {
+  cube: GridCube;
+  layout: "npy" | "table";
+  /** The NPY header and sidecar (layout "npy"), or null. */
+  npy: Omit<NpyGridResult, "cube"> | null;
+  /** The table record (layout "table"), or null. */
+  table: GridTableRecord | null;
+  warnings: string[];
+}
+
+/**
+ * Reads a grid file: `.npy` (with its sidecar) or a delimited-text long table (any other extension).
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file.
+ * options : ReadGridFileOptions, optional
+ *     sidecar (default `<name>.json`), shared (default false).
+ *
+ * Returns
+ * -------
+ * GridFileResult
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/not-found`, `io/too-large` (a table over 256 MiB), `io/unreadable-json`/`io/invalid-json`
+ *     for the sidecar, and every error of {@link readNpyGrid} and {@link parseGridTable}.
+ *
+ * Example
+ * -------
+ * ```ts
+ * readGridFile("dot.npy").cube.xNM; // the axes from dot.json
+ * ```
+ */
+export function readGridFile(path: string, options: ReadGridFileOptions = {}): GridFileResult {
+  if (typeof path !== "string" || path === "") throw new DotspecError("io/bad-path", `readGridFile: path must be a non-empty string; got ${JSON.stringify(path)}`);
+  let size: number;
+  try {
+    size = statSync(path).size;
+  } catch {
+    throw new DotspecError("io/not-found", `${path}: no such file`);
+  }
+  if (extname(path).toLowerCase() === ".npy") {
+    const sidecarPath = options.sidecar ?? path.replace(/\.npy$/i, ".json");
+    const r = readNpyGrid(path, readJsonFile(sidecarPath), { shared: options.shared ?? false }, sidecarPath);
+    return { cube: r.cube, layout: "npy", npy: { header: r.header, sidecar: r.sidecar }, table: null, warnings: [] };
+  }
+  if (size > MAX_CURVE_FILE_BYTES) throw new DotspecError("io/too-large", `${path}: ${size} bytes is more than a grid table may hold (${MAX_CURVE_FILE_BYTES}); store large grids as NPY`);
+  const r = parseGridTable(readFileSync(path, "utf8"), { source: path });
+  return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: r.record.warnings };
+}
+
+/**
+ * Size of a file in bytes; NaN when it cannot be read (the reader then says why).
+ *
+ * Example
+ * -------
+ * ```ts
+ * fileBytes("dot.npy"); // => 33554560
+ * ```
+ */
+export function fileBytes(path: string): number {
+  try {
+    return statSync(path).size;
+  } catch {
+    return NaN;
+  }
+}

@@ -1,0 +1,39 @@
+/**
+ * On-demand loading of the grid map figure: Observable Plot, and in Node jsdom with a PNG canvas
+ * for the raster.
+ */
+import type { GridMap } from "../grid/analyzeGrid.ts";
+import type { GridMapFigureOptions } from "./gridMapFigure.ts";
+
+/** {@link gridMapFigure} with its document bound. */
+export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureOptions, "document">) => string;
+
+/**
+ * Loads the figure code and returns the figure function.
+ *
+ * Parameters
+ * ----------
+ * document : Document, optional
+ *     The DOM document to draw in. Default: `globalThis.document` in a browser; in Node a jsdom
+ *     document whose canvas elements encode PNG (jsdom has no canvas of its own).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const draw = await loadGridMapFigure();
+ * const svg = draw(grid.maps[0]);
+ * ```
+ */
+export async function loadGridMapFigure(document?: Document): Promise<GridMapFigureRenderer> {
+  const [{ gridMapFigure }, doc] = await Promise.all([import("./gridMapFigure.ts"), document ?? defaultDocument()]);
+  return (map, options = {}) => gridMapFigure(map, { ...options, document: doc });
+}
+
+async function defaultDocument(): Promise<Document> {
+  const browser = (globalThis as { document?: Document }).document;
+  if (browser) return browser;
+  const specifier = "jsdom";
+  const { JSDOM } = (await import(/* @vite-ignore */ specifier)) as typeof import("jsdom");
+  const { withPngCanvas } = await import("./pngCanvas.ts");
+  return withPngCanvas(new JSDOM("").window.document);
+}
