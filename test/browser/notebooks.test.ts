@@ -5,7 +5,10 @@
 // filter's pass band narrows as the window grows: Savitzky & Golay, Anal. Chem. 36, 1627 (1964));
 // a window in mV becomes the nearest odd number of bias steps, so the window shown is within one
 // step of the window set (the project's documented rule); a bad file gives the line that
-// `dotspec analyze` prints for it (the CLI itself is run as the reference).
+// `dotspec analyze` prints for it (the CLI itself is run as the reference). The size-series page
+// is checked against `dotspec sizes` run in Node on the same files (by construction: the page
+// calls the same library functions, so every value must agree); the demo's dot count is the
+// number of dot ids in its META.csv, the size table the page reads.
 //
 // Screenshots go to artifacts/browser/ (git-ignored); so do the measured control-to-redraw
 // times (timings.json), which are reported, not asserted: speed is not a test here.
@@ -18,7 +21,8 @@ import { promisify } from "node:util";
 import type { BrowserContext, Page } from "playwright-core";
 import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts";
 import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
-import { parseCurveText, parseScenario } from "../../lib/index.ts";
+import { expectClose } from "../helpers/expectClose.ts";
+import { failureReason, parseCurveText, parseScenario, parseSizeFormula, parseSizeMeta, type SizeSeriesJson } from "../../lib/index.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
 const HAVE_CHROMIUM = existsSync(CHROMIUM);
@@ -137,10 +141,11 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     return line!.slice("dotspec: ".length);
   }
 
-  it("the start page links both notebooks and loads nothing from elsewhere", async () => {
+  it("the start page links the notebooks and loads nothing from elsewhere", async () => {
     const page = await open("index.html");
     await expect.poll(() => page.locator("main a[href='./curve.html']").count()).toBe(1);
     expect(await page.locator("main a[href='./model.html']").count()).toBe(1);
+    expect(await page.locator("main a[href='./sizes.html']").count()).toBe(1);
     await page.close();
   });
 
@@ -375,6 +380,123 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     expect(await page.getByRole("button", { name: "Run the fit" }).count()).toBe(0);
     expect(await range(page, "charging energy Ec (eV)").count()).toBe(0);
     expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  /** `dotspec sizes ARGS` run in DIR: its stdout and its "dotspec: " lines on stderr. */
+  async function cliSizes(dir: string, args: string[]): Promise<{ stdout: string; lines: string[] }> {
+    const run = promisify(execFile);
+    const result = await run(process.execPath, [join(ROOT, "bin", "dotspec.js"), "sizes", ...args], { cwd: dir, maxBuffer: 64 << 20 }).then(
+      (r) => r,
+      (err: { stdout: string; stderr: string }) => err,
+    );
+    return { stdout: result.stdout, lines: result.stderr.split("\n").filter((l) => l.startsWith("dotspec: ")).map((l) => l.slice("dotspec: ".length)) };
+  }
+
+  /** The per-dot table of the size-series page: one record per row, by column heading. */
+  async function dotRows(page: Page): Promise<Record<string, string>[]> {
+    return page.locator("[data-testid=dot-table] table").evaluate((table) => {
+      const heads = [...table.querySelectorAll("thead th")].map((th) => th.textContent!.trim());
+      return [...table.querySelectorAll("tbody tr")].map((tr) => Object.fromEntries([...tr.children].map((td, i) => [heads[i], td.textContent!.trim()])));
+    });
+  }
+
+  it("size series: the demo series gives one row per dot with the values `dotspec sizes` computes, the flagged and unassigned curves, the fits and the figures", async () => {
+    const series = join(ROOT, "sample-curves", "series");
+    const reference = cliSizes(series, ["curves", "--meta", "META.csv", "--material", "InP", "--optical", "optical.csv", "--json"]);
+    const page = await open("sizes.html");
+    await page.locator("[data-testid=demo-series]").click();
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    const record = JSON.parse((await reference).stdout) as SizeSeriesJson;
+    // The demo's dot count: the distinct dot ids of its size table.
+    const dots = new Set(parseSizeMeta(readFileSync(join(series, "META.csv"), "utf8"), "META.csv").map((r) => r.dot));
+    const rows = await dotRows(page);
+    expect(rows).toHaveLength(dots.size);
+    expect(record.dots).toHaveLength(dots.size);
+    // Every dot's gap and regime as the command gives them (the table shows 4 decimals).
+    for (const d of record.dots) {
+      const row = rows.find((r) => r.dot === d.dot)!;
+      expect(row, d.dot).toBeDefined();
+      expectClose(Number(row["gap (eV)"].split(" ± ")[0]), d.energies.gapEV!, { atol: 0.5e-4 + 1e-12, what: `${d.dot} gap shown to 4 decimals` });
+      expect(row.regime.startsWith(d.regime === "shell-filling" ? "filling" : d.regime === "shell-tunneling" ? "tunnelling" : "undetermined"), d.dot).toBe(true);
+    }
+    // Flagged and unassigned curves, as the command lists them (the page names files without their folder).
+    const flagged = await page.locator("[data-testid=flagged] tbody tr td:nth-child(2)").allTextContents();
+    expect(new Set(flagged)).toEqual(new Set(record.dots.flatMap((d) => d.flags.map((f) => f.file.split("/").pop()))));
+    expect(flagged.length).toBeGreaterThan(0);
+    const unassigned = await page.locator("[data-testid=unassigned] tbody tr td:first-child").allTextContents();
+    expect(unassigned).toEqual(record.unassigned.map((u) => u.file.split("/").pop()));
+    // The Ec fit with ε_eff, the value the command fits.
+    const charging = record.fits.find((f) => f.model === "charging-sphere")!;
+    const ecRow = page.locator("[data-testid=fits] tbody tr[data-model=charging-sphere]");
+    expect(await ecRow.count()).toBe(1);
+    const epsShown = Number(/dielectricConstantEff = ([\d.]+)/.exec((await ecRow.textContent())!)![1]);
+    const eps = charging.params.dielectricConstantEff;
+    expectClose(epsShown, eps, { atol: 0.5 * 10 ** (Math.floor(Math.log10(eps)) - 3) + 1e-12, what: "ε_eff shown to 4 significant digits" });
+    expect(await page.locator("[data-testid=fits] tbody tr").count()).toBe(record.fits.length);
+    // The five figures of `dotspec sizes --out`, the optical pairing, the downloads.
+    for (const name of ["gap", "chargingEnergy", "levelSpacing", "valence", "optical"]) {
+      expect(await page.locator(`[data-testid=size-figure-${name}] > svg`).count(), name).toBe(1);
+    }
+    expect(await page.locator("[data-testid=optical] tbody tr").count()).toBe(record.optical!.reduce((s, p) => s + p.peaks.length, 0));
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "JSON record" }).click()]);
+    const saved = JSON.parse(readFileSync((await download.path())!, "utf8")) as SizeSeriesJson;
+    // The same numbers to rounding: Chromium's and Node's math functions may differ in the last bit.
+    const ec = (j: SizeSeriesJson) => j.dots.map((d) => d.energies.chargingEnergyEV);
+    expect(ec(saved).map((v) => v === null)).toEqual(ec(record).map((v) => v === null));
+    expectClose(ec(saved).filter((v) => v !== null) as number[], ec(record).filter((v) => v !== null) as number[], { rtol: 1e-9, what: "Ec per dot, page vs dotspec sizes" });
+    expect(await page.locator("[data-testid=problems]").count()).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, "sizes-demo.png"), fullPage: true });
+    expect(await errorCells(page)).toBe(0);
+
+    // A formula of the user's is fitted too; a hostile one is refused with the library's message.
+    const formulaBox = page.locator("textarea");
+    await formulaBox.fill("gapEV: Eg + a / R^2 ; a=1");
+    await page.getByRole("button", { name: "Fit the formulas" }).click();
+    const formulaRows = page.locator("[data-testid=fits] tbody tr[data-model^='formula: ']");
+    await expect.poll(() => formulaRows.count()).toBe(1);
+    expect(await formulaRows.getAttribute("data-quantity")).toBe("gapEV");
+    const hostile = 'import("x")';
+    const refusal = (() => {
+      try {
+        parseSizeFormula(hostile);
+        return "accepted";
+      } catch (error) {
+        return failureReason("", error);
+      }
+    })();
+    await formulaBox.fill(hostile);
+    await page.getByRole("button", { name: "Fit the formulas" }).click();
+    await expect.poll(() => page.locator("[data-testid=formula-problem]").textContent()).toBe(refusal);
+    expect(refusal).toContain('"import"');
+    await expect.poll(() => formulaRows.count()).toBe(0);
+    expect(await ecRow.count()).toBe(1); // the rest of the series stands
+    await page.screenshot({ path: join(ARTIFACTS, "sizes-formula-refused.png"), fullPage: true });
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("size series: a bad file among good ones gives the line `dotspec sizes` prints for it, and the rest is still analysed", async () => {
+    const dir = join(work, "series");
+    mkdirSync(dir, { recursive: true });
+    const good = ["qd-7-s01-1.csv", "qd-7-s01-2.csv", "qd-7-s02-1.csv", "qd-7-s02-2.csv", "qd-7-s02-3.csv"];
+    for (const f of good) writeFileSync(join(dir, f), readFileSync(join(ROOT, "sample-curves", "series", "curves", f)));
+    writeFileSync(join(dir, "broken.csv"), "# a lab note, not a sweep\nsample A looked fine\nno numbers here\n");
+    const reference = cliSizes(dir, [".", "--json"]);
+    const page = await open("sizes.html");
+    await page.setInputFiles("[data-testid=curve-files]", [...good, "broken.csv"].map((f) => join(dir, f)));
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    const { stdout, lines } = await reference;
+    expect(lines).toHaveLength(1);
+    expect(lines[0].startsWith("broken.csv: ")).toBe(true);
+    await expect.poll(() => page.locator("[data-testid=problems] [data-testid=problem]").allTextContents()).toEqual(lines);
+    // Without a size table, each file's own "# dot:" and "# radius_nm:" lines: the dots the command finds.
+    const record = JSON.parse(stdout) as SizeSeriesJson;
+    const rows = await dotRows(page);
+    expect(rows.map((r) => r.dot)).toEqual(record.dots.map((d) => d.dot));
+    expect(rows.map((r) => r.curves)).toEqual(record.dots.map((d) => String(d.curves)));
+    expect(await errorCells(page)).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, "sizes-bad-file.png"), fullPage: true });
     await page.close();
   });
 
