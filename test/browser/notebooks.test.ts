@@ -447,6 +447,8 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     expectClose(ec(saved).filter((v) => v !== null) as number[], ec(record).filter((v) => v !== null) as number[], { rtol: 1e-9, what: "Ec per dot, page vs dotspec sizes" });
     expect(await page.locator("[data-testid=problems]").count()).toBe(0);
     await page.screenshot({ path: join(ARTIFACTS, "sizes-demo.png"), fullPage: true });
+    await page.locator("[data-testid=dot-table]").screenshot({ path: join(ARTIFACTS, "sizes-dot-table.png") });
+    await page.locator("[data-testid=drop-zone]").screenshot({ path: join(ARTIFACTS, "sizes-picker.png") });
     expect(await errorCells(page)).toBe(0);
 
     // A formula of the user's is fitted too; a hostile one is refused with the library's message.
@@ -497,6 +499,28 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     expect(rows.map((r) => r.curves)).toEqual(record.dots.map((d) => String(d.curves)));
     expect(await errorCells(page)).toBe(0);
     await page.screenshot({ path: join(ARTIFACTS, "sizes-bad-file.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("size series: files dropped on the zone, a META.csv among them taken as the size table", async () => {
+    const series = join(ROOT, "sample-curves", "series");
+    const names = ["qd-7-s03-1.csv", "qd-7-s03-2.csv", "qd-7-s05-1.csv", "qd-7-s05-2.csv"];
+    // A size table of these four curves: the demo table's rows for them.
+    const metaText = readFileSync(join(series, "META.csv"), "utf8").split("\n").filter((l) => !/^qd-7-/.test(l) || names.some((n) => l.startsWith(n + ","))).join("\n");
+    const dots = new Set(parseSizeMeta(metaText, "META.csv").map((r) => r.dot));
+    const files = [{ name: "META.csv", text: metaText }, ...names.map((name) => ({ name, text: readFileSync(join(series, "curves", name), "utf8") }))];
+    const page = await open("sizes.html");
+    const transfer = await page.evaluateHandle((list) => {
+      const dt = new DataTransfer();
+      for (const f of list) dt.items.add(new File([f.text], f.name, { type: "text/csv" }));
+      return dt;
+    }, files);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    expect(await page.locator("[data-testid=picked]").textContent()).toBe("4 curve files, size table META.csv");
+    expect((await dotRows(page)).map((r) => r.dot)).toEqual([...dots]);
+    expect(await page.locator("[data-testid=unassigned]").count()).toBe(0); // every dropped curve is in the table
+    expect(await errorCells(page)).toBe(0);
     await page.close();
   });
 
