@@ -255,7 +255,11 @@ export function seriesPicker(demo) {
   };
   // Own files replace the demo series (its tables go with it).
   const own = (s) => (s.demo ? { demo: false, curves: [], meta: null, optical: null } : s);
-  const mine = (s) => { const { material, ...rest } = s; return { ...rest, demo: false }; };
+  // A table of one's own makes the series one's own (the demo's material no longer applies).
+  const mine = (s) => {
+    const { material, ...rest } = s;
+    return { ...rest, demo: false };
+  };
   const addFiles = (files) => {
     const s = { ...own(state) };
     const curves = [];
