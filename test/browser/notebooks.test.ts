@@ -22,7 +22,17 @@ import type { BrowserContext, Page } from "playwright-core";
 import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts";
 import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
 import { expectClose } from "../helpers/expectClose.ts";
-import { failureReason, parseCurveText, parseScenario, parseSizeFormula, parseSizeMeta, type SizeSeriesJson } from "../../lib/index.ts";
+import {
+  failureReason,
+  formatCsv,
+  parseCurveText,
+  parseScenario,
+  parseSizeFormula,
+  parseSizeMeta,
+  SIZE_TABLE_FILES,
+  sizeSeriesTables,
+  type SizeSeriesJson,
+} from "../../lib/index.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
 const HAVE_CHROMIUM = existsSync(CHROMIUM);
@@ -463,6 +473,13 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const ec = (j: SizeSeriesJson) => j.dots.map((d) => d.energies.chargingEnergyEV);
     expect(ec(saved).map((v) => v === null)).toEqual(ec(record).map((v) => v === null));
     expectClose(ec(saved).filter((v) => v !== null) as number[], ec(record).filter((v) => v !== null) as number[], { rtol: 1e-9, what: "Ec per dot, page vs dotspec sizes" });
+    // The dots table of `dotspec sizes --out`: its columns and one row per dot (the library's tables of the command's record).
+    const [csvDownload] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "CSV: dots" }).click()]);
+    expect(csvDownload.suggestedFilename()).toBe(SIZE_TABLE_FILES.dots);
+    const csvLines = readFileSync((await csvDownload.path())!, "utf8").trimEnd().split("\n");
+    const expectedDots = sizeSeriesTables(record, []).dots;
+    expect(csvLines[0]).toBe(formatCsv([], expectedDots.columns).trimEnd());
+    expect(csvLines).toHaveLength(1 + expectedDots.rows.length);
     expect(await page.locator("[data-testid=problems]").count()).toBe(0);
     await page.screenshot({ path: join(ARTIFACTS, "sizes-demo.png"), fullPage: true });
     await page.locator("[data-testid=dot-table]").screenshot({ path: join(ARTIFACTS, "sizes-dot-table.png") });
