@@ -37,6 +37,7 @@ export type { Delimiter } from "./io/cells.ts";
 export { parseCurveBytes } from "./io/parseCurveBytes.ts";
 export { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, type CellValue, type CurveColumns } from "./io/formatCsv.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./io/etaFromMetadata.ts";
+export { etaForCurve, type CurveEta } from "./io/etaForCurve.ts";
 export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./io/parseSizeMeta.ts";
 export { parseOpticalTable, OPTICAL_PEAK_RANGE_EV, type OpticalTableRow } from "./io/parseOpticalTable.ts";
 export { sizeFromMetadata, SIZE_METADATA_KEYS, type MetadataSize } from "./io/sizeFromMetadata.ts";

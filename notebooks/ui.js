@@ -207,3 +207,98 @@ export function figure(svgMarkup, testid, { describe } = {}) {
 export function nothing() {
   return html`<span hidden></span>`;
 }
+
+/** A file as the series picker hands it on: a bundled attachment or a File, under its own name. */
+function entry(name, file) {
+  return { name, arrayBuffer: () => file.arrayBuffer(), text: () => file.text() };
+}
+
+/** The size table and optical table are told from curves by name when dropped: META.* and optical.*. */
+const DROPPED_TABLE = { meta: /^meta\b.*\.(csv|tsv|txt)$/i, optical: /^optical\b.*\.(csv|tsv|txt)$/i };
+
+/**
+ * A picker for a size series: many curve files (file picker or drag-and-drop), an optional size
+ * table (META.csv) and an optional optical table, or the bundled demo series. Its value is null
+ * until something is chosen, then `{ label, demo, curves, meta, optical }`: `curves` a list and
+ * `meta`/`optical` null or one file, each `{ name, arrayBuffer(), text() }`. Files are read in
+ * the page only. For the demo series the value also carries `material`, the demo's material.
+ *
+ * @param {{curves: {name: string, file: object}[], meta: {name: string, file: object}, optical: {name: string, file: object}, label: string, material?: string}} demo -
+ *   the bundled series under the files' own names (a built page renames its files), a line
+ *   describing it and its material.
+ */
+export function seriesPicker(demo) {
+  const demoButton = html`<button type="button" class="dotspec-download" data-testid="demo-series">Load the demo series</button>`;
+  const curvesInput = html`<input type="file" multiple data-testid="curve-files" accept=".csv,.tsv,.txt,.dat,text/plain,text/csv" aria-label="open curve files">`;
+  const metaInput = html`<input type="file" data-testid="meta-file" accept=".csv,.tsv,.txt,text/plain,text/csv" aria-label="open a size table">`;
+  const opticalInput = html`<input type="file" data-testid="optical-file" accept=".csv,.tsv,.txt,text/plain,text/csv" aria-label="open an optical table">`;
+  const status = html`<span class="dotspec-picked" data-testid="picked">nothing yet</span>`;
+  const zone = html`<div class="dotspec-drop" data-testid="drop-zone">
+    <div>${demoButton} <span class="dotspec-hint">${demo.label}</span></div>
+    <div><strong>Curves</strong> ${curvesInput}</div>
+    <div><strong>Size table</strong> (optional: file, dot, radius_nm or diameter_nm, eta, notes) ${metaInput}</div>
+    <div><strong>Optical table</strong> (optional: radius_nm, peak_ev_1, peak_ev_2, …) ${opticalInput}</div>
+    <div class="dotspec-hint">…or drop files here (a file named META.* is taken as the size table, optical.* as the optical table). Files are read in this page only; nothing is sent anywhere.</div>
+    <div>Showing: ${status}</div>
+  </div>`;
+  zone.value = null;
+  let state = { demo: false, curves: [], meta: null, optical: null };
+  const describe = (s) =>
+    `${s.demo ? "the demo series: " : ""}${s.curves.length} curve file${s.curves.length === 1 ? "" : "s"}` +
+    (s.meta ? `, size table ${s.meta.name}` : ", no size table") +
+    (s.optical ? `, optical table ${s.optical.name}` : "");
+  const set = (next) => {
+    state = next;
+    zone.value = { label: describe(next), ...next };
+    status.textContent = describe(next);
+    zone.dispatchEvent(new Event("input", { bubbles: true }));
+  };
+  // Own files replace the demo series (its tables go with it).
+  const own = (s) => (s.demo ? { demo: false, curves: [], meta: null, optical: null } : s);
+  // A table of one's own makes the series one's own (the demo's material no longer applies).
+  const mine = (s) => {
+    const { material, ...rest } = s;
+    return { ...rest, demo: false };
+  };
+  const addFiles = (files) => {
+    const s = { ...own(state) };
+    const curves = [];
+    for (const f of files) {
+      if (DROPPED_TABLE.meta.test(f.name)) s.meta = entry(f.name, f);
+      else if (DROPPED_TABLE.optical.test(f.name)) s.optical = entry(f.name, f);
+      else curves.push(entry(f.name, f));
+    }
+    if (curves.length) s.curves = curves;
+    set(s);
+  };
+  demoButton.addEventListener("click", () =>
+    set({
+      demo: true,
+      material: demo.material ?? null,
+      curves: demo.curves.map((c) => entry(c.name, c.file)),
+      meta: entry(demo.meta.name, demo.meta.file),
+      optical: entry(demo.optical.name, demo.optical.file),
+    }),
+  );
+  curvesInput.addEventListener("change", () => {
+    if (curvesInput.files && curvesInput.files.length) set({ ...own(state), curves: [...curvesInput.files].map((f) => entry(f.name, f)) });
+  });
+  metaInput.addEventListener("change", () => {
+    if (metaInput.files && metaInput.files.length) set({ ...mine(state), meta: entry(metaInput.files[0].name, metaInput.files[0]) });
+  });
+  opticalInput.addEventListener("change", () => {
+    if (opticalInput.files && opticalInput.files.length) set({ ...mine(state), optical: entry(opticalInput.files[0].name, opticalInput.files[0]) });
+  });
+  zone.addEventListener("dragover", (event) => {
+    event.preventDefault();
+    zone.classList.add("dotspec-drop-over");
+  });
+  zone.addEventListener("dragleave", () => zone.classList.remove("dotspec-drop-over"));
+  zone.addEventListener("drop", (event) => {
+    event.preventDefault();
+    zone.classList.remove("dotspec-drop-over");
+    const dropped = event.dataTransfer && event.dataTransfer.files;
+    if (dropped && dropped.length) addFiles([...dropped]);
+  });
+  return zone;
+}

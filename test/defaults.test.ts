@@ -18,6 +18,7 @@ import { PEAK_AREAS_DEFAULTS } from "../lib/peaks/peakAreas.ts";
 import { EDGE_STEP_WIDTH_DEFAULTS } from "../lib/peaks/edgeStepWidth.ts";
 import { SCENARIO_DEFAULTS } from "../lib/model/scenario.ts";
 import { SYNTHETIC_DEFAULTS } from "../lib/model/syntheticSpectrum.ts";
+import { PLAN_SIZE_CURVES_DEFAULTS } from "../lib/sizes/planSizeCurves.ts";
 
 const OBJECTS: Record<string, object> = {
   FIND_PEAKS_DEFAULTS,
@@ -34,6 +35,7 @@ const OBJECTS: Record<string, object> = {
   EDGE_STEP_WIDTH_DEFAULTS,
   SCENARIO_DEFAULTS,
   SYNTHETIC_DEFAULTS,
+  PLAN_SIZE_CURVES_DEFAULTS,
 };
 
 /** [source file, options interface, the DEFAULTS objects its fields default to, in lookup order]. */
@@ -53,6 +55,7 @@ const CASES: [string, string, string[]][] = [
   ["../lib/model/scenario.ts", "Scenario", ["SCENARIO_DEFAULTS"]],
   ["../lib/model/scenario.ts", "NoiseSpec", ["SCENARIO_DEFAULTS"]],
   ["../lib/model/syntheticSpectrum.ts", "SyntheticRanges", ["SYNTHETIC_DEFAULTS"]],
+  ["../lib/sizes/planSizeCurves.ts", "PlanSizeCurvesOptions", ["PLAN_SIZE_CURVES_DEFAULTS"]],
 ];
 
 describe("documented defaults", () => {

@@ -3,7 +3,7 @@
  * whose header does not give them (headerless two-column files, or names without units).
  */
 import { InvalidArgumentError, type Command } from "commander";
-import { BIAS_UNITS, CURRENT_UNITS, etaFromMetadata, findUnit, type Curve, type ReadCurveOptions } from "../index.ts";
+import { BIAS_UNITS, CURRENT_UNITS, etaForCurve, findUnit, type ReadCurveOptions } from "../index.ts";
 import { numberOption } from "./optionValue.ts";
 
 /** The options as commander hands them over. */
@@ -54,12 +54,5 @@ export function readOptions(opts: CurveCliOptions): ReadCurveOptions {
   return read;
 }
 
-/**
- * The η to use for one curve: `--eta` when given, else the file's `# eta:` metadata line (with a
- * note for the warnings), else undefined (the library then uses 1 and says so).
- */
-export function etaForCurve(cliEta: number | undefined, curve: Curve): { eta: number | undefined; note: string | null } {
-  if (cliEta !== undefined) return { eta: cliEta, note: null };
-  const stated = etaFromMetadata(curve.meta.metadata);
-  return stated ? { eta: stated.eta, note: `η = ${stated.eta} taken from the file's metadata ("${stated.key}")` } : { eta: undefined, note: null };
-}
+/** The η of one curve (the library's rule, shared with the notebooks). */
+export { etaForCurve };

@@ -38,6 +38,7 @@ export { parseCurveBytes } from "./parseCurveBytes.ts";
 export { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, type CellValue, type CurveColumns } from "./formatCsv.ts";
 export { writeTextFile } from "./writeTextFile.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";
+export { etaForCurve, type CurveEta } from "./etaForCurve.ts";
 export { readJsonFile } from "./readJsonFile.ts";
 export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./parseSizeMeta.ts";
 export { parseOpticalTable, OPTICAL_PEAK_RANGE_EV, type OpticalTableRow } from "./parseOpticalTable.ts";

@@ -5,6 +5,8 @@
 // Series (curves → dots → bins → points)
 export { sizeSeries, dotQuantity, SIZE_SERIES_DEFAULTS, SERIES_QUANTITIES } from "./sizeSeries.ts";
 export type { SeriesCurveInput, SeriesDot, UnassignedCurve, SizeSeriesOptions, SizeSeries } from "./sizeSeries.ts";
+export { planSizeCurves, PLAN_SIZE_CURVES_DEFAULTS } from "./planSizeCurves.ts";
+export type { SeriesFile, SeriesTableRow, PlannedSeriesCurve, SeriesPlan, PlanSizeCurvesOptions } from "./planSizeCurves.ts";
 export { combineCurves, flagOutliers, COMBINE_DEFAULTS, COMBINED_QUANTITIES } from "./combineCurves.ts";
 export type {
   CurveValues, DotCurve, CombinedQuantity, CombinedValue, CurveFlag, CombinedBias, CombinedEnergies, DotCombination,

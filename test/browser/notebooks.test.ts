@@ -5,7 +5,10 @@
 // filter's pass band narrows as the window grows: Savitzky & Golay, Anal. Chem. 36, 1627 (1964));
 // a window in mV becomes the nearest odd number of bias steps, so the window shown is within one
 // step of the window set (the project's documented rule); a bad file gives the line that
-// `dotspec analyze` prints for it (the CLI itself is run as the reference).
+// `dotspec analyze` prints for it (the CLI itself is run as the reference). The size-series page
+// is checked against `dotspec sizes` run in Node on the same files (by construction: the page
+// calls the same library functions, so every value must agree); the demo's dot count is the
+// number of dot ids in its META.csv, the size table the page reads.
 //
 // Screenshots go to artifacts/browser/ (git-ignored); so do the measured control-to-redraw
 // times (timings.json), which are reported, not asserted: speed is not a test here.
@@ -18,7 +21,18 @@ import { promisify } from "node:util";
 import type { BrowserContext, Page } from "playwright-core";
 import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts";
 import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
-import { parseCurveText, parseScenario } from "../../lib/index.ts";
+import { expectClose } from "../helpers/expectClose.ts";
+import {
+  failureReason,
+  formatCsv,
+  parseCurveText,
+  parseScenario,
+  parseSizeFormula,
+  parseSizeMeta,
+  SIZE_TABLE_FILES,
+  sizeSeriesTables,
+  type SizeSeriesJson,
+} from "../../lib/index.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
 const HAVE_CHROMIUM = existsSync(CHROMIUM);
@@ -137,10 +151,11 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     return line!.slice("dotspec: ".length);
   }
 
-  it("the start page links both notebooks and loads nothing from elsewhere", async () => {
+  it("the start page links the notebooks and loads nothing from elsewhere", async () => {
     const page = await open("index.html");
     await expect.poll(() => page.locator("main a[href='./curve.html']").count()).toBe(1);
     expect(await page.locator("main a[href='./model.html']").count()).toBe(1);
+    expect(await page.locator("main a[href='./sizes.html']").count()).toBe(1);
     await page.close();
   });
 
@@ -374,6 +389,172 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     for (const stale of ["model-figure", "fit-values", "simulate-downloads"]) expect(await page.locator(`[data-testid=${stale}]`).count(), stale).toBe(0);
     expect(await page.getByRole("button", { name: "Run the fit" }).count()).toBe(0);
     expect(await range(page, "charging energy Ec (eV)").count()).toBe(0);
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  /** `dotspec sizes ARGS` run in DIR: its stdout and its "dotspec: " lines on stderr. */
+  async function cliSizes(dir: string, args: string[]): Promise<{ stdout: string; lines: string[] }> {
+    const run = promisify(execFile);
+    const result = await run(process.execPath, [join(ROOT, "bin", "dotspec.js"), "sizes", ...args], { cwd: dir, maxBuffer: 64 << 20 }).then(
+      (r) => r,
+      (err: { stdout: string; stderr: string }) => err,
+    );
+    return { stdout: result.stdout, lines: result.stderr.split("\n").filter((l) => l.startsWith("dotspec: ")).map((l) => l.slice("dotspec: ".length)) };
+  }
+
+  /** The per-dot table of the size-series page: one record per row, by column heading. */
+  async function dotRows(page: Page): Promise<Record<string, string>[]> {
+    return page.locator("[data-testid=dot-table] table").evaluate((table) => {
+      const heads = [...table.querySelectorAll("thead th")].map((th) => th.textContent!.trim());
+      return [...table.querySelectorAll("tbody tr")].map((tr) => Object.fromEntries([...tr.children].map((td, i) => [heads[i], td.textContent!.trim()])));
+    });
+  }
+
+  it("size series: the demo series gives one row per dot with the values `dotspec sizes` computes, the flagged and unassigned curves, the fits and the figures", async () => {
+    const series = join(ROOT, "sample-curves", "series");
+    const page = await open("sizes.html");
+    await page.locator("[data-testid=demo-series]").waitFor();
+    // From the click to the next frame after the per-dot table is in the page (reported, not asserted).
+    const load = loadavg()[0];
+    const loadMs = await page.evaluate(
+      () =>
+        new Promise<number>((resolve) => {
+          const t0 = performance.now();
+          const seen = new MutationObserver(() => {
+            if (document.querySelector("[data-testid=dot-table] table")) {
+              seen.disconnect();
+              requestAnimationFrame(() => resolve(performance.now() - t0));
+            }
+          });
+          seen.observe(document.body, { childList: true, subtree: true });
+          (document.querySelector("[data-testid=demo-series]") as HTMLButtonElement).click();
+        }),
+    );
+    writeFileSync(join(ARTIFACTS, "timings-sizes.json"), JSON.stringify({ what: "demo series (28 curves of 800 points) from the click to the per-dot table", loadAverage1min: load, ms: loadMs }, null, 2) + "\n");
+    console.log(`size series: demo series analysed and shown in ${loadMs.toFixed(0)} ms (load average ${load.toFixed(1)} on ${cpus().length} cores)`);
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    const reference = cliSizes(series, ["curves", "--meta", "META.csv", "--material", "InP", "--optical", "optical.csv", "--json"]);
+    const record = JSON.parse((await reference).stdout) as SizeSeriesJson;
+    // The demo's dot count: the distinct dot ids of its size table.
+    const dots = new Set(parseSizeMeta(readFileSync(join(series, "META.csv"), "utf8"), "META.csv").map((r) => r.dot));
+    const rows = await dotRows(page);
+    expect(rows).toHaveLength(dots.size);
+    expect(record.dots).toHaveLength(dots.size);
+    // Every dot's gap and regime as the command gives them (the table shows 4 decimals).
+    for (const d of record.dots) {
+      const row = rows.find((r) => r.dot === d.dot)!;
+      expect(row, d.dot).toBeDefined();
+      expectClose(Number(row["gap (eV)"].split(" ± ")[0]), d.energies.gapEV!, { atol: 0.5e-4 + 1e-12, what: `${d.dot} gap shown to 4 decimals` });
+      expect(row.regime.startsWith(d.regime === "shell-filling" ? "filling" : d.regime === "shell-tunneling" ? "tunnelling" : "undetermined"), d.dot).toBe(true);
+    }
+    // Flagged and unassigned curves, as the command lists them (the page names files without their folder).
+    const flagged = await page.locator("[data-testid=flagged] tbody tr td:nth-child(2)").allTextContents();
+    expect(new Set(flagged)).toEqual(new Set(record.dots.flatMap((d) => d.flags.map((f) => f.file.split("/").pop()))));
+    expect(flagged.length).toBeGreaterThan(0);
+    const unassigned = await page.locator("[data-testid=unassigned] tbody tr td:first-child").allTextContents();
+    expect(unassigned).toEqual(record.unassigned.map((u) => u.file.split("/").pop()));
+    // The Ec fit with ε_eff, the value the command fits.
+    const charging = record.fits.find((f) => f.model === "charging-sphere")!;
+    const ecRow = page.locator("[data-testid=fits] tbody tr[data-model=charging-sphere]");
+    expect(await ecRow.count()).toBe(1);
+    const epsShown = Number(/dielectricConstantEff = ([\d.]+)/.exec((await ecRow.textContent())!)![1]);
+    const eps = charging.params.dielectricConstantEff;
+    expectClose(epsShown, eps, { atol: 0.5 * 10 ** (Math.floor(Math.log10(eps)) - 3) + 1e-12, what: "ε_eff shown to 4 significant digits" });
+    expect(await page.locator("[data-testid=fits] tbody tr").count()).toBe(record.fits.length);
+    // The five figures of `dotspec sizes --out`, the optical pairing, the downloads.
+    for (const name of ["gap", "chargingEnergy", "levelSpacing", "valence", "optical"]) {
+      expect(await page.locator(`[data-testid=size-figure-${name}] > svg`).count(), name).toBe(1);
+    }
+    expect(await page.locator("[data-testid=optical] tbody tr").count()).toBe(record.optical!.reduce((s, p) => s + p.peaks.length, 0));
+    const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "JSON record" }).click()]);
+    const saved = JSON.parse(readFileSync((await download.path())!, "utf8")) as SizeSeriesJson;
+    // The same numbers to rounding: Chromium's and Node's math functions may differ in the last bit.
+    const ec = (j: SizeSeriesJson) => j.dots.map((d) => d.energies.chargingEnergyEV);
+    expect(ec(saved).map((v) => v === null)).toEqual(ec(record).map((v) => v === null));
+    expectClose(ec(saved).filter((v) => v !== null) as number[], ec(record).filter((v) => v !== null) as number[], { rtol: 1e-9, what: "Ec per dot, page vs dotspec sizes" });
+    // The dots table of `dotspec sizes --out`: its columns and one row per dot (the library's tables of the command's record).
+    const [csvDownload] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: "CSV: dots" }).click()]);
+    expect(csvDownload.suggestedFilename()).toBe(SIZE_TABLE_FILES.dots);
+    const csvLines = readFileSync((await csvDownload.path())!, "utf8").trimEnd().split("\n");
+    const expectedDots = sizeSeriesTables(record, []).dots;
+    expect(csvLines[0]).toBe(formatCsv([], expectedDots.columns).trimEnd());
+    expect(csvLines).toHaveLength(1 + expectedDots.rows.length);
+    expect(await page.locator("[data-testid=problems]").count()).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, "sizes-demo.png"), fullPage: true });
+    await page.locator("[data-testid=dot-table]").screenshot({ path: join(ARTIFACTS, "sizes-dot-table.png") });
+    await page.locator("[data-testid=drop-zone]").screenshot({ path: join(ARTIFACTS, "sizes-picker.png") });
+    expect(await errorCells(page)).toBe(0);
+
+    // A formula of the user's is fitted too; a hostile one is refused with the library's message.
+    const formulaBox = page.locator("textarea");
+    await formulaBox.fill("gapEV: Eg + a / R^2 ; a=1");
+    await page.getByRole("button", { name: "Fit the formulas" }).click();
+    const formulaRows = page.locator("[data-testid=fits] tbody tr[data-model^='formula: ']");
+    await expect.poll(() => formulaRows.count()).toBe(1);
+    expect(await formulaRows.getAttribute("data-quantity")).toBe("gapEV");
+    const hostile = 'import("x")';
+    const refusal = (() => {
+      try {
+        parseSizeFormula(hostile);
+        return "accepted";
+      } catch (error) {
+        return failureReason("", error);
+      }
+    })();
+    await formulaBox.fill(hostile);
+    await page.getByRole("button", { name: "Fit the formulas" }).click();
+    await expect.poll(() => page.locator("[data-testid=formula-problem]").textContent()).toBe(refusal);
+    expect(refusal).toContain('"import"');
+    await expect.poll(() => formulaRows.count()).toBe(0);
+    expect(await ecRow.count()).toBe(1); // the rest of the series stands
+    await page.screenshot({ path: join(ARTIFACTS, "sizes-formula-refused.png"), fullPage: true });
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("size series: a bad file among good ones gives the line `dotspec sizes` prints for it, and the rest is still analysed", async () => {
+    const dir = join(work, "series");
+    mkdirSync(dir, { recursive: true });
+    const good = ["qd-7-s01-1.csv", "qd-7-s01-2.csv", "qd-7-s02-1.csv", "qd-7-s02-2.csv", "qd-7-s02-3.csv"];
+    for (const f of good) writeFileSync(join(dir, f), readFileSync(join(ROOT, "sample-curves", "series", "curves", f)));
+    writeFileSync(join(dir, "broken.csv"), "# a lab note, not a sweep\nsample A looked fine\nno numbers here\n");
+    const reference = cliSizes(dir, [".", "--json"]);
+    const page = await open("sizes.html");
+    await page.setInputFiles("[data-testid=curve-files]", [...good, "broken.csv"].map((f) => join(dir, f)));
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    const { stdout, lines } = await reference;
+    expect(lines).toHaveLength(1);
+    expect(lines[0].startsWith("broken.csv: ")).toBe(true);
+    await expect.poll(() => page.locator("[data-testid=problems] [data-testid=problem]").allTextContents()).toEqual(lines);
+    // Without a size table, each file's own "# dot:" and "# radius_nm:" lines: the dots the command finds.
+    const record = JSON.parse(stdout) as SizeSeriesJson;
+    const rows = await dotRows(page);
+    expect(rows.map((r) => r.dot)).toEqual(record.dots.map((d) => d.dot));
+    expect(rows.map((r) => r.curves)).toEqual(record.dots.map((d) => String(d.curves)));
+    expect(await errorCells(page)).toBe(0);
+    await page.screenshot({ path: join(ARTIFACTS, "sizes-bad-file.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("size series: files dropped on the zone, a META.csv among them taken as the size table", async () => {
+    const series = join(ROOT, "sample-curves", "series");
+    const names = ["qd-7-s03-1.csv", "qd-7-s03-2.csv", "qd-7-s05-1.csv", "qd-7-s05-2.csv"];
+    // A size table of these four curves: the demo table's rows for them.
+    const metaText = readFileSync(join(series, "META.csv"), "utf8").split("\n").filter((l) => !/^qd-7-/.test(l) || names.some((n) => l.startsWith(n + ","))).join("\n");
+    const dots = new Set(parseSizeMeta(metaText, "META.csv").map((r) => r.dot));
+    const files = [{ name: "META.csv", text: metaText }, ...names.map((name) => ({ name, text: readFileSync(join(series, "curves", name), "utf8") }))];
+    const page = await open("sizes.html");
+    const transfer = await page.evaluateHandle((list) => {
+      const dt = new DataTransfer();
+      for (const f of list) dt.items.add(new File([f.text], f.name, { type: "text/csv" }));
+      return dt;
+    }, files);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    expect(await page.locator("[data-testid=picked]").textContent()).toBe("4 curve files, size table META.csv");
+    expect((await dotRows(page)).map((r) => r.dot)).toEqual([...dots]);
+    expect(await page.locator("[data-testid=unassigned]").count()).toBe(0); // every dropped curve is in the table
     expect(await errorCells(page)).toBe(0);
     await page.close();
   });

@@ -19,12 +19,13 @@ import {
   loadSizeFigures,
   parseMaterialJson,
   parseSizeFormula,
+  planSizeCurves,
+  PLAN_SIZE_CURVES_DEFAULTS,
   readCurveFile,
   readOpticalFile,
   readSizeMetaFile,
   readTextFile,
   resolveMaterial,
-  sizeFromMetadata,
   sizeSeries,
   sizeSeriesTables,
   sizeSeriesToJson,
@@ -34,6 +35,8 @@ import {
   type Material,
   type OpticalRow,
   type SeriesCurveInput,
+  type SeriesFile,
+  type SeriesTableRow,
   type SizeFigureName,
 } from "../../index.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
@@ -164,16 +167,6 @@ export const sizesCommand: CliCommand = {
   },
 };
 
-/** A curve to analyse, with what is known of its dot before the analysis. */
-interface PlannedCurve {
-  file: string;
-  dot: string | null;
-  radiusNM: number | null;
-  /** η from the size table, or undefined (then --eta, the file's metadata, or 1). */
-  eta: number | undefined;
-  unassignedReason?: string;
-}
-
 /** The material of --material / --material-file, or null; a bad one is a usage error. */
 function materialOf(opts: SizesCliOptions): Material | null {
   if (opts.material !== undefined && opts.materialFile !== undefined) {
@@ -226,9 +219,9 @@ function outputNames(files: readonly string[]): string[] {
  *
  * Notes
  * -----
- * 1. The plan: with --meta, the table's rows (each file checked to exist inside DIR) plus the
- *    other curve files of DIR as unassigned; without, every curve file of the arguments with
- *    the dot and size of its metadata lines (read with the importer).
+ * 1. The plan (planSizeCurves): with --meta, the table's rows (each file checked to exist
+ *    inside DIR) plus the other curve files of DIR as unassigned; without, every curve file of
+ *    the arguments with the dot and size of its metadata lines (read with the importer).
  * 2. The curves are analysed by the same code as `analyze` (analyzeFile, on worker threads with
  *    --jobs for groups of at least {@link SIZES_CLI_DEFAULTS}.minCurvesPerPool curves), in
  *    groups of equal η so that a size table's per-curve η is used; with --out each curve's JSON
@@ -266,20 +259,17 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
     }
   }
   const tables = new Set([opts.meta, opts.optical].filter((p): p is string => p !== undefined).map((p) => resolve(p)));
-  const planned: PlannedCurve[] = [];
+  // The curve files, then the plan (dot, radius, η of each; the library's rule, shared with the
+  // notebook): from the size table, or from each file's own metadata lines.
+  const files: SeriesFile[] = [];
+  let meta: SeriesTableRow[] | null = null;
   if (opts.meta !== undefined) {
     const dir = dirs[0];
-    let rows;
     try {
-      rows = readSizeMetaFile(opts.meta, dir);
+      meta = readSizeMetaFile(opts.meta, dir).map((row) => ({ ...row, file: row.path }));
     } catch (err) {
       ctx.error(failureReason("", err));
       return EXIT.failed;
-    }
-    const listed = new Set<string>();
-    for (const row of rows) {
-      planned.push({ file: row.path, dot: row.dot, radiusNM: row.radiusNM, eta: row.eta ?? opts.eta });
-      listed.add(resolve(row.path));
     }
     let all: string[] = [];
     try {
@@ -288,9 +278,12 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
       ctx.error(`${dir}: ${failureReason(dir, err)}`);
       return EXIT.failed;
     }
-    for (const file of all) {
-      if (listed.has(resolve(file)) || tables.has(resolve(file))) continue;
-      planned.push({ file, dot: null, radiusNM: null, eta: opts.eta, unassignedReason: `not listed in ${opts.meta}` });
+    const seen = new Set<string>();
+    for (const file of [...meta.map((row) => row.file), ...all]) {
+      const key = resolve(file);
+      if (seen.has(key) || tables.has(key)) continue;
+      seen.add(key);
+      files.push({ file });
     }
   } else {
     const seen = new Set<string>();
@@ -311,28 +304,23 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
         const key = resolve(file);
         if (seen.has(key) || tables.has(key)) continue;
         seen.add(key);
-        // The dot and size from the file's metadata lines; a file that cannot be read fails in
-        // the analysis below, with the importer's message.
-        let size: ReturnType<typeof sizeFromMetadata> = { dot: null, radiusNM: null, key: null, problem: null };
+        // A file that cannot be read fails in the analysis below, with the importer's message.
+        let metadata: Record<string, string> | null = null;
         try {
-          size = sizeFromMetadata(readCurveFile(file, readOptions(opts)).curve.meta.metadata);
+          metadata = readCurveFile(file, readOptions(opts)).curve.meta.metadata;
         } catch {
           /* reported by the analysis */
         }
-        if (size.problem) {
-          ctx.error(`${file}: ${size.problem}; fix the line, or remove it to list the curve as unassigned`);
-          failed++;
-        }
-        planned.push({
-          file,
-          dot: size.dot,
-          radiusNM: size.radiusNM,
-          eta: opts.eta,
-          ...(size.radiusNM === null ? { unassignedReason: size.problem ?? "no radius_nm or diameter_nm metadata line" } : {}),
-        });
+        files.push({ file, metadata });
       }
     }
   }
+  const plan = planSizeCurves(files, { meta, metaSource: opts.meta ?? PLAN_SIZE_CURVES_DEFAULTS.metaSource, eta: opts.eta, fileKey: (f) => resolve(f) });
+  for (const problem of plan.problems) {
+    ctx.error(problem);
+    failed++;
+  }
+  const planned = plan.curves;
 
   const outDir = opts.out;
   const curvesDir = outDir !== undefined ? join(outDir, SIZES_OUTPUT.curveRecords) : null;
