@@ -10,6 +10,7 @@ import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
+import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
@@ -251,7 +252,15 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   });
 
   const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
-  const assignment = assignSpectrum(peaks, { eta, regime: options.regime });
+  const nb = signal.biasV.length;
+  const zeroRegion = prepared.offsetRegionV;
+  const none = noLevels({
+    peaksV: peaks.map((p) => p.biasV),
+    gapEdgesV: edges,
+    zeroInRange: nb > 0 && signal.biasV[0] <= 0 && signal.biasV[nb - 1] >= 0,
+    zeroCurrentSamples: zeroRegion ? Math.round((zeroRegion[1] - zeroRegion[0]) / prepared.stepV) + 1 : 0,
+  });
+  const assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {
     eta: assignment.energies.eta,
@@ -275,7 +284,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     peaks: withMultiplets(peaks, assignment.multiplets).map((p, k) => ({ ...p, role: roles[k] })),
     peakRecord: found.record,
     bandWidthsV: areas.widthsV,
-    gapEdgesV: edges,
+    gapEdgesV: none === null ? edges : null,
     assignment,
     warnings: [...signal.record.warnings, ...found.record.warnings, ...assignment.warnings],
   };
@@ -356,4 +365,17 @@ function nearRegion(prepared: PreparedCurve, reachV: number): [number, number] {
   while (lo < n - 1 && biasV[lo] < region[0] - reachV) lo++;
   while (hi > lo + 1 && biasV[hi - 1] > region[1] + reachV) hi--;
   return [lo, hi];
+}
+
+/** The assignment of a curve without dot levels: that of no peaks (no multiplets, every quantity null), with the verdict and its reason first among the warnings. */
+function noLevelsAssignment(none: NoLevels, eta: number | undefined, regime: Regime | undefined): Assignment {
+  const empty = assignSpectrum([], { eta, regime });
+  const etaNotes = empty.warnings.filter((w) => w.startsWith("eta"));
+  return {
+    ...empty,
+    regime: "undetermined",
+    evidence: { ...empty.evidence, reasons: [`no levels found: ${none.reason}`] },
+    noLevels: none,
+    warnings: [`no levels found: ${none.reason}`, ...etaNotes],
+  };
 }
