@@ -38,6 +38,13 @@ export const PREPARE_CURVE_DEFAULTS = Object.freeze({
   signCheckSigma: 4,
   /** … and flips the current when at least this fraction of them has the sign opposite to the bias. */
   oppositeSignFraction: 0.8,
+  /**
+   * Largest |current| (A) and |conductance| (S) accepted: far beyond any instrument, and small
+   * enough that squares and sums of squares stay finite in double precision (1e60² = 1e120).
+   */
+  maxMagnitude: 1e60,
+  /** Largest |bias| accepted, V: far beyond any tunnelling junction (the same reason). */
+  maxBiasV: 1e6,
 });
 
 const OPTION_KEYS = ["offset"] as const;
@@ -135,12 +142,27 @@ function checkCurve(curve: Curve): void {
   const series: [string, ArrayLike<number>][] = [["currentA", curve.currentA]];
   curve.sweeps.forEach((s, k) => series.push([`sweeps[${k}]`, s]));
   if (curve.didvS != null) series.push(["didvS", curve.didvS]);
+  const D = PREPARE_CURVE_DEFAULTS;
   for (const [name, y] of series) {
+    const unit = name === "didvS" ? "S" : "A";
     for (let i = 0; i < y.length; i++) {
       if (!Number.isFinite(y[i])) {
         fail("not-finite", `${name} must contain finite numbers only; got ${y[i]} at index ${i} (bias ${curve.biasV[i]} V). Remove the point first.`);
       }
+      if (Math.abs(y[i]) > D.maxMagnitude) {
+        fail(
+          "out-of-range",
+          `${name} must lie within ±${D.maxMagnitude} ${unit} (beyond any instrument); got ${y[i]} ${unit} at index ${i} (bias ${curve.biasV[i]} V). Check the unit of the current or conductance column.`,
+        );
+      }
     }
+  }
+  const nb = curve.biasV.length;
+  if (nb > 0 && Math.max(Math.abs(curve.biasV[0]), Math.abs(curve.biasV[nb - 1])) > D.maxBiasV) {
+    fail(
+      "out-of-range",
+      `biasV must lie within ±${D.maxBiasV} V (beyond any tunnelling junction); got ${Math.abs(curve.biasV[0]) > D.maxBiasV ? curve.biasV[0] : curve.biasV[nb - 1]} V. Check the unit of the bias column.`,
+    );
   }
 }
 
@@ -207,7 +229,8 @@ function estimateOffset(biasV: Float64Array, currentA: Float64Array, sigmaA: num
  * ------
  * DotspecError
  *     `signal/not-ascending`, `signal/not-finite`, `signal/length-mismatch`, `signal/no-sweeps`,
- *     `signal/invalid-curve`; `options/…` for an unknown key or an offset other than "gap"/"none".
+ *     `signal/invalid-curve`, `signal/out-of-range` (|I| or |G| above 1e60, |V| above 1e6:
+ *     {@link PREPARE_CURVE_DEFAULTS}); `options/…` for an unknown key or an offset other than "gap"/"none".
  *
  * Notes
  * -----
