@@ -143,8 +143,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *
  * Notes
  * -----
- * 1. Prepare once ({@link prepareCurve}): uniform grid, current noise, offset. Every window below
- *    is applied to this one preparation ({@link conductanceFromPrepared}).
+ * 1. Prepare once ({@link prepareCurve}): uniform grid, a saturated end cut off, current noise
+ *    (never below the rounding floor of the written numbers), offset. Every window below is
+ *    applied to this one preparation ({@link conductanceFromPrepared}).
  * 2. Width. Unless a window or a peak width is given, the expected peak width is measured: a
  *    pass with ANALYZE_DEFAULTS.firstPassPeakWidthMV (the mean curve only) finds the first CB and
  *    first VB peak within ANALYZE_DEFAULTS.firstPassReachV of the zero-current region; the width
@@ -163,7 +164,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    width ({@link peakAreas}); the width is twice the half width at half maximum of the band's
  *    gap-edge peak on its gap side, the one flank no neighbour overlaps.
  * 6. The zero-conductance region ({@link gapEdges}, once, on the final conductance) and the
- *    assignment ({@link assignSpectrum}).
+ *    assignment ({@link assignSpectrum}) — unless the curve shows no dot levels ({@link noLevels}:
+ *    no zero region at 0 V, no peak, or a lone peak); then the assignment is that of no peaks
+ *    with `noLevels` set, its reason first among the warnings, and `gapEdgesV` is null.
  *
  * References
  * ----------
