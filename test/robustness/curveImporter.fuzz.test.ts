@@ -20,6 +20,7 @@ function outcome(parse: () => ParsedCurve): string {
     if (!isDotspecError(e)) throw e; // anything else is a failure of the property
     expect(e.message).not.toMatch(/[\r\n]/); // one line
     expect(e.message.startsWith(`${SOURCE}: `)).toBe(true); // names the source
+    if (e.code === "io/ragged-row") expect(e.message).toMatch(/line \d+/); // and the line
     return e.code;
   }
   checkResult(r);
