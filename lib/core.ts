@@ -69,6 +69,7 @@ export {
 } from "./assign/assignSpectrum.ts";
 export { peakRoles, type PeakRole } from "./assign/peakMultiplets.ts";
 export { gapEdges, GAP_EDGES_DEFAULTS, type GapEdgesOptions } from "./assign/gapEdges.ts";
+export { noLevels, NO_LEVELS_DEFAULTS, type NoLevels, type NoLevelsCode, type NoLevelsInput } from "./assign/noLevels.ts";
 export { fitLadderSpacing, type LadderSpacing } from "./assign/ladderFit.ts";
 
 // The whole job on one curve.

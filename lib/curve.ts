@@ -14,6 +14,16 @@ export interface CurveMeta {
    * written. Empty when the file had none.
    */
   metadata: Record<string, string>;
+  /**
+   * Resolution of the written current numbers, A: the root mean square over the cells of the
+   * value of one unit in the last written digit (1e-16 A for `-1.52849e-11` in A), over every
+   * current column. Set by the importer; absent (or null) for curves made in memory or when the
+   * cells were not plain decimal numbers. The signal stage keeps its current-noise estimate at
+   * or above resolution/√12, the standard deviation of a rounding error.
+   */
+  currentResolutionA?: number | null;
+  /** The same for the measured conductance columns, S; absent or null without one. */
+  conductanceResolutionS?: number | null;
 }
 
 /** One I–V curve: the bias axis, the mean current, the individual sweeps and (optionally) a measured dI/dV. */

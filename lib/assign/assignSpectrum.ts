@@ -16,6 +16,7 @@ import { splitSatellites } from "./satellites.ts";
 import { secondJunctionResonances } from "./secondJunction.ts";
 import { fillingShells, tunnelingShells } from "./shells.ts";
 import { valenceGroups } from "./valenceGroups.ts";
+import type { NoLevels } from "./noLevels.ts";
 
 export { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 export type { Band } from "./bandPeaks.ts";
@@ -47,6 +48,12 @@ export interface Assignment {
   quantities: SpectrumQuantities;
   uncertainties: SpectrumUncertainties;
   energies: SpectrumEnergies;
+  /**
+   * Set when the curve shows no dot levels ({@link noLevels}): the code and reason; then
+   * `multiplets` is empty and every quantity null. Null otherwise (always null from
+   * assignSpectrum itself: the decision needs the conductance, so `analyzeCurve` makes it).
+   */
+  noLevels: NoLevels | null;
   warnings: string[];
 }
 
@@ -176,5 +183,5 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (regime === "shell-tunneling") warnings.push("shell tunnelling: Ec is not measurable from the CB ladder (reported as null); the gap still contains one Ec");
   if (regime === "undetermined") warnings.push("regime undetermined: CB peaks are not grouped into shells; see the evidence");
   const energies = spectrumEnergies(quantities, uncertainties, eta, etaGiven);
-  return { regime, evidence, multiplets, quantities, uncertainties, energies, warnings };
+  return { regime, evidence, multiplets, quantities, uncertainties, energies, noLevels: null, warnings };
 }

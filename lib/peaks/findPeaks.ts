@@ -275,8 +275,10 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   }
   const candidates: Candidate[] = [];
   const expectedHalfWidth = options.expectedFwhmV !== undefined ? checkPositive("expectedFwhmV", options.expectedFwhmV) / (2 * stepV) : null;
+  // At most the curve's length: an expected width far beyond the bias range (a bias axis in the
+  // wrong unit) must not make the loops below run over billions of samples.
   const halfWidths = prominent.map((c) =>
-    Math.max(1, Math.round(expectedHalfWidth ?? halfWidthSamples(didvS, c.index, c.floor + c.prominence / 2, c.leftBase, c.rightBase))),
+    Math.min(n, Math.max(1, Math.round(expectedHalfWidth ?? halfWidthSamples(didvS, c.index, c.floor + c.prominence / 2, c.leftBase, c.rightBase)))),
   );
   const indices = prominent.map((q) => q.index);
   prominent.forEach((c, k) => {

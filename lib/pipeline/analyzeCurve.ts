@@ -10,6 +10,7 @@ import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
+import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
@@ -142,8 +143,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *
  * Notes
  * -----
- * 1. Prepare once ({@link prepareCurve}): uniform grid, current noise, offset. Every window below
- *    is applied to this one preparation ({@link conductanceFromPrepared}).
+ * 1. Prepare once ({@link prepareCurve}): uniform grid, a saturated end cut off, current noise
+ *    (never below the rounding floor of the written numbers), offset. Every window below is
+ *    applied to this one preparation ({@link conductanceFromPrepared}).
  * 2. Width. Unless a window or a peak width is given, the expected peak width is measured: a
  *    pass with ANALYZE_DEFAULTS.firstPassPeakWidthMV (the mean curve only) finds the first CB and
  *    first VB peak within ANALYZE_DEFAULTS.firstPassReachV of the zero-current region; the width
@@ -162,7 +164,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    width ({@link peakAreas}); the width is twice the half width at half maximum of the band's
  *    gap-edge peak on its gap side, the one flank no neighbour overlaps.
  * 6. The zero-conductance region ({@link gapEdges}, once, on the final conductance) and the
- *    assignment ({@link assignSpectrum}).
+ *    assignment ({@link assignSpectrum}) — unless the curve shows no dot levels ({@link noLevels}:
+ *    no zero region at 0 V, no peak, or a lone peak); then the assignment is that of no peaks
+ *    with `noLevels` set, its reason first among the warnings, and `gapEdgesV` is null.
  *
  * References
  * ----------
@@ -251,7 +255,15 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   });
 
   const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
-  const assignment = assignSpectrum(peaks, { eta, regime: options.regime });
+  const nb = signal.biasV.length;
+  const zeroRegion = prepared.offsetRegionV;
+  const none = noLevels({
+    peaksV: peaks.map((p) => p.biasV),
+    gapEdgesV: edges,
+    zeroInRange: nb > 0 && signal.biasV[0] <= 0 && signal.biasV[nb - 1] >= 0,
+    zeroCurrentSamples: zeroRegion ? Math.round((zeroRegion[1] - zeroRegion[0]) / prepared.stepV) + 1 : 0,
+  });
+  const assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {
     eta: assignment.energies.eta,
@@ -275,7 +287,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     peaks: withMultiplets(peaks, assignment.multiplets).map((p, k) => ({ ...p, role: roles[k] })),
     peakRecord: found.record,
     bandWidthsV: areas.widthsV,
-    gapEdgesV: edges,
+    gapEdgesV: none === null ? edges : null,
     assignment,
     warnings: [...signal.record.warnings, ...found.record.warnings, ...assignment.warnings],
   };
@@ -356,4 +368,17 @@ function nearRegion(prepared: PreparedCurve, reachV: number): [number, number] {
   while (lo < n - 1 && biasV[lo] < region[0] - reachV) lo++;
   while (hi > lo + 1 && biasV[hi - 1] > region[1] + reachV) hi--;
   return [lo, hi];
+}
+
+/** The assignment of a curve without dot levels: that of no peaks (no multiplets, every quantity null), with the verdict and its reason first among the warnings. */
+function noLevelsAssignment(none: NoLevels, eta: number | undefined, regime: Regime | undefined): Assignment {
+  const empty = assignSpectrum([], { eta, regime });
+  const etaNotes = empty.warnings.filter((w) => w.startsWith("eta"));
+  return {
+    ...empty,
+    regime: "undetermined",
+    evidence: { ...empty.evidence, reasons: [`no levels found: ${none.reason}`] },
+    noLevels: none,
+    warnings: [`no levels found: ${none.reason}`, ...etaNotes],
+  };
 }

@@ -17,8 +17,19 @@ export interface AnalysisJson {
   regime: "shell-filling" | "shell-tunneling" | "undetermined";
   /** First CB peak − first VB peak, V; null when a band has no peak. */
   gapV: number | null;
-  /** Zero-conductance region [negative edge, positive edge], V. */
+  /** Zero-conductance region [negative edge, positive edge], V; null when none or when no levels were found. */
   gapEdgesV: [number, number] | null;
+  /**
+   * Set when the curve shows no dot levels (ohmic, noise, open circuit, a smooth exponential):
+   * a stable code ("no-gap", "no-peaks", "lone-peak") and the reason; then there are no
+   * multiplets and every quantity is null. Null otherwise.
+   */
+  noLevels: { code: string; reason: string } | null;
+  /**
+   * Flat runs of the current at its maximum or minimum at an end of the bias range (the current
+   * amplifier's range), left out of the analysis: which end, bias range (V) and level (A).
+   */
+  saturation: { end: "negative" | "positive"; biasV: [number, number]; levelA: number }[];
   /** Charging energy in bias (mean spacing inside the CB multiplets), V; null outside shell filling. */
   chargingEnergyV: number | null;
   singleParticleGapV: number | null;
@@ -58,6 +69,10 @@ export interface AnalysisJson {
   settings: CurveAnalysis["settings"] & {
     biasStepV: number;
     noiseCurrentA: number;
+    /** Which bound set noiseCurrentA: "third-differences" (the data) or "resolution" (the rounding floor q/√12 of the written numbers). */
+    noiseCurrentBound: "third-differences" | "resolution";
+    /** The rounding floor q/√12 of the current, A; null when the resolution is not known. */
+    noiseCurrentFloorA: number | null;
     noiseConductanceS: number;
     offsetA: number;
     resampled: boolean;
@@ -69,6 +84,10 @@ export interface AnalysisJson {
     columns: { name: string; role: string; unit: string | null }[];
     sweeps: number;
     points: number;
+    /** Resolution of the written current numbers (RMS over the cells of one unit in the last digit), A; null when unknown. */
+    currentResolutionA: number | null;
+    /** The same for a measured conductance, S; null without one. */
+    conductanceResolutionS: number | null;
   } | null;
   warnings: string[];
 }
@@ -88,6 +107,8 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
     regime: a.regime,
     gapV: a.quantities.gapV,
     gapEdgesV: analysis.gapEdgesV,
+    noLevels: a.noLevels ? { code: a.noLevels.code, reason: a.noLevels.reason } : null,
+    saturation: rec.saturation.map((s) => ({ end: s.end, biasV: [s.biasV[0], s.biasV[1]], levelA: s.levelA })),
     chargingEnergyV: a.quantities.chargingEnergyV,
     singleParticleGapV: a.quantities.singleParticleGapV,
     levelSpacingSPV: a.quantities.levelSpacingSPV,
@@ -121,6 +142,8 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
       ...analysis.settings,
       biasStepV: analysis.conductance.stepV,
       noiseCurrentA: rec.noiseCurrentA,
+      noiseCurrentBound: rec.noiseCurrentBound,
+      noiseCurrentFloorA: rec.noiseCurrentFloorA,
       noiseConductanceS: rec.noiseConductanceS,
       offsetA: rec.offsetA,
       resampled: rec.resampled,
@@ -132,6 +155,8 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
           columns: importRecord.columns.map((c) => ({ name: c.name, role: c.role, unit: c.unit })),
           sweeps: importRecord.sweeps,
           points: importRecord.points,
+          currentResolutionA: importRecord.currentResolutionA,
+          conductanceResolutionS: importRecord.conductanceResolutionS,
         }
       : null,
     warnings: [...(importRecord?.warnings ?? []), ...analysis.warnings],

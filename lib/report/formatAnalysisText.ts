@@ -111,7 +111,12 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
   const s = json.settings;
   const sweeps = json.import ? `${json.import.points} points, ${json.import.sweeps} sweep${json.import.sweeps === 1 ? "" : "s"}; ` : "";
   const how = s.useMeasured ? "measured dI/dV" : `dI/dV by Savitzky–Golay, window ${s.windowMV.toFixed(1)} mV (${s.automaticWindow ? "automatic" : "given"}), order ${s.order}`;
-  out.push(faint(`${I}${sweeps}${how}; step ${(s.biasStepV * 1000).toPrecision(3)} mV`));
+  const floor = s.noiseCurrentBound === "resolution" ? "; current noise at the rounding floor of the written numbers" : "";
+  out.push(faint(`${I}${sweeps}${how}; step ${(s.biasStepV * 1000).toPrecision(3)} mV${floor}`));
+  if (json.noLevels) {
+    out.push("");
+    out.push(`${I}${bold("No levels found")}: ${json.noLevels.reason}`);
+  }
 
   // Peaks.
   out.push("");

@@ -7,7 +7,8 @@ import { checkInteger, checkKnownKeys, checkPositive } from "../util/check.ts";
 import { DotspecError } from "../util/errors.ts";
 import { averageSweepsUnchecked } from "./averageSweeps.ts";
 import { whiteNoiseSigmaUnchecked } from "./noise.ts";
-import { prepareCurve, PREPARE_CURVE_DEFAULTS, type PreparedCurve } from "./prepareCurve.ts";
+import { prepareCurve, PREPARE_CURVE_DEFAULTS, type NoiseBound, type PreparedCurve } from "./prepareCurve.ts";
+import type { SaturatedRange } from "./saturation.ts";
 import { noiseGainUnchecked, savitzkyGolayUnchecked } from "./savitzkyGolay.ts";
 import { savitzkyGolayWindow, SAVITZKY_GOLAY_WINDOW_DEFAULTS } from "./savitzkyGolayWindow.ts";
 
@@ -89,8 +90,17 @@ export interface ConductanceRecord {
   offsetA: number;
   /** Bias range [from, to] in volts of the zero-current region the offset was taken from; null if none. */
   offsetRegionV: [number, number] | null;
-  /** White-noise σ of the (resampled) current in amperes, from its third differences. */
+  /**
+   * White-noise σ of the (resampled) current in amperes, from its third differences, but never
+   * below the rounding floor of the written numbers ({@link prepareCurve}, note 2).
+   */
   noiseCurrentA: number;
+  /** Which bound set `noiseCurrentA`: "third-differences" or "resolution" (the rounding floor). */
+  noiseCurrentBound: NoiseBound;
+  /** The rounding floor resolution/√12 of the current, A; null when the curve carries no resolution. */
+  noiseCurrentFloorA: number | null;
+  /** Which bound set the measured conductance's noise (used when usedMeasured); null without one. */
+  noiseMeasuredBound: NoiseBound | null;
   /**
    * σ of the returned dI/dV in siemens: σ_I × noise gain / stepV for the numerical derivative
    * (exact for white noise), or the white-noise σ of the measured conductance when usedMeasured.
@@ -110,6 +120,8 @@ export interface ConductanceRecord {
   usedMeasured: boolean;
   /** Whether the curve was interpolated onto a uniform bias grid. */
   resampled: boolean;
+  /** Flat runs of the current at an extreme at the ends of the bias range, cut off before the analysis ({@link prepareCurve}); empty when none. */
+  saturation: SaturatedRange[];
   /** Whether the current had the sign opposite to the bias and was flipped ({@link prepareCurve}). */
   currentSignFlipped: boolean;
   /** Whether the measured conductance was mostly negative and was flipped. */
@@ -346,11 +358,15 @@ export function conductanceFromPrepared(prepared: PreparedCurve, options: Differ
       offsetA: prepared.offsetA,
       offsetRegionV: prepared.offsetRegionV,
       noiseCurrentA,
+      noiseCurrentBound: prepared.noiseCurrentBound,
+      noiseCurrentFloorA: prepared.noiseCurrentFloorA,
+      noiseMeasuredBound: prepared.noiseMeasuredBound,
       noiseConductanceS,
       noiseConductanceSweepsS,
       noiseConductanceRawS,
       usedMeasured,
       resampled: prepared.resampled,
+      saturation: prepared.saturation,
       currentSignFlipped: prepared.currentSignFlipped,
       conductanceSignFlipped: prepared.conductanceSignFlipped,
       warnings,

@@ -20,7 +20,8 @@ export {
 } from "./noise.ts";
 export { isUniformStep, resampleUniform, RESAMPLE_DEFAULTS, type ResampledSeries } from "./resample.ts";
 export { averageSweeps, type SweepAverage } from "./averageSweeps.ts";
-export { prepareCurve, PREPARE_CURVE_DEFAULTS, type PrepareCurveOptions, type PreparedCurve } from "./prepareCurve.ts";
+export { findSaturation, SATURATION_DEFAULTS, type FindSaturationOptions, type SaturatedRange } from "./saturation.ts";
+export { prepareCurve, PREPARE_CURVE_DEFAULTS, ROUNDING_SIGMA_PER_QUANTUM, type NoiseBound, type PrepareCurveOptions, type PreparedCurve } from "./prepareCurve.ts";
 export { savitzkyGolayWindow, SAVITZKY_GOLAY_WINDOW_DEFAULTS, type WindowChoice, type WindowInput } from "./savitzkyGolayWindow.ts";
 export {
   conductance,

@@ -10,6 +10,7 @@ import { DotspecError } from "../util/errors.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
 import { whiteNoiseSigmaUnchecked } from "./noise.ts";
 import { checkAscending, resampleUniformUnchecked } from "./resample.ts";
+import { findSaturation, type SaturatedRange } from "./saturation.ts";
 
 /** Options of {@link prepareCurve}. */
 export interface PrepareCurveOptions {
@@ -37,9 +38,33 @@ export const PREPARE_CURVE_DEFAULTS = Object.freeze({
   signCheckSigma: 4,
   /** … and flips the current when at least this fraction of them has the sign opposite to the bias. */
   oppositeSignFraction: 0.8,
+  /**
+   * Largest |current| (A) and |conductance| (S) accepted: far beyond any instrument, and small
+   * enough that squares and sums of squares stay finite in double precision (1e60² = 1e120).
+   */
+  maxMagnitude: 1e60,
+  /** Largest |bias| accepted, V: far beyond any tunnelling junction (the same reason). */
+  maxBiasV: 1e6,
 });
 
 const OPTION_KEYS = ["offset"] as const;
+
+/** Which bound set a noise estimate: the data's third differences, or the rounding floor of the written numbers. */
+export type NoiseBound = "third-differences" | "resolution";
+
+/**
+ * σ of a rounding error of width q: q/√12 (closed form: the standard deviation of a uniform
+ * distribution of width q; B. Widrow and I. Kollár, Quantization Noise, Cambridge University Press
+ * (2008), from memory).
+ */
+export const ROUNDING_SIGMA_PER_QUANTUM = 1 / Math.sqrt(12);
+
+/** The larger of an estimated σ and the rounding floor of a resolution (null: no floor). */
+function floored(estimate: number, resolution: number | null | undefined): { sigma: number; floor: number | null; bound: NoiseBound } {
+  const floor = resolution != null && Number.isFinite(resolution) && resolution > 0 ? resolution * ROUNDING_SIGMA_PER_QUANTUM : null;
+  if (floor !== null && floor > estimate) return { sigma: floor, floor, bound: "resolution" };
+  return { sigma: estimate, floor, bound: "third-differences" };
+}
 
 /** A curve ready for differentiation: uniform grid, offset removed, noise measured. */
 export interface PreparedCurve {
@@ -53,16 +78,33 @@ export interface PreparedCurve {
   measuredS: ArrayLike<number> | null;
   /** Bias step in volts. */
   stepV: number;
-  /** White-noise σ of the current per sample, A (third differences, before the offset). */
+  /**
+   * White-noise σ of the current per sample, A: the larger of the estimate from third differences
+   * (before the offset) and the rounding floor resolution/√12 of the written numbers.
+   */
   noiseCurrentA: number;
-  /** White-noise σ of the measured conductance per sample, S; null without one. */
+  /** Which of the two set `noiseCurrentA`: "third-differences" or "resolution" (the floor). */
+  noiseCurrentBound: NoiseBound;
+  /** The σ from third differences alone, A. */
+  noiseCurrentEstimateA: number;
+  /** The rounding floor resolution/√12, A; null when the curve carries no resolution. */
+  noiseCurrentFloorA: number | null;
+  /** White-noise σ of the measured conductance per sample, S (floored the same way); null without one. */
   noiseMeasuredS: number | null;
+  /** Which bound set `noiseMeasuredS`; null without a measured conductance. */
+  noiseMeasuredBound: NoiseBound | null;
   /** Current offset subtracted, A (0 with offset "none" or 0 V outside the range). */
   offsetA: number;
   /** Bias range [from, to] in volts of the zero-current region the offset was taken from; null if none. */
   offsetRegionV: [number, number] | null;
   /** Whether the curve was interpolated onto a uniform bias grid. */
   resampled: boolean;
+  /**
+   * Flat runs of the current at its extreme at an end of the bias range (the amplifier's range,
+   * {@link findSaturation}), on the grid before the cut; they and the bias beyond them were left
+   * out of the arrays above. Empty when none.
+   */
+  saturation: SaturatedRange[];
   /** Whether the current (and its sweeps) had the sign opposite to the bias and was flipped. */
   currentSignFlipped: boolean;
   /** Whether the measured conductance was mostly negative and was flipped. */
@@ -100,12 +142,27 @@ function checkCurve(curve: Curve): void {
   const series: [string, ArrayLike<number>][] = [["currentA", curve.currentA]];
   curve.sweeps.forEach((s, k) => series.push([`sweeps[${k}]`, s]));
   if (curve.didvS != null) series.push(["didvS", curve.didvS]);
+  const D = PREPARE_CURVE_DEFAULTS;
   for (const [name, y] of series) {
+    const unit = name === "didvS" ? "S" : "A";
     for (let i = 0; i < y.length; i++) {
       if (!Number.isFinite(y[i])) {
         fail("not-finite", `${name} must contain finite numbers only; got ${y[i]} at index ${i} (bias ${curve.biasV[i]} V). Remove the point first.`);
       }
+      if (Math.abs(y[i]) > D.maxMagnitude) {
+        fail(
+          "out-of-range",
+          `${name} must lie within ±${D.maxMagnitude} ${unit} (beyond any instrument); got ${y[i]} ${unit} at index ${i} (bias ${curve.biasV[i]} V). Check the unit of the current or conductance column.`,
+        );
+      }
     }
+  }
+  const nb = curve.biasV.length;
+  if (nb > 0 && Math.max(Math.abs(curve.biasV[0]), Math.abs(curve.biasV[nb - 1])) > D.maxBiasV) {
+    fail(
+      "out-of-range",
+      `biasV must lie within ±${D.maxBiasV} V (beyond any tunnelling junction); got ${Math.abs(curve.biasV[0]) > D.maxBiasV ? curve.biasV[0] : curve.biasV[nb - 1]} V. Check the unit of the bias column.`,
+    );
   }
 }
 
@@ -172,25 +229,40 @@ function estimateOffset(biasV: Float64Array, currentA: Float64Array, sigmaA: num
  * ------
  * DotspecError
  *     `signal/not-ascending`, `signal/not-finite`, `signal/length-mismatch`, `signal/no-sweeps`,
- *     `signal/invalid-curve`; `options/…` for an unknown key or an offset other than "gap"/"none".
+ *     `signal/invalid-curve`, `signal/out-of-range` (|I| or |G| above 1e60, |V| above 1e6:
+ *     {@link PREPARE_CURVE_DEFAULTS}); `options/…` for an unknown key or an offset other than "gap"/"none".
  *
  * Notes
  * -----
  * 1. Resample: if some bias step differs from the median step by more than 1 %
  *    ({@link UNIFORM_STEP_TOLERANCE}), interpolate the current, the sweeps and the measured dI/dV
  *    linearly onto a uniform grid with the median step (warning).
- * 2. Noise: σ_I = whiteNoiseSigma(I), from the third differences of the current (robust to the
- *    steps of I(V)); likewise σ of a measured conductance.
- * 3. Offset ("gap"): starting from the bias point nearest 0 V, grow an interval outward on each
+ * 2. Saturation ({@link findSaturation}): a flat run of ≥ 5 samples at the current's maximum or
+ *    minimum at an end of the bias range, equal within the resolution of the written numbers and
+ *    either noisy around it or entered at a knee, is the amplifier's range: it is cut off, with
+ *    a warning, and listed in `saturation`.
+ * 3. Noise: σ_I = whiteNoiseSigma(I), from the third differences of the current (robust to the
+ *    steps of I(V)); likewise σ of a measured conductance. Neither goes below q/√12, the σ of
+ *    a rounding error of width q, where q is the resolution the numbers were written with
+ *    (`curve.meta.currentResolutionA`, `conductanceResolutionS`, set by the importer): a curve
+ *    written without noise would otherwise have σ ≈ 0 and every rounding step would pass as a
+ *    peak. `noiseCurrentBound` says which bound was used.
+ * 4. Offset ("gap"): starting from the bias point nearest 0 V, grow an interval outward on each
  *    side while |I − I₀| ≤ max(4σ_I, 1e-6 × current range), I₀ the median of the 5 samples around
  *    0 V; a side stops after 3 samples in a row outside. The offset is the median current of the
  *    interval and is subtracted from the current. 0 V outside the bias range, or an interval of
  *    fewer than 5 samples, gives a warning. The constants are in {@link PREPARE_CURVE_DEFAULTS}.
- * 4. Sign: of the points where the offset-corrected |I| > 4σ_I, if at least 80 % have
+ * 5. Sign: of the points where the offset-corrected |I| > 4σ_I, if at least 80 % have
  *    I·V < 0, the current and its sweeps are negated (warning): the project's convention is
  *    that the current has the sign of the (sample) bias. A measured conductance negative at 80 %
  *    of its points above 4σ is negated too (an inverted lock-in phase). The constants are in
  *    {@link PREPARE_CURVE_DEFAULTS}.
+ *
+ * References
+ * ----------
+ * B. Widrow and I. Kollár, Quantization Noise: Roundoff Error in Digital Computation, Signal
+ * Processing, Control, and Communications, Cambridge University Press (2008), ch. 4 (the
+ * variance q²/12 of rounding to a step q; from memory).
  *
  * Example
  * -------
@@ -243,13 +315,35 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
     measuredS = measuredS ? r.series[r.series.length - 1] : null;
     resampled = true;
   }
+  // 2. Saturation: flat runs at the current's extremes at the ends are cut off.
+  const resolutionA = curve.meta?.currentResolutionA;
+  const saturation = biasV.length >= 4 ? findSaturation(biasV, currentIn, { resolutionA, noiseA: whiteNoiseSigmaUnchecked(currentIn, 3) }) : [];
+  if (saturation.length) {
+    let lo = 0;
+    let hi = biasV.length - 1;
+    for (const s of saturation) {
+      if (s.end === "negative") lo = s.indices[1] + 1;
+      else hi = s.indices[0] - 1;
+      warnings.push(
+        `the current is flat at its ${s.levelA >= 0 ? "maximum" : "minimum"} ${fmt(s.levelA)} A from ${fmt(s.biasV[0])} to ${fmt(s.biasV[1])} V (${s.indices[1] - s.indices[0] + 1} samples): the current amplifier's range was probably reached (saturation); that range was left out of the analysis. Check the amplifier's gain against the instrument's own limits and local practice before measuring again.`,
+      );
+    }
+    const cut = (a: ArrayLike<number>) => Float64Array.from({ length: hi - lo + 1 }, (_, i) => a[lo + i]);
+    biasV = biasV.slice(lo, hi + 1);
+    currentIn = cut(currentIn);
+    sweepsA = sweepsA.map(cut);
+    measuredS = measuredS ? cut(measuredS) : null;
+  }
   const n = biasV.length;
 
-  // 2. Noise.
-  const noiseCurrentA = n >= 4 ? whiteNoiseSigmaUnchecked(currentIn, 3) : 0;
-  const noiseMeasuredS = measuredS && n >= 4 ? whiteNoiseSigmaUnchecked(measuredS, 3) : null;
+  // 3. Noise.
+  const noiseCurrentEstimateA = n >= 4 ? whiteNoiseSigmaUnchecked(currentIn, 3) : 0;
+  const currentNoise = floored(noiseCurrentEstimateA, curve.meta?.currentResolutionA);
+  const noiseCurrentA = currentNoise.sigma;
+  const measuredNoise = measuredS && n >= 4 ? floored(whiteNoiseSigmaUnchecked(measuredS, 3), curve.meta?.conductanceResolutionS) : null;
+  const noiseMeasuredS = measuredNoise ? measuredNoise.sigma : null;
 
-  // 3. Offset.
+  // 4. Offset.
   const currentA = Float64Array.from(currentIn);
   let offsetA = 0;
   let offsetRegionV: [number, number] | null = null;
@@ -271,7 +365,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
       for (let i = 0; i < n; i++) currentA[i] -= offsetA;
     }
   }
-  // 4. Sign (on the offset-corrected current; the offset stays as the file has it): the current has the sign of the bias (sample-bias convention); a file that records it
+  // 5. Sign (on the offset-corrected current; the offset stays as the file has it): the current has the sign of the bias (sample-bias convention); a file that records it
   // the other way round is flipped, with a warning.
   const currentSignFlipped = opposesBias(biasV, currentA, D.signCheckSigma * noiseCurrentA, D.oppositeSignFraction);
   if (currentSignFlipped) {
@@ -288,7 +382,26 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
     warnings.push("the measured dI/dV is negative over most of the curve (an inverted lock-in phase?): it was flipped.");
   }
 
-  return { biasV, currentA, sweepsA, measuredS, stepV, noiseCurrentA, noiseMeasuredS, offsetA, offsetRegionV, resampled, currentSignFlipped, conductanceSignFlipped, warnings };
+  return {
+    biasV,
+    currentA,
+    sweepsA,
+    measuredS,
+    stepV,
+    noiseCurrentA,
+    noiseCurrentBound: currentNoise.bound,
+    noiseCurrentEstimateA,
+    noiseCurrentFloorA: currentNoise.floor,
+    noiseMeasuredS,
+    noiseMeasuredBound: measuredNoise ? measuredNoise.bound : null,
+    offsetA,
+    offsetRegionV,
+    resampled,
+    saturation,
+    currentSignFlipped,
+    conductanceSignFlipped,
+    warnings,
+  };
 }
 
 /** Whether, of the points with |I| > threshold, at least `fraction` have I·V < 0. */

@@ -61,7 +61,8 @@ describe("parseCurveText: layouts", () => {
     expect(arr(r.curve.biasV)).toEqual([-1, -0.5, 0, 0.5, 1]);
     expect(arr(r.curve.currentA)).toEqual([-2e-10, -1e-10, 0, 1e-10, 2e-10]);
     expect(r.curve.didvS).toBeNull();
-    expect(r.curve.meta).toEqual({ source: "(text)", metadata: {} });
+    // closed form: one unit in the last digit of "2e-10" and "1e-10" is 1e-10 A (the "0" cell is skipped)
+    expect(r.curve.meta).toEqual({ source: "(text)", metadata: {}, currentResolutionA: 1e-10, conductanceResolutionS: null });
     expect(r.record).toMatchObject({
       delimiter: ",",
       decimalSeparator: ".",
@@ -78,8 +79,9 @@ describe("parseCurveText: layouts", () => {
       warnings: [],
     });
     expect(r.record.columns).toEqual([
-      { index: 0, header: "bias (V)", name: "bias", role: "bias", unit: "V", scale: 1, unitFrom: "header" },
-      { index: 1, header: "current (A)", name: "current", role: "current", unit: "A", scale: 1, unitFrom: "header" },
+      { index: 0, header: "bias (V)", name: "bias", role: "bias", unit: "V", scale: 1, unitFrom: "header", resolutionSI: null },
+      // closed form: one unit in the last digit of "2e-10" and "1e-10" (the "0" cell is skipped)
+      { index: 1, header: "current (A)", name: "current", role: "current", unit: "A", scale: 1, unitFrom: "header", resolutionSI: 1e-10 },
     ]);
     // by construction: the steps are 0.5 V
     expectClose(r.record.biasStepV, 0.5);

@@ -1,6 +1,6 @@
 // formatAnalysisText: the readable report of `dotspec analyze`.
 import { describe, it, expect } from "vitest";
-import { analysisToJson, formatAnalysisText, FORMAT_TEXT_DEFAULTS, NO_MULTIPLET, type AnalysisJson } from "../../lib/index.ts";
+import { analysisToJson, analyzeCurve, formatAnalysisText, FORMAT_TEXT_DEFAULTS, NO_MULTIPLET, type AnalysisJson } from "../../lib/index.ts";
 import { simulatedAnalysis } from "./fixture.ts";
 
 const { analysis } = simulatedAnalysis("dots/dot-07.csv");
@@ -87,5 +87,18 @@ describe("formatAnalysisText(json)", () => {
   it("has no control codes unless color is asked for", () => {
     expect(formatAnalysisText(base)).not.toMatch(/\x1b/);
     expect(formatAnalysisText(base, { color: true })).toMatch(/\x1b\[1m/);
+  });
+});
+
+describe("formatAnalysisText(json) for a curve without dot levels", () => {
+  it("prints 'No levels found' with the reason, and no gap (closed form input: an ohmic curve I = V/R, R = 1 GΩ)", () => {
+    const biasV = Float64Array.from({ length: 1001 }, (_, i) => -2 + 0.004 * i);
+    const currentA = biasV.map((v, i) => v / 1e9 + 1e-12 * Math.sin(i * 2.3)); // a deterministic wiggle as noise
+    const curve = { biasV, currentA, sweeps: [currentA], didvS: null, meta: { source: "ohmic.csv", metadata: {} } };
+    const json = analysisToJson(analyzeCurve(curve, { eta: 0.8 }));
+    expect(json.noLevels).not.toBeNull();
+    const text = formatAnalysisText(json);
+    expect(text).toContain(`No levels found: ${json.noLevels!.reason}`);
+    expect(json.gapV).toBeNull();
   });
 });

@@ -5,6 +5,7 @@ import { describe, it, expect } from "vitest";
 import { prepareCurve, PREPARE_CURVE_DEFAULTS } from "../../lib/signal/prepareCurve.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 import { expectClose } from "../helpers/expectClose.ts";
+import { expectError } from "../helpers/errors.ts";
 
 const biasV = Float64Array.from({ length: 2001 }, (_, i) => -2 + i * 0.002);
 const gapCurve = (sign: 1 | -1, offsetA = 0, noiseA = 1e-12) => {
@@ -24,8 +25,48 @@ describe("prepareCurve(curve)", () => {
       uniformStepTolerance: 0.01,
       signCheckSigma: 4,
       oppositeSignFraction: 0.8,
+      maxMagnitude: 1e60,
+      maxBiasV: 1e6,
     });
     expect(Object.isFrozen(PREPARE_CURVE_DEFAULTS)).toBe(true);
+  });
+
+  it("never puts the current noise below resolution/√12 (closed form: σ of a uniform rounding error of width q; Widrow & Kollár, Quantization Noise, Cambridge UP 2008, from memory)", () => {
+    const biasV = Float64Array.from({ length: 501 }, (_, i) => -1 + 0.004 * i);
+    const currentA = biasV.map((v) => 1e-9 * v * v * v); // a cubic: third differences constant, so MAD = 0
+    const base = { biasV, currentA, sweeps: [currentA], didvS: null };
+    const without = prepareCurve({ ...base, meta: { source: "t", metadata: {} } });
+    expect(without.noiseCurrentBound).toBe("third-differences");
+    expect(without.noiseCurrentFloorA).toBeNull();
+    const q = 1e-15;
+    const withQ = prepareCurve({ ...base, meta: { source: "t", metadata: {}, currentResolutionA: q } });
+    expect(withQ.noiseCurrentBound).toBe("resolution");
+    expectClose(withQ.noiseCurrentA, q / Math.sqrt(12), { rtol: 1e-12, what: "floor" });
+    expectClose(withQ.noiseCurrentFloorA!, q / Math.sqrt(12), { rtol: 1e-12, what: "floor" });
+    expect(withQ.noiseCurrentEstimateA).toBe(without.noiseCurrentA);
+  });
+
+  it("keeps the third-difference estimate when the noise is above the floor (noise 100 × q)", () => {
+    const rng = seededRandom(11);
+    const biasV = Float64Array.from({ length: 2001 }, (_, i) => -1 + 0.001 * i);
+    const currentA = biasV.map(() => 1e-13 * rng.normal());
+    const p = prepareCurve({ biasV, currentA, sweeps: [currentA], didvS: null, meta: { source: "t", metadata: {}, currentResolutionA: 1e-15 } });
+    expect(p.noiseCurrentBound).toBe("third-differences");
+    // the white-noise σ put in, 1e-13 A, within the estimator's scatter at 2,000 points (common practice, no source)
+    expectClose(p.noiseCurrentA, 1e-13, { rtol: 0.1, what: "σ_I" });
+  });
+
+  it("refuses currents beyond ±1e60 A and biases beyond ±1e6 V with signal/out-of-range", () => {
+    const biasV = Float64Array.of(-1, 0, 1, 2, 3);
+    const big = Float64Array.of(0, 0, 1e61, 0, 0);
+    expectError(() => prepareCurve({ biasV, currentA: big, sweeps: [big], didvS: null, meta: { source: "t", metadata: {} } }), "signal/out-of-range", "currentA", "1e+61", "index 2");
+    const zeros = new Float64Array(5);
+    expectError(
+      () => prepareCurve({ biasV: Float64Array.of(-2e6, 0, 1, 2, 3), currentA: zeros, sweeps: [zeros], didvS: null, meta: { source: "t", metadata: {} } }),
+      "signal/out-of-range",
+      "biasV",
+      "-2000000",
+    );
   });
 
   it("removes the offset of the zero-current region (closed form: the constructed 5 pA)", () => {

@@ -25,6 +25,12 @@ export interface ImportColumn {
   scale: number | null;
   /** Where the unit came from: the header, an option, or the SI default (with a warning). */
   unitFrom: "header" | "option" | "default" | null;
+  /**
+   * Current and conductance columns: the resolution of the written numbers in A or S, the root
+   * mean square over the cells of the value of one unit in the last written digit (see the
+   * importer's `resolution.ts`); null for other columns or when no cell was a plain number.
+   */
+  resolutionSI?: number | null;
 }
 
 /** A column while it is read: {@link ImportColumn} and what its header says. */

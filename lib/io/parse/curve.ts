@@ -17,6 +17,9 @@ import { meanOfSeries } from "../../util/meanOfSeries.ts";
  *     Stored as `meta.source`.
  * metadata : Map<string, string>
  *     The file's metadata, stored as a plain object in file order.
+ * resolution : {currentA, conductanceS}, optional
+ *     Resolution of the written current (A) and conductance (S) numbers, stored in `meta`
+ *     (default null for both).
  *
  * Returns
  * -------
@@ -34,14 +37,24 @@ import { meanOfSeries } from "../../util/meanOfSeries.ts";
  *   conductances: [] }, "(text)", new Map());
  * c.currentA;  // => Float64Array [2, 3]
  */
-export function makeCurve(common: SweepSet, src: string, metadata: Map<string, string>): Curve {
+export function makeCurve(
+  common: SweepSet,
+  src: string,
+  metadata: Map<string, string>,
+  resolution: { currentA: number | null; conductanceS: number | null } = { currentA: null, conductanceS: null },
+): Curve {
   const grid = common.biasV;
   return {
     biasV: grid,
     currentA: meanOfSeries(common.currents, grid.length),
     sweeps: common.currents,
     didvS: common.conductances.length > 0 ? meanOfSeries(common.conductances, grid.length) : null,
-    meta: { source: src, metadata: Object.fromEntries(metadata) },
+    meta: {
+      source: src,
+      metadata: Object.fromEntries(metadata),
+      currentResolutionA: resolution.currentA,
+      conductanceResolutionS: common.conductances.length > 0 ? resolution.conductanceS : null,
+    },
   };
 }
 

@@ -1,7 +1,7 @@
 /**
  * The importer of delimited text: `parseCurveText` and the types of its options and record. The
  * stage modules of this folder are internal; their file list reads as the method (lines, format,
- * dataRows, header, columns, columnUnits, assumptions, groups, numbers, completeRows, sweeps,
+ * dataRows, header, columns, columnUnits, assumptions, groups, numbers, resolution, completeRows, sweeps,
  * commonBias, curve, record).
  */
 export { parseCurveText, type ParsedCurve } from "./parseCurveText.ts";

@@ -12,10 +12,11 @@ import { keepCompleteRows } from "./completeRows.ts";
 import { makeCurve, toSampleBias } from "./curve.ts";
 import { findDataRows } from "./dataRows.ts";
 import { detectFormat } from "./format.ts";
-import { groupColumns } from "./groups.ts";
+import { groupColumns, type ColumnGroup } from "./groups.ts";
 import { findHeader } from "./header.ts";
 import { splitLines } from "./lines.ts";
 import { readNumbers } from "./numbers.ts";
+import { columnResolutions } from "./resolution.ts";
 import { resolveParseOptions, type ParseOptions } from "./options.ts";
 import { makeRecord, type ImportRecord, type RowCounts } from "./record.ts";
 import { cutSweeps } from "./sweeps.ts";
@@ -78,6 +79,9 @@ export interface ParsedCurve {
  *    to its left (or the first bias column); a bias column with no current column is ignored.
  * 6. Numbers and rows (`numbers.ts`, `completeRows.ts`): rows with a missing or non-finite value
  *    in a used cell are dropped (per bias column).
+ * 6b. Resolution (`resolution.ts`): per current and conductance column, the RMS over its cells of
+ *    the value of one unit in the last written digit (in A or S); the curve's
+ *    `meta.currentResolutionA` and `meta.conductanceResolutionS` are the RMS over the columns used.
  * 7. Sweeps (`sweeps.ts`): a bias column that changes direction is cut into monotonic segments
  *    (see `splitMonotonic`). Segments that cover at least 90 % of the column's bias span are
  *    sweeps; up to two shorter segments (an interrupted sweep) are dropped with a warning. A
@@ -125,6 +129,7 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
 
   // 6. Numbers.
   const values = readNumbers(file, format, table, header, columns, src);
+  const resolutions = columnResolutions(table, columns, values, format.decimalComma);
 
   // 7. Rows per group, segments, sweeps.
   const kept = keepCompleteRows(file, format, table, groups, values, src, warnings);
@@ -139,8 +144,20 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   const common = ontoCommonBias(sweeps.sets, o.minPoints, src, counts, biasColumns, warnings);
 
   // 9. Curve and record.
-  const asRead = makeCurve(common, src, file.metadata);
+  const asRead = makeCurve(common, src, file.metadata, curveResolutions(groups, resolutions));
   const curve = o.biasPolarity === "tip" ? toSampleBias(asRead) : asRead;
-  const record = makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata: file.metadata, warnings, biasPolarity: o.biasPolarity });
+  const record = makeRecord({ src, format, header, columns, resolutions, counts, sweeps, curve, metadata: file.metadata, warnings, biasPolarity: o.biasPolarity });
   return { curve, record };
+}
+
+/** RMS resolution over the current (and over the conductance) columns of the groups used; null when none is known. */
+function curveResolutions(groups: readonly ColumnGroup[], resolutions: readonly (number | null)[]): { currentA: number | null; conductanceS: number | null } {
+  const rms = (indices: number[]): number | null => {
+    const known = indices.map((i) => resolutions[i]).filter((q): q is number => q !== null);
+    if (!known.length) return null;
+    const top = Math.max(...known);
+    if (top === 0) return 0;
+    return top * Math.sqrt(known.reduce((a, q) => a + (q / top) ** 2, 0) / known.length);
+  };
+  return { currentA: rms(groups.flatMap((g) => g.currents)), conductanceS: rms(groups.flatMap((g) => g.conductances)) };
 }

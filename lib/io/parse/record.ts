@@ -22,6 +22,14 @@ export interface ImportRecord {
   headerLine: number | null;
   /** Every column of the file. */
   columns: ImportColumn[];
+  /**
+   * Resolution of the written current numbers, A: RMS over the current columns of each column's
+   * `resolutionSI`; null when no cell was a plain decimal number. The signal stage never puts the
+   * current noise below resolution/√12.
+   */
+  currentResolutionA: number | null;
+  /** The same over the conductance columns, S; null without one. */
+  conductanceResolutionS: number | null;
   /** Headers (or names) of the columns that were ignored. */
   ignoredColumns: string[];
   /** Data rows read (lines after the header that are not comments or blank). */
@@ -68,6 +76,8 @@ export interface RecordParts {
   format: DelimiterGuess;
   header: Header;
   columns: readonly Column[];
+  /** Per column, the RMS quantum of its written numbers in SI units, or null. */
+  resolutions: readonly (number | null)[];
   counts: RowCounts;
   sweeps: Sweeps;
   curve: Curve;
@@ -100,7 +110,7 @@ export interface RecordParts {
  * -------
  * parseCurveText("bias (mV),current (pA)\n-2,-5\n-1,-1\n0,0\n1,1\n2,5\n").record.biasDirection;  // => "ascending"
  */
-export function makeRecord({ src, format, header, columns, counts, sweeps, curve, metadata, warnings, biasPolarity }: RecordParts): ImportRecord {
+export function makeRecord({ src, format, header, columns, resolutions, counts, sweeps, curve, metadata, warnings, biasPolarity }: RecordParts): ImportRecord {
   const grid = curve.biasV;
   const step = biasStep(grid);
   const { directions } = sweeps;
@@ -118,7 +128,10 @@ export function makeRecord({ src, format, header, columns, counts, sweeps, curve
       unit: c.role === "other" ? null : c.unitInfo!.unit,
       scale: c.role === "other" ? null : c.unitInfo!.scale,
       unitFrom: c.role === "other" ? null : c.unitFrom,
+      resolutionSI: resolutions[c.index] ?? null,
     })),
+    currentResolutionA: curve.meta.currentResolutionA ?? null,
+    conductanceResolutionS: curve.meta.conductanceResolutionS ?? null,
     ignoredColumns: columns.filter((c) => c.role === "other").map((c) => c.header || c.name),
     dataRows: counts.dataRows,
     rowsDropped: counts.rowsDropped,

@@ -1,0 +1,101 @@
+/**
+ * Curves without dot features: the rule that says "no levels found", and why, before any
+ * multiplet or gap is built.
+ */
+
+/** Why a curve shows no dot levels. */
+export type NoLevelsCode = "no-peaks" | "no-gap" | "lone-peak";
+
+/** The verdict of {@link noLevels}: a stable code and the reason in words. */
+export interface NoLevels {
+  /**
+   * "no-peaks": no peak passed the current-step test; "no-gap": the conductance at 0 V is above
+   * its noise (no zero-conductance region: an ohmic or metallic contact); "lone-peak": a single
+   * peak, on one side of the gap only, which a smooth background with noise can produce.
+   */
+  code: NoLevelsCode;
+  /** The reason in words, with the numbers it used. */
+  reason: string;
+}
+
+/** Inputs of {@link noLevels}. */
+export interface NoLevelsInput {
+  /** Bias positions of the peaks that passed the current-step test, V (any order). */
+  peaksV: readonly number[];
+  /** The zero-conductance region [negative edge, positive edge] around 0 V, V; null when dI/dV at 0 V exceeds its noise or 0 V is outside the range. */
+  gapEdgesV: [number, number] | null;
+  /** Whether 0 V lies inside the bias range (a curve on one side of 0 V cannot show the gap). */
+  zeroInRange: boolean;
+  /**
+   * Samples in the zero-current region around 0 V (where the current stays within its noise of
+   * I(0 V); `prepareCurve`'s offset region); 0 when there is none.
+   */
+  zeroCurrentSamples: number;
+}
+
+/** Constants of {@link noLevels} (locked by test/assign/noLevels.test.ts). */
+export const NO_LEVELS_DEFAULTS = Object.freeze({
+  /** A gap needs a zero-current region of at least this many samples when dI/dV at 0 V is above its noise. */
+  minZeroCurrentSamples: 5,
+});
+
+/**
+ * Decide whether a curve shows dot levels at all.
+ *
+ * Parameters
+ * ----------
+ * input : NoLevelsInput
+ *     The accepted peak positions (V), the zero-conductance region (V) and whether 0 V is in the
+ *     bias range.
+ *
+ * Returns
+ * -------
+ * NoLevels | null
+ *     Null when the curve may hold levels (the assignment goes on); otherwise the code and reason,
+ *     and the assignment reports no multiplets, no gap and no quantities.
+ *
+ * Notes
+ * -----
+ * A dot between two tunnel barriers has a region of zero conductance around 0 V (the gap:
+ * Coulomb blockade plus the single-particle gap) with current steps, dI/dV peaks, outside it.
+ * The rules, in order:
+ * 1. 0 V inside the range but no zero-conductance region there: "no-gap" (an ohmic or metallic
+ *    contact; peaks on such a background are not levels of an isolated dot). Both signs must
+ *    agree: dI/dV at 0 V above its noise (`gapEdgesV` null) and a zero-current region of fewer
+ *    than NO_LEVELS_DEFAULTS.minZeroCurrentSamples (5) samples, so that one noisy sample of
+ *    dI/dV at 0 V does not discard a dot.
+ * 2. No accepted peak: "no-peaks" (a curve of noise, an open circuit, or a smooth exponential,
+ *    e.g. tunnelling straight into the substrate).
+ * 3. Exactly one peak: "lone-peak" (a single level cannot be told from a bump of a smooth
+ *    background, and no gap between a CB and a VB peak can be formed).
+ * Otherwise null.
+ *
+ * Example
+ * -------
+ * noLevels({ peaksV: [], gapEdgesV: [-0.7, 0.7], zeroInRange: true, zeroCurrentSamples: 700 });
+ * // => { code: "no-peaks", reason: "no peak passed the current-step test ..." }
+ * noLevels({ peaksV: [-0.9, 0.8], gapEdgesV: [-0.8, 0.7], zeroInRange: true, zeroCurrentSamples: 750 });  // => null
+ */
+export function noLevels(input: NoLevelsInput): NoLevels | null {
+  const { peaksV, gapEdgesV, zeroInRange } = input;
+  if (zeroInRange && gapEdgesV === null && input.zeroCurrentSamples < NO_LEVELS_DEFAULTS.minZeroCurrentSamples) {
+    return {
+      code: "no-gap",
+      reason: `dI/dV at 0 V is above its noise and the current leaves its noise within ${input.zeroCurrentSamples} sample${input.zeroCurrentSamples === 1 ? "" : "s"} of 0 V, so there is no zero-conductance region (an ohmic or metallic contact, not a dot between two barriers); the ${peaksV.length} peak${peaksV.length === 1 ? "" : "s"} found are not taken as levels`,
+    };
+  }
+  if (peaksV.length === 0) {
+    return {
+      code: "no-peaks",
+      reason:
+        "no peak passed the current-step test: the curve shows no dot levels (noise only, an open circuit, or a smooth background such as tunnelling into the substrate)",
+    };
+  }
+  if (peaksV.length === 1) {
+    return {
+      code: "lone-peak",
+      reason: `only one peak (at ${Number(peaksV[0].toPrecision(4))} V) passed the current-step test: one bump on a smooth background is not a ladder of levels, and no gap between a CB and a VB peak can be formed`,
+    };
+  }
+  return null;
+}

@@ -1,0 +1,139 @@
+/**
+ * Stage 6b of the importer, the resolution: how finely the current and conductance numbers were
+ * written, from the text of their cells.
+ */
+import type { Column } from "./columns.ts";
+import type { DataRows } from "./dataRows.ts";
+import type { ColumnValues } from "./numbers.ts";
+
+/** Powers of ten 10^-400 … 10^400 (exact as JavaScript writes them), indexed by exponent + 400. */
+const POW10 = Float64Array.from({ length: 801 }, (_, k) => Number(`1e${k - 400}`));
+
+/**
+ * The value of one unit in the last written digit of a number cell, in the cell's own unit.
+ *
+ * Parameters
+ * ----------
+ * cell : string
+ *     The cell text as in the file (`"-1.52849e-11"`, `"12,50"`, `"1.5D-03"`, `"42"`).
+ * decimalComma : boolean
+ *     The decimal separator is a comma.
+ *
+ * Returns
+ * -------
+ * number
+ *     10^(exponent − digits after the decimal separator): 1e-16 for `"-1.52849e-11"`, 0.01 for
+ *     `"12,50"` with a decimal comma, 1 for `"42"`; NaN when the cell is not a plain decimal
+ *     number (empty, a word, quoted).
+ *
+ * Notes
+ * -----
+ * 1. Split off an exponent (`e`, `E`, `d`, `D`); its integer is the power of ten of the number.
+ * 2. Count the digits after the decimal separator of the mantissa; an integer mantissa counts 0
+ *    (its trailing zeros are taken as written digits).
+ * 3. The quantum is 10^(exponent − digits).
+ *
+ * Example
+ * -------
+ * cellQuantum("-1.52849e-11", false);  // => 1e-16
+ * cellQuantum("0.0150", false);        // => 0.0001
+ */
+export function cellQuantum(cell: string, decimalComma: boolean): number {
+  const s = cell.trim();
+  const n = s.length;
+  if (n === 0 || n > 400) return NaN;
+  const sep = decimalComma ? 44 : 46; // "," or "."
+  let i = 0;
+  let c = s.charCodeAt(0);
+  if (c === 43 || c === 45 || c === 0x2212) i = 1;
+  let digits = 0;
+  let decimals = 0;
+  let afterSep = false;
+  for (; i < n; i++) {
+    c = s.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      digits++;
+      if (afterSep) decimals++;
+    } else if (c === sep && !afterSep) afterSep = true;
+    else break;
+  }
+  if (digits === 0) return NaN;
+  let exponent = 0;
+  if (i < n) {
+    c = s.charCodeAt(i) | 32;
+    if (c !== 101 && c !== 100) return NaN; // e or d
+    const e = Number(s.slice(i + 1));
+    if (!Number.isInteger(e) || s.length === i + 1) return NaN;
+    exponent = e;
+  }
+  const k = exponent - decimals + 400;
+  return k >= 0 && k <= 800 ? POW10[k] : NaN;
+}
+
+/**
+ * The RMS quantum of the written numbers of every current and conductance column, in SI units.
+ *
+ * Parameters
+ * ----------
+ * table : DataRows
+ *     Cells and start of the data.
+ * columns : readonly Column[]
+ *     Columns with roles and units (stage 4).
+ * values : ColumnValues
+ *     The numbers of stage 6 (cells that are not finite numbers are skipped).
+ * decimalComma : boolean
+ *     The decimal separator is a comma.
+ *
+ * Returns
+ * -------
+ * (number | null)[]
+ *     Per column: √(mean q²) over its cells, q = {@link cellQuantum} × the unit's SI scale (A or
+ *     S); null for bias and ignored columns and for a column without a readable cell.
+ *
+ * Notes
+ * -----
+ * 1. A cell whose value is exactly zero says nothing of the digits a magnitude gets (`0`
+ *    in a column of `1.23456e-11`): it is skipped, unless the whole column is zero.
+ * 2. The root mean square suits a noise floor: the variance of a rounding error of width q is
+ *    q²/12, so the mean variance over the cells is mean(q²)/12.
+ *
+ * References
+ * ----------
+ * B. Widrow and I. Kollár, Quantization Noise: Roundoff Error in Digital Computation, Signal
+ * Processing, Control, and Communications, Cambridge University Press (2008), ch. 4 (the q²/12
+ * variance of rounding; from memory).
+ *
+ * Example
+ * -------
+ * // Through the importer: "bias (V),current (pA)" with cells "1.25", "-0.50" → 0.01 pA.
+ * parseCurveText("bias (V),current (pA)\n0,1.25\n1,-0.50\n2,3.00\n", { minPoints: 3 }).curve.meta.currentResolutionA;
+ * // => 1e-14
+ */
+export function columnResolutions(table: DataRows, columns: readonly Column[], values: ColumnValues, decimalComma: boolean): (number | null)[] {
+  const { rows, first } = table;
+  return columns.map((col) => {
+    if ((col.role !== "current" && col.role !== "conductance") || !col.unitInfo) return null;
+    const v = values[col.index];
+    if (!v) return null;
+    // Running √(Σq²) with rescaling (no overflow or underflow for any written exponent).
+    const nonzero = { scale: 0, sum: 0, count: 0 };
+    const zero = { scale: 0, sum: 0, count: 0 };
+    for (let r = first; r < rows.length; r++) {
+      const x = v[r - first];
+      if (!Number.isFinite(x)) continue;
+      const q = cellQuantum(rows[r][col.index], decimalComma);
+      if (!(q > 0)) continue;
+      const acc = x === 0 ? zero : nonzero;
+      if (q > acc.scale) {
+        acc.sum = acc.scale === 0 ? 0 : acc.sum * (acc.scale / q) ** 2;
+        acc.scale = q;
+      }
+      acc.sum += (q / acc.scale) ** 2;
+      acc.count++;
+    }
+    const acc = nonzero.count > 0 ? nonzero : zero;
+    if (acc.count === 0) return null;
+    const rms = acc.scale * Math.sqrt(acc.sum / acc.count) * col.unitInfo.scale;
+    return Number.isFinite(rms) ? rms : null;
+  });
+}
