@@ -17,8 +17,8 @@ export const CLI_OPTION_NAMES = Object.freeze({
 /** Phrases naming several library options of which the CLI offers only some. */
 const PHRASES: readonly [RegExp, string][] = [
   [/\bbiasUnit \/ currentUnit \/ conductanceUnit\b/g, "--bias-unit / --current-unit"],
-  [/\beta must\b/g, "--eta must"],
-  [/\border must\b/g, "--order must"],
+  [/(?<![.\w-])eta must\b/g, "--eta must"],
+  [/(?<![.\w-])order must\b/g, "--order must"],
 ];
 
 /**
@@ -43,6 +43,6 @@ const PHRASES: readonly [RegExp, string][] = [
 export function cliOptionNames(message: string): string {
   let out = message;
   for (const [pattern, replacement] of PHRASES) out = out.replace(pattern, replacement);
-  for (const [name, flag] of Object.entries(CLI_OPTION_NAMES)) out = out.replace(new RegExp(`(?<![-\\w])${name}\\b`, "g"), flag);
+  for (const [name, flag] of Object.entries(CLI_OPTION_NAMES)) out = out.replace(new RegExp(`(?<![-.\\w])${name}\\b`, "g"), flag);
   return out;
 }

@@ -53,7 +53,11 @@ export function writeTextFile(path: string, text: string): void {
     writeFileSync(temp, text, "utf8");
     renameSync(temp, path);
   } catch (err) {
-    rmSync(temp, { force: true });
+    try {
+      rmSync(temp, { force: true });
+    } catch {
+      // The folder itself is missing or unusable: no temporary file was made.
+    }
     const reason = err instanceof Error ? err.message : String(err);
     throw new DotspecError("io/write-failed", `${path}: could not be written (${reason}); check the folder exists and is writable`);
   }

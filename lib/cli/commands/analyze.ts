@@ -295,6 +295,7 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
       failed++;
     }
   }
-  ctx.stderr.write(batchCount(done, failed, warnings, warned));
+  // Stopped early because nobody reads the output any more (`… | head`): stop quietly.
+  if (!ctx.stdoutGone()) ctx.stderr.write(batchCount(done, failed, warnings, warned));
   return failed ? EXIT.failed : EXIT.ok;
 }
