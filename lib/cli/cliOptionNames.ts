@@ -14,8 +14,10 @@ export const CLI_OPTION_NAMES = Object.freeze({
   binNM: "--bin-nm",
 } as const);
 
-/** Phrases naming several library options of which the CLI offers only some. */
+/** Phrases naming library options of which the CLI offers only some (or none). */
 const PHRASES: readonly [RegExp, string][] = [
+  [/ or pass the option biasColumn \(header or index from 0\)/g, ""],
+  [/; if it is not the bias, pass biasColumn and currentColumns/g, "; if it is not the bias, give the columns a header"],
   [/\bbiasUnit \/ currentUnit \/ conductanceUnit\b/g, "--bias-unit / --current-unit"],
   [/(?<![.\w-])eta must\b/g, "--eta must"],
   [/(?<![.\w-])order must\b/g, "--order must"],
