@@ -84,6 +84,7 @@ export { REGIME_LIMITS, secondToFirstStepRatio, rateRatioFromStepRatio } from ".
 // Reports.
 export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson, type AnalysisJsonExtras } from "./report/analysisJson.ts";
 export { makeProvenance, svgWithProvenance, type Provenance } from "./report/provenance.ts";
+export { tableWithProvenance, type ProvenanceTable } from "./report/tableWithProvenance.ts";
 export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
 export { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
 export { failedSummaryRow, summaryColumns, summaryRow, SUMMARY_COLUMNS, SUMMARY_METADATA_PREFIX, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";

@@ -40,3 +40,17 @@ describe("failedSummaryRow(source, reason) and summaryColumns(rows)", () => {
     expect(summaryColumns([a, b])).toEqual([...SUMMARY_COLUMNS, "meta_dot", "meta_radius_nm"]);
   });
 });
+
+describe("tableWithProvenance(table, provenance, inputOf?)", () => {
+  it("appends tool_version and options to every row, and input_bytes / input_sha256 for per-input tables", async () => {
+    const { tableWithProvenance } = await import("../../lib/index.ts");
+    const p = makeProvenance("sizes", null, { binNM: 0.25 });
+    const t = tableWithProvenance({ columns: ["file"], rows: [{ file: "a.csv" }, { file: "b.csv" }] }, p, (row) =>
+      row.file === "a.csv" ? { name: "a.csv", bytes: 3, sha256: "a".repeat(64) } : null,
+    );
+    expect(t.columns).toEqual(["file", "tool_version", "options", "input_bytes", "input_sha256"]);
+    expect(t.rows[0]).toEqual({ file: "a.csv", tool_version: DOTSPEC_VERSION, options: '{"binNM":0.25}', input_bytes: 3, input_sha256: "a".repeat(64) });
+    expect(t.rows[1].input_sha256).toBeNull();
+    expect(tableWithProvenance({ columns: ["dot"], rows: [] }, p).columns).toEqual(["dot", "tool_version", "options"]);
+  });
+});

@@ -122,3 +122,25 @@ describe("dotspec analyze --replay RECORD.json", () => {
     expect((await run(["analyze", "x.csv", "--replay", "r.json"])).code).toBe(2);
   });
 });
+
+describe("dotspec sizes --out: provenance in sizes.json, every table row and every figure", () => {
+  it("sizes.json has the options and the tables' SHA-256; sizes-curves.csv rows each file's SHA-256; figures a <metadata> element", async () => {
+    const dir = tempDir("dotspec-prov-");
+    const file = writeCurve(join(dir, "a.csv"), FILLING);
+    const meta = join(tempDir("dotspec-prov-"), "META.csv");
+    writeFileSync(meta, "file,dot,radius_nm\na.csv,A,2\n");
+    const out = join(tempDir("dotspec-out-"), "s");
+    const r = await run(["sizes", dir, "--meta", meta, "--eta", "0.8", "--out", out]);
+    expect(r.code).toBe(0);
+    const json = JSON.parse(readFileSync(join(out, "sizes.json"), "utf8"));
+    expect(json.provenance.version).toBe(PACKAGE.version);
+    expect(json.provenance.options.tables.meta).toEqual({ name: meta, bytes: statSync(meta).size, sha256: sha256Hex(readFileSync(meta)) });
+    const [row] = csvParse(readFileSync(join(out, "sizes-curves.csv"), "utf8"));
+    expect(row.input_sha256).toBe(sha256Hex(readFileSync(file)));
+    expect(row.tool_version).toBe(PACKAGE.version);
+    for (const f of ["sizes-dots.csv", "sizes-bins.csv", "sizes-fits.csv"]) {
+      expect(readFileSync(join(out, f), "utf8").split("\n")[0], f).toMatch(/,tool_version,options$/);
+    }
+    expect(readFileSync(join(out, "sizes-gap.svg"), "utf8")).toMatch(/<metadata id="dotspec-provenance">/);
+  });
+});

@@ -17,6 +17,7 @@ import {
   makeProvenance,
   summaryColumns,
   svgWithProvenance,
+  tableWithProvenance,
   formatSizeSeriesText,
   isDotspecError,
   listCurveFiles,
@@ -444,8 +445,11 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
       });
       writeTextFile(join(curvesDir!, ANALYZE_OUTPUT.summary), formatCsv(rows, summaryColumns(rows)));
       const t = sizeSeriesTables(record, curves);
+      // Each row carries the version and options; the per-curve table also each file's size and SHA-256.
+      const inputs = new Map(curves.map((c) => [c.file, (c.values as { provenance?: AnalysisJson["provenance"] }).provenance?.input ?? null]));
       for (const key of ["curves", "dots", "bins", "fits"] as const) {
-        writeTextFile(join(outDir, SIZE_TABLE_FILES[key]), formatCsv(t[key].rows, t[key].columns));
+        const table = tableWithProvenance(t[key], record.provenance, key === "curves" ? (row) => inputs.get(String(row.file)) ?? null : undefined);
+        writeTextFile(join(outDir, SIZE_TABLE_FILES[key]), formatCsv(table.rows, table.columns));
       }
       const draw = await loadSizeFigures();
       const figures = draw(series);
