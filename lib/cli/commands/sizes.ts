@@ -97,10 +97,13 @@ Output:
                 model fits and the optical pairing
   --json        one JSON object { dots, unassigned, bins, fits, optical, … } on stdout
   --out DIR     DIR/sizes.json, DIR/sizes-{curves,dots,bins,fits}.csv, DIR/sizes-*.svg figures,
-                and DIR/curves/<name>.json, <name>.svg and summary.csv (as analyze --out writes them)
+                and DIR/curves/<name>.json, <name>.svg and summary.csv (as analyze --out writes them);
+                DIR may hold only files dotspec wrote (listed in DIR/.dotspec-manifest.json) unless
+                --force is given; every file is written under a temporary name and renamed
 
 Exit status: 0 every curve analysed, 1 some curve or table failed (one "dotspec: …" line each on
-stderr; the rest is still reported), 2 usage error.
+stderr; the rest is still reported), 2 usage error. The run ends with one line on stderr: done,
+failed, warnings.
 
 Examples:
   dotspec sizes series/ --material InP
