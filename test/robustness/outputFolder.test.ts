@@ -92,3 +92,16 @@ describe("dotspec sizes --out DIR: the same rule", () => {
     expect(Object.keys(readOutputManifest(out)!.files)).toContain("curves/a.json");
   });
 });
+
+describe("dotspec fit --out DIR: the same rule", () => {
+  it("refuses a folder with a foreign file (exit 2, nothing written) and writes there with --force", async () => {
+    const out = tempDir("dotspec-out-");
+    writeFileSync(join(out, "dot.fit.json"), "someone else's");
+    const r = await run(["fit", curve, "--eta", "0.8", "--out", out]);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toMatch(/holds files dotspec did not write \(dot\.fit\.json\)/);
+    expect(readdirSync(out)).toEqual(["dot.fit.json"]);
+    await run(["fit", curve, "--eta", "0.8", "--out", out, "--force"]);
+    expect(Object.keys(readOutputManifest(out)!.files)).toEqual(["dot.fit.json", "dot.fit.svg"]);
+  }, 30_000);
+});
