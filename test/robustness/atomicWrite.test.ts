@@ -54,3 +54,34 @@ describe("writeTextFile(path, text): temporary name, then rename", () => {
     expect(existsSync(path)).toBe(true);
   }, 30_000);
 });
+
+describe("dotspec analyze --out interrupted by Ctrl-C (SIGINT)", () => {
+  it("leaves only whole files, and the next run into the same folder is accepted without --force", async () => {
+    const { writeCurve, FILLING, run } = await import("../cli/harness.ts");
+    const dir = tempDir("dotspec-sigint-");
+    for (let k = 0; k < 40; k++) writeCurve(join(dir, `dot-${String(k).padStart(2, "0")}.csv`), { ...FILLING, noise: { relative: 0.003, seed: 100 + k } });
+    const out = join(tempDir("dotspec-sigint-"), "report");
+    const bin = fileURLToPath(new URL("../../bin/dotspec.js", import.meta.url));
+    const child = spawn(process.execPath, [bin, "analyze", dir, "--eta", "0.8", "--out", out, "--json"], { stdio: "ignore" });
+    const exited = new Promise<number | null>((resolve) => child.once("exit", (code) => resolve(code)));
+    // Wait until some reports are written, then press Ctrl-C.
+    for (let t = 0; t < 600; t++) {
+      if (existsSync(out) && readdirSync(out).filter((f) => f.endsWith(".svg")).length >= 3) break;
+      await new Promise((resolve) => setTimeout(resolve, 50));
+    }
+    child.kill("SIGINT");
+    await exited;
+    const files = readdirSync(out);
+    expect(files).not.toContain("summary.csv"); // the run was stopped before its end
+    expect(files.filter((f) => f.endsWith(".json") && !f.startsWith(".")).length).toBeGreaterThan(0);
+    for (const f of files) {
+      if (TEMP_FILE_PATTERN.test(f)) continue;
+      const text = readFileSync(join(out, f), "utf8");
+      if (f.endsWith(".json")) expect(() => JSON.parse(text), f).not.toThrow();
+      if (f.endsWith(".svg")) expect(text.trimEnd().endsWith("</svg>"), f).toBe(true);
+    }
+    const again = await run(["analyze", dir, "--eta", "0.8", "--out", out, "--json"]);
+    expect(again.code).toBe(0);
+    expect(readdirSync(out).filter((f) => f.endsWith(".json") && !f.startsWith("."))).toHaveLength(40);
+  }, 120_000);
+});
