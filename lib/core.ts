@@ -35,7 +35,8 @@ export {
 export type { ColumnRole } from "./io/readColumnHeader.ts";
 export type { Delimiter } from "./io/cells.ts";
 export { parseCurveBytes } from "./io/parseCurveBytes.ts";
-export { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, type CellValue, type CurveColumns } from "./io/formatCsv.ts";
+export { CURVE_CSV_DIGITS, escapeFormulaCell, formatCsv, formatCurveCsv, type CellValue, type CurveColumns, type FormatCurveCsvOptions } from "./io/formatCsv.ts";
+export { DOTSPEC_VERSION } from "./util/version.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./io/etaFromMetadata.ts";
 export { etaForCurve, type CurveEta } from "./io/etaForCurve.ts";
 export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./io/parseSizeMeta.ts";
@@ -83,10 +84,12 @@ export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type Synth
 export { REGIME_LIMITS, secondToFirstStepRatio, rateRatioFromStepRatio } from "./model/regimeLimits.ts";
 
 // Reports.
-export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson } from "./report/analysisJson.ts";
+export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson, type AnalysisJsonExtras } from "./report/analysisJson.ts";
+export { makeProvenance, svgWithProvenance, type Provenance } from "./report/provenance.ts";
+export { tableWithProvenance, type ProvenanceTable } from "./report/tableWithProvenance.ts";
 export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
 export { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
-export { summaryRow, SUMMARY_COLUMNS, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
+export { failedSummaryRow, summaryColumns, summaryRow, SUMMARY_COLUMNS, SUMMARY_METADATA_PREFIX, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
 export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.
 export { loadCurveFigure, loadModelFigure, type CurveFigureRenderer, type ModelFigureRenderer } from "./report/loadCurveFigure.ts";

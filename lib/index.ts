@@ -10,6 +10,16 @@ export { CURVE_FILE_EXTENSIONS, MAX_CURVE_FILE_BYTES, listCurveFiles, readCurveF
 export { readJsonFile } from "./io/readJsonFile.ts";
 export { writeTextFile } from "./io/writeTextFile.ts";
 export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./io/readSizeTables.ts";
+export { TEMP_FILE_PATTERN } from "./io/writeTextFile.ts";
+export { inputDigest, sha256Hex, type InputDigest } from "./io/inputDigest.ts";
+export {
+  checkOutputFolder,
+  OUTPUT_MANIFEST_NAME,
+  readOutputManifest,
+  writeOutputManifest,
+  type OutputFolderCheck,
+  type OutputManifest,
+} from "./io/outputManifest.ts";
 
 // Grid spectroscopy, Node-only parts: reading cubes from files, and the map figures (PNG raster by node:zlib).
 export { readNpyGrid, READ_NPY_DEFAULTS, type ReadNpyGridOptions, type NpyGridResult } from "./io/readNpyGrid.ts";

@@ -6,16 +6,26 @@ import { join } from "node:path";
 import {
   analysisToJson,
   analyzeCurve,
+  failedSummaryRow,
   failureReason,
   formatAnalysisText,
+  inputDigest,
+  makeProvenance,
   readCurveFile,
   summaryRow,
+  svgWithProvenance,
   writeTextFile,
+  type AnalysisJson,
   type AnalyzeOptions,
+  type Curve,
+  type CurveAnalysis,
+  type InputDigest,
+  type Provenance,
   type ReadCurveOptions,
   type CurveFigureRenderer,
   type SummaryRow,
 } from "../index.ts";
+import { cliOptionNames } from "./cliOptionNames.ts";
 import { etaForCurve } from "./curveOptions.ts";
 
 /** Settings shared by every file of a batch (plain data: it is sent to worker threads). */
@@ -42,10 +52,13 @@ export interface AnalyzeJob {
   outName: string | null;
 }
 
-/** What one file gave: its printed output and summary row, or the reason it failed. */
+/**
+ * What one file gave: its printed output, summary row (with --out), warnings and notes, or the
+ * reason it failed and its summary row.
+ */
 export type AnalyzeJobResult =
-  | { index: number; ok: true; output: string; row: SummaryRow | null }
-  | { index: number; ok: false; error: string };
+  | { index: number; ok: true; output: string; row: SummaryRow | null; warnings: string[]; notes: string[] }
+  | { index: number; ok: false; error: string; row?: SummaryRow };
 
 /** File names inside an --out folder. */
 export const ANALYZE_OUTPUT = Object.freeze({
@@ -56,6 +69,53 @@ export const ANALYZE_OUTPUT = Object.freeze({
 
 /** The reason of a failure (the library's, shared with the notebooks). */
 export { failureReason };
+
+/** The options as given, recorded in a record's provenance (and read back by `--replay`). */
+export interface RecordedOptions {
+  /** Options of analyzeCurve as given (η only when --eta was given). */
+  analyze: AnalyzeOptions;
+  /** Importer options as given. */
+  read: ReadCurveOptions;
+}
+
+/** One file read and analysed, with its JSON record. */
+export interface AnalyzedFile {
+  curve: Curve;
+  analysis: CurveAnalysis;
+  json: AnalysisJson;
+}
+
+/**
+ * Reads and analyses one file and makes its JSON record: the analysis, the importer's record,
+ * the file's metadata lines, the notes (where η came from) and the provenance (version, the
+ * file's name, size and SHA-256, the options as given). Throws what the reader or the analysis
+ * throws.
+ *
+ * Example
+ * -------
+ * analyzeCurveFile("dot-01.csv", { analyze: {}, read: {} }).json.energies.eta; // => 0.88 (from its `# eta:` line)
+ */
+export function analyzeCurveFile(file: string, options: RecordedOptions, command = "analyze"): AnalyzedFile {
+  const digest = inputDigest(file);
+  const { curve, record } = readCurveFile(file, options.read);
+  // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
+  const { eta, note } = etaForCurve(options.analyze.eta, curve);
+  const analysis = analyzeCurve(curve, eta === undefined ? options.analyze : { ...options.analyze, eta });
+  const provenance = makeProvenance(command, digest, { analyze: options.analyze, read: options.read });
+  const json = analysisToJson(analysis, record, { notes: note ? [note] : [], metadata: curve.meta.metadata, provenance });
+  return { curve, analysis, json };
+}
+
+/** The provenance of an input that failed: its size and SHA-256 when it can be read. */
+function failedProvenance(file: string, options: RecordedOptions, command: string): Provenance {
+  let digest: InputDigest | null = null;
+  try {
+    digest = inputDigest(file);
+  } catch {
+    // Unreadable: the reason says so.
+  }
+  return makeProvenance(command, digest, { analyze: options.analyze, read: options.read });
+}
 
 /**
  * Analyses one file of a batch.
@@ -82,23 +142,20 @@ export { failureReason };
  */
 export async function analyzeFile(job: AnalyzeJob, settings: AnalyzeBatchSettings, figure: () => Promise<CurveFigureRenderer>): Promise<AnalyzeJobResult> {
   const { index, file } = job;
+  const options: RecordedOptions = { analyze: settings.options, read: settings.read };
   try {
-    const { curve, record } = readCurveFile(file, settings.read);
-    // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
-    const { eta, note } = etaForCurve(settings.options.eta, curve);
-    const analysis = analyzeCurve(curve, eta === undefined ? settings.options : { ...settings.options, eta });
-    if (note) analysis.warnings.unshift(note);
-    const result = analysisToJson(analysis, record);
+    const { curve, analysis, json: result } = analyzeCurveFile(file, options);
     let row: SummaryRow | null = null;
     if (settings.outDir !== null && job.outName !== null) {
-      const svg = (await figure())(analysis, { curve });
+      const svg = svgWithProvenance((await figure())(analysis, { curve }), result.provenance!);
       writeTextFile(join(settings.outDir, job.outName + ANALYZE_OUTPUT.jsonExtension), JSON.stringify(result, null, 2) + "\n");
       writeTextFile(join(settings.outDir, job.outName + ANALYZE_OUTPUT.figureExtension), svg);
       row = summaryRow(result);
     }
-    const output = settings.json ? JSON.stringify(result) : formatAnalysisText(result, { color: settings.color });
-    return { index, ok: true, output, row };
+    const output = settings.json ? JSON.stringify(result) : cliOptionNames(formatAnalysisText(result, { color: settings.color }));
+    return { index, ok: true, output, row, warnings: result.warnings, notes: result.notes };
   } catch (err) {
-    return { index, ok: false, error: failureReason(file, err) };
+    const error = cliOptionNames(failureReason(file, err));
+    return { index, ok: false, error, row: failedSummaryRow(file, error, failedProvenance(file, options, "analyze")) };
   }
 }

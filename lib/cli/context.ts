@@ -4,6 +4,8 @@
  * commands in-process with captured output.
  */
 
+import { cliOptionNames } from "./cliOptionNames.ts";
+
 /** An output stream: `process.stdout` or anything with `write` (a test's capture). */
 export interface CliStream {
   write(text: string): unknown;
@@ -40,7 +42,7 @@ export const EXIT = Object.freeze({
 /** Handed to each command: the streams and a slot for its exit code. */
 export interface CliContext extends CliIO {
   exitCode: number;
-  /** Writes one `dotspec: …` line on stderr. */
+  /** Writes one `dotspec: …` line on stderr, with library option names turned into the CLI's. */
   error(message: string): void;
   /** True once stdout's reader has gone (`dotspec … | head`): stop producing output. */
   stdoutGone(): boolean;
@@ -71,7 +73,7 @@ export function makeContext(io: Partial<CliIO> = {}): CliContext {
     env: io.env ?? process.env,
     exitCode: EXIT.ok,
     error(message: string) {
-      stderr.write(`dotspec: ${message}\n`);
+      stderr.write(`dotspec: ${cliOptionNames(message)}\n`);
     },
     stdoutGone: () => gone || stdout.destroyed === true,
   };

@@ -7,6 +7,30 @@ import { DotspecError } from "../util/errors.ts";
 /** A value of a table cell. null is written as an empty cell. */
 export type CellValue = string | number | boolean | null;
 
+/**
+ * Text that a spreadsheet would run as a formula: a cell starting with `=`, `+`, `-`, `@`, a tab
+ * or a carriage return (OWASP, "CSV Injection", https://owasp.org/www-community/attacks/CSV_Injection).
+ */
+const FORMULA_START = /^[=+\-@\t\r]/;
+
+/** A plain decimal number written as text (`-0.5`, `+1e-3`): a number to a spreadsheet, not a formula. */
+const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
+
+/**
+ * Escapes a text cell that a spreadsheet would run as a formula, as the OWASP guidance on CSV
+ * injection advises: a single quote is put in front. Numbers, and text that is a plain decimal
+ * number, are left as they are.
+ *
+ * Example
+ * -------
+ * escapeFormulaCell("=HYPERLINK(\"x\")"); // => "'=HYPERLINK(\"x\")"
+ * escapeFormulaCell("-0.5");              // => "-0.5"
+ */
+export function escapeFormulaCell(value: CellValue): CellValue {
+  if (typeof value !== "string" || !FORMULA_START.test(value) || PLAIN_NUMBER.test(value)) return value;
+  return "'" + value;
+}
+
 /** Significant digits of the numbers written by {@link formatCurveCsv}. */
 export const CURVE_CSV_DIGITS = 10;
 
@@ -27,6 +51,12 @@ export const CURVE_CSV_DIGITS = 10;
  *     double quote or a line end are quoted (d3-dsv's `csvFormat`). Numbers are written in full
  *     (JavaScript's shortest exact form, so they read back to the same double); null as an empty
  *     cell; booleans as `true`/`false`; NaN and ±Infinity as `NaN`, `Infinity`, `-Infinity`.
+ *     Text that a spreadsheet would run as a formula (starting with `=`, `+`, `-`, `@`, tab or
+ *     CR, and not a plain number) gets a leading single quote ({@link escapeFormulaCell}).
+ *
+ * References
+ * ----------
+ * OWASP Foundation, "CSV Injection", https://owasp.org/www-community/attacks/CSV_Injection.
  *
  * Example
  * -------
@@ -37,8 +67,22 @@ export function formatCsv(rows: readonly Record<string, CellValue>[], columns?: 
   if (!Array.isArray(rows)) {
     throw new DotspecError("io/not-rows", `formatCsv: rows must be a list of objects; got ${typeof rows}`);
   }
-  const text = columns ? csvFormat(rows as Record<string, CellValue>[], columns as string[]) : csvFormat(rows as Record<string, CellValue>[]);
+  const safe = rows.map((row) => {
+    const out: Record<string, CellValue> = {};
+    for (const key of Object.keys(row)) out[key] = escapeFormulaCell(row[key]);
+    return out;
+  });
+  const text = columns ? csvFormat(safe, columns as string[]) : csvFormat(safe);
   return text + "\n";
+}
+
+/** Options of {@link formatCurveCsv}. */
+export interface FormatCurveCsvOptions {
+  /**
+   * Metadata written as `# key: value` lines before the header. Keys are letters, digits, `_`
+   * and `-`; line ends in a value become spaces. Default: none.
+   */
+  metadata?: Readonly<Record<string, string | number>>;
 }
 
 /** The arrays {@link formatCurveCsv} writes: a Curve, or any object with these fields. */
@@ -58,11 +102,14 @@ export interface CurveColumns {
  * ----------
  * curve : CurveColumns
  *     `biasV` in V, `currentA` in A, optionally `didvS` in S; equal lengths, finite values.
+ * options : FormatCurveCsvOptions, optional
+ *     `metadata`: `key: value` pairs written first as `# key: value` lines, which the importer
+ *     reads back into the curve's metadata. Default: none.
  *
  * Returns
  * -------
  * string
- *     Header `bias (V),current (A)` (plus `,dI/dV (S)`), then one row per point with each number
+ *     The metadata lines, then the header `bias (V),current (A)` (plus `,dI/dV (S)`), then one row per point with each number
  *     rounded to 10 significant digits and written in its shortest form (`0.001`, `1.234567891e-12`),
  *     and a final `\n`.
  *
@@ -77,7 +124,7 @@ export interface CurveColumns {
  * formatCurveCsv({ biasV: [-0.1, 0.1], currentA: [-2e-12, 2.0000000001234e-12] });
  * // => "bias (V),current (A)\n-0.1,-2e-12\n0.1,2e-12\n"
  */
-export function formatCurveCsv(curve: CurveColumns): string {
+export function formatCurveCsv(curve: CurveColumns, options: FormatCurveCsvOptions = {}): string {
   const { biasV, currentA } = curve;
   const didvS = curve.didvS ?? null;
   const n = biasV.length;
@@ -96,7 +143,14 @@ export function formatCurveCsv(curve: CurveColumns): string {
       }
     }
   }
-  const parts: string[] = [didvS ? "bias (V),current (A),dI/dV (S)" : "bias (V),current (A)"];
+  const parts: string[] = [];
+  for (const [key, value] of Object.entries(options.metadata ?? {})) {
+    if (!/^[A-Za-z][A-Za-z0-9_-]*$/.test(key)) {
+      throw new DotspecError("io/bad-metadata-key", `formatCurveCsv: metadata key ${JSON.stringify(key)} must be letters, digits, _ or - (starting with a letter)`);
+    }
+    parts.push(`# ${key}: ${String(value).replace(/[\r\n]+/g, " ").trim()}`);
+  }
+  parts.push(didvS ? "bias (V),current (A),dI/dV (S)" : "bias (V),current (A)");
   for (let i = 0; i < n; i++) {
     parts.push(didvS ? `${compact(biasV[i])},${compact(currentA[i])},${compact(didvS[i])}` : `${compact(biasV[i])},${compact(currentA[i])}`);
   }

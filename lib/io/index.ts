@@ -35,7 +35,7 @@ export {
   type ReadCurveOptions,
 } from "./readCurveFile.ts";
 export { parseCurveBytes } from "./parseCurveBytes.ts";
-export { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv, type CellValue, type CurveColumns } from "./formatCsv.ts";
+export { CURVE_CSV_DIGITS, escapeFormulaCell, formatCsv, formatCurveCsv, type CellValue, type CurveColumns, type FormatCurveCsvOptions } from "./formatCsv.ts";
 export { writeTextFile } from "./writeTextFile.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";
 export { etaForCurve, type CurveEta } from "./etaForCurve.ts";
@@ -44,3 +44,5 @@ export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./parseSizeM
 export { parseOpticalTable, OPTICAL_PEAK_RANGE_EV, type OpticalTableRow } from "./parseOpticalTable.ts";
 export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./readSizeTables.ts";
 export { sizeFromMetadata, SIZE_METADATA_KEYS, type MetadataSize } from "./sizeFromMetadata.ts";
+export { inputDigest, sha256Hex, type InputDigest } from "./inputDigest.ts";
+export { checkOutputFolder, OUTPUT_MANIFEST_NAME, readOutputManifest, writeOutputManifest, type OutputFolderCheck, type OutputManifest } from "./outputManifest.ts";

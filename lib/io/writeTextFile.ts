@@ -1,12 +1,20 @@
 /**
  * Writing text files (reports, tables, figures) to disk: Node only.
  */
-import { mkdirSync, writeFileSync } from "node:fs";
-import { dirname } from "node:path";
+import { mkdirSync, renameSync, rmSync, writeFileSync } from "node:fs";
+import { basename, dirname, join } from "node:path";
 import { DotspecError } from "../util/errors.ts";
 
 /**
- * Write a text file, creating its folder if needed.
+ * How a temporary file of {@link writeTextFile} is named: `.<name>.<pid>-<n>.dotspec-tmp` beside
+ * the final file. The output-folder check knows the pattern (an interrupted run may leave one).
+ */
+export const TEMP_FILE_PATTERN = /^\..+\.\d+-\d+\.dotspec-tmp$/;
+
+let tempCounter = 0;
+
+/**
+ * Write a text file atomically, creating its folder if needed.
  *
  * Parameters
  * ----------
@@ -20,6 +28,14 @@ import { DotspecError } from "../util/errors.ts";
  * DotspecError
  *     `io/write-failed` naming the path and the reason (permission, a file where a folder should be…).
  *
+ * Notes
+ * -----
+ * 1. The text goes to a temporary name in the same folder (`.<name>.<pid>-<n>.dotspec-tmp`),
+ *    which is then renamed onto `path`. A rename within one file system is atomic (POSIX
+ *    rename(2)), so a reader, or a run interrupted by Ctrl-C, sees the old file or the new one,
+ *    never half of one.
+ * 2. When the write or the rename fails, the temporary file is removed.
+ *
  * Example
  * -------
  * writeTextFile("report/summary.csv", formatCsv(rows));
@@ -31,10 +47,17 @@ export function writeTextFile(path: string, text: string): void {
   if (typeof text !== "string") {
     throw new DotspecError("io/write-failed", `writeTextFile: text must be a string; got ${typeof text}`);
   }
+  const temp = join(dirname(path), `.${basename(path)}.${process.pid}-${tempCounter++}.dotspec-tmp`);
   try {
     mkdirSync(dirname(path), { recursive: true });
-    writeFileSync(path, text, "utf8");
+    writeFileSync(temp, text, "utf8");
+    renameSync(temp, path);
   } catch (err) {
+    try {
+      rmSync(temp, { force: true });
+    } catch {
+      // The folder itself is missing or unusable: no temporary file was made.
+    }
     const reason = err instanceof Error ? err.message : String(err);
     throw new DotspecError("io/write-failed", `${path}: could not be written (${reason}); check the folder exists and is writable`);
   }

@@ -6,6 +6,7 @@ import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { Multiplet, RegimeEvidence, SpectrumEnergies, SpectrumUncertainties } from "../assign/assignSpectrum.ts";
 import type { ImportRecord } from "../io/parse/record.ts";
 import type { PeakRole } from "../assign/peakMultiplets.ts";
+import type { Provenance } from "./provenance.ts";
 
 /** Version of the record layout; bumped when a field changes meaning. */
 export const ANALYSIS_JSON_VERSION = 1;
@@ -89,7 +90,24 @@ export interface AnalysisJson {
     /** The same for a measured conductance, S; null without one. */
     conductanceResolutionS: number | null;
   } | null;
+  /** Things that need attention: a result may be wrong or weak. */
   warnings: string[];
+  /** Routine facts about how the result was made (for example where η came from). */
+  notes: string[];
+  /** The file's own `key: value` metadata lines (dot, radius, setpoint, date, …), keys as written. */
+  metadata: Record<string, string>;
+  /** Tool, version, input (name, size, SHA-256) and the options as given; null when not known. */
+  provenance: Provenance | null;
+}
+
+/** What {@link analysisToJson} records beside the analysis. */
+export interface AnalysisJsonExtras {
+  /** Routine notes (kept apart from the warnings). Default: none. */
+  notes?: readonly string[];
+  /** The file's metadata lines (`ParsedCurve.curve.meta.metadata`). Default: none. */
+  metadata?: Readonly<Record<string, string>>;
+  /** Provenance of the record. Default: null. */
+  provenance?: Provenance | null;
 }
 
 /**
@@ -97,8 +115,9 @@ export interface AnalysisJson {
  *
  * @param analysis - from analyzeCurve.
  * @param importRecord - what the importer reported (optional).
+ * @param extras - notes, the file's metadata and the provenance (optional; see {@link AnalysisJsonExtras}).
  */
-export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRecord): AnalysisJson {
+export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRecord, extras: AnalysisJsonExtras = {}): AnalysisJson {
   const a = analysis.assignment;
   const rec = analysis.conductance.record;
   return {
@@ -160,5 +179,8 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
         }
       : null,
     warnings: [...(importRecord?.warnings ?? []), ...analysis.warnings],
+    notes: [...(extras.notes ?? [])],
+    metadata: { ...(extras.metadata ?? {}) },
+    provenance: extras.provenance ?? null,
   };
 }

@@ -82,7 +82,8 @@ function sig3(x: number): string {
  *     label or "no multiplet"); a multiplet table (band, label, found/expected, sub-groups, peak
  *     positions) and the peaks set aside as charging satellites;
  *     the extracted quantities bias-referred in mV and as energies in meV after η
- *     (`Ec = 142.3 ± 1.8 mV  →  121.0 ± 1.5 meV (η = 0.85)`), and the warnings.
+ *     (`Ec = 142.3 ± 1.8 mV  →  121.0 ± 1.5 meV (η = 0.85)`), the warnings (`! …`) and,
+ *     quietly (faint on a terminal), the notes (`note: …`).
  *
  * Notes
  * -----
@@ -217,6 +218,12 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
     out.push("");
     out.push(`${I}${bold("Warnings")} (${json.warnings.length})`);
     for (const w of json.warnings) out.push(`${I}${I}! ${w}`);
+  }
+  // Notes: routine facts, printed quietly after the warnings.
+  const notes = json.notes ?? [];
+  if (notes.length) {
+    out.push("");
+    for (const n of notes) out.push(faint(`${I}note: ${n}`));
   }
   return out.join("\n") + "\n";
 }

@@ -3,6 +3,7 @@
  * users tabulate per dot, from the JSON record of its analysis.
  */
 import type { AnalysisJson } from "./analysisJson.ts";
+import type { Provenance } from "./provenance.ts";
 
 /**
  * Columns of the summary table, in order. Units are in the names: `_V` bias-referred volts,
@@ -25,12 +26,82 @@ export const SUMMARY_COLUMNS = Object.freeze([
   "dSP_eV",
   "n_peaks",
   "n_warnings",
+  "status",
+  "reason",
+  "n_notes",
+  "tool_version",
+  "input_bytes",
+  "input_sha256",
+  "options",
 ] as const);
 
 export type SummaryColumn = (typeof SUMMARY_COLUMNS)[number];
 
-/** A summary row: text for source and regime, numbers (or null for an empty cell) elsewhere. */
-export type SummaryRow = Record<SummaryColumn, string | number | null>;
+/** Prefix of the columns that carry the file's own metadata lines (`meta_dot`, `meta_radius_nm`, …). */
+export const SUMMARY_METADATA_PREFIX = "meta_";
+
+/**
+ * A summary row: text for source, regime, status and reason, numbers (or null for an empty cell)
+ * elsewhere, plus one `meta_<key>` text cell per metadata line of the file.
+ */
+export type SummaryRow = Record<SummaryColumn, string | number | null> & { [metadata: `meta_${string}`]: string };
+
+/**
+ * The columns of a summary table holding these rows: {@link SUMMARY_COLUMNS}, then every
+ * `meta_<key>` column that some row has, in order of first appearance.
+ *
+ * Example
+ * -------
+ * summaryColumns(rows); // => ["source", "regime", …, "options", "meta_dot", "meta_radius_nm"]
+ */
+export function summaryColumns(rows: readonly SummaryRow[]): string[] {
+  const meta = new Set<string>();
+  for (const row of rows) for (const key of Object.keys(row)) if (key.startsWith(SUMMARY_METADATA_PREFIX)) meta.add(key);
+  return [...SUMMARY_COLUMNS, ...meta];
+}
+
+/** The provenance cells of a row. */
+function provenanceCells(p: Provenance | null | undefined) {
+  return {
+    tool_version: p ? p.version : null,
+    input_bytes: p?.input ? p.input.bytes : null,
+    input_sha256: p?.input ? p.input.sha256 : null,
+    options: p ? JSON.stringify(p.options) : null,
+  };
+}
+
+/** `meta_<key>` cells; a key is reduced to letters, digits and `_`. */
+function metadataCells(metadata: Readonly<Record<string, string>> | undefined): Record<`meta_${string}`, string> {
+  const out: Record<`meta_${string}`, string> = {};
+  for (const [key, value] of Object.entries(metadata ?? {})) {
+    out[`${SUMMARY_METADATA_PREFIX}${key.trim().replace(/[^A-Za-z0-9_]+/g, "_")}`] = value;
+  }
+  return out;
+}
+
+/**
+ * The summary row of an input that failed: its name, status "failed" and the reason; the
+ * quantities are empty.
+ *
+ * Parameters
+ * ----------
+ * source : string
+ *     The input as given.
+ * reason : string
+ *     The one-line reason (as printed after `dotspec: FILE: `).
+ * provenance : Provenance | null, optional
+ *     Version, options and, when the file could be read, its size and SHA-256.
+ *
+ * Example
+ * -------
+ * failedSummaryRow("bad.csv", "line 12: 3 cells, expected 2");
+ * // => { source: "bad.csv", regime: null, …, status: "failed", reason: "line 12: 3 cells, expected 2", … }
+ */
+export function failedSummaryRow(source: string, reason: string, provenance: Provenance | null = null): SummaryRow {
+  const row = {} as Record<string, string | number | null>;
+  for (const c of SUMMARY_COLUMNS) row[c] = null;
+  return { ...(row as SummaryRow), source, status: "failed", reason, ...provenanceCells(provenance) };
+}
 
 /**
  * The summary row of one analysed curve.
@@ -46,11 +117,15 @@ export type SummaryRow = Record<SummaryColumn, string | number | null>;
  *     Keys {@link SUMMARY_COLUMNS}. Bias-referred values and their 1σ in V; energies in eV after
  *     the η in the `eta` column (1 when η was not given, and then the energies equal the bias
  *     values); null where the analysis did not define a value (written as an empty CSV cell).
- *     `Ec` is the charging (addition) energy e²/CΣ, `dSP` the s–p level spacing.
+ *     `Ec` is the charging (addition) energy e²/CΣ, `dSP` the s–p level spacing. `status` is
+ *     "ok" and `reason` empty (see {@link failedSummaryRow}); `tool_version`, `input_bytes`,
+ *     `input_sha256` and `options` (JSON of the options as given) come from the record's
+ *     provenance (empty without one); then one `meta_<key>` cell per metadata line of the file.
  *
  * Example
  * -------
- * formatCsv(jsons.map(summaryRow), SUMMARY_COLUMNS);
+ * const rows = jsons.map(summaryRow);
+ * formatCsv(rows, summaryColumns(rows));
  * // => "source,regime,gap_V,…\ndot-07.csv,shell-filling,1.4994,…\n"
  */
 export function summaryRow(json: AnalysisJson): SummaryRow {
@@ -72,5 +147,10 @@ export function summaryRow(json: AnalysisJson): SummaryRow {
     dSP_eV: e.levelSpacingSPEV,
     n_peaks: json.peaks.length,
     n_warnings: json.warnings.length,
+    status: "ok",
+    reason: null,
+    n_notes: json.notes?.length ?? 0,
+    ...provenanceCells(json.provenance),
+    ...metadataCells(json.metadata),
   };
 }

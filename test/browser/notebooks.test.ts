@@ -400,7 +400,9 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
       (r) => r,
       (err: { stdout: string; stderr: string }) => err,
     );
-    return { stdout: result.stdout, lines: result.stderr.split("\n").filter((l) => l.startsWith("dotspec: ")).map((l) => l.slice("dotspec: ".length)) };
+    // The per-file failure lines only: not the closing count ("N done, N failed, …") nor warnings.
+    const lines = result.stderr.split("\n").filter((l) => l.startsWith("dotspec: ")).map((l) => l.slice("dotspec: ".length));
+    return { stdout: result.stdout, lines: lines.filter((l) => !/^\d+ done, /.test(l) && !/: (warning|note): /.test(l)) };
   }
 
   /** The per-dot table of the size-series page: one record per row, by column heading. */

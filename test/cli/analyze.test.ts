@@ -1,5 +1,6 @@
 // dotspec analyze, run in-process: closed-form peak positions through the whole command, the
 // three output modes, exit codes, per-file failures, and the input files left untouched.
+import { csvParse } from "d3-dsv";
 import { describe, it, expect, beforeAll, afterAll } from "vitest";
 import { existsSync, readFileSync, readdirSync, statSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
@@ -35,7 +36,8 @@ describe("dotspec analyze --json", () => {
   beforeAll(async () => {
     const r = await run(["analyze", filling, tunneling, "--eta", "0.8", "--json"]);
     expect(r.code).toBe(0);
-    expect(r.stderr).toBe("");
+    // With --json the warnings are also on stderr (by construction: lib/cli/commands/analyze.ts), then the count.
+    expect(r.stderr).toMatch(/^(dotspec: \S+: warning: .*\n)*dotspec: 2 done, 0 failed, \d+ warnings?( \(in \d files?\))?\n$/);
     records = parseRecords(r.stdout);
   });
 
@@ -117,7 +119,10 @@ describe("dotspec analyze: failures and exit codes", () => {
     writeFileSync(short, "bias (V),current (A)\n0.1,1e-12\n0.2,2e-12\n");
     const r = await run(["analyze", bad, filling, short, missing, tunneling, "--json"]);
     expect(r.code).toBe(1);
-    const lines = r.stderr.trimEnd().split("\n");
+    // Warnings (`dotspec: FILE: warning: …`) and the closing count line aside.
+    const all = r.stderr.trimEnd().split("\n");
+    expect(all.at(-1)).toMatch(new RegExp(`^dotspec: 2 done, 3 failed, ${all.filter((l) => /: warning: /.test(l)).length} warnings`));
+    const lines = all.slice(0, -1).filter((l) => !/: warning: /.test(l));
     expect(lines).toHaveLength(3);
     expect(lines[0]).toMatch(/^dotspec: .*missing\.csv: no such file/);
     expect(lines[1]).toMatch(new RegExp(`^dotspec: ${bad.replace(/[.*+?^${}()|[\]\\]/g, "\\$&")}: \\S`));
@@ -139,7 +144,7 @@ describe("dotspec analyze: failures and exit codes", () => {
   });
 
   it.each([
-    [["analyze"], /missing required argument 'FILE'/],
+    [["analyze"], /missing FILE/],
     [["analyze", "x.csv", "--bogus"], /unknown option '--bogus'/],
     [["analyze", "x.csv", "--eta", "abc"], /--eta.*'abc'.*greater than 0 and at most 1/],
     [["analyze", "x.csv", "--eta", "1.5"], /--eta.*'1\.5'.*greater than 0 and at most 1/],
@@ -177,7 +182,7 @@ describe("dotspec analyze --out DIR", () => {
     const out = join(tempDir(), "nested", "report");
     const r = await run(["analyze", filling, tunneling, "--eta", "0.8", "--out", out]);
     expect(r.code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(["filling.json", "filling.svg", "summary.csv", "tunneling.json", "tunneling.svg"]);
+    expect(readdirSync(out).sort()).toEqual([".dotspec-manifest.json", "filling.json", "filling.svg", "summary.csv", "tunneling.json", "tunneling.svg"]);
 
     const j = JSON.parse(readFileSync(join(out, "filling.json"), "utf8")) as AnalysisJson;
     expect(j.source).toBe(filling);
@@ -223,17 +228,19 @@ describe("dotspec analyze --out DIR", () => {
     writeCurve(join(b, "dot.csv"), TUNNELING);
     const out = join(tempDir(), "out");
     expect((await run(["analyze", join(a, "dot.csv"), join(b, "dot.csv"), "--out", out, "--json"])).code).toBe(0);
-    expect(readdirSync(out).sort()).toEqual(["dot-2.json", "dot-2.svg", "dot.json", "dot.svg", "summary.csv"]);
+    expect(readdirSync(out).sort()).toEqual([".dotspec-manifest.json", "dot-2.json", "dot-2.svg", "dot.json", "dot.svg", "summary.csv"]);
   });
 
-  it("a file that fails is left out of summary.csv and gets no outputs", async () => {
+  it("a file that fails gets no outputs, and a row in summary.csv with status failed and the reason", async () => {
     const folder = tempDir();
     writeFileSync(join(folder, "bad.csv"), "no numbers\n");
     const out = join(tempDir(), "out");
     const r = await run(["analyze", join(folder, "bad.csv"), filling, "--out", out]);
     expect(r.code).toBe(1);
-    expect(readdirSync(out).sort()).toEqual(["filling.json", "filling.svg", "summary.csv"]);
-    expect(readFileSync(join(out, "summary.csv"), "utf8").trimEnd().split("\n")).toHaveLength(2);
+    expect(readdirSync(out).sort()).toEqual([".dotspec-manifest.json", "filling.json", "filling.svg", "summary.csv"]);
+    const rows = csvParse(readFileSync(join(out, "summary.csv"), "utf8"));
+    expect(rows.map((row) => [row.source, row.status])).toEqual([[join(folder, "bad.csv"), "failed"], [filling, "ok"]]);
+    expect(r.stderr).toContain(`dotspec: ${join(folder, "bad.csv")}: ${rows[0].reason}`);
   });
 
   it("exit 1 when DIR cannot be created (a file is in the way)", async () => {
@@ -275,13 +282,15 @@ describe("dotspec analyze: progress bar", () => {
 
   it("is not drawn over the readable report on a terminal (the report shows the progress)", async () => {
     const r = await run(["analyze", folder], { stderrTTY: true, stdoutTTY: true });
-    expect(r.stderr).toBe("");
+    expect(r.stderr).toMatch(/^dotspec: 6 done, 0 failed, 6 warnings \(in 6 files\)\n$/);
   });
 
   it("is not drawn when stderr is not a terminal, or for 5 files or fewer", async () => {
-    expect((await run(["analyze", folder, "--json"])).stderr).toBe("");
+    // Only the warnings (η not given) and the count line: no bar.
+    const noBar = /^(dotspec: \S+: warning: .*\n)*dotspec: \d done, 0 failed, .*\n$/;
+    expect((await run(["analyze", folder, "--json"])).stderr).toMatch(noBar);
     const five = [0, 1, 2, 3, 4].map((k) => join(folder, `dot-${k}.csv`));
-    expect((await run(["analyze", ...five, "--json"], { stderrTTY: true })).stderr).toBe("");
+    expect((await run(["analyze", ...five, "--json"], { stderrTTY: true })).stderr).toMatch(noBar);
   });
 });
 

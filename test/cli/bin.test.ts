@@ -33,10 +33,10 @@ describe("node bin/dotspec.js", () => {
     const sim = await dotspec(["simulate", "--config", "dot.json", "--out", "curves/dot.csv", "--method", "fast"], dir);
     expect(sim.code).toBe(0);
     expect(sim.stdout).toBe("");
-    expect(readFileSync(join(dir, "curves/dot.csv"), "utf8").split("\n")[0]).toBe("bias (V),current (A)");
+    expect(readFileSync(join(dir, "curves/dot.csv"), "utf8").split("\n").find((l) => !l.startsWith("# "))).toBe("bias (V),current (A)");
 
     const r = await dotspec(["analyze", "curves", "--eta", "0.8", "--json"], dir);
-    expect(r.stderr).toBe("");
+    expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
     expect(r.code).toBe(0);
     const [j] = JSON.parse(r.stdout) as AnalysisJson[];
     expect(j.source).toBe(join("curves", "dot.csv"));
@@ -60,7 +60,7 @@ describe("node bin/dotspec.js", () => {
     expect(usage.stderr).toMatch(/--eta/);
     const failed = await dotspec(["analyze", "missing.csv"], dir);
     expect(failed.code).toBe(1);
-    expect(failed.stderr).toBe("dotspec: missing.csv: no such file or folder (from " + dir + "); check the path\n");
+    expect(failed.stderr).toBe("dotspec: missing.csv: no such file or folder (from " + dir + "); check the path\ndotspec: 0 done, 1 failed, 0 warnings\n");
   });
 
   it("stops quietly when the reader of stdout goes away (`dotspec analyze … | head`)", async () => {

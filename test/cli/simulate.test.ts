@@ -16,13 +16,13 @@ function scenarioFile(scenario: unknown, name = "scenario.json"): string {
 }
 
 describe("dotspec simulate --config SCENARIO.json --out CURVE.csv", () => {
-  it("writes bias and current with the header `bias (V),current (A)`, one row per bias point; stdout stays empty", async () => {
+  it("writes bias and current with the header `bias (V),current (A)` after the `# key: value` metadata lines, one row per bias point; stdout stays empty", async () => {
     const config = scenarioFile(FILLING);
     const out = join(tempDir(), "curve.csv");
     const r = await run(["simulate", "--config", config, "--out", out, "--method", "fast"]);
     expect(r.code).toBe(0);
     expect(r.stdout).toBe("");
-    const lines = readFileSync(out, "utf8").trimEnd().split("\n");
+    const lines = readFileSync(out, "utf8").trimEnd().split("\n").filter((l) => !l.startsWith("# "));
     expect(lines[0]).toBe("bias (V),current (A)");
     // Points of the sweep: (toV − fromV)/stepV + 1 = 2.8/0.002 + 1 = 1401 (closed form).
     expect(lines).toHaveLength(1 + 1401);
@@ -41,7 +41,7 @@ describe("dotspec simulate --config SCENARIO.json --out CURVE.csv", () => {
   it("--dIdV adds the column `dI/dV (S)`", async () => {
     const out = join(tempDir(), "curve.csv");
     expect((await run(["simulate", "--config", scenarioFile(FILLING), "--out", out, "--dIdV", "--method", "fast"])).code).toBe(0);
-    const lines = readFileSync(out, "utf8").split("\n");
+    const lines = readFileSync(out, "utf8").split("\n").filter((l) => !l.startsWith("# "));
     expect(lines[0]).toBe("bias (V),current (A),dI/dV (S)");
     expect(lines[1].split(",")).toHaveLength(3);
   });

@@ -6,7 +6,7 @@ import { describe, expect, it } from "vitest";
 import fc from "fast-check";
 import { csvParse, csvParseRows } from "d3-dsv";
 import { expectClose } from "../helpers/expectClose.ts";
-import { CURVE_CSV_DIGITS, formatCsv, formatCurveCsv } from "../../lib/io/formatCsv.ts";
+import { CURVE_CSV_DIGITS, escapeFormulaCell, formatCsv, formatCurveCsv } from "../../lib/io/formatCsv.ts";
 import { parseCurveText } from "../../lib/io/parse/index.ts";
 import { errorOf } from "../helpers/errors.ts";
 
@@ -93,5 +93,34 @@ describe("formatCurveCsv", () => {
     const b = errorOf(() => formatCurveCsv({ biasV: [0, 1], currentA: [0, NaN] }));
     expect(b.code).toBe("io/not-finite");
     expect(b.message).toContain("currentA[1]");
+  });
+});
+
+describe("formatCsv: formula escaping (OWASP Foundation, \"CSV Injection\", https://owasp.org/www-community/attacks/CSV_Injection)", () => {
+  it("formatCsv(rows) puts a single quote before text starting with = + - @ tab or CR, which csvParse reads back with the quote", () => {
+    const text = formatCsv([{ a: "=1+1", b: "+x", c: "-x", d: "@x", e: "\tx", f: "\rx", g: "ok" }]);
+    expect(csvParse(text)[0]).toEqual({ a: "'=1+1", b: "'+x", c: "'-x", d: "'@x", e: "'\tx", f: "'\rx", g: "ok" });
+  });
+
+  it("escapeFormulaCell(text) of any text never starts with a formula character (property)", () => {
+    fc.assert(
+      fc.property(fc.string(), (t) => {
+        const out = escapeFormulaCell(t) as string;
+        return !/^[=+\-@\t\r]/.test(out) || /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/.test(out);
+      }),
+      { numRuns: 500 },
+    );
+  });
+});
+
+describe("formatCurveCsv(curve, { metadata })", () => {
+  it("writes `# key: value` lines first, which parseCurveText reads back into the curve's metadata", () => {
+    const text = formatCurveCsv({ biasV: [-0.2, -0.1, 0, 0.1, 0.2, 0.3], currentA: [-2e-12, -1e-12, 0, 1e-12, 2e-12, 3e-12] }, { metadata: { eta: 0.8, description: "two\nlines" } });
+    expect(text.split("\n").slice(0, 3)).toEqual(["# eta: 0.8", "# description: two lines", "bias (V),current (A)"]);
+    expect(parseCurveText(text).curve.meta.metadata).toEqual({ eta: "0.8", description: "two lines" });
+  });
+
+  it("refuses a key that would not read back as one (io/bad-metadata-key)", () => {
+    expect(errorOf(() => formatCurveCsv({ biasV: [0], currentA: [0] }, { metadata: { "a: b": 1 } })).code).toBe("io/bad-metadata-key");
   });
 });

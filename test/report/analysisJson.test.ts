@@ -46,3 +46,25 @@ describe("analysisToJson(analysis): peaks and multiplets linked by index", () =>
     expect(JSON.parse(JSON.stringify(json))).toEqual(json);
   });
 });
+
+describe("analysisToJson(analysis, record, extras): notes, metadata and provenance (new fields only)", () => {
+  it("without extras: no notes, empty metadata, provenance null", () => {
+    expect(json.notes).toEqual([]);
+    expect(json.metadata).toEqual({});
+    expect(json.provenance).toBeNull();
+  });
+
+  it("with extras: copies of the notes and metadata (not the caller's objects) and the provenance as given", () => {
+    const notes = ["η = 0.8 taken from the file's metadata (\"eta\")"];
+    const metadata = { dot: "D1", eta: "0.8" };
+    const provenance = { tool: "dotspec" as const, version: "0.1.0", command: "analyze", input: null, options: {} };
+    const j = analysisToJson(analysis, undefined, { notes, metadata, provenance });
+    expect(j.notes).toEqual(notes);
+    expect(j.notes).not.toBe(notes);
+    expect(j.metadata).toEqual(metadata);
+    expect(j.metadata).not.toBe(metadata);
+    expect(j.provenance).toBe(provenance);
+    // The notes are not warnings (by construction: two lists).
+    expect(j.warnings).toEqual(json.warnings);
+  });
+});

@@ -14,6 +14,7 @@ describe("summaryRow(json)", () => {
     expect([...SUMMARY_COLUMNS]).toEqual([
       "source", "regime", "gap_V", "gap_sigma_V", "Ec_V", "Ec_sigma_V", "single_particle_gap_V", "dSP_V", "dSP_sigma_V",
       "eta", "gap_eV", "Ec_eV", "single_particle_gap_eV", "dSP_eV", "n_peaks", "n_warnings",
+      "status", "reason", "n_notes", "tool_version", "input_bytes", "input_sha256", "options",
     ]);
     expect(Object.keys(row)).toEqual([...SUMMARY_COLUMNS]);
   });

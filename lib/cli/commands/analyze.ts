@@ -7,14 +7,19 @@ import type { Command } from "commander";
 import {
   CONDUCTANCE_DEFAULTS,
   CURVE_FILE_EXTENSIONS,
+  failedSummaryRow,
   FIND_PEAKS_DEFAULTS,
   formatCsv,
   listCurveFiles,
-  SUMMARY_COLUMNS,
+  summaryColumns,
   writeTextFile,
   type AnalyzeOptions,
   type SummaryRow,
 } from "../../index.ts";
+import { cliOptionNames } from "../cliOptionNames.ts";
+import { batchCount } from "../batchCount.ts";
+import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
+import { runReplay } from "../replay.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
@@ -32,6 +37,8 @@ export interface AnalyzeCliOptions extends CurveCliOptions {
   json?: boolean;
   out?: string;
   jobs?: number;
+  force?: boolean;
+  replay?: string;
 }
 
 const HELP_AFTER = `
@@ -44,17 +51,27 @@ are analysed (not its sub-folders). Input files are only read, never written.
 
 Output:
   default       a readable report per file on stdout
-  --json        one JSON array on stdout, one record per file that succeeded
-  --out DIR     DIR/<name>.json and DIR/<name>.svg per file and DIR/summary.csv
-                (DIR is created if missing and must not be the folder of an input file)
+  --json        one JSON array on stdout, one record per file that succeeded (warnings also
+                on stderr, one "dotspec: FILE: warning: …" line each)
+  --out DIR     DIR/<name>.json and DIR/<name>.svg per file and DIR/summary.csv (one row per
+                input, failed ones with status "failed" and the reason); DIR is created if
+                missing, must not be the folder of an input file, and may hold only files
+                dotspec wrote (listed in DIR/.dotspec-manifest.json) unless --force is given
+  --replay R    re-run the analysis recorded in R (a JSON record or array of records) on the
+                recorded file with the recorded options, and say whether the numbers match
 
-Exit status: 0 every file analysed, 1 some file failed (one "dotspec: FILE: reason" line each on
-stderr; the other files are still analysed), 2 usage error.
+Every file is written under a temporary name and renamed into place, so an interrupted run
+leaves no half-written file. The run ends with one line on stderr: done, failed, warnings.
+
+Exit status: 0 every file analysed (--replay: the numbers match), 1 some file failed (one
+"dotspec: FILE: reason" line each on stderr; the other files are still analysed; --replay: the
+numbers differ or the file changed), 2 usage error.
 
 Examples:
   dotspec analyze dot-07.csv --eta 0.85
   dotspec analyze data/ --eta 0.85 --out report
   dotspec analyze data/*.csv --json > results.json
+  dotspec analyze --replay report/dot-07.json
 `;
 
 export const analyzeCommand: CliCommand = {
@@ -64,7 +81,7 @@ export const analyzeCommand: CliCommand = {
       .command("analyze")
       .summary("find, assign and measure the peaks of I–V curves")
       .description("Analyse I–V curves of single quantum dots: dI/dV, peaks, shells, gap, charging energy and level spacings.")
-      .argument("<FILE...>", "curve files or folders of curve files")
+      .argument("[FILE...]", "curve files or folders of curve files")
       .option(
         "--eta <η>",
         "voltage-division factor η in (0, 1] that converts bias to energy (default: the file's `# eta:` metadata line, else 1: energies then equal bias values)",
@@ -94,8 +111,16 @@ export const analyzeCommand: CliCommand = {
         "analyse on this many worker threads, 1 to 64 (default: 1, this thread); worth it for large batches on idle cores",
         numberOption({ min: 1, max: 64, integer: true, accepted: "a whole number of threads from 1 to 64" }),
       )
+      .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
+      .option("--replay <RECORD.json>", "re-run a recorded analysis on its file with its options and compare the numbers")
       .addHelpText("after", HELP_AFTER)
       .action(async (files: string[], opts: AnalyzeCliOptions) => {
+        if (opts.replay !== undefined) {
+          if (files.length) throw new UsageError("--replay takes no FILE: the record names its file");
+          ctx.exitCode = await runReplay(opts.replay, ctx);
+          return;
+        }
+        if (!files.length) throw new UsageError("missing FILE: give curve files or folders (or --replay RECORD.json)");
         ctx.exitCode = await runAnalyze(files, opts, ctx);
       });
   },
@@ -133,7 +158,8 @@ function outputNames(files: readonly string[]): string[] {
  * Throws
  * ------
  * UsageError
- *     When --out is the folder of an input file (or an input file itself).
+ *     When --out is the folder of an input file (or an input file itself), or holds files dotspec
+ *     did not write (or that changed since) and --force is not given.
  *
  * Notes
  * -----
@@ -149,24 +175,31 @@ function outputNames(files: readonly string[]): string[] {
  * 4. Observable Plot and jsdom are loaded only with --out, at the first figure.
  * 5. With --json the array is printed at the end; the readable report is printed file by file,
  *    and the batch stops early when nobody reads stdout any more.
+ * 6. With --out, the folder's manifest lists the files this run writes before any is written
+ *    and their SHA-256 after (lib/cli/outputFolder.ts); each file is written under a temporary
+ *    name and renamed. summary.csv has one row per input, failed ones with status and reason.
+ * 7. The run ends with `batchCount` on stderr.
  */
 export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOptions, ctx: CliContext): Promise<number> {
   let failed = 0;
   const files: string[] = [];
   const seen = new Set<string>();
+  // Every input gets a row in summary.csv, also one that could not be listed.
+  const rows: SummaryRow[] = [];
+  const failInput = (input: string, reason: string) => {
+    ctx.error(`${input}: ${reason}`);
+    rows.push(failedSummaryRow(input, cliOptionNames(reason)));
+    failed++;
+  };
   for (const input of inputs) {
     let list: string[];
     try {
       list = listCurveFiles([input]);
     } catch (err) {
-      ctx.error(`${input}: ${failureReason(input, err)}`);
-      failed++;
+      failInput(input, failureReason(input, err));
       continue;
     }
-    if (list.length === 0) {
-      ctx.error(`${input}: no curve files (${CURVE_FILE_EXTENSIONS.join(", ")}) in this folder`);
-      failed++;
-    }
+    if (list.length === 0) failInput(input, `no curve files (${CURVE_FILE_EXTENSIONS.join(", ")}) in this folder`);
     for (const f of list) {
       const key = resolve(f);
       if (!seen.has(key)) {
@@ -186,6 +219,10 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
       }
     }
   }
+  const names = outDir !== undefined ? outputNames(files) : null;
+  const planned = names ? [...names.flatMap((n) => [n + ANALYZE_OUTPUT.jsonExtension, n + ANALYZE_OUTPUT.figureExtension]), ANALYZE_OUTPUT.summary] : [];
+  // Refuses a folder holding files dotspec did not write (unless --force); lists what this run writes.
+  if (outDir !== undefined) claimOutputFolder(outDir, planned, opts.force === true);
 
   const analyzeOptions: AnalyzeOptions = {};
   if (opts.eta !== undefined) analyzeOptions.eta = opts.eta;
@@ -202,23 +239,30 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
     color: ctx.stdout.isTTY === true && !ctx.env.NO_COLOR && !json,
     outDir: outDir ?? null,
   };
-  const names = outDir !== undefined ? outputNames(files) : null;
   const jobs: AnalyzeJob[] = files.map((file, index) => ({ index, file, outName: names ? names[index] : null }));
 
   // Text to a terminal shows its own progress; a bar would interleave with it.
   const progress = startProgress(json || ctx.stdout.isTTY !== true ? files.length : 0, ctx.stderr, "analyze");
   const records: string[] = [];
-  const rows: SummaryRow[] = [];
   let printed = 0;
+  let done = 0;
+  let warnings = 0;
+  let warned = 0;
   // Results may arrive out of order from worker threads; they are printed in the batch's order.
   const pending = new Map<number, AnalyzeJobResult>();
   let next = 0;
   const emit = (r: AnalyzeJobResult) => {
     if (!r.ok) {
       progress.log(`dotspec: ${files[r.index]}: ${r.error}\n`);
+      rows.push(r.row ?? failedSummaryRow(files[r.index], r.error));
       failed++;
       return;
     }
+    done++;
+    warnings += r.warnings.length;
+    if (r.warnings.length) warned++;
+    // The readable report shows the warnings; JSON on stdout is for programs, so people see them here.
+    if (json) for (const w of r.warnings) progress.log(`dotspec: ${files[r.index]}: warning: ${cliOptionNames(w)}\n`);
     if (r.row) rows.push(r.row);
     if (json) records.push(r.output);
     else ctx.stdout.write((printed++ ? "\n" : "") + r.output);
@@ -244,11 +288,14 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
   if (outDir !== undefined) {
     const path = join(outDir, ANALYZE_OUTPUT.summary);
     try {
-      writeTextFile(path, formatCsv(rows, SUMMARY_COLUMNS));
+      writeTextFile(path, formatCsv(rows, summaryColumns(rows)));
+      sealOutputFolder(outDir, planned);
     } catch (err) {
       ctx.error(failureReason("", err));
       failed++;
     }
   }
+  // Stopped early because nobody reads the output any more (`… | head`): stop quietly.
+  if (!ctx.stdoutGone()) ctx.stderr.write(batchCount(done, failed, warnings, warned));
   return failed ? EXIT.failed : EXIT.ok;
 }

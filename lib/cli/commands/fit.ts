@@ -22,6 +22,7 @@ import { failureReason } from "../analyzeFile.ts";
 import { EXIT, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { addUnitOptions, etaForCurve, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
+import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec fit` as commander hands them over. */
@@ -31,6 +32,7 @@ export interface FitCliOptions extends CurveCliOptions {
   timeLimitMs?: number;
   maxIterations?: number;
   compareModels?: boolean;
+  force?: boolean;
 }
 
 const HELP_AFTER = `
@@ -69,6 +71,7 @@ export const fitCommand: CliCommand = {
     addUnitOptions(command)
       .option("--json", "print one JSON array, one record per file")
       .option("--out <DIR>", "write DIR/<name>.fit.json and DIR/<name>.fit.svg (curve, fitted model, residuals) per file")
+      .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
       .option(
         "--time-limit-ms <ms>",
         `stop each fit after this long (default: ${FIT_DEFAULTS.timeLimitMs})`,
@@ -105,6 +108,9 @@ export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContex
   }
   const records: FitJson[] = [];
   let figure: ModelFigureRenderer | null = null;
+  // The output folder may hold only dotspec's own files (its manifest), unless --force.
+  const planned = files.flatMap((file) => [".fit.json", ".fit.svg"].map((ext) => basename(file, extname(file)) + ext));
+  if (opts.out) claimOutputFolder(opts.out, planned, opts.force === true);
   for (const file of files) {
     try {
       const { curve, record } = readCurveFile(file, readOptions(opts));
@@ -132,5 +138,6 @@ export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContex
     }
   }
   if (opts.json && !ctx.stdoutGone()) ctx.stdout.write(JSON.stringify(records) + "\n");
+  if (opts.out) sealOutputFolder(opts.out, planned);
   return failed ? EXIT.failed : EXIT.ok;
 }

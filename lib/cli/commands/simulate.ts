@@ -4,7 +4,7 @@
  */
 import { resolve } from "node:path";
 import { Option, type Command } from "commander";
-import { formatCurveCsv, isDotspecError, parseScenario, simulateCurve, SIMULATE_DEFAULTS, writeTextFile } from "../../index.ts";
+import { DOTSPEC_VERSION, formatCurveCsv, inputDigest, isDotspecError, parseScenario, simulateCurve, SIMULATE_DEFAULTS, writeTextFile } from "../../index.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { readJsonFile } from "../../index.ts";
 import type { CliCommand } from "./command.ts";
@@ -21,7 +21,11 @@ const HELP_AFTER = `
 The scenario is a JSON object: the dot's levels (cb, vb: [{energyEV, degeneracy}]), chargingEnergyEV,
 eta, tipRatePerS, substrateRatePerS, temperatureK, bias {fromV, toV, stepV}, and optionally
 broadeningEV, relaxationRatePerS, lockInVrms, noise {relative, seed}, description.
-The same seed gives the same noise.
+The same seed gives the same noise; noise comes from the seed only (default seed 1).
+
+The CSV starts with "# key: value" metadata lines that dotspec analyze reads back: eta (so the
+analysis of the curve uses the scenario's η), description, the noise and its seed, and where it
+came from (dotspec version, method, the scenario file's name and SHA-256).
 
 Exit status: 0 written, 1 the scenario file could not be read or the CSV not written,
 2 usage error (including an invalid scenario: the message names the key).
@@ -54,6 +58,25 @@ export const simulateCommand: CliCommand = {
 
 function sig(x: number): string {
   return Number(x.toPrecision(3)).toString();
+}
+
+/**
+ * The metadata lines of a simulated curve: η (read back by `analyze`), the description, the
+ * noise and its seed, and the provenance (version, method, scenario file and its SHA-256).
+ */
+function simulationMetadata(input: unknown, scenario: ReturnType<typeof parseScenario>, opts: SimulateCliOptions): Record<string, string | number> {
+  const meta: Record<string, string | number> = { eta: scenario.eta };
+  const description = (input as { description?: unknown }).description;
+  if (typeof description === "string" && description.trim() !== "") meta.description = description;
+  meta.simulated = `dotspec ${DOTSPEC_VERSION} simulate, ${opts.method} method`;
+  if (scenario.noise && scenario.noise.relative > 0) {
+    meta.noise_relative = scenario.noise.relative;
+    meta.noise_seed = scenario.noise.seed ?? 1;
+  } else meta.noise_relative = 0;
+  const digest = inputDigest(opts.config);
+  meta.scenario = digest.name;
+  meta.scenario_sha256 = digest.sha256;
+  return meta;
 }
 
 /**
@@ -90,8 +113,9 @@ export function runSimulate(opts: SimulateCliOptions, ctx: CliContext): number {
     return EXIT.usage;
   }
   const sim = simulateCurve(scenario, { method: opts.method, conductance: opts.dIdV === true });
+  const metadata = simulationMetadata(input, scenario, opts);
   try {
-    writeTextFile(opts.out, formatCurveCsv({ biasV: sim.biasV, currentA: sim.currentA, didvS: opts.dIdV ? sim.didvS : null }));
+    writeTextFile(opts.out, formatCurveCsv({ biasV: sim.biasV, currentA: sim.currentA, didvS: opts.dIdV ? sim.didvS : null }, { metadata }));
   } catch (err) {
     if (!isDotspecError(err)) throw err;
     ctx.error(err.message);

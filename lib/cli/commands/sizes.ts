@@ -11,8 +11,13 @@ import {
   SIZE_BINS_DEFAULTS,
   SIZE_FIGURE_FILES,
   SIZE_TABLE_FILES,
-  SUMMARY_COLUMNS,
+  failedSummaryRow,
   formatCsv,
+  inputDigest,
+  makeProvenance,
+  summaryColumns,
+  svgWithProvenance,
+  tableWithProvenance,
   formatSizeSeriesText,
   isDotspecError,
   listCurveFiles,
@@ -38,7 +43,10 @@ import {
   type SeriesFile,
   type SeriesTableRow,
   type SizeFigureName,
+  type SummaryRow,
 } from "../../index.ts";
+import { batchCount } from "../batchCount.ts";
+import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
@@ -62,6 +70,7 @@ export interface SizesCliOptions extends CurveCliOptions {
   json?: boolean;
   out?: string;
   jobs?: number;
+  force?: boolean;
 }
 
 /** Names inside the --out folder. */
@@ -91,10 +100,13 @@ Output:
                 model fits and the optical pairing
   --json        one JSON object { dots, unassigned, bins, fits, optical, … } on stdout
   --out DIR     DIR/sizes.json, DIR/sizes-{curves,dots,bins,fits}.csv, DIR/sizes-*.svg figures,
-                and DIR/curves/<name>.json, <name>.svg and summary.csv (as analyze --out writes them)
+                and DIR/curves/<name>.json, <name>.svg and summary.csv (as analyze --out writes them);
+                DIR may hold only files dotspec wrote (listed in DIR/.dotspec-manifest.json) unless
+                --force is given; every file is written under a temporary name and renamed
 
 Exit status: 0 every curve analysed, 1 some curve or table failed (one "dotspec: …" line each on
-stderr; the rest is still reported), 2 usage error.
+stderr; the rest is still reported), 2 usage error. The run ends with one line on stderr: done,
+failed, warnings.
 
 Examples:
   dotspec sizes series/ --material InP
@@ -155,6 +167,7 @@ export const sizesCommand: CliCommand = {
     addUnitOptions(command)
       .option("--json", "print one JSON object of the series on stdout instead of the summary")
       .option("--out <DIR>", "write the series report (tables, figures, sizes.json) and the per-curve records to DIR")
+      .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
       .option(
         "--jobs <n>",
         "analyse on this many worker threads, 1 to 64 (default: 1, this thread)",
@@ -341,6 +354,17 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
   if (opts.minStepSigma !== undefined) analyzeOptions.minStepSigma = opts.minStepSigma;
   if (opts.useMeasured) analyzeOptions.useMeasured = true;
   const names = curvesDir !== null ? outputNames(planned.map((p) => p.file)) : null;
+  // The files this run writes, relative to --out: refused when the folder holds others' files (unless --force).
+  const plannedOutputs = names
+    ? [
+        SIZES_OUTPUT.json,
+        ...Object.values(SIZE_TABLE_FILES),
+        ...Object.values(SIZE_FIGURE_FILES),
+        `${SIZES_OUTPUT.curveRecords}/${ANALYZE_OUTPUT.summary}`,
+        ...names.flatMap((n) => [`${SIZES_OUTPUT.curveRecords}/${n}${ANALYZE_OUTPUT.jsonExtension}`, `${SIZES_OUTPUT.curveRecords}/${n}${ANALYZE_OUTPUT.figureExtension}`]),
+      ]
+    : [];
+  if (outDir !== undefined) claimOutputFolder(outDir, plannedOutputs, opts.force === true);
   const groups = new Map<number | undefined, AnalyzeJob[]>();
   planned.forEach((p, index) => {
     const list = groups.get(p.eta) ?? [];
@@ -366,6 +390,9 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
   progress.stop();
 
   const curves: SeriesCurveInput[] = [];
+  let done = 0;
+  let warnings = 0;
+  let warned = 0;
   planned.forEach((p, i) => {
     const r = results[i];
     if (!r || !r.ok) {
@@ -373,6 +400,9 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
       failed++;
       return;
     }
+    done++;
+    warnings += r.warnings.length;
+    if (r.warnings.length) warned++;
     const values = JSON.parse(r.output) as AnalysisJson;
     curves.push({
       file: p.file,
@@ -390,7 +420,7 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
     ctx.error(failureReason("", err));
     return EXIT.failed;
   }
-  const record = sizeSeriesToJson(series);
+  const record = { ...sizeSeriesToJson(series), provenance: seriesProvenance(opts, analyzeOptions) };
   // Nobody reads stdout any more (`dotspec sizes … | head`): skip it, still write the report.
   if (!ctx.stdoutGone()) ctx.stdout.write(opts.json ? JSON.stringify(record, null, 2) + "\n" : formatSizeSeriesText(record));
 
@@ -398,20 +428,52 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
     try {
       writeTextFile(join(outDir, SIZES_OUTPUT.json), JSON.stringify(record, null, 2) + "\n");
       // The per-curve summary, as `analyze --out` writes it, beside the per-curve records.
-      const rows = results.flatMap((r) => (r && r.ok && r.row ? [r.row] : []));
-      writeTextFile(join(curvesDir!, ANALYZE_OUTPUT.summary), formatCsv(rows, SUMMARY_COLUMNS));
+      // One row per curve, failed ones with status and reason.
+      const rows: SummaryRow[] = planned.map((p, i) => {
+        const r = results[i];
+        if (r && r.ok && r.row) return r.row;
+        return r?.row ?? failedSummaryRow(p.file, r && !r.ok ? r.error : "not analysed");
+      });
+      writeTextFile(join(curvesDir!, ANALYZE_OUTPUT.summary), formatCsv(rows, summaryColumns(rows)));
       const t = sizeSeriesTables(record, curves);
+      // Each row carries the version and options; the per-curve table also each file's size and SHA-256.
+      const inputs = new Map(curves.map((c) => [c.file, (c.values as { provenance?: AnalysisJson["provenance"] }).provenance?.input ?? null]));
       for (const key of ["curves", "dots", "bins", "fits"] as const) {
-        writeTextFile(join(outDir, SIZE_TABLE_FILES[key]), formatCsv(t[key].rows, t[key].columns));
+        const table = tableWithProvenance(t[key], record.provenance, key === "curves" ? (row) => inputs.get(String(row.file)) ?? null : undefined);
+        writeTextFile(join(outDir, SIZE_TABLE_FILES[key]), formatCsv(table.rows, table.columns));
       }
       const draw = await loadSizeFigures();
       const figures = draw(series);
-      for (const [name, svg] of Object.entries(figures) as [SizeFigureName, string][]) writeTextFile(join(outDir, SIZE_FIGURE_FILES[name]), svg);
+      for (const [name, svg] of Object.entries(figures) as [SizeFigureName, string][]) writeTextFile(join(outDir, SIZE_FIGURE_FILES[name]), svgWithProvenance(svg, record.provenance));
+      sealOutputFolder(outDir, plannedOutputs);
       if (!opts.json) ctx.stderr.write(`dotspec: size-series report written to ${relative(process.cwd(), resolve(outDir)) || "."}\n`);
     } catch (err) {
       ctx.error(failureReason("", err));
       failed++;
     }
   }
+  ctx.stderr.write(batchCount(done, failed, warnings, warned));
   return failed ? EXIT.failed : EXIT.ok;
+}
+
+/**
+ * The provenance of a size series: the options as given, and the name, size and SHA-256 of the
+ * tables (the curves' own are in their records).
+ */
+function seriesProvenance(opts: SizesCliOptions, analyzeOptions: AnalyzeOptions) {
+  const tables: Record<string, unknown> = {};
+  for (const [key, path] of [["meta", opts.meta], ["optical", opts.optical], ["materialFile", opts.materialFile]] as const) {
+    if (path === undefined) continue;
+    try {
+      tables[key] = inputDigest(path);
+    } catch {
+      tables[key] = { name: path };
+    }
+  }
+  const given: Record<string, unknown> = { analyze: opts.eta === undefined ? analyzeOptions : { ...analyzeOptions, eta: opts.eta }, read: readOptions(opts) };
+  if (opts.material !== undefined) given.material = opts.material;
+  if (opts.formula?.length) given.formulas = [...opts.formula];
+  if (opts.binNm !== undefined) given.binNM = opts.binNm;
+  given.tables = tables;
+  return makeProvenance("sizes", null, given);
 }

@@ -1,0 +1,59 @@
+/**
+ * The identity of an input file for provenance: its name, size and SHA-256. Node only.
+ */
+import { createHash } from "node:crypto";
+import { readFileSync } from "node:fs";
+import { DotspecError } from "../util/errors.ts";
+
+/** Name, size and content hash of an input file. */
+export interface InputDigest {
+  /** The path as given. */
+  name: string;
+  /** Size, bytes. */
+  bytes: number;
+  /** SHA-256 of the content, 64 lowercase hex digits. */
+  sha256: string;
+}
+
+/**
+ * SHA-256 of a text or bytes, as 64 lowercase hex digits (FIPS 180-4, through node:crypto).
+ *
+ * Example
+ * -------
+ * sha256Hex("abc"); // => "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+ */
+export function sha256Hex(data: string | Uint8Array): string {
+  return createHash("sha256").update(data).digest("hex");
+}
+
+/**
+ * Name, size and SHA-256 of a file (read only).
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file, as the user gave it (kept as `name`).
+ *
+ * Returns
+ * -------
+ * InputDigest
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/unreadable` when the file cannot be read.
+ *
+ * Example
+ * -------
+ * inputDigest("dot-01.csv"); // => { name: "dot-01.csv", bytes: 61234, sha256: "3f…" }
+ */
+export function inputDigest(path: string): InputDigest {
+  let bytes: Buffer;
+  try {
+    bytes = readFileSync(path);
+  } catch (err) {
+    const reason = err instanceof Error ? err.message : String(err);
+    throw new DotspecError("io/unreadable", `${path}: cannot be read (${reason})`);
+  }
+  return { name: path, bytes: bytes.length, sha256: sha256Hex(bytes) };
+}
