@@ -96,17 +96,36 @@ export function checkOutputFolder(dir: string): OutputFolderCheck {
   if (!statSync(dir).isDirectory()) {
     throw new DotspecError("io/not-a-folder", `${dir}: is a file, not a folder; give a folder for the report`);
   }
-  const listed = readOutputManifest(dir)?.files ?? {};
+  // A subfolder with a manifest of its own (a report another dotspec command wrote there, e.g.
+  // report/sizes) is judged by that manifest: each file by the nearest manifest above it.
+  const manifests = new Map<string, Record<string, string | null> | null>();
+  const manifestOf = (sub: string) => {
+    if (!manifests.has(sub)) manifests.set(sub, readOutputManifest(sub === "" ? dir : join(dir, sub))?.files ?? null);
+    return manifests.get(sub)!;
+  };
   const foreign: string[] = [];
   const changed: string[] = [];
   for (const file of filesUnder(dir)) {
-    if (file === OUTPUT_MANIFEST_NAME) continue;
-    const name = file.split("/").pop()!;
-    if (!(file in listed)) {
+    const parts = file.split("/");
+    const name = parts[parts.length - 1];
+    if (name === OUTPUT_MANIFEST_NAME) continue;
+    let owner = "";
+    let listed: Record<string, string | null> = {};
+    for (let k = parts.length - 1; k >= 0; k--) {
+      const sub = parts.slice(0, k).join("/");
+      const m = manifestOf(sub);
+      if (m) {
+        owner = sub;
+        listed = m;
+        break;
+      }
+    }
+    const key = owner === "" ? file : file.slice(owner.length + 1);
+    if (!(key in listed)) {
       if (!TEMP_FILE_PATTERN.test(name)) foreign.push(file);
       continue;
     }
-    const hash = listed[file];
+    const hash = listed[key];
     if (hash !== null && sha256Hex(readFileSync(join(dir, file))) !== hash) changed.push(file);
   }
   return { foreign, changed };

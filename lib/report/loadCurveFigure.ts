@@ -5,6 +5,7 @@
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { CurveFigureOptions } from "./curveFigure.ts";
 import type { ModelFigureOptions } from "./modelFigure.ts";
+import { figureDocument } from "./figureDocument.ts";
 
 /** {@link curveFigure} with its document bound. */
 export type CurveFigureRenderer = (analysis: CurveAnalysis, options?: Omit<CurveFigureOptions, "document">) => string;
@@ -29,7 +30,7 @@ export type CurveFigureRenderer = (analysis: CurveAnalysis, options?: Omit<Curve
  * writeTextFile("report/dot-07.svg", curveFigure(analysis, { curve }));
  */
 export async function loadCurveFigure(document?: Document): Promise<CurveFigureRenderer> {
-  const [{ curveFigure }, doc] = await Promise.all([import("./curveFigure.ts"), document ?? defaultDocument()]);
+  const [{ curveFigure }, doc] = await Promise.all([import("./curveFigure.ts"), document ?? figureDocument()]);
   return (analysis, options = {}) => curveFigure(analysis, { ...options, document: doc });
 }
 
@@ -55,15 +56,6 @@ export type ModelFigureRenderer = (analysis: CurveAnalysis, options?: Omit<Model
  * const svg = modelFigure(analysis, { fit: fitCurve(analysis) });
  */
 export async function loadModelFigure(document?: Document): Promise<ModelFigureRenderer> {
-  const [{ modelFigure }, doc] = await Promise.all([import("./modelFigure.ts"), document ?? defaultDocument()]);
+  const [{ modelFigure }, doc] = await Promise.all([import("./modelFigure.ts"), document ?? figureDocument()]);
   return (analysis, options = {}) => modelFigure(analysis, { ...options, document: doc });
-}
-
-async function defaultDocument(): Promise<Document> {
-  const browser = (globalThis as { document?: Document }).document;
-  if (browser) return browser;
-  // A variable specifier keeps browser bundlers from pulling jsdom into a page that never needs it.
-  const specifier = "jsdom";
-  const { JSDOM } = (await import(/* @vite-ignore */ specifier)) as typeof import("jsdom");
-  return new JSDOM("").window.document;
 }

@@ -4,6 +4,7 @@
  */
 import type { GridMap } from "../grid/analyzeGrid.ts";
 import type { GridMapFigureOptions } from "./gridMapFigure.ts";
+import { figureDocument } from "./figureDocument.ts";
 
 /** {@link gridMapFigure} with its document bound. */
 export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureOptions, "document">) => string;
@@ -25,15 +26,6 @@ export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureO
  * ```
  */
 export async function loadGridMapFigure(document?: Document): Promise<GridMapFigureRenderer> {
-  const [{ gridMapFigure }, doc] = await Promise.all([import("./gridMapFigure.ts"), document ?? defaultDocument()]);
+  const [{ gridMapFigure }, doc] = await Promise.all([import("./gridMapFigure.ts"), document ?? figureDocument()]);
   return (map, options = {}) => gridMapFigure(map, { ...options, document: doc });
-}
-
-async function defaultDocument(): Promise<Document> {
-  const browser = (globalThis as { document?: Document }).document;
-  if (browser) return browser;
-  const specifier = "jsdom";
-  const { JSDOM } = (await import(/* @vite-ignore */ specifier)) as typeof import("jsdom");
-  const { withPngCanvas } = await import("./pngCanvas.ts");
-  return withPngCanvas(new JSDOM("").window.document);
 }

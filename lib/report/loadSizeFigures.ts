@@ -4,6 +4,7 @@
  */
 import type { SizeSeries } from "../sizes/sizeSeries.ts";
 import type { SizeFiguresOptions } from "./sizeFigures.ts";
+import { figureDocument } from "./figureDocument.ts";
 
 /** File names of the size figures in a report folder, by figure. */
 export const SIZE_FIGURE_FILES = Object.freeze({
@@ -40,14 +41,6 @@ export type SizeFiguresRenderer = (series: SizeSeries, options?: Omit<SizeFigure
  * writeTextFile("report/sizes-gap.svg", sizeFigures(series).gap!);
  */
 export async function loadSizeFigures(document?: Document): Promise<SizeFiguresRenderer> {
-  const [{ sizeFigures }, doc] = await Promise.all([import("./sizeFigures.ts"), document ?? defaultDocument()]);
+  const [{ sizeFigures }, doc] = await Promise.all([import("./sizeFigures.ts"), document ?? figureDocument()]);
   return (series, options = {}) => sizeFigures(series, { ...options, document: doc });
-}
-
-async function defaultDocument(): Promise<Document> {
-  const browser = (globalThis as { document?: Document }).document;
-  if (browser) return browser;
-  const specifier = "jsdom";
-  const { JSDOM } = (await import(/* @vite-ignore */ specifier)) as typeof import("jsdom");
-  return new JSDOM("").window.document;
 }

@@ -1,5 +1,5 @@
 // bandPeaks: the two bands, ordered from the gap edge, each peak keeping its index.
-// Expected values by construction of the input list (sign convention: CB at positive sample bias).
+// Expected values derived by construction of the input list (sign convention: CB at positive sample bias).
 import { describe, it, expect } from "vitest";
 import { bandPeaks } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";

@@ -1,3 +1,5 @@
+// noLevels: the no-dot-features verdict on constructed inputs; expected values derived by
+// construction of the documented rule (NO_LEVELS_DEFAULTS: common practice (no source)).
 import { describe, expect, it } from "vitest";
 import { noLevels, NO_LEVELS_DEFAULTS } from "../../lib/assign/noLevels.ts";
 

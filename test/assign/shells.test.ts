@@ -1,4 +1,4 @@
-// fillingShells / tunnelingShells on closed-form peak positions (|ε| + Ec(n + ½))/η, n counting
+// fillingShells / tunnelingShells on peak positions from the closed form (|ε| + Ec(n + ½))/η, n counting
 // the carriers already in the CB, with ε_s = 0.5, ε_p = 0.8, ε_d = 1.2 eV, Ec = 0.1 eV, η = 0.8.
 import { describe, it, expect } from "vitest";
 import { fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";

@@ -1,4 +1,4 @@
-// Library option names turned into the CLI's in printed messages. The table is locked here; the
+// Library option names turned into the CLI's in printed messages. The table is locked here (derived by construction from the commands' declarations); the
 // flags are those declared by the commands (checked against `--help` in test/robustness).
 import { describe, expect, it } from "vitest";
 import { cliOptionNames, CLI_OPTION_NAMES } from "../../lib/cli/cliOptionNames.ts";

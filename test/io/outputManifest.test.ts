@@ -58,4 +58,17 @@ describe("checkOutputFolder(dir) / writeOutputManifest(dir, files, written)", ()
     expect(errorOf(() => checkOutputFolder(file)).code).toBe("io/not-a-folder");
     expect(readFileSync(file, "utf8")).toBe("x");
   });
+
+  it("judges a subfolder with a manifest of its own by that manifest (a report of another command inside, as npm start writes report/sizes) — by construction", () => {
+    const dir = tempDir("dotspec-nested-");
+    mkdirSync(join(dir, "sizes"));
+    writeFileSync(join(dir, "dot-01.json"), "{}\n");
+    writeFileSync(join(dir, "sizes", "sizes.json"), "{}\n");
+    writeOutputManifest(dir, ["dot-01.json"], true);
+    writeOutputManifest(join(dir, "sizes"), ["sizes.json"], true);
+    expect(checkOutputFolder(dir)).toEqual({ foreign: [], changed: [] });
+    writeFileSync(join(dir, "sizes", "notes.txt"), "someone else's\n");
+    expect(checkOutputFolder(dir).foreign).toEqual(["sizes/notes.txt"]);
+  });
 });
+

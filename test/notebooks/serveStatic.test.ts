@@ -1,5 +1,5 @@
 // The static server of `npm run notebooks`: bound to 127.0.0.1, files under its folder only.
-// Expected values: HTTP semantics (RFC 9110: 200, 403, 404, 405 with Allow) and the files written
+// Expected values: HTTP semantics (source: RFC 9110: 200, 403, 404, 405 with Allow) and the files written
 // here (by construction).
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";

@@ -1,5 +1,5 @@
 // sizeFigures: the SVG figures of a size series. Structure checked directly; the drawing as a
-// snapshot with numbers rounded to 0.1 (a snapshot of our own output, as for the curve figure:
+// snapshot with numbers rounded to 0.1 (derived from our own output, as for the curve figure:
 // inspect a difference before updating it with `npx vitest run test/report -u`).
 import { describe, it, expect } from "vitest";
 import { JSDOM } from "jsdom";

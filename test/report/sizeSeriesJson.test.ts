@@ -1,6 +1,6 @@
 // sizeSeriesToJson / formatSizeSeriesText / sizeSeriesTables: the records of a size series.
 // The JSON shape is the project's own interface (the fields issue 7 asks for); values are
-// checked against the series they come from (by construction).
+// checked against the series they come from (derived by construction).
 import { describe, it, expect } from "vitest";
 import { sizeSeriesToJson, SIZE_SERIES_JSON_VERSION } from "../../lib/report/sizeSeriesJson.ts";
 import { formatSizeSeriesText, FORMAT_SIZES_TEXT_DEFAULTS } from "../../lib/report/formatSizeSeriesText.ts";

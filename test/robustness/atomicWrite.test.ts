@@ -1,5 +1,5 @@
 // Ctrl-C leaves no half-written file: writeTextFile writes a temporary file in the same folder and
-// renames it into place. Expectations by construction (POSIX rename(2) replaces the target in one
+// renames it into place. Expectations derived by construction (POSIX rename(2) replaces the target in one
 // step within a file system) and checked against a process killed in the middle of its writes.
 import { describe, it, expect, afterAll } from "vitest";
 import { spawn } from "node:child_process";

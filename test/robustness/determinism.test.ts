@@ -1,5 +1,5 @@
 // Determinism: the same input and options give byte-identical JSON whatever --jobs is, and the
-// noise of `simulate` comes from its seed only. Expectations by construction.
+// noise of `simulate` comes from its seed only. Expectations derived by construction.
 import { describe, it, expect, afterAll } from "vitest";
 import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";

@@ -1,6 +1,6 @@
 // Traceable batches: the file's own metadata lines in its record and summary row, notes apart
 // from warnings, the CLI's option names in printed messages, and simulate's metadata read back by
-// analyze. Expectations by construction (the record layout in lib/report/analysisJson.ts) unless
+// analyze. Expectations derived by construction (the record layout in lib/report/analysisJson.ts) unless
 // stated.
 import { describe, it, expect, afterAll } from "vitest";
 import { csvParse } from "d3-dsv";

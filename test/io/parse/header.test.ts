@@ -1,5 +1,5 @@
 // Stage 3 of the importer on its own: which line names the columns.
-// Expected values by construction: the header cells and line numbers written in each input.
+// Expected values derived by construction: the header cells and line numbers written in each input.
 import { describe, expect, it } from "vitest";
 import type { Delimiter } from "../../../lib/io/cells.ts";
 import { findDataRows } from "../../../lib/io/parse/dataRows.ts";
