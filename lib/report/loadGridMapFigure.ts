@@ -26,6 +26,14 @@ export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureO
  * ```
  */
 export async function loadGridMapFigure(document?: Document): Promise<GridMapFigureRenderer> {
-  const [{ gridMapFigure }, doc] = await Promise.all([import("./gridMapFigure.ts"), document ?? figureDocument()]);
+  const [{ gridMapFigure }, doc] = await Promise.all([import("./gridMapFigure.ts"), document ?? rasterDocument()]);
   return (map, options = {}) => gridMapFigure(map, { ...options, document: doc });
+}
+
+/** The figure document, given a canvas in Node (jsdom has none; the raster mark draws on one). */
+async function rasterDocument(): Promise<Document> {
+  const doc = await figureDocument();
+  if ((globalThis as { document?: Document }).document === doc) return doc;
+  const { withPngCanvas } = await import("./pngCanvas.ts");
+  return withPngCanvas(doc);
 }
