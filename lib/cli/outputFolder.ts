@@ -4,6 +4,7 @@
  */
 import { checkOutputFolder, OUTPUT_MANIFEST_NAME, writeOutputManifest } from "../index.ts";
 import { UsageError } from "./context.ts";
+import { basename, extname } from "node:path";
 
 /** How many file names a refusal lists before "…". */
 const LISTED = 5;
@@ -61,4 +62,26 @@ export function claimOutputFolder(dir: string, planned: readonly string[], force
 /** Records the SHA-256 of the files the run wrote in the folder's manifest. */
 export function sealOutputFolder(dir: string, written: readonly string[]): void {
   writeOutputManifest(dir, written, true);
+}
+
+/**
+ * Output base names inside an output folder: each file's name without extension, made unique
+ * without regard to letter case (`dot`, `dot-2`, …), never one of `reserved` (names the command
+ * writes itself, e.g. "summary").
+ *
+ * Example
+ * -------
+ * ```ts
+ * outputNames(["a/dot.csv", "b/dot.csv", "summary.csv"], ["summary"]);  // => ["dot", "dot-2", "summary-2"]
+ * ```
+ */
+export function outputNames(files: readonly string[], reserved: readonly string[] = []): string[] {
+  const used = new Set<string>(reserved.map((r) => r.toLowerCase()));
+  return files.map((file) => {
+    const stem = basename(file, extname(file)) || "curve";
+    let name = stem;
+    for (let k = 2; used.has(name.toLowerCase()); k++) name = `${stem}-${k}`;
+    used.add(name.toLowerCase());
+    return name;
+  });
 }

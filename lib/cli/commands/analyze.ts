@@ -18,7 +18,7 @@ import {
 } from "../../index.ts";
 import { cliOptionNames } from "../cliOptionNames.ts";
 import { batchCount } from "../batchCount.ts";
-import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
+import { claimOutputFolder, sealOutputFolder, outputNames } from "../outputFolder.ts";
 import { runReplay } from "../replay.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
@@ -126,18 +126,6 @@ export const analyzeCommand: CliCommand = {
   },
 };
 
-/** Output base names inside --out: the file name without extension, made unique (`dot-2`, …). */
-function outputNames(files: readonly string[]): string[] {
-  const used = new Set<string>([basename(ANALYZE_OUTPUT.summary, extname(ANALYZE_OUTPUT.summary)).toLowerCase()]);
-  return files.map((file) => {
-    const stem = basename(file, extname(file)) || "curve";
-    let name = stem;
-    for (let k = 2; used.has(name.toLowerCase()); k++) name = `${stem}-${k}`;
-    used.add(name.toLowerCase());
-    return name;
-  });
-}
-
 /**
  * Runs `dotspec analyze`.
  *
@@ -219,7 +207,7 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
       }
     }
   }
-  const names = outDir !== undefined ? outputNames(files) : null;
+  const names = outDir !== undefined ? outputNames(files, [basename(ANALYZE_OUTPUT.summary, extname(ANALYZE_OUTPUT.summary))]) : null;
   const planned = names ? [...names.flatMap((n) => [n + ANALYZE_OUTPUT.jsonExtension, n + ANALYZE_OUTPUT.figureExtension]), ANALYZE_OUTPUT.summary] : [];
   // Refuses a folder holding files dotspec did not write (unless --force); lists what this run writes.
   if (outDir !== undefined) claimOutputFolder(outDir, planned, opts.force === true);

@@ -46,7 +46,7 @@ import {
   type SummaryRow,
 } from "../../index.ts";
 import { batchCount } from "../batchCount.ts";
-import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
+import { claimOutputFolder, sealOutputFolder, outputNames } from "../outputFolder.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
@@ -193,18 +193,6 @@ function materialOf(opts: SizesCliOptions): Material | null {
     throw err;
   }
   return null;
-}
-
-/** Unique output stems for the per-curve records (`name`, `name-2`, …). */
-function outputNames(files: readonly string[]): string[] {
-  const used = new Set<string>();
-  return files.map((file) => {
-    const stem = basename(file, extname(file)) || "curve";
-    let name = stem;
-    for (let k = 2; used.has(name.toLowerCase()); k++) name = `${stem}-${k}`;
-    used.add(name.toLowerCase());
-    return name;
-  });
 }
 
 /**
