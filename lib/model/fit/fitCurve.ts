@@ -7,7 +7,7 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { seedLevels, type LevelSeed } from "./seedLevels.ts";
+import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 import { startingValues, type StartingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { unitCurrent } from "./unitCurrent.ts";
@@ -180,7 +180,7 @@ export interface CurveFit {
  * Notes
  * -----
  * The stages are the modules of lib/model/fit (its index.ts lists them in this order).
- * 1. Start ({@link seedLevels}, {@link startingValues}): the levels, their degeneracies and Ec from the assignment (shell filling: one level
+ * 1. Start ({@link levelsToFit}, {@link startingValues}): the levels, their degeneracies and Ec from the assignment (shell filling: one level
  *    per multiplet or sub-group, ε = η·V_first − Ec·(N_before + ½); shell tunnelling: one level
  *    per peak, ε = η·V − Ec/2, Ec from `chargingEnergyGuessEV`); rate ratio 10 (filling),
  *    0.02 (tunnelling) or 1; broadening from the measured peak width.
@@ -419,7 +419,7 @@ function fitHypotheses(analysis: CurveAnalysis, eta: number, alternatives: boole
   const out: FitHypothesis[] = [];
   const seen = new Set<string>();
   const add = (name: FitHypothesis["name"], label: string, a: CurveAnalysis) => {
-    const seeds = seedLevels(a);
+    const seeds = levelsToFit(a);
     const key = seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV}/${s.before}`).join(" ");
     if (!seeds.length || seen.has(key)) return;
     // An alternative grouping whose master equation would be too large to solve is not tried.

@@ -6,7 +6,7 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { checkEta, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
-import { seedLevels, type LevelSeed } from "./seedLevels.ts";
+import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 import { startingValues } from "./startingValues.ts";
 
 /** Where {@link fitCurve} starts: the levels and parameters read from the peak-based assignment. */
@@ -42,7 +42,7 @@ export interface FitStart {
  * Returns
  * -------
  * FitStart
- *     The seeds of {@link seedLevels} and the starting values of {@link startingValues} in
+ *     The seeds of {@link levelsToFit} and the starting values of {@link startingValues} in
  *     physical units.
  *
  * Throws
@@ -60,7 +60,7 @@ export function fitStart(analysis: CurveAnalysis, options: FitOptions = {}): Fit
   const F = FIT_DEFAULTS;
   const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkEta("eta", options.eta);
   const temperatureK = checkPositive("temperatureK", options.temperatureK ?? F.temperatureK);
-  const seeds = seedLevels(analysis);
+  const seeds = levelsToFit(analysis);
   if (!seeds.length) {
     throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
   }

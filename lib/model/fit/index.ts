@@ -5,7 +5,7 @@
  * and fitCurve, which composes them.
  */
 export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
-export { seedLevels, type LevelSeed } from "./seedLevels.ts";
+export { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";
 export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";

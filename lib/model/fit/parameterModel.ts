@@ -3,7 +3,7 @@
  */
 import type { DotModel } from "../bandCurrent.ts";
 import type { Level } from "../scenario.ts";
-import type { LevelSeed } from "./seedLevels.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
 
 /** Where each parameter sits in the vector of a fit with a given number of levels. */
 export interface ParameterIndex {

@@ -3,7 +3,7 @@
  * measured peak width.
  */
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
-import type { LevelSeed } from "./seedLevels.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
 
 /** Start, bounds and difference steps of the nonlinear parameters ({@link parameterIndex} layout). */
 export interface StartingValues {
@@ -25,7 +25,7 @@ export interface StartingValues {
  * analysis : CurveAnalysis
  *     The peak-based analysis: regime, Ec (eV, or null) and the measured peak width (mV).
  * seeds : readonly LevelSeed[]
- *     The levels to fit ({@link seedLevels}).
+ *     The levels to fit ({@link levelsToFit}).
  * eta : number
  *     Voltage-division factor η.
  * chargingEnergyGuessEV : number
@@ -57,7 +57,7 @@ export interface StartingValues {
  * -------
  * ```ts
  * // analysis: the analyzeCurve result of the fitCurve example (Ec 0.1 eV, η 0.85, s at 0.6 eV).
- * startingValues(analysis, seedLevels(analysis), 0.85, 0.1).initialValues.slice(0, 1);
+ * startingValues(analysis, levelsToFit(analysis), 0.85, 0.1).initialValues.slice(0, 1);
  * // => [0.600] (eV: η·V_s1 − Ec/2)
  * ```
  */

@@ -3,7 +3,7 @@
  */
 import { bandLadders, currentSteps, fastCurrent } from "../bandCurrent.ts";
 import { parameterModel } from "./parameterModel.ts";
-import type { LevelSeed } from "./seedLevels.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
 
 /**
  * Model current at unit rate scale (Γsub = 1/s), before offset and background, for one

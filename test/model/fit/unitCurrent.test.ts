@@ -6,7 +6,7 @@ import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
 import { unitCurrent } from "../../../lib/model/fit/unitCurrent.ts";
 import { parameterIndex, parameterModel } from "../../../lib/model/fit/parameterModel.ts";
-import type { LevelSeed } from "../../../lib/model/fit/seedLevels.ts";
+import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
 
 const e = 1.602176634e-19; // C, exact (SI 2019)
 

@@ -1,9 +1,9 @@
-// seedLevels and startingValues on a simulated shell-filling curve: the levels, degeneracies and
+// levelsToFit and startingValues on a simulated shell-filling curve: the levels, degeneracies and
 // energies the fit starts from are compared with the scenario the curve was simulated from (its
 // inputs: s doublet at 0.6 eV, p sextet at 0.9 eV, VB doublet at −1.2 eV, Ec 0.1 eV, η 0.85).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
-import { seedLevels } from "../../../lib/model/fit/seedLevels.ts";
+import { levelsToFit } from "../../../lib/model/fit/levelsToFit.ts";
 import { startingValues } from "../../../lib/model/fit/startingValues.ts";
 import { simulateCurve } from "../../../lib/model/simulate.ts";
 import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
@@ -26,10 +26,10 @@ const sim = simulateCurve(
 );
 const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
 
-describe("seedLevels(analysis)", () => {
+describe("levelsToFit(analysis)", () => {
   it("gives one level per shell with the simulated degeneracies and the carriers before it (s 2/0, p 6/2, v1 2/0)", () => {
     expect(analysis.assignment.regime).toBe("shell-filling");
-    expect(seedLevels(analysis).map((s) => [s.band, s.label, s.degeneracy, s.before])).toEqual([
+    expect(levelsToFit(analysis).map((s) => [s.band, s.label, s.degeneracy, s.before])).toEqual([
       ["CB", "s", 2, 0],
       ["CB", "p", 6, 2],
       ["VB", "v1", 2, 0],
@@ -38,7 +38,7 @@ describe("seedLevels(analysis)", () => {
 });
 
 describe("startingValues(analysis, seeds, eta, chargingEnergyGuessEV)", () => {
-  const seeds = seedLevels(analysis);
+  const seeds = levelsToFit(analysis);
   const start = startingValues(analysis, seeds, eta, 0.1);
 
   it("starts |ε| within 10 meV of the simulated 0.6, 0.9 and 1.2 eV and Ec within 10 % of the simulated 0.1 eV", () => {

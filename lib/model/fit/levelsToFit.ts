@@ -52,11 +52,11 @@ export interface LevelSeed {
  * ```ts
  * // analysis: the analyzeCurve result of the fitCurve example (shell filling: s doublet, p sextet,
  * // one VB doublet, simulated).
- * seedLevels(analysis).map((s) => [s.label, s.degeneracy, s.before]);
+ * levelsToFit(analysis).map((s) => [s.label, s.degeneracy, s.before]);
  * // => [["s", 2, 0], ["p", 6, 2], ["v1", 2, 0]]
  * ```
  */
-export function seedLevels(analysis: CurveAnalysis): LevelSeed[] {
+export function levelsToFit(analysis: CurveAnalysis): LevelSeed[] {
   const a = analysis.assignment;
   const seeds: LevelSeed[] = [];
   const filling = a.regime === "shell-filling";
