@@ -3,7 +3,7 @@
  * whose header does not give them (headerless two-column files, or names without units).
  */
 import { InvalidArgumentError, type Command } from "commander";
-import { BIAS_UNITS, CURRENT_UNITS, etaForCurve, findUnit, type ReadCurveOptions } from "../index.ts";
+import { BIAS_UNITS, CONDUCTANCE_DEFAULTS, CURRENT_UNITS, etaForCurve, FIND_PEAKS_DEFAULTS, findUnit, type ReadCurveOptions } from "../index.ts";
 import { numberOption } from "./optionValue.ts";
 
 /** The options as commander hands them over. */
@@ -31,6 +31,27 @@ export function unitOption(quantity: "bias" | "current", accepted: readonly stri
 function polarityOption(value: string): "sample" | "tip" {
   if (value !== "sample" && value !== "tip") throw new InvalidArgumentError(`${JSON.stringify(value)} is not a polarity; accepted: sample, tip`);
   return value;
+}
+
+/** Declares the analysis settings that `analyze` and `sizes` share: the Savitzky–Golay window and order, the peak significance, a measured dI/dV. */
+export function addAnalysisOptions(command: Command): Command {
+  return command
+    .option(
+      "--window-mv <mV>",
+      `Savitzky–Golay window in mV of bias, or "auto" (default: auto, from the peak width and the noise)`,
+      numberOption({ min: 0, minExclusive: true, word: "auto", accepted: 'a window in mV greater than 0 (e.g. 30), or "auto"' }),
+    )
+    .option(
+      "--order <n>",
+      `Savitzky–Golay polynomial order, 2 to 4 (default: ${CONDUCTANCE_DEFAULTS.order})`,
+      numberOption({ min: 2, max: 4, integer: true, accepted: "a whole number from 2 to 4" }),
+    )
+    .option(
+      "--min-step-sigma <n>",
+      `least significance of the current step under a peak, in standard errors (default: ${FIND_PEAKS_DEFAULTS.minStepSigma})`,
+      numberOption({ min: 0, accepted: "a number of standard errors, 0 or more (e.g. 5)" }),
+    )
+    .option("--use-measured", "use the file's measured dI/dV column (lock-in) instead of differentiating the current");
 }
 
 /** Declares how to read a file: `--bias-unit`, `--current-unit` and `--bias-polarity`. */

@@ -5,10 +5,8 @@
 import { basename, dirname, extname, join, resolve } from "node:path";
 import type { Command } from "commander";
 import {
-  CONDUCTANCE_DEFAULTS,
   CURVE_FILE_EXTENSIONS,
   failedSummaryRow,
-  FIND_PEAKS_DEFAULTS,
   formatCsv,
   listCurveFiles,
   summaryColumns,
@@ -25,7 +23,7 @@ import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
-import { addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
+import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec analyze` as commander hands them over. */
@@ -86,23 +84,8 @@ export const analyzeCommand: CliCommand = {
         "--eta <η>",
         "voltage-division factor η in (0, 1] that converts bias to energy (default: the file's `# eta:` metadata line, else 1: energies then equal bias values)",
         etaOption,
-      )
-      .option(
-        "--window-mv <mV>",
-        `Savitzky–Golay window in mV of bias, or "auto" (default: auto, from the peak width and the noise)`,
-        numberOption({ min: 0, minExclusive: true, word: "auto", accepted: 'a window in mV greater than 0 (e.g. 30), or "auto"' }),
-      )
-      .option(
-        "--order <n>",
-        `Savitzky–Golay polynomial order, 2 to 4 (default: ${CONDUCTANCE_DEFAULTS.order})`,
-        numberOption({ min: 2, max: 4, integer: true, accepted: "a whole number from 2 to 4" }),
-      )
-      .option(
-        "--min-step-sigma <n>",
-        `least significance of the current step under a peak, in standard errors (default: ${FIND_PEAKS_DEFAULTS.minStepSigma})`,
-        numberOption({ min: 0, accepted: "a number of standard errors, 0 or more (e.g. 5)" }),
-      )
-      .option("--use-measured", "use the file's measured dI/dV column (lock-in) instead of differentiating the current");
+      );
+    addAnalysisOptions(command);
     addUnitOptions(command)
       .option("--json", "print one JSON array of the analysis records on stdout instead of the report")
       .option("--out <DIR>", "write DIR/<name>.json, DIR/<name>.svg per file and DIR/summary.csv")

@@ -5,9 +5,7 @@
 import { basename, dirname, extname, join, relative, resolve } from "node:path";
 import type { Command } from "commander";
 import {
-  CONDUCTANCE_DEFAULTS,
   CURVE_FILE_EXTENSIONS,
-  FIND_PEAKS_DEFAULTS,
   SIZE_BINS_DEFAULTS,
   SIZE_FIGURE_FILES,
   SIZE_TABLE_FILES,
@@ -52,7 +50,7 @@ import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
-import { addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
+import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec sizes` as commander hands them over. */
@@ -147,23 +145,8 @@ export const sizesCommand: CliCommand = {
         "--bin-nm <nm>",
         `width of the size bins in nm (default: ${SIZE_BINS_DEFAULTS.binNM})`,
         numberOption({ min: 0, minExclusive: true, accepted: "a width in nm greater than 0 (e.g. 0.25)" }),
-      )
-      .option(
-        "--window-mv <mV>",
-        `Savitzky–Golay window in mV of bias, or "auto" (default: auto)`,
-        numberOption({ min: 0, minExclusive: true, word: "auto", accepted: 'a window in mV greater than 0 (e.g. 30), or "auto"' }),
-      )
-      .option(
-        "--order <n>",
-        `Savitzky–Golay polynomial order, 2 to 4 (default: ${CONDUCTANCE_DEFAULTS.order})`,
-        numberOption({ min: 2, max: 4, integer: true, accepted: "a whole number from 2 to 4" }),
-      )
-      .option(
-        "--min-step-sigma <n>",
-        `least significance of the current step under a peak, in standard errors (default: ${FIND_PEAKS_DEFAULTS.minStepSigma})`,
-        numberOption({ min: 0, accepted: "a number of standard errors, 0 or more (e.g. 5)" }),
-      )
-      .option("--use-measured", "use the files' measured dI/dV column (lock-in) instead of differentiating the current");
+      );
+    addAnalysisOptions(command);
     addUnitOptions(command)
       .option("--json", "print one JSON object of the series on stdout instead of the summary")
       .option("--out <DIR>", "write the series report (tables, figures, sizes.json) and the per-curve records to DIR")
