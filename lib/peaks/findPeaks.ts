@@ -5,7 +5,7 @@ import { DotspecError } from "../util/errors.ts";
 import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { normalCdfFast } from "../util/special.ts";
-import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
+import { scaledCholeskySolve, scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
 
@@ -495,12 +495,13 @@ function localStepFit(
       ata[c * m + r] = sum;
     }
   }
-  // The columns differ by orders of magnitude: invert at unit diagonal.
-  const full = scaledSymmetricInverse(ata, m);
-  if (!full) return null;
-  const inv = (r: number, c: number) => full[r * m + c];
-  const coef = new Float64Array(m);
-  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) coef[r] += inv(r, c) * atb[c];
+  // The columns differ by orders of magnitude: solved at unit diagonal. Only the step's (and the
+  // shift's) variances are needed, and their columns are the last: the trailing block of the inverse.
+  const tail = withShift ? 2 : 1;
+  const solved = scaledCholeskySolve(ata, atb, m, tail);
+  if (!solved) return null;
+  const coef = solved.x;
+  const inv = (r: number, c: number) => solved.tailInverse[(r - self) * tail + (c - self)];
   let ss = 0;
   if (withShift) {
     // The residual RMS widens the position error; the significance test does not use it.

@@ -422,12 +422,19 @@ export function savitzkyGolayUnchecked(
   const n = y.length;
   const m = (windowSamples - 1) / 2;
   const out = new Float64Array(n);
-  // Interior: convolution with the centre weights.
+  // Interior: convolution with the centre weights, folded about the centre. The centre weights
+  // of an even derivative are symmetric and those of an odd one antisymmetric (the window is
+  // symmetric about its centre), so each pair of samples at ±j shares one weight: half the
+  // multiplications.
   const w = centreWeights(windowSamples, order, derivative);
   const scaleInterior = 1 / stepV ** derivative;
+  const ys = y instanceof Float64Array ? y : Float64Array.from(y);
+  const odd = derivative % 2 === 1;
+  const wc = odd ? 0 : w[m];
   for (let i = m; i < n - m; i++) {
-    let acc = 0;
-    for (let j = 0, k = i - m; j < windowSamples; j++, k++) acc += w[j] * y[k];
+    let acc = wc * ys[i];
+    if (odd) for (let j = 0; j < m; j++) acc += w[j] * (ys[i - m + j] - ys[i + m - j]);
+    else for (let j = 0; j < m; j++) acc += w[j] * (ys[i - m + j] + ys[i + m - j]);
     out[i] = acc * scaleInterior;
   }
   // Ends: fit the first and last windows once (order + 1 coefficients each) and evaluate the

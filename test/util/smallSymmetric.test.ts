@@ -1,9 +1,9 @@
-// symmetricInverse checked against ml-matrix's general inverse (reference library) and the
-// identity A·A⁻¹ = I.
+// symmetricInverse and scaledCholeskySolve checked against ml-matrix's general inverse and solve
+// (reference library), and a 2×2 system solved by hand (closed form).
 import { describe, it, expect } from "vitest";
-import { Matrix, inverse } from "ml-matrix";
+import { Matrix, inverse, solve } from "ml-matrix";
 import { expectClose } from "../helpers/expectClose.ts";
-import { scaledSymmetricInverse, symmetricInverse } from "../../lib/util/smallSymmetric.ts";
+import { scaledCholeskySolve, scaledSymmetricInverse, symmetricInverse } from "../../lib/util/smallSymmetric.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 
 describe("symmetricInverse(a, m)", () => {
@@ -30,5 +30,38 @@ describe("symmetricInverse(a, m)", () => {
     const got = scaledSymmetricInverse(Float64Array.from(a.to1DArray()), 4)!;
     const ref = inverse(a).to1DArray();
     ref.forEach((v, i) => expectClose(got[i], v, { rtol: 1e-6, atol: 1e-9 * Math.abs(ref[15]), what: `entry ${i}` }));
+  });
+});
+
+describe("scaledCholeskySolve(a, b, m, tail)", () => {
+  it("solves the 2×2 system [[4, 2], [2, 3]]·x = (2, 1): x = (1/2, 0), (A⁻¹)₂₂ = 4/8 (closed form: Cramer's rule)", () => {
+    const got = scaledCholeskySolve(Float64Array.of(4, 2, 2, 3), Float64Array.of(2, 1), 2, 1)!;
+    expectClose(got.x, [0.5, 0], { rtol: 1e-14, atol: 1e-15 });
+    expectClose(got.tailInverse, [0.5], { rtol: 1e-14 });
+  });
+
+  it("matches ml-matrix's solve and the trailing block of its inverse (m = 1…9, tail 0…m), columns spanning decades", () => {
+    const rng = seededRandom(22);
+    for (let m = 1; m <= 9; m++) {
+      const b = Matrix.zeros(m, m);
+      for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) b.set(i, j, rng.normal() * 10 ** (i - 4));
+      const spd = b.mmul(b.transpose()).add(Matrix.diag(Array.from({ length: m }, (_, i) => 1e-3 * 10 ** (2 * (i - 4)))));
+      const rhs = Array.from({ length: m }, () => rng.normal());
+      const ref = solve(spd, Matrix.columnVector(rhs)).to1DArray();
+      const inv = inverse(spd);
+      for (let tail = 0; tail <= m; tail++) {
+        const got = scaledCholeskySolve(Float64Array.from(spd.to1DArray()), rhs, m, tail)!;
+        got.x.forEach((v, i) => expectClose(v, ref[i], { rtol: 1e-6, atol: 1e-9 * Math.max(...ref.map(Math.abs)), what: `m=${m} x[${i}]` }));
+        for (let i = 0; i < tail; i++)
+          for (let j = 0; j < tail; j++) {
+            const want = inv.get(m - tail + i, m - tail + j);
+            expectClose(got.tailInverse[i * tail + j], want, { rtol: 1e-6, atol: 1e-9 * Math.abs(inv.get(m - 1, m - 1)), what: `m=${m} tail=${tail} (${i},${j})` });
+          }
+      }
+    }
+  });
+
+  it("returns null for a matrix that is not positive definite", () => {
+    expect(scaledCholeskySolve(Float64Array.of(1, 2, 2, 1), Float64Array.of(1, 1), 2, 1)).toBeNull();
   });
 });
