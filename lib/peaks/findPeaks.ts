@@ -281,6 +281,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
     Math.min(n, Math.max(1, Math.round(expectedHalfWidth ?? halfWidthSamples(didvS, c.index, c.floor + c.prominence / 2, c.leftBase, c.rightBase)))),
   );
   const indices = prominent.map((q) => q.index);
+  const work: FitWorkspace = { cols: new Float64Array(0) };
   prominent.forEach((c, k) => {
     if (current) {
       // Cheap necessary condition first: the mean current must rise across the peak by more than
@@ -298,7 +299,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
         belowStepSignificance++;
         return;
       }
-      c.significance = stepSignificance(biasV, current.currentA, indices, k, halfWidths[k], current.noiseA);
+      c.significance = stepSignificance(biasV, current.currentA, indices, k, halfWidths[k], current.noiseA, work);
       if (!(c.significance >= minStepSigma!)) {
         belowStepSignificance++;
         return;
@@ -327,7 +328,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
         if (settled.has(k)) return;
         const neighbours = positions.filter((_, j) => j !== k);
         const index = Math.min(n - 1, Math.max(0, Math.round((peak.biasV - biasV[0]) / stepV)));
-        const fit = localStepFit(biasV, current.currentA, index, peak.biasV, neighbours, halfWidthOf(k), true);
+        const fit = localStepFit(biasV, current.currentA, index, peak.biasV, neighbours, halfWidthOf(k), true, work);
         if (!fit || !(fit.step > 0) || !Number.isFinite(fit.shiftVar) || !(fit.shiftVar > 0)) return;
         // At most half a width per step, and never past halfway to a neighbour.
         let lo = -halfWidthOf(k) * stepV, hi = halfWidthOf(k) * stepV;
@@ -427,6 +428,11 @@ function refine(
   };
 }
 
+/** Scratch space of the local step fits of one findPeaks call (the design matrix, grown as needed). */
+interface FitWorkspace {
+  cols: Float64Array;
+}
+
 /** Result of {@link localStepFit}: coefficients and their covariance in units of the noise variance. */
 interface LocalStepFit {
   /** Height of the tested step, A. */
@@ -457,6 +463,7 @@ function localStepFit(
   neighboursV: readonly number[],
   halfWidth: number,
   withShift: boolean,
+  work: FitWorkspace,
 ): LocalStepFit | null {
   const n = x.length;
   const lo = Math.max(0, p - 6 * halfWidth), hi = Math.min(n - 1, p + 6 * halfWidth);
@@ -470,7 +477,8 @@ function localStepFit(
   const m = self + 1 + (withShift ? 1 : 0);
   // Design matrix, column by column (each Φ evaluated once).
   const rows = hi - lo + 1;
-  const cols = new Float64Array(m * rows);
+  if (work.cols.length < m * rows) work.cols = new Float64Array(2 * m * rows);
+  const cols = work.cols;
   for (let i = 0; i < rows; i++) {
     const u = x[lo + i] - x0;
     cols[i] = 1;
@@ -487,6 +495,17 @@ function localStepFit(
     let sb = 0;
     for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
     atb[r] = sb;
+    if (r === 0) {
+      // The constant column: plain column sums.
+      for (let c = 0; c < m; c++) {
+        const b = c * rows;
+        let sum = 0;
+        for (let i = 0; i < rows; i++) sum += cols[b + i];
+        ata[c] = sum;
+        ata[c * m] = sum;
+      }
+      continue;
+    }
     for (let c = r; c < m; c++) {
       const b = c * rows;
       let sum = 0;
@@ -525,8 +544,8 @@ function localStepFit(
 }
 
 /** t-statistic of the step at candidate index p (neighbours at the other candidates). */
-function stepSignificance(x: Float64Array, current: Float64Array, indices: number[], k: number, halfWidth: number, noiseA: number): number {
-  const fit = localStepFit(x, current, indices[k], x[indices[k]], indices.filter((_, j) => j !== k).map((j) => x[j]), halfWidth, false);
+function stepSignificance(x: Float64Array, current: Float64Array, indices: number[], k: number, halfWidth: number, noiseA: number, work: FitWorkspace): number {
+  const fit = localStepFit(x, current, indices[k], x[indices[k]], indices.filter((_, j) => j !== k).map((j) => x[j]), halfWidth, false, work);
   if (!fit || !(fit.stepVar > 0)) return 0;
   return fit.step / (noiseA * Math.sqrt(fit.stepVar));
 }
