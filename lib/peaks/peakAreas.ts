@@ -97,21 +97,33 @@ export function peakAreas(biasV: Float64Array, didvS: Float64Array, positionsV: 
   const atb = new Float64Array(m);
   const row = new Float64Array(m);
   const reach = PEAK_AREAS_DEFAULTS.basisReachSigma * sigma;
+  // Only the basis functions within reach of a sample are non-zero: the Gram updates visit the
+  // two baseline columns and that run of peaks (the positions ascend), and skip the zero products,
+  // which leave every sum unchanged.
   for (let i = 0; i < biasV.length; i++) {
     const v = biasV[i];
     if (v < lo || v > hi) continue;
     row[0] = 1;
     row[1] = v - positionsV[0];
+    let first = m, last = 1;
     for (let j = 0; j < k; j++) {
       const d = v - positionsV[j];
-      row[j + 2] = Math.abs(d) < reach ? Math.exp((-0.5 * d * d) / (sigma * sigma)) : 0;
+      if (Math.abs(d) < reach) {
+        row[j + 2] = Math.exp((-0.5 * d * d) / (sigma * sigma));
+        if (first === m) first = j + 2;
+        last = j + 2;
+      } else row[j + 2] = 0;
     }
     const y = didvS[i];
     for (let a = 0; a < m; a++) {
+      if (a === 2 && first > 2) a = first;
+      if (a > last && a >= 2) break;
       const ra = row[a];
       if (ra === 0) continue;
       atb[a] += ra * y;
-      for (let b = a; b < m; b++) ata[a * m + b] += ra * row[b];
+      ata[a * m + a] += ra * ra;
+      for (let b = Math.max(a + 1, first); b <= last; b++) ata[a * m + b] += ra * row[b];
+      if (a === 0) ata[1] += ra * row[1];
     }
   }
   for (let a = 0; a < m; a++) for (let b = 0; b < a; b++) ata[a * m + b] = ata[b * m + a];
