@@ -9,7 +9,7 @@ import { averageSweepsUnchecked } from "./averageSweeps.ts";
 import { whiteNoiseSigmaUnchecked } from "./noise.ts";
 import { prepareCurve, PREPARE_CURVE_DEFAULTS, type NoiseBound, type PreparedCurve } from "./prepareCurve.ts";
 import type { SaturatedRange } from "./saturation.ts";
-import { noiseGainUnchecked, savitzkyGolayUnchecked } from "./savitzkyGolay.ts";
+import { noiseGainUnchecked, savitzkyGolaySmoothAndSlopeUnchecked, savitzkyGolayUnchecked } from "./savitzkyGolay.ts";
 import { savitzkyGolayWindow, SAVITZKY_GOLAY_WINDOW_DEFAULTS } from "./savitzkyGolayWindow.ts";
 
 /** Options of {@link conductance}. Every field is optional; defaults are in {@link CONDUCTANCE_DEFAULTS}. */
@@ -307,7 +307,9 @@ export function conductanceFromPrepared(prepared: PreparedCurve, options: Differ
   const warnings = [...prepared.warnings, ...window.warnings];
 
   // 5. Smoothed current and dI/dV.
-  const currentSmoothA = savitzkyGolayUnchecked(currentA, windowSamples, order, 0, stepV);
+  const useCurrent = !(useMeasured && measured);
+  const pair = useCurrent ? savitzkyGolaySmoothAndSlopeUnchecked(currentA, windowSamples, order, stepV) : null;
+  const currentSmoothA = pair ? pair.smooth : savitzkyGolayUnchecked(currentA, windowSamples, order, 0, stepV);
   let didvS: Float64Array;
   let noiseConductanceS: number;
   let noiseConductanceRawS: number | null = null;
@@ -320,7 +322,7 @@ export function conductanceFromPrepared(prepared: PreparedCurve, options: Differ
     usedMeasured = true;
   } else {
     if (useMeasured) warnings.push("useMeasured: the curve has no measured dI/dV, so the current was differentiated.");
-    didvS = savitzkyGolayUnchecked(currentA, windowSamples, order, 1, stepV);
+    didvS = pair!.slope;
     // 6. Noise of dI/dV (exact for white noise).
     noiseConductanceS = (noiseCurrentA * noiseGainUnchecked(windowSamples, order, 1)) / stepV;
   }

@@ -419,16 +419,58 @@ export function savitzkyGolayUnchecked(
   derivative: number,
   stepV: number,
 ): Float64Array {
+  const out = new Float64Array(y.length);
+  interiorUnchecked(y instanceof Float64Array ? y : Float64Array.from(y), windowSamples, order, derivative, stepV, out);
+  endsUnchecked(y, windowSamples, order, derivative, stepV, out);
+  return out;
+}
+
+/**
+ * The smoothed curve and its first derivative with the same window, in one pass over the data:
+ * the same values as two calls of {@link savitzkyGolayUnchecked} (derivative 0 and 1), each
+ * folded sum and difference of a sample pair serving both. Arguments assumed valid.
+ */
+export function savitzkyGolaySmoothAndSlopeUnchecked(
+  y: ArrayLike<number>,
+  windowSamples: number,
+  order: number,
+  stepV: number,
+): { smooth: Float64Array; slope: Float64Array } {
   const n = y.length;
   const m = (windowSamples - 1) / 2;
-  const out = new Float64Array(n);
-  // Interior: convolution with the centre weights, folded about the centre. The centre weights
-  // of an even derivative are symmetric and those of an odd one antisymmetric (the window is
-  // symmetric about its centre), so each pair of samples at ±j shares one weight: half the
-  // multiplications.
+  const ys = y instanceof Float64Array ? y : Float64Array.from(y);
+  const smooth = new Float64Array(n);
+  const slope = new Float64Array(n);
+  const w0 = centreWeights(windowSamples, order, 0);
+  const w1 = centreWeights(windowSamples, order, 1);
+  const scale1 = 1 / stepV;
+  const c0 = w0[m];
+  for (let i = m; i < n - m; i++) {
+    let a0 = c0 * ys[i];
+    let a1 = 0;
+    for (let j = 0; j < m; j++) {
+      const lo = ys[i - m + j], hi = ys[i + m - j];
+      a0 += w0[j] * (lo + hi);
+      a1 += w1[j] * (lo - hi);
+    }
+    smooth[i] = a0 * 1;
+    slope[i] = a1 * scale1;
+  }
+  endsUnchecked(y, windowSamples, order, 0, stepV, smooth);
+  endsUnchecked(y, windowSamples, order, 1, stepV, slope);
+  return { smooth, slope };
+}
+
+/**
+ * Interior: convolution with the centre weights, folded about the centre. The centre weights of
+ * an even derivative are symmetric and those of an odd one antisymmetric (the window is symmetric
+ * about its centre), so each pair of samples at ±j shares one weight: half the multiplications.
+ */
+function interiorUnchecked(ys: Float64Array, windowSamples: number, order: number, derivative: number, stepV: number, out: Float64Array): void {
+  const n = ys.length;
+  const m = (windowSamples - 1) / 2;
   const w = centreWeights(windowSamples, order, derivative);
   const scaleInterior = 1 / stepV ** derivative;
-  const ys = y instanceof Float64Array ? y : Float64Array.from(y);
   const odd = derivative % 2 === 1;
   const wc = odd ? 0 : w[m];
   for (let i = m; i < n - m; i++) {
@@ -437,8 +479,15 @@ export function savitzkyGolayUnchecked(
     else for (let j = 0; j < m; j++) acc += w[j] * (ys[i - m + j] + ys[i + m - j]);
     out[i] = acc * scaleInterior;
   }
-  // Ends: fit the first and last windows once (order + 1 coefficients each) and evaluate the
-  // derivative of each fit at the m outer positions.
+}
+
+/**
+ * Ends: fit the first and last windows once (order + 1 coefficients each) and evaluate the
+ * derivative of each fit at the m outer positions, into `out`.
+ */
+function endsUnchecked(y: ArrayLike<number>, windowSamples: number, order: number, derivative: number, stepV: number, out: Float64Array): void {
+  const n = y.length;
+  const m = (windowSamples - 1) / 2;
   const p = projector(windowSamples, order);
   const q = order + 1;
   const scale = 1 / stepV ** derivative;
@@ -470,5 +519,4 @@ export function savitzkyGolayUnchecked(
     for (let k = 0; k < q; k++) vr += e[k] * right[k];
     out[tail + r] = vr * scale;
   }
-  return out;
 }

@@ -5,6 +5,7 @@ import {
   SAVITZKY_GOLAY_DEFAULTS,
   savitzkyGolay,
   savitzkyGolayNoiseGain,
+  savitzkyGolaySmoothAndSlopeUnchecked,
   savitzkyGolayWeights,
 } from "../../lib/signal/savitzkyGolay.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -178,6 +179,24 @@ describe("savitzkyGolay(y, {windowSamples, order, derivative, stepV})", () => {
       const m = (n - 1) / 2;
       expectClose(ours.subarray(m, y.length - m), expected, { rtol: 1e-12, atol: 1e-12, what: `window ${n} order ${order} d ${d}` });
     }
+  });
+
+  it("smoothing and slope in one pass agree with ml-savitzky-golay (reference library) inside and with a polynomial at the ends (closed form)", () => {
+    const y = whiteNoise(300, 1, 6).map((e, i) => Math.cos(i / 23) + 0.05 * e);
+    for (const [n, order] of [[7, 2], [11, 3], [25, 3], [31, 4]]) {
+      const { smooth, slope } = savitzkyGolaySmoothAndSlopeUnchecked(y, n, order, 0.01);
+      const m = (n - 1) / 2;
+      for (const [d, got] of [[0, smooth], [1, slope]] as const) {
+        const expected = reference(Array.from(y), 0.01, { windowSize: n, polynomial: order, derivative: d, pad: "none" });
+        expectClose(got.subarray(m, y.length - m), expected, { rtol: 1e-12, atol: 1e-12, what: `window ${n} order ${order} d ${d}` });
+      }
+    }
+    // Closed form at the ends: y = 1 + 2x − x² with order 2 is reproduced exactly, y' = 2 − 2x.
+    const h = 0.1;
+    const x = Array.from({ length: 30 }, (_, i) => i * h);
+    const { smooth, slope } = savitzkyGolaySmoothAndSlopeUnchecked(x.map((t) => 1 + 2 * t - t * t), 9, 2, h);
+    expectClose(smooth, x.map((t) => 1 + 2 * t - t * t), { rtol: 1e-12, atol: 1e-12 });
+    expectClose(slope, x.map((t) => 2 - 2 * t), { rtol: 1e-10, atol: 1e-10 });
   });
 
   it("agrees in the interior with the tabulated weights (cubic first derivative, 7 points)", () => {
