@@ -123,3 +123,4 @@ export { gridToJson, gridProfileRows, GRID_JSON_VERSION, GRID_PROFILE_COLUMNS, t
 // Grid map figures load Observable Plot (and jsdom with a PNG canvas in Node) on demand: `const draw = await loadGridMapFigure()`.
 export { loadGridMapFigure, type GridMapFigureRenderer } from "./report/loadGridMapFigure.ts";
 export type { GridMapFigureOptions } from "./report/gridMapFigure.ts";
+export { gridMapFileNames } from "./report/gridMapFileNames.ts";
