@@ -58,6 +58,26 @@ function onDrop(zone, take) {
 }
 
 /**
+ * How a picker shows its value: `show` sets the zone's value and the "Showing:" line; `set` also
+ * tells the notebook (an input event, as any Inputs control sends).
+ *
+ * @param {HTMLElement & {value?: unknown}} zone
+ * @param {HTMLElement} status
+ * @param {(value: any) => string} describe
+ */
+function pickerValue(zone, status, describe) {
+  const show = (value) => {
+    zone.value = value;
+    status.textContent = describe(value);
+  };
+  const set = (value) => {
+    show(value);
+    zone.dispatchEvent(new Event("input", { bubbles: true }));
+  };
+  return { show, set };
+}
+
+/**
  * A picker for one curve: a bundled sample, a file chosen with the file picker, or a file
  * dropped on the zone. Its value is whichever was chosen last: an object with `name` and
  * `arrayBuffer()` (a bundled sample or a File). Files are read in the page only; the choice is
@@ -78,14 +98,7 @@ export function curvePicker(samples, { label = "Curve" } = {}) {
     <div class="dotspec-hint">…or drop a file here. Files are read in this page only; nothing is sent anywhere.</div>
     <div>Showing: ${status}</div>
   </div>`;
-  const show = (value) => {
-    zone.value = value;
-    status.textContent = value.name;
-  };
-  const set = (value) => {
-    show(value);
-    zone.dispatchEvent(new Event("input", { bubbles: true }));
-  };
+  const { show, set } = pickerValue(zone, status, (value) => value.name);
   const sample = (i) => ({ name: samples[i].name, arrayBuffer: () => samples[i].file.arrayBuffer() });
   const chooseFile = (f) => {
     set(f);
@@ -325,14 +338,7 @@ export function gridPicker(demo) {
     <div class="dotspec-hint">…or drop the files here. Files are read in this page only; nothing is sent anywhere.</div>
     <div>Showing: ${status}</div>
   </div>`;
-  const show = (value) => {
-    zone.value = value;
-    status.textContent = value.label;
-  };
-  const set = (value) => {
-    show(value);
-    zone.dispatchEvent(new Event("input", { bubbles: true }));
-  };
+  const { show, set } = pickerValue(zone, status, (value) => value.label);
   const demoValue = () => ({ label: `the demo grid (${demo.files.map((f) => f.name).join(" + ")})`, demo: true, eta: demo.eta, files: demo.files.map((f) => entry(f.name, f.file)) });
   const own = (files) => set({ label: files.map((f) => f.name).join(" + "), demo: false, eta: null, files: files.map((f) => entry(f.name, f)) });
   demoButton.addEventListener("click", () => set(demoValue()));

@@ -123,6 +123,16 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     return page;
   }
 
+  /** Drops files (name, text, MIME type) on the page's drop zone, as a user dragging them from a folder. */
+  async function dropFiles(page: Page, files: { name: string; text: string; type: string }[]): Promise<void> {
+    const transfer = await page.evaluateHandle((list) => {
+      const dt = new DataTransfer();
+      for (const f of list) dt.items.add(new File([f.text], f.name, { type: f.type }));
+      return dt;
+    }, files);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+  }
+
   /** The range input of an Inputs control, by its label. */
   const range = (page: Page, label: string) => page.locator(`form:has(> label:text-is("${label}")) input[type=range]`);
   const checkbox = (page: Page, label: string) => page.locator(`form:has(> label:text-is("${label}")) input[type=checkbox]`);
@@ -233,12 +243,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const page = await open("curve.html");
     await page.locator("[data-testid=curve-figure] > svg").waitFor();
     const text = readFileSync(join(ROOT, "sample-curves", "dot-04.csv"), "utf8");
-    const transfer = await page.evaluateHandle((t) => {
-      const dt = new DataTransfer();
-      dt.items.add(new File([t], "dropped-dot.csv", { type: "text/csv" }));
-      return dt;
-    }, text);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, [{ name: "dropped-dot.csv", text, type: "text/csv" }]);
     await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dropped-dot.csv");
     // The file's semicolon layout with a lock-in column: the measured dI/dV control is offered.
     expect(await checkbox(page, "use the measured dI/dV column").isDisabled()).toBe(false);
@@ -258,12 +263,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("dot-03.txt");
     expect(await page.locator("[data-testid=sample-select]").inputValue()).toBe("2");
     const text = readFileSync(join(ROOT, "sample-curves", "dot-02.tsv"), "utf8");
-    const transfer = await page.evaluateHandle((t) => {
-      const dt = new DataTransfer();
-      dt.items.add(new File([t], "my-dot.tsv", { type: "text/tab-separated-values" }));
-      return dt;
-    }, text);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, [{ name: "my-dot.tsv", text, type: "text/tab-separated-values" }]);
     await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
     await page.goto(served.url + "curve.html");
     await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
@@ -558,12 +558,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const dots = new Set(parseSizeMeta(metaText, "META.csv").map((r) => r.dot));
     const files = [{ name: "META.csv", text: metaText }, ...names.map((name) => ({ name, text: readFileSync(join(series, "curves", name), "utf8") }))];
     const page = await open("sizes.html");
-    const transfer = await page.evaluateHandle((list) => {
-      const dt = new DataTransfer();
-      for (const f of list) dt.items.add(new File([f.text], f.name, { type: "text/csv" }));
-      return dt;
-    }, files);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, files.map((f) => ({ ...f, type: "text/csv" })));
     await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
     expect(await page.locator("[data-testid=picked]").textContent()).toBe("4 curve files, size table META.csv");
     expect((await dotRows(page)).map((r) => r.dot)).toEqual([...dots]);
@@ -693,12 +688,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const grid = analyzeGrid(parseGridTable(tableText, { source: "scan.csv" }).cube);
     const page = await open("grid.html");
     await page.locator("[data-testid=map-table] tbody tr").first().waitFor({ timeout: 30_000 });
-    const transfer = await page.evaluateHandle((t) => {
-      const dt = new DataTransfer();
-      dt.items.add(new File([t], "scan.csv", { type: "text/csv" }));
-      return dt;
-    }, tableText);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, [{ name: "scan.csv", text: tableText, type: "text/csv" }]);
     await expect.poll(() => page.locator("[data-testid=grid-summary]").textContent()).toContain("scan.csv: 10 × 10 pixels");
     await expect.poll(async () => (await mapRows(page).catch(() => [])).map((r) => r.label)).toEqual(grid.maps.map((m) => m.label));
     // No η for one's own files (taken as 1, as `dotspec grid` without --eta): the same s map.
