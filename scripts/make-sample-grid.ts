@@ -49,15 +49,11 @@ export function float32Npy(values: Float32Array, shape: readonly number[]): Uint
 /** A start written as the user would (−3.45, not −3.4499999999999997); the cube's own starts differ by < 1e-12 nm. */
 const round = (v: number): number => Number(v.toFixed(9));
 
-function main(): void {
-  const dir = join(dirname(fileURLToPath(import.meta.url)), "..", "sample-curves", "grid");
+/** The demo grid's two files as the generator makes them: the NPY bytes and the sidecar text. */
+export function sampleGridFiles(): { npy: Uint8Array; sidecarText: string } {
   const G = SAMPLE_GRID;
   const cube = sphereDotCube({ nx: G.nx, ny: G.ny, stepNM: G.stepNM, radiusNM: G.radiusNM, bias: G.bias, noiseRelative: G.noiseRelative, seed: G.rngStart, dtype: "float64" });
   const pA = Float32Array.from(cube.currentA, (a) => a * 1e12);
-  const npyPath = join(dir, `${G.name}.npy`);
-  const tmp = join(dir, `.${G.name}.npy.tmp`);
-  writeFileSync(tmp, float32Npy(pA, [G.ny, G.nx, cube.biasV.count]));
-  renameSync(tmp, npyPath);
   const J = SPHERE_DOT_JUNCTION;
   const levels = SPHERE_DOT_LEVELS.map((l) => `${l.band.toUpperCase()} ${l.orbital === "pxy" ? "px/py" : l.orbital} at ${l.energyEV} eV (g = ${l.degeneracy})`).join(", ");
   const sidecar = {
@@ -71,8 +67,18 @@ function main(): void {
     biasV: [cube.biasV.start, cube.biasV.step, cube.biasV.count],
     currentUnit: "pA",
   };
-  writeTextFile(join(dir, `${G.name}.json`), JSON.stringify(sidecar, null, 2) + "\n");
-  console.log(`${npyPath}: ${G.ny} × ${G.nx} × ${cube.biasV.count} float32 (pA)`);
+  return { npy: float32Npy(pA, [G.ny, G.nx, cube.biasV.count]), sidecarText: JSON.stringify(sidecar, null, 2) + "\n" };
+}
+
+function main(): void {
+  const dir = join(dirname(fileURLToPath(import.meta.url)), "..", "sample-curves", "grid");
+  const { npy, sidecarText } = sampleGridFiles();
+  const npyPath = join(dir, `${SAMPLE_GRID.name}.npy`);
+  const tmp = join(dir, `.${SAMPLE_GRID.name}.npy.tmp`);
+  writeFileSync(tmp, npy);
+  renameSync(tmp, npyPath);
+  writeTextFile(join(dir, `${SAMPLE_GRID.name}.json`), sidecarText);
+  console.log(`${npyPath}: ${npy.length} bytes`);
 }
 
 if (process.argv[1] && import.meta.url === pathToFileURL(process.argv[1]).href) main();
