@@ -669,6 +669,18 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const sSvg = await save("SVG: s");
     expect(sSvg.name).toBe("dot-grid-s.svg");
     expect(sSvg.text.startsWith("<svg")).toBe(true);
+
+    // Biases typed by hand replace the assigned peaks, as `--at` does; a list that is not numbers says so.
+    const atBox = page.getByRole("textbox", { name: /map biases/ });
+    await atBox.fill("0.9, 1.2");
+    await page.getByRole("button", { name: "Map these biases" }).click();
+    const atGrid = analyzeGrid(readGridFile(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).cube, { eta: 0.6, analyze: { windowMV: 120 }, atV: [0.9, 1.2] });
+    await expect.poll(async () => (await mapRows(page)).map((r) => r.label)).toEqual(atGrid.maps.map((m) => m.label));
+    expect(atGrid.maps.slice(0, 2).map((m) => m.label)).toEqual(["at 0.900 V", "at 1.200 V"]);
+    await atBox.fill("0.9; x");
+    await page.getByRole("button", { name: "Map these biases" }).click();
+    await expect.poll(() => page.locator("[data-testid=problem]").first().textContent()).toContain('got "0.9; x"');
+    expect(await page.locator("[data-testid=map-table]").count()).toBe(0);
     expect(await errorCells(page)).toBe(0);
     await page.close();
   });
