@@ -12,7 +12,8 @@
 // against `analyzeGrid` run in Node on the same file (by construction), its s map against the
 // closed-form RMS radius of the projected 1s density of a particle in a sphere,
 // R·√((2/3)(1/3 − 1/(2π²))) (the grid tests' check value), its energies against E = η·V, and its
-// bad files against the line `dotspec grid` prints.
+// bad files against the line `dotspec grid` prints; a grid the page analyses in slices against
+// `analyzeGrid` on the whole grid (by construction: the parts of a pass make the whole pass).
 //
 // Screenshots go to artifacts/browser/ (git-ignored); so do the measured control-to-redraw
 // times (timings.json), which are reported, not asserted: speed is not a test here.
@@ -43,6 +44,7 @@ import {
   type SizeSeriesJson,
 } from "../../lib/index.ts";
 import { sphereDotCube } from "../fixtures/gridCubes.ts";
+import { float32Npy } from "../../scripts/make-sample-grid.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
 const HAVE_CHROMIUM = existsSync(CHROMIUM);
@@ -723,6 +725,48 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await page.locator("[data-testid=demo-grid]").click();
     await page.locator("[data-testid=map-table] tbody tr").first().waitFor();
     expect(await page.locator("[data-testid=problem]").count()).toBe(0);
+    await page.close();
+  });
+
+  it("grid maps: a grid of several slices shows its progress and gives the maps of `analyzeGrid` on the whole grid", async () => {
+    // The demo grid tiled 3 × 3 (72 × 72 pixels × 241 biases, 1.25 M samples): more than one slice
+    // of about a million samples per pass, so the page runs each pass in parts and shows a progress bar.
+    const demo = readGridFile(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).cube;
+    const n = demo.xNM.count, tiles = 3, N = n * tiles, nb = demo.biasV.count;
+    const tiled = new Float32Array(N * N * nb);
+    for (let iy = 0; iy < N; iy++)
+      for (let ix = 0; ix < N; ix++) {
+        const from = ((iy % n) * n + (ix % n)) * nb;
+        tiled.set(demo.currentA.subarray(from, from + nb), (iy * N + ix) * nb);
+      }
+    const dir = join(work, "tiled");
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, "tiled.npy"), float32Npy(tiled, [N, N, nb]));
+    const sidecar = { xNM: [demo.xNM.start, demo.xNM.step, N], yNM: [demo.yNM.start, demo.yNM.step, N], biasV: [demo.biasV.start, demo.biasV.step, nb], currentUnit: "A" };
+    writeFileSync(join(dir, "tiled.json"), JSON.stringify(sidecar));
+    const grid = analyzeGrid(readGridFile(join(dir, "tiled.npy")).cube);
+    const page = await open("grid.html");
+    await page.locator("[data-testid=map-table] tbody tr").first().waitFor({ timeout: 30_000 });
+    await page.evaluate(() => {
+      const w = window as unknown as { progressSeen: number };
+      w.progressSeen = 0;
+      new MutationObserver(() => {
+        if (document.querySelector("[data-testid=progress] progress")) w.progressSeen++;
+      }).observe(document.body, { childList: true, subtree: true });
+    });
+    await page.setInputFiles("[data-testid=grid-files]", [join(dir, "tiled.npy"), join(dir, "tiled.json")]);
+    await expect.poll(() => page.locator("[data-testid=grid-summary]").textContent()).toContain("tiled.npy: 72 × 72 pixels");
+    await expect.poll(async () => (await mapRows(page).catch(() => [])).map((r) => r.label), { timeout: 30_000 }).toEqual(grid.maps.map((m) => m.label));
+    expect(await page.evaluate(() => (window as unknown as { progressSeen: number }).progressSeen)).toBeGreaterThan(0);
+    expect(await page.locator("[data-testid=progress]").count()).toBe(0); // gone when done
+    // By construction: the parts of each pass put together are the pass over the whole grid.
+    const rows = await mapRows(page);
+    for (const m of grid.maps) {
+      const row = rows.find((r) => r.label === m.label)!;
+      if (m.rmsRadiusNM === null) expect(row.rmsRadiusNM, m.label).toBeNull();
+      else expectClose(row.rmsRadiusNM!, m.rmsRadiusNM, { rtol: 1e-9, what: `${m.label} RMS radius, page in slices vs analyzeGrid in Node` });
+    }
+    expect(await errorCells(page)).toBe(0);
     await page.close();
   });
 
