@@ -57,7 +57,8 @@ export const PARSE_NPY_GRID_BYTES_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * npyGridDataBytes(header, sidecar, 88, "a.npy", "a.json"); // => 8 (2 float32 after an 80-byte header)
+ * // a [2, 3, 5] float32 cube after its header: 2·3·5·4 data bytes
+ * npyGridDataBytes(header, sidecar, header.dataOffset + 120, "a.npy", "a.json"); // => 120
  * ```
  */
 export function npyGridDataBytes(header: NpyHeader, sidecar: GridSidecar, fileBytes: number, source: string, sidecarSource: string): number {
