@@ -116,4 +116,11 @@ export * from "./grid/index.ts";
 export { parseNpyHeader, type NpyHeader } from "./io/npyHeader.ts";
 export { parseGridSidecar, type GridSidecar } from "./io/gridSidecar.ts";
 export { parseGridTable, GRID_TABLE_DEFAULTS, type ParseGridTableOptions, type GridTableRecord } from "./io/parseGridTable.ts";
+export { parseNpyGridBytes, npyGridDataBytes, npyGridCube, PARSE_NPY_GRID_BYTES_DEFAULTS, type NpyGridResult, type ParseNpyGridBytesOptions } from "./io/parseNpyGridBytes.ts";
+export { parseGridBytes, gridSidecarName, isNpyGridName, PARSE_GRID_BYTES_DEFAULTS, type GridFileResult, type ParseGridBytesOptions } from "./io/parseGridBytes.ts";
+export { parseJsonText } from "./io/parseJsonText.ts";
 export { gridToJson, gridProfileRows, GRID_JSON_VERSION, GRID_PROFILE_COLUMNS, type GridJson, type GridMapJson } from "./report/gridJson.ts";
+// Grid map figures load Observable Plot (and jsdom with a PNG canvas in Node) on demand: `const draw = await loadGridMapFigure()`.
+export { loadGridMapFigure, type GridMapFigureRenderer } from "./report/loadGridMapFigure.ts";
+export type { GridMapFigureOptions } from "./report/gridMapFigure.ts";
+export { gridMapFileNames } from "./report/gridMapFileNames.ts";

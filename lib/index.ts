@@ -21,9 +21,6 @@ export {
   type OutputManifest,
 } from "./io/outputManifest.ts";
 
-// Grid spectroscopy, Node-only parts: reading cubes from files, and the map figures (PNG raster by node:zlib).
-export { readNpyGrid, READ_NPY_DEFAULTS, type ReadNpyGridOptions, type NpyGridResult } from "./io/readNpyGrid.ts";
-export { readGridFile, fileBytes, type ReadGridFileOptions, type GridFileResult } from "./io/readGridFile.ts";
-// Grid map figures load Observable Plot (and jsdom in Node) on demand: `const draw = await loadGridMapFigure()`.
-export { loadGridMapFigure, type GridMapFigureRenderer } from "./report/loadGridMapFigure.ts";
-export type { GridMapFigureOptions } from "./report/gridMapFigure.ts";
+// Grid spectroscopy, Node-only parts: reading cubes from files (the readers of bytes are in lib/core.ts).
+export { readNpyGrid, READ_NPY_DEFAULTS, type ReadNpyGridOptions } from "./io/readNpyGrid.ts";
+export { readGridFile, fileBytes, type ReadGridFileOptions } from "./io/readGridFile.ts";

@@ -37,6 +37,47 @@ function remember(saved) {
 }
 
 /**
+ * Makes an element a drop zone: files dropped on it go to `take` (a non-empty list), and it is
+ * highlighted while something is dragged over it.
+ *
+ * @param {HTMLElement} zone
+ * @param {(files: File[]) => void} take
+ */
+function onDrop(zone, take) {
+  zone.addEventListener("dragover", (event) => {
+    event.preventDefault();
+    zone.classList.add("dotspec-drop-over");
+  });
+  zone.addEventListener("dragleave", () => zone.classList.remove("dotspec-drop-over"));
+  zone.addEventListener("drop", (event) => {
+    event.preventDefault();
+    zone.classList.remove("dotspec-drop-over");
+    const dropped = event.dataTransfer && event.dataTransfer.files;
+    if (dropped && dropped.length) take([...dropped]);
+  });
+}
+
+/**
+ * How a picker shows its value: `show` sets the zone's value and the "Showing:" line; `set` also
+ * tells the notebook (an input event, as any Inputs control sends).
+ *
+ * @param {HTMLElement & {value?: unknown}} zone
+ * @param {HTMLElement} status
+ * @param {(value: any) => string} describe
+ */
+function pickerValue(zone, status, describe) {
+  const show = (value) => {
+    zone.value = value;
+    status.textContent = describe(value);
+  };
+  const set = (value) => {
+    show(value);
+    zone.dispatchEvent(new Event("input", { bubbles: true }));
+  };
+  return { show, set };
+}
+
+/**
  * A picker for one curve: a bundled sample, a file chosen with the file picker, or a file
  * dropped on the zone. Its value is whichever was chosen last: an object with `name` and
  * `arrayBuffer()` (a bundled sample or a File). Files are read in the page only; the choice is
@@ -57,14 +98,7 @@ export function curvePicker(samples, { label = "Curve" } = {}) {
     <div class="dotspec-hint">…or drop a file here. Files are read in this page only; nothing is sent anywhere.</div>
     <div>Showing: ${status}</div>
   </div>`;
-  const show = (value) => {
-    zone.value = value;
-    status.textContent = value.name;
-  };
-  const set = (value) => {
-    show(value);
-    zone.dispatchEvent(new Event("input", { bubbles: true }));
-  };
+  const { show, set } = pickerValue(zone, status, (value) => value.name);
   const sample = (i) => ({ name: samples[i].name, arrayBuffer: () => samples[i].file.arrayBuffer() });
   const chooseFile = (f) => {
     set(f);
@@ -79,17 +113,7 @@ export function curvePicker(samples, { label = "Curve" } = {}) {
   file.addEventListener("change", () => {
     if (file.files && file.files.length) chooseFile(file.files[0]);
   });
-  zone.addEventListener("dragover", (event) => {
-    event.preventDefault();
-    zone.classList.add("dotspec-drop-over");
-  });
-  zone.addEventListener("dragleave", () => zone.classList.remove("dotspec-drop-over"));
-  zone.addEventListener("drop", (event) => {
-    event.preventDefault();
-    zone.classList.remove("dotspec-drop-over");
-    const dropped = event.dataTransfer && event.dataTransfer.files;
-    if (dropped && dropped.length) chooseFile(dropped[0]);
-  });
+  onDrop(zone, (files) => chooseFile(files[0]));
   const saved = remembered();
   if (saved && typeof saved.sample === "number" && saved.sample < samples.length) {
     select.value = String(saved.sample);
@@ -289,16 +313,49 @@ export function seriesPicker(demo) {
   opticalInput.addEventListener("change", () => {
     if (opticalInput.files && opticalInput.files.length) set({ ...mine(state), optical: entry(opticalInput.files[0].name, opticalInput.files[0]) });
   });
-  zone.addEventListener("dragover", (event) => {
-    event.preventDefault();
-    zone.classList.add("dotspec-drop-over");
-  });
-  zone.addEventListener("dragleave", () => zone.classList.remove("dotspec-drop-over"));
-  zone.addEventListener("drop", (event) => {
-    event.preventDefault();
-    zone.classList.remove("dotspec-drop-over");
-    const dropped = event.dataTransfer && event.dataTransfer.files;
-    if (dropped && dropped.length) addFiles([...dropped]);
-  });
+  onDrop(zone, addFiles);
   return zone;
+}
+
+/**
+ * A picker for one grid: the bundled demo grid, or files chosen with the file picker or dropped on
+ * the zone — an `.npy` with its JSON sidecar (both at once), or one long-table file. Its value is
+ * whichever was chosen last: `{ label, demo, files, eta }`, `files` a list of `{ name,
+ * arrayBuffer(), text() }` (read in the page only), `eta` the demo's η (null for files of one's
+ * own). It starts on the demo grid.
+ *
+ * @param {{label: string, eta: number, files: {name: string, file: object}[]}} demo - the bundled
+ *   grid under its files' own names (a built page renames its files), a line describing it and the
+ *   η it was made with.
+ */
+export function gridPicker(demo) {
+  const demoButton = html`<button type="button" class="dotspec-download" data-testid="demo-grid">Load the demo grid</button>`;
+  const input = html`<input type="file" multiple data-testid="grid-files" accept=".npy,.json,.csv,.tsv,.txt,.dat,text/plain,text/csv,application/json" aria-label="open a grid: an .npy with its .json sidecar, or a long table">`;
+  const status = html`<span class="dotspec-picked" data-testid="picked"></span>`;
+  const zone = html`<div class="dotspec-drop" data-testid="drop-zone">
+    <div>${demoButton} <span class="dotspec-hint">${demo.label}</span></div>
+    <div><strong>Your grid</strong>: an <code>.npy</code> together with its <code>.json</code> sidecar, or one long table (x, y, bias, current) ${input}</div>
+    <div class="dotspec-hint">…or drop the files here. Files are read in this page only; nothing is sent anywhere.</div>
+    <div>Showing: ${status}</div>
+  </div>`;
+  const { show, set } = pickerValue(zone, status, (value) => value.label);
+  const demoValue = () => ({ label: `the demo grid (${demo.files.map((f) => f.name).join(" + ")})`, demo: true, eta: demo.eta, files: demo.files.map((f) => entry(f.name, f.file)) });
+  const own = (files) => set({ label: files.map((f) => f.name).join(" + "), demo: false, eta: null, files: files.map((f) => entry(f.name, f)) });
+  demoButton.addEventListener("click", () => set(demoValue()));
+  input.addEventListener("change", () => {
+    if (input.files && input.files.length) own([...input.files]);
+  });
+  onDrop(zone, own);
+  show(demoValue());
+  return zone;
+}
+
+/**
+ * A progress bar with a line of text, for work the page does in steps.
+ *
+ * @param {number} fraction - done, from 0 to 1.
+ * @param {string} text
+ */
+export function progress(fraction, text) {
+  return html`<div class="dotspec-note" data-testid="progress"><progress max="1" value=${fraction}></progress> ${text}</div>`;
 }

@@ -54,6 +54,16 @@ describe("lib/core.ts", () => {
     }
   });
 
+  it("exports the grid readers of bytes and the grid map figure loader (the grid notebook needs them); the file readers stay in lib/index.ts", () => {
+    for (const name of ["parseGridBytes", "parseNpyGridBytes", "parseJsonText", "parseGridTable", "analyzeGrid", "gridAnalysisSteps", "runPixelPass", "combinePixelPass", "gridToJson", "gridProfileRows", "gridMapFileNames", "loadGridMapFigure"]) {
+      expect(typeof (core as Record<string, unknown>)[name], name).toBe("function");
+    }
+    for (const name of ["readGridFile", "readNpyGrid"]) {
+      expect(name in core, name).toBe(false);
+      expect(typeof (entry as Record<string, unknown>)[name], name).toBe("function");
+    }
+  });
+
   it("lib/index.ts re-exports every export of lib/core.ts, the same objects", () => {
     for (const [name, value] of Object.entries(core)) expect((entry as Record<string, unknown>)[name], name).toBe(value);
   });

@@ -19,6 +19,8 @@ import { EDGE_STEP_WIDTH_DEFAULTS } from "../lib/peaks/edgeStepWidth.ts";
 import { SCENARIO_DEFAULTS } from "../lib/model/scenario.ts";
 import { SYNTHETIC_DEFAULTS } from "../lib/model/syntheticSpectrum.ts";
 import { PLAN_SIZE_CURVES_DEFAULTS } from "../lib/sizes/planSizeCurves.ts";
+import { PARSE_NPY_GRID_BYTES_DEFAULTS } from "../lib/io/parseNpyGridBytes.ts";
+import { PARSE_GRID_BYTES_DEFAULTS } from "../lib/io/parseGridBytes.ts";
 
 const OBJECTS: Record<string, object> = {
   FIND_PEAKS_DEFAULTS,
@@ -36,6 +38,8 @@ const OBJECTS: Record<string, object> = {
   SCENARIO_DEFAULTS,
   SYNTHETIC_DEFAULTS,
   PLAN_SIZE_CURVES_DEFAULTS,
+  PARSE_NPY_GRID_BYTES_DEFAULTS,
+  PARSE_GRID_BYTES_DEFAULTS,
 };
 
 /** [source file, options interface, the DEFAULTS objects its fields default to, in lookup order]. */
@@ -56,6 +60,8 @@ const CASES: [string, string, string[]][] = [
   ["../lib/model/scenario.ts", "NoiseSpec", ["SCENARIO_DEFAULTS"]],
   ["../lib/model/syntheticSpectrum.ts", "SyntheticRanges", ["SYNTHETIC_DEFAULTS"]],
   ["../lib/sizes/planSizeCurves.ts", "PlanSizeCurvesOptions", ["PLAN_SIZE_CURVES_DEFAULTS"]],
+  ["../lib/io/parseNpyGridBytes.ts", "ParseNpyGridBytesOptions", ["PARSE_NPY_GRID_BYTES_DEFAULTS"]],
+  ["../lib/io/parseGridBytes.ts", "ParseGridBytesOptions", ["PARSE_GRID_BYTES_DEFAULTS"]],
 ];
 
 describe("documented defaults", () => {

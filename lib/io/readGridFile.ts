@@ -2,13 +2,13 @@
  * Reading a grid from disk: an NPY array with its JSON sidecar, or a long table.
  */
 import { readFileSync, statSync } from "node:fs";
-import { extname } from "node:path";
-import type { GridCube } from "../grid/gridCube.ts";
 import { DotspecError } from "../util/errors.ts";
-import { parseGridTable, type GridTableRecord } from "./parseGridTable.ts";
+import { gridSidecarName, isNpyGridName, parseGridBytes, type GridFileResult } from "./parseGridBytes.ts";
 import { readJsonFile } from "./readJsonFile.ts";
-import { readNpyGrid, type NpyGridResult } from "./readNpyGrid.ts";
+import { readNpyGrid } from "./readNpyGrid.ts";
 import { MAX_CURVE_FILE_BYTES } from "./readCurveFile.ts";
+
+export type { GridFileResult } from "./parseGridBytes.ts";
 
 /** Options of {@link readGridFile}. */
 export interface ReadGridFileOptions {
@@ -16,17 +16,6 @@ export interface ReadGridFileOptions {
   sidecar?: string;
   /** Put an NPY cube on a SharedArrayBuffer (for worker threads). Default false. */
   shared?: boolean;
-}
-
-/** What {@link readGridFile} read: the cube and, by layout, how. */
-export interface GridFileResult {
-  cube: GridCube;
-  layout: "npy" | "table";
-  /** The NPY header and sidecar (layout "npy"), or null. */
-  npy: Omit<NpyGridResult, "cube"> | null;
-  /** The table record (layout "table"), or null. */
-  table: GridTableRecord | null;
-  warnings: string[];
 }
 
 /**
@@ -63,14 +52,14 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
   } catch {
     throw new DotspecError("io/not-found", `${path}: no such file`);
   }
-  if (extname(path).toLowerCase() === ".npy") {
-    const sidecarPath = options.sidecar ?? path.replace(/\.npy$/i, ".json");
+  if (isNpyGridName(path)) {
+    const sidecarPath = options.sidecar ?? gridSidecarName(path);
     const r = readNpyGrid(path, readJsonFile(sidecarPath), { shared: options.shared ?? false }, sidecarPath);
     return { cube: r.cube, layout: "npy", npy: { header: r.header, sidecar: r.sidecar }, table: null, warnings: [] };
   }
   if (size > MAX_CURVE_FILE_BYTES) throw new DotspecError("io/too-large", `${path}: ${size} bytes is more than a grid table may hold (${MAX_CURVE_FILE_BYTES}); store large grids as NPY`);
-  const r = parseGridTable(readFileSync(path, "utf8"), { source: path });
-  return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: r.record.warnings };
+  // The table's bytes are decoded and parsed as a page parses a file it was given.
+  return parseGridBytes(readFileSync(path), { source: path });
 }
 
 /**

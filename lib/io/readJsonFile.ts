@@ -3,6 +3,7 @@
  */
 import { readFileSync } from "node:fs";
 import { DotspecError } from "../util/errors.ts";
+import { parseJsonText } from "./parseJsonText.ts";
 
 /**
  * Reads and parses a JSON file.
@@ -21,7 +22,8 @@ import { DotspecError } from "../util/errors.ts";
  * ------
  * DotspecError
  *     `io/unreadable-json` when the file cannot be read (missing, a folder, no permission);
- *     `io/invalid-json` when it is not valid JSON (the parser's message names the position).
+ *     `io/invalid-json` when it is not valid JSON ({@link parseJsonText}; the parser's message names
+ *     the position).
  *
  * Example
  * -------
@@ -37,9 +39,5 @@ export function readJsonFile(path: string): unknown {
       code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a JSON file" : code === "EACCES" ? "permission denied" : (err as Error).message;
     throw new DotspecError("io/unreadable-json", `${path}: cannot be read (${why})`);
   }
-  try {
-    return JSON.parse(text.replace(/^\uFEFF/, ""));
-  } catch (err) {
-    throw new DotspecError("io/invalid-json", `${path}: not valid JSON (${(err as Error).message})`);
-  }
+  return parseJsonText(text, path);
 }

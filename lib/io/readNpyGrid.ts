@@ -2,10 +2,12 @@
  * Reading a grid stored as an NPY array of current, shape [ny, nx, nbias], with its JSON sidecar.
  */
 import { closeSync, fstatSync, openSync, readSync } from "node:fs";
-import type { GridCube } from "../grid/gridCube.ts";
 import { DotspecError } from "../util/errors.ts";
-import { parseGridSidecar, type GridSidecar } from "./gridSidecar.ts";
+import { parseGridSidecar } from "./gridSidecar.ts";
 import { parseNpyHeader, type NpyHeader } from "./npyHeader.ts";
+import { npyGridCube, npyGridDataBytes, type NpyGridResult } from "./parseNpyGridBytes.ts";
+
+export type { NpyGridResult } from "./parseNpyGridBytes.ts";
 
 /** Options of {@link readNpyGrid}. */
 export interface ReadNpyGridOptions {
@@ -22,13 +24,6 @@ export const READ_NPY_DEFAULTS = Object.freeze({
   /** Bytes read first for the header (a longer header is read in full after its length is known). */
   headBytes: 4096,
 });
-
-/** What {@link readNpyGrid} read. */
-export interface NpyGridResult {
-  cube: GridCube;
-  header: NpyHeader;
-  sidecar: GridSidecar;
-}
 
 /**
  * Reads an NPY current cube with its sidecar axes.
@@ -55,7 +50,8 @@ export interface NpyGridResult {
  * DotspecError
  *     `io/not-found`, `io/read-failed`; every error of {@link parseNpyHeader} and
  *     {@link parseGridSidecar}; `io/npy-order` (Fortran order); `io/npy-shape` (not 3-D, or not
- *     [ny, nx, nbias] of the sidecar); `io/npy-size` (the file is shorter or longer than the shape says).
+ *     [ny, nx, nbias] of the sidecar); `io/npy-size` (the file is shorter or longer than the shape
+ *     says): the checks of {@link npyGridDataBytes}.
  *
  * Notes
  * -----
@@ -63,7 +59,8 @@ export interface NpyGridResult {
  *    file size against offset + ny·nx·nbias·itemsize.
  * 2. Allocate one buffer (shared if asked) and read the data into it in chunks of chunkBytes,
  *    straight into its bytes: no intermediate copy and never an array of JS numbers.
- * 3. Big-endian data are byte-swapped in place; a current unit other than A is scaled in place.
+ * 3. Big-endian data are byte-swapped in place; a current unit other than A is scaled in place
+ *    ({@link npyGridCube}, shared with {@link parseNpyGridBytes}, the reader of bytes in memory).
  *
  * References
  * ----------
@@ -104,21 +101,7 @@ export function readNpyGrid(path: string, sidecar: unknown, options: ReadNpyGrid
       readSync(fd, head, 0, head.length, 0);
       header = parseNpyHeader(head, path);
     }
-    if (header.fortranOrder) {
-      throw new DotspecError("io/npy-order", `${path}: the array is in Fortran order; save it in C order (numpy.save(path, numpy.ascontiguousarray(a)))`);
-    }
-    const want = [side.yNM.count, side.xNM.count, side.biasV.count];
-    if (header.shape.length !== 3 || header.shape.some((n, i) => n !== want[i])) {
-      throw new DotspecError(
-        "io/npy-shape",
-        `${path}: shape (${header.shape.join(", ")}) is not [ny, nx, nbias] = [${want.join(", ")}] of ${sidecarSource}: store the current as a [ny, nx, nbias] array or fix the sidecar counts`,
-      );
-    }
-    const n = want[0] * want[1] * want[2];
-    const dataBytes = n * header.itemBytes;
-    if (size !== header.dataOffset + dataBytes) {
-      throw new DotspecError("io/npy-size", `${path}: ${size - header.dataOffset} data bytes, but shape (${want.join(", ")}) of ${header.dtype} needs ${dataBytes}: the file is truncated or not what its header says`);
-    }
+    const dataBytes = npyGridDataBytes(header, side, size, path, sidecarSource);
     const buffer = options.shared ? new SharedArrayBuffer(dataBytes) : new ArrayBuffer(dataBytes);
     const bytes = new Uint8Array(buffer);
     for (let done = 0; done < dataBytes; ) {
@@ -127,30 +110,9 @@ export function readNpyGrid(path: string, sidecar: unknown, options: ReadNpyGrid
       if (got <= 0) throw new DotspecError("io/npy-size", `${path}: the file ended after ${done} of ${dataBytes} data bytes`);
       done += got;
     }
-    if (header.littleEndian !== isLittleEndianHost()) swapBytes(bytes, header.itemBytes);
-    const currentA = header.dtype === "float32" ? new Float32Array(buffer) : new Float64Array(buffer);
-    if (side.currentUnit.exponent !== 0) {
-      const div = 10 ** -side.currentUnit.exponent;
-      for (let i = 0; i < currentA.length; i++) currentA[i] /= div;
-    }
-    const cube: GridCube = { currentA, xNM: side.xNM, yNM: side.yNM, biasV: side.biasV, missing: null, source: path };
+    const cube = npyGridCube(buffer, header, side, path);
     return { cube, header, sidecar: side };
   } finally {
     closeSync(fd);
-  }
-}
-
-function isLittleEndianHost(): boolean {
-  return new Uint8Array(Uint16Array.of(1).buffer)[0] === 1;
-}
-
-/** Reverses the bytes of every item of `size` bytes, in place. */
-function swapBytes(bytes: Uint8Array, size: number): void {
-  for (let i = 0; i + size <= bytes.length; i += size) {
-    for (let a = i, b = i + size - 1; a < b; a++, b--) {
-      const t = bytes[a];
-      bytes[a] = bytes[b];
-      bytes[b] = t;
-    }
   }
 }

@@ -1,6 +1,7 @@
 /**
  * On-demand loading of the grid map figure: Observable Plot, and in Node jsdom with a PNG canvas
- * for the raster.
+ * for the raster. Browser-safe: a page draws in its own document, on its own canvas, so the notebook
+ * and `dotspec grid --out` draw their maps with the same code.
  */
 import type { GridMap } from "../grid/analyzeGrid.ts";
 import type { GridMapFigureOptions } from "./gridMapFigure.ts";
@@ -34,6 +35,8 @@ export async function loadGridMapFigure(document?: Document): Promise<GridMapFig
 async function rasterDocument(): Promise<Document> {
   const doc = await figureDocument();
   if ((globalThis as { document?: Document }).document === doc) return doc;
-  const { withPngCanvas } = await import("./pngCanvas.ts");
-  return withPngCanvas(doc);
+  // A variable specifier keeps browser bundlers from pulling node:zlib into a page (which has a canvas of its own).
+  const zlib = "node:zlib";
+  const [{ withPngCanvas }, { deflateSync }] = await Promise.all([import("./pngCanvas.ts"), import(/* @vite-ignore */ zlib) as Promise<typeof import("node:zlib")>]);
+  return withPngCanvas(doc, deflateSync);
 }

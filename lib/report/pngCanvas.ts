@@ -1,8 +1,13 @@
 /**
  * A minimal canvas for drawing rasters outside a browser: enough of HTMLCanvasElement and its 2-D
  * context for Observable Plot's raster mark (createImageData, putImageData, toDataURL as PNG).
+ *
+ * The zlib compressor is handed in (Node's `deflateSync`, loaded by the figure loader only outside
+ * a browser), so this module imports nothing of Node and the public entry can reach it.
  */
-import { deflateSync } from "node:zlib";
+
+/** A zlib (RFC 1950) compressor: Node's `zlib.deflateSync`. */
+export type Deflate = (bytes: Uint8Array) => Uint8Array;
 
 interface ImageDataLike {
   width: number;
@@ -47,11 +52,11 @@ function chunk(type: string, data: Uint8Array): Uint8Array {
  * Example
  * -------
  * ```ts
- * encodePng({ width: 1, height: 1, data: Uint8ClampedArray.of(255, 0, 0, 255) }).subarray(0, 8);
+ * encodePng({ width: 1, height: 1, data: Uint8ClampedArray.of(255, 0, 0, 255) }, deflateSync).subarray(0, 8);
  * // => [137, 80, 78, 71, 13, 10, 26, 10]  (the PNG signature)
  * ```
  */
-export function encodePng(image: ImageDataLike): Uint8Array {
+export function encodePng(image: ImageDataLike, deflate: Deflate): Uint8Array {
   const { width, height, data } = image;
   const raw = new Uint8Array(height * (1 + 4 * width));
   for (let y = 0; y < height; y++) {
@@ -63,7 +68,7 @@ export function encodePng(image: ImageDataLike): Uint8Array {
   v.setUint32(0, width);
   v.setUint32(4, height);
   ihdr.set([8, 6, 0, 0, 0], 8); // 8 bits, RGBA, deflate, no filter method, no interlace
-  const parts = [Uint8Array.of(137, 80, 78, 71, 13, 10, 26, 10), chunk("IHDR", ihdr), chunk("IDAT", new Uint8Array(deflateSync(raw))), chunk("IEND", new Uint8Array(0))];
+  const parts = [Uint8Array.of(137, 80, 78, 71, 13, 10, 26, 10), chunk("IHDR", ihdr), chunk("IDAT", new Uint8Array(deflate(raw))), chunk("IEND", new Uint8Array(0))];
   const out = new Uint8Array(parts.reduce((n, p) => n + p.length, 0));
   let o = 0;
   for (const p of parts) {
@@ -86,7 +91,7 @@ function parseColor(style: string): [number, number, number, number] {
  * A canvas element stand-in: `putImageData` (rasters) and `fillRect` with an `rgb()`/`#rrggbb`
  * `fillStyle` (colour ramps), and `toDataURL()` returning the PNG of the pixels.
  */
-function pngCanvas(): unknown {
+function pngCanvas(deflate: Deflate): unknown {
   let image: ImageDataLike | null = null;
   const pixels = (): ImageDataLike => {
     if (!image || image.width !== canvas.width || image.height !== canvas.height) {
@@ -111,19 +116,20 @@ function pngCanvas(): unknown {
     width: 0,
     height: 0,
     getContext: () => context,
-    toDataURL: () => `data:image/png;base64,${Buffer.from(encodePng(pixels())).toString("base64")}`,
+    toDataURL: () => `data:image/png;base64,${Buffer.from(encodePng(pixels(), deflate)).toString("base64")}`,
   };
   return canvas;
 }
 
 /**
  * The same document, except that `createElement("canvas")` gives a PNG canvas: for drawing Plot
- * rasters with a DOM that has no canvas (jsdom in Node).
+ * rasters with a DOM that has no canvas (jsdom in Node). `deflate` compresses the PNG data
+ * (Node's `zlib.deflateSync`).
  */
-export function withPngCanvas(document: Document): Document {
+export function withPngCanvas(document: Document, deflate: Deflate): Document {
   return new Proxy(document, {
     get(target, key) {
-      if (key === "createElement") return (name: string, opts?: ElementCreationOptions) => (String(name).toLowerCase() === "canvas" ? pngCanvas() : target.createElement(name, opts));
+      if (key === "createElement") return (name: string, opts?: ElementCreationOptions) => (String(name).toLowerCase() === "canvas" ? pngCanvas(deflate) : target.createElement(name, opts));
       const value = Reflect.get(target, key, target);
       return typeof value === "function" ? value.bind(target) : value;
     },

@@ -8,7 +8,12 @@
 // `dotspec analyze` prints for it (the CLI itself is run as the reference). The size-series page
 // is checked against `dotspec sizes` run in Node on the same files (by construction: the page
 // calls the same library functions, so every value must agree); the demo's dot count is the
-// number of dot ids in its META.csv, the size table the page reads.
+// number of dot ids in its META.csv, the size table the page reads. The grid page is checked
+// against `analyzeGrid` run in Node on the same file (by construction), its s map against the
+// closed-form RMS radius of the projected 1s density of a particle in a sphere,
+// R·√((2/3)(1/3 − 1/(2π²))) (the grid tests' check value), its energies against E = η·V, and its
+// bad files against the line `dotspec grid` prints; a grid the page analyses in slices against
+// `analyzeGrid` on the whole grid (by construction: the parts of a pass make the whole pass).
 //
 // Screenshots go to artifacts/browser/ (git-ignored); so do the measured control-to-redraw
 // times (timings.json), which are reported, not asserted: speed is not a test here.
@@ -23,16 +28,23 @@ import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts"
 import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import {
+  analyzeGrid,
   failureReason,
   formatCsv,
+  GRID_PROFILE_COLUMNS,
+  parseGridTable,
+  readGridFile,
   parseCurveText,
   parseScenario,
   parseSizeFormula,
   parseSizeMeta,
   SIZE_TABLE_FILES,
   sizeSeriesTables,
+  type GridJson,
   type SizeSeriesJson,
 } from "../../lib/index.ts";
+import { sphereDotCube } from "../fixtures/gridCubes.ts";
+import { float32Npy } from "../../scripts/make-sample-grid.ts";
 
 const CHROMIUM = "/usr/bin/chromium";
 const HAVE_CHROMIUM = existsSync(CHROMIUM);
@@ -113,6 +125,16 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     return page;
   }
 
+  /** Drops files (name, text, MIME type) on the page's drop zone, as a user dragging them from a folder. */
+  async function dropFiles(page: Page, files: { name: string; text: string; type: string }[]): Promise<void> {
+    const transfer = await page.evaluateHandle((list) => {
+      const dt = new DataTransfer();
+      for (const f of list) dt.items.add(new File([f.text], f.name, { type: f.type }));
+      return dt;
+    }, files);
+    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+  }
+
   /** The range input of an Inputs control, by its label. */
   const range = (page: Page, label: string) => page.locator(`form:has(> label:text-is("${label}")) input[type=range]`);
   const checkbox = (page: Page, label: string) => page.locator(`form:has(> label:text-is("${label}")) input[type=checkbox]`);
@@ -156,6 +178,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await expect.poll(() => page.locator("main a[href='./curve.html']").count()).toBe(1);
     expect(await page.locator("main a[href='./model.html']").count()).toBe(1);
     expect(await page.locator("main a[href='./sizes.html']").count()).toBe(1);
+    expect(await page.locator("main a[href='./grid.html']").count()).toBe(1);
     await page.close();
   });
 
@@ -222,12 +245,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const page = await open("curve.html");
     await page.locator("[data-testid=curve-figure] > svg").waitFor();
     const text = readFileSync(join(ROOT, "sample-curves", "dot-04.csv"), "utf8");
-    const transfer = await page.evaluateHandle((t) => {
-      const dt = new DataTransfer();
-      dt.items.add(new File([t], "dropped-dot.csv", { type: "text/csv" }));
-      return dt;
-    }, text);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, [{ name: "dropped-dot.csv", text, type: "text/csv" }]);
     await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("dropped-dot.csv");
     // The file's semicolon layout with a lock-in column: the measured dI/dV control is offered.
     expect(await checkbox(page, "use the measured dI/dV column").isDisabled()).toBe(false);
@@ -247,12 +265,7 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("dot-03.txt");
     expect(await page.locator("[data-testid=sample-select]").inputValue()).toBe("2");
     const text = readFileSync(join(ROOT, "sample-curves", "dot-02.tsv"), "utf8");
-    const transfer = await page.evaluateHandle((t) => {
-      const dt = new DataTransfer();
-      dt.items.add(new File([t], "my-dot.tsv", { type: "text/tab-separated-values" }));
-      return dt;
-    }, text);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, [{ name: "my-dot.tsv", text, type: "text/tab-separated-values" }]);
     await expect.poll(() => page.locator("[data-testid=model-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
     await page.goto(served.url + "curve.html");
     await expect.poll(() => page.locator("[data-testid=curve-figure] > svg > title").first().textContent()).toContain("my-dot.tsv");
@@ -547,16 +560,212 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const dots = new Set(parseSizeMeta(metaText, "META.csv").map((r) => r.dot));
     const files = [{ name: "META.csv", text: metaText }, ...names.map((name) => ({ name, text: readFileSync(join(series, "curves", name), "utf8") }))];
     const page = await open("sizes.html");
-    const transfer = await page.evaluateHandle((list) => {
-      const dt = new DataTransfer();
-      for (const f of list) dt.items.add(new File([f.text], f.name, { type: "text/csv" }));
-      return dt;
-    }, files);
-    await page.dispatchEvent("[data-testid=drop-zone]", "drop", { dataTransfer: transfer });
+    await dropFiles(page, files.map((f) => ({ ...f, type: "text/csv" })));
     await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
     expect(await page.locator("[data-testid=picked]").textContent()).toBe("4 curve files, size table META.csv");
     expect((await dotRows(page)).map((r) => r.dot)).toEqual([...dots]);
     expect(await page.locator("[data-testid=unassigned]").count()).toBe(0); // every dropped curve is in the table
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  /** Rows of the grid page's map table: label, kind, RMS radius (nm, unrounded), and the cells as shown by column heading. */
+  async function mapRows(page: Page): Promise<{ label: string; kind: string; rmsRadiusNM: number | null; cells: Record<string, string> }[]> {
+    return page.locator("[data-testid=map-table]").evaluate((table) => {
+      const heads = [...table.querySelectorAll("thead th")].map((th) => th.textContent!.trim());
+      return [...table.querySelectorAll("tbody tr")].map((tr) => {
+        const d = (tr as HTMLElement).dataset;
+        return {
+          label: d.label!,
+          kind: d.kind!,
+          rmsRadiusNM: d.rmsRadiusNm === "null" ? null : Number(d.rmsRadiusNm),
+          cells: Object.fromEntries([...tr.children].map((td, i) => [heads[i], td.textContent!.trim()])),
+        };
+      });
+    });
+  }
+
+  /** The line `dotspec grid ARGS` prints for an input it cannot read, without "dotspec: ". */
+  async function cliGridLine(dir: string, args: string[]): Promise<string> {
+    const run = promisify(execFile);
+    const result = await run(process.execPath, [join(ROOT, "bin", "dotspec.js"), "grid", ...args], { cwd: dir }).then(
+      () => ({ stderr: "" }),
+      (err: { stderr: string }) => err,
+    );
+    const line = result.stderr.split("\n").find((l) => l.startsWith("dotspec: "));
+    expect(line, `the CLI's message for ${args.join(" ")}`).toBeDefined();
+    return line!.slice("dotspec: ".length);
+  }
+
+  /**
+   * Bad grid files — a lab note as a table, an .npy cut short with its sidecar — and the lines
+   * `dotspec grid` prints for them, asked for once and early (the CLI takes seconds to start here).
+   */
+  let gridBad: { dir: string; files: string[][]; lines: Promise<string[]> } | null = null;
+  function gridBadFiles(): { dir: string; files: string[][]; lines: Promise<string[]> } {
+    if (gridBad) return gridBad;
+    const dir = join(work, "grid");
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, "notes.csv"), "# a lab note, not a grid\nsample A looked fine\nno numbers here\n");
+    writeFileSync(join(dir, "cut.npy"), readFileSync(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).subarray(0, 4096));
+    writeFileSync(join(dir, "cut.json"), readFileSync(join(ROOT, "sample-curves", "grid", "dot-grid.json")));
+    const files = [["notes.csv"], ["cut.npy", "cut.json"]];
+    gridBad = { dir, files, lines: Promise.all(files.map((f) => cliGridLine(dir, [f[0]]))) };
+    return gridBad;
+  }
+
+  it("grid maps: the demo grid gives the maps `analyzeGrid` finds in Node; the window and η change the table", async () => {
+    gridBadFiles(); // the CLI's lines for the next test, while this one runs
+    const page = await open("grid.html");
+    await page.locator("[data-testid=map-table] tbody tr").first().waitFor({ timeout: 30_000 });
+    // The same file analysed in this process with the demo's η (0.8, stated in the page).
+    const grid = analyzeGrid(readGridFile(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).cube, { eta: 0.8 });
+    const rows = await mapRows(page);
+    expect(rows.map((r) => r.label)).toEqual(grid.maps.map((m) => m.label));
+    expect(rows.map((r) => r.label)).toEqual(expect.arrayContaining(["s", "p (multiplet)"]));
+    // By construction (the page runs the same library): the s map's RMS radius to rounding
+    // (Chromium's and Node's math functions may differ in the last bit).
+    const sNode = grid.maps.find((m) => m.label === "s")!.rmsRadiusNM!;
+    const sPage = rows.find((r) => r.label === "s")!.rmsRadiusNM!;
+    expectClose(sPage, sNode, { rtol: 1e-9, what: "s map RMS radius, page vs analyzeGrid in Node" });
+    // And the physics of the demo dot (R = 2.4 nm): RMS radius of the projected 1s density,
+    // closed form R·√((2/3)(1/3 − 1/(2π²))) = 1.042 nm; 6 % for the noise floor and the 0.3 nm pixels, as in the grid tests.
+    expectClose(sPage, 2.4 * Math.sqrt((2 / 3) * (1 / 3 - 1 / (2 * Math.PI ** 2))), { rtol: 0.06, what: "s map RMS radius vs the particle in a sphere" });
+    // One map figure per map, drawn by the figure code of `dotspec grid --out`, and the profile plot.
+    expect(await page.locator("[data-testid=map-figure]").evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.label))).toEqual(grid.maps.map((m) => m.label));
+    expect(await page.locator("[data-testid=map-figure] > svg > text").first().textContent()).toMatch(/ — /);
+    expect(await page.locator("[data-testid=reference-figure] > svg").count()).toBe(1);
+    expect(await page.locator("[data-testid=profile-figure] svg").count()).toBeGreaterThan(0);
+    expect(await page.locator("[data-testid=profile-figure]").textContent()).toContain("radius from the map's centre (nm)");
+    await page.screenshot({ path: join(ARTIFACTS, "grid-demo.png"), fullPage: true });
+
+    // Energies are η × bias (closed form): the s row at η = 0.8, then at η = 0.6.
+    const sRow = async () => (await mapRows(page)).find((r) => r.label === "s")!;
+    const sBias = grid.maps.find((m) => m.label === "s")!.biasV;
+    expect(Number((await sRow()).cells["energy (eV)"])).toBeCloseTo(0.8 * sBias, 3);
+    await setRange(page, "η (voltage division)", 0.6);
+    await expect.poll(async () => Number((await sRow()).cells["energy (eV)"])).toBeCloseTo(0.6 * sBias, 3);
+
+    // A longer smoothing window (a different Savitzky–Golay filter for every pixel) changes the maps' measures.
+    const before = await mapRows(page);
+    await checkbox(page, "automatic window").uncheck();
+    await setRange(page, "smoothing window (mV)", 120);
+    await expect
+      .poll(async () => Math.abs(Number(await page.locator("[data-testid=settings]").getAttribute("data-window-mv")) - 120))
+      .toBeLessThanOrEqual(9.25); // nearest odd number of bias steps (9.25 mV here): within one step of the window set
+    await expect.poll(async () => (await mapRows(page)).find((r) => r.label === "s")?.rmsRadiusNM).not.toBe(before.find((r) => r.label === "s")!.rmsRadiusNM);
+    const after = await mapRows(page);
+    const windowed = analyzeGrid(readGridFile(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).cube, { eta: 0.6, analyze: { windowMV: 120 } });
+    expectClose(after.find((r) => r.label === "s")!.rmsRadiusNM!, windowed.maps.find((m) => m.label === "s")!.rmsRadiusNM!, { rtol: 1e-9, what: "s map RMS radius at 120 mV, page vs Node" });
+
+    // The downloads: the record of `dotspec grid --json` for these settings, the profiles, a map.
+    const save = async (label: string) => {
+      const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("button", { name: label, exact: true }).click()]);
+      return { name: download.suggestedFilename(), text: readFileSync((await download.path())!, "utf8") };
+    };
+    const record = JSON.parse((await save("JSON record")).text) as GridJson;
+    expect(record.maps.map((m) => m.label)).toEqual(windowed.maps.map((m) => m.label));
+    expect(record.settings.eta).toBe(0.6);
+    const profiles = await save("CSV: radial profiles");
+    expect(profiles.text.split("\n")[0]).toBe(GRID_PROFILE_COLUMNS.join(","));
+    const sSvg = await save("SVG: s");
+    expect(sSvg.name).toBe("dot-grid-s.svg");
+    expect(sSvg.text.startsWith("<svg")).toBe(true);
+
+    // Biases typed by hand replace the assigned peaks, as `--at` does; a list that is not numbers says so.
+    const atBox = page.getByRole("textbox", { name: /map biases/ });
+    await atBox.fill("0.9, 1.2");
+    await page.getByRole("button", { name: "Map these biases" }).click();
+    const atGrid = analyzeGrid(readGridFile(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).cube, { eta: 0.6, analyze: { windowMV: 120 }, atV: [0.9, 1.2] });
+    await expect.poll(async () => (await mapRows(page)).map((r) => r.label)).toEqual(atGrid.maps.map((m) => m.label));
+    expect(atGrid.maps.slice(0, 2).map((m) => m.label)).toEqual(["at 0.900 V", "at 1.200 V"]);
+    await atBox.fill("0.9; x");
+    await page.getByRole("button", { name: "Map these biases" }).click();
+    await expect.poll(() => page.locator("[data-testid=problem]").first().textContent()).toContain('got "0.9; x"');
+    expect(await page.locator("[data-testid=map-table]").count()).toBe(0);
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("grid maps: a long table dropped on the zone is read and analysed as in Node; bad files give the line `dotspec grid` prints", async () => {
+    // A small long table of the grid tests' sphere dot (10 × 10 pixels), written as the README shows it.
+    const cube = sphereDotCube({ nx: 10, ny: 10, stepNM: 0.6 });
+    const lines = ["x (nm),y (nm),bias (V),current (pA)"];
+    const nb = cube.biasV.count;
+    for (let iy = 0; iy < cube.yNM.count; iy++)
+      for (let ix = 0; ix < cube.xNM.count; ix++)
+        for (let k = 0; k < nb; k++) {
+          const x = cube.xNM.start + ix * cube.xNM.step, y = cube.yNM.start + iy * cube.yNM.step, v = cube.biasV.start + k * cube.biasV.step;
+          lines.push(`${x.toFixed(3)},${y.toFixed(3)},${v.toFixed(5)},${(cube.currentA[(iy * cube.xNM.count + ix) * nb + k] * 1e12).toPrecision(6)}`);
+        }
+    const tableText = lines.join("\n") + "\n";
+    const grid = analyzeGrid(parseGridTable(tableText, { source: "scan.csv" }).cube);
+    const page = await open("grid.html");
+    await page.locator("[data-testid=map-table] tbody tr").first().waitFor({ timeout: 30_000 });
+    await dropFiles(page, [{ name: "scan.csv", text: tableText, type: "text/csv" }]);
+    await expect.poll(() => page.locator("[data-testid=grid-summary]").textContent()).toContain("scan.csv: 10 × 10 pixels");
+    await expect.poll(async () => (await mapRows(page).catch(() => [])).map((r) => r.label)).toEqual(grid.maps.map((m) => m.label));
+    // No η for one's own files (taken as 1, as `dotspec grid` without --eta): the same s map.
+    expectClose((await mapRows(page)).find((r) => r.label === "s")!.rmsRadiusNM!, grid.maps.find((m) => m.label === "s")!.rmsRadiusNM!, { rtol: 1e-9, what: "s map RMS radius of the dropped table, page vs Node" });
+    expect(await errorCells(page)).toBe(0);
+
+    const { dir, files: badFiles, lines: cliLines } = gridBadFiles();
+    const expectedLines = await cliLines;
+    for (const [i, files] of badFiles.entries()) {
+      const expected = expectedLines[i];
+      await page.setInputFiles("[data-testid=grid-files]", files.map((f) => join(dir, f)));
+      await expect.poll(() => page.locator("[data-testid=problem]").first().textContent(), { timeout: 10_000 }).toBe(expected);
+      for (const stale of ["map-table", "maps", "reference-figure", "profile-figure", "downloads", "settings", "grid-summary"]) {
+        expect(await page.locator(`[data-testid=${stale}]`).count(), stale).toBe(0);
+      }
+      expect(await errorCells(page)).toBe(0);
+      await page.screenshot({ path: join(ARTIFACTS, `grid-bad-${files[0]}.png`), fullPage: true });
+    }
+    // The demo grid afterwards clears the message.
+    await page.locator("[data-testid=demo-grid]").click();
+    await page.locator("[data-testid=map-table] tbody tr").first().waitFor();
+    expect(await page.locator("[data-testid=problem]").count()).toBe(0);
+    await page.close();
+  });
+
+  it("grid maps: a grid of several slices shows its progress and gives the maps of `analyzeGrid` on the whole grid", async () => {
+    // The demo grid tiled 3 × 3 (72 × 72 pixels × 241 biases, 1.25 M samples): more than one slice
+    // of about a million samples per pass, so the page runs each pass in parts and shows a progress bar.
+    const demo = readGridFile(join(ROOT, "sample-curves", "grid", "dot-grid.npy")).cube;
+    const n = demo.xNM.count, tiles = 3, N = n * tiles, nb = demo.biasV.count;
+    const tiled = new Float32Array(N * N * nb);
+    for (let iy = 0; iy < N; iy++)
+      for (let ix = 0; ix < N; ix++) {
+        const from = ((iy % n) * n + (ix % n)) * nb;
+        tiled.set(demo.currentA.subarray(from, from + nb), (iy * N + ix) * nb);
+      }
+    const dir = join(work, "tiled");
+    mkdirSync(dir, { recursive: true });
+    writeFileSync(join(dir, "tiled.npy"), float32Npy(tiled, [N, N, nb]));
+    const sidecar = { xNM: [demo.xNM.start, demo.xNM.step, N], yNM: [demo.yNM.start, demo.yNM.step, N], biasV: [demo.biasV.start, demo.biasV.step, nb], currentUnit: "A" };
+    writeFileSync(join(dir, "tiled.json"), JSON.stringify(sidecar));
+    const grid = analyzeGrid(readGridFile(join(dir, "tiled.npy")).cube);
+    const page = await open("grid.html");
+    await page.locator("[data-testid=map-table] tbody tr").first().waitFor({ timeout: 30_000 });
+    await page.evaluate(() => {
+      const w = window as unknown as { progressSeen: number };
+      w.progressSeen = 0;
+      new MutationObserver(() => {
+        if (document.querySelector("[data-testid=progress] progress")) w.progressSeen++;
+      }).observe(document.body, { childList: true, subtree: true });
+    });
+    await page.setInputFiles("[data-testid=grid-files]", [join(dir, "tiled.npy"), join(dir, "tiled.json")]);
+    await expect.poll(() => page.locator("[data-testid=grid-summary]").textContent()).toContain("tiled.npy: 72 × 72 pixels");
+    await expect.poll(async () => (await mapRows(page).catch(() => [])).map((r) => r.label), { timeout: 30_000 }).toEqual(grid.maps.map((m) => m.label));
+    expect(await page.evaluate(() => (window as unknown as { progressSeen: number }).progressSeen)).toBeGreaterThan(0);
+    expect(await page.locator("[data-testid=progress]").count()).toBe(0); // gone when done
+    // By construction: the parts of each pass put together are the pass over the whole grid.
+    const rows = await mapRows(page);
+    for (const m of grid.maps) {
+      const row = rows.find((r) => r.label === m.label)!;
+      if (m.rmsRadiusNM === null) expect(row.rmsRadiusNM, m.label).toBeNull();
+      else expectClose(row.rmsRadiusNM!, m.rmsRadiusNM, { rtol: 1e-9, what: `${m.label} RMS radius, page in slices vs analyzeGrid in Node` });
+    }
     expect(await errorCells(page)).toBe(0);
     await page.close();
   });

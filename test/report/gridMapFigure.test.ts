@@ -3,7 +3,7 @@
 // the PNG specification.
 import { describe, expect, it } from "vitest";
 import { JSDOM } from "jsdom";
-import { inflateSync } from "node:zlib";
+import { deflateSync, inflateSync } from "node:zlib";
 import { analyzeGrid } from "../../lib/grid/analyzeGrid.ts";
 import { GRID_MAP_FIGURE_DEFAULTS } from "../../lib/report/gridMapFigure.ts";
 import { encodePng } from "../../lib/report/pngCanvas.ts";
@@ -78,17 +78,17 @@ describe("gridMapFigure(map)", () => {
   });
 });
 
-describe("encodePng(image)", () => {
+describe("encodePng(image, deflate)", () => {
   it("writes the PNG signature, an IHDR of the size and pixels that inflate back (PNG specification, ISO/IEC 15948)", () => {
     const data = Uint8ClampedArray.from({ length: 3 * 2 * 4 }, (_, i) => (i * 37) % 256);
-    const png = encodePng({ width: 3, height: 2, data });
+    const png = encodePng({ width: 3, height: 2, data }, deflateSync);
     expect(Array.from(png.subarray(0, 8))).toEqual([137, 80, 78, 71, 13, 10, 26, 10]);
     const back = decodePng(png);
     expect([back.width, back.height]).toEqual([3, 2]);
     expect(Array.from(back.rgba)).toEqual(Array.from(data));
   });
   it("gives the CRC of IEND that the specification fixes (0xAE426082)", () => {
-    const png = encodePng({ width: 1, height: 1, data: Uint8ClampedArray.of(0, 0, 0, 255) });
+    const png = encodePng({ width: 1, height: 1, data: Uint8ClampedArray.of(0, 0, 0, 255) }, deflateSync);
     expect(Array.from(png.subarray(png.length - 4))).toEqual([0xae, 0x42, 0x60, 0x82]);
   });
 });

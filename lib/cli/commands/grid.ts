@@ -7,6 +7,7 @@ import { join } from "node:path";
 import {
   fileBytes,
   formatCsv,
+  gridMapFileNames,
   gridProfileRows,
   gridToJson,
   loadCurveFigure,
@@ -148,13 +149,8 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
       writeTextFile(join(opts.out, "summary.json"), JSON.stringify(json, null, 2) + "\n");
       writeTextFile(join(opts.out, "profiles.csv"), formatCsv(gridProfileRows(grid), GRID_PROFILE_COLUMNS));
       writeTextFile(join(opts.out, "reference.svg"), drawCurve(grid.reference.analysis, { curve: grid.reference.curve }));
-      const used = new Set<string>();
-      for (const m of grid.maps) {
-        let name = m.label.replace(/[^A-Za-z0-9.+-]+/g, "_").replace(/^_+|_+$/g, "") || "map";
-        while (used.has(name)) name += "_";
-        used.add(name);
-        writeTextFile(join(opts.out, "maps", `${name}.svg`), drawMap(m));
-      }
+      const names = gridMapFileNames(grid.maps.map((m) => m.label));
+      for (const [i, m] of grid.maps.entries()) writeTextFile(join(opts.out, "maps", `${names[i]}.svg`), drawMap(m));
     }
     progress.stop();
     if (ctx.stdoutGone()) return EXIT.ok;
