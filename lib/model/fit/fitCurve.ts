@@ -7,15 +7,15 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 import { startingValues, type StartingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop, type LoopResult } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
-import { assignSpectrum } from "../../assign/assignSpectrum.ts";
-import { SCENARIO_DEFAULTS } from "../scenario.ts";
+import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
+import { hypothesisPlausibility, type PlausibilityInput } from "./hypothesisPlausibility.ts";
+import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 
@@ -63,8 +63,19 @@ export const FIT_DEFAULTS = Object.freeze({
   compareModels: false,
   /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
-  /** Iterations of each extra start; the best is then finished with maxIterations. */
+  /** Iterations of each extra start; the best are then finished with maxIterations. */
   exploreIterations: 8,
+  /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
+  extraStartsLog10: Object.freeze({
+    "shell-filling": Object.freeze([0]),
+    "shell-tunneling": Object.freeze([-1]),
+    "ladder-filling": Object.freeze([]),
+    "ladder-empty": Object.freeze([-1.3]),
+  }) as Readonly<Partial<Record<HypothesisKind, readonly number[]>>>,
+  /** Hypotheses (the best by BIC after exploring) finished with the full budget and checked for plausibility. */
+  finishedHypotheses: 3,
+  /** Standard errors either side of the fitted log₁₀ Γtip/Γsub that the regime must hold over (fitVerdict). */
+  regimeSigmas: 2,
 });
 
 /** One fitted parameter with its standard error. */
@@ -87,19 +98,30 @@ export interface FittedLevel {
 
 /** One start of one hypothesis that {@link fitCurve} tried. */
 export interface FitAlternative {
-  /** "assigned", or the regime forced on the same peaks. */
-  hypothesis: "assigned" | "shell-filling" | "shell-tunneling";
-  /** Regime of that grouping of the peaks. */
+  /**
+   * "assigned", the regime forced on the same peaks ("shell-filling", "shell-tunneling"), or a
+   * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …).
+   */
+  hypothesis: string;
+  /** Regime of that grouping of the peaks ("intermediate" for a ladder entered from the empty dot). */
   regime: string;
   /** Levels fitted. */
   levels: number;
+  /** Degeneracies of its CB levels, from the gap outward (multiplet sizes). */
+  cbDegeneracies: number[];
   /** Γtip/Γsub it started from and ended at. */
   rateRatioStart: number;
   rateRatio: number;
+  /** Fitted Ec, eV. */
+  chargingEnergyEV: number;
   reducedChiSquare: number;
-  /** Bayesian information criterion χ² + k·ln n. */
+  /** Bayesian information criterion χ² + k·ln n ({@link bayesianInformationCriterion}). */
   bic: number;
-  /** exp(−ΔBIC/2), normalised over the alternatives: the relative weight of evidence. */
+  /** Whether this start was finished with the full budget and checked (one per finalist hypothesis). */
+  finished: boolean;
+  /** Why it is physically implausible (empty: plausible); null when not checked. */
+  implausible: string[] | null;
+  /** exp(−ΔBIC/2), normalised over the plausible finished hypotheses: the relative weight of evidence; 0 for the rest. */
   weight: number;
 }
 
@@ -122,6 +144,8 @@ export interface CurveFit {
   statusReasons: string[];
   /** The hypothesis the values come from. */
   hypothesis: FitAlternative["hypothesis"];
+  /** Why that hypothesis won, in words (BIC differences, implausible rivals). */
+  evidence: string[];
   /** Every start of every hypothesis tried, with its score. */
   alternatives: FitAlternative[];
   levels: FittedLevel[];
@@ -141,8 +165,13 @@ export interface CurveFit {
   backgroundCubicAPerV3: FittedValue;
   /** χ² per degree of freedom, with the current noise of the analysis as σ. */
   reducedChiSquare: number;
-  /** Regime implied by the fitted rate ratio. */
-  regime: "shell-filling" | "shell-tunneling" | "intermediate";
+  /**
+   * Regime implied by the fitted rate ratio and its error ({@link fitVerdict}); "undetermined"
+   * when the error reaches both regimes or there is no fit.
+   */
+  regime: "shell-filling" | "shell-tunneling" | "intermediate" | "undetermined";
+  /** Why, in words (the ratio and its range, or what is missing). */
+  regimeReason: string;
   /** Bias, data, model and residual on the points used, for plotting. */
   residuals: { biasV: Float64Array; currentA: Float64Array; modelA: Float64Array; residualA: Float64Array };
   warnings: string[];
@@ -236,13 +265,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const warnings: string[] = [];
   if (!analysis.assignment.energies.etaGiven && options.eta === undefined) warnings.push("eta not given: the fit used η = 1");
 
-  // 1. Hypotheses: the assignment as it stands, and the other regimes' groupings of the same peaks.
-  const hypotheses = fitHypotheses(analysis, eta, compareModels);
-  if (!hypotheses.length) {
+  // 1. Hypotheses: the assignment as it stands first; the others (regimes forced, charging
+  // ladders with p whole or split) only when they are compared.
+  const hypotheses = fitHypotheses(analysis, eta, true);
+  if (!hypotheses.length || hypotheses[0].kind !== "assigned") {
     throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
   }
 
-  // Data, thinned evenly.
+  // Data, thinned evenly: the same points and the same noise σ for every hypothesis.
   const sig = analysis.conductance;
   const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
   const biasV = sig.biasV.filter((_, i) => i % stride === 0);
@@ -255,7 +285,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
 
   /** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
   const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[]): FitTrial => {
-    const start = startingValues(h.analysis, h.seeds, eta, guessEC);
+    const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
@@ -281,35 +311,52 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     });
     // k: the nonlinear parameters and the four linear ones (scale, offset, b1, b3).
     const k = loop.parameters.length + 4;
-    return { hypothesis: h, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: loop.chiSquare + k * Math.log(n) };
+    return { hypothesis: h, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: bayesianInformationCriterion(loop.chiSquare, k, n), finished: iterations >= maxIterations, implausible: null };
   };
 
-  // 2. Starts: the assignment's hypothesis from its own rate ratio first; then, when that does not
-  // describe the curve or the regime is undetermined, the same hypothesis from a grid of rate
-  // ratios; the other hypotheses (the regimes forced on the same peaks) only when asked to compare.
+  // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
+  // describe the curve, or the rules left the regime undetermined (or when asked to compare),
+  // every hypothesis is explored from its starts; the best few are finished and checked for
+  // plausibility; the lowest BIC among the plausible ones wins.
   const trials: FitTrial[] = [run(hypotheses[0], null, maxIterations)];
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, n - t.k);
   const decisive = analysis.assignment.regime !== "undetermined" && reduced(trials[0]) <= F.poorFitChiSquare;
+  const compared = compareModels || !decisive;
   const startLog0 = trials[0].start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
-  for (const h of compareModels ? hypotheses : decisive ? [] : [hypotheses[0]]) {
-    for (const logRatio of F.rateRatioStartsLog10) {
-      if (h === hypotheses[0] && Math.abs(logRatio - startLog0) < 0.5) continue;
-      trials.push(run(h, logRatio, Math.min(maxIterations, F.exploreIterations)));
+  if (compared) {
+    for (const h of hypotheses) {
+      const starts = h.kind === "assigned" ? F.rateRatioStartsLog10.filter((l) => Math.abs(l - startLog0) >= 0.5) : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
+      for (const logRatio of starts) trials.push(run(h, logRatio, Math.min(maxIterations, F.exploreIterations)));
     }
   }
-  // The best start by BIC, finished with the full iteration budget if it was only explored.
-  let best = trials.reduce((a, b) => (b.bic < a.bic ? b : a));
-  if (best !== trials[0]) {
-    const finished = run(best.hypothesis, null, maxIterations, best.loop.parameters);
-    best = { ...finished, rateRatio0: best.rateRatio0 };
+  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
+  // The best start of each hypothesis; the most promising are finished with the full budget.
+  const bestOf = new Map<FitHypothesis, FitTrial>();
+  for (const t of trials) {
+    const b = bestOf.get(t.hypothesis);
+    if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
   }
+  const ranked = [...bestOf.values()].sort((a, b) => a.bic - b.bic);
+  const finalists: FitTrial[] = [];
+  for (const t of ranked) {
+    if (finalists.length >= (compared ? F.finishedHypotheses : 1)) break;
+    const done = t.finished ? t : { ...run(t.hypothesis, null, maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
+    if (done !== t) trials.push(done);
+    finalists.push(done);
+  }
+  const plausible = finalists.filter((t) => plausibilityOf(t).length === 0);
+  const pool = plausible.length ? plausible : finalists;
+  const best = pool.reduce((a, b) => (b.bic < a.bic ? b : a));
+  const weights = evidenceWeights(finalists.map((t) => (plausibilityOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
   const at = parameterIndex(seeds.length);
   const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
-  if (hypothesis.name !== "assigned") warnings.push(`the ${hypothesis.label} describes the curve better than the assignment it started from (BIC lower by ${(trials[0].bic - best.bic).toFixed(0)})`);
-  if (analysis.assignment.regime === "undetermined" && hypothesis.name === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
+  if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${plausibilityOf(best).join("; ")}); the values are those of the lowest BIC`);
+  const evidence = fitEvidence(best, finalists, trials[0], plausibilityOf, compared);
+  if (hypothesis.kind !== "assigned") warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from (BIC lower by ${(trials[0].bic - best.bic).toFixed(0)})`);
+  if (analysis.assignment.regime === "undetermined" && hypothesis.kind === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
 
   // 3. Final linear coefficients and standard errors from the full Jacobian.
   const final = projectLinear(unitCurrent(params, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
@@ -327,7 +374,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
 
   // 4. The verdict, the status and the result.
   const ratio = 10 ** params[at.logRateRatio];
-  const verdict = fitVerdict(ratio, reducedChiSquare, F);
+  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
   const status = fitStatus({
     reducedChiSquare,
@@ -335,37 +382,44 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergyEV: params[at.chargingEnergy],
     chargingEnergySE: se[at.chargingEnergy],
     logRateRatioSE: se[at.logRateRatio],
-    atBound: [at.chargingEnergy, at.logRateRatio].filter((j) => {
-      const span = best.start.maxValues[j] - best.start.minValues[j];
-      return params[j] - best.start.minValues[j] < 1e-3 * span || best.start.maxValues[j] - params[j] < 1e-3 * span;
-    }).map((j) => (j === at.chargingEnergy ? "Ec" : "Γtip/Γsub")),
+    atBound: [...plausibilityInput(best).atBound],
   });
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
   const sigmaEV = 10 ** params[at.logBroadening];
   const scaleRate = final.coef[0];
   const modelA = final.out;
-  const minBic = Math.min(...trials.map((t) => t.bic), best.bic);
-  const weightSum = trials.reduce((s, t) => s + Math.exp(-(t.bic - minBic) / 2), 0);
+  if (!plausible.length) status.reasons.unshift("no hypothesis is physically plausible");
+  const failed = status.status === "failed" || !plausible.length;
+  const regime = failed ? "undetermined" : verdict.regime;
+  const regimeReason = failed ? `no fit: ${(plausible.length ? status.reasons : plausibilityOf(best)).join("; ")}` : verdict.regimeReason;
   return {
     source: analysis.source,
     converged,
     message,
     iterations,
     eta,
-    status: status.status,
+    status: failed ? "failed" : status.status,
     statusReasons: status.reasons,
     hypothesis: hypothesis.name,
-    alternatives: trials.map((t) => ({
-      hypothesis: t.hypothesis.name,
-      regime: t.hypothesis.analysis.assignment.regime,
-      levels: t.hypothesis.seeds.length,
-      rateRatioStart: t.rateRatio0,
-      rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
-      reducedChiSquare: t.loop.chiSquare / Math.max(1, n - t.k),
-      bic: t.bic,
-      weight: Math.exp(-(t.bic - minBic) / 2) / weightSum,
-    })),
+    evidence,
+    alternatives: trials.map((t) => {
+      const k = finalists.indexOf(t);
+      return {
+        hypothesis: t.hypothesis.name,
+        regime: groupingRegime(t.hypothesis),
+        levels: t.hypothesis.seeds.length,
+        cbDegeneracies: t.hypothesis.cbDegeneracies,
+        rateRatioStart: t.rateRatio0,
+        rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
+        chargingEnergyEV: t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy],
+        reducedChiSquare: t.loop.chiSquare / Math.max(1, n - t.k),
+        bic: t.bic,
+        finished: k >= 0,
+        implausible: k >= 0 ? plausibilityOf(t) : null,
+        weight: k >= 0 ? weights[k] : 0,
+      };
+    }),
     levels: seeds.map((s, j) => ({
       band: s.band,
       label: s.label,
@@ -382,21 +436,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     backgroundLinearS: value(at.backgroundLinear),
     backgroundCubicAPerV3: value(at.backgroundCubic),
     reducedChiSquare,
-    regime: verdict.regime,
+    regime,
+    regimeReason,
     residuals: { biasV, currentA: dataA, modelA, residualA: dataA.map((v, i) => v - modelA[i]) },
     warnings,
   };
-}
-
-/** One grouping of the peaks into levels that the fit tries. */
-interface FitHypothesis {
-  /** "assigned" (the analysis' own assignment) or the regime forced on the same peaks. */
-  name: "assigned" | "shell-filling" | "shell-tunneling";
-  /** In words, for warnings. */
-  label: string;
-  /** The analysis with that assignment. */
-  analysis: CurveAnalysis;
-  seeds: LevelSeed[];
 }
 
 /** One Levenberg–Marquardt run of one hypothesis from one start. */
@@ -409,34 +453,53 @@ interface FitTrial {
   k: number;
   /** Bayesian information criterion χ² + k·ln n (σ known). */
   bic: number;
+  /** Run with the full iteration budget (not only explored). */
+  finished: boolean;
+  /** Why it is implausible once checked (empty: plausible); null before. */
+  implausible: string[] | null;
 }
 
-/**
- * The groupings of the peaks the fit compares: the assignment, then shell filling and shell
- * tunnelling forced on the same peaks where they differ from it (as level lists).
- */
-function fitHypotheses(analysis: CurveAnalysis, eta: number, alternatives: boolean): FitHypothesis[] {
-  const out: FitHypothesis[] = [];
-  const seen = new Set<string>();
-  const add = (name: FitHypothesis["name"], label: string, a: CurveAnalysis) => {
-    const seeds = levelsToFit(a);
-    const key = seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV}/${s.before}`).join(" ");
-    if (!seeds.length || seen.has(key)) return;
-    // An alternative grouping whose master equation would be too large to solve is not tried.
-    for (const band of name === "assigned" ? [] : (["CB", "VB"] as const)) {
-      const states = seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1);
-      if (states > SCENARIO_DEFAULTS.maxStates) return;
-    }
-    seen.add(key);
-    out.push({ name, label, analysis: a, seeds });
+/** The regime a hypothesis' grouping stands for. */
+function groupingRegime(h: FitHypothesis): string {
+  if (h.kind === "ladder-empty") return "intermediate";
+  if (h.kind === "ladder-filling") return "shell-filling";
+  return h.analysis.assignment.regime;
+}
+
+/** The fitted levels, Ec and key parameters at a bound of one trial, for the plausibility checks. */
+function plausibilityInput(t: FitTrial): PlausibilityInput {
+  const p = t.loop.parameters;
+  const at = parameterIndex(t.hypothesis.seeds.length);
+  const atBound = [at.chargingEnergy, at.logRateRatio]
+    .filter((j) => {
+      const span = t.start.maxValues[j] - t.start.minValues[j];
+      return p[j] - t.start.minValues[j] < 1e-3 * span || t.start.maxValues[j] - p[j] < 1e-3 * span;
+    })
+    .map((j) => (j === at.chargingEnergy ? "Ec" : "Γtip/Γsub"));
+  return {
+    levels: t.hypothesis.seeds.map((s, j) => ({ band: s.band, label: s.label, degeneracy: s.degeneracy, energyEV: s.band === "CB" ? p[j] : -p[j] })),
+    chargingEnergyEV: p[at.chargingEnergy],
+    atBound,
   };
-  add("assigned", "assignment", analysis);
-  if (!alternatives) return out;
-  const etaOption = analysis.assignment.energies.etaGiven ? { eta } : {};
-  for (const regime of ["shell-filling", "shell-tunneling"] as const) {
-    if (analysis.assignment.regime === regime) continue;
-    const assignment = assignSpectrum(analysis.peaks, { ...etaOption, regime });
-    add(regime, `${regime === "shell-filling" ? "shell-filling" : "shell-tunnelling"} grouping of the same peaks`, { ...analysis, assignment });
+}
+
+/** Why the winner won, in words. */
+function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assigned: FitTrial, plausibilityOf: (t: FitTrial) => string[], compared: boolean): string[] {
+  const out: string[] = [];
+  const ratioOf = (t: FitTrial) => 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio];
+  const describe = (t: FitTrial) => `${t.hypothesis.name} (${t.hypothesis.label}; CB ${t.hypothesis.cbDegeneracies.join("+")}, Γtip/Γsub ${ratioOf(t).toPrecision(2)})`;
+  if (!compared) {
+    out.push(`the assignment's grouping describes the curve (reduced χ² at most ${FIT_DEFAULTS.poorFitChiSquare}) and the rules were decisive: no other hypothesis was fitted`);
+    return out;
   }
+  out.push(`${describe(best)} has the lowest BIC (χ² + k·ln n, ${best.k} parameters) among the plausible hypotheses`);
+  for (const t of finalists) {
+    if (t === best) continue;
+    const why = plausibilityOf(t);
+    if (why.length) out.push(`${t.hypothesis.name}: implausible (${why.join("; ")})`);
+    else out.push(`${t.hypothesis.name}: BIC higher by ${(t.bic - best.bic).toFixed(1)} (weight ratio ${Math.exp(-(t.bic - best.bic) / 2).toExponential(1)}), ${t.k - best.k >= 0 ? `${t.k - best.k} more` : `${best.k - t.k} fewer`} parameters`);
+  }
+  if (best !== assigned && !finalists.includes(assigned)) out.push(`assigned: BIC higher by ${(assigned.bic - best.bic).toFixed(1)}`);
   return out;
 }
+

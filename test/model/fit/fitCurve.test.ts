@@ -88,6 +88,9 @@ describe("fitCurve(analysis)", () => {
       compareModels: false,
       rateRatioStartsLog10: [-2, -1, 0, 1, 2],
       exploreIterations: 8,
+      extraStartsLog10: { "shell-filling": [0], "shell-tunneling": [-1], "ladder-filling": [], "ladder-empty": [-1.3] },
+      finishedHypotheses: 3,
+      regimeSigmas: 2,
     });
   });
 });
