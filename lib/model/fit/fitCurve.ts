@@ -13,7 +13,7 @@ import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop, type LoopResult } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
-import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
+import { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility, type PlausibilityInput } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { standardErrors } from "./standardErrors.ts";
@@ -70,7 +70,7 @@ export const FIT_DEFAULTS = Object.freeze({
     "shell-filling": Object.freeze([0]),
     "shell-tunneling": Object.freeze([-1]),
     "ladder-filling": Object.freeze([]),
-    "ladder-empty": Object.freeze([-1.3]),
+    "ladder-empty": Object.freeze([]),
   }) as Readonly<Partial<Record<HypothesisKind, readonly number[]>>>,
   /** Hypotheses (the best by BIC after exploring) finished with the full budget and checked for plausibility. */
   finishedHypotheses: 3,
@@ -115,13 +115,18 @@ export interface FitAlternative {
   /** Fitted Ec, eV. */
   chargingEnergyEV: number;
   reducedChiSquare: number;
+  /**
+   * The points fitted: "both" (the whole curve) or "CB" (its CB side, where groupings of the CB
+   * peaks are compared). BIC compares only runs on the same points.
+   */
+  side: "both" | "CB";
   /** Bayesian information criterion χ² + k·ln n ({@link bayesianInformationCriterion}). */
   bic: number;
   /** Whether this start was finished with the full budget and checked (one per finalist hypothesis). */
   finished: boolean;
   /** Why it is physically implausible (empty: plausible); null when not checked. */
   implausible: string[] | null;
-  /** exp(−ΔBIC/2), normalised over the plausible finished hypotheses: the relative weight of evidence; 0 for the rest. */
+  /** exp(−ΔBIC/2), normalised over the plausible hypotheses fitted to the whole curve: the relative weight of evidence; 0 for the rest. */
   weight: number;
 }
 
@@ -272,26 +277,30 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
   }
 
-  // Data, thinned evenly: the same points and the same noise σ for every hypothesis.
+  // Data, thinned evenly: the same points and the same noise σ for every hypothesis; the CB side
+  // (bias > 0) alone for comparing groupings of the CB peaks.
   const sig = analysis.conductance;
   const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
-  const biasV = sig.biasV.filter((_, i) => i % stride === 0);
-  const dataA = sig.currentA.filter((_, i) => i % stride === 0);
   const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
-  const n = biasV.length;
-  const v3 = biasV.map((v) => v * v * v);
-  const data = { x: Array.from({ length: n }, (_, i) => i), y: Array.from(dataA, (v) => v / noiseA) };
+  const pointsOf = (keep: (v: number) => boolean): DataSet => {
+    const index = Array.from(sig.biasV.keys()).filter((i) => i % stride === 0 && keep(sig.biasV[i]));
+    const biasV = Float64Array.from(index, (i) => sig.biasV[i]);
+    const dataA = Float64Array.from(index, (i) => sig.currentA[i]);
+    return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
+  };
+  const all = pointsOf(() => true);
+  const cbSide = pointsOf((v) => v > 0);
   const started = Date.now();
 
-  /** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
-  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[]): FitTrial => {
+  /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
+  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
     const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, biasV), biasV, v3, dataA);
+    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, set.biasV), set.biasV, set.v3, set.dataA);
     let cacheKey = "";
-    let cacheOut = new Float64Array(n);
+    let cacheOut = new Float64Array(set.n);
     const modelScaled = (p: number[]) => {
       const key = p.join(",");
       if (key !== cacheKey) {
@@ -301,7 +310,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       const out = cacheOut;
       return (x: number) => out[x];
     };
-    const loop = levenbergMarquardtLoop(data, modelScaled, {
+    const loop = levenbergMarquardtLoop(set.data, modelScaled, {
       ...start,
       initialValues,
       maxIterations: iterations,
@@ -311,42 +320,92 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     });
     // k: the nonlinear parameters and the four linear ones (scale, offset, b1, b3).
     const k = loop.parameters.length + 4;
-    return { hypothesis: h, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: bayesianInformationCriterion(loop.chiSquare, k, n), finished: iterations >= maxIterations, implausible: null };
+    const side = set === all ? "both" : "CB";
+    return { hypothesis: h, side, n: set.n, set, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: bayesianInformationCriterion(loop.chiSquare, k, set.n), finished: iterations >= maxIterations, implausible: null };
   };
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
   // describe the curve, or the rules left the regime undetermined (or when asked to compare),
-  // every hypothesis is explored from its starts; the best few are finished and checked for
-  // plausibility; the lowest BIC among the plausible ones wins.
-  const trials: FitTrial[] = [run(hypotheses[0], null, maxIterations)];
-  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, n - t.k);
-  const decisive = analysis.assignment.regime !== "undetermined" && reduced(trials[0]) <= F.poorFitChiSquare;
-  const compared = compareModels || !decisive;
-  const startLog0 = trials[0].start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
+  // the groupings of the CB peaks are compared on the CB side of the curve (where they differ;
+  // the VB reading stays out of the comparison): each explored from its starts, the best few
+  // finished there, then each finalist fitted to the whole curve with each reading of its VB
+  // peaks, checked for plausibility; the lowest BIC among the plausible ones wins.
+  const explore = Math.min(maxIterations, F.exploreIterations);
+  const undetermined = analysis.assignment.regime === "undetermined";
+  const alone = hypotheses.length === 1;
+  const trials: FitTrial[] = [];
+  // When the rules left the regime undetermined their grouping (single levels) is fitted whole
+  // only if its master equation is small; the other groupings are compared anyway.
+  if (!undetermined || alone || hypotheses[0].states <= FIT_HYPOTHESES_DEFAULTS.maxStatesPerBand) trials.push(run(hypotheses[0], null, maxIterations));
+  const assignedTrial = trials.length ? trials[0] : null;
+  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
+  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.poorFitChiSquare;
+  const compared = (compareModels || !decisive) && !alone;
+  const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
+  const cbSideOf = new Map<FitTrial, FitTrial>();
+  if (!compared && !decisive && assignedTrial) {
+    // The assignment alone: restarts from the rate-ratio grid.
+    const startLog0 = assignedTrial.start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
+    for (const logRatio of F.rateRatioStartsLog10.filter((l) => Math.abs(l - startLog0) >= 0.5)) trials.push(run(hypotheses[0], logRatio, explore));
+    const bestStart = trials.reduce((x, y) => (y.bic < x.bic ? y : x));
+    if (bestStart !== assignedTrial) {
+      const done = { ...run(hypotheses[0], null, maxIterations, bestStart.loop.parameters), rateRatio0: bestStart.rateRatio0 };
+      trials.push(done);
+      finals.push(done);
+    }
+  }
   if (compared) {
+    const cbOnly = new Map<FitHypothesis, FitHypothesis>();
     for (const h of hypotheses) {
-      const starts = h.kind === "assigned" ? F.rateRatioStartsLog10.filter((l) => Math.abs(l - startLog0) >= 0.5) : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
-      for (const logRatio of starts) trials.push(run(h, logRatio, Math.min(maxIterations, F.exploreIterations)));
+      const seeds = h.seeds.filter((x) => x.band === "CB");
+      if (seeds.length) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
+    }
+    const explored: FitTrial[] = [];
+    for (const [h, hc] of cbOnly) {
+      const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
+      for (const logRatio of starts) explored.push(run(hc, logRatio, explore, undefined, cbSide));
+    }
+    trials.push(...explored);
+    const bestOf = new Map<FitHypothesis, FitTrial>();
+    for (const t of explored) {
+      const b = bestOf.get(t.hypothesis);
+      if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
+    }
+    const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
+    for (const t of ranked) {
+      const cbDone = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 };
+      trials.push(cbDone);
+      const h = [...cbOnly.entries()].find(([, hc]) => hc === t.hypothesis)![0];
+      // The whole curve: the CB values found, each reading of the VB peaks from its start.
+      let bestFull: FitTrial | null = null;
+      for (const vb of h.vbReadings) {
+        const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
+        const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
+        const ncb = cbDone.hypothesis.seeds.length;
+        const p = cbDone.loop.parameters;
+        const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
+        const full = { ...run(hv, null, maxIterations, from), rateRatio0: t.rateRatio0 };
+        trials.push(full);
+        if (!bestFull || full.bic < bestFull.bic) bestFull = full;
+      }
+      cbSideOf.set(bestFull!, cbDone);
+      finals.push(bestFull!);
     }
   }
   const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
-  // The best start of each hypothesis; the most promising are finished with the full budget.
-  const bestOf = new Map<FitHypothesis, FitTrial>();
-  for (const t of trials) {
-    const b = bestOf.get(t.hypothesis);
-    if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
-  }
-  const ranked = [...bestOf.values()].sort((a, b) => a.bic - b.bic);
-  const finalists: FitTrial[] = [];
-  for (const t of ranked) {
-    if (finalists.length >= (compared ? F.finishedHypotheses : 1)) break;
-    const done = t.finished ? t : { ...run(t.hypothesis, null, maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
-    if (done !== t) trials.push(done);
-    finalists.push(done);
-  }
+  const finalists = finals;
   const plausible = finalists.filter((t) => plausibilityOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
-  const best = pool.reduce((a, b) => (b.bic < a.bic ? b : a));
+  let best = pool.reduce((x, y) => (y.bic < x.bic ? y : x));
+  // When no reading of the VB peaks fits together with the CB values the comparison found, the
+  // result is the CB side alone (its Ec, rate ratio and CB levels), said in a warning.
+  const cbBest = cbSideOf.get(best);
+  if (cbBest && reduced(best) > F.poorFitChiSquare && reduced(cbBest) <= F.poorFitChiSquare && plausibilityOf(cbBest).length === 0) {
+    warnings.push(
+      `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(best).toPrecision(3)} over the whole curve, ${reduced(cbBest).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
+    );
+    best = cbBest;
+  }
   const weights = evidenceWeights(finalists.map((t) => (plausibilityOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
@@ -354,11 +413,15 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${plausibilityOf(best).join("; ")}); the values are those of the lowest BIC`);
-  const evidence = fitEvidence(best, finalists, trials[0], plausibilityOf, compared);
-  if (hypothesis.kind !== "assigned") warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from (BIC lower by ${(trials[0].bic - best.bic).toFixed(0)})`);
+  const evidence = fitEvidence(best, finalists, assignedTrial, plausibilityOf, compared);
+  if (hypothesis.kind !== "assigned") {
+    warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
+  }
   if (analysis.assignment.regime === "undetermined" && hypothesis.kind === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
 
-  // 3. Final linear coefficients and standard errors from the full Jacobian.
+  // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
+  // result was fitted to.
+  const { biasV, dataA, v3, n } = best.set;
   const final = projectLinear(unitCurrent(params, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
@@ -413,7 +476,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
         rateRatioStart: t.rateRatio0,
         rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
         chargingEnergyEV: t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy],
-        reducedChiSquare: t.loop.chiSquare / Math.max(1, n - t.k),
+        reducedChiSquare: t.loop.chiSquare / Math.max(1, t.n - t.k),
+        side: t.side,
         bic: t.bic,
         finished: k >= 0,
         implausible: k >= 0 ? plausibilityOf(t) : null,
@@ -443,9 +507,24 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   };
 }
 
+/** The points a run fits: bias (V), current (A), V³, their count and the noise-scaled data. */
+interface DataSet {
+  biasV: Float64Array;
+  dataA: Float64Array;
+  v3: Float64Array;
+  n: number;
+  data: { x: number[]; y: number[] };
+}
+
 /** One Levenberg–Marquardt run of one hypothesis from one start. */
 interface FitTrial {
   hypothesis: FitHypothesis;
+  /** The points fitted: the whole curve, or its CB side (bias > 0) when comparing groupings. */
+  side: "both" | "CB";
+  /** Their number. */
+  n: number;
+  /** The points themselves. */
+  set: DataSet;
   rateRatio0: number;
   loop: LoopResult;
   start: StartingValues;
@@ -484,7 +563,7 @@ function plausibilityInput(t: FitTrial): PlausibilityInput {
 }
 
 /** Why the winner won, in words. */
-function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assigned: FitTrial, plausibilityOf: (t: FitTrial) => string[], compared: boolean): string[] {
+function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assigned: FitTrial | null, plausibilityOf: (t: FitTrial) => string[], compared: boolean): string[] {
   const out: string[] = [];
   const ratioOf = (t: FitTrial) => 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio];
   const describe = (t: FitTrial) => `${t.hypothesis.name} (${t.hypothesis.label}; CB ${t.hypothesis.cbDegeneracies.join("+")}, Γtip/Γsub ${ratioOf(t).toPrecision(2)})`;
@@ -499,7 +578,7 @@ function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assigned: F
     if (why.length) out.push(`${t.hypothesis.name}: implausible (${why.join("; ")})`);
     else out.push(`${t.hypothesis.name}: BIC higher by ${(t.bic - best.bic).toFixed(1)} (weight ratio ${Math.exp(-(t.bic - best.bic) / 2).toExponential(1)}), ${t.k - best.k >= 0 ? `${t.k - best.k} more` : `${best.k - t.k} fewer`} parameters`);
   }
-  if (best !== assigned && !finalists.includes(assigned)) out.push(`assigned: BIC higher by ${(assigned.bic - best.bic).toFixed(1)}`);
+  if (assigned && best !== assigned && !finalists.includes(assigned)) out.push(`assigned: BIC higher by ${(assigned.bic - best.bic).toFixed(1)}`);
   return out;
 }
 

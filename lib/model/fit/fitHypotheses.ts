@@ -21,8 +21,16 @@ export interface FitHypothesis {
   /** The analysis whose settings and peak width start the fit (with the grouping's assignment). */
   analysis: CurveAnalysis;
   seeds: LevelSeed[];
+  /**
+   * Readings of the VB peaks to try with these CB levels when the whole curve is fitted (the
+   * first is the one in `seeds`): the filling rules' groups, and runs spaced by Ec entered from
+   * the empty dot.
+   */
+  vbReadings: LevelSeed[][];
   /** Degeneracies of the CB levels, in order (e.g. [2, 2, 4] for s and a 2+4 p shell). */
   cbDegeneracies: number[];
+  /** Charge states of its larger band's master equation, Π(g_j + 1) (the cost of one model evaluation grows with it). */
+  states: number;
   /** Starting Ec in eV read from the peaks, or null to take the analysis' (or the guess). */
   chargingEnergyStartEV: number | null;
   /** log₁₀ Γtip/Γsub of the first start, or null for the analysis' regime's default. */
@@ -42,6 +50,8 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
   fillingStartLog10: Math.log10(5),
   /** … and of one read from the empty dot (r = 0.5, the crossover). */
   emptyStartLog10: Math.log10(0.5),
+  /** Electrons in s with which the first p peak seen is read as entered, in the empty-dot readings. */
+  emptyEntryElectrons: Object.freeze([0, 1]) as readonly number[],
   /**
    * A peak within this fraction of Ec/η of a charging peak already explained by a lower level
    * (its ladder ε + Ec·(n + ½)) is taken as that charging peak, not as a new level.
@@ -86,13 +96,15 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
  * 3. "ladder-filling s+p": the CB peaks are charging peaks in filling order; level j (degeneracy
  *    g_j of the layout [2, …p layout]) starts at P[Σ_{i<j} g_i], ε_j = η·V − Ec·(N_before + ½),
  *    Ec₀ = η·(P₁ − P₀), P here the charging peaks the filling rules kept; levels whose first
- *    peak is past the window are left out (the window cuts the shell). VB: runs of peaks spaced
- *    by Ec₀/η, one level each, holding as many holes as the run has peaks.
+ *    peak is past the window are left out (the window cuts the shell). VB: the filling rules'
+ *    groups.
  * 4. "ladder-empty s+p": s holds two electrons (P₁ its second charging peak, Ec₀ = η·(P₁ − P₀)),
  *    and each further level is entered from the empty dot: its first peak is the first peak not
  *    within D.ladderTolerance·Ec₀/η of a charging peak of a lower level (ε_k + Ec₀·(n + ½), n up
- *    to the electrons below and in it); ε = η·V − Ec₀/2. VB: the runs of step 3, each from the
- *    empty dot. This is how a spectrum at an intermediate rate ratio reads.
+ *    to the electrons below and in it); ε = η·V − Ec₀/2, and a second reading with the first
+ *    p peak entered with one electron in s (D.emptyEntryElectrons). VB: runs of peaks spaced by Ec₀/η, one
+ *    level each, holding the run's length less the holes of the levels nearer the gap. This is
+ *    how a spectrum at an intermediate rate ratio reads.
  * 5. Layouts: p whole, 2+4, 2+2+2 (D.pLayouts); no d shell (peaks past p stay unexplained and
  *    cost χ²). Hypotheses with more than D.maxStatesPerBand charge states in a band are not tried.
  *
@@ -108,16 +120,16 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   const D = FIT_HYPOTHESES_DEFAULTS;
   const out: FitHypothesis[] = [];
   const seen = new Set<string>();
-  const add = (h: Omit<FitHypothesis, "cbDegeneracies">) => {
-    const key = h.seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ") + `|${h.chargingEnergyStartEV ?? ""}`;
+  const add = (h: Omit<FitHypothesis, "cbDegeneracies" | "states" | "vbReadings">, vbReadings?: LevelSeed[][]) => {
+    const key = seedKey(h.seeds) + `|${h.chargingEnergyStartEV ?? ""}`;
     if (!h.seeds.some((s) => s.band === "CB") && h.kind !== "assigned") return;
     if (!h.seeds.length || seen.has(key)) return;
-    for (const band of h.kind === "assigned" ? [] : (["CB", "VB"] as const)) {
-      const states = h.seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1);
-      if (states > Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand)) return;
-    }
+    const states = Math.max(...(["CB", "VB"] as const).map((band) => h.seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1)));
+    if (h.kind !== "assigned" && states > Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand)) return;
     seen.add(key);
-    out.push({ ...h, cbDegeneracies: h.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy) });
+    const own = h.seeds.filter((s) => s.band === "VB");
+    const readings = [own, ...(vbReadings ?? []).filter((r) => seedKey(r) !== seedKey(own))];
+    out.push({ ...h, vbReadings: readings, cbDegeneracies: h.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy), states });
   };
   const base = { chargingEnergyStartEV: null, rateRatioStartLog10: null };
   add({ name: "assigned", kind: "assigned", label: "the assignment's grouping", analysis, seeds: levelsToFit(analysis), ...base });
@@ -135,8 +147,8 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   const ec0 = eta * (peaksV[1] - peaksV[0]);
   // In filling order, the charging peaks the filling rules kept (peaks off the ladder set aside).
   const chargingPeaksV = filling.assignment.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peaksV).sort((a, b) => a - b);
-  const vbFilling = valenceLadderSeeds(ladderPeaksV(analysis, "VB"), ec0 / eta, D.ladderTolerance);
-  const vbEmpty = vbFilling.map((s) => ({ ...s, before: 0 }));
+  const vbFilling = levelsToFit(filling).filter((s) => s.band === "VB");
+  const vbEmpty = valenceLadderSeeds(ladderPeaksV(analysis, "VB"), ec0 / eta, D.ladderTolerance);
   for (const pLayout of D.pLayouts) {
     const layout = [2, ...pLayout];
     const words = pLayout.length === 1 ? "p whole" : `p split ${pLayout.join("+")}`;
@@ -149,19 +161,29 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
       seeds: [...inOrder, ...vbFilling],
       chargingEnergyStartEV: ec0,
       rateRatioStartLog10: D.fillingStartLog10,
-    });
+    }, [vbEmpty]);
     const fromEmpty = emptyDotSeeds(peaksV, layout, ec0 / eta, D.ladderTolerance);
-    add({
-      name: `ladder-empty ${fromEmpty.map((s) => s.degeneracy).join("+")}`,
-      kind: "ladder-empty",
-      label: `charging ladder entered from the empty dot (intermediate rate ratio; s doublet, ${words})`,
-      analysis: filling,
-      seeds: [...fromEmpty, ...vbEmpty],
-      chargingEnergyStartEV: ec0,
-      rateRatioStartLog10: D.emptyStartLog10,
-    });
+    for (const entry of D.emptyEntryElectrons) {
+      // The first p peak seen may be p entered with 0 or 1 electrons in s (the entry from the
+      // empty dot is weak near r ≈ 1 and may go unseen).
+      const seeds = fromEmpty.map((x) => (x.label === "s" ? x : { ...x, before: entry }));
+      add({
+        name: `ladder-empty${entry ? `-${entry}` : ""} ${fromEmpty.map((x) => x.degeneracy).join("+")}`,
+        kind: "ladder-empty",
+        label: `charging ladder entered from the empty dot (intermediate rate ratio; s doublet, ${words}${entry ? `, first p peak read as entered with ${entry} electron in s` : ""})`,
+        analysis: filling,
+        seeds: [...seeds, ...vbEmpty],
+        chargingEnergyStartEV: ec0,
+        rateRatioStartLog10: D.emptyStartLog10,
+      }, [vbFilling]);
+    }
   }
   return out;
+}
+
+/** Identifies a list of seeds. */
+function seedKey(seeds: readonly LevelSeed[]): string {
+  return seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
 }
 
 /** A band's peaks that may be levels or charging peaks: no resonance, no noise-level step; from the gap outward. */
@@ -174,18 +196,19 @@ function ladderPeaksV(analysis: CurveAnalysis, band: "CB" | "VB"): number[] {
 }
 
 /**
- * VB levels of a charging ladder: runs of peaks spaced by Ec/η (within the tolerance) are one
- * level holding as many carriers as the run has peaks (VB degeneracy is not assumed); `before`
- * counts the holes of the levels nearer the gap.
+ * VB levels of a charging ladder entered from the empty dot: a run of peaks spaced by Ec/η
+ * (within the tolerance) is one level, entered with 0, 1, … holes already in the levels nearer the
+ * gap, so it holds the run's length less those holes (at least 1; VB degeneracy is not assumed).
  */
 function valenceLadderSeeds(peaksV: readonly number[], ecV: number, tolerance: number): LevelSeed[] {
   const seeds: LevelSeed[] = [];
-  let before = 0;
+  let holes = 0;
   let run: number[] = [];
   const close = () => {
     if (!run.length) return;
-    seeds.push({ band: "VB", label: `v${seeds.length + 1}`, degeneracy: run.length, firstPeakV: run[0], before });
-    before += run.length;
+    const g = Math.max(1, run.length - holes);
+    seeds.push({ band: "VB", label: `v${seeds.length + 1}`, degeneracy: g, firstPeakV: run[0], before: 0 });
+    holes += g;
     run = [];
   };
   for (const v of peaksV) {

@@ -58,13 +58,17 @@ describe("fitCurve(analysis)", () => {
     expect(Number.isFinite(fit.chargingEnergyEV.value)).toBe(true);
   });
 
-  it("warns when the model started from the assignment does not describe the curve (χ²_red > 10)", () => {
-    // Drop the p multiplet: the model then misses six CB steps.
+  it("when the assignment misses a multiplet (χ²_red > 10), compares the other groupings and says which one describes the curve", () => {
+    // Drop the p multiplet: the model started from the assignment then misses six CB steps.
     const a = analysisOf(1.2e9);
     const partial = { ...a, assignment: { ...a.assignment, multiplets: a.assignment.multiplets.filter((m) => m.label !== "p") } };
     const fit = fitCurve(partial);
-    expect(fit.reducedChiSquare).toBeGreaterThan(10);
-    expect(fit.warnings.join(" ")).toMatch(/does not describe the curve/);
+    const assigned = fit.alternatives.find((x) => x.hypothesis === "assigned")!;
+    expect(assigned.reducedChiSquare).toBeGreaterThan(10);
+    expect(fit.hypothesis).not.toBe("assigned");
+    expect(fit.warnings.join(" ")).toMatch(/describes the curve better than the assignment/);
+    expect(fit.reducedChiSquare).toBeLessThan(10);
+    expectClose(fit.chargingEnergyEV.value, 0.12, { rtol: 0.03, what: "Ec (simulated 0.12 eV)" });
   });
 
   it("refuses an analysis without multiplets", () => {
@@ -88,7 +92,7 @@ describe("fitCurve(analysis)", () => {
       compareModels: false,
       rateRatioStartsLog10: [-2, -1, 0, 1, 2],
       exploreIterations: 8,
-      extraStartsLog10: { "shell-filling": [0], "shell-tunneling": [-1], "ladder-filling": [], "ladder-empty": [-1.3] },
+      extraStartsLog10: { "shell-filling": [0], "shell-tunneling": [-1], "ladder-filling": [], "ladder-empty": [] },
       finishedHypotheses: 3,
       regimeSigmas: 2,
     });
