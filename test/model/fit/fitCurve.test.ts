@@ -98,3 +98,49 @@ describe("fitCurve(analysis)", () => {
     });
   });
 });
+
+// Across the crossover: curves simulated with the model's own parameters as truth (ε_s = 0.6 eV,
+// ε_p = 0.9 eV, ε_v = −1.2 eV, Ec = 0.1 eV, η = 0.85, Γsub = 1e8/s), fitted with every hypothesis;
+// the quality bar of the model issue is Ec within 3 % and Γtip/Γsub within × 1.5, the regime the
+// one REGIME_LIMITS gives the true ratio (1.5 and 3/7, common practice, no source).
+function crossover(rateRatio: number) {
+  const sim = simulateCurve({
+    cb: [{ energyEV: 0.6, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 6 }],
+    vb: [{ energyEV: -1.2, degeneracy: 2 }],
+    chargingEnergyEV: 0.1,
+    eta,
+    tipRatePerS: 1e8 * rateRatio,
+    substrateRatePerS: 1e8,
+    temperatureK: 4.5,
+    broadeningEV: 0.01,
+    bias: { fromV: -2, toV: 2.2, stepV: 0.002 },
+    noise: { relative: 0.003, seed: 1 },
+  }, { method: "fast" });
+  return analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
+}
+
+describe("fitCurve(analysis, { compareModels: true }) across the filling–tunnelling crossover", () => {
+  for (const [ratio, regime] of [[0.5, "intermediate"], [1, "intermediate"], [5, "shell-filling"]] as const) {
+    it(`at Γtip/Γsub = ${ratio} picks a charging ladder with the true rate ratio and Ec, regime ${regime}`, () => {
+      const fit = fitCurve(crossover(ratio), { compareModels: true });
+      expect(fit.status).toBe("good");
+      expectClose(fit.chargingEnergyEV.value, 0.1, { rtol: 0.03, what: "Ec (simulated 0.1 eV)" });
+      expect(Math.abs(Math.log(fit.rateRatio.value / ratio))).toBeLessThan(Math.log(1.5));
+      expect(fit.regime).toBe(regime);
+      expect(fit.levels.filter((l) => l.band === "CB").map((l) => l.degeneracy)).toEqual([2, 6]);
+      // The winner carries the largest weight; every finished alternative was checked.
+      const finished = fit.alternatives.filter((a) => a.finished);
+      const top = finished.reduce((a, b) => (b.weight > a.weight ? b : a));
+      expect(top.hypothesis).toBe(fit.hypothesis);
+      expect(finished.every((a) => Array.isArray(a.implausible))).toBe(true);
+      expect(fit.evidence[0]).toMatch(/lowest BIC/);
+    }, 60_000);
+  }
+
+  it("at Γtip/Γsub = 0.5 never takes the single-level grouping whose free levels absorb p's charging peaks", () => {
+    const fit = fitCurve(crossover(0.5), { compareModels: true });
+    expect(fit.hypothesis).not.toBe("shell-tunneling");
+    const single = fit.alternatives.find((a) => a.hypothesis === "shell-tunneling" && a.finished);
+    if (single) expect(single.weight).toBe(0);
+  }, 60_000);
+});
