@@ -7,15 +7,17 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { startingValues, type StartingValues } from "./startingValues.ts";
+import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
-import { levenbergMarquardtLoop, type LoopResult } from "./levenbergMarquardtLoop.ts";
+import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
 import { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
-import { hypothesisPlausibility, type PlausibilityInput } from "./hypothesisPlausibility.ts";
+import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
+import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
+import { fitEvidence } from "./fitEvidence.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 
@@ -63,7 +65,7 @@ export const FIT_DEFAULTS = Object.freeze({
   compareModels: false,
   /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
-  /** Iterations of each extra start; the best are then finished with maxIterations. */
+  /** Iterations of each explored start; the best are then finished with maxIterations. */
   exploreIterations: 8,
   /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
   extraStartsLog10: Object.freeze({
@@ -194,15 +196,17 @@ export interface CurveFit {
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
  *     timeLimitMs (ms, default 5000); maxPoints (default 800); chargingEnergyGuessEV (eV, default
- *     0.1). Defaults in {@link FIT_DEFAULTS}.
+ *     0.1); compareModels (default false: compare only where the rules are not decisive).
+ *     Defaults in {@link FIT_DEFAULTS}.
  *
  * Returns
  * -------
  * CurveFit
  *     Each fitted level (energy in eV and referred to bias in V), Ec (eV and V), Γtip/Γsub, Γsub
  *     (1/s), the broadening (eV), offset (A) and background, all with standard errors; the
- *     reduced χ², the regime the fitted rate ratio implies, the residuals, whether it converged
- *     and why it stopped, and warnings.
+ *     reduced χ², the regime the fitted rate ratio implies and why, the hypothesis the values
+ *     come from, every run tried (`alternatives`, with BIC, plausibility and weight), the
+ *     evidence in words, the residuals, whether it converged and why it stopped, and warnings.
  *
  * Throws
  * ------
@@ -228,10 +232,25 @@ export interface CurveFit {
  * 4. Standard errors ({@link standardErrors}) from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
  *    reduced χ² when the model does not reach the noise).
- * 5. Verdict ({@link fitVerdict}): regime from the fitted Γtip/Γsub: shell filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5),
- *    shell tunnelling at ≤ FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between
- *    ({@link REGIME_LIMITS}); a reduced χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a
- *    warning.
+ * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
+ *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
+ *    assignment's fit has a reduced χ² above FIT_DEFAULTS.poorFitChiSquare (10), or
+ *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
+ *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
+ *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
+ *    the VB reading, which they share, stays out of the comparison); the best
+ *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there, then fitted to the whole
+ *    curve with each reading of the VB peaks, and checked for plausibility. The lowest BIC among
+ *    the plausible whole-curve fits wins; when its reduced χ² is above 10 but its CB-side fit's
+ *    is not, the CB-side values stand (a warning says so). Without a rival, the assignment alone
+ *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
+ *    the curve.
+ * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
+ *    filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5), shell tunnelling at ≤
+ *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
+ *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. A reduced
+ *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
+ *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible.
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
  * References
@@ -240,7 +259,8 @@ export interface CurveFit {
  * Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, "An algorithm for least-squares estimation of
  * nonlinear parameters", J. SIAM 11, 431 (1963); G. H. Golub and V. Pereyra, "The
  * differentiation of pseudo-inverses and nonlinear least squares problems whose variables
- * separate", SIAM J. Numer. Anal. 10, 413 (1973) (variable projection).
+ * separate", SIAM J. Numer. Anal. 10, 413 (1973) (variable projection); G. Schwarz, "Estimating
+ * the dimension of a model", Ann. Stat. 6, 461 (1978) (BIC).
  *
  * Example
  * -------
@@ -396,7 +416,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const finalists = finals;
   const plausible = finalists.filter((t) => plausibilityOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
-  let best = pool.reduce((x, y) => (y.bic < x.bic ? y : x));
+  const wholeBest = pool.reduce((x, y) => (y.bic < x.bic ? y : x));
+  let best = wholeBest;
   // When no reading of the VB peaks fits together with the CB values the comparison found, the
   // result is the CB side alone (its Ec, rate ratio and CB levels), said in a warning.
   const cbBest = cbSideOf.get(best);
@@ -413,7 +434,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${plausibilityOf(best).join("; ")}); the values are those of the lowest BIC`);
-  const evidence = fitEvidence(best, finalists, assignedTrial, plausibilityOf, compared);
+  const evidence = fitEvidence(wholeBest, finalists, assignedTrial, plausibilityOf, compared);
+  if (best !== wholeBest) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
   if (hypothesis.kind !== "assigned") {
     warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
   }
@@ -506,79 +528,3 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     warnings,
   };
 }
-
-/** The points a run fits: bias (V), current (A), V³, their count and the noise-scaled data. */
-interface DataSet {
-  biasV: Float64Array;
-  dataA: Float64Array;
-  v3: Float64Array;
-  n: number;
-  data: { x: number[]; y: number[] };
-}
-
-/** One Levenberg–Marquardt run of one hypothesis from one start. */
-interface FitTrial {
-  hypothesis: FitHypothesis;
-  /** The points fitted: the whole curve, or its CB side (bias > 0) when comparing groupings. */
-  side: "both" | "CB";
-  /** Their number. */
-  n: number;
-  /** The points themselves. */
-  set: DataSet;
-  rateRatio0: number;
-  loop: LoopResult;
-  start: StartingValues;
-  /** Free parameters, nonlinear and linear. */
-  k: number;
-  /** Bayesian information criterion χ² + k·ln n (σ known). */
-  bic: number;
-  /** Run with the full iteration budget (not only explored). */
-  finished: boolean;
-  /** Why it is implausible once checked (empty: plausible); null before. */
-  implausible: string[] | null;
-}
-
-/** The regime a hypothesis' grouping stands for. */
-function groupingRegime(h: FitHypothesis): string {
-  if (h.kind === "ladder-empty") return "intermediate";
-  if (h.kind === "ladder-filling") return "shell-filling";
-  return h.analysis.assignment.regime;
-}
-
-/** The fitted levels, Ec and key parameters at a bound of one trial, for the plausibility checks. */
-function plausibilityInput(t: FitTrial): PlausibilityInput {
-  const p = t.loop.parameters;
-  const at = parameterIndex(t.hypothesis.seeds.length);
-  const atBound = [at.chargingEnergy, at.logRateRatio]
-    .filter((j) => {
-      const span = t.start.maxValues[j] - t.start.minValues[j];
-      return p[j] - t.start.minValues[j] < 1e-3 * span || t.start.maxValues[j] - p[j] < 1e-3 * span;
-    })
-    .map((j) => (j === at.chargingEnergy ? "Ec" : "Γtip/Γsub"));
-  return {
-    levels: t.hypothesis.seeds.map((s, j) => ({ band: s.band, label: s.label, degeneracy: s.degeneracy, energyEV: s.band === "CB" ? p[j] : -p[j] })),
-    chargingEnergyEV: p[at.chargingEnergy],
-    atBound,
-  };
-}
-
-/** Why the winner won, in words. */
-function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assigned: FitTrial | null, plausibilityOf: (t: FitTrial) => string[], compared: boolean): string[] {
-  const out: string[] = [];
-  const ratioOf = (t: FitTrial) => 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio];
-  const describe = (t: FitTrial) => `${t.hypothesis.name} (${t.hypothesis.label}; CB ${t.hypothesis.cbDegeneracies.join("+")}, Γtip/Γsub ${ratioOf(t).toPrecision(2)})`;
-  if (!compared) {
-    out.push(`the assignment's grouping describes the curve (reduced χ² at most ${FIT_DEFAULTS.poorFitChiSquare}) and the rules were decisive: no other hypothesis was fitted`);
-    return out;
-  }
-  out.push(`${describe(best)} has the lowest BIC (χ² + k·ln n, ${best.k} parameters) among the plausible hypotheses`);
-  for (const t of finalists) {
-    if (t === best) continue;
-    const why = plausibilityOf(t);
-    if (why.length) out.push(`${t.hypothesis.name}: implausible (${why.join("; ")})`);
-    else out.push(`${t.hypothesis.name}: BIC higher by ${(t.bic - best.bic).toFixed(1)} (weight ratio ${Math.exp(-(t.bic - best.bic) / 2).toExponential(1)}), ${t.k - best.k >= 0 ? `${t.k - best.k} more` : `${best.k - t.k} fewer`} parameters`);
-  }
-  if (assigned && best !== assigned && !finalists.includes(assigned)) out.push(`assigned: BIC higher by ${(assigned.bic - best.bic).toFixed(1)}`);
-  return out;
-}
-
