@@ -13,7 +13,7 @@ import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
-import { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
+import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
@@ -69,7 +69,7 @@ export const FIT_DEFAULTS = Object.freeze({
   exploreIterations: 8,
   /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
   extraStartsLog10: Object.freeze({
-    "shell-filling": Object.freeze([0]),
+    "shell-filling": Object.freeze([]),
     "shell-tunneling": Object.freeze([-1]),
     "ladder-filling": Object.freeze([]),
     "ladder-empty": Object.freeze([]),
@@ -124,11 +124,14 @@ export interface FitAlternative {
   side: "both" | "CB";
   /** Bayesian information criterion χ² + k·ln n ({@link bayesianInformationCriterion}). */
   bic: number;
-  /** Whether this start was finished with the full budget and checked (one per finalist hypothesis). */
+  /** Whether this run had the full iteration budget (not only explored). */
   finished: boolean;
   /** Why it is physically implausible (empty: plausible); null when not checked. */
   implausible: string[] | null;
-  /** exp(−ΔBIC/2), normalised over the plausible hypotheses fitted to the whole curve: the relative weight of evidence; 0 for the rest. */
+  /**
+   * exp(−ΔBIC/2), normalised over the plausible finalists (their CB-side fits when groupings were
+   * compared, else the assignment's whole-curve fits): the relative weight of evidence; 0 for the rest.
+   */
   weight: number;
 }
 
@@ -240,9 +243,10 @@ export interface CurveFit {
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
  *    the VB reading, which they share, stays out of the comparison); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there, then fitted to the whole
- *    curve with each reading of the VB peaks, and checked for plausibility. The lowest BIC among
- *    the plausible whole-curve fits wins; when its reduced χ² is above 10 but its CB-side fit's
- *    is not, the CB-side values stand (a warning says so). Without a rival, the assignment alone
+ *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
+ *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
+ *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
+ *    above 10 while the CB side's is not (then the CB-side values, a warning says so). Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
  * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
@@ -354,15 +358,18 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const undetermined = analysis.assignment.regime === "undetermined";
   const alone = hypotheses.length === 1;
   const trials: FitTrial[] = [];
-  // When the rules left the regime undetermined their grouping (single levels) is fitted whole
-  // only if its master equation is small; the other groupings are compared anyway.
-  if (!undetermined || alone || hypotheses[0].states <= FIT_HYPOTHESES_DEFAULTS.maxStatesPerBand) trials.push(run(hypotheses[0], null, maxIterations));
+  // When the rules left the regime undetermined, their grouping (single levels) is fitted to the
+  // whole curve only if no grouping of CB peaks can be compared with it.
+  const comparable = hypotheses.some((h) => h.seeds.some((x) => x.band === "CB"));
+  if (!undetermined || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
   const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.poorFitChiSquare;
-  const compared = (compareModels || !decisive) && !alone;
+  const compared = (compareModels || !decisive) && !alone && comparable;
   const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
+  /** Whole-curve fit → the CB-side fit it was started from. */
   const cbSideOf = new Map<FitTrial, FitTrial>();
+  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
   if (!compared && !decisive && assignedTrial) {
     // The assignment alone: restarts from the rate-ratio grid.
     const startLog0 = assignedTrial.start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
@@ -392,11 +399,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
     }
     const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
-    for (const t of ranked) {
-      const cbDone = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 };
-      trials.push(cbDone);
-      const h = [...cbOnly.entries()].find(([, hc]) => hc === t.hypothesis)![0];
-      // The whole curve: the CB values found, each reading of the VB peaks from its start.
+    const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
+    trials.push(...cbFinals);
+    /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
+    const wholeFit = (cbDone: FitTrial): FitTrial => {
+      const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
       let bestFull: FitTrial | null = null;
       for (const vb of h.vbReadings) {
         const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
@@ -404,38 +411,62 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
         const ncb = cbDone.hypothesis.seeds.length;
         const p = cbDone.loop.parameters;
         const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
-        const full = { ...run(hv, null, maxIterations, from), rateRatio0: t.rateRatio0 };
+        const full = { ...run(hv, null, maxIterations, from), rateRatio0: cbDone.rateRatio0 };
         trials.push(full);
         if (!bestFull || full.bic < bestFull.bic) bestFull = full;
       }
-      cbSideOf.set(bestFull!, cbDone);
-      finals.push(bestFull!);
+      return bestFull!;
+    };
+    // By CB-side BIC: the first plausible on the CB side whose whole-curve fit is plausible too
+    // (or does not describe the curve, then its VB reading is what fails) is the winner; the
+    // whole curve is fitted only for the candidates looked at.
+    for (const c of [...cbFinals].sort((x, y) => x.bic - y.bic)) {
+      finals.push(c);
+      if (plausibilityOf(c).length) continue;
+      const whole = wholeFit(c);
+      cbSideOf.set(whole, c);
+      if (whole.loop.chiSquare / Math.max(1, whole.n - whole.k) > F.poorFitChiSquare || plausibilityOf(whole).length === 0) break;
+    }
+    for (const c of cbFinals) if (!finals.includes(c)) finals.push(c);
+    if (![...cbSideOf.values()].length) {
+      // None plausible on the CB side: the lowest BIC's whole-curve fit, reported as implausible.
+      const c = finals.filter((t) => t.side === "CB").reduce((x, y) => (y.bic < x.bic ? y : x));
+      cbSideOf.set(wholeFit(c), c);
     }
   }
-  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
-  const finalists = finals;
-  const plausible = finalists.filter((t) => plausibilityOf(t).length === 0);
+  const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
+  // The finalists: when groupings were compared, their CB-side fits (all on the same points),
+  // each implausible by its CB side or by its whole-curve fit where that one describes the curve;
+  // otherwise the assignment's whole-curve runs.
+  const wholeOf = new Map([...cbSideOf].map(([whole, cb]) => [cb, whole]));
+  const finalists = wholeOf.size ? finals.filter((t) => t.side === "CB") : finals;
+  const implausibleOf = (t: FitTrial) => {
+    const whole = wholeOf.get(t);
+    const wholeReasons = whole ? plausibilityOf(whole) : [];
+    return [...plausibilityOf(t), ...(whole && !poor(whole) ? wholeReasons : [])];
+  };
+  const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
-  const wholeBest = pool.reduce((x, y) => (y.bic < x.bic ? y : x));
-  let best = wholeBest;
-  // When no reading of the VB peaks fits together with the CB values the comparison found, the
-  // result is the CB side alone (its Ec, rate ratio and CB levels), said in a warning.
-  const cbBest = cbSideOf.get(best);
-  if (cbBest && reduced(best) > F.poorFitChiSquare && reduced(cbBest) <= F.poorFitChiSquare && plausibilityOf(cbBest).length === 0) {
+  const winner = pool.reduce((x, y) => (y.bic < x.bic ? y : x));
+  const whole = wholeOf.get(winner);
+  let best = whole ?? winner;
+  // When no reading of the VB peaks fits together with the CB values, the result is the CB side
+  // alone (its Ec, rate ratio and CB levels), said in a warning.
+  if (whole && poor(whole) && !poor(winner)) {
     warnings.push(
-      `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(best).toPrecision(3)} over the whole curve, ${reduced(cbBest).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
+      `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(whole).toPrecision(3)} over the whole curve, ${reduced(winner).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
     );
-    best = cbBest;
+    best = winner;
   }
-  const weights = evidenceWeights(finalists.map((t) => (plausibilityOf(t).length ? Infinity : t.bic)));
+  const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
   const at = parameterIndex(seeds.length);
   const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
-  if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${plausibilityOf(best).join("; ")}); the values are those of the lowest BIC`);
-  const evidence = fitEvidence(wholeBest, finalists, assignedTrial, plausibilityOf, compared);
-  if (best !== wholeBest) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
+  if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
+  const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared);
+  if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
   if (hypothesis.kind !== "assigned") {
     warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
   }
@@ -477,7 +508,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   if (!plausible.length) status.reasons.unshift("no hypothesis is physically plausible");
   const failed = status.status === "failed" || !plausible.length;
   const regime = failed ? "undetermined" : verdict.regime;
-  const regimeReason = failed ? `no fit: ${(plausible.length ? status.reasons : plausibilityOf(best)).join("; ")}` : verdict.regimeReason;
+  const regimeReason = failed ? `no fit: ${(plausible.length ? status.reasons : implausibleOf(winner)).join("; ")}` : verdict.regimeReason;
   return {
     source: analysis.source,
     converged,
@@ -501,8 +532,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
         reducedChiSquare: t.loop.chiSquare / Math.max(1, t.n - t.k),
         side: t.side,
         bic: t.bic,
-        finished: k >= 0,
-        implausible: k >= 0 ? plausibilityOf(t) : null,
+        finished: t.finished,
+        implausible: k >= 0 ? implausibleOf(t) : t.implausible,
         weight: k >= 0 ? weights[k] : 0,
       };
     }),

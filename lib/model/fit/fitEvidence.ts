@@ -13,7 +13,7 @@ import type { FitTrial } from "./fitTrial.ts";
  * best : FitTrial
  *     The run whose values the fit reports.
  * finalists : readonly FitTrial[]
- *     The runs fitted to the whole curve and checked for plausibility (best among them).
+ *     The runs compared and checked for plausibility, all on the same points (best among them).
  * assigned : FitTrial | null
  *     The whole-curve run of the assignment's grouping, if it was made.
  * plausibilityOf : (t: FitTrial) => string[]
@@ -49,7 +49,7 @@ export function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assi
     if (why.length) out.push(`${t.hypothesis.name}: implausible (${why.join("; ")})`);
     else out.push(`${t.hypothesis.name}: BIC higher by ${(t.bic - best.bic).toFixed(1)} (weight ratio ${Math.exp(-(t.bic - best.bic) / 2).toExponential(1)}), ${t.k - best.k >= 0 ? `${t.k - best.k} more` : `${best.k - t.k} fewer`} parameters`);
   }
-  if (assigned && best !== assigned && !finalists.includes(assigned)) out.push(`assigned: BIC higher by ${(assigned.bic - best.bic).toFixed(1)}`);
+  if (assigned && assigned.side === best.side && best !== assigned && !finalists.includes(assigned)) out.push(`assigned: BIC higher by ${(assigned.bic - best.bic).toFixed(1)}`);
   return out;
 }
 
