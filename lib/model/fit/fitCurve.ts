@@ -78,6 +78,12 @@ export const FIT_DEFAULTS = Object.freeze({
   finishedHypotheses: 3,
   /** Standard errors either side of the fitted log₁₀ Γtip/Γsub that the regime must hold over (fitVerdict). */
   regimeSigmas: 2,
+  /**
+   * The assignment's fit settles the question (no other grouping is compared unless asked) when
+   * the rules decided the regime and its reduced χ² is at most this: a model that reaches the noise
+   * leaves nothing for another grouping to explain.
+   */
+  decisiveChiSquare: 2,
 });
 
 /** One fitted parameter with its standard error. */
@@ -364,7 +370,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   if (!undetermined || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.poorFitChiSquare;
+  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare;
   const compared = (compareModels || !decisive) && !alone && comparable;
   const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
   /** Whole-curve fit → the CB-side fit it was started from. */

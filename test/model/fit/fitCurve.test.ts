@@ -95,6 +95,7 @@ describe("fitCurve(analysis)", () => {
       extraStartsLog10: { "shell-filling": [], "shell-tunneling": [-1], "ladder-filling": [], "ladder-empty": [] },
       finishedHypotheses: 3,
       regimeSigmas: 2,
+      decisiveChiSquare: 2,
     });
   });
 });
