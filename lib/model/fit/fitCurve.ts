@@ -243,7 +243,7 @@ export interface CurveFit {
  *    reduced χ² when the model does not reach the noise).
  * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
  *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
- *    assignment's fit has a reduced χ² above FIT_DEFAULTS.poorFitChiSquare (10), or
+ *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), or
  *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:

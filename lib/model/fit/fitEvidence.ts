@@ -1,7 +1,6 @@
 /**
  * Why the model fit chose the grouping it did, in words.
  */
-import { FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import type { FitTrial } from "./fitTrial.ts";
 
@@ -39,7 +38,7 @@ export function fitEvidence(best: FitTrial, finalists: readonly FitTrial[], assi
   const ratioOf = (t: FitTrial) => 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio];
   const describe = (t: FitTrial) => `${t.hypothesis.name} (${t.hypothesis.label}; CB ${t.hypothesis.cbDegeneracies.join("+")}, Γtip/Γsub ${ratioOf(t).toPrecision(2)})`;
   if (!compared) {
-    out.push(`the assignment's grouping describes the curve (reduced χ² at most ${FIT_STATUS_DEFAULTS.poorChiSquare}) and the rules were decisive: no other hypothesis was fitted`);
+    out.push("the rules decided the regime and the assignment's grouping describes the curve to the noise: no other grouping was fitted");
     return out;
   }
   out.push(`${describe(best)} has the lowest BIC (χ² + k·ln n, ${best.k} parameters) among the plausible hypotheses`);
