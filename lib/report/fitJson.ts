@@ -129,7 +129,9 @@ export function formatFitText(fit: FitJson): string {
   lines.push(`  ${fit.statusReasons.join("; ")}`);
   lines.push(`  ${fit.message}; ${fit.iterations} iterations; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
   if (fit.status === "failed") {
-    const best = fit.alternatives.reduce((a, b) => (b.bic < a.bic ? b : a));
+    // BIC compares only runs on the same points: the whole-curve runs where there are any.
+    const whole = fit.alternatives.filter((a) => a.side === "both");
+    const best = (whole.length ? whole : fit.alternatives).reduce((a, b) => (b.bic < a.bic ? b : a));
     lines.push(`  No start describes the curve (best reduced χ² ${best.reducedChiSquare.toPrecision(4)}, from Γtip/Γsub = ${best.rateRatioStart.toPrecision(2)}); the peak-based result (dotspec analyze) stands.`);
     if (fit.warnings.length) {
       lines.push("");
