@@ -84,6 +84,11 @@ export const FIT_DEFAULTS = Object.freeze({
    * leaves nothing for another grouping to explain.
    */
   decisiveChiSquare: 2,
+  /**
+   * BIC differences below this are ties (not worth more than a bare mention: R. E. Kass and
+   * A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)); a tie goes to the hypothesis listed first.
+   */
+  bicTieMargin: 2,
 });
 
 /** One fitted parameter with its standard error. */
@@ -453,7 +458,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
-  const winner = pool.reduce((x, y) => (y.bic < x.bic ? y : x));
+  // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
+  // the forced regimes before the ladders): readings that reach the same levels are one model.
+  const lowest = Math.min(...pool.map((t) => t.bic));
+  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name);
+  const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
   const whole = wholeOf.get(winner);
   let best = whole ?? winner;
   // When no reading of the VB peaks fits together with the CB values, the result is the CB side
@@ -471,9 +480,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
-  const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared);
+  const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
-  if (hypothesis.kind !== "assigned") {
+  if (hypothesis.kind !== "assigned" && (!assignedTrial || assignedTrial.side !== best.side || assignedTrial.bic - best.bic >= F.bicTieMargin)) {
     warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
   }
   if (analysis.assignment.regime === "undetermined" && hypothesis.kind === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
@@ -529,7 +538,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       const k = finalists.indexOf(t);
       return {
         hypothesis: t.hypothesis.name,
-        regime: groupingRegime(t.hypothesis),
+        regime: groupingRegime(t),
         levels: t.hypothesis.seeds.length,
         cbDegeneracies: t.hypothesis.cbDegeneracies,
         rateRatioStart: t.rateRatio0,

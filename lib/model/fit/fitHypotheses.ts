@@ -170,7 +170,7 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
       add({
         name: `ladder-empty${entry ? `-${entry}` : ""} ${fromEmpty.map((x) => x.degeneracy).join("+")}`,
         kind: "ladder-empty",
-        label: `charging ladder entered from the empty dot (intermediate rate ratio; s doublet, ${words}${entry ? `, first p peak read as entered with ${entry} electron in s` : ""})`,
+        label: `charging ladder read from the empty dot (s doublet, ${words}${entry ? `, the first p peak read as entered with ${entry} electron in s` : ""})`,
         analysis: filling,
         seeds: [...seeds, ...vbEmpty],
         chargingEnergyStartEV: ec0,

@@ -6,6 +6,7 @@ import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { PlausibilityInput } from "./hypothesisPlausibility.ts";
 import type { LoopResult } from "./levenbergMarquardtLoop.ts";
 import { parameterIndex } from "./parameterModel.ts";
+import { REGIME_LIMITS } from "../regimeLimits.ts";
 import type { StartingValues } from "./startingValues.ts";
 
 /** The points a run fits: bias (V), current (A), V³, their count and the noise-scaled data. */
@@ -40,29 +41,31 @@ export interface FitTrial {
 }
 
 /**
- * The regime a hypothesis' grouping stands for.
+ * The regime a run stands for.
  *
  * Parameters
  * ----------
- * h : FitHypothesis
- *     A hypothesis of {@link fitHypotheses}.
+ * t : FitTrial
+ *     One run: its hypothesis and its fitted log₁₀ Γtip/Γsub.
  *
  * Returns
  * -------
  * string
- *     "intermediate" for a ladder entered from the empty dot, "shell-filling" for one in filling
- *     order, else the regime of the hypothesis' assignment.
+ *     For a charging ladder, the regime of its fitted rate ratio by REGIME_LIMITS (shell filling
+ *     at ≥ 1.5, shell tunnelling at ≤ 3/7, intermediate between); for the rules' groupings, the
+ *     regime of their assignment.
  *
  * Example
  * -------
  * ```ts
- * groupingRegime({ kind: "ladder-empty", ... } as FitHypothesis); // => "intermediate"
+ * groupingRegime(ladderRunEndingAtRatio0_5); // => "intermediate"
  * ```
  */
-export function groupingRegime(h: FitHypothesis): string {
-  if (h.kind === "ladder-empty") return "intermediate";
-  if (h.kind === "ladder-filling") return "shell-filling";
-  return h.analysis.assignment.regime;
+export function groupingRegime(t: FitTrial): string {
+  const h = t.hypothesis;
+  if (h.kind !== "ladder-empty" && h.kind !== "ladder-filling") return h.analysis.assignment.regime;
+  const r = 10 ** t.loop.parameters[parameterIndex(h.seeds.length).logRateRatio];
+  return r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : "intermediate";
 }
 
 /**
