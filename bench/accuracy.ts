@@ -5,14 +5,25 @@
  *   npm run bench:accuracy                 # 200 spectra per regime, exact model
  *   npm run bench:accuracy -- --n 50 --method fast --verbose
  *   npm run bench:accuracy -- --path measured       # analyse a simulated lock-in dI/dV column
+ *   npm run bench:accuracy -- --mix crossover        # Γtip/Γsub 0.2–5, regime from the true ratio
+ *   npm run bench:accuracy -- --mix cut-window       # the bias window ends inside the p shell
+ *   npm run bench:accuracy -- --mix low-eta          # η 0.55–0.65 (the default mix otherwise)
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
  * within 10 %. Intermediate spectra (Γtip/Γsub between 0.3 and 2) are reported separately: for
  * them "undetermined" is an acceptable answer, a wrong definite regime is not.
+ *
+ * The other mixes (--mix) leave the default figures alone: "crossover" draws Γtip/Γsub
+ * log-uniformly from 0.2 to 5 and reports, per regime of the true ratio (REGIME_LIMITS), how often
+ * the rules name it, say undetermined, or name the wrong one; "cut-window" ends the bias window
+ * halfway through the p shell (the p multiplet then has the peaks inside the window); "low-eta"
+ * draws η from 0.55 to 0.65 (draws whose second-junction resonances would fall in the window are
+ * still redrawn by syntheticSpectrum).
  */
 import { simulateCurve } from "../lib/model/simulate.ts";
-import { syntheticSpectrum, type SyntheticRegime, type SyntheticTruth } from "../lib/model/syntheticSpectrum.ts";
+import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRanges, type SyntheticRegime, type SyntheticTruth } from "../lib/model/syntheticSpectrum.ts";
+import { REGIME_LIMITS } from "../lib/model/regimeLimits.ts";
 import { analyzeCurve, type CurveAnalysis } from "../lib/pipeline/analyzeCurve.ts";
 
 const args = process.argv.slice(2);
@@ -26,6 +37,10 @@ const verbose = args.includes("--verbose");
 const firstSeed = Number(arg("seed", "1"));
 // "current": differentiate the simulated current; "measured": analyse a simulated lock-in dI/dV column.
 const path = arg("path", "current") as "current" | "measured";
+const mix = arg("mix", "default") as "default" | "crossover" | "cut-window" | "low-eta";
+if (!["default", "crossover", "cut-window", "low-eta"].includes(mix)) throw new Error(`--mix must be default, crossover, cut-window or low-eta; got ${mix}`);
+const ranges: SyntheticRanges =
+  mix === "low-eta" ? { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] } : mix === "crossover" ? { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: [0.2, 5] } } : SYNTHETIC_DEFAULTS;
 
 interface Score {
   pass: boolean;
@@ -58,18 +73,49 @@ function score(a: CurveAnalysis, t: SyntheticTruth): Score {
   return { pass: failures.length === 0, failures };
 }
 
-const regimes: SyntheticRegime[] = ["shell-filling", "shell-tunneling", "intermediate"];
+const regimes: SyntheticRegime[] = mix === "crossover" ? [] : ["shell-filling", "shell-tunneling", "intermediate"];
 const started = performance.now();
 const lines: string[] = [];
+if (mix === "crossover") {
+  // Regime of the true ratio against the rules' answer.
+  const counts = new Map<string, { right: number; undetermined: number; wrong: number; total: number }>();
+  for (let k = 0; k < perRegime; k++) {
+    const seed = firstSeed + k;
+    const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
+    const sim = simulateCurve(scenario, { method, conductance: path === "measured" });
+    const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: sim.didvS, meta: { source: `crossover-${seed}`, metadata: {} } };
+    const got = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" }).assignment.regime;
+    const r = truth.rateRatio;
+    const want = r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : "intermediate";
+    const c = counts.get(want) ?? { right: 0, undetermined: 0, wrong: 0, total: 0 };
+    c.total++;
+    if (got === want) c.right++;
+    else if (got === "undetermined") c.undetermined++;
+    else c.wrong++;
+    counts.set(want, c);
+  }
+  for (const [want, c] of counts) lines.push(`${want.padEnd(16)} ${c.total} spectra (true Γtip/Γsub): named ${c.right}, undetermined ${c.undetermined}, another regime ${c.wrong}`);
+}
 const calibration: number[] = []; // (found − true)/σ for the s and p peaks of passing spectra
 for (const regime of regimes) {
   let passed = 0, regimeRight = 0, undetermined = 0, wrongDefinite = 0;
   const reasons = new Map<string, number>();
   for (let k = 0; k < perRegime; k++) {
     const seed = firstSeed + k;
-    const { scenario, truth } = syntheticSpectrum(seed, regime);
+    const drawn = syntheticSpectrum(seed, regime, ranges);
+    const { scenario } = drawn;
+    let { truth } = drawn;
     const sim = simulateCurve(scenario, { method, conductance: path === "measured" });
-    const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: sim.didvS, meta: { source: `synthetic-${regime}-${seed}`, metadata: {} } };
+    let curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: sim.didvS, meta: { source: `synthetic-${regime}-${seed}`, metadata: {} } };
+    if (mix === "cut-window" && truth.pPeaksV.length >= 2) {
+      // End the window halfway through the p shell, between two of its peaks.
+      const k = Math.floor(truth.pPeaksV.length / 2);
+      const topV = (truth.pPeaksV[k - 1] + truth.pPeaksV[k]) / 2;
+      const keep = (a: Float64Array | null) => (a ? a.filter((_, i) => sim.biasV[i] <= topV) : null);
+      const currentA = keep(sim.currentA)!;
+      curve = { ...curve, biasV: keep(sim.biasV)!, currentA, sweeps: [currentA], didvS: keep(sim.didvS) };
+      truth = { ...truth, pPeaksV: truth.pPeaksV.slice(0, k) };
+    }
     const analysis = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" });
     if (regime === "intermediate") {
       if (analysis.assignment.regime === "undetermined") undetermined++;
@@ -101,8 +147,8 @@ for (const regime of regimes) {
   }
 }
 const within = (k: number) => calibration.filter((z) => Math.abs(z) <= k).length / Math.max(calibration.length, 1);
-lines.push(
+if (mix !== "crossover") lines.push(
   `peak-position uncertainty calibration over ${calibration.length} peaks: |error| ≤ 1σ ${(100 * within(1)).toFixed(0)} %, ≤ 2σ ${(100 * within(2)).toFixed(0)} %, ≤ 3σ ${(100 * within(3)).toFixed(0)} % (normal: 68/95/99.7)`,
 );
-lines.push(`method ${method}, ${path} dI/dV, seeds ${firstSeed}…${firstSeed + perRegime - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`);
+lines.push(`${mix === "default" ? "" : `mix ${mix}, `}method ${method}, ${path} dI/dV, seeds ${firstSeed}…${firstSeed + perRegime - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`);
 console.log(lines.join("\n"));

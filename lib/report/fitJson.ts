@@ -12,6 +12,8 @@ export interface FitJson {
   statusReasons: string[];
   /** The grouping of the peaks the values come from, and every start tried with its BIC weight. */
   hypothesis: CurveFit["hypothesis"];
+  /** Why that hypothesis won, in words. */
+  evidence: string[];
   alternatives: CurveFit["alternatives"];
   /**
    * The quantities the fit implies, in eV, beside the peak-based ones (`peakBased.energies`):
@@ -30,8 +32,10 @@ export interface FitJson {
   /** Γtip/Γsub. */
   rateRatio: number;
   rateRatioSE: number;
-  /** Regime implied by the fitted rate ratio. */
+  /** Regime implied by the fitted rate ratio and its error ("undetermined" when they cannot tell, or no fit). */
   regime: CurveFit["regime"];
+  /** Why, in words. */
+  regimeReason: string;
   /** Level energies referred to bias, ε/η, V, per band from the gap edge. */
   levelsV: { CB: number[]; VB: number[] };
   reducedChiSquare: number;
@@ -76,6 +80,7 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
     status: fit.status,
     statusReasons: fit.statusReasons,
     hypothesis: fit.hypothesis,
+    evidence: fit.evidence,
     alternatives: fit.alternatives,
     quantities: {
       gapEV: s1 && v1 ? sum([s1.energyEV, v1.energyEV, fit.chargingEnergyEV], [1, -1, 1]) : null,
@@ -91,6 +96,7 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
     rateRatio: fit.rateRatio.value,
     rateRatioSE: fit.rateRatio.standardError,
     regime: fit.regime,
+    regimeReason: fit.regimeReason,
     levelsV: { CB: band("CB"), VB: band("VB") },
     reducedChiSquare: fit.reducedChiSquare,
     energies: {
@@ -123,7 +129,9 @@ export function formatFitText(fit: FitJson): string {
   lines.push(`  ${fit.statusReasons.join("; ")}`);
   lines.push(`  ${fit.message}; ${fit.iterations} iterations; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
   if (fit.status === "failed") {
-    const best = fit.alternatives.reduce((a, b) => (b.bic < a.bic ? b : a));
+    // BIC compares only runs on the same points: the whole-curve runs where there are any.
+    const whole = fit.alternatives.filter((a) => a.side === "both");
+    const best = (whole.length ? whole : fit.alternatives).reduce((a, b) => (b.bic < a.bic ? b : a));
     lines.push(`  No start describes the curve (best reduced χ² ${best.reducedChiSquare.toPrecision(4)}, from Γtip/Γsub = ${best.rateRatioStart.toPrecision(2)}); the peak-based result (dotspec analyze) stands.`);
     if (fit.warnings.length) {
       lines.push("");
@@ -151,6 +159,12 @@ export function formatFitText(fit: FitJson): string {
   lines.push(`  Γtip/Γsub          = ${fit.rateRatio.toPrecision(3)} ± ${fit.rateRatioSE.toPrecision(2)}  →  ${fit.regime}`);
   lines.push(`  Γsub               = ${fit.substrateRatePerS.value.toExponential(3)} ± ${Number.isFinite(fit.substrateRatePerS.standardError) ? fit.substrateRatePerS.standardError.toExponential(1) : "—"} /s`);
   lines.push(`  broadening σ       = ${pm(fit.energies.broadeningEV, 1000, 2)} meV`);
+  lines.push(`  regime: ${fit.regimeReason}`);
+  if (fit.evidence.length > 1) {
+    lines.push("");
+    lines.push("  Why this grouping");
+    for (const e of fit.evidence) lines.push(`    ${e}`);
+  }
   if (fit.warnings.length) {
     lines.push("");
     lines.push(`  Warnings (${fit.warnings.length})`);

@@ -7,6 +7,7 @@ import { describe, it, expect } from "vitest";
 import { REGIME_LIMITS, rateRatioFromStepRatio, secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
 import { exactCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
 import { expectClose } from "../helpers/expectClose.ts";
+import { simulateCurve } from "../../lib/model/simulate.ts";
 
 function sLevel(rateRatio: number): DotModel {
   return {
@@ -27,6 +28,22 @@ describe("secondToFirstStepRatio(r)", () => {
       // Plateaus after the first and second charging steps at (ε + Ec/2)/η and (ε + 3Ec/2)/η.
       const [first, second] = exactCurrent(sLevel(r), [(0.5 + 0.2) / 0.8, (0.5 + 0.4) / 0.8]);
       expectClose((second - first) / first, secondToFirstStepRatio(r), { rtol: 1e-8, what: `r = ${r}` });
+    }
+  });
+
+  it("is the ratio of the first two CB steps of a whole simulated curve (simulateCurve, exact and fast), closed form r/(1 + r)", () => {
+    // One spin-degenerate s level at 0.5 eV, Ec = 0.2 eV, η = 0.8, no noise: steps at
+    // (0.5 + 0.1)/0.8 = 0.75 V and (0.5 + 0.3)/0.8 = 1.0 V; plateaus read at 0.875 V and 1.125 V.
+    for (const method of ["exact", "fast"] as const) {
+      for (const r of [0.2, 0.5, 1, 5]) {
+        const sim = simulateCurve({
+          cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [], chargingEnergyEV: 0.2, eta: 0.8, tipRatePerS: r * 1e8, substrateRatePerS: 1e8,
+          temperatureK: 4.5, broadeningEV: 0.005, bias: { fromV: 0, toV: 1.25, stepV: 0.005 }, noise: null,
+        }, { method, conductance: false });
+        const at = (v: number) => sim.currentA[Math.round(v / 0.005)];
+        const first = at(0.875), second = at(1.125);
+        expectClose((second - first) / first, r / (1 + r), { rtol: 1e-3, what: `${method}, r = ${r}` });
+      }
     }
   });
 

@@ -43,9 +43,12 @@ constrains it (it trades off against every level energy); give the value you tru
 
 Each fit gets a status from its reduced χ² and the errors of Ec and Γtip/Γsub, not from the
 optimiser: good, poor, or failed ("NO FIT": no start describes the curve; exit status 1). When the
-first fit does not describe the curve, or the regime is undetermined, the fit is started again
-from Γtip/Γsub = 0.01 … 100 and the best is kept; --compare-models also tries the other regimes'
-groupings of the peaks and keeps the best by BIC. The peak-based result is always included in the
+first fit does not describe the curve, or the regime is undetermined (or with --compare-models),
+other groupings of the CB peaks are compared on the CB side of the curve: the regimes forced, and
+charging ladders with p whole, 2+4 or 2+2+2 read in filling order or entered from the empty dot;
+the best few are fitted to the whole curve, checked for plausibility (Ec against the gap, level
+order, degeneracies) and the lowest BIC wins (JSON: "alternatives", "evidence"). The regime follows
+the fitted Γtip/Γsub and its error: shell filling, shell tunnelling, intermediate, or undetermined. The peak-based result is always included in the
 JSON output (field "peakBased"). The fit stops at --time-limit-ms in any case.
 
 The fitted rate ratio is a property of the recorded curve, not an instrument setting; any change
@@ -82,7 +85,7 @@ export const fitCommand: CliCommand = {
         `most Levenberg–Marquardt iterations (default: ${FIT_DEFAULTS.maxIterations})`,
         numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }),
       )
-      .option("--compare-models", "also fit the shell-filling and shell-tunnelling groupings of the same peaks and keep the best by BIC (slower)")
+      .option("--compare-models", "compare every grouping of the peaks by BIC even where the rules are decisive (slower)")
       .addHelpText("after", HELP_AFTER)
       .action(async (files: string[], opts: FitCliOptions) => {
         ctx.exitCode = await runFit(files, opts, ctx);

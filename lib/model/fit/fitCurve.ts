@@ -7,15 +7,17 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
-import { startingValues, type StartingValues } from "./startingValues.ts";
+import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
-import { levenbergMarquardtLoop, type LoopResult } from "./levenbergMarquardtLoop.ts";
+import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
-import { assignSpectrum } from "../../assign/assignSpectrum.ts";
-import { SCENARIO_DEFAULTS } from "../scenario.ts";
+import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
+import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
+import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
+import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
+import { fitEvidence } from "./fitEvidence.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 
@@ -63,8 +65,30 @@ export const FIT_DEFAULTS = Object.freeze({
   compareModels: false,
   /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
-  /** Iterations of each extra start; the best is then finished with maxIterations. */
+  /** Iterations of each explored start; the best are then finished with maxIterations. */
   exploreIterations: 8,
+  /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
+  extraStartsLog10: Object.freeze({
+    "shell-filling": Object.freeze([]),
+    "shell-tunneling": Object.freeze([-1]),
+    "ladder-filling": Object.freeze([]),
+    "ladder-empty": Object.freeze([]),
+  }) as Readonly<Partial<Record<HypothesisKind, readonly number[]>>>,
+  /** Hypotheses (the best by BIC after exploring) finished with the full budget and checked for plausibility. */
+  finishedHypotheses: 3,
+  /** Standard errors either side of the fitted log₁₀ Γtip/Γsub that the regime must hold over (fitVerdict). */
+  regimeSigmas: 2,
+  /**
+   * The assignment's fit settles the question (no other grouping is compared unless asked) when
+   * the rules decided the regime and its reduced χ² is at most this: a model that reaches the noise
+   * leaves nothing for another grouping to explain.
+   */
+  decisiveChiSquare: 2,
+  /**
+   * BIC differences below this are ties (not worth more than a bare mention: R. E. Kass and
+   * A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)); a tie goes to the hypothesis listed first.
+   */
+  bicTieMargin: 2,
 });
 
 /** One fitted parameter with its standard error. */
@@ -87,19 +111,38 @@ export interface FittedLevel {
 
 /** One start of one hypothesis that {@link fitCurve} tried. */
 export interface FitAlternative {
-  /** "assigned", or the regime forced on the same peaks. */
-  hypothesis: "assigned" | "shell-filling" | "shell-tunneling";
-  /** Regime of that grouping of the peaks. */
+  /**
+   * "assigned", the regime forced on the same peaks ("shell-filling", "shell-tunneling"), or a
+   * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …).
+   */
+  hypothesis: string;
+  /** Regime of that grouping of the peaks ("intermediate" for a ladder entered from the empty dot). */
   regime: string;
   /** Levels fitted. */
   levels: number;
+  /** Degeneracies of its CB levels, from the gap outward (multiplet sizes). */
+  cbDegeneracies: number[];
   /** Γtip/Γsub it started from and ended at. */
   rateRatioStart: number;
   rateRatio: number;
+  /** Fitted Ec, eV. */
+  chargingEnergyEV: number;
   reducedChiSquare: number;
-  /** Bayesian information criterion χ² + k·ln n. */
+  /**
+   * The points fitted: "both" (the whole curve) or "CB" (its CB side, where groupings of the CB
+   * peaks are compared). BIC compares only runs on the same points.
+   */
+  side: "both" | "CB";
+  /** Bayesian information criterion χ² + k·ln n ({@link bayesianInformationCriterion}). */
   bic: number;
-  /** exp(−ΔBIC/2), normalised over the alternatives: the relative weight of evidence. */
+  /** Whether this run had the full iteration budget (not only explored). */
+  finished: boolean;
+  /** Why it is physically implausible (empty: plausible); null when not checked. */
+  implausible: string[] | null;
+  /**
+   * exp(−ΔBIC/2), normalised over the plausible finalists (their CB-side fits when groupings were
+   * compared, else the assignment's whole-curve fits): the relative weight of evidence; 0 for the rest.
+   */
   weight: number;
 }
 
@@ -122,6 +165,8 @@ export interface CurveFit {
   statusReasons: string[];
   /** The hypothesis the values come from. */
   hypothesis: FitAlternative["hypothesis"];
+  /** Why that hypothesis won, in words (BIC differences, implausible rivals). */
+  evidence: string[];
   /** Every start of every hypothesis tried, with its score. */
   alternatives: FitAlternative[];
   levels: FittedLevel[];
@@ -141,8 +186,13 @@ export interface CurveFit {
   backgroundCubicAPerV3: FittedValue;
   /** χ² per degree of freedom, with the current noise of the analysis as σ. */
   reducedChiSquare: number;
-  /** Regime implied by the fitted rate ratio. */
-  regime: "shell-filling" | "shell-tunneling" | "intermediate";
+  /**
+   * Regime implied by the fitted rate ratio and its error ({@link fitVerdict}); "undetermined"
+   * when the error reaches both regimes or there is no fit.
+   */
+  regime: "shell-filling" | "shell-tunneling" | "intermediate" | "undetermined";
+  /** Why, in words (the ratio and its range, or what is missing). */
+  regimeReason: string;
   /** Bias, data, model and residual on the points used, for plotting. */
   residuals: { biasV: Float64Array; currentA: Float64Array; modelA: Float64Array; residualA: Float64Array };
   warnings: string[];
@@ -160,15 +210,17 @@ export interface CurveFit {
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
  *     timeLimitMs (ms, default 5000); maxPoints (default 800); chargingEnergyGuessEV (eV, default
- *     0.1). Defaults in {@link FIT_DEFAULTS}.
+ *     0.1); compareModels (default false: compare only where the rules are not decisive).
+ *     Defaults in {@link FIT_DEFAULTS}.
  *
  * Returns
  * -------
  * CurveFit
  *     Each fitted level (energy in eV and referred to bias in V), Ec (eV and V), Γtip/Γsub, Γsub
  *     (1/s), the broadening (eV), offset (A) and background, all with standard errors; the
- *     reduced χ², the regime the fitted rate ratio implies, the residuals, whether it converged
- *     and why it stopped, and warnings.
+ *     reduced χ², the regime the fitted rate ratio implies and why, the hypothesis the values
+ *     come from, every run tried (`alternatives`, with BIC, plausibility and weight), the
+ *     evidence in words, the residuals, whether it converged and why it stopped, and warnings.
  *
  * Throws
  * ------
@@ -194,10 +246,26 @@ export interface CurveFit {
  * 4. Standard errors ({@link standardErrors}) from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
  *    reduced χ² when the model does not reach the noise).
- * 5. Verdict ({@link fitVerdict}): regime from the fitted Γtip/Γsub: shell filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5),
- *    shell tunnelling at ≤ FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between
- *    ({@link REGIME_LIMITS}); a reduced χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a
- *    warning.
+ * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
+ *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
+ *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), or
+ *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
+ *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
+ *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
+ *    the VB reading, which they share, stays out of the comparison); the best
+ *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there, then fitted to the whole
+ *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
+ *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
+ *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
+ *    above 10 while the CB side's is not (then the CB-side values, a warning says so). Without a rival, the assignment alone
+ *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
+ *    the curve.
+ * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
+ *    filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5), shell tunnelling at ≤
+ *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
+ *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. A reduced
+ *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
+ *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible.
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
  * References
@@ -206,7 +274,8 @@ export interface CurveFit {
  * Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, "An algorithm for least-squares estimation of
  * nonlinear parameters", J. SIAM 11, 431 (1963); G. H. Golub and V. Pereyra, "The
  * differentiation of pseudo-inverses and nonlinear least squares problems whose variables
- * separate", SIAM J. Numer. Anal. 10, 413 (1973) (variable projection).
+ * separate", SIAM J. Numer. Anal. 10, 413 (1973) (variable projection); G. Schwarz, "Estimating
+ * the dimension of a model", Ann. Stat. 6, 461 (1978) (BIC).
  *
  * Example
  * -------
@@ -236,32 +305,37 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const warnings: string[] = [];
   if (!analysis.assignment.energies.etaGiven && options.eta === undefined) warnings.push("eta not given: the fit used η = 1");
 
-  // 1. Hypotheses: the assignment as it stands, and the other regimes' groupings of the same peaks.
-  const hypotheses = fitHypotheses(analysis, eta, compareModels);
-  if (!hypotheses.length) {
+  // 1. Hypotheses: the assignment as it stands first; the others (regimes forced, charging
+  // ladders with p whole or split) only when they are compared.
+  const hypotheses = fitHypotheses(analysis, eta, true);
+  if (!hypotheses.length || hypotheses[0].kind !== "assigned") {
     throw new DotspecError("fit/no-levels", `${analysis.source}: the assignment has no multiplets to start the fit from (regime ${analysis.assignment.regime}); nothing to fit`);
   }
 
-  // Data, thinned evenly.
+  // Data, thinned evenly: the same points and the same noise σ for every hypothesis; the CB side
+  // (bias > 0) alone for comparing groupings of the CB peaks.
   const sig = analysis.conductance;
   const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
-  const biasV = sig.biasV.filter((_, i) => i % stride === 0);
-  const dataA = sig.currentA.filter((_, i) => i % stride === 0);
   const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
-  const n = biasV.length;
-  const v3 = biasV.map((v) => v * v * v);
-  const data = { x: Array.from({ length: n }, (_, i) => i), y: Array.from(dataA, (v) => v / noiseA) };
+  const pointsOf = (keep: (v: number) => boolean): DataSet => {
+    const index = Array.from(sig.biasV.keys()).filter((i) => i % stride === 0 && keep(sig.biasV[i]));
+    const biasV = Float64Array.from(index, (i) => sig.biasV[i]);
+    const dataA = Float64Array.from(index, (i) => sig.currentA[i]);
+    return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
+  };
+  const all = pointsOf(() => true);
+  const cbSide = pointsOf((v) => v > 0);
   const started = Date.now();
 
-  /** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
-  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[]): FitTrial => {
-    const start = startingValues(h.analysis, h.seeds, eta, guessEC);
+  /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
+  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
+    const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, biasV), biasV, v3, dataA);
+    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, set.biasV), set.biasV, set.v3, set.dataA);
     let cacheKey = "";
-    let cacheOut = new Float64Array(n);
+    let cacheOut = new Float64Array(set.n);
     const modelScaled = (p: number[]) => {
       const key = p.join(",");
       if (key !== cacheKey) {
@@ -271,7 +345,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       const out = cacheOut;
       return (x: number) => out[x];
     };
-    const loop = levenbergMarquardtLoop(data, modelScaled, {
+    const loop = levenbergMarquardtLoop(set.data, modelScaled, {
       ...start,
       initialValues,
       maxIterations: iterations,
@@ -281,37 +355,141 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     });
     // k: the nonlinear parameters and the four linear ones (scale, offset, b1, b3).
     const k = loop.parameters.length + 4;
-    return { hypothesis: h, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: loop.chiSquare + k * Math.log(n) };
+    const side = set === all ? "both" : "CB";
+    return { hypothesis: h, side, n: set.n, set, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: bayesianInformationCriterion(loop.chiSquare, k, set.n), finished: iterations >= maxIterations, implausible: null };
   };
 
-  // 2. Starts: the assignment's hypothesis from its own rate ratio first; then, when that does not
-  // describe the curve or the regime is undetermined, the same hypothesis from a grid of rate
-  // ratios; the other hypotheses (the regimes forced on the same peaks) only when asked to compare.
-  const trials: FitTrial[] = [run(hypotheses[0], null, maxIterations)];
-  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, n - t.k);
-  const decisive = analysis.assignment.regime !== "undetermined" && reduced(trials[0]) <= F.poorFitChiSquare;
-  const startLog0 = trials[0].start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
-  for (const h of compareModels ? hypotheses : decisive ? [] : [hypotheses[0]]) {
-    for (const logRatio of F.rateRatioStartsLog10) {
-      if (h === hypotheses[0] && Math.abs(logRatio - startLog0) < 0.5) continue;
-      trials.push(run(h, logRatio, Math.min(maxIterations, F.exploreIterations)));
+  // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
+  // describe the curve, or the rules left the regime undetermined (or when asked to compare),
+  // the groupings of the CB peaks are compared on the CB side of the curve (where they differ;
+  // the VB reading stays out of the comparison): each explored from its starts, the best few
+  // finished there, then each finalist fitted to the whole curve with each reading of its VB
+  // peaks, checked for plausibility; the lowest BIC among the plausible ones wins.
+  const explore = Math.min(maxIterations, F.exploreIterations);
+  const undetermined = analysis.assignment.regime === "undetermined";
+  const alone = hypotheses.length === 1;
+  const trials: FitTrial[] = [];
+  // When the rules left the regime undetermined, their grouping (single levels) is fitted to the
+  // whole curve only if no grouping of CB peaks can be compared with it.
+  const comparable = hypotheses.some((h) => h.seeds.some((x) => x.band === "CB"));
+  if (!undetermined || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
+  const assignedTrial = trials.length ? trials[0] : null;
+  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
+  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare;
+  const compared = (compareModels || !decisive) && !alone && comparable;
+  const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
+  /** Whole-curve fit → the CB-side fit it was started from. */
+  const cbSideOf = new Map<FitTrial, FitTrial>();
+  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
+  if (!compared && !decisive && assignedTrial) {
+    // The assignment alone: restarts from the rate-ratio grid.
+    const startLog0 = assignedTrial.start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
+    for (const logRatio of F.rateRatioStartsLog10.filter((l) => Math.abs(l - startLog0) >= 0.5)) trials.push(run(hypotheses[0], logRatio, explore));
+    const bestStart = trials.reduce((x, y) => (y.bic < x.bic ? y : x));
+    if (bestStart !== assignedTrial) {
+      const done = { ...run(hypotheses[0], null, maxIterations, bestStart.loop.parameters), rateRatio0: bestStart.rateRatio0 };
+      trials.push(done);
+      finals.push(done);
     }
   }
-  // The best start by BIC, finished with the full iteration budget if it was only explored.
-  let best = trials.reduce((a, b) => (b.bic < a.bic ? b : a));
-  if (best !== trials[0]) {
-    const finished = run(best.hypothesis, null, maxIterations, best.loop.parameters);
-    best = { ...finished, rateRatio0: best.rateRatio0 };
+  if (compared) {
+    const cbOnly = new Map<FitHypothesis, FitHypothesis>();
+    for (const h of hypotheses) {
+      const seeds = h.seeds.filter((x) => x.band === "CB");
+      if (seeds.length) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
+    }
+    const explored: FitTrial[] = [];
+    for (const [h, hc] of cbOnly) {
+      const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
+      for (const logRatio of starts) explored.push(run(hc, logRatio, explore, undefined, cbSide));
+    }
+    trials.push(...explored);
+    const bestOf = new Map<FitHypothesis, FitTrial>();
+    for (const t of explored) {
+      const b = bestOf.get(t.hypothesis);
+      if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
+    }
+    const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
+    const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
+    trials.push(...cbFinals);
+    /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
+    const wholeFit = (cbDone: FitTrial): FitTrial => {
+      const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
+      let bestFull: FitTrial | null = null;
+      for (const vb of h.vbReadings) {
+        const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
+        const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
+        const ncb = cbDone.hypothesis.seeds.length;
+        const p = cbDone.loop.parameters;
+        const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
+        const full = { ...run(hv, null, maxIterations, from), rateRatio0: cbDone.rateRatio0 };
+        trials.push(full);
+        if (!bestFull || full.bic < bestFull.bic) bestFull = full;
+      }
+      return bestFull!;
+    };
+    // By CB-side BIC: the first plausible on the CB side whose whole-curve fit is plausible too
+    // (or does not describe the curve, then its VB reading is what fails) is the winner; the
+    // whole curve is fitted only for the candidates looked at.
+    for (const c of [...cbFinals].sort((x, y) => x.bic - y.bic)) {
+      finals.push(c);
+      if (plausibilityOf(c).length) continue;
+      const whole = wholeFit(c);
+      cbSideOf.set(whole, c);
+      if (whole.loop.chiSquare / Math.max(1, whole.n - whole.k) > F.poorFitChiSquare || plausibilityOf(whole).length === 0) break;
+    }
+    for (const c of cbFinals) if (!finals.includes(c)) finals.push(c);
+    if (![...cbSideOf.values()].length) {
+      // None plausible on the CB side: the lowest BIC's whole-curve fit, reported as implausible.
+      const c = finals.filter((t) => t.side === "CB").reduce((x, y) => (y.bic < x.bic ? y : x));
+      cbSideOf.set(wholeFit(c), c);
+    }
   }
+  const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
+  // The finalists: when groupings were compared, their CB-side fits (all on the same points),
+  // each implausible by its CB side or by its whole-curve fit where that one describes the curve;
+  // otherwise the assignment's whole-curve runs.
+  const wholeOf = new Map([...cbSideOf].map(([whole, cb]) => [cb, whole]));
+  const finalists = wholeOf.size ? finals.filter((t) => t.side === "CB") : finals;
+  const implausibleOf = (t: FitTrial) => {
+    const whole = wholeOf.get(t);
+    const wholeReasons = whole ? plausibilityOf(whole) : [];
+    return [...plausibilityOf(t), ...(whole && !poor(whole) ? wholeReasons : [])];
+  };
+  const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
+  const pool = plausible.length ? plausible : finalists;
+  // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
+  // the forced regimes before the ladders): readings that reach the same levels are one model.
+  const lowest = Math.min(...pool.map((t) => t.bic));
+  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name);
+  const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
+  const whole = wholeOf.get(winner);
+  let best = whole ?? winner;
+  // When no reading of the VB peaks fits together with the CB values, the result is the CB side
+  // alone (its Ec, rate ratio and CB levels), said in a warning.
+  if (whole && poor(whole) && !poor(winner)) {
+    warnings.push(
+      `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(whole).toPrecision(3)} over the whole curve, ${reduced(winner).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
+    );
+    best = winner;
+  }
+  const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
   const at = parameterIndex(seeds.length);
   const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
-  if (hypothesis.name !== "assigned") warnings.push(`the ${hypothesis.label} describes the curve better than the assignment it started from (BIC lower by ${(trials[0].bic - best.bic).toFixed(0)})`);
-  if (analysis.assignment.regime === "undetermined" && hypothesis.name === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
+  if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
+  const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
+  if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
+  if (hypothesis.kind !== "assigned" && (!assignedTrial || assignedTrial.side !== best.side || assignedTrial.bic - best.bic >= F.bicTieMargin)) {
+    warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
+  }
+  if (analysis.assignment.regime === "undetermined" && hypothesis.kind === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
 
-  // 3. Final linear coefficients and standard errors from the full Jacobian.
+  // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
+  // result was fitted to.
+  const { biasV, dataA, v3, n } = best.set;
   const final = projectLinear(unitCurrent(params, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
@@ -327,7 +505,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
 
   // 4. The verdict, the status and the result.
   const ratio = 10 ** params[at.logRateRatio];
-  const verdict = fitVerdict(ratio, reducedChiSquare, F);
+  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
   const status = fitStatus({
     reducedChiSquare,
@@ -335,37 +513,45 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergyEV: params[at.chargingEnergy],
     chargingEnergySE: se[at.chargingEnergy],
     logRateRatioSE: se[at.logRateRatio],
-    atBound: [at.chargingEnergy, at.logRateRatio].filter((j) => {
-      const span = best.start.maxValues[j] - best.start.minValues[j];
-      return params[j] - best.start.minValues[j] < 1e-3 * span || best.start.maxValues[j] - params[j] < 1e-3 * span;
-    }).map((j) => (j === at.chargingEnergy ? "Ec" : "Γtip/Γsub")),
+    atBound: [...plausibilityInput(best).atBound],
   });
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
   const sigmaEV = 10 ** params[at.logBroadening];
   const scaleRate = final.coef[0];
   const modelA = final.out;
-  const minBic = Math.min(...trials.map((t) => t.bic), best.bic);
-  const weightSum = trials.reduce((s, t) => s + Math.exp(-(t.bic - minBic) / 2), 0);
+  if (!plausible.length) status.reasons.unshift("no hypothesis is physically plausible");
+  const failed = status.status === "failed" || !plausible.length;
+  const regime = failed ? "undetermined" : verdict.regime;
+  const regimeReason = failed ? `no fit: ${(plausible.length ? status.reasons : implausibleOf(winner)).join("; ")}` : verdict.regimeReason;
   return {
     source: analysis.source,
     converged,
     message,
     iterations,
     eta,
-    status: status.status,
+    status: failed ? "failed" : status.status,
     statusReasons: status.reasons,
     hypothesis: hypothesis.name,
-    alternatives: trials.map((t) => ({
-      hypothesis: t.hypothesis.name,
-      regime: t.hypothesis.analysis.assignment.regime,
-      levels: t.hypothesis.seeds.length,
-      rateRatioStart: t.rateRatio0,
-      rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
-      reducedChiSquare: t.loop.chiSquare / Math.max(1, n - t.k),
-      bic: t.bic,
-      weight: Math.exp(-(t.bic - minBic) / 2) / weightSum,
-    })),
+    evidence,
+    alternatives: trials.map((t) => {
+      const k = finalists.indexOf(t);
+      return {
+        hypothesis: t.hypothesis.name,
+        regime: groupingRegime(t),
+        levels: t.hypothesis.seeds.length,
+        cbDegeneracies: t.hypothesis.cbDegeneracies,
+        rateRatioStart: t.rateRatio0,
+        rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
+        chargingEnergyEV: t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy],
+        reducedChiSquare: t.loop.chiSquare / Math.max(1, t.n - t.k),
+        side: t.side,
+        bic: t.bic,
+        finished: t.finished,
+        implausible: k >= 0 ? implausibleOf(t) : t.implausible,
+        weight: k >= 0 ? weights[k] : 0,
+      };
+    }),
     levels: seeds.map((s, j) => ({
       band: s.band,
       label: s.label,
@@ -382,61 +568,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     backgroundLinearS: value(at.backgroundLinear),
     backgroundCubicAPerV3: value(at.backgroundCubic),
     reducedChiSquare,
-    regime: verdict.regime,
+    regime,
+    regimeReason,
     residuals: { biasV, currentA: dataA, modelA, residualA: dataA.map((v, i) => v - modelA[i]) },
     warnings,
   };
-}
-
-/** One grouping of the peaks into levels that the fit tries. */
-interface FitHypothesis {
-  /** "assigned" (the analysis' own assignment) or the regime forced on the same peaks. */
-  name: "assigned" | "shell-filling" | "shell-tunneling";
-  /** In words, for warnings. */
-  label: string;
-  /** The analysis with that assignment. */
-  analysis: CurveAnalysis;
-  seeds: LevelSeed[];
-}
-
-/** One Levenberg–Marquardt run of one hypothesis from one start. */
-interface FitTrial {
-  hypothesis: FitHypothesis;
-  rateRatio0: number;
-  loop: LoopResult;
-  start: StartingValues;
-  /** Free parameters, nonlinear and linear. */
-  k: number;
-  /** Bayesian information criterion χ² + k·ln n (σ known). */
-  bic: number;
-}
-
-/**
- * The groupings of the peaks the fit compares: the assignment, then shell filling and shell
- * tunnelling forced on the same peaks where they differ from it (as level lists).
- */
-function fitHypotheses(analysis: CurveAnalysis, eta: number, alternatives: boolean): FitHypothesis[] {
-  const out: FitHypothesis[] = [];
-  const seen = new Set<string>();
-  const add = (name: FitHypothesis["name"], label: string, a: CurveAnalysis) => {
-    const seeds = levelsToFit(a);
-    const key = seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV}/${s.before}`).join(" ");
-    if (!seeds.length || seen.has(key)) return;
-    // An alternative grouping whose master equation would be too large to solve is not tried.
-    for (const band of name === "assigned" ? [] : (["CB", "VB"] as const)) {
-      const states = seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1);
-      if (states > SCENARIO_DEFAULTS.maxStates) return;
-    }
-    seen.add(key);
-    out.push({ name, label, analysis: a, seeds });
-  };
-  add("assigned", "assignment", analysis);
-  if (!alternatives) return out;
-  const etaOption = analysis.assignment.energies.etaGiven ? { eta } : {};
-  for (const regime of ["shell-filling", "shell-tunneling"] as const) {
-    if (analysis.assignment.regime === regime) continue;
-    const assignment = assignSpectrum(analysis.peaks, { ...etaOption, regime });
-    add(regime, `${regime === "shell-filling" ? "shell-filling" : "shell-tunnelling"} grouping of the same peaks`, { ...analysis, assignment });
-  }
-  return out;
 }

@@ -24,7 +24,7 @@ export const FIT_STATUS_DEFAULTS = Object.freeze({
 export interface FitStatusInput {
   reducedChiSquare: number;
   /** Regime of the fitted rate ratio: Ec counts only where the charging ladder shows it. */
-  regime: "shell-filling" | "shell-tunneling" | "intermediate";
+  regime: "shell-filling" | "shell-tunneling" | "intermediate" | "undetermined";
   chargingEnergyEV: number;
   chargingEnergySE: number;
   logRateRatioSE: number;

@@ -11,11 +11,16 @@ export interface FitVerdictLimits {
   tunnelingRatioMax: number;
   /** Reduced χ² above which the model does not describe the curve. */
   poorFitChiSquare: number;
+  /** Standard errors either side of the fitted log₁₀ Γtip/Γsub that the regime must hold over. */
+  regimeSigmas: number;
 }
 
 /** What {@link fitVerdict} returns. */
 export interface FitVerdict {
-  regime: "shell-filling" | "shell-tunneling" | "intermediate";
+  /** Regime of the fitted rate ratio; "undetermined" when its error spans both regimes or is unknown. */
+  regime: "shell-filling" | "shell-tunneling" | "intermediate" | "undetermined";
+  /** Why, in words, with the ratio and its error. */
+  regimeReason: string;
   /** A warning when the reduced χ² is above the limit; null otherwise. */
   warning: string | null;
 }
@@ -31,13 +36,15 @@ export interface FitVerdict {
  * reducedChiSquare : number
  *     χ² per degree of freedom, with the current noise as σ.
  * limits : FitVerdictLimits
- *     fillingRatioMin, tunnelingRatioMax (the {@link REGIME_LIMITS} boundaries) and
- *     poorFitChiSquare.
+ *     fillingRatioMin, tunnelingRatioMax (the {@link REGIME_LIMITS} boundaries),
+ *     poorFitChiSquare and regimeSigmas.
+ * logRateRatioSE : number, optional
+ *     Standard error of log₁₀ Γtip/Γsub (default 0: the value alone decides).
  *
  * Returns
  * -------
  * FitVerdict
- *     `{ regime, warning }`.
+ *     `{ regime, regimeReason, warning }`.
  *
  * Throws
  * ------
@@ -45,10 +52,13 @@ export interface FitVerdict {
  *
  * Notes
  * -----
- * 1. Shell filling at r ≥ fillingRatioMin, shell tunnelling at r ≤ tunnelingRatioMax,
- *    intermediate in between (the step-ratio reading of these boundaries is in
- *    {@link REGIME_LIMITS}).
- * 2. A reduced χ² above poorFitChiSquare says the model, as started from the assignment, leaves
+ * 1. The interval r·10^(±k·SE), k = regimeSigmas, SE the error of log₁₀ r. When the error is not
+ *    finite, or the interval reaches both the tunnelling side (≤ tunnelingRatioMax) and the
+ *    filling side (≥ fillingRatioMin), the curve cannot tell: undetermined.
+ * 2. Otherwise the value decides: shell filling at r ≥ fillingRatioMin, shell tunnelling at
+ *    r ≤ tunnelingRatioMax, intermediate in between (the step-ratio reading of these boundaries
+ *    is in {@link REGIME_LIMITS}).
+ * 3. A reduced χ² above poorFitChiSquare says the model, as started from the assignment, leaves
  *    residuals far above the noise: levels missing or mis-assigned.
  *
  * References
@@ -59,16 +69,27 @@ export interface FitVerdict {
  * Example
  * -------
  * ```ts
- * const limits = { fillingRatioMin: 1.5, tunnelingRatioMax: 3 / 7, poorFitChiSquare: 10 };
- * fitVerdict(10, 0.9, limits);  // => { regime: "shell-filling", warning: null }
- * fitVerdict(1, 25, limits).regime; // => "intermediate" (and a warning about χ² = 25.0)
+ * const limits = { fillingRatioMin: 1.5, tunnelingRatioMax: 3 / 7, poorFitChiSquare: 10, regimeSigmas: 2 };
+ * fitVerdict(10, 0.9, limits).regime;     // => "shell-filling"
+ * fitVerdict(1, 25, limits).regime;       // => "intermediate" (and a warning about χ² = 25.0)
+ * fitVerdict(1, 1, limits, 0.3).regime;   // => "undetermined" (1 × 4.0^±1 spans 0.25 … 4)
  * ```
  */
-export function fitVerdict(rateRatio: number, reducedChiSquare: number, limits: FitVerdictLimits): FitVerdict {
+export function fitVerdict(rateRatio: number, reducedChiSquare: number, limits: FitVerdictLimits, logRateRatioSE = 0): FitVerdict {
   const warning =
     reducedChiSquare > limits.poorFitChiSquare
       ? `reduced χ² = ${reducedChiSquare.toFixed(1)}: the model started from this assignment does not describe the curve (levels missing or mis-assigned); treat the fitted values with suspicion`
       : null;
-  const regime = rateRatio >= limits.fillingRatioMin ? "shell-filling" : rateRatio <= limits.tunnelingRatioMax ? "shell-tunneling" : "intermediate";
-  return { regime, warning };
+  const factor = 10 ** (limits.regimeSigmas * logRateRatioSE);
+  const shown = `Γtip/Γsub = ${rateRatio.toPrecision(3)}`;
+  if (!Number.isFinite(factor)) {
+    return { regime: "undetermined", regimeReason: `${shown} has no finite error: the curve does not determine the rate ratio (a second charging step of s, or the s/p step ratio, is missing)`, warning };
+  }
+  const range = `${shown} (${limits.regimeSigmas}σ range ${(rateRatio / factor).toPrecision(2)}–${(rateRatio * factor).toPrecision(2)})`;
+  if (rateRatio / factor <= limits.tunnelingRatioMax && rateRatio * factor >= limits.fillingRatioMin) {
+    return { regime: "undetermined", regimeReason: `${range} reaches both shell tunnelling (≤ ${limits.tunnelingRatioMax.toPrecision(2)}) and shell filling (≥ ${limits.fillingRatioMin}): the curve cannot tell (the s doublet's second step is not resolved)`, warning };
+  }
+  if (rateRatio >= limits.fillingRatioMin) return { regime: "shell-filling", regimeReason: `${range} ≥ ${limits.fillingRatioMin}: shell filling`, warning };
+  if (rateRatio <= limits.tunnelingRatioMax) return { regime: "shell-tunneling", regimeReason: `${range} ≤ ${limits.tunnelingRatioMax.toPrecision(2)}: shell tunnelling`, warning };
+  return { regime: "intermediate", regimeReason: `${range} between ${limits.tunnelingRatioMax.toPrecision(2)} and ${limits.fillingRatioMin}: intermediate (charging and level steps both show)`, warning };
 }

@@ -1,10 +1,14 @@
 /**
- * The model fit, stage by stage: the levels from the assignment, the starting values, the
+ * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with
+ * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
  * scale, offset and background, the Levenberg–Marquardt loop, the standard errors, the verdict,
  * and fitCurve, which composes them.
  */
-export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
+export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
+export { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
+export { hypothesisPlausibility, PLAUSIBILITY_DEFAULTS, type PlausibilityInput, type PlausibilityLevel } from "./hypothesisPlausibility.ts";
+export { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 export { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";

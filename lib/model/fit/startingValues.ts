@@ -30,6 +30,9 @@ export interface StartingValues {
  *     Voltage-division factor η.
  * chargingEnergyGuessEV : number
  *     Starting Ec in eV where the analysis gives none (shell tunnelling).
+ * start : { chargingEnergyEV?: number | null; rateRatioLog10?: number | null }, optional
+ *     A hypothesis' own Ec₀ (eV) and log₁₀ Γtip/Γsub to start from instead of the analysis'
+ *     (null or absent: the analysis' values).
  *
  * Returns
  * -------
@@ -43,10 +46,11 @@ export interface StartingValues {
  *
  * Notes
  * -----
- * 1. Ec₀ = the analysis' Ec, else chargingEnergyGuessEV.
+ * 1. Ec₀ = start.chargingEnergyEV, else the analysis' Ec, else chargingEnergyGuessEV.
  * 2. Level j: |ε_j| = η·|V_first| − Ec₀·(N_before + ½) (shell filling: N_before carriers of the
  *    band already in; shell tunnelling: N_before = 0).
- * 3. Γtip/Γsub = 10 (shell filling), 0.02 (shell tunnelling) or 1 (undetermined).
+ * 3. Γtip/Γsub = 10^start.rateRatioLog10, else 10 (shell filling), 0.02 (shell tunnelling) or 1
+ *    (undetermined).
  * 4. σ₀ = max(0.1 meV, η·W/2.3548), W the measured dI/dV peak FWHM in V.
  * 5. Bounds: each level within its reach of the start, the reach being min(0.2 eV, 0.45 × the
  *    distance to any other start of the same band) but at least 3σ₀, so levels cannot swap places;
@@ -61,11 +65,17 @@ export interface StartingValues {
  * // => [0.600] (eV: η·V_s1 − Ec/2)
  * ```
  */
-export function startingValues(analysis: CurveAnalysis, seeds: readonly LevelSeed[], eta: number, chargingEnergyGuessEV: number): StartingValues {
+export function startingValues(
+  analysis: CurveAnalysis,
+  seeds: readonly LevelSeed[],
+  eta: number,
+  chargingEnergyGuessEV: number,
+  start: { chargingEnergyEV?: number | null; rateRatioLog10?: number | null } = {},
+): StartingValues {
   const filling = analysis.assignment.regime === "shell-filling";
-  const ec0 = analysis.assignment.energies.chargingEnergyEV ?? chargingEnergyGuessEV;
+  const ec0 = start.chargingEnergyEV ?? analysis.assignment.energies.chargingEnergyEV ?? chargingEnergyGuessEV;
   const levels0 = seeds.map((s) => eta * Math.abs(s.firstPeakV) - ec0 * (s.before + 0.5));
-  const ratio0 = filling ? 10 : analysis.assignment.regime === "shell-tunneling" ? 0.02 : 1;
+  const ratio0 = start.rateRatioLog10 != null ? 10 ** start.rateRatioLog10 : filling ? 10 : analysis.assignment.regime === "shell-tunneling" ? 0.02 : 1;
   const sigma0 = Math.max(1e-4, ((analysis.settings.peakWidthMV / 1000) * eta) / 2.3548);
   // Nonlinear parameters: |ε| per level, Ec, log10 r, log10 σ.
   const initialValues = [...levels0, ec0, Math.log10(ratio0), Math.log10(sigma0)];

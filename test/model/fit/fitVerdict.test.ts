@@ -22,4 +22,16 @@ describe("fitVerdict(rateRatio, reducedChiSquare, limits)", () => {
     expect(fitVerdict(10, FIT_DEFAULTS.poorFitChiSquare, FIT_DEFAULTS).warning).toBeNull();
     expect(fitVerdict(10, 2 * FIT_DEFAULTS.poorFitChiSquare, FIT_DEFAULTS).warning).toMatch(/reduced χ² = 20\.0/);
   });
+
+  it("says undetermined when the 2σ range of Γtip/Γsub reaches both regimes, or has no finite error (closed form: r·10^(±2·SE))", () => {
+    // r = 0.8 with SE(log₁₀ r) = 0.2: 2σ range 0.8/10^0.4 = 0.318 … 0.8·10^0.4 = 2.01, across 3/7 and 1.5.
+    const wide = fitVerdict(0.8, 1, FIT_DEFAULTS, 0.2);
+    expect(wide.regime).toBe("undetermined");
+    expect(wide.regimeReason).toMatch(/0\.32–2\.0/);
+    // SE 0.05: range 0.635 … 1.01, inside the intermediate band.
+    expect(fitVerdict(0.8, 1, FIT_DEFAULTS, 0.05).regime).toBe("intermediate");
+    // r = 3 with SE 0.3: range 0.75 … 12 reaches only the filling side: the value decides.
+    expect(fitVerdict(3, 1, FIT_DEFAULTS, 0.3).regime).toBe("shell-filling");
+    expect(fitVerdict(3, 1, FIT_DEFAULTS, Number.NaN).regime).toBe("undetermined");
+  });
 });

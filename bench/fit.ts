@@ -1,0 +1,100 @@
+/**
+ * Fit benchmark over the filling–tunnelling crossover: synthetic spectra with Γtip/Γsub drawn
+ * log-uniformly from 0.2 to 5 (the accuracy benchmark's dots otherwise: Ec, η, s–p spacing,
+ * p whole or split, widths and noise drawn from its ranges), simulated with known truth, analysed,
+ * then fitted with `fitCurve`. Reports, per regime of the true rate ratio (REGIME_LIMITS), how
+ * often the fit names the right regime, recovers Ec within 3 % and Γtip/Γsub within × 1.5, the
+ * statuses, and the time per fit (median and 90th percentile, after one warm-up fit).
+ *
+ *   npm run bench:fit                          # 60 spectra from seed 1, fast-model simulation
+ *   npm run bench:fit -- --n 20 --seed 101 --compare-models --verbose
+ *   npm run bench:fit -- --method exact        # simulate with the exact master equation
+ */
+import { simulateCurve } from "../lib/model/simulate.ts";
+import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRanges } from "../lib/model/syntheticSpectrum.ts";
+import { analyzeCurve } from "../lib/pipeline/analyzeCurve.ts";
+import { fitCurve } from "../lib/model/fit/fitCurve.ts";
+import { REGIME_LIMITS } from "../lib/model/regimeLimits.ts";
+
+const args = process.argv.slice(2);
+const arg = (name: string, fallback: string) => {
+  const i = args.indexOf(`--${name}`);
+  return i >= 0 ? args[i + 1] : fallback;
+};
+const count = Number(arg("n", "60"));
+const firstSeed = Number(arg("seed", "1"));
+const method = arg("method", "fast") as "exact" | "fast";
+const compareModels = args.includes("--compare-models");
+const verbose = args.includes("--verbose");
+const ratioRange: [number, number] = [Number(arg("from", "0.2")), Number(arg("to", "5"))];
+
+const ranges: SyntheticRanges = { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: ratioRange } };
+const truthRegime = (r: number) => (r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : "intermediate");
+
+interface Row {
+  regime: string;
+  regimeRight: boolean;
+  ecWithin: boolean;
+  ratioWithin: boolean;
+  status: string;
+  ms: number;
+}
+const rows: Row[] = [];
+const curveOf = (seed: number) => {
+  const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
+  const sim = simulateCurve(scenario, { method, conductance: false });
+  const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: `crossover-${seed}`, metadata: {} } };
+  return { analysis: analyzeCurve(curve, { eta: truth.eta }), truth };
+};
+// Warm-up (compilation), not timed.
+fitCurve(curveOf(firstSeed).analysis, { compareModels });
+const started = performance.now();
+for (let k = 0; k < count; k++) {
+  const seed = firstSeed + k;
+  const { analysis, truth } = curveOf(seed);
+  const t0 = performance.now();
+  let fit;
+  try {
+    fit = fitCurve(analysis, { compareModels });
+  } catch (err) {
+    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", ms: performance.now() - t0 });
+    continue;
+  }
+  const ms = performance.now() - t0;
+  const regime = truthRegime(truth.rateRatio);
+  const usable = fit.status !== "failed";
+  const row = {
+    regime,
+    regimeRight: usable && fit.regime === regime,
+    ecWithin: usable && Math.abs(fit.chargingEnergyEV.value - truth.chargingEnergyEV) <= 0.03 * truth.chargingEnergyEV,
+    ratioWithin: usable && Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio)) <= Math.log(1.5),
+    status: fit.status,
+    ms,
+  };
+  rows.push(row);
+  if (verbose && !(row.regimeRight && row.ecWithin && row.ratioWithin)) {
+    console.log(
+      `seed ${seed} r=${truth.rateRatio.toFixed(3)} Ec=${(truth.chargingEnergyEV * 1e3).toFixed(0)}meV η=${truth.eta.toFixed(2)} split=${truth.pSubgroups.join("+")} rules=${analysis.assignment.regime}: ` +
+        `${fit.status} ${fit.hypothesis} → ${fit.regime}, Ec ${(fit.chargingEnergyEV.value * 1e3).toFixed(1)} meV, r ${fit.rateRatio.value.toPrecision(3)}, χ²_red ${fit.reducedChiSquare.toPrecision(3)}, ${ms.toFixed(0)} ms`,
+    );
+  }
+}
+const pct = (k: number, n: number) => `${k}/${n} (${n ? ((100 * k) / n).toFixed(0) : "—"} %)`;
+const lines: string[] = [];
+for (const regime of ["shell-tunneling", "intermediate", "shell-filling", "all"]) {
+  const set = regime === "all" ? rows : rows.filter((r) => r.regime === regime);
+  if (!set.length) continue;
+  const all = set.filter((r) => r.regimeRight && r.ecWithin && r.ratioWithin).length;
+  const statuses = ["good", "poor", "failed"].map((s) => `${s} ${set.filter((r) => r.status === s).length}`).join(", ");
+  lines.push(
+    `${regime.padEnd(16)} ${String(set.length).padStart(3)} fits: regime right ${pct(set.filter((r) => r.regimeRight).length, set.length)}, Ec within 3 % ${pct(set.filter((r) => r.ecWithin).length, set.length)}, ` +
+      `Γtip/Γsub within ×1.5 ${pct(set.filter((r) => r.ratioWithin).length, set.length)}, all three ${pct(all, set.length)}; ${statuses}`,
+  );
+}
+const times = rows.map((r) => r.ms).sort((a, b) => a - b);
+const q = (p: number) => times[Math.min(times.length - 1, Math.floor(p * times.length))];
+lines.push(`time per fit: median ${q(0.5).toFixed(0)} ms, 90th percentile ${q(0.9).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms`);
+lines.push(
+  `Γtip/Γsub ${ratioRange[0]}–${ratioRange[1]} (log-uniform), ${compareModels ? "--compare-models" : "default comparison (only where the rules are not decisive)"}, ${method} simulation, seeds ${firstSeed}…${firstSeed + count - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`,
+);
+console.log(lines.join("\n"));

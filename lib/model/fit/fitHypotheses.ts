@@ -1,0 +1,260 @@
+/**
+ * The groupings of a curve's peaks into dot levels that the model fit compares: the rule-based
+ * assignment, the regimes forced on the same peaks, and charging ladders of an s doublet and a
+ * p shell (whole, 2+4 or 2+2+2) read in filling order or from the empty dot.
+ */
+import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
+import { assignSpectrum } from "../../assign/assignSpectrum.ts";
+import { SCENARIO_DEFAULTS } from "../scenario.ts";
+import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
+
+/** How a hypothesis reads its peaks. */
+export type HypothesisKind = "assigned" | "shell-filling" | "shell-tunneling" | "ladder-filling" | "ladder-empty";
+
+/** One grouping of the peaks into levels that the fit tries. */
+export interface FitHypothesis {
+  /** Short name: "assigned", "shell-filling", "shell-tunneling", or "ladder-filling 2+2+4" etc. */
+  name: string;
+  kind: HypothesisKind;
+  /** In words, for the evidence. */
+  label: string;
+  /** The analysis whose settings and peak width start the fit (with the grouping's assignment). */
+  analysis: CurveAnalysis;
+  seeds: LevelSeed[];
+  /**
+   * Readings of the VB peaks to try with these CB levels when the whole curve is fitted (the
+   * first is the one in `seeds`): the filling rules' groups, and runs spaced by Ec entered from
+   * the empty dot.
+   */
+  vbReadings: LevelSeed[][];
+  /** Degeneracies of the CB levels, in order (e.g. [2, 2, 4] for s and a 2+4 p shell). */
+  cbDegeneracies: number[];
+  /** Charge states of its larger band's master equation, Π(g_j + 1) (the cost of one model evaluation grows with it). */
+  states: number;
+  /** Starting Ec in eV read from the peaks, or null to take the analysis' (or the guess). */
+  chargingEnergyStartEV: number | null;
+  /** log₁₀ Γtip/Γsub of the first start, or null for the analysis' regime's default. */
+  rateRatioStartLog10: number | null;
+}
+
+/** Constants of {@link fitHypotheses} (locked by test/model/fit/fitHypotheses.test.ts). */
+export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
+  /** CB layouts after s (g = 2): p whole, p split 2+4, p split 2+2+2. */
+  pLayouts: Object.freeze([Object.freeze([6]), Object.freeze([2, 4]), Object.freeze([2, 2, 2])]) as readonly (readonly number[])[],
+  /**
+   * Most charge states per band of a compared hypothesis (Π(g_j + 1) over its levels): larger
+   * master equations make the comparison slow and are not tried.
+   */
+  maxStatesPerBand: 100,
+  /** log₁₀ Γtip/Γsub of the first start of a ladder read in filling order (r = 5) … */
+  fillingStartLog10: Math.log10(5),
+  /** … and of one read from the empty dot (r = 0.5, the crossover). */
+  emptyStartLog10: Math.log10(0.5),
+  /** Electrons in s with which the first p peak seen is read as entered, in the empty-dot readings. */
+  emptyEntryElectrons: Object.freeze([0, 1]) as readonly number[],
+  /**
+   * A peak within this fraction of Ec/η of a charging peak already explained by a lower level
+   * (its ladder ε + Ec·(n + ½)) is taken as that charging peak, not as a new level.
+   */
+  ladderTolerance: 0.25,
+  /**
+   * Peaks whose step is below this fraction of their band's median step are left out of the
+   * ladders' reading (lower than the rules' noise limit: near the crossover the second charging
+   * peak of a level is weak but real).
+   */
+  ladderNoiseRatio: 0.05,
+});
+
+/**
+ * The hypotheses the fit compares for one analysis.
+ *
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     The peak-based analysis: peaks (bias in V, steps in A), assignment, η.
+ * eta : number
+ *     Voltage-division factor η used by the fit.
+ * all : boolean
+ *     false: the assignment only; true: every hypothesis below.
+ *
+ * Returns
+ * -------
+ * FitHypothesis[]
+ *     The assignment first, then the others; groupings with the same levels are kept once; none
+ *     whose master equation would exceed SCENARIO_DEFAULTS.maxStates per band.
+ *
+ * Throws
+ * ------
+ * Nothing (an analysis without levels gives an empty list).
+ *
+ * Notes
+ * -----
+ * With D = FIT_HYPOTHESES_DEFAULTS and P the CB peaks (positive bias, second-junction resonances
+ * and steps below D.ladderNoiseRatio × the band's median set aside, ascending):
+ * 1. "assigned": the rules' own grouping ({@link levelsToFit}).
+ * 2. "shell-filling", "shell-tunneling": the regimes forced on the same peaks.
+ * 3. "ladder-filling s+p": the CB peaks are charging peaks in filling order; level j (degeneracy
+ *    g_j of the layout [2, …p layout]) starts at P[Σ_{i<j} g_i], ε_j = η·V − Ec·(N_before + ½),
+ *    Ec₀ = η·(P₁ − P₀), P here the charging peaks the filling rules kept; levels whose first
+ *    peak is past the window are left out (the window cuts the shell). VB: the filling rules'
+ *    groups.
+ * 4. "ladder-empty s+p": s holds two electrons (P₁ its second charging peak, Ec₀ = η·(P₁ − P₀)),
+ *    and each further level is entered from the empty dot: its first peak is the first peak not
+ *    within D.ladderTolerance·Ec₀/η of a charging peak of a lower level (ε_k + Ec₀·(n + ½), n up
+ *    to the electrons below and in it); ε = η·V − Ec₀/2, and a second reading with the first
+ *    p peak entered with one electron in s (D.emptyEntryElectrons). VB: runs of peaks spaced by Ec₀/η, one
+ *    level each, holding the run's length less the holes of the levels nearer the gap. This is
+ *    how a spectrum at an intermediate rate ratio reads.
+ * 5. Layouts: p whole, 2+4, 2+2+2 (D.pLayouts); no d shell (peaks past p stay unexplained and
+ *    cost χ²). Hypotheses with more than D.maxStatesPerBand charge states in a band are not tried.
+ *
+ * Example
+ * -------
+ * ```ts
+ * // analysis of the fitCurve example at Γtip/Γsub = 0.5 (rules: undetermined).
+ * fitHypotheses(analysis, 0.85, true).map((h) => h.name);
+ * // => ["assigned", "shell-filling", "shell-tunneling", "ladder-filling 2+6", …, "ladder-empty 2+2+2+2"]
+ * ```
+ */
+export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean): FitHypothesis[] {
+  const D = FIT_HYPOTHESES_DEFAULTS;
+  const out: FitHypothesis[] = [];
+  const seen = new Set<string>();
+  const add = (h: Omit<FitHypothesis, "cbDegeneracies" | "states" | "vbReadings">, vbReadings?: LevelSeed[][]) => {
+    const key = seedKey(h.seeds) + `|${h.chargingEnergyStartEV ?? ""}`;
+    if (!h.seeds.some((s) => s.band === "CB") && h.kind !== "assigned") return;
+    if (!h.seeds.length || seen.has(key)) return;
+    const states = Math.max(...(["CB", "VB"] as const).map((band) => h.seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1)));
+    if (h.kind !== "assigned" && states > Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand)) return;
+    seen.add(key);
+    const own = h.seeds.filter((s) => s.band === "VB");
+    const readings = [own, ...(vbReadings ?? []).filter((r) => seedKey(r) !== seedKey(own))];
+    out.push({ ...h, vbReadings: readings, cbDegeneracies: h.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy), states });
+  };
+  const base = { chargingEnergyStartEV: null, rateRatioStartLog10: null };
+  add({ name: "assigned", kind: "assigned", label: "the assignment's grouping", analysis, seeds: levelsToFit(analysis), ...base });
+  if (!all) return out;
+
+  const etaOption = analysis.assignment.energies.etaGiven ? { eta } : {};
+  const forced = (regime: "shell-filling" | "shell-tunneling"): CurveAnalysis => ({ ...analysis, assignment: assignSpectrum(analysis.peaks, { ...etaOption, regime }) });
+  const filling = forced("shell-filling");
+  const tunneling = forced("shell-tunneling");
+  if (analysis.assignment.regime !== "shell-filling") add({ name: "shell-filling", kind: "shell-filling", label: "the shell-filling grouping of the same peaks", analysis: filling, seeds: levelsToFit(filling), ...base });
+  if (analysis.assignment.regime !== "shell-tunneling") add({ name: "shell-tunneling", kind: "shell-tunneling", label: "the shell-tunnelling grouping (single levels) of the same peaks", analysis: tunneling, seeds: levelsToFit(tunneling), ...base });
+
+  const peaksV = ladderPeaksV(analysis, "CB");
+  if (peaksV.length < 2) return out;
+  const ec0 = eta * (peaksV[1] - peaksV[0]);
+  // In filling order, the charging peaks the filling rules kept (peaks off the ladder set aside).
+  const chargingPeaksV = filling.assignment.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peaksV).sort((a, b) => a - b);
+  const vbFilling = levelsToFit(filling).filter((s) => s.band === "VB");
+  const vbEmpty = valenceLadderSeeds(ladderPeaksV(analysis, "VB"), ec0 / eta, D.ladderTolerance);
+  for (const pLayout of D.pLayouts) {
+    const layout = [2, ...pLayout];
+    const words = pLayout.length === 1 ? "p whole" : `p split ${pLayout.join("+")}`;
+    const inOrder = fillingOrderSeeds(chargingPeaksV, layout);
+    add({
+      name: `ladder-filling ${inOrder.map((s) => s.degeneracy).join("+")}`,
+      kind: "ladder-filling",
+      label: `charging ladder in filling order (s doublet, ${words}${inOrder.length < layout.length ? ", the window cuts the shell" : ""})`,
+      analysis: filling,
+      seeds: [...inOrder, ...vbFilling],
+      chargingEnergyStartEV: ec0,
+      rateRatioStartLog10: D.fillingStartLog10,
+    }, [vbEmpty]);
+    const fromEmpty = emptyDotSeeds(peaksV, layout, ec0 / eta, D.ladderTolerance);
+    for (const entry of D.emptyEntryElectrons) {
+      // The first p peak seen may be p entered with 0 or 1 electrons in s (the entry from the
+      // empty dot is weak near r ≈ 1 and may go unseen).
+      const seeds = fromEmpty.map((x) => (x.label === "s" ? x : { ...x, before: entry }));
+      add({
+        name: `ladder-empty${entry ? `-${entry}` : ""} ${fromEmpty.map((x) => x.degeneracy).join("+")}`,
+        kind: "ladder-empty",
+        label: `charging ladder read from the empty dot (s doublet, ${words}${entry ? `, the first p peak read as entered with ${entry} electron in s` : ""})`,
+        analysis: filling,
+        seeds: [...seeds, ...vbEmpty],
+        chargingEnergyStartEV: ec0,
+        rateRatioStartLog10: D.emptyStartLog10,
+      }, [vbFilling]);
+    }
+  }
+  return out;
+}
+
+/** Identifies a list of seeds. */
+function seedKey(seeds: readonly LevelSeed[]): string {
+  return seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
+}
+
+/** A band's peaks that may be levels or charging peaks: no resonance, no noise-level step; from the gap outward. */
+function ladderPeaksV(analysis: CurveAnalysis, band: "CB" | "VB"): number[] {
+  const resonant = new Set(analysis.assignment.evidence.secondJunction.map((r) => r.index));
+  const own = analysis.peaks.filter((p, i) => (band === "CB" ? p.biasV > 0 : p.biasV < 0) && !resonant.has(i));
+  const steps = own.map((p) => p.stepA).sort((a, b) => a - b);
+  const median = steps.length ? steps[Math.floor(steps.length / 2)] : 0;
+  return own.filter((p) => p.stepA >= FIT_HYPOTHESES_DEFAULTS.ladderNoiseRatio * median).map((p) => p.biasV).sort((a, b) => Math.abs(a) - Math.abs(b));
+}
+
+/**
+ * VB levels of a charging ladder entered from the empty dot: a run of peaks spaced by Ec/η
+ * (within the tolerance) is one level, entered with 0, 1, … holes already in the levels nearer the
+ * gap, so it holds the run's length less those holes (at least 1; VB degeneracy is not assumed).
+ */
+function valenceLadderSeeds(peaksV: readonly number[], ecV: number, tolerance: number): LevelSeed[] {
+  const seeds: LevelSeed[] = [];
+  let holes = 0;
+  let run: number[] = [];
+  const close = () => {
+    if (!run.length) return;
+    const g = Math.max(1, run.length - holes);
+    seeds.push({ band: "VB", label: `v${seeds.length + 1}`, degeneracy: g, firstPeakV: run[0], before: 0 });
+    holes += g;
+    run = [];
+  };
+  for (const v of peaksV) {
+    if (run.length && Math.abs(Math.abs(v - run[run.length - 1]) - ecV) > tolerance * ecV) close();
+    run.push(v);
+  }
+  close();
+  return seeds;
+}
+
+/** Levels of a layout read as charging peaks in filling order (notes step 3). */
+function fillingOrderSeeds(peaksV: readonly number[], layout: readonly number[]): LevelSeed[] {
+  const seeds: LevelSeed[] = [];
+  let before = 0;
+  layout.forEach((g, j) => {
+    if (before >= peaksV.length) return;
+    seeds.push({ band: "CB", label: levelLabel(layout.length, j), degeneracy: g, firstPeakV: peaksV[before], before });
+    before += g;
+  });
+  return seeds;
+}
+
+/** Levels of a layout each entered from the empty dot (notes step 4). */
+function emptyDotSeeds(peaksV: readonly number[], layout: readonly number[], ecV: number, tolerance: number): LevelSeed[] {
+  const full = layout;
+  const seeds: LevelSeed[] = [];
+  const firsts: number[] = [];
+  let electrons = 0;
+  for (const v of peaksV) {
+    if (seeds.length === full.length) break;
+    // A charging peak of a lower level: V_k + n·Ec/η for n = 1 … (electrons so far, this level's included) − 1.
+    const explained = firsts.some((f) => {
+      const n = Math.round((v - f) / ecV);
+      return n >= 1 && n < electrons && Math.abs(v - f - n * ecV) < tolerance * ecV;
+    });
+    if (explained) continue;
+    const j = seeds.length;
+    seeds.push({ band: "CB", label: levelLabel(layout.length, j), degeneracy: full[j], firstPeakV: v, before: 0 });
+    firsts.push(v);
+    electrons += full[j];
+  }
+  return seeds;
+}
+
+/** s, then p (or p1, p2, … when split). */
+function levelLabel(layoutLength: number, j: number): string {
+  if (j === 0) return "s";
+  return layoutLength === 2 ? "p" : `p${j}`;
+}

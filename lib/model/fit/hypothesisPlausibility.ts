@@ -1,0 +1,111 @@
+/**
+ * Whether a fitted grouping of the peaks is physically plausible: Ec against the gap, level
+ * order, degeneracy counts, and split shells narrower than the gap to the shell below.
+ */
+
+/** Limits of {@link hypothesisPlausibility} (locked by test/model/fit/hypothesisPlausibility.test.ts). */
+export const PLAUSIBILITY_DEFAULTS = Object.freeze({
+  /**
+   * Ec at most this fraction of the single-particle gap (lowest CB level − highest VB level):
+   * in few-nm dots Ec is a fraction of the gap (common practice, no source).
+   */
+  maxChargingFractionOfGap: 0.5,
+  /** Electrons each CB shell holds, by the letter of its label (s, p, d). */
+  shellCapacity: Object.freeze({ s: 2, p: 6, d: 10 }) as Readonly<Record<string, number>>,
+});
+
+/** One fitted level as {@link hypothesisPlausibility} reads it. */
+export interface PlausibilityLevel {
+  band: "CB" | "VB";
+  /** s, p, p1, p2, d, v1, … */
+  label: string;
+  degeneracy: number;
+  /** Level energy relative to the Fermi level at zero bias, eV (CB positive, VB negative). */
+  energyEV: number;
+}
+
+/** What {@link hypothesisPlausibility} looks at. */
+export interface PlausibilityInput {
+  /** The fitted levels, each band in the order the hypothesis seeded them (from the gap outward). */
+  levels: readonly PlausibilityLevel[];
+  /** Fitted Ec, eV. */
+  chargingEnergyEV: number;
+  /** Key parameters that ended on a bound of the fit (a degenerate solution). */
+  atBound: readonly string[];
+}
+
+/**
+ * The reasons a fitted hypothesis is implausible (empty when it is plausible).
+ *
+ * Parameters
+ * ----------
+ * input : PlausibilityInput
+ *     Fitted levels (eV, with band, label and degeneracy), Ec (eV) and the key parameters at a
+ *     bound.
+ *
+ * Returns
+ * -------
+ * string[]
+ *     One sentence per failed check; empty when every check passes.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * With D = PLAUSIBILITY_DEFAULTS:
+ * 1. No key parameter (Ec, Γtip/Γsub) on a bound.
+ * 2. Level order: each band's levels move away from the gap in the order seeded (CB ascending,
+ *    VB descending), and the lowest CB level lies above the highest VB level.
+ * 3. Ec ≤ D.maxChargingFractionOfGap × (lowest CB level − highest VB level), when both bands
+ *    have levels.
+ * 4. Degeneracy counts: the CB levels of one shell (labels s, p, p1, p2, …) hold at most its
+ *    capacity (D.shellCapacity).
+ * 5. A split shell (p1, p2, …) spans less than its distance from the shell below (ε_p1 − ε_s):
+ *    sub-levels split by shape lie closer together than the shells.
+ *
+ * Example
+ * -------
+ * ```ts
+ * hypothesisPlausibility({ levels: [
+ *   { band: "CB", label: "s", degeneracy: 2, energyEV: 0.6 },
+ *   { band: "CB", label: "p", degeneracy: 6, energyEV: 0.9 },
+ *   { band: "VB", label: "v1", degeneracy: 2, energyEV: -1.2 }], chargingEnergyEV: 1.1, atBound: [] });
+ * // => ["Ec 1100 meV is more than 0.5 × the single-particle gap 1800 meV"]
+ * ```
+ */
+export function hypothesisPlausibility(input: PlausibilityInput): string[] {
+  const D = PLAUSIBILITY_DEFAULTS;
+  const reasons: string[] = [];
+  for (const name of input.atBound) reasons.push(`${name} ended on a bound of the fit`);
+  const cb = input.levels.filter((l) => l.band === "CB");
+  const vb = input.levels.filter((l) => l.band === "VB");
+  for (let j = 1; j < cb.length; j++) if (!(cb[j].energyEV > cb[j - 1].energyEV)) reasons.push(`CB level ${cb[j].label} lies below ${cb[j - 1].label}`);
+  for (let j = 1; j < vb.length; j++) if (!(vb[j].energyEV < vb[j - 1].energyEV)) reasons.push(`VB level ${vb[j].label} lies above ${vb[j - 1].label}`);
+  if (cb.length && vb.length) {
+    const gap = Math.min(...cb.map((l) => l.energyEV)) - Math.max(...vb.map((l) => l.energyEV));
+    if (!(gap > 0)) reasons.push("the CB and VB levels overlap");
+    else if (input.chargingEnergyEV > D.maxChargingFractionOfGap * gap) {
+      reasons.push(`Ec ${(input.chargingEnergyEV * 1000).toFixed(0)} meV is more than ${D.maxChargingFractionOfGap} × the single-particle gap ${(gap * 1000).toFixed(0)} meV`);
+    }
+  }
+  const shells = new Map<string, PlausibilityLevel[]>();
+  for (const l of cb) {
+    const letter = l.label.replace(/\d+$/, "");
+    shells.set(letter, [...(shells.get(letter) ?? []), l]);
+  }
+  let below: PlausibilityLevel | null = null;
+  for (const [letter, levels] of shells) {
+    const held = levels.reduce((a, l) => a + l.degeneracy, 0);
+    const capacity = D.shellCapacity[letter];
+    if (capacity !== undefined && held > capacity) reasons.push(`shell ${letter} holds ${held} electrons, more than its ${capacity}`);
+    if (levels.length > 1 && below) {
+      const span = levels[levels.length - 1].energyEV - levels[0].energyEV;
+      const distance = levels[0].energyEV - below.energyEV;
+      if (span >= distance) reasons.push(`the split ${letter} shell spans ${(span * 1000).toFixed(0)} meV, more than its distance ${(distance * 1000).toFixed(0)} meV from the shell below`);
+    }
+    below = levels[levels.length - 1];
+  }
+  return reasons;
+}
