@@ -4,14 +4,12 @@
 // `require` (what lazyModule uses in Node) alike. Expected values: the project's own loading rule
 // (by construction); each block is shown to bite where the dependency is needed.
 import { describe, it, expect, afterAll } from "vitest";
-import { execFile } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { promisify } from "node:util";
+import { runNode } from "../helpers/runProcess.ts";
 
-const exec = promisify(execFile);
 const ROOT = fileURLToPath(new URL("../..", import.meta.url));
 const BIN = join(ROOT, "bin", "dotspec.js");
 const SAMPLE = join(ROOT, "sample-curves", "dot-01.csv");
@@ -50,15 +48,7 @@ function blocker(name: string, pattern: string, blockLibrary: boolean): string {
   return preload;
 }
 
-async function node(args: string[]): Promise<{ code: number; stdout: string; stderr: string }> {
-  try {
-    const { stdout, stderr } = await exec(process.execPath, args, { cwd: dir, env: { ...process.env, NO_COLOR: "1" } });
-    return { code: 0, stdout, stderr };
-  } catch (err) {
-    const e = err as { code: number; stdout: string; stderr: string };
-    return { code: e.code, stdout: e.stdout, stderr: e.stderr };
-  }
-}
+const node = (args: string[]) => runNode(args, dir);
 
 describe("the built command's start-up", () => {
   it("--help and --version load neither the library nor any heavy dependency", async () => {

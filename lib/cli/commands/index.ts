@@ -18,37 +18,15 @@ export interface CommandEntry {
   load(): Promise<CliCommand>;
 }
 
+/** A registry entry: name, arguments and summary as `--help` lists them, and the module's loader. */
+const entry = (name: string, args: string, summary: string, load: () => Promise<CliCommand>): CommandEntry => ({ name, arguments: args, summary, load });
+
 export const COMMANDS: readonly CommandEntry[] = Object.freeze([
-  {
-    name: "analyze",
-    arguments: "[FILE...]",
-    summary: "find, assign and measure the peaks of I–V curves",
-    load: async () => (await import("./analyze.ts")).analyzeCommand,
-  },
-  {
-    name: "sizes",
-    arguments: "<DIR...>",
-    summary: "combine the curves of many dots: size dependence, model fits, optical pairing",
-    load: async () => (await import("./sizes.ts")).sizesCommand,
-  },
-  {
-    name: "fit",
-    arguments: "<FILE...>",
-    summary: "fit the double-barrier model to I–V curves",
-    load: async () => (await import("./fit.ts")).fitCommand,
-  },
-  {
-    name: "grid",
-    arguments: "<INPUT>",
-    summary: "maps of each assigned state across a dot from a grid of I–V sweeps",
-    load: async () => (await import("./grid.ts")).gridCommand,
-  },
-  {
-    name: "simulate",
-    arguments: "",
-    summary: "write the simulated I–V curve of a scenario as CSV",
-    load: async () => (await import("./simulate.ts")).simulateCommand,
-  },
+  entry("analyze", "[FILE...]", "find, assign and measure the peaks of I–V curves", async () => (await import("./analyze.ts")).analyzeCommand),
+  entry("sizes", "<DIR...>", "combine the curves of many dots: size dependence, model fits, optical pairing", async () => (await import("./sizes.ts")).sizesCommand),
+  entry("fit", "<FILE...>", "fit the double-barrier model to I–V curves", async () => (await import("./fit.ts")).fitCommand),
+  entry("grid", "<INPUT>", "maps of each assigned state across a dot from a grid of I–V sweeps", async () => (await import("./grid.ts")).gridCommand),
+  entry("simulate", "", "write the simulated I–V curve of a scenario as CSV", async () => (await import("./simulate.ts")).simulateCommand),
 ]);
 
 export type { CliCommand } from "./command.ts";
