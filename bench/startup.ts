@@ -72,4 +72,20 @@ for (const [name, spec] of [
 ] as const) {
   console.log(`  ${name.padEnd(52)} ${importMs(spec).toFixed(0).padStart(4)} ms`);
 }
+
+// The first curve runs in cold code (not yet optimised); the same work warm, for comparison.
+const firstCurve = `
+  const lib = await import(${JSON.stringify("./dist/index.js")});
+  const times = [];
+  for (let k = 0; k < 20; k++) {
+    const t0 = performance.now();
+    const { curve, record } = lib.readCurveFile(${JSON.stringify(curve)});
+    const t1 = performance.now();
+    const json = JSON.stringify(lib.analysisToJson(lib.analyzeCurve(curve), record));
+    const t2 = performance.now();
+    if (json.length) times.push([t1 - t0, t2 - t1]);
+  }
+  console.log(JSON.stringify([times[0], times[times.length - 1]]));`;
+const [[coldRead, coldAnalysis], [warmRead, warmAnalysis]] = JSON.parse(execFileSync(process.execPath, ["--input-type=module", "-e", firstCurve], { cwd: ROOT, encoding: "utf8" })) as number[][];
+console.log(`\n${curve} in a fresh process: read ${coldRead.toFixed(0)} ms, analyse + JSON ${coldAnalysis.toFixed(0)} ms the first time; the 20th time ${warmRead.toFixed(1)} ms and ${warmAnalysis.toFixed(1)} ms`);
 console.log(`load average ${loadavg()[0].toFixed(1)} at the end`);
