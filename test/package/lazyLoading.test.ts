@@ -1,8 +1,8 @@
 // The start-up path of the built command loads only what the command needs (DEVELOPERS.md, "Lazy
 // loading"): `--help` loads no library, `analyze --json` none of the heavy dependencies. Run
 // under plain Node with a preload that refuses them, for ES modules (a resolve hook) and for
-// `require` (what lazyModule uses in Node) alike. Expected values: the project's own loading rule
-// (by construction); each block is shown to bite where the dependency is needed.
+// `require` (what lazyModule uses in Node) alike. Expected values are derived from the project's
+// own loading rule (by construction); each block is shown to bite where the dependency is needed.
 import { describe, it, expect, afterAll } from "vitest";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
