@@ -70,6 +70,14 @@ export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<num
     })
     .showHelpAfterError("(add --help for usage)")
     .addHelpText("after", "\nRun dotspec <command> --help for a command's options.\n");
+  // Every command has options, also a stand-in below that declares none: list them all as `name [options] …`.
+  const defaultHelp = program.createHelp();
+  program.configureHelp({
+    subcommandTerm: (cmd) => {
+      const term = defaultHelp.subcommandTerm(cmd);
+      return term.includes(" [options]") ? term : term.replace(/^\S+/, "$& [options]");
+    },
+  });
   // The first word that is not an option names the command (the program's own options take no value).
   const named = argv.find((a) => !a.startsWith("-"));
   for (const entry of COMMANDS) {
