@@ -6,7 +6,7 @@
  * the heavy dependencies in a fresh process.
  *
  *   npm run bench:startup                      # 20 runs each, 3 warm-up
- *   npm run bench:startup -- --runs 50 --curve sample-curves/dot-04.csv
+ *   npm run bench:startup -- --runs 50 --curve sample-curves/dot-04.csv,sample-curves/dot-02.tsv
  *
  * Builds dist/ first (scripts/build.mjs): the command runs the compiled library.
  */
@@ -21,7 +21,8 @@ const args = process.argv.slice(2);
 const option = (name: string, fallback: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : fallback);
 const runs = Math.max(1, Number(option("--runs", "20")) || 20);
 const warmup = Math.max(0, Number(option("--warmup", "3")) || 0);
-const curve = option("--curve", join("sample-curves", "dot-01.csv"));
+// Three sweeps of 2,000 points, and one sweep of 2,000 points (like the batch benchmark's files).
+const curves = option("--curve", [join("sample-curves", "dot-01.csv"), join("sample-curves", "dot-05.dat")].join(",")).split(",");
 
 /** Wall time of one whole process, ms; throws when it fails. */
 function once(argv: string[]): number {
@@ -57,7 +58,7 @@ console.log(`Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? 
 baseline = measure("node -e 0 (Node's own start)", ["-e", "0"], null);
 measure("dotspec --version", [BIN, "--version"], null);
 measure("dotspec --help", [BIN, "--help"], 120);
-measure(`dotspec analyze --json ${curve}`, [BIN, "analyze", curve, "--json"], 200);
+for (const curve of curves) measure(`dotspec analyze --json ${curve}`, [BIN, "analyze", curve, "--json"], 200);
 
 console.log("\nImport time in a fresh process (median of 5), what a command pays before its work:");
 for (const [name, spec] of [
@@ -73,19 +74,22 @@ for (const [name, spec] of [
   console.log(`  ${name.padEnd(52)} ${importMs(spec).toFixed(0).padStart(4)} ms`);
 }
 
+console.log("");
 // The first curve runs in cold code (not yet optimised); the same work warm, for comparison.
-const firstCurve = `
-  const lib = await import(${JSON.stringify("./dist/index.js")});
-  const times = [];
-  for (let k = 0; k < 20; k++) {
-    const t0 = performance.now();
-    const { curve, record } = lib.readCurveFile(${JSON.stringify(curve)});
-    const t1 = performance.now();
-    const json = JSON.stringify(lib.analysisToJson(lib.analyzeCurve(curve), record));
-    const t2 = performance.now();
-    if (json.length) times.push([t1 - t0, t2 - t1]);
-  }
-  console.log(JSON.stringify([times[0], times[times.length - 1]]));`;
-const [[coldRead, coldAnalysis], [warmRead, warmAnalysis]] = JSON.parse(execFileSync(process.execPath, ["--input-type=module", "-e", firstCurve], { cwd: ROOT, encoding: "utf8" })) as number[][];
-console.log(`\n${curve} in a fresh process: read ${coldRead.toFixed(0)} ms, analyse + JSON ${coldAnalysis.toFixed(0)} ms the first time; the 20th time ${warmRead.toFixed(1)} ms and ${warmAnalysis.toFixed(1)} ms`);
+for (const curve of curves) {
+  const firstCurve = `
+    const lib = await import(${JSON.stringify("./dist/index.js")});
+    const times = [];
+    for (let k = 0; k < 20; k++) {
+      const t0 = performance.now();
+      const { curve, record } = lib.readCurveFile(${JSON.stringify(curve)});
+      const t1 = performance.now();
+      const json = JSON.stringify(lib.analysisToJson(lib.analyzeCurve(curve), record));
+      const t2 = performance.now();
+      if (json.length) times.push([t1 - t0, t2 - t1]);
+    }
+    console.log(JSON.stringify([times[0], times[times.length - 1]]));`;
+  const [[coldRead, coldAnalysis], [warmRead, warmAnalysis]] = JSON.parse(execFileSync(process.execPath, ["--input-type=module", "-e", firstCurve], { cwd: ROOT, encoding: "utf8" })) as number[][];
+  console.log(`${curve} in a fresh process: read ${coldRead.toFixed(0)} ms, analyse + JSON ${coldAnalysis.toFixed(0)} ms the first time; the 20th time ${warmRead.toFixed(1)} ms and ${warmAnalysis.toFixed(1)} ms`);
+}
 console.log(`load average ${loadavg()[0].toFixed(1)} at the end`);
