@@ -78,19 +78,18 @@ export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<num
       return term.includes(" [options]") ? term : term.replace(/^\S+/, "$& [options]");
     },
   });
-  // The first word that is not an option names the command (the program's own options take no value).
-  const named = argv.find((a) => !a.startsWith("-"));
-  for (const entry of COMMANDS) {
-    if (entry.name === named) {
-      (await entry.load()).register(program, ctx);
-      program.commands[program.commands.length - 1].summary(entry.summary);
-    } else {
-      // A stand-in that only lists the command; it never runs (the command named runs the real one).
-      program.command(`${entry.name} ${entry.arguments}`.trim()).summary(entry.summary);
-    }
-  }
-
   try {
+    // The first word that is not an option names the command (the program's own options take no value).
+    const named = argv.find((a) => !a.startsWith("-"));
+    for (const entry of COMMANDS) {
+      if (entry.name === named) {
+        (await entry.load()).register(program, ctx);
+        program.commands[program.commands.length - 1].summary(entry.summary);
+      } else {
+        // A stand-in that only lists the command; it never runs (the command named runs the real one).
+        program.command(`${entry.name} ${entry.arguments}`.trim()).summary(entry.summary);
+      }
+    }
     await program.parseAsync(argv, { from: "user" });
     return ctx.exitCode;
   } catch (err) {
@@ -106,7 +105,8 @@ async function failure(err: unknown, ctx: CliContext): Promise<number> {
     return EXIT.usage;
   }
   // The library is loaded by now if it threw (only a command loads it); importing it again is free.
-  const { isDotspecError } = await import("../index.ts");
+  // If it is what failed to load, the error is reported as the internal error it is.
+  const isDotspecError = await import("../index.ts").then((lib) => lib.isDotspecError, () => () => false);
   if (isDotspecError(err)) {
     ctx.error(err.message);
     return EXIT.failed;
