@@ -1,8 +1,12 @@
 #!/usr/bin/env node
-// The dotspec command. The library is written in TypeScript and run through tsx, which is
-// resolved from this package, so the command works from any working directory.
-import { register } from "tsx/esm/api";
-
-register();
-const { main } = await import("../lib/cli/main.ts");
+// The dotspec command: runs the compiled library in dist/ (`npm run build`, which `npm ci` runs
+// through the `prepare` script). Nothing here compiles TypeScript.
+let main;
+try {
+  ({ main } = await import("../dist/cli/main.js"));
+} catch (err) {
+  if (err?.code !== "ERR_MODULE_NOT_FOUND" || !String(err.message).includes("dist/cli/main.js")) throw err;
+  console.error("dotspec: the compiled library (dist/) is missing; run `npm run build` in the dotspec folder");
+  process.exit(1);
+}
 process.exitCode = await main(process.argv.slice(2));

@@ -1,8 +1,12 @@
+/// <reference lib="dom" preserve="true" />
 /**
  * dotspec's browser-safe public entry: everything of the library that touches neither the file
  * system nor jsdom — the parsers of curve text and bytes, CSV formatting, the signal stage, peaks,
  * assignment, the pipeline, the model and its fit, the JSON/text/summary reports and the figure
  * loader. The notebooks import only this module; `lib/index.ts` re-exports it and adds file I/O.
+ *
+ * The reference to the DOM library above is kept in the declarations: the figure functions take
+ * an optional DOM `Document` (jsdom's in Node), so a consumer's type check needs the DOM types.
  */
 export type { Curve, CurveMeta } from "./curve.ts";
 export { DotspecError, failureReason, isDotspecError } from "./util/errors.ts";

@@ -12,6 +12,7 @@ export interface GapEdgesOptions {
   runSamples?: number;
 }
 
+/** Defaults of {@link GapEdgesOptions}: 3 σ_G for 3 samples in a row (locked by a test). */
 export const GAP_EDGES_DEFAULTS = Object.freeze({ thresholdSigma: 3, runSamples: 3 });
 
 /**

@@ -1,6 +1,7 @@
 /**
  * Worker thread of `dotspec analyze` for large batches: receives jobs, answers with results, in
- * order. Started through analyzeWorker.mjs, which registers TypeScript support in the thread.
+ * order. Started directly when compiled (dist/), through analyzeWorker.mjs (which registers tsx
+ * in the thread) from the TypeScript sources; see workerEntry.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { loadCurveFigure, type CurveFigureRenderer } from "../index.ts";

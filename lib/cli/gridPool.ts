@@ -3,6 +3,7 @@
  * SharedArrayBuffer: each worker reads its share of pixels in place, nothing is copied.
  */
 import { Worker } from "node:worker_threads";
+import { workerEntry } from "./workerEntry.ts";
 import { analyzeGrid, combinePixelPass, gridAnalysisSteps, pixelCount, type AnalyzeGridOptions, type GridAnalysis, type GridCube, type PixelPass, type PixelPassPart } from "../index.ts";
 
 /** Tuning of the grid worker pool (locked by a test). */
@@ -55,7 +56,7 @@ export interface GridPool {
  * 3. A worker that fails rejects the parts it holds; the command reports it and exits 1.
  */
 export function startGridPool(threads: number): GridPool {
-  const workers = Array.from({ length: threads }, () => new Worker(new URL("./gridWorker.mjs", import.meta.url)));
+  const workers = Array.from({ length: threads }, () => new Worker(workerEntry("gridWorker", import.meta.url)));
   const pending = workers.map(() => new Map<number, { resolve: (v: Float64Array) => void; reject: (e: Error) => void }>());
   let nextId = 0;
   workers.forEach((w, i) => {

@@ -1,6 +1,7 @@
 /**
  * Worker thread of `dotspec grid`: receives the cube (a SharedArrayBuffer, read in place) and
- * then parts of pixel passes, and answers each with its values. Started through gridWorker.mjs.
+ * then parts of pixel passes, and answers each with its values. Started directly when compiled
+ * (dist/), through gridWorker.mjs from the TypeScript sources; see workerEntry.
  */
 import { parentPort } from "node:worker_threads";
 import { runPixelPass, type GridCube, type PixelPass } from "../index.ts";

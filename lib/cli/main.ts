@@ -2,19 +2,24 @@
  * The dotspec command line: parses the arguments, runs one sub-command, returns the exit code.
  * Thin by design: the work is done by the library (lib/index.ts).
  */
-import { fileURLToPath } from "node:url";
+import { readFileSync } from "node:fs";
 import { Command, CommanderError } from "commander";
-import { isDotspecError } from "../index.ts";
 import { COMMANDS } from "./commands/index.ts";
 import { EXIT, makeContext, UsageError, type CliContext, type CliIO } from "./context.ts";
-import { readJsonFile } from "../index.ts";
 
 export { EXIT, type CliIO, type CliStream } from "./context.ts";
 
-/** The package version, from package.json. */
+/**
+ * The package version, from package.json (two folders up from lib/cli and from dist/cli alike).
+ * Read here rather than taken from the library, which `--help` and `--version` do not load.
+ */
 function packageVersion(): string {
-  const manifest = readJsonFile(fileURLToPath(new URL("../../package.json", import.meta.url))) as { version?: unknown };
-  return typeof manifest.version === "string" ? manifest.version : "unknown";
+  try {
+    const manifest = JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version?: unknown };
+    return typeof manifest.version === "string" ? manifest.version : "unknown";
+  } catch {
+    return "unknown";
+  }
 }
 
 /**
@@ -38,7 +43,10 @@ function packageVersion(): string {
  * 1. commander parses with `exitOverride`, so its errors come back as exceptions: help and
  *    version map to 0, every parse error (unknown option or command, missing argument, an option
  *    value out of range) to 2, its message already printed on stderr.
- * 2. Sub-commands come from the registry in lib/cli/commands/index.ts.
+ * 2. Sub-commands come from the registry in lib/cli/commands/index.ts. Only the command named
+ *    on the command line is imported (and with it the library); the others are listed from the
+ *    registry's table, so `dotspec --help` and `--version` load neither the library nor any
+ *    command module.
  * 3. A DotspecError that escapes a command prints `dotspec: <message>` (exit 1); any other error
  *    is a bug and prints its stack (exit 1).
  *
@@ -62,23 +70,43 @@ export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<num
     })
     .showHelpAfterError("(add --help for usage)")
     .addHelpText("after", "\nRun dotspec <command> --help for a command's options.\n");
-  for (const command of COMMANDS) command.register(program, ctx);
-
+  // Every command has options, also a stand-in below that declares none: list them all as `name [options] …`.
+  const defaultHelp = program.createHelp();
+  program.configureHelp({
+    subcommandTerm: (cmd) => {
+      const term = defaultHelp.subcommandTerm(cmd);
+      return term.includes(" [options]") ? term : term.replace(/^\S+/, "$& [options]");
+    },
+  });
   try {
+    // The first word that is not an option names the command (the program's own options take no value).
+    const named = argv.find((a) => !a.startsWith("-"));
+    for (const entry of COMMANDS) {
+      if (entry.name === named) {
+        (await entry.load()).register(program, ctx);
+        program.commands[program.commands.length - 1].summary(entry.summary);
+      } else {
+        // A stand-in that only lists the command; it never runs (the command named runs the real one).
+        program.command(`${entry.name} ${entry.arguments}`.trim()).summary(entry.summary);
+      }
+    }
     await program.parseAsync(argv, { from: "user" });
     return ctx.exitCode;
   } catch (err) {
-    return failure(err, ctx);
+    return await failure(err, ctx);
   }
 }
 
 /** The exit code for an error that ended a command, after printing it. */
-function failure(err: unknown, ctx: CliContext): number {
+async function failure(err: unknown, ctx: CliContext): Promise<number> {
   if (err instanceof CommanderError) return err.exitCode === 0 ? EXIT.ok : EXIT.usage;
   if (err instanceof UsageError) {
     ctx.error(err.message);
     return EXIT.usage;
   }
+  // The library is loaded by now if it threw (only a command loads it); importing it again is free.
+  // If it is what failed to load, the error is reported as the internal error it is.
+  const isDotspecError = await import("../index.ts").then((lib) => lib.isDotspecError, () => () => false);
   if (isDotspecError(err)) {
     ctx.error(err.message);
     return EXIT.failed;

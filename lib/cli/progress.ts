@@ -1,8 +1,13 @@
 /**
  * The progress bar of long batches, on stderr. Lines printed while it runs go above it.
  */
-import cliProgress from "cli-progress";
+import { createRequire } from "node:module";
+import type * as CliProgress from "cli-progress";
 import type { CliStream } from "./context.ts";
+
+// cli-progress (CommonJS) is loaded only when a bar is drawn: a batch piped to a file or a
+// program never needs it, and start-up stays short.
+const require = createRequire(import.meta.url);
 
 /** Progress of a batch: `tick` per item, `log` for a line that must not garble the bar. */
 export interface Progress {
@@ -39,6 +44,7 @@ export function startProgress(total: number, stream: CliStream, label: string, u
   if (!(total > PROGRESS_DEFAULTS.minFiles && stream.isTTY === true)) {
     return { tick() {}, log: (line) => void stream.write(line), stop() {} };
   }
+  const cliProgress = require("cli-progress") as typeof CliProgress;
   const bars = new cliProgress.MultiBar(
     {
       stream: stream as unknown as NodeJS.WritableStream,

@@ -3,6 +3,7 @@
  */
 import { Worker } from "node:worker_threads";
 import { loadCurveFigure, type CurveFigureRenderer } from "../index.ts";
+import { workerEntry } from "./workerEntry.ts";
 import { analyzeFile, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "./analyzeFile.ts";
 
 /** Tuning of the worker pool. */
@@ -69,7 +70,7 @@ function runInWorkers(
       if (alive === 0) done();
     };
     for (let w = 0; w < threads; w++) {
-      const worker = new Worker(new URL("./analyzeWorker.mjs", import.meta.url), { workerData: settings });
+      const worker = new Worker(workerEntry("analyzeWorker", import.meta.url), { workerData: settings });
       alive++;
       const held = new Map<number, AnalyzeJob>();
       let answered = 0;

@@ -7,6 +7,7 @@ import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import type { Level, Scenario } from "./scenario.ts";
 import { REGIME_LIMITS } from "./regimeLimits.ts";
 
+/** The regime of a synthetic spectrum: shell filling (Γtip/Γsub ≫ 1), shell tunnelling (Γtip/Γsub ≪ 1) or in between. */
 export type SyntheticRegime = "shell-filling" | "shell-tunneling" | "intermediate";
 
 /** Ranges the spectra are drawn from (uniform unless said otherwise). */

@@ -95,6 +95,7 @@ export interface CurveAnalysis {
   warnings: string[];
 }
 
+/** The pipeline's own thresholds (first pass, measured peak width, peak separation), chosen on the accuracy benchmark; locked by a test. */
 export const ANALYZE_DEFAULTS = Object.freeze({
   /** Peak width of the first pass when the width is measured, mV. */
   firstPassPeakWidthMV: CONDUCTANCE_DEFAULTS.peakWidthMV,

@@ -11,6 +11,7 @@ import type { Provenance } from "./provenance.ts";
 /** Version of the record layout; bumped when a field changes meaning. */
 export const ANALYSIS_JSON_VERSION = 1;
 
+/** The JSON record of one analysed curve: what `dotspec analyze --json` prints per file and `--out` writes as <name>.json. */
 export interface AnalysisJson {
   version: number;
   /** The file name as given. */

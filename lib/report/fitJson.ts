@@ -5,6 +5,7 @@
 import type { CurveFit, FittedValue } from "../model/fit/fitCurve.ts";
 import type { AnalysisJson } from "./analysisJson.ts";
 
+/** The JSON record of one fitted curve: what `dotspec fit --json` prints per file and `--out` writes as <name>.fit.json. */
 export interface FitJson {
   source: string;
   /** "good", "poor" or "failed" (no fit: do not use the values), from χ² and the parameter errors. */

@@ -35,6 +35,7 @@ export const SUMMARY_COLUMNS = Object.freeze([
   "options",
 ] as const);
 
+/** A column of the summary table (one of {@link SUMMARY_COLUMNS}). */
 export type SummaryColumn = (typeof SUMMARY_COLUMNS)[number];
 
 /** Prefix of the columns that carry the file's own metadata lines (`meta_dot`, `meta_radius_nm`, …). */

@@ -21,6 +21,7 @@ export interface DotCurve {
 
 /** The scalar quantities combined per dot (bias key `<name>V`, energy key `<name>EV`). */
 export const COMBINED_QUANTITIES = Object.freeze(["gap", "chargingEnergy", "singleParticleGap", "levelSpacingSP"] as const);
+/** One of {@link COMBINED_QUANTITIES}. */
 export type CombinedQuantity = (typeof COMBINED_QUANTITIES)[number];
 
 /** A quantity over the curves of a dot. */

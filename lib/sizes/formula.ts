@@ -2,7 +2,9 @@
  * User formulas for size models ("Eg + a / R^2 - b / R ; a=1, b=0.5"), parsed and evaluated by
  * mathjs in a restricted instance that accepts arithmetic on numbers and nothing else.
  */
-import { all, create, type MathNode } from "mathjs";
+import type * as MathJs from "mathjs";
+import type { MathNode } from "mathjs";
+import { lazyModule } from "../util/lazyModule.ts";
 import { DotspecError } from "../util/errors.ts";
 import { SIZE_QUANTITIES, type SizeQuantity } from "./sizeQuantities.ts";
 
@@ -27,10 +29,13 @@ export const SIZE_FORMULA_DEFAULTS = Object.freeze({
 // instance or parse further input (import, createUnit, evaluate, parse, simplify, derivative,
 // and their relatives) by ones that throw. Formulas are also checked node by node against a
 // whitelist before they are compiled, so a disabled function is never even reached.
-// Created on first use (a pure cache: creating the instance costs time at start-up).
+// Created on first use (a pure cache: loading mathjs and creating the instance cost time at
+// start-up, see lazyModule).
+const mathjs = await lazyModule<typeof MathJs>("mathjs", "commonjs", () => import("mathjs"));
 let limitedParse: ((expression: string) => MathNode) | null = null;
 function restrictedParse(expression: string): MathNode {
   if (!limitedParse) {
+    const { create, all } = mathjs();
     const math = create(all);
     const parse = math.parse;
     const disabled = (name: string) => () => {

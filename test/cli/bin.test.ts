@@ -1,5 +1,5 @@
-// The real binary under plain Node (not vitest's module loader): bin/dotspec.js registers tsx and
-// runs main. This catches module-format traps that in-process tests cannot see (for example the
+// The real binary under plain Node (not vitest's module loader): bin/dotspec.js runs the compiled
+// main (dist/, built by the test run's global setup). This catches module-format traps that in-process tests cannot see (for example the
 // CommonJS default export of ml-savitzky-golay, toolchain notes).
 import { describe, it, expect, afterAll } from "vitest";
 import { execFile, spawn } from "node:child_process";
@@ -8,6 +8,7 @@ import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { promisify } from "node:util";
 import { expectClose } from "../helpers/expectClose.ts";
+import { runNode } from "../helpers/runProcess.ts";
 import type { AnalysisJson } from "../../lib/index.ts";
 import { chargingPeakV, FILLING, removeTempDirs, tempDir, writeCurve } from "./harness.ts";
 
@@ -16,15 +17,7 @@ const exec = promisify(execFile);
 
 afterAll(removeTempDirs);
 
-async function dotspec(args: string[], cwd: string): Promise<{ code: number; stdout: string; stderr: string }> {
-  try {
-    const { stdout, stderr } = await exec(process.execPath, [BIN, ...args], { cwd, env: { ...process.env, NO_COLOR: "1" } });
-    return { code: 0, stdout, stderr };
-  } catch (err) {
-    const e = err as { code: number; stdout: string; stderr: string };
-    return { code: e.code, stdout: e.stdout, stderr: e.stderr };
-  }
-}
+const dotspec = (args: string[], cwd: string) => runNode([BIN, ...args], cwd);
 
 describe("node bin/dotspec.js", () => {
   it("simulate writes a CSV and analyze --json reads it back, peaks at (ε + Ec(n + ½))/η (closed form of orthodox theory: Beenakker, Phys. Rev. B 44, 1646 (1991))", async () => {

@@ -4,7 +4,9 @@ import { describe, it, expect } from "vitest";
 import { readFileSync } from "node:fs";
 import { EXIT } from "../../lib/cli/main.ts";
 import { COMMANDS } from "../../lib/cli/commands/index.ts";
-import { run } from "./harness.ts";
+import { Command } from "commander";
+import { makeContext } from "../../lib/cli/context.ts";
+import { run, stream } from "./harness.ts";
 
 describe("main(argv, io)", () => {
   it("EXIT codes are 0 success, 1 some file failed, 2 usage error (the CLI specification)", () => {
@@ -22,6 +24,16 @@ describe("main(argv, io)", () => {
     expect(r.code).toBe(0);
     expect(r.stdout).toMatch(/^Usage: dotspec /);
     for (const c of COMMANDS) expect(r.stdout).toMatch(new RegExp(`\\n  ${c.name} `));
+  });
+
+  it("--help lists each command as its module declares it (name, [options], arguments), without loading the module", async () => {
+    const r = await run(["--help"]);
+    for (const entry of COMMANDS) {
+      const program = new Command("dotspec");
+      (await entry.load()).register(program, makeContext({ stdout: stream(), stderr: stream() }));
+      const term = program.createHelp().subcommandTerm(program.commands[0]);
+      expect(r.stdout, entry.name).toMatch(new RegExp(`\\n  ${term.replace(/[.[\]]/g, "\\$&")}  `));
+    }
   });
 
   it("the registry holds analyze, sizes, fit, grid and simulate, in the order --help lists them", () => {

@@ -77,7 +77,6 @@ export const analyzeCommand: CliCommand = {
   register(program: Command, ctx: CliContext) {
     const command = program
       .command("analyze")
-      .summary("find, assign and measure the peaks of I–V curves")
       .description("Analyse I–V curves of single quantum dots: dI/dV, peaks, shells, gap, charging energy and level spacings.")
       .argument("[FILE...]", "curve files or folders of curve files")
       .option(

@@ -63,7 +63,6 @@ export const fitCommand: CliCommand = {
   register(program: Command, ctx: CliContext) {
     const command = program
       .command("fit")
-      .summary("fit the double-barrier model to I–V curves")
       .description("Fit the orthodox-theory model of a dot in a double-barrier junction to measured I–V curves.")
       .argument("<FILE...>", "curve files or folders of curve files")
       .option(

@@ -88,7 +88,6 @@ export const gridCommand: CliCommand = {
   register(program: Command, ctx: CliContext) {
     program
       .command("grid")
-      .summary("maps of each assigned state across a dot from a grid of I–V sweeps")
       .description("Analyse a grid of I–V sweeps over one dot: dI/dV maps at each assigned peak and over each multiplet, with centre, RMS radius, radial profile and dip depth.")
       .argument("<INPUT>", "a .npy current cube (with its JSON sidecar) or a long table (x, y, bias, current)")
       .option("--sidecar <S.json>", "the sidecar of an .npy input (default: INPUT with .json)")

@@ -39,7 +39,6 @@ export const simulateCommand: CliCommand = {
   register(program: Command, ctx: CliContext) {
     program
       .command("simulate")
-      .summary("write the simulated I–V curve of a scenario as CSV")
       .description("Simulate the I–V curve (and dI/dV) of a quantum dot in a double-barrier tunnel junction, from a scenario file.")
       .requiredOption("--config <SCENARIO.json>", "the scenario: levels, charging energy, η, rates, temperature, bias sweep, noise")
       .requiredOption("--out <CURVE.csv>", "the CSV file to write (header: bias (V),current (A)[,dI/dV (S)])")

@@ -130,7 +130,6 @@ export const sizesCommand: CliCommand = {
   register(program: Command, ctx: CliContext) {
     const command = program
       .command("sizes")
-      .summary("combine the curves of many dots: size dependence, model fits, optical pairing")
       .description(
         "Analyse the curves of a size series, combine them per dot (mean ± standard error, outliers flagged), bin the dots by radius, fit the size models of the material and pair optical peaks with the tunnelling levels.",
       )

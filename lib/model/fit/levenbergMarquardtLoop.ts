@@ -2,7 +2,11 @@
  * The Levenberg–Marquardt iterations of the model fit, in chunks, with the fit's own convergence
  * test and wall-clock limit.
  */
-import { levenbergMarquardt } from "ml-levenberg-marquardt";
+import type * as MlLevenbergMarquardt from "ml-levenberg-marquardt";
+import { lazyModule } from "../../util/lazyModule.ts";
+
+// Loaded at the first fit, not at start-up (lazyModule; an ES module, so `require` needs Node ≥ 20.19).
+const solver = await lazyModule<typeof MlLevenbergMarquardt>("ml-levenberg-marquardt", "module", () => import("ml-levenberg-marquardt"));
 
 /** Settings of {@link levenbergMarquardtLoop}. */
 export interface LoopSettings {
@@ -106,7 +110,7 @@ export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model
     const chunk = Math.min(settings.chunkIterations, maxIterations - iterations);
     let result;
     try {
-      result = levenbergMarquardt(data, model, {
+      result = solver().levenbergMarquardt(data, model, {
         initialValues: params,
         minValues: settings.minValues,
         maxValues: settings.maxValues,

@@ -2,7 +2,7 @@
  * Variable projection: the parameters that enter the model current linearly (rate scale, offset,
  * background) solved by least squares for a given shape of the current.
  */
-import { Matrix, solve } from "ml-matrix";
+import { mlMatrix } from "./mlMatrix.ts";
 
 /** What {@link projectLinear} returns. */
 export interface LinearProjection {
@@ -65,6 +65,7 @@ export function projectLinear(unitA: ArrayLike<number>, biasV: ArrayLike<number>
   const n = biasV.length;
   // Linear least squares for [scale, offset, b1, b3].
   const cols = [unitA, new Float64Array(n).fill(1), biasV, cubeV3];
+  const { Matrix, solve } = mlMatrix();
   const ata = Matrix.zeros(4, 4), atb = Matrix.zeros(4, 1);
   for (let a = 0; a < 4; a++) {
     let sb = 0;

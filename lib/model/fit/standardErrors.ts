@@ -1,7 +1,7 @@
 /**
  * Standard errors of the fitted parameters from the Jacobian of the model at the optimum.
  */
-import { Matrix, inverse } from "ml-matrix";
+import { mlMatrix } from "./mlMatrix.ts";
 
 /**
  * Standard errors of all parameters of a least-squares fit, from a central-difference Jacobian of
@@ -61,6 +61,7 @@ export function standardErrors(model: (q: number[]) => Float64Array, q: number[]
     const a = model(up), b = model(down);
     cols.push(a.map((v, i) => (v - b[i]) / (2 * steps[k])));
   }
+  const { Matrix, inverse } = mlMatrix();
   const jtj = Matrix.zeros(m, m);
   for (let a = 0; a < m; a++) for (let b = a; b < m; b++) {
     let s = 0;

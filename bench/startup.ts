@@ -1,0 +1,95 @@
+/**
+ * Start-up benchmark of the built command (hyperfine-style): each command runs as a whole
+ * process N times after warm-up runs, and min / median / max wall times are printed. Targets:
+ * `dotspec --help` ≤ 120 ms median, `dotspec analyze --json` on one curve ≤ 200 ms median.
+ * Also prints what bounds them: a bare `node` start, and the import time of each entry and of
+ * the heavy dependencies in a fresh process.
+ *
+ *   npm run bench:startup                      # 20 runs each, 3 warm-up
+ *   npm run bench:startup -- --runs 50 --curve sample-curves/dot-04.csv,sample-curves/dot-02.tsv
+ *
+ * Builds dist/ first (scripts/build.mjs): the command runs the compiled library.
+ */
+import { execFileSync, spawnSync } from "node:child_process";
+import { dirname, join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { cpus, loadavg } from "node:os";
+
+const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
+const BIN = join(ROOT, "bin", "dotspec.js");
+const args = process.argv.slice(2);
+const option = (name: string, fallback: string) => (args.includes(name) ? args[args.indexOf(name) + 1] : fallback);
+const runs = Math.max(1, Number(option("--runs", "20")) || 20);
+const warmup = Math.max(0, Number(option("--warmup", "3")) || 0);
+// Three sweeps of 2,000 points, and one sweep of 2,000 points (like the batch benchmark's files).
+const curves = option("--curve", [join("sample-curves", "dot-01.csv"), join("sample-curves", "dot-05.dat")].join(",")).split(",");
+
+/** Wall time of one whole process, ms; throws when it fails. */
+function once(argv: string[]): number {
+  const t0 = process.hrtime.bigint();
+  const r = spawnSync(process.execPath, argv, { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
+  const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+  if (r.status !== 0) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
+  return ms;
+}
+
+let baseline: number | null = null;
+
+/** Runs one command `runs` times and prints min / median / max (and the median over a bare Node start). */
+function measure(name: string, argv: string[], target: number | null): number {
+  for (let k = 0; k < warmup; k++) once(argv);
+  const times = Array.from({ length: runs }, () => once(argv)).sort((a, b) => a - b);
+  const median = runs % 2 ? times[(runs - 1) / 2] : (times[runs / 2 - 1] + times[runs / 2]) / 2;
+  const verdict = target === null ? "" : median <= target ? `  (target ≤ ${target} ms: met)` : `  (target ≤ ${target} ms: NOT met)`;
+  const over = baseline === null ? "" : `  (${(median - baseline).toFixed(0)} ms over Node's start)`;
+  console.log(`${name.padEnd(48)} min ${times[0].toFixed(0).padStart(4)} ms  median ${median.toFixed(0).padStart(4)} ms  max ${times[runs - 1].toFixed(0).padStart(4)} ms${over}${verdict}`);
+  return median;
+}
+
+/** Import time of a module in a fresh process, ms (median of 5). */
+function importMs(specifier: string): number {
+  const code = `const t = performance.now(); await import(${JSON.stringify(specifier)}); console.log(performance.now() - t);`;
+  const times = Array.from({ length: 5 }, () => Number(execFileSync(process.execPath, ["--input-type=module", "-e", code], { cwd: ROOT, encoding: "utf8" }))).sort((a, b) => a - b);
+  return times[2];
+}
+
+execFileSync(process.execPath, [join(ROOT, "scripts", "build.mjs")], { stdio: ["ignore", "ignore", "inherit"] });
+console.log(`Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? "CPU"}, load average ${loadavg()[0].toFixed(1)}; ${runs} runs each after ${warmup} warm-up`);
+baseline = measure("node -e 0 (Node's own start)", ["-e", "0"], null);
+measure("dotspec --version", [BIN, "--version"], null);
+measure("dotspec --help", [BIN, "--help"], 120);
+for (const curve of curves) measure(`dotspec analyze --json ${curve}`, [BIN, "analyze", curve, "--json"], 200);
+
+console.log("\nImport time in a fresh process (median of 5), what a command pays before its work:");
+for (const [name, spec] of [
+  ["dist/cli/main.js (the command, no library)", "./dist/cli/main.js"],
+  ["dist/core.js (browser-safe entry)", "./dist/core.js"],
+  ["dist/index.js (Node entry)", "./dist/index.js"],
+  ["commander", "commander"],
+  ["mathjs (size formulas only, loaded on use)", "mathjs"],
+  ["ml-matrix (fits only, loaded on use)", "ml-matrix"],
+  ["@observablehq/plot (figures only, loaded on use)", "@observablehq/plot"],
+  ["jsdom (figures in Node only, loaded on use)", "jsdom"],
+] as const) {
+  console.log(`  ${name.padEnd(52)} ${importMs(spec).toFixed(0).padStart(4)} ms`);
+}
+
+console.log("");
+// The first curve runs in cold code (not yet optimised); the same work warm, for comparison.
+for (const curve of curves) {
+  const firstCurve = `
+    const lib = await import(${JSON.stringify("./dist/index.js")});
+    const times = [];
+    for (let k = 0; k < 20; k++) {
+      const t0 = performance.now();
+      const { curve, record } = lib.readCurveFile(${JSON.stringify(curve)});
+      const t1 = performance.now();
+      const json = JSON.stringify(lib.analysisToJson(lib.analyzeCurve(curve), record));
+      const t2 = performance.now();
+      if (json.length) times.push([t1 - t0, t2 - t1]);
+    }
+    console.log(JSON.stringify([times[0], times[times.length - 1]]));`;
+  const [[coldRead, coldAnalysis], [warmRead, warmAnalysis]] = JSON.parse(execFileSync(process.execPath, ["--input-type=module", "-e", firstCurve], { cwd: ROOT, encoding: "utf8" })) as number[][];
+  console.log(`${curve} in a fresh process: read ${coldRead.toFixed(0)} ms, analyse + JSON ${coldAnalysis.toFixed(0)} ms the first time; the 20th time ${warmRead.toFixed(1)} ms and ${warmAnalysis.toFixed(1)} ms`);
+}
+console.log(`load average ${loadavg()[0].toFixed(1)} at the end`);

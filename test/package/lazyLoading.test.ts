@@ -1,0 +1,85 @@
+// The start-up path of the built command loads only what the command needs (DEVELOPERS.md, "Lazy
+// loading"): `--help` loads no library, `analyze --json` none of the heavy dependencies. Run
+// under plain Node with a preload that refuses them, for ES modules (a resolve hook) and for
+// `require` (what lazyModule uses in Node) alike. Expected values are derived from the project's
+// own loading rule (by construction); each block is shown to bite where the dependency is needed.
+import { describe, it, expect, afterAll } from "vitest";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { runNode } from "../helpers/runProcess.ts";
+
+const ROOT = fileURLToPath(new URL("../..", import.meta.url));
+const BIN = join(ROOT, "bin", "dotspec.js");
+const SAMPLE = join(ROOT, "sample-curves", "dot-01.csv");
+const HEAVY = "jsdom|@observablehq/plot|mathjs|ml-matrix|ml-levenberg-marquardt|cli-progress";
+
+const dir = mkdtempSync(join(tmpdir(), "dotspec-lazy-"));
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+/** A preload that refuses the packages matching `pattern` and, optionally, the library entry dist/index.js. */
+function blocker(name: string, pattern: string, blockLibrary: boolean): string {
+  const hooks = join(dir, `${name}-hooks.mjs`);
+  writeFileSync(
+    hooks,
+    [
+      `const blocked = new RegExp(${JSON.stringify(`^(${pattern})(/|$)`)});`,
+      "export async function resolve(specifier, context, next) {",
+      '  if (blocked.test(specifier)) throw new Error("blocked " + specifier);',
+      "  const result = await next(specifier, context);",
+      `  if (${blockLibrary} && result.url.endsWith("/dist/index.js")) throw new Error("blocked the library " + result.url);`,
+      "  return result;",
+      "}",
+    ].join("\n"),
+  );
+  const preload = join(dir, `${name}.mjs`);
+  writeFileSync(
+    preload,
+    [
+      'import { register } from "node:module";',
+      'import Module from "node:module";',
+      `register(${JSON.stringify(`./${name}-hooks.mjs`)}, import.meta.url);`,
+      `const blocked = new RegExp(${JSON.stringify(`^(${pattern})(/|$)`)});`,
+      "const load = Module._load;",
+      'Module._load = function (request, ...rest) { if (blocked.test(request)) throw new Error("blocked require " + request); return load.call(this, request, ...rest); };',
+    ].join("\n"),
+  );
+  return preload;
+}
+
+const node = (args: string[]) => runNode(args, dir);
+
+describe("the built command's start-up", () => {
+  it("--help and --version load neither the library nor any heavy dependency", async () => {
+    const preload = blocker("nolib", HEAVY, true);
+    const help = await node(["--import", preload, BIN, "--help"]);
+    expect(help.stderr).toBe("");
+    expect(help.code).toBe(0);
+    expect(help.stdout).toMatch(/^Usage: dotspec /);
+    expect((await node(["--import", preload, BIN, "--version"])).code).toBe(0);
+    // …and the block bites as soon as a command needs the library.
+    const analyze = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
+    expect(analyze.code).not.toBe(0);
+    expect(analyze.stderr).toMatch(/blocked the library/);
+  });
+
+  it("analyze --json loads none of jsdom, Observable Plot, mathjs, ml-matrix, the Levenberg–Marquardt solver, cli-progress", async () => {
+    const preload = blocker("heavy", HEAVY, false);
+    const r = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
+    expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
+    expect(r.code).toBe(0);
+    expect(JSON.parse(r.stdout)).toHaveLength(1);
+  });
+
+  it("the blocks bite where the dependency is needed: a size formula needs mathjs, a fit ml-matrix", async () => {
+    const mathjs = blocker("mathjs", "mathjs", false);
+    const formula = await node(["--import", mathjs, "--input-type=module", "-e", `const m = await import(${JSON.stringify(join(ROOT, "dist", "index.js"))}); m.parseSizeFormula("a / R");`]);
+    expect(formula.code).not.toBe(0);
+    expect(formula.stderr).toMatch(/blocked require mathjs/);
+    const matrix = blocker("matrix", "ml-matrix|ml-levenberg-marquardt", false);
+    const fit = await node(["--import", matrix, BIN, "fit", SAMPLE, "--json"]);
+    expect(fit.code).not.toBe(0);
+    expect(fit.stderr).toMatch(/blocked require ml-/);
+  });
+});
