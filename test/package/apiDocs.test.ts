@@ -8,6 +8,8 @@ import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { DIST_DIR, entryExports, undocumented } from "../../scripts/docsExports.ts";
+import { apiPages } from "../../scripts/apiPages.ts";
+import { readFileSync } from "node:fs";
 
 const dirs: string[] = [];
 afterAll(() => {
@@ -19,6 +21,14 @@ describe("the public API's doc comments", () => {
     const exports = entryExports(join(DIST_DIR, `${entry}.d.ts`), DIST_DIR);
     expect(exports.length).toBeGreaterThan(100);
     expect(undocumented(exports)).toEqual([]);
+  });
+
+  it("the committed reference (docs/api/*.md) is what npm run docs makes of the current declarations", () => {
+    const { pages } = apiPages();
+    for (const [name, text] of Object.entries(pages)) {
+      const committed = readFileSync(join(DIST_DIR, "..", "docs", "api", name), "utf8");
+      expect(committed === text, `docs/api/${name} is out of date: run npm run docs`).toBe(true);
+    }
   });
 
   it("the entries export what the package promises (analyzeCurve in both, readCurveFile only from dotspec)", () => {
