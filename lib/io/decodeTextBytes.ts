@@ -58,15 +58,25 @@ export interface DecodedText {
 export function decodeTextBytes(bytes: Uint8Array, source: string, what = "a text table", fix = "save it as UTF-8 text"): DecodedText {
   if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return { text: new TextDecoder("utf-16le").decode(bytes), warning: null };
   if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) return { text: new TextDecoder("utf-16be").decode(bytes), warning: null };
-  if (bytes.indexOf(0) >= 0) {
-    throw new DotspecError(
-      "io/binary",
-      `${source}: the file holds NUL bytes, so it is not ${what} (a binary file, or UTF-16 text without a byte-order mark); ${fix}`,
-    );
-  }
+  if (bytes.indexOf(0) >= 0) throw binaryFileError(source, what, fix);
   try {
     return { text: new TextDecoder("utf-8", { fatal: true }).decode(bytes), warning: null };
   } catch {
     return { text: new TextDecoder("windows-1252").decode(bytes), warning: "the file is not valid UTF-8; read as Windows-1252 (Latin-1) text" };
   }
+}
+
+/**
+ * The error for a file that holds NUL bytes outside UTF-16 (`io/binary`), shared by the readers
+ * that decode a whole file and those that stream it.
+ *
+ * Example
+ * -------
+ * binaryFileError("a.csv", "a text table", "save it as UTF-8 text").code; // => "io/binary"
+ */
+export function binaryFileError(source: string, what: string, fix: string): DotspecError {
+  return new DotspecError(
+    "io/binary",
+    `${source}: the file holds NUL bytes, so it is not ${what} (a binary file, or UTF-16 text without a byte-order mark); ${fix}`,
+  );
 }

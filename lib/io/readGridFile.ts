@@ -1,14 +1,14 @@
 /**
  * Reading a grid from disk: an NPY array with its JSON sidecar, or a long table.
  */
-import { readFileSync, statSync } from "node:fs";
+import { statSync } from "node:fs";
 import { extname } from "node:path";
 import type { GridCube } from "../grid/gridCube.ts";
 import { DotspecError } from "../util/errors.ts";
-import { parseGridTable, type GridTableRecord } from "./parseGridTable.ts";
+import type { GridTableRecord } from "./parseGridTable.ts";
+import { readGridTableFile } from "./readGridTableFile.ts";
 import { readJsonFile } from "./readJsonFile.ts";
 import { readNpyGrid, type NpyGridResult } from "./readNpyGrid.ts";
-import { MAX_CURVE_FILE_BYTES } from "./readCurveFile.ts";
 
 /** Options of {@link readGridFile}. */
 export interface ReadGridFileOptions {
@@ -16,6 +16,8 @@ export interface ReadGridFileOptions {
   sidecar?: string;
   /** Put an NPY cube on a SharedArrayBuffer (for worker threads). Default false. */
   shared?: boolean;
+  /** Called while a long table is read (streamed), with the fraction done (0 … 1). Default: none. */
+  onProgress?: (fraction: number) => void;
 }
 
 /** What {@link readGridFile} read: the cube and, by layout, how. */
@@ -37,7 +39,7 @@ export interface GridFileResult {
  * path : string
  *     The file.
  * options : ReadGridFileOptions, optional
- *     sidecar (default `<name>.json`), shared (default false).
+ *     sidecar (default `<name>.json`), shared (default false), onProgress (default none).
  *
  * Returns
  * -------
@@ -46,8 +48,8 @@ export interface GridFileResult {
  * Throws
  * ------
  * DotspecError
- *     `io/not-found`, `io/too-large` (a table over 256 MiB), `io/unreadable-json`/`io/invalid-json`
- *     for the sidecar, and every error of {@link readNpyGrid} and {@link parseGridTable}.
+ *     `io/not-found`, `io/unreadable-json`/`io/invalid-json` for the sidecar, and every error of
+ *     {@link readNpyGrid} and {@link readGridTableFile} (those of {@link parseGridTable}).
  *
  * Example
  * -------
@@ -68,8 +70,8 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
     const r = readNpyGrid(path, readJsonFile(sidecarPath), { shared: options.shared ?? false }, sidecarPath);
     return { cube: r.cube, layout: "npy", npy: { header: r.header, sidecar: r.sidecar }, table: null, warnings: [] };
   }
-  if (size > MAX_CURVE_FILE_BYTES) throw new DotspecError("io/too-large", `${path}: ${size} bytes is more than a grid table may hold (${MAX_CURVE_FILE_BYTES}); store large grids as NPY`);
-  const r = parseGridTable(readFileSync(path, "utf8"), { source: path });
+  // Streamed: memory holds the cube, never the whole text.
+  const r = readGridTableFile(path, { onProgress: options.onProgress });
   return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: r.record.warnings };
 }
 
