@@ -17,6 +17,8 @@ export interface FileLinesOptions {
   onBytes?: (doneBytes: number, totalBytes: number) => void;
   /** What the file should be, for the binary-file message. Default "a text table". */
   what?: string;
+  /** What to do about a binary file, for its message. Default "save it as UTF-8 text". */
+  binaryFix?: string;
 }
 
 /** Defaults of {@link forEachFileLine} (locked by a test). */
@@ -120,7 +122,7 @@ export function forEachFileLine(path: string, encoding: FileEncoding, visit: (li
       const got = readSync(fd, buffer, 0, chunkBytes, done);
       if (got <= 0) break;
       const bytes = buffer.subarray(0, got);
-      if (checkNul && bytes.indexOf(0) >= 0) throw binaryFileError(path, what, "save it as UTF-8 text");
+      if (checkNul && bytes.indexOf(0) >= 0) throw binaryFileError(path, what, options.binaryFix ?? "save it as UTF-8 text");
       let text: string;
       try {
         text = decoder.decode(bytes, { stream: true });
