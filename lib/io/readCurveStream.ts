@@ -46,32 +46,33 @@ const BINARY_FIX = "export the sweep as CSV or plain text";
 /** The file is read whole instead (a case the streamed reading does not decide alone). */
 class ReadWhole extends Error {}
 
-/** Growable column of numbers in blocks (no copy while it grows). */
-class Blocks {
-  private blocks: Float64Array[] = [];
-  private last: Float64Array = new Float64Array(0);
+/** Growable column of numbers in blocks (no copy while it grows); Float64 or Int32. */
+class Blocks<A extends Float64Array | Int32Array> {
+  private blocks: A[] = [];
+  private last: A;
   private used = 0;
   length = 0;
+  constructor(private readonly make: (n: number) => A) {
+    this.last = make(0);
+  }
   push(x: number): void {
     if (this.used === this.last.length) {
-      this.last = new Float64Array(Math.max(1024, Math.min(1 << 20, this.length)));
+      this.last = this.make(Math.max(1024, Math.min(1 << 20, this.length)));
       this.blocks.push(this.last);
       this.used = 0;
     }
     this.last[this.used++] = x;
     this.length++;
   }
-  /** The numbers in one array; the blocks are released. */
-  take(): Float64Array {
-    const out = new Float64Array(this.length);
-    let at = 0;
+  /** The numbers, copied into `into` from `at`; the blocks are released. */
+  drain(into: A, at = 0): A {
     for (let b = 0; b < this.blocks.length; b++) {
       const n = b === this.blocks.length - 1 ? this.used : this.blocks[b].length;
-      out.set(this.blocks[b].subarray(0, n), at);
+      into.set(this.blocks[b].subarray(0, n) as never, at);
       at += n;
     }
     this.blocks = [];
-    return out;
+    return into;
   }
 }
 
@@ -172,8 +173,8 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
   let batchCells: string[][] = [];
   let batchAbs: number[] = [];
   let batchText: string[] = [];
-  let columnsOut: (Blocks | null)[] = [];
-  const abs = new Blocks();
+  let columnsOut: (Blocks<Float64Array> | null)[] = [];
+  const abs = new Blocks((n) => new Int32Array(n));
   const badText = new Map<number, string>();
   let sums!: ReturnType<typeof resolutionSums>;
 
@@ -227,7 +228,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
     drop = format!.delimiter !== "whitespace" && splitLine(firstLine, format!.delimiter).length === table.ncols + 1;
     firstAbs = file.content[table.first];
     firstCells = table.rows[table.first];
-    columnsOut = stages.columns.map((c) => (c.role === "other" ? null : new Blocks()));
+    columnsOut = stages.columns.map((c) => (c.role === "other" ? null : new Blocks((n) => new Float64Array(n))));
     sums = resolutionSums(stages.columns);
     for (let r = table.first; r < table.rows.length; r++) {
       batchCells.push(table.rows[r]);
@@ -294,13 +295,13 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
   const nData = abs.length;
   const content = new Int32Array(table.first + nData);
   for (let r = 0; r < table.first; r++) content[r] = file.content[r];
-  content.set(abs.take(), table.first);
+  abs.drain(content, table.first);
   const lines = new Proxy([] as string[], {
     get: (target, prop) => (typeof prop === "string" && /^\d+$/.test(prop) ? (badText.get(Number(prop)) ?? file.lines[Number(prop)] ?? "") : Reflect.get(target, prop)),
   });
   const finalFile: TextLines = { lines, content: content as unknown as number[], comments: [], metadata };
   const finalTable: DataRows = { rows: { length: table.first + nData } as unknown as string[][], first: table.first, ncols: table.ncols };
-  const values: ColumnValues = columnsOut.map((b) => (b ? b.take() : null));
+  const values: ColumnValues = columnsOut.map((b) => (b ? b.drain(new Float64Array(b.length)) : null));
   return finishCurve({
     o,
     file: finalFile,

@@ -116,9 +116,8 @@ export function cutSweeps(
       `lines ${lineNumber(file, table.first + idx[s.start])}–${lineNumber(file, table.first + idx[s.end])}`;
     if (fullSegs) {
       for (const s of fullSegs) {
-        const order: number[] = [];
-        if (s.direction >= 0) for (let i = s.start; i <= s.end; i++) order.push(i);
-        else for (let i = s.end; i >= s.start; i--) order.push(i);
+        const order = new Int32Array(s.end - s.start + 1);
+        for (let i = 0; i < order.length; i++) order[i] = s.direction >= 0 ? s.start + i : s.end - i;
         sets.push(toSet(order));
         directions.add(s.direction >= 0 ? "ascending" : "descending");
       }
@@ -158,19 +157,22 @@ export function cutSweeps(
  * ----------
  * col : Float64Array
  *     Values by data row.
- * idx : readonly number[]
- *     Data rows to take, in order.
+ * idx : ArrayLike<number>
+ *     Data rows to take, ascending and distinct (as {@link keepCompleteRows} gives them).
  *
  * Returns
  * -------
  * Float64Array
- *     A new array, `col[idx[i]]` at `i`.
+ *     `col[idx[i]]` at `i`: a new array, or `col` itself when every row is taken (not to be
+ *     written to).
  *
  * Example
  * -------
  * pickRows(Float64Array.of(5, 6, 7), [2, 0]);  // => Float64Array [7, 5]
  */
-export function pickRows(col: Float64Array, idx: readonly number[]): Float64Array {
+export function pickRows(col: Float64Array, idx: ArrayLike<number>): Float64Array {
+  // Every row kept (ascending and distinct, so the identity): the column itself, not a copy.
+  if (idx.length === col.length) return col;
   const out = new Float64Array(idx.length);
   for (let i = 0; i < idx.length; i++) out[i] = col[idx[i]];
   return out;
