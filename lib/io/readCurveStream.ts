@@ -64,15 +64,47 @@ class Blocks<A extends Float64Array | Int32Array> {
     this.last[this.used++] = x;
     this.length++;
   }
-  /** The numbers, copied into `into` from `at`; the blocks are released. */
+  /** The numbers, copied into `into` from `at`; each block is released as soon as it is copied. */
   drain(into: A, at = 0): A {
-    for (let b = 0; b < this.blocks.length; b++) {
-      const n = b === this.blocks.length - 1 ? this.used : this.blocks[b].length;
-      into.set(this.blocks[b].subarray(0, n) as never, at);
-      at += n;
-    }
+    const blocks = this.blocks;
     this.blocks = [];
+    for (let b = 0; b < blocks.length; b++) {
+      const n = b === blocks.length - 1 ? this.used : blocks[b].length;
+      into.set(blocks[b].subarray(0, n) as never, at);
+      at += n;
+      (blocks as (A | null)[])[b] = null;
+    }
+    this.last = this.make(0);
     return into;
+  }
+}
+
+/**
+ * The line index of each data row, kept as runs of consecutive lines (a run per comment or blank
+ * line inside the data): a few numbers instead of one per row.
+ */
+class LineRuns {
+  private rows: number[] = [];
+  private lines: number[] = [];
+  private next = -1;
+  count = 0;
+  push(line: number): void {
+    if (line !== this.next) {
+      this.rows.push(this.count);
+      this.lines.push(line);
+    }
+    this.next = line + 1;
+    this.count++;
+  }
+  /** The line index of data row k (from 0). */
+  at(k: number): number {
+    let lo = 0, hi = this.rows.length - 1;
+    while (lo < hi) {
+      const mid = (lo + hi + 1) >> 1;
+      if (this.rows[mid] <= k) lo = mid;
+      else hi = mid - 1;
+    }
+    return this.lines[lo] + (k - this.rows[lo]);
   }
 }
 
@@ -118,8 +150,9 @@ class Blocks<A extends Float64Array | Int32Array> {
  * 6. One case is left to the whole-text importer: a head whose data rows all end in an empty
  *    cell (a trailing delimiter, dropped) followed by a row that does not. The file is then read
  *    whole, and so is a file whose head would exceed `maxHeadLines` lines.
- * Memory: one chunk of text and one batch of rows, the columns of numbers (8 bytes per value) and
- * the line number of each data row (4 bytes), then what the last stages allocate.
+ * Memory: one chunk of text and one batch of rows, and the columns of numbers (8 bytes per value;
+ * line numbers are kept as runs), then what the last stages allocate: for a single ascending
+ * sweep with no missing values only the mean current (the columns are not copied).
  *
  * Example
  * -------
@@ -174,7 +207,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
   let batchAbs: number[] = [];
   let batchText: string[] = [];
   let columnsOut: (Blocks<Float64Array> | null)[] = [];
-  const abs = new Blocks((n) => new Int32Array(n));
+  const abs = new LineRuns();
   const badText = new Map<number, string>();
   let sums!: ReturnType<typeof resolutionSums>;
 
@@ -292,14 +325,22 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
     metadata = again.metadata;
   }
 
-  const nData = abs.length;
-  const content = new Int32Array(table.first + nData);
-  for (let r = 0; r < table.first; r++) content[r] = file.content[r];
-  abs.drain(content, table.first);
+  const nData = abs.count;
+  // Content row r: a head row before the data, else data row r − first (read from the runs; only
+  // messages ask, so nothing per row is stored).
+  const headContent = file.content;
+  const first = table.first;
+  const content = new Proxy([] as number[], {
+    get: (target, prop) => {
+      if (typeof prop !== "string" || !/^\d+$/.test(prop)) return Reflect.get(target, prop);
+      const r = Number(prop);
+      return r < first ? headContent[r] : abs.at(r - first);
+    },
+  });
   const lines = new Proxy([] as string[], {
     get: (target, prop) => (typeof prop === "string" && /^\d+$/.test(prop) ? (badText.get(Number(prop)) ?? file.lines[Number(prop)] ?? "") : Reflect.get(target, prop)),
   });
-  const finalFile: TextLines = { lines, content: content as unknown as number[], comments: [], metadata };
+  const finalFile: TextLines = { lines, content, comments: [], metadata };
   const finalTable: DataRows = { rows: { length: table.first + nData } as unknown as string[][], first: table.first, ncols: table.ncols };
   const values: ColumnValues = columnsOut.map((b) => (b ? b.drain(new Float64Array(b.length)) : null));
   return finishCurve({

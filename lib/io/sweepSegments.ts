@@ -140,8 +140,8 @@ export interface MergedSweep {
  *     Bias of every row, V.
  * columns : ArrayLike<number>[]
  *     Values of every row, one array per column (any unit).
- * order : ArrayLike<number>
- *     Row indices in ascending bias order (ties adjacent).
+ * order : ArrayLike<number> | null
+ *     Row indices in ascending bias order (ties adjacent); null for the rows as they are.
  *
  * Returns
  * -------
@@ -162,15 +162,16 @@ export interface MergedSweep {
 export function mergeDuplicates(
   biasV: ArrayLike<number>,
   columns: readonly ArrayLike<number>[],
-  order: ArrayLike<number>,
+  orderOrNull: ArrayLike<number> | null,
 ): MergedSweep {
-  const n = order.length;
+  const n = orderOrNull === null ? biasV.length : orderOrNull.length;
   // Rows already in order with no repeated bias (a whole ascending sweep): the arrays themselves.
   if (n === biasV.length && biasV instanceof Float64Array && columns.every((c) => c instanceof Float64Array && c.length === n)) {
     let plain = true;
-    for (let i = 0; i < n && plain; i++) plain = order[i] === i && (i === 0 || biasV[i] > biasV[i - 1]);
+    for (let i = 0; i < n && plain; i++) plain = (orderOrNull === null || orderOrNull[i] === i) && (i === 0 || biasV[i] > biasV[i - 1]);
     if (plain) return { biasV, values: columns as Float64Array[], merged: 0 };
   }
+  const order: ArrayLike<number> = orderOrNull ?? Int32Array.from({ length: n }, (_, i) => i);
   const outBias = new Float64Array(n);
   const outValues = columns.map(() => new Float64Array(n));
   let m = 0;

@@ -100,11 +100,12 @@ export function cutSweeps(
   let duplicatesMerged = 0;
   for (let k = 0; k < groups.length; k++) {
     const g = groups[k];
-    const idx = kept.perGroup[k];
-    const gb = pickRows(values[g.bias]!, idx);
-    const gcols = [...g.currents, ...g.conductances].map((c) => pickRows(values[c]!, idx));
+    const rows = kept.perGroup[k];
+    const idx = (i: number) => (rows === null ? i : rows[i]);
+    const gb = rows === null ? values[g.bias]! : pickRows(values[g.bias]!, rows);
+    const gcols = [...g.currents, ...g.conductances].map((c) => (rows === null ? values[c]! : pickRows(values[c]!, rows)));
     const nc = g.currents.length;
-    const toSet = (order: ArrayLike<number>): SweepSet => {
+    const toSet = (order: ArrayLike<number> | null): SweepSet => {
       const m = mergeDuplicates(gb, gcols, order);
       duplicatesMerged += m.merged;
       return { biasV: m.biasV, currents: m.values.slice(0, nc), conductances: m.values.slice(nc) };
@@ -113,11 +114,13 @@ export function cutSweeps(
     const fullSegs = segs.length === 1 ? segs : chooseSweeps(gb, segs, minPoints, FULL_SWEEP_SHARE);
     const name = describeColumn(columns[g.bias]);
     const lineRange = (s: Segment) =>
-      `lines ${lineNumber(file, table.first + idx[s.start])}–${lineNumber(file, table.first + idx[s.end])}`;
+      `lines ${lineNumber(file, table.first + idx(s.start))}–${lineNumber(file, table.first + idx(s.end))}`;
     if (fullSegs) {
       for (const s of fullSegs) {
-        const order = new Int32Array(s.end - s.start + 1);
-        for (let i = 0; i < order.length; i++) order[i] = s.direction >= 0 ? s.start + i : s.end - i;
+        // A whole ascending column needs no list of rows (null: in order).
+        const whole = s.direction >= 0 && s.start === 0 && s.end === gb.length - 1;
+        const order = whole ? null : new Int32Array(s.end - s.start + 1);
+        if (order) for (let i = 0; i < order.length; i++) order[i] = s.direction >= 0 ? s.start + i : s.end - i;
         sets.push(toSet(order));
         directions.add(s.direction >= 0 ? "ascending" : "descending");
       }
