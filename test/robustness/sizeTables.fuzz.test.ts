@@ -10,7 +10,7 @@ import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
 import { writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { parseOpticalTable, parseSizeMeta, readOpticalFile, readSizeMetaFile } from "../../lib/index.ts";
+import { parseMaterialJson, parseOpticalTable, parseSizeMeta, readOpticalFile, readSizeMetaFile } from "../../lib/index.ts";
 import { decodeTextBytes } from "../../lib/io/decodeTextBytes.ts";
 import { joinBytes, outcomeOf, utf16Bytes, utf8Bytes } from "../helpers/fuzz.ts";
 import { removeTempDirs, tempDir } from "../cli/harness.ts";
@@ -196,4 +196,26 @@ describe("encodings and layouts a table may come in (through the file readers)",
     for (let i = 0; i < rows; i++) o.push(`${(1 + i / rows).toFixed(7)},${(2 + (i % 100) / 100).toFixed(2)}`);
     expect(parseOpticalTable(o.join("\n"), OPTICAL).length).toBe(rows);
   }, 60_000);
+});
+
+describe("parseMaterialJson(text): the material file of a size series", () => {
+  const MATERIAL = "material.json";
+  const value = fc.oneof(fc.double(), fc.constantFrom(0, -1, 1e-320, 1e308, 0.1, 1, 10), fc.string({ maxLength: 6 }), fc.constantFrom(null, true, [], {}));
+  const keys = fc.constantFrom("base", "electronMassE", "holeMassE", "epsilonR", "bulkGapEV", "name", "x", "__proto__");
+  it("random JSON text, and objects of random material fields: a material with finite numbers or a one-line error naming the file (1,500 cases)", () => {
+    fc.assert(
+      fc.property(
+        fc.oneof(
+          fc.string({ maxLength: 40 }),
+          fc.json(),
+          fc.dictionary(keys, value, { maxKeys: 5 }).map((o) => JSON.stringify({ base: "InP", ...o })),
+          fc.dictionary(keys, value, { maxKeys: 5 }).map((o) => JSON.stringify(o, null, 2).slice(0, 30)),
+        ),
+        (text) => {
+          outcomeOf(() => parseMaterialJson(text, MATERIAL), { source: MATERIAL, lineCodes: ["io/invalid-json"] });
+        },
+      ),
+      { seed: 12106, numRuns: 1500 },
+    );
+  });
 });
