@@ -35,6 +35,8 @@ export {
 export type { ColumnRole } from "./io/readColumnHeader.ts";
 export type { Delimiter } from "./io/cells.ts";
 export { parseCurveBytes } from "./io/parseCurveBytes.ts";
+export { decodeTextBytes, type DecodedText } from "./io/decodeTextBytes.ts";
+export { parseJsonText } from "./io/parseJsonText.ts";
 export { CURVE_CSV_DIGITS, escapeFormulaCell, formatCsv, formatCurveCsv, type CellValue, type CurveColumns, type FormatCurveCsvOptions } from "./io/formatCsv.ts";
 export { DOTSPEC_VERSION } from "./util/version.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./io/etaFromMetadata.ts";
