@@ -11,7 +11,7 @@ export type FileEncoding = "utf-8" | "utf-16le" | "utf-16be" | "windows-1252";
 
 /** Options of {@link forEachFileLine}. */
 export interface FileLinesOptions {
-  /** Bytes read per call. Default: FILE_LINES_DEFAULTS.chunkBytes (4194304, 4 MiB). */
+  /** Bytes read per call. Default: FILE_LINES_DEFAULTS.chunkBytes (1048576, 1 MiB). */
   chunkBytes?: number;
   /** Called after each chunk with the bytes read so far and the file's size. Default: none. */
   onBytes?: (doneBytes: number, totalBytes: number) => void;
@@ -23,7 +23,7 @@ export interface FileLinesOptions {
 
 /** Defaults of {@link forEachFileLine} (locked by a test). */
 export const FILE_LINES_DEFAULTS = Object.freeze({
-  chunkBytes: 4 * 1024 * 1024,
+  chunkBytes: 1024 * 1024,
 });
 
 /** The code thrown when a file read as UTF-8 is not valid UTF-8 (the caller reads it again as Windows-1252). */
@@ -71,7 +71,7 @@ function open(path: string): number {
  *     Called with each line (without its line end) and its index from 0, exactly the lines of
  *     `text.split(/\r\n|\r|\n/)` on the whole decoded text (a byte-order mark dropped).
  * options : FileLinesOptions, optional
- *     chunkBytes (default 4 MiB), onBytes (progress), what (for messages).
+ *     chunkBytes (default 1 MiB), onBytes (progress), what (for messages).
  *
  * Throws
  * ------

@@ -22,9 +22,9 @@ import { statSync } from "node:fs";
 
 /** Options of {@link readCurveStream} besides those of the importer. */
 export interface CurveStreamOptions {
-  /** Bytes read per call. Default: FILE_LINES_DEFAULTS.chunkBytes (4194304, 4 MiB). */
+  /** Bytes read per call. Default: FILE_LINES_DEFAULTS.chunkBytes (1048576, 1 MiB). */
   chunkBytes?: number;
-  /** Data rows read into numbers at a time. Default: CURVE_STREAM_DEFAULTS.batchRows (65536). */
+  /** Data rows read into numbers at a time. Default: CURVE_STREAM_DEFAULTS.batchRows (4096). */
   batchRows?: number;
   /** Called as the file is read, with the fraction done (0 … 1). Default: none. */
   onProgress?: (fraction: number) => void;
@@ -32,7 +32,7 @@ export interface CurveStreamOptions {
 
 /** Defaults of {@link readCurveStream} (locked by a test). */
 export const CURVE_STREAM_DEFAULTS = Object.freeze({
-  batchRows: 65_536,
+  batchRows: 4096,
   /** Data rows the head holds after the first (the importer looks at the first 10 for a row-number column). */
   headDataRows: 10,
   /** A head that needs more lines than this is not a table worth streaming: the file is read whole. */
@@ -110,7 +110,7 @@ class LineRuns {
  * options : ParseOptions, optional
  *     As for {@link parseCurveText}; `source` defaults to the path.
  * stream : CurveStreamOptions, optional
- *     chunkBytes (4 MiB), batchRows (65,536), onProgress.
+ *     chunkBytes (1 MiB), batchRows (4,096), onProgress.
  *
  * Returns
  * -------
@@ -143,7 +143,7 @@ class LineRuns {
  *    cell (a trailing delimiter, dropped) followed by a row that does not. The file is then read
  *    whole, and so is a file whose head would exceed `maxHeadLines` lines.
  * Memory: one chunk of text and one batch of rows, and the columns of numbers (8 bytes per value,
- * allocated once at an estimate of the row count from the file's size, 10 % spare; line numbers
+ * allocated once at an estimate of the row count from the file's size, 5 % spare; line numbers
  * are kept as runs), then what the last stages allocate: for a single ascending sweep with no
  * missing values only the mean current (the columns are not copied).
  *
@@ -255,7 +255,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
     drop = format!.delimiter !== "whitespace" && splitLine(firstLine, format!.delimiter).length === table.ncols + 1;
     firstAbs = file.content[table.first];
     firstCells = table.rows[table.first];
-    // The columns' final length, estimated from the bytes per data row of the head (10 % spare).
+    // The columns' final length, estimated from the bytes per data row of the head (5 % spare).
     let headBytes = 0;
     for (const l of head) headBytes += l.length + 1;
     let rowBytes = 0;
@@ -263,7 +263,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
     const perChar = encoding === "utf-16le" || encoding === "utf-16be" ? 2 : 1;
     const headRows = table.rows.length - table.first;
     const estimate = headRows + Math.max(0, (fileBytes - perChar * headBytes) / ((perChar * rowBytes) / headRows));
-    const capacity = Math.min(2 ** 31 - 1, Math.ceil(1.1 * estimate) + 1024);
+    const capacity = Math.min(2 ** 31 - 1, Math.ceil(1.05 * estimate) + 1024);
     columnsOut = stages.columns.map((c) => (c.role === "other" ? null : new Column(capacity)));
     sums = resolutionSums(stages.columns);
     for (let r = table.first; r < table.rows.length; r++) {

@@ -26,7 +26,7 @@ import { startsLikeNumber } from "./cells.ts";
 export interface ReadGridTableFileOptions {
   /** Called as the file is read, with the fraction done (0 … 1; the file is read twice). Default: none. */
   onProgress?: (fraction: number) => void;
-  /** Bytes read per call. Default: FILE_LINES_DEFAULTS.chunkBytes (4194304, 4 MiB). */
+  /** Bytes read per call. Default: FILE_LINES_DEFAULTS.chunkBytes (1048576, 1 MiB). */
   chunkBytes?: number;
 }
 
@@ -38,7 +38,7 @@ export interface ReadGridTableFileOptions {
  * path : string
  *     The table (any size; the text is never held whole).
  * options : ReadGridTableFileOptions, optional
- *     onProgress (fraction read), chunkBytes (default 4 MiB).
+ *     onProgress (fraction read), chunkBytes (default 1 MiB).
  *
  * Returns
  * -------

@@ -67,9 +67,9 @@ describe("forEachFileLine(path): the lines of a file, read in chunks", () => {
   });
 
   it("FILE_LINES_DEFAULTS, CURVE_STREAM_DEFAULTS and GRID_TABLE_ROWS_DEFAULTS are as documented (locked)", () => {
-    // common practice (no source): 4 MiB reads; batches of 2^16 rows; the importer's 50-line sample and 10-row look at a row-number column
-    expect(FILE_LINES_DEFAULTS).toEqual({ chunkBytes: 4 * 1024 * 1024 });
-    expect(CURVE_STREAM_DEFAULTS).toEqual({ batchRows: 65_536, headDataRows: 10, maxHeadLines: 200_000, keptBadRows: 10_000 });
+    // common practice (no source): 1 MiB reads; batches of 2^12 rows (short-lived, so collected young); the importer's 50-line sample and 10-row look at a row-number column
+    expect(FILE_LINES_DEFAULTS).toEqual({ chunkBytes: 1024 * 1024 });
+    expect(CURVE_STREAM_DEFAULTS).toEqual({ batchRows: 4096, headDataRows: 10, maxHeadLines: 200_000, keptBadRows: 10_000 });
     expect(GRID_TABLE_ROWS_DEFAULTS).toEqual({ sampleLines: 50, headLines: 100_000, maxDistinct: 1_000_000 });
     for (const o of [FILE_LINES_DEFAULTS, CURVE_STREAM_DEFAULTS, GRID_TABLE_ROWS_DEFAULTS]) expect(Object.isFrozen(o)).toBe(true);
   });
