@@ -1,7 +1,7 @@
 // dotspec fit and dotspec grid under the rules analyze follows: fit records and figures carry the
 // provenance (version, options as given, the input's name, size and SHA-256) and the run ends with
 // the count line; grid --out claims its folder with the manifest and refuses others' files unless
-// --force. Expectations: SHA-256 of the input by node:crypto (inputDigest, checked against the
+// --force; a streamed grid table shows a reading bar on a terminal. Expectations: SHA-256 of the input by node:crypto (inputDigest, checked against the
 // FIPS 180-2 vector in provenance.test.ts), package.json for the version, by construction otherwise.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readFileSync, readdirSync, writeFileSync } from "node:fs";
@@ -108,4 +108,24 @@ describe("dotspec grid --out DIR: whose files are in DIR", () => {
     const here = await run(["grid", table, "--eta", "0.8", "--out", join(table, "..")]);
     expect(here.code).toBe(2);
   }, 60_000);
+});
+
+describe("progress bars while a big input is streamed (on a terminal)", () => {
+  it("dotspec grid shows a reading bar in MB for a long table of 8 MB on a terminal, and none when stderr is not a terminal", async () => {
+    const c = sphereDotCube({ nx: 16, ny: 16, stepNM: 0.5 });
+    const nb = c.biasV.count;
+    const lines = ["x (nm),y (nm),bias (V),current (A)"];
+    for (let rep = 0; rep < 4; rep++) for (let iy = 0; iy < 16; iy++) for (let ix = 0; ix < 16; ix++) for (let k = 0; k < nb; k++) {
+      lines.push(`${(c.xNM.start + ix * c.xNM.step).toFixed(4)},${(c.yNM.start + iy * c.yNM.step).toFixed(4)},${(c.biasV.start + k * c.biasV.step).toFixed(6)},${c.currentA[(iy * 16 + ix) * nb + k].toExponential(8)}`);
+    }
+    const big = join(tempDir("dotspec-gridin-"), "big.csv");
+    writeFileSync(big, lines.join("\n") + "\n");
+    // by construction: more than 5 MB, so the bar (shown for more than 5 units) appears
+    expect(readFileSync(big).length).toBeGreaterThan(5e6);
+    const tty = await run(["grid", big, "--eta", "0.8", "--json"], { stderrTTY: true });
+    expect(tty.code).toBe(0);
+    expect(tty.stderr).toMatch(/read \[[#-]+\] \d+\/\d+ MB/);
+    const plain = await run(["grid", big, "--eta", "0.8", "--json"]);
+    expect(plain.stderr).not.toMatch(/read \[/);
+  }, 120_000);
 });

@@ -169,7 +169,7 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
   let reading: Progress | null = null;
   try {
     // Reading a long table streams it; its bar shows only on a terminal, in MB read.
-    const sizeMB = Number.isFinite(bytes) ? Math.ceil(bytes / 1e6) : 0;
+    const sizeMB = Number.isFinite(bytes) && !/\.npy$/i.test(input) ? Math.ceil(bytes / 1e6) : 0;
     reading = startProgress(sizeMB, ctx.stderr, "read", "MB");
     let readMB = 0;
     const file = readGridFile(input, {
