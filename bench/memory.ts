@@ -4,7 +4,8 @@
  * The files are invented (a sinh-shaped current; a grid whose current is x·y·V) and written into a
  * temporary folder, then removed. Each child reads with the library's Node readers
  * (readCurveFile, readGridFile) and, unless --read-only, also runs the command itself
- * (`dotspec analyze FILE --json`, `dotspec grid FILE --json`) under /usr/bin/time.
+ * (`dotspec analyze FILE --json`, `dotspec grid FILE --json`) under /usr/bin/time. A row says
+ * "failed" when the child exits with another status than 0.
  *
  *   npm run bench:memory                  # both files, about 500 MB each
  *   npm run bench:memory -- --mb 100      # smaller files
@@ -51,7 +52,7 @@ function measure(argv: string[]): { seconds: number; maxRssMB: number; ok: boole
   const r = spawnSync("/usr/bin/time", ["-f", "MAXRSS_KB %M", ...argv], { encoding: "utf8", maxBuffer: 1 << 30 });
   const seconds = Number(process.hrtime.bigint() - t0) / 1e9;
   const m = /MAXRSS_KB (\d+)/.exec(r.stderr ?? "");
-  return { seconds, maxRssMB: m ? Number(m[1]) / 1024 : NaN, ok: r.status === 0 || r.status === 1, tail: (r.stderr ?? "").slice(-400) };
+  return { seconds, maxRssMB: m ? Number(m[1]) / 1024 : NaN, ok: r.status === 0, tail: (r.stderr ?? "").slice(-400) };
 }
 
 const bytes = targetMB * 1e6;
@@ -61,18 +62,19 @@ const curveRows = only === "grid" ? 0 : writeLines(
   (i) => `${(-2 + i * 1e-7).toFixed(7)},${(1e-9 * Math.sinh(-2 + i * 1e-7)).toExponential(6)}`,
   bytes,
 );
-const nb = 1000;
+// Biases −1 … 1 V in steps of 2 mV, written exactly (a regular grid, as the reader requires).
+const nb = 1001;
 const nx = 200;
 const gridRows = only === "curve" ? 0 : writeLines(
   join(dir, "grid.csv"),
   ["# invented benchmark grid (not a measurement)", "x (nm),y (nm),bias (V),current (pA)"],
   (i) => {
     const b = i % nb, p = Math.floor(i / nb), x = p % nx, y = Math.floor(p / nx);
-    return `${(0.1 * x).toFixed(1)},${(0.1 * y).toFixed(1)},${(-1 + (2 * b) / (nb - 1)).toFixed(5)},${(x * y * (b - nb / 2) * 1e-4).toExponential(4)}`;
+    return `${(0.1 * x).toFixed(1)},${(0.1 * y).toFixed(1)},${(-1 + 0.002 * b).toFixed(3)},${(x * y * (b - 500) * 1e-4).toExponential(4)}`;
   },
   bytes,
 );
-// Whole sweeps only: the last pixel row complete (a grid reader flags incomplete pixels, which is fine too).
+// The last pixel row may be incomplete: the grid reader flags its pixels as missing.
 const reader = join(dir, "read.mts");
 writeFileSync(
   reader,
