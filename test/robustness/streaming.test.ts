@@ -9,9 +9,9 @@
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { writeFileSync } from "node:fs";
+import { statSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
-import { parseCurveBytes } from "../../lib/index.ts";
+import { parseCurveBytes, readCurveFile, readGridFile, STREAM_CURVE_FILE_BYTES } from "../../lib/index.ts";
 import { FILE_LINES_DEFAULTS, forEachFileLine, withFileEncoding } from "../../lib/io/fileLines.ts";
 import { CURVE_STREAM_DEFAULTS, readCurveStream } from "../../lib/io/readCurveStream.ts";
 import { GRID_TABLE_ROWS_DEFAULTS } from "../../lib/io/gridTableRows.ts";
@@ -178,4 +178,35 @@ console.log(JSON.stringify({ nx: cube.xNM.count, ny: cube.yNM.count, nb: cube.bi
     expect([got.nx, got.ny, got.nb]).toEqual([50, 30, 1000]);
     expect(got.last).toBeCloseTo(49 * 29 * 499e-3 * 1e-12, 20);
   }, 180_000);
+});
+
+describe("progress while a big file is streamed", () => {
+  it("readCurveFile(path, options, onProgress) on a file over STREAM_CURVE_FILE_BYTES reports a rising fraction that ends at 1", () => {
+    const path = join(dir, "progress.csv");
+    const rows = 700_000;
+    const parts: string[] = ["bias (V),current (A)"];
+    for (let i = 0; i < rows; i++) parts.push(`${(-2 + (4 * i) / (rows - 1)).toFixed(8)},${(1e-9 * Math.sinh((4 * i) / (rows - 1) - 2)).toExponential(6)}`);
+    writeFileSync(path, parts.join("\n") + "\n");
+    // by construction: the file is above the streaming threshold
+    expect(statSync(path).size).toBeGreaterThan(STREAM_CURVE_FILE_BYTES);
+    const seen: number[] = [];
+    const { curve } = readCurveFile(path, {}, (f) => seen.push(f));
+    expect(curve.biasV.length).toBe(rows);
+    expect(seen.length).toBeGreaterThan(5);
+    for (let i = 1; i < seen.length; i++) expect(seen[i]).toBeGreaterThanOrEqual(seen[i - 1]);
+    expect(seen[seen.length - 1]).toBe(1);
+  }, 120_000);
+
+  it("readGridFile(path, { onProgress }) on a long table reports a rising fraction over its two passes, ending at 1", () => {
+    const path = join(dir, "progress-grid.csv");
+    const parts: string[] = ["x (nm),y (nm),bias (V),current (A)"];
+    for (let j = 0; j < 10; j++) for (let i = 0; i < 10; i++) for (let b = 0; b < 2001; b++) parts.push(`${i},${j},${(-1 + b * 0.001).toFixed(3)},${i * j * b * 1e-15}`);
+    writeFileSync(path, parts.join("\n") + "\n");
+    const seen: number[] = [];
+    readGridFile(path, { onProgress: (f) => seen.push(f) });
+    for (let i = 1; i < seen.length; i++) expect(seen[i]).toBeGreaterThanOrEqual(seen[i - 1]);
+    // closed form: the second pass starts at one half (the file is read twice)
+    expect(seen.some((f) => f > 0.5)).toBe(true);
+    expect(seen[seen.length - 1]).toBe(1);
+  }, 120_000);
 });
