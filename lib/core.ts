@@ -39,6 +39,8 @@ export {
 export type { ColumnRole } from "./io/readColumnHeader.ts";
 export type { Delimiter } from "./io/cells.ts";
 export { parseCurveBytes } from "./io/parseCurveBytes.ts";
+export { decodeTextBytes, type DecodedText } from "./io/decodeTextBytes.ts";
+export { parseJsonText } from "./io/parseJsonText.ts";
 export { CURVE_CSV_DIGITS, escapeFormulaCell, formatCsv, formatCurveCsv, type CellValue, type CurveColumns, type FormatCurveCsvOptions } from "./io/formatCsv.ts";
 export { DOTSPEC_VERSION } from "./util/version.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./io/etaFromMetadata.ts";
@@ -122,7 +124,6 @@ export { parseGridSidecar, type GridSidecar } from "./io/gridSidecar.ts";
 export { parseGridTable, GRID_TABLE_DEFAULTS, type ParseGridTableOptions, type GridTableRecord } from "./io/parseGridTable.ts";
 export { parseNpyGridBytes, npyGridDataBytes, npyGridCube, PARSE_NPY_GRID_BYTES_DEFAULTS, type NpyGridResult, type ParseNpyGridBytesOptions } from "./io/parseNpyGridBytes.ts";
 export { parseGridBytes, gridSidecarName, isNpyGridName, PARSE_GRID_BYTES_DEFAULTS, type GridFileResult, type ParseGridBytesOptions } from "./io/parseGridBytes.ts";
-export { parseJsonText } from "./io/parseJsonText.ts";
 export { gridToJson, gridProfileRows, GRID_JSON_VERSION, GRID_PROFILE_COLUMNS, type GridJson, type GridMapJson } from "./report/gridJson.ts";
 // Grid map figures load Observable Plot (and jsdom with a PNG canvas in Node) on demand: `const draw = await loadGridMapFigure()`.
 export { loadGridMapFigure, type GridMapFigureRenderer } from "./report/loadGridMapFigure.ts";

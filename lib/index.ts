@@ -6,7 +6,9 @@
 export * from "./core.ts";
 
 // File I/O (Node only).
-export { CURVE_FILE_EXTENSIONS, MAX_CURVE_FILE_BYTES, listCurveFiles, readCurveFile, type ReadCurveOptions } from "./io/readCurveFile.ts";
+export { CURVE_FILE_EXTENSIONS, MAX_CURVE_FILE_BYTES, STREAM_CURVE_FILE_BYTES, listCurveFiles, readCurveFile, type ReadCurveOptions } from "./io/readCurveFile.ts";
+export { CURVE_STREAM_DEFAULTS, readCurveStream, type CurveStreamOptions } from "./io/readCurveStream.ts";
+export { FILE_LINES_DEFAULTS, forEachFileLine, withFileEncoding, type FileEncoding, type FileLinesOptions } from "./io/fileLines.ts";
 export { readJsonFile } from "./io/readJsonFile.ts";
 export { writeTextFile } from "./io/writeTextFile.ts";
 export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./io/readSizeTables.ts";
@@ -24,3 +26,4 @@ export {
 // Grid spectroscopy, Node-only parts: reading cubes from files (the readers of bytes are in lib/core.ts).
 export { readNpyGrid, READ_NPY_DEFAULTS, type ReadNpyGridOptions } from "./io/readNpyGrid.ts";
 export { readGridFile, fileBytes, type ReadGridFileOptions } from "./io/readGridFile.ts";
+export { readGridTableFile, type ReadGridTableFileOptions } from "./io/readGridTableFile.ts";

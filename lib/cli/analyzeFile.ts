@@ -95,9 +95,10 @@ export interface AnalyzedFile {
  * -------
  * analyzeCurveFile("dot-01.csv", { analyze: {}, read: {} }).json.energies.eta; // => 0.88 (from its `# eta:` line)
  */
-export function analyzeCurveFile(file: string, options: RecordedOptions, command = "analyze"): AnalyzedFile {
+export function analyzeCurveFile(file: string, options: RecordedOptions, command = "analyze", onReadProgress?: (fraction: number) => void): AnalyzedFile {
   const digest = inputDigest(file);
-  const { curve, record } = readCurveFile(file, options.read);
+  // A large file is streamed; onReadProgress hears how far (it is not an option: nothing is recorded).
+  const { curve, record } = readCurveFile(file, options.read, onReadProgress);
   // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
   const { eta, note } = etaForCurve(options.analyze.eta, curve);
   const analysis = analyzeCurve(curve, eta === undefined ? options.analyze : { ...options.analyze, eta });
@@ -128,6 +129,8 @@ function failedProvenance(file: string, options: RecordedOptions, command: strin
  *     Analysis options and output choices.
  * figure : () => Promise<CurveFigureRenderer>
  *     Supplies the figure function (loaded once by the caller), called only with --out.
+ * onReadProgress : (file, fraction) => void, optional
+ *     Hears how far a streamed (large) file has been read, 0 … 1 (in this thread only).
  *
  * Returns
  * -------
@@ -140,11 +143,16 @@ function failedProvenance(file: string, options: RecordedOptions, command: strin
  * With --out, the figure is drawn before anything is written, and the JSON and SVG are written
  * before the result counts as a success.
  */
-export async function analyzeFile(job: AnalyzeJob, settings: AnalyzeBatchSettings, figure: () => Promise<CurveFigureRenderer>): Promise<AnalyzeJobResult> {
+export async function analyzeFile(
+  job: AnalyzeJob,
+  settings: AnalyzeBatchSettings,
+  figure: () => Promise<CurveFigureRenderer>,
+  onReadProgress?: (file: string, fraction: number) => void,
+): Promise<AnalyzeJobResult> {
   const { index, file } = job;
   const options: RecordedOptions = { analyze: settings.options, read: settings.read };
   try {
-    const { curve, analysis, json: result } = analyzeCurveFile(file, options);
+    const { curve, analysis, json: result } = analyzeCurveFile(file, options, "analyze", onReadProgress ? (f) => onReadProgress(file, f) : undefined);
     let row: SummaryRow | null = null;
     if (settings.outDir !== null && job.outName !== null) {
       const svg = svgWithProvenance((await figure())(analysis, { curve }), result.provenance!);

@@ -43,6 +43,7 @@ export async function runAnalyzeJobs(
   threads: number,
   onResult: (result: AnalyzeJobResult) => void,
   stop: () => boolean = () => false,
+  onReadProgress?: (file: string, fraction: number) => void,
 ): Promise<void> {
   let figure: Promise<CurveFigureRenderer> | null = null;
   const loadFigure = () => (figure ??= loadCurveFigure());
@@ -52,7 +53,7 @@ export async function runAnalyzeJobs(
     // Let the event loop run between files (stream errors, the progress bar's timer).
     await new Promise<void>((resolve) => setImmediate(resolve));
     if (stop()) return;
-    onResult(await analyzeFile(job, settings, loadFigure));
+    onResult(await analyzeFile(job, settings, loadFigure, onReadProgress));
   }
 }
 

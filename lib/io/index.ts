@@ -35,6 +35,11 @@ export {
   type ReadCurveOptions,
 } from "./readCurveFile.ts";
 export { parseCurveBytes } from "./parseCurveBytes.ts";
+export { decodeTextBytes, type DecodedText } from "./decodeTextBytes.ts";
+export { parseJsonText } from "./parseJsonText.ts";
+export { STREAM_CURVE_FILE_BYTES } from "./readCurveFile.ts";
+export { CURVE_STREAM_DEFAULTS, readCurveStream, type CurveStreamOptions } from "./readCurveStream.ts";
+export { FILE_LINES_DEFAULTS, forEachFileLine, withFileEncoding, type FileEncoding, type FileLinesOptions } from "./fileLines.ts";
 export { CURVE_CSV_DIGITS, escapeFormulaCell, formatCsv, formatCurveCsv, type CellValue, type CurveColumns, type FormatCurveCsvOptions } from "./formatCsv.ts";
 export { writeTextFile } from "./writeTextFile.ts";
 export { etaFromMetadata, ETA_METADATA_KEYS } from "./etaFromMetadata.ts";

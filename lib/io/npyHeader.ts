@@ -96,7 +96,7 @@ export function parseNpyHeader(bytes: Uint8Array, source = "NPY file"): NpyHeade
     .filter((s) => s !== "")
     .map((s) => {
       const n = Number(s.replace(/L$/, ""));
-      if (!Number.isInteger(n) || n < 0) throw bad(`has a shape entry that is not a non-negative integer (${s})`);
+      if (!Number.isSafeInteger(n) || n < 0) throw bad(`has a shape entry that is not a non-negative integer below 2^53 (${s.slice(0, 40)})`);
       return n;
     });
   const descr = descrMatch[1];

@@ -4,6 +4,7 @@
  * reads it exactly as `readCurveFile` reads it from disk.
  */
 import { DotspecError } from "../util/errors.ts";
+import { decodeTextBytes } from "./decodeTextBytes.ts";
 import { parseCurveText, type ParseOptions, type ParsedCurve } from "./parse/index.ts";
 
 /**
@@ -47,28 +48,8 @@ export function parseCurveBytes(bytes: Uint8Array, options: ParseOptions = {}): 
     throw new DotspecError("io/not-bytes", `parseCurveBytes: bytes must be a Uint8Array (the file's content); got ${bytes === null ? "null" : typeof bytes}`);
   }
   const source = typeof options.source === "string" ? options.source : "(text)";
-  const { text, warning } = decodeCurveBytes(source, bytes);
+  const { text, warning } = decodeTextBytes(bytes, source, "a text table", "export the sweep as CSV or plain text");
   const result = parseCurveText(text, options);
   if (warning) result.record.warnings.unshift(warning);
   return result;
-}
-
-function decodeCurveBytes(source: string, bytes: Uint8Array): { text: string; warning: string | null } {
-  if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return { text: new TextDecoder("utf-16le").decode(bytes), warning: null };
-  if (bytes.length >= 2 && bytes[0] === 0xfe && bytes[1] === 0xff) return { text: new TextDecoder("utf-16be").decode(bytes), warning: null };
-  if (bytes.indexOf(0) >= 0) {
-    throw new DotspecError(
-      "io/binary",
-      `${source}: the file holds NUL bytes, so it is not a text table (a binary file, or UTF-16 text without a byte-order mark); ` +
-        `export the sweep as CSV or plain text`,
-    );
-  }
-  try {
-    return { text: new TextDecoder("utf-8", { fatal: true }).decode(bytes), warning: null };
-  } catch {
-    return {
-      text: new TextDecoder("windows-1252").decode(bytes),
-      warning: "the file is not valid UTF-8; read as Windows-1252 (Latin-1) text",
-    };
-  }
 }

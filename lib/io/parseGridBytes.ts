@@ -5,6 +5,7 @@
  */
 import type { GridCube } from "../grid/gridCube.ts";
 import { DotspecError } from "../util/errors.ts";
+import { decodeTextBytes } from "./decodeTextBytes.ts";
 import { parseGridTable, type GridTableRecord } from "./parseGridTable.ts";
 import { parseJsonText } from "./parseJsonText.ts";
 import { parseNpyGridBytes, type NpyGridResult } from "./parseNpyGridBytes.ts";
@@ -89,8 +90,9 @@ export function isNpyGridName(name: string): boolean {
  * -----
  * 1. A name ending in `.npy` selects NPY: the sidecar text is parsed ({@link parseJsonText}) and the
  *    cube read by {@link parseNpyGridBytes}.
- * 2. Anything else is a long table: the bytes are decoded as UTF-8 (a byte-order mark kept, bad
- *    bytes replaced, as Node reads a file as "utf8") and parsed by {@link parseGridTable}.
+ * 2. Anything else is a long table: the bytes are decoded as every reader decodes text
+ *    ({@link decodeTextBytes}: UTF-16 by its byte-order mark, UTF-8, else Windows-1252) and parsed
+ *    by {@link parseGridTable}.
  *
  * Example
  * -------
@@ -112,7 +114,7 @@ export function parseGridBytes(bytes: Uint8Array, options: ParseGridBytesOptions
     const r = parseNpyGridBytes(bytes, parseJsonText(options.sidecarText, sidecarSource), { source, sidecarSource });
     return { cube: r.cube, layout: "npy", npy: { header: r.header, sidecar: r.sidecar }, table: null, warnings: [] };
   }
-  const text = new TextDecoder("utf-8", { ignoreBOM: true }).decode(bytes);
+  const { text, warning } = decodeTextBytes(bytes, source, "a grid table", "export the grid as CSV or plain text");
   const r = parseGridTable(text, { source });
-  return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: r.record.warnings };
+  return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: warning ? [warning, ...r.record.warnings] : r.record.warnings };
 }

@@ -2,6 +2,7 @@
  * The optical table of a series: ensemble absorption peaks, one row per size.
  */
 import { DotspecError } from "../util/errors.ts";
+import { quote } from "./parse/messages.ts";
 import { numberCell, readSizeTableRows } from "./sizeTableRows.ts";
 
 /** One size of the optical table. */
@@ -58,7 +59,7 @@ export function parseOpticalTable(text: string, source: string): OpticalTableRow
   }
   for (const c of table.columns) {
     if (c !== sizeColumn && !peakColumns.includes(c) && c !== "notes") {
-      throw new DotspecError("io/optical-column", `${source}: unknown column "${c}" in the optical table; the columns are ${sizeColumn}, peak_ev_1, peak_ev_2, … and notes`);
+      throw new DotspecError("io/optical-column", `${source}: unknown column ${quote(c)} in the optical table; the columns are ${sizeColumn}, peak_ev_1, peak_ev_2, … and notes`);
     }
   }
   const [lo, hi] = OPTICAL_PEAK_RANGE_EV;

@@ -2,6 +2,7 @@
  * The size table of a series (META.csv): which curve file belongs to which dot, and its size.
  */
 import { DotspecError } from "../util/errors.ts";
+import { quote } from "./parse/messages.ts";
 import { numberCell, readSizeTableRows } from "./sizeTableRows.ts";
 
 /** One row of the size table. */
@@ -73,7 +74,7 @@ export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
   const known = [...SIZE_META_COLUMNS.required, ...SIZE_META_COLUMNS.size, ...SIZE_META_COLUMNS.optional];
   for (const c of table.columns) {
     if (!known.includes(c)) {
-      throw new DotspecError("io/meta-column", `${source}: unknown column "${c}" in the size table; the columns are ${known.join(", ")}`);
+      throw new DotspecError("io/meta-column", `${source}: unknown column ${quote(c)} in the size table; the columns are ${known.join(", ")}`);
     }
   }
   for (const c of SIZE_META_COLUMNS.required) {
@@ -89,7 +90,7 @@ export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
   const byDot = new Map<string, { radiusNM: number; line: number }>();
   for (const { line, cells } of table.rows) {
     const file = cells.file ?? "";
-    const where = `${source}: line ${line}${file ? ` (${file})` : ""}`;
+    const where = `${source}: line ${line}${file ? ` (${cut(file)})` : ""}`;
     if (file === "") throw new DotspecError("io/meta-file", `${where}: the file cell is empty; give the curve file relative to the series folder`);
     const path = normalizeRelative(file.replaceAll("\\", "/"));
     if (path.startsWith("/") || /^[A-Za-z]:/.test(path) || path === ".." || path.startsWith("../")) {
@@ -118,7 +119,7 @@ export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
     if (same && Math.abs(same.radiusNM - radiusNM) > SAME_SIZE_RTOL * same.radiusNM) {
       throw new DotspecError(
         "io/meta-size",
-        `${where}: dot "${dot}" has radius ${radiusNM} nm here but ${same.radiusNM} nm on line ${same.line}; one dot has one size (give its curves the same size, or different dot ids)`,
+        `${where}: dot ${quote(dot)} has radius ${radiusNM} nm here but ${same.radiusNM} nm on line ${same.line}; one dot has one size (give its curves the same size, or different dot ids)`,
       );
     }
     if (!same) byDot.set(dot, { radiusNM, line });
@@ -130,6 +131,11 @@ export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
     out.push({ line, file: path, dot, radiusNM, eta, notes: notes === "" ? null : notes });
   }
   return out;
+}
+
+/** A text cut to 60 characters for a message (a file name as written, without quotes). */
+function cut(s: string): string {
+  return s.length > 60 ? s.slice(0, 57) + "..." : s;
 }
 
 /**

@@ -6,6 +6,7 @@ import { readdirSync, readFileSync, statSync, type Stats } from "node:fs";
 import { extname, join, resolve } from "node:path";
 import { DotspecError } from "../util/errors.ts";
 import { parseCurveBytes } from "./parseCurveBytes.ts";
+import { readCurveStream } from "./readCurveStream.ts";
 import type { ParseOptions, ParsedCurve } from "./parse/index.ts";
 
 /** Options of {@link readCurveFile}: those of {@link parseCurveText} except `source`, which is the path. */
@@ -14,8 +15,14 @@ export type ReadCurveOptions = Omit<ParseOptions, "source">;
 /** File name extensions {@link listCurveFiles} picks up in a folder (compared in lower case). */
 export const CURVE_FILE_EXTENSIONS: readonly string[] = Object.freeze([".csv", ".txt", ".dat", ".tsv"]);
 
-/** Largest file {@link readCurveFile} reads, in bytes (256 MiB): a guard against pointing at the wrong file. */
-export const MAX_CURVE_FILE_BYTES = 256 * 1024 * 1024;
+/** Largest file {@link readCurveFile} reads, in bytes (4 GiB): a guard against pointing at the wrong file. */
+export const MAX_CURVE_FILE_BYTES = 4 * 1024 * 1024 * 1024;
+
+/**
+ * Files larger than this (16 MiB) are streamed ({@link readCurveStream}): the same result, with
+ * memory for the columns of numbers but not for the text.
+ */
+export const STREAM_CURVE_FILE_BYTES = 16 * 1024 * 1024;
 
 /**
  * Read one curve file.
@@ -26,6 +33,8 @@ export const MAX_CURVE_FILE_BYTES = 256 * 1024 * 1024;
  *     The file, as the user gave it; stored unchanged as `curve.meta.source` and `record.source`.
  * options : ReadCurveOptions, optional
  *     Parsing options, see {@link ParseOptions}.
+ * onProgress : (fraction: number) => void, optional
+ *     Called while a streamed file is read, with the fraction done (0 … 1). Default: none.
  *
  * Returns
  * -------
@@ -37,13 +46,15 @@ export const MAX_CURVE_FILE_BYTES = 256 * 1024 * 1024;
  * DotspecError
  *     `io/not-found` (no such file), `io/bad-path` (not a non-empty string), `io/is-directory`,
  *     `io/unreadable` (no permission),
- *     `io/too-large` (over {@link MAX_CURVE_FILE_BYTES}), `io/binary` (the file holds NUL bytes:
+ *     `io/too-large` (over {@link MAX_CURVE_FILE_BYTES}, 4 GiB), `io/binary` (the file holds NUL bytes:
  *     not text, or UTF-16 without a byte-order mark), `io/read-failed` (any other read error), and
  *     every error of {@link parseCurveText}.
  *
  * Notes
  * -----
- * 1. The file is read once, synchronously, with the read-only flag; it is never written.
+ * 1. The file is read once, synchronously, with the read-only flag; it is never written. A file
+ *    over {@link STREAM_CURVE_FILE_BYTES} is streamed in chunks ({@link readCurveStream}: the same
+ *    curve and record, without holding the text).
  * 2. Text encoding: UTF-8 (a BOM is ignored); UTF-16 with a byte-order mark; otherwise, when the
  *    bytes are not valid UTF-8, Windows-1252 (Latin-1) with a warning in the record.
  *
@@ -52,7 +63,7 @@ export const MAX_CURVE_FILE_BYTES = 256 * 1024 * 1024;
  * const { curve, record } = readCurveFile("data/dot-07.csv");
  * record.source;  // => "data/dot-07.csv"
  */
-export function readCurveFile(path: string, options: ReadCurveOptions = {}): ParsedCurve {
+export function readCurveFile(path: string, options: ReadCurveOptions = {}, onProgress?: (fraction: number) => void): ParsedCurve {
   if (typeof path !== "string" || path === "") {
     throw new DotspecError("io/bad-path", `readCurveFile: path must be a non-empty string; got ${JSON.stringify(path)}`);
   }
@@ -69,6 +80,7 @@ export function readCurveFile(path: string, options: ReadCurveOptions = {}): Par
       `${path}: ${stats.size} bytes is more than the ${MAX_CURVE_FILE_BYTES} bytes a single curve file may have; is this the right file?`,
     );
   }
+  if (stats.size > STREAM_CURVE_FILE_BYTES) return readCurveStream(path, { ...options, source: path }, onProgress ? { onProgress } : {});
   let bytes: Buffer;
   try {
     bytes = readFileSync(path, { flag: "r" });

@@ -1,12 +1,12 @@
 /**
  * Reading a grid from disk: an NPY array with its JSON sidecar, or a long table.
  */
-import { readFileSync, statSync } from "node:fs";
+import { statSync } from "node:fs";
 import { DotspecError } from "../util/errors.ts";
-import { gridSidecarName, isNpyGridName, parseGridBytes, type GridFileResult } from "./parseGridBytes.ts";
+import { gridSidecarName, isNpyGridName, type GridFileResult } from "./parseGridBytes.ts";
+import { readGridTableFile } from "./readGridTableFile.ts";
 import { readJsonFile } from "./readJsonFile.ts";
 import { readNpyGrid } from "./readNpyGrid.ts";
-import { MAX_CURVE_FILE_BYTES } from "./readCurveFile.ts";
 
 export type { GridFileResult } from "./parseGridBytes.ts";
 
@@ -16,6 +16,8 @@ export interface ReadGridFileOptions {
   sidecar?: string;
   /** Put an NPY cube on a SharedArrayBuffer (for worker threads). Default false. */
   shared?: boolean;
+  /** Called while a long table is read (streamed), with the fraction done (0 … 1). Default: none. */
+  onProgress?: (fraction: number) => void;
 }
 
 /**
@@ -26,7 +28,7 @@ export interface ReadGridFileOptions {
  * path : string
  *     The file.
  * options : ReadGridFileOptions, optional
- *     sidecar (default `<name>.json`), shared (default false).
+ *     sidecar (default `<name>.json`), shared (default false), onProgress (default none).
  *
  * Returns
  * -------
@@ -35,8 +37,8 @@ export interface ReadGridFileOptions {
  * Throws
  * ------
  * DotspecError
- *     `io/not-found`, `io/too-large` (a table over 256 MiB), `io/unreadable-json`/`io/invalid-json`
- *     for the sidecar, and every error of {@link readNpyGrid} and {@link parseGridTable}.
+ *     `io/not-found`, `io/unreadable-json`/`io/invalid-json` for the sidecar, and every error of
+ *     {@link readNpyGrid} and {@link readGridTableFile} (those of {@link parseGridTable}).
  *
  * Example
  * -------
@@ -46,9 +48,8 @@ export interface ReadGridFileOptions {
  */
 export function readGridFile(path: string, options: ReadGridFileOptions = {}): GridFileResult {
   if (typeof path !== "string" || path === "") throw new DotspecError("io/bad-path", `readGridFile: path must be a non-empty string; got ${JSON.stringify(path)}`);
-  let size: number;
   try {
-    size = statSync(path).size;
+    statSync(path);
   } catch {
     throw new DotspecError("io/not-found", `${path}: no such file`);
   }
@@ -57,9 +58,9 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
     const r = readNpyGrid(path, readJsonFile(sidecarPath), { shared: options.shared ?? false }, sidecarPath);
     return { cube: r.cube, layout: "npy", npy: { header: r.header, sidecar: r.sidecar }, table: null, warnings: [] };
   }
-  if (size > MAX_CURVE_FILE_BYTES) throw new DotspecError("io/too-large", `${path}: ${size} bytes is more than a grid table may hold (${MAX_CURVE_FILE_BYTES}); store large grids as NPY`);
-  // The table's bytes are decoded and parsed as a page parses a file it was given.
-  return parseGridBytes(readFileSync(path), { source: path });
+  // Streamed: memory holds the cube, never the whole text.
+  const r = readGridTableFile(path, { onProgress: options.onProgress });
+  return { cube: r.cube, layout: "table", npy: null, table: r.record, warnings: r.record.warnings };
 }
 
 /**

@@ -5,11 +5,13 @@
 import { readFileSync, statSync } from "node:fs";
 import { join } from "node:path";
 import { DotspecError } from "../util/errors.ts";
+import { decodeTextBytes } from "./decodeTextBytes.ts";
 import { parseOpticalTable, type OpticalTableRow } from "./parseOpticalTable.ts";
 import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
 
 /**
- * Reads a small text file (a table, a material file) as UTF-8.
+ * Reads a small text file (a table, a material file), decoded as every reader decodes text
+ * ({@link decodeTextBytes}: UTF-16 by its byte-order mark, UTF-8, else Windows-1252).
  *
  * Parameters
  * ----------
@@ -26,20 +28,23 @@ import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
  * Throws
  * ------
  * DotspecError
- *     `io/unreadable` naming the file and the reason (no such file, a folder, permission).
+ *     `io/unreadable` naming the file and the reason (no such file, a folder, permission);
+ *     `io/binary` when the file holds NUL bytes outside UTF-16.
  *
  * Example
  * -------
  * parseMaterialJson(readTextFile("InP-ours.json", "material file"), "InP-ours.json");
  */
 export function readTextFile(path: string, what: string): string {
+  let bytes: Uint8Array;
   try {
-    return readFileSync(path, "utf8");
+    bytes = readFileSync(path);
   } catch (err) {
     const code = (err as NodeJS.ErrnoException).code;
     const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a table" : code === "EACCES" ? "permission denied" : (err as Error).message;
     throw new DotspecError("io/unreadable", `${path}: the ${what} cannot be read (${why})`);
   }
+  return decodeTextBytes(bytes, path, `a ${what}`, "save it as UTF-8 text").text;
 }
 
 /** A size-table row with the curve file's path as it can be opened. */
@@ -86,7 +91,7 @@ export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
       isFile = false;
     }
     if (!isFile) {
-      throw new DotspecError("io/meta-missing-file", `${path}: line ${row.line} (${row.file}): no such file in ${dir}; check the name, or remove the row`);
+      throw new DotspecError("io/meta-missing-file", `${path}: line ${row.line} (${row.file.length > 60 ? row.file.slice(0, 57) + "..." : row.file}): no such file in ${dir}; check the name, or remove the row`);
     }
     return { ...row, path: full };
   });

@@ -4,6 +4,7 @@
  * {@link parseSizeMeta} and {@link parseOpticalTable}.
  */
 import { DotspecError } from "../util/errors.ts";
+import { quote } from "./parse/messages.ts";
 
 /** One data row of a table: its 1-based line in the file and its cells by lower-case column name. */
 export interface TableRow {
@@ -81,7 +82,7 @@ export function readSizeTableRows(text: string, source: string, what: string): S
       const seen = new Set<string>();
       for (const name of header) {
         if (seen.has(name)) {
-          throw new DotspecError("io/duplicate-column", `${source}: line ${i + 1}: the column "${name}" appears twice in the header of the ${what}; keep one`);
+          throw new DotspecError("io/duplicate-column", `${source}: line ${i + 1}: the column ${quote(name)} appears twice in the header of the ${what}; keep one`);
         }
         seen.add(name);
       }
@@ -112,7 +113,7 @@ export function numberCell(value: string, where: string, column: string): number
   if (value === "") return null;
   const v = Number(value.includes(",") && !value.includes(".") ? value.replace(",", ".") : value);
   if (!Number.isFinite(v)) {
-    throw new DotspecError("io/not-a-number", `${where}: ${column} must be a number; got ${JSON.stringify(value)}`);
+    throw new DotspecError("io/not-a-number", `${where}: ${column} must be a number; got ${quote(value)}`);
   }
   return v;
 }

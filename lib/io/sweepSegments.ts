@@ -140,14 +140,15 @@ export interface MergedSweep {
  *     Bias of every row, V.
  * columns : ArrayLike<number>[]
  *     Values of every row, one array per column (any unit).
- * order : ArrayLike<number>
- *     Row indices in ascending bias order (ties adjacent).
+ * order : ArrayLike<number> | null
+ *     Row indices in ascending bias order (ties adjacent); null for the rows as they are.
  *
  * Returns
  * -------
  * MergedSweep
  *     Strictly ascending bias, the mean of each column over the rows at each bias, and the count
- *     of rows merged away.
+ *     of rows merged away. When the rows are already in order with no repeated bias (and the
+ *     inputs are Float64Arrays), the input arrays themselves (not to be written to).
  *
  * Notes
  * -----
@@ -161,33 +162,42 @@ export interface MergedSweep {
 export function mergeDuplicates(
   biasV: ArrayLike<number>,
   columns: readonly ArrayLike<number>[],
-  order: ArrayLike<number>,
+  orderOrNull: ArrayLike<number> | null,
 ): MergedSweep {
-  const n = order.length;
-  const outBias: number[] = [];
-  const outValues: number[][] = columns.map(() => []);
+  const n = orderOrNull === null ? biasV.length : orderOrNull.length;
+  // Rows already in order with no repeated bias (a whole ascending sweep): the arrays themselves.
+  if (n === biasV.length && biasV instanceof Float64Array && columns.every((c) => c instanceof Float64Array && c.length === n)) {
+    let plain = true;
+    for (let i = 0; i < n && plain; i++) plain = (orderOrNull === null || orderOrNull[i] === i) && (i === 0 || biasV[i] > biasV[i - 1]);
+    if (plain) return { biasV, values: columns as Float64Array[], merged: 0 };
+  }
+  const order: ArrayLike<number> = orderOrNull ?? Int32Array.from({ length: n }, (_, i) => i);
+  const outBias = new Float64Array(n);
+  const outValues = columns.map(() => new Float64Array(n));
+  let m = 0;
   let i = 0;
   while (i < n) {
     const b = biasV[order[i]];
     let j = i + 1;
     while (j < n && biasV[order[j]] === b) j++;
-    outBias.push(b);
+    outBias[m] = b;
     const k = j - i;
     for (let c = 0; c < columns.length; c++) {
       const col = columns[c];
       if (k === 1) {
-        outValues[c].push(col[order[i]]);
+        outValues[c][m] = col[order[i]];
       } else {
         let s = 0;
         for (let r = i; r < j; r++) s += col[order[r]] / k;
-        outValues[c].push(s);
+        outValues[c][m] = s;
       }
     }
+    m++;
     i = j;
   }
   return {
-    biasV: Float64Array.from(outBias),
-    values: outValues.map((v) => Float64Array.from(v)),
-    merged: n - outBias.length,
+    biasV: m === n ? outBias : outBias.slice(0, m),
+    values: outValues.map((v) => (m === n ? v : v.slice(0, m))),
+    merged: n - m,
   };
 }

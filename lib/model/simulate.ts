@@ -5,6 +5,7 @@ import { biasAxis, parseScenario, type Scenario } from "./scenario.ts";
 import { bandLadders, exactCurrent, currentSteps, fastCurrent, fastConductance, type DotModel } from "./bandCurrent.ts";
 import { BOLTZMANN_EV_PER_K } from "../util/constants.ts";
 import { seededRandom } from "../util/random.ts";
+import { DotspecError } from "../util/errors.ts";
 
 /** Options of {@link simulateCurve}. */
 export interface SimulateOptions {
@@ -59,7 +60,53 @@ export const SIMULATE_DEFAULTS = Object.freeze({
   fineStepPerThermalWidth: 1 / 3,
   /** Gaussian kernels are cut at this many standard deviations. */
   kernelReachSigma: 8,
+  /**
+   * Most points of the fine bias grid (and of any kernel) a simulation may need: 2·10⁷ points
+   * (160 MB per array). A scenario needing more is refused before anything is allocated.
+   */
+  maxFinePoints: 20_000_000,
+  /** Most multiply-adds of the convolutions (points × kernel taps): 2·10⁹, a few seconds. */
+  maxKernelWork: 2_000_000_000,
 });
+
+/**
+ * Refuses a simulation whose fine grid or kernels would not fit (a temperature or broadening far
+ * below the bias step, a lock-in amplitude far above it), before anything is allocated.
+ */
+function checkSimulationSize(scenario: Scenario, method: "exact" | "fast", wantConductance: boolean, n: number): void {
+  const stepV = scenario.bias.stepV;
+  const broadeningV = scenario.broadeningEV / scenario.eta;
+  const lockInPeakV = Math.SQRT2 * scenario.lockInVrms;
+  let finePoints: number;
+  let work: number;
+  let why: string;
+  if (method === "exact") {
+    const kT = BOLTZMANN_EV_PER_K * scenario.temperatureK;
+    const target = Math.min((SIMULATE_DEFAULTS.fineStepPerThermalWidth * kT) / scenario.eta, broadeningV > 0 ? broadeningV / 4 : Infinity);
+    const h = stepV / Math.max(1, Math.ceil(stepV / target));
+    const gauss = broadeningV > 0 ? 2 * Math.ceil((SIMULATE_DEFAULTS.kernelReachSigma * broadeningV) / h) + 1 : 1;
+    const lock = lockInPeakV > 0 ? 2 * Math.floor(lockInPeakV / h) + 1 : 0;
+    const derivative = wantConductance ? (lock ? gauss + lock - 1 : gauss) + 2 : 1;
+    finePoints = (n - 1) * (stepV / h) + 2 * Math.max(gauss, derivative, lock);
+    work = n * (gauss + derivative) + gauss * lock;
+    why = `the exact method's fine grid (step ${h.toPrecision(3)} V, a third of kB·T/(e·η) at temperatureK ${scenario.temperatureK} or a quarter of the broadening)`;
+  } else {
+    if (!(wantConductance && lockInPeakV > 0)) return;
+    const h = stepV / Math.max(1, Math.ceil((8 * stepV) / lockInPeakV));
+    const lock = 2 * Math.floor(lockInPeakV / h) + 1;
+    finePoints = (n - 1) * (stepV / h) + lock;
+    work = n * lock;
+    why = `the lock-in kernel (lockInVrms ${scenario.lockInVrms} V on a grid of step ${h.toPrecision(3)} V)`;
+  }
+  if (!(finePoints <= SIMULATE_DEFAULTS.maxFinePoints && work <= SIMULATE_DEFAULTS.maxKernelWork)) {
+    throw new DotspecError(
+      "scenario/too-fine",
+      `scenario needs ${Number(finePoints.toPrecision(3))} points for ${why} and ${Number(work.toPrecision(3))} kernel operations; ` +
+        `at most ${SIMULATE_DEFAULTS.maxFinePoints} points and ${SIMULATE_DEFAULTS.maxKernelWork} operations are allowed: ` +
+        (method === "exact" ? "raise temperatureK or broadeningEV, narrow the bias range, or use the fast method" : "lower lockInVrms or narrow the bias range"),
+    );
+  }
+}
 
 /**
  * The dot model of a scenario: its levels and junction, without the sweep, broadening, lock-in
@@ -219,10 +266,14 @@ function convolveAt(y: Float64Array, kernel: Float64Array, i: number): number {
  * Throws
  * ------
  * DotspecError
- *     `scenario/…` or `options/…` for an invalid scenario (see {@link parseScenario}).
+ *     `scenario/…` or `options/…` for an invalid scenario (see {@link parseScenario});
+ *     `scenario/too-fine` when the fine grid or the kernels would exceed
+ *     SIMULATE_DEFAULTS.maxFinePoints (2·10⁷ points) or maxKernelWork (2·10⁹ operations).
  *
  * Notes
  * -----
+ * 0. The sizes of the fine grid and kernels are computed first (closed form); a scenario over
+ *    the limits is refused before anything is allocated.
  * Exact method:
  * 1. A fine grid of step h ≤ kB·T/(3·e·η) (and ≤ σ/4 of the broadening), aligned with the output
  *    points and extended by the kernel reach beyond the bias range.
@@ -257,6 +308,7 @@ export function simulateCurve(input: Scenario | unknown, options: SimulateOption
   const wantConductance = options.conductance ?? SIMULATE_DEFAULTS.conductance;
   const model = scenarioModel(scenario);
   const ladders = bandLadders(model);
+  checkSimulationSize(scenario, method, wantConductance, Math.floor((scenario.bias.toV - scenario.bias.fromV) / scenario.bias.stepV + 1e-9) + 1);
   const biasV = biasAxis(scenario.bias);
   const n = biasV.length;
   const stepV = scenario.bias.stepV;

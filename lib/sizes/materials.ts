@@ -3,6 +3,7 @@
  * reading of a user's override file.
  */
 import { DotspecError } from "../util/errors.ts";
+import { parseJsonText } from "../io/parseJsonText.ts";
 
 /** Bulk parameters of one semiconductor, as the size models use them. */
 export interface Material {
@@ -216,9 +217,10 @@ export function resolveMaterial(nameOrOverrides: string | MaterialOverrides, whe
 export function parseMaterialJson(text: string, source: string): Material {
   let value: unknown;
   try {
-    value = JSON.parse(text);
+    value = parseJsonText(text, source);
   } catch (err) {
-    throw new DotspecError("sizes/material-json", `${source}: not valid JSON (${(err as Error).message}); expected an object such as {"base": "CdSe", "electronMassE": 0.12}`);
+    // One line naming the line and column (the engine's own message quotes the text, line breaks and all).
+    throw new DotspecError("sizes/material-json", `${(err as Error).message}; expected an object such as {"base": "CdSe", "electronMassE": 0.12}`);
   }
   if (value === null || typeof value !== "object" || Array.isArray(value)) {
     throw new DotspecError("sizes/material-json", `${source}: expected a JSON object of material fields; got ${Array.isArray(value) ? "an array" : JSON.stringify(value)}`);

@@ -50,10 +50,10 @@ export interface BiasStep {
 export function biasStep(biasV: ArrayLike<number>, tolerance: number = UNIFORM_STEP_TOLERANCE): BiasStep {
   const d = new Float64Array(Math.max(0, biasV.length - 1));
   for (let i = 0; i < d.length; i++) d[i] = biasV[i + 1] - biasV[i];
-  const steps = Float64Array.from(d);
   const medianV = d.length ? medianInPlace(d) : NaN;
   const limit = tolerance * Math.abs(medianV);
   let uniform = true;
-  for (let i = 0; i < steps.length && uniform; i++) uniform = Math.abs(steps[i] - medianV) <= limit;
+  // The steps again from the axis (the same differences; no copy of them for a long sweep).
+  for (let i = 0; i < d.length && uniform; i++) uniform = Math.abs(biasV[i + 1] - biasV[i] - medianV) <= limit;
   return { medianV, uniform };
 }

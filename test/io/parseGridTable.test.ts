@@ -57,6 +57,6 @@ describe("parseGridTable(text)", () => {
   });
   it("defaults are locked", () => {
     expect(Object.isFrozen(GRID_TABLE_DEFAULTS)).toBe(true);
-    expect(GRID_TABLE_DEFAULTS).toEqual({ gridTolerance: 0.05 }); // common practice (no source)
+    expect(GRID_TABLE_DEFAULTS).toEqual({ gridTolerance: 0.05, maxPointsPerRow: 16 }); // common practice (no source)
   });
 });

@@ -77,7 +77,7 @@ describe("simulateCurve(scenario)", () => {
   });
 
   it("SIMULATE_DEFAULTS and SCENARIO_DEFAULTS are as documented (locked)", () => {
-    expect(SIMULATE_DEFAULTS).toEqual({ method: "exact", conductance: true, fineStepPerThermalWidth: 1 / 3, kernelReachSigma: 8 });
+    expect(SIMULATE_DEFAULTS).toEqual({ method: "exact", conductance: true, fineStepPerThermalWidth: 1 / 3, kernelReachSigma: 8, maxFinePoints: 20_000_000, maxKernelWork: 2_000_000_000 });
     expect(SCENARIO_DEFAULTS).toEqual({ broadeningEV: 0, relaxationRateFactor: 1000, lockInVrms: 0, noiseSeed: 1, maxStates: 1200, maxPoints: 1_000_000 });
   });
 });

@@ -21,7 +21,7 @@ import { runReplay } from "../replay.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
-import { startProgress } from "../progress.ts";
+import { PROGRESS_DEFAULTS, startProgress, type Progress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
 import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
@@ -251,6 +251,8 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
     },
     // Nobody reads the output any more (`dotspec analyze … | head`): stop early.
     () => ctx.stdoutGone(),
+    // A large file is streamed: its own bar (on a terminal, when the batch has no bar of its own).
+    readProgress(files.length, ctx),
   );
   progress.stop();
 
@@ -268,4 +270,24 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
   // Stopped early because nobody reads the output any more (`… | head`): stop quietly.
   if (!ctx.stdoutGone()) ctx.stderr.write(batchCount(done, failed, warnings, warned));
   return failed ? EXIT.failed : EXIT.ok;
+}
+
+/**
+ * The reading bar of large (streamed) files: one bar per file, in % read, on a terminal, for
+ * batches too small for the batch's own bar.
+ */
+function readProgress(files: number, ctx: CliContext): ((file: string, fraction: number) => void) | undefined {
+  if (files > PROGRESS_DEFAULTS.minFiles) return undefined;
+  let current: { file: string; bar: Progress; shown: number } | null = null;
+  return (file, fraction) => {
+    if (current?.file !== file) {
+      current?.bar.stop();
+      current = { file, bar: startProgress(100, ctx.stderr, `read ${basename(file)}`, "%"), shown: 0 };
+    }
+    for (const to = Math.floor(100 * fraction); current.shown < to; current.shown++) current.bar.tick();
+    if (fraction >= 1) {
+      current.bar.stop();
+      current = null;
+    }
+  };
 }

@@ -4,24 +4,27 @@
  */
 import type { Command } from "commander";
 import {
-  analysisToJson,
-  analyzeCurve,
   fitCurve,
   fitToJson,
   formatFitText,
   listCurveFiles,
   loadModelFigure,
-  readCurveFile,
+  makeProvenance,
+  svgWithProvenance,
   writeTextFile,
   FIT_DEFAULTS,
+  type AnalyzeOptions,
   type FitJson,
   type ModelFigureRenderer,
+  type Provenance,
 } from "../../index.ts";
 import { join, basename, extname } from "node:path";
-import { failureReason } from "../analyzeFile.ts";
+import { analyzeCurveFile, failureReason } from "../analyzeFile.ts";
+import { batchCount } from "../batchCount.ts";
+import { cliOptionNames } from "../cliOptionNames.ts";
 import { EXIT, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
-import { addUnitOptions, etaForCurve, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
+import { addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
 import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
 import type { CliCommand } from "./command.ts";
 
@@ -92,54 +95,84 @@ export const fitCommand: CliCommand = {
   },
 };
 
+/** A fit's JSON record with its provenance (the same shape analyze records carry). */
+export type FitRecord = FitJson & { provenance: Provenance };
+
+/** The warning of a fit stopped by its time limit: where it stopped depends on the machine. */
+export const TIME_LIMIT_WARNING =
+  "the fit stopped at its time limit, so where it stopped depends on this machine's speed and load: the numbers may differ on another run; " +
+  "give a larger --time-limit-ms (the fit then stops at convergence or --max-iterations, the same on every machine)";
+
 /**
  * Runs `dotspec fit`: 0 when every file was fitted (converged or not: a non-converged fit is
  * reported, not an error), 1 when a file could not be read or analysed or no start of the fit
  * described it (status "failed": the record is still printed, with the reasons).
+ *
+ * Notes
+ * -----
+ * 1. Each file is read and analysed as `dotspec analyze` does it (`analyzeCurveFile`: the
+ *    record with the file's metadata, notes and provenance), then fitted.
+ * 2. The fit's record, and its figure, carry the provenance: tool version, command, the input's
+ *    name, size and SHA-256, and the options as given (analysis, import and fit options).
+ * 3. A fit stopped by its wall-clock limit gets a warning (its result depends on the machine).
+ * 4. The run ends with the count line on stderr (done, failed, warnings), as analyze does.
  */
 export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): Promise<number> {
-  let failed = false;
+  let failed = 0;
+  let done = 0;
+  let warnings = 0;
+  let warned = 0;
   const files: string[] = [];
   for (const arg of args) {
     try {
       files.push(...listCurveFiles([arg]));
     } catch (err) {
       ctx.error(`${arg}: ${failureReason(arg, err)}`);
-      failed = true;
+      failed++;
     }
   }
-  const records: FitJson[] = [];
+  const records: FitRecord[] = [];
   let figure: ModelFigureRenderer | null = null;
   // The output folder may hold only dotspec's own files (its manifest), unless --force.
   const planned = files.flatMap((file) => [".fit.json", ".fit.svg"].map((ext) => basename(file, extname(file)) + ext));
   if (opts.out) claimOutputFolder(opts.out, planned, opts.force === true);
+  const analyze: AnalyzeOptions = opts.eta === undefined ? {} : { eta: opts.eta };
+  const read = readOptions(opts);
+  const fitOptions = {
+    ...(opts.timeLimitMs !== undefined ? { timeLimitMs: opts.timeLimitMs } : {}),
+    ...(opts.maxIterations !== undefined ? { maxIterations: opts.maxIterations } : {}),
+    ...(opts.compareModels ? { compareModels: true } : {}),
+  };
   for (const file of files) {
     try {
-      const { curve, record } = readCurveFile(file, readOptions(opts));
-      const { eta, note } = etaForCurve(opts.eta, curve);
-      const analysis = analyzeCurve(curve, eta === undefined ? {} : { eta });
-      const fit = fitCurve(analysis, { timeLimitMs: opts.timeLimitMs, maxIterations: opts.maxIterations, compareModels: opts.compareModels });
-      if (note) fit.warnings.unshift(note);
-      const json = fitToJson(fit, analysisToJson(analysis, record));
+      const { analysis, json: peakBased } = analyzeCurveFile(file, { analyze, read }, "fit");
+      const fit = fitCurve(analysis, fitOptions);
+      if (/time limit/.test(fit.message)) fit.warnings.push(TIME_LIMIT_WARNING);
+      const provenance = makeProvenance("fit", peakBased.provenance?.input ?? null, { analyze, read, fit: fitOptions });
+      const json: FitRecord = { ...fitToJson(fit, peakBased), provenance };
       records.push(json);
       if (opts.out) {
         figure ??= await loadModelFigure();
         const name = basename(file, extname(file));
         writeTextFile(join(opts.out, name + ".fit.json"), JSON.stringify(json, null, 2) + "\n");
-        writeTextFile(join(opts.out, name + ".fit.svg"), figure(analysis, { fit }));
+        writeTextFile(join(opts.out, name + ".fit.svg"), svgWithProvenance(figure(analysis, { fit }), provenance));
       }
-      if (!opts.json && !ctx.stdoutGone()) ctx.stdout.write(formatFitText(json) + "\n");
+      if (!opts.json && !ctx.stdoutGone()) ctx.stdout.write(cliOptionNames(formatFitText(json)) + "\n");
+      else if (opts.json) for (const w of json.warnings) ctx.error(`${file}: warning: ${w}`);
       if (fit.status === "failed") {
         // Reported in full above (or in the JSON); the file still counts as failed.
         ctx.error(`${file}: no fit (${fit.statusReasons[0]})`);
-        failed = true;
-      }
+        failed++;
+      } else done++;
+      warnings += json.warnings.length;
+      if (json.warnings.length) warned++;
     } catch (err) {
       ctx.error(`${file}: ${failureReason(file, err)}`);
-      failed = true;
+      failed++;
     }
   }
   if (opts.json && !ctx.stdoutGone()) ctx.stdout.write(JSON.stringify(records) + "\n");
   if (opts.out) sealOutputFolder(opts.out, planned);
+  if (!ctx.stdoutGone()) ctx.stderr.write(batchCount(done, failed, warnings, warned));
   return failed ? EXIT.failed : EXIT.ok;
 }

@@ -3,7 +3,7 @@
  */
 import { InvalidArgumentError, type Command } from "commander";
 import { availableParallelism } from "node:os";
-import { join } from "node:path";
+import { dirname, join, resolve } from "node:path";
 import {
   fileBytes,
   formatCsv,
@@ -19,10 +19,11 @@ import {
   type GridJson,
 } from "../../index.ts";
 import { failureReason } from "../analyzeFile.ts";
-import { EXIT, type CliContext } from "../context.ts";
+import { EXIT, UsageError, type CliContext } from "../context.ts";
+import { claimOutputFolder, sealOutputFolder } from "../outputFolder.ts";
 import { etaOption } from "../curveOptions.ts";
 import { numberOption } from "../optionValue.ts";
-import { startProgress } from "../progress.ts";
+import { startProgress, type Progress } from "../progress.ts";
 import { runGridAnalysis, sharedCube, startGridPool, GRID_JOBS_DEFAULTS, type GridPool } from "../gridPool.ts";
 import type { CliCommand } from "./command.ts";
 
@@ -37,6 +38,7 @@ export interface GridCliOptions {
   referencePixel?: [number, number];
   referenceCircle?: [number, number, number];
   floorSigma?: number;
+  force?: boolean;
 }
 
 const HELP_AFTER = `
@@ -97,6 +99,7 @@ export const gridCommand: CliCommand = {
       .option("--reference-circle <X,Y,R>", "analyse the mean spectrum of the pixels within R nm of (X, Y) nm", circle)
       .option("--floor-sigma <k>", "noise floor of the shape measures in σ of each map (default 3)", numberOption({ min: 0, accepted: "a number of σ, 0 or more" }))
       .option("--out <DIR>", "write summary.json, profiles.csv, reference.svg and maps/*.svg")
+      .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
       .option("--json", "print the JSON summary")
       .option("--jobs <n>", "worker threads for the per-pixel work (default: the CPU count for inputs of 1 GiB or more, else 1)", numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }))
       .addHelpText("after", HELP_AFTER)
@@ -106,11 +109,48 @@ export const gridCommand: CliCommand = {
   },
 };
 
-/** Runs `dotspec grid`: 0 on success, 1 when the input cannot be read or analysed. */
+/** Files `dotspec grid --out` writes besides one SVG per map in `maps/`. */
+export const GRID_OUTPUT = Object.freeze({
+  summary: "summary.json",
+  profiles: "profiles.csv",
+  reference: "reference.svg",
+  mapsFolder: "maps",
+});
+
+/** Paths of the map figures under the output folder: maps/NAME.svg, with the names the grid notebook uses too ({@link gridMapFileNames}). */
+function mapFileNames(labels: readonly string[]): string[] {
+  return gridMapFileNames(labels).map((name) => `${GRID_OUTPUT.mapsFolder}/${name}.svg`);
+}
+
+/**
+ * Runs `dotspec grid`: 0 on success, 1 when the input cannot be read or analysed.
+ *
+ * Throws
+ * ------
+ * UsageError
+ *     With --out: the folder is the input's folder, or holds files dotspec did not write (or
+ *     changed since) and --force is not given. Nothing is written then.
+ *
+ * Notes
+ * -----
+ * 1. With --out the folder is claimed before the input is read (its fixed files) and again with
+ *    the map figures once the maps are known, before the first write; the manifest is sealed
+ *    after the last (the same check as analyze, sizes and fit).
+ * 2. A long-table input is streamed; a progress bar shows the reading on a terminal.
+ */
 export async function runGrid(input: string, opts: GridCliOptions, ctx: CliContext): Promise<number> {
   if (opts.referencePixel && opts.referenceCircle) {
     ctx.error("give --reference-pixel or --reference-circle, not both");
     return EXIT.usage;
+  }
+  const fixed = [GRID_OUTPUT.summary, GRID_OUTPUT.profiles, GRID_OUTPUT.reference];
+  if (opts.out !== undefined) {
+    const out = resolve(opts.out);
+    for (const f of [input, opts.sidecar ?? input]) {
+      if (resolve(f) === out) throw new UsageError(`--out ${opts.out} is an input file; give a folder for the report`);
+      if (resolve(dirname(f)) === out) throw new UsageError(`--out ${opts.out} is the folder of the input ${f}; write the report to another folder (dotspec does not write next to its inputs)`);
+    }
+    claimOutputFolder(opts.out, fixed, opts.force === true);
   }
   let threads = opts.jobs ?? Math.max(1, availableParallelism());
   const bytes = fileBytes(input);
@@ -119,10 +159,23 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
   if (!(bytes >= 4 * GRID_JOBS_DEFAULTS.minSamplesForWorkers)) threads = 1;
   // Workers load the library while this thread reads the file.
   let pool: GridPool | null = threads > 1 ? startGridPool(threads) : null;
-  // The bar shows only on a terminal (stderr); it moves per finished part of a pass on workers.
-  const progress = startProgress(100, ctx.stderr, "grid", "%");
+  let progress: Progress | null = null;
+  let reading: Progress | null = null;
   try {
-    const file = readGridFile(input, { sidecar: opts.sidecar, shared: pool !== null });
+    // Reading a long table streams it; its bar shows only on a terminal, in MB read.
+    const sizeMB = Number.isFinite(bytes) && !/\.npy$/i.test(input) ? Math.ceil(bytes / 1e6) : 0;
+    reading = startProgress(sizeMB, ctx.stderr, "read", "MB");
+    let readMB = 0;
+    const file = readGridFile(input, {
+      sidecar: opts.sidecar,
+      shared: pool !== null,
+      onProgress: (fraction) => {
+        for (const to = Math.floor(fraction * sizeMB); readMB < to; readMB++) reading!.tick();
+      },
+    });
+    reading.stop();
+    // The bar shows only on a terminal (stderr); it moves per finished part of a pass on workers.
+    progress = startProgress(100, ctx.stderr, "grid", "%");
     let cube = file.cube;
     if (pool && !(cube.currentA.buffer instanceof SharedArrayBuffer)) cube = sharedCube(cube);
     const options: AnalyzeGridOptions = {
@@ -135,7 +188,7 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
     let shown = 0;
     const grid = await runGridAnalysis(cube, options, pool, (done, total) => {
       const pct = Math.round((100 * done) / total);
-      for (; shown < pct; shown++) progress.tick();
+      for (; shown < pct; shown++) progress!.tick();
     });
     if (pool) {
       await pool.close();
@@ -144,12 +197,15 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
     const missing = cube.missing ? cube.missing.reduce((a, b) => a + b, 0) : 0;
     const json = gridToJson(grid, missing, file.warnings);
     if (opts.out) {
+      const mapFiles = mapFileNames(grid.maps.map((m) => m.label));
+      const planned = [...fixed, ...mapFiles];
+      claimOutputFolder(opts.out, planned, opts.force === true);
       const [drawMap, drawCurve] = await Promise.all([loadGridMapFigure(), loadCurveFigure()]);
-      writeTextFile(join(opts.out, "summary.json"), JSON.stringify(json, null, 2) + "\n");
-      writeTextFile(join(opts.out, "profiles.csv"), formatCsv(gridProfileRows(grid), GRID_PROFILE_COLUMNS));
-      writeTextFile(join(opts.out, "reference.svg"), drawCurve(grid.reference.analysis, { curve: grid.reference.curve }));
-      const names = gridMapFileNames(grid.maps.map((m) => m.label));
-      for (const [i, m] of grid.maps.entries()) writeTextFile(join(opts.out, "maps", `${names[i]}.svg`), drawMap(m));
+      writeTextFile(join(opts.out, GRID_OUTPUT.summary), JSON.stringify(json, null, 2) + "\n");
+      writeTextFile(join(opts.out, GRID_OUTPUT.profiles), formatCsv(gridProfileRows(grid), GRID_PROFILE_COLUMNS));
+      writeTextFile(join(opts.out, GRID_OUTPUT.reference), drawCurve(grid.reference.analysis, { curve: grid.reference.curve }));
+      grid.maps.forEach((m, i) => writeTextFile(join(opts.out!, mapFiles[i]), drawMap(m)));
+      sealOutputFolder(opts.out, planned);
     }
     progress.stop();
     if (ctx.stdoutGone()) return EXIT.ok;
@@ -157,7 +213,9 @@ export async function runGrid(input: string, opts: GridCliOptions, ctx: CliConte
     else ctx.stdout.write(formatGridText(json) + "\n");
     return EXIT.ok;
   } catch (err) {
-    progress.stop();
+    reading?.stop();
+    progress?.stop();
+    if (err instanceof UsageError) throw err;
     ctx.error(`${input}: ${failureReason(input, err)}`);
     return EXIT.failed;
   } finally {

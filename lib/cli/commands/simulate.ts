@@ -111,7 +111,15 @@ export function runSimulate(opts: SimulateCliOptions, ctx: CliContext): number {
     ctx.error(`${opts.config}: invalid scenario: ${err.message}`);
     return EXIT.usage;
   }
-  const sim = simulateCurve(scenario, { method: opts.method, conductance: opts.dIdV === true });
+  let sim;
+  try {
+    sim = simulateCurve(scenario, { method: opts.method, conductance: opts.dIdV === true });
+  } catch (err) {
+    // A scenario too fine to simulate (scenario/too-fine) is refused before anything is allocated.
+    if (!isDotspecError(err)) throw err;
+    ctx.error(`${opts.config}: ${err.message}`);
+    return EXIT.usage;
+  }
   const metadata = simulationMetadata(input, scenario, opts);
   try {
     writeTextFile(opts.out, formatCurveCsv({ biasV: sim.biasV, currentA: sim.currentA, didvS: opts.dIdV ? sim.didvS : null }, { metadata }));

@@ -6,18 +6,19 @@ import type { Curve } from "../../curve.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { warnColumnAssumptions } from "./assumptions.ts";
 import { assignUnits } from "./columnUnits.ts";
-import { nameColumns } from "./columns.ts";
+import { nameColumns, type Column } from "./columns.ts";
 import { ontoCommonBias } from "./commonBias.ts";
 import { keepCompleteRows } from "./completeRows.ts";
 import { makeCurve, toSampleBias } from "./curve.ts";
-import { findDataRows } from "./dataRows.ts";
+import { findDataRows, type DataRows } from "./dataRows.ts";
 import { detectFormat } from "./format.ts";
 import { groupColumns, type ColumnGroup } from "./groups.ts";
-import { findHeader } from "./header.ts";
-import { splitLines } from "./lines.ts";
-import { readNumbers } from "./numbers.ts";
+import { findHeader, type Header } from "./header.ts";
+import { splitLines, type TextLines } from "./lines.ts";
+import { readNumbers, type ColumnValues } from "./numbers.ts";
 import { columnResolutions } from "./resolution.ts";
-import { resolveParseOptions, type ParseOptions } from "./options.ts";
+import { resolveParseOptions, type ParseOptions, type ResolvedOptions } from "./options.ts";
+import type { DelimiterGuess } from "../cells.ts";
 import { makeRecord, type ImportRecord, type RowCounts } from "./record.ts";
 import { cutSweeps } from "./sweeps.ts";
 
@@ -131,6 +132,33 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   const values = readNumbers(file, format, table, header, columns, src);
   const resolutions = columnResolutions(table, columns, values, format.decimalComma);
 
+  // 7.–9.
+  return finishCurve({ o, file, format, table, header, columns, groups, biasColumns, values, resolutions, metadata: file.metadata, warnings });
+}
+
+/** What the stages up to the numbers found: the input of {@link finishCurve}. */
+export interface CurveStages {
+  o: ResolvedOptions;
+  file: TextLines;
+  format: DelimiterGuess;
+  table: DataRows;
+  header: Header;
+  columns: Column[];
+  groups: ColumnGroup[];
+  biasColumns: Column[];
+  values: ColumnValues;
+  resolutions: (number | null)[];
+  metadata: Map<string, string>;
+  warnings: string[];
+}
+
+/**
+ * Stages 7–9 of the importer: complete rows, sweeps, common bias, the curve and its record.
+ * Shared by {@link parseCurveText} and the streaming file reader, which reach it with the same
+ * values by another road. `file` and `table` are used for line numbers and counts only.
+ */
+export function finishCurve({ o, file, format, table, header, columns, groups, biasColumns, values, resolutions, metadata, warnings }: CurveStages): ParsedCurve {
+  const src = o.source;
   // 7. Rows per group, segments, sweeps.
   const kept = keepCompleteRows(file, format, table, groups, values, src, warnings);
   const sweeps = cutSweeps(file, table, columns, groups, values, kept, o.minPoints, warnings);
@@ -144,9 +172,9 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   const common = ontoCommonBias(sweeps.sets, o.minPoints, src, counts, biasColumns, warnings);
 
   // 9. Curve and record.
-  const asRead = makeCurve(common, src, file.metadata, curveResolutions(groups, resolutions));
+  const asRead = makeCurve(common, src, metadata, curveResolutions(groups, resolutions));
   const curve = o.biasPolarity === "tip" ? toSampleBias(asRead) : asRead;
-  const record = makeRecord({ src, format, header, columns, resolutions, counts, sweeps, curve, metadata: file.metadata, warnings, biasPolarity: o.biasPolarity });
+  const record = makeRecord({ src, format, header, columns, resolutions, counts, sweeps, curve, metadata, warnings, biasPolarity: o.biasPolarity });
   return { curve, record };
 }
 

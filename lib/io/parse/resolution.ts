@@ -110,30 +110,62 @@ export function cellQuantum(cell: string, decimalComma: boolean): number {
  * // => 1e-14
  */
 export function columnResolutions(table: DataRows, columns: readonly Column[], values: ColumnValues, decimalComma: boolean): (number | null)[] {
+  const acc = resolutionSums(columns);
+  addResolutions(acc, table, columns, values, decimalComma);
+  return finishResolutions(acc, columns);
+}
+
+/** Running √(Σq²) of one column, kept as scale·√sum with rescaling (no overflow or underflow). */
+interface QuantumSum {
+  scale: number;
+  sum: number;
+  count: number;
+}
+
+/** The running sums of {@link columnResolutions} per column (cells of value zero apart); null for columns without one. */
+export type ResolutionSums = ({ nonzero: QuantumSum; zero: QuantumSum } | null)[];
+
+/** Empty running sums for the current and conductance columns. */
+export function resolutionSums(columns: readonly Column[]): ResolutionSums {
+  return columns.map((col) =>
+    (col.role !== "current" && col.role !== "conductance") || !col.unitInfo ? null : { nonzero: { scale: 0, sum: 0, count: 0 }, zero: { scale: 0, sum: 0, count: 0 } },
+  );
+}
+
+/**
+ * Adds the cells of the data rows of `table` (with their `values`) to the running sums: the same
+ * sums, in the same order, whether the rows come at once or in consecutive parts (a streamed file).
+ */
+export function addResolutions(acc: ResolutionSums, table: DataRows, columns: readonly Column[], values: ColumnValues, decimalComma: boolean): void {
   const { rows, first } = table;
-  return columns.map((col) => {
-    if ((col.role !== "current" && col.role !== "conductance") || !col.unitInfo) return null;
+  for (const col of columns) {
+    const sums = acc[col.index];
     const v = values[col.index];
-    if (!v) return null;
-    // Running √(Σq²) with rescaling (no overflow or underflow for any written exponent).
-    const nonzero = { scale: 0, sum: 0, count: 0 };
-    const zero = { scale: 0, sum: 0, count: 0 };
+    if (!sums || !v) continue;
     for (let r = first; r < rows.length; r++) {
       const x = v[r - first];
       if (!Number.isFinite(x)) continue;
       const q = cellQuantum(rows[r][col.index], decimalComma);
       if (!(q > 0)) continue;
-      const acc = x === 0 ? zero : nonzero;
-      if (q > acc.scale) {
-        acc.sum = acc.scale === 0 ? 0 : acc.sum * (acc.scale / q) ** 2;
-        acc.scale = q;
+      const a = x === 0 ? sums.zero : sums.nonzero;
+      if (q > a.scale) {
+        a.sum = a.scale === 0 ? 0 : a.sum * (a.scale / q) ** 2;
+        a.scale = q;
       }
-      acc.sum += (q / acc.scale) ** 2;
-      acc.count++;
+      a.sum += (q / a.scale) ** 2;
+      a.count++;
     }
-    const acc = nonzero.count > 0 ? nonzero : zero;
-    if (acc.count === 0) return null;
-    const rms = acc.scale * Math.sqrt(acc.sum / acc.count) * col.unitInfo.scale;
+  }
+}
+
+/** The resolutions from the running sums (see {@link columnResolutions}). */
+export function finishResolutions(acc: ResolutionSums, columns: readonly Column[]): (number | null)[] {
+  return columns.map((col) => {
+    const sums = acc[col.index];
+    if (!sums) return null;
+    const a = sums.nonzero.count > 0 ? sums.nonzero : sums.zero;
+    if (a.count === 0) return null;
+    const rms = a.scale * Math.sqrt(a.sum / a.count) * col.unitInfo!.scale;
     return Number.isFinite(rms) ? rms : null;
   });
 }

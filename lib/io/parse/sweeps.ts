@@ -100,11 +100,12 @@ export function cutSweeps(
   let duplicatesMerged = 0;
   for (let k = 0; k < groups.length; k++) {
     const g = groups[k];
-    const idx = kept.perGroup[k];
-    const gb = pickRows(values[g.bias]!, idx);
-    const gcols = [...g.currents, ...g.conductances].map((c) => pickRows(values[c]!, idx));
+    const rows = kept.perGroup[k];
+    const idx = (i: number) => (rows === null ? i : rows[i]);
+    const gb = rows === null ? values[g.bias]! : pickRows(values[g.bias]!, rows);
+    const gcols = [...g.currents, ...g.conductances].map((c) => (rows === null ? values[c]! : pickRows(values[c]!, rows)));
     const nc = g.currents.length;
-    const toSet = (order: ArrayLike<number>): SweepSet => {
+    const toSet = (order: ArrayLike<number> | null): SweepSet => {
       const m = mergeDuplicates(gb, gcols, order);
       duplicatesMerged += m.merged;
       return { biasV: m.biasV, currents: m.values.slice(0, nc), conductances: m.values.slice(nc) };
@@ -113,12 +114,13 @@ export function cutSweeps(
     const fullSegs = segs.length === 1 ? segs : chooseSweeps(gb, segs, minPoints, FULL_SWEEP_SHARE);
     const name = describeColumn(columns[g.bias]);
     const lineRange = (s: Segment) =>
-      `lines ${lineNumber(file, table.first + idx[s.start])}–${lineNumber(file, table.first + idx[s.end])}`;
+      `lines ${lineNumber(file, table.first + idx(s.start))}–${lineNumber(file, table.first + idx(s.end))}`;
     if (fullSegs) {
       for (const s of fullSegs) {
-        const order: number[] = [];
-        if (s.direction >= 0) for (let i = s.start; i <= s.end; i++) order.push(i);
-        else for (let i = s.end; i >= s.start; i--) order.push(i);
+        // A whole ascending column needs no list of rows (null: in order).
+        const whole = s.direction >= 0 && s.start === 0 && s.end === gb.length - 1;
+        const order = whole ? null : new Int32Array(s.end - s.start + 1);
+        if (order) for (let i = 0; i < order.length; i++) order[i] = s.direction >= 0 ? s.start + i : s.end - i;
         sets.push(toSet(order));
         directions.add(s.direction >= 0 ? "ascending" : "descending");
       }
@@ -158,19 +160,22 @@ export function cutSweeps(
  * ----------
  * col : Float64Array
  *     Values by data row.
- * idx : readonly number[]
- *     Data rows to take, in order.
+ * idx : ArrayLike<number>
+ *     Data rows to take, ascending and distinct (as {@link keepCompleteRows} gives them).
  *
  * Returns
  * -------
  * Float64Array
- *     A new array, `col[idx[i]]` at `i`.
+ *     `col[idx[i]]` at `i`: a new array, or `col` itself when every row is taken (not to be
+ *     written to).
  *
  * Example
  * -------
  * pickRows(Float64Array.of(5, 6, 7), [2, 0]);  // => Float64Array [7, 5]
  */
-export function pickRows(col: Float64Array, idx: readonly number[]): Float64Array {
+export function pickRows(col: Float64Array, idx: ArrayLike<number>): Float64Array {
+  // Every row kept (ascending and distinct, so the identity): the column itself, not a copy.
+  if (idx.length === col.length) return col;
   const out = new Float64Array(idx.length);
   for (let i = 0; i < idx.length; i++) out[i] = col[idx[i]];
   return out;
