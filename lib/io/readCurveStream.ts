@@ -4,17 +4,13 @@
  * importer's own stages, and every later row is read in batches straight into the columns of
  * numbers. Neither the whole text nor a string per row is ever held. Node only.
  */
-import { warnColumnAssumptions } from "./parse/assumptions.ts";
-import { assignUnits } from "./parse/columnUnits.ts";
-import { nameColumns } from "./parse/columns.ts";
 import { findDataRows, type DataRows } from "./parse/dataRows.ts";
 import { detectFormat, SAMPLE_LINES } from "./parse/format.ts";
-import { groupColumns } from "./parse/groups.ts";
 import { findHeader } from "./parse/header.ts";
 import { readMetadata, splitLines, type TextLines } from "./parse/lines.ts";
 import { readNumbers, type ColumnValues } from "./parse/numbers.ts";
 import { resolveParseOptions, type ParseOptions } from "./parse/options.ts";
-import { finishCurve, parseCurveText, type ParsedCurve } from "./parse/parseCurveText.ts";
+import { curveHead, finishCurve, parseCurveText, type ParsedCurve } from "./parse/parseCurveText.ts";
 import { addResolutions, finishResolutions, resolutionSums } from "./parse/resolution.ts";
 import { endsBlank, isDataRow, splitLine, startsLikeNumber } from "./cells.ts";
 import { forEachFileLine, withFileEncoding } from "./fileLines.ts";
@@ -192,7 +188,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
   // State after the head.
   let file!: TextLines;
   let table!: DataRows;
-  let stages!: Omit<ReturnType<typeof headStages>, "file" | "table">;
+  let stages!: Omit<ReturnType<typeof curveHead>, "file" | "table">;
   let drop = false;
   let firstCells: string[] = [];
   let firstAbs = 0;
@@ -246,7 +242,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
 
   const finishHead = () => {
     headDone = true;
-    const h = headStages(head.join("\n"), o, src);
+    const h = curveHead(head.join("\n"), o);
     file = h.file;
     table = h.table;
     stages = h;
@@ -360,18 +356,4 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
     metadata,
     warnings: stages.warnings,
   });
-}
-
-/** The importer's stages 1–5 on the head's text. */
-function headStages(text: string, o: ReturnType<typeof resolveParseOptions>, src: string) {
-  const warnings: string[] = [];
-  const file = splitLines(text, src);
-  const format = detectFormat(file, o.delimiter);
-  const table = findDataRows(file, format, src);
-  const header = findHeader(file, format.delimiter, table, src, warnings);
-  const columns = nameColumns(header, table.ncols, o, src);
-  const defaulted = assignUnits(columns, header.cells !== null, o.units, src, warnings);
-  warnColumnAssumptions(columns, header, table, format.decimalComma, defaulted, warnings);
-  const { biasColumns, groups } = groupColumns(columns, warnings);
-  return { file, table, header, columns, groups, biasColumns, warnings };
 }

@@ -108,25 +108,7 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   if (typeof text !== "string") {
     throw new DotspecError("io/not-text", `${src}: the input must be text (a string); got ${typeof text}`);
   }
-  const warnings: string[] = [];
-
-  // 1. Lines, comments, metadata.
-  const file = splitLines(text, src);
-
-  // 2. Delimiter and decimal separator.
-  const format = detectFormat(file, o.delimiter);
-
-  // 3. Rows, start of the data, header (and the preamble above it).
-  const table = findDataRows(file, format, src);
-  const header = findHeader(file, format.delimiter, table, src, warnings);
-
-  // 4. Columns: names, roles, overrides, units.
-  const columns = nameColumns(header, table.ncols, o, src);
-  const defaulted = assignUnits(columns, header.cells !== null, o.units, src, warnings);
-  warnColumnAssumptions(columns, header, table, format.decimalComma, defaulted, warnings);
-
-  // 5. Group current and conductance columns with their bias column.
-  const { biasColumns, groups } = groupColumns(columns, warnings);
+  const { file, format, table, header, columns, groups, biasColumns, warnings } = curveHead(text, o);
 
   // 6. Numbers.
   const values = readNumbers(file, format, table, header, columns, src);
@@ -134,6 +116,30 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
 
   // 7.–9.
   return finishCurve({ o, file, format, table, header, columns, groups, biasColumns, values, resolutions, metadata: file.metadata, warnings });
+}
+
+/**
+ * Stages 1–5 of the importer on a text (the whole file, or the head of a streamed one): lines,
+ * comments and metadata; delimiter and decimal separator; data rows and header; columns with
+ * their roles and units; current and conductance columns grouped with their bias column.
+ */
+export function curveHead(text: string, o: ResolvedOptions) {
+  const src = o.source;
+  const warnings: string[] = [];
+  // 1. Lines, comments, metadata.
+  const file = splitLines(text, src);
+  // 2. Delimiter and decimal separator.
+  const format = detectFormat(file, o.delimiter);
+  // 3. Rows, start of the data, header (and the preamble above it).
+  const table = findDataRows(file, format, src);
+  const header = findHeader(file, format.delimiter, table, src, warnings);
+  // 4. Columns: names, roles, overrides, units.
+  const columns = nameColumns(header, table.ncols, o, src);
+  const defaulted = assignUnits(columns, header.cells !== null, o.units, src, warnings);
+  warnColumnAssumptions(columns, header, table, format.decimalComma, defaulted, warnings);
+  // 5. Group current and conductance columns with their bias column.
+  const { biasColumns, groups } = groupColumns(columns, warnings);
+  return { file, format, table, header, columns, groups, biasColumns, warnings };
 }
 
 /** What the stages up to the numbers found: the input of {@link finishCurve}. */
