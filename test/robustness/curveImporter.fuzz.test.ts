@@ -8,23 +8,13 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { analysisToJson, analyzeCurve, parseCurveBytes, parseCurveText, type ParsedCurve } from "../../lib/core.ts";
 import { isDotspecError } from "../../lib/util/errors.ts";
+import { expectFiniteNumbers, outcomeOf, utf16Bytes } from "../helpers/fuzz.ts";
 
 const SOURCE = "fuzz.csv";
 
-/** The outcome of one parse: "ok" after checking the result, or the DotspecError's code after checking its message. */
+/** The outcome of one parse: "ok" after checking the result, or the DotspecError's code after checking its message (one line, naming the source, and the line for a ragged row). */
 function outcome(parse: () => ParsedCurve): string {
-  let r: ParsedCurve;
-  try {
-    r = parse();
-  } catch (e) {
-    if (!isDotspecError(e)) throw e; // anything else is a failure of the property
-    expect(e.message).not.toMatch(/[\r\n]/); // one line
-    expect(e.message.startsWith(`${SOURCE}: `)).toBe(true); // names the source
-    if (e.code === "io/ragged-row") expect(e.message).toMatch(/line \d+/); // and the line
-    return e.code;
-  }
-  checkResult(r);
-  return "ok";
+  return outcomeOf(parse, { source: SOURCE, lineCodes: ["io/ragged-row"] }, checkResult);
 }
 
 /** Every number of a parsed curve and of its record is finite; the bias ascends strictly. */
@@ -43,14 +33,6 @@ function checkResult({ curve, record }: ParsedCurve): void {
     if (q !== null) expect(Number.isFinite(q) && q >= 0).toBe(true);
   }
   expectFiniteNumbers(record, "record");
-}
-
-/** Every number anywhere in a plain value is finite. */
-function expectFiniteNumbers(value: unknown, path: string): void {
-  if (typeof value === "number") {
-    if (!Number.isFinite(value)) expect.fail(`${path} is ${value}`);
-  } else if (Array.isArray(value)) value.forEach((v, i) => expectFiniteNumbers(v, `${path}[${i}]`));
-  else if (value !== null && typeof value === "object") for (const [k, v] of Object.entries(value)) expectFiniteNumbers(v, `${path}.${k}`);
 }
 
 const bytesOf = (text: string) => new TextEncoder().encode(text);
@@ -184,22 +166,12 @@ describe("analyzeCurve(parseCurveText(text).curve) at any scale of bias and curr
 
 describe("parseCurveBytes(bytes): encodings and layouts a file may come in", () => {
   const good = curveText(50, (x) => x.toFixed(5));
-  const encode16 = (text: string, bigEndian: boolean): Uint8Array => {
-    const out = new Uint8Array(2 + 2 * text.length);
-    out.set(bigEndian ? [0xfe, 0xff] : [0xff, 0xfe]);
-    for (let i = 0; i < text.length; i++) {
-      const c = text.charCodeAt(i);
-      out[2 + 2 * i + (bigEndian ? 0 : 1)] = c >> 8;
-      out[2 + 2 * i + (bigEndian ? 1 : 0)] = c & 0xff;
-    }
-    return out;
-  };
   const expected = parseCurveText(good, { source: SOURCE }).curve;
 
   it.each([
     ["UTF-8 with a byte-order mark", Uint8Array.from([0xef, 0xbb, 0xbf, ...bytesOf(good)])],
-    ["UTF-16 LE with a byte-order mark", encode16(good, false)],
-    ["UTF-16 BE with a byte-order mark", encode16(good, true)],
+    ["UTF-16 LE with a byte-order mark", utf16Bytes(good, false)],
+    ["UTF-16 BE with a byte-order mark", utf16Bytes(good, true)],
     ["CRLF line ends", bytesOf(good.replace(/\n/g, "\r\n"))],
     ["decimal commas with semicolons", bytesOf(good.replace(/,/g, ";").replace(/\./g, ","))],
   ])("reads %s as the plain file", (_, bytes) => {
