@@ -2,6 +2,7 @@
  * How round a map is: the ratio of the principal axes of its second moments.
  */
 import type { MapImage } from "./mapImage.ts";
+import { secondMoments } from "./secondMoments.ts";
 
 /**
  * Roundness √(λmin/λmax) of a non-negative map, from the eigenvalues of its 2 × 2 covariance
@@ -33,20 +34,7 @@ import type { MapImage } from "./mapImage.ts";
  * ```
  */
 export function mapRoundness(map: MapImage, centreNM: [number, number]): number | null {
-  const { xNM, yNM, values } = map;
-  let sw = 0, sxx = 0, syy = 0, sxy = 0;
-  for (let iy = 0; iy < yNM.count; iy++) {
-    const dy = yNM.start + iy * yNM.step - centreNM[1];
-    for (let ix = 0; ix < xNM.count; ix++) {
-      const w = values[iy * xNM.count + ix];
-      if (!(w > 0)) continue;
-      const dx = xNM.start + ix * xNM.step - centreNM[0];
-      sw += w;
-      sxx += w * dx * dx;
-      syy += w * dy * dy;
-      sxy += w * dx * dy;
-    }
-  }
+  const { sw, sxx, syy, sxy } = secondMoments(map, centreNM);
   if (!(sw > 0)) return null;
   const a = sxx / sw, c = syy / sw, b = sxy / sw;
   const mean = (a + c) / 2;

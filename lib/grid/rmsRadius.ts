@@ -2,6 +2,7 @@
  * The size of a state in a map: the RMS distance from the map's centre.
  */
 import type { MapImage } from "./mapImage.ts";
+import { secondMoments } from "./secondMoments.ts";
 
 /**
  * RMS radius √(Σ w·|r − c|² / Σ w) of a non-negative map about a centre, nm.
@@ -31,17 +32,6 @@ import type { MapImage } from "./mapImage.ts";
  * ```
  */
 export function rmsRadius(map: MapImage, centreNM: [number, number]): number | null {
-  const { xNM, yNM, values } = map;
-  let sw = 0, s2 = 0;
-  for (let iy = 0; iy < yNM.count; iy++) {
-    const dy = yNM.start + iy * yNM.step - centreNM[1];
-    for (let ix = 0; ix < xNM.count; ix++) {
-      const w = values[iy * xNM.count + ix];
-      if (!(w > 0)) continue;
-      const dx = xNM.start + ix * xNM.step - centreNM[0];
-      sw += w;
-      s2 += w * (dx * dx + dy * dy);
-    }
-  }
-  return sw > 0 ? Math.sqrt(s2 / sw) : null;
+  const { sw, sxx, syy } = secondMoments(map, centreNM);
+  return sw > 0 ? Math.sqrt((sxx + syy) / sw) : null;
 }
