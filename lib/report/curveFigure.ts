@@ -12,7 +12,7 @@ import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import { normalizedConductance } from "../signal/normalizedConductance.ts";
 import { DotspecError } from "../util/errors.ts";
 import { MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION, multipletColor } from "./multipletColor.ts";
-import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
+import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName, SVG_NS, svgMaker, svgRoot } from "./figureParts.ts";
 
 /** Options of {@link curveFigure}. */
 export interface CurveFigureOptions {
@@ -78,7 +78,6 @@ export const CURVE_FIGURE_DEFAULTS = Object.freeze({
   dotRadius: 4.5,
 });
 
-const SVG_NS = "http://www.w3.org/2000/svg";
 
 const REGIME_WORDS: Record<CurveAnalysis["assignment"]["regime"], string> = {
   "shell-filling": "shell filling",
@@ -326,21 +325,8 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
 
   // Compose one SVG document.
   const height = headerHeight + D.currentPanelHeight + D.conductancePanelHeight + (normalized ? D.normalizedPanelHeight : 0);
-  const el = (name: string, attrs: Record<string, string | number>, text?: string) => {
-    const e = document.createElementNS(SVG_NS, name);
-    for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
-    if (text !== undefined) e.textContent = text;
-    return e;
-  };
-  const root = el("svg", {
-    xmlns: SVG_NS,
-    width,
-    height,
-    viewBox: `0 0 ${width} ${height}`,
-    "font-family": D.fontFamily,
-    "font-size": 12,
-    ...axisAttributes(domain, [D.marginLeft, width - D.marginRight], [headerHeight, height], a.energies.eta),
-  });
+  const el = svgMaker(document);
+  const root = svgRoot(el, width, height, D.fontFamily, axisAttributes(domain, [D.marginLeft, width - D.marginRight], [headerHeight, height], a.energies.eta));
   const etaText = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
   const title = options.title ?? `${sourceBaseName(analysis.source)}  —  ${REGIME_WORDS[a.regime]}, ${etaText}`;
   root.append(

@@ -101,3 +101,21 @@ export function axisAttributes(domain: [number, number], plotX: [number, number]
     "data-eta": String(eta),
   };
 }
+
+/** The SVG namespace of every figure. */
+export const SVG_NS = "http://www.w3.org/2000/svg";
+
+/** Makes SVG elements in `document`: `el(name, attributes, text?)`. */
+export function svgMaker(document: Document): (name: string, attrs: Record<string, string | number>, text?: string) => Element {
+  return (name, attrs, text) => {
+    const e = document.createElementNS(SVG_NS, name);
+    for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
+    if (text !== undefined) e.textContent = text;
+    return e;
+  };
+}
+
+/** The root `<svg>` of a figure of width × height px in the given font, with any further attributes. */
+export function svgRoot(el: ReturnType<typeof svgMaker>, width: number, height: number, fontFamily: string, extra: Record<string, string> = {}): Element {
+  return el("svg", { xmlns: SVG_NS, width, height, viewBox: `0 0 ${width} ${height}`, "font-family": fontFamily, "font-size": 12, ...extra });
+}

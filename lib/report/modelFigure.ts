@@ -10,7 +10,7 @@ import * as Plot from "@observablehq/plot";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import type { CurveFit } from "../model/fit/index.ts";
 import { DotspecError } from "../util/errors.ts";
-import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName } from "./figureParts.ts";
+import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName, svgMaker, svgRoot } from "./figureParts.ts";
 
 /** A model curve to draw: `simulateCurve`'s result fits as it is. */
 export interface ModelCurve {
@@ -67,7 +67,6 @@ export const MODEL_FIGURE_DEFAULTS = Object.freeze({
   }),
 });
 
-const SVG_NS = "http://www.w3.org/2000/svg";
 
 /**
  * Draws a measured curve against the model as a standalone SVG document.
@@ -182,21 +181,8 @@ export function modelFigure(analysis: CurveAnalysis, options: ModelFigureOptions
   if (fit) legend.push(["±1σ current noise", C.noise]);
 
   const height = D.headerHeight + panels.reduce((s, [, h]) => s + h, 0);
-  const el = (name: string, attrs: Record<string, string | number>, text?: string) => {
-    const e = document.createElementNS(SVG_NS, name);
-    for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
-    if (text !== undefined) e.textContent = text;
-    return e;
-  };
-  const root = el("svg", {
-    xmlns: SVG_NS,
-    width,
-    height,
-    viewBox: `0 0 ${width} ${height}`,
-    "font-family": D.fontFamily,
-    "font-size": 12,
-    ...axisAttributes(domain, [D.marginLeft, width - D.marginRight], [D.headerHeight, height], analysis.assignment.energies.eta),
-  });
+  const el = svgMaker(document);
+  const root = svgRoot(el, width, height, D.fontFamily, axisAttributes(domain, [D.marginLeft, width - D.marginRight], [D.headerHeight, height], analysis.assignment.energies.eta));
   const title = options.title ?? `${sourceBaseName(analysis.source)}  —  measured curve and model`;
   root.append(el("title", {}, title), el("rect", { width, height, fill: C.background }), el("text", { x: 16, y: 24, "font-size": 15, "font-weight": 600, fill: C.title }, title));
   const g = el("g", { transform: "translate(16, 40)", "font-size": 11, fill: C.subtitle });

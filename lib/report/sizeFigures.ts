@@ -13,6 +13,7 @@ import { evaluateSizeFit, type SizeFit } from "../sizes/fitSizeModels.ts";
 import type { SizeQuantity } from "../sizes/sizeQuantities.ts";
 import { dotQuantity, type SizeSeries } from "../sizes/sizeSeries.ts";
 import type { SizeFigureName } from "./loadSizeFigures.ts";
+import { svgMaker, svgRoot } from "./figureParts.ts";
 
 /** Options of {@link sizeFigures}. */
 export interface SizeFiguresOptions {
@@ -56,7 +57,6 @@ export const SIZE_FIGURE_DEFAULTS = Object.freeze({
 
 export type { SizeFigureName } from "./loadSizeFigures.ts";
 
-const SVG_NS = "http://www.w3.org/2000/svg";
 
 interface PointSet {
   name: string;
@@ -313,13 +313,8 @@ function drawPanel(document: Document, width: number, panel: Panel): string {
   }
   const header = D.headerHeight + row * D.legendRowHeight;
   const height = header + plotHeight;
-  const el = (name: string, attrs: Record<string, string | number>, text?: string) => {
-    const e = document.createElementNS(SVG_NS, name);
-    for (const [k, v] of Object.entries(attrs)) e.setAttribute(k, String(v));
-    if (text !== undefined) e.textContent = text;
-    return e;
-  };
-  const root = el("svg", { xmlns: SVG_NS, width, height, viewBox: `0 0 ${width} ${height}`, "font-family": D.fontFamily, "font-size": 12 });
+  const el = svgMaker(document);
+  const root = svgRoot(el, width, height, D.fontFamily);
   root.append(
     el("title", {}, panel.title),
     el("rect", { width, height, fill: C.background }),
