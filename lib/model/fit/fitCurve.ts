@@ -18,6 +18,7 @@ import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 
@@ -89,6 +90,28 @@ export const FIT_DEFAULTS = Object.freeze({
    * A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)); a tie goes to the hypothesis listed first.
    */
   bicTieMargin: 2,
+  /**
+   * Most charge states per band (Π(g_j + 1)) of the assignment's own grouping that is fitted when
+   * another grouping can be compared instead: one evaluation of the model grows steeply with it
+   * (about 10 s for 3,465 states, an s, p, d, f reading of four peaks, on 800 points).
+   */
+  maxAssignedStates: 400,
+  /**
+   * A compared grouping whose CB-side fit ends above this reduced χ² is tried again with every CB
+   * level's start shifted by −Ec and by +Ec (a first charging peak missed, or one too many), the
+   * better by BIC kept: a ladder one Ec off settles at reduced χ² 3–9 on curves where the right
+   * one reaches about 1.
+   */
+  shiftChiSquare: 2,
+  /**
+   * The winner's whole-curve values stand unless their reduced χ² is above this and above
+   * wholeCurveRatio times its CB side's: then no reading of the VB peaks fits with the CB values
+   * and the CB side's values are reported (a VB reading one Ec off pulls Ec by 5–10 % while the
+   * whole curve still looks "good").
+   */
+  wholeCurveChiSquare: 3,
+  /** See wholeCurveChiSquare. */
+  wholeCurveRatio: 2,
 });
 
 /** One fitted parameter with its standard error. */
@@ -253,11 +276,15 @@ export interface CurveFit {
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
  *    the VB reading, which they share, stays out of the comparison); the best
- *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there, then fitted to the whole
+ *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
+ *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
+ *    too many, and the better by BIC kept), then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
- *    above 10 while the CB side's is not (then the CB-side values, a warning says so). Without a rival, the assignment alone
+ *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
+ *    values, a warning says so). An assignment with more than maxAssignedStates (400) charge
+ *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
  * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
@@ -372,7 +399,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // When the rules left the regime undetermined, their grouping (single levels) is fitted to the
   // whole curve only if no grouping of CB peaks can be compared with it.
   const comparable = hypotheses.some((h) => h.seeds.some((x) => x.band === "CB"));
-  if (!undetermined || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
+  // An assignment too large to fit in time (many degenerate single levels) is left to the
+  // comparison when there is one.
+  const tooLarge = hypotheses[0].states > F.maxAssignedStates && !alone && comparable;
+  if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
   const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare;
@@ -396,7 +426,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const cbOnly = new Map<FitHypothesis, FitHypothesis>();
     for (const h of hypotheses) {
       const seeds = h.seeds.filter((x) => x.band === "CB");
-      if (seeds.length) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
+      if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
     }
     const explored: FitTrial[] = [];
     for (const [h, hc] of cbOnly) {
@@ -412,6 +442,28 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
     const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
     trials.push(...cbFinals);
+    // A grouping that settles well above the noise may be one Ec off (its first charging peak
+    // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
+    cbFinals.forEach((t, i) => {
+      if (t.hypothesis.kind === "assigned" || reduced(t) <= F.shiftChiSquare) return;
+      const at = parameterIndex(t.hypothesis.seeds.length);
+      const ecV = t.loop.parameters[at.chargingEnergy] / eta;
+      const original = [...cbOnly.entries()].find(([, hc]) => hc === t.hypothesis)![0];
+      for (const sign of [-1, 1]) {
+        const shift = (x: LevelSeed): LevelSeed => (x.band === "CB" ? { ...x, firstPeakV: x.firstPeakV + sign * ecV } : x);
+        const moved = { chargingEnergyStartEV: t.loop.parameters[at.chargingEnergy], rateRatioStartLog10: t.loop.parameters[at.logRateRatio] };
+        const full: FitHypothesis = { ...original, name: `${original.name} ${sign < 0 ? "−" : "+"}Ec`, label: `${original.label}, every level one Ec ${sign < 0 ? "lower" : "higher"}`, seeds: original.seeds.map(shift), ...moved };
+        const hc: FitHypothesis = { ...full, seeds: t.hypothesis.seeds.map(shift), vbReadings: [[]] };
+        if (hc.seeds.some((x) => x.firstPeakV <= 0)) continue;
+        cbOnly.set(full, hc);
+        const explored = run(hc, null, explore, undefined, cbSide);
+        trials.push(explored);
+        if (explored.bic >= cbFinals[i].bic) continue;
+        const done = { ...run(hc, null, maxIterations, explored.loop.parameters, cbSide), rateRatio0: explored.rateRatio0 };
+        trials.push(done);
+        if (done.bic < cbFinals[i].bic) cbFinals[i] = done;
+      }
+    });
     /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
     const wholeFit = (cbDone: FitTrial): FitTrial => {
       const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
@@ -461,13 +513,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
   // the forced regimes before the ladders): readings that reach the same levels are one model.
   const lowest = Math.min(...pool.map((t) => t.bic));
-  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name);
+  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
   const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
   const whole = wholeOf.get(winner);
   let best = whole ?? winner;
   // When no reading of the VB peaks fits together with the CB values, the result is the CB side
   // alone (its Ec, rate ratio and CB levels), said in a warning.
-  if (whole && poor(whole) && !poor(winner)) {
+  if (whole && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
     warnings.push(
       `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(whole).toPrecision(3)} over the whole curve, ${reduced(winner).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
     );

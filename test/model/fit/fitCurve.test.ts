@@ -97,6 +97,10 @@ describe("fitCurve(analysis)", () => {
       regimeSigmas: 2,
       decisiveChiSquare: 2,
       bicTieMargin: 2,
+      maxAssignedStates: 400,
+      shiftChiSquare: 2,
+      wholeCurveChiSquare: 3,
+      wholeCurveRatio: 2,
     });
   });
 });
