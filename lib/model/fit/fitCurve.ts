@@ -12,7 +12,7 @@ import { parameterIndex } from "./parameterModel.ts";
 import { unitCurrent } from "./unitCurrent.ts";
 import { projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
-import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
+import { fitStatus, type FitStatus } from "./fitStatus.ts";
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
@@ -61,8 +61,12 @@ export const FIT_DEFAULTS = Object.freeze({
   fillingRatioMin: REGIME_LIMITS.fillingRateRatioMin,
   /** … and at or below which it is in shell tunnelling (in between: intermediate). */
   tunnelingRatioMax: REGIME_LIMITS.tunnelingRateRatioMax,
-  /** A reduced χ² above this says the model does not describe the curve well (FIT_STATUS_DEFAULTS.poorChiSquare). */
-  poorFitChiSquare: FIT_STATUS_DEFAULTS.poorChiSquare,
+  /**
+   * A reduced χ² above this says the model does not describe the curve at all (a warning; in the
+   * comparison, a whole-curve fit above it does not count against a grouping's plausibility).
+   * The status is stricter: poor above FIT_STATUS_DEFAULTS.poorChiSquare (3).
+   */
+  poorFitChiSquare: 10,
   compareModels: false,
   /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
