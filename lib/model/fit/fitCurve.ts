@@ -9,7 +9,7 @@ import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { unitCurrent } from "./unitCurrent.ts";
+import { bandStepsMemo } from "./bandStepsMemo.ts";
 import { projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, type FitStatus } from "./fitStatus.ts";
@@ -96,10 +96,11 @@ export const FIT_DEFAULTS = Object.freeze({
   bicTieMargin: 2,
   /**
    * Most charge states per band (Π(g_j + 1)) of the assignment's own grouping that is fitted when
-   * another grouping can be compared instead: one evaluation of the model grows steeply with it
-   * (about 10 s for 3,465 states, an s, p, d, f reading of four peaks, on 800 points).
+   * another grouping can be compared instead (the compared groupings' own limit,
+   * FIT_HYPOTHESES_DEFAULTS.maxStatesPerBand): one evaluation of the model grows steeply with it
+   * (about 10 s for 3,465 states, an s, p, d, f reading of four peaks; 0.1 s for 231, s, p, d).
    */
-  maxAssignedStates: 400,
+  maxAssignedStates: 100,
   /**
    * A compared grouping whose CB-side fit ends above this reduced χ² is tried again with every CB
    * level's start shifted by −Ec and by +Ec (a first charging peak missed, or one too many), the
@@ -263,7 +264,7 @@ export interface CurveFit {
  *    per multiplet or sub-group, ε = η·V_first − Ec·(N_before + ½); shell tunnelling: one level
  *    per peak, ε = η·V − Ec/2, Ec from `chargingEnergyGuessEV`); rate ratio 10 (filling),
  *    0.02 (tunnelling) or 1; broadening from the measured peak width.
- * 2. Model ({@link parameterModel}, {@link unitCurrent}, {@link projectLinear}): the fast form of the orthodox master equation (zero-temperature plateaus joined by
+ * 2. Model ({@link parameterModel}, {@link bandStepsMemo}, {@link projectLinear}): the fast form of the orthodox master equation (zero-temperature plateaus joined by
  *    Gaussian-broadened steps, {@link fastCurrent}) plus offset + b1·V + b3·V³. The rate scale,
  *    offset and background enter linearly and are solved by least squares inside every model
  *    evaluation (variable projection); Levenberg–Marquardt adjusts the level energies, Ec,
@@ -287,7 +288,7 @@ export interface CurveFit {
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
- *    values, a warning says so). An assignment with more than maxAssignedStates (400) charge
+ *    values, a warning says so). An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
@@ -364,7 +365,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, set.biasV), set.biasV, set.v3, set.dataA);
+    const current = bandStepsMemo(h.seeds, eta, temperatureK);
+    const evaluate = (p: ArrayLike<number>) => projectLinear(current(p, set.biasV), set.biasV, set.v3, set.dataA);
     let cacheKey = "";
     let cacheOut = new Float64Array(set.n);
     const modelScaled = (p: number[]) => {
@@ -546,12 +548,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
   // result was fitted to.
   const { biasV, dataA, v3, n } = best.set;
-  const final = projectLinear(unitCurrent(params, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
+  const current = bandStepsMemo(seeds, eta, temperatureK);
+  const final = projectLinear(current(params, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
   const full = [...params, ...final.coef];
   const fullModel = (q: number[]) => {
-    const unit = unitCurrent(q, seeds, eta, temperatureK, biasV);
+    const unit = current(q, biasV);
     const out = new Float64Array(n);
     for (let i = 0; i < n; i++) out[i] = (q[at.rateScale] * unit[i] + q[at.offset] + q[at.backgroundLinear] * biasV[i] + q[at.backgroundCubic] * v3[i]) / noiseA;
     return out;

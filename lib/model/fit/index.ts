@@ -14,6 +14,7 @@ export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";
 export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";
 export { unitCurrent } from "./unitCurrent.ts";
+export { bandStepsMemo, BAND_STEPS_MEMO_DEFAULTS } from "./bandStepsMemo.ts";
 export { projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
 export { standardErrors } from "./standardErrors.ts";

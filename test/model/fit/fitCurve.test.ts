@@ -97,7 +97,7 @@ describe("fitCurve(analysis)", () => {
       regimeSigmas: 2,
       decisiveChiSquare: 2,
       bicTieMargin: 2,
-      maxAssignedStates: 400,
+      maxAssignedStates: 100,
       shiftChiSquare: 2,
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,
