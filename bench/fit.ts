@@ -103,6 +103,8 @@ const chiQuantiles = (set: Row[]) => {
 };
 const right = (r: Row) => r.regimeRight && r.ecWithin && r.ratioWithin;
 lines.push(`reduced χ², all three right: ${chiQuantiles(rows.filter(right))}; the rest: ${chiQuantiles(rows.filter((r) => !right(r)))}`);
+const statusesOf = (set: Row[]) => ["good", "poor", "failed"].map((s) => `${s} ${set.filter((r) => r.status === s).length}`).join(", ");
+lines.push(`status, all three right: ${statusesOf(rows.filter(right))}; the rest: ${statusesOf(rows.filter((r) => !right(r)))}`);
 const times = rows.map((r) => r.ms).sort((a, b) => a - b);
 const q = (p: number) => times[Math.min(times.length - 1, Math.floor(p * times.length))];
 lines.push(`time per fit: median ${q(0.5).toFixed(0)} ms, 90th percentile ${q(0.9).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms`);
