@@ -10,7 +10,7 @@ export type FitStatus = "good" | "poor" | "failed";
 export const FIT_STATUS_DEFAULTS = Object.freeze({
   /**
    * Reduced χ² above which the fit is poor. On noise-calibrated simulated curves across the
-   * crossover (`npm run bench:fit`, 2 × 60 spectra) the fits that recover Ec within 3 % and
+   * crossover (`npm run bench:fit`, 3 × 60 spectra) the fits that recover Ec within 3 % and
    * Γtip/Γsub within × 1.5 end at reduced χ² 1.0 at the median and below 2 in nine cases in ten,
    * while ladders one Ec off settle at 3–9: 3 leaves the right fits good and the wrong ones
    * poor. Real curves carry model error the simulation has not; a noise estimate that is too

@@ -5,7 +5,8 @@
  * scale, offset and background, the Levenberg–Marquardt loop, the standard errors, the verdict,
  * and fitCurve, which composes them.
  */
-export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
+export { fitCurve, FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
+export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
 export { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 export { hypothesisPlausibility, PLAUSIBILITY_DEFAULTS, type PlausibilityInput, type PlausibilityLevel } from "./hypothesisPlausibility.ts";
 export { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
