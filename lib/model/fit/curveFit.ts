@@ -26,7 +26,8 @@ export interface FittedLevel {
 export interface FitAlternative {
   /**
    * "assigned", the regime forced on the same peaks ("shell-filling", "shell-tunneling"), or a
-   * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …).
+   * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …),
+   * followed by " −Ec" or " +Ec" when retried with every CB level started one Ec lower or higher.
    */
   hypothesis: string;
   /** Regime of that grouping of the peaks ("intermediate" for a ladder entered from the empty dot). */
