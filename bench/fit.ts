@@ -37,6 +37,8 @@ interface Row {
   ecWithin: boolean;
   ratioWithin: boolean;
   status: string;
+  /** Reduced χ² of the fit reported. */
+  chi: number;
   ms: number;
 }
 const rows: Row[] = [];
@@ -57,7 +59,7 @@ for (let k = 0; k < count; k++) {
   try {
     fit = fitCurve(analysis, { compareModels });
   } catch (err) {
-    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", ms: performance.now() - t0 });
+    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", chi: NaN, ms: performance.now() - t0 });
     continue;
   }
   const ms = performance.now() - t0;
@@ -69,6 +71,7 @@ for (let k = 0; k < count; k++) {
     ecWithin: usable && Math.abs(fit.chargingEnergyEV.value - truth.chargingEnergyEV) <= 0.03 * truth.chargingEnergyEV,
     ratioWithin: usable && Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio)) <= Math.log(1.5),
     status: fit.status,
+    chi: fit.reducedChiSquare,
     ms,
   };
   rows.push(row);
@@ -91,6 +94,17 @@ for (const regime of ["shell-tunneling", "intermediate", "shell-filling", "all"]
       `Γtip/Γsub within ×1.5 ${pct(set.filter((r) => r.ratioWithin).length, set.length)}, all three ${pct(all, set.length)}; ${statuses}`,
   );
 }
+// Reduced χ² reached by the fits that got all three right, and by the rest: where the status
+// limits of fitStatus should fall on noise-calibrated simulated curves.
+const chiQuantiles = (set: Row[]) => {
+  const c = set.map((r) => r.chi).filter(Number.isFinite).sort((a, b) => a - b);
+  const at = (p: number) => (c.length ? c[Math.min(c.length - 1, Math.floor(p * c.length))].toPrecision(3) : "—");
+  return `${c.length} fits, median ${at(0.5)}, 90th pct ${at(0.9)}, max ${c.length ? c[c.length - 1].toPrecision(3) : "—"}`;
+};
+const right = (r: Row) => r.regimeRight && r.ecWithin && r.ratioWithin;
+lines.push(`reduced χ², all three right: ${chiQuantiles(rows.filter(right))}; the rest: ${chiQuantiles(rows.filter((r) => !right(r)))}`);
+const statusesOf = (set: Row[]) => ["good", "poor", "failed"].map((s) => `${s} ${set.filter((r) => r.status === s).length}`).join(", ");
+lines.push(`status, all three right: ${statusesOf(rows.filter(right))}; the rest: ${statusesOf(rows.filter((r) => !right(r)))}`);
 const times = rows.map((r) => r.ms).sort((a, b) => a - b);
 const q = (p: number) => times[Math.min(times.length - 1, Math.floor(p * times.length))];
 lines.push(`time per fit: median ${q(0.5).toFixed(0)} ms, 90th percentile ${q(0.9).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms`);

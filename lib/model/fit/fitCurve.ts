@@ -9,17 +9,21 @@ import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { unitCurrent } from "./unitCurrent.ts";
+import { bandStepsMemo } from "./bandStepsMemo.ts";
 import { projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
-import { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus } from "./fitStatus.ts";
+import { fitStatus } from "./fitStatus.ts";
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
+import type { CurveFit, FittedValue } from "./curveFit.ts";
+
+export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
 
 /** Options of {@link fitCurve}. */
 export interface FitOptions {
@@ -60,8 +64,12 @@ export const FIT_DEFAULTS = Object.freeze({
   fillingRatioMin: REGIME_LIMITS.fillingRateRatioMin,
   /** … and at or below which it is in shell tunnelling (in between: intermediate). */
   tunnelingRatioMax: REGIME_LIMITS.tunnelingRateRatioMax,
-  /** A reduced χ² above this says the model does not describe the curve well (FIT_STATUS_DEFAULTS.poorChiSquare). */
-  poorFitChiSquare: FIT_STATUS_DEFAULTS.poorChiSquare,
+  /**
+   * A reduced χ² above this says the model does not describe the curve at all (a warning; in the
+   * comparison, a whole-curve fit above it does not count against a grouping's plausibility).
+   * The status is stricter: poor above FIT_STATUS_DEFAULTS.poorChiSquare (3).
+   */
+  poorFitChiSquare: 10,
   compareModels: false,
   /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
@@ -89,114 +97,30 @@ export const FIT_DEFAULTS = Object.freeze({
    * A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)); a tie goes to the hypothesis listed first.
    */
   bicTieMargin: 2,
+  /**
+   * Most charge states per band (Π(g_j + 1)) of the assignment's own grouping that is fitted when
+   * another grouping can be compared instead (the compared groupings' own limit,
+   * FIT_HYPOTHESES_DEFAULTS.maxStatesPerBand): one evaluation of the model grows steeply with it
+   * (about 10 s for 3,465 states, an s, p, d, f reading of four peaks; 0.1 s for 231, s, p, d).
+   */
+  maxAssignedStates: 100,
+  /**
+   * A compared grouping whose CB-side fit ends above this reduced χ² is tried again with every CB
+   * level's start shifted by −Ec and by +Ec (a first charging peak missed, or one too many), the
+   * better by BIC kept: a ladder one Ec off settles at reduced χ² 3–9 on curves where the right
+   * one reaches about 1.
+   */
+  shiftChiSquare: 2,
+  /**
+   * The winner's whole-curve values stand unless their reduced χ² is above this and above
+   * wholeCurveRatio times its CB side's: then no reading of the VB peaks fits with the CB values
+   * and the CB side's values are reported (a VB reading one Ec off pulls Ec by 5–10 % while the
+   * whole curve still looks "good").
+   */
+  wholeCurveChiSquare: 3,
+  /** See wholeCurveChiSquare. */
+  wholeCurveRatio: 2,
 });
-
-/** One fitted parameter with its standard error. */
-export interface FittedValue {
-  value: number;
-  standardError: number;
-}
-
-/** A fitted level. */
-export interface FittedLevel {
-  band: "CB" | "VB";
-  /** Label of the multiplet it came from (s, p, d, v1, …), with a sub-group index when split. */
-  label: string;
-  degeneracy: number;
-  /** Level energy relative to the Fermi level at zero bias, eV. */
-  energyEV: FittedValue;
-  /** The same referred to bias, ε/η, V. */
-  energyV: FittedValue;
-}
-
-/** One start of one hypothesis that {@link fitCurve} tried. */
-export interface FitAlternative {
-  /**
-   * "assigned", the regime forced on the same peaks ("shell-filling", "shell-tunneling"), or a
-   * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …).
-   */
-  hypothesis: string;
-  /** Regime of that grouping of the peaks ("intermediate" for a ladder entered from the empty dot). */
-  regime: string;
-  /** Levels fitted. */
-  levels: number;
-  /** Degeneracies of its CB levels, from the gap outward (multiplet sizes). */
-  cbDegeneracies: number[];
-  /** Γtip/Γsub it started from and ended at. */
-  rateRatioStart: number;
-  rateRatio: number;
-  /** Fitted Ec, eV. */
-  chargingEnergyEV: number;
-  reducedChiSquare: number;
-  /**
-   * The points fitted: "both" (the whole curve) or "CB" (its CB side, where groupings of the CB
-   * peaks are compared). BIC compares only runs on the same points.
-   */
-  side: "both" | "CB";
-  /** Bayesian information criterion χ² + k·ln n ({@link bayesianInformationCriterion}). */
-  bic: number;
-  /** Whether this run had the full iteration budget (not only explored). */
-  finished: boolean;
-  /** Why it is physically implausible (empty: plausible); null when not checked. */
-  implausible: string[] | null;
-  /**
-   * exp(−ΔBIC/2), normalised over the plausible finalists (their CB-side fits when groupings were
-   * compared, else the assignment's whole-curve fits): the relative weight of evidence; 0 for the rest.
-   */
-  weight: number;
-}
-
-/** Result of {@link fitCurve}. */
-export interface CurveFit {
-  source: string;
-  converged: boolean;
-  /** Why the fit stopped. */
-  message: string;
-  iterations: number;
-  eta: number;
-  /**
-   * "good" (the model describes the curve and Ec and Γtip/Γsub are determined), "poor" (it
-   * describes it only roughly, or a key parameter is poorly determined) or "failed" (no start
-   * describes the curve: no fit; the values are not to be used). From the reduced χ² and the
-   * parameter errors, not from the optimiser's convergence.
-   */
-  status: FitStatus;
-  /** Why the status is what it is, in words. */
-  statusReasons: string[];
-  /** The hypothesis the values come from. */
-  hypothesis: FitAlternative["hypothesis"];
-  /** Why that hypothesis won, in words (BIC differences, implausible rivals). */
-  evidence: string[];
-  /** Every start of every hypothesis tried, with its score. */
-  alternatives: FitAlternative[];
-  levels: FittedLevel[];
-  chargingEnergyEV: FittedValue;
-  /** Ec/η, V. */
-  chargingEnergyV: FittedValue;
-  /** Γtip/Γsub. */
-  rateRatio: FittedValue;
-  /** Γsub, 1/s (the overall rate scale). */
-  substrateRatePerS: FittedValue;
-  /** Gaussian level broadening, eV. */
-  broadeningEV: FittedValue;
-  /** Current offset, A. */
-  offsetA: FittedValue;
-  /** Background I_bg = b1·V + b3·V³: b1 in S, b3 in A/V³. */
-  backgroundLinearS: FittedValue;
-  backgroundCubicAPerV3: FittedValue;
-  /** χ² per degree of freedom, with the current noise of the analysis as σ. */
-  reducedChiSquare: number;
-  /**
-   * Regime implied by the fitted rate ratio and its error ({@link fitVerdict}); "undetermined"
-   * when the error reaches both regimes or there is no fit.
-   */
-  regime: "shell-filling" | "shell-tunneling" | "intermediate" | "undetermined";
-  /** Why, in words (the ratio and its range, or what is missing). */
-  regimeReason: string;
-  /** Bias, data, model and residual on the points used, for plotting. */
-  residuals: { biasV: Float64Array; currentA: Float64Array; modelA: Float64Array; residualA: Float64Array };
-  warnings: string[];
-}
 
 /**
  * Fits the model of a dot in a double-barrier junction to one measured curve, starting from its
@@ -236,7 +160,7 @@ export interface CurveFit {
  *    per multiplet or sub-group, ε = η·V_first − Ec·(N_before + ½); shell tunnelling: one level
  *    per peak, ε = η·V − Ec/2, Ec from `chargingEnergyGuessEV`); rate ratio 10 (filling),
  *    0.02 (tunnelling) or 1; broadening from the measured peak width.
- * 2. Model ({@link parameterModel}, {@link unitCurrent}, {@link projectLinear}): the fast form of the orthodox master equation (zero-temperature plateaus joined by
+ * 2. Model ({@link parameterModel}, {@link bandStepsMemo}, {@link projectLinear}): the fast form of the orthodox master equation (zero-temperature plateaus joined by
  *    Gaussian-broadened steps, {@link fastCurrent}) plus offset + b1·V + b3·V³. The rate scale,
  *    offset and background enter linearly and are solved by least squares inside every model
  *    evaluation (variable projection); Levenberg–Marquardt adjusts the level energies, Ec,
@@ -253,11 +177,15 @@ export interface CurveFit {
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
  *    the VB reading, which they share, stays out of the comparison); the best
- *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there, then fitted to the whole
+ *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
+ *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
+ *    too many, and the better by BIC kept), then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
- *    above 10 while the CB side's is not (then the CB-side values, a warning says so). Without a rival, the assignment alone
+ *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
+ *    values, a warning says so). An assignment with more than maxAssignedStates (100) charge
+ *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
  * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
@@ -333,7 +261,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const evaluate = (p: ArrayLike<number>) => projectLinear(unitCurrent(p, h.seeds, eta, temperatureK, set.biasV), set.biasV, set.v3, set.dataA);
+    const current = bandStepsMemo(h.seeds, eta, temperatureK);
+    const evaluate = (p: ArrayLike<number>) => projectLinear(current(p, set.biasV), set.biasV, set.v3, set.dataA);
     let cacheKey = "";
     let cacheOut = new Float64Array(set.n);
     const modelScaled = (p: number[]) => {
@@ -372,7 +301,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // When the rules left the regime undetermined, their grouping (single levels) is fitted to the
   // whole curve only if no grouping of CB peaks can be compared with it.
   const comparable = hypotheses.some((h) => h.seeds.some((x) => x.band === "CB"));
-  if (!undetermined || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
+  // An assignment too large to fit in time (many degenerate single levels) is left to the
+  // comparison when there is one.
+  const tooLarge = hypotheses[0].states > F.maxAssignedStates && !alone && comparable;
+  if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
   const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare;
@@ -396,7 +328,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const cbOnly = new Map<FitHypothesis, FitHypothesis>();
     for (const h of hypotheses) {
       const seeds = h.seeds.filter((x) => x.band === "CB");
-      if (seeds.length) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
+      if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
     }
     const explored: FitTrial[] = [];
     for (const [h, hc] of cbOnly) {
@@ -412,6 +344,28 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
     const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
     trials.push(...cbFinals);
+    // A grouping that settles well above the noise may be one Ec off (its first charging peak
+    // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
+    cbFinals.forEach((t, i) => {
+      if (t.hypothesis.kind === "assigned" || reduced(t) <= F.shiftChiSquare) return;
+      const at = parameterIndex(t.hypothesis.seeds.length);
+      const ecV = t.loop.parameters[at.chargingEnergy] / eta;
+      const original = [...cbOnly.entries()].find(([, hc]) => hc === t.hypothesis)![0];
+      for (const sign of [-1, 1]) {
+        const shift = (x: LevelSeed): LevelSeed => (x.band === "CB" ? { ...x, firstPeakV: x.firstPeakV + sign * ecV } : x);
+        const moved = { chargingEnergyStartEV: t.loop.parameters[at.chargingEnergy], rateRatioStartLog10: t.loop.parameters[at.logRateRatio] };
+        const full: FitHypothesis = { ...original, name: `${original.name} ${sign < 0 ? "−" : "+"}Ec`, label: `${original.label}, every level one Ec ${sign < 0 ? "lower" : "higher"}`, seeds: original.seeds.map(shift), ...moved };
+        const hc: FitHypothesis = { ...full, seeds: t.hypothesis.seeds.map(shift), vbReadings: [[]] };
+        if (hc.seeds.some((x) => x.firstPeakV <= 0)) continue;
+        cbOnly.set(full, hc);
+        const explored = run(hc, null, explore, undefined, cbSide);
+        trials.push(explored);
+        if (explored.bic >= cbFinals[i].bic) continue;
+        const done = { ...run(hc, null, maxIterations, explored.loop.parameters, cbSide), rateRatio0: explored.rateRatio0 };
+        trials.push(done);
+        if (done.bic < cbFinals[i].bic) cbFinals[i] = done;
+      }
+    });
     /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
     const wholeFit = (cbDone: FitTrial): FitTrial => {
       const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
@@ -461,13 +415,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
   // the forced regimes before the ladders): readings that reach the same levels are one model.
   const lowest = Math.min(...pool.map((t) => t.bic));
-  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name);
+  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
   const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
   const whole = wholeOf.get(winner);
   let best = whole ?? winner;
   // When no reading of the VB peaks fits together with the CB values, the result is the CB side
   // alone (its Ec, rate ratio and CB levels), said in a warning.
-  if (whole && poor(whole) && !poor(winner)) {
+  if (whole && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
     warnings.push(
       `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(whole).toPrecision(3)} over the whole curve, ${reduced(winner).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
     );
@@ -490,12 +444,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
   // result was fitted to.
   const { biasV, dataA, v3, n } = best.set;
-  const final = projectLinear(unitCurrent(params, seeds, eta, temperatureK, biasV), biasV, v3, dataA);
+  const current = bandStepsMemo(seeds, eta, temperatureK);
+  const final = projectLinear(current(params, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
   const full = [...params, ...final.coef];
   const fullModel = (q: number[]) => {
-    const unit = unitCurrent(q, seeds, eta, temperatureK, biasV);
+    const unit = current(q, biasV);
     const out = new Float64Array(n);
     for (let i = 0; i < n; i++) out[i] = (q[at.rateScale] * unit[i] + q[at.offset] + q[at.backgroundLinear] * biasV[i] + q[at.backgroundCubic] * v3[i]) / noiseA;
     return out;

@@ -57,12 +57,15 @@ export interface PlausibilityInput {
  * With D = PLAUSIBILITY_DEFAULTS:
  * 1. No key parameter (Ec, Γtip/Γsub) on a bound.
  * 2. Level order: each band's levels move away from the gap in the order seeded (CB ascending,
- *    VB descending), and the lowest CB level lies above the highest VB level.
+ *    VB descending), and the lowest CB level lies above the highest VB level. The sub-levels of
+ *    one split CB shell (p1, p2, …) may lie in either order (which one the shape lowers is not
+ *    fixed); each must lie above every level of the shells before it.
  * 3. Ec ≤ D.maxChargingFractionOfGap × (lowest CB level − highest VB level), when both bands
  *    have levels.
  * 4. Degeneracy counts: the CB levels of one shell (labels s, p, p1, p2, …) hold at most its
  *    capacity (D.shellCapacity).
- * 5. A split shell (p1, p2, …) spans less than its distance from the shell below (ε_p1 − ε_s):
+ * 5. A split shell (p1, p2, …) spans less than its distance from the shell below (its lowest
+ *    sub-level less the highest level of the shell below):
  *    sub-levels split by shape lie closer together than the shells.
  *
  * Example
@@ -81,7 +84,13 @@ export function hypothesisPlausibility(input: PlausibilityInput): string[] {
   for (const name of input.atBound) reasons.push(`${name} ended on a bound of the fit`);
   const cb = input.levels.filter((l) => l.band === "CB");
   const vb = input.levels.filter((l) => l.band === "VB");
-  for (let j = 1; j < cb.length; j++) if (!(cb[j].energyEV > cb[j - 1].energyEV)) reasons.push(`CB level ${cb[j].label} lies below ${cb[j - 1].label}`);
+  // Between shells the order is fixed; the sub-levels of one split shell may lie either way round.
+  const letterOf = (l: PlausibilityLevel) => l.label.replace(/\d+$/, "");
+  for (let j = 1; j < cb.length; j++) {
+    const lower = cb.slice(0, j).filter((l) => letterOf(l) !== letterOf(cb[j]));
+    const top = lower.reduce<PlausibilityLevel | null>((a, l) => (!a || l.energyEV > a.energyEV ? l : a), null);
+    if (top && !(cb[j].energyEV > top.energyEV)) reasons.push(`CB level ${cb[j].label} lies below ${top.label}`);
+  }
   for (let j = 1; j < vb.length; j++) if (!(vb[j].energyEV < vb[j - 1].energyEV)) reasons.push(`VB level ${vb[j].label} lies above ${vb[j - 1].label}`);
   if (cb.length && vb.length) {
     const gap = Math.min(...cb.map((l) => l.energyEV)) - Math.max(...vb.map((l) => l.energyEV));
@@ -91,21 +100,19 @@ export function hypothesisPlausibility(input: PlausibilityInput): string[] {
     }
   }
   const shells = new Map<string, PlausibilityLevel[]>();
-  for (const l of cb) {
-    const letter = l.label.replace(/\d+$/, "");
-    shells.set(letter, [...(shells.get(letter) ?? []), l]);
-  }
+  for (const l of cb) shells.set(letterOf(l), [...(shells.get(letterOf(l)) ?? []), l]);
   let below: PlausibilityLevel | null = null;
   for (const [letter, levels] of shells) {
     const held = levels.reduce((a, l) => a + l.degeneracy, 0);
     const capacity = D.shellCapacity[letter];
     if (capacity !== undefined && held > capacity) reasons.push(`shell ${letter} holds ${held} electrons, more than its ${capacity}`);
     if (levels.length > 1 && below) {
-      const span = levels[levels.length - 1].energyEV - levels[0].energyEV;
-      const distance = levels[0].energyEV - below.energyEV;
+      const energies = levels.map((l) => l.energyEV);
+      const span = Math.max(...energies) - Math.min(...energies);
+      const distance = Math.min(...energies) - below.energyEV;
       if (span >= distance) reasons.push(`the split ${letter} shell spans ${(span * 1000).toFixed(0)} meV, more than its distance ${(distance * 1000).toFixed(0)} meV from the shell below`);
     }
-    below = levels[levels.length - 1];
+    below = levels.reduce((a, l) => (l.energyEV > a.energyEV ? l : a));
   }
   return reasons;
 }

@@ -5,7 +5,8 @@
  * scale, offset and background, the Levenberg–Marquardt loop, the standard errors, the verdict,
  * and fitCurve, which composes them.
  */
-export { fitCurve, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FittedLevel, type FittedValue } from "./fitCurve.ts";
+export { fitCurve, FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
+export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
 export { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 export { hypothesisPlausibility, PLAUSIBILITY_DEFAULTS, type PlausibilityInput, type PlausibilityLevel } from "./hypothesisPlausibility.ts";
 export { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
@@ -14,6 +15,7 @@ export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";
 export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";
 export { unitCurrent } from "./unitCurrent.ts";
+export { bandStepsMemo, BAND_STEPS_MEMO_DEFAULTS } from "./bandStepsMemo.ts";
 export { projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
 export { standardErrors } from "./standardErrors.ts";

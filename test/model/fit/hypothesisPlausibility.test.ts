@@ -16,11 +16,18 @@ describe("hypothesisPlausibility(input)", () => {
     expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.91, atBound: [] }).join(" ")).toMatch(/Ec 910 meV is more than 0.5 × the single-particle gap 1800 meV/);
   });
 
-  it("rejects levels out of the order seeded, and overlapping bands", () => {
-    const swapped = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.95), level("CB", "p2", 4, 0.9)];
-    expect(hypothesisPlausibility({ levels: swapped, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/p2 lies below p1/);
+  it("rejects levels out of the order seeded between shells, and overlapping bands", () => {
+    const swapped = [level("CB", "s", 2, 0.6), level("CB", "p", 6, 0.55)];
+    expect(hypothesisPlausibility({ levels: swapped, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/p lies below s/);
+    const subBelowS = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.9), level("CB", "p2", 4, 0.58)];
+    expect(hypothesisPlausibility({ levels: subBelowS, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/p2 lies below s/);
     const overlap = [level("CB", "s", 2, 0.6), level("VB", "v1", 2, 0.7)];
     expect(hypothesisPlausibility({ levels: overlap, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/overlap/);
+  });
+
+  it("accepts the sub-levels of a split shell in either order (p2 below p1, both above s)", () => {
+    const swapped = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.95), level("CB", "p2", 4, 0.9)];
+    expect(hypothesisPlausibility({ levels: swapped, chargingEnergyEV: 0.1, atBound: [] })).toEqual([]);
   });
 
   it("rejects a shell holding more than its capacity (p: 2 + 2 + 4 = 8 > 6)", () => {
