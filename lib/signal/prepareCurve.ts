@@ -8,6 +8,7 @@ import { biasStep, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
 import { checkKnownKeys, checkOneOf } from "../util/check.ts";
 import { DotspecError } from "../util/errors.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
+import { blockAverageUnchecked } from "./blockAverage.ts";
 import { whiteNoiseSigmaUnchecked } from "./noise.ts";
 import { checkAscending, resampleUniformUnchecked } from "./resample.ts";
 import { findSaturation, type SaturatedRange } from "./saturation.ts";
@@ -45,6 +46,14 @@ export const PREPARE_CURVE_DEFAULTS = Object.freeze({
   maxMagnitude: 1e60,
   /** Largest |bias| accepted, V: far beyond any tunnelling junction (the same reason). */
   maxBiasV: 1e6,
+  /**
+   * A curve with more points than this is averaged in blocks of adjacent samples down to at most
+   * this many (note 3): 20,000 points over a few volts is a step of a few tenths of a mV, finer
+   * than the thermal width at liquid-helium temperature (3.5 kT ≈ 1.4 mV at 4.5 K), so nothing
+   * the analysis measures is lost, while the cost of the smoothing and of the local step fits
+   * (which grows with the samples per peak) stays bounded. Common practice (no source).
+   */
+  maxPoints: 20000,
 });
 
 const OPTION_KEYS = ["offset"] as const;
@@ -99,6 +108,8 @@ export interface PreparedCurve {
   offsetRegionV: [number, number] | null;
   /** Whether the curve was interpolated onto a uniform bias grid. */
   resampled: boolean;
+  /** Samples averaged per point (1: none; more when the curve had more than PREPARE_CURVE_DEFAULTS.maxPoints points). */
+  blockSamples: number;
   /**
    * Flat runs of the current at its extreme at an end of the bias range (the amplifier's range,
    * {@link findSaturation}), on the grid before the cut; they and the bias beyond them were left
@@ -241,18 +252,21 @@ function estimateOffset(biasV: Float64Array, currentA: Float64Array, sigmaA: num
  *    minimum at an end of the bias range, equal within the resolution of the written numbers and
  *    either noisy around it or entered at a knee, is the amplifier's range: it is cut off, with
  *    a warning, and listed in `saturation`.
- * 3. Noise: σ_I = whiteNoiseSigma(I), from the third differences of the current (robust to the
+ * 3. Block averages: a curve of more than PREPARE_CURVE_DEFAULTS.maxPoints points (20,000) is
+ *    averaged in blocks of b = ⌈n / maxPoints⌉ adjacent samples ({@link blockAverageUnchecked};
+ *    the last n mod b samples are left out), with a warning; `blockSamples` says b.
+ * 4. Noise: σ_I = whiteNoiseSigma(I), from the third differences of the current (robust to the
  *    steps of I(V)); likewise σ of a measured conductance. Neither goes below q/√12, the σ of
  *    a rounding error of width q, where q is the resolution the numbers were written with
  *    (`curve.meta.currentResolutionA`, `conductanceResolutionS`, set by the importer): a curve
  *    written without noise would otherwise have σ ≈ 0 and every rounding step would pass as a
- *    peak. `noiseCurrentBound` says which bound was used.
- * 4. Offset ("gap"): starting from the bias point nearest 0 V, grow an interval outward on each
+ *    peak. `noiseCurrentBound` says which bound was used. After block averages, q/√(12·b).
+ * 5. Offset ("gap"): starting from the bias point nearest 0 V, grow an interval outward on each
  *    side while |I − I₀| ≤ max(4σ_I, 1e-6 × current range), I₀ the median of the 5 samples around
  *    0 V; a side stops after 3 samples in a row outside. The offset is the median current of the
  *    interval and is subtracted from the current. 0 V outside the bias range, or an interval of
  *    fewer than 5 samples, gives a warning. The constants are in {@link PREPARE_CURVE_DEFAULTS}.
- * 5. Sign: of the points where the offset-corrected |I| > 4σ_I, if at least 80 % have
+ * 6. Sign: of the points where the offset-corrected |I| > 4σ_I, if at least 80 % have
  *    I·V < 0, the current and its sweeps are negated (warning): the project's convention is
  *    that the current has the sign of the (sample) bias. A measured conductance negative at 80 %
  *    of its points above 4σ is negated too (an inverted lock-in phase). The constants are in
@@ -334,16 +348,33 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
     sweepsA = sweepsA.map(cut);
     measuredS = measuredS ? cut(measuredS) : null;
   }
+  // 3. Oversampled curves: block averages (note 3).
+  let blockSamples = 1;
+  if (biasV.length > D.maxPoints) {
+    blockSamples = Math.ceil(biasV.length / D.maxPoints);
+    const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
+    if (measuredS) all.push(measuredS);
+    const r = blockAverageUnchecked(biasV, all, blockSamples);
+    warnings.push(
+      `the curve has ${biasV.length} points, more than ${D.maxPoints}: adjacent samples were averaged in blocks of ${blockSamples} (bias step ${fmt(stepV * 1e3)} → ${fmt(stepV * blockSamples * 1e3)} mV, ${r.biasV.length} points); the noise estimates refer to the averages.`,
+    );
+    biasV = r.biasV;
+    stepV *= blockSamples;
+    currentIn = r.series[0];
+    sweepsA = r.series.slice(1, 1 + sweepsA.length);
+    measuredS = measuredS ? r.series[r.series.length - 1] : null;
+  }
   const n = biasV.length;
 
-  // 3. Noise.
+  // 4. Noise (the rounding floor of a block mean is that of one sample over √b).
+  const perBlock = (q: number | null | undefined) => (q == null ? q : q / Math.sqrt(blockSamples));
   const noiseCurrentEstimateA = n >= 4 ? whiteNoiseSigmaUnchecked(currentIn, 3) : 0;
-  const currentNoise = floored(noiseCurrentEstimateA, curve.meta?.currentResolutionA);
+  const currentNoise = floored(noiseCurrentEstimateA, perBlock(curve.meta?.currentResolutionA));
   const noiseCurrentA = currentNoise.sigma;
-  const measuredNoise = measuredS && n >= 4 ? floored(whiteNoiseSigmaUnchecked(measuredS, 3), curve.meta?.conductanceResolutionS) : null;
+  const measuredNoise = measuredS && n >= 4 ? floored(whiteNoiseSigmaUnchecked(measuredS, 3), perBlock(curve.meta?.conductanceResolutionS)) : null;
   const noiseMeasuredS = measuredNoise ? measuredNoise.sigma : null;
 
-  // 4. Offset.
+  // 5. Offset.
   const currentA = Float64Array.from(currentIn);
   let offsetA = 0;
   let offsetRegionV: [number, number] | null = null;
@@ -365,7 +396,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
       for (let i = 0; i < n; i++) currentA[i] -= offsetA;
     }
   }
-  // 5. Sign (on the offset-corrected current; the offset stays as the file has it): the current has the sign of the bias (sample-bias convention); a file that records it
+  // 6. Sign (on the offset-corrected current; the offset stays as the file has it): the current has the sign of the bias (sample-bias convention); a file that records it
   // the other way round is flipped, with a warning.
   const currentSignFlipped = opposesBias(biasV, currentA, D.signCheckSigma * noiseCurrentA, D.oppositeSignFraction);
   if (currentSignFlipped) {
@@ -397,6 +428,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
     offsetA,
     offsetRegionV,
     resampled,
+    blockSamples,
     saturation,
     currentSignFlipped,
     conductanceSignFlipped,

@@ -27,6 +27,7 @@ describe("prepareCurve(curve)", () => {
       oppositeSignFraction: 0.8,
       maxMagnitude: 1e60,
       maxBiasV: 1e6,
+      maxPoints: 20000,
     });
     expect(Object.isFrozen(PREPARE_CURVE_DEFAULTS)).toBe(true);
   });
