@@ -2,7 +2,7 @@
  * The identity of an input file for provenance: its name, size and SHA-256. Node only.
  */
 import { createHash } from "node:crypto";
-import { readFileSync } from "node:fs";
+import { closeSync, openSync, readSync } from "node:fs";
 import { DotspecError } from "../util/errors.ts";
 
 /** Name, size and content hash of an input file. */
@@ -48,12 +48,27 @@ export function sha256Hex(data: string | Uint8Array): string {
  * inputDigest("dot-01.csv"); // => { name: "dot-01.csv", bytes: 61234, sha256: "3f…" }
  */
 export function inputDigest(path: string): InputDigest {
-  let bytes: Buffer;
+  // Read in chunks: a large input is hashed without being held in memory.
+  const hash = createHash("sha256");
+  const chunk = Buffer.allocUnsafe(INPUT_DIGEST_CHUNK_BYTES);
+  let total = 0;
+  let fd: number | null = null;
   try {
-    bytes = readFileSync(path);
+    fd = openSync(path, "r");
+    for (;;) {
+      const got = readSync(fd, chunk, 0, chunk.length, null);
+      if (got === 0) break;
+      hash.update(chunk.subarray(0, got));
+      total += got;
+    }
   } catch (err) {
     const reason = err instanceof Error ? err.message : String(err);
     throw new DotspecError("io/unreadable", `${path}: cannot be read (${reason})`);
+  } finally {
+    if (fd !== null) closeSync(fd);
   }
-  return { name: path, bytes: bytes.length, sha256: sha256Hex(bytes) };
+  return { name: path, bytes: total, sha256: hash.digest("hex") };
 }
+
+/** Bytes read at a time by {@link inputDigest}. */
+const INPUT_DIGEST_CHUNK_BYTES = 1 << 20;

@@ -48,7 +48,7 @@ export const PREPARE_CURVE_DEFAULTS = Object.freeze({
   maxBiasV: 1e6,
   /**
    * A curve with more points than this is averaged in blocks of adjacent samples down to at most
-   * this many (note 3): 20,000 points over a few volts is a step of a few tenths of a mV, finer
+   * this many (note 2): 20,000 points over a few volts is a step of a few tenths of a mV, finer
    * than the thermal width at liquid-helium temperature (3.5 kT ≈ 1.4 mV at 4.5 K), so nothing
    * the analysis measures is lost, while the cost of the smoothing and of the local step fits
    * (which grows with the samples per peak) stays bounded. Common practice (no source).
@@ -248,13 +248,13 @@ function estimateOffset(biasV: Float64Array, currentA: Float64Array, sigmaA: num
  * 1. Resample: if some bias step differs from the median step by more than 1 %
  *    ({@link UNIFORM_STEP_TOLERANCE}), interpolate the current, the sweeps and the measured dI/dV
  *    linearly onto a uniform grid with the median step (warning).
- * 2. Saturation ({@link findSaturation}): a flat run of ≥ 5 samples at the current's maximum or
+ * 2. Block averages: a curve of more than PREPARE_CURVE_DEFAULTS.maxPoints points (20,000) is
+ *    averaged in blocks of b = ⌈n / maxPoints⌉ adjacent samples ({@link blockAverageUnchecked};
+ *    the last n mod b samples are left out), with a warning; `blockSamples` says b.
+ * 3. Saturation ({@link findSaturation}): a flat run of ≥ 5 samples at the current's maximum or
  *    minimum at an end of the bias range, equal within the resolution of the written numbers and
  *    either noisy around it or entered at a knee, is the amplifier's range: it is cut off, with
  *    a warning, and listed in `saturation`.
- * 3. Block averages: a curve of more than PREPARE_CURVE_DEFAULTS.maxPoints points (20,000) is
- *    averaged in blocks of b = ⌈n / maxPoints⌉ adjacent samples ({@link blockAverageUnchecked};
- *    the last n mod b samples are left out), with a warning; `blockSamples` says b.
  * 4. Noise: σ_I = whiteNoiseSigma(I), from the third differences of the current (robust to the
  *    steps of I(V)); likewise σ of a measured conductance. Neither goes below q/√12, the σ of
  *    a rounding error of width q, where q is the resolution the numbers were written with
@@ -306,7 +306,8 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   let resampled = false;
   const step = biasStep(curve.biasV, D.uniformStepTolerance);
   if (n0 < 3 || step.uniform) {
-    biasV = Float64Array.from(curve.biasV);
+    // A curve to be block-averaged (step 3) is not copied first: the averages are new arrays.
+    biasV = n0 > D.maxPoints && curve.biasV instanceof Float64Array ? curve.biasV : Float64Array.from(curve.biasV);
     stepV = (biasV[n0 - 1] - biasV[0]) / Math.max(1, n0 - 1);
   } else {
     const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
@@ -329,7 +330,23 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
     measuredS = measuredS ? r.series[r.series.length - 1] : null;
     resampled = true;
   }
-  // 2. Saturation: flat runs at the current's extremes at the ends are cut off.
+  // 2. Oversampled curves: block averages (note 2), before anything else reads every sample.
+  let blockSamples = 1;
+  if (biasV.length > D.maxPoints) {
+    blockSamples = Math.ceil(biasV.length / D.maxPoints);
+    const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
+    if (measuredS) all.push(measuredS);
+    const r = blockAverageUnchecked(biasV, all, blockSamples);
+    warnings.push(
+      `the curve has ${biasV.length} points, more than ${D.maxPoints}: adjacent samples were averaged in blocks of ${blockSamples} (bias step ${fmt(stepV * 1e3)} → ${fmt(stepV * blockSamples * 1e3)} mV, ${r.biasV.length} points); the noise estimates refer to the averages.`,
+    );
+    biasV = r.biasV;
+    stepV *= blockSamples;
+    currentIn = r.series[0];
+    sweepsA = r.series.slice(1, 1 + sweepsA.length);
+    measuredS = measuredS ? r.series[r.series.length - 1] : null;
+  }
+  // 3. Saturation (on the averages): flat runs at the current's extremes at the ends are cut off.
   const resolutionA = curve.meta?.currentResolutionA;
   const saturation = biasV.length >= 4 ? findSaturation(biasV, currentIn, { resolutionA, noiseA: whiteNoiseSigmaUnchecked(currentIn, 3) }) : [];
   if (saturation.length) {
@@ -347,22 +364,6 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
     currentIn = cut(currentIn);
     sweepsA = sweepsA.map(cut);
     measuredS = measuredS ? cut(measuredS) : null;
-  }
-  // 3. Oversampled curves: block averages (note 3).
-  let blockSamples = 1;
-  if (biasV.length > D.maxPoints) {
-    blockSamples = Math.ceil(biasV.length / D.maxPoints);
-    const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
-    if (measuredS) all.push(measuredS);
-    const r = blockAverageUnchecked(biasV, all, blockSamples);
-    warnings.push(
-      `the curve has ${biasV.length} points, more than ${D.maxPoints}: adjacent samples were averaged in blocks of ${blockSamples} (bias step ${fmt(stepV * 1e3)} → ${fmt(stepV * blockSamples * 1e3)} mV, ${r.biasV.length} points); the noise estimates refer to the averages.`,
-    );
-    biasV = r.biasV;
-    stepV *= blockSamples;
-    currentIn = r.series[0];
-    sweepsA = r.series.slice(1, 1 + sweepsA.length);
-    measuredS = measuredS ? r.series[r.series.length - 1] : null;
   }
   const n = biasV.length;
 
