@@ -33,6 +33,18 @@ function polarityOption(value: string): "sample" | "tip" {
   return value;
 }
 
+/** The options that `analyze` and `sizes` share, as commander hands them over: the analysis settings ({@link addAnalysisOptions}) and the output. */
+export interface AnalysisCliOptions extends CurveCliOptions {
+  windowMv?: number | "auto";
+  order?: number;
+  minStepSigma?: number;
+  useMeasured?: boolean;
+  json?: boolean;
+  out?: string;
+  jobs?: number;
+  force?: boolean;
+}
+
 /** Declares the analysis settings that `analyze` and `sizes` share: the Savitzky–Golay window and order, the peak significance, a measured dI/dV. */
 export function addAnalysisOptions(command: Command): Command {
   return command

@@ -23,19 +23,11 @@ import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { PROGRESS_DEFAULTS, startProgress, type Progress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
-import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
+import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type AnalysisCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec analyze` as commander hands them over. */
-export interface AnalyzeCliOptions extends CurveCliOptions {
-  windowMv?: number | "auto";
-  order?: number;
-  minStepSigma?: number;
-  useMeasured?: boolean;
-  json?: boolean;
-  out?: string;
-  jobs?: number;
-  force?: boolean;
+export interface AnalyzeCliOptions extends AnalysisCliOptions {
   replay?: string;
 }
 

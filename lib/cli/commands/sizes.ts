@@ -50,25 +50,17 @@ import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
 import { startProgress } from "../progress.ts";
 import { runAnalyzeJobs } from "../runAnalyzeJobs.ts";
-import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type CurveCliOptions } from "../curveOptions.ts";
+import { addAnalysisOptions, addUnitOptions, etaOption, readOptions, type AnalysisCliOptions } from "../curveOptions.ts";
 import type { CliCommand } from "./command.ts";
 
 /** Options of `dotspec sizes` as commander hands them over. */
-export interface SizesCliOptions extends CurveCliOptions {
+export interface SizesCliOptions extends AnalysisCliOptions {
   meta?: string;
   material?: string;
   materialFile?: string;
   optical?: string;
   formula?: string[];
   binNm?: number;
-  windowMv?: number | "auto";
-  order?: number;
-  minStepSigma?: number;
-  useMeasured?: boolean;
-  json?: boolean;
-  out?: string;
-  jobs?: number;
-  force?: boolean;
 }
 
 /** Names inside the --out folder. */
