@@ -13,6 +13,12 @@
  * @returns the m×m row-major inverse, or null.
  */
 export function symmetricInverse(a: Float64Array, m: number): Float64Array | null {
+  const l = choleskyFactor(a, m);
+  return l && trailingInverse(l, m, m);
+}
+
+/** Cholesky–Banachiewicz factor L (row-major, lower) of A = L·Lᵀ; null when a pivot is not positive. */
+function choleskyFactor(a: ArrayLike<number>, m: number): Float64Array | null {
   const l = new Float64Array(m * m);
   for (let i = 0; i < m; i++) {
     for (let j = 0; j <= i; j++) {
@@ -24,23 +30,32 @@ export function symmetricInverse(a: Float64Array, m: number): Float64Array | nul
       } else l[i * m + j] = s / l[j * m + j];
     }
   }
-  // L⁻¹ (lower triangular), in place of a fresh array.
-  const li = new Float64Array(m * m);
-  for (let i = 0; i < m; i++) {
-    li[i * m + i] = 1 / l[i * m + i];
+  return l;
+}
+
+/**
+ * The trailing t×t block of A⁻¹ from the Cholesky factor L of A: since L⁻¹ is lower triangular,
+ * that block of L⁻ᵀL⁻¹ involves only the trailing block of L⁻¹, the inverse of L's trailing block.
+ * With t = m, the whole inverse.
+ */
+function trailingInverse(l: Float64Array, m: number, t: number): Float64Array {
+  const o = m - t;
+  const li = new Float64Array(t * t);
+  for (let i = 0; i < t; i++) {
+    li[i * t + i] = 1 / l[(o + i) * m + o + i];
     for (let j = 0; j < i; j++) {
       let s = 0;
-      for (let k = j; k < i; k++) s -= l[i * m + k] * li[k * m + j];
-      li[i * m + j] = s / l[i * m + i];
+      for (let k = j; k < i; k++) s -= l[(o + i) * m + o + k] * li[k * t + j];
+      li[i * t + j] = s / l[(o + i) * m + o + i];
     }
   }
-  const inv = new Float64Array(m * m);
-  for (let i = 0; i < m; i++) {
+  const inv = new Float64Array(t * t);
+  for (let i = 0; i < t; i++) {
     for (let j = 0; j <= i; j++) {
       let s = 0;
-      for (let k = i; k < m; k++) s += li[k * m + i] * li[k * m + j];
-      inv[i * m + j] = s;
-      inv[j * m + i] = s;
+      for (let k = i; k < t; k++) s += li[k * t + i] * li[k * t + j];
+      inv[i * t + j] = s;
+      inv[j * t + i] = s;
     }
   }
   return inv;
@@ -97,17 +112,10 @@ export interface TailSolution {
 export function scaledCholeskySolve(a: ArrayLike<number>, b: ArrayLike<number>, m: number, tail: number): TailSolution | null {
   const d = new Float64Array(m);
   for (let r = 0; r < m; r++) d[r] = Math.sqrt(a[r * m + r]) || 1;
-  const l = new Float64Array(m * m);
-  for (let i = 0; i < m; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = a[i * m + j] / (d[i] * d[j]);
-      for (let k = 0; k < j; k++) s -= l[i * m + k] * l[j * m + k];
-      if (i === j) {
-        if (!(s > 0)) return null;
-        l[i * m + i] = Math.sqrt(s);
-      } else l[i * m + j] = s / l[j * m + j];
-    }
-  }
+  const scaled = new Float64Array(m * m);
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) scaled[r * m + c] = a[r * m + c] / (d[r] * d[c]);
+  const l = choleskyFactor(scaled, m);
+  if (!l) return null;
   // L·y = D⁻¹b, then Lᵀ·z = y, x = D⁻¹z.
   const x = new Float64Array(m);
   for (let i = 0; i < m; i++) {
@@ -121,26 +129,8 @@ export function scaledCholeskySolve(a: ArrayLike<number>, b: ArrayLike<number>, 
     x[i] = s / l[i * m + i];
   }
   for (let i = 0; i < m; i++) x[i] /= d[i];
-  // Inverse of the trailing block of L (lower triangular), then its Gram product.
   const t = Math.max(0, Math.min(m, tail)), o = m - t;
-  const li = new Float64Array(t * t);
-  for (let i = 0; i < t; i++) {
-    li[i * t + i] = 1 / l[(o + i) * m + o + i];
-    for (let j = 0; j < i; j++) {
-      let s = 0;
-      for (let k = j; k < i; k++) s -= l[(o + i) * m + o + k] * li[k * t + j];
-      li[i * t + j] = s / l[(o + i) * m + o + i];
-    }
-  }
-  const tailInverse = new Float64Array(t * t);
-  for (let i = 0; i < t; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = 0;
-      for (let k = i; k < t; k++) s += li[k * t + i] * li[k * t + j];
-      s /= d[o + i] * d[o + j];
-      tailInverse[i * t + j] = s;
-      tailInverse[j * t + i] = s;
-    }
-  }
+  const tailInverse = trailingInverse(l, m, t);
+  for (let i = 0; i < t; i++) for (let j = 0; j < t; j++) tailInverse[i * t + j] /= d[o + i] * d[o + j];
   return { x, tailInverse };
 }
