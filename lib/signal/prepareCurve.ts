@@ -306,8 +306,9 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   let resampled = false;
   const step = biasStep(curve.biasV, D.uniformStepTolerance);
   if (n0 < 3 || step.uniform) {
-    // A curve to be block-averaged (step 3) is not copied first: the averages are new arrays.
-    biasV = n0 > D.maxPoints && curve.biasV instanceof Float64Array ? curve.biasV : Float64Array.from(curve.biasV);
+    // Read in place; copied on return only if no later step made a new array (block averages,
+    // the saturation cut), so a long curve is not copied before it is averaged.
+    biasV = curve.biasV;
     stepV = (biasV[n0 - 1] - biasV[0]) / Math.max(1, n0 - 1);
   } else {
     const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
@@ -415,7 +416,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   }
 
   return {
-    biasV,
+    biasV: biasV === curve.biasV ? Float64Array.from(biasV) : biasV,
     currentA,
     sweepsA,
     measuredS,
