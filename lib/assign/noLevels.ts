@@ -4,14 +4,16 @@
  */
 
 /** Why a curve shows no dot levels. */
-export type NoLevelsCode = "no-peaks" | "no-gap" | "lone-peak";
+export type NoLevelsCode = "no-peaks" | "no-gap" | "lone-peak" | "faint-peaks";
 
 /** The verdict of {@link noLevels}: a stable code and the reason in words. */
 export interface NoLevels {
   /**
    * "no-peaks": no peak passed the current-step test; "no-gap": the conductance at 0 V is above
    * its noise (no zero-conductance region: an ohmic or metallic contact); "lone-peak": a single
-   * peak, on one side of the gap only, which a smooth background with noise can produce.
+   * peak, on one side of the gap only, which a smooth background with noise can produce;
+   * "faint-peaks": no peak stands out of the dI/dV by more than white noise alone reaches over a
+   * curve (the current steps behind them can be the curvature of a smooth background).
    */
   code: NoLevelsCode;
   /** The reason in words, with the numbers it used. */
@@ -31,12 +33,23 @@ export interface NoLevelsInput {
    * I(0 V); `prepareCurve`'s offset region); 0 when there is none.
    */
   zeroCurrentSamples: number;
+  /**
+   * Prominence of the strongest peak over the noise of dI/dV (the largest `Peak.snr`), in units
+   * of that noise. Optional: without it the "faint-peaks" rule is not applied.
+   */
+  strongestProminenceSigma?: number;
 }
 
 /** Constants of {@link noLevels} (locked by test/assign/noLevels.test.ts). */
 export const NO_LEVELS_DEFAULTS = Object.freeze({
   /** A gap needs a zero-current region of at least this many samples when dI/dV at 0 V is above its noise. */
   minZeroCurrentSamples: 5,
+  /**
+   * The strongest peak must stand this many noise σ above its surroundings in dI/dV (note 3):
+   * about the median of the largest prominence that smoothed white noise alone reaches over a
+   * 2,001-sample curve (6.1–6.5 σ for windows of 10–80 mV, measured by simulation).
+   */
+  minStrongestProminenceSigma: 6,
 });
 
 /**
@@ -66,7 +79,15 @@ export const NO_LEVELS_DEFAULTS = Object.freeze({
  *    dI/dV at 0 V does not discard a dot.
  * 2. No accepted peak: "no-peaks" (a curve of noise, an open circuit, or a smooth exponential,
  *    e.g. tunnelling straight into the substrate).
- * 3. Exactly one peak: "lone-peak" (a single level cannot be told from a bump of a smooth
+ * 3. The strongest peak's prominence below NO_LEVELS_DEFAULTS.minStrongestProminenceSigma (6)
+ *    noise σ of dI/dV: "faint-peaks". Every peak then is a bump no larger than smoothed white
+ *    noise produces somewhere on a curve anyway, and the current step that let it pass the step
+ *    test can be the curvature of a smooth background: a steep exponential (tunnelling into the
+ *    substrate, or an ohmic leak through a thin shell) recorded with little noise bends more
+ *    within a fit window than a line follows, and every noise bump on it gets a "significant"
+ *    step. A dot's levels stand far above that (on the project's synthetic benchmark spectra the
+ *    strongest peak is at least 7.8 σ, 13 σ at the 5th percentile).
+ * 4. Exactly one peak: "lone-peak" (a single level cannot be told from a bump of a smooth
  *    background, and no gap between a CB and a VB peak can be formed).
  * Otherwise null.
  *
@@ -89,6 +110,13 @@ export function noLevels(input: NoLevelsInput): NoLevels | null {
       code: "no-peaks",
       reason:
         "no peak passed the current-step test: the curve shows no dot levels (noise only, an open circuit, or a smooth background such as tunnelling into the substrate)",
+    };
+  }
+  const strongest = input.strongestProminenceSigma;
+  if (strongest !== undefined && strongest < NO_LEVELS_DEFAULTS.minStrongestProminenceSigma) {
+    return {
+      code: "faint-peaks",
+      reason: `the strongest of the ${peaksV.length} peak${peaksV.length === 1 ? "" : "s"} stands only ${Number(strongest.toPrecision(2))}σ above its surroundings in dI/dV, less than white noise alone reaches somewhere on a curve (${NO_LEVELS_DEFAULTS.minStrongestProminenceSigma}σ); their current steps can be the curvature of a smooth background (such as an exponential rise from tunnelling into the substrate) rather than levels`,
     };
   }
   if (peaksV.length === 1) {

@@ -263,6 +263,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     gapEdgesV: edges,
     zeroInRange: nb > 0 && signal.biasV[0] <= 0 && signal.biasV[nb - 1] >= 0,
     zeroCurrentSamples: zeroRegion ? Math.round((zeroRegion[1] - zeroRegion[0]) / prepared.stepV) + 1 : 0,
+    strongestProminenceSigma: peaks.length ? Math.max(...peaks.map((p) => p.snr)) : undefined,
   });
   const assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const roles = peakRoles(peaks.length, assignment);

@@ -23,7 +23,7 @@ export interface AnalysisJson {
   gapEdgesV: [number, number] | null;
   /**
    * Set when the curve shows no dot levels (ohmic, noise, open circuit, a smooth exponential):
-   * a stable code ("no-gap", "no-peaks", "lone-peak") and the reason; then there are no
+   * a stable code ("no-gap", "no-peaks", "faint-peaks", "lone-peak") and the reason; then there are no
    * multiplets and every quantity is null. Null otherwise.
    */
   noLevels: { code: string; reason: string } | null;

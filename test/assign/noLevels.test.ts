@@ -5,7 +5,7 @@ import { noLevels, NO_LEVELS_DEFAULTS } from "../../lib/assign/noLevels.ts";
 
 describe("noLevels(input)", () => {
   it("NO_LEVELS_DEFAULTS are locked", () => {
-    expect(NO_LEVELS_DEFAULTS).toEqual({ minZeroCurrentSamples: 5 });
+    expect(NO_LEVELS_DEFAULTS).toEqual({ minZeroCurrentSamples: 5, minStrongestProminenceSigma: 6 });
     expect(Object.isFrozen(NO_LEVELS_DEFAULTS)).toBe(true);
   });
 
@@ -24,6 +24,15 @@ describe("noLevels(input)", () => {
     const lone = noLevels({ peaksV: [-0.9], gapEdgesV: [-0.7, 0.7], zeroInRange: true, zeroCurrentSamples: 700 });
     expect(lone?.code).toBe("lone-peak");
     expect(lone?.reason).toContain("-0.9 V");
+  });
+
+  it("says faint-peaks when the strongest peak stands less than 6σ out of dI/dV, and not from 6σ on", () => {
+    const base = { peaksV: [0.7, 0.8, 0.9], gapEdgesV: [-0.6, 0.65] as [number, number], zeroInRange: true, zeroCurrentSamples: 600 };
+    const faint = noLevels({ ...base, strongestProminenceSigma: 5.3 });
+    expect(faint?.code).toBe("faint-peaks");
+    expect(faint?.reason).toContain("5.3σ");
+    expect(noLevels({ ...base, strongestProminenceSigma: 6 })).toBeNull();
+    expect(noLevels(base)).toBeNull(); // without the figure the rule is not applied
   });
 
   it("lets two or more peaks through, also on one side of 0 V only or with 0 V outside the range", () => {
