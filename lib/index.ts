@@ -11,7 +11,7 @@ export { CURVE_STREAM_DEFAULTS, readCurveStream, type CurveStreamOptions } from 
 export { FILE_LINES_DEFAULTS, forEachFileLine, withFileEncoding, type FileEncoding, type FileLinesOptions } from "./io/fileLines.ts";
 export { readJsonFile } from "./io/readJsonFile.ts";
 export { writeTextFile } from "./io/writeTextFile.ts";
-export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./io/readSizeTables.ts";
+export { readSizeMetaFile, readOpticalFile, readTextFile, type ReadTableOptions, type SizeMetaFileRow } from "./io/readSizeTables.ts";
 export { TEMP_FILE_PATTERN } from "./io/writeTextFile.ts";
 export { inputDigest, sha256Hex, type InputDigest } from "./io/inputDigest.ts";
 export {

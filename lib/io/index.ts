@@ -47,7 +47,7 @@ export { etaForCurve, type CurveEta } from "./etaForCurve.ts";
 export { readJsonFile } from "./readJsonFile.ts";
 export { parseSizeMeta, SIZE_META_COLUMNS, type SizeMetaRow } from "./parseSizeMeta.ts";
 export { parseOpticalTable, OPTICAL_PEAK_RANGE_EV, type OpticalTableRow } from "./parseOpticalTable.ts";
-export { readSizeMetaFile, readOpticalFile, readTextFile, type SizeMetaFileRow } from "./readSizeTables.ts";
+export { readSizeMetaFile, readOpticalFile, readTextFile, type ReadTableOptions, type SizeMetaFileRow } from "./readSizeTables.ts";
 export { sizeFromMetadata, SIZE_METADATA_KEYS, type MetadataSize } from "./sizeFromMetadata.ts";
 export { inputDigest, sha256Hex, type InputDigest } from "./inputDigest.ts";
 export { checkOutputFolder, OUTPUT_MANIFEST_NAME, readOutputManifest, writeOutputManifest, type OutputFolderCheck, type OutputManifest } from "./outputManifest.ts";

@@ -9,6 +9,16 @@ import { decodeTextBytes } from "./decodeTextBytes.ts";
 import { parseOpticalTable, type OpticalTableRow } from "./parseOpticalTable.ts";
 import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
 
+/** Options of {@link readTextFile}, {@link readSizeMetaFile} and {@link readOpticalFile}. */
+export interface ReadTableOptions {
+  /**
+   * Called with each warning about how the file was read (today: "PATH: the file is not valid
+   * UTF-8; read as Windows-1252 (Latin-1) text"), so that the caller can report it beside its
+   * own. Default: none (the warning is dropped).
+   */
+  onWarning?: (message: string) => void;
+}
+
 /**
  * Reads a small text file (a table, a material file), decoded as every reader decodes text
  * ({@link decodeTextBytes}: UTF-16 by its byte-order mark, UTF-8, else Windows-1252).
@@ -19,6 +29,8 @@ import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
  *     The file.
  * what : string
  *     What it is, for the message ("size table", "material file").
+ * options : ReadTableOptions, optional
+ *     `onWarning`, called with "PATH: …" when the file was not UTF-8.
  *
  * Returns
  * -------
@@ -35,7 +47,7 @@ import { parseSizeMeta, type SizeMetaRow } from "./parseSizeMeta.ts";
  * -------
  * parseMaterialJson(readTextFile("InP-ours.json", "material file"), "InP-ours.json");
  */
-export function readTextFile(path: string, what: string): string {
+export function readTextFile(path: string, what: string, options: ReadTableOptions = {}): string {
   let bytes: Uint8Array;
   try {
     bytes = readFileSync(path);
@@ -44,7 +56,9 @@ export function readTextFile(path: string, what: string): string {
     const why = code === "ENOENT" ? "no such file" : code === "EISDIR" ? "is a folder, not a table" : code === "EACCES" ? "permission denied" : (err as Error).message;
     throw new DotspecError("io/unreadable", `${path}: the ${what} cannot be read (${why})`);
   }
-  return decodeTextBytes(bytes, path, `a ${what}`, "save it as UTF-8 text").text;
+  const { text, warning } = decodeTextBytes(bytes, path, `a ${what}`, "save it as UTF-8 text");
+  if (warning !== null) options.onWarning?.(`${path}: ${warning}`);
+  return text;
 }
 
 /** A size-table row with the curve file's path as it can be opened. */
@@ -62,6 +76,8 @@ export interface SizeMetaFileRow extends SizeMetaRow {
  *     The size table (META.csv).
  * dir : string
  *     The series folder the table's file names are relative to.
+ * options : ReadTableOptions, optional
+ *     `onWarning`, called with "PATH: …" when the table was not UTF-8.
  *
  * Returns
  * -------
@@ -80,8 +96,8 @@ export interface SizeMetaFileRow extends SizeMetaRow {
  * // => { line: 3, file: "qd-7-s01-1.csv", dot: "QD-7-S01", radiusNM: 1.5, eta: 0.86, notes: null,
  * //      path: "sample-curves/series/curves/qd-7-s01-1.csv" }
  */
-export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
-  const rows = parseSizeMeta(readTextFile(path, "size table"), path);
+export function readSizeMetaFile(path: string, dir: string, options: ReadTableOptions = {}): SizeMetaFileRow[] {
+  const rows = parseSizeMeta(readTextFile(path, "size table", options), path);
   return rows.map((row) => {
     const full = join(dir, row.file);
     let isFile = false;
@@ -104,6 +120,8 @@ export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
  * ----------
  * path : string
  *     The table file.
+ * options : ReadTableOptions, optional
+ *     `onWarning`, called with "PATH: …" when the table was not UTF-8.
  *
  * Returns
  * -------
@@ -120,6 +138,6 @@ export function readSizeMetaFile(path: string, dir: string): SizeMetaFileRow[] {
  * readOpticalFile("sample-curves/series/optical.csv")[0];
  * // => { line: 3, radiusNM: 1.5, peaksEV: [2.671, 3.581] }
  */
-export function readOpticalFile(path: string): OpticalTableRow[] {
-  return parseOpticalTable(readTextFile(path, "optical table"), path);
+export function readOpticalFile(path: string, options: ReadTableOptions = {}): OpticalTableRow[] {
+  return parseOpticalTable(readTextFile(path, "optical table", options), path);
 }

@@ -552,6 +552,26 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await page.close();
   });
 
+  it("size series: a size table saved as Windows-1252 is read as the command reads it, with the command's warning", async () => {
+    const dir = join(work, "series-latin1");
+    mkdirSync(dir, { recursive: true });
+    const names = ["qd-7-s01-1.csv", "qd-7-s01-2.csv"];
+    for (const f of names) writeFileSync(join(dir, f), readFileSync(join(ROOT, "sample-curves", "series", "curves", f)));
+    // WHATWG Encoding Standard: byte 0xB5 is µ in windows-1252 and not valid UTF-8 on its own
+    writeFileSync(join(dir, "META.csv"), Buffer.concat([Buffer.from(`file,dot,radius_nm,notes\n${names[0]},D1,1.5,tip 5 `), Buffer.from([0xb5]), Buffer.from(`m\n${names[1]},D1,1.5,\n`)]));
+    const reference = cliSizes(dir, [".", "--meta", "META.csv", "--json"]);
+    const page = await open("sizes.html");
+    await page.setInputFiles("[data-testid=meta-file]", join(dir, "META.csv"));
+    await page.setInputFiles("[data-testid=curve-files]", names.map((f) => join(dir, f)));
+    await page.locator("[data-testid=dot-table] table").waitFor({ timeout: 60_000 });
+    const { lines } = await reference;
+    const warning = lines.find((l) => l.startsWith("warning: "))!.slice("warning: ".length);
+    expect(warning).toContain("META.csv: the file is not valid UTF-8");
+    await expect.poll(() => page.locator("[data-testid=warnings] li").allTextContents()).toContain(warning);
+    expect((await dotRows(page)).map((r) => r.dot)).toEqual(["D1"]);
+    await page.close();
+  });
+
   it("size series: files dropped on the zone, a META.csv among them taken as the size table", async () => {
     const series = join(ROOT, "sample-curves", "series");
     const names = ["qd-7-s03-1.csv", "qd-7-s03-2.csv", "qd-7-s05-1.csv", "qd-7-s05-2.csv"];

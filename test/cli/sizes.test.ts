@@ -107,6 +107,19 @@ describe("dotspec sizes DIR --meta META.csv", () => {
     expect(out.warnings.join(" ")).toContain("no material given");
   }, 60_000);
 
+  it("says so when the size table was saved as Windows-1252 (a Latin-1 µ in a note), on stderr, in the record and in the count", async () => {
+    const meta = join(tempDir(), "META.csv");
+    // WHATWG Encoding Standard: byte 0xB5 is µ in windows-1252 and not valid UTF-8 on its own
+    writeFileSync(meta, Buffer.concat([Buffer.from("file,dot,radius_nm,notes\nt1-1.csv,T1,1.6,tip 5 "), Buffer.from([0xb5]), Buffer.from("m\nt1-2.csv,T1,1.6,\n")]));
+    const r = await run(["sizes", dir, "--meta", meta, "--json"]);
+    expect(r.code).toBe(0);
+    expect(r.stderr).toContain(`dotspec: warning: ${meta}: the file is not valid UTF-8`);
+    const out = JSON.parse(r.stdout) as SizeSeriesJson;
+    expect(out.warnings[0]).toMatch(/^.*META\.csv: the file is not valid UTF-8.*Windows-1252/);
+    // the count line counts the table's warning with the curves' (by construction: lib/cli/batchCount.ts)
+    expect(r.stderr).toMatch(/dotspec: 7 done, 0 failed, [1-9]\d* warnings? \(in [1-9]\d* files?\)\n$/);
+  }, 60_000);
+
   it("a row naming a missing file is an error naming the row (exit 1)", async () => {
     const meta = join(tempDir(), "META.csv");
     writeFileSync(meta, "file,dot,radius_nm\nt1-1.csv,T1,1.6\nmissing.csv,T1,1.6\n");

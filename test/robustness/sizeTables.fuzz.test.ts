@@ -167,7 +167,20 @@ describe("encodings and layouts a table may come in (through the file readers)",
     const m = join(dir, "meta-latin1.csv");
     writeFileSync(m, joinBytes(utf8Bytes("file,dot,radius_nm,notes\nc-0.csv,D-0,2,tip 5 "), Uint8Array.of(0xb5), utf8Bytes("m\n")));
     // closed form: Windows-1252 byte B5 is U+00B5
-    expect(readSizeMetaFile(m, dir)[0].notes).toBe("tip 5 \u00b5m");
+    const warnings: string[] = [];
+    expect(readSizeMetaFile(m, dir, { onWarning: (w) => warnings.push(w) })[0].notes).toBe("tip 5 \u00b5m");
+    // and the reader says how it read the table, naming it (the same table in UTF-8 says nothing)
+    expect(warnings).toEqual([`${m}: ${decodeTextBytes(Uint8Array.of(0xb5), m).warning}`]);
+    const o = join(dir, "optical-latin1.csv");
+    writeFileSync(o, joinBytes(utf8Bytes("radius_nm,peak_ev_1,notes\n2,2.5,"), Uint8Array.of(0xb5), utf8Bytes("\n")));
+    const opticalWarnings: string[] = [];
+    readOpticalFile(o, { onWarning: (w) => opticalWarnings.push(w) });
+    expect(opticalWarnings.length).toBe(1);
+    const quiet: string[] = [];
+    const utf8 = join(dir, "meta-utf8.csv");
+    writeFileSync(utf8, utf8Bytes("file,dot,radius_nm,notes\nc-0.csv,D-0,2,tip 5 \u00b5m\n"));
+    readSizeMetaFile(utf8, dir, { onWarning: (w) => quiet.push(w) });
+    expect(quiet).toEqual([]);
   });
 
   it("refuses NUL bytes outside UTF-16 with io/binary naming the file", () => {

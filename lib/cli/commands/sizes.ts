@@ -155,13 +155,13 @@ export const sizesCommand: CliCommand = {
 };
 
 /** The material of --material / --material-file, or null; a bad one is a usage error. */
-function materialOf(opts: SizesCliOptions): Material | null {
+function materialOf(opts: SizesCliOptions, onWarning: (message: string) => void): Material | null {
   if (opts.material !== undefined && opts.materialFile !== undefined) {
     throw new UsageError("give --material or --material-file, not both (a material file can start from a built-in with \"base\")");
   }
   try {
     if (opts.material !== undefined) return resolveMaterial(opts.material, "--material");
-    if (opts.materialFile !== undefined) return parseMaterialJson(readTextFile(opts.materialFile, "material file"), opts.materialFile);
+    if (opts.materialFile !== undefined) return parseMaterialJson(readTextFile(opts.materialFile, "material file", { onWarning }), opts.materialFile);
   } catch (err) {
     if (isDotspecError(err)) throw new UsageError(err.message);
     throw err;
@@ -205,7 +205,14 @@ function materialOf(opts: SizesCliOptions): Material | null {
  *    printed or written.
  */
 export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, ctx: CliContext): Promise<number> {
-  const material = materialOf(opts);
+  // How the tables were read (a size table saved as Windows-1252; at most one warning per table):
+  // on stderr now, first among the series' warnings, and counted with the curves' warnings.
+  const tableWarnings: string[] = [];
+  const onWarning = (message: string) => {
+    tableWarnings.push(message);
+    ctx.error(`warning: ${message}`);
+  };
+  const material = materialOf(opts, onWarning);
   const formulas = opts.formula ?? [];
   for (const f of formulas) {
     try {
@@ -227,7 +234,7 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
   let optical: OpticalRow[] | null = null;
   if (opts.optical !== undefined) {
     try {
-      optical = readOpticalFile(opts.optical);
+      optical = readOpticalFile(opts.optical, { onWarning });
     } catch (err) {
       ctx.error(failureReason("", err));
       return EXIT.failed;
@@ -241,7 +248,7 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
   if (opts.meta !== undefined) {
     const dir = dirs[0];
     try {
-      meta = readSizeMetaFile(opts.meta, dir).map((row) => ({ ...row, file: row.path }));
+      meta = readSizeMetaFile(opts.meta, dir, { onWarning }).map((row) => ({ ...row, file: row.path }));
     } catch (err) {
       ctx.error(failureReason("", err));
       return EXIT.failed;
@@ -382,7 +389,8 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
     ctx.error(failureReason("", err));
     return EXIT.failed;
   }
-  const record = { ...sizeSeriesToJson(series), provenance: seriesProvenance(opts, analyzeOptions) };
+  const json = sizeSeriesToJson(series);
+  const record = { ...json, warnings: [...tableWarnings, ...json.warnings], provenance: seriesProvenance(opts, analyzeOptions) };
   // Nobody reads stdout any more (`dotspec sizes … | head`): skip it, still write the report.
   if (!ctx.stdoutGone()) ctx.stdout.write(opts.json ? JSON.stringify(record, null, 2) + "\n" : formatSizeSeriesText(record));
 
@@ -414,7 +422,7 @@ export async function runSizes(dirs: readonly string[], opts: SizesCliOptions, c
       failed++;
     }
   }
-  ctx.stderr.write(batchCount(done, failed, warnings, warned));
+  ctx.stderr.write(batchCount(done, failed, warnings + tableWarnings.length, warned + tableWarnings.length));
   return failed ? EXIT.failed : EXIT.ok;
 }
 
