@@ -5,15 +5,17 @@
  */
 import { parentPort, workerData } from "node:worker_threads";
 import { loadCurveFigure, type CurveFigureRenderer } from "../index.ts";
-import { analyzeFile, type AnalyzeBatchSettings, type AnalyzeJob } from "./analyzeFile.ts";
+import { analyzeFile, type AnalyzeJob } from "./analyzeFile.ts";
+import type { AnalyzeWorkerData, WorkerReadProgress } from "./runAnalyzeJobs.ts";
 
-const settings = workerData as AnalyzeBatchSettings;
+const { settings, readProgress } = workerData as AnalyzeWorkerData;
+const onReadProgress = readProgress ? (readFile: string, fraction: number) => parentPort!.postMessage({ readFile, fraction } satisfies WorkerReadProgress) : undefined;
 let figure: Promise<CurveFigureRenderer> | null = null;
 const loadFigure = () => (figure ??= loadCurveFigure());
 let queue: Promise<void> = Promise.resolve();
 
 parentPort!.on("message", (job: AnalyzeJob) => {
   queue = queue.then(async () => {
-    parentPort!.postMessage(await analyzeFile(job, settings, loadFigure));
+    parentPort!.postMessage(await analyzeFile(job, settings, loadFigure, onReadProgress));
   });
 });

@@ -27,6 +27,8 @@ export const ANALYZE_JOBS_DEFAULTS = Object.freeze({
  *     Called once per job, in completion order (not batch order when threads > 1).
  * stop : () => boolean
  *     Checked before each job is started; once true, the remaining jobs are skipped.
+ * onReadProgress : (file, fraction) => void, optional
+ *     Hears how far a streamed (large) file has been read, from this thread or a worker.
  *
  * Notes
  * -----
@@ -48,13 +50,28 @@ export async function runAnalyzeJobs(
   let figure: Promise<CurveFigureRenderer> | null = null;
   const loadFigure = () => (figure ??= loadCurveFigure());
   const queue = [...jobs];
-  if (threads > 1 && queue.length > 1) await runInWorkers(queue, settings, Math.min(threads, queue.length), onResult, stop);
+  if (threads > 1 && queue.length > 1) await runInWorkers(queue, settings, Math.min(threads, queue.length), onResult, stop, onReadProgress);
   for (const job of queue.splice(0)) {
     // Let the event loop run between files (stream errors, the progress bar's timer).
     await new Promise<void>((resolve) => setImmediate(resolve));
     if (stop()) return;
     onResult(await analyzeFile(job, settings, loadFigure, onReadProgress));
   }
+}
+
+/** What a worker thread sends, besides results, while it streams a large file. */
+export interface WorkerReadProgress {
+  /** The file being read. */
+  readFile: string;
+  /** The fraction of its bytes read, 0…1. */
+  fraction: number;
+}
+
+/** What a worker thread is started with. */
+export interface AnalyzeWorkerData {
+  settings: AnalyzeBatchSettings;
+  /** Send {@link WorkerReadProgress} messages while streaming a large file. */
+  readProgress: boolean;
 }
 
 /** Runs jobs from `queue` on worker threads until it is empty or no worker is left. */
@@ -64,6 +81,7 @@ function runInWorkers(
   threads: number,
   onResult: (r: AnalyzeJobResult) => void,
   stop: () => boolean,
+  onReadProgress?: (file: string, fraction: number) => void,
 ): Promise<void> {
   return new Promise((done) => {
     let alive = 0;
@@ -71,7 +89,8 @@ function runInWorkers(
       if (alive === 0) done();
     };
     for (let w = 0; w < threads; w++) {
-      const worker = new Worker(workerEntry("analyzeWorker", import.meta.url), { workerData: settings });
+      // The worker reports how far it has read a streamed file only when someone listens.
+      const worker = new Worker(workerEntry("analyzeWorker", import.meta.url), { workerData: { settings, readProgress: onReadProgress !== undefined } });
       alive++;
       const held = new Map<number, AnalyzeJob>();
       let answered = 0;
@@ -99,7 +118,12 @@ function runInWorkers(
         held.clear();
         close();
       };
-      worker.on("message", (result: AnalyzeJobResult) => {
+      worker.on("message", (message: AnalyzeJobResult | WorkerReadProgress) => {
+        if ("readFile" in message) {
+          onReadProgress?.(message.readFile, message.fraction);
+          return;
+        }
+        const result = message;
         held.delete(result.index);
         answered++;
         onResult(result);

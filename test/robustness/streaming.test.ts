@@ -9,7 +9,7 @@
 import fc from "fast-check";
 import { afterAll, describe, expect, it } from "vitest";
 import { spawnSync } from "node:child_process";
-import { statSync, writeFileSync } from "node:fs";
+import { existsSync, statSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { parseCurveBytes, readCurveFile, readGridFile, STREAM_CURVE_FILE_BYTES } from "../../lib/index.ts";
 import { FILE_LINES_DEFAULTS, forEachFileLine, withFileEncoding } from "../../lib/io/fileLines.ts";
@@ -17,7 +17,7 @@ import { CURVE_STREAM_DEFAULTS, readCurveStream } from "../../lib/io/readCurveSt
 import { GRID_TABLE_ROWS_DEFAULTS } from "../../lib/io/gridTableRows.ts";
 import { isDotspecError } from "../../lib/util/errors.ts";
 import { joinBytes, utf16Bytes, utf8Bytes } from "../helpers/fuzz.ts";
-import { removeTempDirs, tempDir } from "../cli/harness.ts";
+import { removeTempDirs, run, tempDir } from "../cli/harness.ts";
 
 afterAll(removeTempDirs);
 
@@ -181,12 +181,20 @@ console.log(JSON.stringify({ nx: cube.xNM.count, ny: cube.yNM.count, nb: cube.bi
 });
 
 describe("progress while a big file is streamed", () => {
-  it("readCurveFile(path, options, onProgress) on a file over STREAM_CURVE_FILE_BYTES reports a rising fraction that ends at 1", () => {
+  const BIG_ROWS = 700_000;
+  /** A sinh curve of BIG_ROWS rows, above the streaming threshold (written once). */
+  const bigCurve = (): string => {
     const path = join(dir, "progress.csv");
-    const rows = 700_000;
+    if (existsSync(path)) return path;
     const parts: string[] = ["bias (V),current (A)"];
-    for (let i = 0; i < rows; i++) parts.push(`${(-2 + (4 * i) / (rows - 1)).toFixed(8)},${(1e-9 * Math.sinh((4 * i) / (rows - 1) - 2)).toExponential(6)}`);
+    for (let i = 0; i < BIG_ROWS; i++) parts.push(`${(-2 + (4 * i) / (BIG_ROWS - 1)).toFixed(8)},${(1e-9 * Math.sinh((4 * i) / (BIG_ROWS - 1) - 2)).toExponential(6)}`);
     writeFileSync(path, parts.join("\n") + "\n");
+    return path;
+  };
+
+  it("readCurveFile(path, options, onProgress) on a file over STREAM_CURVE_FILE_BYTES reports a rising fraction that ends at 1", () => {
+    const path = bigCurve();
+    const rows = BIG_ROWS;
     // by construction: the file is above the streaming threshold
     expect(statSync(path).size).toBeGreaterThan(STREAM_CURVE_FILE_BYTES);
     const seen: number[] = [];
@@ -196,6 +204,23 @@ describe("progress while a big file is streamed", () => {
     for (let i = 1; i < seen.length; i++) expect(seen[i]).toBeGreaterThanOrEqual(seen[i - 1]);
     expect(seen[seen.length - 1]).toBe(1);
   }, 120_000);
+
+  it("dotspec analyze on a terminal draws the reading bar of a big file also when worker threads read it (--jobs 2)", async () => {
+    const big = bigCurve();
+    const small = join(dir, "small-one.csv");
+    const rows = 2001;
+    const parts: string[] = ["bias (V),current (A)"];
+    for (let i = 0; i < rows; i++) parts.push(`${(-2 + (4 * i) / (rows - 1)).toFixed(6)},${(1e-9 * Math.sinh((4 * i) / (rows - 1) - 2)).toExponential(6)}`);
+    writeFileSync(small, parts.join("\n") + "\n");
+    for (const jobs of ["1", "2"]) {
+      const r = await run(["analyze", big, small, "--json", "--jobs", jobs], { stderrTTY: true });
+      // by construction (lib/cli/commands/analyze.ts): the bar is labelled "read FILE" and counts in %
+      expect(r.stderr, `--jobs ${jobs}`).toContain("read progress.csv [");
+      expect(r.stderr).toContain("%");
+      expect(r.stderr).not.toContain("read small-one.csv");
+      expect(r.stderr).toMatch(/2 done, 0 failed/);
+    }
+  }, 180_000);
 
   it("readGridFile(path, { onProgress }) on a long table reports a rising fraction over its two passes, ending at 1", () => {
     const path = join(dir, "progress-grid.csv");

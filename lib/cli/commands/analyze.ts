@@ -229,11 +229,13 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
     if (json) records.push(r.output);
     else ctx.stdout.write((printed++ ? "\n" : "") + r.output);
   };
+  const reading = readProgress(files.length, ctx);
   await runAnalyzeJobs(
     jobs,
     settings,
     opts.jobs ?? 1,
     (r) => {
+      reading?.finished(files[r.index]);
       progress.tick();
       pending.set(r.index, r);
       while (pending.has(next)) {
@@ -244,7 +246,7 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
     // Nobody reads the output any more (`dotspec analyze … | head`): stop early.
     () => ctx.stdoutGone(),
     // A large file is streamed: its own bar (on a terminal, when the batch has no bar of its own).
-    readProgress(files.length, ctx),
+    reading?.report,
   );
   progress.stop();
 
@@ -266,20 +268,23 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
 
 /**
  * The reading bar of large (streamed) files: one bar per file, in % read, on a terminal, for
- * batches too small for the batch's own bar.
+ * batches too small for the batch's own bar. With worker threads two files may be read at once:
+ * the bar follows one file until it is read (or its result comes: a file that fails halfway
+ * never reports the end), and another file's reports start a bar only after that.
  */
-function readProgress(files: number, ctx: CliContext): ((file: string, fraction: number) => void) | undefined {
+function readProgress(files: number, ctx: CliContext): { report: (file: string, fraction: number) => void; finished: (file: string) => void } | undefined {
   if (files > PROGRESS_DEFAULTS.minFiles) return undefined;
   let current: { file: string; bar: Progress; shown: number } | null = null;
-  return (file, fraction) => {
-    if (current?.file !== file) {
-      current?.bar.stop();
-      current = { file, bar: startProgress(100, ctx.stderr, `read ${basename(file)}`, "%"), shown: 0 };
-    }
-    for (const to = Math.floor(100 * fraction); current.shown < to; current.shown++) current.bar.tick();
-    if (fraction >= 1) {
-      current.bar.stop();
-      current = null;
-    }
+  const finished = (file: string) => {
+    if (current?.file !== file) return;
+    current.bar.stop();
+    current = null;
   };
+  const report = (file: string, fraction: number) => {
+    if (current !== null && current.file !== file) return;
+    current ??= { file, bar: startProgress(100, ctx.stderr, `read ${basename(file)}`, "%"), shown: 0 };
+    for (const to = Math.floor(100 * fraction); current.shown < to; current.shown++) current.bar.tick();
+    if (fraction >= 1) finished(file);
+  };
+  return { report, finished };
 }
