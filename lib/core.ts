@@ -95,7 +95,7 @@ export { makeProvenance, svgWithProvenance, type Provenance } from "./report/pro
 export { tableWithProvenance, type ProvenanceTable } from "./report/tableWithProvenance.ts";
 export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
 export { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
-export { failedSummaryRow, summaryColumns, summaryRow, SUMMARY_COLUMNS, SUMMARY_METADATA_PREFIX, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
+export { failedSummaryRow, summaryColumns, summaryRow, SUMMARY_COLUMNS, SUMMARY_METADATA_PREFIX, MODEL_SUMMARY_COLUMNS, type ModelSummaryColumn, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
 export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.
 export { loadCurveFigure, loadModelFigure, type CurveFigureRenderer, type ModelFigureRenderer } from "./report/loadCurveFigure.ts";
@@ -107,6 +107,7 @@ export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, t
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
+export { modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
 
 // Size series: many dots → per-dot table, size bins, model fits, optical pairing.
 export * from "./sizes/index.ts";

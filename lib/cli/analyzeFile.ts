@@ -7,6 +7,9 @@ import {
   analysisToJson,
   analyzeCurve,
   failedSummaryRow,
+  fitCurve,
+  fitToJson,
+  modelComparisonJson,
   failureReason,
   formatAnalysisText,
   inputDigest,
@@ -17,6 +20,7 @@ import {
   writeTextFile,
   type AnalysisJson,
   type AnalyzeOptions,
+  type CompareModelsScope,
   type Curve,
   type CurveAnalysis,
   type InputDigest,
@@ -40,6 +44,8 @@ export interface AnalyzeBatchSettings {
   color: boolean;
   /** The --out folder, or null. */
   outDir: string | null;
+  /** `--compare-models`: which curves get the model comparison; absent: none. */
+  compareModels?: CompareModelsScope;
 }
 
 /** One file of a batch. */
@@ -70,12 +76,22 @@ export const ANALYZE_OUTPUT = Object.freeze({
 /** The reason of a failure (the library's, shared with the notebooks). */
 export { failureReason };
 
+/** The warning of a model comparison stopped by the fit's wall-clock limit. */
+export const COMPARISON_TIME_LIMIT_WARNING =
+  "the model comparison stopped at the fit's time limit, so where it stopped depends on this machine's speed and load: the numbers may differ on another run; " +
+  "`dotspec fit --compare-models --time-limit-ms …` on this file gives a result that is the same on every machine";
+
 /** The options as given, recorded in a record's provenance (and read back by `--replay`). */
 export interface RecordedOptions {
   /** Options of analyzeCurve as given (η only when --eta was given). */
   analyze: AnalyzeOptions;
   /** Importer options as given. */
   read: ReadCurveOptions;
+  /**
+   * `--compare-models`: fit the orthodox model with every grouping of the peaks to the curves the
+   * rules leave undetermined ("undecided") or to every curve ("all"); absent: no fit.
+   */
+  compareModels?: CompareModelsScope;
 }
 
 /** One file read and analysed, with its JSON record. */
@@ -102,8 +118,18 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
   const { eta, note } = etaForCurve(options.analyze.eta, curve);
   const analysis = analyzeCurve(curve, eta === undefined ? options.analyze : { ...options.analyze, eta });
-  const provenance = makeProvenance(command, digest, { analyze: options.analyze, read: options.read });
+  const recorded = { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}) };
+  const provenance = makeProvenance(command, digest, recorded);
   const json = analysisToJson(analysis, record, { notes: note ? [note] : [], metadata: curve.meta.metadata, provenance });
+  const scope = options.compareModels;
+  if (scope && json.noLevels === null && (scope === "all" || json.regime === "undetermined")) {
+    // The comparison of every grouping of the peaks; a fit stopped by its wall-clock limit says
+    // so (where it stopped depends on the machine).
+    const fit = fitCurve(analysis, { compareModels: true });
+    const comparison = modelComparisonJson(fitToJson(fit, json), scope);
+    if (/time limit/.test(fit.message)) comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
+    return { curve, analysis, json: { ...json, modelComparison: comparison } };
+  }
   return { curve, analysis, json };
 }
 
@@ -115,7 +141,7 @@ function failedProvenance(file: string, options: RecordedOptions, command: strin
   } catch {
     // Unreadable: the reason says so.
   }
-  return makeProvenance(command, digest, { analyze: options.analyze, read: options.read });
+  return makeProvenance(command, digest, { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}) });
 }
 
 /**
@@ -150,7 +176,7 @@ export async function analyzeFile(
   onReadProgress?: (file: string, fraction: number) => void,
 ): Promise<AnalyzeJobResult> {
   const { index, file } = job;
-  const options: RecordedOptions = { analyze: settings.options, read: settings.read };
+  const options: RecordedOptions = { analyze: settings.options, read: settings.read, ...(settings.compareModels ? { compareModels: settings.compareModels } : {}) };
   try {
     const { curve, analysis, json: result } = analyzeCurveFile(file, options, "analyze", onReadProgress ? (f) => onReadProgress(file, f) : undefined);
     let row: SummaryRow | null = null;

@@ -56,7 +56,7 @@ export function compareRecords(recorded: unknown, replayed: unknown): { compared
 interface ReplayableProvenance {
   version: string;
   input: { name: string; bytes: number; sha256: string };
-  options: { analyze: AnalyzeOptions; read: ReadCurveOptions };
+  options: { analyze: AnalyzeOptions; read: ReadCurveOptions; compareModels?: unknown };
 }
 
 function replayable(record: unknown): ReplayableProvenance | null {
@@ -119,7 +119,9 @@ export async function runReplay(recordPath: string, ctx: CliContext): Promise<nu
     }
     let replayed;
     try {
-      replayed = analyzeCurveFile(file, p.options).json;
+      const scope = p.options.compareModels;
+      const compareModels = scope === "undecided" || scope === "all" ? { compareModels: scope as "undecided" | "all" } : {};
+      replayed = analyzeCurveFile(file, { analyze: p.options.analyze, read: p.options.read, ...compareModels }).json;
     } catch (err) {
       ctx.error(`${label}: ${file}: ${cliOptionNames(failureReason(file, err))}`);
       bad++;

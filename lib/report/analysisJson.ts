@@ -7,6 +7,7 @@ import type { Multiplet, RegimeEvidence, SpectrumEnergies, SpectrumUncertainties
 import type { ImportRecord } from "../io/parse/record.ts";
 import type { PeakRole } from "../assign/peakMultiplets.ts";
 import type { Provenance } from "./provenance.ts";
+import type { ModelComparisonJson } from "./modelComparisonJson.ts";
 
 /** Version of the record layout; bumped when a field changes meaning. */
 export const ANALYSIS_JSON_VERSION = 1;
@@ -99,6 +100,12 @@ export interface AnalysisJson {
   metadata: Record<string, string>;
   /** Tool, version, input (name, size, SHA-256) and the options as given; null when not known. */
   provenance: Provenance | null;
+  /**
+   * The orthodox model fitted with every grouping of the peaks (`dotspec analyze
+   * --compare-models`): regime from the fitted Γtip/Γsub, status, alternatives and the fit's
+   * quantities. Absent when the comparison did not run.
+   */
+  modelComparison?: ModelComparisonJson;
 }
 
 /** What {@link analysisToJson} records beside the analysis. */

@@ -3,6 +3,7 @@
  * Works on the JSON record only, so notebooks and scripts can print saved records the same way.
  */
 import type { AnalysisJson } from "./analysisJson.ts";
+import type { ModelComparisonJson } from "./modelComparisonJson.ts";
 import { NO_MULTIPLET, SECOND_JUNCTION } from "./multipletColor.ts";
 import { formatUncertain } from "./formatUncertain.ts";
 
@@ -213,6 +214,8 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
     out.push(`${I}${I}${name} = ${bias}  →  ${energy}`);
   });
 
+  if (json.modelComparison) out.push("", ...modelComparisonLines(json.modelComparison, eta, I, bold, faint));
+
   // Warnings.
   if (json.warnings.length) {
     out.push("");
@@ -226,4 +229,23 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
     for (const n of notes) out.push(faint(`${I}note: ${n}`));
   }
   return out.join("\n") + "\n";
+}
+
+/** The model-comparison block: headline with status and regime, the fit's quantities with their ±, the best groupings. */
+function modelComparisonLines(m: ModelComparisonJson, eta: number, I: string, bold: (s: string) => string, faint: (s: string) => string): string[] {
+  const pm = (v: { value: number; standardError: number } | null, scale: number, unit: string) =>
+    v === null ? FORMAT_TEXT_DEFAULTS.missing : `${withSigma(v.value * scale, Number.isFinite(v.standardError) ? v.standardError * scale : null)} ${unit}`;
+  const why = m.scope === "undecided" ? "the rules left the regime undetermined" : "--compare-models all";
+  const out = [`${I}${bold("Model comparison")} (orthodox model fitted with every grouping of the peaks; ${why})`];
+  if (m.status === "failed") {
+    out.push(`${I}${I}NO FIT: ${m.statusReasons.join("; ")}`);
+    return out;
+  }
+  out.push(`${I}${I}${REGIME_WORDS[m.regime as keyof typeof REGIME_WORDS] ?? m.regime}, fit ${m.status === "good" ? "good" : "POOR"} (reduced χ² ${m.reducedChiSquare.toPrecision(3)}): ${m.regimeReason}`);
+  out.push(`${I}${I}Γtip/Γsub = ${pm(m.rateRatio, 1, "")}`.trimEnd() + `, Ec = ${pm(m.quantities.chargingEnergyEV, 1000, "meV")}, gap = ${pm(m.quantities.gapEV, 1000, "meV")}, Δsp = ${pm(m.quantities.levelSpacingSPEV, 1000, "meV")} (η = ${eta})`);
+  const ranked = [...m.alternatives].sort((a, b) => b.weight - a.weight).slice(0, 3);
+  if (ranked.length) out.push(faint(`${I}${I}best groupings: ${ranked.map((a) => `${a.hypothesis} (weight ${a.weight.toPrecision(2)})`).join(", ")}`));
+  if (m.status === "poor") out.push(faint(`${I}${I}${m.statusReasons.join("; ")}`));
+  for (const w of m.warnings) out.push(`${I}${I}! ${w}`);
+  return out;
 }

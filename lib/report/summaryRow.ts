@@ -45,11 +45,17 @@ export const SUMMARY_METADATA_PREFIX = "meta_";
  * A summary row: text for source, regime, status and reason, numbers (or null for an empty cell)
  * elsewhere, plus one `meta_<key>` text cell per metadata line of the file.
  */
-export type SummaryRow = Record<SummaryColumn, string | number | null> & { [metadata: `meta_${string}`]: string };
+export type SummaryRow = Record<SummaryColumn, string | number | null> & { [metadata: `meta_${string}`]: string } & Partial<Record<ModelSummaryColumn, string | number | null>>;
+
+/** Columns of the model comparison (`analyze --compare-models`), present when some row has one. */
+export const MODEL_SUMMARY_COLUMNS = Object.freeze(["model_regime", "model_status", "model_Ec_eV", "model_Ec_sigma_eV", "model_rate_ratio", "model_rate_ratio_sigma"] as const);
+/** A column of {@link MODEL_SUMMARY_COLUMNS}. */
+export type ModelSummaryColumn = (typeof MODEL_SUMMARY_COLUMNS)[number];
 
 /**
- * The columns of a summary table holding these rows: {@link SUMMARY_COLUMNS}, then every
- * `meta_<key>` column that some row has, in order of first appearance.
+ * The columns of a summary table holding these rows: {@link SUMMARY_COLUMNS}, then
+ * {@link MODEL_SUMMARY_COLUMNS} when some row has a model comparison, then every `meta_<key>`
+ * column that some row has, in order of first appearance.
  *
  * Example
  * -------
@@ -58,7 +64,8 @@ export type SummaryRow = Record<SummaryColumn, string | number | null> & { [meta
 export function summaryColumns(rows: readonly SummaryRow[]): string[] {
   const meta = new Set<string>();
   for (const row of rows) for (const key of Object.keys(row)) if (key.startsWith(SUMMARY_METADATA_PREFIX)) meta.add(key);
-  return [...SUMMARY_COLUMNS, ...meta];
+  const model = rows.some((row) => MODEL_SUMMARY_COLUMNS[0] in row) ? MODEL_SUMMARY_COLUMNS : [];
+  return [...SUMMARY_COLUMNS, ...model, ...meta];
 }
 
 /** The provenance cells of a row. */
@@ -152,6 +159,21 @@ export function summaryRow(json: AnalysisJson): SummaryRow {
     reason: null,
     n_notes: json.notes?.length ?? 0,
     ...provenanceCells(json.provenance),
+    ...modelCells(json.modelComparison),
     ...metadataCells(json.metadata),
+  };
+}
+
+/** The model-comparison cells of a row (none when the comparison did not run; empty values when it found no fit). */
+function modelCells(m: AnalysisJson["modelComparison"]): Partial<Record<ModelSummaryColumn, string | number | null>> {
+  if (!m) return {};
+  const ok = m.status !== "failed";
+  return {
+    model_regime: ok ? m.regime : null,
+    model_status: m.status,
+    model_Ec_eV: ok ? m.quantities.chargingEnergyEV.value : null,
+    model_Ec_sigma_eV: ok ? m.quantities.chargingEnergyEV.standardError : null,
+    model_rate_ratio: ok ? m.rateRatio.value : null,
+    model_rate_ratio_sigma: ok ? m.rateRatio.standardError : null,
   };
 }

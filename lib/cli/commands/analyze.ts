@@ -3,7 +3,7 @@
  * report folder (JSON per file, summary.csv, a figure per file).
  */
 import { basename, dirname, extname, join, resolve } from "node:path";
-import type { Command } from "commander";
+import { InvalidArgumentError, type Command } from "commander";
 import {
   CURVE_FILE_EXTENSIONS,
   failedSummaryRow,
@@ -12,6 +12,7 @@ import {
   summaryColumns,
   writeTextFile,
   type AnalyzeOptions,
+  type CompareModelsScope,
   type SummaryRow,
 } from "../../index.ts";
 import { cliOptionNames } from "../cliOptionNames.ts";
@@ -29,6 +30,14 @@ import type { CliCommand } from "./command.ts";
 /** Options of `dotspec analyze` as commander hands them over. */
 export interface AnalyzeCliOptions extends AnalysisCliOptions {
   replay?: string;
+  /** `--compare-models` alone (true), or with "undecided" or "all". */
+  compareModels?: true | CompareModelsScope;
+}
+
+/** The value of `--compare-models [SCOPE]`. */
+function compareModelsOption(value: string): CompareModelsScope {
+  if (value === "undecided" || value === "all") return value;
+  throw new InvalidArgumentError(`expected "undecided" (the curves the rules leave undetermined, the default) or "all"; got ${JSON.stringify(value)}`);
 }
 
 const HELP_AFTER = `
@@ -47,6 +56,12 @@ Output:
                 input, failed ones with status "failed" and the reason); DIR is created if
                 missing, must not be the folder of an input file, and may hold only files
                 dotspec wrote (listed in DIR/.dotspec-manifest.json) unless --force is given
+  --compare-models [undecided|all]
+                also fit the orthodox model with every grouping of the peaks (shell filling
+                or tunnelling, p whole or split, ladders) and compare them by BIC, on the
+                curves the rules leave undetermined (default) or on all; the record gains
+                "modelComparison" (regime from the fitted Γtip/Γsub, Ec and Γtip/Γsub with
+                their ±, status, alternatives). Slow: about 0.3–2 s per curve fitted
   --replay R    re-run the analysis recorded in R (a JSON record or array of records) on the
                 recorded file with the recorded options, and say whether the numbers match
 
@@ -86,6 +101,11 @@ export const analyzeCommand: CliCommand = {
         numberOption({ min: 1, max: 64, integer: true, accepted: "a whole number of threads from 1 to 64" }),
       )
       .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
+      .option(
+        "--compare-models [scope]",
+        "also fit the model with every grouping of the peaks and compare them, on the curves the rules leave undetermined (\"undecided\", the default) or on \"all\" (slow)",
+        compareModelsOption,
+      )
       .option("--replay <RECORD.json>", "re-run a recorded analysis on its file with its options and compare the numbers")
       .addHelpText("after", HELP_AFTER)
       .action(async (files: string[], opts: AnalyzeCliOptions) => {
@@ -197,6 +217,7 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
   const settings: AnalyzeBatchSettings = {
     options: analyzeOptions,
     read: readOptions(opts),
+    ...(opts.compareModels !== undefined ? { compareModels: opts.compareModels === true ? "undecided" : opts.compareModels } : {}),
     json,
     color: ctx.stdout.isTTY === true && !ctx.env.NO_COLOR && !json,
     outDir: outDir ?? null,

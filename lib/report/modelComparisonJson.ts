@@ -1,0 +1,71 @@
+/**
+ * The model comparison inside an analysis record: what `dotspec analyze --compare-models` adds to
+ * a curve's JSON, taken from the fit's own record ({@link fitToJson}) without its residuals and
+ * its copy of the peak-based record.
+ */
+import type { FittedValue } from "../model/fit/curveFit.ts";
+import type { FitJson } from "./fitJson.ts";
+
+/** Which curves `analyze --compare-models` fits: those the rules leave undetermined, or all. */
+export type CompareModelsScope = "undecided" | "all";
+
+/** The model comparison of one curve, as an analysis record carries it. */
+export interface ModelComparisonJson {
+  /** Why it ran: the curve was undetermined by the rules ("undecided") or every curve is fitted ("all"). */
+  scope: CompareModelsScope;
+  /** "good", "poor" or "failed" (no fit: do not use the values), with the reasons. */
+  status: FitJson["status"];
+  statusReasons: string[];
+  /** Regime from the fitted Γtip/Γsub and its error: shell filling, shell tunnelling, intermediate or undetermined. */
+  regime: FitJson["regime"];
+  regimeReason: string;
+  /** The grouping of the peaks that won, its BIC weight and the starts tried. */
+  hypothesis: FitJson["hypothesis"];
+  /** Why it won, in words. */
+  evidence: string[];
+  /** Every grouping compared, with its score and relative weight. */
+  alternatives: FitJson["alternatives"];
+  /** Gap, Ec and s–p spacing the fit implies, eV, each with its 1σ (null where the fit has no such level). */
+  quantities: FitJson["quantities"];
+  /** Γtip/Γsub with its standard error. */
+  rateRatio: FittedValue;
+  reducedChiSquare: number;
+  warnings: string[];
+}
+
+/**
+ * The model comparison an analysis record carries, from the fit's record.
+ *
+ * Parameters
+ * ----------
+ * fit : FitJson
+ *     The record of `fitCurve(analysis, { compareModels: true })` ({@link fitToJson}).
+ * scope : CompareModelsScope
+ *     Why the curve was fitted ("undecided": the rules left its regime undetermined).
+ *
+ * Returns
+ * -------
+ * ModelComparisonJson
+ *     Status, regime, winning grouping, alternatives, quantities with their errors, Γtip/Γsub,
+ *     reduced χ² and the fit's warnings; no residuals and no copy of the peak-based record.
+ *
+ * Example
+ * -------
+ * modelComparisonJson(fitToJson(fit, record), "undecided").regime; // => "intermediate"
+ */
+export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope): ModelComparisonJson {
+  return {
+    scope,
+    status: fit.status,
+    statusReasons: fit.statusReasons,
+    regime: fit.regime,
+    regimeReason: fit.regimeReason,
+    hypothesis: fit.hypothesis,
+    evidence: fit.evidence,
+    alternatives: fit.alternatives,
+    quantities: fit.quantities,
+    rateRatio: { value: fit.rateRatio, standardError: fit.rateRatioSE },
+    reducedChiSquare: fit.reducedChiSquare,
+    warnings: fit.warnings,
+  };
+}
