@@ -28,8 +28,13 @@ import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts"
 import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import {
+  analyzeCurve,
   analyzeGrid,
+  etaFromMetadata,
   failureReason,
+  fitCurve,
+  formatUncertain,
+  readCurveFile,
   formatCsv,
   GRID_PROFILE_COLUMNS,
   parseGridTable,
@@ -366,6 +371,9 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     await page.getByRole("button", { name: "Run the fit" }).click();
     await page.locator("[data-testid=fit-values]").waitFor({ timeout: 20_000 });
     expect(await page.locator("[data-testid=fit-status]").getAttribute("data-converged")).toBe("true");
+    // The headline follows the status, as `dotspec fit` heads it (not the optimiser's convergence).
+    expect(await page.locator("[data-testid=fit-status]").getAttribute("data-status")).toBe("good");
+    expect(await page.locator("[data-testid=fit-status]").textContent()).toMatch(/^Fit good: /);
     await expect.poll(panels).toBe(3);
     // The controls now start from the fit.
     await page.locator(".dotspec-note:has-text('The controls hold the fitted values')").waitFor();
@@ -373,6 +381,26 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     const rows = await page.locator("[data-testid=fit-values] tbody tr").allTextContents();
     expect(rows.some((r) => r.startsWith("charging energy Ec") && r.includes("±"))).toBe(true);
     await page.screenshot({ path: join(ARTIFACTS, "model-fit.png"), fullPage: true });
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("model: with the comparison on, the page shows every grouping tried and the same values `fitCurve` gives in Node", async () => {
+    const page = await open("model.html");
+    await page.locator("[data-testid=model-figure] > svg").waitFor();
+    await checkbox(page, "compare every grouping of the peaks (slower)").check();
+    await page.getByRole("button", { name: "Run the fit" }).click();
+    await page.locator("[data-testid=fit-alternatives]").waitFor({ timeout: 60_000 });
+    // by construction: the page runs the library's fitCurve on the file as `dotspec fit --compare-models` does
+    const { curve } = readCurveFile(join(ROOT, "sample-curves", "dot-01.csv"));
+    const stated = etaFromMetadata(curve.meta.metadata);
+    const fit = fitCurve(analyzeCurve(curve, stated ? { eta: stated.eta } : {}), { compareModels: true });
+    expect(await page.locator("[data-testid=fit-status]").getAttribute("data-status")).toBe(fit.status);
+    expect(await page.locator("[data-testid=fit-alternatives] tbody tr").count()).toBe(fit.alternatives.length);
+    const quantities = await page.locator("[data-testid=fit-quantities] tbody tr").allTextContents();
+    const ec = formatUncertain(fit.chargingEnergyEV.value * 1000, fit.chargingEnergyEV.standardError * 1000);
+    expect(quantities.find((r) => r.startsWith("charging energy Ec"))).toContain(`${ec} meV`);
+    await page.screenshot({ path: join(ARTIFACTS, "model-compare.png"), fullPage: true });
     expect(await errorCells(page)).toBe(0);
     await page.close();
   });
