@@ -38,6 +38,13 @@ export interface NoLevelsInput {
    * of that noise. Optional: without it the "faint-peaks" rule is not applied.
    */
   strongestProminenceSigma?: number;
+  /**
+   * FWHM of each peak, V, in the order of `peaksV`, and the bias range of the curve [first,
+   * last], V. Optional (both or neither): with them, peaks within
+   * NO_LEVELS_DEFAULTS.edgeFwhms FWHM of an end of the range do not count as levels (note 4).
+   */
+  peakFwhmV?: readonly number[];
+  biasRangeV?: [number, number];
 }
 
 /** Constants of {@link noLevels} (locked by test/assign/noLevels.test.ts). */
@@ -50,6 +57,8 @@ export const NO_LEVELS_DEFAULTS = Object.freeze({
    * 2,001-sample curve (6.1–6.5 σ for windows of 10–80 mV, measured by simulation).
    */
   minStrongestProminenceSigma: 6,
+  /** Peaks closer than this many FWHM to an end of the bias range do not count as levels (note 4). */
+  edgeFwhms: 1,
 });
 
 /**
@@ -89,7 +98,12 @@ export const NO_LEVELS_DEFAULTS = Object.freeze({
  *    strongest peak is at least 7.8 σ, 13 σ at the 5th percentile).
  * 4. Exactly one peak: "lone-peak" (a single level cannot be told from a bump of a smooth
  *    background, and no gap between a CB and a VB peak can be formed).
- * Otherwise null.
+ * Otherwise null. Rules 2 and 4 count only the peaks at least NO_LEVELS_DEFAULTS.edgeFwhms (1)
+ * FWHM inside the bias range when the widths and the range are given: at the end of the range
+ * the smoothing filter works from one side and the current-step test sees less than one width
+ * beyond the peak, so a steep background cut off by the range (tunnelling into the substrate at
+ * the largest biases) makes a "peak" there that nothing else confirms. Such peaks still count
+ * for a curve that has levels elsewhere.
  *
  * Example
  * -------
@@ -105,11 +119,16 @@ export function noLevels(input: NoLevelsInput): NoLevels | null {
       reason: `dI/dV at 0 V is above its noise and the current leaves its noise within ${input.zeroCurrentSamples} sample${input.zeroCurrentSamples === 1 ? "" : "s"} of 0 V, so there is no zero-conductance region (an ohmic or metallic contact, not a dot between two barriers); the ${peaksV.length} peak${peaksV.length === 1 ? "" : "s"} found are not taken as levels`,
     };
   }
-  if (peaksV.length === 0) {
+  const range = input.biasRangeV;
+  const widths = input.peakFwhmV;
+  const reach = NO_LEVELS_DEFAULTS.edgeFwhms;
+  const inside = range && widths ? peaksV.filter((v, k) => v - range[0] >= reach * widths[k] && range[1] - v >= reach * widths[k]) : peaksV;
+  const atEdge = peaksV.length - inside.length;
+  const edgeWords = atEdge ? ` (${atEdge} more within ${reach === 1 ? "one FWHM" : `${reach} FWHM`} of the end of the bias range, where the filter and the step test see one side only, are not counted)` : "";
+  if (inside.length === 0) {
     return {
       code: "no-peaks",
-      reason:
-        "no peak passed the current-step test: the curve shows no dot levels (noise only, an open circuit, or a smooth background such as tunnelling into the substrate)",
+      reason: `no peak passed the current-step test${edgeWords}: the curve shows no dot levels (noise only, an open circuit, or a smooth background such as tunnelling into the substrate)`,
     };
   }
   const strongest = input.strongestProminenceSigma;
@@ -119,10 +138,10 @@ export function noLevels(input: NoLevelsInput): NoLevels | null {
       reason: `the strongest of the ${peaksV.length} peak${peaksV.length === 1 ? "" : "s"} stands only ${Number(strongest.toPrecision(2))}σ above its surroundings in dI/dV, less than white noise alone reaches somewhere on a curve (${NO_LEVELS_DEFAULTS.minStrongestProminenceSigma}σ); their current steps can be the curvature of a smooth background (such as an exponential rise from tunnelling into the substrate) rather than levels`,
     };
   }
-  if (peaksV.length === 1) {
+  if (inside.length === 1) {
     return {
       code: "lone-peak",
-      reason: `only one peak (at ${Number(peaksV[0].toPrecision(4))} V) passed the current-step test: one bump on a smooth background is not a ladder of levels, and no gap between a CB and a VB peak can be formed`,
+      reason: `only one peak (at ${Number(inside[0].toPrecision(4))} V) passed the current-step test${edgeWords}: one bump on a smooth background is not a ladder of levels, and no gap between a CB and a VB peak can be formed`,
     };
   }
   return null;

@@ -264,6 +264,8 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     zeroInRange: nb > 0 && signal.biasV[0] <= 0 && signal.biasV[nb - 1] >= 0,
     zeroCurrentSamples: zeroRegion ? Math.round((zeroRegion[1] - zeroRegion[0]) / prepared.stepV) + 1 : 0,
     strongestProminenceSigma: peaks.length ? Math.max(...peaks.map((p) => p.snr)) : undefined,
+    peakFwhmV: peaks.map((p) => p.fwhmV),
+    biasRangeV: nb > 0 ? [signal.biasV[0], signal.biasV[nb - 1]] : undefined,
   });
   const assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const roles = peakRoles(peaks.length, assignment);

@@ -5,7 +5,7 @@ import { noLevels, NO_LEVELS_DEFAULTS } from "../../lib/assign/noLevels.ts";
 
 describe("noLevels(input)", () => {
   it("NO_LEVELS_DEFAULTS are locked", () => {
-    expect(NO_LEVELS_DEFAULTS).toEqual({ minZeroCurrentSamples: 5, minStrongestProminenceSigma: 6 });
+    expect(NO_LEVELS_DEFAULTS).toEqual({ minZeroCurrentSamples: 5, minStrongestProminenceSigma: 6, edgeFwhms: 1 });
     expect(Object.isFrozen(NO_LEVELS_DEFAULTS)).toBe(true);
   });
 
@@ -33,6 +33,21 @@ describe("noLevels(input)", () => {
     expect(faint?.reason).toContain("5.3σ");
     expect(noLevels({ ...base, strongestProminenceSigma: 6 })).toBeNull();
     expect(noLevels(base)).toBeNull(); // without the figure the rule is not applied
+  });
+
+  it("does not count peaks within one FWHM of an end of the bias range, unless the curve has levels elsewhere", () => {
+    const base = { gapEdgesV: [-1.5, 1.5] as [number, number], zeroInRange: true, zeroCurrentSamples: 1500, biasRangeV: [-2, 2] as [number, number] };
+    // by construction: 1.96 V is 40 mV from the end with a FWHM of 94 mV; −1.969 V is 31 mV from it with 35 mV
+    const edges = noLevels({ ...base, peaksV: [-1.969, 1.96], peakFwhmV: [0.035, 0.094] });
+    expect(edges?.code).toBe("no-peaks");
+    expect(edges?.reason).toContain("2 more within one FWHM of the end of the bias range");
+    const one = noLevels({ ...base, peaksV: [-1.381, 1.968], peakFwhmV: [0.018, 0.038] });
+    expect(one?.code).toBe("lone-peak");
+    expect(one?.reason).toContain("-1.381 V");
+    // two peaks inside the range: levels possible, and then the edge peak stays with them
+    expect(noLevels({ ...base, peaksV: [-1.0, 0.9, 1.96], peakFwhmV: [0.04, 0.04, 0.04] })).toBeNull();
+    // a peak exactly one FWHM from the end counts
+    expect(noLevels({ ...base, peaksV: [-1.0, 1.96], peakFwhmV: [0.04, 0.04] })).toBeNull();
   });
 
   it("lets two or more peaks through, also on one side of 0 V only or with 0 V outside the range", () => {

@@ -108,14 +108,16 @@ describe("analyzeCurve on curves without dot features", () => {
   // A steep exponential recorded with little noise (relative noise 1e-5 and 1e-6 of the largest
   // current): within a fit window it bends more than a line follows, so noise bumps on it used to
   // pass the current-step test as "levels" (up to 14 peaks, a regime and a gap).
-  for (const [v0, relative] of [[0.2, 1e-5], [0.2, 1e-6], [0.3, 1e-5], [0.1, 1e-6]]) {
+  // At 1 % and 0.1 % noise the same curves used to give peaks at the very end of the bias range
+  // (where the filter and the step test see one side only) and with them a "gap" of 3.9 V.
+  for (const [v0, relative] of [[0.2, 1e-5], [0.2, 1e-6], [0.3, 1e-5], [0.1, 1e-6], [0.3, 1e-2], [0.5, 1e-3]]) {
     it(`exponential I = 0.1 nA·sinh(V/${v0} V) with relative noise ${relative}: no levels, never a gap (seeds 1–4)`, () => {
       for (let seed = 1; seed <= 4; seed++) {
         const rng = seededRandom(seed);
         const top = 1e-10 * Math.sinh(2 / v0);
         const currentA = biasV.map((v) => 1e-10 * Math.sinh(v / v0) + relative * top * rng.normal());
         const a = analyzeCurve(memoryCurve(biasV, currentA, "exponential"), { eta: 0.8 });
-        expect(["no-peaks", "faint-peaks", "no-gap"]).toContain(a.assignment.noLevels?.code);
+        expect(["no-peaks", "faint-peaks", "lone-peak", "no-gap"]).toContain(a.assignment.noLevels?.code);
         expect(a.assignment.quantities.gapV).toBeNull();
         expect(a.assignment.multiplets).toEqual([]);
       }
