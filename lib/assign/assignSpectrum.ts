@@ -137,7 +137,7 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const vb = vbSplit.main;
 
   // 3. Regime.
-  const evidence: RegimeEvidence = { ...regimeRatios(cbClean), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: resonances, reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: resonances, reasons: [] };
   for (const r of resonances) {
     evidence.reasons.push(
       `peak at ${peaks[r.index].biasV.toFixed(3)} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V`,

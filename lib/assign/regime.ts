@@ -16,6 +16,10 @@ export interface RegimeEvidence {
   secondToFirstStepRatio: number | null;
   /** Spacing from CB peak 2 to the next peak that is not its weak satellite, over that of peaks 1–2; null without one. */
   thirdToSecondSpacingRatio: number | null;
+  /** Step of the second VB main peak over the first; null with fewer than two VB main peaks. */
+  valenceStepRatio: number | null;
+  /** Spacing of the first two VB main peaks over that of the first two CB peaks; null without both pairs. */
+  valenceSpacingRatio: number | null;
   /** CB peaks taken as charging satellites (weak peaks after a main peak) in shell tunnelling. */
   satellitePeaksV: number[];
   /**
@@ -32,18 +36,25 @@ export interface RegimeEvidence {
   reasons: string[];
 }
 
+/** The ratios of {@link regimeRatios}: the numeric part of {@link RegimeEvidence}. */
+export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thirdToSecondSpacingRatio" | "valenceStepRatio" | "valenceSpacingRatio">;
+
 /**
- * The two ratios the regime rules read, from the CB peaks left after the noise rule.
+ * The ratios the regime rules read, from the CB peaks left after the noise rule and the VB main
+ * peaks.
  *
  * Parameters
  * ----------
  * cb : readonly BandPeak[]
  *     CB peaks from the gap edge outward, noise set aside.
+ * vb : readonly BandPeak[], optional
+ *     VB main peaks (noise and charging satellites set aside) from the gap edge outward.
+ *     Default: none (the VB ratios are then null).
  *
  * Returns
  * -------
- * { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null }
- *     See {@link RegimeEvidence}; both dimensionless.
+ * RegimeRatios
+ *     See {@link RegimeEvidence}; all dimensionless.
  *
  * Notes
  * -----
@@ -51,22 +62,30 @@ export interface RegimeEvidence {
  * 2. The third peak is the first after peak 2 whose step is at least
  *    `ASSIGN_DEFAULTS.satelliteStepRatioMax` × that of peak 2 (a weaker one is its satellite);
  *    spacing ratio = (x₃ − x₂)/(x₂ − x₁), null without such a peak.
+ * 3. VB step ratio = stepA of VB peak 2 / stepA of VB peak 1; VB spacing ratio =
+ *    (x₂ − x₁) of the VB over (x₂ − x₁) of the CB.
  *
  * Example
  * -------
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
- * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)]);
- * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4 }
+ * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)], [at(0.8125, 1e-11, 3), at(0.9375, 1e-11, 4)]);
+ * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4, valenceStepRatio: 1, valenceSpacingRatio: 1 }
  */
-export function regimeRatios(cb: readonly BandPeak[]): { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null } {
+export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = []): RegimeRatios {
   const D = ASSIGN_DEFAULTS;
   let secondToFirstStepRatio: number | null = null;
   let thirdToSecondSpacingRatio: number | null = null;
+  let valenceStepRatio: number | null = null;
+  let valenceSpacingRatio: number | null = null;
   if (cb.length >= 2) secondToFirstStepRatio = cb[1].peak.stepA / cb[0].peak.stepA;
   // The jump to the next peak that is not a weak satellite of the second.
   const third = cb.slice(2).find((p) => p.peak.stepA >= D.satelliteStepRatioMax * cb[1].peak.stepA);
   if (third) thirdToSecondSpacingRatio = (third.x - cb[1].x) / (cb[1].x - cb[0].x);
-  return { secondToFirstStepRatio, thirdToSecondSpacingRatio };
+  if (vb.length >= 2) {
+    valenceStepRatio = vb[1].peak.stepA / vb[0].peak.stepA;
+    if (cb.length >= 2) valenceSpacingRatio = (vb[1].x - vb[0].x) / (cb[1].x - cb[0].x);
+  }
+  return { secondToFirstStepRatio, thirdToSecondSpacingRatio, valenceStepRatio, valenceSpacingRatio };
 }
 
 /**
@@ -127,11 +146,10 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
   const ratio = evidence.secondToFirstStepRatio!;
   const jump = evidence.thirdToSecondSpacingRatio;
   if (ratio >= D.fillingStepRatio[0] && ratio <= D.fillingStepRatio[1]) {
-    if (jump === null || jump >= D.fillingJumpRatioMin) {
+    if (jump === null) return pairWithoutThird(ratio, evidence);
+    if (jump >= D.fillingJumpRatioMin) {
       reasons.push(
-        `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")})` +
-          (jump === null ? " and no third CB peak" : ` and the next jump is ${jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin})`) +
-          ": an s doublet of charging peaks",
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")}) and the next jump is ${jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin}): an s doublet of charging peaks`,
       );
       return "shell-filling";
     }
@@ -157,5 +175,38 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
     `the p shell carries ${pShell.length ? pRatio.toFixed(2) : "no"} × the s step: neither an s doublet (${D.fillingStepRatio.join("–")} with a larger jump to p) nor an s/p pair (≥ ${D.tunnelingStepRatioMin})` +
       note,
   );
+  return "undetermined";
+}
+
+/**
+ * Two alike CB steps and nothing after them: an s doublet of charging peaks (shell filling), or
+ * the s level and a doubly degenerate p sub-level (shell tunnelling, the window ending inside a
+ * split p shell). Both give two steps of about the same height (r/(1 + r) for the doublet,
+ * `levelStepRatio(2, 2, r)` = 1/(1 + 4r) of lib/model/regimeLimits.ts for two levels), so the VB decides: in shell
+ * filling its first two main peaks are a charging doublet too, with the same spacing (Ec) and
+ * alike steps; in shell tunnelling they are levels, the second usually of higher degeneracy.
+ */
+function pairWithoutThird(ratio: number, evidence: RegimeEvidence): Regime {
+  const D = ASSIGN_DEFAULTS;
+  const reasons = evidence.reasons;
+  const head = `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")}) and no third CB peak follows: an s doublet or the s level and a p sub-level`;
+  const vStep = evidence.valenceStepRatio;
+  const vSpacing = evidence.valenceSpacingRatio;
+  if (vStep === null || vSpacing === null) {
+    reasons.push(`${head}; fewer than two VB peaks to tell them apart`);
+    return "undetermined";
+  }
+  const alike = vStep >= D.fillingStepRatio[0] && vStep <= D.fillingStepRatio[1];
+  const sameSpacing = Math.abs(vSpacing - 1) <= D.valenceChargingTolerance;
+  if (alike && sameSpacing) {
+    reasons.push(`${head}; the first two VB steps are alike too (ratio ${vStep.toFixed(2)}) at ${vSpacing.toFixed(2)} × the CB spacing (within 1 ± ${D.valenceChargingTolerance}): charging doublets of one Ec on both sides`);
+    return "shell-filling";
+  }
+  if (vStep >= D.tunnelingStepRatioMin || !sameSpacing) {
+    const why = vStep >= D.tunnelingStepRatioMin ? `the second VB step is ${vStep.toFixed(2)} × the first (≥ ${D.tunnelingStepRatioMin}): a level of more states, not a charging peak` : `the first two VB peaks are ${vSpacing.toFixed(2)} × the CB spacing apart (outside 1 ± ${D.valenceChargingTolerance}): not one Ec`;
+    reasons.push(`${head}; ${why}, so the CB pair is two single levels`);
+    return "shell-tunneling";
+  }
+  reasons.push(`${head}; the VB (step ratio ${vStep.toFixed(2)}, spacing ${vSpacing.toFixed(2)} × the CB's) supports neither reading`);
   return "undetermined";
 }

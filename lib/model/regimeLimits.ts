@@ -91,6 +91,59 @@ export function rateRatioFromStepRatio(stepRatio: number): number {
 }
 
 /**
+ * Step of a second level over the first in shell tunnelling (one extra carrier at a time), for
+ * Γtip/Γsub = r, in orthodox theory.
+ *
+ * Parameters
+ * ----------
+ * lowerDegeneracy : number
+ *     g₁, states of the first level (spin included), ≥ 1.
+ * upperDegeneracy : number
+ *     g₂, states of the second level (spin included), ≥ 1.
+ * rateRatio : number
+ *     r = Γtip/Γsub (per state into the dot through the tip, per carrier out through the
+ *     substrate), > 0.
+ *
+ * Returns
+ * -------
+ * number
+ *     (I₂ − I₁)/I₁ = g₂/(g₁·(1 + (g₁ + g₂)·r)).
+ *
+ * Throws
+ * ------
+ * Nothing: callers pass constants or fitted values.
+ *
+ * Notes
+ * -----
+ * Derivation (closed form, master equation with at most one extra carrier, i.e. Ec larger than
+ * the level spacing, and fast relaxation between levels):
+ * 1. With G states open, the dot is empty (P₀) or holds one carrier (P₁): in at G·Γt, out at Γs,
+ *    so P₁ = G·r/(1 + G·r) and I(G) = e·Γs·G·r/(1 + G·r).
+ * 2. First level open: G = g₁; both open: G = g₁ + g₂.
+ * 3. (I₂ − I₁)/I₁ = (g₁ + g₂)(1 + g₁r)/(g₁(1 + (g₁ + g₂)r)) − 1 = g₂/(g₁(1 + (g₁ + g₂)r)).
+ * For r ≪ 1 the steps follow the degeneracies (g₂/g₁: 3 for s then a whole p shell); for s then
+ * a doubly degenerate p sub-level the ratio is 1/(1 + 4r) ≈ 1, as alike as the two charging steps
+ * of an s doublet in shell filling (r/(1 + r) ≈ 1 for r ≫ 1): step heights alone cannot tell
+ * those two apart. test/model/regimeLimits.test.ts checks it against the master equation of
+ * lib/model.
+ *
+ * References
+ * ----------
+ * E. Bonet, M. M. Deshmukh and D. C. Ralph, Phys. Rev. B 65, 045317 (2002) (rate equations of
+ * degenerate levels); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * levelStepRatio(2, 6, 0.01);  // => 2.7778 (3/1.08)
+ * levelStepRatio(2, 2, 0.01);  // => 0.9615 (1/1.04)
+ * ```
+ */
+export function levelStepRatio(lowerDegeneracy: number, upperDegeneracy: number, rateRatio: number): number {
+  return upperDegeneracy / (lowerDegeneracy * (1 + (lowerDegeneracy + upperDegeneracy) * rateRatio));
+}
+
+/**
  * The regime boundaries in Γtip/Γsub and their reading as second/first CB step ratios.
  * Common practice (no source) for where to draw them; their step-ratio reading is the closed form
  * of {@link secondToFirstStepRatio}.

@@ -42,6 +42,40 @@ describe("regimeRatios(cb) and classifyRegime(cb, main, evidence)", () => {
   it("cannot tell from fewer than two CB peaks", () => {
     expect(classify([]).regime).toBe("undetermined");
     expect(classify([at(0.7, 1e-11, 0)]).regime).toBe("undetermined");
-    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null });
+    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null, valenceStepRatio: null, valenceSpacingRatio: null });
+  });
+});
+
+describe("classifyRegime on two alike CB steps and no third CB peak (the window ends there)", () => {
+  // Shell filling at r = 10: s doublet with step ratio r/(1 + r) = 10/11 (closed form), and the VB
+  // doublet of ε_v1 = −0.6 eV at the same spacing Ec/η with the same step ratio. Shell tunnelling
+  // at r = 0.01: s (0.5 eV) and a doubly degenerate p sub-level (0.8 eV), step ratio 1/(1 + 4r)
+  // (closed form, levelStepRatio(2, 2, r)); VB levels v1 (g 2, −0.6 eV) and v2 (g 4, −0.8 eV), step
+  // ratio 4/(2(1 + 6r)) (closed form, levelStepRatio(2, 4, r)).
+  const withVB = (cb: BandPeak[], vb: BandPeak[]) => {
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    return { regime: classifyRegime(cb, cb, evidence), evidence };
+  };
+  it("calls an s doublet with a VB doublet of the same spacing shell filling", () => {
+    const r = 10, q = r / (1 + r);
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), q * 1e-11, 1)];
+    const vb = [at(V(0.65), 1e-11, 2), at(V(0.75), q * 1e-11, 3)];
+    const { regime, evidence } = withVB(cb, vb);
+    expectClose(evidence.valenceSpacingRatio!, 1, { rtol: 1e-12, what: "same Ec on both sides" });
+    expect(regime).toBe("shell-filling");
+  });
+  it("calls s and a p sub-level shell tunnelling when the VB shows levels (second step ≈ 2 × the first)", () => {
+    const r = 0.01;
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.85), (1 / (1 + 4 * r)) * 2e-11, 1)];
+    const vb = [at(V(0.65), 2e-11, 2), at(V(0.85), (4 / (2 * (1 + 6 * r))) * 2e-11, 3)];
+    const { regime, evidence } = withVB(cb, vb);
+    expectClose(evidence.valenceStepRatio!, 2 / 1.06, { rtol: 1e-12, what: "g2/(g1(1 + 6r))" });
+    expect(regime).toBe("shell-tunneling");
+  });
+  it("says undetermined without a VB pair", () => {
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), 0.95e-11, 1)];
+    const { regime, evidence } = withVB(cb, [at(V(0.65), 1e-11, 2)]);
+    expect(regime).toBe("undetermined");
+    expect(evidence.reasons.join(" ")).toMatch(/fewer than two VB peaks/);
   });
 });

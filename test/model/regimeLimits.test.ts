@@ -4,7 +4,7 @@
 // the project's own master-equation solver, which test/model/ladder.test.ts checks against the
 // closed-form plateau currents.
 import { describe, it, expect } from "vitest";
-import { REGIME_LIMITS, rateRatioFromStepRatio, secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
+import { REGIME_LIMITS, levelStepRatio, rateRatioFromStepRatio, secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
 import { exactCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { simulateCurve } from "../../lib/model/simulate.ts";
@@ -49,6 +49,28 @@ describe("secondToFirstStepRatio(r)", () => {
 
   it("has rateRatioFromStepRatio as its inverse (closed form q/(1 − q))", () => {
     for (const r of [0.01, 0.43, 1.5, 50]) expectClose(rateRatioFromStepRatio(secondToFirstStepRatio(r)), r, { rtol: 1e-12 });
+  });
+});
+
+describe("levelStepRatio(g1, g2, r)", () => {
+  // Closed form g2/(g1(1 + (g1 + g2)r)) (derived in lib/model/regimeLimits.ts from the master
+  // equation with one extra carrier), checked against the project's master-equation solver: an s
+  // level (g 2) at 0.5 eV and a second level at 0.8 eV, Ec = 1 eV so that a second carrier stays
+  // blocked (its step at (0.5 + 1.5)/0.8 = 2.5 V); steps at 1.25 V and 1.625 V, plateaus read at
+  // 1.4 V and 2.0 V.
+  it("is the ratio of the two level steps of the master equation in shell tunnelling", () => {
+    for (const g2 of [2, 4, 6]) {
+      for (const r of [0.003, 0.03, 0.2, 1]) {
+        const model: DotModel = { ...sLevel(r), cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: g2 }], chargingEnergyEV: 1 };
+        const [first, second] = exactCurrent(model, [1.4, 2.0]);
+        expectClose((second - first) / first, levelStepRatio(2, g2, r), { rtol: 1e-6, what: `g2 = ${g2}, r = ${r}` });
+      }
+    }
+  });
+
+  it("tends to the degeneracy ratio g2/g1 for r → 0 and is ≈ 1 for s then a doubly degenerate sub-level (closed form)", () => {
+    expectClose(levelStepRatio(2, 6, 1e-9), 3, { rtol: 1e-6 });
+    expectClose(levelStepRatio(2, 2, 0.01), 1 / 1.04, { rtol: 1e-12 });
   });
 });
 
