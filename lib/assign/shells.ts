@@ -51,9 +51,12 @@ export interface FillingShells {
  *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
  *    `leadingSatelliteRatioMax` × the candidates' median step, the weakest extras are set aside,
  *    otherwise the shell takes its first g candidates.
- * 4. Inside a shell, a spacing above (1 + `subgroupExtraMin`)·Ec starts a sub-group (a
+ * 4. A peak inside the shell whose step is below `satelliteStepRatioMax` × the steps of both its
+ *    neighbours is set aside (a higher sub-level entered at a lower charge state: not a charging
+ *    peak of the ladder).
+ * 5. Inside a shell, a spacing above (1 + `subgroupExtraMin`)·Ec starts a sub-group (a
  *    multiplet split by shape anisotropy).
- * 5. Peaks set aside beyond the last assigned peak are not reported as off the ladder.
+ * 6. Peaks set aside beyond the last assigned peak are not reported as off the ladder.
  *
  * Example
  * -------
@@ -120,6 +123,13 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
         offLadder.push(...extras);
         members = members.filter((p) => !extras.includes(p));
       } else members = members.slice(0, g);
+    }
+    // An inner peak much weaker than both neighbours is not a charging peak of the shell but a
+    // channel through a higher sub-level opening at a charge state below it (a split shell).
+    const weakInner = members.filter((p, j) => j > 0 && j < members.length - 1 && p.peak.stepA < D.satelliteStepRatioMax * Math.min(members[j - 1].peak.stepA, members[j + 1].peak.stepA));
+    if (weakInner.length) {
+      offLadder.push(...weakInner);
+      members = members.filter((p) => !weakInner.includes(p));
     }
     if (!members.length) break;
     const end = members[members.length - 1];

@@ -33,6 +33,20 @@ describe("fillingShells(cb)", () => {
   });
 });
 
+describe("fillingShells(cb) on a split p shell cut by the window", () => {
+  it("sets aside an inner peak weaker than half of both neighbours (the upper sub-level entered at a lower charge state)", () => {
+    // p split 2 + 4: p_a at 0.8 eV (n = 2, 3), p_b at 0.9 eV (n = 4), split by one Ec; the channel
+    // into p_b at n = 3, (0.9 + 3.5·Ec)/η, lies one Ec after p_a's second and before p_b's first
+    // charging peak (closed form positions), on the ladder's spacing; its step is a fraction of
+    // the others (0.3 here: common practice (no source)).
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 3), V(0.9, 3), V(0.9, 4)];
+    const steps = [1, 0.95, 1, 0.9, 0.3, 1].map((k) => k * 1e-11);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.offLadder.map((p) => p.index)).toEqual([4]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([2, 3, 5]);
+  });
+});
+
 describe("tunnelingShells(main)", () => {
   it("one level per shell; a level close to p (split p) joins it", () => {
     // s at 0.5, p at 0.8 and 0.83 (split by 30 meV, well under half the s–p distance), d at 1.2 eV.
