@@ -13,7 +13,8 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
 import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
-import { secondJunctionResonances } from "./secondJunction.ts";
+import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { confirmResonances } from "./confirmResonances.ts";
 import { fillingShells, tunnelingShells } from "./shells.ts";
 import { valenceGroups } from "./valenceGroups.ts";
 import type { NoLevels } from "./noLevels.ts";
@@ -118,13 +119,56 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const D = ASSIGN_DEFAULTS;
   const etaGiven = options.eta !== undefined;
   const eta = etaGiven ? checkEta("eta", options.eta) : D.eta;
+  // Resonances through the substrate junction are not levels of the tip-junction ladder; the
+  // candidates are checked against an assignment made without them.
+  const candidates = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
+  const first = assignWith(peaks, eta, etaGiven, candidates, options);
+  if (!candidates.length) return first;
+  const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options);
+  if (filling) return filling;
+  if (first.regime === "shell-filling" || options.regime) return first;
+  // Where the tip side is not shell filling, the substrate side may fill: the resonance of a
+  // band's first level is then a charging doublet. The second peak goes too, if that leaves a
+  // regime the rules can name (and the same one, when they named one before).
+  const companions = substrateChargingPeaks(peaks, candidates, eta, D.fillingStepRatio);
+  if (!companions.length) return first;
+  const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
+  if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;
+  third.evidence.reasons.unshift(
+    ...companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`),
+  );
+  return third;
+}
+
+/**
+ * The assignment with the resonances of a shell-filling reading (see `confirmResonances`), or null
+ * when that reading changes nothing or does not give shell filling.
+ */
+function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
+  // Check the candidates against the first assignment, or, when that is not shell filling, against
+  // the shell-filling reading (a resonance on an s peak hides the doublet); the result stands only
+  // if the regime it gives is shell filling.
+  const basis = first.regime === "shell-filling" || options.regime ? first : assignWith(peaks, eta, etaGiven, candidates, { ...options, regime: "shell-filling" });
+  const { kept, released } = confirmResonances(candidates, peaks, { regime: basis.regime, multiplets: basis.multiplets, chargingEnergyV: basis.quantities.chargingEnergyV, eta });
+  const same = kept.length === candidates.length && kept.every((k) => candidates.some((c) => c.index === k.index));
+  if (same) return null;
+  // A level that a resonance overlaps keeps its own share of the summed step.
+  const share = new Map(released.filter((r) => r.levelStepA !== null).map((r) => [r.resonance.index, r.levelStepA!]));
+  const adjusted = share.size ? peaks.map((p, i) => (share.has(i) ? { ...p, stepA: share.get(i)! } : p)) : peaks;
+  const second = assignWith(adjusted, eta, etaGiven, kept, options);
+  if (second.regime !== "shell-filling") return null;
+  second.evidence.reasons.unshift(...released.map((r) => r.reason));
+  return second;
+}
+
+/** The assignment with the given peaks set aside as second-junction resonances. */
+function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
+  const D = ASSIGN_DEFAULTS;
   const warnings: string[] = [];
   if (!etaGiven) warnings.push("eta not given: energies equal the bias-referred values (η = 1); pass the voltage-division factor to convert");
 
   // 1–2. Bands; peaks at the noise level of their band go first; charging satellites (weak peaks
   // after a main peak) are told apart only once the regime is known.
-  // Resonances through the substrate junction are not levels of the tip-junction ladder.
-  const resonances = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
   const resonant = new Set(resonances.map((r) => r.index));
   const bands = bandPeaks(peaks);
   const cbAll = bands.cb.filter((p) => !resonant.has(p.index));
@@ -137,7 +181,7 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const vb = vbSplit.main;
 
   // 3. Regime.
-  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: resonances, reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
   for (const r of resonances) {
     evidence.reasons.push(
       `peak at ${peaks[r.index].biasV.toFixed(3)} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V`,

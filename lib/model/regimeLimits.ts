@@ -144,6 +144,56 @@ export function levelStepRatio(lowerDegeneracy: number, upperDegeneracy: number,
 }
 
 /**
+ * First step of a level through the substrate junction (its second-junction resonance) over its
+ * first step through the tip junction, for Γtip/Γsub = r, in orthodox theory.
+ *
+ * Parameters
+ * ----------
+ * degeneracy : number
+ *     g, states of the level (spin included), ≥ 1; the level is the first of its band (the dot
+ *     holds no carrier of that band before it).
+ * rateRatio : number
+ *     r = Γtip/Γsub (per state into the dot, per carrier out), > 0.
+ *
+ * Returns
+ * -------
+ * number
+ *     (g·r + 1)/(g + r): g deep in shell filling, 1/g deep in shell tunnelling, 1 at r = 1.
+ *
+ * Throws
+ * ------
+ * Nothing: callers pass constants or fitted values.
+ *
+ * Notes
+ * -----
+ * Derivation (closed form, master equation with one extra carrier):
+ * 1. Through the tip junction (positive bias for the CB) the carrier enters from the tip at g·Γt
+ *    and leaves to the substrate at Γs: I_tip = e·g·Γt·Γs/(g·Γt + Γs).
+ * 2. Through the substrate junction (opposite bias) the roles swap: in at g·Γs, out at Γt:
+ *    I_sub = e·g·Γs·Γt/(g·Γs + Γt).
+ * 3. I_sub/I_tip = (g·Γt + Γs)/(g·Γs + Γt) = (g·r + 1)/(g + r).
+ * So the resonance of the s level (g = 2) carries about twice the first s step in shell filling
+ * and about half of it in shell tunnelling: its height tells the regime even where the tip side
+ * cannot. test/model/regimeLimits.test.ts checks it against the master equation of lib/model.
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids* (Elsevier, 1991) (the two
+ * junctions of a double-barrier structure); E. Bonet, M. M. Deshmukh and D. C. Ralph, Phys. Rev. B
+ * 65, 045317 (2002).
+ *
+ * Example
+ * -------
+ * ```ts
+ * substrateToTipStepRatio(2, 10);    // => 1.75 (21/12)
+ * substrateToTipStepRatio(2, 0.01);  // => 0.5075 (1.02/2.01)
+ * ```
+ */
+export function substrateToTipStepRatio(degeneracy: number, rateRatio: number): number {
+  return (degeneracy * rateRatio + 1) / (degeneracy + rateRatio);
+}
+
+/**
  * The regime boundaries in Γtip/Γsub and their reading as second/first CB step ratios.
  * Common practice (no source) for where to draw them; their step-ratio reading is the closed form
  * of {@link secondToFirstStepRatio}.

@@ -4,7 +4,7 @@
 // the project's own master-equation solver, which test/model/ladder.test.ts checks against the
 // closed-form plateau currents.
 import { describe, it, expect } from "vitest";
-import { REGIME_LIMITS, levelStepRatio, rateRatioFromStepRatio, secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
+import { REGIME_LIMITS, levelStepRatio, rateRatioFromStepRatio, secondToFirstStepRatio, substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { exactCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { simulateCurve } from "../../lib/model/simulate.ts";
@@ -71,6 +71,30 @@ describe("levelStepRatio(g1, g2, r)", () => {
   it("tends to the degeneracy ratio g2/g1 for r → 0 and is ≈ 1 for s then a doubly degenerate sub-level (closed form)", () => {
     expectClose(levelStepRatio(2, 6, 1e-9), 3, { rtol: 1e-6 });
     expectClose(levelStepRatio(2, 2, 0.01), 1 / 1.04, { rtol: 1e-12 });
+  });
+});
+
+describe("substrateToTipStepRatio(g, r)", () => {
+  // Closed form (g·r + 1)/(g + r) (derived in lib/model/regimeLimits.ts), checked against the
+  // master equation: an s level (g 2) at 0.5 eV, Ec = 0.2 eV, η = 0.6. Through the tip junction its
+  // first step is at (0.5 + 0.1)/0.6 = 1.0 V (plateau read at 1.1 V, before the second carrier at
+  // 0.8/0.6 = 1.333 V); through the substrate junction at −0.6/0.4 = −1.5 V (plateau read at
+  // −1.75 V, before −0.8/0.4 = −2.0 V).
+  it("is the substrate-side first step over the tip-side first step of the master equation", () => {
+    for (const g of [2, 4]) {
+      for (const r of [0.01, 0.2, 1, 5, 30]) {
+        const model: DotModel = { ...sLevel(r), cb: [{ energyEV: 0.5, degeneracy: g }], eta: 0.6 };
+        const [sub, tip] = exactCurrent(model, [-1.75, 1.1]);
+        expectClose(Math.abs(sub) / tip, substrateToTipStepRatio(g, r), { rtol: 1e-6, what: `g = ${g}, r = ${r}` });
+      }
+    }
+  });
+
+  it("is g deep in shell filling, 1/g deep in shell tunnelling and 1 at r = 1 (closed form)", () => {
+    expectClose(substrateToTipStepRatio(2, 1e9), 2, { rtol: 1e-6 });
+    expectClose(substrateToTipStepRatio(2, 1e-9), 0.5, { rtol: 1e-6 });
+    expectClose(substrateToTipStepRatio(2, 1), 1, { rtol: 1e-12 });
+    expectClose(substrateToTipStepRatio(2, 3 / 7), 13 / 17, { rtol: 1e-12 });
   });
 });
 
