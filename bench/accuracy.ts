@@ -16,7 +16,8 @@
  *
  * The other mixes (--mix) leave the default figures alone: "crossover" draws Γtip/Γsub
  * log-uniformly from 0.2 to 5 and reports, per regime of the true ratio (REGIME_LIMITS), how often
- * the rules name it, say undetermined, or name the wrong one; "cut-window" ends the bias window
+ * the rules name it, say undetermined, or name the wrong one, and for the two regimes how many
+ * spectra pass every criterion (the truth in the convention of the regime the ratio lies in); "cut-window" ends the bias window
  * halfway through the p shell (the p multiplet then has the peaks inside the window); "low-eta"
  * draws η from 0.55 to 0.65 and keeps the second-junction resonances that fall in the window
  * (syntheticSpectrum's `secondJunction: "keep"`). In every mix a peak at a true second-junction
@@ -98,24 +99,43 @@ const regimes: SyntheticRegime[] = mix === "crossover" ? [] : ["shell-filling", 
 const started = performance.now();
 const lines: string[] = [];
 if (mix === "crossover") {
-  // Regime of the true ratio against the rules' answer.
-  const counts = new Map<string, { right: number; undetermined: number; wrong: number; total: number }>();
+  // Regime of the true ratio against the rules' answer; the two regimes' spectra scored on every criterion.
+  const counts = new Map<string, { right: number; undetermined: number; wrong: number; total: number; passed: number }>();
+  const reasons = new Map<string, Map<string, number>>();
   for (let k = 0; k < perRegime; k++) {
     const seed = firstSeed + k;
     const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
     const sim = simulateCurve(scenario, { method, conductance: path === "measured" });
     const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: sim.didvS, meta: { source: `crossover-${seed}`, metadata: {} } };
-    const got = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" }).assignment.regime;
-    const r = truth.rateRatio;
-    const want = r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : "intermediate";
-    const c = counts.get(want) ?? { right: 0, undetermined: 0, wrong: 0, total: 0 };
+    const analysis = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" });
+    const got = analysis.assignment.regime;
+    const want = truth.regime;
+    const c = counts.get(want) ?? { right: 0, undetermined: 0, wrong: 0, total: 0, passed: 0 };
     c.total++;
     if (got === want) c.right++;
     else if (got === "undetermined") c.undetermined++;
     else c.wrong++;
+    if (want !== "intermediate") {
+      const sc = score(analysis, truth, [...truth.sPeaksV, ...truth.pPeaksV, ...truth.valencePeaksV]);
+      if (sc.pass) c.passed++;
+      else {
+        const key = sc.failures[0].replace(/[-\d.]+/g, "#");
+        const m = reasons.get(want) ?? new Map<string, number>();
+        m.set(key, (m.get(key) ?? 0) + 1);
+        reasons.set(want, m);
+      }
+      if (!sc.pass && verbose) console.log(`seed ${seed} ${want} r=${truth.rateRatio.toFixed(3)} Ec=${truth.chargingEnergyEV.toFixed(3)} η=${truth.eta.toFixed(2)} fwhm=${(truth.peakFwhmV * 1e3).toFixed(0)}mV noise=${(truth.noiseRelative * 100).toFixed(2)}% split=${truth.pSubgroups.join("+")}: ${sc.failures.join("; ")}`);
+    } else if (got !== "undetermined" && verbose) console.log(`seed ${seed} intermediate r=${truth.rateRatio.toFixed(3)}: named ${got}`);
     counts.set(want, c);
   }
-  for (const [want, c] of counts) lines.push(`${want.padEnd(16)} ${c.total} spectra (true Γtip/Γsub): named ${c.right}, undetermined ${c.undetermined}, another regime ${c.wrong}`);
+  for (const want of ["shell-filling", "shell-tunneling", "intermediate"]) {
+    const c = counts.get(want);
+    if (!c) continue;
+    const all = want === "intermediate" ? "" : `, all criteria ${c.passed} (${((100 * c.passed) / c.total).toFixed(1)} %)`;
+    lines.push(`${want.padEnd(16)} ${c.total} spectra (true Γtip/Γsub): named ${c.right}, undetermined ${c.undetermined}, another regime ${c.wrong}${all}`);
+    const r = reasons.get(want);
+    if (r?.size) lines.push("   first failure: " + [...r.entries()].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ×${v}`).join(", "));
+  }
 }
 const calibration: number[] = []; // (found − true)/σ for the s and p peaks of passing spectra
 for (const regime of regimes) {

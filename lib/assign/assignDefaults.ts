@@ -28,6 +28,20 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   noiseStepRatioMax: 0.2,
   /** Shell filling: the s→p jump must exceed the s spacing by this factor (Δsp > 0.25·Ec). */
   fillingJumpRatioMin: 1.25,
+  /** Two alike first CB steps followed by a spacing at most this fraction of theirs are two levels, not a charging doublet (whose jump to p is Ec + Δsp). */
+  levelPairJumpMax: 0.8,
+  /**
+   * … provided their step ratio is at least levelStepRatio(2, 6, this) = 3/(1 + 8·this) (0.79): the
+   * least a level of up to six states gives after s at a rate ratio up to this (a margin below
+   * the tunnelling limit 3/7, where intermediate spectra begin).
+   */
+  levelPairRateRatioMax: 0.35,
+  /** A second CB step from this fraction of the first … */
+  satelliteEvidenceMin: 0.1,
+  /** … to this one is a measured charging satellite of s that places r = q/(1 − q) on the tunnelling side (0.2: r ≤ 0.25, a margin below 3/7 for the satellite's step, which reads low near the boundary). */
+  satelliteEvidenceMax: 0.2,
+  /** With a measured satellite, the p shell needs this fraction of levelStepRatio(2, 2, r) = 1/(1 + 4r) × the s step (noise margin). */
+  levelStepMargin: 0.8,
   /** Shell filling: a CB peak closer than this fraction of Ec to the previous charging peak is off the ladder (set aside). */
   minLadderSpacingFraction: 0.65,
   /** When a shell has more charging-ladder candidates than it holds, the extras weaker than this fraction of the candidates' median step are charging satellites. */

@@ -6,6 +6,7 @@ import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { BandPeak } from "./bandPeaks.ts";
 import { tunnelingShells } from "./shells.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
+import { levelStepRatio, rateRatioFromStepRatio } from "../model/regimeLimits.ts";
 
 /** Shell filling (Γtip ≫ Γsub: charging multiplets), shell tunnelling (Γtip ≪ Γsub: one peak per level), or neither. */
 export type Regime = "shell-filling" | "shell-tunneling" | "undetermined";
@@ -115,9 +116,15 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  *    `D.fillingJumpRatioMin` × the first spacing: shell filling.
  * 3. Step ratio between `D.tunnelingSatelliteRatioMax` and the filling range: undetermined (an
  *    intermediate rate ratio: too strong for a satellite, too weak for a doublet).
+ *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
+ *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps and
+ *    no third CB peak: the VB decides (see `pairWithoutThird`).
  * 4. Otherwise the p shell — the second main peak with the sub-levels close to it (see
  *    `tunnelingShells`) — carrying at least `D.tunnelingStepRatioMin` × the s step: shell
- *    tunnelling; else undetermined.
+ *    tunnelling. With a measured charging satellite of s (step ratio q from
+ *    `D.satelliteEvidenceMin` to `D.tunnelingSatelliteRatioMax`), r = q/(1 − q) and the p shell
+ *    needs only `D.levelStepMargin` × levelStepRatio(2, 2, r) = 1/(1 + 4r) (lib/model/regimeLimits.ts:
+ *    at r near 3/7 a level's step is no longer its degeneracy ratio). Else undetermined.
  *
  * References
  * ----------
@@ -153,7 +160,13 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       );
       return "shell-filling";
     }
-    reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump!.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
+    if (jump <= D.levelPairJumpMax && ratio >= levelStepRatio(2, 6, D.levelPairRateRatioMax)) {
+      reasons.push(
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.levelPairJumpMax}): not a charging doublet, whose jump to p is Ec + Δsp > Ec; the s level and a p level (a level of g states after s gives g/(2(1 + (2 + g)r)), at least ${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)} for r ≤ ${D.levelPairRateRatioMax} whatever g ≤ 6), the peaks after them p's charging peaks or sub-levels: single levels`,
+      );
+      return "shell-tunneling";
+    }
+    reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
   } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
     reasons.push(
       `the second CB step is ${ratio.toFixed(2)} × the first: too strong for a charging satellite (≤ ${D.tunnelingSatelliteRatioMax}), too weak for an s doublet (≥ ${D.fillingStepRatio[0]}): an intermediate rate ratio`,
@@ -170,6 +183,19 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
     const sub = pShell.length > 1 ? ` (${pShell.length} sub-levels together)` : "";
     reasons.push(`the p shell${sub} carries ${pRatio.toFixed(2)} × the s step (≥ ${D.tunnelingStepRatioMin}; p holds 6 electrons, s 2): single levels` + note);
     return "shell-tunneling";
+  }
+  // A measured charging satellite of s gives r = q/(1 − q) ≤ 3/7; the p step then needs only to be
+  // what a level of at least two states gives at that r (levelStepRatio), with a margin for noise.
+  if (ratio >= D.satelliteEvidenceMin && ratio <= D.satelliteEvidenceMax && pShell.length) {
+    const r = rateRatioFromStepRatio(ratio);
+    const least = D.levelStepMargin * levelStepRatio(2, 2, r);
+    if (pRatio >= least) {
+      reasons.push(
+        `the second CB step is ${ratio.toFixed(2)} × the first: a charging satellite of s, so Γtip/Γsub ≈ ${r.toFixed(2)} (q/(1 − q)); the p shell carries ${pRatio.toFixed(2)} × the s step (≥ ${least.toFixed(2)}, ${D.levelStepMargin} × what a doubly degenerate level gives at that ratio): single levels` +
+          note,
+      );
+      return "shell-tunneling";
+    }
   }
   reasons.push(
     `the p shell carries ${pShell.length ? pRatio.toFixed(2) : "no"} × the s step: neither an s doublet (${D.fillingStepRatio.join("–")} with a larger jump to p) nor an s/p pair (≥ ${D.tunnelingStepRatioMin})` +

@@ -82,6 +82,11 @@ export const SYNTHETIC_DEFAULTS: Readonly<SyntheticRanges> = Object.freeze({
 
 /** What the analysis should find. Bias-referred values in V. */
 export interface SyntheticTruth {
+  /**
+   * The regime of the drawn rate ratio: the one asked for, except that an "intermediate" draw
+   * outside the {@link REGIME_LIMITS} boundaries (a wider intermediate range, as in the
+   * benchmark's crossover mix) is the regime it lies in; the peak lists follow it.
+   */
   regime: SyntheticRegime;
   rateRatio: number;
   eta: number;
@@ -194,19 +199,9 @@ function draw(rng: ReturnType<typeof seededRandom>, seed: number, regime: Synthe
     { energyEV: ev1, degeneracy: 2 },
     { energyEV: ev2, degeneracy: 4 },
   ];
-  const filling = regime !== "shell-tunneling";
-  // Expected peaks in the analysis' convention.
-  const sPeaksV = regime === "shell-tunneling" ? [(es + ec / 2) / eta] : [(es + ec / 2) / eta, (es + 1.5 * ec) / eta];
-  const pPeaksV: number[] = [];
-  if (regime === "shell-tunneling") for (const l of pLevels) pPeaksV.push((l.energyEV + ec / 2) / eta);
-  else {
-    let n = 2;
-    for (const l of pLevels) for (let k = 0; k < l.degeneracy; k++, n++) pPeaksV.push((l.energyEV + ec * (n + 0.5)) / eta);
-  }
+  // Expected peaks in the analysis' convention of the regime drawn (for the widths and the window).
+  const { sPeaksV, pPeaksV, vbPeaks } = expectedPeaks(regime !== "shell-tunneling", es, pLevels, ev1, ev2, ec, eta);
   // Smallest spacing between expected main peaks in bias, to keep peaks resolvable.
-  const vbPeaks = filling
-    ? [(-ev1 + ec / 2) / eta, (-ev1 + 1.5 * ec) / eta, ...[2, 3, 4, 5].map((n) => (-ev2 + ec * (n + 0.5)) / eta)]
-    : [(-ev1 + ec / 2) / eta, (-ev2 + ec / 2) / eta];
   const all = [...sPeaksV, ...pPeaksV].sort((a, b) => a - b);
   const vbSorted = [...vbPeaks].sort((a, b) => a - b);
   let minSpacing = Infinity;
@@ -241,24 +236,47 @@ function draw(rng: ReturnType<typeof seededRandom>, seed: number, regime: Synthe
     bias: { fromV: bottom, toV: bottom + (ranges.points - 1) * stepV, stepV },
     noise: { relative: noise, seed: seed * 100 + attempt },
   };
+  // The truth in the convention of the regime the drawn ratio lies in (an "intermediate" draw
+  // outside the REGIME_LIMITS boundaries is scored as the regime it is in).
+  const truthRegime: SyntheticRegime =
+    regime !== "intermediate" ? regime : r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : regime;
+  const expected = truthRegime === regime ? { sPeaksV, pPeaksV, vbPeaks } : expectedPeaks(truthRegime === "shell-filling", es, pLevels, ev1, ev2, ec, eta);
   return {
     scenario,
     truth: {
-      regime,
+      regime: truthRegime,
       rateRatio: r,
       eta,
       chargingEnergyEV: ec,
       levelSpacingSPEV: sp,
-      gapV: sPeaksV[0] + (-ev1 + ec / 2) / eta,
-      sPeaksV,
-      pPeaksV,
-      valencePeaksV: [...vbPeaks].sort((a, b) => a - b).map((v) => -v),
+      gapV: expected.sPeaksV[0] + (-ev1 + ec / 2) / eta,
+      sPeaksV: expected.sPeaksV,
+      pPeaksV: expected.pPeaksV,
+      valencePeaksV: [...expected.vbPeaks].sort((a, b) => a - b).map((v) => -v),
       secondJunctionPeaksV,
-      pSubgroups: regime === "shell-tunneling" ? split.map(() => 1) : split,
+      pSubgroups: truthRegime === "shell-tunneling" ? split.map(() => 1) : split,
       peakFwhmV: fwhm,
       noiseRelative: noise,
     },
   };
+}
+
+/**
+ * Expected peak positions (V) in the analysis' convention: one per charging step (`filling`) or one
+ * per level: CB s and p from the gap edge, and the VB (|bias|, unsorted) of v1 (2) and v2 (4).
+ */
+function expectedPeaks(filling: boolean, es: number, pLevels: readonly Level[], ev1: number, ev2: number, ec: number, eta: number): { sPeaksV: number[]; pPeaksV: number[]; vbPeaks: number[] } {
+  const sPeaksV = filling ? [(es + ec / 2) / eta, (es + 1.5 * ec) / eta] : [(es + ec / 2) / eta];
+  const pPeaksV: number[] = [];
+  if (!filling) for (const l of pLevels) pPeaksV.push((l.energyEV + ec / 2) / eta);
+  else {
+    let n = 2;
+    for (const l of pLevels) for (let k = 0; k < l.degeneracy; k++, n++) pPeaksV.push((l.energyEV + ec * (n + 0.5)) / eta);
+  }
+  const vbPeaks = filling
+    ? [(-ev1 + ec / 2) / eta, (-ev1 + 1.5 * ec) / eta, ...[2, 3, 4, 5].map((n) => (-ev2 + ec * (n + 0.5)) / eta)]
+    : [(-ev1 + ec / 2) / eta, (-ev2 + ec / 2) / eta];
+  return { sPeaksV, pPeaksV, vbPeaks };
 }
 
 /** Tunnelling rate through the substrate junction, 1/s (the tip's is r times it). */

@@ -8,6 +8,8 @@ import { classifyRegime, regimeRatios, type RegimeEvidence } from "../../lib/ass
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { expectClose } from "../helpers/expectClose.ts";
+import { levelStepRatio } from "../../lib/model/regimeLimits.ts";
+import { ASSIGN_DEFAULTS } from "../../lib/assign/assignDefaults.ts";
 
 const at = (x: number, stepA: number, index: number): BandPeak => ({ x, index, peak: { biasV: x, stepA } as Peak });
 const V = (e: number) => e / 0.8;
@@ -43,6 +45,33 @@ describe("regimeRatios(cb) and classifyRegime(cb, main, evidence)", () => {
     expect(classify([]).regime).toBe("undetermined");
     expect(classify([at(0.7, 1e-11, 0)]).regime).toBe("undetermined");
     expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null, valenceStepRatio: null, valenceSpacingRatio: null });
+  });
+});
+
+describe("classifyRegime near the tunnelling limit (closed forms of lib/model/regimeLimits.ts)", () => {
+  it("s then a whole p at r = 0.3: steps alike, levelStepRatio(2, 6, r) = 3/(1 + 8r), then p's charging peak one Ec on: two levels, not a doublet", () => {
+    const r = 0.3;
+    // s at 0.5 eV, p at 0.8 eV, p's second carrier at 0.8 + Ec (Ec = 0.1 eV < Δsp): the next spacing is 1/3 of the first.
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.85), levelStepRatio(2, 6, r) * 2e-11, 1), at(V(0.95), 1.5e-11, 2)];
+    const { regime, evidence } = classify(cb);
+    expectClose(evidence.secondToFirstStepRatio!, 3 / 3.4, { rtol: 1e-12, what: "3/(1 + 8r)" });
+    expectClose(evidence.thirdToSecondSpacingRatio!, 1 / 3, { rtol: 1e-9 });
+    expect(regime).toBe("shell-tunneling");
+  });
+
+  it("s, its charging satellite at r/(1 + r) for r = 0.15, then p at 3/(1 + 8r) × s: the satellite measures r, so p need not carry 1.4 × s", () => {
+    const r = 0.15;
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.65), (r / (1 + r)) * 2e-11, 1), at(V(0.85), levelStepRatio(2, 6, r) * 2e-11, 2)];
+    const main = [cb[0], cb[2]];
+    const { regime, evidence } = classify(cb, main);
+    expect(levelStepRatio(2, 6, r)).toBeLessThan(ASSIGN_DEFAULTS.tunnelingStepRatioMin);
+    expect(regime).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(/charging satellite of s, so Γtip\/Γsub ≈ 0.15/);
+  });
+
+  it("an s doublet at r = 2 (r/(1 + r) = 2/3) followed by p one Ec + Δsp on stays shell filling", () => {
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), (2 / 3) * 1e-11, 1), at(V(0.8 + 0.25), 1e-11, 2)];
+    expect(classify(cb).regime).toBe("shell-filling");
   });
 });
 
