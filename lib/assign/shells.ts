@@ -45,8 +45,8 @@ export interface FillingShells {
  *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
  *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
  *    candidate within (1 + `subgroupExtraMin`)·Ec of the next and weaker than
- *    `satelliteStepRatioMax` × its step is the shell's level entered early and does not set the
- *    s→p jump.
+ *    `leadingSatelliteRatioMax` × its step is the shell's level entered early (before the shell
+ *    below is full; about half the next step near Γtip/Γsub = 1.5) and does not set the s→p jump.
  * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
  *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
  *    `leadingSatelliteRatioMax` × the candidates' median step, the weakest extras are set aside,
@@ -96,7 +96,7 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
         // The shell's level entered early (its charging satellite) sits one Ec before the
         // shell's first peak and is much weaker: it must not set the s→p jump.
         const next = cb[k + 1];
-        if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.satelliteStepRatioMax * next.peak.stepA) {
+        if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.leadingSatelliteRatioMax * next.peak.stepA) {
           offLadder.push(cb[k]);
           continue;
         }

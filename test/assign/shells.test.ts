@@ -4,6 +4,7 @@ import { describe, it, expect } from "vitest";
 import { fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
+import { currentSteps } from "../../lib/model/bandCurrent.ts";
 
 const eta = 0.8, ec = 0.1;
 const at = (x: number, index: number, stepA = 1e-11): BandPeak => ({ x, index, peak: { biasV: x, stepA, biasUncertaintyV: 0.001 } as Peak });
@@ -44,6 +45,22 @@ describe("fillingShells(cb) on a split p shell cut by the window", () => {
     const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
     expect(r.offLadder.map((p) => p.index)).toEqual([4]);
     expect(r.shells[1].flat().map((p) => p.index)).toEqual([2, 3, 5]);
+  });
+});
+
+describe("fillingShells(cb) near the filling limit", () => {
+  it("sets aside p entered early (one Ec before p's first charging peak, about half its step) instead of shifting p by one Ec", () => {
+    // p entered while s holds one carrier: (0.8 + 1.5·Ec)/η, then p's charging peaks n = 2 … 6 (the
+    // seventh too weak to see) at the closed-form positions; step heights from the project's master
+    // equation (currentSteps, simulated truth) at Γtip/Γsub = 1.6.
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 1), ...[2, 3, 4, 5, 6].map((n) => V(0.8, n))];
+    const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }], vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 1.6e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    expect(steps[2] / steps[3]).toBeGreaterThan(0.5); // above the satellite rule's 0.5: only the early-entry rule can catch it
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.offLadder.map((p) => p.index)).toEqual([2]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([3, 4, 5, 6, 7]);
   });
 });
 
