@@ -52,6 +52,8 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   newShellExcessFraction: 0.9,
   /** Shell tunnelling: a main peak closer to the previous one than this fraction of the s→p distance is a sub-level of the same shell. */
   tunnelingSublevelFraction: 0.5,
+  /** Shell tunnelling with Ec from a charging satellite: a CB peak within (1 ± this)·Ec of the one before it is a charging peak of that level. */
+  levelChargingTolerance: 0.15,
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
 });

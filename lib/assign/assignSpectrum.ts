@@ -16,6 +16,7 @@ import { splitSatellites } from "./satellites.ts";
 import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
 import { fillingShells, tunnelingShells } from "./shells.ts";
+import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
 import type { NoLevels } from "./noLevels.ts";
 
@@ -212,7 +213,18 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
     }
     if (built.leftover.length) warnings.push(`${built.leftover.length} CB peak(s) beyond the assigned shells were left unassigned`);
   } else if (regime === "shell-tunneling") {
-    cbGroups.push(...tunnelingShells(cb).map((shell) => shell.map((p) => [p])));
+    // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec.
+    const satelliteEc = satelliteChargingEnergy([cbSplit, vbSplit]);
+    let levels = cb;
+    if (satelliteEc !== null) {
+      const split = levelChargingPeaks(cb, satelliteEc);
+      if (split.charging.length) {
+        levels = split.levels;
+        setAside = [...setAside, ...split.charging];
+        evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${satelliteEc.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
+      }
+    }
+    cbGroups.push(...tunnelingShells(levels).map((shell) => shell.map((p) => [p])));
   }
   const satellites = [...setAside].sort((a, b) => a.peak.biasV - b.peak.biasV);
   evidence.satellitePeaksV = satellites.map((p) => p.peak.biasV);

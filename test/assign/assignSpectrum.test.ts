@@ -146,6 +146,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       subgroupExtraMin: 0.2,
       newShellExcessFraction: 0.9,
       tunnelingSublevelFraction: 0.5,
+      levelChargingTolerance: 0.15,
       valenceChargingTolerance: 0.3,
     });
   });
