@@ -95,6 +95,9 @@ function score(a: CurveAnalysis, t: SyntheticTruth, tipPeaksV: readonly number[]
   return { pass: failures.length === 0, failures };
 }
 
+/** Time of each analyzeCurve call, ms (the first few include warm-up). */
+const analysisMs: number[] = [];
+
 const regimes: SyntheticRegime[] = mix === "crossover" ? [] : ["shell-filling", "shell-tunneling", "intermediate"];
 const started = performance.now();
 const lines: string[] = [];
@@ -107,7 +110,9 @@ if (mix === "crossover") {
     const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
     const sim = simulateCurve(scenario, { method, conductance: path === "measured" });
     const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: sim.didvS, meta: { source: `crossover-${seed}`, metadata: {} } };
+    const t0 = performance.now();
     const analysis = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" });
+    analysisMs.push(performance.now() - t0);
     const got = analysis.assignment.regime;
     const want = truth.regime;
     const c = counts.get(want) ?? { right: 0, undetermined: 0, wrong: 0, total: 0, passed: 0 };
@@ -157,7 +162,9 @@ for (const regime of regimes) {
       curve = { ...curve, biasV: keep(sim.biasV)!, currentA, sweeps: [currentA], didvS: keep(sim.didvS) };
       truth = { ...truth, pPeaksV: truth.pPeaksV.slice(0, k) };
     }
+    const t0 = performance.now();
     const analysis = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" });
+    analysisMs.push(performance.now() - t0);
     if (regime === "intermediate") {
       if (analysis.assignment.regime === "undetermined") undetermined++;
       else wrongDefinite++;
@@ -195,5 +202,7 @@ const within = (k: number) => calibration.filter((z) => Math.abs(z) <= k).length
 if (mix !== "crossover") lines.push(
   `peak-position uncertainty calibration over ${calibration.length} peaks: |error| ≤ 1σ ${(100 * within(1)).toFixed(0)} %, ≤ 2σ ${(100 * within(2)).toFixed(0)} %, ≤ 3σ ${(100 * within(3)).toFixed(0)} % (normal: 68/95/99.7)`,
 );
+const sortedMs = analysisMs.slice(20).sort((a, b) => a - b);
+if (sortedMs.length) lines.push(`analyzeCurve after 20 warm-up calls: median ${sortedMs[sortedMs.length >> 1].toFixed(2)} ms, 90th percentile ${sortedMs[Math.floor(0.9 * sortedMs.length)].toFixed(2)} ms`);
 lines.push(`${mix === "default" ? "" : `mix ${mix}, `}method ${method}, ${path} dI/dV, seeds ${firstSeed}…${firstSeed + perRegime - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`);
 console.log(lines.join("\n"));
