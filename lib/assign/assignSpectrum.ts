@@ -213,8 +213,9 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
     }
     if (built.leftover.length) warnings.push(`${built.leftover.length} CB peak(s) beyond the assigned shells were left unassigned`);
   } else if (regime === "shell-tunneling") {
-    // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec.
-    const satelliteEc = satelliteChargingEnergy([cbSplit, vbSplit]);
+    // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
+    // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
+    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
     let levels = cb;
     if (satelliteEc !== null) {
       const split = levelChargingPeaks(cb, satelliteEc);
