@@ -105,6 +105,7 @@ if (mix === "crossover") {
   // Regime of the true ratio against the rules' answer; the two regimes' spectra scored on every criterion.
   const counts = new Map<string, { right: number; undetermined: number; wrong: number; total: number; passed: number }>();
   const reasons = new Map<string, Map<string, number>>();
+  const tunnelingEc = { reported: 0, within10: 0 }; // Ec from a charging satellite, tunnelling side
   for (let k = 0; k < perRegime; k++) {
     const seed = firstSeed + k;
     const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
@@ -120,6 +121,13 @@ if (mix === "crossover") {
     if (got === want) c.right++;
     else if (got === "undetermined") c.undetermined++;
     else c.wrong++;
+    if (want === "shell-tunneling" && got === want) {
+      const ec = analysis.assignment.energies.chargingEnergyEV;
+      if (ec !== null) {
+        tunnelingEc.reported++;
+        if (Math.abs(ec - truth.chargingEnergyEV) <= 0.1 * truth.chargingEnergyEV) tunnelingEc.within10++;
+      }
+    }
     if (want !== "intermediate") {
       const sc = score(analysis, truth, [...truth.sPeaksV, ...truth.pPeaksV, ...truth.valencePeaksV]);
       if (sc.pass) c.passed++;
@@ -141,6 +149,7 @@ if (mix === "crossover") {
     const r = reasons.get(want);
     if (r?.size) lines.push("   first failure: " + [...r.entries()].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ×${v}`).join(", "));
   }
+  lines.push(`tunnelling side named shell tunnelling with Ec from a charging satellite: ${tunnelingEc.reported}, within 10 % of the truth ${tunnelingEc.within10}`);
 }
 const calibration: number[] = []; // (found − true)/σ for the s and p peaks of passing spectra
 for (const regime of regimes) {

@@ -95,7 +95,9 @@ export interface Assignment {
  * 3. Regime from the first CB peaks (`regimeRatios`, `classifyRegime`), unless given.
  * 4. Shell filling: charging multiplets s, p, d (`fillingShells`); Ec = the common spacing of all
  *    groups by weighted least squares (`fitLadderSpacing`), sub-groups with their own
- *    intercepts. Shell tunnelling: one peak per level (`tunnelingShells`).
+ *    intercepts. Shell tunnelling: one peak per level (`tunnelingShells`); where a gap-edge level
+ *    shows its charging satellite (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks
+ *    one Ec after the peak before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec
  *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge.
  * 6. Quantities and uncertainties (`spectrumQuantities`), energies = η × bias-referred values
@@ -218,11 +220,13 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
     const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
     let levels = cb;
     if (satelliteEc !== null) {
-      const split = levelChargingPeaks(cb, satelliteEc);
+      ecV = satelliteEc.chargingEnergyV;
+      ecSE = satelliteEc.sigmaV;
+      const split = levelChargingPeaks(cb, ecV);
       if (split.charging.length) {
         levels = split.levels;
         setAside = [...setAside, ...split.charging];
-        evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${satelliteEc.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
+        evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${ecV.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
       }
     }
     cbGroups.push(...tunnelingShells(levels).map((shell) => shell.map((p) => [p])));
@@ -237,7 +241,13 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
 
   // 6. Quantities and energies.
   const { quantities, uncertainties } = spectrumQuantities({ regime, cb, vb, cbGroups, vbGroups, chargingEnergyV: ecV, chargingEnergySEV: ecSE }, warnings);
-  if (regime === "shell-tunneling") warnings.push("shell tunnelling: Ec is not measurable from the CB ladder (reported as null); the gap still contains one Ec");
+  if (regime === "shell-tunneling") {
+    warnings.push(
+      ecV === null
+        ? "shell tunnelling: Ec is not measurable from the CB ladder (reported as null); the gap still contains one Ec"
+        : "shell tunnelling: Ec is the spacing of a gap-edge level and its charging satellite (one pair of peaks, not a ladder fit); the gap contains one Ec",
+    );
+  }
   if (regime === "undetermined") warnings.push("regime undetermined: CB peaks are not grouped into shells; see the evidence");
   const energies = spectrumEnergies(quantities, uncertainties, eta, etaGiven);
   return { regime, evidence, multiplets, quantities, uncertainties, energies, noLevels: null, warnings };

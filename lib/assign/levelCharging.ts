@@ -1,8 +1,8 @@
 /**
  * Charging peaks of single levels in shell tunnelling near the crossover: a level of g states
  * charges when g·Γtip/Γsub is not small, so its second and later carriers show as peaks one Ec
- * apart. Ec comes from the charging satellite of a band's gap-edge level; the peaks it explains are
- * set aside instead of being read as sub-levels.
+ * apart. Ec comes from the charging satellite of a band's gap-edge level (and is reported); the
+ * peaks it explains are set aside instead of being read as sub-levels.
  */
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { BandPeak } from "./bandPeaks.ts";
@@ -18,9 +18,10 @@ import type { BandPeak } from "./bandPeaks.ts";
  *
  * Returns
  * -------
- * number | null
+ * { chargingEnergyV: number; sigmaV: number } | null
  *     The spacing from the gap-edge peak to its satellite, V (the mean over the bands that show
- *     one), or null when no band does.
+ *     one), with its 1σ from the two peaks' position uncertainties in quadrature (V); null when no
+ *     band shows one.
  *
  * Notes
  * -----
@@ -31,17 +32,19 @@ import type { BandPeak } from "./bandPeaks.ts";
  * Example
  * -------
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
- * satelliteChargingEnergy([{ main: [at(1.25, 7e-12, 0), at(1.82, 6e-12, 2)], satellites: [at(1.39, 2e-12, 1)] }]);  // => 0.14
+ * satelliteChargingEnergy([{ main: [at(1.25, 7e-12, 0), at(1.82, 6e-12, 2)], satellites: [at(1.39, 2e-12, 1)] }]).chargingEnergyV;  // => 0.14
  */
-export function satelliteChargingEnergy(bands: readonly { main: readonly BandPeak[]; satellites: readonly BandPeak[] }[]): number | null {
-  const found: number[] = [];
+export function satelliteChargingEnergy(bands: readonly { main: readonly BandPeak[]; satellites: readonly BandPeak[] }[]): { chargingEnergyV: number; sigmaV: number } | null {
+  const found: { d: number; variance: number }[] = [];
   for (const { main, satellites } of bands) {
     if (!main.length) continue;
     const [first, second] = main;
     const sat = satellites.find((p) => p.x > first.x && (!second || p.x < second.x) && p.peak.stepA >= ASSIGN_DEFAULTS.satelliteEvidenceMin * first.peak.stepA);
-    if (sat) found.push(sat.x - first.x);
+    if (sat) found.push({ d: sat.x - first.x, variance: (sat.peak.biasUncertaintyV ?? 0) ** 2 + (first.peak.biasUncertaintyV ?? 0) ** 2 });
   }
-  return found.length ? found.reduce((a, b) => a + b, 0) / found.length : null;
+  if (!found.length) return null;
+  const n = found.length;
+  return { chargingEnergyV: found.reduce((a, f) => a + f.d, 0) / n, sigmaV: Math.sqrt(found.reduce((a, f) => a + f.variance, 0)) / n };
 }
 
 /**

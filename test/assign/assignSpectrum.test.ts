@@ -201,6 +201,22 @@ describe("assignSpectrum(peaks): multiplets and satellites name their peaks by i
     expectIndicesConsistent(peaks, a);
   });
 
+  it("near the crossover (r = 0.25) reads Ec from the s satellite, sets p's charging peaks aside, and gives the single-particle gap (closed forms)", () => {
+    // s at (0.5 + Ec/2)/η, its satellite at (0.5 + 3Ec/2)/η with step r/(1 + r) = 0.2 of s; p at
+    // (0.8 + Ec/2)/η charging at (0.8 + 3Ec/2)/η and (0.8 + 5Ec/2)/η (6r = 1.5: p charges).
+    const r = 0.25;
+    const peaks = [peak(-(0.8 + 0.05) / eta, 4e-11), peak(-(0.6 + 0.05) / eta, 2e-11), peak((0.5 + 0.05) / eta, 2e-11), peak((0.5 + 0.15) / eta, (r / (1 + r)) * 2e-11),
+      peak((0.8 + 0.05) / eta, 2.2e-11), peak((0.8 + 0.15) / eta, 2.4e-11), peak((0.8 + 0.25) / eta, 1.8e-11)];
+    const a = assignSpectrum(peaks, { eta });
+    expect(a.regime).toBe("shell-tunneling");
+    expect(Object.fromEntries(a.multiplets.map((m) => [m.label, m.peakIndices]))).toEqual({ s: [2], p: [4], v1: [1], v2: [0] });
+    expectClose(a.quantities.chargingEnergyV!, ec / eta, { rtol: 1e-9, what: "Ec/η from s and its satellite" });
+    expectClose(a.energies.singleParticleGapEV!, 0.5 + 0.6, { rtol: 1e-9, what: "η·gap − Ec = ε_s − ε_v1" });
+    expectClose(a.quantities.levelSpacingSPV!, (0.8 - 0.5) / eta, { rtol: 1e-9, what: "Δsp = p − s" });
+    expect(a.evidence.satellitePeakIndices).toEqual([3, 5, 6]);
+    expectIndicesConsistent(peaks, a);
+  });
+
   it("shell tunnelling: one index per level, the s satellite among the satellites", () => {
     // Bias order: v2 (−0.85/η), v1 (−0.65/η), s (0.55/η), its satellite (0.65/η), p (0.85/η).
     const peaks = [peak(-(0.8 + 0.05) / eta, 4e-11), peak(-(0.6 + 0.05) / eta, 2e-11), peak((0.5 + 0.05) / eta, 2e-11), peak((0.5 + 0.15) / eta, 1e-12), peak((0.8 + 0.05) / eta, 6e-11)];

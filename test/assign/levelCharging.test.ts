@@ -17,7 +17,9 @@ describe("satelliteChargingEnergy(bands)", () => {
   it("reads Ec/η from the s level's charging satellite (closed form spacing (ε + 3Ec/2 − ε − Ec/2)/η)", () => {
     const q = secondToFirstStepRatio(0.3);
     const cb = { main: [at(V(0.5, 0), 0), at(V(0.8, 0), 2)], satellites: [at(V(0.5, 1), 1, q * 1e-11)] };
-    expectClose(satelliteChargingEnergy([cb])!, ec / eta, { rtol: 1e-12 });
+    const got = satelliteChargingEnergy([cb])!;
+    expectClose(got.chargingEnergyV, ec / eta, { rtol: 1e-12 });
+    expect(got.sigmaV).toBe(0); // the helper's peaks carry no position uncertainty
   });
   it("ignores a satellite too weak to be the level's second carrier, and bands without one", () => {
     const cb = { main: [at(V(0.5, 0), 0), at(V(0.8, 0), 2)], satellites: [at(V(0.5, 1), 1, 0.05e-11)] };
