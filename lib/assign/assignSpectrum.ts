@@ -102,6 +102,13 @@ export interface Assignment {
  *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge.
  * 6. Quantities and uncertainties (`spectrumQuantities`), energies = η × bias-referred values
  *    (`spectrumEnergies`).
+ * 7. Second-junction resonances (η given, below 1): candidates from `secondJunctionResonances`
+ *    are set aside for steps 1–6; then they are checked against the shell-filling reading
+ *    (`confirmResonances`: one resonance per level, a candidate that fills a charging step is a
+ *    level) and, where the tip side is not shell filling, the substrate side's second charging
+ *    peak of a band-edge level is looked for (`substrateChargingPeaks`); steps 1–6 run again
+ *    with the resonances that stand, and the result is kept if its regime is consistent (shell
+ *    filling after the check; the same or a newly named regime after the second).
  *
  * References
  * ----------
@@ -185,9 +192,14 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
 
   // 3. Regime.
   const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
+  const gain = eta < 1 ? eta / (1 - eta) : 0;
   for (const r of resonances) {
+    const at = peaks[r.index].biasV.toFixed(3), source = peaks[r.sourceIndex].biasV;
+    const plain = Math.abs(r.predictedV + gain * source) <= 1e-9 * Math.max(1, Math.abs(r.predictedV));
     evidence.reasons.push(
-      `peak at ${peaks[r.index].biasV.toFixed(3)} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V`,
+      plain
+        ? `peak at ${at} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${source.toFixed(3)} V`
+        : `peak at ${at} V set aside: a second-junction resonance of the level whose first peak is at ${source.toFixed(3)} V (expected at ${r.predictedV.toFixed(3)} V)`,
     );
   }
   const regime: Regime = options.regime ?? classifyRegime(cbClean, cbSplit.main, evidence);
