@@ -3,7 +3,7 @@
  * stage of {@link assignSpectrum} (regime, satellites, shells, valence groups).
  */
 
-import { REGIME_LIMITS } from "../model/regimeLimits.ts";
+import { REGIME_LIMITS, substrateToTipStepRatio } from "../model/regimeLimits.ts";
 
 /**
  * Thresholds of the classification and grouping rules (locked by a test). Re-exported by
@@ -54,6 +54,12 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   tunnelingSublevelFraction: 0.5,
   /** Shell tunnelling with Ec from a charging satellite: a CB peak within (1 ± this)·Ec of the one before it is a charging peak of that level. */
   levelChargingTolerance: 0.15,
+  /**
+   * A band-edge level's second-junction resonance carrying at least this multiple of its
+   * tip-side step reads as shell filling: (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling
+   * limit for a margin (7/5 = 1.4; `substrateToTipStepRatio` in lib/model/regimeLimits.ts).
+   */
+  fillingResonanceStepMin: substrateToTipStepRatio(2, 2 * REGIME_LIMITS.fillingRateRatioMin),
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
 });

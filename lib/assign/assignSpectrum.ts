@@ -108,7 +108,11 @@ export interface Assignment {
  *    level) and, where the tip side is not shell filling, the substrate side's second charging
  *    peak of a band-edge level is looked for (`substrateChargingPeaks`); steps 1–6 run again
  *    with the resonances that stand, and the result is kept if its regime is consistent (shell
- *    filling after the check; the same or a newly named regime after the second).
+ *    filling after the check; the same or a newly named regime after the second). Where the
+ *    band-edge resonances carry at least `D.fillingResonanceStepMin` × their levels' steps
+ *    ((g·r + 1)/(g + r), `substrateToTipStepRatio`) the dot is in shell filling, and a candidate
+ *    one VB doublet spacing above the first CB peak is the s doublet's second peak under a
+ *    resonance (its step taken as r/(1 + r) of the first).
  *
  * References
  * ----------
@@ -134,7 +138,7 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const candidates = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
   const first = assignWith(peaks, eta, etaGiven, candidates, options);
   if (!candidates.length) return first;
-  const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options);
+  const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options) ?? hiddenDoublet(peaks, eta, etaGiven, candidates, first, options);
   if (filling) return filling;
   if (first.regime === "shell-filling" || options.regime) return first;
   // Where the tip side is not shell filling, the substrate side may fill: the resonance of a
@@ -169,6 +173,61 @@ function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolea
   if (second.regime !== "shell-filling") return null;
   second.evidence.reasons.unshift(...released.map((r) => r.reason));
   return second;
+}
+
+/**
+ * Shell filling read from the height of a band-edge level's resonance, where a resonance hides the
+ * s doublet's second peak; null when the heights do not say shell filling or the reading fails.
+ */
+function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
+  if (first.regime === "shell-filling" || options.regime) return null;
+  const edge = bandEdgeResonanceRatio(peaks, candidates);
+  if (edge === null || edge.ratio < ASSIGN_DEFAULTS.fillingResonanceStepMin) return null;
+  // Ec from the VB doublet (the gap-edge pair of VB peaks that are not resonances).
+  const taken = new Set(candidates.map((c) => c.index));
+  const vb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV < 0 && !taken.has(i)).sort((a, b) => b.p.biasV - a.p.biasV);
+  const cb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV > 0 && !taken.has(i)).sort((a, b) => a.p.biasV - b.p.biasV);
+  if (vb.length < 2 || !cb.length) return null;
+  const ecV = vb[0].p.biasV - vb[1].p.biasV;
+  const s2V = cb[0].p.biasV + ecV;
+  const tol = ASSIGN_DEFAULTS.valenceChargingTolerance * ecV;
+  const hidden = candidates.find((c) => Math.abs(peaks[c.index].biasV - s2V) <= tol);
+  if (!hidden) return null;
+  const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: peaks[cb[0].i].stepA * edge.doubletStepRatio } : p));
+  const second = assignWith(adjusted, eta, etaGiven, candidates.filter((c) => c !== hidden), options);
+  if (second.regime !== "shell-filling") return null;
+  second.evidence.reasons.unshift(
+    `the resonance of the band-edge level at ${peaks[edge.sourceIndex].biasV.toFixed(3)} V carries ${edge.ratio.toFixed(2)} × its step (≥ ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing above the first CB peak, is kept as the s doublet's second peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`,
+  );
+  return second;
+}
+
+/**
+ * The smallest step ratio of a resonance over its source among the sources that are their band's
+ * gap-edge peak (an overlapping peak only adds to a resonance's step, so the smallest is the
+ * safest reading).
+ */
+function bandEdgeResonanceRatio(peaks: readonly Peak[], candidates: readonly SecondJunctionResonance[]): { ratio: number; sourceIndex: number; doubletStepRatio: number } | null {
+  const taken = new Set(candidates.map((c) => c.index));
+  const edgeOf = (sign: number) => {
+    let best = -1;
+    peaks.forEach((p, i) => {
+      if (taken.has(i) || Math.sign(p.biasV) !== sign) return;
+      if (best < 0 || Math.abs(p.biasV) < Math.abs(peaks[best].biasV)) best = i;
+    });
+    return best;
+  };
+  const edges = new Set([edgeOf(1), edgeOf(-1)]);
+  let out: { ratio: number; sourceIndex: number; doubletStepRatio: number } | null = null;
+  for (const c of candidates) {
+    if (!edges.has(c.sourceIndex)) continue;
+    const ratio = peaks[c.index].stepA / peaks[c.sourceIndex].stepA;
+    // The resonance of a doubly degenerate level carries (2r + 1)/(2 + r) of its first step; solved
+    // for r, the s doublet's second step is r/(1 + r) of the first.
+    const r = ratio < 2 ? (2 * ratio - 1) / (2 - ratio) : Infinity;
+    if (!out || ratio < out.ratio) out = { ratio, sourceIndex: c.sourceIndex, doubletStepRatio: Number.isFinite(r) ? r / (1 + r) : 1 };
+  }
+  return out;
 }
 
 /** The assignment with the given peaks set aside as second-junction resonances. */

@@ -147,6 +147,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       newShellExcessFraction: 0.9,
       tunnelingSublevelFraction: 0.5,
       levelChargingTolerance: 0.15,
+      fillingResonanceStepMin: 1.4,
       valenceChargingTolerance: 0.3,
     });
   });
@@ -238,5 +239,34 @@ describe("assignSpectrum(peaks): multiplets and satellites name their peaks by i
       }),
       { numRuns: 300 },
     );
+  });
+});
+
+describe("assignSpectrum at η = 0.6: a resonance on the s doublet's second peak", () => {
+  // Shell filling at r = 10 (closed forms, orthodox theory): peaks at (|ε| + Ec·(n + ½))/η with
+  // ε_s = 0.525, ε_p = 0.85, ε_v1 = −0.4, ε_v2 = −0.78 eV, Ec = 0.1 eV. v1's resonance through the
+  // substrate, (0.4 + 0.05)/(1 − η) = 1.125 V, falls on s's second peak (0.525 + 0.15)/η = 1.125 V;
+  // s's resonance at −(0.525 + 0.05)/(1 − η) = −1.4375 V. A resonance carries (2r + 1)/(2 + r) = 1.75
+  // of its level's first step (substrateToTipStepRatio), the second s step r/(1 + r) of the first.
+  const e = 0.6, r = 10, ecV = 0.1 / e;
+  const tip = (eps: number, n: number) => (eps + 0.1 * (n + 0.5)) / e;
+  const list: [number, number][] = [
+    ...[2, 3, 4, 5].map((n): [number, number] => [-tip(0.78, n), 1]),
+    [-(0.525 + 0.05) / (1 - e), 1.75], // s's resonance
+    [-tip(0.4, 1), r / (1 + r)], [-tip(0.4, 0), 1],
+    [tip(0.525, 0), 1], [tip(0.525, 1), r / (1 + r) + 1.75], // s's second peak and v1's resonance together
+    ...[2, 3, 4, 5, 6, 7].map((n): [number, number] => [tip(0.85, n), 1]),
+  ];
+  const peaks = list.sort((a, b) => a[0] - b[0]).map(([v, k]) => peak(v, k * 1e-11));
+  const a = assignSpectrum(peaks, { eta: e });
+
+  it("reads shell filling from the resonance heights and keeps the overlapped peak as the s doublet's second", () => {
+    expect(a.regime).toBe("shell-filling");
+    const s = a.multiplets.find((m) => m.label === "s")!;
+    expectClose(s.peaksV, [tip(0.525, 0), tip(0.525, 1)], { rtol: 1e-12 });
+    expect(a.multiplets.find((m) => m.label === "p")!.found).toBe(6);
+    expectClose(a.quantities.chargingEnergyV!, ecV, { rtol: 1e-9, what: "Ec/η" });
+    expect(a.evidence.secondJunction.map((x) => peaks[x.index].biasV)).toEqual([-(0.525 + 0.05) / (1 - e)]);
+    expect(a.evidence.reasons[0]).toMatch(/band-edge level .* carries 1\.75 ×/);
   });
 });
