@@ -15,7 +15,7 @@ import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "
 import { splitSatellites } from "./satellites.ts";
 import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
-import { fillingShells, tunnelingShells } from "./shells.ts";
+import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
 import type { NoLevels } from "./noLevels.ts";
@@ -95,7 +95,8 @@ export interface Assignment {
  * 3. Regime from the first CB peaks (`regimeRatios`, `classifyRegime`), unless given.
  * 4. Shell filling: charging multiplets s, p, d (`fillingShells`); Ec = the common spacing of all
  *    groups by weighted least squares (`fitLadderSpacing`), sub-groups with their own
- *    intercepts. Shell tunnelling: one peak per level (`tunnelingShells`); where a gap-edge level
+ *    intercepts; a shell short of its degeneracy takes a weak peak one Ec beyond its last
+ *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level (`tunnelingShells`); where a gap-edge level
  *    shows its charging satellite (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks
  *    one Ec after the peak before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec
@@ -272,14 +273,23 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
   const cbGroups: BandPeak[][][] = []; // per shell: its sub-groups
   if (regime === "shell-filling") {
     const built = fillingShells(cb);
-    cbGroups.push(...built.shells);
     if (built.offLadder.length) {
       setAside = [...setAside, ...built.offLadder];
       evidence.reasons.push(`${built.offLadder.length} CB peak(s) closer than ${D.minLadderSpacingFraction} × Ec to the previous charging peak set aside`);
     }
-    const fit = fitLadderSpacing(
-      built.shells.flat().map((g) => ({ positionsV: g.map((p) => p.x), sigmasV: g.map((p) => p.peak.biasUncertaintyV) })),
-    );
+    const ladderFit = (shells: BandPeak[][][]) =>
+      fitLadderSpacing(shells.flat().map((g) => ({ positionsV: g.map((p) => p.x), sigmasV: g.map((p) => p.peak.biasUncertaintyV) })));
+    let shells = built.shells;
+    let fit = ladderFit(shells);
+    // The last charging peaks of a shell near the filling limit fall below the noise rule.
+    const completed = fit ? completeShells(shells, cbNoise.satellites, fit.spacingV) : null;
+    if (completed?.added.length) {
+      shells = completed.shells;
+      fit = ladderFit(shells);
+      setAside = setAside.filter((p) => !completed.added.includes(p));
+      evidence.reasons.push(`${completed.added.length} weak CB peak(s) one Ec beyond a shell's last peak taken as its next charging peak(s)`);
+    }
+    cbGroups.push(...shells);
     if (fit) {
       ecV = fit.spacingV;
       ecSE = fit.spacingSEV;

@@ -190,3 +190,52 @@ export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
   }
   return shells;
 }
+
+/**
+ * Complete the shells of shell filling with weak peaks that continue their charging ladders: near
+ * the filling limit the last charging steps of a shell are a small fraction of its first (each
+ * added carrier finds fewer free states), below the band's noise rule.
+ *
+ * Parameters
+ * ----------
+ * shells : readonly BandPeak[][][]
+ *     From {@link fillingShells}: per shell its sub-groups.
+ * weak : readonly BandPeak[]
+ *     CB peaks set aside as weak (noise rule), from the gap edge outward.
+ * chargingEnergyV : number
+ *     Ec in bias, V (the ladder fit's spacing).
+ *
+ * Returns
+ * -------
+ * { shells: BandPeak[][][]; added: BandPeak[] }
+ *     The shells with the peaks appended to their last sub-group, and the peaks used.
+ *
+ * Notes
+ * -----
+ * 1. Per shell from s outward, while it holds fewer peaks than its degeneracy: a weak peak within
+ *    ± `ASSIGN_DEFAULTS.subgroupExtraMin`·Ec of one Ec beyond its last peak, and before the next
+ *    shell's first peak by at least Ec/2, is its next charging peak.
+ *
+ * Example
+ * -------
+ * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
+ * const shells = [[[at(0.6875, 0), at(0.8125, 1)]], [[at(1.3125, 2), at(1.4375, 3)]]];
+ * completeShells(shells, [at(1.5625, 4)], 0.125).added.map((p) => p.index);  // => [4]
+ */
+export function completeShells(shells: readonly BandPeak[][][], weak: readonly BandPeak[], chargingEnergyV: number): { shells: BandPeak[][][]; added: BandPeak[] } {
+  const tol = ASSIGN_DEFAULTS.subgroupExtraMin * chargingEnergyV;
+  const out = shells.map((shell) => shell.map((g) => [...g]));
+  const added: BandPeak[] = [];
+  out.forEach((shell, s) => {
+    const g = SHELLS[s]?.degeneracy ?? Infinity;
+    const nextStart = out[s + 1]?.[0]?.[0]?.x ?? Infinity;
+    for (let n = shell.flat().length; n < g; n++) {
+      const last = shell[shell.length - 1][shell[shell.length - 1].length - 1];
+      const p = weak.find((w) => !added.includes(w) && Math.abs(w.x - last.x - chargingEnergyV) <= tol && w.x <= nextStart - chargingEnergyV / 2);
+      if (!p) break;
+      shell[shell.length - 1].push(p);
+      added.push(p);
+    }
+  });
+  return { shells: out, added };
+}

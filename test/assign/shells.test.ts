@@ -1,7 +1,7 @@
 // fillingShells / tunnelingShells on peak positions from the closed form (|ε| + Ec(n + ½))/η, n counting
 // the carriers already in the CB, with ε_s = 0.5, ε_p = 0.8, ε_d = 1.2 eV, Ec = 0.1 eV, η = 0.8.
 import { describe, it, expect } from "vitest";
-import { fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";
+import { completeShells, fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { currentSteps } from "../../lib/model/bandCurrent.ts";
@@ -61,6 +61,28 @@ describe("fillingShells(cb) near the filling limit", () => {
     const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
     expect(r.offLadder.map((p) => p.index)).toEqual([2]);
     expect(r.shells[1].flat().map((p) => p.index)).toEqual([3, 4, 5, 6, 7]);
+  });
+});
+
+describe("completeShells(shells, weak, chargingEnergyV)", () => {
+  it("appends a weak peak one Ec beyond a shell that is short of its degeneracy (p's last charging peak near the filling limit)", () => {
+    // p's sixth charging peak at (0.8 + 7.5·Ec)/η: at Γtip/Γsub = 2 its step is a small fraction of
+    // p's first (the project's master equation, currentSteps: simulated truth).
+    const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }], vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 2e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+    const all = currentSteps(model).steps;
+    const stepAt = (x: number) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA;
+    expect(stepAt(V(0.8, 7)) / stepAt(V(0.8, 2))).toBeLessThan(0.2); // below the band's noise rule
+    const s = [[at(V(0.5, 0), 0), at(V(0.5, 1), 1)]];
+    const p = [[2, 3, 4, 5, 6].map((n, k) => at(V(0.8, n), 2 + k))];
+    const r = completeShells([s, p], [at(V(0.8, 7), 7, stepAt(V(0.8, 7))), at(V(0.8, 7) + 0.4 * (ec / eta), 8)], ec / eta);
+    expect(r.added.map((x) => x.index)).toEqual([7]);
+    expect(r.shells[1].flat().map((x) => x.index)).toEqual([2, 3, 4, 5, 6, 7]);
+  });
+  it("adds nothing to a full shell or off the ladder", () => {
+    const s = [[at(V(0.5, 0), 0), at(V(0.5, 1), 1)]];
+    expect(completeShells([s], [at(V(0.5, 2), 2)], ec / eta).added).toEqual([]); // s holds 2
+    const p = [[at(V(0.8, 2), 2)]];
+    expect(completeShells([s, p], [at(V(0.8, 2) + 1.5 * (ec / eta), 3)], ec / eta).added).toEqual([]); // 1.5 Ec away
   });
 });
 
