@@ -32,7 +32,10 @@ export { secondJunctionResonances, SECOND_JUNCTION_DEFAULTS, type SecondJunction
 export interface AssignOptions {
   /** Voltage-division factor η in (0, 1]. Default 1 (energies = bias values, noted in warnings). */
   eta?: number;
-  /** Force a regime instead of classifying. Default: classify. */
+  /**
+   * Force a regime instead of classifying; shell tunnelling given this way keeps every main CB
+   * peak as a level (no charging peaks split off by a satellite's Ec). Default: classify.
+   */
   regime?: Regime;
   /**
    * Set aside the peaks that are second-junction resonances of other peaks (needs η given and
