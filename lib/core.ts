@@ -87,7 +87,7 @@ export { parseScenario, biasAxis, SCENARIO_DEFAULTS, type Scenario, type Level, 
 export { simulateCurve, lockInKernel, scenarioModel, SIMULATE_DEFAULTS, type SimulateOptions, type SimulatedCurve } from "./model/simulate.ts";
 export { bandLadders, exactCurrent, currentSteps, fastCurrent, fastConductance, type DotModel, type CurrentStep } from "./model/bandCurrent.ts";
 export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type SyntheticRanges, type SyntheticTruth } from "./model/syntheticSpectrum.ts";
-export { REGIME_LIMITS, secondToFirstStepRatio, rateRatioFromStepRatio } from "./model/regimeLimits.ts";
+export { REGIME_LIMITS, secondToFirstStepRatio, rateRatioFromStepRatio, levelStepRatio, substrateToTipStepRatio } from "./model/regimeLimits.ts";
 
 // Reports.
 export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson, type AnalysisJsonExtras } from "./report/analysisJson.ts";

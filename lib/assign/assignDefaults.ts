@@ -3,7 +3,7 @@
  * stage of {@link assignSpectrum} (regime, satellites, shells, valence groups).
  */
 
-import { REGIME_LIMITS } from "../model/regimeLimits.ts";
+import { REGIME_LIMITS, substrateToTipStepRatio } from "../model/regimeLimits.ts";
 
 /**
  * Thresholds of the classification and grouping rules (locked by a test). Re-exported by
@@ -28,6 +28,20 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   noiseStepRatioMax: 0.2,
   /** Shell filling: the s→p jump must exceed the s spacing by this factor (Δsp > 0.25·Ec). */
   fillingJumpRatioMin: 1.25,
+  /** Two alike first CB steps followed by a spacing at most this fraction of theirs are two levels, not a charging doublet (whose jump to p is Ec + Δsp). */
+  levelPairJumpMax: 0.8,
+  /**
+   * … provided their step ratio is at least levelStepRatio(2, 6, this) = 3/(1 + 8·this) (0.79): the
+   * least a level of up to six states gives after s at a rate ratio up to this (a margin below
+   * the tunnelling limit 3/7, where intermediate spectra begin).
+   */
+  levelPairRateRatioMax: 0.35,
+  /** A second CB step from this fraction of the first … */
+  satelliteEvidenceMin: 0.1,
+  /** … to this one is a measured charging satellite of s that places r = q/(1 − q) on the tunnelling side (0.2: r ≤ 0.25, a margin below 3/7 for the satellite's step, which reads low near the boundary). */
+  satelliteEvidenceMax: 0.2,
+  /** With a measured satellite, the p shell needs this fraction of levelStepRatio(2, 2, r) = 1/(1 + 4r) × the s step (noise margin). */
+  levelStepMargin: 0.8,
   /** Shell filling: a CB peak closer than this fraction of Ec to the previous charging peak is off the ladder (set aside). */
   minLadderSpacingFraction: 0.65,
   /** When a shell has more charging-ladder candidates than it holds, the extras weaker than this fraction of the candidates' median step are charging satellites. */
@@ -38,6 +52,14 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   newShellExcessFraction: 0.9,
   /** Shell tunnelling: a main peak closer to the previous one than this fraction of the s→p distance is a sub-level of the same shell. */
   tunnelingSublevelFraction: 0.5,
+  /** Shell tunnelling with Ec from a charging satellite: a CB peak within (1 ± this)·Ec of the one before it is a charging peak of that level. */
+  levelChargingTolerance: 0.15,
+  /**
+   * A band-edge level's second-junction resonance carrying at least this multiple of its
+   * tip-side step reads as shell filling: (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling
+   * limit for a margin (7/5 = 1.4; `substrateToTipStepRatio` in lib/model/regimeLimits.ts).
+   */
+  fillingResonanceStepMin: substrateToTipStepRatio(2, 2 * REGIME_LIMITS.fillingRateRatioMin),
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
 });

@@ -13,8 +13,10 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
 import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
-import { secondJunctionResonances } from "./secondJunction.ts";
-import { fillingShells, tunnelingShells } from "./shells.ts";
+import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { confirmResonances } from "./confirmResonances.ts";
+import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
+import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
 import type { NoLevels } from "./noLevels.ts";
 
@@ -30,7 +32,10 @@ export { secondJunctionResonances, SECOND_JUNCTION_DEFAULTS, type SecondJunction
 export interface AssignOptions {
   /** Voltage-division factor η in (0, 1]. Default 1 (energies = bias values, noted in warnings). */
   eta?: number;
-  /** Force a regime instead of classifying. Default: classify. */
+  /**
+   * Force a regime instead of classifying; shell tunnelling given this way keeps every main CB
+   * peak as a level (no charging peaks split off by a satellite's Ec). Default: classify.
+   */
   regime?: Regime;
   /**
    * Set aside the peaks that are second-junction resonances of other peaks (needs η given and
@@ -93,11 +98,25 @@ export interface Assignment {
  * 3. Regime from the first CB peaks (`regimeRatios`, `classifyRegime`), unless given.
  * 4. Shell filling: charging multiplets s, p, d (`fillingShells`); Ec = the common spacing of all
  *    groups by weighted least squares (`fitLadderSpacing`), sub-groups with their own
- *    intercepts. Shell tunnelling: one peak per level (`tunnelingShells`).
+ *    intercepts; a shell short of its degeneracy takes a weak peak one Ec beyond its last
+ *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level (`tunnelingShells`); where a gap-edge level
+ *    shows its charging satellite (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks
+ *    one Ec after the peak before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec
  *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge.
  * 6. Quantities and uncertainties (`spectrumQuantities`), energies = η × bias-referred values
  *    (`spectrumEnergies`).
+ * 7. Second-junction resonances (η given, below 1): candidates from `secondJunctionResonances`
+ *    are set aside for steps 1–6; then they are checked against the shell-filling reading
+ *    (`confirmResonances`: one resonance per level, a candidate that fills a charging step is a
+ *    level) and, where the tip side is not shell filling, the substrate side's second charging
+ *    peak of a band-edge level is looked for (`substrateChargingPeaks`); steps 1–6 run again
+ *    with the resonances that stand, and the result is kept if its regime is consistent (shell
+ *    filling after the check; the same or a newly named regime after the second). Where the
+ *    band-edge resonances carry at least `D.fillingResonanceStepMin` × their levels' steps
+ *    ((g·r + 1)/(g + r), `substrateToTipStepRatio`) the dot is in shell filling, and a candidate
+ *    one VB doublet spacing above the first CB peak is the s doublet's second peak under a
+ *    resonance (its step taken as r/(1 + r) of the first).
  *
  * References
  * ----------
@@ -118,13 +137,111 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const D = ASSIGN_DEFAULTS;
   const etaGiven = options.eta !== undefined;
   const eta = etaGiven ? checkEta("eta", options.eta) : D.eta;
+  // Resonances through the substrate junction are not levels of the tip-junction ladder; the
+  // candidates are checked against an assignment made without them.
+  const candidates = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
+  const first = assignWith(peaks, eta, etaGiven, candidates, options);
+  if (!candidates.length) return first;
+  const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options) ?? hiddenDoublet(peaks, eta, etaGiven, candidates, first, options);
+  if (filling) return filling;
+  if (first.regime === "shell-filling" || options.regime) return first;
+  // Where the tip side is not shell filling, the substrate side may fill: the resonance of a
+  // band's first level is then a charging doublet. The second peak goes too, if that leaves a
+  // regime the rules can name (and the same one, when they named one before).
+  const companions = substrateChargingPeaks(peaks, candidates, eta, D.fillingStepRatio);
+  if (!companions.length) return first;
+  const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
+  if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;
+  third.evidence.reasons.unshift(
+    ...companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`),
+  );
+  return third;
+}
+
+/**
+ * The assignment with the resonances of a shell-filling reading (see `confirmResonances`), or null
+ * when that reading changes nothing or does not give shell filling.
+ */
+function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
+  // Check the candidates against the first assignment, or, when that is not shell filling, against
+  // the shell-filling reading (a resonance on an s peak hides the doublet); the result stands only
+  // if the regime it gives is shell filling.
+  const basis = first.regime === "shell-filling" || options.regime ? first : assignWith(peaks, eta, etaGiven, candidates, { ...options, regime: "shell-filling" });
+  const { kept, released } = confirmResonances(candidates, peaks, { regime: basis.regime, multiplets: basis.multiplets, chargingEnergyV: basis.quantities.chargingEnergyV, eta });
+  const same = kept.length === candidates.length && kept.every((k) => candidates.some((c) => c.index === k.index));
+  if (same) return null;
+  // A level that a resonance overlaps keeps its own share of the summed step.
+  const share = new Map(released.filter((r) => r.levelStepA !== null).map((r) => [r.resonance.index, r.levelStepA!]));
+  const adjusted = share.size ? peaks.map((p, i) => (share.has(i) ? { ...p, stepA: share.get(i)! } : p)) : peaks;
+  const second = assignWith(adjusted, eta, etaGiven, kept, options);
+  if (second.regime !== "shell-filling") return null;
+  second.evidence.reasons.unshift(...released.map((r) => r.reason));
+  return second;
+}
+
+/**
+ * Shell filling read from the height of a band-edge level's resonance, where a resonance hides the
+ * s doublet's second peak; null when the heights do not say shell filling or the reading fails.
+ */
+function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
+  if (first.regime === "shell-filling" || options.regime) return null;
+  const edge = bandEdgeResonanceRatio(peaks, candidates);
+  if (edge === null || edge.ratio < ASSIGN_DEFAULTS.fillingResonanceStepMin) return null;
+  // Ec from the VB doublet (the gap-edge pair of VB peaks that are not resonances).
+  const taken = new Set(candidates.map((c) => c.index));
+  const vb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV < 0 && !taken.has(i)).sort((a, b) => b.p.biasV - a.p.biasV);
+  const cb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV > 0 && !taken.has(i)).sort((a, b) => a.p.biasV - b.p.biasV);
+  if (vb.length < 2 || !cb.length) return null;
+  const ecV = vb[0].p.biasV - vb[1].p.biasV;
+  const s2V = cb[0].p.biasV + ecV;
+  const tol = ASSIGN_DEFAULTS.valenceChargingTolerance * ecV;
+  const hidden = candidates.find((c) => Math.abs(peaks[c.index].biasV - s2V) <= tol);
+  if (!hidden) return null;
+  const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: peaks[cb[0].i].stepA * edge.doubletStepRatio } : p));
+  const second = assignWith(adjusted, eta, etaGiven, candidates.filter((c) => c !== hidden), options);
+  if (second.regime !== "shell-filling") return null;
+  second.evidence.reasons.unshift(
+    `the resonance of the band-edge level at ${peaks[edge.sourceIndex].biasV.toFixed(3)} V carries ${edge.ratio.toFixed(2)} × its step (≥ ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing above the first CB peak, is kept as the s doublet's second peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`,
+  );
+  return second;
+}
+
+/**
+ * The smallest step ratio of a resonance over its source among the sources that are their band's
+ * gap-edge peak (an overlapping peak only adds to a resonance's step, so the smallest is the
+ * safest reading).
+ */
+function bandEdgeResonanceRatio(peaks: readonly Peak[], candidates: readonly SecondJunctionResonance[]): { ratio: number; sourceIndex: number; doubletStepRatio: number } | null {
+  const taken = new Set(candidates.map((c) => c.index));
+  const edgeOf = (sign: number) => {
+    let best = -1;
+    peaks.forEach((p, i) => {
+      if (taken.has(i) || Math.sign(p.biasV) !== sign) return;
+      if (best < 0 || Math.abs(p.biasV) < Math.abs(peaks[best].biasV)) best = i;
+    });
+    return best;
+  };
+  const edges = new Set([edgeOf(1), edgeOf(-1)]);
+  let out: { ratio: number; sourceIndex: number; doubletStepRatio: number } | null = null;
+  for (const c of candidates) {
+    if (!edges.has(c.sourceIndex)) continue;
+    const ratio = peaks[c.index].stepA / peaks[c.sourceIndex].stepA;
+    // The resonance of a doubly degenerate level carries (2r + 1)/(2 + r) of its first step; solved
+    // for r, the s doublet's second step is r/(1 + r) of the first.
+    const r = ratio < 2 ? (2 * ratio - 1) / (2 - ratio) : Infinity;
+    if (!out || ratio < out.ratio) out = { ratio, sourceIndex: c.sourceIndex, doubletStepRatio: Number.isFinite(r) ? r / (1 + r) : 1 };
+  }
+  return out;
+}
+
+/** The assignment with the given peaks set aside as second-junction resonances. */
+function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
+  const D = ASSIGN_DEFAULTS;
   const warnings: string[] = [];
   if (!etaGiven) warnings.push("eta not given: energies equal the bias-referred values (η = 1); pass the voltage-division factor to convert");
 
   // 1–2. Bands; peaks at the noise level of their band go first; charging satellites (weak peaks
   // after a main peak) are told apart only once the regime is known.
-  // Resonances through the substrate junction are not levels of the tip-junction ladder.
-  const resonances = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
   const resonant = new Set(resonances.map((r) => r.index));
   const bands = bandPeaks(peaks);
   const cbAll = bands.cb.filter((p) => !resonant.has(p.index));
@@ -137,10 +254,15 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const vb = vbSplit.main;
 
   // 3. Regime.
-  const evidence: RegimeEvidence = { ...regimeRatios(cbClean), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: resonances, reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
+  const gain = eta < 1 ? eta / (1 - eta) : 0;
   for (const r of resonances) {
+    const at = peaks[r.index].biasV.toFixed(3), source = peaks[r.sourceIndex].biasV;
+    const plain = Math.abs(r.predictedV + gain * source) <= 1e-9 * Math.max(1, Math.abs(r.predictedV));
     evidence.reasons.push(
-      `peak at ${peaks[r.index].biasV.toFixed(3)} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V`,
+      plain
+        ? `peak at ${at} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${source.toFixed(3)} V`
+        : `peak at ${at} V set aside: a second-junction resonance of the level whose first peak is at ${source.toFixed(3)} V (expected at ${r.predictedV.toFixed(3)} V)`,
     );
   }
   const regime: Regime = options.regime ?? classifyRegime(cbClean, cbSplit.main, evidence);
@@ -154,21 +276,44 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const cbGroups: BandPeak[][][] = []; // per shell: its sub-groups
   if (regime === "shell-filling") {
     const built = fillingShells(cb);
-    cbGroups.push(...built.shells);
     if (built.offLadder.length) {
       setAside = [...setAside, ...built.offLadder];
       evidence.reasons.push(`${built.offLadder.length} CB peak(s) closer than ${D.minLadderSpacingFraction} × Ec to the previous charging peak set aside`);
     }
-    const fit = fitLadderSpacing(
-      built.shells.flat().map((g) => ({ positionsV: g.map((p) => p.x), sigmasV: g.map((p) => p.peak.biasUncertaintyV) })),
-    );
+    const ladderFit = (shells: BandPeak[][][]) =>
+      fitLadderSpacing(shells.flat().map((g) => ({ positionsV: g.map((p) => p.x), sigmasV: g.map((p) => p.peak.biasUncertaintyV) })));
+    let shells = built.shells;
+    let fit = ladderFit(shells);
+    // The last charging peaks of a shell near the filling limit fall below the noise rule.
+    const completed = fit ? completeShells(shells, cbNoise.satellites, fit.spacingV) : null;
+    if (completed?.added.length) {
+      shells = completed.shells;
+      fit = ladderFit(shells);
+      setAside = setAside.filter((p) => !completed.added.includes(p));
+      evidence.reasons.push(`${completed.added.length} weak CB peak(s) one Ec beyond a shell's last peak taken as its next charging peak(s)`);
+    }
+    cbGroups.push(...shells);
     if (fit) {
       ecV = fit.spacingV;
       ecSE = fit.spacingSEV;
     }
     if (built.leftover.length) warnings.push(`${built.leftover.length} CB peak(s) beyond the assigned shells were left unassigned`);
   } else if (regime === "shell-tunneling") {
-    cbGroups.push(...tunnelingShells(cb).map((shell) => shell.map((p) => [p])));
+    // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
+    // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
+    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
+    let levels = cb;
+    if (satelliteEc !== null) {
+      ecV = satelliteEc.chargingEnergyV;
+      ecSE = satelliteEc.sigmaV;
+      const split = levelChargingPeaks(cb, ecV);
+      if (split.charging.length) {
+        levels = split.levels;
+        setAside = [...setAside, ...split.charging];
+        evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${ecV.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
+      }
+    }
+    cbGroups.push(...tunnelingShells(levels).map((shell) => shell.map((p) => [p])));
   }
   const satellites = [...setAside].sort((a, b) => a.peak.biasV - b.peak.biasV);
   evidence.satellitePeaksV = satellites.map((p) => p.peak.biasV);
@@ -180,7 +325,13 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
 
   // 6. Quantities and energies.
   const { quantities, uncertainties } = spectrumQuantities({ regime, cb, vb, cbGroups, vbGroups, chargingEnergyV: ecV, chargingEnergySEV: ecSE }, warnings);
-  if (regime === "shell-tunneling") warnings.push("shell tunnelling: Ec is not measurable from the CB ladder (reported as null); the gap still contains one Ec");
+  if (regime === "shell-tunneling") {
+    warnings.push(
+      ecV === null
+        ? "shell tunnelling: Ec is not measurable from the CB ladder (reported as null); the gap still contains one Ec"
+        : "shell tunnelling: Ec is the spacing of a gap-edge level and its charging satellite (one pair of peaks, not a ladder fit); the gap contains one Ec",
+    );
+  }
   if (regime === "undetermined") warnings.push("regime undetermined: CB peaks are not grouped into shells; see the evidence");
   const energies = spectrumEnergies(quantities, uncertainties, eta, etaGiven);
   return { regime, evidence, multiplets, quantities, uncertainties, energies, noLevels: null, warnings };

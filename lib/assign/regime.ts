@@ -6,6 +6,7 @@ import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { BandPeak } from "./bandPeaks.ts";
 import { tunnelingShells } from "./shells.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
+import { levelStepRatio, rateRatioFromStepRatio } from "../model/regimeLimits.ts";
 
 /** Shell filling (Γtip ≫ Γsub: charging multiplets), shell tunnelling (Γtip ≪ Γsub: one peak per level), or neither. */
 export type Regime = "shell-filling" | "shell-tunneling" | "undetermined";
@@ -16,6 +17,10 @@ export interface RegimeEvidence {
   secondToFirstStepRatio: number | null;
   /** Spacing from CB peak 2 to the next peak that is not its weak satellite, over that of peaks 1–2; null without one. */
   thirdToSecondSpacingRatio: number | null;
+  /** Step of the second VB main peak over the first; null with fewer than two VB main peaks. */
+  valenceStepRatio: number | null;
+  /** Spacing of the first two VB main peaks over that of the first two CB peaks; null without both pairs. */
+  valenceSpacingRatio: number | null;
   /** CB peaks taken as charging satellites (weak peaks after a main peak) in shell tunnelling. */
   satellitePeaksV: number[];
   /**
@@ -32,18 +37,25 @@ export interface RegimeEvidence {
   reasons: string[];
 }
 
+/** The ratios of {@link regimeRatios}: the numeric part of {@link RegimeEvidence}. */
+export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thirdToSecondSpacingRatio" | "valenceStepRatio" | "valenceSpacingRatio">;
+
 /**
- * The two ratios the regime rules read, from the CB peaks left after the noise rule.
+ * The ratios the regime rules read, from the CB peaks left after the noise rule and the VB main
+ * peaks.
  *
  * Parameters
  * ----------
  * cb : readonly BandPeak[]
  *     CB peaks from the gap edge outward, noise set aside.
+ * vb : readonly BandPeak[], optional
+ *     VB main peaks (noise and charging satellites set aside) from the gap edge outward.
+ *     Default: none (the VB ratios are then null).
  *
  * Returns
  * -------
- * { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null }
- *     See {@link RegimeEvidence}; both dimensionless.
+ * RegimeRatios
+ *     See {@link RegimeEvidence}; all dimensionless.
  *
  * Notes
  * -----
@@ -51,22 +63,30 @@ export interface RegimeEvidence {
  * 2. The third peak is the first after peak 2 whose step is at least
  *    `ASSIGN_DEFAULTS.satelliteStepRatioMax` × that of peak 2 (a weaker one is its satellite);
  *    spacing ratio = (x₃ − x₂)/(x₂ − x₁), null without such a peak.
+ * 3. VB step ratio = stepA of VB peak 2 / stepA of VB peak 1; VB spacing ratio =
+ *    (x₂ − x₁) of the VB over (x₂ − x₁) of the CB.
  *
  * Example
  * -------
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
- * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)]);
- * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4 }
+ * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)], [at(0.8125, 1e-11, 3), at(0.9375, 1e-11, 4)]);
+ * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4, valenceStepRatio: 1, valenceSpacingRatio: 1 }
  */
-export function regimeRatios(cb: readonly BandPeak[]): { secondToFirstStepRatio: number | null; thirdToSecondSpacingRatio: number | null } {
+export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = []): RegimeRatios {
   const D = ASSIGN_DEFAULTS;
   let secondToFirstStepRatio: number | null = null;
   let thirdToSecondSpacingRatio: number | null = null;
+  let valenceStepRatio: number | null = null;
+  let valenceSpacingRatio: number | null = null;
   if (cb.length >= 2) secondToFirstStepRatio = cb[1].peak.stepA / cb[0].peak.stepA;
   // The jump to the next peak that is not a weak satellite of the second.
   const third = cb.slice(2).find((p) => p.peak.stepA >= D.satelliteStepRatioMax * cb[1].peak.stepA);
   if (third) thirdToSecondSpacingRatio = (third.x - cb[1].x) / (cb[1].x - cb[0].x);
-  return { secondToFirstStepRatio, thirdToSecondSpacingRatio };
+  if (vb.length >= 2) {
+    valenceStepRatio = vb[1].peak.stepA / vb[0].peak.stepA;
+    if (cb.length >= 2) valenceSpacingRatio = (vb[1].x - vb[0].x) / (cb[1].x - cb[0].x);
+  }
+  return { secondToFirstStepRatio, thirdToSecondSpacingRatio, valenceStepRatio, valenceSpacingRatio };
 }
 
 /**
@@ -96,9 +116,15 @@ export function regimeRatios(cb: readonly BandPeak[]): { secondToFirstStepRatio:
  *    `D.fillingJumpRatioMin` × the first spacing: shell filling.
  * 3. Step ratio between `D.tunnelingSatelliteRatioMax` and the filling range: undetermined (an
  *    intermediate rate ratio: too strong for a satellite, too weak for a doublet).
+ *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
+ *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps and
+ *    no third CB peak: the VB decides (see `pairWithoutThird`).
  * 4. Otherwise the p shell — the second main peak with the sub-levels close to it (see
  *    `tunnelingShells`) — carrying at least `D.tunnelingStepRatioMin` × the s step: shell
- *    tunnelling; else undetermined.
+ *    tunnelling. With a measured charging satellite of s (step ratio q from
+ *    `D.satelliteEvidenceMin` to `D.tunnelingSatelliteRatioMax`), r = q/(1 − q) and the p shell
+ *    needs only `D.levelStepMargin` × levelStepRatio(2, 2, r) = 1/(1 + 4r) (lib/model/regimeLimits.ts:
+ *    at r near 3/7 a level's step is no longer its degeneracy ratio). Else undetermined.
  *
  * References
  * ----------
@@ -127,15 +153,20 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
   const ratio = evidence.secondToFirstStepRatio!;
   const jump = evidence.thirdToSecondSpacingRatio;
   if (ratio >= D.fillingStepRatio[0] && ratio <= D.fillingStepRatio[1]) {
-    if (jump === null || jump >= D.fillingJumpRatioMin) {
+    if (jump === null) return pairWithoutThird(ratio, evidence);
+    if (jump >= D.fillingJumpRatioMin) {
       reasons.push(
-        `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")})` +
-          (jump === null ? " and no third CB peak" : ` and the next jump is ${jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin})`) +
-          ": an s doublet of charging peaks",
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")}) and the next jump is ${jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin}): an s doublet of charging peaks`,
       );
       return "shell-filling";
     }
-    reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump!.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
+    if (jump <= D.levelPairJumpMax && ratio >= levelStepRatio(2, 6, D.levelPairRateRatioMax)) {
+      reasons.push(
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.levelPairJumpMax}): not a charging doublet, whose jump to p is Ec + Δsp > Ec; the s level and a p level (a level of g states after s gives g/(2(1 + (2 + g)r)), at least ${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)} for r ≤ ${D.levelPairRateRatioMax} whatever g ≤ 6), the peaks after them p's charging peaks or sub-levels: single levels`,
+      );
+      return "shell-tunneling";
+    }
+    reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
   } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
     reasons.push(
       `the second CB step is ${ratio.toFixed(2)} × the first: too strong for a charging satellite (≤ ${D.tunnelingSatelliteRatioMax}), too weak for an s doublet (≥ ${D.fillingStepRatio[0]}): an intermediate rate ratio`,
@@ -153,9 +184,55 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
     reasons.push(`the p shell${sub} carries ${pRatio.toFixed(2)} × the s step (≥ ${D.tunnelingStepRatioMin}; p holds 6 electrons, s 2): single levels` + note);
     return "shell-tunneling";
   }
+  // A measured charging satellite of s gives r = q/(1 − q) ≤ 3/7; the p step then needs only to be
+  // what a level of at least two states gives at that r (levelStepRatio), with a margin for noise.
+  if (ratio >= D.satelliteEvidenceMin && ratio <= D.satelliteEvidenceMax && pShell.length) {
+    const r = rateRatioFromStepRatio(ratio);
+    const least = D.levelStepMargin * levelStepRatio(2, 2, r);
+    if (pRatio >= least) {
+      reasons.push(
+        `the second CB step is ${ratio.toFixed(2)} × the first: a charging satellite of s, so Γtip/Γsub ≈ ${r.toFixed(2)} (q/(1 − q)); the p shell carries ${pRatio.toFixed(2)} × the s step (≥ ${least.toFixed(2)}, ${D.levelStepMargin} × what a doubly degenerate level gives at that ratio): single levels` +
+          note,
+      );
+      return "shell-tunneling";
+    }
+  }
   reasons.push(
     `the p shell carries ${pShell.length ? pRatio.toFixed(2) : "no"} × the s step: neither an s doublet (${D.fillingStepRatio.join("–")} with a larger jump to p) nor an s/p pair (≥ ${D.tunnelingStepRatioMin})` +
       note,
   );
+  return "undetermined";
+}
+
+/**
+ * Two alike CB steps and nothing after them: an s doublet of charging peaks (shell filling), or
+ * the s level and a doubly degenerate p sub-level (shell tunnelling, the window ending inside a
+ * split p shell). Both give two steps of about the same height (r/(1 + r) for the doublet,
+ * `levelStepRatio(2, 2, r)` = 1/(1 + 4r) of lib/model/regimeLimits.ts for two levels), so the VB decides: in shell
+ * filling its first two main peaks are a charging doublet too, with the same spacing (Ec) and
+ * alike steps; in shell tunnelling they are levels, the second usually of higher degeneracy.
+ */
+function pairWithoutThird(ratio: number, evidence: RegimeEvidence): Regime {
+  const D = ASSIGN_DEFAULTS;
+  const reasons = evidence.reasons;
+  const head = `the first two CB steps are alike (ratio ${ratio.toFixed(2)} within ${D.fillingStepRatio.join("–")}) and no third CB peak follows: an s doublet or the s level and a p sub-level`;
+  const vStep = evidence.valenceStepRatio;
+  const vSpacing = evidence.valenceSpacingRatio;
+  if (vStep === null || vSpacing === null) {
+    reasons.push(`${head}; fewer than two VB peaks to tell them apart`);
+    return "undetermined";
+  }
+  const alike = vStep >= D.fillingStepRatio[0] && vStep <= D.fillingStepRatio[1];
+  const sameSpacing = Math.abs(vSpacing - 1) <= D.valenceChargingTolerance;
+  if (alike && sameSpacing) {
+    reasons.push(`${head}; the first two VB steps are alike too (ratio ${vStep.toFixed(2)}) at ${vSpacing.toFixed(2)} × the CB spacing (within 1 ± ${D.valenceChargingTolerance}): charging doublets of one Ec on both sides`);
+    return "shell-filling";
+  }
+  if (vStep >= D.tunnelingStepRatioMin || !sameSpacing) {
+    const why = vStep >= D.tunnelingStepRatioMin ? `the second VB step is ${vStep.toFixed(2)} × the first (≥ ${D.tunnelingStepRatioMin}): a level of more states, not a charging peak` : `the first two VB peaks are ${vSpacing.toFixed(2)} × the CB spacing apart (outside 1 ± ${D.valenceChargingTolerance}): not one Ec`;
+    reasons.push(`${head}; ${why}, so the CB pair is two single levels`);
+    return "shell-tunneling";
+  }
+  reasons.push(`${head}; the VB (step ratio ${vStep.toFixed(2)}, spacing ${vSpacing.toFixed(2)} × the CB's) supports neither reading`);
   return "undetermined";
 }

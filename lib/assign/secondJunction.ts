@@ -5,6 +5,7 @@
  * assignment leaves them out of the ladders.
  */
 import type { Peak } from "../peaks/findPeaks.ts";
+import { REGIME_LIMITS, substrateToTipStepRatio } from "../model/regimeLimits.ts";
 
 /** Tolerances of {@link secondJunctionResonances} (locked by test/assign/secondJunction.test.ts). */
 export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
@@ -12,6 +13,17 @@ export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
   toleranceSigma: 3,
   /** … or within this fraction of its own FWHM, whichever is larger (η is rarely known better than a few %). */
   toleranceFwhmFraction: 0.5,
+  /**
+   * {@link substrateChargingPeaks}: the charging energy the spacing of a resonance and its
+   * companion implies is at most this fraction of the gap (in energy).
+   */
+  companionChargingFractionMax: 0.25,
+  /**
+   * {@link substrateChargingPeaks}: the resonance's step over its source's is at most this:
+   * (g·r + 1)/(g + r) for g = 2 at the shell-tunnelling limit r = Γtip/Γsub = 3/7
+   * (`substrateToTipStepRatio` and `REGIME_LIMITS` in lib/model/regimeLimits.ts): 13/17 ≈ 0.765.
+   */
+  companionSourceStepRatioMax: substrateToTipStepRatio(2, REGIME_LIMITS.tunnelingRateRatioMax),
 });
 
 /** One peak taken as a second-junction resonance. */
@@ -99,4 +111,85 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
     else sources.push(k);
   }
   return found;
+}
+
+/**
+ * The second charging peaks that only the substrate junction shows: where the tip side is in shell
+ * tunnelling (Γtip ≪ Γsub), the substrate side fills the dot (rate ratio Γsub/Γtip ≫ 1), so the
+ * resonance of a band's first level is a charging doublet there.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Peak[]
+ *     The peaks of one curve (positions `biasV` and `fwhmV` in V, current steps `stepA` in A).
+ * resonances : readonly SecondJunctionResonance[]
+ *     From {@link secondJunctionResonances}.
+ * eta : number
+ *     Voltage-division factor η in (0, 1).
+ * stepRatio : readonly [number, number]
+ *     The range of the second step over the first that reads as a charging doublet
+ *     (`ASSIGN_DEFAULTS.fillingStepRatio`).
+ *
+ * Returns
+ * -------
+ * SecondJunctionResonance[]
+ *     The companions found, each with the source of the resonance it follows and `predictedV` =
+ *     its own position (the spacing is not known in advance).
+ *
+ * Notes
+ * -----
+ * 1. Only resonances of the gap-edge level of a band (the peak of that band nearest 0 V) have a
+ *    companion: the dot then holds no carrier of that band before the level. The resonance's step
+ *    must be at most `SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax` × its source's: the
+ *    ratio is (g·r + 1)/(g + r) (`substrateToTipStepRatio`), below 13/17 for g = 2 only on the
+ *    tunnelling side of r = 3/7.
+ * 2. Beyond the resonance (further from 0 V, same side), the first peak that is not a resonance
+ *    and whose step lies within `stepRatio` × the resonance's is its companion, if the charging
+ *    energy it implies, Ec = (1 − η)·|V₂ − V₁|, is at most
+ *    `SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax` × the gap in energy (η × the distance
+ *    between the gap-edge peaks) and the spacing exceeds half the resonance's FWHM.
+ * 3. Through the substrate junction of a shell-tunnelling dot the doublet's steps are alike: their
+ *    ratio is r'/(1 + r') for r' = Γsub/Γtip ≫ 1 (the closed form of `secondToFirstStepRatio` with
+ *    the junctions' roles swapped).
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids*, ed. B. L. Altshuler,
+ * P. A. Lee and R. A. Webb (Elsevier, 1991); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // η = 0.6; s at 0.9 V, v1 at −1.0 V; the resonance of v1 at 1.5 V, its companion at 1.75 V
+ * // (Ec = 0.4 × 0.25 = 0.1 eV), each about half the v1 step; a p level at 1.6 V lies between them.
+ * const peak = (biasV: number, stepA: number): Peak => ({ biasV, biasUncertaintyV: 0.002, index: 0, heightS: 1e-9,
+ *   prominenceS: 1e-9, fwhmV: 0.04, stepA, snr: 20, stepSignificance: 30 });
+ * const peaks = [peak(-1.0, 2e-12), peak(0.9, 2e-12), peak(1.5, 1e-12), peak(1.6, 6e-12), peak(1.75, 0.95e-12)];
+ * substrateChargingPeaks(peaks, secondJunctionResonances(peaks, 0.6), 0.6, [0.6, 1.3]).map((r) => r.index);  // => [4]
+ * ```
+ */
+export function substrateChargingPeaks(peaks: readonly Peak[], resonances: readonly SecondJunctionResonance[], eta: number, stepRatio: readonly [number, number]): SecondJunctionResonance[] {
+  if (!(eta > 0 && eta < 1)) return [];
+  const taken = new Set(resonances.map((r) => r.index));
+  const free = peaks.map((p, k) => ({ p, k })).filter(({ k }) => !taken.has(k));
+  const edge = (sign: number) => free.filter(({ p }) => Math.sign(p.biasV) === sign).sort((a, b) => Math.abs(a.p.biasV) - Math.abs(b.p.biasV))[0];
+  const cb = edge(1), vb = edge(-1);
+  if (!cb || !vb) return [];
+  const gapEV = eta * (cb.p.biasV - vb.p.biasV);
+  const out: SecondJunctionResonance[] = [];
+  for (const r of resonances) {
+    const res = peaks[r.index];
+    const source = r.sourceIndex === cb.k || r.sourceIndex === vb.k;
+    if (!source || res.stepA > SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax * peaks[r.sourceIndex].stepA) continue;
+    const beyond = free
+      .filter(({ p }) => Math.sign(p.biasV) === Math.sign(res.biasV) && Math.abs(p.biasV) > Math.abs(res.biasV))
+      .sort((a, b) => Math.abs(a.p.biasV) - Math.abs(b.p.biasV));
+    const next = beyond.find(({ p }) => p.stepA >= stepRatio[0] * res.stepA && p.stepA <= stepRatio[1] * res.stepA);
+    if (!next) continue;
+    const spacingV = Math.abs(next.p.biasV - res.biasV);
+    if (spacingV <= res.fwhmV / 2 || (1 - eta) * spacingV > SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax * gapEV) continue;
+    if (out.some((o) => o.index === next.k)) continue;
+    out.push({ index: next.k, sourceIndex: r.sourceIndex, predictedV: next.p.biasV });
+  }
+  return out;
 }

@@ -45,15 +45,18 @@ export interface FillingShells {
  *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
  *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
  *    candidate within (1 + `subgroupExtraMin`)·Ec of the next and weaker than
- *    `satelliteStepRatioMax` × its step is the shell's level entered early and does not set the
- *    s→p jump.
+ *    `leadingSatelliteRatioMax` × its step is the shell's level entered early (before the shell
+ *    below is full; about half the next step near Γtip/Γsub = 1.5) and does not set the s→p jump.
  * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
  *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
  *    `leadingSatelliteRatioMax` × the candidates' median step, the weakest extras are set aside,
  *    otherwise the shell takes its first g candidates.
- * 4. Inside a shell, a spacing above (1 + `subgroupExtraMin`)·Ec starts a sub-group (a
+ * 4. A peak inside the shell whose step is below `satelliteStepRatioMax` × the steps of both its
+ *    neighbours is set aside (a higher sub-level entered at a lower charge state: not a charging
+ *    peak of the ladder).
+ * 5. Inside a shell, a spacing above (1 + `subgroupExtraMin`)·Ec starts a sub-group (a
  *    multiplet split by shape anisotropy).
- * 5. Peaks set aside beyond the last assigned peak are not reported as off the ladder.
+ * 6. Peaks set aside beyond the last assigned peak are not reported as off the ladder.
  *
  * Example
  * -------
@@ -93,7 +96,7 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
         // The shell's level entered early (its charging satellite) sits one Ec before the
         // shell's first peak and is much weaker: it must not set the s→p jump.
         const next = cb[k + 1];
-        if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.satelliteStepRatioMax * next.peak.stepA) {
+        if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.leadingSatelliteRatioMax * next.peak.stepA) {
           offLadder.push(cb[k]);
           continue;
         }
@@ -120,6 +123,13 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
         offLadder.push(...extras);
         members = members.filter((p) => !extras.includes(p));
       } else members = members.slice(0, g);
+    }
+    // An inner peak much weaker than both neighbours is not a charging peak of the shell but a
+    // channel through a higher sub-level opening at a charge state below it (a split shell).
+    const weakInner = members.filter((p, j) => j > 0 && j < members.length - 1 && p.peak.stepA < D.satelliteStepRatioMax * Math.min(members[j - 1].peak.stepA, members[j + 1].peak.stepA));
+    if (weakInner.length) {
+      offLadder.push(...weakInner);
+      members = members.filter((p) => !weakInner.includes(p));
     }
     if (!members.length) break;
     const end = members[members.length - 1];
@@ -179,4 +189,53 @@ export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
     else break;
   }
   return shells;
+}
+
+/**
+ * Complete the shells of shell filling with weak peaks that continue their charging ladders: near
+ * the filling limit the last charging steps of a shell are a small fraction of its first (each
+ * added carrier finds fewer free states), below the band's noise rule.
+ *
+ * Parameters
+ * ----------
+ * shells : readonly BandPeak[][][]
+ *     From {@link fillingShells}: per shell its sub-groups.
+ * weak : readonly BandPeak[]
+ *     CB peaks set aside as weak (noise rule), from the gap edge outward.
+ * chargingEnergyV : number
+ *     Ec in bias, V (the ladder fit's spacing).
+ *
+ * Returns
+ * -------
+ * { shells: BandPeak[][][]; added: BandPeak[] }
+ *     The shells with the peaks appended to their last sub-group, and the peaks used.
+ *
+ * Notes
+ * -----
+ * 1. Per shell from s outward, while it holds fewer peaks than its degeneracy: a weak peak within
+ *    ± `ASSIGN_DEFAULTS.subgroupExtraMin`·Ec of one Ec beyond its last peak, and before the next
+ *    shell's first peak by at least Ec/2, is its next charging peak.
+ *
+ * Example
+ * -------
+ * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
+ * const shells = [[[at(0.6875, 0), at(0.8125, 1)]], [[at(1.3125, 2), at(1.4375, 3)]]];
+ * completeShells(shells, [at(1.5625, 4)], 0.125).added.map((p) => p.index);  // => [4]
+ */
+export function completeShells(shells: readonly BandPeak[][][], weak: readonly BandPeak[], chargingEnergyV: number): { shells: BandPeak[][][]; added: BandPeak[] } {
+  const tol = ASSIGN_DEFAULTS.subgroupExtraMin * chargingEnergyV;
+  const out = shells.map((shell) => shell.map((g) => [...g]));
+  const added: BandPeak[] = [];
+  out.forEach((shell, s) => {
+    const g = SHELLS[s]?.degeneracy ?? Infinity;
+    const nextStart = out[s + 1]?.[0]?.[0]?.x ?? Infinity;
+    for (let n = shell.flat().length; n < g; n++) {
+      const last = shell[shell.length - 1][shell[shell.length - 1].length - 1];
+      const p = weak.find((w) => !added.includes(w) && Math.abs(w.x - last.x - chargingEnergyV) <= tol && w.x <= nextStart - chargingEnergyV / 2);
+      if (!p) break;
+      shell[shell.length - 1].push(p);
+      added.push(p);
+    }
+  });
+  return { shells: out, added };
 }

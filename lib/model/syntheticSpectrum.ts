@@ -6,6 +6,7 @@ import { seededRandom } from "../util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import type { Level, Scenario } from "./scenario.ts";
 import { REGIME_LIMITS } from "./regimeLimits.ts";
+import { currentSteps, type DotModel } from "./bandCurrent.ts";
 
 /** The regime of a synthetic spectrum: shell filling (Γtip/Γsub ≫ 1), shell tunnelling (Γtip/Γsub ≪ 1) or in between. */
 export type SyntheticRegime = "shell-filling" | "shell-tunneling" | "intermediate";
@@ -37,12 +38,23 @@ export interface SyntheticRanges {
    */
   rateRatio: Record<SyntheticRegime, [number, number]>;
   /**
-   * The FWHM is at most this fraction of the smallest peak spacing in bias. Draws whose
-   * second-junction resonances (levels crossing the substrate's Fermi level, at |V| ≈ E/(1 − η))
-   * would fall inside the bias window are rejected and redrawn.
+   * The FWHM is at most this fraction of the smallest peak spacing in bias.
    * Default: SYNTHETIC_DEFAULTS.resolvability (0.7).
    */
   resolvability: number;
+  /**
+   * Second-junction resonances (levels crossing the substrate's Fermi level, at |V| = E/(1 − η)
+   * for an addition energy E) inside the bias window: "redraw" rejects such draws and draws
+   * again; "keep" keeps them and lists them in `SyntheticTruth.secondJunctionPeaksV`.
+   * Default: SYNTHETIC_DEFAULTS.secondJunction ("redraw").
+   */
+  secondJunction: "redraw" | "keep";
+  /**
+   * With `secondJunction` "keep": a substrate-junction step is listed as a resonance when its
+   * height is at least this fraction of the median tip-junction step.
+   * Default: SYNTHETIC_DEFAULTS.secondJunctionStepMin (0.25).
+   */
+  secondJunctionStepMin: number;
   /** Points per curve. Default: SYNTHETIC_DEFAULTS.points (2000). */
   points: number;
   /** Temperature, K. Default: SYNTHETIC_DEFAULTS.temperatureK (4.5). */
@@ -62,12 +74,19 @@ export const SYNTHETIC_DEFAULTS: Readonly<SyntheticRanges> = Object.freeze({
   // Intermediate spectra lie between the regime boundaries of REGIME_LIMITS.
   rateRatio: { "shell-filling": [5, 50], "shell-tunneling": [0.002, 0.03], intermediate: [REGIME_LIMITS.tunnelingRateRatioMax, REGIME_LIMITS.fillingRateRatioMin] },
   resolvability: 0.7,
+  secondJunction: "redraw",
+  secondJunctionStepMin: 0.25,
   points: 2000,
   temperatureK: 4.5,
 } satisfies SyntheticRanges);
 
 /** What the analysis should find. Bias-referred values in V. */
 export interface SyntheticTruth {
+  /**
+   * The regime of the drawn rate ratio: the one asked for, except that an "intermediate" draw
+   * outside the {@link REGIME_LIMITS} boundaries (a wider intermediate range, as in the
+   * benchmark's crossover mix) is the regime it lies in; the peak lists follow it.
+   */
   regime: SyntheticRegime;
   rateRatio: number;
   eta: number;
@@ -78,6 +97,18 @@ export interface SyntheticTruth {
   /** Expected peak positions (V) of the s and p multiplets in the analysis' convention (one per charging peak in shell filling, one per level in shell tunnelling). */
   sPeaksV: number[];
   pPeaksV: number[];
+  /**
+   * Expected VB peak positions (V, negative), from the gap edge outward, in the same convention:
+   * one per charging step in shell filling (v1: 2, v2: 4), one per level in shell tunnelling.
+   */
+  valencePeaksV: number[];
+  /**
+   * Expected second-junction resonances inside the bias window (V, signed; CB levels at negative
+   * bias, VB levels at positive), ordered by |bias|: V = ∓E/(1 − η) for the addition energies E
+   * whose substrate-junction step the model shows (see note 5). Empty when `secondJunction` is
+   * "redraw".
+   */
+  secondJunctionPeaksV: number[];
   pSubgroups: number[];
   peakFwhmV: number;
   noiseRelative: number;
@@ -116,9 +147,18 @@ export interface SyntheticTruth {
  *    tunnelling one per level, V = (ε + Ec/2)/η.
  * 3. The FWHM is drawn, then capped at `resolvability` × the smallest spacing of expected peaks;
  *    the broadening in energy is FWHM/2√(2 ln 2)·η (the thermal width is neglected).
- * 4. The bias window covers every expected peak by 4 FWHM + 50 mV; a draw whose substrate-junction
- *    resonances (at −(ε_s + Ec/2)/(1 − η) and (|ε_v1| + Ec/2)/(1 − η)) fall within 3 FWHM of the
- *    window is rejected and drawn again from the same generator.
+ * 4. The bias window covers every expected peak by 4 FWHM + 50 mV. With `secondJunction`
+ *    "redraw", a draw whose substrate-junction resonances (at −(ε_s + Ec/2)/(1 − η) and
+ *    (|ε_v1| + Ec/2)/(1 − η)) fall within 3 FWHM of the window is rejected and drawn again from
+ *    the same generator.
+ * 5. Second-junction resonances (`secondJunction` "keep"): a carrier entering through the
+ *    substrate junction at addition energy E (E = ε + Ec·(N + ½), the ladder of lib/model/ladder.ts)
+ *    gives a step at V = −E/(1 − η) for the CB and +E/(1 − η) for the VB. Through the substrate the
+ *    roles of the junctions swap (rate ratio 1/r): the substrate side of a shell-filling dot shows
+ *    mainly one step per level (E = ε + Ec/2), that of a shell-tunnelling dot its charging ladder.
+ *    The steps are taken from the model itself (`currentSteps`, one band at a time): those on the
+ *    substrate side, within the window by 2 FWHM, at least `secondJunctionStepMin` × the median
+ *    tip-side step high, are listed.
  *
  * Example
  * -------
@@ -159,19 +199,9 @@ function draw(rng: ReturnType<typeof seededRandom>, seed: number, regime: Synthe
     { energyEV: ev1, degeneracy: 2 },
     { energyEV: ev2, degeneracy: 4 },
   ];
-  const filling = regime !== "shell-tunneling";
-  // Expected peaks in the analysis' convention.
-  const sPeaksV = regime === "shell-tunneling" ? [(es + ec / 2) / eta] : [(es + ec / 2) / eta, (es + 1.5 * ec) / eta];
-  const pPeaksV: number[] = [];
-  if (regime === "shell-tunneling") for (const l of pLevels) pPeaksV.push((l.energyEV + ec / 2) / eta);
-  else {
-    let n = 2;
-    for (const l of pLevels) for (let k = 0; k < l.degeneracy; k++, n++) pPeaksV.push((l.energyEV + ec * (n + 0.5)) / eta);
-  }
+  // Expected peaks in the analysis' convention of the regime drawn (for the widths and the window).
+  const { sPeaksV, pPeaksV, vbPeaks } = expectedPeaks(regime !== "shell-tunneling", es, pLevels, ev1, ev2, ec, eta);
   // Smallest spacing between expected main peaks in bias, to keep peaks resolvable.
-  const vbPeaks = filling
-    ? [(-ev1 + ec / 2) / eta, (-ev1 + 1.5 * ec) / eta, ...[2, 3, 4, 5].map((n) => (-ev2 + ec * (n + 0.5)) / eta)]
-    : [(-ev1 + ec / 2) / eta, (-ev2 + ec / 2) / eta];
   const all = [...sPeaksV, ...pPeaksV].sort((a, b) => a - b);
   const vbSorted = [...vbPeaks].sort((a, b) => a - b);
   let minSpacing = Infinity;
@@ -186,9 +216,12 @@ function draw(rng: ReturnType<typeof seededRandom>, seed: number, regime: Synthe
   // single-junction ladder the criteria describe).
   const cbSecond = -(es + ec / 2) / (1 - eta);
   const vbSecond = (-ev1 + ec / 2) / (1 - eta);
-  if (cbSecond > bottom - 3 * fwhm || vbSecond < top + 3 * fwhm) return null;
+  const keep = ranges.secondJunction === "keep";
+  if (!keep && (cbSecond > bottom - 3 * fwhm || vbSecond < top + 3 * fwhm)) return null;
+  const model = { cb, vb, chargingEnergyEV: ec, eta, tipRatePerS: r * SUBSTRATE_RATE_PER_S, substrateRatePerS: SUBSTRATE_RATE_PER_S, relaxationRatePerS: relaxationRate(r), temperatureK: ranges.temperatureK };
+  const secondJunctionPeaksV = keep ? substrateSteps(model, ranges.secondJunctionStepMin).filter((v) => v > bottom + 2 * fwhm && v < top - 2 * fwhm) : [];
   const stepV = (top - bottom) / (ranges.points - 1);
-  const substrateRatePerS = 1e8;
+  const substrateRatePerS = SUBSTRATE_RATE_PER_S;
   const scenario: Scenario = {
     cb,
     vb,
@@ -198,25 +231,71 @@ function draw(rng: ReturnType<typeof seededRandom>, seed: number, regime: Synthe
     substrateRatePerS,
     temperatureK: ranges.temperatureK,
     broadeningEV,
-    relaxationRatePerS: 1000 * Math.max(r, 1) * substrateRatePerS,
+    relaxationRatePerS: relaxationRate(r),
     lockInVrms: 0,
     bias: { fromV: bottom, toV: bottom + (ranges.points - 1) * stepV, stepV },
     noise: { relative: noise, seed: seed * 100 + attempt },
   };
+  // The truth in the convention of the regime the drawn ratio lies in (an "intermediate" draw
+  // outside the REGIME_LIMITS boundaries is scored as the regime it is in).
+  const truthRegime: SyntheticRegime =
+    regime !== "intermediate" ? regime : r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : regime;
+  const expected = truthRegime === regime ? { sPeaksV, pPeaksV, vbPeaks } : expectedPeaks(truthRegime === "shell-filling", es, pLevels, ev1, ev2, ec, eta);
   return {
     scenario,
     truth: {
-      regime,
+      regime: truthRegime,
       rateRatio: r,
       eta,
       chargingEnergyEV: ec,
       levelSpacingSPEV: sp,
-      gapV: sPeaksV[0] + (-ev1 + ec / 2) / eta,
-      sPeaksV,
-      pPeaksV,
-      pSubgroups: regime === "shell-tunneling" ? split.map(() => 1) : split,
+      gapV: expected.sPeaksV[0] + (-ev1 + ec / 2) / eta,
+      sPeaksV: expected.sPeaksV,
+      pPeaksV: expected.pPeaksV,
+      valencePeaksV: [...expected.vbPeaks].sort((a, b) => a - b).map((v) => -v),
+      secondJunctionPeaksV,
+      pSubgroups: truthRegime === "shell-tunneling" ? split.map(() => 1) : split,
       peakFwhmV: fwhm,
       noiseRelative: noise,
     },
   };
+}
+
+/**
+ * Expected peak positions (V) in the analysis' convention: one per charging step (`filling`) or one
+ * per level: CB s and p from the gap edge, and the VB (|bias|, unsorted) of v1 (2) and v2 (4).
+ */
+function expectedPeaks(filling: boolean, es: number, pLevels: readonly Level[], ev1: number, ev2: number, ec: number, eta: number): { sPeaksV: number[]; pPeaksV: number[]; vbPeaks: number[] } {
+  const sPeaksV = filling ? [(es + ec / 2) / eta, (es + 1.5 * ec) / eta] : [(es + ec / 2) / eta];
+  const pPeaksV: number[] = [];
+  if (!filling) for (const l of pLevels) pPeaksV.push((l.energyEV + ec / 2) / eta);
+  else {
+    let n = 2;
+    for (const l of pLevels) for (let k = 0; k < l.degeneracy; k++, n++) pPeaksV.push((l.energyEV + ec * (n + 0.5)) / eta);
+  }
+  const vbPeaks = filling
+    ? [(-ev1 + ec / 2) / eta, (-ev1 + 1.5 * ec) / eta, ...[2, 3, 4, 5].map((n) => (-ev2 + ec * (n + 0.5)) / eta)]
+    : [(-ev1 + ec / 2) / eta, (-ev2 + ec / 2) / eta];
+  return { sPeaksV, pPeaksV, vbPeaks };
+}
+
+/** Tunnelling rate through the substrate junction, 1/s (the tip's is r times it). */
+const SUBSTRATE_RATE_PER_S = 1e8;
+
+/** In-dot relaxation: 1000 × the faster tunnelling rate, 1/s. */
+function relaxationRate(rateRatio: number): number {
+  return 1000 * Math.max(rateRatio, 1) * SUBSTRATE_RATE_PER_S;
+}
+
+/**
+ * Biases (V, ordered by |bias|) of the substrate-junction steps of the model (CB steps at
+ * negative bias, VB steps at positive) at least `fraction` × the median tip-junction step high.
+ */
+function substrateSteps(model: DotModel, fraction: number): number[] {
+  const cb = model.cb.length ? currentSteps({ ...model, vb: [] }).steps : [];
+  const vb = model.vb.length ? currentSteps({ ...model, cb: [] }).steps : [];
+  const substrate = [...cb.filter((s) => s.biasV < 0), ...vb.filter((s) => s.biasV > 0)];
+  const tip = [...cb.filter((s) => s.biasV > 0), ...vb.filter((s) => s.biasV < 0)].map((s) => Math.abs(s.heightA)).sort((a, b) => a - b);
+  const typical = tip.length ? tip[tip.length >> 1] : 0;
+  return substrate.filter((s) => Math.abs(s.heightA) >= fraction * typical).map((s) => s.biasV).sort((a, b) => Math.abs(a) - Math.abs(b));
 }

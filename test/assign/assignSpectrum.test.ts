@@ -136,11 +136,18 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       noiseStepRatioMax: 0.2,
       tunnelingSatelliteRatioMax: 0.3,
       fillingJumpRatioMin: 1.25,
+      levelPairJumpMax: 0.8,
+      levelPairRateRatioMax: 0.35,
+      satelliteEvidenceMin: 0.1,
+      satelliteEvidenceMax: 0.2,
+      levelStepMargin: 0.8,
       minLadderSpacingFraction: 0.65,
       leadingSatelliteRatioMax: 0.6,
       subgroupExtraMin: 0.2,
       newShellExcessFraction: 0.9,
       tunnelingSublevelFraction: 0.5,
+      levelChargingTolerance: 0.15,
+      fillingResonanceStepMin: 1.4,
       valenceChargingTolerance: 0.3,
     });
   });
@@ -195,6 +202,22 @@ describe("assignSpectrum(peaks): multiplets and satellites name their peaks by i
     expectIndicesConsistent(peaks, a);
   });
 
+  it("near the crossover (r = 0.25) reads Ec from the s satellite, sets p's charging peaks aside, and gives the single-particle gap (closed forms)", () => {
+    // s at (0.5 + Ec/2)/η, its satellite at (0.5 + 3Ec/2)/η with step r/(1 + r) = 0.2 of s; p at
+    // (0.8 + Ec/2)/η charging at (0.8 + 3Ec/2)/η and (0.8 + 5Ec/2)/η (6r = 1.5: p charges).
+    const r = 0.25;
+    const peaks = [peak(-(0.8 + 0.05) / eta, 4e-11), peak(-(0.6 + 0.05) / eta, 2e-11), peak((0.5 + 0.05) / eta, 2e-11), peak((0.5 + 0.15) / eta, (r / (1 + r)) * 2e-11),
+      peak((0.8 + 0.05) / eta, 2.2e-11), peak((0.8 + 0.15) / eta, 2.4e-11), peak((0.8 + 0.25) / eta, 1.8e-11)];
+    const a = assignSpectrum(peaks, { eta });
+    expect(a.regime).toBe("shell-tunneling");
+    expect(Object.fromEntries(a.multiplets.map((m) => [m.label, m.peakIndices]))).toEqual({ s: [2], p: [4], v1: [1], v2: [0] });
+    expectClose(a.quantities.chargingEnergyV!, ec / eta, { rtol: 1e-9, what: "Ec/η from s and its satellite" });
+    expectClose(a.energies.singleParticleGapEV!, 0.5 + 0.6, { rtol: 1e-9, what: "η·gap − Ec = ε_s − ε_v1" });
+    expectClose(a.quantities.levelSpacingSPV!, (0.8 - 0.5) / eta, { rtol: 1e-9, what: "Δsp = p − s" });
+    expect(a.evidence.satellitePeakIndices).toEqual([3, 5, 6]);
+    expectIndicesConsistent(peaks, a);
+  });
+
   it("shell tunnelling: one index per level, the s satellite among the satellites", () => {
     // Bias order: v2 (−0.85/η), v1 (−0.65/η), s (0.55/η), its satellite (0.65/η), p (0.85/η).
     const peaks = [peak(-(0.8 + 0.05) / eta, 4e-11), peak(-(0.6 + 0.05) / eta, 2e-11), peak((0.5 + 0.05) / eta, 2e-11), peak((0.5 + 0.15) / eta, 1e-12), peak((0.8 + 0.05) / eta, 6e-11)];
@@ -216,5 +239,34 @@ describe("assignSpectrum(peaks): multiplets and satellites name their peaks by i
       }),
       { numRuns: 300 },
     );
+  });
+});
+
+describe("assignSpectrum at η = 0.6: a resonance on the s doublet's second peak", () => {
+  // Shell filling at r = 10 (closed forms, orthodox theory): peaks at (|ε| + Ec·(n + ½))/η with
+  // ε_s = 0.525, ε_p = 0.85, ε_v1 = −0.4, ε_v2 = −0.78 eV, Ec = 0.1 eV. v1's resonance through the
+  // substrate, (0.4 + 0.05)/(1 − η) = 1.125 V, falls on s's second peak (0.525 + 0.15)/η = 1.125 V;
+  // s's resonance at −(0.525 + 0.05)/(1 − η) = −1.4375 V. A resonance carries (2r + 1)/(2 + r) = 1.75
+  // of its level's first step (substrateToTipStepRatio), the second s step r/(1 + r) of the first.
+  const e = 0.6, r = 10, ecV = 0.1 / e;
+  const tip = (eps: number, n: number) => (eps + 0.1 * (n + 0.5)) / e;
+  const list: [number, number][] = [
+    ...[2, 3, 4, 5].map((n): [number, number] => [-tip(0.78, n), 1]),
+    [-(0.525 + 0.05) / (1 - e), 1.75], // s's resonance
+    [-tip(0.4, 1), r / (1 + r)], [-tip(0.4, 0), 1],
+    [tip(0.525, 0), 1], [tip(0.525, 1), r / (1 + r) + 1.75], // s's second peak and v1's resonance together
+    ...[2, 3, 4, 5, 6, 7].map((n): [number, number] => [tip(0.85, n), 1]),
+  ];
+  const peaks = list.sort((a, b) => a[0] - b[0]).map(([v, k]) => peak(v, k * 1e-11));
+  const a = assignSpectrum(peaks, { eta: e });
+
+  it("reads shell filling from the resonance heights and keeps the overlapped peak as the s doublet's second", () => {
+    expect(a.regime).toBe("shell-filling");
+    const s = a.multiplets.find((m) => m.label === "s")!;
+    expectClose(s.peaksV, [tip(0.525, 0), tip(0.525, 1)], { rtol: 1e-12 });
+    expect(a.multiplets.find((m) => m.label === "p")!.found).toBe(6);
+    expectClose(a.quantities.chargingEnergyV!, ecV, { rtol: 1e-9, what: "Ec/η" });
+    expect(a.evidence.secondJunction.map((x) => peaks[x.index].biasV)).toEqual([-(0.525 + 0.05) / (1 - e)]);
+    expect(a.evidence.reasons[0]).toMatch(/band-edge level .* carries 1\.75 ×/);
   });
 });

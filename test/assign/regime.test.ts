@@ -8,6 +8,8 @@ import { classifyRegime, regimeRatios, type RegimeEvidence } from "../../lib/ass
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { expectClose } from "../helpers/expectClose.ts";
+import { levelStepRatio } from "../../lib/model/regimeLimits.ts";
+import { ASSIGN_DEFAULTS } from "../../lib/assign/assignDefaults.ts";
 
 const at = (x: number, stepA: number, index: number): BandPeak => ({ x, index, peak: { biasV: x, stepA } as Peak });
 const V = (e: number) => e / 0.8;
@@ -42,6 +44,67 @@ describe("regimeRatios(cb) and classifyRegime(cb, main, evidence)", () => {
   it("cannot tell from fewer than two CB peaks", () => {
     expect(classify([]).regime).toBe("undetermined");
     expect(classify([at(0.7, 1e-11, 0)]).regime).toBe("undetermined");
-    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null });
+    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null, valenceStepRatio: null, valenceSpacingRatio: null });
+  });
+});
+
+describe("classifyRegime near the tunnelling limit (closed forms of lib/model/regimeLimits.ts)", () => {
+  it("s then a whole p at r = 0.3: steps alike, levelStepRatio(2, 6, r) = 3/(1 + 8r), then p's charging peak one Ec on: two levels, not a doublet", () => {
+    const r = 0.3;
+    // s at 0.5 eV, p at 0.8 eV, p's second carrier at 0.8 + Ec (Ec = 0.1 eV < Δsp): the next spacing is 1/3 of the first.
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.85), levelStepRatio(2, 6, r) * 2e-11, 1), at(V(0.95), 1.5e-11, 2)];
+    const { regime, evidence } = classify(cb);
+    expectClose(evidence.secondToFirstStepRatio!, 3 / 3.4, { rtol: 1e-12, what: "3/(1 + 8r)" });
+    expectClose(evidence.thirdToSecondSpacingRatio!, 1 / 3, { rtol: 1e-9 });
+    expect(regime).toBe("shell-tunneling");
+  });
+
+  it("s, its charging satellite at r/(1 + r) for r = 0.15, then p at 3/(1 + 8r) × s: the satellite measures r, so p need not carry 1.4 × s", () => {
+    const r = 0.15;
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.65), (r / (1 + r)) * 2e-11, 1), at(V(0.85), levelStepRatio(2, 6, r) * 2e-11, 2)];
+    const main = [cb[0], cb[2]];
+    const { regime, evidence } = classify(cb, main);
+    expect(levelStepRatio(2, 6, r)).toBeLessThan(ASSIGN_DEFAULTS.tunnelingStepRatioMin);
+    expect(regime).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(/charging satellite of s, so Γtip\/Γsub ≈ 0.15/);
+  });
+
+  it("an s doublet at r = 2 (r/(1 + r) = 2/3) followed by p one Ec + Δsp on stays shell filling", () => {
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), (2 / 3) * 1e-11, 1), at(V(0.8 + 0.25), 1e-11, 2)];
+    expect(classify(cb).regime).toBe("shell-filling");
+  });
+});
+
+describe("classifyRegime on two alike CB steps and no third CB peak (the window ends there)", () => {
+  // Shell filling at r = 10: s doublet with step ratio r/(1 + r) = 10/11 (closed form), and the VB
+  // doublet of ε_v1 = −0.6 eV at the same spacing Ec/η with the same step ratio. Shell tunnelling
+  // at r = 0.01: s (0.5 eV) and a doubly degenerate p sub-level (0.8 eV), step ratio 1/(1 + 4r)
+  // (closed form, levelStepRatio(2, 2, r)); VB levels v1 (g 2, −0.6 eV) and v2 (g 4, −0.8 eV), step
+  // ratio 4/(2(1 + 6r)) (closed form, levelStepRatio(2, 4, r)).
+  const withVB = (cb: BandPeak[], vb: BandPeak[]) => {
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    return { regime: classifyRegime(cb, cb, evidence), evidence };
+  };
+  it("calls an s doublet with a VB doublet of the same spacing shell filling", () => {
+    const r = 10, q = r / (1 + r);
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), q * 1e-11, 1)];
+    const vb = [at(V(0.65), 1e-11, 2), at(V(0.75), q * 1e-11, 3)];
+    const { regime, evidence } = withVB(cb, vb);
+    expectClose(evidence.valenceSpacingRatio!, 1, { rtol: 1e-12, what: "same Ec on both sides" });
+    expect(regime).toBe("shell-filling");
+  });
+  it("calls s and a p sub-level shell tunnelling when the VB shows levels (second step ≈ 2 × the first)", () => {
+    const r = 0.01;
+    const cb = [at(V(0.55), 2e-11, 0), at(V(0.85), (1 / (1 + 4 * r)) * 2e-11, 1)];
+    const vb = [at(V(0.65), 2e-11, 2), at(V(0.85), (4 / (2 * (1 + 6 * r))) * 2e-11, 3)];
+    const { regime, evidence } = withVB(cb, vb);
+    expectClose(evidence.valenceStepRatio!, 2 / 1.06, { rtol: 1e-12, what: "g2/(g1(1 + 6r))" });
+    expect(regime).toBe("shell-tunneling");
+  });
+  it("says undetermined without a VB pair", () => {
+    const cb = [at(V(0.55), 1e-11, 0), at(V(0.65), 0.95e-11, 1)];
+    const { regime, evidence } = withVB(cb, [at(V(0.65), 1e-11, 2)]);
+    expect(regime).toBe("undetermined");
+    expect(evidence.reasons.join(" ")).toMatch(/fewer than two VB peaks/);
   });
 });

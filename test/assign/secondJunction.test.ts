@@ -5,7 +5,7 @@
 // = −η·V₁/(1 − η). The model check uses the project's master equation, whose closed-form plateaus
 // are tested in test/model/ladder.test.ts.
 import { describe, it, expect } from "vitest";
-import { secondJunctionResonances, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
 import { analyzeCurve, assignSpectrum, analysisToJson, formatAnalysisText, loadCurveFigure, simulateCurve, SECOND_JUNCTION, type Peak } from "../../lib/index.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 
@@ -38,8 +38,26 @@ describe("secondJunctionResonances(peaks, eta)", () => {
     expect(r.map((x) => x.index)).toEqual([0]);
   });
 
-  it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %)", () => {
-    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5 });
+  it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %; Ec at most a quarter of the gap; closed form 13/17 for the step ratio)", () => {
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSourceStepRatioMax: expect.any(Number) });
+    expectClose(SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax, 13 / 17, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r = 3/7" });
+  });
+});
+
+describe("substrateChargingPeaks(peaks, resonances, eta, stepRatio)", () => {
+  // Shell tunnelling at η = 0.6 (gain η/(1 − η) = 1.5): v1 at −1.0 V through the tip; through the
+  // substrate its charging doublet at 1.5 V and 1.5 + Ec/(1 − η) = 1.75 V for Ec = 0.1 eV (closed
+  // form); each substrate step about half the tip step (substrateToTipStepRatio(2, r) → 1/2 for r → 0).
+  const at = (biasV: number, stepA: number): Peak => ({ ...peak(biasV), stepA });
+  it("finds the second charging peak of the resonance of the gap-edge level, past a level between them", () => {
+    const peaks = [at(-1.0, 2e-12), at(0.9, 2e-12), at(1.5, 1e-12), at(1.6, 6e-12), at(1.75, 0.95e-12)];
+    const res = secondJunctionResonances(peaks, 0.6);
+    expect(res.map((r) => r.index)).toEqual([2]);
+    expect(substrateChargingPeaks(peaks, res, 0.6, [0.6, 1.3]).map((r) => r.index)).toEqual([4]);
+  });
+  it("finds none where the resonance is higher than its source (the substrate side of shell filling shows a level, ratio → 2)", () => {
+    const peaks = [at(-1.0, 1e-12), at(0.9, 1e-12), at(1.5, 1.9e-12), at(1.75, 1.8e-12)];
+    expect(substrateChargingPeaks(peaks, secondJunctionResonances(peaks, 0.6), 0.6, [0.6, 1.3])).toEqual([]);
   });
 });
 

@@ -1,9 +1,10 @@
 // fillingShells / tunnelingShells on peak positions from the closed form (|ε| + Ec(n + ½))/η, n counting
 // the carriers already in the CB, with ε_s = 0.5, ε_p = 0.8, ε_d = 1.2 eV, Ec = 0.1 eV, η = 0.8.
 import { describe, it, expect } from "vitest";
-import { fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";
+import { completeShells, fillingShells, tunnelingShells, SHELLS } from "../../lib/assign/shells.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
+import { currentSteps } from "../../lib/model/bandCurrent.ts";
 
 const eta = 0.8, ec = 0.1;
 const at = (x: number, index: number, stepA = 1e-11): BandPeak => ({ x, index, peak: { biasV: x, stepA, biasUncertaintyV: 0.001 } as Peak });
@@ -30,6 +31,58 @@ describe("fillingShells(cb)", () => {
     const r = fillingShells(xs.map((x, i) => at(x, i)));
     expect(r.offLadder.map((p) => p.index)).toEqual([3]);
     expect(r.shells[1].flat().map((p) => p.index)).toEqual([2, 4, 5]);
+  });
+});
+
+describe("fillingShells(cb) on a split p shell cut by the window", () => {
+  it("sets aside an inner peak weaker than half of both neighbours (the upper sub-level entered at a lower charge state)", () => {
+    // p split 2 + 4: p_a at 0.8 eV (n = 2, 3), p_b at 0.9 eV (n = 4), split by one Ec; the channel
+    // into p_b at n = 3, (0.9 + 3.5·Ec)/η, lies one Ec after p_a's second and before p_b's first
+    // charging peak (closed form positions), on the ladder's spacing; its step is a fraction of
+    // the others (0.3 here: common practice (no source)).
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 3), V(0.9, 3), V(0.9, 4)];
+    const steps = [1, 0.95, 1, 0.9, 0.3, 1].map((k) => k * 1e-11);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.offLadder.map((p) => p.index)).toEqual([4]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([2, 3, 5]);
+  });
+});
+
+describe("fillingShells(cb) near the filling limit", () => {
+  it("sets aside p entered early (one Ec before p's first charging peak, about half its step) instead of shifting p by one Ec", () => {
+    // p entered while s holds one carrier: (0.8 + 1.5·Ec)/η, then p's charging peaks n = 2 … 6 (the
+    // seventh too weak to see) at the closed-form positions; step heights from the project's master
+    // equation (currentSteps, simulated truth) at Γtip/Γsub = 1.6.
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 1), ...[2, 3, 4, 5, 6].map((n) => V(0.8, n))];
+    const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }], vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 1.6e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    expect(steps[2] / steps[3]).toBeGreaterThan(0.5); // above the satellite rule's 0.5: only the early-entry rule can catch it
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.offLadder.map((p) => p.index)).toEqual([2]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([3, 4, 5, 6, 7]);
+  });
+});
+
+describe("completeShells(shells, weak, chargingEnergyV)", () => {
+  it("appends a weak peak one Ec beyond a shell that is short of its degeneracy (p's last charging peak near the filling limit)", () => {
+    // p's sixth charging peak at (0.8 + 7.5·Ec)/η: at Γtip/Γsub = 2 its step is a small fraction of
+    // p's first (the project's master equation, currentSteps: simulated truth).
+    const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }], vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 2e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+    const all = currentSteps(model).steps;
+    const stepAt = (x: number) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA;
+    expect(stepAt(V(0.8, 7)) / stepAt(V(0.8, 2))).toBeLessThan(0.2); // below the band's noise rule
+    const s = [[at(V(0.5, 0), 0), at(V(0.5, 1), 1)]];
+    const p = [[2, 3, 4, 5, 6].map((n, k) => at(V(0.8, n), 2 + k))];
+    const r = completeShells([s, p], [at(V(0.8, 7), 7, stepAt(V(0.8, 7))), at(V(0.8, 7) + 0.4 * (ec / eta), 8)], ec / eta);
+    expect(r.added.map((x) => x.index)).toEqual([7]);
+    expect(r.shells[1].flat().map((x) => x.index)).toEqual([2, 3, 4, 5, 6, 7]);
+  });
+  it("adds nothing to a full shell or off the ladder", () => {
+    const s = [[at(V(0.5, 0), 0), at(V(0.5, 1), 1)]];
+    expect(completeShells([s], [at(V(0.5, 2), 2)], ec / eta).added).toEqual([]); // s holds 2
+    const p = [[at(V(0.8, 2), 2)]];
+    expect(completeShells([s, p], [at(V(0.8, 2) + 1.5 * (ec / eta), 3)], ec / eta).added).toEqual([]); // 1.5 Ec away
   });
 });
 

@@ -4,7 +4,7 @@
 // the project's own master-equation solver, which test/model/ladder.test.ts checks against the
 // closed-form plateau currents.
 import { describe, it, expect } from "vitest";
-import { REGIME_LIMITS, rateRatioFromStepRatio, secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
+import { REGIME_LIMITS, levelStepRatio, rateRatioFromStepRatio, secondToFirstStepRatio, substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { exactCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { simulateCurve } from "../../lib/model/simulate.ts";
@@ -49,6 +49,52 @@ describe("secondToFirstStepRatio(r)", () => {
 
   it("has rateRatioFromStepRatio as its inverse (closed form q/(1 − q))", () => {
     for (const r of [0.01, 0.43, 1.5, 50]) expectClose(rateRatioFromStepRatio(secondToFirstStepRatio(r)), r, { rtol: 1e-12 });
+  });
+});
+
+describe("levelStepRatio(g1, g2, r)", () => {
+  // Closed form g2/(g1(1 + (g1 + g2)r)) (derived in lib/model/regimeLimits.ts from the master
+  // equation with one extra carrier), checked against the project's master-equation solver: an s
+  // level (g 2) at 0.5 eV and a second level at 0.8 eV, Ec = 1 eV so that a second carrier stays
+  // blocked (its step at (0.5 + 1.5)/0.8 = 2.5 V); steps at 1.25 V and 1.625 V, plateaus read at
+  // 1.4 V and 2.0 V.
+  it("is the ratio of the two level steps of the master equation in shell tunnelling", () => {
+    for (const g2 of [2, 4, 6]) {
+      for (const r of [0.003, 0.03, 0.2, 1]) {
+        const model: DotModel = { ...sLevel(r), cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: g2 }], chargingEnergyEV: 1 };
+        const [first, second] = exactCurrent(model, [1.4, 2.0]);
+        expectClose((second - first) / first, levelStepRatio(2, g2, r), { rtol: 1e-6, what: `g2 = ${g2}, r = ${r}` });
+      }
+    }
+  });
+
+  it("tends to the degeneracy ratio g2/g1 for r → 0 and is ≈ 1 for s then a doubly degenerate sub-level (closed form)", () => {
+    expectClose(levelStepRatio(2, 6, 1e-9), 3, { rtol: 1e-6 });
+    expectClose(levelStepRatio(2, 2, 0.01), 1 / 1.04, { rtol: 1e-12 });
+  });
+});
+
+describe("substrateToTipStepRatio(g, r)", () => {
+  // Closed form (g·r + 1)/(g + r) (derived in lib/model/regimeLimits.ts), checked against the
+  // master equation: an s level (g 2) at 0.5 eV, Ec = 0.2 eV, η = 0.6. Through the tip junction its
+  // first step is at (0.5 + 0.1)/0.6 = 1.0 V (plateau read at 1.1 V, before the second carrier at
+  // 0.8/0.6 = 1.333 V); through the substrate junction at −0.6/0.4 = −1.5 V (plateau read at
+  // −1.75 V, before −0.8/0.4 = −2.0 V).
+  it("is the substrate-side first step over the tip-side first step of the master equation", () => {
+    for (const g of [2, 4]) {
+      for (const r of [0.01, 0.2, 1, 5, 30]) {
+        const model: DotModel = { ...sLevel(r), cb: [{ energyEV: 0.5, degeneracy: g }], eta: 0.6 };
+        const [sub, tip] = exactCurrent(model, [-1.75, 1.1]);
+        expectClose(Math.abs(sub) / tip, substrateToTipStepRatio(g, r), { rtol: 1e-6, what: `g = ${g}, r = ${r}` });
+      }
+    }
+  });
+
+  it("is g deep in shell filling, 1/g deep in shell tunnelling and 1 at r = 1 (closed form)", () => {
+    expectClose(substrateToTipStepRatio(2, 1e9), 2, { rtol: 1e-6 });
+    expectClose(substrateToTipStepRatio(2, 1e-9), 0.5, { rtol: 1e-6 });
+    expectClose(substrateToTipStepRatio(2, 1), 1, { rtol: 1e-12 });
+    expectClose(substrateToTipStepRatio(2, 3 / 7), 13 / 17, { rtol: 1e-12 });
   });
 });
 
