@@ -10,7 +10,7 @@ import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { bandStepsMemo } from "./bandStepsMemo.ts";
-import { projectLinear } from "./projectLinear.ts";
+import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus } from "./fitStatus.ts";
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
@@ -21,6 +21,7 @@ import { fitEvidence } from "./fitEvidence.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
+import { refinementStarts } from "./refinementStarts.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
 export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
@@ -120,6 +121,12 @@ export const FIT_DEFAULTS = Object.freeze({
   wholeCurveChiSquare: 3,
   /** See wholeCurveChiSquare. */
   wholeCurveRatio: 2,
+  /**
+   * Rounds of further starts about the best CB-side grouping ({@link refinementStarts}: its p
+   * shell split about the fitted p level, its rate ratio × 1/3 and × 3); a round runs only when the
+   * previous one found a better grouping.
+   */
+  refinementRounds: 2,
 });
 
 /**
@@ -255,6 +262,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const cbSide = pointsOf((v) => v > 0);
   const started = Date.now();
 
+  const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
   /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
   const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
     const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
@@ -262,7 +270,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
     const current = bandStepsMemo(h.seeds, eta, temperatureK);
-    const evaluate = (p: ArrayLike<number>) => projectLinear(current(p, set.biasV), set.biasV, set.v3, set.dataA);
+    const project = (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
+    const evaluate = (p: ArrayLike<number>) => project(current(p, set.biasV));
     let cacheKey = "";
     let cacheOut = new Float64Array(set.n);
     const modelScaled = (p: number[]) => {
@@ -366,6 +375,32 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
         if (done.bic < cbFinals[i].bic) cbFinals[i] = done;
       }
     });
+    // The best grouping so far from further starts about its own fitted values (its p shell split
+    // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
+    // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
+    for (let round = 0; round < F.refinementRounds; round++) {
+      const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
+      if (round > 0 && !/, refined/.test(top.hypothesis.name)) break;
+      const topFull = [...cbOnly.entries()].find(([, hc]) => hc === top.hypothesis)![0];
+      let bestRefined: FitTrial | null = null;
+      for (const r of refinementStarts(top.hypothesis.seeds, top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale), eta)) {
+        const at = parameterIndex(r.seeds.length);
+        const moved = { chargingEnergyStartEV: r.parameters[at.chargingEnergy], rateRatioStartLog10: r.parameters[at.logRateRatio] };
+        const base = topFull.name.replace(/,.*$/, "");
+        const name = `${base}, refined to ${r.layout} (${r.change})`;
+        const full: FitHypothesis = { ...topFull, name, label: `${topFull.label}, ${r.change}`, seeds: [...r.seeds, ...topFull.seeds.filter((x) => x.band === "VB")], cbDegeneracies: r.seeds.map((x) => x.degeneracy), ...moved };
+        const hc: FitHypothesis = { ...full, seeds: r.seeds, vbReadings: [[]] };
+        cbOnly.set(full, hc);
+        const explored = run(hc, null, explore, r.parameters, cbSide);
+        trials.push(explored);
+        if (!bestRefined || explored.bic < bestRefined.bic) bestRefined = explored;
+      }
+      if (!bestRefined || bestRefined.bic >= top.bic) break;
+      const done = { ...run(bestRefined.hypothesis, null, maxIterations, bestRefined.loop.parameters, cbSide), rateRatio0: bestRefined.rateRatio0 };
+      trials.push(done);
+      if (done.bic >= top.bic) break;
+      cbFinals.push(done);
+    }
     /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
     const wholeFit = (cbDone: FitTrial): FitTrial => {
       const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
@@ -415,7 +450,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
   // the forced regimes before the ladders): readings that reach the same levels are one model.
   const lowest = Math.min(...pool.map((t) => t.bic));
-  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
+  // Retried and refined groupings come after every listed one.
+  const order = (t: FitTrial) => {
+    const k = hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
+    return k < 0 ? hypotheses.length : k;
+  };
   const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
   const whole = wholeOf.get(winner);
   let best = whole ?? winner;

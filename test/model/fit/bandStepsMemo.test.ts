@@ -18,7 +18,7 @@ const seeds: LevelSeed[] = [
 
 describe("bandStepsMemo(seeds, eta, temperatureK)", () => {
   it("BAND_STEPS_MEMO_DEFAULTS are locked", () => {
-    expect(BAND_STEPS_MEMO_DEFAULTS).toEqual({ entriesPerBand: 64 });
+    expect(BAND_STEPS_MEMO_DEFAULTS).toEqual({ entriesPerBand: 64, windowMarginV: 0.05, plateausPerStructure: 20000 });
     expect(Object.isFrozen(BAND_STEPS_MEMO_DEFAULTS)).toBe(true);
   });
 

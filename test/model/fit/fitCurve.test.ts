@@ -102,6 +102,7 @@ describe("fitCurve(analysis)", () => {
       shiftChiSquare: 2,
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,
+      refinementRounds: 2,
     });
   });
 });
