@@ -13,7 +13,7 @@ import type { LevelSeed } from "./levelsToFit.ts";
 /** Size of {@link bandStepsMemo}'s store (locked by test/model/fit/bandStepsMemo.test.ts). */
 export const BAND_STEPS_MEMO_DEFAULTS = Object.freeze({
   /** Most band solutions kept per band; the oldest goes first. */
-  entriesPerBand: 64,
+  entriesPerBand: 256,
   /** V added to the reach of the broadened steps (9σ) either side of the data when a band's steps are solved over the data's bias range only. */
   windowMarginV: 0.05,
   /** Most zero-temperature plateau currents kept per ladder structure (the store is emptied when full). */
@@ -22,6 +22,37 @@ export const BAND_STEPS_MEMO_DEFAULTS = Object.freeze({
 
 /** One band's steps over a window of sample bias (V): steps outside it are in baseA or left out. */
 type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: number };
+
+/**
+ * The solutions {@link bandStepsMemo} keeps: each band's steps by its parameters (and η, T),
+ * and each ladder structure with its zero-temperature plateaus. One store may serve the memos of
+ * several sets of levels (the hypotheses of one fit): a band solution depends only on the band's
+ * own levels, Ec, Γtip/Γsub, η and T.
+ */
+export interface BandStepsStore {
+  bands: { cb: Map<string, BandSteps>; vb: Map<string, BandSteps> };
+  structures: Map<string, { ladder: Ladder; plateaus: Map<string, number> }>;
+}
+
+/**
+ * An empty {@link BandStepsStore}.
+ *
+ * Returns
+ * -------
+ * BandStepsStore
+ *     Empty maps; {@link bandStepsMemo} fills them.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const store = bandStepsStore();
+ * const a = bandStepsMemo(seedsA, 0.85, 4.5, store), b = bandStepsMemo(seedsB, 0.85, 4.5, store);
+ * // b finds the CB solutions a stored when the two share their CB levels.
+ * ```
+ */
+export function bandStepsStore(): BandStepsStore {
+  return { bands: { cb: new Map(), vb: new Map() }, structures: new Map() };
+}
 
 /**
  * A model-current function for one set of levels that solves each band's master equation once per
@@ -35,6 +66,9 @@ type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: numb
  *     Voltage-division factor η.
  * temperatureK : number
  *     Temperature in K.
+ * store : BandStepsStore, optional
+ *     Where the solutions are kept; pass one store to the memos of several sets of levels to share
+ *     them. Default: a new store ({@link bandStepsStore}).
  *
  * Returns
  * -------
@@ -63,8 +97,7 @@ type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: numb
  *    plateauStore, at most BAND_STEPS_MEMO_DEFAULTS.plateausPerStructure), so that moving a level
  *    or Ec without reordering any crossing solves no master equation at all.
  * 4. The two bands' steps merged and broadened by σ/η ({@link fastCurrent}).
- * The store belongs to the returned function alone (one per fitted hypothesis); nothing else
- * changes it.
+ * Nothing outside the memos given the store changes it.
  *
  * Example
  * -------
@@ -75,13 +108,14 @@ type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: numb
  * current([0.6, 0.1, 1, -1.9], [0.7, 0.82, 1]); // the same steps, broadened by σ = 12.6 meV: no solve
  * ```
  */
-export function bandStepsMemo(seeds: readonly LevelSeed[], eta: number, temperatureK: number): (p: ArrayLike<number>, biasV: ArrayLike<number>) => Float64Array {
-  const stores = { cb: new Map<string, BandSteps>(), vb: new Map<string, BandSteps>() };
-  /**
-   * Ladders by structure (degeneracies and order): the states are enumerated once, and each
-   * zero-temperature plateau (rates and which transitions are open) is solved once.
-   */
-  const structures = new Map<string, { ladder: Ladder; plateaus: Map<string, number> }>();
+export function bandStepsMemo(
+  seeds: readonly LevelSeed[],
+  eta: number,
+  temperatureK: number,
+  store: BandStepsStore = bandStepsStore(),
+): (p: ArrayLike<number>, biasV: ArrayLike<number>) => Float64Array {
+  const { structures } = store;
+  const stores = store.bands;
   const ladderOf = (levels: readonly Level[], chargingEnergyEV: number) => {
     const key = ladderStructureKey(levels);
     const known = structures.get(key);
@@ -96,7 +130,7 @@ export function bandStepsMemo(seeds: readonly LevelSeed[], eta: number, temperat
   const bandSteps = (model: DotModel, band: "cb" | "vb", fromV: number, toV: number, reachV: number): BandSteps => {
     const levels = model[band];
     if (!levels.length) return { baseA: 0, steps: [], fromV: -Infinity, toV: Infinity };
-    const key = `${levels.map((l) => `${l.energyEV}:${l.degeneracy}`).join(",")}|${model.chargingEnergyEV}|${model.tipRatePerS}`;
+    const key = `${levels.map((l) => `${l.energyEV}:${l.degeneracy}`).join(",")}|${model.chargingEnergyEV}|${model.tipRatePerS}|${eta}|${temperatureK}`;
     const store = stores[band];
     const known = store.get(key);
     if (known && known.fromV <= fromV && known.toV >= toV) return known;

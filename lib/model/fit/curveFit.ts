@@ -3,6 +3,7 @@
  * the status, the hypothesis the values come from and every run tried.
  */
 import type { FitStatus } from "./fitStatus.ts";
+import type { ResidualStructure } from "./residualStructure.ts";
 
 /** One fitted parameter with its standard error. */
 export interface FittedValue {
@@ -109,5 +110,10 @@ export interface CurveFit {
   regimeReason: string;
   /** Bias, data, model and residual on the points used, for plotting. */
   residuals: { biasV: Float64Array; currentA: Float64Array; modelA: Float64Array; residualA: Float64Array };
+  /**
+   * The most structured stretch of those residuals, a peak's width long ({@link residualStructure}):
+   * above FIT_STATUS_DEFAULTS.poorResidualZ (5) the status is poor and says where.
+   */
+  residualStructure: ResidualStructure;
   warnings: string[];
 }

@@ -9,10 +9,10 @@ import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { bandStepsMemo } from "./bandStepsMemo.ts";
+import { bandStepsMemo, bandStepsStore } from "./bandStepsMemo.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
-import { fitStatus } from "./fitStatus.ts";
+import { fitStatus, peakChargingEnergy } from "./fitStatus.ts";
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
@@ -22,6 +22,7 @@ import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 import { refinementStarts } from "./refinementStarts.ts";
+import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
 export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
@@ -127,6 +128,8 @@ export const FIT_DEFAULTS = Object.freeze({
    * previous one found a better grouping.
    */
   refinementRounds: 2,
+  /** Iterations of each refinement start (they begin at fitted values); the best is then finished with maxIterations. */
+  refinementIterations: 4,
 });
 
 /**
@@ -186,7 +189,11 @@ export const FIT_DEFAULTS = Object.freeze({
  *    the VB reading, which they share, stays out of the comparison); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
  *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
- *    too many, and the better by BIC kept), then fitted to the whole
+ *    too many, and the better by BIC kept); the best of them is refined ({@link refinementStarts}:
+ *    its p shell split 2+4 or 2+2+2 about the fitted p level, a p sub-level of 4 split 2+2, its
+ *    rate ratio × 1/3 and × 3, each explored for refinementIterations (4) from its fitted values,
+ *    the best finished and kept as a further finalist when its BIC is lower; up to
+ *    refinementRounds (2) rounds while a round finds a better one); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
@@ -200,7 +207,15 @@ export const FIT_DEFAULTS = Object.freeze({
  *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
  *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. A reduced
  *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
- *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible.
+ *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
+ *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
+ *    run of one sign above 5 σ, where the model misses, adds or misplaces a step) and, where the
+ *    rules and the fit both read a charging ladder, an Ec more than 5 combined σ from the
+ *    peak-based Ec make it poor, with the reason in words.
+ * The model current is the fast one throughout; for speed, each band's steps are solved only over
+ * the data's bias range, once per distinct band parameters and shared by all runs, and each
+ * zero-temperature plateau once per rate matrix ({@link bandStepsMemo}): the same current to
+ * round-off.
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
  * References
@@ -263,13 +278,16 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const started = Date.now();
 
   const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
+  // Band solutions shared by every run: hypotheses that share a band's levels, and the runs of one
+  // hypothesis (explored, finished, fitted to the whole curve), solve it once.
+  const bandStore = bandStepsStore();
   /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
   const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
     const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const current = bandStepsMemo(h.seeds, eta, temperatureK);
+    const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
     const project = (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
     const evaluate = (p: ArrayLike<number>) => project(current(p, set.biasV));
     let cacheKey = "";
@@ -391,7 +409,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
         const full: FitHypothesis = { ...topFull, name, label: `${topFull.label}, ${r.change}`, seeds: [...r.seeds, ...topFull.seeds.filter((x) => x.band === "VB")], cbDegeneracies: r.seeds.map((x) => x.degeneracy), ...moved };
         const hc: FitHypothesis = { ...full, seeds: r.seeds, vbReadings: [[]] };
         cbOnly.set(full, hc);
-        const explored = run(hc, null, explore, r.parameters, cbSide);
+        const explored = run(hc, null, Math.min(explore, F.refinementIterations), r.parameters, cbSide);
         trials.push(explored);
         if (!bestRefined || explored.bic < bestRefined.bic) bestRefined = explored;
       }
@@ -483,7 +501,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
   // result was fitted to.
   const { biasV, dataA, v3, n } = best.set;
-  const current = bandStepsMemo(seeds, eta, temperatureK);
+  const current = bandStepsMemo(seeds, eta, temperatureK, bandStore);
   const final = projectLinear(current(params, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
@@ -497,7 +515,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const steps = [...best.start.gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
   const se = standardErrors(fullModel, full, steps, reducedChiSquare, warnings);
 
-  // 4. The verdict, the status and the result.
+  // 4. The verdict, the status and the result. The residuals are checked for structure over a
+  // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.
+  const structure = residualStructure(biasV, dataA.map((v, i) => v - final.out[i]), noiseA, analysis.settings.peakWidthMV / 1000);
+  const peakEc = peakChargingEnergy(analysis, eta);
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
@@ -508,7 +529,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergySE: se[at.chargingEnergy],
     logRateRatioSE: se[at.logRateRatio],
     atBound: [...plausibilityInput(best).atBound],
+    residualStructure: structure,
+    peakChargingEnergy: peakEc,
   });
+  if (peakEc && verdict.regime === "shell-tunneling") {
+    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(peakEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
+  }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
   const sigmaEV = 10 ** params[at.logBroadening];
@@ -565,6 +591,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     regime,
     regimeReason,
     residuals: { biasV, currentA: dataA, modelA, residualA: dataA.map((v, i) => v - modelA[i]) },
+    residualStructure: structure,
     warnings,
   };
 }

@@ -103,6 +103,7 @@ describe("fitCurve(analysis)", () => {
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,
       refinementRounds: 2,
+      refinementIterations: 4,
     });
   });
 });
