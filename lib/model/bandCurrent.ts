@@ -235,6 +235,7 @@ export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders
     if (!ladder) continue;
     let work: ReturnType<typeof ladderWorkspace> | null = null;
     const store = options.plateauStore?.[band];
+    const ratesKey = `${model.tipRatePerS}|${model.substrateRatePerS}|${model.relaxationRatePerS}|`;
     const crossings = ladderCrossings(ladder, model);
     // Merge crossings closer than 1e-12 V (degenerate keys).
     const merged: typeof crossings = [];
@@ -249,7 +250,7 @@ export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders
       const right = i === merged.length ? merged[merged.length - 1].biasV + 1 : merged[i].biasV;
       const v = (left + right) / 2;
       if (!store) return sign * ladderCurrent(ladder, model, v, (work ??= ladderWorkspace(ladder)), true);
-      const key = zeroTemperaturePattern(ladder, model, v);
+      const key = zeroTemperaturePattern(ladder, model, v, ratesKey);
       let current = store.get(key);
       if (current === undefined) {
         current = ladderCurrent(ladder, model, v, (work ??= ladderWorkspace(ladder)), true);

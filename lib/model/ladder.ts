@@ -470,6 +470,9 @@ export function ladderCurrent(
  *     η and the tip, substrate and relaxation rates (1/s) are used.
  * biasV : number
  *     Bias in V (this ladder's electron-like sign).
+ * ratesKey : string, optional
+ *     The rates part of the pattern, for a caller that evaluates many biases at the same rates.
+ *     Default: `${Γtip}|${Γsub}|${Γrelax}|`.
  *
  * Returns
  * -------
@@ -497,17 +500,18 @@ export function ladderCurrent(
  * zeroTemperaturePattern(ladder, params, 0.75); // => "1000000000|100000000|1000000000000|-+++"
  * ```
  */
-export function zeroTemperaturePattern(ladder: Ladder, params: JunctionParams, biasV: number): string {
+export function zeroTemperaturePattern(ladder: Ladder, params: JunctionParams, biasV: number, ratesKey = `${params.tipRatePerS}|${params.substrateRatePerS}|${params.relaxationRatePerS}|`): string {
   const { keyEnergyEV } = ladder;
   // The same arithmetic as ladderCurrent's, so that the signs are its signs.
   const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
-  const sign = (x: number) => (x > 0 ? "+" : x < 0 ? "-" : "0");
-  let out = `${params.tipRatePerS}|${params.substrateRatePerS}|${params.relaxationRatePerS}|`;
+  const codes = new Array<number>(2 * keyEnergyEV.length);
+  const sign = (x: number) => (x > 0 ? 43 : x < 0 ? 45 : 48); // "+", "-", "0"
   for (let k = 0; k < keyEnergyEV.length; k++) {
     const a = (keyEnergyEV[k] - params.eta * biasV) / kT;
-    out += sign(a) + sign(a + biasV / kT);
+    codes[2 * k] = sign(a);
+    codes[2 * k + 1] = sign(a + biasV / kT);
   }
-  return out;
+  return ratesKey + String.fromCharCode(...codes);
 }
 
 /**

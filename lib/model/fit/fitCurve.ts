@@ -21,7 +21,7 @@ import { fitEvidence } from "./fitEvidence.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
-import { refinementStarts } from "./refinementStarts.ts";
+import { refineGrouping } from "./refineGrouping.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
@@ -77,6 +77,11 @@ export const FIT_DEFAULTS = Object.freeze({
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
   /** Iterations of each explored start; the best are then finished with maxIterations. */
   exploreIterations: 8,
+  /**
+   * An explored start whose reduced χ² after its first chunkIterations is above this many times the
+   * best start's is not explored further (it cannot reach the finalists).
+   */
+  exploreDropRatio: 4,
   /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
   extraStartsLog10: Object.freeze({
     "shell-filling": Object.freeze([]),
@@ -123,11 +128,14 @@ export const FIT_DEFAULTS = Object.freeze({
   /** See wholeCurveChiSquare. */
   wholeCurveRatio: 2,
   /**
-   * Rounds of further starts about the best CB-side grouping ({@link refinementStarts}: its p
-   * shell split about the fitted p level, its rate ratio × 1/3 and × 3); a round runs only when the
-   * previous one found a better grouping.
+   * Rounds of further starts about the best CB-side groupings ({@link refinementStarts}: the p
+   * shell split about the fitted p level, the rate ratio × 1/3 and × 3): the first about the best
+   * refinedGroupings, each later one about the best only, and only when the previous round found
+   * the best.
    */
   refinementRounds: 2,
+  /** CB-side groupings (the best by BIC) refined in the first round. */
+  refinedGroupings: 2,
   /** Iterations of each refinement start (they begin at fitted values); the best is then finished with maxIterations. */
   refinementIterations: 4,
 });
@@ -186,14 +194,16 @@ export const FIT_DEFAULTS = Object.freeze({
  *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
+ *    after the first 4, a start above exploreDropRatio (4) times the best reduced χ² stops;
  *    the VB reading, which they share, stays out of the comparison); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
  *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
  *    too many, and the better by BIC kept); the best of them is refined ({@link refinementStarts}:
  *    its p shell split 2+4 or 2+2+2 about the fitted p level, a p sub-level of 4 split 2+2, its
  *    rate ratio × 1/3 and × 3, each explored for refinementIterations (4) from its fitted values,
- *    the best finished and kept as a further finalist when its BIC is lower; up to
- *    refinementRounds (2) rounds while a round finds a better one); the finalists are then fitted to the whole
+ *    the best finished and kept as a further finalist when its BIC is lower; first about the best
+ *    refinedGroupings (2), then again about the best while it is a refined one, refinementRounds
+ *    (2) rounds in all); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
@@ -357,11 +367,20 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       const seeds = h.seeds.filter((x) => x.band === "CB");
       if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
     }
+    // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
+    // above exploreDropRatio times the best) or already converged is not continued.
+    const half = Math.min(explore, F.chunkIterations);
     const explored: FitTrial[] = [];
     for (const [h, hc] of cbOnly) {
       const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
-      for (const logRatio of starts) explored.push(run(hc, logRatio, explore, undefined, cbSide));
+      for (const logRatio of starts) explored.push(run(hc, logRatio, half, undefined, cbSide));
     }
+    const bestHalf = Math.min(...explored.map(reduced));
+    explored.forEach((t, i) => {
+      if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
+      const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
+      explored[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
+    });
     trials.push(...explored);
     const bestOf = new Map<FitHypothesis, FitTrial>();
     for (const t of explored) {
@@ -396,28 +415,16 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     // The best grouping so far from further starts about its own fitted values (its p shell split
     // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
     // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
-    for (let round = 0; round < F.refinementRounds; round++) {
+    const refine = (top: FitTrial) =>
+      refineGrouping(top, { cbOnly, trials, eta, exploreIterations: Math.min(explore, F.refinementIterations), maxIterations, run: (hc, iterations, from) => run(hc, null, iterations, from, cbSide) });
+    // First round: the best refinedGroupings groupings; then the best again while refining helps.
+    let latest = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings).map(refine).filter((t): t is FitTrial => t !== null);
+    for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
+      cbFinals.push(...latest);
       const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
-      if (round > 0 && !/, refined/.test(top.hypothesis.name)) break;
-      const topFull = [...cbOnly.entries()].find(([, hc]) => hc === top.hypothesis)![0];
-      let bestRefined: FitTrial | null = null;
-      for (const r of refinementStarts(top.hypothesis.seeds, top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale), eta)) {
-        const at = parameterIndex(r.seeds.length);
-        const moved = { chargingEnergyStartEV: r.parameters[at.chargingEnergy], rateRatioStartLog10: r.parameters[at.logRateRatio] };
-        const base = topFull.name.replace(/,.*$/, "");
-        const name = `${base}, refined to ${r.layout} (${r.change})`;
-        const full: FitHypothesis = { ...topFull, name, label: `${topFull.label}, ${r.change}`, seeds: [...r.seeds, ...topFull.seeds.filter((x) => x.band === "VB")], cbDegeneracies: r.seeds.map((x) => x.degeneracy), ...moved };
-        const hc: FitHypothesis = { ...full, seeds: r.seeds, vbReadings: [[]] };
-        cbOnly.set(full, hc);
-        const explored = run(hc, null, Math.min(explore, F.refinementIterations), r.parameters, cbSide);
-        trials.push(explored);
-        if (!bestRefined || explored.bic < bestRefined.bic) bestRefined = explored;
-      }
-      if (!bestRefined || bestRefined.bic >= top.bic) break;
-      const done = { ...run(bestRefined.hypothesis, null, maxIterations, bestRefined.loop.parameters, cbSide), rateRatio0: bestRefined.rateRatio0 };
-      trials.push(done);
-      if (done.bic >= top.bic) break;
-      cbFinals.push(done);
+      if (round === F.refinementRounds || !latest.includes(top)) break;
+      const next = refine(top);
+      latest = next ? [next] : [];
     }
     /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
     const wholeFit = (cbDone: FitTrial): FitTrial => {

@@ -24,3 +24,4 @@ export { standardErrors } from "./standardErrors.ts";
 export { residualStructure, type ResidualStructure } from "./residualStructure.ts";
 export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } from "./fitStatus.ts";
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
+export { refineGrouping, type RefineContext } from "./refineGrouping.ts";

@@ -93,6 +93,7 @@ describe("fitCurve(analysis)", () => {
       compareModels: false,
       rateRatioStartsLog10: [-2, -1, 0, 1, 2],
       exploreIterations: 8,
+      exploreDropRatio: 4,
       extraStartsLog10: { "shell-filling": [], "shell-tunneling": [-1], "ladder-filling": [], "ladder-empty": [] },
       finishedHypotheses: 3,
       regimeSigmas: 2,
@@ -103,6 +104,7 @@ describe("fitCurve(analysis)", () => {
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,
       refinementRounds: 2,
+      refinedGroupings: 2,
       refinementIterations: 4,
     });
   });
