@@ -28,7 +28,10 @@ export interface FitAlternative {
   /**
    * "assigned", the regime forced on the same peaks ("shell-filling", "shell-tunneling"), or a
    * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …),
-   * followed by " −Ec" or " +Ec" when retried with every CB level started one Ec lower or higher.
+   * followed by " −Ec" or " +Ec" when retried with every CB level started one Ec lower or higher,
+   * and by ", refined to <layout> (<change>)" when started from a grouping's fitted values with
+   * its p shell split or its rate ratio moved ("ladder-empty 2+6, refined to 2+2+4 (p split 2+4,
+   * sub-levels 53 meV apart)").
    */
   hypothesis: string;
   /** Regime of that grouping of the peaks ("intermediate" for a ladder entered from the empty dot). */

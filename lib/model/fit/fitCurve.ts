@@ -194,16 +194,16 @@ export const FIT_DEFAULTS = Object.freeze({
  *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
- *    after the first 4, a start above exploreDropRatio (4) times the best reduced χ² stops;
- *    the VB reading, which they share, stays out of the comparison); the best
+ *    the VB reading, which they share, stays out of the comparison; a start whose reduced χ²
+ *    after the first 4 is above exploreDropRatio (4) times the best is not explored further); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
  *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
- *    too many, and the better by BIC kept); the best of them is refined ({@link refinementStarts}:
- *    its p shell split 2+4 or 2+2+2 about the fitted p level, a p sub-level of 4 split 2+2, its
- *    rate ratio × 1/3 and × 3, each explored for refinementIterations (4) from its fitted values,
- *    the best finished and kept as a further finalist when its BIC is lower; first about the best
- *    refinedGroupings (2), then again about the best while it is a refined one, refinementRounds
- *    (2) rounds in all); the finalists are then fitted to the whole
+ *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined
+ *    ({@link refineGrouping}, {@link refinementStarts}: the p shell split 2+4 or 2+2+2 about the
+ *    fitted p level, a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
+ *    refinementIterations (4) from the fitted values, the best finished and kept as a further
+ *    finalist when its BIC is lower), and the best again while it is a refined one
+ *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
