@@ -12,16 +12,16 @@ import { parameterIndex } from "./parameterModel.ts";
 import { bandStepsMemo, bandStepsStore } from "./bandStepsMemo.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
-import { fitStatus, peakChargingEnergy } from "./fitStatus.ts";
+import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
-import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 import { refineGrouping } from "./refineGrouping.ts";
+import { shiftGrouping } from "./shiftGrouping.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
@@ -96,7 +96,9 @@ export const FIT_DEFAULTS = Object.freeze({
   /**
    * The assignment's fit settles the question (no other grouping is compared unless asked) when
    * the rules decided the regime and its reduced χ² is at most this: a model that reaches the noise
-   * leaves nothing for another grouping to explain.
+   * leaves nothing for another grouping to explain. Unless its residuals show structure or its Ec
+   * lies far from the peak-based one (the limits of FIT_STATUS_DEFAULTS, poorResidualZ and
+   * poorChargingSigmas, on the peak-based error alone): what the status would call poor is not decisive.
    */
   decisiveChiSquare: 2,
   /**
@@ -190,7 +192,8 @@ export const FIT_DEFAULTS = Object.freeze({
  *    reduced χ² when the model does not reach the noise).
  * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
  *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
- *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), or
+ *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), structured
+ *    residuals or an Ec far from the peak-based one (see decisiveChiSquare), or
  *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
@@ -288,6 +291,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const started = Date.now();
 
   const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
+  const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
   // Band solutions shared by every run: hypotheses that share a band's levels, and the runs of one
   // hypothesis (explored, finished, fitted to the whole curve), solve it once.
   const bandStore = bandStepsStore();
@@ -298,7 +302,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
     const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
-    const project = (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
+    const project = projectorOf(set);
     const evaluate = (p: ArrayLike<number>) => project(current(p, set.biasV));
     let cacheKey = "";
     let cacheOut = new Float64Array(set.n);
@@ -344,7 +348,16 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare;
+  // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
+  // residuals, or an Ec far from the peak-based one.
+  const hidden = (t: FitTrial) => {
+    const model = projectorOf(t.set)(bandStepsMemo(t.hypothesis.seeds, eta, temperatureK, bandStore)(t.loop.parameters, t.set.biasV)).out;
+    const z = residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
+    const peakEc = peakChargingEnergy(analysis, eta);
+    const ec = t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy];
+    return z > FIT_STATUS_DEFAULTS.poorResidualZ || (peakEc !== null && Math.abs(ec - peakEc.valueEV) > FIT_STATUS_DEFAULTS.poorChargingSigmas * peakEc.standardErrorEV);
+  };
+  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare && !hidden(assignedTrial);
   const compared = (compareModels || !decisive) && !alone && comparable;
   const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
   /** Whole-curve fit → the CB-side fit it was started from. */
@@ -392,31 +405,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     trials.push(...cbFinals);
     // A grouping that settles well above the noise may be one Ec off (its first charging peak
     // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
+    const context = { cbOnly, trials, eta, exploreIterations: explore, maxIterations, run: (hc: FitHypothesis, iterations: number, from?: number[]) => run(hc, null, iterations, from, cbSide) };
     cbFinals.forEach((t, i) => {
-      if (t.hypothesis.kind === "assigned" || reduced(t) <= F.shiftChiSquare) return;
-      const at = parameterIndex(t.hypothesis.seeds.length);
-      const ecV = t.loop.parameters[at.chargingEnergy] / eta;
-      const original = [...cbOnly.entries()].find(([, hc]) => hc === t.hypothesis)![0];
-      for (const sign of [-1, 1]) {
-        const shift = (x: LevelSeed): LevelSeed => (x.band === "CB" ? { ...x, firstPeakV: x.firstPeakV + sign * ecV } : x);
-        const moved = { chargingEnergyStartEV: t.loop.parameters[at.chargingEnergy], rateRatioStartLog10: t.loop.parameters[at.logRateRatio] };
-        const full: FitHypothesis = { ...original, name: `${original.name} ${sign < 0 ? "−" : "+"}Ec`, label: `${original.label}, every level one Ec ${sign < 0 ? "lower" : "higher"}`, seeds: original.seeds.map(shift), ...moved };
-        const hc: FitHypothesis = { ...full, seeds: t.hypothesis.seeds.map(shift), vbReadings: [[]] };
-        if (hc.seeds.some((x) => x.firstPeakV <= 0)) continue;
-        cbOnly.set(full, hc);
-        const explored = run(hc, null, explore, undefined, cbSide);
-        trials.push(explored);
-        if (explored.bic >= cbFinals[i].bic) continue;
-        const done = { ...run(hc, null, maxIterations, explored.loop.parameters, cbSide), rateRatio0: explored.rateRatio0 };
-        trials.push(done);
-        if (done.bic < cbFinals[i].bic) cbFinals[i] = done;
-      }
+      if (t.hypothesis.kind !== "assigned" && reduced(t) > F.shiftChiSquare) cbFinals[i] = shiftGrouping(t, context) ?? t;
     });
     // The best grouping so far from further starts about its own fitted values (its p shell split
     // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
     // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
-    const refine = (top: FitTrial) =>
-      refineGrouping(top, { cbOnly, trials, eta, exploreIterations: Math.min(explore, F.refinementIterations), maxIterations, run: (hc, iterations, from) => run(hc, null, iterations, from, cbSide) });
+    const refine = (top: FitTrial) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations) });
     // First round: the best refinedGroupings groupings; then the best again while refining helps.
     let latest = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings).map(refine).filter((t): t is FitTrial => t !== null);
     for (let round = 1; latest.length && round <= F.refinementRounds; round++) {

@@ -25,3 +25,4 @@ export { residualStructure, type ResidualStructure } from "./residualStructure.t
 export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } from "./fitStatus.ts";
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
 export { refineGrouping, type RefineContext } from "./refineGrouping.ts";
+export { shiftGrouping } from "./shiftGrouping.ts";

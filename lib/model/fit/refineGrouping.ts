@@ -19,8 +19,8 @@ export interface RefineContext {
   exploreIterations: number;
   /** Iterations of the finishing run. */
   maxIterations: number;
-  /** One Levenberg–Marquardt run of a CB-side hypothesis on the CB side of the curve, from the given parameters. */
-  run: (hc: FitHypothesis, iterations: number, from: number[]) => FitTrial;
+  /** One Levenberg–Marquardt run of a CB-side hypothesis on the CB side of the curve, from the given parameters (absent: from its seeds). */
+  run: (hc: FitHypothesis, iterations: number, from?: number[]) => FitTrial;
 }
 
 /**
