@@ -130,7 +130,8 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
   for (const name of input.atBound) failed.push(`${name} ended on a bound of the fit (a degenerate solution)`);
   if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
   if (poor.length) return { status: "poor", reasons: poor };
-  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, Ec and Γtip/Γsub determined`] };
+  const clean = structure ? `, no structure in the residuals (largest run ${structure.largestZ.toFixed(1)} σ ≤ ${D.poorResidualZ})` : "";
+  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, Ec and Γtip/Γsub determined${clean}`] };
 }
 
 /**

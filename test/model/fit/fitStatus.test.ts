@@ -42,7 +42,9 @@ describe("fitStatus(input)", () => {
     const structured = fitStatus({ ...ok, residualStructure: { largestZ: 6.2, atBiasV: 1.542, windowPoints: 4 } });
     expect(structured.status).toBe("poor");
     expect(structured.reasons.join(" ")).toMatch(/structure .* near 1\.542 V .*6\.2 σ over 4 points/);
-    expect(fitStatus({ ...ok, residualStructure: { largestZ: 4.9, atBiasV: 1.5, windowPoints: 4 } }).status).toBe("good");
+    const clean = fitStatus({ ...ok, residualStructure: { largestZ: 4.9, atBiasV: 1.5, windowPoints: 4 } });
+    expect(clean.status).toBe("good");
+    expect(clean.reasons[0]).toMatch(/no structure in the residuals \(largest run 4\.9 σ ≤ 5\)/);
   });
   it("poor when Ec is more than 5 combined σ from the peak-based Ec, both reading a charging ladder", () => {
     // Combined σ = √(1² + 3²) meV = 3.162 meV (closed form); 0.1 vs 0.117 eV is 5.4 σ, vs 0.115 eV 4.7 σ.
