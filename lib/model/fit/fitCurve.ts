@@ -79,7 +79,7 @@ export const FIT_DEFAULTS = Object.freeze({
   exploreIterations: 8,
   /**
    * An explored start whose reduced χ² after its first chunkIterations is above this many times the
-   * best start's is not explored further (it cannot reach the finalists).
+   * best start's is not explored further (so far behind, it would not be among the finalists).
    */
   exploreDropRatio: 4,
   /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
