@@ -10,6 +10,7 @@
  *   npm run bench:fit -- --n 20 --seed 101 --compare-models --verbose
  *   npm run bench:fit -- --method exact        # simulate with the exact master equation
  */
+import { loadavg } from "node:os";
 import { simulateCurve } from "../lib/model/simulate.ts";
 import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRanges } from "../lib/model/syntheticSpectrum.ts";
 import { analyzeCurve } from "../lib/pipeline/analyzeCurve.ts";
@@ -39,9 +40,17 @@ interface Row {
   status: string;
   /** Reduced χ² of the fit reported. */
   chi: number;
+  /** Largest |Σ r|/√w of its residuals over a peak's width (residualStructure). */
+  z: number;
   ms: number;
+  /** CPU time of the fit's thread (process.cpuUsage: user + system), ms: less sensitive to other jobs on the machine than the wall time. */
+  cpuMs: number;
 }
 const rows: Row[] = [];
+const cpuSince = (c0: NodeJS.CpuUsage) => {
+  const d = process.cpuUsage(c0);
+  return (d.user + d.system) / 1000;
+};
 const curveOf = (seed: number) => {
   const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
   const sim = simulateCurve(scenario, { method, conductance: false });
@@ -55,14 +64,16 @@ for (let k = 0; k < count; k++) {
   const seed = firstSeed + k;
   const { analysis, truth } = curveOf(seed);
   const t0 = performance.now();
+  const c0 = process.cpuUsage();
   let fit;
   try {
     fit = fitCurve(analysis, { compareModels });
   } catch (err) {
-    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", chi: NaN, ms: performance.now() - t0 });
+    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", chi: NaN, z: NaN, ms: performance.now() - t0, cpuMs: cpuSince(c0) });
     continue;
   }
   const ms = performance.now() - t0;
+  const cpuMs = cpuSince(c0);
   const regime = truthRegime(truth.rateRatio);
   const usable = fit.status !== "failed";
   const row = {
@@ -72,13 +83,16 @@ for (let k = 0; k < count; k++) {
     ratioWithin: usable && Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio)) <= Math.log(1.5),
     status: fit.status,
     chi: fit.reducedChiSquare,
+    z: fit.residualStructure.largestZ,
     ms,
+    cpuMs,
   };
   rows.push(row);
-  if (verbose && !(row.regimeRight && row.ecWithin && row.ratioWithin)) {
+  if (verbose && (!(row.regimeRight && row.ecWithin && row.ratioWithin) || fit.status !== "good")) {
     console.log(
       `seed ${seed} r=${truth.rateRatio.toFixed(3)} Ec=${(truth.chargingEnergyEV * 1e3).toFixed(0)}meV η=${truth.eta.toFixed(2)} split=${truth.pSubgroups.join("+")} rules=${analysis.assignment.regime}: ` +
-        `${fit.status} ${fit.hypothesis} → ${fit.regime}, Ec ${(fit.chargingEnergyEV.value * 1e3).toFixed(1)} meV, r ${fit.rateRatio.value.toPrecision(3)}, χ²_red ${fit.reducedChiSquare.toPrecision(3)}, ${ms.toFixed(0)} ms`,
+        `${fit.status} ${fit.hypothesis} → ${fit.regime}, Ec ${(fit.chargingEnergyEV.value * 1e3).toFixed(1)} meV, r ${fit.rateRatio.value.toPrecision(3)}, χ²_red ${fit.reducedChiSquare.toPrecision(3)}, residual structure ${fit.residualStructure.largestZ.toFixed(1)} σ, ${ms.toFixed(0)} ms` +
+        (fit.status === "good" ? "" : ` (${fit.statusReasons.join("; ")})`),
     );
   }
 }
@@ -96,18 +110,23 @@ for (const regime of ["shell-tunneling", "intermediate", "shell-filling", "all"]
 }
 // Reduced χ² reached by the fits that got all three right, and by the rest: where the status
 // limits of fitStatus should fall on noise-calibrated simulated curves.
-const chiQuantiles = (set: Row[]) => {
-  const c = set.map((r) => r.chi).filter(Number.isFinite).sort((a, b) => a - b);
+const chiQuantiles = (set: Row[], key: "chi" | "z" = "chi") => {
+  const c = set.map((r) => r[key]).filter(Number.isFinite).sort((a, b) => a - b);
   const at = (p: number) => (c.length ? c[Math.min(c.length - 1, Math.floor(p * c.length))].toPrecision(3) : "—");
   return `${c.length} fits, median ${at(0.5)}, 90th pct ${at(0.9)}, max ${c.length ? c[c.length - 1].toPrecision(3) : "—"}`;
 };
 const right = (r: Row) => r.regimeRight && r.ecWithin && r.ratioWithin;
 lines.push(`reduced χ², all three right: ${chiQuantiles(rows.filter(right))}; the rest: ${chiQuantiles(rows.filter((r) => !right(r)))}`);
+lines.push(`residual structure (σ), all three right: ${chiQuantiles(rows.filter(right), "z")}; the rest: ${chiQuantiles(rows.filter((r) => !right(r)), "z")}`);
 const statusesOf = (set: Row[]) => ["good", "poor", "failed"].map((s) => `${s} ${set.filter((r) => r.status === s).length}`).join(", ");
 lines.push(`status, all three right: ${statusesOf(rows.filter(right))}; the rest: ${statusesOf(rows.filter((r) => !right(r)))}`);
 const times = rows.map((r) => r.ms).sort((a, b) => a - b);
 const q = (p: number) => times[Math.min(times.length - 1, Math.floor(p * times.length))];
-lines.push(`time per fit: median ${q(0.5).toFixed(0)} ms, 90th percentile ${q(0.9).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms`);
+const cpu = rows.map((r) => r.cpuMs).sort((a, b) => a - b);
+const qc = (p: number) => cpu[Math.min(cpu.length - 1, Math.floor(p * cpu.length))];
+lines.push(
+  `time per fit: median ${q(0.5).toFixed(0)} ms, 90th percentile ${q(0.9).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms (CPU time: median ${qc(0.5).toFixed(0)} ms, 90th percentile ${qc(0.9).toFixed(0)} ms); load average ${loadavg().map((x) => x.toFixed(1)).join(", ")}`,
+);
 lines.push(
   `Γtip/Γsub ${ratioRange[0]}–${ratioRange[1]} (log-uniform), ${compareModels ? "--compare-models" : "default comparison (only where the rules are not decisive)"}, ${method} simulation, seeds ${firstSeed}…${firstSeed + count - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`,
 );

@@ -85,7 +85,7 @@ export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettin
 // Physics model.
 export { parseScenario, biasAxis, SCENARIO_DEFAULTS, type Scenario, type Level, type BiasSweep, type NoiseSpec } from "./model/scenario.ts";
 export { simulateCurve, lockInKernel, scenarioModel, SIMULATE_DEFAULTS, type SimulateOptions, type SimulatedCurve } from "./model/simulate.ts";
-export { bandLadders, exactCurrent, currentSteps, fastCurrent, fastConductance, type DotModel, type CurrentStep } from "./model/bandCurrent.ts";
+export { bandLadders, exactCurrent, currentSteps, fastCurrent, fastConductance, type DotModel, type CurrentStep, type CurrentStepsOptions } from "./model/bandCurrent.ts";
 export { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime, type SyntheticRanges, type SyntheticTruth } from "./model/syntheticSpectrum.ts";
 export { REGIME_LIMITS, secondToFirstStepRatio, rateRatioFromStepRatio, levelStepRatio, substrateToTipStepRatio } from "./model/regimeLimits.ts";
 
@@ -103,7 +103,7 @@ export type { CurveFigureOptions } from "./report/curveFigure.ts";
 export type { ModelCurve, ModelFigureOptions } from "./report/modelFigure.ts";
 
 // Model fit.
-export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed } from "./model/fit/index.ts";
+export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed, type ResidualStructure } from "./model/fit/index.ts";
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";

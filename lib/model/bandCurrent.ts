@@ -2,7 +2,7 @@
  * The current of a whole dot, both bands, at many biases: exact (thermal Fermi functions, every
  * bias solved) or as a sum of broadened steps between zero-temperature plateaus (fast, for fitting).
  */
-import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, SATURATION_KT, type JunctionParams, type Ladder } from "./ladder.ts";
+import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, zeroTemperaturePattern, SATURATION_KT, type JunctionParams, type Ladder } from "./ladder.ts";
 import { normalCdf, fermi } from "../util/special.ts";
 import type { Level } from "./scenario.ts";
 
@@ -159,6 +159,24 @@ export interface CurrentStep {
   thermalWidthV: number;
 }
 
+/** Options of {@link currentSteps}. */
+export interface CurrentStepsOptions {
+  /**
+   * Lowest sample bias in V whose steps are wanted: steps below it are left out and their
+   * heights go into baseA (the current at fromV is unchanged). Default: −Infinity (every step).
+   */
+  fromV?: number;
+  /** Highest sample bias in V whose steps are wanted (steps above it are left out). Default: +Infinity (every step). */
+  toV?: number;
+  /**
+   * Plateau currents already solved, by band ("cb", "vb") and {@link zeroTemperaturePattern}:
+   * read and filled in, so that models of the same ladder structure (the same degeneracies and
+   * order; a caller that varies the energies keeps one store per structure) solve each
+   * zero-temperature rate matrix once. Default: none (every plateau solved).
+   */
+  plateauStore?: { cb: Map<string, number>; vb: Map<string, number> };
+}
+
 /**
  * The zero-temperature current of a dot as plateaus and steps:
  * I(V) = baseA + Σ heightA·H(V − biasV).
@@ -169,12 +187,14 @@ export interface CurrentStep {
  *     The dot and the junction.
  * ladders : BandLadders, optional
  *     Prebuilt ladders. Default: bandLadders(model).
+ * options : CurrentStepsOptions, optional
+ *     fromV, toV: the window of sample bias (V) whose steps are wanted. Default: every step.
  *
  * Returns
  * -------
  * { baseA: number; steps: CurrentStep[] }
- *     The current below every step (A) and the steps sorted by bias: position (V), height (A),
- *     thermal width (V).
+ *     The current below every step of the window (A) and the steps in it sorted by bias:
+ *     position (V), height (A), thermal width (V).
  *
  * Throws
  * ------
@@ -187,6 +207,13 @@ export interface CurrentStep {
  *    temperature) at the middle of each plateau (and 1 V beyond the outer crossings).
  * 3. Each step's height is the difference of the plateaus either side; zero steps are dropped.
  * 4. The VB hole ladder runs at −V: its crossings and steps mirror to negative sample bias.
+ * 5. With a plateau store, a plateau whose zero-temperature rate matrix was solved before (the
+ *    same {@link zeroTemperaturePattern}) takes the stored current: the same number.
+ * 6. With a window, only the crossings inside it and the plateaus either side of them are
+ *    solved; baseA is the plateau below the window's first step, so the current inside the
+ *    window is the same (to round-off). A fit passes its data's bias range widened by the reach of
+ *    the broadening (9σ in {@link fastCurrent}), which leaves its model current unchanged while
+ *    the substrate-junction crossings far outside and the highest charge states are not solved.
  *
  * Example
  * -------
@@ -198,13 +225,17 @@ export interface CurrentStep {
  * //    (V, A; the negative ones are the substrate-junction crossings −E/(1 − η))
  * ```
  */
-export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders(model)): { baseA: number; steps: CurrentStep[] } {
+export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders(model), options: CurrentStepsOptions = {}): { baseA: number; steps: CurrentStep[] } {
+  const fromV = options.fromV ?? -Infinity;
+  const toV = options.toV ?? Infinity;
   let baseA = 0;
   const steps: CurrentStep[] = [];
   for (const [band, sign] of BANDS) {
     const ladder = ladders[band];
     if (!ladder) continue;
-    const work = ladderWorkspace(ladder);
+    let work: ReturnType<typeof ladderWorkspace> | null = null;
+    const store = options.plateauStore?.[band];
+    const ratesKey = `${model.tipRatePerS}|${model.substrateRatePerS}|${model.relaxationRatePerS}|`;
     const crossings = ladderCrossings(ladder, model);
     // Merge crossings closer than 1e-12 V (degenerate keys).
     const merged: typeof crossings = [];
@@ -217,28 +248,39 @@ export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders
       // Plateau i lies between merged[i−1] and merged[i].
       const left = i === 0 ? merged[0].biasV - 1 : merged[i - 1].biasV;
       const right = i === merged.length ? merged[merged.length - 1].biasV + 1 : merged[i].biasV;
-      return sign * ladderCurrent(ladder, model, (left + right) / 2, work, true);
+      const v = (left + right) / 2;
+      if (!store) return sign * ladderCurrent(ladder, model, v, (work ??= ladderWorkspace(ladder)), true);
+      const key = zeroTemperaturePattern(ladder, model, v, ratesKey);
+      let current = store.get(key);
+      if (current === undefined) {
+        current = ladderCurrent(ladder, model, v, (work ??= ladderWorkspace(ladder)), true);
+        store.set(key, current);
+      }
+      return sign * current;
     };
-    let previous = plateauAt(0);
-    const plateaus = [previous];
-    for (let i = 1; i <= merged.length; i++) {
-      const current = plateauAt(i);
-      plateaus.push(current);
-      previous = current;
-    }
+    // The crossings inside the window (in this ladder's bias: the hole ladder runs at −V):
+    // merged[first … last − 1]; the plateaus either side of them, first … last.
+    const lo = sign > 0 ? fromV : -toV;
+    const hi = sign > 0 ? toV : -fromV;
+    let first = 0;
+    while (first < merged.length && merged[first].biasV < lo) first++;
+    let last = first;
+    while (last < merged.length && merged[last].biasV <= hi) last++;
+    const plateaus: number[] = [];
+    for (let i = first; i <= last; i++) plateaus.push(plateauAt(i));
     // In sample bias: the hole ladder runs at −V, so its crossings and steps mirror.
     if (sign > 0) {
       baseA += plateaus[0];
-      merged.forEach((c, i) => {
-        const h = plateaus[i + 1] - plateaus[i];
-        if (h !== 0) steps.push({ biasV: c.biasV, heightA: h, thermalWidthV: c.thermalWidthV });
-      });
+      for (let i = first; i < last; i++) {
+        const h = plateaus[i + 1 - first] - plateaus[i - first];
+        if (h !== 0) steps.push({ biasV: merged[i].biasV, heightA: h, thermalWidthV: merged[i].thermalWidthV });
+      }
     } else {
       baseA += plateaus[plateaus.length - 1];
-      merged.forEach((c, i) => {
-        const h = plateaus[i] - plateaus[i + 1];
-        if (h !== 0) steps.push({ biasV: -c.biasV, heightA: h, thermalWidthV: c.thermalWidthV });
-      });
+      for (let i = first; i < last; i++) {
+        const h = plateaus[i - first] - plateaus[i + 1 - first];
+        if (h !== 0) steps.push({ biasV: -merged[i].biasV, heightA: h, thermalWidthV: merged[i].thermalWidthV });
+      }
     }
   }
   steps.sort((a, b) => a.biasV - b.biasV);
@@ -345,8 +387,39 @@ export function fastConductance(
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
 
+/** Whether the biases ascend (not strictly). */
+function ascending(biasV: ArrayLike<number>): boolean {
+  for (let i = 1; i < biasV.length; i++) if (!(biasV[i] >= biasV[i - 1])) return false;
+  return true;
+}
+
+/** First index i in [from, n) with biasV[i] − at > −reach (not below the reach), biasV ascending. */
+function firstWithin(biasV: ArrayLike<number>, at: number, reach: number, from: number): number {
+  let lo = from, hi = biasV.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (biasV[mid] - at < -reach) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/** First index i in [from, n) with biasV[i] − at > reach (past the reach), biasV ascending. */
+function firstBeyond(biasV: ArrayLike<number>, at: number, reach: number, from: number): number {
+  let lo = from, hi = biasV.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (biasV[mid] - at > reach) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo;
+}
+
 function fastSum(steps: { baseA: number; steps: CurrentStep[] }, biasV: ArrayLike<number>, broadeningV: number, derivative: boolean): Float64Array {
   const out = new Float64Array(biasV.length).fill(derivative ? 0 : steps.baseA);
+  // Ascending biases (a fit's data, a simulated sweep): each step touches only the points within
+  // its reach, and the full heights of the steps passed are added once as a running sum.
+  if (broadeningV > 0 && ascending(biasV)) return fastSumAscending(steps, biasV, broadeningV, derivative, out);
   for (const step of steps.steps) {
     const h = step.heightA;
     if (broadeningV > 0) {
@@ -365,6 +438,36 @@ function fastSum(steps: { baseA: number; steps: CurrentStep[] }, biasV: ArrayLik
         const f = fermi(-(biasV[i] - step.biasV) / w);
         out[i] += derivative ? (h * f * (1 - f)) / w : h * f;
       }
+    }
+  }
+  return out;
+}
+
+/** {@link fastSum} on ascending biases: the same terms, each step evaluated only within its reach. */
+function fastSumAscending(steps: { baseA: number; steps: CurrentStep[] }, biasV: ArrayLike<number>, broadeningV: number, derivative: boolean, out: Float64Array): Float64Array {
+  const n = biasV.length;
+  // passed[i]: the heights of the steps whose reach ends just before point i.
+  const passed = derivative ? null : new Float64Array(n + 1);
+  for (const step of steps.steps) {
+    const h = step.heightA;
+    const thermalSigma = (Math.PI / Math.sqrt(3)) * step.thermalWidthV;
+    const sigma = Math.sqrt(broadeningV * broadeningV + thermalSigma * thermalSigma);
+    const reach = 9 * sigma;
+    const start = firstWithin(biasV, step.biasV, reach, 0);
+    const end = firstBeyond(biasV, step.biasV, reach, start);
+    for (let i = start; i < end; i++) {
+      const d = biasV[i] - step.biasV;
+      if (derivative) {
+        if (Math.abs(d) < reach) out[i] += ((h * INV_SQRT_2PI) / sigma) * Math.exp((-0.5 * d * d) / (sigma * sigma));
+      } else out[i] += h * normalCdf(d / sigma);
+    }
+    if (passed) passed[end] += h;
+  }
+  if (passed) {
+    let sum = 0;
+    for (let i = 0; i < n; i++) {
+      sum += passed[i];
+      out[i] += sum;
     }
   }
   return out;

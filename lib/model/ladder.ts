@@ -222,6 +222,85 @@ export function buildLadder(levels: readonly Level[], chargingEnergyEV: number):
   };
 }
 
+/**
+ * The key of a ladder's structure: what {@link buildLadder} builds beyond the addition energies.
+ *
+ * Parameters
+ * ----------
+ * levels : readonly Level[]
+ *     Levels in filling order: energy (eV) and degeneracy.
+ *
+ * Returns
+ * -------
+ * string
+ *     The degeneracies in order, and every pair j < k whose energies are not strictly ascending
+ *     (the relaxation transitions depend on that order and on nothing else of the energies).
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. Two level lists with the same key give ladders that differ only in `levels`,
+ *    `chargingEnergyEV` and `keyEnergyEV` ({@link ladderWithEnergies}).
+ *
+ * Example
+ * -------
+ * ```ts
+ * ladderStructureKey([{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }]); // => "2,6|"
+ * ladderStructureKey([{ energyEV: 0.8, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 4 }]); // => "2,4|0<1"
+ * ```
+ */
+export function ladderStructureKey(levels: readonly Level[]): string {
+  const ties: string[] = [];
+  for (let k = 1; k < levels.length; k++) for (let j = 0; j < k; j++) if (!(levels[j].energyEV < levels[k].energyEV)) ties.push(`${j}<${k}`);
+  return `${levels.map((l) => l.degeneracy).join(",")}|${ties.join(" ")}`;
+}
+
+/**
+ * A ladder of the same structure at new level energies and Ec, without enumerating its states
+ * again.
+ *
+ * Parameters
+ * ----------
+ * ladder : Ladder
+ *     From {@link buildLadder}, of levels with the same {@link ladderStructureKey} as `levels`.
+ * levels : readonly Level[]
+ *     The new levels (eV, same degeneracies, same order).
+ * chargingEnergyEV : number
+ *     The new Ec in eV.
+ *
+ * Returns
+ * -------
+ * Ladder
+ *     Equal to buildLadder(levels, chargingEnergyEV): the states and transitions shared with
+ *     `ladder`, new addition energies.
+ *
+ * Throws
+ * ------
+ * Nothing (the caller checks the structure key).
+ *
+ * Notes
+ * -----
+ * 1. keyEnergyEV[j·maxCarriers + N] = ε_j + Ec·(N + ½), as in {@link buildLadder} step 3.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const a = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
+ * ladderWithEnergies(a, [{ energyEV: 0.6, degeneracy: 2 }], 0.2).keyEnergyEV; // => [0.7, 0.9]
+ * ```
+ */
+export function ladderWithEnergies(ladder: Ladder, levels: readonly Level[], chargingEnergyEV: number): Ladder {
+  const keyCount = Math.max(levels.reduce((s, l) => s + l.degeneracy, 0), 1);
+  const keyEnergyEV = new Float64Array(levels.length * keyCount);
+  for (let j = 0; j < levels.length; j++) {
+    for (let N = 0; N < keyCount; N++) keyEnergyEV[j * keyCount + N] = levels[j].energyEV + chargingEnergyEV * (N + 0.5);
+  }
+  return { ...ladder, levels, chargingEnergyEV, keyEnergyEV };
+}
+
 /** |x| (in kB·T) beyond which a Fermi factor is taken as exactly 0 or 1 (e^−36 ≈ 2e−16). */
 export const SATURATION_KT = 36;
 
@@ -377,6 +456,62 @@ export function ladderCurrent(
     flow += tunnelSign[t] > 0 ? p * tunnelSlots[t] * gt * tipIn[k] : -p * tunnelSlots[t] * gt * tipOut[k];
   }
   return ELEMENTARY_CHARGE_C * flow;
+}
+
+/**
+ * What a zero-temperature solve of {@link ladderCurrent} depends on at one bias, as a string:
+ * the rates and, for every addition energy, whether the tip and the substrate can add a carrier.
+ *
+ * Parameters
+ * ----------
+ * ladder : Ladder
+ *     From {@link buildLadder}.
+ * params : JunctionParams
+ *     η and the tip, substrate and relaxation rates (1/s) are used.
+ * biasV : number
+ *     Bias in V (this ladder's electron-like sign).
+ * ratesKey : string, optional
+ *     The rates part of the pattern, for a caller that evaluates many biases at the same rates.
+ *     Default: `${Γtip}|${Γsub}|${Γrelax}|`.
+ *
+ * Returns
+ * -------
+ * string
+ *     Equal for two biases (or two ladders of one structure, {@link ladderStructureKey}) exactly
+ *     when their zero-temperature rate matrices are equal, so that {@link ladderCurrent} with
+ *     zeroTemperature gives the same current for both.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. The rates Γtip, Γsub, Γrelax (the transitions are the structure's).
+ * 2. Per addition energy E: the signs of a = (E − η·e·V)/kT and of b = a + e·V/kT ("+" above,
+ *    "-" below, "0" on or undefined), computed as {@link ladderCurrent} computes them, which fix
+ *    its step Fermi factors f(±a), f(±b) (its note 1).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
+ * const params = { chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+ * zeroTemperaturePattern(ladder, params, 0.75); // => "1000000000|100000000|1000000000000|-+++"
+ * ```
+ */
+export function zeroTemperaturePattern(ladder: Ladder, params: JunctionParams, biasV: number, ratesKey = `${params.tipRatePerS}|${params.substrateRatePerS}|${params.relaxationRatePerS}|`): string {
+  const { keyEnergyEV } = ladder;
+  // The same arithmetic as ladderCurrent's, so that the signs are its signs.
+  const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
+  const codes = new Array<number>(2 * keyEnergyEV.length);
+  const sign = (x: number) => (x > 0 ? 43 : x < 0 ? 45 : 48); // "+", "-", "0"
+  for (let k = 0; k < keyEnergyEV.length; k++) {
+    const a = (keyEnergyEV[k] - params.eta * biasV) / kT;
+    codes[2 * k] = sign(a);
+    codes[2 * k + 1] = sign(a + biasV / kT);
+  }
+  return ratesKey + String.fromCharCode(...codes);
 }
 
 /**

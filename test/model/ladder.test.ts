@@ -5,6 +5,7 @@ import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { fwhm } from "../helpers/lineShape.ts";
 import { bandLadders, exactCurrent, currentSteps, fastCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
+import { buildLadder, ladderCurrent, ladderStructureKey, ladderWithEnergies, ladderWorkspace, zeroTemperaturePattern } from "../../lib/model/ladder.ts";
 import { ELEMENTARY_CHARGE_C as E, BOLTZMANN_EV_PER_K as KB, FERMI_DERIVATIVE_FWHM_KT } from "../../lib/util/constants.ts";
 
 function model(partial: Partial<DotModel>): DotModel {
@@ -169,5 +170,32 @@ describe("fastCurrent(currentSteps(model), biasV, broadeningV)", () => {
       }
       expectClose(fast[k], s / w, { atol: 2e-3 * full, what: `V=${v}` });
     });
+  });
+});
+
+describe("ladderStructureKey, ladderWithEnergies, zeroTemperaturePattern: one structure, new energies", () => {
+  const params = { chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+  it("keys the structure by degeneracies and ties only (exact)", () => {
+    expect(ladderStructureKey([{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }])).toBe("2,6|");
+    expect(ladderStructureKey([{ energyEV: 0.8, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 4 }])).toBe("2,4|0<1");
+    expect(ladderStructureKey([{ energyEV: 0.6, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 6 }])).toBe(ladderStructureKey([{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }]));
+  });
+  it("gives the ladder buildLadder builds at the new energies, with the addition energies ε + Ec·(N + ½) (closed form)", () => {
+    const a = buildLadder([{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 4 }], 0.1);
+    const levels = [{ energyEV: 0.55, degeneracy: 2 }, { energyEV: 0.7, degeneracy: 4 }];
+    const moved = ladderWithEnergies(a, levels, 0.12);
+    expect(moved).toEqual(buildLadder(levels, 0.12));
+    expectClose(Array.from(moved.keyEnergyEV.slice(0, 2)), [0.55 + 0.06, 0.55 + 0.18], { rtol: 1e-15 });
+  });
+  it("zero-temperature currents agree wherever the pattern agrees, and the example pattern is as documented", () => {
+    const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
+    expect(zeroTemperaturePattern(ladder, params, 0.75)).toBe("1000000000|100000000|1000000000000|-+++");
+    // 0.7 and 0.8 V lie between the same crossings (0.6875, 0.8125): one pattern, one current,
+    // the closed form e·Γs·2r/(1 + 2r) at r = 10.
+    expect(zeroTemperaturePattern(ladder, params, 0.7)).toBe(zeroTemperaturePattern(ladder, params, 0.8));
+    const at = (v: number) => ladderCurrent(ladder, params, v, ladderWorkspace(ladder), true);
+    expect(at(0.7)).toBe(at(0.8));
+    expectClose(at(0.7), (E * 1e8 * 20) / 21, { rtol: 1e-9, what: "e·Γs·2r/(1 + 2r)" });
+    expect(zeroTemperaturePattern(ladder, params, 0.85)).not.toBe(zeroTemperaturePattern(ladder, params, 0.8));
   });
 });

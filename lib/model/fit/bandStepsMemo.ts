@@ -4,16 +4,55 @@
  * was, so finite differences do not solve it again.
  */
 import { currentSteps, fastCurrent, type CurrentStep, type DotModel } from "../bandCurrent.ts";
+import { buildLadder, ladderStructureKey, ladderWithEnergies, type Ladder } from "../ladder.ts";
+import type { Level } from "../scenario.ts";
+import { BOLTZMANN_EV_PER_K } from "../../util/constants.ts";
 import { parameterModel } from "./parameterModel.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
 
 /** Size of {@link bandStepsMemo}'s store (locked by test/model/fit/bandStepsMemo.test.ts). */
 export const BAND_STEPS_MEMO_DEFAULTS = Object.freeze({
   /** Most band solutions kept per band; the oldest goes first. */
-  entriesPerBand: 64,
+  entriesPerBand: 256,
+  /** V added to the reach of the broadened steps (9σ) either side of the data when a band's steps are solved over the data's bias range only. */
+  windowMarginV: 0.05,
+  /** Most zero-temperature plateau currents kept per ladder structure (the store is emptied when full). */
+  plateausPerStructure: 20000,
 });
 
-type BandSteps = { baseA: number; steps: CurrentStep[] };
+/** One band's steps over a window of sample bias (V): steps outside it are in baseA or left out. */
+type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: number };
+
+/**
+ * The solutions {@link bandStepsMemo} keeps: each band's steps by its parameters (and η, T),
+ * and each ladder structure with its zero-temperature plateaus. One store may serve the memos of
+ * several sets of levels (the hypotheses of one fit): a band solution depends only on the band's
+ * own levels, Ec, Γtip/Γsub, η and T.
+ */
+export interface BandStepsStore {
+  bands: { cb: Map<string, BandSteps>; vb: Map<string, BandSteps> };
+  structures: Map<string, { ladder: Ladder; plateaus: Map<string, number> }>;
+}
+
+/**
+ * An empty {@link BandStepsStore}.
+ *
+ * Returns
+ * -------
+ * BandStepsStore
+ *     Empty maps; {@link bandStepsMemo} fills them.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const store = bandStepsStore();
+ * const a = bandStepsMemo(seedsA, 0.85, 4.5, store), b = bandStepsMemo(seedsB, 0.85, 4.5, store);
+ * // b finds the CB solutions a stored when the two share their CB levels.
+ * ```
+ */
+export function bandStepsStore(): BandStepsStore {
+  return { bands: { cb: new Map(), vb: new Map() }, structures: new Map() };
+}
 
 /**
  * A model-current function for one set of levels that solves each band's master equation once per
@@ -27,6 +66,9 @@ type BandSteps = { baseA: number; steps: CurrentStep[] };
  *     Voltage-division factor η.
  * temperatureK : number
  *     Temperature in K.
+ * store : BandStepsStore, optional
+ *     Where the solutions are kept; pass one store to the memos of several sets of levels to share
+ *     them. Default: a new store ({@link bandStepsStore}).
  *
  * Returns
  * -------
@@ -42,12 +84,20 @@ type BandSteps = { baseA: number; steps: CurrentStep[] };
  * Notes
  * -----
  * 1. The dot model of p ({@link parameterModel}).
- * 2. For each band, the key: its level energies and degeneracies, Ec and Γtip/Γsub; its steps from
- *    the store, else {@link currentSteps} of the band alone, stored (at most
- *    BAND_STEPS_MEMO_DEFAULTS.entriesPerBand per band, the oldest dropped).
- * 3. The two bands' steps merged and broadened by σ/η ({@link fastCurrent}).
- * The store belongs to the returned function alone (one per fitted hypothesis); nothing else
- * changes it.
+ * 2. The reach of the broadened steps, R = 9·√(σ_b² + σ_T²) + BAND_STEPS_MEMO_DEFAULTS.windowMarginV
+ *    (σ_b = σ/η; σ_T = π·kB·T/(√3·e·min(η, 1 − η)), the widest thermal step): a step farther than
+ *    R from every data point adds exactly 0 or its full height there ({@link fastCurrent}).
+ * 3. For each band, the key: its level energies and degeneracies, Ec and Γtip/Γsub; its steps from
+ *    the store when they cover the data's bias range ± R, else {@link currentSteps} of the band
+ *    alone over that range ± 2R (the substrate-junction crossings far outside and the highest
+ *    charge states are not solved), stored (at most BAND_STEPS_MEMO_DEFAULTS.entriesPerBand per
+ *    band, the oldest dropped). The band's ladder is built once per structure (degeneracies and
+ *    order, {@link ladderStructureKey}) and given new energies ({@link ladderWithEnergies}); its
+ *    zero-temperature plateaus are kept by {@link zeroTemperaturePattern} (currentSteps'
+ *    plateauStore, at most BAND_STEPS_MEMO_DEFAULTS.plateausPerStructure), so that moving a level
+ *    or Ec without reordering any crossing solves no master equation at all.
+ * 4. The two bands' steps merged and broadened by σ/η ({@link fastCurrent}).
+ * Nothing outside the memos given the store changes it.
  *
  * Example
  * -------
@@ -58,25 +108,66 @@ type BandSteps = { baseA: number; steps: CurrentStep[] };
  * current([0.6, 0.1, 1, -1.9], [0.7, 0.82, 1]); // the same steps, broadened by σ = 12.6 meV: no solve
  * ```
  */
-export function bandStepsMemo(seeds: readonly LevelSeed[], eta: number, temperatureK: number): (p: ArrayLike<number>, biasV: ArrayLike<number>) => Float64Array {
-  const stores = { cb: new Map<string, BandSteps>(), vb: new Map<string, BandSteps>() };
-  const bandSteps = (model: DotModel, band: "cb" | "vb"): BandSteps => {
+export function bandStepsMemo(
+  seeds: readonly LevelSeed[],
+  eta: number,
+  temperatureK: number,
+  store: BandStepsStore = bandStepsStore(),
+): (p: ArrayLike<number>, biasV: ArrayLike<number>) => Float64Array {
+  const { structures } = store;
+  const stores = store.bands;
+  const ladderOf = (levels: readonly Level[], chargingEnergyEV: number) => {
+    const key = ladderStructureKey(levels);
+    const known = structures.get(key);
+    if (known) {
+      if (known.plateaus.size > BAND_STEPS_MEMO_DEFAULTS.plateausPerStructure) known.plateaus.clear();
+      return { ladder: ladderWithEnergies(known.ladder, levels, chargingEnergyEV), plateaus: known.plateaus };
+    }
+    const built = { ladder: buildLadder(levels, chargingEnergyEV), plateaus: new Map<string, number>() };
+    structures.set(key, built);
+    return built;
+  };
+  const bandSteps = (model: DotModel, band: "cb" | "vb", fromV: number, toV: number, reachV: number): BandSteps => {
     const levels = model[band];
-    if (!levels.length) return { baseA: 0, steps: [] };
-    const key = `${levels.map((l) => `${l.energyEV}:${l.degeneracy}`).join(",")}|${model.chargingEnergyEV}|${model.tipRatePerS}`;
+    if (!levels.length) return { baseA: 0, steps: [], fromV: -Infinity, toV: Infinity };
+    const key = `${levels.map((l) => `${l.energyEV}:${l.degeneracy}`).join(",")}|${model.chargingEnergyEV}|${model.tipRatePerS}|${eta}|${temperatureK}`;
     const store = stores[band];
     const known = store.get(key);
-    if (known) return known;
-    const solved = currentSteps(band === "cb" ? { ...model, vb: [] } : { ...model, cb: [] });
-    if (store.size >= BAND_STEPS_MEMO_DEFAULTS.entriesPerBand) store.delete(store.keys().next().value!);
+    if (known && known.fromV <= fromV && known.toV >= toV) return known;
+    // Solved with twice the reach needed, so that a broader σ later finds it stored.
+    const wide = { fromV: fromV - reachV, toV: toV + reachV };
+    const alone = band === "cb" ? { ...model, vb: [] } : { ...model, cb: [] };
+    // The hole ladder is the mirrored one (bandLadders).
+    const own = ladderOf(band === "cb" ? levels : levels.map((l) => ({ energyEV: -l.energyEV, degeneracy: l.degeneracy })), model.chargingEnergyEV);
+    const ladders = band === "cb" ? { cb: own.ladder, vb: null } : { cb: null, vb: own.ladder };
+    const solved = { ...currentSteps(alone, ladders, { ...wide, plateauStore: { cb: own.plateaus, vb: own.plateaus } }), ...wide };
+    if (known) store.delete(key);
+    else if (store.size >= BAND_STEPS_MEMO_DEFAULTS.entriesPerBand) store.delete(store.keys().next().value!);
     store.set(key, solved);
     return solved;
   };
+  let rangeOf: ArrayLike<number> | null = null;
+  let lowV = 0, highV = 0;
   return (p, biasV) => {
+    if (biasV !== rangeOf) {
+      rangeOf = biasV;
+      lowV = Infinity;
+      highV = -Infinity;
+      for (let i = 0; i < biasV.length; i++) {
+        lowV = Math.min(lowV, biasV[i]);
+        highV = Math.max(highV, biasV[i]);
+      }
+    }
     const model = parameterModel(p, seeds, eta, temperatureK);
-    const cb = bandSteps(model, "cb");
-    const vb = bandSteps(model, "vb");
+    const broadeningV = 10 ** p[seeds.length + 2] / eta;
+    // The steps that reach the data: within 9σ of it, σ² = σ_b² + σ_T² (fastCurrent), with a
+    // margin; steps farther out add exactly 0 or their full height there.
+    const thermalSigmaV = ((Math.PI / Math.sqrt(3)) * BOLTZMANN_EV_PER_K * temperatureK) / Math.min(eta, 1 - eta || 1);
+    const reachV = 9 * Math.sqrt(broadeningV * broadeningV + thermalSigmaV * thermalSigmaV) + BAND_STEPS_MEMO_DEFAULTS.windowMarginV;
+    const fromV = lowV - reachV, toV = highV + reachV;
+    const cb = bandSteps(model, "cb", fromV, toV, reachV);
+    const vb = bandSteps(model, "vb", fromV, toV, reachV);
     const steps = [...cb.steps, ...vb.steps].sort((a, b) => a.biasV - b.biasV);
-    return fastCurrent({ baseA: cb.baseA + vb.baseA, steps }, biasV, 10 ** p[seeds.length + 2] / eta);
+    return fastCurrent({ baseA: cb.baseA + vb.baseA, steps }, biasV, broadeningV);
   };
 }

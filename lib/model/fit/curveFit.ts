@@ -3,6 +3,7 @@
  * the status, the hypothesis the values come from and every run tried.
  */
 import type { FitStatus } from "./fitStatus.ts";
+import type { ResidualStructure } from "./residualStructure.ts";
 
 /** One fitted parameter with its standard error. */
 export interface FittedValue {
@@ -27,7 +28,10 @@ export interface FitAlternative {
   /**
    * "assigned", the regime forced on the same peaks ("shell-filling", "shell-tunneling"), or a
    * charging ladder with its CB degeneracies ("ladder-filling 2+2+4", "ladder-empty 2+6", …),
-   * followed by " −Ec" or " +Ec" when retried with every CB level started one Ec lower or higher.
+   * followed by " −Ec" or " +Ec" when retried with every CB level started one Ec lower or higher,
+   * and by ", refined to <layout> (<change>)" when started from a grouping's fitted values with
+   * its p shell split or its rate ratio moved ("ladder-empty 2+6, refined to 2+2+4 (p split 2+4,
+   * sub-levels 53 meV apart)").
    */
   hypothesis: string;
   /** Regime of that grouping of the peaks ("intermediate" for a ladder entered from the empty dot). */
@@ -109,5 +113,10 @@ export interface CurveFit {
   regimeReason: string;
   /** Bias, data, model and residual on the points used, for plotting. */
   residuals: { biasV: Float64Array; currentA: Float64Array; modelA: Float64Array; residualA: Float64Array };
+  /**
+   * The most structured stretch of those residuals, a peak's width long ({@link residualStructure}):
+   * above FIT_STATUS_DEFAULTS.poorResidualZ (5) the status is poor and says where.
+   */
+  residualStructure: ResidualStructure;
   warnings: string[];
 }

@@ -9,18 +9,20 @@ import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { bandStepsMemo } from "./bandStepsMemo.ts";
-import { projectLinear } from "./projectLinear.ts";
+import { bandStepsMemo, bandStepsStore } from "./bandStepsMemo.ts";
+import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
-import { fitStatus } from "./fitStatus.ts";
+import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
-import type { LevelSeed } from "./levelsToFit.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
+import { refineGrouping } from "./refineGrouping.ts";
+import { shiftGrouping } from "./shiftGrouping.ts";
+import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
 export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
@@ -75,6 +77,11 @@ export const FIT_DEFAULTS = Object.freeze({
   rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
   /** Iterations of each explored start; the best are then finished with maxIterations. */
   exploreIterations: 8,
+  /**
+   * An explored start whose reduced χ² after its first chunkIterations is above this many times the
+   * best start's is not explored further (so far behind, it would not be among the finalists).
+   */
+  exploreDropRatio: 4,
   /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
   extraStartsLog10: Object.freeze({
     "shell-filling": Object.freeze([]),
@@ -89,7 +96,9 @@ export const FIT_DEFAULTS = Object.freeze({
   /**
    * The assignment's fit settles the question (no other grouping is compared unless asked) when
    * the rules decided the regime and its reduced χ² is at most this: a model that reaches the noise
-   * leaves nothing for another grouping to explain.
+   * leaves nothing for another grouping to explain. Unless its residuals show structure or its Ec
+   * lies far from the peak-based one (the limits of FIT_STATUS_DEFAULTS, poorResidualZ and
+   * poorChargingSigmas, on the peak-based error alone): what the status would call poor is not decisive.
    */
   decisiveChiSquare: 2,
   /**
@@ -120,6 +129,17 @@ export const FIT_DEFAULTS = Object.freeze({
   wholeCurveChiSquare: 3,
   /** See wholeCurveChiSquare. */
   wholeCurveRatio: 2,
+  /**
+   * Rounds of further starts about the best CB-side groupings ({@link refinementStarts}: the p
+   * shell split about the fitted p level, the rate ratio × 1/3 and × 3): the first about the best
+   * refinedGroupings, each later one about the best only, and only when the previous round found
+   * the best.
+   */
+  refinementRounds: 2,
+  /** CB-side groupings (the best by BIC) refined in the first round. */
+  refinedGroupings: 2,
+  /** Iterations of each refinement start (they begin at fitted values); the best is then finished with maxIterations. */
+  refinementIterations: 4,
 });
 
 /**
@@ -172,14 +192,21 @@ export const FIT_DEFAULTS = Object.freeze({
  *    reduced χ² when the model does not reach the noise).
  * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
  *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
- *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), or
+ *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), structured
+ *    residuals or an Ec far from the peak-based one (see decisiveChiSquare), or
  *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
- *    the VB reading, which they share, stays out of the comparison); the best
+ *    the VB reading, which they share, stays out of the comparison; a start whose reduced χ²
+ *    after the first 4 is above exploreDropRatio (4) times the best is not explored further); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
  *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
- *    too many, and the better by BIC kept), then fitted to the whole
+ *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined
+ *    ({@link refineGrouping}, {@link refinementStarts}: the p shell split 2+4 or 2+2+2 about the
+ *    fitted p level, a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
+ *    refinementIterations (4) from the fitted values, the best finished and kept as a further
+ *    finalist when its BIC is lower), and the best again while it is a refined one
+ *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
@@ -193,7 +220,15 @@ export const FIT_DEFAULTS = Object.freeze({
  *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
  *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. A reduced
  *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
- *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible.
+ *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
+ *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
+ *    run of one sign above 5 σ, where the model misses, adds or misplaces a step) and, where the
+ *    rules and the fit both read a charging ladder, an Ec more than 5 combined σ from the
+ *    peak-based Ec make it poor, with the reason in words.
+ * The model current is the fast one throughout; for speed, each band's steps are solved only over
+ * the data's bias range, once per distinct band parameters and shared by all runs, and each
+ * zero-temperature plateau once per rate matrix ({@link bandStepsMemo}): the same current to
+ * round-off.
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
  * References
@@ -255,14 +290,20 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const cbSide = pointsOf((v) => v > 0);
   const started = Date.now();
 
+  const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
+  const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
+  // Band solutions shared by every run: hypotheses that share a band's levels, and the runs of one
+  // hypothesis (explored, finished, fitted to the whole curve), solve it once.
+  const bandStore = bandStepsStore();
   /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
   const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
     const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
     if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const current = bandStepsMemo(h.seeds, eta, temperatureK);
-    const evaluate = (p: ArrayLike<number>) => projectLinear(current(p, set.biasV), set.biasV, set.v3, set.dataA);
+    const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
+    const project = projectorOf(set);
+    const evaluate = (p: ArrayLike<number>) => project(current(p, set.biasV));
     let cacheKey = "";
     let cacheOut = new Float64Array(set.n);
     const modelScaled = (p: number[]) => {
@@ -307,7 +348,16 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare;
+  // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
+  // residuals, or an Ec far from the peak-based one.
+  const hidden = (t: FitTrial) => {
+    const model = projectorOf(t.set)(bandStepsMemo(t.hypothesis.seeds, eta, temperatureK, bandStore)(t.loop.parameters, t.set.biasV)).out;
+    const z = residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
+    const peakEc = peakChargingEnergy(analysis, eta);
+    const ec = t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy];
+    return z > FIT_STATUS_DEFAULTS.poorResidualZ || (peakEc !== null && Math.abs(ec - peakEc.valueEV) > FIT_STATUS_DEFAULTS.poorChargingSigmas * peakEc.standardErrorEV);
+  };
+  const decisive = assignedTrial !== null && !undetermined && reduced(assignedTrial) <= F.decisiveChiSquare && !hidden(assignedTrial);
   const compared = (compareModels || !decisive) && !alone && comparable;
   const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
   /** Whole-curve fit → the CB-side fit it was started from. */
@@ -330,11 +380,20 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       const seeds = h.seeds.filter((x) => x.band === "CB");
       if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
     }
+    // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
+    // above exploreDropRatio times the best) or already converged is not continued.
+    const half = Math.min(explore, F.chunkIterations);
     const explored: FitTrial[] = [];
     for (const [h, hc] of cbOnly) {
       const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
-      for (const logRatio of starts) explored.push(run(hc, logRatio, explore, undefined, cbSide));
+      for (const logRatio of starts) explored.push(run(hc, logRatio, half, undefined, cbSide));
     }
+    const bestHalf = Math.min(...explored.map(reduced));
+    explored.forEach((t, i) => {
+      if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
+      const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
+      explored[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
+    });
     trials.push(...explored);
     const bestOf = new Map<FitHypothesis, FitTrial>();
     for (const t of explored) {
@@ -346,26 +405,23 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     trials.push(...cbFinals);
     // A grouping that settles well above the noise may be one Ec off (its first charging peak
     // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
+    const context = { cbOnly, trials, eta, exploreIterations: explore, maxIterations, run: (hc: FitHypothesis, iterations: number, from?: number[]) => run(hc, null, iterations, from, cbSide) };
     cbFinals.forEach((t, i) => {
-      if (t.hypothesis.kind === "assigned" || reduced(t) <= F.shiftChiSquare) return;
-      const at = parameterIndex(t.hypothesis.seeds.length);
-      const ecV = t.loop.parameters[at.chargingEnergy] / eta;
-      const original = [...cbOnly.entries()].find(([, hc]) => hc === t.hypothesis)![0];
-      for (const sign of [-1, 1]) {
-        const shift = (x: LevelSeed): LevelSeed => (x.band === "CB" ? { ...x, firstPeakV: x.firstPeakV + sign * ecV } : x);
-        const moved = { chargingEnergyStartEV: t.loop.parameters[at.chargingEnergy], rateRatioStartLog10: t.loop.parameters[at.logRateRatio] };
-        const full: FitHypothesis = { ...original, name: `${original.name} ${sign < 0 ? "−" : "+"}Ec`, label: `${original.label}, every level one Ec ${sign < 0 ? "lower" : "higher"}`, seeds: original.seeds.map(shift), ...moved };
-        const hc: FitHypothesis = { ...full, seeds: t.hypothesis.seeds.map(shift), vbReadings: [[]] };
-        if (hc.seeds.some((x) => x.firstPeakV <= 0)) continue;
-        cbOnly.set(full, hc);
-        const explored = run(hc, null, explore, undefined, cbSide);
-        trials.push(explored);
-        if (explored.bic >= cbFinals[i].bic) continue;
-        const done = { ...run(hc, null, maxIterations, explored.loop.parameters, cbSide), rateRatio0: explored.rateRatio0 };
-        trials.push(done);
-        if (done.bic < cbFinals[i].bic) cbFinals[i] = done;
-      }
+      if (t.hypothesis.kind !== "assigned" && reduced(t) > F.shiftChiSquare) cbFinals[i] = shiftGrouping(t, context) ?? t;
     });
+    // The best grouping so far from further starts about its own fitted values (its p shell split
+    // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
+    // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
+    const refine = (top: FitTrial) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations) });
+    // First round: the best refinedGroupings groupings; then the best again while refining helps.
+    let latest = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings).map(refine).filter((t): t is FitTrial => t !== null);
+    for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
+      cbFinals.push(...latest);
+      const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
+      if (round === F.refinementRounds || !latest.includes(top)) break;
+      const next = refine(top);
+      latest = next ? [next] : [];
+    }
     /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
     const wholeFit = (cbDone: FitTrial): FitTrial => {
       const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
@@ -415,7 +471,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
   // the forced regimes before the ladders): readings that reach the same levels are one model.
   const lowest = Math.min(...pool.map((t) => t.bic));
-  const order = (t: FitTrial) => hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
+  // Retried and refined groupings come after every listed one.
+  const order = (t: FitTrial) => {
+    const k = hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
+    return k < 0 ? hypotheses.length : k;
+  };
   const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
   const whole = wholeOf.get(winner);
   let best = whole ?? winner;
@@ -444,7 +504,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
   // result was fitted to.
   const { biasV, dataA, v3, n } = best.set;
-  const current = bandStepsMemo(seeds, eta, temperatureK);
+  const current = bandStepsMemo(seeds, eta, temperatureK, bandStore);
   const final = projectLinear(current(params, biasV), biasV, v3, dataA);
   const dof = Math.max(1, n - (params.length + 4));
   const reducedChiSquare = chi2 / dof;
@@ -458,7 +518,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const steps = [...best.start.gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
   const se = standardErrors(fullModel, full, steps, reducedChiSquare, warnings);
 
-  // 4. The verdict, the status and the result.
+  // 4. The verdict, the status and the result. The residuals are checked for structure over a
+  // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.
+  const structure = residualStructure(biasV, dataA.map((v, i) => v - final.out[i]), noiseA, analysis.settings.peakWidthMV / 1000);
+  const peakEc = peakChargingEnergy(analysis, eta);
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
@@ -469,7 +532,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergySE: se[at.chargingEnergy],
     logRateRatioSE: se[at.logRateRatio],
     atBound: [...plausibilityInput(best).atBound],
+    residualStructure: structure,
+    peakChargingEnergy: peakEc,
   });
+  if (peakEc && verdict.regime === "shell-tunneling") {
+    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(peakEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
+  }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
   const sigmaEV = 10 ** params[at.logBroadening];
@@ -526,6 +594,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     regime,
     regimeReason,
     residuals: { biasV, currentA: dataA, modelA, residualA: dataA.map((v, i) => v - modelA[i]) },
+    residualStructure: structure,
     warnings,
   };
 }

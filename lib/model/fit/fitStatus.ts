@@ -3,6 +3,9 @@
  * parameters that matter — rather than from whether the optimiser stopped by its own test.
  */
 
+import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
+import type { ResidualStructure } from "./residualStructure.ts";
+
 /** "good", "poor" or "failed" (no fit). */
 export type FitStatus = "good" | "poor" | "failed";
 
@@ -25,6 +28,22 @@ export const FIT_STATUS_DEFAULTS = Object.freeze({
   failedRelativeError: 1,
   /** Error of log₁₀ Γtip/Γsub above which the rate ratio is poorly determined (a factor 2). */
   poorLogRatioError: 0.3,
+  /**
+   * Largest |Σ r|/√w of the residuals over a peak's width ({@link residualStructure}) above which
+   * they show structure the model does not explain: the fit is poor whatever its reduced χ².
+   * For noise alone, 5 is reached by one window in about a million (closed form: 2·(1 − Φ(5))
+   * = 5.7e-7 per independent window).
+   */
+  poorResidualZ: 5,
+  /**
+   * The fit's Ec and the peak-based Ec differ by more than this many combined standard errors,
+   * √(σ_fit² + σ_peaks²), where both read a charging ladder (the rules shell filling, the fit
+   * shell filling or intermediate): one of the two readings of the peaks is wrong, and the fit is
+   * poor. The peak-based error leaves out the bias of reading a split p shell as one ladder: on
+   * simulated curves (`npm run bench:fit`, seeds 1–60) right fits reach 3.8–4.4 σ from the rules'
+   * Ec, hence 5 rather than 3.
+   */
+  poorChargingSigmas: 5,
 });
 
 /** What {@link fitStatus} looks at. */
@@ -37,6 +56,10 @@ export interface FitStatusInput {
   logRateRatioSE: number;
   /** Key parameters that ended on a bound of the fit. */
   atBound: string[];
+  /** The most structured window of the residuals ({@link residualStructure}); absent: not checked. */
+  residualStructure?: ResidualStructure;
+  /** The peak-based Ec and its 1σ in eV (the rules read shell filling); absent or null: none to compare with. Compared only when the fitted regime reads a charging ladder too (shell filling or intermediate). */
+  peakChargingEnergy?: { valueEV: number; standardErrorEV: number } | null;
 }
 
 /**
@@ -45,8 +68,9 @@ export interface FitStatusInput {
  * Parameters
  * ----------
  * input : FitStatusInput
- *     Reduced χ², fitted regime, Ec (eV) and its 1σ, the 1σ of log₁₀ Γtip/Γsub, and the key
- *     parameters at a bound.
+ *     Reduced χ², fitted regime, Ec (eV) and its 1σ, the 1σ of log₁₀ Γtip/Γsub, the key
+ *     parameters at a bound; optionally the residuals' most structured window and the peak-based
+ *     Ec (eV, with its 1σ).
  *
  * Returns
  * -------
@@ -57,10 +81,14 @@ export interface FitStatusInput {
  * 1. failed: reduced χ² > 100, or Ec undetermined (non-finite error, or an error above 100 % of
  *    Ec where the regime defines it), or Ec or the rate ratio on a bound.
  * 2. poor: reduced χ² > 3, or Ec's relative error > 25 % (filling, intermediate), or log₁₀ of
- *    the rate ratio uncertain by more than 0.3 (a factor 2).
+ *    the rate ratio uncertain by more than 0.3 (a factor 2), or residuals with structure (the
+ *    largest |Σ r|/√w over a peak's width above poorResidualZ, 5), or, where the rules and the
+ *    fit both read a charging ladder, Ec more than poorChargingSigmas (5) combined standard
+ *    errors from the peak-based Ec.
  * 3. good otherwise. The limits are in {@link FIT_STATUS_DEFAULTS}: the reduced-χ² limit of poor
- *    from the benchmark of simulated curves (see its doc comment), the others common practice
- *    (no source) for χ²-based acceptance with a model known to be approximate.
+ *    from the benchmark of simulated curves (see its doc comment), the residual limit from the
+ *    normal tail (closed form), the others common practice (no source) for χ²-based acceptance
+ *    with a model known to be approximate.
  *
  * Example
  * -------
@@ -83,8 +111,54 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
   }
   if (!Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
   else if (input.logRateRatioSE > D.poorLogRatioError) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
+  const structure = input.residualStructure;
+  if (structure && structure.largestZ > D.poorResidualZ) {
+    poor.push(
+      `the residuals show structure the model does not explain near ${structure.atBiasV.toFixed(3)} V (a run of one sign ${structure.largestZ.toFixed(1)} σ over ${structure.windowPoints} points, > ${D.poorResidualZ}): a peak missed, added or misplaced`,
+    );
+  }
+  const peakEc = input.peakChargingEnergy;
+  if (peakEc && input.regime !== "shell-tunneling" && input.regime !== "undetermined" && Number.isFinite(input.chargingEnergySE) && Number.isFinite(peakEc.standardErrorEV)) {
+    const combined = Math.hypot(input.chargingEnergySE, peakEc.standardErrorEV);
+    const apart = Math.abs(input.chargingEnergyEV - peakEc.valueEV);
+    if (apart > D.poorChargingSigmas * combined) {
+      poor.push(
+        `the fitted Ec ${(input.chargingEnergyEV * 1000).toFixed(1)} meV differs from the peak-based ${(peakEc.valueEV * 1000).toFixed(1)} ± ${(peakEc.standardErrorEV * 1000).toFixed(1)} meV by ${(apart / combined).toFixed(1)} combined σ (> ${D.poorChargingSigmas}): one of the two readings of the peaks is wrong`,
+      );
+    }
+  }
   for (const name of input.atBound) failed.push(`${name} ended on a bound of the fit (a degenerate solution)`);
   if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
   if (poor.length) return { status: "poor", reasons: poor };
-  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, Ec and Γtip/Γsub determined`] };
+  const clean = structure ? `, no structure in the residuals (largest run ${structure.largestZ.toFixed(1)} σ ≤ ${D.poorResidualZ})` : "";
+  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, Ec and Γtip/Γsub determined${clean}`] };
+}
+
+/**
+ * The peak-based Ec of an analysis at the fit's η, for {@link fitStatus}.
+ *
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     The peak-based analysis: regime, Ec and its 1σ in eV at the analysis' η.
+ * eta : number
+ *     The η of the fit.
+ *
+ * Returns
+ * -------
+ * { valueEV: number; standardErrorEV: number } | null
+ *     Ec and its 1σ in eV, rescaled by eta / the analysis' η (the bias-referred value is what the
+ *     peaks give); null unless the rules read shell filling with an Ec and its error.
+ *
+ * Example
+ * -------
+ * ```ts
+ * peakChargingEnergy(analysisAtEta085WithEc100meV, 0.85); // => { valueEV: 0.1, standardErrorEV: 0.0012 }
+ * ```
+ */
+export function peakChargingEnergy(analysis: CurveAnalysis, eta: number): { valueEV: number; standardErrorEV: number } | null {
+  const { regime, energies } = analysis.assignment;
+  const ec = energies.chargingEnergyEV, se = energies.uncertainties.chargingEnergyEV;
+  if (regime !== "shell-filling" || ec === null || se === null) return null;
+  return { valueEV: (ec * eta) / energies.eta, standardErrorEV: (se * eta) / energies.eta };
 }

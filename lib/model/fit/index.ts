@@ -2,8 +2,9 @@
  * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with
  * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
- * scale, offset and background, the Levenberg–Marquardt loop, the standard errors, the verdict,
- * and fitCurve, which composes them.
+ * scale, offset and background, the Levenberg–Marquardt loop, the refinement starts about the
+ * best grouping, the standard errors, the residual structure, the status, the verdict, and
+ * fitCurve, which composes them.
  */
 export { fitCurve, FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
 export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
@@ -15,8 +16,13 @@ export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";
 export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";
 export { unitCurrent } from "./unitCurrent.ts";
-export { bandStepsMemo, BAND_STEPS_MEMO_DEFAULTS } from "./bandStepsMemo.ts";
-export { projectLinear, type LinearProjection } from "./projectLinear.ts";
+export { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS, type BandStepsStore } from "./bandStepsMemo.ts";
+export { linearProjector, projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
+export { refinementStarts, REFINEMENT_DEFAULTS, type RefinementStart } from "./refinementStarts.ts";
 export { standardErrors } from "./standardErrors.ts";
+export { residualStructure, type ResidualStructure } from "./residualStructure.ts";
+export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } from "./fitStatus.ts";
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
+export { refineGrouping, type RefineContext } from "./refineGrouping.ts";
+export { shiftGrouping } from "./shiftGrouping.ts";

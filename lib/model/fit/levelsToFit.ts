@@ -43,9 +43,11 @@ export interface LevelSeed {
  *    size, the last sub-group taking whatever of the multiplet's degeneracy (or peak count) is
  *    left; its first peak is the sub-group's first; `before` counts the band's carriers so far.
  * 2. Otherwise, single levels, one per peak, whose steps in shell tunnelling scale with the
- *    degeneracy: a split CB shell shares its degeneracy out in proportion to the steps
- *    (at least 1 each); a VB level is given 2 × its step over the band's first step, rounded
- *    (degeneracy is not assumed there; 2 without steps). `before` is 0.
+ *    degeneracy: a split CB shell shares its degeneracy out in proportion to the steps in spin
+ *    pairs (2 each at least, largest remainders first, a tie to the higher sub-level: a p shell
+ *    split by shape is 2+4 or 2+2+2, never 3+3) when it has no more peaks than pairs, else in
+ *    single carriers (at least 1 each); a VB level is given 2 × its step over the band's first
+ *    step, rounded (degeneracy is not assumed there; 2 without steps). `before` is 0.
  *
  * Example
  * -------
@@ -81,9 +83,11 @@ export function levelsToFit(analysis: CurveAnalysis): LevelSeed[] {
         const stepOf = (i: number) => analysis.peaks[i].stepA;
         const steps = m.peakIndices.map(stepOf);
         const total = steps.reduce((a, b) => a + b, 0);
+        const paired = band === "CB" && m.degeneracy && total > 0 ? spinPairShares(m.degeneracy, steps) : null;
         m.peaksV.forEach((v, j) => {
           let g: number;
-          if (band === "CB" && m.degeneracy) g = total > 0 ? Math.max(1, Math.round((m.degeneracy * steps[j]) / total)) : Math.max(1, Math.round(m.degeneracy / m.found));
+          if (paired) g = paired[j];
+          else if (band === "CB" && m.degeneracy) g = total > 0 ? Math.max(1, Math.round((m.degeneracy * steps[j]) / total)) : Math.max(1, Math.round(m.degeneracy / m.found));
           else {
             const first = stepOf(a.multiplets.find((x) => x.band === band)!.peakIndices[0]);
             g = first > 0 ? Math.max(1, Math.round((2 * steps[j]) / first)) : 2;
@@ -94,4 +98,47 @@ export function levelsToFit(analysis: CurveAnalysis): LevelSeed[] {
     }
   }
   return seeds;
+}
+
+/**
+ * A CB shell's degeneracy shared out over its peaks in spin pairs, in proportion to their steps.
+ *
+ * Parameters
+ * ----------
+ * degeneracy : number
+ *     The shell's carriers (2, 6, 10).
+ * steps : readonly number[]
+ *     The current step of each peak, A (positive sum).
+ *
+ * Returns
+ * -------
+ * number[] | null
+ *     Even degeneracies summing to `degeneracy`, one per peak; null when the degeneracy is odd or
+ *     there are more peaks than pairs.
+ *
+ * Notes
+ * -----
+ * 1. U = degeneracy / 2 pairs; peak j's share U·s_j/Σs; each peak at least one pair, the rest by
+ *    largest remainder (a tie to the later peak).
+ *
+ * Example
+ * -------
+ * ```ts
+ * spinPairShares(6, [1, 1.2]); // => [2, 4]
+ * spinPairShares(6, [1, 1]);   // => [2, 4] (the tie to the higher sub-level)
+ * ```
+ */
+export function spinPairShares(degeneracy: number, steps: readonly number[]): number[] | null {
+  const pairs = degeneracy / 2;
+  if (!Number.isInteger(pairs) || steps.length > pairs) return null;
+  const total = steps.reduce((a, b) => a + b, 0);
+  const ideal = steps.map((x) => (pairs * x) / total);
+  const share = ideal.map((x) => Math.max(1, Math.floor(x)));
+  const order = ideal.map((x, j) => j).sort((a, b) => ideal[b] - share[b] - (ideal[a] - share[a]) || b - a);
+  let left = pairs - share.reduce((a, b) => a + b, 0);
+  for (let k = 0; left > 0; k = (k + 1) % order.length, left--) share[order[k]]++;
+  // Too many after the minimum of one pair each: take back from the largest shares over their ideal.
+  const over = ideal.map((x, j) => j).sort((a, b) => share[b] - ideal[b] - (share[a] - ideal[a]));
+  for (let k = 0; left < 0; k = (k + 1) % over.length) if (share[over[k]] > 1) share[over[k]]--, left++;
+  return share.map((x) => 2 * x);
 }

@@ -2,7 +2,7 @@
  * Variable projection: the parameters that enter the model current linearly (rate scale, offset,
  * background) solved by least squares for a given shape of the current.
  */
-import { mlMatrix } from "./mlMatrix.ts";
+import { scaledCholeskySolve } from "../../util/smallSymmetric.ts";
 
 /** What {@link projectLinear} returns. */
 export interface LinearProjection {
@@ -39,9 +39,9 @@ export interface LinearProjection {
  *
  * Notes
  * -----
- * 1. Columns [unit, 1, V, V³]; normal equations AᵀA·c = Aᵀy (4 × 4).
- * 2. Scale each column to unit norm (the columns differ by many orders of magnitude), solve
- *    (ml-matrix), undo the scaling.
+ * 1. Columns [unit, 1, V, V³]; normal equations AᵀA·c = Aᵀy (4 × 4) ({@link linearProjector}).
+ * 2. Scale each column to unit norm (the columns differ by many orders of magnitude), solve by
+ *    Cholesky, undo the scaling.
  * 3. Inside every model evaluation this leaves Levenberg–Marquardt only the nonlinear
  *    parameters (variable projection).
  *
@@ -62,35 +62,80 @@ export interface LinearProjection {
  * ```
  */
 export function projectLinear(unitA: ArrayLike<number>, biasV: ArrayLike<number>, cubeV3: ArrayLike<number>, dataA: ArrayLike<number>): LinearProjection {
+  return linearProjector(biasV, cubeV3, dataA)(unitA);
+}
+
+/**
+ * {@link projectLinear} for many model currents on the same points: the sums that involve only
+ * the bias and the data are formed once.
+ *
+ * Parameters
+ * ----------
+ * biasV : ArrayLike<number>
+ *     Bias in V of each point.
+ * cubeV3 : ArrayLike<number>
+ *     V³ of each point, V³.
+ * dataA : ArrayLike<number>
+ *     The measured current, A.
+ *
+ * Returns
+ * -------
+ * (unitA: ArrayLike<number>) => LinearProjection
+ *     projectLinear(unitA, biasV, cubeV3, dataA) for any unit current on these points.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. Once: the Gram entries and right-hand sides of the columns 1, V, V³.
+ * 2. Per unit current u: Σu², Σu, Σu·V, Σu·V³ and Σu·y; the 4 × 4 normal equations scaled to unit
+ *    diagonal and solved by Cholesky ({@link scaledCholeskySolve}); not positive definite
+ *    (singular) gives coef = [0, 0, 0, 0].
+ *
+ * Example
+ * -------
+ * ```ts
+ * const biasV = [0, 0.5, 1, 1.5, 2];
+ * const project = linearProjector(biasV, biasV.map((v) => v ** 3), biasV.map((v) => 1e-12 + 1e-12 * v));
+ * project([0, 0, 1e-19, 2e-19, 2e-19]).coef; // => [0, 1e-12, 1e-12, 0] (1/s, A, S, A/V³)
+ * ```
+ */
+export function linearProjector(biasV: ArrayLike<number>, cubeV3: ArrayLike<number>, dataA: ArrayLike<number>): (unitA: ArrayLike<number>) => LinearProjection {
   const n = biasV.length;
-  // Linear least squares for [scale, offset, b1, b3].
-  const cols = [unitA, new Float64Array(n).fill(1), biasV, cubeV3];
-  const { Matrix, solve } = mlMatrix();
-  const ata = Matrix.zeros(4, 4), atb = Matrix.zeros(4, 1);
-  for (let a = 0; a < 4; a++) {
-    let sb = 0;
-    for (let i = 0; i < n; i++) sb += cols[a][i] * dataA[i];
-    atb.set(a, 0, sb);
-    for (let b = a; b < 4; b++) {
-      let s = 0;
-      for (let i = 0; i < n; i++) s += cols[a][i] * cols[b][i];
-      ata.set(a, b, s);
-      ata.set(b, a, s);
+  // Gram entries of [1, V, V³] and their right-hand sides.
+  let s1 = 0, sv = 0, sc = 0, svv = 0, svc = 0, scc = 0, sy = 0, svy = 0, scy = 0;
+  for (let i = 0; i < n; i++) {
+    const v = biasV[i], c = cubeV3[i], y = dataA[i];
+    s1 += 1;
+    sv += v;
+    sc += c;
+    svv += v * v;
+    svc += v * c;
+    scc += c * c;
+    sy += y;
+    svy += v * y;
+    scy += c * y;
+  }
+  const ata = new Float64Array(16);
+  const atb = new Float64Array(4);
+  return (unitA) => {
+    let uu = 0, u1 = 0, uv = 0, uc = 0, uy = 0;
+    for (let i = 0; i < n; i++) {
+      const u = unitA[i];
+      uu += u * u;
+      u1 += u;
+      uv += u * biasV[i];
+      uc += u * cubeV3[i];
+      uy += u * dataA[i];
     }
-  }
-  // Column scaling keeps the tiny normal equations well conditioned.
-  const scale = [0, 1, 2, 3].map((a) => Math.sqrt(ata.get(a, a)) || 1);
-  for (let a = 0; a < 4; a++) {
-    atb.set(a, 0, atb.get(a, 0) / scale[a]);
-    for (let b = 0; b < 4; b++) ata.set(a, b, ata.get(a, b) / (scale[a] * scale[b]));
-  }
-  let coef: number[];
-  try {
-    coef = solve(ata, atb).getColumn(0).map((c, a) => c / scale[a]);
-  } catch {
-    coef = [0, 0, 0, 0];
-  }
-  const out = new Float64Array(n);
-  for (let i = 0; i < n; i++) out[i] = coef[0] * unitA[i] + coef[1] + coef[2] * biasV[i] + coef[3] * cubeV3[i];
-  return { out, coef };
+    ata.set([uu, u1, uv, uc, u1, s1, sv, sc, uv, sv, svv, svc, uc, sc, svc, scc]);
+    atb.set([uy, sy, svy, scy]);
+    const solved = scaledCholeskySolve(ata, atb, 4, 0);
+    const coef = solved ? Array.from(solved.x) : [0, 0, 0, 0];
+    const out = new Float64Array(n);
+    for (let i = 0; i < n; i++) out[i] = coef[0] * unitA[i] + coef[1] + coef[2] * biasV[i] + coef[3] * cubeV3[i];
+    return { out, coef };
+  };
 }

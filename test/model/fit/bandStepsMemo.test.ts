@@ -4,7 +4,7 @@
 // sums independent electron and hole ladders, so solving each band alone gives the same current).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
-import { bandStepsMemo, BAND_STEPS_MEMO_DEFAULTS } from "../../../lib/model/fit/bandStepsMemo.ts";
+import { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS } from "../../../lib/model/fit/bandStepsMemo.ts";
 import { unitCurrent } from "../../../lib/model/fit/unitCurrent.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
 
@@ -18,7 +18,7 @@ const seeds: LevelSeed[] = [
 
 describe("bandStepsMemo(seeds, eta, temperatureK)", () => {
   it("BAND_STEPS_MEMO_DEFAULTS are locked", () => {
-    expect(BAND_STEPS_MEMO_DEFAULTS).toEqual({ entriesPerBand: 64 });
+    expect(BAND_STEPS_MEMO_DEFAULTS).toEqual({ entriesPerBand: 256, windowMarginV: 0.05, plateausPerStructure: 20000 });
     expect(Object.isFrozen(BAND_STEPS_MEMO_DEFAULTS)).toBe(true);
   });
 
@@ -41,5 +41,20 @@ describe("bandStepsMemo(seeds, eta, temperatureK)", () => {
         expectClose(Array.from(current(p, bias)), Array.from(unitCurrent(p, seeds, 0.85, 4.5, bias)), { atol: 1e-12 * scale });
       }
     }
+  });
+
+  it("shares one store between the memos of two groupings with the same CB levels: the second solves no CB ladder and still equals unitCurrent", () => {
+    const bias = Array.from({ length: 61 }, (_, i) => 0.5 + 0.025 * i);
+    const store = bandStepsStore();
+    const cbOnly = seeds.slice(0, 2);
+    const p = [0.6, 0.9, 0.1, 0.3, Math.log10(0.01)];
+    bandStepsMemo(cbOnly, 0.85, 4.5, store)(p, bias);
+    const solved = store.bands.cb.size;
+    // The same two CB levels, labelled as another grouping would label them.
+    const relabelled = cbOnly.map((x, j) => ({ ...x, label: `level ${j}` }));
+    const other = bandStepsMemo(relabelled, 0.85, 4.5, store)(p, bias);
+    expect(store.bands.cb.size).toBe(solved);
+    const reference = unitCurrent(p, relabelled, 0.85, 4.5, bias);
+    expectClose(Array.from(other), Array.from(reference), { atol: 1e-12 * Math.max(...Array.from(reference, Math.abs)) });
   });
 });

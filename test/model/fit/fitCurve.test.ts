@@ -93,6 +93,7 @@ describe("fitCurve(analysis)", () => {
       compareModels: false,
       rateRatioStartsLog10: [-2, -1, 0, 1, 2],
       exploreIterations: 8,
+      exploreDropRatio: 4,
       extraStartsLog10: { "shell-filling": [], "shell-tunneling": [-1], "ladder-filling": [], "ladder-empty": [] },
       finishedHypotheses: 3,
       regimeSigmas: 2,
@@ -102,6 +103,9 @@ describe("fitCurve(analysis)", () => {
       shiftChiSquare: 2,
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,
+      refinementRounds: 2,
+      refinedGroupings: 2,
+      refinementIterations: 4,
     });
   });
 });
@@ -188,5 +192,34 @@ describe("fitCurve(analysis) on a ladder seeded one Ec off", () => {
     expect(fit.status).toBe("good");
     expectClose(fit.chargingEnergyEV.value, truth.chargingEnergyEV, { rtol: 0.03, what: "Ec (simulated)" });
     expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
+  }, 60_000);
+});
+
+// Split p shells (draws of the same crossover range, the truth the simulation's own parameters).
+describe("fitCurve(analysis) on split p shells", () => {
+  // Start 14: Γtip/Γsub 1.07, Ec 195 meV, p split 2+2+2; every grouping seeded from the peaks
+  // reads p whole and reaches reduced χ² 1.16 with Ec 15 % high; split about the fitted p level
+  // it reaches the noise with the simulated Ec.
+  it("splits a p level fitted whole and recovers Ec within 3 % and Γtip/Γsub within × 1.5", () => {
+    const { analysis, truth } = crossoverDraw(14);
+    expect(truth.pSubgroups).toEqual([2, 2, 2]);
+    const fit = fitCurve(analysis);
+    expect(fit.hypothesis).toMatch(/refined to 2\+2\+2\+2/);
+    expect(fit.status).toBe("good");
+    expectClose(fit.chargingEnergyEV.value, truth.chargingEnergyEV, { rtol: 0.03, what: "Ec (simulated)" });
+    expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
+  }, 60_000);
+
+  // Start 46: Γtip/Γsub 0.59, Ec 150 meV, p split 2+4; no start reaches the truth (Ec ends 11 %
+  // low at reduced χ² 2.0, which alone would pass), but the residuals keep a run of one sign above
+  // 5 σ where the model misplaces a step: the status says so instead of "good".
+  it("calls a fit with structured residuals poor and says where, although its reduced χ² is below 3", () => {
+    const { analysis, truth } = crossoverDraw(46);
+    const fit = fitCurve(analysis);
+    expect(fit.reducedChiSquare).toBeLessThan(3);
+    expect(Math.abs(fit.chargingEnergyEV.value / truth.chargingEnergyEV - 1)).toBeGreaterThan(0.03);
+    expect(fit.residualStructure.largestZ).toBeGreaterThan(5);
+    expect(fit.status).toBe("poor");
+    expect(fit.statusReasons.join(" ")).toMatch(/residuals show structure .* near \d\.\d{3} V/);
   }, 60_000);
 });

@@ -1,7 +1,8 @@
 // fitStatus: the status rules on constructed inputs (by construction of the documented limits:
 // the reduced-χ² limit of poor (3) derived from the fit benchmark's simulated curves, where right
 // fits end below 2 and fits one Ec off at 3–9; the rest common practice (no source) for χ²-based
-// acceptance of an approximate model).
+// acceptance of an approximate model; the residual limit 5 from the normal tail, closed form
+// 2·(1 − Φ(5)) = 5.7e-7 per window; the Ec limit of 5 combined σ derived from the benchmark).
 import { describe, it, expect } from "vitest";
 import { fitStatus, FIT_STATUS_DEFAULTS } from "../../../lib/model/fit/fitStatus.ts";
 
@@ -9,7 +10,7 @@ const ok = { reducedChiSquare: 1.2, regime: "shell-filling" as const, chargingEn
 
 describe("fitStatus(input)", () => {
   it("FIT_STATUS_DEFAULTS are locked", () => {
-    expect(FIT_STATUS_DEFAULTS).toEqual({ poorChiSquare: 3, failedChiSquare: 100, poorRelativeError: 0.25, failedRelativeError: 1, poorLogRatioError: 0.3 });
+    expect(FIT_STATUS_DEFAULTS).toEqual({ poorChiSquare: 3, failedChiSquare: 100, poorRelativeError: 0.25, failedRelativeError: 1, poorLogRatioError: 0.3, poorResidualZ: 5, poorChargingSigmas: 5 });
     expect(Object.isFrozen(FIT_STATUS_DEFAULTS)).toBe(true);
   });
   it("good when χ² is small and Ec and the rate ratio are determined", () => {
@@ -36,5 +37,22 @@ describe("fitStatus(input)", () => {
   });
   it("does not judge Ec in shell tunnelling, where the ladder does not show it", () => {
     expect(fitStatus({ ...ok, regime: "shell-tunneling", chargingEnergySE: 0.5 }).status).toBe("good");
+  });
+  it("poor, with where, when the residuals hold a run of one sign above 5 σ over a peak's width", () => {
+    const structured = fitStatus({ ...ok, residualStructure: { largestZ: 6.2, atBiasV: 1.542, windowPoints: 4 } });
+    expect(structured.status).toBe("poor");
+    expect(structured.reasons.join(" ")).toMatch(/structure .* near 1\.542 V .*6\.2 σ over 4 points/);
+    const clean = fitStatus({ ...ok, residualStructure: { largestZ: 4.9, atBiasV: 1.5, windowPoints: 4 } });
+    expect(clean.status).toBe("good");
+    expect(clean.reasons[0]).toMatch(/no structure in the residuals \(largest run 4\.9 σ ≤ 5\)/);
+  });
+  it("poor when Ec is more than 5 combined σ from the peak-based Ec, both reading a charging ladder", () => {
+    // Combined σ = √(1² + 3²) meV = 3.162 meV (closed form); 0.1 vs 0.117 eV is 5.4 σ, vs 0.115 eV 4.7 σ.
+    const far = fitStatus({ ...ok, peakChargingEnergy: { valueEV: 0.117, standardErrorEV: 0.003 } });
+    expect(far.status).toBe("poor");
+    expect(far.reasons.join(" ")).toMatch(/differs from the peak-based 117\.0 ± 3\.0 meV by 5\.4 combined σ/);
+    expect(fitStatus({ ...ok, peakChargingEnergy: { valueEV: 0.115, standardErrorEV: 0.003 } }).status).toBe("good");
+    // The fit reads shell tunnelling: the peak-based Ec assumes filling and is not compared.
+    expect(fitStatus({ ...ok, regime: "shell-tunneling", peakChargingEnergy: { valueEV: 0.2, standardErrorEV: 0.003 } }).status).toBe("good");
   });
 });

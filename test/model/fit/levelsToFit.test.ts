@@ -1,9 +1,10 @@
 // levelsToFit and startingValues on a simulated shell-filling curve: the levels, degeneracies and
 // energies the fit starts from are compared with the scenario the curve was simulated from (its
 // inputs: s doublet at 0.6 eV, p sextet at 0.9 eV, VB doublet at −1.2 eV, Ec 0.1 eV, η 0.85).
+// spinPairShares: spin pairs shared by largest remainder (closed form: U·s_j/Σs with U = g/2).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
-import { levelsToFit } from "../../../lib/model/fit/levelsToFit.ts";
+import { levelsToFit, spinPairShares } from "../../../lib/model/fit/levelsToFit.ts";
 import { startingValues } from "../../../lib/model/fit/startingValues.ts";
 import { simulateCurve } from "../../../lib/model/simulate.ts";
 import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
@@ -53,5 +54,20 @@ describe("startingValues(analysis, seeds, eta, chargingEnergyGuessEV)", () => {
     });
     // s and p (CB): the upper bound of s stays below the lower bound of p.
     expect(start.maxValues[0]).toBeLessThan(start.minValues[1]);
+  });
+});
+
+describe("spinPairShares(degeneracy, steps)", () => {
+  it("shares a p shell's three spin pairs by the steps: 2+4, 2+2+2, never 3+3 (closed form: 3·s_j/Σs, largest remainder)", () => {
+    expect(spinPairShares(6, [1, 1.2])).toEqual([2, 4]); // shares 1.36, 1.64
+    expect(spinPairShares(6, [2, 1])).toEqual([4, 2]); // shares 2, 1
+    expect(spinPairShares(6, [1, 1])).toEqual([2, 4]); // a tie goes to the higher sub-level
+    expect(spinPairShares(6, [1, 1, 1])).toEqual([2, 2, 2]);
+    expect(spinPairShares(6, [0.1, 0.1, 5])).toEqual([2, 2, 2]); // one pair each at least
+    expect(spinPairShares(2, [3])).toEqual([2]);
+  });
+  it("gives null for an odd degeneracy or more peaks than pairs", () => {
+    expect(spinPairShares(6, [1, 1, 1, 1])).toBeNull();
+    expect(spinPairShares(3, [1])).toBeNull();
   });
 });
