@@ -362,6 +362,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const finals: FitTrial[] = assignedTrial ? [assignedTrial] : [];
   /** Whole-curve fit → the CB-side fit it was started from. */
   const cbSideOf = new Map<FitTrial, FitTrial>();
+  /** Fits a CB-side finalist to the whole curve (set where groupings are compared). */
+  let wholeFitOf: ((cbDone: FitTrial) => FitTrial) | null = null;
   const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
   if (!compared && !decisive && assignedTrial) {
     // The assignment alone: restarts from the rate-ratio grid.
@@ -438,6 +440,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       }
       return bestFull!;
     };
+    wholeFitOf = wholeFit;
     // By CB-side BIC: the first plausible on the CB side whose whole-curve fit is plausible too
     // (or does not describe the curve, then its VB reading is what fails) is the winner; the
     // whole curve is fitted only for the candidates looked at.
@@ -477,7 +480,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     return k < 0 ? hypotheses.length : k;
   };
   const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
-  const whole = wholeOf.get(winner);
+  let whole = wholeOf.get(winner);
+  if (!whole && wholeFitOf && winner.side === "CB") {
+    // A tie went to a grouping whose whole-curve fit the search did not need (it stopped at a
+    // tied rival's): fit it now, so that the VB levels and the gap are not lost.
+    whole = wholeFitOf(winner);
+    cbSideOf.set(whole, winner);
+    wholeOf.set(winner, whole);
+  }
   let best = whole ?? winner;
   // When no reading of the VB peaks fits together with the CB values, the result is the CB side
   // alone (its Ec, rate ratio and CB levels), said in a warning.

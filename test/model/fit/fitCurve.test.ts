@@ -149,6 +149,18 @@ describe("fitCurve(analysis, { compareModels: true }) across the filling–tunne
     }, 60_000);
   }
 
+  it("in clear shell filling, where several groupings tie, keeps the VB level and the gap of the whole-curve fit", () => {
+    // analysisOf(1.2e9): Γtip/Γsub = 6, VB levels at −0.62 and −0.85 eV (the simulation's own parameters)
+    const analysis = analysisOf(1.2e9);
+    const compared = fitCurve(analysis, { compareModels: true });
+    const plain = fitCurve(analysis);
+    const vb = (f: typeof plain) => f.levels.filter((l) => l.band === "VB");
+    expect(vb(compared).length).toBeGreaterThan(0);
+    expect(vb(compared).length).toBe(vb(plain).length);
+    expectClose(vb(compared)[0].energyEV.value, -0.62, { rtol: 0.03, what: "first VB level (simulated −0.62 eV)" });
+    expect(compared.warnings.some((w) => /no VB level is reported/.test(w))).toBe(false);
+  }, 60_000);
+
   it("at Γtip/Γsub = 0.5 never takes the single-level grouping whose free levels absorb p's charging peaks", () => {
     const fit = fitCurve(crossover(0.5), { compareModels: true });
     expect(fit.hypothesis).not.toBe("shell-tunneling");
