@@ -40,6 +40,11 @@ export interface FitJson {
   /** Level energies referred to bias, ε/η, V, per band from the gap edge. */
   levelsV: { CB: number[]; VB: number[] };
   reducedChiSquare: number;
+  /**
+   * The most structured stretch of the residuals, a peak's width long: the largest |Σ r|/√w in
+   * noise units (about N(0, 1) for noise alone), where (bias, V) and over how many points.
+   */
+  residualStructure: CurveFit["residualStructure"];
   energies: {
     chargingEnergyEV: FittedValue;
     broadeningEV: FittedValue;
@@ -100,6 +105,7 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
     regimeReason: fit.regimeReason,
     levelsV: { CB: band("CB"), VB: band("VB") },
     reducedChiSquare: fit.reducedChiSquare,
+    residualStructure: { ...fit.residualStructure },
     energies: {
       chargingEnergyEV: fit.chargingEnergyEV,
       broadeningEV: fit.broadeningEV,

@@ -33,6 +33,12 @@ describe("dotspec fit FILE... --eta η", () => {
     expectClose(f.levelsV.CB, [0.5 / 0.8, 0.8 / 0.8], { atol: 0.01 });
     expectClose(f.levelsV.VB, [-0.6 / 0.8], { atol: 0.01 });
     expect(f.residuals.biasV.length).toBe(f.residuals.residualA.length);
+    // A good fit's residuals are the noise: no window sums to a run far beyond a normal tail
+    // (the fit's 5 σ rule, closed form of the normal distribution); the window lies in the data.
+    expect(f.residualStructure.largestZ).toBeLessThan(5);
+    expect(f.residualStructure.windowPoints).toBeGreaterThan(1);
+    expect(f.residualStructure.atBiasV).toBeGreaterThanOrEqual(Math.min(...f.residuals.biasV));
+    expect(f.residualStructure.atBiasV).toBeLessThanOrEqual(Math.max(...f.residuals.biasV));
   });
 
   it("prints a readable report and writes DIR/<name>.fit.json and the figure DIR/<name>.fit.svg with --out", async () => {
