@@ -9,7 +9,8 @@ import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { bandStepsMemo, bandStepsStore } from "./bandStepsMemo.ts";
+import { bandStepsMemo } from "./bandStepsMemo.ts";
+import { fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
@@ -276,58 +277,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
 
   // Data, thinned evenly: the same points and the same noise σ for every hypothesis; the CB side
-  // (bias > 0) alone for comparing groupings of the CB peaks.
-  const sig = analysis.conductance;
-  const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
-  const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
-  const pointsOf = (keep: (v: number) => boolean): DataSet => {
-    const index = Array.from(sig.biasV.keys()).filter((i) => i % stride === 0 && keep(sig.biasV[i]));
-    const biasV = Float64Array.from(index, (i) => sig.biasV[i]);
-    const dataA = Float64Array.from(index, (i) => sig.currentA[i]);
-    return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
-  };
-  const all = pointsOf(() => true);
-  const cbSide = pointsOf((v) => v > 0);
-  const started = Date.now();
-
-  const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
-  const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
-  // Band solutions shared by every run: hypotheses that share a band's levels, and the runs of one
-  // hypothesis (explored, finished, fitted to the whole curve), solve it once.
-  const bandStore = bandStepsStore();
-  /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
-  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
-    const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
-    const at = parameterIndex(h.seeds.length);
-    const initialValues = from ? [...from] : [...start.initialValues];
-    if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
-    const project = projectorOf(set);
-    const evaluate = (p: ArrayLike<number>) => project(current(p, set.biasV));
-    let cacheKey = "";
-    let cacheOut = new Float64Array(set.n);
-    const modelScaled = (p: number[]) => {
-      const key = p.join(",");
-      if (key !== cacheKey) {
-        cacheKey = key;
-        cacheOut = evaluate(p).out.map((v) => v / noiseA);
-      }
-      const out = cacheOut;
-      return (x: number) => out[x];
-    };
-    const loop = levenbergMarquardtLoop(set.data, modelScaled, {
-      ...start,
-      initialValues,
-      maxIterations: iterations,
-      timeLimitMs: Math.max(1, timeLimitMs - (Date.now() - started)),
-      chunkIterations: F.chunkIterations,
-      convergenceTolerance: F.convergenceTolerance,
-    });
-    // k: the nonlinear parameters and the four linear ones (scale, offset, b1, b3).
-    const k = loop.parameters.length + 4;
-    const side = set === all ? "both" : "CB";
-    return { hypothesis: h, side, n: set.n, set, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: bayesianInformationCriterion(loop.chiSquare, k, set.n), finished: iterations >= maxIterations, implausible: null };
-  };
+  // (bias > 0) alone for comparing groupings of the CB peaks. Band solutions are shared by every
+  // run: hypotheses that share a band's levels, and the runs of one hypothesis (explored,
+  // finished, fitted to the whole curve), solve it once.
+  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance });
+  const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced } = runner;
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
   // describe the curve, or the rules left the regime undetermined (or when asked to compare),
@@ -347,7 +301,6 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const tooLarge = hypotheses[0].states > F.maxAssignedStates && !alone && comparable;
   if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
-  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
   // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
   // residuals, or an Ec far from the peak-based one.
   const hidden = (t: FitTrial) => {
