@@ -19,6 +19,7 @@ import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
+import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 import { refineGrouping } from "./refineGrouping.ts";
@@ -130,6 +131,12 @@ export const FIT_DEFAULTS = Object.freeze({
   wholeCurveChiSquare: 3,
   /** See wholeCurveChiSquare. */
   wholeCurveRatio: 2,
+  /**
+   * Combined standard errors (whole curve and CB side) by which the whole-curve Ec may move from
+   * the CB side's before the VB reading counts as pulling it: then Ec and Γtip/Γsub are held at the
+   * CB side's values and the levels are fitted to the whole curve with them.
+   */
+  wholeCurveEcSigmas: 1,
   /**
    * Rounds of further starts about the best CB-side groupings ({@link refinementStarts}: the p
    * shell split about the fitted p level, the rate ratio × 1/3 and × 3): the first about the best
@@ -450,15 +457,43 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     );
     best = winner;
   }
+  // When the whole-curve fit moves Ec more than wholeCurveEcSigmas combined standard errors from
+  // its CB side's, the VB reading pulls it: Ec and Γtip/Γsub are held at the CB side's values and
+  // the levels fitted to the whole curve with them (the VB levels and the gap kept).
+  const currentOf = (t: FitTrial) => bandStepsMemo(t.hypothesis.seeds, eta, temperatureK, bandStore);
+  let errors = trialErrors(best, currentOf(best), noiseA, warnings);
+  let heldNote: string | null = null;
+  if (whole && best === whole) {
+    const atW = parameterIndex(whole.hypothesis.seeds.length);
+    const atC = parameterIndex(winner.hypothesis.seeds.length);
+    const cb = trialErrors(winner, currentOf(winner), noiseA, []);
+    const ecW = whole.loop.parameters[atW.chargingEnergy];
+    const ecC = winner.loop.parameters[atC.chargingEnergy];
+    const sigma = Math.hypot(errors.se[atW.chargingEnergy], cb.se[atC.chargingEnergy]);
+    if (Number.isFinite(sigma) && sigma > 0 && Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * sigma) {
+      const from = [...whole.loop.parameters];
+      from[atW.chargingEnergy] = ecC;
+      from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
+      const held = { ...run(whole.hypothesis, null, maxIterations, from, all, [atW.chargingEnergy, atW.logRateRatio]), rateRatio0: whole.rateRatio0 };
+      trials.push(held);
+      best = held;
+      errors = trialErrors(held, currentOf(held), noiseA, warnings);
+      errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
+      errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
+      heldNote = `the whole-curve fit moved Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${(Math.abs(ecW - ecC) / sigma).toFixed(1)} combined standard errors (> ${F.wholeCurveEcSigmas}): the VB reading does not fit with the CB values`;
+      warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
+    }
+  }
   const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
   const at = parameterIndex(seeds.length);
-  const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
+  const { parameters: params, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
+  if (heldNote) evidence.push(`its Ec and Γtip/Γsub come from the CB side of the curve: ${heldNote}`);
   if (hypothesis.kind !== "assigned" && (!assignedTrial || assignedTrial.side !== best.side || assignedTrial.bic - best.bic >= F.bicTieMargin)) {
     warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
   }
@@ -466,20 +501,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
 
   // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
   // result was fitted to.
-  const { biasV, dataA, v3, n } = best.set;
-  const current = bandStepsMemo(seeds, eta, temperatureK, bandStore);
-  const final = projectLinear(current(params, biasV), biasV, v3, dataA);
-  const dof = Math.max(1, n - (params.length + 4));
-  const reducedChiSquare = chi2 / dof;
-  const full = [...params, ...final.coef];
-  const fullModel = (q: number[]) => {
-    const unit = current(q, biasV);
-    const out = new Float64Array(n);
-    for (let i = 0; i < n; i++) out[i] = (q[at.rateScale] * unit[i] + q[at.offset] + q[at.backgroundLinear] * biasV[i] + q[at.backgroundCubic] * v3[i]) / noiseA;
-    return out;
-  };
-  const steps = [...best.start.gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
-  const se = standardErrors(fullModel, full, steps, reducedChiSquare, warnings);
+  const { biasV, dataA } = best.set;
+  const { final, full, se, reducedChiSquare } = errors;
 
   // 4. The verdict, the status and the result. The residuals are checked for structure over a
   // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.
