@@ -219,7 +219,10 @@ export const FIT_DEFAULTS = Object.freeze({
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
- *    values, a warning says so). An assignment with more than maxAssignedStates (100) charge
+ *    values, a warning says so); when the whole-curve Ec lies more than wholeCurveEcSigmas (1)
+ *    combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
+ *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
+ *    them, said in a warning and the evidence. An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
