@@ -14,8 +14,11 @@ export const NORMAL_CDF_HERMITE_DEFAULTS = Object.freeze({
 });
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
+const STEP = NORMAL_CDF_HERMITE_DEFAULTS.step;
+const INV_STEP = 1 / STEP;
+const REACH = NORMAL_CDF_HERMITE_DEFAULTS.reach;
+/** Φ_i and h·φ_i interleaved, built at the first call. */
 let values: Float64Array | null = null;
-let slopes: Float64Array | null = null;
 
 /**
  * Standard normal cumulative distribution Φ(x), interpolated.
@@ -63,31 +66,35 @@ let slopes: Float64Array | null = null;
  * ```
  */
 export function normalCdfHermite(x: number): number {
-  const { step, reach } = NORMAL_CDF_HERMITE_DEFAULTS;
-  if (x <= -reach) return 0;
-  if (x >= reach) return 1;
-  if (values === null || slopes === null) {
-    const n = Math.round((2 * reach) / step) + 2;
-    values = new Float64Array(n);
-    slopes = new Float64Array(n);
-    const phi = (v: number) => INV_SQRT_2PI * Math.exp(-0.5 * v * v);
-    // 3-point Gauss–Legendre on [x_i, x_i + step]: nodes at the midpoint ± √(3/5)·step/2, weights 5/18, 8/18, 5/18 of step.
-    const g = (Math.sqrt(0.6) * step) / 2;
-    const x0 = -reach;
-    const inv2 = 1 / (x0 * x0);
-    values[0] = (phi(x0) / reach) * (1 - inv2 + 3 * inv2 * inv2 - 15 * inv2 * inv2 * inv2);
-    for (let i = 0; i < n; i++) {
-      const xi = x0 + i * step;
-      slopes[i] = step * phi(xi);
-      if (i + 1 < n) {
-        const m = xi + step / 2;
-        values[i + 1] = values[i] + (step / 18) * (5 * phi(m - g) + 8 * phi(m) + 5 * phi(m + g));
-      }
-    }
-  }
-  const u = (x + reach) / step;
+  if (x <= -REACH) return 0;
+  if (x >= REACH) return 1;
+  const v = values ?? buildTable();
+  const u = (x + REACH) * INV_STEP;
   const i = u | 0;
   const t = u - i;
   const s = 1 - t;
-  return (1 + 2 * t) * s * s * values[i] + t * s * s * slopes[i] + t * t * (3 - 2 * t) * values[i + 1] - t * t * s * slopes[i + 1];
+  return (1 + 2 * t) * s * s * v[2 * i] + t * s * s * v[2 * i + 1] + t * t * (3 - 2 * t) * v[2 * i + 2] - t * t * s * v[2 * i + 3];
+}
+
+/** Builds the table of Φ and h·φ at the nodes, interleaved (Notes 1); kept apart so that the caller stays small enough to inline. */
+function buildTable(): Float64Array {
+  const step = STEP;
+  const n = Math.round((2 * REACH) / step) + 2;
+  const table = new Float64Array(2 * n);
+  const phi = (v: number) => INV_SQRT_2PI * Math.exp(-0.5 * v * v);
+  // 3-point Gauss–Legendre on [x_i, x_i + step]: nodes at the midpoint ± √(3/5)·step/2, weights 5/18, 8/18, 5/18 of step.
+  const g = (Math.sqrt(0.6) * step) / 2;
+  const x0 = -REACH;
+  const inv2 = 1 / (x0 * x0);
+  table[0] = (phi(x0) / REACH) * (1 - inv2 + 3 * inv2 * inv2 - 15 * inv2 * inv2 * inv2);
+  for (let i = 0; i < n; i++) {
+    const xi = x0 + i * step;
+    table[2 * i + 1] = step * phi(xi);
+    if (i + 1 < n) {
+      const m = xi + step / 2;
+      table[2 * i + 2] = table[2 * i] + (step / 18) * (5 * phi(m - g) + 8 * phi(m) + 5 * phi(m + g));
+    }
+  }
+  values = table;
+  return table;
 }
