@@ -469,11 +469,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   if (whole && best === whole) {
     const atW = parameterIndex(whole.hypothesis.seeds.length);
     const atC = parameterIndex(winner.hypothesis.seeds.length);
-    const cb = trialErrors(winner, currentOf(winner), noiseA, []);
     const ecW = whole.loop.parameters[atW.chargingEnergy];
     const ecC = winner.loop.parameters[atC.chargingEnergy];
-    const sigma = Math.hypot(errors.se[atW.chargingEnergy], cb.se[atC.chargingEnergy]);
-    if (Number.isFinite(sigma) && sigma > 0 && Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * sigma) {
+    // The combined error is at least the whole curve's: within that, no CB-side errors are needed.
+    const cb = Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * errors.se[atW.chargingEnergy] ? trialErrors(winner, currentOf(winner), noiseA, []) : null;
+    const sigma = cb ? Math.hypot(errors.se[atW.chargingEnergy], cb.se[atC.chargingEnergy]) : NaN;
+    if (cb && Number.isFinite(sigma) && sigma > 0 && Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * sigma) {
       const from = [...whole.loop.parameters];
       from[atW.chargingEnergy] = ecC;
       from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];

@@ -122,12 +122,14 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
     const project = projectorOf(set);
     let cacheKey = "";
-    let cacheOut = new Float64Array(set.n);
+    let cacheOut: Float64Array = new Float64Array(set.n);
     const modelScaled = (q: number[]) => {
       const key = q.join(",");
       if (key !== cacheKey) {
         cacheKey = key;
-        cacheOut = project(current(expand(q), set.biasV)).out.map((v) => v / noiseA);
+        // The projection's output is a new array: scaled in place.
+        cacheOut = project(current(expand(q), set.biasV)).out;
+        for (let i = 0; i < cacheOut.length; i++) cacheOut[i] /= noiseA;
       }
       const out = cacheOut;
       return (x: number) => out[x];
