@@ -121,12 +121,11 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     };
     const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
     const project = projectorOf(set);
-    let cacheKey = "";
+    let cacheQ: number[] | null = null;
     let cacheOut: Float64Array = new Float64Array(set.n);
     const modelScaled = (q: number[]) => {
-      const key = q.join(",");
-      if (key !== cacheKey) {
-        cacheKey = key;
+      if (cacheQ === null || cacheQ.length !== q.length || q.some((v, j) => !Object.is(v, cacheQ![j]))) {
+        cacheQ = q.slice();
         // The projection's output is a new array: scaled in place.
         cacheOut = project(current(expand(q), set.biasV)).out;
         for (let i = 0; i < cacheOut.length; i++) cacheOut[i] /= noiseA;
