@@ -3,7 +3,8 @@
  * bias solved) or as a sum of broadened steps between zero-temperature plateaus (fast, for fitting).
  */
 import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, zeroTemperaturePattern, SATURATION_KT, type JunctionParams, type Ladder } from "./ladder.ts";
-import { normalCdf, fermi } from "../util/special.ts";
+import { fermi } from "../util/special.ts";
+import { normalCdfHermite } from "../util/normalCdfHermite.ts";
 import type { Level } from "./scenario.ts";
 
 /** A dot: its levels per band and the junction. */
@@ -430,7 +431,7 @@ function fastSum(steps: { baseA: number; steps: CurrentStep[] }, biasV: ArrayLik
         const d = biasV[i] - step.biasV;
         if (derivative) {
           if (Math.abs(d) < reach) out[i] += ((h * INV_SQRT_2PI) / sigma) * Math.exp((-0.5 * d * d) / (sigma * sigma));
-        } else out[i] += d > reach ? h : d < -reach ? 0 : h * normalCdf(d / sigma);
+        } else out[i] += d > reach ? h : d < -reach ? 0 : h * normalCdfHermite(d / sigma);
       }
     } else {
       const w = step.thermalWidthV;
@@ -455,11 +456,14 @@ function fastSumAscending(steps: { baseA: number; steps: CurrentStep[] }, biasV:
     const reach = 9 * sigma;
     const start = firstWithin(biasV, step.biasV, reach, 0);
     const end = firstBeyond(biasV, step.biasV, reach, start);
-    for (let i = start; i < end; i++) {
-      const d = biasV[i] - step.biasV;
-      if (derivative) {
+    if (derivative) {
+      for (let i = start; i < end; i++) {
+        const d = biasV[i] - step.biasV;
         if (Math.abs(d) < reach) out[i] += ((h * INV_SQRT_2PI) / sigma) * Math.exp((-0.5 * d * d) / (sigma * sigma));
-      } else out[i] += h * normalCdf(d / sigma);
+      }
+    } else {
+      const inv = 1 / sigma;
+      for (let i = start; i < end; i++) out[i] += h * normalCdfHermite((biasV[i] - step.biasV) * inv);
     }
     if (passed) passed[end] += h;
   }

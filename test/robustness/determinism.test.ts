@@ -62,9 +62,9 @@ describe("noise in simulate only from the seed", () => {
     };
     walk(root);
     expect(random).toEqual([]);
-    // progress.ts: paces the progress bar on stderr. levenbergMarquardtLoop.ts and fitCurve.ts: the
+    // progress.ts: paces the progress bar on stderr. levenbergMarquardtLoop.ts and fitRunner.ts: the
     // fit's time limit, per run and over all its starts (a fit stopped by it could differ between
     // machines; analyze does not fit).
-    expect(clock.sort()).toEqual(["cli/progress.ts", "model/fit/fitCurve.ts", "model/fit/levenbergMarquardtLoop.ts"]);
+    expect(clock.sort()).toEqual(["cli/progress.ts", "model/fit/fitRunner.ts", "model/fit/levenbergMarquardtLoop.ts"]);
   });
 });

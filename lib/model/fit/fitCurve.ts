@@ -9,7 +9,8 @@ import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { bandStepsMemo, bandStepsStore } from "./bandStepsMemo.ts";
+import { bandStepsMemo } from "./bandStepsMemo.ts";
+import { fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
@@ -18,6 +19,7 @@ import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
+import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 import { refineGrouping } from "./refineGrouping.ts";
@@ -130,6 +132,12 @@ export const FIT_DEFAULTS = Object.freeze({
   /** See wholeCurveChiSquare. */
   wholeCurveRatio: 2,
   /**
+   * Combined standard errors (whole curve and CB side) by which the whole-curve Ec may move from
+   * the CB side's before the VB reading counts as pulling it: then Ec and Γtip/Γsub are held at the
+   * CB side's values and the levels are fitted to the whole curve with them.
+   */
+  wholeCurveEcSigmas: 1,
+  /**
    * Rounds of further starts about the best CB-side groupings ({@link refinementStarts}: the p
    * shell split about the fitted p level, the rate ratio × 1/3 and × 3): the first about the best
    * refinedGroupings, each later one about the best only, and only when the previous round found
@@ -211,7 +219,10 @@ export const FIT_DEFAULTS = Object.freeze({
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
- *    values, a warning says so). An assignment with more than maxAssignedStates (100) charge
+ *    values, a warning says so); when the whole-curve Ec lies more than wholeCurveEcSigmas (1)
+ *    combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
+ *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
+ *    them, said in a warning and the evidence. An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
@@ -276,58 +287,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
 
   // Data, thinned evenly: the same points and the same noise σ for every hypothesis; the CB side
-  // (bias > 0) alone for comparing groupings of the CB peaks.
-  const sig = analysis.conductance;
-  const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
-  const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
-  const pointsOf = (keep: (v: number) => boolean): DataSet => {
-    const index = Array.from(sig.biasV.keys()).filter((i) => i % stride === 0 && keep(sig.biasV[i]));
-    const biasV = Float64Array.from(index, (i) => sig.biasV[i]);
-    const dataA = Float64Array.from(index, (i) => sig.currentA[i]);
-    return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
-  };
-  const all = pointsOf(() => true);
-  const cbSide = pointsOf((v) => v > 0);
-  const started = Date.now();
-
-  const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
-  const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
-  // Band solutions shared by every run: hypotheses that share a band's levels, and the runs of one
-  // hypothesis (explored, finished, fitted to the whole curve), solve it once.
-  const bandStore = bandStepsStore();
-  /** One start of one hypothesis on one data set: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`). */
-  const run = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set: DataSet = all): FitTrial => {
-    const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
-    const at = parameterIndex(h.seeds.length);
-    const initialValues = from ? [...from] : [...start.initialValues];
-    if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
-    const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
-    const project = projectorOf(set);
-    const evaluate = (p: ArrayLike<number>) => project(current(p, set.biasV));
-    let cacheKey = "";
-    let cacheOut = new Float64Array(set.n);
-    const modelScaled = (p: number[]) => {
-      const key = p.join(",");
-      if (key !== cacheKey) {
-        cacheKey = key;
-        cacheOut = evaluate(p).out.map((v) => v / noiseA);
-      }
-      const out = cacheOut;
-      return (x: number) => out[x];
-    };
-    const loop = levenbergMarquardtLoop(set.data, modelScaled, {
-      ...start,
-      initialValues,
-      maxIterations: iterations,
-      timeLimitMs: Math.max(1, timeLimitMs - (Date.now() - started)),
-      chunkIterations: F.chunkIterations,
-      convergenceTolerance: F.convergenceTolerance,
-    });
-    // k: the nonlinear parameters and the four linear ones (scale, offset, b1, b3).
-    const k = loop.parameters.length + 4;
-    const side = set === all ? "both" : "CB";
-    return { hypothesis: h, side, n: set.n, set, rateRatio0: 10 ** initialValues[at.logRateRatio], loop, start, k, bic: bayesianInformationCriterion(loop.chiSquare, k, set.n), finished: iterations >= maxIterations, implausible: null };
-  };
+  // (bias > 0) alone for comparing groupings of the CB peaks. Band solutions are shared by every
+  // run: hypotheses that share a band's levels, and the runs of one hypothesis (explored,
+  // finished, fitted to the whole curve), solve it once.
+  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance });
+  const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced } = runner;
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
   // describe the curve, or the rules left the regime undetermined (or when asked to compare),
@@ -347,7 +311,6 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const tooLarge = hypotheses[0].states > F.maxAssignedStates && !alone && comparable;
   if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
-  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
   // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
   // residuals, or an Ec far from the peak-based one.
   const hidden = (t: FitTrial) => {
@@ -497,15 +460,44 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     );
     best = winner;
   }
+  // When the whole-curve fit moves Ec more than wholeCurveEcSigmas combined standard errors from
+  // its CB side's, the VB reading pulls it: Ec and Γtip/Γsub are held at the CB side's values and
+  // the levels fitted to the whole curve with them (the VB levels and the gap kept).
+  const currentOf = (t: FitTrial) => bandStepsMemo(t.hypothesis.seeds, eta, temperatureK, bandStore);
+  let errors = trialErrors(best, currentOf(best), noiseA, warnings);
+  let heldNote: string | null = null;
+  if (whole && best === whole) {
+    const atW = parameterIndex(whole.hypothesis.seeds.length);
+    const atC = parameterIndex(winner.hypothesis.seeds.length);
+    const ecW = whole.loop.parameters[atW.chargingEnergy];
+    const ecC = winner.loop.parameters[atC.chargingEnergy];
+    // The combined error is at least the whole curve's: within that, no CB-side errors are needed.
+    const cb = Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * errors.se[atW.chargingEnergy] ? trialErrors(winner, currentOf(winner), noiseA, []) : null;
+    const sigma = cb ? Math.hypot(errors.se[atW.chargingEnergy], cb.se[atC.chargingEnergy]) : NaN;
+    if (cb && Number.isFinite(sigma) && sigma > 0 && Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * sigma) {
+      const from = [...whole.loop.parameters];
+      from[atW.chargingEnergy] = ecC;
+      from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
+      const held = { ...run(whole.hypothesis, null, maxIterations, from, all, [atW.chargingEnergy, atW.logRateRatio]), rateRatio0: whole.rateRatio0 };
+      trials.push(held);
+      best = held;
+      errors = trialErrors(held, currentOf(held), noiseA, warnings);
+      errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
+      errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
+      heldNote = `the whole-curve fit moved Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${(Math.abs(ecW - ecC) / sigma).toFixed(1)} combined standard errors (> ${F.wholeCurveEcSigmas}): the VB reading does not fit with the CB values`;
+      warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
+    }
+  }
   const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
   const at = parameterIndex(seeds.length);
-  const { parameters: params, chiSquare: chi2, iterations, converged, message } = best.loop;
+  const { parameters: params, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
+  if (heldNote) evidence.push(`its Ec and Γtip/Γsub come from the CB side of the curve: ${heldNote}`);
   if (hypothesis.kind !== "assigned" && (!assignedTrial || assignedTrial.side !== best.side || assignedTrial.bic - best.bic >= F.bicTieMargin)) {
     warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));
   }
@@ -513,20 +505,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
 
   // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
   // result was fitted to.
-  const { biasV, dataA, v3, n } = best.set;
-  const current = bandStepsMemo(seeds, eta, temperatureK, bandStore);
-  const final = projectLinear(current(params, biasV), biasV, v3, dataA);
-  const dof = Math.max(1, n - (params.length + 4));
-  const reducedChiSquare = chi2 / dof;
-  const full = [...params, ...final.coef];
-  const fullModel = (q: number[]) => {
-    const unit = current(q, biasV);
-    const out = new Float64Array(n);
-    for (let i = 0; i < n; i++) out[i] = (q[at.rateScale] * unit[i] + q[at.offset] + q[at.backgroundLinear] * biasV[i] + q[at.backgroundCubic] * v3[i]) / noiseA;
-    return out;
-  };
-  const steps = [...best.start.gradientDifference, ...final.coef.map((c, a) => Math.max(Math.abs(c) * 1e-4, [1e-30, noiseA * 1e-3, noiseA * 1e-3, noiseA * 1e-3][a]))];
-  const se = standardErrors(fullModel, full, steps, reducedChiSquare, warnings);
+  const { biasV, dataA } = best.set;
+  const { final, full, se, reducedChiSquare } = errors;
 
   // 4. The verdict, the status and the result. The residuals are checked for structure over a
   // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.

@@ -2,7 +2,7 @@
  * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with
  * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
- * scale, offset and background, the Levenberg–Marquardt loop, the refinement starts about the
+ * scale, offset and background, the Levenberg–Marquardt loop and the runs built on it, the refinement starts about the
  * best grouping, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
  */
@@ -19,8 +19,10 @@ export { unitCurrent } from "./unitCurrent.ts";
 export { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS, type BandStepsStore } from "./bandStepsMemo.ts";
 export { linearProjector, projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
+export { fitRunner, type FitRun, type FitRunner, type FitRunnerSettings } from "./fitRunner.ts";
 export { refinementStarts, REFINEMENT_DEFAULTS, type RefinementStart } from "./refinementStarts.ts";
 export { standardErrors } from "./standardErrors.ts";
+export { trialErrors, type TrialErrors } from "./trialErrors.ts";
 export { residualStructure, type ResidualStructure } from "./residualStructure.ts";
 export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } from "./fitStatus.ts";
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";

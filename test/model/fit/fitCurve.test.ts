@@ -103,6 +103,7 @@ describe("fitCurve(analysis)", () => {
       shiftChiSquare: 2,
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,
+      wholeCurveEcSigmas: 1,
       refinementRounds: 2,
       refinedGroupings: 2,
       refinementIterations: 4,
@@ -233,5 +234,26 @@ describe("fitCurve(analysis) on split p shells", () => {
     expect(fit.residualStructure.largestZ).toBeGreaterThan(5);
     expect(fit.status).toBe("poor");
     expect(fit.statusReasons.join(" ")).toMatch(/residuals show structure .* near \d\.\d{3} V/);
+  }, 60_000);
+});
+
+// A VB reading that does not fit with the CB values (draws of the same crossover range, the truth
+// the simulation's own parameters).
+describe("fitCurve(analysis) when the VB reading pulls Ec", () => {
+  // Start 1014: Γtip/Γsub 1.71, Ec 124.2 meV, p split 2+2+2. The CB side reaches Ec 124.4 meV and
+  // Γtip/Γsub 1.62; the whole-curve fit moves them to 131.3 meV (3.3 combined standard errors) and
+  // 2.51. Held at the CB side's values, the result keeps the simulated Ec and its VB levels.
+  it("holds Ec and Γtip/Γsub at the CB side's values, says so, and keeps the VB levels", () => {
+    const { analysis, truth } = crossoverDraw(1014);
+    const fit = fitCurve(analysis);
+    expect(fit.warnings.some((w) => /Ec and Γtip\/Γsub are the CB side's/.test(w))).toBe(true);
+    expect(fit.evidence.some((e) => /come from the CB side of the curve: the whole-curve fit moved Ec/.test(e))).toBe(true);
+    expectClose(fit.chargingEnergyEV.value, truth.chargingEnergyEV, { rtol: 0.03, what: "Ec (simulated)" });
+    expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
+    expect(fit.levels.some((l) => l.band === "VB")).toBe(true);
+    // The values reported are those of the CB-side run of the winning grouping, to the digit.
+    const cb = fit.alternatives.filter((a) => a.side === "CB" && a.hypothesis === fit.hypothesis && a.finished).sort((x, y) => x.bic - y.bic)[0];
+    expect(fit.chargingEnergyEV.value).toBe(cb.chargingEnergyEV);
+    expectClose(fit.rateRatio.value, cb.rateRatio, { rtol: 1e-12, what: "Γtip/Γsub of the CB side (exact)" });
   }, 60_000);
 });

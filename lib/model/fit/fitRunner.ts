@@ -1,0 +1,166 @@
+/**
+ * The runs of one model fit: the points it fits (the whole curve and its CB side, thinned evenly)
+ * and one Levenberg–Marquardt run of one hypothesis from one start, with any parameters held.
+ */
+import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
+import { startingValues } from "./startingValues.ts";
+import { parameterIndex } from "./parameterModel.ts";
+import { bandStepsMemo, bandStepsStore, type BandStepsStore } from "./bandStepsMemo.ts";
+import { linearProjector } from "./projectLinear.ts";
+import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
+import { bayesianInformationCriterion } from "./informationCriterion.ts";
+import type { FitHypothesis } from "./fitHypotheses.ts";
+import type { DataSet, FitTrial } from "./fitTrial.ts";
+
+/** Settings of {@link fitRunner} (fitCurve's, checked there). */
+export interface FitRunnerSettings {
+  /** Voltage-division factor η (0, 1]. No default: fitCurve's. */
+  eta: number;
+  /** Temperature, K. No default: fitCurve's. */
+  temperatureK: number;
+  /** Most data points (the curve is thinned evenly beyond this). No default: fitCurve's. */
+  maxPoints: number;
+  /** Wall-clock limit of all runs together, ms, counted from the call of fitRunner. No default. */
+  timeLimitMs: number;
+  /** Iterations that count as the full budget (a run with as many is `finished`). No default. */
+  maxIterations: number;
+  /** Starting charging energy where the peaks do not give one, eV. No default: fitCurve's. */
+  chargingEnergyGuessEV: number;
+  /** Iterations per chunk between convergence checks. No default: FIT_DEFAULTS.chunkIterations. */
+  chunkIterations: number;
+  /** Relative χ² improvement over one chunk below which a run has converged. No default: FIT_DEFAULTS.convergenceTolerance. */
+  convergenceTolerance: number;
+}
+
+/** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`), on `set` (default the whole curve), the parameters at the indices `held` kept at their start. */
+export type FitRun = (h: FitHypothesis, logRatio0: number | null, iterations: number, from?: number[], set?: DataSet, held?: readonly number[]) => FitTrial;
+
+/** What {@link fitRunner} returns. */
+export interface FitRunner {
+  /** The whole curve, thinned evenly. */
+  all: DataSet;
+  /** Its CB side (bias > 0). */
+  cbSide: DataSet;
+  /** The current noise σ the residuals are scaled by, A. */
+  noiseA: number;
+  /** One run (see {@link FitRun}). */
+  run: FitRun;
+  /** The linear projection (scale, offset, background) onto a data set, formed once per set. */
+  projectorOf: (set: DataSet) => ReturnType<typeof linearProjector>;
+  /** Band solutions shared by every run. */
+  bandStore: BandStepsStore;
+  /** Reduced χ² of a run, χ²/(n − k). */
+  reduced: (t: FitTrial) => number;
+}
+
+/**
+ * The data sets and the run function of one model fit.
+ *
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     The peak-based analysis: its conductance record (bias in V, current in A, noise in A).
+ * settings : FitRunnerSettings
+ *     η, temperature (K), point limit, time limit (ms), iteration budget, Ec guess (eV), chunk
+ *     size and convergence tolerance.
+ *
+ * Returns
+ * -------
+ * FitRunner
+ *     The whole curve and its CB side (every stride-th point, stride = ⌈points / maxPoints⌉), the
+ *     noise σ (A), the run function, the projector per set, the shared band store and the reduced χ².
+ *
+ * Throws
+ * ------
+ * Nothing (the settings are checked by fitCurve).
+ *
+ * Notes
+ * -----
+ * 1. The same points and the same noise σ serve every hypothesis, so that their χ² compare.
+ * 2. A run starts from the hypothesis' starting values (its rate ratio replaced by logRatio0 when
+ *    given) or from `from`; the parameters at `held` stay at their start: the Levenberg–Marquardt
+ *    loop sees only the free ones, and k (for the BIC) counts only those and the four linear ones.
+ * 3. The model is evaluated once per parameter vector (the loop asks for it point by point).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const { run, all } = fitRunner(analysis, settings);
+ * run(hypothesis, null, 60).n === all.n; // => true
+ * ```
+ */
+export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings): FitRunner {
+  const { eta, temperatureK, maxPoints, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC } = settings;
+  const sig = analysis.conductance;
+  const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
+  const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
+  const pointsOf = (keep: (v: number) => boolean): DataSet => {
+    const index = Array.from(sig.biasV.keys()).filter((i) => i % stride === 0 && keep(sig.biasV[i]));
+    const biasV = Float64Array.from(index, (i) => sig.biasV[i]);
+    const dataA = Float64Array.from(index, (i) => sig.currentA[i]);
+    return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
+  };
+  const all = pointsOf(() => true);
+  const cbSide = pointsOf((v) => v > 0);
+  const started = Date.now();
+  const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
+  const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
+  const bandStore = bandStepsStore();
+  const run: FitRun = (h, logRatio0, iterations, from, set = all, held = []) => {
+    const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
+    const at = parameterIndex(h.seeds.length);
+    const initialValues = from ? [...from] : [...start.initialValues];
+    if (!from && logRatio0 !== null) initialValues[at.logRateRatio] = logRatio0;
+    const free = initialValues.map((_, j) => j).filter((j) => !held.includes(j));
+    const pick = (a: number[]) => (held.length ? free.map((j) => a[j]) : a);
+    const expand = (q: number[]) => {
+      if (!held.length) return q;
+      const p = [...initialValues];
+      free.forEach((j, i) => (p[j] = q[i]));
+      return p;
+    };
+    const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
+    const project = projectorOf(set);
+    let cacheQ: number[] | null = null;
+    let cacheOut: Float64Array = new Float64Array(set.n);
+    const modelScaled = (q: number[]) => {
+      if (cacheQ === null || cacheQ.length !== q.length || q.some((v, j) => !Object.is(v, cacheQ![j]))) {
+        cacheQ = q.slice();
+        // The projection's output is a new array: scaled in place.
+        cacheOut = project(current(expand(q), set.biasV)).out;
+        for (let i = 0; i < cacheOut.length; i++) cacheOut[i] /= noiseA;
+      }
+      const out = cacheOut;
+      return (x: number) => out[x];
+    };
+    const loop = levenbergMarquardtLoop(set.data, modelScaled, {
+      initialValues: pick(initialValues),
+      minValues: pick(start.minValues),
+      maxValues: pick(start.maxValues),
+      gradientDifference: pick(start.gradientDifference),
+      maxIterations: iterations,
+      timeLimitMs: Math.max(1, timeLimitMs - (Date.now() - started)),
+      chunkIterations: settings.chunkIterations,
+      convergenceTolerance: settings.convergenceTolerance,
+    });
+    const parameters = expand(loop.parameters);
+    // k: the free nonlinear parameters and the four linear ones (scale, offset, b1, b3).
+    const k = free.length + 4;
+    const side = set === all ? "both" : "CB";
+    return {
+      hypothesis: h,
+      side,
+      n: set.n,
+      set,
+      rateRatio0: 10 ** initialValues[at.logRateRatio],
+      loop: { ...loop, parameters },
+      start,
+      k,
+      bic: bayesianInformationCriterion(loop.chiSquare, k, set.n),
+      finished: iterations >= maxIterations,
+      implausible: null,
+    };
+  };
+  const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
+  return { all, cbSide, noiseA, run, projectorOf, bandStore, reduced };
+}
