@@ -49,8 +49,11 @@ export interface FillingShells {
  *    below is full; about half the next step near Γtip/Γsub = 1.5) and does not set the s→p jump.
  * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
  *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
- *    `leadingSatelliteRatioMax` × the candidates' median step, the weakest extras are set aside,
- *    otherwise the shell takes its first g candidates.
+ *    `leadingSatelliteRatioMax` × the candidates' median step (a dip: × the larger of its
+ *    neighbours), the extras are set aside,
+ *    otherwise the shell takes its first g candidates. The extras are the dips first (a step
+ *    below both neighbours: a higher sub-level entered at a lower charge state, as near
+ *    Γtip/Γsub = 2–4 in a split p shell), then the weakest peaks.
  * 4. A peak inside the shell whose step is below `satelliteStepRatioMax` × the steps of both its
  *    neighbours is set aside (a higher sub-level entered at a lower charge state: not a charging
  *    peak of the ladder).
@@ -117,8 +120,20 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
     if (members.length > g) {
       const steps = members.map((p) => p.peak.stepA).sort((a, b) => a - b);
       const typical = steps[steps.length >> 1];
-      const byWeakness = [...members].sort((a, b) => a.peak.stepA - b.peak.stepA);
-      const extras = byWeakness.slice(0, members.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * typical);
+      // A dip (a step below both neighbours, the rise after it a sub-level's own charging) is a
+      // higher sub-level entered early and goes before the weakest end peak, which near the
+      // filling limit is the shell's last charging peak.
+      const dip = (j: number) => j > 0 && j < members.length - 1 && members[j].peak.stepA < Math.min(members[j - 1].peak.stepA, members[j + 1].peak.stepA);
+      const byWeakness = members
+        .map((p, j) => ({ p, dip: dip(j) }))
+        .sort((a, b) => Number(b.dip) - Number(a.dip) || a.p.peak.stepA - b.p.peak.stepA)
+        .map((x) => x.p);
+      // A dip is weak next to the larger of its neighbours; any other extra next to the median step.
+      const weakAgainst = (p: BandPeak) => {
+        const j = members.indexOf(p);
+        return dip(j) ? Math.max(members[j - 1].peak.stepA, members[j + 1].peak.stepA) : typical;
+      };
+      const extras = byWeakness.slice(0, members.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * weakAgainst(p));
       if (extras.length === members.length - g) {
         offLadder.push(...extras);
         members = members.filter((p) => !extras.includes(p));

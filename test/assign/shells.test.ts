@@ -64,6 +64,28 @@ describe("fillingShells(cb) near the filling limit", () => {
   });
 });
 
+describe("fillingShells(cb) on a split p shell in the crossover", () => {
+  it("sets aside the dip of a higher sub-level entered early rather than p's weak last charging peak", () => {
+    // p split 2 + 4 (p_a at 0.8, p_b at 0.9 eV), Γtip/Γsub = 3: the peaks at the closed-form
+    // positions (|ε| + Ec(n + ½))/η, with p_b entered at n = 3 one Ec after p_a's second peak;
+    // step heights from the project's master equation (currentSteps, simulated truth). Seven
+    // candidates for six states: the dip at n = 3 is the extra, p_b's last (n = 7) is p's sixth.
+    const model = {
+      cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 4 }],
+      vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 3e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 1), V(0.8, 2), V(0.8, 3), V(0.9, 3), ...[4, 5, 6, 7].map((n) => V(0.9, n))];
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    // The last charging peak is weaker than the dip: the weakest extra alone would be the wrong one.
+    expect(steps[9]).toBeLessThan(steps[5]);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.offLadder.map((p) => p.index)).toEqual([2, 5]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([3, 4, 6, 7, 8, 9]);
+    expect(r.shells).toHaveLength(2);
+  });
+});
+
 describe("completeShells(shells, weak, chargingEnergyV)", () => {
   it("appends a weak peak one Ec beyond a shell that is short of its degeneracy (p's last charging peak near the filling limit)", () => {
     // p's sixth charging peak at (0.8 + 7.5·Ec)/η: at Γtip/Γsub = 2 its step is a small fraction of
