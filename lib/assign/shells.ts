@@ -44,7 +44,7 @@ export interface FillingShells {
  *    jump that opens the next shell, a jump whose excess over Ec is more than
  *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
  *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
- *    candidate within (1 + `subgroupExtraMin`)·Ec of the next and weaker than
+ *    candidate within (1 + `subgroupExtraMin`)·Ec of the next on the ladder and weaker than
  *    `leadingSatelliteRatioMax` × its step is the shell's level entered early (before the shell
  *    below is full; about half the next step near Γtip/Γsub = 1.5) and does not set the s→p jump.
  * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
@@ -97,8 +97,9 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
       }
       if (run.length === 0) {
         // The shell's level entered early (its charging satellite) sits one Ec before the
-        // shell's first peak and is much weaker: it must not set the s→p jump.
-        const next = cb[k + 1];
+        // shell's first peak and is much weaker: it must not set the s→p jump. Its next peak on
+        // the ladder (a peak closer than the ladder's spacing in between is off it).
+        const next = cb.slice(k + 1).find((q) => q.x - cb[k].x >= D.minLadderSpacingFraction * ec0);
         if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.leadingSatelliteRatioMax * next.peak.stepA) {
           offLadder.push(cb[k]);
           continue;

@@ -86,6 +86,29 @@ describe("fillingShells(cb) on a split p shell in the crossover", () => {
   });
 });
 
+describe("fillingShells(cb) with p entered early and a sub-level off the ladder", () => {
+  it("judges p entered early against the next peak on the ladder, not an off-ladder peak between them", () => {
+    // p split 2 + 4 (p_a at 0.63, p_b at 0.69 eV: 0.6 Ec apart; Δsp just above Ec), Γtip/Γsub =
+    // 2.6: every step the project's master equation gives above a fifth of the median
+    // (currentSteps, simulated truth) at its closed-form position (|ε| + Ec(n + ½))/η. p_a entered
+    // at n = 1 lies one Ec before p's first charging peak with p_b's n = 1 channel 0.6 Ec after
+    // it, off the ladder; taken as p's first peak it would make the s→p jump so small that the
+    // gap to p_b opens a new shell.
+    const model = {
+      cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.63, degeneracy: 2 }, { energyEV: 0.69, degeneracy: 4 }],
+      vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 2.6e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.63, 1), V(0.69, 1), V(0.63, 2), V(0.69, 2), V(0.63, 3), V(0.69, 3), ...[4, 5, 6, 7].map((n) => V(0.69, n))];
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    const median = [...steps].sort((a, b) => a - b)[steps.length >> 1];
+    expect(Math.min(...steps)).toBeGreaterThan(0.2 * median); // all above the band's noise rule
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([4, 6, 8, 9, 10, 11]);
+    expect(r.offLadder.map((p) => p.index)).toEqual([2, 3, 5, 7]);
+  });
+});
+
 describe("completeShells(shells, weak, chargingEnergyV)", () => {
   it("appends a weak peak one Ec beyond a shell that is short of its degeneracy (p's last charging peak near the filling limit)", () => {
     // p's sixth charging peak at (0.8 + 7.5·Ec)/η: at Γtip/Γsub = 2 its step is a small fraction of
