@@ -143,6 +143,8 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       levelStepMargin: 0.8,
       minLadderSpacingFraction: 0.65,
       leadingSatelliteRatioMax: 0.6,
+      earlyEntryStepRatioMax: 0.5,
+      earlyEntryDoubletRatioMin: 0.7,
       subgroupExtraMin: 0.2,
       newShellExcessFraction: 0.9,
       tunnelingSublevelFraction: 0.5,
