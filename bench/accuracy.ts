@@ -12,7 +12,7 @@
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
- * within 10 %. Intermediate spectra (Γtip/Γsub between 0.3 and 2) are reported separately: for
+ * within 10 %. Intermediate spectra (Γtip/Γsub between 3/7 and 1.5, REGIME_LIMITS) are reported separately: for
  * them "undetermined" is an acceptable answer, a wrong definite regime is not.
  *
  * The other mixes (--mix) leave the default figures alone: "crossover" draws Γtip/Γsub
