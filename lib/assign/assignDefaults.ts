@@ -53,13 +53,19 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * of 2 and 6 states, whatever Δsp); 0.5 (r ≈ 1.75) leaves a margin above the filling limit
    * 1.5 for the noise of measured steps.
    */
-  earlyEntryStepRatioMax: 0.5,
+  earlyEntryStepRatioMax: 0.48,
   /**
    * … and the s doublet's step ratio is at least this (r/(1 + r) at Γtip/Γsub = 7/3): each of the
    * two ratios scatters by about ±0.1 in 0.2–1 % noise, so the rule asks both to point well
    * inside shell filling.
    */
   earlyEntryDoubletRatioMin: 0.7,
+  /**
+   * A dip in a shell's steps (below both neighbours) counts as an extra only below this fraction of
+   * the shell's median step: a higher sub-level entered early carries 0.6–0.65 of it near
+   * Γtip/Γsub = 3 (master equation), a charging peak next to a strong resonance about 1.
+   */
+  dipTypicalRatioMax: 0.7,
   /** Inside a multiplet, a spacing above (1 + this)·Ec starts a sub-group. */
   subgroupExtraMin: 0.2,
   /** A jump whose excess over Ec exceeds this fraction of the s→p excess starts a new shell. */

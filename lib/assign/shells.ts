@@ -44,13 +44,14 @@ export interface FillingShells {
  *    jump that opens the next shell, a jump whose excess over Ec is more than
  *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
  *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
- *    candidate within (1 + `subgroupExtraMin`)·Ec of the next on the ladder and weaker than
+ *    candidate within (1 + `subgroupExtraMin`)·Ec of the next on the ladder (past weaker peaks
+ *    closer than `minLadderSpacingFraction`·Ec; else the next peak) and weaker than
  *    `leadingSatelliteRatioMax` × its step is the shell's level entered early (before the shell
  *    below is full; about half the next step near Γtip/Γsub = 1.5) and does not set the s→p jump.
  * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
  *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
  *    `leadingSatelliteRatioMax` × the candidates' median step (a dip: × the larger of its
- *    neighbours), the extras are set aside,
+ *    neighbours, and below `dipTypicalRatioMax` × the median step), the extras are set aside,
  *    otherwise the shell takes its first g candidates. The extras are the dips first (a step
  *    below both neighbours: a higher sub-level entered at a lower charge state, as near
  *    Γtip/Γsub = 2–4 in a split p shell), then the weakest peaks.
@@ -98,8 +99,11 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
       if (run.length === 0) {
         // The shell's level entered early (its charging satellite) sits one Ec before the
         // shell's first peak and is much weaker: it must not set the s→p jump. Its next peak on
-        // the ladder (a peak closer than the ladder's spacing in between is off it).
-        const next = cb.slice(k + 1).find((q) => q.x - cb[k].x >= D.minLadderSpacingFraction * ec0);
+        // the ladder, past weaker peaks closer than the ladder's spacing (side channels off the
+        // ladder); a stronger close peak is the next one (the same step found twice).
+        const onLadder = cb.findIndex((q, j) => j > k && q.x - cb[k].x >= D.minLadderSpacingFraction * ec0);
+        const between = cb.slice(k + 1, onLadder < 0 ? cb.length : onLadder);
+        const next = between.every((q) => q.peak.stepA < cb[k].peak.stepA) && onLadder >= 0 ? cb[onLadder] : cb[k + 1];
         if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.leadingSatelliteRatioMax * next.peak.stepA) {
           offLadder.push(cb[k]);
           continue;
@@ -129,12 +133,16 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
         .map((p, j) => ({ p, dip: dip(j) }))
         .sort((a, b) => Number(b.dip) - Number(a.dip) || a.p.peak.stepA - b.p.peak.stepA)
         .map((x) => x.p);
-      // A dip is weak next to the larger of its neighbours; any other extra next to the median step.
-      const weakAgainst = (p: BandPeak) => {
+      // A dip is weak next to the larger of its neighbours and below `dipTypicalRatioMax` × the
+      // median step (a step next to a strong resonance is not a dip); any other extra is weak next
+      // to the median step.
+      const weak = (p: BandPeak) => {
         const j = members.indexOf(p);
-        return dip(j) ? Math.max(members[j - 1].peak.stepA, members[j + 1].peak.stepA) : typical;
+        if (!dip(j)) return p.peak.stepA < D.leadingSatelliteRatioMax * typical;
+        const larger = Math.max(members[j - 1].peak.stepA, members[j + 1].peak.stepA);
+        return p.peak.stepA < D.leadingSatelliteRatioMax * larger && p.peak.stepA < D.dipTypicalRatioMax * typical;
       };
-      const extras = byWeakness.slice(0, members.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * weakAgainst(p));
+      const extras = byWeakness.slice(0, members.length - g).filter(weak);
       if (extras.length === members.length - g) {
         offLadder.push(...extras);
         members = members.filter((p) => !extras.includes(p));
