@@ -109,6 +109,29 @@ describe("fillingShells(cb) with p entered early and a sub-level off the ladder"
   });
 });
 
+describe("fillingShells(cb) next to peaks that are not charging steps", () => {
+  it("keeps a charging peak that dips only next to a strong resonance (not below 0.7 × the median step)", () => {
+    // p split 2 + 4 (p_a at 0.8, p_b at 0.9 eV) with its six charging peaks at the closed-form
+    // positions, alike steps, and a second-junction resonance not set aside in the sub-level gap
+    // (on the ladder's spacing) carrying three tip-side steps (common practice (no source): a
+    // level's resonance carries several of its steps). p_b's first peak, 0.95 of the others, is
+    // below both neighbours but no early-entry dip.
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 3), (V(0.8, 3) + V(0.9, 4)) / 2, V(0.9, 4), V(0.9, 5), V(0.9, 6), V(0.9, 7)];
+    const steps = [1, 0.9, 1, 1, 3, 0.95, 1, 1, 1].map((k) => k * 1e-11);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.shells[1].flat().map((p) => p.index)).toContain(5);
+  });
+
+  it("does not take a step found twice (two close peaks) for p entered early", () => {
+    // p's first charging peak found as two peaks 15 mV apart (the second the stronger), then p's
+    // charging peaks at the closed-form positions (equal steps, common practice (no source)).
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 2) + 0.015, ...[3, 4, 5, 6, 7].map((n) => V(0.8, n))];
+    const steps = [1, 0.9, 0.45, 0.5, 1, 1, 1, 1, 1].map((k) => k * 1e-11);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.shells[1].flat()[0].index).toBe(2);
+  });
+});
+
 describe("completeShells(shells, weak, chargingEnergyV)", () => {
   it("appends a weak peak one Ec beyond a shell that is short of its degeneracy (p's last charging peak near the filling limit)", () => {
     // p's sixth charging peak at (0.8 + 7.5·Ec)/η: at Γtip/Γsub = 2 its step is a small fraction of
