@@ -50,7 +50,7 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * Regime: a weak third CB peak one spacing before a stronger one is p entered before s is full
    * (shell filling) when its step is below this fraction of the next. The project's master
    * equation gives 0.65, 0.60, 0.535, 0.46 and 0.36 at Γtip/Γsub = 1, 1.2, 1.5, 2 and 3 (s and p
-   * of 2 and 6 states, whatever Δsp); 0.5 (r ≈ 1.75) leaves a margin above the filling limit
+   * of 2 and 6 states, whatever Δsp); 0.48 (r ≈ 1.85) leaves a margin above the filling limit
    * 1.5 for the noise of measured steps.
    */
   earlyEntryStepRatioMax: 0.48,
