@@ -2,7 +2,8 @@
 // Closed forms (orthodox theory, the charging ladder of an s level with g = 2): the second s
 // charging step over the first is r/(1 + r) for r = Γtip/Γsub; in shell tunnelling the p step over
 // the s step is the degeneracy ratio 6/2 = 3. Peaks at (ε + Ec(n + ½))/η with ε_s = 0.5 eV,
-// ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8.
+// ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8. The early-entry block takes its step heights from the
+// project's master equation (currentSteps, the simulated truth) at closed-form positions.
 import { describe, it, expect } from "vitest";
 import { classifyRegime, regimeRatios, type RegimeEvidence } from "../../lib/assign/regime.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
