@@ -8,10 +8,11 @@
  *   npm run bench:accuracy -- --mix crossover        # Γtip/Γsub 0.2–5, regime from the true ratio
  *   npm run bench:accuracy -- --mix cut-window       # the bias window ends inside the p shell
  *   npm run bench:accuracy -- --mix low-eta          # η 0.55–0.65 (the default mix otherwise)
+ *   npm run bench:accuracy -- --mix crossover --n 100 --method fast --compare-models
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
- * within 10 %. Intermediate spectra (Γtip/Γsub between 0.3 and 2) are reported separately: for
+ * within 10 %. Intermediate spectra (Γtip/Γsub between 3/7 and 1.5, REGIME_LIMITS) are reported separately: for
  * them "undetermined" is an acceptable answer, a wrong definite regime is not.
  *
  * The other mixes (--mix) leave the default figures alone: "crossover" draws Γtip/Γsub
@@ -23,11 +24,24 @@
  * (syntheticSpectrum's `secondJunction: "keep"`). In every mix a peak at a true second-junction
  * resonance (and at no true tip-junction peak) that the analysis puts in a multiplet fails the
  * spectrum; the low-eta mix also reports how many resonances were labelled as such.
+ *
+ * With --compare-models, every spectrum the rules leave undetermined (and that has levels) is
+ * also fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze
+ * --compare-models` does, and the fit's answer is scored as that command reports it (fitToJson's
+ * quantities): in shell filling or shell tunnelling, the fit's regime, its Ec within 10 % and,
+ * where the truth has one, its Δsp within 10 %; in the intermediate range, the regime
+ * "intermediate" with Ec within 3 % and Γtip/Γsub within × 1.5 (the issue's bar). A fit with
+ * status "failed", regime "undetermined" or that throws counts as undetermined. Two lines are
+ * printed per regime: the rules alone, and the rules plus the comparison, with the fits' time.
  */
+import { loadavg } from "node:os";
 import { simulateCurve } from "../lib/model/simulate.ts";
 import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRanges, type SyntheticRegime, type SyntheticTruth } from "../lib/model/syntheticSpectrum.ts";
 import { REGIME_LIMITS } from "../lib/model/regimeLimits.ts";
 import { analyzeCurve, type CurveAnalysis } from "../lib/pipeline/analyzeCurve.ts";
+import { fitCurve } from "../lib/model/fit/fitCurve.ts";
+import { analysisToJson } from "../lib/report/analysisJson.ts";
+import { fitToJson } from "../lib/report/fitJson.ts";
 
 const args = process.argv.slice(2);
 const arg = (name: string, fallback: string) => {
@@ -37,6 +51,7 @@ const arg = (name: string, fallback: string) => {
 const perRegime = Number(arg("n", "200"));
 const method = arg("method", "exact") as "exact" | "fast";
 const verbose = args.includes("--verbose");
+const compareModels = args.includes("--compare-models");
 const firstSeed = Number(arg("seed", "1"));
 // "current": differentiate the simulated current; "measured": analyse a simulated lock-in dI/dV column.
 const path = arg("path", "current") as "current" | "measured";
@@ -95,6 +110,61 @@ function score(a: CurveAnalysis, t: SyntheticTruth, tipPeaksV: readonly number[]
   return { pass: failures.length === 0, failures };
 }
 
+/** What the model comparison gave on one spectrum the rules left undetermined. */
+type Comparison = { outcome: "undetermined" | "pass" | "fail"; detail: string };
+/** Wall time of each comparison fit, ms. */
+const comparisonMs: number[] = [];
+/** Per true regime: spectra the rules left undetermined, and what the comparison made of them. */
+const comparisonTally = new Map<string, { undecided: number; pass: number; fail: number; undetermined: number }>();
+
+/**
+ * The fit `dotspec analyze --compare-models` adds to a curve the rules leave undetermined, scored
+ * against the truth; null where the command would not fit (a definite regime, or no levels).
+ */
+function compareWithModel(a: CurveAnalysis, t: SyntheticTruth): Comparison | null {
+  if (!compareModels || a.assignment.regime !== "undetermined") return null;
+  const json = analysisToJson(a);
+  if (json.noLevels !== null) return null;
+  const tally = comparisonTally.get(t.regime) ?? { undecided: 0, pass: 0, fail: 0, undetermined: 0 };
+  comparisonTally.set(t.regime, tally);
+  tally.undecided++;
+  const t0 = performance.now();
+  let result: Comparison;
+  try {
+    const fit = fitCurve(a, { compareModels: true });
+    const q = fitToJson(fit, json).quantities;
+    const ec = q.chargingEnergyEV.value;
+    if (fit.status === "failed" || fit.regime === "undetermined") result = { outcome: "undetermined", detail: `fit ${fit.status}, ${fit.regime}` };
+    else {
+      const failures: string[] = [];
+      if (fit.regime !== t.regime) failures.push(`regime ${fit.regime}`);
+      const ecTol = t.regime === "intermediate" ? 0.03 : 0.1;
+      if (Math.abs(ec - t.chargingEnergyEV) > ecTol * t.chargingEnergyEV) failures.push(`Ec ${ec.toFixed(4)} vs ${t.chargingEnergyEV.toFixed(4)}`);
+      if (t.regime === "intermediate") {
+        if (Math.abs(Math.log(fit.rateRatio.value / t.rateRatio)) > Math.log(1.5)) failures.push(`Γtip/Γsub ${fit.rateRatio.value.toPrecision(3)} vs ${t.rateRatio.toPrecision(3)}`);
+      } else {
+        const sp = q.levelSpacingSPEV?.value ?? null;
+        if (sp === null || Math.abs(sp - t.levelSpacingSPEV) > 0.1 * t.levelSpacingSPEV) failures.push(`Δsp ${sp?.toFixed(4)} vs ${t.levelSpacingSPEV.toFixed(4)}`);
+      }
+      result = { outcome: failures.length ? "fail" : "pass", detail: `fit ${fit.status} ${fit.hypothesis}${failures.length ? ": " + failures.join("; ") : ""}` };
+    }
+  } catch (err) {
+    result = { outcome: "undetermined", detail: `fit threw: ${(err as Error).message}` };
+  }
+  comparisonMs.push(performance.now() - t0);
+  tally[result.outcome]++;
+  return result;
+}
+
+/** Per true regime: spectra, and how many the rules alone pass on every criterion. */
+const rulesTally = new Map<string, { total: number; passed: number }>();
+function tallyRules(regime: string, passed: boolean): void {
+  const r = rulesTally.get(regime) ?? { total: 0, passed: 0 };
+  r.total++;
+  if (passed) r.passed++;
+  rulesTally.set(regime, r);
+}
+
 /** Time of each analyzeCurve call, ms (the first few include warm-up). */
 const analysisMs: number[] = [];
 
@@ -116,6 +186,8 @@ if (mix === "crossover") {
     analysisMs.push(performance.now() - t0);
     const got = analysis.assignment.regime;
     const want = truth.regime;
+    const cmp = compareWithModel(analysis, truth);
+    if (cmp && cmp.outcome !== "pass" && verbose) console.log(`seed ${seed} ${want} r=${truth.rateRatio.toFixed(3)} undetermined by the rules; comparison ${cmp.outcome}: ${cmp.detail}`);
     const c = counts.get(want) ?? { right: 0, undetermined: 0, wrong: 0, total: 0, passed: 0 };
     c.total++;
     if (got === want) c.right++;
@@ -130,6 +202,7 @@ if (mix === "crossover") {
     }
     if (want !== "intermediate") {
       const sc = score(analysis, truth, [...truth.sPeaksV, ...truth.pPeaksV, ...truth.valencePeaksV]);
+      tallyRules(want, sc.pass);
       if (sc.pass) c.passed++;
       else {
         const key = sc.failures[0].replace(/[-\d.]+/g, "#");
@@ -138,7 +211,10 @@ if (mix === "crossover") {
         reasons.set(want, m);
       }
       if (!sc.pass && verbose) console.log(`seed ${seed} ${want} r=${truth.rateRatio.toFixed(3)} Ec=${truth.chargingEnergyEV.toFixed(3)} η=${truth.eta.toFixed(2)} fwhm=${(truth.peakFwhmV * 1e3).toFixed(0)}mV noise=${(truth.noiseRelative * 100).toFixed(2)}% split=${truth.pSubgroups.join("+")}: ${sc.failures.join("; ")}`);
-    } else if (got !== "undetermined" && verbose) console.log(`seed ${seed} intermediate r=${truth.rateRatio.toFixed(3)}: named ${got}`);
+    } else {
+      tallyRules(want, false);
+      if (got !== "undetermined" && verbose) console.log(`seed ${seed} intermediate r=${truth.rateRatio.toFixed(3)}: named ${got}`);
+    }
     counts.set(want, c);
   }
   for (const want of ["shell-filling", "shell-tunneling", "intermediate"]) {
@@ -174,12 +250,16 @@ for (const regime of regimes) {
     const t0 = performance.now();
     const analysis = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" });
     analysisMs.push(performance.now() - t0);
+    const cmp = compareWithModel(analysis, truth);
+    if (cmp && cmp.outcome !== "pass" && verbose) console.log(`seed ${seed} ${regime} r=${truth.rateRatio.toFixed(3)} undetermined by the rules; comparison ${cmp.outcome}: ${cmp.detail}`);
     if (regime === "intermediate") {
+      tallyRules(regime, false);
       if (analysis.assignment.regime === "undetermined") undetermined++;
       else wrongDefinite++;
       continue;
     }
     const s = score(analysis, truth, [...drawn.truth.sPeaksV, ...drawn.truth.pPeaksV, ...truth.valencePeaksV]);
+    tallyRules(regime, s.pass);
     if (analysis.assignment.regime === regime) regimeRight++;
     if (s.pass) {
       passed++;
@@ -207,11 +287,28 @@ if (mix === "low-eta") {
   const t = resonanceTally;
   lines.push(`second-junction resonances in the window ${t.inWindow}, found apart from any level ${t.found}: labelled second-junction ${t.labelled}, counted in a multiplet ${t.inMultiplet}`);
 }
+if (compareModels) {
+  // Rules alone, then rules plus what the comparison made of the spectra they left undetermined.
+  const pc = (k: number, n: number) => `${k}/${n} (${n ? ((100 * k) / n).toFixed(1) : "—"} %)`;
+  for (const regime of ["shell-filling", "shell-tunneling", "intermediate"]) {
+    const r = rulesTally.get(regime);
+    if (!r) continue;
+    const c = comparisonTally.get(regime) ?? { undecided: 0, pass: 0, fail: 0, undetermined: 0 };
+    const what = regime === "intermediate" ? "intermediate, Ec within 3 % and Γtip/Γsub within ×1.5" : "all criteria";
+    lines.push(
+      `${regime.padEnd(16)} ${what}: rules alone ${pc(r.passed, r.total)}, rules + comparison ${pc(r.passed + c.pass, r.total)} ` +
+        `(of ${c.undecided} left undetermined by the rules the fit got ${c.pass} right, ${c.fail} wrong, ${c.undetermined} undetermined or failed)`,
+    );
+  }
+  const ms = comparisonMs.slice().sort((a, b) => a - b);
+  const at = (p: number) => (ms.length ? ms[Math.min(ms.length - 1, Math.floor(p * ms.length))].toFixed(0) : "—");
+  lines.push(`comparison fits ${ms.length}: median ${at(0.5)} ms, 90th percentile ${at(0.9)} ms, total ${(ms.reduce((x, y) => x + y, 0) / 1000).toFixed(1)} s; load average ${loadavg().map((x) => x.toFixed(1)).join(", ")}`);
+}
 const within = (k: number) => calibration.filter((z) => Math.abs(z) <= k).length / Math.max(calibration.length, 1);
 if (mix !== "crossover") lines.push(
   `peak-position uncertainty calibration over ${calibration.length} peaks: |error| ≤ 1σ ${(100 * within(1)).toFixed(0)} %, ≤ 2σ ${(100 * within(2)).toFixed(0)} %, ≤ 3σ ${(100 * within(3)).toFixed(0)} % (normal: 68/95/99.7)`,
 );
 const sortedMs = analysisMs.slice(20).sort((a, b) => a - b);
 if (sortedMs.length) lines.push(`analyzeCurve after 20 warm-up calls: median ${sortedMs[sortedMs.length >> 1].toFixed(2)} ms, 90th percentile ${sortedMs[Math.floor(0.9 * sortedMs.length)].toFixed(2)} ms`);
-lines.push(`${mix === "default" ? "" : `mix ${mix}, `}method ${method}, ${path} dI/dV, seeds ${firstSeed}…${firstSeed + perRegime - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`);
+lines.push(`${mix === "default" ? "" : `mix ${mix}, `}${compareModels ? "--compare-models, " : ""}method ${method}, ${path} dI/dV, seeds ${firstSeed}…${firstSeed + perRegime - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`);
 console.log(lines.join("\n"));

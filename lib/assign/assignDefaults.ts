@@ -46,6 +46,26 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   minLadderSpacingFraction: 0.65,
   /** When a shell has more charging-ladder candidates than it holds, the extras weaker than this fraction of the candidates' median step are charging satellites. */
   leadingSatelliteRatioMax: 0.6,
+  /**
+   * Regime: a weak third CB peak one spacing before a stronger one is p entered before s is full
+   * (shell filling) when its step is below this fraction of the next. The project's master
+   * equation gives 0.65, 0.60, 0.535, 0.46 and 0.36 at Γtip/Γsub = 1, 1.2, 1.5, 2 and 3 (s and p
+   * of 2 and 6 states, whatever Δsp); 0.48 (r ≈ 1.85) leaves a margin above the filling limit
+   * 1.5 for the noise of measured steps.
+   */
+  earlyEntryStepRatioMax: 0.48,
+  /**
+   * … and the s doublet's step ratio is at least this (r/(1 + r) at Γtip/Γsub = 7/3): each of the
+   * two ratios scatters by about ±0.1 in 0.2–1 % noise, so the rule asks both to point well
+   * inside shell filling.
+   */
+  earlyEntryDoubletRatioMin: 0.7,
+  /**
+   * A dip in a shell's steps (below both neighbours) counts as an extra only below this fraction of
+   * the shell's median step: a higher sub-level entered early carries 0.6–0.65 of it near
+   * Γtip/Γsub = 3 (master equation), a charging peak next to a strong resonance about 1.
+   */
+  dipTypicalRatioMax: 0.7,
   /** Inside a multiplet, a spacing above (1 + this)·Ec starts a sub-group. */
   subgroupExtraMin: 0.2,
   /** A jump whose excess over Ec exceeds this fraction of the s→p excess starts a new shell. */

@@ -117,8 +117,9 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  * 3. Step ratio between `D.tunnelingSatelliteRatioMax` and the filling range: undetermined (an
  *    intermediate rate ratio: too strong for a satellite, too weak for a doublet).
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
- *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps and
- *    no third CB peak: the VB decides (see `pairWithoutThird`).
+ *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps
+ *    (ratio at least `D.earlyEntryDoubletRatioMin`) with a shorter jump to a weak third peak that
+ *    is p entered early (see `earlyEntryJump`): shell filling. Alike steps and no third CB peak: the VB decides (see `pairWithoutThird`).
  * 4. Otherwise the p shell — the second main peak with the sub-levels close to it (see
  *    `tunnelingShells`) — carrying at least `D.tunnelingStepRatioMin` × the s step: shell
  *    tunnelling. With a measured charging satellite of s (step ratio q from
@@ -166,6 +167,13 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       );
       return "shell-tunneling";
     }
+    const early = ratio >= D.earlyEntryDoubletRatioMin ? earlyEntryJump(cb) : null;
+    if (early !== null) {
+      reasons.push(
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)} ≥ ${D.earlyEntryDoubletRatioMin}) and the next peak, ${early.stepRatio.toFixed(2)} × the step of the one ${early.spacingRatio.toFixed(2)} × their spacing after it (< ${D.earlyEntryStepRatioMax}), is p entered before s is full; the jump to p's first charging peak is ${early.jump.toFixed(2)} × their spacing (≥ ${D.fillingJumpRatioMin}): an s doublet of charging peaks`,
+      );
+      return "shell-filling";
+    }
     reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
   } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
     reasons.push(
@@ -202,6 +210,30 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       note,
   );
   return "undetermined";
+}
+
+/**
+ * Near the filling limit with Δsp close to Ec, p's level is entered while s holds one carrier, at
+ * ε_p + 1.5·Ec: a peak between the s doublet and p's first charging peak, one Ec before the
+ * latter and much weaker (about half its step near Γtip/Γsub = 1.5–2), which makes the jump after
+ * the doublet look like a single Ec. The jump measured to the peak after it instead, when the
+ * third peak (the first at least `satelliteStepRatioMax` × the second's step) has a next peak on
+ * the ladder (at least `minLadderSpacingFraction` × the doublet's spacing after it) within
+ * (1 + `subgroupExtraMin`) × that spacing, carries less than `earlyEntryStepRatioMax` × its
+ * step (a rate ratio well inside shell filling), and that jump is at least `fillingJumpRatioMin` × the doublet's spacing; null otherwise.
+ * The same rule sets the peak aside when the shells are built (`fillingShells`).
+ */
+function earlyEntryJump(cb: readonly BandPeak[]): { jump: number; stepRatio: number; spacingRatio: number } | null {
+  const D = ASSIGN_DEFAULTS;
+  const spacing = cb[1].x - cb[0].x;
+  const k = cb.findIndex((p, i) => i >= 2 && p.peak.stepA >= D.satelliteStepRatioMax * cb[1].peak.stepA);
+  if (k < 0 || spacing <= 0) return null;
+  const next = cb.slice(k + 1).find((q) => q.x - cb[k].x >= D.minLadderSpacingFraction * spacing);
+  if (!next || next.x - cb[k].x > (1 + D.subgroupExtraMin) * spacing) return null;
+  const stepRatio = cb[k].peak.stepA / next.peak.stepA;
+  const jump = (next.x - cb[1].x) / spacing;
+  if (stepRatio >= D.earlyEntryStepRatioMax || jump < D.fillingJumpRatioMin) return null;
+  return { jump, stepRatio, spacingRatio: (next.x - cb[k].x) / spacing };
 }
 
 /**

@@ -44,13 +44,17 @@ export interface FillingShells {
  *    jump that opens the next shell, a jump whose excess over Ec is more than
  *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
  *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
- *    candidate within (1 + `subgroupExtraMin`)·Ec of the next and weaker than
+ *    candidate within (1 + `subgroupExtraMin`)·Ec of the next on the ladder (past weaker peaks
+ *    closer than `minLadderSpacingFraction`·Ec; else the next peak) and weaker than
  *    `leadingSatelliteRatioMax` × its step is the shell's level entered early (before the shell
  *    below is full; about half the next step near Γtip/Γsub = 1.5) and does not set the s→p jump.
  * 3. More candidates than g: a first candidate weaker than `satelliteStepRatioMax` × the second
  *    is set aside (steps fall along a charging multiplet); then, if every extra is weaker than
- *    `leadingSatelliteRatioMax` × the candidates' median step, the weakest extras are set aside,
- *    otherwise the shell takes its first g candidates.
+ *    `leadingSatelliteRatioMax` × the candidates' median step (a dip: × the larger of its
+ *    neighbours, and below `dipTypicalRatioMax` × the median step), the extras are set aside,
+ *    otherwise the shell takes its first g candidates. The extras are the dips first (a step
+ *    below both neighbours: a higher sub-level entered at a lower charge state, as near
+ *    Γtip/Γsub = 2–4 in a split p shell), then the weakest peaks.
  * 4. A peak inside the shell whose step is below `satelliteStepRatioMax` × the steps of both its
  *    neighbours is set aside (a higher sub-level entered at a lower charge state: not a charging
  *    peak of the ladder).
@@ -94,8 +98,12 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
       }
       if (run.length === 0) {
         // The shell's level entered early (its charging satellite) sits one Ec before the
-        // shell's first peak and is much weaker: it must not set the s→p jump.
-        const next = cb[k + 1];
+        // shell's first peak and is much weaker: it must not set the s→p jump. Its next peak on
+        // the ladder, past weaker peaks closer than the ladder's spacing (side channels off the
+        // ladder); a stronger close peak is the next one (the same step found twice).
+        const onLadder = cb.findIndex((q, j) => j > k && q.x - cb[k].x >= D.minLadderSpacingFraction * ec0);
+        const between = cb.slice(k + 1, onLadder < 0 ? cb.length : onLadder);
+        const next = between.every((q) => q.peak.stepA < cb[k].peak.stepA) && onLadder >= 0 ? cb[onLadder] : cb[k + 1];
         if (next && next.x - cb[k].x < (1 + D.subgroupExtraMin) * ec0 && cb[k].peak.stepA < D.leadingSatelliteRatioMax * next.peak.stepA) {
           offLadder.push(cb[k]);
           continue;
@@ -117,8 +125,24 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
     if (members.length > g) {
       const steps = members.map((p) => p.peak.stepA).sort((a, b) => a - b);
       const typical = steps[steps.length >> 1];
-      const byWeakness = [...members].sort((a, b) => a.peak.stepA - b.peak.stepA);
-      const extras = byWeakness.slice(0, members.length - g).filter((p) => p.peak.stepA < D.leadingSatelliteRatioMax * typical);
+      // A dip (a step below both neighbours, the rise after it a sub-level's own charging) is a
+      // higher sub-level entered early and goes before the weakest end peak, which near the
+      // filling limit is the shell's last charging peak.
+      const dip = (j: number) => j > 0 && j < members.length - 1 && members[j].peak.stepA < Math.min(members[j - 1].peak.stepA, members[j + 1].peak.stepA);
+      const byWeakness = members
+        .map((p, j) => ({ p, dip: dip(j) }))
+        .sort((a, b) => Number(b.dip) - Number(a.dip) || a.p.peak.stepA - b.p.peak.stepA)
+        .map((x) => x.p);
+      // A dip is weak next to the larger of its neighbours and below `dipTypicalRatioMax` × the
+      // median step (a step next to a strong resonance is not a dip); any other extra is weak next
+      // to the median step.
+      const weak = (p: BandPeak) => {
+        const j = members.indexOf(p);
+        if (!dip(j)) return p.peak.stepA < D.leadingSatelliteRatioMax * typical;
+        const larger = Math.max(members[j - 1].peak.stepA, members[j + 1].peak.stepA);
+        return p.peak.stepA < D.leadingSatelliteRatioMax * larger && p.peak.stepA < D.dipTypicalRatioMax * typical;
+      };
+      const extras = byWeakness.slice(0, members.length - g).filter(weak);
       if (extras.length === members.length - g) {
         offLadder.push(...extras);
         members = members.filter((p) => !extras.includes(p));

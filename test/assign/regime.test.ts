@@ -2,7 +2,8 @@
 // Closed forms (orthodox theory, the charging ladder of an s level with g = 2): the second s
 // charging step over the first is r/(1 + r) for r = Γtip/Γsub; in shell tunnelling the p step over
 // the s step is the degeneracy ratio 6/2 = 3. Peaks at (ε + Ec(n + ½))/η with ε_s = 0.5 eV,
-// ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8.
+// ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8. The early-entry block takes its step heights from the
+// project's master equation (currentSteps, the simulated truth) at closed-form positions.
 import { describe, it, expect } from "vitest";
 import { classifyRegime, regimeRatios, type RegimeEvidence } from "../../lib/assign/regime.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
@@ -10,6 +11,7 @@ import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import { levelStepRatio } from "../../lib/model/regimeLimits.ts";
 import { ASSIGN_DEFAULTS } from "../../lib/assign/assignDefaults.ts";
+import { currentSteps } from "../../lib/model/bandCurrent.ts";
 
 const at = (x: number, stepA: number, index: number): BandPeak => ({ x, index, peak: { biasV: x, stepA } as Peak });
 const V = (e: number) => e / 0.8;
@@ -106,5 +108,37 @@ describe("classifyRegime on two alike CB steps and no third CB peak (the window 
     const { regime, evidence } = withVB(cb, [at(V(0.65), 1e-11, 2)]);
     expect(regime).toBe("undetermined");
     expect(evidence.reasons.join(" ")).toMatch(/fewer than two VB peaks/);
+  });
+});
+
+describe("classifyRegime: p entered before s is full (Δsp about Ec)", () => {
+  // s at 0.5 eV and p (6 states) at 0.61 eV, Ec = 0.1 eV, η = 0.8: peaks at the closed-form
+  // positions (ε + Ec(n + ½))/η; p entered at n = 1 lies 1.1 × the s spacing after the doublet,
+  // one spacing before p's first charging peak. Step heights from the project's master equation
+  // (currentSteps, simulated truth), every step above a fifth of the largest.
+  const cbAt = (r: number) => {
+    const model = {
+      cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.61, degeneracy: 6 }],
+      vb: [], chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: r * 1e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const steps = currentSteps(model).steps.filter((s) => s.biasV > 0);
+    const big = Math.max(...steps.map((s) => s.heightA));
+    return steps.filter((s) => s.heightA > 0.2 * big).map((s, i) => at(s.biasV, s.heightA, i));
+  };
+
+  it("at Γtip/Γsub = 3 reads the weak third peak as p entered early and names shell filling", () => {
+    const cb = cbAt(3);
+    expectClose(cb[2].x, (0.61 + 0.15) / 0.8, { rtol: 1e-12, what: "p entered at n = 1, closed form" });
+    const { regime, evidence } = classify(cb);
+    expectClose(evidence.thirdToSecondSpacingRatio!, 1.1, { rtol: 1e-9, what: "(Δsp)/(Ec), closed form" });
+    expect(cb[2].peak.stepA / cb[3].peak.stepA).toBeLessThan(ASSIGN_DEFAULTS.earlyEntryStepRatioMax);
+    expect(regime).toBe("shell-filling");
+    expect(evidence.reasons.join(" ")).toMatch(/p entered before s is full/);
+  });
+
+  it("at the filling limit Γtip/Γsub = 1.5 (doublet ratio 0.6 = r/(1 + r)) leaves it undetermined", () => {
+    const { regime, evidence } = classify(cbAt(1.5));
+    expectClose(evidence.secondToFirstStepRatio!, 0.6, { rtol: 1e-3, what: "r/(1 + r), closed form" });
+    expect(regime).toBe("undetermined");
   });
 });

@@ -64,6 +64,74 @@ describe("fillingShells(cb) near the filling limit", () => {
   });
 });
 
+describe("fillingShells(cb) on a split p shell in the crossover", () => {
+  it("sets aside the dip of a higher sub-level entered early rather than p's weak last charging peak", () => {
+    // p split 2 + 4 (p_a at 0.8, p_b at 0.9 eV), Γtip/Γsub = 3: the peaks at the closed-form
+    // positions (|ε| + Ec(n + ½))/η, with p_b entered at n = 3 one Ec after p_a's second peak;
+    // step heights from the project's master equation (currentSteps, simulated truth). Seven
+    // candidates for six states: the dip at n = 3 is the extra, p_b's last (n = 7) is p's sixth.
+    const model = {
+      cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 4 }],
+      vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 3e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 1), V(0.8, 2), V(0.8, 3), V(0.9, 3), ...[4, 5, 6, 7].map((n) => V(0.9, n))];
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    // The last charging peak is weaker than the dip: the weakest extra alone would be the wrong one.
+    expect(steps[9]).toBeLessThan(steps[5]);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.offLadder.map((p) => p.index)).toEqual([2, 5]);
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([3, 4, 6, 7, 8, 9]);
+    expect(r.shells).toHaveLength(2);
+  });
+});
+
+describe("fillingShells(cb) with p entered early and a sub-level off the ladder", () => {
+  it("judges p entered early against the next peak on the ladder, not an off-ladder peak between them", () => {
+    // p split 2 + 4 (p_a at 0.63, p_b at 0.69 eV: 0.6 Ec apart; Δsp just above Ec), Γtip/Γsub =
+    // 2.6: every step the project's master equation gives above a fifth of the median
+    // (currentSteps, simulated truth) at its closed-form position (|ε| + Ec(n + ½))/η. p_a entered
+    // at n = 1 lies one Ec before p's first charging peak with p_b's n = 1 channel 0.6 Ec after
+    // it, off the ladder; taken as p's first peak it would make the s→p jump so small that the
+    // gap to p_b opens a new shell.
+    const model = {
+      cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.63, degeneracy: 2 }, { energyEV: 0.69, degeneracy: 4 }],
+      vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 2.6e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.63, 1), V(0.69, 1), V(0.63, 2), V(0.69, 2), V(0.63, 3), V(0.69, 3), ...[4, 5, 6, 7].map((n) => V(0.69, n))];
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    const median = [...steps].sort((a, b) => a - b)[steps.length >> 1];
+    expect(Math.min(...steps)).toBeGreaterThan(0.2 * median); // all above the band's noise rule
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.shells[1].flat().map((p) => p.index)).toEqual([4, 6, 8, 9, 10, 11]);
+    expect(r.offLadder.map((p) => p.index)).toEqual([2, 3, 5, 7]);
+  });
+});
+
+describe("fillingShells(cb) next to peaks that are not charging steps", () => {
+  it("keeps a charging peak that dips only next to a strong resonance (not below 0.7 × the median step)", () => {
+    // p split 2 + 4 (p_a at 0.8, p_b at 0.9 eV) with its six charging peaks at the closed-form
+    // positions, alike steps, and a second-junction resonance not set aside in the sub-level gap
+    // (on the ladder's spacing) carrying three tip-side steps (common practice (no source): a
+    // level's resonance carries several of its steps). p_b's first peak, 0.95 of the others, is
+    // below both neighbours but no early-entry dip.
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 3), (V(0.8, 3) + V(0.9, 4)) / 2, V(0.9, 4), V(0.9, 5), V(0.9, 6), V(0.9, 7)];
+    const steps = [1, 0.9, 1, 1, 3, 0.95, 1, 1, 1].map((k) => k * 1e-11);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.shells[1].flat().map((p) => p.index)).toContain(5);
+  });
+
+  it("does not take a step found twice (two close peaks) for p entered early", () => {
+    // p's first charging peak found as two peaks 15 mV apart (the second the stronger), then p's
+    // charging peaks at the closed-form positions (equal steps, common practice (no source)).
+    const xs = [V(0.5, 0), V(0.5, 1), V(0.8, 2), V(0.8, 2) + 0.015, ...[3, 4, 5, 6, 7].map((n) => V(0.8, n))];
+    const steps = [1, 0.9, 0.45, 0.5, 1, 1, 1, 1, 1].map((k) => k * 1e-11);
+    const r = fillingShells(xs.map((x, i) => at(x, i, steps[i])));
+    expect(r.shells[1].flat()[0].index).toBe(2);
+  });
+});
+
 describe("completeShells(shells, weak, chargingEnergyV)", () => {
   it("appends a weak peak one Ec beyond a shell that is short of its degeneracy (p's last charging peak near the filling limit)", () => {
     // p's sixth charging peak at (0.8 + 7.5·Ec)/η: at Γtip/Γsub = 2 its step is a small fraction of
