@@ -6,26 +6,7 @@ import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
 import { levelsToFit, spinPairShares } from "../../../lib/model/fit/levelsToFit.ts";
 import { startingValues } from "../../../lib/model/fit/startingValues.ts";
-import { simulateCurve } from "../../../lib/model/simulate.ts";
-import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
-
-const eta = 0.85;
-const sim = simulateCurve(
-  {
-    cb: [{ energyEV: 0.6, degeneracy: 2 }, { energyEV: 0.9, degeneracy: 6 }],
-    vb: [{ energyEV: -1.2, degeneracy: 2 }],
-    chargingEnergyEV: 0.1,
-    eta,
-    tipRatePerS: 1e9,
-    substrateRatePerS: 1e8,
-    temperatureK: 4.5,
-    broadeningEV: 0.01,
-    bias: { fromV: -2, toV: 2.2, stepV: 0.002 },
-    noise: { relative: 0.003, seed: 1 },
-  },
-  { method: "fast" },
-);
-const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
+import { analysis, eta } from "../../helpers/fitDemo.ts";
 
 describe("levelsToFit(analysis)", () => {
   it("gives one level per shell with the simulated degeneracies and the carriers before it (s 2/0, p 6/2, v1 2/0)", () => {
