@@ -107,7 +107,7 @@ export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, t
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
-export { modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
+export { failedModelComparison, modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
 
 // Size series: many dots → per-dot table, size bins, model fits, optical pairing.
 export * from "./sizes/index.ts";

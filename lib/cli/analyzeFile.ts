@@ -8,7 +8,9 @@ import {
   analyzeCurve,
   failedSummaryRow,
   fitCurve,
+  failedModelComparison,
   fitToJson,
+  isDotspecError,
   modelComparisonJson,
   failureReason,
   formatAnalysisText,
@@ -125,9 +127,16 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   if (scope && json.noLevels === null && (scope === "all" || json.regime === "undetermined")) {
     // The comparison of every grouping of the peaks; a fit stopped by its wall-clock limit says
     // so (where it stopped depends on the machine).
-    const fit = fitCurve(analysis, { compareModels: true });
-    const comparison = modelComparisonJson(fitToJson(fit, json), scope);
-    if (/time limit/.test(fit.message)) comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
+    let comparison;
+    try {
+      const fit = fitCurve(analysis, { compareModels: true });
+      comparison = modelComparisonJson(fitToJson(fit, json), scope);
+      if (/time limit/.test(fit.message)) comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
+    } catch (err) {
+      // A curve the fit cannot start on (no multiplet to fit) keeps its analysis; the comparison says why.
+      if (!isDotspecError(err)) throw err;
+      comparison = failedModelComparison(err.message, scope);
+    }
     return { curve, analysis, json: { ...json, modelComparison: comparison } };
   }
   return { curve, analysis, json };

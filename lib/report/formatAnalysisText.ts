@@ -241,7 +241,7 @@ function modelComparisonLines(m: ModelComparisonJson, eta: number, I: string, bo
     out.push(`${I}${I}NO FIT: ${m.statusReasons.join("; ")}`);
     return out;
   }
-  out.push(`${I}${I}${REGIME_WORDS[m.regime as keyof typeof REGIME_WORDS] ?? m.regime}, fit ${m.status === "good" ? "good" : "POOR"} (reduced χ² ${m.reducedChiSquare.toPrecision(3)}): ${m.regimeReason}`);
+  out.push(`${I}${I}${REGIME_WORDS[m.regime as keyof typeof REGIME_WORDS] ?? m.regime}, fit ${m.status === "good" ? "good" : "POOR"} (reduced χ² ${m.reducedChiSquare?.toPrecision(3) ?? FORMAT_TEXT_DEFAULTS.missing}): ${m.regimeReason}`);
   out.push(`${I}${I}Γtip/Γsub = ${pm(m.rateRatio, 1, "")}`.trimEnd() + `, Ec = ${pm(m.quantities.chargingEnergyEV, 1000, "meV")}, gap = ${pm(m.quantities.gapEV, 1000, "meV")}, Δsp = ${pm(m.quantities.levelSpacingSPEV, 1000, "meV")} (η = ${eta})`);
   const ranked = [...m.alternatives].sort((a, b) => b.weight - a.weight).slice(0, 3);
   if (ranked.length) out.push(faint(`${I}${I}best groupings: ${ranked.map((a) => `${a.hypothesis} (weight ${a.weight.toPrecision(2)})`).join(", ")}`));

@@ -25,11 +25,12 @@ export interface ModelComparisonJson {
   evidence: string[];
   /** Every grouping compared, with its score and relative weight. */
   alternatives: FitJson["alternatives"];
-  /** Gap, Ec and s–p spacing the fit implies, eV, each with its 1σ (null where the fit has no such level). */
-  quantities: FitJson["quantities"];
-  /** Γtip/Γsub with its standard error. */
-  rateRatio: FittedValue;
-  reducedChiSquare: number;
+  /** Gap, Ec and s–p spacing the fit implies, eV, each with its 1σ (null where the fit has no such level, and all null when the fit could not run). */
+  quantities: { gapEV: FittedValue | null; chargingEnergyEV: FittedValue | null; levelSpacingSPEV: FittedValue | null };
+  /** Γtip/Γsub with its standard error (null when the fit could not run). */
+  rateRatio: FittedValue | null;
+  /** Reduced χ² of the fit (null when it could not run). */
+  reducedChiSquare: number | null;
   warnings: string[];
 }
 
@@ -67,5 +68,42 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope): Mo
     rateRatio: { value: fit.rateRatio, standardError: fit.rateRatioSE },
     reducedChiSquare: fit.reducedChiSquare,
     warnings: fit.warnings,
+  };
+}
+
+/**
+ * The model comparison of a curve the fit could not start on (for example no peak grouped into a
+ * multiplet): status "failed" with the reason, no values.
+ *
+ * Parameters
+ * ----------
+ * reason : string
+ *     Why the fit could not run (the fit's error message).
+ * scope : CompareModelsScope
+ *     Why the curve was to be fitted.
+ *
+ * Returns
+ * -------
+ * ModelComparisonJson
+ *     Status "failed", regime "undetermined", every value null, no alternatives.
+ *
+ * Example
+ * -------
+ * failedModelComparison("no multiplets to fit", "undecided").status; // => "failed"
+ */
+export function failedModelComparison(reason: string, scope: CompareModelsScope): ModelComparisonJson {
+  return {
+    scope,
+    status: "failed",
+    statusReasons: [reason],
+    regime: "undetermined",
+    regimeReason: "no fit",
+    hypothesis: "",
+    evidence: [],
+    alternatives: [],
+    quantities: { gapEV: null, chargingEnergyEV: null, levelSpacingSPEV: null },
+    rateRatio: null,
+    reducedChiSquare: null,
+    warnings: [],
   };
 }

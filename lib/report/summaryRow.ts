@@ -171,9 +171,9 @@ function modelCells(m: AnalysisJson["modelComparison"]): Partial<Record<ModelSum
   return {
     model_regime: ok ? m.regime : null,
     model_status: m.status,
-    model_Ec_eV: ok ? m.quantities.chargingEnergyEV.value : null,
-    model_Ec_sigma_eV: ok ? m.quantities.chargingEnergyEV.standardError : null,
-    model_rate_ratio: ok ? m.rateRatio.value : null,
-    model_rate_ratio_sigma: ok ? m.rateRatio.standardError : null,
+    model_Ec_eV: ok ? (m.quantities.chargingEnergyEV?.value ?? null) : null,
+    model_Ec_sigma_eV: ok ? (m.quantities.chargingEnergyEV?.standardError ?? null) : null,
+    model_rate_ratio: ok ? (m.rateRatio?.value ?? null) : null,
+    model_rate_ratio_sigma: ok ? (m.rateRatio?.standardError ?? null) : null,
   };
 }

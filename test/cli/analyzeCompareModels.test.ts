@@ -40,9 +40,9 @@ describe("dotspec analyze --compare-models", () => {
     expect(m.scope).toBe("undecided");
     expect(m.status).toBe("good");
     expect(m.regime).toBe("intermediate");
-    expect(Math.abs(m.quantities.chargingEnergyEV.value - CROSSOVER.chargingEnergyEV)).toBeLessThan(0.03 * CROSSOVER.chargingEnergyEV);
-    expect(Math.abs(Math.log(m.rateRatio.value / (CROSSOVER.tipRatePerS / CROSSOVER.substrateRatePerS)))).toBeLessThan(Math.log(1.5));
-    expect(m.rateRatio.standardError).toBeGreaterThan(0);
+    expect(Math.abs(m.quantities.chargingEnergyEV!.value - CROSSOVER.chargingEnergyEV)).toBeLessThan(0.03 * CROSSOVER.chargingEnergyEV);
+    expect(Math.abs(Math.log(m.rateRatio!.value / (CROSSOVER.tipRatePerS / CROSSOVER.substrateRatePerS)))).toBeLessThan(Math.log(1.5));
+    expect(m.rateRatio!.standardError).toBeGreaterThan(0);
     // The comparison is recorded: every grouping with its weight, the winner's weight the largest.
     expect(m.alternatives.length).toBeGreaterThan(1);
     const best = Math.max(...m.alternatives.map((a) => a.weight));
@@ -58,7 +58,7 @@ describe("dotspec analyze --compare-models", () => {
     const m = (JSON.parse(r.stdout) as AnalysisJson[])[0].modelComparison!;
     expect(m.scope).toBe("all");
     expect(m.regime).toBe("shell-filling");
-    expect(Math.abs(m.quantities.chargingEnergyEV.value - FILLING.chargingEnergyEV)).toBeLessThan(0.03 * FILLING.chargingEnergyEV);
+    expect(Math.abs(m.quantities.chargingEnergyEV!.value - FILLING.chargingEnergyEV)).toBeLessThan(0.03 * FILLING.chargingEnergyEV);
   }, 120_000);
 
   it("adds nothing without the option: no modelComparison, no model columns", async () => {
@@ -86,6 +86,23 @@ describe("dotspec analyze --compare-models", () => {
     expect(replay.stdout).toContain("the numbers match");
     expect(replay.code).toBe(0);
   }, 180_000);
+
+  it("keeps the analysis of a curve the fit cannot start on, with a comparison that says why (status failed)", async () => {
+    // One CB level and no VB in the window (shell tunnelling): the rules form no multiplet, so the
+    // fit has nothing to start from (by construction of the scenario).
+    const lone = join(dir, "one-level.csv");
+    const scenario = { ...EXAMPLE_SCENARIO, cb: [{ energyEV: 0.6, degeneracy: 2 }], vb: [], tipRatePerS: 1e7, bias: { fromV: -0.5, toV: 1.4, stepV: 0.002 } };
+    writeFileSync(lone, `# eta: ${scenario.eta}\n` + formatCurveCsv(simulateCurve(scenario, { method: "fast", conductance: false })));
+    const r = await run(["analyze", lone, "--compare-models", "--json"]);
+    expect(r.code).toBe(0);
+    const rec = (JSON.parse(r.stdout) as AnalysisJson[])[0];
+    expect(rec.regime).toBe("undetermined");
+    expect(rec.modelComparison!.status).toBe("failed");
+    expect(rec.modelComparison!.statusReasons[0]).toMatch(/no multiplets to start the fit from/);
+    expect(rec.modelComparison!.rateRatio).toBeNull();
+    const text = await run(["analyze", lone, "--compare-models"]);
+    expect(text.stdout).toContain("NO FIT");
+  }, 60_000);
 
   it("refuses a scope it does not know (usage error, exit 2)", async () => {
     const r = await run(["analyze", crossover, "--compare-models", "some"]);
