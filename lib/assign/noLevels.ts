@@ -124,7 +124,7 @@ export function noLevels(input: NoLevelsInput): NoLevels | null {
   const reach = NO_LEVELS_DEFAULTS.edgeFwhms;
   const inside = range && widths ? peaksV.filter((v, k) => v - range[0] >= reach * widths[k] && range[1] - v >= reach * widths[k]) : peaksV;
   const atEdge = peaksV.length - inside.length;
-  const edgeWords = atEdge ? ` (${atEdge} more within ${reach === 1 ? "one FWHM" : `${reach} FWHM`} of the end of the bias range, where the filter and the step test see one side only, are not counted)` : "";
+  const edgeWords = atEdge ? ` away from the ends of the bias range (${atEdge} within ${reach === 1 ? "one FWHM" : `${reach} FWHM`} of an end, where the filter and the step test see one side only, are not counted)` : "";
   if (inside.length === 0) {
     return {
       code: "no-peaks",

@@ -40,7 +40,7 @@ describe("noLevels(input)", () => {
     // by construction: 1.96 V is 40 mV from the end with a FWHM of 94 mV; −1.969 V is 31 mV from it with 35 mV
     const edges = noLevels({ ...base, peaksV: [-1.969, 1.96], peakFwhmV: [0.035, 0.094] });
     expect(edges?.code).toBe("no-peaks");
-    expect(edges?.reason).toContain("2 more within one FWHM of the end of the bias range");
+    expect(edges?.reason).toContain("away from the ends of the bias range (2 within one FWHM of an end");
     const one = noLevels({ ...base, peaksV: [-1.381, 1.968], peakFwhmV: [0.018, 0.038] });
     expect(one?.code).toBe("lone-peak");
     expect(one?.reason).toContain("-1.381 V");
