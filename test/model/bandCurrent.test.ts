@@ -6,19 +6,14 @@
 // function without the window (itself checked against closed forms in test/model/ladder.test.ts).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
-import { bandLadders, currentSteps, fastCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
+import { dotModel } from "../helpers/dotModel.ts";
+import { bandLadders, currentSteps, fastCurrent } from "../../lib/model/bandCurrent.ts";
 import { ELEMENTARY_CHARGE_C as E } from "../../lib/util/constants.ts";
 
-const doublet: DotModel = {
+const doublet = dotModel({
   cb: [{ energyEV: 0.5, degeneracy: 2 }],
   vb: [{ energyEV: -1.1, degeneracy: 2 }, { energyEV: -1.27, degeneracy: 4 }],
-  chargingEnergyEV: 0.1,
-  eta: 0.8,
-  tipRatePerS: 1e9,
-  substrateRatePerS: 1e8,
-  relaxationRatePerS: 1e12,
-  temperatureK: 4.5,
-};
+});
 
 describe("currentSteps(model, ladders, { fromV, toV })", () => {
   it("keeps the steps inside the window with the closed-form plateaus of an s doublet", () => {

@@ -4,29 +4,17 @@
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { fwhm } from "../helpers/lineShape.ts";
-import { bandLadders, exactCurrent, currentSteps, fastCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
+import { dotModel } from "../helpers/dotModel.ts";
+import { bandLadders, exactCurrent, currentSteps, fastCurrent } from "../../lib/model/bandCurrent.ts";
 import { buildLadder, ladderCurrent, ladderStructureKey, ladderWithEnergies, ladderWorkspace, zeroTemperaturePattern } from "../../lib/model/ladder.ts";
 import { ELEMENTARY_CHARGE_C as E, BOLTZMANN_EV_PER_K as KB, FERMI_DERIVATIVE_FWHM_KT } from "../../lib/util/constants.ts";
 
-function model(partial: Partial<DotModel>): DotModel {
-  return {
-    cb: [],
-    vb: [],
-    chargingEnergyEV: 0.1,
-    eta: 0.8,
-    tipRatePerS: 1e9,
-    substrateRatePerS: 1e8,
-    relaxationRatePerS: 1e12,
-    temperatureK: 4.5,
-    ...partial,
-  };
-}
 
 
 describe("exactCurrent(model, biasV): plateau currents", () => {
   it("one non-degenerate level carries e·Γ1·Γ2/(Γ1 + Γ2) (orthodox theory, closed form)", () => {
     for (const [gt, gs] of [[1e9, 1e8], [1e7, 3e9], [2e8, 2e8]]) {
-      const m = model({ cb: [{ energyEV: 0.5, degeneracy: 1 }], tipRatePerS: gt, substrateRatePerS: gs });
+      const m = dotModel({ cb: [{ energyEV: 0.5, degeneracy: 1 }], tipRatePerS: gt, substrateRatePerS: gs });
       const [i] = exactCurrent(m, [1.2]);
       expectClose(i, (E * gt * gs) / (gt + gs), { rtol: 1e-10, what: `Γtip=${gt}, Γsub=${gs}` });
     }
@@ -35,7 +23,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
   it("a g-fold level holding one extra electron carries e·g·Γin·Γout/(g·Γin + Γout) (Bonet, Deshmukh & Ralph, PRB 65, 045317 (2002) for g = 2; general g derived from the same master equation)", () => {
     for (const g of [2, 4, 6]) {
       // Ec = 1 eV keeps a second electron out: one enters at 1.25 V, a second would need 2.5 V.
-      const m = model({ cb: [{ energyEV: 0.5, degeneracy: g }], chargingEnergyEV: 1, tipRatePerS: 1e9, substrateRatePerS: 2e8 });
+      const m = dotModel({ cb: [{ energyEV: 0.5, degeneracy: g }], chargingEnergyEV: 1, tipRatePerS: 1e9, substrateRatePerS: 2e8 });
       const [plus] = exactCurrent(m, [1.8]); // enters through the tip
       expectClose(plus, (E * g * 1e9 * 2e8) / (g * 1e9 + 2e8), { rtol: 1e-10, what: `g=${g}, in through the tip` });
       // Below −(ε + Ec/2)/(1 − η) = −5 V the electron enters from the substrate and leaves to the tip (a second needs −10 V).
@@ -48,7 +36,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
     for (const r of [0.01, 0.3, 1, 10, 100]) {
       const gs = 1e8;
       const gt = r * gs;
-      const m = model({ cb: [{ energyEV: 0.5, degeneracy: 2 }], chargingEnergyEV: 0.2, tipRatePerS: gt, substrateRatePerS: gs });
+      const m = dotModel({ cb: [{ energyEV: 0.5, degeneracy: 2 }], chargingEnergyEV: 0.2, tipRatePerS: gt, substrateRatePerS: gs });
       const [first, second] = exactCurrent(m, [(0.5 + 0.2) / 0.8, (0.5 + 0.4) / 0.8]);
       expectClose(first, (2 * E * gt * gs) / (2 * gt + gs), { rtol: 1e-9, what: `first plateau r=${r}` });
       expectClose(second, (2 * E * gt * gs) / (gt + gs), { rtol: 1e-9, what: `second plateau r=${r}` });
@@ -58,7 +46,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
   });
 
   it("in shell tunnelling the s and p steps approach 2:6 (orthodox theory, degeneracy counting; U. Banin, Y. Cao, D. Katz and O. Millo, Nature 400, 542 (1999), from memory)", () => {
-    const m = model({
+    const m = dotModel({
       cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
       chargingEnergyEV: 0.1,
       tipRatePerS: 1e5,
@@ -70,7 +58,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
   });
 
   it("gives no current inside the gap (Coulomb blockade, orthodox theory)", () => {
-    const m = model({ cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [{ energyEV: -0.6, degeneracy: 2 }] });
+    const m = dotModel({ cb: [{ energyEV: 0.5, degeneracy: 2 }], vb: [{ energyEV: -0.6, degeneracy: 2 }] });
     const i = exactCurrent(m, [-0.6, 0, 0.5]);
     for (const v of i) expect(Math.abs(v)).toBeLessThan(1e-25);
   });
@@ -79,7 +67,7 @@ describe("exactCurrent(model, biasV): plateau currents", () => {
 describe("exactCurrent(model, biasV): positions and line shapes", () => {
   it("the n-th added electron appears at (ε + Ec·(n + ½))/η in shell filling (orthodox theory: C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991))", () => {
     const eta = 0.85, ec = 0.12, es = 0.4, ep = 0.7;
-    const m = model({
+    const m = dotModel({
       cb: [{ energyEV: es, degeneracy: 2 }, { energyEV: ep, degeneracy: 6 }],
       chargingEnergyEV: ec,
       eta,
@@ -106,7 +94,7 @@ describe("exactCurrent(model, biasV): positions and line shapes", () => {
 
   it("a single level, tunnelling-limited, has dI/dV of FWHM 3.5255·kB·T/(e·η) (closed form: derivative of the Fermi function)", () => {
     for (const [t, eta] of [[4.5, 0.8], [1.2, 0.95]]) {
-      const m = model({ cb: [{ energyEV: 0.5, degeneracy: 1 }], eta, temperatureK: t, tipRatePerS: 1e4, substrateRatePerS: 1e9 });
+      const m = dotModel({ cb: [{ energyEV: 0.5, degeneracy: 1 }], eta, temperatureK: t, tipRatePerS: 1e4, substrateRatePerS: 1e9 });
       const v0 = (0.5 + 0.05) / eta;
       const w = (KB * t) / eta;
       const h = w / 200;
@@ -124,7 +112,7 @@ describe("exactCurrent(model, biasV): positions and line shapes", () => {
     const eta = c2 / (c1 + c2);
     const spacing = 0.0002; // closely spaced levels (0.2 meV) around the Fermi level
     const levels = (sign: number) => [0, 1, 2, 3].map((k) => ({ energyEV: sign * (k + 0.5) * spacing, degeneracy: 2 }));
-    const m = model({ cb: levels(1), vb: levels(-1), chargingEnergyEV: ec, eta, temperatureK: 0.3, tipRatePerS: 1e9, substrateRatePerS: 1e9 });
+    const m = dotModel({ cb: levels(1), vb: levels(-1), chargingEnergyEV: ec, eta, temperatureK: 0.3, tipRatePerS: 1e9, substrateRatePerS: 1e9 });
     const threshold = E / (2 * c2);
     expectClose(threshold, 0.0728, { atol: 5e-5, what: "e/(2·C2)" });
     const onset = (sign: number) => {
@@ -146,7 +134,7 @@ describe("exactCurrent(model, biasV): positions and line shapes", () => {
 
 describe("fastCurrent(currentSteps(model), biasV, broadeningV)", () => {
   it("matches the exact current within 0.2 % of full scale when the broadening is much wider than kB·T (the approximation's own limit, derived)", () => {
-    const m = model({
+    const m = dotModel({
       cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }],
       vb: [{ energyEV: -0.6, degeneracy: 2 }, { energyEV: -0.8, degeneracy: 4 }],
       tipRatePerS: 1e9,
