@@ -120,8 +120,7 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
   const { eta, note } = etaForCurve(options.analyze.eta, curve);
   const analysis = analyzeCurve(curve, eta === undefined ? options.analyze : { ...options.analyze, eta });
-  const recorded = { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}) };
-  const provenance = makeProvenance(command, digest, recorded);
+  const provenance = makeProvenance(command, digest, recordedOf(options));
   const json = analysisToJson(analysis, record, { notes: note ? [note] : [], metadata: curve.meta.metadata, provenance });
   const scope = options.compareModels;
   if (scope && json.noLevels === null && (scope === "all" || json.regime === "undetermined")) {
@@ -150,7 +149,12 @@ function failedProvenance(file: string, options: RecordedOptions, command: strin
   } catch {
     // Unreadable: the reason says so.
   }
-  return makeProvenance(command, digest, { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}) });
+  return makeProvenance(command, digest, recordedOf(options));
+}
+
+/** The options as a provenance records them: analysis, import and, when given, --compare-models (no other keys). */
+function recordedOf(options: RecordedOptions): Record<string, unknown> {
+  return { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}) };
 }
 
 /**
