@@ -18,17 +18,23 @@ const HEAVY = "jsdom|@observablehq/plot|mathjs|ml-matrix|ml-levenberg-marquardt|
 const dir = mkdtempSync(join(tmpdir(), "dotspec-lazy-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-/** A preload that refuses the packages matching `pattern` and, optionally, the library entry dist/index.js. */
+/**
+ * A preload that refuses the packages matching `pattern` and, optionally, the library: any module
+ * of dist/ that defines `analyzeCurve` (dist/pipeline/analyzeCurve.js in the compiled library,
+ * the chunk that holds it in the command's bundle).
+ */
 function blocker(name: string, pattern: string, blockLibrary: boolean): string {
   const hooks = join(dir, `${name}-hooks.mjs`);
   writeFileSync(
     hooks,
     [
+      'import { readFileSync } from "node:fs";',
+      'import { fileURLToPath } from "node:url";',
       `const blocked = new RegExp(${JSON.stringify(`^(${pattern})(/|$)`)});`,
       "export async function resolve(specifier, context, next) {",
       '  if (blocked.test(specifier)) throw new Error("blocked " + specifier);',
       "  const result = await next(specifier, context);",
-      `  if (${blockLibrary} && result.url.endsWith("/dist/index.js")) throw new Error("blocked the library " + result.url);`,
+      `  if (${blockLibrary} && /\\/dist\\/.*\\.js$/.test(result.url) && readFileSync(fileURLToPath(result.url), "utf8").includes("function analyzeCurve(")) throw new Error("blocked the library " + result.url);`,
       "  return result;",
       "}",
     ].join("\n"),

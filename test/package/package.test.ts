@@ -100,6 +100,15 @@ describe("npm pack", () => {
     expect(packedSize).toBeGreaterThan(0);
   });
 
+  it("ships the command bundled: dist/cli holds its three entries and shared chunks, not one module per source file", () => {
+    const cli = packed.map((f) => f.path).filter((p) => p.startsWith("dist/cli/") && p.endsWith(".js"));
+    const entries = cli.filter((p) => !/^dist\/cli\/chunk-[A-Z0-9]+\.js$/.test(p)).sort();
+    expect(entries).toEqual(["dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/main.js"]);
+    // The library compiles to about two hundred modules; the command's bundle must stay a few dozen files.
+    expect(packed.filter((f) => f.path.startsWith("dist/") && f.path.endsWith(".js")).length).toBeGreaterThan(100);
+    expect(cli.length).toBeLessThan(40);
+  });
+
   it("installs into a project without TypeScript or a TypeScript loader", () => {
     expect(existsSync(join(consumer, "node_modules", "dotspec", "dist", "index.js"))).toBe(true);
     expect(existsSync(join(consumer, "node_modules", "typescript"))).toBe(false);
@@ -170,6 +179,8 @@ describe("the installed package", () => {
 
   it("runs the installed dotspec command: --help, and analyze --json on a sample curve", async () => {
     const bin = join(consumer, "node_modules", ".bin", "dotspec");
+    const version = await exec(bin, ["--version"], { cwd: consumer });
+    expect(version.stdout.trim()).toBe((JSON.parse(readFileSync(join(ROOT, "package.json"), "utf8")) as { version: string }).version);
     const help = await exec(bin, ["--help"], { cwd: consumer });
     expect(help.stdout).toMatch(/^Usage: dotspec /);
     for (const command of ["analyze", "sizes", "fit", "grid", "simulate"]) expect(help.stdout).toMatch(new RegExp(`\\n  ${command} `));
