@@ -37,7 +37,7 @@ export interface ReadGridFileOptions {
  * Throws
  * ------
  * DotspecError
- *     `io/not-found`, `io/unreadable-json`/`io/invalid-json` for the sidecar, and every error of
+ *     `io/not-found`, `io/is-directory` (a folder given), `io/unreadable-json`/`io/invalid-json` for the sidecar, and every error of
  *     {@link readNpyGrid} and {@link readGridTableFile} (those of {@link parseGridTable}).
  *
  * Example
@@ -48,10 +48,14 @@ export interface ReadGridFileOptions {
  */
 export function readGridFile(path: string, options: ReadGridFileOptions = {}): GridFileResult {
   if (typeof path !== "string" || path === "") throw new DotspecError("io/bad-path", `readGridFile: path must be a non-empty string; got ${JSON.stringify(path)}`);
+  let isFolder: boolean;
   try {
-    statSync(path);
+    isFolder = statSync(path).isDirectory();
   } catch {
     throw new DotspecError("io/not-found", `${path}: no such file`);
+  }
+  if (isFolder) {
+    throw new DotspecError("io/is-directory", `${path}: is a folder, not a grid file; give the grid's .npy file (its axes in the .json beside it) or its long table (.csv/.tsv/.txt)`);
   }
   if (isNpyGridName(path)) {
     const sidecarPath = options.sidecar ?? gridSidecarName(path);

@@ -56,6 +56,11 @@ describe("dotspec grid", () => {
     const bad = await run(["grid", join(dir, "none.npy"), "--json"]);
     expect(bad.code).toBe(1);
     expect(bad.stderr).toContain("none.npy");
+    // A folder is a user's slip (the grid's folder instead of its .npy file), not an internal error.
+    const folder = await run(["grid", dir, "--json"]);
+    expect(folder.code).toBe(1);
+    expect(folder.stderr).toContain("is a folder, not a grid file");
+    expect(folder.stderr).not.toContain("internal error");
     const usage = await run(["grid", table, "--at", "0.7,x"]);
     expect(usage.code).toBe(2);
     expect(usage.stderr).toContain("--at");
