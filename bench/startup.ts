@@ -11,9 +11,10 @@
  * Builds dist/ first (scripts/build.mjs): the command runs the compiled library.
  */
 import { execFileSync, spawnSync } from "node:child_process";
+import { mkdtempSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { cpus, loadavg } from "node:os";
+import { cpus, loadavg, tmpdir } from "node:os";
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
 const BIN = join(ROOT, "bin", "dotspec.js");
@@ -59,6 +60,37 @@ baseline = measure("node -e 0 (Node's own start)", ["-e", "0"], null);
 measure("dotspec --version", [BIN, "--version"], null);
 measure("dotspec --help", [BIN, "--help"], 120);
 for (const curve of curves) measure(`dotspec analyze --json ${curve}`, [BIN, "analyze", curve, "--json"], 200);
+
+// bin/dotspec.js raises V8's interrupt budget (the threshold of the optimising compiler) × 16;
+// the same commands at V8's default (bin/dotspec.js leaves a budget given on the command line),
+// in wall time and in CPU time of the whole process (all threads, the compiler's included), run
+// alternately so that both see the same load.
+const DEFAULT_BUDGET = "--interrupt-budget=67584";
+const cpuProbe = join(mkdtempSync(join(tmpdir(), "dotspec-startup-")), "cpu.mjs");
+writeFileSync(cpuProbe, 'process.on("exit", () => { const u = process.cpuUsage(); process.stderr.write(`\\ncpu-us ${u.user + u.system}\\n`); });\n');
+/** Wall and CPU time (ms) of one whole process, with the CPU probe preloaded. */
+function onceWithCpu(argv: string[]): [number, number] {
+  const t0 = process.hrtime.bigint();
+  const r = spawnSync(process.execPath, ["--import", cpuProbe, ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
+  const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+  const cpu = /cpu-us (\d+)/.exec(r.stderr);
+  if (r.status !== 0 || !cpu) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
+  return [ms, Number(cpu[1]) / 1000];
+}
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+console.log("\nThe optimising compiler's threshold: bin/dotspec.js's (× 16) against V8's default, alternating; median wall / CPU time:");
+for (const argv of [...curves.map((c) => ["analyze", c, "--json"]), ["fit", curves[0], "--json"]]) {
+  const ours: [number, number][] = [], v8default: [number, number][] = [];
+  for (let k = 0; k < warmup + runs; k++) {
+    const a = onceWithCpu([BIN, ...argv]), b = onceWithCpu([DEFAULT_BUDGET, BIN, ...argv]);
+    if (k >= warmup) ours.push(a), v8default.push(b);
+  }
+  const show = (xs: [number, number][]) => `${median(xs.map((x) => x[0])).toFixed(0).padStart(4)} / ${median(xs.map((x) => x[1])).toFixed(0).padStart(4)} ms`;
+  console.log(`  dotspec ${argv.join(" ").padEnd(44)} × 16: ${show(ours)}   default: ${show(v8default)}`);
+}
 
 console.log("\nImport time in a fresh process (median of 5), what a command pays before its work:");
 for (const [name, spec] of [
