@@ -81,6 +81,8 @@ try {
     target: "node20",
     packages: "external",
     sourcemap: "linked",
+    // Positions only: the sources themselves ship once, inside the library's own maps.
+    sourcesContent: false,
     chunkNames: "chunk-[hash]",
     logLevel: "warning",
   });
