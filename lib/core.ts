@@ -78,6 +78,7 @@ export { peakRoles, type PeakRole } from "./assign/peakMultiplets.ts";
 export { gapEdges, GAP_EDGES_DEFAULTS, type GapEdgesOptions } from "./assign/gapEdges.ts";
 export { noLevels, NO_LEVELS_DEFAULTS, type NoLevels, type NoLevelsCode, type NoLevelsInput } from "./assign/noLevels.ts";
 export { fitLadderSpacing, type LadderSpacing } from "./assign/ladderFit.ts";
+export { rulesDecisive, RULES_DECISIVE_DEFAULTS, type RulesDecisive, type RulesDecisiveInput, type RulesDecisiveOptions } from "./assign/rulesDecisive.ts";
 
 // The whole job on one curve.
 export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettings, type AnalyzedPeak, type CurveAnalysis } from "./pipeline/analyzeCurve.ts";
@@ -107,7 +108,17 @@ export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, t
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
-export { failedModelComparison, modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
+export {
+  comparisonDecision,
+  failedModelComparison,
+  MODEL_DECISION_DEFAULTS,
+  modelComparisonJson,
+  type CompareModelsScope,
+  type ComparisonDecision,
+  type ComparisonDecisionOptions,
+  type ModelComparisonJson,
+  type RulesAnswer,
+} from "./report/modelComparisonJson.ts";
 
 // Size series: many dots → per-dot table, size bins, model fits, optical pairing.
 export * from "./sizes/index.ts";
