@@ -106,6 +106,9 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    × Ec of it: the satellite of s coincides with p.
  * 6. Shell tunnelling with a CB level split into sub-levels spaced within `ladderTolerance` × Ec
  *    of Ec: sub-levels one Ec apart can be that level's charging peaks.
+ * 7. Shell tunnelling with more levels in a shell than its states make spin pairs (more than 3
+ *    in p): the extra peaks are likely charging peaks of its levels (near Γtip/Γsub = 0.2–0.4 a
+ *    level of g states charges with steps of order g·r).
  *
  * References
  * ----------
@@ -174,6 +177,12 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
         reasons.push(
           `shell tunnelling read from ${cbPeaks.length} CB peaks whose ${spacings.length} spacings are alike (${spacings.map((d) => (d.v * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
         );
+      }
+    }
+    // 7. More levels in a shell than it has spin pairs.
+    for (const m of cb) {
+      if (m.degeneracy !== null && m.found > m.degeneracy / 2) {
+        reasons.push(`shell tunnelling with ${m.found} levels in ${m.label}, more than its ${m.degeneracy} states hold in spin pairs (${m.degeneracy / 2}): some may be charging peaks`);
       }
     }
     const spV = a.quantities.levelSpacingSPV;
