@@ -96,6 +96,16 @@ describe("rulesDecisive(input, options)", () => {
     expect(uneven.result).toEqual({ decisive: true, reasons: [] });
   });
 
+  it("flags a shell-tunnelling p read as more levels than its 6 states make spin pairs (4 > 3)", () => {
+    // s, then four peaks close together (within half the s→p distance: one shell), p's steps
+    // together 4 × the s step (≥ 1.4: shell tunnelling).
+    const { assignment, result } = verdict([peak(0.75), ...[1.1, 1.15, 1.2, 1.25].map((v) => peak(v))], 2);
+    expect(assignment.regime).toBe("shell-tunneling");
+    expect(assignment.multiplets.find((m) => m.label === "p")!.found).toBe(4);
+    expect(result.decisive).toBe(false);
+    expect(result.reasons).toContain("shell tunnelling with 4 levels in p, more than its 6 states hold in spin pairs (3): some may be charging peaks");
+  });
+
   it("is decisive on a curve with no levels (nothing to compare)", () => {
     const peaks = [...sV, ...pV].map((v) => peak(v));
     const assignment = { ...assignSpectrum(peaks, { eta }), regime: "undetermined" as const, noLevels: { code: "faint-peaks" as const, reason: "faint" } };
