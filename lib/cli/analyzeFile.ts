@@ -91,8 +91,8 @@ export interface RecordedOptions {
   /** Importer options as given. */
   read: ReadCurveOptions;
   /**
-   * `--compare-models`: fit the orthodox model with every grouping of the peaks to the curves the
-   * rules leave undetermined ("undecided") or to every curve ("all"); absent: no fit.
+   * `--compare-models`: fit the orthodox model with every grouping of the peaks to the curves where
+   * the rules are not decisive ("undecided", `rulesDecisive`) or to every curve ("all"); absent: no fit.
    */
   compareModels?: CompareModelsScope;
 }

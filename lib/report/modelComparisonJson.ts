@@ -7,12 +7,12 @@ import type { FittedValue } from "../model/fit/curveFit.ts";
 import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import type { FitJson } from "./fitJson.ts";
 
-/** Which curves `analyze --compare-models` fits: those the rules leave undetermined, or all. */
+/** Which curves `analyze --compare-models` fits: those where the rules are not decisive (`rulesDecisive`), or all. */
 export type CompareModelsScope = "undecided" | "all";
 
 /** The model comparison of one curve, as an analysis record carries it. */
 export interface ModelComparisonJson {
-  /** Why it ran: the curve was undetermined by the rules ("undecided") or every curve is fitted ("all"). */
+  /** Why it ran: the rules were not decisive on the curve ("undecided", the reasons in `ranBecause`) or every curve is fitted ("all"). */
   scope: CompareModelsScope;
   /** "good", "poor" or "failed" (no fit: do not use the values), with the reasons. */
   status: FitJson["status"];
