@@ -10,20 +10,11 @@ import { assignSpectrum } from "../../lib/assign/assignSpectrum.ts";
 import { rulesDecisive, RULES_DECISIVE_DEFAULTS } from "../../lib/assign/rulesDecisive.ts";
 import { secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
-import { documentedDefaults } from "../helpers/documentedDefaults.ts";
+import { assignPeak } from "../helpers/assignPeak.ts";
+import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
 import { expectError } from "../helpers/errors.ts";
 
-const peak = (biasV: number, stepA = 1e-11): Peak => ({
-  biasV,
-  biasUncertaintyV: 0.001,
-  index: 0,
-  heightS: stepA / 0.05,
-  prominenceS: stepA / 0.05,
-  fwhmV: 0.04,
-  stepA,
-  snr: 20,
-  stepSignificance: 30,
-});
+const peak = assignPeak;
 
 // ε_s = 0.5, ε_p = 0.8 (CB), ε_v1 = −0.6 (g 2), ε_v2 = −0.8 (g 4) eV; Ec = 0.1 eV; η = 0.8.
 const eta = 0.8, ec = 0.1;
@@ -42,10 +33,7 @@ function verdict(cbPeaks: Peak[], toV: number) {
 describe("rulesDecisive(input, options)", () => {
   it("RULES_DECISIVE_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3 });
-    expect(Object.isFrozen(RULES_DECISIVE_DEFAULTS)).toBe(true);
-    for (const d of documentedDefaults(new URL("../../lib/assign/rulesDecisive.ts", import.meta.url), "RulesDecisiveOptions")) {
-      expect(d.literal, d.comment).toEqual(RULES_DECISIVE_DEFAULTS[d.field as keyof typeof RULES_DECISIVE_DEFAULTS]);
-    }
+    expectDocumentedDefaults(new URL("../../lib/assign/rulesDecisive.ts", import.meta.url), "RulesDecisiveOptions", RULES_DECISIVE_DEFAULTS);
   });
 
   it("is decisive on a full shell-filling ladder (s doublet alike, p sextet whole)", () => {

@@ -11,7 +11,7 @@ import {
   type ModelComparisonJson,
 } from "../../lib/report/modelComparisonJson.ts";
 import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
-import { documentedDefaults } from "../helpers/documentedDefaults.ts";
+import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
 
 /** An alternative with the fields the decision reads; the rest neutral. */
 const alt = (hypothesis: string, rateRatio: number, chargingEnergyEV: number, weight: number): FitAlternative => ({
@@ -55,10 +55,7 @@ function comparison(alternatives: FitAlternative[], overrides: Partial<ModelComp
 describe("comparisonDecision(comparison, rules, options)", () => {
   it("MODEL_DECISION_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(MODEL_DECISION_DEFAULTS).toEqual({ minWeight: 0.9, rateRatioSigmas: 1, agreeEcFraction: 0.1, sameAnswerEcFraction: 0.03 });
-    expect(Object.isFrozen(MODEL_DECISION_DEFAULTS)).toBe(true);
-    for (const d of documentedDefaults(new URL("../../lib/report/modelComparisonJson.ts", import.meta.url), "ComparisonDecisionOptions")) {
-      expect(d.literal, d.comment).toEqual(MODEL_DECISION_DEFAULTS[d.field as keyof typeof MODEL_DECISION_DEFAULTS]);
-    }
+    expectDocumentedDefaults(new URL("../../lib/report/modelComparisonJson.ts", import.meta.url), "ComparisonDecisionOptions", MODEL_DECISION_DEFAULTS);
   });
 
   it("lets a good fit decide where the rules are undetermined, when ΔBIC to the rival answer is 6 (weight 0.95 ≥ 0.9), not when it is 2 (0.73)", () => {
