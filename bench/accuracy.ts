@@ -9,6 +9,7 @@
  *   npm run bench:accuracy -- --mix cut-window       # the bias window ends inside the p shell
  *   npm run bench:accuracy -- --mix low-eta          # η 0.55–0.65 (the default mix otherwise)
  *   npm run bench:accuracy -- --mix crossover --n 100 --method fast --compare-models
+ *   npm run bench:accuracy -- --mix crossover --method fast --count-only   # which spectra it would fit
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
@@ -25,14 +26,20 @@
  * resonance (and at no true tip-junction peak) that the analysis puts in a multiplet fails the
  * spectrum; the low-eta mix also reports how many resonances were labelled as such.
  *
- * With --compare-models, every spectrum the rules leave undetermined (and that has levels) is
- * also fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze
- * --compare-models` does, and the fit's answer is scored as that command reports it (fitToJson's
- * quantities): in shell filling or shell tunnelling, the fit's regime, its Ec within 10 % and,
- * where the truth has one, its Δsp within 10 %; in the intermediate range, the regime
- * "intermediate" with Ec within 3 % and Γtip/Γsub within × 1.5 (the issue's bar). A fit with
- * status "failed", regime "undetermined" or that throws counts as undetermined. Two lines are
- * printed per regime: the rules alone, and the rules plus the comparison, with the fits' time.
+ * With --compare-models, every spectrum on which the rules are not decisive (`rulesDecisive`: the
+ * regime undetermined, the s doublet's step ratio near a regime boundary, a filling shell short of
+ * its charging peaks inside the window, an even tunnelling ladder, …) and that has levels is also
+ * fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze --compare-models`
+ * does, and the command's decision (`comparisonDecision`: a good fit whose answer carries ≥ 0.9 of
+ * the BIC weight, within its regime over ± 1 SE where it overrides a named one) says which answer
+ * the record stands by. That answer is scored: the rules' on the criteria above, or the fit's
+ * (fitToJson's quantities): in shell filling or shell tunnelling, the fit's regime, its Ec within
+ * 10 % and, where the truth has one, its Δsp within 10 %; in the intermediate range, the regime
+ * "intermediate" with Ec within 3 % and Γtip/Γsub within × 1.5 (the issue's bar). Per regime the
+ * rules alone and the answer the record stands by are printed, with how many spectra were fitted,
+ * what the fit made of them, how often it decided, fixed a failing answer or broke a passing
+ * one, which reasons sent spectra to the fit, and the fits' time. --count-only lists which spectra
+ * would be fitted and why without fitting them (seconds instead of minutes).
  */
 import { loadavg } from "node:os";
 import { simulateCurve } from "../lib/model/simulate.ts";
