@@ -197,7 +197,7 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
     rules.regime === "undetermined"
       ? `the record stands by the fit (${m.regime}): the rules left the regime undetermined, the fit is good and ${grouping}`
       : agreesWithRules
-        ? `the record stands by the fit, which agrees with the rules (${m.regime}): it is good and ${grouping}; its values replace the peak-based ones where the two differ`
+        ? `the record stands by the fit, which agrees with the rules (${m.regime}): it is good and ${grouping}; read its values where they differ from the peak-based ones`
         : `the record stands by the fit over the rules: it ${what}, is good and ${grouping}${sameRegime ? "" : ", with Γtip/Γsub inside that regime over ± " + k + " standard error" + (k === 1 ? "" : "s")}`;
   return { agreesWithRules, decides: true, decision };
 }
