@@ -1,15 +1,11 @@
-// comparisonDecision and the decision fields of modelComparisonJson on constructed comparisons.
+// comparisonDecision (and the decision fields of failedModelComparison) on constructed comparisons.
 // Expected values: BIC weights exp(−ΔBIC/2) normalised (closed form; G. Schwarz, Ann. Stat. 6, 461
 // (1978); the evidence scale of R. E. Kass and A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)),
 // the regime boundaries 3/7 and 1.5 of REGIME_LIMITS (common practice (no source)), and the
 // documented decision rule (MODEL_DECISION_DEFAULTS: common practice (no source)).
 import { describe, expect, it } from "vitest";
-import {
-  comparisonDecision,
-  failedModelComparison,
-  MODEL_DECISION_DEFAULTS,
-  type ModelComparisonJson,
-} from "../../lib/report/modelComparisonJson.ts";
+import { comparisonDecision, MODEL_DECISION_DEFAULTS } from "../../lib/report/comparisonDecision.ts";
+import { failedModelComparison, type ModelComparisonJson } from "../../lib/report/modelComparisonJson.ts";
 import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
 import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
 
@@ -55,7 +51,7 @@ function comparison(alternatives: FitAlternative[], overrides: Partial<ModelComp
 describe("comparisonDecision(comparison, rules, options)", () => {
   it("MODEL_DECISION_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(MODEL_DECISION_DEFAULTS).toEqual({ minWeight: 0.9, rateRatioSigmas: 1, agreeEcFraction: 0.1, sameAnswerEcFraction: 0.03 });
-    expectDocumentedDefaults(new URL("../../lib/report/modelComparisonJson.ts", import.meta.url), "ComparisonDecisionOptions", MODEL_DECISION_DEFAULTS);
+    expectDocumentedDefaults(new URL("../../lib/report/comparisonDecision.ts", import.meta.url), "ComparisonDecisionOptions", MODEL_DECISION_DEFAULTS);
   });
 
   it("lets a good fit decide where the rules are undetermined, when ΔBIC to the rival answer is 6 (weight 0.95 ≥ 0.9), not when it is 2 (0.73)", () => {
