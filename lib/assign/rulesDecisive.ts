@@ -119,9 +119,14 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * // Shell filling, p shows 5 of 6 charging peaks, the window reaches well past the sixth.
- * rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2.5] }).reasons;
- * // => ["shell filling with 5 of the p multiplet's 6 charging peaks, although the next one (near 2.131 V, one Ec after the last) lies inside the window (to 2.500 V): …"]
+ * // ε_s = 0.5, ε_p = 0.8, ε_v = −0.6 eV, Ec = 0.1 eV, η = 0.8: peaks at ±(|ε| + Ec(n + ½))/η;
+ * // p shows 5 of its 6 charging peaks, and the window reaches past the sixth (1.9375 V).
+ * const peak = (biasV: number): Peak => ({ biasV, biasUncertaintyV: 0.001, index: 0, heightS: 2e-10,
+ *   prominenceS: 2e-10, fwhmV: 0.04, stepA: 1e-11, snr: 20, stepSignificance: 30 });
+ * const peaks = [-0.9375, -0.8125, 0.6875, 0.8125, 1.3125, 1.4375, 1.5625, 1.6875, 1.8125].map(peak);
+ * const assignment = assignSpectrum(peaks, { eta: 0.8 });   // shell filling, s 2, p 5
+ * rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2.2] }).reasons;
+ * // => ["shell filling with 5 of the p multiplet's 6 charging peaks, although the next one (near 1.938 V, one Ec after the last) lies inside the window (to 2.200 V): a weak last charging step may be missed, or the peaks grouped another way"]
  * ```
  */
 export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveOptions = {}): RulesDecisive {

@@ -104,7 +104,10 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  * Example
  * -------
  * ```ts
- * comparisonDecision(comparison, { regime: "undetermined", chargingEnergyEV: null }).decides; // => true (a good fit, weight 0.97)
+ * // A good intermediate fit whose answer carries all the BIC weight, on a curve the rules left open:
+ * const m = modelComparisonJson(fitToJson(fitCurve(analysis, { compareModels: true }), analysisToJson(analysis)), "undecided");
+ * comparisonDecision(m, { regime: "undetermined", chargingEnergyEV: null }).decision;
+ * // => "the record stands by the fit (intermediate): the rules left the regime undetermined, the fit is good and the groupings that give its answer (best: ladder-empty-1 2+6) carry 1.00 of the BIC weight (≥ 0.9)"
  * ```
  */
 export function comparisonDecision(comparison: ModelComparisonJson, rules: RulesAnswer, options: ComparisonDecisionOptions = {}): ComparisonDecision {
