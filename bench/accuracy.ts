@@ -9,6 +9,7 @@
  *   npm run bench:accuracy -- --mix cut-window       # the bias window ends inside the p shell
  *   npm run bench:accuracy -- --mix low-eta          # η 0.55–0.65 (the default mix otherwise)
  *   npm run bench:accuracy -- --mix crossover --n 100 --method fast --compare-models
+ *   npm run bench:accuracy -- --mix crossover --method fast --count-only   # which spectra it would fit
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
@@ -25,14 +26,20 @@
  * resonance (and at no true tip-junction peak) that the analysis puts in a multiplet fails the
  * spectrum; the low-eta mix also reports how many resonances were labelled as such.
  *
- * With --compare-models, every spectrum the rules leave undetermined (and that has levels) is
- * also fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze
- * --compare-models` does, and the fit's answer is scored as that command reports it (fitToJson's
- * quantities): in shell filling or shell tunnelling, the fit's regime, its Ec within 10 % and,
- * where the truth has one, its Δsp within 10 %; in the intermediate range, the regime
- * "intermediate" with Ec within 3 % and Γtip/Γsub within × 1.5 (the issue's bar). A fit with
- * status "failed", regime "undetermined" or that throws counts as undetermined. Two lines are
- * printed per regime: the rules alone, and the rules plus the comparison, with the fits' time.
+ * With --compare-models, every spectrum on which the rules are not decisive (`rulesDecisive`: the
+ * regime undetermined, the s doublet's step ratio near a regime boundary, a filling shell short of
+ * its charging peaks inside the window, an even tunnelling ladder, …) and that has levels is also
+ * fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze --compare-models`
+ * does, and the command's decision (`comparisonDecision`: a good fit whose answer carries ≥ 0.9 of
+ * the BIC weight, within its regime over ± 1 SE where it overrides a named one) says which answer
+ * the record stands by. That answer is scored: the rules' on the criteria above, or the fit's
+ * (fitToJson's quantities): in shell filling or shell tunnelling, the fit's regime, its Ec within
+ * 10 % and, where the truth has one, its Δsp within 10 %; in the intermediate range, the regime
+ * "intermediate" with Ec within 3 % and Γtip/Γsub within × 1.5 (the issue's bar). Per regime the
+ * rules alone and the answer the record stands by are printed, with how many spectra were fitted,
+ * what the fit made of them, how often it decided, fixed a failing answer or broke a passing
+ * one, which reasons sent spectra to the fit, and the fits' time. --count-only lists which spectra
+ * would be fitted and why without fitting them (seconds instead of minutes).
  */
 import { loadavg } from "node:os";
 import { simulateCurve } from "../lib/model/simulate.ts";
@@ -42,6 +49,8 @@ import { analyzeCurve, type CurveAnalysis } from "../lib/pipeline/analyzeCurve.t
 import { fitCurve } from "../lib/model/fit/fitCurve.ts";
 import { analysisToJson } from "../lib/report/analysisJson.ts";
 import { fitToJson } from "../lib/report/fitJson.ts";
+import { modelComparisonJson, type ModelComparisonJson } from "../lib/report/modelComparisonJson.ts";
+import { rulesDecisive } from "../lib/assign/rulesDecisive.ts";
 
 const args = process.argv.slice(2);
 const arg = (name: string, fallback: string) => {
@@ -51,7 +60,9 @@ const arg = (name: string, fallback: string) => {
 const perRegime = Number(arg("n", "200"));
 const method = arg("method", "exact") as "exact" | "fast";
 const verbose = args.includes("--verbose");
-const compareModels = args.includes("--compare-models");
+const compareModels = args.includes("--compare-models") || args.includes("--count-only");
+// With --count-only: which spectra --compare-models would fit and why (the rules' answers, no fit).
+const countOnly = args.includes("--count-only");
 const firstSeed = Number(arg("seed", "1"));
 // "current": differentiate the simulated current; "measured": analyse a simulated lock-in dI/dV column.
 const path = arg("path", "current") as "current" | "measured";
@@ -110,58 +121,106 @@ function score(a: CurveAnalysis, t: SyntheticTruth, tipPeaksV: readonly number[]
   return { pass: failures.length === 0, failures };
 }
 
-/** What the model comparison gave on one spectrum the rules left undetermined. */
-type Comparison = { outcome: "undetermined" | "pass" | "fail"; detail: string };
+/** What the model comparison gave on one spectrum the command fits: the fit's own score and whether the record stands by it. */
+type Comparison = { outcome: "undetermined" | "pass" | "fail"; decides: boolean; detail: string; reasons: string[] };
 /** Wall time of each comparison fit, ms. */
 const comparisonMs: number[] = [];
-/** Per true regime: spectra the rules left undetermined, and what the comparison made of them. */
-const comparisonTally = new Map<string, { undecided: number; pass: number; fail: number; undetermined: number }>();
+/**
+ * Per true regime: spectra the command fits (the rules not decisive), those left undetermined by
+ * the rules among them, what the fit made of them, and where the record stands by the fit: how
+ * often that turned a failing rules' answer into a pass (fixed) or a passing one into a failure
+ * (broke).
+ */
+const comparisonTally = new Map<string, { fitted: number; undecided: number; pass: number; fail: number; undetermined: number; decides: number; fixed: number; broke: number }>();
+/** How often each kind of reason (its words up to the first number) sent a spectrum to the fit. */
+const reasonTally = new Map<string, number>();
+
+/** The fit's answer scored against the truth: the fit's regime, Ec and, per regime, Δsp or Γtip/Γsub. */
+function scoreFit(m: ModelComparisonJson, t: SyntheticTruth): { outcome: Comparison["outcome"]; detail: string } {
+  if (m.status === "failed" || m.regime === "undetermined") return { outcome: "undetermined", detail: `fit ${m.status}, ${m.regime}` };
+  const failures: string[] = [];
+  const ec = m.quantities.chargingEnergyEV?.value ?? NaN;
+  if (m.regime !== t.regime) failures.push(`regime ${m.regime}`);
+  const ecTol = t.regime === "intermediate" ? 0.03 : 0.1;
+  if (!(Math.abs(ec - t.chargingEnergyEV) <= ecTol * t.chargingEnergyEV)) failures.push(`Ec ${ec.toFixed(4)} vs ${t.chargingEnergyEV.toFixed(4)}`);
+  if (t.regime === "intermediate") {
+    const r = m.rateRatio?.value ?? NaN;
+    if (!(Math.abs(Math.log(r / t.rateRatio)) <= Math.log(1.5))) failures.push(`Γtip/Γsub ${r.toPrecision(3)} vs ${t.rateRatio.toPrecision(3)}`);
+  } else {
+    const sp = m.quantities.levelSpacingSPEV?.value ?? null;
+    if (sp === null || Math.abs(sp - t.levelSpacingSPEV) > 0.1 * t.levelSpacingSPEV) failures.push(`Δsp ${sp?.toFixed(4)} vs ${t.levelSpacingSPEV.toFixed(4)}`);
+  }
+  return { outcome: failures.length ? "fail" : "pass", detail: `fit ${m.status} ${m.hypothesis}${failures.length ? ": " + failures.join("; ") : ""}` };
+}
 
 /**
- * The fit `dotspec analyze --compare-models` adds to a curve the rules leave undetermined, scored
- * against the truth; null where the command would not fit (a definite regime, or no levels).
+ * The fit `dotspec analyze --compare-models` adds to a curve whose rules are not decisive
+ * (`rulesDecisive`), with the command's decision (`comparisonDecision`), scored against the truth;
+ * null where the command would not fit (rules decisive, or no levels). `rulesPass`: whether the
+ * rules' answer passes (false for intermediate spectra, which need Γtip/Γsub).
  */
-function compareWithModel(a: CurveAnalysis, t: SyntheticTruth): Comparison | null {
-  if (!compareModels || a.assignment.regime !== "undetermined") return null;
+function compareWithModel(a: CurveAnalysis, t: SyntheticTruth, rulesPass: boolean): Comparison | null {
+  if (!compareModels) return null;
   const json = analysisToJson(a);
   if (json.noLevels !== null) return null;
-  const tally = comparisonTally.get(t.regime) ?? { undecided: 0, pass: 0, fail: 0, undetermined: 0 };
+  const bias = a.conductance.biasV;
+  const verdict = rulesDecisive({ peaks: a.peaks, assignment: a.assignment, biasRangeV: [bias[0], bias[bias.length - 1]] });
+  if (verdict.decisive) return null;
+  for (const r of verdict.reasons) {
+    const key = r.replace(/[\d.]+.*$/, "").trim();
+    reasonTally.set(key, (reasonTally.get(key) ?? 0) + 1);
+  }
+  const tally = comparisonTally.get(t.regime) ?? { fitted: 0, undecided: 0, pass: 0, fail: 0, undetermined: 0, decides: 0, fixed: 0, broke: 0 };
   comparisonTally.set(t.regime, tally);
-  tally.undecided++;
+  tally.fitted++;
+  if (a.assignment.regime === "undetermined") tally.undecided++;
+  if (countOnly) {
+    // Which spectra the command would fit, without fitting them (fast): the rules' answer stands.
+    // (`pass`/`fail` then count the rules' answers on the spectra that would be fitted.)
+    tally[rulesPass ? "pass" : "fail"]++;
+    return { outcome: "undetermined", decides: false, detail: "not fitted (--count-only)", reasons: verdict.reasons };
+  }
   const t0 = performance.now();
   let result: Comparison;
   try {
     const fit = fitCurve(a, { compareModels: true });
-    const q = fitToJson(fit, json).quantities;
-    const ec = q.chargingEnergyEV.value;
-    if (fit.status === "failed" || fit.regime === "undetermined") result = { outcome: "undetermined", detail: `fit ${fit.status}, ${fit.regime}` };
-    else {
-      const failures: string[] = [];
-      if (fit.regime !== t.regime) failures.push(`regime ${fit.regime}`);
-      const ecTol = t.regime === "intermediate" ? 0.03 : 0.1;
-      if (Math.abs(ec - t.chargingEnergyEV) > ecTol * t.chargingEnergyEV) failures.push(`Ec ${ec.toFixed(4)} vs ${t.chargingEnergyEV.toFixed(4)}`);
-      if (t.regime === "intermediate") {
-        if (Math.abs(Math.log(fit.rateRatio.value / t.rateRatio)) > Math.log(1.5)) failures.push(`Γtip/Γsub ${fit.rateRatio.value.toPrecision(3)} vs ${t.rateRatio.toPrecision(3)}`);
-      } else {
-        const sp = q.levelSpacingSPEV?.value ?? null;
-        if (sp === null || Math.abs(sp - t.levelSpacingSPEV) > 0.1 * t.levelSpacingSPEV) failures.push(`Δsp ${sp?.toFixed(4)} vs ${t.levelSpacingSPEV.toFixed(4)}`);
-      }
-      result = { outcome: failures.length ? "fail" : "pass", detail: `fit ${fit.status} ${fit.hypothesis}${failures.length ? ": " + failures.join("; ") : ""}` };
-    }
+    const m = modelComparisonJson(fitToJson(fit, json), "undecided", { ranBecause: verdict.reasons, rules: { regime: json.regime, chargingEnergyEV: a.assignment.energies.chargingEnergyEV } });
+    const sc = scoreFit(m, t);
+    result = { ...sc, decides: m.decides === true, detail: `${sc.detail}; ${m.decision}`, reasons: verdict.reasons };
   } catch (err) {
-    result = { outcome: "undetermined", detail: `fit threw: ${(err as Error).message}` };
+    result = { outcome: "undetermined", decides: false, detail: `fit threw: ${(err as Error).message}`, reasons: verdict.reasons };
   }
   comparisonMs.push(performance.now() - t0);
   tally[result.outcome]++;
+  if (result.decides) {
+    tally.decides++;
+    if (result.outcome === "pass" && !rulesPass) tally.fixed++;
+    if (result.outcome !== "pass" && rulesPass) tally.broke++;
+  }
   return result;
 }
 
+/** Whether the record's standing answer passes: the fit's where it decides, else the rules'. */
+function standingPass(rulesPass: boolean, cmp: Comparison | null): boolean {
+  return cmp?.decides ? cmp.outcome === "pass" : rulesPass;
+}
+
+/** With --verbose: a fitted spectrum whose standing answer fails, or where the fit changed the outcome. */
+function logComparison(seed: number, regime: string, t: SyntheticTruth, rulesRegime: string, rulesPass: boolean, cmp: Comparison | null): void {
+  if (!verbose || !cmp) return;
+  const standing = standingPass(rulesPass, cmp);
+  if (standing && rulesPass) return;
+  const change = standing === rulesPass ? (standing ? "" : "still fails") : standing ? "FIXED" : "BROKE";
+  console.log(`seed ${seed} ${regime} r=${t.rateRatio.toFixed(3)} Ec=${t.chargingEnergyEV.toFixed(3)} rules ${rulesRegime} (${rulesPass ? "pass" : "fail"}); fitted because ${cmp.reasons.map((r) => r.slice(0, 60)).join(" | ")}; fit ${cmp.outcome}, ${cmp.decides ? "decides" : "rules stand"} ${change}: ${cmp.detail}`);
+}
+
 /** Per true regime: spectra, and how many the rules alone pass on every criterion. */
-const rulesTally = new Map<string, { total: number; passed: number }>();
-function tallyRules(regime: string, passed: boolean): void {
-  const r = rulesTally.get(regime) ?? { total: 0, passed: 0 };
+const rulesTally = new Map<string, { total: number; passed: number; standing: number }>();
+function tallyRules(regime: string, passed: boolean, cmp: Comparison | null): void {
+  const r = rulesTally.get(regime) ?? { total: 0, passed: 0, standing: 0 };
   r.total++;
   if (passed) r.passed++;
+  if (standingPass(passed, cmp)) r.standing++;
   rulesTally.set(regime, r);
 }
 
@@ -186,8 +245,6 @@ if (mix === "crossover") {
     analysisMs.push(performance.now() - t0);
     const got = analysis.assignment.regime;
     const want = truth.regime;
-    const cmp = compareWithModel(analysis, truth);
-    if (cmp && cmp.outcome !== "pass" && verbose) console.log(`seed ${seed} ${want} r=${truth.rateRatio.toFixed(3)} undetermined by the rules; comparison ${cmp.outcome}: ${cmp.detail}`);
     const c = counts.get(want) ?? { right: 0, undetermined: 0, wrong: 0, total: 0, passed: 0 };
     c.total++;
     if (got === want) c.right++;
@@ -200,9 +257,11 @@ if (mix === "crossover") {
         if (Math.abs(ec - truth.chargingEnergyEV) <= 0.1 * truth.chargingEnergyEV) tunnelingEc.within10++;
       }
     }
-    if (want !== "intermediate") {
-      const sc = score(analysis, truth, [...truth.sPeaksV, ...truth.pPeaksV, ...truth.valencePeaksV]);
-      tallyRules(want, sc.pass);
+    const sc = want === "intermediate" ? null : score(analysis, truth, [...truth.sPeaksV, ...truth.pPeaksV, ...truth.valencePeaksV]);
+    const cmp = compareWithModel(analysis, truth, sc?.pass ?? false);
+    logComparison(seed, want, truth, got, sc?.pass ?? false, cmp);
+    if (sc) {
+      tallyRules(want, sc.pass, cmp);
       if (sc.pass) c.passed++;
       else {
         const key = sc.failures[0].replace(/[-\d.]+/g, "#");
@@ -212,7 +271,7 @@ if (mix === "crossover") {
       }
       if (!sc.pass && verbose) console.log(`seed ${seed} ${want} r=${truth.rateRatio.toFixed(3)} Ec=${truth.chargingEnergyEV.toFixed(3)} η=${truth.eta.toFixed(2)} fwhm=${(truth.peakFwhmV * 1e3).toFixed(0)}mV noise=${(truth.noiseRelative * 100).toFixed(2)}% split=${truth.pSubgroups.join("+")}: ${sc.failures.join("; ")}`);
     } else {
-      tallyRules(want, false);
+      tallyRules(want, false, cmp);
       if (got !== "undetermined" && verbose) console.log(`seed ${seed} intermediate r=${truth.rateRatio.toFixed(3)}: named ${got}`);
     }
     counts.set(want, c);
@@ -250,16 +309,18 @@ for (const regime of regimes) {
     const t0 = performance.now();
     const analysis = analyzeCurve(curve, { eta: truth.eta, useMeasured: path === "measured" });
     analysisMs.push(performance.now() - t0);
-    const cmp = compareWithModel(analysis, truth);
-    if (cmp && cmp.outcome !== "pass" && verbose) console.log(`seed ${seed} ${regime} r=${truth.rateRatio.toFixed(3)} undetermined by the rules; comparison ${cmp.outcome}: ${cmp.detail}`);
     if (regime === "intermediate") {
-      tallyRules(regime, false);
+      const cmp = compareWithModel(analysis, truth, false);
+      logComparison(seed, regime, truth, analysis.assignment.regime, false, cmp);
+      tallyRules(regime, false, cmp);
       if (analysis.assignment.regime === "undetermined") undetermined++;
       else wrongDefinite++;
       continue;
     }
     const s = score(analysis, truth, [...drawn.truth.sPeaksV, ...drawn.truth.pPeaksV, ...truth.valencePeaksV]);
-    tallyRules(regime, s.pass);
+    const cmp = compareWithModel(analysis, truth, s.pass);
+    logComparison(seed, regime, truth, analysis.assignment.regime, s.pass, cmp);
+    tallyRules(regime, s.pass, cmp);
     if (analysis.assignment.regime === regime) regimeRight++;
     if (s.pass) {
       passed++;
@@ -293,13 +354,14 @@ if (compareModels) {
   for (const regime of ["shell-filling", "shell-tunneling", "intermediate"]) {
     const r = rulesTally.get(regime);
     if (!r) continue;
-    const c = comparisonTally.get(regime) ?? { undecided: 0, pass: 0, fail: 0, undetermined: 0 };
+    const c = comparisonTally.get(regime) ?? { fitted: 0, undecided: 0, pass: 0, fail: 0, undetermined: 0, decides: 0, fixed: 0, broke: 0 };
     const what = regime === "intermediate" ? "intermediate, Ec within 3 % and Γtip/Γsub within ×1.5" : "all criteria";
     lines.push(
-      `${regime.padEnd(16)} ${what}: rules alone ${pc(r.passed, r.total)}, rules + comparison ${pc(r.passed + c.pass, r.total)} ` +
-        `(of ${c.undecided} left undetermined by the rules the fit got ${c.pass} right, ${c.fail} wrong, ${c.undetermined} undetermined or failed)`,
+      `${regime.padEnd(16)} ${what}: rules alone ${pc(r.passed, r.total)}, as the command reports with the comparison ${pc(r.standing, r.total)} ` +
+        `(fitted ${c.fitted}, ${c.undecided} of them undetermined by the rules; the fit got ${c.pass} right, ${c.fail} wrong, ${c.undetermined} undetermined or failed; it decided ${c.decides}: fixed ${c.fixed}, broke ${c.broke})`,
     );
   }
+  lines.push("fitted because: " + [...reasonTally.entries()].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ×${v}`).join("; "));
   const ms = comparisonMs.slice().sort((a, b) => a - b);
   const at = (p: number) => (ms.length ? ms[Math.min(ms.length - 1, Math.floor(p * ms.length))].toFixed(0) : "—");
   lines.push(`comparison fits ${ms.length}: median ${at(0.5)} ms, 90th percentile ${at(0.9)} ms, total ${(ms.reduce((x, y) => x + y, 0) / 1000).toFixed(1)} s; load average ${loadavg().map((x) => x.toFixed(1)).join(", ")}`);

@@ -78,6 +78,7 @@ export { peakRoles, type PeakRole } from "./assign/peakMultiplets.ts";
 export { gapEdges, GAP_EDGES_DEFAULTS, type GapEdgesOptions } from "./assign/gapEdges.ts";
 export { noLevels, NO_LEVELS_DEFAULTS, type NoLevels, type NoLevelsCode, type NoLevelsInput } from "./assign/noLevels.ts";
 export { fitLadderSpacing, type LadderSpacing } from "./assign/ladderFit.ts";
+export { rulesDecisive, RULES_DECISIVE_DEFAULTS, type RulesDecisive, type RulesDecisiveInput, type RulesDecisiveOptions } from "./assign/rulesDecisive.ts";
 
 // The whole job on one curve.
 export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettings, type AnalyzedPeak, type CurveAnalysis } from "./pipeline/analyzeCurve.ts";
@@ -108,6 +109,7 @@ export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOpti
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
 export { failedModelComparison, modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
+export { comparisonDecision, MODEL_DECISION_DEFAULTS, type ComparisonDecision, type ComparisonDecisionOptions, type RulesAnswer } from "./report/comparisonDecision.ts";
 
 // Size series: many dots → per-dot table, size bins, model fits, optical pairing.
 export * from "./sizes/index.ts";

@@ -17,6 +17,7 @@ import {
   inputDigest,
   makeProvenance,
   readCurveFile,
+  rulesDecisive,
   summaryRow,
   svgWithProvenance,
   writeTextFile,
@@ -90,8 +91,8 @@ export interface RecordedOptions {
   /** Importer options as given. */
   read: ReadCurveOptions;
   /**
-   * `--compare-models`: fit the orthodox model with every grouping of the peaks to the curves the
-   * rules leave undetermined ("undecided") or to every curve ("all"); absent: no fit.
+   * `--compare-models`: fit the orthodox model with every grouping of the peaks to the curves where
+   * the rules are not decisive ("undecided", `rulesDecisive`) or to every curve ("all"); absent: no fit.
    */
   compareModels?: CompareModelsScope;
 }
@@ -123,22 +124,34 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   const provenance = makeProvenance(command, digest, recordedOf(options));
   const json = analysisToJson(analysis, record, { notes: note ? [note] : [], metadata: curve.meta.metadata, provenance });
   const scope = options.compareModels;
-  if (scope && json.noLevels === null && (scope === "all" || json.regime === "undetermined")) {
+  const ranBecause = scope && json.noLevels === null ? comparisonReasons(analysis, scope) : null;
+  if (scope && ranBecause) {
     // The comparison of every grouping of the peaks; a fit stopped by its wall-clock limit says
     // so (where it stopped depends on the machine).
     let comparison;
     try {
       const fit = fitCurve(analysis, { compareModels: true });
-      comparison = modelComparisonJson(fitToJson(fit, json), scope);
+      comparison = modelComparisonJson(fitToJson(fit, json), scope, { ranBecause, rules: { regime: json.regime, chargingEnergyEV: analysis.assignment.energies.chargingEnergyEV } });
       if (/time limit/.test(fit.message)) comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
     } catch (err) {
       // A curve the fit cannot start on (no multiplet to fit) keeps its analysis; the comparison says why.
       if (!isDotspecError(err)) throw err;
-      comparison = failedModelComparison(err.message, scope);
+      comparison = failedModelComparison(err.message, scope, ranBecause);
     }
     return { curve, analysis, json: { ...json, modelComparison: comparison } };
   }
   return { curve, analysis, json };
+}
+
+/**
+ * Why `--compare-models` fits a curve: the reasons the rules are not decisive ({@link rulesDecisive}),
+ * or with scope "all" a note that every curve is fitted; null when it does not fit it.
+ */
+function comparisonReasons(analysis: CurveAnalysis, scope: CompareModelsScope): string[] | null {
+  const bias = analysis.conductance.biasV;
+  const verdict = rulesDecisive({ peaks: analysis.peaks, assignment: analysis.assignment, biasRangeV: [bias[0], bias[bias.length - 1]] });
+  if (!verdict.decisive) return verdict.reasons;
+  return scope === "all" ? ["--compare-models all: every curve is fitted (the rules are decisive on this one)"] : null;
 }
 
 /** The provenance of an input that failed: its size and SHA-256 when it can be read. */

@@ -231,14 +231,20 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
   return out.join("\n") + "\n";
 }
 
-/** The model-comparison block: headline with status and regime, the fit's quantities with their ±, the best groupings. */
+/**
+ * The model-comparison block: why it ran, headline with status and regime, the fit's quantities
+ * with their ±, the best groupings, and which answer the record stands by (the fit's or the rules').
+ */
 function modelComparisonLines(m: ModelComparisonJson, eta: number, I: string, bold: (s: string) => string, faint: (s: string) => string): string[] {
   const pm = (v: { value: number; standardError: number } | null, scale: number, unit: string) =>
     v === null ? FORMAT_TEXT_DEFAULTS.missing : `${withSigma(v.value * scale, Number.isFinite(v.standardError) ? v.standardError * scale : null)} ${unit}`;
-  const why = m.scope === "undecided" ? "the rules left the regime undetermined" : "--compare-models all";
+  // Records written before `ranBecause` existed were fitted only where the rules left the regime undetermined.
+  const why = m.ranBecause ? "the rules are not decisive" : m.scope === "undecided" ? "the rules left the regime undetermined" : "--compare-models all";
   const out = [`${I}${bold("Model comparison")} (orthodox model fitted with every grouping of the peaks; ${why})`];
+  for (const r of m.ranBecause ?? []) out.push(faint(`${I}${I}why: ${r}`));
+  const decision = m.decision === undefined ? [] : [`${I}${I}${m.decides ? bold("the fit decides") : "the rules stand"}: ${m.decision}`];
   if (m.status === "failed") {
-    out.push(`${I}${I}NO FIT: ${m.statusReasons.join("; ")}`);
+    out.push(`${I}${I}NO FIT: ${m.statusReasons.join("; ")}`, ...decision);
     return out;
   }
   out.push(`${I}${I}${REGIME_WORDS[m.regime as keyof typeof REGIME_WORDS] ?? m.regime}, fit ${m.status === "good" ? "good" : "POOR"} (reduced χ² ${m.reducedChiSquare?.toPrecision(3) ?? FORMAT_TEXT_DEFAULTS.missing}): ${m.regimeReason}`);
@@ -246,6 +252,7 @@ function modelComparisonLines(m: ModelComparisonJson, eta: number, I: string, bo
   const ranked = [...m.alternatives].sort((a, b) => b.weight - a.weight).slice(0, 3);
   if (ranked.length) out.push(faint(`${I}${I}best groupings: ${ranked.map((a) => `${a.hypothesis} (weight ${a.weight.toPrecision(2)})`).join(", ")}`));
   if (m.status === "poor") out.push(faint(`${I}${I}${m.statusReasons.join("; ")}`));
+  out.push(...decision);
   for (const w of m.warnings) out.push(`${I}${I}! ${w}`);
   return out;
 }

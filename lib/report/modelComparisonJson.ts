@@ -4,14 +4,15 @@
  * its copy of the peak-based record.
  */
 import type { FittedValue } from "../model/fit/curveFit.ts";
+import { comparisonDecision, type RulesAnswer } from "./comparisonDecision.ts";
 import type { FitJson } from "./fitJson.ts";
 
-/** Which curves `analyze --compare-models` fits: those the rules leave undetermined, or all. */
+/** Which curves `analyze --compare-models` fits: those where the rules are not decisive (`rulesDecisive`), or all. */
 export type CompareModelsScope = "undecided" | "all";
 
 /** The model comparison of one curve, as an analysis record carries it. */
 export interface ModelComparisonJson {
-  /** Why it ran: the curve was undetermined by the rules ("undecided") or every curve is fitted ("all"). */
+  /** Why it ran: the rules were not decisive on the curve ("undecided", the reasons in `ranBecause`) or every curve is fitted ("all"). */
   scope: CompareModelsScope;
   /** "good", "poor" or "failed" (no fit: do not use the values), with the reasons. */
   status: FitJson["status"];
@@ -32,6 +33,26 @@ export interface ModelComparisonJson {
   /** Reduced χ² of the fit (null when it could not run). */
   reducedChiSquare: number | null;
   warnings: string[];
+  /**
+   * Why the comparison ran, in words: the features that leave the rules' reading open
+   * (`rulesDecisive`), or "--compare-models all" when every curve is fitted and the rules were
+   * decisive. Absent in records written before this field existed.
+   */
+  ranBecause?: string[];
+  /**
+   * Whether the fit's answer agrees with the rules' (same regime and, where both give one, Ec
+   * within `MODEL_DECISION_DEFAULTS.agreeEcFraction`); null when the fit has no answer (failed,
+   * or its regime undetermined).
+   */
+  agreesWithRules?: boolean | null;
+  /**
+   * True when the record stands by the fit's answer (regime, Ec, Γtip/Γsub, Δsp and the grouping
+   * of `hypothesis`) rather than the rules' (the record's top-level fields, which stay the
+   * rules'): see {@link comparisonDecision}.
+   */
+  decides?: boolean;
+  /** Which answer the record stands by, and why, in words. */
+  decision?: string;
 }
 
 /**
@@ -42,7 +63,10 @@ export interface ModelComparisonJson {
  * fit : FitJson
  *     The record of `fitCurve(analysis, { compareModels: true })` ({@link fitToJson}).
  * scope : CompareModelsScope
- *     Why the curve was fitted ("undecided": the rules left its regime undetermined).
+ *     Why the curve was fitted ("undecided": the rules are not decisive, `rulesDecisive`).
+ * context : { ranBecause: string[]; rules: RulesAnswer }, optional
+ *     Why it ran (the reasons, in words) and the rules' answer; with it the record gains
+ *     `ranBecause`, `agreesWithRules`, `decides` and `decision` ({@link comparisonDecision}).
  *
  * Returns
  * -------
@@ -54,8 +78,8 @@ export interface ModelComparisonJson {
  * -------
  * modelComparisonJson(fitToJson(fit, record), "undecided").regime; // => "intermediate"
  */
-export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope): ModelComparisonJson {
-  return {
+export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope, context?: { ranBecause: string[]; rules: RulesAnswer }): ModelComparisonJson {
+  const record: ModelComparisonJson = {
     scope,
     status: fit.status,
     statusReasons: fit.statusReasons,
@@ -69,6 +93,7 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope): Mo
     reducedChiSquare: fit.reducedChiSquare,
     warnings: fit.warnings,
   };
+  return context ? { ...record, ranBecause: context.ranBecause, ...comparisonDecision(record, context.rules) } : record;
 }
 
 /**
@@ -81,6 +106,9 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope): Mo
  *     Why the fit could not run (the fit's error message).
  * scope : CompareModelsScope
  *     Why the curve was to be fitted.
+ * ranBecause : string[], optional
+ *     Why it ran, in words; with it the record gains `ranBecause` and the decision fields (the
+ *     rules' answer stands).
  *
  * Returns
  * -------
@@ -91,8 +119,8 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope): Mo
  * -------
  * failedModelComparison("no multiplets to fit", "undecided").status; // => "failed"
  */
-export function failedModelComparison(reason: string, scope: CompareModelsScope): ModelComparisonJson {
-  return {
+export function failedModelComparison(reason: string, scope: CompareModelsScope, ranBecause?: string[]): ModelComparisonJson {
+  const record: ModelComparisonJson = {
     scope,
     status: "failed",
     statusReasons: [reason],
@@ -106,4 +134,5 @@ export function failedModelComparison(reason: string, scope: CompareModelsScope)
     reducedChiSquare: null,
     warnings: [],
   };
+  return ranBecause ? { ...record, ranBecause, agreesWithRules: null, decides: false, decision: `the record stands by the rules' answer: no fit (${reason})` } : record;
 }

@@ -6,19 +6,10 @@ import fc from "fast-check";
 import { expectClose } from "../helpers/expectClose.ts";
 import { assignSpectrum, ASSIGN_DEFAULTS } from "../../lib/assign/assignSpectrum.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
+import { assignPeak } from "../helpers/assignPeak.ts";
 import type { Assignment } from "../../lib/assign/assignSpectrum.ts";
 
-const peak = (biasV: number, stepA = 1e-11, sigma = 0.001): Peak => ({
-  biasV,
-  biasUncertaintyV: sigma,
-  index: 0,
-  heightS: stepA / 0.05,
-  prominenceS: stepA / 0.05,
-  fwhmV: 0.04,
-  stepA,
-  snr: 20,
-  stepSignificance: 30,
-});
+const peak = assignPeak;
 
 // Levels ε_s = 0.5, ε_p = 0.8 (CB), ε_v1 = −0.6 (g 2), ε_v2 = −0.8 (g 4); Ec = 0.1 eV; η = 0.8.
 const eta = 0.8, ec = 0.1;

@@ -13,12 +13,20 @@ import { FILLING, removeTempDirs, run, tempDir, writeCurve } from "./harness.ts"
 
 // The example dot at Γtip/Γsub = 1: charging and level steps both show, the rules say undetermined.
 const CROSSOVER = Object.freeze({ ...EXAMPLE_SCENARIO, tipRatePerS: 1e9, substrateRatePerS: 1e9 });
+// At Γtip/Γsub = 1.8 the rules name shell filling, but the s doublet's second step is
+// r/(1 + r) = 0.64 of the first (closed form, orthodox theory: C. W. J. Beenakker, Phys. Rev. B 44,
+// 1646 (1991)), inside the crossover band 0.2–0.7, and p's last charging step is too weak to be
+// found: the rules are not decisive.
+const NEAR_FILLING = Object.freeze({ ...EXAMPLE_SCENARIO, tipRatePerS: 1.8e9, substrateRatePerS: 1e9 });
 
 let dir: string;
 let crossover: string;
 let filling: string;
+let nearFilling: string;
 beforeAll(() => {
   dir = tempDir();
+  nearFilling = join(dir, "near-filling.csv");
+  writeFileSync(nearFilling, `# eta: ${NEAR_FILLING.eta}\n` + formatCurveCsv(simulateCurve(NEAR_FILLING, { method: "fast", conductance: false })));
   crossover = join(dir, "crossover.csv");
   writeFileSync(crossover, `# eta: ${CROSSOVER.eta}\n` + formatCurveCsv(simulateCurve(CROSSOVER, { method: "fast", conductance: false })));
   filling = writeCurve(join(dir, "filling.csv"), FILLING);
@@ -38,8 +46,13 @@ describe("dotspec analyze --compare-models", () => {
     expect(rec.regime).toBe("undetermined");
     const m = rec.modelComparison!;
     expect(m.scope).toBe("undecided");
+    expect(m.ranBecause).toEqual(["the rules left the regime undetermined"]);
     expect(m.status).toBe("good");
     expect(m.regime).toBe("intermediate");
+    // A good fit where the rules have no answer gives the record's answer.
+    expect(m.decides).toBe(true);
+    expect(m.agreesWithRules).toBe(false);
+    expect(m.decision).toMatch(/stands by the fit \(intermediate\)/);
     expect(Math.abs(m.quantities.chargingEnergyEV!.value - CROSSOVER.chargingEnergyEV)).toBeLessThan(0.03 * CROSSOVER.chargingEnergyEV);
     expect(Math.abs(Math.log(m.rateRatio!.value / (CROSSOVER.tipRatePerS / CROSSOVER.substrateRatePerS)))).toBeLessThan(Math.log(1.5));
     expect(m.rateRatio!.standardError).toBeGreaterThan(0);
@@ -50,6 +63,26 @@ describe("dotspec analyze --compare-models", () => {
     expect(rec.provenance!.options).toMatchObject({ compareModels: "undecided" });
   });
 
+  it("fits a curve the rules name but do not decide (Γtip/Γsub = 1.8), says why, and stands by the good fit: Ec within 3 % and Γtip/Γsub within × 1.5 of the simulated dot", async () => {
+    const r = await run(["analyze", nearFilling, "--compare-models", "--json"]);
+    expect(r.code).toBe(0);
+    const rec = (JSON.parse(r.stdout) as AnalysisJson[])[0];
+    // The record only gains fields: the top level stays the rules' reading.
+    expect(rec.regime).toBe("shell-filling");
+    const m = rec.modelComparison!;
+    expect(m.ranBecause!.some((x) => /within the crossover band/.test(x))).toBe(true);
+    expect(m.status).toBe("good");
+    expect(m.regime).toBe("shell-filling");
+    expect(Math.abs(m.quantities.chargingEnergyEV!.value - NEAR_FILLING.chargingEnergyEV)).toBeLessThan(0.03 * NEAR_FILLING.chargingEnergyEV);
+    expect(Math.abs(Math.log(m.rateRatio!.value / 1.8))).toBeLessThan(Math.log(1.5));
+    expect(m.agreesWithRules).toBe(true);
+    expect(m.decides).toBe(true);
+    const text = await run(["analyze", nearFilling, "--compare-models"]);
+    expect(text.stdout).toContain("the rules are not decisive");
+    expect(text.stdout).toMatch(/why: the second CB step is 0\.\d\d × the first/);
+    expect(text.stdout).toContain("the fit decides: the record stands by the fit");
+  }, 120_000);
+
   it("leaves a curve the rules decide alone, and fits it too with --compare-models all", async () => {
     expect(records[1].regime).toBe("shell-filling");
     expect(records[1].modelComparison).toBeUndefined();
@@ -57,6 +90,7 @@ describe("dotspec analyze --compare-models", () => {
     expect(r.code).toBe(0);
     const m = (JSON.parse(r.stdout) as AnalysisJson[])[0].modelComparison!;
     expect(m.scope).toBe("all");
+    expect(m.ranBecause![0]).toMatch(/every curve is fitted/);
     expect(m.regime).toBe("shell-filling");
     expect(Math.abs(m.quantities.chargingEnergyEV!.value - FILLING.chargingEnergyEV)).toBeLessThan(0.03 * FILLING.chargingEnergyEV);
   }, 120_000);
@@ -100,6 +134,7 @@ describe("dotspec analyze --compare-models", () => {
     expect(rec.modelComparison!.status).toBe("failed");
     expect(rec.modelComparison!.statusReasons[0]).toMatch(/no multiplets to start the fit from/);
     expect(rec.modelComparison!.rateRatio).toBeNull();
+    expect(rec.modelComparison!.decides).toBe(false);
     const text = await run(["analyze", lone, "--compare-models"]);
     expect(text.stdout).toContain("NO FIT");
   }, 60_000);

@@ -6,6 +6,7 @@
  * left out. Used by the lock tests so that a doc comment and its DEFAULTS object cannot drift.
  */
 import { readFileSync } from "node:fs";
+import { expect } from "vitest";
 
 export interface DocumentedDefault {
   field: string;
@@ -48,4 +49,15 @@ export function documentedDefaults(sourceUrl: URL, interfaceName: string): Docum
     out.push({ field: m[2], literal, constant: constMatch ? { object: constMatch[1], key: constMatch[2] } : null, comment });
   }
   return out;
+}
+
+/**
+ * Asserts that `defaults` is frozen, that every literal default documented on `interfaceName`'s
+ * fields equals the same key of `defaults`, and that the documented fields cover all its keys.
+ */
+export function expectDocumentedDefaults(sourceUrl: URL, interfaceName: string, defaults: Readonly<Record<string, unknown>>): void {
+  expect(Object.isFrozen(defaults)).toBe(true);
+  const documented = documentedDefaults(sourceUrl, interfaceName);
+  for (const d of documented) expect(d.literal, d.comment).toEqual(defaults[d.field]);
+  expect(documented.map((d) => d.field).sort()).toEqual(Object.keys(defaults).sort());
 }

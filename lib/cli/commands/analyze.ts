@@ -37,7 +37,7 @@ export interface AnalyzeCliOptions extends AnalysisCliOptions {
 /** The value of `--compare-models [SCOPE]`. */
 function compareModelsOption(value: string): CompareModelsScope {
   if (value === "undecided" || value === "all") return value;
-  throw new InvalidArgumentError(`expected "undecided" (the curves the rules leave undetermined, the default) or "all"; got ${JSON.stringify(value)}`);
+  throw new InvalidArgumentError(`expected "undecided" (the curves where the rules are not decisive, the default) or "all"; got ${JSON.stringify(value)}`);
 }
 
 const HELP_AFTER = `
@@ -59,9 +59,13 @@ Output:
   --compare-models [undecided|all]
                 also fit the orthodox model with every grouping of the peaks (shell filling
                 or tunnelling, p whole or split, ladders) and compare them by BIC, on the
-                curves the rules leave undetermined (default) or on all; the record gains
-                "modelComparison" (regime from the fitted Γtip/Γsub, Ec and Γtip/Γsub with
-                their ±, status, alternatives). Slow: about 0.3–2 s per curve fitted
+                curves where the rules are not decisive (default: regime undetermined, s
+                step ratio near a regime boundary, a shell short of its charging peaks, an
+                even tunnelling ladder) or on all; the record gains "modelComparison" (why it
+                ran, regime from the fitted Γtip/Γsub, Ec and Γtip/Γsub with their ±, status,
+                alternatives, and "decides": true where the record stands by a good fit with
+                the BIC weight of its answer ≥ 0.9 instead of the rules). Slow: about
+                0.3–2 s per curve fitted
   --replay R    re-run the analysis recorded in R (a JSON record or array of records) on the
                 recorded file with the recorded options, and say whether the numbers match
 
@@ -103,7 +107,7 @@ export const analyzeCommand: CliCommand = {
       .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
       .option(
         "--compare-models [scope]",
-        "also fit the model with every grouping of the peaks and compare them, on the curves the rules leave undetermined (\"undecided\", the default) or on \"all\" (slow)",
+        "also fit the model with every grouping of the peaks and compare them, on the curves where the rules are not decisive (\"undecided\", the default) or on \"all\" (slow)",
         compareModelsOption,
       )
       .option("--replay <RECORD.json>", "re-run a recorded analysis on its file with its options and compare the numbers")

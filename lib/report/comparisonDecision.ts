@@ -1,0 +1,156 @@
+/**
+ * Which answer a curve's record stands by when `dotspec analyze --compare-models` fitted it: the
+ * model comparison's or the rules'.
+ */
+import { REGIME_LIMITS } from "../model/regimeLimits.ts";
+import type { ModelComparisonJson } from "./modelComparisonJson.ts";
+
+/** The rules' answer a comparison is weighed against (from the analysis record). */
+export interface RulesAnswer {
+  /** The rules' regime. */
+  regime: string;
+  /** The rules' Ec, eV, or null. */
+  chargingEnergyEV: number | null;
+}
+
+/** Options of {@link comparisonDecision}; every field optional (defaults in {@link MODEL_DECISION_DEFAULTS}). */
+export interface ComparisonDecisionOptions {
+  /** The winning grouping's BIC weight must be at least this (dimensionless, 0–1). Default 0.9. */
+  minWeight?: number;
+  /**
+   * Where the fit names a regime other than the rules' definite one, its Γtip/Γsub must stay
+   * inside that regime's range over ± this many standard errors (of ln r ≈ SE/r). Default 1.
+   */
+  rateRatioSigmas?: number;
+  /** The fit agrees with the rules on Ec when within this fraction of the rules' Ec. Default 0.1. */
+  agreeEcFraction?: number;
+  /**
+   * Groupings whose fitted Ec lies within this fraction of the winner's and whose Γtip/Γsub lies
+   * in the same regime give the same answer: their BIC weights add up. Default 0.03.
+   */
+  sameAnswerEcFraction?: number;
+}
+
+/** Defaults of {@link comparisonDecision} (locked by test/report/comparisonDecision.test.ts). */
+export const MODEL_DECISION_DEFAULTS = Object.freeze({
+  /** Least BIC weight of the winning grouping: ΔBIC ≈ 4.4 over a single rival (positive evidence or more). */
+  minWeight: 0.9,
+  /** Standard errors of ln Γtip/Γsub that must stay inside the fit's regime when it overrides a named one. */
+  rateRatioSigmas: 1,
+  /** Ec agreement between fit and rules, fraction of the rules' Ec (the benchmark's Ec tolerance). */
+  agreeEcFraction: 0.1,
+  /** Groupings within this fraction of the winner's Ec, in the same regime, give the same answer (the issue's Ec bar, 3 %). */
+  sameAnswerEcFraction: 0.03,
+});
+
+/** The regime a rate ratio Γtip/Γsub lies in (`REGIME_LIMITS`). */
+function regimeOfRatio(rateRatio: number): string {
+  if (!(rateRatio > 0)) return "undetermined";
+  if (rateRatio >= REGIME_LIMITS.fillingRateRatioMin) return "shell-filling";
+  if (rateRatio <= REGIME_LIMITS.tunnelingRateRatioMax) return "shell-tunneling";
+  return "intermediate";
+}
+
+/** The decision fields of a comparison: {@link comparisonDecision}'s result. */
+export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithRules" | "decides" | "decision">>;
+
+/**
+ * Which answer a curve's record stands by when the model comparison ran: the fit's or the rules'.
+ *
+ * Parameters
+ * ----------
+ * comparison : ModelComparisonJson
+ *     The comparison (status, regime, Γtip/Γsub with its error, alternatives with their weights).
+ * rules : RulesAnswer
+ *     The rules' regime and Ec (eV).
+ * options : ComparisonDecisionOptions, optional
+ *     `minWeight` (default 0.9), `rateRatioSigmas` (default 1), `agreeEcFraction` (default 0.1),
+ *     `sameAnswerEcFraction` (default 0.03).
+ *
+ * Returns
+ * -------
+ * ComparisonDecision
+ *     `agreesWithRules` (null without a fitted answer), `decides` (true: the fit's answer stands)
+ *     and `decision` in words.
+ *
+ * Throws
+ * ------
+ * Nothing: the inputs come from the fit's own record.
+ *
+ * Notes
+ * -----
+ * The fit decides only when it is trustworthy on its own terms; otherwise the rules' answer
+ * stands and the comparison is reported beside it:
+ * 1. Status "good" (reduced χ² ≤ 3, no residual structure, Ec and Γtip/Γsub determined) and a
+ *    definite regime (not "undetermined"); else the rules stand.
+ * 2. The groupings that give the fit's answer (Γtip/Γsub in the same regime, Ec within
+ *    `sameAnswerEcFraction` of the winner's: the same model reached from several starts splits
+ *    its weight between them) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
+ *    normalised): at 0.9, ΔBIC ≈ 4.4 over one rival answer, positive evidence on the scale of
+ *    Kass & Raftery; a close contest leaves the rules' reading.
+ * 3. Where the rules named a regime and the fit names another, Γtip/Γsub must stay inside the
+ *    fit's regime over ± `rateRatioSigmas` standard errors (r·exp(± k·SE/r) against the
+ *    boundaries 3/7 and 1.5 of `REGIME_LIMITS`): a fit near a boundary does not overturn a
+ *    definite reading.
+ * 4. When all hold, the fit decides: where the rules were undetermined it gives the answer; where
+ *    they agree it confirms them with its grouping (a shell the rules read short of its
+ *    degeneracy is fitted whole); where they disagree it overrides them.
+ *
+ * References
+ * ----------
+ * R. E. Kass and A. E. Raftery, "Bayes factors", J. Am. Stat. Assoc. 90, 773 (1995) (the scale
+ * of evidence for BIC differences); G. Schwarz, Ann. Stat. 6, 461 (1978) (BIC).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // A good intermediate fit whose answer carries all the BIC weight, on a curve the rules left open:
+ * const m = modelComparisonJson(fitToJson(fitCurve(analysis, { compareModels: true }), analysisToJson(analysis)), "undecided");
+ * comparisonDecision(m, { regime: "undetermined", chargingEnergyEV: null }).decision;
+ * // => "the record stands by the fit (intermediate): the rules left the regime undetermined, the fit is good and the groupings that give its answer (best: ladder-empty-1 2+6) carry 1.00 of the BIC weight (≥ 0.9)"
+ * ```
+ */
+export function comparisonDecision(comparison: ModelComparisonJson, rules: RulesAnswer, options: ComparisonDecisionOptions = {}): ComparisonDecision {
+  const D = MODEL_DECISION_DEFAULTS;
+  const minWeight = options.minWeight ?? D.minWeight;
+  const k = options.rateRatioSigmas ?? D.rateRatioSigmas;
+  const agreeEc = options.agreeEcFraction ?? D.agreeEcFraction;
+  const sameEc = options.sameAnswerEcFraction ?? D.sameAnswerEcFraction;
+  const m = comparison;
+  const rulesWord = rules.regime === "undetermined" ? "the rules' undetermined regime" : `the rules' reading (${rules.regime})`;
+  if (m.status === "failed" || m.regime === "undetermined") {
+    return { agreesWithRules: null, decides: false, decision: `the record stands by ${rulesWord}: the fit gives no answer (${m.status === "failed" ? "no fit" : "its regime is undetermined"})` };
+  }
+  const fitEc = m.quantities.chargingEnergyEV?.value ?? null;
+  const sameRegime = m.regime === rules.regime;
+  const ecAgrees = fitEc === null || rules.chargingEnergyEV === null || Math.abs(fitEc - rules.chargingEnergyEV) <= agreeEc * rules.chargingEnergyEV;
+  const agreesWithRules = sameRegime && ecAgrees;
+  const what = agreesWithRules ? "agrees with the rules" : sameRegime ? `agrees on the regime but not on Ec (${(fitEc! * 1e3).toFixed(1)} against ${(rules.chargingEnergyEV! * 1e3).toFixed(1)} meV)` : `reads ${m.regime} where the rules read ${rules.regime}`;
+  if (m.status !== "good") return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but its status is ${m.status}` };
+  // The weight of the fit's answer: every grouping that gives the same regime and Ec (the same
+  // model reached from several starts splits the weight between them).
+  const winnerEc = fitEc ?? NaN;
+  const sameAnswer = m.alternatives.filter((a) => regimeOfRatio(a.rateRatio) === m.regime && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc);
+  const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
+  if (weight < minWeight) {
+    return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but the groupings that give its answer carry ${weight.toFixed(2)} of the BIC weight (< ${minWeight}): a grouping with another answer fits nearly as well` };
+  }
+  if (!sameRegime && rules.regime !== "undetermined") {
+    const r = m.rateRatio;
+    const inside = (x: number) =>
+      m.regime === "shell-filling" ? x >= REGIME_LIMITS.fillingRateRatioMin : m.regime === "shell-tunneling" ? x <= REGIME_LIMITS.tunnelingRateRatioMax : x > REGIME_LIMITS.tunnelingRateRatioMax && x < REGIME_LIMITS.fillingRateRatioMin;
+    const spread = r && Number.isFinite(r.standardError) && r.value > 0 ? Math.exp((k * r.standardError) / r.value) : Infinity;
+    if (!r || !Number.isFinite(spread) || !inside(r.value / spread) || !inside(r.value * spread)) {
+      const shown = r ? `${r.value.toPrecision(3)} ± ${r.standardError.toPrecision(2)}` : "unknown";
+      return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but its Γtip/Γsub (${shown}) does not stay inside ${m.regime} over ± ${k} standard error${k === 1 ? "" : "s"}` };
+    }
+  }
+  const grouping = `the groupings that give its answer (best: ${m.hypothesis}) carry ${weight.toFixed(2)} of the BIC weight (≥ ${minWeight})`;
+  const decision =
+    rules.regime === "undetermined"
+      ? `the record stands by the fit (${m.regime}): the rules left the regime undetermined, the fit is good and ${grouping}`
+      : agreesWithRules
+        ? `the record stands by the fit, which agrees with the rules (${m.regime}): it is good and ${grouping}; read its values where they differ from the peak-based ones`
+        : `the record stands by the fit over the rules: it ${what}, is good and ${grouping}${sameRegime ? "" : ", with Γtip/Γsub inside that regime over ± " + k + " standard error" + (k === 1 ? "" : "s")}`;
+  return { agreesWithRules, decides: true, decision };
+}

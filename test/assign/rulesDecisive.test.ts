@@ -1,0 +1,109 @@
+// rulesDecisive on peak lists built from the closed-form peak positions of orthodox theory,
+// (ε + Ec·(n + ½))/η, and the closed-form step ratio r/(1 + r) of the s doublet's second step over
+// its first for Γtip/Γsub = r (orthodox theory: C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991);
+// E. Bonet, M. M. Deshmukh and D. C. Ralph, Phys. Rev. B 65, 045317 (2002); see
+// secondToFirstStepRatio). The peaks go through the real rules (assignSpectrum); the expected
+// verdicts follow from those closed forms and the documented limits (RULES_DECISIVE_DEFAULTS:
+// common practice (no source)).
+import { describe, expect, it } from "vitest";
+import { assignSpectrum } from "../../lib/assign/assignSpectrum.ts";
+import { rulesDecisive, RULES_DECISIVE_DEFAULTS } from "../../lib/assign/rulesDecisive.ts";
+import { secondToFirstStepRatio } from "../../lib/model/regimeLimits.ts";
+import type { Peak } from "../../lib/peaks/findPeaks.ts";
+import { assignPeak } from "../helpers/assignPeak.ts";
+import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
+import { expectError } from "../helpers/errors.ts";
+
+const peak = assignPeak;
+
+// ε_s = 0.5, ε_p = 0.8 (CB), ε_v1 = −0.6 (g 2), ε_v2 = −0.8 (g 4) eV; Ec = 0.1 eV; η = 0.8.
+const eta = 0.8, ec = 0.1;
+const ecV = ec / eta;
+const sV = [0.5 + 0.05, 0.5 + 0.15].map((e) => e / eta);
+const pV = [2, 3, 4, 5, 6, 7].map((n) => (0.8 + ec * (n + 0.5)) / eta);
+const vbV = [0.6 + 0.05, 0.6 + 0.15, ...[2, 3, 4, 5].map((n) => 0.8 + ec * (n + 0.5))].map((e) => -e / eta);
+
+/** The rules' assignment of these peaks and its verdict over a window [−2, toV] V. */
+function verdict(cbPeaks: Peak[], toV: number) {
+  const peaks = [...vbV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
+  const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
+  return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, toV] }) };
+}
+
+describe("rulesDecisive(input, options)", () => {
+  it("RULES_DECISIVE_DEFAULTS are locked, frozen and match the documented defaults", () => {
+    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3 });
+    expectDocumentedDefaults(new URL("../../lib/assign/rulesDecisive.ts", import.meta.url), "RulesDecisiveOptions", RULES_DECISIVE_DEFAULTS);
+  });
+
+  it("is decisive on a full shell-filling ladder (s doublet alike, p sextet whole)", () => {
+    const { assignment, result } = verdict([...sV, ...pV].map((v) => peak(v)), pV[5] + 0.3);
+    expect(assignment.regime).toBe("shell-filling");
+    expect(result).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("is not decisive when p shows 5 of 6 charging peaks and the sixth would sit inside the window, and is when the window ends before it", () => {
+    const five = [...sV, ...pV.slice(0, 5)];
+    const inside = verdict(five.map((v) => peak(v)), pV[5] + 0.3);
+    expect(inside.assignment.regime).toBe("shell-filling");
+    expect(inside.result.decisive).toBe(false);
+    expect(inside.result.reasons).toHaveLength(1);
+    expect(inside.result.reasons[0]).toContain("5 of the p multiplet's 6 charging peaks");
+    // The sixth at pV[4] + Ec/η (closed form), one FWHM (0.04 V) from the end of the window.
+    expect(inside.result.reasons[0]).toContain(`near ${(pV[4] + ecV).toFixed(3)} V`);
+    const cut = verdict(five.map((v) => peak(v)), pV[4] + ecV + 0.5 * 0.04);
+    expect(cut.result).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("flags a named regime whose s doublet's step ratio r/(1 + r) lies in the crossover band: r = 2 (2/3 ≤ 0.7) yes, r = 4 (0.8) no", () => {
+    for (const [r, decisive] of [[2, false], [4, true]] as const) {
+      const q = secondToFirstStepRatio(r);
+      const { assignment, result } = verdict([peak(sV[0]), peak(sV[1], q * 1e-11), ...pV.map((v) => peak(v))], pV[5] + 0.3);
+      expect(assignment.regime).toBe("shell-filling");
+      expect(result.decisive).toBe(decisive);
+      if (!decisive) expect(result.reasons[0]).toContain(`the second CB step is ${q.toFixed(2)} × the first`);
+    }
+  });
+
+  it("is not decisive where the rules leave the regime undetermined (r = 1: step ratio 1/2, between 0.3 and 0.6)", () => {
+    const q = secondToFirstStepRatio(1);
+    const { assignment, result } = verdict([peak(sV[0]), peak(sV[1], q * 1e-11), ...pV.map((v) => peak(v))], pV[5] + 0.3);
+    expect(assignment.regime).toBe("undetermined");
+    expect(result).toEqual({ decisive: false, reasons: ["the rules left the regime undetermined"] });
+  });
+
+  it("flags a shell-tunnelling ladder of alike spacings, and not one whose s→p jump differs", () => {
+    // Levels s (g 2), p (g 6), d (g 10) deep in shell tunnelling: steps in proportion to g (r → 0,
+    // levelStepRatio), one peak per level.
+    const even = verdict([0.75, 1.05, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2);
+    expect(even.assignment.regime).toBe("shell-tunneling");
+    expect(even.result.decisive).toBe(false);
+    expect(even.result.reasons[0]).toContain("3 CB peaks whose 2 spacings are alike (300, 300 mV");
+    const uneven = verdict([0.75, 1.15, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2);
+    expect(uneven.assignment.regime).toBe("shell-tunneling");
+    expect(uneven.result).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("flags a shell-tunnelling p read as more levels than its 6 states make spin pairs (4 > 3)", () => {
+    // s, then four peaks close together (within half the s→p distance: one shell), p's steps
+    // together 4 × the s step (≥ 1.4: shell tunnelling).
+    const { assignment, result } = verdict([peak(0.75), ...[1.1, 1.15, 1.2, 1.25].map((v) => peak(v))], 2);
+    expect(assignment.regime).toBe("shell-tunneling");
+    expect(assignment.multiplets.find((m) => m.label === "p")!.found).toBe(4);
+    expect(result.decisive).toBe(false);
+    expect(result.reasons).toContain("shell tunnelling with 4 levels in p, more than its 6 states hold in spin pairs (3): some may be charging peaks");
+  });
+
+  it("is decisive on a curve with no levels (nothing to compare)", () => {
+    const peaks = [...sV, ...pV].map((v) => peak(v));
+    const assignment = { ...assignSpectrum(peaks, { eta }), regime: "undetermined" as const, noLevels: { code: "faint-peaks" as const, reason: "faint" } };
+    expect(rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] })).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("rejects an option out of range and a bias range that is not ascending, naming them", () => {
+    const peaks = [...sV, ...pV].map((v) => peak(v));
+    const assignment = assignSpectrum(peaks, { eta });
+    expectError(() => rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: -0.1 }), "options/out-of-range", "stepRatioMargin");
+    expectError(() => rulesDecisive({ peaks, assignment, biasRangeV: [2, -2] }), "options/out-of-range", "biasRangeV[1]");
+  });
+});

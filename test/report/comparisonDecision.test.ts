@@ -1,0 +1,101 @@
+// comparisonDecision (and the decision fields of failedModelComparison) on constructed comparisons.
+// Expected values: BIC weights exp(−ΔBIC/2) normalised (closed form; G. Schwarz, Ann. Stat. 6, 461
+// (1978); the evidence scale of R. E. Kass and A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)),
+// the regime boundaries 3/7 and 1.5 of REGIME_LIMITS (common practice (no source)), and the
+// documented decision rule (MODEL_DECISION_DEFAULTS: common practice (no source)).
+import { describe, expect, it } from "vitest";
+import { comparisonDecision, MODEL_DECISION_DEFAULTS } from "../../lib/report/comparisonDecision.ts";
+import { failedModelComparison, type ModelComparisonJson } from "../../lib/report/modelComparisonJson.ts";
+import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
+import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
+
+/** An alternative with the fields the decision reads; the rest neutral. */
+const alt = (hypothesis: string, rateRatio: number, chargingEnergyEV: number, weight: number): FitAlternative => ({
+  hypothesis,
+  regime: "shell-filling",
+  levels: 4,
+  cbDegeneracies: [2, 6],
+  rateRatioStart: rateRatio,
+  rateRatio,
+  chargingEnergyEV,
+  reducedChiSquare: 1,
+  side: "CB",
+  bic: 0,
+  finished: true,
+  implausible: [],
+  weight,
+});
+
+/** Weights of two runs ΔBIC apart, exp(−ΔBIC/2) normalised (closed form). */
+const pair = (deltaBic: number): [number, number] => [1 / (1 + Math.exp(-deltaBic / 2)), Math.exp(-deltaBic / 2) / (1 + Math.exp(-deltaBic / 2))];
+
+/** A good shell-filling fit, Γtip/Γsub = 3 ± se, Ec = 0.1 eV, with these alternatives. */
+function comparison(alternatives: FitAlternative[], overrides: Partial<ModelComparisonJson> = {}): ModelComparisonJson {
+  return {
+    scope: "undecided",
+    status: "good",
+    statusReasons: [],
+    regime: "shell-filling",
+    regimeReason: "",
+    hypothesis: alternatives[0].hypothesis,
+    evidence: [],
+    alternatives,
+    quantities: { gapEV: { value: 1.2, standardError: 0.001 }, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.3, standardError: 0.001 } },
+    rateRatio: { value: 3, standardError: 0.3 },
+    reducedChiSquare: 1,
+    warnings: [],
+    ...overrides,
+  };
+}
+
+describe("comparisonDecision(comparison, rules, options)", () => {
+  it("MODEL_DECISION_DEFAULTS are locked, frozen and match the documented defaults", () => {
+    expect(MODEL_DECISION_DEFAULTS).toEqual({ minWeight: 0.9, rateRatioSigmas: 1, agreeEcFraction: 0.1, sameAnswerEcFraction: 0.03 });
+    expectDocumentedDefaults(new URL("../../lib/report/comparisonDecision.ts", import.meta.url), "ComparisonDecisionOptions", MODEL_DECISION_DEFAULTS);
+  });
+
+  it("lets a good fit decide where the rules are undetermined, when ΔBIC to the rival answer is 6 (weight 0.95 ≥ 0.9), not when it is 2 (0.73)", () => {
+    const [w6, r6] = pair(6);
+    const yes = comparisonDecision(comparison([alt("a", 3, 0.1, w6), alt("b", 0.3, 0.2, r6)]), { regime: "undetermined", chargingEnergyEV: null });
+    expect(yes.decides).toBe(true);
+    expect(yes.agreesWithRules).toBe(false);
+    expect(yes.decision).toContain(`carry ${w6.toFixed(2)} of the BIC weight`);
+    const [w2, r2] = pair(2);
+    const no = comparisonDecision(comparison([alt("a", 3, 0.1, w2), alt("b", 0.3, 0.2, r2)]), { regime: "undetermined", chargingEnergyEV: null });
+    expect(no.decides).toBe(false);
+    expect(no.decision).toContain("0.73 of the BIC weight (< 0.9)");
+  });
+
+  it("adds the weights of groupings that give the same answer (same regime, Ec within 3 %): three equal runs of one model, 1/3 each, decide together", () => {
+    const d = comparisonDecision(comparison([alt("assigned", 3, 0.1, 1 / 3), alt("shell-filling", 3.1, 0.1005, 1 / 3), alt("ladder-filling 2+6", 2.9, 0.0995, 1 / 3)]), { regime: "shell-filling", chargingEnergyEV: 0.1 });
+    expect(d).toMatchObject({ decides: true, agreesWithRules: true });
+    // The same split between answers that differ (another regime, Ec 20 % off) does not decide.
+    const split = comparisonDecision(comparison([alt("assigned", 3, 0.1, 1 / 3), alt("x", 0.3, 0.1, 1 / 3), alt("y", 3, 0.12, 1 / 3)]), { regime: "shell-filling", chargingEnergyEV: 0.1 });
+    expect(split.decides).toBe(false);
+  });
+
+  it("keeps the rules' answer when the fit is poor or failed, or its regime undetermined", () => {
+    const alts = [alt("a", 3, 0.1, 1)];
+    expect(comparisonDecision(comparison(alts, { status: "poor" }), { regime: "shell-filling", chargingEnergyEV: 0.1 })).toMatchObject({ decides: false, agreesWithRules: true });
+    expect(comparisonDecision(comparison(alts, { regime: "undetermined" }), { regime: "shell-filling", chargingEnergyEV: 0.1 })).toMatchObject({ decides: false, agreesWithRules: null });
+    const failed = failedModelComparison("no multiplets to start the fit from", "undecided", ["the rules left the regime undetermined"]);
+    expect(failed).toMatchObject({ decides: false, agreesWithRules: null, ranBecause: ["the rules left the regime undetermined"] });
+  });
+
+  it("overrides a named regime only when Γtip/Γsub ± 1 SE (r·exp(±SE/r)) stays inside the fit's regime: 1.0 ± 0.1 yes, 1.3 ± 0.3 no (1.3·e^0.23 = 1.64 ≥ 1.5)", () => {
+    const rules = { regime: "shell-filling", chargingEnergyEV: 0.1 };
+    const inside = comparisonDecision(comparison([alt("a", 1, 0.1, 1)], { regime: "intermediate", rateRatio: { value: 1, standardError: 0.1 } }), rules);
+    expect(inside).toMatchObject({ decides: true, agreesWithRules: false });
+    expect(inside.decision).toContain("reads intermediate where the rules read shell-filling");
+    const straddles = comparisonDecision(comparison([alt("a", 1.3, 0.1, 1)], { regime: "intermediate", rateRatio: { value: 1.3, standardError: 0.3 } }), rules);
+    expect(straddles.decides).toBe(false);
+    expect(straddles.decision).toContain("does not stay inside intermediate over ± 1 standard error");
+  });
+
+  it("says the fit disagrees on Ec when the two differ by more than 10 % of the rules' Ec", () => {
+    const d = comparisonDecision(comparison([alt("a", 3, 0.1, 1)]), { regime: "shell-filling", chargingEnergyEV: 0.115 });
+    expect(d.agreesWithRules).toBe(false);
+    expect(d.decides).toBe(true);
+    expect(d.decision).toContain("not on Ec (100.0 against 115.0 meV)");
+  });
+});
