@@ -48,7 +48,7 @@ export const SUMMARY_METADATA_PREFIX = "meta_";
 export type SummaryRow = Record<SummaryColumn, string | number | null> & { [metadata: `meta_${string}`]: string } & Partial<Record<ModelSummaryColumn, string | number | null>>;
 
 /** Columns of the model comparison (`analyze --compare-models`), present when some row has one. */
-export const MODEL_SUMMARY_COLUMNS = Object.freeze(["model_regime", "model_status", "model_Ec_eV", "model_Ec_sigma_eV", "model_rate_ratio", "model_rate_ratio_sigma"] as const);
+export const MODEL_SUMMARY_COLUMNS = Object.freeze(["model_regime", "model_status", "model_Ec_eV", "model_Ec_sigma_eV", "model_rate_ratio", "model_rate_ratio_sigma", "model_decides"] as const);
 /** A column of {@link MODEL_SUMMARY_COLUMNS}. */
 export type ModelSummaryColumn = (typeof MODEL_SUMMARY_COLUMNS)[number];
 
@@ -175,5 +175,8 @@ function modelCells(m: AnalysisJson["modelComparison"]): Partial<Record<ModelSum
     model_Ec_sigma_eV: ok ? (m.quantities.chargingEnergyEV?.standardError ?? null) : null,
     model_rate_ratio: ok ? (m.rateRatio?.value ?? null) : null,
     model_rate_ratio_sigma: ok ? (m.rateRatio?.standardError ?? null) : null,
+    // "yes" where the record stands by the fit over the rules' reading (comparisonDecision), "no"
+    // where it stands by the rules; empty for a comparison made without that weighing.
+    model_decides: m.decides === undefined ? null : m.decides ? "yes" : "no",
   };
 }

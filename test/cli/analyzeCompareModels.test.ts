@@ -112,6 +112,7 @@ describe("dotspec analyze --compare-models", () => {
     expect(rows[0].model_regime).toBe("intermediate");
     expect(rows[0].model_status).toBe("good");
     expect(Number(rows[0].model_Ec_eV)).toBeCloseTo(CROSSOVER.chargingEnergyEV, 2);
+    expect(rows[0].model_decides).toBe("yes"); // the rules left it undetermined; a good fit decides
     expect(rows[1].model_regime).toBe(""); // the filling curve was not fitted
     const text = await run(["analyze", crossover, "--compare-models"]);
     expect(text.stdout).toContain("Model comparison");
