@@ -108,7 +108,7 @@ export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, t
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";
-export { failedModelComparison, modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
+export { compareModelsReasons, failedModelComparison, modelComparisonJson, type CompareModelsScope, type ModelComparisonJson } from "./report/modelComparisonJson.ts";
 export { comparisonDecision, MODEL_DECISION_DEFAULTS, type ComparisonDecision, type ComparisonDecisionOptions, type RulesAnswer } from "./report/comparisonDecision.ts";
 
 // Size series: many dots → per-dot table, size bins, model fits, optical pairing.

@@ -6,6 +6,7 @@ import { join } from "node:path";
 import {
   analysisToJson,
   analyzeCurve,
+  compareModelsReasons,
   failedSummaryRow,
   fitCurve,
   failedModelComparison,
@@ -17,7 +18,6 @@ import {
   inputDigest,
   makeProvenance,
   readCurveFile,
-  rulesDecisive,
   summaryRow,
   svgWithProvenance,
   writeTextFile,
@@ -124,7 +124,7 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   const provenance = makeProvenance(command, digest, recordedOf(options));
   const json = analysisToJson(analysis, record, { notes: note ? [note] : [], metadata: curve.meta.metadata, provenance });
   const scope = options.compareModels;
-  const ranBecause = scope && json.noLevels === null ? comparisonReasons(analysis, scope) : null;
+  const ranBecause = scope ? compareModelsReasons(analysis, scope) : null;
   if (scope && ranBecause) {
     // The comparison of every grouping of the peaks; a fit stopped by its wall-clock limit says
     // so (where it stopped depends on the machine).
@@ -141,17 +141,6 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
     return { curve, analysis, json: { ...json, modelComparison: comparison } };
   }
   return { curve, analysis, json };
-}
-
-/**
- * Why `--compare-models` fits a curve: the reasons the rules are not decisive ({@link rulesDecisive}),
- * or with scope "all" a note that every curve is fitted; null when it does not fit it.
- */
-function comparisonReasons(analysis: CurveAnalysis, scope: CompareModelsScope): string[] | null {
-  const bias = analysis.conductance.biasV;
-  const verdict = rulesDecisive({ peaks: analysis.peaks, assignment: analysis.assignment, biasRangeV: [bias[0], bias[bias.length - 1]] });
-  if (!verdict.decisive) return verdict.reasons;
-  return scope === "all" ? ["--compare-models all: every curve is fitted (the rules are decisive on this one)"] : null;
 }
 
 /** The provenance of an input that failed: its size and SHA-256 when it can be read. */

@@ -3,7 +3,9 @@
  * a curve's JSON, taken from the fit's own record ({@link fitToJson}) without its residuals and
  * its copy of the peak-based record.
  */
+import { rulesDecisive } from "../assign/rulesDecisive.ts";
 import type { FittedValue } from "../model/fit/curveFit.ts";
+import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import { comparisonDecision, type RulesAnswer } from "./comparisonDecision.ts";
 import type { FitJson } from "./fitJson.ts";
 
@@ -135,4 +137,43 @@ export function failedModelComparison(reason: string, scope: CompareModelsScope,
     warnings: [],
   };
   return ranBecause ? { ...record, ranBecause, agreesWithRules: null, decides: false, decision: `the record stands by the rules' answer: no fit (${reason})` } : record;
+}
+
+/**
+ * Whether `--compare-models` fits a curve, and why: the reasons the rules are not decisive on it,
+ * or with scope "all" a note that every curve is fitted.
+ *
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     The curve's analysis (its peaks, assignment and conductance bias axis are read).
+ * scope : CompareModelsScope
+ *     `"undecided"`: only curves where the rules are not decisive; `"all"`: every curve with levels.
+ *
+ * Returns
+ * -------
+ * string[] | null
+ *     The reasons in words (`ModelComparisonJson.ranBecause`); null when the curve is not to be
+ *     fitted: the rules are decisive and the scope is "undecided", or the curve has no levels
+ *     (`noLevels`), where there is nothing to compare.
+ *
+ * Notes
+ * -----
+ * The reasons are those of {@link rulesDecisive} over the bias window of the conductance curve.
+ * `dotspec analyze --compare-models` and the model notebook both ask this function, so they fit
+ * the same curves for the same reasons.
+ *
+ * Example
+ * -------
+ * ```ts
+ * compareModelsReasons(analyzeCurve(curve), "undecided");
+ * // => null on a curve the rules decide; e.g. ["the regime is undetermined: …"] on one they do not
+ * ```
+ */
+export function compareModelsReasons(analysis: CurveAnalysis, scope: CompareModelsScope): string[] | null {
+  if (analysis.assignment.noLevels !== null) return null;
+  const bias = analysis.conductance.biasV;
+  const verdict = rulesDecisive({ peaks: analysis.peaks, assignment: analysis.assignment, biasRangeV: [bias[0], bias[bias.length - 1]] });
+  if (!verdict.decisive) return verdict.reasons;
+  return scope === "all" ? ["--compare-models all: every curve is fitted (the rules are decisive on this one)"] : null;
 }

@@ -28,8 +28,12 @@ import { buildNotebooks, ROOT } from "../../scripts/notebooks/buildNotebooks.ts"
 import { serveStatic, type StaticServer } from "../../scripts/notebooks/serveStatic.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 import {
+  analysisToJson,
   analyzeCurve,
   analyzeGrid,
+  compareModelsReasons,
+  fitToJson,
+  modelComparisonJson,
   etaFromMetadata,
   failureReason,
   fitCurve,
@@ -394,13 +398,39 @@ describe.runIf(HAVE_CHROMIUM)("notebooks in Chromium", () => {
     // by construction: the page runs the library's fitCurve on the file as `dotspec fit --compare-models` does
     const { curve } = readCurveFile(join(ROOT, "sample-curves", "dot-01.csv"));
     const stated = etaFromMetadata(curve.meta.metadata);
-    const fit = fitCurve(analyzeCurve(curve, stated ? { eta: stated.eta } : {}), { compareModels: true });
+    const analysis = analyzeCurve(curve, stated ? { eta: stated.eta } : {});
+    const fit = fitCurve(analysis, { compareModels: true });
     expect(await page.locator("[data-testid=fit-status]").getAttribute("data-status")).toBe(fit.status);
+    // The rules decide dot-01 (no note, the toggle started off), and the page weighs the fit
+    // against them as `dotspec analyze --compare-models all` does.
+    expect(compareModelsReasons(analysis, "undecided")).toBeNull();
+    expect(await page.locator("[data-testid=rules-not-decisive]").count()).toBe(0);
+    const weighed = modelComparisonJson(fitToJson(fit, analysisToJson(analysis)), "all", {
+      ranBecause: compareModelsReasons(analysis, "all")!,
+      rules: { regime: analysis.assignment.regime, chargingEnergyEV: analysis.assignment.energies.chargingEnergyEV },
+    });
+    expect(await page.locator("[data-testid=fit-decision]").getAttribute("data-decides")).toBe(String(weighed.decides));
+    expect(await page.locator("[data-testid=fit-decision]").textContent()).toContain(weighed.decision!);
     expect(await page.locator("[data-testid=fit-alternatives] tbody tr").count()).toBe(fit.alternatives.length);
     const quantities = await page.locator("[data-testid=fit-quantities] tbody tr").allTextContents();
     const ec = formatUncertain(fit.chargingEnergyEV.value * 1000, fit.chargingEnergyEV.standardError * 1000);
     expect(quantities.find((r) => r.startsWith("charging energy Ec"))).toContain(`${ec} meV`);
     await page.screenshot({ path: join(ARTIFACTS, "model-compare.png"), fullPage: true });
+    expect(await errorCells(page)).toBe(0);
+    await page.close();
+  });
+
+  it("model: on a curve the rules do not decide (dot-06), the page says why and starts with the comparison on", async () => {
+    const page = await open("model.html");
+    await page.locator("[data-testid=sample-select]").selectOption({ label: "dot-06.tsv" });
+    await page.locator("[data-testid=rules-not-decisive]").waitFor({ timeout: 20_000 });
+    // by construction: the page asks the library's compareModelsReasons, as `dotspec analyze --compare-models` does
+    const { curve } = readCurveFile(join(ROOT, "sample-curves", "dot-06.tsv"));
+    const stated = etaFromMetadata(curve.meta.metadata);
+    const reasons = compareModelsReasons(analyzeCurve(curve, stated ? { eta: stated.eta } : {}), "undecided");
+    expect(reasons).not.toBeNull();
+    expect(await page.locator("[data-testid=rules-not-decisive]").textContent()).toContain(reasons![0]);
+    expect(await checkbox(page, "compare every grouping of the peaks (slower)").isChecked()).toBe(true);
     expect(await errorCells(page)).toBe(0);
     await page.close();
   });
