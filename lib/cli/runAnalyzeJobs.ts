@@ -1,7 +1,6 @@
 /**
  * Runs the files of a `dotspec analyze` batch, in the main thread or spread over worker threads.
  */
-import { Worker } from "node:worker_threads";
 import { loadCurveFigure, type CurveFigureRenderer } from "../index.ts";
 import { workerEntry } from "./workerEntry.ts";
 import { analyzeFile, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "./analyzeFile.ts";
@@ -50,7 +49,11 @@ export async function runAnalyzeJobs(
   let figure: Promise<CurveFigureRenderer> | null = null;
   const loadFigure = () => (figure ??= loadCurveFigure());
   const queue = [...jobs];
-  if (threads > 1 && queue.length > 1) await runInWorkers(queue, settings, Math.min(threads, queue.length), onResult, stop, onReadProgress);
+  if (threads > 1 && queue.length > 1) {
+    // Loaded here, not at start-up: a one-thread run (one file, or --jobs 1) never needs it.
+    const { Worker } = await import("node:worker_threads");
+    await runInWorkers(Worker, queue, settings, Math.min(threads, queue.length), onResult, stop, onReadProgress);
+  }
   for (const job of queue.splice(0)) {
     // Let the event loop run between files (stream errors, the progress bar's timer).
     await new Promise<void>((resolve) => setImmediate(resolve));
@@ -76,6 +79,7 @@ export interface AnalyzeWorkerData {
 
 /** Runs jobs from `queue` on worker threads until it is empty or no worker is left. */
 function runInWorkers(
+  Worker: typeof import("node:worker_threads").Worker,
   queue: AnalyzeJob[],
   settings: AnalyzeBatchSettings,
   threads: number,
