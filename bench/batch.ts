@@ -17,6 +17,7 @@ import { tmpdir } from "node:os";
 import { join, dirname } from "node:path";
 import { fileURLToPath } from "node:url";
 import { cpus, loadavg } from "node:os";
+import { cpuMsFrom, cpuProbeArgs } from "./processCpu.ts";
 import {
   analysisToJson,
   analyzeCurve,
@@ -86,11 +87,12 @@ try {
   );
   for (const [name, extra] of runs) {
     const t0 = performance.now();
-    const r = spawnSync(process.execPath, [bin, "analyze", join(dir, "in"), "--eta", "0.8", ...extra], { encoding: "utf8", maxBuffer: 1 << 30 });
+    const r = spawnSync(process.execPath, [...cpuProbeArgs(), bin, "analyze", join(dir, "in"), "--eta", "0.8", ...extra], { encoding: "utf8", maxBuffer: 1 << 30 });
     const s = (performance.now() - t0) / 1000;
     // The closing count line: `dotspec: N done, M failed, K warnings …`.
     const failures = Number(/^dotspec: \d+ done, (\d+) failed/m.exec(r.stderr)?.[1] ?? NaN);
-    console.log(`dotspec analyze ${count} files ${name}: ${s.toFixed(1)} s wall (exit ${r.status}, ${failures} file(s) reported failed)`);
+    const cpu = cpuMsFrom(r.stderr) / 1000;
+    console.log(`dotspec analyze ${count} files ${name}: ${s.toFixed(1)} s wall, ${cpu.toFixed(1)} s CPU (all threads; exit ${r.status}, ${failures} file(s) reported failed; load average ${loadavg()[0].toFixed(1)})`);
   }
 } finally {
   rmSync(dir, { recursive: true, force: true });

@@ -11,10 +11,10 @@
  * Builds dist/ first (scripts/build.mjs): the command runs the compiled library.
  */
 import { execFileSync, spawnSync } from "node:child_process";
-import { mkdtempSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
-import { cpus, loadavg, tmpdir } from "node:os";
+import { cpus, loadavg } from "node:os";
+import { cpuMsFrom, cpuProbeArgs } from "./processCpu.ts";
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
 const BIN = join(ROOT, "bin", "dotspec.js");
@@ -66,16 +66,14 @@ for (const curve of curves) measure(`dotspec analyze --json ${curve}`, [BIN, "an
 // in wall time and in CPU time of the whole process (all threads, the compiler's included), run
 // alternately so that both see the same load.
 const DEFAULT_BUDGET = "--interrupt-budget=67584";
-const cpuProbe = join(mkdtempSync(join(tmpdir(), "dotspec-startup-")), "cpu.mjs");
-writeFileSync(cpuProbe, 'process.on("exit", () => { const u = process.cpuUsage(); process.stderr.write(`\\ncpu-us ${u.user + u.system}\\n`); });\n');
 /** Wall and CPU time (ms) of one whole process, with the CPU probe preloaded. */
 function onceWithCpu(argv: string[]): [number, number] {
   const t0 = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, ["--import", cpuProbe, ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
+  const r = spawnSync(process.execPath, [...cpuProbeArgs(), ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
   const ms = Number(process.hrtime.bigint() - t0) / 1e6;
-  const cpu = /cpu-us (\d+)/.exec(r.stderr);
-  if (r.status !== 0 || !cpu) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
-  return [ms, Number(cpu[1]) / 1000];
+  const cpu = cpuMsFrom(r.stderr);
+  if (r.status !== 0 || !Number.isFinite(cpu)) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
+  return [ms, cpu];
 }
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
