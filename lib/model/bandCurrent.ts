@@ -2,7 +2,8 @@
  * The current of a whole dot, both bands, at many biases: exact (thermal Fermi functions, every
  * bias solved) or as a sum of broadened steps between zero-temperature plateaus (fast, for fitting).
  */
-import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, zeroTemperaturePattern, SATURATION_KT, type JunctionParams, type Ladder } from "./ladder.ts";
+import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, SATURATION_KT, type JunctionParams, type Ladder } from "./ladder.ts";
+import { zeroTemperaturePattern } from "./zeroTemperaturePattern.ts";
 import { fermi } from "../util/special.ts";
 import { normalCdfHermite } from "../util/normalCdfHermite.ts";
 import type { Level } from "./scenario.ts";

@@ -1,6 +1,6 @@
 // The state-reduction solver checked against a dense linear solve by ml-matrix (general-purpose
 // reference library) and against detailed balance of a birth–death chain (closed form).
-import { describe, it } from "vitest";
+import { describe, it, expect } from "vitest";
 import { Matrix, solve } from "ml-matrix";
 import { expectClose } from "../helpers/expectClose.ts";
 import { stationaryDistribution } from "../../lib/model/stationaryDistribution.ts";
@@ -45,5 +45,29 @@ describe("stationaryDistribution(rates, n, lowerBlockStart, out)", () => {
     for (let k = 0; k < n - 1; k++) ref.push((ref[k] * up[k]) / down[k]);
     const total = ref.reduce((a, b) => a + b, 0);
     expectClose(got, ref.map((r) => r / total), { rtol: 1e-12, atol: 1e-300 });
+  });
+
+  it("solves the first n states of a bigger matrix (stride) exactly as the whole chain when no rate leaves them: bit for bit, the rest 0 (exact)", () => {
+    // A birth–death chain of 6 states whose step 2 → 3 has rate 0: states 3…5 are unreachable
+    // from the empty state, so the whole chain gives them probability 0.
+    const n = 6;
+    const up = [3, 0.5, 0, 2, 7];
+    const down = [1, 4, 9, 0.2, 5];
+    const q = new Float64Array(n * n);
+    for (let k = 0; k < n - 1; k++) {
+      q[k * n + k + 1] = up[k];
+      q[(k + 1) * n + k] = down[k];
+    }
+    const lower = Int32Array.from({ length: n }, (_, k) => Math.max(k - 1, 0));
+    const whole = new Float64Array(n);
+    stationaryDistribution(q.slice(), n, lower, whole);
+    const part = new Float64Array(n).fill(-1);
+    stationaryDistribution(q.slice(), 3, lower, part, n);
+    expect(Array.from(part.slice(0, 3))).toEqual(Array.from(whole.slice(0, 3)));
+    expect(Array.from(whole.slice(3))).toEqual([0, 0, 0]);
+    expect(Array.from(part.slice(3))).toEqual([-1, -1, -1]); // not written
+    // Detailed balance of the three reachable states (closed form): 1 : 3 : 3·0.5/4.
+    const ref = [1, 3, 0.375];
+    expectClose(Array.from(part.slice(0, 3)), ref.map((r) => r / 4.375), { rtol: 1e-14 });
   });
 });
