@@ -23,6 +23,7 @@ import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 import { refineGrouping } from "./refineGrouping.ts";
+import { sameFit } from "./sameFit.ts";
 import { shiftGrouping } from "./shiftGrouping.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
@@ -209,9 +210,10 @@ export const FIT_DEFAULTS = Object.freeze({
  *    after the first 4 is above exploreDropRatio (4) times the best is not explored further); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
  *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
- *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined
+ *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined (the
+ *    second not when it ended at the same fit as the first, {@link sameFit})
  *    ({@link refineGrouping}, {@link refinementStarts}: the p shell split 2+4 or 2+2+2 about the
- *    fitted p level, a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
+ *    fitted p level (and 2+2+2 at the peak-based Ec when lower), a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
  *    refinementIterations (4) from the fitted values, the best finished and kept as a further
  *    finalist when its BIC is lower), and the best again while it is a refined one
  *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
@@ -379,7 +381,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
     const refine = (top: FitTrial) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations) });
     // First round: the best refinedGroupings groupings; then the best again while refining helps.
-    let latest = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings).map(refine).filter((t): t is FitTrial => t !== null);
+    // Two groupings at the same fit (sameFit) would give the same refinements: the second is left out.
+    const best2 = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings);
+    let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map(refine).filter((t): t is FitTrial => t !== null);
     for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
       cbFinals.push(...latest);
       const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
