@@ -16,7 +16,7 @@ const eta = 0.85;
 
 describe("refinementStarts(seeds, parameters, eta)", () => {
   it("REFINEMENT_DEFAULTS are locked", () => {
-    expect(REFINEMENT_DEFAULTS).toEqual({ splitSpacingsEc: [0.35, 0.9], peakEcMinDrop: 0.05, rateRatioOffsetsLog10: [-0.5, 0.5] });
+    expect(REFINEMENT_DEFAULTS).toEqual({ splitSpacingsEc: [0.35, 0.9], splitRateRatioOffsetLog10: -0.5, peakEcMinDrop: 0.05, rateRatioOffsetsLog10: [-0.5, 0.5] });
     expect(Object.isFrozen(REFINEMENT_DEFAULTS)).toBe(true);
   });
 
@@ -67,6 +67,18 @@ describe("refinementStarts(seeds, parameters, eta)", () => {
     expectClose(extra.parameters[2] - extra.parameters[1], 0.04, { rtol: 1e-9, what: "sub-levels 2·ΔEc apart" });
     expect(refinementStarts(seeds, fitted, eta).some((s) => /peak-based/.test(s.change))).toBe(false);
     expect(refinementStarts(seeds, fitted, eta, 0.097).some((s) => /peak-based/.test(s.change))).toBe(false); // less than 5 % lower
+  });
+
+  it("below Γtip/Γsub = 1 also starts each 2+2+2 split at a third of the fitted rate ratio, the levels as in the plain split (exact)", () => {
+    const slow = [0.6, 0.9, 0.1, -0.3, -2]; // Γtip/Γsub = 0.5
+    const starts = refinementStarts(seeds, slow, eta);
+    expect(starts.map((s) => s.layout)).toEqual(["2+2+4", "2+2+2+2", "2+2+2+2", "2+2+4", "2+2+2+2", "2+2+2+2", "2+6", "2+6"]);
+    for (const k of [0, 1]) {
+      const [plain, slower] = [starts[3 * k + 1], starts[3 * k + 2]];
+      expect(slower.parameters.slice(0, 5)).toEqual(plain.parameters.slice(0, 5));
+      expectClose(slower.parameters[5] - plain.parameters[5], REFINEMENT_DEFAULTS.splitRateRatioOffsetLog10, { rtol: 1e-12, what: "log₁₀ Γtip/Γsub offset" });
+    }
+    expect(refinementStarts(seeds, fitted, eta).length).toBe(6); // Γtip/Γsub = 1: none
   });
 });
 
