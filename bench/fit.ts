@@ -4,7 +4,8 @@
  * p whole or split, widths and noise drawn from its ranges), simulated with known truth, analysed,
  * then fitted with `fitCurve`. Reports, per regime of the true rate ratio (REGIME_LIMITS), how
  * often the fit names the right regime, recovers Ec within 3 % and Γtip/Γsub within × 1.5, the
- * statuses, and the time per fit (median and 90th percentile, after one warm-up fit).
+ * statuses, and the time per fit (median and 90th percentile, after one warm-up fit), with a digest
+ * of every reported value (equal digests: no result moved by a bit).
  *
  *   npm run bench:fit                          # 60 spectra from seed 1, fast-model simulation
  *   npm run bench:fit -- --n 20 --seed 101 --compare-models --verbose
@@ -47,6 +48,12 @@ interface Row {
   cpuMs: number;
 }
 const rows: Row[] = [];
+// A digest of every fit's reported values (hypothesis, status, Ec, Γtip/Γsub, reduced χ² to 17
+// digits): equal digests say that a change of the code moved no result by a single bit.
+let digest = 0x811c9dc5;
+const fold = (text: string) => {
+  for (let i = 0; i < text.length; i++) digest = Math.imul(digest ^ text.charCodeAt(i), 0x01000193) >>> 0;
+};
 const cpuSince = (c0: NodeJS.CpuUsage) => {
   const d = process.cpuUsage(c0);
   return (d.user + d.system) / 1000;
@@ -70,10 +77,12 @@ for (let k = 0; k < count; k++) {
     fit = fitCurve(analysis, { compareModels });
   } catch (err) {
     rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", chi: NaN, z: NaN, ms: performance.now() - t0, cpuMs: cpuSince(c0) });
+    fold(`${seed}|no levels;`);
     continue;
   }
   const ms = performance.now() - t0;
   const cpuMs = cpuSince(c0);
+  fold(`${seed}|${fit.hypothesis}|${fit.status}|${fit.chargingEnergyEV.value.toPrecision(17)}|${fit.rateRatio.value.toPrecision(17)}|${fit.reducedChiSquare.toPrecision(17)};`);
   const regime = truthRegime(truth.rateRatio);
   const usable = fit.status !== "failed";
   const row = {
@@ -128,6 +137,6 @@ lines.push(
   `time per fit: median ${q(0.5).toFixed(0)} ms, 90th percentile ${q(0.9).toFixed(0)} ms, max ${times[times.length - 1].toFixed(0)} ms (CPU time: median ${qc(0.5).toFixed(0)} ms, 90th percentile ${qc(0.9).toFixed(0)} ms); load average ${loadavg().map((x) => x.toFixed(1)).join(", ")}`,
 );
 lines.push(
-  `Γtip/Γsub ${ratioRange[0]}–${ratioRange[1]} (log-uniform), ${compareModels ? "--compare-models" : "default comparison (only where the rules are not decisive)"}, ${method} simulation, seeds ${firstSeed}…${firstSeed + count - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s`,
+  `Γtip/Γsub ${ratioRange[0]}–${ratioRange[1]} (log-uniform), ${compareModels ? "--compare-models" : "default comparison (only where the rules are not decisive)"}, ${method} simulation, seeds ${firstSeed}…${firstSeed + count - 1}, ${((performance.now() - started) / 1000).toFixed(1)} s; results digest ${digest.toString(16).padStart(8, "0")}`,
 );
 console.log(lines.join("\n"));

@@ -2,7 +2,8 @@
  * The current of a whole dot, both bands, at many biases: exact (thermal Fermi functions, every
  * bias solved) or as a sum of broadened steps between zero-temperature plateaus (fast, for fitting).
  */
-import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, zeroTemperaturePattern, SATURATION_KT, type JunctionParams, type Ladder } from "./ladder.ts";
+import { buildLadder, ladderCrossings, ladderCurrent, ladderWorkspace, SATURATION_KT, type JunctionParams, type Ladder, type LadderWorkspace } from "./ladder.ts";
+import { zeroTemperaturePattern } from "./zeroTemperaturePattern.ts";
 import { fermi } from "../util/special.ts";
 import { normalCdfHermite } from "../util/normalCdfHermite.ts";
 import type { Level } from "./scenario.ts";
@@ -176,6 +177,12 @@ export interface CurrentStepsOptions {
    * zero-temperature rate matrix once. Default: none (every plateau solved).
    */
   plateauStore?: { cb: Map<string, number>; vb: Map<string, number> };
+  /**
+   * Buffers of {@link ladderWorkspace} to solve in, by band, for a caller that solves ladders of
+   * one structure many times (each must fit its band's ladder: the same number of states and
+   * addition energies). Default: new buffers per call.
+   */
+  workspaces?: { cb?: LadderWorkspace; vb?: LadderWorkspace };
 }
 
 /**
@@ -234,7 +241,7 @@ export function currentSteps(model: DotModel, ladders: BandLadders = bandLadders
   for (const [band, sign] of BANDS) {
     const ladder = ladders[band];
     if (!ladder) continue;
-    let work: ReturnType<typeof ladderWorkspace> | null = null;
+    let work: LadderWorkspace | null = options.workspaces?.[band] ?? null;
     const store = options.plateauStore?.[band];
     const ratesKey = `${model.tipRatePerS}|${model.substrateRatePerS}|${model.relaxationRatePerS}|`;
     const crossings = ladderCrossings(ladder, model);

@@ -364,6 +364,56 @@ function saturatedFermi(x: number, hard: boolean): number {
 }
 
 /**
+ * How many states (from the empty dot, in the ladder's order) a carrier can reach: those of the
+ * blocks of N = 0 … N* carriers, N* the first block from which every addition has rate 0 (its
+ * rate Γtip·f_tip + Γsub·f_sub is 0 for every level), or the full dot.
+ *
+ * Parameters
+ * ----------
+ * ladder : Ladder
+ *     From {@link buildLadder} (states sorted by carriers).
+ * tipRatePerS, substrateRatePerS : number
+ *     Γtip and Γsub, 1/s.
+ * tipIn, subIn : Float64Array
+ *     The Fermi factors of adding a carrier from the tip and from the substrate, per addition
+ *     energy (key j·maxCarriers + N).
+ *
+ * Returns
+ * -------
+ * number
+ *     The count of states with at most N* carriers; every rate from them to the states above is 0.
+ *
+ * Notes
+ * -----
+ * Only an addition raises N, so a block above N* is entered from no state below it. Every level j
+ * has a state in block N with a free slot in j for N < maxCarriers, so block N's additions are
+ * exactly the keys j·maxCarriers + N.
+ */
+function reachableStateCount(ladder: Ladder, tipRatePerS: number, substrateRatePerS: number, tipIn: Float64Array, subIn: Float64Array): number {
+  const { carriers, nStates } = ladder;
+  const nLevels = ladder.levels.length;
+  if (!nLevels) return nStates;
+  const keyCount = ladder.keyEnergyEV.length / nLevels;
+  const full = carriers[nStates - 1];
+  let highest = 0;
+  for (; highest < full; highest++) {
+    let open = false;
+    for (let j = 0; j < nLevels && !open; j++) {
+      const k = j * keyCount + highest;
+      open = tipRatePerS * tipIn[k] + substrateRatePerS * subIn[k] !== 0;
+    }
+    if (!open) break;
+  }
+  let lo = 0, hi = nStates;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (carriers[mid] <= highest) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
+}
+
+/**
  * Steady-state occupation probabilities and current of one band at one bias.
  *
  * Parameters
@@ -396,7 +446,10 @@ function saturatedFermi(x: number, hard: boolean): number {
  *    0 or 1 beyond {@link SATURATION_KT} (or steps when zeroTemperature).
  * 2. Rate matrix: each tunnelling transition gets slots × (Γ_tip·f_tip + Γ_sub·f_sub) (rates of
  *    the module notes); each relaxation transition Γ_relax × carriers in the upper level.
- * 3. Stationary probabilities by state reduction ({@link stationaryDistribution}).
+ * 3. Stationary probabilities by state reduction ({@link stationaryDistribution}) over the
+ *    states a carrier can reach: the blocks of N carriers up to the first one from which every
+ *    addition has rate 0 (above it the probabilities are exactly 0, and leaving those states out
+ *    changes no bit of the others; {@link reachableStateCount}).
  * 4. Current = e·Σ_transitions P(from)·slots·Γ_tip·(f_tip in − f_tip out): the net flow through
  *    the tip junction.
  *
@@ -436,18 +489,23 @@ export function ladderCurrent(
     subIn[k] = saturatedFermi(b, zeroTemperature);
     subOut[k] = saturatedFermi(-b, zeroTemperature);
   }
-  rates.fill(0);
+  // Only the reachable states' rows are written and solved (note 3).
+  const reachable = reachableStateCount(ladder, gt, gs, tipIn, subIn);
+  rates.fill(0, 0, reachable * nStates);
   const { tunnelFrom, tunnelTo, tunnelSlots, tunnelKey, tunnelSign } = ladder;
   for (let t = 0; t < tunnelFrom.length; t++) {
+    if (tunnelFrom[t] >= reachable) continue;
     const k = tunnelKey[t];
     const r = tunnelSign[t] > 0 ? gt * tipIn[k] + gs * subIn[k] : gt * tipOut[k] + gs * subOut[k];
     rates[tunnelFrom[t] * nStates + tunnelTo[t]] = tunnelSlots[t] * r;
   }
   const { relaxFrom, relaxTo, relaxCarriers } = ladder;
   for (let t = 0; t < relaxFrom.length; t++) {
+    if (relaxFrom[t] >= reachable) continue;
     rates[relaxFrom[t] * nStates + relaxTo[t]] += params.relaxationRatePerS * relaxCarriers[t];
   }
-  stationaryDistribution(rates, nStates, ladder.lowerBlockStart, probability);
+  stationaryDistribution(rates, reachable, ladder.lowerBlockStart, probability, nStates);
+  probability.fill(0, reachable);
   let flow = 0;
   for (let t = 0; t < tunnelFrom.length; t++) {
     const p = probability[tunnelFrom[t]];
@@ -456,62 +514,6 @@ export function ladderCurrent(
     flow += tunnelSign[t] > 0 ? p * tunnelSlots[t] * gt * tipIn[k] : -p * tunnelSlots[t] * gt * tipOut[k];
   }
   return ELEMENTARY_CHARGE_C * flow;
-}
-
-/**
- * What a zero-temperature solve of {@link ladderCurrent} depends on at one bias, as a string:
- * the rates and, for every addition energy, whether the tip and the substrate can add a carrier.
- *
- * Parameters
- * ----------
- * ladder : Ladder
- *     From {@link buildLadder}.
- * params : JunctionParams
- *     η and the tip, substrate and relaxation rates (1/s) are used.
- * biasV : number
- *     Bias in V (this ladder's electron-like sign).
- * ratesKey : string, optional
- *     The rates part of the pattern, for a caller that evaluates many biases at the same rates.
- *     Default: `${Γtip}|${Γsub}|${Γrelax}|`.
- *
- * Returns
- * -------
- * string
- *     Equal for two biases (or two ladders of one structure, {@link ladderStructureKey}) exactly
- *     when their zero-temperature rate matrices are equal, so that {@link ladderCurrent} with
- *     zeroTemperature gives the same current for both.
- *
- * Throws
- * ------
- * Nothing.
- *
- * Notes
- * -----
- * 1. The rates Γtip, Γsub, Γrelax (the transitions are the structure's).
- * 2. Per addition energy E: the signs of a = (E − η·e·V)/kT and of b = a + e·V/kT ("+" above,
- *    "-" below, "0" on or undefined), computed as {@link ladderCurrent} computes them, which fix
- *    its step Fermi factors f(±a), f(±b) (its note 1).
- *
- * Example
- * -------
- * ```ts
- * const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }], 0.1);
- * const params = { chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
- * zeroTemperaturePattern(ladder, params, 0.75); // => "1000000000|100000000|1000000000000|-+++"
- * ```
- */
-export function zeroTemperaturePattern(ladder: Ladder, params: JunctionParams, biasV: number, ratesKey = `${params.tipRatePerS}|${params.substrateRatePerS}|${params.relaxationRatePerS}|`): string {
-  const { keyEnergyEV } = ladder;
-  // The same arithmetic as ladderCurrent's, so that the signs are its signs.
-  const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
-  const codes = new Array<number>(2 * keyEnergyEV.length);
-  const sign = (x: number) => (x > 0 ? 43 : x < 0 ? 45 : 48); // "+", "-", "0"
-  for (let k = 0; k < keyEnergyEV.length; k++) {
-    const a = (keyEnergyEV[k] - params.eta * biasV) / kT;
-    codes[2 * k] = sign(a);
-    codes[2 * k + 1] = sign(a + biasV / kT);
-  }
-  return ratesKey + String.fromCharCode(...codes);
 }
 
 /**

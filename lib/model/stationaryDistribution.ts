@@ -11,15 +11,22 @@
  * Parameters
  * ----------
  * rates : Float64Array
- *     n×n row-major transition rates q_ij (i → j, i ≠ j) in 1/s; the diagonal is ignored.
- *     Overwritten.
+ *     Row-major transition rates q_ij (i → j, i ≠ j) in 1/s, row i at offset i·stride; the
+ *     diagonal is ignored. Overwritten (rows and columns below n only).
  * n : number
- *     Number of states.
+ *     Number of states solved: the first n of the matrix (the rest, if any, must be unreachable
+ *     from them: no rate from a state below n to one at or above it).
  * lowerBlockStart : Int32Array
  *     For each state, the lowest state index it (or its fill-in) can reach: the first state of
  *     the block with one carrier fewer ({@link Ladder}.lowerBlockStart).
  * out : Float64Array
- *     Receives the probabilities (length n, summing to 1).
+ *     Receives the probabilities of the first n states (summing to 1); entries from n on are
+ *     not written.
+ * stride : number, optional
+ *     Row length of `rates`. Default n. A larger stride solves the chain of the first n states of
+ *     a bigger matrix, which gives the bigger chain's probabilities exactly (bit for bit) when no
+ *     rate leads from those states to the others: censoring an unreachable state adds nothing to
+ *     the rows below it, and its probability is exactly 0.
  *
  * Returns
  * -------
@@ -39,6 +46,8 @@
  * their states are sorted by carrier number, so the fill-in stays inside the blocks N−1 and N;
  * `lowerBlockStart[k]` (the first state of block N(k) − 1) bounds every loop, which makes the
  * cost about n·b² for blocks of size b instead of n³/3.
+ * 3. Rows i are read at i·stride, so a caller can solve only the states it can reach
+ *    ({@link ladderCurrent} leaves out the blocks above the highest one a carrier can enter).
  *
  * References
  * ----------
@@ -54,17 +63,17 @@
  * out; // => [0.75, 0.25] (detailed balance: π₀·1 = π₁·3)
  * ```
  */
-export function stationaryDistribution(rates: Float64Array, n: number, lowerBlockStart: Int32Array, out: Float64Array): void {
+export function stationaryDistribution(rates: Float64Array, n: number, lowerBlockStart: Int32Array, out: Float64Array, stride = n): void {
   for (let k = n - 1; k >= 1; k--) {
     const lo = lowerBlockStart[k];
-    const rowK = k * n;
+    const rowK = k * stride;
     let s = 0;
     for (let j = lo; j < k; j++) s += rates[rowK + j];
     // A state with no way down is absorbing in the censored chain: give it a vanishing exit so
     // it collects the probability, as it does physically.
     if (!(s > 0)) s = Number.MIN_VALUE;
     for (let i = lo; i < k; i++) {
-      const rowI = i * n;
+      const rowI = i * stride;
       const qik = rates[rowI + k];
       if (qik === 0) continue;
       const f = qik / s;
@@ -79,7 +88,7 @@ export function stationaryDistribution(rates: Float64Array, n: number, lowerBloc
   let total = 1;
   for (let k = 1; k < n; k++) {
     let p = 0;
-    for (let i = lowerBlockStart[k]; i < k; i++) p += out[i] * rates[i * n + k];
+    for (let i = lowerBlockStart[k]; i < k; i++) p += out[i] * rates[i * stride + k];
     out[k] = p;
     total += p;
   }

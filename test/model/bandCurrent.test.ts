@@ -8,6 +8,7 @@ import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { dotModel } from "../helpers/dotModel.ts";
 import { bandLadders, currentSteps, fastCurrent } from "../../lib/model/bandCurrent.ts";
+import { ladderWorkspace } from "../../lib/model/ladder.ts";
 import { ELEMENTARY_CHARGE_C as E } from "../../lib/util/constants.ts";
 
 const doublet = dotModel({
@@ -51,6 +52,19 @@ describe("currentSteps(model, ladders, { fromV, toV })", () => {
     // A new rate ratio is a new rate matrix: solved and stored.
     currentSteps({ ...moved, tipRatePerS: 2e9 }, bandLadders(moved), { plateauStore });
     expect(plateauStore.cb.size + plateauStore.vb.size).toBeGreaterThan(stored);
+  });
+
+  it("solves in the buffers it is given, reused across rate ratios, with the same steps as in new ones (exact) and the closed-form plateaus", () => {
+    const ladders = bandLadders(doublet);
+    const workspaces = { cb: ladderWorkspace(ladders.cb!), vb: ladderWorkspace(ladders.vb!) };
+    for (const tipRatePerS of [1e9, 3e7, 1e9]) {
+      const model = { ...doublet, tipRatePerS };
+      expect(currentSteps(model, ladders, { workspaces })).toEqual(currentSteps(model, ladders));
+    }
+    const cbOnly = { ...doublet, vb: [] };
+    const { steps } = currentSteps(cbOnly, bandLadders(cbOnly), { fromV: 0, toV: 2, workspaces });
+    const r = 10;
+    expectClose(steps[0].heightA, (E * 1e8 * 2 * r) / (1 + 2 * r), { rtol: 1e-9, what: "e·Γs·2r/(1 + 2r)" });
   });
 });
 

@@ -6,7 +6,8 @@ import { expectClose } from "../helpers/expectClose.ts";
 import { fwhm } from "../helpers/lineShape.ts";
 import { dotModel } from "../helpers/dotModel.ts";
 import { bandLadders, exactCurrent, currentSteps, fastCurrent } from "../../lib/model/bandCurrent.ts";
-import { buildLadder, ladderCurrent, ladderStructureKey, ladderWithEnergies, ladderWorkspace, zeroTemperaturePattern } from "../../lib/model/ladder.ts";
+import { buildLadder, ladderCurrent, ladderStructureKey, ladderWithEnergies, ladderWorkspace } from "../../lib/model/ladder.ts";
+import { zeroTemperaturePattern } from "../../lib/model/zeroTemperaturePattern.ts";
 import { ELEMENTARY_CHARGE_C as E, BOLTZMANN_EV_PER_K as KB, FERMI_DERIVATIVE_FWHM_KT } from "../../lib/util/constants.ts";
 
 
@@ -187,3 +188,27 @@ describe("ladderStructureKey, ladderWithEnergies, zeroTemperaturePattern: one st
     expect(zeroTemperaturePattern(ladder, params, 0.85)).not.toBe(zeroTemperaturePattern(ladder, params, 0.8));
   });
 });
+
+describe("ladderCurrent: only the states a carrier can reach are solved", () => {
+  it("a p level no carrier can enter gets probability exactly 0, and the s level its closed form (1, 2r, r²)/(1 + r)² and current e·Γs·2r/(1 + r) (derived from the master equation of states 0, 1, 2)", () => {
+    // s (0.5 eV, g = 2) and p (1.5 eV, g = 2), Ec = 0.1 eV, η = 0.8, at 1 V: the s addition
+    // energies 0.55 and 0.65 eV lie below η·V = 0.8 eV, p's lowest (1.55 eV) far above, so no
+    // carrier ever enters p (every addition from N = 2 has rate 0, thermal factors included).
+    const ladder = buildLadder([{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 1.5, degeneracy: 2 }], 0.1);
+    const params = { chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: 1e9, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+    const r = 10;
+    for (const zeroTemperature of [true, false]) {
+      const work = ladderWorkspace(ladder);
+      work.probability.fill(0.5); // stale values from an earlier bias must not survive
+      const current = ladderCurrent(ladder, params, 1, work, zeroTemperature);
+      expectClose(current, (E * 1e8 * 2 * r) / (1 + r), { rtol: 1e-12, what: `current, zeroTemperature ${zeroTemperature}` });
+      for (let state = 0; state < ladder.nStates; state++) {
+        const sOcc = ladder.occupation[2 * state], pOcc = ladder.occupation[2 * state + 1];
+        const expected = pOcc > 0 ? 0 : [1, 2 * r, r * r][sOcc] / (1 + r) ** 2;
+        if (pOcc > 0) expect(work.probability[state]).toBe(0);
+        else expectClose(work.probability[state], expected, { rtol: 1e-12, what: `state s${sOcc}` });
+      }
+    }
+  });
+});
+

@@ -4,7 +4,7 @@
  * was, so finite differences do not solve it again.
  */
 import { currentSteps, fastCurrent, type CurrentStep, type DotModel } from "../bandCurrent.ts";
-import { buildLadder, ladderStructureKey, ladderWithEnergies, type Ladder } from "../ladder.ts";
+import { buildLadder, ladderStructureKey, ladderWithEnergies, ladderWorkspace, type Ladder, type LadderWorkspace } from "../ladder.ts";
 import type { Level } from "../scenario.ts";
 import { BOLTZMANN_EV_PER_K } from "../../util/constants.ts";
 import { parameterModel } from "./parameterModel.ts";
@@ -31,7 +31,7 @@ type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: numb
  */
 export interface BandStepsStore {
   bands: { cb: Map<string, BandSteps>; vb: Map<string, BandSteps> };
-  structures: Map<string, { ladder: Ladder; plateaus: Map<string, number> }>;
+  structures: Map<string, { ladder: Ladder; plateaus: Map<string, number>; workspace: LadderWorkspace }>;
 }
 
 /**
@@ -95,7 +95,8 @@ export function bandStepsStore(): BandStepsStore {
  *    order, {@link ladderStructureKey}) and given new energies ({@link ladderWithEnergies}); its
  *    zero-temperature plateaus are kept by {@link zeroTemperaturePattern} (currentSteps'
  *    plateauStore, at most BAND_STEPS_MEMO_DEFAULTS.plateausPerStructure), so that moving a level
- *    or Ec without reordering any crossing solves no master equation at all.
+ *    or Ec without reordering any crossing solves no master equation at all; the solves of one
+ *    structure share one set of buffers ({@link ladderWorkspace}).
  * 4. The two bands' steps merged and broadened by σ/η ({@link fastCurrent}).
  * Nothing outside the memos given the store changes it.
  *
@@ -121,9 +122,10 @@ export function bandStepsMemo(
     const known = structures.get(key);
     if (known) {
       if (known.plateaus.size > BAND_STEPS_MEMO_DEFAULTS.plateausPerStructure) known.plateaus.clear();
-      return { ladder: ladderWithEnergies(known.ladder, levels, chargingEnergyEV), plateaus: known.plateaus };
+      return { ladder: ladderWithEnergies(known.ladder, levels, chargingEnergyEV), plateaus: known.plateaus, workspace: known.workspace };
     }
-    const built = { ladder: buildLadder(levels, chargingEnergyEV), plateaus: new Map<string, number>() };
+    const ladder = buildLadder(levels, chargingEnergyEV);
+    const built = { ladder, plateaus: new Map<string, number>(), workspace: ladderWorkspace(ladder) };
     structures.set(key, built);
     return built;
   };
@@ -140,7 +142,7 @@ export function bandStepsMemo(
     // The hole ladder is the mirrored one (bandLadders).
     const own = ladderOf(band === "cb" ? levels : levels.map((l) => ({ energyEV: -l.energyEV, degeneracy: l.degeneracy })), model.chargingEnergyEV);
     const ladders = band === "cb" ? { cb: own.ladder, vb: null } : { cb: null, vb: own.ladder };
-    const solved = { ...currentSteps(alone, ladders, { ...wide, plateauStore: { cb: own.plateaus, vb: own.plateaus } }), ...wide };
+    const solved = { ...currentSteps(alone, ladders, { ...wide, plateauStore: { cb: own.plateaus, vb: own.plateaus }, workspaces: { [band]: own.workspace } }), ...wide };
     if (known) store.delete(key);
     else if (store.size >= BAND_STEPS_MEMO_DEFAULTS.entriesPerBand) store.delete(store.keys().next().value!);
     store.set(key, solved);

@@ -23,6 +23,7 @@ import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
 import { refineGrouping } from "./refineGrouping.ts";
+import { sameFit } from "./sameFit.ts";
 import { shiftGrouping } from "./shiftGrouping.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
@@ -132,9 +133,9 @@ export const FIT_DEFAULTS = Object.freeze({
   /** See wholeCurveChiSquare. */
   wholeCurveRatio: 2,
   /**
-   * Combined standard errors (whole curve and CB side) by which the whole-curve Ec may move from
-   * the CB side's before the VB reading counts as pulling it: then Ec and Γtip/Γsub are held at the
-   * CB side's values and the levels are fitted to the whole curve with them.
+   * Combined standard errors (whole curve and CB side) by which the whole-curve Ec, or log₁₀
+   * Γtip/Γsub, may move from the CB side's before the VB reading counts as pulling it: then Ec and
+   * Γtip/Γsub are held at the CB side's values and the levels are fitted to the whole curve with them.
    */
   wholeCurveEcSigmas: 1,
   /**
@@ -209,9 +210,10 @@ export const FIT_DEFAULTS = Object.freeze({
  *    after the first 4 is above exploreDropRatio (4) times the best is not explored further); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
  *    run with every CB start shifted by −Ec and by +Ec, for a first charging peak missed or one
- *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined
+ *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined (the
+ *    second not when it ended at the same fit as the first, {@link sameFit})
  *    ({@link refineGrouping}, {@link refinementStarts}: the p shell split 2+4 or 2+2+2 about the
- *    fitted p level, a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
+ *    fitted p level (and 2+2+2 at the peak-based Ec when lower), a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
  *    refinementIterations (4) from the fitted values, the best finished and kept as a further
  *    finalist when its BIC is lower), and the best again while it is a refined one
  *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
@@ -219,8 +221,8 @@ export const FIT_DEFAULTS = Object.freeze({
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
- *    values, a warning says so); when the whole-curve Ec lies more than wholeCurveEcSigmas (1)
- *    combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
+ *    values, a warning says so); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
+ *    wholeCurveEcSigmas (1) combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
  *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
  *    them, said in a warning and the evidence. An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
@@ -370,7 +372,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     trials.push(...cbFinals);
     // A grouping that settles well above the noise may be one Ec off (its first charging peak
     // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
-    const context = { cbOnly, trials, eta, exploreIterations: explore, maxIterations, run: (hc: FitHypothesis, iterations: number, from?: number[]) => run(hc, null, iterations, from, cbSide) };
+    const context = { cbOnly, trials, eta, exploreIterations: explore, maxIterations, run: (hc: FitHypothesis, iterations: number, from?: number[]) => run(hc, null, iterations, from, cbSide), peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null };
     cbFinals.forEach((t, i) => {
       if (t.hypothesis.kind !== "assigned" && reduced(t) > F.shiftChiSquare) cbFinals[i] = shiftGrouping(t, context) ?? t;
     });
@@ -379,7 +381,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
     const refine = (top: FitTrial) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations) });
     // First round: the best refinedGroupings groupings; then the best again while refining helps.
-    let latest = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings).map(refine).filter((t): t is FitTrial => t !== null);
+    // Two groupings at the same fit (sameFit) would give the same refinements: the second is left out.
+    const best2 = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings);
+    let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map(refine).filter((t): t is FitTrial => t !== null);
     for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
       cbFinals.push(...latest);
       const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
@@ -471,10 +475,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const atC = parameterIndex(winner.hypothesis.seeds.length);
     const ecW = whole.loop.parameters[atW.chargingEnergy];
     const ecC = winner.loop.parameters[atC.chargingEnergy];
-    // The combined error is at least the whole curve's: within that, no CB-side errors are needed.
-    const cb = Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * errors.se[atW.chargingEnergy] ? trialErrors(winner, currentOf(winner), noiseA, []) : null;
-    const sigma = cb ? Math.hypot(errors.se[atW.chargingEnergy], cb.se[atC.chargingEnergy]) : NaN;
-    if (cb && Number.isFinite(sigma) && sigma > 0 && Math.abs(ecW - ecC) > F.wholeCurveEcSigmas * sigma) {
+    // Ec and log₁₀ Γtip/Γsub; the combined error is at least the whole curve's: within that, no CB-side errors are needed.
+    const pairs = [[atW.chargingEnergy, atC.chargingEnergy], [atW.logRateRatio, atC.logRateRatio]];
+    const shift = ([w, c]: number[]) => Math.abs(whole.loop.parameters[w] - winner.loop.parameters[c]);
+    const cb = pairs.some((q) => shift(q) > F.wholeCurveEcSigmas * errors.se[q[0]]) ? trialErrors(winner, currentOf(winner), noiseA, []) : null;
+    const z = pairs.map((q) => (cb ? shift(q) / Math.hypot(errors.se[q[0]], cb.se[q[1]]) : NaN)).map((v) => (Number.isFinite(v) ? v : 0));
+    if (cb && Math.max(...z) > F.wholeCurveEcSigmas) {
       const from = [...whole.loop.parameters];
       from[atW.chargingEnergy] = ecC;
       from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
@@ -484,7 +490,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       errors = trialErrors(held, currentOf(held), noiseA, warnings);
       errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
       errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
-      heldNote = `the whole-curve fit moved Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${(Math.abs(ecW - ecC) / sigma).toFixed(1)} combined standard errors (> ${F.wholeCurveEcSigmas}): the VB reading does not fit with the CB values`;
+      const [rC, rW] = [10 ** winner.loop.parameters[atC.logRateRatio], 10 ** whole.loop.parameters[atW.logRateRatio]];
+      const moves = [`Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${z[0].toFixed(1)}`, `Γtip/Γsub from ${rC.toPrecision(3)} (CB side) to ${rW.toPrecision(3)}, ${z[1].toFixed(1)}`];
+      heldNote = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas}): the VB reading does not fit with the CB values`;
       warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
     }
   }

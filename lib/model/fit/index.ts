@@ -28,3 +28,4 @@ export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } f
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
 export { refineGrouping, type RefineContext } from "./refineGrouping.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";
+export { sameFit, SAME_FIT_DEFAULTS } from "./sameFit.ts";

@@ -21,6 +21,8 @@ export interface RefineContext {
   maxIterations: number;
   /** One Levenberg–Marquardt run of a CB-side hypothesis on the CB side of the curve, from the given parameters (absent: from its seeds). */
   run: (hc: FitHypothesis, iterations: number, from?: number[]) => FitTrial;
+  /** The peak-based Ec in eV (the rules' shell-filling Ec) for a further split start ({@link refinementStarts}), or null. Default null. */
+  peakChargingEnergyEV?: number | null;
 }
 
 /**
@@ -61,7 +63,7 @@ export function refineGrouping(top: FitTrial, context: RefineContext): FitTrial 
   const { cbOnly, trials, eta } = context;
   const topFull = [...cbOnly.entries()].find(([, hc]) => hc === top.hypothesis)![0];
   let best: FitTrial | null = null;
-  for (const r of refinementStarts(top.hypothesis.seeds, top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale), eta)) {
+  for (const r of refinementStarts(top.hypothesis.seeds, top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale), eta, context.peakChargingEnergyEV ?? null)) {
     const at = parameterIndex(r.seeds.length);
     const moved = { chargingEnergyStartEV: r.parameters[at.chargingEnergy], rateRatioStartLog10: r.parameters[at.logRateRatio] };
     const name = `${topFull.name.replace(/,.*$/, "")}, refined to ${r.layout} (${r.change})`;

@@ -14,6 +14,22 @@ export const REFINEMENT_DEFAULTS = Object.freeze({
    * and Levenberg–Marquardt finds the split only from a start on the right side of it.
    */
   splitSpacingsEc: Object.freeze([0.35, 0.9]) as readonly number[],
+  /**
+   * Offset of log₁₀ Γtip/Γsub of a further 2+2+2 split start of a whole p level fitted below
+   * Γtip/Γsub = 1: on the tunnelling side a whole p level fitted to a split shell also inflates the
+   * rate ratio (1.5–1.9 × the truth on the benchmark's wrong fits), and the split at the inflated
+   * ratio settles there.
+   */
+  splitRateRatioOffsetLog10: -0.5,
+  /**
+   * Least relative drop from the fitted Ec to the peak-based Ec (the rules' shell-filling Ec, from
+   * the spacing of the charging peaks) for a further 2+2+2 split start of a whole p level at the
+   * peak-based Ec: a whole p ladder fitted to a split shell also stretches Ec over the sub-level
+   * spacing (its mean peak spacing is Ec + 2δ/5 for 2+2+2), which a split at the fitted Ec does
+   * not undo in a few iterations. Each level is placed so that its peaks keep the centroid they
+   * have in the fitted ladder (note 4).
+   */
+  peakEcMinDrop: 0.05,
   /** Offsets of log₁₀ Γtip/Γsub of the restarts from the fitted value (× 1/3 and × 3). */
   rateRatioOffsetsLog10: Object.freeze([-0.5, 0.5]) as readonly number[],
 });
@@ -41,12 +57,15 @@ export interface RefinementStart {
  *     Its fitted nonlinear parameters: |ε| per level (eV), Ec (eV), log₁₀ Γtip/Γsub, log₁₀ σ.
  * eta : number
  *     Voltage-division factor η.
+ * peakChargingEnergyEV : number | null, optional
+ *     The peak-based Ec in eV (the rules' shell-filling Ec), or null. Default null.
  *
  * Returns
  * -------
  * RefinementStart[]
- *     The splits first (p whole into 2+4 and 2+2+2, a p sub-level of 4 into 2+2, at each spacing),
- *     then the rate-ratio restarts with the levels as fitted.
+ *     The splits first (p whole into 2+4 and 2+2+2, a p sub-level of 4 into 2+2, at each spacing;
+ *     then p whole into 2+2+2 at the peak-based Ec, when given and lower), then the rate-ratio
+ *     restarts with the levels as fitted.
  *
  * Throws
  * ------
@@ -57,12 +76,17 @@ export interface RefinementStart {
  * With D = REFINEMENT_DEFAULTS, ε_p the fitted level, Ec the fitted charging energy and δ each
  * of D.splitSpacingsEc × Ec:
  * 1. p whole (degeneracy 6) → 2+4 at ε_p − 2δ/3 and ε_p + δ/3, and 2+2+2 at ε_p − δ, ε_p, ε_p + δ
- *    (the degeneracy-weighted mean stays at ε_p).
+ *    (the degeneracy-weighted mean stays at ε_p); where the fitted Γtip/Γsub is below 1, the 2+2+2
+ *    split once more with log₁₀ Γtip/Γsub moved by D.splitRateRatioOffsetLog10.
  * 2. A p sub-level of 4 → 2+2 at its ε ∓ δ/2.
  * 3. The p levels are relabelled p1, p2, … in order; each level's `before` counts the CB carriers
  *    of the levels before it, and its first-peak bias is (ε + Ec·(before + ½))/η, so that
  *    {@link startingValues} started from Ec reproduces ε (and bounds each level about it).
- * 4. The same levels, Ec and σ with log₁₀ Γtip/Γsub moved by each of D.rateRatioOffsetsLog10.
+ * 4. With a whole p level and a peak-based Ec E' below (1 − D.peakEcMinDrop)·Ec: the p level split
+ *    2+2+2 at Ec = E', each level (g carriers after b before it) at ε + (Ec − E')·(b + g/2), where
+ *    its peaks, ε + E'·(N + ½) for N = b … b + g − 1, have the centroid that the fitted ladder
+ *    gives those carriers (the sub-levels end up 2·(Ec − E') apart).
+ * 5. The same levels, Ec and σ with log₁₀ Γtip/Γsub moved by each of D.rateRatioOffsetsLog10.
  *
  * Example
  * -------
@@ -73,7 +97,7 @@ export interface RefinementStart {
  * // => ["2+2+4", "2+2+2+2", "2+2+4", "2+2+2+2", "2+6", "2+6"]
  * ```
  */
-export function refinementStarts(seeds: readonly LevelSeed[], parameters: readonly number[], eta: number): RefinementStart[] {
+export function refinementStarts(seeds: readonly LevelSeed[], parameters: readonly number[], eta: number, peakChargingEnergyEV: number | null = null): RefinementStart[] {
   const D = REFINEMENT_DEFAULTS;
   const at = parameterIndex(seeds.length);
   const ec = parameters[at.chargingEnergy];
@@ -102,10 +126,27 @@ export function refinementStarts(seeds: readonly LevelSeed[], parameters: readon
       if (l.degeneracy === 6) {
         out.push(make([...before, sub(2, l.energyEV - (2 * delta) / 3), sub(4, l.energyEV + delta / 3), ...after], `p split 2+4, sub-levels ${words}`));
         out.push(make([...before, sub(2, l.energyEV - delta), sub(2, l.energyEV), sub(2, l.energyEV + delta), ...after], `p split 2+2+2, sub-levels ${words}`));
+        if (tail[1] < 0) {
+          const slower = [tail[0], tail[1] + D.splitRateRatioOffsetLog10, ...tail.slice(2)];
+          out.push(make([...before, sub(2, l.energyEV - delta), sub(2, l.energyEV), sub(2, l.energyEV + delta), ...after], `p split 2+2+2, sub-levels ${words}, Γtip/Γsub × ${(10 ** D.splitRateRatioOffsetLog10).toPrecision(2)}`, slower));
+        }
       } else if (l.degeneracy === 4) {
         out.push(make([...before, sub(2, l.energyEV - delta / 2), sub(2, l.energyEV + delta / 2), ...after], `p sub-level of 4 split 2+2, ${words}`));
       }
     });
+  }
+  const whole = levels.findIndex((l) => /^p/.test(l.label) && l.degeneracy === 6);
+  if (whole >= 0 && peakChargingEnergyEV !== null && peakChargingEnergyEV > 0 && peakChargingEnergyEV < ec * (1 - D.peakEcMinDrop)) {
+    const dEc = ec - peakChargingEnergyEV;
+    const shifted: { label: string; degeneracy: number; energyEV: number }[] = [];
+    let before = 0;
+    levels.forEach((l, j) => {
+      for (const g of j === whole ? [2, 2, 2] : [l.degeneracy]) {
+        shifted.push({ label: l.label, degeneracy: g, energyEV: l.energyEV + dEc * (before + g / 2) });
+        before += g;
+      }
+    });
+    out.push(make(shifted, `p split 2+2+2 at the peak-based Ec ${(peakChargingEnergyEV * 1000).toFixed(0)} meV, sub-levels ${(2 * dEc * 1000).toFixed(0)} meV apart`, [peakChargingEnergyEV, ...tail.slice(1)]));
   }
   for (const offset of D.rateRatioOffsetsLog10) {
     const rest = [...tail];

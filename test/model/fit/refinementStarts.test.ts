@@ -16,7 +16,7 @@ const eta = 0.85;
 
 describe("refinementStarts(seeds, parameters, eta)", () => {
   it("REFINEMENT_DEFAULTS are locked", () => {
-    expect(REFINEMENT_DEFAULTS).toEqual({ splitSpacingsEc: [0.35, 0.9], rateRatioOffsetsLog10: [-0.5, 0.5] });
+    expect(REFINEMENT_DEFAULTS).toEqual({ splitSpacingsEc: [0.35, 0.9], splitRateRatioOffsetLog10: -0.5, peakEcMinDrop: 0.05, rateRatioOffsetsLog10: [-0.5, 0.5] });
     expect(Object.isFrozen(REFINEMENT_DEFAULTS)).toBe(true);
   });
 
@@ -52,4 +52,33 @@ describe("refinementStarts(seeds, parameters, eta)", () => {
     expectClose(starts[0].parameters.slice(0, 4), [0.6, 0.85, 0.95 - 0.0175, 0.95 + 0.0175], { rtol: 1e-12, what: "±δ/2, δ = 0.35·Ec" });
     expect(refinementStarts([seeds[0]], [0.6, 0.1, 0, -2], eta).map((s) => s.layout)).toEqual(["2", "2"]);
   });
+
+  it("adds a 2+2+2 split at a lower peak-based Ec whose levels keep the centroid of their peaks in the fitted ladder (closed form), and none without one", () => {
+    // Fitted: ε_s 0.6, ε_p 0.9 eV, Ec 0.1 eV; peak-based Ec 0.08 eV (ΔEc = 0.02 eV).
+    const starts = refinementStarts(seeds, fitted, eta, 0.08);
+    const extra = starts.find((s) => /peak-based Ec 80 meV/.test(s.change))!;
+    expect(extra.layout).toBe("2+2+2+2");
+    expectClose(extra.parameters.slice(4), [0.08, 0, -2], { rtol: 1e-12, what: "Ec, log r, log σ" });
+    // Centroid of the peaks of the carriers b … b + g − 1: ε + Ec·(b + g/2), the same in both.
+    const centroid = (e: number, ec: number, b: number, g: number) => e + ec * (b + g / 2);
+    const fittedCentroids = [centroid(0.6, 0.1, 0, 2), centroid(0.9, 0.1, 2, 2), centroid(0.9, 0.1, 4, 2), centroid(0.9, 0.1, 6, 2)];
+    const startCentroids = extra.seeds.map((x, j) => centroid(extra.parameters[j], 0.08, x.before, x.degeneracy));
+    expectClose(startCentroids, fittedCentroids, { rtol: 1e-12, what: "peak centroids" });
+    expectClose(extra.parameters[2] - extra.parameters[1], 0.04, { rtol: 1e-9, what: "sub-levels 2·ΔEc apart" });
+    expect(refinementStarts(seeds, fitted, eta).some((s) => /peak-based/.test(s.change))).toBe(false);
+    expect(refinementStarts(seeds, fitted, eta, 0.097).some((s) => /peak-based/.test(s.change))).toBe(false); // less than 5 % lower
+  });
+
+  it("below Γtip/Γsub = 1 also starts each 2+2+2 split at a third of the fitted rate ratio, the levels as in the plain split (exact)", () => {
+    const slow = [0.6, 0.9, 0.1, -0.3, -2]; // Γtip/Γsub = 0.5
+    const starts = refinementStarts(seeds, slow, eta);
+    expect(starts.map((s) => s.layout)).toEqual(["2+2+4", "2+2+2+2", "2+2+2+2", "2+2+4", "2+2+2+2", "2+2+2+2", "2+6", "2+6"]);
+    for (const k of [0, 1]) {
+      const [plain, slower] = [starts[3 * k + 1], starts[3 * k + 2]];
+      expect(slower.parameters.slice(0, 5)).toEqual(plain.parameters.slice(0, 5));
+      expectClose(slower.parameters[5] - plain.parameters[5], REFINEMENT_DEFAULTS.splitRateRatioOffsetLog10, { rtol: 1e-12, what: "log₁₀ Γtip/Γsub offset" });
+    }
+    expect(refinementStarts(seeds, fitted, eta).length).toBe(6); // Γtip/Γsub = 1: none
+  });
 });
+
