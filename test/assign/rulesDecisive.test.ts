@@ -32,7 +32,7 @@ function verdict(cbPeaks: Peak[], toV: number) {
 
 describe("rulesDecisive(input, options)", () => {
   it("RULES_DECISIVE_DEFAULTS are locked, frozen and match the documented defaults", () => {
-    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3 });
+    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3, broadFwhmRatio: 2, dipStepRatio: 0.85, ladderSatelliteMin: 0.2, ladderSatelliteMax: 0.8 });
     expectDocumentedDefaults(new URL("../../lib/assign/rulesDecisive.ts", import.meta.url), "RulesDecisiveOptions", RULES_DECISIVE_DEFAULTS);
   });
 
@@ -92,6 +92,66 @@ describe("rulesDecisive(input, options)", () => {
     expect(assignment.multiplets.find((m) => m.label === "p")!.found).toBe(4);
     expect(result.decisive).toBe(false);
     expect(result.reasons).toContain("shell tunnelling with 4 levels in p, more than its 6 states hold in spin pairs (3): some may be charging peaks");
+  });
+
+  it("flags shell filling whose p sub-group has a dip in its charging steps, and not one whose steps fall", () => {
+    // p's six charging peaks at (ε_p + Ec(n + ½))/η (closed form). A level's charging steps fall one
+    // after another; a step below both neighbours (0.6 against 0.9 and 1: below 0.85 of both) is a
+    // higher sub-level entered before the lower is full.
+    const dip = verdict([...sV.map((v) => peak(v)), ...pV.map((v, i) => peak(v, [1, 0.9, 0.6, 1, 0.9, 0.8][i] * 1e-11))], pV[5] + 0.3);
+    expect(dip.assignment.regime).toBe("shell-filling");
+    expect(dip.assignment.multiplets.find((m) => m.label === "p")!.subgroups).toEqual([6]);
+    expect(dip.result.decisive).toBe(false);
+    expect(dip.result.reasons).toEqual([
+      `shell filling with a dip in p's charging steps: the peak at ${pV[2].toFixed(3)} V steps 0.67 × the one before and 0.60 × the one after (both < 0.85), whereas a level's charging steps fall one after another: a higher sub-level entered before the lower is full, counted as a charging peak`,
+    ]);
+    const falling = verdict([...sV.map((v) => peak(v)), ...pV.map((v, i) => peak(v, [1, 0.95, 0.9, 0.85, 0.8, 0.75][i] * 1e-11))], pV[5] + 0.3);
+    expect(falling.result).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("flags shell tunnelling whose p sub-levels and the satellite after them form an even ladder, when the satellite steps 0.2–0.8 × the peak before it", () => {
+    // One p level's charging ladder at (ε_p + Ec(n + ½))/η = 1.1, 1.2, 1.3, 1.4 V (ε_p/η = 1.05 V,
+    // Ec/η = 0.1 V; closed form); the rules read the first three as p's sub-levels (steps alike
+    // the s step) and the fourth, 0.4 × the third, as a satellite.
+    const ladder = [1.1, 1.2, 1.3, 1.4];
+    const strong = verdict([peak(0.75), ...ladder.map((v, i) => peak(v, (i < 3 ? 1 : 0.4) * 1e-11))], 2);
+    expect(strong.assignment.regime).toBe("shell-tunneling");
+    expect(strong.assignment.multiplets.find((m) => m.label === "p")!.found).toBe(3);
+    expect(strong.result.decisive).toBe(false);
+    expect(strong.result.reasons).toContain(
+      "shell tunnelling with p split into 3 sub-levels that, with the 1 peak(s) after them set aside as satellites (the first 0.40 × the step before it, within 0.2–0.8: a charging peak of Γtip/Γsub no longer small), form an even ladder (100, 100, 100 mV, each within 0.15 of their mean or 3σ): they may be one level's charging peaks",
+    );
+    // Without the satellite (sub-levels alike, deep in shell tunnelling) the reading stands.
+    const none = verdict([peak(0.75), ...ladder.slice(0, 3).map((v) => peak(v))], 2);
+    expect(none.assignment.multiplets.find((m) => m.label === "p")!.found).toBe(3);
+    expect(none.result).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("flags shell tunnelling with a broad peak set aside as a satellite (FWHM 5 × the others'), and not a narrow one", () => {
+    // s at 0.75 V, its charging satellite one Ec/η = 0.1 V after it, p at 1.1 V with 3 × the s
+    // step (p holds 6 electrons, s 2); the satellite's step 0.25 × s (r/(1 + r) for r = 1/3).
+    // stepRatioMargin 0 keeps 0.25 outside the crossover band (0.3–0.6), so only the width counts.
+    const run = (fwhmV: number) => {
+      const peaks = [...vbV.map((v) => peak(v)), peak(0.75), { ...peak(0.85, 0.25e-11), fwhmV }, peak(1.1, 3e-11)].sort((a, b) => a.biasV - b.biasV);
+      const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
+      return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: 0 }) };
+    };
+    const broad = run(0.2);
+    expect(broad.assignment.regime).toBe("shell-tunneling");
+    expect(broad.result.reasons).toEqual([
+      "shell tunnelling with the CB peak at 0.850 V set aside as a charging satellite although it is 200 mV wide, 5.0 × the median FWHM of the CB peaks read (40 mV; ≥ 2): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide",
+    ]);
+    expect(run(0.04).result).toEqual({ decisive: true, reasons: [] });
+  });
+
+  it("flags a regime read from two CB peaks alone, the VB deciding", () => {
+    // The s doublet alone at (ε_s + Ec(n + ½))/η (closed form), the VB's first two peaks a
+    // charging doublet one Ec apart: the rules read shell filling from the VB.
+    const { assignment, result } = verdict(sV.map((v) => peak(v)), sV[1] + 0.1);
+    expect(assignment.regime).toBe("shell-filling");
+    expect(result.reasons).toContain(
+      "shell filling read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell",
+    );
   });
 
   it("is decisive on a curve with no levels (nothing to compare)", () => {
