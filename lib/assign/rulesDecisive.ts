@@ -58,8 +58,9 @@ export interface RulesDecisiveOptions {
    */
   ladderSatelliteMin?: number;
   /**
-   * … and at most this fraction: a level's charging peak steps less than the peak before it (the
-   * rules' satellite rule), with a margin for noise; dimensionless. Default 0.8.
+   * … and at most this fraction: a level's charging peak steps less than the peak before it, with
+   * a margin for noise. Also: a CB peak set aside as a satellite that steps at least this fraction
+   * of the peak before it may be an uncounted sub-level; dimensionless. Default 0.8.
    */
   ladderSatelliteMax?: number;
 }
@@ -158,6 +159,9 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    flagged).
  * 11. A regime read from two CB peaks alone, the VB deciding between an s doublet and the s
  *    level with a p sub-level (a merged p shows as one peak and may be taken for s's second).
+ * 12. Shell tunnelling with a CB peak after the first set aside as a charging satellite although
+ *    it steps at least `ladderSatelliteMax` × the CB peak before it: a level's charging peak
+ *    steps less than the peak before it, so it may be a sub-level the rules did not count.
  *
  * References
  * ----------
@@ -284,6 +288,16 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
       if (!ladder || stepRatio < satelliteMin || stepRatio > satelliteMax) return;
       reasons.push(
         `shell tunnelling with ${m.label} split into ${m.found} sub-levels that, with the ${after.length} peak(s) after them set aside as satellites (the first ${stepRatio.toFixed(2)} × the step before it, within ${satelliteMin}–${satelliteMax}: a charging peak of Γtip/Γsub no longer small), form an even ladder (${ladder.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): they may be one level's charging peaks`,
+      );
+    });
+    // 12. A satellite stepping nearly as much as the peak before it: a level's charging peak steps
+    //     less than the peak before it (as in 10), so it may be a level the rules did not count.
+    const firstCbV = cbPeaks.length ? Math.min(...cbIndices.map((i) => peaks[i].biasV)) : Infinity;
+    cbPeaks.forEach((p, j) => {
+      const i = peaks.indexOf(p);
+      if (j === 0 || p.biasV <= firstCbV || !a.evidence.satellitePeakIndices.includes(i) || p.stepA < satelliteMax * cbPeaks[j - 1].stepA) return;
+      reasons.push(
+        `shell tunnelling with the CB peak at ${p.biasV.toFixed(3)} V set aside as a charging satellite although it steps ${(p.stepA / cbPeaks[j - 1].stepA).toFixed(2)} × the peak before it (≥ ${satelliteMax}; a level's charging peak steps less): it may be a sub-level the rules did not count`,
       );
     });
     // 7. More levels in a shell than it has spin pairs.

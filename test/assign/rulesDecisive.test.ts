@@ -144,6 +144,28 @@ describe("rulesDecisive(input, options)", () => {
     expect(run(0.04).result).toEqual({ decisive: true, reasons: [] });
   });
 
+  it("flags shell tunnelling with a peak set aside as a level's charging peak that steps 0.9 × the level (≥ 0.8), and not one at 0.7", () => {
+    // s at (ε_s + Ec/2)/η, its satellite at (ε_s + 3Ec/2)/η (step 0.28 × s: r/(1 + r) for r ≈ 0.39,
+    // the tunnelling side), p at (ε_p + Ec/2)/η and the next peak one Ec/η after it, which the
+    // rules set aside as p's charging peak (closed-form positions). stepRatioMargin 0 keeps 0.28
+    // outside the crossover band (0.3–0.6).
+    const run = (chargingStep: number) => {
+      const cbPeaks = [peak(sV[0]), peak(sV[1], 0.28e-11), peak((0.8 + ec / 2) / eta, 1.5e-11), peak((0.8 + 1.5 * ec) / eta, chargingStep * 1.5e-11)];
+      const peaks = [...vbV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
+      const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
+      return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: 0 }) };
+    };
+    const strong = run(0.9);
+    expect(strong.assignment.regime).toBe("shell-tunneling");
+    expect(strong.assignment.quantities.chargingEnergyV).toBeCloseTo(ecV, 9);
+    expect(strong.result.reasons).toEqual([
+      `shell tunnelling with the CB peak at ${((0.8 + 1.5 * ec) / eta).toFixed(3)} V set aside as a charging satellite although it steps 0.90 × the peak before it (≥ 0.8; a level's charging peak steps less): it may be a sub-level the rules did not count`,
+    ]);
+    const weak = run(0.7);
+    expect(weak.assignment.evidence.satellitePeaksV).toContain((0.8 + 1.5 * ec) / eta);
+    expect(weak.result).toEqual({ decisive: true, reasons: [] });
+  });
+
   it("flags a regime read from two CB peaks alone, the VB deciding", () => {
     // The s doublet alone at (ε_s + Ec(n + ½))/η (closed form), the VB's first two peaks a
     // charging doublet one Ec apart: the rules read shell filling from the VB.
