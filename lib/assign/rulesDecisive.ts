@@ -28,7 +28,8 @@ export interface RulesDecisiveOptions {
   stepRatioMargin?: number;
   /**
    * A missing charging peak of a shell counts as inside the window when it would sit at least
-   * this many of its shell's FWHM below the window's end, in FWHM. Default 1.
+   * this many of its shell's FWHM (the median over its peaks) below the window's end, in FWHM.
+   * Default 1.
    */
   edgeFwhms?: number;
   /**
@@ -130,7 +131,8 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    second step (or the satellite) is close to a regime boundary.
  * 3. Shell filling with an s or p multiplet short of its degeneracy (fewer than 2 or 6 charging
  *    peaks) while the next charging peak, one Ec after its last, would lie at least `edgeFwhms`
- *    FWHM inside the window: near Γtip/Γsub = 1.5–4 the last charging steps of p carry a few per
+ *    × the median FWHM of the shell's peaks inside the window (the median: one broad, merged
+ *    peak does not push the edge out): near Γtip/Γsub = 1.5–4 the last charging steps of p carry a few per
  *    cent of the first and are missed, and the peaks found can be grouped more than one way.
  * 4. Shell tunnelling with at least three CB peaks (levels and charging satellites) whose
  *    successive spacings are all alike (each within `ladderTolerance` of their mean, or within
@@ -219,7 +221,8 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     for (const m of cb) {
       if ((m.label !== "s" && m.label !== "p") || m.degeneracy === null || m.found === 0 || m.found >= m.degeneracy) continue;
       const lastV = m.peaksV[m.peaksV.length - 1];
-      const fwhmV = Math.max(...m.peakIndices.map((i) => peaks[i].fwhmV));
+      // The shell's typical width: the median FWHM (a broad, merged peak would push the edge out).
+      const fwhmV = median(m.peakIndices.map((i) => peaks[i].fwhmV));
       const nextV = lastV + ecV;
       if (nextV + edgeFwhms * fwhmV <= toV) {
         reasons.push(
@@ -235,11 +238,10 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     const cbV = cbIndices.map((i) => peaks[i].biasV);
     const [firstV, lastV] = [Math.min(...cbV), Math.max(...cbV)];
     const between = a.evidence.satellitePeakIndices.filter((i) => peaks[i].biasV > firstV && peaks[i].biasV < lastV);
-    const widths = [...cbIndices, ...between].map((i) => peaks[i].fwhmV).sort((x, y) => x - y);
-    const median = widths.length % 2 ? widths[widths.length >> 1] : (widths[widths.length / 2 - 1] + widths[widths.length / 2]) / 2;
-    for (const i of between.filter((k) => peaks[k].fwhmV >= broadRatio * median).sort((x, y) => peaks[x].biasV - peaks[y].biasV)) {
+    const typicalV = median([...cbIndices, ...between].map((i) => peaks[i].fwhmV));
+    for (const i of between.filter((k) => peaks[k].fwhmV >= broadRatio * typicalV).sort((x, y) => peaks[x].biasV - peaks[y].biasV)) {
       reasons.push(
-        `shell tunnelling with the CB peak at ${peaks[i].biasV.toFixed(3)} V set aside as a charging satellite although it is ${(peaks[i].fwhmV * 1e3).toFixed(0)} mV wide, ${(peaks[i].fwhmV / median).toFixed(1)} × the median FWHM of the CB peaks read (${(median * 1e3).toFixed(0)} mV; ≥ ${broadRatio}): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide`,
+        `shell tunnelling with the CB peak at ${peaks[i].biasV.toFixed(3)} V set aside as a charging satellite although it is ${(peaks[i].fwhmV * 1e3).toFixed(0)} mV wide, ${(peaks[i].fwhmV / typicalV).toFixed(1)} × the median FWHM of the CB peaks read (${(typicalV * 1e3).toFixed(0)} mV; ≥ ${broadRatio}): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide`,
       );
     }
   }
@@ -333,4 +335,10 @@ function evenLadder(sorted: readonly Pick<Peak, "biasV" | "biasUncertaintyV">[],
   const spacings = sorted.slice(1).map((p, i) => ({ v: p.biasV - sorted[i].biasV, sigma: Math.hypot(p.biasUncertaintyV, sorted[i].biasUncertaintyV) }));
   const mean = spacings.reduce((s, d) => s + d.v, 0) / spacings.length;
   return spacings.every((d) => Math.abs(d.v - mean) <= Math.max(tolerance * mean, sigmas * d.sigma)) ? spacings.map((d) => d.v) : null;
+}
+
+/** The median of a non-empty list (the mean of the middle pair for an even count). */
+function median(values: readonly number[]): number {
+  const v = [...values].sort((x, y) => x - y);
+  return v.length % 2 ? v[v.length >> 1] : (v[v.length / 2 - 1] + v[v.length / 2]) / 2;
 }

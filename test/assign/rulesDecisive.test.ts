@@ -55,6 +55,16 @@ describe("rulesDecisive(input, options)", () => {
     expect(cut.result).toEqual({ decisive: true, reasons: [] });
   });
 
+  it("measures the window margin for a missing charging peak in the shell's median FWHM, so one broad (merged) peak does not hide it", () => {
+    // p 5 of 6 with its first peak 0.5 V wide; the sixth at pV[4] + Ec/η (closed form), the window
+    // ending two typical FWHM (2 × 0.04 V) after it: inside by the median width, outside by the largest.
+    const five = [...sV.map((v) => peak(v)), ...pV.slice(0, 5).map((v, i) => ({ ...peak(v), fwhmV: i === 0 ? 0.5 : 0.04 }))];
+    const { assignment, result } = verdict(five, pV[4] + ecV + 2 * 0.04);
+    expect(assignment.multiplets.find((m) => m.label === "p")!.found).toBe(5);
+    expect(result.decisive).toBe(false);
+    expect(result.reasons[0]).toContain("5 of the p multiplet's 6 charging peaks");
+  });
+
   it("flags a named regime whose s doublet's step ratio r/(1 + r) lies in the crossover band: r = 2 (2/3 ≤ 0.7) yes, r = 4 (0.8) no", () => {
     for (const [r, decisive] of [[2, false], [4, true]] as const) {
       const q = secondToFirstStepRatio(r);
