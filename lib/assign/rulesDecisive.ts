@@ -72,7 +72,29 @@ export interface RulesDecisive {
   decisive: boolean;
   /** Why the rules are not decisive, in words with the numbers (empty when decisive). */
   reasons: string[];
+  /** A stable code for each of `reasons`, in the same order (see {@link RulesDecisiveCode}). */
+  codes: RulesDecisiveCode[];
 }
+
+/**
+ * Which rule of {@link rulesDecisive} found the reading open, by its number in the notes there:
+ * 1 `undetermined`, 2 `step-ratio-band`, 3 `short-shell`, 4 `even-ladder`, 5 `satellite-at-p`,
+ * 6 `sublevels-one-ec`, 7 `levels-over-pairs`, 8 `broad-satellite`, 9 `charging-dip`,
+ * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`.
+ */
+export type RulesDecisiveCode =
+  | "undetermined"
+  | "step-ratio-band"
+  | "short-shell"
+  | "even-ladder"
+  | "satellite-at-p"
+  | "sublevels-one-ec"
+  | "levels-over-pairs"
+  | "broad-satellite"
+  | "charging-dip"
+  | "split-ladder"
+  | "two-cb-peaks"
+  | "strong-satellite";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -112,7 +134,7 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * Returns
  * -------
  * RulesDecisive
- *     `decisive` and the reasons it is not, in words. A curve with no levels (`noLevels` set) is
+ *     `decisive`, the reasons it is not, in words, and a stable code for each. A curve with no levels (`noLevels` set) is
  *     decisive: there is nothing to compare.
  *
  * Throws
@@ -200,17 +222,22 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
   checkRange("biasRangeV[1]", toV, fromV, Infinity);
   const { peaks, assignment: a } = input;
   const reasons: string[] = [];
-  if (a.noLevels !== null) return { decisive: true, reasons };
+  const codes: RulesDecisiveCode[] = [];
+  const add = (code: RulesDecisiveCode, text: string) => {
+    codes.push(code);
+    reasons.push(text);
+  };
+  if (a.noLevels !== null) return { decisive: true, reasons, codes };
   if (a.regime === "undetermined") {
-    reasons.push("the rules left the regime undetermined");
-    return { decisive: false, reasons };
+    add("undetermined", "the rules left the regime undetermined");
+    return { decisive: false, reasons, codes };
   }
   // 2. The s doublet's step ratio near a regime boundary.
   const q = a.evidence.secondToFirstStepRatio;
   const low = REGIME_LIMITS.tunnelingStepRatioMax - margin;
   const high = REGIME_LIMITS.fillingStepRatioMin + margin;
   if (q !== null && q >= low && q <= high) {
-    reasons.push(
+    add("step-ratio-band", 
       `the second CB step is ${q.toFixed(2)} × the first, within the crossover band ${low.toFixed(2)}–${high.toFixed(2)} (r/(1 + r) for Γtip/Γsub from 3/7 to 1.5, ± ${margin}): the rate ratio may be near a regime boundary`,
     );
   }
@@ -225,7 +252,7 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
       const fwhmV = median(m.peakIndices.map((i) => peaks[i].fwhmV));
       const nextV = lastV + ecV;
       if (nextV + edgeFwhms * fwhmV <= toV) {
-        reasons.push(
+        add("short-shell", 
           `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, although the next one (near ${nextV.toFixed(3)} V, one Ec after the last) lies inside the window (to ${toV.toFixed(3)} V): a weak last charging step may be missed, or the peaks grouped another way`,
         );
       }
@@ -240,14 +267,14 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     const between = a.evidence.satellitePeakIndices.filter((i) => peaks[i].biasV > firstV && peaks[i].biasV < lastV);
     const typicalV = median([...cbIndices, ...between].map((i) => peaks[i].fwhmV));
     for (const i of between.filter((k) => peaks[k].fwhmV >= broadRatio * typicalV).sort((x, y) => peaks[x].biasV - peaks[y].biasV)) {
-      reasons.push(
+      add("broad-satellite", 
         `shell tunnelling with the CB peak at ${peaks[i].biasV.toFixed(3)} V set aside as a charging satellite although it is ${(peaks[i].fwhmV * 1e3).toFixed(0)} mV wide, ${(peaks[i].fwhmV / typicalV).toFixed(1)} × the median FWHM of the CB peaks read (${(typicalV * 1e3).toFixed(0)} mV; ≥ ${broadRatio}): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide`,
       );
     }
   }
   // 11. A regime read from two CB peaks alone, the VB deciding between a doublet and an s/p pair.
   if (a.evidence.reasons.some((r) => r.includes("no third CB peak follows"))) {
-    reasons.push(`${a.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell`);
+    add("two-cb-peaks", `${a.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell`);
   }
   if (a.regime === "shell-filling") {
     // 9. A dip in the charging steps inside a sub-group.
@@ -257,7 +284,7 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
         const steps = m.peakIndices.slice(start, start + size).map((i) => peaks[i].stepA);
         for (let j = 1; j < steps.length - 1; j++) {
           if (steps[j] < dipRatio * Math.min(steps[j - 1], steps[j + 1])) {
-            reasons.push(
+            add("charging-dip", 
               `shell filling with a dip in ${m.label}'s charging steps: the peak at ${m.peaksV[start + j].toFixed(3)} V steps ${(steps[j] / steps[j - 1]).toFixed(2)} × the one before and ${(steps[j] / steps[j + 1]).toFixed(2)} × the one after (both < ${dipRatio}), whereas a level's charging steps fall one after another: a higher sub-level entered before the lower is full, counted as a charging peak`,
             );
           }
@@ -272,7 +299,7 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     const cbPeaks = indices.map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV);
     const even = evenLadder(cbPeaks, tolerance, sigmas);
     if (even) {
-      reasons.push(
+      add("even-ladder", 
         `shell tunnelling read from ${cbPeaks.length} CB peaks whose ${even.length} spacings are alike (${even.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
       );
     }
@@ -288,7 +315,7 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
       const next = run[lastSub + 1];
       const stepRatio = next ? next.stepA / run[lastSub].stepA : 0;
       if (!ladder || stepRatio < satelliteMin || stepRatio > satelliteMax) return;
-      reasons.push(
+      add("split-ladder", 
         `shell tunnelling with ${m.label} split into ${m.found} sub-levels that, with the ${after.length} peak(s) after them set aside as satellites (the first ${stepRatio.toFixed(2)} × the step before it, within ${satelliteMin}–${satelliteMax}: a charging peak of Γtip/Γsub no longer small), form an even ladder (${ladder.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): they may be one level's charging peaks`,
       );
     });
@@ -298,32 +325,32 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     cbPeaks.forEach((p, j) => {
       const i = peaks.indexOf(p);
       if (j === 0 || p.biasV <= firstCbV || !a.evidence.satellitePeakIndices.includes(i) || p.stepA < satelliteMax * cbPeaks[j - 1].stepA) return;
-      reasons.push(
+      add("strong-satellite", 
         `shell tunnelling with the CB peak at ${p.biasV.toFixed(3)} V set aside as a charging satellite although it steps ${(p.stepA / cbPeaks[j - 1].stepA).toFixed(2)} × the peak before it (≥ ${satelliteMax}; a level's charging peak steps less): it may be a sub-level the rules did not count`,
       );
     });
     // 7. More levels in a shell than it has spin pairs.
     for (const m of cb) {
       if (m.degeneracy !== null && m.found > m.degeneracy / 2) {
-        reasons.push(`shell tunnelling with ${m.found} levels in ${m.label}, more than its ${m.degeneracy} states hold in spin pairs (${m.degeneracy / 2}): some may be charging peaks`);
+        add("levels-over-pairs", `shell tunnelling with ${m.found} levels in ${m.label}, more than its ${m.degeneracy} states hold in spin pairs (${m.degeneracy / 2}): some may be charging peaks`);
       }
     }
     const spV = a.quantities.levelSpacingSPV;
     if (ecV !== null && ecV > 0) {
       // 5. Δsp ≈ Ec: the satellite of s coincides with p.
       if (spV !== null && Math.abs(spV - ecV) <= tolerance * ecV) {
-        reasons.push(`shell tunnelling with Δsp ${(spV * 1e3).toFixed(0)} mV within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV, from a charging satellite): s's charging peak coincides with p`);
+        add("satellite-at-p", `shell tunnelling with Δsp ${(spV * 1e3).toFixed(0)} mV within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV, from a charging satellite): s's charging peak coincides with p`);
       }
       // 6. Sub-levels one Ec apart.
       for (const m of cb) {
         const gaps = m.peaksV.slice(1).map((v, i) => v - m.peaksV[i]);
         if (gaps.length && gaps.some((g) => Math.abs(g - ecV) <= tolerance * ecV)) {
-          reasons.push(`shell tunnelling with ${m.label} split into ${m.found} sub-levels, ${gaps.map((g) => (g * 1e3).toFixed(0)).join(", ")} mV apart, within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV) of Ec: they may be ${m.label}'s charging peaks`);
+          add("sublevels-one-ec", `shell tunnelling with ${m.label} split into ${m.found} sub-levels, ${gaps.map((g) => (g * 1e3).toFixed(0)).join(", ")} mV apart, within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV) of Ec: they may be ${m.label}'s charging peaks`);
         }
       }
     }
   }
-  return { decisive: reasons.length === 0, reasons };
+  return { decisive: reasons.length === 0, reasons, codes };
 }
 
 /**
