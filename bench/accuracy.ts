@@ -28,7 +28,9 @@
  *
  * With --compare-models, every spectrum on which the rules are not decisive (`rulesDecisive`: the
  * regime undetermined, the s doublet's step ratio near a regime boundary, a filling shell short of
- * its charging peaks inside the window, an even tunnelling ladder, …) and that has levels is also
+ * its charging peaks inside the window, a dip in a filling shell's charging steps, an even
+ * tunnelling ladder, a split tunnelling shell whose sub-levels and strong satellites form one, a
+ * broad or strong peak set aside as a satellite, a regime read from two CB peaks, …) and that has levels is also
  * fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze --compare-models`
  * does, and the command's decision (`comparisonDecision`: a good fit whose answer carries ≥ 0.9 of
  * the BIC weight, within its regime over ± 1 SE where it overrides a named one) says which answer
@@ -132,7 +134,7 @@ const comparisonMs: number[] = [];
  * (broke).
  */
 const comparisonTally = new Map<string, { fitted: number; undecided: number; pass: number; fail: number; undetermined: number; decides: number; fixed: number; broke: number }>();
-/** How often each kind of reason (its words up to the first number) sent a spectrum to the fit. */
+/** How many spectra each rule of `rulesDecisive` (its code) sent to the fit. */
 const reasonTally = new Map<string, number>();
 
 /** The fit's answer scored against the truth: the fit's regime, Ec and, per regime, Δsp or Γtip/Γsub. */
@@ -166,10 +168,8 @@ function compareWithModel(a: CurveAnalysis, t: SyntheticTruth, rulesPass: boolea
   const bias = a.conductance.biasV;
   const verdict = rulesDecisive({ peaks: a.peaks, assignment: a.assignment, biasRangeV: [bias[0], bias[bias.length - 1]] });
   if (verdict.decisive) return null;
-  for (const r of verdict.reasons) {
-    const key = r.replace(/[\d.]+.*$/, "").trim();
-    reasonTally.set(key, (reasonTally.get(key) ?? 0) + 1);
-  }
+  // Each rule once per spectrum, by its code (a rule can give several reasons on one spectrum).
+  for (const code of new Set(verdict.codes)) reasonTally.set(code, (reasonTally.get(code) ?? 0) + 1);
   const tally = comparisonTally.get(t.regime) ?? { fitted: 0, undecided: 0, pass: 0, fail: 0, undetermined: 0, decides: 0, fixed: 0, broke: 0 };
   comparisonTally.set(t.regime, tally);
   tally.fitted++;
@@ -361,7 +361,7 @@ if (compareModels) {
         `(fitted ${c.fitted}, ${c.undecided} of them undetermined by the rules; the fit got ${c.pass} right, ${c.fail} wrong, ${c.undetermined} undetermined or failed; it decided ${c.decides}: fixed ${c.fixed}, broke ${c.broke})`,
     );
   }
-  lines.push("fitted because: " + [...reasonTally.entries()].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ×${v}`).join("; "));
+  lines.push("fitted because (rulesDecisive codes, spectra): " + [...reasonTally.entries()].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ×${v}`).join("; "));
   const ms = comparisonMs.slice().sort((a, b) => a - b);
   const at = (p: number) => (ms.length ? ms[Math.min(ms.length - 1, Math.floor(p * ms.length))].toFixed(0) : "—");
   lines.push(`comparison fits ${ms.length}: median ${at(0.5)} ms, 90th percentile ${at(0.9)} ms, total ${(ms.reduce((x, y) => x + y, 0) / 1000).toFixed(1)} s; load average ${loadavg().map((x) => x.toFixed(1)).join(", ")}`);

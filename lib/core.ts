@@ -78,7 +78,7 @@ export { peakRoles, type PeakRole } from "./assign/peakMultiplets.ts";
 export { gapEdges, GAP_EDGES_DEFAULTS, type GapEdgesOptions } from "./assign/gapEdges.ts";
 export { noLevels, NO_LEVELS_DEFAULTS, type NoLevels, type NoLevelsCode, type NoLevelsInput } from "./assign/noLevels.ts";
 export { fitLadderSpacing, type LadderSpacing } from "./assign/ladderFit.ts";
-export { rulesDecisive, RULES_DECISIVE_DEFAULTS, type RulesDecisive, type RulesDecisiveInput, type RulesDecisiveOptions } from "./assign/rulesDecisive.ts";
+export { rulesDecisive, RULES_DECISIVE_DEFAULTS, type RulesDecisive, type RulesDecisiveCode, type RulesDecisiveInput, type RulesDecisiveOptions } from "./assign/rulesDecisive.ts";
 
 // The whole job on one curve.
 export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettings, type AnalyzedPeak, type CurveAnalysis } from "./pipeline/analyzeCurve.ts";

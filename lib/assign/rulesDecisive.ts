@@ -10,8 +10,8 @@ import type { Assignment } from "./assignSpectrum.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
-  /** The peaks the assignment names by index (`biasV`, `biasUncertaintyV`, `fwhmV` in V). */
-  peaks: readonly Pick<Peak, "biasV" | "biasUncertaintyV" | "fwhmV">[];
+  /** The peaks the assignment names by index (`biasV`, `biasUncertaintyV`, `fwhmV` in V; `stepA` in A). */
+  peaks: readonly Pick<Peak, "biasV" | "biasUncertaintyV" | "fwhmV" | "stepA">[];
   /** The rules' assignment of those peaks. */
   assignment: Pick<Assignment, "regime" | "evidence" | "multiplets" | "quantities" | "uncertainties" | "noLevels">;
   /** The bias window of the curve, [lowest, highest], V. */
@@ -28,7 +28,8 @@ export interface RulesDecisiveOptions {
   stepRatioMargin?: number;
   /**
    * A missing charging peak of a shell counts as inside the window when it would sit at least
-   * this many of its shell's FWHM below the window's end, in FWHM. Default 1.
+   * this many of its shell's FWHM (the median over its peaks) below the window's end, in FWHM.
+   * Default 1.
    */
   edgeFwhms?: number;
   /**
@@ -39,6 +40,30 @@ export interface RulesDecisiveOptions {
   ladderTolerance?: number;
   /** The same in combined standard errors of the two peak positions. Default 3. */
   ladderSigmas?: number;
+  /**
+   * Shell tunnelling: a CB peak set aside as a charging satellite between the first and the last
+   * CB peak read counts as broad when its FWHM is at least this multiple of the median FWHM of
+   * those peaks (satellite included): two or more unresolved peaks; dimensionless. Default 2.
+   */
+  broadFwhmRatio?: number;
+  /**
+   * Shell filling: a charging peak inside a sub-group counts as a dip when its step is below this
+   * fraction of both its neighbours' steps; dimensionless. Default 0.85.
+   */
+  dipStepRatio?: number;
+  /**
+   * Shell tunnelling: the sub-levels of a split shell and the satellites after them count as an
+   * even ladder only when one of those satellites steps at least this fraction of the peak before
+   * it (charging peaks that strong mean Γtip/Γsub is no longer small: r/(1 + r) = 0.2 at r = 1/4);
+   * dimensionless. Default 0.2.
+   */
+  ladderSatelliteMin?: number;
+  /**
+   * … and at most this fraction: a level's charging peak steps less than the peak before it, with
+   * a margin for noise. Also: a CB peak set aside as a satellite that steps at least this fraction
+   * of the peak before it may be an uncounted sub-level; dimensionless. Default 0.8.
+   */
+  ladderSatelliteMax?: number;
 }
 
 /** The verdict of {@link rulesDecisive}. */
@@ -47,7 +72,29 @@ export interface RulesDecisive {
   decisive: boolean;
   /** Why the rules are not decisive, in words with the numbers (empty when decisive). */
   reasons: string[];
+  /** A stable code for each of `reasons`, in the same order (see {@link RulesDecisiveCode}). */
+  codes: RulesDecisiveCode[];
 }
+
+/**
+ * Which rule of {@link rulesDecisive} found the reading open, by its number in the notes there:
+ * 1 `undetermined`, 2 `step-ratio-band`, 3 `short-shell`, 4 `even-ladder`, 5 `satellite-at-p`,
+ * 6 `sublevels-one-ec`, 7 `levels-over-pairs`, 8 `broad-satellite`, 9 `charging-dip`,
+ * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`.
+ */
+export type RulesDecisiveCode =
+  | "undetermined"
+  | "step-ratio-band"
+  | "short-shell"
+  | "even-ladder"
+  | "satellite-at-p"
+  | "sublevels-one-ec"
+  | "levels-over-pairs"
+  | "broad-satellite"
+  | "charging-dip"
+  | "split-ladder"
+  | "two-cb-peaks"
+  | "strong-satellite";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -59,6 +106,14 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
   ladderTolerance: 0.15,
   /** … or within this many combined standard errors. */
   ladderSigmas: 3,
+  /** A satellite this many times broader than the median of the CB peaks read is unresolved peaks. */
+  broadFwhmRatio: 2,
+  /** A charging step below this fraction of both neighbours' (inside a sub-group) is a dip. */
+  dipStepRatio: 0.85,
+  /** A split shell's even ladder counts with a satellite after it of at least this fraction of the step before it (r/(1 + r) at Γtip/Γsub = 1/4). */
+  ladderSatelliteMin: 0.2,
+  /** … and at most this fraction (a charging peak steps less than the peak before it; margin for noise). */
+  ladderSatelliteMax: 0.8,
 });
 
 /**
@@ -72,12 +127,14 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *     highest] in V.
  * options : RulesDecisiveOptions, optional
  *     `stepRatioMargin` (dimensionless, default 0.1), `edgeFwhms` (FWHM, default 1),
- *     `ladderTolerance` (fraction, default 0.15), `ladderSigmas` (σ, default 3).
+ *     `ladderTolerance` (fraction, default 0.15), `ladderSigmas` (σ, default 3),
+ *     `broadFwhmRatio` (default 2), `dipStepRatio` (default 0.85), `ladderSatelliteMin` and
+ *     `ladderSatelliteMax` (default 0.2 and 0.8), all dimensionless.
  *
  * Returns
  * -------
  * RulesDecisive
- *     `decisive` and the reasons it is not, in words. A curve with no levels (`noLevels` set) is
+ *     `decisive`, the reasons it is not, in words, and a stable code for each. A curve with no levels (`noLevels` set) is
  *     decisive: there is nothing to compare.
  *
  * Throws
@@ -96,7 +153,8 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    second step (or the satellite) is close to a regime boundary.
  * 3. Shell filling with an s or p multiplet short of its degeneracy (fewer than 2 or 6 charging
  *    peaks) while the next charging peak, one Ec after its last, would lie at least `edgeFwhms`
- *    FWHM inside the window: near Γtip/Γsub = 1.5–4 the last charging steps of p carry a few per
+ *    × the median FWHM of the shell's peaks inside the window (the median: one broad, merged
+ *    peak does not push the edge out): near Γtip/Γsub = 1.5–4 the last charging steps of p carry a few per
  *    cent of the first and are missed, and the peaks found can be grouped more than one way.
  * 4. Shell tunnelling with at least three CB peaks (levels and charging satellites) whose
  *    successive spacings are all alike (each within `ladderTolerance` of their mean, or within
@@ -109,6 +167,25 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * 7. Shell tunnelling with more levels in a shell than its states make spin pairs (more than 3
  *    in p): the extra peaks are likely charging peaks of its levels (near Γtip/Γsub = 0.2–0.4 a
  *    level of g states charges with steps of order g·r).
+ * 8. Shell tunnelling with a CB peak set aside as a charging satellite, between the first and the
+ *    last CB peak read, at least `broadFwhmRatio` × the median FWHM of those peaks wide:
+ *    unresolved peaks (near Γtip/Γsub = 0.2–0.3 a split p's sub-level merged with a charging
+ *    peak), among which a level may hide.
+ * 9. Shell filling with a dip inside a sub-group of a multiplet: a charging step below
+ *    `dipStepRatio` × both its neighbours'. A level's charging steps fall one after another; a dip
+ *    is a higher sub-level entered before the lower is full (near Γtip/Γsub = 2.5–3.5 in a p
+ *    split 2+4 or 2+2+2), counted as a charging peak, which puts the rest of p one Ec low.
+ * 10. Shell tunnelling with a shell split into sub-levels that, with the satellites after them,
+ *    form an even ladder (as in 4), when the first satellite after the last sub-level steps
+ *    `ladderSatelliteMin`–`ladderSatelliteMax` × the peak before it: charging peaks that strong
+ *    mean Γtip/Γsub is no longer small, and one level's charging peaks read as sub-levels give
+ *    just such a ladder (deep in shell tunnelling, sub-levels alike and no strong satellite: not
+ *    flagged).
+ * 11. A regime read from two CB peaks alone, the VB deciding between an s doublet and the s
+ *    level with a p sub-level (a merged p shows as one peak and may be taken for s's second).
+ * 12. Shell tunnelling with a CB peak after the first set aside as a charging satellite although
+ *    it steps at least `ladderSatelliteMax` × the CB peak before it: a level's charging peak
+ *    steps less than the peak before it, so it may be a sub-level the rules did not count.
  *
  * References
  * ----------
@@ -135,23 +212,32 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
   const edgeFwhms = checkRange("edgeFwhms", options.edgeFwhms ?? D.edgeFwhms, 0, 100);
   const tolerance = checkRange("ladderTolerance", options.ladderTolerance ?? D.ladderTolerance, 0, 1);
   const sigmas = checkRange("ladderSigmas", options.ladderSigmas ?? D.ladderSigmas, 0, 100);
+  const broadRatio = checkRange("broadFwhmRatio", options.broadFwhmRatio ?? D.broadFwhmRatio, 1, 100);
+  const dipRatio = checkRange("dipStepRatio", options.dipStepRatio ?? D.dipStepRatio, 0, 1);
+  const satelliteMin = checkRange("ladderSatelliteMin", options.ladderSatelliteMin ?? D.ladderSatelliteMin, 0, 1);
+  const satelliteMax = checkRange("ladderSatelliteMax", options.ladderSatelliteMax ?? D.ladderSatelliteMax, satelliteMin, 10);
   const [fromV, toV] = input.biasRangeV;
   checkFinite("biasRangeV[0]", fromV);
   checkFinite("biasRangeV[1]", toV);
   checkRange("biasRangeV[1]", toV, fromV, Infinity);
   const { peaks, assignment: a } = input;
   const reasons: string[] = [];
-  if (a.noLevels !== null) return { decisive: true, reasons };
+  const codes: RulesDecisiveCode[] = [];
+  const add = (code: RulesDecisiveCode, text: string) => {
+    codes.push(code);
+    reasons.push(text);
+  };
+  if (a.noLevels !== null) return { decisive: true, reasons, codes };
   if (a.regime === "undetermined") {
-    reasons.push("the rules left the regime undetermined");
-    return { decisive: false, reasons };
+    add("undetermined", "the rules left the regime undetermined");
+    return { decisive: false, reasons, codes };
   }
   // 2. The s doublet's step ratio near a regime boundary.
   const q = a.evidence.secondToFirstStepRatio;
   const low = REGIME_LIMITS.tunnelingStepRatioMax - margin;
   const high = REGIME_LIMITS.fillingStepRatioMin + margin;
   if (q !== null && q >= low && q <= high) {
-    reasons.push(
+    add("step-ratio-band", 
       `the second CB step is ${q.toFixed(2)} × the first, within the crossover band ${low.toFixed(2)}–${high.toFixed(2)} (r/(1 + r) for Γtip/Γsub from 3/7 to 1.5, ± ${margin}): the rate ratio may be near a regime boundary`,
     );
   }
@@ -162,48 +248,124 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     for (const m of cb) {
       if ((m.label !== "s" && m.label !== "p") || m.degeneracy === null || m.found === 0 || m.found >= m.degeneracy) continue;
       const lastV = m.peaksV[m.peaksV.length - 1];
-      const fwhmV = Math.max(...m.peakIndices.map((i) => peaks[i].fwhmV));
+      // The shell's typical width: the median FWHM (a broad, merged peak would push the edge out).
+      const fwhmV = median(m.peakIndices.map((i) => peaks[i].fwhmV));
       const nextV = lastV + ecV;
       if (nextV + edgeFwhms * fwhmV <= toV) {
-        reasons.push(
+        add("short-shell", 
           `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, although the next one (near ${nextV.toFixed(3)} V, one Ec after the last) lies inside the window (to ${toV.toFixed(3)} V): a weak last charging step may be missed, or the peaks grouped another way`,
         );
       }
     }
   }
-  if (a.regime === "shell-tunneling") {
-    // 4. An even ladder of CB peaks.
-    const indices = [...new Set([...cb.flatMap((m) => m.peakIndices), ...a.evidence.satellitePeakIndices])];
-    const cbPeaks = indices.map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV);
-    if (cbPeaks.length >= 3) {
-      const spacings = cbPeaks.slice(1).map((p, i) => ({ v: p.biasV - cbPeaks[i].biasV, sigma: Math.hypot(p.biasUncertaintyV, cbPeaks[i].biasUncertaintyV) }));
-      const mean = spacings.reduce((s, d) => s + d.v, 0) / spacings.length;
-      if (spacings.every((d) => Math.abs(d.v - mean) <= Math.max(tolerance * mean, sigmas * d.sigma))) {
-        reasons.push(
-          `shell tunnelling read from ${cbPeaks.length} CB peaks whose ${spacings.length} spacings are alike (${spacings.map((d) => (d.v * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
-        );
+  // 8. Shell tunnelling with a broad peak set aside as a satellite: unresolved peaks, among them
+  //    perhaps a level.
+  const cbIndices = cb.flatMap((m) => m.peakIndices);
+  if (a.regime === "shell-tunneling" && cbIndices.length >= 2) {
+    const cbV = cbIndices.map((i) => peaks[i].biasV);
+    const [firstV, lastV] = [Math.min(...cbV), Math.max(...cbV)];
+    const between = a.evidence.satellitePeakIndices.filter((i) => peaks[i].biasV > firstV && peaks[i].biasV < lastV);
+    const typicalV = median([...cbIndices, ...between].map((i) => peaks[i].fwhmV));
+    for (const i of between.filter((k) => peaks[k].fwhmV >= broadRatio * typicalV).sort((x, y) => peaks[x].biasV - peaks[y].biasV)) {
+      add("broad-satellite", 
+        `shell tunnelling with the CB peak at ${peaks[i].biasV.toFixed(3)} V set aside as a charging satellite although it is ${(peaks[i].fwhmV * 1e3).toFixed(0)} mV wide, ${(peaks[i].fwhmV / typicalV).toFixed(1)} × the median FWHM of the CB peaks read (${(typicalV * 1e3).toFixed(0)} mV; ≥ ${broadRatio}): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide`,
+      );
+    }
+  }
+  // 11. A regime read from two CB peaks alone, the VB deciding between a doublet and an s/p pair.
+  if (a.evidence.reasons.some((r) => r.includes("no third CB peak follows"))) {
+    add("two-cb-peaks", `${a.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell`);
+  }
+  if (a.regime === "shell-filling") {
+    // 9. A dip in the charging steps inside a sub-group.
+    for (const m of cb) {
+      let start = 0;
+      for (const size of m.subgroups) {
+        const steps = m.peakIndices.slice(start, start + size).map((i) => peaks[i].stepA);
+        for (let j = 1; j < steps.length - 1; j++) {
+          if (steps[j] < dipRatio * Math.min(steps[j - 1], steps[j + 1])) {
+            add("charging-dip", 
+              `shell filling with a dip in ${m.label}'s charging steps: the peak at ${m.peaksV[start + j].toFixed(3)} V steps ${(steps[j] / steps[j - 1]).toFixed(2)} × the one before and ${(steps[j] / steps[j + 1]).toFixed(2)} × the one after (both < ${dipRatio}), whereas a level's charging steps fall one after another: a higher sub-level entered before the lower is full, counted as a charging peak`,
+            );
+          }
+        }
+        start += size;
       }
     }
+  }
+  if (a.regime === "shell-tunneling") {
+    // 4. An even ladder of CB peaks.
+    const indices = [...new Set([...cbIndices, ...a.evidence.satellitePeakIndices])];
+    const cbPeaks = indices.map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV);
+    const even = evenLadder(cbPeaks, tolerance, sigmas);
+    if (even) {
+      add("even-ladder", 
+        `shell tunnelling read from ${cbPeaks.length} CB peaks whose ${even.length} spacings are alike (${even.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
+      );
+    }
+    // 10. A split shell whose sub-levels, with the satellites after them, form an even ladder.
+    cb.forEach((m, k) => {
+      if (m.found < 2) return;
+      const endV = cb[k + 1]?.peaksV[0] ?? Infinity;
+      const after = a.evidence.satellitePeakIndices.filter((i) => peaks[i].biasV > m.peaksV[0] && peaks[i].biasV < endV);
+      const run = [...new Set([...m.peakIndices, ...after])].map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV);
+      const ladder = evenLadder(run, tolerance, sigmas);
+      // The first satellite after the last sub-level, over the step of the peak before it.
+      const lastSub = run.indexOf(peaks[m.peakIndices[m.peakIndices.length - 1]]);
+      const next = run[lastSub + 1];
+      const stepRatio = next ? next.stepA / run[lastSub].stepA : 0;
+      if (!ladder || stepRatio < satelliteMin || stepRatio > satelliteMax) return;
+      add("split-ladder", 
+        `shell tunnelling with ${m.label} split into ${m.found} sub-levels that, with the ${after.length} peak(s) after them set aside as satellites (the first ${stepRatio.toFixed(2)} × the step before it, within ${satelliteMin}–${satelliteMax}: a charging peak of Γtip/Γsub no longer small), form an even ladder (${ladder.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): they may be one level's charging peaks`,
+      );
+    });
+    // 12. A satellite stepping nearly as much as the peak before it: a level's charging peak steps
+    //     less than the peak before it (as in 10), so it may be a level the rules did not count.
+    const firstCbV = cbPeaks.length ? Math.min(...cbIndices.map((i) => peaks[i].biasV)) : Infinity;
+    cbPeaks.forEach((p, j) => {
+      const i = peaks.indexOf(p);
+      if (j === 0 || p.biasV <= firstCbV || !a.evidence.satellitePeakIndices.includes(i) || p.stepA < satelliteMax * cbPeaks[j - 1].stepA) return;
+      add("strong-satellite", 
+        `shell tunnelling with the CB peak at ${p.biasV.toFixed(3)} V set aside as a charging satellite although it steps ${(p.stepA / cbPeaks[j - 1].stepA).toFixed(2)} × the peak before it (≥ ${satelliteMax}; a level's charging peak steps less): it may be a sub-level the rules did not count`,
+      );
+    });
     // 7. More levels in a shell than it has spin pairs.
     for (const m of cb) {
       if (m.degeneracy !== null && m.found > m.degeneracy / 2) {
-        reasons.push(`shell tunnelling with ${m.found} levels in ${m.label}, more than its ${m.degeneracy} states hold in spin pairs (${m.degeneracy / 2}): some may be charging peaks`);
+        add("levels-over-pairs", `shell tunnelling with ${m.found} levels in ${m.label}, more than its ${m.degeneracy} states hold in spin pairs (${m.degeneracy / 2}): some may be charging peaks`);
       }
     }
     const spV = a.quantities.levelSpacingSPV;
     if (ecV !== null && ecV > 0) {
       // 5. Δsp ≈ Ec: the satellite of s coincides with p.
       if (spV !== null && Math.abs(spV - ecV) <= tolerance * ecV) {
-        reasons.push(`shell tunnelling with Δsp ${(spV * 1e3).toFixed(0)} mV within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV, from a charging satellite): s's charging peak coincides with p`);
+        add("satellite-at-p", `shell tunnelling with Δsp ${(spV * 1e3).toFixed(0)} mV within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV, from a charging satellite): s's charging peak coincides with p`);
       }
       // 6. Sub-levels one Ec apart.
       for (const m of cb) {
         const gaps = m.peaksV.slice(1).map((v, i) => v - m.peaksV[i]);
         if (gaps.length && gaps.some((g) => Math.abs(g - ecV) <= tolerance * ecV)) {
-          reasons.push(`shell tunnelling with ${m.label} split into ${m.found} sub-levels, ${gaps.map((g) => (g * 1e3).toFixed(0)).join(", ")} mV apart, within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV) of Ec: they may be ${m.label}'s charging peaks`);
+          add("sublevels-one-ec", `shell tunnelling with ${m.label} split into ${m.found} sub-levels, ${gaps.map((g) => (g * 1e3).toFixed(0)).join(", ")} mV apart, within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV) of Ec: they may be ${m.label}'s charging peaks`);
         }
       }
     }
   }
-  return { decisive: reasons.length === 0, reasons };
+  return { decisive: reasons.length === 0, reasons, codes };
+}
+
+/**
+ * The spacings of peaks (sorted by bias, at least three) when they form an even ladder: every
+ * spacing within `tolerance` × their mean or `sigmas` combined standard errors of it; else null.
+ */
+function evenLadder(sorted: readonly Pick<Peak, "biasV" | "biasUncertaintyV">[], tolerance: number, sigmas: number): number[] | null {
+  if (sorted.length < 3) return null;
+  const spacings = sorted.slice(1).map((p, i) => ({ v: p.biasV - sorted[i].biasV, sigma: Math.hypot(p.biasUncertaintyV, sorted[i].biasUncertaintyV) }));
+  const mean = spacings.reduce((s, d) => s + d.v, 0) / spacings.length;
+  return spacings.every((d) => Math.abs(d.v - mean) <= Math.max(tolerance * mean, sigmas * d.sigma)) ? spacings.map((d) => d.v) : null;
+}
+
+/** The median of a non-empty list (the mean of the middle pair for an even count). */
+function median(values: readonly number[]): number {
+  const v = [...values].sort((x, y) => x - y);
+  return v.length % 2 ? v[v.length >> 1] : (v[v.length / 2 - 1] + v[v.length / 2]) / 2;
 }

@@ -32,14 +32,14 @@ function verdict(cbPeaks: Peak[], toV: number) {
 
 describe("rulesDecisive(input, options)", () => {
   it("RULES_DECISIVE_DEFAULTS are locked, frozen and match the documented defaults", () => {
-    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3 });
+    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3, broadFwhmRatio: 2, dipStepRatio: 0.85, ladderSatelliteMin: 0.2, ladderSatelliteMax: 0.8 });
     expectDocumentedDefaults(new URL("../../lib/assign/rulesDecisive.ts", import.meta.url), "RulesDecisiveOptions", RULES_DECISIVE_DEFAULTS);
   });
 
   it("is decisive on a full shell-filling ladder (s doublet alike, p sextet whole)", () => {
     const { assignment, result } = verdict([...sV, ...pV].map((v) => peak(v)), pV[5] + 0.3);
     expect(assignment.regime).toBe("shell-filling");
-    expect(result).toEqual({ decisive: true, reasons: [] });
+    expect(result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
 
   it("is not decisive when p shows 5 of 6 charging peaks and the sixth would sit inside the window, and is when the window ends before it", () => {
@@ -52,7 +52,17 @@ describe("rulesDecisive(input, options)", () => {
     // The sixth at pV[4] + Ec/η (closed form), one FWHM (0.04 V) from the end of the window.
     expect(inside.result.reasons[0]).toContain(`near ${(pV[4] + ecV).toFixed(3)} V`);
     const cut = verdict(five.map((v) => peak(v)), pV[4] + ecV + 0.5 * 0.04);
-    expect(cut.result).toEqual({ decisive: true, reasons: [] });
+    expect(cut.result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("measures the window margin for a missing charging peak in the shell's median FWHM, so one broad (merged) peak does not hide it", () => {
+    // p 5 of 6 with its first peak 0.5 V wide; the sixth at pV[4] + Ec/η (closed form), the window
+    // ending two typical FWHM (2 × 0.04 V) after it: inside by the median width, outside by the largest.
+    const five = [...sV.map((v) => peak(v)), ...pV.slice(0, 5).map((v, i) => ({ ...peak(v), fwhmV: i === 0 ? 0.5 : 0.04 }))];
+    const { assignment, result } = verdict(five, pV[4] + ecV + 2 * 0.04);
+    expect(assignment.multiplets.find((m) => m.label === "p")!.found).toBe(5);
+    expect(result.decisive).toBe(false);
+    expect(result.reasons[0]).toContain("5 of the p multiplet's 6 charging peaks");
   });
 
   it("flags a named regime whose s doublet's step ratio r/(1 + r) lies in the crossover band: r = 2 (2/3 ≤ 0.7) yes, r = 4 (0.8) no", () => {
@@ -69,7 +79,7 @@ describe("rulesDecisive(input, options)", () => {
     const q = secondToFirstStepRatio(1);
     const { assignment, result } = verdict([peak(sV[0]), peak(sV[1], q * 1e-11), ...pV.map((v) => peak(v))], pV[5] + 0.3);
     expect(assignment.regime).toBe("undetermined");
-    expect(result).toEqual({ decisive: false, reasons: ["the rules left the regime undetermined"] });
+    expect(result).toEqual({ decisive: false, reasons: ["the rules left the regime undetermined"], codes: ["undetermined"] });
   });
 
   it("flags a shell-tunnelling ladder of alike spacings, and not one whose s→p jump differs", () => {
@@ -81,7 +91,7 @@ describe("rulesDecisive(input, options)", () => {
     expect(even.result.reasons[0]).toContain("3 CB peaks whose 2 spacings are alike (300, 300 mV");
     const uneven = verdict([0.75, 1.15, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2);
     expect(uneven.assignment.regime).toBe("shell-tunneling");
-    expect(uneven.result).toEqual({ decisive: true, reasons: [] });
+    expect(uneven.result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
 
   it("flags a shell-tunnelling p read as more levels than its 6 states make spin pairs (4 > 3)", () => {
@@ -94,10 +104,97 @@ describe("rulesDecisive(input, options)", () => {
     expect(result.reasons).toContain("shell tunnelling with 4 levels in p, more than its 6 states hold in spin pairs (3): some may be charging peaks");
   });
 
+  it("flags shell filling whose p sub-group has a dip in its charging steps, and not one whose steps fall", () => {
+    // p's six charging peaks at (ε_p + Ec(n + ½))/η (closed form). A level's charging steps fall one
+    // after another; a step below both neighbours (0.6 against 0.9 and 1: below 0.85 of both) is a
+    // higher sub-level entered before the lower is full.
+    const dip = verdict([...sV.map((v) => peak(v)), ...pV.map((v, i) => peak(v, [1, 0.9, 0.6, 1, 0.9, 0.8][i] * 1e-11))], pV[5] + 0.3);
+    expect(dip.assignment.regime).toBe("shell-filling");
+    expect(dip.assignment.multiplets.find((m) => m.label === "p")!.subgroups).toEqual([6]);
+    expect(dip.result.decisive).toBe(false);
+    expect(dip.result.codes).toEqual(["charging-dip"]);
+    expect(dip.result.reasons).toEqual([
+      `shell filling with a dip in p's charging steps: the peak at ${pV[2].toFixed(3)} V steps 0.67 × the one before and 0.60 × the one after (both < 0.85), whereas a level's charging steps fall one after another: a higher sub-level entered before the lower is full, counted as a charging peak`,
+    ]);
+    const falling = verdict([...sV.map((v) => peak(v)), ...pV.map((v, i) => peak(v, [1, 0.95, 0.9, 0.85, 0.8, 0.75][i] * 1e-11))], pV[5] + 0.3);
+    expect(falling.result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("flags shell tunnelling whose p sub-levels and the satellite after them form an even ladder, when the satellite steps 0.2–0.8 × the peak before it", () => {
+    // One p level's charging ladder at (ε_p + Ec(n + ½))/η = 1.1, 1.2, 1.3, 1.4 V (ε_p/η = 1.05 V,
+    // Ec/η = 0.1 V; closed form); the rules read the first three as p's sub-levels (steps alike
+    // the s step) and the fourth, 0.4 × the third, as a satellite.
+    const ladder = [1.1, 1.2, 1.3, 1.4];
+    const strong = verdict([peak(0.75), ...ladder.map((v, i) => peak(v, (i < 3 ? 1 : 0.4) * 1e-11))], 2);
+    expect(strong.assignment.regime).toBe("shell-tunneling");
+    expect(strong.assignment.multiplets.find((m) => m.label === "p")!.found).toBe(3);
+    expect(strong.result.decisive).toBe(false);
+    expect(strong.result.codes).toContain("split-ladder");
+    expect(strong.result.reasons).toContain(
+      "shell tunnelling with p split into 3 sub-levels that, with the 1 peak(s) after them set aside as satellites (the first 0.40 × the step before it, within 0.2–0.8: a charging peak of Γtip/Γsub no longer small), form an even ladder (100, 100, 100 mV, each within 0.15 of their mean or 3σ): they may be one level's charging peaks",
+    );
+    // Without the satellite (sub-levels alike, deep in shell tunnelling) the reading stands.
+    const none = verdict([peak(0.75), ...ladder.slice(0, 3).map((v) => peak(v))], 2);
+    expect(none.assignment.multiplets.find((m) => m.label === "p")!.found).toBe(3);
+    expect(none.result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("flags shell tunnelling with a broad peak set aside as a satellite (FWHM 5 × the others'), and not a narrow one", () => {
+    // s at 0.75 V, its charging satellite one Ec/η = 0.1 V after it, p at 1.1 V with 3 × the s
+    // step (p holds 6 electrons, s 2); the satellite's step 0.25 × s (r/(1 + r) for r = 1/3).
+    // stepRatioMargin 0 keeps 0.25 outside the crossover band (0.3–0.6), so only the width counts.
+    const run = (fwhmV: number) => {
+      const peaks = [...vbV.map((v) => peak(v)), peak(0.75), { ...peak(0.85, 0.25e-11), fwhmV }, peak(1.1, 3e-11)].sort((a, b) => a.biasV - b.biasV);
+      const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
+      return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: 0 }) };
+    };
+    const broad = run(0.2);
+    expect(broad.assignment.regime).toBe("shell-tunneling");
+    expect(broad.result.codes).toEqual(["broad-satellite"]);
+    expect(broad.result.reasons).toEqual([
+      "shell tunnelling with the CB peak at 0.850 V set aside as a charging satellite although it is 200 mV wide, 5.0 × the median FWHM of the CB peaks read (40 mV; ≥ 2): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide",
+    ]);
+    expect(run(0.04).result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("flags shell tunnelling with a peak set aside as a level's charging peak that steps 0.9 × the level (≥ 0.8), and not one at 0.7", () => {
+    // s at (ε_s + Ec/2)/η, its satellite at (ε_s + 3Ec/2)/η (step 0.28 × s: r/(1 + r) for r ≈ 0.39,
+    // the tunnelling side), p at (ε_p + Ec/2)/η and the next peak one Ec/η after it, which the
+    // rules set aside as p's charging peak (closed-form positions). stepRatioMargin 0 keeps 0.28
+    // outside the crossover band (0.3–0.6).
+    const run = (chargingStep: number) => {
+      const cbPeaks = [peak(sV[0]), peak(sV[1], 0.28e-11), peak((0.8 + ec / 2) / eta, 1.5e-11), peak((0.8 + 1.5 * ec) / eta, chargingStep * 1.5e-11)];
+      const peaks = [...vbV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
+      const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
+      return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: 0 }) };
+    };
+    const strong = run(0.9);
+    expect(strong.assignment.regime).toBe("shell-tunneling");
+    expect(strong.assignment.quantities.chargingEnergyV).toBeCloseTo(ecV, 9);
+    expect(strong.result.codes).toEqual(["strong-satellite"]);
+    expect(strong.result.reasons).toEqual([
+      `shell tunnelling with the CB peak at ${((0.8 + 1.5 * ec) / eta).toFixed(3)} V set aside as a charging satellite although it steps 0.90 × the peak before it (≥ 0.8; a level's charging peak steps less): it may be a sub-level the rules did not count`,
+    ]);
+    const weak = run(0.7);
+    expect(weak.assignment.evidence.satellitePeaksV).toContain((0.8 + 1.5 * ec) / eta);
+    expect(weak.result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("flags a regime read from two CB peaks alone, the VB deciding", () => {
+    // The s doublet alone at (ε_s + Ec(n + ½))/η (closed form), the VB's first two peaks a
+    // charging doublet one Ec apart: the rules read shell filling from the VB.
+    const { assignment, result } = verdict(sV.map((v) => peak(v)), sV[1] + 0.1);
+    expect(assignment.regime).toBe("shell-filling");
+    expect(result.codes).toContain("two-cb-peaks");
+    expect(result.reasons).toContain(
+      "shell filling read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell",
+    );
+  });
+
   it("is decisive on a curve with no levels (nothing to compare)", () => {
     const peaks = [...sV, ...pV].map((v) => peak(v));
     const assignment = { ...assignSpectrum(peaks, { eta }), regime: "undetermined" as const, noLevels: { code: "faint-peaks" as const, reason: "faint" } };
-    expect(rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] })).toEqual({ decisive: true, reasons: [] });
+    expect(rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] })).toEqual({ decisive: true, reasons: [], codes: [] });
   });
 
   it("rejects an option out of range and a bias range that is not ascending, naming them", () => {
