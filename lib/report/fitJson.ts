@@ -26,6 +26,12 @@ export interface FitJson {
   converged: boolean;
   message: string;
   iterations: number;
+  /**
+   * The work of the whole fit and its limits: model evaluations used, the work budget
+   * (maxEvaluations, the same on every machine), the opt-in time limit (ms or null) and what cut
+   * the fit short ("budget", "time" or null). `--replay` re-runs with this budget.
+   */
+  work: CurveFit["work"];
   eta: number;
   /** Ec/η, V. */
   chargingEnergyV: number;
@@ -96,6 +102,7 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
     converged: fit.converged,
     message: fit.message,
     iterations: fit.iterations,
+    work: { ...fit.work },
     eta: fit.eta,
     chargingEnergyV: fit.chargingEnergyV.value,
     chargingEnergyVSE: fit.chargingEnergyV.standardError,
