@@ -28,7 +28,7 @@ import { shiftGrouping } from "./shiftGrouping.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
-export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
+export type { CurveFit, FitAlternative, FittedLevel, FittedValue, FitWork } from "./curveFit.ts";
 
 /** Options of {@link fitCurve}. */
 export interface FitOptions {
