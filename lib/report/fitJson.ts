@@ -141,7 +141,8 @@ export function formatFitText(fit: FitJson): string {
   const headline = fit.status === "good" ? "model fit: good" : fit.status === "poor" ? "model fit: POOR" : "NO FIT";
   lines.push(`${fit.source}  ·  ${headline}  ·  η = ${fit.eta} (held fixed)`);
   lines.push(`  ${fit.statusReasons.join("; ")}`);
-  lines.push(`  ${fit.message}; ${fit.iterations} iterations; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
+  const work = fit.work ? `; ${fit.work.evaluations.toLocaleString("en-US")} of ${fit.work.maxEvaluations.toLocaleString("en-US")} model evaluations (work budget)` : "";
+  lines.push(`  ${fit.message}; ${fit.iterations} iterations${work}; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
   if (fit.status === "failed") {
     // BIC compares only runs on the same points: the whole-curve runs where there are any.
     const whole = fit.alternatives.filter((a) => a.side === "both");
