@@ -7,6 +7,7 @@ import { readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { FIT_DEFAULTS } from "../../lib/index.ts";
 import { TIME_LIMIT_WARNING } from "../../lib/cli/commands/fit.ts";
+import { analyzeCurveFile } from "../../lib/cli/analyzeFile.ts";
 import { FILLING, removeTempDirs, run, tempDir, writeCurve } from "./harness.ts";
 
 afterAll(removeTempDirs);
@@ -75,4 +76,16 @@ describe("dotspec fit --max-evaluations N, and analyze --replay of its record", 
       expect(r.stderr).toContain("--max-evaluations");
     }
   }, 60_000);
+
+  it("an analysis' model comparison records its budget, and --replay re-runs it with that budget to the same numbers", async () => {
+    const { json } = analyzeCurveFile(filling, { analyze: { eta: 0.8 }, read: {}, compareModels: "all", maxEvaluations: 200 });
+    expect(json.modelComparison?.work).toEqual({ evaluations: 200, maxEvaluations: 200, timeLimitMs: null, stoppedBy: "budget" });
+    expect(json.modelComparison?.status).not.toBe("good");
+    // The record without the option as given: the replay still takes the budget from the record's work.
+    const path = join(dir, "comparison-budget.json");
+    writeFileSync(path, JSON.stringify({ ...json, provenance: { ...json.provenance, options: { ...json.provenance!.options, maxEvaluations: undefined } } }));
+    const replay = await run(["analyze", "--replay", path]);
+    expect(replay.stdout).toContain("the numbers match");
+    expect(replay.code).toBe(0);
+  }, 120_000);
 });
