@@ -173,9 +173,9 @@ export const FIT_DEFAULTS = Object.freeze({
  *     V, current in A, current noise in A), assignment and settings.
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
- *     maxEvaluations (default FIT_DEFAULTS.maxEvaluations); timeLimitMs (ms, opt-in); maxPoints (default 800); chargingEnergyGuessEV (eV, default
- *     0.1); compareModels (default false: compare only where the rules are not decisive).
- *     Defaults in {@link FIT_DEFAULTS}.
+ *     maxEvaluations (default 10,000); timeLimitMs (ms, default none); maxPoints (default 800);
+ *     chargingEnergyGuessEV (eV, default 0.1); compareModels (default false: compare only where
+ *     the rules are not decisive). Defaults in {@link FIT_DEFAULTS}.
  *
  * Returns
  * -------
@@ -190,8 +190,8 @@ export const FIT_DEFAULTS = Object.freeze({
  * ------
  * DotspecError
  *     `fit/no-levels` when the assignment gives no level to fit; `options/unknown-key`,
- *     `options/not-positive`, `options/not-finite`, `options/out-of-range` (η outside (0, 1])
- *     for a bad option.
+ *     `options/not-positive`, `options/not-finite`, `options/out-of-range` (η outside (0, 1]),
+ *     `options/not-integer` (maxEvaluations not a whole number ≥ 1) for a bad option.
  *
  * Notes
  * -----
