@@ -4,18 +4,19 @@
  * p whole or split, widths and noise drawn from its ranges), simulated with known truth, analysed,
  * then fitted with `fitCurve`. Reports, per regime of the true rate ratio (REGIME_LIMITS), how
  * often the fit names the right regime, recovers Ec within 3 % and Γtip/Γsub within × 1.5, the
- * statuses, and the time per fit (median and 90th percentile, after one warm-up fit), with a digest
+ * statuses, the model evaluations per fit (the work its budget counts), and the time per fit (median and 90th percentile, after one warm-up fit), with a digest
  * of every reported value (equal digests: no result moved by a bit).
  *
  *   npm run bench:fit                          # 60 spectra from seed 1, fast-model simulation
  *   npm run bench:fit -- --n 20 --seed 101 --compare-models --verbose
  *   npm run bench:fit -- --method exact        # simulate with the exact master equation
+ *   npm run bench:fit -- --max-evaluations 2000 # a smaller work budget (default FIT_DEFAULTS.maxEvaluations)
  */
 import { loadavg } from "node:os";
 import { simulateCurve } from "../lib/model/simulate.ts";
 import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRanges } from "../lib/model/syntheticSpectrum.ts";
 import { analyzeCurve } from "../lib/pipeline/analyzeCurve.ts";
-import { fitCurve } from "../lib/model/fit/fitCurve.ts";
+import { fitCurve, FIT_DEFAULTS } from "../lib/model/fit/fitCurve.ts";
 import { REGIME_LIMITS } from "../lib/model/regimeLimits.ts";
 
 const args = process.argv.slice(2);
@@ -28,6 +29,7 @@ const firstSeed = Number(arg("seed", "1"));
 const method = arg("method", "fast") as "exact" | "fast";
 const compareModels = args.includes("--compare-models");
 const verbose = args.includes("--verbose");
+const maxEvaluations = args.includes("--max-evaluations") ? Number(arg("max-evaluations", "")) : undefined;
 const ratioRange: [number, number] = [Number(arg("from", "0.2")), Number(arg("to", "5"))];
 
 const ranges: SyntheticRanges = { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: ratioRange } };
@@ -44,6 +46,10 @@ interface Row {
   /** Largest |Σ r|/√w of its residuals over a peak's width (residualStructure). */
   z: number;
   ms: number;
+  /** Model evaluations the fit asked for (all runs: the work its budget counts). */
+  evaluations: number;
+  /** What cut it short (FitWork.stoppedBy). */
+  stoppedBy: string | null;
   /** CPU time of the fit's thread (process.cpuUsage: user + system), ms: less sensitive to other jobs on the machine than the wall time. */
   cpuMs: number;
 }
@@ -65,7 +71,7 @@ const curveOf = (seed: number) => {
   return { analysis: analyzeCurve(curve, { eta: truth.eta }), truth };
 };
 // Warm-up (compilation), not timed.
-fitCurve(curveOf(firstSeed).analysis, { compareModels });
+fitCurve(curveOf(firstSeed).analysis, { compareModels, maxEvaluations });
 const started = performance.now();
 for (let k = 0; k < count; k++) {
   const seed = firstSeed + k;
@@ -74,9 +80,9 @@ for (let k = 0; k < count; k++) {
   const c0 = process.cpuUsage();
   let fit;
   try {
-    fit = fitCurve(analysis, { compareModels });
+    fit = fitCurve(analysis, { compareModels, maxEvaluations });
   } catch (err) {
-    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", chi: NaN, z: NaN, ms: performance.now() - t0, cpuMs: cpuSince(c0) });
+    rows.push({ regime: truthRegime(truth.rateRatio), regimeRight: false, ecWithin: false, ratioWithin: false, status: "no levels", chi: NaN, z: NaN, evaluations: 0, stoppedBy: null, ms: performance.now() - t0, cpuMs: cpuSince(c0) });
     fold(`${seed}|no levels;`);
     continue;
   }
@@ -93,6 +99,8 @@ for (let k = 0; k < count; k++) {
     status: fit.status,
     chi: fit.reducedChiSquare,
     z: fit.residualStructure.largestZ,
+    evaluations: fit.work.evaluations,
+    stoppedBy: fit.work.stoppedBy,
     ms,
     cpuMs,
   };
@@ -129,6 +137,12 @@ lines.push(`reduced χ², all three right: ${chiQuantiles(rows.filter(right))}; 
 lines.push(`residual structure (σ), all three right: ${chiQuantiles(rows.filter(right), "z")}; the rest: ${chiQuantiles(rows.filter((r) => !right(r)), "z")}`);
 const statusesOf = (set: Row[]) => ["good", "poor", "failed"].map((s) => `${s} ${set.filter((r) => r.status === s).length}`).join(", ");
 lines.push(`status, all three right: ${statusesOf(rows.filter(right))}; the rest: ${statusesOf(rows.filter((r) => !right(r)))}`);
+const work = rows.map((r) => r.evaluations).sort((a, b) => a - b);
+const qw = (p: number) => work[Math.min(work.length - 1, Math.floor(p * work.length))];
+lines.push(
+  `model evaluations per fit (the work budget counts them): median ${qw(0.5)}, 90th percentile ${qw(0.9)}, 99th percentile ${qw(0.99)}, max ${work[work.length - 1]}; ` +
+    `budget ${maxEvaluations ?? FIT_DEFAULTS.maxEvaluations}, cut short by it ${rows.filter((r) => r.stoppedBy === "budget").length}, by a time limit ${rows.filter((r) => r.stoppedBy === "time").length}`,
+);
 const times = rows.map((r) => r.ms).sort((a, b) => a - b);
 const q = (p: number) => times[Math.min(times.length - 1, Math.floor(p * times.length))];
 const cpu = rows.map((r) => r.cpuMs).sort((a, b) => a - b);

@@ -104,7 +104,7 @@ export type { CurveFigureOptions } from "./report/curveFigure.ts";
 export type { ModelCurve, ModelFigureOptions } from "./report/modelFigure.ts";
 
 // Model fit.
-export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type LevelSeed, type ResidualStructure } from "./model/fit/index.ts";
+export { fitCurve, fitStart, FIT_DEFAULTS, type CurveFit, type FitAlternative, type FitOptions, type FitStart, type FittedLevel, type FittedValue, type FitWork, type LevelSeed, type ResidualStructure } from "./model/fit/index.ts";
 export { startingScenario, STARTING_SCENARIO_DEFAULTS, type StartingScenarioOptions } from "./model/startingScenario.ts";
 export { fittedScenario, type FittedScenarioOptions } from "./model/fittedScenario.ts";
 export { fitToJson, formatFitText, type FitJson } from "./report/fitJson.ts";

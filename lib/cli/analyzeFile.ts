@@ -79,10 +79,14 @@ export const ANALYZE_OUTPUT = Object.freeze({
 /** The reason of a failure (the library's, shared with the notebooks). */
 export { failureReason };
 
-/** The warning of a model comparison stopped by the fit's wall-clock limit. */
+/**
+ * The warning of a model comparison stopped by a wall-clock limit. The comparison runs with no
+ * time limit (only its work budget, the same on every machine), so this appears only where a
+ * caller asked for one (`RecordedOptions.timeLimitMs`).
+ */
 export const COMPARISON_TIME_LIMIT_WARNING =
   "the model comparison stopped at the fit's time limit, so where it stopped depends on this machine's speed and load: the numbers may differ on another run; " +
-  "`dotspec fit --compare-models --time-limit-ms …` on this file gives a result that is the same on every machine";
+  "without a time limit it stops at convergence or at its work budget, the same on every machine";
 
 /** The options as given, recorded in a record's provenance (and read back by `--replay`). */
 export interface RecordedOptions {
@@ -95,6 +99,10 @@ export interface RecordedOptions {
    * the rules are not decisive ("undecided", `rulesDecisive`) or to every curve ("all"); absent: no fit.
    */
   compareModels?: CompareModelsScope;
+  /** Work budget of the comparison's fit, model evaluations (FitOptions.maxEvaluations). Default: FIT_DEFAULTS.maxEvaluations; `--replay` gives the recorded one. */
+  maxEvaluations?: number;
+  /** Opt-in wall-clock limit of the comparison's fit, ms (machine-dependent). Default: none. */
+  timeLimitMs?: number;
 }
 
 /** One file read and analysed, with its JSON record. */
@@ -126,13 +134,14 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   const scope = options.compareModels;
   const ranBecause = scope ? compareModelsReasons(analysis, scope) : null;
   if (scope && ranBecause) {
-    // The comparison of every grouping of the peaks; a fit stopped by its wall-clock limit says
-    // so (where it stopped depends on the machine).
+    // The comparison of every grouping of the peaks, within its work budget; a fit stopped by a
+    // wall-clock limit asked for says so (where it stopped depends on the machine).
     let comparison;
     try {
-      const fit = fitCurve(analysis, { compareModels: true });
+      const limits = { ...(options.maxEvaluations !== undefined ? { maxEvaluations: options.maxEvaluations } : {}), ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}) };
+      const fit = fitCurve(analysis, { compareModels: true, ...limits });
       comparison = modelComparisonJson(fitToJson(fit, json), scope, { ranBecause, rules: { regime: json.regime, chargingEnergyEV: analysis.assignment.energies.chargingEnergyEV } });
-      if (/time limit/.test(fit.message)) comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
+      if (fit.work.stoppedBy === "time") comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
     } catch (err) {
       // A curve the fit cannot start on (no multiplet to fit) keeps its analysis; the comparison says why.
       if (!isDotspecError(err)) throw err;
@@ -156,7 +165,8 @@ function failedProvenance(file: string, options: RecordedOptions, command: strin
 
 /** The options as a provenance records them: analysis, import and, when given, --compare-models (no other keys). */
 function recordedOf(options: RecordedOptions): Record<string, unknown> {
-  return { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}) };
+  const limits = { ...(options.maxEvaluations !== undefined ? { maxEvaluations: options.maxEvaluations } : {}), ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}) };
+  return { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}), ...limits };
 }
 
 /**

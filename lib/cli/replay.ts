@@ -1,10 +1,11 @@
 /**
- * `dotspec analyze --replay RECORD.json`: runs a recorded analysis again, on the recorded file
- * with the recorded options, and says whether the numbers match.
+ * `dotspec analyze --replay RECORD.json`: runs a recorded analysis (or model fit) again, on the
+ * recorded file with the recorded options, and says whether the numbers match.
  */
 import { existsSync } from "node:fs";
 import { DOTSPEC_VERSION, failureReason, isDotspecError, readJsonFile, type AnalyzeOptions, type ReadCurveOptions } from "../index.ts";
 import { analyzeCurveFile } from "./analyzeFile.ts";
+import { fitCurveFile } from "./commands/fit.ts";
 import { cliOptionNames } from "./cliOptionNames.ts";
 import { EXIT, type CliContext } from "./context.ts";
 
@@ -55,8 +56,16 @@ export function compareRecords(recorded: unknown, replayed: unknown): { compared
 /** The recorded provenance, checked enough to replay. */
 interface ReplayableProvenance {
   version: string;
+  /** "fit" for a record of `dotspec fit`; otherwise an analysis. */
+  command?: string;
   input: { name: string; bytes: number; sha256: string };
-  options: { analyze: AnalyzeOptions; read: ReadCurveOptions; compareModels?: unknown };
+  options: { analyze: AnalyzeOptions; read: ReadCurveOptions; compareModels?: unknown; fit?: Record<string, unknown>; maxEvaluations?: unknown; timeLimitMs?: unknown };
+}
+
+/** The work budget a record's fit ran with (its `work.maxEvaluations`), to re-run it with the same; undefined when not recorded. */
+function recordedBudget(work: unknown): number | undefined {
+  const n = (work as { maxEvaluations?: unknown } | null | undefined)?.maxEvaluations;
+  return typeof n === "number" && Number.isInteger(n) && n >= 1 ? n : undefined;
 }
 
 function replayable(record: unknown): ReplayableProvenance | null {
@@ -72,7 +81,7 @@ function replayable(record: unknown): ReplayableProvenance | null {
  * Parameters
  * ----------
  * recordPath : string
- *     A JSON record of `analyze --out`, or the array of `analyze --json`.
+ *     A JSON record of `analyze --out` or `fit --out`, or the array of `analyze --json` or `fit --json`.
  * ctx : CliContext
  *     Streams: one line per record on stdout, problems on stderr.
  *
@@ -88,7 +97,11 @@ function replayable(record: unknown): ReplayableProvenance | null {
  *    its SHA-256 is compared with the recorded one first (a change is reported, and the numbers
  *    are compared all the same).
  * 2. The analysis runs with the recorded options (`provenance.options`), exactly as the batch
- *    did: η from the options or from the file's own `# eta:` line.
+ *    did: η from the options or from the file's own `# eta:` line. A fit (a record of `dotspec
+ *    fit`, or an analysis' model comparison) runs with the work budget the record names
+ *    (`work.maxEvaluations`), so a fit cut short by its budget stops at the same point even where
+ *    the default budget has changed since; a time limit, if one was asked for, is machine-dependent
+ *    and may not give the same numbers.
  * 3. Every value of the new record except its provenance is compared with the recorded one
  *    exactly (the analysis is deterministic); the first differences are listed with both values.
  */
@@ -119,9 +132,17 @@ export async function runReplay(recordPath: string, ctx: CliContext): Promise<nu
     }
     let replayed;
     try {
-      const scope = p.options.compareModels;
-      const compareModels = scope === "undecided" || scope === "all" ? { compareModels: scope as "undecided" | "all" } : {};
-      replayed = analyzeCurveFile(file, { analyze: p.options.analyze, read: p.options.read, ...compareModels }).json;
+      const r = record as { work?: unknown; modelComparison?: { work?: unknown } };
+      if (p.command === "fit") {
+        const budget = recordedBudget(r.work);
+        replayed = fitCurveFile(file, { analyze: p.options.analyze, read: p.options.read, fit: { ...(p.options.fit ?? {}), ...(budget !== undefined ? { maxEvaluations: budget } : {}) } }).json;
+      } else {
+        const scope = p.options.compareModels;
+        const compareModels = scope === "undecided" || scope === "all" ? { compareModels: scope as "undecided" | "all" } : {};
+        const budget = recordedBudget(r.modelComparison?.work) ?? (typeof p.options.maxEvaluations === "number" ? p.options.maxEvaluations : undefined);
+        const timeLimit = typeof p.options.timeLimitMs === "number" ? { timeLimitMs: p.options.timeLimitMs } : {};
+        replayed = analyzeCurveFile(file, { analyze: p.options.analyze, read: p.options.read, ...compareModels, ...(budget !== undefined ? { maxEvaluations: budget } : {}), ...timeLimit }).json;
+      }
     } catch (err) {
       ctx.error(`${label}: ${file}: ${cliOptionNames(failureReason(file, err))}`);
       bad++;

@@ -26,6 +26,12 @@ export interface FitJson {
   converged: boolean;
   message: string;
   iterations: number;
+  /**
+   * The work of the whole fit and its limits: model evaluations used, the work budget
+   * (maxEvaluations, the same on every machine), the opt-in time limit (ms or null) and what cut
+   * the fit short ("budget", "time" or null). `--replay` re-runs with this budget.
+   */
+  work: CurveFit["work"];
   eta: number;
   /** Ec/η, V. */
   chargingEnergyV: number;
@@ -96,6 +102,7 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
     converged: fit.converged,
     message: fit.message,
     iterations: fit.iterations,
+    work: { ...fit.work },
     eta: fit.eta,
     chargingEnergyV: fit.chargingEnergyV.value,
     chargingEnergyVSE: fit.chargingEnergyV.standardError,
@@ -134,7 +141,8 @@ export function formatFitText(fit: FitJson): string {
   const headline = fit.status === "good" ? "model fit: good" : fit.status === "poor" ? "model fit: POOR" : "NO FIT";
   lines.push(`${fit.source}  ·  ${headline}  ·  η = ${fit.eta} (held fixed)`);
   lines.push(`  ${fit.statusReasons.join("; ")}`);
-  lines.push(`  ${fit.message}; ${fit.iterations} iterations; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
+  const work = fit.work ? `; ${fit.work.evaluations.toLocaleString("en-US")} of ${fit.work.maxEvaluations.toLocaleString("en-US")} model evaluations (work budget)` : "";
+  lines.push(`  ${fit.message}; ${fit.iterations} iterations${work}; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);
   if (fit.status === "failed") {
     // BIC compares only runs on the same points: the whole-curve runs where there are any.
     const whole = fit.alternatives.filter((a) => a.side === "both");

@@ -34,6 +34,8 @@ export interface ModelComparisonJson {
   rateRatio: FittedValue | null;
   /** Reduced χ² of the fit (null when it could not run). */
   reducedChiSquare: number | null;
+  /** The fit's work and its limits (FitJson.work: the budget `--replay` re-runs with); absent when the fit could not run, and in records written before this field existed. */
+  work?: FitJson["work"];
   warnings: string[];
   /**
    * Why the comparison ran, in words: the features that leave the rules' reading open
@@ -93,6 +95,7 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope, con
     quantities: fit.quantities,
     rateRatio: { value: fit.rateRatio, standardError: fit.rateRatioSE },
     reducedChiSquare: fit.reducedChiSquare,
+    work: { ...fit.work },
     warnings: fit.warnings,
   };
   return context ? { ...record, ranBecause: context.ranBecause, ...comparisonDecision(record, context.rules) } : record;

@@ -67,7 +67,8 @@ Output:
                 the BIC weight of its answer ≥ 0.9 instead of the rules). Slow: about
                 0.3–2 s per curve fitted
   --replay R    re-run the analysis recorded in R (a JSON record or array of records) on the
-                recorded file with the recorded options, and say whether the numbers match
+                recorded file with the recorded options, and say whether the numbers match;
+                a record of dotspec fit is re-fitted, with the work budget it names
 
 Every file is written under a temporary name and renamed into place, so an interrupted run
 leaves no half-written file. The run ends with one line on stderr: done, failed, warnings.

@@ -14,6 +14,10 @@ import {
   writeTextFile,
   FIT_DEFAULTS,
   type AnalyzeOptions,
+  type CurveAnalysis,
+  type CurveFit,
+  type FitOptions,
+  type ReadCurveOptions,
   type FitJson,
   type ModelFigureRenderer,
   type Provenance,
@@ -33,6 +37,7 @@ export interface FitCliOptions extends CurveCliOptions {
   json?: boolean;
   out?: string;
   timeLimitMs?: number;
+  maxEvaluations?: number;
   maxIterations?: number;
   compareModels?: boolean;
   force?: boolean;
@@ -52,7 +57,13 @@ charging ladders with p whole, 2+4 or 2+2+2 read in filling order or entered fro
 the best few are fitted to the whole curve, checked for plausibility (Ec against the gap, level
 order, degeneracies) and the lowest BIC wins (JSON: "alternatives", "evidence"). The regime follows
 the fitted Γtip/Γsub and its error: shell filling, shell tunnelling, intermediate, or undetermined. The peak-based result is always included in the
-JSON output (field "peakBased"). The fit stops at --time-limit-ms in any case.
+JSON output (field "peakBased").
+
+Each fit has a work budget, --max-evaluations model evaluations over all its starts and
+hypotheses: where it is reached the fit stops at the same point on every machine, says so (JSON
+"work": evaluations used, the budget, what stopped it) and its status is at best poor. The default
+cuts none of the benchmark's fits. --time-limit-ms adds a wall-clock limit (off by default): where
+it stops then depends on the machine and its load, and the record warns so.
 
 The fitted rate ratio is a property of the recorded curve, not an instrument setting; any change
 to the tip height or setpoint it suggests must be checked against the instrument's own limits.
@@ -78,8 +89,13 @@ export const fitCommand: CliCommand = {
       .option("--out <DIR>", "write DIR/<name>.fit.json and DIR/<name>.fit.svg (curve, fitted model, residuals) per file")
       .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
       .option(
+        "--max-evaluations <n>",
+        `work budget of each fit: most model evaluations over all its runs, the same on every machine (default: ${FIT_DEFAULTS.maxEvaluations})`,
+        numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }),
+      )
+      .option(
         "--time-limit-ms <ms>",
-        `stop each fit after this long (default: ${FIT_DEFAULTS.timeLimitMs})`,
+        "also stop each fit after this long (off by default; where it stops then depends on the machine and its load)",
         numberOption({ min: 0, minExclusive: true, accepted: "a time in milliseconds greater than 0" }),
       )
       .option(
@@ -98,10 +114,46 @@ export const fitCommand: CliCommand = {
 /** A fit's JSON record with its provenance (the same shape analyze records carry). */
 export type FitRecord = FitJson & { provenance: Provenance };
 
-/** The warning of a fit stopped by its time limit: where it stopped depends on the machine. */
+/** The warning of a fit stopped by the time limit asked for: where it stopped depends on the machine. */
 export const TIME_LIMIT_WARNING =
   "the fit stopped at its time limit, so where it stopped depends on this machine's speed and load: the numbers may differ on another run; " +
-  "give a larger --time-limit-ms (the fit then stops at convergence or --max-iterations, the same on every machine)";
+  "leave out --time-limit-ms (the fit then stops at convergence or at its work budget, --max-evaluations, the same on every machine)";
+
+/**
+ * Reads, analyses and fits one file and makes its record, as `dotspec fit` does (and `--replay`
+ * again): the fit's record with the peak-based one inside and the provenance (the options as given).
+ *
+ * Parameters
+ * ----------
+ * file : string
+ *     The curve file.
+ * options : { analyze: AnalyzeOptions; read: ReadCurveOptions; fit: FitOptions }
+ *     Analysis, importer and fit options as given (recorded in the provenance).
+ *
+ * Returns
+ * -------
+ * { analysis, fit, json, provenance }
+ *     The analysis, the fit (a time-limit warning added when the time limit asked for stopped it),
+ *     its record and the provenance.
+ *
+ * Throws
+ * ------
+ * What reading, analysing or fitting the file throws (DotspecError).
+ *
+ * Example
+ * -------
+ * ```ts
+ * fitCurveFile("dot-07.csv", { analyze: { eta: 0.85 }, read: {}, fit: {} }).json.work.stoppedBy; // => null
+ * ```
+ */
+export function fitCurveFile(file: string, options: { analyze: AnalyzeOptions; read: ReadCurveOptions; fit: FitOptions }): { analysis: CurveAnalysis; fit: CurveFit; json: FitRecord; provenance: Provenance } {
+  const { analyze, read, fit: fitOptions } = options;
+  const { analysis, json: peakBased } = analyzeCurveFile(file, { analyze, read }, "fit");
+  const fit = fitCurve(analysis, fitOptions);
+  if (fit.work.stoppedBy === "time") fit.warnings.push(TIME_LIMIT_WARNING);
+  const provenance = makeProvenance("fit", peakBased.provenance?.input ?? null, { analyze, read, fit: fitOptions });
+  return { analysis, fit, json: { ...fitToJson(fit, peakBased), provenance }, provenance };
+}
 
 /**
  * Runs `dotspec fit`: 0 when every file was fitted (converged or not: a non-converged fit is
@@ -114,7 +166,9 @@ export const TIME_LIMIT_WARNING =
  *    record with the file's metadata, notes and provenance), then fitted.
  * 2. The fit's record, and its figure, carry the provenance: tool version, command, the input's
  *    name, size and SHA-256, and the options as given (analysis, import and fit options).
- * 3. A fit stopped by its wall-clock limit gets a warning (its result depends on the machine).
+ * 3. A fit stopped by the wall-clock limit asked for (--time-limit-ms) gets a warning (its result
+ *    depends on the machine); one stopped by its work budget (--max-evaluations) says so in the
+ *    fit's own warning and `work` (the same on every machine).
  * 4. The run ends with the count line on stderr (done, failed, warnings), as analyze does.
  */
 export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContext): Promise<number> {
@@ -139,17 +193,14 @@ export async function runFit(args: string[], opts: FitCliOptions, ctx: CliContex
   const analyze: AnalyzeOptions = opts.eta === undefined ? {} : { eta: opts.eta };
   const read = readOptions(opts);
   const fitOptions = {
+    ...(opts.maxEvaluations !== undefined ? { maxEvaluations: opts.maxEvaluations } : {}),
     ...(opts.timeLimitMs !== undefined ? { timeLimitMs: opts.timeLimitMs } : {}),
     ...(opts.maxIterations !== undefined ? { maxIterations: opts.maxIterations } : {}),
     ...(opts.compareModels ? { compareModels: true } : {}),
   };
   for (const file of files) {
     try {
-      const { analysis, json: peakBased } = analyzeCurveFile(file, { analyze, read }, "fit");
-      const fit = fitCurve(analysis, fitOptions);
-      if (/time limit/.test(fit.message)) fit.warnings.push(TIME_LIMIT_WARNING);
-      const provenance = makeProvenance("fit", peakBased.provenance?.input ?? null, { analyze, read, fit: fitOptions });
-      const json: FitRecord = { ...fitToJson(fit, peakBased), provenance };
+      const { analysis, fit, json, provenance } = fitCurveFile(file, { analyze, read, fit: fitOptions });
       records.push(json);
       if (opts.out) {
         figure ??= await loadModelFigure();

@@ -64,13 +64,27 @@ export interface FitAlternative {
   weight: number;
 }
 
+/** The work a fit did and its limits ({@link fitCurve}). */
+export interface FitWork {
+  /** Model evaluations the Levenberg–Marquardt iterations of all runs asked for. */
+  evaluations: number;
+  /** The work budget: most model evaluations of the whole fit. */
+  maxEvaluations: number;
+  /** The wall-clock limit asked for, ms (machine-dependent); null: none. */
+  timeLimitMs: number | null;
+  /** What cut a run short: the budget (the same on every machine), the time limit, or nothing (null). */
+  stoppedBy: "budget" | "time" | null;
+}
+
 /** Result of {@link fitCurve}. */
 export interface CurveFit {
   source: string;
   converged: boolean;
-  /** Why the fit stopped. */
+  /** Why the run reported stopped. */
   message: string;
   iterations: number;
+  /** The work of the whole fit (all runs) and its limits; a fit cut short is at best poor. */
+  work: FitWork;
   eta: number;
   /**
    * "good" (the model describes the curve and Ec and Γtip/Γsub are determined), "poor" (it

@@ -5,7 +5,7 @@
  */
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
-import { checkEta, checkKnownKeys, checkPositive } from "../../util/check.ts";
+import { checkEta, checkInteger, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
@@ -17,7 +17,7 @@ import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.
 import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
-import { groupingRegime, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
+import { fitAlternative, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
 import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
@@ -28,7 +28,7 @@ import { shiftGrouping } from "./shiftGrouping.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
-export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
+export type { CurveFit, FitAlternative, FittedLevel, FittedValue, FitWork } from "./curveFit.ts";
 
 /** Options of {@link fitCurve}. */
 export interface FitOptions {
@@ -38,7 +38,13 @@ export interface FitOptions {
   temperatureK?: number;
   /** Most Levenberg–Marquardt iterations. Default: FIT_DEFAULTS.maxIterations (60). */
   maxIterations?: number;
-  /** Wall-clock limit in ms; the fit stops and reports non-convergence after it. Default: FIT_DEFAULTS.timeLimitMs (5000). */
+  /**
+   * The work budget: most model evaluations of the whole fit (all starts and hypotheses); where it
+   * is reached the fit stops the same way on every machine, says so, and is at best poor.
+   * Default: FIT_DEFAULTS.maxEvaluations.
+   */
+  maxEvaluations?: number;
+  /** Opt-in wall-clock limit in ms: where it stops the fit depends on the machine and its load. Default: none. */
   timeLimitMs?: number;
   /** Most data points used (the curve is thinned evenly beyond this). Default: FIT_DEFAULTS.maxPoints (800). */
   maxPoints?: number;
@@ -58,7 +64,12 @@ export interface FitOptions {
 export const FIT_DEFAULTS = Object.freeze({
   temperatureK: 4.5,
   maxIterations: 60,
-  timeLimitMs: 5000,
+  /**
+   * Work budget of one fit: model evaluations of all runs together. On `npm run bench:fit` (seeds
+   * 1–60, 501–560, 1001–1060, 2001–2060, and 1–30 and 1001–1060 with every hypothesis) fits asked
+   * for 1,257–1,506 at the median and 2,604 at most: 10,000 cuts none of them (margin × 3.8).
+   */
+  maxEvaluations: 10_000,
   maxPoints: 800,
   chargingEnergyGuessEV: 0.1,
   /** Relative χ² improvement over one chunk of iterations below which the fit has converged. */
@@ -162,9 +173,9 @@ export const FIT_DEFAULTS = Object.freeze({
  *     V, current in A, current noise in A), assignment and settings.
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
- *     timeLimitMs (ms, default 5000); maxPoints (default 800); chargingEnergyGuessEV (eV, default
- *     0.1); compareModels (default false: compare only where the rules are not decisive).
- *     Defaults in {@link FIT_DEFAULTS}.
+ *     maxEvaluations (default 10,000); timeLimitMs (ms, default none); maxPoints (default 800);
+ *     chargingEnergyGuessEV (eV, default 0.1); compareModels (default false: compare only where
+ *     the rules are not decisive). Defaults in {@link FIT_DEFAULTS}.
  *
  * Returns
  * -------
@@ -179,8 +190,8 @@ export const FIT_DEFAULTS = Object.freeze({
  * ------
  * DotspecError
  *     `fit/no-levels` when the assignment gives no level to fit; `options/unknown-key`,
- *     `options/not-positive`, `options/not-finite`, `options/out-of-range` (η outside (0, 1])
- *     for a bad option.
+ *     `options/not-positive`, `options/not-finite`, `options/out-of-range` (η outside (0, 1]),
+ *     `options/not-integer` (maxEvaluations not a whole number ≥ 1) for a bad option.
  *
  * Notes
  * -----
@@ -195,7 +206,9 @@ export const FIT_DEFAULTS = Object.freeze({
  *    evaluation (variable projection); Levenberg–Marquardt adjusts the level energies, Ec,
  *    log₁₀(Γtip/Γsub) and the broadening on residuals scaled by the current noise.
  * 3. Iterations ({@link levenbergMarquardtLoop}): stops when χ² improves by less than 1e-5 (relative) over 4 iterations, after maxIterations,
- *    or after timeLimitMs (then `converged` is false and the message says why).
+ *    or when the fit's work budget (maxEvaluations model evaluations over all runs) or the opt-in
+ *    timeLimitMs is spent (then later runs keep their starts, `work.stoppedBy` says which, a
+ *    warning says so and the status is at best poor).
  * 4. Standard errors ({@link standardErrors}) from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
  *    reduced χ² when the model does not reach the noise).
@@ -269,12 +282,13 @@ export const FIT_DEFAULTS = Object.freeze({
  * ```
  */
 export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): CurveFit {
-  checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV", "compareModels"]);
+  checkKnownKeys("fit options", options, ["eta", "temperatureK", "maxIterations", "maxEvaluations", "timeLimitMs", "maxPoints", "chargingEnergyGuessEV", "compareModels"]);
   const F = FIT_DEFAULTS;
   const eta = options.eta === undefined ? analysis.assignment.energies.eta : checkEta("eta", options.eta);
   const temperatureK = checkPositive("temperatureK", options.temperatureK ?? F.temperatureK);
   const maxIterations = checkPositive("maxIterations", options.maxIterations ?? F.maxIterations);
-  const timeLimitMs = checkPositive("timeLimitMs", options.timeLimitMs ?? F.timeLimitMs);
+  const maxEvaluations = checkInteger("maxEvaluations", options.maxEvaluations ?? F.maxEvaluations, 1);
+  const timeLimitMs = options.timeLimitMs === undefined ? null : checkPositive("timeLimitMs", options.timeLimitMs);
   const maxPoints = checkPositive("maxPoints", options.maxPoints ?? F.maxPoints);
   const compareModels = options.compareModels ?? F.compareModels;
   const guessEC = options.chargingEnergyGuessEV ?? F.chargingEnergyGuessEV;
@@ -292,8 +306,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // (bias > 0) alone for comparing groupings of the CB peaks. Band solutions are shared by every
   // run: hypotheses that share a band's levels, and the runs of one hypothesis (explored,
   // finished, fitted to the whole curve), solve it once.
-  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance });
-  const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced } = runner;
+  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, maxEvaluations, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance });
+  const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced, work } = runner;
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
   // describe the curve, or the rules left the regime undetermined (or when asked to compare),
@@ -502,6 +516,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const at = parameterIndex(seeds.length);
   const { parameters: params, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
+  const { evaluations, stoppedBy } = work();
+  const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${maxEvaluations} model evaluations (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
+  if (cutShort) warnings.push(cutShort);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
@@ -532,6 +549,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     atBound: [...plausibilityInput(best).atBound],
     residualStructure: structure,
     peakChargingEnergy: peakEc,
+    cutShort,
   });
   if (peakEc && verdict.regime === "shell-tunneling") {
     warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(peakEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
@@ -550,29 +568,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     converged,
     message,
     iterations,
+    work: { evaluations, maxEvaluations, timeLimitMs, stoppedBy },
     eta,
     status: failed ? "failed" : status.status,
     statusReasons: status.reasons,
     hypothesis: hypothesis.name,
     evidence,
-    alternatives: trials.map((t) => {
-      const k = finalists.indexOf(t);
-      return {
-        hypothesis: t.hypothesis.name,
-        regime: groupingRegime(t),
-        levels: t.hypothesis.seeds.length,
-        cbDegeneracies: t.hypothesis.cbDegeneracies,
-        rateRatioStart: t.rateRatio0,
-        rateRatio: 10 ** t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).logRateRatio],
-        chargingEnergyEV: t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy],
-        reducedChiSquare: t.loop.chiSquare / Math.max(1, t.n - t.k),
-        side: t.side,
-        bic: t.bic,
-        finished: t.finished,
-        implausible: k >= 0 ? implausibleOf(t) : t.implausible,
-        weight: k >= 0 ? weights[k] : 0,
-      };
-    }),
+    alternatives: trials.map((t) => (finalists.includes(t) ? fitAlternative(t, weights[finalists.indexOf(t)], implausibleOf(t)) : fitAlternative(t, 0, t.implausible))),
     levels: seeds.map((s, j) => ({
       band: s.band,
       label: s.label,

@@ -20,8 +20,10 @@ export interface FitRunnerSettings {
   temperatureK: number;
   /** Most data points (the curve is thinned evenly beyond this). No default: fitCurve's. */
   maxPoints: number;
-  /** Wall-clock limit of all runs together, ms, counted from the call of fitRunner. No default. */
-  timeLimitMs: number;
+  /** Most model evaluations of all runs together (the work budget). No default: fitCurve's. */
+  maxEvaluations: number;
+  /** Wall-clock limit of all runs together, ms, counted from the call of fitRunner; null: none. No default: fitCurve's. */
+  timeLimitMs: number | null;
   /** Iterations that count as the full budget (a run with as many is `finished`). No default. */
   maxIterations: number;
   /** Starting charging energy where the peaks do not give one, eV. No default: fitCurve's. */
@@ -51,6 +53,8 @@ export interface FitRunner {
   bandStore: BandStepsStore;
   /** Reduced χ² of a run, χ²/(n − k). */
   reduced: (t: FitTrial) => number;
+  /** Model evaluations of all runs so far, and what first cut a run short (null: nothing yet). */
+  work: () => { evaluations: number; stoppedBy: "budget" | "time" | null };
 }
 
 /**
@@ -61,14 +65,15 @@ export interface FitRunner {
  * analysis : CurveAnalysis
  *     The peak-based analysis: its conductance record (bias in V, current in A, noise in A).
  * settings : FitRunnerSettings
- *     η, temperature (K), point limit, time limit (ms), iteration budget, Ec guess (eV), chunk
- *     size and convergence tolerance.
+ *     η, temperature (K), point limit, work budget (model evaluations), time limit (ms or null),
+ *     iteration budget, Ec guess (eV), chunk size and convergence tolerance.
  *
  * Returns
  * -------
  * FitRunner
  *     The whole curve and its CB side (every stride-th point, stride = ⌈points / maxPoints⌉), the
- *     noise σ (A), the run function, the projector per set, the shared band store and the reduced χ².
+ *     noise σ (A), the run function, the projector per set, the shared band store, the reduced χ²
+ *     and the work done.
  *
  * Throws
  * ------
@@ -81,6 +86,10 @@ export interface FitRunner {
  *    given) or from `from`; the parameters at `held` stay at their start: the Levenberg–Marquardt
  *    loop sees only the free ones, and k (for the BIC) counts only those and the four linear ones.
  * 3. The model is evaluated once per parameter vector (the loop asks for it point by point).
+ * 4. The runs share one work budget: each run's loop may ask for the evaluations left of
+ *    maxEvaluations, so the whole fit asks for at most maxEvaluations; once it is spent, later
+ *    runs return their start (stoppedBy "budget"). The same on every machine, unlike the
+ *    optional time limit.
  *
  * Example
  * -------
@@ -90,7 +99,7 @@ export interface FitRunner {
  * ```
  */
 export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings): FitRunner {
-  const { eta, temperatureK, maxPoints, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC } = settings;
+  const { eta, temperatureK, maxPoints, maxEvaluations, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC } = settings;
   const sig = analysis.conductance;
   const stride = Math.max(1, Math.ceil(sig.biasV.length / maxPoints));
   const noiseA = Math.max(sig.record.noiseCurrentA, Number.MIN_VALUE);
@@ -103,6 +112,8 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
   const all = pointsOf(() => true);
   const cbSide = pointsOf((v) => v > 0);
   const started = Date.now();
+  let evaluations = 0;
+  let stoppedBy: "budget" | "time" | null = null;
   const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
   const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
   const bandStore = bandStepsStore();
@@ -139,10 +150,15 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
       maxValues: pick(start.maxValues),
       gradientDifference: pick(start.gradientDifference),
       maxIterations: iterations,
-      timeLimitMs: Math.max(1, timeLimitMs - (Date.now() - started)),
+      maxEvaluations: maxEvaluations - evaluations,
+      timeLimitMs: timeLimitMs === null ? null : Math.max(1, timeLimitMs - (Date.now() - started)),
       chunkIterations: settings.chunkIterations,
       convergenceTolerance: settings.convergenceTolerance,
     });
+    evaluations += loop.evaluations;
+    if (loop.stoppedBy === "budget" || loop.stoppedBy === "time") stoppedBy ??= loop.stoppedBy;
+    if (loop.stoppedBy === "budget") loop.message = `stopped at the fit's work budget of ${maxEvaluations} model evaluations (all runs together)`;
+    if (loop.stoppedBy === "time") loop.message = `stopped at the fit's time limit of ${timeLimitMs} ms (all runs together)`;
     const parameters = expand(loop.parameters);
     // k: the free nonlinear parameters and the four linear ones (scale, offset, b1, b3).
     const k = free.length + 4;
@@ -162,5 +178,5 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     };
   };
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  return { all, cbSide, noiseA, run, projectorOf, bandStore, reduced };
+  return { all, cbSide, noiseA, run, projectorOf, bandStore, reduced, work: () => ({ evaluations, stoppedBy }) };
 }

@@ -60,6 +60,12 @@ export interface FitStatusInput {
   residualStructure?: ResidualStructure;
   /** The peak-based Ec and its 1σ in eV (the rules read shell filling); absent or null: none to compare with. Compared only when the fitted regime reads a charging ladder too (shell filling or intermediate). */
   peakChargingEnergy?: { valueEV: number; standardErrorEV: number } | null;
+  /**
+   * Why the fit was cut short before it converged (its work budget or time limit reached); absent
+   * or null: it was not. A fit cut short is at best poor: its runs did not all finish, so a better
+   * fit or hypothesis may have been missed.
+   */
+  cutShort?: string | null;
 }
 
 /**
@@ -70,7 +76,7 @@ export interface FitStatusInput {
  * input : FitStatusInput
  *     Reduced χ², fitted regime, Ec (eV) and its 1σ, the 1σ of log₁₀ Γtip/Γsub, the key
  *     parameters at a bound; optionally the residuals' most structured window and the peak-based
- *     Ec (eV, with its 1σ).
+ *     Ec (eV, with its 1σ) and why the fit was cut short.
  *
  * Returns
  * -------
@@ -84,7 +90,8 @@ export interface FitStatusInput {
  *    the rate ratio uncertain by more than 0.3 (a factor 2), or residuals with structure (the
  *    largest |Σ r|/√w over a peak's width above poorResidualZ, 5), or, where the rules and the
  *    fit both read a charging ladder, Ec more than poorChargingSigmas (5) combined standard
- *    errors from the peak-based Ec.
+ *    errors from the peak-based Ec, or the fit was cut short (`cutShort`: its work budget or
+ *    time limit reached before it converged).
  * 3. good otherwise. The limits are in {@link FIT_STATUS_DEFAULTS}: the reduced-χ² limit of poor
  *    from the benchmark of simulated curves (see its doc comment), the residual limit from the
  *    normal tail (closed form), the others common practice (no source) for χ²-based acceptance
@@ -127,6 +134,7 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
       );
     }
   }
+  if (input.cutShort) poor.push(input.cutShort);
   for (const name of input.atBound) failed.push(`${name} ended on a bound of the fit (a degenerate solution)`);
   if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
   if (poor.length) return { status: "poor", reasons: poor };

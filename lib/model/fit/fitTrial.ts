@@ -8,6 +8,7 @@ import type { LoopResult } from "./levenbergMarquardtLoop.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import type { StartingValues } from "./startingValues.ts";
+import type { FitAlternative } from "./curveFit.ts";
 
 /** The points a run fits: bias (V), current (A), V³, their count and the noise-scaled data. */
 export interface DataSet {
@@ -105,3 +106,46 @@ export function plausibilityInput(t: FitTrial): PlausibilityInput {
   };
 }
 
+
+/**
+ * The record of one run among a fit's alternatives.
+ *
+ * Parameters
+ * ----------
+ * t : FitTrial
+ *     One run.
+ * weight : number
+ *     Its relative weight of evidence (0 unless a finalist).
+ * implausible : string[] | null
+ *     Why it is implausible (empty: plausible; null: not checked).
+ *
+ * Returns
+ * -------
+ * FitAlternative
+ *     Hypothesis, regime, levels, CB degeneracies, start and fitted Γtip/Γsub, Ec (eV), reduced
+ *     χ², side, BIC, whether finished, implausibility and weight.
+ *
+ * Example
+ * -------
+ * ```ts
+ * fitAlternative(trial, 1, []).weight; // => 1
+ * ```
+ */
+export function fitAlternative(t: FitTrial, weight: number, implausible: string[] | null): FitAlternative {
+  const at = parameterIndex(t.hypothesis.seeds.length);
+  return {
+    hypothesis: t.hypothesis.name,
+    regime: groupingRegime(t),
+    levels: t.hypothesis.seeds.length,
+    cbDegeneracies: t.hypothesis.cbDegeneracies,
+    rateRatioStart: t.rateRatio0,
+    rateRatio: 10 ** t.loop.parameters[at.logRateRatio],
+    chargingEnergyEV: t.loop.parameters[at.chargingEnergy],
+    reducedChiSquare: t.loop.chiSquare / Math.max(1, t.n - t.k),
+    side: t.side,
+    bic: t.bic,
+    finished: t.finished,
+    implausible,
+    weight,
+  };
+}

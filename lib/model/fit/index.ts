@@ -7,7 +7,7 @@
  * fitCurve, which composes them.
  */
 export { fitCurve, FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
-export type { CurveFit, FitAlternative, FittedLevel, FittedValue } from "./curveFit.ts";
+export type { CurveFit, FitAlternative, FittedLevel, FittedValue, FitWork } from "./curveFit.ts";
 export { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 export { hypothesisPlausibility, PLAUSIBILITY_DEFAULTS, type PlausibilityInput, type PlausibilityLevel } from "./hypothesisPlausibility.ts";
 export { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";

@@ -1,6 +1,6 @@
 /**
  * The Levenberg–Marquardt iterations of the model fit, in chunks, with the fit's own convergence
- * test and wall-clock limit.
+ * test, a work budget counted in model evaluations and an optional wall-clock limit.
  */
 import type * as MlLevenbergMarquardt from "ml-levenberg-marquardt";
 import { lazyModule } from "../../util/lazyModule.ts";
@@ -19,8 +19,13 @@ export interface LoopSettings {
   gradientDifference: number[];
   /** Most iterations in all. */
   maxIterations: number;
-  /** Wall-clock limit, ms. */
-  timeLimitMs: number;
+  /**
+   * Most model evaluations the iterations may ask for (each one model curve over all points; the
+   * loop's own χ² checks are not counted): the deterministic work budget. Default: no limit.
+   */
+  maxEvaluations?: number;
+  /** Wall-clock limit, ms (machine-dependent: opt-in). Default: none (undefined or null). */
+  timeLimitMs?: number | null;
   /** Iterations per chunk between convergence checks. */
   chunkIterations: number;
   /** Relative χ² improvement over one chunk below which the fit has converged. */
@@ -37,9 +42,16 @@ export interface LoopResult {
   iterations: number;
   /** Whether the convergence test was met. */
   converged: boolean;
+  /** Model evaluations the iterations asked for (at most maxEvaluations). */
+  evaluations: number;
+  /** What ended the loop: its convergence test, maxIterations, the work budget or the time limit. */
+  stoppedBy: "converged" | "iterations" | "budget" | "time";
   /** Why the loop stopped. */
   message: string;
 }
+
+/** Thrown by the counting model when the work budget is spent (caught by the loop). */
+const BUDGET_SPENT = Symbol("budget spent");
 
 /** Σ (y_i − f(i))². */
 function chiSquare(f: (x: number) => number, y: number[]): number {
@@ -59,26 +71,30 @@ function chiSquare(f: (x: number) => number, y: number[]): number {
  * model : (p: number[]) => (x: number) => number
  *     The model at parameters p, as a function of the point index, in the units of data.y.
  * settings : LoopSettings
- *     Start, bounds and difference steps; maxIterations; timeLimitMs (ms); chunkIterations;
- *     convergenceTolerance (relative).
+ *     Start, bounds and difference steps; maxIterations; maxEvaluations (default no limit);
+ *     timeLimitMs (ms, default none); chunkIterations; convergenceTolerance (relative).
  *
  * Returns
  * -------
  * LoopResult
- *     `{ parameters, chiSquare, iterations, converged, message }`.
+ *     `{ parameters, chiSquare, iterations, converged, evaluations, stoppedBy, message }`.
  *
  * Throws
  * ------
- * Nothing: an error of the iterations (the library's timeout) ends the loop with a message.
+ * Nothing: an error of the iterations (the budget spent, the library's timeout) ends the loop
+ * with a message.
  *
  * Notes
  * -----
  * 1. Run up to chunkIterations iterations of ml-levenberg-marquardt (damping 1e-2, bounded,
- *    with the time left as its timeout).
+ *    with the time left as its timeout when a time limit is given). Every model evaluation the
+ *    iterations ask for is counted; the one that would exceed maxEvaluations is refused, which
+ *    ends the chunk: its parameters are dropped and the loop stops with exactly maxEvaluations
+ *    evaluations, on every machine the same.
  * 2. Keep the new parameters only if χ² did not grow.
  * 3. Converged when χ² improved by less than convergenceTolerance (relative) over the chunk;
- *    stop at the time limit or after maxIterations otherwise (converged false, the message says
- *    why).
+ *    stop after maxIterations, at the budget or at the time limit otherwise (converged false,
+ *    `stoppedBy` and the message say why).
  *
  * References
  * ----------
@@ -93,24 +109,38 @@ function chiSquare(f: (x: number) => number, y: number[]): number {
  * const x = Array.from({ length: 20 }, (_, i) => i);
  * const r = levenbergMarquardtLoop({ x, y: x.map((v) => 2 * Math.exp(-0.3 * v)) }, (p) => (v) => p[0] * Math.exp(-p[1] * v), {
  *   initialValues: [1, 0.1], minValues: [0, 0], maxValues: [10, 1], gradientDifference: [1e-6, 1e-6],
- *   maxIterations: 100, timeLimitMs: 5000, chunkIterations: 4, convergenceTolerance: 1e-5 });
+ *   maxIterations: 100, chunkIterations: 4, convergenceTolerance: 1e-5 });
  * r.parameters; // => [2.000, 0.300]
  * r.converged;  // => true
+ * r.stoppedBy;  // => "converged"
  * ```
  */
 export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model: (p: number[]) => (x: number) => number, settings: LoopSettings): LoopResult {
-  const { maxIterations, timeLimitMs } = settings;
+  const { maxIterations } = settings;
+  const maxEvaluations = settings.maxEvaluations ?? Infinity;
+  const timeLimitMs = settings.timeLimitMs ?? null;
   const started = Date.now();
   let params = settings.initialValues;
   let chi2 = chiSquare(model(params), data.y);
   let iterations = 0;
-  let converged = false;
+  let evaluations = 0;
+  const counted = (p: number[]) => {
+    if (evaluations >= maxEvaluations) throw BUDGET_SPENT;
+    evaluations++;
+    return model(p);
+  };
+  let stoppedBy: LoopResult["stoppedBy"] = "iterations";
   let message = "";
+  const timeUp = () => timeLimitMs !== null && Date.now() - started > timeLimitMs;
   while (iterations < maxIterations) {
+    if (evaluations >= maxEvaluations) {
+      stoppedBy = "budget";
+      break;
+    }
     const chunk = Math.min(settings.chunkIterations, maxIterations - iterations);
     let result;
     try {
-      result = solver().levenbergMarquardt(data, model, {
+      result = solver().levenbergMarquardt(data, counted, {
         initialValues: params,
         minValues: settings.minValues,
         maxValues: settings.maxValues,
@@ -118,10 +148,12 @@ export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model
         maxIterations: chunk,
         damping: 1e-2,
         errorTolerance: 1e-10,
-        timeout: Math.max(0.001, (timeLimitMs - (Date.now() - started)) / 1000),
+        ...(timeLimitMs !== null ? { timeout: Math.max(0.001, (timeLimitMs - (Date.now() - started)) / 1000) } : {}),
       });
     } catch (err) {
-      message = `stopped at the time limit of ${timeLimitMs} ms`;
+      if (err === BUDGET_SPENT) stoppedBy = "budget";
+      else if (timeLimitMs !== null) stoppedBy = "time";
+      else message = `stopped by an error of the iterations: ${err instanceof Error ? err.message : String(err)}`;
       break;
     }
     iterations += result.iterations;
@@ -130,15 +162,17 @@ export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model
     if (next <= chi2) params = result.parameterValues;
     chi2 = Math.min(chi2, next);
     if (improvement >= 0 && improvement < settings.convergenceTolerance) {
-      converged = true;
+      stoppedBy = "converged";
       message = `converged: χ² changed by ${improvement.toExponential(1)} over ${result.iterations} iterations`;
       break;
     }
-    if (Date.now() - started > timeLimitMs) {
-      message = `stopped at the time limit of ${timeLimitMs} ms`;
+    if (timeUp()) {
+      stoppedBy = "time";
       break;
     }
   }
-  if (!converged && !message) message = `stopped after ${iterations} iterations without converging`;
-  return { parameters: params, chiSquare: chi2, iterations, converged, message };
+  if (stoppedBy === "budget") message = `stopped at the work budget of ${maxEvaluations} model evaluations`;
+  if (stoppedBy === "time") message = `stopped at the time limit of ${timeLimitMs} ms`;
+  if (!message) message = `stopped after ${iterations} iterations without converging`;
+  return { parameters: params, chiSquare: chi2, iterations, converged: stoppedBy === "converged", evaluations, stoppedBy, message };
 }

@@ -82,7 +82,7 @@ describe("fitCurve(analysis)", () => {
     expect(FIT_DEFAULTS).toEqual({
       temperatureK: 4.5,
       maxIterations: 60,
-      timeLimitMs: 5000,
+      maxEvaluations: 10_000,
       maxPoints: 800,
       chargingEnergyGuessEV: 0.1,
       convergenceTolerance: 1e-5,

@@ -13,7 +13,6 @@ const settings = {
   maxValues: [10, 1],
   gradientDifference: [1e-6, 1e-6],
   maxIterations: 100,
-  timeLimitMs: 10_000,
   chunkIterations: 4,
   convergenceTolerance: 1e-5,
 };
@@ -33,5 +32,40 @@ describe("levenbergMarquardtLoop(data, model, settings)", () => {
     expect(r.converged).toBe(false);
     expect(r.message).toMatch(/without converging/);
     expect(r.chiSquare).toBeLessThanOrEqual(start);
+  });
+
+  it("stops at its work budget with exactly maxEvaluations evaluations, at the values of its last whole chunk (exact)", () => {
+    // The model evaluations asked for are counted by the loop; the test counts them again from
+    // outside, less the loop's own χ² checks (one at the start and one per chunk run).
+    let calls = 0;
+    const counting = (p: number[]) => {
+      calls++;
+      return model(p);
+    };
+    const budget = Math.floor(levenbergMarquardtLoop(data, model, settings).evaluations / 2);
+    const r = levenbergMarquardtLoop(data, counting, { ...settings, maxEvaluations: budget });
+    expect(r.stoppedBy).toBe("budget");
+    expect(r.converged).toBe(false);
+    expect(r.evaluations).toBe(budget);
+    expect(r.message).toContain(`work budget of ${budget} model evaluations`);
+    const chunksRun = r.iterations / settings.chunkIterations;
+    expect(Number.isInteger(chunksRun)).toBe(true);
+    expect(calls).toBe(budget + 1 + chunksRun);
+    // The chunk the budget cut is dropped: the same as a run of just the whole chunks (exact).
+    const whole = levenbergMarquardtLoop(data, model, { ...settings, maxIterations: r.iterations });
+    expect(r.parameters).toEqual(whole.parameters);
+    expect(r.chiSquare).toBe(whole.chiSquare);
+  });
+
+  it("with no evaluation left returns its start untouched", () => {
+    const r = levenbergMarquardtLoop(data, model, { ...settings, maxEvaluations: 0 });
+    expect(r).toMatchObject({ parameters: settings.initialValues, iterations: 0, evaluations: 0, stoppedBy: "budget" });
+  });
+
+  it("a budget it does not reach changes nothing (exact)", () => {
+    const free = levenbergMarquardtLoop(data, model, settings);
+    const bounded = levenbergMarquardtLoop(data, model, { ...settings, maxEvaluations: free.evaluations });
+    expect(bounded).toEqual(free);
+    expect(free.stoppedBy).toBe("converged");
   });
 });
