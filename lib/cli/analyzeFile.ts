@@ -49,6 +49,8 @@ export interface AnalyzeBatchSettings {
   outDir: string | null;
   /** `--compare-models`: which curves get the model comparison; absent: none. */
   compareModels?: CompareModelsScope;
+  /** `--max-evaluations`: work budget of each comparison fit (model evaluations); absent: FIT_DEFAULTS.maxEvaluations. */
+  maxEvaluations?: number;
 }
 
 /** One file of a batch. */
@@ -201,7 +203,12 @@ export async function analyzeFile(
   onReadProgress?: (file: string, fraction: number) => void,
 ): Promise<AnalyzeJobResult> {
   const { index, file } = job;
-  const options: RecordedOptions = { analyze: settings.options, read: settings.read, ...(settings.compareModels ? { compareModels: settings.compareModels } : {}) };
+  const options: RecordedOptions = {
+    analyze: settings.options,
+    read: settings.read,
+    ...(settings.compareModels ? { compareModels: settings.compareModels } : {}),
+    ...(settings.compareModels && settings.maxEvaluations !== undefined ? { maxEvaluations: settings.maxEvaluations } : {}),
+  };
   try {
     const { curve, analysis, json: result } = analyzeCurveFile(file, options, "analyze", onReadProgress ? (f) => onReadProgress(file, f) : undefined);
     let row: SummaryRow | null = null;

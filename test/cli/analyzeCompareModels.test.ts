@@ -83,6 +83,20 @@ describe("dotspec analyze --compare-models", () => {
     expect(text.stdout).toContain("the fit decides: the record stands by the fit");
   }, 120_000);
 
+  it("--max-evaluations bounds the comparison's fits exactly (the same stop on every machine) and is refused without --compare-models", async () => {
+    const r = await run(["analyze", crossover, "--compare-models", "--max-evaluations", "40", "--json"]);
+    expect(r.code).toBe(0);
+    const m = (JSON.parse(r.stdout) as AnalysisJson[])[0].modelComparison!;
+    // exact: the budget is a count, and a fit cut short by it is never `good`
+    expect(m.work).toMatchObject({ maxEvaluations: 40, stoppedBy: "budget" });
+    expect(m.work!.evaluations).toBeLessThanOrEqual(40);
+    expect(m.status).not.toBe("good");
+    expect(m.decides).toBe(false);
+    const usage = await run(["analyze", crossover, "--max-evaluations", "40"]);
+    expect(usage.code).toBe(2);
+    expect(usage.stderr).toContain("add --compare-models");
+  }, 120_000);
+
   it("leaves a curve the rules decide alone, and fits it too with --compare-models all", async () => {
     expect(records[1].regime).toBe("shell-filling");
     expect(records[1].modelComparison).toBeUndefined();

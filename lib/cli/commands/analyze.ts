@@ -7,6 +7,7 @@ import { InvalidArgumentError, type Command } from "commander";
 import {
   CURVE_FILE_EXTENSIONS,
   failedSummaryRow,
+  FIT_DEFAULTS,
   formatCsv,
   listCurveFiles,
   summaryColumns,
@@ -32,6 +33,7 @@ export interface AnalyzeCliOptions extends AnalysisCliOptions {
   replay?: string;
   /** `--compare-models` alone (true), or with "undecided" or "all". */
   compareModels?: true | CompareModelsScope;
+  maxEvaluations?: number;
 }
 
 /** The value of `--compare-models [SCOPE]`. */
@@ -111,6 +113,11 @@ export const analyzeCommand: CliCommand = {
         "also fit the model with every grouping of the peaks and compare them, on the curves where the rules are not decisive (\"undecided\", the default) or on \"all\" (slow)",
         compareModelsOption,
       )
+      .option(
+        "--max-evaluations <n>",
+        `with --compare-models: work budget of each comparison fit, most model evaluations over all its runs, the same on every machine (default: ${FIT_DEFAULTS.maxEvaluations})`,
+        numberOption({ min: 1, integer: true, accepted: "a whole number of at least 1" }),
+      )
       .option("--replay <RECORD.json>", "re-run a recorded analysis on its file with its options and compare the numbers")
       .addHelpText("after", HELP_AFTER)
       .action(async (files: string[], opts: AnalyzeCliOptions) => {
@@ -120,6 +127,9 @@ export const analyzeCommand: CliCommand = {
           return;
         }
         if (!files.length) throw new UsageError("missing FILE: give curve files or folders (or --replay RECORD.json)");
+        if (opts.maxEvaluations !== undefined && opts.compareModels === undefined) {
+          throw new UsageError("--max-evaluations sets the work budget of the model comparison's fits; add --compare-models (or use dotspec fit --max-evaluations)");
+        }
         ctx.exitCode = await runAnalyze(files, opts, ctx);
       });
   },
@@ -223,6 +233,7 @@ export async function runAnalyze(inputs: readonly string[], opts: AnalyzeCliOpti
     options: analyzeOptions,
     read: readOptions(opts),
     ...(opts.compareModels !== undefined ? { compareModels: opts.compareModels === true ? "undecided" : opts.compareModels } : {}),
+    ...(opts.maxEvaluations !== undefined ? { maxEvaluations: opts.maxEvaluations } : {}),
     json,
     color: ctx.stdout.isTTY === true && !ctx.env.NO_COLOR && !json,
     outDir: outDir ?? null,
