@@ -14,6 +14,7 @@ import { execFileSync, spawnSync } from "node:child_process";
 import { dirname, join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { cpus, loadavg } from "node:os";
+import { medianInPlace } from "../lib/util/medianInPlace.ts";
 import { cpuMsFrom, cpuProbeArgs } from "./processCpu.ts";
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
@@ -25,26 +26,33 @@ const warmup = Math.max(0, Number(option("--warmup", "3")) || 0);
 // Three sweeps of 2,000 points, and one sweep of 2,000 points (like the batch benchmark's files).
 const curves = option("--curve", [join("sample-curves", "dot-01.csv"), join("sample-curves", "dot-05.dat")].join(",")).split(",");
 
-/** Wall time of one whole process, ms; throws when it fails. */
-function once(argv: string[]): number {
+/**
+ * Wall time of one whole process, ms, and with `cpu` also its CPU time (all threads, through the
+ * preloaded probe of bench/processCpu.ts; NaN without it); throws when it fails.
+ */
+function once(argv: string[], cpu = false): [number, number] {
   const t0 = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, argv, { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
+  const r = spawnSync(process.execPath, [...(cpu ? cpuProbeArgs() : []), ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
   const ms = Number(process.hrtime.bigint() - t0) / 1e6;
-  if (r.status !== 0) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
-  return ms;
+  const cpuMs = cpu ? cpuMsFrom(r.stderr) : NaN;
+  if (r.status !== 0 || (cpu && !Number.isFinite(cpuMs))) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
+  return [ms, cpuMs];
 }
+
+/** The median (the mean of the middle two for an even count). */
+const median = (xs: number[]) => medianInPlace(Float64Array.from(xs));
 
 let baseline: number | null = null;
 
 /** Runs one command `runs` times and prints min / median / max (and the median over a bare Node start). */
 function measure(name: string, argv: string[], target: number | null): number {
   for (let k = 0; k < warmup; k++) once(argv);
-  const times = Array.from({ length: runs }, () => once(argv)).sort((a, b) => a - b);
-  const median = runs % 2 ? times[(runs - 1) / 2] : (times[runs / 2 - 1] + times[runs / 2]) / 2;
-  const verdict = target === null ? "" : median <= target ? `  (target ≤ ${target} ms: met)` : `  (target ≤ ${target} ms: NOT met)`;
-  const over = baseline === null ? "" : `  (${(median - baseline).toFixed(0)} ms over Node's start)`;
-  console.log(`${name.padEnd(48)} min ${times[0].toFixed(0).padStart(4)} ms  median ${median.toFixed(0).padStart(4)} ms  max ${times[runs - 1].toFixed(0).padStart(4)} ms${over}${verdict}`);
-  return median;
+  const times = Array.from({ length: runs }, () => once(argv)[0]).sort((a, b) => a - b);
+  const mid = median(times);
+  const verdict = target === null ? "" : mid <= target ? `  (target ≤ ${target} ms: met)` : `  (target ≤ ${target} ms: NOT met)`;
+  const over = baseline === null ? "" : `  (${(mid - baseline).toFixed(0)} ms over Node's start)`;
+  console.log(`${name.padEnd(48)} min ${times[0].toFixed(0).padStart(4)} ms  median ${mid.toFixed(0).padStart(4)} ms  max ${times[runs - 1].toFixed(0).padStart(4)} ms${over}${verdict}`);
+  return mid;
 }
 
 /** Import time of a module in a fresh process, ms (median of 5). */
@@ -61,29 +69,16 @@ measure("dotspec --version", [BIN, "--version"], null);
 measure("dotspec --help", [BIN, "--help"], 120);
 for (const curve of curves) measure(`dotspec analyze --json ${curve}`, [BIN, "analyze", curve, "--json"], 200);
 
-// bin/dotspec.js raises V8's interrupt budget (the threshold of the optimising compiler) × 16;
-// the same commands at V8's default (bin/dotspec.js leaves a budget given on the command line),
-// in wall time and in CPU time of the whole process (all threads, the compiler's included), run
-// alternately so that both see the same load.
+// bin/dotspec.js raises V8's interrupt budget (the threshold of the optimising compiler) × 16 for
+// short runs, such as these; the same commands at V8's default (bin/dotspec.js leaves a budget
+// given on the command line), in wall time and in CPU time of the whole process (all threads, the
+// compiler's included), run alternately so that both see the same load.
 const DEFAULT_BUDGET = "--interrupt-budget=67584";
-/** Wall and CPU time (ms) of one whole process, with the CPU probe preloaded. */
-function onceWithCpu(argv: string[]): [number, number] {
-  const t0 = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, [...cpuProbeArgs(), ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
-  const ms = Number(process.hrtime.bigint() - t0) / 1e6;
-  const cpu = cpuMsFrom(r.stderr);
-  if (r.status !== 0 || !Number.isFinite(cpu)) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
-  return [ms, cpu];
-}
-const median = (xs: number[]) => {
-  const s = [...xs].sort((a, b) => a - b);
-  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
-};
 console.log("\nThe optimising compiler's threshold: bin/dotspec.js's (× 16) against V8's default, alternating; median wall / CPU time:");
 for (const argv of [...curves.map((c) => ["analyze", c, "--json"]), ["fit", curves[0], "--json"]]) {
   const ours: [number, number][] = [], v8default: [number, number][] = [];
   for (let k = 0; k < warmup + runs; k++) {
-    const a = onceWithCpu([BIN, ...argv]), b = onceWithCpu([DEFAULT_BUDGET, BIN, ...argv]);
+    const a = once([BIN, ...argv], true), b = once([DEFAULT_BUDGET, BIN, ...argv], true);
     if (k >= warmup) ours.push(a), v8default.push(b);
   }
   const show = (xs: [number, number][]) => `${median(xs.map((x) => x[0])).toFixed(0).padStart(4)} / ${median(xs.map((x) => x[1])).toFixed(0).padStart(4)} ms`;

@@ -140,8 +140,7 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
     // wall-clock limit asked for says so (where it stopped depends on the machine).
     let comparison;
     try {
-      const limits = { ...(options.maxEvaluations !== undefined ? { maxEvaluations: options.maxEvaluations } : {}), ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}) };
-      const fit = fitCurve(analysis, { compareModels: true, ...limits });
+      const fit = fitCurve(analysis, { compareModels: true, ...fitLimits(options) });
       comparison = modelComparisonJson(fitToJson(fit, json), scope, { ranBecause, rules: { regime: json.regime, chargingEnergyEV: analysis.assignment.energies.chargingEnergyEV } });
       if (fit.work.stoppedBy === "time") comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
     } catch (err) {
@@ -167,8 +166,15 @@ function failedProvenance(file: string, options: RecordedOptions, command: strin
 
 /** The options as a provenance records them: analysis, import and, when given, --compare-models (no other keys). */
 function recordedOf(options: RecordedOptions): Record<string, unknown> {
-  const limits = { ...(options.maxEvaluations !== undefined ? { maxEvaluations: options.maxEvaluations } : {}), ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}) };
-  return { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}), ...limits };
+  return { analyze: options.analyze, read: options.read, ...(options.compareModels ? { compareModels: options.compareModels } : {}), ...fitLimits(options) };
+}
+
+/** The comparison fit's limits that were given (work budget, opt-in time limit), as fitCurve and the provenance take them. */
+function fitLimits(options: RecordedOptions): { maxEvaluations?: number; timeLimitMs?: number } {
+  return {
+    ...(options.maxEvaluations !== undefined ? { maxEvaluations: options.maxEvaluations } : {}),
+    ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}),
+  };
 }
 
 /**
