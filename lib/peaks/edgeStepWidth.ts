@@ -85,18 +85,33 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
   const [from, to] = options.rangeV;
   const D = EDGE_STEP_WIDTH_DEFAULTS;
   const sign = options.sign ?? D.sign;
-  const xs: number[] = [], ys: number[] = [];
+  let count = 0;
   for (let i = 0; i < biasV.length; i++) {
     const x = sign * biasV[i];
-    if (x >= from && x <= to) xs.push(x), ys.push(sign * currentA[i]);
+    if (x >= from && x <= to) count++;
   }
-  if (xs.length < D.minPoints) return null;
+  if (count < D.minPoints) return null;
   const x0 = options.positionV;
+  // Offsets from the step and the current, in range order; the sums over y do not depend on s.
+  const dx = new Float64Array(count), ys = new Float64Array(count);
+  let sy = 0, syy = 0;
+  for (let i = 0, k = 0; i < biasV.length; i++) {
+    const x = sign * biasV[i];
+    if (!(x >= from && x <= to)) continue;
+    const y = sign * currentA[i];
+    dx[k] = x - x0;
+    ys[k++] = y;
+    sy += y;
+    syy += y * y;
+  }
+  const n = count;
   const residual = (s: number): { r: number; c: number } => {
-    let n = 0, sf = 0, sff = 0, sy = 0, sfy = 0, syy = 0;
-    for (let i = 0; i < xs.length; i++) {
-      const f = normalCdfFast((xs[i] - x0) / s);
-      n++, (sf += f), (sff += f * f), (sy += ys[i]), (sfy += f * ys[i]), (syy += ys[i] * ys[i]);
+    let sf = 0, sff = 0, sfy = 0;
+    for (let i = 0; i < n; i++) {
+      const f = normalCdfFast(dx[i] / s);
+      sf += f;
+      sff += f * f;
+      sfy += f * ys[i];
     }
     const det = n * sff - sf * sf;
     if (!(det > 0)) return { r: Infinity, c: 0 };

@@ -237,8 +237,22 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const sweeps = signal.didvSweepsS;
   const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps").peaks);
   const peaks: Omit<AnalyzedPeak, "multiplet" | "role">[] = found.peaks.map((p, k) => {
-    const own = { ...p, stepA: areas.stepsA[k], prominenceStepA: p.stepA };
-    if (sweeps.length < 2) return { ...own, sweepSpreadV: null, sweepsFound: sweeps.length || 1 };
+    // Written out (not spread): the same keys in the same order as Peak's, then the pipeline's.
+    const own = (biasUncertaintyV: number, sweepSpreadV: number | null, sweepsFound: number) => ({
+      biasV: p.biasV,
+      biasUncertaintyV,
+      index: p.index,
+      heightS: p.heightS,
+      prominenceS: p.prominenceS,
+      fwhmV: p.fwhmV,
+      stepA: areas.stepsA[k],
+      snr: p.snr,
+      stepSignificance: p.stepSignificance,
+      prominenceStepA: p.stepA,
+      sweepSpreadV,
+      sweepsFound,
+    });
+    if (sweeps.length < 2) return own(p.biasUncertaintyV, null, sweeps.length || 1);
     const positions: number[] = [];
     for (const list of sweepPeaks) {
       let best: Peak | null = null;
@@ -252,7 +266,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       spread = Math.sqrt(positions.reduce((a, b) => a + (b - mean) ** 2, 0) / (positions.length - 1));
       uncertainty = Math.max(uncertainty, spread / Math.sqrt(positions.length));
     }
-    return { ...own, biasUncertaintyV: uncertainty, sweepSpreadV: spread, sweepsFound: positions.length };
+    return own(uncertainty, spread, positions.length);
   });
 
   const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });

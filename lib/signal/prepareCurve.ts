@@ -4,7 +4,7 @@
  * Savitzky–Golay windows can then be applied to it ({@link conductanceFromPrepared}).
  */
 import type { Curve } from "../curve.ts";
-import { biasStep, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
+import { biasStep, isUniformAxis, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
 import { checkKnownKeys, checkOneOf } from "../util/check.ts";
 import { DotspecError } from "../util/errors.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
@@ -304,8 +304,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   const n0 = curve.biasV.length;
   let stepV: number;
   let resampled = false;
-  const step = biasStep(curve.biasV, D.uniformStepTolerance);
-  if (n0 < 3 || step.uniform) {
+  if (n0 < 3 || isUniformAxis(curve.biasV, D.uniformStepTolerance)) {
     // Read in place; copied on return only if no later step made a new array (block averages,
     // the saturation cut), so a long curve is not copied before it is averaged.
     biasV = curve.biasV;
@@ -313,7 +312,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   } else {
     const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
     if (measuredS) all.push(measuredS);
-    const r = resampleUniformUnchecked(curve.biasV, all, step.medianV);
+    const r = resampleUniformUnchecked(curve.biasV, all, biasStep(curve.biasV, D.uniformStepTolerance).medianV);
     let dMin = Infinity;
     let dMax = -Infinity;
     for (let i = 1; i < n0; i++) {
@@ -349,7 +348,9 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   }
   // 3. Saturation (on the averages): flat runs at the current's extremes at the ends are cut off.
   const resolutionA = curve.meta?.currentResolutionA;
-  const saturation = biasV.length >= 4 ? findSaturation(biasV, currentIn, { resolutionA, noiseA: whiteNoiseSigmaUnchecked(currentIn, 3) }) : [];
+  // The white-noise estimate of the whole curve: reused in step 4 unless saturated ends are cut off.
+  const noiseBeforeCutA = biasV.length >= 4 ? whiteNoiseSigmaUnchecked(currentIn, 3) : 0;
+  const saturation = biasV.length >= 4 ? findSaturation(biasV, currentIn, { resolutionA, noiseA: noiseBeforeCutA }) : [];
   if (saturation.length) {
     let lo = 0;
     let hi = biasV.length - 1;
@@ -370,7 +371,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
 
   // 4. Noise (the rounding floor of a block mean is that of one sample over √b).
   const perBlock = (q: number | null | undefined) => (q == null ? q : q / Math.sqrt(blockSamples));
-  const noiseCurrentEstimateA = n >= 4 ? whiteNoiseSigmaUnchecked(currentIn, 3) : 0;
+  const noiseCurrentEstimateA = n < 4 ? 0 : saturation.length ? whiteNoiseSigmaUnchecked(currentIn, 3) : noiseBeforeCutA;
   const currentNoise = floored(noiseCurrentEstimateA, perBlock(curve.meta?.currentResolutionA));
   const noiseCurrentA = currentNoise.sigma;
   const measuredNoise = measuredS && n >= 4 ? floored(whiteNoiseSigmaUnchecked(measuredS, 3), perBlock(curve.meta?.conductanceResolutionS)) : null;

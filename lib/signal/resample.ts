@@ -3,7 +3,7 @@
  * uniform grid when it is not.
  */
 import { DotspecError } from "../util/errors.ts";
-import { biasStep, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
+import { biasStep, isUniformAxis, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
 import { interpolateOnto } from "../util/interpolateOnto.ts";
 
 /** Defaults of {@link isUniformStep} and {@link resampleUniform} (locked by test/signal/resample.test.ts). */
@@ -91,7 +91,7 @@ export function isUniformStep(biasV: ArrayLike<number>, tolerance: number = RESA
 
 /** {@link isUniformStep} for a validated, strictly ascending axis. */
 export function isUniformStepUnchecked(biasV: ArrayLike<number>, tolerance: number): boolean {
-  return biasV.length < 3 || biasStep(biasV, tolerance).uniform;
+  return biasV.length < 3 || isUniformAxis(biasV, tolerance);
 }
 
 /**

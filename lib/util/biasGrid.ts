@@ -57,3 +57,49 @@ export function biasStep(biasV: ArrayLike<number>, tolerance: number = UNIFORM_S
   for (let i = 0; i < d.length && uniform; i++) uniform = Math.abs(biasV[i + 1] - biasV[i] - medianV) <= limit;
   return { medianV, uniform };
 }
+
+/**
+ * Whether a bias axis is uniform: the same answer as `biasStep(biasV, tolerance).uniform`, found
+ * without the median when the steps' range already decides it.
+ *
+ * Parameters
+ * ----------
+ * biasV : ArrayLike<number>
+ *     Bias in volts, monotonic (not checked).
+ * tolerance : number, optional
+ *     Largest accepted |step − median| / |median|. Default {@link UNIFORM_STEP_TOLERANCE} (0.01).
+ *
+ * Returns
+ * -------
+ * boolean
+ *
+ * Notes
+ * -----
+ * 1. With a = min |d_i| and b = max |d_i| over steps of one sign, the median lies in [a, b], so
+ *    every |d_i − median| ≤ b − a; when b − a ≤ tolerance·a ≤ tolerance·|median| the axis is
+ *    uniform. Rounding is monotonic, so the floating-point test implies {@link biasStep}'s.
+ * 2. Otherwise (or with steps of both signs, or zero) the median decides, as in {@link biasStep}.
+ *
+ * Example
+ * -------
+ * ```ts
+ * isUniformAxis([0, 0.1, 0.2, 0.3]);   // => true
+ * isUniformAxis([0, 0.1, 0.25, 0.35]); // => false
+ * ```
+ */
+export function isUniformAxis(biasV: ArrayLike<number>, tolerance: number = UNIFORM_STEP_TOLERANCE): boolean {
+  const n = biasV.length;
+  if (n < 2) return true;
+  let a = Infinity, b = 0, positive = 0, negative = 0;
+  for (let i = 0; i + 1 < n; i++) {
+    const d = biasV[i + 1] - biasV[i];
+    if (d > 0) positive++;
+    else if (d < 0) negative++;
+    const m = Math.abs(d);
+    if (m < a) a = m;
+    if (m > b) b = m;
+  }
+  const oneSign = positive === n - 1 || negative === n - 1;
+  if (oneSign && a > 0 && b - a <= tolerance * a) return true;
+  return biasStep(biasV, tolerance).uniform;
+}
