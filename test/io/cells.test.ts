@@ -23,6 +23,25 @@ describe("splitLine", () => {
     expect(splitLine("   ", "whitespace")).toEqual([""]);
   });
 
+  it("splitLine(line, d) for a quote-free line gives String.prototype.split(d)'s cells, empty ones included", () => {
+    // Reference: ECMA-262 String.prototype.split with a one-character separator.
+    for (const d of [",", ";", "\t"] as const) {
+      for (const line of ["", "1", `1${d}2`, `${d}`, `${d}${d}`, `-1.5${d}${d}2e-12${d}`, `${d}a${d}b`, `x ${d} y`]) {
+        expect(splitLine(line, d)).toEqual(line.split(d));
+      }
+    }
+  });
+
+  it("splitLine(line, 'whitespace') splits where /\s+/ does, for every UTF-16 code unit as the separator", () => {
+    // Reference: ECMAScript's \s (WhiteSpace and LineTerminator) as the engine's own RegExp reads it.
+    for (let c = 0; c < 0x10000; c++) {
+      const ch = String.fromCharCode(c);
+      const line = `1${ch}2${ch}${ch}3`;
+      const t = line.trim();
+      expect(splitLine(line, "whitespace"), `U+${c.toString(16)}`).toEqual(t === "" ? [""] : t.split(/\s+/));
+    }
+  });
+
   it("splitLine(line, ';') keeps decimal commas inside cells", () => {
     // by construction of the input
     expect(splitLine("-0,25;1,5e-3", ";")).toEqual(["-0,25", "1,5e-3"]);

@@ -62,12 +62,35 @@ export function cellQuantum(cell: string, decimalComma: boolean): number {
   if (i < n) {
     c = s.charCodeAt(i) | 32;
     if (c !== 101 && c !== 100) return NaN; // e or d
-    const e = Number(s.slice(i + 1));
+    const e = exponentDigits(s, i + 1);
     if (!Number.isInteger(e) || s.length === i + 1) return NaN;
     exponent = e;
   }
   const k = exponent - decimals + 400;
   return k >= 0 && k <= 800 ? POW10[k] : NaN;
+}
+
+/**
+ * `Number(s.slice(from))` for an exponent: a sign and up to six digits read directly (the common
+ * case, without a string copy and a conversion call), anything else by `Number` as before.
+ */
+function exponentDigits(s: string, from: number): number {
+  const n = s.length;
+  let i = from;
+  let sign = 1;
+  const c0 = s.charCodeAt(i);
+  if (c0 === 43 || c0 === 45) {
+    if (c0 === 45) sign = -1;
+    i++;
+  }
+  if (i === n || n - i > 6) return Number(s.slice(from));
+  let e = 0;
+  for (; i < n; i++) {
+    const c = s.charCodeAt(i);
+    if (c < 48 || c > 57) return Number(s.slice(from));
+    e = 10 * e + (c - 48);
+  }
+  return sign * e;
 }
 
 /**

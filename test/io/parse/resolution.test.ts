@@ -18,6 +18,18 @@ describe("cellQuantum(cell, decimalComma)", () => {
     expectClose(cellQuantum(cell as string, comma as boolean), q as number, { rtol: 1e-12 });
   });
 
+  it.each([
+    ["1e+0005", 1e5],
+    ["1e-0", 1],
+    ["1e1234567", NaN], // exponent read by Number(): 1234567 is an integer, but 10^1234567 is out of range
+    ["1e0x10", 1e16], // Number("0x10") = 16, an integer: taken as written
+    ["1e+-3", NaN],
+    ["1e3.5", NaN],
+  ])("cellQuantum(%j): the exponent is read as Number() reads it (reference: ECMA-262 StringToNumber)", (cell, q) => {
+    if (Number.isNaN(q)) expect(cellQuantum(cell as string, false)).toBeNaN();
+    else expectClose(cellQuantum(cell as string, false), q as number, { rtol: 1e-12 });
+  });
+
   it.each(["", "abc", "NaN", "1e", "e5", ".", "\"3\"", "0x10", "1.2.3"])("cellQuantum(%j) is NaN (not a plain decimal number)", (cell) => {
     expect(cellQuantum(cell, false)).toBeNaN();
   });
