@@ -81,16 +81,19 @@ export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<num
   try {
     // The first word that is not an option names the command (the program's own options take no value).
     const named = argv.find((a) => !a.startsWith("-"));
+    let args = argv;
     for (const entry of COMMANDS) {
       if (entry.name === named) {
-        (await entry.load()).register(program, ctx);
+        const command = await entry.load();
+        command.register(program, ctx);
         program.commands[program.commands.length - 1].summary(entry.summary);
+        if (command.prepareArgs) args = command.prepareArgs(argv);
       } else {
         // A stand-in that only lists the command; it never runs (the command named runs the real one).
         program.command(`${entry.name} ${entry.arguments}`.trim()).summary(entry.summary);
       }
     }
-    await program.parseAsync(argv, { from: "user" });
+    await program.parseAsync(args, { from: "user" });
     return ctx.exitCode;
   } catch (err) {
     return await failure(err, ctx);

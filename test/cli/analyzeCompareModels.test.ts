@@ -154,6 +154,17 @@ describe("dotspec analyze --compare-models", () => {
     expect(text.stdout).toContain("NO FIT");
   }, 60_000);
 
+  it("reads a file right after the option as a FILE, not as its scope (the default scope then applies)", async () => {
+    // by construction: the same curve and option, the file before and after --compare-models
+    const after = await run(["analyze", "--compare-models", crossover, "--json"]);
+    expect(after.code).toBe(0);
+    const before = await run(["analyze", crossover, "--compare-models", "--json"]);
+    const [a, b] = [after, before].map((r) => (JSON.parse(r.stdout) as AnalysisJson[])[0].modelComparison!);
+    expect(a.scope).toBe("undecided");
+    expect(a.regime).toBe(b.regime);
+    expect(a.quantities.chargingEnergyEV).toEqual(b.quantities.chargingEnergyEV);
+  }, 120_000);
+
   it("refuses a scope it does not know (usage error, exit 2)", async () => {
     const r = await run(["analyze", crossover, "--compare-models", "some"]);
     expect(r.code).toBe(2);

@@ -2,6 +2,7 @@
  * `dotspec analyze FILE...`: analyse curve files and print a readable report, JSON, or write a
  * report folder (JSON per file, summary.csv, a figure per file).
  */
+import { existsSync } from "node:fs";
 import { basename, dirname, extname, join, resolve } from "node:path";
 import { InvalidArgumentError, type Command } from "commander";
 import {
@@ -36,10 +37,28 @@ export interface AnalyzeCliOptions extends AnalysisCliOptions {
   maxEvaluations?: number;
 }
 
+const COMPARE_MODELS_SCOPES: readonly string[] = ["undecided", "all"];
+
+/**
+ * `--compare-models FILE …`: commander takes the word after an option with an optional value as
+ * that value, so the file would be read as a scope. A word after `--compare-models` that is no
+ * scope but an existing file or folder stays an argument: the option gets its default scope
+ * explicitly. Any other word is left to be refused as a scope.
+ */
+export function separateCompareModelsScope(argv: readonly string[]): string[] {
+  const end = argv.indexOf("--");
+  return argv.map((word, i) => {
+    const next = argv[i + 1];
+    if (word !== "--compare-models" || next === undefined || (end >= 0 && i > end)) return word;
+    const isPath = !next.startsWith("-") && !COMPARE_MODELS_SCOPES.includes(next) && existsSync(next);
+    return isPath ? "--compare-models=undecided" : word;
+  });
+}
+
 /** The value of `--compare-models [SCOPE]`. */
 function compareModelsOption(value: string): CompareModelsScope {
   if (value === "undecided" || value === "all") return value;
-  throw new InvalidArgumentError(`expected "undecided" (the curves where the rules are not decisive, the default) or "all"; got ${JSON.stringify(value)}`);
+  throw new InvalidArgumentError(`expected "undecided" (the curves where the rules are not decisive, the default) or "all"; got ${JSON.stringify(value)} (not a scope, nor a file or folder that exists)`);
 }
 
 const HELP_AFTER = `
@@ -88,6 +107,7 @@ Examples:
 
 export const analyzeCommand: CliCommand = {
   name: "analyze",
+  prepareArgs: separateCompareModelsScope,
   register(program: Command, ctx: CliContext) {
     const command = program
       .command("analyze")

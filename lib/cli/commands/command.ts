@@ -14,4 +14,9 @@ export interface CliCommand {
    * see EXIT) and never calls `process.exit`.
    */
   register(program: Command, ctx: CliContext): void;
+  /**
+   * Rewrites the command line (the words after `dotspec`) before it is parsed, where commander
+   * alone would misread it; absent: parsed as given.
+   */
+  prepareArgs?(argv: readonly string[]): string[];
 }
