@@ -6,7 +6,7 @@
 export * from "./core.ts";
 
 // File I/O (Node only).
-export { CURVE_FILE_EXTENSIONS, MAX_CURVE_FILE_BYTES, STREAM_CURVE_FILE_BYTES, listCurveFiles, readCurveFile, type ReadCurveOptions } from "./io/readCurveFile.ts";
+export { CURVE_FILE_EXTENSIONS, MAX_CURVE_FILE_BYTES, STREAM_CURVE_FILE_BYTES, listCurveFiles, readCurveFile, readCurveFileWithDigest, type ReadCurveOptions } from "./io/readCurveFile.ts";
 export { CURVE_STREAM_DEFAULTS, readCurveStream, type CurveStreamOptions } from "./io/readCurveStream.ts";
 export { FILE_LINES_DEFAULTS, forEachFileLine, withFileEncoding, type FileEncoding, type FileLinesOptions } from "./io/fileLines.ts";
 export { readJsonFile } from "./io/readJsonFile.ts";

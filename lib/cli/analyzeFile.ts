@@ -17,7 +17,7 @@ import {
   formatAnalysisText,
   inputDigest,
   makeProvenance,
-  readCurveFile,
+  readCurveFileWithDigest,
   summaryRow,
   svgWithProvenance,
   writeTextFile,
@@ -125,9 +125,11 @@ export interface AnalyzedFile {
  * analyzeCurveFile("dot-01.csv", { analyze: {}, read: {} }).json.energies.eta; // => 0.88 (from its `# eta:` line)
  */
 export function analyzeCurveFile(file: string, options: RecordedOptions, command = "analyze", onReadProgress?: (fraction: number) => void): AnalyzedFile {
-  const digest = inputDigest(file);
   // A large file is streamed; onReadProgress hears how far (it is not an option: nothing is recorded).
-  const { curve, record } = readCurveFile(file, options.read, onReadProgress);
+  const {
+    parsed: { curve, record },
+    input: digest,
+  } = readCurveFileWithDigest(file, options.read, onReadProgress);
   // Without --eta, a file may state its own η in a metadata line (`# eta: 0.88`).
   const { eta, note } = etaForCurve(options.analyze.eta, curve);
   const analysis = analyzeCurve(curve, eta === undefined ? options.analyze : { ...options.analyze, eta });

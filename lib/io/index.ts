@@ -32,6 +32,7 @@ export {
   MAX_CURVE_FILE_BYTES,
   listCurveFiles,
   readCurveFile,
+  readCurveFileWithDigest,
   type ReadCurveOptions,
 } from "./readCurveFile.ts";
 export { parseCurveBytes } from "./parseCurveBytes.ts";

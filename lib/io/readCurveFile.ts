@@ -7,6 +7,7 @@ import { extname, join, resolve } from "node:path";
 import { DotspecError } from "../util/errors.ts";
 import { parseCurveBytes } from "./parseCurveBytes.ts";
 import { readCurveStream } from "./readCurveStream.ts";
+import { inputDigest, sha256Hex, type InputDigest } from "./inputDigest.ts";
 import type { ParseOptions, ParsedCurve } from "./parse/index.ts";
 
 /** Options of {@link readCurveFile}: those of {@link parseCurveText} except `source`, which is the path. */
@@ -64,6 +65,51 @@ export const STREAM_CURVE_FILE_BYTES = 16 * 1024 * 1024;
  * record.source;  // => "data/dot-07.csv"
  */
 export function readCurveFile(path: string, options: ReadCurveOptions = {}, onProgress?: (fraction: number) => void): ParsedCurve {
+  return readCurve(path, options, onProgress, false).parsed;
+}
+
+/**
+ * Read one curve file and the digest of what was read: {@link readCurveFile} plus the file's
+ * name, size and SHA-256 ({@link inputDigest}) for a record's provenance.
+ *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file, as the user gave it.
+ * options : ReadCurveOptions, optional
+ *     Parsing options, see {@link ParseOptions}.
+ * onProgress : (fraction: number) => void, optional
+ *     As for {@link readCurveFile}.
+ *
+ * Returns
+ * -------
+ * { parsed: ParsedCurve; input: InputDigest }
+ *     The curve and record of {@link readCurveFile}, and the digest.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     Those of {@link readCurveFile}.
+ *
+ * Notes
+ * -----
+ * 1. A file read whole is hashed from the very bytes that were parsed (one read, and the digest
+ *    cannot describe another version of the file than the one analysed).
+ * 2. A streamed file (over {@link STREAM_CURVE_FILE_BYTES}) is hashed in a read of its own, before
+ *    it is streamed.
+ *
+ * Example
+ * -------
+ * const { parsed, input } = readCurveFileWithDigest("data/dot-07.csv");
+ * input.sha256.length;  // => 64
+ */
+export function readCurveFileWithDigest(path: string, options: ReadCurveOptions = {}, onProgress?: (fraction: number) => void): { parsed: ParsedCurve; input: InputDigest } {
+  const { parsed, input } = readCurve(path, options, onProgress, true);
+  return { parsed, input: input! };
+}
+
+/** {@link readCurveFile}, with the digest of what was read when `digest` is set. */
+function readCurve(path: string, options: ReadCurveOptions, onProgress: ((fraction: number) => void) | undefined, digest: boolean): { parsed: ParsedCurve; input: InputDigest | null } {
   if (typeof path !== "string" || path === "") {
     throw new DotspecError("io/bad-path", `readCurveFile: path must be a non-empty string; got ${JSON.stringify(path)}`);
   }
@@ -80,14 +126,18 @@ export function readCurveFile(path: string, options: ReadCurveOptions = {}, onPr
       `${path}: ${stats.size} bytes is more than the ${MAX_CURVE_FILE_BYTES} bytes a single curve file may have; is this the right file?`,
     );
   }
-  if (stats.size > STREAM_CURVE_FILE_BYTES) return readCurveStream(path, { ...options, source: path }, onProgress ? { onProgress } : {});
+  if (stats.size > STREAM_CURVE_FILE_BYTES) {
+    const input = digest ? inputDigest(path) : null;
+    return { parsed: readCurveStream(path, { ...options, source: path }, onProgress ? { onProgress } : {}), input };
+  }
   let bytes: Buffer;
   try {
     bytes = readFileSync(path, { flag: "r" });
   } catch (err) {
     throw fsError(path, err);
   }
-  return parseCurveBytes(bytes, { ...options, source: path });
+  const input = digest ? { name: path, bytes: bytes.length, sha256: sha256Hex(bytes) } : null;
+  return { parsed: parseCurveBytes(bytes, { ...options, source: path }), input };
 }
 
 function statOrThrow(path: string): Stats {

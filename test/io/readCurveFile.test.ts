@@ -9,7 +9,8 @@ import { join, relative } from "node:path";
 import { fileURLToPath } from "node:url";
 import { expectClose } from "../helpers/expectClose.ts";
 import { parseCurveText } from "../../lib/io/parse/index.ts";
-import { listCurveFiles, readCurveFile } from "../../lib/io/readCurveFile.ts";
+import { listCurveFiles, readCurveFile, readCurveFileWithDigest } from "../../lib/io/readCurveFile.ts";
+import { createHash } from "node:crypto";
 import { errorOf } from "../helpers/errors.ts";
 
 const FIXTURES = fileURLToPath(new URL("../fixtures/io/", import.meta.url));
@@ -140,6 +141,22 @@ describe("readCurveFile", () => {
 
   it("readCurveFile(path, {source}) is refused: the source is the path", () => {
     expect(errorOf(() => readCurveFile(fixture("comma-si.csv"), { source: "x" } as never)).code).toBe("options/unknown-key");
+  });
+});
+
+describe("readCurveFileWithDigest", () => {
+  it("gives readCurveFile's curve and record and the file's size and SHA-256 (reference: node:crypto over the file's bytes)", () => {
+    for (const name of ["comma-si.csv", "whitespace-metadata.dat", "tab-fwd-bwd.txt"]) {
+      const path = fixture(name);
+      const bytes = readFileSync(path);
+      const { parsed, input } = readCurveFileWithDigest(path);
+      expect(parsed).toEqual(readCurveFile(path));
+      expect(input).toEqual({ name: path, bytes: bytes.length, sha256: createHash("sha256").update(bytes).digest("hex") });
+    }
+  });
+
+  it("throws what readCurveFile throws (io/not-found)", () => {
+    expect(errorOf(() => readCurveFileWithDigest(join(tmp, "missing.csv"))).code).toBe("io/not-found");
   });
 });
 
