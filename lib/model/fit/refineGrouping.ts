@@ -6,6 +6,7 @@ import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { refinementStarts } from "./refinementStarts.ts";
+import { splitGridStarts } from "./splitGridStarts.ts";
 
 /** What {@link refineGrouping} works with: the fit's runs and hypotheses. */
 export interface RefineContext {
@@ -63,7 +64,9 @@ export function refineGrouping(top: FitTrial, context: RefineContext): FitTrial 
   const { cbOnly, trials, eta } = context;
   const topFull = [...cbOnly.entries()].find(([, hc]) => hc === top.hypothesis)![0];
   let best: FitTrial | null = null;
-  for (const r of refinementStarts(top.hypothesis.seeds, top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale), eta, context.peakChargingEnergyEV ?? null)) {
+  const fitted = top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale);
+  const starts = [...refinementStarts(top.hypothesis.seeds, fitted, eta, context.peakChargingEnergyEV ?? null), ...splitGridStarts(top.hypothesis.seeds, fitted, eta, top.hypothesis.analysis.peaks)];
+  for (const r of starts) {
     const at = parameterIndex(r.seeds.length);
     const moved = { chargingEnergyStartEV: r.parameters[at.chargingEnergy], rateRatioStartLog10: r.parameters[at.logRateRatio] };
     const name = `${topFull.name.replace(/,.*$/, "")}, refined to ${r.layout} (${r.change})`;
