@@ -19,7 +19,8 @@ export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
   /**
    * A finalist whose best whole-curve fit ends above this many times its CB side's reduced χ² (or
    * 1, if that is lower) is also fitted with the VB readings of {@link laterEntryReadings} (each
-   * level after the first entered with one carrier before it; a run of six split 2 + 4). A right
+   * level after the first entered with one carrier before it; a run of six split 2 + 4), and such a
+   * reading is kept only where it ends at or below the same limit. A right
    * VB reading leaves the reduced χ² where the CB side has it (about 1 on the crossover benchmark,
    * which scatters by √(2/n) ≈ 0.05 over its 800 points); a VB level started one Ec away settled
    * 1.3–5 times higher there.
@@ -85,9 +86,9 @@ export interface CompareContext {
  *    far behind after the first is not continued).
  * 2. The best finishedHypotheses by BIC are finished; a finalist above reduced χ² shiftChiSquare
  *    is retried with its CB starts shifted by ∓Ec ({@link shiftGrouping}).
- * 3. The best refinedGroupings are refined ({@link refineGrouping}), the second not when it ended
- *    at the same fit ({@link sameFit}); the best again while a refined one is best, up to
- *    refinementRounds.
+ * 3. The best refinedGroupings are refined ({@link refineGrouping}, with the split starts at the
+ *    peaks' spacings), the second not when it ended at the same fit ({@link sameFit}); the best
+ *    again (without those) while a refined one is best, up to refinementRounds.
  * 4. By CB-side BIC, each finalist plausible on the CB side is fitted to the whole curve with each
  *    VB reading; the first whose whole-curve fit is plausible (or does not describe the curve) ends
  *    the search. With none plausible, the lowest BIC's whole-curve fit is kept.
@@ -139,16 +140,18 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
   // The best grouping so far from further starts about its own fitted values (its p shell split
   // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
   // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
-  const refine = (top: FitTrial) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations) });
+  // The split starts at the peaks' spacings in the first round only: about a refined grouping they
+  // repeat the first round's (the same peaks, nearly the same first p level and Ec).
+  const refine = (top: FitTrial, splitAtPeaks: boolean) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations), splitAtPeaks });
   // First round: the best refinedGroupings groupings; then the best again while refining helps.
   // Two groupings at the same fit (sameFit) would give the same refinements: the second is left out.
   const best2 = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings);
-  let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map(refine).filter((t): t is FitTrial => t !== null);
+  let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map((t) => refine(t, true)).filter((t): t is FitTrial => t !== null);
   for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
     cbFinals.push(...latest);
     const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
     if (round === F.refinementRounds || !latest.includes(top)) break;
-    const next = refine(top);
+    const next = refine(top, false);
     latest = next ? [next] : [];
   }
   /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
@@ -157,19 +160,22 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
     let bestFull: FitTrial | null = null;
     const ncb = cbDone.hypothesis.seeds.length;
     const p = cbDone.loop.parameters;
-    const fitReading = (vb: LevelSeed[], chargingEnergyEV: number | null) => {
+    const fitReading = (vb: LevelSeed[], chargingEnergyEV: number | null, accept: (t: FitTrial) => boolean = () => true) => {
       const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
       const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
       const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
       const full = { ...run(hv, null, maxIterations, from), rateRatio0: cbDone.rateRatio0 };
       trials.push(full);
-      if (!bestFull || full.bic < bestFull.bic) bestFull = full;
+      if (accept(full) && (!bestFull || full.bic < bestFull.bic)) bestFull = full;
     };
     for (const vb of h.vbReadings) fitReading(vb, h.chargingEnergyStartEV);
     // No reading fits as well as the CB side does: the VB levels entered one carrier earlier (started from the CB side's Ec).
-    if (reduced(bestFull!) > COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone))) {
+    // Such a reading replaces the best only where it fits as well as the CB side does: one that
+    // merely fits better pulls Ec and Γtip/Γsub as a wrong reading does.
+    const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
+    if (!asCbSide(bestFull!)) {
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
-      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV)) fitReading(vb, p[ncb]);
+      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV)) fitReading(vb, p[ncb], asCbSide);
     }
     return bestFull!;
   };

@@ -21,6 +21,8 @@ export const SPLIT_GRID_DEFAULTS = Object.freeze({
   doubletSpacingTolerance: 0.3,
   /** … and the first lies within this many Ec/η of the fitted s level's entry. */
   doubletEntryEc: 0.3,
+  /** Peaks whose step is below this fraction of the CB peaks' median step are not used (noise-level peaks; a sub-level's entry steps 0.2–0.5 of the first CB step on the crossover benchmark). */
+  minStepOfMedian: 0.15,
   /** Largest second-over-first step ratio read as a rate ratio (q → 1 is r → ∞: shell filling, where a step ratio barely tells r). */
   maxStepRatio: 0.9,
 });
@@ -48,8 +50,10 @@ export interface GridPeak {
  * Returns
  * -------
  * RefinementStart[]
- *     For each candidate spacing δ (nearest first, at most D.maxSpacings), p split 2+4 (ε₁, ε₁ + δ)
- *     and 2+2+2 (ε₁, ε₁ + δ, ε₁ + 2δ) with s, Ec and σ as fitted; empty without an s and a p level.
+ *     For each candidate spacing δ (nearest first, at most D.maxSpacings), p split 2+4 (ε₁, ε₁ + δ),
+ *     2+2+2 (ε₁, ε₁ + δ, ε₁ + 2δ) and, where δ/2 is in range too, 2+2+2 (ε₁, ε₁ + δ/2, ε₁ + δ: the
+ *     peak the third sub-level's entry, the second's hidden), with s, Ec and σ as fitted; empty
+ *     without an s and a p level.
  *
  * Throws
  * ------
@@ -57,7 +61,8 @@ export interface GridPeak {
  *
  * Notes
  * -----
- * With D = SPLIT_GRID_DEFAULTS, Ec the fitted charging energy and P₀ < P₁ < … the CB peaks:
+ * With D = SPLIT_GRID_DEFAULTS, Ec the fitted charging energy and P₀ < P₁ < … the CB peaks whose
+ * step is at least D.minStepOfMedian × their median step:
  * 1. The first p peak V₁ is the peak nearest the lowest p level's entry from the empty dot,
  *    (ε_p + Ec/2)/η, within D.entrySnapEc·Ec/η (else that entry); ε₁ = η·V₁ − Ec/2.
  * 2. Each later peak V_k with δ = η·(V_k − V₁) within D.spacingEcRange × Ec is a candidate second
@@ -88,7 +93,10 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   const pIndex = seeds.map((s, j) => (/^p/.test(s.label) ? j : -1)).filter((j) => j >= 0);
   if (sIndex < 0 || !pIndex.length || !(ec > 0)) return [];
   const ecV = ec / eta;
-  const cb = peaks.filter((p) => p.biasV > 0).sort((a, b) => a.biasV - b.biasV);
+  const positive = peaks.filter((p) => p.biasV > 0);
+  const steps = positive.map((p) => p.stepA).sort((a, b) => a - b);
+  const median = steps.length ? steps[Math.floor(steps.length / 2)] : 0;
+  const cb = positive.filter((p) => p.stepA >= D.minStepOfMedian * median).sort((a, b) => a.biasV - b.biasV);
   const pLowest = Math.min(...pIndex.map((j) => parameters[j]));
   const entryV = (pLowest + ec / 2) / eta;
   const nearest = cb.reduce<GridPeak | null>((m, p) => (!m || Math.abs(p.biasV - entryV) < Math.abs(m.biasV - entryV) ? p : m), null);
@@ -120,6 +128,10 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
     const words = `sub-levels ${(delta * 1000).toFixed(0)} meV apart, ${ratioWords}`;
     out.push(refinementStart([s, sub(2, e1), sub(4, e1 + delta)], `p split 2+4 at the peaks, ${words}`, rest, eta));
     out.push(refinementStart([s, sub(2, e1), sub(2, e1 + delta), sub(2, e1 + 2 * delta)], `p split 2+2+2 at the peaks, ${words}`, rest, eta));
+    // The peak may be the third sub-level's entry, the second's hidden between.
+    if (delta / 2 >= D.spacingEcRange[0] * ec) {
+      out.push(refinementStart([s, sub(2, e1), sub(2, e1 + delta / 2), sub(2, e1 + delta)], `p split 2+2+2 at the peaks, sub-levels ${((delta / 2) * 1000).toFixed(0)} meV apart (the peak the third's entry), ${ratioWords}`, rest, eta));
+    }
   }
   return out;
 }
