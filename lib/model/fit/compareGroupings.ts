@@ -20,7 +20,7 @@ export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
    * A finalist whose best whole-curve fit ends above this many times its CB side's reduced χ² (or
    * 1, if that is lower) is also fitted with the VB readings of {@link laterEntryReadings} (each
    * level after the first entered with one carrier before it; a run of six split 2 + 4), and such a
-   * reading is kept only where it ends at or below the same limit. A right
+   * reading is kept only where it ends at or below the same limit and is plausible. A right
    * VB reading leaves the reduced χ² where the CB side has it (about 1 on the crossover benchmark,
    * which scatters by √(2/n) ≈ 0.05 over its 800 points); a VB level started one Ec away settled
    * 1.3–5 times higher there.
@@ -170,12 +170,12 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
     };
     for (const vb of h.vbReadings) fitReading(vb, h.chargingEnergyStartEV);
     // No reading fits as well as the CB side does: the VB levels entered one carrier earlier (started from the CB side's Ec).
-    // Such a reading replaces the best only where it fits as well as the CB side does: one that
-    // merely fits better pulls Ec and Γtip/Γsub as a wrong reading does.
+    // Such a reading replaces the best only where it fits as well as the CB side does and is
+    // plausible: one that merely fits better pulls Ec and Γtip/Γsub as a wrong reading does.
     const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
     if (!asCbSide(bestFull!)) {
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
-      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV)) fitReading(vb, p[ncb], asCbSide);
+      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
     }
     return bestFull!;
   };

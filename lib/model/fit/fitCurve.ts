@@ -248,8 +248,9 @@ export const FIT_DEFAULTS = Object.freeze({
  *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
  *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
  *    run of one sign above 5 σ, where the model misses, adds or misplaces a step) and, where the
- *    rules and the fit both read a charging ladder, an Ec more than 5 combined σ from the
- *    peak-based Ec make it poor, with the reason in words.
+ *    rules and the fit both read a charging ladder with p whole, an Ec more than 5 combined σ from
+ *    the peak-based Ec make it poor, with the reason in words (a fit with p split into sub-levels
+ *    reads another ladder than the rules' one over p: a warning says its Ec is not compared).
  * The model current is the fast one throughout; for speed, each band's steps are solved only over
  * the data's bias range, once per distinct band parameters and shared by all runs, and each
  * zero-temperature plateau once per rate matrix ({@link bandStepsMemo}): the same current to
@@ -454,7 +455,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // 4. The verdict, the status and the result. The residuals are checked for structure over a
   // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.
   const structure = residualStructure(biasV, dataA.map((v, i) => v - final.out[i]), noiseA, analysis.settings.peakWidthMV / 1000);
-  const peakEc = peakChargingEnergy(analysis, eta);
+  // A fit with p split into sub-levels reads a ladder the peak-based Ec (one ladder over p) does
+  // not: it is not compared (the fit's own reading stands or falls by its residuals).
+  const pSplit = seeds.filter((s) => s.band === "CB" && /^p/.test(s.label)).length > 1;
+  const rulesEc = peakChargingEnergy(analysis, eta);
+  const peakEc = pSplit ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
@@ -469,8 +474,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     peakChargingEnergy: peakEc,
     cutShort,
   });
-  if (peakEc && verdict.regime === "shell-tunneling") {
-    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(peakEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
+  if (rulesEc && verdict.regime === "shell-tunneling") {
+    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
+  } else if (rulesEc && pSplit) {
+    warnings.push(`the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's`);
   }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
