@@ -14,16 +14,18 @@ import { shiftGrouping } from "./shiftGrouping.ts";
 import { laterEntryReadings } from "./laterEntryReadings.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
 
-/** Constants of {@link compareGroupings} (locked by test/model/fit/compareGroupings.test.ts). */
+/** Constants of {@link compareGroupings} (locked by test/model/fit/laterEntryReadings.test.ts). */
 export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
   /**
    * A finalist whose best whole-curve fit ends above this many times its CB side's reduced χ² (or
-   * 1, if that is lower) is also fitted with the VB readings of {@link laterEntryReadings} (each
+   * 1, if that is lower), and at most FIT_DEFAULTS.poorFitChiSquare (10), is also fitted with the VB readings of {@link laterEntryReadings} (each
    * level after the first entered with one carrier before it; a run of six split 2 + 4), and such a
    * reading is kept only where it ends at or below the same limit and is plausible. A right
    * VB reading leaves the reduced χ² where the CB side has it (about 1 on the crossover benchmark,
    * which scatters by √(2/n) ≈ 0.05 over its 800 points); a VB level started one Ec away settled
-   * 1.3–5 times higher there.
+   * 1.3–5 times higher there. Above poorFitChiSquare no reading comes near the curve and the
+   * retries (a third of all whole-curve fits on `bench:fit`, seeds 1–60; without them every count
+   * there is the same) cost 6 % of the model evaluations.
    */
   vbRetryRatio: 1.2,
 });
@@ -146,7 +148,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
   // First round: the best refinedGroupings groupings; then the best again while refining helps.
   // Two groupings at the same fit (sameFit) would give the same refinements: the second is left out.
   const best2 = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings);
-  let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map((t) => refine(t, true)).filter((t): t is FitTrial => t !== null);
+  let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map((t, i) => refine(t, i === 0)).filter((t): t is FitTrial => t !== null);
   for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
     cbFinals.push(...latest);
     const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
@@ -169,11 +171,13 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
       if (accept(full) && (!bestFull || full.bic < bestFull.bic)) bestFull = full;
     };
     for (const vb of h.vbReadings) fitReading(vb, h.chargingEnergyStartEV);
-    // No reading fits as well as the CB side does: the VB levels entered one carrier earlier (started from the CB side's Ec).
+    // No reading fits as well as the CB side does, though one comes near (reduced χ² at most
+    // poorFitChiSquare; beyond, the reading is wrong by more than an entry): the VB levels entered
+    // one carrier earlier (started from the CB side's Ec).
     // Such a reading replaces the best only where it fits as well as the CB side does and is
     // plausible: one that merely fits better pulls Ec and Γtip/Γsub as a wrong reading does.
     const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
-    if (!asCbSide(bestFull!)) {
+    if (!asCbSide(bestFull!) && reduced(bestFull!) <= F.poorFitChiSquare) {
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
       for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
     }

@@ -225,11 +225,15 @@ export const FIT_DEFAULTS = Object.freeze({
  *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined (the
  *    second not when it ended at the same fit as the first, {@link sameFit})
  *    ({@link refineGrouping}, {@link refinementStarts}: the p shell split 2+4 or 2+2+2 about the
- *    fitted p level (and 2+2+2 at the peak-based Ec when lower), a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
- *    refinementIterations (4) from the fitted values, the best finished and kept as a further
+ *    fitted p level (and 2+2+2 at the peak-based Ec when lower), a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3;
+ *    in the first round also p split 2+4 and 2+2+2 at the spacings the peaks show, with Γtip/Γsub
+ *    from the s doublet's step ratio, {@link splitGridStarts}; each explored for
+ *    refinementIterations (4) from the fitted values, the best two finished and the better kept as a further
  *    finalist when its BIC is lower), and the best again while it is a refined one
  *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
- *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
+ *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
+ *    side, also with each VB level after the first entered one carrier earlier,
+ *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
@@ -255,6 +259,7 @@ export const FIT_DEFAULTS = Object.freeze({
  * the data's bias range, once per distinct band parameters and shared by all runs, and each
  * zero-temperature plateau once per rate matrix ({@link bandStepsMemo}): the same current to
  * round-off.
+ * The levels of a split p shell are reported in energy order ({@link orderLevels}).
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
  * References
