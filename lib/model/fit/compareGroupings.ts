@@ -179,7 +179,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
     const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
     if (!asCbSide(bestFull!) && reduced(bestFull!) <= F.poorFitChiSquare) {
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
-      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
+      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV, p[ncb] / eta)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
     }
     return bestFull!;
   };

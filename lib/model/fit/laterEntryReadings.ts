@@ -4,6 +4,9 @@
  */
 import type { LevelSeed } from "./levelsToFit.ts";
 
+/** Relative tolerance on Ec/η of the spacing at which a level's first peak is read as the charging peak of the level before it (reading (c) of {@link laterEntryReadings}). */
+const SATELLITE_TOLERANCE = 0.15;
+
 /**
  * The readings of the VB peaks with each level after the first entered with one carrier before it.
  *
@@ -13,6 +16,8 @@ import type { LevelSeed } from "./levelsToFit.ts";
  *     The readings tried so far (VB seeds, from the gap outward).
  * vbPeaksV : readonly number[]
  *     The VB peaks' biases (V, negative), in any order.
+ * chargingEnergyV : number | null, optional
+ *     Ec/η in V (the CB side's fitted Ec), for reading (c); null: no such reading. Default null.
  *
  * Returns
  * -------
@@ -20,7 +25,10 @@ import type { LevelSeed } from "./levelsToFit.ts";
  *     New readings only (none equal to one given): (a) each reading of two or more levels with every
  *     level after the first entered with one carrier before it (`before` 1); (b) each reading of one
  *     level holding four or more, split into a doublet at its first peak and the rest (g − 2) at the
- *     third peak from it, entered with one carrier before it.
+ *     third peak from it, entered with one carrier before it; (c) with chargingEnergyV, each reading of
+ *     three or more levels in which a level's first peak lies Ec/η (within 15 %) beyond the previous
+ *     level's first peak, with that level merged into the one before (its degeneracies added): in
+ *     shell tunnelling a level's charging peaks, read as single levels, follow it one Ec apart.
  *
  * Throws
  * ------
@@ -45,7 +53,7 @@ import type { LevelSeed } from "./levelsToFit.ts";
  * // => [[0, 1]]
  * ```
  */
-export function laterEntryReadings(readings: readonly (readonly LevelSeed[])[], vbPeaksV: readonly number[]): LevelSeed[][] {
+export function laterEntryReadings(readings: readonly (readonly LevelSeed[])[], vbPeaksV: readonly number[], chargingEnergyV: number | null = null): LevelSeed[][] {
   const key = (r: readonly LevelSeed[]) => r.map((s) => `${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
   const seen = new Set(readings.map(key));
   const out: LevelSeed[][] = [];
@@ -57,6 +65,18 @@ export function laterEntryReadings(readings: readonly (readonly LevelSeed[])[], 
   };
   const peaks = [...vbPeaksV].sort((a, b) => Math.abs(a) - Math.abs(b));
   for (const r of readings) {
+    // (c) Levels whose first peaks follow a level's one Ec/η apart are its charging peaks.
+    if (chargingEnergyV !== null && chargingEnergyV > 0 && r.length >= 3) {
+      const merged: LevelSeed[] = [];
+      let lastV = NaN;
+      for (const s of r) {
+        const prev = merged[merged.length - 1];
+        if (prev && Math.abs(Math.abs(s.firstPeakV - lastV) - chargingEnergyV) <= SATELLITE_TOLERANCE * chargingEnergyV) prev.degeneracy += s.degeneracy;
+        else merged.push({ ...s });
+        lastV = s.firstPeakV;
+      }
+      if (merged.length < r.length) add(merged.map((s, i) => ({ ...s, label: `v${i + 1}` })));
+    }
     if (r.length >= 2) add(r.map((s, i) => (i === 0 ? { ...s } : { ...s, before: 1 })));
     else if (r.length === 1 && r[0].degeneracy >= 4 && peaks.length) {
       const k = peaks.reduce((m, v, i) => (Math.abs(v - r[0].firstPeakV) < Math.abs(peaks[m] - r[0].firstPeakV) ? i : m), 0);
