@@ -22,6 +22,15 @@ describe("laterEntryReadings(readings, vbPeaksV)", () => {
     expect(laterEntryReadings([[v("v1", 6, -1.173, 0)]], peaks)).toEqual([[v("v1", 2, -1.173, 0), v("v2", 4, -1.534, 1)]]);
   });
 
+  it("merges a level's charging satellites, first peaks one Ec/η after it, into it", () => {
+    // Ec/η = 0.0988 V: −1.278 and −1.378 V follow −1.182 V by 0.096 and 0.100 V (within 15 %).
+    const tunnelling = [v("v1", 2, -0.899, 0), v("v2", 2, -1.182, 0), v("v3", 1, -1.278, 0), v("v4", 1, -1.378, 0)];
+    const out = laterEntryReadings([tunnelling], [], 0.0988);
+    expect(out[0]).toEqual([v("v1", 2, -0.899, 0), v("v2", 4, -1.182, 0)]);
+    // Without Ec/η, no merged reading.
+    expect(laterEntryReadings([tunnelling], []).some((r) => r.length === 2)).toBe(false);
+  });
+
   it("adds nothing already given, and nothing for one doublet", () => {
     const given = [v("v1", 2, -1.6, 0), v("v2", 4, -1.9, 1)];
     expect(laterEntryReadings([given], [])).toEqual([]);
