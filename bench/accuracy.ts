@@ -10,6 +10,7 @@
  *   npm run bench:accuracy -- --mix low-eta          # η 0.55–0.65 (the default mix otherwise)
  *   npm run bench:accuracy -- --mix crossover --n 100 --method fast --compare-models
  *   npm run bench:accuracy -- --mix crossover --method fast --count-only   # which spectra it would fit
+ *   npm run bench:accuracy -- --mix crossover --method fast --compare-models --ec-check   # each fit's Ec against the rules' in σ
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
@@ -53,6 +54,7 @@ import { analysisToJson } from "../lib/report/analysisJson.ts";
 import { fitToJson } from "../lib/report/fitJson.ts";
 import { modelComparisonJson, type ModelComparisonJson } from "../lib/report/modelComparisonJson.ts";
 import { rulesDecisive } from "../lib/assign/rulesDecisive.ts";
+import { peakChargingEnergy } from "../lib/model/fit/fitStatus.ts";
 
 const args = process.argv.slice(2);
 const arg = (name: string, fallback: string) => {
@@ -63,6 +65,8 @@ const perRegime = Number(arg("n", "200"));
 const method = arg("method", "exact") as "exact" | "fast";
 const verbose = args.includes("--verbose");
 const compareModels = args.includes("--compare-models") || args.includes("--count-only");
+// With --ec-check: for every comparison fit where the rules read shell filling and the fit a charging ladder, the fit's Ec from the peak-based one in combined σ, its CB layout, status and outcome.
+const ecCheck = args.includes("--ec-check");
 // With --count-only: which spectra --compare-models would fit and why (the rules' answers, no fit).
 const countOnly = args.includes("--count-only");
 const firstSeed = Number(arg("seed", "1"));
@@ -187,6 +191,16 @@ function compareWithModel(a: CurveAnalysis, t: SyntheticTruth, rulesPass: boolea
     const m = modelComparisonJson(fitToJson(fit, json), "undecided", { ranBecause: verdict.reasons, rules: { regime: json.regime, chargingEnergyEV: a.assignment.energies.chargingEnergyEV } });
     const sc = scoreFit(m, t);
     result = { ...sc, decides: m.decides === true, detail: `${sc.detail}; ${m.decision}`, reasons: verdict.reasons };
+    if (ecCheck) {
+      // Where the rules read shell filling and the fit a charging ladder: how far the fit's Ec lies from the peak-based one, by layout and outcome.
+      const peakEc = peakChargingEnergy(a, fit.eta);
+      if (peakEc && fit.regime !== "shell-tunneling" && fit.regime !== "undetermined") {
+        const sigmas = Math.abs(fit.chargingEnergyEV.value - peakEc.valueEV) / Math.hypot(fit.chargingEnergyEV.standardError, peakEc.standardErrorEV);
+        const layout = fit.levels.filter((l) => l.band === "CB").map((l) => l.degeneracy).join("+");
+        const others = fit.statusReasons.filter((r) => !/peak-based/.test(r)).length;
+        console.log(`ec-check ${t.regime} ${sigmas.toFixed(2)} σ layout ${layout} status ${fit.status} other-reasons ${others} fit-values ${sc.outcome} (${sc.detail.replace(/; the record.*/, "")})`);
+      }
+    }
   } catch (err) {
     result = { outcome: "undetermined", decides: false, detail: `fit threw: ${(err as Error).message}`, reasons: verdict.reasons };
   }

@@ -7,14 +7,14 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkInteger, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { startingValues } from "./startingValues.ts";
+import type { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { bandStepsMemo } from "./bandStepsMemo.ts";
 import { fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
-import { fitHypotheses, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
+import { fitHypotheses, type HypothesisKind } from "./fitHypotheses.ts";
 import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { fitAlternative, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
@@ -22,9 +22,8 @@ import { fitEvidence } from "./fitEvidence.ts";
 import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
 import { fitVerdict } from "./fitVerdict.ts";
-import { refineGrouping } from "./refineGrouping.ts";
-import { sameFit } from "./sameFit.ts";
-import { shiftGrouping } from "./shiftGrouping.ts";
+import { compareGroupings } from "./compareGroupings.ts";
+import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 
@@ -226,11 +225,15 @@ export const FIT_DEFAULTS = Object.freeze({
  *    too many, and the better by BIC kept); the best refinedGroupings (2) of them are refined (the
  *    second not when it ended at the same fit as the first, {@link sameFit})
  *    ({@link refineGrouping}, {@link refinementStarts}: the p shell split 2+4 or 2+2+2 about the
- *    fitted p level (and 2+2+2 at the peak-based Ec when lower), a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3, each explored for
- *    refinementIterations (4) from the fitted values, the best finished and kept as a further
+ *    fitted p level (and 2+2+2 at the peak-based Ec when lower), a p sub-level of 4 split 2+2, the rate ratio × 1/3 and × 3;
+ *    in the first round also p split 2+4 and 2+2+2 at the spacings the peaks show, with Γtip/Γsub
+ *    from the s doublet's step ratio, {@link splitGridStarts}; each explored for
+ *    refinementIterations (4) from the fitted values, the best two finished and the better kept as a further
  *    finalist when its BIC is lower), and the best again while it is a refined one
  *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
- *    curve with each reading of the VB peaks (the best kept), and checked for plausibility (on
+ *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
+ *    side, also with each VB level after the first entered one carrier earlier,
+ *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
@@ -249,12 +252,14 @@ export const FIT_DEFAULTS = Object.freeze({
  *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
  *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
  *    run of one sign above 5 σ, where the model misses, adds or misplaces a step) and, where the
- *    rules and the fit both read a charging ladder, an Ec more than 5 combined σ from the
- *    peak-based Ec make it poor, with the reason in words.
+ *    rules and the fit both read a charging ladder with p whole, an Ec more than 5 combined σ from
+ *    the peak-based Ec make it poor, with the reason in words (a fit with p split into sub-levels
+ *    reads another ladder than the rules' one over p: a warning says its Ec is not compared).
  * The model current is the fast one throughout; for speed, each band's steps are solved only over
  * the data's bias range, once per distinct band parameters and shared by all runs, and each
  * zero-temperature plateau once per rate matrix ({@link bandStepsMemo}): the same current to
  * round-off.
+ * The levels of a split p shell are reported in energy order ({@link orderLevels}).
  * η is not fitted: one curve barely constrains it (it trades off against every level energy).
  *
  * References
@@ -356,88 +361,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     }
   }
   if (compared) {
-    const cbOnly = new Map<FitHypothesis, FitHypothesis>();
-    for (const h of hypotheses) {
-      const seeds = h.seeds.filter((x) => x.band === "CB");
-      if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
-    }
-    // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
-    // above exploreDropRatio times the best) or already converged is not continued.
-    const half = Math.min(explore, F.chunkIterations);
-    const explored: FitTrial[] = [];
-    for (const [h, hc] of cbOnly) {
-      const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
-      for (const logRatio of starts) explored.push(run(hc, logRatio, half, undefined, cbSide));
-    }
-    const bestHalf = Math.min(...explored.map(reduced));
-    explored.forEach((t, i) => {
-      if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
-      const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
-      explored[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
-    });
-    trials.push(...explored);
-    const bestOf = new Map<FitHypothesis, FitTrial>();
-    for (const t of explored) {
-      const b = bestOf.get(t.hypothesis);
-      if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
-    }
-    const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
-    const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
-    trials.push(...cbFinals);
-    // A grouping that settles well above the noise may be one Ec off (its first charging peak
-    // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
-    const context = { cbOnly, trials, eta, exploreIterations: explore, maxIterations, run: (hc: FitHypothesis, iterations: number, from?: number[]) => run(hc, null, iterations, from, cbSide), peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null };
-    cbFinals.forEach((t, i) => {
-      if (t.hypothesis.kind !== "assigned" && reduced(t) > F.shiftChiSquare) cbFinals[i] = shiftGrouping(t, context) ?? t;
-    });
-    // The best grouping so far from further starts about its own fitted values (its p shell split
-    // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
-    // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
-    const refine = (top: FitTrial) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations) });
-    // First round: the best refinedGroupings groupings; then the best again while refining helps.
-    // Two groupings at the same fit (sameFit) would give the same refinements: the second is left out.
-    const best2 = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings);
-    let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map(refine).filter((t): t is FitTrial => t !== null);
-    for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
-      cbFinals.push(...latest);
-      const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
-      if (round === F.refinementRounds || !latest.includes(top)) break;
-      const next = refine(top);
-      latest = next ? [next] : [];
-    }
-    /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
-    const wholeFit = (cbDone: FitTrial): FitTrial => {
-      const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
-      let bestFull: FitTrial | null = null;
-      for (const vb of h.vbReadings) {
-        const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
-        const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
-        const ncb = cbDone.hypothesis.seeds.length;
-        const p = cbDone.loop.parameters;
-        const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
-        const full = { ...run(hv, null, maxIterations, from), rateRatio0: cbDone.rateRatio0 };
-        trials.push(full);
-        if (!bestFull || full.bic < bestFull.bic) bestFull = full;
-      }
-      return bestFull!;
-    };
-    wholeFitOf = wholeFit;
-    // By CB-side BIC: the first plausible on the CB side whose whole-curve fit is plausible too
-    // (or does not describe the curve, then its VB reading is what fails) is the winner; the
-    // whole curve is fitted only for the candidates looked at.
-    for (const c of [...cbFinals].sort((x, y) => x.bic - y.bic)) {
-      finals.push(c);
-      if (plausibilityOf(c).length) continue;
-      const whole = wholeFit(c);
-      cbSideOf.set(whole, c);
-      if (whole.loop.chiSquare / Math.max(1, whole.n - whole.k) > F.poorFitChiSquare || plausibilityOf(whole).length === 0) break;
-    }
-    for (const c of cbFinals) if (!finals.includes(c)) finals.push(c);
-    if (![...cbSideOf.values()].length) {
-      // None plausible on the CB side: the lowest BIC's whole-curve fit, reported as implausible.
-      const c = finals.filter((t) => t.side === "CB").reduce((x, y) => (y.bic < x.bic ? y : x));
-      cbSideOf.set(wholeFit(c), c);
-    }
+    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F });
   }
   const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
   // The finalists: when groupings were compared, their CB-side fits (all on the same points),
@@ -536,7 +460,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // 4. The verdict, the status and the result. The residuals are checked for structure over a
   // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.
   const structure = residualStructure(biasV, dataA.map((v, i) => v - final.out[i]), noiseA, analysis.settings.peakWidthMV / 1000);
-  const peakEc = peakChargingEnergy(analysis, eta);
+  // A fit with p split into sub-levels reads a ladder the peak-based Ec (one ladder over p) does
+  // not: it is not compared (the fit's own reading stands or falls by its residuals).
+  const pSplit = seeds.filter((s) => s.band === "CB" && /^p/.test(s.label)).length > 1;
+  const rulesEc = peakChargingEnergy(analysis, eta);
+  const peakEc = pSplit ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
@@ -551,8 +479,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     peakChargingEnergy: peakEc,
     cutShort,
   });
-  if (peakEc && verdict.regime === "shell-tunneling") {
-    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(peakEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
+  if (rulesEc && verdict.regime === "shell-tunneling") {
+    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
+  } else if (rulesEc && pSplit) {
+    warnings.push(`the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's`);
   }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
@@ -575,13 +505,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     hypothesis: hypothesis.name,
     evidence,
     alternatives: trials.map((t) => (finalists.includes(t) ? fitAlternative(t, weights[finalists.indexOf(t)], implausibleOf(t)) : fitAlternative(t, 0, t.implausible))),
-    levels: seeds.map((s, j) => ({
+    levels: orderLevels(seeds.map((s, j) => ({
       band: s.band,
       label: s.label,
       degeneracy: s.degeneracy,
       energyEV: { value: s.band === "CB" ? params[j] : -params[j], standardError: se[j] },
       energyV: { value: (s.band === "CB" ? params[j] : -params[j]) / eta, standardError: se[j] / eta },
-    })),
+    }))),
     chargingEnergyEV: value(at.chargingEnergy),
     chargingEnergyV: { value: params[at.chargingEnergy] / eta, standardError: se[at.chargingEnergy] / eta },
     rateRatio: { value: ratio, standardError: ratioSE },

@@ -2,8 +2,9 @@
  * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with
  * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
- * scale, offset and background, the Levenberg–Marquardt loop and the runs built on it, the refinement starts about the
- * best grouping, the standard errors, the residual structure, the status, the verdict, and
+ * scale, offset and background, the Levenberg–Marquardt loop and the runs built on it, the comparison
+ * of the groupings, the refinement starts about the best grouping (and at the p sub-level spacings
+ * the peaks show), the further readings of the VB peaks, the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
  */
 export { fitCurve, FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
@@ -20,12 +21,16 @@ export { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS, type BandSteps
 export { linearProjector, projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
 export { fitRunner, type FitRun, type FitRunner, type FitRunnerSettings } from "./fitRunner.ts";
-export { refinementStarts, REFINEMENT_DEFAULTS, type RefinementStart } from "./refinementStarts.ts";
+export { refinementStarts, refinementStart, REFINEMENT_DEFAULTS, type RefinementStart, type StartLevel } from "./refinementStarts.ts";
+export { splitGridStarts, SPLIT_GRID_DEFAULTS, type GridPeak } from "./splitGridStarts.ts";
 export { standardErrors } from "./standardErrors.ts";
 export { trialErrors, type TrialErrors } from "./trialErrors.ts";
 export { residualStructure, type ResidualStructure } from "./residualStructure.ts";
 export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } from "./fitStatus.ts";
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
-export { refineGrouping, type RefineContext } from "./refineGrouping.ts";
+export { refineGrouping, REFINE_GROUPING_DEFAULTS, type RefineContext } from "./refineGrouping.ts";
+export { compareGroupings, COMPARE_GROUPINGS_DEFAULTS, type CompareContext } from "./compareGroupings.ts";
+export { laterEntryReadings } from "./laterEntryReadings.ts";
+export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";
 export { sameFit, SAME_FIT_DEFAULTS } from "./sameFit.ts";

@@ -104,18 +104,7 @@ export function refinementStarts(seeds: readonly LevelSeed[], parameters: readon
   const tail = parameters.slice(seeds.length);
   const levels = seeds.map((s, j) => ({ label: s.label, degeneracy: s.degeneracy, energyEV: parameters[j] }));
   const out: RefinementStart[] = [];
-  const make = (list: { label: string; degeneracy: number; energyEV: number }[], change: string, rest: number[] = tail): RefinementStart => {
-    let p = 0;
-    let before = 0;
-    const pCount = list.filter((l) => /^p/.test(l.label)).length;
-    const cb = list.map((l) => {
-      const label = /^p/.test(l.label) ? (pCount > 1 ? `p${++p}` : "p") : l.label;
-      const seed: LevelSeed = { band: "CB", label, degeneracy: l.degeneracy, firstPeakV: (l.energyEV + rest[0] * (before + 0.5)) / eta, before };
-      before += l.degeneracy;
-      return seed;
-    });
-    return { seeds: cb, parameters: [...list.map((l) => l.energyEV), ...rest], change, layout: cb.map((s) => s.degeneracy).join("+") };
-  };
+  const make = (list: StartLevel[], change: string, rest: number[] = tail): RefinementStart => refinementStart(list, change, rest, eta);
   for (const spacing of D.splitSpacingsEc) {
     const delta = spacing * ec;
     const words = `${(delta * 1000).toFixed(0)} meV apart`;
@@ -138,7 +127,7 @@ export function refinementStarts(seeds: readonly LevelSeed[], parameters: readon
   const whole = levels.findIndex((l) => /^p/.test(l.label) && l.degeneracy === 6);
   if (whole >= 0 && peakChargingEnergyEV !== null && peakChargingEnergyEV > 0 && peakChargingEnergyEV < ec * (1 - D.peakEcMinDrop)) {
     const dEc = ec - peakChargingEnergyEV;
-    const shifted: { label: string; degeneracy: number; energyEV: number }[] = [];
+    const shifted: StartLevel[] = [];
     let before = 0;
     levels.forEach((l, j) => {
       for (const g of j === whole ? [2, 2, 2] : [l.degeneracy]) {
@@ -154,4 +143,52 @@ export function refinementStarts(seeds: readonly LevelSeed[], parameters: readon
     out.push(make(levels, `Γtip/Γsub × ${(10 ** offset).toPrecision(2)}`, rest));
   }
   return out;
+}
+
+/** A CB level of a start: its label (s, p, …), degeneracy and |ε| in eV. */
+export interface StartLevel {
+  label: string;
+  degeneracy: number;
+  energyEV: number;
+}
+
+/**
+ * One further start from a list of CB levels and the nonlinear parameters after them.
+ *
+ * Parameters
+ * ----------
+ * list : readonly StartLevel[]
+ *     The CB levels in order (label, degeneracy, |ε| in eV).
+ * change : string
+ *     What changed, in words.
+ * rest : readonly number[]
+ *     Ec (eV), log₁₀ Γtip/Γsub, log₁₀ σ (σ in eV).
+ * eta : number
+ *     Voltage-division factor η.
+ *
+ * Returns
+ * -------
+ * RefinementStart
+ *     The p levels relabelled p1, p2, … in order (p when there is one); each level's `before`
+ *     counts the CB carriers of the levels before it and its first-peak bias is
+ *     (ε + Ec·(before + ½))/η (note 3 of {@link refinementStarts}).
+ *
+ * Example
+ * -------
+ * ```ts
+ * refinementStart([{ label: "s", degeneracy: 2, energyEV: 0.6 }, { label: "p", degeneracy: 6, energyEV: 0.9 }], "as fitted", [0.1, 0, -2], 0.85).seeds[1].firstPeakV;
+ * // => 1.3529 (V: (0.9 + 0.1·2.5)/0.85)
+ * ```
+ */
+export function refinementStart(list: readonly StartLevel[], change: string, rest: readonly number[], eta: number): RefinementStart {
+  let p = 0;
+  let before = 0;
+  const pCount = list.filter((l) => /^p/.test(l.label)).length;
+  const cb = list.map((l) => {
+    const label = /^p/.test(l.label) ? (pCount > 1 ? `p${++p}` : "p") : l.label;
+    const seed: LevelSeed = { band: "CB", label, degeneracy: l.degeneracy, firstPeakV: (l.energyEV + rest[0] * (before + 0.5)) / eta, before };
+    before += l.degeneracy;
+    return seed;
+  });
+  return { seeds: cb, parameters: [...list.map((l) => l.energyEV), ...rest], change, layout: cb.map((s) => s.degeneracy).join("+") };
 }

@@ -1,0 +1,203 @@
+/**
+ * The comparison stage of a fit: the groupings of the CB peaks explored, finished, shifted and
+ * refined on the CB side of the curve, then the finalists fitted to the whole curve with each
+ * reading of the VB peaks until one is plausible.
+ */
+import type { FitHypothesis } from "./fitHypotheses.ts";
+import type { FitRun } from "./fitRunner.ts";
+import type { DataSet, FitTrial } from "./fitTrial.ts";
+import type { FIT_DEFAULTS } from "./fitCurve.ts";
+import { startingValues } from "./startingValues.ts";
+import { refineGrouping } from "./refineGrouping.ts";
+import { sameFit } from "./sameFit.ts";
+import { shiftGrouping } from "./shiftGrouping.ts";
+import { laterEntryReadings } from "./laterEntryReadings.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
+
+/** Constants of {@link compareGroupings} (locked by test/model/fit/laterEntryReadings.test.ts). */
+export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
+  /**
+   * A finalist whose best whole-curve fit ends above this many times its CB side's reduced χ² (or
+   * 1, if that is lower), and at most FIT_DEFAULTS.poorFitChiSquare (10), is also fitted with the VB readings of {@link laterEntryReadings} (each
+   * level after the first entered with one carrier before it; a run of six split 2 + 4), and such a
+   * reading is kept only where it ends at or below the same limit and is plausible. A right
+   * VB reading leaves the reduced χ² where the CB side has it (about 1 on the crossover benchmark,
+   * which scatters by √(2/n) ≈ 0.05 over its 800 points); a VB level started one Ec away settled
+   * 1.3–5 times higher there. Above poorFitChiSquare no reading comes near the curve and the
+   * retries (a third of all whole-curve fits on `bench:fit`, seeds 1–60; without them every count
+   * there is the same) cost 6 % of the model evaluations.
+   */
+  vbRetryRatio: 1.2,
+});
+
+/** What {@link compareGroupings} works with: fitCurve's hypotheses, runs and settings. */
+export interface CompareContext {
+  /** Every hypothesis, the assignment's first. */
+  hypotheses: readonly FitHypothesis[];
+  /** One Levenberg–Marquardt run ({@link FitRun}). */
+  run: FitRun;
+  /** The CB side of the curve (bias > 0). */
+  cbSide: DataSet;
+  /** Reduced χ² of a run. */
+  reduced: (t: FitTrial) => number;
+  /** Every run tried; the comparison's runs are added. */
+  trials: FitTrial[];
+  /** The finalists so far (the assignment's run, if any); the comparison's finalists are added. */
+  finals: FitTrial[];
+  /** Whole-curve fit → the CB-side fit it was started from; filled here. */
+  cbSideOf: Map<FitTrial, FitTrial>;
+  /** The plausibility check of a run (its reasons; empty: plausible). */
+  plausibilityOf: (t: FitTrial) => string[];
+  /** Voltage-division factor η. */
+  eta: number;
+  /** Iterations of a finishing run. */
+  maxIterations: number;
+  /** Iterations of an explored start. */
+  exploreIterations: number;
+  /** Starting Ec where the peaks give none, eV. */
+  chargingEnergyGuessEV: number;
+  /** The peak-based Ec in eV (the rules' shell-filling Ec) or null. */
+  peakChargingEnergyEV: number | null;
+  /** fitCurve's constants ({@link FIT_DEFAULTS}). */
+  limits: typeof FIT_DEFAULTS;
+}
+
+/**
+ * Compares the groupings of the CB peaks (fitCurve's notes, step 5).
+ *
+ * Parameters
+ * ----------
+ * stage : CompareContext
+ *     The hypotheses, the run function, the CB side of the curve, the lists it adds to, η, the
+ *     iteration budgets, the peak-based Ec and fitCurve's constants.
+ *
+ * Returns
+ * -------
+ * (cbDone: FitTrial) => FitTrial
+ *     The function that fits a CB-side finalist to the whole curve with each reading of its VB
+ *     peaks and keeps the best (for a winner whose whole-curve fit the search did not need).
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. Each hypothesis with CB levels (at most maxAssignedStates charge states) becomes a CB-side
+ *    hypothesis, explored from its rate-ratio starts for exploreIterations in two halves (a start
+ *    far behind after the first is not continued).
+ * 2. The best finishedHypotheses by BIC are finished; a finalist above reduced χ² shiftChiSquare
+ *    is retried with its CB starts shifted by ∓Ec ({@link shiftGrouping}).
+ * 3. The best refinedGroupings are refined ({@link refineGrouping}, with the split starts at the
+ *    peaks' spacings), the second not when it ended at the same fit ({@link sameFit}); the best
+ *    again (without those) while a refined one is best, up to refinementRounds.
+ * 4. By CB-side BIC, each finalist plausible on the CB side is fitted to the whole curve with each
+ *    VB reading; the first whose whole-curve fit is plausible (or does not describe the curve) ends
+ *    the search. With none plausible, the lowest BIC's whole-curve fit is kept.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const wholeFit = compareGroupings(context); // context.finals and context.cbSideOf now hold the finalists
+ * ```
+ */
+export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => FitTrial {
+  const { hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, peakChargingEnergyEV, limits: F } = stage;
+  const explore = stage.exploreIterations;
+  const guessEC = stage.chargingEnergyGuessEV;
+  const cbOnly = new Map<FitHypothesis, FitHypothesis>();
+  for (const h of hypotheses) {
+    const seeds = h.seeds.filter((x) => x.band === "CB");
+    if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
+  }
+  // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
+  // above exploreDropRatio times the best) or already converged is not continued.
+  const half = Math.min(explore, F.chunkIterations);
+  const explored: FitTrial[] = [];
+  for (const [h, hc] of cbOnly) {
+    const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
+    for (const logRatio of starts) explored.push(run(hc, logRatio, half, undefined, cbSide));
+  }
+  const bestHalf = Math.min(...explored.map(reduced));
+  explored.forEach((t, i) => {
+    if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
+    const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
+    explored[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
+  });
+  trials.push(...explored);
+  const bestOf = new Map<FitHypothesis, FitTrial>();
+  for (const t of explored) {
+    const b = bestOf.get(t.hypothesis);
+    if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
+  }
+  const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
+  const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
+  trials.push(...cbFinals);
+  // A grouping that settles well above the noise may be one Ec off (its first charging peak
+  // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
+  const context = { cbOnly, trials, eta, exploreIterations: explore, maxIterations, run: (hc: FitHypothesis, iterations: number, from?: number[]) => run(hc, null, iterations, from, cbSide), peakChargingEnergyEV };
+  cbFinals.forEach((t, i) => {
+    if (t.hypothesis.kind !== "assigned" && reduced(t) > F.shiftChiSquare) cbFinals[i] = shiftGrouping(t, context) ?? t;
+  });
+  // The best grouping so far from further starts about its own fitted values (its p shell split
+  // about the fitted p level, its rate ratio moved either way): a whole p level fitted to a
+  // split shell, or a ladder settled at the wrong rate ratio, reaches a low χ² with Ec off.
+  // The split starts at the peaks' spacings in the first round only: about a refined grouping they
+  // repeat the first round's (the same peaks, nearly the same first p level and Ec).
+  const refine = (top: FitTrial, splitAtPeaks: boolean) => refineGrouping(top, { ...context, exploreIterations: Math.min(explore, F.refinementIterations), splitAtPeaks });
+  // First round: the best refinedGroupings groupings; then the best again while refining helps.
+  // Two groupings at the same fit (sameFit) would give the same refinements: the second is left out.
+  const best2 = [...cbFinals].sort((x, y) => x.bic - y.bic).slice(0, F.refinedGroupings);
+  let latest = best2.filter((t, i) => !best2.slice(0, i).some((u) => sameFit(u, t))).map((t, i) => refine(t, i === 0)).filter((t): t is FitTrial => t !== null);
+  for (let round = 1; latest.length && round <= F.refinementRounds; round++) {
+    cbFinals.push(...latest);
+    const top = cbFinals.reduce((x, y) => (y.bic < x.bic ? y : x));
+    if (round === F.refinementRounds || !latest.includes(top)) break;
+    const next = refine(top, false);
+    latest = next ? [next] : [];
+  }
+  /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
+  const wholeFit = (cbDone: FitTrial): FitTrial => {
+    const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
+    let bestFull: FitTrial | null = null;
+    const ncb = cbDone.hypothesis.seeds.length;
+    const p = cbDone.loop.parameters;
+    const fitReading = (vb: LevelSeed[], chargingEnergyEV: number | null, accept: (t: FitTrial) => boolean = () => true) => {
+      const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
+      const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
+      const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
+      const full = { ...run(hv, null, maxIterations, from), rateRatio0: cbDone.rateRatio0 };
+      trials.push(full);
+      if (accept(full) && (!bestFull || full.bic < bestFull.bic)) bestFull = full;
+    };
+    for (const vb of h.vbReadings) fitReading(vb, h.chargingEnergyStartEV);
+    // No reading fits as well as the CB side does, though one comes near (reduced χ² at most
+    // poorFitChiSquare; beyond, the reading is wrong by more than an entry): the VB levels entered
+    // one carrier earlier (started from the CB side's Ec).
+    // Such a reading replaces the best only where it fits as well as the CB side does and is
+    // plausible: one that merely fits better pulls Ec and Γtip/Γsub as a wrong reading does.
+    const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
+    if (!asCbSide(bestFull!) && reduced(bestFull!) <= F.poorFitChiSquare) {
+      const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
+      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV, p[ncb] / eta)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
+    }
+    return bestFull!;
+  };
+  // By CB-side BIC: the first plausible on the CB side whose whole-curve fit is plausible too
+  // (or does not describe the curve, then its VB reading is what fails) is the winner; the
+  // whole curve is fitted only for the candidates looked at.
+  for (const c of [...cbFinals].sort((x, y) => x.bic - y.bic)) {
+    finals.push(c);
+    if (plausibilityOf(c).length) continue;
+    const whole = wholeFit(c);
+    cbSideOf.set(whole, c);
+    if (whole.loop.chiSquare / Math.max(1, whole.n - whole.k) > F.poorFitChiSquare || plausibilityOf(whole).length === 0) break;
+  }
+  for (const c of cbFinals) if (!finals.includes(c)) finals.push(c);
+  if (![...cbSideOf.values()].length) {
+    // None plausible on the CB side: the lowest BIC's whole-curve fit, reported as implausible.
+    const c = finals.filter((t) => t.side === "CB").reduce((x, y) => (y.bic < x.bic ? y : x));
+    cbSideOf.set(wholeFit(c), c);
+  }
+  return wholeFit;
+}
