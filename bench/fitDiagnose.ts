@@ -53,7 +53,7 @@ for (const k of starts) {
     before += l.degeneracy;
     return s;
   });
-  const runner = fitRunner(analysis, { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 1e6, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5 });
+  const runner = fitRunner(analysis, { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 1e6, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5, cbSideMarginFwhm: 2 });
   const truthParams = (seeds: LevelSeed[]) => [...seeds.map((s, j) => (s.band === "CB" ? cbSorted[j].energyEV : -vbSorted[j - cbSeeds.length].energyEV)), scenario.chargingEnergyEV, Math.log10(scenario.tipRatePerS / scenario.substrateRatePerS), Math.log10(scenario.broadeningEV)];
   const hAll: FitHypothesis = { ...h0, seeds: [...cbSeeds, ...vbSeeds], cbDegeneracies: cbSeeds.map((s) => s.degeneracy), vbReadings: [vbSeeds] };
   const hCb: FitHypothesis = { ...hAll, seeds: cbSeeds, vbReadings: [[]] };

@@ -21,5 +21,5 @@ const sim = simulateCurve(
   { method: "fast" },
 );
 export const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "demo", metadata: {} } }, { eta });
-export const settings = { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 1_000_000_000, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5 };
+export const settings = { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 1_000_000_000, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5, cbSideMarginFwhm: 2 };
 

@@ -36,7 +36,7 @@ export interface CompareContext {
   hypotheses: readonly FitHypothesis[];
   /** One Levenberg–Marquardt run ({@link FitRun}). */
   run: FitRun;
-  /** The CB side of the curve (bias > 0). */
+  /** The CB side of the curve (bias > 0, below the first VB level's substrate-junction crossing). */
   cbSide: DataSet;
   /** Reduced χ² of a run. */
   reduced: (t: FitTrial) => number;

@@ -127,6 +127,17 @@ export const FIT_DEFAULTS = Object.freeze({
    */
   maxAssignedStates: 100,
   /**
+   * The CB side on which groupings of the CB peaks are compared ends this many FWHM below the
+   * first VB level's crossing of the substrate's Fermi level, η·|V₁|/(1 − η) ({@link cbSideEndV}):
+   * at low η the VB levels' steps through the substrate junction fall among the CB levels, and a
+   * CB-side model without them fits every grouping badly. Measured on the accuracy benchmark's
+   * low-η mix with the comparison (seeds 1–40): intermediate Ec and Γtip/Γsub recovered 0 → 23 of
+   * 40, shell filling 10 → 13; the default and crossover mixes unchanged (their crossings lie
+   * beyond the window). Two FWHM: the step's broadening and the charging terms of the crossing,
+   * common practice (no source).
+   */
+  cbSideResonanceMarginFwhm: 2,
+  /**
    * A compared grouping whose CB-side fit ends above this reduced χ² is tried again with every CB
    * level's start shifted by −Ec and by +Ec (a first charging peak missed, or one too many), the
    * better by BIC kept: a ladder one Ec off settles at reduced χ² 3–9 on curves where the right
@@ -217,7 +228,9 @@ export const FIT_DEFAULTS = Object.freeze({
  *    residuals or an Ec far from the peak-based one (see decisiveChiSquare), or
  *    compareModels is set, the groupings of the CB peaks (the regimes forced; charging ladders
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
- *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0:
+ *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0,
+ *    up to cbSideResonanceMarginFwhm (2) FWHM below the first VB level's substrate-junction
+ *    crossing η·|V₁|/(1 − η), which at low η falls among the CB steps ({@link cbSideEndV}):
  *    the VB reading, which they share, stays out of the comparison; a start whose reduced χ²
  *    after the first 4 is above exploreDropRatio (4) times the best is not explored further); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
@@ -308,10 +321,10 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
 
   // Data, thinned evenly: the same points and the same noise σ for every hypothesis; the CB side
-  // (bias > 0) alone for comparing groupings of the CB peaks. Band solutions are shared by every
+  // (bias > 0, below the first VB crossing) alone for comparing groupings of the CB peaks. Band solutions are shared by every
   // run: hypotheses that share a band's levels, and the runs of one hypothesis (explored,
   // finished, fitted to the whole curve), solve it once.
-  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, maxEvaluations, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance });
+  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, maxEvaluations, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance, cbSideMarginFwhm: F.cbSideResonanceMarginFwhm });
   const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced, work } = runner;
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not

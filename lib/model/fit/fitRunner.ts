@@ -11,6 +11,7 @@ import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { bayesianInformationCriterion } from "./informationCriterion.ts";
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
+import { cbSideEndV } from "./cbSideEnd.ts";
 
 /** Settings of {@link fitRunner} (fitCurve's, checked there). */
 export interface FitRunnerSettings {
@@ -32,6 +33,8 @@ export interface FitRunnerSettings {
   chunkIterations: number;
   /** Relative χ² improvement over one chunk below which a run has converged. No default: FIT_DEFAULTS.convergenceTolerance. */
   convergenceTolerance: number;
+  /** The CB side ends this many FWHM below the first VB level's substrate-junction crossing ({@link cbSideEndV}). No default: FIT_DEFAULTS.cbSideResonanceMarginFwhm. */
+  cbSideMarginFwhm: number;
 }
 
 /** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`), on `set` (default the whole curve), the parameters at the indices `held` kept at their start. */
@@ -41,7 +44,7 @@ export type FitRun = (h: FitHypothesis, logRatio0: number | null, iterations: nu
 export interface FitRunner {
   /** The whole curve, thinned evenly. */
   all: DataSet;
-  /** Its CB side (bias > 0). */
+  /** Its CB side (bias > 0, below the first VB level's substrate-junction crossing: {@link cbSideEndV}). */
   cbSide: DataSet;
   /** The current noise σ the residuals are scaled by, A. */
   noiseA: number;
@@ -110,7 +113,8 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
   };
   const all = pointsOf(() => true);
-  const cbSide = pointsOf((v) => v > 0);
+  const cbSideTopV = cbSideEndV(analysis.peaks, eta, settings.cbSideMarginFwhm);
+  const cbSide = pointsOf((v) => v > 0 && v < cbSideTopV);
   const started = Date.now();
   let evaluations = 0;
   let stoppedBy: "budget" | "time" | null = null;

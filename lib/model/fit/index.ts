@@ -20,6 +20,7 @@ export { unitCurrent } from "./unitCurrent.ts";
 export { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS, type BandStepsStore } from "./bandStepsMemo.ts";
 export { linearProjector, projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
+export { cbSideEndV, type CbSideEndPeak } from "./cbSideEnd.ts";
 export { fitRunner, type FitRun, type FitRunner, type FitRunnerSettings } from "./fitRunner.ts";
 export { refinementStarts, refinementStart, REFINEMENT_DEFAULTS, type RefinementStart, type StartLevel } from "./refinementStarts.ts";
 export { splitGridStarts, SPLIT_GRID_DEFAULTS, type GridPeak } from "./splitGridStarts.ts";

@@ -100,6 +100,7 @@ describe("fitCurve(analysis)", () => {
       decisiveChiSquare: 2,
       bicTieMargin: 2,
       maxAssignedStates: 100,
+      cbSideResonanceMarginFwhm: 2,
       shiftChiSquare: 2,
       wholeCurveChiSquare: 3,
       wholeCurveRatio: 2,

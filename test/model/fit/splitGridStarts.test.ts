@@ -81,7 +81,7 @@ describe("splitGridStarts(seeds, parameters, eta, peaks)", () => {
     const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
     const wholeP = [0.6, 0.92, 0.1, Math.log10(1), Math.log10(0.008)];
     const starts = splitGridStarts(seeds, wholeP, eta, analysis.peaks);
-    const runner = fitRunner(analysis, { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 100_000, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5 });
+    const runner = fitRunner(analysis, { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 100_000, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5, cbSideMarginFwhm: 2 });
     const h0 = fitHypotheses(analysis, eta, false)[0];
     const fits = starts.map((s) => {
       const h: FitHypothesis = { ...h0, seeds: s.seeds, vbReadings: [[]], cbDegeneracies: s.seeds.map((x) => x.degeneracy) };
