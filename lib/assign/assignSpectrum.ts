@@ -15,6 +15,7 @@ import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "
 import { splitSatellites } from "./satellites.ts";
 import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
+import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
@@ -137,9 +138,18 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const D = ASSIGN_DEFAULTS;
   const etaGiven = options.eta !== undefined;
   const eta = etaGiven ? checkEta("eta", options.eta) : D.eta;
+  const resonances = etaGiven && eta < 1 && (options.secondJunction ?? D.secondJunction);
+  const first = firstReading(peaks, eta, etaGiven, resonances, options);
+  // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
+  return resonances ? iterateResonances(peaks, first, eta, (adjusted, r) => assignWith(adjusted, eta, etaGiven, r, options)) : first;
+}
+
+/** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
+function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: boolean, options: AssignOptions): Assignment {
+  const D = ASSIGN_DEFAULTS;
   // Resonances through the substrate junction are not levels of the tip-junction ladder; the
   // candidates are checked against an assignment made without them.
-  const candidates = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
+  const candidates = resonances ? secondJunctionResonances(peaks, eta) : [];
   const first = assignWith(peaks, eta, etaGiven, candidates, options);
   if (!candidates.length) return first;
   const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options) ?? hiddenDoublet(peaks, eta, etaGiven, candidates, first, options);
