@@ -34,7 +34,9 @@ const MAX_ROUNDS = 4;
  *
  * Notes
  * -----
- * 1. From the current shell-filling ladder, `ladderResonances` predicts every charging peak's
+ * 1. Ec_V is the median spacing of consecutive peaks within the sub-groups of the multiplets
+ *    (robust to a resonance counted inside one; the ladder's fitted Ec with fewer than three).
+ *    From the current shell-filling ladder, `ladderResonances` predicts every charging peak's
  *    resonance through the substrate junction, η/(1 − η)·(|V| − N·Ec_V) at the opposite bias, and
  *    names the peaks found there.
  * 2. `ladderLevels` keeps those that sit where the ladder expects a charging peak it lacks as
@@ -66,8 +68,9 @@ export function iterateResonances(
   let current = base;
   let lastKey = "";
   for (let round = 0; round < MAX_ROUNDS; round++) {
-    const ecV = current.quantities.chargingEnergyV;
-    if (current.regime !== "shell-filling" || ecV === null || !(ecV > 0)) break;
+    if (current.regime !== "shell-filling" || current.quantities.chargingEnergyV === null) break;
+    const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
+    if (!(ecV > 0)) break;
     const predicted = ladderResonances(peaks, { multiplets: current.multiplets, chargingEnergyV: ecV, eta });
     const split = ladderLevels(peaks, predicted, { multiplets: current.multiplets, chargingEnergyV: ecV });
     const key = `${split.resonances.map((r) => r.index).sort((a, b) => a - b)}|${split.levels.map((l) => l.resonance.index).sort((a, b) => a - b)}`;
@@ -82,4 +85,27 @@ export function iterateResonances(
     current = next;
   }
   return current;
+}
+
+/**
+ * The median spacing of consecutive peaks within each sub-group of the multiplets (V), or null
+ * with fewer than three spacings: every such pair is one Ec_V apart in shell filling; a resonance
+ * counted inside a sub-group splits one spacing into two shorter ones and a missed peak doubles
+ * one, so the median holds while fewer than half the pairs are disturbed (the ladder's
+ * least-squares spacing does not).
+ */
+function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
+  const spacings: number[] = [];
+  for (const m of a.multiplets) {
+    let start = 0;
+    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
+      const xs = m.peakIndices.slice(start, start + size).map((i) => Math.abs(peaks[i].biasV));
+      for (let k = 1; k < xs.length; k++) spacings.push(Math.abs(xs[k] - xs[k - 1]));
+      start += size;
+    }
+  }
+  if (spacings.length < 3) return null;
+  spacings.sort((x, y) => x - y);
+  const h = spacings.length >> 1;
+  return spacings.length % 2 ? spacings[h] : (spacings[h - 1] + spacings[h]) / 2;
 }

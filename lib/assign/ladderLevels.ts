@@ -56,9 +56,9 @@ export interface LadderLevels {
  *    (the multiplets' peaks other than itself) are both at least (1 − t)·Ec_V, one of them
  *    within t·Ec_V of Ec_V (a charging step of a level), is where the ladder expects a charging
  *    peak. It is kept as a level — the resonance overlaps it and cannot be told apart — when the
- *    ladder needs it: in the CB, the shell it completes (its own in the reading, else the one
- *    whose charging step it extends: that of the peak one Ec before it, then after it) holds
- *    fewer peaks than its degeneracy without it; in the VB (no degeneracy
+ *    ladder needs it: in the CB, the shell whose charging ladder it extends (that of the peak one
+ *    Ec before it, else of the peak one Ec after it; a new shell starts Ec + Δ/η beyond the last
+ *    peak of the one before, not one Ec) holds fewer peaks than its degeneracy without it; in the VB (no degeneracy
  *    assumed) it lies between two ladder peaks (see 4 for the band's first peak).
  * 3. The kept peak's step is the sum of the level's and the resonance's; the level's share is
  *    taken as the median step of the multiplet's other peaks (charging steps of one shell in
@@ -110,21 +110,15 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     if (after !== undefined && pending.has(after) && !clear(at(after) - x)) after = ladder.find((i) => at(i) > x && !pending.has(i));
     const gapBefore = before === undefined ? null : x - at(before);
     const gapAfter = after === undefined ? null : at(after) - x;
-    // The multiplet it would complete: its own, else the one whose charging step it extends
-    // (before it, then after it; the band's first multiplet at the gap edge).
+    // The multiplet whose charging ladder it extends: that of the peak one Ec before it, else of
+    // the peak one Ec after it (the band's first multiplet at the gap edge).
     const of = (i: number | undefined) => (i === undefined ? undefined : band.find(({ peaks: s }) => s.has(i)));
     const needs = (h: (typeof band)[number] | undefined) => {
       if (!h) return false;
       if (h.m.band === "VB") return after !== undefined && (before !== undefined || step(gapAfter));
       return h.m.degeneracy !== null && [...h.peaks].filter((i) => i !== r.index).length < h.m.degeneracy;
     };
-    const homes = [
-      band.find(({ m }) => m.peakIndices.includes(r.index)),
-      step(gapBefore) ? of(before) : undefined,
-      step(gapAfter) ? of(after) : undefined,
-      before === undefined ? band[0] : undefined,
-    ].filter((h) => h !== undefined);
-    const home = homes.find(needs);
+    const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
     const needed = home !== undefined;
     if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && needed && home) {
       const others = [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b);
