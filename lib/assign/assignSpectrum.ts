@@ -140,8 +140,20 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const eta = etaGiven ? checkEta("eta", options.eta) : D.eta;
   const resonances = etaGiven && eta < 1 && (options.secondJunction ?? D.secondJunction);
   const first = firstReading(peaks, eta, etaGiven, resonances, options);
+  if (!resonances) return first;
   // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
-  return resonances ? iterateResonances(peaks, first, eta, (adjusted, r) => assignWith(adjusted, eta, etaGiven, r, options)) : first;
+  const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
+  if (first.regime === "shell-filling" || options.regime) return iterateResonances(peaks, first, eta, again);
+  // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
+  // shell filling makes them and, with the resonances its own ladder predicts set aside, the
+  // rules read shell filling unasked (resonances counted as levels can hide it).
+  const edge = bandEdgeResonanceRatio(peaks, secondJunctionResonances(peaks, eta));
+  if (edge === null || edge.ratio < D.fillingResonanceStepMin) return first;
+  const forced = assignWith(peaks, eta, etaGiven, secondJunctionResonances(peaks, eta), { ...options, regime: "shell-filling" });
+  const filling = iterateResonances(peaks, forced, eta, again);
+  if (filling === forced) return first;
+  filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
+  return filling;
 }
 
 /** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
