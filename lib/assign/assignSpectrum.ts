@@ -13,7 +13,7 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
 import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
-import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
 import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
@@ -148,10 +148,10 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
   const edge = bandEdgeResonanceRatio(peaks, secondJunctionResonances(peaks, eta));
-  if (edge === null || edge.ratio < D.fillingResonanceStepMin) return first;
+  if (edge === null || edge.ratio < D.fillingResonanceStepMin) return underResonances(peaks, eta, etaGiven, first, options);
   const forced = assignWith(peaks, eta, etaGiven, secondJunctionResonances(peaks, eta), { ...options, regime: "shell-filling" });
   const filling = iterateResonances(peaks, forced, eta, again);
-  if (filling === forced) return first;
+  if (filling === forced) return underResonances(peaks, eta, etaGiven, first, options);
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
   return filling;
 }
@@ -178,6 +178,23 @@ function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, re
     ...companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`),
   );
   return third;
+}
+
+/**
+ * Where the tip side is not shell filling: the resonances that step at least as much as their
+ * sources (`overlappedResonances`) go back to the ladder as levels; the result stands if it names
+ * the same regime (or one where the first named none).
+ */
+function underResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, first: Assignment, options: AssignOptions): Assignment {
+  const set = first.evidence.secondJunction;
+  const under = overlappedResonances(peaks, set);
+  if (!under.length) return first;
+  const second = assignWith(peaks, eta, etaGiven, set.filter((r) => !under.includes(r)), options);
+  if (second.regime !== first.regime) return first;
+  second.evidence.reasons.unshift(
+    ...under.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`),
+  );
+  return second;
 }
 
 /**
