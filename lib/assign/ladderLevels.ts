@@ -56,18 +56,19 @@ export interface LadderLevels {
  *    (the multiplets' peaks other than itself) are both at least (1 − t)·Ec_V, one of them
  *    within t·Ec_V of Ec_V (a charging step of a level), is where the ladder expects a charging
  *    peak. It is kept as a level — the resonance overlaps it and cannot be told apart — when the
- *    ladder needs it: in the CB, the shell whose charging ladder it extends (that of the peak one
- *    Ec before it, else of the peak one Ec after it; a new shell starts Ec + Δ/η beyond the last
- *    peak of the one before, not one Ec) holds fewer peaks than its degeneracy without it; in the VB (no degeneracy
- *    assumed) it lies between two ladder peaks (see 4 for the band's first peak).
+ *    ladder needs it: the shell whose charging ladder it extends (that of the peak one Ec
+ *    before it, else of the peak one Ec after it, the first shell at the gap edge; a new shell
+ *    starts Ec + Δ/η beyond the last peak of the one before, not one Ec) holds fewer peaks than
+ *    its degeneracy without it. VB groups carry no degeneracy, so nothing says their ladder
+ *    needs a peak: in the VB a peak at a predicted resonance stays a resonance (a VB ladder
+ *    bridged by resonances reads as one long group otherwise).
  * 3. The kept peak's step is the sum of the level's and the resonance's; the level's share is
  *    taken as the median step of the multiplet's other peaks (charging steps of one shell in
  *    shell filling are alike, each limited by the slow junction).
  * 4. Peaks are judged from the gap edge outward against the multiplets' peaks less the
  *    resonances already found; a kept peak joins its multiplet. A peak further out that crowds
  *    the one judged and is itself at a predicted resonance is passed over (it is judged next,
- *    against the ladder that then holds the first). In the VB the band's first peak is needed
- *    when it is one Ec from the next (the charging step of the band-edge level).
+ *    against the ladder that then holds the first).
  *
  * References
  * ----------
@@ -114,13 +115,11 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     // the peak one Ec after it (the band's first multiplet at the gap edge).
     const of = (i: number | undefined) => (i === undefined ? undefined : band.find(({ peaks: s }) => s.has(i)));
     const needs = (h: (typeof band)[number] | undefined) => {
-      if (!h) return false;
-      if (h.m.band === "VB") return after !== undefined && (before !== undefined || step(gapAfter));
-      return h.m.degeneracy !== null && [...h.peaks].filter((i) => i !== r.index).length < h.m.degeneracy;
+      // A VB group has no degeneracy: nothing says its ladder needs the peak (note 2).
+      return h !== undefined && h.m.band === "CB" && h.m.degeneracy !== null && [...h.peaks].filter((i) => i !== r.index).length < h.m.degeneracy;
     };
     const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
-    const needed = home !== undefined;
-    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && needed && home) {
+    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home) {
       const others = [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b);
       const levelStepA = others.length ? others[others.length >> 1] : peaks[r.index].stepA;
       home.peaks.add(r.index);
