@@ -29,7 +29,7 @@ const MAX_ROUNDS = 4;
  * -------
  * Assignment
  *     The last round's assignment that is still shell filling, with the reasons of the peaks kept
- *     as levels in its evidence; `base` itself when the first round changes nothing or `base` is
+ *     as levels in its evidence (after the reasons of `base` that are not about one peak); `base` itself when the first round changes nothing or `base` is
  *     not shell filling with an Ec.
  *
  * Notes
@@ -81,7 +81,9 @@ export function iterateResonances(
     const adjusted = share.size ? peaks.map((p, i) => (share.has(i) ? { ...p, stepA: share.get(i)! } : p)) : peaks;
     const next = assign(adjusted, split.resonances);
     if (next.regime !== "shell-filling") break;
-    next.evidence.reasons.unshift(...split.levels.map((l) => l.reason));
+    // The earlier stages' conclusions stand (per-peak notes are redone by the new assignment).
+    const earlier = base.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+    next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason));
     current = next;
   }
   return current;

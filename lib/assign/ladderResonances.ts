@@ -104,7 +104,7 @@ export function ladderResonances(peaks: readonly Pick<Peak, "biasV" | "biasUncer
     const src = peaks[r.sourceIndex];
     const sigma = Math.hypot(gain * src.biasUncertaintyV, p.biasUncertaintyV);
     const d = Math.abs(p.biasV - r.predictedV);
-    return d <= Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * p.fwhmV, D.toleranceFwhmFraction * gain * src.fwhmV) ? d : Infinity;
+    return d <= Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * p.fwhmV) ? d : Infinity;
   };
   const pairs: { r: LadderResonance; i: number; d: number }[] = [];
   for (const r of predictions) peaks.forEach((_, i) => {
