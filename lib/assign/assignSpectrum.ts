@@ -152,6 +152,8 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const forced = assignWith(peaks, eta, etaGiven, secondJunctionResonances(peaks, eta), { ...options, regime: "shell-filling" });
   const filling = iterateResonances(peaks, forced, eta, again);
   if (filling === forced) return underResonances(peaks, eta, etaGiven, first, options);
+  // The rounds carry the forced reading's conclusions; the regime was not the user's.
+  filling.evidence.reasons = filling.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
   return filling;
 }
