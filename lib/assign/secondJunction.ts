@@ -215,7 +215,7 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
  * -------
  * SecondJunctionResonance[]
  *     Those whose step is at least `SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin` × their
- *     source's step.
+ *     source's step (a source without a positive step tells nothing and releases none).
  *
  * Notes
  * -----
@@ -246,5 +246,5 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
  */
 export function overlappedResonances(peaks: readonly Pick<Peak, "stepA">[], resonances: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
   const min = SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin;
-  return resonances.filter((r) => peaks[r.index].stepA >= min * peaks[r.sourceIndex].stepA);
+  return resonances.filter((r) => peaks[r.sourceIndex].stepA > 0 && peaks[r.index].stepA >= min * peaks[r.sourceIndex].stepA);
 }

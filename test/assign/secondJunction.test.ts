@@ -128,4 +128,7 @@ describe("overlappedResonances(peaks, resonances)", () => {
     for (const g of [2, 4, 6]) expectClose(substrateToTipStepRatio(g, 1), 1, { rtol: 1e-12, what: "(g + 1)/(g + 1)" });
     expect(overlappedResonances(steps(1e-12, 1e-12), [at])).toEqual([at]);
   });
+  it("a source without a positive step releases nothing (no ratio to compare)", () => {
+    expect(overlappedResonances(steps(0, 1e-12), [at])).toEqual([]);
+  });
 });
