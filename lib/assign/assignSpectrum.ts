@@ -118,6 +118,16 @@ export interface Assignment {
  *    ((g·r + 1)/(g + r), `substrateToTipStepRatio`) the dot is in shell filling, and a candidate
  *    one VB doublet spacing above the first CB peak is the s doublet's second peak under a
  *    resonance (its step taken as r/(1 + r) of the first).
+ * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
+ *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
+ *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
+ *    steps 1–6 run again with exactly those resonances set aside until nothing changes
+ *    (`iterateResonances`). A result that is not shell filling is tried the same way from the
+ *    shell-filling reading when its band-edge resonances carry at least
+ *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
+ *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
+ *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
+ *    regime stays the same.
  *
  * References
  * ----------
