@@ -65,3 +65,31 @@ describe("assignSpectrum at low η: resonances predicted by the shell-filling la
     expect(p.peaksV.some((v) => Math.abs(v - sub(0.6, 0)) < 1e-9)).toBe(true);
   });
 });
+
+describe("assignSpectrum at low η: a resonance on the s doublet's second peak, then the rounds", () => {
+  // Closed forms as above with ε_s = 0.5 eV, ε_p = 0.8 eV and the VB band-edge level placed so that
+  // its resonance (|ε_v| + Ec/2)/(1 − η) falls on s's second peak (0.5 + 1.5·Ec)/η: |ε_v| =
+  // 0.4·(0.68/0.6) − 0.06 eV. Its charging doublet at −(|ε_v| + Ec/2)/η and −(|ε_v| + 1.5·Ec)/η, the
+  // doublet's second entry through the substrate at (|ε_v| + 1.5·Ec)/(1 − η), s's resonances at
+  // −(0.5 + Ec/2)/(1 − η) and −(0.5 + 1.5·Ec)/(1 − η). Steps as above: 1 pA a charging peak, 1.8 pA
+  // the band-edge resonance, 1 pA the weaker second entries, 2.8 pA level and resonance together.
+  const epsV = (0.4 * (0.5 + 1.5 * ecEV)) / eta - ecEV / 2;
+  const list: [number, number][] = [
+    [-sub(0.5, 1), 1], [-sub(0.5, 0), 1.8], [-tip(epsV, 1), 1], [-tip(epsV, 0), 1],
+    [sTip[0], 1], [sTip[1], 2.8], [sub(epsV, 1), 1], ...pTip.map((v): [number, number] => [v, 1]),
+  ];
+  const peaks: Peak[] = list.map(([biasV, s], index) => ({ biasV, biasUncertaintyV: 0.002, index, heightS: 1e-9, prominenceS: 1e-9, fwhmV: 0.04, stepA: s * 1e-12, snr: 20, stepSignificance: 30 }));
+
+  it("keeps s's second peak as a level, sets aside the three resonances apart from levels, reads p whole and Ec = 0.2 V", () => {
+    const a = assignSpectrum(peaks, { eta });
+    expect(a.regime).toBe("shell-filling");
+    expectClose(a.multiplets.find((m) => m.label === "s")!.peaksV, sTip, { rtol: 1e-12, what: "s, closed form" });
+    expectClose(a.multiplets.find((m) => m.label === "p")!.peaksV, pTip, { rtol: 1e-12, what: "p, closed form" });
+    expectClose(a.quantities.chargingEnergyV!, ecEV / eta, { rtol: 1e-9, what: "Ec/η" });
+    expectClose(a.evidence.secondJunction.map((r) => peaks[r.index].biasV).sort((x, y) => x - y), [-sub(0.5, 1), -sub(0.5, 0), sub(epsV, 1)], { rtol: 1e-12, what: "resonances, closed form" });
+  });
+
+  it("without the stage the summed step reads as a p level: shell tunnelling", () => {
+    expect(assignSpectrum(peaks, { eta, secondJunction: false }).regime).toBe("shell-tunneling");
+  });
+});
