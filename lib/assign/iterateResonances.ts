@@ -8,8 +8,11 @@ import { ladderLevels } from "./ladderLevels.ts";
 import { ladderResonances } from "./ladderResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
 
-/** At most this many rounds of assign → predict → set aside (a round that changes nothing ends it). */
-const MAX_ROUNDS = 4;
+/** Limits of {@link iterateResonances} (locked by test/assign/iterateResonances.test.ts). */
+export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
+  /** At most this many rounds of assign → predict → set aside (a round that changes nothing ends it). */
+  maxRounds: 4,
+});
 
 /**
  * Rounds of assign → predict → set aside, from a shell-filling assignment.
@@ -67,7 +70,7 @@ export function iterateResonances(
 ): Assignment {
   let current = base;
   let lastKey = "";
-  for (let round = 0; round < MAX_ROUNDS; round++) {
+  for (let round = 0; round < ITERATE_RESONANCES_DEFAULTS.maxRounds; round++) {
     if (current.regime !== "shell-filling" || current.quantities.chargingEnergyV === null) break;
     const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
     if (!(ecV > 0)) break;

@@ -10,6 +10,7 @@
 // closed-form positions.
 import { describe, it, expect } from "vitest";
 import { assignSpectrum, type Peak } from "../../lib/index.ts";
+import { ITERATE_RESONANCES_DEFAULTS } from "../../lib/assign/iterateResonances.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 
 const eta = 0.6;
@@ -91,5 +92,12 @@ describe("assignSpectrum at low η: a resonance on the s doublet's second peak, 
 
   it("without the stage the summed step reads as a p level: shell tunnelling", () => {
     expect(assignSpectrum(peaks, { eta, secondJunction: false }).regime).toBe("shell-tunneling");
+  });
+});
+
+describe("ITERATE_RESONANCES_DEFAULTS", () => {
+  it("are locked (common practice, no source: a few rounds; a round that changes nothing ends them)", () => {
+    expect(ITERATE_RESONANCES_DEFAULTS).toEqual({ maxRounds: 4 });
+    expect(Object.isFrozen(ITERATE_RESONANCES_DEFAULTS)).toBe(true);
   });
 });
