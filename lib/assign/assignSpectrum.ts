@@ -13,8 +13,9 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
 import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
-import { secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
+import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
@@ -117,6 +118,16 @@ export interface Assignment {
  *    ((g·r + 1)/(g + r), `substrateToTipStepRatio`) the dot is in shell filling, and a candidate
  *    one VB doublet spacing above the first CB peak is the s doublet's second peak under a
  *    resonance (its step taken as r/(1 + r) of the first).
+ * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
+ *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
+ *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
+ *    steps 1–6 run again with exactly those resonances set aside until nothing changes
+ *    (`iterateResonances`). A result that is not shell filling is tried the same way from the
+ *    shell-filling reading when its band-edge resonances carry at least
+ *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
+ *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
+ *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
+ *    regime stays the same.
  *
  * References
  * ----------
@@ -137,9 +148,32 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const D = ASSIGN_DEFAULTS;
   const etaGiven = options.eta !== undefined;
   const eta = etaGiven ? checkEta("eta", options.eta) : D.eta;
+  const resonances = etaGiven && eta < 1 && (options.secondJunction ?? D.secondJunction);
+  const first = firstReading(peaks, eta, etaGiven, resonances, options);
+  if (!resonances) return first;
+  // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
+  const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
+  if (first.regime === "shell-filling" || options.regime) return iterateResonances(peaks, first, eta, again);
+  // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
+  // shell filling makes them and, with the resonances its own ladder predicts set aside, the
+  // rules read shell filling unasked (resonances counted as levels can hide it).
+  const edge = bandEdgeResonanceRatio(peaks, secondJunctionResonances(peaks, eta));
+  if (edge === null || edge.ratio < D.fillingResonanceStepMin) return underResonances(peaks, eta, etaGiven, first, options);
+  const forced = assignWith(peaks, eta, etaGiven, secondJunctionResonances(peaks, eta), { ...options, regime: "shell-filling" });
+  const filling = iterateResonances(peaks, forced, eta, again);
+  if (filling === forced) return underResonances(peaks, eta, etaGiven, first, options);
+  // The rounds carry the forced reading's conclusions; the regime was not the user's.
+  filling.evidence.reasons = filling.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+  filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
+  return filling;
+}
+
+/** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
+function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: boolean, options: AssignOptions): Assignment {
+  const D = ASSIGN_DEFAULTS;
   // Resonances through the substrate junction are not levels of the tip-junction ladder; the
   // candidates are checked against an assignment made without them.
-  const candidates = etaGiven && (options.secondJunction ?? D.secondJunction) ? secondJunctionResonances(peaks, eta) : [];
+  const candidates = resonances ? secondJunctionResonances(peaks, eta) : [];
   const first = assignWith(peaks, eta, etaGiven, candidates, options);
   if (!candidates.length) return first;
   const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options) ?? hiddenDoublet(peaks, eta, etaGiven, candidates, first, options);
@@ -156,6 +190,23 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
     ...companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`),
   );
   return third;
+}
+
+/**
+ * Where the tip side is not shell filling: the resonances that step at least as much as their
+ * sources (`overlappedResonances`) go back to the ladder as levels; the result stands if it names
+ * the same regime (or one where the first named none).
+ */
+function underResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, first: Assignment, options: AssignOptions): Assignment {
+  const set = first.evidence.secondJunction;
+  const under = overlappedResonances(peaks, set);
+  if (!under.length) return first;
+  const second = assignWith(peaks, eta, etaGiven, set.filter((r) => !under.includes(r)), options);
+  if (second.regime !== first.regime) return first;
+  second.evidence.reasons.unshift(
+    ...under.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`),
+  );
+  return second;
 }
 
 /**

@@ -24,6 +24,12 @@ export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
    * (`substrateToTipStepRatio` and `REGIME_LIMITS` in lib/model/regimeLimits.ts): 13/17 ≈ 0.765.
    */
   companionSourceStepRatioMax: substrateToTipStepRatio(2, REGIME_LIMITS.tunnelingRateRatioMax),
+  /**
+   * {@link overlappedResonances}: where the tip side is not shell filling, a resonance stepping at
+   * least this multiple of its source's step holds a level too: (g·r + 1)/(g + r) < 1 for every
+   * g ≥ 2 and r = Γtip/Γsub < 1 (`substrateToTipStepRatio` at r = 1 is 1 for every g).
+   */
+  overlapSourceStepRatioMin: substrateToTipStepRatio(2, 1),
 });
 
 /** One peak taken as a second-junction resonance. */
@@ -192,4 +198,53 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
     out.push({ index: next.k, sourceIndex: r.sourceIndex, predictedV: next.p.biasV });
   }
   return out;
+}
+
+/**
+ * The resonances that step too much to be resonances alone where the tip side does not fill the
+ * dot: a level of the tip-side ladder lies under them.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Pick<Peak, "stepA">[]
+ *     The peaks of one curve (current steps `stepA` in A).
+ * resonances : readonly SecondJunctionResonance[]
+ *     Peaks taken as resonances (from {@link secondJunctionResonances} or a later stage).
+ *
+ * Returns
+ * -------
+ * SecondJunctionResonance[]
+ *     Those whose step is at least `SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin` × their
+ *     source's step (a source without a positive step tells nothing and releases none).
+ *
+ * Notes
+ * -----
+ * 1. A level of g states entered into the empty dot steps the current by e·g·Γt·Γs/(g·Γt + Γs)
+ *    through the tip junction and by e·g·Γs·Γt/(g·Γs + Γt) through the substrate junction: the
+ *    resonance over its source is (g·r + 1)/(g + r), r = Γtip/Γsub (`substrateToTipStepRatio`).
+ * 2. That ratio is below 1 for every g ≥ 2 when r < 1 (13/17 for g = 2 at the tunnelling limit
+ *    r = 3/7, about 1/g deep in shell tunnelling). So where the tip side is in shell tunnelling
+ *    or the crossover's lower half, a peak at a predicted resonance that steps at least as much
+ *    as its source carries another step: a tip-side level at the same bias, which the ladder
+ *    needs. The caller applies it only where the regime read is not shell filling.
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids*, ed. B. L. Altshuler,
+ * P. A. Lee and R. A. Webb (Elsevier, 1991); E. Bonet, M. M. Deshmukh and D. C. Ralph, Phys. Rev.
+ * B 65, 045317 (2002).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // v1 at −1.70 V steps 0.43 pA; peaks at its resonance 2.175 V step 1.0 pA (a p level under
+ * // it) or 0.25 pA (the resonance alone, about half the source as deep in shell tunnelling).
+ * const at = { index: 1, sourceIndex: 0, predictedV: 2.175 };
+ * overlappedResonances([{ stepA: 0.43e-12 }, { stepA: 1.0e-12 }], [at]).length;   // => 1
+ * overlappedResonances([{ stepA: 0.43e-12 }, { stepA: 0.25e-12 }], [at]).length;  // => 0
+ * ```
+ */
+export function overlappedResonances(peaks: readonly Pick<Peak, "stepA">[], resonances: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
+  const min = SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin;
+  return resonances.filter((r) => peaks[r.sourceIndex].stepA > 0 && peaks[r.index].stepA >= min * peaks[r.sourceIndex].stepA);
 }

@@ -261,6 +261,6 @@ describe("assignSpectrum at η = 0.6: a resonance on the s doublet's second peak
     expect(a.multiplets.find((m) => m.label === "p")!.found).toBe(6);
     expectClose(a.quantities.chargingEnergyV!, ecV, { rtol: 1e-9, what: "Ec/η" });
     expect(a.evidence.secondJunction.map((x) => peaks[x.index].biasV)).toEqual([-(0.525 + 0.05) / (1 - e)]);
-    expect(a.evidence.reasons[0]).toMatch(/band-edge level .* carries 1\.75 ×/);
+    expect(a.evidence.reasons.some((x) => /band-edge level .* carries 1\.75 ×/.test(x))).toBe(true);
   });
 });

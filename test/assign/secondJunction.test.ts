@@ -5,7 +5,8 @@
 // = −η·V₁/(1 − η). The model check uses the project's master equation, whose closed-form plateaus
 // are tested in test/model/ladder.test.ts.
 import { describe, it, expect } from "vitest";
-import { secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { analyzeCurve, assignSpectrum, analysisToJson, formatAnalysisText, loadCurveFigure, simulateCurve, SECOND_JUNCTION, type Peak } from "../../lib/index.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 
@@ -39,8 +40,9 @@ describe("secondJunctionResonances(peaks, eta)", () => {
   });
 
   it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %; Ec at most a quarter of the gap; closed form 13/17 for the step ratio)", () => {
-    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSourceStepRatioMax: expect.any(Number) });
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSourceStepRatioMax: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number) });
     expectClose(SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax, 13 / 17, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r = 3/7" });
+    expectClose(SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin, 1, { rtol: 1e-12, what: "closed form: (g·r + 1)/(g + r) at r = 1" });
   });
 });
 
@@ -108,5 +110,25 @@ describe("analyzeCurve at η = 0.62: the substrate-junction resonance of s is se
     expect(formatAnalysisText(analysisToJson(a))).toContain(`set aside as ${SECOND_JUNCTION} resonances`);
     const svg = (await loadCurveFigure())(a, { curve });
     expect(svg).toContain(SECOND_JUNCTION);
+  });
+});
+
+describe("overlappedResonances(peaks, resonances)", () => {
+  // Closed form (master equation with one extra carrier, substrateToTipStepRatio): a resonance of a
+  // level of g states steps (g·r + 1)/(g + r) × its source; below 1 for every g ≥ 2 when r < 1.
+  const at = { index: 1, sourceIndex: 0, predictedV: 2.0 };
+  const steps = (source: number, peak: number) => [{ stepA: source }, { stepA: peak }];
+  it("keeps as a resonance a peak stepping as a resonance alone on the tunnelling side (r = 0.1, 3/7; g = 2, 4, 6)", () => {
+    for (const g of [2, 4, 6]) for (const r of [0.1, 3 / 7]) expect(overlappedResonances(steps(1e-12, substrateToTipStepRatio(g, r) * 1e-12), [at])).toEqual([]);
+  });
+  it("finds a level under a peak stepping the resonance's share plus a level's step (r = 0.1, g = 2: 0.524 + 1 of the source)", () => {
+    expect(overlappedResonances(steps(1e-12, (substrateToTipStepRatio(2, 0.1) + 1) * 1e-12), [at])).toEqual([at]);
+  });
+  it("the boundary is the step ratio at r = 1, the same for every g (closed form)", () => {
+    for (const g of [2, 4, 6]) expectClose(substrateToTipStepRatio(g, 1), 1, { rtol: 1e-12, what: "(g + 1)/(g + 1)" });
+    expect(overlappedResonances(steps(1e-12, 1e-12), [at])).toEqual([at]);
+  });
+  it("a source without a positive step releases nothing (no ratio to compare)", () => {
+    expect(overlappedResonances(steps(0, 1e-12), [at])).toEqual([]);
   });
 });

@@ -1,0 +1,116 @@
+/**
+ * The shell-filling assignment and its second-junction resonances made consistent: the ladder
+ * predicts the resonances, they are set aside, and the ladder is assigned again.
+ */
+import type { Peak } from "../peaks/findPeaks.ts";
+import type { Assignment } from "./assignSpectrum.ts";
+import { ladderLevels } from "./ladderLevels.ts";
+import { ladderResonances } from "./ladderResonances.ts";
+import type { SecondJunctionResonance } from "./secondJunction.ts";
+
+/** Limits of {@link iterateResonances} (locked by test/assign/iterateResonances.test.ts). */
+export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
+  /** At most this many rounds of assign → predict → set aside (a round that changes nothing ends it). */
+  maxRounds: 4,
+});
+
+/**
+ * Rounds of assign → predict → set aside, from a shell-filling assignment.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Peak[]
+ *     The peak list of the assignment.
+ * base : Assignment
+ *     The assignment to start from (its resonances a first guess).
+ * eta : number
+ *     Voltage-division factor η in (0, 1).
+ * assign : (peaks: readonly Peak[], resonances: readonly SecondJunctionResonance[]) => Assignment
+ *     The assignment with the given peaks (steps possibly adjusted) and resonances set aside.
+ *
+ * Returns
+ * -------
+ * Assignment
+ *     The last round's assignment that is still shell filling, with the reasons of the peaks kept
+ *     as levels in its evidence (after the reasons of `base` that are not about one peak); `base` itself when the first round changes nothing or `base` is
+ *     not shell filling with an Ec.
+ *
+ * Notes
+ * -----
+ * 1. Ec_V is the median spacing of consecutive peaks within the sub-groups of the multiplets
+ *    (robust to a resonance counted inside one; the ladder's fitted Ec with fewer than three).
+ *    From the current shell-filling ladder, `ladderResonances` predicts every charging peak's
+ *    resonance through the substrate junction, η/(1 − η)·(|V| − N·Ec_V) at the opposite bias, and
+ *    names the peaks found there.
+ * 2. `ladderLevels` keeps those that sit where the ladder expects a charging peak it lacks as
+ *    levels (with their level's share of the step) and the rest as resonances.
+ * 3. The ladder is assigned again with exactly those resonances set aside (a first guess from
+ *    the plain −η·V/(1 − η) of every peak, which misplaces the resonances of higher levels by
+ *    N·Ec/(1 − η), is replaced). Rounds repeat until the resonances and levels no longer change,
+ *    at most four; a round whose assignment is not shell filling ends them and the previous
+ *    round's stands.
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids*, ed. B. L. Altshuler,
+ * P. A. Lee and R. A. Webb (Elsevier, 1991); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // Used by assignSpectrum; see test/assign/iterateResonances.test.ts for a constructed ladder.
+ * iterateResonances(peaks, first, 0.6, (p, r) => assignWith(p, 0.6, true, r, {}));
+ * ```
+ */
+export function iterateResonances(
+  peaks: readonly Peak[],
+  base: Assignment,
+  eta: number,
+  assign: (peaks: readonly Peak[], resonances: readonly SecondJunctionResonance[]) => Assignment,
+): Assignment {
+  let current = base;
+  let lastKey = "";
+  for (let round = 0; round < ITERATE_RESONANCES_DEFAULTS.maxRounds; round++) {
+    if (current.regime !== "shell-filling" || current.quantities.chargingEnergyV === null) break;
+    const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
+    if (!(ecV > 0)) break;
+    const predicted = ladderResonances(peaks, { multiplets: current.multiplets, chargingEnergyV: ecV, eta });
+    const split = ladderLevels(peaks, predicted, { multiplets: current.multiplets, chargingEnergyV: ecV });
+    const key = `${split.resonances.map((r) => r.index).sort((a, b) => a - b)}|${split.levels.map((l) => l.resonance.index).sort((a, b) => a - b)}`;
+    const now = `${current.evidence.secondJunction.map((r) => r.index).sort((a, b) => a - b)}`;
+    if (key === lastKey || (round === 0 && key === `${now}|`)) break;
+    lastKey = key;
+    const share = new Map(split.levels.map((l) => [l.resonance.index, l.levelStepA]));
+    const adjusted = share.size ? peaks.map((p, i) => (share.has(i) ? { ...p, stepA: share.get(i)! } : p)) : peaks;
+    const next = assign(adjusted, split.resonances);
+    if (next.regime !== "shell-filling") break;
+    // The earlier stages' conclusions stand (per-peak notes are redone by the new assignment).
+    const earlier = base.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+    next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason));
+    current = next;
+  }
+  return current;
+}
+
+/**
+ * The median spacing of consecutive peaks within each sub-group of the multiplets (V), or null
+ * with fewer than three spacings: every such pair is one Ec_V apart in shell filling; a resonance
+ * counted inside a sub-group splits one spacing into two shorter ones and a missed peak doubles
+ * one, so the median holds while fewer than half the pairs are disturbed (the ladder's
+ * least-squares spacing does not).
+ */
+function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
+  const spacings: number[] = [];
+  for (const m of a.multiplets) {
+    let start = 0;
+    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
+      const xs = m.peakIndices.slice(start, start + size).map((i) => Math.abs(peaks[i].biasV));
+      for (let k = 1; k < xs.length; k++) spacings.push(Math.abs(xs[k] - xs[k - 1]));
+      start += size;
+    }
+  }
+  if (spacings.length < 3) return null;
+  spacings.sort((x, y) => x - y);
+  const h = spacings.length >> 1;
+  return spacings.length % 2 ? spacings[h] : (spacings[h - 1] + spacings[h]) / 2;
+}

@@ -1,0 +1,138 @@
+/**
+ * Which peaks at a predicted second-junction resonance are also charging peaks of the tip-side
+ * ladder: a level and a resonance that coincide make one peak, and the ladder needs it.
+ */
+import type { Peak } from "../peaks/findPeaks.ts";
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { LadderResonance } from "./ladderResonances.ts";
+import type { Multiplet } from "./multiplets.ts";
+
+/** What {@link ladderLevels} reads from a shell-filling assignment. */
+export interface LadderLevelInputs {
+  /** The assignment's multiplets (CB shells, VB groups), peaks named by index. */
+  multiplets: readonly Pick<Multiplet, "band" | "label" | "degeneracy" | "peakIndices">[];
+  /** Ec in bias (the ladder's spacing), V; > 0. */
+  chargingEnergyV: number;
+}
+
+/** Result of {@link ladderLevels}. */
+export interface LadderLevels {
+  /** The predicted resonances that stand (set aside from the ladders). */
+  resonances: LadderResonance[];
+  /**
+   * The peaks kept as levels although a resonance was predicted there: the peak, the label of the
+   * multiplet it completes, its level's share of the summed step (A: the median step of that
+   * multiplet's other peaks) and the reason in words.
+   */
+  levels: { resonance: LadderResonance; label: string; levelStepA: number; reason: string }[];
+}
+
+/**
+ * Split the peaks at predicted resonances into resonances and levels of the charging ladder.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Pick<Peak, "biasV" | "stepA">[]
+ *     The peak list of the assignment (positions in V, current steps in A).
+ * predicted : readonly LadderResonance[]
+ *     From `ladderResonances`: the peaks found at the resonances the ladder predicts.
+ * inputs : LadderLevelInputs
+ *     The shell-filling assignment the predictions came from.
+ *
+ * Returns
+ * -------
+ * LadderLevels
+ *     The resonances that stand and the peaks kept as levels.
+ *
+ * Notes
+ * -----
+ * With Ec_V the ladder's spacing in bias and t = `ASSIGN_DEFAULTS.valenceChargingTolerance`:
+ * 1. In shell filling consecutive charging peaks of one level lie Ec_V apart, and the first peak
+ *    of the next level (or sub-level) lies Ec_V + Δ/η beyond the last of the one before, Δ ≥ 0
+ *    the level spacing (orthodox theory: each added carrier costs Ec more). So no two charging
+ *    peaks of a band are closer than Ec_V, and a peak closer than (1 − t)·Ec_V to the ladder
+ *    peak before or after it is not a charging peak: it stays a resonance.
+ * 2. A peak at a predicted resonance whose distances to the ladder peaks before and after it
+ *    (the multiplets' peaks other than itself) are both at least (1 − t)·Ec_V, one of them
+ *    within t·Ec_V of Ec_V (a charging step of a level), is where the ladder expects a charging
+ *    peak. It is kept as a level — the resonance overlaps it and cannot be told apart — when the
+ *    ladder needs it: the shell whose charging ladder it extends (that of the peak one Ec
+ *    before it, else of the peak one Ec after it, the first shell at the gap edge; a new shell
+ *    starts Ec + Δ/η beyond the last peak of the one before, not one Ec) holds fewer peaks than
+ *    its degeneracy without it. VB groups carry no degeneracy, so nothing says their ladder
+ *    needs a peak: in the VB a peak at a predicted resonance stays a resonance (a VB ladder
+ *    bridged by resonances reads as one long group otherwise).
+ * 3. The kept peak's step is the sum of the level's and the resonance's; the level's share is
+ *    taken as the median step of the multiplet's other peaks (charging steps of one shell in
+ *    shell filling are alike, each limited by the slow junction).
+ * 4. Peaks are judged from the gap edge outward against the multiplets' peaks less the
+ *    resonances already found; a kept peak joins its multiplet. A peak further out that crowds
+ *    the one judged and is itself at a predicted resonance is passed over (it is judged next,
+ *    against the ladder that then holds the first).
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids*, ed. B. L. Altshuler,
+ * P. A. Lee and R. A. Webb (Elsevier, 1991); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // Ec_V = 0.3 V; p read as 2.9, 3.6, 3.9, 4.6 V (4 of 6) with resonances predicted at 3.2 V
+ * // (one Ec after 2.9, 0.4 V before 3.6: a charging step) and 4.1 V (0.2 V after 3.9: too close).
+ * const peaks = [2.9, 3.2, 3.6, 3.9, 4.1, 4.6].map((biasV) => ({ biasV, stepA: 1e-12 }));
+ * const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [0, 2, 3, 5] };
+ * const at = (index: number) => ({ index, sourceIndex: -1, predictedV: peaks[index].biasV, carriersBelow: 0 });
+ * const out = ladderLevels(peaks, [at(1), at(4)], { multiplets: [p], chargingEnergyV: 0.3 });
+ * out.levels.map((l) => l.resonance.index);     // => [1]
+ * out.resonances.map((r) => r.index);           // => [4]
+ * ```
+ */
+export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], predicted: readonly LadderResonance[], inputs: LadderLevelInputs): LadderLevels {
+  const ecV = inputs.chargingEnergyV;
+  const t = ASSIGN_DEFAULTS.valenceChargingTolerance;
+  const out: LadderLevels = { resonances: [], levels: [] };
+  const at = (i: number) => Math.abs(peaks[i].biasV);
+  // The ladder: each multiplet's peaks other than the resonances found so far (a kept level joins).
+  const pending = new Set(predicted.map((r) => r.index));
+  const members = inputs.multiplets.map((m) => ({ m, peaks: new Set(m.peakIndices) }));
+  const order = [...predicted].sort((a, b) => at(a.index) - at(b.index));
+  const clear = (g: number | null) => g === null || g >= (1 - t) * ecV;
+  const step = (g: number | null) => g !== null && Math.abs(g - ecV) <= t * ecV;
+  for (const r of order) {
+    pending.delete(r.index);
+    const x = at(r.index);
+    const side = Math.sign(peaks[r.index].biasV);
+    const band = members.filter(({ m }) => m.peakIndices.length && Math.sign(peaks[m.peakIndices[0]].biasV) === side);
+    const ladder = band.flatMap(({ peaks: s }) => [...s]).filter((i) => i !== r.index).sort((a, b) => at(a) - at(b));
+    const before = ladder.filter((i) => at(i) < x).pop();
+    let after = ladder.find((i) => at(i) > x);
+    // A crowding peak further out that is itself at a predicted resonance is judged after this one.
+    if (after !== undefined && pending.has(after) && !clear(at(after) - x)) after = ladder.find((i) => at(i) > x && !pending.has(i));
+    const gapBefore = before === undefined ? null : x - at(before);
+    const gapAfter = after === undefined ? null : at(after) - x;
+    // The multiplet whose charging ladder it extends: that of the peak one Ec before it, else of
+    // the peak one Ec after it (the band's first multiplet at the gap edge).
+    const of = (i: number | undefined) => (i === undefined ? undefined : band.find(({ peaks: s }) => s.has(i)));
+    const needs = (h: (typeof band)[number] | undefined) => {
+      // A VB group has no degeneracy: nothing says its ladder needs the peak (note 2).
+      return h !== undefined && h.m.band === "CB" && h.m.degeneracy !== null && [...h.peaks].filter((i) => i !== r.index).length < h.m.degeneracy;
+    };
+    const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
+    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home) {
+      const others = [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b);
+      const levelStepA = others.length ? others[others.length >> 1] : peaks[r.index].stepA;
+      home.peaks.add(r.index);
+      out.levels.push({
+        resonance: r,
+        label: home.m.label,
+        levelStepA,
+        reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a charging peak of ${home.m.label}: it lies where the ladder expects one (one Ec from a neighbour, none closer than ${(1 - t).toFixed(1)} Ec) and ${home.m.label} needs it; the resonance at ${r.predictedV.toFixed(3)} V overlaps it`,
+      });
+    } else {
+      for (const h of members) h.peaks.delete(r.index);
+      out.resonances.push(r);
+    }
+  }
+  return out;
+}

@@ -1,0 +1,47 @@
+// Peaks at predicted resonances kept as levels or set aside. Sources: the closed form of the
+// shell-filling ladder (orthodox theory: consecutive charging peaks of one level lie Ec/η apart in
+// bias, a new level or sub-level Ec/η + Δ/η beyond; C. W. J. Beenakker, Phys. Rev. B 44, 1646
+// (1991)) and constructed peak lists; no value here comes from the function under test.
+import { describe, it, expect } from "vitest";
+import { ladderLevels } from "../../lib/assign/ladderLevels.ts";
+
+const ecV = 0.3;
+const at = (peaks: { biasV: number }[], index: number) => ({ index, sourceIndex: -1, predictedV: peaks[index].biasV, carriersBelow: 0 });
+const list = (vs: number[], steps: number[] = vs.map(() => 1e-12)) => vs.map((biasV, k) => ({ biasV, stepA: steps[k] }));
+
+describe("ladderLevels(peaks, predicted, inputs)", () => {
+  it("keeps a peak one Ec after a p peak in a p short of 6 and sets aside one closer than 0.7 Ec to its neighbour", () => {
+    // p: 2.9, [3.2], 3.6, 3.9, [4.1], 4.6 V — closed form Ec/η = 0.3 V with a sub-level gap of 0.4 V.
+    const peaks = list([2.9, 3.2, 3.6, 3.9, 4.1, 4.6], [1, 3, 1, 1, 1, 1].map((s) => s * 1e-12));
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [0, 2, 3, 5] };
+    const out = ladderLevels(peaks, [at(peaks, 1), at(peaks, 4)], { multiplets: [p], chargingEnergyV: ecV });
+    expect(out.levels.map((l) => [l.resonance.index, l.label])).toEqual([[1, "p"]]);
+    expect(out.levels[0].levelStepA).toBe(1e-12); // the median of p's other steps, not the summed 3e-12
+    expect(out.resonances.map((r) => r.index)).toEqual([4]);
+  });
+
+  it("sets aside a peak one Ec after a full shell's last peak (a new shell starts Ec + Δ beyond, Δ > 0)", () => {
+    const peaks = list([1.0, 1.3, 1.6]);
+    const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+    const out = ladderLevels(peaks, [at(peaks, 2)], { multiplets: [s], chargingEnergyV: ecV });
+    expect(out.levels).toEqual([]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+  });
+
+  it("of two crowding peaks both at predicted resonances, keeps the one on the ladder (judged first) and sets aside the other", () => {
+    // p: 2.0, [2.3], [2.4], 2.6 V: 2.3 is one Ec after 2.0 and one Ec before 2.6; 2.4 is 0.1 V from 2.3.
+    const peaks = list([2.0, 2.3, 2.4, 2.6]);
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [0, 1, 2, 3] };
+    const out = ladderLevels(peaks, [at(peaks, 1), at(peaks, 2)], { multiplets: [p], chargingEnergyV: ecV });
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([1]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+  });
+
+  it("in the VB (no degeneracy) a peak at a predicted resonance stays a resonance, even one Ec from its neighbours", () => {
+    const peaks = list([-1.0, -1.3, -1.6]);
+    const v = { band: "VB" as const, label: "v1", degeneracy: null, peakIndices: [0, 1, 2] };
+    const out = ladderLevels(peaks, [at(peaks, 1)], { multiplets: [v], chargingEnergyV: ecV });
+    expect(out.levels).toEqual([]);
+    expect(out.resonances.map((r) => r.index)).toEqual([1]);
+  });
+});
