@@ -29,7 +29,8 @@ export interface CbSideEndPeak {
  * -------
  * number
  *     η·|V₁|/(1 − η) − marginFwhm·FWHM₁ for the VB level peak V₁ nearest 0 V (V); Infinity with
- *     no VB level peak or η = 1.
+ *     no VB level peak, at η = 1, or where that end would leave out the second CB level peak
+ *     (one FWHM beyond it: the s doublet's two steps are what the groupings are told apart by).
  *
  * Notes
  * -----
@@ -62,5 +63,10 @@ export function cbSideEndV(peaks: readonly CbSideEndPeak[], eta: number, marginF
   let first: CbSideEndPeak | null = null;
   for (const p of peaks) if (p.biasV < 0 && p.role === "level" && (!first || p.biasV > first.biasV)) first = p;
   if (!first) return Infinity;
-  return (eta * -first.biasV) / (1 - eta) - marginFwhm * first.fwhmV;
+  const endV = (eta * -first.biasV) / (1 - eta) - marginFwhm * first.fwhmV;
+  // A CB side without the first two CB steps (the s doublet's) could not tell any grouping apart:
+  // then the whole positive side, as at high η.
+  const cb = peaks.filter((p) => p.biasV > 0 && p.role === "level").sort((a, b) => a.biasV - b.biasV);
+  const needV = cb.length >= 2 ? cb[1].biasV + cb[1].fwhmV : cb.length ? cb[0].biasV + cb[0].fwhmV : -Infinity;
+  return endV > needV ? endV : Infinity;
 }

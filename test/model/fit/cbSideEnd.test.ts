@@ -21,6 +21,16 @@ describe("cbSideEndV(peaks, eta, marginFwhm)", () => {
     expectClose(cbSideEndV(peaks, 0.85, 0), (0.85 * 1.5) / 0.15, { rtol: 1e-12 });
   });
 
+  it("leaves the CB side open where its end would cut off the second CB level step (closed form: 0.6·1.5/0.4 − 2·0.05 = 2.15 V < 2.2 + 0.05 V)", () => {
+    const peaks = [
+      { biasV: -1.5, fwhmV: 0.05, role: "level" },
+      { biasV: 1.9, fwhmV: 0.05, role: "level" },
+      { biasV: 2.2, fwhmV: 0.05, role: "level" },
+    ];
+    expect(cbSideEndV(peaks, 0.6, 2)).toBe(Infinity);
+    expectClose(cbSideEndV(peaks.slice(0, 2), 0.6, 2), 2.15, { rtol: 1e-12 });
+  });
+
   it("leaves the CB side open without a VB level peak or at η = 1", () => {
     expect(cbSideEndV([{ biasV: 1.3, fwhmV: 0.05, role: "level" }], 0.6, 2)).toBe(Infinity);
     expect(cbSideEndV([{ biasV: -1.5, fwhmV: 0.05, role: "level" }], 1, 2)).toBe(Infinity);
