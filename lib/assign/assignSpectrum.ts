@@ -149,7 +149,9 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const etaGiven = options.eta !== undefined;
   const eta = etaGiven ? checkEta("eta", options.eta) : D.eta;
   const resonances = etaGiven && eta < 1 && (options.secondJunction ?? D.secondJunction);
-  const first = firstReading(peaks, eta, etaGiven, resonances, options);
+  // The plain −η·V/(1 − η) candidates: the first reading's guess, and the shell-filling one's below.
+  const plain = resonances ? secondJunctionResonances(peaks, eta) : [];
+  const first = firstReading(peaks, eta, etaGiven, plain, options);
   if (!resonances) return first;
   // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
   const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
@@ -157,9 +159,9 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
-  const edge = bandEdgeResonanceRatio(peaks, secondJunctionResonances(peaks, eta));
+  const edge = bandEdgeResonanceRatio(peaks, plain);
   if (edge === null || edge.ratio < D.fillingResonanceStepMin) return underResonances(peaks, eta, etaGiven, first, options);
-  const forced = assignWith(peaks, eta, etaGiven, secondJunctionResonances(peaks, eta), { ...options, regime: "shell-filling" });
+  const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
   const filling = iterateResonances(peaks, forced, eta, again);
   if (filling === forced) return underResonances(peaks, eta, etaGiven, first, options);
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
@@ -169,11 +171,9 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
 }
 
 /** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
-function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: boolean, options: AssignOptions): Assignment {
-  const D = ASSIGN_DEFAULTS;
+function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
   // Resonances through the substrate junction are not levels of the tip-junction ladder; the
   // candidates are checked against an assignment made without them.
-  const candidates = resonances ? secondJunctionResonances(peaks, eta) : [];
   const first = assignWith(peaks, eta, etaGiven, candidates, options);
   if (!candidates.length) return first;
   const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options) ?? hiddenDoublet(peaks, eta, etaGiven, candidates, first, options);
@@ -182,7 +182,7 @@ function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, re
   // Where the tip side is not shell filling, the substrate side may fill: the resonance of a
   // band's first level is then a charging doublet. The second peak goes too, if that leaves a
   // regime the rules can name (and the same one, when they named one before).
-  const companions = substrateChargingPeaks(peaks, candidates, eta, D.fillingStepRatio);
+  const companions = substrateChargingPeaks(peaks, candidates, eta, ASSIGN_DEFAULTS.fillingStepRatio);
   if (!companions.length) return first;
   const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
   if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;

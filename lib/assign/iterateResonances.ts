@@ -7,6 +7,7 @@ import type { Assignment } from "./assignSpectrum.ts";
 import { ladderLevels } from "./ladderLevels.ts";
 import { ladderResonances } from "./ladderResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
+import { medianInPlace } from "../util/medianInPlace.ts";
 
 /** Limits of {@link iterateResonances} (locked by test/assign/iterateResonances.test.ts). */
 export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
@@ -109,8 +110,5 @@ function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
       start += size;
     }
   }
-  if (spacings.length < 3) return null;
-  spacings.sort((x, y) => x - y);
-  const h = spacings.length >> 1;
-  return spacings.length % 2 ? spacings[h] : (spacings[h - 1] + spacings[h]) / 2;
+  return spacings.length < 3 ? null : medianInPlace(Float64Array.from(spacings));
 }

@@ -7,6 +7,7 @@ import type { Peak } from "../peaks/findPeaks.ts";
 import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import { checkFinite, checkRange } from "../util/check.ts";
 import type { Assignment } from "./assignSpectrum.ts";
+import { medianInPlace } from "../util/medianInPlace.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -366,6 +367,5 @@ function evenLadder(sorted: readonly Pick<Peak, "biasV" | "biasUncertaintyV">[],
 
 /** The median of a non-empty list (the mean of the middle pair for an even count). */
 function median(values: readonly number[]): number {
-  const v = [...values].sort((x, y) => x - y);
-  return v.length % 2 ? v[v.length >> 1] : (v[v.length / 2 - 1] + v[v.length / 2]) / 2;
+  return medianInPlace(Float64Array.from(values));
 }

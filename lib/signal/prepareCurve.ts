@@ -4,7 +4,7 @@
  * Savitzky–Golay windows can then be applied to it ({@link conductanceFromPrepared}).
  */
 import type { Curve } from "../curve.ts";
-import { biasStep, isUniformAxis, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
+import { biasStep, uniformByStepRange, UNIFORM_STEP_TOLERANCE } from "../util/biasGrid.ts";
 import { checkKnownKeys, checkOneOf } from "../util/check.ts";
 import { DotspecError } from "../util/errors.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
@@ -304,7 +304,9 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   const n0 = curve.biasV.length;
   let stepV: number;
   let resampled = false;
-  if (n0 < 3 || isUniformAxis(curve.biasV, D.uniformStepTolerance)) {
+  // The median step only where the steps' range leaves it open (and then for resampling).
+  const step = n0 < 3 || uniformByStepRange(curve.biasV, D.uniformStepTolerance) ? null : biasStep(curve.biasV, D.uniformStepTolerance);
+  if (!step || step.uniform) {
     // Read in place; copied on return only if no later step made a new array (block averages,
     // the saturation cut), so a long curve is not copied before it is averaged.
     biasV = curve.biasV;
@@ -312,7 +314,7 @@ export function prepareCurve(curve: Curve, options: PrepareCurveOptions = {}): P
   } else {
     const all: ArrayLike<number>[] = [currentIn, ...sweepsA];
     if (measuredS) all.push(measuredS);
-    const r = resampleUniformUnchecked(curve.biasV, all, biasStep(curve.biasV, D.uniformStepTolerance).medianV);
+    const r = resampleUniformUnchecked(curve.biasV, all, step.medianV);
     let dMin = Infinity;
     let dMax = -Infinity;
     for (let i = 1; i < n0; i++) {

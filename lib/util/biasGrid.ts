@@ -59,8 +59,8 @@ export function biasStep(biasV: ArrayLike<number>, tolerance: number = UNIFORM_S
 }
 
 /**
- * Whether a bias axis is uniform: the same answer as `biasStep(biasV, tolerance).uniform`, found
- * without the median when the steps' range already decides it.
+ * Whether the range of a bias axis's steps alone shows it uniform: a sufficient test for
+ * `biasStep(biasV, tolerance).uniform`, without the median.
  *
  * Parameters
  * ----------
@@ -72,22 +72,24 @@ export function biasStep(biasV: ArrayLike<number>, tolerance: number = UNIFORM_S
  * Returns
  * -------
  * boolean
+ *     true when every step has one sign, none is zero, and max |d_i| − min |d_i| ≤ tolerance ·
+ *     min |d_i| (then {@link biasStep} says uniform too); false means undecided, not non-uniform.
+ *     Fewer than 2 points: true.
  *
  * Notes
  * -----
  * 1. With a = min |d_i| and b = max |d_i| over steps of one sign, the median lies in [a, b], so
  *    every |d_i − median| ≤ b − a; when b − a ≤ tolerance·a ≤ tolerance·|median| the axis is
  *    uniform. Rounding is monotonic, so the floating-point test implies {@link biasStep}'s.
- * 2. Otherwise (or with steps of both signs, or zero) the median decides, as in {@link biasStep}.
  *
  * Example
  * -------
  * ```ts
- * isUniformAxis([0, 0.1, 0.2, 0.3]);   // => true
- * isUniformAxis([0, 0.1, 0.25, 0.35]); // => false
+ * uniformByStepRange([0, 0.1, 0.2, 0.3]);           // => true
+ * uniformByStepRange([0, 0.995, 1.995, 2.995, 4.003]); // => false (undecided: biasStep says uniform)
  * ```
  */
-export function isUniformAxis(biasV: ArrayLike<number>, tolerance: number = UNIFORM_STEP_TOLERANCE): boolean {
+export function uniformByStepRange(biasV: ArrayLike<number>, tolerance: number = UNIFORM_STEP_TOLERANCE): boolean {
   const n = biasV.length;
   if (n < 2) return true;
   let a = Infinity, b = 0, positive = 0, negative = 0;
@@ -100,6 +102,31 @@ export function isUniformAxis(biasV: ArrayLike<number>, tolerance: number = UNIF
     if (m > b) b = m;
   }
   const oneSign = positive === n - 1 || negative === n - 1;
-  if (oneSign && a > 0 && b - a <= tolerance * a) return true;
-  return biasStep(biasV, tolerance).uniform;
+  return oneSign && a > 0 && b - a <= tolerance * a;
+}
+
+/**
+ * Whether a bias axis is uniform: the same answer as `biasStep(biasV, tolerance).uniform`, found
+ * without the median when the steps' range already decides it ({@link uniformByStepRange}).
+ *
+ * Parameters
+ * ----------
+ * biasV : ArrayLike<number>
+ *     Bias in volts, monotonic (not checked).
+ * tolerance : number, optional
+ *     Largest accepted |step − median| / |median|. Default {@link UNIFORM_STEP_TOLERANCE} (0.01).
+ *
+ * Returns
+ * -------
+ * boolean
+ *
+ * Example
+ * -------
+ * ```ts
+ * isUniformAxis([0, 0.1, 0.2, 0.3]);   // => true
+ * isUniformAxis([0, 0.1, 0.25, 0.35]); // => false
+ * ```
+ */
+export function isUniformAxis(biasV: ArrayLike<number>, tolerance: number = UNIFORM_STEP_TOLERANCE): boolean {
+  return uniformByStepRange(biasV, tolerance) || biasStep(biasV, tolerance).uniform;
 }
