@@ -2,7 +2,7 @@
  * The width of a band's first step, measured on the raw current: the one step whose lower side
  * (the gap) no other level overlaps.
  */
-import { normalCdfFast } from "../util/special.ts";
+import { normalCdfFast, NORMAL_CDF_FAST_REACH } from "../util/special.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 
 /** Options of {@link edgeStepWidth}. */
@@ -105,9 +105,29 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
     syy += y * y;
   }
   const n = count;
+  // dx runs one way (ascending for +1, descending for −1), and Φ is exactly 0 at and below
+  // −NORMAL_CDF_FAST_REACH: those points add nothing to the sums, so only the others are visited
+  // (the same sums, term for term; most of the gap side lies that far below the step). A bias
+  // axis out of order is summed whole.
+  let monotonic = true;
+  for (let i = 1; i < n && monotonic; i++) monotonic = sign * (dx[i] - dx[i - 1]) >= 0;
+  const ascending = sign === 1;
+  const firstNonZero = (s: number): number => {
+    if (!monotonic) return ascending ? 0 : n;
+    // Ascending: the first index with dx/s above the reach; descending: one past the last.
+    let lo = 0, hi = n;
+    while (lo < hi) {
+      const mid = (lo + hi) >> 1;
+      if ((dx[mid] / s <= -NORMAL_CDF_FAST_REACH) === ascending) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
   const residual = (s: number): { r: number; c: number } => {
     let sf = 0, sff = 0, sfy = 0;
-    for (let i = 0; i < n; i++) {
+    const edge = firstNonZero(s);
+    const [first, end] = ascending ? [edge, n] : [0, edge];
+    for (let i = first; i < end; i++) {
       const f = normalCdfFast(dx[i] / s);
       sf += f;
       sff += f * f;

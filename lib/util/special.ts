@@ -50,6 +50,9 @@ export function fermi(x: number): number {
 
 const TABLE_STEP = 1 / 512;
 const TABLE_REACH = 9;
+
+/** {@link normalCdfFast} returns exactly 0 at or below −NORMAL_CDF_FAST_REACH and exactly 1 at or above it: a sum of its values may skip the points below. */
+export const NORMAL_CDF_FAST_REACH = TABLE_REACH;
 let cdfTable: Float64Array | null = null;
 
 /**
