@@ -56,7 +56,7 @@ try {
   execFileSync(process.execPath, [join(root, "scripts", "build.mjs")], { stdio: ["ignore", "ignore", "inherit"] });
   console.log(`Node ${process.version}, ${cpus().length} × ${cpus()[0]?.model ?? "CPU"}, load average ${loadavg()[0].toFixed(1)} at the start`);
 
-  // Where the time of one file goes: the stages of analyzeCurveFile (lib/cli/analyzeFile.ts), in
+  // Where the time of one file goes: the stages of readAndAnalyze (lib/cli/analyzeFile.ts), in
   // this process, after one warm-up pass over 50 files.
   const files = Array.from({ length: count }, (_, k) => join(dir, "in", `curve-${String(k).padStart(4, "0")}.csv`));
   const split = { digest: 0, parse: 0, analysis: 0, json: 0 };

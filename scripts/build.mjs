@@ -70,6 +70,7 @@ const cli = join(dist, "cli");
 const bundled = join(dist, ".cli-bundle");
 rmSync(bundled, { recursive: true, force: true });
 const esbuild = await import("esbuild");
+const { flattenBarrels } = await import("./flattenBarrels.mjs");
 try {
   await esbuild.build({
     entryPoints: Object.fromEntries(["main", "analyzeWorker", "gridWorker"].map((name) => [name, join(cli, `${name}.js`)])),
@@ -85,6 +86,9 @@ try {
     sourcesContent: false,
     chunkNames: "chunk-[hash]",
     logLevel: "warning",
+    // Imports of the library's entry pointed at the defining modules, so that the chunks follow
+    // what each command uses (scripts/flattenBarrels.mjs).
+    plugins: [flattenBarrels(cli)],
   });
 } catch (err) {
   console.error(`build: bundling the command failed: ${err instanceof Error ? err.message : err}`);

@@ -6,13 +6,7 @@ import { join } from "node:path";
 import {
   analysisToJson,
   analyzeCurve,
-  compareModelsReasons,
   failedSummaryRow,
-  fitCurve,
-  failedModelComparison,
-  fitToJson,
-  isDotspecError,
-  modelComparisonJson,
   failureReason,
   formatAnalysisText,
   inputDigest,
@@ -117,14 +111,16 @@ export interface AnalyzedFile {
 /**
  * Reads and analyses one file and makes its JSON record: the analysis, the importer's record,
  * the file's metadata lines, the notes (where η came from) and the provenance (version, the
- * file's name, size and SHA-256, the options as given). Throws what the reader or the analysis
- * throws.
+ * file's name, size and SHA-256, the options as given, `--compare-models` included). Runs no
+ * model comparison: that is `analyzeCurveFile` (lib/cli/analyzeCurveFile.ts), which loads
+ * the model fit, so that an analysis without it starts without the fit's code. Throws what the
+ * reader or the analysis throws.
  *
  * Example
  * -------
- * analyzeCurveFile("dot-01.csv", { analyze: {}, read: {} }).json.energies.eta; // => 0.88 (from its `# eta:` line)
+ * readAndAnalyze("dot-01.csv", { analyze: {}, read: {} }).json.energies.eta; // => 0.88 (from its `# eta:` line)
  */
-export function analyzeCurveFile(file: string, options: RecordedOptions, command = "analyze", onReadProgress?: (fraction: number) => void): AnalyzedFile {
+export function readAndAnalyze(file: string, options: RecordedOptions, command = "analyze", onReadProgress?: (fraction: number) => void): AnalyzedFile {
   // A large file is streamed; onReadProgress hears how far (it is not an option: nothing is recorded).
   const {
     parsed: { curve, record },
@@ -135,23 +131,6 @@ export function analyzeCurveFile(file: string, options: RecordedOptions, command
   const analysis = analyzeCurve(curve, eta === undefined ? options.analyze : { ...options.analyze, eta });
   const provenance = makeProvenance(command, digest, recordedOf(options));
   const json = analysisToJson(analysis, record, { notes: note ? [note] : [], metadata: curve.meta.metadata, provenance });
-  const scope = options.compareModels;
-  const ranBecause = scope ? compareModelsReasons(analysis, scope) : null;
-  if (scope && ranBecause) {
-    // The comparison of every grouping of the peaks, within its work budget; a fit stopped by a
-    // wall-clock limit asked for says so (where it stopped depends on the machine).
-    let comparison;
-    try {
-      const fit = fitCurve(analysis, { compareModels: true, ...fitLimits(options) });
-      comparison = modelComparisonJson(fitToJson(fit, json), scope, { ranBecause, rules: { regime: json.regime, chargingEnergyEV: analysis.assignment.energies.chargingEnergyEV } });
-      if (fit.work.stoppedBy === "time") comparison.warnings.push(COMPARISON_TIME_LIMIT_WARNING);
-    } catch (err) {
-      // A curve the fit cannot start on (no multiplet to fit) keeps its analysis; the comparison says why.
-      if (!isDotspecError(err)) throw err;
-      comparison = failedModelComparison(err.message, scope, ranBecause);
-    }
-    return { curve, analysis, json: { ...json, modelComparison: comparison } };
-  }
   return { curve, analysis, json };
 }
 
@@ -172,7 +151,7 @@ function recordedOf(options: RecordedOptions): Record<string, unknown> {
 }
 
 /** The comparison fit's limits that were given (work budget, opt-in time limit), as fitCurve and the provenance take them. */
-function fitLimits(options: RecordedOptions): { maxEvaluations?: number; timeLimitMs?: number } {
+export function fitLimits(options: RecordedOptions): { maxEvaluations?: number; timeLimitMs?: number } {
   return {
     ...(options.maxEvaluations !== undefined ? { maxEvaluations: options.maxEvaluations } : {}),
     ...(options.timeLimitMs !== undefined ? { timeLimitMs: options.timeLimitMs } : {}),
@@ -218,7 +197,11 @@ export async function analyzeFile(
     ...(settings.compareModels && settings.maxEvaluations !== undefined ? { maxEvaluations: settings.maxEvaluations } : {}),
   };
   try {
-    const { curve, analysis, json: result } = analyzeCurveFile(file, options, "analyze", onReadProgress ? (f) => onReadProgress(file, f) : undefined);
+    const onRead = onReadProgress ? (f: number) => onReadProgress(file, f) : undefined;
+    // The model fit loads only where a comparison was asked for.
+    const { curve, analysis, json: result } = options.compareModels
+      ? (await import("./analyzeCurveFile.ts")).analyzeCurveFile(file, options, "analyze", onRead)
+      : readAndAnalyze(file, options, "analyze", onRead);
     let row: SummaryRow | null = null;
     if (settings.outDir !== null && job.outName !== null) {
       const svg = svgWithProvenance((await figure())(analysis, { curve }), result.provenance!);

@@ -109,7 +109,7 @@ async function failure(err: unknown, ctx: CliContext): Promise<number> {
   }
   // The library is loaded by now if it threw (only a command loads it); importing it again is free.
   // If it is what failed to load, the error is reported as the internal error it is.
-  const isDotspecError = await import("../index.ts").then((lib) => lib.isDotspecError, () => () => false);
+  const isDotspecError = await import("../core.ts").then((lib) => lib.isDotspecError, () => () => false);
   if (isDotspecError(err)) {
     ctx.error(err.message);
     return EXIT.failed;

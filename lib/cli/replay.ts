@@ -4,7 +4,7 @@
  */
 import { existsSync } from "node:fs";
 import { DOTSPEC_VERSION, failureReason, isDotspecError, readJsonFile, type AnalyzeOptions, type ReadCurveOptions } from "../index.ts";
-import { analyzeCurveFile } from "./analyzeFile.ts";
+import { analyzeCurveFile } from "./analyzeCurveFile.ts";
 import { fitCurveFile } from "./commands/fit.ts";
 import { cliOptionNames } from "./cliOptionNames.ts";
 import { EXIT, type CliContext } from "./context.ts";

@@ -7,7 +7,7 @@ import { readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { FIT_DEFAULTS } from "../../lib/index.ts";
 import { TIME_LIMIT_WARNING } from "../../lib/cli/commands/fit.ts";
-import { analyzeCurveFile } from "../../lib/cli/analyzeFile.ts";
+import { analyzeCurveFile } from "../../lib/cli/analyzeCurveFile.ts";
 import { FILLING, removeTempDirs, run, tempDir, writeCurve } from "./harness.ts";
 
 afterAll(removeTempDirs);

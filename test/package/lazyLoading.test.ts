@@ -19,11 +19,12 @@ const dir = mkdtempSync(join(tmpdir(), "dotspec-lazy-"));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 /**
- * A preload that refuses the packages matching `pattern` and, optionally, the library: any module
- * of dist/ that defines `analyzeCurve` (dist/pipeline/analyzeCurve.js in the compiled library,
- * the chunk that holds it in the command's bundle).
+ * A preload that refuses the packages matching `pattern` and, optionally, the parts of the library
+ * that define the functions named in `definitions` ("analyzeCurve": the library itself, i.e.
+ * dist/pipeline/analyzeCurve.js in the compiled library or the chunk that holds it in the
+ * command's bundle; "fitCurve": the model fit; …).
  */
-function blocker(name: string, pattern: string, blockLibrary: boolean): string {
+function blocker(name: string, pattern: string, definitions: string | null): string {
   const hooks = join(dir, `${name}-hooks.mjs`);
   writeFileSync(
     hooks,
@@ -31,10 +32,11 @@ function blocker(name: string, pattern: string, blockLibrary: boolean): string {
       'import { readFileSync } from "node:fs";',
       'import { fileURLToPath } from "node:url";',
       `const blocked = new RegExp(${JSON.stringify(`^(${pattern})(/|$)`)});`,
+      `const defines = ${definitions ? `new RegExp(${JSON.stringify(`function (${definitions})\\(`)})` : "null"};`,
       "export async function resolve(specifier, context, next) {",
       '  if (blocked.test(specifier)) throw new Error("blocked " + specifier);',
       "  const result = await next(specifier, context);",
-      `  if (${blockLibrary} && /\\/dist\\/.*\\.js$/.test(result.url) && readFileSync(fileURLToPath(result.url), "utf8").includes("function analyzeCurve(")) throw new Error("blocked the library " + result.url);`,
+      "  if (defines && /\\/dist\\/.*\\.js$/.test(result.url) && defines.test(readFileSync(fileURLToPath(result.url), \"utf8\"))) throw new Error(\"blocked the library \" + result.url);",
       "  return result;",
       "}",
     ].join("\n"),
@@ -58,7 +60,7 @@ const node = (args: string[]) => runNode(args, dir);
 
 describe("the built command's start-up", () => {
   it("--help and --version load neither the library nor any heavy dependency", async () => {
-    const preload = blocker("nolib", HEAVY, true);
+    const preload = blocker("nolib", HEAVY, "analyzeCurve");
     const help = await node(["--import", preload, BIN, "--help"]);
     expect(help.stderr).toBe("");
     expect(help.code).toBe(0);
@@ -71,19 +73,30 @@ describe("the built command's start-up", () => {
   });
 
   it("analyze --json loads none of jsdom, Observable Plot, mathjs, ml-matrix, the Levenberg–Marquardt solver, cli-progress", async () => {
-    const preload = blocker("heavy", HEAVY, false);
+    const preload = blocker("heavy", HEAVY, null);
     const r = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
     expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
     expect(r.code).toBe(0);
     expect(JSON.parse(r.stdout)).toHaveLength(1);
   });
 
+  it("analyze --json loads no code of the model fit, the size series or the grid maps; --compare-models loads the fit", async () => {
+    const preload = blocker("parts", HEAVY, "fitCurve|sizeSeries|analyzeGrid");
+    const r = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
+    expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
+    expect(r.code).toBe(0);
+    // …and the block bites where the fit is needed.
+    const compared = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json", "--compare-models", "all"]);
+    expect(compared.code).not.toBe(0);
+    expect(compared.stderr).toMatch(/blocked the library/);
+  });
+
   it("the blocks bite where the dependency is needed: a size formula needs mathjs, a fit ml-matrix", async () => {
-    const mathjs = blocker("mathjs", "mathjs", false);
+    const mathjs = blocker("mathjs", "mathjs", null);
     const formula = await node(["--import", mathjs, "--input-type=module", "-e", `const m = await import(${JSON.stringify(join(ROOT, "dist", "index.js"))}); m.parseSizeFormula("a / R");`]);
     expect(formula.code).not.toBe(0);
     expect(formula.stderr).toMatch(/blocked require mathjs/);
-    const matrix = blocker("matrix", "ml-matrix|ml-levenberg-marquardt", false);
+    const matrix = blocker("matrix", "ml-matrix|ml-levenberg-marquardt", null);
     const fit = await node(["--import", matrix, BIN, "fit", SAMPLE, "--json"]);
     expect(fit.code).not.toBe(0);
     expect(fit.stderr).toMatch(/blocked require ml-/);

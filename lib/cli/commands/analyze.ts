@@ -20,7 +20,6 @@ import {
 import { cliOptionNames } from "../cliOptionNames.ts";
 import { batchCount } from "../batchCount.ts";
 import { claimOutputFolder, sealOutputFolder, outputNames } from "../outputFolder.ts";
-import { runReplay } from "../replay.ts";
 import { ANALYZE_OUTPUT, failureReason, type AnalyzeBatchSettings, type AnalyzeJob, type AnalyzeJobResult } from "../analyzeFile.ts";
 import { EXIT, UsageError, type CliContext } from "../context.ts";
 import { numberOption } from "../optionValue.ts";
@@ -143,7 +142,7 @@ export const analyzeCommand: CliCommand = {
       .action(async (files: string[], opts: AnalyzeCliOptions) => {
         if (opts.replay !== undefined) {
           if (files.length) throw new UsageError("--replay takes no FILE: the record names its file");
-          ctx.exitCode = await runReplay(opts.replay, ctx);
+          ctx.exitCode = await (await import("../replay.ts")).runReplay(opts.replay, ctx);
           return;
         }
         if (!files.length) throw new UsageError("missing FILE: give curve files or folders (or --replay RECORD.json)");

@@ -23,7 +23,7 @@ import {
   type Provenance,
 } from "../../index.ts";
 import { join, basename, extname } from "node:path";
-import { analyzeCurveFile, failureReason } from "../analyzeFile.ts";
+import { failureReason, readAndAnalyze } from "../analyzeFile.ts";
 import { batchCount } from "../batchCount.ts";
 import { cliOptionNames } from "../cliOptionNames.ts";
 import { EXIT, type CliContext } from "../context.ts";
@@ -148,7 +148,7 @@ export const TIME_LIMIT_WARNING =
  */
 export function fitCurveFile(file: string, options: { analyze: AnalyzeOptions; read: ReadCurveOptions; fit: FitOptions }): { analysis: CurveAnalysis; fit: CurveFit; json: FitRecord; provenance: Provenance } {
   const { analyze, read, fit: fitOptions } = options;
-  const { analysis, json: peakBased } = analyzeCurveFile(file, { analyze, read }, "fit");
+  const { analysis, json: peakBased } = readAndAnalyze(file, { analyze, read }, "fit");
   const fit = fitCurve(analysis, fitOptions);
   if (fit.work.stoppedBy === "time") fit.warnings.push(TIME_LIMIT_WARNING);
   const provenance = makeProvenance("fit", peakBased.provenance?.input ?? null, { analyze, read, fit: fitOptions });
@@ -162,7 +162,7 @@ export function fitCurveFile(file: string, options: { analyze: AnalyzeOptions; r
  *
  * Notes
  * -----
- * 1. Each file is read and analysed as `dotspec analyze` does it (`analyzeCurveFile`: the
+ * 1. Each file is read and analysed as `dotspec analyze` does it (`readAndAnalyze`: the
  *    record with the file's metadata, notes and provenance), then fitted.
  * 2. The fit's record, and its figure, carry the provenance: tool version, command, the input's
  *    name, size and SHA-256, and the options as given (analysis, import and fit options).

@@ -6,7 +6,7 @@
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitRun } from "./fitRunner.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
-import type { FIT_DEFAULTS } from "./fitCurve.ts";
+import type { FIT_DEFAULTS } from "./fitDefaults.ts";
 import { startingValues } from "./startingValues.ts";
 import { refineGrouping } from "./refineGrouping.ts";
 import { sameFit } from "./sameFit.ts";

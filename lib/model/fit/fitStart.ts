@@ -5,7 +5,8 @@
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { checkEta, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
-import { FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
+import type { FitOptions } from "./fitCurve.ts";
+import { FIT_DEFAULTS } from "./fitDefaults.ts";
 import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 import { startingValues } from "./startingValues.ts";
 

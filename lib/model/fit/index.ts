@@ -7,7 +7,8 @@
  * the peaks show), the further readings of the VB peaks, the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
  */
-export { fitCurve, FIT_DEFAULTS, type FitOptions } from "./fitCurve.ts";
+export { fitCurve, type FitOptions } from "./fitCurve.ts";
+export { FIT_DEFAULTS } from "./fitDefaults.ts";
 export type { CurveFit, FitAlternative, FittedLevel, FittedValue, FitWork } from "./curveFit.ts";
 export { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type HypothesisKind } from "./fitHypotheses.ts";
 export { hypothesisPlausibility, PLAUSIBILITY_DEFAULTS, type PlausibilityInput, type PlausibilityLevel } from "./hypothesisPlausibility.ts";

@@ -1,0 +1,120 @@
+/**
+ * The defaults and constants of the model fit ({@link fitCurve}), in a module of their own: the
+ * command reads them for its help text without loading the fit.
+ */
+import { REGIME_LIMITS } from "../regimeLimits.ts";
+import type { fitCurve } from "./fitCurve.ts";
+import type { HypothesisKind } from "./fitHypotheses.ts";
+
+/** Defaults and constants of {@link fitCurve} (locked by test/model/fit/fitCurve.test.ts). */
+export const FIT_DEFAULTS = Object.freeze({
+  temperatureK: 4.5,
+  maxIterations: 60,
+  /**
+   * Work budget of one fit: model evaluations of all runs together. On `npm run bench:fit` (seeds
+   * 1–60, 501–560, 1001–1060, 2001–2060, and 1–30 and 1001–1060 with every hypothesis) fits asked
+   * for 1,257–1,506 at the median and 2,604 at most: 10,000 cuts none of them (margin × 3.8).
+   */
+  maxEvaluations: 10_000,
+  maxPoints: 800,
+  chargingEnergyGuessEV: 0.1,
+  /** Relative χ² improvement over one chunk of iterations below which the fit has converged. */
+  convergenceTolerance: 1e-5,
+  /** Iterations per chunk between convergence checks. */
+  chunkIterations: 4,
+  /** Fitted Γtip/Γsub at or above which the curve is in shell filling ({@link REGIME_LIMITS}) … */
+  fillingRatioMin: REGIME_LIMITS.fillingRateRatioMin,
+  /** … and at or below which it is in shell tunnelling (in between: intermediate). */
+  tunnelingRatioMax: REGIME_LIMITS.tunnelingRateRatioMax,
+  /**
+   * A reduced χ² above this says the model does not describe the curve at all (a warning; in the
+   * comparison, a whole-curve fit above it does not count against a grouping's plausibility).
+   * The status is stricter: poor above FIT_STATUS_DEFAULTS.poorChiSquare (3).
+   */
+  poorFitChiSquare: 10,
+  compareModels: false,
+  /** log₁₀ Γtip/Γsub of the extra starts, 0.01 to 100. */
+  rateRatioStartsLog10: Object.freeze([-2, -1, 0, 1, 2]) as readonly number[],
+  /** Iterations of each explored start; the best are then finished with maxIterations. */
+  exploreIterations: 8,
+  /**
+   * An explored start whose reduced χ² after its first chunkIterations is above this many times the
+   * best start's is not explored further (so far behind, it would not be among the finalists).
+   */
+  exploreDropRatio: 4,
+  /** Further log₁₀ Γtip/Γsub starts of each compared hypothesis, after its own. */
+  extraStartsLog10: Object.freeze({
+    "shell-filling": Object.freeze([]),
+    "shell-tunneling": Object.freeze([-1]),
+    "ladder-filling": Object.freeze([]),
+    "ladder-empty": Object.freeze([]),
+  }) as Readonly<Partial<Record<HypothesisKind, readonly number[]>>>,
+  /** Hypotheses (the best by BIC after exploring) finished with the full budget and checked for plausibility. */
+  finishedHypotheses: 3,
+  /** Standard errors either side of the fitted log₁₀ Γtip/Γsub that the regime must hold over (fitVerdict). */
+  regimeSigmas: 2,
+  /**
+   * The assignment's fit settles the question (no other grouping is compared unless asked) when
+   * the rules decided the regime and its reduced χ² is at most this: a model that reaches the noise
+   * leaves nothing for another grouping to explain. Unless its residuals show structure or its Ec
+   * lies far from the peak-based one (the limits of FIT_STATUS_DEFAULTS, poorResidualZ and
+   * poorChargingSigmas, on the peak-based error alone): what the status would call poor is not decisive.
+   */
+  decisiveChiSquare: 2,
+  /**
+   * BIC differences below this are ties (not worth more than a bare mention: R. E. Kass and
+   * A. E. Raftery, J. Am. Stat. Assoc. 90, 773 (1995)); a tie goes to the hypothesis listed first.
+   */
+  bicTieMargin: 2,
+  /**
+   * Most charge states per band (Π(g_j + 1)) of the assignment's own grouping that is fitted when
+   * another grouping can be compared instead (the compared groupings' own limit,
+   * FIT_HYPOTHESES_DEFAULTS.maxStatesPerBand): one evaluation of the model grows steeply with it
+   * (about 10 s for 3,465 states, an s, p, d, f reading of four peaks; 0.1 s for 231, s, p, d).
+   */
+  maxAssignedStates: 100,
+  /**
+   * The CB side on which groupings of the CB peaks are compared ends this many FWHM below the
+   * first VB level's crossing of the substrate's Fermi level, η·|V₁|/(1 − η) ({@link cbSideEndV}):
+   * at low η the VB levels' steps through the substrate junction fall among the CB levels, and a
+   * CB-side model without them fits every grouping badly. Measured on the accuracy benchmark's
+   * low-η mix with the comparison (seeds 1–40): intermediate Ec and Γtip/Γsub recovered 0 → 23 of
+   * 40, shell filling 10 → 13; the default and crossover mixes unchanged (their crossings lie
+   * beyond the window). Two FWHM: the step's broadening and the charging terms of the crossing,
+   * common practice (no source).
+   */
+  cbSideResonanceMarginFwhm: 2,
+  /**
+   * A compared grouping whose CB-side fit ends above this reduced χ² is tried again with every CB
+   * level's start shifted by −Ec and by +Ec (a first charging peak missed, or one too many), the
+   * better by BIC kept: a ladder one Ec off settles at reduced χ² 3–9 on curves where the right
+   * one reaches about 1.
+   */
+  shiftChiSquare: 2,
+  /**
+   * The winner's whole-curve values stand unless their reduced χ² is above this and above
+   * wholeCurveRatio times its CB side's: then no reading of the VB peaks fits with the CB values
+   * and the CB side's values are reported (a VB reading one Ec off pulls Ec by 5–10 % while the
+   * whole curve still looks "good").
+   */
+  wholeCurveChiSquare: 3,
+  /** See wholeCurveChiSquare. */
+  wholeCurveRatio: 2,
+  /**
+   * Combined standard errors (whole curve and CB side) by which the whole-curve Ec, or log₁₀
+   * Γtip/Γsub, may move from the CB side's before the VB reading counts as pulling it: then Ec and
+   * Γtip/Γsub are held at the CB side's values and the levels are fitted to the whole curve with them.
+   */
+  wholeCurveEcSigmas: 1,
+  /**
+   * Rounds of further starts about the best CB-side groupings ({@link refinementStarts}: the p
+   * shell split about the fitted p level, the rate ratio × 1/3 and × 3): the first about the best
+   * refinedGroupings, each later one about the best only, and only when the previous round found
+   * the best.
+   */
+  refinementRounds: 2,
+  /** CB-side groupings (the best by BIC) refined in the first round. */
+  refinedGroupings: 2,
+  /** Iterations of each refinement start (they begin at fitted values); the best is then finished with maxIterations. */
+  refinementIterations: 4,
+});
