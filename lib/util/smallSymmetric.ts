@@ -1,7 +1,7 @@
 /**
- * Inverse of a small symmetric positive-definite matrix by Cholesky factorisation, without
- * allocation beyond the result: for the many tiny normal-equation systems of local fits, where a
- * general matrix library's per-call overhead dominates.
+ * Inverse of a small symmetric positive-definite matrix by Cholesky factorisation, with no
+ * scratch beyond one plain array for the factor: for the many tiny normal-equation systems of
+ * local fits, where a general matrix library's per-call overhead dominates.
  *
  * Notes: A = L·Lᵀ (Cholesky–Banachiewicz), then A⁻¹ = L⁻ᵀ·L⁻¹. Returns null when a pivot is not
  * positive (the matrix is singular or not positive definite to working precision).
@@ -13,24 +13,30 @@
  * @returns the m×m row-major inverse, or null.
  */
 export function symmetricInverse(a: Float64Array, m: number): Float64Array | null {
-  const l = choleskyFactor(a, m);
-  return l && trailingInverse(l, m, m);
+  const l = Array.from(a.subarray(0, m * m));
+  return factorInPlace(l, m) ? trailingInverse(l, m, m) : null;
 }
 
-/** Cholesky–Banachiewicz factor L (row-major, lower) of A = L·Lᵀ; null when a pivot is not positive. */
-function choleskyFactor(a: ArrayLike<number>, m: number): Float64Array | null {
-  const l = new Float64Array(m * m);
+/**
+ * Cholesky–Banachiewicz factor L of A = L·Lᵀ, written over A's lower triangle (row-major; the
+ * upper triangle is left as it was and never read); false when a pivot is not positive. Each
+ * entry of A is read just before L's entry takes its place, so the factor is the same, bit for
+ * bit, as one written to a separate array. The scratch arrays here are plain arrays: a typed
+ * array of more than a few numbers is allocated outside V8's heap, which cost more than the
+ * arithmetic of these small systems.
+ */
+function factorInPlace(l: number[], m: number): boolean {
   for (let i = 0; i < m; i++) {
     for (let j = 0; j <= i; j++) {
-      let s = a[i * m + j];
+      let s = l[i * m + j];
       for (let k = 0; k < j; k++) s -= l[i * m + k] * l[j * m + k];
       if (i === j) {
-        if (!(s > 0)) return null;
+        if (!(s > 0)) return false;
         l[i * m + i] = Math.sqrt(s);
       } else l[i * m + j] = s / l[j * m + j];
     }
   }
-  return l;
+  return true;
 }
 
 /**
@@ -38,9 +44,9 @@ function choleskyFactor(a: ArrayLike<number>, m: number): Float64Array | null {
  * that block of L⁻ᵀL⁻¹ involves only the trailing block of L⁻¹, the inverse of L's trailing block.
  * With t = m, the whole inverse.
  */
-function trailingInverse(l: Float64Array, m: number, t: number): Float64Array {
+function trailingInverse(l: readonly number[], m: number, t: number): Float64Array {
   const o = m - t;
-  const li = new Float64Array(t * t);
+  const li: number[] = new Array(t * t).fill(0);
   for (let i = 0; i < t; i++) {
     li[i * t + i] = 1 / l[(o + i) * m + o + i];
     for (let j = 0; j < i; j++) {
@@ -67,12 +73,12 @@ function trailingInverse(l: Float64Array, m: number, t: number): Float64Array {
  * volts, its powers, unit-height peaks). Not modified: `a`.
  */
 export function scaledSymmetricInverse(a: Float64Array | readonly number[], m: number): Float64Array | null {
-  const d = new Float64Array(m);
+  const d: number[] = new Array(m);
   for (let r = 0; r < m; r++) d[r] = Math.sqrt(a[r * m + r]) || 1;
-  const s = new Float64Array(m * m);
-  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) s[r * m + c] = a[r * m + c] / (d[r] * d[c]);
-  const inv = symmetricInverse(s, m);
-  if (!inv) return null;
+  const l: number[] = new Array(m * m);
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) l[r * m + c] = a[r * m + c] / (d[r] * d[c]);
+  if (!factorInPlace(l, m)) return null;
+  const inv = trailingInverse(l, m, m);
   for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) inv[r * m + c] /= d[r] * d[c];
   return inv;
 }
@@ -110,12 +116,11 @@ export interface TailSolution {
  *   // { x: [0.5, 0], tailInverse: [0.5] }   (A⁻¹ = [[3, −2], [−2, 4]] / 8)
  */
 export function scaledCholeskySolve(a: ArrayLike<number>, b: ArrayLike<number>, m: number, tail: number): TailSolution | null {
-  const d = new Float64Array(m);
+  const d: number[] = new Array(m);
   for (let r = 0; r < m; r++) d[r] = Math.sqrt(a[r * m + r]) || 1;
-  const scaled = new Float64Array(m * m);
-  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) scaled[r * m + c] = a[r * m + c] / (d[r] * d[c]);
-  const l = choleskyFactor(scaled, m);
-  if (!l) return null;
+  const l: number[] = new Array(m * m);
+  for (let r = 0; r < m; r++) for (let c = 0; c < m; c++) l[r * m + c] = a[r * m + c] / (d[r] * d[c]);
+  if (!factorInPlace(l, m)) return null;
   // L·y = D⁻¹b, then Lᵀ·z = y, x = D⁻¹z.
   const x = new Float64Array(m);
   for (let i = 0; i < m; i++) {
