@@ -260,14 +260,28 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   const prominent: Candidate[] = [];
   for (const p of maxima) {
     const top = didvS[p];
-    let leftMin = top, leftBase = p;
-    for (let i = p - 1; i >= 0 && didvS[i] <= top; i--) {
-      if (didvS[i] < leftMin) (leftMin = didvS[i]), (leftBase = i);
+    // Both sides are walked in step until one ends (at a higher point or the curve's end). When
+    // the lowest point of the side that ended lies within the threshold of the top, the
+    // prominence (top minus the higher of the two minima) falls short whatever the other side
+    // holds, and the maximum is dropped there: most maxima are noise on a sloping conductance,
+    // one side a few samples long and the other reaching across the curve. Each side is walked
+    // in the same order as alone, so minima and bases are the same.
+    let leftMin = top, leftBase = p, rightMin = top, rightBase = p;
+    let l = p - 1, r = p + 1;
+    let leftOpen = l >= 0 && didvS[l] <= top, rightOpen = r < n && didvS[r] <= top;
+    while (leftOpen && rightOpen) {
+      if (didvS[l] < leftMin) (leftMin = didvS[l]), (leftBase = l);
+      if (didvS[r] < rightMin) (rightMin = didvS[r]), (rightBase = r);
+      leftOpen = --l >= 0 && didvS[l] <= top;
+      rightOpen = ++r < n && didvS[r] <= top;
     }
-    let rightMin = top, rightBase = p;
-    for (let i = p + 1; i < n && didvS[i] <= top; i++) {
-      if (didvS[i] < rightMin) (rightMin = didvS[i]), (rightBase = i);
+    const endedMin = leftOpen ? rightMin : leftMin;
+    if (!(top - endedMin >= threshold && top - endedMin > 0)) {
+      belowProminence++;
+      continue;
     }
+    for (; l >= 0 && didvS[l] <= top; l--) if (didvS[l] < leftMin) (leftMin = didvS[l]), (leftBase = l);
+    for (; r < n && didvS[r] <= top; r++) if (didvS[r] < rightMin) (rightMin = didvS[r]), (rightBase = r);
     const floor = Math.max(leftMin, rightMin);
     const prominence = top - floor;
     if (prominence >= threshold && prominence > 0) prominent.push({ index: p, prominence, floor, leftBase, rightBase, significance: null });
