@@ -98,21 +98,24 @@ export function peakAreas(biasV: Float64Array, didvS: Float64Array, positionsV: 
   const row = new Float64Array(m);
   const reach = PEAK_AREAS_DEFAULTS.basisReachSigma * sigma;
   // Only the basis functions within reach of a sample are non-zero: the Gram updates visit the
-  // two baseline columns and that run of peaks (the positions ascend), and skip the zero products,
-  // which leave every sum unchanged.
+  // two baseline columns and that run of peaks, and skip the zero products, which leave every sum
+  // unchanged. Bias and positions both ascend, so the run moves up with the sample: it starts at
+  // the first peak not yet left behind (jFirst) and ends at the first peak out of reach above.
+  // Entries of `row` outside the run are never read.
+  let jFirst = 0;
   for (let i = 0; i < biasV.length; i++) {
     const v = biasV[i];
     if (v < lo || v > hi) continue;
     row[0] = 1;
     row[1] = v - positionsV[0];
+    while (jFirst < k && v - positionsV[jFirst] >= reach) jFirst++;
     let first = m, last = 1;
-    for (let j = 0; j < k; j++) {
+    for (let j = jFirst; j < k; j++) {
       const d = v - positionsV[j];
-      if (Math.abs(d) < reach) {
-        row[j + 2] = Math.exp((-0.5 * d * d) / (sigma * sigma));
-        if (first === m) first = j + 2;
-        last = j + 2;
-      } else row[j + 2] = 0;
+      if (!(Math.abs(d) < reach)) break;
+      row[j + 2] = Math.exp((-0.5 * d * d) / (sigma * sigma));
+      if (first === m) first = j + 2;
+      last = j + 2;
     }
     const y = didvS[i];
     for (let a = 0; a < m; a++) {
