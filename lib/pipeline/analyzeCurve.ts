@@ -2,7 +2,9 @@
  * The main job on one curve: conductance, peaks, assignment, with the record of how.
  */
 import type { Curve } from "../curve.ts";
-import { conductanceFromPrepared, CONDUCTANCE_DEFAULTS, type ConductanceResult } from "../signal/conductance.ts";
+import { checkDifferentiateOptions, conductanceFromPrepared, differentiatedNoiseS, CONDUCTANCE_DEFAULTS, type ConductanceRecord, type ConductanceResult, type DifferentiateOptions } from "../signal/conductance.ts";
+import { savitzkyGolayUnchecked } from "../signal/savitzkyGolay.ts";
+import { savitzkyGolayWindow } from "../signal/savitzkyGolayWindow.ts";
 import { prepareCurve, type PreparedCurve } from "../signal/prepareCurve.ts";
 import { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from "../peaks/findPeaks.ts";
 import { peakAreas } from "../peaks/peakAreas.ts";
@@ -197,17 +199,15 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const measureWidth = windowMV === "auto" && options.peakWidthMV === undefined;
   let peakWidthMV = options.peakWidthMV ?? A.firstPassPeakWidthMV;
   let peakWidthMeasured = false;
-  let signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured, sweeps: !measureWidth });
-  const separationFor = (s: ConductanceResult) =>
-    options.minSeparationMV ?? Math.max(A.minSeparationFloorMV, A.separationPerWindow * s.record.windowMV);
+  const separationFor = (windowMVUsed: number) => options.minSeparationMV ?? Math.max(A.minSeparationFloorMV, A.separationPerWindow * windowMVUsed);
   // "full": each peak tested for a significant current step and refined on the current;
   // "sweeps": single sweeps, which only supply positions near peaks already found.
-  const peaksOf = (s: ConductanceResult, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length) =>
+  const peaksOf = (s: PassSignal, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length) =>
     findPeaks(s.biasV.subarray(lo, hi), didv.subarray(lo, hi), {
       noiseS: Math.max(s.record.noiseConductanceS, Number.MIN_VALUE),
       minProminenceSigma: mode === "full" ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
       minStepSigma,
-      minSeparationMV: separationFor(s),
+      minSeparationMV: separationFor(s.record.windowMV),
       rawNoise: s.record.usedMeasured
         ? { quantity: "conductance", sigmaS: s.record.noiseConductanceRawS ?? s.record.noiseConductanceS }
         : { quantity: "current", sigmaA: s.record.noiseCurrentA },
@@ -218,19 +218,16 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   if (measureWidth) {
     // The first pass only has to find the gap-edge peaks: it looks near the zero-current region.
     const [lo, hi] = nearRegion(prepared, A.firstPassReachV);
-    const edgePeaks = peaksOf(signal, signal.didvS, "full", lo, hi).peaks.map((p) => ({ ...p, index: p.index + lo }));
-    const widths = edgeWidths(signal, edgePeaks).map((w) => w * 1000);
+    const first = firstPassSignal(prepared, { windowMV, order, peakWidthMV, useMeasured }, lo, hi);
+    const edgePeaks = peaksOf(first, first.didvS, "full", lo, hi).peaks.map((p) => ({ ...p, index: p.index + lo }));
+    const widths = edgeWidths(first, edgePeaks).map((w) => w * 1000);
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
       peakWidthMeasured = true;
     }
-    // The final pass: the same filter again only when neither the window nor the sweeps ask for more.
-    const sameWindow = peakWidthMV === A.firstPassPeakWidthMV;
-    if (!sameWindow || prepared.sweepsA.length >= 2) {
-      signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured });
-    }
   }
+  const signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured });
 
   const found = peaksOf(signal, signal.didvS, "full");
   const areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
@@ -294,7 +291,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     peakWidthMeasured,
     minProminenceSigma,
     minStepSigma,
-    minSeparationMV: separationFor(signal),
+    minSeparationMV: separationFor(signal.record.windowMV),
     useMeasured: signal.record.usedMeasured,
     regimeForced: options.regime !== undefined,
   };
@@ -348,8 +345,49 @@ function gapSideFwhm(biasV: Float64Array, didvS: Float64Array, peak: Peak): numb
   return null;
 }
 
+/** What a pass of peak finding reads of a conductance: a whole pass's result, or the first pass's part. */
+type PassSignal = Pick<ConductanceResult, "biasV" | "currentA" | "didvS"> & {
+  record: Pick<ConductanceRecord, "noiseConductanceS" | "noiseConductanceRawS" | "noiseCurrentA" | "windowMV" | "usedMeasured">;
+};
+
+/**
+ * The first pass's dI/dV, computed only where that pass reads it: the points [lo, hi) and the
+ * stretch from there to 0 V (which the gap-side width walks), by the derivative filter alone,
+ * with the window chosen on the whole curve; each value is the one the whole curve's pass gives
+ * there (the filter is local: a point at least half a window from the part's ends, or at the
+ * curve's own end, sees the same samples), and the points outside are 0 and never read. A
+ * measured conductance (useMeasured) takes the whole pass.
+ */
+function firstPassSignal(prepared: PreparedCurve, options: DifferentiateOptions & { order: number; peakWidthMV: number }, lo: number, hi: number): PassSignal {
+  checkDifferentiateOptions(options);
+  if (options.useMeasured && prepared.measuredS) return conductanceFromPrepared(prepared, { ...options, sweeps: false });
+  const { biasV, currentA, stepV, noiseCurrentA } = prepared;
+  const n = biasV.length;
+  const { windowSamples } = savitzkyGolayWindow(prepared, options.windowMV ?? "auto", options.order, options.peakWidthMV);
+  let zero = 0;
+  while (zero < n && biasV[zero] < 0) zero++;
+  const from = Math.max(0, Math.min(lo, zero - 2)), to = Math.min(n, Math.max(hi, zero + 2));
+  const half = (windowSamples - 1) / 2;
+  const a = Math.max(0, from - half), b = Math.min(n, to + half);
+  const part = savitzkyGolayUnchecked(currentA.subarray(a, b), windowSamples, options.order, 1, stepV);
+  const didvS = new Float64Array(n);
+  didvS.set(part.subarray(from - a, to - a), from);
+  return {
+    biasV,
+    currentA,
+    didvS,
+    record: {
+      noiseConductanceS: differentiatedNoiseS(noiseCurrentA, windowSamples, options.order, stepV),
+      noiseConductanceRawS: null,
+      noiseCurrentA,
+      windowMV: windowSamples * stepV * 1e3,
+      usedMeasured: false,
+    },
+  };
+}
+
 /** Fitted FWHM (V) of the first current step of each band that has a peak. */
-function edgeWidths(signal: ConductanceResult, peaks: Peak[]): number[] {
+function edgeWidths(signal: PassSignal, peaks: Peak[]): number[] {
   const out: number[] = [];
   const { biasV, currentA } = signal;
   for (const sign of [1, -1]) {

@@ -241,7 +241,8 @@ export function conductance(curve: Curve, options: ConductanceOptions = {}): Con
 /** Options of {@link conductanceFromPrepared}: those of {@link conductance} less the offset, which the preparation fixed. */
 export type DifferentiateOptions = Omit<ConductanceOptions, "offset">;
 
-function checkDifferentiateOptions(options: DifferentiateOptions): void {
+/** Checks the options of {@link conductanceFromPrepared} (known keys, values in range); throws `options/…`. */
+export function checkDifferentiateOptions(options: DifferentiateOptions): void {
   checkKnownKeys("conductance options", options, DIFFERENTIATE_KEYS);
   if (options.windowMV !== undefined && options.windowMV !== "auto") checkPositive("windowMV", options.windowMV);
   if (options.order !== undefined) checkInteger("order", options.order, 1, 5);
@@ -252,6 +253,14 @@ function checkDifferentiateOptions(options: DifferentiateOptions): void {
       throw new DotspecError("options/not-boolean", `${key} must be true or false; got ${String(v)}`);
     }
   }
+}
+
+/**
+ * The white-noise σ of the Savitzky–Golay derivative of a current with white noise σ_I: σ_I times
+ * the filter's noise gain for the first derivative, over the bias step (exact for white noise), S.
+ */
+export function differentiatedNoiseS(noiseCurrentA: number, windowSamples: number, order: number, stepV: number): number {
+  return (noiseCurrentA * noiseGainUnchecked(windowSamples, order, 1)) / stepV;
 }
 
 /**
@@ -324,7 +333,7 @@ export function conductanceFromPrepared(prepared: PreparedCurve, options: Differ
     if (useMeasured) warnings.push("useMeasured: the curve has no measured dI/dV, so the current was differentiated.");
     didvS = pair!.slope;
     // 6. Noise of dI/dV (exact for white noise).
-    noiseConductanceS = (noiseCurrentA * noiseGainUnchecked(windowSamples, order, 1)) / stepV;
+    noiseConductanceS = differentiatedNoiseS(noiseCurrentA, windowSamples, order, stepV);
   }
 
   // 7. Sweep-to-sweep spread.
