@@ -156,8 +156,8 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    the next peak or half the peak's gap-side FWHM past it, whichever is nearer
  *    ({@link edgeStepWidth}; no other level overlaps that stretch); the smaller (a neighbour the
  *    first pass missed can only widen a fit), bounded to ANALYZE_DEFAULTS.peakWidthBoundsMV, sets
- *    the automatic window of the final pass. The final pass is the first one again when the
- *    window comes out the same and there is only one sweep.
+ *    the automatic window of the final pass. The first pass differentiates only the points it
+ *    reads (near the zero-current region and on to 0 V), with the values a whole pass gives there.
  * 3. Peaks ({@link findPeaks}) with the position uncertainty from the noise of the measured signal
  *    (the current, or a measured conductance), with the same floor for both.
  * 4. With several sweeps, the peaks are also found in each sweep's dI/dV; each peak's sweep
