@@ -3,6 +3,7 @@
  * (the gap) no other level overlaps.
  */
 import { normalCdfFast, NORMAL_CDF_FAST_REACH } from "../util/special.ts";
+import { brentMinimize } from "../util/brentMinimize.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 
 /** Options of {@link edgeStepWidth}. */
@@ -29,8 +30,10 @@ export const EDGE_STEP_WIDTH_DEFAULTS = Object.freeze({
   minPoints: 5,
   /** Log-spaced trial widths between the bounds (note 1). */
   trialCount: 16,
-  /** Golden-section steps after the trials (note 1). */
-  goldenSectionSteps: 20,
+  /** Brent's search after the trials stops within this of the best ln s (a relative 1e-5 in the width; note 1). */
+  logWidthTolerance: 1e-5,
+  /** Most evaluations of that search (note 1). */
+  refineEvaluations: 40,
 });
 
 /**
@@ -59,8 +62,9 @@ export const EDGE_STEP_WIDTH_DEFAULTS = Object.freeze({
  * Notes
  * -----
  * 1. Model I(V) = a + c·Φ((V − V₀)/s) on the given range; for each trial s the best a and c
- *    follow linearly, so only s is searched: 16 log-spaced trials between the bounds, then a
- *    golden-section refinement around the best.
+ *    follow linearly, so only s is searched: 16 log-spaced trials between the bounds, then
+ *    Brent's method (parabolic interpolation, golden-section steps where it is not to be
+ *    trusted) in ln s between the best trial's neighbours, to 1e-5 ({@link brentMinimize}).
  * 2. Returns FWHM = 2√(2 ln 2)·s, or null when the range holds fewer than 5 points or the
  *    fitted step is not positive.
  * Measured on the unsmoothed current, the width carries no smoothing bias. The constants are in
@@ -68,8 +72,7 @@ export const EDGE_STEP_WIDTH_DEFAULTS = Object.freeze({
  *
  * References
  * ----------
- * J. Kiefer, "Sequential minimax search for a maximum", Proc. Amer. Math. Soc. 4, 502 (1953)
- * (golden-section search).
+ * R. P. Brent, Algorithms for Minimization without Derivatives (Prentice-Hall, 1973), ch. 5.
  *
  * Example
  * -------
@@ -149,23 +152,10 @@ export function edgeStepWidth(biasV: ArrayLike<number>, currentA: ArrayLike<numb
     const { r } = residual(s);
     if (r < bestR) (bestR = r), (best = k);
   });
-  // Golden-section search in log s between the neighbours of the best trial, one new evaluation per step.
-  let a = Math.log(grid[Math.max(0, best - 1)]), b = Math.log(grid[Math.min(trials - 1, best + 1)]);
-  const g = (Math.sqrt(5) - 1) / 2;
-  let c1 = b - g * (b - a), c2 = a + g * (b - a);
-  let r1 = residual(Math.exp(c1)).r, r2 = residual(Math.exp(c2)).r;
-  for (let it = 0; it < D.goldenSectionSteps; it++) {
-    if (r1 < r2) {
-      b = c2, c2 = c1, r2 = r1;
-      c1 = b - g * (b - a);
-      r1 = residual(Math.exp(c1)).r;
-    } else {
-      a = c1, c1 = c2, r1 = r2;
-      c2 = a + g * (b - a);
-      r2 = residual(Math.exp(c2)).r;
-    }
-  }
-  const s = Math.exp((a + b) / 2);
+  // Brent's method in log s between the neighbours of the best trial, from the best trial.
+  const lnLo = Math.log(grid[Math.max(0, best - 1)]), lnHi = Math.log(grid[Math.min(trials - 1, best + 1)]);
+  const found = brentMinimize((lnS) => residual(Math.exp(lnS)).r, lnLo, lnHi, Math.log(grid[best]), bestR, D.logWidthTolerance, D.refineEvaluations);
+  const s = Math.exp(found.x);
   if (!(residual(s).c > 0)) return null;
   return GAUSSIAN_FWHM_PER_SIGMA * s;
 }
