@@ -163,7 +163,7 @@ export const FIT_DEFAULTS = Object.freeze({
    * the first, where that first end would leave out p (so that the groupings of p are compared
    * where p is). The held level's degeneracy is the assignment's first VB level's, the same for
    * every grouping. Measured on the low-η mix with the comparison: seeds 1–40, intermediate 28 →
-   * 27, shell filling 19 → 19 (one fixed, one broke), tunnelling 34 → 34; seeds 1001–1040,
+   * 27, shell filling 19 → 19 (one more fixed, one broke), tunnelling 34 → 34; seeds 1001–1040,
    * intermediate 17 → 19, filling 17 → 17, tunnelling 34 → 34; the default and crossover mixes
    * unchanged (no crossing on their curves' CB side).
    */
