@@ -5,6 +5,11 @@
  * calibration issue (truth no better).
  *
  *   node bin/run-ts.js bench/fitDiagnose.ts --mix crossover 5 46 47
+ *   node bin/run-ts.js bench/fitDiagnose.ts --mix low-eta --regime intermediate 15 22
+ *
+ * At low η the truth's CB side is scored three ways: the CB levels alone below the first VB
+ * crossing (cbSideEndV), the CB levels alone over the whole positive side, and the CB levels with
+ * the assignment's VB levels held (heldValenceLevels) over the whole positive side.
  */
 import { simulateCurve } from "../lib/model/simulate.ts";
 import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRanges } from "../lib/model/syntheticSpectrum.ts";
@@ -15,13 +20,17 @@ import { fitHypotheses, type FitHypothesis } from "../lib/model/fit/fitHypothese
 import type { LevelSeed } from "../lib/model/fit/levelsToFit.ts";
 import { bandStepsMemo } from "../lib/model/fit/bandStepsMemo.ts";
 import { residualStructure } from "../lib/model/fit/residualStructure.ts";
+import { heldValenceLevels } from "../lib/model/fit/heldValenceLevels.ts";
+import { heldHoleEntry } from "../lib/model/fit/cbSideEnd.ts";
 
 const args = process.argv.slice(2);
 const mixAt = args.indexOf("--mix");
 const mix = mixAt >= 0 ? args[mixAt + 1] : "crossover";
-const starts = args.filter((a, i) => /^\d+$/.test(a) && args[i - 1] !== "--mix").map(Number);
-const ranges: SyntheticRanges = mix === "crossover" ? { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: [0.2, 5] } } : SYNTHETIC_DEFAULTS;
-const regime = (mix === "crossover" ? "intermediate" : mix) as "intermediate";
+const regimeAt = args.indexOf("--regime");
+const starts = args.filter((a, i) => /^\d+$/.test(a) && args[i - 1] !== "--mix" && args[i - 1] !== "--regime").map(Number);
+const ranges: SyntheticRanges =
+  mix === "crossover" ? { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: [0.2, 5] } } : mix === "low-eta" ? { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65], secondJunction: "keep" } : SYNTHETIC_DEFAULTS;
+const regime = (regimeAt >= 0 ? args[regimeAt + 1] : mix === "crossover" || mix === "low-eta" ? "intermediate" : mix) as "intermediate";
 
 for (const k of starts) {
   const { scenario, truth } = syntheticSpectrum(k, regime, ranges);
@@ -53,22 +62,28 @@ for (const k of starts) {
     before += l.degeneracy;
     return s;
   });
-  const runner = fitRunner(analysis, { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 1e6, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5, cbSideMarginFwhm: 2 });
+  const settings = { eta, temperatureK: 4.5, maxPoints: 800, maxEvaluations: 1e6, timeLimitMs: null, maxIterations: 60, chargingEnergyGuessEV: 0.1, chunkIterations: 4, convergenceTolerance: 1e-5, cbSideMarginFwhm: 2 };
+  const runner = fitRunner(analysis, settings);
+  const uncut = fitRunner(analysis, { ...settings, cbSideHeldHole: true });
   const truthParams = (seeds: LevelSeed[]) => [...seeds.map((s, j) => (s.band === "CB" ? cbSorted[j].energyEV : -vbSorted[j - cbSeeds.length].energyEV)), scenario.chargingEnergyEV, Math.log10(scenario.tipRatePerS / scenario.substrateRatePerS), Math.log10(scenario.broadeningEV)];
   const hAll: FitHypothesis = { ...h0, seeds: [...cbSeeds, ...vbSeeds], cbDegeneracies: cbSeeds.map((s) => s.degeneracy), vbReadings: [vbSeeds] };
   const hCb: FitHypothesis = { ...hAll, seeds: cbSeeds, vbReadings: [[]] };
-  const at = (h: FitHypothesis, set: typeof runner.all, it: number) => {
-    const t = runner.run(h, null, it, truthParams(h.seeds), set);
-    const model = runner.projectorOf(set)(bandStepsMemo(h.seeds, eta, 4.5, runner.bandStore)(t.loop.parameters, set.biasV)).out;
-    const z = residualStructure(set.biasV, set.dataA.map((v, i) => v - model[i]), runner.noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
-    return `${runner.reduced(t).toFixed(2)} (z ${z.toFixed(1)})`;
+  const at = (h: FitHypothesis, set: typeof runner.all, it: number, r = runner) => {
+    const t = r.run(h, null, it, truthParams(h.seeds), set);
+    const model = r.projectorOf(set)(r.currentOf(h)(t.loop.parameters, set.biasV)).out;
+    const z = residualStructure(set.biasV, set.dataA.map((v, i) => v - model[i]), r.noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
+    return `${r.reduced(t).toFixed(2)} (z ${z.toFixed(1)})`;
   };
+  let topV = -Infinity;
+  for (const v of uncut.cbSide.biasV) topV = Math.max(topV, v);
+  const held = heldValenceLevels(h0.seeds, heldHoleEntry(analysis.peaks, eta)?.entry.biasV ?? null, eta, topV);
+  const hHeld: FitHypothesis = { ...hCb, heldVb: held };
   let truthLine = "";
   try {
-    truthLine = `truth χ²r whole ${at(hAll, runner.all, 1)} polished ${at(hAll, runner.all, 60)}; CB ${at(hCb, runner.cbSide, 1)}`;
+    truthLine = `truth χ²r whole ${at(hAll, runner.all, 1)} polished ${at(hAll, runner.all, 60)}; CB ${at(hCb, runner.cbSide, 1)} (to ${Math.max(...runner.cbSide.biasV).toFixed(2)} V), below the next crossing ${at(hCb, uncut.cbSide, 1, uncut)}, with ${held.map((s) => `${s.label}(g${s.degeneracy})@${s.firstPeakV.toFixed(2)}V`).join(" ") || "no VB level"} held ${at(hHeld, uncut.cbSide, 1, uncut)}, polished ${at(hHeld, uncut.cbSide, 60, uncut)} (to ${topV.toFixed(2)} V)`;
   } catch (e) {
     truthLine = `truth threw ${(e as Error).message}`;
   }
-  console.log(`#${k} ${truth.regime} r ${truth.rateRatio.toPrecision(3)} Ec ${(truth.chargingEnergyEV * 1000).toFixed(1)} η ${eta.toFixed(2)} CB ${cbSorted.map((l) => `${l.degeneracy}@${(l.energyEV * 1000).toFixed(0)}`).join(" ")} noise ${(truth.noiseRelative * 100).toFixed(2)}% fwhm ${(truth.peakFwhmV * 1000).toFixed(0)} rules ${analysis.assignment.regime}\n   ${fitLine}\n   ${truthLine}`);
+  console.log(`#${k} ${truth.regime} r ${truth.rateRatio.toPrecision(3)} Ec ${(truth.chargingEnergyEV * 1000).toFixed(1)} η ${eta.toFixed(2)} CB ${cbSorted.map((l) => `${l.degeneracy}@${(l.energyEV * 1000).toFixed(0)}`).join(" ")} VB ${vbSorted.map((l) => `${l.degeneracy}@${(l.energyEV * 1000).toFixed(0)} (${(-(-l.energyEV + scenario.chargingEnergyEV / 2) / eta).toFixed(2)} V)`).join(" ")} noise ${(truth.noiseRelative * 100).toFixed(2)}% fwhm ${(truth.peakFwhmV * 1000).toFixed(0)} rules ${analysis.assignment.regime}\n   ${fitLine}\n   ${truthLine}`);
 }
 void FIT_DEFAULTS;

@@ -9,6 +9,7 @@ import type { Level } from "../scenario.ts";
 import { BOLTZMANN_EV_PER_K } from "../../util/constants.ts";
 import { parameterModel } from "./parameterModel.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
+import { ladderSolveWork } from "./solveWork.ts";
 
 /** Size of {@link bandStepsMemo}'s store (locked by test/model/fit/bandStepsMemo.test.ts). */
 export const BAND_STEPS_MEMO_DEFAULTS = Object.freeze({
@@ -25,13 +26,19 @@ type BandSteps = { baseA: number; steps: CurrentStep[]; fromV: number; toV: numb
 
 /**
  * The solutions {@link bandStepsMemo} keeps: each band's steps by its parameters (and η, T),
- * and each ladder structure with its zero-temperature plateaus. One store may serve the memos of
- * several sets of levels (the hypotheses of one fit): a band solution depends only on the band's
- * own levels, Ec, Γtip/Γsub, η and T.
+ * and each ladder structure with its zero-temperature plateaus; and the master-equation work
+ * done to find them. One store may serve the memos of several sets of levels (the hypotheses of
+ * one fit): a band solution depends only on the band's own levels, Ec, Γtip/Γsub, η and T.
  */
 export interface BandStepsStore {
   bands: { cb: Map<string, BandSteps>; vb: Map<string, BandSteps> };
-  structures: Map<string, { ladder: Ladder; plateaus: Map<string, number>; workspace: LadderWorkspace }>;
+  structures: Map<string, { ladder: Ladder; plateaus: Map<string, number>; workspace: LadderWorkspace; solveWork: number }>;
+  /**
+   * The work of every memo on this store so far: zero-temperature plateaus solved (master
+   * equations; a plateau found stored costs none) and their elimination steps summed
+   * ({@link ladderSolveWork} of the ladder per solve). The fit's work budget counts it.
+   */
+  work: { solves: number; eliminationSteps: number };
 }
 
 /**
@@ -40,7 +47,7 @@ export interface BandStepsStore {
  * Returns
  * -------
  * BandStepsStore
- *     Empty maps; {@link bandStepsMemo} fills them.
+ *     Empty maps and no work done; {@link bandStepsMemo} fills them and counts its solves.
  *
  * Example
  * -------
@@ -51,7 +58,7 @@ export interface BandStepsStore {
  * ```
  */
 export function bandStepsStore(): BandStepsStore {
-  return { bands: { cb: new Map(), vb: new Map() }, structures: new Map() };
+  return { bands: { cb: new Map(), vb: new Map() }, structures: new Map(), work: { solves: 0, eliminationSteps: 0 } };
 }
 
 /**
@@ -98,6 +105,8 @@ export function bandStepsStore(): BandStepsStore {
  *    or Ec without reordering any crossing solves no master equation at all; the solves of one
  *    structure share one set of buffers ({@link ladderWorkspace}).
  * 4. The two bands' steps merged and broadened by σ/η ({@link fastCurrent}).
+ * 5. Every plateau solved (not found in the plateau store) is counted in store.work, with its
+ *    ladder's elimination steps ({@link ladderSolveWork}, computed once per structure).
  * Nothing outside the memos given the store changes it.
  *
  * Example
@@ -115,17 +124,17 @@ export function bandStepsMemo(
   temperatureK: number,
   store: BandStepsStore = bandStepsStore(),
 ): (p: ArrayLike<number>, biasV: ArrayLike<number>) => Float64Array {
-  const { structures } = store;
+  const { structures, work } = store;
   const stores = store.bands;
   const ladderOf = (levels: readonly Level[], chargingEnergyEV: number) => {
     const key = ladderStructureKey(levels);
     const known = structures.get(key);
     if (known) {
       if (known.plateaus.size > BAND_STEPS_MEMO_DEFAULTS.plateausPerStructure) known.plateaus.clear();
-      return { ladder: ladderWithEnergies(known.ladder, levels, chargingEnergyEV), plateaus: known.plateaus, workspace: known.workspace };
+      return { ladder: ladderWithEnergies(known.ladder, levels, chargingEnergyEV), plateaus: known.plateaus, workspace: known.workspace, solveWork: known.solveWork };
     }
     const ladder = buildLadder(levels, chargingEnergyEV);
-    const built = { ladder, plateaus: new Map<string, number>(), workspace: ladderWorkspace(ladder) };
+    const built = { ladder, plateaus: new Map<string, number>(), workspace: ladderWorkspace(ladder), solveWork: ladderSolveWork(ladder) };
     structures.set(key, built);
     return built;
   };
@@ -142,7 +151,12 @@ export function bandStepsMemo(
     // The hole ladder is the mirrored one (bandLadders).
     const own = ladderOf(band === "cb" ? levels : levels.map((l) => ({ energyEV: -l.energyEV, degeneracy: l.degeneracy })), model.chargingEnergyEV);
     const ladders = band === "cb" ? { cb: own.ladder, vb: null } : { cb: null, vb: own.ladder };
+    const storedBefore = own.plateaus.size;
     const solved = { ...currentSteps(alone, ladders, { ...wide, plateauStore: { cb: own.plateaus, vb: own.plateaus }, workspaces: { [band]: own.workspace } }), ...wide };
+    // Each plateau not found stored was solved once and stored (currentSteps' plateauStore).
+    const solves = own.plateaus.size - storedBefore;
+    work.solves += solves;
+    work.eliminationSteps += solves * own.solveWork;
     if (known) store.delete(key);
     else if (store.size >= BAND_STEPS_MEMO_DEFAULTS.entriesPerBand) store.delete(store.keys().next().value!);
     store.set(key, solved);

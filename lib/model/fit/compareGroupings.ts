@@ -13,6 +13,8 @@ import { sameFit } from "./sameFit.ts";
 import { shiftGrouping } from "./shiftGrouping.ts";
 import { laterEntryReadings } from "./laterEntryReadings.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
+import { heldValenceLevels } from "./heldValenceLevels.ts";
+import { heldHoleEntry } from "./cbSideEnd.ts";
 
 /** Constants of {@link compareGroupings} (locked by test/model/fit/laterEntryReadings.test.ts). */
 export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
@@ -84,7 +86,8 @@ export interface CompareContext {
  * Notes
  * -----
  * 1. Each hypothesis with CB levels (at most maxAssignedStates charge states) becomes a CB-side
- *    hypothesis, explored from its rate-ratio starts for exploreIterations in two halves (a start
+ *    hypothesis (holding the first hole's entry where it falls on the CB side, FIT_DEFAULTS.cbSideHeldHole,
+ *    {@link heldValenceLevels}), explored from its rate-ratio starts for exploreIterations in two halves (a start
  *    far behind after the first is not continued).
  * 2. The best finishedHypotheses by BIC are finished; a finalist above reduced χ² shiftChiSquare
  *    is retried with its CB starts shifted by ∓Ec ({@link shiftGrouping}).
@@ -92,7 +95,7 @@ export interface CompareContext {
  *    peaks' spacings), the second not when it ended at the same fit ({@link sameFit}); the best
  *    again (without those) while a refined one is best, up to refinementRounds.
  * 4. By CB-side BIC, each finalist plausible on the CB side is fitted to the whole curve with each
- *    VB reading; the first whose whole-curve fit is plausible (or does not describe the curve) ends
+ *    VB reading (a further reading only with at most maxAssignedStates charge states); the first whose whole-curve fit is plausible (or does not describe the curve) ends
  *    the search. With none plausible, the lowest BIC's whole-curve fit is kept.
  *
  * Example
@@ -106,9 +109,16 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
   const explore = stage.exploreIterations;
   const guessEC = stage.chargingEnergyGuessEV;
   const cbOnly = new Map<FitHypothesis, FitHypothesis>();
+  // At low η the VB levels whose steps through the substrate junction fall on the CB side are
+  // held in its model (at the energies their first peaks give), so that the CB side describes
+  // every step in it.
+  let topV = -Infinity;
+  for (const v of cbSide.biasV) topV = Math.max(topV, v);
+  const holeEntryV = heldHoleEntry(hypotheses[0].analysis.peaks, eta)?.entry.biasV ?? null;
   for (const h of hypotheses) {
     const seeds = h.seeds.filter((x) => x.band === "CB");
-    if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]] });
+    const heldVb = F.cbSideHeldHole ? heldValenceLevels(hypotheses[0].seeds, holeEntryV, eta, topV) : [];
+    if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]], ...(heldVb.length ? { heldVb } : {}) });
   }
   // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
   // above exploreDropRatio times the best) or already converged is not continued.
@@ -170,7 +180,10 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
       trials.push(full);
       if (accept(full) && (!bestFull || full.bic < bestFull.bic)) bestFull = full;
     };
-    for (const vb of h.vbReadings) fitReading(vb, h.chargingEnergyStartEV);
+    // The first reading always; a further one only within the hypotheses' limit of charge states
+    // (one of eleven single levels has 2,048: one evaluation then solves for seconds).
+    const small = (vb: LevelSeed[]) => vb.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates;
+    h.vbReadings.forEach((vb, i) => (i === 0 || small(vb)) && fitReading(vb, h.chargingEnergyStartEV));
     // No reading fits as well as the CB side does, though one comes near (reduced χ² at most
     // poorFitChiSquare; beyond, the reading is wrong by more than an entry): the VB levels entered
     // one carrier earlier (started from the CB side's Ec).
@@ -179,7 +192,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
     const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
     if (!asCbSide(bestFull!) && reduced(bestFull!) <= F.poorFitChiSquare) {
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
-      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV, p[ncb] / eta)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
+      for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV, p[ncb] / eta).filter(small)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
     }
     return bestFull!;
   };

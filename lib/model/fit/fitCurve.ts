@@ -9,7 +9,10 @@ import { checkEta, checkInteger, checkKnownKeys, checkPositive } from "../../uti
 import { DotspecError } from "../../util/errors.ts";
 import type { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
-import { bandStepsMemo } from "./bandStepsMemo.ts";
+import type { bandStepsMemo } from "./bandStepsMemo.ts";
+import type { ladderSolveWork } from "./solveWork.ts";
+import type { heldValenceLevels } from "./heldValenceLevels.ts";
+import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
 import { fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
@@ -42,7 +45,8 @@ export interface FitOptions {
   maxIterations?: number;
   /**
    * The work budget: most model evaluations of the whole fit (all starts and hypotheses); where it
-   * is reached the fit stops the same way on every machine, says so, and is at best poor.
+   * is reached the fit stops the same way on every machine, says so, and is at best poor. The
+   * budget's other part, FIT_DEFAULTS.maxEliminationSteps, weighs what the evaluations solve.
    * Default: FIT_DEFAULTS.maxEvaluations.
    */
   maxEvaluations?: number;
@@ -106,8 +110,9 @@ export interface FitOptions {
  *    evaluation (variable projection); Levenberg–Marquardt adjusts the level energies, Ec,
  *    log₁₀(Γtip/Γsub) and the broadening on residuals scaled by the current noise.
  * 3. Iterations ({@link levenbergMarquardtLoop}): stops when χ² improves by less than 1e-5 (relative) over 4 iterations, after maxIterations,
- *    or when the fit's work budget (maxEvaluations model evaluations over all runs) or the opt-in
- *    timeLimitMs is spent (then later runs keep their starts, `work.stoppedBy` says which, a
+ *    or when the fit's work budget (maxEvaluations model evaluations over all runs, or
+ *    FIT_DEFAULTS.maxEliminationSteps master-equation elimination steps, {@link ladderSolveWork},
+ *    whichever comes first) or the opt-in timeLimitMs is spent (then later runs keep their starts, `work.stoppedBy` says which, a
  *    warning says so and the status is at best poor).
  * 4. Standard errors ({@link standardErrors}) from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
@@ -120,7 +125,10 @@ export interface FitOptions {
  *    with p whole, 2+4 or 2+2+2, in filling order or entered from the empty dot) are each
  *    explored for exploreIterations (8) from their starts on the CB side of the curve (bias > 0,
  *    up to cbSideResonanceMarginFwhm (2) FWHM below the first VB level's substrate-junction
- *    crossing η·|V₁|/(1 − η), which at low η falls among the CB steps ({@link cbSideEndV}):
+ *    crossing η·|V₁|/(1 − η), which at low η falls among the CB steps ({@link cbSideEndV});
+ *    where that end would leave out p, the first hole's entry is held in every CB-side model
+ *    instead, at the energy its peak gives, and the side ends below the next entry's crossing,
+ *    cbSideHeldHole, {@link heldHoleEntry}, {@link heldValenceLevels}):
  *    the VB reading, which they share, stays out of the comparison; a start whose reduced χ²
  *    after the first 4 is above exploreDropRatio (4) times the best is not explored further); the best
  *    finishedHypotheses (3) by BIC = χ² + k·ln n are finished there (a finalist above reduced χ² shiftChiSquare (2) is also
@@ -214,7 +222,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // (bias > 0, below the first VB crossing) alone for comparing groupings of the CB peaks. Band solutions are shared by every
   // run: hypotheses that share a band's levels, and the runs of one hypothesis (explored,
   // finished, fitted to the whole curve), solve it once.
-  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, maxEvaluations, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance, cbSideMarginFwhm: F.cbSideResonanceMarginFwhm });
+  const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, maxEvaluations, maxEliminationSteps: F.maxEliminationSteps, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance, cbSideMarginFwhm: F.cbSideResonanceMarginFwhm, cbSideHeldHole: F.cbSideHeldHole });
   const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced, work } = runner;
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
@@ -238,7 +246,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
   // residuals, or an Ec far from the peak-based one.
   const hidden = (t: FitTrial) => {
-    const model = projectorOf(t.set)(bandStepsMemo(t.hypothesis.seeds, eta, temperatureK, bandStore)(t.loop.parameters, t.set.biasV)).out;
+    const model = projectorOf(t.set)(runner.currentOf(t.hypothesis)(t.loop.parameters, t.set.biasV)).out;
     const z = residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
     const peakEc = peakChargingEnergy(analysis, eta);
     const ec = t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy];
@@ -308,7 +316,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // When the whole-curve fit moves Ec more than wholeCurveEcSigmas combined standard errors from
   // its CB side's, the VB reading pulls it: Ec and Γtip/Γsub are held at the CB side's values and
   // the levels fitted to the whole curve with them (the VB levels and the gap kept).
-  const currentOf = (t: FitTrial) => bandStepsMemo(t.hypothesis.seeds, eta, temperatureK, bandStore);
+  const currentOf = (t: FitTrial) => runner.currentOf(t.hypothesis);
   let errors = trialErrors(best, currentOf(best), noiseA, warnings);
   let heldNote: string | null = null;
   if (whole && best === whole) {
@@ -343,8 +351,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const at = parameterIndex(seeds.length);
   const { parameters: params, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
-  const { evaluations, stoppedBy } = work();
-  const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${maxEvaluations} model evaluations (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
+  const { evaluations, stoppedBy, budgetPart } = work();
+  const budgetWords = budgetPart === "evaluations" ? `${maxEvaluations} model evaluations` : `${F.maxEliminationSteps.toExponential(1)} master-equation elimination steps`;
+  const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${budgetWords} (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
   if (cutShort) warnings.push(cutShort);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);

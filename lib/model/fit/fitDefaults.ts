@@ -5,6 +5,9 @@
 import { REGIME_LIMITS } from "../regimeLimits.ts";
 import type { fitCurve } from "./fitCurve.ts";
 import type { HypothesisKind } from "./fitHypotheses.ts";
+import type { ladderSolveWork } from "./solveWork.ts";
+import type { heldValenceLevels } from "./heldValenceLevels.ts";
+import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
 
 /** Defaults and constants of {@link fitCurve} (locked by test/model/fit/fitCurve.test.ts). */
 export const FIT_DEFAULTS = Object.freeze({
@@ -16,6 +19,18 @@ export const FIT_DEFAULTS = Object.freeze({
    * for 1,257–1,506 at the median and 2,604 at most: 10,000 cuts none of them (margin × 3.8).
    */
   maxEvaluations: 10_000,
+  /**
+   * The work budget's other part: most master-equation elimination steps of one fit (each
+   * zero-temperature plateau solved weighed by its ladder's {@link ladderSolveWork}). Evaluations
+   * differ in cost by orders of magnitude: on the crossover's curves most find their plateaus
+   * stored, at low η (wide windows, both bands, many charge states) one whole-curve evaluation
+   * solves hundreds, and the time follows the elimination steps (about 0.6 ns each on the 2-core
+   * EPYC): on the crossover mix with the comparison (seeds 1–200) fits solved at most 6.1e8, so
+   * 3e9 cuts none of them (margin × 4.9, their results unchanged to the bit), while it bounds a
+   * low-η fit to about 2 s (one on the low-η mix, seeds 1001–1040, solved 6.5e10 in about 130 s
+   * before the VB readings beyond maxAssignedStates were left out). The same on every machine.
+   */
+  maxEliminationSteps: 3e9,
   maxPoints: 800,
   chargingEnergyGuessEV: 0.1,
   /** Relative χ² improvement over one chunk of iterations below which the fit has converged. */
@@ -71,6 +86,8 @@ export const FIT_DEFAULTS = Object.freeze({
    * another grouping can be compared instead (the compared groupings' own limit,
    * FIT_HYPOTHESES_DEFAULTS.maxStatesPerBand): one evaluation of the model grows steeply with it
    * (about 10 s for 3,465 states, an s, p, d, f reading of four peaks; 0.1 s for 231, s, p, d).
+   * Also the limit of a further VB reading fitted to the whole curve (compareGroupings: one of
+   * eleven single hole levels has 2,048 states).
    */
   maxAssignedStates: 100,
   /**
@@ -84,6 +101,19 @@ export const FIT_DEFAULTS = Object.freeze({
    * common practice (no source).
    */
   cbSideResonanceMarginFwhm: 2,
+  /**
+   * Whether the CB-side hypotheses hold the first hole's entry ({@link heldValenceLevels}: its
+   * step through the substrate junction at η·|V₁|/(1 − η), V₁ the first peak that may be a hole's
+   * entry, {@link heldHoleEntry}), at the energy its peak gives with the fitted Ec; the CB side
+   * then ends below the next entry's crossing ({@link cbSideEndV} with holdHole) instead of below
+   * the first, where that first end would leave out p (so that the groupings of p are compared
+   * where p is). The held level's degeneracy is the assignment's first VB level's, the same for
+   * every grouping. Measured on the low-η mix with the comparison: seeds 1–40, intermediate 28 →
+   * 27, shell filling 19 → 19 (one more fixed, one broke), tunnelling 34 → 34; seeds 1001–1040,
+   * intermediate 17 → 19, filling 17 → 17, tunnelling 34 → 34; the default and crossover mixes
+   * unchanged (no crossing on their curves' CB side).
+   */
+  cbSideHeldHole: true,
   /**
    * A compared grouping whose CB-side fit ends above this reduced χ² is tried again with every CB
    * level's start shifted by −Ec and by +Ec (a first charging peak missed, or one too many), the

@@ -7,6 +7,7 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { assignSpectrum } from "../../assign/assignSpectrum.ts";
 import { SCENARIO_DEFAULTS } from "../scenario.ts";
 import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
+import type { heldValenceLevels } from "./heldValenceLevels.ts";
 
 /** How a hypothesis reads its peaks. */
 export type HypothesisKind = "assigned" | "shell-filling" | "shell-tunneling" | "ladder-filling" | "ladder-empty";
@@ -35,6 +36,12 @@ export interface FitHypothesis {
   chargingEnergyStartEV: number | null;
   /** log₁₀ Γtip/Γsub of the first start, or null for the analysis' regime's default. */
   rateRatioStartLog10: number | null;
+  /**
+   * VB levels held in the model but not fitted (a CB-side hypothesis: the VB levels whose steps
+   * through the substrate junction fall on the CB side, {@link heldValenceLevels}), each at the
+   * energy its first peak gives with the current Ec. Default: none.
+   */
+  heldVb?: LevelSeed[];
 }
 
 /** Constants of {@link fitHypotheses} (locked by test/model/fit/fitHypotheses.test.ts). */

@@ -12,6 +12,8 @@ import { bayesianInformationCriterion } from "./informationCriterion.ts";
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
 import { cbSideEndV } from "./cbSideEnd.ts";
+import type { ladderSolveWork } from "./solveWork.ts";
+import { withHeldLevels, type heldValenceLevels } from "./heldValenceLevels.ts";
 
 /** Settings of {@link fitRunner} (fitCurve's, checked there). */
 export interface FitRunnerSettings {
@@ -23,6 +25,12 @@ export interface FitRunnerSettings {
   maxPoints: number;
   /** Most model evaluations of all runs together (the work budget). No default: fitCurve's. */
   maxEvaluations: number;
+  /**
+   * Most master-equation elimination steps of all runs together (the work budget's other part:
+   * the plateaus solved, each weighed by its ladder's {@link ladderSolveWork}). Default: no
+   * limit (fitCurve passes FIT_DEFAULTS.maxEliminationSteps).
+   */
+  maxEliminationSteps?: number;
   /** Wall-clock limit of all runs together, ms, counted from the call of fitRunner; null: none. No default: fitCurve's. */
   timeLimitMs: number | null;
   /** Iterations that count as the full budget (a run with as many is `finished`). No default. */
@@ -35,6 +43,12 @@ export interface FitRunnerSettings {
   convergenceTolerance: number;
   /** The CB side ends this many FWHM below the first VB level's substrate-junction crossing ({@link cbSideEndV}). No default: FIT_DEFAULTS.cbSideResonanceMarginFwhm. */
   cbSideMarginFwhm: number;
+  /**
+   * Whether the CB-side hypotheses hold the first hole's entry in their model
+   * ({@link heldValenceLevels}): the CB side then ends below the next entry's crossing
+   * ({@link cbSideEndV}'s holdHole). Default false (fitCurve passes FIT_DEFAULTS.cbSideHeldHole).
+   */
+  cbSideHeldHole?: boolean;
 }
 
 /** One start of one hypothesis: Levenberg–Marquardt from log₁₀ r = logRatio0 (or from `from`), on `set` (default the whole curve), the parameters at the indices `held` kept at their start. */
@@ -54,10 +68,15 @@ export interface FitRunner {
   projectorOf: (set: DataSet) => ReturnType<typeof linearProjector>;
   /** Band solutions shared by every run. */
   bandStore: BandStepsStore;
+  /** The model current of a hypothesis at unit rate scale (A), from its fitted parameters: its levels and any held VB levels ({@link withHeldLevels}), on the shared store. */
+  currentOf: (h: FitHypothesis) => (p: ArrayLike<number>, biasV: ArrayLike<number>) => Float64Array;
   /** Reduced χ² of a run, χ²/(n − k). */
   reduced: (t: FitTrial) => number;
-  /** Model evaluations of all runs so far, and what first cut a run short (null: nothing yet). */
-  work: () => { evaluations: number; stoppedBy: "budget" | "time" | null };
+  /**
+   * Model evaluations and master-equation elimination steps of all runs so far, what first cut a
+   * run short (null: nothing yet) and, when it was the budget, which part of it.
+   */
+  work: () => { evaluations: number; eliminationSteps: number; stoppedBy: "budget" | "time" | null; budgetPart: "evaluations" | "elimination-steps" | null };
 }
 
 /**
@@ -68,7 +87,7 @@ export interface FitRunner {
  * analysis : CurveAnalysis
  *     The peak-based analysis: its conductance record (bias in V, current in A, noise in A).
  * settings : FitRunnerSettings
- *     η, temperature (K), point limit, work budget (model evaluations), time limit (ms or null),
+ *     η, temperature (K), point limit, work budget (model evaluations and elimination steps), time limit (ms or null),
  *     iteration budget, Ec guess (eV), chunk size and convergence tolerance.
  *
  * Returns
@@ -89,10 +108,19 @@ export interface FitRunner {
  *    given) or from `from`; the parameters at `held` stay at their start: the Levenberg–Marquardt
  *    loop sees only the free ones, and k (for the BIC) counts only those and the four linear ones.
  * 3. The model is evaluated once per parameter vector (the loop asks for it point by point).
+ *    A hypothesis with held VB levels (`heldVb`) has them in its model at the energies their
+ *    first peaks give with the current Ec ({@link withHeldLevels}); they are not fitted and not
+ *    counted in k.
  * 4. The runs share one work budget: each run's loop may ask for the evaluations left of
  *    maxEvaluations, so the whole fit asks for at most maxEvaluations; once it is spent, later
  *    runs return their start (stoppedBy "budget"). The same on every machine, unlike the
  *    optional time limit.
+ * 5. The budget's other part counts what an evaluation costs: the master-equation elimination
+ *    steps of the shared band store ({@link bandStepsMemo}'s store.work, each plateau solved
+ *    weighed by {@link ladderSolveWork}); no evaluation is started once maxEliminationSteps are
+ *    spent (the one under way finishes). An evaluation whose plateaus are all stored costs
+ *    none; one of a wide low-η window with both bands' ladders costs thousands of times more
+ *    than one on the crossover's curves, so evaluations alone do not bound the time.
  *
  * Example
  * -------
@@ -113,14 +141,22 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     return { biasV, dataA, v3: biasV.map((v) => v * v * v), n: index.length, data: { x: index.map((_, i) => i), y: Array.from(dataA, (v) => v / noiseA) } };
   };
   const all = pointsOf(() => true);
-  const cbSideTopV = cbSideEndV(analysis.peaks, eta, settings.cbSideMarginFwhm);
+  const cbSideTopV = cbSideEndV(analysis.peaks, eta, settings.cbSideMarginFwhm, settings.cbSideHeldHole ?? false);
   const cbSide = pointsOf((v) => v > 0 && v < cbSideTopV);
   const started = Date.now();
   let evaluations = 0;
   let stoppedBy: "budget" | "time" | null = null;
+  let budgetPart: "evaluations" | "elimination-steps" | null = null;
   const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
   const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
   const bandStore = bandStepsStore();
+  const maxSteps = settings.maxEliminationSteps ?? Infinity;
+  const stepsSpent = () => bandStore.work.eliminationSteps >= maxSteps;
+  const currentOf = (h: FitHypothesis) => {
+    const memo = bandStepsMemo(h.heldVb?.length ? [...h.seeds, ...h.heldVb] : h.seeds, eta, temperatureK, bandStore);
+    const held = h.heldVb ?? [];
+    return held.length ? (p: ArrayLike<number>, biasV: ArrayLike<number>) => memo(withHeldLevels(p, h.seeds.length, held, eta), biasV) : memo;
+  };
   const run: FitRun = (h, logRatio0, iterations, from, set = all, held = []) => {
     const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
@@ -134,7 +170,7 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
       free.forEach((j, i) => (p[j] = q[i]));
       return p;
     };
-    const current = bandStepsMemo(h.seeds, eta, temperatureK, bandStore);
+    const current = currentOf(h);
     const project = projectorOf(set);
     let cacheQ: number[] | null = null;
     let cacheOut: Float64Array = new Float64Array(set.n);
@@ -155,13 +191,18 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
       gradientDifference: pick(start.gradientDifference),
       maxIterations: iterations,
       maxEvaluations: maxEvaluations - evaluations,
+      spent: stepsSpent,
       timeLimitMs: timeLimitMs === null ? null : Math.max(1, timeLimitMs - (Date.now() - started)),
       chunkIterations: settings.chunkIterations,
       convergenceTolerance: settings.convergenceTolerance,
     });
     evaluations += loop.evaluations;
     if (loop.stoppedBy === "budget" || loop.stoppedBy === "time") stoppedBy ??= loop.stoppedBy;
-    if (loop.stoppedBy === "budget") loop.message = `stopped at the fit's work budget of ${maxEvaluations} model evaluations (all runs together)`;
+    const part = evaluations >= maxEvaluations ? "evaluations" : "elimination-steps";
+    if (loop.stoppedBy === "budget") budgetPart ??= part;
+    if (loop.stoppedBy === "budget") {
+      loop.message = part === "evaluations" ? `stopped at the fit's work budget of ${maxEvaluations} model evaluations (all runs together)` : `stopped at the fit's work budget of ${maxSteps.toExponential(1)} master-equation elimination steps (all runs together)`;
+    }
     if (loop.stoppedBy === "time") loop.message = `stopped at the fit's time limit of ${timeLimitMs} ms (all runs together)`;
     const parameters = expand(loop.parameters);
     // k: the free nonlinear parameters and the four linear ones (scale, offset, b1, b3).
@@ -182,5 +223,5 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     };
   };
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  return { all, cbSide, noiseA, run, projectorOf, bandStore, reduced, work: () => ({ evaluations, stoppedBy }) };
+  return { all, cbSide, noiseA, run, projectorOf, bandStore, currentOf, reduced, work: () => ({ evaluations, eliminationSteps: bandStore.work.eliminationSteps, stoppedBy, budgetPart }) };
 }

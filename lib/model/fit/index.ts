@@ -2,7 +2,7 @@
  * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with
  * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
- * scale, offset and background, the Levenberg–Marquardt loop and the runs built on it, the comparison
+ * scale, offset and background, the cost of one master-equation solve (what the work budget counts), the Levenberg–Marquardt loop and the runs built on it, the first hole's entry held on the CB side at low η, the comparison
  * of the groupings, the refinement starts about the best grouping (and at the p sub-level spacings
  * the peaks show), the further readings of the VB peaks, the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
@@ -21,7 +21,9 @@ export { unitCurrent } from "./unitCurrent.ts";
 export { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS, type BandStepsStore } from "./bandStepsMemo.ts";
 export { linearProjector, projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
-export { cbSideEndV, type CbSideEndPeak } from "./cbSideEnd.ts";
+export { cbSideEndV, heldHoleEntry, type CbSideEndPeak } from "./cbSideEnd.ts";
+export { heldValenceLevels, withHeldLevels } from "./heldValenceLevels.ts";
+export { ladderSolveWork } from "./solveWork.ts";
 export { fitRunner, type FitRun, type FitRunner, type FitRunnerSettings } from "./fitRunner.ts";
 export { refinementStarts, refinementStart, REFINEMENT_DEFAULTS, type RefinementStart, type StartLevel } from "./refinementStarts.ts";
 export { splitGridStarts, SPLIT_GRID_DEFAULTS, type GridPeak } from "./splitGridStarts.ts";

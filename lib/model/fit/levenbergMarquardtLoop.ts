@@ -24,6 +24,12 @@ export interface LoopSettings {
    * loop's own χ² checks are not counted): the deterministic work budget. Default: no limit.
    */
   maxEvaluations?: number;
+  /**
+   * A further part of the work budget, asked before every evaluation: when it returns true the
+   * evaluation is refused as at maxEvaluations (the loop stops with `stoppedBy` "budget"). For a
+   * budget of work the caller counts itself (fitRunner: the master-equation work). Default: none.
+   */
+  spent?: () => boolean;
   /** Wall-clock limit, ms (machine-dependent: opt-in). Default: none (undefined or null). */
   timeLimitMs?: number | null;
   /** Iterations per chunk between convergence checks. */
@@ -72,7 +78,7 @@ function chiSquare(f: (x: number) => number, y: number[]): number {
  *     The model at parameters p, as a function of the point index, in the units of data.y.
  * settings : LoopSettings
  *     Start, bounds and difference steps; maxIterations; maxEvaluations (default no limit);
- *     timeLimitMs (ms, default none); chunkIterations; convergenceTolerance (relative).
+ *     spent (the caller's further budget, default none); timeLimitMs (ms, default none); chunkIterations; convergenceTolerance (relative).
  *
  * Returns
  * -------
@@ -90,7 +96,8 @@ function chiSquare(f: (x: number) => number, y: number[]): number {
  *    with the time left as its timeout when a time limit is given). Every model evaluation the
  *    iterations ask for is counted; the one that would exceed maxEvaluations is refused, which
  *    ends the chunk: its parameters are dropped and the loop stops with exactly maxEvaluations
- *    evaluations, on every machine the same.
+ *    evaluations, on every machine the same. So is one asked for once `spent()` says the
+ *    caller's own budget is used up.
  * 2. Keep the new parameters only if χ² did not grow.
  * 3. Converged when χ² improved by less than convergenceTolerance (relative) over the chunk;
  *    stop after maxIterations, at the budget or at the time limit otherwise (converged false,
@@ -119,13 +126,14 @@ export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model
   const { maxIterations } = settings;
   const maxEvaluations = settings.maxEvaluations ?? Infinity;
   const timeLimitMs = settings.timeLimitMs ?? null;
+  const spent = settings.spent ?? (() => false);
   const started = Date.now();
   let params = settings.initialValues;
   let chi2 = chiSquare(model(params), data.y);
   let iterations = 0;
   let evaluations = 0;
   const counted = (p: number[]) => {
-    if (evaluations >= maxEvaluations) throw BUDGET_SPENT;
+    if (evaluations >= maxEvaluations || spent()) throw BUDGET_SPENT;
     evaluations++;
     return model(p);
   };
@@ -133,7 +141,7 @@ export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model
   let message = "";
   const timeUp = () => timeLimitMs !== null && Date.now() - started > timeLimitMs;
   while (iterations < maxIterations) {
-    if (evaluations >= maxEvaluations) {
+    if (evaluations >= maxEvaluations || spent()) {
       stoppedBy = "budget";
       break;
     }
@@ -171,7 +179,7 @@ export function levenbergMarquardtLoop(data: { x: number[]; y: number[] }, model
       break;
     }
   }
-  if (stoppedBy === "budget") message = `stopped at the work budget of ${maxEvaluations} model evaluations`;
+  if (stoppedBy === "budget") message = evaluations >= maxEvaluations ? `stopped at the work budget of ${maxEvaluations} model evaluations` : "stopped at the caller's work budget";
   if (stoppedBy === "time") message = `stopped at the time limit of ${timeLimitMs} ms`;
   if (!message) message = `stopped after ${iterations} iterations without converging`;
   return { parameters: params, chiSquare: chi2, iterations, converged: stoppedBy === "converged", evaluations, stoppedBy, message };

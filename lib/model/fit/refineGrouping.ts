@@ -87,7 +87,7 @@ export function refineGrouping(top: FitTrial, context: RefineContext): FitTrial 
     const name = `${topFull.name.replace(/,.*$/, "")}, refined to ${r.layout} (${r.change})`;
     const vb = topFull.seeds.filter((x) => x.band === "VB");
     const full: FitHypothesis = { ...topFull, name, label: `${topFull.label}, ${r.change}`, seeds: [...r.seeds, ...vb], cbDegeneracies: r.seeds.map((x) => x.degeneracy), ...moved };
-    const hc: FitHypothesis = { ...full, seeds: r.seeds, vbReadings: [[]] };
+    const hc: FitHypothesis = { ...full, seeds: r.seeds, vbReadings: [[]], heldVb: top.hypothesis.heldVb };
     cbOnly.set(full, hc);
     const run = context.run(hc, context.exploreIterations, r.parameters);
     trials.push(run);

@@ -52,7 +52,7 @@ export function shiftGrouping(t: FitTrial, context: RefineContext): FitTrial | n
     const shift = (x: LevelSeed): LevelSeed => (x.band === "CB" ? { ...x, firstPeakV: x.firstPeakV + sign * ecV } : x);
     const moved = { chargingEnergyStartEV: t.loop.parameters[at.chargingEnergy], rateRatioStartLog10: t.loop.parameters[at.logRateRatio] };
     const full: FitHypothesis = { ...original, name: `${original.name} ${sign < 0 ? "−" : "+"}Ec`, label: `${original.label}, every level one Ec ${sign < 0 ? "lower" : "higher"}`, seeds: original.seeds.map(shift), ...moved };
-    const hc: FitHypothesis = { ...full, seeds: t.hypothesis.seeds.map(shift), vbReadings: [[]] };
+    const hc: FitHypothesis = { ...full, seeds: t.hypothesis.seeds.map(shift), vbReadings: [[]], heldVb: t.hypothesis.heldVb };
     if (hc.seeds.some((x) => x.firstPeakV <= 0)) continue;
     cbOnly.set(full, hc);
     const explored = context.run(hc, context.exploreIterations);

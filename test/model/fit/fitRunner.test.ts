@@ -1,7 +1,8 @@
 // fitRunner: the run of one hypothesis on a curve simulated by the fast model (the truth is the
 // simulation's own parameters: ε_s = 0.6, ε_p = 0.9, ε_v = −1.2 eV, Ec = 0.1 eV, Γtip/Γsub = 10,
 // η = 0.85); BIC = χ² + k·ln n (closed form, G. Schwarz, Ann. Stat. 6, 461 (1978)); a held
-// parameter stays at its start exactly (exact).
+// parameter stays at its start exactly (exact); the elimination-step budget stops a run before
+// any evaluation once the store's work reaches it, with the start returned unchanged (exact).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
 import { fitRunner } from "../../../lib/model/fit/fitRunner.ts";
@@ -41,4 +42,23 @@ describe("fitRunner(analysis, settings)", () => {
     expect(free.k).toBe(free.loop.parameters.length + 4);
     expectClose(free.loop.parameters[at.chargingEnergy], 0.1, { rtol: 0.03, what: "Ec, eV (simulated)" });
   }, 60_000);
+
+  it("stops every run at maxEliminationSteps (the master-equation part of the budget) and says which part (exact)", () => {
+    const tight = fitRunner(analysis, { ...settings, maxEliminationSteps: 1 });
+    // The run's first χ² (uncounted) solves the plateaus; then no evaluation is started.
+    const t = tight.run(h, null, 60);
+    expect(t.loop.evaluations).toBe(0);
+    expect(t.loop.stoppedBy).toBe("budget");
+    expect(t.loop.parameters).toEqual(t.start.initialValues);
+    expect(t.loop.message).toMatch(/work budget of 1\.0e\+0 master-equation elimination steps/);
+    const work = tight.work();
+    expect(work.stoppedBy).toBe("budget");
+    expect(work.budgetPart).toBe("elimination-steps");
+    expect(work.eliminationSteps).toBe(tight.bandStore.work.eliminationSteps);
+    expect(work.eliminationSteps).toBeGreaterThan(0);
+    // Without the limit the same run goes on, and only the evaluation part could stop it.
+    const free = fitRunner(analysis, settings).run(h, null, 60);
+    expect(free.loop.evaluations).toBeGreaterThan(0);
+    expect(free.loop.stoppedBy).not.toBe("budget");
+  });
 });

@@ -68,4 +68,20 @@ describe("levenbergMarquardtLoop(data, model, settings)", () => {
     expect(bounded).toEqual(free);
     expect(free.stoppedBy).toBe("converged");
   });
+
+  it("stops where the caller's own budget (spent) says so, as at maxEvaluations (exact)", () => {
+    // Spent from the start: no evaluation, the start returned untouched.
+    expect(levenbergMarquardtLoop(data, model, { ...settings, spent: () => true })).toMatchObject({ parameters: settings.initialValues, iterations: 0, evaluations: 0, stoppedBy: "budget", message: "stopped at the caller's work budget" });
+    // Spent after the n-th model call (the loop's own χ² checks included): fewer evaluations than
+    // the free run, the same parameters as a run of its whole chunks.
+    const free = levenbergMarquardtLoop(data, model, settings);
+    let calls = 0;
+    const r = levenbergMarquardtLoop(data, (p) => (calls++, model(p)), { ...settings, spent: () => calls >= free.evaluations / 2 });
+    expect(r.stoppedBy).toBe("budget");
+    expect(r.evaluations).toBeLessThan(free.evaluations);
+    const whole = levenbergMarquardtLoop(data, model, { ...settings, maxIterations: r.iterations });
+    expect(r.parameters).toEqual(whole.parameters);
+    // Never spent: nothing changes.
+    expect(levenbergMarquardtLoop(data, model, { ...settings, spent: () => false })).toEqual(free);
+  });
 });
