@@ -35,6 +35,10 @@ export interface LocalStepFit {
  * s = 2·halfWidth·h/2.3548. Neighbouring steps are fitted, not mistaken for background. With
  * `withShift`, the φ column linearises a shift of x₀: Φ((x − x₀ − δ)/s) ≈ Φ − (δ/s)·φ, so
  * δ = −d·s/c (one Gauss–Newton step).
+ *
+ * Without `withShift` (the step test), an edge of the window is moved out of a neighbour's step
+ * ({@link stepTestWindow}), unless a neighbour lies within one FWHM of x₀: that neighbour's step
+ * is not fitted (the same feature), and a longer window would credit more of it to x₀.
  */
 export function localStepFit(
   x: Float64Array,
@@ -47,9 +51,16 @@ export function localStepFit(
   work: FitWorkspace,
 ): LocalStepFit | null {
   const n = x.length;
-  const lo = Math.max(0, p - 6 * halfWidth), hi = Math.min(n - 1, p + 6 * halfWidth);
-  if (hi - lo < 5) return null;
   const h = (x[n - 1] - x[0]) / (n - 1);
+  let lo = Math.max(0, p - 6 * halfWidth), hi = Math.min(n - 1, p + 6 * halfWidth);
+  // A candidate with a neighbour inside one FWHM shares that neighbour's (unfitted) step: a longer
+  // window would credit more of it to the candidate, so its window stays plain.
+  if (!withShift && !neighboursV.some((v) => Math.abs(v - x0) < 2 * halfWidth * h)) {
+    const [leftV, rightV] = stepTestWindow(x0, neighboursV, 2 * halfWidth * h);
+    lo = Math.max(0, Math.min(lo, Math.round((leftV - x[0]) / h)));
+    hi = Math.min(n - 1, Math.max(hi, Math.round((rightV - x[0]) / h)));
+  }
+  if (hi - lo < 5) return null;
   const s = (2 * halfWidth * h) / GAUSSIAN_FWHM_PER_SIGMA;
   // Neighbours closer than one FWHM are the same feature (noise on its flank), not another step.
   const reach = 2 * halfWidth * h;
@@ -122,6 +133,76 @@ export function localStepFit(
     shiftVar = gC * gC * inv(self, self) + 2 * gC * gD * inv(self, self + 1) + gD * gD * inv(self + 1, self + 1);
   }
   return { step, stepVar: inv(self, self), shift, shiftVar, rms };
+}
+
+/** Limits of {@link stepTestWindow}, in FWHM (derived in its notes). */
+export const STEP_TEST_WINDOW = Object.freeze({
+  /** The window's half-width before any edge moves. */
+  halfWidthFwhm: 3,
+  /** A neighbour within this distance of an edge straddles it: its step rises from 0.9 % to 99.1 % over ±1 FWHM (Φ(∓2.355)). */
+  straddleFwhm: 1,
+  /** The edge moves this far beyond such a neighbour: its rise (1 FWHM) and as long a plateau after it. */
+  beyondFwhm: 2,
+  /** The edge never moves further than this from the tested peak (twice the plain window). */
+  maxHalfWidthFwhm: 6,
+});
+
+/**
+ * The window of the step test around a candidate at x0, V: ±3 FWHM, with each edge moved out of
+ * any neighbour's step that it cuts.
+ *
+ * Parameters
+ * ----------
+ * x0V : number
+ *     The candidate's position, V.
+ * neighboursV : readonly number[]
+ *     The other candidates' positions, V (any order).
+ * fwhmV : number
+ *     The expected FWHM of a step, V (> 0).
+ *
+ * Returns
+ * -------
+ * [number, number]
+ *     The left and right edges, V.
+ *
+ * Notes
+ * -----
+ * 1. The local fit (line + Gaussian-broadened steps) tells a step from the line only through the
+ *    plateaus on both sides of it. A neighbour whose step straddles an edge of the window
+ *    (within 1 FWHM of it: its step is between 0.9 % and 99.1 % complete there, Φ(∓2.355) for a
+ *    Gaussian broadening) has no plateau beyond it inside the window, so its column is nearly
+ *    collinear with the line and the constant, and its uncertainty spreads to the tested step
+ *    (the standard error of c grows, the test loses power, most in a charging ladder whose
+ *    steps are 1–2 FWHM apart).
+ * 2. So each edge, walking outward from x0 ± 3 FWHM through the neighbours in order, moves to
+ *    2 FWHM beyond any neighbour that straddles it (the neighbour's rise, 1 FWHM, and as long a
+ *    plateau after it); the moved edge may in turn be straddled by the next neighbour.
+ * 3. No edge moves further than 6 FWHM from x0. The window only grows: a neighbour beyond the
+ *    plain window that is not fitted gains no column.
+ *
+ * Example
+ * -------
+ * ```ts
+ * stepTestWindow(0, [0.1, 0.28], 0.1); // => [-0.3, 0.48] (the neighbour at 2.8 FWHM cuts the right edge)
+ * ```
+ */
+export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhmV: number): [number, number] {
+  const W = STEP_TEST_WINDOW;
+  const sorted = [...neighboursV].sort((a, b) => a - b);
+  let right = x0V + W.halfWidthFwhm * fwhmV;
+  for (const v of sorted) {
+    if (v <= x0V) continue;
+    if (v > right + W.straddleFwhm * fwhmV) break;
+    if (v >= right - W.straddleFwhm * fwhmV) right = Math.min(x0V + W.maxHalfWidthFwhm * fwhmV, Math.max(right, v + W.beyondFwhm * fwhmV));
+  }
+  let left = x0V - W.halfWidthFwhm * fwhmV;
+  for (let j = sorted.length - 1; j >= 0; j--) {
+    const v = sorted[j];
+    if (v >= x0V) continue;
+    if (v < left - W.straddleFwhm * fwhmV) break;
+    if (v <= left + W.straddleFwhm * fwhmV) left = Math.max(x0V - W.maxHalfWidthFwhm * fwhmV, Math.min(left, v - W.beyondFwhm * fwhmV));
+  }
+  return [left, right];
 }
 
 /** t-statistic of the step at candidate index p (neighbours at the other candidates). */
