@@ -297,7 +297,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
         belowStepSignificance++;
         return;
       }
-      c.significance = stepSignificance(biasV, current.currentA, indices, k, halfWidths[k], current.noiseA, work);
+      c.significance = stepSignificance(biasV, current.currentA, indices, k, halfWidths[k], current.noiseA, minStepSigma!, FIND_PEAKS_DEFAULTS.preScreenSigma, work);
       if (!(c.significance >= minStepSigma!)) {
         belowStepSignificance++;
         return;

@@ -36,9 +36,7 @@ export interface LocalStepFit {
  * `withShift`, the φ column linearises a shift of x₀: Φ((x − x₀ − δ)/s) ≈ Φ − (δ/s)·φ, so
  * δ = −d·s/c (one Gauss–Newton step).
  *
- * Without `withShift` (the step test), an edge of the window is moved out of a neighbour's step
- * ({@link stepTestWindow}), unless a neighbour lies within one FWHM of x₀: that neighbour's step
- * is not fitted (the same feature), and a longer window would credit more of it to x₀.
+ * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}).
  */
 export function localStepFit(
   x: Float64Array,
@@ -49,16 +47,14 @@ export function localStepFit(
   halfWidth: number,
   withShift: boolean,
   work: FitWorkspace,
+  windowV?: readonly [number, number],
 ): LocalStepFit | null {
   const n = x.length;
   const h = (x[n - 1] - x[0]) / (n - 1);
   let lo = Math.max(0, p - 6 * halfWidth), hi = Math.min(n - 1, p + 6 * halfWidth);
-  // A candidate with a neighbour inside one FWHM shares that neighbour's (unfitted) step: a longer
-  // window would credit more of it to the candidate, so its window stays plain.
-  if (!withShift && !neighboursV.some((v) => Math.abs(v - x0) < 2 * halfWidth * h)) {
-    const [leftV, rightV] = stepTestWindow(x0, neighboursV, 2 * halfWidth * h);
-    lo = Math.max(0, Math.min(lo, Math.round((leftV - x[0]) / h)));
-    hi = Math.min(n - 1, Math.max(hi, Math.round((rightV - x[0]) / h)));
+  if (windowV) {
+    lo = Math.max(0, Math.min(lo, Math.round((windowV[0] - x[0]) / h)));
+    hi = Math.min(n - 1, Math.max(hi, Math.round((windowV[1] - x[0]) / h)));
   }
   if (hi - lo < 5) return null;
   const s = (2 * halfWidth * h) / GAUSSIAN_FWHM_PER_SIGMA;
@@ -156,7 +152,7 @@ export const STEP_TEST_WINDOW = Object.freeze({
  * x0V : number
  *     The candidate's position, V.
  * neighboursV : readonly number[]
- *     The other candidates' positions, V (any order).
+ *     The other candidates' positions, V, ascending.
  * fwhmV : number
  *     The expected FWHM of a step, V (> 0).
  *
@@ -188,7 +184,7 @@ export const STEP_TEST_WINDOW = Object.freeze({
  */
 export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhmV: number): [number, number] {
   const W = STEP_TEST_WINDOW;
-  const sorted = [...neighboursV].sort((a, b) => a - b);
+  const sorted = neighboursV;
   let right = x0V + W.halfWidthFwhm * fwhmV;
   for (const v of sorted) {
     if (v <= x0V) continue;
@@ -205,9 +201,39 @@ export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhm
   return [left, right];
 }
 
-/** t-statistic of the step at candidate index p (neighbours at the other candidates). */
-export function stepSignificance(x: Float64Array, current: Float64Array, indices: number[], k: number, halfWidth: number, noiseA: number, work: FitWorkspace): number {
-  const fit = localStepFit(x, current, indices[k], x[indices[k]], indices.filter((_, j) => j !== k).map((j) => x[j]), halfWidth, false, work);
-  if (!fit || !(fit.stepVar > 0)) return 0;
-  return fit.step / (noiseA * Math.sqrt(fit.stepVar));
+/**
+ * t-statistic of the step at candidate k (neighbours at the other candidates, positions
+ * ascending): over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma,
+ * over the window of {@link stepTestWindow}.
+ */
+export function stepSignificance(
+  x: Float64Array,
+  current: Float64Array,
+  indices: number[],
+  k: number,
+  halfWidth: number,
+  noiseA: number,
+  minStepSigma: number,
+  minPlainSigma: number,
+  work: FitWorkspace,
+): number {
+  const x0 = x[indices[k]];
+  const neighbours = indices.filter((_, j) => j !== k).map((j) => x[j]);
+  const z = (windowV?: readonly [number, number]) => {
+    const fit = localStepFit(x, current, indices[k], x0, neighbours, halfWidth, false, work, windowV);
+    return fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0;
+  };
+  const plain = z();
+  // A step significant over ±3 FWHM needs no longer window; one that does not stand at
+  // minPlainSigma there (the pre-screen's level) is not tried again. A candidate with a neighbour
+  // inside one FWHM shares that neighbour's (unfitted) step: a longer window would credit more of
+  // it to the candidate, so its test stays plain.
+  const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
+  if (plain >= minStepSigma || !(plain >= minPlainSigma) || neighbours.some((v) => Math.abs(v - x0) < fwhmV)) return plain;
+  const windowV = stepTestWindow(x0, neighbours, fwhmV);
+  const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
+  // Only where an edge moved (by more than a sample) is there a second fit.
+  const sample = fwhmV / (2 * halfWidth);
+  if (windowV[0] > x0 - W - sample && windowV[1] < x0 + W + sample) return plain;
+  return z(windowV);
 }

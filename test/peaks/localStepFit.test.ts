@@ -36,7 +36,7 @@ describe("stepTestWindow(x0V, neighboursV, fwhmV)", () => {
   });
 });
 
-describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, work)", () => {
+describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, work, windowV)", () => {
   // A ladder of Gaussian-broadened steps 1.4 FWHM apart (a charging multiplet), FWHM 50 mV on 1 mV steps.
   const h = 0.001;
   const x = Float64Array.from({ length: 2001 }, (_, i) => -1 + i * h);
@@ -61,8 +61,10 @@ describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, wor
   }
 
   it("gives back the step of noiseless data drawn from its own model (closed form)", () => {
+    // Over the window of stepTestWindow every step of the ladder is fitted (the plain ±3 FWHM
+    // window leaves out those at ±4.2 and ±5.6 FWHM, whose tails then bias it).
     const work: FitWorkspace = { cols: new Float64Array(0) };
-    const fit = localStepFit(x, current, p, 0, neighbours, halfWidth, false, work)!;
+    const fit = localStepFit(x, current, p, 0, neighbours, halfWidth, false, work, stepTestWindow(0, neighbours, fw))!;
     expectClose(fit.step, heights[4], { rtol: 1e-4, what: "middle step" });
     const shifted = localStepFit(x, current, p, 0, neighbours, halfWidth, true, work)!;
     // Within 1e-5 V (0.02 % of the FWHM): the fit's Φ is a fast approximation of mathjs' erf-based one.
@@ -71,8 +73,8 @@ describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, wor
 
   it("the step test's variance is that of the moved window (mathjs inv(AᵀA)), smaller than over ±3 FWHM", () => {
     const work: FitWorkspace = { cols: new Float64Array(0) };
-    const fit = localStepFit(x, current, p, 0, neighbours, halfWidth, false, work)!;
     const [leftV, rightV] = stepTestWindow(0, neighbours, fw);
+    const fit = localStepFit(x, current, p, 0, neighbours, halfWidth, false, work, [leftV, rightV])!;
     const lo = Math.round((leftV - x[0]) / h), hi = Math.round((rightV - x[0]) / h);
     const fittedMoved = neighbours.filter((v) => Math.abs(v) >= fw && v >= x[lo] - fw && v <= x[hi] + fw);
     expect(fittedMoved.length).toBe(8);
@@ -83,5 +85,7 @@ describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, wor
     const fittedPlain = neighbours.filter((v) => Math.abs(v) >= fw && v >= x[plainLo] - fw && v <= x[plainHi] + fw);
     const plain = referenceStepVar(plainLo, plainHi, fittedPlain);
     expect(moved).toBeLessThan(plain);
+    // Without windowV the fit is the plain one.
+    expectClose(localStepFit(x, current, p, 0, neighbours, halfWidth, false, work)!.stepVar, plain, { rtol: 1e-4, what: "Var(step)/σ², plain window" });
   });
 });
