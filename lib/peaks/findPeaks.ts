@@ -112,7 +112,11 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
   minStepSigma: 5,
   /** Refine positions on the current when it is given. */
   refineOnCurrent: true,
-  /** Pre-screen of the step test: the mean current over one half-width beyond ±1.5 FWHM must rise by this many σ. */
+  /**
+   * Pre-screen of the step test: the mean current over one half-width beyond ±1.5 FWHM must rise by
+   * this many σ; also the t a step must reach over ±3 FWHM to be tested again over the moved window
+   * (note 3).
+   */
   preScreenSigma: 2,
   /** Gauss–Newton iterations of the position refinement on the current. */
   refineIterations: 1,
@@ -176,7 +180,12 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    minStepSigma, SE from the current's white noise (after a cheap pre-screen: the mean current
  *    over one half-width at the far ends of ±3 half-widths must rise by
  *    FIND_PEAKS_DEFAULTS.preScreenSigma (2) σ). The line absorbs a smooth background
- *    conductance; the neighbours' steps are fitted rather than mistaken for background.
+ *    conductance; the neighbours' steps are fitted rather than mistaken for background. Where
+ *    c/SE(c) falls short of minStepSigma but reaches preScreenSigma, the fit is repeated with each
+ *    edge of the window moved to 2 FWHM beyond any neighbour whose step it cuts (at most 6 FWHM
+ *    out; `stepTestWindow` in lib/peaks/localStepFit.ts): a step cut by the edge has no plateau
+ *    beyond it and is nearly collinear with the line, which in a charging ladder (steps 1–2 FWHM
+ *    apart) inflates SE(c).
  *    Prominence of the derivative alone is a poor test: peak-to-valley swings of smoothed white
  *    noise exceed 5σ about 7 times per 2,000 samples. Then, strongest first, drop any peak
  *    within minSeparationMV of one already kept.
