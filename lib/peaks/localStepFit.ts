@@ -36,7 +36,8 @@ export interface LocalStepFit {
  * `withShift`, the φ column linearises a shift of x₀: Φ((x − x₀ − δ)/s) ≈ Φ − (δ/s)·φ, so
  * δ = −d·s/c (one Gauss–Newton step).
  *
- * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}).
+ * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}) and adds a
+ * quadratic term c₂·u² to the background.
  */
 export function localStepFit(
   x: Float64Array,
@@ -61,7 +62,10 @@ export function localStepFit(
   // Neighbours closer than one FWHM are the same feature (noise on its flank), not another step.
   const reach = 2 * halfWidth * h;
   const steps = neighboursV.filter((v) => Math.abs(v - x0) >= reach && v >= x[lo] - reach && v <= x[hi] + reach);
-  const self = 2 + steps.length;
+  // Over a moved (longer) window the background gets its next Taylor term, u²: a curved background
+  // (an exponential rise) that a line follows over ±3 FWHM does not stay straight over ±6.
+  const bg = windowV ? 3 : 2;
+  const self = bg + steps.length;
   const m = self + 1 + (withShift ? 1 : 0);
   // Design matrix, column by column (each Φ evaluated once).
   const rows = hi - lo + 1;
@@ -71,7 +75,8 @@ export function localStepFit(
     const u = x[lo + i] - x0;
     cols[i] = 1;
     cols[rows + i] = u;
-    for (let j = 0; j < steps.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
+    if (bg === 3) cols[2 * rows + i] = u * u;
+    for (let j = 0; j < steps.length; j++) cols[(bg + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
     cols[self * rows + i] = normalCdfFast(u / s);
     if (withShift) cols[(self + 1) * rows + i] = Math.exp((-0.5 * u * u) / (s * s)) * INV_SQRT_2PI;
   }
@@ -219,11 +224,9 @@ export function stepSignificance(
 ): number {
   const x0 = x[indices[k]];
   const neighbours = indices.filter((_, j) => j !== k).map((j) => x[j]);
-  const z = (windowV?: readonly [number, number]) => {
-    const fit = localStepFit(x, current, indices[k], x0, neighbours, halfWidth, false, work, windowV);
-    return fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0;
-  };
-  const plain = z();
+  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, indices[k], x0, neighbours, halfWidth, false, work, windowV);
+  const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0);
+  const plain = z(fitOver());
   // A step significant over ±3 FWHM needs no longer window; one that does not stand at
   // minPlainSigma there (the pre-screen's level) is not tried again. A candidate with a neighbour
   // inside one FWHM shares that neighbour's (unfitted) step: a longer window would credit more of
@@ -235,5 +238,5 @@ export function stepSignificance(
   // Only where an edge moved (by more than a sample) is there a second fit.
   const sample = fwhmV / (2 * halfWidth);
   if (windowV[0] > x0 - W - sample && windowV[1] < x0 + W + sample) return plain;
-  return z(windowV);
+  return z(fitOver(windowV));
 }

@@ -2,7 +2,8 @@
 // (a Gaussian-broadened step Φ((x − x_j)/s) rises from Φ(−2.355) = 0.9 % to Φ(2.355) = 99.1 % over
 // ±1 FWHM, FWHM = 2√(2 ln 2)·s; noiseless data drawn from the fitted model give back its
 // coefficients exactly), the rule of stepTestWindow's notes (derived there), and an independent
-// least-squares computation with mathjs (inv(AᵀA) of the same design matrix; Φ from mathjs.erf).
+// least-squares computation with mathjs (inv(AᵀA) of the same design matrix: 1, u, u² over the
+// moved window, the steps; Φ from mathjs.erf).
 import { describe, it, expect } from "vitest";
 import { erf, inv, multiply, transpose } from "mathjs";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -45,45 +46,48 @@ describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, wor
   const s = fw / GAUSSIAN_FWHM_PER_SIGMA;
   const positions = [-4, -3, -2, -1, 0, 1, 2, 3, 4].map((k) => 1.4 * fw * k);
   const heights = [3, 2, 4, 3, 2.5, 3.5, 2, 3, 4].map((c) => c * 1e-12);
-  const line = (v: number) => 5e-12 + 2e-12 * v;
+  // The background bends (a u² term): the moved window fits it, the plain window's line need not.
+  const line = (v: number) => 5e-12 + 2e-12 * v + 3e-12 * v * v;
   const current = x.map((v) => line(v) + positions.reduce((sum, xj, j) => sum + heights[j] * phi((v - xj) / s), 0));
   const p = 1000; // x = 0, the middle step
   const neighbours = positions.filter((v) => v !== 0);
 
-  /** Var(step)/σ² of the last column by mathjs over [lo, hi] with the given neighbours' steps. */
-  function referenceStepVar(lo: number, hi: number, fitted: number[]): number {
+  /** Var(step)/σ² of the last column by mathjs over [lo, hi] with the given neighbours' steps (and u², for the moved window). */
+  function referenceStepVar(lo: number, hi: number, fitted: number[], quadratic: boolean): number {
     const rows: number[][] = [];
-    for (let i = lo; i <= hi; i++) rows.push([1, x[i], ...fitted.map((v) => phi((x[i] - v) / s)), phi(x[i] / s)]);
+    for (let i = lo; i <= hi; i++) rows.push([1, x[i], ...(quadratic ? [x[i] * x[i]] : []), ...fitted.map((v) => phi((x[i] - v) / s)), phi(x[i] / s)]);
     const ata = multiply(transpose(rows), rows) as number[][];
     const invAta = inv(ata) as number[][];
     const m = rows[0].length;
     return invAta[m - 1][m - 1];
   }
 
-  it("gives back the step of noiseless data drawn from its own model (closed form)", () => {
+  it("gives back the step of noiseless data drawn from its own model, quadratic background included (closed form)", () => {
     // Over the window of stepTestWindow every step of the ladder is fitted (the plain ±3 FWHM
     // window leaves out those at ±4.2 and ±5.6 FWHM, whose tails then bias it).
     const work: FitWorkspace = { cols: new Float64Array(0) };
     const fit = localStepFit(x, current, p, 0, neighbours, halfWidth, false, work, stepTestWindow(0, neighbours, fw))!;
     expectClose(fit.step, heights[4], { rtol: 1e-4, what: "middle step" });
-    const shifted = localStepFit(x, current, p, 0, neighbours, halfWidth, true, work)!;
+    // The refinement (withShift) fits a line over ±3 FWHM: on a straight background its shift is 0.
+    const straight = x.map((v, i) => current[i] - 3e-12 * v * v);
+    const shifted = localStepFit(x, straight, p, 0, neighbours, halfWidth, true, work)!;
     // Within 1e-5 V (0.02 % of the FWHM): the fit's Φ is a fast approximation of mathjs' erf-based one.
     expectClose(shifted.shift, 0, { atol: 1e-5, what: "shift at the true position" });
   });
 
-  it("the step test's variance is that of the moved window (mathjs inv(AᵀA)), smaller than over ±3 FWHM", () => {
+  it("the step test's variance is that of the moved window with a quadratic background (mathjs inv(AᵀA)), smaller than over ±3 FWHM", () => {
     const work: FitWorkspace = { cols: new Float64Array(0) };
     const [leftV, rightV] = stepTestWindow(0, neighbours, fw);
     const fit = localStepFit(x, current, p, 0, neighbours, halfWidth, false, work, [leftV, rightV])!;
     const lo = Math.round((leftV - x[0]) / h), hi = Math.round((rightV - x[0]) / h);
     const fittedMoved = neighbours.filter((v) => Math.abs(v) >= fw && v >= x[lo] - fw && v <= x[hi] + fw);
     expect(fittedMoved.length).toBe(8);
-    const moved = referenceStepVar(lo, hi, fittedMoved);
+    const moved = referenceStepVar(lo, hi, fittedMoved, true);
     expectClose(fit.stepVar, moved, { rtol: 1e-4, what: "Var(step)/σ², moved window" });
     // The plain ±3 FWHM window cuts the steps at ±2.8 FWHM: its variance is larger.
     const plainLo = p - 6 * halfWidth, plainHi = p + 6 * halfWidth;
     const fittedPlain = neighbours.filter((v) => Math.abs(v) >= fw && v >= x[plainLo] - fw && v <= x[plainHi] + fw);
-    const plain = referenceStepVar(plainLo, plainHi, fittedPlain);
+    const plain = referenceStepVar(plainLo, plainHi, fittedPlain, false);
     expect(moved).toBeLessThan(plain);
     // Without windowV the fit is the plain one.
     expectClose(localStepFit(x, current, p, 0, neighbours, halfWidth, false, work)!.stepVar, plain, { rtol: 1e-4, what: "Var(step)/σ², plain window" });
