@@ -183,9 +183,10 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    conductance; the neighbours' steps are fitted rather than mistaken for background. Where
  *    c/SE(c) falls short of minStepSigma but reaches preScreenSigma, the fit is repeated with each
  *    edge of the window moved to 2 FWHM beyond any neighbour whose step it cuts (at most 6 FWHM
- *    out; `stepTestWindow` in lib/peaks/localStepFit.ts): a step cut by the edge has no plateau
- *    beyond it and is nearly collinear with the line, which in a charging ladder (steps 1–2 FWHM
- *    apart) inflates SE(c).
+ *    out; `stepTestWindow` in lib/peaks/localStepFit.ts) and a u² term added to the background:
+ *    a step cut by the edge has no plateau beyond it and is nearly collinear with the line, which
+ *    in a charging ladder (steps 1–2 FWHM apart) inflates SE(c). A candidate with another within
+ *    one FWHM keeps the plain window.
  *    Prominence of the derivative alone is a poor test: peak-to-valley swings of smoothed white
  *    noise exceed 5σ about 7 times per 2,000 samples. Then, strongest first, drop any peak
  *    within minSeparationMV of one already kept.
