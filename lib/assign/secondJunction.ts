@@ -69,6 +69,10 @@ export interface SecondJunctionResonance {
  *    compared with the resonances predicted by the tip-junction peaks already accepted on the
  *    other side; within max(3·σ, FWHM/2) of one (σ the combined uncertainty, the source's scaled
  *    by η/(1 − η)) it is that resonance, otherwise it is a tip-junction peak and predicts its own.
+ *    Each position's σ is at most half its FWHM: a maximum of the conductance lies within half a
+ *    width of the component that makes it, whatever a weak step's local fit reports (its
+ *    Gauss–Newton variance can exceed the bias range, and scaled by η/(1 − η) ≈ 11 at η = 0.92
+ *    it would make every peak on the other side "the resonance").
  * 3. Resonances predict no further resonances. Charging peaks that appear only through the
  *    substrate junction (the dot filling from the substrate in shell tunnelling) are not
  *    predicted.
@@ -105,7 +109,7 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
       const src = peaks[s];
       if (Math.sign(src.biasV) === Math.sign(p.biasV)) continue;
       const predictedV = -gain * src.biasV;
-      const sigma = Math.hypot(gain * src.biasUncertaintyV, p.biasUncertaintyV);
+      const sigma = Math.hypot(gain * positionSigma(src), positionSigma(p));
       const tolerance = Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * p.fwhmV);
       const miss = Math.abs(p.biasV - predictedV);
       if (miss <= tolerance && miss < bestMiss) {
@@ -117,6 +121,11 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
     else sources.push(k);
   }
   return found;
+}
+
+/** A peak's position uncertainty for matching, V: its own, at most half its FWHM (note 2 of {@link secondJunctionResonances}). */
+function positionSigma(p: Peak): number {
+  return Math.min(p.biasUncertaintyV, p.fwhmV / 2);
 }
 
 /**

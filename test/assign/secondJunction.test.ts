@@ -32,6 +32,19 @@ describe("secondJunctionResonances(peaks, eta)", () => {
     expect(secondJunctionResonances([peak(vv), peak(0.7), peak(1.5)], eta)).toEqual([]); // predicted 1.2 V, 0.3 V away
   });
 
+  it("a source located no better than its own width (σ far beyond FWHM/2) matches nothing across the window (closed form −η·V/(1 − η))", () => {
+    // η = 0.916: the source at −1.182 V predicts +0.916·1.182/0.084 = 12.89 V, far outside a ±3 V window;
+    // with its raw σ of 3.8 V (a weak step the local fit cannot place) 3σ·η/(1 − η) would reach every CB peak.
+    const eta = 0.916;
+    const weak = peak(-1.182, 3.8);
+    const predictedV = (eta * 1.182) / (1 - eta);
+    expectClose(predictedV, 12.889, { rtol: 1e-3, what: "closed form −η·V/(1 − η)" });
+    expect(secondJunctionResonances([weak, peak(1.456), peak(1.844), peak(2.021)], eta)).toEqual([]);
+    // At its own FWHM/2 (0.02 V) the window is 3·hypot(10.9·0.02, 0.002) ≈ 0.65 V around 12.89 V: still nothing.
+    // A peak at the predicted position is still found.
+    expect(secondJunctionResonances([weak, peak(predictedV - 0.3)], eta).map((x) => x.index)).toEqual([1]);
+  });
+
   it("a resonance predicts nothing further (it is not a level)", () => {
     const eta = 0.6; // gain 1.5
     // 0.5 → −0.75 (resonance); −0.75 would predict +1.125, but that peak is a level here.

@@ -65,6 +65,32 @@ describe("findPeaks(biasV, didvS, options)", () => {
     }
   });
 
+  it("finds the middle steps of a charging ladder that the ±3 FWHM test misses (Monte Carlo, 60 seeded draws; closed form Φ(z − 5) with z from the fit's exact variances)", () => {
+    // Nine equal Gaussian-broadened steps 1.4 FWHM apart. The middle step's standard error over
+    // ±3 FWHM is 1.63 × that over the moved window (test/peaks/localStepFit.test.ts computes both
+    // with mathjs): with the noise set so that its expected t is 4.5 over ±3 FWHM, a test over
+    // ±3 FWHM alone would pass it with probability at most Φ(4.5 − 5) = 0.31 (4 of these 60 draws:
+    // its estimate is also pulled by the unfitted steps at ±4.2 FWHM), the moved window with
+    // Φ(4.5·1.414 − 5) = 0.92.
+    const x = axis(-1, 1, 0.001);
+    const fw = 0.05, s = fw / GAUSSIAN_FWHM_PER_SIGMA;
+    const positions = [-4, -3, -2, -1, 0, 1, 2, 3, 4].map((k) => 1.4 * fw * k);
+    const step = 1e-11;
+    const sePlainPerSigma = 1.6315; // √Var(step)/σ over ±3 FWHM (the fit's exact variance, checked against mathjs in localStepFit.test.ts)
+    const sigmaA = step / (4.5 * sePlainPerSigma);
+    const g = x.map((v) => positions.reduce((sum, xj) => sum + (step / (s * Math.sqrt(2 * Math.PI))) * gauss(v, xj, s), 0));
+    let found = 0;
+    const draws = 60;
+    for (let k = 0; k < draws; k++) {
+      const rng = seededRandom(700 + k);
+      const current = x.map((v) => positions.reduce((sum, xj) => sum + step * normalCdf((v - xj) / s), 0) + sigmaA * rng.normal());
+      const { peaks } = findPeaks(x, g, { noiseS: 1e-3 * Math.max(...g), current: { currentA: current, noiseA: sigmaA }, expectedFwhmV: fw, minSeparationMV: 0 });
+      if (peaks.some((p) => Math.abs(p.biasV) < 0.25 * fw)) found++;
+    }
+    // 0.92 expected; 0.8 is 3.4 binomial standard errors below it and far above 0.31.
+    expect(found / draws).toBeGreaterThan(0.8);
+  });
+
   it("reports position uncertainties that match the scatter of repeated noisy measurements within 25 % (least-squares theory; Monte Carlo, 300 seeded draws)", () => {
     const x = axis(-0.5, 0.5, 0.002);
     const s = 0.015, sigmaA = 2e-12, step = 40e-12;

@@ -1,0 +1,242 @@
+/**
+ * The local step fit of findPeaks: a line plus Gaussian-broadened current steps fitted by linear
+ * least squares to the unsmoothed current around one peak (the step test and the refinement on
+ * the current). Internal to lib/peaks (not re-exported from the public entry).
+ */
+import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
+import { normalCdfFast } from "../util/special.ts";
+import { scaledCholeskySolve } from "../util/smallSymmetric.ts";
+
+const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
+
+/** Scratch space of the local step fits of one findPeaks call (the design matrix, grown as needed). */
+export interface FitWorkspace {
+  cols: Float64Array;
+}
+
+/** Result of {@link localStepFit}: coefficients and their covariance in units of the noise variance. */
+export interface LocalStepFit {
+  /** Height of the tested step, A. */
+  step: number;
+  /** Var(step)/σ². */
+  stepVar: number;
+  /** Shift of the step position, V (with `withShift`), and Var(shift)/σ². */
+  shift: number;
+  shiftVar: number;
+  /** RMS residual of the fit, A (with `withShift`; 0 otherwise). */
+  rms: number;
+}
+
+/**
+ * Local linear least-squares fit of the unsmoothed current around one peak:
+ * I = a + b·u + Σ_j c_j·Φ((x − x_j)/s) + c·Φ((x − x₀)/s) [+ d·φ((x − x₀)/s)], u = x − x₀,
+ * over ±6·halfWidth samples (±3 FWHM) around sample p, with a step for every neighbour at least
+ * one FWHM away that lies within the window or within 2·halfWidth of it, all of width
+ * s = 2·halfWidth·h/2.3548. Neighbouring steps are fitted, not mistaken for background. With
+ * `withShift`, the φ column linearises a shift of x₀: Φ((x − x₀ − δ)/s) ≈ Φ − (δ/s)·φ, so
+ * δ = −d·s/c (one Gauss–Newton step).
+ *
+ * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}) and adds a
+ * quadratic term c₂·u² to the background.
+ */
+export function localStepFit(
+  x: Float64Array,
+  current: Float64Array,
+  p: number,
+  x0: number,
+  neighboursV: readonly number[],
+  halfWidth: number,
+  withShift: boolean,
+  work: FitWorkspace,
+  windowV?: readonly [number, number],
+): LocalStepFit | null {
+  const n = x.length;
+  const h = (x[n - 1] - x[0]) / (n - 1);
+  let lo = Math.max(0, p - 6 * halfWidth), hi = Math.min(n - 1, p + 6 * halfWidth);
+  if (windowV) {
+    lo = Math.max(0, Math.min(lo, Math.round((windowV[0] - x[0]) / h)));
+    hi = Math.min(n - 1, Math.max(hi, Math.round((windowV[1] - x[0]) / h)));
+  }
+  if (hi - lo < 5) return null;
+  const s = (2 * halfWidth * h) / GAUSSIAN_FWHM_PER_SIGMA;
+  // Neighbours closer than one FWHM are the same feature (noise on its flank), not another step.
+  const reach = 2 * halfWidth * h;
+  const steps = neighboursV.filter((v) => Math.abs(v - x0) >= reach && v >= x[lo] - reach && v <= x[hi] + reach);
+  // Over a moved (longer) window the background gets its next Taylor term, u²: a curved background
+  // (an exponential rise) that a line follows over ±3 FWHM does not stay straight over ±6.
+  const bg = windowV ? 3 : 2;
+  const self = bg + steps.length;
+  const m = self + 1 + (withShift ? 1 : 0);
+  // Design matrix, column by column (each Φ evaluated once).
+  const rows = hi - lo + 1;
+  if (work.cols.length < m * rows) work.cols = new Float64Array(2 * m * rows);
+  const cols = work.cols;
+  for (let i = 0; i < rows; i++) {
+    const u = x[lo + i] - x0;
+    cols[i] = 1;
+    cols[rows + i] = u;
+    if (bg === 3) cols[2 * rows + i] = u * u;
+    for (let j = 0; j < steps.length; j++) cols[(bg + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
+    cols[self * rows + i] = normalCdfFast(u / s);
+    if (withShift) cols[(self + 1) * rows + i] = Math.exp((-0.5 * u * u) / (s * s)) * INV_SQRT_2PI;
+  }
+  // Normal equations column by column (contiguous dot products; the same sums in the same order).
+  const ata = new Float64Array(m * m);
+  const atb = new Float64Array(m);
+  for (let r = 0; r < m; r++) {
+    const a = r * rows;
+    let sb = 0;
+    for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
+    atb[r] = sb;
+    if (r === 0) {
+      // The constant column: plain column sums.
+      for (let c = 0; c < m; c++) {
+        const b = c * rows;
+        let sum = 0;
+        for (let i = 0; i < rows; i++) sum += cols[b + i];
+        ata[c] = sum;
+        ata[c * m] = sum;
+      }
+      continue;
+    }
+    for (let c = r; c < m; c++) {
+      const b = c * rows;
+      let sum = 0;
+      for (let i = 0; i < rows; i++) sum += cols[a + i] * cols[b + i];
+      ata[r * m + c] = sum;
+      ata[c * m + r] = sum;
+    }
+  }
+  // The columns differ by orders of magnitude: solved at unit diagonal. Only the step's (and the
+  // shift's) variances are needed, and their columns are the last: the trailing block of the inverse.
+  const tail = withShift ? 2 : 1;
+  const solved = scaledCholeskySolve(ata, atb, m, tail);
+  if (!solved) return null;
+  const coef = solved.x;
+  const inv = (r: number, c: number) => solved.tailInverse[(r - self) * tail + (c - self)];
+  let ss = 0;
+  if (withShift) {
+    // The residual RMS widens the position error; the significance test does not use it.
+    for (let i = 0; i < rows; i++) {
+      let f = 0;
+      for (let r = 0; r < m; r++) f += cols[r * rows + i] * coef[r];
+      ss += (current[lo + i] - f) ** 2;
+    }
+  }
+  const rms = Math.sqrt(ss / Math.max(1, rows - m));
+  const step = coef[self];
+  let shift = 0, shiftVar = Infinity;
+  if (withShift && step !== 0) {
+    const d = coef[self + 1];
+    shift = (-d * s) / step;
+    // δ = −s·d/c: first-order propagation with the covariance of (c, d).
+    const gC = (s * d) / (step * step), gD = -s / step;
+    shiftVar = gC * gC * inv(self, self) + 2 * gC * gD * inv(self, self + 1) + gD * gD * inv(self + 1, self + 1);
+  }
+  return { step, stepVar: inv(self, self), shift, shiftVar, rms };
+}
+
+/** Limits of {@link stepTestWindow}, in FWHM (derived in its notes). */
+export const STEP_TEST_WINDOW = Object.freeze({
+  /** The window's half-width before any edge moves. */
+  halfWidthFwhm: 3,
+  /** A neighbour within this distance of an edge straddles it: its step rises from 0.9 % to 99.1 % over ±1 FWHM (Φ(∓2.355)). */
+  straddleFwhm: 1,
+  /** The edge moves this far beyond such a neighbour: its rise (1 FWHM) and as long a plateau after it. */
+  beyondFwhm: 2,
+  /** The edge never moves further than this from the tested peak (twice the plain window). */
+  maxHalfWidthFwhm: 6,
+});
+
+/**
+ * The window of the step test around a candidate at x0, V: ±3 FWHM, with each edge moved out of
+ * any neighbour's step that it cuts.
+ *
+ * Parameters
+ * ----------
+ * x0V : number
+ *     The candidate's position, V.
+ * neighboursV : readonly number[]
+ *     The other candidates' positions, V, ascending.
+ * fwhmV : number
+ *     The expected FWHM of a step, V (> 0).
+ *
+ * Returns
+ * -------
+ * [number, number]
+ *     The left and right edges, V.
+ *
+ * Notes
+ * -----
+ * 1. The local fit (line + Gaussian-broadened steps) tells a step from the line only through the
+ *    plateaus on both sides of it. A neighbour whose step straddles an edge of the window
+ *    (within 1 FWHM of it: its step is between 0.9 % and 99.1 % complete there, Φ(∓2.355) for a
+ *    Gaussian broadening) has no plateau beyond it inside the window, so its column is nearly
+ *    collinear with the line and the constant, and its uncertainty spreads to the tested step
+ *    (the standard error of c grows, the test loses power, most in a charging ladder whose
+ *    steps are 1–2 FWHM apart).
+ * 2. So each edge, walking outward from x0 ± 3 FWHM through the neighbours in order, moves to
+ *    2 FWHM beyond any neighbour that straddles it (the neighbour's rise, 1 FWHM, and as long a
+ *    plateau after it); the moved edge may in turn be straddled by the next neighbour.
+ * 3. No edge moves further than 6 FWHM from x0. The window only grows: a neighbour beyond the
+ *    plain window that is not fitted gains no column.
+ *
+ * Example
+ * -------
+ * ```ts
+ * stepTestWindow(0, [0.1, 0.28], 0.1); // => [-0.3, 0.48] (the neighbour at 2.8 FWHM cuts the right edge)
+ * ```
+ */
+export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhmV: number): [number, number] {
+  const W = STEP_TEST_WINDOW;
+  const sorted = neighboursV;
+  let right = x0V + W.halfWidthFwhm * fwhmV;
+  for (const v of sorted) {
+    if (v <= x0V) continue;
+    if (v > right + W.straddleFwhm * fwhmV) break;
+    if (v >= right - W.straddleFwhm * fwhmV) right = Math.min(x0V + W.maxHalfWidthFwhm * fwhmV, Math.max(right, v + W.beyondFwhm * fwhmV));
+  }
+  let left = x0V - W.halfWidthFwhm * fwhmV;
+  for (let j = sorted.length - 1; j >= 0; j--) {
+    const v = sorted[j];
+    if (v >= x0V) continue;
+    if (v < left - W.straddleFwhm * fwhmV) break;
+    if (v <= left + W.straddleFwhm * fwhmV) left = Math.max(x0V - W.maxHalfWidthFwhm * fwhmV, Math.min(left, v - W.beyondFwhm * fwhmV));
+  }
+  return [left, right];
+}
+
+/**
+ * t-statistic of the step at candidate k (neighbours at the other candidates, positions
+ * ascending): over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma,
+ * over the window of {@link stepTestWindow}.
+ */
+export function stepSignificance(
+  x: Float64Array,
+  current: Float64Array,
+  indices: number[],
+  k: number,
+  halfWidth: number,
+  noiseA: number,
+  minStepSigma: number,
+  minPlainSigma: number,
+  work: FitWorkspace,
+): number {
+  const x0 = x[indices[k]];
+  const neighbours = indices.filter((_, j) => j !== k).map((j) => x[j]);
+  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, indices[k], x0, neighbours, halfWidth, false, work, windowV);
+  const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0);
+  const plain = z(fitOver());
+  // A step significant over ±3 FWHM needs no longer window; one that does not stand at
+  // minPlainSigma there (the pre-screen's level) is not tried again. A candidate with a neighbour
+  // inside one FWHM shares that neighbour's (unfitted) step: a longer window would credit more of
+  // it to the candidate, so its test stays plain.
+  const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
+  if (plain >= minStepSigma || !(plain >= minPlainSigma) || neighbours.some((v) => Math.abs(v - x0) < fwhmV)) return plain;
+  const windowV = stepTestWindow(x0, neighbours, fwhmV);
+  const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
+  // Only where an edge moved (by more than a sample) is there a second fit.
+  const sample = fwhmV / (2 * halfWidth);
+  if (windowV[0] > x0 - W - sample && windowV[1] < x0 + W + sample) return plain;
+  return z(fitOver(windowV));
+}
