@@ -19,7 +19,12 @@ if (at < 0 || !args[at + 1]) {
   console.error("usage: node bin/run-ts.js bench/compareRevisions.ts --before PATH_TO_OTHER_CHECKOUT [--runs N]");
   process.exit(2);
 }
-const runs = Number(args[args.indexOf("--runs") + 1] || 2000);
+const runsAt = args.indexOf("--runs");
+const runs = runsAt >= 0 ? Number(args[runsAt + 1]) : 2000;
+if (!(Number.isInteger(runs) && runs >= 1)) {
+  console.error(`--runs must be a whole number of at least 1; got ${args[runsAt + 1]}`);
+  process.exit(2);
+}
 const other = (await import(pathToFileURL(resolve(args[at + 1], "lib/pipeline/analyzeCurve.ts")).href)) as {
   analyzeCurve: (c: Curve, o: { eta: number }) => CurveAnalysis;
 };
