@@ -339,37 +339,86 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   kept.sort((a, b) => a.index - b.index);
 
   // 4–6. Refinement.
-  const peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
+  let peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
   if (current && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent)) {
-    const halfWidthOf = (k: number) =>
-      Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
-    const settled = new Set<number>();
-    for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations; iteration++) {
-      const positions = peaks.map((p) => p.biasV);
-      peaks.forEach((peak, k) => {
-        if (settled.has(k)) return;
-        const neighbours = positions.filter((_, j) => j !== k);
-        const index = Math.min(n - 1, Math.max(0, Math.round((peak.biasV - biasV[0]) / stepV)));
-        const fit = localStepFit(biasV, current.currentA, index, peak.biasV, neighbours, halfWidthOf(k), true, work);
-        if (!fit || !(fit.step > 0) || !Number.isFinite(fit.shiftVar) || !(fit.shiftVar > 0)) return;
-        // At most half a width per step, and never past halfway to a neighbour.
-        let lo = -halfWidthOf(k) * stepV, hi = halfWidthOf(k) * stepV;
-        if (k > 0) lo = Math.max(lo, (positions[k - 1] - positions[k]) / 2);
-        if (k < peaks.length - 1) hi = Math.min(hi, (positions[k + 1] - positions[k]) / 2);
-        const shift = Math.max(lo, Math.min(hi, fit.shift));
-        peak.biasV += shift;
-        if (Math.abs(shift) < 0.01 * halfWidthOf(k) * stepV) settled.add(k);
-        // Noise from the current's white noise, widened when the local model leaves larger
-        // residuals, plus a floor for what the model leaves out (overlap, line shape).
-        const sigma = Math.max(current.noiseA, fit.rms);
-        peak.biasUncertaintyV = Math.hypot(sigma * Math.sqrt(fit.shiftVar), FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * 2 * halfWidthOf(k) * stepV);
-      });
+    const halfWidthOf = (k: number) => Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
+    let open = peaks.map((_, k) => k);
+    for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && open.length; iteration++) {
+      const step = refineOnCurrent(biasV, current, peaks, open, halfWidthOf, work);
+      peaks = step.peaks;
+      open = open.filter((k) => !step.settled.includes(k));
     }
   }
   return {
     peaks,
     record: { noiseS, minProminenceSigma, minStepSigma, minSeparationMV, candidates: maxima.length, belowProminence, belowStepSignificance, tooClose, warnings },
   };
+}
+
+/**
+ * One refinement step of peak positions on the current: for each peak in `which`, one
+ * Gauss–Newton step of the local step fit with a shift term, its neighbours at the positions the
+ * peaks have on entry (so a peak's new position does not depend on which others are refined).
+ *
+ * Parameters
+ * ----------
+ * biasV : Float64Array
+ *     Bias in volts, uniformly spaced, ascending.
+ * current : { currentA: Float64Array; noiseA: number }
+ *     The unsmoothed current (A) and its white-noise σ (A).
+ * peaks : readonly Peak[]
+ *     The peaks, sorted by bias; not modified.
+ * which : readonly number[]
+ *     Indices of the peaks to refine.
+ * halfWidthOf : (k: number) => number
+ *     Half the expected FWHM of peak k, in samples (≥ 1).
+ * work : FitWorkspace
+ *     Scratch of the local fits.
+ *
+ * Returns
+ * -------
+ * { peaks: Peak[]; settled: number[] }
+ *     The peaks with those refined replaced by new objects (position moved by at most half a
+ *     width and never past halfway to a neighbour; position σ from the fit's covariance, widened
+ *     by the residual RMS when that exceeds the noise, with FIND_PEAKS_DEFAULTS.positionFloorPerFwhm
+ *     of the FWHM in quadrature), and the indices that moved by less than 1 % of a half width.
+ *     A peak whose fit fails (no positive step, no finite shift variance) keeps its position.
+ */
+export function refineOnCurrent(
+  biasV: Float64Array,
+  current: { currentA: Float64Array; noiseA: number },
+  peaks: readonly Peak[],
+  which: readonly number[],
+  halfWidthOf: (k: number) => number,
+  work: FitWorkspace,
+): { peaks: Peak[]; settled: number[] } {
+  const n = biasV.length;
+  const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
+  const positions = peaks.map((p) => p.biasV);
+  const out = peaks.slice();
+  const settled: number[] = [];
+  for (const k of which) {
+    const peak = peaks[k];
+    const neighbours = positions.filter((_, j) => j !== k);
+    const index = Math.min(n - 1, Math.max(0, Math.round((peak.biasV - biasV[0]) / stepV)));
+    const fit = localStepFit(biasV, current.currentA, index, peak.biasV, neighbours, halfWidthOf(k), true, work);
+    if (!fit || !(fit.step > 0) || !Number.isFinite(fit.shiftVar) || !(fit.shiftVar > 0)) continue;
+    // At most half a width per step, and never past halfway to a neighbour.
+    let lo = -halfWidthOf(k) * stepV, hi = halfWidthOf(k) * stepV;
+    if (k > 0) lo = Math.max(lo, (positions[k - 1] - positions[k]) / 2);
+    if (k < peaks.length - 1) hi = Math.min(hi, (positions[k + 1] - positions[k]) / 2);
+    const shift = Math.max(lo, Math.min(hi, fit.shift));
+    if (Math.abs(shift) < 0.01 * halfWidthOf(k) * stepV) settled.push(k);
+    // Noise from the current's white noise, widened when the local model leaves larger
+    // residuals, plus a floor for what the model leaves out (overlap, line shape).
+    const sigma = Math.max(current.noiseA, fit.rms);
+    out[k] = {
+      ...peak,
+      biasV: peak.biasV + shift,
+      biasUncertaintyV: Math.hypot(sigma * Math.sqrt(fit.shiftVar), FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * 2 * halfWidthOf(k) * stepV),
+    };
+  }
+  return { peaks: out, settled };
 }
 
 function refine(

@@ -6,7 +6,7 @@ import { checkDifferentiateOptions, conductanceFromPrepared, differentiatedNoise
 import { savitzkyGolayUnchecked } from "../signal/savitzkyGolay.ts";
 import { savitzkyGolayWindow } from "../signal/savitzkyGolayWindow.ts";
 import { prepareCurve, type PreparedCurve } from "../signal/prepareCurve.ts";
-import { findPeaks, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from "../peaks/findPeaks.ts";
+import { findPeaks, refineOnCurrent, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from "../peaks/findPeaks.ts";
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
@@ -202,7 +202,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const separationFor = (windowMVUsed: number) => options.minSeparationMV ?? Math.max(A.minSeparationFloorMV, A.separationPerWindow * windowMVUsed);
   // "full": each peak tested for a significant current step and refined on the current;
   // "sweeps": single sweeps, which only supply positions near peaks already found.
-  const peaksOf = (s: PassSignal, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length) =>
+  const peaksOf = (s: PassSignal, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length, refine = true) =>
     findPeaks(s.biasV.subarray(lo, hi), didv.subarray(lo, hi), {
       noiseS: Math.max(s.record.noiseConductanceS, Number.MIN_VALUE),
       minProminenceSigma: mode === "full" ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
@@ -212,14 +212,20 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
         ? { quantity: "conductance", sigmaS: s.record.noiseConductanceRawS ?? s.record.noiseConductanceS }
         : { quantity: "current", sigmaA: s.record.noiseCurrentA },
       expectedFwhmV: peakWidthMV / 1000,
-      refineOnCurrent: !s.record.usedMeasured,
+      refineOnCurrent: refine && !s.record.usedMeasured,
       current: mode === "full" ? { currentA: s.currentA.subarray(lo, hi), noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) } : undefined,
     });
   if (measureWidth) {
     // The first pass only has to find the gap-edge peaks: it looks near the zero-current region.
     const [lo, hi] = nearRegion(prepared, A.firstPassReachV);
     const first = firstPassSignal(prepared, { windowMV, order, peakWidthMV, useMeasured }, lo, hi);
-    const edgePeaks = peaksOf(first, first.didvS, "full", lo, hi).peaks.map((p) => ({ ...p, index: p.index + lo }));
+    // Found without the refinement on the current, which then moves only the peaks the width is
+    // read from (the same positions when the refinement is one step, as it is by default).
+    const selective = FIND_PEAKS_DEFAULTS.refineIterations === 1 && !first.record.usedMeasured;
+    const found = peaksOf(first, first.didvS, "full", lo, hi, !selective).peaks;
+    const current = { currentA: first.currentA.subarray(lo, hi), noiseA: Math.max(first.record.noiseCurrentA, Number.MIN_VALUE) };
+    const refined = selective ? refineEdgePeaks(found, first.biasV.subarray(lo, hi), current, peakWidthMV) : found;
+    const edgePeaks = refined.map((p) => ({ ...p, index: p.index + lo }));
     const widths = edgeWidths(first, edgePeaks).map((w) => w * 1000);
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
@@ -387,28 +393,61 @@ function firstPassSignal(prepared: PreparedCurve, options: DifferentiateOptions 
 }
 
 /** Fitted FWHM (V) of the first current step of each band that has a peak. */
-function edgeWidths(signal: PassSignal, peaks: Peak[]): number[] {
+function edgeWidths(signal: PassSignal, peaks: readonly Peak[]): number[] {
   const out: number[] = [];
   const { biasV, currentA } = signal;
-  for (const sign of [1, -1]) {
-    // Work in the band's own direction: x = sign·V, y = sign·I rises at its first step.
-    // The band's first clear peak: weak maxima near the gap edge would give a width of noise.
-    const inBand = peaks.filter((p) => sign * p.biasV > 0);
-    const strongest = Math.max(0, ...inBand.map((p) => p.snr));
-    const band = inBand
-      .filter((p) => p.snr >= Math.max(ANALYZE_DEFAULTS.edgePeakSnrMin, ANALYZE_DEFAULTS.edgePeakSnrFraction * strongest))
-      .sort((a, b) => sign * (a.biasV - b.biasV));
+  for (const { sign, band: indices } of clearBandPeaks(peaks)) {
+    const band = indices.map((k) => peaks[k]);
     if (!band.length) continue;
+    // Work in the band's own direction: x = sign·V, y = sign·I rises at its first step.
     const x0 = sign * band[0].biasV;
     // Stop halfway to the next peak, and within half the gap-side FWHM of the step, so a
     // neighbour the first pass missed stays out of the fit.
     const gapSide = gapSideFwhm(signal.biasV, signal.didvS, band[0]);
     let right = band.length > 1 ? x0 + 0.5 * (sign * band[1].biasV - x0) : x0 + 0.15;
     if (gapSide !== null) right = Math.min(right, x0 + 0.5 * gapSide);
-    const w = edgeStepWidth(biasV, currentA, { positionV: x0, rangeV: [Math.max(0, x0 - 0.4), right], sign: sign as 1 | -1 });
+    const w = edgeStepWidth(biasV, currentA, { positionV: x0, rangeV: [Math.max(0, x0 - 0.4), right], sign });
     if (w !== null) out.push(w);
   }
   return out;
+}
+
+/**
+ * Each band's clear peaks (indices into `peaks`), from the gap outward: those with an SNR of at
+ * least ANALYZE_DEFAULTS.edgePeakSnrMin and edgePeakSnrFraction of the band's strongest (weak
+ * maxima near the gap edge would give a width of noise). The first is the band's edge peak.
+ */
+function clearBandPeaks(peaks: readonly Peak[]): { sign: 1 | -1; band: number[] }[] {
+  return ([1, -1] as const).map((sign) => {
+    const inBand = peaks.map((_, k) => k).filter((k) => sign * peaks[k].biasV > 0);
+    const strongest = Math.max(0, ...inBand.map((k) => peaks[k].snr));
+    const band = inBand
+      .filter((k) => peaks[k].snr >= Math.max(ANALYZE_DEFAULTS.edgePeakSnrMin, ANALYZE_DEFAULTS.edgePeakSnrFraction * strongest))
+      .sort((a, b) => sign * (peaks[a].biasV - peaks[b].biasV));
+    return { sign, band };
+  });
+}
+
+/**
+ * The first pass's peaks with the positions a refinement of all of them on the current would
+ * give to the peaks {@link edgeWidths} reads, refining only those: each band's edge peak and the
+ * one after it, and first any peak within one step's reach (half a width) of 0 V, whose band
+ * the refinement could change. Each peak's refinement reads the others' positions as found
+ * ({@link refineOnCurrent}), so refining a few gives them the values refining all would; the
+ * others keep the parabola's positions, on the same side of 0 V and in the same order as refined
+ * ones (a step never passes halfway to a neighbour), so the band and order edgeWidths reads are
+ * the same.
+ */
+function refineEdgePeaks(peaks: readonly Peak[], biasV: Float64Array, current: { currentA: Float64Array; noiseA: number }, peakWidthMV: number): Peak[] {
+  const n = biasV.length;
+  const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
+  const halfWidth = Math.max(1, Math.round(peakWidthMV / 1000 / (2 * stepV)));
+  const work = { cols: new Float64Array(0) };
+  const nearZero = peaks.map((_, k) => k).filter((k) => Math.abs(peaks[k].biasV) <= halfWidth * stepV);
+  const first = refineOnCurrent(biasV, current, peaks, nearZero, () => halfWidth, work).peaks;
+  const read = clearBandPeaks(first).flatMap(({ band }) => band.slice(0, 2)).filter((k) => !nearZero.includes(k));
+  const second = refineOnCurrent(biasV, current, peaks, read, () => halfWidth, work).peaks;
+  return peaks.map((p, k) => (nearZero.includes(k) ? first[k] : read.includes(k) ? second[k] : p));
 }
 
 /**
