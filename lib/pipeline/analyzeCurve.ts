@@ -105,6 +105,11 @@ export const ANALYZE_DEFAULTS = Object.freeze({
   edgePeakSnrMin: 5,
   /** … and at least this fraction of the SNR of the band's strongest peak. */
   edgePeakSnrFraction: 0.3,
+  /**
+   * When the first pass gives no width, or a smaller one at least this many times its own peak
+   * width, it is repeated once with its peak width times this factor (note 2).
+   */
+  firstPassRetryFactor: 2,
   /** The first pass looks for the gap-edge peaks this far beyond the zero-conductance region, V. */
   firstPassReachV: 0.6,
   /** The measured width is kept within these bounds, mV. */
@@ -156,7 +161,10 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    the next peak or half the peak's gap-side FWHM past it, whichever is nearer
  *    ({@link edgeStepWidth}; no other level overlaps that stretch); the smaller (a neighbour the
  *    first pass missed can only widen a fit), bounded to ANALYZE_DEFAULTS.peakWidthBoundsMV, sets
- *    the automatic window of the final pass. The first pass differentiates only the points it
+ *    the automatic window of the final pass. Where no band gives a width, or the smaller is at
+ *    least ANALYZE_DEFAULTS.firstPassRetryFactor times the first pass's own, the pass is repeated
+ *    once with that many times its peak width (broad peaks lose their SNR in a narrow filter) and
+ *    the smallest width of both passes is kept. The first pass differentiates only the points it
  *    reads (near the zero-current region and on to 0 V), with the values a whole pass gives there.
  * 3. Peaks ({@link findPeaks}) with the position uncertainty from the noise of the measured signal
  *    (the current, or a measured conductance), with the same floor for both.
@@ -218,15 +226,26 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   if (measureWidth) {
     // The first pass only has to find the gap-edge peaks: it looks near the zero-current region.
     const [lo, hi] = nearRegion(prepared, A.firstPassReachV);
-    const first = firstPassSignal(prepared, { windowMV, order, peakWidthMV, useMeasured }, lo, hi);
-    // Found without the refinement on the current, which then moves only the peaks the width is
-    // read from (the same positions when the refinement is one step, as it is by default).
-    const selective = FIND_PEAKS_DEFAULTS.refineIterations === 1 && !first.record.usedMeasured;
-    const found = peaksOf(first, first.didvS, "full", lo, hi, !selective).peaks;
-    const current = { currentA: first.currentA.subarray(lo, hi), noiseA: Math.max(first.record.noiseCurrentA, Number.MIN_VALUE) };
-    const refined = selective ? refineEdgePeaks(found, first.biasV.subarray(lo, hi), current, peakWidthMV) : found;
-    const edgePeaks = refined.map((p) => ({ ...p, index: p.index + lo }));
-    const widths = edgeWidths(first, edgePeaks).map((w) => w * 1000);
+    const firstPass = (assumedMV: number): number[] => {
+      peakWidthMV = assumedMV;
+      const first = firstPassSignal(prepared, { windowMV, order, peakWidthMV, useMeasured }, lo, hi);
+      // Found without the refinement on the current, which then moves only the peaks the width is
+      // read from (the same positions when the refinement is one step, as it is by default).
+      const selective = FIND_PEAKS_DEFAULTS.refineIterations === 1 && !first.record.usedMeasured;
+      const found = peaksOf(first, first.didvS, "full", lo, hi, !selective).peaks;
+      const current = { currentA: first.currentA.subarray(lo, hi), noiseA: Math.max(first.record.noiseCurrentA, Number.MIN_VALUE) };
+      const refined = selective ? refineEdgePeaks(found, first.biasV.subarray(lo, hi), current, peakWidthMV) : found;
+      const edgePeaks = refined.map((p) => ({ ...p, index: p.index + lo }));
+      return edgeWidths(first, edgePeaks).map((w) => w * 1000);
+    };
+    let widths = firstPass(A.firstPassPeakWidthMV);
+    // Peaks far broader than the first pass assumes (low η widens them by 1/η) lose their SNR in
+    // its narrow filter: no band gives a width, or the smaller is many times the assumption (a
+    // step the pass missed inside the fit widens it). Once, the pass is repeated with a wider
+    // filter, and the smallest width of both passes is kept.
+    const retry = A.firstPassRetryFactor * A.firstPassPeakWidthMV;
+    if (!widths.length || Math.min(...widths) >= retry) widths = [...widths, ...firstPass(retry)];
+    peakWidthMV = A.firstPassPeakWidthMV;
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
