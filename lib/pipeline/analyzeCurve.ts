@@ -210,7 +210,9 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const separationFor = (windowMVUsed: number) => options.minSeparationMV ?? Math.max(A.minSeparationFloorMV, A.separationPerWindow * windowMVUsed);
   // "full": each peak tested for a significant current step and refined on the current;
   // "sweeps": single sweeps, which only supply positions near peaks already found.
-  const peaksOf = (s: PassSignal, didv: Float64Array, mode: "full" | "sweeps", lo = 0, hi = s.biasV.length, refine = true) =>
+  // The raw current of points [lo, hi) with its noise, as the step tests and the refinement read it.
+  const currentOf = (s: PassSignal, lo: number, hi: number) => ({ currentA: s.currentA.subarray(lo, hi), noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) });
+  const peaksOf = (s: PassSignal, didv: Float64Array, mode: "full" | "sweeps", widthMV: number, lo = 0, hi = s.biasV.length, refine = true) =>
     findPeaks(s.biasV.subarray(lo, hi), didv.subarray(lo, hi), {
       noiseS: Math.max(s.record.noiseConductanceS, Number.MIN_VALUE),
       minProminenceSigma: mode === "full" ? minProminenceSigma : FIND_PEAKS_DEFAULTS.minProminenceSigma,
@@ -219,22 +221,20 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       rawNoise: s.record.usedMeasured
         ? { quantity: "conductance", sigmaS: s.record.noiseConductanceRawS ?? s.record.noiseConductanceS }
         : { quantity: "current", sigmaA: s.record.noiseCurrentA },
-      expectedFwhmV: peakWidthMV / 1000,
+      expectedFwhmV: widthMV / 1000,
       refineOnCurrent: refine && !s.record.usedMeasured,
-      current: mode === "full" ? { currentA: s.currentA.subarray(lo, hi), noiseA: Math.max(s.record.noiseCurrentA, Number.MIN_VALUE) } : undefined,
+      current: mode === "full" ? currentOf(s, lo, hi) : undefined,
     });
   if (measureWidth) {
     // The first pass only has to find the gap-edge peaks: it looks near the zero-current region.
     const [lo, hi] = nearRegion(prepared, A.firstPassReachV);
     const firstPass = (assumedMV: number): number[] => {
-      peakWidthMV = assumedMV;
-      const first = firstPassSignal(prepared, { windowMV, order, peakWidthMV, useMeasured }, lo, hi);
+      const first = firstPassSignal(prepared, { windowMV, order, peakWidthMV: assumedMV, useMeasured }, lo, hi);
       // Found without the refinement on the current, which then moves only the peaks the width is
       // read from (the same positions when the refinement is one step, as it is by default).
       const selective = FIND_PEAKS_DEFAULTS.refineIterations === 1 && !first.record.usedMeasured;
-      const found = peaksOf(first, first.didvS, "full", lo, hi, !selective).peaks;
-      const current = { currentA: first.currentA.subarray(lo, hi), noiseA: Math.max(first.record.noiseCurrentA, Number.MIN_VALUE) };
-      const refined = selective ? refineEdgePeaks(found, first.biasV.subarray(lo, hi), current, peakWidthMV) : found;
+      const found = peaksOf(first, first.didvS, "full", assumedMV, lo, hi, !selective).peaks;
+      const refined = selective ? refineEdgePeaks(found, first.biasV.subarray(lo, hi), currentOf(first, lo, hi), assumedMV) : found;
       const edgePeaks = refined.map((p) => ({ ...p, index: p.index + lo }));
       return edgeWidths(first, edgePeaks).map((w) => w * 1000);
     };
@@ -245,7 +245,6 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     // filter, and the smallest width of both passes is kept.
     const retry = A.firstPassRetryFactor * A.firstPassPeakWidthMV;
     if (!widths.length || Math.min(...widths) >= retry) widths = [...widths, ...firstPass(retry)];
-    peakWidthMV = A.firstPassPeakWidthMV;
     if (widths.length) {
       // The smaller: a neighbour the first pass missed can only widen a fit.
       peakWidthMV = Math.min(A.peakWidthBoundsMV[1], Math.max(A.peakWidthBoundsMV[0], Math.min(...widths)));
@@ -254,10 +253,10 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   }
   const signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured });
 
-  const found = peaksOf(signal, signal.didvS, "full");
+  const found = peaksOf(signal, signal.didvS, "full", peakWidthMV);
   const areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
   const sweeps = signal.didvSweepsS;
-  const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps").peaks);
+  const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps", peakWidthMV).peaks);
   const peaks: Omit<AnalyzedPeak, "multiplet" | "role">[] = found.peaks.map((p, k) => {
     // Written out (not spread): the same keys in the same order as Peak's, then the pipeline's.
     const own = (biasUncertaintyV: number, sweepSpreadV: number | null, sweepsFound: number) => ({

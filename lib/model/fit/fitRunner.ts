@@ -198,9 +198,9 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     });
     evaluations += loop.evaluations;
     if (loop.stoppedBy === "budget" || loop.stoppedBy === "time") stoppedBy ??= loop.stoppedBy;
-    const part = evaluations >= maxEvaluations ? "evaluations" : "elimination-steps";
-    if (loop.stoppedBy === "budget") budgetPart ??= part;
     if (loop.stoppedBy === "budget") {
+      const part = evaluations >= maxEvaluations ? "evaluations" : "elimination-steps";
+      budgetPart ??= part;
       loop.message = part === "evaluations" ? `stopped at the fit's work budget of ${maxEvaluations} model evaluations (all runs together)` : `stopped at the fit's work budget of ${maxSteps.toExponential(1)} master-equation elimination steps (all runs together)`;
     }
     if (loop.stoppedBy === "time") loop.message = `stopped at the fit's time limit of ${timeLimitMs} ms (all runs together)`;
