@@ -4,7 +4,7 @@
  * the current). Internal to lib/peaks (not re-exported from the public entry).
  */
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
-import { normalCdfFast } from "../util/special.ts";
+import { gaussianFast, normalCdfFast } from "../util/special.ts";
 import { scaledCholeskySolve } from "../util/smallSymmetric.ts";
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
@@ -78,11 +78,13 @@ export function localStepFit(
     if (bg === 3) cols[2 * rows + i] = u * u;
     for (let j = 0; j < steps.length; j++) cols[(bg + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
     cols[self * rows + i] = normalCdfFast(u / s);
-    if (withShift) cols[(self + 1) * rows + i] = Math.exp((-0.5 * u * u) / (s * s)) * INV_SQRT_2PI;
+    if (withShift) cols[(self + 1) * rows + i] = gaussianFast(u / s) * INV_SQRT_2PI;
   }
   // Normal equations column by column (contiguous dot products; the same sums in the same order).
-  const ata = new Float64Array(m * m);
-  const atb = new Float64Array(m);
+  // Plain arrays: a typed array of more than a few numbers is allocated outside V8's heap, which
+  // costs more than these sums.
+  const ata: number[] = new Array(m * m).fill(0);
+  const atb: number[] = new Array(m).fill(0);
   for (let r = 0; r < m; r++) {
     const a = r * rows;
     let sb = 0;

@@ -4,6 +4,7 @@
  */
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
+import { gaussianFast } from "../util/special.ts";
 
 /** Options of {@link peakAreas}. */
 export interface PeakAreasOptions {
@@ -62,7 +63,8 @@ export interface PeakAreasResult {
  * 1. Model: G(V) = b₀ + b₁·(V − V₁) + Σ_k A_k·exp(−(V − V_k)²/2σ²) over
  *    [min V_k − mσ, max V_k + mσ], σ = FWHM/2√(2 ln 2); the positions and σ are held fixed, so
  *    the amplitudes and baseline follow from the normal equations (K + 2 unknowns, inverted by
- *    Cholesky at unit diagonal).
+ *    Cholesky at unit diagonal). The Gaussians are tabulated ({@link gaussianFast}: within
+ *    1.2e-7 of their top), each cut at ± PEAK_AREAS_DEFAULTS.basisReachSigma.
  * 2. Area = A_k·σ·√(2π): the current step under the peak. Overlapping peaks share their flanks
  *    correctly, which a prominence (height above the valley) does not.
  * 3. Negative amplitudes (a spurious peak, or a shoulder the model cannot place) are set to 0.
@@ -113,7 +115,7 @@ export function peakAreas(biasV: Float64Array, didvS: Float64Array, positionsV: 
     for (let j = jFirst; j < k; j++) {
       const d = v - positionsV[j];
       if (!(Math.abs(d) < reach)) break;
-      row[j + 2] = Math.exp((-0.5 * d * d) / (sigma * sigma));
+      row[j + 2] = gaussianFast(d / sigma);
       if (first === m) first = j + 2;
       last = j + 2;
     }

@@ -73,3 +73,30 @@ export function normalCdfFast(x: number): number {
   const f = u - i;
   return cdfTable[i] + f * (cdfTable[i + 1] - cdfTable[i]);
 }
+
+const GAUSSIAN_STEP = 1 / 1024;
+const GAUSSIAN_REACH = 9;
+let gaussianTable: Float64Array | null = null;
+
+/**
+ * The Gaussian exp(−z²/2) by linear interpolation in a table of step 1/1024 over |z| ≤ 9 (0
+ * beyond, where the true value is below 2.6e-18; NaN for NaN): absolute error below 1.2e-7 (h²/8·max|g''|,
+ * max|g''| = 1 at z = 0), several times faster than `Math.exp`. For the basis columns of local
+ * least-squares fits, evaluated hundreds of thousands of times per analysis; the table is built
+ * once, on first use.
+ *
+ * @example gaussianFast(1); // => 0.60653066 (exp(−1/2), to 1.2e-7)
+ */
+export function gaussianFast(z: number): number {
+  const a = Math.abs(z);
+  if (!(a < GAUSSIAN_REACH)) return a >= GAUSSIAN_REACH ? 0 : NaN;
+  if (gaussianTable === null) {
+    const n = Math.round(GAUSSIAN_REACH / GAUSSIAN_STEP) + 2;
+    gaussianTable = new Float64Array(n);
+    for (let i = 0; i < n; i++) gaussianTable[i] = Math.exp(-0.5 * (i * GAUSSIAN_STEP) ** 2);
+  }
+  const u = a / GAUSSIAN_STEP;
+  const i = u | 0;
+  const f = u - i;
+  return gaussianTable[i] + f * (gaussianTable[i + 1] - gaussianTable[i]);
+}

@@ -3,7 +3,7 @@
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
 import { expectClose } from "../helpers/expectClose.ts";
-import { erfc, normalCdf, normalCdfFast, fermi } from "../../lib/util/special.ts";
+import { erfc, normalCdf, normalCdfFast, gaussianFast, fermi } from "../../lib/util/special.ts";
 
 describe("special functions", () => {
   it("erfc(x) matches 1 − erf(x) from mathjs to 1.2e-7 (relative) over −5…5", () => {
@@ -33,5 +33,20 @@ describe("special functions", () => {
 describe("normalCdfFast", () => {
   it("agrees with normalCdf within 2e-7 absolute over −10…10 (linear interpolation error bound h²/8·max|Φ''| with h = 1/512)", () => {
     for (let x = -10; x <= 10; x += 0.00377) expectClose(normalCdfFast(x), normalCdf(x), { atol: 2e-7, what: `Φ(${x})` });
+  });
+});
+
+describe("gaussianFast", () => {
+  it("agrees with exp(−z²/2) within 1.2e-7 absolute over −12…12 (closed form; linear interpolation error bound h²/8·max|g''| with h = 1/1024)", () => {
+    for (let z = -12; z <= 12; z += 0.000731) expectClose(gaussianFast(z), Math.exp(-0.5 * z * z), { atol: 1.2e-7, what: `exp(−z²/2) at z = ${z}` });
+  });
+
+  it("is exact at the table's nodes and at 0, 0 far out and NaN for NaN (closed form)", () => {
+    expect(gaussianFast(0)).toBe(1);
+    expectClose(gaussianFast(1), Math.exp(-0.5), { rtol: 1e-15 });
+    expectClose(gaussianFast(-2), Math.exp(-2), { rtol: 1e-15 });
+    expect(gaussianFast(9)).toBe(0);
+    expect(gaussianFast(-Infinity)).toBe(0);
+    expect(gaussianFast(Number.NaN)).toBeNaN();
   });
 });
