@@ -4,7 +4,7 @@
 import type { Curve } from "../curve.ts";
 import { checkDifferentiateOptions, conductanceFromPrepared, differentiatedNoiseS, CONDUCTANCE_DEFAULTS, type ConductanceRecord, type ConductanceResult, type DifferentiateOptions } from "../signal/conductance.ts";
 import { savitzkyGolayUnchecked } from "../signal/savitzkyGolay.ts";
-import { savitzkyGolayWindow } from "../signal/savitzkyGolayWindow.ts";
+import { savitzkyGolayWindowSamples } from "../signal/savitzkyGolayWindow.ts";
 import { prepareCurve, type PreparedCurve } from "../signal/prepareCurve.ts";
 import { findPeaks, refineOnCurrent, FIND_PEAKS_DEFAULTS, type Peak, type FindPeaksRecord } from "../peaks/findPeaks.ts";
 import { peakAreas } from "../peaks/peakAreas.ts";
@@ -387,7 +387,7 @@ function firstPassSignal(prepared: PreparedCurve, options: DifferentiateOptions 
   if (options.useMeasured && prepared.measuredS) return conductanceFromPrepared(prepared, { ...options, sweeps: false });
   const { biasV, currentA, stepV, noiseCurrentA } = prepared;
   const n = biasV.length;
-  const { windowSamples } = savitzkyGolayWindow(prepared, options.windowMV ?? "auto", options.order, options.peakWidthMV);
+  const windowSamples = savitzkyGolayWindowSamples(prepared, options.windowMV ?? "auto", options.order, options.peakWidthMV);
   let zero = 0;
   while (zero < n && biasV[zero] < 0) zero++;
   const from = Math.max(0, Math.min(lo, zero - 2)), to = Math.min(n, Math.max(hi, zero + 2));

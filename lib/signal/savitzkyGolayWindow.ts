@@ -119,12 +119,70 @@ function oddFloor(x: number): number {
  * ```
  */
 export function savitzkyGolayWindow(input: WindowInput, windowMV: number | "auto", order: number, peakWidthMV: number): WindowChoice {
+  const c = chooseWindow(input, windowMV, order, peakWidthMV);
+  const { stepMV, nMin } = c;
+  if (c.given) {
+    return { windowSamples: c.windowSamples, automatic: false, reason: `given: windowMV = ${windowMV} → ${c.windowSamples} samples at ${fmt(stepMV)} mV per step.`, warnings: [] };
+  }
+  const D = SAVITZKY_GOLAY_WINDOW_DEFAULTS;
+  const fp = D.windowFraction[order];
+  const warnings: string[] = [];
+  let reason = `peaks of ${fmt(peakWidthMV)} mV FWHM allow at most f_${order}·W = ${fmt(fp)} × ${fmt(peakWidthMV)} mV = ${fmt(fp * peakWidthMV)} mV → ${c.nResolve} samples at ${fmt(stepMV)} mV per step`;
+  if (c.nResolve < nMin) {
+    reason += `; raised to the minimum of ${nMin} samples`;
+    warnings.push(
+      `peakWidthMV ${fmt(peakWidthMV)} spans only ${fmt(peakWidthMV / stepMV)} bias steps: the smallest window (${nMin} samples = ${fmt(nMin * stepMV)} mV) is wider than ${fmt(fp)} × peakWidthMV, so peaks that narrow lose more than 5 % of their height. Record with a finer bias step or use order ${Math.min(5, order + 2)}.`,
+    );
+  }
+  const nRes = Math.max(nMin, c.nResolve);
+  if (c.nCap < nRes) {
+    reason += `; limited to ${c.nCap} samples by the length of the curve`;
+    warnings.push(`the automatic window was limited to ${c.nCap} samples by the curve's ${input.biasV.length} points (peaks call for ${nRes}).`);
+  }
+  const target = `the noise target σ_G ≤ ${fmt(D.noiseTargetFraction * 100)} % of the mean conductance (${fmt(c.targetS)} S)`;
+  if (c.noiseTargetMet) {
+    return { windowSamples: c.windowSamples, automatic: true, reason: `automatic: ${reason}; ${target} is met at ${c.windowSamples} samples (σ_G = ${fmt(c.sigmaGS)} S).`, warnings };
+  }
+  reason += `; ${target} is not met below that (σ_G = ${fmt(c.sigmaGS)} S at ${c.nCap} samples), so the largest window is used`;
+  return { windowSamples: c.windowSamples, automatic: true, reason: `automatic: ${reason}.`, warnings };
+}
+
+/** The numbers of a window choice ({@link chooseWindow}), from which the words are made. */
+interface WindowNumbers {
+  windowSamples: number;
+  /** Whether windowMV was given (the rest is then unused). */
+  given: boolean;
+  stepMV: number;
+  nMin: number;
+  /** The largest window that resolves the peaks, before the minimum (samples). */
+  nResolve: number;
+  /** That window within the minimum and the curve's length (samples). */
+  nCap: number;
+  /** The noise target, S. */
+  targetS: number;
+  /** Whether a window up to nCap meets it. */
+  noiseTargetMet: boolean;
+  /** The dI/dV noise at the chosen window, S. */
+  sigmaGS: number;
+}
+
+/**
+ * The window in samples that {@link savitzkyGolayWindow} chooses, without the words of its
+ * reason and warnings: for passes that use the number alone (the pipeline's first pass). Throws
+ * as savitzkyGolayWindow does.
+ */
+export function savitzkyGolayWindowSamples(input: WindowInput, windowMV: number | "auto", order: number, peakWidthMV: number): number {
+  return chooseWindow(input, windowMV, order, peakWidthMV).windowSamples;
+}
+
+/** The choice of {@link savitzkyGolayWindow} (its notes), as numbers. */
+function chooseWindow(input: WindowInput, windowMV: number | "auto", order: number, peakWidthMV: number): WindowNumbers {
   const { biasV, stepV } = input;
   const n = biasV.length;
   const nMin = minimumWindowSamples(order);
   if (n < nMin) tooFewPoints(n, nMin, order, `the smallest Savitzky–Golay window of ${nMin} samples`);
   const stepMV = stepV * 1e3;
-  const warnings: string[] = [];
+  const none = { nResolve: 0, nCap: 0, targetS: 0, noiseTargetMet: false, sigmaGS: 0 };
   if (windowMV !== "auto") {
     const windowSamples = 2 * Math.round((windowMV / stepMV - 1) / 2) + 1;
     if (windowSamples < nMin) {
@@ -134,26 +192,15 @@ export function savitzkyGolayWindow(input: WindowInput, windowMV: number | "auto
       );
     }
     if (windowSamples > n) tooFewPoints(n, windowSamples, order, `windowMV = ${windowMV} (${windowSamples} samples at ${fmt(stepMV)} mV per step)`);
-    return { windowSamples, automatic: false, reason: `given: windowMV = ${windowMV} → ${windowSamples} samples at ${fmt(stepMV)} mV per step.`, warnings };
+    return { windowSamples, given: true, stepMV, nMin, ...none };
   }
   const D = SAVITZKY_GOLAY_WINDOW_DEFAULTS;
   const fp = D.windowFraction[order];
-  // 1. The largest window that resolves peaks of peakWidthMV.
-  let nRes = oddFloor((fp * peakWidthMV) / stepMV);
-  let reason = `peaks of ${fmt(peakWidthMV)} mV FWHM allow at most f_${order}·W = ${fmt(fp)} × ${fmt(peakWidthMV)} mV = ${fmt(fp * peakWidthMV)} mV → ${nRes} samples at ${fmt(stepMV)} mV per step`;
-  if (nRes < nMin) {
-    nRes = nMin;
-    reason += `; raised to the minimum of ${nMin} samples`;
-    warnings.push(
-      `peakWidthMV ${fmt(peakWidthMV)} spans only ${fmt(peakWidthMV / stepMV)} bias steps: the smallest window (${nMin} samples = ${fmt(nMin * stepMV)} mV) is wider than ${fmt(fp)} × peakWidthMV, so peaks that narrow lose more than 5 % of their height. Record with a finer bias step or use order ${Math.min(5, order + 2)}.`,
-    );
-  }
+  // 1. The largest window that resolves peaks of peakWidthMV, at least the minimum.
+  const nResolve = oddFloor((fp * peakWidthMV) / stepMV);
+  const nRes = Math.max(nMin, nResolve);
   // 2. No wider than the curve.
   const nCap = Math.min(nRes, oddFloor(n));
-  if (nCap < nRes) {
-    reason += `; limited to ${nCap} samples by the length of the curve`;
-    warnings.push(`the automatic window was limited to ${nCap} samples by the curve's ${n} points (peaks call for ${nRes}).`);
-  }
   // 3. The smallest window that meets the noise target, if one does.
   let iMin = Infinity;
   let iMax = -Infinity;
@@ -162,14 +209,10 @@ export function savitzkyGolayWindow(input: WindowInput, windowMV: number | "auto
     if (input.currentA[i] > iMax) iMax = input.currentA[i];
   }
   const targetS = (D.noiseTargetFraction * (iMax - iMin)) / (biasV[n - 1] - biasV[0]);
-  const target = `the noise target σ_G ≤ ${fmt(D.noiseTargetFraction * 100)} % of the mean conductance (${fmt(targetS)} S)`;
   for (let w = nMin; w <= nCap; w += 2) {
-    const sigmaG = (input.noiseCurrentA * noiseGainUnchecked(w, order, 1)) / stepV;
-    if (sigmaG <= targetS) {
-      return { windowSamples: w, automatic: true, reason: `automatic: ${reason}; ${target} is met at ${w} samples (σ_G = ${fmt(sigmaG)} S).`, warnings };
-    }
+    const sigmaGS = (input.noiseCurrentA * noiseGainUnchecked(w, order, 1)) / stepV;
+    if (sigmaGS <= targetS) return { windowSamples: w, given: false, stepMV, nMin, nResolve, nCap, targetS, noiseTargetMet: true, sigmaGS };
   }
-  const sigmaG = (input.noiseCurrentA * noiseGainUnchecked(nCap, order, 1)) / stepV;
-  reason += `; ${target} is not met below that (σ_G = ${fmt(sigmaG)} S at ${nCap} samples), so the largest window is used`;
-  return { windowSamples: nCap, automatic: true, reason: `automatic: ${reason}.`, warnings };
+  const sigmaGS = (input.noiseCurrentA * noiseGainUnchecked(nCap, order, 1)) / stepV;
+  return { windowSamples: nCap, given: false, stepMV, nMin, nResolve, nCap, targetS, noiseTargetMet: false, sigmaGS };
 }
