@@ -29,9 +29,9 @@ export const EDGE_STEP_WIDTH_DEFAULTS = Object.freeze({
   /** Fewer points than this in the range give null. */
   minPoints: 5,
   /** Log-spaced trial widths between the bounds (note 1). */
-  trialCount: 16,
-  /** Brent's search after the trials stops within this of the best ln s (a relative 1e-5 in the width; note 1). */
-  logWidthTolerance: 1e-5,
+  trialCount: 10,
+  /** Brent's search after the trials stops within this of the best ln s (a relative 1e-4 in the width, far below the width's own error; note 1). */
+  logWidthTolerance: 1e-4,
   /** Most evaluations of that search (note 1). */
   refineEvaluations: 40,
 });
@@ -62,9 +62,10 @@ export const EDGE_STEP_WIDTH_DEFAULTS = Object.freeze({
  * Notes
  * -----
  * 1. Model I(V) = a + c·Φ((V − V₀)/s) on the given range; for each trial s the best a and c
- *    follow linearly, so only s is searched: 16 log-spaced trials between the bounds, then
+ *    follow linearly, so only s is searched: 10 log-spaced trials between the bounds (a factor
+ *    1.63 apart over the default 5–400 mV), then
  *    Brent's method (parabolic interpolation, golden-section steps where it is not to be
- *    trusted) in ln s between the best trial's neighbours, to 1e-5 ({@link brentMinimize}).
+ *    trusted) in ln s between the best trial's neighbours, to 1e-4 ({@link brentMinimize}).
  * 2. Returns FWHM = 2√(2 ln 2)·s, or null when the range holds fewer than 5 points or the
  *    fitted step is not positive.
  * Measured on the unsmoothed current, the width carries no smoothing bias. The constants are in

@@ -41,6 +41,6 @@ describe("PEAK_AREAS_DEFAULTS and EDGE_STEP_WIDTH_DEFAULTS", () => {
     expect({ ...PEAK_AREAS_DEFAULTS }).toEqual({ marginSigma: 3, basisReachSigma: 6 });
     // Common practice (no source): FWHM bounds 5–400 mV cover dI/dV peaks of dots at 4.5 K;
     // 16 log-spaced trials, then 20 golden-section steps (interval × 0.618^20 ≈ 6.6e−5).
-    expect({ ...EDGE_STEP_WIDTH_DEFAULTS }).toEqual({ boundsV: [0.005, 0.4], sign: 1, minPoints: 5, trialCount: 16, logWidthTolerance: 1e-5, refineEvaluations: 40 });
+    expect({ ...EDGE_STEP_WIDTH_DEFAULTS }).toEqual({ boundsV: [0.005, 0.4], sign: 1, minPoints: 5, trialCount: 10, logWidthTolerance: 1e-4, refineEvaluations: 40 });
   });
 });
