@@ -202,7 +202,7 @@ export function runExamples(functions: readonly ApiExport[]): ExampleResult[] {
       if (!code) continue;
       const statements = exampleStatements(code);
       const own = ownNames(statements);
-      const used = values.filter((v) => !own.has(v) && new RegExp(`(^|[^\\w$.])${v.replace(/\$/g, "\\$")}\\b`).test(code));
+      const used = values.filter((v) => !own.has(v) && new RegExp(`(^|[^\\w$.]|\\.\\.\\.)${v.replace(/\$/g, "\\$")}\\b`).test(code));
       const body = statements.map((s, k) => instrument(s, k)).join("\n");
       const js = transformSync(body, { loader: "ts", format: "esm", target: "es2022" }).code;
       const file = join(dir, `example-${n}-${f.name}.mjs`);

@@ -43,7 +43,7 @@ export const GRID_NOISE_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * gridCurrentNoise(cube); // => 2.0e-13 for a cube with 0.2 pA white noise
+ * gridCurrentNoise(readGridFile("sample-curves/grid/dot-grid.npy").cube); // => 5.02e-14 (A: the demo grid's white noise)
  * ```
  */
 export function gridCurrentNoise(cube: GridCube, options: GridCurrentNoiseOptions = {}): number {

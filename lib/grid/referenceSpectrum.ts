@@ -24,8 +24,9 @@ export type ReferenceSelection = "mean" | { pixel: [number, number] } | { centre
  * Example
  * -------
  * ```ts
- * referenceMask(cube, { centreNM: [0, 0], radiusNM: 1.5 }); // => Uint8Array, 1 for the pixels within 1.5 nm
- * referenceMask(cube, "mean");                               // => null (every pixel)
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
+ * referenceMask(cube, { centreNM: [0, 0], radiusNM: 1.5 })!.reduce((n, v) => n + v, 0); // => 80 (pixels within 1.5 nm)
+ * referenceMask(cube, "mean"); // => null (every pixel)
  * ```
  */
 export function referenceMask(cube: GridCube, selection: ReferenceSelection): Uint8Array | null {
@@ -72,8 +73,9 @@ export function referenceMask(cube: GridCube, selection: ReferenceSelection): Ui
  * Example
  * -------
  * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
  * const sums = runPixelPass(cube, { kind: "spectrumSum", mask: null }, 0, pixelCount(cube));
- * referenceCurve(cube, sums, "mean").meta.source; // => "dot.npy (reference: mean of 256 pixels)"
+ * referenceCurve(cube, sums, "mean").meta.source; // => "sample-curves/grid/dot-grid.npy (reference: mean of 576 pixels)"
  * ```
  */
 export function referenceCurve(cube: GridCube, sums: Float64Array, selection: ReferenceSelection): Curve {

@@ -23,8 +23,10 @@ const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
  *
  * Example
  * -------
+ * ```ts
  * escapeFormulaCell("=HYPERLINK(\"x\")"); // => "'=HYPERLINK(\"x\")"
  * escapeFormulaCell("-0.5");              // => "-0.5"
+ * ```
  */
 export function escapeFormulaCell(value: CellValue): CellValue {
   if (typeof value !== "string" || !FORMULA_START.test(value) || PLAIN_NUMBER.test(value)) return value;
@@ -60,8 +62,10 @@ export const CURVE_CSV_DIGITS = 10;
  *
  * Example
  * -------
+ * ```ts
  * formatCsv([{ file: "a,b.csv", gapV: 0.1 + 0.2, ec: null }]);
  * // => 'file,gapV,ec\n"a,b.csv",0.30000000000000004,\n'
+ * ```
  */
 export function formatCsv(rows: readonly Record<string, CellValue>[], columns?: readonly string[]): string {
   if (!Array.isArray(rows)) {
@@ -121,8 +125,10 @@ export interface CurveColumns {
  *
  * Example
  * -------
+ * ```ts
  * formatCurveCsv({ biasV: [-0.1, 0.1], currentA: [-2e-12, 2.0000000001234e-12] });
  * // => "bias (V),current (A)\n-0.1,-2e-12\n0.1,2e-12\n"
+ * ```
  */
 export function formatCurveCsv(curve: CurveColumns, options: FormatCurveCsvOptions = {}): string {
   const { biasV, currentA } = curve;

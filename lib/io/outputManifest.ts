@@ -47,7 +47,9 @@ function filesUnder(dir: string): string[] {
  *
  * Example
  * -------
+ * ```ts
  * readOutputManifest("report"); // => { tool: "dotspec", version: "0.1.0", files: { "dot-01.json": "9c…" } }
+ * ```
  */
 export function readOutputManifest(dir: string): OutputManifest | null {
   const path = join(dir, OUTPUT_MANIFEST_NAME);
@@ -89,7 +91,9 @@ export function readOutputManifest(dir: string): OutputManifest | null {
  *
  * Example
  * -------
+ * ```ts
  * checkOutputFolder("report"); // => { foreign: ["notes.txt"], changed: [] }
+ * ```
  */
 export function checkOutputFolder(dir: string): OutputFolderCheck {
   if (!existsSync(dir)) return { foreign: [], changed: [] };
@@ -152,7 +156,9 @@ export function checkOutputFolder(dir: string): OutputFolderCheck {
  *
  * Example
  * -------
+ * ```ts
  * writeOutputManifest("report", ["dot-01.json", "summary.csv"], true);
+ * ```
  */
 export function writeOutputManifest(dir: string, files: readonly string[], written: boolean): void {
   const entries: Record<string, string | null> = { ...(readOutputManifest(dir)?.files ?? {}) };

@@ -97,7 +97,9 @@ export function isNpyGridName(name: string): boolean {
  * Example
  * -------
  * ```ts
- * const r = parseGridBytes(new Uint8Array(await file.arrayBuffer()), { source: file.name, sidecarText: await sidecar.text() });
+ * import { readFileSync } from "node:fs";
+ * const bytes = new Uint8Array(readFileSync("sample-curves/grid/dot-grid.npy"));
+ * const r = parseGridBytes(bytes, { source: "dot-grid.npy", sidecarText: readFileSync("sample-curves/grid/dot-grid.json", "utf8") });
  * r.layout; // => "npy"
  * ```
  */

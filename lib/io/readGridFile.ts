@@ -43,7 +43,7 @@ export interface ReadGridFileOptions {
  * Example
  * -------
  * ```ts
- * readGridFile("dot.npy").cube.xNM; // the axes from dot.json
+ * readGridFile("sample-curves/grid/dot-grid.npy").cube.xNM; // => { start: -3.45, step: 0.3, count: 24 } (from dot-grid.json)
  * ```
  */
 export function readGridFile(path: string, options: ReadGridFileOptions = {}): GridFileResult {
@@ -73,7 +73,7 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
  * Example
  * -------
  * ```ts
- * fileBytes("dot.npy"); // => 33554560
+ * fileBytes("sample-curves/grid/dot-grid.npy"); // => 555392
  * ```
  */
 export function fileBytes(path: string): number {

@@ -109,9 +109,11 @@ function clean(text: string): string {
  *
  * Example
  * -------
+ * ```ts
  * findUnit("pA");  // => {unit: "pA", quantity: "current", scale: 1e-12, exponent: -12, caseFolded: false}
  * findUnit("mv", "bias")?.unit;  // => "mV" (caseFolded: true)
  * findUnit("kV");  // => null
+ * ```
  */
 export function findUnit(text: string, quantity?: Quantity): UnitInfo | null {
   const t = clean(text);
@@ -149,8 +151,10 @@ export function findUnit(text: string, quantity?: Quantity): UnitInfo | null {
  *
  * Example
  * -------
+ * ```ts
  * parseUnit("nA").scale;  // => 1e-9
  * parseUnit("kV", "bias");  // throws: unit "kV" is not a bias unit; use one of V, mV, µV, μV, uV
+ * ```
  */
 export function parseUnit(text: string, quantity?: Quantity, where = "unit"): UnitInfo {
   const found = findUnit(text, quantity);
@@ -174,7 +178,9 @@ export function parseUnit(text: string, quantity?: Quantity, where = "unit"): Un
  *
  * Example
  * -------
+ * ```ts
  * toSI(1.25, parseUnit("mV"));  // => 0.00125
+ * ```
  */
 export function toSI(value: number, unit: Pick<UnitInfo, "exponent">): number {
   switch (unit.exponent) {

@@ -22,8 +22,9 @@ export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureO
  * Example
  * -------
  * ```ts
+ * const grid = analyzeGrid(readGridFile("sample-curves/grid/dot-grid.npy").cube, { eta: 0.8 });
  * const draw = await loadGridMapFigure();
- * const svg = draw(grid.maps[0]);
+ * draw(grid.maps[0]).startsWith("<svg"); // => true
  * ```
  */
 export async function loadGridMapFigure(document?: Document): Promise<GridMapFigureRenderer> {

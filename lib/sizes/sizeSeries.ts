@@ -135,9 +135,16 @@ export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; s
  *
  * Example
  * -------
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s01-2.csv", "qd-7-s05-1.csv", "qd-7-s05-2.csv"].map((file, i) => ({
+ *   file, dot: i < 2 ? "QD-7-S01" : "QD-7-S05", radiusNM: i < 2 ? 1.5 : 2,
+ *   values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: i < 2 ? 0.86 : 0.87 })),
+ * }));
  * const series = sizeSeries(curves, { material: resolveMaterial("InP") });
  * series.dots.map((d) => [d.dot, d.radiusNM, d.energies.gapEV?.mean]);
- * // => [["QD-7-S01", 1.5, 2.949], ["QD-7-S02", 1.62, 2.792], …]  (the demo series)
+ * // => [["QD-7-S01", 1.5, 2.949…], ["QD-7-S05", 2, 2.430…]] (part of the invented demo series)
+ * series.dots[0].energies.gapEV!.mean; // => 2.9492
+ * ```
  */
 export function sizeSeries(curves: readonly SeriesCurveInput[], options: SizeSeriesOptions = {}): SizeSeries {
   checkKnownKeys("sizeSeries options", options, Object.keys(SIZE_SERIES_DEFAULTS));

@@ -41,8 +41,10 @@ export function isDotspecError(err: unknown): err is DotspecError {
  *
  * Example
  * -------
+ * ```ts
  * failureReason("a.csv", new DotspecError("io/binary", "a.csv: the file holds NUL bytes, …"));
  * // => "the file holds NUL bytes, …"
+ * ```
  */
 export function failureReason(source: string, err: unknown): string {
   if (isDotspecError(err)) {
