@@ -86,6 +86,19 @@ const KEYS = ["eta", "reference", "analyze", "floorSigma", "profileBinNM", "atV"
  * expects its combined result back, so the passes can run in this thread or on worker threads
  * (the `dotspec grid` command) with one composition.
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube, as {@link analyzeGrid} takes it.
+ * options : AnalyzeGridOptions, optional
+ *     As for {@link analyzeGrid}.
+ *
+ * Returns
+ * -------
+ * Generator<PixelPass, GridAnalysis, Float64Array>
+ *     Yields each pass over the pixels; takes its combined result ({@link combinePixelPass}) back
+ *     through `next`; returns the grid's analysis.
+ *
  * Example
  * -------
  * ```ts

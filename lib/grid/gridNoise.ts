@@ -62,6 +62,18 @@ export function gridCurrentNoise(cube: GridCube, options: GridCurrentNoiseOption
 /**
  * σ of a map value for white current noise σ_I: σ_I·√(Σ w²) (exact for independent samples).
  *
+ * Parameters
+ * ----------
+ * functional : PixelFunctional
+ *     A map's weights over the bias samples.
+ * sigmaA : number
+ *     White-noise σ of the current per sample, A.
+ *
+ * Returns
+ * -------
+ * number
+ *     σ of the map value, in the map's unit.
+ *
  * Example
  * -------
  * ```ts

@@ -15,6 +15,19 @@ export type ReferenceSelection = "mean" | { pixel: [number, number] } | { centre
 /**
  * The pixel mask of a reference selection (1 = in), or null for every pixel.
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube (its spatial axes).
+ * selection : ReferenceSelection
+ *     "mean" (every pixel), `{ pixel: [ix, iy] }` (one pixel) or `{ centreNM: [x, y], radiusNM }`
+ *     (the pixels within a disc; nm).
+ *
+ * Returns
+ * -------
+ * Uint8Array | null
+ *     One byte per pixel (1 = in the reference), or null for every pixel.
+ *
  * Throws
  * ------
  * DotspecError
@@ -60,11 +73,19 @@ export function referenceMask(cube: GridCube, selection: ReferenceSelection): Ui
  * The reference curve from a spectrum sum ({@link runPixelPass} "spectrumSum": nbias sums, then
  * the pixel count).
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube the sums came from (its bias axis and source).
+ * sums : Float64Array
+ *     A "spectrumSum" pass's result: nbias current sums (A), then the pixel count.
+ * selection : ReferenceSelection
+ *     The selection the sums were taken over (named in the curve's source).
+ *
  * Returns
  * -------
  * Curve
- *     Bias from the cube's axis, the mean current (one sweep), no measured dI/dV; source
- *     `"<cube source> (reference: …)"`.
+ *     The mean current spectrum of the selected pixels, as a curve for {@link analyzeCurve}.
  *
  * Throws
  * ------

@@ -154,10 +154,19 @@ export function forEachFileLine(path: string, encoding: FileEncoding, visit: (li
  * Runs a reading pass over a file in the encoding its start announces, once more as
  * Windows-1252 when it turns out not to be valid UTF-8.
  *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file to read.
+ * pass : (encoding: FileEncoding) => void
+ *     The reading pass; called once with the announced encoding, and once more with
+ *     "windows-1252" when that pass throws `io/not-utf8`.
+ *
  * Returns
  * -------
- * { encoding, warning }
- *     The encoding the pass succeeded with, and the warning to record when it is Windows-1252.
+ * { encoding: FileEncoding; warning: string | null }
+ *     The encoding the last pass ran in, and a warning when it fell back to Windows-1252 (null
+ *     otherwise).
  *
  * Example
  * -------

@@ -21,6 +21,17 @@ const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
  * injection advises: a single quote is put in front. Numbers, and text that is a plain decimal
  * number, are left as they are.
  *
+ * Parameters
+ * ----------
+ * value : CellValue
+ *     One cell.
+ *
+ * Returns
+ * -------
+ * CellValue
+ *     The cell, with a leading `'` when it is text that starts with =, +, -, @, a tab or a
+ *     carriage return and is not a plain decimal number.
+ *
  * Example
  * -------
  * ```ts

@@ -18,6 +18,16 @@ export interface InputDigest {
 /**
  * SHA-256 of a text or bytes, as 64 lowercase hex digits (FIPS 180-4, through node:crypto).
  *
+ * Parameters
+ * ----------
+ * data : string | Uint8Array
+ *     The text (hashed as UTF-8) or the bytes.
+ *
+ * Returns
+ * -------
+ * string
+ *     The digest, 64 lowercase hex digits.
+ *
  * Example
  * -------
  * ```ts

@@ -45,6 +45,16 @@ function filesUnder(dir: string): string[] {
 /**
  * The manifest of a folder, or null when it has none (or an unreadable one).
  *
+ * Parameters
+ * ----------
+ * dir : string
+ *     The output folder.
+ *
+ * Returns
+ * -------
+ * OutputManifest | null
+ *     Its manifest, or null when it has none or an unreadable one.
+ *
  * Example
  * -------
  * ```ts

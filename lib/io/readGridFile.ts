@@ -70,6 +70,16 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
 /**
  * Size of a file in bytes; NaN when it cannot be read (the reader then says why).
  *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file.
+ *
+ * Returns
+ * -------
+ * number
+ *     Its size in bytes; NaN when it cannot be read.
+ *
  * Example
  * -------
  * ```ts

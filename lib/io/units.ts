@@ -176,6 +176,18 @@ export function parseUnit(text: string, quantity?: Quantity, where = "unit"): Un
  * Divides by the exact power of ten 10^−exponent rather than multiplying by the inexact scale:
  * one correctly rounded operation, so that `1.25` mV becomes exactly the double nearest to 0.00125.
  *
+ * Parameters
+ * ----------
+ * value : number
+ *     The value in the unit.
+ * unit : Pick<UnitInfo, "exponent">
+ *     The unit (its power of ten), e.g. from {@link parseUnit}.
+ *
+ * Returns
+ * -------
+ * number
+ *     The value in V, A or S.
+ *
  * Example
  * -------
  * ```ts

@@ -123,6 +123,17 @@ export const GRID_PROFILE_COLUMNS = Object.freeze(["map", "unit", "radius_nm", "
  * The radial profiles of every map as rows for one CSV (`profiles.csv`): map label, map unit, ring
  * centre radius (nm), mean of the thresholded map in the ring, pixels in the ring.
  *
+ * Parameters
+ * ----------
+ * grid : GridAnalysis
+ *     A grid's analysis ({@link analyzeGrid}).
+ *
+ * Returns
+ * -------
+ * Record<string, string | number>[]
+ *     One row per map and ring, keys as {@link GRID_PROFILE_COLUMNS}: `map`, `unit`, `radius_nm`,
+ *     `mean`, `pixels`.
+ *
  * Example
  * -------
  * ```ts

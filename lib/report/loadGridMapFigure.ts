@@ -16,8 +16,12 @@ export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureO
  * Parameters
  * ----------
  * document : Document, optional
- *     The DOM document to draw in. Default: `globalThis.document` in a browser; in Node a jsdom
- *     document whose canvas elements encode PNG (jsdom has no canvas of its own).
+ *     The document to draw in; default a jsdom document (Node) or the page's (browser).
+ *
+ * Returns
+ * -------
+ * Promise<GridMapFigureRenderer>
+ *     The figure function: a map (and its options) in, an SVG string out.
  *
  * Example
  * -------

@@ -57,6 +57,16 @@ export type ModelSummaryColumn = (typeof MODEL_SUMMARY_COLUMNS)[number];
  * {@link MODEL_SUMMARY_COLUMNS} when some row has a model comparison, then every `meta_<key>`
  * column that some row has, in order of first appearance.
  *
+ * Parameters
+ * ----------
+ * rows : readonly SummaryRow[]
+ *     The table's rows ({@link summaryRow}, {@link failedSummaryRow}).
+ *
+ * Returns
+ * -------
+ * string[]
+ *     The column names, in table order.
+ *
  * Example
  * -------
  * ```ts
@@ -98,11 +108,16 @@ function metadataCells(metadata: Readonly<Record<string, string>> | undefined): 
  * Parameters
  * ----------
  * source : string
- *     The input as given.
+ *     The input's name (file or path).
  * reason : string
- *     The one-line reason (as printed after `dotspec: FILE: `).
+ *     Why it failed, in one line (e.g. {@link failureReason}).
  * provenance : Provenance | null, optional
- *     Version, options and, when the file could be read, its size and SHA-256.
+ *     The run's provenance for the row's columns; default null.
+ *
+ * Returns
+ * -------
+ * SummaryRow
+ *     The row: status "failed", the reason, every quantity null.
  *
  * Example
  * -------

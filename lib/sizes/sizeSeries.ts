@@ -91,7 +91,31 @@ export interface SizeSeries {
   warnings: string[];
 }
 
-/** The energy of a dot for one series quantity (mean and SE), or null. */
+/**
+ * The energy of a dot for one series quantity (mean and SE), or null.
+ *
+ * Parameters
+ * ----------
+ * dot : SeriesDot
+ *     One dot of a series ({@link sizeSeries}).
+ * q : SizeQuantity
+ *     The quantity, e.g. "gapEV" or "chargingEnergyEV" ({@link SIZE_QUANTITIES}).
+ *
+ * Returns
+ * -------
+ * { value: number; sigma: number | null } | null
+ *     The dot's mean (eV) and its standard error (null from a single curve), or null when no curve
+ *     of the dot gives the quantity.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s01-2.csv"].map((file) => ({
+ *   file, dot: "QD-7-S01", radiusNM: 1.5, values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
+ * }));
+ * dotQuantity(sizeSeries(curves).dots[0], "gapEV")?.value; // => 2.9492 (eV)
+ * ```
+ */
 export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; sigma: number | null } | null {
   const e = dot.energies;
   const c = q === "valenceSpacing1EV" ? (e.valenceSpacingsEV[0] ?? null) : e[q as Exclude<SizeQuantity, "valenceSpacing1EV">];
