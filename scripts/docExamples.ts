@@ -17,10 +17,11 @@
  *    `// throws …` comment says the statement throws: it is run inside a function and must throw.
  * 4. Type annotations are removed (esbuild), the public names the code uses are imported from
  *    dist/index.js, and the module is imported by a runner in a child Node process whose working
- *    directory is the repository root (so `sample-curves/…` paths work).
+ *    directory is the repository root (so `sample-curves/…` paths work) and whose os.tmpdir() is
+ *    a scratch folder removed after the run.
  */
 import { execFileSync } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
@@ -212,7 +213,15 @@ export function runExamples(functions: readonly ApiExport[]): ExampleResult[] {
       parsed.set(f.name, { code, statements });
     }
     const out = join(dir, "results.json");
-    execFileSync(process.execPath, [join(dir, "runner.mjs"), JSON.stringify(jobs), out], { cwd: ROOT, stdio: ["ignore", "ignore", "inherit"], timeout: 300_000 });
+    const scratch = join(dir, "scratch");
+    mkdirSync(scratch);
+    execFileSync(process.execPath, [join(dir, "runner.mjs"), JSON.stringify(jobs), out], {
+      cwd: ROOT,
+      // Scratch files of the examples (os.tmpdir()) land in this run's folder, removed below.
+      env: { ...process.env, TMPDIR: scratch, TMP: scratch, TEMP: scratch },
+      stdio: ["ignore", "ignore", "inherit"],
+      timeout: 300_000,
+    });
     const raw = JSON.parse(readFileSync(out, "utf8")) as {
       name: string;
       error: string | null;

@@ -99,6 +99,13 @@ const KEYS = ["eta", "reference", "analyze", "floorSigma", "profileBinNM", "atV"
  *     Yields each pass over the pixels; takes its combined result ({@link combinePixelPass}) back
  *     through `next`; returns the grid's analysis.
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `grid/bad-axis`, `grid/bad-shape` or `grid/bad-dtype` ({@link checkGridCube}) for an
+ *     inconsistent cube, `options/unknown-key` for an unknown option, `options/negative` for a
+ *     negative floorSigma, and the codes of {@link analyzeCurve} for the reference curve.
+ *
  * Example
  * -------
  * ```ts

@@ -24,7 +24,8 @@ import type { GridFilter } from "./mapFunctional.ts";
  *
  * Throws
  * ------
- * DotspecError as {@link checkGridCube} and the Savitzky–Golay filter (`signal/invalid-window`, …).
+ * DotspecError
+ *     The codes of {@link checkGridCube} and of the Savitzky–Golay filter (`signal/invalid-window`, …).
  *
  * Notes
  * -----

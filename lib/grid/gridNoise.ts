@@ -33,6 +33,11 @@ export const GRID_NOISE_DEFAULTS = Object.freeze({
  * number
  *     σ_I in amperes (0 for a noise-free cube).
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for a samplePixels that is not a positive integer.
+ *
  * Notes
  * -----
  * 1. Pick up to samplePixels pixels at even strides of the pixel index.

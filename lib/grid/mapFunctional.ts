@@ -131,6 +131,12 @@ function windowStart(i: number, n: number, w: number, half: number): number {
  * [number, number]
  *     The first and last bias index within the range (inclusive).
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `grid/empty-range` when the range is not finite or lies outside the bias axis (by more than
+ *     half a step).
+ *
  * Example
  * -------
  * ```ts

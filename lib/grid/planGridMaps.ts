@@ -69,7 +69,8 @@ export const GRID_MAP_DEFAULTS = Object.freeze({
  *
  * Throws
  * ------
- * DotspecError `options/…` for a bad bias or window; `grid/empty-range` for a bias outside the axis.
+ * DotspecError
+ *     `options/…` for a bad bias or window; `grid/empty-range` for a bias outside the axis.
  *
  * Notes
  * -----

@@ -89,7 +89,8 @@ export function referenceMask(cube: GridCube, selection: ReferenceSelection): Ui
  *
  * Throws
  * ------
- * DotspecError `grid/bad-reference` when no pixel was summed.
+ * DotspecError
+ *     `grid/bad-reference` when no pixel was summed.
  *
  * Example
  * -------

@@ -67,6 +67,11 @@ export const CURVE_CSV_DIGITS = 10;
  *     Text that a spreadsheet would run as a formula (starting with `=`, `+`, `-`, `@`, tab or
  *     CR, and not a plain number) gets a leading single quote ({@link escapeFormulaCell}).
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/not-rows` when `rows` is not a list.
+ *
  * References
  * ----------
  * OWASP Foundation, "CSV Injection", https://owasp.org/www-community/attacks/CSV_Injection.

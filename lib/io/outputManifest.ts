@@ -58,7 +58,14 @@ function filesUnder(dir: string): string[] {
  * Example
  * -------
  * ```ts
- * readOutputManifest("report"); // => { tool: "dotspec", version: "0.1.0", files: { "dot-01.json": "9c…" } }
+ * import { mkdtempSync, writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const dir = mkdtempSync(join(tmpdir(), "dotspec-example-"));
+ * writeFileSync(join(dir, "dot-01.json"), "{}");
+ * writeOutputManifest(dir, ["dot-01.json"], true);
+ * readOutputManifest(dir);
+ * // => { tool: "dotspec", version: "0.1.0", files: { "dot-01.json": "44136fa355b3678a1146ad16f7e8649e94fb4fc21fe77e8310c060f61caaff8a" } }
  * ```
  */
 export function readOutputManifest(dir: string): OutputManifest | null {
@@ -102,7 +109,14 @@ export function readOutputManifest(dir: string): OutputManifest | null {
  * Example
  * -------
  * ```ts
- * checkOutputFolder("report"); // => { foreign: ["notes.txt"], changed: [] }
+ * import { mkdtempSync, writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const dir = mkdtempSync(join(tmpdir(), "dotspec-example-"));
+ * writeFileSync(join(dir, "dot-01.json"), "{}");
+ * writeOutputManifest(dir, ["dot-01.json"], true);
+ * writeFileSync(join(dir, "notes.txt"), "mine");
+ * checkOutputFolder(dir); // => { foreign: ["notes.txt"], changed: [] }
  * ```
  */
 export function checkOutputFolder(dir: string): OutputFolderCheck {
@@ -167,7 +181,14 @@ export function checkOutputFolder(dir: string): OutputFolderCheck {
  * Example
  * -------
  * ```ts
- * writeOutputManifest("report", ["dot-01.json", "summary.csv"], true);
+ * import { mkdtempSync, writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const dir = mkdtempSync(join(tmpdir(), "dotspec-example-"));
+ * writeOutputManifest(dir, ["dot-01.json", "summary.csv"], false); // before the run's writes
+ * writeFileSync(join(dir, "dot-01.json"), "{}");
+ * writeOutputManifest(dir, ["dot-01.json", "summary.csv"], true); // after them
+ * Object.keys(readOutputManifest(dir)!.files); // => ["dot-01.json"] (summary.csv was not written)
  * ```
  */
 export function writeOutputManifest(dir: string, files: readonly string[], written: boolean): void {

@@ -40,8 +40,10 @@ export const PARSE_NPY_GRID_BYTES_DEFAULTS = Object.freeze({
  *     From {@link parseGridSidecar}.
  * fileBytes : number
  *     Size of the whole file, bytes.
- * source, sidecarSource : string
- *     Names for the messages.
+ * source : string
+ *     The NPY file's name, for the messages.
+ * sidecarSource : string
+ *     The sidecar's name, for the messages.
  *
  * Returns
  * -------
@@ -89,8 +91,10 @@ export function npyGridDataBytes(header: NpyHeader, sidecar: GridSidecar, fileBy
  * ----------
  * buffer : ArrayBuffer | SharedArrayBuffer
  *     Exactly the data bytes, owned by the cube from now on (changed in place).
- * header, sidecar : NpyHeader, GridSidecar
- *     As checked by {@link npyGridDataBytes}.
+ * header : NpyHeader
+ *     The file's header ({@link parseNpyHeader}), as checked by {@link npyGridDataBytes}.
+ * sidecar : GridSidecar
+ *     The axes and unit of the cube, as checked by {@link npyGridDataBytes}.
  * source : string
  *     The cube's source.
  *

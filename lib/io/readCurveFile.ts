@@ -192,9 +192,8 @@ function fsError(path: string, err: unknown): DotspecError {
  * Example
  * -------
  * ```ts
- * listCurveFiles(["sample-curves/dot-02.tsv", "sample-curves/grid"]);
- * // => ["sample-curves/dot-02.tsv", …] (the file, then the curve files found in the folder)
- * listCurveFiles(["sample-curves/dot-02.tsv", "sample-curves/series"]).length; // => 3
+ * listCurveFiles(["sample-curves/dot-02.tsv", "sample-curves/series/curves"]).slice(0, 3);
+ * // => ["sample-curves/dot-02.tsv", "sample-curves/series/curves/qd-7-s01-1.csv", "sample-curves/series/curves/qd-7-s01-2.csv"]
  * ```
  */
 export function listCurveFiles(paths: readonly string[]): string[] {

@@ -146,8 +146,8 @@ export function findUnit(text: string, quantity?: Quantity): UnitInfo | null {
  *
  * Throws
  * ------
- * DotspecError `io/unknown-unit`
- *     When the text is not an accepted unit (of that quantity); the message lists the accepted units.
+ * DotspecError
+ *     `io/unknown-unit` when the text is not an accepted unit (of that quantity); the message lists the accepted units.
  *
  * Example
  * -------

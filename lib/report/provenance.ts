@@ -64,6 +64,7 @@ function xmlText(s: string): string {
  * svg : string
  *     The figure, starting with its `<svg …>` element.
  * provenance : Provenance
+ *     The run's provenance ({@link makeProvenance}).
  *
  * Returns
  * -------

@@ -60,7 +60,7 @@ const BIN_KEYS = ["gapEV", "singleParticleGapEV", "chargingEnergyEV", "levelSpac
  *   file, dot: null, radiusNM: [1.5, 2][i], values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
  * }));
  * const t = sizeSeriesTables(sizeSeriesToJson(sizeSeries(curves)), curves);
- * formatCsv(t.dots.rows, t.dots.columns).split("\n")[0].slice(0, 60); // => "dot,radius_nm,curves,regime,regime_votes,gapV,gapV_se,gapEV,g"
+ * formatCsv(t.dots.rows, t.dots.columns).split("\n")[0].slice(0, 40); // => "dot,radius_nm,curves,regime,regime_votes"
  * ```
  */
 export function sizeSeriesTables(series: SizeSeriesJson, curves: readonly SeriesCurveInput[]): SizeSeriesTables {

@@ -32,6 +32,11 @@ const WAVELENGTH_RANGE_NM = [400, 680] as const;
  * number
  *     Diameter, nm.
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/out-of-range` for a wavelength outside 400–680 nm, the range of the sizing curve.
+ *
  * Example
  * -------
  * ```ts

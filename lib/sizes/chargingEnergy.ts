@@ -33,6 +33,11 @@ export const CHARGING_ENERGY_DEFAULTS = Object.freeze({ dielectricConstant: 1, o
  * number
  *     C in F.
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-positive` for a radius or dielectric constant ≤ 0.
+ *
  * Example
  * -------
  * ```ts
@@ -59,6 +64,12 @@ export function sphereCapacitanceF(radiusNM: number, dielectricConstant: number)
  * -------
  * number
  *     Ec, eV.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-positive` for a radius or dielectric constant ≤ 0, `options/not-finite` for an
+ *     offset that is not finite.
  *
  * Notes
  * -----

@@ -44,6 +44,11 @@ function seriesJ(l: number, x: number): number {
  * ValueAndSlope
  *     {value, slope}.
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for l outside 0…30, `options/not-finite` for an x that is not finite.
+ *
  * Notes
  * -----
  * 1. For x < max(1, l): the power series (absolutely convergent, no cancellation at small x).
@@ -104,6 +109,11 @@ function jl(l: number, x: number): number {
  * -------
  * ValueAndSlope
  *     {value, slope} of the scaled function.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for l outside 0…30, `options/not-positive` for x ≤ 0.
  *
  * Notes
  * -----
