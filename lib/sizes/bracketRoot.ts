@@ -32,7 +32,7 @@ export const BRACKET_ROOT_DEFAULTS = Object.freeze({
  * b : number
  *     The other end.
  * options : BracketRootOptions, optional
- *     Tolerances and the iteration cap.
+ *     Tolerances and the iteration cap; default {}: {@link BRACKET_ROOT_DEFAULTS}.
  *
  * Returns
  * -------

@@ -26,7 +26,7 @@ export const CHARGING_ENERGY_DEFAULTS = Object.freeze({ dielectricConstant: 1, o
  * radiusNM : number
  *     Radius, nm (> 0).
  * dielectricConstant : number
- *     Ε (> 0).
+ *     ε, the relative permittivity around the sphere (dimensionless, > 0).
  *
  * Returns
  * -------
@@ -58,7 +58,7 @@ export function sphereCapacitanceF(radiusNM: number, dielectricConstant: number)
  * radiusNM : number
  *     Radius R, nm (> 0).
  * options : ChargingEnergyOptions, optional
- *     Ε_eff and c₀ ({@link ChargingEnergyOptions}).
+ *     ε_eff and c₀ ({@link ChargingEnergyOptions}); default {}: each field at its documented default.
  *
  * Returns
  * -------

@@ -103,7 +103,8 @@ function mean(xs: number[]): number | null {
  * material : Material
  *     For the dielectric constant in J_eh.
  * options : PairOpticalOptions, optional
- *     Tolerance, VB levels, penalty ({@link PairOpticalOptions}).
+ *     Tolerance, VB levels, penalty ({@link PairOpticalOptions}); default {}: each field at its
+ *     documented default.
  *
  * Returns
  * -------

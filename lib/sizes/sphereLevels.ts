@@ -52,7 +52,8 @@ function kaneEnergyEV(kPerNM: number, massE: number, alpha: number): number {
  * massE : number
  *     Effective mass m* inside, in mₑ (> 0).
  * options : SphereLevelOptions, optional
- *     Level, wall and band options ({@link SphereLevelOptions}).
+ *     Level, wall and band options ({@link SphereLevelOptions}); default {}: the 1S level (n = 1,
+ *     l = 0) of an infinite wall with parabolic bands.
  *
  * Returns
  * -------

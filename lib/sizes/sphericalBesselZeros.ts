@@ -25,7 +25,7 @@ const cache = new Map<string, number>();
  * Returns
  * -------
  * number
- *     X_nl (dimensionless).
+ *     x_nl (dimensionless).
  *
  * Throws
  * ------
