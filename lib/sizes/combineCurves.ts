@@ -264,7 +264,7 @@ interface Column {
  * const dot = combineCurves([{ file: "qd-7-s01-1.csv", values: analysed("qd-7-s01-1.csv") }, { file: "qd-7-s01-2.csv", values: analysed("qd-7-s01-2.csv") }]);
  * dot.bias.gapV;
  * // => { mean: 3.42927…, standardError: 0.00088…, sd: 0.00045…, n: 2, files: ["qd-7-s01-1.csv", "qd-7-s01-2.csv"] }
- * dot.energies.gapEV!.mean; // => 2.9492 (eV: η·gapV per curve, then the mean)
+ * dot.energies.gapEV!.mean; // => 2.949 (eV: η·gapV per curve, then the mean)
  * ```
  */
 export function combineCurves(curves: readonly DotCurve[], options: CombineCurvesOptions = {}): DotCombination {

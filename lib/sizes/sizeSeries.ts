@@ -113,7 +113,7 @@ export interface SizeSeries {
  * const curves = ["qd-7-s01-1.csv", "qd-7-s01-2.csv"].map((file) => ({
  *   file, dot: "QD-7-S01", radiusNM: 1.5, values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
  * }));
- * dotQuantity(sizeSeries(curves).dots[0], "gapEV")?.value; // => 2.9492 (eV)
+ * dotQuantity(sizeSeries(curves).dots[0], "gapEV")?.value; // => 2.949 (eV)
  * ```
  */
 export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; sigma: number | null } | null {
@@ -167,7 +167,7 @@ export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; s
  * const series = sizeSeries(curves, { material: resolveMaterial("InP") });
  * series.dots.map((d) => [d.dot, d.radiusNM, d.energies.gapEV?.mean]);
  * // => [["QD-7-S01", 1.5, 2.949…], ["QD-7-S05", 2, 2.430…]] (part of the invented demo series)
- * series.dots[0].energies.gapEV!.mean; // => 2.9492
+ * series.dots[0].energies.gapEV!.mean; // => 2.949
  * ```
  */
 export function sizeSeries(curves: readonly SeriesCurveInput[], options: SizeSeriesOptions = {}): SizeSeries {
