@@ -233,3 +233,77 @@ export function undocumented(exports: readonly ApiExport[]): string[] {
 
 /** The dist folder of this repository. */
 export const DIST_DIR = join(dirname(fileURLToPath(import.meta.url)), "..", "dist");
+
+/** The parameter list and return type of one function declaration (`function f<T>(a: A): R;`). */
+export function functionParts(declaration: string): { parameters: string; returns: string } | null {
+  const m = /^function\s+[\w$]+\s*/.exec(declaration);
+  if (!m) return null;
+  let i = m[0].length;
+  if (declaration[i] === "<") {
+    for (let depth = 0; i < declaration.length; i++) {
+      if (declaration[i] === "<") depth++;
+      else if (declaration[i] === ">" && declaration[i - 1] !== "=" && --depth === 0) break;
+    }
+    i++;
+  }
+  if (declaration[i] !== "(") return null;
+  const open = i;
+  for (let depth = 0; i < declaration.length; i++) {
+    const c = declaration[i];
+    if (c === "(" || c === "{" || c === "[") depth++;
+    else if ((c === ")" || c === "}" || c === "]") && --depth === 0) break;
+  }
+  const rest = /^\)\s*:\s*([\s\S]*?);?\s*$/.exec(declaration.slice(i));
+  return { parameters: declaration.slice(open + 1, i).trim(), returns: rest ? rest[1].trim() : "" };
+}
+
+/** The old tag style that the house shape replaces. */
+const OLD_TAGS = /(^|\s)@(param|returns?|example|throws)\b/;
+
+/**
+ * What a public function's doc comment lacks of the house shape (DEVELOPERS.md, "Doc comments"):
+ * a "Parameters" section when a declaration takes parameters, "Returns" unless every overload
+ * returns void or Promise<void>, "Example" always, and none of the old `@param`/`@returns`/
+ * `@example`/`@throws` tags. Other kinds of export have no required sections.
+ *
+ * Parameters
+ * ----------
+ * e : ApiExport
+ *     One export, as {@link entryExports} gives it.
+ *
+ * Returns
+ * -------
+ * string[]
+ *     The problems (e.g. `no Returns section`); empty when the comment has the shape.
+ */
+export function docShapeProblems(e: ApiExport): string[] {
+  if (e.kind !== "function") return [];
+  const overloads = e.signature.split("\n").filter((line) => /^function\s/.test(line)).map(functionParts);
+  const parts = overloads.filter((p): p is { parameters: string; returns: string } => p !== null);
+  const problems: string[] = [];
+  const has = (title: string) => new RegExp(`(^|\\n)${title}\\n-{3,}\\n`).test(e.doc);
+  if (parts.some((p) => p.parameters.length > 0) && !has("Parameters")) problems.push("no Parameters section");
+  if (parts.some((p) => !/^(void|Promise<void>)$/.test(p.returns)) && !has("Returns")) problems.push("no Returns section");
+  if (!has("Examples?")) problems.push("no Example section");
+  else if (!/(^|\n)Examples?\n-{3,}\n[\s\S]*```ts\n/.test(e.doc)) problems.push("no ```ts block under Example");
+  if (OLD_TAGS.test(e.doc)) problems.push("old @param/@returns/@example/@throws tags");
+  return problems;
+}
+
+/**
+ * The code of a doc comment's first ```ts block under "Example" (or "Examples"), "" when none.
+ *
+ * Parameters
+ * ----------
+ * doc : string
+ *     A doc comment's text ({@link ApiExport}.doc).
+ *
+ * Returns
+ * -------
+ * string
+ *     The code between the fences, without them.
+ */
+export function exampleCode(doc: string): string {
+  const m = /(?:^|\n)Examples?\n-{3,}\n[\s\S]*?```ts\n([\s\S]*?)\n```/.exec(doc);
+  return m ? m[1] : "";
+}

@@ -136,6 +136,7 @@ export interface Assignment {
  *
  * Example
  * -------
+ * ```ts
  * // ε_s = 0.5 eV, ε_p = 0.8 eV, ε_v = −0.6 eV, Ec = 0.1 eV, η = 0.8: peaks at ±(|ε| + Ec(n + ½))/η.
  * const peak = (biasV: number): Peak => ({ biasV, biasUncertaintyV: 0.001, index: 0, heightS: 1e-9,
  *   prominenceS: 1e-9, fwhmV: 0.04, stepA: 1e-11, snr: 20, stepSignificance: 30 });
@@ -143,6 +144,7 @@ export interface Assignment {
  * a.regime;                                   // => "shell-filling"
  * a.multiplets.map((m) => m.peakIndices);     // => [[2, 3], [4, 5], [1, 0]]
  * a.energies.chargingEnergyEV;                // => 0.1
+ * ```
  */
 export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = {}): Assignment {
   const D = ASSIGN_DEFAULTS;

@@ -43,11 +43,13 @@ export interface BandPeak {
  *
  * Example
  * -------
+ * ```ts
  * const p = (biasV: number) => ({ biasV, biasUncertaintyV: 0.001, index: 0, heightS: 1e-9,
  *   prominenceS: 1e-9, fwhmV: 0.04, stepA: 1e-11, snr: 20, stepSignificance: 30 });
  * const { cb, vb } = bandPeaks([p(-0.9), p(-0.7), p(0.6)]);
  * cb.map((b) => b.index);  // => [2]
  * vb.map((b) => b.index);  // => [1, 0]
+ * ```
  */
 export function bandPeaks(peaks: readonly Peak[]): { cb: BandPeak[]; vb: BandPeak[] } {
   const all = peaks.map((peak, index) => ({ peak, index }));

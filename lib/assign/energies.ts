@@ -49,9 +49,11 @@ export interface SpectrumEnergies extends EnergyValues {
  *
  * Example
  * -------
+ * ```ts
  * const q = { gapV: 1.5, chargingEnergyV: 0.125, singleParticleGapV: 1.375, levelSpacingSPV: 0.375,
  *   levelSpacingPDV: null, valenceSpacingsV: [] };
  * spectrumEnergies(q, { ...q, gapV: 0.001 }, 0.8, true).chargingEnergyEV;  // => 0.1
+ * ```
  */
 export function spectrumEnergies(quantities: SpectrumQuantities, uncertainties: SpectrumUncertainties, eta: number, etaGiven: boolean): SpectrumEnergies {
   const q = quantities, u = uncertainties;

@@ -18,16 +18,38 @@ export const GAP_EDGES_DEFAULTS = Object.freeze({ thresholdSigma: 3, runSamples:
 /**
  * Edges of the zero-conductance region (the gap seen directly in dI/dV).
  *
- * Notes:
+ * Parameters
+ * ----------
+ * biasV : Float64Array
+ *     Ascending bias in V.
+ * didvS : Float64Array
+ *     Conductance in S.
+ * options : GapEdgesOptions
+ *     The conductance noise σ_G (S) and the edge rule: dI/dV above thresholdSigma σ_G (default 3)
+ *     for runSamples samples in a row (default 3).
+ *
+ * Returns
+ * -------
+ * [number, number] | null
+ *     [negative edge, positive edge] in V; an edge that runs to the end of the data is the last bias
+ *     point.
+ *
+ * Notes
+ * -----
  * 1. Start at the bias point nearest 0 V.
  * 2. Walk outward on each side until dI/dV exceeds thresholdSigma·σ_G for runSamples samples in a
  *    row; the edge is the first of those samples.
  * 3. Null when 0 V is outside the bias range, or dI/dV at 0 V is itself above the threshold
  *    (no gap: a metallic or charged dot).
  *
- * @param biasV - ascending bias in V.
- * @param didvS - conductance in S.
- * @returns [negative edge, positive edge] in V; an edge that runs to the end of the data is the last bias point.
+ * Example
+ * -------
+ * ```ts
+ * // An invented conductance: zero between −0.8 V and 1 V, rising outside.
+ * const biasV = Float64Array.from({ length: 401 }, (_, i) => -2 + i * 0.01);
+ * const didvS = biasV.map((v) => (v > 1 ? 1e-9 * (v - 1) : v < -0.8 ? 1e-9 * (-0.8 - v) : 0));
+ * gapEdges(biasV, didvS, { noiseS: 1e-12 }); // => [-0.81, 1.0100000000000002] (the first samples above 3 σ_G)
+ * ```
  */
 export function gapEdges(biasV: Float64Array, didvS: Float64Array, options: GapEdgesOptions): [number, number] | null {
   const n = biasV.length;

@@ -19,7 +19,18 @@ export interface LadderSpacing {
  * Fits x_gk = a_g + k·d to the peak positions of several groups (peak k of group g), weights
  * 1/σ², and returns d with its standard error.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * groups : { positionsV: readonly number[]; sigmasV: readonly number[] }[]
+ *     Positions (V) and their 1σ uncertainties (V) per group, in ladder order.
+ *
+ * Returns
+ * -------
+ * LadderSpacing | null
+ *     The spacing, or null when no group has two peaks.
+ *
+ * Notes
+ * -----
  * 1. Within group g, centre the index: k' = k − k̄_g (weighted mean); then
  *    d = Σ w·k'·x / Σ w·k'², Var(d) = 1/Σ w·k'² (the intercepts drop out).
  * 2. χ²_red = Σ w·(x − a_g − k·d)² / (N − G − 1); when it exceeds 1 the standard error is
@@ -30,12 +41,12 @@ export interface LadderSpacing {
  * regression, e.g. P. R. Bevington and D. K. Robinson, Data Reduction and Error Analysis for the
  * Physical Sciences, 3rd ed. (McGraw-Hill, 2003), ch. 6.
  *
- * @param groups - positions (V) and their 1σ uncertainties (V) per group, in ladder order.
- * @returns the spacing, or null when no group has two peaks.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * fitLadderSpacing([{ positionsV: [0.7, 0.825], sigmasV: [0.002, 0.002] },
  *   { positionsV: [1.3, 1.425, 1.55], sigmasV: [0.002, 0.002, 0.002] }]).spacingV; // => 0.125
+ * ```
  */
 export function fitLadderSpacing(groups: { positionsV: readonly number[]; sigmasV: readonly number[] }[]): LadderSpacing | null {
   let sxx = 0, sxy = 0, peaks = 0, used = 0;

@@ -31,8 +31,10 @@ import type { BandPeak } from "./bandPeaks.ts";
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
  * satelliteChargingEnergy([{ main: [at(1.25, 7e-12, 0), at(1.82, 6e-12, 2)], satellites: [at(1.39, 2e-12, 1)] }]).chargingEnergyV;  // => 0.14
+ * ```
  */
 export function satelliteChargingEnergy(bands: readonly { main: readonly BandPeak[]; satellites: readonly BandPeak[] }[]): { chargingEnergyV: number; sigmaV: number } | null {
   const found: { d: number; variance: number }[] = [];
@@ -71,9 +73,11 @@ export function satelliteChargingEnergy(bands: readonly { main: readonly BandPea
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
  * // s at 1.26 V, p at 1.82 V with charging peaks every 0.14 V.
  * levelChargingPeaks([1.26, 1.82, 1.96, 2.10].map(at), 0.14).charging.map((p) => p.index);  // => [2, 3]
+ * ```
  */
 export function levelChargingPeaks(main: readonly BandPeak[], chargingEnergyV: number): { levels: BandPeak[]; charging: BandPeak[] } {
   const tol = ASSIGN_DEFAULTS.levelChargingTolerance;

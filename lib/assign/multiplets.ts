@@ -62,9 +62,11 @@ export interface Multiplet {
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, biasUncertaintyV: 0.001 } as Peak });
  * const [s] = shellMultiplets([[[at(0.6875, 3), at(0.8125, 4)]]], "shell-filling", []);
  * [s.label, s.peakIndices, s.found, s.expected];  // => ["s", [3, 4], 2, 2]
+ * ```
  */
 export function shellMultiplets(cbGroups: readonly (readonly BandPeak[][])[], regime: Regime, warnings: string[]): Multiplet[] {
   return cbGroups.map((subgroups, i) => {
@@ -93,8 +95,10 @@ export function shellMultiplets(cbGroups: readonly (readonly BandPeak[][])[], re
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: -x, biasUncertaintyV: 0.001 } as Peak });
  * valenceMultiplets([[at(0.8125, 1), at(0.9375, 0)]]).map((m) => [m.label, m.peakIndices]);  // => [["v1", [1, 0]]]
+ * ```
  */
 export function valenceMultiplets(vbGroups: readonly BandPeak[][]): Multiplet[] {
   return vbGroups.map((g, i) => multiplet("VB", `v${i + 1}`, null, g, null, [g.length]));

@@ -107,9 +107,11 @@ export const NO_LEVELS_DEFAULTS = Object.freeze({
  *
  * Example
  * -------
+ * ```ts
  * noLevels({ peaksV: [], gapEdgesV: [-0.7, 0.7], zeroInRange: true, zeroCurrentSamples: 700 });
  * // => { code: "no-peaks", reason: "no peak passed the current-step test ..." }
  * noLevels({ peaksV: [-0.9, 0.8], gapEdgesV: [-0.8, 0.7], zeroInRange: true, zeroCurrentSamples: 750 });  // => null
+ * ```
  */
 export function noLevels(input: NoLevelsInput): NoLevels | null {
   const { peaksV, gapEdgesV, zeroInRange } = input;

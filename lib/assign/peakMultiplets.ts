@@ -34,8 +34,10 @@ import { DotspecError } from "../util/errors.ts";
  *
  * Example
  * -------
+ * ```ts
  * const m = [{ peakIndices: [1, 2] } as Multiplet];
  * withMultiplets([{ biasV: -0.8 }, { biasV: 0.69 }, { biasV: 0.81 }], m).map((p) => p.multiplet);  // => [null, 0, 0]
+ * ```
  */
 export function withMultiplets<P extends object>(peaks: readonly P[], multiplets: readonly Multiplet[]): (P & { multiplet: number | null })[] {
   const of: (number | null)[] = peaks.map(() => null);

@@ -76,10 +76,12 @@ export interface QuantityInputs {
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, biasV: number, index: number) => ({ x, index, peak: { biasV, biasUncertaintyV: 0.001 } as Peak });
  * const s = [at(0.6875, 0.6875, 2), at(0.8125, 0.8125, 3)], p = [at(1.3125, 1.3125, 4)], v = [at(0.8125, -0.8125, 1)];
  * spectrumQuantities({ regime: "shell-filling", cb: [...s, ...p], vb: v, cbGroups: [[s], [p]], vbGroups: [v],
  *   chargingEnergyV: 0.125, chargingEnergySEV: 0 }, []).quantities.levelSpacingSPV;  // => 0.375
+ * ```
  */
 export function spectrumQuantities(inputs: QuantityInputs, warnings: string[]): { quantities: SpectrumQuantities; uncertainties: SpectrumUncertainties } {
   const { regime, cb, vb, cbGroups, vbGroups, chargingEnergyV: ecV, chargingEnergySEV: ecSE } = inputs;

@@ -68,9 +68,11 @@ export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thir
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
  * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)], [at(0.8125, 1e-11, 3), at(0.9375, 1e-11, 4)]);
  * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4, valenceStepRatio: 1, valenceSpacingRatio: 1 }
+ * ```
  */
 export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = []): RegimeRatios {
   const D = ASSIGN_DEFAULTS;
@@ -135,10 +137,12 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
  * const cb = [at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)];
  * const evidence = { ...regimeRatios(cb), satellitePeaksV: [], satellitePeakIndices: [], reasons: [] };
  * classifyRegime(cb, cb, evidence);  // => "shell-filling"
+ * ```
  */
 export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[], evidence: RegimeEvidence): Regime {
   const D = ASSIGN_DEFAULTS;

@@ -37,11 +37,13 @@ import type { BandPeak } from "./bandPeaks.ts";
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
  * // Steps 10, 2 and 9 pA: the second is below 0.5 × the first (a charging satellite).
  * const { main, satellites } = splitSatellites([at(0.6, 10e-12, 0), at(0.7, 2e-12, 1), at(1.0, 9e-12, 2)], 0, 0.5);
  * main.map((p) => p.index);        // => [0, 2]
  * satellites.map((p) => p.index);  // => [1]
+ * ```
  */
 export function splitSatellites(list: readonly BandPeak[], ofMedian: number, ofPrevious: number): { main: BandPeak[]; satellites: BandPeak[] } {
   const main: BandPeak[] = [];

@@ -64,12 +64,14 @@ export interface FillingShells {
  *
  * Example
  * -------
+ * ```ts
  * // s at 0.6875, 0.8125 V; p from 1.3125 V in steps of 0.125 V (ε_s = 0.5, ε_p = 0.8 eV,
  * // Ec = 0.1 eV, η = 0.8), equal steps.
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
  * const ladder = [0.6875, 0.8125, 1.3125, 1.4375, 1.5625, 1.6875, 1.8125, 1.9375].map(at);
  * const r = fillingShells(ladder);
  * r.shells.map((s) => s.flat().map((p) => p.index));  // => [[0, 1], [2, 3, 4, 5, 6, 7]]
+ * ```
  */
 export function fillingShells(cb: readonly BandPeak[]): FillingShells {
   const D = ASSIGN_DEFAULTS;
@@ -195,9 +197,11 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
  *
  * Example
  * -------
+ * ```ts
  * // Levels at 0.6875, 1.0625, 1.1 and 1.6 V: s, p (split in two), d.
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
  * tunnelingShells([0.6875, 1.0625, 1.1, 1.6].map(at)).map((s) => s.length);  // => [1, 2, 1]
+ * ```
  */
 export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
   if (main.length === 0) return [];
@@ -242,9 +246,11 @@ export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: x, stepA: 1e-11 } as Peak });
  * const shells = [[[at(0.6875, 0), at(0.8125, 1)]], [[at(1.3125, 2), at(1.4375, 3)]]];
  * completeShells(shells, [at(1.5625, 4)], 0.125).added.map((p) => p.index);  // => [4]
+ * ```
  */
 export function completeShells(shells: readonly BandPeak[][][], weak: readonly BandPeak[], chargingEnergyV: number): { shells: BandPeak[][][]; added: BandPeak[] } {
   const tol = ASSIGN_DEFAULTS.subgroupExtraMin * chargingEnergyV;

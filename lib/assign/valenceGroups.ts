@@ -31,10 +31,12 @@ import type { Regime } from "./regime.ts";
  *
  * Example
  * -------
+ * ```ts
  * const at = (x: number, index: number) => ({ x, index, peak: { biasV: -x } as Peak });
  * // −0.8125, −0.9375 V (one level, Ec = 0.125 V in bias), then −1.3125 V.
  * valenceGroups([at(0.8125, 2), at(0.9375, 1), at(1.3125, 0)], 0.125, "shell-filling")
  *   .map((g) => g.map((p) => p.index));  // => [[2, 1], [0]]
+ * ```
  */
 export function valenceGroups(vb: readonly BandPeak[], chargingEnergyV: number | null, regime: Regime): BandPeak[][] {
   const groups: BandPeak[][] = [];

@@ -118,7 +118,9 @@ export interface AnalyzedFile {
  *
  * Example
  * -------
+ * ```ts
  * readAndAnalyze("dot-01.csv", { analyze: {}, read: {} }).json.energies.eta; // => 0.88 (from its `# eta:` line)
+ * ```
  */
 export function readAndAnalyze(file: string, options: RecordedOptions, command = "analyze", onReadProgress?: (fraction: number) => void): AnalyzedFile {
   // A large file is streamed; onReadProgress hears how far (it is not an option: nothing is recorded).

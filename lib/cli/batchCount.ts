@@ -8,7 +8,9 @@
  *
  * Example
  * -------
+ * ```ts
  * batchCount(5, 1, 3, 2); // => "dotspec: 5 done, 1 failed, 3 warnings (in 2 files)\n"
+ * ```
  */
 export function batchCount(done: number, failed: number, warnings: number, warnedFiles: number): string {
   const w = `${warnings} warning${warnings === 1 ? "" : "s"}`;

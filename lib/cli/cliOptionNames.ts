@@ -39,8 +39,10 @@ const PHRASES: readonly [RegExp, string][] = [
  *
  * Example
  * -------
+ * ```ts
  * cliOptionNames("option currentUnit: \"pA2\" is not a current unit");
  * // => 'option --current-unit: "pA2" is not a current unit'
+ * ```
  */
 export function cliOptionNames(message: string): string {
   let out = message;

@@ -52,7 +52,9 @@ function packageVersion(): string {
  *
  * Example
  * -------
+ * ```ts
  * const code = await main(["analyze", "data/", "--eta", "0.85", "--out", "report"]);
+ * ```
  */
 export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<number> {
   const ctx = makeContext(io);

@@ -36,7 +36,9 @@ export interface NumberRule {
  *
  * Example
  * -------
+ * ```ts
  * numberOption({ min: 0, minExclusive: true, max: 1, accepted: "a number in (0, 1]" })("0.85"); // => 0.85
+ * ```
  */
 export function numberOption(rule: NumberRule): (raw: string) => number | string {
   return (raw: string) => {

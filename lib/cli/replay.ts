@@ -26,8 +26,10 @@ export interface ReplayDifference {
  *
  * Example
  * -------
+ * ```ts
  * compareRecords({ gapV: 1.2, peaks: [] }, { gapV: 1.3, peaks: [] });
  * // => { compared: 1, differences: [{ path: "gapV", recorded: 1.2, replayed: 1.3 }] }
+ * ```
  */
 export function compareRecords(recorded: unknown, replayed: unknown): { compared: number; differences: ReplayDifference[] } {
   const differences: ReplayDifference[] = [];

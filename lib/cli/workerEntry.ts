@@ -21,7 +21,9 @@
  *
  * Example
  * -------
+ * ```ts
  * workerEntry("analyzeWorker", "file:///pkg/dist/cli/runAnalyzeJobs.js").href; // => "file:///pkg/dist/cli/analyzeWorker.js"
+ * ```
  */
 export function workerEntry(name: string, from: string): URL {
   return new URL(`./${name}${from.endsWith(".ts") ? ".mjs" : ".js"}`, from);

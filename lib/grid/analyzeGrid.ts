@@ -86,13 +86,34 @@ const KEYS = ["eta", "reference", "analyze", "floorSigma", "profileBinNM", "atV"
  * expects its combined result back, so the passes can run in this thread or on worker threads
  * (the `dotspec grid` command) with one composition.
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube, as {@link analyzeGrid} takes it.
+ * options : AnalyzeGridOptions, optional
+ *     As for {@link analyzeGrid}.
+ *
+ * Returns
+ * -------
+ * Generator<PixelPass, GridAnalysis, Float64Array>
+ *     Yields each pass over the pixels; takes its combined result ({@link combinePixelPass}) back
+ *     through `next`; returns the grid's analysis.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `grid/bad-axis`, `grid/bad-shape` or `grid/bad-dtype` ({@link checkGridCube}) for an
+ *     inconsistent cube, `options/unknown-key` for an unknown option, `options/negative` for a
+ *     negative floorSigma, and the codes of {@link analyzeCurve} for the reference curve.
+ *
  * Example
  * -------
  * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
  * const steps = gridAnalysisSteps(cube, { eta: 0.8 });
  * let step = steps.next();
  * while (!step.done) step = steps.next(runPixelPass(cube, step.value, 0, pixelCount(cube)));
- * step.value.maps.length; // => the number of maps
+ * step.value.maps.length; // => 8
  * ```
  */
 export function* gridAnalysisSteps(cube: GridCube, options: AnalyzeGridOptions = {}): Generator<PixelPass, GridAnalysis, Float64Array> {
@@ -211,10 +232,10 @@ export function* gridAnalysisSteps(cube: GridCube, options: AnalyzeGridOptions =
  * Example
  * -------
  * ```ts
- * const g = analyzeGrid(readGridFile("dot.npy").cube, { eta: 0.8 });
- * g.maps.map((m) => [m.label, m.rmsRadiusNM?.toFixed(2), m.dipDepth?.toFixed(2)]);
- * // => [["v1", "1.02", "0.00"], ["s", "1.03", "0.00"], ["p1", "0.90", "0.00"], ["p2", "1.31", "0.75"], …]
- * //    (the particle-in-a-sphere dot of the tests, R = 2.4 nm: p2 is the (px, py) ring)
+ * const g = analyzeGrid(readGridFile("sample-curves/grid/dot-grid.npy").cube, { eta: 0.8 });
+ * g.maps.map((m) => [m.label, m.rmsRadiusNM?.toFixed(2), m.dipDepth?.toFixed(2)]).slice(0, 4);
+ * // => [["v1", "1.01", "0.00"], ["s", "1.02", "0.00"], ["p1", "0.90", "0.00"], ["p2", "1.30", "0.86"]]
+ * //    (the invented particle-in-a-sphere demo dot, R = 2.4 nm: p2 is the (px, py) ring)
  * ```
  */
 export function analyzeGrid(cube: GridCube, options: AnalyzeGridOptions = {}): GridAnalysis {

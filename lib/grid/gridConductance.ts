@@ -24,7 +24,8 @@ import type { GridFilter } from "./mapFunctional.ts";
  *
  * Throws
  * ------
- * DotspecError as {@link checkGridCube} and the Savitzky–Golay filter (`signal/invalid-window`, …).
+ * DotspecError
+ *     The codes of {@link checkGridCube} and of the Savitzky–Golay filter (`signal/invalid-window`, …).
  *
  * Notes
  * -----
@@ -39,7 +40,9 @@ import type { GridFilter } from "./mapFunctional.ts";
  * Example
  * -------
  * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
  * const didv = gridConductance(cube, { windowSamples: 15, order: 3 });
+ * didv.length; // => 138816 (one value per current sample)
  * ```
  */
 export function gridConductance(cube: GridCube, filter: GridFilter): Float32Array | Float64Array {

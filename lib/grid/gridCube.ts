@@ -36,6 +36,16 @@ export interface GridCube {
 /**
  * Number of pixels nx·ny of a cube.
  *
+ * Parameters
+ * ----------
+ * cube : Pick<GridCube, "xNM" | "yNM">
+ *     A cube, or anything with its two spatial axes.
+ *
+ * Returns
+ * -------
+ * number
+ *     nx·ny.
+ *
  * Example
  * -------
  * ```ts
@@ -48,6 +58,16 @@ export function pixelCount(cube: Pick<GridCube, "xNM" | "yNM">): number {
 
 /**
  * The values of an axis as a new Float64Array.
+ *
+ * Parameters
+ * ----------
+ * axis : GridAxis
+ *     `{ start, step, count }` in the axis's unit.
+ *
+ * Returns
+ * -------
+ * Float64Array
+ *     start + i·step for i = 0 … count − 1.
  *
  * Example
  * -------
@@ -65,12 +85,31 @@ export function axisValues(axis: GridAxis): Float64Array {
  * Checks that a cube is consistent: axes with a positive step and a positive integer count, and
  * a current array (Float32Array or Float64Array) of exactly nx·ny·nbias values.
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube to check.
+ *
+ * Returns
+ * -------
+ * GridCube
+ *     The same cube (for chaining).
+ *
  * Throws
  * ------
  * DotspecError
  *     `grid/bad-axis` naming the axis and the bad field; `grid/bad-shape` when the array length
  *     is not nx·ny·nbias; `grid/bad-dtype` when the current is not a float typed array;
  *     `grid/bad-missing` for a mask of the wrong length.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const biasV = { start: -1, step: 0.5, count: 5 };
+ * const cube = { xNM: { start: 0, step: 0.5, count: 2 }, yNM: { start: 0, step: 0.5, count: 1 }, biasV, currentA: new Float64Array(10), source: "demo" };
+ * checkGridCube(cube) === cube; // => true
+ * checkGridCube({ ...cube, currentA: new Float64Array(9) }); // throws: 9 values where 2·1·5 = 10 are needed
+ * ```
  */
 export function checkGridCube(cube: GridCube): GridCube {
   for (const name of ["xNM", "yNM", "biasV"] as const) {

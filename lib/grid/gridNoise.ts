@@ -33,6 +33,11 @@ export const GRID_NOISE_DEFAULTS = Object.freeze({
  * number
  *     σ_I in amperes (0 for a noise-free cube).
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for a samplePixels that is not a positive integer.
+ *
  * Notes
  * -----
  * 1. Pick up to samplePixels pixels at even strides of the pixel index.
@@ -43,7 +48,7 @@ export const GRID_NOISE_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * gridCurrentNoise(cube); // => 2.0e-13 for a cube with 0.2 pA white noise
+ * gridCurrentNoise(readGridFile("sample-curves/grid/dot-grid.npy").cube); // => 5.02e-14 (A: the demo grid's white noise)
  * ```
  */
 export function gridCurrentNoise(cube: GridCube, options: GridCurrentNoiseOptions = {}): number {
@@ -61,6 +66,18 @@ export function gridCurrentNoise(cube: GridCube, options: GridCurrentNoiseOption
 
 /**
  * σ of a map value for white current noise σ_I: σ_I·√(Σ w²) (exact for independent samples).
+ *
+ * Parameters
+ * ----------
+ * functional : PixelFunctional
+ *     A map's weights over the bias samples.
+ * sigmaA : number
+ *     White-noise σ of the current per sample, A.
+ *
+ * Returns
+ * -------
+ * number
+ *     σ of the map value, in the map's unit.
  *
  * Example
  * -------

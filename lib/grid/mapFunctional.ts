@@ -114,7 +114,35 @@ function windowStart(i: number, n: number, w: number, half: number): number {
   return Math.min(Math.max(i - half, 0), n - w);
 }
 
-/** Bias indices [a, b] within [fromV, toV]; the nearest single index for a range narrower than a step. */
+/**
+ * Bias indices [a, b] within [fromV, toV]; the nearest single index for a range narrower than a step.
+ *
+ * Parameters
+ * ----------
+ * bias : GridAxis
+ *     The bias axis, V.
+ * fromV : number
+ *     Lower end of the range, V.
+ * toV : number
+ *     Upper end of the range, V.
+ *
+ * Returns
+ * -------
+ * [number, number]
+ *     The first and last bias index within the range (inclusive).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `grid/empty-range` when the range is not finite or lies outside the bias axis (by more than
+ *     half a step).
+ *
+ * Example
+ * -------
+ * ```ts
+ * indexRange({ start: -1, step: 0.1, count: 21 }, 0.25, 0.55); // => [13, 15]
+ * ```
+ */
 export function indexRange(bias: GridAxis, fromV: number, toV: number): [number, number] {
   const lo = Math.min(fromV, toV);
   const hi = Math.max(fromV, toV);

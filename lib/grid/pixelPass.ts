@@ -22,6 +22,18 @@ export type PixelPass =
 /**
  * Runs a pass over the pixels [fromPixel, toPixel) (row-major pixel index iy·nx + ix).
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube (its current may be on a SharedArrayBuffer).
+ * pass : PixelPass
+ *     What to compute: "spectrumSum" (with a pixel mask or null for every pixel) or "maps" (with
+ *     the functionals to apply).
+ * fromPixel : number
+ *     First pixel of the share (row-major index iy·nx + ix).
+ * toPixel : number
+ *     One past the last pixel of the share.
+ *
  * Returns
  * -------
  * Float64Array
@@ -32,6 +44,14 @@ export type PixelPass =
  * -----
  * Pure: reads the cube, writes only the new array. The cube may live on a SharedArrayBuffer, so
  * worker threads run this on their share of pixels without copying it.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
+ * const sums = runPixelPass(cube, { kind: "spectrumSum", mask: null }, 0, pixelCount(cube));
+ * sums[sums.length - 1]; // => 576 (pixels summed)
+ * ```
  */
 export function runPixelPass(cube: GridCube, pass: PixelPass, fromPixel: number, toPixel: number): Float64Array {
   const nb = cube.biasV.count;
@@ -81,10 +101,31 @@ export interface PixelPassPart {
 /**
  * Puts the parts of a pass back together, as if it had run over every pixel at once.
  *
+ * Parameters
+ * ----------
+ * pass : PixelPass
+ *     The pass the parts ran.
+ * parts : readonly PixelPassPart[]
+ *     Each share's pixel range and its values ({@link runPixelPass}).
+ * nPixels : number
+ *     Pixels of the whole cube (nx·ny).
+ * nbias : number
+ *     Bias points per spectrum.
+ *
  * Returns
  * -------
  * Float64Array
  *     spectrumSum: the sums added (and the counts); maps: functional m, pixel p at m·nPixels + p.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
+ * const pass = { kind: "spectrumSum", mask: null } as const;
+ * const n = pixelCount(cube);
+ * const parts = [[0, 300], [300, n]].map(([fromPixel, toPixel]) => ({ fromPixel, toPixel, values: runPixelPass(cube, pass, fromPixel, toPixel) }));
+ * combinePixelPass(pass, parts, n, cube.biasV.count)[cube.biasV.count]; // => 576 (as one pass over every pixel)
+ * ```
  */
 export function combinePixelPass(pass: PixelPass, parts: readonly PixelPassPart[], nPixels: number, nbias: number): Float64Array {
   if (pass.kind === "spectrumSum") {

@@ -69,7 +69,8 @@ export const GRID_MAP_DEFAULTS = Object.freeze({
  *
  * Throws
  * ------
- * DotspecError `options/…` for a bad bias or window; `grid/empty-range` for a bias outside the axis.
+ * DotspecError
+ *     `options/…` for a bad bias or window; `grid/empty-range` for a bias outside the axis.
  *
  * Notes
  * -----
@@ -84,8 +85,11 @@ export const GRID_MAP_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
+ * const sums = runPixelPass(cube, { kind: "spectrumSum", mask: null }, 0, pixelCount(cube));
+ * const analysis = analyzeCurve(referenceCurve(cube, sums, "mean"), { eta: 0.8 });
  * planGridMaps(analysis, cube.biasV, { windowSamples: 15, order: 3 }).map((m) => m.label);
- * // => ["v1", "s", "p1", "p2", "v1 (multiplet)", "s (multiplet)", "p (multiplet)", "current"]
+ * // => ["v1", "s", "p1", "p2", "s (multiplet)", "p (multiplet)", "v1 (multiplet)", "current"]
  * ```
  */
 export function planGridMaps(analysis: CurveAnalysis, bias: GridAxis, filter: GridFilter, options: PlanGridMapsOptions = {}): GridMapSpec[] {

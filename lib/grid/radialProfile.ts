@@ -43,7 +43,8 @@ export interface RadialProfileOptions {
  *
  * Throws
  * ------
- * DotspecError `options/not-positive` for a bad binNM or maxRadiusNM.
+ * DotspecError
+ *     `options/not-positive` for a bad binNM or maxRadiusNM.
  *
  * Example
  * -------

@@ -15,6 +15,19 @@ export type ReferenceSelection = "mean" | { pixel: [number, number] } | { centre
 /**
  * The pixel mask of a reference selection (1 = in), or null for every pixel.
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube (its spatial axes).
+ * selection : ReferenceSelection
+ *     "mean" (every pixel), `{ pixel: [ix, iy] }` (one pixel) or `{ centreNM: [x, y], radiusNM }`
+ *     (the pixels within a disc; nm).
+ *
+ * Returns
+ * -------
+ * Uint8Array | null
+ *     One byte per pixel (1 = in the reference), or null for every pixel.
+ *
  * Throws
  * ------
  * DotspecError
@@ -24,8 +37,9 @@ export type ReferenceSelection = "mean" | { pixel: [number, number] } | { centre
  * Example
  * -------
  * ```ts
- * referenceMask(cube, { centreNM: [0, 0], radiusNM: 1.5 }); // => Uint8Array, 1 for the pixels within 1.5 nm
- * referenceMask(cube, "mean");                               // => null (every pixel)
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
+ * referenceMask(cube, { centreNM: [0, 0], radiusNM: 1.5 })!.reduce((n, v) => n + v, 0); // => 80 (pixels within 1.5 nm)
+ * referenceMask(cube, "mean"); // => null (every pixel)
  * ```
  */
 export function referenceMask(cube: GridCube, selection: ReferenceSelection): Uint8Array | null {
@@ -59,21 +73,31 @@ export function referenceMask(cube: GridCube, selection: ReferenceSelection): Ui
  * The reference curve from a spectrum sum ({@link runPixelPass} "spectrumSum": nbias sums, then
  * the pixel count).
  *
+ * Parameters
+ * ----------
+ * cube : GridCube
+ *     The cube the sums came from (its bias axis and source).
+ * sums : Float64Array
+ *     A "spectrumSum" pass's result: nbias current sums (A), then the pixel count.
+ * selection : ReferenceSelection
+ *     The selection the sums were taken over (named in the curve's source).
+ *
  * Returns
  * -------
  * Curve
- *     Bias from the cube's axis, the mean current (one sweep), no measured dI/dV; source
- *     `"<cube source> (reference: …)"`.
+ *     The mean current spectrum of the selected pixels, as a curve for {@link analyzeCurve}.
  *
  * Throws
  * ------
- * DotspecError `grid/bad-reference` when no pixel was summed.
+ * DotspecError
+ *     `grid/bad-reference` when no pixel was summed.
  *
  * Example
  * -------
  * ```ts
+ * const { cube } = readGridFile("sample-curves/grid/dot-grid.npy");
  * const sums = runPixelPass(cube, { kind: "spectrumSum", mask: null }, 0, pixelCount(cube));
- * referenceCurve(cube, sums, "mean").meta.source; // => "dot.npy (reference: mean of 256 pixels)"
+ * referenceCurve(cube, sums, "mean").meta.source; // => "sample-curves/grid/dot-grid.npy (reference: mean of 576 pixels)"
  * ```
  */
 export function referenceCurve(cube: GridCube, sums: Float64Array, selection: ReferenceSelection): Curve {

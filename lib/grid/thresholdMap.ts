@@ -21,7 +21,8 @@ import type { MapImage } from "./mapImage.ts";
  *
  * Throws
  * ------
- * DotspecError `options/negative` or `options/not-finite` for a bad floor.
+ * DotspecError
+ *     `options/negative` or `options/not-finite` for a bad floor.
  *
  * Example
  * -------

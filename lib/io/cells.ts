@@ -43,8 +43,10 @@ function parserFor(delimiter: string): DSV {
  *
  * Example
  * -------
+ * ```ts
  * splitLine("1.0;2,5", ";");  // => ["1.0", "2,5"]
  * splitLine("  -1.0   2e-12 ", "whitespace");  // => ["-1.0", "2e-12"]
+ * ```
  */
 export function splitLine(line: string, delimiter: Delimiter): string[] {
   if (delimiter === "whitespace") {
@@ -123,9 +125,11 @@ function isSpace(c: number): boolean {
  *
  * Example
  * -------
+ * ```ts
  * parseNumberCell(" -1.5e-3 ", false);  // => -0.0015
  * parseNumberCell("1,25", true);  // => 1.25
  * parseNumberCell("NaN", false);  // => NaN
+ * ```
  */
 export function parseNumberCell(cell: string, decimalComma: boolean): number {
   let s = cell;
@@ -169,8 +173,10 @@ export function isMissingCell(cell: string): boolean {
  *
  * Example
  * -------
+ * ```ts
  * startsLikeNumber("  -1.5,2e-12");  // => true
  * startsLikeNumber("bias,current");  // => false
+ * ```
  */
 export function startsLikeNumber(line: string): boolean {
   const s = line.trimStart();
@@ -185,8 +191,10 @@ export function startsLikeNumber(line: string): boolean {
  *
  * Example
  * -------
+ * ```ts
  * isDataRow(["-1.5", "NaN", "2e-12"], false);  // => true
  * isDataRow(["bias", "current", "0"], false);  // => false
+ * ```
  */
 export function isDataRow(cells: readonly string[], decimalComma: boolean): boolean {
   let numbers = 0;
@@ -239,7 +247,9 @@ export interface DelimiterGuess {
  *
  * Example
  * -------
+ * ```ts
  * detectDelimiter(["-1,0;2,5e-12", "0,0;0"]);  // => {delimiter: ";", decimalComma: true}
+ * ```
  */
 export function detectDelimiter(
   lines: readonly string[],

@@ -53,7 +53,9 @@ export interface DecodedText {
  *
  * Example
  * -------
+ * ```ts
  * decodeTextBytes(Uint8Array.of(0xef, 0xbb, 0xbf, 0x61), "a.csv"); // => { text: "a", warning: null }
+ * ```
  */
 export function decodeTextBytes(bytes: Uint8Array, source: string, what = "a text table", fix = "save it as UTF-8 text"): DecodedText {
   if (bytes.length >= 2 && bytes[0] === 0xff && bytes[1] === 0xfe) return { text: new TextDecoder("utf-16le").decode(bytes), warning: null };
@@ -72,7 +74,9 @@ export function decodeTextBytes(bytes: Uint8Array, source: string, what = "a tex
  *
  * Example
  * -------
+ * ```ts
  * binaryFileError("a.csv", "a text table", "save it as UTF-8 text").code; // => "io/binary"
+ * ```
  */
 export function binaryFileError(source: string, what: string, fix: string): DotspecError {
   return new DotspecError(

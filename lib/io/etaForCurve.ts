@@ -36,8 +36,11 @@ export interface CurveEta {
  *
  * Example
  * -------
- * etaForCurve(undefined, parseCurveText("# eta: 0.88\nV,I\n0,0\n…").curve);
+ * ```ts
+ * const text = "# eta: 0.88\nV,I\n" + Array.from({ length: 21 }, (_, i) => `${-1 + i * 0.1},${(-1 + i * 0.1) ** 3}`).join("\n");
+ * etaForCurve(undefined, parseCurveText(text).curve);
  * // => { eta: 0.88, note: 'η = 0.88 taken from the file\'s metadata ("eta")' }
+ * ```
  */
 export function etaForCurve(given: number | undefined, curve: Curve): CurveEta {
   if (given !== undefined) return { eta: given, note: null };

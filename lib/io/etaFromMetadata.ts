@@ -8,12 +8,22 @@ export const ETA_METADATA_KEYS = ["eta", "η", "voltage division", "voltage_divi
 /**
  * Reads η from a curve's metadata.
  *
- * @param metadata - key → value pairs from the file's comment lines.
- * @returns `{ eta, key }` when a known key holds a number in (0, 1]; null otherwise (also for a
- *   value that is not such a number: the caller then falls back to its default and says so).
+ * Parameters
+ * ----------
+ * metadata : Record<string, string>
+ *     Key → value pairs from the file's comment lines.
  *
- * @example
+ * Returns
+ * -------
+ * { eta: number; key: string } | null
+ *     `{ eta, key }` when a known key holds a number in (0, 1]; null otherwise (also for a value
+ *     that is not such a number: the caller then falls back to its default and says so).
+ *
+ * Example
+ * -------
+ * ```ts
  * etaFromMetadata({ eta: "0.88" }); // => { eta: 0.88, key: "eta" }
+ * ```
  */
 export function etaFromMetadata(metadata: Record<string, string>): { eta: number; key: string } | null {
   for (const [key, value] of Object.entries(metadata)) {

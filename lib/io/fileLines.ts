@@ -34,7 +34,9 @@ export const NOT_UTF8 = "io/not-utf8";
  *
  * Example
  * -------
+ * ```ts
  * fileEncoding("table.csv"); // => "utf-8"
+ * ```
  */
 export function fileEncoding(path: string): FileEncoding {
   const fd = open(path);
@@ -89,8 +91,11 @@ function open(path: string): number {
  *
  * Example
  * -------
- * let n = 0;
- * forEachFileLine("big.csv", fileEncoding("big.csv"), () => n++);
+ * ```ts
+ * let lines = 0;
+ * forEachFileLine("sample-curves/dot-01.csv", "utf-8", () => lines++);
+ * lines; // => 2009
+ * ```
  */
 export function forEachFileLine(path: string, encoding: FileEncoding, visit: (line: string, index: number) => void, options: FileLinesOptions = {}): void {
   const chunkBytes = options.chunkBytes ?? FILE_LINES_DEFAULTS.chunkBytes;
@@ -149,14 +154,27 @@ export function forEachFileLine(path: string, encoding: FileEncoding, visit: (li
  * Runs a reading pass over a file in the encoding its start announces, once more as
  * Windows-1252 when it turns out not to be valid UTF-8.
  *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file to read.
+ * pass : (encoding: FileEncoding) => void
+ *     The reading pass; called once with the announced encoding, and once more with
+ *     "windows-1252" when that pass throws `io/not-utf8`.
+ *
  * Returns
  * -------
- * { encoding, warning }
- *     The encoding the pass succeeded with, and the warning to record when it is Windows-1252.
+ * { encoding: FileEncoding; warning: string | null }
+ *     The encoding the last pass ran in, and a warning when it fell back to Windows-1252 (null
+ *     otherwise).
  *
  * Example
  * -------
- * const { encoding } = withFileEncoding("t.csv", (enc) => forEachFileLine("t.csv", enc, visit));
+ * ```ts
+ * let lines = 0;
+ * const { encoding } = withFileEncoding("sample-curves/dot-01.csv", (enc) => forEachFileLine("sample-curves/dot-01.csv", enc, () => lines++));
+ * encoding; // => "utf-8"
+ * ```
  */
 export function withFileEncoding(path: string, pass: (encoding: FileEncoding) => void): { encoding: FileEncoding; warning: string | null } {
   const first = fileEncoding(path);

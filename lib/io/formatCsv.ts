@@ -21,10 +21,23 @@ const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
  * injection advises: a single quote is put in front. Numbers, and text that is a plain decimal
  * number, are left as they are.
  *
+ * Parameters
+ * ----------
+ * value : CellValue
+ *     One cell.
+ *
+ * Returns
+ * -------
+ * CellValue
+ *     The cell, with a leading `'` when it is text that starts with =, +, -, @, a tab or a
+ *     carriage return and is not a plain decimal number.
+ *
  * Example
  * -------
+ * ```ts
  * escapeFormulaCell("=HYPERLINK(\"x\")"); // => "'=HYPERLINK(\"x\")"
  * escapeFormulaCell("-0.5");              // => "-0.5"
+ * ```
  */
 export function escapeFormulaCell(value: CellValue): CellValue {
   if (typeof value !== "string" || !FORMULA_START.test(value) || PLAIN_NUMBER.test(value)) return value;
@@ -54,14 +67,21 @@ export const CURVE_CSV_DIGITS = 10;
  *     Text that a spreadsheet would run as a formula (starting with `=`, `+`, `-`, `@`, tab or
  *     CR, and not a plain number) gets a leading single quote ({@link escapeFormulaCell}).
  *
+ * Throws
+ * ------
+ * DotspecError
+ *     `io/not-rows` when `rows` is not a list.
+ *
  * References
  * ----------
  * OWASP Foundation, "CSV Injection", https://owasp.org/www-community/attacks/CSV_Injection.
  *
  * Example
  * -------
+ * ```ts
  * formatCsv([{ file: "a,b.csv", gapV: 0.1 + 0.2, ec: null }]);
  * // => 'file,gapV,ec\n"a,b.csv",0.30000000000000004,\n'
+ * ```
  */
 export function formatCsv(rows: readonly Record<string, CellValue>[], columns?: readonly string[]): string {
   if (!Array.isArray(rows)) {
@@ -121,8 +141,10 @@ export interface CurveColumns {
  *
  * Example
  * -------
+ * ```ts
  * formatCurveCsv({ biasV: [-0.1, 0.1], currentA: [-2e-12, 2.0000000001234e-12] });
  * // => "bias (V),current (A)\n-0.1,-2e-12\n0.1,2e-12\n"
+ * ```
  */
 export function formatCurveCsv(curve: CurveColumns, options: FormatCurveCsvOptions = {}): string {
   const { biasV, currentA } = curve;

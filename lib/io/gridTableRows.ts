@@ -57,7 +57,9 @@ export function isGridComment(line: string): boolean {
  *
  * Example
  * -------
+ * ```ts
  * gridTableLayout(["x (nm),y (nm),bias (V),current (pA)", "0,0,-1,2"], "g.csv").ic; // => 3
+ * ```
  */
 export function gridTableLayout(lines: readonly string[], source: string): GridTableLayout {
   const head = lines.length > GRID_TABLE_ROWS_DEFAULTS.headLines ? lines.slice(0, GRID_TABLE_ROWS_DEFAULTS.headLines) : lines;

@@ -18,9 +18,21 @@ export interface InputDigest {
 /**
  * SHA-256 of a text or bytes, as 64 lowercase hex digits (FIPS 180-4, through node:crypto).
  *
+ * Parameters
+ * ----------
+ * data : string | Uint8Array
+ *     The text (hashed as UTF-8) or the bytes.
+ *
+ * Returns
+ * -------
+ * string
+ *     The digest, 64 lowercase hex digits.
+ *
  * Example
  * -------
+ * ```ts
  * sha256Hex("abc"); // => "ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad"
+ * ```
  */
 export function sha256Hex(data: string | Uint8Array): string {
   return createHash("sha256").update(data).digest("hex");
@@ -45,7 +57,11 @@ export function sha256Hex(data: string | Uint8Array): string {
  *
  * Example
  * -------
- * inputDigest("dot-01.csv"); // => { name: "dot-01.csv", bytes: 61234, sha256: "3f…" }
+ * ```ts
+ * const { name, bytes, sha256 } = inputDigest("sample-curves/dot-01.csv");
+ * bytes; // => 97996
+ * sha256.length; // => 64 (hex digits)
+ * ```
  */
 export function inputDigest(path: string): InputDigest {
   // Read in chunks: a large input is hashed without being held in memory.

@@ -63,7 +63,8 @@ const MAGIC = [0x93, 0x4e, 0x55, 0x4d, 0x50, 0x59]; // \x93NUMPY
  * Example
  * -------
  * ```ts
- * parseNpyHeader(firstBytes).shape; // => [16, 16, 400]
+ * import { readFileSync } from "node:fs";
+ * parseNpyHeader(readFileSync("sample-curves/grid/dot-grid.npy").subarray(0, 256)).shape; // => [24, 24, 241]
  * ```
  */
 export function parseNpyHeader(bytes: Uint8Array, source = "NPY file"): NpyHeader {

@@ -45,9 +45,28 @@ function filesUnder(dir: string): string[] {
 /**
  * The manifest of a folder, or null when it has none (or an unreadable one).
  *
+ * Parameters
+ * ----------
+ * dir : string
+ *     The output folder.
+ *
+ * Returns
+ * -------
+ * OutputManifest | null
+ *     Its manifest, or null when it has none or an unreadable one.
+ *
  * Example
  * -------
- * readOutputManifest("report"); // => { tool: "dotspec", version: "0.1.0", files: { "dot-01.json": "9c…" } }
+ * ```ts
+ * import { mkdtempSync, writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const dir = mkdtempSync(join(tmpdir(), "dotspec-example-"));
+ * writeFileSync(join(dir, "dot-01.json"), "{}");
+ * writeOutputManifest(dir, ["dot-01.json"], true);
+ * readOutputManifest(dir);
+ * // => { tool: "dotspec", version: "0.1.0", files: { "dot-01.json": "44136fa355b3678a1146ad16f7e8649e94fb4fc21fe77e8310c060f61caaff8a" } }
+ * ```
  */
 export function readOutputManifest(dir: string): OutputManifest | null {
   const path = join(dir, OUTPUT_MANIFEST_NAME);
@@ -89,7 +108,16 @@ export function readOutputManifest(dir: string): OutputManifest | null {
  *
  * Example
  * -------
- * checkOutputFolder("report"); // => { foreign: ["notes.txt"], changed: [] }
+ * ```ts
+ * import { mkdtempSync, writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const dir = mkdtempSync(join(tmpdir(), "dotspec-example-"));
+ * writeFileSync(join(dir, "dot-01.json"), "{}");
+ * writeOutputManifest(dir, ["dot-01.json"], true);
+ * writeFileSync(join(dir, "notes.txt"), "mine");
+ * checkOutputFolder(dir); // => { foreign: ["notes.txt"], changed: [] }
+ * ```
  */
 export function checkOutputFolder(dir: string): OutputFolderCheck {
   if (!existsSync(dir)) return { foreign: [], changed: [] };
@@ -152,7 +180,16 @@ export function checkOutputFolder(dir: string): OutputFolderCheck {
  *
  * Example
  * -------
- * writeOutputManifest("report", ["dot-01.json", "summary.csv"], true);
+ * ```ts
+ * import { mkdtempSync, writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const dir = mkdtempSync(join(tmpdir(), "dotspec-example-"));
+ * writeOutputManifest(dir, ["dot-01.json", "summary.csv"], false); // before the run's writes
+ * writeFileSync(join(dir, "dot-01.json"), "{}");
+ * writeOutputManifest(dir, ["dot-01.json", "summary.csv"], true); // after them
+ * Object.keys(readOutputManifest(dir)!.files); // => ["dot-01.json"] (summary.csv was not written)
+ * ```
  */
 export function writeOutputManifest(dir: string, files: readonly string[], written: boolean): void {
   const entries: Record<string, string | null> = { ...(readOutputManifest(dir)?.files ?? {}) };

@@ -40,8 +40,11 @@ import { parseCurveText, type ParseOptions, type ParsedCurve } from "./parse/ind
  *
  * Example
  * -------
- * const { curve } = parseCurveBytes(new TextEncoder().encode("bias (V),current (pA)\n…"), { source: "dot.csv" });
+ * ```ts
+ * const text = "bias (V),current (pA)\n" + Array.from({ length: 101 }, (_, i) => `${-1 + i * 0.02},${(-1 + i * 0.02) ** 3}`).join("\n");
+ * const { curve } = parseCurveBytes(new TextEncoder().encode(text), { source: "dot.csv" });
  * curve.meta.source; // => "dot.csv"
+ * ```
  */
 export function parseCurveBytes(bytes: Uint8Array, options: ParseOptions = {}): ParsedCurve {
   if (!(bytes instanceof Uint8Array)) {

@@ -39,6 +39,16 @@ export const PARSE_GRID_BYTES_DEFAULTS = Object.freeze({
 /**
  * The sidecar name that goes with an `.npy` file: the same name with `.json`.
  *
+ * Parameters
+ * ----------
+ * npyName : string
+ *     The NPY file's name or path.
+ *
+ * Returns
+ * -------
+ * string
+ *     The same with `.json` in place of the `.npy` ending (any case).
+ *
  * Example
  * -------
  * ```ts
@@ -51,6 +61,16 @@ export function gridSidecarName(npyName: string): string {
 
 /**
  * Whether a file name is read as NPY (ends in `.npy`, any case) rather than as a long table.
+ *
+ * Parameters
+ * ----------
+ * name : string
+ *     A file name or path.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True when it ends in `.npy` (any case).
  *
  * Example
  * -------
@@ -97,7 +117,9 @@ export function isNpyGridName(name: string): boolean {
  * Example
  * -------
  * ```ts
- * const r = parseGridBytes(new Uint8Array(await file.arrayBuffer()), { source: file.name, sidecarText: await sidecar.text() });
+ * import { readFileSync } from "node:fs";
+ * const bytes = new Uint8Array(readFileSync("sample-curves/grid/dot-grid.npy"));
+ * const r = parseGridBytes(bytes, { source: "dot-grid.npy", sidecarText: readFileSync("sample-curves/grid/dot-grid.json", "utf8") });
  * r.layout; // => "npy"
  * ```
  */

@@ -94,8 +94,10 @@ export const GRID_TABLE_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * parseGridTable("x (nm),y (nm),bias (V),current (pA)\n0,0,-1,-2.5\n…").cube.xNM;
- * // => { start: 0, step: 0.5, count: 16 }
+ * const rows = ["x (nm),y (nm),bias (V),current (pA)"];
+ * for (const y of [0, 0.5]) for (const x of [0, 0.5]) for (const v of [-1, -0.5, 0, 0.5, 1]) rows.push(`${x},${y},${v},${v ** 3}`);
+ * parseGridTable(rows.join("\n")).cube.xNM;
+ * // => { start: 0, step: 0.5, count: 2 }
  * ```
  */
 export function parseGridTable(text: string, options: ParseGridTableOptions = {}): { cube: GridCube; record: GridTableRecord } {

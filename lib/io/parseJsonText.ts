@@ -38,8 +38,10 @@ import { DotspecError } from "../util/errors.ts";
  *
  * Example
  * -------
+ * ```ts
  * parseJsonText('{"a": 1,\n "b": x}', "s.json");
  * // throws io/invalid-json: s.json: not valid JSON: line 2, column 7: unexpected "x" where a value should be
+ * ```
  */
 export function parseJsonText(text: string, source: string): unknown {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
@@ -75,7 +77,9 @@ function shown(c: string): string {
  *
  * Example
  * -------
+ * ```ts
  * jsonErrorAt("[1, 2"); // => { at: 5, reason: "the text ends inside an array (missing \"]\")" }
+ * ```
  */
 export function jsonErrorAt(t: string): { at: number; reason: string } {
   let i = 0;

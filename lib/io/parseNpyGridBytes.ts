@@ -40,8 +40,10 @@ export const PARSE_NPY_GRID_BYTES_DEFAULTS = Object.freeze({
  *     From {@link parseGridSidecar}.
  * fileBytes : number
  *     Size of the whole file, bytes.
- * source, sidecarSource : string
- *     Names for the messages.
+ * source : string
+ *     The NPY file's name, for the messages.
+ * sidecarSource : string
+ *     The sidecar's name, for the messages.
  *
  * Returns
  * -------
@@ -57,8 +59,11 @@ export const PARSE_NPY_GRID_BYTES_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * // a [2, 3, 5] float32 cube after its header: 2·3·5·4 data bytes
- * npyGridDataBytes(header, sidecar, header.dataOffset + 120, "a.npy", "a.json"); // => 120
+ * import { readFileSync } from "node:fs";
+ * const bytes = readFileSync("sample-curves/grid/dot-grid.npy");
+ * const header = parseNpyHeader(bytes.subarray(0, 256));
+ * const sidecar = parseGridSidecar(JSON.parse(readFileSync("sample-curves/grid/dot-grid.json", "utf8")));
+ * npyGridDataBytes(header, sidecar, bytes.length, "dot-grid.npy", "dot-grid.json"); // => 555264 (24·24·241 float32 values, 4 bytes each)
  * ```
  */
 export function npyGridDataBytes(header: NpyHeader, sidecar: GridSidecar, fileBytes: number, source: string, sidecarSource: string): number {
@@ -86,8 +91,10 @@ export function npyGridDataBytes(header: NpyHeader, sidecar: GridSidecar, fileBy
  * ----------
  * buffer : ArrayBuffer | SharedArrayBuffer
  *     Exactly the data bytes, owned by the cube from now on (changed in place).
- * header, sidecar : NpyHeader, GridSidecar
- *     As checked by {@link npyGridDataBytes}.
+ * header : NpyHeader
+ *     The file's header ({@link parseNpyHeader}), as checked by {@link npyGridDataBytes}.
+ * sidecar : GridSidecar
+ *     The axes and unit of the cube, as checked by {@link npyGridDataBytes}.
  * source : string
  *     The cube's source.
  *
@@ -105,7 +112,11 @@ export function npyGridDataBytes(header: NpyHeader, sidecar: GridSidecar, fileBy
  * Example
  * -------
  * ```ts
- * npyGridCube(bytes.slice(offset).buffer, header, sidecar, "a.npy").currentA.length; // => ny·nx·nbias
+ * import { readFileSync } from "node:fs";
+ * const bytes = new Uint8Array(readFileSync("sample-curves/grid/dot-grid.npy"));
+ * const header = parseNpyHeader(bytes.subarray(0, 256));
+ * const sidecar = parseGridSidecar(JSON.parse(readFileSync("sample-curves/grid/dot-grid.json", "utf8")));
+ * npyGridCube(bytes.slice(header.dataOffset).buffer, header, sidecar, "dot-grid.npy").currentA.length; // => 138816
  * ```
  */
 export function npyGridCube(buffer: ArrayBuffer | SharedArrayBuffer, header: NpyHeader, sidecar: GridSidecar, source: string): GridCube {
@@ -157,8 +168,11 @@ export function npyGridCube(buffer: ArrayBuffer | SharedArrayBuffer, header: Npy
  * Example
  * -------
  * ```ts
- * const { cube } = parseNpyGridBytes(new Uint8Array(await npyFile.arrayBuffer()), JSON.parse(await jsonFile.text()), { source: npyFile.name });
- * cube.xNM.count; // => nx of the sidecar
+ * import { readFileSync } from "node:fs";
+ * const bytes = new Uint8Array(readFileSync("sample-curves/grid/dot-grid.npy"));
+ * const sidecar = JSON.parse(readFileSync("sample-curves/grid/dot-grid.json", "utf8"));
+ * const { cube } = parseNpyGridBytes(bytes, sidecar, { source: "dot-grid.npy" });
+ * cube.xNM.count; // => 24
  * ```
  */
 export function parseNpyGridBytes(bytes: Uint8Array, sidecar: unknown, options: ParseNpyGridBytesOptions = {}): NpyGridResult {

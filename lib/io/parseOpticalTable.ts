@@ -44,8 +44,10 @@ export const OPTICAL_PEAK_RANGE_EV = Object.freeze([0.1, 10] as const);
  *
  * Example
  * -------
+ * ```ts
  * parseOpticalTable("radius_nm,peak_ev_1,peak_ev_2\n2.0,1.95,2.21\n", "optical.csv");
  * // => [{ line: 2, radiusNM: 2, peaksEV: [1.95, 2.21] }]
+ * ```
  */
 export function parseOpticalTable(text: string, source: string): OpticalTableRow[] {
   const table = readSizeTableRows(text, source, "optical table");

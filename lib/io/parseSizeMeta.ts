@@ -66,8 +66,10 @@ const SAME_SIZE_RTOL = 1e-6;
  *
  * Example
  * -------
+ * ```ts
  * parseSizeMeta("file,dot,diameter_nm\na.csv,QD-1,4.2\n", "META.csv");
  * // => [{ line: 2, file: "a.csv", dot: "QD-1", radiusNM: 2.1, eta: null, notes: null }]
+ * ```
  */
 export function parseSizeMeta(text: string, source: string): SizeMetaRow[] {
   const table = readSizeTableRows(text, source, "size table");

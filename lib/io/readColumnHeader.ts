@@ -52,9 +52,11 @@ const BRACKET = /[([{]([^()[\]{}]*)[)\]}]/g;
  *
  * Example
  * -------
+ * ```ts
  * readColumnHeader("Current fwd [pA]");
  * // => {header: "Current fwd [pA]", name: "Current fwd", unitText: "pA", role: "current", tipBias: false}
  * readColumnHeader("bias_V").unitText;  // => "V"
+ * ```
  */
 export function readColumnHeader(text: string): ColumnHeader {
   let header = text.trim();
@@ -92,8 +94,10 @@ export function readColumnHeader(text: string): ColumnHeader {
  *
  * Example
  * -------
+ * ```ts
  * isUnitsRow(["V", "[pA]"]);  // => true
  * isUnitsRow(["Bias", "Current"]);  // => false
+ * ```
  */
 export function isUnitsRow(cells: readonly string[]): boolean {
   let units = 0;
@@ -110,7 +114,9 @@ export function isUnitsRow(cells: readonly string[]): boolean {
  *
  * Example
  * -------
+ * ```ts
  * stripBrackets(" [pA] ");  // => "pA"
+ * ```
  */
 export function stripBrackets(cell: string): string {
   const t = cell.trim();
@@ -124,8 +130,10 @@ export function stripBrackets(cell: string): string {
  *
  * Example
  * -------
+ * ```ts
  * splitSpacedHeader("bias (mV) current (pA)", 2);  // => ["bias (mV)", "current (pA)"]
  * splitSpacedHeader("sample bias  tunnel current", 2);  // => ["sample bias", "tunnel current"]
+ * ```
  */
 export function splitSpacedHeader(line: string, n: number): string[] {
   const t = line.trim();

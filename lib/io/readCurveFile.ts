@@ -61,8 +61,11 @@ export const STREAM_CURVE_FILE_BYTES = 16 * 1024 * 1024;
  *
  * Example
  * -------
- * const { curve, record } = readCurveFile("data/dot-07.csv");
- * record.source;  // => "data/dot-07.csv"
+ * ```ts
+ * const { curve, record } = readCurveFile("sample-curves/dot-01.csv");
+ * curve.biasV.length; // => 2000
+ * record.source; // => "sample-curves/dot-01.csv"
+ * ```
  */
 export function readCurveFile(path: string, options: ReadCurveOptions = {}, onProgress?: (fraction: number) => void): ParsedCurve {
   return readCurve(path, options, onProgress, false).parsed;
@@ -100,8 +103,10 @@ export function readCurveFile(path: string, options: ReadCurveOptions = {}, onPr
  *
  * Example
  * -------
- * const { parsed, input } = readCurveFileWithDigest("data/dot-07.csv");
- * input.sha256.length;  // => 64
+ * ```ts
+ * const { parsed, input } = readCurveFileWithDigest("sample-curves/dot-01.csv");
+ * input.sha256.length; // => 64
+ * ```
  */
 export function readCurveFileWithDigest(path: string, options: ReadCurveOptions = {}, onProgress?: (fraction: number) => void): { parsed: ParsedCurve; input: InputDigest } {
   const { parsed, input } = readCurve(path, options, onProgress, true);
@@ -186,8 +191,10 @@ function fsError(path: string, err: unknown): DotspecError {
  *
  * Example
  * -------
- * listCurveFiles(["sample-curves", "extra/dot-9.dat"]);
- * // => ["sample-curves/dot-1.csv", "sample-curves/dot-2.csv", "extra/dot-9.dat"]
+ * ```ts
+ * listCurveFiles(["sample-curves/dot-02.tsv", "sample-curves/series/curves"]).slice(0, 3);
+ * // => ["sample-curves/dot-02.tsv", "sample-curves/series/curves/qd-7-s01-1.csv", "sample-curves/series/curves/qd-7-s01-2.csv"]
+ * ```
  */
 export function listCurveFiles(paths: readonly string[]): string[] {
   if (!Array.isArray(paths)) {

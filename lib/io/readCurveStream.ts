@@ -146,7 +146,7 @@ class LineRuns {
  * Example
  * -------
  * ```ts
- * readCurveStream("long-sweep.csv").curve.biasV.length; // => 20000000
+ * readCurveStream("sample-curves/dot-01.csv").curve.biasV.length; // => 2000
  * ```
  */
 export function readCurveStream(path: string, options: ParseOptions = {}, stream: CurveStreamOptions = {}): ParsedCurve {

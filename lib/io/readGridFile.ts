@@ -43,7 +43,7 @@ export interface ReadGridFileOptions {
  * Example
  * -------
  * ```ts
- * readGridFile("dot.npy").cube.xNM; // the axes from dot.json
+ * readGridFile("sample-curves/grid/dot-grid.npy").cube.xNM; // => { start: -3.45, step: 0.3, count: 24 } (from dot-grid.json)
  * ```
  */
 export function readGridFile(path: string, options: ReadGridFileOptions = {}): GridFileResult {
@@ -70,10 +70,20 @@ export function readGridFile(path: string, options: ReadGridFileOptions = {}): G
 /**
  * Size of a file in bytes; NaN when it cannot be read (the reader then says why).
  *
+ * Parameters
+ * ----------
+ * path : string
+ *     The file.
+ *
+ * Returns
+ * -------
+ * number
+ *     Its size in bytes; NaN when it cannot be read.
+ *
  * Example
  * -------
  * ```ts
- * fileBytes("dot.npy"); // => 33554560
+ * fileBytes("sample-curves/grid/dot-grid.npy"); // => 555392
  * ```
  */
 export function fileBytes(path: string): number {

@@ -65,7 +65,14 @@ export interface ReadGridTableFileOptions {
  * Example
  * -------
  * ```ts
- * readGridTableFile("dot-03.csv", { onProgress: (f) => bar.update(f) }).cube.biasV.count; // => 401
+ * import { writeFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const rows = ["x (nm),y (nm),bias (V),current (pA)"];
+ * for (const y of [0, 0.5]) for (const x of [0, 0.5]) for (const v of [-1, -0.5, 0, 0.5, 1]) rows.push(`${x},${y},${v},${v ** 3}`);
+ * const path = join(tmpdir(), "dotspec-example-grid.csv");
+ * writeFileSync(path, rows.join("\n"));
+ * readGridTableFile(path, { onProgress: (f) => {} }).cube.biasV.count; // => 5
  * ```
  */
 export function readGridTableFile(path: string, options: ReadGridTableFileOptions = {}): { cube: GridCube; record: GridTableRecord } {

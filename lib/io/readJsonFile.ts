@@ -34,7 +34,9 @@ import { parseJsonText } from "./parseJsonText.ts";
  *
  * Example
  * -------
- * parseScenario(readJsonFile("scenario.json"));
+ * ```ts
+ * (readJsonFile("sample-curves/grid/dot-grid.json") as { biasV: number[] }).biasV; // => [-0.9, 0.00925, 241]
+ * ```
  */
 export function readJsonFile(path: string): unknown {
   let bytes: Uint8Array;

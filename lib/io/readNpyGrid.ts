@@ -70,8 +70,8 @@ export const READ_NPY_DEFAULTS = Object.freeze({
  * Example
  * -------
  * ```ts
- * const { cube } = readNpyGrid("dot.npy", readJsonFile("dot.json"));
- * cube.currentA.length; // => ny·nx·nbias
+ * const { cube } = readNpyGrid("sample-curves/grid/dot-grid.npy", readJsonFile("sample-curves/grid/dot-grid.json"));
+ * cube.currentA.length; // => 138816 (24 × 24 pixels × 241 biases)
  * ```
  */
 export function readNpyGrid(path: string, sidecar: unknown, options: ReadNpyGridOptions = {}, sidecarSource = "sidecar"): NpyGridResult {

@@ -45,7 +45,9 @@ export interface ReadTableOptions {
  *
  * Example
  * -------
- * parseMaterialJson(readTextFile("InP-ours.json", "material file"), "InP-ours.json");
+ * ```ts
+ * JSON.parse(readTextFile("sample-curves/grid/dot-grid.json", "grid sidecar")).currentUnit; // => "pA"
+ * ```
  */
 export function readTextFile(path: string, what: string, options: ReadTableOptions = {}): string {
   let bytes: Uint8Array;
@@ -92,9 +94,11 @@ export interface SizeMetaFileRow extends SizeMetaRow {
  *
  * Example
  * -------
+ * ```ts
  * readSizeMetaFile("sample-curves/series/META.csv", "sample-curves/series/curves")[0];
  * // => { line: 3, file: "qd-7-s01-1.csv", dot: "QD-7-S01", radiusNM: 1.5, eta: 0.86, notes: null,
  * //      path: "sample-curves/series/curves/qd-7-s01-1.csv" }
+ * ```
  */
 export function readSizeMetaFile(path: string, dir: string, options: ReadTableOptions = {}): SizeMetaFileRow[] {
   const rows = parseSizeMeta(readTextFile(path, "size table", options), path);
@@ -135,8 +139,10 @@ export function readSizeMetaFile(path: string, dir: string, options: ReadTableOp
  *
  * Example
  * -------
+ * ```ts
  * readOpticalFile("sample-curves/series/optical.csv")[0];
  * // => { line: 3, radiusNM: 1.5, peaksEV: [2.671, 3.581] }
+ * ```
  */
 export function readOpticalFile(path: string, options: ReadTableOptions = {}): OpticalTableRow[] {
   return parseOpticalTable(readTextFile(path, "optical table", options), path);

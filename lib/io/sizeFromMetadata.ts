@@ -38,8 +38,10 @@ export interface MetadataSize {
  *
  * Example
  * -------
+ * ```ts
  * sizeFromMetadata({ dot: "QD-7-A01", diameter_nm: "3.2" });
  * // => { dot: "QD-7-A01", radiusNM: 1.6, key: "diameter_nm", problem: null }
+ * ```
  */
 export function sizeFromMetadata(metadata: Record<string, string>): MetadataSize {
   const lower = new Map<string, [string, string]>();

@@ -38,8 +38,10 @@ export interface Segment {
  *
  * Example
  * -------
+ * ```ts
  * splitMonotonic([0, 1, 2, 1, 0]);
  * // => [{start: 0, end: 2, direction: 1}, {start: 2, end: 4, direction: -1}]
+ * ```
  */
 export function splitMonotonic(biasV: ArrayLike<number>): Segment[] {
   const n = biasV.length;
@@ -95,8 +97,10 @@ export function splitMonotonic(biasV: ArrayLike<number>): Segment[] {
  *
  * Example
  * -------
+ * ```ts
  * chooseSweeps(Float64Array.of(0, 1, 2, 1, 0), splitMonotonic([0, 1, 2, 1, 0]), 3, 0.9);
  * // => [{start: 0, end: 2, direction: 1}, {start: 2, end: 4, direction: -1}]
+ * ```
  */
 export function chooseSweeps(
   biasV: Float64Array,
@@ -156,8 +160,10 @@ export interface MergedSweep {
  *
  * Example
  * -------
+ * ```ts
  * mergeDuplicates([0, 1, 1, 2], [[0, 10, 20, 30]], [0, 1, 2, 3]);
  * // => {biasV: [0, 1, 2], values: [[0, 15, 30]], merged: 1}
+ * ```
  */
 export function mergeDuplicates(
   biasV: ArrayLike<number>,

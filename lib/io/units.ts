@@ -109,9 +109,11 @@ function clean(text: string): string {
  *
  * Example
  * -------
+ * ```ts
  * findUnit("pA");  // => {unit: "pA", quantity: "current", scale: 1e-12, exponent: -12, caseFolded: false}
  * findUnit("mv", "bias")?.unit;  // => "mV" (caseFolded: true)
  * findUnit("kV");  // => null
+ * ```
  */
 export function findUnit(text: string, quantity?: Quantity): UnitInfo | null {
   const t = clean(text);
@@ -144,13 +146,15 @@ export function findUnit(text: string, quantity?: Quantity): UnitInfo | null {
  *
  * Throws
  * ------
- * DotspecError `io/unknown-unit`
- *     When the text is not an accepted unit (of that quantity); the message lists the accepted units.
+ * DotspecError
+ *     `io/unknown-unit` when the text is not an accepted unit (of that quantity); the message lists the accepted units.
  *
  * Example
  * -------
+ * ```ts
  * parseUnit("nA").scale;  // => 1e-9
  * parseUnit("kV", "bias");  // throws: unit "kV" is not a bias unit; use one of V, mV, µV, μV, uV
+ * ```
  */
 export function parseUnit(text: string, quantity?: Quantity, where = "unit"): UnitInfo {
   const found = findUnit(text, quantity);
@@ -172,9 +176,23 @@ export function parseUnit(text: string, quantity?: Quantity, where = "unit"): Un
  * Divides by the exact power of ten 10^−exponent rather than multiplying by the inexact scale:
  * one correctly rounded operation, so that `1.25` mV becomes exactly the double nearest to 0.00125.
  *
+ * Parameters
+ * ----------
+ * value : number
+ *     The value in the unit.
+ * unit : Pick<UnitInfo, "exponent">
+ *     The unit (its power of ten), e.g. from {@link parseUnit}.
+ *
+ * Returns
+ * -------
+ * number
+ *     The value in V, A or S.
+ *
  * Example
  * -------
+ * ```ts
  * toSI(1.25, parseUnit("mV"));  // => 0.00125
+ * ```
  */
 export function toSI(value: number, unit: Pick<UnitInfo, "exponent">): number {
   switch (unit.exponent) {

@@ -38,7 +38,14 @@ let tempCounter = 0;
  *
  * Example
  * -------
- * writeTextFile("report/summary.csv", formatCsv(rows));
+ * ```ts
+ * import { readFileSync } from "node:fs";
+ * import { tmpdir } from "node:os";
+ * import { join } from "node:path";
+ * const path = join(tmpdir(), "dotspec-example", "summary.csv");
+ * writeTextFile(path, formatCsv([{ dot: "dot-01", gap_eV: 1.92 }]));
+ * readFileSync(path, "utf8"); // => "dot,gap_eV\ndot-01,1.92\n"
+ * ```
  */
 export function writeTextFile(path: string, text: string): void {
   if (typeof path !== "string" || path === "") {

@@ -48,8 +48,12 @@ export interface FittedScenarioOptions {
  *
  * Example
  * -------
+ * ```ts
+ * const analysis = analyzeCurve(readCurveFile("sample-curves/dot-01.csv").curve);
  * const fit = fitCurve(analysis);
  * const curve = simulateCurve({ ...fittedScenario(fit, analysis), noise: { relative: 0.003, seed: 1 } });
+ * curve.biasV.length; // => 2000
+ * ```
  */
 export function fittedScenario(fit: CurveFit, analysis: CurveAnalysis, options: FittedScenarioOptions = {}): Scenario {
   checkKnownKeys("fittedScenario options", options, ["temperatureK"]);

@@ -61,8 +61,11 @@ export const STARTING_SCENARIO_DEFAULTS = Object.freeze({
  *
  * Example
  * -------
+ * ```ts
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
  * const scenario = startingScenario(analyzeCurve(curve, { eta: 0.8 }));
- * const model = simulateCurve(scenario, { method: "fast" });
+ * simulateCurve(scenario, { method: "fast" }).biasV.length; // => 2000
+ * ```
  */
 export function startingScenario(analysis: CurveAnalysis, options: StartingScenarioOptions = {}): Scenario {
   checkKnownKeys("startingScenario options", options, ["eta", "temperatureK", "chargingEnergyGuessEV"]);

@@ -121,9 +121,28 @@ export interface AnalysisJsonExtras {
 /**
  * Turns an analysis into its JSON record.
  *
- * @param analysis - from analyzeCurve.
- * @param importRecord - what the importer reported (optional).
- * @param extras - notes, the file's metadata and the provenance (optional; see {@link AnalysisJsonExtras}).
+ * Parameters
+ * ----------
+ * analysis : CurveAnalysis
+ *     From analyzeCurve.
+ * importRecord : ImportRecord, optional
+ *     What the importer reported (optional).
+ * extras : AnalysisJsonExtras, optional
+ *     Notes, the file's metadata and the provenance (optional; see {@link AnalysisJsonExtras}).
+ *
+ * Returns
+ * -------
+ * AnalysisJson
+ *     The record, plain JSON values only (see {@link AnalysisJson}).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const { curve, record } = readCurveFile("sample-curves/dot-01.csv");
+ * const json = analysisToJson(analyzeCurve(curve), record);
+ * json.regime; // => "shell-filling"
+ * json.gapV; // => 3.055 (V)
+ * ```
  */
 export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRecord, extras: AnalysisJsonExtras = {}): AnalysisJson {
   const a = analysis.assignment;

@@ -104,10 +104,11 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  * Example
  * -------
  * ```ts
- * // A good intermediate fit whose answer carries all the BIC weight, on a curve the rules left open:
- * const m = modelComparisonJson(fitToJson(fitCurve(analysis, { compareModels: true }), analysisToJson(analysis)), "undecided");
+ * const analysis = analyzeCurve(readCurveFile("sample-curves/dot-01.csv").curve);
+ * const m = modelComparisonJson(fitToJson(fitCurve(analysis, { compareModels: true }), analysisToJson(analysis)), "all");
+ * // As if the rules had left the regime open: the fit's answer carries all the BIC weight.
  * comparisonDecision(m, { regime: "undetermined", chargingEnergyEV: null }).decision;
- * // => "the record stands by the fit (intermediate): the rules left the regime undetermined, the fit is good and the groupings that give its answer (best: ladder-empty-1 2+6) carry 1.00 of the BIC weight (≥ 0.9)"
+ * // => "the record stands by the fit (shell-filling): the rules left the regime undetermined, the fit is good and the groupings that give its answer (best: assigned) carry 1.00 of the BIC weight (≥ 0.9)"
  * ```
  */
 export function comparisonDecision(comparison: ModelComparisonJson, rules: RulesAnswer, options: ComparisonDecisionOptions = {}): ComparisonDecision {

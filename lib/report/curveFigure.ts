@@ -148,8 +148,10 @@ function quantitiesLine(analysis: CurveAnalysis): string {
  *
  * Example
  * -------
+ * ```ts
  * const svg = curveFigure(analysis, { document: new JSDOM("").window.document, curve });
  * svg.startsWith("<svg"); // => true
+ * ```
  */
 export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions = {}): string {
   const D = CURVE_FIGURE_DEFAULTS;

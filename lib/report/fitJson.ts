@@ -72,8 +72,26 @@ const round = (v: number) => Number(v.toPrecision(8));
 /**
  * Turns a fit into its JSON record.
  *
- * @param fit - from fitCurve.
- * @param peakBased - the analysis record it started from (analysisToJson).
+ * Parameters
+ * ----------
+ * fit : CurveFit
+ *     From fitCurve.
+ * peakBased : AnalysisJson
+ *     The analysis record it started from (analysisToJson).
+ *
+ * Returns
+ * -------
+ * FitJson
+ *     The fit's record, plain JSON values only (see {@link FitJson}).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const analysis = analyzeCurve(readCurveFile("sample-curves/dot-01.csv").curve);
+ * const json = fitToJson(fitCurve(analysis), analysisToJson(analysis));
+ * json.regime; // => "shell-filling"
+ * json.status; // => "good"
+ * ```
  */
 export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
   const band = (b: "CB" | "VB") =>
@@ -133,7 +151,28 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
   };
 }
 
-/** A readable report of a fit, for the terminal. */
+/**
+ * A readable report of a fit, for the terminal.
+ *
+ * Parameters
+ * ----------
+ * fit : FitJson
+ *     A fit's record ({@link fitToJson}).
+ *
+ * Returns
+ * -------
+ * string
+ *     Lines of text, each ending in a line end: the headline (source, regime, η), the status and
+ *     its reasons, the fitted levels and parameters with their standard errors, the warnings.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const analysis = analyzeCurve(readCurveFile("sample-curves/dot-01.csv").curve);
+ * formatFitText(fitToJson(fitCurve(analysis), analysisToJson(analysis))).split("\n")[0];
+ * // => "sample-curves/dot-01.csv  ·  model fit: good  ·  η = 1 (held fixed)"
+ * ```
+ */
 export function formatFitText(fit: FitJson): string {
   const pm = (v: FittedValue, scale = 1, digits = 4) =>
     `${(v.value * scale).toFixed(digits)} ± ${Number.isFinite(v.standardError) ? (v.standardError * scale).toFixed(digits) : "—"}`;

@@ -96,8 +96,11 @@ function sig3(x: number): string {
  *
  * Example
  * -------
- * formatAnalysisText(analysisToJson(analyzeCurve(curve, { eta: 0.85 })));
- * // => "dot-07.csv  ·  shell filling  ·  η = 0.85\n  …\n"
+ * ```ts
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
+ * formatAnalysisText(analysisToJson(analyzeCurve(curve, { eta: 0.85 }))).split("\n")[0];
+ * // => "sample-curves/dot-01.csv  ·  shell filling  ·  η = 0.85"
+ * ```
  */
 export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTextOptions = {}): string {
   const D = FORMAT_TEXT_DEFAULTS;

@@ -45,7 +45,12 @@ function table(rows: string[][]): string[] {
  *
  * Example
  * -------
- * process.stdout.write(formatSizeSeriesText(sizeSeriesToJson(series)));
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s05-1.csv"].map((file, i) => ({
+ *   file, dot: null, radiusNM: [1.5, 2][i], values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
+ * }));
+ * formatSizeSeriesText(sizeSeriesToJson(sizeSeries(curves))).split("\n")[0]; // => "Size series: 2 dot(s), 2 curve(s); no material"
+ * ```
  */
 export function formatSizeSeriesText(series: SizeSeriesJson, options: FormatSizeSeriesTextOptions = {}): string {
   const dp = options.decimals ?? FORMAT_SIZES_TEXT_DEFAULTS.decimals;

@@ -38,8 +38,10 @@ export const FORMAT_UNCERTAIN_DEFAULTS = Object.freeze({ digits: 2, maxDecimals:
  *
  * Example
  * -------
+ * ```ts
  * formatUncertain(142.31, 1.84); // => "142.3 ± 1.8"
  * formatUncertain(3055.42, 13);  // => "3055 ± 13"
+ * ```
  */
 export function formatUncertain(value: number, sigma: number | null, options: FormatUncertainOptions = {}): string {
   const digits = options.digits ?? FORMAT_UNCERTAIN_DEFAULTS.digits;

@@ -73,7 +73,10 @@ export interface GridJson {
  * Example
  * -------
  * ```ts
- * gridToJson(grid).maps[0]; // => { label: "v1", kind: "peak", biasV: -0.75, rmsRadiusNM: 1.03, … }
+ * const grid = analyzeGrid(readGridFile("sample-curves/grid/dot-grid.npy").cube, { eta: 0.8 });
+ * const map = gridToJson(grid).maps[0];
+ * [map.label, map.kind]; // => ["v1", "peak"]
+ * map.rmsRadiusNM; // => 1.014
  * ```
  */
 export function gridToJson(grid: GridAnalysis, missingPixels = 0, warnings: readonly string[] = []): GridJson {
@@ -120,11 +123,23 @@ export const GRID_PROFILE_COLUMNS = Object.freeze(["map", "unit", "radius_nm", "
  * The radial profiles of every map as rows for one CSV (`profiles.csv`): map label, map unit, ring
  * centre radius (nm), mean of the thresholded map in the ring, pixels in the ring.
  *
+ * Parameters
+ * ----------
+ * grid : GridAnalysis
+ *     A grid's analysis ({@link analyzeGrid}).
+ *
+ * Returns
+ * -------
+ * Record<string, string | number>[]
+ *     One row per map and ring, keys as {@link GRID_PROFILE_COLUMNS}: `map`, `unit`, `radius_nm`,
+ *     `mean`, `pixels`.
+ *
  * Example
  * -------
  * ```ts
- * formatCsv(gridProfileRows(grid), GRID_PROFILE_COLUMNS);
- * // => "map,unit,radius_nm,mean,pixels\ns,S,0.225,1.9e-10,4\n…"
+ * const grid = analyzeGrid(readGridFile("sample-curves/grid/dot-grid.npy").cube, { eta: 0.8 });
+ * formatCsv(gridProfileRows(grid), GRID_PROFILE_COLUMNS).split("\n").slice(0, 2);
+ * // => ["map,unit,radius_nm,mean,pixels", "v1,S,0.15,1.6302171965210314e-10,4"]
  * ```
  */
 export function gridProfileRows(grid: GridAnalysis): Record<string, string | number>[] {

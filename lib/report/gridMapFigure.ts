@@ -54,7 +54,8 @@ const UNIT_LABEL = { S: ["dI/dV", "nS", 1e9], A: ["current", "pA", 1e12] } as co
  *
  * Throws
  * ------
- * DotspecError `report/no-document` without a document.
+ * DotspecError
+ *     `report/no-document` without a document.
  *
  * Example
  * -------

@@ -26,8 +26,12 @@ export type CurveFigureRenderer = (analysis: CurveAnalysis, options?: Omit<Curve
  *
  * Example
  * -------
+ * ```ts
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
+ * const analysis = analyzeCurve(curve);
  * const curveFigure = await loadCurveFigure();
- * writeTextFile("report/dot-07.svg", curveFigure(analysis, { curve }));
+ * curveFigure(analysis, { curve }).startsWith("<svg"); // => true
+ * ```
  */
 export async function loadCurveFigure(document?: Document): Promise<CurveFigureRenderer> {
   const [{ curveFigure }, doc] = await Promise.all([import("./curveFigure.ts"), document ?? figureDocument()]);
@@ -52,8 +56,11 @@ export type ModelFigureRenderer = (analysis: CurveAnalysis, options?: Omit<Model
  *
  * Example
  * -------
+ * ```ts
+ * const analysis = analyzeCurve(readCurveFile("sample-curves/dot-01.csv").curve);
  * const modelFigure = await loadModelFigure();
- * const svg = modelFigure(analysis, { fit: fitCurve(analysis) });
+ * modelFigure(analysis, { fit: fitCurve(analysis) }).startsWith("<svg"); // => true
+ * ```
  */
 export async function loadModelFigure(document?: Document): Promise<ModelFigureRenderer> {
   const [{ modelFigure }, doc] = await Promise.all([import("./modelFigure.ts"), document ?? figureDocument()]);

@@ -16,14 +16,19 @@ export type GridMapFigureRenderer = (map: GridMap, options?: Omit<GridMapFigureO
  * Parameters
  * ----------
  * document : Document, optional
- *     The DOM document to draw in. Default: `globalThis.document` in a browser; in Node a jsdom
- *     document whose canvas elements encode PNG (jsdom has no canvas of its own).
+ *     The document to draw in; default a jsdom document (Node) or the page's (browser).
+ *
+ * Returns
+ * -------
+ * Promise<GridMapFigureRenderer>
+ *     The figure function: a map (and its options) in, an SVG string out.
  *
  * Example
  * -------
  * ```ts
+ * const grid = analyzeGrid(readGridFile("sample-curves/grid/dot-grid.npy").cube, { eta: 0.8 });
  * const draw = await loadGridMapFigure();
- * const svg = draw(grid.maps[0]);
+ * draw(grid.maps[0]).startsWith("<svg"); // => true
  * ```
  */
 export async function loadGridMapFigure(document?: Document): Promise<GridMapFigureRenderer> {

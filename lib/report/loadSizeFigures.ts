@@ -37,8 +37,13 @@ export type SizeFiguresRenderer = (series: SizeSeries, options?: Omit<SizeFigure
  *
  * Example
  * -------
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s05-1.csv"].map((file, i) => ({
+ *   file, dot: null, radiusNM: [1.5, 2][i], values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
+ * }));
  * const sizeFigures = await loadSizeFigures();
- * writeTextFile("report/sizes-gap.svg", sizeFigures(series).gap!);
+ * sizeFigures(sizeSeries(curves)).gap!.startsWith("<svg"); // => true
+ * ```
  */
 export async function loadSizeFigures(document?: Document): Promise<SizeFiguresRenderer> {
   const [{ sizeFigures }, doc] = await Promise.all([import("./sizeFigures.ts"), document ?? figureDocument()]);

@@ -80,7 +80,11 @@ export interface ModelComparisonJson {
  *
  * Example
  * -------
- * modelComparisonJson(fitToJson(fit, record), "undecided").regime; // => "intermediate"
+ * ```ts
+ * const analysis = analyzeCurve(readCurveFile("sample-curves/dot-01.csv").curve);
+ * const fit = fitCurve(analysis, { compareModels: true });
+ * modelComparisonJson(fitToJson(fit, analysisToJson(analysis)), "all").regime; // => "shell-filling"
+ * ```
  */
 export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope, context?: { ranBecause: string[]; rules: RulesAnswer }): ModelComparisonJson {
   const record: ModelComparisonJson = {
@@ -122,7 +126,9 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope, con
  *
  * Example
  * -------
+ * ```ts
  * failedModelComparison("no multiplets to fit", "undecided").status; // => "failed"
+ * ```
  */
 export function failedModelComparison(reason: string, scope: CompareModelsScope, ranBecause?: string[]): ModelComparisonJson {
   const record: ModelComparisonJson = {
@@ -169,8 +175,9 @@ export function failedModelComparison(reason: string, scope: CompareModelsScope,
  * Example
  * -------
  * ```ts
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
  * compareModelsReasons(analyzeCurve(curve), "undecided");
- * // => null on a curve the rules decide; e.g. ["the regime is undetermined: …"] on one they do not
+ * // => null (the rules decide this curve; a list of reasons on a curve they leave open)
  * ```
  */
 export function compareModelsReasons(analysis: CurveAnalysis, scope: CompareModelsScope): string[] | null {

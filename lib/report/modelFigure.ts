@@ -101,7 +101,9 @@ export const MODEL_FIGURE_DEFAULTS = Object.freeze({
  *
  * Example
  * -------
+ * ```ts
  * const svg = modelFigure(analysis, { document, model: simulateCurve(startingScenario(analysis), { method: "fast" }) });
+ * ```
  */
 export function modelFigure(analysis: CurveAnalysis, options: ModelFigureOptions = {}): string {
   const D = MODEL_FIGURE_DEFAULTS;

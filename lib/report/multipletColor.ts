@@ -53,8 +53,10 @@ export const MULTIPLET_COLORS = Object.freeze({
  *
  * Example
  * -------
+ * ```ts
  * multipletColor("p");  // => "#0072B2"
  * multipletColor(null); // => "#B3B3B3"
+ * ```
  */
 export function multipletColor(label: string | null): string {
   const C = MULTIPLET_COLORS;

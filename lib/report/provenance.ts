@@ -41,8 +41,10 @@ export interface Provenance {
  *
  * Example
  * -------
+ * ```ts
  * makeProvenance("analyze", null, { analyze: { eta: 0.85 } });
  * // => { tool: "dotspec", version: "0.1.0", command: "analyze", input: null, options: { analyze: { eta: 0.85 } } }
+ * ```
  */
 export function makeProvenance(command: string, input: Provenance["input"], options: Record<string, unknown>): Provenance {
   return { tool: "dotspec", version: DOTSPEC_VERSION, command, input: input ? { name: input.name, bytes: input.bytes, sha256: input.sha256 } : null, options };
@@ -62,6 +64,7 @@ function xmlText(s: string): string {
  * svg : string
  *     The figure, starting with its `<svg …>` element.
  * provenance : Provenance
+ *     The run's provenance ({@link makeProvenance}).
  *
  * Returns
  * -------
@@ -71,8 +74,11 @@ function xmlText(s: string): string {
  *
  * Example
  * -------
+ * ```ts
+ * const p = makeProvenance({ command: "analyze" });
  * svgWithProvenance('<svg xmlns="http://www.w3.org/2000/svg"></svg>', p);
- * // => '<svg xmlns="http://www.w3.org/2000/svg"><metadata id="dotspec-provenance">{"tool":"dotspec",…}</metadata></svg>'
+ * // => '<svg xmlns="http://www.w3.org/2000/svg"><metadata id="dotspec-provenance">{"tool":"dotspec","version":"0.1.0","command":{"command":"analyze"},"input":null}</metadata></svg>'
+ * ```
  */
 export function svgWithProvenance(svg: string, provenance: Provenance): string {
   const m = /<svg\b[^>]*>/.exec(svg);

@@ -165,8 +165,10 @@ function fitLabel(f: SizeFit): string {
  *
  * Example
  * -------
+ * ```ts
  * const figures = sizeFigures(series, { document: new JSDOM("").window.document });
  * writeTextFile("report/sizes-gap.svg", figures.gap!);
+ * ```
  */
 export function sizeFigures(series: SizeSeries, options: SizeFiguresOptions = {}): Partial<Record<SizeFigureName, string>> {
   const document = options.document ?? (globalThis as { document?: Document }).document;

@@ -85,7 +85,13 @@ const sd = (c: CombinedValue | null) => c?.sd ?? null;
  *
  * Example
  * -------
- * JSON.stringify(sizeSeriesToJson(sizeSeries(curves, { material })));
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s01-2.csv", "qd-7-s05-1.csv", "qd-7-s05-2.csv"].map((file, i) => ({
+ *   file, dot: i < 2 ? "QD-7-S01" : "QD-7-S05", radiusNM: i < 2 ? 1.5 : 2,
+ *   values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: i < 2 ? 0.86 : 0.87 })),
+ * }));
+ * sizeSeriesToJson(sizeSeries(curves, { material: resolveMaterial("InP") })).dots.length; // => 2
+ * ```
  */
 export function sizeSeriesToJson(series: SizeSeries): SizeSeriesJson {
   return {

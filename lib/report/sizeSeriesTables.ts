@@ -55,7 +55,13 @@ const BIN_KEYS = ["gapEV", "singleParticleGapEV", "chargingEnergyEV", "levelSpac
  *
  * Example
  * -------
- * writeTextFile("report/sizes-dots.csv", formatCsv(t.dots.rows, t.dots.columns));
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s05-1.csv"].map((file, i) => ({
+ *   file, dot: null, radiusNM: [1.5, 2][i], values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
+ * }));
+ * const t = sizeSeriesTables(sizeSeriesToJson(sizeSeries(curves)), curves);
+ * formatCsv(t.dots.rows, t.dots.columns).split("\n")[0].slice(0, 40); // => "dot,radius_nm,curves,regime,regime_votes"
+ * ```
  */
 export function sizeSeriesTables(series: SizeSeriesJson, curves: readonly SeriesCurveInput[]): SizeSeriesTables {
   const flagged = new Map<string, string[]>();

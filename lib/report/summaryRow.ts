@@ -57,9 +57,23 @@ export type ModelSummaryColumn = (typeof MODEL_SUMMARY_COLUMNS)[number];
  * {@link MODEL_SUMMARY_COLUMNS} when some row has a model comparison, then every `meta_<key>`
  * column that some row has, in order of first appearance.
  *
+ * Parameters
+ * ----------
+ * rows : readonly SummaryRow[]
+ *     The table's rows ({@link summaryRow}, {@link failedSummaryRow}).
+ *
+ * Returns
+ * -------
+ * string[]
+ *     The column names, in table order.
+ *
  * Example
  * -------
- * summaryColumns(rows); // => ["source", "regime", …, "options", "meta_dot", "meta_radius_nm"]
+ * ```ts
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
+ * const rows = [summaryRow(analysisToJson(analyzeCurve(curve)))];
+ * summaryColumns(rows).slice(0, 3); // => ["source", "regime", "gap_V"]
+ * ```
  */
 export function summaryColumns(rows: readonly SummaryRow[]): string[] {
   const meta = new Set<string>();
@@ -94,16 +108,23 @@ function metadataCells(metadata: Readonly<Record<string, string>> | undefined): 
  * Parameters
  * ----------
  * source : string
- *     The input as given.
+ *     The input's name (file or path).
  * reason : string
- *     The one-line reason (as printed after `dotspec: FILE: `).
+ *     Why it failed, in one line (e.g. {@link failureReason}).
  * provenance : Provenance | null, optional
- *     Version, options and, when the file could be read, its size and SHA-256.
+ *     The run's provenance for the row's columns; default null.
+ *
+ * Returns
+ * -------
+ * SummaryRow
+ *     The row: status "failed", the reason, every quantity null.
  *
  * Example
  * -------
+ * ```ts
  * failedSummaryRow("bad.csv", "line 12: 3 cells, expected 2");
  * // => { source: "bad.csv", regime: null, …, status: "failed", reason: "line 12: 3 cells, expected 2", … }
+ * ```
  */
 export function failedSummaryRow(source: string, reason: string, provenance: Provenance | null = null): SummaryRow {
   const row = {} as Record<string, string | number | null>;
@@ -132,9 +153,12 @@ export function failedSummaryRow(source: string, reason: string, provenance: Pro
  *
  * Example
  * -------
+ * ```ts
+ * const jsons = ["sample-curves/dot-01.csv", "sample-curves/dot-02.tsv"].map((file) => analysisToJson(analyzeCurve(readCurveFile(file).curve)));
  * const rows = jsons.map(summaryRow);
- * formatCsv(rows, summaryColumns(rows));
- * // => "source,regime,gap_V,…\ndot-07.csv,shell-filling,1.4994,…\n"
+ * formatCsv(rows, summaryColumns(rows)).split("\n")[1].slice(0, 40);
+ * // => "sample-curves/dot-01.csv,shell-filling,3"
+ * ```
  */
 export function summaryRow(json: AnalysisJson): SummaryRow {
   const e = json.energies;

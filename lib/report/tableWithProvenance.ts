@@ -31,8 +31,10 @@ export interface ProvenanceTable {
  *
  * Example
  * -------
+ * ```ts
  * tableWithProvenance({ columns: ["dot"], rows: [{ dot: "A" }] }, makeProvenance("sizes", null, { binNM: 0.25 }));
  * // => { columns: ["dot", "tool_version", "options"], rows: [{ dot: "A", tool_version: "0.1.0", options: '{"binNM":0.25}' }] }
+ * ```
  */
 export function tableWithProvenance(
   table: ProvenanceTable,

@@ -293,7 +293,7 @@ export function differentiatedNoiseS(noiseCurrentA: number, windowSamples: numbe
  * Example
  * -------
  * ```ts
- * const prepared = prepareCurve(curve);
+ * const prepared = prepareCurve(readCurveFile("sample-curves/dot-01.csv").curve);
  * const narrow = conductanceFromPrepared(prepared, { windowMV: 20 });
  * const wide = conductanceFromPrepared(prepared, { windowMV: 60 });
  * wide.record.windowMV > narrow.record.windowMV; // => true

@@ -72,10 +72,12 @@ export interface FindSaturationOptions {
  *
  * Example
  * -------
+ * ```ts
  * const biasV = Float64Array.from({ length: 101 }, (_, i) => -1 + 0.02 * i);
  * const currentA = biasV.map((v) => Math.min(1e-9 * v, 0.8e-9));
  * findSaturation(biasV, currentA, { noiseA: 0 });
  * // => [{ end: "positive", indices: [90, 100], biasV: [0.8, 1], levelA: 8e-10 }]
+ * ```
  */
 export function findSaturation(biasV: ArrayLike<number>, currentA: ArrayLike<number>, options: FindSaturationOptions): SaturatedRange[] {
   const D = SATURATION_DEFAULTS;

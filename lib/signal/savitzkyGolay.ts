@@ -37,7 +37,26 @@ export const SAVITZKY_GOLAY_DEFAULTS = Object.freeze({
   maxDerivative: 2,
 });
 
-/** Smallest valid window (odd, ≥ 5, ≥ order + 2) for a polynomial order. */
+/**
+ * Smallest valid window (odd, ≥ 5, ≥ order + 2) for a polynomial order.
+ *
+ * Parameters
+ * ----------
+ * order : number
+ *     Polynomial order of the filter (1–5).
+ *
+ * Returns
+ * -------
+ * number
+ *     The smallest odd window, in samples, of at least 5 and order + 2.
+ *
+ * Example
+ * -------
+ * ```ts
+ * minimumWindowSamples(3); // => 5
+ * minimumWindowSamples(4); // => 7
+ * ```
+ */
 export function minimumWindowSamples(order: number): number {
   const n = Math.max(SAVITZKY_GOLAY_DEFAULTS.minWindowSamples, order + 2);
   return n % 2 === 1 ? n : n + 1;

@@ -23,7 +23,29 @@ export const BRACKET_ROOT_DEFAULTS = Object.freeze({
 /**
  * Finds x in [a, b] with f(x) = 0, given f(a) and f(b) of opposite signs.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * f : (x: number) => number
+ *     The function; must be continuous on [a, b].
+ * a : number
+ *     One end of the bracket.
+ * b : number
+ *     The other end.
+ * options : BracketRootOptions, optional
+ *     Tolerances and the iteration cap; default {}: {@link BRACKET_ROOT_DEFAULTS}.
+ *
+ * Returns
+ * -------
+ * number
+ *     The root.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `sizes/no-bracket` when f(a) and f(b) have the same sign or are not finite.
+ *
+ * Notes
+ * -----
  * 1. Keep a bracket [a, b] with f(a)·f(b) ≤ 0.
  * 2. Try the false-position (regula falsi) point; when the same end has been kept twice in a
  *    row, halve its stored function value (the Illinois modification), which restores
@@ -31,18 +53,16 @@ export const BRACKET_ROOT_DEFAULTS = Object.freeze({
  * 3. If the trial point does not fall strictly inside the bracket, bisect instead.
  * 4. Stop when the bracket is narrower than atol + rtol·|x|, or f(x) = 0 exactly.
  *
- * References: M. Dowell and P. Jarratt, "A modified regula falsi method for computing the root
- * of an equation", BIT 11, 168–174 (1971) (the Illinois method).
+ * References
+ * ----------
+ * M. Dowell and P. Jarratt, "A modified regula falsi method for computing the root of an equation",
+ * BIT 11, 168–174 (1971) (the Illinois method).
  *
- * @param f - the function; must be continuous on [a, b].
- * @param a - one end of the bracket.
- * @param b - the other end.
- * @param options - tolerances and the iteration cap.
- * @returns the root.
- * @throws DotspecError `sizes/no-bracket` when f(a) and f(b) have the same sign or are not finite.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * bracketRoot((x) => x * x - 2, 0, 2); // => 1.4142135623730951
+ * ```
  */
 export function bracketRoot(f: (x: number) => number, a: number, b: number, options: BracketRootOptions = {}): number {
   const atol = options.absoluteTolerance ?? BRACKET_ROOT_DEFAULTS.absoluteTolerance;

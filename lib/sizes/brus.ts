@@ -33,23 +33,41 @@ export const BRUS_DEFAULTS = Object.freeze({
  * The optical gap of a spherical crystallite of radius R:
  * E = Eg + ħ²π²/(2R²)·(1/mₑ* + 1/m_h*) − 1.786·e²/(4πε₀·ε·R) − 0.248·E*_Ry.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * radiusNM : number
+ *     Crystallite radius R, nm (> 0).
+ * material : Material
+ *     Bulk gap, masses and static dielectric constant ({@link Material}).
+ *
+ * Returns
+ * -------
+ * BrusGap
+ *     The gap and its terms ({@link BrusGap}).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-positive` for a radius ≤ 0.
+ *
+ * Notes
+ * -----
  * 1. Confinement: both carriers in their 1S level of an infinite spherical well.
  * 2. Coulomb: first-order electron–hole attraction in those states, 1.786·e²/(4πε₀εR).
  * 3. Correlation: 0.248 times the bulk exciton Rydberg E*_Ry = Ry·μ/ε², μ = mₑ·m_h/(mₑ + m_h).
  * 4. A comparison curve, not a fit: the simple model overestimates the gap of small crystallites
  *    (finite barriers and non-parabolic bands lower the confinement).
  *
- * References: L. E. Brus, J. Chem. Phys. 80, 4403 (1984); Y. Kayanuma, Phys. Rev. B 38, 9797
- * (1988) (the 0.248·E*_Ry term).
+ * References
+ * ----------
+ * L. E. Brus, J. Chem. Phys. 80, 4403 (1984); Y. Kayanuma, Phys. Rev. B 38, 9797 (1988) (the
+ * 0.248·E*_Ry term).
  *
- * @param radiusNM - crystallite radius R, nm (> 0).
- * @param material - bulk gap, masses and static dielectric constant ({@link Material}).
- * @returns the gap and its terms ({@link BrusGap}).
- * @throws DotspecError `options/not-positive` for a radius ≤ 0.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * brusGap(2, MATERIALS.CdSe).gapEV; // => 2.6329 (1.84 + 0.9320 − 0.1354 − 0.0038)
+ * ```
  */
 export function brusGap(radiusNM: number, material: Material): BrusGap {
   checkPositive("radiusNM", radiusNM);

@@ -22,11 +22,26 @@ const WAVELENGTH_RANGE_NM = [400, 680] as const;
  * The CdSe diameter (nm) for a first-exciton absorption peak at `wavelengthNM`, from the
  * empirical polynomial of Yu et al. ({@link CDSE_SIZING_COEFFICIENTS}).
  *
- * @param wavelengthNM - first-exciton absorption wavelength, nm (400–680).
- * @returns diameter, nm.
+ * Parameters
+ * ----------
+ * wavelengthNM : number
+ *     First-exciton absorption wavelength, nm (400–680).
  *
- * @example
+ * Returns
+ * -------
+ * number
+ *     Diameter, nm.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/out-of-range` for a wavelength outside 400–680 nm, the range of the sizing curve.
+ *
+ * Example
+ * -------
+ * ```ts
  * cdseDiameterNM(600); // => 4.583
+ * ```
  */
 export function cdseDiameterNM(wavelengthNM: number): number {
   checkRange("wavelengthNM", wavelengthNM, WAVELENGTH_RANGE_NM[0], WAVELENGTH_RANGE_NM[1]);
@@ -38,12 +53,26 @@ export function cdseDiameterNM(wavelengthNM: number): number {
  * {@link cdseDiameterNM}, which increases monotonically over 400–680 nm, found with a bracketed
  * root finder.
  *
- * @param diameterNM - diameter, nm (within the curve's range, about 1.55–10.9 nm).
- * @returns wavelength, nm.
- * @throws DotspecError `options/out-of-range` outside the curve's range.
+ * Parameters
+ * ----------
+ * diameterNM : number
+ *     Diameter, nm (within the curve's range, about 1.55–10.9 nm).
  *
- * @example
+ * Returns
+ * -------
+ * number
+ *     Wavelength, nm.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/out-of-range` outside the curve's range.
+ *
+ * Example
+ * -------
+ * ```ts
  * cdseFirstExcitonWavelengthNM(4); // => 585.3
+ * ```
  */
 export function cdseFirstExcitonWavelengthNM(diameterNM: number): number {
   checkPositive("diameterNM", diameterNM);
@@ -72,12 +101,23 @@ export interface BrusDeviationRow {
 /**
  * The Brus optical gap ({@link brusGap}) beside the empirical CdSe sizing curve, per diameter.
  *
- * @param diametersNM - diameters, nm (each within the sizing curve's range).
- * @param material - the parameters for the Brus model. Default: the built-in CdSe.
- * @returns one row per diameter.
+ * Parameters
+ * ----------
+ * diametersNM : readonly number[]
+ *     Diameters, nm (each within the sizing curve's range).
+ * material : Material, optional
+ *     The parameters for the Brus model. Default: the built-in CdSe.
  *
- * @example
+ * Returns
+ * -------
+ * BrusDeviationRow[]
+ *     One row per diameter.
+ *
+ * Example
+ * -------
+ * ```ts
  * brusVersusCdSeSizing([2])[0].deviationEV; // => 2.58 (eV; 5.29 against 2.72)
+ * ```
  */
 export function brusVersusCdSeSizing(diametersNM: readonly number[], material: Material = MATERIALS.CdSe): BrusDeviationRow[] {
   return diametersNM.map((diameterNM) => {

@@ -21,12 +21,28 @@ export const CHARGING_ENERGY_DEFAULTS = Object.freeze({ dielectricConstant: 1, o
  * The self-capacitance of a sphere of radius R in a medium of relative permittivity ε:
  * C = 4πε₀·ε·R, in farads.
  *
- * @param radiusNM - radius, nm (> 0).
- * @param dielectricConstant - ε (> 0).
- * @returns C in F.
+ * Parameters
+ * ----------
+ * radiusNM : number
+ *     Radius, nm (> 0).
+ * dielectricConstant : number
+ *     ε, the relative permittivity around the sphere (dimensionless, > 0).
  *
- * @example
+ * Returns
+ * -------
+ * number
+ *     C in F.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-positive` for a radius or dielectric constant ≤ 0.
+ *
+ * Example
+ * -------
+ * ```ts
  * sphereCapacitanceF(2, 1); // => 2.2253e-19 (0.2225 aF)
+ * ```
  */
 export function sphereCapacitanceF(radiusNM: number, dielectricConstant: number): number {
   checkPositive("radiusNM", radiusNM);
@@ -37,22 +53,42 @@ export function sphereCapacitanceF(radiusNM: number, dielectricConstant: number)
 /**
  * The addition energy of a sphere, Ec = e²/C = e²/(4πε₀·ε_eff·R) + c₀, eV.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * radiusNM : number
+ *     Radius R, nm (> 0).
+ * options : ChargingEnergyOptions, optional
+ *     ε_eff and c₀ ({@link ChargingEnergyOptions}); default {}: each field at its documented default.
+ *
+ * Returns
+ * -------
+ * number
+ *     Ec, eV.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-positive` for a radius or dielectric constant ≤ 0, `options/not-finite` for an
+ *     offset that is not finite.
+ *
+ * Notes
+ * -----
  * 1. C = 4πε₀ε_eff·R is the self-capacitance of an isolated sphere (closed form); the addition
  *    energy of one more electron is e²/C (this project's convention: the spacing of successive
  *    charging peaks, not e²/2C).
  * 2. c₀ absorbs what the 1/R law misses (the image charges of tip and substrate, the
  *    polarisation of the ligand shell); fitted Ec(R) gives ε_eff and c₀.
  *
- * References: any electrostatics text, e.g. J. D. Jackson, Classical Electrodynamics, 3rd ed.
- * (Wiley, 1999), §1.11 (capacitance of a sphere).
+ * References
+ * ----------
+ * any electrostatics text, e.g. J. D. Jackson, Classical Electrodynamics, 3rd ed. (Wiley, 1999), §1.11
+ * (capacitance of a sphere).
  *
- * @param radiusNM - radius R, nm (> 0).
- * @param options - ε_eff and c₀ ({@link ChargingEnergyOptions}).
- * @returns Ec, eV.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * chargingEnergyEV(2); // => 0.71998 (e²/(4πε₀·2 nm))
+ * ```
  */
 export function chargingEnergyEV(radiusNM: number, options: ChargingEnergyOptions = {}): number {
   checkPositive("radiusNM", radiusNM);

@@ -168,8 +168,10 @@ function median(sorted: readonly number[]): number {
  *
  * Example
  * -------
+ * ```ts
  * flagOutliers([1.00, 1.01, 0.99, 1.50], [0.01, 0.01, 0.01, 0.01]).map((v) => v.outlier);
  * // => [false, false, false, true]
+ * ```
  */
 export function flagOutliers(values: readonly number[], sigmas: readonly (number | null)[], options: CombineCurvesOptions = {}): OutlierVerdict[] {
   const { outlierScore, pairScore } = { ...COMBINE_DEFAULTS, ...options };
@@ -257,10 +259,13 @@ interface Column {
  *
  * Example
  * -------
- * // a, b: analysis records with gaps 2.00 and 2.02 V (1σ 1 mV each), η 0.8
- * const dot = combineCurves([{ file: "a.csv", values: a }, { file: "b.csv", values: b }]);
- * dot.bias.gapV;      // => { mean: 2.01, standardError: 0.01, sd: 0.01414, n: 2, files: ["a.csv", "b.csv"] }
- * dot.energies.gapEV; // => { mean: 1.608, standardError: 0.008, sd: 0.01131, n: 2, files: ["a.csv", "b.csv"] }
+ * ```ts
+ * const analysed = (file: string) => analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 }));
+ * const dot = combineCurves([{ file: "qd-7-s01-1.csv", values: analysed("qd-7-s01-1.csv") }, { file: "qd-7-s01-2.csv", values: analysed("qd-7-s01-2.csv") }]);
+ * dot.bias.gapV;
+ * // => { mean: 3.42927…, standardError: 0.00088…, sd: 0.00045…, n: 2, files: ["qd-7-s01-1.csv", "qd-7-s01-2.csv"] }
+ * dot.energies.gapEV!.mean; // => 2.949 (eV: η·gapV per curve, then the mean)
+ * ```
  */
 export function combineCurves(curves: readonly DotCurve[], options: CombineCurvesOptions = {}): DotCombination {
   if (!Array.isArray(curves) || curves.length === 0) {

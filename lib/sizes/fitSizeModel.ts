@@ -84,7 +84,26 @@ export interface SizeModelFit {
 /**
  * Fits y(R; p) to points {R_i, y_i, σ_i} by weighted nonlinear least squares.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * points : readonly SizeModelPoint[]
+ *     The measurements ({@link SizeModelPoint}).
+ * options : FitSizeModelOptions
+ *     The model, its parameters and the iteration settings.
+ *
+ * Returns
+ * -------
+ * SizeModelFit
+ *     Values, standard errors, χ² and the record ({@link SizeModelFit}).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `sizes/bad-parameter` for a parameter list that is empty, too long, or whose start lies outside
+ *     its bounds; `options/*` for invalid settings.
+ *
+ * Notes
+ * -----
  * 1. Points with a non-finite or non-positive radius or a non-finite value are left out (a
  *    warning says how many). A σ that is null, ≤ 0 or not finite counts as missing. With every
  *    σ missing, all points get σ = 1 and the standard errors are scaled by √χ²_red (the scatter
@@ -99,22 +118,21 @@ export interface SizeModelFit {
  * 4. Warnings: too few points (N < M: no fit; N = M: no χ²_red), a parameter on its bound, no
  *    convergence, a singular covariance.
  *
- * References: K. Levenberg, Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, J. Soc. Ind. Appl.
- * Math. 11, 431 (1963); W. H. Press et al., Numerical Recipes, 3rd ed. (Cambridge, 2007), §15.5;
- * P. R. Bevington and D. K. Robinson, Data Reduction and Error Analysis for the Physical
- * Sciences, 3rd ed. (McGraw-Hill, 2003), ch. 6–8.
+ * References
+ * ----------
+ * K. Levenberg, Q. Appl. Math. 2, 164 (1944); D. W. Marquardt, J. Soc. Ind. Appl. Math. 11, 431
+ * (1963); W. H. Press et al., Numerical Recipes, 3rd ed. (Cambridge, 2007), §15.5; P. R. Bevington and
+ * D. K. Robinson, Data Reduction and Error Analysis for the Physical Sciences, 3rd ed. (McGraw-Hill,
+ * 2003), ch. 6–8.
  *
- * @param points - the measurements ({@link SizeModelPoint}).
- * @param options - the model, its parameters and the iteration settings.
- * @returns values, standard errors, χ² and the record ({@link SizeModelFit}).
- * @throws DotspecError `sizes/bad-parameter` for a parameter list that is empty, too long, or
- *   whose start lies outside its bounds; `options/*` for invalid settings.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * fitSizeModel([{ radiusNM: 1, value: 3, sigma: null }, { radiusNM: 2, value: 5, sigma: null },
  *   { radiusNM: 3, value: 7, sigma: null }],
  *   { model: (r, [a, b]) => a + b * r, parameters: [{ name: "a", initial: 0 }, { name: "b", initial: 0 }] }).params;
  * // => { a: 1, b: 2 }
+ * ```
  */
 export function fitSizeModel(points: readonly SizeModelPoint[], options: FitSizeModelOptions): SizeModelFit {
   const maxIterations = checkInteger("maxIterations", options.maxIterations ?? FIT_SIZE_MODEL_DEFAULTS.maxIterations, 1, 100000);

@@ -247,7 +247,26 @@ function fitOne(quantity: SizeQuantity, model: string, material: Material, point
  * - user formulas: "formula: <text>", fitted to the quantity named by their prefix, or to every
  *   quantity that has points.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * points : Partial<Record<SizeQuantity, SizePoint[]>>
+ *     Per quantity, one point per dot ({@link SizePoint}).
+ * options : FitSizeModelsOptions
+ *     Material and formulas ({@link FitSizeModelsOptions}).
+ *
+ * Returns
+ * -------
+ * SizeFit[]
+ *     One {@link SizeFit} per (quantity, model), in the order of {@link SIZE_QUANTITIES}.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `sizes/formula` for a formula that does not parse or is not allowed, `sizes/missing-material`
+ *     without a material.
+ *
+ * Notes
+ * -----
  * 1. Quantities with no points get no built-in fit; a formula aimed at such a quantity gives a
  *    "failed" entry saying so.
  * 2. Each fit is {@link fitSizeModel} (weighted Levenberg–Marquardt with bounds). Status "failed":
@@ -255,15 +274,14 @@ function fitOne(quantity: SizeQuantity, model: string, material: Material, point
  *    bound, or χ²_red > `poorReducedChiSquare` with stated σ; else "ok".
  * 3. All formulas are parsed first, so a bad one is refused before any fit is run.
  *
- * @param points - per quantity, one point per dot ({@link SizePoint}).
- * @param options - material and formulas ({@link FitSizeModelsOptions}).
- * @returns one {@link SizeFit} per (quantity, model), in the order of {@link SIZE_QUANTITIES}.
- * @throws DotspecError `sizes/formula` for a formula that does not parse or is not allowed,
- *   `sizes/missing-material` without a material.
- *
- * @example
- * fitSizeModels({ chargingEnergyEV: points }, { material: resolveMaterial("InP") })
- *   .map((f) => f.model); // => ["charging-sphere", "power-law"]
+ * Example
+ * -------
+ * ```ts
+ * const material = resolveMaterial("InP");
+ * // Charging energies of four invented dots, eV: e²/(4πε₀·ε_eff·R) with ε_eff = 6.
+ * const points = [1.5, 2, 2.5, 3].map((radiusNM, i) => ({ dot: `d${i}`, radiusNM, value: 1.439965 / (6 * radiusNM), sigma: 0.005 }));
+ * fitSizeModels({ chargingEnergyEV: points }, { material }).map((f) => f.model); // => ["charging-sphere", "power-law"]
+ * ```
  */
 export function fitSizeModels(points: Partial<Record<SizeQuantity, SizePoint[]>>, options: FitSizeModelsOptions): SizeFit[] {
   const material = options.material;
@@ -286,20 +304,36 @@ export function fitSizeModels(points: Partial<Record<SizeQuantity, SizePoint[]>>
 /**
  * The curve of a fitted model at one radius, for figures.
  *
- * @param fit - a {@link SizeFit} from {@link fitSizeModels}.
- * @param radiusNM - radius, nm (> 0).
- * @param material - the material the fit used.
- * @returns the model's value, eV (NaN for a failed fit or where the model is undefined, such as
- *   a finite well that binds no level).
+ * Parameters
+ * ----------
+ * fit : SizeFit
+ *     A {@link SizeFit} from {@link fitSizeModels}.
+ * radiusNM : number
+ *     Radius, nm (> 0).
+ * material : Material
+ *     The material the fit used.
  *
- * Notes:
+ * Returns
+ * -------
+ * number
+ *     The model's value, eV (NaN for a failed fit or where the model is undefined, such as a finite
+ *     well that binds no level).
+ *
+ * Notes
+ * -----
  * 1. The model is rebuilt from `fit.model` and `fit.quantity` and evaluated with `fit.params`
  *    (formulas are parsed again from the text after "formula: ").
  * 2. "brus" gives the Brus optical gap of `material`.
  *
- * @example
+ * Example
+ * -------
+ * ```ts
+ * const material = resolveMaterial("InP");
+ * // Charging energies of four invented dots, eV: e²/(4πε₀·ε_eff·R) with ε_eff = 6.
+ * const points = [1.5, 2, 2.5, 3].map((radiusNM, i) => ({ dot: `d${i}`, radiusNM, value: 1.439965 / (6 * radiusNM), sigma: 0.005 }));
  * const fit = fitSizeModels({ chargingEnergyEV: points }, { material })[0]; // charging-sphere
- * evaluateSizeFit(fit, 2, material); // => 1.439965/(ε_eff·2) + c₀
+ * evaluateSizeFit(fit, 2, material); // => 0.12000 (1.439965/(ε_eff·2) + c₀ with ε_eff = 6, c₀ = 0)
+ * ```
  */
 export function evaluateSizeFit(fit: SizeFit, radiusNM: number, material: Material): number {
   if (fit.status === "failed" || !(radiusNM > 0)) return NaN;

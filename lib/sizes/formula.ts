@@ -133,7 +133,23 @@ function checkNode(node: MathNode, text: string, parameters: string[]): void {
  * of the quantities ("chargingEnergyEV: a/R + b") limits the formula to that quantity; without
  * it the formula is fitted to every quantity given.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * text : string
+ *     The formula.
+ *
+ * Returns
+ * -------
+ * SizeFormula
+ *     The parsed formula ({@link SizeFormula}).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `sizes/formula` naming the problem, and for a syntax error the position with a caret under it.
+ *
+ * Notes
+ * -----
  * 1. Refuse texts longer than `maxLength`; split off the prefix and the initial values.
  * 2. Parse with mathjs's parser, kept privately in an instance whose import, createUnit,
  *    evaluate, parse, simplify, derivative, resolve, compile… are disabled (the mathjs
@@ -146,15 +162,15 @@ function checkNode(node: MathNode, text: string, parameters: string[]): void {
  * 4. Compile the checked tree; evaluation passes R and the parameters in the scope, and returns
  *    NaN for a result that is not a real number (a log of a negative value gives a complex one).
  *
- * References: mathjs documentation, "Expression parser: Security" (mathjs.org/docs/expressions/security.html).
+ * References
+ * ----------
+ * mathjs documentation, "Expression parser: Security" (mathjs.org/docs/expressions/security.html).
  *
- * @param text - the formula.
- * @returns the parsed formula ({@link SizeFormula}).
- * @throws DotspecError `sizes/formula` naming the problem, and for a syntax error the position
- *   with a caret under it.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * parseSizeFormula("Eg + a / R^2 - b / R ; a=1, b=0.5").parameters; // => ["Eg", "a", "b"]
+ * ```
  */
 export function parseSizeFormula(text: string): SizeFormula {
   if (typeof text !== "string") fail(String(text), "a formula must be text", "give it as a string");

@@ -148,21 +148,37 @@ function checkField(key: NumericKey, value: unknown, where: string): number {
  * The material to use: a built-in by name, or a built-in with some fields replaced, or a full
  * set of fields.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * nameOrOverrides : string | MaterialOverrides
+ *     A built-in name ("CdSe") or {@link MaterialOverrides}.
+ * where : , optional
+ *     What to name in error messages (a file name). Default "material".
+ *
+ * Returns
+ * -------
+ * Material
+ *     A frozen {@link Material}.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `sizes/unknown-material`, `sizes/material-key` (unknown or missing key), `sizes/material-value`
+ *     (not a number or out of range).
+ *
+ * Notes
+ * -----
  * 1. A string is looked up among {@link MATERIALS} (case-insensitive).
  * 2. An object starts from `base` (or from `name` when that is a built-in key); without either,
  *    every numeric field must be present.
  * 3. Each given field is checked against {@link MATERIAL_RANGES}; unknown keys are refused.
  *    Replaced fields are sourced "user override".
  *
- * @param nameOrOverrides - a built-in name ("CdSe") or {@link MaterialOverrides}.
- * @param where - what to name in error messages (a file name). Default "material".
- * @returns a frozen {@link Material}.
- * @throws DotspecError `sizes/unknown-material`, `sizes/material-key` (unknown or missing key),
- *   `sizes/material-value` (not a number or out of range).
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * resolveMaterial({ base: "CdSe", electronMassE: 0.12 }).electronMassE; // => 0.12
+ * ```
  */
 export function resolveMaterial(nameOrOverrides: string | MaterialOverrides, where = "material"): Material {
   if (typeof nameOrOverrides === "string") return builtIn(nameOrOverrides, where);
@@ -205,14 +221,29 @@ export function resolveMaterial(nameOrOverrides: string | MaterialOverrides, whe
  * Reads a material from the text of a JSON override file: an object with the keys of
  * {@link MaterialOverrides} (for example `{"base": "CdSe", "electronMassE": 0.12}`).
  *
- * @param text - the file's text.
- * @param source - the file's name, used in messages and in the sources record.
- * @returns the resolved {@link Material}.
- * @throws DotspecError `sizes/material-json` (not JSON, or not an object) and the errors of
- *   {@link resolveMaterial}, each naming the file.
+ * Parameters
+ * ----------
+ * text : string
+ *     The file's text.
+ * source : string
+ *     The file's name, used in messages and in the sources record.
  *
- * @example
+ * Returns
+ * -------
+ * Material
+ *     The resolved {@link Material}.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `sizes/material-json` (not JSON, or not an object) and the errors of {@link resolveMaterial},
+ *     each naming the file.
+ *
+ * Example
+ * -------
+ * ```ts
  * parseMaterialJson('{"base": "InP", "holeMassE": 0.45}', "inp.json").holeMassE; // => 0.45
+ * ```
  */
 export function parseMaterialJson(text: string, source: string): Material {
   let value: unknown;

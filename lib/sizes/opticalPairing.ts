@@ -94,7 +94,30 @@ function mean(xs: number[]): number | null {
  * Pairs optical transitions with tunnelling levels: for each optical peak, the (VB, CB) pairs
  * of dots of that size ranked by mismatch, and one assignment consistent across sizes.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * dots : readonly DotLevels[]
+ *     Tunnelling levels per dot ({@link DotLevels}).
+ * optical : readonly OpticalRow[]
+ *     Optical rows ({@link OpticalRow}).
+ * material : Material
+ *     For the dielectric constant in J_eh.
+ * options : PairOpticalOptions, optional
+ *     Tolerance, VB levels, penalty ({@link PairOpticalOptions}); default {}: each field at its
+ *     documented default.
+ *
+ * Returns
+ * -------
+ * OpticalPairing[]
+ *     One {@link OpticalPairing} per optical row, in input order.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/*` for invalid options; `sizes/optical-row` for a row with a non-positive radius.
+ *
+ * Notes
+ * -----
  * 1. Levels of a dot, eV: VB h1 at 0, h2 at −vs₁, h3 at −(vs₁ + vs₂), …; CB s at the
  *    single-particle gap, p at the gap + Δsp.
  * 2. For an optical row of radius R, the dots within `radiusToleranceNM` of R are taken (not
@@ -107,20 +130,18 @@ function mean(xs: number[]): number | null {
  *    Σ mismatch² over rows and peaks is chosen (exhaustive search; a pair missing at a size
  *    costs `missingPairPenaltyEV`²).
  *
- * References: L. E. Brus, J. Chem. Phys. 80, 4403 (1984) (the 1.786 Coulomb term); the
- * comparison of tunnelling and optical gaps follows common practice (no source).
+ * References
+ * ----------
+ * L. E. Brus, J. Chem. Phys. 80, 4403 (1984) (the 1.786 Coulomb term); the comparison of tunnelling
+ * and optical gaps follows common practice (no source).
  *
- * @param dots - tunnelling levels per dot ({@link DotLevels}).
- * @param optical - optical rows ({@link OpticalRow}).
- * @param material - for the dielectric constant in J_eh.
- * @param options - tolerance, VB levels, penalty ({@link PairOpticalOptions}).
- * @returns one {@link OpticalPairing} per optical row, in input order.
- * @throws DotspecError `options/*` for invalid options; `sizes/optical-row` for a row with a
- *   non-positive radius.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
+ * const material = resolveMaterial("InP");
  * pairOptical([{ dot: "a", radiusNM: 2, singleParticleGapEV: 2, levelSpacingSPEV: 0.3, valenceSpacingsEV: [0.1] }],
  *   [{ radiusNM: 2, peaksEV: [1.9] }], material)[0].peaks[0].assigned.label; // => "h1-s"
+ * ```
  */
 export function pairOptical(dots: readonly DotLevels[], optical: readonly OpticalRow[], material: Material, options: PairOpticalOptions = {}): OpticalPairing[] {
   const tol = checkPositive("radiusToleranceNM", options.radiusToleranceNM ?? PAIR_OPTICAL_DEFAULTS.radiusToleranceNM);

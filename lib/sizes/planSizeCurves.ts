@@ -111,11 +111,13 @@ export const PLAN_SIZE_CURVES_DEFAULTS = Object.freeze({
  *
  * Example
  * -------
+ * ```ts
  * planSizeCurves([{ file: "a.csv" }, { file: "b.csv" }], {
  *   meta: [{ line: 2, file: "a.csv", dot: "D1", radiusNM: 1.5, eta: 0.86 }], metaSource: "META.csv",
  * }).curves;
  * // => [{ file: "a.csv", dot: "D1", radiusNM: 1.5, eta: 0.86 },
  * //     { file: "b.csv", dot: null, radiusNM: null, eta: undefined, unassignedReason: "not listed in META.csv" }]
+ * ```
  */
 export function planSizeCurves(files: readonly SeriesFile[], options: PlanSizeCurvesOptions = {}): SeriesPlan {
   checkKnownKeys("planSizeCurves options", options, Object.keys(PLAN_SIZE_CURVES_DEFAULTS));

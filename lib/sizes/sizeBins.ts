@@ -77,9 +77,11 @@ export const SIZE_BINS_DEFAULTS = Object.freeze({
  *
  * Example
  * -------
+ * ```ts
  * sizeBins([{ dot: "a", radiusNM: 1.6, values: { gapEV: 2.9 } }, { dot: "b", radiusNM: 1.7, values: { gapEV: 2.8 } }]);
  * // => [{ fromNM: 1.5, toNM: 1.75, dots: ["a", "b"], radiusNM: 1.65,
  * //       values: { gapEV: { mean: 2.85, sd: 0.0707, count: 2 } } }]
+ * ```
  */
 export function sizeBins(dots: readonly BinnedDot[], options: SizeBinsOptions = {}): SizeBin[] {
   checkKnownKeys("sizeBins options", options, Object.keys(SIZE_BINS_DEFAULTS));

@@ -91,7 +91,31 @@ export interface SizeSeries {
   warnings: string[];
 }
 
-/** The energy of a dot for one series quantity (mean and SE), or null. */
+/**
+ * The energy of a dot for one series quantity (mean and SE), or null.
+ *
+ * Parameters
+ * ----------
+ * dot : SeriesDot
+ *     One dot of a series ({@link sizeSeries}).
+ * q : SizeQuantity
+ *     The quantity, e.g. "gapEV" or "chargingEnergyEV" ({@link SIZE_QUANTITIES}).
+ *
+ * Returns
+ * -------
+ * { value: number; sigma: number | null } | null
+ *     The dot's mean (eV) and its standard error (null from a single curve), or null when no curve
+ *     of the dot gives the quantity.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s01-2.csv"].map((file) => ({
+ *   file, dot: "QD-7-S01", radiusNM: 1.5, values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: 0.86 })),
+ * }));
+ * dotQuantity(sizeSeries(curves).dots[0], "gapEV")?.value; // => 2.949 (eV)
+ * ```
+ */
 export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; sigma: number | null } | null {
   const e = dot.energies;
   const c = q === "valenceSpacing1EV" ? (e.valenceSpacingsEV[0] ?? null) : e[q as Exclude<SizeQuantity, "valenceSpacing1EV">];
@@ -135,9 +159,16 @@ export function dotQuantity(dot: SeriesDot, q: SizeQuantity): { value: number; s
  *
  * Example
  * -------
+ * ```ts
+ * const curves = ["qd-7-s01-1.csv", "qd-7-s01-2.csv", "qd-7-s05-1.csv", "qd-7-s05-2.csv"].map((file, i) => ({
+ *   file, dot: i < 2 ? "QD-7-S01" : "QD-7-S05", radiusNM: i < 2 ? 1.5 : 2,
+ *   values: analysisToJson(analyzeCurve(readCurveFile(`sample-curves/series/curves/${file}`).curve, { eta: i < 2 ? 0.86 : 0.87 })),
+ * }));
  * const series = sizeSeries(curves, { material: resolveMaterial("InP") });
  * series.dots.map((d) => [d.dot, d.radiusNM, d.energies.gapEV?.mean]);
- * // => [["QD-7-S01", 1.5, 2.949], ["QD-7-S02", 1.62, 2.792], …]  (the demo series)
+ * // => [["QD-7-S01", 1.5, 2.949…], ["QD-7-S05", 2, 2.430…]] (part of the invented demo series)
+ * series.dots[0].energies.gapEV!.mean; // => 2.949
+ * ```
  */
 export function sizeSeries(curves: readonly SeriesCurveInput[], options: SizeSeriesOptions = {}): SizeSeries {
   checkKnownKeys("sizeSeries options", options, Object.keys(SIZE_SERIES_DEFAULTS));

@@ -45,7 +45,28 @@ function kaneEnergyEV(kPerNM: number, massE: number, alpha: number): number {
  * Energy of the level (n, l) of a carrier of effective mass m* in a sphere of radius R,
  * measured from the band edge (positive into the band), eV.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * radiusNM : number
+ *     Sphere radius R, nm (> 0).
+ * massE : number
+ *     Effective mass m* inside, in mₑ (> 0).
+ * options : SphereLevelOptions, optional
+ *     Level, wall and band options ({@link SphereLevelOptions}); default {}: the 1S level (n = 1,
+ *     l = 0) of an infinite wall with parabolic bands.
+ *
+ * Returns
+ * -------
+ * number | null
+ *     The level's energy above the band edge, eV; null when the finite well binds no such level.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     For invalid options (codes `options/*`, `sizes/missing-barrier`).
+ *
+ * Notes
+ * -----
  * 1. Infinite wall: k = x_nl/R with x_nl the n-th zero of j_l ({@link sphericalBesselZero}),
  *    E = ħ²k²/(2m*); with non-parabolicity, E solves E(1 + αE) = ħ²k²/(2m*):
  *    E = 2E₀/(1 + √(1 + 4αE₀)), E₀ = ħ²k²/(2m*).
@@ -61,21 +82,19 @@ function kaneEnergyEV(kPerNM: number, massE: number, alpha: number): number {
  *    energy-dependent mass m_in = m*(1 + αE) in the matching (so that E = ħ²k²/(2m_in)); the
  *    barrier stays parabolic. As V₀ → ∞ this tends to step 1's non-parabolic result.
  *
- * References: S. Flügge, Practical Quantum Mechanics (Springer, 1971), problems 62–64
- * (particle in a spherical box and well) — from memory; D. J. BenDaniel and C. B. Duke,
- * Phys. Rev. 152, 683 (1966) (the matching condition); E. O. Kane, J. Phys. Chem. Solids 1,
- * 249 (1957) (non-parabolic dispersion); D. F. Nelson, R. C. Miller and D. A. Kleinman,
- * Phys. Rev. B 35, 7770 (1987) (energy-dependent mass at a heterointerface) — from memory.
+ * References
+ * ----------
+ * S. Flügge, Practical Quantum Mechanics (Springer, 1971), problems 62–64 (particle in a spherical box
+ * and well) — from memory; D. J. BenDaniel and C. B. Duke, Phys. Rev. 152, 683 (1966) (the matching
+ * condition); E. O. Kane, J. Phys. Chem. Solids 1, 249 (1957) (non-parabolic dispersion); D. F.
+ * Nelson, R. C. Miller and D. A. Kleinman, Phys. Rev. B 35, 7770 (1987) (energy-dependent mass at a
+ * heterointerface) — from memory.
  *
- * @param radiusNM - sphere radius R, nm (> 0).
- * @param massE - effective mass m* inside, in mₑ (> 0).
- * @param options - level, wall and band options ({@link SphereLevelOptions}).
- * @returns the level's energy above the band edge, eV; null when the finite well binds no
- *   such level.
- * @throws DotspecError for invalid options (codes `options/*`, `sizes/missing-barrier`).
- *
- * @example
- * sphereLevelEV(2, 0.1); // => 0.9400 (ħ²π²/(2·0.1·mₑ·(2 nm)²))
+ * Example
+ * -------
+ * ```ts
+ * sphereLevelEV(2, 0.1); // => 0.9401 (ħ²π²/(2·0.1·mₑ·(2 nm)²))
+ * ```
  */
 export function sphereLevelEV(radiusNM: number, massE: number, options: SphereLevelOptions = {}): number | null {
   checkPositive("radiusNM", radiusNM);

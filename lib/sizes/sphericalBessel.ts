@@ -32,21 +32,40 @@ function seriesJ(l: number, x: number): number {
 /**
  * The spherical Bessel function of the first kind j_l(x) and its derivative.
  *
- * Notes:
+ * Parameters
+ * ----------
+ * l : number
+ *     Order, integer 0…30.
+ * x : number
+ *     Argument, ≥ 0 (dimensionless).
+ *
+ * Returns
+ * -------
+ * ValueAndSlope
+ *     {value, slope}.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for l outside 0…30, `options/not-finite` for an x that is not finite.
+ *
+ * Notes
+ * -----
  * 1. For x < max(1, l): the power series (absolutely convergent, no cancellation at small x).
  * 2. Otherwise: j_0 = sin x / x, j_1 = sin x / x² − cos x / x, and the upward recurrence
  *    j_{l+1} = (2l+1)/x · j_l − j_{l−1} (stable for x > l).
  * 3. Derivative: j_0' = −j_1; j_l' = j_{l−1} − (l+1)/x · j_l for l ≥ 1 (and j_1'(0) = 1/3).
  *
- * References: M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions (Dover, 1965),
- * §10.1 (10.1.2, 10.1.11, 10.1.19–10.1.22).
+ * References
+ * ----------
+ * M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions (Dover, 1965), §10.1 (10.1.2,
+ * 10.1.11, 10.1.19–10.1.22).
  *
- * @param l - order, integer 0…30.
- * @param x - argument, ≥ 0 (dimensionless).
- * @returns {value, slope}.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * sphericalBesselJ(0, Math.PI / 2).value; // => 0.6366197723675814 (2/π)
+ * ```
  */
 export function sphericalBesselJ(l: number, x: number): ValueAndSlope {
   checkInteger("l", l, 0, 30);
@@ -79,21 +98,39 @@ function jl(l: number, x: number): number {
  * well; the scaling keeps it finite at large x and does not change the log-derivative except
  * by +1 (k_l'/k_l = K_l'/K_l − 1).
  *
- * Notes:
+ * Parameters
+ * ----------
+ * l : number
+ *     Order, integer 0…30.
+ * x : number
+ *     Argument, > 0 (dimensionless).
+ *
+ * Returns
+ * -------
+ * ValueAndSlope
+ *     {value, slope} of the scaled function.
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for l outside 0…30, `options/not-positive` for x ≤ 0.
+ *
+ * Notes
+ * -----
  * 1. k_0 = e⁻ˣ/x, k_1 = e⁻ˣ(1/x + 1/x²), k_{l+1} = k_{l−1} + (2l+1)/x · k_l (stable upward).
  * 2. k_l' = −k_{l−1} − (l+1)/x · k_l, with k_{−1} = k_0.
  * 3. With the factor eˣ: K_l' = K_l + eˣ·k_l'.
  *
- * References: M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions (Dover, 1965),
- * §10.2 (10.2.4, 10.2.15, 10.2.18–10.2.21), up to the constant factor π/2 that cancels in the
- * log-derivative.
+ * References
+ * ----------
+ * M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions (Dover, 1965), §10.2 (10.2.4,
+ * 10.2.15, 10.2.18–10.2.21), up to the constant factor π/2 that cancels in the log-derivative.
  *
- * @param l - order, integer 0…30.
- * @param x - argument, > 0 (dimensionless).
- * @returns {value, slope} of the scaled function.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * scaledModifiedSphericalBesselK(0, 1); // => { value: 1, slope: -1 }
+ * ```
  */
 export function scaledModifiedSphericalBesselK(l: number, x: number): ValueAndSlope {
   checkInteger("l", l, 0, 30);

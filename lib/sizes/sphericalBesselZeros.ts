@@ -15,24 +15,42 @@ const cache = new Map<string, number>();
 /**
  * The n-th positive zero x_nl of the spherical Bessel function j_l (x = 0 excluded).
  *
- * Notes:
+ * Parameters
+ * ----------
+ * l : number
+ *     Angular momentum, integer 0…30.
+ * n : number
+ *     Index of the zero, integer 1…50 (n = 1 is the first positive zero).
+ *
+ * Returns
+ * -------
+ * number
+ *     x_nl (dimensionless).
+ *
+ * Throws
+ * ------
+ * DotspecError
+ *     `options/not-integer` for l or n out of range.
+ *
+ * Notes
+ * -----
  * 1. Scan j_l(x) from x = l/2 + 0.05 (below the first zero, which exceeds l + ½ … l + 1.9
  *    for l ≤ 30) upward in steps of 0.1, counting sign changes; zeros of j_l are separated by
  *    more than π/2, so no two fall in one step.
  * 2. Refine the n-th bracket with {@link bracketRoot} to a few ulps.
  * 3. Results are cached (a pure cache: the same inputs always give the same number).
  *
- * References: M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions (Dover, 1965),
- * Table 10.6 (zeros of j_l): x_10 = π, x_11 = 4.493409, x_12 = 5.763459, x_20 = 2π,
- * x_21 = 7.725252 (A&S label the first zero of j_l with n = 1 as here).
+ * References
+ * ----------
+ * M. Abramowitz and I. A. Stegun, Handbook of Mathematical Functions (Dover, 1965), Table 10.6 (zeros
+ * of j_l): x_10 = π, x_11 = 4.493409, x_12 = 5.763459, x_20 = 2π, x_21 = 7.725252 (A&S label the first
+ * zero of j_l with n = 1 as here).
  *
- * @param l - angular momentum, integer 0…30.
- * @param n - index of the zero, integer 1…50 (n = 1 is the first positive zero).
- * @returns x_nl (dimensionless).
- * @throws DotspecError `options/not-integer` for l or n out of range.
- *
- * @example
+ * Example
+ * -------
+ * ```ts
  * sphericalBesselZero(1, 1); // => 4.493409457909064 (the 1P level)
+ * ```
  */
 export function sphericalBesselZero(l: number, n: number): number {
   checkInteger("l", l, 0, 30);

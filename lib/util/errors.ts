@@ -16,7 +16,27 @@ export class DotspecError extends Error {
   }
 }
 
-/** True when `err` is a {@link DotspecError}, also across module copies (workers, bundles). */
+/**
+ * True when `err` is a {@link DotspecError}, also across module copies (workers, bundles).
+ *
+ * Parameters
+ * ----------
+ * err : unknown
+ *     Anything caught.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True for a DotspecError (recognised by its name and a string `code`, so that errors from
+ *     another copy of the module count too).
+ *
+ * Example
+ * -------
+ * ```ts
+ * isDotspecError(new DotspecError("io/bad-path", "no such file")); // => true
+ * isDotspecError(new Error("x")); // => false
+ * ```
+ */
 export function isDotspecError(err: unknown): err is DotspecError {
   return err instanceof DotspecError || (err instanceof Error && err.name === "DotspecError" && "code" in err);
 }
@@ -41,8 +61,10 @@ export function isDotspecError(err: unknown): err is DotspecError {
  *
  * Example
  * -------
+ * ```ts
  * failureReason("a.csv", new DotspecError("io/binary", "a.csv: the file holds NUL bytes, …"));
  * // => "the file holds NUL bytes, …"
+ * ```
  */
 export function failureReason(source: string, err: unknown): string {
   if (isDotspecError(err)) {

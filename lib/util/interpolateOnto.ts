@@ -23,7 +23,9 @@
  *
  * Example
  * -------
+ * ```ts
  * interpolateOnto(Float64Array.of(0, 2), Float64Array.of(0, 4), Float64Array.of(0.5, 1));  // => [1, 2]
+ * ```
  */
 export function interpolateOnto(fromBiasV: ArrayLike<number>, values: ArrayLike<number>, toBiasV: ArrayLike<number>): Float64Array {
   const out = new Float64Array(toBiasV.length);

@@ -50,8 +50,10 @@ const requireHere: RequireFn | null =
  *
  * Example
  * -------
+ * ```ts
  * const mathjs = await lazyModule<typeof import("mathjs")>("mathjs", "commonjs", () => import("mathjs"));
  * mathjs().evaluate("1 + 2"); // => 3 (mathjs is loaded here, not at start-up)
+ * ```
  */
 export async function lazyModule<T>(specifier: string, format: "commonjs" | "module", load: () => Promise<T>): Promise<() => T> {
   const require = requireHere;

@@ -20,7 +20,9 @@
  *
  * Example
  * -------
+ * ```ts
  * meanOfSeries([Float64Array.of(1, 2), Float64Array.of(3, 4)], 2);  // => Float64Array [2, 3]
+ * ```
  */
 export function meanOfSeries(arrays: readonly ArrayLike<number>[], n: number): Float64Array {
   if (arrays.length === 1) return Float64Array.from(arrays[0]);

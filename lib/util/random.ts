@@ -21,11 +21,21 @@ export interface SeededRandom {
 /**
  * A generator seeded with `seed`: the same sequence on every run and machine.
  *
- * @param seed - any number (its lowest 32 bits are used).
- * @returns uniform and normal deviates ({@link SeededRandom}).
+ * Parameters
+ * ----------
+ * seed : number
+ *     Any number (its lowest 32 bits are used).
  *
- * @example
+ * Returns
+ * -------
+ * SeededRandom
+ *     Uniform and normal deviates ({@link SeededRandom}).
+ *
+ * Example
+ * -------
+ * ```ts
  * seededRandom(7).uniform() === seededRandom(7).uniform(); // => true
+ * ```
  */
 export function seededRandom(seed: number): SeededRandom {
   let state = seed >>> 0;

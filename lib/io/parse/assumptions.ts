@@ -37,10 +37,12 @@ import type { Header } from "./header.ts";
  *
  * Example
  * -------
+ * ```ts
  * // Through the importer: no header, three columns, the first counting 0, 1, 2, …
  * parseCurveText("0,0,1\n1,1,2\n2,2,3\n3,3,4\n4,4,5\n").record.warnings.slice(0, 2);
  * // => ["no header line: column 0 read as bias, columns 1, 2 as current",
  * //     "column 0 counts 0, 1, 2… or 1, 2, 3… like a row number; if it is not the bias, pass biasColumn and currentColumns"]
+ * ```
  */
 export function warnColumnAssumptions(
   columns: readonly Column[],
@@ -94,7 +96,9 @@ export function warnColumnAssumptions(
  *
  * Example
  * -------
+ * ```ts
  * looksLikeIndex([["1", "0.1"], ["2", "0.2"], ["3", "0.3"]], 0, 0, false);  // => true
+ * ```
  */
 export function looksLikeIndex(rows: readonly string[][], first: number, col: number, decimalComma: boolean): boolean {
   const n = Math.min(rows.length - first, 10);

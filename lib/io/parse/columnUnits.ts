@@ -51,9 +51,11 @@ import { quote } from "./messages.ts";
  *
  * Example
  * -------
+ * ```ts
  * const cols = nameColumns({ cells: ["bias (mV)", "current"], line: 1 }, 2, resolveParseOptions({}), "(text)");
  * assignUnits(cols, true, { bias: null, current: null, conductance: null }, "(text)", []);  // => ["\"current\" as A"]
  * cols[0].unitInfo!.scale;  // => 0.001
+ * ```
  */
 export function assignUnits(
   columns: Column[],

@@ -78,9 +78,11 @@ export interface Column extends ImportColumn {
  *
  * Example
  * -------
+ * ```ts
  * const o = resolveParseOptions({});
  * nameColumns({ cells: ["bias (V)", "I (pA)", "T (K)"], line: 1 }, 3, o, "(text)").map((c) => c.role);
  * // => ["bias", "current", "other"]
+ * ```
  */
 export function nameColumns(header: Header, ncols: number, o: ResolvedOptions, src: string): Column[] {
   const headerCells = header.cells;
@@ -159,8 +161,10 @@ export function nameColumns(header: Header, ncols: number, o: ResolvedOptions, s
  *
  * Example
  * -------
+ * ```ts
  * const columns = nameColumns({ cells: ["bias (V)", "I (pA)"], line: 1 }, 2, resolveParseOptions({}), "(text)");
  * findColumn("(text)", "biasColumn", "BIAS (V)", columns);  // => 0
+ * ```
  */
 export function findColumn(src: string, option: string, ref: ColumnRef, columns: readonly Column[]): number {
   if (typeof ref === "number") {
@@ -191,7 +195,9 @@ export function findColumn(src: string, option: string, ref: ColumnRef, columns:
  *
  * Example
  * -------
+ * ```ts
  * describeColumn({ header: "", name: "column 2" });  // => "column 2"
+ * ```
  */
 export function describeColumn(c: Pick<Column, "header" | "name">): string {
   return c.header ? quote(c.header) : c.name;

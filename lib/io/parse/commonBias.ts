@@ -50,10 +50,12 @@ import type { SweepSet } from "./sweeps.ts";
  *
  * Example
  * -------
+ * ```ts
  * // Through the importer: sweeps on 0…5 V and on 0.5…5.5 V share 0.5…5 V; the first sweep's
  * // points inside it are kept.
  * parseCurveText("V,I,V2,I2\n0,1,0.5,1\n1,2,1.5,2\n2,3,2.5,3\n3,4,3.5,4\n4,5,4.5,5\n5,6,5.5,6\n").curve.biasV;
  * // => Float64Array [1, 2, 3, 4, 5]
+ * ```
  */
 export function ontoCommonBias(
   sets: readonly SweepSet[],
@@ -121,7 +123,9 @@ export function ontoCommonBias(
  *
  * Example
  * -------
+ * ```ts
  * sameValues(Float64Array.of(1, 2), Float64Array.of(1, 2));  // => true
+ * ```
  */
 export function sameValues(a: Float64Array, b: Float64Array): boolean {
   if (a === b) return true;

@@ -59,8 +59,10 @@ export interface KeptRows {
  *
  * Example
  * -------
+ * ```ts
  * // Through the importer: one row of six has a NaN current.
  * parseCurveText("V,I\n0,1\n1,NaN\n2,3\n3,4\n4,5\n5,6\n").record.rowsDropped;  // => 1
+ * ```
  */
 export function keepCompleteRows(
   file: TextLines,

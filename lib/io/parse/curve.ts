@@ -33,9 +33,11 @@ import { meanOfSeries } from "../../util/meanOfSeries.ts";
  *
  * Example
  * -------
+ * ```ts
  * const c = makeCurve({ biasV: Float64Array.of(0, 1), currents: [Float64Array.of(1, 2), Float64Array.of(3, 4)],
  *   conductances: [] }, "(text)", new Map());
  * c.currentA;  // => Float64Array [2, 3]
+ * ```
  */
 export function makeCurve(
   common: SweepSet,
@@ -80,9 +82,11 @@ export function makeCurve(
  *
  * Example
  * -------
+ * ```ts
  * const c = toSampleBias({ biasV: Float64Array.of(-1, 0, 2), currentA: Float64Array.of(-3, 0, 5),
  *   sweeps: [Float64Array.of(-3, 0, 5)], didvS: null, meta: { source: "t", metadata: {} } });
  * [Array.from(c.biasV), Array.from(c.currentA)];  // => [[-2, 0, 1], [-5, 0, 3]]
+ * ```
  */
 export function toSampleBias(curve: Curve): Curve {
   // 0 − x rather than −x: no −0 in the bias axis.

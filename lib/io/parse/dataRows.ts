@@ -50,9 +50,11 @@ export interface DataRows {
  *
  * Example
  * -------
+ * ```ts
  * const file = splitLines("bias,current,\n0,1,\n1,2,\n", "(text)");
  * const t = findDataRows(file, { delimiter: ",", decimalComma: false }, "(text)");
  * [t.first, t.ncols];  // => [1, 2]
+ * ```
  */
 export function findDataRows(file: TextLines, format: DelimiterGuess, src: string): DataRows {
   const { lines, content } = file;

@@ -32,8 +32,10 @@ export const SAMPLE_LINES = 50;
  *
  * Example
  * -------
+ * ```ts
  * detectFormat(splitLines("V;I\n0,5;1\n1,5;2\n", "(text)"), "auto");
  * // => { delimiter: ";", decimalComma: true }
+ * ```
  */
 export function detectFormat(file: TextLines, delimiter: "auto" | Delimiter): DelimiterGuess {
   const { lines, content } = file;

@@ -45,9 +45,11 @@ export interface ColumnGroups {
  *
  * Example
  * -------
+ * ```ts
  * const columns = nameColumns({ cells: ["V", "I", "V2", "I2"], line: 1 }, 4, resolveParseOptions({}), "(text)");
  * groupColumns(columns, []).groups;
  * // => [{ bias: 0, currents: [1], conductances: [] }, { bias: 2, currents: [3], conductances: [] }]
+ * ```
  */
 export function groupColumns(columns: Column[], warnings: string[]): ColumnGroups {
   const biasColumns = columns.filter((c) => c.role === "bias");

@@ -55,9 +55,11 @@ export interface Header {
  *
  * Example
  * -------
+ * ```ts
  * const file = splitLines("Bias,Current\nV,pA\n0,1\n1,2\n", "(text)");
  * const table = findDataRows(file, { delimiter: ",", decimalComma: false }, "(text)");
  * findHeader(file, ",", table, "(text)", []);  // => { cells: ["Bias (V)", "Current (pA)"], line: 1 }
+ * ```
  */
 export function findHeader(file: TextLines, delimiter: Delimiter, table: DataRows, src: string, warnings: string[]): Header {
   return table.first > 0 ? headerAbove(file, delimiter, table, src, warnings) : commentHeader(file, delimiter, table);

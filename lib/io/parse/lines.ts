@@ -46,9 +46,11 @@ export interface TextLines {
  *
  * Example
  * -------
+ * ```ts
  * const t = splitLines("# eta: 0.85\nbias,current\n0,1\n", "(text)");
  * t.content;                 // => [1, 2]
  * t.metadata.get("eta");     // => "0.85"
+ * ```
  */
 export function splitLines(text: string, src: string): TextLines {
   const body = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text;
@@ -105,10 +107,12 @@ export function splitLines(text: string, src: string): TextLines {
  *
  * Example
  * -------
+ * ```ts
  * const m = new Map<string, string>();
  * readMetadata("# T = 4.5 K", m);
  * readMetadata("% T: 4.6 K", m);
  * m.get("T");  // => "4.5 K; 4.6 K"
+ * ```
  */
 export function readMetadata(line: string, into: Map<string, string>): void {
   let s = line.trimStart();
@@ -142,7 +146,9 @@ export function readMetadata(line: string, into: Map<string, string>): void {
  *
  * Example
  * -------
+ * ```ts
  * lineNumber(splitLines("# c\n1,2\n", "(text)"), 0);  // => 2
+ * ```
  */
 export function lineNumber(file: TextLines, r: number): number {
   return file.content[r] + 1;
@@ -164,7 +170,9 @@ export function lineNumber(file: TextLines, r: number): number {
  *
  * Example
  * -------
+ * ```ts
  * lineText(splitLines("# c\n1,2\n", "(text)"), 0);  // => "1,2"
+ * ```
  */
 export function lineText(file: TextLines, r: number): string {
   return file.lines[file.content[r]];

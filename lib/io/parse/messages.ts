@@ -19,7 +19,9 @@ import type { Delimiter } from "../cells.ts";
  *
  * Example
  * -------
+ * ```ts
  * quote("bias (V)");  // => "\"bias (V)\""
+ * ```
  */
 export function quote(s: string): string {
   const t = s.length > 60 ? s.slice(0, 57) + "..." : s;
@@ -40,7 +42,9 @@ export function quote(s: string): string {
  *
  * Example
  * -------
+ * ```ts
  * delimiterName("\t");  // => "tab"
+ * ```
  */
 export function delimiterName(d: Delimiter): string {
   return d === "\t" ? "tab" : d === "," ? "comma" : d === ";" ? "semicolon" : "whitespace";

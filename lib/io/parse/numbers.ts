@@ -53,9 +53,11 @@ export type ColumnValues = (Float64Array | null)[];
  *
  * Example
  * -------
+ * ```ts
  * // Through the importer: a row "2,5" under "bias (mV),current (pA)".
  * const { curve } = parseCurveText("bias (mV),current (pA)\n-2,-5\n-1,-1\n0,0\n1,1\n2,5\n");
  * [curve.biasV[4], curve.currentA[4]];  // => [0.002, 5e-12]
+ * ```
  */
 export function readNumbers(
   file: TextLines,

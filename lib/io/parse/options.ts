@@ -101,9 +101,11 @@ export type ResolvedOptions = ReturnType<typeof resolveParseOptions>;
  *
  * Example
  * -------
+ * ```ts
  * const o = resolveParseOptions({ currentUnit: "pA" });
  * o.units.current!.scale;  // => 1e-12
  * o.minPoints;             // => 5
+ * ```
  */
 export function resolveParseOptions(options: ParseOptions) {
   if (options === null || typeof options !== "object") {

@@ -97,10 +97,12 @@ export interface ParsedCurve {
  *
  * Example
  * -------
+ * ```ts
  * const { curve, record } = parseCurveText("bias (mV),current (pA)\n-2,-5\n-1,-1\n0,0\n1,1\n2,5\n");
  * curve.biasV;  // => Float64Array [-0.002, -0.001, 0, 0.001, 0.002]
  * curve.currentA[4];  // => 5e-12
  * record.biasStepV;  // => 0.001
+ * ```
  */
 export function parseCurveText(text: string, options: ParseOptions = {}): ParsedCurve {
   const o = resolveParseOptions(options);

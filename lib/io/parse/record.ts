@@ -108,7 +108,9 @@ export interface RecordParts {
  *
  * Example
  * -------
+ * ```ts
  * parseCurveText("bias (mV),current (pA)\n-2,-5\n-1,-1\n0,0\n1,1\n2,5\n").record.biasDirection;  // => "ascending"
+ * ```
  */
 export function makeRecord({ src, format, header, columns, resolutions, counts, sweeps, curve, metadata, warnings, biasPolarity }: RecordParts): ImportRecord {
   const grid = curve.biasV;

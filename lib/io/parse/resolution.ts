@@ -35,8 +35,10 @@ const POW10 = Float64Array.from({ length: 801 }, (_, k) => Number(`1e${k - 400}`
  *
  * Example
  * -------
+ * ```ts
  * cellQuantum("-1.52849e-11", false);  // => 1e-16
  * cellQuantum("0.0150", false);        // => 0.0001
+ * ```
  */
 export function cellQuantum(cell: string, decimalComma: boolean): number {
   const s = cell.trim();
@@ -128,9 +130,11 @@ function exponentDigits(s: string, from: number): number {
  *
  * Example
  * -------
+ * ```ts
  * // Through the importer: "bias (V),current (pA)" with cells "1.25", "-0.50" → 0.01 pA.
  * parseCurveText("bias (V),current (pA)\n0,1.25\n1,-0.50\n2,3.00\n", { minPoints: 3 }).curve.meta.currentResolutionA;
  * // => 1e-14
+ * ```
  */
 export function columnResolutions(table: DataRows, columns: readonly Column[], values: ColumnValues, decimalComma: boolean): (number | null)[] {
   const acc = resolutionSums(columns);

@@ -80,9 +80,11 @@ export interface Sweeps {
  *
  * Example
  * -------
+ * ```ts
  * // Through the importer: the bias goes 0 → 4 V and back to 0 V in one column.
  * const { record } = parseCurveText("V,I\n0,1\n1,2\n2,3\n3,4\n4,5\n3.5,4.5\n2.5,3.5\n1.5,2.5\n0.5,1.5\n0,1\n");
  * [record.segments, record.biasDirection];  // => [2, "both"]
+ * ```
  */
 export function cutSweeps(
   file: TextLines,
@@ -171,7 +173,9 @@ export function cutSweeps(
  *
  * Example
  * -------
+ * ```ts
  * pickRows(Float64Array.of(5, 6, 7), [2, 0]);  // => Float64Array [7, 5]
+ * ```
  */
 export function pickRows(col: Float64Array, idx: ArrayLike<number>): Float64Array {
   // Every row kept (ascending and distinct, so the identity): the column itself, not a copy.

@@ -54,7 +54,8 @@ export interface FitStart {
  * Example
  * -------
  * ```ts
- * fitStart(analyzeCurve(curve, { eta: 0.85 })).seeds.map((s) => s.label); // => ["s", "p", "v1"]
+ * const { curve } = readCurveFile("sample-curves/dot-01.csv");
+ * fitStart(analyzeCurve(curve, { eta: 0.85 })).seeds.map((s) => s.label); // => ["s", "p", "v1", "v2"]
  * ```
  */
 export function fitStart(analysis: CurveAnalysis, options: FitOptions = {}): FitStart {
