@@ -40,7 +40,7 @@ describe("PEAK_AREAS_DEFAULTS and EDGE_STEP_WIDTH_DEFAULTS", () => {
     // cut at ±6σ, where e^−18 ≈ 1.5e−8 of the top (closed form).
     expect({ ...PEAK_AREAS_DEFAULTS }).toEqual({ marginSigma: 3, basisReachSigma: 6 });
     // Common practice (no source): FWHM bounds 5–400 mV cover dI/dV peaks of dots at 4.5 K;
-    // 16 log-spaced trials, then 20 golden-section steps (interval × 0.618^20 ≈ 6.6e−5).
+    // 10 log-spaced trials, then Brent's method to 1e-4 in ln s (at most 40 evaluations).
     expect({ ...EDGE_STEP_WIDTH_DEFAULTS }).toEqual({ boundsV: [0.005, 0.4], sign: 1, minPoints: 5, trialCount: 10, logWidthTolerance: 1e-4, refineEvaluations: 40 });
   });
 });
