@@ -6,6 +6,7 @@ import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
+import { splitWidePeaks } from "./splitPeaks.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -340,9 +341,17 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
 
   // 4–6. Refinement.
   let peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
-  if (current && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent)) {
+  // 7. Peaks wider than expected: two steps under one peak (positions from their own fit).
+  let fromSplit: boolean[] = peaks.map(() => false);
+  const onCurrent = current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
+  if (current && onCurrent && peaks.length) {
+    const split = splitMerged(biasV, didvS, current, peaks, kept, options.expectedFwhmV, minStepSigma!, minSeparationMV);
+    peaks = split.peaks;
+    fromSplit = split.fromSplit;
+  }
+  if (current && onCurrent) {
     const halfWidthOf = (k: number) => Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
-    let open = peaks.map((_, k) => k);
+    let open = peaks.map((_, k) => k).filter((k) => !fromSplit[k]);
     for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && open.length; iteration++) {
       const step = refineOnCurrent(biasV, current, peaks, open, halfWidthOf, work);
       peaks = step.peaks;
@@ -353,6 +362,57 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
     peaks,
     record: { noiseS, minProminenceSigma, minStepSigma, minSeparationMV, candidates: maxima.length, belowProminence, belowStepSignificance, tooClose, warnings },
   };
+}
+
+/**
+ * Note 7 of {@link findPeaks}: each peak wider than expected replaced by the two steps the
+ * current shows under it ({@link splitWidePeaks}), sorted by bias, with which came from a split.
+ */
+function splitMerged(
+  biasV: Float64Array,
+  didvS: Float64Array,
+  current: { currentA: Float64Array; noiseA: number },
+  peaks: Peak[],
+  kept: readonly { leftBase: number; rightBase: number }[],
+  expectedFwhmV: number | undefined,
+  minStepSigma: number,
+  minSeparationMV: number,
+): { peaks: Peak[]; fromSplit: boolean[] } {
+  const n = biasV.length;
+  const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
+  const widths = peaks.map((p) => p.fwhmV).sort((a, b) => a - b);
+  const referenceV = expectedFwhmV ?? widths[widths.length >> 1];
+  const input = peaks.map((p, k) => ({ ...p, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase }));
+  const splits = splitWidePeaks(biasV, didvS, current, input, referenceV, minStepSigma, minSeparationMV / 1000);
+  const out: { peak: Peak; split: boolean }[] = [];
+  peaks.forEach((p, k) => {
+    const r = splits[k];
+    if (!r) {
+      out.push({ peak: p, split: false });
+      return;
+    }
+    const total = r.stepA[0] + r.stepA[1];
+    for (const i of [0, 1]) {
+      const index = Math.min(n - 1, Math.max(0, Math.round((r.biasV[i] - biasV[0]) / stepV)));
+      const share = r.stepA[i] / total;
+      out.push({
+        peak: {
+          biasV: r.biasV[i],
+          biasUncertaintyV: Math.hypot(r.uncertaintyV[i], FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * referenceV),
+          index,
+          heightS: didvS[index],
+          prominenceS: p.prominenceS * share,
+          fwhmV: r.fwhmV,
+          stepA: r.stepA[i],
+          snr: p.snr * share,
+          stepSignificance: r.significance[i],
+        },
+        split: true,
+      });
+    }
+  });
+  out.sort((a, b) => a.peak.biasV - b.peak.biasV);
+  return { peaks: out.map((o) => o.peak), fromSplit: out.map((o) => o.split) };
 }
 
 /**
