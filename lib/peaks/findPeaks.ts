@@ -381,9 +381,12 @@ function splitMerged(
   const n = biasV.length;
   const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
   const widths = peaks.map((p) => p.fwhmV).sort((a, b) => a - b);
-  const referenceV = expectedFwhmV ?? widths[widths.length >> 1];
+  // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
+  // the filter widens: the median of the peaks found, never below the steps' own.
+  const medianV = widths[widths.length >> 1];
+  const referenceV = expectedFwhmV ?? medianV;
   const input = peaks.map((p, k) => ({ ...p, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase }));
-  const splits = splitWidePeaks(biasV, didvS, current, input, referenceV, minStepSigma, minSeparationMV / 1000);
+  const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV: Math.max(referenceV, medianV) }, minStepSigma, minSeparationMV / 1000);
   const out: { peak: Peak; split: boolean }[] = [];
   peaks.forEach((p, k) => {
     const r = splits[k];

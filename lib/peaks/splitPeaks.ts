@@ -8,15 +8,25 @@ import { gaussianFast, normalCdfFast } from "../util/special.ts";
 import { scaledCholeskySolve } from "../util/smallSymmetric.ts";
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
+/** Scratch of {@link fitSteps}: the design matrix, grown as needed (module scope, reused; never read before written). */
+const scratch = { cols: new Float64Array(0) };
 
 /** Defaults of {@link splitWidePeaks} (locked by test/peaks/splitPeaks.test.ts). */
 export const SPLIT_PEAKS_DEFAULTS = Object.freeze({
   /**
-   * A side of a peak (peak to its half-prominence crossing) longer than half the expected FWHM by
-   * this many of its standard errors flags the peak (the error: 0.72·FWHM/SNR, note 1 of
-   * {@link halfWidthSE}).
+   * A side of a peak (peak to its half-prominence crossing) must be longer than half the expected
+   * FWHM × (1 + sideWidening) by this many of its standard errors (0.72·FWHM/SNR,
+   * {@link halfWidthSE}) for the peak to be fitted.
    */
   gateSigma: 3,
+  /**
+   * How much longer a side is when the peak holds two equal steps minSeparationFwhm (half a FWHM)
+   * apart: the sum of two Gaussians of FWHM w at ±w/4 falls to half its top 1.206·w/2 from the
+   * middle (closed form solved numerically). A peak whose sides are shorter holds no pair the
+   * split would keep (a weaker partner widens it less, and unequal pairs closer than that are not
+   * told from one step), so it is not fitted.
+   */
+  sideWidening: 0,
   /**
    * Two steps are kept only this many expected FWHM apart or more: closer, two Gaussian-broadened
    * steps of a common width s differ from one step of width √(s² + d²/4) by their fourth moment
@@ -88,30 +98,31 @@ export function fitSteps(
   const m = self + nf * (withShift ? 2 : 1);
   if (rows <= m) return null;
   const xRef = x[(lo + hi) >> 1];
-  const cols: Float64Array[] = [];
-  for (let c = 0; c < m; c++) cols.push(new Float64Array(rows));
+  // Column by column in one scratch array (a typed array per column per call costs more than the sums).
+  if (scratch.cols.length < m * rows) scratch.cols = new Float64Array(2 * m * rows);
+  const cols = scratch.cols;
   for (let i = 0; i < rows; i++) {
     const v = x[lo + i];
-    cols[0][i] = 1;
-    cols[1][i] = v - xRef;
-    for (let j = 0; j < neighboursV.length; j++) cols[2 + j][i] = normalCdfFast((v - neighboursV[j]) / neighbourSigmaV);
+    cols[i] = 1;
+    cols[rows + i] = v - xRef;
+    for (let j = 0; j < neighboursV.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((v - neighboursV[j]) / neighbourSigmaV);
     for (let k = 0; k < nf; k++) {
       const z = (v - freeV[k]) / sigmaV;
-      cols[self + k][i] = normalCdfFast(z);
-      if (withShift) cols[self + nf + k][i] = gaussianFast(z) * INV_SQRT_2PI;
+      cols[(self + k) * rows + i] = normalCdfFast(z);
+      if (withShift) cols[(self + nf + k) * rows + i] = gaussianFast(z) * INV_SQRT_2PI;
     }
   }
   const ata: number[] = new Array(m * m).fill(0);
   const atb: number[] = new Array(m).fill(0);
   for (let r = 0; r < m; r++) {
-    const a = cols[r];
+    const a = r * rows;
     let sb = 0;
-    for (let i = 0; i < rows; i++) sb += a[i] * current[lo + i];
+    for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
     atb[r] = sb;
     for (let c = r; c < m; c++) {
-      const b = cols[c];
+      const b = c * rows;
       let sum = 0;
-      for (let i = 0; i < rows; i++) sum += a[i] * b[i];
+      for (let i = 0; i < rows; i++) sum += cols[a + i] * cols[b + i];
       ata[r * m + c] = sum;
       ata[c * m + r] = sum;
     }
@@ -123,7 +134,7 @@ export function fitSteps(
   let ss = 0;
   for (let i = 0; i < rows; i++) {
     let f = 0;
-    for (let c = 0; c < m; c++) f += cols[c][i] * coef[c];
+    for (let c = 0; c < m; c++) f += cols[c * rows + i] * coef[c];
     ss += (current[lo + i] - f) ** 2;
   }
   const inv = (r: number, c: number) => solved.tailInverse[(r - self) * tail + (c - self)];
@@ -205,7 +216,7 @@ export interface SplitResult {
  */
 export function isWide(peak: SplitInput, expectedFwhmV: number, gateSigma = SPLIT_PEAKS_DEFAULTS.gateSigma): boolean {
   const se = halfWidthSE(expectedFwhmV, peak.snr);
-  const limit = expectedFwhmV / 2 + gateSigma * se;
+  const limit = (expectedFwhmV / 2) * (1 + SPLIT_PEAKS_DEFAULTS.sideWidening) + gateSigma * se;
   return (peak.sidesV[0] ?? 0) > limit || (peak.sidesV[1] ?? 0) > limit;
 }
 
@@ -250,8 +261,12 @@ export function splitPeak(
   if (!(above - below > D.minSeparationFwhm * w)) return null;
   const sLo = D.widthBounds[0] * s0, sHi = D.widthBounds[1] * s0;
   const ss = (free: number[], s: number) => fitSteps(x, current, lo, hi, near, s0, free, s, false)?.ss ?? Infinity;
+  // A cheap screen first (one linear fit): a second step worth keeping lowers χ² by at least
+  // minStepSigma², so one step at the peak with the expected width must leave at least that much
+  // χ² beyond its degrees of freedom (the χ² the two-step fit has on average).
+  const dof = hi - lo + 1 - (2 + near.length + 1);
+  if (!(ss([x0], s0) / (noiseA * noiseA) - dof >= minStepSigma * minStepSigma)) return null;
   const tol = D.searchTolFwhm * w;
-  const one = patternSearch((p) => ss([p[0]], p[1]), [x0, s0], [w / 4, s0 / 4], [below, sLo], [above, sHi], tol);
   // Two steps: started on the longer side (a shoulder) or astride the top (merged).
   const longer = right - left;
   const start = Math.abs(longer) > halfWidthSE(w, peak.snr) ? (longer > 0 ? [x0, x0 + w] : [x0 - w, x0]) : [x0 - w / 2, x0 + w / 2];
@@ -271,6 +286,7 @@ export function splitPeak(
   const sigma = Math.max(noiseA, Math.sqrt(fit.ss / Math.max(1, fit.rows - fit.columns)));
   const t = fit.steps.map((c, k) => (fit.stepVars[k] > 0 ? c / (sigma * Math.sqrt(fit.stepVars[k])) : 0));
   if (!(Math.min(t[0], t[1]) >= minStepSigma)) return null;
+  const one = patternSearch((p) => ss([p[0]], p[1]), [x0, s0], [w / 4, s0 / 4], [below, sLo], [above, sHi], tol);
   if (!((one.value - two.value) / (sigma * sigma) >= minStepSigma * minStepSigma)) return null;
   const se = fit.shiftVars.map((v) => (Number.isFinite(v) && v > 0 ? sigma * Math.sqrt(v) : w / 2));
   return {
@@ -323,7 +339,7 @@ export function splitWidePeaks(
   didvS: Float64Array,
   current: { currentA: Float64Array; noiseA: number },
   peaks: readonly WidePeakInput[],
-  expectedFwhmV: number,
+  widths: { stepFwhmV: number; peakFwhmV: number },
   minStepSigma: number,
   minSeparationV: number,
 ): (SplitResult | null)[] {
@@ -333,9 +349,9 @@ export function splitWidePeaks(
   return peaks.map((p, k) => {
     const sidesV = halfProminenceSides(biasV, didvS, p);
     const input = { biasV: p.biasV, sidesV, snr: p.snr };
-    if (!isWide(input, expectedFwhmV)) return null;
+    if (!isWide(input, widths.peakFwhmV)) return null;
     const neighbours = positions.filter((_, j) => j !== k).flat();
-    const r = splitPeak(biasV, current.currentA, current.noiseA, input, neighbours, expectedFwhmV, minStepSigma);
+    const r = splitPeak(biasV, current.currentA, current.noiseA, input, neighbours, widths.stepFwhmV, minStepSigma);
     if (!r || r.biasV[1] - r.biasV[0] < minSeparationV || r.biasV.some((v) => neighbours.some((q) => Math.abs(q - v) < minSeparationV))) return null;
     positions[k] = [...r.biasV];
     return r;
