@@ -6,7 +6,7 @@ import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
-import { splitWidePeaks } from "./splitPeaks.ts";
+import { splitWidePeaks, type WidePeakInput } from "./splitPeaks.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -342,7 +342,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   // 4–6. Refinement.
   let peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
   // 7. Peaks wider than expected: two steps under one peak (positions from their own fit).
-  let fromSplit: boolean[] = peaks.map(() => false);
+  let fromSplit: boolean[] | null = null;
   const onCurrent = current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
   if (current && onCurrent && peaks.length) {
     const split = splitMerged(biasV, didvS, current, peaks, kept, options.expectedFwhmV, minStepSigma!, minSeparationMV);
@@ -351,7 +351,8 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   }
   if (current && onCurrent) {
     const halfWidthOf = (k: number) => Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
-    let open = peaks.map((_, k) => k).filter((k) => !fromSplit[k]);
+    let open = peaks.map((_, k) => k);
+    if (fromSplit) open = open.filter((k) => !fromSplit![k]);
     for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && open.length; iteration++) {
       const step = refineOnCurrent(biasV, current, peaks, open, halfWidthOf, work);
       peaks = step.peaks;
@@ -377,16 +378,23 @@ function splitMerged(
   expectedFwhmV: number | undefined,
   minStepSigma: number,
   minSeparationMV: number,
-): { peaks: Peak[]; fromSplit: boolean[] } {
+): { peaks: Peak[]; fromSplit: boolean[] | null } {
   const n = biasV.length;
   const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
-  const widths = peaks.map((p) => p.fwhmV).sort((a, b) => a - b);
+  const widths = new Float64Array(peaks.length);
+  for (let k = 0; k < peaks.length; k++) widths[k] = peaks[k].fwhmV;
+  widths.sort();
   // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
   // the filter widens: the median of the peaks found, never below the steps' own.
   const medianV = widths[widths.length >> 1];
   const referenceV = expectedFwhmV ?? medianV;
-  const input = peaks.map((p, k) => ({ ...p, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase }));
+  const input: WidePeakInput[] = [];
+  for (let k = 0; k < peaks.length; k++) {
+    const p = peaks[k];
+    input.push({ biasV: p.biasV, index: p.index, heightS: p.heightS, prominenceS: p.prominenceS, snr: p.snr, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase });
+  }
   const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV: Math.max(referenceV, medianV) }, minStepSigma, minSeparationMV / 1000);
+  if (splits.every((r) => r === null)) return { peaks, fromSplit: null };
   const out: { peak: Peak; split: boolean }[] = [];
   peaks.forEach((p, k) => {
     const r = splits[k];

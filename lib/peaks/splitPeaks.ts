@@ -14,19 +14,10 @@ const scratch = { cols: new Float64Array(0) };
 /** Defaults of {@link splitWidePeaks} (locked by test/peaks/splitPeaks.test.ts). */
 export const SPLIT_PEAKS_DEFAULTS = Object.freeze({
   /**
-   * A side of a peak (peak to its half-prominence crossing) must be longer than half the expected
-   * FWHM × (1 + sideWidening) by this many of its standard errors (0.72·FWHM/SNR,
-   * {@link halfWidthSE}) for the peak to be fitted.
+   * A side of a peak (peak to its half-prominence crossing) longer than half the peaks' FWHM by
+   * this many of its standard errors (0.72·FWHM/SNR, {@link halfWidthSE}) flags the peak.
    */
   gateSigma: 3,
-  /**
-   * How much longer a side is when the peak holds two equal steps minSeparationFwhm (half a FWHM)
-   * apart: the sum of two Gaussians of FWHM w at ±w/4 falls to half its top 1.206·w/2 from the
-   * middle (closed form solved numerically). A peak whose sides are shorter holds no pair the
-   * split would keep (a weaker partner widens it less, and unequal pairs closer than that are not
-   * told from one step), so it is not fitted.
-   */
-  sideWidening: 0,
   /**
    * Two steps are kept only this many expected FWHM apart or more: closer, two Gaussian-broadened
    * steps of a common width s differ from one step of width √(s² + d²/4) by their fourth moment
@@ -216,7 +207,7 @@ export interface SplitResult {
  */
 export function isWide(peak: SplitInput, expectedFwhmV: number, gateSigma = SPLIT_PEAKS_DEFAULTS.gateSigma): boolean {
   const se = halfWidthSE(expectedFwhmV, peak.snr);
-  const limit = (expectedFwhmV / 2) * (1 + SPLIT_PEAKS_DEFAULTS.sideWidening) + gateSigma * se;
+  const limit = expectedFwhmV / 2 + gateSigma * se;
   return (peak.sidesV[0] ?? 0) > limit || (peak.sidesV[1] ?? 0) > limit;
 }
 
@@ -305,7 +296,6 @@ export interface WidePeakInput {
   heightS: number;
   prominenceS: number;
   snr: number;
-  fwhmV: number;
   /** Sample indices of the minima bounding the peak's prominence. */
   leftBase: number;
   rightBase: number;
@@ -313,20 +303,30 @@ export interface WidePeakInput {
 
 /**
  * The distances from a peak's position to its half-prominence crossings, V (left, right), by
- * linear interpolation; null on a side where the curve reaches the base first.
+ * linear interpolation; null on a side where the curve reaches the base first. A side longer
+ * than `maxV` (V, default unbounded) is walked only that far (and a little beyond) and reported as
+ * its length there.
  */
-export function halfProminenceSides(biasV: Float64Array, g: Float64Array, peak: WidePeakInput): [number | null, number | null] {
+export function halfProminenceSides(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, maxV = Infinity): [number | null, number | null] {
+  const n = biasV.length;
+  const maxSamples = Math.ceil(maxV / ((biasV[n - 1] - biasV[0]) / (n - 1))) + 1;
+  return [sideLength(biasV, g, peak, -1, maxSamples), sideLength(biasV, g, peak, 1, maxSamples)];
+}
+
+/** One side of {@link halfProminenceSides} (a plain function: no closure per call). */
+function sideLength(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, dir: -1 | 1, maxSamples: number): number | null {
   const half = peak.heightS - peak.prominenceS / 2;
-  const side = (dir: -1 | 1): number | null => {
-    let i = peak.index;
-    const stop = dir < 0 ? peak.leftBase : peak.rightBase;
-    while (i !== stop && g[i + dir] > half) i += dir;
-    if (i === stop) return null;
-    const j = i + dir;
-    const at = biasV[i] + ((half - g[i]) / (g[j] - g[i])) * (biasV[j] - biasV[i]);
-    return Math.abs(at - peak.biasV);
-  };
-  return [side(-1), side(1)];
+  const p = peak.index;
+  const stop = dir < 0 ? peak.leftBase : peak.rightBase;
+  let i = p;
+  while (i !== stop && g[i + dir] > half) {
+    i += dir;
+    if ((i - p) * dir > maxSamples) return Math.abs(biasV[i] - peak.biasV);
+  }
+  if (i === stop) return null;
+  const j = i + dir;
+  const at = biasV[i] + ((half - g[i]) / (g[j] - g[i])) * (biasV[j] - biasV[i]);
+  return Math.abs(at - peak.biasV);
 }
 
 /**
@@ -343,17 +343,22 @@ export function splitWidePeaks(
   minStepSigma: number,
   minSeparationV: number,
 ): (SplitResult | null)[] {
+  const out: (SplitResult | null)[] = new Array(peaks.length).fill(null);
   // Left to right, each peak's neighbours where the splits before it put them (two splits never
   // claim the same stretch between their peaks).
-  const positions: number[][] = peaks.map((p) => [p.biasV]);
-  return peaks.map((p, k) => {
-    const sidesV = halfProminenceSides(biasV, didvS, p);
-    const input = { biasV: p.biasV, sidesV, snr: p.snr };
-    if (!isWide(input, widths.peakFwhmV)) return null;
+  let positions: number[][] | null = null;
+  for (let k = 0; k < peaks.length; k++) {
+    const p = peaks[k];
+    // The gate needs each side only as far as its limit; a flagged peak's sides are then measured whole.
+    const limitV = widths.peakFwhmV / 2 + SPLIT_PEAKS_DEFAULTS.gateSigma * halfWidthSE(widths.peakFwhmV, p.snr);
+    if (!isWide({ biasV: p.biasV, sidesV: halfProminenceSides(biasV, didvS, p, limitV), snr: p.snr }, widths.peakFwhmV)) continue;
+    const input = { biasV: p.biasV, sidesV: halfProminenceSides(biasV, didvS, p), snr: p.snr };
+    positions ??= peaks.map((q) => [q.biasV]);
     const neighbours = positions.filter((_, j) => j !== k).flat();
     const r = splitPeak(biasV, current.currentA, current.noiseA, input, neighbours, widths.stepFwhmV, minStepSigma);
-    if (!r || r.biasV[1] - r.biasV[0] < minSeparationV || r.biasV.some((v) => neighbours.some((q) => Math.abs(q - v) < minSeparationV))) return null;
+    if (!r || r.biasV[1] - r.biasV[0] < minSeparationV || r.biasV.some((v) => neighbours.some((q) => Math.abs(q - v) < minSeparationV))) continue;
     positions[k] = [...r.biasV];
-    return r;
-  });
+    out[k] = r;
+  }
+  return out;
 }
