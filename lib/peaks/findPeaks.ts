@@ -385,15 +385,17 @@ function splitMerged(
   for (let k = 0; k < peaks.length; k++) widths[k] = peaks[k].fwhmV;
   widths.sort();
   // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
-  // the filter widens: the median of the peaks found, never below the steps' own.
+  // the filter widens: the median of the peaks found (of three or more; one or two peaks are their
+  // own median), never below the steps' own.
   const medianV = widths[widths.length >> 1];
   const referenceV = expectedFwhmV ?? medianV;
+  const peakFwhmV = expectedFwhmV !== undefined && peaks.length < 3 ? expectedFwhmV : Math.max(referenceV, medianV);
   const input: WidePeakInput[] = [];
   for (let k = 0; k < peaks.length; k++) {
     const p = peaks[k];
     input.push({ biasV: p.biasV, index: p.index, heightS: p.heightS, prominenceS: p.prominenceS, snr: p.snr, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase });
   }
-  const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV: Math.max(referenceV, medianV) }, minStepSigma, minSeparationMV / 1000);
+  const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV }, minStepSigma, minSeparationMV / 1000);
   if (splits.every((r) => r === null)) return { peaks, fromSplit: null };
   const out: { peak: Peak; split: boolean }[] = [];
   peaks.forEach((p, k) => {

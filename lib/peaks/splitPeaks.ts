@@ -303,25 +303,22 @@ export interface WidePeakInput {
 
 /**
  * The distances from a peak's position to its half-prominence crossings, V (left, right), by
- * linear interpolation; null on a side where the curve reaches the base first. A side longer
- * than `maxV` (V, default unbounded) is walked only that far (and a little beyond) and reported as
- * its length there.
+ * linear interpolation; null on a side where the curve reaches the base first. A side is walked
+ * no further than `maxV` from the position (V, default unbounded): one longer is Infinity.
  */
 export function halfProminenceSides(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, maxV = Infinity): [number | null, number | null] {
-  const n = biasV.length;
-  const maxSamples = Math.ceil(maxV / ((biasV[n - 1] - biasV[0]) / (n - 1))) + 1;
-  return [sideLength(biasV, g, peak, -1, maxSamples), sideLength(biasV, g, peak, 1, maxSamples)];
+  return [sideLength(biasV, g, peak, -1, maxV), sideLength(biasV, g, peak, 1, maxV)];
 }
 
 /** One side of {@link halfProminenceSides} (a plain function: no closure per call). */
-function sideLength(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, dir: -1 | 1, maxSamples: number): number | null {
+function sideLength(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, dir: -1 | 1, maxV: number): number | null {
   const half = peak.heightS - peak.prominenceS / 2;
   const p = peak.index;
   const stop = dir < 0 ? peak.leftBase : peak.rightBase;
   let i = p;
   while (i !== stop && g[i + dir] > half) {
     i += dir;
-    if ((i - p) * dir > maxSamples) return Math.abs(biasV[i] - peak.biasV);
+    if (Math.abs(biasV[i] - peak.biasV) > maxV) return Infinity;
   }
   if (i === stop) return null;
   const j = i + dir;
