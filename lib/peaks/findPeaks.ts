@@ -6,7 +6,7 @@ import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
-import { splitWidePeaks, type WidePeakInput } from "./splitPeaks.ts";
+import { splitMerged } from "./splitPeaks.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -211,6 +211,19 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    error of the parabola's vertex (noiseS taken as white) is reported instead. Either way a
  *    floor of FIND_PEAKS_DEFAULTS.positionFloorPerFwhmParabola (0.8 %) of the FWHM is added in
  *    quadrature (positionFloorPerFwhm when refined on the current).
+ * 7. Merged peaks and shoulders (with the current and refineOnCurrent; `lib/peaks/splitPeaks.ts`):
+ *    a peak one of whose sides (position to half-prominence crossing) is longer than half the
+ *    peaks' FWHM by more than 3 of its standard errors (0.72·FWHM/SNR; the peaks' FWHM is the median
+ *    of those found, at least expectedFwhmV) may hold two steps: a level and a resonance merged, or
+ *    a weaker level with no maximum of its own beside a stronger one. Where one step at the peak
+ *    with the expected width leaves at least minStepSigma² of χ² beyond its degrees of freedom,
+ *    one step (position and width free) and two steps (positions and a common width free, the
+ *    width 0.8–2.5 times the expected) are fitted to the current as in note 3, the neighbours'
+ *    steps fitted at their positions; two peaks replace the one when both steps are positive, the
+ *    weaker reaches minStepSigma, χ² drops by at least minStepSigma², and the steps lie at least
+ *    half an expected FWHM apart (closer, two steps differ from one wider step by their fourth
+ *    moment alone) and minSeparationMV from every other peak. Their positions are that fit's (not
+ *    refined again), σ from its covariance with the floor of note 6.
  *
  * References
  * ----------
@@ -345,7 +358,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   let fromSplit: boolean[] | null = null;
   const onCurrent = current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
   if (current && onCurrent && peaks.length) {
-    const split = splitMerged(biasV, didvS, current, peaks, kept, options.expectedFwhmV, minStepSigma!, minSeparationMV);
+    const split = splitMerged(biasV, didvS, current, peaks, kept, options.expectedFwhmV, minStepSigma!, minSeparationMV, FIND_PEAKS_DEFAULTS.positionFloorPerFwhm);
     peaks = split.peaks;
     fromSplit = split.fromSplit;
   }
@@ -363,69 +376,6 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
     peaks,
     record: { noiseS, minProminenceSigma, minStepSigma, minSeparationMV, candidates: maxima.length, belowProminence, belowStepSignificance, tooClose, warnings },
   };
-}
-
-/**
- * Note 7 of {@link findPeaks}: each peak wider than expected replaced by the two steps the
- * current shows under it ({@link splitWidePeaks}), sorted by bias, with which came from a split.
- */
-function splitMerged(
-  biasV: Float64Array,
-  didvS: Float64Array,
-  current: { currentA: Float64Array; noiseA: number },
-  peaks: Peak[],
-  kept: readonly { leftBase: number; rightBase: number }[],
-  expectedFwhmV: number | undefined,
-  minStepSigma: number,
-  minSeparationMV: number,
-): { peaks: Peak[]; fromSplit: boolean[] | null } {
-  const n = biasV.length;
-  const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
-  const widths = new Float64Array(peaks.length);
-  for (let k = 0; k < peaks.length; k++) widths[k] = peaks[k].fwhmV;
-  widths.sort();
-  // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
-  // the filter widens: the median of the peaks found (of three or more; one or two peaks are their
-  // own median), never below the steps' own.
-  const medianV = widths[widths.length >> 1];
-  const referenceV = expectedFwhmV ?? medianV;
-  const peakFwhmV = expectedFwhmV !== undefined && peaks.length < 3 ? expectedFwhmV : Math.max(referenceV, medianV);
-  const input: WidePeakInput[] = [];
-  for (let k = 0; k < peaks.length; k++) {
-    const p = peaks[k];
-    input.push({ biasV: p.biasV, index: p.index, heightS: p.heightS, prominenceS: p.prominenceS, snr: p.snr, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase });
-  }
-  const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV }, minStepSigma, minSeparationMV / 1000);
-  if (splits.every((r) => r === null)) return { peaks, fromSplit: null };
-  const out: { peak: Peak; split: boolean }[] = [];
-  peaks.forEach((p, k) => {
-    const r = splits[k];
-    if (!r) {
-      out.push({ peak: p, split: false });
-      return;
-    }
-    const total = r.stepA[0] + r.stepA[1];
-    for (const i of [0, 1]) {
-      const index = Math.min(n - 1, Math.max(0, Math.round((r.biasV[i] - biasV[0]) / stepV)));
-      const share = r.stepA[i] / total;
-      out.push({
-        peak: {
-          biasV: r.biasV[i],
-          biasUncertaintyV: Math.hypot(r.uncertaintyV[i], FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * referenceV),
-          index,
-          heightS: didvS[index],
-          prominenceS: p.prominenceS * share,
-          fwhmV: r.fwhmV,
-          stepA: r.stepA[i],
-          snr: p.snr * share,
-          stepSignificance: r.significance[i],
-        },
-        split: true,
-      });
-    }
-  });
-  out.sort((a, b) => a.peak.biasV - b.peak.biasV);
-  return { peaks: out.map((o) => o.peak), fromSplit: out.map((o) => o.split) };
 }
 
 /**

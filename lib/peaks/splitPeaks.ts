@@ -6,10 +6,9 @@
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { gaussianFast, normalCdfFast } from "../util/special.ts";
 import { scaledCholeskySolve } from "../util/smallSymmetric.ts";
+import type { Peak } from "./findPeaks.ts";
 
 const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
-/** Scratch of {@link fitSteps}: the design matrix, grown as needed (module scope, reused; never read before written). */
-const scratch = { cols: new Float64Array(0) };
 
 /** Defaults of {@link splitWidePeaks} (locked by test/peaks/splitPeaks.test.ts). */
 export const SPLIT_PEAKS_DEFAULTS = Object.freeze({
@@ -70,7 +69,8 @@ export interface StepsFit {
  * I = a + b·u + Σ_j c_j·Φ((x − n_j)/s₀) + Σ_k d_k·Φ((x − x_k)/s) [+ Σ_k e_k·φ((x − x_k)/s)/√(2π)],
  * u = x − x_ref: neighbours n_j at the expected width s₀, free steps x_k at a common width s.
  * With `withShift`, each φ column linearises a shift of x_k (δ_k = −e_k·s/d_k, as in
- * localStepFit). Null when the normal equations are singular.
+ * localStepFit). `scratch` holds the design matrix (grown as needed; pass one to reuse it over
+ * many fits). Null when the normal equations are singular.
  */
 export function fitSteps(
   x: Float64Array,
@@ -82,6 +82,7 @@ export function fitSteps(
   freeV: readonly number[],
   sigmaV: number,
   withShift: boolean,
+  scratch: { cols: Float64Array } = { cols: new Float64Array(0) },
 ): StepsFit | null {
   const rows = hi - lo + 1;
   const nf = freeV.length;
@@ -251,7 +252,8 @@ export function splitPeak(
   }
   if (!(above - below > D.minSeparationFwhm * w)) return null;
   const sLo = D.widthBounds[0] * s0, sHi = D.widthBounds[1] * s0;
-  const ss = (free: number[], s: number) => fitSteps(x, current, lo, hi, near, s0, free, s, false)?.ss ?? Infinity;
+  const scratch = { cols: new Float64Array(0) };
+  const ss = (free: number[], s: number) => fitSteps(x, current, lo, hi, near, s0, free, s, false, scratch)?.ss ?? Infinity;
   // A cheap screen first (one linear fit): a second step worth keeping lowers χ² by at least
   // minStepSigma², so one step at the peak with the expected width must leave at least that much
   // χ² beyond its degrees of freedom (the χ² the two-step fit has on average).
@@ -272,7 +274,7 @@ export function splitPeak(
   );
   const [x1, x2, s] = two.p;
   if (!(x2 - x1 >= D.minSeparationFwhm * w) || !Number.isFinite(two.value)) return null;
-  const fit = fitSteps(x, current, lo, hi, near, s0, [x1, x2], s, true);
+  const fit = fitSteps(x, current, lo, hi, near, s0, [x1, x2], s, true, scratch);
   if (!fit) return null;
   const sigma = Math.max(noiseA, Math.sqrt(fit.ss / Math.max(1, fit.rows - fit.columns)));
   const t = fit.steps.map((c, k) => (fit.stepVars[k] > 0 ? c / (sigma * Math.sqrt(fit.stepVars[k])) : 0));
@@ -358,4 +360,71 @@ export function splitWidePeaks(
     out[k] = r;
   }
   return out;
+}
+
+/**
+ * Note 7 of findPeaks: each peak wider than expected replaced by the two steps the
+ * current shows under it ({@link splitWidePeaks}), sorted by bias, with which came from a split
+ * (null where none did). A split peak's position σ is the fit's, with positionFloorPerFwhm of the
+ * expected FWHM in quadrature; its prominence and SNR are the peak's shared in proportion to the
+ * two steps, its height the conductance at its sample.
+ */
+export function splitMerged(
+  biasV: Float64Array,
+  didvS: Float64Array,
+  current: { currentA: Float64Array; noiseA: number },
+  peaks: Peak[],
+  kept: readonly { leftBase: number; rightBase: number }[],
+  expectedFwhmV: number | undefined,
+  minStepSigma: number,
+  minSeparationMV: number,
+  positionFloorPerFwhm: number,
+): { peaks: Peak[]; fromSplit: boolean[] | null } {
+  const n = biasV.length;
+  const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
+  const widths = new Float64Array(peaks.length);
+  for (let k = 0; k < peaks.length; k++) widths[k] = peaks[k].fwhmV;
+  widths.sort();
+  // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
+  // the filter widens: the median of the peaks found (of three or more; one or two peaks are their
+  // own median), never below the steps' own.
+  const medianV = widths[widths.length >> 1];
+  const referenceV = expectedFwhmV ?? medianV;
+  const peakFwhmV = expectedFwhmV !== undefined && peaks.length < 3 ? expectedFwhmV : Math.max(referenceV, medianV);
+  const input: WidePeakInput[] = [];
+  for (let k = 0; k < peaks.length; k++) {
+    const p = peaks[k];
+    input.push({ biasV: p.biasV, index: p.index, heightS: p.heightS, prominenceS: p.prominenceS, snr: p.snr, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase });
+  }
+  const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV }, minStepSigma, minSeparationMV / 1000);
+  if (splits.every((r) => r === null)) return { peaks, fromSplit: null };
+  const out: { peak: Peak; split: boolean }[] = [];
+  peaks.forEach((p, k) => {
+    const r = splits[k];
+    if (!r) {
+      out.push({ peak: p, split: false });
+      return;
+    }
+    const total = r.stepA[0] + r.stepA[1];
+    for (const i of [0, 1]) {
+      const index = Math.min(n - 1, Math.max(0, Math.round((r.biasV[i] - biasV[0]) / stepV)));
+      const share = r.stepA[i] / total;
+      out.push({
+        peak: {
+          biasV: r.biasV[i],
+          biasUncertaintyV: Math.hypot(r.uncertaintyV[i], positionFloorPerFwhm * referenceV),
+          index,
+          heightS: didvS[index],
+          prominenceS: p.prominenceS * share,
+          fwhmV: r.fwhmV,
+          stepA: r.stepA[i],
+          snr: p.snr * share,
+          stepSignificance: r.significance[i],
+        },
+        split: true,
+      });
+    }
+  });
+  out.sort((a, b) => a.peak.biasV - b.peak.biasV);
+  return { peaks: out.map((o) => o.peak), fromSplit: out.map((o) => o.split) };
 }
