@@ -16,7 +16,7 @@ export const SPLIT_PEAKS_DEFAULTS = Object.freeze({
    * A side of a peak (peak to its half-prominence crossing) longer than half the peaks' FWHM by
    * this many of its standard errors (0.72·FWHM/SNR, {@link halfWidthSE}) flags the peak.
    */
-  gateSigma: 3,
+  gateSigma: 2,
   /**
    * Two steps are kept only this many expected FWHM apart or more: closer, two Gaussian-broadened
    * steps of a common width s differ from one step of width √(s² + d²/4) by their fourth moment
@@ -82,7 +82,7 @@ export function fitSteps(
   freeV: readonly number[],
   sigmaV: number,
   withShift: boolean,
-  scratch: { cols: Float64Array } = { cols: new Float64Array(0) },
+  scratch: { cols: number[] } = { cols: [] },
 ): StepsFit | null {
   const rows = hi - lo + 1;
   const nf = freeV.length;
@@ -90,8 +90,9 @@ export function fitSteps(
   const m = self + nf * (withShift ? 2 : 1);
   if (rows <= m) return null;
   const xRef = x[(lo + hi) >> 1];
-  // Column by column in one scratch array (a typed array per column per call costs more than the sums).
-  if (scratch.cols.length < m * rows) scratch.cols = new Float64Array(2 * m * rows);
+  // Column by column in one plain scratch array (a typed array is allocated outside V8's heap, which
+  // costs more than these sums).
+  if (scratch.cols.length < m * rows) scratch.cols = new Array(2 * m * rows).fill(0);
   const cols = scratch.cols;
   for (let i = 0; i < rows; i++) {
     const v = x[lo + i];
@@ -252,7 +253,7 @@ export function splitPeak(
   }
   if (!(above - below > D.minSeparationFwhm * w)) return null;
   const sLo = D.widthBounds[0] * s0, sHi = D.widthBounds[1] * s0;
-  const scratch = { cols: new Float64Array(0) };
+  const scratch = { cols: [] as number[] };
   const ss = (free: number[], s: number) => fitSteps(x, current, lo, hi, near, s0, free, s, false, scratch)?.ss ?? Infinity;
   // A cheap screen first (one linear fit): a second step worth keeping lowers χ² by at least
   // minStepSigma², so one step at the peak with the expected width must leave at least that much
@@ -382,9 +383,9 @@ export function splitMerged(
 ): { peaks: Peak[]; fromSplit: boolean[] | null } {
   const n = biasV.length;
   const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
-  const widths = new Float64Array(peaks.length);
-  for (let k = 0; k < peaks.length; k++) widths[k] = peaks[k].fwhmV;
-  widths.sort();
+  const widths: number[] = [];
+  for (let k = 0; k < peaks.length; k++) widths.push(peaks[k].fwhmV);
+  widths.sort((a, b) => a - b);
   // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
   // the filter widens: the median of the peaks found (of three or more; one or two peaks are their
   // own median), never below the steps' own.

@@ -31,7 +31,7 @@ function stepsConductance(x: Float64Array, steps: [number, number][], s: number)
 describe("SPLIT_PEAKS_DEFAULTS", () => {
   it("is frozen with the documented values", () => {
     expect(Object.isFrozen(SPLIT_PEAKS_DEFAULTS)).toBe(true);
-    expect(SPLIT_PEAKS_DEFAULTS).toEqual({ gateSigma: 3, minSeparationFwhm: 0.5, windowFwhm: 3, searchTolFwhm: 1 / 64, widthBounds: [0.8, 2.5] });
+    expect(SPLIT_PEAKS_DEFAULTS).toEqual({ gateSigma: 2, minSeparationFwhm: 0.5, windowFwhm: 3, searchTolFwhm: 1 / 64, widthBounds: [0.8, 2.5] });
   });
 });
 
@@ -116,8 +116,9 @@ describe("splitPeak and findPeaks' note 7 (constructed currents with known steps
       expectClose(p.biasV, steps[k][0], { atol: 3 * p.biasUncertaintyV, what: `step ${k + 1} within 3σ` });
       expect(p.stepSignificance!).toBeGreaterThan(5);
     });
-    // Without the current there is nothing to split: one peak.
+    // Without the current there is nothing to split, nor where positions are not refined on it (a measured conductance): one peak.
     expect(findPeaks(x, clean, { noiseS }).peaks.length).toBe(1);
+    expect(findPeaks(x, clean, { noiseS, current: { currentA: current, noiseA }, expectedFwhmV: fw, refineOnCurrent: false }).peaks.length).toBe(1);
   });
 
   it("a shoulder (a step 1 FWHM beyond one 2.5 times larger) is found as its own peak", () => {
