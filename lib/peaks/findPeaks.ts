@@ -213,7 +213,7 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    quadrature (positionFloorPerFwhm when refined on the current).
  * 7. Merged peaks and shoulders (with the current and refineOnCurrent; `lib/peaks/splitPeaks.ts`):
  *    a peak one of whose sides (position to half-prominence crossing) is longer than half the
- *    peaks' FWHM by more than 3 of its standard errors (0.72·FWHM/SNR; the peaks' FWHM is the median
+ *    peaks' FWHM by more than 2 of its standard errors (0.72·FWHM/SNR; the peaks' FWHM is the median
  *    of those found, at least expectedFwhmV) may hold two steps: a level and a resonance merged, or
  *    a weaker level with no maximum of its own beside a stronger one. Where one step at the peak
  *    with the expected width leaves at least minStepSigma² of χ² beyond its degrees of freedom,
