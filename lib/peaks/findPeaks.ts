@@ -6,6 +6,7 @@ import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
+import { splitMerged } from "./splitPeaks.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -210,6 +211,19 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    error of the parabola's vertex (noiseS taken as white) is reported instead. Either way a
  *    floor of FIND_PEAKS_DEFAULTS.positionFloorPerFwhmParabola (0.8 %) of the FWHM is added in
  *    quadrature (positionFloorPerFwhm when refined on the current).
+ * 7. Merged peaks and shoulders (with the current and refineOnCurrent; `lib/peaks/splitPeaks.ts`):
+ *    a peak one of whose sides (position to half-prominence crossing) is longer than half the
+ *    peaks' FWHM by more than 2 of its standard errors (0.72·FWHM/SNR; the peaks' FWHM is the median
+ *    of those found, at least expectedFwhmV) may hold two steps: a level and a resonance merged, or
+ *    a weaker level with no maximum of its own beside a stronger one. Where one step at the peak
+ *    with the expected width leaves at least minStepSigma² of χ² beyond its degrees of freedom,
+ *    one step (position and width free) and two steps (positions and a common width free, the
+ *    width 0.8–2.5 times the expected) are fitted to the current as in note 3, the neighbours'
+ *    steps fitted at their positions; two peaks replace the one when both steps are positive, the
+ *    weaker reaches minStepSigma, χ² drops by at least minStepSigma², and the steps lie at least
+ *    half an expected FWHM apart (closer, two steps differ from one wider step by their fourth
+ *    moment alone) and minSeparationMV from every other peak. Their positions are that fit's (not
+ *    refined again), σ from its covariance with the floor of note 6.
  *
  * References
  * ----------
@@ -340,9 +354,18 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
 
   // 4–6. Refinement.
   let peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
-  if (current && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent)) {
+  // 7. Peaks wider than expected: two steps under one peak (positions from their own fit).
+  let fromSplit: boolean[] | null = null;
+  const onCurrent = current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
+  if (current && onCurrent && peaks.length) {
+    const split = splitMerged(biasV, didvS, current, peaks, kept, options.expectedFwhmV, minStepSigma!, minSeparationMV, FIND_PEAKS_DEFAULTS.positionFloorPerFwhm);
+    peaks = split.peaks;
+    fromSplit = split.fromSplit;
+  }
+  if (current && onCurrent) {
     const halfWidthOf = (k: number) => Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
     let open = peaks.map((_, k) => k);
+    if (fromSplit) open = open.filter((k) => !fromSplit![k]);
     for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && open.length; iteration++) {
       const step = refineOnCurrent(biasV, current, peaks, open, halfWidthOf, work);
       peaks = step.peaks;

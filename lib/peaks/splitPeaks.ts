@@ -1,0 +1,431 @@
+/**
+ * Merged peaks and shoulders: a conductance peak wider than the expected width by more than its
+ * error on either side is tested for two current steps under it (findPeaks' note 7). Internal to
+ * lib/peaks (not re-exported from the public entry).
+ */
+import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
+import { gaussianFast, normalCdfFast } from "../util/special.ts";
+import { scaledCholeskySolve } from "../util/smallSymmetric.ts";
+import type { Peak } from "./findPeaks.ts";
+
+const INV_SQRT_2PI = 1 / Math.sqrt(2 * Math.PI);
+
+/** Defaults of {@link splitWidePeaks} (locked by test/peaks/splitPeaks.test.ts). */
+export const SPLIT_PEAKS_DEFAULTS = Object.freeze({
+  /**
+   * A side of a peak (peak to its half-prominence crossing) longer than half the peaks' FWHM by
+   * this many of its standard errors (0.72·FWHM/SNR, {@link halfWidthSE}) flags the peak.
+   */
+  gateSigma: 2,
+  /**
+   * Two steps are kept only this many expected FWHM apart or more: closer, two Gaussian-broadened
+   * steps of a common width s differ from one step of width √(s² + d²/4) by their fourth moment
+   * alone (excess kurtosis −2a⁴/(1 + a²)², a = d/2s: −0.13 at half a FWHM), a line-shape detail
+   * rather than a second level.
+   */
+  minSeparationFwhm: 0.5,
+  /** Half-width of the fit window around the peak, in expected FWHM (that of the step test). */
+  windowFwhm: 3,
+  /** The pattern search stops when its position step falls below this fraction of a FWHM. */
+  searchTolFwhm: 1 / 64,
+  /**
+   * The common width of the fitted steps stays within these multiples of the expected one: no
+   * step is narrower than the gap-edge step the expected width is measured on (a tip-side level;
+   * substrate-side steps are η/(1 − η) times wider for η > 0.5), less 20 % for the error of that
+   * measurement; 2.5 covers a resonance at η = 0.55–0.65 (1.2–1.9 times) with room.
+   */
+  widthBounds: [0.8, 2.5] as readonly [number, number],
+});
+
+/**
+ * Standard error of one side of a Gaussian peak measured at half prominence, V: the noise σ_G
+ * over the slope there. For G = A·exp(−x²/2s²) the slope at the half-height point x = s·√(2 ln 2)
+ * is A·√(2 ln 2)/(2s), so σ_x = 2s·σ_G/(√(2 ln 2)·A), and with FWHM = 2√(2 ln 2)·s,
+ * σ_x = FWHM/(2 ln 2·SNR) ≈ 0.7213·FWHM/SNR (SNR = A/σ_G).
+ */
+export function halfWidthSE(fwhmV: number, snr: number): number {
+  return fwhmV / (2 * Math.LN2 * snr);
+}
+
+/** What {@link fitSteps} returns: the residual sum of squares and, per free step, its height, variance and position shift. */
+export interface StepsFit {
+  /** Residual sum of squares, A². */
+  ss: number;
+  /** Rows fitted. */
+  rows: number;
+  /** Columns fitted. */
+  columns: number;
+  /** Heights of the free steps, A. */
+  steps: number[];
+  /** Var(step)/σ² of each free step. */
+  stepVars: number[];
+  /** With shifts: the Gauss–Newton shift of each free step, V, and Var(shift)/σ². */
+  shifts: number[];
+  shiftVars: number[];
+}
+
+/**
+ * Linear least squares of the current over samples [lo, hi]:
+ * I = a + b·u + Σ_j c_j·Φ((x − n_j)/s₀) + Σ_k d_k·Φ((x − x_k)/s) [+ Σ_k e_k·φ((x − x_k)/s)/√(2π)],
+ * u = x − x_ref: neighbours n_j at the expected width s₀, free steps x_k at a common width s.
+ * With `withShift`, each φ column linearises a shift of x_k (δ_k = −e_k·s/d_k, as in
+ * localStepFit). `scratch` holds the design matrix (grown as needed; pass one to reuse it over
+ * many fits). Null when the normal equations are singular.
+ */
+export function fitSteps(
+  x: Float64Array,
+  current: Float64Array,
+  lo: number,
+  hi: number,
+  neighboursV: readonly number[],
+  neighbourSigmaV: number,
+  freeV: readonly number[],
+  sigmaV: number,
+  withShift: boolean,
+  scratch: { cols: number[] } = { cols: [] },
+): StepsFit | null {
+  const rows = hi - lo + 1;
+  const nf = freeV.length;
+  const self = 2 + neighboursV.length;
+  const m = self + nf * (withShift ? 2 : 1);
+  if (rows <= m) return null;
+  const xRef = x[(lo + hi) >> 1];
+  // Column by column in one plain scratch array (a typed array is allocated outside V8's heap, which
+  // costs more than these sums).
+  if (scratch.cols.length < m * rows) scratch.cols = new Array(2 * m * rows).fill(0);
+  const cols = scratch.cols;
+  for (let i = 0; i < rows; i++) {
+    const v = x[lo + i];
+    cols[i] = 1;
+    cols[rows + i] = v - xRef;
+    for (let j = 0; j < neighboursV.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((v - neighboursV[j]) / neighbourSigmaV);
+    for (let k = 0; k < nf; k++) {
+      const z = (v - freeV[k]) / sigmaV;
+      cols[(self + k) * rows + i] = normalCdfFast(z);
+      if (withShift) cols[(self + nf + k) * rows + i] = gaussianFast(z) * INV_SQRT_2PI;
+    }
+  }
+  const ata: number[] = new Array(m * m).fill(0);
+  const atb: number[] = new Array(m).fill(0);
+  for (let r = 0; r < m; r++) {
+    const a = r * rows;
+    let sb = 0;
+    for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
+    atb[r] = sb;
+    for (let c = r; c < m; c++) {
+      const b = c * rows;
+      let sum = 0;
+      for (let i = 0; i < rows; i++) sum += cols[a + i] * cols[b + i];
+      ata[r * m + c] = sum;
+      ata[c * m + r] = sum;
+    }
+  }
+  const tail = m - self;
+  const solved = scaledCholeskySolve(ata, atb, m, tail);
+  if (!solved) return null;
+  const coef = solved.x;
+  let ss = 0;
+  for (let i = 0; i < rows; i++) {
+    let f = 0;
+    for (let c = 0; c < m; c++) f += cols[c * rows + i] * coef[c];
+    ss += (current[lo + i] - f) ** 2;
+  }
+  const inv = (r: number, c: number) => solved.tailInverse[(r - self) * tail + (c - self)];
+  const steps: number[] = [], stepVars: number[] = [], shifts: number[] = [], shiftVars: number[] = [];
+  for (let k = 0; k < nf; k++) {
+    const c = coef[self + k];
+    steps.push(c);
+    stepVars.push(inv(self + k, self + k));
+    if (withShift && c !== 0) {
+      const d = coef[self + nf + k];
+      const gC = (sigmaV * d) / (c * c), gD = -sigmaV / c;
+      shifts.push((-d * sigmaV) / c);
+      shiftVars.push(gC * gC * inv(self + k, self + k) + 2 * gC * gD * inv(self + k, self + nf + k) + gD * gD * inv(self + nf + k, self + nf + k));
+    } else {
+      shifts.push(0);
+      shiftVars.push(Infinity);
+    }
+  }
+  return { ss, rows, columns: m, steps, stepVars, shifts, shiftVars };
+}
+
+/**
+ * Pattern search (compass search with step halving) of a function of a few parameters within
+ * bounds: each parameter in turn is moved by ± its step while that lowers f; when no move helps,
+ * every step is halved, until the first falls below `tol`.
+ */
+export function patternSearch(f: (p: number[]) => number, start: number[], steps: number[], lower: number[], upper: number[], tol: number): { p: number[]; value: number } {
+  const p = start.slice();
+  const step = steps.slice();
+  let best = f(p);
+  for (let guard = 0; guard < 200 && step[0] >= tol; guard++) {
+    let moved = false;
+    for (let k = 0; k < p.length; k++) {
+      for (const dir of [1, -1]) {
+        const q = p.slice();
+        q[k] = Math.min(upper[k], Math.max(lower[k], p[k] + dir * step[k]));
+        if (q[k] === p[k]) continue;
+        const v = f(q);
+        if (v < best) {
+          best = v;
+          p[k] = q[k];
+          moved = true;
+          break;
+        }
+      }
+    }
+    if (!moved) for (let k = 0; k < step.length; k++) step[k] /= 2;
+  }
+  return { p, value: best };
+}
+
+/** One peak tested by {@link splitPeak}: its position, FWHM, SNR and its sides to half prominence. */
+export interface SplitInput {
+  /** Position, V. */
+  biasV: number;
+  /** Distances from the position to the half-prominence crossings, V (left, right); null where a valley comes first. */
+  sidesV: [number | null, number | null];
+  /** Prominence over the conductance noise. */
+  snr: number;
+}
+
+/** Two steps found under one peak. */
+export interface SplitResult {
+  /** Positions, V, ascending. */
+  biasV: [number, number];
+  /** Position σ of each from the noise (the fit's covariance, widened by the residual RMS when larger), V. */
+  uncertaintyV: [number, number];
+  /** Current step of each, A. */
+  stepA: [number, number];
+  /** Step significance (height over its standard error) of each. */
+  significance: [number, number];
+  /** FWHM of the fitted steps (common), V. */
+  fwhmV: number;
+}
+
+/**
+ * Whether a peak is wider than expected on either side by more than `gateSigma` of its error
+ * (the only peaks {@link splitPeak} fits).
+ */
+export function isWide(peak: SplitInput, expectedFwhmV: number, gateSigma = SPLIT_PEAKS_DEFAULTS.gateSigma): boolean {
+  const se = halfWidthSE(expectedFwhmV, peak.snr);
+  const limit = expectedFwhmV / 2 + gateSigma * se;
+  return (peak.sidesV[0] ?? 0) > limit || (peak.sidesV[1] ?? 0) > limit;
+}
+
+/**
+ * Two Gaussian-broadened steps under one peak of the conductance, when the current shows them.
+ *
+ * Method: over ±windowFwhm expected FWHM around the peak (widened by the longer side), with the
+ * neighbouring peaks' steps fitted at their positions as in the step test, (1) one step with its
+ * position and width free and (2) two steps with both positions and a common width free are
+ * fitted by pattern search over the nonlinear parameters (linear least squares for the rest).
+ * Two steps are returned when both heights are positive, the smaller one's height over its
+ * standard error reaches `minStepSigma`, the drop of χ² from (1) to (2) reaches minStepSigma²
+ * (σ: the noise, or the residual RMS of (2) where larger), and the steps lie at least
+ * minSeparationFwhm expected FWHM apart and farther than that from any neighbour; null otherwise.
+ */
+export function splitPeak(
+  x: Float64Array,
+  current: Float64Array,
+  noiseA: number,
+  peak: SplitInput,
+  neighboursV: readonly number[],
+  expectedFwhmV: number,
+  minStepSigma: number,
+): SplitResult | null {
+  const D = SPLIT_PEAKS_DEFAULTS;
+  const n = x.length;
+  const h = (x[n - 1] - x[0]) / (n - 1);
+  const w = expectedFwhmV;
+  const s0 = w / GAUSSIAN_FWHM_PER_SIGMA;
+  const x0 = peak.biasV;
+  const left = Math.max(peak.sidesV[0] ?? 0, w / 2), right = Math.max(peak.sidesV[1] ?? 0, w / 2);
+  const lo = Math.max(0, Math.round((x0 - left - (D.windowFwhm - 0.5) * w - x[0]) / h));
+  const hi = Math.min(n - 1, Math.round((x0 + right + (D.windowFwhm - 0.5) * w - x[0]) / h));
+  if (hi - lo < 12) return null;
+  const near = neighboursV.filter((v) => v >= x[lo] - w && v <= x[hi] + w);
+  // The free steps stay between the peak's neighbours, minSeparationFwhm clear of them.
+  let below = x[lo], above = x[hi];
+  for (const v of near) {
+    if (v < x0) below = Math.max(below, v + D.minSeparationFwhm * w);
+    else above = Math.min(above, v - D.minSeparationFwhm * w);
+  }
+  if (!(above - below > D.minSeparationFwhm * w)) return null;
+  const sLo = D.widthBounds[0] * s0, sHi = D.widthBounds[1] * s0;
+  const scratch = { cols: [] as number[] };
+  const ss = (free: number[], s: number) => fitSteps(x, current, lo, hi, near, s0, free, s, false, scratch)?.ss ?? Infinity;
+  // A cheap screen first (one linear fit): a second step worth keeping lowers χ² by at least
+  // minStepSigma², so one step at the peak with the expected width must leave at least that much
+  // χ² beyond its degrees of freedom (the χ² the two-step fit has on average).
+  const dof = hi - lo + 1 - (2 + near.length + 1);
+  if (!(ss([x0], s0) / (noiseA * noiseA) - dof >= minStepSigma * minStepSigma)) return null;
+  const tol = D.searchTolFwhm * w;
+  // Two steps: started on the longer side (a shoulder) or astride the top (merged).
+  const longer = right - left;
+  const start = Math.abs(longer) > halfWidthSE(w, peak.snr) ? (longer > 0 ? [x0, x0 + w] : [x0 - w, x0]) : [x0 - w / 2, x0 + w / 2];
+  const clamp = (v: number) => Math.min(above, Math.max(below, v));
+  const two = patternSearch(
+    (p) => (p[1] - p[0] < D.minSeparationFwhm * w * 0.5 ? Infinity : ss([p[0], p[1]], p[2])),
+    [clamp(start[0]), clamp(start[1]), s0],
+    [w / 4, w / 4, s0 / 4],
+    [below, below, sLo],
+    [above, above, sHi],
+    tol,
+  );
+  const [x1, x2, s] = two.p;
+  if (!(x2 - x1 >= D.minSeparationFwhm * w) || !Number.isFinite(two.value)) return null;
+  const fit = fitSteps(x, current, lo, hi, near, s0, [x1, x2], s, true, scratch);
+  if (!fit) return null;
+  const sigma = Math.max(noiseA, Math.sqrt(fit.ss / Math.max(1, fit.rows - fit.columns)));
+  const t = fit.steps.map((c, k) => (fit.stepVars[k] > 0 ? c / (sigma * Math.sqrt(fit.stepVars[k])) : 0));
+  if (!(Math.min(t[0], t[1]) >= minStepSigma)) return null;
+  const one = patternSearch((p) => ss([p[0]], p[1]), [x0, s0], [w / 4, s0 / 4], [below, sLo], [above, sHi], tol);
+  if (!((one.value - two.value) / (sigma * sigma) >= minStepSigma * minStepSigma)) return null;
+  const se = fit.shiftVars.map((v) => (Number.isFinite(v) && v > 0 ? sigma * Math.sqrt(v) : w / 2));
+  return {
+    biasV: [x1, x2],
+    uncertaintyV: [se[0], se[1]],
+    stepA: [fit.steps[0], fit.steps[1]],
+    significance: [t[0], t[1]],
+    fwhmV: s * GAUSSIAN_FWHM_PER_SIGMA,
+  };
+}
+
+/** A peak as {@link splitWidePeaks} reads it (findPeaks' Peak and the bases of its prominence). */
+export interface WidePeakInput {
+  biasV: number;
+  index: number;
+  heightS: number;
+  prominenceS: number;
+  snr: number;
+  /** Sample indices of the minima bounding the peak's prominence. */
+  leftBase: number;
+  rightBase: number;
+}
+
+/**
+ * The distances from a peak's position to its half-prominence crossings, V (left, right), by
+ * linear interpolation; null on a side where the curve reaches the base first. A side is walked
+ * no further than `maxV` from the position (V, default unbounded): one longer is Infinity.
+ */
+export function halfProminenceSides(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, maxV = Infinity): [number | null, number | null] {
+  return [sideLength(biasV, g, peak, -1, maxV), sideLength(biasV, g, peak, 1, maxV)];
+}
+
+/** One side of {@link halfProminenceSides} (a plain function: no closure per call). */
+function sideLength(biasV: Float64Array, g: Float64Array, peak: WidePeakInput, dir: -1 | 1, maxV: number): number | null {
+  const half = peak.heightS - peak.prominenceS / 2;
+  const p = peak.index;
+  const stop = dir < 0 ? peak.leftBase : peak.rightBase;
+  let i = p;
+  while (i !== stop && g[i + dir] > half) {
+    i += dir;
+    if (Math.abs(biasV[i] - peak.biasV) > maxV) return Infinity;
+  }
+  if (i === stop) return null;
+  const j = i + dir;
+  const at = biasV[i] + ((half - g[i]) / (g[j] - g[i])) * (biasV[j] - biasV[i]);
+  return Math.abs(at - peak.biasV);
+}
+
+/**
+ * Every peak wider than expected ({@link isWide}) tested for two steps ({@link splitPeak}), its
+ * neighbours at the other peaks' positions: for each peak, null (kept as it is) or the two steps
+ * found under it.
+ */
+export function splitWidePeaks(
+  biasV: Float64Array,
+  didvS: Float64Array,
+  current: { currentA: Float64Array; noiseA: number },
+  peaks: readonly WidePeakInput[],
+  widths: { stepFwhmV: number; peakFwhmV: number },
+  minStepSigma: number,
+  minSeparationV: number,
+): (SplitResult | null)[] {
+  const out: (SplitResult | null)[] = new Array(peaks.length).fill(null);
+  // Left to right, each peak's neighbours where the splits before it put them (two splits never
+  // claim the same stretch between their peaks).
+  let positions: number[][] | null = null;
+  for (let k = 0; k < peaks.length; k++) {
+    const p = peaks[k];
+    // The gate needs each side only as far as its limit; a flagged peak's sides are then measured whole.
+    const limitV = widths.peakFwhmV / 2 + SPLIT_PEAKS_DEFAULTS.gateSigma * halfWidthSE(widths.peakFwhmV, p.snr);
+    if (!isWide({ biasV: p.biasV, sidesV: halfProminenceSides(biasV, didvS, p, limitV), snr: p.snr }, widths.peakFwhmV)) continue;
+    const input = { biasV: p.biasV, sidesV: halfProminenceSides(biasV, didvS, p), snr: p.snr };
+    positions ??= peaks.map((q) => [q.biasV]);
+    const neighbours = positions.filter((_, j) => j !== k).flat();
+    const r = splitPeak(biasV, current.currentA, current.noiseA, input, neighbours, widths.stepFwhmV, minStepSigma);
+    if (!r || r.biasV[1] - r.biasV[0] < minSeparationV || r.biasV.some((v) => neighbours.some((q) => Math.abs(q - v) < minSeparationV))) continue;
+    positions[k] = [...r.biasV];
+    out[k] = r;
+  }
+  return out;
+}
+
+/**
+ * Note 7 of findPeaks: each peak wider than expected replaced by the two steps the
+ * current shows under it ({@link splitWidePeaks}), sorted by bias, with which came from a split
+ * (null where none did). A split peak's position σ is the fit's, with positionFloorPerFwhm of the
+ * expected FWHM in quadrature; its prominence and SNR are the peak's shared in proportion to the
+ * two steps, its height the conductance at its sample.
+ */
+export function splitMerged(
+  biasV: Float64Array,
+  didvS: Float64Array,
+  current: { currentA: Float64Array; noiseA: number },
+  peaks: Peak[],
+  kept: readonly { leftBase: number; rightBase: number }[],
+  expectedFwhmV: number | undefined,
+  minStepSigma: number,
+  minSeparationMV: number,
+  positionFloorPerFwhm: number,
+): { peaks: Peak[]; fromSplit: boolean[] | null } {
+  const n = biasV.length;
+  const stepV = (biasV[n - 1] - biasV[0]) / (n - 1);
+  const widths: number[] = [];
+  for (let k = 0; k < peaks.length; k++) widths.push(peaks[k].fwhmV);
+  widths.sort((a, b) => a - b);
+  // The steps' width on the current; the peaks' width as the (smoothed) conductance shows it, which
+  // the filter widens: the median of the peaks found (of three or more; one or two peaks are their
+  // own median), never below the steps' own.
+  const medianV = widths[widths.length >> 1];
+  const referenceV = expectedFwhmV ?? medianV;
+  const peakFwhmV = expectedFwhmV !== undefined && peaks.length < 3 ? expectedFwhmV : Math.max(referenceV, medianV);
+  const input: WidePeakInput[] = [];
+  for (let k = 0; k < peaks.length; k++) {
+    const p = peaks[k];
+    input.push({ biasV: p.biasV, index: p.index, heightS: p.heightS, prominenceS: p.prominenceS, snr: p.snr, leftBase: kept[k].leftBase, rightBase: kept[k].rightBase });
+  }
+  const splits = splitWidePeaks(biasV, didvS, current, input, { stepFwhmV: referenceV, peakFwhmV }, minStepSigma, minSeparationMV / 1000);
+  if (splits.every((r) => r === null)) return { peaks, fromSplit: null };
+  const out: { peak: Peak; split: boolean }[] = [];
+  peaks.forEach((p, k) => {
+    const r = splits[k];
+    if (!r) {
+      out.push({ peak: p, split: false });
+      return;
+    }
+    const total = r.stepA[0] + r.stepA[1];
+    for (const i of [0, 1]) {
+      const index = Math.min(n - 1, Math.max(0, Math.round((r.biasV[i] - biasV[0]) / stepV)));
+      const share = r.stepA[i] / total;
+      out.push({
+        peak: {
+          biasV: r.biasV[i],
+          biasUncertaintyV: Math.hypot(r.uncertaintyV[i], positionFloorPerFwhm * referenceV),
+          index,
+          heightS: didvS[index],
+          prominenceS: p.prominenceS * share,
+          fwhmV: r.fwhmV,
+          stepA: r.stepA[i],
+          snr: p.snr * share,
+          stepSignificance: r.significance[i],
+        },
+        split: true,
+      });
+    }
+  });
+  out.sort((a, b) => a.peak.biasV - b.peak.biasV);
+  return { peaks: out.map((o) => o.peak), fromSplit: out.map((o) => o.split) };
+}
