@@ -145,7 +145,9 @@ export interface FitOptions {
  *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
  *    side, also with each VB level after the first entered one carrier earlier,
  *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
- *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
+ *    the CB side, and on the whole curve where that fit describes it; a whole-curve Ec or
+ *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
+ *    the VB reading that does not fit with the CB values, held below). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
  *    values, a warning says so); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
@@ -280,9 +282,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // otherwise the assignment's whole-curve runs.
   const wholeOf = new Map([...cbSideOf].map(([whole, cb]) => [cb, whole]));
   const finalists = wholeOf.size ? finals.filter((t) => t.side === "CB") : finals;
+  // A whole-curve fit whose Ec or Γtip/Γsub ran onto a bound while its CB side's stayed inside is
+  // a VB reading that does not fit with the CB values (held at the CB side's below), not a
+  // degenerate grouping: its bound does not count against the grouping.
+  const wholePlausibility = (whole: FitTrial, cb: FitTrial) =>
+    plausibilityInput(cb).atBound.length ? plausibilityOf(whole) : hypothesisPlausibility({ ...plausibilityInput(whole), atBound: [] });
   const implausibleOf = (t: FitTrial) => {
     const whole = wholeOf.get(t);
-    const wholeReasons = whole ? plausibilityOf(whole) : [];
+    const wholeReasons = whole ? wholePlausibility(whole, t) : [];
     return [...plausibilityOf(t), ...(whole && !poor(whole) ? wholeReasons : [])];
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);

@@ -288,6 +288,19 @@ describe("fitCurve(analysis) when the VB reading pulls Ec", () => {
     expect(fit.status).toBe("good");
   }, 60_000);
 
+  // Start 127: Γtip/Γsub 3.02, Ec 157.0 meV, p whole. Every CB-side grouping fits (reduced χ² 0.94,
+  // Γtip/Γsub 2.99 inside its bounds); the whole curve's VB reading runs Γtip/Γsub onto its bound
+  // (10⁴). That bound is the VB reading's, not the grouping's: until this round it made every
+  // grouping implausible and the comparison said "no fit".
+  it("does not count a whole-curve fit's bound against a CB grouping that stayed inside its bounds", () => {
+    const { analysis, truth } = crossoverDraw(127);
+    const fit = fitCurve(analysis, { compareModels: true });
+    expect(fit.status).toBe("good");
+    expect(fit.regime).toBe("shell-filling");
+    expectClose(fit.chargingEnergyEV.value, truth.chargingEnergyEV, { rtol: 0.03, what: "Ec (simulated)" });
+    expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
+  }, 60_000);
+
   // Start 1030: Γtip/Γsub 3.29, Ec 83.4 meV, p split 2+2+2 (sub-levels 75 meV apart), a window
   // that shows only part of the p ladder (the rules find five of its six peaks). The whole curve
   // keeps Ec but moves Γtip/Γsub (the VB reading): held at the CB side's value.
