@@ -149,8 +149,10 @@ export interface FitOptions {
  *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
  *    the VB reading that does not fit with the CB values, held below). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
- *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
- *    values, a warning says so); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
+ *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
+ *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
+ *    outside the CB side's points while the CB side's show none (then the CB-side values, a
+ *    warning says so: no reading of the VB peaks fits with them); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
  *    wholeCurveEcSigmas (1) combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
  *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
  *    them, said in a warning and the evidence. An assignment with more than maxAssignedStates (100) charge
@@ -247,9 +249,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const assignedTrial = trials.length ? trials[0] : null;
   // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
   // residuals, or an Ec far from the peak-based one.
-  const hidden = (t: FitTrial) => {
+  const structureOf = (t: FitTrial) => {
     const model = projectorOf(t.set)(runner.currentOf(t.hypothesis)(t.loop.parameters, t.set.biasV)).out;
-    const z = residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
+    return residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000);
+  };
+  const hidden = (t: FitTrial) => {
+    const z = structureOf(t).largestZ;
     const peakEc = peakChargingEnergy(analysis, eta);
     const ec = t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy];
     return z > FIT_STATUS_DEFAULTS.poorResidualZ || (peakEc !== null && Math.abs(ec - peakEc.valueEV) > FIT_STATUS_DEFAULTS.poorChargingSigmas * peakEc.standardErrorEV);
@@ -319,6 +324,18 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(whole).toPrecision(3)} over the whole curve, ${reduced(winner).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
     );
     best = winner;
+  } else if (whole) {
+    // Nor when the whole curve's residuals show structure only outside the points of the CB side,
+    // whose own residuals show none: the VB reading misses its peaks, and the CB values stand.
+    const wholeZ = structureOf(whole);
+    const cbV = winner.set.biasV;
+    const [fromV, toV] = [Math.min(cbV[0], cbV[cbV.length - 1]), Math.max(cbV[0], cbV[cbV.length - 1])];
+    if (wholeZ.largestZ > FIT_STATUS_DEFAULTS.poorResidualZ && (wholeZ.atBiasV < fromV || wholeZ.atBiasV > toV) && structureOf(winner).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ) {
+      warnings.push(
+        `no reading of the VB peaks fits together with the CB values (the whole curve's residuals show structure near ${wholeZ.atBiasV.toFixed(3)} V, ${wholeZ.largestZ.toFixed(1)} σ > ${FIT_STATUS_DEFAULTS.poorResidualZ}, outside the CB side, whose residuals show none): the values come from the CB side alone and no VB level is reported`,
+      );
+      best = winner;
+    }
   }
   // When the whole-curve fit moves Ec more than wholeCurveEcSigmas combined standard errors from
   // its CB side's, the VB reading pulls it: Ec and Γtip/Γsub are held at the CB side's values and
