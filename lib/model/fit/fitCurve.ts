@@ -155,7 +155,10 @@ export interface FitOptions {
  *    warning says so: no reading of the VB peaks fits with them); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
  *    wholeCurveEcSigmas (1) combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
  *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
- *    them, said in a warning and the evidence. An assignment with more than maxAssignedStates (100) charge
+ *    them, said in a warning and the evidence — unless, held so, the whole curve's residuals show
+ *    structure (above poorResidualZ) that the free whole-curve fit's, within the status's
+ *    reduced-χ² limit (3), do not: then the CB side's values are the ones that do not fit, and the
+ *    free fit's stand (a warning says so). An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
@@ -359,14 +362,24 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
       const held = { ...run(whole.hypothesis, null, maxIterations, from, all, [atW.chargingEnergy, atW.logRateRatio]), rateRatio0: whole.rateRatio0 };
       trials.push(held);
-      best = held;
-      errors = trialErrors(held, currentOf(held), noiseA, warnings);
-      errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
-      errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
       const [rC, rW] = [10 ** winner.loop.parameters[atC.logRateRatio], 10 ** whole.loop.parameters[atW.logRateRatio]];
       const moves = [`Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${z[0].toFixed(1)}`, `Γtip/Γsub from ${rC.toPrecision(3)} (CB side) to ${rW.toPrecision(3)}, ${z[1].toFixed(1)}`];
-      heldNote = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas}): the VB reading does not fit with the CB values`;
-      warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
+      const moved = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas})`;
+      // Held at the CB side's values, the whole curve may fit worse than free: residual structure
+      // the free fit has not (within its reduced-χ² limit). Then the CB side's values are the ones
+      // that do not fit, and the whole curve's stand.
+      const heldZ = structureOf(held).largestZ;
+      const freeZ = structureOf(whole).largestZ;
+      if (heldZ > FIT_STATUS_DEFAULTS.poorResidualZ && freeZ <= FIT_STATUS_DEFAULTS.poorResidualZ && reduced(whole) <= FIT_STATUS_DEFAULTS.poorChiSquare) {
+        warnings.push(`${moved}, but held at the CB side's values the whole curve leaves structure in the residuals (${heldZ.toFixed(1)} σ > ${FIT_STATUS_DEFAULTS.poorResidualZ}) that the free fit does not (${freeZ.toFixed(1)} σ): the whole curve's values stand`);
+      } else {
+        best = held;
+        errors = trialErrors(held, currentOf(held), noiseA, warnings);
+        errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
+        errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
+        heldNote = `${moved}: the VB reading does not fit with the CB values`;
+        warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
+      }
     }
   }
   const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
