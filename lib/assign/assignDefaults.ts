@@ -72,6 +72,28 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   newShellExcessFraction: 0.9,
   /** Shell tunnelling: a main peak closer to the previous one than this fraction of the s→p distance is a sub-level of the same shell. */
   tunnelingSublevelFraction: 0.5,
+  /**
+   * Shell tunnelling deep in the regime (see `tunnelingDeepSatelliteMax`): … or closer than this
+   * fraction while p's steps say it is short of its six states (`tunnelingSublevelFirstStepMax`,
+   * `tunnelingSublevelStepMax`): a d shell lies at least one s→p distance above p in the usual
+   * confinement potentials (harmonic: Δpd = Δsp; spherical well: Δpd ≈ 1.26 Δsp from the zeros of
+   * the spherical Bessel functions j₀, j₁, j₂: 3.14, 4.49, 5.76), 0.75 leaves a quarter for scatter.
+   */
+  tunnelingSublevelStepFraction: 0.75,
+  /**
+   * … deep in shell tunnelling: no CB charging satellite steps this fraction of the s step or more.
+   * A level's charging satellite steps about r/(1 + r) of its entry (the s doublet's closed form,
+   * r = Γtip/Γsub), so none at 0.1 means r ≤ 1/9, where a level of g states after s steps
+   * g/(2(1 + (2 + g)r)) × s: a 2-state sub-level at most 1, the whole p at least 1.59.
+   */
+  tunnelingDeepSatelliteMax: 0.1,
+  /** … when p's first level steps at most this multiple of the s step: a 2-state sub-level (≤ 1), not the whole p (≥ 1.59 for r ≤ 1/9). */
+  tunnelingSublevelFirstStepMax: 1.3,
+  /**
+   * … and p's levels so far step together at most this multiple of the s step: fewer than six
+   * states (four give at most 2 × s, the whole p about 3 × deep in the regime).
+   */
+  tunnelingSublevelStepMax: 2.5,
   /** Shell tunnelling with Ec from a charging satellite: a CB peak within (1 ± this)·Ec of the one before it is a charging peak of that level. */
   levelChargingTolerance: 0.15,
   /**

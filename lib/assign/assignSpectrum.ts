@@ -366,7 +366,10 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
         evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${ecV.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
       }
     }
-    cbGroups.push(...tunnelingShells(levels).map((shell) => shell.map((p) => [p])));
+    // Deep in the regime (no CB charging satellite of 0.1 × the s step: Γtip/Γsub ≤ 1/9) p's steps
+    // tell a split p from a whole one.
+    const deep = levels.length > 0 && !cbSplit.satellites.some((p) => p.peak.stepA >= D.tunnelingDeepSatelliteMax * levels[0].peak.stepA);
+    cbGroups.push(...tunnelingShells(levels, deep).map((shell) => shell.map((p) => [p])));
   }
   const satellites = [...setAside].sort((a, b) => a.peak.biasV - b.peak.biasV);
   evidence.satellitePeaksV = satellites.map((p) => p.peak.biasV);

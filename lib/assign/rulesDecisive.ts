@@ -8,6 +8,7 @@ import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import { checkFinite, checkRange } from "../util/check.ts";
 import type { Assignment } from "./assignSpectrum.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -81,7 +82,7 @@ export interface RulesDecisive {
  * Which rule of {@link rulesDecisive} found the reading open, by its number in the notes there:
  * 1 `undetermined`, 2 `step-ratio-band`, 3 `short-shell`, 4 `even-ladder`, 5 `satellite-at-p`,
  * 6 `sublevels-one-ec`, 7 `levels-over-pairs`, 8 `broad-satellite`, 9 `charging-dip`,
- * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`.
+ * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`, 13 `odd-subgroup`, 14 `d-near-split-p`.
  */
 export type RulesDecisiveCode =
   | "undetermined"
@@ -95,7 +96,9 @@ export type RulesDecisiveCode =
   | "charging-dip"
   | "split-ladder"
   | "two-cb-peaks"
-  | "strong-satellite";
+  | "strong-satellite"
+  | "odd-subgroup"
+  | "d-near-split-p";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -187,6 +190,21 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * 12. Shell tunnelling with a CB peak after the first set aside as a charging satellite although
  *    it steps at least `ladderSatelliteMax` × the CB peak before it: a level's charging peak
  *    steps less than the peak before it, so it may be a sub-level the rules did not count.
+ * 13. Shell filling with a sub-group of a multiplet holding an odd number of charging peaks,
+ *    other than a last sub-group the shell may still be short of: the sub-levels of a shell split
+ *    by shape keep the spin degeneracy (Kramers), so each holds an even number of electrons and
+ *    its sub-group counts an even number of charging peaks (p: 2+4 or 2+2+2). An odd one holds a
+ *    peak that is not a charging peak of its sub-level (a higher sub-level entered early, taken
+ *    for one) in place of one that is, and the peaks after it sit one charging peak off.
+ * 14. Shell tunnelling with a level read as d within `ASSIGN_DEFAULTS.tunnelingSublevelStepFraction`
+ *    (0.75) × the s→p distance of p's last level, p's first level stepping at most
+ *    `ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax` (1.3) × the s level and p's levels together
+ *    at most `tunnelingSublevelStepMax` (2.5) ×: a level of g states after s steps
+ *    g/(2(1 + (2 + g)r)) × s, so p looks short of its six states (a 2-state sub-level steps at most
+ *    1 ×; the whole p 3/(1 + 8r)), and d lies at least one s→p distance above p in the usual
+ *    confinement potentials: the "d" may be p's other sub-level. The rules join it to p themselves
+ *    only deep in the regime (no charging satellite); nearer the crossover the whole p steps as
+ *    little and its charging peaks can sit as close.
  *
  * References
  * ----------
@@ -278,6 +296,16 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     add("two-cb-peaks", `${a.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell`);
   }
   if (a.regime === "shell-filling") {
+    // 13. A sub-group with an odd number of charging peaks (a sub-level holds an even number).
+    for (const m of cb) {
+      const complete = m.degeneracy !== null && m.found >= m.degeneracy;
+      const odd = m.subgroups.filter((size, k) => size % 2 === 1 && (k < m.subgroups.length - 1 || complete));
+      if (m.subgroups.length > 1 && odd.length) {
+        add("odd-subgroup", 
+          `shell filling with ${m.label} in sub-groups ${m.subgroups.join("+")}, ${odd.length === 1 ? "one" : odd.length} of them odd although each sub-level of a shell holds an even number of electrons (spin): a peak that is not a charging peak of its sub-level may stand in for one that is`,
+        );
+      }
+    }
     // 9. A dip in the charging steps inside a sub-group.
     for (const m of cb) {
       let start = 0;
@@ -330,6 +358,20 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
         `shell tunnelling with the CB peak at ${p.biasV.toFixed(3)} V set aside as a charging satellite although it steps ${(p.stepA / cbPeaks[j - 1].stepA).toFixed(2)} × the peak before it (≥ ${satelliteMax}; a level's charging peak steps less): it may be a sub-level the rules did not count`,
       );
     });
+    // 14. A d level close after a p that steps like a sub-level: p's other sub-level?
+    const [sM, pM, dM] = ["s", "p", "d"].map((label) => cb.find((m) => m.label === label));
+    if (sM && pM && dM && pM.found > 0 && dM.found > 0) {
+      const sStep = peaks[sM.peakIndices[0]].stepA;
+      const pSteps = pM.peakIndices.map((i) => peaks[i].stepA);
+      const spV = pM.peaksV[0] - sM.peaksV[0];
+      const gapV = dM.peaksV[0] - pM.peaksV[pM.peaksV.length - 1];
+      const A = ASSIGN_DEFAULTS;
+      if (sStep > 0 && pSteps[0] <= A.tunnelingSublevelFirstStepMax * sStep && pSteps.reduce((x, y) => x + y, 0) <= A.tunnelingSublevelStepMax * sStep && gapV < A.tunnelingSublevelStepFraction * spV) {
+        add("d-near-split-p", 
+          `shell tunnelling with a d level ${(gapV * 1e3).toFixed(0)} mV after p's last, ${(gapV / spV).toFixed(2)} × the s→p distance (< ${A.tunnelingSublevelStepFraction}), while p's first level steps ${(pSteps[0] / sStep).toFixed(2)} × s (≤ ${A.tunnelingSublevelFirstStepMax}; a 2-state sub-level steps at most 1 ×, the whole p more deep in the regime): d may be p's other sub-level`,
+        );
+      }
+    }
     // 7. More levels in a shell than it has spin pairs.
     for (const m of cb) {
       if (m.degeneracy !== null && m.found > m.degeneracy / 2) {

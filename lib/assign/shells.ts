@@ -181,6 +181,9 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
  * main : readonly BandPeak[]
  *     The CB main peaks (noise and charging satellites set aside), from the gap edge outward; at
  *     least one.
+ * stepReach : boolean, optional
+ *     Whether p reaches further while its steps say it is short of six states (note 3; deep in
+ *     shell tunnelling only). Default false.
  *
  * Returns
  * -------
@@ -194,6 +197,13 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
  * 2. A main peak closer to the previous one than `ASSIGN_DEFAULTS.tunnelingSublevelFraction` ×
  *    the s→p distance is a sub-level of the same shell (a split p); otherwise it opens the next
  *    shell. Peaks beyond the last shell are left out.
+ * 3. With `stepReach` (deep in shell tunnelling: the caller found no CB charging satellite of
+ *    `tunnelingDeepSatelliteMax` × the s step, so Γtip/Γsub ≤ 1/9; not for the regime's own test),
+ *    in p the reach is `tunnelingSublevelStepFraction` (0.75) × the s→p distance while p's first
+ *    level steps at most `tunnelingSublevelFirstStepMax` (1.3) × the s step and its levels so far
+ *    at most `tunnelingSublevelStepMax` (2.5) × together: a level of g states after s steps
+ *    g/(2(1 + (2 + g)r)) × s (2 states ≤ 1, the whole p ≥ 1.59 at r ≤ 1/9), so p is then short of
+ *    its six states, and a d shell lies at least one s→p distance above p.
  *
  * Example
  * -------
@@ -203,7 +213,7 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
  * tunnelingShells([0.6875, 1.0625, 1.1, 1.6].map(at)).map((s) => s.length);  // => [1, 2, 1]
  * ```
  */
-export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
+export function tunnelingShells(main: readonly BandPeak[], stepReach = false): BandPeak[][] {
   if (main.length === 0) return [];
   const shells: BandPeak[][] = [[main[0]]];
   if (main.length < 2) return shells;
@@ -212,7 +222,12 @@ export function tunnelingShells(main: readonly BandPeak[]): BandPeak[][] {
   for (let i = 2; i < main.length && shells.length <= SHELLS.length; i++) {
     const d = main[i].x - main[i - 1].x;
     const shell = shells[shells.length - 1];
-    if (d < ASSIGN_DEFAULTS.tunnelingSublevelFraction * sp && shells.length > 1) shell.push(main[i]);
+    // Deep in shell tunnelling, p not yet holding its six states by its steps (a level of g states
+    // about g/2 × the s step): a closer peak is one more sub-level.
+    const sStep = main[0].peak.stepA;
+    const pShort = stepReach && shells.length === 2 && shell[0].peak.stepA <= ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax * sStep && shell.reduce((sum, p) => sum + p.peak.stepA, 0) <= ASSIGN_DEFAULTS.tunnelingSublevelStepMax * sStep;
+    const reach = pShort ? ASSIGN_DEFAULTS.tunnelingSublevelStepFraction : ASSIGN_DEFAULTS.tunnelingSublevelFraction;
+    if (d < reach * sp && shells.length > 1) shell.push(main[i]);
     else if (shells.length < SHELLS.length) shells.push([main[i]]);
     else break;
   }

@@ -29,6 +29,12 @@ export interface ComparisonDecisionOptions {
    * in the same regime give the same answer: their BIC weights add up. Default 0.03.
    */
   sameAnswerEcFraction?: number;
+  /**
+   * … or whose Γtip/Γsub lies within this many of the fit's standard errors of its Γtip/Γsub
+   * (r·exp(± k·SE/r)), in whatever regime: two fits of the same grouping that a regime boundary
+   * separates by less than their error give the same answer. Default 2.
+   */
+  sameAnswerRateSigmas?: number;
 }
 
 /** Defaults of {@link comparisonDecision} (locked by test/report/comparisonDecision.test.ts). */
@@ -41,6 +47,8 @@ export const MODEL_DECISION_DEFAULTS = Object.freeze({
   agreeEcFraction: 0.1,
   /** Groupings within this fraction of the winner's Ec, in the same regime, give the same answer (the issue's Ec bar, 3 %). */
   sameAnswerEcFraction: 0.03,
+  /** … or whose Γtip/Γsub lies within this many standard errors of the fit's (a regime boundary between them is within their error). */
+  sameAnswerRateSigmas: 2,
 });
 
 /** The regime a rate ratio Γtip/Γsub lies in (`REGIME_LIMITS`). */
@@ -65,7 +73,7 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  *     The rules' regime and Ec (eV).
  * options : ComparisonDecisionOptions, optional
  *     `minWeight` (default 0.9), `rateRatioSigmas` (default 1), `agreeEcFraction` (default 0.1),
- *     `sameAnswerEcFraction` (default 0.03).
+ *     `sameAnswerEcFraction` (default 0.03), `sameAnswerRateSigmas` (default 2).
  *
  * Returns
  * -------
@@ -83,9 +91,11 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  * stands and the comparison is reported beside it:
  * 1. Status "good" (reduced χ² ≤ 3, no residual structure, Ec and Γtip/Γsub determined) and a
  *    definite regime (not "undetermined"); else the rules stand.
- * 2. The groupings that give the fit's answer (Γtip/Γsub in the same regime, Ec within
- *    `sameAnswerEcFraction` of the winner's: the same model reached from several starts splits
- *    its weight between them) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
+ * 2. The groupings that give the fit's answer (Γtip/Γsub in the same regime or within
+ *    `sameAnswerRateSigmas` of the fit's standard errors of it, Ec within `sameAnswerEcFraction`
+ *    of the winner's: the same model reached from several starts splits its weight between them,
+ *    and a regime boundary between two of them that lies within the fit's error of Γtip/Γsub
+ *    does not make their answers differ) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
  *    normalised): at 0.9, ΔBIC ≈ 4.4 over one rival answer, positive evidence on the scale of
  *    Kass & Raftery; a close contest leaves the rules' reading.
  * 3. Where the rules named a regime and the fit names another, Γtip/Γsub must stay inside the
@@ -117,6 +127,7 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   const k = options.rateRatioSigmas ?? D.rateRatioSigmas;
   const agreeEc = options.agreeEcFraction ?? D.agreeEcFraction;
   const sameEc = options.sameAnswerEcFraction ?? D.sameAnswerEcFraction;
+  const sameRate = options.sameAnswerRateSigmas ?? D.sameAnswerRateSigmas;
   const m = comparison;
   const rulesWord = rules.regime === "undetermined" ? "the rules' undetermined regime" : `the rules' reading (${rules.regime})`;
   if (m.status === "failed" || m.regime === "undetermined") {
@@ -131,7 +142,9 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   // The weight of the fit's answer: every grouping that gives the same regime and Ec (the same
   // model reached from several starts splits the weight between them).
   const winnerEc = fitEc ?? NaN;
-  const sameAnswer = m.alternatives.filter((a) => regimeOfRatio(a.rateRatio) === m.regime && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc);
+  const rate = m.rateRatio;
+  const nearRate = (x: number) => rate !== null && rate !== undefined && rate.value > 0 && x > 0 && Math.abs(Math.log(x / rate.value)) <= (sameRate * rate.standardError) / rate.value;
+  const sameAnswer = m.alternatives.filter((a) => (regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc);
   const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
   if (weight < minWeight) {
     return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but the groupings that give its answer carry ${weight.toFixed(2)} of the BIC weight (< ${minWeight}): a grouping with another answer fits nearly as well` };

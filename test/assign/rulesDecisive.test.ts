@@ -180,6 +180,49 @@ describe("rulesDecisive(input, options)", () => {
     expect(weak.result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
 
+  it("flags shell filling whose p reads in an odd sub-group (2+1+3), and not the true 2+2+2", () => {
+    // p split 2+2+2 (ε_p1 = 0.8, ε_p2 = 0.85, ε_p3 = 0.9 eV): its charging peaks at
+    // (ε_pk + Ec(n + ½))/η, n = 2 … 7 (closed form), two per sub-level. A peak 0.4 Ec/η after p2's
+    // second position in its place (a channel off the ladder) leaves p2 one peak and puts it with p3's.
+    const ps = [0.8, 0.8, 0.85, 0.85, 0.9, 0.9].map((e, k) => (e + ec * (k + 2 + 0.5)) / eta);
+    const even = verdict([...sV, ...ps].map((v) => peak(v)), ps[5] + 0.3);
+    expect(even.assignment.regime).toBe("shell-filling");
+    expect(even.assignment.multiplets.find((m) => m.label === "p")!.subgroups).toEqual([2, 2, 2]);
+    expect(even.result.codes).not.toContain("odd-subgroup");
+    const moved = ps.map((v, k) => (k === 3 ? v + (0.4 * ec) / eta : v));
+    const odd = verdict([...sV, ...moved].map((v) => peak(v)), ps[5] + 0.3);
+    expect(odd.assignment.multiplets.find((m) => m.label === "p")!.subgroups).toEqual([2, 1, 3]);
+    expect(odd.result.codes).toContain("odd-subgroup");
+    expect(odd.result.reasons).toContain(
+      "shell filling with p in sub-groups 2+1+3, 2 of them odd although each sub-level of a shell holds an even number of electrons (spin): a peak that is not a charging peak of its sub-level may stand in for one that is",
+    );
+  });
+
+  it("flags shell tunnelling with a d level 0.6 × the s→p distance after a p that steps like a 2-state sub-level, and not after a whole p", () => {
+    // s at (ε_s + Ec/2)/η with its charging satellite at (ε_s + 3Ec/2)/η stepping 0.2 × s (r/(1 + r)
+    // at r = 1/4: not deep in the regime, so the rules keep the reach of half the s→p distance);
+    // p_a at ε = 0.9, the next level 0.6 × (0.9 − 0.5) eV above it (closed-form positions). Steps
+    // relative to s: a 2-state level after s g/(2(1 + (2 + g)r)) = 0.5 at r = 1/4, the whole p
+    // 3/(1 + 8r) = 1, the next level 2 (4 states) or 5/(1 + 12r) = 1.25 (a d of 10).
+    const run = (pStep: number, dStep: number) => {
+      const cbPeaks = [peak(sV[0]), peak(sV[1], 0.2e-11), peak((0.9 + ec / 2) / eta, pStep * 1e-11), peak((0.9 + 0.24 + ec / 2) / eta, dStep * 1e-11)];
+      const peaks = [...vbV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
+      const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
+      return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2.2] }, { stepRatioMargin: 0 }) };
+    };
+    const split = run(0.5, 2);
+    expect(split.assignment.regime).toBe("shell-tunneling");
+    expect(split.assignment.multiplets.filter((m) => m.band === "CB").map((m) => m.label)).toEqual(["s", "p", "d"]);
+    expect(split.result.codes).toContain("d-near-split-p");
+    expect(split.result.reasons).toContain(
+      "shell tunnelling with a d level 300 mV after p's last, 0.60 × the s→p distance (< 0.75), while p's first level steps 0.50 × s (≤ 1.3; a 2-state sub-level steps at most 1 ×, the whole p more deep in the regime): d may be p's other sub-level",
+    );
+    // p stepping 1.5 × s (> 1.3: more than a 2-state level gives at any r): not flagged.
+    const whole = run(1.5, 1.25);
+    expect(whole.assignment.multiplets.filter((m) => m.band === "CB").map((m) => m.label)).toEqual(["s", "p", "d"]);
+    expect(whole.result.codes).not.toContain("d-near-split-p");
+  });
+
   it("flags a regime read from two CB peaks alone, the VB deciding", () => {
     // The s doublet alone at (ε_s + Ec(n + ½))/η (closed form), the VB's first two peaks a
     // charging doublet one Ec apart: the rules read shell filling from the VB.

@@ -160,4 +160,25 @@ describe("tunnelingShells(main)", () => {
     const xs = [V(0.5, 0), V(0.8, 0), V(0.83, 0), V(1.2, 0)];
     expect(ids(tunnelingShells(xs.map((x, i) => at(x, i))))).toEqual([[0], [1, 2], [3]]);
   });
+
+  it("with stepReach, p split 2 + 4 at 0.6 × the s–p distance joins by its steps (a 2-state level steps like s), and a level after a whole p opens d", () => {
+    // Deep shell tunnelling (Γtip/Γsub = 0.01): s at 0.5, p_a (2 states) at 0.8, p_b (4 states) at
+    // 0.98 eV, 0.6 × the s–p distance above p_a; each level's first peak at (ε + Ec/2)/η (closed
+    // form), step heights from the project's master equation (currentSteps, simulated truth): p_a
+    // steps about 1 × s, below 2.5 × s.
+    const model = { cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 2 }, { energyEV: 0.98, degeneracy: 4 }], vb: [], chargingEnergyEV: ec, eta, tipRatePerS: 1e6, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5 };
+    const xs = [V(0.5, 0), V(0.8, 0), V(0.98, 0)];
+    const all = currentSteps(model).steps;
+    const steps = xs.map((x) => all.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    expect(steps[1] / steps[0]).toBeLessThan(1.2);
+    const peaks = xs.map((x, i) => at(x, i, steps[i]));
+    expect(ids(tunnelingShells(peaks, true))).toEqual([[0], [1, 2]]);
+    expect(ids(tunnelingShells(peaks))).toEqual([[0], [1], [2]]); // without: 0.6 ≥ 0.5 opens d
+    // p whole (6 states) at 0.8, a d level (10 states) at 0.98 eV: p steps about 3 × s (> 2.5), d opens.
+    const whole = { ...model, cb: [{ energyEV: 0.5, degeneracy: 2 }, { energyEV: 0.8, degeneracy: 6 }, { energyEV: 0.98, degeneracy: 10 }] };
+    const allWhole = currentSteps(whole).steps;
+    const stepsWhole = xs.map((x) => allWhole.find((st) => Math.abs(st.biasV - x) < 1e-9)!.heightA);
+    expect(stepsWhole[1] / stepsWhole[0]).toBeGreaterThan(2.5);
+    expect(ids(tunnelingShells(xs.map((x, i) => at(x, i, stepsWhole[i])), true))).toEqual([[0], [1], [2]]);
+  });
 });

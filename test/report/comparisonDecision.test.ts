@@ -50,7 +50,7 @@ function comparison(alternatives: FitAlternative[], overrides: Partial<ModelComp
 
 describe("comparisonDecision(comparison, rules, options)", () => {
   it("MODEL_DECISION_DEFAULTS are locked, frozen and match the documented defaults", () => {
-    expect(MODEL_DECISION_DEFAULTS).toEqual({ minWeight: 0.9, rateRatioSigmas: 1, agreeEcFraction: 0.1, sameAnswerEcFraction: 0.03 });
+    expect(MODEL_DECISION_DEFAULTS).toEqual({ minWeight: 0.9, rateRatioSigmas: 1, agreeEcFraction: 0.1, sameAnswerEcFraction: 0.03, sameAnswerRateSigmas: 2 });
     expectDocumentedDefaults(new URL("../../lib/report/comparisonDecision.ts", import.meta.url), "ComparisonDecisionOptions", MODEL_DECISION_DEFAULTS);
   });
 
@@ -72,6 +72,20 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     // The same split between answers that differ (another regime, Ec 20 % off) does not decide.
     const split = comparisonDecision(comparison([alt("assigned", 3, 0.1, 1 / 3), alt("x", 0.3, 0.1, 1 / 3), alt("y", 3, 0.12, 1 / 3)]), { regime: "shell-filling", chargingEnergyEV: 0.1 });
     expect(split.decides).toBe(false);
+  });
+
+  it("counts runs whose Γtip/Γsub lies across a regime boundary within 2 of the fit's standard errors as the same answer: 1.497 against 1.51 ± 0.014 yes, ± 0.004 no", () => {
+    // The fit reads shell filling at 1.51 (≥ 1.5); three runs of the same grouping ended at 1.497
+    // (intermediate by the boundary), the same Ec. |ln(1.497/1.51)| = 0.0086 (closed form) against
+    // 2 × 0.014/1.51 = 0.0185 (inside) and 2 × 0.004/1.51 = 0.0053 (outside).
+    const runs = [alt("a", 1.497, 0.077, 1 / 3), alt("b", 1.497, 0.077, 1 / 3), alt("c", 1.497, 0.077, 1 / 3)];
+    const undetermined = { regime: "undetermined", chargingEnergyEV: null };
+    const near = { regime: "shell-filling", rateRatio: { value: 1.51, standardError: 0.014 }, quantities: { gapEV: null, chargingEnergyEV: { value: 0.077, standardError: 0.001 }, levelSpacingSPEV: null } } as Partial<ModelComparisonJson>;
+    expect(comparisonDecision(comparison(runs, near), undetermined)).toMatchObject({ decides: true });
+    const tight = { ...near, rateRatio: { value: 1.51, standardError: 0.004 } };
+    const no = comparisonDecision(comparison(runs, tight), undetermined);
+    expect(no.decides).toBe(false);
+    expect(no.decision).toContain("carry 0.00 of the BIC weight");
   });
 
   it("keeps the rules' answer when the fit is poor or failed, or its regime undetermined", () => {

@@ -145,13 +145,20 @@ export interface FitOptions {
  *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
  *    side, also with each VB level after the first entered one carrier earlier,
  *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
- *    the CB side, and on the whole curve where that fit describes it). The lowest CB-side BIC
+ *    the CB side, and on the whole curve where that fit describes it; a whole-curve Ec or
+ *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
+ *    the VB reading that does not fit with the CB values, held below). The lowest CB-side BIC
  *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
- *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's (then the CB-side
- *    values, a warning says so); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
+ *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
+ *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
+ *    outside the CB side's points while the CB side's show none (then the CB-side values, a
+ *    warning says so: no reading of the VB peaks fits with them); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
  *    wholeCurveEcSigmas (1) combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
  *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
- *    them, said in a warning and the evidence. An assignment with more than maxAssignedStates (100) charge
+ *    them, said in a warning and the evidence — unless, held so, the whole curve's residuals show
+ *    structure (above poorResidualZ) that the free whole-curve fit's, within the status's
+ *    reduced-χ² limit (3), do not: then the CB side's values are the ones that do not fit, and the
+ *    free fit's stand (a warning says so). An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
  *    the curve.
@@ -245,9 +252,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const assignedTrial = trials.length ? trials[0] : null;
   // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
   // residuals, or an Ec far from the peak-based one.
-  const hidden = (t: FitTrial) => {
+  const structureOf = (t: FitTrial) => {
     const model = projectorOf(t.set)(runner.currentOf(t.hypothesis)(t.loop.parameters, t.set.biasV)).out;
-    const z = residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000).largestZ;
+    return residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000);
+  };
+  const hidden = (t: FitTrial) => {
+    const z = structureOf(t).largestZ;
     const peakEc = peakChargingEnergy(analysis, eta);
     const ec = t.loop.parameters[parameterIndex(t.hypothesis.seeds.length).chargingEnergy];
     return z > FIT_STATUS_DEFAULTS.poorResidualZ || (peakEc !== null && Math.abs(ec - peakEc.valueEV) > FIT_STATUS_DEFAULTS.poorChargingSigmas * peakEc.standardErrorEV);
@@ -280,9 +290,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // otherwise the assignment's whole-curve runs.
   const wholeOf = new Map([...cbSideOf].map(([whole, cb]) => [cb, whole]));
   const finalists = wholeOf.size ? finals.filter((t) => t.side === "CB") : finals;
+  // A whole-curve fit whose Ec or Γtip/Γsub ran onto a bound while its CB side's stayed inside is
+  // a VB reading that does not fit with the CB values (held at the CB side's below), not a
+  // degenerate grouping: its bound does not count against the grouping.
+  const wholePlausibility = (whole: FitTrial, cb: FitTrial) =>
+    plausibilityInput(cb).atBound.length ? plausibilityOf(whole) : hypothesisPlausibility({ ...plausibilityInput(whole), atBound: [] });
   const implausibleOf = (t: FitTrial) => {
     const whole = wholeOf.get(t);
-    const wholeReasons = whole ? plausibilityOf(whole) : [];
+    const wholeReasons = whole ? wholePlausibility(whole, t) : [];
     return [...plausibilityOf(t), ...(whole && !poor(whole) ? wholeReasons : [])];
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
@@ -312,6 +327,18 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       `no reading of the VB peaks fits together with the CB values (reduced χ² ${reduced(whole).toPrecision(3)} over the whole curve, ${reduced(winner).toPrecision(3)} on the CB side): the values come from the CB side alone and no VB level is reported`,
     );
     best = winner;
+  } else if (whole) {
+    // Nor when the whole curve's residuals show structure only outside the points of the CB side,
+    // whose own residuals show none: the VB reading misses its peaks, and the CB values stand.
+    const wholeZ = structureOf(whole);
+    const cbV = winner.set.biasV;
+    const [fromV, toV] = [Math.min(cbV[0], cbV[cbV.length - 1]), Math.max(cbV[0], cbV[cbV.length - 1])];
+    if (wholeZ.largestZ > FIT_STATUS_DEFAULTS.poorResidualZ && (wholeZ.atBiasV < fromV || wholeZ.atBiasV > toV) && structureOf(winner).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ) {
+      warnings.push(
+        `no reading of the VB peaks fits together with the CB values (the whole curve's residuals show structure near ${wholeZ.atBiasV.toFixed(3)} V, ${wholeZ.largestZ.toFixed(1)} σ > ${FIT_STATUS_DEFAULTS.poorResidualZ}, outside the CB side, whose residuals show none): the values come from the CB side alone and no VB level is reported`,
+      );
+      best = winner;
+    }
   }
   // When the whole-curve fit moves Ec more than wholeCurveEcSigmas combined standard errors from
   // its CB side's, the VB reading pulls it: Ec and Γtip/Γsub are held at the CB side's values and
@@ -335,14 +362,24 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
       const held = { ...run(whole.hypothesis, null, maxIterations, from, all, [atW.chargingEnergy, atW.logRateRatio]), rateRatio0: whole.rateRatio0 };
       trials.push(held);
-      best = held;
-      errors = trialErrors(held, currentOf(held), noiseA, warnings);
-      errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
-      errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
       const [rC, rW] = [10 ** winner.loop.parameters[atC.logRateRatio], 10 ** whole.loop.parameters[atW.logRateRatio]];
       const moves = [`Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${z[0].toFixed(1)}`, `Γtip/Γsub from ${rC.toPrecision(3)} (CB side) to ${rW.toPrecision(3)}, ${z[1].toFixed(1)}`];
-      heldNote = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas}): the VB reading does not fit with the CB values`;
-      warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
+      const moved = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas})`;
+      // Held at the CB side's values, the whole curve may fit worse than free: residual structure
+      // the free fit has not (within its reduced-χ² limit). Then the CB side's values are the ones
+      // that do not fit, and the whole curve's stand.
+      const heldZ = structureOf(held).largestZ;
+      const freeZ = structureOf(whole).largestZ;
+      if (heldZ > FIT_STATUS_DEFAULTS.poorResidualZ && freeZ <= FIT_STATUS_DEFAULTS.poorResidualZ && reduced(whole) <= FIT_STATUS_DEFAULTS.poorChiSquare) {
+        warnings.push(`${moved}, but held at the CB side's values the whole curve leaves structure in the residuals (${heldZ.toFixed(1)} σ > ${FIT_STATUS_DEFAULTS.poorResidualZ}) that the free fit does not (${freeZ.toFixed(1)} σ): the whole curve's values stand`);
+      } else {
+        best = held;
+        errors = trialErrors(held, currentOf(held), noiseA, warnings);
+        errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
+        errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
+        heldNote = `${moved}: the VB reading does not fit with the CB values`;
+        warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
+      }
     }
   }
   const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
