@@ -254,11 +254,12 @@ describe("fitCurve(analysis) on split p shells", () => {
     expect(fit.statusReasons.join(" ")).toMatch(/residuals show structure .* near \d\.\d{3} V/);
   }, 60_000);
 
-  // Start 1083: Γtip/Γsub 0.23, Ec 100 meV, p whole. The CB side's Γtip/Γsub (0.17) is off; the free
-  // whole-curve fit moves it to the truth and describes the curve (reduced χ² 0.87, no structure),
-  // while held at the CB side's values it leaves a run of one sign above 5 σ on the VB side.
+  // Start 1204: Γtip/Γsub 0.538, Ec 177.3 meV, p split 2+2+2. The CB side's values are off (Ec 171.6
+  // meV, Γtip/Γsub 0.591); the free whole-curve fit moves them to 176.1 meV and 0.535 and describes
+  // the curve (reduced χ² 1.07, largest residual run 3.5 σ), while held at the CB side's values it
+  // leaves a run of one sign of 5.9 σ (> 5).
   it("keeps the free whole-curve fit where holding the CB side's values leaves residual structure it has not", () => {
-    const { analysis, truth } = crossoverDraw(1083);
+    const { analysis, truth } = crossoverDraw(1204);
     const fit = fitCurve(analysis);
     expect(fit.warnings.some((w) => /the whole curve's values stand/.test(w))).toBe(true);
     expect(fit.status).toBe("good");
