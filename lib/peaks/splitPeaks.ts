@@ -65,6 +65,15 @@ export interface StepsFit {
 }
 
 /**
+ * Scratch of {@link fitSteps}: the design matrix, and the fixed columns' sums of the last fit
+ * (reused while the samples, the current and the neighbours stay the same).
+ */
+export interface StepsScratch {
+  cols: number[];
+  fixed?: { x: Float64Array; current: Float64Array; lo: number; hi: number; sigmaV: number; neighboursV: number[]; ata: number[]; atb: number[] };
+}
+
+/**
  * Linear least squares of the current over samples [lo, hi]:
  * I = a + b·u + Σ_j c_j·Φ((x − n_j)/s₀) + Σ_k d_k·Φ((x − x_k)/s) [+ Σ_k e_k·φ((x − x_k)/s)/√(2π)],
  * u = x − x_ref: neighbours n_j at the expected width s₀, free steps x_k at a common width s.
@@ -82,7 +91,7 @@ export function fitSteps(
   freeV: readonly number[],
   sigmaV: number,
   withShift: boolean,
-  scratch: { cols: number[] } = { cols: [] },
+  scratch: StepsScratch = { cols: [] },
 ): StepsFit | null {
   const rows = hi - lo + 1;
   const nf = freeV.length;
@@ -91,14 +100,23 @@ export function fitSteps(
   if (rows <= m) return null;
   const xRef = x[(lo + hi) >> 1];
   // Column by column in one plain scratch array (a typed array is allocated outside V8's heap, which
-  // costs more than these sums).
-  if (scratch.cols.length < m * rows) scratch.cols = new Array(2 * m * rows).fill(0);
+  // costs more than these sums). The fixed columns (background and neighbours) and their sums are
+  // kept in the scratch between fits over the same samples and neighbours, which a search makes by
+  // the hundred: computed once, they are the same numbers every fit would compute.
+  if (scratch.cols.length < m * rows) {
+    scratch.cols = new Array(2 * m * rows).fill(0);
+    scratch.fixed = undefined;
+  }
   const cols = scratch.cols;
+  const kept = scratch.fixed;
+  const reuse = kept !== undefined && kept.x === x && kept.current === current && kept.lo === lo && kept.hi === hi && kept.sigmaV === neighbourSigmaV && kept.neighboursV.length === neighboursV.length && kept.neighboursV.every((v, j) => v === neighboursV[j]);
   for (let i = 0; i < rows; i++) {
     const v = x[lo + i];
-    cols[i] = 1;
-    cols[rows + i] = v - xRef;
-    for (let j = 0; j < neighboursV.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((v - neighboursV[j]) / neighbourSigmaV);
+    if (!reuse) {
+      cols[i] = 1;
+      cols[rows + i] = v - xRef;
+      for (let j = 0; j < neighboursV.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((v - neighboursV[j]) / neighbourSigmaV);
+    }
     for (let k = 0; k < nf; k++) {
       const z = (v - freeV[k]) / sigmaV;
       cols[(self + k) * rows + i] = normalCdfFast(z);
@@ -109,16 +127,28 @@ export function fitSteps(
   const atb: number[] = new Array(m).fill(0);
   for (let r = 0; r < m; r++) {
     const a = r * rows;
-    let sb = 0;
-    for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
-    atb[r] = sb;
+    if (reuse && r < self) atb[r] = kept.atb[r];
+    else {
+      let sb = 0;
+      for (let i = 0; i < rows; i++) sb += cols[a + i] * current[lo + i];
+      atb[r] = sb;
+    }
     for (let c = r; c < m; c++) {
-      const b = c * rows;
-      let sum = 0;
-      for (let i = 0; i < rows; i++) sum += cols[a + i] * cols[b + i];
+      let sum: number;
+      if (reuse && c < self) sum = kept.ata[r * self + c];
+      else {
+        const b = c * rows;
+        sum = 0;
+        for (let i = 0; i < rows; i++) sum += cols[a + i] * cols[b + i];
+      }
       ata[r * m + c] = sum;
       ata[c * m + r] = sum;
     }
+  }
+  if (!reuse) {
+    const fixedAta: number[] = new Array(self * self).fill(0);
+    for (let r = 0; r < self; r++) for (let c = 0; c < self; c++) fixedAta[r * self + c] = ata[r * m + c];
+    scratch.fixed = { x, current, lo, hi, sigmaV: neighbourSigmaV, neighboursV: neighboursV.slice(), ata: fixedAta, atb: atb.slice(0, self) };
   }
   const tail = m - self;
   const solved = scaledCholeskySolve(ata, atb, m, tail);
@@ -253,7 +283,7 @@ export function splitPeak(
   }
   if (!(above - below > D.minSeparationFwhm * w)) return null;
   const sLo = D.widthBounds[0] * s0, sHi = D.widthBounds[1] * s0;
-  const scratch = { cols: [] as number[] };
+  const scratch: StepsScratch = { cols: [] };
   const ss = (free: number[], s: number) => fitSteps(x, current, lo, hi, near, s0, free, s, false, scratch)?.ss ?? Infinity;
   // A cheap screen first (one linear fit): a second step worth keeping lowers χ² by at least
   // minStepSigma², so one step at the peak with the expected width must leave at least that much
