@@ -249,7 +249,9 @@ export function isWide(peak: SplitInput, expectedFwhmV: number, gateSigma = SPLI
  * Method: over ±windowFwhm expected FWHM around the peak (widened by the longer side), with the
  * neighbouring peaks' steps fitted at their positions as in the step test, (1) one step with its
  * position and width free and (2) two steps with both positions and a common width free are
- * fitted by pattern search over the nonlinear parameters (linear least squares for the rest).
+ * fitted by pattern search over the nonlinear parameters (linear least squares for the rest); (1)
+ * first, and where it leaves less than minStepSigma² of χ² beyond the degrees of freedom of (2),
+ * no second step could be kept and (2) is not searched.
  * Two steps are returned when both heights are positive, the smaller one's height over its
  * standard error reaches `minStepSigma`, the drop of χ² from (1) to (2) reaches minStepSigma²
  * (σ: the noise, or the residual RMS of (2) where larger), and the steps lie at least
@@ -291,6 +293,12 @@ export function splitPeak(
   const dof = hi - lo + 1 - (2 + near.length + 1);
   if (!(ss([x0], s0) / (noiseA * noiseA) - dof >= minStepSigma * minStepSigma)) return null;
   const tol = D.searchTolFwhm * w;
+  // The one-step fit (position and width free) next, the same screen sharper: a wide single step
+  // (a resonance, a width measured low) leaves no χ² beyond the two-step fit's average (its
+  // degrees of freedom, four fewer: one more step and three free positions and width), and then
+  // the three-parameter search is not made.
+  const one = patternSearch((p) => ss([p[0]], p[1]), [x0, s0], [w / 4, s0 / 4], [below, sLo], [above, sHi], tol);
+  if (!(one.value / (noiseA * noiseA) - (dof - 4) >= minStepSigma * minStepSigma)) return null;
   // Two steps: started on the longer side (a shoulder) or astride the top (merged).
   const longer = right - left;
   const start = Math.abs(longer) > halfWidthSE(w, peak.snr) ? (longer > 0 ? [x0, x0 + w] : [x0 - w, x0]) : [x0 - w / 2, x0 + w / 2];
@@ -310,7 +318,6 @@ export function splitPeak(
   const sigma = Math.max(noiseA, Math.sqrt(fit.ss / Math.max(1, fit.rows - fit.columns)));
   const t = fit.steps.map((c, k) => (fit.stepVars[k] > 0 ? c / (sigma * Math.sqrt(fit.stepVars[k])) : 0));
   if (!(Math.min(t[0], t[1]) >= minStepSigma)) return null;
-  const one = patternSearch((p) => ss([p[0]], p[1]), [x0, s0], [w / 4, s0 / 4], [below, sLo], [above, sHi], tol);
   if (!((one.value - two.value) / (sigma * sigma) >= minStepSigma * minStepSigma)) return null;
   const se = fit.shiftVars.map((v) => (Number.isFinite(v) && v > 0 ? sigma * Math.sqrt(v) : w / 2));
   return {
