@@ -5,7 +5,7 @@
  *   git worktree add --detach .tmp/base <commit> && ln -s "$PWD/node_modules" .tmp/base/node_modules
  *   node bin/run-ts.js bench/compareRevisions.ts --before .tmp/base
  *
- *   node bin/run-ts.js bench/compareRevisions.ts --before .tmp/base --compiled
+ *   node bin/run-ts.js bench/compareRevisions.ts --before .tmp/base --runs 3000 --compiled --block 100
  *
  * Curves: the benchmark scenario (one sweep) and the same with three noisy sweeps, 2,001 points.
  *

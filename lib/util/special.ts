@@ -79,13 +79,31 @@ const GAUSSIAN_REACH = 9;
 let gaussianTable: Float64Array | null = null;
 
 /**
- * The Gaussian exp(−z²/2) by linear interpolation in a table of step 1/1024 over |z| ≤ 9 (0
- * beyond, where the true value is below 2.6e-18; NaN for NaN): absolute error below 1.2e-7 (h²/8·max|g''|,
- * max|g''| = 1 at z = 0), several times faster than `Math.exp`. For the basis columns of local
- * least-squares fits, evaluated hundreds of thousands of times per analysis; the table is built
- * once, on first use.
+ * The Gaussian exp(−z²/2) from a table, for the basis columns of local least-squares fits
+ * (thousands of evaluations per analysis).
  *
- * @example gaussianFast(1); // => 0.60653066 (exp(−1/2), to 1.2e-7)
+ * Parameters
+ * ----------
+ * z : number
+ *     The argument, in standard deviations.
+ *
+ * Returns
+ * -------
+ * number
+ *     exp(−z²/2) within 1.2e-7 (absolute); 0 for |z| ≥ 9, where the true value is below 2.6e-18;
+ *     NaN for NaN.
+ *
+ * Notes
+ * -----
+ * 1. Linear interpolation in a table of step h = 1/1024 over 0 ≤ |z| ≤ 9, built once on first use.
+ * 2. Error bound h²/8·max|g''| with max|g''| = 1 (at z = 0): 1.2e-7. Several times faster than
+ *    `Math.exp` in the fits' inner loops.
+ *
+ * Example
+ * -------
+ * ```ts
+ * gaussianFast(1); // => 0.60653066 (exp(−1/2), to 1.2e-7)
+ * ```
  */
 export function gaussianFast(z: number): number {
   const a = Math.abs(z);
