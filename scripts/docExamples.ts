@@ -26,7 +26,7 @@ import { tmpdir } from "node:os";
 import { dirname, join } from "node:path";
 import { fileURLToPath, pathToFileURL } from "node:url";
 import { transformSync } from "esbuild";
-import { DIST_DIR, entryExports, exampleCode, type ApiExport } from "./docsExports.ts";
+import { DIST_DIR, entryExports, exampleCode, topLevelSpans, type ApiExport } from "./docsExports.ts";
 
 const ROOT = join(dirname(fileURLToPath(import.meta.url)), "..");
 
@@ -52,49 +52,9 @@ export interface ExampleStatement {
  *     In order of the source.
  */
 export function exampleStatements(code: string): ExampleStatement[] {
-  const spans: [number, number][] = [];
-  let depth = 0;
-  let start = -1;
-  let i = 0;
-  while (i < code.length) {
-    const c = code[i];
-    const next = code[i + 1];
-    if (c === "/" && next === "*") {
-      const close = code.indexOf("*/", i + 2);
-      i = close < 0 ? code.length : close + 2;
-      continue;
-    }
-    if (c === "/" && next === "/") {
-      const nl = code.indexOf("\n", i);
-      i = nl < 0 ? code.length : nl;
-      continue;
-    }
-    if (/\s/.test(c)) {
-      i++;
-      continue;
-    }
-    if (start < 0) start = i;
-    if (c === '"' || c === "'" || c === "`") {
-      let j = i + 1;
-      while (j < code.length && code[j] !== c) j += code[j] === "\\" ? 2 : 1;
-      i = j + 1;
-      continue;
-    }
-    if (c === "{" || c === "(" || c === "[") depth++;
-    else if (c === "}" || c === ")" || c === "]") {
-      depth--;
-      // A block statement (for, if, function, …) ends at its closing brace unless more follows on its line.
-      if (depth === 0 && c === "}" && /^[\t ]*(\n|$)/.test(code.slice(i + 1)) && !/^(const|let|var)\s|^[\w$.]+\s*=|^\(|^\[/.test(code.slice(start, i))) {
-        spans.push([start, i + 1]);
-        start = -1;
-      }
-    } else if (c === ";" && depth === 0) {
-      spans.push([start, i + 1]);
-      start = -1;
-    }
-    i++;
-  }
-  if (start >= 0) spans.push([start, code.length]);
+  // A block statement (for, if, function, …) ends at its closing brace unless more follows on its line.
+  const blockEnds = (src: string, start: number, at: number) => /^[\t ]*(\n|$)/.test(src.slice(at + 1)) && !/^(const|let|var)\s|^[\w$.]+\s*=|^\(|^\[/.test(src.slice(start, at));
+  const spans = topLevelSpans(code, blockEnds).map(({ start, end }) => [start, end] as const);
   return spans.map(([from, to], k) => {
     const gap = code.slice(to, k + 1 < spans.length ? spans[k + 1][0] : code.length);
     const m = /\/\/\s*(=>|throws\b)[ \t]*([^\n]*)/.exec(gap);

@@ -33,16 +33,29 @@ interface Statement {
   doc: string;
 }
 
-/** Top-level statements of a declaration file, each with the doc comment right before it. */
-function statements(source: string): Statement[] {
-  const out: Statement[] = [];
+/** One top-level statement found by {@link topLevelSpans}: [start, end) in the source, and the doc comment right before it. */
+export interface StatementSpan {
+  start: number;
+  end: number;
+  /** The last `/** … *\/` comment between the previous statement and this one, "" when none. */
+  doc: string;
+}
+
+/**
+ * The top-level statements of TypeScript source: strings and comments skipped, brackets
+ * balanced; a statement ends at a `;` outside brackets, or at a top-level `}` where
+ * `endsAtBrace(source, start, at)` says so (`at` is the brace's index). Shared by the declaration
+ * reader here and the doc examples' runner (scripts/docExamples.ts).
+ */
+export function topLevelSpans(source: string, endsAtBrace: (source: string, start: number, at: number) => boolean): StatementSpan[] {
+  const out: StatementSpan[] = [];
   let depth = 0;
   let start = -1;
   let doc = "";
   let pendingDoc = "";
   let i = 0;
   const end = (at: number) => {
-    out.push({ text: source.slice(start, at).trim(), doc });
+    out.push({ start, end: at, doc });
     start = -1;
     doc = "";
   };
@@ -79,15 +92,19 @@ function statements(source: string): Statement[] {
     if (c === "{" || c === "(" || c === "[") depth++;
     else if (c === "}" || c === ")" || c === "]") {
       depth--;
-      // interface, class, enum and namespace bodies end their statement without a semicolon.
-      if (depth === 0 && c === "}" && /^(export\s+)?(declare\s+)?(interface|class|abstract\s+class|enum|namespace|module)\b/.test(source.slice(start, i))) {
-        end(i + 1);
-      }
+      if (depth === 0 && c === "}" && endsAtBrace(source, start, i)) end(i + 1);
     } else if (c === ";" && depth === 0) end(i + 1);
     i++;
   }
   if (start >= 0) end(source.length);
   return out;
+}
+
+/** Top-level statements of a declaration file, each with the doc comment right before it. */
+function statements(source: string): Statement[] {
+  // interface, class, enum and namespace bodies end their statement without a semicolon.
+  const bodyEnds = (src: string, start: number, at: number) => /^(export\s+)?(declare\s+)?(interface|class|abstract\s+class|enum|namespace|module)\b/.test(src.slice(start, at));
+  return topLevelSpans(source, bodyEnds).map(({ start, end, doc }) => ({ text: source.slice(start, end).trim(), doc }));
 }
 
 /** The text of a doc comment without its markers and leading asterisks. */
