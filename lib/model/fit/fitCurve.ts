@@ -320,6 +320,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     wholeOf.set(winner, whole);
   }
   let best = whole ?? winner;
+  // The whole-curve fit's residual structure, computed once (a whole-curve evaluation) where it is read.
+  let wholeStructure: ReturnType<typeof structureOf> | null = null;
   // When no reading of the VB peaks fits together with the CB values, the result is the CB side
   // alone (its Ec, rate ratio and CB levels), said in a warning.
   if (whole && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
@@ -330,7 +332,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   } else if (whole) {
     // Nor when the whole curve's residuals show structure only outside the points of the CB side,
     // whose own residuals show none: the VB reading misses its peaks, and the CB values stand.
-    const wholeZ = structureOf(whole);
+    const wholeZ = (wholeStructure = structureOf(whole));
     const cbV = winner.set.biasV;
     const [fromV, toV] = [Math.min(cbV[0], cbV[cbV.length - 1]), Math.max(cbV[0], cbV[cbV.length - 1])];
     if (wholeZ.largestZ > FIT_STATUS_DEFAULTS.poorResidualZ && (wholeZ.atBiasV < fromV || wholeZ.atBiasV > toV) && structureOf(winner).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ) {
@@ -369,7 +371,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       // the free fit has not (within its reduced-χ² limit). Then the CB side's values are the ones
       // that do not fit, and the whole curve's stand.
       const heldZ = structureOf(held).largestZ;
-      const freeZ = structureOf(whole).largestZ;
+      const freeZ = (wholeStructure ?? structureOf(whole)).largestZ;
       if (heldZ > FIT_STATUS_DEFAULTS.poorResidualZ && freeZ <= FIT_STATUS_DEFAULTS.poorResidualZ && reduced(whole) <= FIT_STATUS_DEFAULTS.poorChiSquare) {
         warnings.push(`${moved}, but held at the CB side's values the whole curve leaves structure in the residuals (${heldZ.toFixed(1)} σ > ${FIT_STATUS_DEFAULTS.poorResidualZ}) that the free fit does not (${freeZ.toFixed(1)} σ): the whole curve's values stand`);
       } else {
