@@ -9,6 +9,7 @@ import { checkFinite, checkRange } from "../util/check.ts";
 import type { Assignment } from "./assignSpectrum.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import { stepsShortOfP } from "./shells.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -366,7 +367,7 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
       const spV = pM.peaksV[0] - sM.peaksV[0];
       const gapV = dM.peaksV[0] - pM.peaksV[pM.peaksV.length - 1];
       const A = ASSIGN_DEFAULTS;
-      if (sStep > 0 && pSteps[0] <= A.tunnelingSublevelFirstStepMax * sStep && pSteps.reduce((x, y) => x + y, 0) <= A.tunnelingSublevelStepMax * sStep && gapV < A.tunnelingSublevelStepFraction * spV) {
+      if (sStep > 0 && stepsShortOfP(sStep, pSteps) && gapV < A.tunnelingSublevelStepFraction * spV) {
         add("d-near-split-p", 
           `shell tunnelling with a d level ${(gapV * 1e3).toFixed(0)} mV after p's last, ${(gapV / spV).toFixed(2)} × the s→p distance (< ${A.tunnelingSublevelStepFraction}), while p's first level steps ${(pSteps[0] / sStep).toFixed(2)} × s (≤ ${A.tunnelingSublevelFirstStepMax}; a 2-state sub-level steps at most 1 ×, the whole p more deep in the regime): d may be p's other sub-level`,
         );

@@ -174,6 +174,34 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
 }
 
 /**
+ * Whether p's levels, by their current steps, still fall short of the whole p shell deep in shell
+ * tunnelling: its first level steps at most ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax (1.3) ×
+ * the s step and all of them together at most tunnelingSublevelStepMax (2.5) × (a level of g
+ * states after s steps g/(2(1 + (2 + g)r)) × s). Shared by {@link tunnelingShells} and the
+ * `d-near-split-p` reason of rulesDecisive.
+ *
+ * Parameters
+ * ----------
+ * sStepA : number
+ *     The s level's current step, A.
+ * pStepsA : readonly number[]
+ *     The current steps of p's levels as read, A, from s outward (at least one).
+ *
+ * Returns
+ * -------
+ * boolean
+ *
+ * Example
+ * -------
+ * ```ts
+ * stepsShortOfP(1, [1, 1]); // => true (two 2-state sub-levels)
+ * ```
+ */
+export function stepsShortOfP(sStepA: number, pStepsA: readonly number[]): boolean {
+  return pStepsA[0] <= ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax * sStepA && pStepsA.reduce((sum, v) => sum + v, 0) <= ASSIGN_DEFAULTS.tunnelingSublevelStepMax * sStepA;
+}
+
+/**
  * Group the main CB peaks of a shell-tunnelling spectrum into levels of shells.
  *
  * Parameters
@@ -225,7 +253,7 @@ export function tunnelingShells(main: readonly BandPeak[], stepReach = false): B
     // Deep in shell tunnelling, p not yet holding its six states by its steps (a level of g states
     // about g/2 × the s step): a closer peak is one more sub-level.
     const sStep = main[0].peak.stepA;
-    const pShort = stepReach && shells.length === 2 && shell[0].peak.stepA <= ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax * sStep && shell.reduce((sum, p) => sum + p.peak.stepA, 0) <= ASSIGN_DEFAULTS.tunnelingSublevelStepMax * sStep;
+    const pShort = stepReach && shells.length === 2 && stepsShortOfP(sStep, shell.map((p) => p.peak.stepA));
     const reach = pShort ? ASSIGN_DEFAULTS.tunnelingSublevelStepFraction : ASSIGN_DEFAULTS.tunnelingSublevelFraction;
     if (d < reach * sp && shells.length > 1) shell.push(main[i]);
     else if (shells.length < SHELLS.length) shells.push([main[i]]);
