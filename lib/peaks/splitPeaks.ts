@@ -26,7 +26,7 @@ export const SPLIT_PEAKS_DEFAULTS = Object.freeze({
   minSeparationFwhm: 0.5,
   /** Half-width of the fit window around the peak, in expected FWHM (that of the step test). */
   windowFwhm: 3,
-  /** The pattern search stops when its position step falls below this fraction of a FWHM. */
+  /** The Gauss–Newton search stops when its step moves every position by less than this fraction of a FWHM (and the width by a quarter of that). */
   searchTolFwhm: 1 / 64,
   /**
    * The common width of the fitted steps stays within these multiples of the expected one: no
@@ -62,6 +62,8 @@ export interface StepsFit {
   /** With shifts: the Gauss–Newton shift of each free step, V, and Var(shift)/σ². */
   shifts: number[];
   shiftVars: number[];
+  /** With a width column: the Gauss–Newton change of the common width, V (0 without). */
+  widthShift: number;
 }
 
 /**
@@ -78,8 +80,11 @@ export interface StepsScratch {
  * I = a + b·u + Σ_j c_j·Φ((x − n_j)/s₀) + Σ_k d_k·Φ((x − x_k)/s) [+ Σ_k e_k·φ((x − x_k)/s)/√(2π)],
  * u = x − x_ref: neighbours n_j at the expected width s₀, free steps x_k at a common width s.
  * With `withShift`, each φ column linearises a shift of x_k (δ_k = −e_k·s/d_k, as in
- * localStepFit). `scratch` holds the design matrix (grown as needed; pass one to reuse it over
- * many fits). Null when the normal equations are singular.
+ * localStepFit). With `widthWeights` (the free steps' heights d_k of a fit at these positions) one
+ * more column, Σ_k d_k·z_k·φ(z_k)/√(2π) with z_k = (x − x_k)/s, linearises a change of the common
+ * width (Δs = −h·s for its coefficient h): the Gauss–Newton step of {@link stepSearch}.
+ * `scratch` holds the design matrix (grown as needed; pass one to reuse it over many fits). Null
+ * when the normal equations are singular.
  */
 export function fitSteps(
   x: Float64Array,
@@ -92,11 +97,14 @@ export function fitSteps(
   sigmaV: number,
   withShift: boolean,
   scratch: StepsScratch = { cols: [] },
+  widthWeights?: readonly number[],
 ): StepsFit | null {
   const rows = hi - lo + 1;
   const nf = freeV.length;
   const self = 2 + neighboursV.length;
-  const m = self + nf * (withShift ? 2 : 1);
+  const withWidth = withShift && widthWeights !== undefined;
+  const wCol = self + 2 * nf;
+  const m = self + nf * (withShift ? 2 : 1) + (withWidth ? 1 : 0);
   if (rows <= m) return null;
   const xRef = x[(lo + hi) >> 1];
   // Column by column in one plain scratch array (a typed array is allocated outside V8's heap, which
@@ -117,11 +125,17 @@ export function fitSteps(
       cols[rows + i] = v - xRef;
       for (let j = 0; j < neighboursV.length; j++) cols[(2 + j) * rows + i] = normalCdfFast((v - neighboursV[j]) / neighbourSigmaV);
     }
+    let width = 0;
     for (let k = 0; k < nf; k++) {
       const z = (v - freeV[k]) / sigmaV;
       cols[(self + k) * rows + i] = normalCdfFast(z);
-      if (withShift) cols[(self + nf + k) * rows + i] = gaussianFast(z) * INV_SQRT_2PI;
+      if (withShift) {
+        const g = gaussianFast(z) * INV_SQRT_2PI;
+        cols[(self + nf + k) * rows + i] = g;
+        if (withWidth) width += widthWeights[k] * z * g;
+      }
     }
+    if (withWidth) cols[wCol * rows + i] = width;
   }
   const ata: number[] = new Array(m * m).fill(0);
   const atb: number[] = new Array(m).fill(0);
@@ -166,7 +180,11 @@ export function fitSteps(
     const c = coef[self + k];
     steps.push(c);
     stepVars.push(inv(self + k, self + k));
-    if (withShift && c !== 0) {
+    if (withWidth) {
+      // The search's step: linearised at the heights the shift columns were built for.
+      shifts.push(widthWeights[k] !== 0 ? (-coef[self + nf + k] * sigmaV) / widthWeights[k] : 0);
+      shiftVars.push(Infinity);
+    } else if (withShift && c !== 0) {
       const d = coef[self + nf + k];
       const gC = (sigmaV * d) / (c * c), gD = -sigmaV / c;
       shifts.push((-d * sigmaV) / c);
@@ -176,37 +194,68 @@ export function fitSteps(
       shiftVars.push(Infinity);
     }
   }
-  return { ss, rows, columns: m, steps, stepVars, shifts, shiftVars };
+  return { ss, rows, columns: m, steps, stepVars, shifts, shiftVars, widthShift: withWidth ? -coef[wCol] * sigmaV : 0 };
+}
+
+/** The fit {@link stepSearch} moves: the samples, the neighbours and the scratch of {@link fitSteps}. */
+export interface StepSearchProblem {
+  x: Float64Array;
+  current: Float64Array;
+  lo: number;
+  hi: number;
+  neighboursV: readonly number[];
+  neighbourSigmaV: number;
+  scratch: StepsScratch;
 }
 
 /**
- * Pattern search (compass search with step halving) of a function of a few parameters within
- * bounds: each parameter in turn is moved by ± its step while that lowers f; when no move helps,
- * every step is halved, until the first falls below `tol`.
+ * Least squares of free steps' positions and their common width (the linear parameters solved at
+ * each point), by Gauss–Newton with step halving: at each iteration one fit with the shift and
+ * width columns ({@link fitSteps} with `widthWeights`) gives the step, clamped to ±maxMove of each
+ * parameter and to the bounds, and halved (up to `halvings` times) until the residual sum of
+ * squares falls; the positions must stay `minGapV` apart (ascending). Stops when no halving helps,
+ * or when the Gauss–Newton step moves every position by less than tolV and the width by less
+ * than tolV/4. (A compass search to the same tolerance made about three times as many fits:
+ * 148,828 against 47,020 over 300 curves of the batch benchmark analysed four times each.)
+ * `start` and the bounds are [positions…, width]; returns the last point and its residual sum of
+ * squares (Infinity where no fit could be made).
  */
-export function patternSearch(f: (p: number[]) => number, start: number[], steps: number[], lower: number[], upper: number[], tol: number): { p: number[]; value: number } {
-  const p = start.slice();
-  const step = steps.slice();
-  let best = f(p);
-  for (let guard = 0; guard < 200 && step[0] >= tol; guard++) {
-    let moved = false;
-    for (let k = 0; k < p.length; k++) {
-      for (const dir of [1, -1]) {
-        const q = p.slice();
-        q[k] = Math.min(upper[k], Math.max(lower[k], p[k] + dir * step[k]));
-        if (q[k] === p[k]) continue;
-        const v = f(q);
-        if (v < best) {
-          best = v;
-          p[k] = q[k];
-          moved = true;
-          break;
-        }
-      }
+export function stepSearch(
+  problem: StepSearchProblem,
+  start: readonly number[],
+  lower: readonly number[],
+  upper: readonly number[],
+  maxMove: readonly number[],
+  minGapV: number,
+  tolV: number,
+  iterations = 20,
+  halvings = 5,
+): { p: number[]; value: number } {
+  const { x, current, lo, hi, neighboursV, neighbourSigmaV, scratch } = problem;
+  const nf = start.length - 1;
+  const plain = (q: readonly number[]) => fitSteps(x, current, lo, hi, neighboursV, neighbourSigmaV, q.slice(0, nf), q[nf], false, scratch);
+  let p = start.slice();
+  let at = plain(p);
+  if (!at) return { p, value: Infinity };
+  for (let it = 0; it < iterations; it++) {
+    const lin = fitSteps(x, current, lo, hi, neighboursV, neighbourSigmaV, p.slice(0, nf), p[nf], true, scratch, at.steps);
+    if (!lin) break;
+    const move = [...lin.shifts, lin.widthShift].map((d, k) => (Number.isFinite(d) ? Math.max(-maxMove[k], Math.min(maxMove[k], d)) : 0));
+    let accepted: { q: number[]; fit: StepsFit } | null = null;
+    for (let h = 0, f = 1; h <= halvings && !accepted; h++, f /= 2) {
+      const q = p.map((v, k) => Math.min(upper[k], Math.max(lower[k], v + f * move[k])));
+      let ordered = true;
+      for (let k = 1; k < nf; k++) if (q[k] - q[k - 1] < minGapV) ordered = false;
+      if (!ordered) continue;
+      const fit = plain(q);
+      if (fit && fit.ss < at.ss) accepted = { q, fit };
     }
-    if (!moved) for (let k = 0; k < step.length; k++) step[k] /= 2;
+    if (!accepted) break;
+    p = accepted.q;
+    at = accepted.fit;
+    if (move.every((d, k) => Math.abs(d) < (k < nf ? tolV : tolV / 4))) break;
   }
-  return { p, value: best };
+  return { p, value: at.ss };
 }
 
 /** One peak tested by {@link splitPeak}: its position, FWHM, SNR and its sides to half prominence. */
@@ -249,9 +298,11 @@ export function isWide(peak: SplitInput, expectedFwhmV: number, gateSigma = SPLI
  * Method: over ±windowFwhm expected FWHM around the peak (widened by the longer side), with the
  * neighbouring peaks' steps fitted at their positions as in the step test, (1) one step with its
  * position and width free and (2) two steps with both positions and a common width free are
- * fitted by pattern search over the nonlinear parameters (linear least squares for the rest); (1)
- * first, and where it leaves less than minStepSigma² of χ² beyond the degrees of freedom of (2),
- * no second step could be kept and (2) is not searched.
+ * fitted by Gauss–Newton over the nonlinear parameters ({@link stepSearch}; linear least squares
+ * for the rest); (1) first, and where it leaves less than minStepSigma² of χ² beyond the degrees
+ * of freedom of (2), no second step could be kept and (2) is not searched. (2) starts twice, astride
+ * (1)'s position as far apart as (1)'s width asks and on the peak's longer side, and keeps the
+ * better.
  * Two steps are returned when both heights are positive, the smaller one's height over its
  * standard error reaches `minStepSigma`, the drop of χ² from (1) to (2) reaches minStepSigma²
  * (σ: the noise, or the residual RMS of (2) where larger), and the steps lie at least
@@ -297,20 +348,22 @@ export function splitPeak(
   // (a resonance, a width measured low) leaves no χ² beyond the two-step fit's average (its
   // degrees of freedom, four fewer: one more step and three free positions and width), and then
   // the three-parameter search is not made.
-  const one = patternSearch((p) => ss([p[0]], p[1]), [x0, s0], [w / 4, s0 / 4], [below, sLo], [above, sHi], tol);
+  const problem: StepSearchProblem = { x, current, lo, hi, neighboursV: near, neighbourSigmaV: s0, scratch };
+  const one = stepSearch(problem, [x0, s0], [below, sLo], [above, sHi], [w / 2, s0 / 2], 0, tol);
   if (!(one.value / (noiseA * noiseA) - (dof - 4) >= minStepSigma * minStepSigma)) return null;
-  // Two steps: started on the longer side (a shoulder) or astride the top (merged).
+  // Two steps, from two starts (the better kept): astride the one-step fit's position, as far
+  // apart as its width asks (two steps of width s₀ at ±d/2 have the variance s₀² + d²/4 of one
+  // step of width s₁, so d = 2√(s₁² − s₀²), at least half a FWHM), and on the peak's longer side
+  // (a shoulder) or astride its top (merged).
   const longer = right - left;
-  const start = Math.abs(longer) > halfWidthSE(w, peak.snr) ? (longer > 0 ? [x0, x0 + w] : [x0 - w, x0]) : [x0 - w / 2, x0 + w / 2];
+  const d = Math.max(2 * Math.sqrt(Math.max(0, one.p[1] ** 2 - s0 * s0)), w / 2);
+  const sideStart = Math.abs(longer) > halfWidthSE(w, peak.snr) ? (longer > 0 ? [x0, x0 + w] : [x0 - w, x0]) : [x0 - w / 2, x0 + w / 2];
   const clamp = (v: number) => Math.min(above, Math.max(below, v));
-  const two = patternSearch(
-    (p) => (p[1] - p[0] < D.minSeparationFwhm * w * 0.5 ? Infinity : ss([p[0], p[1]], p[2])),
-    [clamp(start[0]), clamp(start[1]), s0],
-    [w / 4, w / 4, s0 / 4],
-    [below, below, sLo],
-    [above, above, sHi],
-    tol,
-  );
+  let two = { p: [] as number[], value: Infinity };
+  for (const start of [[one.p[0] - d / 2, one.p[0] + d / 2], sideStart]) {
+    const found = stepSearch(problem, [clamp(start[0]), clamp(start[1]), s0], [below, below, sLo], [above, above, sHi], [w / 2, w / 2, s0 / 2], D.minSeparationFwhm * w * 0.5, tol);
+    if (found.value < two.value) two = found;
+  }
   const [x1, x2, s] = two.p;
   if (!(x2 - x1 >= D.minSeparationFwhm * w) || !Number.isFinite(two.value)) return null;
   const fit = fitSteps(x, current, lo, hi, near, s0, [x1, x2], s, true, scratch);

@@ -8,7 +8,7 @@
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
 import { expectClose } from "../helpers/expectClose.ts";
-import { fitSteps, halfProminenceSides, halfWidthSE, isWide, patternSearch, splitPeak, SPLIT_PEAKS_DEFAULTS } from "../../lib/peaks/splitPeaks.ts";
+import { fitSteps, halfProminenceSides, halfWidthSE, isWide, splitPeak, stepSearch, SPLIT_PEAKS_DEFAULTS } from "../../lib/peaks/splitPeaks.ts";
 import { findPeaks } from "../../lib/peaks/findPeaks.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
@@ -85,12 +85,58 @@ describe("fitSteps(x, current, lo, hi, neighboursV, neighbourSigmaV, freeV, sigm
   });
 });
 
-describe("patternSearch(f, start, steps, lower, upper, tol)", () => {
-  it("finds the minimum of a quadratic bowl to within its tolerance (closed form: (1, −2)) and keeps to its bounds", () => {
-    const f = (p: number[]) => (p[0] - 1) ** 2 + 3 * (p[1] + 2) ** 2;
-    const { p } = patternSearch(f, [0, 0], [0.5, 0.5], [-5, -5], [5, 5], 1e-4);
-    expectClose(p, [1, -2], { atol: 2e-4 });
-    expect(patternSearch(f, [0, 0], [0.5, 0.5], [-5, -1], [5, 5], 1e-4).p[1]).toBe(-1);
+describe("fitSteps with widthWeights (the Gauss–Newton step of stepSearch)", () => {
+  it("gives the first-order change of the width: a width 2 % off is moved to within (2 %)² of the truth (closed form: Φ((x − x_k)/s) linear in s to first order)", () => {
+    const x = axis(0, 1, 0.002);
+    const s = 0.02;
+    const current = x.map((v) => 3e-12 + 2e-11 * phi((v - 0.5) / s) + 1e-11 * phi((v - 0.56) / s));
+    const at = fitSteps(x, current, 150, 350, [], 0.015, [0.5, 0.56], 1.02 * s, false)!;
+    const lin = fitSteps(x, current, 150, 350, [], 0.015, [0.5, 0.56], 1.02 * s, true, { cols: [] }, at.steps)!;
+    expectClose(1.02 * s + lin.widthShift, s, { atol: 2 * 0.02 ** 2 * s });
+    expectClose(lin.shifts, [0, 0], { atol: 0.02 ** 2 * s });
+    // Without the weights the width column is left out.
+    expect(fitSteps(x, current, 150, 350, [], 0.015, [0.5, 0.56], 1.02 * s, true)!.widthShift).toBe(0);
+  });
+});
+
+describe("stepSearch(problem, start, lower, upper, maxMove, minGapV, tolV)", () => {
+  const x = axis(0, 1, 0.002);
+  const s = 0.02;
+  const clean = x.map((v) => 3e-12 + 1e-12 * v + 4e-11 * phi((v - 0.4) / 0.015) + 2e-11 * phi((v - 0.5) / s) + 1e-11 * phi((v - 0.56) / s));
+  const problem = { x, current: clean, lo: 150, hi: 350, neighboursV: [0.4], neighbourSigmaV: 0.015, scratch: { cols: [] } };
+
+  it("finds noiseless steps' positions and common width from a start a FWHM off (closed form: the data are the model, zero residual at the truth)", () => {
+    const { p, value } = stepSearch(problem, [0.47, 0.6, 0.026], [0.42, 0.42, 0.016], [0.7, 0.7, 0.05], [0.024, 0.024, 0.01], 0.01, 1e-6);
+    expectClose(p, [0.5, 0.56, s], { atol: 1e-6 });
+    expect(value).toBeLessThan(1e-28);
+  });
+
+  it("reaches the least-squares point of a noisy current as a fine compass search does (same residual within 1e-6), and keeps to its bounds", () => {
+    const noisy = stepsCurrent(x, [[0.4, 4e-11], [0.5, 2e-11], [0.56, 1e-11]], s, 2e-13, 7);
+    const prob = { ...problem, current: noisy, scratch: { cols: [] } };
+    const ss = (q: number[]) => fitSteps(x, noisy, 150, 350, [0.4], 0.015, [q[0], q[1]], q[2], false)!.ss;
+    const gn = stepSearch(prob, [0.47, 0.6, 0.026], [0.42, 0.42, 0.016], [0.7, 0.7, 0.05], [0.024, 0.024, 0.01], 0.01, 1e-7);
+    // A compass search (each parameter ± its step while that helps, steps halved) to 1e-7 V.
+    const p = [0.47, 0.6, 0.026], step = [0.006, 0.006, 0.0025];
+    let best = ss(p);
+    while (step[0] > 1e-7) {
+      let moved = false;
+      for (let k = 0; k < 3; k++) for (const dir of [1, -1]) {
+        const q = p.slice();
+        q[k] += dir * step[k];
+        const v = ss(q);
+        if (v < best) { best = v; p[k] = q[k]; moved = true; }
+      }
+      if (!moved) for (let k = 0; k < 3; k++) step[k] /= 2;
+    }
+    expectClose(gn.value, best, { rtol: 1e-6 });
+    expectClose(gn.p, p, { atol: 1e-5 });
+    // Bounds: the width held below its least-squares value stays at the bound.
+    const held = stepSearch(prob, [0.47, 0.6, 0.018], [0.42, 0.42, 0.016], [0.7, 0.7, 0.019], [0.024, 0.024, 0.01], 0.01, 1e-6);
+    expect(held.p[2]).toBe(0.019);
+    // The positions never come closer than minGapV.
+    const apart = stepSearch(prob, [0.47, 0.6, 0.026], [0.42, 0.42, 0.016], [0.7, 0.7, 0.05], [0.024, 0.024, 0.01], 0.1, 1e-6);
+    expect(apart.p[1] - apart.p[0]).toBeGreaterThanOrEqual(0.1);
   });
 });
 
