@@ -27,6 +27,17 @@ export const SPLIT_GRID_DEFAULTS = Object.freeze({
   maxStepRatio: 0.9,
 });
 
+/** Options of {@link splitGridStarts}; every field optional. */
+export interface SplitGridOptions {
+  /**
+   * Take the first p peak V₁ to be the first CB peak (of those used) after the s doublet (after
+   * s's first peak where the first two are no doublet) instead of the peak nearest the fitted p
+   * entry: the start for a grouping whose p level settled one entry off (fitCurve's rescue of a
+   * poor comparison, {@link compareGroupings}). Default false.
+   */
+  firstPeakAfterS?: boolean;
+}
+
 /** A CB peak: its bias (V) and current step (A). */
 export interface GridPeak {
   biasV: number;
@@ -46,6 +57,8 @@ export interface GridPeak {
  *     Voltage-division factor η.
  * peaks : readonly GridPeak[]
  *     The curve's peaks (bias in V, step in A); those at positive bias are used.
+ * options : SplitGridOptions, optional
+ *     `firstPeakAfterS` (default false): V₁ is the first CB peak after the s doublet.
  *
  * Returns
  * -------
@@ -64,7 +77,11 @@ export interface GridPeak {
  * With D = SPLIT_GRID_DEFAULTS, Ec the fitted charging energy and P₀ < P₁ < … the CB peaks whose
  * step is at least D.minStepOfMedian × their median step:
  * 1. The first p peak V₁ is the peak nearest the lowest p level's entry from the empty dot,
- *    (ε_p + Ec/2)/η, within D.entrySnapEc·Ec/η (else that entry); ε₁ = η·V₁ − Ec/2.
+ *    (ε_p + Ec/2)/η, within D.entrySnapEc·Ec/η (else that entry); ε₁ = η·V₁ − Ec/2. With
+ *    `firstPeakAfterS`, V₁ is the first peak after the s doublet (P₂; P₁ where P₀ and P₁ are no
+ *    doublet as in 3; no starts without one): at an intermediate rate ratio the p sub-levels are
+ *    entered before s is full, so the first peak after the doublet is p's entry from the empty dot,
+ *    whatever level a poor fit settled at.
  * 2. Each later peak V_k with δ = η·(V_k − V₁) within D.spacingEcRange × Ec is a candidate second
  *    sub-level entered from the empty dot (at an intermediate or small rate ratio a level's first
  *    peak is its entry, (ε + Ec/2)/η); spacings within D.sameSpacingEc·Ec of a nearer one are left out.
@@ -85,7 +102,7 @@ export interface GridPeak {
  * // => ["p split 2+4 at the peaks, sub-levels 100 meV apart, Γtip/Γsub 1 (s step ratio)", "p split 2+2+2 at the peaks, …", "p split 2+4 …, 150 meV apart, …", …]
  * ```
  */
-export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonly number[], eta: number, peaks: readonly GridPeak[]): RefinementStart[] {
+export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonly number[], eta: number, peaks: readonly GridPeak[], options: SplitGridOptions = {}): RefinementStart[] {
   const D = SPLIT_GRID_DEFAULTS;
   const at = parameterIndex(seeds.length);
   const ec = parameters[at.chargingEnergy];
@@ -100,7 +117,12 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   const pLowest = Math.min(...pIndex.map((j) => parameters[j]));
   const entryV = (pLowest + ec / 2) / eta;
   const nearest = cb.reduce<GridPeak | null>((m, p) => (!m || Math.abs(p.biasV - entryV) < Math.abs(m.biasV - entryV) ? p : m), null);
-  const firstV = nearest && Math.abs(nearest.biasV - entryV) <= D.entrySnapEc * ecV ? nearest.biasV : entryV;
+  const sEntryV = (parameters[sIndex] + ec / 2) / eta;
+  const doublet = cb.length >= 2 && Math.abs(cb[0].biasV - sEntryV) <= D.doubletEntryEc * ecV && Math.abs(cb[1].biasV - cb[0].biasV - ecV) <= D.doubletSpacingTolerance * ecV;
+  // Where asked, the first p peak is the first CB peak after the s doublet (or after s's first).
+  const afterS = options.firstPeakAfterS ? cb[doublet ? 2 : 1] ?? null : null;
+  if (options.firstPeakAfterS && !afterS) return [];
+  const firstV = afterS ? afterS.biasV : nearest && Math.abs(nearest.biasV - entryV) <= D.entrySnapEc * ecV ? nearest.biasV : entryV;
   const e1 = eta * firstV - ec / 2;
   const spacings: number[] = [];
   for (const p of cb) {
@@ -111,8 +133,7 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   }
   let logRatio = parameters[at.logRateRatio];
   let ratioWords = "Γtip/Γsub as fitted";
-  const sEntryV = (parameters[sIndex] + ec / 2) / eta;
-  if (cb.length >= 2 && Math.abs(cb[0].biasV - sEntryV) <= D.doubletEntryEc * ecV && Math.abs(cb[1].biasV - cb[0].biasV - ecV) <= D.doubletSpacingTolerance * ecV) {
+  if (doublet) {
     const q = cb[1].stepA / cb[0].stepA;
     if (q > 0 && q < D.maxStepRatio) {
       const r = rateRatioFromStepRatio(q);
