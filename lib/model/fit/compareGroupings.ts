@@ -101,8 +101,9 @@ export interface CompareContext {
  *    {@link splitGridStarts} with the first p peak the first CB peak after the s doublet
  *    (`firstPeakAfterS`), and the result kept as a further finalist when its BIC is lower: a p
  *    level that settled one entry off (crossover benchmark, starts 122 and 1077: p 2+2+2 fitted as
- *    three sub-levels within 13 meV at Γtip/Γsub 5.6–6.7 for a true 0.7–0.8) hides the right split
- *    from the starts about it. It runs on the poor fits alone (a few in a hundred).
+ *    three sub-levels within 13 meV at Γtip/Γsub 5.6–6.7 for a true 0.7–0.8; 545: p 2+4 fitted whole
+ *    at 6.1 for 0.9) hides the right split from the starts about it. It runs on the poor fits alone
+ *    (a few in a hundred).
  * 5. By CB-side BIC, each finalist plausible on the CB side is fitted to the whole curve with each
  *    VB reading (a further reading only with at most maxAssignedStates charge states); the first whose whole-curve fit is plausible (or does not describe the curve) ends
  *    the search. With none plausible, the lowest BIC's whole-curve fit is kept.

@@ -65,8 +65,8 @@ export interface GridPeak {
  * RefinementStart[]
  *     For each candidate spacing δ (nearest first, at most D.maxSpacings), p split 2+4 (ε₁, ε₁ + δ),
  *     2+2+2 (ε₁, ε₁ + δ, ε₁ + 2δ) and, where δ/2 is in range too, 2+2+2 (ε₁, ε₁ + δ/2, ε₁ + δ: the
- *     peak the third sub-level's entry, the second's hidden), with s, Ec and σ as fitted; empty
- *     without an s and a p level.
+ *     peak the third sub-level's entry, the second's hidden), with s, Ec and σ as fitted (with
+ *     `firstPeakAfterS`, all of them again with ε₁ one Ec lower); empty without an s and a p level.
  *
  * Throws
  * ------
@@ -80,8 +80,10 @@ export interface GridPeak {
  *    (ε_p + Ec/2)/η, within D.entrySnapEc·Ec/η (else that entry); ε₁ = η·V₁ − Ec/2. With
  *    `firstPeakAfterS`, V₁ is the first peak after the s doublet (P₂; P₁ where P₀ and P₁ are no
  *    doublet as in 3; no starts without one): at an intermediate rate ratio the p sub-levels are
- *    entered before s is full, so the first peak after the doublet is p's entry from the empty dot,
- *    whatever level a poor fit settled at.
+ *    entered before s is full, so the first peak after the doublet is p's entry from the empty dot
+ *    (ε₁ = η·V₁ − Ec/2) or, where that one is too weak to be found, its entry with one electron on
+ *    the dot (ε₁ = η·V₁ − 3Ec/2): both are started, whatever level a poor fit settled at (crossover
+ *    benchmark: starts 122 and 1077 the first, 545 the second).
  * 2. Each later peak V_k with δ = η·(V_k − V₁) within D.spacingEcRange × Ec is a candidate second
  *    sub-level entered from the empty dot (at an intermediate or small rate ratio a level's first
  *    peak is its entry, (ε + Ec/2)/η); spacings within D.sameSpacingEc·Ec of a nearer one are left out.
@@ -145,13 +147,17 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   const s: StartLevel = { label: "s", degeneracy: seeds[sIndex].degeneracy, energyEV: parameters[sIndex] };
   const sub = (g: number, e: number): StartLevel => ({ label: "p", degeneracy: g, energyEV: e });
   const out: RefinementStart[] = [];
-  for (const delta of spacings) {
-    const words = `sub-levels ${(delta * 1000).toFixed(0)} meV apart, ${ratioWords}`;
-    out.push(refinementStart([s, sub(2, e1), sub(4, e1 + delta)], `p split 2+4 at the peaks, ${words}`, rest, eta));
-    out.push(refinementStart([s, sub(2, e1), sub(2, e1 + delta), sub(2, e1 + 2 * delta)], `p split 2+2+2 at the peaks, ${words}`, rest, eta));
-    // The peak may be the third sub-level's entry, the second's hidden between.
-    if (delta / 2 >= D.spacingEcRange[0] * ec) {
-      out.push(refinementStart([s, sub(2, e1), sub(2, e1 + delta / 2), sub(2, e1 + delta)], `p split 2+2+2 at the peaks, sub-levels ${((delta / 2) * 1000).toFixed(0)} meV apart (the peak the third's entry), ${ratioWords}`, rest, eta));
+  // After s, V₁ may also be p's entry with one electron on the dot (its entry from the empty dot unseen): ε₁ one Ec lower.
+  const firsts: [number, string][] = afterS ? [[e1, ""], [e1 - ec, ", V₁ its entry with one electron"]] : [[e1, ""]];
+  for (const [e, entryWords] of firsts) {
+    for (const delta of spacings) {
+      const words = `sub-levels ${(delta * 1000).toFixed(0)} meV apart, ${ratioWords}${entryWords}`;
+      out.push(refinementStart([s, sub(2, e), sub(4, e + delta)], `p split 2+4 at the peaks, ${words}`, rest, eta));
+      out.push(refinementStart([s, sub(2, e), sub(2, e + delta), sub(2, e + 2 * delta)], `p split 2+2+2 at the peaks, ${words}`, rest, eta));
+      // The peak may be the third sub-level's entry, the second's hidden between.
+      if (delta / 2 >= D.spacingEcRange[0] * ec) {
+        out.push(refinementStart([s, sub(2, e), sub(2, e + delta / 2), sub(2, e + delta)], `p split 2+2+2 at the peaks, sub-levels ${((delta / 2) * 1000).toFixed(0)} meV apart (the peak the third's entry), ${ratioWords}${entryWords}`, rest, eta));
+      }
     }
   }
   return out;

@@ -77,8 +77,13 @@ describe("splitGridStarts(seeds, parameters, eta, peaks)", () => {
     const plain = splitGridStarts(seeds, low, eta, peaks);
     expect(plain[0].parameters[1]).toBeCloseTo(0.8, 12);
     const after = splitGridStarts(seeds, low, eta, peaks, { firstPeakAfterS: true });
-    expect(after.map((s) => s.layout)).toEqual(["2+2+4", "2+2+2+2", "2+2+2+2", "2+2+4", "2+2+2+2", "2+2+2+2"]);
+    // Two spacings (60 and 120 meV), each 2+4, 2+2+2 and 2+2+2 with the peak the third; then the
+    // same with V₁ p's entry with one electron on the dot, ε₁ = η·V₁ − 3Ec/2 (closed form).
+    const layouts = ["2+2+4", "2+2+2+2", "2+2+2+2", "2+2+4", "2+2+2+2", "2+2+2+2"];
+    expect(after.map((s) => s.layout)).toEqual([...layouts, ...layouts]);
     expectClose(after[1].parameters, [0.6, 0.9, 0.96, 1.02, 0.1, Math.log10(r), -2], { rtol: 1e-9, what: "2+2+2 at 60 meV from the first peak after the doublet, r = q/(1 − q)" });
+    expectClose(after[7].parameters, [0.6, 0.8, 0.86, 0.92, 0.1, Math.log10(r), -2], { rtol: 1e-9, what: "the same, V₁ the entry with one electron" });
+    expect(after[7].change).toMatch(/V₁ its entry with one electron$/);
     // No peak after the doublet: no start.
     expect(splitGridStarts(seeds, low, eta, peaks.slice(0, 2), { firstPeakAfterS: true })).toEqual([]);
   });
