@@ -32,7 +32,8 @@
  * its charging peaks inside the window, a dip in a filling shell's charging steps, an even
  * tunnelling ladder, a split tunnelling shell whose sub-levels and strong satellites form one, a
  * broad or strong peak set aside as a satellite, a regime read from two CB peaks, a filling sub-group with an
- * odd number of charging peaks, a tunnelling d level close after a p that steps like a sub-level, …) and that has levels is also
+ * odd number of charging peaks, a tunnelling d level close after a p that steps like a sub-level, a rise in a filling
+ * sub-group's charging steps, …) and that has levels is also
  * fitted with `fitCurve(analysis, { compareModels: true })`, as `dotspec analyze --compare-models`
  * does, and the command's decision (`comparisonDecision`: a good fit whose answer carries ≥ 0.9 of
  * the BIC weight, within its regime over ± 1 SE where it overrides a named one) says which answer

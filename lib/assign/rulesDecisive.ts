@@ -83,7 +83,8 @@ export interface RulesDecisive {
  * Which rule of {@link rulesDecisive} found the reading open, by its number in the notes there:
  * 1 `undetermined`, 2 `step-ratio-band`, 3 `short-shell`, 4 `even-ladder`, 5 `satellite-at-p`,
  * 6 `sublevels-one-ec`, 7 `levels-over-pairs`, 8 `broad-satellite`, 9 `charging-dip`,
- * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`, 13 `odd-subgroup`, 14 `d-near-split-p`.
+ * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`, 13 `odd-subgroup`, 14 `d-near-split-p`,
+ * 15 `charging-rise`.
  */
 export type RulesDecisiveCode =
   | "undetermined"
@@ -99,7 +100,8 @@ export type RulesDecisiveCode =
   | "two-cb-peaks"
   | "strong-satellite"
   | "odd-subgroup"
-  | "d-near-split-p";
+  | "d-near-split-p"
+  | "charging-rise";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -206,6 +208,19 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    confinement potentials: the "d" may be p's other sub-level. The rules join it to p themselves
  *    only deep in the regime (no charging satellite); nearer the crossover the whole p steps as
  *    little and its charging peaks can sit as close.
+ * 15. Shell filling with a rise inside a sub-group of three or more charging peaks: a step above
+ *    1/`dipStepRatio` (1.18) × the step before it, other than the rise after a dip (told by 9).
+ *    One level of g states filled from the tip has P(N) ∝ C(g, N)·r^N on each plateau (detailed
+ *    balance of in at (g − N)·Γtip, out at N·Γsub), so the plateau currents
+ *    I_k ∝ Σ_{N ≤ k} N·C(g, N)·r^N / Σ_{N ≤ k} C(g, N)·r^N rise by steps that fall one after another
+ *    (g = 6: successive ratios 0.99, 0.99, 0.98, 0.94, 0.80 at r = 10; 0.97 … 0.52 at r = 3; g = 2:
+ *    r/(1 + r)); the margin is the dip's (a measured step scatters by about ± 0.1). A rise puts a
+ *    peak of another sub-level (its entry, or a channel) among the level's charging peaks, and the
+ *    peaks after it one charging peak off. On the crossover benchmark (fast model, seeds 1, 1001,
+ *    2001, 200 spectra each, 2026-12-03) it fired on 7, 6 and 8 spectra, every one a failing
+ *    reading of the rules, 3 of them sent to the fit by no other reason (all three then right); on
+ *    the default mix on 2, 1 and 3 intermediate spectra, all fitted already, and on no spectrum of
+ *    the two regimes.
  *
  * References
  * ----------
@@ -312,10 +327,20 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
       let start = 0;
       for (const size of m.subgroups) {
         const steps = m.peakIndices.slice(start, start + size).map((i) => peaks[i].stepA);
+        const dips = new Set<number>();
         for (let j = 1; j < steps.length - 1; j++) {
           if (steps[j] < dipRatio * Math.min(steps[j - 1], steps[j + 1])) {
+            dips.add(j);
             add("charging-dip", 
               `shell filling with a dip in ${m.label}'s charging steps: the peak at ${m.peaksV[start + j].toFixed(3)} V steps ${(steps[j] / steps[j - 1]).toFixed(2)} × the one before and ${(steps[j] / steps[j + 1]).toFixed(2)} × the one after (both < ${dipRatio}), whereas a level's charging steps fall one after another: a higher sub-level entered before the lower is full, counted as a charging peak`,
+            );
+          }
+        }
+        // 15. A rise in the charging steps inside a sub-group of three or more (a dip's rise is told above).
+        for (let j = 1; steps.length >= 3 && j < steps.length; j++) {
+          if (!dips.has(j - 1) && steps[j - 1] < dipRatio * steps[j]) {
+            add("charging-rise",
+              `shell filling with a rise in ${m.label}'s charging steps: the peak at ${m.peaksV[start + j].toFixed(3)} V steps ${(steps[j] / steps[j - 1]).toFixed(2)} × the one before (> 1/${dipRatio}), whereas a level's charging steps fall one after another: the peaks of two sub-levels (or a channel) may be counted as one level's`,
             );
           }
         }

@@ -120,6 +120,35 @@ describe("rulesDecisive(input, options)", () => {
     expect(falling.result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
 
+  it("flags shell filling whose p sub-group has a rise in its charging steps (> 1/0.85 × the step before), and not the falling steps of one level", () => {
+    // One level of g = 6 states at Γtip/Γsub = r = 10, filled from the tip: the plateau after its
+    // k-th charging peak carries I_k ∝ Σ_{N ≤ k} N·C(g, N)·r^N / Σ_{N ≤ k} C(g, N)·r^N (closed form:
+    // the master equation of one level, in at (g − N)·Γtip, out at N·Γsub, detailed balance
+    // P(N + 1)/P(N) = (g − N)·r/(N + 1)); its steps I_k − I_(k−1) fall one after another.
+    const g = 6, r = 10;
+    const plateau = (k: number) => {
+      let num = 0, den = 0;
+      for (let n = 0; n <= k; n++) {
+        const w = binomial(g, n) * r ** n;
+        num += n * w;
+        den += w;
+      }
+      return num / den;
+    };
+    const steps = [1, 2, 3, 4, 5, 6].map((k) => plateau(k) - plateau(k - 1));
+    steps.slice(1).forEach((s, i) => expect(s).toBeLessThan(steps[i]));
+    const withSteps = (list: number[]) => verdict([...sV.map((v) => peak(v)), ...pV.map((v, i) => peak(v, list[i] * 1e-11))], pV[5] + 0.3);
+    const falling = withSteps(steps);
+    expect(falling.assignment.multiplets.find((m) => m.label === "p")!.subgroups).toEqual([6]);
+    expect(falling.result).toEqual({ decisive: true, reasons: [], codes: [] });
+    // The sixth peak stepping 1/0.84 × the fifth (another sub-level's entry read as p's sixth): flagged;
+    // at 1/0.86 (within the noise margin of 0.85): not.
+    const risen = withSteps([...steps.slice(0, 5), steps[4] / 0.84]);
+    expect(risen.result.codes).toEqual(["charging-rise"]);
+    expect(risen.result.reasons[0]).toContain(`the peak at ${pV[5].toFixed(3)} V steps 1.19 × the one before (> 1/0.85)`);
+    expect(withSteps([...steps.slice(0, 5), steps[4] / 0.86]).result.decisive).toBe(true);
+  });
+
   it("flags shell tunnelling whose p sub-levels and the satellite after them form an even ladder, when the satellite steps 0.2–0.8 × the peak before it", () => {
     // One p level's charging ladder at (ε_p + Ec(n + ½))/η = 1.1, 1.2, 1.3, 1.4 V (ε_p/η = 1.05 V,
     // Ec/η = 0.1 V; closed form); the rules read the first three as p's sub-levels (steps alike
@@ -247,3 +276,10 @@ describe("rulesDecisive(input, options)", () => {
     expectError(() => rulesDecisive({ peaks, assignment, biasRangeV: [2, -2] }), "options/out-of-range", "biasRangeV[1]");
   });
 });
+
+/** C(n, k), the binomial coefficient. */
+function binomial(n: number, k: number): number {
+  let c = 1;
+  for (let j = 1; j <= k; j++) c = (c * (n - k + j)) / j;
+  return c;
+}

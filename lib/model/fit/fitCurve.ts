@@ -141,7 +141,10 @@ export interface FitOptions {
  *    from the s doublet's step ratio, {@link splitGridStarts}; each explored for
  *    refinementIterations (4) from the fitted values, the best two finished and the better kept as a further
  *    finalist when its BIC is lower), and the best again while it is a refined one
- *    (refinementRounds (2) rounds in all); the finalists are then fitted to the whole
+ *    (refinementRounds (2) rounds in all); where the best is then still poor (reduced χ² above 3
+ *    or residual structure above 5 σ on the CB side), once more from p split at the peaks'
+ *    spacings counted from the first CB peak after the s doublet (`firstPeakAfterS` of
+ *    {@link splitGridStarts}: a p level settled one entry off); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
  *    side, also with each VB level after the first entered one carrier earlier,
  *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
@@ -282,7 +285,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     }
   }
   if (compared) {
-    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F });
+    const poorOf = (t: FitTrial) => reduced(t) > FIT_STATUS_DEFAULTS.poorChiSquare || structureOf(t).largestZ > FIT_STATUS_DEFAULTS.poorResidualZ;
+    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf });
   }
   const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
   // The finalists: when groupings were compared, their CB-side fits (all on the same points),

@@ -26,7 +26,7 @@ export { heldValenceLevels, withHeldLevels } from "./heldValenceLevels.ts";
 export { ladderSolveWork } from "./solveWork.ts";
 export { fitRunner, type FitRun, type FitRunner, type FitRunnerSettings } from "./fitRunner.ts";
 export { refinementStarts, refinementStart, REFINEMENT_DEFAULTS, type RefinementStart, type StartLevel } from "./refinementStarts.ts";
-export { splitGridStarts, SPLIT_GRID_DEFAULTS, type GridPeak } from "./splitGridStarts.ts";
+export { splitGridStarts, SPLIT_GRID_DEFAULTS, type GridPeak, type SplitGridOptions } from "./splitGridStarts.ts";
 export { standardErrors } from "./standardErrors.ts";
 export { trialErrors, type TrialErrors } from "./trialErrors.ts";
 export { residualStructure, type ResidualStructure } from "./residualStructure.ts";

@@ -37,6 +37,8 @@ export interface RefineContext {
   splitAtPeaks?: boolean;
   /** The peak-based Ec in eV (the rules' shell-filling Ec) for a further split start ({@link refinementStarts}), or null. Default null. */
   peakChargingEnergyEV?: number | null;
+  /** Only the split starts at the peaks, with the first p peak the first CB peak after the s doublet ({@link splitGridStarts}' `firstPeakAfterS`): fitCurve's rescue of a poor comparison. Default false. */
+  afterSOnly?: boolean;
 }
 
 /**
@@ -61,7 +63,8 @@ export interface RefineContext {
  * Notes
  * -----
  * 1. Each start ({@link refinementStarts}: a p split about the fitted p level, or the rate ratio
- *    moved; {@link splitGridStarts}: p split at the spacings the peaks show) becomes a hypothesis
+ *    moved; {@link splitGridStarts}: p split at the spacings the peaks show; with
+ *    context.afterSOnly only the latter, from the first peak after the s doublet) becomes a hypothesis
  *    named "<grouping>, refined to <layout> (<change>)", with the grouping's VB levels and
  *    readings, its CB-side version registered in context.cbOnly.
  * 2. Each is explored for context.exploreIterations from its start; the REFINE_GROUPING_DEFAULTS.finishedStarts
@@ -80,7 +83,10 @@ export function refineGrouping(top: FitTrial, context: RefineContext): FitTrial 
   const topFull = [...cbOnly.entries()].find(([, hc]) => hc === top.hypothesis)![0];
   const explored: FitTrial[] = [];
   const fitted = top.loop.parameters.slice(0, parameterIndex(top.hypothesis.seeds.length).rateScale);
-  const starts = [...refinementStarts(top.hypothesis.seeds, fitted, eta, context.peakChargingEnergyEV ?? null), ...(context.splitAtPeaks ?? true ? splitGridStarts(top.hypothesis.seeds, fitted, eta, top.hypothesis.analysis.peaks) : [])];
+  const peaks = top.hypothesis.analysis.peaks;
+  const starts = context.afterSOnly
+    ? splitGridStarts(top.hypothesis.seeds, fitted, eta, peaks, { firstPeakAfterS: true }).map((r) => ({ ...r, change: `${r.change}, p from the first peak after s` }))
+    : [...refinementStarts(top.hypothesis.seeds, fitted, eta, context.peakChargingEnergyEV ?? null), ...(context.splitAtPeaks ?? true ? splitGridStarts(top.hypothesis.seeds, fitted, eta, peaks) : [])];
   for (const r of starts) {
     const at = parameterIndex(r.seeds.length);
     const moved = { chargingEnergyStartEV: r.parameters[at.chargingEnergy], rateRatioStartLog10: r.parameters[at.logRateRatio] };

@@ -27,6 +27,17 @@ export const SPLIT_GRID_DEFAULTS = Object.freeze({
   maxStepRatio: 0.9,
 });
 
+/** Options of {@link splitGridStarts}; every field optional. */
+export interface SplitGridOptions {
+  /**
+   * Take the first p peak V₁ to be the first CB peak (of those used) after the s doublet (after
+   * s's first peak where the first two are no doublet) instead of the peak nearest the fitted p
+   * entry: the start for a grouping whose p level settled one entry off (fitCurve's rescue of a
+   * poor comparison, {@link compareGroupings}). Default false.
+   */
+  firstPeakAfterS?: boolean;
+}
+
 /** A CB peak: its bias (V) and current step (A). */
 export interface GridPeak {
   biasV: number;
@@ -46,14 +57,16 @@ export interface GridPeak {
  *     Voltage-division factor η.
  * peaks : readonly GridPeak[]
  *     The curve's peaks (bias in V, step in A); those at positive bias are used.
+ * options : SplitGridOptions, optional
+ *     `firstPeakAfterS` (default false): V₁ is the first CB peak after the s doublet.
  *
  * Returns
  * -------
  * RefinementStart[]
  *     For each candidate spacing δ (nearest first, at most D.maxSpacings), p split 2+4 (ε₁, ε₁ + δ),
  *     2+2+2 (ε₁, ε₁ + δ, ε₁ + 2δ) and, where δ/2 is in range too, 2+2+2 (ε₁, ε₁ + δ/2, ε₁ + δ: the
- *     peak the third sub-level's entry, the second's hidden), with s, Ec and σ as fitted; empty
- *     without an s and a p level.
+ *     peak the third sub-level's entry, the second's hidden), with s, Ec and σ as fitted (with
+ *     `firstPeakAfterS`, all of them again with ε₁ one Ec lower); empty without an s and a p level.
  *
  * Throws
  * ------
@@ -64,7 +77,13 @@ export interface GridPeak {
  * With D = SPLIT_GRID_DEFAULTS, Ec the fitted charging energy and P₀ < P₁ < … the CB peaks whose
  * step is at least D.minStepOfMedian × their median step:
  * 1. The first p peak V₁ is the peak nearest the lowest p level's entry from the empty dot,
- *    (ε_p + Ec/2)/η, within D.entrySnapEc·Ec/η (else that entry); ε₁ = η·V₁ − Ec/2.
+ *    (ε_p + Ec/2)/η, within D.entrySnapEc·Ec/η (else that entry); ε₁ = η·V₁ − Ec/2. With
+ *    `firstPeakAfterS`, V₁ is the first peak after the s doublet (P₂; P₁ where P₀ and P₁ are no
+ *    doublet as in 3; no starts without one): at an intermediate rate ratio the p sub-levels are
+ *    entered before s is full, so the first peak after the doublet is p's entry from the empty dot
+ *    (ε₁ = η·V₁ − Ec/2) or, where that one is too weak to be found, its entry with one electron on
+ *    the dot (ε₁ = η·V₁ − 3Ec/2): both are started, whatever level a poor fit settled at (crossover
+ *    benchmark: starts 122 and 1077 the first, 545 the second).
  * 2. Each later peak V_k with δ = η·(V_k − V₁) within D.spacingEcRange × Ec is a candidate second
  *    sub-level entered from the empty dot (at an intermediate or small rate ratio a level's first
  *    peak is its entry, (ε + Ec/2)/η); spacings within D.sameSpacingEc·Ec of a nearer one are left out.
@@ -85,7 +104,7 @@ export interface GridPeak {
  * // => ["p split 2+4 at the peaks, sub-levels 100 meV apart, Γtip/Γsub 1 (s step ratio)", "p split 2+2+2 at the peaks, …", "p split 2+4 …, 150 meV apart, …", …]
  * ```
  */
-export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonly number[], eta: number, peaks: readonly GridPeak[]): RefinementStart[] {
+export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonly number[], eta: number, peaks: readonly GridPeak[], options: SplitGridOptions = {}): RefinementStart[] {
   const D = SPLIT_GRID_DEFAULTS;
   const at = parameterIndex(seeds.length);
   const ec = parameters[at.chargingEnergy];
@@ -100,7 +119,12 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   const pLowest = Math.min(...pIndex.map((j) => parameters[j]));
   const entryV = (pLowest + ec / 2) / eta;
   const nearest = cb.reduce<GridPeak | null>((m, p) => (!m || Math.abs(p.biasV - entryV) < Math.abs(m.biasV - entryV) ? p : m), null);
-  const firstV = nearest && Math.abs(nearest.biasV - entryV) <= D.entrySnapEc * ecV ? nearest.biasV : entryV;
+  const sEntryV = (parameters[sIndex] + ec / 2) / eta;
+  const doublet = cb.length >= 2 && Math.abs(cb[0].biasV - sEntryV) <= D.doubletEntryEc * ecV && Math.abs(cb[1].biasV - cb[0].biasV - ecV) <= D.doubletSpacingTolerance * ecV;
+  // Where asked, the first p peak is the first CB peak after the s doublet (or after s's first).
+  const afterS = options.firstPeakAfterS ? cb[doublet ? 2 : 1] ?? null : null;
+  if (options.firstPeakAfterS && !afterS) return [];
+  const firstV = afterS ? afterS.biasV : nearest && Math.abs(nearest.biasV - entryV) <= D.entrySnapEc * ecV ? nearest.biasV : entryV;
   const e1 = eta * firstV - ec / 2;
   const spacings: number[] = [];
   for (const p of cb) {
@@ -111,8 +135,7 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   }
   let logRatio = parameters[at.logRateRatio];
   let ratioWords = "Γtip/Γsub as fitted";
-  const sEntryV = (parameters[sIndex] + ec / 2) / eta;
-  if (cb.length >= 2 && Math.abs(cb[0].biasV - sEntryV) <= D.doubletEntryEc * ecV && Math.abs(cb[1].biasV - cb[0].biasV - ecV) <= D.doubletSpacingTolerance * ecV) {
+  if (doublet) {
     const q = cb[1].stepA / cb[0].stepA;
     if (q > 0 && q < D.maxStepRatio) {
       const r = rateRatioFromStepRatio(q);
@@ -124,13 +147,17 @@ export function splitGridStarts(seeds: readonly LevelSeed[], parameters: readonl
   const s: StartLevel = { label: "s", degeneracy: seeds[sIndex].degeneracy, energyEV: parameters[sIndex] };
   const sub = (g: number, e: number): StartLevel => ({ label: "p", degeneracy: g, energyEV: e });
   const out: RefinementStart[] = [];
-  for (const delta of spacings) {
-    const words = `sub-levels ${(delta * 1000).toFixed(0)} meV apart, ${ratioWords}`;
-    out.push(refinementStart([s, sub(2, e1), sub(4, e1 + delta)], `p split 2+4 at the peaks, ${words}`, rest, eta));
-    out.push(refinementStart([s, sub(2, e1), sub(2, e1 + delta), sub(2, e1 + 2 * delta)], `p split 2+2+2 at the peaks, ${words}`, rest, eta));
-    // The peak may be the third sub-level's entry, the second's hidden between.
-    if (delta / 2 >= D.spacingEcRange[0] * ec) {
-      out.push(refinementStart([s, sub(2, e1), sub(2, e1 + delta / 2), sub(2, e1 + delta)], `p split 2+2+2 at the peaks, sub-levels ${((delta / 2) * 1000).toFixed(0)} meV apart (the peak the third's entry), ${ratioWords}`, rest, eta));
+  // After s, V₁ may also be p's entry with one electron on the dot (its entry from the empty dot unseen): ε₁ one Ec lower.
+  const firsts: [number, string][] = afterS ? [[e1, ""], [e1 - ec, ", V₁ its entry with one electron"]] : [[e1, ""]];
+  for (const [e, entryWords] of firsts) {
+    for (const delta of spacings) {
+      const words = `sub-levels ${(delta * 1000).toFixed(0)} meV apart, ${ratioWords}${entryWords}`;
+      out.push(refinementStart([s, sub(2, e), sub(4, e + delta)], `p split 2+4 at the peaks, ${words}`, rest, eta));
+      out.push(refinementStart([s, sub(2, e), sub(2, e + delta), sub(2, e + 2 * delta)], `p split 2+2+2 at the peaks, ${words}`, rest, eta));
+      // The peak may be the third sub-level's entry, the second's hidden between.
+      if (delta / 2 >= D.spacingEcRange[0] * ec) {
+        out.push(refinementStart([s, sub(2, e), sub(2, e + delta / 2), sub(2, e + delta)], `p split 2+2+2 at the peaks, sub-levels ${((delta / 2) * 1000).toFixed(0)} meV apart (the peak the third's entry), ${ratioWords}${entryWords}`, rest, eta));
+      }
     }
   }
   return out;

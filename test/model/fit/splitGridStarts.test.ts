@@ -66,6 +66,28 @@ describe("splitGridStarts(seeds, parameters, eta, peaks)", () => {
     expect(starts[0].change).toMatch(/as fitted/);
   });
 
+  it("with firstPeakAfterS takes the first p peak from the first CB peak after the s doublet, wherever the fitted p level settled", () => {
+    // Closed-form positions: s entries at (0.6 + 0.05)/η and one Ec/η later; the p sub-levels
+    // 0.9, 0.96, 1.02 eV entered from the empty dot at (ε + Ec/2)/η. A fitted p level 0.1 eV low
+    // (0.8) puts its entry (0.85/η) nearest no peak within entrySnapEc·Ec/η.
+    const r = 0.8;
+    const q = secondToFirstStepRatio(r);
+    const peaks = [{ biasV: 0.65 / eta, stepA: 1 }, { biasV: 0.75 / eta, stepA: q }, ...[0.9, 0.96, 1.02].map((e) => ({ biasV: (e + 0.05) / eta, stepA: 0.5 }))];
+    const low = [0.6, 0.8, 0.1, 0, -2];
+    const plain = splitGridStarts(seeds, low, eta, peaks);
+    expect(plain[0].parameters[1]).toBeCloseTo(0.8, 12);
+    const after = splitGridStarts(seeds, low, eta, peaks, { firstPeakAfterS: true });
+    // Two spacings (60 and 120 meV), each 2+4, 2+2+2 and 2+2+2 with the peak the third; then the
+    // same with V₁ p's entry with one electron on the dot, ε₁ = η·V₁ − 3Ec/2 (closed form).
+    const layouts = ["2+2+4", "2+2+2+2", "2+2+2+2", "2+2+4", "2+2+2+2", "2+2+2+2"];
+    expect(after.map((s) => s.layout)).toEqual([...layouts, ...layouts]);
+    expectClose(after[1].parameters, [0.6, 0.9, 0.96, 1.02, 0.1, Math.log10(r), -2], { rtol: 1e-9, what: "2+2+2 at 60 meV from the first peak after the doublet, r = q/(1 − q)" });
+    expectClose(after[7].parameters, [0.6, 0.8, 0.86, 0.92, 0.1, Math.log10(r), -2], { rtol: 1e-9, what: "the same, V₁ the entry with one electron" });
+    expect(after[7].change).toMatch(/V₁ its entry with one electron$/);
+    // No peak after the doublet: no start.
+    expect(splitGridStarts(seeds, low, eta, peaks.slice(0, 2), { firstPeakAfterS: true })).toEqual([]);
+  });
+
   it("gives nothing without an s and a p level", () => {
     expect(splitGridStarts([seeds[0]], [0.6, 0.1, 0, -2], eta, [{ biasV: 1, stepA: 1 }])).toEqual([]);
   });
