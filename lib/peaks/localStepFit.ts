@@ -37,7 +37,8 @@ export interface LocalStepFit {
  * δ = −d·s/c (one Gauss–Newton step).
  *
  * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}) and adds a
- * quadratic term c₂·u² to the background.
+ * quadratic term c₂·u² to the background. `neighbourShifts` adds a φ column for every neighbour's
+ * step as well (its position free to first order, as the tested step's with `withShift`).
  */
 export function localStepFit(
   x: Float64Array,
@@ -49,6 +50,7 @@ export function localStepFit(
   withShift: boolean,
   work: FitWorkspace,
   windowV?: readonly [number, number],
+  neighbourShifts = false,
 ): LocalStepFit | null {
   const n = x.length;
   const h = (x[n - 1] - x[0]) / (n - 1);
@@ -65,7 +67,9 @@ export function localStepFit(
   // Over a moved (longer) window the background gets its next Taylor term, u²: a curved background
   // (an exponential rise) that a line follows over ±3 FWHM does not stay straight over ±6.
   const bg = windowV ? 3 : 2;
-  const self = bg + steps.length;
+  // With `neighbourShifts`, each neighbour's step also gets its φ column: its position may be off.
+  const nStepCols = neighbourShifts ? 2 * steps.length : steps.length;
+  const self = bg + nStepCols;
   const m = self + 1 + (withShift ? 1 : 0);
   // Design matrix, column by column (each Φ evaluated once).
   const rows = hi - lo + 1;
@@ -77,6 +81,7 @@ export function localStepFit(
     cols[rows + i] = u;
     if (bg === 3) cols[2 * rows + i] = u * u;
     for (let j = 0; j < steps.length; j++) cols[(bg + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
+    if (neighbourShifts) for (let j = 0; j < steps.length; j++) cols[(bg + steps.length + j) * rows + i] = gaussianFast((x[lo + i] - steps[j]) / s) * INV_SQRT_2PI;
     cols[self * rows + i] = normalCdfFast(u / s);
     if (withShift) cols[(self + 1) * rows + i] = gaussianFast(u / s) * INV_SQRT_2PI;
   }
@@ -209,24 +214,25 @@ export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhm
 }
 
 /**
- * t-statistic of the step at candidate k (neighbours at the other candidates, positions
- * ascending): over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma,
- * over the window of {@link stepTestWindow}.
+ * t-statistic of the step at sample `index` with steps at `neighboursV` (V, ascending, the
+ * candidate itself not among them; with `neighbourShifts` their positions free to first order):
+ * over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma, over the
+ * window of {@link stepTestWindow}.
  */
 export function stepSignificance(
   x: Float64Array,
   current: Float64Array,
-  indices: number[],
-  k: number,
+  index: number,
+  neighbours: readonly number[],
   halfWidth: number,
   noiseA: number,
   minStepSigma: number,
   minPlainSigma: number,
   work: FitWorkspace,
+  neighbourShifts = false,
 ): number {
-  const x0 = x[indices[k]];
-  const neighbours = indices.filter((_, j) => j !== k).map((j) => x[j]);
-  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, indices[k], x0, neighbours, halfWidth, false, work, windowV);
+  const x0 = x[index];
+  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, windowV, neighbourShifts);
   const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0);
   const plain = z(fitOver());
   // A step significant over ±3 FWHM needs no longer window; one that does not stand at
