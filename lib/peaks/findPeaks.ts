@@ -8,6 +8,7 @@ import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
 import { splitMerged } from "./splitPeaks.ts";
 import { retestShortSteps, type ShortStep } from "./retestShortSteps.ts";
+import { addShoulders } from "./shoulderSteps.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -231,10 +232,18 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    with the candidate's step and inflates its standard error. After the selection, each rejected
  *    candidate (most prominent first) that had a neighbour not kept within the test's reach, and
  *    lies at least one FWHM and minSeparationMV from every peak kept, is tested again with steps at
- *    the kept peaks only, each with its position free to first order (a φ column, as in note 4: a
- *    strong neighbour's position error would otherwise leave a residual the candidate's step takes
- *    up), at the same threshold; a candidate that passes is kept and counts as a neighbour of the
- *    next.
+ *    the kept peaks only, those within 2 FWHM with their position and width free to first order
+ *    (φ and z·φ columns: a strong neighbour's position or width error would otherwise leave a
+ *    residual the candidate's step takes up), at the same threshold; a candidate that passes is
+ *    kept and counts as a neighbour of the next.
+ * 9. Shoulders (with the current and refineOnCurrent and expectedFwhmV; `lib/peaks/shoulderSteps.ts`):
+ *    a level with no maximum of its own beside a stronger neighbour still makes a minimum of the
+ *    conductance's curvature. The second difference at lag FWHM/4 is searched for minima 1–2.5
+ *    FWHM from the nearest peak (the larger of expectedFwhmV and the peaks' median FWHM) and below
+ *    what a Gaussian of height minProminenceSigma·noiseS gives; the deepest in each interval
+ *    between peaks is tested as in note 8 and kept at t ≥ minStepSigma, then refined on the
+ *    current with the others (note 4). Its height and step are those of a Gaussian with that
+ *    curvature at the expected width.
  *
  * References
  * ----------
@@ -390,12 +399,21 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   }
   if (current && onCurrent) {
     const halfWidthOf = (k: number) => Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
-    let open = peaks.map((_, k) => k);
-    if (fromSplit) open = open.filter((k) => !fromSplit![k]);
-    for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && open.length; iteration++) {
-      const step = refineOnCurrent(biasV, current, peaks, open, halfWidthOf, work);
-      peaks = step.peaks;
-      open = open.filter((k) => !step.settled.includes(k));
+    const refineSome = (which: number[]) => {
+      for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && which.length; iteration++) {
+        const step = refineOnCurrent(biasV, current, peaks, which, halfWidthOf, work);
+        peaks = step.peaks;
+        which = which.filter((k) => !step.settled.includes(k));
+      }
+    };
+    refineSome(peaks.map((_, k) => k).filter((k) => !fromSplit || !fromSplit[k]));
+    // 9. Shoulders: minima of the curvature beside the refined peaks, confirmed by the step test,
+    // then refined themselves.
+    if (expectedHalfWidth !== null && peaks.length) {
+      const floorV = FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * options.expectedFwhmV!;
+      const more = addShoulders(biasV, didvS, current, peaks, Math.max(1, Math.round(expectedHalfWidth)), noiseS, threshold, minStepSigma!, FIND_PEAKS_DEFAULTS.preScreenSigma, minSeparationMV / 1000, floorV, work);
+      peaks = more.peaks;
+      refineSome(more.added);
     }
   }
   return {

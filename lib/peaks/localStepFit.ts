@@ -37,8 +37,9 @@ export interface LocalStepFit {
  * δ = −d·s/c (one Gauss–Newton step).
  *
  * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}) and adds a
- * quadratic term c₂·u² to the background. `neighbourShifts` adds a φ column for every neighbour's
- * step as well (its position free to first order, as the tested step's with `withShift`).
+ * quadratic term c₂·u² to the background. `freeWithinV` (V, default 0: none) adds a φ and a z·φ
+ * column for every neighbour's step within that distance of x₀ (its position and width free to
+ * first order: ∂Φ/∂x_j = −φ/s, ∂Φ/∂s = −z·φ/s, z = (x − x_j)/s).
  */
 export function localStepFit(
   x: Float64Array,
@@ -50,7 +51,7 @@ export function localStepFit(
   withShift: boolean,
   work: FitWorkspace,
   windowV?: readonly [number, number],
-  neighbourShifts = false,
+  freeWithinV = 0,
 ): LocalStepFit | null {
   const n = x.length;
   const h = (x[n - 1] - x[0]) / (n - 1);
@@ -67,8 +68,10 @@ export function localStepFit(
   // Over a moved (longer) window the background gets its next Taylor term, u²: a curved background
   // (an exponential rise) that a line follows over ±3 FWHM does not stay straight over ±6.
   const bg = windowV ? 3 : 2;
-  // With `neighbourShifts`, each neighbour's step also gets its φ column: its position may be off.
-  const nStepCols = neighbourShifts ? 2 * steps.length : steps.length;
+  // Each neighbour within `freeWithinV` also gets its φ and z·φ columns: its position and width
+  // free to first order (∂Φ/∂x_j = −φ/s, ∂Φ/∂s = −z·φ/s).
+  const free = freeWithinV > 0 ? steps.filter((v) => Math.abs(v - x0) <= freeWithinV) : [];
+  const nStepCols = steps.length + 2 * free.length;
   const self = bg + nStepCols;
   const m = self + 1 + (withShift ? 1 : 0);
   // Design matrix, column by column (each Φ evaluated once).
@@ -81,7 +84,12 @@ export function localStepFit(
     cols[rows + i] = u;
     if (bg === 3) cols[2 * rows + i] = u * u;
     for (let j = 0; j < steps.length; j++) cols[(bg + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
-    if (neighbourShifts) for (let j = 0; j < steps.length; j++) cols[(bg + steps.length + j) * rows + i] = gaussianFast((x[lo + i] - steps[j]) / s) * INV_SQRT_2PI;
+    for (let j = 0; j < free.length; j++) {
+      const z = (x[lo + i] - free[j]) / s;
+      const density = gaussianFast(z) * INV_SQRT_2PI;
+      cols[(bg + steps.length + j) * rows + i] = density;
+      cols[(bg + steps.length + free.length + j) * rows + i] = z * density;
+    }
     cols[self * rows + i] = normalCdfFast(u / s);
     if (withShift) cols[(self + 1) * rows + i] = gaussianFast(u / s) * INV_SQRT_2PI;
   }
@@ -153,6 +161,13 @@ export const STEP_TEST_WINDOW = Object.freeze({
   beyondFwhm: 2,
   /** The edge never moves further than this from the tested peak (twice the plain window). */
   maxHalfWidthFwhm: 6,
+  /**
+   * A second test (of a candidate short of the first, or of a shoulder) frees the position and
+   * width of each neighbour within this distance to first order: a neighbour's misfit leaves a
+   * residual of φ or z·φ shape within about ±1 FWHM of it (|z| ≲ 2.4), which a step 1–2 FWHM away
+   * would take up.
+   */
+  freeNeighbourFwhm: 2,
 });
 
 /**
@@ -215,7 +230,8 @@ export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhm
 
 /**
  * t-statistic of the step at sample `index` with steps at `neighboursV` (V, ascending, the
- * candidate itself not among them; with `neighbourShifts` their positions free to first order):
+ * candidate itself not among them; those within `freeWithinV` with their positions and widths
+ * free to first order):
  * over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma, over the
  * window of {@link stepTestWindow}.
  */
@@ -229,10 +245,10 @@ export function stepSignificance(
   minStepSigma: number,
   minPlainSigma: number,
   work: FitWorkspace,
-  neighbourShifts = false,
+  freeWithinV = 0,
 ): number {
   const x0 = x[index];
-  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, windowV, neighbourShifts);
+  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, windowV, freeWithinV);
   const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0);
   const plain = z(fitOver());
   // A step significant over ±3 FWHM needs no longer window; one that does not stand at

@@ -54,8 +54,12 @@ export interface ShortStep {
  *    residual sum of squares of its column regressed on the others): a real step inside a dense
  *    ladder falls short although the current holds it.
  * 2. So each rejected candidate, most prominent first, is tested again with steps at the peaks
- *    kept only (and those accepted before it in this pass), over the same windows and at the same
- *    threshold (minStepSigma).
+ *    kept and at the rejected candidates more prominent than it (accepted before it in this pass or
+ *    not): the weaker maxima, mostly noise, are dropped from its model, while a stronger step the
+ *    first test happened to reject still stands in it (left out, the candidate's step would take
+ *    it up). Same windows, same threshold (minStepSigma); the neighbours within 2 FWHM have their
+ *    positions and widths free to first order (φ and z·φ columns): a strong neighbour's position
+ *    or width error would otherwise leave a residual of that shape which the candidate takes up.
  * 3. Not tested again: a candidate within one expected FWHM or minSeparationV of a kept peak (it
  *    sits on that peak's step: the step test fits no neighbour within one FWHM, and the
  *    candidate's column would take that step's share), and one whose first test had no neighbour
@@ -83,15 +87,23 @@ export function retestShortSteps(
   const reachFwhm = STEP_TEST_WINDOW.maxHalfWidthFwhm + STEP_TEST_WINDOW.straddleFwhm;
   const accepted: { index: number; significance: number }[] = [];
   const order = rejected.slice().sort((a, b) => b.prominence - a.prominence);
+  // Rejected again, but more prominent than those after them: still fitted as their neighbours.
+  const stronger: number[] = [];
   for (const c of order) {
     const x0 = biasV[c.index];
     const fwhmV = 2 * c.halfWidth * stepV;
     const near = Math.max(fwhmV, minSeparationV);
-    if (keptV.some((v) => Math.abs(v - x0) < near)) continue;
     const reach = reachFwhm * fwhmV;
-    if (!candidateIndices.some((i) => i !== c.index && !kept.has(i) && Math.abs(biasV[i] - x0) <= reach)) continue;
-    const t = stepSignificance(biasV, currentA, c.index, keptV, c.halfWidth, noiseA, minStepSigma, minPlainSigma, work, true);
-    if (!(t >= minStepSigma)) continue;
+    if (keptV.some((v) => Math.abs(v - x0) < near) || !candidateIndices.some((i) => i !== c.index && !kept.has(i) && Math.abs(biasV[i] - x0) <= reach)) {
+      stronger.push(x0);
+      continue;
+    }
+    const neighbours = stronger.length ? [...keptV, ...stronger].sort((a, b) => a - b) : keptV;
+    const t = stepSignificance(biasV, currentA, c.index, neighbours, c.halfWidth, noiseA, minStepSigma, minPlainSigma, work, STEP_TEST_WINDOW.freeNeighbourFwhm * fwhmV);
+    if (!(t >= minStepSigma)) {
+      stronger.push(x0);
+      continue;
+    }
     accepted.push({ index: c.index, significance: t });
     let at = 0;
     while (at < keptV.length && keptV[at] < x0) at++;
