@@ -232,7 +232,8 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    with the candidate's step and inflates its standard error. After the selection, each rejected
  *    candidate (most prominent first) that had a neighbour not kept within the test's reach, and
  *    lies at least one FWHM and minSeparationMV from every peak kept, is tested again with steps at
- *    the kept peaks only, those within 2 FWHM with their position and width free to first order
+ *    the kept peaks and at the rejected candidates more prominent than it (not at the weaker
+ *    maxima, mostly noise), those within 2 FWHM with their position and width free to first order
  *    (φ and z·φ columns: a strong neighbour's position or width error would otherwise leave a
  *    residual the candidate's step takes up), at the same threshold; a candidate that passes is
  *    kept and counts as a neighbour of the next.
@@ -241,9 +242,9 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    conductance's curvature. The second difference at lag FWHM/4 is searched for minima 1–2.5
  *    FWHM from the nearest peak (the larger of expectedFwhmV and the peaks' median FWHM) and below
  *    what a Gaussian of height minProminenceSigma·noiseS gives; the deepest in each interval
- *    between peaks is tested as in note 8 and kept at t ≥ minStepSigma, then refined on the
- *    current with the others (note 4). Its height and step are those of a Gaussian with that
- *    curvature at the expected width.
+ *    between peaks is tested as in note 8 against the peaks refined on the current (note 4) and
+ *    kept at t ≥ minStepSigma, then refined itself. Its height and step are those of a Gaussian
+ *    with that curvature at the expected width.
  *
  * References
  * ----------
