@@ -242,9 +242,10 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    conductance's curvature. The second difference at lag FWHM/4 is searched for minima 1–2.5
  *    FWHM from the nearest peak (the larger of expectedFwhmV and the peaks' median FWHM) and below
  *    what a Gaussian of height minProminenceSigma·noiseS gives; the deepest in each interval
- *    between peaks is tested as in note 8 against the peaks refined on the current (note 4) and
- *    kept at t ≥ minStepSigma, then refined itself. Its height and step are those of a Gaussian
- *    with that curvature at the expected width.
+ *    between peaks is tested as in note 8 (with a u² background term as well) against the peaks
+ *    refined on the current (note 4) and kept at t ≥ minStepSigma, then refined itself. Its height
+ *    and step are those of a Gaussian with that curvature at the expected width, its prominence at
+ *    most that of the peak beside it.
  *
  * References
  * ----------

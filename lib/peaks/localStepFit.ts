@@ -23,7 +23,7 @@ export interface LocalStepFit {
   /** Shift of the step position, V (with `withShift`), and Var(shift)/σ². */
   shift: number;
   shiftVar: number;
-  /** RMS residual of the fit, A (with `withShift`; 0 otherwise). */
+  /** RMS residual of the fit, A (with `withShift` or `rmsToo`; 0 otherwise). */
   rms: number;
 }
 
@@ -52,6 +52,7 @@ export function localStepFit(
   work: FitWorkspace,
   windowV?: readonly [number, number],
   freeWithinV = 0,
+  rmsToo = false,
 ): LocalStepFit | null {
   const n = x.length;
   const h = (x[n - 1] - x[0]) / (n - 1);
@@ -130,8 +131,8 @@ export function localStepFit(
   const coef = solved.x;
   const inv = (r: number, c: number) => solved.tailInverse[(r - self) * tail + (c - self)];
   let ss = 0;
-  if (withShift) {
-    // The residual RMS widens the position error; the significance test does not use it.
+  if (withShift || rmsToo) {
+    // The residual RMS widens the position error; the first step test does not use it.
     for (let i = 0; i < rows; i++) {
       let f = 0;
       for (let r = 0; r < m; r++) f += cols[r * rows + i] * coef[r];
@@ -231,7 +232,8 @@ export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhm
 /**
  * t-statistic of the step at sample `index` with steps at `neighboursV` (V, ascending, the
  * candidate itself not among them; those within `freeWithinV` with their positions and widths
- * free to first order):
+ * free to first order; with `quadratic` a u² background term over ±3 FWHM too; with `rmsSigma`
+ * (default: as `quadratic`) σ the larger of noiseA and the fit's residual RMS):
  * over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma, over the
  * window of {@link stepTestWindow}.
  */
@@ -246,19 +248,25 @@ export function stepSignificance(
   minPlainSigma: number,
   work: FitWorkspace,
   freeWithinV = 0,
+  quadratic = false,
+  rmsSigma = quadratic,
 ): number {
   const x0 = x[index];
-  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, windowV, freeWithinV);
-  const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0);
-  const plain = z(fitOver());
+  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, windowV, freeWithinV, rmsSigma);
+  // With `rmsSigma`, σ is the larger of the noise and the fit's residual RMS: where the local
+  // model misfits (a line shape or background it does not describe, seen at a low noise), the
+  // misfit is no step.
+  const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / ((rmsSigma ? Math.max(noiseA, fit.rms) : noiseA) * Math.sqrt(fit.stepVar)) : 0);
+  const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
+  const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
+  // With `quadratic` the plain window has the u² background term as well (a windowV of ±3 FWHM).
+  const plain = z(quadratic ? fitOver([x0 - W, x0 + W]) : fitOver());
   // A step significant over ±3 FWHM needs no longer window; one that does not stand at
   // minPlainSigma there (the pre-screen's level) is not tried again. A candidate with a neighbour
   // inside one FWHM shares that neighbour's (unfitted) step: a longer window would credit more of
   // it to the candidate, so its test stays plain.
-  const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
   if (plain >= minStepSigma || !(plain >= minPlainSigma) || neighbours.some((v) => Math.abs(v - x0) < fwhmV)) return plain;
   const windowV = stepTestWindow(x0, neighbours, fwhmV);
-  const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
   // Only where an edge moved (by more than a sample) is there a second fit.
   const sample = fwhmV / (2 * halfWidth);
   if (windowV[0] > x0 - W - sample && windowV[1] < x0 + W + sample) return plain;

@@ -13,6 +13,16 @@ export const SHOULDER_STEPS = Object.freeze({
   minDistanceFwhm: 1,
   /** … and at most this far from one (beside a stronger neighbour; 2 FWHM is where a Gaussian of equal height leaves a valley of its own). */
   maxDistanceFwhm: 2.5,
+  /**
+   * A shoulder's Gaussian height read from the curvature is at least this fraction of the nearest
+   * peak's prominence. The steps' model (Gaussian-broadened, position and width free to first
+   * order) describes a real line shape (thermal or lifetime broadening) only to a small fraction
+   * of a step (common practice, no source): below it a noise-free exact curve rounded to six
+   * digits showed "shoulders" of 1e-4 of its strong peaks. The curvature reads a shoulder low (the
+   * neighbour's convex tail adds to it: a 15 % step 1.1 FWHM beside a strong one reads 1.3 %),
+   * hence a floor well below the shoulders sought.
+   */
+  minHeightPerNeighbour: 0.005,
 });
 
 /**
@@ -30,6 +40,8 @@ export const SHOULDER_STEPS = Object.freeze({
  *     White noise of the current per sample, A.
  * keptIndices : readonly number[]
  *     Sample indices of the peaks kept, ascending.
+ * keptProminenceS : readonly number[]
+ *     Their prominences, S.
  * halfWidth : number
  *     Half the expected FWHM, samples (≥ 1).
  * minHeightS : number
@@ -65,14 +77,22 @@ export const SHOULDER_STEPS = Object.freeze({
  *    peak kept and at least minSeparationV from every one, and where the second difference is at
  *    most −2·minHeightS·(1 − e^(−(k·h)²/2s²)), its value at the centre of a Gaussian of height
  *    minHeightS (closed form; the screen of the maxima's prominence, applied to the curvature; a
- *    neighbour's convex tail only raises it). The FWHM there is the larger of the
+ *    neighbour's convex tail only raises it), and at least SHOULDER_STEPS.minHeightPerNeighbour (0.5 %)
+ *    of the nearest peak's prominence in the same measure. The FWHM there is the larger of the
  *    expected one and the peaks' median: where the expected width is measured short, a strong
  *    step wider than the fitted ones leaves residuals about one expected FWHM either side of it,
  *    which the first-order width columns of note 3 take up only in part.
- * 3. Each candidate, deepest first, is confirmed by the step test of findPeaks (note 3 there) with
- *    steps at the peaks kept, their positions free to first order (as in retestShortSteps), at the
- *    same threshold minStepSigma; one confirmed counts as a neighbour of the next. Noise minima of
- *    G'' carry no step and fail the test at the false-peak rate of the test itself.
+ * 3. The deepest candidate in each interval between two peaks kept (and beyond the outer ones) is
+ *    confirmed by the step test of findPeaks (note 3 there) with steps at the peaks kept, those
+ *    within 2 FWHM with their positions and widths free to first order (as in retestShortSteps),
+ *    and a u² background term over ±3 FWHM as well (a candidate found by curvature sits where a
+ *    curved background, e.g. a steep exponential, bends most against the line: without the term
+ *    such backgrounds gave "levels"), at the same threshold minStepSigma; one confirmed counts as
+ *    a neighbour of the next. Noise minima of G'' carry no step and fail the test at the
+ *    false-peak rate of the test itself.
+ * 4. A shoulder's prominence (and with it its SNR) is the curvature's Gaussian height, at most the
+ *    prominence of the peak beside it: it shows no maximum of its own there, so it stands out of
+ *    the dI/dV no more than that peak (the "faint-peaks" rule of noLevels reads the largest SNR).
  */
 export function shoulderSteps(
   biasV: Float64Array,
@@ -80,6 +100,7 @@ export function shoulderSteps(
   currentA: Float64Array,
   noiseA: number,
   keptIndices: readonly number[],
+  keptProminenceS: readonly number[],
   halfWidth: number,
   peakFwhmV: number,
   minHeightS: number,
@@ -113,7 +134,12 @@ export function shoulderSteps(
     const next = d2(i + 1);
     if (here <= maxD2 && here < 0 && here < prev && here <= next) {
       const d = nearest(biasV[i]);
-      if (d >= Math.max(SHOULDER_STEPS.minDistanceFwhm * fwhmV, minSeparationV) && d <= SHOULDER_STEPS.maxDistanceFwhm * fwhmV) candidates.push({ index: i, depth: here });
+      if (d >= Math.max(SHOULDER_STEPS.minDistanceFwhm * fwhmV, minSeparationV) && d <= SHOULDER_STEPS.maxDistanceFwhm * fwhmV) {
+        // At least a line-shape floor of the nearest peak's height (note 2).
+        let j = 0;
+        for (let q = 1; q < keptV.length; q++) if (Math.abs(keptV[q] - biasV[i]) < Math.abs(keptV[j] - biasV[i])) j = q;
+        if (-here >= SHOULDER_STEPS.minHeightPerNeighbour * keptProminenceS[j] * perHeight) candidates.push({ index: i, depth: here });
+      }
     }
     prev = here;
     here = next;
@@ -134,7 +160,7 @@ export function shoulderSteps(
   for (const c of candidates) {
     const x0 = biasV[c.index];
     if (nearest(x0) < Math.max(SHOULDER_STEPS.minDistanceFwhm * fwhmV, minSeparationV)) continue;
-    const t = stepSignificance(biasV, currentA, c.index, keptV, halfWidth, noiseA, minStepSigma, minPlainSigma, work, STEP_TEST_WINDOW.freeNeighbourFwhm * 2 * halfWidth * stepV);
+    const t = stepSignificance(biasV, currentA, c.index, keptV, halfWidth, noiseA, minStepSigma, minPlainSigma, work, STEP_TEST_WINDOW.freeNeighbourFwhm * 2 * halfWidth * stepV, true);
     if (!(t >= minStepSigma)) continue;
     accepted.push({ index: c.index, significance: t });
     let at = 0;
@@ -171,10 +197,16 @@ export function addShoulders(
   const at = (v: number) => Math.min(n - 1, Math.max(0, Math.round((v - biasV[0]) / stepV)));
   const widths = peaks.map((p) => p.fwhmV).sort((a, b) => a - b);
   const peakFwhmV = peaks.length >= 3 ? widths[widths.length >> 1] : 0;
-  const found = shoulderSteps(biasV, didvS, current.currentA, current.noiseA, peaks.map((p) => at(p.biasV)), halfWidth, peakFwhmV, minHeightS, minStepSigma, minPlainSigma, minSeparationV, work);
+  const found = shoulderSteps(biasV, didvS, current.currentA, current.noiseA, peaks.map((p) => at(p.biasV)), peaks.map((p) => p.prominenceS), halfWidth, peakFwhmV, minHeightS, minStepSigma, minPlainSigma, minSeparationV, work);
   if (!found.length) return { peaks, added: [] };
   const all = peaks.map((peak) => ({ peak, added: false }));
-  for (const f of found) all.push({ peak: shoulderPeak(biasV, didvS, stepV, f.index, f.significance, halfWidth, noiseS, floorV), added: true });
+  for (const f of found) {
+    // No higher than the peak whose flank it sits on (it shows no maximum of its own beside it):
+    // the curvature's estimate is capped at that peak's prominence.
+    let nearest = peaks[0];
+    for (const p of peaks) if (Math.abs(p.biasV - biasV[f.index]) < Math.abs(nearest.biasV - biasV[f.index])) nearest = p;
+    all.push({ peak: shoulderPeak(biasV, didvS, stepV, f.index, f.significance, halfWidth, noiseS, floorV, nearest.prominenceS), added: true });
+  }
   all.sort((a, b) => a.peak.biasV - b.peak.biasV);
   const added: number[] = [];
   all.forEach((o, k) => o.added && added.push(k));
@@ -184,15 +216,17 @@ export function addShoulders(
 /**
  * A shoulder as a peak: at its sample, the expected width, the height of a Gaussian from the
  * second difference at lag k = halfWidth/2 (closed form: D₂ = −2A·(1 − e^(−(k·h)²/2s²)) at the
- * centre of A·e^(−u²/2s²)), the step A·s·√(2π); the position σ the sampling's h/√12 with the
- * floor (V) in quadrature, until the refinement on the current replaces it.
+ * centre of A·e^(−u²/2s²)), at most maxProminenceS (S, default no cap: addShoulders passes the
+ * prominence of the peak the shoulder sits beside), the step A·s·√(2π); the position σ the
+ * sampling's h/√12 with the floor (V) in quadrature, until the refinement on the current replaces
+ * it.
  */
-export function shoulderPeak(biasV: Float64Array, g: Float64Array, stepV: number, index: number, significance: number, halfWidth: number, noiseS: number, floorV: number): Peak {
+export function shoulderPeak(biasV: Float64Array, g: Float64Array, stepV: number, index: number, significance: number, halfWidth: number, noiseS: number, floorV: number, maxProminenceS = Infinity): Peak {
   const k = Math.max(1, Math.round(halfWidth / 2));
   const fwhmV = 2 * halfWidth * stepV;
   const s = fwhmV / GAUSSIAN_FWHM_PER_SIGMA;
   const d2 = g[index + k] - 2 * g[index] + g[index - k];
-  const prominence = Math.max(0, -d2 / (2 * (1 - Math.exp(-((k * stepV) ** 2) / (2 * s * s)))));
+  const prominence = Math.min(maxProminenceS, Math.max(0, -d2 / (2 * (1 - Math.exp(-((k * stepV) ** 2) / (2 * s * s))))));
   return {
     biasV: biasV[index],
     biasUncertaintyV: Math.hypot(stepV / Math.sqrt(12), floorV),

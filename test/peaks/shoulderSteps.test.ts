@@ -53,7 +53,7 @@ describe("shoulderSteps(biasV, didvS, currentA, noiseA, keptIndices, halfWidth, 
     const maxima = [];
     for (let i = index(-3 * fw); i <= index(4 * fw); i++) if (didvS[i] > didvS[i - 1] && didvS[i] >= didvS[i + 1]) maxima.push(x[i]);
     expect(maxima.map((v) => Math.abs(v) < 0.1 * fw)).toEqual([true]);
-    const found = shoulderSteps(x, didvS, currentA, noiseA, [index(0)], halfWidth, 0, 1e-12, 5, 2, 0.02, work());
+    const found = shoulderSteps(x, didvS, currentA, noiseA, [index(0)], [strong / (s * Math.sqrt(2 * Math.PI))], halfWidth, 0, 1e-12, 5, 2, 0.02, work());
     expect(found.length).toBe(1);
     // The neighbour's tail adds its own curvature there: the minimum sits within FWHM/4, the
     // refinement on the current (findPeaks, below) brings the position to the step.
@@ -65,10 +65,10 @@ describe("shoulderSteps(biasV, didvS, currentA, noiseA, keptIndices, halfWidth, 
     expect(SHOULDER_STEPS.minDistanceFwhm).toBe(1);
     expect(SHOULDER_STEPS.maxDistanceFwhm).toBe(2.5);
     const close = ladder([0, 0.8 * fw], [strong, 0.3 * strong]);
-    expect(shoulderSteps(x, close.didvS, close.currentA, noiseA, [index(0)], halfWidth, 0, 1e-12, 5, 2, 0.02, work())).toEqual([]);
+    expect(shoulderSteps(x, close.didvS, close.currentA, noiseA, [index(0)], [strong / (s * Math.sqrt(2 * Math.PI))], halfWidth, 0, 1e-12, 5, 2, 0.02, work())).toEqual([]);
     // The peaks' own FWHM, where larger than the expected one, sets the distances: at 1.5 × the
     // expected width the shoulder at 1.1 expected FWHM is inside the first peak's reach.
-    expect(shoulderSteps(x, didvS, currentA, noiseA, [index(0)], halfWidth, 1.5 * fw, 1e-12, 5, 2, 0.02, work())).toEqual([]);
+    expect(shoulderSteps(x, didvS, currentA, noiseA, [index(0)], [strong / (s * Math.sqrt(2 * Math.PI))], halfWidth, 1.5 * fw, 1e-12, 5, 2, 0.02, work())).toEqual([]);
   });
 
   it("finds no shoulder on white noise beside one step (Monte Carlo, 100 seeded draws; bound: common practice (no source), at most 0.05 per curve)", () => {
@@ -81,7 +81,8 @@ describe("shoulderSteps(biasV, didvS, currentA, noiseA, keptIndices, halfWidth, 
       // A central difference over ±10 samples stands in for the smoothed derivative.
       const g = current.map((_, i) => (current[Math.min(i + 10, x.length - 1)] - current[Math.max(i - 10, 0)]) / (20 * h));
       const noiseS = (sigmaA * Math.SQRT2) / (20 * h);
-      found += shoulderSteps(x, g, current, sigmaA, [index(0)], halfWidth, 0, 3 * noiseS, 5, 2, 0.025, work()).length;
+      // No line-shape floor here ([0]): the curvature screen and the step test alone.
+      found += shoulderSteps(x, g, current, sigmaA, [index(0)], [0], halfWidth, 0, 3 * noiseS, 5, 2, 0.025, work()).length;
     }
     expect(found).toBeLessThanOrEqual(5);
   });
