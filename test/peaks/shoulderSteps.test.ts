@@ -62,13 +62,23 @@ describe("shoulderSteps(biasV, didvS, currentA, noiseA, keptIndices, halfWidth, 
   });
 
   it("does not search within one FWHM of a peak kept, nor beyond 2.5 FWHM (shoulderSteps notes 2)", () => {
-    expect(SHOULDER_STEPS.minDistanceFwhm).toBe(1);
-    expect(SHOULDER_STEPS.maxDistanceFwhm).toBe(2.5);
+    // The frozen limits, locked (derived in shoulderSteps' notes; the floor common practice, no source).
+    expect(SHOULDER_STEPS).toEqual({ minDistanceFwhm: 1, maxDistanceFwhm: 2.5, minHeightPerNeighbour: 0.005 });
+    expect(Object.isFrozen(SHOULDER_STEPS)).toBe(true);
     const close = ladder([0, 0.8 * fw], [strong, 0.3 * strong]);
     expect(shoulderSteps(x, close.didvS, close.currentA, noiseA, [index(0)], [strong / (s * Math.sqrt(2 * Math.PI))], halfWidth, 0, 1e-12, 5, 2, 0.02, work())).toEqual([]);
     // The peaks' own FWHM, where larger than the expected one, sets the distances: at 1.5 × the
     // expected width the shoulder at 1.1 expected FWHM is inside the first peak's reach.
     expect(shoulderSteps(x, didvS, currentA, noiseA, [index(0)], [strong / (s * Math.sqrt(2 * Math.PI))], halfWidth, 1.5 * fw, 1e-12, 5, 2, 0.02, work())).toEqual([]);
+  });
+
+  it("takes no shoulder below SHOULDER_STEPS.minHeightPerNeighbour of the nearest peak in the curvature's measure, however significant its step (shoulderSteps notes 2)", () => {
+    // A step of 0.5 % of its neighbour 1.8 FWHM away, with almost no noise: t far above 5, and a
+    // curvature minimum of its own; found without the floor, not with it.
+    const tiny = ladder([0, 1.8 * fw], [strong, 0.005 * strong]);
+    const sigma = (0.005 * strong) / 1000;
+    expect(shoulderSteps(x, tiny.didvS, tiny.currentA, sigma, [index(0)], [0], halfWidth, 0, 1e-30, 5, 2, 0.02, work()).length).toBe(1);
+    expect(shoulderSteps(x, tiny.didvS, tiny.currentA, sigma, [index(0)], [strong / (s * Math.sqrt(2 * Math.PI))], halfWidth, 0, 1e-30, 5, 2, 0.02, work())).toEqual([]);
   });
 
   it("finds no shoulder on white noise beside one step (Monte Carlo, 100 seeded draws; bound: common practice (no source), at most 0.05 per curve)", () => {
