@@ -7,6 +7,8 @@ import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
 import { splitMerged } from "./splitPeaks.ts";
+import { retestShortSteps, type ShortStep } from "./retestShortSteps.ts";
+import { addShoulders } from "./shoulderSteps.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -224,6 +226,26 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    half an expected FWHM apart (closer, two steps differ from one wider step by their fourth
  *    moment alone) and minSeparationMV from every other peak. Their positions are that fit's (not
  *    refined again), σ from its covariance with the floor of note 6.
+ * 8. Candidates short of the step test, tested again (with the current and refineOnCurrent;
+ *    `lib/peaks/retestShortSteps.ts`): the test of note 3 fits a step at every prominent maximum
+ *    near a candidate, most of them noise, and each such column 1–3 FWHM away is nearly collinear
+ *    with the candidate's step and inflates its standard error. After the selection, each rejected
+ *    candidate (most prominent first) that had a neighbour not kept within the test's reach, and
+ *    lies at least one FWHM and minSeparationMV from every peak kept, is tested again with steps at
+ *    the kept peaks and at the rejected candidates more prominent than it (not at the weaker
+ *    maxima, mostly noise), those within 2 FWHM with their position and width free to first order
+ *    (φ and z·φ columns: a strong neighbour's position or width error would otherwise leave a
+ *    residual the candidate's step takes up), at the same threshold; a candidate that passes is
+ *    kept and counts as a neighbour of the next.
+ * 9. Shoulders (with the current and refineOnCurrent and expectedFwhmV; `lib/peaks/shoulderSteps.ts`):
+ *    a level with no maximum of its own beside a stronger neighbour still makes a minimum of the
+ *    conductance's curvature. The second difference at lag FWHM/4 is searched for minima 1–2.5
+ *    FWHM from the nearest peak (the larger of expectedFwhmV and the peaks' median FWHM) and below
+ *    what a Gaussian of height minProminenceSigma·noiseS gives; the deepest in each interval
+ *    between peaks is tested as in note 8 (with a u² background term as well) against the peaks
+ *    refined on the current (note 4) and kept at t ≥ minStepSigma, then refined itself. Its height
+ *    and step are those of a Gaussian with that curvature at the expected width, its prominence at
+ *    most that of the peak beside it.
  *
  * References
  * ----------
@@ -318,6 +340,7 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   );
   const indices = prominent.map((q) => q.index);
   const work: FitWorkspace = { cols: new Float64Array(0) };
+  const shortOfStep: ShortStep[] = [];
   prominent.forEach((c, k) => {
     if (current) {
       // Cheap necessary condition first: the mean current must rise across the peak by more than
@@ -335,9 +358,11 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
         belowStepSignificance++;
         return;
       }
-      c.significance = stepSignificance(biasV, current.currentA, indices, k, halfWidths[k], current.noiseA, minStepSigma!, FIND_PEAKS_DEFAULTS.preScreenSigma, work);
+      const neighbours = indices.filter((_, j) => j !== k).map((j) => biasV[j]);
+      c.significance = stepSignificance(biasV, current.currentA, c.index, neighbours, halfWidths[k], current.noiseA, minStepSigma!, FIND_PEAKS_DEFAULTS.preScreenSigma, work);
       if (!(c.significance >= minStepSigma!)) {
         belowStepSignificance++;
+        shortOfStep.push({ index: c.index, prominence: c.prominence, halfWidth: hw });
         return;
       }
     }
@@ -351,12 +376,24 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
     else kept.push(c);
   }
   kept.sort((a, b) => a.index - b.index);
+  // 3b. Candidates short of the step test tested again against the peaks kept (noise maxima no
+  // longer fitted as neighbours); only where positions are refined on the current (note 8).
+  const onCurrent = current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
+  if (current && onCurrent && shortOfStep.length && kept.length) {
+    const again = retestShortSteps(biasV, current.currentA, current.noiseA, shortOfStep, indices, kept.map((c) => c.index), minStepSigma!, FIND_PEAKS_DEFAULTS.preScreenSigma, minSeparationMV / 1000, work);
+    for (const a of again) {
+      const c = prominent.find((q) => q.index === a.index)!;
+      c.significance = a.significance;
+      kept.push(c);
+      belowStepSignificance--;
+    }
+    if (again.length) kept.sort((a, b) => a.index - b.index);
+  }
 
   // 4–6. Refinement.
   let peaks = kept.map((c) => refine(biasV, didvS, stepV, c, noiseS, options));
   // 7. Peaks wider than expected: two steps under one peak (positions from their own fit).
   let fromSplit: boolean[] | null = null;
-  const onCurrent = current !== undefined && (options.refineOnCurrent ?? FIND_PEAKS_DEFAULTS.refineOnCurrent);
   if (current && onCurrent && peaks.length) {
     const split = splitMerged(biasV, didvS, current, peaks, kept, options.expectedFwhmV, minStepSigma!, minSeparationMV, FIND_PEAKS_DEFAULTS.positionFloorPerFwhm);
     peaks = split.peaks;
@@ -364,12 +401,21 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
   }
   if (current && onCurrent) {
     const halfWidthOf = (k: number) => Math.max(1, Math.round(expectedHalfWidth ?? peaks[k].fwhmV / (2 * stepV)));
-    let open = peaks.map((_, k) => k);
-    if (fromSplit) open = open.filter((k) => !fromSplit![k]);
-    for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && open.length; iteration++) {
-      const step = refineOnCurrent(biasV, current, peaks, open, halfWidthOf, work);
-      peaks = step.peaks;
-      open = open.filter((k) => !step.settled.includes(k));
+    const refineSome = (which: number[]) => {
+      for (let iteration = 0; iteration < FIND_PEAKS_DEFAULTS.refineIterations && which.length; iteration++) {
+        const step = refineOnCurrent(biasV, current, peaks, which, halfWidthOf, work);
+        peaks = step.peaks;
+        which = which.filter((k) => !step.settled.includes(k));
+      }
+    };
+    refineSome(peaks.map((_, k) => k).filter((k) => !fromSplit || !fromSplit[k]));
+    // 9. Shoulders: minima of the curvature beside the refined peaks, confirmed by the step test,
+    // then refined themselves.
+    if (expectedHalfWidth !== null && peaks.length) {
+      const floorV = FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * options.expectedFwhmV!;
+      const more = addShoulders(biasV, didvS, current, peaks, Math.max(1, Math.round(expectedHalfWidth)), noiseS, threshold, minStepSigma!, FIND_PEAKS_DEFAULTS.preScreenSigma, minSeparationMV / 1000, floorV, work);
+      peaks = more.peaks;
+      refineSome(more.added);
     }
   }
   return {

@@ -23,7 +23,7 @@ export interface LocalStepFit {
   /** Shift of the step position, V (with `withShift`), and Var(shift)/σ². */
   shift: number;
   shiftVar: number;
-  /** RMS residual of the fit, A (with `withShift`; 0 otherwise). */
+  /** RMS residual of the fit, A (with `withShift` or `rmsToo`; 0 otherwise). */
   rms: number;
 }
 
@@ -37,7 +37,9 @@ export interface LocalStepFit {
  * δ = −d·s/c (one Gauss–Newton step).
  *
  * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}) and adds a
- * quadratic term c₂·u² to the background.
+ * quadratic term c₂·u² to the background. `freeWithinV` (V, default 0: none) adds a φ and a z·φ
+ * column for every neighbour's step within that distance of x₀ (its position and width free to
+ * first order: ∂Φ/∂x_j = −φ/s, ∂Φ/∂s = −z·φ/s, z = (x − x_j)/s).
  */
 export function localStepFit(
   x: Float64Array,
@@ -49,6 +51,8 @@ export function localStepFit(
   withShift: boolean,
   work: FitWorkspace,
   windowV?: readonly [number, number],
+  freeWithinV = 0,
+  rmsToo = false,
 ): LocalStepFit | null {
   const n = x.length;
   const h = (x[n - 1] - x[0]) / (n - 1);
@@ -65,7 +69,11 @@ export function localStepFit(
   // Over a moved (longer) window the background gets its next Taylor term, u²: a curved background
   // (an exponential rise) that a line follows over ±3 FWHM does not stay straight over ±6.
   const bg = windowV ? 3 : 2;
-  const self = bg + steps.length;
+  // Each neighbour within `freeWithinV` also gets its φ and z·φ columns: its position and width
+  // free to first order (∂Φ/∂x_j = −φ/s, ∂Φ/∂s = −z·φ/s).
+  const free = freeWithinV > 0 ? steps.filter((v) => Math.abs(v - x0) <= freeWithinV) : [];
+  const nStepCols = steps.length + 2 * free.length;
+  const self = bg + nStepCols;
   const m = self + 1 + (withShift ? 1 : 0);
   // Design matrix, column by column (each Φ evaluated once).
   const rows = hi - lo + 1;
@@ -77,6 +85,12 @@ export function localStepFit(
     cols[rows + i] = u;
     if (bg === 3) cols[2 * rows + i] = u * u;
     for (let j = 0; j < steps.length; j++) cols[(bg + j) * rows + i] = normalCdfFast((x[lo + i] - steps[j]) / s);
+    for (let j = 0; j < free.length; j++) {
+      const z = (x[lo + i] - free[j]) / s;
+      const density = gaussianFast(z) * INV_SQRT_2PI;
+      cols[(bg + steps.length + j) * rows + i] = density;
+      cols[(bg + steps.length + free.length + j) * rows + i] = z * density;
+    }
     cols[self * rows + i] = normalCdfFast(u / s);
     if (withShift) cols[(self + 1) * rows + i] = gaussianFast(u / s) * INV_SQRT_2PI;
   }
@@ -117,8 +131,8 @@ export function localStepFit(
   const coef = solved.x;
   const inv = (r: number, c: number) => solved.tailInverse[(r - self) * tail + (c - self)];
   let ss = 0;
-  if (withShift) {
-    // The residual RMS widens the position error; the significance test does not use it.
+  if (withShift || rmsToo) {
+    // The residual RMS widens the position error; the first step test does not use it.
     for (let i = 0; i < rows; i++) {
       let f = 0;
       for (let r = 0; r < m; r++) f += cols[r * rows + i] * coef[r];
@@ -148,6 +162,13 @@ export const STEP_TEST_WINDOW = Object.freeze({
   beyondFwhm: 2,
   /** The edge never moves further than this from the tested peak (twice the plain window). */
   maxHalfWidthFwhm: 6,
+  /**
+   * A second test (of a candidate short of the first, or of a shoulder) frees the position and
+   * width of each neighbour within this distance to first order: a neighbour's misfit leaves a
+   * residual of φ or z·φ shape within about ±1 FWHM of it (|z| ≲ 2.4), which a step 1–2 FWHM away
+   * would take up.
+   */
+  freeNeighbourFwhm: 2,
 });
 
 /**
@@ -209,34 +230,43 @@ export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhm
 }
 
 /**
- * t-statistic of the step at candidate k (neighbours at the other candidates, positions
- * ascending): over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma,
- * over the window of {@link stepTestWindow}.
+ * t-statistic of the step at sample `index` with steps at `neighboursV` (V, ascending, the
+ * candidate itself not among them; those within `freeWithinV` with their positions and widths
+ * free to first order; with `quadratic` a u² background term over ±3 FWHM too; with `rmsSigma`
+ * (default: as `quadratic`) σ the larger of noiseA and the fit's residual RMS):
+ * over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma, over the
+ * window of {@link stepTestWindow}.
  */
 export function stepSignificance(
   x: Float64Array,
   current: Float64Array,
-  indices: number[],
-  k: number,
+  index: number,
+  neighbours: readonly number[],
   halfWidth: number,
   noiseA: number,
   minStepSigma: number,
   minPlainSigma: number,
   work: FitWorkspace,
+  freeWithinV = 0,
+  quadratic = false,
+  rmsSigma = quadratic,
 ): number {
-  const x0 = x[indices[k]];
-  const neighbours = indices.filter((_, j) => j !== k).map((j) => x[j]);
-  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, indices[k], x0, neighbours, halfWidth, false, work, windowV);
-  const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / (noiseA * Math.sqrt(fit.stepVar)) : 0);
-  const plain = z(fitOver());
+  const x0 = x[index];
+  const fitOver = (windowV?: readonly [number, number]) => localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, windowV, freeWithinV, rmsSigma);
+  // With `rmsSigma`, σ is the larger of the noise and the fit's residual RMS: where the local
+  // model misfits (a line shape or background it does not describe, seen at a low noise), the
+  // misfit is no step.
+  const z = (fit: LocalStepFit | null) => (fit && fit.stepVar > 0 ? fit.step / ((rmsSigma ? Math.max(noiseA, fit.rms) : noiseA) * Math.sqrt(fit.stepVar)) : 0);
+  const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
+  const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
+  // With `quadratic` the plain window has the u² background term as well (a windowV of ±3 FWHM).
+  const plain = z(quadratic ? fitOver([x0 - W, x0 + W]) : fitOver());
   // A step significant over ±3 FWHM needs no longer window; one that does not stand at
   // minPlainSigma there (the pre-screen's level) is not tried again. A candidate with a neighbour
   // inside one FWHM shares that neighbour's (unfitted) step: a longer window would credit more of
   // it to the candidate, so its test stays plain.
-  const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
   if (plain >= minStepSigma || !(plain >= minPlainSigma) || neighbours.some((v) => Math.abs(v - x0) < fwhmV)) return plain;
   const windowV = stepTestWindow(x0, neighbours, fwhmV);
-  const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
   // Only where an edge moved (by more than a sample) is there a second fit.
   const sample = fwhmV / (2 * halfWidth);
   if (windowV[0] > x0 - W - sample && windowV[1] < x0 + W + sample) return plain;

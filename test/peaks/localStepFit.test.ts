@@ -92,4 +92,19 @@ describe("localStepFit(x, current, p, x0, neighboursV, halfWidth, withShift, wor
     // Without windowV the fit is the plain one.
     expectClose(localStepFit(x, current, p, 0, neighbours, halfWidth, false, work)!.stepVar, plain, { rtol: 1e-4, what: "Var(step)/σ², plain window" });
   });
+
+  it("with freeWithinV, a neighbour fitted 0.1 FWHM off its true position biases the tested step to second order only (derived: Φ((x − x_j − δ)/s) = Φ − (δ/s)·φ − (δ²/2s²)·z·φ + O(δ³), the φ and z·φ columns take the first two terms)", () => {
+    expect(STEP_TEST_WINDOW.freeNeighbourFwhm).toBe(2);
+    const work: FitWorkspace = { cols: new Float64Array(0) };
+    // Two steps 1.5 FWHM apart; the neighbour's step is fitted at 1.6 FWHM.
+    const pair = x.map((v) => 1e-12 + 1e-11 * phi((v - 1.5 * fw) / s) + 2e-12 * phi(v / s));
+    const plain = localStepFit(x, pair, p, 0, [1.6 * fw], halfWidth, false, work)!;
+    const free = localStepFit(x, pair, p, 0, [1.6 * fw], halfWidth, false, work, undefined, 2 * fw)!;
+    const biasPlain = Math.abs(plain.step - 2e-12), biasFree = Math.abs(free.step - 2e-12);
+    expect(biasPlain).toBeGreaterThan(0.05 * 2e-12);
+    // Second order in δ/s = 0.1·2.355: about (δ/s)² ≈ 5 % of the first-order bias, or less.
+    expect(biasFree).toBeLessThan(0.1 * biasPlain);
+    // Beyond freeWithinV the neighbour gets no free columns: the plain fit again.
+    expectClose(localStepFit(x, pair, p, 0, [1.6 * fw], halfWidth, false, work, undefined, 1.5 * fw)!.step, plain.step, { rtol: 1e-12 });
+  });
 });
