@@ -30,9 +30,9 @@ const curves = option("--curve", [join("sample-curves", "dot-01.csv"), join("sam
  * Wall time of one whole process, ms, and with `cpu` also its CPU time (all threads, through the
  * preloaded probe of bench/processCpu.ts; NaN without it); throws when it fails.
  */
-function once(argv: string[], cpu = false): [number, number] {
+function once(argv: string[], cpu = false, env: Record<string, string> = {}): [number, number] {
   const t0 = process.hrtime.bigint();
-  const r = spawnSync(process.execPath, [...(cpu ? cpuProbeArgs() : []), ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26 });
+  const r = spawnSync(process.execPath, [...(cpu ? cpuProbeArgs() : []), ...argv], { cwd: ROOT, encoding: "utf8", maxBuffer: 1 << 26, env: { ...process.env, ...env } });
   const ms = Number(process.hrtime.bigint() - t0) / 1e6;
   const cpuMs = cpu ? cpuMsFrom(r.stderr) : NaN;
   if (r.status !== 0 || (cpu && !Number.isFinite(cpuMs))) throw new Error(`node ${argv.join(" ")} exited with ${r.status}: ${r.stderr}`);
@@ -69,21 +69,38 @@ measure("dotspec --version", [BIN, "--version"], null);
 measure("dotspec --help", [BIN, "--help"], 120);
 for (const curve of curves) measure(`dotspec analyze --json ${curve}`, [BIN, "analyze", curve, "--json"], 200);
 
-// bin/dotspec.js raises V8's interrupt budget (the threshold of the optimising compiler) × 16 for
-// short runs, such as these; the same commands at V8's default (bin/dotspec.js leaves a budget
-// given on the command line), in wall time and in CPU time of the whole process (all threads, the
-// compiler's included), run alternately so that both see the same load.
-const DEFAULT_BUDGET = "--interrupt-budget=67584";
-console.log("\nThe optimising compiler's threshold: bin/dotspec.js's (× 16) against V8's default, alternating; median wall / CPU time:");
-for (const argv of [...curves.map((c) => ["analyze", c, "--json"]), ["fit", curves[0], "--json"]]) {
-  const ours: [number, number][] = [], v8default: [number, number][] = [];
-  for (let k = 0; k < warmup + runs; k++) {
-    const a = once([BIN, ...argv], true), b = once([DEFAULT_BUDGET, BIN, ...argv], true);
-    if (k >= warmup) ours.push(a), v8default.push(b);
+/** Runs two variants of each command alternately (so that both see the same load) and prints median wall / CPU time of the whole process (all threads). */
+function alternate(title: string, names: [string, string], variants: [(argv: string[]) => [number, number], (argv: string[]) => [number, number]]) {
+  console.log(`\n${title}; median wall / CPU time:`);
+  for (const argv of [...curves.map((c) => ["analyze", c, "--json"]), ["fit", curves[0], "--json"]]) {
+    const a: [number, number][] = [], b: [number, number][] = [];
+    for (let k = 0; k < warmup + runs; k++) {
+      const x = variants[0](argv), y = variants[1](argv);
+      if (k >= warmup) a.push(x), b.push(y);
+    }
+    const show = (xs: [number, number][]) => `${median(xs.map((x) => x[0])).toFixed(0).padStart(4)} / ${median(xs.map((x) => x[1])).toFixed(0).padStart(4)} ms`;
+    console.log(`  dotspec ${argv.join(" ").padEnd(44)} ${names[0]}: ${show(a)}   ${names[1]}: ${show(b)}`);
   }
-  const show = (xs: [number, number][]) => `${median(xs.map((x) => x[0])).toFixed(0).padStart(4)} / ${median(xs.map((x) => x[1])).toFixed(0).padStart(4)} ms`;
-  console.log(`  dotspec ${argv.join(" ").padEnd(44)} × 16: ${show(ours)}   default: ${show(v8default)}`);
 }
+
+// A short run (such as these) runs the command's single-file bundle with the V8 code cache the
+// build wrote (bin/dotspec.js, scripts/commandBundle.mjs); against the ES modules compiled at
+// each start (DOTSPEC_CODE_CACHE=off).
+alternate("The code cache: the single-file bundle with it against the ES modules", ["cache", "modules"], [
+  (argv) => once([BIN, ...argv], true),
+  (argv) => once([BIN, ...argv], true, { DOTSPEC_CODE_CACHE: "off" }),
+]);
+
+// bin/dotspec.js raises V8's interrupt budget (the threshold of the optimising compiler) × 16 for
+// short runs; the same commands at V8's default (bin/dotspec.js leaves a budget given on the
+// command line). Both from the ES modules: the code cache holds only under the flags it was
+// written with.
+const DEFAULT_BUDGET = "--interrupt-budget=67584";
+const modules = { DOTSPEC_CODE_CACHE: "off" };
+alternate("The optimising compiler's threshold: bin/dotspec.js's (× 16) against V8's default, ES modules", ["× 16", "default"], [
+  (argv) => once([BIN, ...argv], true, modules),
+  (argv) => once([DEFAULT_BUDGET, BIN, ...argv], true, modules),
+]);
 
 console.log("\nImport time in a fresh process (median of 5), what a command pays before its work:");
 for (const [name, spec] of [

@@ -71,6 +71,7 @@ const bundled = join(dist, ".cli-bundle");
 rmSync(bundled, { recursive: true, force: true });
 const esbuild = await import("esbuild");
 const { flattenBarrels } = await import("./flattenBarrels.mjs");
+const { bundleCommandCjs, writeCommandCache, COMMAND_CJS } = await import("./commandBundle.mjs");
 try {
   await esbuild.build({
     entryPoints: Object.fromEntries(["main", "analyzeWorker", "gridWorker"].map((name) => [name, join(cli, `${name}.js`)])),
@@ -90,6 +91,9 @@ try {
     // what each command uses (scripts/flattenBarrels.mjs).
     plugins: [flattenBarrels(cli)],
   });
+  // 5. The command once more as one CommonJS file, for short runs with a code cache
+  //    (scripts/commandBundle.mjs says why; bin/dotspec.js chooses).
+  await bundleCommandCjs(esbuild, root, dist, join(cli, "main.js"), join(bundled, COMMAND_CJS));
 } catch (err) {
   console.error(`build: bundling the command failed: ${err instanceof Error ? err.message : err}`);
   process.exit(1);
@@ -97,4 +101,18 @@ try {
 rmSync(cli, { recursive: true, force: true });
 renameSync(bundled, cli);
 const chunks = readdirSync(cli).filter((f) => f.endsWith(".js")).length;
-console.log(`build: dist/ written (${declarations.filter((p) => !p.startsWith(cli)).length} declaration files; the command in ${chunks} files)`);
+console.log(`build: dist/ written (${declarations.filter((p) => !p.startsWith(cli)).length} declaration files; the command in ${chunks} files and ${COMMAND_CJS})`);
+
+// 6. The code cache, from one short run on a bundled sample curve (absent from a source tree
+//    without sample-curves/: the command then compiles at each start, as it would anyway).
+const sample = join(root, "sample-curves", "dot-05.dat");
+if (existsSync(sample)) {
+  try {
+    console.log(`build: ${writeCommandCache(root, sample).replace(/^dotspec: /, "")}`);
+  } catch (err) {
+    console.error(`build: ${err instanceof Error ? err.message : err}`);
+    process.exit(1);
+  }
+} else {
+  console.log(`build: no code cache (sample-curves/dot-05.dat not here)`);
+}

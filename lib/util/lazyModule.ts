@@ -56,10 +56,47 @@ const requireHere: RequireFn | null =
  * ```
  */
 export async function lazyModule<T>(specifier: string, format: "commonjs" | "module", load: () => Promise<T>): Promise<() => T> {
+  if (canRequire(format)) return lazyModuleNow<T>(specifier, format);
+  const loaded = await load();
+  return () => loaded;
+}
+
+/** Whether `require` loads a dependency of this format synchronously here. */
+const canRequire = (format: "commonjs" | "module") => requireHere !== null && (format === "commonjs" || nodeProcess?.features?.require_module === true);
+
+/**
+ * The getter `lazyModule` would give, made at once: for the command's CommonJS bundle, where a
+ * module cannot wait at its top level. The build (scripts/build.mjs) puts it in place of
+ * `await lazyModule(…)` in that bundle only; the library's own modules keep `lazyModule`.
+ *
+ * Parameters
+ * ----------
+ * specifier : string
+ *     The package name, e.g. `"ml-matrix"`.
+ * format : "commonjs" | "module"
+ *     What `require(specifier)` loads (see `lazyModule`).
+ *
+ * Returns
+ * -------
+ * () => T
+ *     Loads the dependency with `require` on its first call; the same object on every call.
+ *
+ * Notes
+ * -----
+ * Throws where `require` cannot load the dependency synchronously (no `process.getBuiltinModule`,
+ * or an ES module without `require(esm)`); bin/dotspec.js runs the bundle only where both hold.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const mathjs = lazyModuleNow<typeof import("mathjs")>("mathjs", "commonjs");
+ * mathjs().evaluate("1 + 2"); // => 3
+ * ```
+ */
+export function lazyModuleNow<T>(specifier: string, format: "commonjs" | "module"): () => T {
   const require = requireHere;
-  if (require === null || (format === "module" && nodeProcess?.features?.require_module !== true)) {
-    const loaded = await load();
-    return () => loaded;
+  if (require === null || !canRequire(format)) {
+    throw new Error(`lazyModuleNow: ${specifier} cannot be loaded synchronously here (needs Node's require${format === "module" ? " of ES modules, Node ≥ 20.19" : ""})`);
   }
   let loaded: T | undefined;
   return () => (loaded ??= require(specifier) as T);

@@ -76,7 +76,17 @@ describe("node bin/dotspec.js", () => {
       join(dir, "hooks.mjs"),
       'export async function resolve(s, c, next) { if (/^(jsdom|@observablehq\\/plot)(\\/|$)/.test(s)) throw new Error("blocked " + s); return next(s, c); }\n',
     );
-    writeFileSync(join(dir, "block.mjs"), 'import { register } from "node:module"; register("./hooks.mjs", import.meta.url);\n');
+    // …and a `require` hook as well: a short run loads packages from the single-file bundle with `require`.
+    writeFileSync(
+      join(dir, "block.mjs"),
+      [
+        'import Module, { register } from "node:module";',
+        'register("./hooks.mjs", import.meta.url);',
+        "const load = Module._load;",
+        'Module._load = function (request, ...rest) { if (/^(jsdom|@observablehq\\/plot)(\\/|$)/.test(request)) throw new Error("blocked " + request); return load.call(this, request, ...rest); };',
+        "",
+      ].join("\n"),
+    );
     const withHook = (args: string[]) =>
       exec(process.execPath, ["--import", join(dir, "block.mjs"), BIN, ...args], { cwd: dir }).then(
         () => 0,
@@ -89,3 +99,37 @@ describe("node bin/dotspec.js", () => {
     expect((out as { stderr: string }).stderr).toMatch(/blocked (jsdom|@observablehq\/plot)/);
   });
 });
+
+describe("node bin/dotspec.js: a short run from the single-file bundle and its code cache", () => {
+  // Expected values by construction: the bundle and the ES modules are two builds of the same
+  // sources (scripts/build.mjs), so every output must agree to the byte; the cache is V8's own.
+  const SAMPLE = fileURLToPath(new URL("../../sample-curves/dot-01.csv", import.meta.url));
+  const OTHER = fileURLToPath(new URL("../../sample-curves/dot-04.csv", import.meta.url));
+  const requiresEsm = (process as { features: { require_module?: boolean } }).features.require_module === true;
+  const run = (args: string[], mode: "check" | "off") => runNode([BIN, ...args], process.cwd(), { NO_COLOR: "1", DOTSPEC_CODE_CACHE: mode });
+
+  it("analyze --json and fit --json use the cache the build wrote and print what the ES modules print", async () => {
+    for (const args of [["analyze", SAMPLE, "--json"], ["fit", SAMPLE, "--json"], ["analyze", SAMPLE, OTHER, "--json", "--jobs", "2"]]) {
+      const [cached, modules] = await Promise.all([run(args, "check"), run(args, "off")]);
+      expect(cached.code, args.join(" ")).toBe(0);
+      expect(cached.stdout, args.join(" ")).toBe(modules.stdout);
+      expect(cached.stderr, args.join(" ")).toBe((requiresEsm ? "dotspec: code cache used\n" : "") + modules.stderr);
+    }
+  });
+
+  it("--help and a folder (a batch) run the ES modules: no bundle, no cache", async () => {
+    const help = await run(["--help"], "check");
+    expect(help.code).toBe(0);
+    expect(help.stderr).toBe("");
+    const folder = await run(["analyze", tempDirWith(SAMPLE), "--json"], "check");
+    expect(folder.code).toBe(0);
+    expect(folder.stderr).not.toMatch(/code cache/);
+  });
+});
+
+/** A temporary folder holding a copy of `file`. */
+function tempDirWith(file: string): string {
+  const dir = tempDir();
+  writeFileSync(join(dir, "dot.csv"), readFileSync(file));
+  return dir;
+}

@@ -57,6 +57,13 @@ function blocker(name: string, pattern: string, definitions: string | null): str
 }
 
 const node = (args: string[]) => runNode(args, dir);
+/**
+ * The same through the command's ES modules (dist/cli/main.js and its chunks): a short `analyze`
+ * or `fit` otherwise runs the single-file bundle with its code cache (bin/dotspec.js), where the
+ * library is one file and "which modules loaded" has no meaning; --help, --version and batches
+ * always take this path.
+ */
+const nodeModules = (args: string[]) => runNode(args, dir, { NO_COLOR: "1", DOTSPEC_CODE_CACHE: "off" });
 
 describe("the built command's start-up", () => {
   it("--help and --version load neither the library nor any heavy dependency", async () => {
@@ -67,26 +74,28 @@ describe("the built command's start-up", () => {
     expect(help.stdout).toMatch(/^Usage: dotspec /);
     expect((await node(["--import", preload, BIN, "--version"])).code).toBe(0);
     // …and the block bites as soon as a command needs the library.
-    const analyze = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
+    const analyze = await nodeModules(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
     expect(analyze.code).not.toBe(0);
     expect(analyze.stderr).toMatch(/blocked the library/);
   });
 
-  it("analyze --json loads none of jsdom, Observable Plot, mathjs, ml-matrix, the Levenberg–Marquardt solver, cli-progress", async () => {
+  it("analyze --json loads none of jsdom, Observable Plot, mathjs, ml-matrix, the Levenberg–Marquardt solver, cli-progress, from the single-file bundle and from the ES modules alike", async () => {
     const preload = blocker("heavy", HEAVY, null);
-    const r = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
-    expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
-    expect(r.code).toBe(0);
-    expect(JSON.parse(r.stdout)).toHaveLength(1);
+    for (const run of [node, nodeModules]) {
+      const r = await run(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
+      expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
+      expect(r.code).toBe(0);
+      expect(JSON.parse(r.stdout)).toHaveLength(1);
+    }
   });
 
   it("analyze --json loads no code of the model fit, the size series or the grid maps; --compare-models loads the fit", async () => {
     const preload = blocker("parts", HEAVY, "fitCurve|sizeSeries|analyzeGrid");
-    const r = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
+    const r = await nodeModules(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
     expect(r.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
     expect(r.code).toBe(0);
     // …and the block bites where the fit is needed.
-    const compared = await node(["--import", preload, BIN, "analyze", SAMPLE, "--json", "--compare-models", "all"]);
+    const compared = await nodeModules(["--import", preload, BIN, "analyze", SAMPLE, "--json", "--compare-models", "all"]);
     expect(compared.code).not.toBe(0);
     expect(compared.stderr).toMatch(/blocked the library/);
   });

@@ -91,7 +91,7 @@ describe("npm pack", () => {
     const paths = packed.map((f) => f.path).sort();
     const allowed = (p: string) => p.startsWith("dist/") || ["bin/dotspec.js", "README.md", "LICENSE", "package.json"].includes(p);
     expect(paths.filter((p) => !allowed(p))).toEqual([]);
-    for (const needed of ["dist/index.js", "dist/index.d.ts", "dist/core.js", "dist/core.d.ts", "dist/cli/main.js", "dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "bin/dotspec.js", "README.md", "LICENSE", "package.json"]) {
+    for (const needed of ["dist/index.js", "dist/index.d.ts", "dist/core.js", "dist/core.d.ts", "dist/cli/main.js", "dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/command.cjs", "dist/cli/command.cjs.cache", "bin/dotspec.js", "README.md", "LICENSE", "package.json"]) {
       expect(paths, needed).toContain(needed);
     }
     // No tests, benchmarks, scripts, demo data or reports, notebook build, scratch or TypeScript sources.
@@ -188,6 +188,13 @@ describe("the installed package", () => {
     expect(analyzed.stderr).toBe("dotspec: 1 done, 0 failed, 0 warnings\n");
     const [record] = JSON.parse(analyzed.stdout) as { gapV: number }[];
     expect(record.gapV).toBe(analysisToJson(analyzeCurve(readCurveFile(SAMPLE).curve)).gapV);
+    // The short run above came from the single-file bundle with the code cache packed beside it
+    // (bin/dotspec.js; Node ≥ 20.19), and V8 accepted that cache here.
+    if ((process as { features: { require_module?: boolean } }).features.require_module === true) {
+      const checked = await exec(bin, ["analyze", SAMPLE, "--json"], { cwd: consumer, env: { ...process.env, DOTSPEC_CODE_CACHE: "check" } });
+      expect(checked.stderr).toBe("dotspec: code cache used\ndotspec: 1 done, 0 failed, 0 warnings\n");
+      expect(checked.stdout).toBe(analyzed.stdout);
+    }
   });
 
   it("runs analyze on two worker threads from the compiled worker file", async () => {

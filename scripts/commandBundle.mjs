@@ -1,0 +1,122 @@
+// The command as one CommonJS file with a V8 code cache beside it, for short runs (scripts/build.mjs
+// step 5; bin/dotspec.js loads it).
+//
+// Why: a short `dotspec analyze --json` spends about a tenth of its wall time compiling the
+// command's JavaScript. Node 20 keeps no compiled code between processes, and V8's code cache
+// (`vm.Script` `cachedData`) only serves classic scripts, not ES modules. So the build also writes
+// the command as a single CommonJS file, runs it once on a sample curve and saves the bytecode V8
+// compiled for it; bin/dotspec.js hands that cache to `vm.Script` on the next start. V8 checks the
+// cache against its own version, its flags and the source, and compiles afresh when any differs:
+// a stale cache costs speed, never a result.
+import { readFileSync } from "node:fs";
+import { spawnSync } from "node:child_process";
+import { join, relative, dirname, sep } from "node:path";
+
+/** File names in dist/cli, read by bin/dotspec.js too (kept in step by the package test). */
+export const COMMAND_CJS = "command.cjs";
+export const COMMAND_CACHE = "command.cjs.cache";
+
+// `const x = await lazyModule(…)` at a module's top level, as tsc emits it (types gone).
+const AWAIT_LAZY = /\bawait\s+lazyModule\(/g;
+const LAZY_IMPORT = /import\s*\{\s*lazyModule\s*\}\s*from\s*(["'][^"']*lazyModule\.js["'])/;
+
+/**
+ * esbuild plugin: in tsc's output under `distDir`, `await lazyModule(…)` → `lazyModuleNow(…)`
+ * (the same getter, made without waiting: a CommonJS file cannot wait at its top level). Fails the
+ * build where a module awaits `lazyModule` but its import of it does not have the expected form.
+ */
+function lazyModulesNow(distDir) {
+  return {
+    name: "lazy-modules-now",
+    setup(build) {
+      build.onLoad({ filter: /\.js$/ }, (args) => {
+        if (!args.path.startsWith(distDir + sep) || args.path.endsWith(`${sep}lazyModule.js`)) return undefined;
+        const text = readFileSync(args.path, "utf8");
+        if (!AWAIT_LAZY.test(text)) return undefined;
+        AWAIT_LAZY.lastIndex = 0;
+        if (!LAZY_IMPORT.test(text)) {
+          return { errors: [{ text: `${relative(distDir, args.path)} awaits lazyModule without importing it as { lazyModule } from …/lazyModule.js` }] };
+        }
+        const contents = text.replace(AWAIT_LAZY, "lazyModuleNow(").replace(LAZY_IMPORT, "import { lazyModuleNow } from $1");
+        return { contents, loader: "js", resolveDir: dirname(args.path) };
+      });
+    },
+  };
+}
+
+/**
+ * esbuild plugin: packages stay external (resolved from node_modules at run time, as by the
+ * ES-module build) except those in `inline`, which join the bundle and so its code cache; their
+ * own `require` of `node:child_process` is deferred to first use (commander loads it at start-up
+ * for subcommands run as separate programs, which dotspec has none of; about 4 ms a start).
+ */
+function packagesExcept(inline) {
+  const packageName = (specifier) => specifier.split("/").slice(0, specifier.startsWith("@") ? 2 : 1).join("/");
+  return {
+    name: "packages-except",
+    setup(build) {
+      build.onResolve({ filter: /^(node:)?child_process$/ }, (args) =>
+        inline.some((name) => args.importer.includes(`${sep}node_modules${sep}${name}${sep}`)) ? { path: "child_process", namespace: "deferred-builtin" } : undefined,
+      );
+      build.onLoad({ filter: /.*/, namespace: "deferred-builtin" }, (args) => ({
+        contents: `let loaded;\nmodule.exports = new Proxy({}, { get: (_, key) => (loaded ??= require("node:${args.path}"))[key] });\n`,
+        loader: "js",
+      }));
+      build.onResolve({ filter: /^[^./]/ }, (args) => {
+        if (args.path.startsWith("node:") || inline.includes(packageName(args.path))) return undefined;
+        return { path: args.path, external: true };
+      });
+    },
+  };
+}
+
+/** The licence texts of the inlined packages, as a closing comment of the bundle. */
+function licences(root, inline) {
+  const texts = inline.map((name) => `${name}:\n${readFileSync(join(root, "node_modules", name, "LICENSE"), "utf8").trim()}`);
+  return `/*! Packages bundled into this file, with their licences.\n\n${texts.join("\n\n").replaceAll("*/", "* /")}\n*/`;
+}
+
+/**
+ * Bundles tsc's `dist/cli/main.js` (and everything it imports, dynamic imports included) into one
+ * CommonJS file `outFile`; packages stay external but commander (see `packagesExcept`). `import.meta.url` becomes the bundle's own file
+ * URL, which lies in dist/cli like the ES-module entry's, so `workerEntry` and the package.json
+ * lookup resolve as before.
+ */
+export async function bundleCommandCjs(esbuild, root, distDir, entry, outFile) {
+  const inline = ["commander", "d3-dsv"];
+  await esbuild.build({
+    entryPoints: [entry],
+    outfile: outFile,
+    bundle: true,
+    format: "cjs",
+    platform: "node",
+    target: "node20",
+    sourcemap: "linked",
+    sourcesContent: false,
+    logLevel: "warning",
+    footer: { js: licences(root, inline) },
+    // `import()` of a package → `require` (Node ≥ 20.19 requires ES modules too): a script run by
+    // `vm.Script` has no module loader for `import()` of its own in Node 20.
+    supported: { "dynamic-import": false },
+    define: { "import.meta.url": "__dotspecFileUrl" },
+    banner: { js: 'var __dotspecFileUrl = require("node:url").pathToFileURL(__filename).href;' },
+    plugins: [lazyModulesNow(distDir), packagesExcept(inline)],
+  });
+}
+
+/**
+ * Writes the code cache: runs `bin/dotspec.js analyze --json` on `sampleCurve` in a child process
+ * with DOTSPEC_CODE_CACHE=write, so the cache holds what a short run compiles, under the V8 flags
+ * a short run sets. Returns the child's status line, or throws with its error output.
+ */
+export function writeCommandCache(root, sampleCurve) {
+  const run = spawnSync(process.execPath, [join(root, "bin", "dotspec.js"), "analyze", "--json", sampleCurve], {
+    cwd: root,
+    encoding: "utf8",
+    env: { ...process.env, DOTSPEC_CODE_CACHE: "write" },
+    maxBuffer: 1 << 26,
+  });
+  const line = run.stderr.split("\n").find((l) => l.startsWith("dotspec: code cache"));
+  if (run.status !== 0 || !line) throw new Error(`writing the code cache failed (exit ${run.status}): ${run.stderr.slice(-2000)}`);
+  return line;
+}
