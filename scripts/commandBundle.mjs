@@ -107,9 +107,12 @@ export async function bundleCommandCjs(esbuild, root, distDir, entry, outFile) {
 /**
  * Writes the code cache: runs `bin/dotspec.js analyze --json` on `sampleCurve` in a child process
  * with DOTSPEC_CODE_CACHE=write, so the cache holds what a short run compiles, under the V8 flags
- * a short run sets. Returns the child's status line, or throws with its error output.
+ * a short run sets. Returns the child's status line (or why there is no cache), or throws with
+ * the child's error output.
  */
 export function writeCommandCache(root, sampleCurve) {
+  // bin/dotspec.js runs the bundle only where `require` loads ES modules (Node ≥ 20.19).
+  if (process.features?.require_module !== true) return "dotspec: no code cache (this Node cannot run the single-file bundle; the command runs its ES modules)";
   const run = spawnSync(process.execPath, [join(root, "bin", "dotspec.js"), "analyze", "--json", sampleCurve], {
     cwd: root,
     encoding: "utf8",
