@@ -4,7 +4,8 @@
 // emitted .js files (the compiler rewrites them in the JavaScript only), so the declarations
 // resolve for consumers under moduleResolution NodeNext and Bundler. Last, the command's compiled
 // modules (dist/cli) are bundled into a few files, so that a `dotspec` process loads a handful
-// of modules instead of about two hundred (see step 4). Plain JavaScript, so it runs on a fresh
+// of modules instead of about two hundred (see step 4), and once more into one CommonJS file with
+// a V8 code cache for short runs (steps 5 and 6). Plain JavaScript, so it runs on a fresh
 // `npm ci` (the `prepare` script) without any TypeScript loader.
 //
 //   node scripts/build.mjs            # dist/ next to this package's package.json
