@@ -63,15 +63,28 @@ let cdfTable: Float64Array | null = null;
 export function normalCdfFast(x: number): number {
   if (x <= -TABLE_REACH) return 0;
   if (x >= TABLE_REACH) return 1;
-  if (cdfTable === null) {
-    const n = Math.round((2 * TABLE_REACH) / TABLE_STEP) + 2;
-    cdfTable = new Float64Array(n);
-    for (let i = 0; i < n; i++) cdfTable[i] = normalCdf(-TABLE_REACH + i * TABLE_STEP);
-  }
+  if (cdfTable === null) cdfTable = normalCdfTable();
   const u = (x + TABLE_REACH) / TABLE_STEP;
   const i = u | 0;
   const f = u - i;
   return cdfTable[i] + f * (cdfTable[i + 1] - cdfTable[i]);
+}
+
+/**
+ * The table of {@link normalCdfFast}: Φ at −9, −9 + 1/512, …, 9 + 1/512, each equal to
+ * `normalCdf` there to the bit. The upper half comes from the lower one by Φ(x) = 1 − Φ(−x):
+ * `normalCdf(x)` for x > 0 is ½(2 − r) with r = erfc(x/√2), the lower point's value is ½r, and
+ * halving is exact, so 1 − ½r rounds to the same double. Half the erfc evaluations, which matters
+ * at the first use in a fresh process (9,218 of them in cold code took 12–18 ms of a one-curve
+ * `dotspec analyze`).
+ */
+function normalCdfTable(): Float64Array {
+  const half = Math.round(TABLE_REACH / TABLE_STEP); // the index of x = 0
+  const table = new Float64Array(2 * half + 2);
+  for (let i = 0; i <= half; i++) table[i] = normalCdf(-TABLE_REACH + i * TABLE_STEP);
+  for (let i = half + 1; i <= 2 * half; i++) table[i] = 1 - table[2 * half - i];
+  table[2 * half + 1] = normalCdf(TABLE_REACH + TABLE_STEP);
+  return table;
 }
 
 const GAUSSIAN_STEP = 1 / 1024;
