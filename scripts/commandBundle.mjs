@@ -93,6 +93,12 @@ export async function bundleCommandCjs(esbuild, root, distDir, entry, outFile) {
     target: "node20",
     sourcemap: "linked",
     sourcesContent: false,
+    // Minified: the source is read and turned into a string at every start (629 → 442 kB, about
+    // 10 ms of CPU time less a start than with whitespace alone, load average ~4.5), and ASCII, which V8
+    // keeps in one byte a character. The errors the command prints name no function (DotspecError
+    // and UsageError set their names); the source map points into the TypeScript sources.
+    minify: true,
+    charset: "ascii",
     logLevel: "warning",
     footer: { js: licences(root, inline) },
     // `import()` of a package → `require` (Node ≥ 20.19 requires ES modules too): a script run by

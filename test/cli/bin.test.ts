@@ -3,7 +3,7 @@
 // CommonJS default export of ml-savitzky-golay, toolchain notes).
 import { describe, it, expect, afterAll } from "vitest";
 import { execFile, spawn } from "node:child_process";
-import { readFileSync, writeFileSync } from "node:fs";
+import { readdirSync, readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { promisify } from "node:util";
@@ -115,6 +115,19 @@ describe("node bin/dotspec.js: a short run from the single-file bundle and its c
       expect(cached.stdout, args.join(" ")).toBe(modules.stdout);
       expect(cached.stderr, args.join(" ")).toBe((requiresEsm ? "dotspec: code cache used\n" : "") + modules.stderr);
     }
+  });
+
+  it("analyze --out and analyze --compare-models all write the same files from the bundle as from the ES modules (figures and fits included)", async () => {
+    const outputs: Record<string, string>[] = [];
+    for (const mode of ["check", "off"] as const) {
+      const dir = tempDir();
+      const r = await run(["analyze", SAMPLE, "--out", join(dir, "report"), "--compare-models", "all"], mode);
+      expect(r.code, mode).toBe(0);
+      const files = readdirSync(join(dir, "report")).filter((f) => !f.startsWith("."));
+      outputs.push(Object.fromEntries(files.map((f) => [f, readFileSync(join(dir, "report", f), "utf8")])));
+    }
+    expect(Object.keys(outputs[0])).toContain("dot-01.svg");
+    expect(outputs[0]).toEqual(outputs[1]);
   });
 
   it("--help and a folder (a batch) run the ES modules: no bundle, no cache", async () => {

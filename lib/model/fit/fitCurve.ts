@@ -311,7 +311,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const lowest = Math.min(...pool.map((t) => t.bic));
   // Retried and refined groupings come after every listed one.
   const order = (t: FitTrial) => {
-    const k = hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [−+]Ec$/, ""));
+    const k = hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [\u2212+]Ec$/, ""));
     return k < 0 ? hypotheses.length : k;
   };
   const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
