@@ -72,7 +72,7 @@ const bundled = join(dist, ".cli-bundle");
 rmSync(bundled, { recursive: true, force: true });
 const esbuild = await import("esbuild");
 const { flattenBarrels } = await import("./flattenBarrels.mjs");
-const { bundleCommandCjs, writeCommandCache, COMMAND_CJS } = await import("./commandBundle.mjs");
+const { bundleCommandCjs, writeCommandCache, packagesExcept, licences, INLINE_PACKAGES, LICENCES_FILE, LICENCES_FOOTER, COMMAND_CJS } = await import("./commandBundle.mjs");
 try {
   await esbuild.build({
     entryPoints: Object.fromEntries(["main", "analyzeWorker", "gridWorker"].map((name) => [name, join(cli, `${name}.js`)])),
@@ -82,15 +82,19 @@ try {
     format: "esm",
     platform: "node",
     target: "node20",
-    packages: "external",
     sourcemap: "linked",
     // Positions only: the sources themselves ship once, inside the library's own maps.
     sourcesContent: false,
     chunkNames: "chunk-[hash]",
     logLevel: "warning",
+    // Packages stay external but the small ones every start needs (INLINE_PACKAGES, their
+    // licences in dist/cli/bundled-licences.txt); commander is CommonJS, so its `require`s of Node's
+    // built-in modules need a `require` in the ES chunks.
+    banner: { js: 'import { createRequire as __dotspecCreateRequire } from "node:module"; const require = __dotspecCreateRequire(import.meta.url);' },
+    footer: { js: LICENCES_FOOTER },
     // Imports of the library's entry pointed at the defining modules, so that the chunks follow
     // what each command uses (scripts/flattenBarrels.mjs).
-    plugins: [flattenBarrels(cli)],
+    plugins: [flattenBarrels(cli), packagesExcept(INLINE_PACKAGES)],
   });
   // 5. The command once more as one CommonJS file, for short runs with a code cache
   //    (scripts/commandBundle.mjs says why; bin/dotspec.js chooses).
@@ -99,6 +103,7 @@ try {
   console.error(`build: bundling the command failed: ${err instanceof Error ? err.message : err}`);
   process.exit(1);
 }
+writeFileSync(join(bundled, LICENCES_FILE), licences(root, INLINE_PACKAGES));
 rmSync(cli, { recursive: true, force: true });
 renameSync(bundled, cli);
 const chunks = readdirSync(cli).filter((f) => f.endsWith(".js")).length;

@@ -91,7 +91,7 @@ describe("npm pack", () => {
     const paths = packed.map((f) => f.path).sort();
     const allowed = (p: string) => p.startsWith("dist/") || ["bin/dotspec.js", "README.md", "LICENSE", "package.json"].includes(p);
     expect(paths.filter((p) => !allowed(p))).toEqual([]);
-    for (const needed of ["dist/index.js", "dist/index.d.ts", "dist/core.js", "dist/core.d.ts", "dist/cli/main.js", "dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/command.cjs", "dist/cli/command.cjs.cache", "bin/dotspec.js", "README.md", "LICENSE", "package.json"]) {
+    for (const needed of ["dist/index.js", "dist/index.d.ts", "dist/core.js", "dist/core.d.ts", "dist/cli/main.js", "dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/command.cjs", "dist/cli/command.cjs.cache", "dist/cli/bundled-licences.txt", "bin/dotspec.js", "README.md", "LICENSE", "package.json"]) {
       expect(paths, needed).toContain(needed);
     }
     // No tests, benchmarks, scripts, demo data or reports, notebook build, scratch or TypeScript sources.
