@@ -85,7 +85,9 @@ export interface FlankStepsResult {
  * 1. The current over resonanceV ± D.windowFwhm·w is fitted by linear least squares as a line,
  *    a Gaussian-broadened step at each neighbour in or near the stretch and one at the resonance
  *    (width w), and free level steps of a common width ({@link fitSteps}).
- * 2. One level on each side of the resonance in turn: its position (between D.minSeparationFwhm
+ * 2. Where the resonance alone leaves less than minStepSigma² of χ²/σ² beyond the degrees of
+ *    freedom of a fit with one more level (a screen, as in the split of a wide peak), null.
+ *    One level on each side of the resonance in turn: its position (between D.minSeparationFwhm
  *    and D.maxDistanceFwhm expected FWHM from the resonance, D.minSeparationFwhm clear of every
  *    neighbour) and width are found by Gauss–Newton ({@link stepSearch}), from one FWHM out.
  *    A side's level is kept when χ² drops by at least minStepSigma² from the resonance alone and
@@ -140,6 +142,11 @@ export function resonanceFlankSteps(
   const rLo = resonanceV - m, rHi = resonanceV + m;
   const alone = search([resonanceV], [rLo], [rHi]);
   if (!Number.isFinite(alone.value)) return null;
+  // A screen (that of the split): a level worth keeping lowers χ² by minStepSigma², so the
+  // resonance alone must leave at least that much beyond the degrees of freedom of a fit with one
+  // more step (its height, position; four fewer than the resonance alone leaves with its own).
+  const dof = hi - lo + 1 - (2 + near.length + 1 + 2) - 2;
+  if (!(alone.value / (noiseA * noiseA) - dof >= need)) return null;
   // The range a level on one side may take: beyond sep of the resonance, within maxDistance, clear of neighbours.
   const range = (side: -1 | 1): [number, number] | null => {
     let a = side < 0 ? resonanceV - D.maxDistanceFwhm * w : resonanceV + sep - m;
