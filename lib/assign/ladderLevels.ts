@@ -64,7 +64,8 @@ export interface LadderLevels {
  *    bridged by resonances reads as one long group otherwise).
  * 3. The kept peak's step is the sum of the level's and the resonance's; the level's share is
  *    taken as the median step of the multiplet's other peaks (charging steps of one shell in
- *    shell filling are alike, each limited by the slow junction).
+ *    shell filling are alike, each limited by the slow junction). A peak stepping less than
+ *    `ASSIGN_DEFAULTS.fillingStepRatio[0]` × that share holds no level: it stays a resonance.
  * 4. Peaks are judged from the gap edge outward against the multiplets' peaks less the
  *    resonances already found; a kept peak joins its multiplet. A peak further out that crowds
  *    the one judged and is itself at a predicted resonance is passed over (it is judged next,
@@ -119,9 +120,12 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
       return h !== undefined && h.m.band === "CB" && h.m.degeneracy !== null && [...h.peaks].filter((i) => i !== r.index).length < h.m.degeneracy;
     };
     const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
-    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home) {
-      const others = [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b);
-      const levelStepA = others.length ? others[others.length >> 1] : peaks[r.index].stepA;
+    const others = home ? [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b) : [];
+    const levelStepA = others.length ? others[others.length >> 1] : peaks[r.index].stepA;
+    // A peak holding a level steps at least as much as the level (note 3), to within the spread of
+    // one shell's charging steps.
+    const holdsLevel = peaks[r.index].stepA >= ASSIGN_DEFAULTS.fillingStepRatio[0] * levelStepA;
+    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home && holdsLevel) {
       home.peaks.add(r.index);
       out.levels.push({
         resonance: r,

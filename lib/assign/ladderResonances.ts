@@ -77,26 +77,11 @@ export interface LadderResonance extends SecondJunctionResonance {
  * ```
  */
 export function ladderResonances(peaks: readonly Pick<Peak, "biasV" | "biasUncertaintyV" | "fwhmV">[], inputs: LadderResonanceInputs): LadderResonance[] {
-  const { eta, chargingEnergyV: ecV } = inputs;
-  if (!(eta > 0 && eta < 1) || !(ecV > 0)) return [];
+  const { eta } = inputs;
+  const predictions = ladderPredictions(peaks, inputs);
+  if (!predictions.length) return [];
   const D = SECOND_JUNCTION_DEFAULTS;
   const gain = eta / (1 - eta);
-  const below = { CB: 0, VB: 0 };
-  const predictions: LadderResonance[] = [];
-  for (const m of inputs.multiplets) {
-    const whole = m.band === "CB" && m.degeneracy !== null && m.subgroups.length <= 1;
-    let start = 0;
-    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
-      const n = below[m.band];
-      for (const source of m.peakIndices.slice(start, start + size)) {
-        const v = peaks[source].biasV;
-        predictions.push({ index: -1, sourceIndex: source, predictedV: -Math.sign(v) * gain * (Math.abs(v) - n * ecV), carriersBelow: n });
-      }
-      start += size;
-      below[m.band] += whole ? 0 : size;
-    }
-    if (whole) below[m.band] += m.degeneracy!;
-  }
   // Each peak goes to its nearest prediction within tolerance; each prediction to one peak.
   const miss = (r: LadderResonance, i: number) => {
     const p = peaks[i];
@@ -121,4 +106,32 @@ export function ladderResonances(peaks: readonly Pick<Peak, "biasV" | "biasUncer
     r.index = i;
   }
   return predictions.filter((r) => r.index >= 0);
+}
+
+/**
+ * Every resonance a shell-filling ladder predicts (note 2 of {@link ladderResonances}), with
+ * `index` −1 (no peak named): one per charging peak of the multiplets, at
+ * −sign(V)·η/(1 − η)·(|V| − N·Ec_V), V. Empty for η outside (0, 1) or Ec not positive.
+ */
+export function ladderPredictions(peaks: readonly Pick<Peak, "biasV">[], inputs: LadderResonanceInputs): LadderResonance[] {
+  const { eta, chargingEnergyV: ecV } = inputs;
+  if (!(eta > 0 && eta < 1) || !(ecV > 0)) return [];
+  const gain = eta / (1 - eta);
+  const below = { CB: 0, VB: 0 };
+  const predictions: LadderResonance[] = [];
+  for (const m of inputs.multiplets) {
+    const whole = m.band === "CB" && m.degeneracy !== null && m.subgroups.length <= 1;
+    let start = 0;
+    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
+      const n = below[m.band];
+      for (const source of m.peakIndices.slice(start, start + size)) {
+        const v = peaks[source].biasV;
+        predictions.push({ index: -1, sourceIndex: source, predictedV: -Math.sign(v) * gain * (Math.abs(v) - n * ecV), carriersBelow: n });
+      }
+      start += size;
+      below[m.band] += whole ? 0 : size;
+    }
+    if (whole) below[m.band] += m.degeneracy!;
+  }
+  return predictions;
 }

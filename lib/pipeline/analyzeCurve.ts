@@ -13,6 +13,7 @@ import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSp
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
+import { flankLevelPeaks, predictedResonancesV } from "./flankLevels.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
@@ -178,6 +179,12 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    assignment ({@link assignSpectrum}) — unless the curve shows no dot levels ({@link noLevels}:
  *    no zero region at 0 V, no peak, or a lone peak); then the assignment is that of no peaks
  *    with `noLevels` set, its reason first among the warnings, and `gapEdgesV` is null.
+ * 7. Levels beside second-junction resonances (η given, below 1; the current differentiated):
+ *    where the assignment predicts a resonance (`predictedResonancesV`) on a peak, the raw
+ *    current there is refitted as the resonance's step near its prediction and level steps
+ *    beside it (`flankLevelPeaks`); where a level passes the step test, it joins the peak
+ *    list, the peak is moved to the prediction, and the areas and the assignment are redone on
+ *    the new list (a level within a FWHM of a resonance often makes one peak with it).
  *
  * References
  * ----------
@@ -254,41 +261,10 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const signal = conductanceFromPrepared(prepared, { windowMV, order, peakWidthMV, useMeasured });
 
   const found = peaksOf(signal, signal.didvS, "full", peakWidthMV);
-  const areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
   const sweeps = signal.didvSweepsS;
   const sweepPeaks = sweeps.map((g) => peaksOf(signal, g, "sweeps", peakWidthMV).peaks);
-  const peaks: Omit<AnalyzedPeak, "multiplet" | "role">[] = found.peaks.map((p, k) => {
-    // Written out (not spread): the same keys in the same order as Peak's, then the pipeline's.
-    const own = (biasUncertaintyV: number, sweepSpreadV: number | null, sweepsFound: number) => ({
-      biasV: p.biasV,
-      biasUncertaintyV,
-      index: p.index,
-      heightS: p.heightS,
-      prominenceS: p.prominenceS,
-      fwhmV: p.fwhmV,
-      stepA: areas.stepsA[k],
-      snr: p.snr,
-      stepSignificance: p.stepSignificance,
-      prominenceStepA: p.stepA,
-      sweepSpreadV,
-      sweepsFound,
-    });
-    if (sweeps.length < 2) return own(p.biasUncertaintyV, null, sweeps.length || 1);
-    const positions: number[] = [];
-    for (const list of sweepPeaks) {
-      let best: Peak | null = null;
-      for (const q of list) if (!best || Math.abs(q.biasV - p.biasV) < Math.abs(best.biasV - p.biasV)) best = q;
-      if (best && Math.abs(best.biasV - p.biasV) <= p.fwhmV / 2) positions.push(best.biasV);
-    }
-    let spread: number | null = null;
-    let uncertainty = p.biasUncertaintyV;
-    if (positions.length >= 2) {
-      const mean = positions.reduce((a, b) => a + b, 0) / positions.length;
-      spread = Math.sqrt(positions.reduce((a, b) => a + (b - mean) ** 2, 0) / (positions.length - 1));
-      uncertainty = Math.max(uncertainty, spread / Math.sqrt(positions.length));
-    }
-    return own(uncertainty, spread, positions.length);
-  });
+  let areas = bandAreas(signal.biasV, signal.didvS, found.peaks);
+  let peaks = withSweeps(found.peaks, areas, sweeps.length, sweepPeaks);
 
   const edges = gapEdges(signal.biasV, signal.didvS, { noiseS: signal.record.noiseConductanceS });
   const nb = signal.biasV.length;
@@ -302,7 +278,20 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     peakFwhmV: peaks.map((p) => p.fwhmV),
     biasRangeV: nb > 0 ? [signal.biasV[0], signal.biasV[nb - 1]] : undefined,
   });
-  const assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
+  let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
+  if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {
+    // Levels on the flank of a predicted second-junction resonance (note 7).
+    const w = peakWidthMV / 1000;
+    const predicted = predictedResonancesV(peaks, assignment, eta, w);
+    const floorV = FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w;
+    const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV };
+    const flank = flankLevelPeaks(curveIn, found.peaks, predicted, w, minStepSigma);
+    if (flank) {
+      areas = bandAreas(signal.biasV, signal.didvS, flank);
+      peaks = withSweeps(flank, areas, sweeps.length, sweepPeaks);
+      assignment = assignSpectrum(peaks, { eta, regime: options.regime });
+    }
+  }
   const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {
     eta: assignment.energies.eta,
@@ -494,4 +483,44 @@ function noLevelsAssignment(none: NoLevels, eta: number | undefined, regime: Reg
     noLevels: none,
     warnings: [`no levels found: ${none.reason}`, ...etaNotes],
   };
+}
+
+/**
+ * The pipeline's peaks from a list of found peaks: each with its step from the band decomposition
+ * and, with several sweeps, the scatter of the nearest sweep peaks (within half its FWHM) and its
+ * uncertainty raised to scatter/√sweeps where that is larger (note 4 of {@link analyzeCurve}).
+ */
+function withSweeps(list: readonly Peak[], areas: { stepsA: number[] }, sweepCount: number, sweepPeaks: readonly Peak[][]): Omit<AnalyzedPeak, "multiplet" | "role">[] {
+  return list.map((p, k) => {
+    // Written out (not spread): the same keys in the same order as Peak's, then the pipeline's.
+    const own = (biasUncertaintyV: number, sweepSpreadV: number | null, sweepsFound: number) => ({
+      biasV: p.biasV,
+      biasUncertaintyV,
+      index: p.index,
+      heightS: p.heightS,
+      prominenceS: p.prominenceS,
+      fwhmV: p.fwhmV,
+      stepA: areas.stepsA[k],
+      snr: p.snr,
+      stepSignificance: p.stepSignificance,
+      prominenceStepA: p.stepA,
+      sweepSpreadV,
+      sweepsFound,
+    });
+    if (sweepCount < 2) return own(p.biasUncertaintyV, null, sweepCount || 1);
+    const positions: number[] = [];
+    for (const list of sweepPeaks) {
+      let best: Peak | null = null;
+      for (const q of list) if (!best || Math.abs(q.biasV - p.biasV) < Math.abs(best.biasV - p.biasV)) best = q;
+      if (best && Math.abs(best.biasV - p.biasV) <= p.fwhmV / 2) positions.push(best.biasV);
+    }
+    let spread: number | null = null;
+    let uncertainty = p.biasUncertaintyV;
+    if (positions.length >= 2) {
+      const mean = positions.reduce((a, b) => a + b, 0) / positions.length;
+      spread = Math.sqrt(positions.reduce((a, b) => a + (b - mean) ** 2, 0) / (positions.length - 1));
+      uncertainty = Math.max(uncertainty, spread / Math.sqrt(positions.length));
+    }
+    return own(uncertainty, spread, positions.length);
+  });
 }

@@ -20,6 +20,20 @@ describe("ladderLevels(peaks, predicted, inputs)", () => {
     expect(out.resonances.map((r) => r.index)).toEqual([4]);
   });
 
+  it("sets aside a peak on the ladder that steps less than 0.6 × the shell's other steps: it holds no level (its step would be the level's plus the resonance's)", () => {
+    // The first case's geometry; the peak at 3.2 V steps 0.5 pA against p's 1 pA, then 0.7 pA
+    // (kept). The bound 0.6 is the least step ratio of charging steps in shell filling, r/(1 + r)
+    // at the filling limit r = Γtip/Γsub = 1.5 (closed form of the master equation).
+    const geometry = [2.9, 3.2, 3.6, 3.9, 4.6];
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [0, 2, 3, 4] };
+    const weak = list(geometry, [1, 0.5, 1, 1, 1].map((s) => s * 1e-12));
+    const out = ladderLevels(weak, [at(weak, 1)], { multiplets: [p], chargingEnergyV: ecV });
+    expect(out.levels).toEqual([]);
+    expect(out.resonances.map((r) => r.index)).toEqual([1]);
+    const enough = list(geometry, [1, 0.7, 1, 1, 1].map((s) => s * 1e-12));
+    expect(ladderLevels(enough, [at(enough, 1)], { multiplets: [p], chargingEnergyV: ecV }).levels.map((l) => l.resonance.index)).toEqual([1]);
+  });
+
   it("sets aside a peak one Ec after a full shell's last peak (a new shell starts Ec + Δ beyond, Δ > 0)", () => {
     const peaks = list([1.0, 1.3, 1.6]);
     const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };

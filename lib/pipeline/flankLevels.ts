@@ -1,0 +1,126 @@
+/**
+ * Levels hidden on the flank of a second-junction resonance: where the assignment predicts a
+ * resonance on a peak, the current there is refitted as the resonance and level steps beside it,
+ * and the levels found join the peak list.
+ */
+import type { Peak } from "../peaks/findPeaks.ts";
+import { resonanceFlankSteps } from "../peaks/resonanceFlankSteps.ts";
+import { ladderPredictions } from "../assign/ladderResonances.ts";
+import type { Assignment } from "../assign/assignSpectrum.ts";
+
+/** Limits of {@link flankLevelPeaks}, in expected FWHM (locked by test/pipeline/flankLevels.test.ts). */
+export const FLANK_LEVELS_DEFAULTS = Object.freeze({
+  /** A peak within this many expected FWHM of a predicted resonance is taken as (or as holding) the resonance. */
+  overlapFwhm: 0.75,
+  /** Predictions closer than this many expected FWHM to an end of the bias range are not refitted (no stretch on one side). */
+  edgeFwhm: 1,
+  /** Two predictions closer than this many expected FWHM are one. */
+  sameFwhm: 0.25,
+});
+
+/**
+ * The resonances an assignment predicts, V, ascending: those of its shell-filling ladder
+ * (`ladderPredictions`: η/(1 − η)·(|V| − N·Ec_V) at the opposite bias for every charging peak) or,
+ * outside shell filling, the plain −η·V/(1 − η) of every peak in a multiplet; with the
+ * predictions of the resonances it set aside.
+ */
+export function predictedResonancesV(peaks: readonly Pick<Peak, "biasV">[], assignment: Pick<Assignment, "regime" | "multiplets" | "quantities" | "evidence">, eta: number, expectedFwhmV: number): number[] {
+  if (!(eta > 0 && eta < 1)) return [];
+  const ecV = assignment.quantities.chargingEnergyV;
+  const out: number[] = assignment.evidence.secondJunction.map((r) => r.predictedV);
+  if (assignment.regime === "shell-filling" && ecV !== null && ecV > 0) {
+    for (const r of ladderPredictions(peaks, { multiplets: assignment.multiplets, chargingEnergyV: ecV, eta })) out.push(r.predictedV);
+  } else {
+    const gain = eta / (1 - eta);
+    for (const m of assignment.multiplets) for (const i of m.peakIndices) out.push(-gain * peaks[i].biasV);
+  }
+  out.sort((a, b) => a - b);
+  const same = FLANK_LEVELS_DEFAULTS.sameFwhm * expectedFwhmV;
+  return out.filter((v, k) => k === 0 || v - out[k - 1] > same);
+}
+
+/** The curve as {@link flankLevelPeaks} reads it. */
+export interface FlankCurve {
+  /** Bias, V (uniform, ascending). */
+  biasV: Float64Array;
+  /** Raw current, A. */
+  currentA: Float64Array;
+  /** Conductance the peaks were found on, S. */
+  didvS: Float64Array;
+  /** Current noise σ, A. */
+  noiseA: number;
+  /** Conductance noise σ, S. */
+  noiseS: number;
+  /** Floor of the position uncertainty, V. */
+  floorV: number;
+}
+
+/**
+ * The peak list with the levels found beside predicted resonances, or null where none is found.
+ *
+ * Parameters
+ * ----------
+ * curve : FlankCurve
+ *     Bias, current, conductance and their noise.
+ * peaks : readonly Peak[]
+ *     The peaks of the curve, ascending.
+ * predictedV : readonly number[]
+ *     The predicted resonances, V ({@link predictedResonancesV}).
+ * expectedFwhmV : number
+ *     The expected FWHM of a step, V.
+ * minStepSigma : number
+ *     The step test's threshold.
+ *
+ * Returns
+ * -------
+ * Peak[] | null
+ *     A new ascending list: each peak taken as a resonance moved to its prediction (its step the
+ *     refit's), and the levels beside it added; null when no prediction gave a level.
+ *
+ * Notes
+ * -----
+ * With w the expected FWHM and D = `FLANK_LEVELS_DEFAULTS`:
+ * 1. Each prediction at least D.edgeFwhm·w inside the bias range takes the nearest peak within
+ *    D.overlapFwhm·w as the resonance (none there: the prediction is passed over).
+ * 2. The current around it is refitted with the resonance's step held at the prediction and
+ *    the other peaks' steps at their positions ({@link resonanceFlankSteps}); the resonance's
+ *    step must pass the step test too (a prediction where no resonance steps says nothing).
+ * 3. The peak is moved to the prediction with the expected width, and each level found is added
+ *    as a peak: at its fitted position, with the expected width, the Gaussian prominence of its
+ *    step (step/(1.0645·w)), its significance and its position σ (the fit's, with the floor in
+ *    quadrature). Later predictions see the peaks added by earlier ones.
+ */
+export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): Peak[] | null {
+  const D = FLANK_LEVELS_DEFAULTS;
+  const { biasV, currentA, didvS, noiseA, noiseS, floorV } = curve;
+  const n = biasV.length;
+  if (n < 2 || !predictedV.length) return null;
+  const h = (biasV[n - 1] - biasV[0]) / (n - 1);
+  const w = expectedFwhmV;
+  const at = (v: number) => Math.min(n - 1, Math.max(0, Math.round((v - biasV[0]) / h)));
+  let list = peaks.slice();
+  let changed = false;
+  const moved = new Set<Peak>();
+  for (const r of predictedV) {
+    if (r < biasV[0] + D.edgeFwhm * w || r > biasV[n - 1] - D.edgeFwhm * w) continue;
+    let k = -1;
+    for (let i = 0; i < list.length; i++) if (Math.abs(list[i].biasV - r) <= D.overlapFwhm * w && (k < 0 || Math.abs(list[i].biasV - r) < Math.abs(list[k].biasV - r))) k = i;
+    if (k < 0 || moved.has(list[k])) continue;
+    const neighbours = list.filter((_, i) => i !== k).map((p) => p.biasV);
+    const fit = resonanceFlankSteps(biasV, currentA, noiseA, r, neighbours, w, minStepSigma);
+    if (!fit || !(fit.resonanceSignificance >= minStepSigma)) continue;
+    const gaussArea = w * 1.0645;
+    const asPeak = (v: number, stepA: number, significance: number, sigmaV: number): Peak => {
+      const index = at(v);
+      const prominenceS = stepA / gaussArea;
+      return { biasV: v, biasUncertaintyV: Math.hypot(sigmaV, floorV), index, heightS: didvS[index], prominenceS, fwhmV: w, stepA, snr: prominenceS / noiseS, stepSignificance: significance };
+    };
+    const resonance = asPeak(r, fit.resonanceStepA, fit.resonanceSignificance, list[k].biasUncertaintyV);
+    moved.add(resonance);
+    const levels = fit.levels.map((l) => asPeak(l.biasV, l.stepA, l.significance, l.uncertaintyV));
+    levels.forEach((p) => moved.add(p));
+    list = [...list.filter((_, i) => i !== k), resonance, ...levels].sort((a, b) => a.biasV - b.biasV);
+    changed = true;
+  }
+  return changed ? list : null;
+}

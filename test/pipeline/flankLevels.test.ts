@@ -1,0 +1,77 @@
+// Levels beside predicted second-junction resonances, as the pipeline adds them
+// (lib/pipeline/flankLevels.ts). The predictions are checked against the closed form of the
+// double-barrier junction (orthodox theory): a level entered through the substrate junction into
+// the empty dot steps at |V′| = η/(1 − η)·(|V| − N·Ec_V) at the opposite bias. The curve is
+// closed-form Gaussian-broadened steps, I = a + b·x + Σ c_k·Φ((x − x_k)/s) (Φ from mathjs.erf),
+// with seeded white noise; the positions put in are the check values.
+import { describe, it, expect } from "vitest";
+import { erf } from "mathjs";
+import { flankLevelPeaks, predictedResonancesV, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
+import type { Peak } from "../../lib/peaks/findPeaks.ts";
+import { seededRandom } from "../../lib/util/random.ts";
+import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
+
+const phi = (z: number) => 0.5 * (1 + erf(z / Math.SQRT2));
+const gauss = (z: number) => Math.exp(-0.5 * z * z) / Math.sqrt(2 * Math.PI);
+const peak = (biasV: number, extra: Partial<Peak> = {}): Peak => ({ biasV, biasUncertaintyV: 0.003, index: 0, heightS: 1e-10, prominenceS: 1e-10, fwhmV: 0.07, stepA: 1e-11, snr: 30, stepSignificance: 30, ...extra });
+
+describe("FLANK_LEVELS_DEFAULTS", () => {
+  it("is frozen with the documented values", () => {
+    expect(Object.isFrozen(FLANK_LEVELS_DEFAULTS)).toBe(true);
+    expect(FLANK_LEVELS_DEFAULTS).toEqual({ overlapFwhm: 0.75, edgeFwhm: 1, sameFwhm: 0.25 });
+  });
+});
+
+describe("predictedResonancesV", () => {
+  const eta = 0.6, ecV = 0.2, gain = eta / (1 - eta);
+  // VB doublets at −1.0, −1.2 V (N = 0) and −1.6, −1.8 V (N = 2); one CB peak at 0.9 V.
+  const peaks = [-1.8, -1.6, -1.2, -1.0, 0.9].map((v) => peak(v));
+  const vb = (peakIndices: number[]) => ({ band: "VB" as const, label: "v", degeneracy: null, peakIndices, subgroups: [peakIndices.length] });
+  const evidence = { secondJunction: [] };
+  it("gives the ladder's η/(1 − η)·(|V| − N·Ec_V) in shell filling (closed form)", () => {
+    const got = predictedResonancesV(peaks, { regime: "shell-filling", multiplets: [vb([3, 2]), vb([1, 0])] as never, quantities: { chargingEnergyV: ecV } as never, evidence: evidence as never }, eta, 0.05);
+    const want = [1.0, 1.2, 1.6 - 2 * ecV, 1.8 - 2 * ecV].map((v) => gain * v);
+    // 1.2·gain and (1.6 − 0.4)·gain coincide: one prediction.
+    expect(got.length).toBe(3);
+    for (const v of new Set(want.map((x) => x.toFixed(9)))) expect(got.some((g) => Math.abs(g - Number(v)) < 1e-9)).toBe(true);
+  });
+  it("gives the plain −η·V/(1 − η) of every multiplet peak outside shell filling (closed form)", () => {
+    const got = predictedResonancesV(peaks, { regime: "shell-tunneling", multiplets: [vb([3]), vb([4])] as never, quantities: { chargingEnergyV: null } as never, evidence: evidence as never }, eta, 0.05);
+    expect(got).toEqual([-gain * 0.9, gain * 1.0]);
+  });
+  it("is empty at η = 1", () => {
+    expect(predictedResonancesV(peaks, { regime: "shell-tunneling", multiplets: [vb([3])] as never, quantities: { chargingEnergyV: null } as never, evidence: evidence as never }, 1, 0.05)).toEqual([]);
+  });
+});
+
+describe("flankLevelPeaks", () => {
+  // η = 0.6, ε = 0.95 eV, Ec = 0.1 eV: the resonance at (0.95 + 0.05)/0.4 = 2.5 V (closed form); a
+  // level 0.7 FWHM above it, and another level further out with a peak of its own.
+  const fwhmV = 0.07, s = fwhmV / GAUSSIAN_FWHM_PER_SIGMA;
+  const resonanceV = (0.95 + 0.05) / (1 - 0.6), levelV = resonanceV + 0.7 * fwhmV;
+  const steps: [number, number][] = [[resonanceV, 20e-12], [levelV, 12e-12], [2.85, 15e-12]];
+  const n = 1001;
+  const biasV = Float64Array.from({ length: n }, (_, i) => 2 + i * 0.001);
+  const rng = seededRandom(3);
+  const noiseA = 0.3e-12;
+  const currentA = biasV.map((v) => 1e-12 + steps.reduce((a, [at, c]) => a + c * phi((v - at) / s), 0) + noiseA * rng.normal());
+  const didvS = biasV.map((v) => steps.reduce((a, [at, c]) => a + (c / s) * gauss((v - at) / s), 0));
+  const curve = { biasV, currentA, didvS, noiseA, noiseS: 1e-12, floorV: 0.001 };
+  // The peak finder's view: one peak between the resonance and the level, and the level at 2.85 V.
+  const found = [peak(resonanceV + 0.02, { index: 520 }), peak(2.85, { index: 850 })];
+
+  it("adds the level and moves the merged peak to the resonance", () => {
+    const got = flankLevelPeaks(curve, found, [resonanceV], fwhmV, 5);
+    expect(got).not.toBeNull();
+    expect(got!.length).toBe(3);
+    expect(got![0].biasV).toBe(resonanceV);
+    expect(Math.abs(got![1].biasV - levelV)).toBeLessThan(0.1 * fwhmV);
+    expect(got![2].biasV).toBe(2.85);
+    // The added level's step: the Gaussian prominence times 1.0645·FWHM gives it back.
+    expect(Math.abs(got![1].stepA - 12e-12)).toBeLessThan(0.15 * 12e-12);
+  });
+  it("changes nothing where no peak lies at a prediction, or the prediction is near an end", () => {
+    expect(flankLevelPeaks(curve, found, [2.2], fwhmV, 5)).toBeNull();
+    expect(flankLevelPeaks(curve, [peak(2.99, { index: 990 })], [2.99], fwhmV, 5)).toBeNull();
+  });
+});
