@@ -541,7 +541,10 @@ export function ladderCurrent(
  * 1. For each distinct addition energy E (eV): the tip crossing at V = E/η, thermal width
  *    kB·T/(e·η), and, when η < 1, the substrate crossing at V = −E/(1 − η), thermal width
  *    kB·T/(e·(1 − η)).
- * 2. Sort by bias.
+ * 2. Sort by bias (stably: equal biases in the order of their energies' first occurrence). The
+ *    tip crossings ascend with E and the substrate ones descend, so they are merged from the
+ *    sorted distinct energies; the rare case of a tip and a substrate crossing at the same bias
+ *    (or an energy of exactly 0) takes the sort as written.
  *
  * Example
  * -------
@@ -553,6 +556,33 @@ export function ladderCurrent(
  * ```
  */
 export function ladderCrossings(ladder: Ladder, params: JunctionParams): { biasV: number; thermalWidthV: number }[] {
+  // The distinct energies ascending: the tip crossings ascend with them, the substrate ones
+  // descend, so the two lists merge without a comparison sort (note 2).
+  const { eta } = params;
+  const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
+  const energies = Float64Array.from(ladder.keyEnergyEV).sort();
+  let m = 0;
+  for (let i = 0; i < energies.length; i++) {
+    // A zero energy (±0) or NaN: the sort of note 2 as it is.
+    if (energies[i] === 0 || Number.isNaN(energies[i])) return crossingsBySort(ladder, params);
+    if (m === 0 || energies[i] !== energies[m - 1]) energies[m++] = energies[i];
+  }
+  const out: { biasV: number; thermalWidthV: number }[] = [];
+  const tipWidthV = kT / eta, substrateWidthV = kT / (1 - eta);
+  let i = 0, j = eta < 1 ? m - 1 : -1;
+  while (i < m || j >= 0) {
+    const tipV = i < m ? energies[i] / eta : Infinity;
+    const substrateV = j >= 0 ? -energies[j] / (1 - eta) : Infinity;
+    // Equal biases of a tip and a substrate crossing: the sort's order (by energy first seen).
+    if (tipV === substrateV) return crossingsBySort(ladder, params);
+    if (tipV < substrateV) out.push({ biasV: tipV, thermalWidthV: tipWidthV }), i++;
+    else out.push({ biasV: substrateV, thermalWidthV: substrateWidthV }), j--;
+  }
+  return out;
+}
+
+/** {@link ladderCrossings} by its notes as written: each distinct energy's crossings, then a stable sort by bias. */
+function crossingsBySort(ladder: Ladder, params: JunctionParams): { biasV: number; thermalWidthV: number }[] {
   const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
   const out: { biasV: number; thermalWidthV: number }[] = [];
   const seen = new Set<number>();

@@ -46,7 +46,11 @@
  * their states are sorted by carrier number, so the fill-in stays inside the blocks N−1 and N;
  * `lowerBlockStart[k]` (the first state of block N(k) − 1) bounds every loop, which makes the
  * cost about n·b² for blocks of size b instead of n³/3.
- * 3. Rows i are read at i·stride, so a caller can solve only the states it can reach
+ * 3. Censoring k updates only the columns from the first to the last non-zero entry of row k below
+ *    k (the others would add exactly 0): at zero temperature many rates are 0 and the rows of
+ *    the crossover's ladders begin or end with zeros (a fifth of the updates skipped, the same
+ *    bits).
+ * 4. Rows i are read at i·stride, so a caller can solve only the states it can reach
  *    ({@link ladderCurrent} leaves out the blocks above the highest one a carrier can enter).
  *
  * References
@@ -68,7 +72,16 @@ export function stationaryDistribution(rates: Float64Array, n: number, lowerBloc
     const lo = lowerBlockStart[k];
     const rowK = k * stride;
     let s = 0;
-    for (let j = lo; j < k; j++) s += rates[rowK + j];
+    // The first and last non-zero entries of row k below k: the updates reach only those columns.
+    let first = k, end = lo;
+    for (let j = lo; j < k; j++) {
+      const qkj = rates[rowK + j];
+      s += qkj;
+      if (qkj !== 0) {
+        if (first === k) first = j;
+        end = j + 1;
+      }
+    }
     // A state with no way down is absorbing in the censored chain: give it a vanishing exit so
     // it collects the probability, as it does physically.
     if (!(s > 0)) s = Number.MIN_VALUE;
@@ -78,7 +91,7 @@ export function stationaryDistribution(rates: Float64Array, n: number, lowerBloc
       if (qik === 0) continue;
       const f = qik / s;
       rates[rowI + k] = f;
-      for (let j = lo; j < k; j++) {
+      for (let j = first; j < end; j++) {
         const qkj = rates[rowK + j];
         if (qkj !== 0) rates[rowI + j] += f * qkj;
       }

@@ -52,11 +52,15 @@ export function zeroTemperaturePattern(ladder: Ladder, params: JunctionParams, b
   // The same arithmetic as ladderCurrent's, so that the signs are its signs.
   const kT = BOLTZMANN_EV_PER_K * params.temperatureK;
   const codes = new Array<number>(2 * keyEnergyEV.length);
-  const sign = (x: number) => (x > 0 ? 43 : x < 0 ? 45 : 48); // "+", "-", "0"
   for (let k = 0; k < keyEnergyEV.length; k++) {
     const a = (keyEnergyEV[k] - params.eta * biasV) / kT;
     codes[2 * k] = sign(a);
     codes[2 * k + 1] = sign(a + biasV / kT);
   }
   return ratesKey + String.fromCharCode(...codes);
+}
+
+/** The character code of a sign: "+" above 0, "-" below, "0" on it or undefined (NaN). */
+function sign(x: number): number {
+  return x > 0 ? 43 : x < 0 ? 45 : 48;
 }

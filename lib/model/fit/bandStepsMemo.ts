@@ -138,10 +138,24 @@ export function bandStepsMemo(
     structures.set(key, built);
     return built;
   };
+  // Each band's last key and the numbers it was made of: an evaluation that leaves a band's
+  // parameters as they were (most columns of a finite-difference Jacobian) reuses its string.
+  const lastKey = { cb: { numbers: [] as number[], key: "" }, vb: { numbers: [] as number[], key: "" } };
+  const keyOf = (model: DotModel, band: "cb" | "vb"): string => {
+    const levels = model[band];
+    const last = lastKey[band];
+    const numbers = last.numbers;
+    let same = numbers.length === 2 * levels.length + 2 && numbers[0] === model.chargingEnergyEV && numbers[1] === model.tipRatePerS;
+    for (let j = 0; same && j < levels.length; j++) same = numbers[2 + 2 * j] === levels[j].energyEV && numbers[3 + 2 * j] === levels[j].degeneracy;
+    if (same) return last.key;
+    last.numbers = [model.chargingEnergyEV, model.tipRatePerS, ...levels.flatMap((l) => [l.energyEV, l.degeneracy])];
+    last.key = `${levels.map((l) => `${l.energyEV}:${l.degeneracy}`).join(",")}|${model.chargingEnergyEV}|${model.tipRatePerS}|${eta}|${temperatureK}`;
+    return last.key;
+  };
   const bandSteps = (model: DotModel, band: "cb" | "vb", fromV: number, toV: number, reachV: number): BandSteps => {
     const levels = model[band];
     if (!levels.length) return { baseA: 0, steps: [], fromV: -Infinity, toV: Infinity };
-    const key = `${levels.map((l) => `${l.energyEV}:${l.degeneracy}`).join(",")}|${model.chargingEnergyEV}|${model.tipRatePerS}|${eta}|${temperatureK}`;
+    const key = keyOf(model, band);
     const store = stores[band];
     const known = store.get(key);
     if (known && known.fromV <= fromV && known.toV >= toV) return known;
@@ -183,7 +197,21 @@ export function bandStepsMemo(
     const fromV = lowV - reachV, toV = highV + reachV;
     const cb = bandSteps(model, "cb", fromV, toV, reachV);
     const vb = bandSteps(model, "vb", fromV, toV, reachV);
-    const steps = [...cb.steps, ...vb.steps].sort((a, b) => a.biasV - b.biasV);
-    return fastCurrent({ baseA: cb.baseA + vb.baseA, steps }, biasV, broadeningV);
+    return fastCurrent({ baseA: cb.baseA + vb.baseA, steps: mergeByBias(cb.steps, vb.steps) }, biasV, broadeningV);
   };
+}
+
+/**
+ * Two lists of steps, each sorted by bias, as one sorted list: what a stable sort of a followed by
+ * b gives (on equal biases, a's steps first). A list alone is returned as it is.
+ */
+function mergeByBias(a: readonly CurrentStep[], b: readonly CurrentStep[]): CurrentStep[] {
+  if (!b.length) return a as CurrentStep[];
+  if (!a.length) return b as CurrentStep[];
+  const out = new Array<CurrentStep>(a.length + b.length);
+  let i = 0, j = 0, k = 0;
+  while (i < a.length && j < b.length) out[k++] = b[j].biasV < a[i].biasV ? b[j++] : a[i++];
+  while (i < a.length) out[k++] = a[i++];
+  while (j < b.length) out[k++] = b[j++];
+  return out;
 }

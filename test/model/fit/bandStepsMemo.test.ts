@@ -43,6 +43,16 @@ describe("bandStepsMemo(seeds, eta, temperatureK)", () => {
     }
   });
 
+  it("reuses a band's key only while all its numbers stay: bit for bit the current of a fresh memo after each single change (a level, Ec, Γtip/Γsub)", () => {
+    const bias = Array.from({ length: 81 }, (_, i) => -2.4 + 0.06 * i);
+    const p0 = [0.6, 0.9, 1.0, 1.25, 0.1, 0.3, Math.log10(0.01)];
+    const moved = (j: number, by: number) => p0.map((v, k) => (k === j ? v + by : v));
+    // VB level alone (the CB key is reused), back, CB level, Ec, Γtip/Γsub, and back again.
+    const sequence = [p0, moved(2, 0.01), p0, moved(0, 0.01), moved(4, 0.002), moved(5, 0.05), p0];
+    const current = bandStepsMemo(seeds, 0.85, 4.5);
+    for (const p of sequence) expect(Array.from(current(p, bias))).toEqual(Array.from(bandStepsMemo(seeds, 0.85, 4.5)(p, bias)));
+  });
+
   it("shares one store between the memos of two groupings with the same CB levels: the second solves no CB ladder and still equals unitCurrent", () => {
     const bias = Array.from({ length: 61 }, (_, i) => 0.5 + 0.025 * i);
     const store = bandStepsStore();
