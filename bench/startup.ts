@@ -107,7 +107,7 @@ for (const [name, spec] of [
   ["dist/cli/main.js (the command, no library)", "./dist/cli/main.js"],
   ["dist/core.js (browser-safe entry)", "./dist/core.js"],
   ["dist/index.js (Node entry)", "./dist/index.js"],
-  ["commander", "commander"],
+  ["commander (the package; the command's bundles carry their own copy)", "commander"],
   ["mathjs (size formulas only, loaded on use)", "mathjs"],
   ["ml-matrix (fits only, loaded on use)", "ml-matrix"],
   ["@observablehq/plot (figures only, loaded on use)", "@observablehq/plot"],
