@@ -19,9 +19,8 @@ import { join, relative, dirname, sep } from "node:path";
  */
 export const INLINE_PACKAGES = ["commander", "d3-dsv"];
 
-/** File names in dist/cli, read by bin/dotspec.js too (kept in step by the package test). */
+/** The bundle's file name in dist/cli; bin/dotspec.js reads it and `${COMMAND_CJS}.cache` (the package test checks both ship). */
 export const COMMAND_CJS = "command.cjs";
-export const COMMAND_CACHE = "command.cjs.cache";
 
 // `const x = await lazyModule(…)` at a module's top level, as tsc emits it (types gone).
 const AWAIT_LAZY = /\bawait\s+lazyModule\(/g;
