@@ -117,7 +117,11 @@ export interface Assignment {
  *    band-edge resonances carry at least `D.fillingResonanceStepMin` × their levels' steps
  *    ((g·r + 1)/(g + r), `substrateToTipStepRatio`) the dot is in shell filling, and a candidate
  *    one VB doublet spacing above the first CB peak is the s doublet's second peak under a
- *    resonance (its step taken as r/(1 + r) of the first).
+ *    resonance (its step taken as r/(1 + r) of the first); failing that, a candidate one spacing
+ *    below it stepping at least 2 + `D.fillingStepRatio[0]` × its source (a doublet's resonance
+ *    alone steps less than 2×) is the s doublet's first peak under a resonance (its step taken as
+ *    (1 + r)/r of the first CB peak's), the shell-filling reading then standing if the rules read
+ *    it unasked with the resonances its ladder predicts set aside (`iterateResonances`).
  * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
  *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
  *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
@@ -234,7 +238,8 @@ function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolea
 
 /**
  * Shell filling read from the height of a band-edge level's resonance, where a resonance hides the
- * s doublet's second peak; null when the heights do not say shell filling or the reading fails.
+ * s doublet's second peak or its first (note 7 of `assignSpectrum`); null when the heights do not
+ * say shell filling or the reading fails.
  */
 function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
   if (first.regime === "shell-filling" || options.regime) return null;
@@ -246,17 +251,32 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   const cb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV > 0 && !taken.has(i)).sort((a, b) => a.p.biasV - b.p.biasV);
   if (vb.length < 2 || !cb.length) return null;
   const ecV = vb[0].p.biasV - vb[1].p.biasV;
-  const s2V = cb[0].p.biasV + ecV;
   const tol = ASSIGN_DEFAULTS.valenceChargingTolerance * ecV;
-  const hidden = candidates.find((c) => Math.abs(peaks[c.index].biasV - s2V) <= tol);
+  const near = (v: number) => candidates.find((c) => Math.abs(peaks[c.index].biasV - v) <= tol);
+  // The s doublet's second peak one Ec above the first CB peak, else its first one Ec below it.
+  const second = near(cb[0].p.biasV + ecV);
+  const hidden = second ?? (cb[0].p.biasV - ecV > 0 ? near(cb[0].p.biasV - ecV) : undefined);
   if (!hidden) return null;
-  const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: peaks[cb[0].i].stepA * edge.doubletStepRatio } : p));
-  const second = assignWith(adjusted, eta, etaGiven, candidates.filter((c) => c !== hidden), options);
-  if (second.regime !== "shell-filling") return null;
-  second.evidence.reasons.unshift(
-    `the resonance of the band-edge level at ${peaks[edge.sourceIndex].biasV.toFixed(3)} V carries ${edge.ratio.toFixed(2)} × its step (≥ ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing above the first CB peak, is kept as the s doublet's second peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`,
+  // Below the first CB peak, the resonance of a doublet alone steps less than 2 × its source
+  // ((2r + 1)/(2 + r) < 2); a charging step under it adds at least the least filling step ratio.
+  if (!second && peaks[hidden.index].stepA < (2 + ASSIGN_DEFAULTS.fillingStepRatio[0]) * peaks[hidden.sourceIndex].stepA) return null;
+  const hiddenStepA = second ? peaks[cb[0].i].stepA * edge.doubletStepRatio : peaks[cb[0].i].stepA / edge.doubletStepRatio;
+  const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: hiddenStepA } : p));
+  const rest = candidates.filter((c) => c !== hidden);
+  let out = assignWith(adjusted, eta, etaGiven, rest, options);
+  if (out.regime !== "shell-filling" && !second) {
+    // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
+    // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it unasked.
+    const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
+    out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
+    if (out === forced) return null;
+    out.evidence.reasons = out.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+  }
+  if (out.regime !== "shell-filling") return null;
+  out.evidence.reasons.unshift(
+    `the resonance of the band-edge level at ${peaks[edge.sourceIndex].biasV.toFixed(3)} V carries ${edge.ratio.toFixed(2)} × its step (≥ ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing ${second ? "above" : "below"} the first CB peak, is kept as the s doublet's ${second ? "second" : "first"} peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`,
   );
-  return second;
+  return out;
 }
 
 /**

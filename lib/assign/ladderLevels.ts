@@ -7,6 +7,16 @@ import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { LadderResonance } from "./ladderResonances.ts";
 import type { Multiplet } from "./multiplets.ts";
 
+/** Tolerance of {@link ladderLevels} (locked by test/assign/ladderLevels.test.ts). */
+export const LADDER_LEVELS_DEFAULTS = Object.freeze({
+  /**
+   * Note 5: the least tolerance of "one Ec beyond a shell's last peak", as a fraction of Ec
+   * (the shell's own spacings set it where they scatter more); peak positions at the benchmark's
+   * noise scatter by a few % of Ec (common practice, no source).
+   */
+  continuationToleranceMin: 0.05,
+});
+
 /** What {@link ladderLevels} reads from a shell-filling assignment. */
 export interface LadderLevelInputs {
   /** The assignment's multiplets (CB shells, VB groups), peaks named by index. */
@@ -59,7 +69,7 @@ export interface LadderLevels {
  *    ladder needs it: the shell whose charging ladder it extends (that of the peak one Ec
  *    before it, else of the peak one Ec after it, the first shell at the gap edge; a new shell
  *    starts Ec + Δ/η beyond the last peak of the one before, not one Ec) holds fewer peaks than
- *    its degeneracy without it. VB groups carry no degeneracy, so nothing says their ladder
+ *    its degeneracy without it (note 5). VB groups carry no degeneracy, so nothing says their ladder
  *    needs a peak: in the VB a peak at a predicted resonance stays a resonance (a VB ladder
  *    bridged by resonances reads as one long group otherwise).
  * 3. The kept peak's step is the sum of the level's and the resonance's; the level's share is
@@ -70,6 +80,13 @@ export interface LadderLevels {
  *    resonances already found; a kept peak joins its multiplet. A peak further out that crowds
  *    the one judged and is itself at a predicted resonance is passed over (it is judged next,
  *    against the ladder that then holds the first).
+ * 5. A shell that the next shell's first peak continues does not need the peak: when that peak
+ *    (the band's first ladder peak beyond the shell's last, not itself at a predicted resonance
+ *    still to be judged) lies one Ec beyond the shell's last peak, to within the scatter of the
+ *    shell's own Ec spacings (at least `LADDER_LEVELS_DEFAULTS.continuationToleranceMin` × Ec),
+ *    it is the shell's own charging peak — the next shell would start Ec + Δ/η beyond — and
+ *    counts toward the degeneracy. A resonance just below a shell's first peak would otherwise
+ *    pass for that first peak and push the shell's last one into the next shell.
  *
  * References
  * ----------
@@ -117,7 +134,12 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     const of = (i: number | undefined) => (i === undefined ? undefined : band.find(({ peaks: s }) => s.has(i)));
     const needs = (h: (typeof band)[number] | undefined) => {
       // A VB group has no degeneracy: nothing says its ladder needs the peak (note 2).
-      return h !== undefined && h.m.band === "CB" && h.m.degeneracy !== null && [...h.peaks].filter((i) => i !== r.index).length < h.m.degeneracy;
+      if (h === undefined || h.m.band !== "CB" || h.m.degeneracy === null) return false;
+      const own = [...h.peaks].filter((i) => i !== r.index).map(at).sort((a, b) => a - b);
+      // The band's next peak beyond the shell (in another multiplet; not itself still to be judged).
+      const next = own.length ? ladder.find((i) => at(i) > own[own.length - 1]) : undefined;
+      const continues = next !== undefined && !pending.has(next) && continuesShell(own, at(next), ecV);
+      return own.length + (continues ? 1 : 0) < h.m.degeneracy;
     };
     const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
     const others = home ? [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b) : [];
@@ -139,4 +161,19 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     }
   }
   return out;
+}
+
+/**
+ * Whether a peak at |bias| `nextV` (V; the band's first ladder peak beyond a shell, in another
+ * multiplet) continues the shell's charging ladder (note 5 of {@link ladderLevels}): it lies one Ec beyond
+ * the shell's last peak to within the scatter of the shell's own Ec spacings about Ec (those
+ * within `ASSIGN_DEFAULTS.valenceChargingTolerance` of it), at least
+ * `LADDER_LEVELS_DEFAULTS.continuationToleranceMin` × Ec. `own` holds the shell's |bias| values, V, ascending.
+ */
+function continuesShell(own: readonly number[], nextV: number, ecV: number): boolean {
+  if (!own.length) return false;
+  const t = ASSIGN_DEFAULTS.valenceChargingTolerance;
+  const deviations = own.slice(1).map((x, k) => Math.abs(x - own[k] - ecV)).filter((d) => d <= t * ecV);
+  const tolerance = Math.max(LADDER_LEVELS_DEFAULTS.continuationToleranceMin * ecV, ...deviations);
+  return Math.abs(nextV - own[own.length - 1] - ecV) <= tolerance;
 }

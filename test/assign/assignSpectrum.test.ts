@@ -268,3 +268,40 @@ describe("assignSpectrum at η = 0.6: a resonance on the s doublet's second peak
     expect(a.evidence.reasons.some((x) => /band-edge level .* carries 1\.75 ×/.test(x))).toBe(true);
   });
 });
+
+describe("assignSpectrum at η = 0.6: a resonance on the s doublet's first peak", () => {
+  // Shell filling at r = 10 (closed forms, orthodox theory): peaks at (|ε| + Ec·(n + ½))/η with
+  // ε_s = 0.625, ε_p = 0.95, ε_v1 = −0.4, ε_v2 = −0.85 eV, Ec = 0.1 eV. v1's resonance through the
+  // substrate, (0.4 + 0.05)/(1 − η) = 1.125 V, falls on s's first peak (0.625 + 0.05)/η = 1.125 V;
+  // s's resonance at −(0.625 + 0.05)/(1 − η) = −1.6875 V. A resonance carries (2r + 1)/(2 + r) = 1.75
+  // of its level's first step (substrateToTipStepRatio), the second s step r/(1 + r) of the first.
+  const e = 0.6, r = 10;
+  const tip = (eps: number, n: number) => (eps + 0.1 * (n + 0.5)) / e;
+  const build = (overlapStep: number) => {
+    const list: [number, number][] = [
+      ...[2, 3, 4, 5].map((n): [number, number] => [-tip(0.85, n), 1]),
+      [-(0.625 + 0.05) / (1 - e), 1.75], // s's resonance
+      [-tip(0.4, 1), r / (1 + r)], [-tip(0.4, 0), 1],
+      [tip(0.625, 0), overlapStep], [tip(0.625, 1), r / (1 + r)],
+      ...[2, 3, 4, 5, 6, 7].map((n): [number, number] => [tip(0.95, n), 1]),
+    ];
+    return list.sort((a, b) => a[0] - b[0]).map(([v, k]) => peak(v, k * 1e-11));
+  };
+  const hiddenFirst = /kept as the s doublet's first peak/;
+
+  it("keeps the overlapped peak (the level's step 1 plus the resonance's 1.75) as the s doublet's first", () => {
+    const peaks = build(1 + 1.75);
+    const a = assignSpectrum(peaks, { eta: e });
+    expect(a.regime).toBe("shell-filling");
+    expectClose(a.multiplets.find((m) => m.label === "s")!.peaksV, [tip(0.625, 0), tip(0.625, 1)], { rtol: 1e-12 });
+    expect(a.multiplets.find((m) => m.label === "p")!.found).toBe(6);
+    expectClose(a.quantities.chargingEnergyV!, 0.1 / e, { rtol: 1e-9, what: "Ec/η" });
+    expect(a.evidence.reasons.some((x) => hiddenFirst.test(x))).toBe(true);
+    expectIndicesConsistent(peaks, a);
+  });
+
+  it("does not take a peak stepping like the resonance alone (1.75 < 2 + 0.6 × its source) as the hidden first peak", () => {
+    const peaks = build(1.75);
+    expect(assignSpectrum(peaks, { eta: e }).evidence.reasons.some((x) => hiddenFirst.test(x))).toBe(false);
+  });
+});

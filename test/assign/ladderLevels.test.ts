@@ -3,7 +3,7 @@
 // bias, a new level or sub-level Ec/η + Δ/η beyond; C. W. J. Beenakker, Phys. Rev. B 44, 1646
 // (1991)) and constructed peak lists; no value here comes from the function under test.
 import { describe, it, expect } from "vitest";
-import { ladderLevels } from "../../lib/assign/ladderLevels.ts";
+import { ladderLevels, LADDER_LEVELS_DEFAULTS } from "../../lib/assign/ladderLevels.ts";
 
 const ecV = 0.3;
 const at = (peaks: { biasV: number }[], index: number) => ({ index, sourceIndex: -1, predictedV: peaks[index].biasV, carriersBelow: 0 });
@@ -57,5 +57,47 @@ describe("ladderLevels(peaks, predicted, inputs)", () => {
     const out = ladderLevels(peaks, [at(peaks, 1)], { multiplets: [v], chargingEnergyV: ecV });
     expect(out.levels).toEqual([]);
     expect(out.resonances.map((r) => r.index)).toEqual([1]);
+  });
+  it("sets aside a peak one Ec below p's first peak when the peak read as d's first lies one Ec beyond p's last (p is full without it)", () => {
+    // Closed form Ec/η = 0.3 V: s 1.0, 1.3 V; p 2.2 … 3.7 V (six peaks 0.3 V apart) with a
+    // resonance at 1.9 V one Ec below p's first; the first reading took 1.9 V as p1 and p's
+    // sixth peak 3.7 V as d's first. The next shell would start Ec + Δ/η beyond 3.4 V, Δ > 0.
+    const pV = [2.2, 2.5, 2.8, 3.1, 3.4, 3.7];
+    const peaks = list([1.0, 1.3, 1.9, ...pV]);
+    const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [2, 3, 4, 5, 6, 7] };
+    const d = { band: "CB" as const, label: "d", degeneracy: 10, peakIndices: [8] };
+    const out = ladderLevels(peaks, [at(peaks, 2)], { multiplets: [s, p, d], chargingEnergyV: ecV });
+    expect(out.levels).toEqual([]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+    // d's first peak Ec + Δ/η beyond p's fifth (Δ/η = 0.1 V ≫ 5 % of Ec): p needs the peak, it stays a level.
+    const apart = list([1.0, 1.3, 1.9, 2.2, 2.5, 2.8, 3.1, 3.5]);
+    const d2 = { band: "CB" as const, label: "d", degeneracy: 10, peakIndices: [7] };
+    const p2 = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [2, 3, 4, 5, 6] };
+    expect(ladderLevels(apart, [at(apart, 2)], { multiplets: [s, p2, d2], chargingEnergyV: ecV }).levels.map((l) => l.resonance.index)).toEqual([2]);
+  });
+
+  it("counts the next shell's first peak as the shell's own only within the scatter of the shell's own spacings about Ec (at least 5 % of Ec)", () => {
+    // p's own spacings exactly Ec = 0.3 V; d's first peak at 3.4 + 0.3·(1 ± 0.04) continues p, at 3.4 + 0.3·1.08 it does not.
+    const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [2, 3, 4, 5, 6, 7] };
+    const d = { band: "CB" as const, label: "d", degeneracy: 10, peakIndices: [8] };
+    const kept = (lastV: number, pV = [2.2, 2.5, 2.8, 3.1, 3.4]) => {
+      const peaks = list([1.0, 1.3, 1.9, ...pV, lastV]);
+      return ladderLevels(peaks, [at(peaks, 2)], { multiplets: [s, p, d], chargingEnergyV: ecV }).levels.length;
+    };
+    expect(kept(3.4 + 0.3 * 1.04)).toBe(0);
+    expect(kept(3.4 + 0.3 * 0.96)).toBe(0);
+    expect(kept(3.4 + 0.3 * 1.08)).toBe(1);
+    // p's own spacings scatter by 0.03 V (10 % of Ec): 8 % off is within that scatter.
+    expect(kept(3.43 + 0.3 * 1.08, [2.2, 2.5, 2.83, 3.1, 3.43])).toBe(0);
+  });
+});
+
+describe("LADDER_LEVELS_DEFAULTS", () => {
+  it("is locked and frozen", () => {
+    // common practice (no source): peak positions scatter by a few % of Ec at the benchmark's noise.
+    expect(LADDER_LEVELS_DEFAULTS).toEqual({ continuationToleranceMin: 0.05 });
+    expect(Object.isFrozen(LADDER_LEVELS_DEFAULTS)).toBe(true);
   });
 });
