@@ -147,7 +147,8 @@ export interface FitOptions {
  *    {@link splitGridStarts}: a p level settled one entry off); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
  *    side, also with each VB level after the first entered one carrier earlier,
- *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
+ *    {@link laterEntryReadings}, then as a doublet and a level of four, {@link shellValenceReading},
+ *    each kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it; a whole-curve Ec or
  *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
  *    the VB reading that does not fit with the CB values, held below). The lowest CB-side BIC
