@@ -91,9 +91,11 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  * stands and the comparison is reported beside it:
  * 1. Status "good" (reduced χ² ≤ 3, no residual structure, Ec and Γtip/Γsub determined) and a
  *    definite regime (not "undetermined"); else the rules stand.
- * 2. The groupings that give the fit's answer (Γtip/Γsub in the same regime or within
- *    `sameAnswerRateSigmas` of the fit's standard errors of it, Ec within `sameAnswerEcFraction`
- *    of the winner's: the same model reached from several starts splits its weight between them,
+ * 2. The groupings that give the fit's answer (the winning grouping's own weighted run, and
+ *    every run with Γtip/Γsub in the same regime or within `sameAnswerRateSigmas` of the fit's
+ *    standard errors of it and Ec within `sameAnswerEcFraction` of that run's: the weights and the
+ *    runs' values come from the points the groupings were compared on, which may be the CB side
+ *    alone while the fit reports its whole curve's; the same model reached from several starts splits its weight between them,
  *    and a regime boundary between two of them that lies within the fit's error of Γtip/Γsub
  *    does not make their answers differ) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
  *    normalised): at 0.9, ΔBIC ≈ 4.4 over one rival answer, positive evidence on the scale of
@@ -141,10 +143,14 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   if (m.status !== "good") return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but its status is ${m.status}` };
   // The weight of the fit's answer: every grouping that gives the same regime and Ec (the same
   // model reached from several starts splits the weight between them).
-  const winnerEc = fitEc ?? NaN;
+  // The weights are those of the compared runs, on the points they were compared on (the CB side
+  // where groupings were compared), while the fit's values may be its whole curve's: the winning
+  // grouping's own weighted run counts, and the others are compared with its Ec.
+  const own = m.alternatives.filter((a) => a.hypothesis === m.hypothesis && a.weight > 0).reduce<(typeof m.alternatives)[number] | null>((x, a) => (!x || a.weight > x.weight ? a : x), null);
+  const winnerEc = own?.chargingEnergyEV ?? fitEc ?? NaN;
   const rate = m.rateRatio;
   const nearRate = (x: number) => rate !== null && rate !== undefined && rate.value > 0 && x > 0 && Math.abs(Math.log(x / rate.value)) <= (sameRate * rate.standardError) / rate.value;
-  const sameAnswer = m.alternatives.filter((a) => (regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc);
+  const sameAnswer = m.alternatives.filter((a) => a === own || ((regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc));
   const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
   if (weight < minWeight) {
     return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but the groupings that give its answer carry ${weight.toFixed(2)} of the BIC weight (< ${minWeight}): a grouping with another answer fits nearly as well` };

@@ -85,7 +85,22 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     const tight = { ...near, rateRatio: { value: 1.51, standardError: 0.004 } };
     const no = comparisonDecision(comparison(runs, tight), undetermined);
     expect(no.decides).toBe(false);
-    expect(no.decision).toContain("carry 0.00 of the BIC weight");
+    // The winning grouping's own run (a) counts; b and c, across the boundary, do not.
+    expect(no.decision).toContain("carry 0.33 of the BIC weight");
+  });
+
+  it("counts the winning grouping's own run, and compares the others with its Ec, where the fit reports its whole curve's values", () => {
+    // The groupings were compared on the CB side: the winner ended at Ec 111.7 meV (weight 0.84), a
+    // rival grouping at 109.8 meV (1.7 % from it, 0.16), both shell tunnelling; the whole curve
+    // moved the winner's Ec to 122.4 meV (8.7 % from its CB side). Same answer: 0.84 + 0.16.
+    const runs = [alt("winner", 0.232, 0.1117, 0.84), alt("rival", 0.331, 0.1098, 0.16), alt("other", 0.33, 0.15, 0)];
+    const whole = { regime: "shell-tunneling", hypothesis: "winner", rateRatio: { value: 0.211, standardError: 0.004 }, quantities: { gapEV: null, chargingEnergyEV: { value: 0.1224, standardError: 0.0013 }, levelSpacingSPEV: null } } as Partial<ModelComparisonJson>;
+    const d = comparisonDecision(comparison(runs, whole), { regime: "undetermined", chargingEnergyEV: null });
+    expect(d.decides).toBe(true);
+    expect(d.decision).toContain("carry 1.00 of the BIC weight");
+    // Without a weighted run of the winning grouping the others are compared with the reported Ec (none within 3 %).
+    const none = comparisonDecision(comparison(runs, { ...whole, hypothesis: "not among the runs" }), { regime: "undetermined", chargingEnergyEV: null });
+    expect(none.decision).toContain("carry 0.00 of the BIC weight");
   });
 
   it("keeps the rules' answer when the fit is poor or failed, or its regime undetermined", () => {

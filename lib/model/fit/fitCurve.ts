@@ -147,7 +147,8 @@ export interface FitOptions {
  *    {@link splitGridStarts}: a p level settled one entry off); the finalists are then fitted to the whole
  *    curve with each reading of the VB peaks (the best kept; where none fits as well as the CB
  *    side, also with each VB level after the first entered one carrier earlier,
- *    {@link laterEntryReadings}, kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
+ *    {@link laterEntryReadings}, then as a doublet and a level of four, {@link shellValenceReading},
+ *    each kept only where it does and is plausible) ({@link compareGroupings}), and checked for plausibility (on
  *    the CB side, and on the whole curve where that fit describes it; a whole-curve Ec or
  *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
  *    the VB reading that does not fit with the CB values, held below). The lowest CB-side BIC
@@ -156,7 +157,10 @@ export interface FitOptions {
  *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
  *    outside the CB side's points while the CB side's show none (then the CB-side values, a
  *    warning says so: no reading of the VB peaks fits with them); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
- *    wholeCurveEcSigmas (1) combined standard errors from the CB side's, the VB reading pulls it: Ec and Γtip/Γsub are
+ *    wholeCurveEcSigmas (1) combined standard errors from the CB side's and the CB side, its levels
+ *    refitted with them held, rises by more than wholeCurveCbChiSquare (5.99, the 95 % point of χ²
+ *    for two parameters; within it the two agree and the whole curve's values stand, said in a
+ *    warning), the VB reading pulls it: Ec and Γtip/Γsub are
  *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
  *    them, said in a warning and the evidence — unless, held so, the whole curve's residuals show
  *    structure (above poorResidualZ) that the free whole-curve fit's, within the status's
@@ -362,7 +366,20 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const shift = ([w, c]: number[]) => Math.abs(whole.loop.parameters[w] - winner.loop.parameters[c]);
     const cb = pairs.some((q) => shift(q) > F.wholeCurveEcSigmas * errors.se[q[0]]) ? trialErrors(winner, currentOf(winner), noiseA, []) : null;
     const z = pairs.map((q) => (cb ? shift(q) / Math.hypot(errors.se[q[0]], cb.se[q[1]]) : NaN)).map((v) => (Number.isFinite(v) ? v : 0));
-    if (cb && Math.max(...z) > F.wholeCurveEcSigmas) {
+    // The CB side's own test of the whole curve's Ec and Γtip/Γsub: its levels refitted with them
+    // held. Where its χ² rises by at most wholeCurveCbChiSquare, the CB side agrees with them
+    // within its errors: the VB reading adds its information rather than pulling.
+    const cbAccepts = () => {
+      const fromC = [...winner.loop.parameters];
+      fromC[atC.chargingEnergy] = ecW;
+      fromC[atC.logRateRatio] = whole.loop.parameters[atW.logRateRatio];
+      const atWhole = run(winner.hypothesis, null, maxIterations, fromC, winner.set, [atC.chargingEnergy, atC.logRateRatio]);
+      return atWhole.loop.chiSquare - winner.loop.chiSquare;
+    };
+    const cbRise = cb && Math.max(...z) > F.wholeCurveEcSigmas ? cbAccepts() : Infinity;
+    if (cbRise <= F.wholeCurveCbChiSquare) {
+      warnings.push(`the whole-curve fit moved Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV and Γtip/Γsub from ${(10 ** winner.loop.parameters[atC.logRateRatio]).toPrecision(3)} to ${(10 ** whole.loop.parameters[atW.logRateRatio]).toPrecision(3)}, but the CB side refitted at them rises by χ² ${cbRise.toFixed(1)} only (≤ ${F.wholeCurveCbChiSquare}): the whole curve's values stand`);
+    } else if (cb && Math.max(...z) > F.wholeCurveEcSigmas) {
       const from = [...whole.loop.parameters];
       from[atW.chargingEnergy] = ecC;
       from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];

@@ -137,6 +137,12 @@ export const FIT_DEFAULTS = Object.freeze({
    */
   wholeCurveEcSigmas: 1,
   /**
+   * … unless the CB side, its levels refitted with Ec and Γtip/Γsub held at the whole curve's
+   * values, rises by at most this χ² (5.99: the 95 % point of χ² with two degrees of freedom):
+   * then the two agree within the CB side's errors and the whole curve's values stand.
+   */
+  wholeCurveCbChiSquare: 5.99,
+  /**
    * Rounds of further starts about the best CB-side groupings ({@link refinementStarts}: the p
    * shell split about the fitted p level, the rate ratio × 1/3 and × 3): the first about the best
    * refinedGroupings, each later one about the best only, and only when the previous round found
