@@ -21,7 +21,7 @@ export const ANALYZE_JOBS_DEFAULTS = Object.freeze({
  * settings : AnalyzeBatchSettings
  *     Shared by all files (sent to the workers as plain data).
  * threads : number
- *     Worker threads; 1 runs everything in this thread.
+ *     Threads in all, this one included: 1 runs everything here, N adds N − 1 worker threads.
  * onResult : (result) => void
  *     Called once per job, in completion order (not batch order when threads > 1).
  * stop : () => boolean
@@ -31,9 +31,12 @@ export const ANALYZE_JOBS_DEFAULTS = Object.freeze({
  *
  * Notes
  * -----
- * 1. Each worker gets two jobs ahead and one more per result, so faster workers take more.
- * 2. In this thread the event loop gets a turn between files, so stream errors (a closed pipe)
- *    and timers are seen during a long batch.
+ * 1. Each worker gets two jobs ahead and one more per result, so faster workers take more. This
+ *    thread takes the next job of the same queue after each of its own: a worker costs a start
+ *    and its own warm-up of the optimising compiler (the first few dozen files run several times
+ *    slower), which this thread has paid already after its first files.
+ * 2. In this thread the event loop gets a turn between files, so stream errors (a closed pipe),
+ *    timers and the workers' results are seen during a long batch.
  * 3. A worker that fails before its first result (for example it cannot start) hands its jobs
  *    back; one that fails later fails the jobs it held (one of them made it fail). When no
  *    worker is left the remaining jobs run in this thread.
@@ -49,14 +52,26 @@ export async function runAnalyzeJobs(
   let figure: Promise<CurveFigureRenderer> | null = null;
   const loadFigure = () => (figure ??= loadCurveFigure());
   const queue = [...jobs];
-  if (threads > 1 && queue.length > 1) {
+  // This thread takes files from the queue too, so `threads` counts it: --jobs 2 is this thread
+  // and one worker.
+  const workers = threads > 1 && queue.length > 1 ? Math.min(threads, queue.length) - 1 : 0;
+  let inWorkers: Promise<void> = Promise.resolve();
+  if (workers > 0) {
     // Loaded here, not at start-up: a one-thread run (one file, or --jobs 1) never needs it.
     const { Worker } = await import("node:worker_threads");
-    await runInWorkers(Worker, queue, settings, Math.min(threads, queue.length), onResult, stop, onReadProgress);
+    inWorkers = runInWorkers(Worker, queue, settings, workers, onResult, stop, onReadProgress);
   }
-  for (const job of queue.splice(0)) {
-    // Let the event loop run between files (stream errors, the progress bar's timer).
+  for (;;) {
+    // Let the event loop run between files (stream errors, the progress bar's timer, the workers' results).
     await new Promise<void>((resolve) => setImmediate(resolve));
+    if (stop()) queue.length = 0;
+    const job = queue.shift();
+    if (job === undefined) break;
+    onResult(await analyzeFile(job, settings, loadFigure, onReadProgress));
+  }
+  // Jobs a lost worker handed back after this thread's last turn.
+  await inWorkers;
+  for (const job of queue.splice(0)) {
     if (stop()) return;
     onResult(await analyzeFile(job, settings, loadFigure, onReadProgress));
   }

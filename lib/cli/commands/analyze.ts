@@ -123,7 +123,7 @@ export const analyzeCommand: CliCommand = {
       .option("--out <DIR>", "write DIR/<name>.json, DIR/<name>.svg per file and DIR/summary.csv")
       .option(
         "--jobs <n>",
-        "analyse on this many worker threads, 1 to 64 (default: 1, this thread); worth it for large batches on idle cores",
+        "analyse on this many threads, this one included, 1 to 64 (default: 1); worth it for large batches on idle cores",
         numberOption({ min: 1, max: 64, integer: true, accepted: "a whole number of threads from 1 to 64" }),
       )
       .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
@@ -184,7 +184,7 @@ export const analyzeCommand: CliCommand = {
  * 2. Each file ({@link analyzeFile}): readCurveFile → analyzeCurve → analysisToJson, and with
  *    --out the figure, DIR/<name>.json and DIR/<name>.svg; a failure prints one line and the
  *    batch goes on.
- * 3. With --jobs > 1 the files are spread over worker threads; results are printed in the order
+ * 3. With --jobs N > 1 the files are spread over this thread and N − 1 worker threads; results are printed in the order
  *    of the files all the same. Not the default: on a machine whose cores are busy with other
  *    work the threads cost more than they give (measured while developing: 1,000 files took
  *    longer with 2 threads than with 1 on a shared 2-core machine).

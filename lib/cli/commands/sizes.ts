@@ -144,7 +144,7 @@ export const sizesCommand: CliCommand = {
       .option("--force", "with --out: write into DIR even if it holds files dotspec did not write (files of the same name are replaced)")
       .option(
         "--jobs <n>",
-        "analyse on this many worker threads, 1 to 64 (default: 1, this thread)",
+        "analyse on this many threads, this one included, 1 to 64 (default: 1)",
         numberOption({ min: 1, max: 64, integer: true, accepted: "a whole number of threads from 1 to 64" }),
       )
       .addHelpText("after", HELP_AFTER)
