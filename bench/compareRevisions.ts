@@ -3,13 +3,13 @@
  * that both see the same machine load: the before/after figure for a change to the pipeline.
  *
  *   git worktree add --detach .tmp/base <commit> && ln -s "$PWD/node_modules" .tmp/base/node_modules
- *   node bin/run-ts.js bench/compareRevisions.ts --before .tmp/base
+ *   node bin/run-ts.mjs bench/compareRevisions.ts --before .tmp/base
  *
- *   node bin/run-ts.js bench/compareRevisions.ts --before .tmp/base --runs 3000 --compiled --block 100
+ *   node bin/run-ts.mjs bench/compareRevisions.ts --before .tmp/base --runs 3000 --compiled --block 100
  *
  * Curves: the benchmark scenario (one sweep) and the same with three noisy sweeps, 2,001 points.
  *
- * By default both versions run through the TypeScript loader of bin/run-ts.js. With --compiled,
+ * By default both versions run through the TypeScript loader of bin/run-ts.mjs. With --compiled,
  * each checkout's lib/pipeline/analyzeCurve.ts is first bundled by esbuild (ESM, packages left
  * external, written under this checkout's node_modules/.cache so that they resolve), and the two
  * bundles are compared: the code the way the package runs it, with no loader in between (the
@@ -29,7 +29,7 @@ const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "..");
 const args = process.argv.slice(2);
 const at = args.indexOf("--before");
 if (at < 0 || !args[at + 1]) {
-  console.error("usage: node bin/run-ts.js bench/compareRevisions.ts --before PATH_TO_OTHER_CHECKOUT [--runs N] [--block N] [--compiled]");
+  console.error("usage: node bin/run-ts.mjs bench/compareRevisions.ts --before PATH_TO_OTHER_CHECKOUT [--runs N] [--block N] [--compiled]");
   process.exit(2);
 }
 const runsAt = args.indexOf("--runs");

@@ -4,8 +4,8 @@
  * polished from it), so that a search miss (truth far better) can be told from a status or
  * calibration issue (truth no better).
  *
- *   node bin/run-ts.js bench/fitDiagnose.ts --mix crossover 5 46 47
- *   node bin/run-ts.js bench/fitDiagnose.ts --mix low-eta --regime intermediate 15 22
+ *   node bin/run-ts.mjs bench/fitDiagnose.ts --mix crossover 5 46 47
+ *   node bin/run-ts.mjs bench/fitDiagnose.ts --mix low-eta --regime intermediate 15 22
  *
  * At low η the truth's CB side is scored three ways: the CB levels alone below the first VB
  * crossing (cbSideEndV), the CB levels alone over the whole positive side, and the CB levels with

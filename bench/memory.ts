@@ -84,7 +84,7 @@ const r = kind === "curve" ? readCurveFile(file).curve.biasV.length : readGridFi
 console.log(r);
 `,
 );
-const runTs = join(root, "bin", "run-ts.js");
+const runTs = join(root, "bin", "run-ts.mjs");
 const bin = join(root, "bin", "dotspec.js");
 const rows: string[] = [];
 for (const [kind, file, n] of [["curve", join(dir, "long.csv"), curveRows], ["grid", join(dir, "grid.csv"), gridRows]] as const) {

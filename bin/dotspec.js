@@ -1,11 +1,13 @@
 #!/usr/bin/env node
 // The dotspec command: runs the compiled library in dist/ (`npm run build`, which `npm ci` runs
 // through the `prepare` script). Nothing here compiles TypeScript.
+//
+// A CommonJS file (bin/package.json says so): Node starts a CommonJS entry without its ES-module
+// loader, about 10 ms of every start, and `--help` and `--version` never need that loader (below).
+"use strict";
 
-// Node's built-in modules through `process.getBuiltinModule` where it exists (Node ≥ 20.16): an
-// `import` of one builds an ES-module facade of it first, a few milliseconds of each start.
-const builtin = (id) => process.getBuiltinModule?.(id) ?? import(id);
-const { statSync } = await builtin("node:fs");
+const { readFileSync, statSync, writeFileSync } = require("node:fs");
+const { dirname, join } = require("node:path");
 
 // A short run is over before V8's optimising compiler pays back its cost: at its default
 // threshold it spent about a third of the CPU time of `analyze --json` on one curve and of `fit`
@@ -19,11 +21,37 @@ const { statSync } = await builtin("node:fs");
 // a flag it does not know).
 const SHORT_RUN_MAX_FILES = 8;
 const argv = process.argv.slice(2);
-const codeCacheMode = process.env.DOTSPEC_CODE_CACHE; // "off", "check" or "write"; see commandFromCache
-let codeCacheWrite = null;
+const codeCacheMode = process.env.DOTSPEC_CODE_CACHE; // "off", "check" or "write"; see fromBundle
 const short = isShortRun(argv);
 if (short && /^v20\./.test(process.version) && !process.execArgv.some((a) => a.startsWith("--interrupt-budget"))) {
-  (await builtin("node:v8")).setFlagsFromString("--interrupt-budget=1081344");
+  require("node:v8").setFlagsFromString("--interrupt-budget=1081344");
+}
+
+/**
+ * The single-file bundles of the command in dist/cli, each with the V8 code cache the build saved
+ * beside it (scripts/commandBundle.mjs):
+ * - `help.cjs`: the command's entry and option parser alone, every command left out. It serves a
+ *   run that names no command (`--help`, `--version`, no argument, or an unknown option), which
+ *   never loads one.
+ * - `command.cjs`: the whole command, for short runs. It loads every package with `require`, ES
+ *   modules included, which needs Node ≥ 20.19.
+ */
+const BUNDLES = {
+  help: { file: "help.cjs", usable: () => true },
+  command: { file: "command.cjs", usable: () => process.features?.require_module === true },
+};
+
+run().then((code) => {
+  process.exitCode = code;
+});
+
+async function run() {
+  const which = codeCacheMode === "off" ? null : !argv.some((a) => !a.startsWith("-")) ? BUNDLES.help : short ? BUNDLES.command : null;
+  const bundle = which && fromBundle(which);
+  const { main } = bundle?.exports ?? (await commandModule());
+  const code = await main(argv);
+  if (codeCacheMode === "write") bundle?.writeCache();
+  return code;
 }
 
 /** `analyze` or `fit` on at most SHORT_RUN_MAX_FILES existing files and no folder (help and version run no library code). */
@@ -44,10 +72,6 @@ function isShortRun(args) {
   return true;
 }
 
-const { main } = (short && (await commandFromCache())) || (await commandModule());
-process.exitCode = await main(argv);
-if (codeCacheMode === "write") await codeCacheWrite?.();
-
 /** The command's ES-module entry (dist/cli/main.js and the chunks it imports). */
 async function commandModule() {
   try {
@@ -60,27 +84,22 @@ async function commandModule() {
 }
 
 /**
- * The command from its CommonJS bundle (dist/cli/command.cjs), compiled with the V8 code cache
- * the build saved beside it (scripts/commandBundle.mjs): a short run then starts without
- * compiling most of the command. V8 rejects a cache written by another V8 version or under
- * other flags and compiles afresh. Null where this Node cannot run the bundle (it loads every
- * package with `require`, ES modules included, which needs Node ≥ 20.19), where the bundle is
- * missing, or with DOTSPEC_CODE_CACHE=off; the caller then loads the ES modules.
- * DOTSPEC_CODE_CACHE=check prints whether the cache was used; =write (the build) saves a new one
- * after the run.
+ * A bundle of {@link BUNDLES}, compiled with its code cache: the run then starts without compiling
+ * most of what it runs. V8 rejects a cache written by another V8 version or under other flags and
+ * compiles afresh. Null where this Node cannot run the bundle or the bundle is missing; the caller
+ * then loads the ES modules, as it does with DOTSPEC_CODE_CACHE=off. DOTSPEC_CODE_CACHE=check
+ * prints whether the cache was used; =write (the build) saves a new one after the run
+ * (`writeCache`).
  */
-async function commandFromCache() {
-  if (codeCacheMode === "off" || process.features?.require_module !== true) return null;
-  const vm = await builtin("node:vm");
-  const { readFileSync, writeFileSync } = await builtin("node:fs");
-  const { createRequire, wrap } = await builtin("node:module");
-  const { dirname } = await builtin("node:path");
-  const { fileURLToPath } = await builtin("node:url");
-  const file = new URL("../dist/cli/command.cjs", import.meta.url);
-  const cacheFile = new URL("../dist/cli/command.cjs.cache", import.meta.url);
+function fromBundle({ file, usable }) {
+  if (!usable()) return null;
+  const vm = require("node:vm");
+  const { createRequire, wrap } = require("node:module");
+  const filename = join(__dirname, "..", "dist", "cli", file);
+  const cacheFile = `${filename}.cache`;
   let source;
   try {
-    source = readFileSync(file, "utf8");
+    source = readFileSync(filename, "utf8");
   } catch {
     return null;
   }
@@ -92,19 +111,18 @@ async function commandFromCache() {
       cachedData = undefined; // no cache: compile as usual
     }
   }
-  const filename = fileURLToPath(file);
   const script = new vm.Script(wrap(source), { filename, cachedData });
   if (codeCacheMode === "check") {
     console.error(`dotspec: code cache ${cachedData === undefined ? "missing" : script.cachedDataRejected ? "rejected" : "used"}`);
   }
   const module = { exports: {} };
-  script.runInThisContext().call(module.exports, module.exports, createRequire(file), module, filename, dirname(filename));
-  if (codeCacheMode === "write") {
-    codeCacheWrite = async () => {
+  script.runInThisContext().call(module.exports, module.exports, createRequire(filename), module, filename, dirname(filename));
+  return {
+    exports: module.exports,
+    writeCache() {
       const data = script.createCachedData();
       writeFileSync(cacheFile, data);
       console.error(`dotspec: code cache written (${(data.length / 1024).toFixed(0)} KiB)`);
-    };
-  }
-  return module.exports;
+    },
+  };
 }

@@ -72,7 +72,7 @@ const bundled = join(dist, ".cli-bundle");
 rmSync(bundled, { recursive: true, force: true });
 const esbuild = await import("esbuild");
 const { flattenBarrels } = await import("./flattenBarrels.mjs");
-const { bundleCommandCjs, writeCommandCache, packagesExcept, licences, INLINE_PACKAGES, LICENCES_FILE, LICENCES_FOOTER, COMMAND_CJS } = await import("./commandBundle.mjs");
+const { bundleCommandCjs, bundleHelpCjs, writeCommandCache, writeHelpCache, packagesExcept, licences, INLINE_PACKAGES, LICENCES_FILE, LICENCES_FOOTER, COMMAND_CJS, HELP_CJS } = await import("./commandBundle.mjs");
 try {
   await esbuild.build({
     entryPoints: Object.fromEntries(["main", "analyzeWorker", "gridWorker"].map((name) => [name, join(cli, `${name}.js`)])),
@@ -99,6 +99,8 @@ try {
   // 5. The command once more as one CommonJS file, for short runs with a code cache
   //    (scripts/commandBundle.mjs says why; bin/dotspec.js chooses).
   await bundleCommandCjs(esbuild, root, dist, join(cli, "main.js"), join(bundled, COMMAND_CJS));
+  // 5b. Its entry and option parser alone, for runs that name no command (--help, --version).
+  await bundleHelpCjs(esbuild, root, dist, join(cli, "main.js"), join(bundled, HELP_CJS));
 } catch (err) {
   console.error(`build: bundling the command failed: ${err instanceof Error ? err.message : err}`);
   process.exit(1);
@@ -107,11 +109,18 @@ writeFileSync(join(bundled, LICENCES_FILE), licences(root, INLINE_PACKAGES));
 rmSync(cli, { recursive: true, force: true });
 renameSync(bundled, cli);
 const chunks = readdirSync(cli).filter((f) => f.endsWith(".js")).length;
-console.log(`build: dist/ written (${declarations.filter((p) => !p.startsWith(cli)).length} declaration files; the command in ${chunks} files and ${COMMAND_CJS})`);
+console.log(`build: dist/ written (${declarations.filter((p) => !p.startsWith(cli)).length} declaration files; the command in ${chunks} files, ${COMMAND_CJS} and ${HELP_CJS})`);
 
-// 6. The code cache, from one short run on a bundled sample curve (absent from a source tree
-//    without sample-curves/: the command then compiles at each start, as it would anyway).
+// 6. The code caches: the command's from one short run on a bundled sample curve (absent from a
+//    source tree without sample-curves/: the command then compiles at each start, as it would
+//    anyway), and that of the help bundle from one `--help`.
 const sample = join(root, "sample-curves", "dot-05.dat");
+try {
+  console.log(`build: help: ${writeHelpCache(root).replace(/^dotspec: /, "")}`);
+} catch (err) {
+  console.error(`build: ${err instanceof Error ? err.message : err}`);
+  process.exit(1);
+}
 if (existsSync(sample)) {
   try {
     console.log(`build: ${writeCommandCache(root, sample).replace(/^dotspec: /, "")}`);

@@ -95,8 +95,49 @@ export const LICENCES_FOOTER = `/*! Bundles ${INLINE_PACKAGES.join(", ")}: licen
  * lookup resolve as before.
  */
 export async function bundleCommandCjs(esbuild, root, distDir, entry, outFile) {
-  const inline = INLINE_PACKAGES;
-  await esbuild.build({
+  await esbuild.build({ ...cjsOptions(entry, outFile), plugins: [lazyModulesNow(distDir), packagesExcept(INLINE_PACKAGES)] });
+}
+
+/** The bundle for runs that name no command; bin/dotspec.js reads it and `${HELP_CJS}.cache` (the package test checks both ship). */
+export const HELP_CJS = "help.cjs";
+
+/**
+ * Bundles tsc's `dist/cli/main.js` with its static imports only into the CommonJS file `outFile`:
+ * the command's entry, its option parser (commander, inlined) and the list of commands, each
+ * command's own module left out. Its every dynamic import (a command, or the library for an error
+ * report) becomes a module that fails when loaded: a run that names no command (`--help`,
+ * `--version`, an unknown option) reaches none of them. Fails the build where the bundle would take
+ * in any of the library (a module of dist/ outside dist/cli), which such a run must never load.
+ */
+export async function bundleHelpCjs(esbuild, root, distDir, entry, outFile) {
+  const result = await esbuild.build({
+    ...cjsOptions(entry, outFile),
+    absWorkingDir: root,
+    metafile: true,
+    plugins: [
+      {
+        name: "commands-left-out",
+        setup(build) {
+          build.onResolve({ filter: /.*/ }, (args) => (args.kind === "dynamic-import" ? { path: args.path, namespace: "left-out" } : undefined));
+          build.onLoad({ filter: /.*/, namespace: "left-out" }, (args) => ({
+            contents: `throw new Error(${JSON.stringify(`${args.path} is not in ${HELP_CJS}: bin/dotspec.js runs it only where no command is named`)});\n`,
+            loader: "js",
+          }));
+        },
+      },
+      packagesExcept(INLINE_PACKAGES),
+    ],
+  });
+  const library = Object.keys(result.metafile.inputs).filter((input) => {
+    const path = join(root, input);
+    return path.startsWith(distDir + sep) && !path.startsWith(join(distDir, "cli") + sep);
+  });
+  if (library.length) throw new Error(`${HELP_CJS} would load the library (${library.join(", ")}); the command's entry must import it only dynamically`);
+}
+
+/** esbuild options shared by the CommonJS bundles: `entry` → `outFile`, minified ASCII. */
+function cjsOptions(entry, outFile) {
+  return {
     entryPoints: [entry],
     outfile: outFile,
     bundle: true,
@@ -118,26 +159,35 @@ export async function bundleCommandCjs(esbuild, root, distDir, entry, outFile) {
     supported: { "dynamic-import": false },
     define: { "import.meta.url": "__dotspecFileUrl" },
     banner: { js: 'var __dotspecFileUrl = require("node:url").pathToFileURL(__filename).href;' },
-    plugins: [lazyModulesNow(distDir), packagesExcept(inline)],
-  });
+  };
 }
 
 /**
- * Writes the code cache: runs `bin/dotspec.js analyze --json` on `sampleCurve` in a child process
- * with DOTSPEC_CODE_CACHE=write, so the cache holds what a short run compiles, under the V8 flags
- * a short run sets. Returns the child's status line (or why there is no cache), or throws with
- * the child's error output.
+ * Writes the code cache of the command's bundle: runs `bin/dotspec.js analyze --json` on
+ * `sampleCurve` in a child process with DOTSPEC_CODE_CACHE=write, so the cache holds what a short
+ * run compiles, under the V8 flags a short run sets. Returns the child's status line (or why there
+ * is no cache), or throws with the child's error output.
  */
 export function writeCommandCache(root, sampleCurve) {
   // bin/dotspec.js runs the bundle only where `require` loads ES modules (Node ≥ 20.19).
   if (process.features?.require_module !== true) return "dotspec: no code cache (this Node cannot run the single-file bundle; the command runs its ES modules)";
-  const run = spawnSync(process.execPath, [join(root, "bin", "dotspec.js"), "analyze", "--json", sampleCurve], {
+  return cachingRun(root, ["analyze", "--json", sampleCurve]);
+}
+
+/** Writes the code cache of {@link HELP_CJS} from a run of `bin/dotspec.js --help`, as {@link writeCommandCache}. */
+export function writeHelpCache(root) {
+  return cachingRun(root, ["--help"]);
+}
+
+/** Runs the command with `args` and DOTSPEC_CODE_CACHE=write; its status line about the cache. */
+function cachingRun(root, args) {
+  const run = spawnSync(process.execPath, [join(root, "bin", "dotspec.js"), ...args], {
     cwd: root,
     encoding: "utf8",
     env: { ...process.env, DOTSPEC_CODE_CACHE: "write" },
     maxBuffer: 1 << 26,
   });
   const line = run.stderr.split("\n").find((l) => l.startsWith("dotspec: code cache"));
-  if (run.status !== 0 || !line) throw new Error(`writing the code cache failed (exit ${run.status}): ${run.stderr.slice(-2000)}`);
+  if (run.status !== 0 || !line) throw new Error(`writing the code cache (dotspec ${args[0]}) failed (exit ${run.status}): ${run.stderr.slice(-2000)}`);
   return line;
 }

@@ -2,7 +2,7 @@
  * The Example blocks of the public functions' doc comments, run as ES modules against the built
  * library (dist/): what test/package/docExamples.test.ts checks, and a tool for writing examples:
  *
- *   npm run build && node bin/run-ts.js scripts/docExamples.ts [name…]
+ *   npm run build && node bin/run-ts.mjs scripts/docExamples.ts [name…]
  *
  * prints, for each public function (or those named), whether its example ran and the value of
  * every statement marked with an output comment, beside the output the comment states.

@@ -2,8 +2,8 @@
  * `npm run notebooks`: builds the notebooks if needed and serves them on 127.0.0.1, printing the
  * address. `npm run notebooks:build`: only builds them into dist/notebooks.
  *
- *   node bin/run-ts.js scripts/notebooks/main.ts serve [--port N]
- *   node bin/run-ts.js scripts/notebooks/main.ts build
+ *   node bin/run-ts.mjs scripts/notebooks/main.ts serve [--port N]
+ *   node bin/run-ts.mjs scripts/notebooks/main.ts build
  */
 import { buildIsStale, buildNotebooks, NOTEBOOK_PATHS } from "./buildNotebooks.ts";
 import { serveStatic } from "./serveStatic.ts";

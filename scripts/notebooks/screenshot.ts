@@ -2,7 +2,7 @@
  * Rewrites docs/curve-notebook.png, the README's picture of the one-curve notebook: builds the
  * notebooks, serves them on 127.0.0.1 and photographs the page with Debian's Chromium.
  *
- *   node bin/run-ts.js scripts/notebooks/screenshot.ts
+ *   node bin/run-ts.mjs scripts/notebooks/screenshot.ts
  */
 import { mkdtempSync, rmSync } from "node:fs";
 import { tmpdir } from "node:os";

@@ -130,10 +130,21 @@ describe("node bin/dotspec.js: a short run from the single-file bundle and its c
     expect(outputs[0]).toEqual(outputs[1]);
   });
 
-  it("--help and a folder (a batch) run the ES modules: no bundle, no cache", async () => {
-    const help = await run(["--help"], "check");
+  it("a run that names no command (--help, --version, none, an unknown option) uses the help bundle's cache and prints what the ES modules print", async () => {
+    for (const args of [["--help"], ["-h"], ["--version"], [], ["--no-such-option"]]) {
+      const [cached, modules] = await Promise.all([run(args, "check"), run(args, "off")]);
+      expect(cached.code, args.join(" ")).toBe(modules.code);
+      expect(cached.stdout, args.join(" ")).toBe(modules.stdout);
+      expect(cached.stderr, args.join(" ")).toBe("dotspec: code cache used\n" + modules.stderr);
+    }
+    expect((await run(["--help"], "off")).stdout).toMatch(/^Usage: dotspec /);
+  });
+
+  it("a command's --help and a folder (a batch) run the ES modules: no bundle, no cache", async () => {
+    const help = await run(["analyze", "--help"], "check");
     expect(help.code).toBe(0);
     expect(help.stderr).toBe("");
+    expect(help.stdout).toMatch(/^Usage: dotspec analyze /);
     const folder = await run(["analyze", tempDirWith(SAMPLE), "--json"], "check");
     expect(folder.code).toBe(0);
     expect(folder.stderr).not.toMatch(/code cache/);

@@ -5,7 +5,7 @@
 // throws fails the test, and so does a statement marked `// throws` that does not throw.
 //
 // Expected values: each example's own output comments, which its author wrote from running it
-// (`node bin/run-ts.js scripts/docExamples.ts NAME` prints them). A comment that states a plain
+// (`node bin/run-ts.mjs scripts/docExamples.ts NAME` prints them). A comment that states a plain
 // number (`// => 1.2345`, or `// => 15 (…)` / `// => 0.48 eV`: a number as the whole comment or
 // its first word, optionally after ≈) is checked to the digits printed, ±half a unit of the last
 // one (statedNumber). Other outputs are not compared: strings in quotes, true/false/null,

@@ -4,7 +4,8 @@
 // `require` (what lazyModule uses in Node) alike. Expected values are derived from the project's
 // own loading rule (by construction); each block is shown to bite where the dependency is needed.
 import { describe, it, expect, afterAll } from "vitest";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { createRequire } from "node:module";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { fileURLToPath } from "node:url";
@@ -68,15 +69,35 @@ const nodeModules = (args: string[]) => runNode(args, dir, { NO_COLOR: "1", DOTS
 describe("the built command's start-up", () => {
   it("--help and --version load neither the library nor any heavy dependency", async () => {
     const preload = blocker("nolib", HEAVY, "analyzeCurve");
-    const help = await node(["--import", preload, BIN, "--help"]);
-    expect(help.stderr).toBe("");
-    expect(help.code).toBe(0);
-    expect(help.stdout).toMatch(/^Usage: dotspec /);
-    expect((await node(["--import", preload, BIN, "--version"])).code).toBe(0);
+    // From the help bundle (dist/cli/help.cjs) and from the ES modules alike.
+    for (const run of [node, nodeModules]) {
+      const help = await run(["--import", preload, BIN, "--help"]);
+      expect(help.stderr).toBe("");
+      expect(help.code).toBe(0);
+      expect(help.stdout).toMatch(/^Usage: dotspec /);
+      expect((await run(["--import", preload, BIN, "--version"])).code).toBe(0);
+    }
     // …and the block bites as soon as a command needs the library.
     const analyze = await nodeModules(["--import", preload, BIN, "analyze", SAMPLE, "--json"]);
     expect(analyze.code).not.toBe(0);
     expect(analyze.stderr).toMatch(/blocked the library/);
+  });
+
+  it("the help bundle cannot take in the library: its build fails where the entry imports any of it statically", async () => {
+    const esbuild = await import("esbuild");
+    const { bundleHelpCjs } = (await import(new URL("../../scripts/commandBundle.mjs", import.meta.url).href)) as {
+      bundleHelpCjs: (esbuild: unknown, root: string, distDir: string, entry: string, outFile: string) => Promise<void>;
+    };
+    const dist = join(ROOT, "dist");
+    // A module of the library (dist/util/errors.js) as the entry: refused, naming it.
+    await expect(bundleHelpCjs(esbuild, ROOT, dist, join(dist, "util", "errors.js"), join(dir, "refused.cjs"))).rejects.toThrow(/would load the library \(dist\/util\/errors\.js\)/);
+    // The same library imported dynamically: left out of the bundle, which then fails only if that import runs.
+    const entry = join(dir, "entry.mjs");
+    writeFileSync(entry, `export const load = async () => (await import(${JSON.stringify(join(dist, "util", "errors.js"))})).DotspecError;\n`);
+    await bundleHelpCjs(esbuild, ROOT, dist, entry, join(dir, "help.cjs"));
+    const bundled = { exports: {} as { load: () => Promise<unknown> } };
+    new Function("module", "exports", "require", "__filename", readFileSync(join(dir, "help.cjs"), "utf8"))(bundled, bundled.exports, createRequire(entry), join(dir, "help.cjs"));
+    await expect(bundled.exports.load()).rejects.toThrow(/is not in help\.cjs/);
   });
 
   it("analyze --json loads none of jsdom, Observable Plot, mathjs, ml-matrix, the Levenberg–Marquardt solver, cli-progress, from the single-file bundle and from the ES modules alike", async () => {

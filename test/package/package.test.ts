@@ -87,11 +87,11 @@ afterAll(() => {
 });
 
 describe("npm pack", () => {
-  it("ships dist/, bin/dotspec.js, README.md, LICENSE and package.json, and nothing else", () => {
+  it("ships dist/, bin/dotspec.js (with bin/package.json), README.md, LICENSE and package.json, and nothing else", () => {
     const paths = packed.map((f) => f.path).sort();
-    const allowed = (p: string) => p.startsWith("dist/") || ["bin/dotspec.js", "README.md", "LICENSE", "package.json"].includes(p);
+    const allowed = (p: string) => p.startsWith("dist/") || ["bin/dotspec.js", "bin/package.json", "README.md", "LICENSE", "package.json"].includes(p);
     expect(paths.filter((p) => !allowed(p))).toEqual([]);
-    for (const needed of ["dist/index.js", "dist/index.d.ts", "dist/core.js", "dist/core.d.ts", "dist/cli/main.js", "dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/command.cjs", "dist/cli/command.cjs.cache", "dist/cli/bundled-licences.txt", "bin/dotspec.js", "README.md", "LICENSE", "package.json"]) {
+    for (const needed of ["dist/index.js", "dist/index.d.ts", "dist/core.js", "dist/core.d.ts", "dist/cli/main.js", "dist/cli/analyzeWorker.js", "dist/cli/gridWorker.js", "dist/cli/command.cjs", "dist/cli/command.cjs.cache", "dist/cli/help.cjs", "dist/cli/help.cjs.cache", "dist/cli/bundled-licences.txt", "bin/dotspec.js", "bin/package.json", "README.md", "LICENSE", "package.json"]) {
       expect(paths, needed).toContain(needed);
     }
     // No tests, benchmarks, scripts, demo data or reports, notebook build, scratch or TypeScript sources.

@@ -12,7 +12,7 @@ import { removeTempDirs, tempDir } from "../cli/harness.ts";
 
 afterAll(removeTempDirs);
 
-const RUN_TS = fileURLToPath(new URL("../../bin/run-ts.js", import.meta.url));
+const RUN_TS = fileURLToPath(new URL("../../bin/run-ts.mjs", import.meta.url));
 const CHILD = fileURLToPath(new URL("./fixtures/writeForever.ts", import.meta.url));
 
 describe("writeTextFile(path, text): temporary name, then rename", () => {

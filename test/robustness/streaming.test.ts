@@ -142,7 +142,7 @@ describe("readCurveStream(path) against the whole-text importer", () => {
 function capped(heapMB: number, script: string): { status: number | null; stdout: string; stderr: string } {
   const path = join(dir, `run-${k++}.mts`);
   writeFileSync(path, script);
-  const r = spawnSync(process.execPath, [`--max-old-space-size=${heapMB}`, new URL("../../bin/run-ts.js", import.meta.url).pathname, path], { encoding: "utf8", timeout: 120_000 });
+  const r = spawnSync(process.execPath, [`--max-old-space-size=${heapMB}`, new URL("../../bin/run-ts.mjs", import.meta.url).pathname, path], { encoding: "utf8", timeout: 120_000 });
   return { status: r.status, stdout: r.stdout, stderr: r.stderr };
 }
 
