@@ -162,7 +162,7 @@ export interface FitOptions {
  *    for two parameters; within it the two agree and the whole curve's values stand, said in a
  *    warning), the VB reading pulls it: Ec and Γtip/Γsub are
  *    held at the CB side's values (with its errors) and the levels fitted to the whole curve with
- *    them, said in a warning and the evidence — unless, held so, the whole curve's residuals show
+ *    them, said in a warning and the evidence (with the CB side's χ² rise) — unless, held so, the whole curve's residuals show
  *    structure (above poorResidualZ) that the free whole-curve fit's, within the status's
  *    reduced-χ² limit (3), do not: then the CB side's values are the ones that do not fit, and the
  *    free fit's stand (a warning says so). An assignment with more than maxAssignedStates (100) charge
@@ -400,7 +400,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
         errors = trialErrors(held, currentOf(held), noiseA, warnings);
         errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
         errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
-        heldNote = `${moved}: the VB reading does not fit with the CB values`;
+        heldNote = `${moved}, and the CB side refitted at them rises by χ² ${cbRise.toFixed(1)} (> ${F.wholeCurveCbChiSquare}): the VB reading does not fit with the CB values`;
         warnings.push(`${heldNote}; Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
       }
     }
