@@ -259,13 +259,18 @@ export function detectDelimiter(
   let bestScore = -1;
   for (const delimiter of candidates) {
     const counts = new Map<number, number>();
+    const rows = lines.map((line) => splitLine(line, delimiter));
+    for (const row of rows) counts.set(row.length, (counts.get(row.length) ?? 0) + 1);
+    let mode = 0;
+    let modeLines = 0;
+    for (const [n, k] of counts) if (k > modeLines || (k === modeLines && n > mode)) [mode, modeLines] = [n, k];
+    // A candidate that does not split the lines is out whatever its cells (read them only otherwise).
+    if (mode < 2 || lines.length === 0) continue;
     let cells = 0;
     let numeric = 0;
     let needComma = 0;
     let needDot = 0;
-    for (const line of lines) {
-      const row = splitLine(line, delimiter);
-      counts.set(row.length, (counts.get(row.length) ?? 0) + 1);
+    for (const row of rows) {
       for (const cell of row) {
         cells++;
         if (Number.isFinite(parseNumberCell(cell, false))) {
@@ -278,10 +283,6 @@ export function detectDelimiter(
         } else if (isMissingCell(cell)) numeric++;
       }
     }
-    let mode = 0;
-    let modeLines = 0;
-    for (const [n, k] of counts) if (k > modeLines || (k === modeLines && n > mode)) [mode, modeLines] = [n, k];
-    if (mode < 2 || lines.length === 0) continue;
     const score = (modeLines / lines.length) * (cells > 0 ? numeric / cells : 0);
     if (score > bestScore + 1e-9) {
       bestScore = score;
