@@ -197,6 +197,28 @@ describe("fast lane: generated plain tables (exact equivalence with the general 
     }
   }
 
+  it("with a byte-order mark, comments and a preamble in the head, and with options", () => {
+    const table = makeTable({ delimiter: ",", eol: "\r\n", header: true, currents: 3, shape: "upDown", other: true }, 4242);
+    const texts = [
+      "\ufeff" + table,
+      "# T: 4.5 K\r\n% tip = W\r\nInstrument X\r\nrun: 7\r\n\r\n" + table,
+      "\ufeff# sweep: 1\n\n" + table.replace(/\r\n/g, "\n"),
+    ];
+    for (const text of texts) {
+      expect(laneRows(text)).not.toBeNull();
+      expectSameRoads(text);
+    }
+    // Options: a current column left out (its numbers then skipped as an ignored column), the
+    // tip-bias convention, units for a headerless file, a high minimum of points (an error).
+    const headerless = makeTable({ delimiter: "\t", eol: "\n", header: false, currents: 3, shape: "up", other: false }, 99);
+    const options: ParseOptions[] = [{ currentColumns: [2] }, { biasPolarity: "tip" }, { biasUnit: "mV", currentUnit: "nA" }, { minPoints: 100_000 }, { delimiter: "whitespace" }];
+    for (const o of options) {
+      expectSameRoads(headerless, o);
+      expectSameRoads(texts[1], o);
+    }
+    expect(laneRows(headerless, { currentColumns: [2] })).not.toBeNull();
+  });
+
   it("the lane's column values equal readNumbers' (the general stage 6) cell by cell", () => {
     const text = makeTable({ delimiter: ",", eol: "\n", header: true, currents: 3, shape: "upDown", other: true }, 77);
     const rows = laneRows(text)!;
