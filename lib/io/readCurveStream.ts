@@ -5,14 +5,14 @@
  * numbers. Neither the whole text nor a string per row is ever held. Node only.
  */
 import { findDataRows, type DataRows } from "./parse/dataRows.ts";
-import { detectFormat, SAMPLE_LINES } from "./parse/format.ts";
 import { findHeader } from "./parse/header.ts";
-import { readMetadata, splitLines, type TextLines } from "./parse/lines.ts";
+import { HEAD_DATA_ROWS, HeadLines } from "./parse/head.ts";
+import { lazyArray, readMetadata, splitLines, type TextLines } from "./parse/lines.ts";
 import { readNumbers, type ColumnValues } from "./parse/numbers.ts";
 import { resolveParseOptions, type ParseOptions } from "./parse/options.ts";
 import { curveHead, finishCurve, parseCurveText, type ParsedCurve } from "./parse/parseCurveText.ts";
 import { addResolutions, finishResolutions, resolutionSums } from "./parse/resolution.ts";
-import { endsBlank, isDataRow, splitLine, startsLikeNumber } from "./cells.ts";
+import { endsBlank, splitLine, type DelimiterGuess } from "./cells.ts";
 import { forEachFileLine, withFileEncoding } from "./fileLines.ts";
 import { statSync } from "node:fs";
 
@@ -30,7 +30,7 @@ export interface CurveStreamOptions {
 export const CURVE_STREAM_DEFAULTS = Object.freeze({
   batchRows: 4096,
   /** Data rows the head holds after the first (the importer looks at the first 10 for a row-number column). */
-  headDataRows: 10,
+  headDataRows: HEAD_DATA_ROWS,
   /** A head that needs more lines than this is not a table worth streaming: the file is read whole. */
   maxHeadLines: 200_000,
   /** Texts of rows with a missing value kept for messages (the first of them is named). */
@@ -178,11 +178,9 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
   const fileBytes = statSync(path).size;
   const src = o.source;
   const D = CURVE_STREAM_DEFAULTS;
-  const head: string[] = [];
-  let numberLike = 0;
-  let format: ReturnType<typeof detectFormat> | null = null;
-  let firstData = -1; // content index of the first data row within the head
-  let contentSeen = 0;
+  const headLines = new HeadLines(src, o.delimiter, D.headDataRows);
+  const head = headLines.lines;
+  let format: DelimiterGuess | null = null;
   let headDone = false;
 
   // State after the head.
@@ -242,7 +240,7 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
 
   const finishHead = () => {
     headDone = true;
-    const h = curveHead(head.join("\n"), o);
+    const h = curveHead(head.join("\n"), o, format);
     file = h.file;
     table = h.table;
     stages = h;
@@ -282,28 +280,11 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
         else dataRow(line, li);
         return;
       }
-      head.push(line);
-      if (head.length > D.maxHeadLines) throw new ReadWhole();
-      const s = line.trimStart();
-      if (s === "" || s.charCodeAt(0) === 35 || s.charCodeAt(0) === 37) return;
-      contentSeen++;
-      if (numberLike < SAMPLE_LINES && startsLikeNumber(line)) numberLike++;
-      if (format === null) {
-        if (numberLike < SAMPLE_LINES) return;
-        format = detectFormat(splitLines(head.join("\n"), src), o.delimiter);
-        // Find the first data row among the content lines so far.
-        let k = 0;
-        for (const l of head) {
-          const t = l.trimStart();
-          if (t === "" || t.charCodeAt(0) === 35 || t.charCodeAt(0) === 37) continue;
-          if (isDataRow(splitLine(l, format.delimiter), format.decimalComma)) {
-            firstData = k;
-            break;
-          }
-          k++;
-        }
-      } else if (firstData < 0 && isDataRow(splitLine(line, format.delimiter), format.decimalComma)) firstData = contentSeen - 1;
-      if (firstData >= 0 && contentSeen - 1 - firstData >= D.headDataRows) finishHead();
+      if (headLines.lines.length >= D.maxHeadLines) throw new ReadWhole();
+      if (headLines.push(line)) {
+        format = headLines.format;
+        finishHead();
+      }
     },
     { chunkBytes: stream.chunkBytes, binaryFix: BINARY_FIX, onBytes: stream.onProgress ? (done, total) => stream.onProgress!(done / Math.max(1, total)) : undefined },
   );
@@ -329,16 +310,8 @@ function readPass(path: string, encoding: Parameters<typeof forEachFileLine>[1],
   // messages ask, so nothing per row is stored).
   const headContent = file.content;
   const first = table.first;
-  const content = new Proxy([] as number[], {
-    get: (target, prop) => {
-      if (typeof prop !== "string" || !/^\d+$/.test(prop)) return Reflect.get(target, prop);
-      const r = Number(prop);
-      return r < first ? headContent[r] : abs.at(r - first);
-    },
-  });
-  const lines = new Proxy([] as string[], {
-    get: (target, prop) => (typeof prop === "string" && /^\d+$/.test(prop) ? (badText.get(Number(prop)) ?? file.lines[Number(prop)] ?? "") : Reflect.get(target, prop)),
-  });
+  const content = lazyArray((r) => (r < first ? headContent[r] : abs.at(r - first)));
+  const lines = lazyArray((li) => badText.get(li) ?? file.lines[li] ?? "");
   const finalFile: TextLines = { lines, content, comments: [], metadata };
   const finalTable: DataRows = { rows: { length: table.first + nData } as unknown as string[][], first: table.first, ncols: table.ncols };
   const values: ColumnValues = columnsOut.map((c) => (c ? c.take() : null));

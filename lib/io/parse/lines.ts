@@ -177,3 +177,30 @@ export function lineNumber(file: TextLines, r: number): number {
 export function lineText(file: TextLines, r: number): string {
   return file.lines[file.content[r]];
 }
+
+/**
+ * An array whose elements are computed when read: for `TextLines.lines` and `.content` of a text
+ * read without a string per line (only messages ask for a line, so nothing per line is stored).
+ *
+ * Parameters
+ * ----------
+ * at : (i: number) => T
+ *     The element at index i.
+ *
+ * Returns
+ * -------
+ * T[]
+ *     A proxy of an empty array: an index reads `at(i)`; other properties are the empty array's
+ *     (its length is 0).
+ *
+ * Example
+ * -------
+ * ```ts
+ * lazyArray((i) => 2 * i)[21];  // => 42
+ * ```
+ */
+export function lazyArray<T>(at: (i: number) => T): T[] {
+  return new Proxy([] as T[], {
+    get: (target, prop) => (typeof prop === "string" && /^\d+$/.test(prop) ? at(Number(prop)) : Reflect.get(target, prop)),
+  });
+}

@@ -14,6 +14,7 @@ import { findDataRows, type DataRows } from "./dataRows.ts";
 import { detectFormat } from "./format.ts";
 import { groupColumns, type ColumnGroup } from "./groups.ts";
 import { findHeader, type Header } from "./header.ts";
+import { plainHead, readPlainRows } from "./fastRows.ts";
 import { splitLines, type TextLines } from "./lines.ts";
 import { readNumbers, type ColumnValues } from "./numbers.ts";
 import { columnResolutions } from "./resolution.ts";
@@ -83,6 +84,10 @@ export interface ParsedCurve {
  * 6b. Resolution (`resolution.ts`): per current and conductance column, the RMS over its cells of
  *    the value of one unit in the last written digit (in A or S); the curve's
  *    `meta.currentResolutionA` and `meta.conductanceResolutionS` are the RMS over the columns used.
+ * 6c. Fast lane (`fastRows.ts`): a plain numeric table of at least 200 data rows (LF or CRLF, a
+ *    decimal point, no quotes, comments or blank lines in the data, plain decimal numbers) has
+ *    only its head read by steps 1–5; its rows are then read in one pass over the text, to the
+ *    same values, resolutions and messages as step 6. Any other text takes steps 1–6 as above.
  * 7. Sweeps (`sweeps.ts`): a bias column that changes direction is cut into monotonic segments
  *    (see `splitMonotonic`). Segments that cover at least 90 % of the column's bias span are
  *    sweeps; up to two shorter segments (an interrupted sweep) are dropped with a warning. A
@@ -110,10 +115,23 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
   if (typeof text !== "string") {
     throw new DotspecError("io/not-text", `${src}: the input must be text (a string); got ${typeof text}`);
   }
+  return fastLane(text, o) ?? generalPath(text, o);
+}
+
+/**
+ * {@link parseCurveText} without the fast lane: every text through the general path. For tests
+ * that compare the two roads; not exported from the library.
+ */
+export function parseCurveTextGeneral(text: string, options: ParseOptions = {}): ParsedCurve {
+  return generalPath(text, resolveParseOptions(options));
+}
+
+/** Stages 1–9 on the whole text, a string per line and per cell. */
+function generalPath(text: string, o: ResolvedOptions): ParsedCurve {
   const { file, format, table, header, columns, groups, biasColumns, warnings } = curveHead(text, o);
 
   // 6. Numbers.
-  const values = readNumbers(file, format, table, header, columns, src);
+  const values = readNumbers(file, format, table, header, columns, o.source);
   const resolutions = columnResolutions(table, columns, values, format.decimalComma);
 
   // 7.–9.
@@ -121,17 +139,40 @@ export function parseCurveText(text: string, options: ParseOptions = {}): Parsed
 }
 
 /**
+ * Stages 1–5 on the head of a plain numeric table, stage 6 by one pass over the rest of the text
+ * (`fastRows.ts`), then stages 7–9; null when the text is not such a table (or the head alone
+ * fails a stage: the general path then throws its own error on the whole text).
+ */
+function fastLane(text: string, o: ResolvedOptions): ParsedCurve | null {
+  const head = plainHead(text, o);
+  if (head === null) return null;
+  let stages: ReturnType<typeof curveHead>;
+  try {
+    stages = curveHead(head.text, o, head.format);
+  } catch (err) {
+    if (err instanceof DotspecError) return null;
+    throw err;
+  }
+  const rows = readPlainRows(text, head, stages);
+  if (rows === null) return null;
+  const { format, header, columns, groups, biasColumns, warnings } = stages;
+  return finishCurve({ o, format, header, columns, groups, biasColumns, warnings, ...rows, metadata: rows.file.metadata });
+}
+
+/**
  * Stages 1–5 of the importer on a text (the whole file, or the head of a streamed one): lines,
  * comments and metadata; delimiter and decimal separator; data rows and header; columns with
  * their roles and units; current and conductance columns grouped with their bias column.
+ * `knownFormat`, when given, is what stage 2 finds on this text (detected on the same sample
+ * lines by the caller), and stage 2 is skipped.
  */
-export function curveHead(text: string, o: ResolvedOptions) {
+export function curveHead(text: string, o: ResolvedOptions, knownFormat: DelimiterGuess | null = null) {
   const src = o.source;
   const warnings: string[] = [];
   // 1. Lines, comments, metadata.
   const file = splitLines(text, src);
-  // 2. Delimiter and decimal separator.
-  const format = detectFormat(file, o.delimiter);
+  // 2. Delimiter and decimal separator (unless already detected on the same sample).
+  const format = knownFormat ?? detectFormat(file, o.delimiter);
   // 3. Rows, start of the data, header (and the preamble above it).
   const table = findDataRows(file, format, src);
   const header = findHeader(file, format.delimiter, table, src, warnings);

@@ -68,6 +68,11 @@ export function cellQuantum(cell: string, decimalComma: boolean): number {
     if (!Number.isInteger(e) || s.length === i + 1) return NaN;
     exponent = e;
   }
+  return quantumOf(exponent, decimals);
+}
+
+/** 10^(exponent − decimals) from the table of {@link cellQuantum}; NaN outside 10^-400 … 10^400. */
+export function quantumOf(exponent: number, decimals: number): number {
   const k = exponent - decimals + 400;
   return k >= 0 && k <= 800 ? POW10[k] : NaN;
 }
@@ -172,17 +177,24 @@ export function addResolutions(acc: ResolutionSums, table: DataRows, columns: re
     for (let r = first; r < rows.length; r++) {
       const x = v[r - first];
       if (!Number.isFinite(x)) continue;
-      const q = cellQuantum(rows[r][col.index], decimalComma);
-      if (!(q > 0)) continue;
-      const a = x === 0 ? sums.zero : sums.nonzero;
-      if (q > a.scale) {
-        a.sum = a.scale === 0 ? 0 : a.sum * (a.scale / q) ** 2;
-        a.scale = q;
-      }
-      a.sum += (q / a.scale) ** 2;
-      a.count++;
+      addQuantum(sums, x, cellQuantum(rows[r][col.index], decimalComma));
     }
   }
+}
+
+/**
+ * Adds one cell, of value `x` (finite, SI) and quantum `q` (in the column's unit), to the running
+ * sums of its column; a `q` that is not positive (NaN, 0) is skipped. Cells must come in row order.
+ */
+export function addQuantum(sums: NonNullable<ResolutionSums[number]>, x: number, q: number): void {
+  if (!(q > 0)) return;
+  const a = x === 0 ? sums.zero : sums.nonzero;
+  if (q > a.scale) {
+    a.sum = a.scale === 0 ? 0 : a.sum * (a.scale / q) ** 2;
+    a.scale = q;
+  }
+  a.sum += (q / a.scale) ** 2;
+  a.count++;
 }
 
 /** The resolutions from the running sums (see {@link columnResolutions}). */
