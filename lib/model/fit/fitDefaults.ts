@@ -132,8 +132,10 @@ export const FIT_DEFAULTS = Object.freeze({
   wholeCurveRatio: 2,
   /**
    * Combined standard errors (whole curve and CB side) by which the whole-curve Ec, or log₁₀
-   * Γtip/Γsub, may move from the CB side's before the VB reading counts as pulling it: then Ec and
-   * Γtip/Γsub are held at the CB side's values and the levels are fitted to the whole curve with them.
+   * Γtip/Γsub, may move from the CB side's before the VB reading counts as pulling it: then the
+   * whole curve is also fitted with Ec and Γtip/Γsub held at the CB side's values, and that fit
+   * stands only where it removes residual structure (above FIT_STATUS_DEFAULTS.poorResidualZ)
+   * that the free whole-curve fit leaves.
    */
   wholeCurveEcSigmas: 1,
   /**
