@@ -12,7 +12,8 @@ export const LADDER_LEVELS_DEFAULTS = Object.freeze({
   /**
    * Note 5: the least tolerance of "one Ec beyond a shell's last peak", as a fraction of Ec
    * (the shell's own spacings set it where they scatter more); peak positions at the benchmark's
-   * noise scatter by a few % of Ec (common practice, no source).
+   * noise scatter by a few % of Ec (common practice, no source). Note 8: two peaks whose
+   * distances from one Ec off the ladder differ by less are not told apart by them.
    */
   continuationToleranceMin: 0.05,
 });
@@ -41,8 +42,9 @@ export interface LadderLevels {
    */
   flanks: { index: number; sharedIndex: number; reason: string }[];
   /**
-   * Peaks at predicted resonances left as resonances because a peak beside them sits on the
-   * ladder (note 6): the resonance, that peak's index in the peak list and the reason in words.
+   * Peaks at predicted resonances left as resonances because another peak sits nearer on the
+   * ladder (one beside them, note 6, or a later one for the same shell's last place, note 8): the
+   * resonance, that peak's index in the peak list and the reason in words.
    */
   passedOver: { resonance: LadderResonance; levelIndex: number; reason: string }[];
 }
@@ -111,6 +113,12 @@ export interface LadderLevels {
  *    it is the flank of the shared peak's step, split off by the peak search where the level and
  *    the resonance lie a fraction of a width apart. It is named in `flanks` (the caller sets it
  *    aside), so that the ladder takes the shared peak rather than the flank.
+ * 8. Judged from the gap edge outward, the first peak that passes notes 2–3 takes a shell's last
+ *    free place whatever its fit (a resonance 0.7–1.3 Ec before the shell's first peak passes
+ *    note 2). A later peak that passes them but for the shell's need, and lies nearer one Ec
+ *    from its ladder neighbours than a peak kept earlier for that shell by more than
+ *    `LADDER_LEVELS_DEFAULTS.continuationToleranceMin` × Ec_V (the scatter of peak positions),
+ *    takes the place: it is kept, and the earlier one (with its flanks) stays a resonance.
  *
  * References
  * ----------
@@ -144,6 +152,8 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
   // Peaks of the same side in no multiplet and at no predicted resonance (notes 6–7).
   const free = (side: number) => peaks.map((_, i) => i).filter((i) => Math.sign(peaks[i].biasV) === side && !atResonance.has(i) && !member(i));
   const order = [...predicted].sort((a, b) => at(a.index) - at(b.index));
+  // Each kept level's distance from one Ec off its ladder neighbours, V (note 8).
+  const kept = new Map<number, number>();
   const clear = (g: number | null) => g === null || g >= (1 - t) * ecV;
   const step = (g: number | null) => g !== null && Math.abs(g - ecV) <= t * ecV;
   for (const r of order) {
@@ -170,18 +180,45 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
       const continues = next !== undefined && !pending.has(next) && continuesShell(own, at(next), ecV);
       return own.length + (continues ? 1 : 0) < h.m.degeneracy;
     };
-    const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
+    const homes = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined];
+    let home = homes.find(needs);
+    // How far a position lies from one Ec after the ladder peak before it or before the one after it.
+    const offLadder = (v: number) => Math.min(...[before, after].filter((i) => i !== undefined).map((i) => Math.abs(Math.abs(v - at(i!)) - ecV)));
+    // Note 8: a shell made full by a level kept further from the ladder gives that place up.
+    let displaced: (typeof out.levels)[number] | undefined;
+    if (!home && clear(gapBefore) && clear(gapAfter)) {
+      for (const h of homes) {
+        if (!h || home) continue;
+        // Not a neighbour of this peak: the gaps above were measured from it.
+        const worst = out.levels.filter((l) => h.peaks.has(l.resonance.index) && l.resonance.index !== before && l.resonance.index !== after).sort((a, b) => (kept.get(b.resonance.index) ?? 0) - (kept.get(a.resonance.index) ?? 0))[0];
+        if (!worst || (kept.get(worst.resonance.index) ?? 0) - offLadder(x) <= LADDER_LEVELS_DEFAULTS.continuationToleranceMin * ecV) continue;
+        h.peaks.delete(worst.resonance.index);
+        if (needs(h)) {
+          home = h;
+          displaced = worst;
+        } else h.peaks.add(worst.resonance.index);
+      }
+    }
     const others = home ? [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b) : [];
     const levelStepA = others.length ? others[others.length >> 1] : peaks[r.index].stepA;
     // A peak holding a level steps at least as much as the level (note 3), to within the spread of
     // one shell's charging steps.
     const holdsLevel = peaks[r.index].stepA >= minRatio * levelStepA;
-    // How far a position lies from one Ec after the ladder peak before it or before the one after it.
-    const offLadder = (v: number) => Math.min(...[before, after].filter((i) => i !== undefined).map((i) => Math.abs(Math.abs(v - at(i!)) - ecV)));
     // Note 6: a peak beside it, nearer one Ec from the ladder and stepping like a level, is the level.
     const likeLevel = (i: number) => peaks[i].stepA >= minRatio * levelStepA && peaks[i].stepA <= ASSIGN_DEFAULTS.fillingStepRatio[1] * levelStepA;
     const rival = free(side).find((i) => Math.abs(at(i) - x) < (1 - t) * ecV && offLadder(at(i)) < offLadder(x) && likeLevel(i));
     if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home && holdsLevel && rival === undefined) {
+      if (displaced) {
+        out.levels.splice(out.levels.indexOf(displaced), 1);
+        out.flanks = out.flanks.filter((f) => f.sharedIndex !== displaced!.resonance.index);
+        out.resonances.push(displaced.resonance);
+        out.passedOver.push({
+          resonance: displaced.resonance,
+          levelIndex: r.index,
+          reason: `peak at ${peaks[displaced.resonance.index].biasV.toFixed(3)} V left a resonance (expected at ${displaced.resonance.predictedV.toFixed(3)} V): the peak at ${peaks[r.index].biasV.toFixed(3)} V lies nearer one Ec on the ladder of ${home.m.label}, which holds one of them`,
+        });
+      }
+      kept.set(r.index, offLadder(x));
       home.peaks.add(r.index);
       out.levels.push({
         resonance: r,
@@ -199,6 +236,7 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
         });
       }
     } else {
+      if (displaced) home!.peaks.add(displaced.resonance.index);
       for (const h of members) h.peaks.delete(r.index);
       out.resonances.push(r);
       if (rival !== undefined && home && holdsLevel && clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter))) {

@@ -128,6 +128,33 @@ describe("ladderLevels: a peak beside one at a predicted resonance (notes 6 and 
   });
 });
 
+describe("ladderLevels: a shell's last free place (note 8)", () => {
+  // Closed form Ec/η = 0.3 V: s 1.0, 1.3 V; p 2.3 … 3.8 V in steps of 0.3 V with p5 (3.5 V) at a
+  // predicted resonance, and another predicted resonance just below p1; 1 pA per charging step.
+  const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+  const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [3, 4, 5, 6, 8] };
+  const judge = (belowV: number, p5V: number) => {
+    const peaks = list([1.0, 1.3, belowV, 2.3, 2.6, 2.9, 3.2, p5V, 3.8], [1, 1, 2, 1, 1, 1, 1, 2, 1].map((x) => x * 1e-12));
+    return ladderLevels(peaks, [at(peaks, 2), at(peaks, 7)], { multiplets: [s, p], chargingEnergyV: ecV });
+  };
+
+  it("gives the place of a peak kept 0.05 V off one Ec to a later one on the ladder", () => {
+    // 2.05 V lies 0.25 V before p1 (0.05 V = 17 % of Ec off), 3.5 V exactly one Ec from p4 and p6.
+    const out = judge(2.05, 3.5);
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([7]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+    expect(out.passedOver.map((o) => [o.resonance.index, o.levelIndex])).toEqual([[2, 7]]);
+  });
+
+  it("keeps the first when the two lie within 5 % of Ec of each other's fit (the scatter of positions)", () => {
+    // 2.005 V is 0.005 V off one Ec before p1, 3.5 V on it: 0.005 V < 0.05 × 0.3 V.
+    const out = judge(2.005, 3.5);
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([2]);
+    expect(out.resonances.map((r) => r.index)).toEqual([7]);
+    expect(out.passedOver).toEqual([]);
+  });
+});
+
 describe("LADDER_LEVELS_DEFAULTS", () => {
   it("is locked and frozen", () => {
     // common practice (no source): peak positions scatter by a few % of Ec at the benchmark's noise.

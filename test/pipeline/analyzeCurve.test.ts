@@ -168,4 +168,15 @@ describe("analyzeCurve(curve, { eta }): a p level under a second-junction resona
     expect(a.peaks[k].role).toBe("second-junction");
     expect(a.assignment.evidence.reasons.some((r) => r.includes("lies nearer one Ec on the ladder of p"))).toBe(true);
   }, 30_000);
+
+  it("gives p's last place to the peak holding p2 and a resonance, not to a resonance below p1 (draw 1184)", () => {
+    // Truth: a resonance alone at 2.580 V, 0.36 V below p1 (2.944 V); p2 at 3.262 V with a resonance at 3.236 V.
+    const { a, p, truth, tolV } = analyse(1184);
+    expect(p.peaksV.length).toBe(6);
+    expectClose(p.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
+    const alone = truth.secondJunctionPeaksV.find((v) => v > 0 && v < truth.pPeaksV[0])!;
+    const k = a.peaks.findIndex((q) => Math.abs(q.biasV - alone) < tolV);
+    expect(a.peaks[k].role).toBe("second-junction");
+    expect(a.assignment.evidence.reasons.some((r) => r.includes("which holds one of them"))).toBe(true);
+  }, 30_000);
 });
