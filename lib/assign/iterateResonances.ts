@@ -44,7 +44,11 @@ export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
  *    resonance through the substrate junction, η/(1 − η)·(|V| − N·Ec_V) at the opposite bias, and
  *    names the peaks found there.
  * 2. `ladderLevels` keeps those that sit where the ladder expects a charging peak it lacks as
- *    levels (with their level's share of the step) and the rest as resonances.
+ *    levels (with their level's share of the step) and the rest as resonances; a weak peak it
+ *    names as the flank of a kept (shared) peak's step is given a zero step, so that the noise
+ *    rule sets it aside. The reasons of the levels and flanks go to the evidence, and that of a
+ *    resonance passed over for a peak nearer on the ladder (`ladderLevels` notes 6 and 8) for as
+ *    long as it stays a resonance.
  * 3. The ladder is assigned again with exactly those resonances set aside (a first guess from
  *    the plain −η·V/(1 − η) of every peak, which misplaces the resonances of higher levels by
  *    N·Ec/(1 − η), is replaced). Rounds repeat until the resonances and levels no longer change,
@@ -71,23 +75,28 @@ export function iterateResonances(
 ): Assignment {
   let current = base;
   let lastKey = "";
+  const passed = new Map<number, string>();
   for (let round = 0; round < ITERATE_RESONANCES_DEFAULTS.maxRounds; round++) {
     if (current.regime !== "shell-filling" || current.quantities.chargingEnergyV === null) break;
     const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
     if (!(ecV > 0)) break;
     const predicted = ladderResonances(peaks, { multiplets: current.multiplets, chargingEnergyV: ecV, eta });
     const split = ladderLevels(peaks, predicted, { multiplets: current.multiplets, chargingEnergyV: ecV });
-    const key = `${split.resonances.map((r) => r.index).sort((a, b) => a - b)}|${split.levels.map((l) => l.resonance.index).sort((a, b) => a - b)}`;
+    const key = `${split.resonances.map((r) => r.index).sort((a, b) => a - b)}|${split.levels.map((l) => l.resonance.index).sort((a, b) => a - b)}|${split.flanks.map((f) => f.index).sort((a, b) => a - b)}`;
     const now = `${current.evidence.secondJunction.map((r) => r.index).sort((a, b) => a - b)}`;
-    if (key === lastKey || (round === 0 && key === `${now}|`)) break;
+    if (key === lastKey || (round === 0 && key === `${now}||`)) break;
     lastKey = key;
-    const share = new Map(split.levels.map((l) => [l.resonance.index, l.levelStepA]));
+    // A kept level keeps its share of the step; a flank of a shared peak steps nothing of its own.
+    const share = new Map([...split.levels.map((l) => [l.resonance.index, l.levelStepA] as const), ...split.flanks.map((f) => [f.index, 0] as const)]);
     const adjusted = share.size ? peaks.map((p, i) => (share.has(i) ? { ...p, stepA: share.get(i)! } : p)) : peaks;
+    // A resonance passed over for a peak on the ladder keeps its reason while it stays a resonance.
+    for (const o of split.passedOver) passed.set(o.resonance.index, o.reason);
+    const stillPassed = split.resonances.filter((r) => passed.has(r.index)).map((r) => passed.get(r.index)!);
     const next = assign(adjusted, split.resonances);
     if (next.regime !== "shell-filling") break;
     // The earlier stages' conclusions stand (per-peak notes are redone by the new assignment).
     const earlier = base.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
-    next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason));
+    next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason), ...stillPassed, ...split.flanks.map((f) => f.reason));
     current = next;
   }
   return current;

@@ -12,7 +12,8 @@ export const LADDER_LEVELS_DEFAULTS = Object.freeze({
   /**
    * Note 5: the least tolerance of "one Ec beyond a shell's last peak", as a fraction of Ec
    * (the shell's own spacings set it where they scatter more); peak positions at the benchmark's
-   * noise scatter by a few % of Ec (common practice, no source).
+   * noise scatter by a few % of Ec (common practice, no source). Note 8: two peaks whose
+   * distances from one Ec off the ladder differ by less are not told apart by them.
    */
   continuationToleranceMin: 0.05,
 });
@@ -35,6 +36,17 @@ export interface LadderLevels {
    * multiplet's other peaks) and the reason in words.
    */
   levels: { resonance: LadderResonance; label: string; levelStepA: number; reason: string }[];
+  /**
+   * Weak peaks beside a kept level that are a part of its step (note 7): the peak, the kept peak
+   * it belongs to (indices in the peak list) and the reason in words.
+   */
+  flanks: { index: number; sharedIndex: number; reason: string }[];
+  /**
+   * Peaks at predicted resonances left as resonances because another peak sits nearer on the
+   * ladder (one beside them, note 6, or a later one for the same shell's last place, note 8): the
+   * resonance, that peak's index in the peak list and the reason in words.
+   */
+  passedOver: { resonance: LadderResonance; levelIndex: number; reason: string }[];
 }
 
 /**
@@ -52,7 +64,8 @@ export interface LadderLevels {
  * Returns
  * -------
  * LadderLevels
- *     The resonances that stand and the peaks kept as levels.
+ *     The resonances that stand, the peaks kept as levels and the weak peaks beside them that
+ *     are part of their step.
  *
  * Notes
  * -----
@@ -87,6 +100,25 @@ export interface LadderLevels {
  *    it is the shell's own charging peak — the next shell would start Ec + Δ/η beyond — and
  *    counts toward the degeneracy. A resonance just below a shell's first peak would otherwise
  *    pass for that first peak and push the shell's last one into the next shell.
+ * 6. A peak at a predicted resonance is not kept as a level where another peak, within
+ *    (1 − t)·Ec_V of it, in no multiplet and at no predicted resonance, lies nearer one Ec from
+ *    the ladder peak before or after it and steps like a level of the shell alone (within
+ *    `ASSIGN_DEFAULTS.fillingStepRatio` × the level's share, note 3; a peak stepping more
+ *    holds a resonance too): only one of two peaks that close can be a charging peak (note 1),
+ *    and the one on the ladder is the level; the peak at the resonance stays a resonance.
+ * 7. A kept peak holds the level and the resonance together (a shared peak). Another peak closer
+ *    to it than `ASSIGN_DEFAULTS.minLadderSpacingFraction` × Ec_V, in no multiplet and at no
+ *    predicted resonance, stepping less than `ASSIGN_DEFAULTS.fillingStepRatio[0]` × the level's
+ *    share, holds no level (note 3) and cannot be a charging peak beside the shared one (note 1):
+ *    it is the flank of the shared peak's step, split off by the peak search where the level and
+ *    the resonance lie a fraction of a width apart. It is named in `flanks` (the caller sets it
+ *    aside), so that the ladder takes the shared peak rather than the flank.
+ * 8. Judged from the gap edge outward, the first peak that passes notes 2–3 takes a shell's last
+ *    free place whatever its fit (a resonance 0.7–1.3 Ec before the shell's first peak passes
+ *    note 2). A later peak that passes them but for the shell's need, and lies nearer one Ec
+ *    from its ladder neighbours than a peak kept earlier for that shell by more than
+ *    `LADDER_LEVELS_DEFAULTS.continuationToleranceMin` × Ec_V (the scatter of peak positions),
+ *    takes the place: it is kept, and the earlier one (with its flanks) stays a resonance.
  *
  * References
  * ----------
@@ -109,12 +141,19 @@ export interface LadderLevels {
 export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], predicted: readonly LadderResonance[], inputs: LadderLevelInputs): LadderLevels {
   const ecV = inputs.chargingEnergyV;
   const t = ASSIGN_DEFAULTS.valenceChargingTolerance;
-  const out: LadderLevels = { resonances: [], levels: [] };
+  const out: LadderLevels = { resonances: [], levels: [], flanks: [], passedOver: [] };
+  const minRatio = ASSIGN_DEFAULTS.fillingStepRatio[0];
   const at = (i: number) => Math.abs(peaks[i].biasV);
   // The ladder: each multiplet's peaks other than the resonances found so far (a kept level joins).
   const pending = new Set(predicted.map((r) => r.index));
+  const atResonance = new Set(predicted.map((r) => r.index));
   const members = inputs.multiplets.map((m) => ({ m, peaks: new Set(m.peakIndices) }));
+  const member = (i: number) => members.some(({ peaks: s }) => s.has(i));
+  // Peaks of the same side in no multiplet and at no predicted resonance (notes 6–7).
+  const free = (side: number) => peaks.map((_, i) => i).filter((i) => Math.sign(peaks[i].biasV) === side && !atResonance.has(i) && !member(i));
   const order = [...predicted].sort((a, b) => at(a.index) - at(b.index));
+  // Each kept level's distance from one Ec off its ladder neighbours, V (note 8).
+  const kept = new Map<number, number>();
   const clear = (g: number | null) => g === null || g >= (1 - t) * ecV;
   const step = (g: number | null) => g !== null && Math.abs(g - ecV) <= t * ecV;
   for (const r of order) {
@@ -141,13 +180,45 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
       const continues = next !== undefined && !pending.has(next) && continuesShell(own, at(next), ecV);
       return own.length + (continues ? 1 : 0) < h.m.degeneracy;
     };
-    const home = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined].find(needs);
+    const homes = [step(gapBefore) ? of(before) : undefined, step(gapAfter) ? of(after) : undefined, before === undefined ? band[0] : undefined];
+    let home = homes.find(needs);
+    // How far a position lies from one Ec after the ladder peak before it or before the one after it.
+    const offLadder = (v: number) => Math.min(...[before, after].filter((i) => i !== undefined).map((i) => Math.abs(Math.abs(v - at(i!)) - ecV)));
+    // Note 8: a shell made full by a level kept further from the ladder gives that place up.
+    let displaced: (typeof out.levels)[number] | undefined;
+    if (!home && clear(gapBefore) && clear(gapAfter)) {
+      for (const h of homes) {
+        if (!h || home) continue;
+        // Not a neighbour of this peak: the gaps above were measured from it.
+        const worst = out.levels.filter((l) => h.peaks.has(l.resonance.index) && l.resonance.index !== before && l.resonance.index !== after).sort((a, b) => (kept.get(b.resonance.index) ?? 0) - (kept.get(a.resonance.index) ?? 0))[0];
+        if (!worst || (kept.get(worst.resonance.index) ?? 0) - offLadder(x) <= LADDER_LEVELS_DEFAULTS.continuationToleranceMin * ecV) continue;
+        h.peaks.delete(worst.resonance.index);
+        if (needs(h)) {
+          home = h;
+          displaced = worst;
+        } else h.peaks.add(worst.resonance.index);
+      }
+    }
     const others = home ? [...home.peaks].filter((i) => i !== r.index).map((i) => peaks[i].stepA).sort((a, b) => a - b) : [];
     const levelStepA = others.length ? others[others.length >> 1] : peaks[r.index].stepA;
     // A peak holding a level steps at least as much as the level (note 3), to within the spread of
     // one shell's charging steps.
-    const holdsLevel = peaks[r.index].stepA >= ASSIGN_DEFAULTS.fillingStepRatio[0] * levelStepA;
-    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home && holdsLevel) {
+    const holdsLevel = peaks[r.index].stepA >= minRatio * levelStepA;
+    // Note 6: a peak beside it, nearer one Ec from the ladder and stepping like a level, is the level.
+    const likeLevel = (i: number) => peaks[i].stepA >= minRatio * levelStepA && peaks[i].stepA <= ASSIGN_DEFAULTS.fillingStepRatio[1] * levelStepA;
+    const rival = free(side).find((i) => Math.abs(at(i) - x) < (1 - t) * ecV && offLadder(at(i)) < offLadder(x) && likeLevel(i));
+    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home && holdsLevel && rival === undefined) {
+      if (displaced) {
+        out.levels.splice(out.levels.indexOf(displaced), 1);
+        out.flanks = out.flanks.filter((f) => f.sharedIndex !== displaced!.resonance.index);
+        out.resonances.push(displaced.resonance);
+        out.passedOver.push({
+          resonance: displaced.resonance,
+          levelIndex: r.index,
+          reason: `peak at ${peaks[displaced.resonance.index].biasV.toFixed(3)} V left a resonance (expected at ${displaced.resonance.predictedV.toFixed(3)} V): the peak at ${peaks[r.index].biasV.toFixed(3)} V lies nearer one Ec on the ladder of ${home.m.label}, which holds one of them`,
+        });
+      }
+      kept.set(r.index, offLadder(x));
       home.peaks.add(r.index);
       out.levels.push({
         resonance: r,
@@ -155,9 +226,26 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
         levelStepA,
         reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a charging peak of ${home.m.label}: it lies where the ladder expects one (one Ec from a neighbour, none closer than ${(1 - t).toFixed(1)} Ec) and ${home.m.label} needs it; the resonance at ${r.predictedV.toFixed(3)} V overlaps it`,
       });
+      // Note 7: a weak peak crowding the shared peak is a flank of its step.
+      for (const i of free(side)) {
+        if (Math.abs(at(i) - x) >= ASSIGN_DEFAULTS.minLadderSpacingFraction * ecV || peaks[i].stepA >= minRatio * levelStepA || out.flanks.some((f) => f.index === i)) continue;
+        out.flanks.push({
+          index: i,
+          sharedIndex: r.index,
+          reason: `peak at ${peaks[i].biasV.toFixed(3)} V set aside: closer than ${ASSIGN_DEFAULTS.minLadderSpacingFraction} Ec to the peak at ${peaks[r.index].biasV.toFixed(3)} V that holds a level of ${home.m.label} and a resonance, and stepping less than ${minRatio} × the level's, it is a flank of that peak's step (no charging peak)`,
+        });
+      }
     } else {
+      if (displaced) home!.peaks.add(displaced.resonance.index);
       for (const h of members) h.peaks.delete(r.index);
       out.resonances.push(r);
+      if (rival !== undefined && home && holdsLevel && clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter))) {
+        out.passedOver.push({
+          resonance: r,
+          levelIndex: rival,
+          reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V left a resonance (expected at ${r.predictedV.toFixed(3)} V): the peak at ${peaks[rival].biasV.toFixed(3)} V beside it lies nearer one Ec on the ladder of ${home.m.label} and steps like its level`,
+        });
+      }
     }
   }
   return out;

@@ -94,6 +94,67 @@ describe("ladderLevels(peaks, predicted, inputs)", () => {
   });
 });
 
+describe("ladderLevels: a peak beside one at a predicted resonance (notes 6 and 7)", () => {
+  // Closed form Ec/η = 0.3 V: s 1.0, 1.3 V; p from 2.3 V in steps of 0.3 V; 1 pA per charging step.
+  const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+
+  it("leaves a peak at a predicted resonance a resonance when a peak beside it sits one Ec before p's next peak and steps like a level", () => {
+    // The resonance at 2.25 V (2 pA: level-like step plus resonance) was read as p1; the peak at
+    // 2.30 V (1 pA) lies exactly one Ec before p2 at 2.6 V, the resonance 0.05 V off.
+    const peaks = list([1.0, 1.3, 2.25, 2.3, 2.6, 2.9, 3.2, 3.5], [1, 1, 2, 1, 1, 1, 1, 1].map((x) => x * 1e-12));
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [2, 4, 5, 6, 7] };
+    const out = ladderLevels(peaks, [at(peaks, 2)], { multiplets: [s, p], chargingEnergyV: ecV });
+    expect(out.levels).toEqual([]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+    expect(out.passedOver.map((o) => [o.resonance.index, o.levelIndex])).toEqual([[2, 3]]);
+    // A neighbour stepping 2 × the shell's steps (above the 1.3 of one shell's charging steps)
+    // holds a resonance too: the peak at the prediction stays the level.
+    const strong = list([1.0, 1.3, 2.25, 2.3, 2.6, 2.9, 3.2, 3.5], [1, 1, 2, 2, 1, 1, 1, 1].map((x) => x * 1e-12));
+    const kept = ladderLevels(strong, [at(strong, 2)], { multiplets: [s, p], chargingEnergyV: ecV });
+    expect(kept.levels.map((l) => l.resonance.index)).toEqual([2]);
+    expect(kept.passedOver).toEqual([]);
+  });
+
+  it("names a weak peak closer than 0.65 Ec to a kept shared peak as its flank, and not one that steps like a level", () => {
+    // p: 2.3, 2.6, [2.9: level + resonance, 2 pA], 3.2, 3.5 with a peak of 0.3 pA at 2.87 V.
+    const weak = list([1.0, 1.3, 2.3, 2.6, 2.87, 2.9, 3.2, 3.5], [1, 1, 1, 1, 0.3, 2, 1, 1].map((x) => x * 1e-12));
+    const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [2, 3, 6, 7] };
+    const out = ladderLevels(weak, [at(weak, 5)], { multiplets: [s, p], chargingEnergyV: ecV });
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([5]);
+    expect(out.flanks.map((f) => [f.index, f.sharedIndex])).toEqual([[4, 5]]);
+    // 0.7 pA is at least 0.6 × the level's 1 pA (the least charging step ratio in shell filling): no flank.
+    const like = list([1.0, 1.3, 2.3, 2.6, 2.87, 2.9, 3.2, 3.5], [1, 1, 1, 1, 0.7, 2, 1, 1].map((x) => x * 1e-12));
+    expect(ladderLevels(like, [at(like, 5)], { multiplets: [s, p], chargingEnergyV: ecV }).flanks).toEqual([]);
+  });
+});
+
+describe("ladderLevels: a shell's last free place (note 8)", () => {
+  // Closed form Ec/η = 0.3 V: s 1.0, 1.3 V; p 2.3 … 3.8 V in steps of 0.3 V with p5 (3.5 V) at a
+  // predicted resonance, and another predicted resonance just below p1; 1 pA per charging step.
+  const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+  const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [3, 4, 5, 6, 8] };
+  const judge = (belowV: number, p5V: number) => {
+    const peaks = list([1.0, 1.3, belowV, 2.3, 2.6, 2.9, 3.2, p5V, 3.8], [1, 1, 2, 1, 1, 1, 1, 2, 1].map((x) => x * 1e-12));
+    return ladderLevels(peaks, [at(peaks, 2), at(peaks, 7)], { multiplets: [s, p], chargingEnergyV: ecV });
+  };
+
+  it("gives the place of a peak kept 0.05 V off one Ec to a later one on the ladder", () => {
+    // 2.05 V lies 0.25 V before p1 (0.05 V = 17 % of Ec off), 3.5 V exactly one Ec from p4 and p6.
+    const out = judge(2.05, 3.5);
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([7]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+    expect(out.passedOver.map((o) => [o.resonance.index, o.levelIndex])).toEqual([[2, 7]]);
+  });
+
+  it("keeps the first when the two lie within 5 % of Ec of each other's fit (the scatter of positions)", () => {
+    // 2.005 V is 0.005 V off one Ec before p1, 3.5 V on it: 0.005 V < 0.05 × 0.3 V.
+    const out = judge(2.005, 3.5);
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([2]);
+    expect(out.resonances.map((r) => r.index)).toEqual([7]);
+    expect(out.passedOver).toEqual([]);
+  });
+});
+
 describe("LADDER_LEVELS_DEFAULTS", () => {
   it("is locked and frozen", () => {
     // common practice (no source): peak positions scatter by a few % of Ec at the benchmark's noise.
