@@ -6,7 +6,7 @@
 // loader, about 10 ms of every start, and `--help` and `--version` never need that loader (below).
 "use strict";
 
-const { readFileSync, statSync, writeFileSync } = require("node:fs");
+const { fstatSync, readFileSync, statSync, writeFileSync, writeSync } = require("node:fs");
 const { dirname, join } = require("node:path");
 
 // A short run is over before V8's optimising compiler pays back its cost: at its default
@@ -49,7 +49,7 @@ async function run() {
   const which = codeCacheMode === "off" ? null : !argv.some((a) => !a.startsWith("-")) ? BUNDLES.help : short ? BUNDLES.command : null;
   const bundle = which && fromBundle(which);
   const { main } = bundle?.exports ?? (await commandModule());
-  const code = await main(argv);
+  const code = await main(argv, which === BUNDLES.help ? { stdout: directStream(1), stderr: directStream(2) } : {});
   if (codeCacheMode === "write") bundle?.writeCache();
   return code;
 }
@@ -123,6 +123,37 @@ function fromBundle({ file, usable }) {
       const data = script.createCachedData();
       writeFileSync(cacheFile, data);
       console.error(`dotspec: code cache written (${(data.length / 1024).toFixed(0)} KiB)`);
+    },
+  };
+}
+
+/**
+ * A run that names no command writes a few lines: straight to the file descriptor where it is a
+ * pipe, a file or a socket (never a terminal), without the stream Node would build for
+ * process.stdout on first use (its stream and terminal modules, about 5 ms). Undefined for a
+ * character device (a terminal, whose width the help needs, or /dev/null) or where the
+ * descriptor cannot be examined: the command then uses Node's own stream.
+ */
+function directStream(fd) {
+  let stat;
+  try {
+    stat = fstatSync(fd);
+  } catch {
+    return undefined;
+  }
+  if (stat.isCharacterDevice()) return undefined;
+  return {
+    isTTY: false,
+    write(text) {
+      const bytes = Buffer.from(text);
+      let done = 0;
+      try {
+        while (done < bytes.length) done += writeSync(fd, bytes, done);
+      } catch {
+        // A non-blocking descriptor that is full (EAGAIN), or one that failed: the rest through Node's stream.
+        (fd === 1 ? process.stdout : process.stderr).write(bytes.subarray(done));
+      }
+      return true;
     },
   };
 }

@@ -5,7 +5,7 @@
 import { readFileSync } from "node:fs";
 import { Command, CommanderError } from "commander";
 import { COMMANDS } from "./commands/index.ts";
-import { EXIT, makeContext, UsageError, type CliContext, type CliIO } from "./context.ts";
+import { EXIT, makeContext, UsageError, type CliContext, type CliIO, type CliStream } from "./context.ts";
 
 export { EXIT, type CliIO, type CliStream } from "./context.ts";
 
@@ -69,6 +69,13 @@ export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<num
       writeOut: (s) => void ctx.stdout.write(s),
       writeErr: (s) => void ctx.stderr.write(s),
       outputError: (s, write) => write(`dotspec: ${s.replace(/^error: /, "")}`),
+      // Width and colour from this run's own streams, not from process.stdout and process.stderr,
+      // which Node builds on first use (loading its stream and terminal modules, a few ms of a
+      // `--help`): the same answers for the process's streams, the right ones for any other.
+      getOutHelpWidth: () => helpWidth(ctx.stdout),
+      getErrHelpWidth: () => helpWidth(ctx.stderr),
+      getOutHasColors: () => colorFromEnv(ctx.env) ?? hasColors(ctx.stdout),
+      getErrHasColors: () => colorFromEnv(ctx.env) ?? hasColors(ctx.stderr),
     })
     .showHelpAfterError("(add --help for usage)")
     .addHelpText("after", "\nRun dotspec <command> --help for a command's options.\n");
@@ -100,6 +107,26 @@ export async function main(argv: string[], io: Partial<CliIO> = {}): Promise<num
   } catch (err) {
     return await failure(err, ctx);
   }
+}
+
+/** The help's width for a stream: its columns on a terminal, else commander's default (80; undefined). */
+function helpWidth(stream: CliStream): number {
+  return (stream.isTTY ? stream.columns : undefined) as number;
+}
+
+/** Whether a stream shows colours: a terminal that says it does. */
+function hasColors(stream: CliStream): boolean {
+  return stream.isTTY === true && (stream as { hasColors?: () => boolean }).hasColors?.() === true;
+}
+
+/**
+ * Colour forced on or off by the environment, as commander decides it (NO_COLOR, FORCE_COLOR,
+ * CLICOLOR_FORCE); undefined when it says nothing.
+ */
+function colorFromEnv(env: Record<string, string | undefined>): boolean | undefined {
+  if (env.NO_COLOR || env.FORCE_COLOR === "0" || env.FORCE_COLOR === "false") return false;
+  if (env.FORCE_COLOR || env.CLICOLOR_FORCE !== undefined) return true;
+  return undefined;
 }
 
 /** The exit code for an error that ended a command, after printing it. */
