@@ -142,16 +142,21 @@ function directStream(fd) {
     return undefined;
   }
   if (stat.isCharacterDevice()) return undefined;
+  let gone = false;
   return {
     isTTY: false,
     write(text) {
       const bytes = Buffer.from(text);
       let done = 0;
+      if (gone) return true;
       try {
         while (done < bytes.length) done += writeSync(fd, bytes, done);
-      } catch {
-        // A non-blocking descriptor that is full (EAGAIN), or one that failed: the rest through Node's stream.
-        (fd === 1 ? process.stdout : process.stderr).write(bytes.subarray(done));
+      } catch (err) {
+        // The reader has gone (`dotspec --help | head -0`): nothing more to write, as with Node's
+        // stream. A non-blocking descriptor that is full (EAGAIN), or another failure: the rest
+        // through Node's stream.
+        if (err?.code === "EPIPE") gone = true;
+        else (fd === 1 ? process.stdout : process.stderr).write(bytes.subarray(done));
       }
       return true;
     },

@@ -68,6 +68,19 @@ describe("node bin/dotspec.js", () => {
     expect(code).toBe(0);
   });
 
+  it("--help and --version stop quietly when stdout's reader is already gone (`dotspec --help | true`), from the help bundle and from the ES modules", async () => {
+    for (const [args, mode] of [[["--help"], "check"], [["--version"], "check"], [["--help"], "off"]] as const) {
+      const child = spawn(process.execPath, [BIN, ...args], { stdio: ["ignore", "pipe", "pipe"], env: { ...process.env, DOTSPEC_CODE_CACHE: mode } });
+      // The read end closes before the child has started: its first write meets a closed pipe (EPIPE).
+      child.stdout.destroy();
+      let stderr = "";
+      child.stderr.on("data", (d) => (stderr += d));
+      const code = await new Promise<number | null>((resolve) => child.on("close", resolve));
+      expect(stderr, `${args.join(" ")} ${mode}`).toBe(mode === "check" ? "dotspec: code cache used\n" : "");
+      expect(code, `${args.join(" ")} ${mode}`).toBe(0);
+    }
+  });
+
   it("loads neither Observable Plot nor jsdom without --out (they take most of a second to import)", async () => {
     const dir = tempDir();
     writeCurve(join(dir, "dot.csv"), FILLING);
