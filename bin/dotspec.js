@@ -152,13 +152,28 @@ function directStream(fd) {
       try {
         while (done < bytes.length) done += writeSync(fd, bytes, done);
       } catch (err) {
-        // The reader has gone (`dotspec --help | head -0`): nothing more to write, as with Node's
-        // stream. A non-blocking descriptor that is full (EAGAIN), or another failure: the rest
-        // through Node's stream.
-        if (err?.code === "EPIPE") gone = true;
-        else (fd === 1 ? process.stdout : process.stderr).write(bytes.subarray(done));
+        if (err?.code === "EAGAIN") {
+          // A non-blocking descriptor that is full: the rest through Node's stream, which waits.
+          const stream = fd === 1 ? process.stdout : process.stderr;
+          stream.once("error", (e) => cannotWrite(e));
+          stream.write(bytes.subarray(done));
+        } else {
+          // The reader has gone (EPIPE, `dotspec --help | head -0`): nothing more to write, as
+          // with Node's stream. Any other failure (a full disk) is said once, as the command says it.
+          gone = true;
+          if (err?.code !== "EPIPE") cannotWrite(err);
+        }
       }
       return true;
     },
   };
+}
+
+/** Says on stderr, as the command does, that the output could not be written. */
+function cannotWrite(err) {
+  try {
+    writeSync(2, `dotspec: cannot write the output (${err instanceof Error ? err.message : String(err)})\n`);
+  } catch {
+    // stderr is gone too: nothing left to tell.
+  }
 }
