@@ -131,7 +131,9 @@ export interface Assignment {
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
  *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
  *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
- *    regime stays the same.
+ *    regime stays the same, or where the first reading named none and the second reads shell
+ *    tunnelling with the VB's second step at least `D.tunnelingStepRatioMin` × its first (a VB
+ *    level of more states: the VB, which no CB resonance touches, agrees).
  *
  * References
  * ----------
@@ -201,14 +203,19 @@ function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, ca
 /**
  * Where the tip side is not shell filling: the resonances that step at least as much as their
  * sources (`overlappedResonances`) go back to the ladder as levels; the result stands if it names
- * the same regime (or one where the first named none).
+ * the same regime, or shell tunnelling where the first named none and the VB's second step is at
+ * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × its first (its levels, untouched by the CB
+ * resonances, say shell tunnelling too). A shared p peak set aside as a resonance leaves s and
+ * an unpredicted resonance stepping in the intermediate band, so the first reading names none.
  */
 function underResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, first: Assignment, options: AssignOptions): Assignment {
   const set = first.evidence.secondJunction;
   const under = overlappedResonances(peaks, set);
   if (!under.length) return first;
   const second = assignWith(peaks, eta, etaGiven, set.filter((r) => !under.includes(r)), options);
-  if (second.regime !== first.regime) return first;
+  // Where the first reading named no regime, shell tunnelling stands if the VB shows it too.
+  const opened = first.regime === "undetermined" && second.regime === "shell-tunneling" && (second.evidence.valenceStepRatio ?? 0) >= ASSIGN_DEFAULTS.tunnelingStepRatioMin;
+  if (second.regime !== first.regime && !opened) return first;
   second.evidence.reasons.unshift(
     ...under.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`),
   );

@@ -117,7 +117,12 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  * 2. Step ratio within `D.fillingStepRatio` and, if a third peak exists, a jump to it of at least
  *    `D.fillingJumpRatioMin` × the first spacing: shell filling.
  * 3. Step ratio between `D.tunnelingSatelliteRatioMax` and the filling range: undetermined (an
- *    intermediate rate ratio: too strong for a satellite, too weak for a doublet).
+ *    intermediate rate ratio: too strong for a satellite, too weak for a doublet) — unless the
+ *    third CB peak steps at least `D.tunnelingStepRatioMin` × the first and the second VB step
+ *    at least as much × the first VB step (see `extraSecondPeak`): a level of more states follows
+ *    the first on both sides, which a rate ratio in the crossover does not give (its charging
+ *    peaks step alike), so the second CB peak is an extra one (at low η an unpredicted
+ *    second-junction resonance) and note 4 decides.
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
  *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps
  *    (ratio at least `D.earlyEntryDoubletRatioMin`) with a shorter jump to a weak third peak that
@@ -180,10 +185,17 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
     }
     reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
   } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
-    reasons.push(
-      `the second CB step is ${ratio.toFixed(2)} × the first: too strong for a charging satellite (≤ ${D.tunnelingSatelliteRatioMax}), too weak for an s doublet (≥ ${D.fillingStepRatio[0]}): an intermediate rate ratio`,
-    );
-    return "undetermined";
+    const extra = extraSecondPeak(cb, evidence.valenceStepRatio);
+    if (extra !== null) {
+      reasons.push(
+        `the second CB step is ${ratio.toFixed(2)} × the first, but the third CB peak steps ${extra.thirdRatio.toFixed(2)} × the first and the second VB step ${extra.valenceRatio.toFixed(2)} × the first VB step (both ≥ ${D.tunnelingStepRatioMin}): levels of more states on both sides, so the second CB peak is no charging peak of s; the p shell decides`,
+      );
+    } else {
+      reasons.push(
+        `the second CB step is ${ratio.toFixed(2)} × the first: too strong for a charging satellite (≤ ${D.tunnelingSatelliteRatioMax}), too weak for an s doublet (≥ ${D.fillingStepRatio[0]}): an intermediate rate ratio`,
+      );
+      return "undetermined";
+    }
   }
   // Shell tunnelling: the p shell (the second main peak and any sub-levels close to it) carries
   // more than the s step.
@@ -214,6 +226,21 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       note,
   );
   return "undetermined";
+}
+
+/**
+ * Where the first two CB steps are in the intermediate band (note 3 of {@link classifyRegime}):
+ * the third CB peak's step over the first and the second VB step over the first when both are at
+ * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` (levels of more states than s on both sides:
+ * shell tunnelling's signature, note 4), else null. The second CB peak is then no charging peak
+ * of s but an extra peak between s and p — at low η the second resonance of a band-edge level,
+ * Ec/(1 − η) beyond the one predicted, which nothing predicts without Ec.
+ */
+function extraSecondPeak(cb: readonly BandPeak[], valenceStepRatio: number | null): { thirdRatio: number; valenceRatio: number } | null {
+  const min = ASSIGN_DEFAULTS.tunnelingStepRatioMin;
+  if (cb.length < 3 || valenceStepRatio === null || valenceStepRatio < min) return null;
+  const thirdRatio = cb[2].peak.stepA / cb[0].peak.stepA;
+  return thirdRatio >= min ? { thirdRatio, valenceRatio: valenceStepRatio } : null;
 }
 
 /**

@@ -8,6 +8,7 @@ import { assignSpectrum, ASSIGN_DEFAULTS } from "../../lib/assign/assignSpectrum
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { assignPeak } from "../helpers/assignPeak.ts";
 import type { Assignment } from "../../lib/assign/assignSpectrum.ts";
+import { levelStepRatio, substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 
 const peak = assignPeak;
 
@@ -303,5 +304,46 @@ describe("assignSpectrum at η = 0.6: a resonance on the s doublet's first peak"
   it("does not take a peak stepping like the resonance alone (1.75 < 2 + 0.6 × its source) as the hidden first peak", () => {
     const peaks = build(1.75);
     expect(assignSpectrum(peaks, { eta: e }).evidence.reasons.some((x) => hiddenFirst.test(x))).toBe(false);
+  });
+});
+
+// Shell tunnelling at low η (η = 0.56, r = Γtip/Γsub = 0.01), closed forms of lib/model/regimeLimits.ts:
+// a level of 6 states after one of 2 steps levelStepRatio(2, 6, r) × its step; a resonance
+// −η·V/(1 − η) of a g-fold level steps substrateToTipStepRatio(g, r) × its source. The first VB
+// level's second resonance lies Ec/(1 − η) beyond its first (Ec = 0.169 eV) where nothing predicts it,
+// and p lies at the second VB level's resonance (a shared peak).
+describe("assignSpectrum: p under a VB level's resonance in shell tunnelling, at low η", () => {
+  const eta = 0.56;
+  const r = 0.01;
+  const gain = eta / (1 - eta);
+  const stepA = 1e-11;
+  const pStepA = levelStepRatio(2, 6, r) * stepA;
+  const build = (vb2StepA: number) => {
+    const vb1V = -1.709;
+    const vb2V = -1.944;
+    const res1V = -gain * vb1V;
+    const pV = -gain * vb2V;
+    const resonanceA = substrateToTipStepRatio(2, r) * stepA;
+    return [
+      peak(vb2V, vb2StepA),
+      peak(vb1V, stepA),
+      peak(2.085, stepA),
+      peak(res1V, resonanceA),
+      peak(pV, pStepA + substrateToTipStepRatio(6, r) * vb2StepA),
+      peak(res1V + 0.169 / (1 - eta), resonanceA),
+    ];
+  };
+
+  it("reads shell tunnelling with p at the shared peak where the VB's second level steps levelStepRatio(2, 6, r) × its first", () => {
+    const peaks = build(pStepA);
+    const a = assignSpectrum(peaks, { eta });
+    expect(a.regime).toBe("shell-tunneling");
+    const p = a.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
+    expect(p.peakIndices).toEqual([4]);
+    expect(a.evidence.reasons.some((x) => x.includes("whose resonance it overlaps"))).toBe(true);
+  });
+
+  it("leaves the regime undetermined where the VB starts with alike steps", () => {
+    expect(assignSpectrum(build(0.9 * stepA), { eta }).regime).toBe("undetermined");
   });
 });

@@ -77,6 +77,40 @@ describe("classifyRegime near the tunnelling limit (closed forms of lib/model/re
   });
 });
 
+// Low η: a band-edge level's second resonance, Ec/(1 − η) beyond the predicted one, lies between s
+// and p. Steps from the closed forms of lib/model/regimeLimits.ts (levelStepRatio) at r = 0.01.
+describe("classifyRegime: an extra peak between s and p (intermediate CB step ratio)", () => {
+  const r = 0.01;
+  const sStepA = 2e-11;
+  const pStepA = levelStepRatio(2, 6, r) * sStepA;
+  // s, an extra peak at half its step (inside the intermediate band), then p, a whole level of 6
+  // states, nearer the extra peak than half the distance from s (one shell by its sub-level reach).
+  const cb = [at(V(0.55), sStepA, 0), at(V(0.78), 0.5 * sStepA, 1), at(V(0.85), pStepA, 2)];
+  const withVb = (vb: BandPeak[]) => {
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    return { regime: classifyRegime(cb, cb, evidence), evidence };
+  };
+
+  it("reads shell tunnelling where the VB's second level also steps levelStepRatio(2, 6, r) × its first", () => {
+    const { regime, evidence } = withVb([at(-V(0.6), sStepA, 3), at(-V(0.9), pStepA, 4)]);
+    expect(evidence.secondToFirstStepRatio!).toBeGreaterThan(ASSIGN_DEFAULTS.tunnelingSatelliteRatioMax);
+    expect(evidence.secondToFirstStepRatio!).toBeLessThan(ASSIGN_DEFAULTS.fillingStepRatio[0]);
+    expect(regime).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(/no charging peak of s/);
+  });
+
+  it("stays undetermined where the VB starts with alike steps (a charging doublet), or has one peak", () => {
+    expect(withVb([at(-V(0.6), sStepA, 3), at(-V(0.7), 0.9 * sStepA, 4)]).regime).toBe("undetermined");
+    expect(withVb([at(-V(0.6), sStepA, 3)]).regime).toBe("undetermined");
+  });
+
+  it("stays undetermined where the third CB peak steps less than tunnelingStepRatioMin × the first", () => {
+    const weak = [cb[0], cb[1], at(V(0.85), 0.9 * ASSIGN_DEFAULTS.tunnelingStepRatioMin * sStepA, 2)];
+    const evidence: RegimeEvidence = { ...regimeRatios(weak, [at(-V(0.6), sStepA, 3), at(-V(0.9), pStepA, 4)]), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    expect(classifyRegime(weak, weak, evidence)).toBe("undetermined");
+  });
+});
+
 describe("classifyRegime on two alike CB steps and no third CB peak (the window ends there)", () => {
   // Shell filling at r = 10: s doublet with step ratio r/(1 + r) = 10/11 (closed form), and the VB
   // doublet of ε_v1 = −0.6 eV at the same spacing Ec/η with the same step ratio. Shell tunnelling
