@@ -2,11 +2,11 @@
 // reference, test/model/ladder.test.ts) are fitted; the quality bar of the model issue is
 // Ec within 3 % and Γtip/Γsub within a factor 1.5 at 0.3 % noise.
 import { describe, it, expect } from "vitest";
+import { crossoverDraw } from "../../helpers/crossoverDraw.ts";
 import { expectClose } from "../../helpers/expectClose.ts";
 import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
 import { simulateCurve } from "../../../lib/model/simulate.ts";
 import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../../lib/model/syntheticSpectrum.ts";
 import { DotspecError } from "../../../lib/util/errors.ts";
 
 const eta = 0.85;
@@ -179,14 +179,6 @@ describe("fitCurve(analysis, { compareModels: true }) across the filling–tunne
 // levels (3,465 charge states), and the charging ladders seeded from the peaks start one Ec off.
 // Drawn by syntheticSpectrum (starts 35 and 1006 of the crossover range 0.2–5 that bench/fit.ts
 // uses) and simulated by the fast model: the truth is the simulation's own parameters.
-function crossoverDraw(start: number) {
-  const ranges = { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: [0.2, 5] as [number, number] } };
-  const { scenario, truth } = syntheticSpectrum(start, "intermediate", ranges);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: truth.eta });
-  return { analysis, truth };
-}
-
 describe("fitCurve(analysis) on a ladder seeded one Ec off", () => {
   // Start 414 of the same draw (Γtip/Γsub 0.46, Ec 171 meV): the ladder read from the empty dot,
   // seeded from the peaks, settles at reduced χ² 3.7 with Ec 8 % low; started one Ec lower it

@@ -5,13 +5,13 @@
 // within × 1.5, the regime the one REGIME_LIMITS gives the true ratio (1.5 and 3/7, common
 // practice, no source).
 import { describe, it, expect } from "vitest";
+import { crossoverDraw } from "../../helpers/crossoverDraw.ts";
 import { expectClose } from "../../helpers/expectClose.ts";
 import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
 import { FIT_STATUS_DEFAULTS } from "../../../lib/model/fit/fitStatus.ts";
 import { REGIME_LIMITS } from "../../../lib/model/regimeLimits.ts";
 import { simulateCurve } from "../../../lib/model/simulate.ts";
 import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../../lib/model/syntheticSpectrum.ts";
 
 /** The regime REGIME_LIMITS gives a rate ratio. */
 const regimeOf = (r: number) => (r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : "intermediate");
@@ -65,15 +65,6 @@ describe("fitCurve(analysis) where the whole curve's residuals show structure on
     expect(fit.status).toBe("good");
   }, 30_000);
 });
-
-/** Start `start` of the accuracy benchmark's crossover mix (Γtip/Γsub 0.2–5), simulated by the fast model and analysed with its η. */
-function crossoverDraw(start: number) {
-  const ranges = { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: [0.2, 5] as [number, number] } };
-  const { scenario, truth } = syntheticSpectrum(start, "intermediate", ranges);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: truth.eta });
-  return { analysis, truth, scenario };
-}
 
 /** The quality bar against the simulation's values: Ec within 3 %, Γtip/Γsub within × 1.5, the regime of the true ratio. */
 function expectWithinBar(fit: ReturnType<typeof fitCurve>, truth: { chargingEnergyEV: number; rateRatio: number }) {
@@ -160,10 +151,8 @@ describe("fitCurve(analysis) where the CB side agrees with the whole curve's Ec 
   // 2+2+2): the whole curve moves Ec from 198.3 meV (CB side) to 196.4 meV and Γtip/Γsub from 1.12 to
   // 1.08; refitted at them the CB side's χ² rises by 1.7, within the 95 % point: they stand.
   it("keeps the whole curve's values where the CB side refitted at them rises by at most the 95 % point of χ² for two parameters", () => {
-    const ranges = { ...SYNTHETIC_DEFAULTS, rateRatio: { ...SYNTHETIC_DEFAULTS.rateRatio, intermediate: [0.2, 5] as [number, number] } };
-    const { scenario, truth } = syntheticSpectrum(14, "intermediate", ranges);
-    const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-    const fit = fitCurve(analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: truth.eta }));
+    const { analysis, truth } = crossoverDraw(14);
+    const fit = fitCurve(analysis);
     const warning = fit.warnings.find((w) => /the CB side refitted at them rises by χ² [\d.]+ only/.test(w));
     expect(warning).toBeDefined();
     expect(fit.evidence.some((e) => /come from the CB side/.test(e))).toBe(false);
