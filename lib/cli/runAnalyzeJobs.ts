@@ -55,7 +55,7 @@ export async function runAnalyzeJobs(
   // This thread takes files from the queue too, so `threads` counts it: --jobs 2 is this thread
   // and one worker.
   const workers = threads > 1 && queue.length > 1 ? Math.min(threads, queue.length) - 1 : 0;
-  let inWorkers: Promise<void> = Promise.resolve();
+  let inWorkers: Promise<void> | null = null;
   if (workers > 0) {
     // Loaded here, not at start-up: a one-thread run (one file, or --jobs 1) never needs it.
     const { Worker } = await import("node:worker_threads");
@@ -66,13 +66,13 @@ export async function runAnalyzeJobs(
     await new Promise<void>((resolve) => setImmediate(resolve));
     if (stop()) queue.length = 0;
     const job = queue.shift();
-    if (job === undefined) break;
-    onResult(await analyzeFile(job, settings, loadFigure, onReadProgress));
-  }
-  // Jobs a lost worker handed back after this thread's last turn.
-  await inWorkers;
-  for (const job of queue.splice(0)) {
-    if (stop()) return;
+    if (job === undefined) {
+      if (inWorkers === null) return;
+      // The workers' last jobs: a worker lost meanwhile hands its jobs back to the queue.
+      await inWorkers;
+      inWorkers = null;
+      continue;
+    }
     onResult(await analyzeFile(job, settings, loadFigure, onReadProgress));
   }
 }
