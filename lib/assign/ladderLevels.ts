@@ -206,8 +206,11 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     const holdsLevel = peaks[r.index].stepA >= minRatio * levelStepA;
     // Note 6: a peak beside it, nearer one Ec from the ladder and stepping like a level, is the level.
     const likeLevel = (i: number) => peaks[i].stepA >= minRatio * levelStepA && peaks[i].stepA <= ASSIGN_DEFAULTS.fillingStepRatio[1] * levelStepA;
-    const rival = free(side).find((i) => Math.abs(at(i) - x) < (1 - t) * ecV && offLadder(at(i)) < offLadder(x) && likeLevel(i));
-    if (clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && home && holdsLevel && rival === undefined) {
+    const beside = free(side);
+    const rival = beside.find((i) => Math.abs(at(i) - x) < (1 - t) * ecV && offLadder(at(i)) < offLadder(x) && likeLevel(i));
+    // The shell it would be kept in (notes 1–3), were there no rival.
+    const keepIn = clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && holdsLevel ? home : undefined;
+    if (keepIn && rival === undefined) {
       if (displaced) {
         out.levels.splice(out.levels.indexOf(displaced), 1);
         out.flanks = out.flanks.filter((f) => f.sharedIndex !== displaced!.resonance.index);
@@ -215,35 +218,35 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
         out.passedOver.push({
           resonance: displaced.resonance,
           levelIndex: r.index,
-          reason: `peak at ${peaks[displaced.resonance.index].biasV.toFixed(3)} V left a resonance (expected at ${displaced.resonance.predictedV.toFixed(3)} V): the peak at ${peaks[r.index].biasV.toFixed(3)} V lies nearer one Ec on the ladder of ${home.m.label}, which holds one of them`,
+          reason: `peak at ${peaks[displaced.resonance.index].biasV.toFixed(3)} V left a resonance (expected at ${displaced.resonance.predictedV.toFixed(3)} V): the peak at ${peaks[r.index].biasV.toFixed(3)} V lies nearer one Ec on the ladder of ${keepIn.m.label}, which holds one of them`,
         });
       }
       kept.set(r.index, offLadder(x));
-      home.peaks.add(r.index);
+      keepIn.peaks.add(r.index);
       out.levels.push({
         resonance: r,
-        label: home.m.label,
+        label: keepIn.m.label,
         levelStepA,
-        reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a charging peak of ${home.m.label}: it lies where the ladder expects one (one Ec from a neighbour, none closer than ${(1 - t).toFixed(1)} Ec) and ${home.m.label} needs it; the resonance at ${r.predictedV.toFixed(3)} V overlaps it`,
+        reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a charging peak of ${keepIn.m.label}: it lies where the ladder expects one (one Ec from a neighbour, none closer than ${(1 - t).toFixed(1)} Ec) and ${keepIn.m.label} needs it; the resonance at ${r.predictedV.toFixed(3)} V overlaps it`,
       });
       // Note 7: a weak peak crowding the shared peak is a flank of its step.
-      for (const i of free(side)) {
+      for (const i of beside) {
         if (Math.abs(at(i) - x) >= ASSIGN_DEFAULTS.minLadderSpacingFraction * ecV || peaks[i].stepA >= minRatio * levelStepA || out.flanks.some((f) => f.index === i)) continue;
         out.flanks.push({
           index: i,
           sharedIndex: r.index,
-          reason: `peak at ${peaks[i].biasV.toFixed(3)} V set aside: closer than ${ASSIGN_DEFAULTS.minLadderSpacingFraction} Ec to the peak at ${peaks[r.index].biasV.toFixed(3)} V that holds a level of ${home.m.label} and a resonance, and stepping less than ${minRatio} × the level's, it is a flank of that peak's step (no charging peak)`,
+          reason: `peak at ${peaks[i].biasV.toFixed(3)} V set aside: closer than ${ASSIGN_DEFAULTS.minLadderSpacingFraction} Ec to the peak at ${peaks[r.index].biasV.toFixed(3)} V that holds a level of ${keepIn.m.label} and a resonance, and stepping less than ${minRatio} × the level's, it is a flank of that peak's step (no charging peak)`,
         });
       }
     } else {
       if (displaced) home!.peaks.add(displaced.resonance.index);
       for (const h of members) h.peaks.delete(r.index);
       out.resonances.push(r);
-      if (rival !== undefined && home && holdsLevel && clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter))) {
+      if (rival !== undefined && keepIn) {
         out.passedOver.push({
           resonance: r,
           levelIndex: rival,
-          reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V left a resonance (expected at ${r.predictedV.toFixed(3)} V): the peak at ${peaks[rival].biasV.toFixed(3)} V beside it lies nearer one Ec on the ladder of ${home.m.label} and steps like its level`,
+          reason: `peak at ${peaks[r.index].biasV.toFixed(3)} V left a resonance (expected at ${r.predictedV.toFixed(3)} V): the peak at ${peaks[rival].biasV.toFixed(3)} V beside it lies nearer one Ec on the ladder of ${keepIn.m.label} and steps like its level`,
         });
       }
     }
