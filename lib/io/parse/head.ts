@@ -57,8 +57,7 @@ export class HeadLines {
   /** Adds the next line (without its line end); true when the head is complete with it. */
   push(line: string): boolean {
     this.lines.push(line);
-    const s = line.trimStart();
-    if (s === "" || s.charCodeAt(0) === 35 || s.charCodeAt(0) === 37) return false;
+    if (!isContent(line)) return false;
     this.contentSeen++;
     if (this.numberLike < SAMPLE_LINES && startsLikeNumber(line)) this.numberLike++;
     if (this.format === null) {
@@ -68,8 +67,7 @@ export class HeadLines {
       // The first data row among the content lines so far.
       let k = 0;
       for (const l of this.lines) {
-        const t = l.trimStart();
-        if (t === "" || t.charCodeAt(0) === 35 || t.charCodeAt(0) === 37) continue;
+        if (!isContent(l)) continue;
         if (isDataRow(splitLine(l, format.delimiter), format.decimalComma)) {
           this.firstData = k;
           break;
@@ -79,4 +77,10 @@ export class HeadLines {
     } else if (this.firstData < 0 && isDataRow(splitLine(line, this.format.delimiter), this.format.decimalComma)) this.firstData = this.contentSeen - 1;
     return this.firstData >= 0 && this.contentSeen - 1 - this.firstData >= this.dataRows;
   }
+}
+
+/** A content line: neither blank nor a comment (first non-space character `#` or `%`). */
+function isContent(line: string): boolean {
+  const s = line.trimStart();
+  return s !== "" && s.charCodeAt(0) !== 35 && s.charCodeAt(0) !== 37;
 }
