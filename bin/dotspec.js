@@ -146,9 +146,9 @@ function directStream(fd) {
   return {
     isTTY: false,
     write(text) {
+      if (gone) return true;
       const bytes = Buffer.from(text);
       let done = 0;
-      if (gone) return true;
       try {
         while (done < bytes.length) done += writeSync(fd, bytes, done);
       } catch (err) {

@@ -117,17 +117,9 @@ console.log(`build: dist/ written (${declarations.filter((p) => !p.startsWith(cl
 const sample = join(root, "sample-curves", "dot-05.dat");
 try {
   console.log(`build: help: ${writeHelpCache(root).replace(/^dotspec: /, "")}`);
+  if (existsSync(sample)) console.log(`build: ${writeCommandCache(root, sample).replace(/^dotspec: /, "")}`);
+  else console.log(`build: no code cache (sample-curves/dot-05.dat not here)`);
 } catch (err) {
   console.error(`build: ${err instanceof Error ? err.message : err}`);
   process.exit(1);
-}
-if (existsSync(sample)) {
-  try {
-    console.log(`build: ${writeCommandCache(root, sample).replace(/^dotspec: /, "")}`);
-  } catch (err) {
-    console.error(`build: ${err instanceof Error ? err.message : err}`);
-    process.exit(1);
-  }
-} else {
-  console.log(`build: no code cache (sample-curves/dot-05.dat not here)`);
 }
