@@ -7,6 +7,7 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import type { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkInteger, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
+import { SCENARIO_DEFAULTS } from "../scenario.ts";
 import type { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import type { bandStepsMemo } from "./bandStepsMemo.ts";
@@ -93,7 +94,10 @@ export interface FitOptions {
  * Throws
  * ------
  * DotspecError
- *     `fit/no-levels` when the assignment gives no level to fit; `options/unknown-key`,
+ *     `fit/no-levels` when the assignment gives no level to fit; `fit/too-many-states` when the
+ *     assignment's grouping is the only one to fit and has more charge states in a band than
+ *     SCENARIO_DEFAULTS.maxStates (1200; e.g. a dozen single VB levels where the rules found no
+ *     CB level); `options/unknown-key`,
  *     `options/not-positive`, `options/not-finite`, `options/out-of-range` (η outside (0, 1]),
  *     `options/not-integer` (maxEvaluations not a whole number ≥ 1) for a bad option.
  *
@@ -256,7 +260,15 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // An assignment too large to fit in time (many degenerate single levels) is left to the
   // comparison when there is one.
   const tooLarge = hypotheses[0].states > F.maxAssignedStates && !alone && comparable;
-  if ((!undetermined && !tooLarge) || alone || !comparable) trials.push(run(hypotheses[0], null, maxIterations));
+  const runAssigned = (!undetermined && !tooLarge) || alone || !comparable;
+  if (runAssigned && hypotheses[0].states > SCENARIO_DEFAULTS.maxStates) {
+    const count = (band: "CB" | "VB") => hypotheses[0].seeds.filter((x) => x.band === band).length;
+    throw new DotspecError(
+      "fit/too-many-states",
+      `${analysis.source}: the assignment's levels (regime ${analysis.assignment.regime}; ${count("CB")} CB and ${count("VB")} VB levels) make ${hypotheses[0].states} charge states in one band, more than the ${SCENARIO_DEFAULTS.maxStates} the master equation solves, and no grouping of CB peaks can be fitted instead; nothing to fit`,
+    );
+  }
+  if (runAssigned) trials.push(run(hypotheses[0], null, maxIterations));
   const assignedTrial = trials.length ? trials[0] : null;
   // Nor is it decisive when the status would call it poor for what the reduced χ² hides: structured
   // residuals, or an Ec far from the peak-based one.

@@ -78,6 +78,25 @@ describe("fitCurve(analysis)", () => {
     expect(() => fitCurve(empty)).toThrow(DotspecError);
   });
 
+  it("refuses, with a DotspecError that names the count, a grouping whose master equation would exceed SCENARIO_DEFAULTS.maxStates", () => {
+    // Eight VB levels of two states each and no CB level: 3⁸ = 6,561 charge states, above the
+    // 1,200 the master equation solves (a RangeError from the rate matrix before this check).
+    const a = analysisOf(1.2e9);
+    const peaks = a.peaks.filter((p) => p.biasV < 0);
+    const v1 = a.assignment.multiplets.find((m) => m.band === "VB")!;
+    const many = Array.from({ length: 8 }, (_, k) => ({ ...v1, label: `v${k + 1}`, found: 1, degeneracy: null, subgroups: [1], peakIndices: [peaks.length - 1], peaksV: [peaks[peaks.length - 1].biasV] }));
+    const vbOnly = { ...a, peaks, assignment: { ...a.assignment, regime: "undetermined" as const, multiplets: many } };
+    let thrown: unknown = null;
+    try {
+      fitCurve(vbOnly);
+    } catch (err) {
+      thrown = err;
+    }
+    expect(thrown).toBeInstanceOf(DotspecError);
+    expect((thrown as DotspecError).code).toBe("fit/too-many-states");
+    expect((thrown as Error).message).toMatch(/6561 charge states in one band, more than the 1200/);
+  });
+
   it("FIT_DEFAULTS are as documented (locked)", () => {
     expect(FIT_DEFAULTS).toEqual({
       temperatureK: 4.5,
