@@ -19,6 +19,7 @@ import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
+import { substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
 import type { NoLevels } from "./noLevels.ts";
 
 export { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
@@ -133,7 +134,10 @@ export interface Assignment {
  *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
  *    regime stays the same, or where the first reading named none and the second reads shell
  *    tunnelling with the VB's second step at least `D.tunnelingStepRatioMin` × its first (a VB
- *    level of more states: the VB, which no CB resonance touches, agrees).
+ *    level of more states: the VB, which no CB resonance touches, agrees). A shell-tunnelling p
+ *    then holding more than its three orbitals' levels sets aside its weakest peak where that
+ *    steps like one carrier entering through the substrate junction (`substrateExtraLevel`),
+ *    if the rules still read shell tunnelling.
  *
  * References
  * ----------
@@ -168,10 +172,10 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
   const edge = bandEdgeResonanceRatio(peaks, plain);
-  if (edge === null || edge.ratio < D.fillingResonanceStepMin) return underResonances(peaks, eta, etaGiven, first, options);
+  if (edge === null || edge.ratio < D.fillingResonanceStepMin) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
   const filling = iterateResonances(peaks, forced, eta, again);
-  if (filling === forced) return underResonances(peaks, eta, etaGiven, first, options);
+  if (filling === forced) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
   filling.evidence.reasons = filling.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
@@ -198,6 +202,27 @@ function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, ca
     ...companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`),
   );
   return third;
+}
+
+/**
+ * A shell-tunnelling p with more levels than orbitals: its weak extra peak, a charging peak
+ * through the substrate junction (`substrateExtraLevel`), is set aside; the result stands if it
+ * is still shell tunnelling.
+ */
+function withoutExtraLevel(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+  if (a.regime !== "shell-tunneling" || options.regime) return a;
+  const extra = substrateExtraLevel(peaks, a.multiplets, eta);
+  if (!extra) return a;
+  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction, extra], options);
+  if (next.regime !== "shell-tunneling") return a;
+  const earlier = a.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+  const keptLevels = a.evidence.reasons.filter((r) => / kept as a level: /.test(r));
+  next.evidence.reasons.unshift(
+    `peak at ${peaks[extra.index].biasV.toFixed(3)} V set aside: p held more levels than its three orbitals, and this one steps like a single carrier entering through the substrate junction (at most ${SUBSTRATE_EXTRA_LEVEL_DEFAULTS.stepRatioMax.toFixed(2)} × the other p levels and the VB edge level at ${peaks[extra.sourceIndex].biasV.toFixed(3)} V), beyond that level's resonance`,
+    ...earlier,
+    ...keptLevels,
+  );
+  return next;
 }
 
 /**

@@ -1,0 +1,36 @@
+// The weak fourth p peak of a shell-tunnelling reading at low η: a charging peak through the
+// substrate junction. Constants from the orthodox theory of the double-barrier junction (the
+// substrate-side step over a two-state level's tip-side step, (g·r + 1)/(g + r), closed form).
+import { describe, it, expect } from "vitest";
+import { substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "../../lib/assign/substrateExtraLevel.ts";
+
+const at = (list: [number, number][]) => list.map(([biasV, stepA]) => ({ biasV, stepA, fwhmV: 0.05 }));
+const groups = (p: number[]) => [
+  { band: "CB" as const, label: "s", peakIndices: [1] },
+  { band: "CB" as const, label: "p", peakIndices: p },
+  { band: "VB" as const, label: "v1", peakIndices: [0] },
+];
+// η = 0.6: the v1 peak at −1.5 V has its resonance at 0.6 × 1.5 / 0.4 = 2.25 V.
+const base: [number, number][] = [[-1.5, 2e-13], [1.8, 2e-13], [2.3, 2e-13], [2.4, 2e-13], [2.5, 2e-13]];
+
+describe("substrateExtraLevel(peaks, multiplets, eta)", () => {
+  it("sets aside a fourth p peak of one carrier's step beyond the gap-edge level's resonance", () => {
+    expect(substrateExtraLevel(at([...base, [2.7, 1e-13]]), groups([2, 3, 4, 5]), 0.6)).toEqual({ index: 5, sourceIndex: 0, predictedV: 2.7 });
+  });
+
+  it("leaves p alone at three levels (three p orbitals), at a level's step, or before the resonance", () => {
+    expect(substrateExtraLevel(at(base), groups([2, 3, 4]), 0.6)).toBeNull();
+    // 0.8 × the other steps: above 13/17.
+    expect(substrateExtraLevel(at([...base, [2.7, 1.6e-13]]), groups([2, 3, 4, 5]), 0.6)).toBeNull();
+    // The weakest peak below 2.25 V − FWHM/2: no substrate-side step lies there.
+    const early = at([[-1.5, 2e-13], [1.8, 2e-13], [2.15, 1e-13], [2.3, 2e-13], [2.4, 2e-13], [2.5, 2e-13]]);
+    expect(substrateExtraLevel(early, groups([2, 3, 4, 5]), 0.6)).toBeNull();
+    // η = 1: no bias across the substrate junction.
+    expect(substrateExtraLevel(at([...base, [2.7, 1e-13]]), groups([2, 3, 4, 5]), 1)).toBeNull();
+  });
+
+  it("SUBSTRATE_EXTRA_LEVEL_DEFAULTS: three p orbitals; (g·r + 1)/(g + r) at g = 2, r = 3/7 is 13/17 (closed form)", () => {
+    expect(SUBSTRATE_EXTRA_LEVEL_DEFAULTS.pOrbitals).toBe(3);
+    expect(SUBSTRATE_EXTRA_LEVEL_DEFAULTS.stepRatioMax).toBeCloseTo(13 / 17, 12);
+  });
+});
