@@ -131,8 +131,11 @@ export interface Assignment {
  *    shell-filling reading when its band-edge resonances carry at least
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
  *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
- *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
- *    regime stays the same, or where the first reading named none and the second reads shell
+ *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1; not one
+ *    with a peak that is no resonance within the smaller of their FWHMs: that peak is its level,
+ *    split apart, the pair's summed step shared out by the split's fit; the farthest from its
+ *    prediction first) where the regime stays the same, with a band-edge level's second charging
+ *    peak through the substrate junction set aside too where that keeps the regime, or where the first reading named none and the second reads shell
  *    tunnelling with the VB's second step at least `D.tunnelingStepRatioMin` × its first (a VB
  *    level of more states: the VB, which no CB resonance touches, agrees). A shell-tunnelling p
  *    then holding more than its three orbitals' levels sets aside its weakest peak where that
@@ -198,10 +201,13 @@ function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, ca
   if (!companions.length) return first;
   const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
   if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;
-  third.evidence.reasons.unshift(
-    ...companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`),
-  );
+  third.evidence.reasons.unshift(...companionReasons(peaks, companions));
   return third;
+}
+
+/** The reasons of the substrate side's second charging peaks set aside (`substrateChargingPeaks`). */
+function companionReasons(peaks: readonly Peak[], companions: readonly SecondJunctionResonance[]): string[] {
+  return companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`);
 }
 
 /**
@@ -235,16 +241,45 @@ function withoutExtraLevel(peaks: readonly Peak[], eta: number, etaGiven: boolea
  */
 function underResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, first: Assignment, options: AssignOptions): Assignment {
   const set = first.evidence.secondJunction;
-  const under = overlappedResonances(peaks, set);
+  const under = levelsUnder(peaks, set);
   if (!under.length) return first;
-  const second = assignWith(peaks, eta, etaGiven, set.filter((r) => !under.includes(r)), options);
+  const kept = set.filter((r) => !under.includes(r));
+  const second = assignWith(peaks, eta, etaGiven, kept, options);
   // Where the first reading named no regime, shell tunnelling stands if the VB shows it too.
   const opened = first.regime === "undetermined" && second.regime === "shell-tunneling" && (second.evidence.valenceStepRatio ?? 0) >= ASSIGN_DEFAULTS.tunnelingStepRatioMin;
   if (second.regime !== first.regime && !opened) return first;
-  second.evidence.reasons.unshift(
+  // With those levels back, a band-edge level's second charging peak through the substrate junction
+  // goes too where the regime stays (set aside with every resonance, it left too few CB peaks to
+  // name one).
+  const companions = substrateChargingPeaks(peaks, set, eta, ASSIGN_DEFAULTS.fillingStepRatio).filter((c) => !set.some((r) => r.index === c.index));
+  const third = companions.length ? assignWith(peaks, eta, etaGiven, [...kept, ...companions], options) : null;
+  const result = third && third.regime === second.regime ? third : second;
+  result.evidence.reasons.unshift(
+    ...(result === third ? companionReasons(peaks, companions) : []),
     ...under.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`),
   );
-  return second;
+  return result;
+}
+
+/**
+ * The resonances that go back to the ladder as levels (`overlappedResonances`), except one with a
+ * peak that is no resonance (or one released before it) within the smaller of their FWHMs (a
+ * merged peak's own width would reach the next level): that peak is the level,
+ * found apart, and the summed step was shared out between the two by the split's fit. Those
+ * farthest from their predicted positions go first.
+ */
+function levelsUnder(peaks: readonly Peak[], set: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
+  const miss = (r: SecondJunctionResonance) => Math.abs(peaks[r.index].biasV - r.predictedV);
+  const resonant = new Set(set.map((r) => r.index));
+  const released: SecondJunctionResonance[] = [];
+  for (const r of [...overlappedResonances(peaks, set)].sort((a, b) => miss(b) - miss(a))) {
+    const p = peaks[r.index];
+    const levelBeside = peaks.some((q, i) => i !== r.index && Math.sign(q.biasV) === Math.sign(p.biasV) && Math.abs(q.biasV - p.biasV) <= Math.min(p.fwhmV, q.fwhmV) && !resonant.has(i));
+    if (levelBeside) continue;
+    released.push(r);
+    resonant.delete(r.index);
+  }
+  return released;
 }
 
 /**

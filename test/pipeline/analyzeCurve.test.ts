@@ -237,3 +237,32 @@ describe("analyzeCurve(curve, { eta }): a substrate-side charging peak read as a
     }, 30_000);
   }
 });
+
+// A p level and a VB level's resonance split into two peaks within a FWHM, both at the predicted
+// resonance and both stepping more than its source (the split shares out their summed step): the
+// one farther from the prediction is the level, the nearer stays the resonance (draws 104 and 179,
+// whose truth lists the resonance there).
+describe("analyzeCurve(curve, { eta }): a p level split apart from a resonance in shell tunnelling (low-η draws)", () => {
+  for (const start of [104, 179]) {
+    it(`keeps one of the two peaks as p and the other as the resonance (draw ${start})`, () => {
+      const { a, truth, tolV } = tunnelingAtLowEta(start);
+      const resonancesV = a.assignment.evidence.secondJunction.map((r) => a.peaks[r.index].biasV);
+      expect(truth.secondJunctionPeaksV.some((v) => v > 0 && resonancesV.some((x) => Math.abs(x - v) <= tolV))).toBe(true);
+    }, 30_000);
+  }
+});
+
+// The substrate side's second charging peak of the VB edge level, which the first reading could not
+// set aside (with every resonance aside too few CB peaks were left to name a regime), goes once the
+// p level under a resonance is back (draws 1052 and 1097, whose truth lists that peak).
+describe("analyzeCurve(curve, { eta }): the substrate side's second charging peak once p is back (low-η draws)", () => {
+  for (const start of [1052, 1097]) {
+    it(`sets the second charging peak aside and keeps p's level (draw ${start})`, () => {
+      const { a, truth, tolV } = tunnelingAtLowEta(start);
+      const reason = a.assignment.evidence.reasons.find((r) => r.includes("the second charging peak, through the substrate junction"));
+      expect(reason).toBeDefined();
+      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+      expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
+    }, 30_000);
+  }
+});
