@@ -222,18 +222,22 @@ describe("analyzeCurve(curve, { eta }): p under a VB level's resonance in shell 
   }
 });
 
+// The peak a reason names as set aside lies where the simulation lists a substrate-junction step.
+const setAsideAtTruth = (start: number, words: string) => {
+  const { a, truth, tolV } = tunnelingAtLowEta(start);
+  const reason = a.assignment.evidence.reasons.find((r) => r.includes(words));
+  expect(reason).toBeDefined();
+  const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+  expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
+};
+
 // p read with four levels, the last a second charging peak through the substrate junction of the
 // VB gap-edge level (its resonance under p): one carrier's step, about half a p level's, so it is
 // set aside and p keeps its three orbitals (draws 2061 and 2163, whose truth lists that peak).
 describe("analyzeCurve(curve, { eta }): a substrate-side charging peak read as a fourth p level in shell tunnelling (low-η draws)", () => {
   for (const start of [2061, 2163]) {
     it(`sets the weak fourth peak aside and keeps p's three levels (draw ${start})`, () => {
-      const { a, truth, tolV } = tunnelingAtLowEta(start);
-      const reason = a.assignment.evidence.reasons.find((r) => r.includes("more levels than its three orbitals"));
-      expect(reason).toBeDefined();
-      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
-      // The simulation lists a substrate-junction step there.
-      expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
+      setAsideAtTruth(start, "more levels than its three orbitals");
     }, 30_000);
   }
 });
@@ -258,11 +262,7 @@ describe("analyzeCurve(curve, { eta }): a p level split apart from a resonance i
 describe("analyzeCurve(curve, { eta }): the substrate side's second charging peak once p is back (low-η draws)", () => {
   for (const start of [1052, 1097]) {
     it(`sets the second charging peak aside and keeps p's level (draw ${start})`, () => {
-      const { a, truth, tolV } = tunnelingAtLowEta(start);
-      const reason = a.assignment.evidence.reasons.find((r) => r.includes("the second charging peak, through the substrate junction"));
-      expect(reason).toBeDefined();
-      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
-      expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
+      setAsideAtTruth(start, "the second charging peak, through the substrate junction");
     }, 30_000);
   }
 });
