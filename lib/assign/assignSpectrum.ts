@@ -19,7 +19,7 @@ import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
-import { substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
+import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
 import type { NoLevels } from "./noLevels.ts";
 
 export { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
@@ -137,7 +137,10 @@ export interface Assignment {
  *    prediction first) where the regime stays the same, with a band-edge level's second charging
  *    peak through the substrate junction set aside too where that keeps the regime, or where the first reading named none and the second reads shell
  *    tunnelling with the VB's second step at least `D.tunnelingStepRatioMin` × its first (a VB
- *    level of more states: the VB, which no CB resonance touches, agrees). A shell-tunnelling p
+ *    level of more states: the VB, which no CB resonance touches, agrees). A shell-tunnelling
+ *    reading gives back to the ladder a peak at the plain resonance of a level behind its band's
+ *    edge level (`deeperPlainResonances`: the substrate side fills, so that resonance lies
+ *    N·Ec/(1 − η) further out), if the rules still read shell tunnelling. A shell-tunnelling p
  *    then holding more than its three orbitals' levels sets aside its weakest peak where that
  *    steps like one carrier entering through the substrate junction (`substrateExtraLevel`),
  *    if the rules still read shell tunnelling.
@@ -211,12 +214,32 @@ function companionReasons(peaks: readonly Peak[], companions: readonly SecondJun
 }
 
 /**
+ * A shell-tunnelling reading with the peaks at the plain resonance of a deeper level given back
+ * to the ladder (`deeperPlainResonances`), if the rules still read shell tunnelling.
+ */
+function withDeeperLevels(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+  const set = a.evidence.secondJunction;
+  const back = deeperPlainResonances(peaks, set, eta);
+  if (!back.length) return a;
+  const next = assignWith(peaks, eta, etaGiven, set.filter((r) => !back.includes(r)), options);
+  if (next.regime !== "shell-tunneling") return a;
+  const earlier = a.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+  next.evidence.reasons.unshift(
+    ...back.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: the plain resonance of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V, a level behind its band's edge level, has no step where the substrate side fills (it lies N·Ec/(1 − η) further out)`),
+    ...earlier,
+    ...a.evidence.reasons.filter((r) => /^peak at .* (kept as a level|set aside: the second charging peak)/.test(r) && !next.evidence.reasons.includes(r)),
+  );
+  return next;
+}
+
+/**
  * A shell-tunnelling p with more levels than orbitals: its weak extra peak, a charging peak
  * through the substrate junction (`substrateExtraLevel`), is set aside; the result stands if it
  * is still shell tunnelling.
  */
 function withoutExtraLevel(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
   if (a.regime !== "shell-tunneling" || options.regime) return a;
+  a = withDeeperLevels(peaks, eta, etaGiven, a, options);
   const extra = substrateExtraLevel(peaks, a.multiplets, eta);
   if (!extra) return a;
   const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction, extra], options);

@@ -1,6 +1,7 @@
 /**
- * A shell-tunnelling p read with more levels than p has orbitals: the weak extra peak is a charging
- * peak through the substrate junction (the substrate side fills where the tip side tunnels).
+ * The substrate side of a shell-tunnelling dot, which fills where the tip side tunnels: a p read
+ * with more levels than p has orbitals holds a charging peak through the substrate junction, and
+ * a deeper level's resonance does not lie at the plain −η·V/(1 − η).
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import type { Multiplet } from "./multiplets.ts";
@@ -92,4 +93,68 @@ export function substrateExtraLevel(
   const beyond = w.biasV >= resonanceV - w.fwhmV / 2;
   const weak = w.stepA <= D.stepRatioMax * medianInPlace(others) && w.stepA <= D.stepRatioMax * sourceStepA;
   return beyond && weak ? { index: weakest, sourceIndex: source, predictedV: w.biasV } : null;
+}
+
+/**
+ * The candidate resonances of a shell-tunnelling reading that lie at the plain −η·V/(1 − η) of a
+ * level deeper than its band's edge level: no step lies there.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Pick<Peak, "biasV">[]
+ *     The peak list of the assignment (positions in V).
+ * resonances : readonly SecondJunctionResonance[]
+ *     The resonances the reading set aside.
+ * eta : number
+ *     Voltage-division factor η in (0, 1).
+ *
+ * Returns
+ * -------
+ * SecondJunctionResonance[]
+ *     Those whose `predictedV` is the plain −η·V/(1 − η) of their source and whose source is not
+ *     the peak of its band nearest 0 V among the peaks that are not resonances.
+ *
+ * Notes
+ * -----
+ * 1. Where the tip side tunnels (Γtip ≪ Γsub), carriers entering through the substrate junction
+ *    leave through the slow tip junction: the substrate side fills the band's edge level first (its
+ *    resonance and, one Ec/(1 − η) further, its second charging peak). A deeper level then takes
+ *    its first carrier through the substrate with the N carriers of the levels below it in the
+ *    dot, at |V′| = η·|V|/(1 − η) + N·Ec/(1 − η) (V its tip-side peak; N = 2 behind a doublet),
+ *    not at the plain η·|V|/(1 − η); the empty dot, which that needs, is rare, and its step there
+ *    is a fraction Γtip/Γsub of the others (orthodox master equation).
+ * 2. So a peak at the plain prediction of a deeper level is not that resonance; the caller gives
+ *    it back to the ladder where the regime stays shell tunnelling.
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids*, ed. B. L. Altshuler,
+ * P. A. Lee and R. A. Webb (Elsevier, 1991); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // η = 0.6 (gain 1.5): v1 at −1.5 V (edge), v2 at −2.0 V; candidates at 2.25 V (v1) and 3.0 V (v2).
+ * const peaks = [-2.0, -1.5, 2.25, 3.0].map((biasV) => ({ biasV }));
+ * const set = [{ index: 2, sourceIndex: 1, predictedV: 2.25 }, { index: 3, sourceIndex: 0, predictedV: 3.0 }];
+ * deeperPlainResonances(peaks, set, 0.6).map((r) => r.index);  // => [3]
+ * ```
+ */
+export function deeperPlainResonances(peaks: readonly Pick<Peak, "biasV">[], resonances: readonly SecondJunctionResonance[], eta: number): SecondJunctionResonance[] {
+  if (!(eta > 0 && eta < 1)) return [];
+  const gain = eta / (1 - eta);
+  const resonant = new Set(resonances.map((r) => r.index));
+  const edge = (sign: number) => {
+    let best = -1;
+    peaks.forEach((p, i) => {
+      if (!resonant.has(i) && Math.sign(p.biasV) === sign && (best < 0 || Math.abs(p.biasV) < Math.abs(peaks[best].biasV))) best = i;
+    });
+    return best;
+  };
+  const edges = new Set([edge(1), edge(-1)]);
+  return resonances.filter((r) => {
+    const v = peaks[r.sourceIndex].biasV;
+    const plain = Math.abs(r.predictedV + gain * v) <= 1e-9 * Math.max(1, Math.abs(r.predictedV));
+    return plain && !edges.has(r.sourceIndex);
+  });
 }

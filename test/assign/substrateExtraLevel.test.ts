@@ -2,7 +2,7 @@
 // substrate junction. Constants from the orthodox theory of the double-barrier junction (the
 // substrate-side step over a two-state level's tip-side step, (g·r + 1)/(g + r), closed form).
 import { describe, it, expect } from "vitest";
-import { substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "../../lib/assign/substrateExtraLevel.ts";
+import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "../../lib/assign/substrateExtraLevel.ts";
 
 const at = (list: [number, number][]) => list.map(([biasV, stepA]) => ({ biasV, stepA, fwhmV: 0.05 }));
 const groups = (p: number[]) => [
@@ -32,5 +32,18 @@ describe("substrateExtraLevel(peaks, multiplets, eta)", () => {
   it("SUBSTRATE_EXTRA_LEVEL_DEFAULTS: three p orbitals; (g·r + 1)/(g + r) at g = 2, r = 3/7 is 13/17 (closed form)", () => {
     expect(SUBSTRATE_EXTRA_LEVEL_DEFAULTS.pOrbitals).toBe(3);
     expect(SUBSTRATE_EXTRA_LEVEL_DEFAULTS.stepRatioMax).toBeCloseTo(13 / 17, 12);
+  });
+});
+
+describe("deeperPlainResonances(peaks, resonances, eta)", () => {
+  // η = 0.6 (gain 1.5): v1 at −1.5 V is the VB edge, v2 at −2.0 V behind it.
+  const peaks = [-2.0, -1.5, 1.4, 2.25, 3.0].map((biasV) => ({ biasV }));
+  it("names the plain resonance of a level behind its band's edge, not the edge level's or a moved one", () => {
+    const edge = { index: 3, sourceIndex: 1, predictedV: 2.25 };
+    const deeper = { index: 4, sourceIndex: 0, predictedV: 3.0 };
+    expect(deeperPlainResonances(peaks, [edge, deeper], 0.6)).toEqual([deeper]);
+    // A prediction moved by N·Ec/(1 − η) (not the plain one) is not named.
+    expect(deeperPlainResonances(peaks, [edge, { ...deeper, predictedV: 3.1 }], 0.6)).toEqual([]);
+    expect(deeperPlainResonances(peaks, [edge, deeper], 1)).toEqual([]);
   });
 });

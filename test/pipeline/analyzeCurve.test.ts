@@ -258,11 +258,27 @@ describe("analyzeCurve(curve, { eta }): a p level split apart from a resonance i
 
 // The substrate side's second charging peak of the VB edge level, which the first reading could not
 // set aside (with every resonance aside too few CB peaks were left to name a regime), goes once the
-// p level under a resonance is back (draws 1052 and 1097, whose truth lists that peak).
+// p level under a resonance is back (draws 1077 and 1097, whose truth lists that peak).
 describe("analyzeCurve(curve, { eta }): the substrate side's second charging peak once p is back (low-η draws)", () => {
-  for (const start of [1052, 1097]) {
+  for (const start of [1077, 1097]) {
     it(`sets the second charging peak aside and keeps p's level (draw ${start})`, () => {
       setAsideAtTruth(start, "the second charging peak, through the substrate junction");
+    }, 30_000);
+  }
+});
+
+// A p level at the plain resonance −η·V/(1 − η) of the second VB level: where the substrate side
+// fills, that level's resonance lies 2·Ec/(1 − η) further out and no step lies at the plain
+// position (draws 2042 and 2130; the simulation lists no substrate-junction step there).
+describe("analyzeCurve(curve, { eta }): a p level at a deeper VB level's plain resonance in shell tunnelling (low-η draws)", () => {
+  for (const start of [2042, 2130]) {
+    it(`keeps the peak as p (draw ${start})`, () => {
+      const { a, truth, tolV } = tunnelingAtLowEta(start);
+      const reason = a.assignment.evidence.reasons.find((r) => r.includes("behind its band's edge level"));
+      expect(reason).toBeDefined();
+      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+      expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(false);
+      expect(truth.pPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
     }, 30_000);
   }
 });
