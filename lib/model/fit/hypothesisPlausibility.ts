@@ -56,10 +56,13 @@ export interface PlausibilityInput {
  * -----
  * With D = PLAUSIBILITY_DEFAULTS:
  * 1. No key parameter (Ec, Γtip/Γsub) on a bound.
- * 2. Level order: each band's levels move away from the gap in the order seeded (CB ascending,
- *    VB descending), and the lowest CB level lies above the highest VB level. The sub-levels of
- *    one split CB shell (p1, p2, …) may lie in either order (which one the shape lowers is not
- *    fixed); each must lie above every level of the shells before it.
+ * 2. Level order: the CB levels move away from the gap in the order seeded (ascending), and the
+ *    lowest CB level lies above the highest VB level. The sub-levels of one split CB shell (p1,
+ *    p2, …) may lie in either order (which one the shape lowers is not fixed); each must lie above
+ *    every level of the shells before it. The VB levels may end in any order: no degeneracy is
+ *    assumed there, so crossed VB levels are the same model as the same levels in energy order
+ *    (the charge states and their addition energies do not depend on the order), and they are
+ *    reported in energy order ({@link orderLevels}).
  * 3. Ec ≤ D.maxChargingFractionOfGap × (lowest CB level − highest VB level), when both bands
  *    have levels.
  * 4. Degeneracy counts: the CB levels of one shell (labels s, p, p1, p2, …) hold at most its
@@ -91,7 +94,6 @@ export function hypothesisPlausibility(input: PlausibilityInput): string[] {
     const top = lower.reduce<PlausibilityLevel | null>((a, l) => (!a || l.energyEV > a.energyEV ? l : a), null);
     if (top && !(cb[j].energyEV > top.energyEV)) reasons.push(`CB level ${cb[j].label} lies below ${top.label}`);
   }
-  for (let j = 1; j < vb.length; j++) if (!(vb[j].energyEV < vb[j - 1].energyEV)) reasons.push(`VB level ${vb[j].label} lies above ${vb[j - 1].label}`);
   if (cb.length && vb.length) {
     const gap = Math.min(...cb.map((l) => l.energyEV)) - Math.max(...vb.map((l) => l.energyEV));
     if (!(gap > 0)) reasons.push("the CB and VB levels overlap");

@@ -25,6 +25,11 @@ describe("hypothesisPlausibility(input)", () => {
     expect(hypothesisPlausibility({ levels: overlap, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/overlap/);
   });
 
+  it("accepts VB levels in any order (no VB degeneracy is assumed: crossed levels are the same model)", () => {
+    const crossed = [...dot, level("VB", "v2", 4, -1.1)];
+    expect(hypothesisPlausibility({ levels: crossed, chargingEnergyEV: 0.1, atBound: [] })).toEqual([]);
+  });
+
   it("accepts the sub-levels of a split shell in either order (p2 below p1, both above s)", () => {
     const swapped = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.95), level("CB", "p2", 4, 0.9)];
     expect(hypothesisPlausibility({ levels: swapped, chargingEnergyEV: 0.1, atBound: [] })).toEqual([]);

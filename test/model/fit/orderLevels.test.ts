@@ -17,8 +17,15 @@ describe("orderLevels(levels)", () => {
     ]);
   });
 
-  it("leaves a whole p level and the VB groups as they are", () => {
-    const levels = [level("CB", "s", 2, 0.6), level("CB", "p", 6, 0.9), level("VB", "v1", 2, -1.2), level("VB", "v2", 4, -1.1)];
+  it("leaves a whole p level and VB levels in energy order as they are", () => {
+    const levels = [level("CB", "s", 2, 0.6), level("CB", "p", 6, 0.9), level("VB", "v1", 4, -1.1), level("VB", "v2", 2, -1.2)];
     expect(orderLevels(levels)).toEqual(levels);
+  });
+
+  it("puts crossed VB levels downward from the gap, the labels v1, v2 keeping their places", () => {
+    const got = orderLevels([level("CB", "s", 2, 0.6), level("VB", "v1", 2, -1.2, 0.002), level("VB", "v2", 4, -1.1, 0.003)]);
+    expect(got.map((l) => [l.label, l.degeneracy, l.energyEV.value, l.energyEV.standardError])).toEqual([
+      ["s", 2, 0.6, 0.001], ["v1", 4, -1.1, 0.003], ["v2", 2, -1.2, 0.002],
+    ]);
   });
 });
