@@ -14,6 +14,7 @@ import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiple
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { flankLevelPeaks, predictedResonancesV } from "./flankLevels.ts";
+import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
@@ -120,6 +121,9 @@ export const ANALYZE_DEFAULTS = Object.freeze({
   /** … but not below this, mV. */
   minSeparationFloorMV: 10,
 });
+
+/** Rounds of the search for charging peaks of short shells (note 8): each adds at most one peak per end of each short shell. */
+const SHORT_SHELL_ROUNDS = 2;
 
 const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "minStepSigma", "minSeparationMV", "useMeasured", "regime"] as const;
 
@@ -279,18 +283,42 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     biasRangeV: nb > 0 ? [signal.biasV[0], signal.biasV[nb - 1]] : undefined,
   });
   let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
+  const w = peakWidthMV / 1000;
+  const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
+  const resonancesOf = (list: readonly Pick<Peak, "biasV">[], a: Assignment) => (eta !== undefined && eta < 1 ? predictedResonancesV(list, a, eta, w) : []);
+  let list: readonly Peak[] = found.peaks;
   if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {
     // Levels on the flank of a predicted second-junction resonance (note 7).
-    const w = peakWidthMV / 1000;
-    const predicted = predictedResonancesV(peaks, assignment, eta, w);
-    const floorV = FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w;
-    const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV };
-    const flank = flankLevelPeaks(curveIn, found.peaks, predicted, w, minStepSigma);
+    const flank = flankLevelPeaks(curveIn, found.peaks, resonancesOf(peaks, assignment), w, minStepSigma);
     if (flank) {
+      list = flank;
       areas = bandAreas(signal.biasV, signal.didvS, flank);
       peaks = withSweeps(flank, areas, sweeps.length, sweepPeaks);
       assignment = assignSpectrum(peaks, { eta, regime: options.regime });
     }
+  }
+  for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
+    // Charging peaks a short filling shell lacks (note 8), one at a time, strongest step first.
+    const predictions = shortShellPredictions(peaks, assignment, [signal.biasV[0], signal.biasV[nb - 1]]);
+    const steps = predictions.length ? shortShellSteps(curveIn, list, predictions, resonancesOf(peaks, assignment), assignment.quantities.chargingEnergyV!, w, minStepSigma) : [];
+    let added = 0;
+    for (const { peak, label } of steps) {
+      if (list.some((q) => Math.abs(q.biasV - peak.biasV) < w)) continue;
+      const more = [...list, peak].sort((a, b) => a.biasV - b.biasV);
+      const moreAreas = bandAreas(signal.biasV, signal.didvS, more);
+      const morePeaks = withSweeps(more, moreAreas, sweeps.length, sweepPeaks);
+      const again = assignSpectrum(morePeaks, { eta, regime: options.regime });
+      // Kept only where the peak joins the shell that predicted it, and that shell keeps its peaks.
+      const was = assignment.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => list[i]) ?? [];
+      const now = new Set(again.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => more[i]));
+      if (again.regime !== assignment.regime || !now.has(peak) || !was.every((p) => now.has(p))) continue;
+      list = more;
+      areas = moreAreas;
+      peaks = morePeaks;
+      assignment = again;
+      added++;
+    }
+    if (!added) break;
   }
   const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {
