@@ -123,7 +123,7 @@ export const ANALYZE_DEFAULTS = Object.freeze({
 });
 
 /** Rounds of the search for charging peaks of short shells (note 8): each adds at most one peak per end of each short shell. */
-const SHORT_SHELL_ROUNDS = 2;
+const SHORT_SHELL_ROUNDS = 4;
 
 const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "minStepSigma", "minSeparationMV", "useMeasured", "regime"] as const;
 

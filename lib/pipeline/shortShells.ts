@@ -45,16 +45,27 @@ export interface ShortShellPrediction {
  * Returns
  * -------
  * ShortShellPrediction[]
- *     For each CB shell with a degeneracy and fewer peaks: last + Ec_V and first − Ec_V, where
- *     inside the window, beyond 0 V, and at least `SHORT_SHELL_DEFAULTS.shellGapEc`·Ec_V from the
+ *     For each CB shell with a degeneracy and fewer peaks, and each of its sub-groups (the whole
+ *     shell where it is not split): the sub-group's last peak + Ec_V and first peak − Ec_V, where
+ *     inside the window, above 0 V, and at least `SHORT_SHELL_DEFAULTS.shellGapEc`·Ec_V from the
  *     neighbouring shells' peaks.
  *
  * Notes
  * -----
- * In shell filling the charging peaks of one shell are Ec_V apart (Ec/η in bias; a split shell's
- * sub-groups add their spacing Δ between groups, which the search reach covers only in part), so
- * a shell that shows fewer peaks than it holds carriers lacks one at one end of its ladder or
- * inside it; the ends are looked at.
+ * In shell filling the charging peaks of one (sub-)level are Ec_V apart (Ec/η in bias; sub-groups
+ * of a split shell add their level spacing between them), so a shell that shows fewer peaks than
+ * it holds carriers lacks one at an end of one of its sub-groups: a sub-group read short (a peak
+ * missing inside the shell splits or shortens one) is looked at on both sides.
+ *
+ * Example
+ * -------
+ * ```ts
+ * // Ec_V = 0.2 V; s doublet at 1.0, 1.2 V; p read as 2.0, 2.2, 2.4, 2.6, 2.8 V (one short).
+ * const peaks = [1.0, 1.2, 2.0, 2.2, 2.4, 2.6, 2.8].map((biasV) => ({ biasV }));
+ * const shell = (label: string, degeneracy: number, peakIndices: number[]) => ({ band: "CB" as const, label, degeneracy, peakIndices, subgroups: [peakIndices.length] });
+ * shortShellPredictions(peaks, { regime: "shell-filling", multiplets: [shell("s", 2, [0, 1]), shell("p", 6, [2, 3, 4, 5, 6])], quantities: { chargingEnergyV: 0.2 } } as never, [-3, 3.5])
+ *   .map((p) => p.predictedV.toFixed(1));  // => ["3.0", "1.8"]
+ * ```
  */
 export function shortShellPredictions(peaks: readonly Pick<Peak, "biasV">[], assignment: Pick<Assignment, "regime" | "multiplets" | "quantities">, biasRangeV: readonly [number, number]): ShortShellPrediction[] {
   const ecV = assignment.quantities.chargingEnergyV;
@@ -65,12 +76,20 @@ export function shortShellPredictions(peaks: readonly Pick<Peak, "biasV">[], ass
   shells.forEach((m, k) => {
     if (m.degeneracy === null || m.peakIndices.length >= m.degeneracy) return;
     const xs = m.peakIndices.map((i) => peaks[i].biasV);
-    const first = Math.min(...xs), last = Math.max(...xs);
     const before = k > 0 ? Math.max(...shells[k - 1].peakIndices.map((i) => peaks[i].biasV)) : 0;
     const after = k + 1 < shells.length ? Math.min(...shells[k + 1].peakIndices.map((i) => peaks[i].biasV)) : Infinity;
-    const up = last + ecV, down = first - ecV;
-    if (up <= biasRangeV[1] && up <= after - gap) out.push({ label: m.label, side: 1, predictedV: up });
-    if (down >= biasRangeV[0] && down > 0 && down >= before + gap) out.push({ label: m.label, side: -1, predictedV: down });
+    const ends: [number, number][] = [];
+    let start = 0;
+    for (const size of m.subgroups.length ? m.subgroups : [xs.length]) {
+      const g = xs.slice(start, start + size);
+      start += size;
+      if (g.length) ends.push([Math.min(...g), Math.max(...g)]);
+    }
+    for (const [first, last] of ends) {
+      const up = last + ecV, down = first - ecV;
+      if (up <= biasRangeV[1] && up <= after - gap) out.push({ label: m.label, side: 1, predictedV: up });
+      if (down >= biasRangeV[0] && down > 0 && down >= before + gap) out.push({ label: m.label, side: -1, predictedV: down });
+    }
   });
   return out;
 }
