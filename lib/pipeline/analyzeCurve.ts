@@ -189,6 +189,14 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    beside it (`flankLevelPeaks`); where a level passes the step test, it joins the peak
  *    list, the peak is moved to the prediction, and the areas and the assignment are redone on
  *    the new list (a level within a FWHM of a resonance often makes one peak with it).
+ * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
+ *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
+ *    last peak and before its first (`shortShellPredictions`); the current there is tested for a
+ *    step against the peaks kept and the predicted resonances, with no prominence asked for
+ *    (`shortShellSteps`: a weak step in a dense ladder often has no conductance maximum above
+ *    the screen). Strongest first, a step found becomes a peak and the areas and the assignment
+ *    are redone; the new list stands where the peak joins the shell that predicted it, that shell
+ *    keeps its peaks and the regime is unchanged. Repeated while peaks are added (at most 4 rounds).
  *
  * References
  * ----------
