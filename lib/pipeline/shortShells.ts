@@ -8,7 +8,7 @@ import { predictedStep } from "../peaks/predictedStep.ts";
 import type { Assignment } from "../assign/assignSpectrum.ts";
 import { stepPeak, type FlankCurve } from "./flankLevels.ts";
 
-/** Limits of {@link shortShellPeaks} (locked by test/pipeline/shortShells.test.ts). */
+/** Limits of {@link shortShellPredictions} and {@link shortShellSteps} (locked by test/pipeline/shortShells.test.ts). */
 export const SHORT_SHELL_DEFAULTS = Object.freeze({
   /** The missing peak may lie this fraction of Ec_V from its prediction (the ladder's spacing varies by a few % of Ec and its sub-groups by Δ). */
   reachEc: 0.25,
