@@ -14,6 +14,7 @@ import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiple
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { flankLevelPeaks, predictedResonancesV } from "./flankLevels.ts";
+import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
@@ -121,6 +122,9 @@ export const ANALYZE_DEFAULTS = Object.freeze({
   minSeparationFloorMV: 10,
 });
 
+/** Rounds of the search for charging peaks of short shells (note 8): each adds at most one peak per end of each short shell. */
+const SHORT_SHELL_ROUNDS = 4;
+
 const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "minStepSigma", "minSeparationMV", "useMeasured", "regime"] as const;
 
 /**
@@ -185,6 +189,14 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    beside it (`flankLevelPeaks`); where a level passes the step test, it joins the peak
  *    list, the peak is moved to the prediction, and the areas and the assignment are redone on
  *    the new list (a level within a FWHM of a resonance often makes one peak with it).
+ * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
+ *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
+ *    last peak and before its first (`shortShellPredictions`); the current there is tested for a
+ *    step against the peaks kept and the predicted resonances, with no prominence asked for
+ *    (`shortShellSteps`: a weak step in a dense ladder often has no conductance maximum above
+ *    the screen). Strongest first, a step found becomes a peak and the areas and the assignment
+ *    are redone; the new list stands where the peak joins the shell that predicted it, that shell
+ *    keeps its peaks and the regime is unchanged. Repeated while peaks are added (at most 4 rounds).
  *
  * References
  * ----------
@@ -279,18 +291,42 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     biasRangeV: nb > 0 ? [signal.biasV[0], signal.biasV[nb - 1]] : undefined,
   });
   let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
+  const w = peakWidthMV / 1000;
+  const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
+  const resonancesOf = (list: readonly Pick<Peak, "biasV">[], a: Assignment) => (eta !== undefined && eta < 1 ? predictedResonancesV(list, a, eta, w) : []);
+  let list: readonly Peak[] = found.peaks;
   if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {
     // Levels on the flank of a predicted second-junction resonance (note 7).
-    const w = peakWidthMV / 1000;
-    const predicted = predictedResonancesV(peaks, assignment, eta, w);
-    const floorV = FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w;
-    const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV };
-    const flank = flankLevelPeaks(curveIn, found.peaks, predicted, w, minStepSigma);
+    const flank = flankLevelPeaks(curveIn, found.peaks, resonancesOf(peaks, assignment), w, minStepSigma);
     if (flank) {
+      list = flank;
       areas = bandAreas(signal.biasV, signal.didvS, flank);
       peaks = withSweeps(flank, areas, sweeps.length, sweepPeaks);
       assignment = assignSpectrum(peaks, { eta, regime: options.regime });
     }
+  }
+  for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
+    // Charging peaks a short filling shell lacks (note 8), one at a time, strongest step first.
+    const predictions = shortShellPredictions(peaks, assignment, [signal.biasV[0], signal.biasV[nb - 1]]);
+    const steps = predictions.length ? shortShellSteps(curveIn, list, predictions, resonancesOf(peaks, assignment), assignment.quantities.chargingEnergyV!, w, minStepSigma) : [];
+    let added = 0;
+    for (const { peak, label } of steps) {
+      if (list.some((q) => Math.abs(q.biasV - peak.biasV) < w)) continue;
+      const more = [...list, peak].sort((a, b) => a.biasV - b.biasV);
+      const moreAreas = bandAreas(signal.biasV, signal.didvS, more);
+      const morePeaks = withSweeps(more, moreAreas, sweeps.length, sweepPeaks);
+      const again = assignSpectrum(morePeaks, { eta, regime: options.regime });
+      // Kept only where the peak joins the shell that predicted it, and that shell keeps its peaks.
+      const was = assignment.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => list[i]) ?? [];
+      const now = new Set(again.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => more[i]));
+      if (again.regime !== assignment.regime || !now.has(peak) || !was.every((p) => now.has(p))) continue;
+      list = more;
+      areas = moreAreas;
+      peaks = morePeaks;
+      assignment = again;
+      added++;
+    }
+    if (!added) break;
   }
   const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {

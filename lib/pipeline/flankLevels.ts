@@ -92,12 +92,10 @@ export interface FlankCurve {
  */
 export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): Peak[] | null {
   const D = FLANK_LEVELS_DEFAULTS;
-  const { biasV, currentA, didvS, noiseA, noiseS, floorV } = curve;
+  const { biasV, currentA, noiseA } = curve;
   const n = biasV.length;
   if (n < 2 || !predictedV.length) return null;
-  const h = (biasV[n - 1] - biasV[0]) / (n - 1);
   const w = expectedFwhmV;
-  const at = (v: number) => Math.min(n - 1, Math.max(0, Math.round((v - biasV[0]) / h)));
   let list = peaks.slice();
   let changed = false;
   const moved = new Set<Peak>();
@@ -109,12 +107,7 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
     const neighbours = list.filter((_, i) => i !== k).map((p) => p.biasV);
     const fit = resonanceFlankSteps(biasV, currentA, noiseA, r, neighbours, w, minStepSigma);
     if (!fit || !(fit.resonanceSignificance >= minStepSigma)) continue;
-    const gaussArea = w * 1.0645;
-    const asPeak = (v: number, stepA: number, significance: number, sigmaV: number): Peak => {
-      const index = at(v);
-      const prominenceS = stepA / gaussArea;
-      return { biasV: v, biasUncertaintyV: Math.hypot(sigmaV, floorV), index, heightS: didvS[index], prominenceS, fwhmV: w, stepA, snr: prominenceS / noiseS, stepSignificance: significance };
-    };
+    const asPeak = (v: number, stepA: number, significance: number, sigmaV: number) => stepPeak(curve, v, stepA, significance, sigmaV, w);
     const resonance = asPeak(r, fit.resonanceStepA, fit.resonanceSignificance, list[k].biasUncertaintyV);
     moved.add(resonance);
     const levels = fit.levels.map((l) => asPeak(l.biasV, l.stepA, l.significance, l.uncertaintyV));
@@ -123,4 +116,19 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
     changed = true;
   }
   return changed ? list : null;
+}
+
+/**
+ * A step found on the current as a peak: at `biasV` (V), with the expected FWHM `expectedFwhmV`
+ * (V), the Gaussian prominence of its step (stepA/(1.0645·FWHM)), its t (`significance`), and
+ * its position σ (`sigmaV`, V) with the curve's floor in quadrature; height and index those of the
+ * nearest sample.
+ */
+export function stepPeak(curve: Pick<FlankCurve, "biasV" | "didvS" | "noiseS" | "floorV">, biasV: number, stepA: number, significance: number, sigmaV: number, expectedFwhmV: number): Peak {
+  const x = curve.biasV;
+  const n = x.length;
+  const h = n > 1 ? (x[n - 1] - x[0]) / (n - 1) : 1;
+  const index = Math.min(n - 1, Math.max(0, Math.round((biasV - x[0]) / h)));
+  const prominenceS = stepA / (expectedFwhmV * 1.0645);
+  return { biasV, biasUncertaintyV: Math.hypot(sigmaV, curve.floorV), index, heightS: curve.didvS[index], prominenceS, fwhmV: expectedFwhmV, stepA, snr: prominenceS / curve.noiseS, stepSignificance: significance };
 }
