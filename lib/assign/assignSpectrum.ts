@@ -19,6 +19,7 @@ import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
+import { oddLeadingLevel } from "./oddLeadingLevel.ts";
 import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
 import type { NoLevels } from "./noLevels.ts";
 
@@ -127,7 +128,9 @@ export interface Assignment {
  *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
  *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
  *    steps 1–6 run again with exactly those resonances set aside until nothing changes
- *    (`iterateResonances`). A result that is not shell filling is tried the same way from the
+ *    (`iterateResonances`). Where p then opens with an odd sub-group at a VB peak's predicted
+ *    resonance (`oddLeadingLevel`; a VB peak set aside as a CB level's resonance predicts too),
+ *    that peak is set aside if the rules still read shell filling with an even first sub-group. A result that is not shell filling is tried the same way from the
  *    shell-filling reading when its band-edge resonances carry at least
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
  *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
@@ -173,14 +176,14 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (!resonances) return first;
   // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
   const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
-  if (first.regime === "shell-filling" || options.regime) return iterateResonances(peaks, first, eta, again);
+  if (first.regime === "shell-filling" || options.regime) return withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options);
   // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
   const edge = bandEdgeResonanceRatio(peaks, plain);
   if (edge === null || edge.ratio < D.fillingResonanceStepMin) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
-  const filling = iterateResonances(peaks, forced, eta, again);
+  const filling = withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, forced, eta, again), { ...options, regime: undefined });
   if (filling === forced) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
   filling.evidence.reasons = filling.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
@@ -211,6 +214,26 @@ function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, ca
 /** The reasons of the substrate side's second charging peaks set aside (`substrateChargingPeaks`). */
 function companionReasons(peaks: readonly Peak[], companions: readonly SecondJunctionResonance[]): string[] {
   return companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`);
+}
+
+/**
+ * A shell-filling reading whose p opens with an odd sub-group at a VB peak's predicted resonance
+ * (`oddLeadingLevel`): that peak is set aside and the rules run again; the result stands if it is
+ * still shell filling and p's first sub-group is then even.
+ */
+function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+  if (a.regime !== "shell-filling" || options.regime || a.quantities.chargingEnergyV === null) return a;
+  const lead = oddLeadingLevel(peaks, a.multiplets, a.evidence.secondJunction, a.quantities.chargingEnergyV, eta);
+  if (!lead) return a;
+  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction.filter((r) => r.index !== lead.index), lead], options);
+  const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
+  if (next.regime !== "shell-filling" || !p || (p.subgroups[0] ?? p.peakIndices.length) % 2 !== 0) return a;
+  const earlier = a.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r) && !r.startsWith("the first two CB steps"));
+  next.evidence.reasons.unshift(
+    ...earlier,
+    `peak at ${peaks[lead.index].biasV.toFixed(3)} V set aside: it opened p with an odd sub-group (each p orbital holds two electrons) and lies at the second-junction resonance of the peak at ${peaks[lead.sourceIndex].biasV.toFixed(3)} V (expected at ${lead.predictedV.toFixed(3)} V)`,
+  );
+  return next;
 }
 
 /**

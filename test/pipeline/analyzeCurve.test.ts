@@ -305,3 +305,27 @@ describe("analyzeCurve(curve, { eta }): a p level at a deeper VB level's plain r
     }, 30_000);
   }
 });
+
+// p opened by an odd sub-group whose first peak is a VB level's second-junction resonance: the
+// peak is set aside and p is read from the next (draws 2085 and 2116 of the low-η mix, shell
+// filling; the simulation lists a substrate-junction step there). Every expected value is the
+// simulation's truth, the tolerance the project's bar (a peak within 25 % of Ec/η).
+describe("analyzeCurve(curve, { eta }): a resonance opening p with an odd sub-group (low-η draws)", () => {
+  const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
+  for (const start of [2085, 2116]) {
+    it(`sets the resonance aside and reads s and p at their levels (draw ${start})`, () => {
+      const { scenario, truth } = syntheticSpectrum(start, "shell-filling", lowEta);
+      const sim = simulateCurve(scenario, { method: "fast", conductance: false });
+      const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
+      const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+      const reason = a.assignment.evidence.reasons.find((r) => r.includes("opened p with an odd sub-group"));
+      expect(reason).toBeDefined();
+      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+      expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
+      const cb = (label: string) => a.assignment.multiplets.find((m) => m.band === "CB" && m.label === label)!;
+      expect(a.assignment.regime).toBe("shell-filling");
+      expectClose(cb("s").peaksV, truth.sPeaksV, { atol: tolV, what: "s, the simulation's truth" });
+      expectClose(cb("p").peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
+    }, 30_000);
+  }
+});

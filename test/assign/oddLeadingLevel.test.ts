@@ -1,0 +1,37 @@
+// p opened by an odd sub-group at a VB peak's second-junction resonance. Positions are closed
+// forms of the orthodox theory of the double-barrier junction: a VB peak at V behind N carriers
+// predicts η/(1 − η)·(|V| − N·Ec_V) at positive bias; every p orbital holds two electrons.
+import { describe, it, expect } from "vitest";
+import { oddLeadingLevel, ODD_LEADING_LEVEL_DEFAULTS } from "../../lib/assign/oddLeadingLevel.ts";
+
+const at = (biasV: number) => ({ biasV, biasUncertaintyV: 0.002, fwhmV: 0.04 });
+// η = 0.6 (gain 1.5), Ec_V = 0.2 V: v1 doublet at −1.0, −1.2 V.
+const v1 = { band: "VB" as const, label: "v1", degeneracy: null, peakIndices: [2, 1], subgroups: [2] };
+const pOf = (subgroups: number[]) => ({ band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [3, 4, 5, 6, 7, 8], subgroups });
+
+describe("oddLeadingLevel(peaks, multiplets, resonances, chargingEnergyV, eta)", () => {
+  it("names p's first peak at the resonance of a set-aside VB peak behind the doublet: 1.5·(1.8 − 2·0.2) = 2.1 V", () => {
+    const peaks = [-1.8, -1.2, -1.0, 2.1, 2.4, 2.6, 2.8, 3.0, 3.2].map(at);
+    const got = oddLeadingLevel(peaks, [pOf([1, 5]), v1], [{ index: 0, sourceIndex: 4, predictedV: -1.8 }], 0.2, 0.6)!;
+    expect(got.index).toBe(3);
+    expect(got.sourceIndex).toBe(0);
+    expect(got.predictedV).toBeCloseTo(2.1, 12);
+  });
+
+  it("names it at the resonance of a VB group's own peak: the doublet's first, 1.5 × 1.0 = 1.5 V", () => {
+    const peaks = [-1.8, -1.2, -1.0, 1.5, 2.4, 2.6, 2.8, 3.0, 3.2].map(at);
+    expect(oddLeadingLevel(peaks, [pOf([1, 5]), v1], [], 0.2, 0.6)?.sourceIndex).toBe(2);
+  });
+
+  it("leaves an even first sub-group, a p with no prediction at its first peak, and η = 1", () => {
+    const peaks = [-1.8, -1.2, -1.0, 2.1, 2.4, 2.6, 2.8, 3.0, 3.2].map(at);
+    const aside = [{ index: 0, sourceIndex: 4, predictedV: -1.8 }];
+    expect(oddLeadingLevel(peaks, [pOf([2, 4]), v1], aside, 0.2, 0.6)).toBeNull();
+    expect(oddLeadingLevel(peaks, [pOf([1, 5]), v1], [], 0.2, 0.6)).toBeNull();
+    expect(oddLeadingLevel(peaks, [pOf([1, 5]), v1], aside, 0.2, 1)).toBeNull();
+  });
+
+  it("ODD_LEADING_LEVEL_DEFAULTS are locked: an empty band, a doublet, a doublet and a four, …", () => {
+    expect(ODD_LEADING_LEVEL_DEFAULTS.carriersBelow).toEqual([0, 2, 4, 6]);
+  });
+});
