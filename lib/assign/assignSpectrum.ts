@@ -11,7 +11,7 @@ import { spectrumEnergies, type SpectrumEnergies } from "./energies.ts";
 import { fitLadderSpacing } from "./ladderFit.ts";
 import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets.ts";
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
-import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
+import { classifyRegime, regimeRatios, valenceFillingDoublet, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
 import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
@@ -129,8 +129,12 @@ export interface Assignment {
  *    (`iterateResonances`). A result that is not shell filling is tried the same way from the
  *    shell-filling reading when its band-edge resonances carry at least
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
- *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
- *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
+ *    filling unasked, or if the VB's first main peaks read as a charging doublet by the CB's own
+ *    rule (`valenceFillingDoublet`: alike steps, then a jump of at least `D.fillingJumpRatioMin`
+ *    × their spacing), the rounds then run under shell filling (resonances of the higher VB
+ *    levels, N·Ec/(1 − η) nearer 0 V than the plain guess, can keep the CB ladder from reading
+ *    it: the VB has none of its own); otherwise a resonance stepping at least as much as its
+ *    source goes back to the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1) where the
  *    regime stays the same, or where the first reading named none and the second reads shell
  *    tunnelling with the VB's second step at least `D.tunnelingStepRatioMin` × its first (a VB
  *    level of more states: the VB, which no CB resonance touches, agrees).
@@ -171,11 +175,35 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (edge === null || edge.ratio < D.fillingResonanceStepMin) return underResonances(peaks, eta, etaGiven, first, options);
   const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
   const filling = iterateResonances(peaks, forced, eta, again);
-  if (filling === forced) return underResonances(peaks, eta, etaGiven, first, options);
+  if (filling === forced) return valenceDoublet(peaks, eta, etaGiven, forced, first, options) ?? underResonances(peaks, eta, etaGiven, first, options);
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
-  filling.evidence.reasons = filling.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+  unforced(filling);
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
   return filling;
+}
+
+/**
+ * Shell filling where the band-edge resonances say so and the VB reads as a charging doublet
+ * (`valenceFillingDoublet`) but the CB, with the resonances its ladder predicts set aside, does
+ * not (note 8 of `assignSpectrum`): the shell-filling reading from `forced` with the rounds of
+ * `iterateResonances` run under that regime; null when the VB does not read so.
+ */
+function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, forced: Assignment, first: Assignment, options: AssignOptions): Assignment | null {
+  // The first reading is not shell filling, so each of its VB groups is one main peak.
+  const vb = first.multiplets
+    .filter((m) => m.band === "VB")
+    .flatMap((m) => m.peakIndices)
+    .map((index) => ({ peak: peaks[index], x: -peaks[index].biasV, index }))
+    .sort((a, b) => a.x - b.x);
+  const doublet = valenceFillingDoublet(vb);
+  if (doublet === null) return null;
+  const regime = "shell-filling";
+  const out = iterateResonances(peaks, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, { ...options, regime }));
+  unforced(out);
+  out.evidence.reasons.unshift(
+    `read as shell filling: the band-edge resonances carry at least ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)} × their levels' steps and the VB's first two main peaks step alike (ratio ${doublet.stepRatio.toFixed(2)} within ${ASSIGN_DEFAULTS.fillingStepRatio.join("–")}) with a jump of ${doublet.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${ASSIGN_DEFAULTS.fillingJumpRatioMin}): a charging doublet; the CB ladder (the first reading, ${first.regime}) holds resonances of VB levels that its own prediction misses`,
+  );
+  return out;
 }
 
 /** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
@@ -277,7 +305,7 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
     const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
     out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
     if (out === forced) return null;
-    out.evidence.reasons = out.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+    unforced(out);
   }
   if (out.regime !== "shell-filling") return null;
   out.evidence.reasons.unshift(
@@ -312,6 +340,14 @@ function bandEdgeResonanceRatio(peaks: readonly Peak[], candidates: readonly Sec
     if (!out || ratio < out.ratio) out = { ratio, sourceIndex: c.sourceIndex, doubletStepRatio: Number.isFinite(r) ? r / (1 + r) : 1 };
   }
   return out;
+}
+
+/**
+ * Drop the note that the user gave the regime from a reading the rules forced to shell filling
+ * and then kept (in place): the regime was not the user's.
+ */
+function unforced(a: Assignment): void {
+  a.evidence.reasons = a.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
 }
 
 /** The assignment with the given peaks set aside as second-junction resonances. */

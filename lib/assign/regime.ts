@@ -299,3 +299,54 @@ function pairWithoutThird(ratio: number, evidence: RegimeEvidence): Regime {
   reasons.push(`${head}; the VB (step ratio ${vStep.toFixed(2)}, spacing ${vSpacing.toFixed(2)} × the CB's) supports neither reading`);
   return "undetermined";
 }
+
+/**
+ * The VB read by the CB's shell-filling rule (note 2 of {@link classifyRegime}): a charging
+ * doublet of alike steps, then a longer jump to the next level.
+ *
+ * Parameters
+ * ----------
+ * vb : readonly BandPeak[]
+ *     VB main peaks (noise, charging satellites and second-junction resonances set aside) from
+ *     the gap edge outward (`x` = |bias|, V).
+ *
+ * Returns
+ * -------
+ * { stepRatio: number; jumpRatio: number } | null
+ *     The second VB step over the first and the spacing from VB peak 2 to the next peak that is
+ *     not its weak satellite over that of peaks 1–2 (read as {@link regimeRatios} reads the CB),
+ *     when the step ratio lies within `ASSIGN_DEFAULTS.fillingStepRatio` and the jump is at least
+ *     `ASSIGN_DEFAULTS.fillingJumpRatioMin`; null otherwise (also with fewer than three peaks).
+ *
+ * Notes
+ * -----
+ * 1. In shell filling (Γtip/Γsub = r ≥ 1.5) the VB edge level of two states gives two charging
+ *    peaks one Ec apart, the second stepping r/(1 + r) ≥ 0.6 of the first, then a jump of Ec plus
+ *    the level spacing to the next level: the CB's s doublet rule holds for the VB as it stands.
+ * 2. In shell tunnelling the first two VB main peaks are two levels, the second of more states
+ *    and stepping more (a level of g states after one of two steps g/(2(1 + (2 + g)r)) of it:
+ *    about 2 for g = 4 deep in the regime, above the filling range). In the crossover the edge
+ *    level's second charging peak steps less than 0.6 of the first, or is set aside as its
+ *    satellite; the two main peaks are then two levels, and the next spacing, one Ec inside the
+ *    second level, is shorter than theirs.
+ * 3. The VB holds no second-junction resonance of a VB level (those fall at positive bias); the
+ *    CB's fall at −η·V/(1 − η) of CB peaks and are set aside before. So where, at low η, the VB
+ *    levels' resonances in the CB window make the CB ladder read as another regime, the VB still
+ *    reads as it is.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: -x, stepA } as Peak });
+ * // A doublet 0.25 V apart (steps 1.0, 0.9), then a level 0.6 V further out.
+ * valenceFillingDoublet([at(1.5, 1e-11, 3), at(1.75, 0.9e-11, 2), at(2.35, 1e-11, 1)]);
+ * // => { stepRatio: 0.9, jumpRatio: 2.4 }
+ * ```
+ */
+export function valenceFillingDoublet(vb: readonly BandPeak[]): { stepRatio: number; jumpRatio: number } | null {
+  const D = ASSIGN_DEFAULTS;
+  const { secondToFirstStepRatio: stepRatio, thirdToSecondSpacingRatio: jumpRatio } = regimeRatios(vb);
+  if (stepRatio === null || jumpRatio === null) return null;
+  if (stepRatio < D.fillingStepRatio[0] || stepRatio > D.fillingStepRatio[1] || jumpRatio < D.fillingJumpRatioMin) return null;
+  return { stepRatio, jumpRatio };
+}
