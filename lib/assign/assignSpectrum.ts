@@ -11,7 +11,7 @@ import { spectrumEnergies, type SpectrumEnergies } from "./energies.ts";
 import { fitLadderSpacing } from "./ladderFit.ts";
 import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets.ts";
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
-import { classifyRegime, regimeRatios, valenceFillingDoublet, type Regime, type RegimeEvidence } from "./regime.ts";
+import { classifyRegime, extraCbPeak, regimeRatios, valenceFillingDoublet, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
 import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
@@ -100,9 +100,11 @@ export interface Assignment {
  * 4. Shell filling: charging multiplets s, p, d (`fillingShells`); Ec = the common spacing of all
  *    groups by weighted least squares (`fitLadderSpacing`), sub-groups with their own
  *    intercepts; a shell short of its degeneracy takes a weak peak one Ec beyond its last
- *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level (`tunnelingShells`); where a gap-edge level
- *    shows its charging satellite (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks
- *    one Ec after the peak before them are charging peaks of that level (`levelChargingPeaks`).
+ *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level
+ *    (`tunnelingShells`), an extra second CB peak that the regime rules read as no level set
+ *    aside (`extraCbPeak`); where a gap-edge level shows its charging satellite
+ *    (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks one Ec after the peak
+ *    before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec
  *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge.
  * 6. Quantities and uncertainties (`spectrumQuantities`), energies = η × bias-referred values
@@ -418,11 +420,19 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
     // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
     // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
     const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
-    let levels = cb;
+    // An extra peak between s and p that the rules read as no level (`extraCbPeak`) goes the way
+    // of a weaker one, which is a charging satellite of s.
+    const extra = options.regime ? null : extraCbPeak(cbClean, evidence);
+    const tip = extra && cb.includes(extra) ? cb.filter((p) => p !== extra) : cb;
+    if (tip !== cb) {
+      setAside = [...setAside, extra!];
+      evidence.reasons.push(`CB peak at ${extra!.peak.biasV.toFixed(3)} V set aside: the extra peak between s and p, no level of the ladder`);
+    }
+    let levels = tip;
     if (satelliteEc !== null) {
       ecV = satelliteEc.chargingEnergyV;
       ecSE = satelliteEc.sigmaV;
-      const split = levelChargingPeaks(cb, ecV);
+      const split = levelChargingPeaks(tip, ecV);
       if (split.charging.length) {
         levels = split.levels;
         setAside = [...setAside, ...split.charging];

@@ -122,7 +122,7 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  *    at least as much × the first VB step (see `extraSecondPeak`): a level of more states follows
  *    the first on both sides, which a rate ratio in the crossover does not give (its charging
  *    peaks step alike), so the second CB peak is an extra one (at low η an unpredicted
- *    second-junction resonance) and note 4 decides.
+ *    second-junction resonance) and note 4 decides, with p the shell after it (`extraCbPeak`).
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
  *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps
  *    (ratio at least `D.earlyEntryDoubletRatioMin`) with a shorter jump to a weak third peak that
@@ -201,7 +201,10 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
   // more than the s step.
   const satellites = cb.length - main.length;
   const note = satellites ? `; ${satellites} weak peak(s) set aside as charging satellites` : "";
-  const pShell = main.length >= 2 ? tunnelingShells(main)[1] : [];
+  // An extra second peak (note 3) is no level: p is the shell after it.
+  const extra = extraCbPeak(cb, evidence);
+  const levels = main.filter((p) => p !== extra);
+  const pShell = levels.length >= 2 ? tunnelingShells(levels)[1] : [];
   const pRatio = pShell.reduce((a, p) => a + p.peak.stepA, 0) / main[0].peak.stepA;
   if (pRatio >= D.tunnelingStepRatioMin) {
     const sub = pShell.length > 1 ? ` (${pShell.length} sub-levels together)` : "";
@@ -226,6 +229,49 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       note,
   );
   return "undetermined";
+}
+
+/**
+ * The extra second CB peak of note 3 of {@link classifyRegime}: the second CB peak where its step
+ * over the first lies in the intermediate band (above `ASSIGN_DEFAULTS.tunnelingSatelliteRatioMax`,
+ * below `ASSIGN_DEFAULTS.fillingStepRatio[0]`) while the third CB peak and the second VB step both
+ * carry at least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × the first; null otherwise.
+ *
+ * Parameters
+ * ----------
+ * cb : readonly BandPeak[]
+ *     CB peaks from the gap edge outward, noise set aside (as given to {@link classifyRegime}).
+ * ratios : Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio">
+ *     From {@link regimeRatios} on the same peaks and the VB main peaks.
+ *
+ * Returns
+ * -------
+ * BandPeak | null
+ *     `cb[1]` when it is such a peak.
+ *
+ * Notes
+ * -----
+ * 1. Levels of more states than s on both sides are shell tunnelling's signature; a rate ratio in
+ *    the crossover would make the second peak a charging peak of s, and the third step like it.
+ *    The peak between is then no level of the tip-side ladder (at low η, the second resonance of
+ *    a band-edge level through the substrate junction, Ec/(1 − η) beyond the predicted one): the
+ *    p shell is read after it, and the shell-tunnelling ladder sets it aside as a charging
+ *    satellite of s is (a weaker one, below `ASSIGN_DEFAULTS.satelliteStepRatioMax` × s, already
+ *    is).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
+ * const cb = [at(2.43, 1e-12, 2), at(2.74, 0.55e-12, 3), at(3.01, 2.8e-12, 4)];
+ * extraCbPeak(cb, { secondToFirstStepRatio: 0.55, valenceStepRatio: 1.9 })?.index;  // => 3
+ * ```
+ */
+export function extraCbPeak(cb: readonly BandPeak[], ratios: Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio">): BandPeak | null {
+  const D = ASSIGN_DEFAULTS;
+  const ratio = ratios.secondToFirstStepRatio;
+  if (ratio === null || ratio <= D.tunnelingSatelliteRatioMax || ratio >= D.fillingStepRatio[0]) return null;
+  return extraSecondPeak(cb, ratios.valenceStepRatio) === null ? null : cb[1];
 }
 
 /**

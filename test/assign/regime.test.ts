@@ -5,7 +5,7 @@
 // ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8. The early-entry block takes its step heights from the
 // project's master equation (currentSteps, the simulated truth) at closed-form positions.
 import { describe, it, expect } from "vitest";
-import { classifyRegime, regimeRatios, valenceFillingDoublet, type RegimeEvidence } from "../../lib/assign/regime.ts";
+import { classifyRegime, extraCbPeak, regimeRatios, valenceFillingDoublet, type RegimeEvidence } from "../../lib/assign/regime.ts";
 import { splitSatellites } from "../../lib/assign/satellites.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
@@ -109,6 +109,37 @@ describe("classifyRegime: an extra peak between s and p (intermediate CB step ra
     const weak = [cb[0], cb[1], at(V(0.85), 0.9 * ASSIGN_DEFAULTS.tunnelingStepRatioMin * sStepA, 2)];
     const evidence: RegimeEvidence = { ...regimeRatios(weak, [at(-V(0.6), sStepA, 3), at(-V(0.9), pStepA, 4)]), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
     expect(classifyRegime(weak, weak, evidence)).toBe("undetermined");
+  });
+});
+
+describe("extraCbPeak: the extra second CB peak of note 3, and p read after it", () => {
+  // Deep in shell tunnelling (r = 0.01): s (2 states), p a whole level of 6 states stepping
+  // levelStepRatio(2, 6, r) × s, the VB's second level (4 states) levelStepRatio(2, 4, r) × its
+  // first (closed forms); an extra peak stepping 0.55 × s (the intermediate band) close after s.
+  const r = 0.01;
+  const sStepA = 2e-11;
+  const cb = [at(V(0.55), sStepA, 0), at(V(0.6), 0.55 * sStepA, 1), at(V(0.85), levelStepRatio(2, 6, r) * sStepA, 2)];
+  const vb = [at(-V(0.6), sStepA, 3), at(-V(0.8), levelStepRatio(2, 4, r) * sStepA, 4)];
+  const ratiosOf = (c: BandPeak[], v: BandPeak[]) => regimeRatios(c, v);
+
+  it("names the second CB peak where the third and the second VB step are levels of more states", () => {
+    expect(extraCbPeak(cb, ratiosOf(cb, vb))).toBe(cb[1]);
+  });
+
+  it("names none with a VB doublet, a weak third CB peak, or a second step outside the intermediate band", () => {
+    expect(extraCbPeak(cb, ratiosOf(cb, [vb[0], at(-V(0.7), 0.9 * sStepA, 4)]))).toBeNull();
+    const weak = [cb[0], cb[1], at(V(0.85), sStepA, 2)];
+    expect(extraCbPeak(weak, ratiosOf(weak, vb))).toBeNull();
+    const satellite = [cb[0], at(V(0.6), 0.25 * sStepA, 1), cb[2]];
+    expect(extraCbPeak(satellite, ratiosOf(satellite, vb))).toBeNull();
+  });
+
+  it("reads shell tunnelling from p after the extra peak, though the extra peak alone would be the next shell", () => {
+    // The extra peak lies 0.05/0.8 V after s and p 0.25/0.8 V after it: more than half the s→extra
+    // distance, so without the rule the extra peak would be p, carrying 0.55 × the s step.
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    expect(classifyRegime(cb, cb, evidence)).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(new RegExp(`p shell carries ${levelStepRatio(2, 6, r).toFixed(2)}`));
   });
 });
 

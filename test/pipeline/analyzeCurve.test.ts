@@ -210,6 +210,20 @@ describe("analyzeCurve(curve, { eta }): an unpredicted resonance between s and p
   }
 });
 
+// The same extra peak close after s, too far from p to join it as a sub-level and stepping at
+// least half of s (so no charging satellite): set aside, p read after it (draws 1128 and 2048).
+describe("analyzeCurve(curve, { eta }): an extra peak close after s in shell tunnelling (low-η draws)", () => {
+  for (const start of [1128, 2048]) {
+    it(`sets it aside and reads s and p at their levels (draw ${start})`, () => {
+      const { a, truth, tolV } = tunnelingAtLowEta(start);
+      const k = a.peaks.findIndex((q) => truth.secondJunctionPeaksV.some((v) => Math.abs(q.biasV - v) < tolV) && q.biasV > truth.sPeaksV[0] + tolV && q.biasV < truth.pPeaksV[0] - tolV);
+      expect(k).toBeGreaterThanOrEqual(0);
+      expect(a.assignment.multiplets.some((m) => m.peakIndices.includes(k))).toBe(false);
+      expect(a.assignment.evidence.reasons.some((r) => r.includes("the extra peak between s and p"))).toBe(true);
+    }, 30_000);
+  }
+});
+
 // p where the second VB level's resonance −η·V/(1 − η) is predicted: set aside as a resonance, p
 // leaves the regime unnamed; the peak steps more than its source (a level under it) and the VB's
 // second step is a level of more states, so shell tunnelling stands (draws 1073 and 2145).
