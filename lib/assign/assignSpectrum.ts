@@ -123,7 +123,8 @@ export interface Assignment {
  *    below it stepping at least 2 + `D.fillingStepRatio[0]` × its source (a doublet's resonance
  *    alone steps less than 2×) is the s doublet's first peak under a resonance (its step taken as
  *    (1 + r)/r of the first CB peak's), the shell-filling reading then standing if the rules read
- *    it unasked with the resonances its ladder predicts set aside (`iterateResonances`).
+ *    it unasked with the resonances its ladder predicts set aside (`iterateResonances`), or if
+ *    the VB reads as a charging doublet (`valenceFillingDoublet`, as in note 8).
  * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
  *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
  *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
@@ -187,8 +188,8 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
 /**
  * Shell filling where the band-edge resonances say so and the VB reads as a charging doublet
  * (`valenceFillingDoublet`) but the CB, with the resonances its ladder predicts set aside, does
- * not (note 8 of `assignSpectrum`): the shell-filling reading from `forced` with the rounds of
- * `iterateResonances` run under that regime; null when the VB does not read so.
+ * not (notes 7 and 8 of `assignSpectrum`): the shell-filling reading from `forced` with the
+ * rounds of `iterateResonances` run under that regime; null when the VB does not read so.
  */
 function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, forced: Assignment, first: Assignment, options: AssignOptions): Assignment | null {
   // The first reading is not shell filling, so each of its VB groups is one main peak.
@@ -303,9 +304,11 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   let out = assignWith(adjusted, eta, etaGiven, rest, options);
   if (out.regime !== "shell-filling" && !second) {
     // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
-    // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it unasked.
+    // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it
+    // unasked, or if the VB reads as a charging doublet (its own ladder has no such resonances).
     const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
     out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
+    if (out === forced) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
     if (out === forced) return null;
     unforced(out);
   }

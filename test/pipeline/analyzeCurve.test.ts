@@ -237,13 +237,14 @@ describe("analyzeCurve(curve, { eta }): p under a VB level's resonance in shell 
 });
 
 // Shell filling at low η where the CB ladder holds the resonances of VB levels that neither the
-// plain −η·V/(1 − η) nor the ladder's own prediction places (draws 12 and 51 of the accuracy
+// plain −η·V/(1 − η) nor the ladder's own prediction places (draws 12, 51 and 114 of the accuracy
 // benchmark's low-η mix, simulated by the project's model): the first reading named shell
-// tunnelling (12) or none (51); the band-edge resonances and the VB's charging doublet say shell
-// filling. Every expected value is the simulation's truth, the tolerance the project's quality bar.
+// tunnelling (12, 114) or none (51); the band-edge resonances and the VB's charging doublet say
+// shell filling. In 114 the s doublet's first peak also lies under the VB edge level's resonance.
+// Every expected value is the simulation's truth, the tolerance the project's quality bar.
 describe("analyzeCurve(curve, { eta }): shell filling read from the VB doublet where VB resonances fill the CB ladder (low-η draws)", () => {
   const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
-  for (const start of [12, 51]) {
+  for (const start of [12, 51, 114]) {
     it(`reads shell filling with s, p and Ec at the truth (draw ${start})`, () => {
       const { scenario, truth } = syntheticSpectrum(start, "shell-filling", lowEta);
       const sim = simulateCurve(scenario, { method: "fast", conductance: false });
