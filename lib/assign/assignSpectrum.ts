@@ -11,7 +11,7 @@ import { spectrumEnergies, type SpectrumEnergies } from "./energies.ts";
 import { fitLadderSpacing } from "./ladderFit.ts";
 import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets.ts";
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
-import { classifyRegime, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
+import { classifyRegime, extraCbPeak, regimeRatios, valenceFillingDoublet, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
 import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
@@ -102,9 +102,11 @@ export interface Assignment {
  * 4. Shell filling: charging multiplets s, p, d (`fillingShells`); Ec = the common spacing of all
  *    groups by weighted least squares (`fitLadderSpacing`), sub-groups with their own
  *    intercepts; a shell short of its degeneracy takes a weak peak one Ec beyond its last
- *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level (`tunnelingShells`); where a gap-edge level
- *    shows its charging satellite (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks
- *    one Ec after the peak before them are charging peaks of that level (`levelChargingPeaks`).
+ *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level
+ *    (`tunnelingShells`), an extra second CB peak that the regime rules read as no level set
+ *    aside (`extraCbPeak`); where a gap-edge level shows its charging satellite
+ *    (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks one Ec after the peak
+ *    before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec
  *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge.
  * 6. Quantities and uncertainties (`spectrumQuantities`), energies = η × bias-referred values
@@ -123,7 +125,8 @@ export interface Assignment {
  *    below it stepping at least 2 + `D.fillingStepRatio[0]` × its source (a doublet's resonance
  *    alone steps less than 2×) is the s doublet's first peak under a resonance (its step taken as
  *    (1 + r)/r of the first CB peak's), the shell-filling reading then standing if the rules read
- *    it unasked with the resonances its ladder predicts set aside (`iterateResonances`).
+ *    it unasked with the resonances its ladder predicts set aside (`iterateResonances`), or if
+ *    the VB reads as a charging doublet (`valenceFillingDoublet`, as in note 8).
  * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
  *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
  *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
@@ -133,12 +136,17 @@ export interface Assignment {
  *    that peak is set aside if the rules still read shell filling with an even first sub-group. A result that is not shell filling is tried the same way from the
  *    shell-filling reading when its band-edge resonances carry at least
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
- *    filling unasked; otherwise a resonance stepping at least as much as its source goes back to
- *    the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for r < 1; not one
- *    with a peak that is no resonance within the smaller of their FWHMs: that peak is its level,
- *    split apart, the pair's summed step shared out by the split's fit; the farthest from its
- *    prediction first) where the regime stays the same, with a band-edge level's second charging
- *    peak through the substrate junction set aside too where that keeps the regime, or where the first reading named none and the second reads shell
+ *    filling unasked, or if the VB's first main peaks read as a charging doublet by the CB's own
+ *    rule (`valenceFillingDoublet`: alike steps, then a jump of at least `D.fillingJumpRatioMin`
+ *    × their spacing), the rounds then run under shell filling (resonances of the higher VB
+ *    levels, N·Ec/(1 − η) nearer 0 V than the plain guess, can keep the CB ladder from reading
+ *    it: the VB has none of its own); otherwise a resonance stepping at least as much as its
+ *    source goes back to the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for
+ *    r < 1; not one with a peak that is no resonance within the smaller of their FWHMs: that
+ *    peak is its level, split apart, the pair's summed step shared out by the split's fit; the
+ *    farthest from its prediction first) where the regime stays the same, with a band-edge
+ *    level's second charging peak through the substrate junction set aside too where that keeps
+ *    the regime, or where the first reading named none and the second reads shell
  *    tunnelling with the VB's second step at least `D.tunnelingStepRatioMin` × its first (a VB
  *    level of more states: the VB, which no CB resonance touches, agrees). A shell-tunnelling
  *    reading gives back to the ladder a peak at the plain resonance of a level behind its band's
@@ -184,11 +192,35 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (edge === null || edge.ratio < D.fillingResonanceStepMin) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
   const filling = withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, forced, eta, again), { ...options, regime: undefined });
-  if (filling === forced) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
+  if (filling === forced) return valenceDoublet(peaks, eta, etaGiven, forced, first, options) ?? withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
-  filling.evidence.reasons = filling.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+  unforced(filling);
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
   return filling;
+}
+
+/**
+ * Shell filling where the band-edge resonances say so and the VB reads as a charging doublet
+ * (`valenceFillingDoublet`) but the CB, with the resonances its ladder predicts set aside, does
+ * not (notes 7 and 8 of `assignSpectrum`): the shell-filling reading from `forced` with the
+ * rounds of `iterateResonances` run under that regime; null when the VB does not read so.
+ */
+function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, forced: Assignment, first: Assignment, options: AssignOptions): Assignment | null {
+  // The first reading is not shell filling, so each of its VB groups is one main peak.
+  const vb = first.multiplets
+    .filter((m) => m.band === "VB")
+    .flatMap((m) => m.peakIndices)
+    .map((index) => ({ peak: peaks[index], x: -peaks[index].biasV, index }))
+    .sort((a, b) => a.x - b.x);
+  const doublet = valenceFillingDoublet(vb);
+  if (doublet === null) return null;
+  const regime = "shell-filling";
+  const out = iterateResonances(peaks, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, { ...options, regime }));
+  unforced(out);
+  out.evidence.reasons.unshift(
+    `read as shell filling: the band-edge resonances carry at least ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)} × their levels' steps and the VB's first two main peaks step alike (ratio ${doublet.stepRatio.toFixed(2)} within ${ASSIGN_DEFAULTS.fillingStepRatio.join("–")}) with a jump of ${doublet.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${ASSIGN_DEFAULTS.fillingJumpRatioMin}): a charging doublet; the CB ladder (the first reading, ${first.regime}) holds resonances of VB levels that its own prediction misses`,
+  );
+  return out;
 }
 
 /** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
@@ -379,11 +411,13 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   let out = assignWith(adjusted, eta, etaGiven, rest, options);
   if (out.regime !== "shell-filling" && !second) {
     // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
-    // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it unasked.
+    // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it
+    // unasked, or if the VB reads as a charging doublet (its own ladder has no such resonances).
     const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
     out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
+    if (out === forced) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
     if (out === forced) return null;
-    out.evidence.reasons = out.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+    unforced(out);
   }
   if (out.regime !== "shell-filling") return null;
   out.evidence.reasons.unshift(
@@ -418,6 +452,14 @@ function bandEdgeResonanceRatio(peaks: readonly Peak[], candidates: readonly Sec
     if (!out || ratio < out.ratio) out = { ratio, sourceIndex: c.sourceIndex, doubletStepRatio: Number.isFinite(r) ? r / (1 + r) : 1 };
   }
   return out;
+}
+
+/**
+ * Drop the note that the user gave the regime from a reading the rules forced to shell filling
+ * and then kept (in place): the regime was not the user's.
+ */
+function unforced(a: Assignment): void {
+  a.evidence.reasons = a.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
 }
 
 /** The assignment with the given peaks set aside as second-junction resonances. */
@@ -488,11 +530,19 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
     // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
     // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
     const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
-    let levels = cb;
+    // An extra peak between s and p that the rules read as no level (`extraCbPeak`) goes the way
+    // of a weaker one, which is a charging satellite of s.
+    const extra = options.regime ? null : extraCbPeak(cbClean, evidence);
+    const tip = extra && cb.includes(extra) ? cb.filter((p) => p !== extra) : cb;
+    if (tip !== cb) {
+      setAside = [...setAside, extra!];
+      evidence.reasons.push(`CB peak at ${extra!.peak.biasV.toFixed(3)} V set aside: the extra peak between s and p, no level of the ladder`);
+    }
+    let levels = tip;
     if (satelliteEc !== null) {
       ecV = satelliteEc.chargingEnergyV;
       ecSE = satelliteEc.sigmaV;
-      const split = levelChargingPeaks(cb, ecV);
+      const split = levelChargingPeaks(tip, ecV);
       if (split.charging.length) {
         levels = split.levels;
         setAside = [...setAside, ...split.charging];

@@ -122,7 +122,7 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  *    at least as much × the first VB step (see `extraSecondPeak`): a level of more states follows
  *    the first on both sides, which a rate ratio in the crossover does not give (its charging
  *    peaks step alike), so the second CB peak is an extra one (at low η an unpredicted
- *    second-junction resonance) and note 4 decides.
+ *    second-junction resonance) and note 4 decides, with p the shell after it (`extraCbPeak`).
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
  *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps
  *    (ratio at least `D.earlyEntryDoubletRatioMin`) with a shorter jump to a weak third peak that
@@ -201,7 +201,10 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
   // more than the s step.
   const satellites = cb.length - main.length;
   const note = satellites ? `; ${satellites} weak peak(s) set aside as charging satellites` : "";
-  const pShell = main.length >= 2 ? tunnelingShells(main)[1] : [];
+  // An extra second peak (note 3) is no level: p is the shell after it.
+  const extra = extraCbPeak(cb, evidence);
+  const levels = main.filter((p) => p !== extra);
+  const pShell = levels.length >= 2 ? tunnelingShells(levels)[1] : [];
   const pRatio = pShell.reduce((a, p) => a + p.peak.stepA, 0) / main[0].peak.stepA;
   if (pRatio >= D.tunnelingStepRatioMin) {
     const sub = pShell.length > 1 ? ` (${pShell.length} sub-levels together)` : "";
@@ -226,6 +229,49 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       note,
   );
   return "undetermined";
+}
+
+/**
+ * The extra second CB peak of note 3 of {@link classifyRegime}: the second CB peak where its step
+ * over the first lies in the intermediate band (above `ASSIGN_DEFAULTS.tunnelingSatelliteRatioMax`,
+ * below `ASSIGN_DEFAULTS.fillingStepRatio[0]`) while the third CB peak and the second VB step both
+ * carry at least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × the first; null otherwise.
+ *
+ * Parameters
+ * ----------
+ * cb : readonly BandPeak[]
+ *     CB peaks from the gap edge outward, noise set aside (as given to {@link classifyRegime}).
+ * ratios : Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio">
+ *     From {@link regimeRatios} on the same peaks and the VB main peaks.
+ *
+ * Returns
+ * -------
+ * BandPeak | null
+ *     `cb[1]` when it is such a peak.
+ *
+ * Notes
+ * -----
+ * 1. Levels of more states than s on both sides are shell tunnelling's signature; a rate ratio in
+ *    the crossover would make the second peak a charging peak of s, and the third step like it.
+ *    The peak between is then no level of the tip-side ladder (at low η, the second resonance of
+ *    a band-edge level through the substrate junction, Ec/(1 − η) beyond the predicted one): the
+ *    p shell is read after it, and the shell-tunnelling ladder sets it aside as a charging
+ *    satellite of s is (a weaker one, below `ASSIGN_DEFAULTS.satelliteStepRatioMax` × s, already
+ *    is).
+ *
+ * Example
+ * -------
+ * ```ts
+ * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
+ * const cb = [at(2.43, 1e-12, 2), at(2.74, 0.55e-12, 3), at(3.01, 2.8e-12, 4)];
+ * extraCbPeak(cb, { secondToFirstStepRatio: 0.55, valenceStepRatio: 1.9 })?.index;  // => 3
+ * ```
+ */
+export function extraCbPeak(cb: readonly BandPeak[], ratios: Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio">): BandPeak | null {
+  const D = ASSIGN_DEFAULTS;
+  const ratio = ratios.secondToFirstStepRatio;
+  if (ratio === null || ratio <= D.tunnelingSatelliteRatioMax || ratio >= D.fillingStepRatio[0]) return null;
+  return extraSecondPeak(cb, ratios.valenceStepRatio) === null ? null : cb[1];
 }
 
 /**
@@ -298,4 +344,55 @@ function pairWithoutThird(ratio: number, evidence: RegimeEvidence): Regime {
   }
   reasons.push(`${head}; the VB (step ratio ${vStep.toFixed(2)}, spacing ${vSpacing.toFixed(2)} × the CB's) supports neither reading`);
   return "undetermined";
+}
+
+/**
+ * The VB read by the CB's shell-filling rule (note 2 of {@link classifyRegime}): a charging
+ * doublet of alike steps, then a longer jump to the next level.
+ *
+ * Parameters
+ * ----------
+ * vb : readonly BandPeak[]
+ *     VB main peaks (noise, charging satellites and second-junction resonances set aside) from
+ *     the gap edge outward (`x` = |bias|, V).
+ *
+ * Returns
+ * -------
+ * { stepRatio: number; jumpRatio: number } | null
+ *     The second VB step over the first and the spacing from VB peak 2 to the next peak that is
+ *     not its weak satellite over that of peaks 1–2 (read as {@link regimeRatios} reads the CB),
+ *     when the step ratio lies within `ASSIGN_DEFAULTS.fillingStepRatio` and the jump is at least
+ *     `ASSIGN_DEFAULTS.fillingJumpRatioMin`; null otherwise (also with fewer than three peaks).
+ *
+ * Notes
+ * -----
+ * 1. In shell filling (Γtip/Γsub = r ≥ 1.5) the VB edge level of two states gives two charging
+ *    peaks one Ec apart, the second stepping r/(1 + r) ≥ 0.6 of the first, then a jump of Ec plus
+ *    the level spacing to the next level: the CB's s doublet rule holds for the VB as it stands.
+ * 2. In shell tunnelling the first two VB main peaks are two levels, the second of more states
+ *    and stepping more (a level of g states after one of two steps g/(2(1 + (2 + g)r)) of it:
+ *    about 2 for g = 4 deep in the regime, above the filling range). In the crossover the edge
+ *    level's second charging peak steps less than 0.6 of the first, or is set aside as its
+ *    satellite; the two main peaks are then two levels, and the next spacing, one Ec inside the
+ *    second level, is shorter than theirs.
+ * 3. The VB holds no second-junction resonance of a VB level (those fall at positive bias); the
+ *    CB's fall at −η·V/(1 − η) of CB peaks and are set aside before. So where, at low η, the VB
+ *    levels' resonances in the CB window make the CB ladder read as another regime, the VB still
+ *    reads as it is.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: -x, stepA } as Peak });
+ * // A doublet 0.25 V apart (steps 1.0, 0.9), then a level 0.6 V further out.
+ * valenceFillingDoublet([at(1.5, 1e-11, 3), at(1.75, 0.9e-11, 2), at(2.35, 1e-11, 1)]);
+ * // => { stepRatio: 0.9, jumpRatio: 2.4 }
+ * ```
+ */
+export function valenceFillingDoublet(vb: readonly BandPeak[]): { stepRatio: number; jumpRatio: number } | null {
+  const D = ASSIGN_DEFAULTS;
+  const { secondToFirstStepRatio: stepRatio, thirdToSecondSpacingRatio: jumpRatio } = regimeRatios(vb);
+  if (stepRatio === null || jumpRatio === null) return null;
+  if (stepRatio < D.fillingStepRatio[0] || stepRatio > D.fillingStepRatio[1] || jumpRatio < D.fillingJumpRatioMin) return null;
+  return { stepRatio, jumpRatio };
 }

@@ -5,7 +5,8 @@
 // ε_p = 0.8 eV, Ec = 0.1 eV, η = 0.8. The early-entry block takes its step heights from the
 // project's master equation (currentSteps, the simulated truth) at closed-form positions.
 import { describe, it, expect } from "vitest";
-import { classifyRegime, regimeRatios, type RegimeEvidence } from "../../lib/assign/regime.ts";
+import { classifyRegime, extraCbPeak, regimeRatios, valenceFillingDoublet, type RegimeEvidence } from "../../lib/assign/regime.ts";
+import { splitSatellites } from "../../lib/assign/satellites.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -111,6 +112,37 @@ describe("classifyRegime: an extra peak between s and p (intermediate CB step ra
   });
 });
 
+describe("extraCbPeak: the extra second CB peak of note 3, and p read after it", () => {
+  // Deep in shell tunnelling (r = 0.01): s (2 states), p a whole level of 6 states stepping
+  // levelStepRatio(2, 6, r) × s, the VB's second level (4 states) levelStepRatio(2, 4, r) × its
+  // first (closed forms); an extra peak stepping 0.55 × s (the intermediate band) close after s.
+  const r = 0.01;
+  const sStepA = 2e-11;
+  const cb = [at(V(0.55), sStepA, 0), at(V(0.6), 0.55 * sStepA, 1), at(V(0.85), levelStepRatio(2, 6, r) * sStepA, 2)];
+  const vb = [at(-V(0.6), sStepA, 3), at(-V(0.8), levelStepRatio(2, 4, r) * sStepA, 4)];
+  const ratiosOf = (c: BandPeak[], v: BandPeak[]) => regimeRatios(c, v);
+
+  it("names the second CB peak where the third and the second VB step are levels of more states", () => {
+    expect(extraCbPeak(cb, ratiosOf(cb, vb))).toBe(cb[1]);
+  });
+
+  it("names none with a VB doublet, a weak third CB peak, or a second step outside the intermediate band", () => {
+    expect(extraCbPeak(cb, ratiosOf(cb, [vb[0], at(-V(0.7), 0.9 * sStepA, 4)]))).toBeNull();
+    const weak = [cb[0], cb[1], at(V(0.85), sStepA, 2)];
+    expect(extraCbPeak(weak, ratiosOf(weak, vb))).toBeNull();
+    const satellite = [cb[0], at(V(0.6), 0.25 * sStepA, 1), cb[2]];
+    expect(extraCbPeak(satellite, ratiosOf(satellite, vb))).toBeNull();
+  });
+
+  it("reads shell tunnelling from p after the extra peak, though the extra peak alone would be the next shell", () => {
+    // The extra peak lies 0.05/0.8 V after s and p 0.25/0.8 V after it: more than half the s→extra
+    // distance, so without the rule the extra peak would be p, carrying 0.55 × the s step.
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    expect(classifyRegime(cb, cb, evidence)).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(new RegExp(`p shell carries ${levelStepRatio(2, 6, r).toFixed(2)}`));
+  });
+});
+
 describe("classifyRegime on two alike CB steps and no third CB peak (the window ends there)", () => {
   // Shell filling at r = 10: s doublet with step ratio r/(1 + r) = 10/11 (closed form), and the VB
   // doublet of ε_v1 = −0.6 eV at the same spacing Ec/η with the same step ratio. Shell tunnelling
@@ -174,5 +206,59 @@ describe("classifyRegime: p entered before s is full (Δsp about Ec)", () => {
     const { regime, evidence } = classify(cbAt(1.5));
     expectClose(evidence.secondToFirstStepRatio!, 0.6, { rtol: 1e-3, what: "r/(1 + r), closed form" });
     expect(regime).toBe("undetermined");
+  });
+});
+
+describe("valenceFillingDoublet: the VB read by the CB's shell-filling rule", () => {
+  // VB levels v1 (2 states, −0.6 eV) and v2 (4 states, −0.8 eV), Ec = 0.1 eV, η = 0.8: tip-side
+  // steps from the project's master equation (currentSteps, simulated truth) at the closed-form
+  // positions (|ε| + Ec(n + ½))/η; the main peaks as the assignment takes them (noise below 0.2 ×
+  // the median step, then charging satellites below satelliteStepRatioMax × the peak before).
+  const vbAt = (r: number) => {
+    const model = {
+      cb: [], vb: [{ energyEV: -0.6, degeneracy: 2 }, { energyEV: -0.8, degeneracy: 4 }],
+      chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: r * 1e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const steps = currentSteps(model)
+      .steps.filter((s) => s.biasV < 0)
+      .map((s, i) => at(-s.biasV, Math.abs(s.heightA), i))
+      .sort((a, b) => a.x - b.x);
+    return splitSatellites(splitSatellites(steps, ASSIGN_DEFAULTS.noiseStepRatioMax, 0).main, 0, ASSIGN_DEFAULTS.satelliteStepRatioMax).main;
+  };
+
+  for (const r of [3, 10]) {
+    it(`reads the edge doublet of shell filling at Γtip/Γsub = ${r}: steps r/(1 + r), then a jump of (Ec + Δv)/Ec = 3`, () => {
+      const d = valenceFillingDoublet(vbAt(r))!;
+      expectClose(d.stepRatio, r / (1 + r), { rtol: 1e-6, what: "r/(1 + r), closed form" });
+      expectClose(d.jumpRatio, (0.1 + 0.2) / 0.1, { rtol: 1e-9, what: "(Ec + Δv)/Ec, closed form" });
+    });
+  }
+
+  it("reads no doublet deep in shell tunnelling (Γtip/Γsub = 0.01): v2 steps about levelStepRatio(2, 4, r) × v1", () => {
+    const vb = vbAt(0.01);
+    // The closed form leaves out the weak charging satellites the master equation keeps (about 1 %).
+    expectClose(regimeRatios(vb).secondToFirstStepRatio!, levelStepRatio(2, 4, 0.01), { rtol: 0.02, what: "4/(2(1 + 6r)), closed form" });
+    expect(valenceFillingDoublet(vb)).toBeNull();
+  });
+
+  it("reads no doublet below the filling limit (Γtip/Γsub = 1.2): the second step is r/(1 + r) < 0.6 of the first", () => {
+    const vb = vbAt(1.2);
+    expectClose(regimeRatios(vb).secondToFirstStepRatio!, 1.2 / 2.2, { rtol: 1e-6, what: "r/(1 + r), closed form" });
+    expect(valenceFillingDoublet(vb)).toBeNull();
+  });
+
+  for (const r of [0.3, 0.8]) {
+    it(`reads no doublet at Γtip/Γsub = ${r} where two levels step alike: the next spacing is one Ec, shorter than theirs`, () => {
+      const vb = vbAt(r);
+      const ratios = regimeRatios(vb);
+      expect(ratios.secondToFirstStepRatio!).toBeGreaterThanOrEqual(ASSIGN_DEFAULTS.fillingStepRatio[0]);
+      expect(ratios.secondToFirstStepRatio!).toBeLessThanOrEqual(ASSIGN_DEFAULTS.fillingStepRatio[1]);
+      expect(ratios.thirdToSecondSpacingRatio!).toBeLessThan(ASSIGN_DEFAULTS.fillingJumpRatioMin);
+      expect(valenceFillingDoublet(vb)).toBeNull();
+    });
+  }
+
+  it("needs a third VB main peak", () => {
+    expect(valenceFillingDoublet(vbAt(10).slice(0, 2))).toBeNull();
   });
 });
