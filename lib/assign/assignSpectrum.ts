@@ -263,7 +263,7 @@ function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, 
   const earlier = a.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r) && !r.startsWith("the first two CB steps"));
   next.evidence.reasons.unshift(
     ...earlier,
-    `peak at ${peaks[lead.index].biasV.toFixed(3)} V set aside: it opened p with an odd sub-group (each p orbital holds two electrons) and lies at the second-junction resonance of the peak at ${peaks[lead.sourceIndex].biasV.toFixed(3)} V (expected at ${lead.predictedV.toFixed(3)} V)`,
+    `peak at ${peaks[lead.index].biasV.toFixed(3)} V set aside: it opened p with an odd sub-group or a ladder of more than six (each p orbital holds two electrons) and lies at the second-junction resonance of the peak at ${peaks[lead.sourceIndex].biasV.toFixed(3)} V (expected at ${lead.predictedV.toFixed(3)} V)`,
   );
   return next;
 }

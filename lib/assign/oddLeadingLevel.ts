@@ -1,6 +1,7 @@
 /**
- * A shell-filling p whose first sub-group is odd, led by a peak where a VB level's second-junction
- * resonance lies: that peak is the resonance, not p's first charging peak.
+ * A shell-filling p whose first sub-group is odd (or whose ladder runs on past six), led by a peak
+ * where a VB level's second-junction resonance lies: that peak is the resonance, not p's first
+ * charging peak.
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import type { Multiplet } from "./multiplets.ts";
@@ -15,6 +16,11 @@ export const ODD_LEADING_LEVEL_DEFAULTS = Object.freeze({
    * nearer 0 V than it.
    */
   carriersBelow: Object.freeze([0, 2, 4, 6]) as readonly number[],
+  /**
+   * The next shell's first peak continues p's ladder when it lies (1 ± this) × Ec_V after p's
+   * last (the reach of `completeShells` and of the sub-groups' spacing, a quarter of Ec).
+   */
+  continuationTolerance: 0.25,
 });
 
 /**
@@ -38,13 +44,17 @@ export const ODD_LEADING_LEVEL_DEFAULTS = Object.freeze({
  * -------
  * SecondJunctionResonance | null
  *     p's first peak as a resonance of the VB peak whose prediction lies nearest it within
- *     tolerance; null when p's first sub-group is even, p is missing, or no prediction reaches it.
+ *     tolerance; null when p's first sub-group is even and its ladder stops at six, p is missing,
+ *     or no prediction reaches it.
  *
  * Notes
  * -----
  * 1. Every orbital sub-level of p holds two electrons (spin), so the charging peaks of a split p
  *    come in even sub-groups (2 + 4, 2 + 2 + 2, or 6 whole): an odd first sub-group says a peak
- *    too many (or too few) at p's start.
+ *    too many (or too few) at p's start. So does a p of six whose ladder goes on: the next
+ *    shell's first peak (1 ± `continuationTolerance`) × Ec_V after p's last, where a d shell lies
+ *    its level spacing beyond (a seventh charging peak of one spacing is no p peak, and one of the
+ *    six before it is).
  * 2. A VB peak at V predicts a resonance through the substrate junction at
  *    η/(1 − η)·(|V| − N·Ec_V) at positive bias, N the carriers in the VB levels below its own
  *    (`ladderResonances`, note 2). For the peaks of the VB groups that is `ladderPredictions`.
@@ -81,8 +91,17 @@ export function oddLeadingLevel(
   eta: number,
 ): SecondJunctionResonance | null {
   if (!(eta > 0 && eta < 1) || !(chargingEnergyV > 0)) return null;
-  const p = multiplets.find((m) => m.band === "CB" && m.label === "p");
-  if (!p || !p.peakIndices.length || (p.subgroups[0] ?? p.peakIndices.length) % 2 === 0) return null;
+  const cb = multiplets.filter((m) => m.band === "CB");
+  const k = cb.findIndex((m) => m.label === "p");
+  const p = cb[k];
+  if (!p || !p.peakIndices.length) return null;
+  const odd = (p.subgroups[0] ?? p.peakIndices.length) % 2 !== 0;
+  // The next shell's first peak one Ec_V after p's last: p's ladder goes on past six.
+  const next = cb[k + 1]?.peakIndices[0];
+  const last = p.peakIndices[p.peakIndices.length - 1];
+  const step = next === undefined ? NaN : (peaks[next].biasV - peaks[last].biasV) / chargingEnergyV;
+  const continues = p.peakIndices.length === 6 && Math.abs(step - 1) <= ODD_LEADING_LEVEL_DEFAULTS.continuationTolerance;
+  if (!odd && !continues) return null;
   const D = SECOND_JUNCTION_DEFAULTS;
   const gain = eta / (1 - eta);
   const index = p.peakIndices[0];

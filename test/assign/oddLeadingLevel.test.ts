@@ -32,6 +32,20 @@ describe("oddLeadingLevel(peaks, multiplets, resonances, chargingEnergyV, eta)",
   });
 
   it("ODD_LEADING_LEVEL_DEFAULTS are locked: an empty band, a doublet, a doublet and a four, …", () => {
-    expect(ODD_LEADING_LEVEL_DEFAULTS.carriersBelow).toEqual([0, 2, 4, 6]);
+    expect(ODD_LEADING_LEVEL_DEFAULTS).toEqual({ carriersBelow: [0, 2, 4, 6], continuationTolerance: 0.25 });
+  });
+});
+
+describe("oddLeadingLevel: a p of six whose ladder runs on", () => {
+  it("names p's first peak where the next shell's first peak lies one Ec_V after p's last (a seventh charging peak)", () => {
+    // p read as 2.1, 2.3 … 3.1 V (six, one group) and d at 3.3 V: one Ec_V = 0.2 V after p's last.
+    const peaks = [-1.8, -1.2, -1.0, 2.1, 2.3, 2.5, 2.7, 2.9, 3.1, 3.3].map(at);
+    const p6 = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [3, 4, 5, 6, 7, 8], subgroups: [6] };
+    const d = { band: "CB" as const, label: "d", degeneracy: 10, peakIndices: [9], subgroups: [1] };
+    const aside = [{ index: 0, sourceIndex: 4, predictedV: -1.8 }];
+    expect(oddLeadingLevel(peaks, [p6, d, v1], aside, 0.2, 0.6)?.index).toBe(3);
+    // d a level spacing beyond (0.5 V after p's last): p stops at six.
+    const far = [-1.8, -1.2, -1.0, 2.1, 2.3, 2.5, 2.7, 2.9, 3.1, 3.6].map(at);
+    expect(oddLeadingLevel(far, [p6, d, v1], aside, 0.2, 0.6)).toBeNull();
   });
 });
