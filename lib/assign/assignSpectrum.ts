@@ -184,14 +184,15 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (!resonances) return first;
   // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
   const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
-  if (first.regime === "shell-filling" || options.regime) return withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options);
+  if (first.regime === "shell-filling" || options.regime) return withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options, true);
   // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
   const edge = bandEdgeResonanceRatio(peaks, plain);
   if (edge === null || edge.ratio < D.fillingResonanceStepMin) return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
-  const filling = withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, forced, eta, again), { ...options, regime: undefined });
+  const rounds = iterateResonances(peaks, forced, eta, again);
+  const filling = rounds === forced ? forced : withoutOddLead(peaks, eta, etaGiven, rounds, { ...options, regime: undefined }, true);
   if (filling === forced) return valenceDoublet(peaks, eta, etaGiven, forced, first, options) ?? withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
   unforced(filling);
@@ -253,11 +254,12 @@ function companionReasons(peaks: readonly Peak[], companions: readonly SecondJun
  * (`oddLeadingLevel`): that peak is set aside and the rules run again; the result stands if it is
  * still shell filling and p's first sub-group is then even.
  */
-function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions, forced = false): Assignment {
   if (a.regime !== "shell-filling" || options.regime || a.quantities.chargingEnergyV === null) return a;
   const lead = oddLeadingLevel(peaks, a.multiplets, a.evidence.secondJunction, a.quantities.chargingEnergyV, eta);
   if (!lead) return a;
-  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction.filter((r) => r.index !== lead.index), lead], options);
+  // A reading the rounds made from the forced shell-filling one is read again under it.
+  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction.filter((r) => r.index !== lead.index), lead], forced ? { ...options, regime: "shell-filling" } : options);
   const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
   if (next.regime !== "shell-filling" || !p || (p.subgroups[0] ?? p.peakIndices.length) % 2 !== 0) return a;
   const earlier = a.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r) && !r.startsWith("the first two CB steps"));

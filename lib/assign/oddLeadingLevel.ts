@@ -111,12 +111,7 @@ export function oddLeadingLevel(
     chargingEnergyV,
     eta,
   });
-  for (const r of resonances) {
-    const src = peaks[r.index];
-    if (!(src.biasV < 0)) continue;
-    const nearer = peaks.filter((q) => q.biasV < 0 && q.biasV > src.biasV).length;
-    for (const n of ODD_LEADING_LEVEL_DEFAULTS.carriersBelow) if (n <= nearer) candidates.push({ sourceIndex: r.index, predictedV: gain * (Math.abs(src.biasV) - n * chargingEnergyV) });
-  }
+  candidates.push(...setAsideSourcePredictions(peaks, resonances, chargingEnergyV, eta));
   let best: SecondJunctionResonance | null = null;
   let bestMiss = Infinity;
   for (const { sourceIndex, predictedV } of candidates) {
@@ -129,4 +124,28 @@ export function oddLeadingLevel(
     }
   }
   return best;
+}
+
+/**
+ * The resonances that VB peaks set aside as resonances would predict if they held a level too
+ * (note 2 of {@link oddLeadingLevel}): for each, η/(1 − η)·(|V| − N·Ec_V) for every N of
+ * `ODD_LEADING_LEVEL_DEFAULTS.carriersBelow` up to the number of VB peaks nearer 0 V, V (positive
+ * bias), with the peak's index as `sourceIndex`. Empty for η outside (0, 1).
+ */
+export function setAsideSourcePredictions(
+  peaks: readonly Pick<Peak, "biasV">[],
+  resonances: readonly Pick<SecondJunctionResonance, "index">[],
+  chargingEnergyV: number,
+  eta: number,
+): { sourceIndex: number; predictedV: number }[] {
+  if (!(eta > 0 && eta < 1)) return [];
+  const gain = eta / (1 - eta);
+  const out: { sourceIndex: number; predictedV: number }[] = [];
+  for (const r of resonances) {
+    const src = peaks[r.index];
+    if (!(src.biasV < 0)) continue;
+    const nearer = peaks.filter((q) => q.biasV < 0 && q.biasV > src.biasV).length;
+    for (const n of ODD_LEADING_LEVEL_DEFAULTS.carriersBelow) if (n <= nearer) out.push({ sourceIndex: r.index, predictedV: gain * (Math.abs(src.biasV) - n * chargingEnergyV) });
+  }
+  return out;
 }

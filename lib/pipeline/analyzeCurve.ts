@@ -15,6 +15,7 @@ import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { flankLevelPeaks, predictedResonancesV } from "./flankLevels.ts";
 import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
+import { setAsideSourcePredictions } from "../assign/oddLeadingLevel.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
 import { median } from "../signal/noise.ts";
 
@@ -196,7 +197,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    (`shortShellSteps`: a weak step in a dense ladder often has no conductance maximum above
  *    the screen). Strongest first, a step found becomes a peak and the areas and the assignment
  *    are redone; the new list stands where the peak joins the shell that predicted it, that shell
- *    keeps its peaks and the regime is unchanged. Repeated while peaks are added (at most 4 rounds).
+ *    keeps its peaks and the regime is unchanged. A full shell whose first peak lies at a
+ *    predicted resonance is looked at one Ec_V beyond its last peak too; a step there may take
+ *    that first peak's place. Repeated while peaks are added (at most 4 rounds).
  *
  * References
  * ----------
@@ -307,17 +310,21 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   }
   for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
     // Charging peaks a short filling shell lacks (note 8), one at a time, strongest step first.
-    const predictions = shortShellPredictions(peaks, assignment, [signal.biasV[0], signal.biasV[nb - 1]]);
+    // A full shell's first peak is looked at against the resonances predicted, and those its set-aside VB peaks would give.
+    const ecV = assignment.quantities.chargingEnergyV ?? 0;
+    const leadResonancesV = [...resonancesOf(peaks, assignment), ...(eta !== undefined ? setAsideSourcePredictions(peaks, assignment.evidence.secondJunction, ecV, eta).map((r) => r.predictedV) : [])];
+    const predictions = shortShellPredictions(peaks, assignment, [signal.biasV[0], signal.biasV[nb - 1]], { resonancesV: leadResonancesV, toleranceV: w / 2 });
     const steps = predictions.length ? shortShellSteps(curveIn, list, predictions, resonancesOf(peaks, assignment), assignment.quantities.chargingEnergyV!, w, minStepSigma) : [];
     let added = 0;
-    for (const { peak, label } of steps) {
+    for (const { peak, label, replaces } of steps) {
       if (list.some((q) => Math.abs(q.biasV - peak.biasV) < w)) continue;
       const more = [...list, peak].sort((a, b) => a.biasV - b.biasV);
       const moreAreas = bandAreas(signal.biasV, signal.didvS, more);
       const morePeaks = withSweeps(more, moreAreas, sweeps.length, sweepPeaks);
       const again = assignSpectrum(morePeaks, { eta, regime: options.regime });
-      // Kept only where the peak joins the shell that predicted it, and that shell keeps its peaks.
-      const was = assignment.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => list[i]) ?? [];
+      // Kept only where the peak joins the shell that predicted it, and that shell keeps its peaks
+      // (but the one at a resonance whose place the peak would take).
+      const was = assignment.multiplets.find((m) => m.label === label)?.peakIndices.filter((i) => i !== replaces).map((i) => list[i]) ?? [];
       const now = new Set(again.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => more[i]));
       if (again.regime !== assignment.regime || !now.has(peak) || !was.every((p) => now.has(p))) continue;
       list = more;

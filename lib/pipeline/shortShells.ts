@@ -28,6 +28,12 @@ export interface ShortShellPrediction {
   side: 1 | -1;
   /** The predicted position, V. */
   predictedV: number;
+  /**
+   * Set for a full shell whose first peak lies at a predicted second-junction resonance: the index
+   * of that peak, which the peak found would take the shell's place of (note 2 of
+   * {@link shortShellPredictions}).
+   */
+  replaces?: number;
 }
 
 /**
@@ -52,10 +58,21 @@ export interface ShortShellPrediction {
  *
  * Notes
  * -----
- * In shell filling the charging peaks of one (sub-)level are Ec_V apart (Ec/η in bias; sub-groups
- * of a split shell add their level spacing between them), so a shell that shows fewer peaks than
- * it holds carriers lacks one at an end of one of its sub-groups: a sub-group read short (a peak
- * missing inside the shell splits or shortens one) is looked at on both sides.
+ * 1. In shell filling the charging peaks of one (sub-)level are Ec_V apart (Ec/η in bias;
+ *    sub-groups of a split shell add their level spacing between them), so a shell that shows
+ *    fewer peaks than it holds carriers lacks one at an end of one of its sub-groups: a sub-group
+ *    read short (a peak missing inside the shell splits or shortens one) is looked at on both
+ *    sides.
+ * 2. A full shell (more than two states) whose first peak lies within `resonances.toleranceV` of
+ *    a predicted second-junction resonance may have taken that resonance for its first charging
+ *    peak because its last one was not found: one Ec_V beyond its last peak is predicted too,
+ *    with `replaces` naming the first peak (a found step there takes its place).
+ *
+ * Parameters (continued)
+ * ----------------------
+ * resonances : { resonancesV: readonly number[]; toleranceV: number }
+ *     The predicted resonances, V (`predictedResonancesV`), and how near a shell's first peak
+ *     must lie to one, V. Default: none (no prediction of note 2).
  *
  * Example
  * -------
@@ -67,17 +84,30 @@ export interface ShortShellPrediction {
  *   .map((p) => p.predictedV.toFixed(1));  // => ["3.0", "1.8"]
  * ```
  */
-export function shortShellPredictions(peaks: readonly Pick<Peak, "biasV">[], assignment: Pick<Assignment, "regime" | "multiplets" | "quantities">, biasRangeV: readonly [number, number]): ShortShellPrediction[] {
+export function shortShellPredictions(
+  peaks: readonly Pick<Peak, "biasV">[],
+  assignment: Pick<Assignment, "regime" | "multiplets" | "quantities">,
+  biasRangeV: readonly [number, number],
+  resonances: { resonancesV: readonly number[]; toleranceV: number } = { resonancesV: [], toleranceV: 0 },
+): ShortShellPrediction[] {
   const ecV = assignment.quantities.chargingEnergyV;
   if (assignment.regime !== "shell-filling" || ecV === null || !(ecV > 0)) return [];
   const gap = SHORT_SHELL_DEFAULTS.shellGapEc * ecV;
   const shells = assignment.multiplets.filter((m) => m.band === "CB" && m.peakIndices.length > 0);
   const out: ShortShellPrediction[] = [];
   shells.forEach((m, k) => {
-    if (m.degeneracy === null || m.peakIndices.length >= m.degeneracy) return;
     const xs = m.peakIndices.map((i) => peaks[i].biasV);
-    const before = k > 0 ? Math.max(...shells[k - 1].peakIndices.map((i) => peaks[i].biasV)) : 0;
     const after = k + 1 < shells.length ? Math.min(...shells[k + 1].peakIndices.map((i) => peaks[i].biasV)) : Infinity;
+    if (m.degeneracy !== null && m.peakIndices.length === m.degeneracy && m.degeneracy > 2) {
+      // A full shell led by a peak at a predicted resonance: its place may belong to a step one
+      // Ec_V beyond the shell's last peak (note 2).
+      const lead = m.peakIndices[0];
+      const up = Math.max(...xs) + ecV;
+      const atResonance = resonances.resonancesV.some((r) => Math.abs(r - peaks[lead].biasV) <= resonances.toleranceV);
+      if (atResonance && up <= biasRangeV[1] && up <= after - gap) out.push({ label: m.label, side: 1, predictedV: up, replaces: lead });
+    }
+    if (m.degeneracy === null || m.peakIndices.length >= m.degeneracy) return;
+    const before = k > 0 ? Math.max(...shells[k - 1].peakIndices.map((i) => peaks[i].biasV)) : 0;
     const ends: [number, number][] = [];
     let start = 0;
     for (const size of m.subgroups.length ? m.subgroups : [xs.length]) {
@@ -116,8 +146,9 @@ export function shortShellPredictions(peaks: readonly Pick<Peak, "biasV">[], ass
  *
  * Returns
  * -------
- * { peak: Peak; label: string }[]
- *     Each step found as a peak, with the label of the shell that predicted it, by descending t;
+ * { peak: Peak; label: string; replaces?: number }[]
+ *     Each step found as a peak, with the label of the shell that predicted it (and the
+ *     prediction's `replaces`), by descending t;
  *     each is found against `peaks` alone (not against the others).
  *
  * Notes
@@ -141,19 +172,19 @@ export function shortShellSteps(
   chargingEnergyV: number,
   expectedFwhmV: number,
   minStepSigma: number,
-): { peak: Peak; label: string }[] {
+): { peak: Peak; label: string; replaces?: number }[] {
   const D = SHORT_SHELL_DEFAULTS;
   const w = expectedFwhmV;
   if (!predictions.length || !(w > 0) || !(chargingEnergyV > 0)) return [];
   const kept = peaks.map((q) => q.biasV);
   const free = resonancesV.filter((r) => !kept.some((v) => Math.abs(v - r) < w));
-  const found: { peak: Peak; label: string }[] = [];
+  const found: { peak: Peak; label: string; replaces?: number }[] = [];
   for (const p of predictions) {
     if (resonancesV.some((r) => Math.abs(r - p.predictedV) < D.resonanceFwhm * w)) continue;
     const step = predictedStep(curve.biasV, curve.currentA, curve.noiseA, p.predictedV, D.reachEc * chargingEnergyV, [...kept, ...free], w, D.minStepFraction * minStepSigma);
     if (!step) continue;
     const peak = stepPeak(curve, step.biasV, step.stepA, step.significance, Number.isFinite(step.uncertaintyV) ? step.uncertaintyV : w / 2, w);
-    found.push({ peak, label: p.label });
+    found.push({ peak, label: p.label, ...(p.replaces === undefined ? {} : { replaces: p.replaces }) });
   }
   return found.sort((a, b) => (b.peak.stepSignificance ?? 0) - (a.peak.stepSignificance ?? 0));
 }

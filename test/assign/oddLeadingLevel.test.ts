@@ -2,7 +2,7 @@
 // forms of the orthodox theory of the double-barrier junction: a VB peak at V behind N carriers
 // predicts η/(1 − η)·(|V| − N·Ec_V) at positive bias; every p orbital holds two electrons.
 import { describe, it, expect } from "vitest";
-import { oddLeadingLevel, ODD_LEADING_LEVEL_DEFAULTS } from "../../lib/assign/oddLeadingLevel.ts";
+import { oddLeadingLevel, setAsideSourcePredictions, ODD_LEADING_LEVEL_DEFAULTS } from "../../lib/assign/oddLeadingLevel.ts";
 
 const at = (biasV: number) => ({ biasV, biasUncertaintyV: 0.002, fwhmV: 0.04 });
 // η = 0.6 (gain 1.5), Ec_V = 0.2 V: v1 doublet at −1.0, −1.2 V.
@@ -47,5 +47,16 @@ describe("oddLeadingLevel: a p of six whose ladder runs on", () => {
     // d a level spacing beyond (0.5 V after p's last): p stops at six.
     const far = [-1.8, -1.2, -1.0, 2.1, 2.3, 2.5, 2.7, 2.9, 3.1, 3.6].map(at);
     expect(oddLeadingLevel(far, [p6, d, v1], aside, 0.2, 0.6)).toBeNull();
+  });
+});
+
+describe("setAsideSourcePredictions(peaks, resonances, chargingEnergyV, eta)", () => {
+  it("gives 1.5·(|V| − N·0.2) for N = 0 and 2 behind two nearer VB peaks (closed form), nothing for a CB peak", () => {
+    const peaks = [-1.8, -1.2, -1.0, 2.1].map((biasV) => ({ biasV }));
+    const got = setAsideSourcePredictions(peaks, [{ index: 0 }, { index: 3 }], 0.2, 0.6);
+    expect(got.map((r) => r.sourceIndex)).toEqual([0, 0]);
+    expect(got[0].predictedV).toBeCloseTo(2.7, 12);
+    expect(got[1].predictedV).toBeCloseTo(2.1, 12);
+    expect(setAsideSourcePredictions(peaks, [{ index: 0 }], 0.2, 1)).toEqual([]);
   });
 });

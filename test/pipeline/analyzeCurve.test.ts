@@ -355,3 +355,17 @@ describe("analyzeCurve(curve, { eta }): shell filling read from the VB doublet w
     }, 30_000);
   }
 });
+
+// A full p led by a VB level's resonance because p's last charging peak was not found as a peak:
+// the step one Ec/η beyond p's last is found on the current and takes the resonance's place
+// (draws 152 and 1180; the simulation lists a substrate-junction step at the peak p gives up).
+describe("analyzeCurve(curve, { eta }): a full p led by a resonance, its last peak found on the current (low-η draws)", () => {
+  for (const start of [152, 1180]) {
+    it(`reads s and p at their levels and leaves the resonance out of p (draw ${start})`, () => {
+      const { a, truth, tolV } = fillingAtLowEta(start);
+      const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
+      const resonancesIn = p.peaksV.filter((v) => truth.secondJunctionPeaksV.some((r) => Math.abs(r - v) <= tolV) && !truth.pPeaksV.some((l) => Math.abs(l - v) <= tolV));
+      expect(resonancesIn).toEqual([]);
+    }, 30_000);
+  }
+});

@@ -56,6 +56,22 @@ describe("shortShellPredictions", () => {
   });
 });
 
+describe("shortShellPredictions: a full shell led by a peak at a predicted resonance (note 2)", () => {
+  const ecV = 0.2;
+  const full = [1.0, 1.2, 2.0, 2.2, 2.4, 2.6, 2.8, 3.0].map((v) => peak(v));
+  const multiplets = [shell("s", 2, [0, 1]), shell("p", 6, [2, 3, 4, 5, 6, 7])];
+  it("predicts one Ec_V beyond the last peak, replacing the first, where the first lies at a resonance (closed form)", () => {
+    const got = shortShellPredictions(full, filling(multiplets, ecV), [-3, 3.5], { resonancesV: [2.01], toleranceV: 0.025 });
+    expect(got.length).toBe(1);
+    expect(got[0]).toMatchObject({ label: "p", side: 1, replaces: 2 });
+    expect(got[0].predictedV).toBeCloseTo(3.0 + ecV, 12);
+  });
+  it("predicts nothing where the first peak lies beyond the tolerance of every resonance, or for the s doublet", () => {
+    expect(shortShellPredictions(full, filling(multiplets, ecV), [-3, 3.5], { resonancesV: [2.05], toleranceV: 0.025 })).toEqual([]);
+    expect(shortShellPredictions(full, filling(multiplets, ecV), [-3, 3.5], { resonancesV: [1.0], toleranceV: 0.025 })).toEqual([]);
+  });
+});
+
 describe("shortShellSteps", () => {
   // FWHM 50 mV on 2 mV samples; s at 1.0, 1.2 V and p at 2.0 … 3.0 V (Ec_V = 0.2 V), p6 stepping
   // half the others: the peak list lacks it.
