@@ -189,6 +189,11 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    beside it (`flankLevelPeaks`); where a level passes the step test, it joins the peak
  *    list, the peak is moved to the prediction, and the areas and the assignment are redone on
  *    the new list (a level within a FWHM of a resonance often makes one peak with it).
+ *    Then, in shell filling, a CB charging peak at a predicted resonance that steps more than a
+ *    level of its shell can holds both (`sharedLevelPeaks`): the current there is refitted as
+ *    the resonance and the level beside it, the peak is replaced by the two, and the areas and
+ *    the assignment are redone; the new list stands where each level stays in the shell its
+ *    peak was in and every other CB charging peak keeps its shell.
  * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
  *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
  *    last peak and before its first (`shortShellPredictions`); the current there is tested for a
@@ -304,7 +309,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       peaks = withSweeps(flank, areas, sweeps.length, sweepPeaks);
       assignment = assignSpectrum(peaks, { eta, regime: options.regime });
     }
-    // Levels that share their peak with a predicted resonance, placed on the current (note 8).
+    // Levels that share their peak with a predicted resonance, placed on the current (note 7).
     const shared = sharedLevelPeaks(curveIn, list, peaks.map((p) => p.stepA), assignment, resonancesOf(peaks, assignment), w, minStepSigma);
     if (shared) {
       const moreAreas = bandAreas(signal.biasV, signal.didvS, shared.peaks);
