@@ -73,6 +73,9 @@ export interface FlankStepsResult {
  *     The expected FWHM of a step, V (the resonance's and the neighbours' width).
  * minStepSigma : number
  *     The step test's threshold.
+ * shared : { levelStepMinA: number }, optional
+ *     Where a peak is known to hold the resonance and a level together (a shared peak, note 5):
+ *     the least current step of the level, A. Default: none (a level must show itself).
  *
  * Returns
  * -------
@@ -101,6 +104,12 @@ export interface FlankStepsResult {
  *    D.resonanceMoveFwhm FWHM from its prediction.
  * 4. The resonance's own step must stay positive in the final fit; otherwise null (a level
  *    alone explains the current, nothing is added).
+ * 5. With `shared` the peak is known to hold a level beside the resonance, and the fit only
+ *    places it: no screen and no χ² drop is asked (a level half a FWHM to a FWHM from the
+ *    resonance makes, with it, a step that one wider step fits nearly as well), and no fit of
+ *    both sides is made; a side's level is kept where its step reaches `levelStepMinA` and
+ *    minStepSigma standard errors and the resonance's step minStepSigma standard errors. The
+ *    better side (lower χ²) stands.
  *
  * References
  * ----------
@@ -117,6 +126,7 @@ export function resonanceFlankSteps(
   neighboursV: readonly number[],
   expectedFwhmV: number,
   minStepSigma: number,
+  shared?: { levelStepMinA: number },
 ): FlankStepsResult | null {
   const D = RESONANCE_FLANK_DEFAULTS;
   const n = biasV.length;
@@ -146,7 +156,7 @@ export function resonanceFlankSteps(
   // resonance alone must leave at least that much beyond the degrees of freedom of a fit with one
   // more step (its height, position; four fewer than the resonance alone leaves with its own).
   const dof = hi - lo + 1 - (2 + near.length + 1 + 2) - 2;
-  if (!(alone.value / (noiseA * noiseA) - dof >= need)) return null;
+  if (!shared && !(alone.value / (noiseA * noiseA) - dof >= need)) return null;
   // The range a level on one side may take: beyond sep of the resonance, within maxDistance, clear of neighbours.
   const range = (side: -1 | 1): [number, number] | null => {
     let a = side < 0 ? resonanceV - D.maxDistanceFwhm * w : resonanceV + sep - m;
@@ -182,14 +192,15 @@ export function resonanceFlankSteps(
     const positions = got.p.slice(0, 2);
     const j = judge(positions, got.p[2]);
     const k = side < 0 ? 0 : 1;
-    if (j && !(j.fit.steps[k] >= D.minStepPerResonance * j.fit.steps[1 - k])) continue;
-    if (!j || !(j.t[k] >= minStepSigma) || !((alone.value - got.value) / (j.sigma * j.sigma) >= need)) continue;
+    if (!j || !(j.t[k] >= minStepSigma)) continue;
+    // A shared peak (note 5): the level steps like one and the resonance passes the step test; no χ² drop is asked.
+    if (shared ? !(j.fit.steps[k] >= shared.levelStepMinA && j.t[1 - k] >= minStepSigma) : !(j.fit.steps[k] >= D.minStepPerResonance * j.fit.steps[1 - k]) || !((alone.value - got.value) / (j.sigma * j.sigma) >= need)) continue;
     singles.push({ side, at: positions[k], found: { positions, width: got.p[2], value: got.value } });
   }
   if (!singles.length) return null;
   let best = singles.reduce((a, b) => (b.found.value < a.found.value ? b : a)).found;
   const [l, r] = [range(-1), range(1)];
-  if (l && r) {
+  if (l && r && !shared) {
     // Both sides together, from the singles' positions (one FWHM out where a side kept none: a
     // level on the other side can hide it from the single fit).
     const startOf = (side: -1 | 1, [a, b]: [number, number]) => singles.find((x) => x.side === side)?.at ?? Math.min(b, Math.max(a, resonanceV + side * w));

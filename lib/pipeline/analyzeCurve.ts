@@ -13,7 +13,7 @@ import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSp
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
-import { flankLevelPeaks, predictedResonancesV } from "./flankLevels.ts";
+import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks } from "./flankLevels.ts";
 import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
 import { setAsideSourcePredictions } from "../assign/oddLeadingLevel.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
@@ -190,6 +190,11 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    beside it (`flankLevelPeaks`); where a level passes the step test, it joins the peak
  *    list, the peak is moved to the prediction, and the areas and the assignment are redone on
  *    the new list (a level within a FWHM of a resonance often makes one peak with it).
+ *    Then, in shell filling, a CB charging peak at a predicted resonance that steps more than a
+ *    level of its shell can holds both (`sharedLevelPeaks`): the current there is refitted as
+ *    the resonance and the level beside it, the peak is replaced by the two, and the areas and
+ *    the assignment are redone; the new list stands where each level stays in the shell its
+ *    peak was in and every other CB charging peak keeps its shell.
  * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
  *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
  *    last peak and before its first (`shortShellPredictions`); the current there is tested for a
@@ -306,6 +311,23 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       areas = bandAreas(signal.biasV, signal.didvS, flank);
       peaks = withSweeps(flank, areas, sweeps.length, sweepPeaks);
       assignment = assignSpectrum(peaks, { eta, regime: options.regime });
+    }
+    // Levels that share their peak with a predicted resonance, placed on the current (note 7).
+    const shared = sharedLevelPeaks(curveIn, list, peaks.map((p) => p.stepA), assignment, resonancesOf(peaks, assignment), w, minStepSigma);
+    if (shared) {
+      const moreAreas = bandAreas(signal.biasV, signal.didvS, shared.peaks);
+      const morePeaks = withSweeps(shared.peaks, moreAreas, sweeps.length, sweepPeaks);
+      const again = assignSpectrum(morePeaks, { eta, regime: options.regime });
+      // Kept where each level joins the shell its peak was in and every other CB charging peak keeps its shell.
+      const labels = (a: Assignment, of: readonly Peak[]) => new Map(a.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
+      const before = labels(assignment, list), after = labels(again, shared.peaks);
+      const kept = [...before].every(([p, label]) => !shared.peaks.includes(p) || after.get(p) === label);
+      if (again.regime === assignment.regime && kept && shared.levels.every(({ peak, label }) => after.get(peak) === label)) {
+        list = shared.peaks;
+        areas = moreAreas;
+        peaks = morePeaks;
+        assignment = again;
+      }
     }
   }
   for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {

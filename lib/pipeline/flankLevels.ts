@@ -7,6 +7,7 @@ import type { Peak } from "../peaks/findPeaks.ts";
 import { resonanceFlankSteps } from "../peaks/resonanceFlankSteps.ts";
 import { ladderPredictions } from "../assign/ladderResonances.ts";
 import type { Assignment } from "../assign/assignSpectrum.ts";
+import { ASSIGN_DEFAULTS } from "../assign/assignDefaults.ts";
 
 /** Limits of {@link flankLevelPeaks}, in expected FWHM (locked by test/pipeline/flankLevels.test.ts). */
 export const FLANK_LEVELS_DEFAULTS = Object.freeze({
@@ -116,6 +117,81 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
     changed = true;
   }
   return changed ? list : null;
+}
+
+/**
+ * The peak list with the level of each shared peak placed on the current: a charging peak of a
+ * shell-filling CB shell that holds a predicted resonance too, refitted as the resonance and the
+ * level beside it; null where no peak is shared or no fit places the level.
+ *
+ * Parameters
+ * ----------
+ * curve : FlankCurve
+ *     Bias, current, conductance and their noise.
+ * peaks : readonly Peak[]
+ *     The peaks of the curve, ascending (those the assignment named by index).
+ * stepsA : readonly number[]
+ *     The current step of each peak as the assignment read it, A.
+ * assignment : Pick<Assignment, "regime" | "multiplets">
+ *     The assignment of the peaks.
+ * predictedV : readonly number[]
+ *     The predicted resonances, V ({@link predictedResonancesV}).
+ * expectedFwhmV : number
+ *     The expected FWHM of a step, V.
+ * minStepSigma : number
+ *     The step test's threshold.
+ *
+ * Returns
+ * -------
+ * { peaks: Peak[]; levels: { peak: Peak; label: string }[] } | null
+ *     A new ascending list, each shared peak replaced by the resonance (at its fitted position)
+ *     and the level; the level peaks with the label of the shell the shared peak was in.
+ *
+ * Notes
+ * -----
+ * With w the expected FWHM, D = `FLANK_LEVELS_DEFAULTS` and r = `ASSIGN_DEFAULTS.fillingStepRatio`:
+ * 1. In shell filling, a CB charging peak within D.overlapFwhm·w of a predicted resonance (and
+ *    at least D.edgeFwhm·w inside the bias range) is shared where its step exceeds r[1] times
+ *    the level's share, the median step of its shell's other peaks: the charging steps of one
+ *    shell are alike to within r, so a peak stepping more holds the resonance too.
+ * 2. The current around it is refitted as the resonance's step held near the prediction and a
+ *    level step on one side ({@link resonanceFlankSteps} with `shared`): the level's step at
+ *    least r[0] times the share. A level and a resonance within a FWHM make one peak whose
+ *    position lies between them; the fit puts the level where it steps.
+ * 3. The resonance and the level become peaks as in {@link flankLevelPeaks} (note 3).
+ */
+export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets">, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string }[] } | null {
+  if (assignment.regime !== "shell-filling" || !predictedV.length) return null;
+  const D = FLANK_LEVELS_DEFAULTS;
+  const [lowRatio, highRatio] = ASSIGN_DEFAULTS.fillingStepRatio;
+  const { biasV, currentA, noiseA } = curve;
+  const n = biasV.length;
+  const w = expectedFwhmV;
+  const replaced = new Map<number, Peak[]>();
+  const levels: { peak: Peak; label: string }[] = [];
+  for (const m of assignment.multiplets) {
+    if (m.band !== "CB") continue;
+    for (const i of m.peakIndices) {
+      const v = peaks[i].biasV;
+      const near = predictedV.filter((r) => Math.abs(r - v) <= D.overlapFwhm * w && r >= biasV[0] + D.edgeFwhm * w && r <= biasV[n - 1] - D.edgeFwhm * w);
+      if (!near.length || replaced.has(i)) continue;
+      const r = near.reduce((a, b) => (Math.abs(b - v) < Math.abs(a - v) ? b : a));
+      const others = m.peakIndices.filter((j) => j !== i).map((j) => stepsA[j]).sort((a, b) => a - b);
+      if (!others.length) continue;
+      const share = others[others.length >> 1];
+      if (!(stepsA[i] > highRatio * share)) continue;
+      const neighbours = peaks.filter((_, j) => j !== i).map((p) => p.biasV);
+      const fit = resonanceFlankSteps(biasV, currentA, noiseA, r, neighbours, w, minStepSigma, { levelStepMinA: lowRatio * share });
+      if (!fit) continue;
+      const resonance = stepPeak(curve, fit.resonanceV, fit.resonanceStepA, fit.resonanceSignificance, peaks[i].biasUncertaintyV, w);
+      const level = fit.levels.map((l) => stepPeak(curve, l.biasV, l.stepA, l.significance, l.uncertaintyV, w));
+      replaced.set(i, [resonance, ...level]);
+      for (const p of level) levels.push({ peak: p, label: m.label });
+    }
+  }
+  if (!replaced.size) return null;
+  const list = peaks.flatMap((p, i) => replaced.get(i) ?? [p]).sort((a, b) => a.biasV - b.biasV);
+  return { peaks: list, levels };
 }
 
 /**

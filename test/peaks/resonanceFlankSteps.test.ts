@@ -65,3 +65,29 @@ describe("resonanceFlankSteps", () => {
     expect(resonanceFlankSteps(x, current, noiseA, resonanceV, [resonanceV + 1.5 * fwhmV], fwhmV, 5)).toBeNull();
   });
 });
+
+// A peak known to hold a level and the resonance (a shared peak, note 5): a level 0.6 FWHM below
+// the resonance, 15 pA beside 20 pA, at twice the noise above; the positions and the level's step
+// put in are the check values.
+describe("resonanceFlankSteps with shared", () => {
+  const levelV = resonanceV - 0.6 * fwhmV;
+  const noisier = 0.6e-12;
+  const current = stepsCurrent(x, [[levelV, 15e-12], [resonanceV, 20e-12]], s, noisier, 7);
+
+  it("finds no level without it: one step of the resonance fits the pair within the screen", () => {
+    expect(resonanceFlankSteps(x, current, noisier, resonanceV, [], fwhmV, 5)).toBeNull();
+  });
+
+  it("places the level and the resonance where they were put in, with the level's step", () => {
+    const got = resonanceFlankSteps(x, current, noisier, resonanceV, [], fwhmV, 5, { levelStepMinA: 9e-12 });
+    expect(got).not.toBeNull();
+    expect(got!.levels.length).toBe(1);
+    expect(Math.abs(got!.levels[0].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
+    expect(Math.abs(got!.levels[0].stepA - 15e-12)).toBeLessThan(0.15 * 15e-12);
+    expect(Math.abs(got!.resonanceV - resonanceV)).toBeLessThan(0.05 * fwhmV);
+  });
+
+  it("keeps no level stepping less than levelStepMinA", () => {
+    expect(resonanceFlankSteps(x, current, noisier, resonanceV, [], fwhmV, 5, { levelStepMinA: 20e-12 })).toBeNull();
+  });
+});

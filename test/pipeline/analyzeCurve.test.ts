@@ -369,3 +369,25 @@ describe("analyzeCurve(curve, { eta }): a full p led by a resonance, its last pe
     }, 30_000);
   }
 });
+
+// A p level and a second-junction resonance the ladder predicts, 0.5–1.5 FWHM apart, make one
+// peak between them, which the ladder keeps as the level (p1 of draw 57, p1 of 1033, p5 of 1087):
+// the current there is refitted as the resonance and the level beside it, and p is read at the
+// level. The expected values are the simulation's truth, the tolerance the project's quality bar.
+describe("analyzeCurve(curve, { eta }): a p level sharing its peak with a predicted resonance (low-η draws)", () => {
+  for (const [start, k] of [[57, 0], [1033, 0], [1087, 4]] as const) {
+    it(`reads p${k + 1} at its level and the resonance as a peak of its own (draw ${start})`, () => {
+      const { a, truth } = fillingAtLowEta(start);
+      // The truth: the resonance half a FWHM to 1.5 FWHM from the level (closer, two steps are one
+      // wider step but for their fourth moment: SPLIT_PEAKS_DEFAULTS.minSeparationFwhm).
+      const levelV = truth.pPeaksV[k];
+      const resonanceV = truth.secondJunctionPeaksV.find((r) => Math.abs(r - levelV) >= 0.5 * truth.peakFwhmV && Math.abs(r - levelV) < 1.5 * truth.peakFwhmV)!;
+      expect(resonanceV).toBeDefined();
+      const nearest = (v: number) => a.peaks.reduce((j, q, i) => (Math.abs(q.biasV - v) < Math.abs(a.peaks[j].biasV - v) ? i : j), 0);
+      const [level, resonance] = [nearest(levelV), nearest(resonanceV)];
+      expect(resonance).not.toBe(level);
+      expect(a.peaks[resonance].role).toBe("second-junction");
+      expect(a.peaks[level].role).toBe("level");
+    }, 30_000);
+  }
+});

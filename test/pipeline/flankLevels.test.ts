@@ -6,7 +6,7 @@
 // with seeded white noise; the positions put in are the check values.
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
-import { flankLevelPeaks, predictedResonancesV, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
+import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
@@ -73,5 +73,37 @@ describe("flankLevelPeaks", () => {
   it("changes nothing where no peak lies at a prediction, or the prediction is near an end", () => {
     expect(flankLevelPeaks(curve, found, [2.2], fwhmV, 5)).toBeNull();
     expect(flankLevelPeaks(curve, [peak(2.99, { index: 990 })], [2.99], fwhmV, 5)).toBeNull();
+  });
+});
+
+describe("sharedLevelPeaks", () => {
+  // A p shell read as three charging peaks; the second holds a level 0.6 FWHM below the resonance
+  // at 2.5 V (15 pA beside 20 pA, one peak). Positions and steps put in are the check values.
+  const fwhmV = 0.07, s = fwhmV / GAUSSIAN_FWHM_PER_SIGMA;
+  const resonanceV = 2.5, levelV = resonanceV - 0.6 * fwhmV;
+  const steps: [number, number][] = [[2.2, 15e-12], [levelV, 15e-12], [resonanceV, 20e-12], [2.8, 15e-12]];
+  const biasV = Float64Array.from({ length: 1001 }, (_, i) => 2 + i * 0.001);
+  const rng = seededRandom(7);
+  const noiseA = 0.6e-12;
+  const currentA = biasV.map((v) => 1e-12 + steps.reduce((a, [at, c]) => a + c * phi((v - at) / s), 0) + noiseA * rng.normal());
+  const didvS = biasV.map((v) => steps.reduce((a, [at, c]) => a + (c / s) * gauss((v - at) / s), 0));
+  const curve = { biasV, currentA, didvS, noiseA, noiseS: 1e-12, floorV: 0.001 };
+  const found = [peak(2.2, { index: 200 }), peak(2.485, { index: 485 }), peak(2.8, { index: 800 })];
+  const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [0, 1, 2], subgroups: [3] };
+  const filling = { regime: "shell-filling" as const, multiplets: [p] as never };
+
+  it("replaces the shared peak by the level and the resonance where they were put in", () => {
+    const got = sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], filling, [resonanceV], fwhmV, 5);
+    expect(got).not.toBeNull();
+    expect(got!.peaks.map((q) => q.biasV).length).toBe(4);
+    expect(Math.abs(got!.peaks[1].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
+    expect(Math.abs(got!.peaks[2].biasV - resonanceV)).toBeLessThan(0.05 * fwhmV);
+    expect(got!.levels.map((l) => [l.peak, l.label])).toEqual([[got!.peaks[1], "p"]]);
+  });
+  it("changes nothing where the peak steps like one level of its shell, or outside shell filling", () => {
+    // 1.3 × the shell's median step (ASSIGN_DEFAULTS.fillingStepRatio[1]) is a level's at most.
+    expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], filling, [resonanceV], fwhmV, 5)).toBeNull();
+    expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], { ...filling, regime: "shell-tunneling" }, [resonanceV], fwhmV, 5)).toBeNull();
+    expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], filling, [2.3], fwhmV, 5)).toBeNull();
   });
 });
