@@ -8,6 +8,7 @@ import type { HypothesisKind } from "./fitHypotheses.ts";
 import type { ladderSolveWork } from "./solveWork.ts";
 import type { heldValenceLevels } from "./heldValenceLevels.ts";
 import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
+import type { blindCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 
 /** Defaults and constants of {@link fitCurve} (locked by test/model/fit/fitCurve.test.ts). */
 export const FIT_DEFAULTS = Object.freeze({
@@ -155,4 +156,11 @@ export const FIT_DEFAULTS = Object.freeze({
   refinedGroupings: 2,
   /** Iterations of each refinement start (they begin at fitted values); the best is then finished with maxIterations. */
   refinementIterations: 4,
+  /**
+   * A CB side with at most this many CB peaks on it (the s doublet) that ends before the curve
+   * does is blind to p ({@link blindCbSide}): the groupings are then chosen by their whole-curve fits.
+   */
+  blindSidePeaks: 2,
+  /** Groupings (the best by CB-side BIC, one fit each) fitted to the whole curve where the CB side is blind ({@link wholeCurveChoice}). */
+  blindSideGroupings: 5,
 });
