@@ -157,7 +157,13 @@ export interface FitOptions {
  *    the CB side, and on the whole curve where that fit describes it; a whole-curve Ec or
  *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
  *    the VB reading that does not fit with the CB values: see the held values below). The lowest CB-side BIC
- *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
+ *    among the plausible finalists wins (where the CB side is blind to p, the s doublet alone on
+ *    it, at most blindSidePeaks (2) peaks before the first hole's crossing, {@link blindCbSide}:
+ *    every grouping fits it and their BICs differ by their parameter counts alone, so the
+ *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
+ *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
+ *    residual structure and are plausible wins, their whole-curve BICs the weights,
+ *    {@link wholeCurveChoice}); its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
  *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
  *    outside the CB side's points while the CB side's show none (then the CB-side values, a
