@@ -29,6 +29,7 @@ import { fitVerdict } from "./fitVerdict.ts";
 import { compareGroupings } from "./compareGroupings.ts";
 import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
+import { blindCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -156,7 +157,13 @@ export interface FitOptions {
  *    the CB side, and on the whole curve where that fit describes it; a whole-curve Ec or
  *    Γtip/Γsub on its bound counts only where the CB side's is on its bound too: otherwise it is
  *    the VB reading that does not fit with the CB values: see the held values below). The lowest CB-side BIC
- *    among the plausible finalists wins; its whole-curve values stand unless their reduced χ² is
+ *    among the plausible finalists wins (where the CB side is blind to p, the s doublet alone on
+ *    it, at most blindSidePeaks (2) peaks before the first hole's crossing, {@link blindCbSide}:
+ *    every grouping fits it and their BICs differ by their parameter counts alone, so the
+ *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
+ *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
+ *    residual structure and are plausible wins, their whole-curve BICs the weights,
+ *    {@link wholeCurveChoice}); its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
  *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
  *    outside the CB side's points while the CB side's show none (then the CB-side values, a
@@ -331,7 +338,30 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const k = hypotheses.findIndex((h) => h.name === t.hypothesis.name.replace(/ [\u2212+]Ec$/, ""));
     return k < 0 ? hypotheses.length : k;
   };
-  const winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
+  let winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
+  // A CB side that ends before p tells the groupings apart by their parameter counts alone: the
+  // best few groupings' whole-curve fits decide instead (the lowest whole-curve BIC).
+  let curveTopV = -Infinity;
+  for (const v of all.biasV) curveTopV = Math.max(curveTopV, v);
+  let blindWholeBic: Map<FitTrial, number> | null = null;
+  if (wholeFitOf && blindCbSide(analysis.peaks, cbSide.biasV, F.blindSidePeaks, curveTopV)) {
+    const wholeFor = (t: FitTrial) => {
+      let w = wholeOf.get(t);
+      if (!w) {
+        w = wholeFitOf!(t);
+        cbSideOf.set(w, t);
+        wholeOf.set(t, w);
+      }
+      return w;
+    };
+    const candidates = trials.filter((t) => t.side === "CB" && plausibilityOf(t).length === 0);
+    const choice = wholeCurveChoice(candidates, wholeFor, (w, cb) => reduced(w) <= F.wholeCurveChiSquare && wholePlausibility(w, cb).length === 0 && structureOf(w).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, F.blindSideGroupings);
+    if (choice.chosen) {
+      winner = choice.chosen;
+      blindWholeBic = choice.wholeBic;
+      for (const t of choice.wholeBic.keys()) if (!finalists.includes(t)) finalists.push(t);
+    }
+  }
   let whole = wholeOf.get(winner);
   if (!whole && wholeFitOf && winner.side === "CB") {
     // A tie went to a grouping whose whole-curve fit the search did not need (it stopped at a
@@ -422,7 +452,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       }
     }
   }
-  const weights = evidenceWeights(finalists.map((t) => (implausibleOf(t).length ? Infinity : t.bic)));
+  // On a blind CB side the whole-curve BICs weigh the groupings (the CB side's differ by k·ln n alone).
+  const weights = evidenceWeights(finalists.map((t) => (blindWholeBic ? (blindWholeBic.get(t) ?? Infinity) : implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
   const { seeds } = hypothesis;
   const at = parameterIndex(seeds.length);

@@ -8,6 +8,7 @@ import type { HypothesisKind } from "./fitHypotheses.ts";
 import type { ladderSolveWork } from "./solveWork.ts";
 import type { heldValenceLevels } from "./heldValenceLevels.ts";
 import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
+import type { blindCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 
 /** Defaults and constants of {@link fitCurve} (locked by test/model/fit/fitCurve.test.ts). */
 export const FIT_DEFAULTS = Object.freeze({
@@ -155,4 +156,20 @@ export const FIT_DEFAULTS = Object.freeze({
   refinedGroupings: 2,
   /** Iterations of each refinement start (they begin at fitted values); the best is then finished with maxIterations. */
   refinementIterations: 4,
+  /**
+   * A CB side with at most this many CB peaks on it (the s doublet) that ends before the curve
+   * does is blind to p ({@link blindCbSide}): the groupings are then chosen by their whole-curve fits.
+   * On the low-η mix (seeds 1–200) 34 intermediate spectra had such a side, 22 of them wrong
+   * (with three peaks: 6 of 19). Measured with the comparison: intermediate 138 → 144 of 200,
+   * shell filling 146 → 150, tunnelling 192 → 192 (seeds 1–200); 139 → 141, 146 → 147, 189 → 190
+   * (seeds 1001–1200); the default and crossover mixes unchanged (no crossing on their CB side).
+   */
+  blindSidePeaks: 2,
+  /**
+   * Groupings (the best run of each by CB-side BIC) fitted to the whole curve where the CB side is
+   * blind ({@link wholeCurveChoice}). Eight spent the work budget on some low-η curves (their
+   * later runs kept their starts, the status poor); the finalists alone (three) missed the
+   * grouping read from the empty dot, which the fewest levels push out of them on a blind side.
+   */
+  blindSideGroupings: 5,
 });

@@ -3,7 +3,7 @@
  * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
  * scale, offset and background, the cost of one master-equation solve (what the work budget counts), the Levenberg–Marquardt loop and the runs built on it, the first hole's entry held on the CB side at low η, the comparison
- * of the groupings, the refinement starts about the best grouping (and at the p sub-level spacings
+ * of the groupings (and the choice by the whole curve where the CB side is blind to p), the refinement starts about the best grouping (and at the p sub-level spacings
  * the peaks show), the further readings of the VB peaks, the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
  */
@@ -34,6 +34,7 @@ export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } f
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
 export { refineGrouping, REFINE_GROUPING_DEFAULTS, type RefineContext } from "./refineGrouping.ts";
 export { compareGroupings, COMPARE_GROUPINGS_DEFAULTS, type CompareContext } from "./compareGroupings.ts";
+export { blindCbSide, wholeCurveChoice, type BlindSidePeak } from "./blindCbSide.ts";
 export { laterEntryReadings } from "./laterEntryReadings.ts";
 export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";

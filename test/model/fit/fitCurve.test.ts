@@ -130,6 +130,8 @@ describe("fitCurve(analysis)", () => {
       refinementRounds: 2,
       refinedGroupings: 2,
       refinementIterations: 4,
+      blindSidePeaks: 2,
+      blindSideGroupings: 5,
     });
   });
 });

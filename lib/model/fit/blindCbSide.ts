@@ -1,0 +1,119 @@
+/**
+ * A CB side too short to tell the groupings of the CB peaks apart (it ends before p), and the
+ * choice among them by their whole-curve fits instead.
+ */
+import type { FitTrial } from "./fitTrial.ts";
+
+/** One analysed peak as {@link blindCbSide} reads it. */
+export interface BlindSidePeak {
+  /** Position, V. */
+  biasV: number;
+  /** The peak's role in the assignment; "second-junction" peaks do not count. */
+  role: string;
+}
+
+/**
+ * Whether the CB side of a fit shows too few CB peaks to tell the groupings of the CB peaks apart.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly BlindSidePeak[]
+ *     The analysed peaks (bias V, role).
+ * cbSideBiasV : ArrayLike<number>
+ *     The biases (V) of the CB side's points ({@link cbSideEndV}).
+ * maxPeaks : number
+ *     Most peaks a blind side shows (FIT_DEFAULTS.blindSidePeaks, 2: the s doublet).
+ * curveTopV : number
+ *     The highest bias of the whole curve, V.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True when the CB side ends below curveTopV and holds at most maxPeaks
+ *     peaks above 0 V that are not second-junction resonances.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. At η 0.55–0.65 the CB side ends below the first hole's crossing of the substrate's Fermi
+ *    level ({@link cbSideEndV}), which may fall right after the s doublet. The groupings differ
+ *    in p only (whole, split, in filling order or entered from the empty dot), and a side with
+ *    the s doublet alone fits every one of them to the noise: their CB-side BICs then differ by
+ *    their parameter counts alone (k·ln n), and the fewest levels win whatever p is.
+ * 2. A side that runs to the end of the curve (no crossing on it) is never blind: it shows every
+ *    CB peak there is.
+ *
+ * Example
+ * -------
+ * ```ts
+ * blindCbSide([{ biasV: 1.67, role: "unassigned" }, { biasV: 1.93, role: "satellite" }, { biasV: 2.49, role: "second-junction" },
+ *   { biasV: 2.82, role: "unassigned" }], [0.01, 1.5, 2.57], 2, 4.5);
+ * // => true (1.67 and 1.93 V on a side ending at 2.57 V)
+ * ```
+ */
+export function blindCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayLike<number>, maxPeaks: number, curveTopV: number): boolean {
+  let topV = -Infinity;
+  for (let i = 0; i < cbSideBiasV.length; i++) topV = Math.max(topV, cbSideBiasV[i]);
+  if (!(topV < curveTopV)) return false;
+  return peaks.filter((p) => p.biasV > 0 && p.biasV <= topV && p.role !== "second-junction").length <= maxPeaks;
+}
+
+/**
+ * The CB-side finalist whose whole-curve fit has the lowest BIC, among the best of each grouping.
+ *
+ * Parameters
+ * ----------
+ * candidates : readonly FitTrial[]
+ *     The plausible CB-side finalists (all on the same points).
+ * wholeOf : (t: FitTrial) => FitTrial
+ *     Its whole-curve fit (each reading of the VB peaks, the best kept; fitted where not yet).
+ * acceptable : (whole: FitTrial, cb: FitTrial) => boolean
+ *     Whether a whole-curve fit may decide (plausible, or not describing the curve at all).
+ * maxGroupings : number
+ *     Most groupings fitted to the whole curve (FIT_DEFAULTS.blindSideGroupings).
+ *
+ * Returns
+ * -------
+ * { chosen: FitTrial | null; wholeBic: Map<FitTrial, number> }
+ *     The CB-side fit of the chosen grouping (null without an acceptable whole-curve fit), and the
+ *     whole-curve BIC of each acceptable grouping fitted, by its CB-side fit (for the BIC weights).
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. Groupings are told apart by their CB levels' degeneracies and entries (`before`): of the
+ *    fits of one grouping (explored, finished, retried, refined), the lowest CB-side BIC stands
+ *    for it; the best maxGroupings by CB-side BIC are fitted to the whole curve. On a blind side
+ *    the finalists by CB-side BIC are those with the fewest levels, so every grouping explored
+ *    is a candidate, not only the finalists.
+ * 2. Every whole-curve fit covers the same points, so their BICs compare; p's peaks lie there,
+ *    with the VB levels that the CB side leaves out.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const { chosen } = wholeCurveChoice(plausibleCbRuns, (t) => wholeFitOf(t), (w) => plausibilityOf(w).length === 0, 8);
+ * ```
+ */
+export function wholeCurveChoice(candidates: readonly FitTrial[], wholeOf: (t: FitTrial) => FitTrial, acceptable: (whole: FitTrial, cb: FitTrial) => boolean, maxGroupings: number): { chosen: FitTrial | null; wholeBic: Map<FitTrial, number> } {
+  const byGrouping = new Map<string, FitTrial>();
+  for (const t of [...candidates].sort((x, y) => x.bic - y.bic)) {
+    const key = t.hypothesis.seeds.map((s) => `${s.band}${s.degeneracy}/${s.before}`).join(" ");
+    if (!byGrouping.has(key)) byGrouping.set(key, t);
+  }
+  const wholeBic = new Map<FitTrial, number>();
+  let chosen: FitTrial | null = null;
+  for (const cb of [...byGrouping.values()].slice(0, maxGroupings)) {
+    const whole = wholeOf(cb);
+    if (!acceptable(whole, cb)) continue;
+    wholeBic.set(cb, whole.bic);
+    if (!chosen || whole.bic < wholeBic.get(chosen)!) chosen = cb;
+  }
+  return { chosen, wholeBic };
+}

@@ -1,0 +1,80 @@
+// blindCbSide and wholeCurveChoice: the rule by its definition on hand-made peaks and runs, and a
+// low-η spectrum of the benchmark's simulator (syntheticSpectrum, the truth its own parameters)
+// whose CB side holds the s doublet alone. The quality bar is the accuracy benchmark's for
+// intermediate spectra: Ec within 3 % and Γtip/Γsub within × 1.5 (common practice, no source).
+import { describe, it, expect } from "vitest";
+import { blindCbSide, wholeCurveChoice } from "../../../lib/model/fit/blindCbSide.ts";
+import { cbSideEndV } from "../../../lib/model/fit/cbSideEnd.ts";
+import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
+import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
+import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
+import { simulateCurve } from "../../../lib/model/simulate.ts";
+import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../../lib/model/syntheticSpectrum.ts";
+import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
+
+describe("blindCbSide", () => {
+  const peaks = [
+    { biasV: -1.3, role: "level" },
+    { biasV: 1.67, role: "unassigned" },
+    { biasV: 1.93, role: "satellite" },
+    { biasV: 2.49, role: "second-junction" },
+    { biasV: 2.82, role: "unassigned" },
+  ];
+  it("is true for a side that ends before the curve with the s doublet alone on it (resonances not counted)", () => {
+    // By the definition: 1.67 and 1.93 V lie on a side ending at 2.57 V, 2.49 V is a resonance.
+    expect(blindCbSide(peaks, [0.01, 1.5, 2.57], 2, 4.5)).toBe(true);
+  });
+  it("is false where a third CB peak lies on the side, or the side runs to the curve's end", () => {
+    // By the definition: 2.82 V on a side to 3 V; a side to 4.5 V is the whole positive side.
+    expect(blindCbSide(peaks, [0.01, 3], 2, 4.5)).toBe(false);
+    expect(blindCbSide(peaks.slice(0, 3), [0.01, 4.5], 2, 4.5)).toBe(false);
+  });
+});
+
+describe("wholeCurveChoice", () => {
+  const seeds = (...gs: [number, number][]): LevelSeed[] => gs.map(([g, before], j) => ({ band: "CB", label: j ? `p${j}` : "s", degeneracy: g, firstPeakV: 1 + j, before }));
+  const trial = (s: LevelSeed[], bic: number) => ({ hypothesis: { seeds: s }, bic }) as unknown as FitTrial;
+  const a1 = trial(seeds([2, 0], [6, 2]), 100);
+  const a2 = trial(seeds([2, 0], [6, 2]), 104); // the same grouping, a worse run
+  const b = trial(seeds([2, 0], [2, 0], [4, 0]), 106);
+  const c = trial(seeds([2, 0], [2, 1], [4, 1]), 107);
+  const wholeBics = new Map<FitTrial, number>([[a1, 900], [a2, 500], [b, 700], [c, 650]]);
+  it("fits the best run of each grouping to the whole curve and keeps the lowest whole-curve BIC", () => {
+    // By the definition: a2 is not its grouping's best run (a1 is), so c (650) beats b (700) and a1 (900).
+    const asked: FitTrial[] = [];
+    const { chosen, wholeBic } = wholeCurveChoice([b, a2, c, a1], (t) => (asked.push(t), { bic: wholeBics.get(t)! }) as FitTrial, () => true, 5);
+    expect(chosen).toBe(c);
+    expect(asked).toEqual([a1, b, c]);
+    expect([...wholeBic.entries()]).toEqual([[a1, 900], [b, 700], [c, 650]]);
+  });
+  it("fits at most maxGroupings groupings, the best by CB-side BIC, and skips unacceptable whole-curve fits", () => {
+    // By the definition: two groupings (a1, b); b's whole-curve fit unacceptable leaves a1.
+    const { chosen, wholeBic } = wholeCurveChoice([a1, b, c], (t) => ({ bic: wholeBics.get(t)! }) as FitTrial, (_, t) => t !== b, 2);
+    expect(chosen).toBe(a1);
+    expect([...wholeBic.keys()]).toEqual([a1]);
+    expect(wholeCurveChoice([b], (t) => ({ bic: wholeBics.get(t)! }) as FitTrial, () => false, 2).chosen).toBeNull();
+  });
+});
+
+describe("fitCurve(analysis, { compareModels: true }) on a low-η spectrum whose CB side is blind to p", () => {
+  // The accuracy benchmark's low-η mix (η 0.55–0.65, second-junction resonances kept), its
+  // intermediate draw 20: η 0.649, Ec 0.169 eV, Γtip/Γsub 1.05, p split 2+4. The first hole's
+  // crossing of the substrate's Fermi level (2.46 V) falls right after the s doublet (1.67,
+  // 1.93 V), so the CB side ends before p and every grouping fits it; the fewest levels (p whole,
+  // in filling order) won there at Γtip/Γsub 2.9.
+  const ranges = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
+  it("lets the whole-curve fits decide and recovers the simulated Ec within 3 % and Γtip/Γsub within × 1.5", () => {
+    const { scenario, truth } = syntheticSpectrum(20, "intermediate", ranges);
+    const sim = simulateCurve(scenario, { method: "fast", conductance: false });
+    const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: truth.eta });
+    const endV = cbSideEndV(analysis.peaks, truth.eta, FIT_DEFAULTS.cbSideResonanceMarginFwhm, FIT_DEFAULTS.cbSideHeldHole);
+    expect(blindCbSide(analysis.peaks, [0.01, endV], FIT_DEFAULTS.blindSidePeaks, sim.biasV[sim.biasV.length - 1])).toBe(true);
+    const fit = fitCurve(analysis, { compareModels: true });
+    expect(fit.regime).toBe("intermediate");
+    expect(Math.abs(fit.chargingEnergyEV.value / truth.chargingEnergyEV - 1)).toBeLessThan(0.03);
+    expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
+    // The winner's answer carries the BIC weight (the command decides by it).
+    const winnerWeight = fit.alternatives.filter((x) => x.weight > 0 && x.regime === "intermediate").reduce((a, x) => a + x.weight, 0);
+    expect(winnerWeight).toBeGreaterThan(0.9);
+  });
+});
