@@ -260,6 +260,8 @@ function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, 
   if (!lead) return a;
   // A reading the rounds made from the forced shell-filling one is read again under it.
   const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction.filter((r) => r.index !== lead.index), lead], forced ? { ...options, regime: "shell-filling" } : options);
+  // The regime was the rules' reading, not the user's.
+  if (forced) unforced(next);
   const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
   if (next.regime !== "shell-filling" || !p || (p.subgroups[0] ?? p.peakIndices.length) % 2 !== 0) return a;
   const earlier = a.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r) && !r.startsWith("the first two CB steps"));

@@ -333,6 +333,8 @@ describe("analyzeCurve(curve, { eta }): a resonance opening p with an odd sub-gr
       const { a, truth, tolV } = fillingAtLowEta(start);
       const reason = a.assignment.evidence.reasons.find((r) => r.includes("opened p with an odd sub-group"));
       expect(reason).toBeDefined();
+      // Read again under shell filling, but the regime is the rules' reading, not the user's.
+      expect(a.assignment.evidence.reasons.some((r) => r.includes("given by the user"))).toBe(false);
       const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
       expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
     }, 30_000);
