@@ -13,7 +13,7 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities, type SpectrumQuantities, type SpectrumUncertainties } from "./quantities.ts";
 import { classifyRegime, extraCbPeak, regimeRatios, valenceFillingDoublet, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
-import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { isPlainPrediction, overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
 import { iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
@@ -490,7 +490,7 @@ function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, reso
   const gain = eta < 1 ? eta / (1 - eta) : 0;
   for (const r of resonances) {
     const at = peaks[r.index].biasV.toFixed(3), source = peaks[r.sourceIndex].biasV;
-    const plain = Math.abs(r.predictedV + gain * source) <= 1e-9 * Math.max(1, Math.abs(r.predictedV));
+    const plain = isPlainPrediction(r, source, gain);
     evidence.reasons.push(
       plain
         ? `peak at ${at} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${source.toFixed(3)} V`

@@ -5,7 +5,7 @@
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import type { Multiplet } from "./multiplets.ts";
-import { SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
+import { matchToleranceV, type SecondJunctionResonance } from "./secondJunction.ts";
 import { ladderPredictions } from "./ladderResonances.ts";
 
 /** Limits of {@link oddLeadingLevel} (locked by test/assign/oddLeadingLevel.test.ts). */
@@ -61,8 +61,8 @@ export const ODD_LEADING_LEVEL_DEFAULTS = Object.freeze({
  *    A VB peak that shares its position with a CB level's own resonance is often set aside as
  *    that resonance, and its own prediction is then lost: such a peak is a source too, with each
  *    N of `ODD_LEADING_LEVEL_DEFAULTS.carriersBelow` up to the number of VB peaks nearer 0 V.
- * 3. The tolerance is that of the other matches: max(3σ, FWHM/2), σ combining the peak's and the
- *    source's scaled by η/(1 − η) (`SECOND_JUNCTION_DEFAULTS`).
+ * 3. The tolerance is that of the other matches (`matchToleranceV`): max(3σ, FWHM/2), σ
+ *    combining the peak's and the source's scaled by η/(1 − η).
  *
  * References
  * ----------
@@ -102,7 +102,6 @@ export function oddLeadingLevel(
   const step = next === undefined ? NaN : (peaks[next].biasV - peaks[last].biasV) / chargingEnergyV;
   const continues = p.peakIndices.length === 6 && Math.abs(step - 1) <= ODD_LEADING_LEVEL_DEFAULTS.continuationTolerance;
   if (!odd && !continues) return null;
-  const D = SECOND_JUNCTION_DEFAULTS;
   const gain = eta / (1 - eta);
   const index = p.peakIndices[0];
   const peak = peaks[index];
@@ -115,10 +114,8 @@ export function oddLeadingLevel(
   let best: SecondJunctionResonance | null = null;
   let bestMiss = Infinity;
   for (const { sourceIndex, predictedV } of candidates) {
-    const src = peaks[sourceIndex];
-    const sigma = Math.hypot(gain * Math.min(src.biasUncertaintyV, src.fwhmV / 2), Math.min(peak.biasUncertaintyV, peak.fwhmV / 2));
     const miss = Math.abs(peak.biasV - predictedV);
-    if (miss <= Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * peak.fwhmV) && miss < bestMiss) {
+    if (miss <= matchToleranceV(peaks[sourceIndex], peak, gain) && miss < bestMiss) {
       best = { index, sourceIndex, predictedV };
       bestMiss = miss;
     }

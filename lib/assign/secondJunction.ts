@@ -95,7 +95,6 @@ export interface SecondJunctionResonance {
  */
 export function secondJunctionResonances(peaks: readonly Peak[], eta: number): SecondJunctionResonance[] {
   if (!(eta > 0 && eta < 1)) return [];
-  const D = SECOND_JUNCTION_DEFAULTS;
   const gain = eta / (1 - eta);
   const order = peaks.map((_, k) => k).sort((a, b) => Math.abs(peaks[a].biasV) - Math.abs(peaks[b].biasV));
   const sources: number[] = [];
@@ -109,10 +108,8 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
       const src = peaks[s];
       if (Math.sign(src.biasV) === Math.sign(p.biasV)) continue;
       const predictedV = -gain * src.biasV;
-      const sigma = Math.hypot(gain * positionSigma(src), positionSigma(p));
-      const tolerance = Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * p.fwhmV);
       const miss = Math.abs(p.biasV - predictedV);
-      if (miss <= tolerance && miss < bestMiss) {
+      if (miss <= matchToleranceV(src, p, gain) && miss < bestMiss) {
         best = { index: k, sourceIndex: s, predictedV };
         bestMiss = miss;
       }
@@ -124,8 +121,28 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
 }
 
 /** A peak's position uncertainty for matching, V: its own, at most half its FWHM (note 2 of {@link secondJunctionResonances}). */
-function positionSigma(p: Peak): number {
+function positionSigma(p: Pick<Peak, "biasUncertaintyV" | "fwhmV">): number {
   return Math.min(p.biasUncertaintyV, p.fwhmV / 2);
+}
+
+/**
+ * How far a peak may lie from the resonance a source predicts and still be taken for it, V:
+ * max(toleranceSigma·σ, toleranceFwhmFraction·FWHM of the peak), σ combining the peak's position
+ * σ with the source's scaled by `gain` = η/(1 − η), each at most half its FWHM
+ * (`SECOND_JUNCTION_DEFAULTS`; note 2 of {@link secondJunctionResonances}).
+ */
+export function matchToleranceV(source: Pick<Peak, "biasUncertaintyV" | "fwhmV">, peak: Pick<Peak, "biasUncertaintyV" | "fwhmV">, gain: number): number {
+  const D = SECOND_JUNCTION_DEFAULTS;
+  const sigma = Math.hypot(gain * positionSigma(source), positionSigma(peak));
+  return Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * peak.fwhmV);
+}
+
+/**
+ * Whether a resonance's prediction is the plain −η·V/(1 − η) of its source at `sourceV` (V) (and
+ * not one moved by the carriers below it), to round-off; `gain` = η/(1 − η).
+ */
+export function isPlainPrediction(r: Pick<SecondJunctionResonance, "predictedV">, sourceV: number, gain: number): boolean {
+  return Math.abs(r.predictedV + gain * sourceV) <= 1e-9 * Math.max(1, Math.abs(r.predictedV));
 }
 
 /**

@@ -5,7 +5,7 @@
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import type { Multiplet } from "./multiplets.ts";
-import { SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
+import { isPlainPrediction, SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
 
 /** Limits of {@link substrateExtraLevel} (locked by test/assign/substrateExtraLevel.test.ts). */
@@ -154,7 +154,6 @@ export function deeperPlainResonances(peaks: readonly Pick<Peak, "biasV">[], res
   const edges = new Set([edge(1), edge(-1)]);
   return resonances.filter((r) => {
     const v = peaks[r.sourceIndex].biasV;
-    const plain = Math.abs(r.predictedV + gain * v) <= 1e-9 * Math.max(1, Math.abs(r.predictedV));
-    return plain && !edges.has(r.sourceIndex);
+    return isPlainPrediction(r, v, gain) && !edges.has(r.sourceIndex);
   });
 }
