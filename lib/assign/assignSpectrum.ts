@@ -15,7 +15,7 @@ import { classifyRegime, extraCbPeak, regimeRatios, valenceFillingDoublet, type 
 import { splitSatellites } from "./satellites.ts";
 import { isPlainPrediction, overlappedResonances, secondJunctionResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { confirmResonances } from "./confirmResonances.ts";
-import { iterateResonances } from "./iterateResonances.ts";
+import { earlierReasons, iterateResonances } from "./iterateResonances.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
 import { valenceGroups } from "./valenceGroups.ts";
@@ -282,7 +282,7 @@ function withDeeperLevels(peaks: readonly Peak[], eta: number, etaGiven: boolean
   if (!back.length) return a;
   const next = assignWith(peaks, eta, etaGiven, set.filter((r) => !back.includes(r)), options);
   if (next.regime !== "shell-tunneling") return a;
-  const earlier = a.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+  const earlier = earlierReasons(a, next);
   next.evidence.reasons.unshift(
     ...back.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: the plain resonance of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V, a level behind its band's edge level, has no step where the substrate side fills (it lies N·Ec/(1 − η) further out)`),
     ...earlier,
@@ -303,7 +303,7 @@ function withoutExtraLevel(peaks: readonly Peak[], eta: number, etaGiven: boolea
   if (!extra) return a;
   const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction, extra], options);
   if (next.regime !== "shell-tunneling") return a;
-  const earlier = a.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+  const earlier = earlierReasons(a, next);
   const keptLevels = a.evidence.reasons.filter((r) => / kept as a level: /.test(r));
   next.evidence.reasons.unshift(
     `peak at ${peaks[extra.index].biasV.toFixed(3)} V set aside: p held more levels than its three orbitals, and this one steps like a single carrier entering through the substrate junction (at most ${SUBSTRATE_EXTRA_LEVEL_DEFAULTS.stepRatioMax.toFixed(2)} × the other p levels and the VB edge level at ${peaks[extra.sourceIndex].biasV.toFixed(3)} V), beyond that level's resonance`,

@@ -95,7 +95,7 @@ export function iterateResonances(
     const next = assign(adjusted, split.resonances);
     if (next.regime !== "shell-filling") break;
     // The earlier stages' conclusions stand (per-peak notes are redone by the new assignment).
-    const earlier = base.evidence.reasons.filter((r) => !r.startsWith("peak at") && !next.evidence.reasons.includes(r));
+    const earlier = earlierReasons(base, next);
     next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason), ...stillPassed, ...split.flanks.map((f) => f.reason));
     current = next;
   }
@@ -120,4 +120,12 @@ function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
     }
   }
   return spacings.length < 3 ? null : medianInPlace(Float64Array.from(spacings));
+}
+
+/**
+ * The reasons of an earlier reading that a later one, made from it, carries over: those not about
+ * one peak (the later reading says its own of those) and not already among the later's.
+ */
+export function earlierReasons(from: Pick<Assignment, "evidence">, into: Pick<Assignment, "evidence">): string[] {
+  return from.evidence.reasons.filter((r) => !r.startsWith("peak at") && !into.evidence.reasons.includes(r));
 }
