@@ -303,56 +303,48 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
   const resonancesOf = (list: readonly Pick<Peak, "biasV">[], a: Assignment) => (eta !== undefined && eta < 1 ? predictedResonancesV(list, a, eta, w) : []);
   let list: readonly Peak[] = found.peaks;
+  // A new peak list read again: its areas, its peaks with the sweeps' positions, its assignment.
+  const reread = (next: readonly Peak[]) => {
+    const nextAreas = bandAreas(signal.biasV, signal.didvS, next);
+    const nextPeaks = withSweeps(next, nextAreas, sweeps.length, sweepPeaks);
+    return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: assignSpectrum(nextPeaks, { eta, regime: options.regime }) };
+  };
+  const take = (r: ReturnType<typeof reread>): void => {
+    ({ list, areas, peaks, assignment } = r);
+  };
   if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {
     // Levels on the flank of a predicted second-junction resonance (note 7).
     const flank = flankLevelPeaks(curveIn, found.peaks, resonancesOf(peaks, assignment), w, minStepSigma);
-    if (flank) {
-      list = flank;
-      areas = bandAreas(signal.biasV, signal.didvS, flank);
-      peaks = withSweeps(flank, areas, sweeps.length, sweepPeaks);
-      assignment = assignSpectrum(peaks, { eta, regime: options.regime });
-    }
+    if (flank) take(reread(flank));
     // Levels that share their peak with a predicted resonance, placed on the current (note 7).
     const shared = sharedLevelPeaks(curveIn, list, peaks.map((p) => p.stepA), assignment, resonancesOf(peaks, assignment), w, minStepSigma);
     if (shared) {
-      const moreAreas = bandAreas(signal.biasV, signal.didvS, shared.peaks);
-      const morePeaks = withSweeps(shared.peaks, moreAreas, sweeps.length, sweepPeaks);
-      const again = assignSpectrum(morePeaks, { eta, regime: options.regime });
+      const again = reread(shared.peaks);
       // Kept where each level joins the shell its peak was in and every other CB charging peak keeps its shell.
       const labels = (a: Assignment, of: readonly Peak[]) => new Map(a.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
-      const before = labels(assignment, list), after = labels(again, shared.peaks);
+      const before = labels(assignment, list), after = labels(again.assignment, shared.peaks);
       const kept = [...before].every(([p, label]) => !shared.peaks.includes(p) || after.get(p) === label);
-      if (again.regime === assignment.regime && kept && shared.levels.every(({ peak, label }) => after.get(peak) === label)) {
-        list = shared.peaks;
-        areas = moreAreas;
-        peaks = morePeaks;
-        assignment = again;
-      }
+      if (again.assignment.regime === assignment.regime && kept && shared.levels.every(({ peak, label }) => after.get(peak) === label)) take(again);
     }
   }
   for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
     // Charging peaks a short filling shell lacks (note 8), one at a time, strongest step first.
     // A full shell's first peak is looked at against the resonances predicted, and those its set-aside VB peaks would give.
     const ecV = assignment.quantities.chargingEnergyV ?? 0;
-    const leadResonancesV = [...resonancesOf(peaks, assignment), ...(eta !== undefined ? setAsideSourcePredictions(peaks, assignment.evidence.secondJunction, ecV, eta).map((r) => r.predictedV) : [])];
+    const resonancesV = resonancesOf(peaks, assignment);
+    const leadResonancesV = [...resonancesV, ...(eta !== undefined ? setAsideSourcePredictions(peaks, assignment.evidence.secondJunction, ecV, eta).map((r) => r.predictedV) : [])];
     const predictions = shortShellPredictions(peaks, assignment, [signal.biasV[0], signal.biasV[nb - 1]], { resonancesV: leadResonancesV, toleranceV: w / 2 });
-    const steps = predictions.length ? shortShellSteps(curveIn, list, predictions, resonancesOf(peaks, assignment), assignment.quantities.chargingEnergyV!, w, minStepSigma) : [];
+    const steps = predictions.length ? shortShellSteps(curveIn, list, predictions, resonancesV, ecV, w, minStepSigma) : [];
     let added = 0;
     for (const { peak, label, replaces } of steps) {
       if (list.some((q) => Math.abs(q.biasV - peak.biasV) < w)) continue;
-      const more = [...list, peak].sort((a, b) => a.biasV - b.biasV);
-      const moreAreas = bandAreas(signal.biasV, signal.didvS, more);
-      const morePeaks = withSweeps(more, moreAreas, sweeps.length, sweepPeaks);
-      const again = assignSpectrum(morePeaks, { eta, regime: options.regime });
+      const again = reread([...list, peak].sort((a, b) => a.biasV - b.biasV));
       // Kept only where the peak joins the shell that predicted it, and that shell keeps its peaks
       // (but the one at a resonance whose place the peak would take).
       const was = assignment.multiplets.find((m) => m.label === label)?.peakIndices.filter((i) => i !== replaces).map((i) => list[i]) ?? [];
-      const now = new Set(again.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => more[i]));
-      if (again.regime !== assignment.regime || !now.has(peak) || !was.every((p) => now.has(p))) continue;
-      list = more;
-      areas = moreAreas;
-      peaks = morePeaks;
-      assignment = again;
+      const now = new Set(again.assignment.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => again.list[i]));
+      if (again.assignment.regime !== assignment.regime || !now.has(peak) || !was.every((p) => now.has(p))) continue;
+      take(again);
       added++;
     }
     if (!added) break;
