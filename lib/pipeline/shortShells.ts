@@ -47,6 +47,9 @@ export interface ShortShellPrediction {
  *     The assignment; only shell filling with a positive Ec gives predictions.
  * biasRangeV : readonly [number, number]
  *     The bias window, V.
+ * resonances : { resonancesV: readonly number[]; toleranceV: number }, optional
+ *     The predicted resonances, V (`predictedResonancesV`), and how near a shell's first peak
+ *     must lie to one, V. Default: none (no prediction of note 2).
  *
  * Returns
  * -------
@@ -54,7 +57,8 @@ export interface ShortShellPrediction {
  *     For each CB shell with a degeneracy and fewer peaks, and each of its sub-groups (the whole
  *     shell where it is not split): the sub-group's last peak + Ec_V and first peak − Ec_V, where
  *     inside the window, above 0 V, and at least `SHORT_SHELL_DEFAULTS.shellGapEc`·Ec_V from the
- *     neighbouring shells' peaks.
+ *     neighbouring shells' peaks; and for each full shell of more than two states led by a peak
+ *     at a resonance, its last peak + Ec_V with `replaces` (note 2), under the same bounds above.
  *
  * Notes
  * -----
@@ -67,12 +71,6 @@ export interface ShortShellPrediction {
  *    a predicted second-junction resonance may have taken that resonance for its first charging
  *    peak because its last one was not found: one Ec_V beyond its last peak is predicted too,
  *    with `replaces` naming the first peak (a found step there takes its place).
- *
- * Parameters (continued)
- * ----------------------
- * resonances : { resonancesV: readonly number[]; toleranceV: number }
- *     The predicted resonances, V (`predictedResonancesV`), and how near a shell's first peak
- *     must lie to one, V. Default: none (no prediction of note 2).
  *
  * Example
  * -------
