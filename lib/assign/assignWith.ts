@@ -1,0 +1,133 @@
+/**
+ * Steps 1–6 of `assignSpectrum` for one set of peaks set aside as second-junction resonances:
+ * bands, noise and satellites, regime, CB shells and Ec, VB groups, quantities and energies.
+ * The readings of steps 7–8 (`substrateReadings.ts`) call it again with other resonances.
+ */
+import type { Peak } from "../peaks/findPeaks.ts";
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
+import { bandPeaks, type BandPeak } from "./bandPeaks.ts";
+import { spectrumEnergies } from "./energies.ts";
+import { fitLadderSpacing } from "./ladderFit.ts";
+import { levelChargingPeaks, satelliteChargingEnergy } from "./levelCharging.ts";
+import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets.ts";
+import { spectrumQuantities } from "./quantities.ts";
+import { classifyRegime, extraCbPeak, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
+import { splitSatellites } from "./satellites.ts";
+import { isPlainPrediction, type SecondJunctionResonance } from "./secondJunction.ts";
+import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
+import { valenceGroups } from "./valenceGroups.ts";
+
+/** The assignment with the given peaks set aside as second-junction resonances. */
+export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
+  const D = ASSIGN_DEFAULTS;
+  const warnings: string[] = [];
+  if (!etaGiven) warnings.push("eta not given: energies equal the bias-referred values (η = 1); pass the voltage-division factor to convert");
+
+  // 1–2. Bands; peaks at the noise level of their band go first; charging satellites (weak peaks
+  // after a main peak) are told apart only once the regime is known.
+  const resonant = new Set(resonances.map((r) => r.index));
+  const bands = bandPeaks(peaks);
+  const cbAll = bands.cb.filter((p) => !resonant.has(p.index));
+  const vbAll = bands.vb.filter((p) => !resonant.has(p.index));
+  const cbNoise = splitSatellites(cbAll, D.noiseStepRatioMax, 0);
+  const vbNoise = splitSatellites(vbAll, D.noiseStepRatioMax, 0);
+  const cbClean = cbNoise.main;
+  const cbSplit = splitSatellites(cbClean, 0, D.satelliteStepRatioMax);
+  const vbSplit = splitSatellites(vbNoise.main, 0, D.satelliteStepRatioMax);
+  const vb = vbSplit.main;
+
+  // 3. Regime.
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
+  const gain = eta < 1 ? eta / (1 - eta) : 0;
+  for (const r of resonances) {
+    const at = peaks[r.index].biasV.toFixed(3), source = peaks[r.sourceIndex].biasV;
+    const plain = isPlainPrediction(r, source, gain);
+    evidence.reasons.push(
+      plain
+        ? `peak at ${at} V set aside: the second-junction resonance −η·V/(1 − η) = ${r.predictedV.toFixed(3)} V of the peak at ${source.toFixed(3)} V`
+        : `peak at ${at} V set aside: a second-junction resonance of the level whose first peak is at ${source.toFixed(3)} V (expected at ${r.predictedV.toFixed(3)} V)`,
+    );
+  }
+  const regime: Regime = options.regime ?? classifyRegime(cbClean, cbSplit.main, evidence);
+  const cb = regime === "shell-filling" ? cbClean : cbSplit.main;
+  let setAside: BandPeak[] = [...cbNoise.satellites, ...vbNoise.satellites, ...vbSplit.satellites, ...(regime === "shell-filling" ? [] : cbSplit.satellites)];
+  if (options.regime) evidence.reasons.push(`regime ${options.regime} given by the user`);
+
+  // 4. CB shells and Ec.
+  let ecV: number | null = null;
+  let ecSE: number | null = null;
+  const cbGroups: BandPeak[][][] = []; // per shell: its sub-groups
+  if (regime === "shell-filling") {
+    const built = fillingShells(cb);
+    if (built.offLadder.length) {
+      setAside = [...setAside, ...built.offLadder];
+      evidence.reasons.push(`${built.offLadder.length} CB peak(s) closer than ${D.minLadderSpacingFraction} × Ec to the previous charging peak set aside`);
+    }
+    const ladderFit = (shells: BandPeak[][][]) =>
+      fitLadderSpacing(shells.flat().map((g) => ({ positionsV: g.map((p) => p.x), sigmasV: g.map((p) => p.peak.biasUncertaintyV) })));
+    let shells = built.shells;
+    let fit = ladderFit(shells);
+    // The last charging peaks of a shell near the filling limit fall below the noise rule.
+    const completed = fit ? completeShells(shells, cbNoise.satellites, fit.spacingV) : null;
+    if (completed?.added.length) {
+      shells = completed.shells;
+      fit = ladderFit(shells);
+      setAside = setAside.filter((p) => !completed.added.includes(p));
+      evidence.reasons.push(`${completed.added.length} weak CB peak(s) one Ec beyond a shell's last peak taken as its next charging peak(s)`);
+    }
+    cbGroups.push(...shells);
+    if (fit) {
+      ecV = fit.spacingV;
+      ecSE = fit.spacingSEV;
+    }
+    if (built.leftover.length) warnings.push(`${built.leftover.length} CB peak(s) beyond the assigned shells were left unassigned`);
+  } else if (regime === "shell-tunneling") {
+    // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
+    // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
+    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
+    // An extra peak between s and p that the rules read as no level (`extraCbPeak`) goes the way
+    // of a weaker one, which is a charging satellite of s.
+    const extra = options.regime ? null : extraCbPeak(cbClean, evidence);
+    const tip = extra && cb.includes(extra) ? cb.filter((p) => p !== extra) : cb;
+    if (tip !== cb) {
+      setAside = [...setAside, extra!];
+      evidence.reasons.push(`CB peak at ${extra!.peak.biasV.toFixed(3)} V set aside: the extra peak between s and p, no level of the ladder`);
+    }
+    let levels = tip;
+    if (satelliteEc !== null) {
+      ecV = satelliteEc.chargingEnergyV;
+      ecSE = satelliteEc.sigmaV;
+      const split = levelChargingPeaks(tip, ecV);
+      if (split.charging.length) {
+        levels = split.levels;
+        setAside = [...setAside, ...split.charging];
+        evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${ecV.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
+      }
+    }
+    // Deep in the regime (no CB charging satellite of 0.1 × the s step: Γtip/Γsub ≤ 1/9) p's steps
+    // tell a split p from a whole one.
+    const deep = levels.length > 0 && !cbSplit.satellites.some((p) => p.peak.stepA >= D.tunnelingDeepSatelliteMax * levels[0].peak.stepA);
+    cbGroups.push(...tunnelingShells(levels, deep).map((shell) => shell.map((p) => [p])));
+  }
+  const satellites = [...setAside].sort((a, b) => a.peak.biasV - b.peak.biasV);
+  evidence.satellitePeaksV = satellites.map((p) => p.peak.biasV);
+  evidence.satellitePeakIndices = satellites.map((p) => p.index);
+
+  // 5. Multiplets: CB shells, then VB groups.
+  const vbGroups = valenceGroups(vb, ecV, regime);
+  const multiplets: Multiplet[] = [...shellMultiplets(cbGroups, regime, warnings), ...valenceMultiplets(vbGroups)];
+
+  // 6. Quantities and energies.
+  const { quantities, uncertainties } = spectrumQuantities({ regime, cb, vb, cbGroups, vbGroups, chargingEnergyV: ecV, chargingEnergySEV: ecSE }, warnings);
+  if (regime === "shell-tunneling") {
+    warnings.push(
+      ecV === null
+        ? "shell tunnelling: Ec is not measurable from the CB ladder (reported as null); the gap still contains one Ec"
+        : "shell tunnelling: Ec is the spacing of a gap-edge level and its charging satellite (one pair of peaks, not a ladder fit); the gap contains one Ec",
+    );
+  }
+  if (regime === "undetermined") warnings.push("regime undetermined: CB peaks are not grouped into shells; see the evidence");
+  const energies = spectrumEnergies(quantities, uncertainties, eta, etaGiven);
+  return { regime, evidence, multiplets, quantities, uncertainties, energies, noLevels: null, warnings };
+}

@@ -1,0 +1,282 @@
+/**
+ * The readings of `assignSpectrum`'s steps 7–8 where η is given and below 1: each sets aside, or
+ * gives back to the ladder, peaks that the second junction explains and runs steps 1–6
+ * (`assignWith`) again, keeping the result only where the regime it reads is consistent (see
+ * the Notes of `assignSpectrum`).
+ */
+import type { Peak } from "../peaks/findPeaks.ts";
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
+import { assignWith } from "./assignWith.ts";
+import { confirmResonances } from "./confirmResonances.ts";
+import { earlierReasons, iterateResonances } from "./iterateResonances.ts";
+import { oddLeadingLevel } from "./oddLeadingLevel.ts";
+import { valenceFillingDoublet } from "./regime.ts";
+import { overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
+
+/**
+ * Shell filling where the band-edge resonances say so and the VB reads as a charging doublet
+ * (`valenceFillingDoublet`) but the CB, with the resonances its ladder predicts set aside, does
+ * not (notes 7 and 8 of `assignSpectrum`): the shell-filling reading from `forced` with the
+ * rounds of `iterateResonances` run under that regime; null when the VB does not read so.
+ */
+export function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, forced: Assignment, first: Assignment, options: AssignOptions): Assignment | null {
+  // The first reading is not shell filling, so each of its VB groups is one main peak.
+  const vb = first.multiplets
+    .filter((m) => m.band === "VB")
+    .flatMap((m) => m.peakIndices)
+    .map((index) => ({ peak: peaks[index], x: -peaks[index].biasV, index }))
+    .sort((a, b) => a.x - b.x);
+  const doublet = valenceFillingDoublet(vb);
+  if (doublet === null) return null;
+  const regime = "shell-filling";
+  const out = iterateResonances(peaks, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, { ...options, regime }));
+  unforced(out);
+  out.evidence.reasons.unshift(
+    `read as shell filling: the band-edge resonances carry at least ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)} × their levels' steps and the VB's first two main peaks step alike (ratio ${doublet.stepRatio.toFixed(2)} within ${ASSIGN_DEFAULTS.fillingStepRatio.join("–")}) with a jump of ${doublet.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${ASSIGN_DEFAULTS.fillingJumpRatioMin}): a charging doublet; the CB ladder (the first reading, ${first.regime}) holds resonances of VB levels that its own prediction misses`,
+  );
+  return out;
+}
+
+/** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
+export function firstReading(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
+  // Resonances through the substrate junction are not levels of the tip-junction ladder; the
+  // candidates are checked against an assignment made without them.
+  const first = assignWith(peaks, eta, etaGiven, candidates, options);
+  if (!candidates.length) return first;
+  const filling = fillingResonances(peaks, eta, etaGiven, candidates, first, options) ?? hiddenDoublet(peaks, eta, etaGiven, candidates, first, options);
+  if (filling) return filling;
+  if (first.regime === "shell-filling" || options.regime) return first;
+  // Where the tip side is not shell filling, the substrate side may fill: the resonance of a
+  // band's first level is then a charging doublet. The second peak goes too, if that leaves a
+  // regime the rules can name (and the same one, when they named one before).
+  const companions = substrateChargingPeaks(peaks, candidates, eta, ASSIGN_DEFAULTS.fillingStepRatio);
+  if (!companions.length) return first;
+  const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
+  if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;
+  third.evidence.reasons.unshift(...companionReasons(peaks, companions));
+  return third;
+}
+
+/** The reasons of the substrate side's second charging peaks set aside (`substrateChargingPeaks`). */
+function companionReasons(peaks: readonly Peak[], companions: readonly SecondJunctionResonance[]): string[] {
+  return companions.map((c) => `peak at ${peaks[c.index].biasV.toFixed(3)} V set aside: the second charging peak, through the substrate junction, of the level at ${peaks[c.sourceIndex].biasV.toFixed(3)} V (the substrate side fills where the tip side tunnels)`);
+}
+
+/**
+ * A shell-filling reading whose p opens with an odd sub-group at a VB peak's predicted resonance
+ * (`oddLeadingLevel`): that peak is set aside and the rules run again; the result stands if it is
+ * still shell filling and p's first sub-group is then even.
+ */
+export function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions, forced = false): Assignment {
+  if (a.regime !== "shell-filling" || options.regime || a.quantities.chargingEnergyV === null) return a;
+  const lead = oddLeadingLevel(peaks, a.multiplets, a.evidence.secondJunction, a.quantities.chargingEnergyV, eta);
+  if (!lead) return a;
+  // A reading the rounds made from the forced shell-filling one is read again under it.
+  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction.filter((r) => r.index !== lead.index), lead], forced ? { ...options, regime: "shell-filling" } : options);
+  // The regime was the rules' reading, not the user's.
+  if (forced) unforced(next);
+  const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
+  if (next.regime !== "shell-filling" || !p || (p.subgroups[0] ?? p.peakIndices.length) % 2 !== 0) return a;
+  const earlier = a.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r) && !r.startsWith("the first two CB steps"));
+  next.evidence.reasons.unshift(
+    ...earlier,
+    `peak at ${peaks[lead.index].biasV.toFixed(3)} V set aside: it opened p with an odd sub-group or a ladder of more than six (each p orbital holds two electrons) and lies at the second-junction resonance of the peak at ${peaks[lead.sourceIndex].biasV.toFixed(3)} V (expected at ${lead.predictedV.toFixed(3)} V)`,
+  );
+  return next;
+}
+
+/**
+ * A shell-tunnelling reading with the peaks at the plain resonance of a deeper level given back
+ * to the ladder (`deeperPlainResonances`), if the rules still read shell tunnelling.
+ */
+function withDeeperLevels(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+  const set = a.evidence.secondJunction;
+  const back = deeperPlainResonances(peaks, set, eta);
+  if (!back.length) return a;
+  const next = assignWith(peaks, eta, etaGiven, set.filter((r) => !back.includes(r)), options);
+  if (next.regime !== "shell-tunneling") return a;
+  const earlier = earlierReasons(a, next);
+  next.evidence.reasons.unshift(
+    ...back.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: the plain resonance of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V, a level behind its band's edge level, has no step where the substrate side fills (it lies N·Ec/(1 − η) further out)`),
+    ...earlier,
+    ...a.evidence.reasons.filter((r) => /^peak at .* (kept as a level|set aside: the second charging peak)/.test(r) && !next.evidence.reasons.includes(r)),
+  );
+  return next;
+}
+
+/**
+ * A shell-tunnelling p with more levels than orbitals: its weak extra peak, a charging peak
+ * through the substrate junction (`substrateExtraLevel`), is set aside; the result stands if it
+ * is still shell tunnelling.
+ */
+export function withoutExtraLevel(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+  if (a.regime !== "shell-tunneling" || options.regime) return a;
+  a = withDeeperLevels(peaks, eta, etaGiven, a, options);
+  const extra = substrateExtraLevel(peaks, a.multiplets, eta);
+  if (!extra) return a;
+  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction, extra], options);
+  if (next.regime !== "shell-tunneling") return a;
+  const earlier = earlierReasons(a, next);
+  const keptLevels = a.evidence.reasons.filter((r) => / kept as a level: /.test(r));
+  next.evidence.reasons.unshift(
+    `peak at ${peaks[extra.index].biasV.toFixed(3)} V set aside: p held more levels than its three orbitals, and this one steps like a single carrier entering through the substrate junction (at most ${SUBSTRATE_EXTRA_LEVEL_DEFAULTS.stepRatioMax.toFixed(2)} × the other p levels and the VB edge level at ${peaks[extra.sourceIndex].biasV.toFixed(3)} V), beyond that level's resonance`,
+    ...earlier,
+    ...keptLevels,
+  );
+  return next;
+}
+
+/**
+ * Where the tip side is not shell filling: the resonances that step at least as much as their
+ * sources (`overlappedResonances`) go back to the ladder as levels; the result stands if it names
+ * the same regime, or shell tunnelling where the first named none and the VB's second step is at
+ * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × its first (its levels, untouched by the CB
+ * resonances, say shell tunnelling too). A shared p peak set aside as a resonance leaves s and
+ * an unpredicted resonance stepping in the intermediate band, so the first reading names none.
+ */
+export function underResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, first: Assignment, options: AssignOptions): Assignment {
+  const set = first.evidence.secondJunction;
+  const under = levelsUnder(peaks, set);
+  if (!under.length) return first;
+  const kept = set.filter((r) => !under.includes(r));
+  const second = assignWith(peaks, eta, etaGiven, kept, options);
+  // Where the first reading named no regime, shell tunnelling stands if the VB shows it too.
+  const opened = first.regime === "undetermined" && second.regime === "shell-tunneling" && (second.evidence.valenceStepRatio ?? 0) >= ASSIGN_DEFAULTS.tunnelingStepRatioMin;
+  if (second.regime !== first.regime && !opened) return first;
+  // With those levels back, a band-edge level's second charging peak through the substrate junction
+  // goes too where the regime stays (set aside with every resonance, it left too few CB peaks to
+  // name one).
+  const companions = substrateChargingPeaks(peaks, set, eta, ASSIGN_DEFAULTS.fillingStepRatio).filter((c) => !set.some((r) => r.index === c.index));
+  const third = companions.length ? assignWith(peaks, eta, etaGiven, [...kept, ...companions], options) : null;
+  const result = third && third.regime === second.regime ? third : second;
+  result.evidence.reasons.unshift(
+    ...(result === third ? companionReasons(peaks, companions) : []),
+    ...under.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`),
+  );
+  return result;
+}
+
+/**
+ * The resonances that go back to the ladder as levels (`overlappedResonances`), except one with a
+ * peak that is no resonance (or one released before it) within the smaller of their FWHMs (a
+ * merged peak's own width would reach the next level): that peak is the level,
+ * found apart, and the summed step was shared out between the two by the split's fit. Those
+ * farthest from their predicted positions go first.
+ */
+function levelsUnder(peaks: readonly Peak[], set: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
+  const miss = (r: SecondJunctionResonance) => Math.abs(peaks[r.index].biasV - r.predictedV);
+  const resonant = new Set(set.map((r) => r.index));
+  const released: SecondJunctionResonance[] = [];
+  for (const r of [...overlappedResonances(peaks, set)].sort((a, b) => miss(b) - miss(a))) {
+    const p = peaks[r.index];
+    const levelBeside = peaks.some((q, i) => i !== r.index && Math.sign(q.biasV) === Math.sign(p.biasV) && Math.abs(q.biasV - p.biasV) <= Math.min(p.fwhmV, q.fwhmV) && !resonant.has(i));
+    if (levelBeside) continue;
+    released.push(r);
+    resonant.delete(r.index);
+  }
+  return released;
+}
+
+/**
+ * The assignment with the resonances of a shell-filling reading (see `confirmResonances`), or null
+ * when that reading changes nothing or does not give shell filling.
+ */
+function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
+  // Check the candidates against the first assignment, or, when that is not shell filling, against
+  // the shell-filling reading (a resonance on an s peak hides the doublet); the result stands only
+  // if the regime it gives is shell filling.
+  const basis = first.regime === "shell-filling" || options.regime ? first : assignWith(peaks, eta, etaGiven, candidates, { ...options, regime: "shell-filling" });
+  const { kept, released } = confirmResonances(candidates, peaks, { regime: basis.regime, multiplets: basis.multiplets, chargingEnergyV: basis.quantities.chargingEnergyV, eta });
+  const same = kept.length === candidates.length && kept.every((k) => candidates.some((c) => c.index === k.index));
+  if (same) return null;
+  // A level that a resonance overlaps keeps its own share of the summed step.
+  const share = new Map(released.filter((r) => r.levelStepA !== null).map((r) => [r.resonance.index, r.levelStepA!]));
+  const adjusted = share.size ? peaks.map((p, i) => (share.has(i) ? { ...p, stepA: share.get(i)! } : p)) : peaks;
+  const second = assignWith(adjusted, eta, etaGiven, kept, options);
+  if (second.regime !== "shell-filling") return null;
+  second.evidence.reasons.unshift(...released.map((r) => r.reason));
+  return second;
+}
+
+/**
+ * Shell filling read from the height of a band-edge level's resonance, where a resonance hides the
+ * s doublet's second peak or its first (note 7 of `assignSpectrum`); null when the heights do not
+ * say shell filling or the reading fails.
+ */
+function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
+  if (first.regime === "shell-filling" || options.regime) return null;
+  const edge = bandEdgeResonanceRatio(peaks, candidates);
+  if (edge === null || edge.ratio < ASSIGN_DEFAULTS.fillingResonanceStepMin) return null;
+  // Ec from the VB doublet (the gap-edge pair of VB peaks that are not resonances).
+  const taken = new Set(candidates.map((c) => c.index));
+  const vb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV < 0 && !taken.has(i)).sort((a, b) => b.p.biasV - a.p.biasV);
+  const cb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV > 0 && !taken.has(i)).sort((a, b) => a.p.biasV - b.p.biasV);
+  if (vb.length < 2 || !cb.length) return null;
+  const ecV = vb[0].p.biasV - vb[1].p.biasV;
+  const tol = ASSIGN_DEFAULTS.valenceChargingTolerance * ecV;
+  const near = (v: number) => candidates.find((c) => Math.abs(peaks[c.index].biasV - v) <= tol);
+  // The s doublet's second peak one Ec above the first CB peak, else its first one Ec below it.
+  const second = near(cb[0].p.biasV + ecV);
+  const hidden = second ?? (cb[0].p.biasV - ecV > 0 ? near(cb[0].p.biasV - ecV) : undefined);
+  if (!hidden) return null;
+  // Below the first CB peak, the resonance of a doublet alone steps less than 2 × its source
+  // ((2r + 1)/(2 + r) < 2); a charging step under it adds at least the least filling step ratio.
+  if (!second && peaks[hidden.index].stepA < (2 + ASSIGN_DEFAULTS.fillingStepRatio[0]) * peaks[hidden.sourceIndex].stepA) return null;
+  const hiddenStepA = second ? peaks[cb[0].i].stepA * edge.doubletStepRatio : peaks[cb[0].i].stepA / edge.doubletStepRatio;
+  const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: hiddenStepA } : p));
+  const rest = candidates.filter((c) => c !== hidden);
+  let out = assignWith(adjusted, eta, etaGiven, rest, options);
+  if (out.regime !== "shell-filling" && !second) {
+    // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
+    // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it
+    // unasked, or if the VB reads as a charging doublet (its own ladder has no such resonances).
+    const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
+    out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
+    if (out === forced) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
+    if (out === forced) return null;
+    unforced(out);
+  }
+  if (out.regime !== "shell-filling") return null;
+  out.evidence.reasons.unshift(
+    `the resonance of the band-edge level at ${peaks[edge.sourceIndex].biasV.toFixed(3)} V carries ${edge.ratio.toFixed(2)} × its step (≥ ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing ${second ? "above" : "below"} the first CB peak, is kept as the s doublet's ${second ? "second" : "first"} peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`,
+  );
+  return out;
+}
+
+/**
+ * The smallest step ratio of a resonance over its source among the sources that are their band's
+ * gap-edge peak (an overlapping peak only adds to a resonance's step, so the smallest is the
+ * safest reading).
+ */
+export function bandEdgeResonanceRatio(peaks: readonly Peak[], candidates: readonly SecondJunctionResonance[]): { ratio: number; sourceIndex: number; doubletStepRatio: number } | null {
+  const taken = new Set(candidates.map((c) => c.index));
+  const edgeOf = (sign: number) => {
+    let best = -1;
+    peaks.forEach((p, i) => {
+      if (taken.has(i) || Math.sign(p.biasV) !== sign) return;
+      if (best < 0 || Math.abs(p.biasV) < Math.abs(peaks[best].biasV)) best = i;
+    });
+    return best;
+  };
+  const edges = new Set([edgeOf(1), edgeOf(-1)]);
+  let out: { ratio: number; sourceIndex: number; doubletStepRatio: number } | null = null;
+  for (const c of candidates) {
+    if (!edges.has(c.sourceIndex)) continue;
+    const ratio = peaks[c.index].stepA / peaks[c.sourceIndex].stepA;
+    // The resonance of a doubly degenerate level carries (2r + 1)/(2 + r) of its first step; solved
+    // for r, the s doublet's second step is r/(1 + r) of the first.
+    const r = ratio < 2 ? (2 * ratio - 1) / (2 - ratio) : Infinity;
+    if (!out || ratio < out.ratio) out = { ratio, sourceIndex: c.sourceIndex, doubletStepRatio: Number.isFinite(r) ? r / (1 + r) : 1 };
+  }
+  return out;
+}
+
+/**
+ * Drop the note that the user gave the regime from a reading the rules forced to shell filling
+ * and then kept (in place): the regime was not the user's.
+ */
+export function unforced(a: Assignment): void {
+  a.evidence.reasons = a.evidence.reasons.filter((r) => !r.startsWith("regime shell-filling given by the user"));
+}
