@@ -84,7 +84,7 @@ export interface LadderLevels {
  *    starts Ec + Δ/η beyond the last peak of the one before, not one Ec) holds fewer peaks than
  *    its degeneracy without it (note 5). VB groups carry no degeneracy, so nothing says their ladder
  *    needs a peak: in the VB a peak at a predicted resonance stays a resonance (a VB ladder
- *    bridged by resonances reads as one long group otherwise).
+ *    bridged by resonances reads as one long group otherwise), except at the gap edge (note 9).
  * 3. The kept peak's step is the sum of the level's and the resonance's; the level's share is
  *    taken as the median step of the multiplet's other peaks (charging steps of one shell in
  *    shell filling are alike, each limited by the slow junction). A peak stepping less than
@@ -119,6 +119,14 @@ export interface LadderLevels {
  *    from its ladder neighbours than a peak kept earlier for that shell by more than
  *    `LADDER_LEVELS_DEFAULTS.continuationToleranceMin` × Ec_V (the scatter of peak positions),
  *    takes the place: it is kept, and the earlier one (with its flanks) stays a resonance.
+ * 9. Spin alone puts two carriers on every level, so in shell filling each level shows at least
+ *    two charging peaks Ec_V apart. The VB's gap-edge group read as one peak lacks one, and it
+ *    cannot lie further out (a peak one Ec_V beyond would have joined the group): a peak at a
+ *    predicted resonance one Ec_V nearer the gap (notes 2–3, nothing nearer the gap than it in
+ *    the VB) is kept as that group's first charging peak. Where a CB level's resonance falls on
+ *    the VB edge level, setting the shared peak aside had moved the VB edge one Ec_V out and
+ *    widened the gap by as much. No VB group further out is completed this way: the window or
+ *    a resonance bridging two groups can leave one peak there.
  *
  * References
  * ----------
@@ -172,9 +180,11 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     // the peak one Ec after it (the band's first multiplet at the gap edge).
     const of = (i: number | undefined) => (i === undefined ? undefined : band.find(({ peaks: s }) => s.has(i)));
     const needs = (h: (typeof band)[number] | undefined) => {
-      // A VB group has no degeneracy: nothing says its ladder needs the peak (note 2).
-      if (h === undefined || h.m.band !== "CB" || h.m.degeneracy === null) return false;
+      if (h === undefined) return false;
       const own = [...h.peaks].filter((i) => i !== r.index).map(at).sort((a, b) => a - b);
+      // A VB group has no degeneracy but spin's: the gap-edge group of one peak needs one (note 9).
+      if (h.m.band === "VB") return h === band[0] && own.length === 1;
+      if (h.m.degeneracy === null) return false;
       // The band's next peak beyond the shell (in another multiplet; not itself still to be judged).
       const next = own.length ? ladder.find((i) => at(i) > own[own.length - 1]) : undefined;
       const continues = next !== undefined && !pending.has(next) && continuesShell(own, at(next), ecV);

@@ -58,6 +58,20 @@ describe("ladderLevels(peaks, predicted, inputs)", () => {
     expect(out.levels).toEqual([]);
     expect(out.resonances.map((r) => r.index)).toEqual([1]);
   });
+  it("keeps a peak one Ec nearer the gap than a VB gap-edge group of one peak (spin: every level holds two carriers), not one before a group of two", () => {
+    // v1 read as −1.3 V alone, the resonance predicted at −1.0 V (one Ec nearer the gap), v2 at −1.9 V.
+    const peaks = list([-1.0, -1.3, -1.9]);
+    const v1 = { band: "VB" as const, label: "v1", degeneracy: null, peakIndices: [1] };
+    const v2 = { band: "VB" as const, label: "v2", degeneracy: null, peakIndices: [2] };
+    const one = ladderLevels(peaks, [at(peaks, 0)], { multiplets: [v1, v2], chargingEnergyV: ecV });
+    expect(one.levels.map((l) => [l.resonance.index, l.label])).toEqual([[0, "v1"]]);
+    // v1 already holding its two charging peaks (−1.3, −1.6 V) needs none.
+    const four = list([-1.0, -1.3, -1.6, -2.2]);
+    const full = ladderLevels(four, [at(four, 0)], { multiplets: [{ ...v1, peakIndices: [1, 2] }, { ...v2, peakIndices: [3] }], chargingEnergyV: ecV });
+    expect(full.levels).toEqual([]);
+    expect(full.resonances.map((r) => r.index)).toEqual([0]);
+  });
+
   it("sets aside a peak one Ec below p's first peak when the peak read as d's first lies one Ec beyond p's last (p is full without it)", () => {
     // Closed form Ec/η = 0.3 V: s 1.0, 1.3 V; p 2.2 … 3.7 V (six peaks 0.3 V apart) with a
     // resonance at 1.9 V one Ec below p's first; the first reading took 1.9 V as p1 and p's
