@@ -101,7 +101,9 @@ export interface Assignment {
  *    (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks one Ec after the peak
  *    before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec
- *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge.
+ *    in shell filling, single levels otherwise; labels v1, v2, … from the gap edge. In shell
+ *    filling a gap-edge group of one peak takes a peak set aside as a resonance one Ec nearer the
+ *    gap as its first charging peak (`valenceEdgePartner`: spin puts two carriers on every level).
  * 6. Quantities and uncertainties (`spectrumQuantities`), energies = η × bias-referred values
  *    (`spectrumEnergies`).
  * 7. Second-junction resonances (η given, below 1): candidates from `secondJunctionResonances`

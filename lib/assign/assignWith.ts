@@ -16,7 +16,7 @@ import { classifyRegime, extraCbPeak, regimeRatios, type Regime, type RegimeEvid
 import { splitSatellites } from "./satellites.ts";
 import { isPlainPrediction, type SecondJunctionResonance } from "./secondJunction.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
-import { valenceGroups } from "./valenceGroups.ts";
+import { valenceEdgePartner, valenceGroups } from "./valenceGroups.ts";
 
 /** The assignment with the given peaks set aside as second-junction resonances. */
 export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
@@ -35,7 +35,7 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   const cbClean = cbNoise.main;
   const cbSplit = splitSatellites(cbClean, 0, D.satelliteStepRatioMax);
   const vbSplit = splitSatellites(vbNoise.main, 0, D.satelliteStepRatioMax);
-  const vb = vbSplit.main;
+  let vb = vbSplit.main;
 
   // 3. Regime.
   const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
@@ -114,8 +114,18 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   evidence.satellitePeaksV = satellites.map((p) => p.peak.biasV);
   evidence.satellitePeakIndices = satellites.map((p) => p.index);
 
-  // 5. Multiplets: CB shells, then VB groups.
-  const vbGroups = valenceGroups(vb, ecV, regime);
+  // 5. Multiplets: CB shells, then VB groups; a VB gap-edge level of one peak takes its partner
+  // from the resonances (spin: two carriers per level).
+  let vbGroups = valenceGroups(vb, ecV, regime);
+  const partner = regime === "shell-filling" && ecV !== null ? valenceEdgePartner(vbGroups, bands.vb.filter((p) => resonant.has(p.index)), ecV) : null;
+  if (partner) {
+    vbGroups = [[partner, ...vbGroups[0]], ...vbGroups.slice(1)];
+    vb = [partner, ...vb];
+    evidence.secondJunction = evidence.secondJunction.filter((r) => r.index !== partner.index);
+    const at = `peak at ${partner.peak.biasV.toFixed(3)} V`;
+    evidence.reasons = evidence.reasons.filter((r) => !r.startsWith(`${at} set aside`));
+    evidence.reasons.push(`${at} kept as the VB edge level's first charging peak: the edge level read as one peak lacks one (spin puts two carriers on every level), and this one lies one Ec nearer the gap; a second-junction resonance shares it`);
+  }
   const multiplets: Multiplet[] = [...shellMultiplets(cbGroups, regime, warnings), ...valenceMultiplets(vbGroups)];
 
   // 6. Quantities and energies.

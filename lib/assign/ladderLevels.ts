@@ -126,7 +126,8 @@ export interface LadderLevels {
  *    the VB) is kept as that group's first charging peak. Where a CB level's resonance falls on
  *    the VB edge level, setting the shared peak aside had moved the VB edge one Ec_V out and
  *    widened the gap by as much. No VB group further out is completed this way: the window or
- *    a resonance bridging two groups can leave one peak there.
+ *    a resonance bridging two groups can leave one peak there. (`valenceEdgePartner` reads the
+ *    same for resonances set aside before the rounds, without the ladder's step share.)
  *
  * References
  * ----------

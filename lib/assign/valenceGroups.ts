@@ -53,3 +53,50 @@ export function valenceGroups(vb: readonly BandPeak[], chargingEnergyV: number |
   }
   return groups;
 }
+
+/**
+ * The VB gap-edge level's missing charging peak among the peaks set aside as second-junction
+ * resonances (shell filling).
+ *
+ * Parameters
+ * ----------
+ * groups : readonly BandPeak[][]
+ *     The VB groups from {@link valenceGroups} in shell filling, from the gap edge outward.
+ * setAside : readonly BandPeak[]
+ *     VB peaks set aside as second-junction resonances (`x` = |bias|, V).
+ * chargingEnergyV : number
+ *     Ec in bias from the CB ladder, V; > 0.
+ *
+ * Returns
+ * -------
+ * BandPeak | null
+ *     The set-aside peak that is the gap-edge group's first charging peak, or null.
+ *
+ * Notes
+ * -----
+ * Spin alone puts two carriers on every level, so in shell filling each level shows at least two
+ * charging peaks Ec apart. A gap-edge group of one peak lacks one, and not further out (a peak one
+ * Ec beyond would have joined it): where a peak set aside as a resonance lies one Ec nearer the
+ * gap, to within (1 ± `ASSIGN_DEFAULTS.valenceChargingTolerance`)·Ec, and steps at least
+ * `ASSIGN_DEFAULTS.fillingStepRatio[0]` × the group's peak (it holds the level's step and the
+ * resonance's), the level and the resonance share that peak. Set aside, it moves the gap edge one
+ * Ec out. Of two such peaks the one nearer one Ec is taken.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const at = (x: number, index: number) => ({ x, index, peak: { biasV: -x, stepA: 1e-12 } as Peak });
+ * // v1 read as −1.3 V alone, a resonance set aside at −1.0 V, Ec = 0.3 V in bias.
+ * valenceEdgePartner([[at(1.3, 1)], [at(1.9, 0)]], [at(1.0, 2)], 0.3)?.index;  // => 2
+ * ```
+ */
+export function valenceEdgePartner(groups: readonly BandPeak[][], setAside: readonly BandPeak[], chargingEnergyV: number): BandPeak | null {
+  const edge = groups[0];
+  if (!edge || edge.length !== 1 || !(chargingEnergyV > 0)) return null;
+  const t = ASSIGN_DEFAULTS.valenceChargingTolerance;
+  const miss = (p: BandPeak) => Math.abs(edge[0].x - p.x - chargingEnergyV);
+  const candidates = setAside
+    .filter((p) => p.x < edge[0].x && miss(p) <= t * chargingEnergyV && p.peak.stepA >= ASSIGN_DEFAULTS.fillingStepRatio[0] * edge[0].peak.stepA)
+    .sort((a, b) => miss(a) - miss(b));
+  return candidates[0] ?? null;
+}

@@ -2,7 +2,7 @@
 // Closed form: a VB level of degeneracy g charges at |V| = (|ε| + Ec(n + ½))/η, n = 0 … g − 1, so
 // peaks of one level are Ec/η apart; here Ec/η = 0.125 V (Ec = 0.1 eV, η = 0.8).
 import { describe, it, expect } from "vitest";
-import { valenceGroups } from "../../lib/assign/valenceGroups.ts";
+import { valenceEdgePartner, valenceGroups } from "../../lib/assign/valenceGroups.ts";
 import { ASSIGN_DEFAULTS } from "../../lib/assign/assignSpectrum.ts";
 import type { BandPeak } from "../../lib/assign/bandPeaks.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
@@ -28,5 +28,25 @@ describe("valenceGroups(vb, chargingEnergyV, regime)", () => {
   it("without Ec or outside shell filling, every peak is its own group", () => {
     expect(valenceGroups(ladder, null, "shell-filling")).toHaveLength(6);
     expect(valenceGroups(ladder, ecV, "shell-tunneling")).toHaveLength(6);
+  });
+});
+
+// valenceEdgePartner: spin puts two carriers on every level, so the gap-edge VB level shows two
+// charging peaks Ec/η apart (the closed form above); one of them set aside as a resonance is found
+// again where it steps like a level.
+describe("valenceEdgePartner(groups, setAside, chargingEnergyV)", () => {
+  const withStep = (p: BandPeak, stepA: number): BandPeak => ({ ...p, peak: { ...p.peak, stepA } as Peak });
+  const v1 = withStep(ladder[1], 1e-12);
+  const rest = ladder.slice(2).map((p) => withStep(p, 1e-12));
+  it("takes the set-aside peak one Ec nearer the gap than a gap-edge group of one peak", () => {
+    const out = valenceEdgePartner([[v1], rest], [withStep(ladder[0], 2e-12)], ecV);
+    expect(out?.index).toBe(0);
+  });
+  it("takes none for a gap-edge group of two, one stepping under 0.6 × the level's, or one off the ladder by more than the tolerance", () => {
+    const partner = withStep(ladder[0], 1e-12);
+    expect(valenceEdgePartner([[partner, v1], rest], [withStep(at(0.65 / 0.8 - ecV, 9), 1e-12)], ecV)).toBeNull();
+    expect(valenceEdgePartner([[v1], rest], [withStep(ladder[0], 0.5e-12)], ecV)).toBeNull();
+    const off = v1.x - ecV * (1 - ASSIGN_DEFAULTS.valenceChargingTolerance) + 0.01;
+    expect(valenceEdgePartner([[v1], rest], [withStep(at(off, 9), 1e-12)], ecV)).toBeNull();
   });
 });

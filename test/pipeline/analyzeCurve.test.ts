@@ -239,6 +239,21 @@ describe("analyzeCurve(curve, { eta }): the VB edge level under a resonance in s
   }
 });
 
+// The same where the readings before the rounds set the VB edge level's first peak aside as a
+// resonance (a p level's predicted one in draw 2130, whose truth lists none there; the
+// resonance of a peak itself set aside in 1031): the rounds then lost shell filling, the edge
+// level's own resonance in the CB being no longer predicted.
+describe("analyzeCurve(curve, { eta }): the VB edge level set aside before the rounds in shell filling (low-η draws)", () => {
+  for (const start of [1031, 2130]) {
+    it(`keeps the peak as v1's first and reads the gap (draw ${start})`, () => {
+      const { a, truth, tolV } = fillingAtLowEta(start);
+      const v1 = a.assignment.multiplets.find((m) => m.label === "v1")!;
+      expectClose(v1.peaksV, truth.valencePeaksV.slice(0, 2), { atol: tolV, what: "v1, the simulation's truth" });
+      expect(Math.abs(a.assignment.quantities.gapV! - truth.gapV)).toBeLessThanOrEqual(0.02 * truth.gapV);
+    }, 30_000);
+  }
+});
+
 // The second resonance of a VB level, Ec/(1 − η) beyond the predicted one and stepping 0.4–0.6 × s
 // (the intermediate band), between s and p (draws 137 and 2037).
 describe("analyzeCurve(curve, { eta }): an unpredicted resonance between s and p in shell tunnelling (low-η draws)", () => {
