@@ -4,6 +4,7 @@
  * and the levels found join the peak list.
  */
 import type { Peak } from "../peaks/findPeaks.ts";
+import { GAUSSIAN_AREA_PER_HEIGHT_FWHM } from "../util/constants.ts";
 import { resonanceFlankSteps } from "../peaks/resonanceFlankSteps.ts";
 import { ladderPredictions } from "../assign/ladderResonances.ts";
 import type { Assignment } from "../assign/assignSpectrum.ts";
@@ -196,7 +197,7 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
 
 /**
  * A step found on the current as a peak: at `biasV` (V), with the expected FWHM `expectedFwhmV`
- * (V), the Gaussian prominence of its step (stepA/(1.0645·FWHM)), its t (`significance`), and
+ * (V), the Gaussian prominence of its step (stepA/(FWHM × `GAUSSIAN_AREA_PER_HEIGHT_FWHM`)), its t (`significance`), and
  * its position σ (`sigmaV`, V) with the curve's floor in quadrature; height and index those of the
  * nearest sample.
  */
@@ -205,6 +206,6 @@ export function stepPeak(curve: Pick<FlankCurve, "biasV" | "didvS" | "noiseS" | 
   const n = x.length;
   const h = n > 1 ? (x[n - 1] - x[0]) / (n - 1) : 1;
   const index = Math.min(n - 1, Math.max(0, Math.round((biasV - x[0]) / h)));
-  const prominenceS = stepA / (expectedFwhmV * 1.0645);
+  const prominenceS = stepA / (expectedFwhmV * GAUSSIAN_AREA_PER_HEIGHT_FWHM);
   return { biasV, biasUncertaintyV: Math.hypot(sigmaV, curve.floorV), index, heightS: curve.didvS[index], prominenceS, fwhmV: expectedFwhmV, stepA, snr: prominenceS / curve.noiseS, stepSignificance: significance };
 }

@@ -30,3 +30,9 @@ export const FERMI_DERIVATIVE_FWHM_KT = 2 * Math.log(3 + 2 * Math.SQRT2);
 
 /** FWHM/σ of a Gaussian, 2√(2 ln 2). */
 export const GAUSSIAN_FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
+
+/**
+ * Area of a Gaussian over its height × FWHM: √(2π)/(2√(2 ln 2)) ≈ 1.0645 (closed form), so that a
+ * conductance peak of prominence P (S) and FWHM w (V) carries a current step P·w·this (A).
+ */
+export const GAUSSIAN_AREA_PER_HEIGHT_FWHM = Math.sqrt(2 * Math.PI) / GAUSSIAN_FWHM_PER_SIGMA;

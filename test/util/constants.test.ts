@@ -26,4 +26,12 @@ describe("constants", () => {
     expectClose(C.FERMI_DERIVATIVE_FWHM_KT, 3.5255, { atol: 5e-5 });
     expectClose(C.FERMI_DERIVATIVE_FWHM_KT * C.BOLTZMANN_EV_PER_K * 4.2 * 1e3, 1.276, { atol: 1e-3, what: "meV at 4.2 K" });
   });
+
+  it("a Gaussian's area is 1.0645 × height × FWHM (closed form √(π/(4 ln 2)); checked by summing a sampled Gaussian)", () => {
+    expectClose(C.GAUSSIAN_AREA_PER_HEIGHT_FWHM, Math.sqrt(Math.PI / (4 * Math.LN2)), { rtol: 1e-12 });
+    const sigma = 0.01, h = sigma / 200;
+    let area = 0;
+    for (let x = -10 * sigma; x <= 10 * sigma; x += h) area += Math.exp((-0.5 * x * x) / (sigma * sigma)) * h;
+    expectClose(area / (C.GAUSSIAN_FWHM_PER_SIGMA * sigma), C.GAUSSIAN_AREA_PER_HEIGHT_FWHM, { rtol: 1e-6, what: "sampled area / (height × FWHM)" });
+  });
 });
