@@ -95,7 +95,10 @@ export interface Assignment {
  * 4. Shell filling: charging multiplets s, p, d (`fillingShells`); Ec = the common spacing of all
  *    groups by weighted least squares (`fitLadderSpacing`), sub-groups with their own
  *    intercepts; a shell short of its degeneracy takes a weak peak one Ec beyond its last
- *    (`completeShells`) and Ec is fitted again. Shell tunnelling: one peak per level
+ *    (`completeShells`) and Ec is fitted again; a peak set aside as the s doublet's second
+ *    peak's plain resonance that steps more than that resonance can (at most 0.4 × the first
+ *    peak's resonance, `levelsAtDoubletResonance`) goes back to the ladder and steps 1–6 run
+ *    again, if they still read shell filling. Shell tunnelling: one peak per level
  *    (`tunnelingShells`), an extra second CB peak that the regime rules read as no level set
  *    aside (`extraCbPeak`); where a gap-edge level shows its charging satellite
  *    (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks one Ec after the peak

@@ -6,8 +6,9 @@
 // states), p 0.8 eV (6), VB 0.6 eV (2) and 0.75 eV (4); Ec = 0.12 eV. Where a level and a resonance
 // fall within 10 mV of each other the list holds one peak between them with the summed step; each
 // step is 1 pA for a charging peak and 1.8 pA for a resonance ((g·r + 1)/(g + r) → about 2 deep in
-// shell filling, substrateToTipStepRatio). The peak list is constructed; expected values are the
-// closed-form positions.
+// shell filling, substrateToTipStepRatio: r = 13), but 1.8/(1 + r) = 0.13 pA for the s doublet's
+// second entry through the substrate (secondToFirstStepRatio(1/r) = 1/(1 + r), the junctions'
+// roles swapped). The peak list is constructed; expected values are the closed-form positions.
 import { describe, it, expect } from "vitest";
 import { assignSpectrum, type Peak } from "../../lib/index.ts";
 import { ITERATE_RESONANCES_DEFAULTS } from "../../lib/assign/iterateResonances.ts";
@@ -25,6 +26,8 @@ const vTip = [...[0, 1].map((j) => -tip(0.6, j)), ...[0, 1, 2, 3].map((j) => -ti
 const apart = [sub(0.6, 0), sub(0.6, 1), sub(0.75, 1), sub(0.75, 3), -sub(0.5, 0), -sub(0.5, 1), -sub(0.8, 1)]; // 1.65, 1.95, 2.325, 2.925, −1.4, −1.7, −2.45
 // Coinciding: p2 (2.0333) with the 0.75 eV level's first resonance (2.025), p5 (2.6333) with its third (2.625).
 const merged = [(pTip[1] + sub(0.75, 0)) / 2, (pTip[4] + sub(0.75, 2)) / 2];
+// The s doublet's second resonance, 1/(1 + r) of the first's at r = 13.
+const sWeakPA = 1.8 / 14;
 
 function spectrum(): Peak[] {
   const list: [number, number][] = [
@@ -33,7 +36,7 @@ function spectrum(): Peak[] {
     ...merged.map((v) => [v, 2.8] as [number, number]),
     ...vTip.filter((v) => Math.abs(v + 2.15) > 1e-9).map((v) => [v, 1] as [number, number]),
     [-2.15, 2.8], // the 0.75 eV level's third charging peak −(0.75 + 4.5·0.12)/0.6 on p's first resonance −(0.8 + 0.06)/0.4
-    ...apart.map((v) => [v, 1.8] as [number, number]),
+    ...apart.map((v) => [v, Math.abs(v + sub(0.5, 1)) < 1e-9 ? sWeakPA : 1.8] as [number, number]),
   ];
   return list
     .sort((a, b) => a[0] - b[0])
@@ -73,10 +76,11 @@ describe("assignSpectrum at low η: a resonance on the s doublet's second peak, 
   // 0.4·(0.68/0.6) − 0.06 eV. Its charging doublet at −(|ε_v| + Ec/2)/η and −(|ε_v| + 1.5·Ec)/η, the
   // doublet's second entry through the substrate at (|ε_v| + 1.5·Ec)/(1 − η), s's resonances at
   // −(0.5 + Ec/2)/(1 − η) and −(0.5 + 1.5·Ec)/(1 − η). Steps as above: 1 pA a charging peak, 1.8 pA
-  // the band-edge resonance, 1 pA the weaker second entries, 2.8 pA level and resonance together.
+  // the band-edge resonance, 1 pA the weaker second entries (s's second through the substrate
+  // 1.8/(1 + r) as above), 2.8 pA level and resonance together.
   const epsV = (0.4 * (0.5 + 1.5 * ecEV)) / eta - ecEV / 2;
   const list: [number, number][] = [
-    [-sub(0.5, 1), 1], [-sub(0.5, 0), 1.8], [-tip(epsV, 1), 1], [-tip(epsV, 0), 1],
+    [-sub(0.5, 1), sWeakPA], [-sub(0.5, 0), 1.8], [-tip(epsV, 1), 1], [-tip(epsV, 0), 1],
     [sTip[0], 1], [sTip[1], 2.8], [sub(epsV, 1), 1], ...pTip.map((v): [number, number] => [v, 1]),
   ];
   const peaks: Peak[] = list.map(([biasV, s], index) => ({ biasV, biasUncertaintyV: 0.002, index, heightS: 1e-9, prominenceS: 1e-9, fwhmV: 0.04, stepA: s * 1e-12, snr: 20, stepSignificance: 30 }));

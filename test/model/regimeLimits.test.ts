@@ -98,6 +98,20 @@ describe("substrateToTipStepRatio(g, r)", () => {
   });
 });
 
+describe("secondToFirstStepRatio(1/r): the doublet's steps through the substrate junction", () => {
+  // The junctions swap roles through the substrate junction (in at Γs, out at Γt), so the s
+  // doublet's second step there over its first is r'/(1 + r') with r' = 1/r: 1/(1 + r) (closed
+  // form), checked against the master equation. s level (g 2) at 0.5 eV, Ec = 0.2 eV, η = 0.6:
+  // substrate-side steps at −0.6/0.4 = −1.5 V and −0.8/0.4 = −2.0 V, plateaus read at −1.75 and −2.25 V.
+  it("is 1/(1 + r) in the master equation", () => {
+    for (const r of [0.05, 1, 1.5, 5, 28]) {
+      const [first, both] = exactCurrent({ ...sLevel(r), eta: 0.6 }, [-1.75, -2.25]);
+      expectClose((both - first) / first, secondToFirstStepRatio(1 / r), { rtol: 1e-6, what: `r = ${r}` });
+      expectClose(secondToFirstStepRatio(1 / r), 1 / (1 + r), { rtol: 1e-12 });
+    }
+  });
+});
+
 describe("REGIME_LIMITS", () => {
   it("are locked: filling at r ≥ 1.5 (step ratio 0.6), tunnelling at r ≤ 3/7 (step ratio 0.3) — common practice (no source)", () => {
     expect(Object.isFrozen(REGIME_LIMITS)).toBe(true);
