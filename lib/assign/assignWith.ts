@@ -80,11 +80,13 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
     cbGroups.push(...shells);
     // The s doublet's second peak's resonance is weak (1/(1 + r) of the first's): a peak set aside
     // as it that steps more holds a level, and the reading is made again without it.
-    const back = shells[0] ? levelsAtDoubletResonance(peaks, resonances, shells[0].flat().map((p) => p.index), eta / (1 - eta)) : [];
+    const s = shells[0]?.flat().map((p) => p.index) ?? [];
+    const back = levelsAtDoubletResonance(peaks, resonances, s, eta / (1 - eta));
     if (back.length) {
       const again = assignWith(peaks, eta, etaGiven, resonances.filter((r) => !back.includes(r)), options);
       if (again.regime === "shell-filling") {
-        again.evidence.reasons.push(...back.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[resonances.find((f) => f.sourceIndex !== r.sourceIndex && f.index !== r.index && shells[0].flat()[0].index === f.sourceIndex)!.index].stepA).toFixed(2)} × the first s peak's resonance, more than the second s peak's resonance carries (1/(1 + r) of it through the substrate junction)`));
+        const firstA = peaks[resonances.find((f) => f.sourceIndex === s[0])!.index].stepA;
+        again.evidence.reasons.push(...back.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / firstA).toFixed(2)} × the first s peak's resonance, more than the second s peak's resonance carries (1/(1 + r) of it through the substrate junction)`));
         return again;
       }
     }
