@@ -5,6 +5,7 @@
 import type { Peak } from "../peaks/findPeaks.ts";
 import type { Assignment } from "./assignSpectrum.ts";
 import { ladderLevels } from "./ladderLevels.ts";
+import { ladderPairs } from "./ladderPairs.ts";
 import { ladderResonances } from "./ladderResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
@@ -81,7 +82,8 @@ export function iterateResonances(
     const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
     if (!(ecV > 0)) break;
     const predicted = ladderResonances(peaks, { multiplets: current.multiplets, chargingEnergyV: ecV, eta });
-    const split = ladderLevels(peaks, predicted, { multiplets: current.multiplets, chargingEnergyV: ecV });
+    const inputs = { multiplets: current.multiplets, chargingEnergyV: ecV };
+    const split = ladderPairs(peaks, ladderLevels(peaks, predicted, inputs), inputs);
     const key = `${split.resonances.map((r) => r.index).sort((a, b) => a - b)}|${split.levels.map((l) => l.resonance.index).sort((a, b) => a - b)}|${split.flanks.map((f) => f.index).sort((a, b) => a - b)}`;
     const now = `${current.evidence.secondJunction.map((r) => r.index).sort((a, b) => a - b)}`;
     if (key === lastKey || (round === 0 && key === `${now}||`)) break;
