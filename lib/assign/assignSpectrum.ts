@@ -122,7 +122,8 @@ export interface Assignment {
  *    the VB reads as a charging doublet (`valenceFillingDoublet`, as in note 8).
  * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
  *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
- *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), and
+ *    CB level where the ladder expects a charging peak its shell lacks (`ladderLevels`), or two
+ *    such peaks one Ec apart, clear of the ladder, where a shell lacks two (`ladderPairs`), and
  *    steps 1–6 run again with exactly those resonances set aside until nothing changes
  *    (`iterateResonances`). Where p then opens with an odd sub-group at a VB peak's predicted
  *    resonance (`oddLeadingLevel`; a VB peak set aside as a CB level's resonance predicts too),

@@ -49,7 +49,9 @@ export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
  *    names as the flank of a kept (shared) peak's step is given a zero step, so that the noise
  *    rule sets it aside. The reasons of the levels and flanks go to the evidence, and that of a
  *    resonance passed over for a peak nearer on the ladder (`ladderLevels` notes 6 and 8) for as
- *    long as it stays a resonance.
+ *    long as it stays a resonance. Two peaks at predicted resonances one Ec apart that a short
+ *    shell needs both of are kept as a charging pair (`ladderPairs`), which `ladderLevels`,
+ *    judging one peak at a time against the ladder, leaves out.
  * 3. The ladder is assigned again with exactly those resonances set aside (a first guess from
  *    the plain −η·V/(1 − η) of every peak, which misplaces the resonances of higher levels by
  *    N·Ec/(1 − η), is replaced). Rounds repeat until the resonances and levels no longer change,
