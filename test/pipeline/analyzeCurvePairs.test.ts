@@ -43,3 +43,22 @@ describe("analyzeCurve(curve, { eta }): a p charging pair at two predicted reson
     expect(a.assignment.evidence.reasons.some((r) => r.includes("crowds a charging pair of p"))).toBe(true);
   }, 30_000);
 });
+
+// A round of the ladder's resonances whose kept levels include the VB band-edge level's resonance
+// between s and p (one Ec_V before p's first peak): the rules then read no regime from the first CB
+// peaks and the round, with the levels it rightly kept, was lost (iterateResonances note 4).
+describe("analyzeCurve(curve, { eta }): a kept level that leaves the rules unable to read shell filling is vetoed (low-η draws)", () => {
+  // Draw 2041: s 1.622, 1.893 V; the VB edge level's resonance at 2.230 V; p 2.543 … 4.104 V.
+  // Draw 1054: s 1.971, 2.285 V; the VB edge level's resonance at 2.606 V; p 2.857 … 4.425 V.
+  for (const start of [2041, 1054]) {
+    it(`reads p with its six charging peaks and leaves the resonance between s and p out (draw ${start})`, () => {
+      const { a, p, truth, tolV } = analyse(start);
+      const between = truth.secondJunctionPeaksV.find((v) => v > truth.sPeaksV[1] && v < truth.pPeaksV[0])!;
+      expect(between).toBeDefined();
+      expect(a.assignment.regime).toBe("shell-filling");
+      expect(p?.peaksV.length).toBe(6);
+      expectClose(p!.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
+      for (const m of a.assignment.multiplets) expect(m.peaksV.some((v) => Math.abs(v - between) < tolV), `${m.label} holds the resonance`).toBe(false);
+    }, 30_000);
+  }
+});
