@@ -128,9 +128,11 @@ export interface Assignment {
  * 8. Rounds from the ladder (η given, below 1): a shell-filling result predicts the resonance of
  *    every charging peak, η/(1 − η)·(|V| − N·Ec_V) (`ladderResonances`), keeps a peak there as a
  *    CB level where the ladder expects a charging peak its shell lacks, or as the VB's gap-edge
- *    level where that reads as one peak (spin puts two carriers on every level; `ladderLevels`), and
+ *    level where that reads as one peak (spin puts two carriers on every level; `ladderLevels`),
+ *    or two such peaks one Ec apart, clear of the ladder, where a shell lacks two (`ladderPairs`), and
  *    steps 1–6 run again with exactly those resonances set aside until nothing changes
- *    (`iterateResonances`). Where p then opens with an odd sub-group at a VB peak's predicted
+ *    (`iterateResonances`; a round the rules do not read as shell filling is saved by setting
+ *    aside again the first kept level that restores it). Where p then opens with an odd sub-group at a VB peak's predicted
  *    resonance (`oddLeadingLevel`; a VB peak set aside as a CB level's resonance predicts too),
  *    that peak is set aside if the rules still read shell filling with an even first sub-group. A result that is not shell filling is tried the same way from the
  *    shell-filling reading when its band-edge resonances carry at least

@@ -5,6 +5,7 @@
 import type { Peak } from "../peaks/findPeaks.ts";
 import type { Assignment } from "./assignSpectrum.ts";
 import { ladderLevels } from "./ladderLevels.ts";
+import { ladderPairs } from "./ladderPairs.ts";
 import { ladderResonances } from "./ladderResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
@@ -48,12 +49,20 @@ export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
  *    names as the flank of a kept (shared) peak's step is given a zero step, so that the noise
  *    rule sets it aside. The reasons of the levels and flanks go to the evidence, and that of a
  *    resonance passed over for a peak nearer on the ladder (`ladderLevels` notes 6 and 8) for as
- *    long as it stays a resonance.
+ *    long as it stays a resonance. Two peaks at predicted resonances one Ec apart that a short
+ *    shell needs both of are kept as a charging pair (`ladderPairs`), which `ladderLevels`,
+ *    judging one peak at a time against the ladder, leaves out.
  * 3. The ladder is assigned again with exactly those resonances set aside (a first guess from
  *    the plain −η·V/(1 − η) of every peak, which misplaces the resonances of higher levels by
  *    N·Ec/(1 − η), is replaced). Rounds repeat until the resonances and levels no longer change,
  *    at most four; a round whose assignment is not shell filling ends them and the previous
- *    round's stands.
+ *    round's stands, unless note 4 saves it.
+ * 4. A round whose assignment is not shell filling is tried again with each of its kept levels,
+ *    in ladder order, set aside once more; the first that gives shell filling is vetoed: it stays a
+ *    resonance for the remaining rounds (not judged again) and that assignment is the round's. The
+ *    rules read the regime from the first CB peaks, so a resonance kept as a level where a shell
+ *    opens (the band-edge level's resonance between s and p, one Ec before p's first peak) can
+ *    leave them unable to read it, and the whole round, with the levels it rightly kept, was lost.
  *
  * References
  * ----------
@@ -76,12 +85,18 @@ export function iterateResonances(
   let current = base;
   let lastKey = "";
   const passed = new Map<number, string>();
+  const vetoed = new Set<number>();
+  const vetoReasons = new Map<number, string>();
   for (let round = 0; round < ITERATE_RESONANCES_DEFAULTS.maxRounds; round++) {
     if (current.regime !== "shell-filling" || current.quantities.chargingEnergyV === null) break;
     const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
     if (!(ecV > 0)) break;
-    const predicted = ladderResonances(peaks, { multiplets: current.multiplets, chargingEnergyV: ecV, eta });
-    const split = ladderLevels(peaks, predicted, { multiplets: current.multiplets, chargingEnergyV: ecV });
+    const all = ladderResonances(peaks, { multiplets: current.multiplets, chargingEnergyV: ecV, eta });
+    // A level vetoed in an earlier round (note 4) stays a resonance and is not judged again.
+    const predicted = all.filter((r) => !vetoed.has(r.index));
+    const inputs = { multiplets: current.multiplets, chargingEnergyV: ecV };
+    const judged = ladderPairs(peaks, ladderLevels(peaks, predicted, inputs), inputs);
+    const split = { ...judged, resonances: [...judged.resonances, ...all.filter((r) => vetoed.has(r.index))] };
     const key = `${split.resonances.map((r) => r.index).sort((a, b) => a - b)}|${split.levels.map((l) => l.resonance.index).sort((a, b) => a - b)}|${split.flanks.map((f) => f.index).sort((a, b) => a - b)}`;
     const now = `${current.evidence.secondJunction.map((r) => r.index).sort((a, b) => a - b)}`;
     if (key === lastKey || (round === 0 && key === `${now}||`)) break;
@@ -92,11 +107,19 @@ export function iterateResonances(
     // A resonance passed over for a peak on the ladder keeps its reason while it stays a resonance.
     for (const o of split.passedOver) passed.set(o.resonance.index, o.reason);
     const stillPassed = split.resonances.filter((r) => passed.has(r.index)).map((r) => passed.get(r.index)!);
-    const next = assign(adjusted, split.resonances);
-    if (next.regime !== "shell-filling") break;
+    let next = assign(adjusted, split.resonances);
+    if (next.regime !== "shell-filling") {
+      // Note 4: the first kept level whose return to the resonances gives shell filling is vetoed.
+      const veto = split.levels.map((l) => ({ l, a: assign(adjusted, [...split.resonances, l.resonance]) })).find(({ a }) => a.regime === "shell-filling");
+      if (!veto) break;
+      vetoed.add(veto.l.resonance.index);
+      split.levels = split.levels.filter((l) => l !== veto.l);
+      next = veto.a;
+      vetoReasons.set(veto.l.resonance.index, `peak at ${peaks[veto.l.resonance.index].biasV.toFixed(3)} V left a resonance (expected at ${veto.l.resonance.predictedV.toFixed(3)} V): kept as a charging peak of ${veto.l.label}, it left the rules unable to read shell filling`);
+    }
     // The earlier stages' conclusions stand (per-peak notes are redone by the new assignment).
     const earlier = earlierReasons(base, next);
-    next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason), ...stillPassed, ...split.flanks.map((f) => f.reason));
+    next.evidence.reasons.unshift(...earlier, ...split.levels.map((l) => l.reason), ...stillPassed, ...vetoReasons.values(), ...split.flanks.map((f) => f.reason));
     current = next;
   }
   return current;

@@ -99,6 +99,37 @@ describe("assignSpectrum at low η: a resonance on the s doublet's second peak, 
   });
 });
 
+// Note 4: a round that keeps the VB edge level's resonance as p's first peak, where it lies 1.2
+// Ec_V after s (the rules ask the jump after the s doublet to be at least 1.25 × its spacing), reads
+// no regime; the round is saved by setting that peak aside again. Same closed forms and steps as
+// above (η = 0.6, Ec = 0.12 eV, Ec_V = 0.2 V); levels chosen so that p1 lies 2.2 Ec_V after s2 (p
+// whole, 6 states), v1's resonance one Ec_V before p1 and v2's first resonance on p6. The list holds
+// the tip-side peaks and these two resonances (the others left out: a constructed list).
+describe("assignSpectrum at low η: a kept level that leaves the rules unable to read shell filling", () => {
+  const epsP = (sTip[1] + 2.2 * 0.2) * eta - ecEV * 2.5; // p1 = s2 + 2.2 Ec_V
+  const pLadder = [0, 1, 2, 3, 4, 5].map((j) => tip(epsP, 2 + j));
+  const epsV1 = (pLadder[0] - 0.2) * (1 - eta) - ecEV / 2; // its resonance one Ec_V before p1
+  const epsV2 = pLadder[5] * (1 - eta) - ecEV / 2; // its first resonance on p6
+  const list: [number, number][] = [
+    ...sTip.map((v): [number, number] => [v, 1]),
+    [sub(epsV1, 0), 1.8],
+    ...pLadder.map((v, j): [number, number] => [v, j === 5 ? 2.8 : 1]),
+    ...[0, 1].map((j): [number, number] => [-tip(epsV1, j), 1]),
+    ...[2, 3, 4, 5].map((n): [number, number] => [-tip(epsV2, n), 1]),
+  ];
+  const peaks: Peak[] = list
+    .sort((a, b) => a[0] - b[0])
+    .map(([biasV, s], index) => ({ biasV, biasUncertaintyV: 0.002, index, heightS: 1e-9, prominenceS: 1e-9, fwhmV: 0.04, stepA: s * 1e-12, snr: 20, stepSignificance: 30 }));
+
+  it("sets v1's resonance aside again and keeps p6 under v2's resonance: p whole at its closed form", () => {
+    const a = assignSpectrum(peaks, { eta });
+    expect(a.regime).toBe("shell-filling");
+    expectClose(a.multiplets.find((m) => m.label === "p")!.peaksV, pLadder, { rtol: 1e-12, what: "p, closed form" });
+    expect(a.evidence.secondJunction.map((r) => peaks[r.index].biasV)).toContain(sub(epsV1, 0));
+    expect(a.evidence.reasons.some((r) => r.includes("left the rules unable to read shell filling"))).toBe(true);
+  });
+});
+
 describe("ITERATE_RESONANCES_DEFAULTS", () => {
   it("are locked (common practice, no source: a few rounds; a round that changes nothing ends them)", () => {
     expect(ITERATE_RESONANCES_DEFAULTS).toEqual({ maxRounds: 4 });
