@@ -110,7 +110,14 @@ export function iterateResonances(
     let next = assign(adjusted, split.resonances);
     if (next.regime !== "shell-filling") {
       // Note 4: the first kept level whose return to the resonances gives shell filling is vetoed.
-      const veto = split.levels.map((l) => ({ l, a: assign(adjusted, [...split.resonances, l.resonance]) })).find(({ a }) => a.regime === "shell-filling");
+      let veto: { l: (typeof split.levels)[number]; a: Assignment } | undefined;
+      for (const l of split.levels) {
+        const a = assign(adjusted, [...split.resonances, l.resonance]);
+        if (a.regime === "shell-filling") {
+          veto = { l, a };
+          break;
+        }
+      }
       if (!veto) break;
       vetoed.add(veto.l.resonance.index);
       split.levels = split.levels.filter((l) => l !== veto.l);
