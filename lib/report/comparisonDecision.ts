@@ -31,8 +31,9 @@ export interface ComparisonDecisionOptions {
   sameAnswerEcFraction?: number;
   /**
    * … or whose Γtip/Γsub lies within this many of the fit's standard errors of its Γtip/Γsub
-   * (r·exp(± k·SE/r)), in whatever regime: two fits of the same grouping that a regime boundary
-   * separates by less than their error give the same answer. Default 2.
+   * (r·exp(± k·SE/r)), or of the winning grouping's own run's, in whatever regime: two fits of
+   * the same grouping that a regime boundary separates by less than their error give the same
+   * answer. Default 2.
    */
   sameAnswerRateSigmas?: number;
 }
@@ -97,7 +98,11 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  *    runs' values come from the points the groupings were compared on, which may be the CB side
  *    alone while the fit reports its whole curve's; the same model reached from several starts splits its weight between them,
  *    and a regime boundary between two of them that lies within the fit's error of Γtip/Γsub
- *    does not make their answers differ) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
+ *    does not make their answers differ; nor does one between the fit's Γtip/Γsub and that of
+ *    the winning grouping's own run: the runs within `sameAnswerRateSigmas` of the fit's relative
+ *    error of that run's Γtip/Γsub, its Ec within `sameAnswerEcFraction`, are the same model
+ *    reached from other starts, on the same points, even where the whole curve moved the fit
+ *    across a regime boundary from them) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
  *    normalised): at 0.9, ΔBIC ≈ 4.4 over one rival answer, positive evidence on the scale of
  *    Kass & Raftery; a close contest leaves the rules' reading.
  * 3. Where the rules named a regime and the fit names another, Γtip/Γsub must stay inside the
@@ -149,7 +154,10 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   const own = m.alternatives.filter((a) => a.hypothesis === m.hypothesis && a.weight > 0).reduce<(typeof m.alternatives)[number] | null>((x, a) => (!x || a.weight > x.weight ? a : x), null);
   const winnerEc = own?.chargingEnergyEV ?? fitEc ?? NaN;
   const rate = m.rateRatio;
-  const nearRate = (x: number) => rate !== null && rate !== undefined && rate.value > 0 && x > 0 && Math.abs(Math.log(x / rate.value)) <= (sameRate * rate.standardError) / rate.value;
+  // Near the fit's Γtip/Γsub, or the winning grouping's own run's (the same run from another
+  // start, on the same points as it, whatever regime the whole curve then moved the fit into).
+  const near = (x: number, ref: number) => rate !== null && rate !== undefined && rate.value > 0 && ref > 0 && x > 0 && Math.abs(Math.log(x / ref)) <= (sameRate * rate.standardError) / rate.value;
+  const nearRate = (x: number) => near(x, rate?.value ?? NaN) || (own !== null && near(x, own.rateRatio));
   const sameAnswer = m.alternatives.filter((a) => a === own || ((regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc));
   const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
   if (weight < minWeight) {
