@@ -109,7 +109,13 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  *    fit's regime over ± `rateRatioSigmas` standard errors (r·exp(± k·SE/r) against the
  *    boundaries 3/7 and 1.5 of `REGIME_LIMITS`): a fit near a boundary does not overturn a
  *    definite reading.
- * 4. When all hold, the fit decides: where the rules were undetermined it gives the answer; where
+ * 4. Where the fit reads the rules' regime but leaves a quantity undetermined (a non-finite
+ *    error: a level whose steps all lie beyond the points it was fitted to, as p on a CB side
+ *    that ends after the s doublet at low η), the rules' reading stands: the fit cannot replace
+ *    the levels it does not see (low-η mix with the comparison, seed 1: spectra 48 and 192, shell
+ *    filling, would take Δsp from such a p level, 40–280 % off). It still answers where the rules
+ *    left the regime undetermined or read another regime, on Ec and Γtip/Γsub, which it determines.
+ * 5. When all hold, the fit decides: where the rules were undetermined it gives the answer; where
  *    they agree it confirms them with its grouping (a shell the rules read short of its
  *    degeneracy is fitted whole); where they disagree it overrides them.
  *
@@ -146,6 +152,12 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   const agreesWithRules = sameRegime && ecAgrees;
   const what = agreesWithRules ? "agrees with the rules" : sameRegime ? `agrees on the regime but not on Ec (${(fitEc! * 1e3).toFixed(1)} against ${(rules.chargingEnergyEV! * 1e3).toFixed(1)} meV)` : `reads ${m.regime} where the rules read ${rules.regime}`;
   if (m.status !== "good") return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but its status is ${m.status}` };
+  // A fit that leaves a quantity undetermined (a level whose steps lie beyond the points it was
+  // fitted to) cannot replace the rules' reading of the same regime, which places every level.
+  const undetermined = (Object.entries(m.quantities) as [string, { standardError: number } | null][]).filter(([, q]) => q !== null && !Number.isFinite(q.standardError)).map(([name]) => name);
+  if (sameRegime && undetermined.length) {
+    return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but leaves ${undetermined.join(", ")} undetermined (a level beyond the points it was fitted to), which the rules' reading places` };
+  }
   // The weight of the fit's answer: every grouping that gives the same regime and Ec (the same
   // model reached from several starts splits the weight between them).
   // The weights are those of the compared runs, on the points they were compared on (the CB side

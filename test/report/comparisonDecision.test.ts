@@ -118,6 +118,18 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     expect(rival.decision).toContain("carry 0.50 of the BIC weight");
   });
 
+  it("keeps the rules' reading of the same regime when the fit leaves a quantity undetermined (Δsp with a NaN error), and still answers where the rules are undetermined", () => {
+    // The documented rule (step 4): a level beyond the points fitted is not determined; the rules place it.
+    const blind = { quantities: { gapEV: null, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.6, standardError: NaN } } } as Partial<ModelComparisonJson>;
+    const runs = [alt("assigned", 3, 0.1, 1)];
+    const same = comparisonDecision(comparison(runs, blind), { regime: "shell-filling", chargingEnergyEV: 0.1 });
+    expect(same).toMatchObject({ decides: false, agreesWithRules: true });
+    expect(same.decision).toContain("leaves levelSpacingSPEV undetermined");
+    expect(comparisonDecision(comparison(runs, blind), { regime: "undetermined", chargingEnergyEV: null }).decides).toBe(true);
+    // Every quantity determined: the same fit confirms the rules.
+    expect(comparisonDecision(comparison(runs), { regime: "shell-filling", chargingEnergyEV: 0.1 }).decides).toBe(true);
+  });
+
   it("keeps the rules' answer when the fit is poor or failed, or its regime undetermined", () => {
     const alts = [alt("a", 3, 0.1, 1)];
     expect(comparisonDecision(comparison(alts, { status: "poor" }), { regime: "shell-filling", chargingEnergyEV: 0.1 })).toMatchObject({ decides: false, agreesWithRules: true });
