@@ -31,8 +31,9 @@ export interface ComparisonDecisionOptions {
   sameAnswerEcFraction?: number;
   /**
    * … or whose Γtip/Γsub lies within this many of the fit's standard errors of its Γtip/Γsub
-   * (r·exp(± k·SE/r)), in whatever regime: two fits of the same grouping that a regime boundary
-   * separates by less than their error give the same answer. Default 2.
+   * (r·exp(± k·SE/r)), or of the winning grouping's own run's, in whatever regime: two fits of
+   * the same grouping that a regime boundary separates by less than their error give the same
+   * answer. Default 2.
    */
   sameAnswerRateSigmas?: number;
 }
@@ -97,14 +98,24 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  *    runs' values come from the points the groupings were compared on, which may be the CB side
  *    alone while the fit reports its whole curve's; the same model reached from several starts splits its weight between them,
  *    and a regime boundary between two of them that lies within the fit's error of Γtip/Γsub
- *    does not make their answers differ) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
+ *    does not make their answers differ; nor does one between the fit's Γtip/Γsub and that of
+ *    the winning grouping's own run: the runs within `sameAnswerRateSigmas` of the fit's relative
+ *    error of that run's Γtip/Γsub, its Ec within `sameAnswerEcFraction`, are the same model
+ *    reached from other starts, on the same points, even where the whole curve moved the fit
+ *    across a regime boundary from them) carry at least `minWeight` of the BIC weight (exp(−ΔBIC/2),
  *    normalised): at 0.9, ΔBIC ≈ 4.4 over one rival answer, positive evidence on the scale of
  *    Kass & Raftery; a close contest leaves the rules' reading.
  * 3. Where the rules named a regime and the fit names another, Γtip/Γsub must stay inside the
  *    fit's regime over ± `rateRatioSigmas` standard errors (r·exp(± k·SE/r) against the
  *    boundaries 3/7 and 1.5 of `REGIME_LIMITS`): a fit near a boundary does not overturn a
  *    definite reading.
- * 4. When all hold, the fit decides: where the rules were undetermined it gives the answer; where
+ * 4. Where the fit reads the rules' regime but leaves a quantity undetermined (a non-finite
+ *    error: a level whose steps all lie beyond the points it was fitted to, as p on a CB side
+ *    that ends after the s doublet at low η), the rules' reading stands: the fit cannot replace
+ *    the levels it does not see (low-η mix with the comparison, seed 1: spectra 48 and 192, shell
+ *    filling, would take Δsp from such a p level, 40–280 % off). It still answers where the rules
+ *    left the regime undetermined or read another regime, on Ec and Γtip/Γsub, which it determines.
+ * 5. When all hold, the fit decides: where the rules were undetermined it gives the answer; where
  *    they agree it confirms them with its grouping (a shell the rules read short of its
  *    degeneracy is fitted whole); where they disagree it overrides them.
  *
@@ -141,6 +152,12 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   const agreesWithRules = sameRegime && ecAgrees;
   const what = agreesWithRules ? "agrees with the rules" : sameRegime ? `agrees on the regime but not on Ec (${(fitEc! * 1e3).toFixed(1)} against ${(rules.chargingEnergyEV! * 1e3).toFixed(1)} meV)` : `reads ${m.regime} where the rules read ${rules.regime}`;
   if (m.status !== "good") return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but its status is ${m.status}` };
+  // A fit that leaves a quantity undetermined (a level whose steps lie beyond the points it was
+  // fitted to) cannot replace the rules' reading of the same regime, which places every level.
+  const undetermined = (Object.entries(m.quantities) as [string, { standardError: number } | null][]).filter(([, q]) => q !== null && !Number.isFinite(q.standardError)).map(([name]) => name);
+  if (sameRegime && undetermined.length) {
+    return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but leaves ${undetermined.join(", ")} undetermined (a level beyond the points it was fitted to), which the rules' reading places` };
+  }
   // The weight of the fit's answer: every grouping that gives the same regime and Ec (the same
   // model reached from several starts splits the weight between them).
   // The weights are those of the compared runs, on the points they were compared on (the CB side
@@ -149,7 +166,10 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   const own = m.alternatives.filter((a) => a.hypothesis === m.hypothesis && a.weight > 0).reduce<(typeof m.alternatives)[number] | null>((x, a) => (!x || a.weight > x.weight ? a : x), null);
   const winnerEc = own?.chargingEnergyEV ?? fitEc ?? NaN;
   const rate = m.rateRatio;
-  const nearRate = (x: number) => rate !== null && rate !== undefined && rate.value > 0 && x > 0 && Math.abs(Math.log(x / rate.value)) <= (sameRate * rate.standardError) / rate.value;
+  // Near the fit's Γtip/Γsub, or the winning grouping's own run's (the same run from another
+  // start, on the same points as it, whatever regime the whole curve then moved the fit into).
+  const near = (x: number, ref: number) => rate !== null && rate !== undefined && rate.value > 0 && ref > 0 && x > 0 && Math.abs(Math.log(x / ref)) <= (sameRate * rate.standardError) / rate.value;
+  const nearRate = (x: number) => near(x, rate?.value ?? NaN) || (own !== null && near(x, own.rateRatio));
   const sameAnswer = m.alternatives.filter((a) => a === own || ((regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc));
   const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
   if (weight < minWeight) {

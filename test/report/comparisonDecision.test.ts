@@ -75,10 +75,10 @@ describe("comparisonDecision(comparison, rules, options)", () => {
   });
 
   it("counts runs whose Γtip/Γsub lies across a regime boundary within 2 of the fit's standard errors as the same answer: 1.497 against 1.51 ± 0.014 yes, ± 0.004 no", () => {
-    // The fit reads shell filling at 1.51 (≥ 1.5); three runs of the same grouping ended at 1.497
+    // The fit reads shell filling at 1.51 (≥ 1.5), its own run too; two runs of the same grouping ended at 1.497
     // (intermediate by the boundary), the same Ec. |ln(1.497/1.51)| = 0.0086 (closed form) against
     // 2 × 0.014/1.51 = 0.0185 (inside) and 2 × 0.004/1.51 = 0.0053 (outside).
-    const runs = [alt("a", 1.497, 0.077, 1 / 3), alt("b", 1.497, 0.077, 1 / 3), alt("c", 1.497, 0.077, 1 / 3)];
+    const runs = [alt("a", 1.51, 0.077, 1 / 3), alt("b", 1.497, 0.077, 1 / 3), alt("c", 1.497, 0.077, 1 / 3)];
     const undetermined = { regime: "undetermined", chargingEnergyEV: null };
     const near = { regime: "shell-filling", rateRatio: { value: 1.51, standardError: 0.014 }, quantities: { gapEV: null, chargingEnergyEV: { value: 0.077, standardError: 0.001 }, levelSpacingSPEV: null } } as Partial<ModelComparisonJson>;
     expect(comparisonDecision(comparison(runs, near), undetermined)).toMatchObject({ decides: true });
@@ -101,6 +101,33 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     // Without a weighted run of the winning grouping the others are compared with the reported Ec (none within 3 %).
     const none = comparisonDecision(comparison(runs, { ...whole, hypothesis: "not among the runs" }), { regime: "undetermined", chargingEnergyEV: null });
     expect(none.decision).toContain("carry 0.00 of the BIC weight");
+  });
+
+  it("counts the runs at the winning grouping's own run's Γtip/Γsub where the whole curve moved the fit across a regime boundary from it", () => {
+    // The CB side's winner ended at Γtip/Γsub 2.157 (shell filling by the boundary 1.5), Ec 179.5
+    // meV, and the same grouping from a start × 0.32 at the same values: one model, weight 1/2 each
+    // (closed form: equal BIC). The whole curve moved the fit to 1.447 ± 0.011 (intermediate).
+    // |ln(2.157/2.157)| = 0 ≤ 2 × 0.011/1.447 (closed form): the same answer, 0.5 + 0.5.
+    const runs = [alt("winner", 2.157, 0.1795, 0.5), alt("winner, refined (Γtip/Γsub × 0.32)", 2.1572, 0.1795, 0.5)];
+    const whole = { regime: "intermediate", hypothesis: "winner", rateRatio: { value: 1.447, standardError: 0.011 }, quantities: { gapEV: null, chargingEnergyEV: { value: 0.1695, standardError: 0.0003 }, levelSpacingSPEV: null } } as Partial<ModelComparisonJson>;
+    const d = comparisonDecision(comparison(runs, whole), { regime: "undetermined", chargingEnergyEV: null });
+    expect(d.decides).toBe(true);
+    expect(d.decision).toContain("carry 1.00 of the BIC weight");
+    // A rival grouping at another Γtip/Γsub (|ln(2.6/2.157)| = 0.187 > 0.0152) with the same weight does not count.
+    const rival = comparisonDecision(comparison([runs[0], alt("rival", 2.6, 0.1795, 0.5)], whole), { regime: "undetermined", chargingEnergyEV: null });
+    expect(rival.decision).toContain("carry 0.50 of the BIC weight");
+  });
+
+  it("keeps the rules' reading of the same regime when the fit leaves a quantity undetermined (Δsp with a NaN error), and still answers where the rules are undetermined", () => {
+    // The documented rule (step 4): a level beyond the points fitted is not determined; the rules place it.
+    const blind = { quantities: { gapEV: null, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.6, standardError: NaN } } } as Partial<ModelComparisonJson>;
+    const runs = [alt("assigned", 3, 0.1, 1)];
+    const same = comparisonDecision(comparison(runs, blind), { regime: "shell-filling", chargingEnergyEV: 0.1 });
+    expect(same).toMatchObject({ decides: false, agreesWithRules: true });
+    expect(same.decision).toContain("leaves levelSpacingSPEV undetermined");
+    expect(comparisonDecision(comparison(runs, blind), { regime: "undetermined", chargingEnergyEV: null }).decides).toBe(true);
+    // Every quantity determined: the same fit confirms the rules.
+    expect(comparisonDecision(comparison(runs), { regime: "shell-filling", chargingEnergyEV: 0.1 }).decides).toBe(true);
   });
 
   it("keeps the rules' answer when the fit is poor or failed, or its regime undetermined", () => {

@@ -121,7 +121,9 @@ export interface FitOptions {
  *    warning says so and the status is at best poor).
  * 4. Standard errors ({@link standardErrors}) from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
- *    reduced χ² when the model does not reach the noise).
+ *    reduced χ² when the model does not reach the noise); a parameter that does not move the
+ *    model on the points fitted (p beyond a CB side that ends after the s doublet) is reported
+ *    undetermined (NaN) alone, the others' errors from the rest of JᵀJ.
  * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
  *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
  *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), structured

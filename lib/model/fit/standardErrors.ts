@@ -18,13 +18,14 @@ import { mlMatrix } from "./mlMatrix.ts";
  * reducedChiSquare : number
  *     χ² per degree of freedom at the optimum.
  * warnings : string[]
- *     Receives a warning when JᵀJ is singular.
+ *     Receives a warning when JᵀJ is singular (or a parameter does not move the model).
  *
  * Returns
  * -------
  * number[]
- *     One standard error per parameter, in its unit; NaN where the variance is not positive, all
- *     NaN when JᵀJ is singular.
+ *     One standard error per parameter, in its unit; NaN where the variance is not positive or
+ *     the parameter does not move the model (a zero column of J), all NaN when JᵀJ is singular
+ *     otherwise.
  *
  * Throws
  * ------
@@ -33,8 +34,13 @@ import { mlMatrix } from "./mlMatrix.ts";
  * Notes
  * -----
  * 1. J column k = (model(q + h_k·e_k) − model(q − h_k·e_k))/(2h_k).
- * 2. JᵀJ scaled to unit diagonal, inverted (ml-matrix), unscaled.
- * 3. SE_k = √((JᵀJ)⁻¹_kk · max(1, χ²_red)) (common practice: scale by the reduced χ² when the
+ * 2. A parameter whose column of J is zero (the model does not move with it: a level whose steps
+ *    all lie beyond the points fitted, as p on a CB side that ends after the s doublet) is not
+ *    determined (NaN, and a warning). Its row and column of JᵀJ are zero, so JᵀJ is block
+ *    diagonal and the covariance of the others is the inverse of the rest of JᵀJ (closed form):
+ *    one such parameter no longer leaves every error undetermined.
+ * 3. The rest of JᵀJ scaled to unit diagonal, inverted (ml-matrix), unscaled.
+ * 4. SE_k = √((JᵀJ)⁻¹_kk · max(1, χ²_red)) (common practice: scale by the reduced χ² when the
  *    model does not reach the noise).
  *
  * References
@@ -69,17 +75,25 @@ export function standardErrors(model: (q: number[]) => Float64Array, q: number[]
     jtj.set(a, b, s);
     jtj.set(b, a, s);
   }
-  const d = Array.from({ length: m }, (_, a) => Math.sqrt(jtj.get(a, a)) || 1);
-  for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) jtj.set(a, b, jtj.get(a, b) / (d[a] * d[b]));
+  // A parameter that does not move the model at all (a zero column, e.g. a level whose steps lie
+  // beyond the points) is not determined; the others' covariance is the inverse of the rest of JᵀJ.
+  const kept = Array.from({ length: m }, (_, a) => a).filter((a) => jtj.get(a, a) > 0);
+  const sub = Matrix.zeros(kept.length, kept.length);
+  const d = kept.map((a) => Math.sqrt(jtj.get(a, a)));
+  kept.forEach((a, i) => kept.forEach((b, j) => sub.set(i, j, jtj.get(a, b) / (d[i] * d[j]))));
+  const singular = "the Jacobian at the optimum is singular: some parameters are not determined by this curve (standard errors NaN)";
+  const se = new Array<number>(m).fill(NaN);
   try {
-    const inv = inverse(jtj);
+    const inv = inverse(sub);
     const factor = Math.max(1, reducedChiSquare);
-    return d.map((da, a) => {
-      const v = inv.get(a, a) / (da * da);
-      return v > 0 ? Math.sqrt(v * factor) : NaN;
+    kept.forEach((a, i) => {
+      const v = inv.get(i, i) / (d[i] * d[i]);
+      se[a] = v > 0 ? Math.sqrt(v * factor) : NaN;
     });
   } catch {
-    warnings.push("the Jacobian at the optimum is singular: some parameters are not determined by this curve (standard errors NaN)");
-    return new Array(m).fill(NaN);
+    warnings.push(singular);
+    return se;
   }
+  if (kept.length < m) warnings.push(`${singular.replace(" (standard errors NaN)", "")}: ${m - kept.length} of them do not move the model at all (standard errors NaN), the others' errors are those of the rest`);
+  return se;
 }

@@ -25,10 +25,21 @@ describe("standardErrors(model, q, steps, reducedChiSquare, warnings)", () => {
     expectClose(standardErrors(line, [1, 2], [1e-3, 1e-3], 0.25, []), base, { rtol: 1e-12 });
   });
 
-  it("returns NaN and a warning when a parameter does not change the model (singular JᵀJ)", () => {
+  it("gives NaN to a parameter that does not change the model (a zero column of J) and the closed form to the others, with a warning", () => {
+    // Closed form: a zero column decouples from the rest of JᵀJ, so the line's errors are those
+    // of the line alone (Numerical Recipes §15.2).
     const warnings: string[] = [];
     const se = standardErrors((q) => line(q).map((v) => v + 0 * q[2]), [1, 2, 3], [1e-3, 1e-3, 1e-3], 1, warnings);
-    expect(se.some((s) => Number.isNaN(s))).toBe(true);
-    expect(warnings.join(" ")).toMatch(/singular|not determined/);
+    expect(Number.isNaN(se[2])).toBe(true);
+    expectClose(se.slice(0, 2), [Math.sqrt(sx2 / (n * sxx)), 1 / Math.sqrt(sxx)], { rtol: 1e-9 });
+    expect(warnings.join(" ")).toMatch(/not determined.*1 of them/);
+  });
+
+  it("returns NaN for every parameter when two columns are the same (singular JᵀJ with no zero column)", () => {
+    // Closed form: a + b·x + c·x has JᵀJ of rank 2; b and c are not separately determined.
+    const warnings: string[] = [];
+    const se = standardErrors((q) => Float64Array.from(x, (v) => q[0] + (q[1] + q[2]) * v), [1, 2, 3], [1e-3, 1e-3, 1e-3], 1, warnings);
+    expect(se.every((s) => Number.isNaN(s))).toBe(true);
+    expect(warnings.join(" ")).toMatch(/singular/);
   });
 });
