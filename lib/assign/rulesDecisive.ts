@@ -166,7 +166,9 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * 4. Shell tunnelling with at least three CB peaks (levels and charging satellites) whose
  *    successive spacings are all alike (each within `ladderTolerance` of their mean, or within
  *    `ladderSigmas` combined errors): an even ladder that a charging multiplet explains as well as
- *    a series of levels (Δsp ≈ Ec).
+ *    a series of levels (Δsp ≈ Ec). Likewise at least four CB levels after s: near Γtip/Γsub
+ *    = 0.3–0.4 a whole p level's charging peaks read as sub-levels and a d level while s's
+ *    satellite, r/(1 + r) ≈ 0.25 of s, is not found (three alike remain a split p).
  * 5. Shell tunnelling with Ec measured from a charging satellite and Δsp within `ladderTolerance`
  *    × Ec of it: the satellite of s coincides with p.
  * 6. Shell tunnelling with a CB level split into sub-levels spaced within `ladderTolerance` × Ec
@@ -350,12 +352,17 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
   }
   if (a.regime === "shell-tunneling") {
     // 4. An even ladder of CB peaks.
+    // The CB's levels and satellites (the set-aside peaks include the VB's).
     const indices = [...new Set([...cbIndices, ...a.evidence.satellitePeakIndices])];
-    const cbPeaks = indices.map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV);
+    const cbPeaks = indices.map((i) => peaks[i]).filter((p) => p.biasV > 0).sort((x, y) => x.biasV - y.biasV);
     const even = evenLadder(cbPeaks, tolerance, sigmas);
-    if (even) {
+    // … or the levels after s, at least four: the charging ladder of a p level, s's satellite unseen.
+    const afterS = cbIndices.map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV).slice(1);
+    const evenAfterS = even || afterS.length < 4 ? null : evenLadder(afterS, tolerance, sigmas);
+    if (even || evenAfterS) {
+      const [run, spacings] = even ? [cbPeaks, even] : [afterS, evenAfterS!];
       add("even-ladder", 
-        `shell tunnelling read from ${cbPeaks.length} CB peaks whose ${even.length} spacings are alike (${even.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
+        `shell tunnelling read from ${run.length} CB peaks${even ? "" : " after s"} whose ${spacings.length} spacings are alike (${spacings.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
       );
     }
     // 10. A split shell whose sub-levels, with the satellites after them, form an even ladder.

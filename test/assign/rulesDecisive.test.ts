@@ -168,6 +168,19 @@ describe("rulesDecisive(input, options)", () => {
     expect(none.result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
 
+  it("flags shell tunnelling whose levels after s form an even ladder of four (a p level's charging peaks, s's satellite unseen), and not three", () => {
+    // p's charging ladder at (ε_p + Ec(n + ½))/η = 1.1, 1.2, 1.3, 1.4 V (closed form as above),
+    // every step alike the s step, no satellite: the rules read single levels.
+    const ladder = [1.1, 1.2, 1.3, 1.4];
+    const four = verdict([peak(0.75), ...ladder.map((v) => peak(v))], 2);
+    expect(four.assignment.regime).toBe("shell-tunneling");
+    expect(four.result.decisive).toBe(false);
+    expect(four.result.codes).toContain("even-ladder");
+    expect(four.result.reasons.find((r) => r.startsWith("shell tunnelling read from 4 CB peaks after s"))).toContain("(100, 100, 100 mV");
+    // Three after s (as in the case above without a satellite): the reading stands.
+    expect(verdict([peak(0.75), ...ladder.slice(0, 3).map((v) => peak(v))], 2).result.codes).not.toContain("even-ladder");
+  });
+
   it("flags shell tunnelling with a broad peak set aside as a satellite (FWHM 5 × the others'), and not a narrow one", () => {
     // s at 0.75 V, its charging satellite one Ec/η = 0.1 V after it, p at 1.1 V with 3 × the s
     // step (p holds 6 electrons, s 2); the satellite's step 0.25 × s (r/(1 + r) for r = 1/3).
