@@ -104,4 +104,16 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   fillingResonanceStepMin: substrateToTipStepRatio(2, 2 * REGIME_LIMITS.fillingRateRatioMin),
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
+  /**
+   * Regime, an extra second CB peak (`extraCbPeak`): a VB peak one CB pair's spacing beyond the
+   * VB edge peak stepping below this multiple of it is the edge level's second charging peak
+   * (r/(1 + r) < 1 of its first for every rate ratio r), so the CB pair is s's charging doublet.
+   */
+  valenceTwinStepRatioMax: 1,
+  /**
+   * Regime, an extra second CB peak: a split p read as the shell its first sub-level opens carries
+   * at most this multiple of the s step (a level of g states after s steps g/(2(1 + (2 + g)r)) × s,
+   * below g/2 = 3 for p's six states at every rate ratio r).
+   */
+  splitShellStepRatioMax: 3,
 });

@@ -38,7 +38,7 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   const vb = vbSplit.main;
 
   // 3. Regime.
-  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb, vbNoise.main), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
   const gain = eta < 1 ? eta / (1 - eta) : 0;
   for (const r of resonances) {
     const at = peaks[r.index].biasV.toFixed(3), source = peaks[r.sourceIndex].biasV;

@@ -148,6 +148,8 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       levelChargingTolerance: 0.15,
       fillingResonanceStepMin: 1.4,
       valenceChargingTolerance: 0.3,
+      valenceTwinStepRatioMax: 1,
+      splitShellStepRatioMax: 3,
     });
   });
 });

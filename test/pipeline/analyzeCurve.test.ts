@@ -235,6 +235,22 @@ describe("analyzeCurve(curve, { eta }): an unpredicted resonance between s and p
   }
 });
 
+// The same unpredicted resonance before a split p whose first sub-level alone steps less than
+// 1.4 × s: p read as the shell that sub-level opens (draws 1004, 1030 and 1199; in 1004 and 1199 s
+// lies under the VB edge level's predicted resonance and goes back to the ladder as a level).
+describe("analyzeCurve(curve, { eta }): an unpredicted resonance before a split p in shell tunnelling (low-η draws)", () => {
+  for (const start of [1004, 1030, 1199]) {
+    it(`reads shell tunnelling with s and p at their levels, the resonance in neither (draw ${start})`, () => {
+      const { a, truth, tolV } = tunnelingAtLowEta(start);
+      expect(truth.pPeaksV.length).toBeGreaterThan(1);
+      const k = a.peaks.findIndex((q) => truth.secondJunctionPeaksV.some((v) => Math.abs(q.biasV - v) < tolV) && q.biasV > truth.sPeaksV[0] + tolV && q.biasV < truth.pPeaksV[0] - tolV);
+      expect(k).toBeGreaterThanOrEqual(0);
+      expect(a.assignment.multiplets.some((m) => m.peakIndices.includes(k))).toBe(false);
+      expect(a.assignment.evidence.reasons.some((r) => /third CB peak with the \d sub-level\(s\) close after it/.test(r))).toBe(true);
+    }, 30_000);
+  }
+});
+
 // The same extra peak close after s, too far from p to join it as a sub-level and stepping at
 // least half of s (so no charging satellite): set aside, p read after it (draws 1128 and 2048; in
 // 2048 the rule for the band-edge level's second substrate-side charging peak sets it aside
