@@ -251,6 +251,25 @@ describe("analyzeCurve(curve, { eta }): an unpredicted resonance before a split 
   }
 });
 
+// A single p level split by the peak search at the plain resonance of the second VB level, where
+// no substrate-side step lies (the substrate side fills; the simulation lists none there): the two
+// peaks lie within one FWHM and are read as one level (draws 1052 and 1108, p a single level of
+// six states in the truth).
+describe("analyzeCurve(curve, { eta }): one p level split at a deeper VB level's plain resonance (low-η draws)", () => {
+  for (const start of [1052, 1108]) {
+    it(`reads p as one peak at its level (draw ${start})`, () => {
+      const { a, truth } = tunnelingAtLowEta(start);
+      expect(truth.pPeaksV.length).toBe(1);
+      const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
+      const level = a.peaks[p.peakIndices[0]];
+      // The other half of the split: a peak set aside within one FWHM of the level.
+      const twin = a.assignment.evidence.secondJunction.map((r) => a.peaks[r.index]).find((q) => q.biasV > 0 && Math.abs(q.biasV - level.biasV) <= Math.min(q.fwhmV, level.fwhmV));
+      expect(twin).toBeDefined();
+      expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - twin!.biasV) <= twin!.fwhmV / 2)).toBe(false);
+    }, 30_000);
+  }
+});
+
 // The same extra peak close after s, too far from p to join it as a sub-level and stepping at
 // least half of s (so no charging satellite): set aside, p read after it (draws 1128 and 2048; in
 // 2048 the rule for the band-edge level's second substrate-side charging peak sets it aside
