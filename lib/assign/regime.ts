@@ -149,7 +149,11 @@ function valenceTwin(cb: readonly BandPeak[], vbAll: readonly BandPeak[]): numbe
  *    peaks step alike), so the second CB peak is an extra one (at low η an unpredicted
  *    second-junction resonance) and note 4 decides, with p the shell after it (`extraCbPeak`).
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
- *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps
+ *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. The same with a
+ *    step ratio below `levelStepRatio(2, 6, D.levelPairRateRatioMax)` where the VB reads as
+ *    levels (see `valenceLevels`): a resonance under s (at low η) or the noise of weak steps
+ *    moves the CB ratio, and the VB's levels, whose own resonances fall at positive bias, still
+ *    tell levels from a charging doublet. Alike steps
  *    (ratio at least `D.earlyEntryDoubletRatioMin`) with a shorter jump to a weak third peak that
  *    is p entered early (see `earlyEntryJump`): shell filling. Alike steps and no third CB peak: the VB decides (see `pairWithoutThird`).
  * 4. Otherwise the p shell — the second main peak with the sub-levels close to it (see
@@ -198,6 +202,12 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
     if (jump <= D.levelPairJumpMax && ratio >= levelStepRatio(2, 6, D.levelPairRateRatioMax)) {
       reasons.push(
         `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.levelPairJumpMax}): not a charging doublet, whose jump to p is Ec + Δsp > Ec; the s level and a p level (a level of g states after s gives g/(2(1 + (2 + g)r)), at least ${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)} for r ≤ ${D.levelPairRateRatioMax} whatever g ≤ 6), the peaks after them p's charging peaks or sub-levels: single levels`,
+      );
+      return "shell-tunneling";
+    }
+    if (jump <= D.levelPairJumpMax && valenceLevels(evidence)) {
+      reasons.push(
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.levelPairJumpMax}): not a charging doublet; their ratio is below what a level gives after s (${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)}), but the second VB step is ${evidence.valenceStepRatio!.toFixed(2)} × the first (≥ ${D.tunnelingStepRatioMin}) and the VB edge level shows no charging peak at the CB pair's spacing: levels on both sides: single levels`,
       );
       return "shell-tunneling";
     }
@@ -325,8 +335,7 @@ function extraSecondPeak(cb: readonly BandPeak[], ratios: Pick<RegimeRatios, "va
   if (thirdRatio >= min) return { thirdRatio, valenceRatio: valenceStepRatio, subLevels: 0 };
   // A split p (note 2): the shell the third peak opens, unless the VB edge level shows the
   // doublet that makes the CB pair s's charging peaks.
-  const twin = ratios.valenceTwinStepRatio;
-  if (twin !== null && twin < ASSIGN_DEFAULTS.valenceTwinStepRatioMax) return null;
+  if (!valenceLevels(ratios)) return null;
   const shell = tunnelingShells([cb[0], ...cb.slice(2)])[1];
   const shellRatio = shell.reduce((a, p) => a + p.peak.stepA, 0) / cb[0].peak.stepA;
   return shellRatio >= min && shellRatio <= ASSIGN_DEFAULTS.splitShellStepRatioMax ? { thirdRatio: shellRatio, valenceRatio: valenceStepRatio, subLevels: shell.length - 1 } : null;
@@ -438,4 +447,17 @@ export function valenceFillingDoublet(vb: readonly BandPeak[]): { stepRatio: num
   if (stepRatio === null || jumpRatio === null) return null;
   if (stepRatio < D.fillingStepRatio[0] || stepRatio > D.fillingStepRatio[1] || jumpRatio < D.fillingJumpRatioMin) return null;
   return { stepRatio, jumpRatio };
+}
+
+/**
+ * Whether the VB reads as single levels (note 3 of {@link classifyRegime}): its second main step at
+ * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × its first (a level of more states, not a
+ * charging peak, which steps r/(1 + r) < 1 of the first) and no weaker peak one CB pair's spacing
+ * beyond its edge peak (`valenceTwinStepRatio` null or at least
+ * `ASSIGN_DEFAULTS.valenceTwinStepRatioMax`: the edge level shows no charging doublet there).
+ */
+function valenceLevels(ratios: Pick<RegimeRatios, "valenceStepRatio" | "valenceTwinStepRatio">): boolean {
+  const D = ASSIGN_DEFAULTS;
+  const v = ratios.valenceStepRatio, twin = ratios.valenceTwinStepRatio;
+  return v !== null && v >= D.tunnelingStepRatioMin && (twin === null || twin >= D.valenceTwinStepRatioMax);
 }

@@ -203,6 +203,39 @@ describe("extraCbPeak with a split p (note 2): the shell the third CB peak opens
   });
 });
 
+describe("classifyRegime: alike CB steps below the level-pair ratio, a short next spacing, and VB levels", () => {
+  // Deep in shell tunnelling (r = 0.01, closed forms of lib/model/regimeLimits.ts): s (2 states)
+  // with a VB level's resonance under it adding 0.45 × its step, then p split into doubly
+  // degenerate sub-levels one 0.03 eV apart, the first stepping levelStepRatio(2, 2, r) = 1/(1 + 4r)
+  // × s; the VB levels v1 (2 states) and v2 (4 states), v2 stepping levelStepRatio(2, 4, r) × v1.
+  // Positions (ε + Ec/2)/η, Ec = 0.1 eV, η = 0.8; VB x = |bias|.
+  const r = 0.01;
+  const sStepA = 1e-12;
+  const cb = [at(V(0.55), 1.45 * sStepA, 0), at(V(0.85), levelStepRatio(2, 2, r) * sStepA, 1), at(V(0.88), levelStepRatio(2, 2, r) * sStepA, 2)];
+  const vb = [at(V(0.65), sStepA, 3), at(V(0.85), levelStepRatio(2, 4, r) * sStepA, 4)];
+  const read = (vbAll = vb, vbMain = vb) => {
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vbMain, vbAll), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    return { regime: classifyRegime(cb, cb, evidence), evidence };
+  };
+
+  it("reads shell tunnelling: the pair is no doublet (next spacing 0.1 × theirs) and the VB shows levels", () => {
+    const { regime, evidence } = read();
+    expectClose(evidence.secondToFirstStepRatio!, 1 / (1 + 4 * r) / 1.45, { rtol: 1e-12, what: "1/(1 + 4r) over 1.45, closed form" });
+    expect(evidence.secondToFirstStepRatio!).toBeGreaterThanOrEqual(ASSIGN_DEFAULTS.fillingStepRatio[0]);
+    expect(evidence.secondToFirstStepRatio!).toBeLessThan(levelStepRatio(2, 6, ASSIGN_DEFAULTS.levelPairRateRatioMax));
+    expectClose(evidence.thirdToSecondSpacingRatio!, 0.1, { rtol: 1e-9, what: "0.03/0.3, closed form" });
+    expect(regime).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(/levels on both sides/);
+  });
+
+  it("leaves it undetermined where the VB edge level shows a weaker peak at the CB pair's spacing, or its second step is a charging peak's", () => {
+    const twin = at(vb[0].x + (cb[1].x - cb[0].x), 0.5 * sStepA, 5);
+    expect(read([vb[0], twin, vb[1]]).regime).toBe("undetermined");
+    const doublet = [vb[0], at(V(0.75), 0.9 * sStepA, 4)];
+    expect(read(doublet, doublet).regime).toBe("undetermined");
+  });
+});
+
 describe("classifyRegime on two alike CB steps and no third CB peak (the window ends there)", () => {
   // Shell filling at r = 10: s doublet with step ratio r/(1 + r) = 10/11 (closed form), and the VB
   // doublet of ε_v1 = −0.6 eV at the same spacing Ec/η with the same step ratio. Shell tunnelling

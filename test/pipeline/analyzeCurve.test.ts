@@ -270,6 +270,16 @@ describe("analyzeCurve(curve, { eta }): one p level split at a deeper VB level's
   }
 });
 
+// s and p's first sub-level stepping alike with a short spacing to the next sub-level, their
+// ratio of weak, noisy steps just below the level-pair bound; the VB's second level steps about
+// twice its first (draw 119).
+describe("analyzeCurve(curve, { eta }): alike steps below the level-pair ratio read with the VB's levels (low-η draws)", () => {
+  it("reads shell tunnelling with s and p at their levels (draw 119)", () => {
+    const { a } = tunnelingAtLowEta(119);
+    expect(a.assignment.evidence.reasons.some((r) => r.includes("levels on both sides"))).toBe(true);
+  }, 30_000);
+});
+
 // The same extra peak close after s, too far from p to join it as a sub-level and stepping at
 // least half of s (so no charging satellite): set aside, p read after it (draws 1128 and 2048; in
 // 2048 the rule for the band-edge level's second substrate-side charging peak sets it aside
