@@ -36,6 +36,13 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * the tunnelling limit 3/7, where intermediate spectra begin).
    */
   levelPairRateRatioMax: 0.35,
+  /**
+   * Two alike first CB steps below that ratio are two levels only with a next spacing at most
+   * this fraction of theirs and the VB's levels in support (`classifyRegime` note 3): without the
+   * step ratio's bound on Γtip/Γsub, a margin below `levelPairJumpMax` keeps a doublet near the
+   * filling limit with an unpredicted resonance after it on the doublet's side.
+   */
+  valenceLevelPairJumpMax: 0.6,
   /** A second CB step from this fraction of the first … */
   satelliteEvidenceMin: 0.1,
   /** … to this one is a measured charging satellite of s that places r = q/(1 − q) on the tunnelling side (0.2: r ≤ 0.25, a margin below 3/7 for the satellite's step, which reads low near the boundary). */

@@ -150,7 +150,8 @@ function valenceTwin(cb: readonly BandPeak[], vbAll: readonly BandPeak[]): numbe
  *    second-junction resonance) and note 4 decides, with p the shell after it (`extraCbPeak`).
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
  *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. The same with a
- *    step ratio below `levelStepRatio(2, 6, D.levelPairRateRatioMax)` where the VB reads as
+ *    step ratio below `levelStepRatio(2, 6, D.levelPairRateRatioMax)` and a next spacing at most
+ *    `D.valenceLevelPairJumpMax` × theirs where the VB reads as
  *    levels (see `valenceLevels`): a resonance under s (at low η) or the noise of weak steps
  *    moves the CB ratio, and the VB's levels, whose own resonances fall at positive bias, still
  *    tell levels from a charging doublet. Alike steps
@@ -205,9 +206,9 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       );
       return "shell-tunneling";
     }
-    if (jump <= D.levelPairJumpMax && valenceLevels(evidence)) {
+    if (jump <= D.valenceLevelPairJumpMax && valenceLevels(evidence)) {
       reasons.push(
-        `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.levelPairJumpMax}): not a charging doublet; their ratio is below what a level gives after s (${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)}), but the second VB step is ${evidence.valenceStepRatio!.toFixed(2)} × the first (≥ ${D.tunnelingStepRatioMin}) and the VB edge level shows no charging peak at the CB pair's spacing: levels on both sides: single levels`,
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.valenceLevelPairJumpMax}): not a charging doublet; their ratio is below what a level gives after s (${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)}), but the second VB step is ${evidence.valenceStepRatio!.toFixed(2)} × the first (≥ ${D.tunnelingStepRatioMin}) and the VB edge level shows no charging peak at the CB pair's spacing: levels on both sides: single levels`,
       );
       return "shell-tunneling";
     }

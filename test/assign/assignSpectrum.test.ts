@@ -130,6 +130,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       fillingJumpRatioMin: 1.25,
       levelPairJumpMax: 0.8,
       levelPairRateRatioMax: 0.35,
+      valenceLevelPairJumpMax: 0.6,
       satelliteEvidenceMin: 0.1,
       satelliteEvidenceMax: 0.2,
       levelStepMargin: 0.8,

@@ -234,6 +234,14 @@ describe("classifyRegime: alike CB steps below the level-pair ratio, a short nex
     const doublet = [vb[0], at(V(0.75), 0.9 * sStepA, 4)];
     expect(read(doublet, doublet).regime).toBe("undetermined");
   });
+
+  it("leaves it undetermined where the next spacing exceeds valenceLevelPairJumpMax × theirs", () => {
+    // The third peak 0.7 × the pair's spacing after the second (exact geometry): above 0.6.
+    const far = [cb[0], cb[1], at(cb[1].x + 0.7 * (cb[1].x - cb[0].x), cb[2].peak.stepA, 2)];
+    const evidence: RegimeEvidence = { ...regimeRatios(far, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    expect(evidence.thirdToSecondSpacingRatio!).toBeGreaterThan(ASSIGN_DEFAULTS.valenceLevelPairJumpMax);
+    expect(classifyRegime(far, far, evidence)).toBe("undetermined");
+  });
 });
 
 describe("classifyRegime on two alike CB steps and no third CB peak (the window ends there)", () => {
