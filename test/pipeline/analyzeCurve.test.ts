@@ -280,6 +280,16 @@ describe("analyzeCurve(curve, { eta }): alike steps below the level-pair ratio r
   }, 30_000);
 });
 
+// The VB edge level split by the peak search beside the CB s level's resonance, within one FWHM
+// of it: not the resonance's second charging peak through the substrate (that lies Ec/(1 − η)
+// further out), so the VB edge and the gap stay at their levels (draw 1044).
+describe("analyzeCurve(curve, { eta }): a peak within one FWHM of a resonance is no substrate-side charging peak (low-η draws)", () => {
+  it("reads the gap from the VB edge level (draw 1044)", () => {
+    const { a, truth } = tunnelingAtLowEta(1044);
+    expectClose(a.assignment.quantities.gapV!, truth.gapV, { rtol: 0.02, what: "the gap within 2 % (the project's quality bar), simulation's truth" });
+  }, 30_000);
+});
+
 // The same extra peak close after s, too far from p to join it as a sub-level and stepping at
 // least half of s (so no charging satellite): set aside, p read after it (draws 1128 and 2048; in
 // 2048 the rule for the band-edge level's second substrate-side charging peak sets it aside
