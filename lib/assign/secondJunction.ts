@@ -84,6 +84,10 @@ export interface SecondJunctionResonance {
  * 3. Resonances predict no further resonances. Charging peaks that appear only through the
  *    substrate junction (the dot filling from the substrate in shell tunnelling) are not
  *    predicted.
+ * 4. Nor does a peak without a current step (`stepA` ≤ 0: the step fit found none, a maximum of
+ *    the conductance's noise): a resonance steps in proportion to its source's tip-side step
+ *    ((g·r + 1)/(g + r) of it, `substrateToTipStepRatio` in lib/model/regimeLimits.ts), so none is
+ *    expected from it, and a level near its predicted position would be lost to it.
  *
  * References
  * ----------
@@ -123,7 +127,7 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
       }
     }
     if (best) found.push(best);
-    else sources.push(k);
+    else if (p.stepA > 0) sources.push(k); // note 4: no step, no resonance
   }
   return found;
 }

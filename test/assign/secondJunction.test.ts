@@ -59,6 +59,17 @@ describe("secondJunctionResonances(peaks, eta)", () => {
   });
 });
 
+describe("secondJunctionResonances: a peak without a current step predicts none", () => {
+  it("leaves the peak at a step-less peak's −η·V/(1 − η) as a level, and takes it where the source steps", () => {
+    // η = 0.62: 0.9 V predicts −0.62·0.9/0.38 = −1.468 V (closed form). The resonance steps in
+    // proportion to its source's step ((g·r + 1)/(g + r) of it), so a source of step 0 gives none.
+    const noStep = [{ ...peak(-1.47), stepA: 1e-12 }, { ...peak(0.9), stepA: 0 }];
+    expect(secondJunctionResonances(noStep, 0.62)).toEqual([]);
+    const stepping = [{ ...peak(-1.47), stepA: 1e-12 }, { ...peak(0.9), stepA: 2e-12 }];
+    expect(secondJunctionResonances(stepping, 0.62).map((r) => r.index)).toEqual([0]);
+  });
+});
+
 describe("substrateChargingPeaks(peaks, resonances, eta, stepRatio)", () => {
   // Shell tunnelling at η = 0.6 (gain η/(1 − η) = 1.5): v1 at −1.0 V through the tip; through the
   // substrate its charging doublet at 1.5 V and 1.5 + Ec/(1 − η) = 1.75 V for Ec = 0.1 eV (closed

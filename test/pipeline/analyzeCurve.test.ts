@@ -290,6 +290,17 @@ describe("analyzeCurve(curve, { eta }): a peak within one FWHM of a resonance is
   }, 30_000);
 });
 
+// A maximum of the conductance's noise below s (no current step) whose −η·V/(1 − η) falls on the
+// VB edge level: it predicts no resonance, so the VB edge and the gap stay at their levels (draw
+// 2045).
+describe("analyzeCurve(curve, { eta }): a step-less peak predicts no resonance (low-η draws)", () => {
+  it("reads the gap from the VB edge level (draw 2045)", () => {
+    const { a, truth } = tunnelingAtLowEta(2045);
+    expect(a.peaks.some((p) => p.biasV > 0 && p.biasV < truth.sPeaksV[0] && p.stepA === 0)).toBe(true);
+    expectClose(a.assignment.quantities.gapV!, truth.gapV, { rtol: 0.02, what: "the gap within 2 % (the project's quality bar), simulation's truth" });
+  }, 30_000);
+});
+
 // The same extra peak close after s, too far from p to join it as a sub-level and stepping at
 // least half of s (so no charging satellite): set aside, p read after it (draws 1128 and 2048; in
 // 2048 the rule for the band-edge level's second substrate-side charging peak sets it aside
