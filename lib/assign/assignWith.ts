@@ -85,10 +85,11 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   } else if (regime === "shell-tunneling") {
     // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
     // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
-    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
     // An extra peak between s and p that the rules read as no level (`extraCbPeak`) goes the way
-    // of a weaker one, which is a charging satellite of s.
+    // of a weaker one, which is a charging satellite of s; being no charging peak, it gives no Ec.
     const extra = options.regime ? null : extraCbPeak(cbClean, evidence);
+    const cbCharging = extra ? { main: cbSplit.main, satellites: cbSplit.satellites.filter((p) => p !== extra) } : cbSplit;
+    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbCharging, vbSplit]);
     const tip = extra && cb.includes(extra) ? cb.filter((p) => p !== extra) : cb;
     if (tip !== cb) {
       setAside = [...setAside, extra!];

@@ -236,10 +236,12 @@ describe("analyzeCurve(curve, { eta }): an unpredicted resonance between s and p
 });
 
 // The same unpredicted resonance before a split p whose first sub-level alone steps less than
-// 1.4 × s: p read as the shell that sub-level opens (draws 1004, 1030 and 1199; in 1004 and 1199 s
-// lies under the VB edge level's predicted resonance and goes back to the ladder as a level).
+// 1.4 × s: p read as the shell that sub-level opens (draws 1004, 1030, 1141 and 1199; in 1004 and
+// 1199 s lies under the VB edge level's predicted resonance and goes back to the ladder as a level;
+// in 1141 the resonance lies one Ec/η after s and p's last sub-level one Ec/η after the one
+// before, so the resonance must give no Ec).
 describe("analyzeCurve(curve, { eta }): an unpredicted resonance before a split p in shell tunnelling (low-η draws)", () => {
-  for (const start of [1004, 1030, 1199]) {
+  for (const start of [1004, 1030, 1141, 1199]) {
     it(`reads shell tunnelling with s and p at their levels, the resonance in neither (draw ${start})`, () => {
       const { a, truth, tolV } = tunnelingAtLowEta(start);
       expect(truth.pPeaksV.length).toBeGreaterThan(1);
