@@ -36,6 +36,13 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * the tunnelling limit 3/7, where intermediate spectra begin).
    */
   levelPairRateRatioMax: 0.35,
+  /**
+   * Two alike first CB steps below that ratio are two levels only with a next spacing at most
+   * this fraction of theirs and the VB's levels in support (`classifyRegime` note 3): without the
+   * step ratio's bound on Γtip/Γsub, a margin below `levelPairJumpMax` keeps a doublet near the
+   * filling limit with an unpredicted resonance after it on the doublet's side.
+   */
+  valenceLevelPairJumpMax: 0.6,
   /** A second CB step from this fraction of the first … */
   satelliteEvidenceMin: 0.1,
   /** … to this one is a measured charging satellite of s that places r = q/(1 − q) on the tunnelling side (0.2: r ≤ 0.25, a margin below 3/7 for the satellite's step, which reads low near the boundary). */
@@ -104,4 +111,16 @@ export const ASSIGN_DEFAULTS = Object.freeze({
   fillingResonanceStepMin: substrateToTipStepRatio(2, 2 * REGIME_LIMITS.fillingRateRatioMin),
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
+  /**
+   * Regime, an extra second CB peak (`extraCbPeak`): a VB peak one CB pair's spacing beyond the
+   * VB edge peak stepping below this multiple of it is the edge level's second charging peak
+   * (r/(1 + r) < 1 of its first for every rate ratio r), so the CB pair is s's charging doublet.
+   */
+  valenceTwinStepRatioMax: 1,
+  /**
+   * Regime, an extra second CB peak: a split p read as the shell its first sub-level opens carries
+   * at most this multiple of the s step (a level of g states after s steps g/(2(1 + (2 + g)r)) × s,
+   * below g/2 = 3 for p's six states at every rate ratio r).
+   */
+  splitShellStepRatioMax: 3,
 });

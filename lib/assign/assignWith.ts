@@ -39,7 +39,7 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   let vb = vbSplit.main;
 
   // 3. Regime.
-  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
+  const evidence: RegimeEvidence = { ...regimeRatios(cbClean, vb, vbNoise.main), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [...resonances], reasons: [] };
   const gain = eta < 1 ? eta / (1 - eta) : 0;
   for (const r of resonances) {
     const at = peaks[r.index].biasV.toFixed(3), source = peaks[r.sourceIndex].biasV;
@@ -98,10 +98,11 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   } else if (regime === "shell-tunneling") {
     // Near the crossover a level charges; a charging satellite of a gap-edge level gives Ec. Not
     // with a regime given: that asks for single levels (the model fit's single-level hypothesis).
-    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbSplit, vbSplit]);
     // An extra peak between s and p that the rules read as no level (`extraCbPeak`) goes the way
-    // of a weaker one, which is a charging satellite of s.
+    // of a weaker one, which is a charging satellite of s; being no charging peak, it gives no Ec.
     const extra = options.regime ? null : extraCbPeak(cbClean, evidence);
+    const cbCharging = extra ? { main: cbSplit.main, satellites: cbSplit.satellites.filter((p) => p !== extra) } : cbSplit;
+    const satelliteEc = options.regime ? null : satelliteChargingEnergy([cbCharging, vbSplit]);
     const tip = extra && cb.includes(extra) ? cb.filter((p) => p !== extra) : cb;
     if (tip !== cb) {
       setAside = [...setAside, extra!];

@@ -21,6 +21,11 @@ export interface RegimeEvidence {
   valenceStepRatio: number | null;
   /** Spacing of the first two VB main peaks over that of the first two CB peaks; null without both pairs. */
   valenceSpacingRatio: number | null;
+  /**
+   * Step of the VB peak (a main peak or a charging satellite) one CB pair's spacing beyond the VB
+   * edge peak over the edge peak's step (see {@link regimeRatios}, note 4); null without such a peak.
+   */
+  valenceTwinStepRatio: number | null;
   /** CB peaks taken as charging satellites (weak peaks after a main peak) in shell tunnelling. */
   satellitePeaksV: number[];
   /**
@@ -38,7 +43,7 @@ export interface RegimeEvidence {
 }
 
 /** The ratios of {@link regimeRatios}: the numeric part of {@link RegimeEvidence}. */
-export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thirdToSecondSpacingRatio" | "valenceStepRatio" | "valenceSpacingRatio">;
+export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thirdToSecondSpacingRatio" | "valenceStepRatio" | "valenceSpacingRatio" | "valenceTwinStepRatio">;
 
 /**
  * The ratios the regime rules read, from the CB peaks left after the noise rule and the VB main
@@ -51,6 +56,9 @@ export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thir
  * vb : readonly BandPeak[], optional
  *     VB main peaks (noise and charging satellites set aside) from the gap edge outward.
  *     Default: none (the VB ratios are then null).
+ * vbAll : readonly BandPeak[], optional
+ *     VB peaks with noise set aside but charging satellites kept, from the gap edge outward.
+ *     Default: `vb`.
  *
  * Returns
  * -------
@@ -65,16 +73,21 @@ export type RegimeRatios = Pick<RegimeEvidence, "secondToFirstStepRatio" | "thir
  *    spacing ratio = (x₃ − x₂)/(x₂ − x₁), null without such a peak.
  * 3. VB step ratio = stepA of VB peak 2 / stepA of VB peak 1; VB spacing ratio =
  *    (x₂ − x₁) of the VB over (x₂ − x₁) of the CB.
+ * 4. VB twin step ratio: among `vbAll` past the edge peak, the one nearest |V| = x₁(VB) + (x₂ − x₁)
+ *    of the CB, within ± `ASSIGN_DEFAULTS.valenceChargingTolerance` × that spacing; its step over
+ *    the edge peak's (null without one). Where the first two CB peaks are s's charging doublet,
+ *    the VB edge level gives one too, Ec/η apart in bias on both sides: a peak there stepping
+ *    less than the edge peak (r/(1 + r) < 1) is its second charging peak.
  *
  * Example
  * -------
  * ```ts
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
  * regimeRatios([at(0.6875, 1e-11, 0), at(0.8125, 0.9e-11, 1), at(1.3125, 1e-11, 2)], [at(0.8125, 1e-11, 3), at(0.9375, 1e-11, 4)]);
- * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4, valenceStepRatio: 1, valenceSpacingRatio: 1 }
+ * // => { secondToFirstStepRatio: 0.9, thirdToSecondSpacingRatio: 4, valenceStepRatio: 1, valenceSpacingRatio: 1, valenceTwinStepRatio: 1 }
  * ```
  */
-export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = []): RegimeRatios {
+export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = [], vbAll: readonly BandPeak[] = vb): RegimeRatios {
   const D = ASSIGN_DEFAULTS;
   let secondToFirstStepRatio: number | null = null;
   let thirdToSecondSpacingRatio: number | null = null;
@@ -88,7 +101,18 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
     valenceStepRatio = vb[1].peak.stepA / vb[0].peak.stepA;
     if (cb.length >= 2) valenceSpacingRatio = (vb[1].x - vb[0].x) / (cb[1].x - cb[0].x);
   }
-  return { secondToFirstStepRatio, thirdToSecondSpacingRatio, valenceStepRatio, valenceSpacingRatio };
+  return { secondToFirstStepRatio, thirdToSecondSpacingRatio, valenceStepRatio, valenceSpacingRatio, valenceTwinStepRatio: valenceTwin(cb, vbAll) };
+}
+
+/** Note 4 of {@link regimeRatios}: the VB twin of the first CB pair's spacing, as a step ratio; null without one. */
+function valenceTwin(cb: readonly BandPeak[], vbAll: readonly BandPeak[]): number | null {
+  if (cb.length < 2 || vbAll.length < 2 || !(vbAll[0].peak.stepA > 0)) return null;
+  const spacing = cb[1].x - cb[0].x;
+  const want = vbAll[0].x + spacing;
+  const tol = ASSIGN_DEFAULTS.valenceChargingTolerance * spacing;
+  let best: BandPeak | null = null;
+  for (const q of vbAll.slice(1)) if (Math.abs(q.x - want) <= tol && (!best || Math.abs(q.x - want) < Math.abs(best.x - want))) best = q;
+  return best ? best.peak.stepA / vbAll[0].peak.stepA : null;
 }
 
 /**
@@ -118,13 +142,19 @@ export function regimeRatios(cb: readonly BandPeak[], vb: readonly BandPeak[] = 
  *    `D.fillingJumpRatioMin` × the first spacing: shell filling.
  * 3. Step ratio between `D.tunnelingSatelliteRatioMax` and the filling range: undetermined (an
  *    intermediate rate ratio: too strong for a satellite, too weak for a doublet) — unless the
- *    third CB peak steps at least `D.tunnelingStepRatioMin` × the first and the second VB step
+ *    third CB peak (or the split shell it opens, see `extraCbPeak`) steps at least
+ *    `D.tunnelingStepRatioMin` × the first and the second VB step
  *    at least as much × the first VB step (see `extraSecondPeak`): a level of more states follows
  *    the first on both sides, which a rate ratio in the crossover does not give (its charging
  *    peaks step alike), so the second CB peak is an extra one (at low η an unpredicted
  *    second-junction resonance) and note 4 decides, with p the shell after it (`extraCbPeak`).
  *    Alike steps with a next spacing at most `D.levelPairJumpMax` × theirs: not a doublet (its
- *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. Alike steps
+ *    jump to p is Ec + Δsp > Ec) but the s level and a p level: shell tunnelling. The same with a
+ *    step ratio below `levelStepRatio(2, 6, D.levelPairRateRatioMax)` and a next spacing at most
+ *    `D.valenceLevelPairJumpMax` × theirs where the VB reads as
+ *    levels (see `valenceLevels`): a resonance under s (at low η) or the noise of weak steps
+ *    moves the CB ratio, and the VB's levels, whose own resonances fall at positive bias, still
+ *    tell levels from a charging doublet. Alike steps
  *    (ratio at least `D.earlyEntryDoubletRatioMin`) with a shorter jump to a weak third peak that
  *    is p entered early (see `earlyEntryJump`): shell filling. Alike steps and no third CB peak: the VB decides (see `pairWithoutThird`).
  * 4. Otherwise the p shell — the second main peak with the sub-levels close to it (see
@@ -176,6 +206,12 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
       );
       return "shell-tunneling";
     }
+    if (jump <= D.valenceLevelPairJumpMax && valenceLevels(evidence)) {
+      reasons.push(
+        `the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next spacing is only ${jump.toFixed(2)} × theirs (≤ ${D.valenceLevelPairJumpMax}): not a charging doublet; their ratio is below what a level gives after s (${levelStepRatio(2, 6, D.levelPairRateRatioMax).toFixed(2)}), but the second VB step is ${evidence.valenceStepRatio!.toFixed(2)} × the first (≥ ${D.tunnelingStepRatioMin}) and the VB edge level shows no charging peak at the CB pair's spacing: levels on both sides: single levels`,
+      );
+      return "shell-tunneling";
+    }
     const early = ratio >= D.earlyEntryDoubletRatioMin ? earlyEntryJump(cb) : null;
     if (early !== null) {
       reasons.push(
@@ -185,10 +221,10 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
     }
     reasons.push(`the first two CB steps are alike (ratio ${ratio.toFixed(2)}) but the next jump is only ${jump.toFixed(2)} × their spacing (< ${D.fillingJumpRatioMin})`);
   } else if (ratio > D.tunnelingSatelliteRatioMax && ratio < D.fillingStepRatio[0]) {
-    const extra = extraSecondPeak(cb, evidence.valenceStepRatio);
+    const extra = extraSecondPeak(cb, evidence);
     if (extra !== null) {
       reasons.push(
-        `the second CB step is ${ratio.toFixed(2)} × the first, but the third CB peak steps ${extra.thirdRatio.toFixed(2)} × the first and the second VB step ${extra.valenceRatio.toFixed(2)} × the first VB step (both ≥ ${D.tunnelingStepRatioMin}): levels of more states on both sides, so the second CB peak is no charging peak of s; the p shell decides`,
+        `the second CB step is ${ratio.toFixed(2)} × the first, but the third CB peak${extra.subLevels ? ` with the ${extra.subLevels} sub-level(s) close after it` : ""} steps ${extra.thirdRatio.toFixed(2)} × the first and the second VB step ${extra.valenceRatio.toFixed(2)} × the first VB step (both ≥ ${D.tunnelingStepRatioMin}): levels of more states on both sides, so the second CB peak is no charging peak of s; the p shell decides`,
       );
     } else {
       reasons.push(
@@ -241,7 +277,7 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
  * ----------
  * cb : readonly BandPeak[]
  *     CB peaks from the gap edge outward, noise set aside (as given to {@link classifyRegime}).
- * ratios : Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio">
+ * ratios : Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio" | "valenceTwinStepRatio">
  *     From {@link regimeRatios} on the same peaks and the VB main peaks.
  *
  * Returns
@@ -258,35 +294,52 @@ export function classifyRegime(cb: readonly BandPeak[], main: readonly BandPeak[
  *    p shell is read after it, and the shell-tunnelling ladder sets it aside as a charging
  *    satellite of s is (a weaker one, below `ASSIGN_DEFAULTS.satelliteStepRatioMax` × s, already
  *    is).
+ * 2. A split p steps per sub-level about as s does, so its first sub-level alone can fall short of
+ *    `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × s. Where the third CB peak alone does, the shell it
+ *    opens (it and the sub-levels close to it, `tunnelingShells` read with s first) counts, if it
+ *    carries from `tunnelingStepRatioMin` to `ASSIGN_DEFAULTS.splitShellStepRatioMax` × s: a level
+ *    of g states after s steps g/(2(1 + (2 + g)r)) × s, at most 3 for the six states of p,
+ *    whereas in the crossover the shell gathers p's charging peaks, each a fair part of s's step.
+ *    And not where the VB edge level shows a weaker peak one CB pair's spacing beyond it
+ *    (`valenceTwinStepRatio` below `ASSIGN_DEFAULTS.valenceTwinStepRatioMax`, see `regimeRatios`
+ *    note 4): its charging doublet, Ec/η apart as s's would be, so the CB pair is that doublet.
  *
  * Example
  * -------
  * ```ts
  * const at = (x: number, stepA: number, index: number) => ({ x, index, peak: { biasV: x, stepA } as Peak });
  * const cb = [at(2.43, 1e-12, 2), at(2.74, 0.55e-12, 3), at(3.01, 2.8e-12, 4)];
- * extraCbPeak(cb, { secondToFirstStepRatio: 0.55, valenceStepRatio: 1.9 })?.index;  // => 3
+ * extraCbPeak(cb, { secondToFirstStepRatio: 0.55, valenceStepRatio: 1.9, valenceTwinStepRatio: null })?.index;  // => 3
  * ```
  */
-export function extraCbPeak(cb: readonly BandPeak[], ratios: Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio">): BandPeak | null {
+export function extraCbPeak(cb: readonly BandPeak[], ratios: Pick<RegimeRatios, "secondToFirstStepRatio" | "valenceStepRatio" | "valenceTwinStepRatio">): BandPeak | null {
   const D = ASSIGN_DEFAULTS;
   const ratio = ratios.secondToFirstStepRatio;
   if (ratio === null || ratio <= D.tunnelingSatelliteRatioMax || ratio >= D.fillingStepRatio[0]) return null;
-  return extraSecondPeak(cb, ratios.valenceStepRatio) === null ? null : cb[1];
+  return extraSecondPeak(cb, ratios) === null ? null : cb[1];
 }
 
 /**
  * Where the first two CB steps are in the intermediate band (note 3 of {@link classifyRegime}):
- * the third CB peak's step over the first and the second VB step over the first when both are at
+ * the third CB peak's step over the first (or that of the split shell it opens, note 2 of
+ * {@link extraCbPeak}) and the second VB step over the first when both are at
  * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` (levels of more states than s on both sides:
  * shell tunnelling's signature, note 4), else null. The second CB peak is then no charging peak
  * of s but an extra peak between s and p — at low η the second resonance of a band-edge level,
  * Ec/(1 − η) beyond the one predicted, which nothing predicts without Ec.
  */
-function extraSecondPeak(cb: readonly BandPeak[], valenceStepRatio: number | null): { thirdRatio: number; valenceRatio: number } | null {
+function extraSecondPeak(cb: readonly BandPeak[], ratios: Pick<RegimeRatios, "valenceStepRatio" | "valenceTwinStepRatio">): { thirdRatio: number; valenceRatio: number; subLevels: number } | null {
   const min = ASSIGN_DEFAULTS.tunnelingStepRatioMin;
+  const valenceStepRatio = ratios.valenceStepRatio;
   if (cb.length < 3 || valenceStepRatio === null || valenceStepRatio < min) return null;
   const thirdRatio = cb[2].peak.stepA / cb[0].peak.stepA;
-  return thirdRatio >= min ? { thirdRatio, valenceRatio: valenceStepRatio } : null;
+  if (thirdRatio >= min) return { thirdRatio, valenceRatio: valenceStepRatio, subLevels: 0 };
+  // A split p (note 2): the shell the third peak opens, unless the VB edge level shows the
+  // doublet that makes the CB pair s's charging peaks.
+  if (!valenceLevels(ratios)) return null;
+  const shell = tunnelingShells([cb[0], ...cb.slice(2)])[1];
+  const shellRatio = shell.reduce((a, p) => a + p.peak.stepA, 0) / cb[0].peak.stepA;
+  return shellRatio >= min && shellRatio <= ASSIGN_DEFAULTS.splitShellStepRatioMax ? { thirdRatio: shellRatio, valenceRatio: valenceStepRatio, subLevels: shell.length - 1 } : null;
 }
 
 /**
@@ -395,4 +448,17 @@ export function valenceFillingDoublet(vb: readonly BandPeak[]): { stepRatio: num
   if (stepRatio === null || jumpRatio === null) return null;
   if (stepRatio < D.fillingStepRatio[0] || stepRatio > D.fillingStepRatio[1] || jumpRatio < D.fillingJumpRatioMin) return null;
   return { stepRatio, jumpRatio };
+}
+
+/**
+ * Whether the VB reads as single levels (note 3 of {@link classifyRegime}): its second main step at
+ * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × its first (a level of more states, not a
+ * charging peak, which steps r/(1 + r) < 1 of the first) and no weaker peak one CB pair's spacing
+ * beyond its edge peak (`valenceTwinStepRatio` null or at least
+ * `ASSIGN_DEFAULTS.valenceTwinStepRatioMax`: the edge level shows no charging doublet there).
+ */
+function valenceLevels(ratios: Pick<RegimeRatios, "valenceStepRatio" | "valenceTwinStepRatio">): boolean {
+  const D = ASSIGN_DEFAULTS;
+  const v = ratios.valenceStepRatio, twin = ratios.valenceTwinStepRatio;
+  return v !== null && v >= D.tunnelingStepRatioMin && (twin === null || twin >= D.valenceTwinStepRatioMax);
 }

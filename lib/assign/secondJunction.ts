@@ -19,6 +19,14 @@ export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
    */
   companionChargingFractionMax: 0.25,
   /**
+   * {@link substrateChargingPeaks}: the companion lies more than this many of the resonance's
+   * FWHM beyond it. The substrate side's doublet is Ec/(1 − η) apart, more than the tip side's
+   * Ec/η for η > 1/2; a peak within one width of the resonance is a part of the same peak split
+   * by the search (a level under the resonance, or the resonance itself), not its second
+   * charging peak.
+   */
+  companionSpacingFwhmMin: 1,
+  /**
    * {@link substrateChargingPeaks}: the resonance's step over its source's is at most this:
    * (g·r + 1)/(g + r) for g = 2 at the shell-tunnelling limit r = Γtip/Γsub = 3/7
    * (`substrateToTipStepRatio` and `REGIME_LIMITS` in lib/model/regimeLimits.ts): 13/17 ≈ 0.765.
@@ -76,6 +84,10 @@ export interface SecondJunctionResonance {
  * 3. Resonances predict no further resonances. Charging peaks that appear only through the
  *    substrate junction (the dot filling from the substrate in shell tunnelling) are not
  *    predicted.
+ * 4. Nor does a peak without a current step (`stepA` ≤ 0: the step fit found none, a maximum of
+ *    the conductance's noise): a resonance steps in proportion to its source's tip-side step
+ *    ((g·r + 1)/(g + r) of it, `substrateToTipStepRatio` in lib/model/regimeLimits.ts), so none is
+ *    expected from it, and a level near its predicted position would be lost to it.
  *
  * References
  * ----------
@@ -115,7 +127,7 @@ export function secondJunctionResonances(peaks: readonly Peak[], eta: number): S
       }
     }
     if (best) found.push(best);
-    else sources.push(k);
+    else if (p.stepA > 0) sources.push(k); // note 4: no step, no resonance
   }
   return found;
 }
@@ -179,7 +191,8 @@ export function isPlainPrediction(r: Pick<SecondJunctionResonance, "predictedV">
  *    and whose step lies within `stepRatio` × the resonance's is its companion, if the charging
  *    energy it implies, Ec = (1 − η)·|V₂ − V₁|, is at most
  *    `SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax` × the gap in energy (η × the distance
- *    between the gap-edge peaks) and the spacing exceeds half the resonance's FWHM.
+ *    between the gap-edge peaks) and the spacing exceeds
+ *    `SECOND_JUNCTION_DEFAULTS.companionSpacingFwhmMin` × the resonance's FWHM.
  * 3. Through the substrate junction of a shell-tunnelling dot the doublet's steps are alike: their
  *    ratio is r'/(1 + r') for r' = Γsub/Γtip ≫ 1 (the closed form of `secondToFirstStepRatio` with
  *    the junctions' roles swapped).
@@ -219,7 +232,7 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
     const next = beyond.find(({ p }) => p.stepA >= stepRatio[0] * res.stepA && p.stepA <= stepRatio[1] * res.stepA);
     if (!next) continue;
     const spacingV = Math.abs(next.p.biasV - res.biasV);
-    if (spacingV <= res.fwhmV / 2 || (1 - eta) * spacingV > SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax * gapEV) continue;
+    if (spacingV <= SECOND_JUNCTION_DEFAULTS.companionSpacingFwhmMin * res.fwhmV || (1 - eta) * spacingV > SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax * gapEV) continue;
     if (out.some((o) => o.index === next.k)) continue;
     out.push({ index: next.k, sourceIndex: r.sourceIndex, predictedV: next.p.biasV });
   }

@@ -101,8 +101,8 @@ export function substrateExtraLevel(
  *
  * Parameters
  * ----------
- * peaks : readonly Pick<Peak, "biasV">[]
- *     The peak list of the assignment (positions in V).
+ * peaks : readonly Pick<Peak, "biasV" | "fwhmV">[]
+ *     The peak list of the assignment (positions and FWHM in V).
  * resonances : readonly SecondJunctionResonance[]
  *     The resonances the reading set aside.
  * eta : number
@@ -111,8 +111,9 @@ export function substrateExtraLevel(
  * Returns
  * -------
  * SecondJunctionResonance[]
- *     Those whose `predictedV` is the plain −η·V/(1 − η) of their source and whose source is not
- *     the peak of its band nearest 0 V among the peaks that are not resonances.
+ *     Those whose `predictedV` is the plain −η·V/(1 − η) of their source, whose source is not
+ *     the peak of its band nearest 0 V among the peaks that are not resonances, and with no such
+ *     peak of their own sign within the smaller of the two FWHMs (note 3).
  *
  * Notes
  * -----
@@ -125,6 +126,10 @@ export function substrateExtraLevel(
  *    is a fraction Γtip/Γsub of the others (orthodox master equation).
  * 2. So a peak at the plain prediction of a deeper level is not that resonance; the caller gives
  *    it back to the ladder where the regime stays shell tunnelling.
+ * 3. Unless a peak that is no resonance lies within the smaller of their FWHMs: with no step at
+ *    the plain prediction, the two are one level that the peak search split at the predicted
+ *    resonance (two levels closer than a width would not be told apart), so the part at the
+ *    prediction stays set aside and the level is read once, from the other.
  *
  * References
  * ----------
@@ -135,12 +140,12 @@ export function substrateExtraLevel(
  * -------
  * ```ts
  * // η = 0.6 (gain 1.5): v1 at −1.5 V (edge), v2 at −2.0 V; candidates at 2.25 V (v1) and 3.0 V (v2).
- * const peaks = [-2.0, -1.5, 2.25, 3.0].map((biasV) => ({ biasV }));
+ * const peaks = [-2.0, -1.5, 2.25, 3.0].map((biasV) => ({ biasV, fwhmV: 0.05 }));
  * const set = [{ index: 2, sourceIndex: 1, predictedV: 2.25 }, { index: 3, sourceIndex: 0, predictedV: 3.0 }];
  * deeperPlainResonances(peaks, set, 0.6).map((r) => r.index);  // => [3]
  * ```
  */
-export function deeperPlainResonances(peaks: readonly Pick<Peak, "biasV">[], resonances: readonly SecondJunctionResonance[], eta: number): SecondJunctionResonance[] {
+export function deeperPlainResonances(peaks: readonly Pick<Peak, "biasV" | "fwhmV">[], resonances: readonly SecondJunctionResonance[], eta: number): SecondJunctionResonance[] {
   if (!(eta > 0 && eta < 1)) return [];
   const gain = eta / (1 - eta);
   const resonant = new Set(resonances.map((r) => r.index));
@@ -152,8 +157,13 @@ export function deeperPlainResonances(peaks: readonly Pick<Peak, "biasV">[], res
     return best;
   };
   const edges = new Set([edge(1), edge(-1)]);
+  // Note 3: a level split at the prediction by the peak search.
+  const splitLevel = (r: SecondJunctionResonance) => {
+    const p = peaks[r.index];
+    return peaks.some((q, i) => !resonant.has(i) && Math.sign(q.biasV) === Math.sign(p.biasV) && Math.abs(q.biasV - p.biasV) <= Math.min(p.fwhmV, q.fwhmV));
+  };
   return resonances.filter((r) => {
     const v = peaks[r.sourceIndex].biasV;
-    return isPlainPrediction(r, v, gain) && !edges.has(r.sourceIndex);
+    return isPlainPrediction(r, v, gain) && !edges.has(r.sourceIndex) && !splitLevel(r);
   });
 }

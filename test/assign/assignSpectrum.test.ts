@@ -99,6 +99,31 @@ describe("assignSpectrum(peaks, {eta}) in shell tunnelling", () => {
   });
 });
 
+describe("assignSpectrum: an extra peak before a split p gives no Ec", () => {
+  // Deep in shell tunnelling (r = 0.01), η = 0.8, Ec = 0.1 eV, positions (ε + Ec/2)/η: s (0.5 eV),
+  // p split into doubly degenerate sub-levels at 0.8, 0.9 and 0.95 eV, each stepping
+  // levelStepRatio(2, 2, r) = 1/(1 + 4r) × s, v1 (−0.6 eV) and v2 (4 states, −0.8 eV) stepping
+  // levelStepRatio(2, 4, r) × v1 (closed forms). An extra peak (no level of the ladder) at 0.45 × s
+  // lies one Ec/η after s, where s's charging satellite would; the second sub-level lies one Ec/η
+  // after the first.
+  const r = 0.01, S = 1e-12;
+  const at = (e: number) => (e + 0.05) / 0.8;
+  const sub = levelStepRatio(2, 2, r) * S;
+  const peaks = [
+    peak(-at(0.8), levelStepRatio(2, 4, r) * S), peak(-at(0.6), S),
+    peak(at(0.5), S), peak(at(0.6), 0.45 * S), peak(at(0.8), sub), peak(at(0.9), sub), peak(at(0.95), sub),
+  ];
+
+  it("reads the three sub-levels as p and no charging energy from the extra peak", () => {
+    const a = assignSpectrum(peaks, { eta: 0.8 });
+    expect(a.regime).toBe("shell-tunneling");
+    const p = a.multiplets.find((m) => m.label === "p")!;
+    expect(p.peakIndices).toEqual([4, 5, 6]);
+    expect(a.quantities.chargingEnergyV).toBeNull();
+    expect(a.evidence.reasons.join(" ")).toMatch(/no charging peak of s/);
+  });
+});
+
 describe("assignSpectrum(peaks, options): other cases", () => {
   it("says undetermined when the second CB step is neither alike nor much larger (intermediate rate ratio)", () => {
     const r = assignSpectrum([peak(0.7, 1e-11), peak(0.82, 0.45e-11), peak(1.3, 1e-11)]);
@@ -130,6 +155,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       fillingJumpRatioMin: 1.25,
       levelPairJumpMax: 0.8,
       levelPairRateRatioMax: 0.35,
+      valenceLevelPairJumpMax: 0.6,
       satelliteEvidenceMin: 0.1,
       satelliteEvidenceMax: 0.2,
       levelStepMargin: 0.8,
@@ -148,6 +174,8 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       levelChargingTolerance: 0.15,
       fillingResonanceStepMin: 1.4,
       valenceChargingTolerance: 0.3,
+      valenceTwinStepRatioMax: 1,
+      splitShellStepRatioMax: 3,
     });
   });
 });

@@ -47,7 +47,7 @@ describe("regimeRatios(cb) and classifyRegime(cb, main, evidence)", () => {
   it("cannot tell from fewer than two CB peaks", () => {
     expect(classify([]).regime).toBe("undetermined");
     expect(classify([at(0.7, 1e-11, 0)]).regime).toBe("undetermined");
-    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null, valenceStepRatio: null, valenceSpacingRatio: null });
+    expect(regimeRatios([at(0.7, 1e-11, 0)])).toEqual({ secondToFirstStepRatio: null, thirdToSecondSpacingRatio: null, valenceStepRatio: null, valenceSpacingRatio: null, valenceTwinStepRatio: null });
   });
 });
 
@@ -140,6 +140,107 @@ describe("extraCbPeak: the extra second CB peak of note 3, and p read after it",
     const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
     expect(classifyRegime(cb, cb, evidence)).toBe("shell-tunneling");
     expect(evidence.reasons.join(" ")).toMatch(new RegExp(`p shell carries ${levelStepRatio(2, 6, r).toFixed(2)}`));
+  });
+});
+
+describe("extraCbPeak with a split p (note 2): the shell the third CB peak opens", () => {
+  // Step heights from the project's master equation (currentSteps, simulated truth) at the
+  // closed-form positions (ε + Ec(n + ½))/η, Ec = 0.1 eV, η = 0.8, every step above a fifth of the
+  // largest. Deep in shell tunnelling (r = 0.01): s (0.5 eV) and p split into three doubly
+  // degenerate sub-levels (0.8, 0.83, 0.86 eV), each stepping about as s does; an extra peak (an
+  // unpredicted resonance, no level of the model) at 0.55 × the s step half way to p. The VB
+  // levels v1 (2 states) and v2 (4 states) step levelStepRatio(2, 4, r) (closed form); VB x = |bias|.
+  const stepsAt = (r: number, cb: [number, number][]) => {
+    const model = {
+      cb: cb.map(([energyEV, degeneracy]) => ({ energyEV, degeneracy })),
+      vb: [], chargingEnergyEV: 0.1, eta: 0.8, tipRatePerS: r * 1e8, substrateRatePerS: 1e8, relaxationRatePerS: 1e12, temperatureK: 4.5,
+    };
+    const steps = currentSteps(model).steps.filter((s) => s.biasV > 0);
+    const big = Math.max(...steps.map((s) => s.heightA));
+    return steps.filter((s) => s.heightA > 0.2 * big);
+  };
+  const r = 0.01;
+  const levels = stepsAt(r, [[0.5, 2], [0.8, 2], [0.83, 2], [0.86, 2]]);
+  const sStepA = levels[0].heightA;
+  const cb = [at(levels[0].biasV, sStepA, 0), at(V(0.65), 0.55 * sStepA, 1), ...levels.slice(1).map((s, i) => at(s.biasV, s.heightA, i + 2))];
+  const vb = [at(V(0.65), sStepA, 10), at(V(0.85), levelStepRatio(2, 4, r) * sStepA, 11)];
+
+  it("reads the split p's first sub-level as short of p alone, the shell it opens as p: the extra peak is set aside and shell tunnelling named", () => {
+    expect(levels.map((s) => s.biasV)).toEqual([0.5, 0.8, 0.83, 0.86].map((e) => V(e + 0.05)));
+    // Each sub-level about one s step (1/(1 + 4r) for the first, closed form), the three together
+    // below 3 × s (a level of g states after s steps at most g/2 × s).
+    expectClose(levels[1].heightA / sStepA, levelStepRatio(2, 2, r), { rtol: 0.05, what: "1/(1 + 4r), closed form" });
+    expect(levels[1].heightA / sStepA).toBeLessThan(ASSIGN_DEFAULTS.tunnelingStepRatioMin);
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    expect(extraCbPeak(cb, evidence)).toBe(cb[1]);
+    expect(classifyRegime(cb, cb, evidence)).toBe("shell-tunneling");
+    const shellRatio = levels.slice(1).reduce((a, s) => a + s.heightA, 0) / sStepA;
+    expect(shellRatio).toBeLessThanOrEqual(ASSIGN_DEFAULTS.splitShellStepRatioMax);
+    expect(evidence.reasons.join(" ")).toMatch(new RegExp(`third CB peak with the 2 sub-level\\(s\\) close after it steps ${shellRatio.toFixed(2)}`));
+  });
+
+  it("names no extra peak where the VB edge level shows its charging doublet at the CB pair's spacing", () => {
+    // A VB peak one CB pair's spacing beyond the edge peak at r/(1 + r) = 1/2 of it (r = 1, the
+    // s doublet's closed form): s's doublet and the edge level's, Ec/η apart on both sides.
+    const twin = at(vb[0].x + (cb[1].x - cb[0].x), 0.5 * sStepA, 12);
+    const ratios = regimeRatios(cb, vb, [vb[0], twin, vb[1]]);
+    expectClose(ratios.valenceTwinStepRatio!, 0.5, { rtol: 1e-12, what: "r/(1 + r) at r = 1, closed form" });
+    expect(extraCbPeak(cb, ratios)).toBeNull();
+    // Without that peak the ratio is null and the rule stands.
+    expect(regimeRatios(cb, vb).valenceTwinStepRatio).toBeNull();
+  });
+
+  it("names no extra peak in the crossover (r = 1), where the shell after s's doublet gathers p's charging peaks", () => {
+    // s doublet (second step r/(1 + r) = 1/2), then p (6 states) entered early and its charging
+    // peaks one Ec/η apart: together far more than the 3 × s a level of six states gives after s.
+    const steps = stepsAt(1, [[0.5, 2], [0.8, 6]]);
+    const cross = steps.map((s, i) => at(s.biasV, s.heightA, i));
+    expectClose(cross[1].peak.stepA / cross[0].peak.stepA, 0.5, { rtol: 0.02, what: "r/(1 + r), closed form" });
+    expect(cross[2].peak.stepA / cross[0].peak.stepA).toBeLessThan(ASSIGN_DEFAULTS.tunnelingStepRatioMin);
+    const sum = cross.slice(2).reduce((a, p) => a + p.peak.stepA, 0) / cross[0].peak.stepA;
+    expect(sum).toBeGreaterThan(ASSIGN_DEFAULTS.splitShellStepRatioMax);
+    expect(extraCbPeak(cross, regimeRatios(cross, vb))).toBeNull();
+  });
+});
+
+describe("classifyRegime: alike CB steps below the level-pair ratio, a short next spacing, and VB levels", () => {
+  // Deep in shell tunnelling (r = 0.01, closed forms of lib/model/regimeLimits.ts): s (2 states)
+  // with a VB level's resonance under it adding 0.45 × its step, then p split into doubly
+  // degenerate sub-levels one 0.03 eV apart, the first stepping levelStepRatio(2, 2, r) = 1/(1 + 4r)
+  // × s; the VB levels v1 (2 states) and v2 (4 states), v2 stepping levelStepRatio(2, 4, r) × v1.
+  // Positions (ε + Ec/2)/η, Ec = 0.1 eV, η = 0.8; VB x = |bias|.
+  const r = 0.01;
+  const sStepA = 1e-12;
+  const cb = [at(V(0.55), 1.45 * sStepA, 0), at(V(0.85), levelStepRatio(2, 2, r) * sStepA, 1), at(V(0.88), levelStepRatio(2, 2, r) * sStepA, 2)];
+  const vb = [at(V(0.65), sStepA, 3), at(V(0.85), levelStepRatio(2, 4, r) * sStepA, 4)];
+  const read = (vbAll = vb, vbMain = vb) => {
+    const evidence: RegimeEvidence = { ...regimeRatios(cb, vbMain, vbAll), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    return { regime: classifyRegime(cb, cb, evidence), evidence };
+  };
+
+  it("reads shell tunnelling: the pair is no doublet (next spacing 0.1 × theirs) and the VB shows levels", () => {
+    const { regime, evidence } = read();
+    expectClose(evidence.secondToFirstStepRatio!, 1 / (1 + 4 * r) / 1.45, { rtol: 1e-12, what: "1/(1 + 4r) over 1.45, closed form" });
+    expect(evidence.secondToFirstStepRatio!).toBeGreaterThanOrEqual(ASSIGN_DEFAULTS.fillingStepRatio[0]);
+    expect(evidence.secondToFirstStepRatio!).toBeLessThan(levelStepRatio(2, 6, ASSIGN_DEFAULTS.levelPairRateRatioMax));
+    expectClose(evidence.thirdToSecondSpacingRatio!, 0.1, { rtol: 1e-9, what: "0.03/0.3, closed form" });
+    expect(regime).toBe("shell-tunneling");
+    expect(evidence.reasons.join(" ")).toMatch(/levels on both sides/);
+  });
+
+  it("leaves it undetermined where the VB edge level shows a weaker peak at the CB pair's spacing, or its second step is a charging peak's", () => {
+    const twin = at(vb[0].x + (cb[1].x - cb[0].x), 0.5 * sStepA, 5);
+    expect(read([vb[0], twin, vb[1]]).regime).toBe("undetermined");
+    const doublet = [vb[0], at(V(0.75), 0.9 * sStepA, 4)];
+    expect(read(doublet, doublet).regime).toBe("undetermined");
+  });
+
+  it("leaves it undetermined where the next spacing exceeds valenceLevelPairJumpMax × theirs", () => {
+    // The third peak 0.7 × the pair's spacing after the second (exact geometry): above 0.6.
+    const far = [cb[0], cb[1], at(cb[1].x + 0.7 * (cb[1].x - cb[0].x), cb[2].peak.stepA, 2)];
+    const evidence: RegimeEvidence = { ...regimeRatios(far, vb), satellitePeaksV: [], satellitePeakIndices: [], secondJunction: [], reasons: [] };
+    expect(evidence.thirdToSecondSpacingRatio!).toBeGreaterThan(ASSIGN_DEFAULTS.valenceLevelPairJumpMax);
+    expect(classifyRegime(far, far, evidence)).toBe("undetermined");
   });
 });
 

@@ -53,9 +53,20 @@ describe("secondJunctionResonances(peaks, eta)", () => {
   });
 
   it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %; Ec at most a quarter of the gap; closed form 13/17 for the step ratio)", () => {
-    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSourceStepRatioMax: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number) });
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number) });
     expectClose(SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax, 13 / 17, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r = 3/7" });
     expectClose(SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin, 1, { rtol: 1e-12, what: "closed form: (g·r + 1)/(g + r) at r = 1" });
+  });
+});
+
+describe("secondJunctionResonances: a peak without a current step predicts none", () => {
+  it("leaves the peak at a step-less peak's −η·V/(1 − η) as a level, and takes it where the source steps", () => {
+    // η = 0.62: 0.9 V predicts −0.62·0.9/0.38 = −1.468 V (closed form). The resonance steps in
+    // proportion to its source's step ((g·r + 1)/(g + r) of it), so a source of step 0 gives none.
+    const noStep = [{ ...peak(-1.47), stepA: 1e-12 }, { ...peak(0.9), stepA: 0 }];
+    expect(secondJunctionResonances(noStep, 0.62)).toEqual([]);
+    const stepping = [{ ...peak(-1.47), stepA: 1e-12 }, { ...peak(0.9), stepA: 2e-12 }];
+    expect(secondJunctionResonances(stepping, 0.62).map((r) => r.index)).toEqual([0]);
   });
 });
 
@@ -69,6 +80,16 @@ describe("substrateChargingPeaks(peaks, resonances, eta, stepRatio)", () => {
     const res = secondJunctionResonances(peaks, 0.6);
     expect(res.map((r) => r.index)).toEqual([2]);
     expect(substrateChargingPeaks(peaks, res, 0.6, [0.6, 1.3]).map((r) => r.index)).toEqual([4]);
+  });
+  it("takes no peak within one FWHM of the resonance for its second charging peak (a part of the same peak)", () => {
+    // Exact geometry: 1.53 V lies 0.03 V beyond the resonance, under its 0.04 V FWHM, and outside
+    // its match tolerance (max(3σ, FWHM/2) = 0.02 V), so it is free; the doublet's spacing
+    // Ec/(1 − η) = 0.25 V is far larger.
+    const peaks = [at(-1.0, 2e-12), at(0.9, 2e-12), at(1.5, 1e-12), at(1.53, 0.9e-12), at(1.75, 0.95e-12)];
+    const res = secondJunctionResonances(peaks, 0.6);
+    expect(res.map((r) => r.index)).toEqual([2]);
+    expect(Math.abs(peaks[3].biasV - peaks[2].biasV)).toBeLessThan(SECOND_JUNCTION_DEFAULTS.companionSpacingFwhmMin * peaks[2].fwhmV);
+    expect(substrateChargingPeaks(peaks, res, 0.6, [0.6, 1.3]).map((r) => r.index)).not.toContain(3);
   });
   it("finds none where the resonance is higher than its source (the substrate side of shell filling shows a level, ratio → 2)", () => {
     const peaks = [at(-1.0, 1e-12), at(0.9, 1e-12), at(1.5, 1.9e-12), at(1.75, 1.8e-12)];

@@ -37,7 +37,7 @@ describe("substrateExtraLevel(peaks, multiplets, eta)", () => {
 
 describe("deeperPlainResonances(peaks, resonances, eta)", () => {
   // η = 0.6 (gain 1.5): v1 at −1.5 V is the VB edge, v2 at −2.0 V behind it.
-  const peaks = [-2.0, -1.5, 1.4, 2.25, 3.0].map((biasV) => ({ biasV }));
+  const peaks = [-2.0, -1.5, 1.4, 2.25, 3.0].map((biasV) => ({ biasV, fwhmV: 0.05 }));
   it("names the plain resonance of a level behind its band's edge, not the edge level's or a moved one", () => {
     const edge = { index: 3, sourceIndex: 1, predictedV: 2.25 };
     const deeper = { index: 4, sourceIndex: 0, predictedV: 3.0 };
@@ -45,5 +45,18 @@ describe("deeperPlainResonances(peaks, resonances, eta)", () => {
     // A prediction moved by N·Ec/(1 − η) (not the plain one) is not named.
     expect(deeperPlainResonances(peaks, [edge, { ...deeper, predictedV: 3.1 }], 0.6)).toEqual([]);
     expect(deeperPlainResonances(peaks, [edge, deeper], 1)).toEqual([]);
+  });
+
+  it("names none where a peak that is no resonance lies within the smaller FWHM: one level split at the prediction", () => {
+    // Exact geometry (no source needed): a level peak 0.03 V from the plain prediction 3.0 V, both
+    // 0.05 V wide, is within one width; at 0.08 V it is not.
+    const edge = { index: 3, sourceIndex: 1, predictedV: 2.25 };
+    const deeper = { index: 4, sourceIndex: 0, predictedV: 3.0 };
+    const near = [...peaks, { biasV: 2.97, fwhmV: 0.05 }];
+    expect(deeperPlainResonances(near, [edge, deeper], 0.6)).toEqual([]);
+    const apart = [...peaks, { biasV: 2.92, fwhmV: 0.05 }];
+    expect(deeperPlainResonances(apart, [edge, deeper], 0.6)).toEqual([deeper]);
+    // A neighbour that is itself a resonance does not count.
+    expect(deeperPlainResonances(near, [edge, deeper, { index: 5, sourceIndex: 0, predictedV: 2.97 }], 0.6)).toContainEqual(deeper);
   });
 });
