@@ -172,6 +172,10 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    once with that many times its peak width (broad peaks lose their SNR in a narrow filter) and
  *    the smallest width of both passes is kept. The first pass differentiates only the points it
  *    reads (near the zero-current region and on to 0 V), with the values a whole pass gives there.
+ *    A gap-edge peak split in two by the first pass ends its fit short of the step's middle and
+ *    reads far too narrow; where the measured width lies below the first pass's and the final pass
+ *    then finds no peak at all, the curve is analysed again at the retry's width (with a warning),
+ *    and that result stands if it finds levels.
  * 3. Peaks ({@link findPeaks}) with the position uncertainty from the noise of the measured signal
  *    (the current, or a measured conductance), with the same floor for both.
  * 4. With several sweeps, the peaks are also found in each sweep's dI/dV; each peak's sweep
@@ -298,6 +302,14 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     peakFwhmV: peaks.map((p) => p.fwhmV),
     biasRangeV: nb > 0 ? [signal.biasV[0], signal.biasV[nb - 1]] : undefined,
   });
+  // A width measured below the first pass's that leaves no peak at all is suspect (note 2).
+  if (none?.code === "no-peaks" && peakWidthMeasured && peakWidthMV < A.firstPassPeakWidthMV) {
+    const again = analyzeCurve(curve, { ...options, peakWidthMV: A.firstPassRetryFactor * A.firstPassPeakWidthMV });
+    if (again.assignment.noLevels === null) {
+      again.warnings.unshift(`the peak width measured at the gap edges (${peakWidthMV.toFixed(1)} mV) left no peak passing the current-step test; analysed again at ${A.firstPassRetryFactor * A.firstPassPeakWidthMV} mV, the first pass's retry width`);
+      return again;
+    }
+  }
   let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const w = peakWidthMV / 1000;
   const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
