@@ -124,7 +124,7 @@ export interface CompareContext {
  * const wholeFit = compareGroupings(context); // context.finals and context.cbSideOf now hold the finalists
  * ```
  */
-export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => FitTrial {
+export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecStartEV?: number) => FitTrial {
   const { hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, peakChargingEnergyEV, limits: F } = stage;
   const explore = stage.exploreIterations;
   const guessEC = stage.chargingEnergyGuessEV;
@@ -195,11 +195,13 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
     if (rescued) cbFinals.push(rescued);
   }
   /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
-  const wholeFit = (cbDone: FitTrial): FitTrial => {
-    const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
+  const wholeFit = (cbDone: FitTrial, ecStartEV?: number): FitTrial => {
+    const h0 = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
     let bestFull: FitTrial | null = null;
     const ncb = cbDone.hypothesis.seeds.length;
-    const p = cbDone.loop.parameters;
+    // From another Ec: the CB levels placed by it from their peaks (and their reach about it), the rate ratio and broadening the CB side's.
+    const h = ecStartEV === undefined ? h0 : { ...h0, chargingEnergyStartEV: ecStartEV };
+    const p = ecStartEV === undefined ? cbDone.loop.parameters : [...startingValues(h.analysis, cbDone.hypothesis.seeds, eta, guessEC, { chargingEnergyEV: ecStartEV }).initialValues.slice(0, ncb + 1), ...cbDone.loop.parameters.slice(ncb + 1)];
     const fitReading = (vb: LevelSeed[], chargingEnergyEV: number | null, accept: (t: FitTrial) => boolean = () => true) => {
       const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
       const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
