@@ -16,6 +16,7 @@ import { hiddenEntryReading, inFillingOrder, shellValenceReading } from "./shell
 import type { LevelSeed } from "./levelsToFit.ts";
 import { heldValenceLevels } from "./heldValenceLevels.ts";
 import { heldHoleEntry } from "./cbSideEnd.ts";
+import type { wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
 
 /** Constants of {@link compareGroupings} (locked by test/model/fit/laterEntryReadings.test.ts). */
 export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
@@ -78,9 +79,12 @@ export interface CompareContext {
  *
  * Returns
  * -------
- * (cbDone: FitTrial) => FitTrial
+ * (cbDone: FitTrial, ecStartEV?: number) => FitTrial
  *     The function that fits a CB-side finalist to the whole curve with each reading of its VB
- *     peaks and keeps the best (for a winner whose whole-curve fit the search did not need).
+ *     peaks and keeps the best (for a winner whose whole-curve fit the search did not need); with
+ *     ecStartEV, every reading starts from that Ec (eV) instead of the CB side's, the CB levels
+ *     placed by it from their peaks, the rate ratio and broadening the CB side's
+ *     ({@link wholeCurveEcStarts}).
  *
  * Throws
  * ------

@@ -166,7 +166,12 @@ export interface FitOptions {
  *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
  *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
  *    residual structure and are plausible wins, their whole-curve BICs the weights,
- *    {@link wholeCurveChoice}); its whole-curve values stand unless their reduced χ² is
+ *    {@link wholeCurveChoice}); where the winner's whole-curve fit has reduced χ² above
+ *    wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, it is fitted again with
+ *    every reading from other Ec starts ({@link wholeCurveEcStarts}: the rules' Ec, the VB peaks'
+ *    own spacing, the CB side's × ½, ⅔, 3⁄2: a CB side that ends near the s doublet may fit a
+ *    wrong ladder to the noise), and the best by BIC of those that reach wholeCurveChiSquare
+ *    without residual structure and are plausible replaces it (a warning says so); its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
  *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
  *    outside the CB side's points while the CB side's show none (then the CB-side values, a

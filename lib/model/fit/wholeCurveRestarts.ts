@@ -52,7 +52,7 @@ export const WHOLE_CURVE_RESTART_DEFAULTS = Object.freeze({
  * -------
  * ```ts
  * wholeCurveEcStarts(0.285, 0.1, [-2.5, -2.67, -3.1], 0.6);
- * // => [0.1, 0.102, 0.1425, 0.19, 0.4275] (eV; 0.102 kept: 2 % from 0.1 is below the 10 % gap? no — see minRelativeGap)
+ * // => [0.1, 0.1425, 0.19, 0.4275] (eV; the VB spacing 0.102 is within 10 % of the rules' 0.1)
  * ```
  */
 export function wholeCurveEcStarts(cbSideEcEV: number, rulesEcEV: number | null, vbPeaksV: readonly number[], eta: number, settings = WHOLE_CURVE_RESTART_DEFAULTS): number[] {
