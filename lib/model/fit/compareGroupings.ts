@@ -16,6 +16,7 @@ import { hiddenEntryReading, inFillingOrder, shellValenceReading } from "./shell
 import type { LevelSeed } from "./levelsToFit.ts";
 import { heldValenceLevels } from "./heldValenceLevels.ts";
 import { heldHoleEntry } from "./cbSideEnd.ts";
+import type { wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
 
 /** Constants of {@link compareGroupings} (locked by test/model/fit/laterEntryReadings.test.ts). */
 export const COMPARE_GROUPINGS_DEFAULTS = Object.freeze({
@@ -78,9 +79,12 @@ export interface CompareContext {
  *
  * Returns
  * -------
- * (cbDone: FitTrial) => FitTrial
+ * (cbDone: FitTrial, ecStartEV?: number) => FitTrial
  *     The function that fits a CB-side finalist to the whole curve with each reading of its VB
- *     peaks and keeps the best (for a winner whose whole-curve fit the search did not need).
+ *     peaks and keeps the best (for a winner whose whole-curve fit the search did not need); with
+ *     ecStartEV, every reading starts from that Ec (eV) instead of the CB side's, the CB levels
+ *     placed by it from their peaks, the rate ratio and broadening the CB side's
+ *     ({@link wholeCurveEcStarts}).
  *
  * Throws
  * ------
@@ -124,7 +128,7 @@ export interface CompareContext {
  * const wholeFit = compareGroupings(context); // context.finals and context.cbSideOf now hold the finalists
  * ```
  */
-export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => FitTrial {
+export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecStartEV?: number) => FitTrial {
   const { hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, peakChargingEnergyEV, limits: F } = stage;
   const explore = stage.exploreIterations;
   const guessEC = stage.chargingEnergyGuessEV;
@@ -195,11 +199,13 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial) => F
     if (rescued) cbFinals.push(rescued);
   }
   /** The whole curve: the CB values found, each reading of the VB peaks from its start; the best kept. */
-  const wholeFit = (cbDone: FitTrial): FitTrial => {
-    const h = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
+  const wholeFit = (cbDone: FitTrial, ecStartEV?: number): FitTrial => {
+    const h0 = [...cbOnly.entries()].find(([, hc]) => hc === cbDone.hypothesis)![0];
     let bestFull: FitTrial | null = null;
     const ncb = cbDone.hypothesis.seeds.length;
-    const p = cbDone.loop.parameters;
+    // From another Ec: the CB levels placed by it from their peaks (and their reach about it), the rate ratio and broadening the CB side's.
+    const h = ecStartEV === undefined ? h0 : { ...h0, chargingEnergyStartEV: ecStartEV };
+    const p = ecStartEV === undefined ? cbDone.loop.parameters : [...startingValues(h.analysis, cbDone.hypothesis.seeds, eta, guessEC, { chargingEnergyEV: ecStartEV }).initialValues.slice(0, ncb + 1), ...cbDone.loop.parameters.slice(ncb + 1)];
     const fitReading = (vb: LevelSeed[], chargingEnergyEV: number | null, accept: (t: FitTrial) => boolean = () => true) => {
       const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
       const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;

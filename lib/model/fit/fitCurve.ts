@@ -8,7 +8,6 @@ import type { REGIME_LIMITS } from "../regimeLimits.ts";
 import { checkEta, checkInteger, checkKnownKeys, checkPositive } from "../../util/check.ts";
 import { DotspecError } from "../../util/errors.ts";
 import { SCENARIO_DEFAULTS } from "../scenario.ts";
-import type { startingValues } from "./startingValues.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import type { bandStepsMemo } from "./bandStepsMemo.ts";
 import type { ladderSolveWork } from "./solveWork.ts";
@@ -30,6 +29,8 @@ import { compareGroupings } from "./compareGroupings.ts";
 import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
 import { blindCbSide, wholeCurveChoice } from "./blindCbSide.ts";
+import { wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
+import { startingValues } from "./startingValues.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -165,7 +166,12 @@ export interface FitOptions {
  *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
  *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
  *    residual structure and are plausible wins, their whole-curve BICs the weights,
- *    {@link wholeCurveChoice}); its whole-curve values stand unless their reduced χ² is
+ *    {@link wholeCurveChoice}); where the winner's whole-curve fit has reduced χ² above
+ *    wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, it is fitted again with
+ *    every reading from other Ec starts ({@link wholeCurveEcStarts}: the rules' Ec, the VB peaks'
+ *    own spacing, the CB side's × ½, ⅔, 3⁄2: a CB side that ends near the s doublet may fit a
+ *    wrong ladder to the noise), and the best by BIC of those that reach wholeCurveChiSquare
+ *    without residual structure and are plausible replaces it (a warning says so); its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
  *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
  *    outside the CB side's points while the CB side's show none (then the CB-side values, a
@@ -297,7 +303,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   /** Whole-curve fit → the CB-side fit it was started from. */
   const cbSideOf = new Map<FitTrial, FitTrial>();
   /** Fits a CB-side finalist to the whole curve (set where groupings are compared). */
-  let wholeFitOf: ((cbDone: FitTrial) => FitTrial) | null = null;
+  let wholeFitOf: ((cbDone: FitTrial, ecStartEV?: number) => FitTrial) | null = null;
   const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
   if (!compared && !decisive && assignedTrial) {
     // The assignment alone: restarts from the rate-ratio grid.
@@ -371,6 +377,24 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     whole = wholeFitOf(winner);
     cbSideOf.set(whole, winner);
     wholeOf.set(winner, whole);
+  }
+  // Where the CB side's Ec gives no whole-curve fit that describes the curve, the whole curve is
+  // fitted again from other Ec starts ({@link wholeCurveEcStarts}): one that describes it (reduced
+  // χ² at most wholeCurveChiSquare, no residual structure) and is plausible replaces it.
+  if (whole && wholeFitOf && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
+    const atC = parameterIndex(winner.hypothesis.seeds.length);
+    const vbPeaksV = analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
+    let better: FitTrial | null = null;
+    for (const ec of wholeCurveEcStarts(winner.loop.parameters[atC.chargingEnergy], peakChargingEnergy(analysis, eta)?.valueEV ?? null, vbPeaksV, eta)) {
+      const t = wholeFitOf(winner, ec);
+      if (reduced(t) <= F.wholeCurveChiSquare && wholePlausibility(t, winner).length === 0 && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ && (!better || t.bic < better.bic)) better = t;
+    }
+    if (better) {
+      warnings.push(`the whole curve started from the CB side's Ec stayed at reduced χ² ${reduced(whole).toPrecision(3)}; started from another Ec it reaches ${reduced(better).toPrecision(3)} at Ec ${(better.loop.parameters[parameterIndex(better.hypothesis.seeds.length).chargingEnergy] * 1000).toFixed(1)} meV`);
+      cbSideOf.set(better, winner);
+      wholeOf.set(winner, better);
+      whole = better;
+    }
   }
   let best = whole ?? winner;
   // The whole-curve fit's residual structure, computed once (a whole-curve evaluation) where it is read.

@@ -4,7 +4,7 @@
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
  * scale, offset and background, the cost of one master-equation solve (what the work budget counts), the Levenberg–Marquardt loop and the runs built on it, the first hole's entry held on the CB side at low η, the comparison
  * of the groupings (and the choice by the whole curve where the CB side is blind to p), the refinement starts about the best grouping (and at the p sub-level spacings
- * the peaks show), the further readings of the VB peaks, the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
+ * the peaks show), the further readings of the VB peaks (and the whole curve's further Ec starts), the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
  */
 export { fitCurve, type FitOptions } from "./fitCurve.ts";
@@ -36,6 +36,7 @@ export { refineGrouping, REFINE_GROUPING_DEFAULTS, type RefineContext } from "./
 export { compareGroupings, COMPARE_GROUPINGS_DEFAULTS, type CompareContext } from "./compareGroupings.ts";
 export { blindCbSide, wholeCurveChoice, type BlindSidePeak } from "./blindCbSide.ts";
 export { laterEntryReadings } from "./laterEntryReadings.ts";
+export { wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "./wholeCurveRestarts.ts";
 export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";
 export { sameFit, SAME_FIT_DEFAULTS } from "./sameFit.ts";
