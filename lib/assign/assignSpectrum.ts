@@ -14,7 +14,7 @@ import type { SpectrumQuantities, SpectrumUncertainties } from "./quantities.ts"
 import type { SpectrumEnergies } from "./energies.ts";
 import type { Regime, RegimeEvidence } from "./regime.ts";
 import { secondJunctionResonances, type SecondJunctionResonance } from "./secondJunction.ts";
-import { bandEdgeResonanceRatio, firstReading, underResonances, unforced, valenceDoublet, withoutExtraLevel, withoutOddLead } from "./substrateReadings.ts";
+import { bandEdgeResonanceRatio, firstReading, underResonances, unforced, valenceDoublet, withoutExtraLevel, withoutOddLead, withSpinPairs } from "./substrateReadings.ts";
 
 export { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 export type { Band } from "./bandPeaks.ts";
@@ -185,7 +185,7 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (!resonances) return first;
   // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
   const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
-  if (first.regime === "shell-filling" || options.regime) return withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options, true);
+  if (first.regime === "shell-filling" || options.regime) return withSpinPairs(peaks, eta, etaGiven, withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options, true), options);
   // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
@@ -198,5 +198,5 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
   unforced(filling);
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
-  return filling;
+  return withSpinPairs(peaks, eta, etaGiven, filling, options);
 }

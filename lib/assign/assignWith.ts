@@ -19,8 +19,11 @@ import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { valenceEdgePartner, valenceGroups } from "./valenceGroups.ts";
 import { levelsAtDoubletResonance } from "./doubletResonance.ts";
 
-/** The assignment with the given peaks set aside as second-junction resonances. */
-export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: readonly SecondJunctionResonance[], options: AssignOptions): Assignment {
+/**
+ * The assignment with the given peaks set aside as second-junction resonances; in shell filling,
+ * p made of the peaks `pGiven` names where given (`fillingShells`).
+ */
+export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolean, resonances: readonly SecondJunctionResonance[], options: AssignOptions, pGiven?: ReadonlySet<number>): Assignment {
   const D = ASSIGN_DEFAULTS;
   const warnings: string[] = [];
   if (!etaGiven) warnings.push("eta not given: energies equal the bias-referred values (η = 1); pass the voltage-division factor to convert");
@@ -60,7 +63,7 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
   let ecSE: number | null = null;
   const cbGroups: BandPeak[][][] = []; // per shell: its sub-groups
   if (regime === "shell-filling") {
-    const built = fillingShells(cb);
+    const built = fillingShells(cb, pGiven);
     if (built.offLadder.length) {
       setAside = [...setAside, ...built.offLadder];
       evidence.reasons.push(`${built.offLadder.length} CB peak(s) closer than ${D.minLadderSpacingFraction} × Ec to the previous charging peak set aside`);
@@ -83,7 +86,7 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
     const s = shells[0]?.flat().map((p) => p.index) ?? [];
     const back = levelsAtDoubletResonance(peaks, resonances, s, eta / (1 - eta));
     if (back.length) {
-      const again = assignWith(peaks, eta, etaGiven, resonances.filter((r) => !back.includes(r)), options);
+      const again = assignWith(peaks, eta, etaGiven, resonances.filter((r) => !back.includes(r)), options, pGiven);
       if (again.regime === "shell-filling") {
         const firstA = peaks[resonances.find((f) => f.sourceIndex === s[0])!.index].stepA;
         again.evidence.reasons.push(...back.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / firstA).toFixed(2)} × the first s peak's resonance, more than the second s peak's resonance carries (1/(1 + r) of it through the substrate junction)`));

@@ -31,6 +31,10 @@ export interface FillingShells {
  * cb : readonly BandPeak[]
  *     The CB peaks left after the noise rule, from the gap edge outward; at least two (the s
  *     doublet).
+ * pGiven : ReadonlySet<number>, optional
+ *     Peak indices that make p whatever notes 1–4 would read (a p read as spin pairs,
+ *     `spinPairSet`); the other peaks up to p's last are set aside, the shells after p are read
+ *     as usual, and the sub-groups follow note 5.
  *
  * Returns
  * -------
@@ -73,7 +77,7 @@ export interface FillingShells {
  * r.shells.map((s) => s.flat().map((p) => p.index));  // => [[0, 1], [2, 3, 4, 5, 6, 7]]
  * ```
  */
-export function fillingShells(cb: readonly BandPeak[]): FillingShells {
+export function fillingShells(cb: readonly BandPeak[], pGiven?: ReadonlySet<number>): FillingShells {
   const D = ASSIGN_DEFAULTS;
   // Fewer than two peaks make no charging ladder: an s shell of what there is, nothing else.
   if (cb.length < 2) return { shells: cb.length ? [[cb.slice()]] : [], offLadder: [], leftover: [] };
@@ -88,6 +92,17 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
     // 1. Candidates: peaks up to the jump that opens the next shell (or the end of the data).
     //    Successive charging peaks lie at least Ec apart; a peak much closer to the previous one
     //    is not on the ladder.
+    if (s === 1 && pGiven) {
+      const given = cb.filter((p) => pGiven.has(p.index));
+      if (!given.length) break;
+      const end = given[given.length - 1];
+      offLadder.push(...cb.slice(i, cb.indexOf(end)).filter((p) => !pGiven.has(p.index)));
+      shells.push(subgroupsOf(given, ec0));
+      spExcess = given[0].x - last.x - ec0;
+      last = end;
+      i = cb.indexOf(end) + 1;
+      continue;
+    }
     const run: BandPeak[] = [];
     let prev = last;
     let excess = spExcess;
@@ -159,18 +174,22 @@ export function fillingShells(cb: readonly BandPeak[]): FillingShells {
     }
     if (!members.length) break;
     const end = members[members.length - 1];
-    // 3. Sub-groups: a spacing above (1 + subgroupExtraMin)·Ec inside the shell.
-    const subgroups: BandPeak[][] = [[members[0]]];
-    for (let j = 1; j < members.length; j++) {
-      if (members[j].x - members[j - 1].x > (1 + D.subgroupExtraMin) * ec0) subgroups.push([members[j]]);
-      else subgroups[subgroups.length - 1].push(members[j]);
-    }
-    shells.push(subgroups);
+    shells.push(subgroupsOf(members, ec0));
     spExcess ??= members[0].x - last.x - ec0;
     last = end;
     i = cb.indexOf(end) + 1;
   }
   return { shells, leftover: cb.slice(i), offLadder: [...new Set(offLadder)].filter((p) => p.x < last.x).sort((a, b) => a.x - b.x) };
+}
+
+/** Note 5 of {@link fillingShells}: a spacing above (1 + `subgroupExtraMin`)·Ec inside a shell starts a sub-group. */
+function subgroupsOf(members: readonly BandPeak[], ecV: number): BandPeak[][] {
+  const subgroups: BandPeak[][] = [[members[0]]];
+  for (let j = 1; j < members.length; j++) {
+    if (members[j].x - members[j - 1].x > (1 + ASSIGN_DEFAULTS.subgroupExtraMin) * ecV) subgroups.push([members[j]]);
+    else subgroups[subgroups.length - 1].push(members[j]);
+  }
+  return subgroups;
 }
 
 /**

@@ -10,7 +10,9 @@ import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
 import { assignWith } from "./assignWith.ts";
 import { confirmResonances } from "./confirmResonances.ts";
 import { earlierReasons, iterateResonances } from "./iterateResonances.ts";
+import { ladderPredictions, ladderResonances } from "./ladderResonances.ts";
 import { oddLeadingLevel } from "./oddLeadingLevel.ts";
+import { spinPairSet } from "./spinPairs.ts";
 import { valenceFillingDoublet } from "./regime.ts";
 import { overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
@@ -83,6 +85,58 @@ export function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: bo
   next.evidence.reasons.unshift(
     ...earlier,
     `peak at ${peaks[lead.index].biasV.toFixed(3)} V set aside: it opened p with an odd sub-group or a ladder of more than six (each p orbital holds two electrons) and lies at the second-junction resonance of the peak at ${peaks[lead.sourceIndex].biasV.toFixed(3)} V (expected at ${lead.predictedV.toFixed(3)} V)`,
+  );
+  return next;
+}
+
+/**
+ * A shell-filling reading whose p is not three spin pairs (`spinPairSet`) read again with the six
+ * peaks that are: the peaks left out inside p's span that step like a level or more are set aside
+ * as second-junction resonances (a resonance of the ladder, or, unpredicted, of the nearest
+ * prediction on their side), the multiplets' peaks at a resonance take their level's share of the
+ * step (p's level step; elsewhere the median of the multiplet's other peaks, as in the rounds of
+ * `iterateResonances`), and the rules run again under shell filling with p made of that set; the
+ * result stands if its p is exactly that set.
+ */
+export function withSpinPairs(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
+  const ecV = a.quantities.chargingEnergyV;
+  if (a.regime !== "shell-filling" || options.regime || !(eta < 1) || ecV === null) return a;
+  const inputs = { multiplets: a.multiplets, chargingEnergyV: ecV, eta };
+  const predicted = ladderResonances(peaks, inputs);
+  const setAside = a.evidence.secondJunction;
+  const resonant = new Set([...setAside, ...predicted].map((r) => r.index));
+  const set = spinPairSet(peaks, { multiplets: a.multiplets, resonant });
+  if (!set) return a;
+  const members = new Set(set.members);
+  const predictions = ladderPredictions(peaks, inputs).filter((r) => r.predictedV > 0);
+  const records: SecondJunctionResonance[] = [];
+  for (const i of set.leftOut) {
+    if (setAside.some((r) => r.index === i) || peaks[i].stepA < ASSIGN_DEFAULTS.fillingStepRatio[0] * set.levelStepA) continue;
+    const known = predicted.find((r) => r.index === i);
+    const nearest = known ?? [...predictions].sort((x, y) => Math.abs(x.predictedV - peaks[i].biasV) - Math.abs(y.predictedV - peaks[i].biasV))[0];
+    if (!nearest) return a;
+    records.push({ index: i, sourceIndex: nearest.sourceIndex, predictedV: nearest.predictedV });
+  }
+  const resonances = [...setAside.filter((r) => !members.has(r.index)), ...records];
+  // A peak holding a level and a resonance keeps the level's share of the step, as in the rounds:
+  // p's level step, or the median step of its multiplet's other peaks.
+  const share = new Map<number, number>();
+  for (const m of a.multiplets) {
+    for (const i of m.peakIndices) {
+      const others = m.peakIndices.filter((j) => j !== i && !resonant.has(j)).map((j) => peaks[j].stepA).sort((x, y) => x - y);
+      if (resonant.has(i) && others.length) share.set(i, others[others.length >> 1]);
+    }
+  }
+  for (const i of members) if (resonant.has(i)) share.set(i, set.levelStepA);
+  const adjusted = peaks.map((q, i) => (share.has(i) ? { ...q, stepA: share.get(i)! } : q));
+  const next = assignWith(adjusted, eta, etaGiven, resonances, { ...options, regime: "shell-filling" }, members);
+  unforced(next);
+  const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
+  if (!p || [...p.peakIndices].sort((x, y) => x - y).join() !== [...set.members].sort((x, y) => x - y).join()) return a;
+  const list = (xs: readonly number[]) => xs.map((i) => peaks[i].biasV.toFixed(3)).join(", ");
+  next.evidence.reasons.unshift(
+    ...earlierReasons(a, next),
+    `p read again as three spin pairs (each orbital's two electrons charge one Ec apart; Ec = ${set.chargingEnergyV.toFixed(3)} V, the s doublet's spacing): peaks at ${list(set.members)} V, pairs within ${Math.round(100 * Math.max(...set.pairDeviations.map(Math.abs)))} % of Ec${set.leftOut.length ? `; peaks at ${list(set.leftOut)} V left out of p` : ""}`,
   );
   return next;
 }
