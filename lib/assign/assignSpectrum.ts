@@ -134,7 +134,11 @@ export interface Assignment {
  *    (`iterateResonances`; a round the rules do not read as shell filling is saved by setting
  *    aside again the first kept level that restores it). Where p then opens with an odd sub-group at a VB peak's predicted
  *    resonance (`oddLeadingLevel`; a VB peak set aside as a CB level's resonance predicts too),
- *    that peak is set aside if the rules still read shell filling with an even first sub-group. A result that is not shell filling is tried the same way from the
+ *    that peak is set aside if the rules still read shell filling with an even first sub-group. Where
+ *    p is then not three pairs of charging peaks one Ec apart (spin puts two electrons on every
+ *    orbital) and a resonance lies among the CB peaks beyond s, the six peaks that are three such
+ *    pairs, every peak left out between them explained (`spinPairSet`), make p and steps 1–6 run
+ *    again (`withSpinPairs`). A result that is not shell filling is tried the same way from the
  *    shell-filling reading when its band-edge resonances carry at least
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
  *    filling unasked, or if the VB's first main peaks read as a charging doublet by the CB's own
