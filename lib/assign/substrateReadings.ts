@@ -255,6 +255,12 @@ function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolea
  *    at positive bias: note 3 of `valenceFillingDoublet`); the CB's second s peak, under a VB
  *    level's resonance, steps as s and that resonance together, and reads as p in shell
  *    tunnelling without this.
+ * 3. With the second peak's step so set, a resonance of a higher VB level close after it (those
+ *    fall N·Ec/(1 − η) nearer 0 V than the plain −η·V/(1 − η) that set the candidates aside)
+ *    still makes the pair read as the s level and a p level. The reading of note 2 then stands
+ *    if, from the shell-filling reading with the resonances its ladder predicts set aside
+ *    (`iterateResonances`), the rules read shell filling unasked, as a hidden first peak's does
+ *    (the VB doublet, which opened this reading, is not asked again).
  */
 function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
   if (first.regime === "shell-filling" || options.regime) return null;
@@ -285,18 +291,21 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: hiddenStepA } : p));
   const rest = candidates.filter((c) => c !== hidden);
   let out = assignWith(adjusted, eta, etaGiven, rest, options);
-  if (out.regime !== "shell-filling" && !second) {
+  if (out.regime !== "shell-filling" && (!second || !strong)) {
     // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
     // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it
     // unasked, or if the VB reads as a charging doublet (its own ladder has no such resonances).
+    // So may a hidden second one read from the VB doublet (note 3), by the rules alone.
     const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
     out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
-    if (out === forced) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
+    if (out === forced && !second) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
     if (out === forced) return null;
     unforced(out);
   }
   if (out.regime !== "shell-filling") return null;
-  const kept = `the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing ${second ? "above" : "below"} the first CB peak, is kept as the s doublet's ${second ? "second" : "first"} peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`;
+  // The rounds (note 3) may have placed s elsewhere: the reason says what the reading holds.
+  const inS = out.multiplets.some((m) => m.band === "CB" && m.label === "s" && m.peakIndices.includes(hidden.index));
+  const kept = `the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing ${second ? "above" : "below"} the first CB peak, ${inS ? "is kept" : "was read first"} as the s doublet's ${second ? "second" : "first"} peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)${inS ? "" : ", the rounds from that reading then placing s"}`;
   out.evidence.reasons.unshift(
     strong
       ? `the resonance of the band-edge level at ${peaks[resonance!.sourceIndex].biasV.toFixed(3)} V carries ${resonance!.ratio.toFixed(2)} × its step (≥ ${D.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; ${kept}`

@@ -55,4 +55,26 @@ describe("assignSpectrum(peaks, { eta }): the s doublet's second peak under the 
     expect(a.regime).not.toBe("shell-filling");
     expect(a.evidence.reasons.some((r) => r.includes("a charging doublet, so shell filling"))).toBe(false);
   });
+
+  it("reads shell filling from the rounds where a VB level's resonance the plain guess misses follows s2", () => {
+    // A VB level of four states, its first peak 1.85 V: the plain −η·V/(1 − η) puts its resonance
+    // at 2.775 V, the ladder at η/(1 − η)·(|V| − 2·Ec_V) = 2.025 V (two carriers before it), 0.15 V
+    // after s2: the pair s1, s2 then reads as the s level and a p level until the rounds set it aside.
+    const r = 4, step = 1e-11, ecV = ec / eta, v2 = 1.85;
+    const q = secondToFirstStepRatio(r), rho = substrateToTipStepRatio(2, r);
+    const vb = [vbV[0], vbV[1], ...[0, 1, 2, 3].map((k) => -(v2 + k * ecV))];
+    const sResonanceV = -gain * sV[0];
+    const peaks = [
+      peak(vb[0], step), peak(vb[1], q * step), ...vb.slice(2).map((v) => peak(v, step)),
+      peak(sResonanceV, rho * step), peak(sResonanceV - 0.012, 0),
+      peak(sV[0], step), peak(sV[1], q * step + rho * step), peak(gain * (v2 - 2 * ecV), substrateToTipStepRatio(4, r) * step), ...pV.map((v) => peak(v, 0.9 * step)),
+    ].sort((a, b) => a.biasV - b.biasV);
+    const a = assignSpectrum(peaks, { eta });
+    expect(a.regime).toBe("shell-filling");
+    const byLabel = Object.fromEntries(a.multiplets.map((m) => [m.label, m]));
+    expectClose(byLabel.s.peaksV, sV, { rtol: 1e-12, what: "s, closed form" });
+    expectClose(byLabel.p.peaksV, pV, { rtol: 1e-12, what: "p, closed form" });
+    expectClose(a.evidence.secondJunction.map((x) => peaks[x.index].biasV).filter((v) => v > 0), [gain * (v2 - 2 * ecV)], { rtol: 1e-12, what: "the ladder's resonance, closed form" });
+    expect(a.evidence.reasons.some((x) => x.includes("given by the user"))).toBe(false);
+  });
 });
