@@ -123,7 +123,7 @@ export interface Assignment {
  *    the VB's first main peaks read as a charging doublet, `valenceFillingDoublet`, whose second
  *    step is at least `D.valenceDoubletStepRatioMin` × the first, its step taken as that ratio of
  *    the first, and the reading standing too if the rules read it unasked after the rounds of
- *    note 8); failing that, a candidate one spacing
+ *    note 8; the same for a hidden first peak); failing that, a candidate one spacing
  *    below it stepping at least 2 + `D.fillingStepRatio[0]` × its source (a doublet's resonance
  *    alone steps less than 2×) is the s doublet's first peak under a resonance (its step taken as
  *    (1 + r)/r of the first CB peak's), the shell-filling reading then standing if the rules read

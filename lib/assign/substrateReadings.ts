@@ -243,24 +243,25 @@ function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolea
  *    edge level lies under a resonance (the next peak of the band, then taken for the edge, is
  *    a second charging peak, whose resonance carries 1/(1 + r) of the first's: note 1 of
  *    `levelsAtDoubletResonance`) or where a resonance is split in two. So where it is lower, a
- *    candidate one spacing above the first CB peak is still read as the s doublet's second peak
- *    if the VB's first two main peaks read as a charging doublet (`valenceFillingDoublet`:
+ *    candidate one spacing above the first CB peak is still read as the s doublet's second peak,
+ *    and one below it (stepping as note 1 asks) as its first, if the VB's first two main peaks
+ *    read as a charging doublet (`valenceFillingDoublet`:
  *    alike steps, then a jump of at least `ASSIGN_DEFAULTS.fillingJumpRatioMin` × their spacing
  *    to the next level) whose second step is at least `ASSIGN_DEFAULTS.valenceDoubletStepRatioMin`
  *    × the first: r/(1 + r) at r = 3, the margin of note 1 over the filling limit r = 1.5 (the
- *    doublet at the limit steps 0.6, in the crossover less). The CB doublet's second step is
- *    then taken as the VB doublet's ratio (at most 1): both bands' edge levels charge through
+ *    doublet at the limit steps 0.6, in the crossover less). The CB doublet's step ratio is
+ *    then taken as the VB doublet's (at most 1): both bands' edge levels charge through
  *    the same junctions, so one r gives both. The VB main peaks are those of the first reading,
  *    with the CB levels' plain resonances set aside (and none of the VB levels' own, which fall
  *    at positive bias: note 3 of `valenceFillingDoublet`); the CB's second s peak, under a VB
  *    level's resonance, steps as s and that resonance together, and reads as p in shell
  *    tunnelling without this.
- * 3. With the second peak's step so set, a resonance of a higher VB level close after it (those
- *    fall N·Ec/(1 − η) nearer 0 V than the plain −η·V/(1 − η) that set the candidates aside)
- *    still makes the pair read as the s level and a p level. The reading of note 2 then stands
- *    if, from the shell-filling reading with the resonances its ladder predicts set aside
- *    (`iterateResonances`), the rules read shell filling unasked, as a hidden first peak's does
- *    (the VB doublet, which opened this reading, is not asked again).
+ * 3. With the hidden peak's step so set, a resonance of a higher VB level close after the s
+ *    doublet (those fall N·Ec/(1 − η) nearer 0 V than the plain −η·V/(1 − η) that set the
+ *    candidates aside) still makes the pair read as the s level and a p level. The reading of
+ *    note 2 then stands if, from the shell-filling reading with the resonances its ladder
+ *    predicts set aside (`iterateResonances`), the rules read shell filling unasked, as a hidden
+ *    first peak's of note 1 does (the VB doublet, which opened the reading, is not asked again).
  */
 function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
   if (first.regime === "shell-filling" || options.regime) return null;
@@ -280,7 +281,7 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   const near = (v: number) => candidates.find((c) => Math.abs(peaks[c.index].biasV - v) <= tol);
   // The s doublet's second peak one Ec above the first CB peak, else its first one Ec below it.
   const second = near(cb[0].p.biasV + ecV);
-  const hidden = second ?? (strong && cb[0].p.biasV - ecV > 0 ? near(cb[0].p.biasV - ecV) : undefined);
+  const hidden = second ?? (cb[0].p.biasV - ecV > 0 ? near(cb[0].p.biasV - ecV) : undefined);
   if (!hidden) return null;
   // The s doublet's second step over its first: from the resonances (note 1) or the VB doublet (note 2).
   const doubletStepRatio = strong ? resonance!.doubletStepRatio : Math.min(1, doublet!.stepRatio);
@@ -295,10 +296,10 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
     // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
     // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it
     // unasked, or if the VB reads as a charging doublet (its own ladder has no such resonances).
-    // So may a hidden second one read from the VB doublet (note 3), by the rules alone.
+    // So may a hidden peak read from the VB doublet (note 3), by the rules alone.
     const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
     out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
-    if (out === forced && !second) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
+    if (out === forced && !second && strong) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
     if (out === forced) return null;
     unforced(out);
   }
@@ -309,7 +310,7 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   out.evidence.reasons.unshift(
     strong
       ? `the resonance of the band-edge level at ${peaks[resonance!.sourceIndex].biasV.toFixed(3)} V carries ${resonance!.ratio.toFixed(2)} × its step (≥ ${D.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; ${kept}`
-      : `the VB's first two main peaks step alike (ratio ${doublet!.stepRatio.toFixed(2)} ≥ ${D.valenceDoubletStepRatioMin.toFixed(2)}, r/(1 + r) at r = 3, twice the filling limit) with a jump of ${doublet!.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${D.fillingJumpRatioMin}): a charging doublet, so shell filling; ${kept}, its step taken as the VB doublet's ratio × the first's (the band-edge resonances, ${resonance ? `${resonance.ratio.toFixed(2)} × their levels' steps,` : "none found,"} read low where a resonance hides an edge level or is split)`,
+      : `the VB's first two main peaks step alike (ratio ${doublet!.stepRatio.toFixed(2)} ≥ ${D.valenceDoubletStepRatioMin.toFixed(2)}, r/(1 + r) at r = 3, twice the filling limit) with a jump of ${doublet!.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${D.fillingJumpRatioMin}): a charging doublet, so shell filling; ${kept}, its step set by the VB doublet's step ratio (the band-edge resonances, ${resonance ? `${resonance.ratio.toFixed(2)} × their levels' steps,` : "none found,"} read low where a resonance hides an edge level or is split)`,
   );
   return out;
 }

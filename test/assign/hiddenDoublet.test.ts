@@ -1,13 +1,13 @@
-// The s doublet's second peak under the VB edge level's second-junction resonance, read as shell
-// filling from the VB's charging doublet where the band-edge resonances read weak (note 2 of
-// `hiddenDoublet` in lib/assign/substrateReadings.ts). Peak lists built from the closed-form peak
+// The s doublet's second (or first) peak under a VB level's second-junction resonance, read as
+// shell filling from the VB's charging doublet where the band-edge resonances read weak (notes 2
+// and 3 of `hiddenDoublet` in lib/assign/substrateReadings.ts). Peak lists built from the closed-form peak
 // positions of orthodox theory, (ε + Ec·(n + ½))/η, the resonance of a peak at V at −η·V/(1 − η),
 // and the step ratios r/(1 + r) of a doublet and (2r + 1)/(2 + r) of its resonance
 // (`secondToFirstStepRatio`, `substrateToTipStepRatio`: closed forms).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { assignPeak as peak } from "../helpers/assignPeak.ts";
-import { assignSpectrum, ASSIGN_DEFAULTS } from "../../lib/assign/assignSpectrum.ts";
+import { assignSpectrum, ASSIGN_DEFAULTS, type Assignment } from "../../lib/assign/assignSpectrum.ts";
 import { REGIME_LIMITS, secondToFirstStepRatio, substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 
 // η = 0.6 (gain η/(1 − η) = 1.5), Ec = 0.15 eV; ε_s = 0.9, ε_p = 1.35 eV; the VB edge level placed
@@ -31,6 +31,15 @@ function spectrum(r: number) {
   ].sort((a, b) => a.biasV - b.biasV);
 }
 
+/** Shell filling with s, p and Ec at the closed form. */
+function expectClosedForm(a: Assignment): void {
+  expect(a.regime).toBe("shell-filling");
+  const byLabel = Object.fromEntries(a.multiplets.map((m) => [m.label, m]));
+  expectClose(byLabel.s.peaksV, sV, { rtol: 1e-12, what: "s, closed form" });
+  expectClose(byLabel.p.peaksV, pV, { rtol: 1e-12, what: "p, closed form" });
+  expectClose(a.quantities.chargingEnergyV!, ec / eta, { rtol: 1e-9, what: "Ec in bias, closed form" });
+}
+
 describe("assignSpectrum(peaks, { eta }): the s doublet's second peak under the VB edge level's resonance", () => {
   it("the least VB doublet ratio is r/(1 + r) at twice the filling limit (closed form)", () => {
     expect(ASSIGN_DEFAULTS.valenceDoubletStepRatioMin).toBe(secondToFirstStepRatio(2 * REGIME_LIMITS.fillingRateRatioMin));
@@ -40,11 +49,7 @@ describe("assignSpectrum(peaks, { eta }): the s doublet's second peak under the 
   it("reads shell filling with s, p and Ec at the closed form where the VB doublet steps 4/5 (r = 4)", () => {
     const peaks = spectrum(4);
     const a = assignSpectrum(peaks, { eta });
-    expect(a.regime).toBe("shell-filling");
-    const byLabel = Object.fromEntries(a.multiplets.map((m) => [m.label, m]));
-    expectClose(byLabel.s.peaksV, sV, { rtol: 1e-12, what: "s, closed form" });
-    expectClose(byLabel.p.peaksV, pV, { rtol: 1e-12, what: "p, closed form" });
-    expectClose(a.quantities.chargingEnergyV!, ec / eta, { rtol: 1e-9, what: "Ec in bias, closed form" });
+    expectClosedForm(a);
     expect(a.evidence.reasons[0]).toMatch(/a charging doublet, so shell filling; the peak at 1\.875 V/);
   });
 
@@ -70,11 +75,26 @@ describe("assignSpectrum(peaks, { eta }): the s doublet's second peak under the 
       peak(sV[0], step), peak(sV[1], q * step + rho * step), peak(gain * (v2 - 2 * ecV), substrateToTipStepRatio(4, r) * step), ...pV.map((v) => peak(v, 0.9 * step)),
     ].sort((a, b) => a.biasV - b.biasV);
     const a = assignSpectrum(peaks, { eta });
-    expect(a.regime).toBe("shell-filling");
-    const byLabel = Object.fromEntries(a.multiplets.map((m) => [m.label, m]));
-    expectClose(byLabel.s.peaksV, sV, { rtol: 1e-12, what: "s, closed form" });
-    expectClose(byLabel.p.peaksV, pV, { rtol: 1e-12, what: "p, closed form" });
+    expectClosedForm(a);
     expectClose(a.evidence.secondJunction.map((x) => peaks[x.index].biasV).filter((v) => v > 0), [gain * (v2 - 2 * ecV)], { rtol: 1e-12, what: "the ladder's resonance, closed form" });
     expect(a.evidence.reasons.some((x) => x.includes("given by the user"))).toBe(false);
+  });
+
+  it("reads shell filling where the VB edge level's resonance hides the s doublet's first peak (r = 9)", () => {
+    // The VB edge level at s1/gain: its resonance on s1 ((2r + 1)/(2 + r) × its step added to
+    // s1's). The CB edge left is s2, whose resonance carries 1/(1 + r) of s1's: the band-edge
+    // resonances read weak, the VB doublet (9/10) reads shell filling.
+    const r = 9, step = 1e-11, ecV = ec / eta;
+    const q = secondToFirstStepRatio(r), rho = substrateToTipStepRatio(2, r);
+    const v1Edge = sV[0] / gain;
+    const vb = [v1Edge, v1Edge + ecV, 1.75, 1.75 + ecV].map((v) => -v);
+    const peaks = [
+      peak(vb[0], step), peak(vb[1], q * step), ...vb.slice(2).map((v) => peak(v, step)),
+      peak(-gain * sV[1], (rho * step) / (1 + r)),
+      peak(sV[0], step + rho * step), peak(sV[1], q * step), ...pV.map((v) => peak(v, 0.9 * step)),
+    ].sort((a, b) => a.biasV - b.biasV);
+    const a = assignSpectrum(peaks, { eta });
+    expectClosedForm(a);
+    expect(a.evidence.reasons[0]).toMatch(/a charging doublet, so shell filling; the peak at 1\.625 V, one VB doublet spacing below the first CB peak, is kept as the s doublet's first peak/);
   });
 });
