@@ -3,7 +3,7 @@
  * stage of {@link assignSpectrum} (regime, satellites, shells, valence groups).
  */
 
-import { REGIME_LIMITS, substrateToTipStepRatio } from "../model/regimeLimits.ts";
+import { REGIME_LIMITS, secondToFirstStepRatio, substrateToTipStepRatio } from "../model/regimeLimits.ts";
 
 /**
  * Thresholds of the classification and grouping rules (locked by a test). Re-exported by
@@ -109,6 +109,13 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * limit for a margin (7/5 = 1.4; `substrateToTipStepRatio` in lib/model/regimeLimits.ts).
    */
   fillingResonanceStepMin: substrateToTipStepRatio(2, 2 * REGIME_LIMITS.fillingRateRatioMin),
+  /**
+   * Where the band-edge resonances read weaker than `fillingResonanceStepMin`, a VB charging
+   * doublet whose second step is at least this multiple of its first reads as shell filling when
+   * a resonance hides the CB's second s peak: r/(1 + r) at r = 3, the same margin over the
+   * filling limit (3/4; `secondToFirstStepRatio` in lib/model/regimeLimits.ts).
+   */
+  valenceDoubletStepRatioMin: secondToFirstStepRatio(2 * REGIME_LIMITS.fillingRateRatioMin),
   /** Valence band, shell filling: a spacing within (1 ± this)·Ec keeps two peaks in one group. */
   valenceChargingTolerance: 0.3,
   /**

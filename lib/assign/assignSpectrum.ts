@@ -119,7 +119,11 @@ export interface Assignment {
  *    band-edge resonances carry at least `D.fillingResonanceStepMin` × their levels' steps
  *    ((g·r + 1)/(g + r), `substrateToTipStepRatio`) the dot is in shell filling, and a candidate
  *    one VB doublet spacing above the first CB peak is the s doublet's second peak under a
- *    resonance (its step taken as r/(1 + r) of the first); failing that, a candidate one spacing
+ *    resonance (its step taken as r/(1 + r) of the first; where those resonances read weaker, if
+ *    the VB's first main peaks read as a charging doublet, `valenceFillingDoublet`, whose second
+ *    step is at least `D.valenceDoubletStepRatioMin` × the first, its step taken as that ratio of
+ *    the first, and the reading standing too if the rules read it unasked after the rounds of
+ *    note 8; the same for a hidden first peak); failing that, a candidate one spacing
  *    below it stepping at least 2 + `D.fillingStepRatio[0]` × its source (a doublet's resonance
  *    alone steps less than 2×) is the s doublet's first peak under a resonance (its step taken as
  *    (1 + r)/r of the first CB peak's), the shell-filling reading then standing if the rules read

@@ -6,6 +6,7 @@
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { BandPeak } from "./bandPeaks.ts";
 import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
 import { assignWith } from "./assignWith.ts";
 import { confirmResonances } from "./confirmResonances.ts";
@@ -24,13 +25,7 @@ import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAU
  * rounds of `iterateResonances` run under that regime; null when the VB does not read so.
  */
 export function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, forced: Assignment, first: Assignment, options: AssignOptions): Assignment | null {
-  // The first reading is not shell filling, so each of its VB groups is one main peak.
-  const vb = first.multiplets
-    .filter((m) => m.band === "VB")
-    .flatMap((m) => m.peakIndices)
-    .map((index) => ({ peak: peaks[index], x: -peaks[index].biasV, index }))
-    .sort((a, b) => a.x - b.x);
-  const doublet = valenceFillingDoublet(vb);
+  const doublet = valenceFillingDoublet(firstValencePeaks(peaks, first));
   if (doublet === null) return null;
   const regime = "shell-filling";
   const out = iterateResonances(peaks, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, { ...options, regime }));
@@ -39,6 +34,18 @@ export function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: bo
     `read as shell filling: the band-edge resonances carry at least ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)} × their levels' steps and the VB's first two main peaks step alike (ratio ${doublet.stepRatio.toFixed(2)} within ${ASSIGN_DEFAULTS.fillingStepRatio.join("–")}) with a jump of ${doublet.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${ASSIGN_DEFAULTS.fillingJumpRatioMin}): a charging doublet; the CB ladder (the first reading, ${first.regime}) holds resonances of VB levels that its own prediction misses`,
   );
   return out;
+}
+
+/**
+ * The VB main peaks of a reading that is not shell filling (each of its VB groups is one main
+ * peak), from the gap edge outward (`x` = |bias|, V).
+ */
+function firstValencePeaks(peaks: readonly Peak[], first: Assignment): BandPeak[] {
+  return first.multiplets
+    .filter((m) => m.band === "VB")
+    .flatMap((m) => m.peakIndices)
+    .map((index) => ({ peak: peaks[index], x: -peaks[index].biasV, index }))
+    .sort((a, b) => a.x - b.x);
 }
 
 /** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
@@ -256,13 +263,68 @@ function fillingResonances(peaks: readonly Peak[], eta: number, etaGiven: boolea
 
 /**
  * Shell filling read from the height of a band-edge level's resonance, where a resonance hides the
- * s doublet's second peak or its first (note 7 of `assignSpectrum`); null when the heights do not
- * say shell filling or the reading fails.
+ * s doublet's second peak or its first (note 7 of `assignSpectrum`), or from the VB's charging
+ * doublet where it hides the second; null when neither says shell filling or the reading fails.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Peak[]
+ *     The peaks of one curve (`biasV` in V, `stepA` in A).
+ * eta : number
+ *     Voltage-division factor η in (0, 1).
+ * etaGiven : boolean
+ *     Whether the user gave η.
+ * candidates : readonly SecondJunctionResonance[]
+ *     The plain −η·V/(1 − η) candidates (`secondJunctionResonances`).
+ * first : Assignment
+ *     The reading with the candidates set aside.
+ * options : AssignOptions
+ *     As given to `assignSpectrum`.
+ *
+ * Returns
+ * -------
+ * Assignment | null
+ *     The shell-filling reading with the hidden peak kept as an s peak, or null.
+ *
+ * Notes
+ * -----
+ * 1. Where the band-edge resonances carry at least `ASSIGN_DEFAULTS.fillingResonanceStepMin` ×
+ *    their levels' steps ((g·r + 1)/(g + r) at r = 3, `bandEdgeResonanceRatio`), a candidate
+ *    one VB doublet spacing (Ec) above the first CB peak is the s doublet's second peak, its step
+ *    taken as r/(1 + r) of the first for the r those resonances give; one spacing below, its
+ *    first.
+ * 2. That ratio is the smallest over the band-edge resonances, and it reads low where a band's
+ *    edge level lies under a resonance (the next peak of the band, then taken for the edge, is
+ *    a second charging peak, whose resonance carries 1/(1 + r) of the first's: note 1 of
+ *    `levelsAtDoubletResonance`) or where a resonance is split in two. So where it is lower, a
+ *    candidate one spacing above the first CB peak is still read as the s doublet's second peak,
+ *    and one below it (stepping as note 1 asks) as its first, if the VB's first two main peaks
+ *    read as a charging doublet (`valenceFillingDoublet`:
+ *    alike steps, then a jump of at least `ASSIGN_DEFAULTS.fillingJumpRatioMin` × their spacing
+ *    to the next level) whose second step is at least `ASSIGN_DEFAULTS.valenceDoubletStepRatioMin`
+ *    × the first: r/(1 + r) at r = 3, the margin of note 1 over the filling limit r = 1.5 (the
+ *    doublet at the limit steps 0.6, in the crossover less). The CB doublet's step ratio is
+ *    then taken as the VB doublet's (at most 1): both bands' edge levels charge through
+ *    the same junctions, so one r gives both. The VB main peaks are those of the first reading,
+ *    with the CB levels' plain resonances set aside (and none of the VB levels' own, which fall
+ *    at positive bias: note 3 of `valenceFillingDoublet`); the CB's second s peak, under a VB
+ *    level's resonance, steps as s and that resonance together, and reads as p in shell
+ *    tunnelling without this.
+ * 3. With the hidden peak's step so set, a resonance of a higher VB level close after the s
+ *    doublet (those fall N·Ec/(1 − η) nearer 0 V than the plain −η·V/(1 − η) that set the
+ *    candidates aside) still makes the pair read as the s level and a p level. The reading of
+ *    note 2 then stands if, from the shell-filling reading with the resonances its ladder
+ *    predicts set aside (`iterateResonances`), the rules read shell filling unasked, as a hidden
+ *    first peak's of note 1 does (the VB doublet, which opened the reading, is not asked again).
  */
 function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, candidates: readonly SecondJunctionResonance[], first: Assignment, options: AssignOptions): Assignment | null {
   if (first.regime === "shell-filling" || options.regime) return null;
-  const edge = bandEdgeResonanceRatio(peaks, candidates);
-  if (edge === null || edge.ratio < ASSIGN_DEFAULTS.fillingResonanceStepMin) return null;
+  const D = ASSIGN_DEFAULTS;
+  const resonance = bandEdgeResonanceRatio(peaks, candidates);
+  const strong = resonance !== null && resonance.ratio >= D.fillingResonanceStepMin;
+  // Note 2: without strong resonances, the VB's charging doublet must say shell filling.
+  const doublet = strong ? null : valenceFillingDoublet(firstValencePeaks(peaks, first));
+  if (!strong && (doublet === null || doublet.stepRatio < D.valenceDoubletStepRatioMin)) return null;
   // Ec from the VB doublet (the gap-edge pair of VB peaks that are not resonances).
   const taken = new Set(candidates.map((c) => c.index));
   const vb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV < 0 && !taken.has(i)).sort((a, b) => b.p.biasV - a.p.biasV);
@@ -275,26 +337,34 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   const second = near(cb[0].p.biasV + ecV);
   const hidden = second ?? (cb[0].p.biasV - ecV > 0 ? near(cb[0].p.biasV - ecV) : undefined);
   if (!hidden) return null;
+  // The s doublet's second step over its first: from the resonances (note 1) or the VB doublet (note 2).
+  const doubletStepRatio = strong ? resonance!.doubletStepRatio : Math.min(1, doublet!.stepRatio);
   // Below the first CB peak, the resonance of a doublet alone steps less than 2 × its source
   // ((2r + 1)/(2 + r) < 2); a charging step under it adds at least the least filling step ratio.
   if (!second && peaks[hidden.index].stepA < (2 + ASSIGN_DEFAULTS.fillingStepRatio[0]) * peaks[hidden.sourceIndex].stepA) return null;
-  const hiddenStepA = second ? peaks[cb[0].i].stepA * edge.doubletStepRatio : peaks[cb[0].i].stepA / edge.doubletStepRatio;
+  const hiddenStepA = second ? peaks[cb[0].i].stepA * doubletStepRatio : peaks[cb[0].i].stepA / doubletStepRatio;
   const adjusted = peaks.map((p, i) => (i === hidden.index ? { ...p, stepA: hiddenStepA } : p));
   const rest = candidates.filter((c) => c !== hidden);
   let out = assignWith(adjusted, eta, etaGiven, rest, options);
-  if (out.regime !== "shell-filling" && !second) {
+  if (out.regime !== "shell-filling" && (!second || !strong)) {
     // A hidden first peak leaves the resonances of the higher VB levels in the CB ladder: the
     // shell-filling reading stands if, with those its ladder predicts set aside, the rules read it
     // unasked, or if the VB reads as a charging doublet (its own ladder has no such resonances).
+    // So may a hidden peak read from the VB doublet (note 3), by the rules alone.
     const forced = assignWith(adjusted, eta, etaGiven, rest, { ...options, regime: "shell-filling" });
     out = iterateResonances(adjusted, forced, eta, (p, r) => assignWith(p, eta, etaGiven, r, options));
-    if (out === forced) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
+    if (out === forced && !second && strong) out = valenceDoublet(adjusted, eta, etaGiven, forced, first, options) ?? forced;
     if (out === forced) return null;
     unforced(out);
   }
   if (out.regime !== "shell-filling") return null;
+  // The rounds (note 3) may have placed s elsewhere: the reason says what the reading holds.
+  const inS = out.multiplets.some((m) => m.band === "CB" && m.label === "s" && m.peakIndices.includes(hidden.index));
+  const kept = `the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing ${second ? "above" : "below"} the first CB peak, ${inS ? "is kept" : "was read first"} as the s doublet's ${second ? "second" : "first"} peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)${inS ? "" : ", the rounds from that reading then placing s"}`;
   out.evidence.reasons.unshift(
-    `the resonance of the band-edge level at ${peaks[edge.sourceIndex].biasV.toFixed(3)} V carries ${edge.ratio.toFixed(2)} × its step (≥ ${ASSIGN_DEFAULTS.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; the peak at ${peaks[hidden.index].biasV.toFixed(3)} V, one VB doublet spacing ${second ? "above" : "below"} the first CB peak, is kept as the s doublet's ${second ? "second" : "first"} peak (the resonance at ${hidden.predictedV.toFixed(3)} V overlaps it)`,
+    strong
+      ? `the resonance of the band-edge level at ${peaks[resonance!.sourceIndex].biasV.toFixed(3)} V carries ${resonance!.ratio.toFixed(2)} × its step (≥ ${D.fillingResonanceStepMin.toFixed(2)}, (g·r + 1)/(g + r) for g = 2 at r = 3, twice the filling limit): shell filling; ${kept}`
+      : `the VB's first two main peaks step alike (ratio ${doublet!.stepRatio.toFixed(2)} ≥ ${D.valenceDoubletStepRatioMin.toFixed(2)}, r/(1 + r) at r = 3, twice the filling limit) with a jump of ${doublet!.jumpRatio.toFixed(2)} × their spacing to the next (≥ ${D.fillingJumpRatioMin}): a charging doublet, so shell filling; ${kept}, its step set by the VB doublet's step ratio (the band-edge resonances, ${resonance ? `${resonance.ratio.toFixed(2)} × their levels' steps,` : "none found,"} read low where a resonance hides an edge level or is split)`,
   );
   return out;
 }

@@ -173,6 +173,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       tunnelingSublevelStepMax: 2.5,
       levelChargingTolerance: 0.15,
       fillingResonanceStepMin: 1.4,
+      valenceDoubletStepRatioMin: 0.75,
       valenceChargingTolerance: 0.3,
       valenceTwinStepRatioMax: 1,
       splitShellStepRatioMax: 3,
