@@ -18,6 +18,12 @@ export const SPIN_PAIRS_DEFAULTS = Object.freeze({
   pairTolerance: 0.25,
   /** At most this many CB peaks beyond s are candidates (C(12, 6) = 924 sets at most). */
   maxCandidates: 12,
+  /**
+   * `withSpinPairs`: a peak left out that steps like a level or more and that the ladder did not
+   * predict is set aside as the resonance of the nearest prediction within this × Ec_V (a peak
+   * pulled by its overlap with a level); farther from every prediction, it is left to the rules.
+   */
+  unpredictedReach: 0.5,
 });
 
 /** What {@link spinPairSet} reads from a shell-filling assignment. */

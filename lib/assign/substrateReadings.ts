@@ -13,7 +13,7 @@ import { confirmResonances } from "./confirmResonances.ts";
 import { earlierReasons, iterateResonances } from "./iterateResonances.ts";
 import { ladderPredictions, ladderResonances } from "./ladderResonances.ts";
 import { oddLeadingLevel } from "./oddLeadingLevel.ts";
-import { spinPairSet } from "./spinPairs.ts";
+import { spinPairSet, SPIN_PAIRS_DEFAULTS } from "./spinPairs.ts";
 import { valenceFillingDoublet } from "./regime.ts";
 import { overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
@@ -100,7 +100,7 @@ export function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: bo
  * A shell-filling reading whose p is not three spin pairs (`spinPairSet`) read again with the six
  * peaks that are: the peaks left out inside p's span that step like a level or more are set aside
  * as second-junction resonances (a resonance of the ladder, or, unpredicted, of the nearest
- * prediction on their side), the multiplets' peaks at a resonance take their level's share of the
+ * prediction on their side within `SPIN_PAIRS_DEFAULTS.unpredictedReach` × Ec_V), the multiplets' peaks at a resonance take their level's share of the
  * step (p's level step; elsewhere the median of the multiplet's other peaks, as in the rounds of
  * `iterateResonances`), and the rules run again under shell filling with p made of that set; the
  * result stands if its p is exactly that set.
@@ -121,7 +121,8 @@ export function withSpinPairs(peaks: readonly Peak[], eta: number, etaGiven: boo
     if (setAside.some((r) => r.index === i) || peaks[i].stepA < ASSIGN_DEFAULTS.fillingStepRatio[0] * set.levelStepA) continue;
     const known = predicted.find((r) => r.index === i);
     const nearest = known ?? [...predictions].sort((x, y) => Math.abs(x.predictedV - peaks[i].biasV) - Math.abs(y.predictedV - peaks[i].biasV))[0];
-    if (!nearest) return a;
+    // An unpredicted one is the resonance of a prediction only near it; else the rules decide.
+    if (!nearest || (!known && Math.abs(nearest.predictedV - peaks[i].biasV) > SPIN_PAIRS_DEFAULTS.unpredictedReach * set.chargingEnergyV)) continue;
     records.push({ index: i, sourceIndex: nearest.sourceIndex, predictedV: nearest.predictedV });
   }
   const resonances = [...setAside.filter((r) => !members.has(r.index)), ...records];

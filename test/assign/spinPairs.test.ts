@@ -76,6 +76,6 @@ describe("spinPairSet(peaks, { multiplets, resonant })", () => {
   });
 
   it("SPIN_PAIRS_DEFAULTS are locked", () => {
-    expect(SPIN_PAIRS_DEFAULTS).toEqual({ readTolerance: 0.2, pairTolerance: 0.25, maxCandidates: 12 });
+    expect(SPIN_PAIRS_DEFAULTS).toEqual({ readTolerance: 0.2, pairTolerance: 0.25, maxCandidates: 12, unpredictedReach: 0.5 });
   });
 });
