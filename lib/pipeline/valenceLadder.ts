@@ -154,7 +154,11 @@ export function valenceLadderPrediction(
   // The lowest resonance: the first hole of the level nearest the gap, through the substrate junction.
   if ((-levels[0].energyEV + ecEV / 2) / (1 - eta) > biasRangeV[1]) return null;
   const { biasV, currentA, fwhmV } = current;
-  const n = biasV.length;
+  // The fitted stretch [lo, hi): from a FWHM past the outermost VB peak to 0 V.
+  let lo = 0, hi = 0;
+  while (lo < biasV.length && biasV[lo] < outerV - fwhmV) lo++;
+  for (hi = lo; hi < biasV.length && biasV[hi] <= 0; ) hi++;
+  const fitV = biasV.subarray(lo, hi);
   const grid = Array.from({ length: D.rateRatioGrid }, (_, k) => D.minRateRatio * (D.maxRateRatio / D.minRateRatio) ** (k / (D.rateRatioGrid - 1)));
   let best: { rateRatio: number; scale: number; misfitA: number; all: CurrentStep[] } | null = null;
   let points = 0;
@@ -162,17 +166,17 @@ export function valenceLadderPrediction(
     const rateRatio = Math.min(D.maxRateRatio, Math.max(D.minRateRatio, r));
     const model: DotModel = { cb: [], vb: levels, chargingEnergyEV: ecEV, eta, tipRatePerS: rateRatio, substrateRatePerS: 1, relaxationRatePerS: D.relaxationRateFactor * Math.max(rateRatio, 1), temperatureK: D.temperatureK };
     const all = currentSteps(model, bandLadders(model)).steps;
-    const u = stepsCurrent(all.filter((s) => s.biasV < 0), biasV, fwhmV);
+    const below = all.filter((s) => s.biasV < 0);
+    const u = stepsCurrent(below, fitV, fwhmV);
+    const topA = below.reduce((a, s) => a + s.heightA, 0);
     let uu = 0, ui = 0, ii = 0;
-    points = 0;
-    for (let i = 0; i < n; i++) {
-      if (biasV[i] > 0 || biasV[i] < outerV - fwhmV) continue;
-      const x = u[i] - u[n - 1];
+    for (let k = 0; k < u.length; k++) {
+      const x = u[k] - topA, y = currentA[lo + k];
       uu += x * x;
-      ui += x * currentA[i];
-      ii += currentA[i] * currentA[i];
-      points++;
+      ui += x * y;
+      ii += y * y;
     }
+    points = u.length;
     const scale = ui / uu;
     const misfitA = Math.sqrt(Math.max(0, ii - scale * ui) / Math.max(1, points));
     if (scale > 0 && Number.isFinite(scale) && (!best || misfitA < best.misfitA)) best = { rateRatio, scale, misfitA, all };
