@@ -92,7 +92,10 @@ export interface ValenceLadderPrediction {
  * 3. Scale: least squares of the measured current on the model's ({@link stepsCurrent} of its
  *    steps at negative bias, less its value at 0 V) from 0 V to a FWHM past the outermost VB
  *    peak. The raw current is fitted, not the peaks' steps (which read about 14 % above the
- *    current's: the conductance filter), so the same factor carries the resonance steps.
+ *    current's: the conductance filter), so the same factor carries the resonance steps. The
+ *    s level's resonances through the substrate junction (the CB's nearest the gap) often fall
+ *    on that stretch at low η: the s level, read from its charging peaks like a VB level, is
+ *    modelled with the same rates, and its steps at negative bias join the fitted current.
  * 4. The fit's rms misfit must stay within D.maxMisfitPerStep of the mean measured VB step: a
  *    ladder read with a level too few or too many misfits by about a step, and its resonances
  *    would be wrong.
@@ -159,6 +162,10 @@ export function valenceLadderPrediction(
   while (lo < biasV.length && biasV[lo] < outerV - fwhmV) lo++;
   for (hi = lo; hi < biasV.length && biasV[hi] <= 0; ) hi++;
   const fitV = biasV.subarray(lo, hi);
+  // The s level (electron energy), read like the VB's from its charging peaks: its resonances
+  // through the substrate junction are the CB's nearest the gap and add to the VB side's current.
+  const s = assignment.multiplets.find((m) => m.band === "CB" && m.label === "s" && m.peakIndices.length);
+  const cbLevels: Level[] = s ? [{ energyEV: s.peakIndices.reduce((a, i, k) => a + eta * peaks[i].biasV - ecEV * (k + 0.5), 0) / s.peakIndices.length, degeneracy: s.peakIndices.length }] : [];
   const grid = Array.from({ length: D.rateRatioGrid }, (_, k) => D.minRateRatio * (D.maxRateRatio / D.minRateRatio) ** (k / (D.rateRatioGrid - 1)));
   let best: { rateRatio: number; scale: number; misfitA: number; all: CurrentStep[] } | null = null;
   let points = 0;
@@ -166,7 +173,9 @@ export function valenceLadderPrediction(
     const rateRatio = Math.min(D.maxRateRatio, Math.max(D.minRateRatio, r));
     const model: DotModel = { cb: [], vb: levels, chargingEnergyEV: ecEV, eta, tipRatePerS: rateRatio, substrateRatePerS: 1, relaxationRatePerS: D.relaxationRateFactor * Math.max(rateRatio, 1), temperatureK: D.temperatureK };
     const all = currentSteps(model, bandLadders(model)).steps;
-    const below = all.filter((s) => s.biasV < 0);
+    const sModel = { ...model, cb: cbLevels, vb: [] };
+    const sBelow = cbLevels.length ? currentSteps(sModel, bandLadders(sModel)).steps.filter((st) => st.biasV < 0) : [];
+    const below = [...all.filter((st) => st.biasV < 0), ...sBelow].sort((a, b) => a.biasV - b.biasV);
     const u = stepsCurrent(below, fitV, fwhmV);
     const topA = below.reduce((a, s) => a + s.heightA, 0);
     let uu = 0, ui = 0, ii = 0;

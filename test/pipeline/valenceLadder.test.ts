@@ -78,6 +78,24 @@ describe("valenceLadderPrediction", () => {
     expect(pred.misfitPerStep).toBeLessThan(1e-6);
   });
 
+  it("models the s level's resonances on the VB side with the same rates (note 3; exact equivalence with currentSteps)", () => {
+    // s at 0.6 eV: its resonances −(ε + Ec·(N + ½))/(1 − η) ≈ −1.86 and −2.14 V fall among the VB peaks.
+    const withS: DotModel = { ...vbOnly, cb: [{ energyEV: 0.6, degeneracy: 2 }] };
+    const sOnly = { ...withS, vb: [] };
+    const sTip = currentSteps(sOnly, bandLadders(sOnly)).steps.filter((st) => st.biasV > 0);
+    expect(currentSteps(sOnly, bandLadders(sOnly)).steps.filter((st) => st.biasV < 0 && st.biasV > tipSteps[tipSteps.length - 1].biasV).length).toBeGreaterThan(0);
+    const all = [...peaks, ...sTip.map((st) => asPeak(st.biasV, st.heightA))];
+    const a = assignment as unknown as { multiplets: object[] };
+    const withSAssignment = { ...a, multiplets: [...a.multiplets, { band: "CB", label: "s", degeneracy: 2, peakIndices: [peaks.length, peaks.length + 1], subgroups: [2] }] };
+    const pred = valenceLadderPrediction(all, withSAssignment as never, eta, [-3, 3], { biasV, currentA: modelCurrent(withS), fwhmV })!;
+    expectClose(pred.scale, 1e8, { rtol: 1e-9, what: "Γsub, the model's" });
+    const want = vbSteps.filter((st) => st.biasV > 0 && st.biasV <= 3);
+    expectClose(pred.steps.map((st) => st.heightA), want.map((st) => st.heightA), { rtol: 1e-9, what: "resonance heights, currentSteps of the VB ladder" });
+    // Without the s level in the assignment, its resonances' current is read as the VB's: the scale is off.
+    const without = valenceLadderPrediction(all, assignment, eta, [-3, 3], { biasV, currentA: modelCurrent(withS), fwhmV });
+    expect(without === null || Math.abs(without.scale / 1e8 - 1) > 0.01).toBe(true);
+  });
+
   it("gives nothing for an odd VB sub-group, outside shell filling, or where the model misfits the VB side (notes 1, 4)", () => {
     const a = assignment as unknown as { multiplets: ReturnType<typeof vbGroup>[] };
     const odd = { ...a, multiplets: [a.multiplets[0], { ...a.multiplets[1], peakIndices: a.multiplets[1].peakIndices.slice(0, 3), subgroups: [3] }] };
