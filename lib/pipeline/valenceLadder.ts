@@ -164,11 +164,10 @@ export function valenceLadderPrediction(
   const fitV = biasV.subarray(lo, hi);
   // The s level (electron energy), read like the VB's from its charging peaks: its resonances
   // through the substrate junction are the CB's nearest the gap and add to the VB side's current.
-  const s = assignment.multiplets.find((m) => m.band === "CB" && m.label === "s" && m.peakIndices.length);
-  const cbLevels: Level[] = s ? [{ energyEV: s.peakIndices.reduce((a, i, k) => a + eta * peaks[i].biasV - ecEV * (k + 0.5), 0) / s.peakIndices.length, degeneracy: s.peakIndices.length }] : [];
+  const sShell = assignment.multiplets.find((m) => m.band === "CB" && m.label === "s" && m.peakIndices.length);
+  const cbLevels: Level[] = sShell ? [{ energyEV: sShell.peakIndices.reduce((a, i, k) => a + eta * peaks[i].biasV - ecEV * (k + 0.5), 0) / sShell.peakIndices.length, degeneracy: sShell.peakIndices.length }] : [];
   const grid = Array.from({ length: D.rateRatioGrid }, (_, k) => D.minRateRatio * (D.maxRateRatio / D.minRateRatio) ** (k / (D.rateRatioGrid - 1)));
   let best: { rateRatio: number; scale: number; misfitA: number; all: CurrentStep[] } | null = null;
-  let points = 0;
   for (const r of [q < 1 ? rateRatioFromStepRatio(q) : D.maxRateRatio, ...grid]) {
     const rateRatio = Math.min(D.maxRateRatio, Math.max(D.minRateRatio, r));
     const model: DotModel = { cb: [], vb: levels, chargingEnergyEV: ecEV, eta, tipRatePerS: rateRatio, substrateRatePerS: 1, relaxationRatePerS: D.relaxationRateFactor * Math.max(rateRatio, 1), temperatureK: D.temperatureK };
@@ -177,7 +176,7 @@ export function valenceLadderPrediction(
     const sBelow = cbLevels.length ? currentSteps(sModel, bandLadders(sModel)).steps.filter((st) => st.biasV < 0) : [];
     const below = [...all.filter((st) => st.biasV < 0), ...sBelow].sort((a, b) => a.biasV - b.biasV);
     const u = stepsCurrent(below, fitV, fwhmV);
-    const topA = below.reduce((a, s) => a + s.heightA, 0);
+    const topA = below.reduce((a, st) => a + st.heightA, 0);
     let uu = 0, ui = 0, ii = 0;
     for (let k = 0; k < u.length; k++) {
       const x = u[k] - topA, y = currentA[lo + k];
@@ -185,9 +184,8 @@ export function valenceLadderPrediction(
       ui += x * y;
       ii += y * y;
     }
-    points = u.length;
     const scale = ui / uu;
-    const misfitA = Math.sqrt(Math.max(0, ii - scale * ui) / Math.max(1, points));
+    const misfitA = Math.sqrt(Math.max(0, ii - scale * ui) / Math.max(1, u.length));
     if (scale > 0 && Number.isFinite(scale) && (!best || misfitA < best.misfitA)) best = { rateRatio, scale, misfitA, all };
   }
   if (!best) return null;
@@ -257,6 +255,15 @@ export function stepsCurrent(steps: readonly CurrentStep[], biasV: ArrayLike<num
  * { peaks: Peak[]; currentA: Float64Array; didvS: Float64Array; prediction: ValenceLadderPrediction } | null
  *     A new ascending list (the peaks at negative bias as they were, those at positive bias
  *     found on the remainder), the remainder's current and conductance, and the prediction.
+ *
+ * Example
+ * -------
+ * ```ts
+ * // Inside analyzeCurve: the pipeline's filter and peak search applied to the remainder.
+ * const vb = valenceResonancePeaks(currentA, didvS, biasV, list, stepsA, assignment, eta, w,
+ *   { differentiate: (y) => savitzkyGolayUnchecked(y, windowSamples, order, 1, stepV), findPeaks: (i, g) => findPeaks(biasV, g, options).peaks });
+ * vb?.peaks.filter((p) => p.biasV > 0); // => the CB peaks found with the VB ladder's resonances taken out
+ * ```
  *
  * Notes
  * -----
