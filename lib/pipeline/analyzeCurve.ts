@@ -15,9 +15,10 @@ import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks } from "./flankLevels.ts";
 import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
+import { fullShell, valenceResonancePeaks } from "./valenceLadder.ts";
+import { bandAreas, gapSideFwhm } from "./bandAreas.ts";
 import { setAsideSourcePredictions } from "../assign/oddLeadingLevel.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
-import { median } from "../signal/noise.ts";
 
 /** Options of {@link analyzeCurve}; every field optional. */
 export interface AnalyzeOptions {
@@ -209,6 +210,14 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    keeps its peaks and the regime is unchanged. A full shell whose first peak lies at a
  *    predicted resonance is looked at one Ec_V beyond its last peak too; a step there may take
  *    that first peak's place. Repeated while peaks are added (at most 4 rounds).
+ * 9. The VB ladder's resonances taken out of the CB side (η given, below 1; the current
+ *    differentiated; between notes 7 and 8): where the assignment reads shell filling with VB
+ *    levels whose model describes the VB-side current (`valenceLadderPrediction`), the current
+ *    their second-junction resonances add at positive bias is predicted with the same model the
+ *    steps come from, subtracted from the current (and, through the same filter, from the
+ *    conductance), and the CB peaks are found again on the remainder (`valenceResonancePeaks`).
+ *    The new list stands where the regime is unchanged and p then holds as many peaks as it
+ *    has states; the areas and the later stages then read the remainder.
  *
  * References
  * ----------
@@ -312,12 +321,12 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   }
   let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const w = peakWidthMV / 1000;
-  const curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
+  let curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
   const resonancesOf = (list: readonly Pick<Peak, "biasV">[], a: Assignment) => (eta !== undefined && eta < 1 ? predictedResonancesV(list, a, eta, w) : []);
   let list: readonly Peak[] = found.peaks;
   // A new peak list read again: its areas, its peaks with the sweeps' positions, its assignment.
   const reread = (next: readonly Peak[]) => {
-    const nextAreas = bandAreas(signal.biasV, signal.didvS, next);
+    const nextAreas = bandAreas(signal.biasV, curveIn.didvS, next);
     const nextPeaks = withSweeps(next, nextAreas, sweeps.length, sweepPeaks);
     return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: assignSpectrum(nextPeaks, { eta, regime: options.regime }) };
   };
@@ -338,6 +347,18 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       const kept = [...before].every(([p, label]) => !shared.peaks.includes(p) || after.get(p) === label);
       if (again.assignment.regime === assignment.regime && kept && shared.levels.every(({ peak, label }) => after.get(peak) === label)) take(again);
     }
+  }
+  if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {
+    // The CB side found again on the current less the VB ladder's predicted resonances (note 9).
+    const differentiate = (y: Float64Array) => savitzkyGolayUnchecked(y, signal.record.windowSamples, signal.record.order, 1, prepared.stepV);
+    const findPeaksOn = (currentA: Float64Array, didvS: Float64Array) => peaksOf({ ...signal, currentA }, didvS, "full", peakWidthMV).peaks;
+    const vb = valenceResonancePeaks(curveIn.currentA, curveIn.didvS, signal.biasV, list, peaks.map((p) => p.stepA), assignment, eta, w, { differentiate, findPeaks: findPeaksOn });
+    const whole = curveIn;
+    if (vb) curveIn = { ...curveIn, currentA: vb.currentA, didvS: vb.didvS };
+    const again = vb && reread(vb.peaks);
+    // Kept where the regime stays and p then holds as many peaks as it has states; the later stages read the remainder.
+    if (again && again.assignment.regime === assignment.regime && fullShell(again.assignment, "p")) take(again);
+    else curveIn = whole;
   }
   for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
     // Charging peaks a short filling shell lacks (note 8), one at a time, strongest step first.
@@ -388,43 +409,6 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     assignment,
     warnings: [...signal.record.warnings, ...found.record.warnings, ...assignment.warnings],
   };
-}
-
-/**
- * The current step of each peak from a Gaussian decomposition of its band (findPeaks' own
- * estimate where the decomposition gives nothing), and the common widths used; the peaks are
- * not modified.
- */
-function bandAreas(biasV: Float64Array, didvS: Float64Array, peaks: readonly Peak[]): { stepsA: number[]; widthsV: { CB: number | null; VB: number | null } } {
-  const widthsV: { CB: number | null; VB: number | null } = { CB: null, VB: null };
-  const stepsA = peaks.map((p) => p.stepA);
-  for (const band of ["CB", "VB"] as const) {
-    const members = peaks.map((p, k) => [p, k] as const).filter(([p]) => (band === "CB" ? p.biasV > 0 : p.biasV < 0));
-    if (!members.length) continue;
-    const edge = band === "CB" ? members[0][0] : members[members.length - 1][0];
-    const fwhm = gapSideFwhm(biasV, didvS, edge) ?? median(members.map(([p]) => p.fwhmV));
-    widthsV[band] = fwhm;
-    const areas = peakAreas(biasV, didvS, members.map(([p]) => p.biasV), { fwhmV: fwhm });
-    if (!areas.amplitudesS.some((a) => a > 0)) continue;
-    members.forEach(([, k], i) => (stepsA[k] = areas.areasA[i]));
-  }
-  return { stepsA, widthsV };
-}
-/** Twice the half width at half maximum of a peak on its side facing 0 V (above the gap floor), V; null if not reached. */
-function gapSideFwhm(biasV: Float64Array, didvS: Float64Array, peak: Peak): number | null {
-  const dir = peak.biasV > 0 ? -1 : 1;
-  let floor = didvS[peak.index];
-  for (let i = peak.index; i >= 0 && i < biasV.length && (dir < 0 ? biasV[i] >= 0 : biasV[i] <= 0); i += dir) floor = Math.min(floor, didvS[i]);
-  const half = floor + (peak.heightS - floor) / 2;
-  for (let i = peak.index; i + dir >= 0 && i + dir < biasV.length; i += dir) {
-    const j = i + dir;
-    if (didvS[j] <= half) {
-      const x = biasV[i] + ((half - didvS[i]) / (didvS[j] - didvS[i])) * (biasV[j] - biasV[i]);
-      return 2 * Math.abs(peak.biasV - x);
-    }
-    if (dir < 0 ? biasV[j] < 0 : biasV[j] > 0) break;
-  }
-  return null;
 }
 
 /** What a pass of peak finding reads of a conductance: a whole pass's result, or the first pass's part. */
