@@ -16,6 +16,13 @@ export const SPIN_PAIRS_DEFAULTS = Object.freeze({
   readTolerance: 0.2,
   /** A set read again has each pair one Ec_V wide to within this fraction of Ec_V (note 3). */
   pairTolerance: 0.25,
+  /**
+   * A peak of the set that is no resonance steps at least this fraction of p's level step (note 4):
+   * weaker, it is a flank of a neighbour's step or what a subtraction left, not a charging peak.
+   * p's charging steps at low η spread to about half their median where peaks overlap; chosen on
+   * the accuracy benchmark (0.3–0.4 alike, 0 and 0.6 worse).
+   */
+  memberStepMin: 0.4,
   /** At most this many CB peaks beyond s are candidates (C(12, 6) = 924 sets at most). */
   maxCandidates: 12,
   /**
@@ -141,7 +148,7 @@ export function spinPairSet(peaks: readonly Pick<Peak, "biasV" | "stepA">[], inp
   if (!plain.length) return null;
   const levelStepA = plain[plain.length >> 1];
   const [minRatio, maxRatio] = ASSIGN_DEFAULTS.fillingStepRatio;
-  const holdsLevel = (i: number) => !inputs.resonant.has(i) || peaks[i].stepA >= minRatio * levelStepA;
+  const holdsLevel = (i: number) => peaks[i].stepA >= (inputs.resonant.has(i) ? minRatio : D.memberStepMin) * levelStepA;
   const pool = peaks
     .map((_, i) => i)
     .filter((i) => at(i) > s2 + (1 - t) * ecV)

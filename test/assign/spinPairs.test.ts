@@ -67,6 +67,16 @@ describe("spinPairSet(peaks, { multiplets, resonant })", () => {
     }
   });
 
+  it("takes a peak that is no resonance into p only if it steps at least memberStepMin (0.4) × the level", () => {
+    // p's 3.8 V peak steps × 0.5 (kept) or × 0.3 (a flank, not a charging peak).
+    for (const [steps, expected] of [[0.5, P], [0.3, null]] as const) {
+      const peaks = listOf([[3.06, 2]]).map((q) => (Math.abs(q.biasV - 3.8) < 1e-9 ? { ...q, stepA: steps * pA } : q));
+      const broken = [2.7, 2.9, 3.06, 3.4, 3.6, 3.8].map((v) => indexOf(peaks, v));
+      const got = spinPairSet(peaks, { multiplets: [s, pOf(broken)], resonant: new Set([indexOf(peaks, 3.06)]) });
+      expect(got ? got.members.map((i) => peaks[i].biasV) : null, `step ${steps}`).toEqual(expected);
+    }
+  });
+
   it("needs an s doublet and a p of degeneracy 6", () => {
     const peaks = listOf([[3.06, 2]]);
     const broken = [2.7, 2.9, 3.06, 3.4, 3.6, 3.8].map((v) => indexOf(peaks, v));
@@ -76,6 +86,6 @@ describe("spinPairSet(peaks, { multiplets, resonant })", () => {
   });
 
   it("SPIN_PAIRS_DEFAULTS are locked", () => {
-    expect(SPIN_PAIRS_DEFAULTS).toEqual({ readTolerance: 0.2, pairTolerance: 0.25, maxCandidates: 12, unpredictedReach: 0.5 });
+    expect(SPIN_PAIRS_DEFAULTS).toEqual({ readTolerance: 0.2, pairTolerance: 0.25, memberStepMin: 0.4, maxCandidates: 12, unpredictedReach: 0.5 });
   });
 });

@@ -19,12 +19,12 @@ const analyse = (start: number, regime: SyntheticRegime) => {
 };
 
 describe("analyzeCurve(curve, { eta }): the s doublet's second peak under the VB edge level's resonance (low-η draws)", () => {
-  // Draw 69: s 1.783, 2.044 V; the VB edge level's resonance at 2.021 V, on s2. Draw 2078: s
-  // 1.822, 2.117 V; a VB level's resonance at 2.104 V on s2 and another at 2.185 V, which the plain
-  // −η·V/(1 − η) does not place. Draw 1049: s 2.344, 2.650 V; the VB edge level's resonance at
-  // 2.717 V on s2. Draw 1196: s 2.065, 2.351 V; resonances at 2.103 V on s1 and 2.403 V on s2.
-  // In 2078, 1049 and 1196 the rules read shell filling after the rounds from the ladder (note 3).
-  for (const start of [69, 2078, 1049, 1196]) {
+  // Draw 69: s 1.783, 2.044 V; the VB edge level's resonance at 2.021 V, on s2. Draw 129: s 2.710,
+  // 3.056 V; a resonance at 2.725 V on s1. Draw 1049: s 2.344, 2.650 V; the VB edge level's
+  // resonance at 2.717 V on s2. Draw 1196: s 2.065, 2.351 V; resonances at 2.103 V on s1 and
+  // 2.403 V on s2. Draw 3118: s 1.770, 1.951 V; a resonance at 1.966 V on s2. In 1049 and 1196 the
+  // rules read shell filling after the rounds from the ladder (note 3).
+  for (const start of [69, 129, 1049, 1196, 3118]) {
     it(`reads shell filling with s, p and Ec at the truth from the VB's charging doublet (draw ${start})`, () => {
       const { a, truth, tolV } = analyse(start, "shell-filling");
       expect(truth.sPeaksV.some((s) => truth.secondJunctionPeaksV.some((v) => Math.abs(v - s) < tolV))).toBe(true);
