@@ -101,6 +101,13 @@ export function blindCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayL
  *    times the simulated one and Γtip/Γsub read deep in shell tunnelling. The comparison then
  *    holds the VB levels in the CB-side model ({@link heldShellLevels}) and the whole-curve fits
  *    decide among the groupings ({@link wholeCurveChoice}).
+ * 2. Measured with the comparison on the low-η mix: intermediate 150 → 156 of 200 (seeds
+ *    1–200; one right answer lost to the work budget), 139 → 149 (1001–1200), 139 → 145
+ *    (2001–2200, held out); shell filling 164 → 164, 160 → 162, 168 → 169; tunnelling 195 → 196,
+ *    196 → 196, 200 → 200. The default and crossover mixes and `bench:fit` unchanged (no such side:
+ *    its results digest the same). The cost: about a tenth more time on such a side (eight of
+ *    those draws fitted one after another, old and new in turn: 41 → 45 s in all), for the VB band
+ *    each CB-side model solves and the five groupings fitted to the whole curve.
  *
  * Example
  * -------
