@@ -1,8 +1,11 @@
 /**
- * A CB side too short to tell the groupings of the CB peaks apart (it ends before p), and the
- * choice among them by their whole-curve fits instead.
+ * A CB side too short to tell the groupings of the CB peaks apart (it ends before p), or one that
+ * runs to the curve's end across the VB levels' crossings, and the choice among the groupings by
+ * their whole-curve fits instead.
  */
 import type { FitTrial } from "./fitTrial.ts";
+import type { cbSideEndV } from "./cbSideEnd.ts";
+import type { heldShellLevels } from "./heldValenceLevels.ts";
 
 /** One analysed peak as {@link blindCbSide} reads it. */
 export interface BlindSidePeak {
@@ -59,6 +62,67 @@ export function blindCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayL
   for (let i = 0; i < cbSideBiasV.length; i++) topV = Math.max(topV, cbSideBiasV[i]);
   if (!(topV < curveTopV)) return false;
   return peaks.filter((p) => p.biasV > 0 && p.biasV <= topV && p.role !== "second-junction").length <= maxPeaks;
+}
+
+/**
+ * Whether the CB side of a fit runs to the end of the curve although the first VB level's
+ * crossing of the substrate's Fermi level lies on it: the side could not be cut below that
+ * crossing without losing the s doublet.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly BlindSidePeak[]
+ *     The analysed peaks (bias V, role); "second-junction" peaks do not count.
+ * cbSideBiasV : ArrayLike<number>
+ *     The biases (V) of the CB side's points ({@link cbSideEndV}).
+ * eta : number
+ *     Voltage-division factor η, 0 < η ≤ 1.
+ * curveTopV : number
+ *     The highest bias of the whole curve (the same thinned points), V.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True when η < 1, the CB side reaches curveTopV and η·|V₁|/(1 − η) < curveTopV for the peak
+ *     V₁ < 0 nearest 0 V that is not a second-junction resonance; false otherwise.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. At η 0.55–0.65 the first hole's substrate-junction crossing η·|V₁|/(1 − η)
+ *    ({@link cbSideEndV}, note 1) may fall before or within the s doublet; {@link cbSideEndV} then
+ *    keeps the whole positive side (a side without the s doublet tells no grouping apart). That
+ *    side holds every VB level's crossings beyond V₁ too, and a model of the CB levels alone fits
+ *    every grouping badly there: on the low-η mix with the comparison (seeds 1–200), 19 of the 45
+ *    intermediate spectra the fit left wrong or undecided had such a side, most with Ec 1.5–4
+ *    times the simulated one and Γtip/Γsub read deep in shell tunnelling. The comparison then
+ *    holds the VB levels in the CB-side model ({@link heldShellLevels}) and the whole-curve fits
+ *    decide among the groupings ({@link wholeCurveChoice}).
+ * 2. Measured with the comparison on the low-η mix: intermediate 150 → 156 of 200 (seeds
+ *    1–200; one right answer lost to the work budget), 139 → 149 (1001–1200), 139 → 145
+ *    (2001–2200, held out); shell filling 164 → 164, 160 → 162, 168 → 169; tunnelling 195 → 196,
+ *    196 → 196, 200 → 200. The default and crossover mixes and `bench:fit` unchanged (no such side:
+ *    its results digest the same). The cost: about a tenth more time on such a side (eight of
+ *    those draws fitted one after another, old and new in turn: 41 → 45 s in all), for the VB band
+ *    each CB-side model solves and the five groupings fitted to the whole curve.
+ *
+ * Example
+ * -------
+ * ```ts
+ * crossedCbSide([{ biasV: -1.38, role: "level" }, { biasV: 1.9, role: "level" }, { biasV: 2.08, role: "level" }], [0.01, 3.95], 0.564, 3.95);
+ * // => true (0.564·1.38/0.436 = 1.79 V < 3.95 V, on a side that runs to the end)
+ * ```
+ */
+export function crossedCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayLike<number>, eta: number, curveTopV: number): boolean {
+  if (!(eta < 1)) return false;
+  let topV = -Infinity;
+  for (let i = 0; i < cbSideBiasV.length; i++) topV = Math.max(topV, cbSideBiasV[i]);
+  if (topV < curveTopV) return false;
+  const nearest = peaks.filter((p) => p.biasV < 0 && p.role !== "second-junction").sort((a, b) => b.biasV - a.biasV)[0];
+  return nearest !== undefined && (eta * -nearest.biasV) / (1 - eta) < curveTopV;
 }
 
 /**

@@ -14,7 +14,8 @@ import { shiftGrouping } from "./shiftGrouping.ts";
 import { laterEntryReadings } from "./laterEntryReadings.ts";
 import { hiddenEntryReading, inFillingOrder, shellValenceReading } from "./shellValenceReading.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
-import { heldValenceLevels } from "./heldValenceLevels.ts";
+import { heldShellLevels, heldValenceLevels } from "./heldValenceLevels.ts";
+import type { crossedCbSide } from "./blindCbSide.ts";
 import { heldHoleEntry } from "./cbSideEnd.ts";
 import type { wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
 
@@ -66,6 +67,12 @@ export interface CompareContext {
   limits: typeof FIT_DEFAULTS;
   /** Whether a CB-side run is poor by fitStatus' reduced-χ² or residual-structure limit (absent: no rescue). */
   poorOf?: (t: FitTrial) => boolean;
+  /**
+   * Whether the CB side runs to the curve's end across the VB levels' crossings
+   * ({@link crossedCbSide}): its hypotheses then hold the VB shell reading ({@link heldShellLevels}).
+   * Default false.
+   */
+  crossedSide?: boolean;
 }
 
 /**
@@ -94,7 +101,9 @@ export interface CompareContext {
  * -----
  * 1. Each hypothesis with CB levels (at most maxAssignedStates charge states) becomes a CB-side
  *    hypothesis (holding the first hole's entry where it falls on the CB side, FIT_DEFAULTS.cbSideHeldHole,
- *    {@link heldValenceLevels}), explored from its rate-ratio starts for exploreIterations in two halves (a start
+ *    {@link heldValenceLevels}; on a side that runs to the curve's end across the VB crossings,
+ *    `crossedSide`, the VB peaks' shell reading from the hypothesis' starting Ec instead,
+ *    {@link heldShellLevels}), explored from its rate-ratio starts for exploreIterations in two halves (a start
  *    far behind after the first is not continued).
  * 2. The best finishedHypotheses by BIC are finished; a finalist above reduced χ² shiftChiSquare
  *    is retried with its CB starts shifted by ∓Ec ({@link shiftGrouping}).
@@ -139,9 +148,13 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
   let topV = -Infinity;
   for (const v of cbSide.biasV) topV = Math.max(topV, v);
   const holeEntryV = heldHoleEntry(hypotheses[0].analysis.peaks, eta)?.entry.biasV ?? null;
+  const vbPeaksV = hypotheses[0].analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
   for (const h of hypotheses) {
     const seeds = h.seeds.filter((x) => x.band === "CB");
-    const heldVb = F.cbSideHeldHole ? heldValenceLevels(hypotheses[0].seeds, holeEntryV, eta, topV) : [];
+    // A side that runs to the curve's end across the VB crossings holds the VB levels' shell
+    // reading instead, from the hypothesis' starting Ec.
+    const ecStartV = (h.chargingEnergyStartEV ?? peakChargingEnergyEV ?? guessEC) / eta;
+    const heldVb = stage.crossedSide ? heldShellLevels(vbPeaksV, ecStartV, eta, topV) : F.cbSideHeldHole ? heldValenceLevels(hypotheses[0].seeds, holeEntryV, eta, topV) : [];
     if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]], ...(heldVb.length ? { heldVb } : {}) });
   }
   // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²

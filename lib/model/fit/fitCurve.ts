@@ -11,7 +11,7 @@ import { SCENARIO_DEFAULTS } from "../scenario.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import type { bandStepsMemo } from "./bandStepsMemo.ts";
 import type { ladderSolveWork } from "./solveWork.ts";
-import type { heldValenceLevels } from "./heldValenceLevels.ts";
+import type { heldShellLevels, heldValenceLevels } from "./heldValenceLevels.ts";
 import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
 import { fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
@@ -28,7 +28,7 @@ import { fitVerdict } from "./fitVerdict.ts";
 import { compareGroupings } from "./compareGroupings.ts";
 import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
-import { blindCbSide, wholeCurveChoice } from "./blindCbSide.ts";
+import { blindCbSide, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 import { wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
@@ -162,7 +162,9 @@ export interface FitOptions {
  *    the VB reading that does not fit with the CB values: see the held values below). The lowest CB-side BIC
  *    among the plausible finalists wins (where the CB side is blind to p, the s doublet alone on
  *    it, at most blindSidePeaks (2) peaks before the first hole's crossing, {@link blindCbSide}:
- *    every grouping fits it and their BICs differ by their parameter counts alone, so the
+ *    every grouping fits it and their BICs differ by their parameter counts alone; or where it
+ *    runs to the curve's end though the first VB crossing lies on it, {@link crossedCbSide}, its
+ *    models then holding the VB peaks' shell reading, {@link heldShellLevels}: so the
  *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
  *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
  *    residual structure and are plausible wins, their whole-curve BICs the weights,
@@ -316,9 +318,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       finals.push(done);
     }
   }
+  let curveTopV = -Infinity;
+  for (const v of all.biasV) curveTopV = Math.max(curveTopV, v);
+  // A CB side that runs to the curve's end across the VB crossings: held VB levels, whole-curve choice.
+  const crossed = crossedCbSide(analysis.peaks, cbSide.biasV, eta, curveTopV);
   if (compared) {
     const poorOf = (t: FitTrial) => reduced(t) > FIT_STATUS_DEFAULTS.poorChiSquare || structureOf(t).largestZ > FIT_STATUS_DEFAULTS.poorResidualZ;
-    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf });
+    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf, crossedSide: crossed });
   }
   const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
   // The finalists: when groupings were compared, their CB-side fits (all on the same points),
@@ -347,12 +353,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     return k < 0 ? hypotheses.length : k;
   };
   let winner = pool.filter((t) => t.bic - lowest < F.bicTieMargin).reduce((x, y) => (order(y) < order(x) ? y : x));
-  // A CB side that ends before p tells the groupings apart by their parameter counts alone: the
-  // best few groupings' whole-curve fits decide instead (the lowest whole-curve BIC).
-  let curveTopV = -Infinity;
-  for (const v of all.biasV) curveTopV = Math.max(curveTopV, v);
+  // A CB side that ends before p tells the groupings apart by their parameter counts alone, and
+  // one across the VB crossings by held VB levels read from the peaks: the best few groupings'
+  // whole-curve fits decide instead (the lowest whole-curve BIC).
   let blindWholeBic: Map<FitTrial, number> | null = null;
-  if (wholeFitOf && blindCbSide(analysis.peaks, cbSide.biasV, F.blindSidePeaks, curveTopV)) {
+  if (wholeFitOf && (crossed || blindCbSide(analysis.peaks, cbSide.biasV, F.blindSidePeaks, curveTopV))) {
     const wholeFor = (t: FitTrial) => {
       let w = wholeOf.get(t);
       if (!w) {

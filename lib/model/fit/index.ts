@@ -22,7 +22,7 @@ export { bandStepsMemo, bandStepsStore, BAND_STEPS_MEMO_DEFAULTS, type BandSteps
 export { linearProjector, projectLinear, type LinearProjection } from "./projectLinear.ts";
 export { levenbergMarquardtLoop, type LoopSettings, type LoopResult } from "./levenbergMarquardtLoop.ts";
 export { cbSideEndV, heldHoleEntry, type CbSideEndPeak } from "./cbSideEnd.ts";
-export { heldValenceLevels, withHeldLevels } from "./heldValenceLevels.ts";
+export { heldShellLevels, heldValenceLevels, withHeldLevels } from "./heldValenceLevels.ts";
 export { ladderSolveWork } from "./solveWork.ts";
 export { fitRunner, type FitRun, type FitRunner, type FitRunnerSettings } from "./fitRunner.ts";
 export { refinementStarts, refinementStart, REFINEMENT_DEFAULTS, type RefinementStart, type StartLevel } from "./refinementStarts.ts";
@@ -34,7 +34,7 @@ export { fitStatus, FIT_STATUS_DEFAULTS, type FitStatus, type FitStatusInput } f
 export { fitVerdict, type FitVerdict, type FitVerdictLimits } from "./fitVerdict.ts";
 export { refineGrouping, REFINE_GROUPING_DEFAULTS, type RefineContext } from "./refineGrouping.ts";
 export { compareGroupings, COMPARE_GROUPINGS_DEFAULTS, type CompareContext } from "./compareGroupings.ts";
-export { blindCbSide, wholeCurveChoice, type BlindSidePeak } from "./blindCbSide.ts";
+export { blindCbSide, crossedCbSide, wholeCurveChoice, type BlindSidePeak } from "./blindCbSide.ts";
 export { laterEntryReadings } from "./laterEntryReadings.ts";
 export { wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "./wholeCurveRestarts.ts";
 export { orderLevels } from "./orderLevels.ts";

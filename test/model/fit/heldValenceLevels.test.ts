@@ -5,7 +5,8 @@
 // and exact recovery of a fast-model simulation's own parameters from a start off by a known amount.
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
-import { heldValenceLevels, withHeldLevels } from "../../../lib/model/fit/heldValenceLevels.ts";
+import { heldShellLevels, heldValenceLevels, withHeldLevels } from "../../../lib/model/fit/heldValenceLevels.ts";
+import { shellValenceReading } from "../../../lib/model/fit/shellValenceReading.ts";
 import { cbSideEndV, heldHoleEntry } from "../../../lib/model/fit/cbSideEnd.ts";
 import { fitRunner } from "../../../lib/model/fit/fitRunner.ts";
 import { fitHypotheses, type FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
@@ -36,6 +37,22 @@ describe("heldValenceLevels(seeds, holeEntryV, eta, topV)", () => {
     const q = withHeldLevels([0.6, 0.9, 0.13, 0.5, -2], 2, [v1], 0.6);
     expectClose(q[2] + 0.13 / 2, 0.9, { rtol: 1e-15 });
     expect(withHeldLevels([0.6, 0.1, 0, -2], 1, [], 0.6)).toEqual([0.6, 0.1, 0, -2]);
+  });
+});
+
+describe("heldShellLevels(vbPeaksV, chargingEnergyV, eta, topV)", () => {
+  // A doublet and a level of four at Ec/η = 0.1 V (closed form: the doublet's two charging peaks
+  // at −1.0 and −1.1 V; the level of four's entry at −1.25 V and its charging peaks 0.1 V apart).
+  const peaks = [-1.0, -1.1, -1.25, -1.35, -1.45, -1.55];
+  it("holds the shell reading's levels whose crossing η·|V₁|/(1 − η) lies on the CB side (closed form: 0.6·1.0/0.4 = 1.5 V, 0.6·1.25/0.4 = 1.875 V)", () => {
+    const both = heldShellLevels(peaks, 0.1, 0.6, 1.875);
+    // The same levels as shellValenceReading (an exact equivalence with the general reading), labelled held.
+    expect(both).toEqual(shellValenceReading(peaks, 0.1).map((s) => ({ ...s, label: `${s.label} (held)` })));
+    expect(both.map((s) => [s.label, s.degeneracy, s.firstPeakV])).toEqual([["v1 (held)", 2, -1.0], ["v2 (held)", 4, -1.25]]);
+    expect(heldShellLevels(peaks, 0.1, 0.6, 1.8749).map((s) => s.degeneracy)).toEqual([2]);
+    expect(heldShellLevels(peaks, 0.1, 0.6, 1.4999)).toEqual([]);
+    expect(heldShellLevels(peaks, 0.1, 1, 10)).toEqual([]);
+    expect(heldShellLevels([], 0.1, 0.6, 10)).toEqual([]);
   });
 });
 
