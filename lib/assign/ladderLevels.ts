@@ -16,6 +16,18 @@ export const LADDER_LEVELS_DEFAULTS = Object.freeze({
    * distances from one Ec off the ladder differ by less are not told apart by them.
    */
   continuationToleranceMin: 0.05,
+  /**
+   * Note 10: how much nearer than one Ec, as a fraction of Ec, a shell's next peak may lie to a
+   * peak kept as the shell's first (its spin partner lies one Ec on); peak positions scatter by
+   * a few % of Ec at the benchmark's noise (common practice, no source).
+   */
+  firstPairTolerance: 0.1,
+  /**
+   * Note 10: how far, as a fraction of Ec, a peak shared by a resonance and a level lying below
+   * it is drawn below the predicted resonance at the least; predictions carry the scatter of
+   * their source peaks × η/(1 − η), a few % of Ec (common practice, no source).
+   */
+  sharedPullMin: 0.03,
 });
 
 /** What {@link ladderLevels} reads from a shell-filling assignment. */
@@ -128,6 +140,17 @@ export interface LadderLevels {
  *    widened the gap by as much. No VB group further out is completed this way: the window or
  *    a resonance bridging two groups can leave one peak there. (`valenceEdgePartner` reads the
  *    same for resonances set aside before the rounds, without the ladder's step share.)
+ * 10. A CB shell's first two charging peaks put two electrons on its first orbital (spin), so
+ *    they lie Ec_V apart; the shell's first peak follows the shell before at Ec_V + Δ/η, not at
+ *    one Ec. A peak to be kept as the first of a shell with a degeneracy (no peak of that shell
+ *    before it) whose next ladder peak lies nearer than
+ *    (1 − `LADDER_LEVELS_DEFAULTS.firstPairTolerance`) × Ec_V is no level alone: were it shared,
+ *    the level would lie one Ec_V before that next peak, below the kept peak, and would draw the
+ *    shared peak below the predicted resonance. A peak not at least
+ *    `LADDER_LEVELS_DEFAULTS.sharedPullMin` × Ec_V below its predicted resonance is then the
+ *    resonance alone and stays one: the shell's true first peak is the next one. Where the shell
+ *    lacks a peak elsewhere, such a resonance 0.7–0.9 Ec_V before the shell's first peak passes
+ *    note 2 and would shift the shell by one place.
  *
  * References
  * ----------
@@ -220,7 +243,11 @@ export function ladderLevels(peaks: readonly Pick<Peak, "biasV" | "stepA">[], pr
     const beside = free(side);
     const rival = beside.find((i) => Math.abs(at(i) - x) < (1 - t) * ecV && offLadder(at(i)) < offLadder(x) && likeLevel(i));
     // The shell it would be kept in (notes 1–3), were there no rival.
-    const keepIn = clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && holdsLevel ? home : undefined;
+    // Note 10: a shell's first peak lies one Ec before its spin partner; nearer, it is shared or a resonance.
+    const firstOfShell = home !== undefined && home.m.band !== "VB" && home.m.degeneracy !== null && [...home.peaks].every((i) => i === r.index || at(i) > x);
+    const short = firstOfShell && gapAfter !== null && gapAfter < (1 - LADDER_LEVELS_DEFAULTS.firstPairTolerance) * ecV;
+    const pairOk = !short || x - Math.abs(r.predictedV) <= -LADDER_LEVELS_DEFAULTS.sharedPullMin * ecV;
+    const keepIn = clear(gapBefore) && clear(gapAfter) && (step(gapBefore) || step(gapAfter)) && holdsLevel && pairOk ? home : undefined;
     if (keepIn && rival === undefined) {
       if (displaced) {
         out.levels.splice(out.levels.indexOf(displaced), 1);

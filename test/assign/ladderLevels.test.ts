@@ -147,9 +147,11 @@ describe("ladderLevels: a shell's last free place (note 8)", () => {
   // predicted resonance, and another predicted resonance just below p1; 1 pA per charging step.
   const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
   const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [3, 4, 5, 6, 8] };
+  // The peak below p1 lies 0.015 V (5 % of Ec) below its predicted resonance, drawn down by a
+  // level it shares (note 10 would leave it a resonance were it on the prediction).
   const judge = (belowV: number, p5V: number) => {
     const peaks = list([1.0, 1.3, belowV, 2.3, 2.6, 2.9, 3.2, p5V, 3.8], [1, 1, 2, 1, 1, 1, 1, 2, 1].map((x) => x * 1e-12));
-    return ladderLevels(peaks, [at(peaks, 2), at(peaks, 7)], { multiplets: [s, p], chargingEnergyV: ecV });
+    return ladderLevels(peaks, [{ ...at(peaks, 2), predictedV: belowV + 0.015 }, at(peaks, 7)], { multiplets: [s, p], chargingEnergyV: ecV });
   };
 
   it("gives the place of a peak kept 0.05 V off one Ec to a later one on the ladder", () => {
@@ -169,10 +171,48 @@ describe("ladderLevels: a shell's last free place (note 8)", () => {
   });
 });
 
+describe("ladderLevels: a shell's first peak and its spin partner (note 10)", () => {
+  // Closed form Ec/η = 0.3 V: s 1.0, 1.3 V; p 2.3 … 3.5 V in steps of 0.3 V with p6 missing (p
+  // needs a peak), and a peak at a predicted resonance below p1; 1 pA per charging step, 2 pA at
+  // the resonance. A shell's first two peaks are one orbital's two electrons, one Ec apart.
+  const s = { band: "CB" as const, label: "s", degeneracy: 2, peakIndices: [0, 1] };
+  const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [3, 4, 5, 6, 7] };
+  const judge = (belowV: number, predictedV: number) => {
+    const peaks = list([1.0, 1.3, belowV, 2.3, 2.6, 2.9, 3.2, 3.5], [1, 1, 2, 1, 1, 1, 1, 1].map((x) => x * 1e-12));
+    return ladderLevels(peaks, [{ ...at(peaks, 2), predictedV }], { multiplets: [s, p], chargingEnergyV: ecV });
+  };
+
+  it("leaves a peak on its predicted resonance 0.8 Ec before p1 a resonance: p1's spin partner lies one Ec on, not 0.8", () => {
+    // 0.24 V = 0.8 Ec < (1 − 0.1) Ec; the peak lies on the prediction (0 V below, < 0.03 Ec).
+    const out = judge(2.06, 2.06);
+    expect(out.levels).toEqual([]);
+    expect(out.resonances.map((r) => r.index)).toEqual([2]);
+    // Above the prediction (a level below would draw a shared peak down, not up): a resonance too.
+    expect(judge(2.06, 2.05).levels).toEqual([]);
+  });
+
+  it("keeps it where it lies 0.03 Ec or more below the prediction (a level below draws the shared peak down) or one Ec before p1 to within 10 %", () => {
+    // 0.015 V = 0.05 Ec below the prediction.
+    expect(judge(2.06, 2.075).levels.map((l) => [l.resonance.index, l.label])).toEqual([[2, "p"]]);
+    // 0.006 V = 0.02 Ec below: not told from the prediction's scatter, a resonance.
+    expect(judge(2.06, 2.066).levels).toEqual([]);
+    // 2.02 V: 0.28 V = 0.93 Ec before p1, within 10 % of Ec, kept on its prediction.
+    expect(judge(2.02, 2.02).levels.map((l) => l.resonance.index)).toEqual([2]);
+  });
+
+  it("does not apply to a peak with a peak of its shell before it (the gap there is the ladder's own)", () => {
+    // p's first peak 2.3 V set aside in the shell; the peak at 2.6 V at a prediction lies 0.3 V on.
+    const peaks = list([1.0, 1.3, 2.3, 2.6, 2.84, 3.2, 3.5], [1, 1, 1, 2, 1, 1, 1].map((x) => x * 1e-12));
+    const p2 = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [2, 4, 5, 6] };
+    const out = ladderLevels(peaks, [at(peaks, 3)], { multiplets: [s, p2], chargingEnergyV: ecV });
+    expect(out.levels.map((l) => l.resonance.index)).toEqual([3]);
+  });
+});
+
 describe("LADDER_LEVELS_DEFAULTS", () => {
   it("is locked and frozen", () => {
     // common practice (no source): peak positions scatter by a few % of Ec at the benchmark's noise.
-    expect(LADDER_LEVELS_DEFAULTS).toEqual({ continuationToleranceMin: 0.05 });
+    expect(LADDER_LEVELS_DEFAULTS).toEqual({ continuationToleranceMin: 0.05, firstPairTolerance: 0.1, sharedPullMin: 0.03 });
     expect(Object.isFrozen(LADDER_LEVELS_DEFAULTS)).toBe(true);
   });
 });

@@ -1,0 +1,31 @@
+// A shell-filling spectrum of the accuracy benchmark's low-η mix (η 0.55–0.65, second-junction
+// resonances kept), drawn by syntheticSpectrum, simulated by the fast model and analysed with its
+// η: the truth is the simulation's own parameters.
+import { expect } from "vitest";
+import { expectClose } from "./expectClose.ts";
+import { simulateCurve } from "../../lib/model/simulate.ts";
+import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../lib/model/syntheticSpectrum.ts";
+import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
+
+/** Start `start` of the low-η mix in shell filling: its analysis and truth. */
+export function lowEtaFillingDraw(start: number) {
+  const ranges = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
+  const { truth, scenario } = syntheticSpectrum(start, "shell-filling", ranges);
+  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
+  const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
+  return { analysis, truth };
+}
+
+/**
+ * Check a draw's p against the simulation's truth: shell filling, six peaks each within 25 % of
+ * Ec/η of the truth's (the project's quality bar), and none within half that of `resonancesV`.
+ */
+export function expectTrueP(draw: ReturnType<typeof lowEtaFillingDraw>, resonancesV: readonly number[]) {
+  const { analysis: a, truth } = draw;
+  const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+  expect(a.assignment.regime).toBe("shell-filling");
+  const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
+  expect(p.peaksV.length).toBe(6);
+  expectClose(p.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
+  for (const v of resonancesV) expect(p.peaksV.some((q) => Math.abs(q - v) < tolV / 2), `p holds the resonance at ${v} V`).toBe(false);
+}
