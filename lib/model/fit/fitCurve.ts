@@ -374,6 +374,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       winner = choice.chosen;
       blindWholeBic = choice.wholeBic;
       for (const t of choice.wholeBic.keys()) if (!finalists.includes(t)) finalists.push(t);
+      // The choice is plausible on both sides even where no finalist of the CB-side search was.
+      for (const t of choice.wholeBic.keys()) if (!plausible.includes(t) && implausibleOf(t).length === 0) plausible.push(t);
     }
   }
   let whole = wholeOf.get(winner);
