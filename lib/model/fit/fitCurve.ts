@@ -29,7 +29,7 @@ import { compareGroupings } from "./compareGroupings.ts";
 import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
 import { blindCbSide, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
-import { wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
+import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
@@ -164,7 +164,8 @@ export interface FitOptions {
  *    it, at most blindSidePeaks (2) peaks before the first hole's crossing, {@link blindCbSide}:
  *    every grouping fits it and their BICs differ by their parameter counts alone; or where it
  *    runs to the curve's end though the first VB crossing lies on it, {@link crossedCbSide}, its
- *    models then holding the VB peaks' shell reading, {@link heldShellLevels}: so the
+ *    models then holding the VB peaks' shell reading, {@link heldShellLevels}, and its charging
+ *    ladders also started from the VB peaks' own spacing, {@link valenceSpacingEcEV}: so the
  *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
  *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
  *    residual structure and are plausible wins, their whole-curve BICs the weights,
@@ -373,6 +374,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       winner = choice.chosen;
       blindWholeBic = choice.wholeBic;
       for (const t of choice.wholeBic.keys()) if (!finalists.includes(t)) finalists.push(t);
+      // The choice is plausible on both sides even where no finalist of the CB-side search was.
+      for (const t of choice.wholeBic.keys()) if (!plausible.includes(t) && implausibleOf(t).length === 0) plausible.push(t);
     }
   }
   let whole = wholeOf.get(winner);

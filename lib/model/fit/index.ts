@@ -36,7 +36,7 @@ export { refineGrouping, REFINE_GROUPING_DEFAULTS, type RefineContext } from "./
 export { compareGroupings, COMPARE_GROUPINGS_DEFAULTS, type CompareContext } from "./compareGroupings.ts";
 export { blindCbSide, crossedCbSide, wholeCurveChoice, type BlindSidePeak } from "./blindCbSide.ts";
 export { laterEntryReadings } from "./laterEntryReadings.ts";
-export { wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "./wholeCurveRestarts.ts";
+export { valenceSpacingEcEV, wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "./wholeCurveRestarts.ts";
 export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";
 export { sameFit, SAME_FIT_DEFAULTS } from "./sameFit.ts";

@@ -56,9 +56,7 @@ export const WHOLE_CURVE_RESTART_DEFAULTS = Object.freeze({
  * ```
  */
 export function wholeCurveEcStarts(cbSideEcEV: number, rulesEcEV: number | null, vbPeaksV: readonly number[], eta: number, settings = WHOLE_CURVE_RESTART_DEFAULTS): number[] {
-  const vb = [...vbPeaksV].filter((v) => v < 0).sort((a, b) => b - a);
-  const vbSpacing = vb.length >= 2 ? eta * (vb[0] - vb[1]) : null;
-  const candidates = [rulesEcEV, vbSpacing, ...settings.ecFactors.map((f) => f * cbSideEcEV)];
+  const candidates = [rulesEcEV, valenceSpacingEcEV(vbPeaksV, eta), ...settings.ecFactors.map((f) => f * cbSideEcEV)];
   const kept: number[] = [];
   for (const ec of candidates) {
     if (ec === null || !(ec > 0) || !Number.isFinite(ec)) continue;
@@ -66,4 +64,46 @@ export function wholeCurveEcStarts(cbSideEcEV: number, rulesEcEV: number | null,
     kept.push(ec);
   }
   return kept;
+}
+
+/**
+ * The charging energy the VB peaks show on their own: η times the spacing of the two VB peaks
+ * nearest the gap (the first VB level's two charging peaks).
+ *
+ * Parameters
+ * ----------
+ * vbPeaksV : readonly number[]
+ *     Biases of the VB peaks (V; only the negative ones count), second-junction resonances left out.
+ * eta : number
+ *     Voltage-division factor η.
+ *
+ * Returns
+ * -------
+ * number | null
+ *     η·(V₁ − V₂) in eV for the two negative peaks V₁ > V₂ nearest 0 V; null with fewer than two.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. At η 0.55–0.65 the VB peaks nearest the gap lie on the negative side, far from every CB
+ *    resonance and crossing, and the first VB level is a doublet in the simulated dots: its two
+ *    charging peaks are Ec/η apart. Where the s doublet's second peak is unseen on the CB side or
+ *    taken for a resonance, η times the first two CB peaks' spacing is off by ×0.4–5 and this
+ *    spacing is the better start ({@link compareGroupings}, crossed sides).
+ * 2. A first VB level whose second peak is unseen gives the spacing to the next level instead;
+ *    it is a start, chosen among others by the fits' BIC and plausibility.
+ *
+ * Example
+ * -------
+ * ```ts
+ * valenceSpacingEcEV([-2.5, -2.67, -3.1, 0.4], 0.6);
+ * // => 0.102 (eV: 0.6 × 0.17 V)
+ * ```
+ */
+export function valenceSpacingEcEV(vbPeaksV: readonly number[], eta: number): number | null {
+  const vb = [...vbPeaksV].filter((v) => v < 0).sort((a, b) => b - a);
+  return vb.length >= 2 ? eta * (vb[0] - vb[1]) : null;
 }
