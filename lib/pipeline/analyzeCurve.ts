@@ -217,7 +217,8 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    steps come from, subtracted from the current (and, through the same filter, from the
  *    conductance), and the CB peaks are found again on the remainder (`valenceResonancePeaks`).
  *    The new list stands where the regime is unchanged and p then holds as many peaks as it
- *    has states; the areas and the later stages then read the remainder.
+ *    has states; the areas and the later stages then read the remainder, and a warning names the
+ *    subtracted steps (those resonances are then no peaks of the list).
  *
  * References
  * ----------
@@ -330,6 +331,8 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     const nextPeaks = withSweeps(next, nextAreas, sweeps.length, sweepPeaks);
     return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: assignSpectrum(nextPeaks, { eta, regime: options.regime }) };
   };
+  // The note of note 9's subtraction, where it was kept.
+  let subtracted: string | null = null;
   const take = (r: ReturnType<typeof reread>): void => {
     ({ list, areas, peaks, assignment } = r);
   };
@@ -357,8 +360,11 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     if (vb) curveIn = { ...curveIn, currentA: vb.currentA, didvS: vb.didvS };
     const again = vb && reread(vb.peaks);
     // Kept where the regime stays and p then holds as many peaks as it has states; the later stages read the remainder.
-    if (again && again.assignment.regime === assignment.regime && fullShell(again.assignment, "p")) take(again);
-    else curveIn = whole;
+    if (again && again.assignment.regime === assignment.regime && fullShell(again.assignment, "p")) {
+      take(again);
+      const at = vb.prediction.steps.map((q) => q.biasV.toFixed(3)).join(", ");
+      subtracted = `CB peaks found on the current less the VB ladder's predicted second-junction resonances (steps at ${at} V; Γtip/Γsub ${vb.prediction.rateRatio.toPrecision(3)}, Ec ${vb.prediction.chargingEnergyEV.toFixed(3)} eV): those resonances are not in the peak list`;
+    } else curveIn = whole;
   }
   for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
     // Charging peaks a short filling shell lacks (note 8), one at a time, strongest step first.
@@ -407,7 +413,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     bandWidthsV: areas.widthsV,
     gapEdgesV: none === null ? edges : null,
     assignment,
-    warnings: [...signal.record.warnings, ...found.record.warnings, ...assignment.warnings],
+    warnings: [...signal.record.warnings, ...found.record.warnings, ...(subtracted ? [subtracted] : []), ...assignment.warnings],
   };
 }
 

@@ -166,6 +166,12 @@ describe("analyzeCurve(curve, { eta }): p read on the current less the VB ladder
       expect(a.assignment.regime).toBe("shell-filling");
       expect(p?.peaksV.length).toBe(6);
       expectClose(p!.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
+      // The record says the resonances were taken out, and where: each step of the truth's model named.
+      const note = a.warnings.find((w) => w.startsWith("CB peaks found on the current less the VB ladder's predicted"));
+      expect(note).toBeDefined();
+      expect(own.length).toBeGreaterThan(0);
+      const named = [...note!.matchAll(/\d+\.\d{3}(?=[,;] | V;)/g)].map((x) => Number(x[0]));
+      for (const s of own) expect(named.some((v) => Math.abs(v - s.biasV) < 0.015), `step at ${s.biasV} V named`).toBe(true);
     }, 30_000);
   }
 });
