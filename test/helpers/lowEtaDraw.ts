@@ -1,28 +1,32 @@
-// A shell-filling spectrum of the accuracy benchmark's low-η mix (η 0.55–0.65, second-junction
-// resonances kept), drawn by syntheticSpectrum, simulated by the fast model and analysed with its
-// η: the truth is the simulation's own parameters.
+// A spectrum of the accuracy benchmark's low-η mix (η 0.55–0.65, second-junction resonances kept),
+// drawn by syntheticSpectrum, simulated by the fast model and analysed with its η: the truth is
+// the simulation's own parameters.
 import { expect } from "vitest";
 import { expectClose } from "./expectClose.ts";
 import { simulateCurve } from "../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../lib/model/syntheticSpectrum.ts";
+import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime } from "../../lib/model/syntheticSpectrum.ts";
 import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
 
-/** Start `start` of the low-η mix in shell filling: its analysis and truth. */
-export function lowEtaFillingDraw(start: number) {
-  const ranges = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
-  const { truth, scenario } = syntheticSpectrum(start, "shell-filling", ranges);
+/** The low-η mix's ranges: the benchmark's defaults with η 0.55–0.65 and the resonances kept. */
+export const LOW_ETA_RANGES = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
+
+/**
+ * Start `start` of the low-η mix in `regime` (shell filling unless said): its scenario, truth,
+ * simulation and analysis, and the project's quality bar for a peak (25 % of Ec/η), V.
+ */
+export function lowEtaDraw(start: number, regime: SyntheticRegime = "shell-filling") {
+  const { truth, scenario } = syntheticSpectrum(start, regime, LOW_ETA_RANGES);
   const sim = simulateCurve(scenario, { method: "fast", conductance: false });
   const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
-  return { analysis, truth };
+  return { scenario, truth, sim, analysis, tolV: (0.25 * truth.chargingEnergyEV) / truth.eta };
 }
 
 /**
  * Check a draw's p against the simulation's truth: shell filling, six peaks each within 25 % of
  * Ec/η of the truth's (the project's quality bar), and none within half that of `resonancesV`.
  */
-export function expectTrueP(draw: ReturnType<typeof lowEtaFillingDraw>, resonancesV: readonly number[]) {
-  const { analysis: a, truth } = draw;
-  const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+export function expectTrueP(draw: ReturnType<typeof lowEtaDraw>, resonancesV: readonly number[]) {
+  const { analysis: a, truth, tolV } = draw;
   expect(a.assignment.regime).toBe("shell-filling");
   const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
   expect(p.peaksV.length).toBe(6);

@@ -6,7 +6,8 @@ import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { analyzeCurve, ANALYZE_DEFAULTS } from "../../lib/pipeline/analyzeCurve.ts";
 import { simulateCurve } from "../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../lib/model/syntheticSpectrum.ts";
+import { syntheticSpectrum } from "../../lib/model/syntheticSpectrum.ts";
+import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
 import type { Curve } from "../../lib/curve.ts";
 
 const eta = 0.8, ec = 0.1;
@@ -125,10 +126,8 @@ describe("analyzeCurve(curve, options): round trip through the model", () => {
 describe("analyzeCurve(curve): the measured peak width of broad peaks", () => {
   for (const start of [14, 19, 23, 127]) {
     it(`measures the width within 30 % of the simulated FWHM (low-η draw ${start})`, () => {
-      const { scenario, truth } = syntheticSpectrum(start, "shell-filling", { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65], secondJunction: "keep" });
+      const { analysis: a, truth } = lowEtaDraw(start);
       expect(truth.peakFwhmV).toBeGreaterThan(2 * ANALYZE_DEFAULTS.firstPassPeakWidthMV * 0.9e-3);
-      const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-      const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
       expect(a.settings.peakWidthMeasured).toBe(true);
       expectClose(a.settings.peakWidthMV, truth.peakFwhmV * 1000, { rtol: 0.3, what: "peak FWHM (closed form 2.355·σ_E/η of the simulation)" });
     }, 30_000);
@@ -139,13 +138,10 @@ describe("analyzeCurve(curve): the measured peak width of broad peaks", () => {
 // (η 0.55–0.65, resonances kept), simulated by the project's model; every expected value is the
 // simulation's truth, the tolerance the project's quality bar (a peak within 25 % of Ec/η).
 describe("analyzeCurve(curve, { eta }): a p level under a second-junction resonance (low-η draws)", () => {
-  const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
   const analyse = (start: number) => {
-    const { scenario, truth } = syntheticSpectrum(start, "shell-filling", lowEta);
-    const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-    const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
+    const { analysis: a, truth, tolV } = lowEtaDraw(start);
     const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
-    return { a, p, truth, tolV: (0.25 * truth.chargingEnergyEV) / truth.eta };
+    return { a, p, truth, tolV };
   };
 
   it("counts the peak holding p4 and a resonance as p4, and no peak beside it (draw 56)", () => {
@@ -188,13 +184,9 @@ describe("analyzeCurve(curve, { eta }): a p level under a second-junction resona
 // shell's last peak (draw 165) or before its first (draw 2161) and adds the step it finds there. The
 // expected values are the simulation's truth, the tolerance the project's quality bar (25 % of Ec/η).
 describe("analyzeCurve(curve, { eta }): the charging peak a short p shell lacks, from the current (low-η draws)", () => {
-  const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
   for (const [start, k] of [[165, 5], [2161, 0]] as const) {
     it(`reads p with all six charging peaks, p${k + 1} from a step without a peak of its own (draw ${start})`, () => {
-      const { scenario, truth } = syntheticSpectrum(start, "shell-filling", lowEta);
-      const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-      const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
-      const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+      const { analysis: a, truth, tolV } = lowEtaDraw(start);
       expect(a.assignment.regime).toBe("shell-filling");
       const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
       expect(p.peaksV.length).toBe(6);
@@ -206,15 +198,18 @@ describe("analyzeCurve(curve, { eta }): the charging peak a short p shell lacks,
   }
 });
 
+// The bias of the peak that the reason containing `words` names, V (the reason must be there).
+const reasonPeakV = (a: ReturnType<typeof analyzeCurve>, words: string): number => {
+  const reason = a.assignment.evidence.reasons.find((r) => r.includes(words));
+  expect(reason).toBeDefined();
+  return Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+};
+
 // Low η, draws of the accuracy benchmark's low-η mix simulated by the project's model: every
 // expected value is the simulation's truth, the tolerance the project's quality bar (a peak within
 // 25 % of Ec/η). The draw is analysed, read in its regime, and s and p checked.
 const atLowEta = (start: number, regime: "shell-filling" | "shell-tunneling") => {
-  const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
-  const { scenario, truth } = syntheticSpectrum(start, regime, lowEta);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
-  const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+  const { analysis: a, truth, tolV } = lowEtaDraw(start, regime);
   expect(a.assignment.regime).toBe(regime);
   const cb = (label: string) => a.assignment.multiplets.find((m) => m.band === "CB" && m.label === label)!;
   expectClose(cb("s").peaksV, truth.sPeaksV, { atol: tolV, what: "s, the simulation's truth" });
@@ -279,9 +274,7 @@ describe("analyzeCurve(curve, { eta }): a VB level at the s doublet's second res
   for (const start of [7, 56]) {
     it(`keeps the peak as a VB level (draw ${start})`, () => {
       const { a, truth, tolV } = fillingAtLowEta(start);
-      const reason = a.assignment.evidence.reasons.find((r) => r.includes("more than the second s peak's resonance carries"));
-      expect(reason).toBeDefined();
-      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+      const atV = reasonPeakV(a, "more than the second s peak's resonance carries");
       expect(truth.valencePeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
       expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(false);
       const k = a.peaks.findIndex((q) => Math.abs(q.biasV - atV) < 5e-4);
@@ -402,9 +395,7 @@ describe("analyzeCurve(curve, { eta }): p under a VB level's resonance in shell 
 // The peak a reason names as set aside lies where the simulation lists a substrate-junction step.
 const setAsideAtTruth = (start: number, words: string) => {
   const { a, truth, tolV } = tunnelingAtLowEta(start);
-  const reason = a.assignment.evidence.reasons.find((r) => r.includes(words));
-  expect(reason).toBeDefined();
-  const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+  const atV = reasonPeakV(a, words);
   expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
 };
 
@@ -451,9 +442,7 @@ describe("analyzeCurve(curve, { eta }): a p level at a deeper VB level's plain r
   for (const start of [2042, 2130]) {
     it(`keeps the peak as p (draw ${start})`, () => {
       const { a, truth, tolV } = tunnelingAtLowEta(start);
-      const reason = a.assignment.evidence.reasons.find((r) => r.includes("behind its band's edge level"));
-      expect(reason).toBeDefined();
-      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+      const atV = reasonPeakV(a, "behind its band's edge level");
       expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(false);
       expect(truth.pPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
     }, 30_000);
@@ -467,11 +456,9 @@ describe("analyzeCurve(curve, { eta }): a resonance opening p with an odd sub-gr
   for (const start of [2085, 2116]) {
     it(`sets the resonance aside and reads s and p at their levels (draw ${start})`, () => {
       const { a, truth, tolV } = fillingAtLowEta(start);
-      const reason = a.assignment.evidence.reasons.find((r) => r.includes("opened p with an odd sub-group"));
-      expect(reason).toBeDefined();
       // Read again under shell filling, but the regime is the rules' reading, not the user's.
       expect(a.assignment.evidence.reasons.some((r) => r.includes("given by the user"))).toBe(false);
-      const atV = Number(/peak at (-?[\d.]+) V/.exec(reason!)![1]);
+      const atV = reasonPeakV(a, "opened p with an odd sub-group");
       expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - atV) <= tolV)).toBe(true);
     }, 30_000);
   }

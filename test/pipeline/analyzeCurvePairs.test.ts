@@ -4,17 +4,12 @@
 // (a peak within 25 % of Ec/η).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
-import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
-import { simulateCurve } from "../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../lib/model/syntheticSpectrum.ts";
+import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
 
-const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
 const analyse = (start: number) => {
-  const { scenario, truth } = syntheticSpectrum(start, "shell-filling", lowEta);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
+  const { analysis: a, truth, tolV } = lowEtaDraw(start);
   const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p");
-  return { a, p, truth, tolV: (0.25 * truth.chargingEnergyEV) / truth.eta };
+  return { a, p, truth, tolV };
 };
 
 describe("analyzeCurve(curve, { eta }): a p charging pair at two predicted resonances (low-η draws)", () => {

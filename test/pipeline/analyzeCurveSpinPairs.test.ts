@@ -4,7 +4,7 @@
 // the project's model: every expected value is the simulation's truth, the tolerance the project's
 // quality bar (a peak within 25 % of Ec/η).
 import { describe, it, expect } from "vitest";
-import { lowEtaFillingDraw, expectTrueP } from "../helpers/lowEtaDraw.ts";
+import { lowEtaDraw, expectTrueP } from "../helpers/lowEtaDraw.ts";
 
 describe("analyzeCurve(curve, { eta }): p read as three spin pairs past the resonances in it (low-η draws)", () => {
   // Draw 1131: p 2.732, 2.896 | 3.233, 3.397, 3.561, 3.724 V; a VB level's resonance at 3.067 V
@@ -13,9 +13,8 @@ describe("analyzeCurve(curve, { eta }): p read as three spin pairs past the reso
   // crowd p's peaks, and p was read with four.
   for (const start of [1131, 115]) {
     it(`reads p's six charging peaks and leaves the resonances out (draw ${start})`, () => {
-      const draw = lowEtaFillingDraw(start);
-      const { analysis: a, truth } = draw;
-      const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+      const draw = lowEtaDraw(start);
+      const { analysis: a, truth, tolV } = draw;
       // The draw is the case: a resonance of the truth lies inside p's span, clear of p's peaks.
       const inside = truth.secondJunctionPeaksV.filter((v) => v > truth.pPeaksV[0] && v < truth.pPeaksV[5] && truth.pPeaksV.every((q) => Math.abs(q - v) > tolV));
       expect(inside.length).toBeGreaterThan(0);

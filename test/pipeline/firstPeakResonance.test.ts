@@ -5,14 +5,14 @@
 // the project's model: every expected value is the simulation's truth, the tolerance the project's
 // quality bar (a peak within 25 % of Ec/η).
 import { describe, it, expect } from "vitest";
-import { lowEtaFillingDraw, expectTrueP } from "../helpers/lowEtaDraw.ts";
+import { lowEtaDraw, expectTrueP } from "../helpers/lowEtaDraw.ts";
 
 describe("analyzeCurve(curve, { eta }): a resonance just before p's first peak left out of p (low-η draws)", () => {
   // Draw 45: p from 2.608 V (Ec/η = 0.262 V), a VB level's resonance at 2.386 V was read as p's
   // first peak and p shifted by one place. Draw 2139: the same at 2.988 V, p1 at 3.177 V.
   for (const start of [45, 2139]) {
     it(`reads p's six charging peaks from the true first one (draw ${start})`, () => {
-      const draw = lowEtaFillingDraw(start);
+      const draw = lowEtaDraw(start);
       const truth = draw.truth;
       const ecV = truth.chargingEnergyEV / truth.eta;
       // The draw is the case: a resonance of the truth lies 0.7–0.9 Ec/η before p's first peak.

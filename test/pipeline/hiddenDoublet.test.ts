@@ -5,17 +5,13 @@
 // truth, the tolerance the project's quality bar (a peak within 25 % of Ec/η, Ec within 10 %).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
-import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
-import { simulateCurve } from "../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime } from "../../lib/model/syntheticSpectrum.ts";
+import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
+import type { SyntheticRegime } from "../../lib/model/syntheticSpectrum.ts";
 import { REGIME_LIMITS } from "../../lib/model/regimeLimits.ts";
 
-const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
 const analyse = (start: number, regime: SyntheticRegime) => {
-  const { scenario, truth } = syntheticSpectrum(start, regime, lowEta);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
-  return { a, truth, tolV: (0.25 * truth.chargingEnergyEV) / truth.eta };
+  const { analysis: a, truth, tolV } = lowEtaDraw(start, regime);
+  return { a, truth, tolV };
 };
 
 describe("analyzeCurve(curve, { eta }): the s doublet's second peak under the VB edge level's resonance (low-η draws)", () => {

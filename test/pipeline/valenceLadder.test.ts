@@ -9,11 +9,10 @@ import { expectClose } from "../helpers/expectClose.ts";
 import { valenceLadderPrediction, valenceResonancePeaks, stepsCurrent, fullShell, VALENCE_LADDER_DEFAULTS } from "../../lib/pipeline/valenceLadder.ts";
 import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
 import { bandLadders, currentSteps, fastCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
-import { simulateCurve } from "../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../lib/model/syntheticSpectrum.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { erf } from "mathjs";
+import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
 
 describe("VALENCE_LADDER_DEFAULTS", () => {
   it("is frozen with the documented values", () => {
@@ -141,14 +140,10 @@ describe("fullShell", () => {
 // through the substrate junction: the ladder read from the VB side predicts it, and the CB side
 // found again on the remainder reads p with its six peaks.
 describe("analyzeCurve(curve, { eta }): p read on the current less the VB ladder's resonances (low-η draws)", () => {
-  const lowEta = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
   // Draw 123: p1 2.350 V, the resonance 2.323 V; draw 92: p1 2.916 V, the resonance 2.919 V.
   for (const start of [123, 92]) {
     it(`predicts the resonances of the truth and reads p with its six peaks (draw ${start})`, () => {
-      const { scenario, truth } = syntheticSpectrum(start, "shell-filling", lowEta);
-      const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-      const a = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "simulated", metadata: {} } }, { eta: truth.eta });
-      const tolV = (0.25 * truth.chargingEnergyEV) / truth.eta;
+      const { scenario, truth, sim, analysis: a, tolV } = lowEtaDraw(start);
       // The draw is the case: p's first peak lies at a resonance of the truth.
       expect(truth.secondJunctionPeaksV.some((v) => Math.abs(v - truth.pPeaksV[0]) < tolV)).toBe(true);
       // The prediction from the analysis' VB side against the simulation's own VB resonance steps.

@@ -8,9 +8,8 @@ import { cbSideEndV } from "../../../lib/model/fit/cbSideEnd.ts";
 import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
 import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
-import { simulateCurve } from "../../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../../lib/model/syntheticSpectrum.ts";
-import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
+import { syntheticSpectrum } from "../../../lib/model/syntheticSpectrum.ts";
+import { lowEtaDraw } from "../../helpers/lowEtaDraw.ts";
 
 describe("blindCbSide", () => {
   const peaks = [
@@ -77,15 +76,6 @@ describe("wholeCurveChoice", () => {
   });
 });
 
-/** The accuracy benchmark's low-η mix (η 0.55–0.65, second-junction resonances kept): a draw (intermediate unless said), simulated by the fast model and analysed. */
-function lowEtaDraw(seed: number, regime: "intermediate" | "shell-filling" = "intermediate") {
-  const ranges = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
-  const { scenario, truth } = syntheticSpectrum(seed, regime, ranges);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: truth.eta });
-  return { scenario, truth, sim, analysis };
-}
-
 describe("fitCurve(analysis, { compareModels: true }) on a low-η spectrum whose CB side is blind to p", () => {
   // The accuracy benchmark's low-η mix (η 0.55–0.65, second-junction resonances kept), its
   // intermediate draw 20: η 0.649, Ec 0.169 eV, Γtip/Γsub 1.05, p split 2+4. The first hole's
@@ -93,7 +83,7 @@ describe("fitCurve(analysis, { compareModels: true }) on a low-η spectrum whose
   // 1.93 V), so the CB side ends before p and every grouping fits it; the fewest levels (p whole,
   // in filling order) won there at Γtip/Γsub 2.9.
   it("lets the whole-curve fits decide and recovers the simulated Ec within 3 % and Γtip/Γsub within × 1.5", () => {
-    const { truth, sim, analysis } = lowEtaDraw(20);
+    const { truth, sim, analysis } = lowEtaDraw(20, "intermediate");
     const endV = cbSideEndV(analysis.peaks, truth.eta, FIT_DEFAULTS.cbSideResonanceMarginFwhm, FIT_DEFAULTS.cbSideHeldHole);
     expect(blindCbSide(analysis.peaks, [0.01, endV], FIT_DEFAULTS.blindSidePeaks, sim.biasV[sim.biasV.length - 1])).toBe(true);
     const fit = fitCurve(analysis, { compareModels: true });
@@ -112,7 +102,7 @@ describe("fitCurve(analysis, { compareModels: true }) where p lies wholly beyond
   // before p's first charging step, and no reading of the VB peaks fits with the CB values: the
   // values come from the CB side, where p does not move the model at all.
   it("leaves p alone undetermined and recovers the simulated Ec within 3 % and Γtip/Γsub within × 1.5 with a good status", () => {
-    const { scenario, truth, analysis } = lowEtaDraw(47);
+    const { scenario, truth, analysis } = lowEtaDraw(47, "intermediate");
     const fit = fitCurve(analysis, { compareModels: true });
     // p's first charging step (closed form: (ε_p + Ec·(2 + ½))/η, two electrons in s before it) lies beyond the points fitted.
     const pFirstV = (scenario.cb[1].energyEV + truth.chargingEnergyEV * 2.5) / truth.eta;
@@ -138,7 +128,7 @@ describe("fitCurve(analysis, { compareModels: true }) on a low-η spectrum whose
   // grouping settled at reduced χ² 8–17 there, and Ec 0.654 eV (3.5 times the simulated) at
   // Γtip/Γsub 0.14 won.
   it("holds the VB shell reading on the CB side and recovers the simulated Ec within 3 % and Γtip/Γsub within × 1.5", () => {
-    const { scenario, truth, sim, analysis } = lowEtaDraw(48);
+    const { scenario, truth, sim, analysis } = lowEtaDraw(48, "intermediate");
     const endV = cbSideEndV(analysis.peaks, truth.eta, FIT_DEFAULTS.cbSideResonanceMarginFwhm, FIT_DEFAULTS.cbSideHeldHole);
     const topV = sim.biasV[sim.biasV.length - 1];
     expect(endV).toBe(Infinity);

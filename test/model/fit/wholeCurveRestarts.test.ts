@@ -5,9 +5,8 @@
 import { describe, it, expect } from "vitest";
 import { valenceSpacingEcEV, wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "../../../lib/model/fit/wholeCurveRestarts.ts";
 import { fitCurve } from "../../../lib/model/fit/fitCurve.ts";
-import { simulateCurve } from "../../../lib/model/simulate.ts";
-import { syntheticSpectrum, SYNTHETIC_DEFAULTS } from "../../../lib/model/syntheticSpectrum.ts";
-import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
+import { syntheticSpectrum } from "../../../lib/model/syntheticSpectrum.ts";
+import { lowEtaDraw } from "../../helpers/lowEtaDraw.ts";
 
 describe("wholeCurveEcStarts", () => {
   it("gives the rules' Ec, the VB peaks' spacing times η, then the CB side's Ec times each factor", () => {
@@ -42,7 +41,7 @@ describe("fitCurve(analysis, { compareModels: true }) on a CB side crossed by th
   // every grouping from it settled far off (shell tunnelling at Ec 0.116 eV). The VB peaks'
   // own spacing, 0.078 eV, starts the ladders near the simulated Ec.
   it("recovers the simulated Ec within 3 % and Γtip/Γsub within × 1.5, read intermediate", () => {
-    const { scenario, truth, analysis } = lowEtaDraw(26);
+    const { scenario, truth, analysis } = lowEtaDraw(26, "intermediate");
     const vbPeaksV = analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
     // The simulation's truth: the VB spacing is within 10 % of the simulated Ec (the start the fix adds).
     expect(Math.abs(valenceSpacingEcEV(vbPeaksV, truth.eta)! / truth.chargingEnergyEV - 1)).toBeLessThan(0.1);
@@ -57,22 +56,13 @@ describe("fitCurve(analysis, { compareModels: true }) where the CB side's Ec giv
   // fits 2+6 in filling order to the noise at Ec 0.195 eV, Γtip/Γsub 6.8; every whole-curve
   // reading started from that Ec stayed at reduced χ² above 20.
   it("fits the whole curve from other Ec starts and recovers the simulated Ec within 3 % and Γtip/Γsub within × 1.5", () => {
-    const { scenario, truth, analysis } = lowEtaDraw(117);
+    const { scenario, truth, analysis } = lowEtaDraw(117, "intermediate");
     const fit = fitCurve(analysis, { compareModels: true });
     expectSimulatedValues(fit, scenario, truth);
     expect(fit.levels.some((l) => l.band === "VB")).toBe(true);
     expect(fit.warnings.some((w) => /started from another Ec/.test(w))).toBe(true);
   }, 60_000);
 });
-
-/** The accuracy benchmark's low-η mix (η 0.55–0.65, second-junction resonances kept): an intermediate draw, simulated and analysed. */
-function lowEtaDraw(seed: number) {
-  const ranges = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
-  const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
-  const sim = simulateCurve(scenario, { method: "fast", conductance: false });
-  const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: truth.eta });
-  return { scenario, truth, analysis };
-}
 
 /** The benchmark's bar for an intermediate spectrum against the simulation's truth: the regime, Ec within 3 %, Γtip/Γsub within × 1.5, and a fit that reaches the noise. */
 function expectSimulatedValues(fit: ReturnType<typeof fitCurve>, scenario: ReturnType<typeof lowEtaDraw>["scenario"], truth: ReturnType<typeof lowEtaDraw>["truth"]): void {
