@@ -82,6 +82,7 @@ export { rulesDecisive, RULES_DECISIVE_DEFAULTS, type RulesDecisive, type RulesD
 
 // The whole job on one curve.
 export { analyzeCurve, ANALYZE_DEFAULTS, type AnalyzeOptions, type AnalyzeSettings, type AnalyzedPeak, type CurveAnalysis } from "./pipeline/analyzeCurve.ts";
+export { subtractionWarning, type SubtractedResonances } from "./pipeline/valenceLadder.ts";
 
 // Physics model.
 export { parseScenario, biasAxis, SCENARIO_DEFAULTS, type Scenario, type Level, type BiasSweep, type NoiseSpec } from "./model/scenario.ts";

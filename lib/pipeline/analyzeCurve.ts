@@ -15,7 +15,7 @@ import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks } from "./flankLevels.ts";
 import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
-import { fullShell, valenceResonancePeaks } from "./valenceLadder.ts";
+import { fullShell, subtractionWarning, valenceResonancePeaks, type SubtractedResonances } from "./valenceLadder.ts";
 import { bandAreas, gapSideFwhm } from "./bandAreas.ts";
 import { setAsideSourcePredictions } from "../assign/oddLeadingLevel.ts";
 import { checkEta, checkKnownKeys } from "../util/check.ts";
@@ -97,6 +97,8 @@ export interface CurveAnalysis {
   /** Zero-conductance region [negative edge, positive edge] in V, or null. */
   gapEdgesV: [number, number] | null;
   assignment: Assignment;
+  /** The VB ladder's second-junction resonances taken out of the current before the CB peaks were found (note 9; they are no peaks of the list), or null. */
+  subtractedResonances: SubtractedResonances | null;
   /** All warnings of all stages, in order. */
   warnings: string[];
 }
@@ -331,8 +333,8 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     const nextPeaks = withSweeps(next, nextAreas, sweeps.length, sweepPeaks);
     return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: assignSpectrum(nextPeaks, { eta, regime: options.regime }) };
   };
-  // The note of note 9's subtraction, where it was kept.
-  let subtracted: string | null = null;
+  // What note 9 took out of the current, where it was kept.
+  let subtracted: SubtractedResonances | null = null;
   const take = (r: ReturnType<typeof reread>): void => {
     ({ list, areas, peaks, assignment } = r);
   };
@@ -362,8 +364,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     // Kept where the regime stays and p then holds as many peaks as it has states; the later stages read the remainder.
     if (again && again.assignment.regime === assignment.regime && fullShell(again.assignment, "p")) {
       take(again);
-      const at = vb.prediction.steps.map((q) => q.biasV.toFixed(3)).join(", ");
-      subtracted = `CB peaks found on the current less the VB ladder's predicted second-junction resonances (steps at ${at} V; Γtip/Γsub ${vb.prediction.rateRatio.toPrecision(3)}, Ec ${vb.prediction.chargingEnergyEV.toFixed(3)} eV): those resonances are not in the peak list`;
+      subtracted = { steps: vb.prediction.steps, rateRatio: vb.prediction.rateRatio, chargingEnergyEV: vb.prediction.chargingEnergyEV };
     } else curveIn = whole;
   }
   for (let round = 0; none === null && !signal.record.usedMeasured && round < SHORT_SHELL_ROUNDS; round++) {
@@ -413,7 +414,8 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     bandWidthsV: areas.widthsV,
     gapEdgesV: none === null ? edges : null,
     assignment,
-    warnings: [...signal.record.warnings, ...found.record.warnings, ...(subtracted ? [subtracted] : []), ...assignment.warnings],
+    subtractedResonances: subtracted,
+    warnings: [...signal.record.warnings, ...found.record.warnings, ...(subtracted ? [subtractionWarning(subtracted)] : []), ...assignment.warnings],
   };
 }
 

@@ -330,3 +330,38 @@ export function fullShell(assignment: Pick<Assignment, "multiplets">, label: str
   const m = assignment.multiplets.find((x) => x.band === "CB" && x.label === label);
   return m !== undefined && m.expected !== null && m.found === m.expected;
 }
+
+/** The VB ladder's second-junction resonances taken out of the current before the CB peaks were found (analyzeCurve note 9). */
+export interface SubtractedResonances {
+  /** The resonance steps subtracted, at positive bias: position (V), height (A), thermal width (V). */
+  steps: CurrentStep[];
+  /** Γtip/Γsub of the VB ladder's model. */
+  rateRatio: number;
+  /** Charging energy of the VB ladder's model, eV. */
+  chargingEnergyEV: number;
+}
+
+/**
+ * The warning that names the resonances taken out of the current (they are then no peaks of the list).
+ *
+ * Parameters
+ * ----------
+ * subtracted : SubtractedResonances
+ *     What was taken out.
+ *
+ * Returns
+ * -------
+ * string
+ *     One line: the steps' positions (V, three decimals), Γtip/Γsub and Ec of the ladder's model.
+ *
+ * Example
+ * -------
+ * ```ts
+ * subtractionWarning({ steps: [{ biasV: 2.3231, heightA: 4e-12, thermalWidthV: 1e-3 }], rateRatio: 12.5, chargingEnergyEV: 0.1 });
+ * // => "CB peaks found on the current less the VB ladder's predicted second-junction resonances (steps at 2.323 V; Γtip/Γsub 12.5, Ec 0.100 eV): those resonances are not in the peak list"
+ * ```
+ */
+export function subtractionWarning(subtracted: SubtractedResonances): string {
+  const at = subtracted.steps.map((q) => q.biasV.toFixed(3)).join(", ");
+  return `CB peaks found on the current less the VB ladder's predicted second-junction resonances (steps at ${at} V; Γtip/Γsub ${subtracted.rateRatio.toPrecision(3)}, Ec ${subtracted.chargingEnergyEV.toFixed(3)} eV): those resonances are not in the peak list`;
+}

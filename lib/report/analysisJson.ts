@@ -65,6 +65,12 @@ export interface AnalysisJson {
     /** "level" (in a multiplet), "satellite", "second-junction" (a resonance through the substrate junction) or "unassigned". */
     role: PeakRole;
   }[];
+  /**
+   * The VB ladder's second-junction resonances taken out of the current before the CB peaks were
+   * found (low η): each step's position (V) and height (A), with Γtip/Γsub and Ec (eV) of the
+   * ladder's model. They are no peaks of `peaks`. Null where nothing was taken out.
+   */
+  subtractedResonances: { steps: { biasV: number; heightA: number }[]; rateRatio: number; chargingEnergyEV: number } | null;
   energies: SpectrumEnergies;
   /** 1σ uncertainties of the bias-referred quantities, V. */
   uncertainties: SpectrumUncertainties;
@@ -181,6 +187,11 @@ export function analysisToJson(analysis: CurveAnalysis, importRecord?: ImportRec
       multipletIndex: p.multiplet,
       role: p.role,
     })),
+    subtractedResonances: analysis.subtractedResonances && {
+      steps: analysis.subtractedResonances.steps.map((q) => ({ biasV: q.biasV, heightA: q.heightA })),
+      rateRatio: analysis.subtractedResonances.rateRatio,
+      chargingEnergyEV: analysis.subtractedResonances.chargingEnergyEV,
+    },
     energies: a.energies,
     uncertainties: a.uncertainties,
     evidence: a.evidence,

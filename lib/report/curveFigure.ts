@@ -10,6 +10,7 @@ import * as Plot from "@observablehq/plot";
 import type { Curve } from "../curve.ts";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
 import { normalizedConductance } from "../signal/normalizedConductance.ts";
+import { interpolateOnto } from "../util/interpolateOnto.ts";
 import { DotspecError } from "../util/errors.ts";
 import { MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION, multipletColor } from "./multipletColor.ts";
 import { axisAttributes, currentUnit, energyAxis, envelope, sourceBaseName, SVG_NS, svgMaker, svgRoot } from "./figureParts.ts";
@@ -78,6 +79,9 @@ export const CURVE_FIGURE_DEFAULTS = Object.freeze({
   dotRadius: 4.5,
 });
 
+
+/** The words for a resonance of the VB ladder taken out of the current before the CB peaks were found. */
+const SUBTRACTED_WORDS = `${SECOND_JUNCTION}, VB ladder's, taken out of the current`;
 
 const REGIME_WORDS: Record<CurveAnalysis["assignment"]["regime"], string> = {
   "shell-filling": "shell filling",
@@ -256,6 +260,25 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
       labelMarks.push(Plot.text([{ x, y: at.heightNS }], { x: "x", y: "y", text: () => name, dy: -13, fill, fontWeight: "bold", fontSize: 12 }));
     }
   }
+  // The VB ladder's resonances taken out of the current before the CB peaks were found (no peaks
+  // of the list): hollow circles on the measured dI/dV at each subtracted step.
+  const subtractedV = (analysis.subtractedResonances?.steps ?? []).map((q) => q.biasV).filter((v) => v >= biasV[0] && v <= biasV[biasV.length - 1]);
+  const subtractedNS = interpolateOnto(biasV, sig.didvS, Float64Array.from(subtractedV.sort((x, y) => x - y)));
+  const subtracted = subtractedV.map((v, k) => ({ biasV: v, heightNS: subtractedNS[k] * 1e9 }));
+  if (subtracted.length) {
+    const stroke = multipletColor(SECOND_JUNCTION);
+    dotMarks.push(
+      Plot.dot(subtracted, {
+        x: "biasV",
+        y: "heightNS",
+        r: D.dotRadius,
+        fill: C.background,
+        stroke,
+        strokeWidth: 1.8,
+        title: (d: (typeof subtracted)[number]) => `${SUBTRACTED_WORDS}: ${d.biasV.toFixed(4)} V`,
+      }),
+    );
+  }
   const biasAxis = { domain, label: "sample bias (V)", labelAnchor: "center", labelArrow: "none" } as const;
   const hiddenAxis = { domain, label: null, tickFormat: () => "" };
   const normalized = options.normalized ?? false;
@@ -304,23 +327,25 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   // Legend entries: one swatch per multiplet, then "no multiplet" and the gap; laid out in rows
   // that fit the width (text width estimated at 6.2 px per character of 11 px type).
   const a = analysis.assignment;
-  const entries: [string, string][] = a.multiplets.map((m) => [
+  // Each entry: text, colour, and whether its swatch is hollow (a mark drawn in outline).
+  const entries: [string, string, boolean?][] = a.multiplets.map((m) => [
     `${m.label} (${m.band}, ${m.found}${m.expected === null ? "" : "/" + m.expected} peak${(m.expected ?? m.found) === 1 ? "" : "s"})`,
     multipletColor(m.label),
   ]);
   if (peaks.some((p) => p.label === SECOND_JUNCTION)) entries.push([`${SECOND_JUNCTION} (−η·V/(1 − η) of a level)`, multipletColor(SECOND_JUNCTION)]);
   if (peaks.some((p) => p.label === null)) entries.push([NO_MULTIPLET, MULTIPLET_COLORS.none]);
+  if (subtracted.length) entries.push([SUBTRACTED_WORDS, multipletColor(SECOND_JUNCTION), true]);
   if (gap) entries.push(["zero-conductance region", C.gap]);
-  const placed: { text: string; fill: string; x: number; row: number }[] = [];
+  const placed: { text: string; fill: string; hollow: boolean; x: number; row: number }[] = [];
   let lx = 0;
   let row = 0;
-  for (const [text, fill] of entries) {
+  for (const [text, fill, hollow = false] of entries) {
     const w = 22 + text.length * 6.2;
     if (lx > 0 && 16 + lx + w > width - 8) {
       lx = 0;
       row++;
     }
-    placed.push({ text, fill, x: lx, row });
+    placed.push({ text, fill, hollow, x: lx, row });
     lx += w;
   }
   const headerHeight = D.headerHeight + row * D.legendRowHeight;
@@ -340,7 +365,8 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   const legend = el("g", { transform: `translate(16, 58)`, "font-size": 11, fill: C.subtitle });
   for (const e of placed) {
     const y = e.row * D.legendRowHeight;
-    legend.append(el("rect", { x: e.x, y, width: 10, height: 10, rx: 2, fill: e.fill }), el("text", { x: e.x + 14, y: y + 9 }, e.text));
+    const swatch: Record<string, string | number> = e.hollow ? { fill: C.background, stroke: e.fill, "stroke-width": 1.8 } : { fill: e.fill };
+    legend.append(el("rect", { x: e.x, y, width: 10, height: 10, rx: 2, ...swatch }), el("text", { x: e.x + 14, y: y + 9 }, e.text));
   }
   root.append(legend);
   // Plot's stylesheet is meant for HTML pages (display: block; height: auto), which would resize

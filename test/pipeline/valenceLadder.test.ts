@@ -6,7 +6,7 @@
 // kept), simulated by the same model: the expected values are the simulation's truth.
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
-import { valenceLadderPrediction, valenceResonancePeaks, stepsCurrent, fullShell, VALENCE_LADDER_DEFAULTS } from "../../lib/pipeline/valenceLadder.ts";
+import { valenceLadderPrediction, valenceResonancePeaks, stepsCurrent, fullShell, subtractionWarning, VALENCE_LADDER_DEFAULTS } from "../../lib/pipeline/valenceLadder.ts";
 import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
 import { bandLadders, currentSteps, fastCurrent, type DotModel } from "../../lib/model/bandCurrent.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
@@ -167,6 +167,14 @@ describe("analyzeCurve(curve, { eta }): p read on the current less the VB ladder
       expect(own.length).toBeGreaterThan(0);
       const named = [...note!.matchAll(/\d+\.\d{3}(?=[,;] | V;)/g)].map((x) => Number(x[0]));
       for (const s of own) expect(named.some((v) => Math.abs(v - s.biasV) < 0.015), `step at ${s.biasV} V named`).toBe(true);
+      // The same steps in the record's own field, heights too; the warning is made from it.
+      const taken = a.subtractedResonances!;
+      for (const s of own) {
+        const near = taken.steps.reduce((b, q) => (Math.abs(q.biasV - s.biasV) < Math.abs(b.biasV - s.biasV) ? q : b));
+        expectClose(near.biasV, s.biasV, { atol: 0.015, what: "subtracted step, the simulation's model" });
+        expectClose(near.heightA, s.heightA, { rtol: 0.15, what: "subtracted height, the simulation's model" });
+      }
+      expect(note).toBe(subtractionWarning(taken));
     }, 30_000);
   }
 });

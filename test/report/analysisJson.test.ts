@@ -68,3 +68,22 @@ describe("analysisToJson(analysis, record, extras): notes, metadata and provenan
     expect(j.warnings).toEqual(json.warnings);
   });
 });
+
+describe("analysisToJson(analysis): the VB ladder's resonances taken out of the current", () => {
+  it("records each subtracted step (position, height) with the ladder's Γtip/Γsub and Ec, as plain JSON; null where none", async () => {
+    const { lowEtaDraw } = await import("../helpers/lowEtaDraw.ts");
+    // Draw 123 of the low-η mix (analyzeCurve note 9 fires there; its steps are checked against
+    // the simulation's model in test/pipeline/valenceLadder.test.ts).
+    const { analysis: low } = lowEtaDraw(123);
+    const taken = low.subtractedResonances!;
+    const record = JSON.parse(JSON.stringify(analysisToJson(low)));
+    expect(record.subtractedResonances).toEqual({
+      steps: taken.steps.map((q) => ({ biasV: q.biasV, heightA: q.heightA })),
+      rateRatio: taken.rateRatio,
+      chargingEnergyEV: taken.chargingEnergyEV,
+    });
+    // They are no peaks of the record: none of its peaks sits on a subtracted step.
+    for (const q of taken.steps) expect(record.peaks.some((p: { biasV: number }) => Math.abs(p.biasV - q.biasV) < 1e-4)).toBe(false);
+    expect(json.subtractedResonances).toBeNull();
+  }, 30_000);
+});

@@ -3,7 +3,8 @@
 import { describe, it, expect } from "vitest";
 import { JSDOM } from "jsdom";
 import { curveFigure, CURVE_FIGURE_DEFAULTS } from "../../lib/report/curveFigure.ts";
-import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, DotspecError, analyzeCurve } from "../../lib/index.ts";
+import { loadCurveFigure, multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION, DotspecError, analyzeCurve } from "../../lib/index.ts";
+import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
 import { simulatedAnalysis } from "./fixture.ts";
 import { FILLING, chargingPeakV } from "../cli/harness.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -249,5 +250,40 @@ describe("multipletColor(label)", () => {
     expect(multipletColor("v5")).toBe(MULTIPLET_COLORS.valence[0]);
     expect(multipletColor(null)).toBe(MULTIPLET_COLORS.none);
     expect(multipletColor("x")).toBe(MULTIPLET_COLORS.other);
+  });
+});
+
+describe("curveFigure: the VB ladder's resonances taken out of the current (low η)", () => {
+  // Draw 123 of the low-η mix: the VB ladder's second-junction resonances are subtracted before
+  // the CB peaks are found (analyzeCurve note 9), so they are no peaks of the list; the figure
+  // still marks each, as a hollow circle on the measured dI/dV.
+  const { analysis: low } = lowEtaDraw(123);
+  const root = parseXml(curveFigure(low, { document })).documentElement;
+  const hollow = Array.from(root.getElementsByTagName("circle")).filter((c) => /taken out of the current: /.test(c.textContent ?? ""));
+
+  it("draws one hollow circle in the second-junction colour at each subtracted step inside the bias range", () => {
+    const steps = low.subtractedResonances!.steps.filter((q) => q.biasV >= low.conductance.biasV[0] && q.biasV <= low.conductance.biasV.at(-1)!);
+    expect(steps.length).toBeGreaterThan(0);
+    expect(hollow).toHaveLength(steps.length);
+    const [v0, v1] = root.getAttribute("data-bias-range-v")!.split(" ").map(Number);
+    const [x0, x1] = root.getAttribute("data-plot-x-px")!.split(" ").map(Number);
+    for (const q of steps) {
+      const c = hollow.find((h) => h.textContent!.includes(`: ${q.biasV.toFixed(4)} V`))!;
+      expect(c, `circle of the step at ${q.biasV} V`).toBeDefined();
+      // Linear scale (closed form): px = x0 + (V − v0)/(v1 − v0)·(x1 − x0)
+      expectClose(Number(c.getAttribute("cx")), x0 + ((q.biasV - v0) / (v1 - v0)) * (x1 - x0), { atol: 0.01, what: `circle of the step at ${q.biasV} V` });
+      expect([inherited(c, "fill"), inherited(c, "stroke")]).toEqual([CURVE_FIGURE_DEFAULTS.colors.background, multipletColor(SECOND_JUNCTION)]);
+    }
+    // Named in the legend with a hollow swatch.
+    const legend = root.getElementsByTagName("g")[0];
+    const entry = Array.from(legend.getElementsByTagName("text")).findIndex((t) => t.textContent === `${SECOND_JUNCTION}, VB ladder's, taken out of the current`);
+    expect(entry).toBeGreaterThanOrEqual(0);
+    const swatch = legend.getElementsByTagName("rect")[entry];
+    expect([swatch.getAttribute("fill"), swatch.getAttribute("stroke")]).toEqual([CURVE_FIGURE_DEFAULTS.colors.background, multipletColor(SECOND_JUNCTION)]);
+  });
+
+  it("draws none where nothing was taken out (η = 0.8: no resonance in the window)", () => {
+    expect(analysis.subtractedResonances).toBeNull();
+    expect(svg).not.toContain("taken out of the current");
   });
 });
