@@ -8,6 +8,7 @@ import type { FitRun } from "./fitRunner.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
 import type { FIT_DEFAULTS } from "./fitDefaults.ts";
 import { startingValues } from "./startingValues.ts";
+import { SCENARIO_DEFAULTS } from "../scenario.ts";
 import { refineGrouping } from "./refineGrouping.ts";
 import { sameFit } from "./sameFit.ts";
 import { shiftGrouping } from "./shiftGrouping.ts";
@@ -247,17 +248,20 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
       trials.push(full);
       if (accept(full) && (!bestFull || full.bic < bestFull.bic)) bestFull = full;
     };
-    // The first reading always; a further one only within the hypotheses' limit of charge states
-    // (one of eleven single levels has 2,048: one evaluation then solves for seconds).
-    const small = (vb: LevelSeed[]) => vb.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates;
-    h.vbReadings.forEach((vb, i) => (i === 0 || small(vb)) && fitReading(vb, h.chargingEnergyStartEV));
+    // The first reading where the master equation solves it (the assignment's own VB levels, read
+    // by their steps, can make 10⁵ states: degeneracies 2, 7, 8, 6, 5, 4, 4); a further one only
+    // within the hypotheses' limit of charge states (one of eleven single levels has 2,048: one
+    // evaluation then solves for seconds).
+    const states = (vb: LevelSeed[]) => vb.reduce((m, x) => m * (x.degeneracy + 1), 1);
+    const small = (vb: LevelSeed[]) => states(vb) <= F.maxAssignedStates;
+    h.vbReadings.forEach((vb, i) => (i === 0 ? states(vb) <= SCENARIO_DEFAULTS.maxStates : small(vb)) && fitReading(vb, h.chargingEnergyStartEV));
     // No reading fits as well as the CB side does, though one comes near (reduced χ² at most
     // poorFitChiSquare; beyond, the reading is wrong by more than an entry): the VB levels entered
     // one carrier earlier (started from the CB side's Ec).
     // Such a reading replaces the best only where it fits as well as the CB side does and is
     // plausible: one that merely fits better pulls Ec and Γtip/Γsub as a wrong reading does.
-    const asCbSide = (t: FitTrial) => reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
-    if (!asCbSide(bestFull!) && reduced(bestFull!) <= F.poorFitChiSquare) {
+    const asCbSide = (t: FitTrial | null) => t !== null && reduced(t) <= COMPARE_GROUPINGS_DEFAULTS.vbRetryRatio * Math.max(1, reduced(cbDone));
+    if (bestFull && !asCbSide(bestFull) && reduced(bestFull) <= F.poorFitChiSquare) {
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
       for (const vb of laterEntryReadings(h.vbReadings.filter((r) => r.length), vbPeaksV, p[ncb] / eta).filter(small)) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
     }
@@ -265,16 +269,19 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
     // model (a doublet, then a level of four), spaced by the CB side's Ec. A
     // grouping's own readings follow its regime (filling groups, or runs of peaks one level each),
     // which between the regimes may read neither VB level whole; kept on the same terms.
-    if (!asCbSide(bestFull!)) {
+    if (!asCbSide(bestFull)) {
       // Both entries of each level: from the empty dot, and in filling order (after the levels nearer the gap are full).
       // The second level's entry may hide under the first level's second peak: that reading too.
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
       const reading = shellValenceReading(vbPeaksV, p[ncb] / eta);
       const hidden = hiddenEntryReading(reading, vbPeaksV);
       const key = (r: readonly LevelSeed[]) => r.map((x) => `${x.degeneracy}@${x.firstPeakV}/${x.before}`).join(" ");
-      for (const vb of [reading, ...(hidden ? [hidden] : [])].filter((r) => r.length).flatMap((r) => [r, inFillingOrder(r)])) {
+      const shellReadings = [reading, ...(hidden ? [hidden] : [])].filter((r) => r.length).flatMap((r) => [r, inFillingOrder(r)]);
+      for (const vb of shellReadings) {
         if (!h.vbReadings.some((r) => key(r) === key(vb))) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
       }
+      // No reading could be solved at all (the first too large): the shell reading stands, or none.
+      if (!bestFull) fitReading(shellReadings[0] ?? [], p[ncb]);
     }
     return bestFull!;
   };
