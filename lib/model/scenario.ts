@@ -124,7 +124,26 @@ function parseLevels(key: "cb" | "vb", value: unknown): Level[] {
   return levels;
 }
 
-function stateCount(levels: Level[]): number {
+/**
+ * Charge states of one band's levels, ∏(g + 1): the size of the band's master equation.
+ *
+ * Parameters
+ * ----------
+ * levels : readonly Pick<Level, "degeneracy">[]
+ *     The band's levels.
+ *
+ * Returns
+ * -------
+ * number
+ *     The number of charge states (1 for no level).
+ *
+ * Example
+ * -------
+ * ```ts
+ * stateCount([{ degeneracy: 2 }, { degeneracy: 6 }]); // => 21
+ * ```
+ */
+export function stateCount(levels: readonly Pick<Level, "degeneracy">[]): number {
   return levels.reduce((n, l) => n * (l.degeneracy + 1), 1);
 }
 

@@ -8,7 +8,7 @@ import type { FitRun } from "./fitRunner.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
 import type { FIT_DEFAULTS } from "./fitDefaults.ts";
 import { startingValues } from "./startingValues.ts";
-import { SCENARIO_DEFAULTS } from "../scenario.ts";
+import { SCENARIO_DEFAULTS, stateCount } from "../scenario.ts";
 import { refineGrouping } from "./refineGrouping.ts";
 import { sameFit } from "./sameFit.ts";
 import { shiftGrouping } from "./shiftGrouping.ts";
@@ -176,7 +176,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
     // reading instead, from the hypothesis' starting Ec.
     const ecStartV = (h.chargingEnergyStartEV ?? peakChargingEnergyEV ?? guessEC) / eta;
     const heldVb = stage.crossedSide ? heldShellLevels(vbPeaksV, ecStartV, eta, topV) : F.cbSideHeldHole ? heldValenceLevels(hypotheses[0].seeds, holeEntryV, eta, topV) : [];
-    if (seeds.length && seeds.reduce((m, x) => m * (x.degeneracy + 1), 1) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]], ...(heldVb.length ? { heldVb } : {}) });
+    if (seeds.length && stateCount(seeds) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]], ...(heldVb.length ? { heldVb } : {}) });
   }
   // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
   // above exploreDropRatio times the best) or already converged is not continued.
@@ -248,13 +248,12 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
       trials.push(full);
       if (accept(full) && (!bestFull || full.bic < bestFull.bic)) bestFull = full;
     };
-    // The first reading where the master equation solves it (the assignment's own VB levels, read
-    // by their steps, can make 10⁵ states: degeneracies 2, 7, 8, 6, 5, 4, 4); a further one only
-    // within the hypotheses' limit of charge states (one of eleven single levels has 2,048: one
-    // evaluation then solves for seconds).
-    const states = (vb: LevelSeed[]) => vb.reduce((m, x) => m * (x.degeneracy + 1), 1);
-    const small = (vb: LevelSeed[]) => states(vb) <= F.maxAssignedStates;
-    h.vbReadings.forEach((vb, i) => (i === 0 ? states(vb) <= SCENARIO_DEFAULTS.maxStates : small(vb)) && fitReading(vb, h.chargingEnergyStartEV));
+    // The readings within the hypotheses' limit of charge states (one of eleven single levels has
+    // 2,048: one evaluation then solves for seconds); the assignment's own reading also beyond it,
+    // where the master equation solves it (its VB levels, read by their steps, can make 10⁵
+    // states: degeneracies 2, 7, 8, 6, 5, 4, 4).
+    const small = (vb: LevelSeed[]) => stateCount(vb) <= F.maxAssignedStates;
+    h.vbReadings.forEach((vb, i) => (small(vb) || (i === 0 && h.kind === "assigned" && stateCount(vb) <= SCENARIO_DEFAULTS.maxStates)) && fitReading(vb, h.chargingEnergyStartEV));
     // No reading fits as well as the CB side does, though one comes near (reduced χ² at most
     // poorFitChiSquare; beyond, the reading is wrong by more than an entry): the VB levels entered
     // one carrier earlier (started from the CB side's Ec).

@@ -5,7 +5,7 @@
  */
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { assignSpectrum } from "../../assign/assignSpectrum.ts";
-import { SCENARIO_DEFAULTS } from "../scenario.ts";
+import { SCENARIO_DEFAULTS, stateCount } from "../scenario.ts";
 import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
 import type { heldValenceLevels } from "./heldValenceLevels.ts";
 
@@ -113,7 +113,8 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
  *    level each, holding the run's length less the holes of the levels nearer the gap. This is
  *    how a spectrum at an intermediate rate ratio reads.
  * 5. Layouts: p whole, 2+4, 2+2+2 (D.pLayouts); no d shell (peaks past p stay unexplained and
- *    cost χ²). Hypotheses with more than D.maxStatesPerBand charge states in a band are not tried.
+ *    cost χ²). Hypotheses with more than D.maxStatesPerBand charge states in the CB are not
+ *    tried; VB readings beyond it are left to the whole-curve fit (it fits only those within).
  *
  * Example
  * -------
@@ -131,11 +132,13 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
     const key = seedKey(h.seeds) + `|${h.chargingEnergyStartEV ?? ""}`;
     if (!h.seeds.some((s) => s.band === "CB") && h.kind !== "assigned") return;
     if (!h.seeds.length || seen.has(key)) return;
-    const states = Math.max(...(["CB", "VB"] as const).map((band) => h.seeds.filter((x) => x.band === band).reduce((n, x) => n * (x.degeneracy + 1), 1)));
-    if (h.kind !== "assigned" && states > Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand)) return;
-    seen.add(key);
     const own = h.seeds.filter((s) => s.band === "VB");
     const readings = [own, ...(vbReadings ?? []).filter((r) => seedKey(r) !== seedKey(own))];
+    // The assignment's in both bands; another's on the CB side: the whole-curve fit tries only the
+    // VB readings within the limit, else the VB shell reading (compareGroupings).
+    const states = Math.max(stateCount(h.seeds.filter((x) => x.band === "CB")), h.kind === "assigned" ? stateCount(own) : 1);
+    if (h.kind !== "assigned" && states > Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand)) return;
+    seen.add(key);
     out.push({ ...h, vbReadings: readings, cbDegeneracies: h.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy), states });
   };
   const base = { chargingEnergyStartEV: null, rateRatioStartLog10: null };
