@@ -7,6 +7,7 @@ import type { Peak } from "../peaks/findPeaks.ts";
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
 import { assignWith } from "./assignWith.ts";
+import { medianSpacingV } from "./iterateResonances.ts";
 import { ladderPredictions } from "./ladderResonances.ts";
 import type { Multiplet } from "./multiplets.ts";
 import { matchToleranceV, SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
@@ -138,13 +139,16 @@ function onLadder(peaks: readonly Pick<Peak, "biasV">[], group: readonly number[
  * A shell-filling reading with an odd VB group read again with its peak at a CB level's
  * resonance (`oddValenceResonance`) set aside: the rules run under shell filling with p kept as
  * it was, and the result stands if its CB multiplets are the same and it has fewer odd VB groups
- * (at most `ODD_VALENCE_LEVEL_DEFAULTS.maxRounds` rounds). The reading itself otherwise.
+ * (at most `ODD_VALENCE_LEVEL_DEFAULTS.maxRounds` rounds). The reading itself otherwise. Ec_V
+ * is that of the rounds' predictions (`iterateResonances`, note 1): the median spacing within the
+ * multiplets' sub-groups, robust to a resonance counted in one (the ladder's fitted Ec with fewer
+ * than three spacings).
  */
 export function withoutOddValence(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
   let current = a;
   for (let round = 0; round < ODD_VALENCE_LEVEL_DEFAULTS.maxRounds; round++) {
-    const ecV = current.quantities.chargingEnergyV;
-    if (current.regime !== "shell-filling" || options.regime || !(eta < 1) || ecV === null) break;
+    if (current.regime !== "shell-filling" || options.regime || !(eta < 1) || current.quantities.chargingEnergyV === null) break;
+    const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
     const found = oddValenceResonance(peaks, current.multiplets, current.evidence.secondJunction, ecV, eta);
     if (!found) break;
     const p = current.multiplets.find((m) => m.band === "CB" && m.label === "p");
