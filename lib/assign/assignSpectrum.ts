@@ -14,6 +14,7 @@ import type { SpectrumQuantities, SpectrumUncertainties } from "./quantities.ts"
 import type { SpectrumEnergies } from "./energies.ts";
 import type { Regime, RegimeEvidence } from "./regime.ts";
 import { secondJunctionResonances, type SecondJunctionResonance } from "./secondJunction.ts";
+import { withoutOddValence } from "./oddValenceLevel.ts";
 import { bandEdgeResonanceRatio, firstReading, underResonances, unforced, valenceDoublet, withoutExtraLevel, withoutOddLead, withSpinPairs } from "./substrateReadings.ts";
 
 export { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
@@ -142,7 +143,10 @@ export interface Assignment {
  *    p is then not three pairs of charging peaks one Ec apart (spin puts two electrons on every
  *    orbital) and a resonance lies among the CB peaks beyond s, the six peaks that are three such
  *    pairs, every peak left out between them explained (`spinPairSet`), make p and steps 1–6 run
- *    again (`withSpinPairs`). A result that is not shell filling is tried the same way from the
+ *    again (`withSpinPairs`). Where a VB group then holds an odd number of peaks (every VB level
+ *    holds two carriers per orbital), its peak nearest a CB level's predicted resonance, within
+ *    the rounds' tolerance or a quarter of Ec times η/(1 − η) (`oddValenceResonance`), is set
+ *    aside if the CB reading stays the same and fewer VB groups are odd (`withoutOddValence`). A result that is not shell filling is tried the same way from the
  *    shell-filling reading when its band-edge resonances carry at least
  *    `D.fillingResonanceStepMin` × their levels' steps, and kept if the rules then read shell
  *    filling unasked, or if the VB's first main peaks read as a charging doublet by the CB's own
@@ -193,7 +197,7 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (!resonances) return first;
   // A shell-filling ladder predicts its own resonances: assign → predict → set aside → assign.
   const again = (adjusted: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(adjusted, eta, etaGiven, r, options);
-  if (first.regime === "shell-filling" || options.regime) return withSpinPairs(peaks, eta, etaGiven, withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options, true), options);
+  if (first.regime === "shell-filling" || options.regime) return withoutOddValence(peaks, eta, etaGiven, withSpinPairs(peaks, eta, etaGiven, withoutOddLead(peaks, eta, etaGiven, iterateResonances(peaks, first, eta, again), options, true), options), options);
   // Another reading: the shell-filling one stands if the band-edge resonances are as strong as
   // shell filling makes them and, with the resonances its own ladder predicts set aside, the
   // rules read shell filling unasked (resonances counted as levels can hide it).
@@ -206,5 +210,5 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
   unforced(filling);
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);
-  return withSpinPairs(peaks, eta, etaGiven, filling, options);
+  return withoutOddValence(peaks, eta, etaGiven, withSpinPairs(peaks, eta, etaGiven, filling, options), options);
 }

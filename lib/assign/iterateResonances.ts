@@ -137,9 +137,9 @@ export function iterateResonances(
  * with fewer than three spacings: every such pair is one Ec_V apart in shell filling; a resonance
  * counted inside a sub-group splits one spacing into two shorter ones and a missed peak doubles
  * one, so the median holds while fewer than half the pairs are disturbed (the ladder's
- * least-squares spacing does not).
+ * least-squares spacing does not). Also the Ec_V of `withoutOddValence`.
  */
-function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
+export function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
   const spacings: number[] = [];
   for (const m of a.multiplets) {
     let start = 0;
