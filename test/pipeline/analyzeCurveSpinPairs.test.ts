@@ -25,3 +25,29 @@ describe("analyzeCurve(curve, { eta }): p read as three spin pairs past the reso
     }, 30_000);
   }
 });
+
+describe("analyzeCurve(curve, { eta }): p of the reading the VB's charging doublet makes shell filling (low-η draws)", () => {
+  // Draw 181: the first reading is shell tunnelling; the VB's doublet reads shell filling, whose p
+  // was led by a resonance at 2.23 V 0.66 Ec/η before p's first peak (sub-groups 1 + 5), its true
+  // first peak at 2.762 V set aside. Read as three spin pairs, p is the truth's.
+  it("reads p as three spin pairs (draw 181)", () => {
+    const draw = lowEtaDraw(181);
+    const reasons = draw.analysis.assignment.evidence.reasons;
+    // The draw is the case: the reading is the VB doublet's.
+    expect(reasons.some((r) => r.includes("the VB's first two main peaks step alike"))).toBe(true);
+    expectTrueP(draw, draw.truth.secondJunctionPeaksV.filter((v) => v > 0 && v < draw.truth.pPeaksV[0]));
+    expect(reasons.some((r) => r.startsWith("p read again as three spin pairs"))).toBe(true);
+  }, 30_000);
+  // Draw 1098: the VB doublet's reading opened p with a resonance at 2.686 V (sub-groups 1 + 5),
+  // p's first peak at 3.148 V then lying in d's place; set aside as the resonance of a VB peak, p
+  // is the truth's.
+  it("sets p's odd leading resonance aside (draw 1098)", () => {
+    const draw = lowEtaDraw(1098);
+    const reasons = draw.analysis.assignment.evidence.reasons;
+    expect(reasons.some((r) => r.includes("the VB's first two main peaks step alike"))).toBe(true);
+    const lead = draw.truth.secondJunctionPeaksV.filter((v) => v > 0 && v < draw.truth.pPeaksV[0]);
+    expect(lead.length).toBeGreaterThan(0);
+    expectTrueP(draw, lead);
+    expect(reasons.some((r) => r.includes("it opened p with an odd sub-group"))).toBe(true);
+  }, 30_000);
+});
