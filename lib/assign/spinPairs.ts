@@ -101,7 +101,10 @@ export interface SpinPairSet {
  *    (a resonance the ladder did not predict), or lying closer than
  *    `SPIN_PAIRS_DEFAULTS.splitHalfFraction` × Ec_V to a member of the set at a resonance: no two
  *    charging peaks lie that close (note 1), so the two are a level and a resonance that the
- *    peak search split apart, and the member stands for the level. A peak of the set at a
+ *    peak search split apart, and the member stands for the level. So is p as read when it is one
+ *    peak before the set: a lone peak is no orbital's charging pair (its spin partner would lie
+ *    one Ec_V on), and a resonance read as p's first where p's true peaks went to the next
+ *    shell leaves p as that one peak. A peak of the set at a
  *    resonance must step at least `fillingStepRatio[0]` × the level step: it holds a level and
  *    the resonance together. (Asking it to step the resonance's predicted share more, (g·r + 1)/(g + r) × its source, lost more
  *    spectra of the benchmark than it saved: the split of a shared step between overlapping
@@ -165,12 +168,14 @@ export function spinPairSet(peaks: readonly Pick<Peak, "biasV" | "stepA">[], inp
     .slice(0, D.maxCandidates);
   // Note 2: without a resonance among the CB peaks beyond s, nothing is there to break a pair.
   if (!pool.some((i) => inputs.resonant.has(i))) return null;
-  // Note 4: a resonance, no level's step, or the other half of a member at a resonance split apart.
+  // Note 4: a resonance, no level's step, the other half of a member at a resonance split apart,
+  // or p as read of one peak before the set.
   const explained = (i: number, members: readonly number[]) =>
     inputs.resonant.has(i) ||
     peaks[i].stepA < minRatio * levelStepA ||
     peaks[i].stepA > maxRatio * levelStepA ||
-    members.some((j) => inputs.resonant.has(j) && Math.abs(at(i) - at(j)) < D.splitHalfFraction * ecV);
+    members.some((j) => inputs.resonant.has(j) && Math.abs(at(i) - at(j)) < D.splitHalfFraction * ecV) ||
+    (read.length === 1 && read[0] === i && at(i) < at(members[0]));
   let best: { members: number[]; deviations: number[]; cost: number } | null = null;
   for (const members of choose(pool, 6)) {
     const dev = deviations(members.map(at), D.pairTolerance);

@@ -90,6 +90,18 @@ describe("spinPairSet(peaks, { multiplets, resonant })", () => {
     expect(spinPairSet(peaks, { multiplets: [s, pOf(broken)], resonant: new Set([indexOf(peaks, 3.06)]) })).toBeNull();
   });
 
+  it("leaves out p as read when it is one peak before the set, and only then", () => {
+    // p read as a lone peak at 2.42 V (stepping like a level; its spin partner would lie 0.2 V on),
+    // p's six peaks read as the next shell; a resonance at 3.06 V.
+    const peaks = listOf([[2.42, 1], [3.06, 2]]);
+    const resonant = new Set([indexOf(peaks, 3.06)]);
+    const got = spinPairSet(peaks, { multiplets: [s, pOf([indexOf(peaks, 2.42)])], resonant });
+    expect(got?.members.map((i) => peaks[i].biasV)).toEqual(P);
+    // Read with p's peaks after it, 2.42 V is one of six: nothing explains it, no set skips it.
+    const six = [2.42, 2.7, 2.9, 3.06, 3.4, 3.6].map((v) => indexOf(peaks, v));
+    expect(spinPairSet(peaks, { multiplets: [s, pOf(six)], resonant })).toBeNull();
+  });
+
   it("needs an s doublet and a p of degeneracy 6", () => {
     const peaks = listOf([[3.06, 2]]);
     const broken = [2.7, 2.9, 3.06, 3.4, 3.6, 3.8].map((v) => indexOf(peaks, v));
