@@ -153,8 +153,9 @@ export interface Assignment {
  *    rule (`valenceFillingDoublet`: alike steps, then a jump of at least `D.fillingJumpRatioMin`
  *    × their spacing), the rounds then run under shell filling (resonances of the higher VB
  *    levels, N·Ec/(1 − η) nearer 0 V than the plain guess, can keep the CB ladder from reading
- *    it: the VB has none of its own); otherwise a resonance stepping at least as much as its
- *    source goes back to the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for
+ *    it: the VB has none of its own), and its p is then read against an odd lead and as spin
+ *    pairs like the first's (`oddLeadingLevel`, `spinPairSet`); otherwise a resonance stepping at
+ *    least as much as its source goes back to the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for
  *    r < 1; not one with a peak that is no resonance within the smaller of their FWHMs: that
  *    peak is its level, split apart, the pair's summed step shared out by the split's fit; the
  *    farthest from its prediction first) where the regime stays the same, with a band-edge
@@ -206,7 +207,12 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   const forced = assignWith(peaks, eta, etaGiven, plain, { ...options, regime: "shell-filling" });
   const rounds = iterateResonances(peaks, forced, eta, again);
   const filling = rounds === forced ? forced : withoutOddLead(peaks, eta, etaGiven, rounds, { ...options, regime: undefined }, true);
-  if (filling === forced) return valenceDoublet(peaks, eta, etaGiven, forced, first, options) ?? withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
+  if (filling === forced) {
+    // The VB's charging doublet reads shell filling: its p is checked as in the rounds' reading.
+    const doublet = valenceDoublet(peaks, eta, etaGiven, forced, first, options);
+    if (doublet) return withSpinPairs(peaks, eta, etaGiven, withoutOddLead(peaks, eta, etaGiven, doublet, options, true), options);
+    return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
+  }
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
   unforced(filling);
   filling.evidence.reasons.unshift(`read as shell filling: with the second-junction resonances that its ladder predicts set aside, the rules read shell filling (the first reading, ${first.regime}, counted resonances as levels)`);

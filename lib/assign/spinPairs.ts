@@ -23,6 +23,12 @@ export const SPIN_PAIRS_DEFAULTS = Object.freeze({
    * the accuracy benchmark (0.3–0.4 alike, 0 and 0.6 worse).
    */
   memberStepMin: 0.4,
+  /**
+   * Note 4: a peak left out closer than this × Ec_V to a member of the set at a resonance is the
+   * other half of a level and a resonance that the peak search split apart: no two charging peaks
+   * lie that close (`ASSIGN_DEFAULTS.minLadderSpacingFraction`, the ladder's own limit).
+   */
+  splitHalfFraction: ASSIGN_DEFAULTS.minLadderSpacingFraction,
   /** At most this many CB peaks beyond s are candidates (C(12, 6) = 924 sets at most). */
   maxCandidates: 12,
   /**
@@ -92,9 +98,15 @@ export interface SpinPairSet {
  * 4. Each peak left out inside the set's span must be explained: a resonance, or stepping
  *    outside `ASSIGN_DEFAULTS.fillingStepRatio` × p's level step (the spread of one shell's
  *    charging steps): less holds no level (a flank or a satellite), more holds more than one
- *    (a resonance the ladder did not predict). A peak of the set at a resonance must step at least
- *    `fillingStepRatio[0]` × the level step: it holds a level and the resonance together. (Asking
- *    it to step the resonance's predicted share more, (g·r + 1)/(g + r) × its source, lost more
+ *    (a resonance the ladder did not predict), or lying closer than
+ *    `SPIN_PAIRS_DEFAULTS.splitHalfFraction` × Ec_V to a member of the set at a resonance: no two
+ *    charging peaks lie that close (note 1), so the two are a level and a resonance that the
+ *    peak search split apart, and the member stands for the level. So is p as read when it is one
+ *    peak before the set: a lone peak is no orbital's charging pair (its spin partner would lie
+ *    one Ec_V on), and a resonance read as p's first where p's true peaks went to the next
+ *    shell leaves p as that one peak. A peak of the set at a
+ *    resonance must step at least `fillingStepRatio[0]` × the level step: it holds a level and
+ *    the resonance together. (Asking it to step the resonance's predicted share more, (g·r + 1)/(g + r) × its source, lost more
  *    spectra of the benchmark than it saved: the split of a shared step between overlapping
  *    peaks is too rough for that.)
  *
@@ -156,14 +168,21 @@ export function spinPairSet(peaks: readonly Pick<Peak, "biasV" | "stepA">[], inp
     .slice(0, D.maxCandidates);
   // Note 2: without a resonance among the CB peaks beyond s, nothing is there to break a pair.
   if (!pool.some((i) => inputs.resonant.has(i))) return null;
-  const explained = (i: number) => inputs.resonant.has(i) || peaks[i].stepA < minRatio * levelStepA || peaks[i].stepA > maxRatio * levelStepA;
+  // Note 4: a resonance, no level's step, the other half of a member at a resonance split apart,
+  // or p as read of one peak before the set.
+  const explained = (i: number, members: readonly number[]) =>
+    inputs.resonant.has(i) ||
+    peaks[i].stepA < minRatio * levelStepA ||
+    peaks[i].stepA > maxRatio * levelStepA ||
+    members.some((j) => inputs.resonant.has(j) && Math.abs(at(i) - at(j)) < D.splitHalfFraction * ecV) ||
+    (read.length === 1 && read[0] === i && at(i) < at(members[0]));
   let best: { members: number[]; deviations: number[]; cost: number } | null = null;
   for (const members of choose(pool, 6)) {
     const dev = deviations(members.map(at), D.pairTolerance);
     if (!dev) continue;
     if (!members.every(holdsLevel)) continue;
     const last = at(members[5]);
-    if (pool.some((i) => at(i) < last && !members.includes(i) && !explained(i))) continue;
+    if (pool.some((i) => at(i) < last && !members.includes(i) && !explained(i, members))) continue;
     const cost = dev.reduce((sum, d) => sum + d * d, 0);
     if (!best || cost < best.cost) best = { members, deviations: dev, cost };
   }

@@ -76,18 +76,28 @@ function companionReasons(peaks: readonly Peak[], companions: readonly SecondJun
 /**
  * A shell-filling reading whose p opens with an odd sub-group at a VB peak's predicted resonance
  * (`oddLeadingLevel`): that peak is set aside and the rules run again; the result stands if it is
- * still shell filling and p's first sub-group is then even.
+ * still shell filling and p's first sub-group is then even. Where it is still odd, the ladder's
+ * rounds (`iterateResonances`) run from it with the peak kept aside: a level of p that the reading
+ * set aside as a predicted resonance is one p's ladder may now need (`ladderLevels`).
  */
 export function withoutOddLead(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions, forced = false): Assignment {
   if (a.regime !== "shell-filling" || options.regime || a.quantities.chargingEnergyV === null) return a;
   const lead = oddLeadingLevel(peaks, a.multiplets, a.evidence.secondJunction, a.quantities.chargingEnergyV, eta);
   if (!lead) return a;
   // A reading the rounds made from the forced shell-filling one is read again under it.
-  const next = assignWith(peaks, eta, etaGiven, [...a.evidence.secondJunction.filter((r) => r.index !== lead.index), lead], forced ? { ...options, regime: "shell-filling" } : options);
+  const opts = forced ? { ...options, regime: "shell-filling" as const } : options;
+  const aside = (set: readonly SecondJunctionResonance[]) => [...set.filter((r) => r.index !== lead.index), lead];
+  const evenP = (x: Assignment) => {
+    const p = x.multiplets.find((m) => m.band === "CB" && m.label === "p");
+    return x.regime === "shell-filling" && p !== undefined && (p.subgroups[0] ?? p.peakIndices.length) % 2 === 0;
+  };
+  let next = assignWith(peaks, eta, etaGiven, aside(a.evidence.secondJunction), opts);
+  // Still odd: a level of p set aside as a resonance before may be one its ladder now needs; the
+  // rounds judge the predicted resonances again against it, the lead kept aside.
+  if (!evenP(next) && next.regime === "shell-filling") next = iterateResonances(peaks, next, eta, (q, r) => assignWith(q, eta, etaGiven, aside(r), opts));
   // The regime was the rules' reading, not the user's.
   if (forced) unforced(next);
-  const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
-  if (next.regime !== "shell-filling" || !p || (p.subgroups[0] ?? p.peakIndices.length) % 2 !== 0) return a;
+  if (!evenP(next)) return a;
   const earlier = a.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r) && !r.startsWith("the first two CB steps"));
   next.evidence.reasons.unshift(
     ...earlier,

@@ -77,6 +77,31 @@ describe("spinPairSet(peaks, { multiplets, resonant })", () => {
     }
   });
 
+  it("leaves out a peak stepping like a level closer than splitHalfFraction (0.65) × Ec_V to a member at a resonance, only then", () => {
+    // p's 3.2 V peak is at a resonance and a peak at 3.24 V (0.2 Ec_V on, stepping like a level) is
+    // its other half split apart (no two charging peaks lie closer than Ec_V: closed form).
+    const peaks = listOf([[3.06, 2], [3.24, 1]]);
+    const broken = [2.7, 2.9, 3.06, 3.4, 3.6, 3.8].map((v) => indexOf(peaks, v));
+    const resonant = new Set([indexOf(peaks, 3.06), indexOf(peaks, 3.2)]);
+    const got = spinPairSet(peaks, { multiplets: [s, pOf(broken)], resonant });
+    expect(got?.members.map((i) => peaks[i].biasV)).toEqual(P);
+    expect(got?.leftOut.map((i) => peaks[i].biasV)).toEqual([3.06, 3.24]);
+    // With 3.2 V no resonance, nothing explains 3.24 V: no set skips it.
+    expect(spinPairSet(peaks, { multiplets: [s, pOf(broken)], resonant: new Set([indexOf(peaks, 3.06)]) })).toBeNull();
+  });
+
+  it("leaves out p as read when it is one peak before the set, and only then", () => {
+    // p read as a lone peak at 2.42 V (stepping like a level; its spin partner would lie 0.2 V on),
+    // p's six peaks read as the next shell; a resonance at 3.06 V.
+    const peaks = listOf([[2.42, 1], [3.06, 2]]);
+    const resonant = new Set([indexOf(peaks, 3.06)]);
+    const got = spinPairSet(peaks, { multiplets: [s, pOf([indexOf(peaks, 2.42)])], resonant });
+    expect(got?.members.map((i) => peaks[i].biasV)).toEqual(P);
+    // Read with p's peaks after it, 2.42 V is one of six: nothing explains it, no set skips it.
+    const six = [2.42, 2.7, 2.9, 3.06, 3.4, 3.6].map((v) => indexOf(peaks, v));
+    expect(spinPairSet(peaks, { multiplets: [s, pOf(six)], resonant })).toBeNull();
+  });
+
   it("needs an s doublet and a p of degeneracy 6", () => {
     const peaks = listOf([[3.06, 2]]);
     const broken = [2.7, 2.9, 3.06, 3.4, 3.6, 3.8].map((v) => indexOf(peaks, v));
@@ -86,6 +111,6 @@ describe("spinPairSet(peaks, { multiplets, resonant })", () => {
   });
 
   it("SPIN_PAIRS_DEFAULTS are locked", () => {
-    expect(SPIN_PAIRS_DEFAULTS).toEqual({ readTolerance: 0.2, pairTolerance: 0.25, memberStepMin: 0.4, maxCandidates: 12, unpredictedReach: 0.5 });
+    expect(SPIN_PAIRS_DEFAULTS).toEqual({ readTolerance: 0.2, pairTolerance: 0.25, memberStepMin: 0.4, splitHalfFraction: 0.65, maxCandidates: 12, unpredictedReach: 0.5 });
   });
 });

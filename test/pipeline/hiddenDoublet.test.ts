@@ -29,7 +29,10 @@ describe("analyzeCurve(curve, { eta }): the s doublet's second peak under the VB
       expectClose(byLabel.s.peaksV, truth.sPeaksV, { atol: tolV, what: "s, the simulation's truth" });
       expectClose(byLabel.p.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
       expectClose(a.assignment.energies.chargingEnergyEV!, truth.chargingEnergyEV, { rtol: 0.1, what: "Ec, the simulation's truth" });
-      expect(a.assignment.evidence.reasons.some((r) => r.includes("a charging doublet, so shell filling"))).toBe(true);
+      // Draw 1049: the VB ladder's resonances are taken out of the CB side first (analyzeCurve
+      // note 9), and the CB ladder left reads shell filling by its own s doublet, p as spin pairs.
+      if (start === 1049) expect(a.warnings.some((w) => w.startsWith("CB peaks found on the current less the VB ladder's"))).toBe(true);
+      else expect(a.assignment.evidence.reasons.some((r) => r.includes("a charging doublet, so shell filling"))).toBe(true);
     }, 30_000);
   }
 
