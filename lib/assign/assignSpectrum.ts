@@ -210,7 +210,7 @@ export function assignSpectrum(peaks: readonly Peak[], options: AssignOptions = 
   if (filling === forced) {
     // The VB's charging doublet reads shell filling: its p is checked as in the rounds' reading.
     const doublet = valenceDoublet(peaks, eta, etaGiven, forced, first, options);
-    if (doublet) return withSpinPairs(peaks, eta, etaGiven, withoutOddLead(peaks, eta, etaGiven, doublet, options, true), options);
+    if (doublet) return withoutOddValence(peaks, eta, etaGiven, withSpinPairs(peaks, eta, etaGiven, withoutOddLead(peaks, eta, etaGiven, doublet, options, true), options), options);
     return withoutExtraLevel(peaks, eta, etaGiven, underResonances(peaks, eta, etaGiven, first, options), options);
   }
   // The rounds carry the forced reading's conclusions; the regime was not the user's.
