@@ -88,7 +88,7 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
  * -------
  * FitHypothesis[]
  *     The assignment first, then the others; groupings with the same levels are kept once; none
- *     whose master equation would exceed SCENARIO_DEFAULTS.maxStates per band.
+ *     whose master equation would exceed SCENARIO_DEFAULTS.maxStates per band (but note 6).
  *
  * Throws
  * ------
@@ -113,8 +113,12 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
  *    level each, holding the run's length less the holes of the levels nearer the gap. This is
  *    how a spectrum at an intermediate rate ratio reads.
  * 5. Layouts: p whole, 2+4, 2+2+2 (D.pLayouts); no d shell (peaks past p stay unexplained and
- *    cost χ²). Hypotheses with more than D.maxStatesPerBand charge states in the CB are not
- *    tried; VB readings beyond it are left to the whole-curve fit (it fits only those within).
+ *    cost χ²). Hypotheses with more than D.maxStatesPerBand charge states in a band are not tried.
+ * 6. Unless none would be tried otherwise: then those within it on the CB side are, their VB
+ *    left to the whole-curve fit (it fits the readings within the limit, else the VB read as a
+ *    shell). Admitted always, they won over the right grouping on some intermediate spectra (a
+ *    ladder from the empty dot with the filling order's VB reading, poor but below the restarts'
+ *    threshold), so only where the assignment would otherwise be fitted alone, or not at all.
  *
  * Example
  * -------
@@ -128,22 +132,26 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   const D = FIT_HYPOTHESES_DEFAULTS;
   const out: FitHypothesis[] = [];
   const seen = new Set<string>();
+  const limit = Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand);
+  // Groupings within the limit on the CB side whose own VB reading is beyond it (note 6).
+  const beyond: FitHypothesis[] = [];
   const add = (h: Omit<FitHypothesis, "cbDegeneracies" | "states" | "vbReadings">, vbReadings?: LevelSeed[][]) => {
     const key = seedKey(h.seeds) + `|${h.chargingEnergyStartEV ?? ""}`;
     if (!h.seeds.some((s) => s.band === "CB") && h.kind !== "assigned") return;
     if (!h.seeds.length || seen.has(key)) return;
     const own = h.seeds.filter((s) => s.band === "VB");
     const readings = [own, ...(vbReadings ?? []).filter((r) => seedKey(r) !== seedKey(own))];
-    // The assignment's in both bands; another's on the CB side: the whole-curve fit tries only the
-    // VB readings within the limit, else the VB shell reading (compareGroupings).
-    const states = Math.max(stateCount(h.seeds.filter((x) => x.band === "CB")), h.kind === "assigned" ? stateCount(own) : 1);
-    if (h.kind !== "assigned" && states > Math.min(SCENARIO_DEFAULTS.maxStates, D.maxStatesPerBand)) return;
+    const cbStates = stateCount(h.seeds.filter((x) => x.band === "CB"));
+    const states = Math.max(cbStates, stateCount(own));
+    if (h.kind !== "assigned" && cbStates > limit) return;
     seen.add(key);
-    out.push({ ...h, vbReadings: readings, cbDegeneracies: h.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy), states });
+    const hypothesis = { ...h, vbReadings: readings, cbDegeneracies: h.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy), states };
+    (h.kind !== "assigned" && states > limit ? beyond : out).push(hypothesis);
   };
+  const done = () => (out.some((h) => h.kind !== "assigned") ? out : [...out, ...beyond]);
   const base = { chargingEnergyStartEV: null, rateRatioStartLog10: null };
   add({ name: "assigned", kind: "assigned", label: "the assignment's grouping", analysis, seeds: levelsToFit(analysis), ...base });
-  if (!all) return out;
+  if (!all) return done();
 
   const etaOption = analysis.assignment.energies.etaGiven ? { eta } : {};
   const forced = (regime: "shell-filling" | "shell-tunneling"): CurveAnalysis => ({ ...analysis, assignment: assignSpectrum(analysis.peaks, { ...etaOption, regime }) });
@@ -153,7 +161,7 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   if (analysis.assignment.regime !== "shell-tunneling") add({ name: "shell-tunneling", kind: "shell-tunneling", label: "the shell-tunnelling grouping (single levels) of the same peaks", analysis: tunneling, seeds: levelsToFit(tunneling), ...base });
 
   const peaksV = ladderPeaksV(analysis, "CB");
-  if (peaksV.length < 2) return out;
+  if (peaksV.length < 2) return done();
   const ec0 = eta * (peaksV[1] - peaksV[0]);
   // In filling order, the charging peaks the filling rules kept (peaks off the ladder set aside).
   const chargingPeaksV = filling.assignment.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peaksV).sort((a, b) => a - b);
@@ -188,7 +196,7 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
       }, [vbFilling]);
     }
   }
-  return out;
+  return done();
 }
 
 /** Identifies a list of seeds. */
