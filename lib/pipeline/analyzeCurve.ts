@@ -14,7 +14,7 @@ import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiple
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
 import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks } from "./flankLevels.ts";
-import { shortShellSteps, shortShellPredictions } from "./shortShells.ts";
+import { shortShellSteps, shortShellPredictions, shortShellStepKept } from "./shortShells.ts";
 import { fullShell, subtractionWarning, valenceResonancePeaks, type SubtractedResonances } from "./valenceLadder.ts";
 import { bandAreas, gapSideFwhm } from "./bandAreas.ts";
 import { setAsideSourcePredictions } from "../assign/oddLeadingLevel.ts";
@@ -209,9 +209,10 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    (`shortShellSteps`: a weak step in a dense ladder often has no conductance maximum above
  *    the screen). Strongest first, a step found becomes a peak and the areas and the assignment
  *    are redone; the new list stands where the peak joins the shell that predicted it, that shell
- *    keeps its peaks and the regime is unchanged. A full shell whose first peak lies at a
- *    predicted resonance is looked at one Ec_V beyond its last peak too; a step there may take
- *    that first peak's place. Repeated while peaks are added (at most 4 rounds).
+ *    keeps its peaks or grows, and the regime is unchanged (`shortShellStepKept`). A full shell
+ *    whose first peak lies at a predicted resonance is looked at one Ec_V beyond its last peak
+ *    too; a step there may take that first peak's place. Repeated while peaks are added (at most
+ *    4 rounds).
  * 9. The VB ladder's resonances taken out of the CB side (η given, below 1; the current
  *    differentiated; between notes 7 and 8): where the assignment reads shell filling with VB
  *    levels whose model describes the VB-side current (`valenceLadderPrediction`), the current
@@ -379,11 +380,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     for (const { peak, label, replaces } of steps) {
       if (list.some((q) => Math.abs(q.biasV - peak.biasV) < w)) continue;
       const again = reread([...list, peak].sort((a, b) => a.biasV - b.biasV));
-      // Kept only where the peak joins the shell that predicted it, and that shell keeps its peaks
-      // (but the one at a resonance whose place the peak would take).
-      const was = assignment.multiplets.find((m) => m.label === label)?.peakIndices.filter((i) => i !== replaces).map((i) => list[i]) ?? [];
-      const now = new Set(again.assignment.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => again.list[i]));
-      if (again.assignment.regime !== assignment.regime || !now.has(peak) || !was.every((p) => now.has(p))) continue;
+      if (!shortShellStepKept(label, peak, { list, assignment }, again, replaces)) continue;
       take(again);
       added++;
     }

@@ -186,3 +186,58 @@ export function shortShellSteps(
   }
   return found.sort((a, b) => (b.peak.stepSignificance ?? 0) - (a.peak.stepSignificance ?? 0));
 }
+
+/**
+ * Whether the assignment re-read with a short shell's step among the peaks is kept.
+ *
+ * Parameters
+ * ----------
+ * label : string
+ *     The label of the shell that predicted the step.
+ * peak : T
+ *     The step's peak (the same object in `after.list`).
+ * before : { list: readonly T[]; assignment: Pick<Assignment, "regime" | "multiplets"> }
+ *     The peak list and assignment without it.
+ * after : { list: readonly T[]; assignment: Pick<Assignment, "regime" | "multiplets"> }
+ *     The peak list with it, and the assignment re-read on that list.
+ * replaces : number, optional
+ *     The prediction's `replaces` (an index of `before.list`): that peak may leave the shell.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True where the regime is unchanged, the peak joins the shell labelled `label`, and that
+ *     shell either keeps all its other peaks (but `replaces`) or holds more peaks than before.
+ *
+ * Notes
+ * -----
+ * 1. The step is one rung of the shell's ladder, so the re-read must put it in that shell and
+ *    leave the regime as it was.
+ * 2. With the rung there, the ladder may be read anew: a peak of the shell that was a resonance
+ *    taken for a level (the rung's place was empty) or a resonance's neighbour leaves the shell
+ *    while another peak, one Ec_V from the new rung, joins it. Where the shell then holds more
+ *    peaks than before, more of its states are accounted for and the new reading stands; where
+ *    it holds as many or fewer, a peak was traded for a peak and the earlier reading stays.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const [a, b, c] = [{ biasV: 2.0 }, { biasV: 2.2 }, { biasV: 2.4 }];
+ * const read = (list: { biasV: number }[], p: number[]) => ({ list, assignment: { regime: "shell-filling", multiplets: [{ label: "p", peakIndices: p }] } as never });
+ * shortShellStepKept("p", c, read([a, b], [0, 1]), read([a, b, c], [0, 1, 2]));  // => true
+ * shortShellStepKept("p", c, read([a, b], [0, 1]), read([a, b, c], [1, 2]));     // => false (b for a)
+ * ```
+ */
+export function shortShellStepKept<T>(
+  label: string,
+  peak: T,
+  before: { list: readonly T[]; assignment: Pick<Assignment, "regime" | "multiplets"> },
+  after: { list: readonly T[]; assignment: Pick<Assignment, "regime" | "multiplets"> },
+  replaces?: number,
+): boolean {
+  const shell = before.assignment.multiplets.find((m) => m.label === label)?.peakIndices ?? [];
+  const was = shell.filter((i) => i !== replaces).map((i) => before.list[i]);
+  const now = new Set(after.assignment.multiplets.find((m) => m.label === label)?.peakIndices.map((i) => after.list[i]));
+  if (after.assignment.regime !== before.assignment.regime || !now.has(peak)) return false;
+  return was.every((p) => now.has(p)) || now.size > shell.length;
+}

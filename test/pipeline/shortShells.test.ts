@@ -5,7 +5,8 @@
 // with seeded white noise; the positions put in are the check values.
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
-import { shortShellPredictions, shortShellSteps, SHORT_SHELL_DEFAULTS } from "../../lib/pipeline/shortShells.ts";
+import { shortShellPredictions, shortShellSteps, shortShellStepKept, SHORT_SHELL_DEFAULTS } from "../../lib/pipeline/shortShells.ts";
+import { lowEtaDraw, expectTrueP } from "../helpers/lowEtaDraw.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
@@ -106,4 +107,41 @@ describe("shortShellSteps", () => {
     const flat = biasV.map((v) => 1e-12 + found.reduce((a, x) => a + 10e-12 * phi((v - x) / s), 0));
     expect(shortShellSteps({ ...curve, currentA: flat }, peaks, predictions, [], ecV, fw, 5)).toEqual([]);
   });
+});
+
+describe("shortShellStepKept", () => {
+  // The rule of its notes on hand-made readings (exact logic, no source beyond the notes).
+  const [a, b, c, d] = [1.0, 1.2, 1.4, 1.6].map((v) => peak(v));
+  const read = (list: Peak[], p: number[], regime = "shell-filling") => ({ list, assignment: { regime, multiplets: [{ label: "p", peakIndices: p }] } as never });
+  it("keeps a step that joins the shell while the shell keeps its peaks (note 1)", () => {
+    expect(shortShellStepKept("p", c, read([a, b], [0, 1]), read([a, b, c], [0, 1, 2]))).toBe(true);
+  });
+  it("drops a step the re-read puts outside the shell, or that changes the regime (note 1)", () => {
+    expect(shortShellStepKept("p", c, read([a, b], [0, 1]), read([a, b, c], [0, 1]))).toBe(false);
+    expect(shortShellStepKept("p", c, read([a, b], [0, 1]), read([a, b, c], [0, 1, 2], "shell-tunneling"))).toBe(false);
+  });
+  it("keeps a new reading that trades a peak of the shell for two, and drops one that trades one for one (note 2)", () => {
+    expect(shortShellStepKept("p", d, read([a, b, c], [0, 1]), read([a, b, c, d], [1, 2, 3]))).toBe(true);
+    expect(shortShellStepKept("p", d, read([a, b, c], [0, 1]), read([a, b, c, d], [1, 3]))).toBe(false);
+  });
+  it("lets the peak named by replaces leave the shell", () => {
+    expect(shortShellStepKept("p", d, read([a, b, c], [0, 1, 2]), read([a, b, c, d], [1, 2, 3]), 0)).toBe(true);
+    expect(shortShellStepKept("p", d, read([a, b, c], [0, 1, 2]), read([a, b, c, d], [1, 2, 3]))).toBe(false);
+  });
+});
+
+// Two draws of the accuracy benchmark's low-η mix (η 0.55–0.65, resonances kept), simulated by the
+// project's model: the step found one Ec_V beyond p's last rung joins p, and the re-read ladder
+// drops a second-junction resonance p had held while the rung was missing (note 2 of
+// shortShellStepKept). Every expected value is the simulation's truth, the tolerance the
+// project's quality bar (25 % of Ec/η).
+describe("analyzeCurve(curve, { eta }): a short shell's step that reshapes the shell (low-η draws)", () => {
+  for (const [start, resonanceV] of [[10, 2.462], [1193, 3.517]] as const) {
+    it(`reads p as the simulation's six levels, without the resonance at ${resonanceV} V (draw ${start})`, () => {
+      const draw = lowEtaDraw(start);
+      // The resonance is the simulation's own, within 5 mV.
+      expect(draw.truth.secondJunctionPeaksV.some((v) => Math.abs(v - resonanceV) < 0.005)).toBe(true);
+      expectTrueP(draw, [resonanceV]);
+    }, 30_000);
+  }
 });
