@@ -201,7 +201,8 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    level of its shell can holds both (`sharedLevelPeaks`): the current there is refitted as
  *    the resonance and the level beside it, the peak is replaced by the two, and the areas and
  *    the assignment are redone; the new list stands where each level stays in the shell its
- *    peak was in and every other CB charging peak keeps its shell.
+ *    peak was in (a peak set aside as a resonance inside a short shell: the level or the
+ *    resonance joins that shell) and every other CB charging peak keeps its shell.
  * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
  *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
  *    last peak and before its first (`shortShellPredictions`); the current there is tested for a
@@ -350,7 +351,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       const labels = (a: Assignment, of: readonly Peak[]) => new Map(a.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
       const before = labels(assignment, list), after = labels(again.assignment, shared.peaks);
       const kept = [...before].every(([p, label]) => !shared.peaks.includes(p) || after.get(p) === label);
-      if (again.assignment.regime === assignment.regime && kept && shared.levels.every(({ peak, label }) => after.get(peak) === label)) take(again);
+      if (again.assignment.regime === assignment.regime && kept && shared.levels.every(({ peak, label, alternate }) => after.get(peak) === label || (alternate !== undefined && after.get(alternate) === label))) take(again);
     }
   }
   if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {

@@ -133,8 +133,9 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *     The peaks of the curve, ascending (those the assignment named by index).
  * stepsA : readonly number[]
  *     The current step of each peak as the assignment read it, A.
- * assignment : Pick<Assignment, "regime" | "multiplets">
- *     The assignment of the peaks.
+ * assignment : Pick<Assignment, "regime" | "multiplets"> & { evidence?: … }
+ *     The assignment of the peaks (with `evidence.secondJunction`, the resonances it set aside:
+ *     note 4).
  * predictedV : readonly number[]
  *     The predicted resonances, V ({@link predictedResonancesV}).
  * expectedFwhmV : number
@@ -144,9 +145,11 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *
  * Returns
  * -------
- * { peaks: Peak[]; levels: { peak: Peak; label: string }[] } | null
+ * { peaks: Peak[]; levels: { peak: Peak; label: string; alternate?: Peak }[] } | null
  *     A new ascending list, each shared peak replaced by the resonance (at its fitted position)
- *     and the level; the level peaks with the label of the shell the shared peak was in.
+ *     and the level; the level peaks with the label of the shell the shared peak was in (or is
+ *     short of, note 4) and, for a peak set aside as a resonance, the resonance's peak as the
+ *     `alternate` that may hold the level instead.
  *
  * Notes
  * -----
@@ -160,8 +163,16 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *    least r[0] times the share. A level and a resonance within a FWHM make one peak whose
  *    position lies between them; the fit puts the level where it steps.
  * 3. The resonance and the level become peaks as in {@link flankLevelPeaks} (note 3).
+ * 4. A peak the assignment set aside as a resonance (`evidence.secondJunction`) that lies past the
+ *    first peak of a CB shell holding fewer peaks than its degeneracy, and before the next CB
+ *    shell's first peak, is judged as a charging peak of that shell (notes 1–3): the shell lacks
+ *    charging peaks there, and a level within a FWHM of the resonance draws the two into one
+ *    peak between them, which the ladder then finds too close to its neighbours to be a
+ *    charging peak. The prediction carries its source's scatter × η/(1 − η), often half a FWHM,
+ *    so the fit may put the resonance on the level's side: which of the two peaks is the level is
+ *    left to the ladder (`alternate`).
  */
-export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets">, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string }[] } | null {
+export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets"> & { evidence?: Pick<Assignment["evidence"], "secondJunction"> }, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string; alternate?: Peak }[] } | null {
   if (assignment.regime !== "shell-filling" || !predictedV.length) return null;
   const D = FLANK_LEVELS_DEFAULTS;
   const [lowRatio, highRatio] = ASSIGN_DEFAULTS.fillingStepRatio;
@@ -169,10 +180,19 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
   const n = biasV.length;
   const w = expectedFwhmV;
   const replaced = new Map<number, Peak[]>();
-  const levels: { peak: Peak; label: string }[] = [];
-  for (const m of assignment.multiplets) {
-    if (m.band !== "CB") continue;
-    for (const i of m.peakIndices) {
+  const levels: { peak: Peak; label: string; alternate?: Peak }[] = [];
+  const aside = new Set((assignment.evidence?.secondJunction ?? []).map((r) => r.index));
+  // The CB shells in ladder order, and each peak set aside as a resonance inside a short one (note 4).
+  const shells = assignment.multiplets.filter((m) => m.band === "CB" && m.peakIndices.length).sort((a, b) => peaks[a.peakIndices[0]].biasV - peaks[b.peakIndices[0]].biasV);
+  const setAside = (m: (typeof shells)[number]) => {
+    if (m.degeneracy === null || m.peakIndices.length >= m.degeneracy) return [];
+    const k = shells.indexOf(m);
+    const lo = peaks[m.peakIndices[0]].biasV;
+    const hi = k + 1 < shells.length ? peaks[shells[k + 1].peakIndices[0]].biasV : Infinity;
+    return [...aside].filter((i) => peaks[i].biasV > lo && peaks[i].biasV < hi);
+  };
+  for (const m of shells) {
+    for (const i of [...m.peakIndices, ...setAside(m)]) {
       const v = peaks[i].biasV;
       const near = predictedV.filter((r) => Math.abs(r - v) <= D.overlapFwhm * w && r >= biasV[0] + D.edgeFwhm * w && r <= biasV[n - 1] - D.edgeFwhm * w);
       if (!near.length || replaced.has(i)) continue;
@@ -187,7 +207,7 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
       const resonance = stepPeak(curve, fit.resonanceV, fit.resonanceStepA, fit.resonanceSignificance, peaks[i].biasUncertaintyV, w);
       const level = fit.levels.map((l) => stepPeak(curve, l.biasV, l.stepA, l.significance, l.uncertaintyV, w));
       replaced.set(i, [resonance, ...level]);
-      for (const p of level) levels.push({ peak: p, label: m.label });
+      for (const p of level) levels.push(aside.has(i) ? { peak: p, label: m.label, alternate: resonance } : { peak: p, label: m.label });
     }
   }
   if (!replaced.size) return null;

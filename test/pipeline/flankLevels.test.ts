@@ -106,4 +106,20 @@ describe("sharedLevelPeaks", () => {
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], { ...filling, regime: "shell-tunneling" }, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], filling, [2.3], fwhmV, 5)).toBeNull();
   });
+  // The same curve with the shared peak set aside as a resonance (note 4): p holds 2.2 and 2.8 V only.
+  const aside = { regime: "shell-filling" as const, multiplets: [{ ...p, peakIndices: [0, 2], subgroups: [1, 1] }] as never, evidence: { secondJunction: [{ index: 1, sourceIndex: -1, predictedV: resonanceV }] } };
+  it("refits a peak set aside as a resonance inside a short shell as the level and the resonance", () => {
+    const got = sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], aside, [resonanceV], fwhmV, 5);
+    expect(got).not.toBeNull();
+    expect(got!.peaks.length).toBe(4);
+    // The put-in level and resonance, to 5 % of a FWHM (the put-in values, as above).
+    expect(Math.abs(got!.peaks[1].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
+    expect(Math.abs(got!.peaks[2].biasV - resonanceV)).toBeLessThan(0.05 * fwhmV);
+    expect(got!.levels).toEqual([{ peak: got!.peaks[1], label: "p", alternate: got!.peaks[2] }]);
+  });
+  it("leaves a set-aside peak alone where its shell is full or it steps like one level", () => {
+    const full = { ...aside, multiplets: [{ ...p, degeneracy: 2, peakIndices: [0, 2], subgroups: [1, 1] }] as never };
+    expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], full, [resonanceV], fwhmV, 5)).toBeNull();
+    expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], aside, [resonanceV], fwhmV, 5)).toBeNull();
+  });
 });
