@@ -216,6 +216,48 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
 }
 
 /**
+ * Whether the reading of a {@link sharedLevelPeaks} list stands against the reading before it.
+ *
+ * Parameters
+ * ----------
+ * before : { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }
+ *     The assignment before the refit and the peaks it named by index.
+ * after : { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }
+ *     The assignment of the refitted list and that list.
+ * levels : readonly { peak: Peak; label: string; alternate?: Peak }[]
+ *     The levels {@link sharedLevelPeaks} placed.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True where each level (or its alternate) joins the shell it was placed for, and every CB
+ *     charging peak of `before` still in the list keeps its shell — or moves from a later shell
+ *     into a shell that a level from a set-aside peak joined.
+ *
+ * Notes
+ * -----
+ * 1. A refit that moves the ladder's other peaks reads something the fit did not show; it is
+ *    not taken. The one move it allows: a shell short of peaks because one of them was set
+ *    aside as a resonance (note 4 of {@link sharedLevelPeaks}) read its peaks beyond the gap
+ *    as the next shell (a shell's next orbital starts Ec + Δ/η on, a missing peak leaves a gap
+ *    as wide); with the level back, those peaks return to it.
+ */
+export function sharedReadingStands(before: { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }, after: { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }, levels: readonly { peak: Peak; label: string; alternate?: Peak }[]): boolean {
+  const cb = (a: Pick<Assignment, "multiplets">) => a.multiplets.filter((m) => m.band === "CB");
+  const labels = (a: Pick<Assignment, "multiplets">, of: readonly Peak[]) => new Map(cb(a).flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
+  const was = labels(before.assignment, before.peaks), now = labels(after.assignment, after.peaks);
+  const order = cb(before.assignment).map((m) => m.label);
+  const joined = levels.map(({ peak, label, alternate }) => (now.get(peak) === label ? label : alternate !== undefined && now.get(alternate) === label ? label : null));
+  if (joined.includes(null)) return false;
+  const opened = new Set(levels.filter((l) => l.alternate !== undefined).map((l) => l.label));
+  return [...was].every(([p, label]) => {
+    if (!after.peaks.includes(p) || now.get(p) === label) return true;
+    const to = now.get(p);
+    return to !== undefined && opened.has(to) && order.indexOf(to) >= 0 && order.indexOf(to) < order.indexOf(label);
+  });
+}
+
+/**
  * A step found on the current as a peak: at `biasV` (V), with the expected FWHM `expectedFwhmV`
  * (V), the Gaussian prominence of its step (stepA/(FWHM × `GAUSSIAN_AREA_PER_HEIGHT_FWHM`)), its t (`significance`), and
  * its position σ (`sigmaV`, V) with the curve's floor in quadrature; height and index those of the

@@ -6,7 +6,7 @@
 // with seeded white noise; the positions put in are the check values.
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
-import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
+import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks, sharedReadingStands, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
@@ -121,5 +121,30 @@ describe("sharedLevelPeaks", () => {
     const full = { ...aside, multiplets: [{ ...p, degeneracy: 2, peakIndices: [0, 2], subgroups: [1, 1] }] as never };
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], full, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], aside, [resonanceV], fwhmV, 5)).toBeNull();
+  });
+});
+
+describe("sharedReadingStands", () => {
+  // Peaks a–f; before the refit p held a, b and d held e, f, with a shared peak set aside between.
+  // Which moves stand is the rule of its note 1 (common practice, no source: a refit that moves
+  // other peaks reads something the fit did not show, but for the short shell's own peaks).
+  const [a, b, e, f, level, resonance] = [2.8, 2.97, 3.75, 3.94, 3.28, 3.4].map((biasV) => peak(biasV));
+  const cb = (label: string, peakIndices: number[]) => ({ band: "CB" as const, label, peakIndices });
+  const before = { assignment: { multiplets: [cb("p", [0, 1]), cb("d", [2, 3])] } as never, peaks: [a, b, e, f] };
+  const list = [a, b, level, resonance, e, f];
+  const intoP = { assignment: { multiplets: [cb("p", [0, 1, 2, 4, 5])] } as never, peaks: list };
+  it("lets a later shell's peaks join the short shell that a set-aside peak's level joined", () => {
+    expect(sharedReadingStands(before, intoP, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+    // Its alternate may hold the level instead.
+    const viaAlternate = { assignment: { multiplets: [cb("p", [0, 1, 3, 4, 5])] } as never, peaks: list };
+    expect(sharedReadingStands(before, viaAlternate, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+  });
+  it("keeps the old rule for a level from a shell's own peak, and refuses a level outside its shell", () => {
+    expect(sharedReadingStands(before, intoP, [{ peak: level, label: "p" }])).toBe(false);
+    const apart = { assignment: { multiplets: [cb("p", [0, 1]), cb("d", [4, 5])] } as never, peaks: list };
+    expect(sharedReadingStands(before, apart, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
+    // A peak moving out to a later shell never stands.
+    const out = { assignment: { multiplets: [cb("p", [0, 2]), cb("d", [1, 4, 5])] } as never, peaks: list };
+    expect(sharedReadingStands(before, out, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
   });
 });
