@@ -201,9 +201,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    level of its shell can holds both (`sharedLevelPeaks`): the current there is refitted as
  *    the resonance and the level beside it, the peak is replaced by the two, and the areas and
  *    the assignment are redone; the new list stands where each level stays in the shell its
- *    peak was in (a peak set aside as a resonance inside a short shell: the level or the
- *    resonance joins that shell, and the shell's peaks read as the next shell may return to
- *    it) and every other CB charging peak keeps its shell (`sharedReadingStands`).
+ *    peak was in (a peak set aside as a resonance inside a shell: the level or the resonance
+ *    joins it, the shell's peaks read as the next shell may return to it, one peak per level
+ *    may leave it) and every other CB charging peak keeps its shell (`sharedReadingStands`).
  * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
  *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
  *    last peak and before its first (`shortShellPredictions`); the current there is tested for a

@@ -164,13 +164,14 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *    position lies between them; the fit puts the level where it steps.
  * 3. The resonance and the level become peaks as in {@link flankLevelPeaks} (note 3).
  * 4. A peak the assignment set aside as a resonance (`evidence.secondJunction`) that lies past the
- *    first peak of a CB shell holding fewer peaks than its degeneracy, and before the next CB
- *    shell's first peak, is judged as a charging peak of that shell (notes 1–3): the shell lacks
- *    charging peaks there, and a level within a FWHM of the resonance draws the two into one
- *    peak between them, which the ladder then finds too close to its neighbours to be a
- *    charging peak. The prediction carries its source's scatter × η/(1 − η), often half a FWHM,
- *    so the fit may put the resonance on the level's side: which of the two peaks is the level is
- *    left to the ladder (`alternate`).
+ *    first peak of a CB shell with a degeneracy, and before the next CB shell's first peak, is
+ *    judged as a charging peak of that shell (notes 1–3): a level within a FWHM of the
+ *    resonance draws the two into one peak between them, which the ladder then finds too close
+ *    to its neighbours to be a charging peak, and the shell is left short or filled with a
+ *    resonance or a flank in its place. The prediction carries its source's scatter ×
+ *    η/(1 − η), often half a FWHM, so the fit may put the resonance on the level's side: which
+ *    of the two peaks is the level is left to the ladder (`alternate`; the reading is judged by
+ *    {@link sharedReadingStands}).
  */
 export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets"> & { evidence?: Pick<Assignment["evidence"], "secondJunction"> }, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string; alternate?: Peak }[] } | null {
   if (assignment.regime !== "shell-filling" || !predictedV.length) return null;
@@ -182,10 +183,10 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
   const replaced = new Map<number, Peak[]>();
   const levels: { peak: Peak; label: string; alternate?: Peak }[] = [];
   const aside = new Set((assignment.evidence?.secondJunction ?? []).map((r) => r.index));
-  // The CB shells in ladder order, and each peak set aside as a resonance inside a short one (note 4).
+  // The CB shells in ladder order, and each peak set aside as a resonance inside one (note 4).
   const shells = assignment.multiplets.filter((m) => m.band === "CB" && m.peakIndices.length).sort((a, b) => peaks[a.peakIndices[0]].biasV - peaks[b.peakIndices[0]].biasV);
   const setAside = (m: (typeof shells)[number]) => {
-    if (m.degeneracy === null || m.peakIndices.length >= m.degeneracy) return [];
+    if (m.degeneracy === null) return [];
     const k = shells.indexOf(m);
     const lo = peaks[m.peakIndices[0]].biasV;
     const hi = k + 1 < shells.length ? peaks[shells[k + 1].peakIndices[0]].biasV : Infinity;
@@ -232,28 +233,37 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
  * boolean
  *     True where each level (or its alternate) joins the shell it was placed for, and every CB
  *     charging peak of `before` still in the list keeps its shell — or moves from a later shell
- *     into a shell that a level from a set-aside peak joined.
+ *     into a shell that a level from a set-aside peak joined, or leaves such a shell (at most
+ *     one peak per level placed there).
  *
  * Notes
  * -----
  * 1. A refit that moves the ladder's other peaks reads something the fit did not show; it is
- *    not taken. The one move it allows: a shell short of peaks because one of them was set
+ *    not taken. The moves it allows: a shell short of peaks because one of them was set
  *    aside as a resonance (note 4 of {@link sharedLevelPeaks}) read its peaks beyond the gap
  *    as the next shell (a shell's next orbital starts Ec + Δ/η on, a missing peak leaves a gap
- *    as wide); with the level back, those peaks return to it.
+ *    as wide); with the level back, those peaks return to it. And a shell that had filled the
+ *    place with the peak nearest it on the ladder — a resonance or a flank — gives one peak up
+ *    for each such level: a shell holds no more charging peaks than its degeneracy.
  */
 export function sharedReadingStands(before: { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }, after: { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }, levels: readonly { peak: Peak; label: string; alternate?: Peak }[]): boolean {
   const cb = (a: Pick<Assignment, "multiplets">) => a.multiplets.filter((m) => m.band === "CB");
   const labels = (a: Pick<Assignment, "multiplets">, of: readonly Peak[]) => new Map(cb(a).flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
   const was = labels(before.assignment, before.peaks), now = labels(after.assignment, after.peaks);
   const order = cb(before.assignment).map((m) => m.label);
-  const joined = levels.map(({ peak, label, alternate }) => (now.get(peak) === label ? label : alternate !== undefined && now.get(alternate) === label ? label : null));
-  if (joined.includes(null)) return false;
-  const opened = new Set(levels.filter((l) => l.alternate !== undefined).map((l) => l.label));
+  if (!levels.every(({ peak, label, alternate }) => now.get(peak) === label || (alternate !== undefined && now.get(alternate) === label))) return false;
+  // The shells a level from a set-aside peak joined, with how many peaks each may give up.
+  const opened = new Map<string, number>();
+  for (const l of levels) if (l.alternate !== undefined) opened.set(l.label, (opened.get(l.label) ?? 0) + 1);
   return [...was].every(([p, label]) => {
-    if (!after.peaks.includes(p) || now.get(p) === label) return true;
     const to = now.get(p);
-    return to !== undefined && opened.has(to) && order.indexOf(to) >= 0 && order.indexOf(to) < order.indexOf(label);
+    if (!after.peaks.includes(p) || to === label) return true;
+    if (to === undefined) {
+      const left = opened.get(label) ?? 0;
+      opened.set(label, left - 1);
+      return left > 0;
+    }
+    return opened.has(to) && order.indexOf(to) < order.indexOf(label);
   });
 }
 

@@ -108,7 +108,7 @@ describe("sharedLevelPeaks", () => {
   });
   // The same curve with the shared peak set aside as a resonance (note 4): p holds 2.2 and 2.8 V only.
   const aside = { regime: "shell-filling" as const, multiplets: [{ ...p, peakIndices: [0, 2], subgroups: [1, 1] }] as never, evidence: { secondJunction: [{ index: 1, sourceIndex: -1, predictedV: resonanceV }] } };
-  it("refits a peak set aside as a resonance inside a short shell as the level and the resonance", () => {
+  it("refits a peak set aside as a resonance inside a shell as the level and the resonance", () => {
     const got = sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], aside, [resonanceV], fwhmV, 5);
     expect(got).not.toBeNull();
     expect(got!.peaks.length).toBe(4);
@@ -117,9 +117,9 @@ describe("sharedLevelPeaks", () => {
     expect(Math.abs(got!.peaks[2].biasV - resonanceV)).toBeLessThan(0.05 * fwhmV);
     expect(got!.levels).toEqual([{ peak: got!.peaks[1], label: "p", alternate: got!.peaks[2] }]);
   });
-  it("leaves a set-aside peak alone where its shell is full or it steps like one level", () => {
-    const full = { ...aside, multiplets: [{ ...p, degeneracy: 2, peakIndices: [0, 2], subgroups: [1, 1] }] as never };
-    expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], full, [resonanceV], fwhmV, 5)).toBeNull();
+  it("leaves a set-aside peak alone where its shell has no degeneracy or it steps like one level", () => {
+    const open = { ...aside, multiplets: [{ ...p, degeneracy: null, peakIndices: [0, 2], subgroups: [1, 1] }] as never };
+    expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], open, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], aside, [resonanceV], fwhmV, 5)).toBeNull();
   });
 });
@@ -138,6 +138,17 @@ describe("sharedReadingStands", () => {
     // Its alternate may hold the level instead.
     const viaAlternate = { assignment: { multiplets: [cb("p", [0, 1, 3, 4, 5])] } as never, peaks: list };
     expect(sharedReadingStands(before, viaAlternate, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+  });
+  it("lets the shell give up one peak for each level from a set-aside peak, and no more", () => {
+    // p full before (a, b, e, f and two more): the level takes one place, the peak it displaces leaves.
+    const [g, h] = [4.1, 4.3].map((biasV) => peak(biasV));
+    const full = { assignment: { multiplets: [cb("p", [0, 1, 2, 3, 4, 5])] } as never, peaks: [a, b, e, f, g, h] };
+    const next = [a, b, level, resonance, e, f, g, h];
+    const oneOut = { assignment: { multiplets: [cb("p", [0, 1, 2, 4, 5, 6])] } as never, peaks: next };
+    expect(sharedReadingStands(full, oneOut, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+    const twoOut = { assignment: { multiplets: [cb("p", [0, 1, 2, 4, 5])] } as never, peaks: next };
+    expect(sharedReadingStands(full, twoOut, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
+    expect(sharedReadingStands(full, oneOut, [{ peak: level, label: "p" }])).toBe(false);
   });
   it("keeps the old rule for a level from a shell's own peak, and refuses a level outside its shell", () => {
     expect(sharedReadingStands(before, intoP, [{ peak: level, label: "p" }])).toBe(false);
