@@ -13,7 +13,7 @@ import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSp
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
-import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks } from "./flankLevels.ts";
+import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks, sharedReadingStands } from "./flankLevels.ts";
 import { shortShellSteps, shortShellPredictions, shortShellStepKept } from "./shortShells.ts";
 import { fullShell, subtractionWarning, valenceResonancePeaks, type SubtractedResonances } from "./valenceLadder.ts";
 import { bandAreas, gapSideFwhm } from "./bandAreas.ts";
@@ -201,7 +201,9 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    level of its shell can holds both (`sharedLevelPeaks`): the current there is refitted as
  *    the resonance and the level beside it, the peak is replaced by the two, and the areas and
  *    the assignment are redone; the new list stands where each level stays in the shell its
- *    peak was in and every other CB charging peak keeps its shell.
+ *    peak was in (a peak set aside as a resonance inside a shell: the level or the resonance
+ *    joins it, the shell's peaks read as the next shell may return to it, one peak per level
+ *    may leave it) and every other CB charging peak keeps its shell (`sharedReadingStands`).
  * 8. Charging peaks of short shells (shell filling with Ec; the current differentiated): each
  *    sub-group of a CB shell with fewer peaks than its degeneracy predicts one Ec_V beyond its
  *    last peak and before its first (`shortShellPredictions`); the current there is tested for a
@@ -348,10 +350,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     if (shared) {
       const again = reread(shared.peaks);
       // Kept where each level joins the shell its peak was in and every other CB charging peak keeps its shell.
-      const labels = (a: Assignment, of: readonly Peak[]) => new Map(a.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
-      const before = labels(assignment, list), after = labels(again.assignment, shared.peaks);
-      const kept = [...before].every(([p, label]) => !shared.peaks.includes(p) || after.get(p) === label);
-      if (again.assignment.regime === assignment.regime && kept && shared.levels.every(({ peak, label }) => after.get(peak) === label)) take(again);
+      if (again.assignment.regime === assignment.regime && sharedReadingStands({ assignment, peaks: list }, { assignment: again.assignment, peaks: shared.peaks }, shared.levels)) take(again);
     }
   }
   if (none === null && eta !== undefined && eta < 1 && !signal.record.usedMeasured) {

@@ -133,8 +133,9 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *     The peaks of the curve, ascending (those the assignment named by index).
  * stepsA : readonly number[]
  *     The current step of each peak as the assignment read it, A.
- * assignment : Pick<Assignment, "regime" | "multiplets">
- *     The assignment of the peaks.
+ * assignment : Pick<Assignment, "regime" | "multiplets"> & { evidence?: … }
+ *     The assignment of the peaks (with `evidence.secondJunction`, the resonances it set aside:
+ *     note 4).
  * predictedV : readonly number[]
  *     The predicted resonances, V ({@link predictedResonancesV}).
  * expectedFwhmV : number
@@ -144,9 +145,11 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *
  * Returns
  * -------
- * { peaks: Peak[]; levels: { peak: Peak; label: string }[] } | null
+ * { peaks: Peak[]; levels: { peak: Peak; label: string; alternate?: Peak }[] } | null
  *     A new ascending list, each shared peak replaced by the resonance (at its fitted position)
- *     and the level; the level peaks with the label of the shell the shared peak was in.
+ *     and the level; the level peaks with the label of the shell the shared peak was in (or is
+ *     short of, note 4) and, for a peak set aside as a resonance, the resonance's peak as the
+ *     `alternate` that may hold the level instead.
  *
  * Notes
  * -----
@@ -160,8 +163,17 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *    least r[0] times the share. A level and a resonance within a FWHM make one peak whose
  *    position lies between them; the fit puts the level where it steps.
  * 3. The resonance and the level become peaks as in {@link flankLevelPeaks} (note 3).
+ * 4. A peak the assignment set aside as a resonance (`evidence.secondJunction`) that lies past the
+ *    first peak of a CB shell with a degeneracy, and before the next CB shell's first peak, is
+ *    judged as a charging peak of that shell (notes 1–3): a level within a FWHM of the
+ *    resonance draws the two into one peak between them, which the ladder then finds too close
+ *    to its neighbours to be a charging peak, and the shell is left short or filled with a
+ *    resonance or a flank in its place. The prediction carries its source's scatter ×
+ *    η/(1 − η), often half a FWHM, so the fit may put the resonance on the level's side: which
+ *    of the two peaks is the level is left to the ladder (`alternate`; the reading is judged by
+ *    {@link sharedReadingStands}).
  */
-export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets">, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string }[] } | null {
+export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets"> & { evidence?: Pick<Assignment["evidence"], "secondJunction"> }, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string; alternate?: Peak }[] } | null {
   if (assignment.regime !== "shell-filling" || !predictedV.length) return null;
   const D = FLANK_LEVELS_DEFAULTS;
   const [lowRatio, highRatio] = ASSIGN_DEFAULTS.fillingStepRatio;
@@ -169,10 +181,19 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
   const n = biasV.length;
   const w = expectedFwhmV;
   const replaced = new Map<number, Peak[]>();
-  const levels: { peak: Peak; label: string }[] = [];
-  for (const m of assignment.multiplets) {
-    if (m.band !== "CB") continue;
-    for (const i of m.peakIndices) {
+  const levels: { peak: Peak; label: string; alternate?: Peak }[] = [];
+  const aside = new Set((assignment.evidence?.secondJunction ?? []).map((r) => r.index));
+  // The CB shells in ladder order, and each peak set aside as a resonance inside one (note 4).
+  const shells = assignment.multiplets.filter((m) => m.band === "CB" && m.peakIndices.length).sort((a, b) => peaks[a.peakIndices[0]].biasV - peaks[b.peakIndices[0]].biasV);
+  const setAside = (m: (typeof shells)[number]) => {
+    if (m.degeneracy === null) return [];
+    const k = shells.indexOf(m);
+    const lo = peaks[m.peakIndices[0]].biasV;
+    const hi = k + 1 < shells.length ? peaks[shells[k + 1].peakIndices[0]].biasV : Infinity;
+    return [...aside].filter((i) => peaks[i].biasV > lo && peaks[i].biasV < hi);
+  };
+  for (const m of shells) {
+    for (const i of [...m.peakIndices, ...setAside(m)]) {
       const v = peaks[i].biasV;
       const near = predictedV.filter((r) => Math.abs(r - v) <= D.overlapFwhm * w && r >= biasV[0] + D.edgeFwhm * w && r <= biasV[n - 1] - D.edgeFwhm * w);
       if (!near.length || replaced.has(i)) continue;
@@ -187,12 +208,63 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
       const resonance = stepPeak(curve, fit.resonanceV, fit.resonanceStepA, fit.resonanceSignificance, peaks[i].biasUncertaintyV, w);
       const level = fit.levels.map((l) => stepPeak(curve, l.biasV, l.stepA, l.significance, l.uncertaintyV, w));
       replaced.set(i, [resonance, ...level]);
-      for (const p of level) levels.push({ peak: p, label: m.label });
+      for (const p of level) levels.push(aside.has(i) ? { peak: p, label: m.label, alternate: resonance } : { peak: p, label: m.label });
     }
   }
   if (!replaced.size) return null;
   const list = peaks.flatMap((p, i) => replaced.get(i) ?? [p]).sort((a, b) => a.biasV - b.biasV);
   return { peaks: list, levels };
+}
+
+/**
+ * Whether the reading of a {@link sharedLevelPeaks} list stands against the reading before it.
+ *
+ * Parameters
+ * ----------
+ * before : { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }
+ *     The assignment before the refit and the peaks it named by index.
+ * after : { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }
+ *     The assignment of the refitted list and that list.
+ * levels : readonly { peak: Peak; label: string; alternate?: Peak }[]
+ *     The levels {@link sharedLevelPeaks} placed.
+ *
+ * Returns
+ * -------
+ * boolean
+ *     True where each level (or its alternate) joins the shell it was placed for, and every CB
+ *     charging peak of `before` still in the list keeps its shell — or moves from a later shell
+ *     into a shell that a level from a set-aside peak joined, or leaves such a shell (at most
+ *     one peak per level placed there).
+ *
+ * Notes
+ * -----
+ * 1. A refit that moves the ladder's other peaks reads something the fit did not show; it is
+ *    not taken. The moves it allows: a shell short of peaks because one of them was set
+ *    aside as a resonance (note 4 of {@link sharedLevelPeaks}) read its peaks beyond the gap
+ *    as the next shell (a shell's next orbital starts Ec + Δ/η on, a missing peak leaves a gap
+ *    as wide); with the level back, those peaks return to it. And a shell that had filled the
+ *    place with the peak nearest it on the ladder — a resonance or a flank — gives one peak up
+ *    for each such level: a shell holds no more charging peaks than its degeneracy.
+ */
+export function sharedReadingStands(before: { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }, after: { assignment: Pick<Assignment, "multiplets">; peaks: readonly Peak[] }, levels: readonly { peak: Peak; label: string; alternate?: Peak }[]): boolean {
+  const cb = (a: Pick<Assignment, "multiplets">) => a.multiplets.filter((m) => m.band === "CB");
+  const labels = (a: Pick<Assignment, "multiplets">, of: readonly Peak[]) => new Map(cb(a).flatMap((m) => m.peakIndices.map((i) => [of[i], m.label] as const)));
+  const was = labels(before.assignment, before.peaks), now = labels(after.assignment, after.peaks);
+  const order = cb(before.assignment).map((m) => m.label);
+  if (!levels.every(({ peak, label, alternate }) => now.get(peak) === label || (alternate !== undefined && now.get(alternate) === label))) return false;
+  // The shells a level from a set-aside peak joined, with how many peaks each may give up.
+  const opened = new Map<string, number>();
+  for (const l of levels) if (l.alternate !== undefined) opened.set(l.label, (opened.get(l.label) ?? 0) + 1);
+  return [...was].every(([p, label]) => {
+    const to = now.get(p);
+    if (!after.peaks.includes(p) || to === label) return true;
+    if (to === undefined) {
+      const left = opened.get(label) ?? 0;
+      opened.set(label, left - 1);
+      return left > 0;
+    }
+    return opened.has(to) && order.indexOf(to) < order.indexOf(label);
+  });
 }
 
 /**

@@ -6,7 +6,7 @@
 // with seeded white noise; the positions put in are the check values.
 import { describe, it, expect } from "vitest";
 import { erf } from "mathjs";
-import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
+import { flankLevelPeaks, predictedResonancesV, sharedLevelPeaks, sharedReadingStands, FLANK_LEVELS_DEFAULTS } from "../../lib/pipeline/flankLevels.ts";
 import type { Peak } from "../../lib/peaks/findPeaks.ts";
 import { seededRandom } from "../../lib/util/random.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../../lib/util/constants.ts";
@@ -105,5 +105,57 @@ describe("sharedLevelPeaks", () => {
     expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], filling, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], { ...filling, regime: "shell-tunneling" }, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], filling, [2.3], fwhmV, 5)).toBeNull();
+  });
+  // The same curve with the shared peak set aside as a resonance (note 4): p holds 2.2 and 2.8 V only.
+  const aside = { regime: "shell-filling" as const, multiplets: [{ ...p, peakIndices: [0, 2], subgroups: [1, 1] }] as never, evidence: { secondJunction: [{ index: 1, sourceIndex: -1, predictedV: resonanceV }] } };
+  it("refits a peak set aside as a resonance inside a shell as the level and the resonance", () => {
+    const got = sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], aside, [resonanceV], fwhmV, 5);
+    expect(got).not.toBeNull();
+    expect(got!.peaks.length).toBe(4);
+    // The put-in level and resonance, to 5 % of a FWHM (the put-in values, as above).
+    expect(Math.abs(got!.peaks[1].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
+    expect(Math.abs(got!.peaks[2].biasV - resonanceV)).toBeLessThan(0.05 * fwhmV);
+    expect(got!.levels).toEqual([{ peak: got!.peaks[1], label: "p", alternate: got!.peaks[2] }]);
+  });
+  it("leaves a set-aside peak alone where its shell has no degeneracy or it steps like one level", () => {
+    const open = { ...aside, multiplets: [{ ...p, degeneracy: null, peakIndices: [0, 2], subgroups: [1, 1] }] as never };
+    expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], open, [resonanceV], fwhmV, 5)).toBeNull();
+    expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], aside, [resonanceV], fwhmV, 5)).toBeNull();
+  });
+});
+
+describe("sharedReadingStands", () => {
+  // Peaks a–f; before the refit p held a, b and d held e, f, with a shared peak set aside between.
+  // Which moves stand is the rule of its note 1 (common practice, no source: a refit that moves
+  // other peaks reads something the fit did not show, but for the short shell's own peaks).
+  const [a, b, e, f, level, resonance] = [2.8, 2.97, 3.75, 3.94, 3.28, 3.4].map((biasV) => peak(biasV));
+  const cb = (label: string, peakIndices: number[]) => ({ band: "CB" as const, label, peakIndices });
+  const before = { assignment: { multiplets: [cb("p", [0, 1]), cb("d", [2, 3])] } as never, peaks: [a, b, e, f] };
+  const list = [a, b, level, resonance, e, f];
+  const intoP = { assignment: { multiplets: [cb("p", [0, 1, 2, 4, 5])] } as never, peaks: list };
+  it("lets a later shell's peaks join the short shell that a set-aside peak's level joined", () => {
+    expect(sharedReadingStands(before, intoP, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+    // Its alternate may hold the level instead.
+    const viaAlternate = { assignment: { multiplets: [cb("p", [0, 1, 3, 4, 5])] } as never, peaks: list };
+    expect(sharedReadingStands(before, viaAlternate, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+  });
+  it("lets the shell give up one peak for each level from a set-aside peak, and no more", () => {
+    // p full before (a, b, e, f and two more): the level takes one place, the peak it displaces leaves.
+    const [g, h] = [4.1, 4.3].map((biasV) => peak(biasV));
+    const full = { assignment: { multiplets: [cb("p", [0, 1, 2, 3, 4, 5])] } as never, peaks: [a, b, e, f, g, h] };
+    const next = [a, b, level, resonance, e, f, g, h];
+    const oneOut = { assignment: { multiplets: [cb("p", [0, 1, 2, 4, 5, 6])] } as never, peaks: next };
+    expect(sharedReadingStands(full, oneOut, [{ peak: level, label: "p", alternate: resonance }])).toBe(true);
+    const twoOut = { assignment: { multiplets: [cb("p", [0, 1, 2, 4, 5])] } as never, peaks: next };
+    expect(sharedReadingStands(full, twoOut, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
+    expect(sharedReadingStands(full, oneOut, [{ peak: level, label: "p" }])).toBe(false);
+  });
+  it("keeps the old rule for a level from a shell's own peak, and refuses a level outside its shell", () => {
+    expect(sharedReadingStands(before, intoP, [{ peak: level, label: "p" }])).toBe(false);
+    const apart = { assignment: { multiplets: [cb("p", [0, 1]), cb("d", [4, 5])] } as never, peaks: list };
+    expect(sharedReadingStands(before, apart, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
+    // A peak moving out to a later shell never stands.
+    const out = { assignment: { multiplets: [cb("p", [0, 2]), cb("d", [1, 4, 5])] } as never, peaks: list };
+    expect(sharedReadingStands(before, out, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
   });
 });
