@@ -151,6 +151,10 @@ export function withSpinPairs(peaks: readonly Peak[], eta: number, etaGiven: boo
   unforced(next);
   const p = next.multiplets.find((m) => m.band === "CB" && m.label === "p");
   if (!p || [...p.peakIndices].sort((x, y) => x - y).join() !== [...set.members].sort((x, y) => x - y).join()) return a;
+  // Only p is read again: s stays the doublet it was (a reading's own s, such as the VB doublet's
+  // kept second peak, is not remade by the rules, and a member of p must not fill it).
+  const sOf = (x: Assignment) => x.multiplets.find((m) => m.band === "CB" && m.label === "s")?.peakIndices.join();
+  if (sOf(next) !== sOf(a)) return a;
   const list = (xs: readonly number[]) => xs.map((i) => peaks[i].biasV.toFixed(3)).join(", ");
   next.evidence.reasons.unshift(
     ...earlierReasons(a, next),
