@@ -96,7 +96,7 @@ export { analysisToJson, ANALYSIS_JSON_VERSION, type AnalysisJson, type Analysis
 export { makeProvenance, svgWithProvenance, type Provenance } from "./report/provenance.ts";
 export { tableWithProvenance, type ProvenanceTable } from "./report/tableWithProvenance.ts";
 export { formatAnalysisText, FORMAT_TEXT_DEFAULTS, type FormatAnalysisTextOptions } from "./report/formatAnalysisText.ts";
-export { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
+export { formatEta, formatUncertain, FORMAT_UNCERTAIN_DEFAULTS, type FormatUncertainOptions } from "./report/formatUncertain.ts";
 export { failedSummaryRow, summaryColumns, summaryRow, SUMMARY_COLUMNS, SUMMARY_METADATA_PREFIX, MODEL_SUMMARY_COLUMNS, type ModelSummaryColumn, type SummaryColumn, type SummaryRow } from "./report/summaryRow.ts";
 export { multipletColor, MULTIPLET_COLORS, NO_MULTIPLET, SECOND_JUNCTION } from "./report/multipletColor.ts";
 // Figures load Observable Plot (and jsdom in Node) on demand: `const curveFigure = await loadCurveFigure()`.

@@ -6,6 +6,7 @@
  * This module loads Observable Plot when imported. The public entry point does not import it
  * statically: use {@link loadCurveFigure}, which imports it (and, in Node, jsdom) on demand.
  */
+import { formatEta } from "./formatUncertain.ts";
 import * as Plot from "@observablehq/plot";
 import type { Curve } from "../curve.ts";
 import type { CurveAnalysis } from "../pipeline/analyzeCurve.ts";
@@ -354,7 +355,7 @@ export function curveFigure(analysis: CurveAnalysis, options: CurveFigureOptions
   const height = headerHeight + D.currentPanelHeight + D.conductancePanelHeight + (normalized ? D.normalizedPanelHeight : 0);
   const el = svgMaker(document);
   const root = svgRoot(el, width, height, D.fontFamily, axisAttributes(domain, [D.marginLeft, width - D.marginRight], [headerHeight, height], a.energies.eta));
-  const etaText = a.energies.etaGiven ? `η = ${a.energies.eta}` : "η not given (energies = bias values)";
+  const etaText = a.energies.etaGiven ? `η = ${formatEta(a.energies.eta)}` : "η not given (energies = bias values)";
   const title = options.title ?? `${sourceBaseName(analysis.source)}  —  ${REGIME_WORDS[a.regime]}, ${etaText}`;
   root.append(
     el("title", {}, title),

@@ -2,6 +2,7 @@
  * Pieces the figures share: the current's SI prefix, thinning long lines for a plot's width,
  * round tick values (for the energy axis) and the base name of a source path.
  */
+import { formatEta } from "./formatUncertain.ts";
 
 /** Current unit for the I–V axis: the prefix that puts the largest |I| between 1 and 1000. */
 export function currentUnit(currentA: ArrayLike<number>): { label: string; scale: number } {
@@ -82,7 +83,7 @@ export function energyAxis(domain: [number, number], energies: { eta: number; et
     ticks: ticks.map((e) => e / eta),
     // Plot writes negative ticks with a minus sign (U+2212); so does this axis.
     tickFormat: (v: number) => (v * eta).toFixed(decimals).replace(/^-(?=.*[1-9])/, "\u2212").replace(/^-/, ""),
-    label: energies.etaGiven ? `energy after η = ${eta} (eV)` : "energy (eV; η not given, taken as 1)",
+    label: energies.etaGiven ? `energy after η = ${formatEta(eta)} (eV)` : "energy (eV; η not given, taken as 1)",
     labelAnchor: "center" as const,
     labelArrow: "none" as const,
   };

@@ -2,6 +2,7 @@
  * The JSON record of a model fit: what `dotspec fit --json` prints (one per file).
  * Bias-referred values in volts (ε/η, Ec/η), energies in eV alongside.
  */
+import { formatEta } from "./formatUncertain.ts";
 import type { CurveFit, FittedValue } from "../model/fit/fitCurve.ts";
 import type { AnalysisJson } from "./analysisJson.ts";
 
@@ -178,7 +179,7 @@ export function formatFitText(fit: FitJson): string {
     `${(v.value * scale).toFixed(digits)} ± ${Number.isFinite(v.standardError) ? (v.standardError * scale).toFixed(digits) : "—"}`;
   const lines: string[] = [];
   const headline = fit.status === "good" ? "model fit: good" : fit.status === "poor" ? "model fit: POOR" : "NO FIT";
-  lines.push(`${fit.source}  ·  ${headline}  ·  η = ${fit.eta} (held fixed)`);
+  lines.push(`${fit.source}  ·  ${headline}  ·  η = ${formatEta(fit.eta)} (held fixed)`);
   lines.push(`  ${fit.statusReasons.join("; ")}`);
   const work = fit.work ? `; ${fit.work.evaluations.toLocaleString("en-US")} of ${fit.work.maxEvaluations.toLocaleString("en-US")} model evaluations (work budget)` : "";
   lines.push(`  ${fit.message}; ${fit.iterations} iterations${work}; reduced χ² = ${fit.reducedChiSquare.toFixed(2)}; ${fit.alternatives.length} start${fit.alternatives.length === 1 ? "" : "s"} tried, values from the ${fit.hypothesis === "assigned" ? "assignment's grouping" : fit.hypothesis + " grouping"}`);

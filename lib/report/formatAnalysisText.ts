@@ -5,7 +5,7 @@
 import type { AnalysisJson } from "./analysisJson.ts";
 import type { ModelComparisonJson } from "./modelComparisonJson.ts";
 import { NO_MULTIPLET, SECOND_JUNCTION } from "./multipletColor.ts";
-import { formatUncertain } from "./formatUncertain.ts";
+import { formatEta, formatUncertain } from "./formatUncertain.ts";
 
 /** Options of {@link formatAnalysisText}. */
 export interface FormatAnalysisTextOptions {
@@ -108,7 +108,7 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
   const bold = (s: string) => (color ? `\x1b[1m${s}\x1b[22m` : s);
   const faint = (s: string) => (color ? `\x1b[2m${s}\x1b[22m` : s);
   const I = D.indent;
-  const eta = json.energies.eta;
+  const eta = formatEta(json.energies.eta);
   const etaText = json.energies.etaGiven ? `η = ${eta}` : `η = ${eta} (not given: energies equal bias values)`;
   const out: string[] = [];
 
@@ -238,7 +238,7 @@ export function formatAnalysisText(json: AnalysisJson, options: FormatAnalysisTe
  * The model-comparison block: why it ran, headline with status and regime, the fit's quantities
  * with their ±, the best groupings, and which answer the record stands by (the fit's or the rules').
  */
-function modelComparisonLines(m: ModelComparisonJson, eta: number, I: string, bold: (s: string) => string, faint: (s: string) => string): string[] {
+function modelComparisonLines(m: ModelComparisonJson, eta: string, I: string, bold: (s: string) => string, faint: (s: string) => string): string[] {
   const pm = (v: { value: number; standardError: number } | null, scale: number, unit: string) =>
     v === null ? FORMAT_TEXT_DEFAULTS.missing : `${withSigma(v.value * scale, Number.isFinite(v.standardError) ? v.standardError * scale : null)} ${unit}`;
   // Records written before `ranBecause` existed were fitted only where the rules left the regime undetermined.

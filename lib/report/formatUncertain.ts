@@ -50,3 +50,28 @@ export function formatUncertain(value: number, sigma: number | null, options: Fo
   const d = Math.min(maxDecimals, Math.max(0, digits - 1 - Math.floor(Math.log10(sigma))));
   return `${value.toFixed(d)} ± ${sigma.toFixed(d)}`;
 }
+
+/**
+ * η as the reports show it: at most four significant digits (η is rarely known to better than
+ * ±0.01; a value typed by hand shows as typed).
+ *
+ * Parameters
+ * ----------
+ * eta : number
+ *     Voltage-division factor η.
+ *
+ * Returns
+ * -------
+ * string
+ *     The shortest decimal form of η rounded to four significant digits.
+ *
+ * Example
+ * -------
+ * ```ts
+ * formatEta(0.8);               // => "0.8"
+ * formatEta(0.640419766586274); // => "0.6404"
+ * ```
+ */
+export function formatEta(eta: number): string {
+  return String(Number(eta.toPrecision(4)));
+}

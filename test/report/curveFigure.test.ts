@@ -282,6 +282,15 @@ describe("curveFigure: the VB ladder's resonances taken out of the current (low 
     expect([swatch.getAttribute("fill"), swatch.getAttribute("stroke")]).toEqual([CURVE_FIGURE_DEFAULTS.colors.background, multipletColor(SECOND_JUNCTION)]);
   });
 
+  it("titles the figure and its energy axis with η to four significant digits (the draw's η has fifteen)", () => {
+    const eta = low.assignment.energies.eta;
+    expect(String(eta).length).toBeGreaterThan(10);
+    const shown = String(Number(eta.toPrecision(4)));
+    expect(root.getElementsByTagName("title")[0].textContent).toContain(`η = ${shown}`);
+    expect(root.textContent).toContain(`energy after η = ${shown} (eV)`);
+    expect(root.textContent).not.toContain(String(eta));
+  });
+
   it("draws none where nothing was taken out (η = 0.8: no resonance in the window)", () => {
     expect(analysis.subtractedResonances).toBeNull();
     expect(svg).not.toContain("taken out of the current");

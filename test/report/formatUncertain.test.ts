@@ -1,7 +1,7 @@
 // formatUncertain: value ± σ with σ to two significant digits and the value rounded to the same
 // place (common practice, no source); the examples are worked by hand from that rule.
 import { describe, expect, it } from "vitest";
-import { formatUncertain, FORMAT_UNCERTAIN_DEFAULTS } from "../../lib/report/formatUncertain.ts";
+import { formatEta, formatUncertain, FORMAT_UNCERTAIN_DEFAULTS } from "../../lib/report/formatUncertain.ts";
 
 describe("formatUncertain(value, sigma)", () => {
   it("FORMAT_UNCERTAIN_DEFAULTS is locked", () => {
@@ -18,5 +18,14 @@ describe("formatUncertain(value, sigma)", () => {
   it("writes the value alone (one decimal) without a usable σ", () => {
     expect(formatUncertain(12.34, null)).toBe("12.3");
     expect(formatUncertain(12.34, NaN)).toBe("12.3");
+  });
+});
+
+describe("formatEta", () => {
+  it("shows η to four significant digits, a hand-typed value as typed (common practice, no source)", () => {
+    expect(formatEta(0.8)).toBe("0.8");
+    expect(formatEta(0.62)).toBe("0.62");
+    expect(formatEta(0.640419766586274)).toBe("0.6404");
+    expect(formatEta(0.99995)).toBe("1");
   });
 });
