@@ -6,7 +6,8 @@
 // second peak (2.151 V, its step set by the VB doublet's ratio); the spin-pair stage re-read p as
 // six peaks from 2.604 V and, its own rules not keeping that s peak, made s of 1.873 and 2.604 V,
 // a peak of p as well. Each peak holds one carrier's addition, so it belongs to one multiplet at
-// most (orthodox theory of the charging ladder; the record's peak ↔ multiplet link relies on it).
+// most (derived: orthodox theory of the charging ladder; the record's peak ↔ multiplet link relies
+// on it); s lies below 2.3 V, before p's first peak at 2.604 V (derived from the peak list above).
 import { describe, it, expect } from "vitest";
 import { assignSpectrum } from "../../lib/assign/assignSpectrum.ts";
 import { withMultiplets } from "../../lib/assign/peakMultiplets.ts";

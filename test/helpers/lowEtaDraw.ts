@@ -33,3 +33,12 @@ export function expectTrueP(draw: ReturnType<typeof lowEtaDraw>, resonancesV: re
   expectClose(p.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
   for (const v of resonancesV) expect(p.peaksV.some((q) => Math.abs(q - v) < tolV / 2), `p holds the resonance at ${v} V`).toBe(false);
 }
+
+/**
+ * The truth's second-junction resonances between s's second peak and p's first, each more than
+ * the draw's tolerance from both: resonances that can lead p, clear of its own levels.
+ */
+export function leadResonancesV(draw: Pick<ReturnType<typeof lowEtaDraw>, "truth" | "tolV">): number[] {
+  const { truth, tolV } = draw;
+  return truth.secondJunctionPeaksV.filter((v) => v > truth.sPeaksV[1] + tolV && v < truth.pPeaksV[0] - tolV);
+}

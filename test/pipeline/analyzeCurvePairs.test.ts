@@ -1,7 +1,7 @@
 // A p sub-level whose two charging peaks both lie at predicted second-junction resonances, on draws
 // of the accuracy benchmark's low-η mix (η 0.55–0.65, resonances kept), simulated by the project's
-// model: every expected value is the simulation's truth, the tolerance the project's quality bar
-// (a peak within 25 % of Ec/η).
+// model: every expected value is derived from the simulation's own parameters (its truth), the
+// tolerance the project's quality bar (a peak within 25 % of Ec/η: common practice, no source).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";

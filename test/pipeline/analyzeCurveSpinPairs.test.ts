@@ -1,10 +1,11 @@
 // p read again as three spin pairs (each orbital's two electrons charge one Ec apart, so p's six
 // charging peaks are three pairs Ec/η wide: constant-interaction model, closed form), on draws of
 // the accuracy benchmark's low-η mix (η 0.55–0.65, second-junction resonances kept), simulated by
-// the project's model: every expected value is the simulation's truth, the tolerance the project's
-// quality bar (a peak within 25 % of Ec/η).
+// the project's model: every expected value is derived from the simulation's own parameters (its
+// truth), the tolerance the project's quality bar (a peak within 25 % of Ec/η: common practice, no
+// source).
 import { describe, it, expect } from "vitest";
-import { lowEtaDraw, expectTrueP } from "../helpers/lowEtaDraw.ts";
+import { lowEtaDraw, expectTrueP, leadResonancesV } from "../helpers/lowEtaDraw.ts";
 
 describe("analyzeCurve(curve, { eta }): p read as three spin pairs past the resonances in it (low-η draws)", () => {
   // Draw 1131: p 2.732, 2.896 | 3.233, 3.397, 3.561, 3.724 V; a VB level's resonance at 3.067 V
@@ -59,7 +60,7 @@ describe("analyzeCurve(curve, { eta }): an odd lead set aside where p's ladder t
   // give the shared peak back to p.
   it("reads p's six charging peaks (draw 121)", () => {
     const draw = lowEtaDraw(121);
-    const lead = draw.truth.secondJunctionPeaksV.filter((v) => v > draw.truth.sPeaksV[1] + draw.tolV && v < draw.truth.pPeaksV[0] - draw.tolV);
+    const lead = leadResonancesV(draw);
     expect(lead.length).toBeGreaterThan(0);
     expectTrueP(draw, lead);
     expect(draw.analysis.assignment.evidence.reasons.some((r) => r.includes("it opened p with an odd sub-group"))).toBe(true);
@@ -75,7 +76,7 @@ describe("analyzeCurve(curve, { eta }): spin pairs past a level and a resonance 
     const { truth, tolV } = draw;
     // The draw is the case: a resonance within 25 % of Ec/η of a p peak, and one before p.
     expect(truth.secondJunctionPeaksV.some((v) => truth.pPeaksV.some((q) => Math.abs(q - v) < tolV))).toBe(true);
-    const lead = truth.secondJunctionPeaksV.filter((v) => v > truth.sPeaksV[1] + tolV && v < truth.pPeaksV[0] - tolV);
+    const lead = leadResonancesV(draw);
     expect(lead.length).toBeGreaterThan(0);
     expectTrueP(draw, lead);
     expect(draw.analysis.assignment.evidence.reasons.some((r) => r.startsWith("p read again as three spin pairs"))).toBe(true);
@@ -87,8 +88,7 @@ describe("analyzeCurve(curve, { eta }): p read as one peak, a resonance, its six
   // peaks (3.366 … 4.262 V) as d; read as three spin pairs, p is the truth's.
   it("reads p's six charging peaks (draw 1128)", () => {
     const draw = lowEtaDraw(1128);
-    const { truth, tolV } = draw;
-    const lead = truth.secondJunctionPeaksV.filter((v) => v > truth.sPeaksV[1] + tolV && v < truth.pPeaksV[0] - tolV);
+    const lead = leadResonancesV(draw);
     expect(lead.length).toBeGreaterThan(0);
     expectTrueP(draw, lead);
     expect(draw.analysis.assignment.evidence.reasons.some((r) => r.startsWith("p read again as three spin pairs"))).toBe(true);

@@ -1,8 +1,9 @@
 // Shell filling at low η where the s doublet's second peak lies under the VB edge level's
 // second-junction resonance and the band-edge resonances read weak (note 2 of `hiddenDoublet` in
 // lib/assign/substrateReadings.ts), on draws of the accuracy benchmark's low-η mix (η 0.55–0.65,
-// resonances kept), simulated by the project's model: every expected value is the simulation's
-// truth, the tolerance the project's quality bar (a peak within 25 % of Ec/η, Ec within 10 %).
+// resonances kept), simulated by the project's model: every expected value is derived from the
+// simulation's own parameters (its truth), the tolerance the project's quality bar (a peak within
+// 25 % of Ec/η, Ec within 10 %: common practice, no source).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../helpers/expectClose.ts";
 import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
