@@ -8,7 +8,7 @@ import type { Assignment } from "../assign/assignSpectrum.ts";
 import type { Peak } from "../peaks/findPeaks.ts";
 import { bandLadders, currentSteps, fastCurrent, type CurrentStep, type DotModel } from "../model/bandCurrent.ts";
 import { rateRatioFromStepRatio, REGIME_LIMITS } from "../model/regimeLimits.ts";
-import type { Level } from "../model/scenario.ts";
+import { stateCount, type Level } from "../model/scenario.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
 
 /** Limits of {@link valenceLadderPrediction} (locked by test/pipeline/valenceLadder.test.ts). */
@@ -141,7 +141,7 @@ export function valenceLadderPrediction(
   }
   const ecEV = eta * (gaps ? spanV / gaps : ecV);
   const levels: Level[] = [];
-  let holes = 0, states = 1, measuredA = 0, outerV = 0;
+  let holes = 0, measuredA = 0, outerV = 0;
   for (const g of groups) {
     let sum = 0;
     g.forEach((i, k) => {
@@ -151,9 +151,8 @@ export function valenceLadderPrediction(
     });
     levels.push({ energyEV: -sum / g.length, degeneracy: g.length });
     holes += g.length;
-    states *= g.length + 1;
   }
-  if (states > D.maxStates || !(measuredA > 0)) return null;
+  if (stateCount(levels) > D.maxStates || !(measuredA > 0)) return null;
   // The lowest resonance: the first hole of the level nearest the gap, through the substrate junction.
   if ((-levels[0].energyEV + ecEV / 2) / (1 - eta) > biasRangeV[1]) return null;
   const { biasV, currentA, fwhmV } = current;
