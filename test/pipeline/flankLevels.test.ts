@@ -18,7 +18,7 @@ const peak = (biasV: number, extra: Partial<Peak> = {}): Peak => ({ biasV, biasU
 describe("FLANK_LEVELS_DEFAULTS", () => {
   it("is frozen with the documented values", () => {
     expect(Object.isFrozen(FLANK_LEVELS_DEFAULTS)).toBe(true);
-    expect(FLANK_LEVELS_DEFAULTS).toEqual({ overlapFwhm: 0.75, edgeFwhm: 1, sameFwhm: 0.25 });
+    expect(FLANK_LEVELS_DEFAULTS).toEqual({ overlapFwhm: 0.75, edgeFwhm: 1, sameFwhm: 0.25, sharedLevelStepRatio: 0.5 });
   });
 });
 
@@ -105,6 +105,15 @@ describe("sharedLevelPeaks", () => {
     expect(sharedLevelPeaks(curve, found, [15e-12, 19e-12, 15e-12], filling, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], { ...filling, regime: "shell-tunneling" }, [resonanceV], fwhmV, 5)).toBeNull();
     expect(sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], filling, [2.3], fwhmV, 5)).toBeNull();
+  });
+  it("places a level stepping at least half the level's share, and none stepping less (note 2)", () => {
+    // The put-in level steps 15 pA: 0.56 of a share of 27 pA (the shell's other peaks as read),
+    // 0.45 of one of 33 pA; the shared peak steps more than 1.3 × the share in both (note 1).
+    const wide = sharedLevelPeaks(curve, found, [27e-12, 40e-12, 27e-12], filling, [resonanceV], fwhmV, 5);
+    expect(wide).not.toBeNull();
+    expect(Math.abs(wide!.peaks[1].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
+    expect(wide!.peaks[1].stepA).toBeGreaterThanOrEqual(FLANK_LEVELS_DEFAULTS.sharedLevelStepRatio * 27e-12);
+    expect(sharedLevelPeaks(curve, found, [33e-12, 50e-12, 33e-12], filling, [resonanceV], fwhmV, 5)).toBeNull();
   });
   // The same curve with the shared peak set aside as a resonance (note 4): p holds 2.2 and 2.8 V only.
   const aside = { regime: "shell-filling" as const, multiplets: [{ ...p, peakIndices: [0, 2], subgroups: [1, 1] }] as never, evidence: { secondJunction: [{ index: 1, sourceIndex: -1, predictedV: resonanceV }] } };
