@@ -25,6 +25,14 @@ export const FLANK_LEVELS_DEFAULTS = Object.freeze({
    * benchmark's low-η mix: 0.45–0.55 read the same).
    */
   sharedLevelStepRatio: 0.5,
+  /**
+   * A CB charging peak at no predicted resonance that steps more than this many times the level's
+   * share holds a resonance beside its level (note 5 of {@link sharedLevelPeaks}): one level steps
+   * at most `ASSIGN_DEFAULTS.fillingStepRatio[1]` (1.3) times it, and no two charging peaks of a
+   * shell share a peak (they lie Ec_V apart), so more than a level's worth besides is something
+   * else (chosen on the accuracy benchmark's low-η mix: 2–3 read the same).
+   */
+  unpredictedStepRatio: 2.5,
 });
 
 /**
@@ -129,8 +137,9 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
 
 /**
  * The peak list with the level of each shared peak placed on the current: a charging peak of a
- * shell-filling CB shell that holds a predicted resonance too, refitted as the resonance and the
- * level beside it; null where no peak is shared or no fit places the level.
+ * shell-filling CB shell that holds a predicted resonance too (or, note 5, steps as a level and
+ * a resonance none predicts), refitted as the resonance and the level beside it; null where no
+ * peak is shared or no fit places the level.
  *
  * Parameters
  * ----------
@@ -185,6 +194,14 @@ export function flankLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], predi
  *    η/(1 − η), often half a FWHM, so the fit may put the resonance on the level's side: which
  *    of the two peaks is the level is left to the ladder (`alternate`; the reading is judged by
  *    {@link sharedReadingStands}).
+ * 5. Where no peak at a predicted resonance was refitted, a CB charging peak of a shell (not one
+ *    set aside) that lies at no predicted resonance and steps more than D.unpredictedStepRatio
+ *    times the level's share is refitted as in notes 2–3 with the resonance held near the peak
+ *    itself: a resonance the ladder does not predict (its source outside the window or read as
+ *    no level) still adds its step to the level it lies on, and draws the peak off the level as
+ *    a predicted one does. The refits of note 1 come first and alone: the new list is judged as
+ *    a whole ({@link sharedReadingStands}), and a guess at an unpredicted resonance must not cost
+ *    a predicted one its reading.
  */
 export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], stepsA: readonly number[], assignment: Pick<Assignment, "regime" | "multiplets"> & { evidence?: Pick<Assignment["evidence"], "secondJunction"> }, predictedV: readonly number[], expectedFwhmV: number, minStepSigma: number): { peaks: Peak[]; levels: { peak: Peak; label: string; alternate?: Peak }[] } | null {
   if (assignment.regime !== "shell-filling" || !predictedV.length) return null;
@@ -205,23 +222,28 @@ export function sharedLevelPeaks(curve: FlankCurve, peaks: readonly Peak[], step
     const hi = k + 1 < shells.length ? peaks[shells[k + 1].peakIndices[0]].biasV : Infinity;
     return [...aside].filter((i) => peaks[i].biasV > lo && peaks[i].biasV < hi);
   };
-  for (const m of shells) {
-    for (const i of [...m.peakIndices, ...setAside(m)]) {
-      const v = peaks[i].biasV;
-      const near = predictedV.filter((r) => Math.abs(r - v) <= D.overlapFwhm * w && r >= biasV[0] + D.edgeFwhm * w && r <= biasV[n - 1] - D.edgeFwhm * w);
-      if (!near.length || replaced.has(i)) continue;
-      const r = near.reduce((a, b) => (Math.abs(b - v) < Math.abs(a - v) ? b : a));
-      const others = m.peakIndices.filter((j) => j !== i).map((j) => stepsA[j]).sort((a, b) => a - b);
-      if (!others.length) continue;
-      const share = others[others.length >> 1];
-      if (!(stepsA[i] > highRatio * share)) continue;
-      const neighbours = peaks.filter((_, j) => j !== i).map((p) => p.biasV);
-      const fit = resonanceFlankSteps(biasV, currentA, noiseA, r, neighbours, w, minStepSigma, { levelStepMinA: D.sharedLevelStepRatio * share });
-      if (!fit) continue;
-      const resonance = stepPeak(curve, fit.resonanceV, fit.resonanceStepA, fit.resonanceSignificance, peaks[i].biasUncertaintyV, w);
-      const level = fit.levels.map((l) => stepPeak(curve, l.biasV, l.stepA, l.significance, l.uncertaintyV, w));
-      replaced.set(i, [resonance, ...level]);
-      for (const p of level) levels.push(aside.has(i) ? { peak: p, label: m.label, alternate: resonance } : { peak: p, label: m.label });
+  const inside = (x: number) => x >= biasV[0] + D.edgeFwhm * w && x <= biasV[n - 1] - D.edgeFwhm * w;
+  // Peaks at a predicted resonance first; a peak stepping like no level and a resonance beside it
+  // only where none of those was refitted (note 5).
+  for (const unpredicted of [false, true]) {
+    if (replaced.size) break;
+    for (const m of shells) {
+      for (const i of [...m.peakIndices, ...setAside(m)]) {
+        const v = peaks[i].biasV;
+        const near = predictedV.filter((r) => Math.abs(r - v) <= D.overlapFwhm * w && inside(r));
+        const others = m.peakIndices.filter((j) => j !== i).map((j) => stepsA[j]).sort((a, b) => a - b);
+        if (!others.length || replaced.has(i)) continue;
+        const share = others[others.length >> 1];
+        if (unpredicted ? near.length || aside.has(i) || !inside(v) || !(stepsA[i] > D.unpredictedStepRatio * share) : !near.length || !(stepsA[i] > highRatio * share)) continue;
+        const r = unpredicted ? v : near.reduce((a, b) => (Math.abs(b - v) < Math.abs(a - v) ? b : a));
+        const neighbours = peaks.filter((_, j) => j !== i).map((p) => p.biasV);
+        const fit = resonanceFlankSteps(biasV, currentA, noiseA, r, neighbours, w, minStepSigma, { levelStepMinA: D.sharedLevelStepRatio * share });
+        if (!fit) continue;
+        const resonance = stepPeak(curve, fit.resonanceV, fit.resonanceStepA, fit.resonanceSignificance, peaks[i].biasUncertaintyV, w);
+        const level = fit.levels.map((l) => stepPeak(curve, l.biasV, l.stepA, l.significance, l.uncertaintyV, w));
+        replaced.set(i, [resonance, ...level]);
+        for (const p of level) levels.push(aside.has(i) ? { peak: p, label: m.label, alternate: resonance } : { peak: p, label: m.label });
+      }
     }
   }
   if (!replaced.size) return null;

@@ -18,7 +18,7 @@ const peak = (biasV: number, extra: Partial<Peak> = {}): Peak => ({ biasV, biasU
 describe("FLANK_LEVELS_DEFAULTS", () => {
   it("is frozen with the documented values", () => {
     expect(Object.isFrozen(FLANK_LEVELS_DEFAULTS)).toBe(true);
-    expect(FLANK_LEVELS_DEFAULTS).toEqual({ overlapFwhm: 0.75, edgeFwhm: 1, sameFwhm: 0.25, sharedLevelStepRatio: 0.5 });
+    expect(FLANK_LEVELS_DEFAULTS).toEqual({ overlapFwhm: 0.75, edgeFwhm: 1, sameFwhm: 0.25, sharedLevelStepRatio: 0.5, unpredictedStepRatio: 2.5 });
   });
 });
 
@@ -76,21 +76,30 @@ describe("flankLevelPeaks", () => {
   });
 });
 
-describe("sharedLevelPeaks", () => {
-  // A p shell read as three charging peaks; the second holds a level 0.6 FWHM below the resonance
-  // at 2.5 V (15 pA beside 20 pA, one peak). Positions and steps put in are the check values.
+/**
+ * A p shell read as three charging peaks (2.2 V, the shared peak, 2.8 V; 15 pA each) whose second
+ * holds a level `offsetFwhm` FWHM below a resonance at 2.5 V stepping `resonanceA`; closed-form
+ * steps with seeded noise. Positions and steps put in are the check values.
+ */
+function sharedCurve(offsetFwhm: number, resonanceA: number) {
   const fwhmV = 0.07, s = fwhmV / GAUSSIAN_FWHM_PER_SIGMA;
-  const resonanceV = 2.5, levelV = resonanceV - 0.6 * fwhmV;
-  const steps: [number, number][] = [[2.2, 15e-12], [levelV, 15e-12], [resonanceV, 20e-12], [2.8, 15e-12]];
+  const resonanceV = 2.5, levelV = resonanceV - offsetFwhm * fwhmV;
+  const steps: [number, number][] = [[2.2, 15e-12], [levelV, 15e-12], [resonanceV, resonanceA], [2.8, 15e-12]];
   const biasV = Float64Array.from({ length: 1001 }, (_, i) => 2 + i * 0.001);
   const rng = seededRandom(7);
   const noiseA = 0.6e-12;
   const currentA = biasV.map((v) => 1e-12 + steps.reduce((a, [at, c]) => a + c * phi((v - at) / s), 0) + noiseA * rng.normal());
   const didvS = biasV.map((v) => steps.reduce((a, [at, c]) => a + (c / s) * gauss((v - at) / s), 0));
   const curve = { biasV, currentA, didvS, noiseA, noiseS: 1e-12, floorV: 0.001 };
-  const found = [peak(2.2, { index: 200 }), peak(2.485, { index: 485 }), peak(2.8, { index: 800 })];
   const p = { band: "CB" as const, label: "p", degeneracy: 6, peakIndices: [0, 1, 2], subgroups: [3] };
   const filling = { regime: "shell-filling" as const, multiplets: [p] as never };
+  return { fwhmV, resonanceV, levelV, curve, p, filling };
+}
+
+describe("sharedLevelPeaks", () => {
+  // The level 0.6 FWHM below the resonance (15 pA beside 20 pA, one peak, read at 2.485 V).
+  const { fwhmV, resonanceV, levelV, curve, p, filling } = sharedCurve(0.6, 20e-12);
+  const found = [peak(2.2, { index: 200 }), peak(2.485, { index: 485 }), peak(2.8, { index: 800 })];
 
   it("replaces the shared peak by the level and the resonance where they were put in", () => {
     const got = sharedLevelPeaks(curve, found, [15e-12, 35e-12, 15e-12], filling, [resonanceV], fwhmV, 5);
@@ -166,5 +175,30 @@ describe("sharedReadingStands", () => {
     // A peak moving out to a later shell never stands.
     const out = { assignment: { multiplets: [cb("p", [0, 2]), cb("d", [1, 4, 5])] } as never, peaks: list };
     expect(sharedReadingStands(before, out, [{ peak: level, label: "p", alternate: resonance }])).toBe(false);
+  });
+});
+
+describe("sharedLevelPeaks: a resonance no level predicts (note 5)", () => {
+  // The level 0.8 FWHM below the resonance (15 pA beside 25 pA); the only prediction lies far off
+  // (2.3 V). The shared peak is read where the put-in steps' conductance is highest.
+  const { fwhmV, resonanceV, levelV, curve, filling } = sharedCurve(0.8, 25e-12);
+  const { biasV, didvS } = curve;
+  let top = 0;
+  for (let i = 1; i < biasV.length; i++) if (biasV[i] > 2.4 && biasV[i] < 2.6 && didvS[i] > didvS[top]) top = i;
+  const found = [peak(2.2, { index: 200 }), peak(biasV[top], { index: top }), peak(2.8, { index: 800 })];
+  it("refits a peak stepping more than 2.5 × the share with the resonance held at the peak", () => {
+    const got = sharedLevelPeaks(curve, found, [15e-12, 40e-12, 15e-12], filling, [2.3], fwhmV, 5);
+    expect(got).not.toBeNull();
+    expect(got!.peaks.length).toBe(4);
+    // The put-in level and resonance, to 5 % of a FWHM (the put-in values).
+    expect(Math.abs(got!.peaks[1].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
+    expect(Math.abs(got!.peaks[2].biasV - resonanceV)).toBeLessThan(0.05 * fwhmV);
+    expect(got!.levels.map((l) => [l.peak, l.label])).toEqual([[got!.peaks[1], "p"]]);
+  });
+  it("leaves a peak stepping no more than 2.5 × the share alone, and one at a prediction to note 1", () => {
+    expect(sharedLevelPeaks(curve, found, [15e-12, 37e-12, 15e-12], filling, [2.3], fwhmV, 5)).toBeNull();
+    // With a prediction at the peak the refit is note 1's: the same level and resonance.
+    const predicted = sharedLevelPeaks(curve, found, [15e-12, 40e-12, 15e-12], filling, [resonanceV], fwhmV, 5);
+    expect(Math.abs(predicted!.peaks[1].biasV - levelV)).toBeLessThan(0.05 * fwhmV);
   });
 });
