@@ -15,7 +15,7 @@ import { ladderPredictions, ladderResonances } from "./ladderResonances.ts";
 import { oddLeadingLevel } from "./oddLeadingLevel.ts";
 import { spinPairSet, SPIN_PAIRS_DEFAULTS } from "./spinPairs.ts";
 import { valenceFillingDoublet } from "./regime.ts";
-import { overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { deeperChargingResonances, overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
 
 /**
@@ -62,8 +62,13 @@ export function firstReading(peaks: readonly Peak[], eta: number, etaGiven: bool
   // regime the rules can name (and the same one, when they named one before).
   const companions = substrateChargingPeaks(peaks, candidates, eta, ASSIGN_DEFAULTS.fillingStepRatio);
   if (!companions.length) return first;
-  const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
-  if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;
+  const stands = (x: Assignment) => x.regime !== "undetermined" && (first.regime === "undetermined" || x.regime === first.regime);
+  // The companions' spacing places the deeper levels' resonances too (`deeperChargingResonances`);
+  // without them where that reading does not stand.
+  const deeper = deeperChargingResonances(peaks, candidates, companions, first.multiplets.flatMap((m) => m.peakIndices), eta, ASSIGN_DEFAULTS.fillingStepRatio);
+  const withDeeper = deeper.length ? assignWith(peaks, eta, etaGiven, [...candidates, ...companions, ...deeper], options) : null;
+  const third = withDeeper && stands(withDeeper) ? withDeeper : assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
+  if (!stands(third)) return first;
   third.evidence.reasons.unshift(...companionReasons(peaks, companions));
   return third;
 }
