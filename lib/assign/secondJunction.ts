@@ -386,3 +386,55 @@ export function deeperChargingResonances(peaks: readonly Peak[], resonances: rea
   }
   return out;
 }
+
+/**
+ * The resonances that share their source's prediction with a nearer one and together step too
+ * much to be parts of one resonance: the farther holds a tip-side level.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Pick<Peak, "biasV" | "stepA">[]
+ *     The peaks of one curve (positions in V, current steps `stepA` in A).
+ * resonances : readonly SecondJunctionResonance[]
+ *     Peaks taken as resonances (from {@link secondJunctionResonances} or a later stage).
+ *
+ * Returns
+ * -------
+ * SecondJunctionResonance[]
+ *     For each prediction (source and predicted position) matched by several peaks whose summed step is at least
+ *     `SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin` × the source's, all but the one nearest
+ *     the prediction.
+ *
+ * Notes
+ * -----
+ * 1. A level has one resonance: two peaks within the match tolerance of one prediction are that
+ *    resonance split by the peak search, sharing its step, or the resonance and a level beside it.
+ * 2. Where the tip side does not fill the dot a resonance steps less than its source
+ *    ((g·r + 1)/(g + r) < 1 for r < 1, note 2 of {@link overlappedResonances}), so parts summing
+ *    to at least the source's step are not one resonance: the peak nearest the prediction is
+ *    taken for it and the others hold levels. The caller applies it only where the regime read
+ *    is not shell filling.
+ *
+ * Example
+ * -------
+ * ```ts
+ * // v1 at −1.77 V steps 0.40 pA; its resonance predicted at 2.841 V: peaks at 2.841 V (0.16 pA) and 2.854 V (0.39 pA).
+ * const set = [{ index: 1, sourceIndex: 0, predictedV: 2.841 }, { index: 2, sourceIndex: 0, predictedV: 2.841 }];
+ * crowdedResonances([{ biasV: -1.77, stepA: 0.4e-12 }, { biasV: 2.841, stepA: 0.16e-12 }, { biasV: 2.854, stepA: 0.39e-12 }], set).map((r) => r.index);  // => [2]
+ * ```
+ */
+export function crowdedResonances(peaks: readonly Pick<Peak, "biasV" | "stepA">[], resonances: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
+  const miss = (r: SecondJunctionResonance) => Math.abs(peaks[r.index].biasV - r.predictedV);
+  const out: SecondJunctionResonance[] = [];
+  for (const one of resonances) {
+    const source = one.sourceIndex;
+    // One prediction: the same source and predicted position (a companion or a deeper charging
+    // resonance of the same source is another one). Each group once, from its nearest peak.
+    const parts = resonances.filter((r) => r.sourceIndex === source && Math.abs(r.predictedV - one.predictedV) <= 1e-9 * Math.max(1, Math.abs(one.predictedV))).sort((a, b) => miss(a) - miss(b));
+    if (parts[0] !== one) continue;
+    const summedA = parts.reduce((sum, r) => sum + peaks[r.index].stepA, 0);
+    if (parts.length < 2 || !(peaks[source].stepA > 0) || summedA < SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin * peaks[source].stepA) continue;
+    out.push(...parts.slice(1));
+  }
+  return out;
+}

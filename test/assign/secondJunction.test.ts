@@ -5,7 +5,7 @@
 // = −η·V₁/(1 − η). The model check uses the project's master equation, whose closed-form plateaus
 // are tested in test/model/ladder.test.ts.
 import { describe, it, expect } from "vitest";
-import { deeperChargingResonances, overlappedResonances, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { crowdedResonances, deeperChargingResonances, overlappedResonances, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
 import { substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { analyzeCurve, assignSpectrum, analysisToJson, formatAnalysisText, loadCurveFigure, simulateCurve, SECOND_JUNCTION, type Peak } from "../../lib/index.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -119,6 +119,25 @@ describe("deeperChargingResonances(peaks, resonances, companions, levels, eta, s
   });
   it("finds nothing without companions (the substrate side not seen to fill)", () => {
     expect(deeperChargingResonances([at(-1.3, 2e-12), at(-1.0), at(0.9), at(1.5), at(2.15)], res, [], [0, 1, 2], 0.6, [0.6, 1.3])).toEqual([]);
+  });
+});
+
+describe("crowdedResonances(peaks, resonances)", () => {
+  // One prediction −η·V/(1 − η) matched by two peaks. Where the tip side does not fill the dot a
+  // resonance steps less than its source ((g·r + 1)/(g + r) < 1 for r < 1, closed form).
+  const at = (biasV: number, stepA: number) => ({ biasV, stepA });
+  const two = [{ index: 1, sourceIndex: 0, predictedV: 2.841 }, { index: 2, sourceIndex: 0, predictedV: 2.841 }];
+  it("releases the farther of two peaks whose summed step reaches the source's (a resonance and a level beside it)", () => {
+    expect(crowdedResonances([at(-1.77, 0.4e-12), at(2.841, 0.16e-12), at(2.854, 0.39e-12)], two).map((r) => r.index)).toEqual([2]);
+    // The nearer is kept whichever comes first in the list.
+    expect(crowdedResonances([at(-1.77, 0.4e-12), at(2.83, 0.39e-12), at(2.842, 0.16e-12)], two).map((r) => r.index)).toEqual([1]);
+  });
+  it("keeps both where together they step less than the source (one resonance split by the peak search)", () => {
+    expect(crowdedResonances([at(1.78, 0.46e-12), at(-2.437, 0.08e-12), at(-2.403, 0.06e-12)], [{ index: 1, sourceIndex: 0, predictedV: -2.425 }, { index: 2, sourceIndex: 0, predictedV: -2.425 }])).toEqual([]);
+  });
+  it("does not group a source's other predictions (a second charging peak through the substrate junction)", () => {
+    const set = [{ index: 1, sourceIndex: 0, predictedV: 2.841 }, { index: 2, sourceIndex: 0, predictedV: 3.0 }];
+    expect(crowdedResonances([at(-1.77, 0.4e-12), at(2.841, 0.3e-12), at(3.0, 0.3e-12)], set)).toEqual([]);
   });
 });
 

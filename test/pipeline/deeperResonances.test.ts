@@ -38,3 +38,16 @@ describe("analyzeCurve(curve, { eta }): a deeper VB level's substrate-side charg
     for (const v of between) expect(inMultiplet.some((q) => Math.abs(q - v) < tolV / 2), `a multiplet holds the resonance at ${v} V`).toBe(false);
   }, 30_000);
 });
+
+describe("analyzeCurve(curve, { eta }): a level beside a nearer resonance of the same prediction stays a level (low-η draw)", () => {
+  // Draw 1169 (shell tunnelling): v1's resonance lies 15 mV below p's third level; both peaks
+  // matched the one prediction, and p was read with two levels.
+  it("reads p's three levels at the truth's (draw 1169)", () => {
+    const { analysis: a, truth, tolV } = lowEtaDraw(1169, "shell-tunneling");
+    // The draw is the case: a resonance of the truth within a quarter of Ec/η of a p level.
+    expect(truth.secondJunctionPeaksV.some((v) => truth.pPeaksV.some((p) => Math.abs(p - v) < tolV))).toBe(true);
+    expect(a.assignment.regime).toBe("shell-tunneling");
+    const p = a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!;
+    expectClose(p.peaksV, truth.pPeaksV, { atol: tolV, what: "p, the simulation's truth" });
+  }, 30_000);
+});
