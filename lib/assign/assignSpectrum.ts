@@ -114,7 +114,9 @@ export interface Assignment {
  *    are set aside for steps 1–6; then they are checked against the shell-filling reading
  *    (`confirmResonances`: one resonance per level, a candidate that fills a charging step is a
  *    level) and, where the tip side is not shell filling, the substrate side's second charging
- *    peak of a band-edge level is looked for (`substrateChargingPeaks`); steps 1–6 run again
+ *    peak of a band-edge level is looked for (`substrateChargingPeaks`), and with its spacing
+ *    Ec/(1 − η) the deeper levels' resonances k = 1, 2 spacings beyond their plain prediction
+ *    that step like it (`deeperChargingResonances`); steps 1–6 run again
  *    with the resonances that stand, and the result is kept if its regime is consistent (shell
  *    filling after the check; the same or a newly named regime after the second). Where the
  *    band-edge resonances carry at least `D.fillingResonanceStepMin` × their levels' steps
@@ -156,7 +158,8 @@ export interface Assignment {
  *    it: the VB has none of its own), and its p is then read against an odd lead and as spin
  *    pairs like the first's (`oddLeadingLevel`, `spinPairSet`); otherwise a resonance stepping at
  *    least as much as its source goes back to the ladder as a level (`overlappedResonances`: (g·r + 1)/(g + r) < 1 for
- *    r < 1; not one with a peak that is no resonance within the smaller of their FWHMs: that
+ *    r < 1; so does one beside a nearer peak at the same prediction where the two step at least
+ *    as much, `crowdedResonances`; not one with a peak that is no resonance within the smaller of their FWHMs: that
  *    peak is its level, split apart, the pair's summed step shared out by the split's fit; the
  *    farthest from its prediction first) where the regime stays the same, with a band-edge
  *    level's second charging peak through the substrate junction set aside too where that keeps

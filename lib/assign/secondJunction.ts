@@ -38,6 +38,12 @@ export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
    * g ≥ 2 and r = Γtip/Γsub < 1 (`substrateToTipStepRatio` at r = 1 is 1 for every g).
    */
   overlapSourceStepRatioMin: substrateToTipStepRatio(2, 1),
+  /**
+   * {@link deeperChargingResonances}: a deeper level's resonances are looked for up to this many
+   * substrate-side charging steps Ec/(1 − η) beyond its plain prediction: the carriers the
+   * gap-edge level's two spin states can hold.
+   */
+  deeperChargingMax: 2,
 });
 
 /** One peak taken as a second-junction resonance. */
@@ -286,4 +292,149 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
 export function overlappedResonances(peaks: readonly Pick<Peak, "stepA">[], resonances: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
   const min = SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin;
   return resonances.filter((r) => peaks[r.sourceIndex].stepA > 0 && peaks[r.index].stepA >= min * peaks[r.sourceIndex].stepA);
+}
+
+/**
+ * The resonances of a band's deeper levels once the substrate side is seen to fill: with a
+ * gap-edge level's resonance and its second charging peak (`substrateChargingPeaks`) one
+ * Ec/(1 − η) apart, a deeper level of the same band steps through the substrate junction
+ * k·Ec/(1 − η) beyond its own plain −η·V/(1 − η), k = 1 … `SECOND_JUNCTION_DEFAULTS.deeperChargingMax`.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Peak[]
+ *     The peaks of one curve (positions `biasV`, `biasUncertaintyV` and `fwhmV` in V, steps `stepA` in A).
+ * resonances : readonly SecondJunctionResonance[]
+ *     The resonances set aside (from {@link secondJunctionResonances}).
+ * companions : readonly SecondJunctionResonance[]
+ *     The second charging peaks found beyond them (from {@link substrateChargingPeaks}).
+ * levels : readonly number[]
+ *     Indices of the peaks a reading took as levels (its multiplets' peaks): the only sources.
+ * eta : number
+ *     Voltage-division factor η in (0, 1).
+ * stepRatio : readonly [number, number]
+ *     The range of a peak's step over the companion's that reads as another carrier entering
+ *     through the substrate junction (`ASSIGN_DEFAULTS.fillingStepRatio`, as for the companion).
+ *
+ * Returns
+ * -------
+ * SecondJunctionResonance[]
+ *     The peaks found there, each with its source (the deeper level's tip-side peak) and the
+ *     position predicted for it, V; empty without companions.
+ *
+ * Notes
+ * -----
+ * 1. The spacing of a resonance and its companion is the substrate side's charging step,
+ *    Ec/(1 − η) in bias; where there are several, the mean is used.
+ * 2. Where the tip side tunnels (Γtip ≪ Γsub) the substrate side keeps the dot charged: a
+ *    deeper level takes its carrier through the substrate junction with the k carriers of the
+ *    levels before it that the slow tip side has not yet drained, at
+ *    |V′| = η·|V|/(1 − η) + k·Ec/(1 − η) (V its tip-side peak; orthodox master equation with
+ *    fast relaxation inside the dot). k = 0 is the plain prediction, already a candidate; k runs
+ *    up to the gap-edge level's two spin states (`deeperChargingMax` = 2).
+ * 3. Sources are the band's levels beyond its edge level (the resonance's source), those of
+ *    `levels` (no noise peak or charging satellite) that are not resonances and step (`stepA` > 0, as in note 4 of {@link secondJunctionResonances}); a free
+ *    peak of the other side within {@link matchToleranceV} of a prediction (the nearest) is that
+ *    resonance.
+ *
+ * References
+ * ----------
+ * D. V. Averin and K. K. Likharev, in *Mesoscopic Phenomena in Solids*, ed. B. L. Altshuler,
+ * P. A. Lee and R. A. Webb (Elsevier, 1991); C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991).
+ *
+ * Example
+ * -------
+ * ```ts
+ * // η = 0.6 (gain 1.5): v1 at −1.0 V, its resonance at 1.5 V and companion at 1.7 V (Ec/(1 − η) = 0.2 V);
+ * // v2 at −1.3 V: plain 1.95 V, then 2.15 V and 2.35 V; a peak at 2.35 V is its resonance.
+ * const peak = (biasV: number): Peak => ({ biasV, biasUncertaintyV: 0.002, index: 0, heightS: 1e-9,
+ *   prominenceS: 1e-9, fwhmV: 0.04, stepA: 1e-12, snr: 20, stepSignificance: 30 });
+ * const peaks = [-1.3, -1.0, 0.9, 1.5, 1.7, 2.35].map(peak);
+ * deeperChargingResonances(peaks, [{ index: 3, sourceIndex: 1, predictedV: 1.5 }], [{ index: 4, sourceIndex: 1, predictedV: 1.7 }], [0, 1, 2], 0.6, [0.6, 1.3]);
+ * // => [{ index: 5, sourceIndex: 0, predictedV: 2.35 }]
+ * ```
+ */
+export function deeperChargingResonances(peaks: readonly Peak[], resonances: readonly SecondJunctionResonance[], companions: readonly SecondJunctionResonance[], levels: readonly number[], eta: number, stepRatio: readonly [number, number]): SecondJunctionResonance[] {
+  if (!(eta > 0 && eta < 1)) return [];
+  const gain = eta / (1 - eta);
+  const taken = new Set([...resonances, ...companions].map((r) => r.index));
+  const out: SecondJunctionResonance[] = [];
+  for (const c of companions) {
+    const first = resonances.find((r) => r.sourceIndex === c.sourceIndex);
+    if (!first) continue;
+    const ecV = Math.abs(peaks[c.index].biasV - peaks[first.index].biasV);
+    const edge = peaks[c.sourceIndex];
+    const side = Math.sign(peaks[c.index].biasV);
+    peaks.forEach((src, s) => {
+      if (taken.has(s) || !levels.includes(s) || Math.sign(src.biasV) !== Math.sign(edge.biasV) || Math.abs(src.biasV) <= Math.abs(edge.biasV) || !(src.stepA > 0)) return;
+      for (let k = 1; k <= SECOND_JUNCTION_DEFAULTS.deeperChargingMax; k++) {
+        const predictedV = -gain * src.biasV + side * k * ecV;
+        const spacingSigmaV = k * Math.hypot(positionSigma(peaks[c.index]), positionSigma(peaks[first.index]));
+        let best = -1;
+        peaks.forEach((p, i) => {
+          const D = SECOND_JUNCTION_DEFAULTS;
+          const tolV = Math.max(D.toleranceSigma * Math.hypot(gain * positionSigma(src), positionSigma(p), spacingSigmaV), D.toleranceFwhmFraction * p.fwhmV);
+          if (taken.has(i) || Math.sign(p.biasV) !== side || Math.abs(p.biasV - predictedV) > tolV) return;
+          if (p.stepA < stepRatio[0] * peaks[c.index].stepA || p.stepA > stepRatio[1] * peaks[c.index].stepA) return;
+          if (best < 0 || Math.abs(p.biasV - predictedV) < Math.abs(peaks[best].biasV - predictedV)) best = i;
+        });
+        if (best < 0) continue;
+        taken.add(best);
+        out.push({ index: best, sourceIndex: s, predictedV });
+      }
+    });
+  }
+  return out;
+}
+
+/**
+ * The resonances that share their source's prediction with a nearer one and together step too
+ * much to be parts of one resonance: the farther holds a tip-side level.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Pick<Peak, "biasV" | "stepA">[]
+ *     The peaks of one curve (positions in V, current steps `stepA` in A).
+ * resonances : readonly SecondJunctionResonance[]
+ *     Peaks taken as resonances (from {@link secondJunctionResonances} or a later stage).
+ *
+ * Returns
+ * -------
+ * SecondJunctionResonance[]
+ *     For each prediction (source and predicted position) matched by several peaks whose summed step is at least
+ *     `SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin` × the source's, all but the one nearest
+ *     the prediction.
+ *
+ * Notes
+ * -----
+ * 1. A level has one resonance: two peaks within the match tolerance of one prediction are that
+ *    resonance split by the peak search, sharing its step, or the resonance and a level beside it.
+ * 2. Where the tip side does not fill the dot a resonance steps less than its source
+ *    ((g·r + 1)/(g + r) < 1 for r < 1, note 2 of {@link overlappedResonances}), so parts summing
+ *    to at least the source's step are not one resonance: the peak nearest the prediction is
+ *    taken for it and the others hold levels. The caller applies it only where the regime read
+ *    is not shell filling.
+ *
+ * Example
+ * -------
+ * ```ts
+ * // v1 at −1.77 V steps 0.40 pA; its resonance predicted at 2.841 V: peaks at 2.841 V (0.16 pA) and 2.854 V (0.39 pA).
+ * const set = [{ index: 1, sourceIndex: 0, predictedV: 2.841 }, { index: 2, sourceIndex: 0, predictedV: 2.841 }];
+ * crowdedResonances([{ biasV: -1.77, stepA: 0.4e-12 }, { biasV: 2.841, stepA: 0.16e-12 }, { biasV: 2.854, stepA: 0.39e-12 }], set).map((r) => r.index);  // => [2]
+ * ```
+ */
+export function crowdedResonances(peaks: readonly Pick<Peak, "biasV" | "stepA">[], resonances: readonly SecondJunctionResonance[]): SecondJunctionResonance[] {
+  const miss = (r: SecondJunctionResonance) => Math.abs(peaks[r.index].biasV - r.predictedV);
+  const out: SecondJunctionResonance[] = [];
+  for (const one of resonances) {
+    const source = one.sourceIndex;
+    // One prediction: the same source and predicted position (a companion or a deeper charging
+    // resonance of the same source is another one). Each group once, from its nearest peak.
+    const parts = resonances.filter((r) => r.sourceIndex === source && Math.abs(r.predictedV - one.predictedV) <= 1e-9 * Math.max(1, Math.abs(one.predictedV))).sort((a, b) => miss(a) - miss(b));
+    if (parts[0] !== one) continue;
+    const summedA = parts.reduce((sum, r) => sum + peaks[r.index].stepA, 0);
+    if (parts.length < 2 || !(peaks[source].stepA > 0) || summedA < SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin * peaks[source].stepA) continue;
+    out.push(...parts.slice(1));
+  }
+  return out;
 }

@@ -15,7 +15,7 @@ import { ladderPredictions, ladderResonances } from "./ladderResonances.ts";
 import { oddLeadingLevel } from "./oddLeadingLevel.ts";
 import { spinPairSet, SPIN_PAIRS_DEFAULTS } from "./spinPairs.ts";
 import { valenceFillingDoublet } from "./regime.ts";
-import { overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
+import { crowdedResonances, deeperChargingResonances, overlappedResonances, substrateChargingPeaks, type SecondJunctionResonance } from "./secondJunction.ts";
 import { deeperPlainResonances, substrateExtraLevel, SUBSTRATE_EXTRA_LEVEL_DEFAULTS } from "./substrateExtraLevel.ts";
 
 /**
@@ -62,8 +62,13 @@ export function firstReading(peaks: readonly Peak[], eta: number, etaGiven: bool
   // regime the rules can name (and the same one, when they named one before).
   const companions = substrateChargingPeaks(peaks, candidates, eta, ASSIGN_DEFAULTS.fillingStepRatio);
   if (!companions.length) return first;
-  const third = assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
-  if (third.regime === "undetermined" || (first.regime !== "undetermined" && third.regime !== first.regime)) return first;
+  const stands = (x: Assignment) => x.regime !== "undetermined" && (first.regime === "undetermined" || x.regime === first.regime);
+  // The companions' spacing places the deeper levels' resonances too (`deeperChargingResonances`);
+  // without them where that reading does not stand.
+  const deeper = deeperChargingResonances(peaks, candidates, companions, first.multiplets.flatMap((m) => m.peakIndices), eta, ASSIGN_DEFAULTS.fillingStepRatio);
+  const withDeeper = deeper.length ? assignWith(peaks, eta, etaGiven, [...candidates, ...companions, ...deeper], options) : null;
+  const third = withDeeper && stands(withDeeper) ? withDeeper : assignWith(peaks, eta, etaGiven, [...candidates, ...companions], options);
+  if (!stands(third)) return first;
   third.evidence.reasons.unshift(...companionReasons(peaks, companions));
   return third;
 }
@@ -229,13 +234,18 @@ export function underResonances(peaks: readonly Peak[], eta: number, etaGiven: b
   const result = third && third.regime === second.regime ? third : second;
   result.evidence.reasons.unshift(
     ...(result === third ? companionReasons(peaks, companions) : []),
-    ...under.map((r) => `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`),
+    ...under.map((r) =>
+      overlappedResonances(peaks, [r]).length
+        ? `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: it steps ${(peaks[r.index].stepA / peaks[r.sourceIndex].stepA).toFixed(2)} × the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V whose resonance it overlaps (a resonance alone steps less than its source where the tip side does not fill the dot)`
+        : `peak at ${peaks[r.index].biasV.toFixed(3)} V kept as a level: a nearer peak is the resonance of the peak at ${peaks[r.sourceIndex].biasV.toFixed(3)} V, and the two step at least as much as that peak (one resonance alone steps less than its source where the tip side does not fill the dot)`,
+    ),
   );
   return result;
 }
 
 /**
- * The resonances that go back to the ladder as levels (`overlappedResonances`), except one with a
+ * The resonances that go back to the ladder as levels (`overlappedResonances`, and those beside a
+ * nearer resonance of the same source, `crowdedResonances`), except one with a
  * peak that is no resonance (or one released before it) within the smaller of their FWHMs (a
  * merged peak's own width would reach the next level): that peak is the level,
  * found apart, and the summed step was shared out between the two by the split's fit. Those
@@ -245,7 +255,8 @@ function levelsUnder(peaks: readonly Peak[], set: readonly SecondJunctionResonan
   const miss = (r: SecondJunctionResonance) => Math.abs(peaks[r.index].biasV - r.predictedV);
   const resonant = new Set(set.map((r) => r.index));
   const released: SecondJunctionResonance[] = [];
-  for (const r of [...overlappedResonances(peaks, set)].sort((a, b) => miss(b) - miss(a))) {
+  const crowded = crowdedResonances(peaks, set).filter((r) => !overlappedResonances(peaks, [r]).length);
+  for (const r of [...overlappedResonances(peaks, set), ...crowded].sort((a, b) => miss(b) - miss(a))) {
     const p = peaks[r.index];
     const levelBeside = peaks.some((q, i) => i !== r.index && Math.sign(q.biasV) === Math.sign(p.biasV) && Math.abs(q.biasV - p.biasV) <= Math.min(p.fwhmV, q.fwhmV) && !resonant.has(i));
     if (levelBeside) continue;

@@ -5,7 +5,7 @@
 // = −η·V₁/(1 − η). The model check uses the project's master equation, whose closed-form plateaus
 // are tested in test/model/ladder.test.ts.
 import { describe, it, expect } from "vitest";
-import { overlappedResonances, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { crowdedResonances, deeperChargingResonances, overlappedResonances, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
 import { substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { analyzeCurve, assignSpectrum, analysisToJson, formatAnalysisText, loadCurveFigure, simulateCurve, SECOND_JUNCTION, type Peak } from "../../lib/index.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -53,7 +53,7 @@ describe("secondJunctionResonances(peaks, eta)", () => {
   });
 
   it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %; Ec at most a quarter of the gap; closed form 13/17 for the step ratio)", () => {
-    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number) });
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number), deeperChargingMax: 2 });
     expectClose(SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax, 13 / 17, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r = 3/7" });
     expectClose(SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin, 1, { rtol: 1e-12, what: "closed form: (g·r + 1)/(g + r) at r = 1" });
   });
@@ -94,6 +94,50 @@ describe("substrateChargingPeaks(peaks, resonances, eta, stepRatio)", () => {
   it("finds none where the resonance is higher than its source (the substrate side of shell filling shows a level, ratio → 2)", () => {
     const peaks = [at(-1.0, 1e-12), at(0.9, 1e-12), at(1.5, 1.9e-12), at(1.75, 1.8e-12)];
     expect(substrateChargingPeaks(peaks, secondJunctionResonances(peaks, 0.6), 0.6, [0.6, 1.3])).toEqual([]);
+  });
+});
+
+describe("deeperChargingResonances(peaks, resonances, companions, levels, eta, stepRatio)", () => {
+  // Shell tunnelling at η = 0.6 (gain 1.5): v1 at −1.0 V, its resonance at 1.5 V and its second
+  // charging peak at 1.7 V (Ec/(1 − η) = 0.2 V); v2 at −1.3 V: plain 1.95 V, then 2.15 V (k = 1)
+  // and 2.35 V (k = 2) (closed form, orthodox theory).
+  const at = (biasV: number, stepA = 1e-12): Peak => ({ ...peak(biasV), stepA });
+  const res = [{ index: 3, sourceIndex: 1, predictedV: 1.5 }];
+  const comp = [{ index: 4, sourceIndex: 1, predictedV: 1.7 }];
+  it("takes a peak at v2's plain prediction + 2·Ec/(1 − η), Ec/(1 − η) read from the companion's spacing", () => {
+    const peaks = [at(-1.3, 2e-12), at(-1.0), at(0.9), at(1.5), at(1.7), at(2.352)];
+    const found = deeperChargingResonances(peaks, res, comp, [0, 1, 2], 0.6, [0.6, 1.3]);
+    expect(found.map((r) => [r.index, r.sourceIndex])).toEqual([[5, 0]]);
+    expectClose(found[0].predictedV, 1.95 + 2 * 0.2, { rtol: 1e-12, what: "closed form 1.5·1.3 + 2·0.2" });
+  });
+  it("takes none at k = 3 (beyond the edge level's two carriers), none stepping like a level too, none from a source that is no level", () => {
+    expect(deeperChargingResonances([at(-1.3, 2e-12), at(-1.0), at(0.9), at(1.5), at(1.7), at(2.55)], res, comp, [0, 1, 2], 0.6, [0.6, 1.3])).toEqual([]);
+    // 2.15 V stepping twice the companion: a tip-side level lies under it.
+    expect(deeperChargingResonances([at(-1.3, 2e-12), at(-1.0), at(0.9), at(1.5), at(1.7), at(2.15, 2e-12)], res, comp, [0, 1, 2], 0.6, [0.6, 1.3])).toEqual([]);
+    // −1.3 V not among the levels (a satellite or noise peak of the reading).
+    expect(deeperChargingResonances([at(-1.3, 2e-12), at(-1.0), at(0.9), at(1.5), at(1.7), at(2.15)], res, comp, [1, 2], 0.6, [0.6, 1.3])).toEqual([]);
+  });
+  it("finds nothing without companions (the substrate side not seen to fill)", () => {
+    expect(deeperChargingResonances([at(-1.3, 2e-12), at(-1.0), at(0.9), at(1.5), at(2.15)], res, [], [0, 1, 2], 0.6, [0.6, 1.3])).toEqual([]);
+  });
+});
+
+describe("crowdedResonances(peaks, resonances)", () => {
+  // One prediction −η·V/(1 − η) matched by two peaks. Where the tip side does not fill the dot a
+  // resonance steps less than its source ((g·r + 1)/(g + r) < 1 for r < 1, closed form).
+  const at = (biasV: number, stepA: number) => ({ biasV, stepA });
+  const two = [{ index: 1, sourceIndex: 0, predictedV: 2.841 }, { index: 2, sourceIndex: 0, predictedV: 2.841 }];
+  it("releases the farther of two peaks whose summed step reaches the source's (a resonance and a level beside it)", () => {
+    expect(crowdedResonances([at(-1.77, 0.4e-12), at(2.841, 0.16e-12), at(2.854, 0.39e-12)], two).map((r) => r.index)).toEqual([2]);
+    // The nearer is kept whichever comes first in the list.
+    expect(crowdedResonances([at(-1.77, 0.4e-12), at(2.83, 0.39e-12), at(2.842, 0.16e-12)], two).map((r) => r.index)).toEqual([1]);
+  });
+  it("keeps both where together they step less than the source (one resonance split by the peak search)", () => {
+    expect(crowdedResonances([at(1.78, 0.46e-12), at(-2.437, 0.08e-12), at(-2.403, 0.06e-12)], [{ index: 1, sourceIndex: 0, predictedV: -2.425 }, { index: 2, sourceIndex: 0, predictedV: -2.425 }])).toEqual([]);
+  });
+  it("does not group a source's other predictions (a second charging peak through the substrate junction)", () => {
+    const set = [{ index: 1, sourceIndex: 0, predictedV: 2.841 }, { index: 2, sourceIndex: 0, predictedV: 3.0 }];
+    expect(crowdedResonances([at(-1.77, 0.4e-12), at(2.841, 0.3e-12), at(3.0, 0.3e-12)], set)).toEqual([]);
   });
 });
 
