@@ -6,6 +6,7 @@ import { expectClose } from "./expectClose.ts";
 import { simulateCurve } from "../../lib/model/simulate.ts";
 import { syntheticSpectrum, SYNTHETIC_DEFAULTS, type SyntheticRegime } from "../../lib/model/syntheticSpectrum.ts";
 import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
+import type { fitCurve } from "../../lib/model/fit/fitCurve.ts";
 
 /** The low-η mix's ranges: the benchmark's defaults with η 0.55–0.65 and the resonances kept. */
 export const LOW_ETA_RANGES = { ...SYNTHETIC_DEFAULTS, eta: [0.55, 0.65] as [number, number], secondJunction: "keep" as const };
@@ -41,4 +42,18 @@ export function expectTrueP(draw: ReturnType<typeof lowEtaDraw>, resonancesV: re
 export function leadResonancesV(draw: Pick<ReturnType<typeof lowEtaDraw>, "truth" | "tolV">): number[] {
   const { truth, tolV } = draw;
   return truth.secondJunctionPeaksV.filter((v) => v > truth.sPeaksV[1] + tolV && v < truth.pPeaksV[0] - tolV);
+}
+
+/**
+ * The accuracy benchmark's bar for an intermediate draw against the simulation's truth: the
+ * regime intermediate, Ec within 3 %, Γtip/Γsub within × 1.5 (common practice, no source), and
+ * a fit that reaches the noise (reduced χ² below FIT_STATUS_DEFAULTS.poorChiSquare, 3).
+ */
+export function expectIntermediateTruth(fit: ReturnType<typeof fitCurve>, draw: Pick<ReturnType<typeof lowEtaDraw>, "scenario" | "truth">): void {
+  const { scenario, truth } = draw;
+  const trueRatio = scenario.tipRatePerS / scenario.substrateRatePerS;
+  expect(fit.regime).toBe("intermediate");
+  expect(Math.abs(fit.chargingEnergyEV.value / truth.chargingEnergyEV - 1)).toBeLessThan(0.03);
+  expect(Math.abs(Math.log(fit.rateRatio.value / trueRatio))).toBeLessThan(Math.log(1.5));
+  expect(fit.reducedChiSquare).toBeLessThan(3);
 }

@@ -74,6 +74,8 @@ export interface CompareContext {
    * Default false.
    */
   crossedSide?: boolean;
+  /** Whether the CB side ends below the curve's end (cut below a VB level's crossing). Default false. */
+  cutSide?: boolean;
 }
 
 /**
@@ -118,7 +120,14 @@ export interface CompareContext {
  *    and 169 → 169, tunnelling 196 → 196 on both; the default and crossover mixes and `bench:fit`
  *    unchanged (its results digest the same). The cost on ten such draws fitted one after
  *    another: model evaluations 55.8k → 65.2k (one, draw 188, now reaches the work budget), time
- *    12.3 → 12.2 s.
+ *    12.3 → 12.2 s. A side cut below the first VB crossing (`cutSide`: it ends before the curve
+ *    does) has the same trouble where its first two CB peaks misplace Ec: there every grouping is
+ *    also started from the VB peaks' spacing (its held hole as before), these starts explored
+ *    after the others in the order of their BIC, so that the first half's drop limit stays the
+ *    groupings' own. Measured with the comparison on the low-η mix, together with note 6 and
+ *    FIT_DEFAULTS.maxEvaluations 15,000 (which the further starts need): intermediate 162 → 170
+ *    of 200 (seeds 1–200), 154 → 157 (1001–1200); shell filling 178 → 178 and 175 → 177,
+ *    tunnelling 196 → 196 on both.
  * 2. The best finishedHypotheses by BIC are finished; a finalist above reduced χ² shiftChiSquare
  *    is retried with its CB starts shifted by ∓Ec ({@link shiftGrouping}).
  * 3. The best refinedGroupings are refined ({@link refineGrouping}, with the split starts at the
@@ -144,6 +153,12 @@ export interface CompareContext {
  *    runs of peaks one level each) may read neither VB level whole (crossover benchmark, seeds
  *    3001–3200: five spectra whose whole curve stayed at reduced χ² 8–37, Ec from the CB side alone
  *    3.2–4.8 % off).
+ * 6. Where no finalist is plausible on the CB side, the next finishedHypotheses groupings
+ *    explored (by BIC, those not finished yet) are finished and looked at in the same way, until
+ *    one decides; with none plausible still, the lowest BIC's whole-curve fit is kept. On a cut
+ *    side the ladders started from the VB peaks' spacing may fit the s doublet to the noise with
+ *    Ec or Γtip/Γsub on a bound and take every finalist's place (low-η draw 1056: the grouping
+ *    that the whole curve reads right was explored but not finished).
  *
  * Example
  * -------
@@ -164,40 +179,69 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
   const holeEntryV = heldHoleEntry(hypotheses[0].analysis.peaks, eta)?.entry.biasV ?? null;
   const vbPeaksV = hypotheses[0].analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
   // On a crossed side the charging ladders are also started from the VB peaks' own spacing (notes 1).
-  const vbEcEV = stage.crossedSide ? valenceSpacingEcEV(vbPeaksV, eta) : null;
+  const vbEcEV = stage.crossedSide || stage.cutSide ? valenceSpacingEcEV(vbPeaksV, eta) : null;
   const gap = WHOLE_CURVE_RESTART_DEFAULTS.minRelativeGap;
   const fromVb = (h: FitHypothesis): FitHypothesis[] =>
     vbEcEV !== null && h.chargingEnergyStartEV !== null && Math.abs(vbEcEV - h.chargingEnergyStartEV) >= gap * h.chargingEnergyStartEV
       ? [{ ...h, chargingEnergyStartEV: vbEcEV, label: `${h.label}, Ec started from the VB peaks' spacing` }]
       : [];
-  for (const h of hypotheses.flatMap((x) => [x, ...fromVb(x)])) {
+  /** The CB-side hypothesis of h (with its held VB levels), or null where it has no CB level or too many states. */
+  const cbSideOfHypothesis = (h: FitHypothesis): FitHypothesis | null => {
     const seeds = h.seeds.filter((x) => x.band === "CB");
     // A side that runs to the curve's end across the VB crossings holds the VB levels' shell
     // reading instead, from the hypothesis' starting Ec.
     const ecStartV = (h.chargingEnergyStartEV ?? peakChargingEnergyEV ?? guessEC) / eta;
     const heldVb = stage.crossedSide ? heldShellLevels(vbPeaksV, ecStartV, eta, topV) : F.cbSideHeldHole ? heldValenceLevels(hypotheses[0].seeds, holeEntryV, eta, topV) : [];
-    if (seeds.length && stateCount(seeds) <= F.maxAssignedStates) cbOnly.set(h, { ...h, seeds, vbReadings: [[]], ...(heldVb.length ? { heldVb } : {}) });
+    return seeds.length && stateCount(seeds) <= F.maxAssignedStates ? { ...h, seeds, vbReadings: [[]], ...(heldVb.length ? { heldVb } : {}) } : null;
+  };
+  const firstRound = stage.crossedSide ? hypotheses.flatMap((x) => [x, ...fromVb(x)]) : hypotheses;
+  for (const h of firstRound) {
+    const hc = cbSideOfHypothesis(h);
+    if (hc) cbOnly.set(h, hc);
   }
   // Explored in two halves: after the first, a start far worse than the best so far (reduced χ²
   // above exploreDropRatio times the best) or already converged is not continued.
   const half = Math.min(explore, F.chunkIterations);
-  const explored: FitTrial[] = [];
-  for (const [h, hc] of cbOnly) {
-    const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
-    for (const logRatio of starts) explored.push(run(hc, logRatio, half, undefined, cbSide));
-  }
-  const bestHalf = Math.min(...explored.map(reduced));
-  explored.forEach((t, i) => {
-    if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
-    const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
-    explored[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
-  });
-  trials.push(...explored);
+  const exploreAll = (entries: [FitHypothesis, FitHypothesis][], bestBefore: number): FitTrial[] => {
+    const out: FitTrial[] = [];
+    for (const [h, hc] of entries) {
+      const starts = h.kind === "assigned" ? [null] : [null, ...(F.extraStartsLog10[h.kind] ?? [])];
+      for (const logRatio of starts) out.push(run(hc, logRatio, half, undefined, cbSide));
+    }
+    const bestHalf = Math.min(bestBefore, ...out.map(reduced));
+    out.forEach((t, i) => {
+      if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
+      const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
+      out[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
+    });
+    return out;
+  };
+  const explored = exploreAll([...cbOnly], Infinity);
   const bestOf = new Map<FitHypothesis, FitTrial>();
-  for (const t of explored) {
-    const b = bestOf.get(t.hypothesis);
-    if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
+  const keepBest = (ts: FitTrial[]) => {
+    for (const t of ts) {
+      const b = bestOf.get(t.hypothesis);
+      if (!b || t.bic < b.bic) bestOf.set(t.hypothesis, t);
+    }
+  };
+  keepBest(explored);
+  if (stage.cutSide && !stage.crossedSide && vbEcEV !== null) {
+    // On a cut side, every grouping also from the VB peaks' spacing, explored after the others in
+    // the order of their BIC (notes 1).
+    const baseOf = new Map([...cbOnly].map(([h, hc]) => [hc, h]));
+    const more: [FitHypothesis, FitHypothesis][] = [];
+    for (const h of [...bestOf.values()].sort((x, y) => x.bic - y.bic).flatMap((t) => fromVb(baseOf.get(t.hypothesis)!))) {
+      const hc = cbSideOfHypothesis(h);
+      if (hc) {
+        cbOnly.set(h, hc);
+        more.push([h, hc]);
+      }
+    }
+    const extra = exploreAll(more, Math.min(...explored.map(reduced)));
+    explored.push(...extra);
+    keepBest(extra);
   }
+  trials.push(...explored);
   const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
   const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
   trials.push(...cbFinals);
@@ -287,14 +331,28 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
   // By CB-side BIC: the first plausible on the CB side whose whole-curve fit is plausible too
   // (or does not describe the curve, then its VB reading is what fails) is the winner; the
   // whole curve is fitted only for the candidates looked at.
-  for (const c of [...cbFinals].sort((x, y) => x.bic - y.bic)) {
-    finals.push(c);
-    if (plausibilityOf(c).length) continue;
+  /** Looks at a CB-side finalist: whether it ends the search (plausible, its whole curve plausible or not describing the curve). */
+  const decides = (c: FitTrial): boolean => {
+    if (plausibilityOf(c).length) return false;
     const whole = wholeFit(c);
     cbSideOf.set(whole, c);
-    if (whole.loop.chiSquare / Math.max(1, whole.n - whole.k) > F.poorFitChiSquare || plausibilityOf(whole).length === 0) break;
+    return whole.loop.chiSquare / Math.max(1, whole.n - whole.k) > F.poorFitChiSquare || plausibilityOf(whole).length === 0;
+  };
+  for (const c of [...cbFinals].sort((x, y) => x.bic - y.bic)) {
+    finals.push(c);
+    if (decides(c)) break;
   }
   for (const c of cbFinals) if (!finals.includes(c)) finals.push(c);
+  if (![...cbSideOf.values()].length) {
+    // None plausible on the CB side: the next groupings explored, finished, until one is (notes 6).
+    const done = new Set(ranked.map((t) => t.hypothesis));
+    for (const t of [...bestOf.values()].sort((x, y) => x.bic - y.bic).filter((x) => !done.has(x.hypothesis)).slice(0, F.finishedHypotheses)) {
+      const c = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 };
+      trials.push(c);
+      finals.push(c);
+      if (decides(c)) break;
+    }
+  }
   if (![...cbSideOf.values()].length) {
     // None plausible on the CB side: the lowest BIC's whole-curve fit, reported as implausible.
     const c = finals.filter((t) => t.side === "CB").reduce((x, y) => (y.bic < x.bic ? y : x));

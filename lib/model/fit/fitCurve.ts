@@ -80,7 +80,7 @@ export interface FitOptions {
  *     V, current in A, current noise in A), assignment and settings.
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
- *     maxEvaluations (default 10,000); timeLimitMs (ms, default none); maxPoints (default 800);
+ *     maxEvaluations (default 15,000); timeLimitMs (ms, default none); maxPoints (default 800);
  *     chargingEnergyGuessEV (eV, default 0.1); compareModels (default false: compare only where
  *     the rules are not decisive). Defaults in {@link FIT_DEFAULTS}.
  *
@@ -325,7 +325,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const crossed = crossedCbSide(analysis.peaks, cbSide.biasV, eta, curveTopV);
   if (compared) {
     const poorOf = (t: FitTrial) => reduced(t) > FIT_STATUS_DEFAULTS.poorChiSquare || structureOf(t).largestZ > FIT_STATUS_DEFAULTS.poorResidualZ;
-    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf, crossedSide: crossed });
+    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf, crossedSide: crossed, cutSide: !crossed && Math.max(...cbSide.biasV) < curveTopV });
   }
   const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
   // The finalists: when groupings were compared, their CB-side fits (all on the same points),
