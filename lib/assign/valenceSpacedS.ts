@@ -48,7 +48,20 @@ export const VALENCE_SPACED_S_DEFAULTS = {
  *    aside as a resonance, those peaks go back to the ladder and the rules read the spectrum again
  *    in shell filling. The new reading stands only if its s is that pair.
  * 3. The pair's partner is the peak whose spacing is nearest the VB doublet's; the pair's first
- *    peak is the lowest CB peak that has one.
+ *    peak is the lowest CB peak that has one. A pure resonance one spacing below a correctly read
+ *    s doublet makes such a pair too (its second peak then s's first): where the reading's s is
+ *    itself two peaks one spacing apart (same tolerance) starting at the pair's second peak, both
+ *    readings fit the VB doublet and the reading stands, the lower peak staying a resonance (its
+ *    step, up to g = 2 × its source's for a doublet, does not tell a level under it apart).
+ * 4. The new reading is that of `assignWith` with the regime set to shell filling and the pair
+ *    kept out of the resonances, then the rounds of `iterateResonances` (its ladder's resonances
+ *    set aside, the pair always kept on the ladder); the regime is then the reading's own
+ *    (`unforced`).
+ * 5. Where the pair's first peak was set aside as a resonance, it must step at least
+ *    `ASSIGN_DEFAULTS.fillingResonanceStepMin` × its source ((g·r + 1)/(g + r) for g = 2 at
+ *    r = 3): a resonance alone of a weakly filling ladder steps less than that, and a charging
+ *    step under it adds about one source step (both bands' edge levels charge through the same
+ *    junctions). A weaker peak is read as the resonance alone and the reading stands.
  *
  * Example
  * -------
@@ -78,6 +91,9 @@ export function withValenceSpacedS(peaks: readonly Peak[], a: Assignment, option
     if (!partners.length) continue;
     const second = partners[0];
     if (!aside.has(first.i) && !aside.has(second.i)) return a;
+    // Note 5: a first peak set aside that steps no more than a resonance of a filling ladder.
+    const firstAside = a.evidence.secondJunction.find((r) => r.index === first.i);
+    if (firstAside && peaks[first.i].stepA < ASSIGN_DEFAULTS.fillingResonanceStepMin * peaks[firstAside.sourceIndex].stepA) return a;
     // Note 3: a reading whose s starts at the pair's second peak one spacing apart stands.
     if (s.peakIndices[0] === second.i && s.peakIndices.length === 2 && Math.abs(peaks[s.peakIndices[1]].biasV - second.v - ecV) <= tolV) return a;
     // Note 4: the pair stays on the ladder through the rounds that set its resonances aside.
