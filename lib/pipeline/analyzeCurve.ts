@@ -10,6 +10,7 @@ import { findPeaks, refineOnCurrent, FIND_PEAKS_DEFAULTS, type Peak, type FindPe
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
+import { withValenceSpacedS } from "../assign/valenceSpacedS.ts";
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
@@ -188,7 +189,8 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    width ({@link peakAreas}); the width is twice the half width at half maximum of the band's
  *    gap-edge peak on its gap side, the one flank no neighbour overlaps.
  * 6. The zero-conductance region ({@link gapEdges}, once, on the final conductance) and the
- *    assignment ({@link assignSpectrum}) — unless the curve shows no dot levels ({@link noLevels}:
+ *    assignment ({@link assignSpectrum}; in shell filling its s doublet then placed one VB doublet
+ *    spacing apart where a resonance set aside hid it, `withValenceSpacedS`) — unless the curve shows no dot levels ({@link noLevels}:
  *    no zero region at 0 V, no peak, or a lone peak); then the assignment is that of no peaks
  *    with `noLevels` set, its reason first among the warnings, and `gapEdgesV` is null.
  * 7. Levels beside second-junction resonances (η given, below 1; the current differentiated):
@@ -325,7 +327,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       return again;
     }
   }
-  let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
+  let assignment = none === null ? withValenceSpacedS(peaks, assignSpectrum(peaks, { eta, regime: options.regime }), { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const w = peakWidthMV / 1000;
   let curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
   const resonancesOf = (list: readonly Pick<Peak, "biasV">[], a: Assignment) => (eta !== undefined && eta < 1 ? predictedResonancesV(list, a, eta, w) : []);
@@ -334,7 +336,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const reread = (next: readonly Peak[]) => {
     const nextAreas = bandAreas(signal.biasV, curveIn.didvS, next);
     const nextPeaks = withSweeps(next, nextAreas, sweeps.length, sweepPeaks);
-    return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: assignSpectrum(nextPeaks, { eta, regime: options.regime }) };
+    return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: withValenceSpacedS(nextPeaks, assignSpectrum(nextPeaks, { eta, regime: options.regime }), { eta, regime: options.regime }) };
   };
   // What note 9 took out of the current, where it was kept.
   let subtracted: SubtractedResonances | null = null;

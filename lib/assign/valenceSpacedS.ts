@@ -1,0 +1,112 @@
+/**
+ * The s doublet of a shell-filling reading placed one VB doublet spacing apart, where the
+ * second-junction resonances set aside hid it.
+ */
+import type { Peak } from "../peaks/findPeaks.ts";
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
+import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
+import { assignWith } from "./assignWith.ts";
+import { iterateResonances } from "./iterateResonances.ts";
+import type { SecondJunctionResonance } from "./secondJunction.ts";
+import { unforced } from "./substrateReadings.ts";
+
+/** Defaults of {@link withValenceSpacedS}. */
+export const VALENCE_SPACED_S_DEFAULTS = {
+  /** Largest |CB pair spacing − VB doublet spacing| over the VB doublet spacing for the pair to be the s doublet. */
+  spacingTolerance: ASSIGN_DEFAULTS.valenceChargingTolerance,
+};
+
+/**
+ * A shell-filling assignment with its s doublet moved to the lowest CB pair one VB doublet
+ * spacing apart that holds a peak set aside as a second-junction resonance; the assignment
+ * unchanged where there is none or the rules do not read that pair as s.
+ *
+ * Parameters
+ * ----------
+ * peaks : readonly Peak[]
+ *     The peaks of one curve (`biasV` in V, `stepA` in A), as given to `assignSpectrum`.
+ * a : Assignment
+ *     `assignSpectrum`'s reading of them.
+ * options : AssignOptions
+ *     As given to `assignSpectrum`.
+ *
+ * Returns
+ * -------
+ * Assignment
+ *     The reading with the s doublet at that pair, or `a`.
+ *
+ * Notes
+ * -----
+ * 1. In shell filling the tip junction sets both bands' charging ladders: the VB's first two
+ *    peaks and the CB's s doublet are both one Ec/η apart in bias. The VB doublet spacing is that
+ *    of the two VB peaks nearest 0 V not set aside as resonances.
+ * 2. A plain resonance −η·V/(1 − η) of a VB edge level can fall on an s charging peak; the
+ *    summed peak is then set aside whole and s is read from the next peaks (often p's), which
+ *    lie above the first CB peak. So where the lowest CB pair (every CB peak counted, the set-aside
+ *    ones too) spaced one VB doublet spacing apart within
+ *    `VALENCE_SPACED_S_DEFAULTS.spacingTolerance` starts below the reading's s and holds a peak set
+ *    aside as a resonance, those peaks go back to the ladder and the rules read the spectrum again
+ *    in shell filling. The new reading stands only if its s is that pair.
+ * 3. The pair's partner is the peak whose spacing is nearest the VB doublet's; the pair's first
+ *    peak is the lowest CB peak that has one. A pure resonance one spacing below a correctly read
+ *    s doublet makes such a pair too (its second peak then s's first): where the reading's s is
+ *    itself two peaks one spacing apart (same tolerance) starting at the pair's second peak, both
+ *    readings fit the VB doublet and the reading stands, the lower peak staying a resonance (its
+ *    step, up to g = 2 × its source's for a doublet, does not tell a level under it apart).
+ * 4. The new reading is that of `assignWith` with the regime set to shell filling and the pair
+ *    kept out of the resonances, then the rounds of `iterateResonances` (its ladder's resonances
+ *    set aside, the pair always kept on the ladder); the regime is then the reading's own
+ *    (`unforced`).
+ * 5. Where the pair's first peak was set aside as a resonance, it must step at least
+ *    `ASSIGN_DEFAULTS.fillingResonanceStepMin` × its source ((g·r + 1)/(g + r) for g = 2 at
+ *    r = 3): a resonance alone of a weakly filling ladder steps less than that, and a charging
+ *    step under it adds about one source step (both bands' edge levels charge through the same
+ *    junctions). A weaker peak is read as the resonance alone and the reading stands.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const a = assignSpectrum(peaks, { eta: 0.6 });
+ * withValenceSpacedS(peaks, a, { eta: 0.6 }).multiplets.find((m) => m.label === "s")?.peaksV;
+ * ```
+ */
+export function withValenceSpacedS(peaks: readonly Peak[], a: Assignment, options: AssignOptions): Assignment {
+  if (a.regime !== "shell-filling" || options.regime !== undefined) return a;
+  const eta = a.energies.eta;
+  if (!(eta < 1) || !a.energies.etaGiven) return a;
+  const s = a.multiplets.find((m) => m.band === "CB" && m.label === "s");
+  if (!s || !s.peakIndices.length) return a;
+  const aside = new Set(a.evidence.secondJunction.map((r) => r.index));
+  // Note 1: the VB doublet spacing.
+  const vb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v, i }) => v < 0 && !aside.has(i)).sort((x, y) => y.v - x.v);
+  if (vb.length < 2) return a;
+  const ecV = vb[0].v - vb[1].v;
+  const tolV = VALENCE_SPACED_S_DEFAULTS.spacingTolerance * ecV;
+  const sFirstV = Math.min(...s.peakIndices.map((i) => peaks[i].biasV));
+  const cb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v }) => v > 0).sort((x, y) => x.v - y.v);
+  // Notes 2–3: the lowest CB peak below s with a partner one spacing above it.
+  for (const first of cb) {
+    if (first.v >= sFirstV) return a;
+    const partners = cb.filter((c) => Math.abs(c.v - first.v - ecV) <= tolV).sort((x, y) => Math.abs(x.v - first.v - ecV) - Math.abs(y.v - first.v - ecV));
+    if (!partners.length) continue;
+    const second = partners[0];
+    if (!aside.has(first.i) && !aside.has(second.i)) return a;
+    // Note 5: a first peak set aside that steps no more than a resonance of a filling ladder.
+    const firstAside = a.evidence.secondJunction.find((r) => r.index === first.i);
+    if (firstAside && peaks[first.i].stepA < ASSIGN_DEFAULTS.fillingResonanceStepMin * peaks[firstAside.sourceIndex].stepA) return a;
+    // Note 3: a reading whose s starts at the pair's second peak one spacing apart stands.
+    if (s.peakIndices[0] === second.i && s.peakIndices.length === 2 && Math.abs(peaks[s.peakIndices[1]].biasV - second.v - ecV) <= tolV) return a;
+    // Note 4: the pair stays on the ladder through the rounds that set its resonances aside.
+    const onLadder = (r: SecondJunctionResonance) => r.index !== first.i && r.index !== second.i;
+    const again = (p: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(p, eta, true, r.filter(onLadder), { ...options, regime: "shell-filling" });
+    const out = iterateResonances(peaks, again(peaks, a.evidence.secondJunction), eta, again);
+    unforced(out);
+    const sOut = out.multiplets.find((m) => m.band === "CB" && m.label === "s");
+    if (!sOut || sOut.peakIndices.length !== 2 || sOut.peakIndices[0] !== first.i || sOut.peakIndices[1] !== second.i) return a;
+    out.evidence.reasons.unshift(
+      `the peaks at ${first.v.toFixed(3)} and ${second.v.toFixed(3)} V, the lowest CB pair one VB doublet spacing (${ecV.toFixed(3)} V) apart, read as the s doublet: a second-junction resonance set aside there hid it (the reading had s from ${sFirstV.toFixed(3)} V)`,
+    );
+    return out;
+  }
+  return a;
+}
