@@ -66,8 +66,8 @@ export const VALENCE_SPACED_S_DEFAULTS = {
  * Example
  * -------
  * ```ts
- * const a = assignSpectrum(peaks, { eta: 0.6 });
- * withValenceSpacedS(peaks, a, { eta: 0.6 }).multiplets.find((m) => m.label === "s")?.peaksV;
+ * // assignSpectrum applies it to its own reading (its note 9); on a reading made otherwise:
+ * withValenceSpacedS(peaks, reading, { eta: 0.6 }).multiplets.find((m) => m.label === "s")?.peaksV;
  * ```
  */
 export function withValenceSpacedS(peaks: readonly Peak[], a: Assignment, options: AssignOptions): Assignment {

@@ -10,7 +10,6 @@ import { findPeaks, refineOnCurrent, FIND_PEAKS_DEFAULTS, type Peak, type FindPe
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
-import { withValenceSpacedS } from "../assign/valenceSpacedS.ts";
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
@@ -327,7 +326,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
       return again;
     }
   }
-  let assignment = none === null ? withValenceSpacedS(peaks, assignSpectrum(peaks, { eta, regime: options.regime }), { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
+  let assignment = none === null ? assignSpectrum(peaks, { eta, regime: options.regime }) : noLevelsAssignment(none, eta, options.regime);
   const w = peakWidthMV / 1000;
   let curveIn = { biasV: signal.biasV, currentA: signal.currentA, didvS: signal.didvS, noiseA: Math.max(signal.record.noiseCurrentA, Number.MIN_VALUE), noiseS: Math.max(signal.record.noiseConductanceS, Number.MIN_VALUE), floorV: FIND_PEAKS_DEFAULTS.positionFloorPerFwhm * w };
   const resonancesOf = (list: readonly Pick<Peak, "biasV">[], a: Assignment) => (eta !== undefined && eta < 1 ? predictedResonancesV(list, a, eta, w) : []);
@@ -336,7 +335,7 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
   const reread = (next: readonly Peak[]) => {
     const nextAreas = bandAreas(signal.biasV, curveIn.didvS, next);
     const nextPeaks = withSweeps(next, nextAreas, sweeps.length, sweepPeaks);
-    return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: withValenceSpacedS(nextPeaks, assignSpectrum(nextPeaks, { eta, regime: options.regime }), { eta, regime: options.regime }) };
+    return { list: next, areas: nextAreas, peaks: nextPeaks, assignment: assignSpectrum(nextPeaks, { eta, regime: options.regime }) };
   };
   // What note 9 took out of the current, where it was kept.
   let subtracted: SubtractedResonances | null = null;
