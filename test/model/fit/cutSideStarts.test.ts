@@ -2,7 +2,8 @@
 // started from the VB peaks' own spacing, the next groupings finished where no finalist is
 // plausible, and the work budget a low-η comparison needs. Each case is a draw of the accuracy
 // benchmark's low-η mix (syntheticSpectrum, simulated by the fast model): the truth is the
-// simulation's own parameters, the bar the benchmark's for intermediate spectra.
+// simulation's own parameters, the bar the benchmark's for intermediate spectra (Ec within 3 %,
+// Γtip/Γsub within × 1.5: the project's quality bar, common practice, no source).
 import { describe, it, expect } from "vitest";
 import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
 import { cbSideEndV } from "../../../lib/model/fit/cbSideEnd.ts";
