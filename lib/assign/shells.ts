@@ -4,7 +4,6 @@
  */
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import type { BandPeak } from "./bandPeaks.ts";
-import { replacesCrowded } from "./crowdedCharging.ts";
 
 /** The shells of the conduction band, in filling order, with their degeneracy (spin included). */
 export const SHELLS = Object.freeze([
@@ -48,9 +47,7 @@ export interface FillingShells {
  * 2. For each further shell (p, d, f with g = 6, 10, 14): candidates are the peaks up to the
  *    jump that opens the next shell, a jump whose excess over Ec is more than
  *    `ASSIGN_DEFAULTS.newShellExcessFraction` × the s→p excess. A peak closer than
- *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder, unless it
- *    lies nearer one Ec beyond the shell's peak before that one and steps like a charging peak
- *    beside it (`replacesCrowded`): then the previous peak is off the ladder in its place. A first
+ *    `minLadderSpacingFraction`·Ec to the previous charging peak is off the ladder. A first
  *    candidate within (1 + `subgroupExtraMin`)·Ec of the next on the ladder (past weaker peaks
  *    closer than `minLadderSpacingFraction`·Ec; else the next peak) and weaker than
  *    `leadingSatelliteRatioMax` × its step is the shell's level entered early (before the shell
@@ -113,10 +110,7 @@ export function fillingShells(cb: readonly BandPeak[], pGiven?: ReadonlySet<numb
     for (; k < cb.length; k++) {
       const d = cb[k].x - prev.x;
       if (d < D.minLadderSpacingFraction * ec0) {
-        // Of the two, the one nearer one Ec beyond the shell's peak before them (stepping like a charging peak) is on the ladder.
-        const swap = run.length >= 2 && replacesCrowded(run[run.length - 2].x, prev, cb[k], ec0);
-        offLadder.push(swap ? prev : cb[k]);
-        if (swap) run[run.length - 1] = prev = cb[k];
+        offLadder.push(cb[k]);
         continue;
       }
       if (run.length === 0) {
