@@ -176,7 +176,11 @@ export interface Assignment {
  * 9. A shell-filling reading that the rules made unasked (η given, below 1) has its s doublet
  *    moved to the lowest CB pair one VB doublet spacing apart that starts below s and holds a
  *    peak set aside as a resonance (`withValenceSpacedS`: a VB edge level's resonance on an s
- *    charging peak hid it).
+ *    charging peak hid it). Another reading is read again in shell filling where the VB's main
+ *    peaks read as a charging doublet whose second step is at least
+ *    `D.valenceDoubletStepRatioMin` × the first and, with the lowest pair of ladder CB peaks one
+ *    VB doublet spacing apart kept as s, the rules read shell filling unasked with s there (s's
+ *    second peak merged with, or weak beside, a resonance read the next peak as p).
  *
  * References
  * ----------

@@ -40,7 +40,7 @@ export function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: bo
  * The VB main peaks of a reading that is not shell filling (each of its VB groups is one main
  * peak), from the gap edge outward (`x` = |bias|, V).
  */
-function firstValencePeaks(peaks: readonly Peak[], first: Assignment): BandPeak[] {
+export function firstValencePeaks(peaks: readonly Peak[], first: Assignment): BandPeak[] {
   return first.multiplets
     .filter((m) => m.band === "VB")
     .flatMap((m) => m.peakIndices)

@@ -1,6 +1,7 @@
 /**
  * The s doublet of a shell-filling reading placed one VB doublet spacing apart, where the
- * second-junction resonances set aside hid it.
+ * second-junction resonances set aside hid it; and a reading that is not shell filling read so
+ * from that pair where the VB reads as a charging doublet.
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
@@ -8,7 +9,8 @@ import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
 import { assignWith } from "./assignWith.ts";
 import { iterateResonances } from "./iterateResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
-import { unforced } from "./substrateReadings.ts";
+import { valenceFillingDoublet } from "./regime.ts";
+import { firstValencePeaks, unforced } from "./substrateReadings.ts";
 
 /** Defaults of {@link withValenceSpacedS}. */
 export const VALENCE_SPACED_S_DEFAULTS = {
@@ -18,8 +20,9 @@ export const VALENCE_SPACED_S_DEFAULTS = {
 
 /**
  * A shell-filling assignment with its s doublet moved to the lowest CB pair one VB doublet
- * spacing apart that holds a peak set aside as a second-junction resonance; the assignment
- * unchanged where there is none or the rules do not read that pair as s.
+ * spacing apart that holds a peak set aside as a second-junction resonance; another reading
+ * made shell filling from the lowest such pair of ladder peaks where the VB reads as a charging
+ * doublet; the assignment unchanged where there is none or the rules do not read that pair as s.
  *
  * Parameters
  * ----------
@@ -62,6 +65,19 @@ export const VALENCE_SPACED_S_DEFAULTS = {
  *    r = 3): a resonance alone of a weakly filling ladder steps less than that, and a charging
  *    step under it adds about one source step (both bands' edge levels charge through the same
  *    junctions). A weaker peak is read as the resonance alone and the reading stands.
+ * 6. A reading that is not shell filling (s's second peak merged with a resonance beside it, or
+ *    weak beside one, so that the next strong peak read as p at many times s's step) is read
+ *    again in shell filling where the VB's main peaks read as a charging doublet
+ *    (`valenceFillingDoublet`) whose second step is at least
+ *    `ASSIGN_DEFAULTS.valenceDoubletStepRatioMin` × the first (r/(1 + r) at r = 3, the bar
+ *    `assignSpectrum` sets where the VB doublet alone says shell filling). The pair is the lowest
+ *    CB peak not set aside as a resonance that has a partner one VB doublet spacing apart (as in
+ *    note 3), with that partner; from the shell-filling reading with the pair kept out of the
+ *    resonances, the rounds of `iterateResonances` run with the rules unasked (the pair always
+ *    kept on the ladder), and the new reading stands only if those rules read shell filling with
+ *    s at that pair.
+ * 7. With the second-junction stage off (`options.secondJunction` false) the reading is returned
+ *    unchanged: both steps read peaks against that stage's resonances.
  *
  * Example
  * -------
@@ -71,25 +87,23 @@ export const VALENCE_SPACED_S_DEFAULTS = {
  * ```
  */
 export function withValenceSpacedS(peaks: readonly Peak[], a: Assignment, options: AssignOptions): Assignment {
-  if (a.regime !== "shell-filling" || options.regime !== undefined) return a;
+  if (options.regime !== undefined || !(options.secondJunction ?? ASSIGN_DEFAULTS.secondJunction)) return a;
   const eta = a.energies.eta;
   if (!(eta < 1) || !a.energies.etaGiven) return a;
+  if (a.regime !== "shell-filling") return fillingFromValenceDoublet(peaks, a, options);
   const s = a.multiplets.find((m) => m.band === "CB" && m.label === "s");
   if (!s || !s.peakIndices.length) return a;
   const aside = new Set(a.evidence.secondJunction.map((r) => r.index));
-  // Note 1: the VB doublet spacing.
-  const vb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v, i }) => v < 0 && !aside.has(i)).sort((x, y) => y.v - x.v);
-  if (vb.length < 2) return a;
-  const ecV = vb[0].v - vb[1].v;
-  const tolV = VALENCE_SPACED_S_DEFAULTS.spacingTolerance * ecV;
+  const spaced = valenceSpacing(peaks, aside);
+  if (!spaced) return a;
+  const { ecV, cb, partnerOf } = spaced;
   const sFirstV = Math.min(...s.peakIndices.map((i) => peaks[i].biasV));
-  const cb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v }) => v > 0).sort((x, y) => x.v - y.v);
+  const tolV = VALENCE_SPACED_S_DEFAULTS.spacingTolerance * ecV;
   // Notes 2–3: the lowest CB peak below s with a partner one spacing above it.
   for (const first of cb) {
     if (first.v >= sFirstV) return a;
-    const partners = cb.filter((c) => Math.abs(c.v - first.v - ecV) <= tolV).sort((x, y) => Math.abs(x.v - first.v - ecV) - Math.abs(y.v - first.v - ecV));
-    if (!partners.length) continue;
-    const second = partners[0];
+    const second = partnerOf(first);
+    if (!second) continue;
     if (!aside.has(first.i) && !aside.has(second.i)) return a;
     // Note 5: a first peak set aside that steps no more than a resonance of a filling ladder.
     const firstAside = a.evidence.secondJunction.find((r) => r.index === first.i);
@@ -109,4 +123,48 @@ export function withValenceSpacedS(peaks: readonly Peak[], a: Assignment, option
     return out;
   }
   return a;
+}
+
+/**
+ * Note 1 of {@link withValenceSpacedS}: the VB doublet spacing `ecV` (V) of the two VB peaks
+ * nearest 0 V not set aside, the CB peaks (all, from 0 V up) and each one's partner one spacing
+ * above it (note 3); null with fewer than two such VB peaks.
+ */
+function valenceSpacing(peaks: readonly Peak[], aside: ReadonlySet<number>) {
+  const vb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v, i }) => v < 0 && !aside.has(i)).sort((x, y) => y.v - x.v);
+  if (vb.length < 2) return null;
+  const ecV = vb[0].v - vb[1].v;
+  const tolV = VALENCE_SPACED_S_DEFAULTS.spacingTolerance * ecV;
+  const cb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v }) => v > 0).sort((x, y) => x.v - y.v);
+  const off = (c: { v: number }, first: { v: number }) => Math.abs(c.v - first.v - ecV);
+  const partnerOf = (first: { v: number; i: number }) => cb.filter((c) => off(c, first) <= tolV).sort((x, y) => off(x, first) - off(y, first))[0];
+  return { ecV, cb, partnerOf };
+}
+
+/**
+ * Note 6 of {@link withValenceSpacedS}: a reading that is not shell filling, read in shell
+ * filling from the lowest pair of ladder CB peaks one VB doublet spacing apart where the VB
+ * reads as a charging doublet and the rules, unasked, read s there; otherwise `a`.
+ */
+function fillingFromValenceDoublet(peaks: readonly Peak[], a: Assignment, options: AssignOptions): Assignment {
+  const eta = a.energies.eta;
+  const doublet = valenceFillingDoublet(firstValencePeaks(peaks, a));
+  if (!doublet || doublet.stepRatio < ASSIGN_DEFAULTS.valenceDoubletStepRatioMin) return a;
+  const aside = new Set(a.evidence.secondJunction.map((r) => r.index));
+  const spaced = valenceSpacing(peaks, aside);
+  if (!spaced) return a;
+  const first = spaced.cb.find((c) => !aside.has(c.i) && spaced.partnerOf(c));
+  if (!first) return a;
+  const second = spaced.partnerOf(first)!;
+  const onLadder = (r: SecondJunctionResonance) => r.index !== first.i && r.index !== second.i;
+  const forced = assignWith(peaks, eta, true, a.evidence.secondJunction.filter(onLadder), { ...options, regime: "shell-filling" });
+  const out = iterateResonances(peaks, forced, eta, (p, r) => assignWith(p, eta, true, r.filter(onLadder), options));
+  if (out === forced || out.regime !== "shell-filling") return a;
+  const sOut = out.multiplets.find((m) => m.band === "CB" && m.label === "s");
+  if (!sOut || sOut.peakIndices.length !== 2 || sOut.peakIndices[0] !== first.i || sOut.peakIndices[1] !== second.i) return a;
+  unforced(out);
+  out.evidence.reasons.unshift(
+    `read as shell filling (the first reading, ${a.regime}): the VB's first two main peaks step alike (ratio ${doublet.stepRatio.toFixed(2)} ≥ ${ASSIGN_DEFAULTS.valenceDoubletStepRatioMin.toFixed(2)}) with a jump of ${doublet.jumpRatio.toFixed(2)} × their spacing to the next, a charging doublet, and with the peaks at ${first.v.toFixed(3)} and ${second.v.toFixed(3)} V, the lowest CB pair one VB doublet spacing (${spaced.ecV.toFixed(3)} V) apart, kept as the s doublet the rules read shell filling unasked`,
+  );
+  return out;
 }
