@@ -188,8 +188,8 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    width ({@link peakAreas}); the width is twice the half width at half maximum of the band's
  *    gap-edge peak on its gap side, the one flank no neighbour overlaps.
  * 6. The zero-conductance region ({@link gapEdges}, once, on the final conductance) and the
- *    assignment ({@link assignSpectrum}; in shell filling its s doublet then placed one VB doublet
- *    spacing apart where a resonance set aside hid it, `withValenceSpacedS`) — unless the curve shows no dot levels ({@link noLevels}:
+ *    assignment ({@link assignSpectrum}, whose last step places s one VB doublet spacing apart
+ *    where a resonance hid it, its note 9) — unless the curve shows no dot levels ({@link noLevels}:
  *    no zero region at 0 V, no peak, or a lone peak); then the assignment is that of no peaks
  *    with `noLevels` set, its reason first among the warnings, and `gapEdgesV` is null.
  * 7. Levels beside second-junction resonances (η given, below 1; the current differentiated):
