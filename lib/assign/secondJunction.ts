@@ -146,12 +146,14 @@ function positionSigma(p: Pick<Peak, "biasUncertaintyV" | "fwhmV">): number {
 /**
  * How far a peak may lie from the resonance a source predicts and still be taken for it, V:
  * max(toleranceSigma·σ, toleranceFwhmFraction·FWHM of the peak), σ combining the peak's position
- * σ with the source's scaled by `gain` = η/(1 − η), each at most half its FWHM
+ * σ with the source's scaled by `gain` = η/(1 − η), each at most half its FWHM, and with
+ * `extraSigmaV` (V; default 0), the σ of any further term of the prediction
  * (`SECOND_JUNCTION_DEFAULTS`; note 2 of {@link secondJunctionResonances}).
  */
-export function matchToleranceV(source: Pick<Peak, "biasUncertaintyV" | "fwhmV">, peak: Pick<Peak, "biasUncertaintyV" | "fwhmV">, gain: number): number {
+export function matchToleranceV(source: Pick<Peak, "biasUncertaintyV" | "fwhmV">, peak: Pick<Peak, "biasUncertaintyV" | "fwhmV">, gain: number, extraSigmaV = 0): number {
   const D = SECOND_JUNCTION_DEFAULTS;
-  const sigma = Math.hypot(gain * positionSigma(source), positionSigma(peak));
+  // Two terms where there is no third: Math.hypot's compensated sum can move the last bit with a 0 added.
+  const sigma = extraSigmaV ? Math.hypot(gain * positionSigma(source), positionSigma(peak), extraSigmaV) : Math.hypot(gain * positionSigma(source), positionSigma(peak));
   return Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * peak.fwhmV);
 }
 
@@ -372,8 +374,7 @@ export function deeperChargingResonances(peaks: readonly Peak[], resonances: rea
         const spacingSigmaV = k * Math.hypot(positionSigma(peaks[c.index]), positionSigma(peaks[first.index]));
         let best = -1;
         peaks.forEach((p, i) => {
-          const D = SECOND_JUNCTION_DEFAULTS;
-          const tolV = Math.max(D.toleranceSigma * Math.hypot(gain * positionSigma(src), positionSigma(p), spacingSigmaV), D.toleranceFwhmFraction * p.fwhmV);
+          const tolV = matchToleranceV(src, p, gain, spacingSigmaV);
           if (taken.has(i) || Math.sign(p.biasV) !== side || Math.abs(p.biasV - predictedV) > tolV) return;
           if (p.stepA < stepRatio[0] * peaks[c.index].stepA || p.stepA > stepRatio[1] * peaks[c.index].stepA) return;
           if (best < 0 || Math.abs(p.biasV - predictedV) < Math.abs(peaks[best].biasV - predictedV)) best = i;

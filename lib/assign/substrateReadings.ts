@@ -40,12 +40,32 @@ export function valenceDoublet(peaks: readonly Peak[], eta: number, etaGiven: bo
  * The VB main peaks of a reading that is not shell filling (each of its VB groups is one main
  * peak), from the gap edge outward (`x` = |bias|, V).
  */
-export function firstValencePeaks(peaks: readonly Peak[], first: Assignment): BandPeak[] {
+function firstValencePeaks(peaks: readonly Peak[], first: Assignment): BandPeak[] {
   return first.multiplets
     .filter((m) => m.band === "VB")
     .flatMap((m) => m.peakIndices)
     .map((index) => ({ peak: peaks[index], x: -peaks[index].biasV, index }))
     .sort((a, b) => a.x - b.x);
+}
+
+/**
+ * The VB's first main peaks of a reading that is not shell filling as a charging doublet
+ * (`valenceFillingDoublet`) whose second step is at least `ASSIGN_DEFAULTS.valenceDoubletStepRatioMin`
+ * × its first (r/(1 + r) at r = 3, twice the filling limit): the bar where the VB doublet alone
+ * says shell filling; null where the VB does not read so.
+ */
+export function strongValenceDoublet(peaks: readonly Peak[], first: Assignment): { stepRatio: number; jumpRatio: number } | null {
+  const doublet = valenceFillingDoublet(firstValencePeaks(peaks, first));
+  return doublet === null || doublet.stepRatio < ASSIGN_DEFAULTS.valenceDoubletStepRatioMin ? null : doublet;
+}
+
+/**
+ * The VB doublet spacing, V: the bias between the two VB peaks nearest 0 V whose indices are not
+ * in `aside` (the peaks set aside as resonances); null with fewer than two.
+ */
+export function valenceDoubletSpacingV(peaks: readonly Peak[], aside: ReadonlySet<number>): number | null {
+  const vb = peaks.filter((p, i) => p.biasV < 0 && !aside.has(i)).map((p) => p.biasV).sort((x, y) => y - x);
+  return vb.length < 2 ? null : vb[0] - vb[1];
 }
 
 /** The assignment with the plain −η·V/(1 − η) candidates as the first guess of the resonances (steps 1–7). */
@@ -349,14 +369,13 @@ function hiddenDoublet(peaks: readonly Peak[], eta: number, etaGiven: boolean, c
   const resonance = bandEdgeResonanceRatio(peaks, candidates);
   const strong = resonance !== null && resonance.ratio >= D.fillingResonanceStepMin;
   // Note 2: without strong resonances, the VB's charging doublet must say shell filling.
-  const doublet = strong ? null : valenceFillingDoublet(firstValencePeaks(peaks, first));
-  if (!strong && (doublet === null || doublet.stepRatio < D.valenceDoubletStepRatioMin)) return null;
+  const doublet = strong ? null : strongValenceDoublet(peaks, first);
+  if (!strong && doublet === null) return null;
   // Ec from the VB doublet (the gap-edge pair of VB peaks that are not resonances).
   const taken = new Set(candidates.map((c) => c.index));
-  const vb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV < 0 && !taken.has(i)).sort((a, b) => b.p.biasV - a.p.biasV);
   const cb = peaks.map((p, i) => ({ p, i })).filter(({ p, i }) => p.biasV > 0 && !taken.has(i)).sort((a, b) => a.p.biasV - b.p.biasV);
-  if (vb.length < 2 || !cb.length) return null;
-  const ecV = vb[0].p.biasV - vb[1].p.biasV;
+  const ecV = valenceDoubletSpacingV(peaks, taken);
+  if (ecV === null || !cb.length) return null;
   const tol = ASSIGN_DEFAULTS.valenceChargingTolerance * ecV;
   const near = (v: number) => candidates.find((c) => Math.abs(peaks[c.index].biasV - v) <= tol);
   // The s doublet's second peak one Ec above the first CB peak, else its first one Ec below it.

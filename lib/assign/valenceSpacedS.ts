@@ -9,8 +9,7 @@ import type { Assignment, AssignOptions } from "./assignSpectrum.ts";
 import { assignWith } from "./assignWith.ts";
 import { iterateResonances } from "./iterateResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
-import { valenceFillingDoublet } from "./regime.ts";
-import { firstValencePeaks, unforced } from "./substrateReadings.ts";
+import { strongValenceDoublet, unforced, valenceDoubletSpacingV } from "./substrateReadings.ts";
 
 /** Defaults of {@link withValenceSpacedS}. */
 export const VALENCE_SPACED_S_DEFAULTS = {
@@ -131,9 +130,8 @@ export function withValenceSpacedS(peaks: readonly Peak[], a: Assignment, option
  * above it (note 3); null with fewer than two such VB peaks.
  */
 function valenceSpacing(peaks: readonly Peak[], aside: ReadonlySet<number>) {
-  const vb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v, i }) => v < 0 && !aside.has(i)).sort((x, y) => y.v - x.v);
-  if (vb.length < 2) return null;
-  const ecV = vb[0].v - vb[1].v;
+  const ecV = valenceDoubletSpacingV(peaks, aside);
+  if (ecV === null) return null;
   const tolV = VALENCE_SPACED_S_DEFAULTS.spacingTolerance * ecV;
   const cb = peaks.map((p, i) => ({ v: p.biasV, i })).filter(({ v }) => v > 0).sort((x, y) => x.v - y.v);
   const off = (c: { v: number }, first: { v: number }) => Math.abs(c.v - first.v - ecV);
@@ -148,8 +146,8 @@ function valenceSpacing(peaks: readonly Peak[], aside: ReadonlySet<number>) {
  */
 function fillingFromValenceDoublet(peaks: readonly Peak[], a: Assignment, options: AssignOptions): Assignment {
   const eta = a.energies.eta;
-  const doublet = valenceFillingDoublet(firstValencePeaks(peaks, a));
-  if (!doublet || doublet.stepRatio < ASSIGN_DEFAULTS.valenceDoubletStepRatioMin) return a;
+  const doublet = strongValenceDoublet(peaks, a);
+  if (!doublet) return a;
   const aside = new Set(a.evidence.secondJunction.map((r) => r.index));
   const spaced = valenceSpacing(peaks, aside);
   if (!spaced) return a;
