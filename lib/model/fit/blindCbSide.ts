@@ -58,8 +58,7 @@ export interface BlindSidePeak {
  * ```
  */
 export function blindCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayLike<number>, maxPeaks: number, curveTopV: number): boolean {
-  let topV = -Infinity;
-  for (let i = 0; i < cbSideBiasV.length; i++) topV = Math.max(topV, cbSideBiasV[i]);
+  const topV = cbSideTopV(cbSideBiasV);
   if (!(topV < curveTopV)) return false;
   return peaks.filter((p) => p.biasV > 0 && p.biasV <= topV && p.role !== "second-junction").length <= maxPeaks;
 }
@@ -118,9 +117,7 @@ export function blindCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayL
  */
 export function crossedCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: ArrayLike<number>, eta: number, curveTopV: number): boolean {
   if (!(eta < 1)) return false;
-  let topV = -Infinity;
-  for (let i = 0; i < cbSideBiasV.length; i++) topV = Math.max(topV, cbSideBiasV[i]);
-  if (topV < curveTopV) return false;
+  if (cbSideTopV(cbSideBiasV) < curveTopV) return false;
   const nearest = peaks.filter((p) => p.biasV < 0 && p.role !== "second-junction").sort((a, b) => b.biasV - a.biasV)[0];
   return nearest !== undefined && (eta * -nearest.biasV) / (1 - eta) < curveTopV;
 }
@@ -180,4 +177,11 @@ export function wholeCurveChoice(candidates: readonly FitTrial[], wholeOf: (t: F
     if (!chosen || whole.bic < wholeBic.get(chosen)!) chosen = cb;
   }
   return { chosen, wholeBic };
+}
+
+/** The highest bias of a CB side's points, V (−∞ for none): below the curve's top the side is cut. */
+export function cbSideTopV(cbSideBiasV: ArrayLike<number>): number {
+  let topV = -Infinity;
+  for (let i = 0; i < cbSideBiasV.length; i++) topV = Math.max(topV, cbSideBiasV[i]);
+  return topV;
 }

@@ -28,7 +28,7 @@ import { fitVerdict } from "./fitVerdict.ts";
 import { compareGroupings } from "./compareGroupings.ts";
 import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
-import { blindCbSide, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
+import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
@@ -325,7 +325,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const crossed = crossedCbSide(analysis.peaks, cbSide.biasV, eta, curveTopV);
   if (compared) {
     const poorOf = (t: FitTrial) => reduced(t) > FIT_STATUS_DEFAULTS.poorChiSquare || structureOf(t).largestZ > FIT_STATUS_DEFAULTS.poorResidualZ;
-    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf, crossedSide: crossed, cutSide: !crossed && Math.max(...cbSide.biasV) < curveTopV });
+    wholeFitOf = compareGroupings({ hypotheses, run, cbSide, reduced, trials, finals, cbSideOf, plausibilityOf, eta, maxIterations, exploreIterations: explore, chargingEnergyGuessEV: guessEC, peakChargingEnergyEV: peakChargingEnergy(analysis, eta)?.valueEV ?? null, limits: F, poorOf, crossedSide: crossed, cutSide: cbSideTopV(cbSide.biasV) < curveTopV });
   }
   const poor = (t: FitTrial) => reduced(t) > F.poorFitChiSquare;
   // The finalists: when groupings were compared, their CB-side fits (all on the same points),
