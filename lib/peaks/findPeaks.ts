@@ -246,6 +246,10 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    refined on the current (note 4) and kept at t ≥ minStepSigma, then refined itself. Its height
  *    and step are those of a Gaussian with that curvature at the expected width, its prominence at
  *    most that of the peak beside it.
+ * 10. Near an end of the curve, which cuts the ±3 FWHM window of notes 3, 8 and 9, the fit is also
+ *    made over the end's last STEP_TEST_WINDOW.endWindowFwhm (6) FWHM and the larger t stands
+ *    (a candidate with another within one FWHM excepted): cut, a real step's t falls to 2–4
+ *    (`endWindow` in lib/peaks/localStepFit.ts).
  *
  * References
  * ----------

@@ -37,7 +37,8 @@ export interface LocalStepFit {
  * δ = −d·s/c (one Gauss–Newton step).
  *
  * `windowV` (V), where given, widens the window to it ({@link stepTestWindow}) and adds a
- * quadratic term c₂·u² to the background. `freeWithinV` (V, default 0: none) adds a φ and a z·φ
+ * quadratic term c₂·u² to the background (unless `quadraticBackground` is false; without
+ * `windowV` it is true only when set). `freeWithinV` (V, default 0: none) adds a φ and a z·φ
  * column for every neighbour's step within that distance of x₀ (its position and width free to
  * first order: ∂Φ/∂x_j = −φ/s, ∂Φ/∂s = −z·φ/s, z = (x − x_j)/s).
  */
@@ -53,6 +54,7 @@ export function localStepFit(
   windowV?: readonly [number, number],
   freeWithinV = 0,
   rmsToo = false,
+  quadraticBackground = windowV !== undefined,
 ): LocalStepFit | null {
   const n = x.length;
   const h = (x[n - 1] - x[0]) / (n - 1);
@@ -68,7 +70,7 @@ export function localStepFit(
   const steps = neighboursV.filter((v) => Math.abs(v - x0) >= reach && v >= x[lo] - reach && v <= x[hi] + reach);
   // Over a moved (longer) window the background gets its next Taylor term, u²: a curved background
   // (an exponential rise) that a line follows over ±3 FWHM does not stay straight over ±6.
-  const bg = windowV ? 3 : 2;
+  const bg = quadraticBackground ? 3 : 2;
   // Each neighbour within `freeWithinV` also gets its φ and z·φ columns: its position and width
   // free to first order (∂Φ/∂x_j = −φ/s, ∂Φ/∂s = −z·φ/s).
   const free = freeWithinV > 0 ? steps.filter((v) => Math.abs(v - x0) <= freeWithinV) : [];
@@ -156,6 +158,13 @@ export function localStepFit(
 export const STEP_TEST_WINDOW = Object.freeze({
   /** The window's half-width before any edge moves. */
   halfWidthFwhm: 3,
+  /**
+   * Length of the window at an end of the curve, in FWHM: a plain window that an end cuts is also
+   * fitted over this stretch at that end, shifted inward (the plain window's length, 2 × 3 FWHM;
+   * findPeaks note 10). Chosen on the accuracy benchmark's cut-window mix (the last p peak half a
+   * spacing before the window's end).
+   */
+  endWindowFwhm: 6,
   /** A neighbour within this distance of an edge straddles it: its step rises from 0.9 % to 99.1 % over ±1 FWHM (Φ(∓2.355)). */
   straddleFwhm: 1,
   /** The edge moves this far beyond such a neighbour: its rise (1 FWHM) and as long a plateau after it. */
@@ -230,12 +239,68 @@ export function stepTestWindow(x0V: number, neighboursV: readonly number[], fwhm
 }
 
 /**
+ * The step test's window at an end of the curve: where an end cuts the plain window (±3 FWHM,
+ * `STEP_TEST_WINDOW.halfWidthFwhm`) around sample `index`, the last (or first)
+ * `STEP_TEST_WINDOW.endWindowFwhm` FWHM of the curve, V.
+ *
+ * Parameters
+ * ----------
+ * x : Float64Array
+ *     Bias, V, uniformly spaced, ascending.
+ * index : number
+ *     The candidate's sample.
+ * halfWidth : number
+ *     Half the expected FWHM, in samples (≥ 1).
+ *
+ * Returns
+ * -------
+ * [number, number] | null
+ *     The window's edges, V; null where the plain window lies inside the curve, or the curve is
+ *     no longer than the end window.
+ *
+ * Notes
+ * -----
+ * 1. Cut by the end, the plain window keeps less than 3 FWHM on that side: the step's plateau
+ *    beyond the candidate is short or missing, so its column is nearly collinear with the line
+ *    and its standard error grows (a step 0.5–1 FWHM before the end reads t ≈ 2–4 where the
+ *    same step inside the curve reads 10–20). Shifted inward to its full length, the window
+ *    has the same number of samples as a plain one: the line is set by the plateaus the
+ *    window gains on the inner side (their steps fitted as neighbours).
+ * 2. The end window's t is an alternative to the plain one, the larger standing: where the shift
+ *    brings a strong neighbour's step to the window's inner edge (its column then collinear with
+ *    the constant), the plain window can be the better test. A candidate with another within one
+ *    FWHM keeps the plain window: the two share one step, and a second window would let both pass.
+ * 3. The background terms are those of the plain test (a line; u² where the caller asks for it):
+ *    the window is no longer than the plain one. The moved window of {@link stepTestWindow} adds
+ *    u², which over a window that ends just past the step takes up the step's cut rise (t < 0
+ *    seen for a real step); it is tried only where both fall short.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const x = Float64Array.from({ length: 1001 }, (_, i) => i * 0.001);
+ * endWindow(x, 980, 25); // => [0.7, 1] (the last 6 FWHM of 50 mV)
+ * endWindow(x, 500, 25); // => null
+ * ```
+ */
+export function endWindow(x: Float64Array, index: number, halfWidth: number): [number, number] | null {
+  const n = x.length;
+  const reach = STEP_TEST_WINDOW.halfWidthFwhm * 2 * halfWidth; // samples either side of the plain window
+  const length = STEP_TEST_WINDOW.endWindowFwhm * 2 * halfWidth; // samples of the end window
+  if (n - 1 <= length) return null;
+  if (index + reach > n - 1) return [x[n - 1 - length], x[n - 1]];
+  if (index - reach < 0) return [x[0], x[length]];
+  return null;
+}
+
+/**
  * t-statistic of the step at sample `index` with steps at `neighboursV` (V, ascending, the
  * candidate itself not among them; those within `freeWithinV` with their positions and widths
  * free to first order; with `quadratic` a u² background term over ±3 FWHM too; with `rmsSigma`
  * (default: as `quadratic`) σ the larger of noiseA and the fit's residual RMS):
- * over ±3 FWHM, and where that falls short of minStepSigma but reaches minPlainSigma, over the
- * window of {@link stepTestWindow}.
+ * over ±3 FWHM (where an end of the curve cuts that window, the larger t of it and of the
+ * window of {@link endWindow}), and where that falls short of minStepSigma but reaches
+ * minPlainSigma, over the window of {@link stepTestWindow}.
  */
 export function stepSignificance(
   x: Float64Array,
@@ -260,12 +325,18 @@ export function stepSignificance(
   const fwhmV = 2 * halfWidth * ((x[x.length - 1] - x[0]) / (x.length - 1));
   const W = STEP_TEST_WINDOW.halfWidthFwhm * fwhmV;
   // With `quadratic` the plain window has the u² background term as well (a windowV of ±3 FWHM).
-  const plain = z(quadratic ? fitOver([x0 - W, x0 + W]) : fitOver());
+  let plain = z(quadratic ? fitOver([x0 - W, x0 + W]) : fitOver());
+  // A plain window cut by an end of the curve is also fitted over the end window (shifted inward
+  // to its full length, the same background terms), and the larger t stands; not for a candidate
+  // with a neighbour inside one FWHM, whose step it shares (as below). findPeaks note 10.
+  const shared = neighbours.some((v) => Math.abs(v - x0) < fwhmV);
+  const atEnd = shared ? null : endWindow(x, index, halfWidth);
+  if (atEnd) plain = Math.max(plain, z(localStepFit(x, current, index, x0, neighbours, halfWidth, false, work, atEnd, freeWithinV, rmsSigma, quadratic)));
   // A step significant over ±3 FWHM needs no longer window; one that does not stand at
   // minPlainSigma there (the pre-screen's level) is not tried again. A candidate with a neighbour
   // inside one FWHM shares that neighbour's (unfitted) step: a longer window would credit more of
   // it to the candidate, so its test stays plain.
-  if (plain >= minStepSigma || !(plain >= minPlainSigma) || neighbours.some((v) => Math.abs(v - x0) < fwhmV)) return plain;
+  if (plain >= minStepSigma || !(plain >= minPlainSigma) || shared) return plain;
   const windowV = stepTestWindow(x0, neighbours, fwhmV);
   // Only where an edge moved (by more than a sample) is there a second fit.
   const sample = fwhmV / (2 * halfWidth);

@@ -316,10 +316,16 @@ describe("analyzeCurve(curve, { eta }): an unpredicted resonance before a split 
 
 // A single p level split by the peak search at the plain resonance of the second VB level, where
 // no substrate-side step lies (the substrate side fills; the simulation lists none there): the two
-// peaks lie within one FWHM and are read as one level (draws 1052 and 1108, p a single level of
-// six states in the truth).
+// peaks lie within one FWHM and are read as one level (draw 1052, p a single level of six states
+// in the truth). Draw 1108 was split so too; since the step test's end window (findPeaks note 10;
+// the curve ends 2.1 FWHM after a weak feature at 2.281 V, now found) p is one peak at 2.157 V,
+// the truth's level, and no twin: its p is checked by atLowEta alone.
 describe("analyzeCurve(curve, { eta }): one p level split at a deeper VB level's plain resonance (low-η draws)", () => {
-  for (const start of [1052, 1108]) {
+  it("reads p as one peak at its level, with no twin (draw 1108)", () => {
+    const { a } = tunnelingAtLowEta(1108);
+    expect(a.assignment.multiplets.find((m) => m.band === "CB" && m.label === "p")!.peakIndices.length).toBe(1);
+  }, 30_000);
+  for (const start of [1052]) {
     it(`reads p as one peak at its level (draw ${start})`, () => {
       const { a, truth } = tunnelingAtLowEta(start);
       expect(truth.pPeaksV.length).toBe(1);

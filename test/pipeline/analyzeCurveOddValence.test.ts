@@ -12,10 +12,14 @@ import { lowEtaDraw } from "../helpers/lowEtaDraw.ts";
 describe("analyzeCurve(curve, { eta }): a resonance at the end of an odd VB group set aside (low-η draws)", () => {
   // Draw 199: p1's resonance at −3.002 V, found as two peaks (−3.014 and −2.963 V), the nearer
   // read as the fifth peak of the level of four; the two are one peak split within a FWHM.
-  // Draw 1034: p1's resonance at −4.068 V read as the fifth peak of the level of four, one Ec
-  // beyond its last; its prediction is 49 mV off, beyond the rounds' FWHM/2 of 46 mV.
-  for (const start of [199, 1034]) {
-    it(`sets the resonance aside and reads the VB groups even, on the truth's levels (draw ${start})`, () => {
+  // Draw 1034: p1's resonance at −4.068 V was found as two peaks (−4.103 and −4.034 V), one read
+  // as the fifth peak of the level of four, one Ec beyond its last (its prediction 49 mV off,
+  // beyond the rounds' FWHM/2 of 46 mV). Since the step test's end window (findPeaks note 10; the
+  // curve starts 19 mV before another resonance, at −4.263 V) the search finds it as one peak
+  // (−4.101 V), set aside before the groups are read: the groups are even without the stage, and
+  // the outcome is checked.
+  for (const [start, fires] of [[199, true], [1034, false]] as const) {
+    it(`${fires ? "sets the resonance aside and reads" : "reads"} the VB groups even, on the truth's levels (draw ${start})`, () => {
       const { analysis: a, truth, tolV } = lowEtaDraw(start);
       const asg = a.assignment;
       expect(asg.regime).toBe("shell-filling");
@@ -24,9 +28,11 @@ describe("analyzeCurve(curve, { eta }): a resonance at the end of an odd VB grou
       // The truth's resonances clear of every tip-side level (the benchmark's criterion).
       const clear = truth.secondJunctionPeaksV.filter((r) => tipV.every((v) => Math.abs(v - r) > tolV + resTolV));
       const reason = asg.evidence.reasons.find((r) => r.includes("made a VB group odd"));
-      expect(reason, "the stage fired").toBeDefined();
-      const asideV = Number(/peak at (-?[0-9.]+) V set aside/.exec(reason!)![1]);
-      expect(clear.some((r) => Math.abs(r - asideV) <= resTolV), `${asideV} V is a resonance of the truth`).toBe(true);
+      if (fires) expect(reason, "the stage fired").toBeDefined();
+      if (reason) {
+        const asideV = Number(/peak at (-?[0-9.]+) V set aside/.exec(reason)![1]);
+        expect(clear.some((r) => Math.abs(r - asideV) <= resTolV), `${asideV} V is a resonance of the truth`).toBe(true);
+      }
       const vbGroups = asg.multiplets.filter((m) => m.band === "VB");
       for (const m of vbGroups) {
         expect(m.peakIndices.length % 2, `${m.label} even`).toBe(0);
