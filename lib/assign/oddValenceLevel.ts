@@ -10,6 +10,7 @@ import { assignWith } from "./assignWith.ts";
 import { medianSpacingV } from "./iterateResonances.ts";
 import { ladderPredictions } from "./ladderResonances.ts";
 import type { Multiplet } from "./multiplets.ts";
+import { medianInPlace } from "../util/medianInPlace.ts";
 import { matchToleranceV, SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
 import { unforced } from "./substrateReadings.ts";
 
@@ -25,6 +26,15 @@ export const ODD_VALENCE_LEVEL_DEFAULTS = Object.freeze({
   ladderReach: 0.25,
   /** At most this many peaks set aside, one per round (each round reads the VB again). */
   maxRounds: 2,
+  /**
+   * A peak found by {@link oddValenceResonance} that steps at least this × the median step of the
+   * VB groups' peaks is set aside even where the VB reads as many odd groups after it
+   * (`withoutOddValence` note 2): a VB charging peak steps about one carrier's step, a CB level's
+   * resonance through the substrate junction in shell filling (g·r + 1)/(g + r) × its level's
+   * step, 7/5 at g = 2, r = 3 (`ASSIGN_DEFAULTS.fillingResonanceStepMin`). Chosen on the
+   * accuracy benchmark (low η), where a smaller multiple also set aside VB charging peaks.
+   */
+  resonanceStepMin: ASSIGN_DEFAULTS.fillingResonanceStepMin,
 });
 
 /**
@@ -143,6 +153,15 @@ function onLadder(peaks: readonly Pick<Peak, "biasV">[], group: readonly number[
  * is that of the rounds' predictions (`iterateResonances`, note 1): the median spacing within the
  * multiplets' sub-groups, robust to a resonance counted in one (the ladder's fitted Ec with fewer
  * than three spacings).
+ *
+ * Notes
+ * -----
+ * 1. Fewer odd groups is the parity's own test that the peak was the one too many.
+ * 2. A peak that steps at least `ODD_VALENCE_LEVEL_DEFAULTS.resonanceStepMin` × the median step of
+ *    the VB groups' peaks needs only as many odd groups, not fewer: it steps like a CB level's
+ *    resonance through the substrate junction ((g·r + 1)/(g + r) × a level's step in shell
+ *    filling), not like a VB charging peak, and the VB read without it can stay odd elsewhere (a
+ *    VB charging peak under another resonance, or set aside as one).
  */
 export function withoutOddValence(peaks: readonly Peak[], eta: number, etaGiven: boolean, a: Assignment, options: AssignOptions): Assignment {
   let current = a;
@@ -151,10 +170,12 @@ export function withoutOddValence(peaks: readonly Peak[], eta: number, etaGiven:
     const ecV = medianSpacingV(peaks, current) ?? current.quantities.chargingEnergyV;
     const found = oddValenceResonance(peaks, current.multiplets, current.evidence.secondJunction, ecV, eta);
     if (!found) break;
+    // Note 2: a peak stepping like a CB level's resonance may go even where the VB stays as odd.
+    const strong = peaks[found.index].stepA >= ODD_VALENCE_LEVEL_DEFAULTS.resonanceStepMin * valenceMedianStepA(peaks, current);
     const p = current.multiplets.find((m) => m.band === "CB" && m.label === "p");
     const next = assignWith(peaks, eta, etaGiven, [...current.evidence.secondJunction, found], { ...options, regime: "shell-filling" }, p ? new Set(p.peakIndices) : undefined);
     unforced(next);
-    if (next.regime !== "shell-filling" || cbKey(next) !== cbKey(current) || oddGroups(next) >= oddGroups(current)) break;
+    if (next.regime !== "shell-filling" || cbKey(next) !== cbKey(current) || oddGroups(next) > oddGroups(current) - (strong ? 0 : 1)) break;
     const earlier = current.evidence.reasons.filter((r) => !next.evidence.reasons.includes(r));
     next.evidence.reasons.unshift(
       ...earlier,
@@ -171,6 +192,12 @@ function cbKey(a: Assignment): string {
     .filter((m) => m.band === "CB")
     .map((m) => `${m.label}:${m.peakIndices.join(",")}/${m.subgroups.join("+")}`)
     .join(" ");
+}
+
+/** The median step of the peaks in the VB groups (A); 0 without any. */
+function valenceMedianStepA(peaks: readonly Peak[], a: Assignment): number {
+  const steps = a.multiplets.filter((m) => m.band === "VB").flatMap((m) => m.peakIndices.map((i) => peaks[i].stepA));
+  return steps.length ? medianInPlace(Float64Array.from(steps)) : 0;
 }
 
 /** The number of VB groups with an odd number of peaks. */

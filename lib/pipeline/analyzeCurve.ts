@@ -10,6 +10,7 @@ import { findPeaks, refineOnCurrent, FIND_PEAKS_DEFAULTS, type Peak, type FindPe
 import { peakAreas } from "../peaks/peakAreas.ts";
 import { edgeStepWidth } from "../peaks/edgeStepWidth.ts";
 import { assignSpectrum, type Assignment, type Regime } from "../assign/assignSpectrum.ts";
+import { withoutCloseShellPeaks } from "../assign/closeShell.ts";
 import { peakRoles, withMultiplets, type PeakRole } from "../assign/peakMultiplets.ts";
 import { gapEdges } from "../assign/gapEdges.ts";
 import { noLevels, type NoLevels } from "../assign/noLevels.ts";
@@ -225,6 +226,10 @@ const KEYS = ["eta", "windowMV", "order", "peakWidthMV", "minProminenceSigma", "
  *    The new list stands where the regime is unchanged and p then holds as many peaks as it
  *    has states; the areas and the later stages then read the remainder, and a warning names the
  *    subtracted steps (those resonances are then no peaks of the list).
+ * 10. Last, a shell-filling reading's shells past p lose leading peaks that lie less than one Ec
+ *    beyond the full shell below (`withoutCloseShellPeaks`: a new shell opens Ec plus its
+ *    orbital spacing beyond). Applied to the final reading only: the stages above read a short
+ *    d (its predicted resonances, its missing charging peaks) as they always have.
  *
  * References
  * ----------
@@ -386,6 +391,8 @@ export function analyzeCurve(curve: Curve, options: AnalyzeOptions = {}): CurveA
     }
     if (!added) break;
   }
+  // A shell past p that opens less than Ec beyond the full shell below loses those peaks (note 10).
+  assignment = withoutCloseShellPeaks(assignment);
   const roles = peakRoles(peaks.length, assignment);
   const settings: AnalyzeSettings = {
     eta: assignment.energies.eta,

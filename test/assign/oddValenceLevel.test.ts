@@ -4,6 +4,8 @@
 // two carriers per orbital, so its charging peaks come in an even group.
 import { describe, it, expect } from "vitest";
 import { oddValenceResonance, ODD_VALENCE_LEVEL_DEFAULTS } from "../../lib/assign/oddValenceLevel.ts";
+import { assignSpectrum } from "../../lib/assign/assignSpectrum.ts";
+import type { Peak } from "../../lib/peaks/findPeaks.ts";
 
 const at = (biasV: number) => ({ biasV, biasUncertaintyV: 0.002, fwhmV: 0.04 });
 // η = 0.6 (gain 1.5), Ec_V = 0.2 V: s at 1.0, 1.2 V (N = 0: −1.5, −1.8 V); p's first sub-level at
@@ -67,8 +69,34 @@ describe("oddValenceResonance(peaks, multiplets, resonances, chargingEnergyV, et
     expect(oddValenceResonance(peaks, multiplets, [], 0.2, 0.6)).toBeNull();
   });
 
-  it("ODD_VALENCE_LEVEL_DEFAULTS are locked: a quarter of Ec times η/(1 − η), two rounds", () => {
+  it("ODD_VALENCE_LEVEL_DEFAULTS are locked: a quarter of Ec times η/(1 − η), two rounds, a resonance step of 7/5 × a level ((g·r + 1)/(g + r) at g = 2, r = 3)", () => {
     expect(Object.isFrozen(ODD_VALENCE_LEVEL_DEFAULTS)).toBe(true);
-    expect(ODD_VALENCE_LEVEL_DEFAULTS).toEqual({ ladderReach: 0.25, maxRounds: 2 });
+    expect(ODD_VALENCE_LEVEL_DEFAULTS).toEqual({ ladderReach: 0.25, maxRounds: 2, resonanceStepMin: 7 / 5 });
+  });
+});
+
+describe("withoutOddValence through assignSpectrum: a peak stepping like a CB level's resonance", () => {
+  // η = 0.6, Ec_V = 0.2 V: s at 1.0, 1.2 V, p at 2.1 … 3.1 V (N = 2: p's first predicts −2.55 V);
+  // VB doublet −1.1, −1.3 V; a peak 70 mV off the prediction, at −2.62 V (beyond the rounds'
+  // FWHM/2, within the 75 mV reach), and a VB peak at −3.3 V stepping 0.6 × a charging step.
+  // A resonance of a CB level through the substrate junction steps (g·r + 1)/(g + r) × a level's
+  // step (orthodox theory; ≥ 7/5 for g = 2, r ≥ 3), a VB charging peak about one level's step.
+  const peak = (biasV: number, stepA = 1e-11): Peak => ({ biasV, biasUncertaintyV: 0.002, index: 0, heightS: 1e-9, prominenceS: 1e-9, fwhmV: 0.04, stepA, snr: 20, stepSignificance: 30 });
+  const read = (candidateStepA: number) =>
+    assignSpectrum([peak(-3.3, 0.6e-11), peak(-2.62, candidateStepA), peak(-1.3), peak(-1.1), ...[1.0, 1.2, 2.1, 2.3, 2.5, 2.7, 2.9, 3.1].map((v) => peak(v))], { eta: 0.6 });
+  const groups = (a: ReturnType<typeof read>) => a.multiplets.filter((m) => m.band === "VB").map((m) => m.peakIndices);
+
+  it("sets it aside at 3 × the VB's median step although the VB stays one odd group (the −3.3 V peak, its satellite before, is then read)", () => {
+    expect(ODD_VALENCE_LEVEL_DEFAULTS.resonanceStepMin).toBeCloseTo(7 / 5, 12);
+    const a = read(3e-11);
+    expect(a.regime).toBe("shell-filling");
+    expect(a.evidence.secondJunction.map((r) => r.index)).toContain(1);
+    expect(groups(a)).toEqual([[3, 2], [0]]);
+  });
+
+  it("keeps it at 1.3 × (below 7/5: it may be a VB charging peak) where the VB would stay as odd", () => {
+    const a = read(1.3e-11);
+    expect(a.evidence.secondJunction.map((r) => r.index)).not.toContain(1);
+    expect(groups(a)).toEqual([[3, 2], [1]]);
   });
 });
