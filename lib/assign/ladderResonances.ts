@@ -3,8 +3,22 @@
  * every assigned level, entered through the substrate junction into an otherwise empty dot.
  */
 import type { Peak } from "../peaks/findPeaks.ts";
+import { substrateToTipStepRatio } from "../model/regimeLimits.ts";
 import type { Multiplet } from "./multiplets.ts";
 import { SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
+
+/** Choice among the peaks at one prediction in {@link ladderResonances} (locked by test/assign/ladderResonances.test.ts). */
+export const LADDER_RESONANCES_DEFAULTS = Object.freeze({
+  /**
+   * Note 5: a peak named for the resonance of a level's first charging peak steps at least this
+   * multiple of that source's step, where one within tolerance does: (g·r + 1)/(g + r) ≥ 1 for
+   * every degeneracy g when Γtip/Γsub = r ≥ 1 (`substrateToTipStepRatio` at r = 1 is 1; shell
+   * filling has r ≥ 1.5). Chosen on the accuracy benchmark (low-η mix, rules alone): 1 and
+   * `ASSIGN_DEFAULTS.fillingResonanceStepMin` (1.4) read the same on seeds 1, 1001 and 2001; the
+   * bound that holds at every r ≥ 1 is kept.
+   */
+  firstResonanceStepMin: substrateToTipStepRatio(2, 1),
+});
 
 /** What {@link ladderResonances} reads from a shell-filling assignment. */
 export interface LadderResonanceInputs {
@@ -37,7 +51,8 @@ export interface LadderResonance extends SecondJunctionResonance {
  * -------
  * LadderResonance[]
  *     One entry per charging peak of the ladder whose prediction has a peak within tolerance on
- *     the other side of 0 V (each peak named once, by the nearest prediction), in ladder order.
+ *     the other side of 0 V (each peak named once, by the nearest prediction; a weak one last, note 5),
+ *     in ladder order.
  *     `index` is that peak, `sourceIndex` the charging peak, `predictedV` the prediction (V).
  *     Empty for η outside (0, 1) or Ec not positive.
  *
@@ -57,6 +72,13 @@ export interface LadderResonance extends SecondJunctionResonance {
  * 4. Each prediction takes the nearest peak of the other side within max(3σ, FWHM/2)
  *    (`SECOND_JUNCTION_DEFAULTS`; σ combines the peak's with the source's scaled by η/(1 − η));
  *    a peak closer to another prediction goes to that one.
+ * 5. The resonance of a level's first charging peak (the first peak of a sub-group, of a VB group
+ *    or of a CB shell read whole) carries (g·r + 1)/(g + r) of that peak's step through the
+ *    substrate junction, at least its step for r ≥ 1 (the later charging peaks' resonances carry
+ *    far less). A peak stepping less than `LADDER_RESONANCES_DEFAULTS.firstResonanceStepMin` × the
+ *    source's step is named for such a prediction only where no peak stepping enough is within
+ *    tolerance: a level's weak flank beside a merged resonance lay nearer a prediction shifted by
+ *    its source's scatter, and the summed peak was read as the level.
  *
  * References
  * ----------
@@ -76,10 +98,17 @@ export interface LadderResonance extends SecondJunctionResonance {
  *   .map((r) => r.index);  // => [4, 5]
  * ```
  */
-export function ladderResonances(peaks: readonly Pick<Peak, "biasV" | "biasUncertaintyV" | "fwhmV">[], inputs: LadderResonanceInputs): LadderResonance[] {
+export function ladderResonances(peaks: readonly (Pick<Peak, "biasV" | "biasUncertaintyV" | "fwhmV"> & Partial<Pick<Peak, "stepA">>)[], inputs: LadderResonanceInputs): LadderResonance[] {
   const { eta } = inputs;
   const predictions = ladderPredictions(peaks, inputs);
   if (!predictions.length) return [];
+  // Note 5: the sources that are a level's (sub-level's, VB group's) first charging peak.
+  const firsts = levelFirstPeaks(inputs.multiplets);
+  const weak = (r: LadderResonance, i: number) => {
+    const src = peaks[r.sourceIndex].stepA;
+    const step = peaks[i].stepA;
+    return firsts.has(r.sourceIndex) && src !== undefined && step !== undefined && src > 0 && step < LADDER_RESONANCES_DEFAULTS.firstResonanceStepMin * src;
+  };
   const D = SECOND_JUNCTION_DEFAULTS;
   const gain = eta / (1 - eta);
   // Each peak goes to its nearest prediction within tolerance; each prediction to one peak.
@@ -91,12 +120,13 @@ export function ladderResonances(peaks: readonly Pick<Peak, "biasV" | "biasUncer
     const d = Math.abs(p.biasV - r.predictedV);
     return d <= Math.max(D.toleranceSigma * sigma, D.toleranceFwhmFraction * p.fwhmV) ? d : Infinity;
   };
-  const pairs: { r: LadderResonance; i: number; d: number }[] = [];
+  const pairs: { r: LadderResonance; i: number; d: number; w: boolean }[] = [];
   for (const r of predictions) peaks.forEach((_, i) => {
     const d = miss(r, i);
-    if (Number.isFinite(d)) pairs.push({ r, i, d });
+    if (Number.isFinite(d)) pairs.push({ r, i, d, w: weak(r, i) });
   });
-  pairs.sort((a, b) => a.d - b.d);
+  // Note 5: a peak too weak for a first charging peak's resonance is named only after the others.
+  pairs.sort((a, b) => Number(a.w) - Number(b.w) || a.d - b.d);
   const usedPeak = new Set<number>();
   const usedPrediction = new Set<LadderResonance>();
   for (const { r, i } of pairs) {
@@ -106,6 +136,23 @@ export function ladderResonances(peaks: readonly Pick<Peak, "biasV" | "biasUncer
     r.index = i;
   }
   return predictions.filter((r) => r.index >= 0);
+}
+
+/**
+ * The peaks that open a level of the ladder (note 5 of {@link ladderResonances}): the first peak
+ * of each sub-group of a split CB shell or VB group, the first of a CB shell read whole.
+ */
+function levelFirstPeaks(multiplets: LadderResonanceInputs["multiplets"]): Set<number> {
+  const out = new Set<number>();
+  for (const m of multiplets) {
+    const whole = m.band === "CB" && m.degeneracy !== null && m.subgroups.length <= 1;
+    let start = 0;
+    for (const size of whole || !m.subgroups.length ? [m.peakIndices.length] : m.subgroups) {
+      if (size > 0) out.add(m.peakIndices[start]);
+      start += size;
+    }
+  }
+  return out;
 }
 
 /**

@@ -6,7 +6,8 @@
 // takes its (j + 1)-th carrier at V′ = −(ε + Ec·(j + ½))/(1 − η). The expected values below are these
 // closed forms computed from ε, Ec and η, not from the function under test.
 import { describe, it, expect } from "vitest";
-import { ladderResonances } from "../../lib/assign/ladderResonances.ts";
+import { ladderResonances, LADDER_RESONANCES_DEFAULTS } from "../../lib/assign/ladderResonances.ts";
+import { substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { expectClose } from "../helpers/expectClose.ts";
 
 const eta = 0.6;
@@ -64,5 +65,38 @@ describe("ladderResonances(peaks, inputs)", () => {
     expect(ladderResonances(exact, { multiplets, chargingEnergyV: 0.2, eta: 1 })).toEqual([]);
     expect(ladderResonances(exact, { multiplets, chargingEnergyV: 0, eta })).toEqual([]);
     expect(ladderResonances(exact, { multiplets, chargingEnergyV: 0.2, eta }).map((r) => r.index)).toEqual([1]);
+  });
+
+  it("names, for a level's first charging peak, a peak stepping at least its source's step before a nearer weak one (note 5; (g·r + 1)/(g + r) ≥ 1 for r ≥ 1)", () => {
+    // A VB doublet |ε| = 0.6 eV stepping 10 pA per peak at Γtip/Γsub = 10: its first peak's resonance
+    // carries (2·10 + 1)/(2 + 10) = 1.75 of that step (closed form), found 15 mV above the
+    // prediction; a level's weak flank (0.3 of the step) lies 5 mV below it. Both are within
+    // tolerance (half the 40 mV FWHM).
+    const stepA = 1e-11;
+    const resonanceStepA = substrateToTipStepRatio(2, 10) * stepA;
+    expect(resonanceStepA / stepA).toBeGreaterThanOrEqual(LADDER_RESONANCES_DEFAULTS.firstResonanceStepMin);
+    const at = (biasV: number, step: number) => ({ ...peak(biasV), stepA: step });
+    const v1 = [0, 1].map((j) => at(-tip(0.6, j), stepA));
+    const first = substrate(0.6, 0);
+    const multiplets = [{ band: "VB" as const, degeneracy: null, peakIndices: [0, 1], subgroups: [2] }];
+    const peaks = [...v1, at(first - 0.005, 0.3 * stepA), at(first + 0.015, resonanceStepA)];
+    const out = ladderResonances(peaks, { multiplets, chargingEnergyV: ecEV / eta, eta });
+    expect(out.map((r) => [r.index, r.sourceIndex])).toEqual([[3, 0]]);
+    // With no peak stepping enough within tolerance, the weak one is still the resonance.
+    const alone = [...v1, at(first - 0.005, 0.3 * stepA), at(first + 0.1, resonanceStepA)];
+    expect(ladderResonances(alone, { multiplets, chargingEnergyV: ecEV / eta, eta }).map((r) => [r.index, r.sourceIndex])).toEqual([[2, 0]]);
+    // The second charging peak's resonance carries far less (1/(1 + r) of the first): the nearest stands.
+    const second = substrate(0.6, 1);
+    const later = [...v1, at(second - 0.005, 0.3 * stepA), at(second + 0.015, resonanceStepA)];
+    expect(ladderResonances(later, { multiplets, chargingEnergyV: ecEV / eta, eta }).map((r) => [r.index, r.sourceIndex])).toEqual([[2, 1]]);
+  });
+});
+
+describe("LADDER_RESONANCES_DEFAULTS", () => {
+  it("is locked and frozen", () => {
+    // closed form: (g·r + 1)/(g + r) at r = 1 is 1 for every g (substrateToTipStepRatio).
+    expect(LADDER_RESONANCES_DEFAULTS).toEqual({ firstResonanceStepMin: substrateToTipStepRatio(2, 1) });
+    expect(LADDER_RESONANCES_DEFAULTS.firstResonanceStepMin).toBe(1);
+    expect(Object.isFrozen(LADDER_RESONANCES_DEFAULTS)).toBe(true);
   });
 });
