@@ -85,12 +85,14 @@ describe("analyzeCurve(curve, { eta }): spin pairs past a level and a resonance 
 
 describe("analyzeCurve(curve, { eta }): p read as one peak, a resonance, its six peaks in d (low-η draw)", () => {
   // Draw 1128: a resonance at 2.905 V (truth 2.927 V) was read as p alone and p's six charging
-  // peaks (3.366 … 4.262 V) as d; read as three spin pairs, p is the truth's.
+  // peaks (3.366 … 4.262 V) as d; read as three spin pairs, p was the truth's. Since the stronger
+  // peak is named at a level's first resonance (ladderResonances note 5) the first reading
+  // already holds the truth's p, so the outcome is checked here; the spin-pair stage itself stays
+  // under the test above.
   it("reads p's six charging peaks (draw 1128)", () => {
     const draw = lowEtaDraw(1128);
     const lead = leadResonancesV(draw);
     expect(lead.length).toBeGreaterThan(0);
     expectTrueP(draw, lead);
-    expect(draw.analysis.assignment.evidence.reasons.some((r) => r.startsWith("p read again as three spin pairs"))).toBe(true);
   }, 30_000);
 });
