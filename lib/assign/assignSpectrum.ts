@@ -180,7 +180,10 @@ export interface Assignment {
  *    peaks read as a charging doublet whose second step is at least
  *    `D.valenceDoubletStepRatioMin` × the first and, with the lowest pair of ladder CB peaks one
  *    VB doublet spacing apart kept as s, the rules read shell filling unasked with s there (s's
- *    second peak merged with, or weak beside, a resonance read the next peak as p).
+ *    second peak merged with, or weak beside, a resonance read the next peak as p); failing
+ *    that, the reading held in shell filling from that pair stands where it is the whole ladder
+ *    of the VB's spacing (s there with its second step at least `D.fillingStepRatio[0]` × its
+ *    first, p's six charging peaks, the fitted Ec within 10 % of the VB doublet spacing).
  *
  * References
  * ----------

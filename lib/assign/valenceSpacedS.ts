@@ -15,13 +15,20 @@ import { strongValenceDoublet, unforced, valenceDoubletSpacingV } from "./substr
 export const VALENCE_SPACED_S_DEFAULTS = {
   /** Largest |CB pair spacing − VB doublet spacing| over the VB doublet spacing for the pair to be the s doublet. */
   spacingTolerance: ASSIGN_DEFAULTS.valenceChargingTolerance,
+  /**
+   * Largest |the held reading's fitted Ec (bias-referred) − VB doublet spacing| over the VB
+   * doublet spacing for a shell-filling reading held from the VB-spaced pair to stand with its
+   * full ladder (note 8); chosen on the accuracy benchmark (low η).
+   */
+  fullLadderSpacingTolerance: 0.1,
 };
 
 /**
  * A shell-filling assignment with its s doublet moved to the lowest CB pair one VB doublet
  * spacing apart that holds a peak set aside as a second-junction resonance; another reading
  * made shell filling from the lowest such pair of ladder peaks where the VB reads as a charging
- * doublet; the assignment unchanged where there is none or the rules do not read that pair as s.
+ * doublet (or, failing that, where the CB then reads as the whole ladder of the VB's spacing,
+ * note 8); the assignment unchanged where there is none or the rules do not read that pair as s.
  *
  * Parameters
  * ----------
@@ -77,6 +84,18 @@ export const VALENCE_SPACED_S_DEFAULTS = {
  *    s at that pair.
  * 7. With the second-junction stage off (`options.secondJunction` false) the reading is returned
  *    unchanged: both steps read peaks against that stage's resonances.
+ * 8. Where in note 6 the rules, unasked, do not read shell filling with s at the pair, the reading held
+ *    in shell filling through the rounds of `iterateResonances` (the pair kept on the ladder)
+ *    stands if it is the whole shell-filling ladder of the VB's spacing: s starts at the pair's
+ *    first peak with its second one VB doublet spacing above (within
+ *    `VALENCE_SPACED_S_DEFAULTS.spacingTolerance`), p holds all six charging peaks (three
+ *    orbitals of two spins, one carrier at a time), and the fitted Ec (bias-referred) is the VB
+ *    doublet spacing within `VALENCE_SPACED_S_DEFAULTS.fullLadderSpacingTolerance`: in shell
+ *    filling the tip junction sets both bands' ladders, while shell tunnelling's CB levels are
+ *    single peaks and hold no such ladder. The s pair's second step must be at least
+ *    `ASSIGN_DEFAULTS.fillingStepRatio[0]` × its first (r/(1 + r) at r = 1.5; a second peak
+ *    merged with a resonance only steps more): a weaker one is a crossover doublet, whose ladder
+ *    is also one Ec/η apart. The regime is then the reading's own (`unforced`).
  *
  * Example
  * -------
@@ -157,12 +176,49 @@ function fillingFromValenceDoublet(peaks: readonly Peak[], a: Assignment, option
   const onLadder = (r: SecondJunctionResonance) => r.index !== first.i && r.index !== second.i;
   const forced = assignWith(peaks, eta, true, a.evidence.secondJunction.filter(onLadder), { ...options, regime: "shell-filling" });
   const out = iterateResonances(peaks, forced, eta, (p, r) => assignWith(p, eta, true, r.filter(onLadder), options));
-  if (out === forced || out.regime !== "shell-filling") return a;
-  const sOut = out.multiplets.find((m) => m.band === "CB" && m.label === "s");
-  if (!sOut || sOut.peakIndices.length !== 2 || sOut.peakIndices[0] !== first.i || sOut.peakIndices[1] !== second.i) return a;
+  if (out === forced || out.regime !== "shell-filling" || !sAtPair(out, first.i, second.i)) return fullValenceLadder(peaks, a, options, first.i, spaced.ecV, onLadder) ?? a;
   unforced(out);
   out.evidence.reasons.unshift(
     `read as shell filling (the first reading, ${a.regime}): the VB's first two main peaks step alike (ratio ${doublet.stepRatio.toFixed(2)} ≥ ${ASSIGN_DEFAULTS.valenceDoubletStepRatioMin.toFixed(2)}) with a jump of ${doublet.jumpRatio.toFixed(2)} × their spacing to the next, a charging doublet, and with the peaks at ${first.v.toFixed(3)} and ${second.v.toFixed(3)} V, the lowest CB pair one VB doublet spacing (${spaced.ecV.toFixed(3)} V) apart, kept as the s doublet the rules read shell filling unasked`,
   );
   return out;
+}
+
+/** Whether the reading's CB s doublet is exactly the peaks `firstI`, `secondI`. */
+function sAtPair(out: Assignment, firstI: number, secondI: number): boolean {
+  const s = out.multiplets.find((m) => m.band === "CB" && m.label === "s");
+  return !!s && s.peakIndices.length === 2 && s.peakIndices[0] === firstI && s.peakIndices[1] === secondI;
+}
+
+/**
+ * Note 8 of {@link withValenceSpacedS}: the shell-filling reading held through the rounds from
+ * the VB-spaced pair, where its s is that pair, its p holds all six charging peaks and its fitted
+ * Ec is the VB doublet spacing (within `VALENCE_SPACED_S_DEFAULTS.fullLadderSpacingTolerance`);
+ * null otherwise.
+ */
+function fullValenceLadder(
+  peaks: readonly Peak[],
+  a: Assignment,
+  options: AssignOptions,
+  firstI: number,
+  valenceSpacingV: number,
+  onLadder: (r: SecondJunctionResonance) => boolean,
+): Assignment | null {
+  const eta = a.energies.eta;
+  const again = (p: readonly Peak[], r: readonly SecondJunctionResonance[]) => assignWith(p, eta, true, r.filter(onLadder), { ...options, regime: "shell-filling" });
+  const held = iterateResonances(peaks, again(peaks, a.evidence.secondJunction), eta, again);
+  const s = held.multiplets.find((m) => m.band === "CB" && m.label === "s");
+  const tolV = VALENCE_SPACED_S_DEFAULTS.spacingTolerance * valenceSpacingV;
+  if (!s || s.peakIndices.length !== 2 || s.peakIndices[0] !== firstI || Math.abs(peaks[s.peakIndices[1]].biasV - peaks[firstI].biasV - valenceSpacingV) > tolV) return null;
+  // A second peak merged with a resonance steps more, never less, than r/(1 + r) of the first.
+  if (peaks[s.peakIndices[1]].stepA < ASSIGN_DEFAULTS.fillingStepRatio[0] * peaks[firstI].stepA) return null;
+  const p = held.multiplets.find((m) => m.band === "CB" && m.label === "p");
+  const ecV = held.quantities.chargingEnergyV;
+  if (!p || p.peakIndices.length !== 6 || ecV === null) return null;
+  if (Math.abs(ecV - valenceSpacingV) > VALENCE_SPACED_S_DEFAULTS.fullLadderSpacingTolerance * valenceSpacingV) return null;
+  unforced(held);
+  held.evidence.reasons.unshift(
+    `read as shell filling (the first reading, ${a.regime}): the VB's first two main peaks read as a charging doublet, and with the lowest CB pair one VB doublet spacing (${valenceSpacingV.toFixed(3)} V) apart kept as s the CB reads as s and p's six charging peaks on one ladder of spacing ${ecV.toFixed(3)} V, the VB doublet's: both bands charge one carrier at a time through the tip junction`,
+  );
+  return held;
 }
