@@ -31,6 +31,7 @@ import { residualStructure } from "./residualStructure.ts";
 import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
+import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -174,7 +175,8 @@ export interface FitOptions {
  *    every reading from other Ec starts ({@link wholeCurveEcStarts}: the rules' Ec, the VB peaks'
  *    own spacing, the CB side's × ½, ⅔, 3⁄2: a CB side that ends near the s doublet may fit a
  *    wrong ladder to the noise), and the best by BIC of those that reach wholeCurveChiSquare
- *    without residual structure and are plausible replaces it (a warning says so); its whole-curve values stand unless their reduced χ² is
+ *    without residual structure and are plausible replaces it (a warning says so); where none does at η < 1, the best whole-curve fit so far with its
+ *    p level split ({@link wholeCurveSplits}; the split grouping then fitted on the CB side from it) does, if it reaches the same bar; its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
  *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
  *    outside the CB side's points while the CB side's show none (then the CB-side values, a
@@ -404,6 +406,18 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       whole = better;
     }
   }
+  // Still none at η < 1: the best whole-curve fit so far with its p level split (note 5, {@link wholeCurveSplits}).
+  if (whole && wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
+    const describes = (t: FitTrial) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ;
+    const found = wholeCurveSplits({ trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes, acceptable: (w, cb) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0, heldVb: winner.hypothesis.heldVb });
+    if (found) {
+      warnings.push(`no grouping's whole-curve fit from its CB side describes the curve; ${found.whole.hypothesis.label} does (reduced χ² ${reduced(found.whole).toPrecision(3)})`);
+      [winner, whole] = [found.cb, found.whole];
+      // Only its whole-curve fit describes the curve: it alone carries weight, as on a blind side.
+      finalists.push(winner), plausible.push(winner), cbSideOf.set(whole, winner), wholeOf.set(winner, whole), (blindWholeBic = new Map([[winner, whole.bic]]));
+    }
+  }
+
   let best = whole ?? winner;
   // The whole-curve fit's residual structure, computed once (a whole-curve evaluation) where it is read.
   let wholeStructure: ReturnType<typeof structureOf> | null = null;

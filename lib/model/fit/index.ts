@@ -37,6 +37,7 @@ export { compareGroupings, COMPARE_GROUPINGS_DEFAULTS, type CompareContext } fro
 export { blindCbSide, crossedCbSide, wholeCurveChoice, type BlindSidePeak } from "./blindCbSide.ts";
 export { laterEntryReadings } from "./laterEntryReadings.ts";
 export { valenceSpacingEcEV, wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "./wholeCurveRestarts.ts";
+export { wholeCurveSplits, WHOLE_CURVE_SPLIT_DEFAULTS } from "./wholeCurveSplits.ts";
 export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";
 export { sameFit, SAME_FIT_DEFAULTS } from "./sameFit.ts";

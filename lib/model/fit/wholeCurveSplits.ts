@@ -1,0 +1,126 @@
+/**
+ * The p shell split about the best whole-curve fit: at low η the VB side fixes Ec and the VB
+ * levels, and the CB levels' substrate-junction steps among the VB peaks tell a split p shell
+ * from a whole one where the CB side alone does not.
+ */
+import type { FitHypothesis } from "./fitHypotheses.ts";
+import type { FitRun } from "./fitRunner.ts";
+import type { DataSet, FitTrial } from "./fitTrial.ts";
+import { parameterIndex } from "./parameterModel.ts";
+import { refinementStarts } from "./refinementStarts.ts";
+import { recentredSeeds } from "./wholeCurveRestarts.ts";
+
+/** Defaults of {@link wholeCurveSplits} (locked by test/model/fit/wholeCurveSplits.test.ts). */
+export const WHOLE_CURVE_SPLIT_DEFAULTS = Object.freeze({
+  /**
+   * The best whole-curve fit so far is split only when its reduced χ² is at most this
+   * (FIT_DEFAULTS.poorFitChiSquare): above it no VB reading came near, and its levels say little.
+   * Chosen on the accuracy benchmark (low-η mix with the comparison).
+   */
+  maxStartChiSquare: 10,
+  /** Explored split starts finished (the lowest BICs after their explore iterations). Chosen on the accuracy benchmark (low-η mix with the comparison). */
+  finishedStarts: 2,
+});
+
+/** What {@link wholeCurveSplits} works with. */
+export interface WholeCurveSplitContext {
+  /** Every run so far; the split runs are added. */
+  trials: FitTrial[];
+  /** One Levenberg–Marquardt run (whole curve unless a data set is given). */
+  run: FitRun;
+  /** The CB side of the curve. */
+  cbSide: DataSet;
+  /** Voltage-division factor η. */
+  eta: number;
+  /** Iterations of an explored start. */
+  exploreIterations: number;
+  /** Iterations of a finishing run. */
+  maxIterations: number;
+  /** Reduced χ² of a run. */
+  reduced: (t: FitTrial) => number;
+  /** Whether a whole-curve run (before its CB side is fitted) may describe the curve: its reduced χ² and residual structure. */
+  describes: (whole: FitTrial) => boolean;
+  /** Whether a whole-curve run and its CB-side run are acceptable together (plausible). */
+  acceptable: (whole: FitTrial, cb: FitTrial) => boolean;
+  /** The held VB levels of the CB-side hypotheses ({@link heldValenceLevels}), if any. */
+  heldVb?: FitHypothesis["heldVb"];
+}
+
+/**
+ * The best whole-curve fit with its p shell split, fitted to the whole curve.
+ *
+ * Parameters
+ * ----------
+ * context : WholeCurveSplitContext
+ *     The runs so far, the run function, the CB side, η, the iteration budgets and the tests.
+ * settings : typeof WHOLE_CURVE_SPLIT_DEFAULTS, optional
+ *     maxStartChiSquare and finishedStarts.
+ *
+ * Returns
+ * -------
+ * { cb: FitTrial; whole: FitTrial } | null
+ *     The split whole-curve run with the lowest BIC that describes the curve and is acceptable,
+ *     with its grouping fitted on the CB side from it; null when the best whole-curve run is above
+ *     maxStartChiSquare, has no p level to split, or no split is acceptable.
+ *
+ * Throws
+ * ------
+ * Nothing.
+ *
+ * Notes
+ * -----
+ * 1. The splits of {@link refinementStarts} (p whole into 2+4 and 2+2+2, a sub-level of 4 into
+ *    2+2, the degeneracy-weighted mean kept) applied to the CB levels of the best whole-curve run,
+ *    its VB levels, Ec, Γtip/Γsub and broadening kept: each explored, the finishedStarts best
+ *    finished.
+ * 2. A split grouping's own whole-curve fit starts from its CB side's Ec, which for a split p
+ *    shell may be 10–20 % off, and from its CB side's reading of the p peaks; the whole p level
+ *    with a VB reading that fits sets Ec and the levels to within a few per cent.
+ * 3. The CB side of the chosen split is fitted from its whole-curve values, so that the
+ *    comparison of the two sides' Ec and Γtip/Γsub (fitCurve) is made within one grouping.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const found = wholeCurveSplits({ trials, run, cbSide, eta, exploreIterations: 8, maxIterations: 60, reduced, describes, acceptable });
+ * if (found) [winner, whole] = [found.cb, found.whole];
+ * ```
+ */
+export function wholeCurveSplits(context: WholeCurveSplitContext, settings = WHOLE_CURVE_SPLIT_DEFAULTS): { cb: FitTrial; whole: FitTrial } | null {
+  const { trials, run, reduced } = context;
+  const wholes = trials.filter((t) => t.side === "both");
+  if (!wholes.length) return null;
+  const top = wholes.reduce((x, y) => (reduced(y) < reduced(x) ? y : x));
+  if (!(reduced(top) <= settings.maxStartChiSquare)) return null;
+  const seeds = top.hypothesis.seeds;
+  const ncb = seeds.filter((s) => s.band === "CB").length;
+  if (seeds.slice(0, ncb).some((s) => s.band !== "CB")) return null;
+  const p = top.loop.parameters;
+  const at = parameterIndex(seeds.length);
+  const rest = p.slice(at.chargingEnergy, at.rateScale);
+  const vbSeeds = seeds.slice(ncb);
+  const vbEnergies = p.slice(ncb, seeds.length);
+  const starts = refinementStarts(seeds.slice(0, ncb), [...p.slice(0, ncb), ...rest], context.eta).filter((r) => r.seeds.length !== ncb);
+  const explored: FitTrial[] = [];
+  for (const r of starts) {
+    const hv: FitHypothesis = { ...top.hypothesis, name: `${top.hypothesis.name.replace(/,.*$/, "")}, refined to ${r.layout} on the whole curve (${r.change})`, label: `${top.hypothesis.label}, ${r.change} on the whole curve`, seeds: recentredSeeds([...r.seeds, ...vbSeeds], [...r.parameters.slice(0, r.seeds.length), ...vbEnergies], context.eta, rest[0]), chargingEnergyStartEV: rest[0], cbDegeneracies: r.seeds.map((x) => x.degeneracy) };
+    const t = { ...run(hv, null, context.exploreIterations, [...r.parameters.slice(0, r.seeds.length), ...vbEnergies, ...rest]), rateRatio0: top.rateRatio0 };
+    trials.push(t);
+    explored.push(t);
+  }
+  const finished: FitTrial[] = [];
+  for (const t of [...explored].sort((x, y) => x.bic - y.bic).slice(0, settings.finishedStarts)) {
+    const done = { ...run(t.hypothesis, null, context.maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
+    trials.push(done);
+    finished.push(done);
+  }
+  for (const w of finished.filter(context.describes).sort((x, y) => x.bic - y.bic)) {
+    const nw = w.hypothesis.seeds.filter((s) => s.band === "CB").length;
+    const atW = parameterIndex(w.hypothesis.seeds.length);
+    const hc: FitHypothesis = { ...w.hypothesis, seeds: w.hypothesis.seeds.slice(0, nw), vbReadings: [[]], ...(context.heldVb ? { heldVb: context.heldVb } : {}) };
+    const cb = { ...run(hc, null, context.maxIterations, [...w.loop.parameters.slice(0, nw), ...w.loop.parameters.slice(atW.chargingEnergy, atW.rateScale)], context.cbSide), rateRatio0: w.rateRatio0 };
+    trials.push(cb);
+    if (context.acceptable(w, cb)) return { cb, whole: w };
+  }
+  return null;
+}
