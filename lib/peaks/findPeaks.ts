@@ -4,12 +4,11 @@
 import { DotspecError } from "../util/errors.ts";
 import { checkNonNegative, checkPositive } from "../util/check.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
+import { scaledSymmetricInverse } from "../util/smallSymmetric.ts";
 import { localStepFit, stepSignificance, type FitWorkspace } from "./localStepFit.ts";
 import { splitMerged } from "./splitPeaks.ts";
 import { retestShortSteps, type ShortStep } from "./retestShortSteps.ts";
 import { addShoulders } from "./shoulderSteps.ts";
-import { collapsedPairs } from "./collapsedPairs.ts";
-import { parabola } from "./topParabola.ts";
 
 /** One peak of dI/dV. */
 export interface Peak {
@@ -251,11 +250,6 @@ export const FIND_PEAKS_DEFAULTS = Object.freeze({
  *    made over the end's last STEP_TEST_WINDOW.endWindowFwhm (6) FWHM and the larger t stands
  *    (a candidate with another within one FWHM excepted): cut, a real step's t falls to 2–4
  *    (`endWindow` in lib/peaks/localStepFit.ts).
- * 11. Collapsed pairs (after note 4's refinement; `lib/peaks/collapsedPairs.ts`): two peaks the
- *    refinement brought closer than minSeparationMV (each moved towards the other, up to halfway)
- *    are fitted on the current as one step and as two (note 7's fits and tests around their
- *    middle): the two steps replace them where the current shows two (two levels the linearised
- *    shifts overshot), one refined peak with their summed step otherwise (noise on one top).
  *
  * References
  * ----------
@@ -419,9 +413,6 @@ export function findPeaks(biasV: Float64Array, didvS: Float64Array, options: Fin
       }
     };
     refineSome(peaks.map((_, k) => k).filter((k) => !fromSplit || !fromSplit[k]));
-    // 11. Two peaks the refinement brought within minSeparationMV: two steps or one.
-    const pairs = collapsedPairs(biasV, current, peaks, options.expectedFwhmV, minStepSigma!, minSeparationMV, FIND_PEAKS_DEFAULTS.positionFloorPerFwhm);
-    if (pairs) (peaks = pairs.peaks), refineSome(pairs.merged);
     // 9. Shoulders: minima of the curvature beside the refined peaks, confirmed by the step test,
     // then refined themselves.
     if (expectedHalfWidth !== null && peaks.length) {
@@ -587,4 +578,23 @@ function halfWidthSamples(g: Float64Array, p: number, level: number, leftBase: n
   while (l > leftBase && g[l] > level) l--;
   while (r < rightBase && g[r] > level) r++;
   return Math.max(1, Math.min(p - l, r - p));
+}
+
+/** Least-squares parabola a·x² + b·x + c in x = biasV − x0 over [l, r], with (XᵀX)⁻¹ (row-major 3×3). */
+function parabola(x: Float64Array, y: Float64Array, l: number, r: number, x0: number): { a: number; b: number; c: number; cov: number[] } | null {
+  let s0 = 0, s1 = 0, s2 = 0, s3 = 0, s4 = 0, t0 = 0, t1 = 0, t2 = 0;
+  for (let i = l; i <= r; i++) {
+    const u = x[i] - x0, u2 = u * u;
+    s0 += 1, s1 += u, s2 += u2, s3 += u2 * u, s4 += u2 * u2;
+    t0 += y[i], t1 += y[i] * u, t2 += y[i] * u2;
+  }
+  if (s0 < 3) return null;
+  // Solve [[s4 s3 s2][s3 s2 s1][s2 s1 s0]] [a b c]ᵀ = [t2 t1 t0]ᵀ.
+  const inv = scaledSymmetricInverse([s4, s3, s2, s3, s2, s1, s2, s1, s0], 3);
+  if (!inv) return null;
+  const a = inv[0] * t2 + inv[1] * t1 + inv[2] * t0;
+  const b = inv[3] * t2 + inv[4] * t1 + inv[5] * t0;
+  const c = inv[6] * t2 + inv[7] * t1 + inv[8] * t0;
+  // Covariance of (a, b) in units of the noise variance: [[Vaa, Vab], [Vba, Vbb]].
+  return { a, b, c, cov: [inv[0], inv[1], inv[3], inv[4]] };
 }

@@ -8,12 +8,11 @@ import { describe, it, expect } from "vitest";
 import { lowEtaDraw, expectTrueP, leadResonancesV } from "../helpers/lowEtaDraw.ts";
 
 describe("analyzeCurve(curve, { eta }): p read as three spin pairs past the resonances in it (low-η draws)", () => {
-  // Draw 1010: p 2.717 … 3.544 V (whole, Ec/η = 0.166 V); resonances beside p's peaks, one Ec/η
-  // from their neighbours, read in p. (Draw 1131, once the case here, is read right without the
-  // spin pairs since its twin peaks are resolved as one, findPeaks' note 11.)
+  // Draw 1131: p 2.732, 2.896 | 3.233, 3.397, 3.561, 3.724 V; a VB level's resonance at 3.067 V
+  // between the pairs was read in p, and the shell's last peak left out.
   // Draw 115: p 2.779 … 4.109 V (whole, Ec/η = 0.266 V); resonances at 2.740, 3.231 and 3.667 V
   // crowd p's peaks, and p was read with four.
-  for (const start of [1010, 115]) {
+  for (const start of [1131, 115]) {
     it(`reads p's six charging peaks and leaves the resonances out (draw ${start})`, () => {
       const draw = lowEtaDraw(start);
       const { analysis: a, truth, tolV } = draw;

@@ -1,10 +1,9 @@
 // compareGroupings' whole-curve fit: a VB reading whose master equation is too large to solve is
 // not fitted, and a grouping whose VB readings are all too large is still compared (its VB read
-// as a shell). Low-η draw 547 (syntheticSpectrum, shell filling): the rules misread it, and the
-// assignment's own VB levels, read by their steps, have degeneracies 2, 2, 3, 2, 3, 5, 2, 2 whose
-// charge states number ∏(g + 1) = 23,328 in one band (closed form), beyond
-// SCENARIO_DEFAULTS.maxStates. Such a reading (draw 160's, 226,800 states, before its twin peaks
-// were resolved as one) once reached the solver (an n² = 5·10¹⁰ rate matrix).
+// as a shell). Low-η draw 160 (syntheticSpectrum, shell filling at Γtip/Γsub = 11.3): the rules
+// misread it, and the assignment's own VB levels, read by their steps, have degeneracies whose
+// charge states number ∏(g + 1) = 226,800 in one band (closed form), beyond
+// SCENARIO_DEFAULTS.maxStates. That reading once reached the solver (an n² = 5·10¹⁰ rate matrix).
 import { describe, it, expect } from "vitest";
 import { fitCurve } from "../../../lib/model/fit/fitCurve.ts";
 import { levelsToFit } from "../../../lib/model/fit/levelsToFit.ts";
@@ -15,8 +14,8 @@ import { lowEtaDraw } from "../../helpers/lowEtaDraw.ts";
 const states = (gs: readonly number[]) => gs.reduce((m, g) => m * (g + 1), 1);
 
 describe("fitCurve(analysis, { compareModels: true }) with an assignment whose VB reading is too large to solve", () => {
-  it("fits the groupings with the VB levels it can solve and returns a result (draw 547)", () => {
-    const { analysis, truth } = lowEtaDraw(547);
+  it("fits the groupings with the VB levels it can solve and returns a result (draw 160)", () => {
+    const { analysis, truth } = lowEtaDraw(160);
     // The case: the assignment's VB levels exceed the master equation's limit of charge states.
     const vb = levelsToFit(analysis).filter((s) => s.band === "VB").map((s) => s.degeneracy);
     expect(states(vb)).toBeGreaterThan(SCENARIO_DEFAULTS.maxStates);
