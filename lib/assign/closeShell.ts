@@ -5,6 +5,7 @@
 import type { Assignment } from "./assignSpectrum.ts";
 import type { Multiplet } from "./multiplets.ts";
 import { SHELLS } from "./shells.ts";
+import { spectrumEnergies } from "./energies.ts";
 
 /** Defaults of {@link withoutCloseShellPeaks}. */
 export const CLOSE_SHELL_DEFAULTS = Object.freeze({
@@ -90,14 +91,12 @@ export function withoutCloseShellPeaks(a: Assignment): Assignment {
     quantities.levelSpacingPDV = Math.abs(d.peaksV[0]) - Math.abs(p.peaksV[k]) - ecV;
     uncertainties.levelSpacingPDV = Math.sqrt(d.peakUncertaintiesV[0] ** 2 + p.peakUncertaintiesV[k] ** 2 + (a.uncertainties.chargingEnergyV ?? 0) ** 2);
   }
-  const eta = a.energies.eta;
-  const scale = (v: number | null) => (v === null ? null : v * eta);
   return {
     ...a,
     multiplets,
     quantities,
     uncertainties,
-    energies: { ...a.energies, levelSpacingPDEV: scale(quantities.levelSpacingPDV), uncertainties: { ...a.energies.uncertainties, levelSpacingPDEV: scale(uncertainties.levelSpacingPDV) } },
+    energies: spectrumEnergies(quantities, uncertainties, a.energies.eta, a.energies.etaGiven),
     evidence: { ...a.evidence, reasons: [...a.evidence.reasons, ...reasons] },
   };
 }

@@ -69,6 +69,24 @@ export function groupingRegime(t: FitTrial): string {
   return r >= REGIME_LIMITS.fillingRateRatioMin ? "shell-filling" : r <= REGIME_LIMITS.tunnelingRateRatioMax ? "shell-tunneling" : "intermediate";
 }
 
+/** A fitted parameter lies on a bound of its run when within this fraction of its bounds' span of one. */
+export const BOUND_FRACTION = 1e-3;
+
+/**
+ * Whether parameter `j` of a run ended on one of its bounds: within `fraction` of the bounds'
+ * span of either (the bound, not the curve, stopped it).
+ *
+ * Example
+ * -------
+ * ```ts
+ * onBound([1.3983], { minValues: [1.27], maxValues: [1.3983] }, 0); // => true
+ * ```
+ */
+export function onBound(parameters: readonly number[], start: Pick<StartingValues, "minValues" | "maxValues">, j: number, fraction = BOUND_FRACTION): boolean {
+  const span = start.maxValues[j] - start.minValues[j];
+  return parameters[j] - start.minValues[j] < fraction * span || start.maxValues[j] - parameters[j] < fraction * span;
+}
+
 /**
  * The fitted levels, Ec and key parameters at a bound of one trial, for the plausibility checks.
  *
@@ -94,10 +112,7 @@ export function plausibilityInput(t: FitTrial): PlausibilityInput {
   const p = t.loop.parameters;
   const at = parameterIndex(t.hypothesis.seeds.length);
   const atBound = [at.chargingEnergy, at.logRateRatio]
-    .filter((j) => {
-      const span = t.start.maxValues[j] - t.start.minValues[j];
-      return p[j] - t.start.minValues[j] < 1e-3 * span || t.start.maxValues[j] - p[j] < 1e-3 * span;
-    })
+    .filter((j) => onBound(p, t.start, j))
     .map((j) => (j === at.chargingEnergy ? "Ec" : "Γtip/Γsub"));
   return {
     levels: t.hypothesis.seeds.map((s, j) => ({ band: s.band, label: s.label, degeneracy: s.degeneracy, energyEV: s.band === "CB" ? p[j] : -p[j] })),

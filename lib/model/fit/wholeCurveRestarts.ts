@@ -5,6 +5,7 @@
  */
 import type { LevelSeed } from "./levelsToFit.ts";
 import type { StartingValues } from "./startingValues.ts";
+import { BOUND_FRACTION, onBound } from "./fitTrial.ts";
 
 /** Constants of {@link wholeCurveEcStarts}. */
 export const WHOLE_CURVE_RESTART_DEFAULTS = Object.freeze({
@@ -19,7 +20,7 @@ export const WHOLE_CURVE_RESTART_DEFAULTS = Object.freeze({
    */
   reachRecentrings: 2,
   /** A parameter lies on a bound when within this fraction of its bounds' span of one (as `plausibilityInput`). */
-  boundFraction: 1e-3,
+  boundFraction: BOUND_FRACTION,
 });
 
 /**
@@ -151,10 +152,7 @@ export function valenceSpacingEcEV(vbPeaksV: readonly number[], eta: number): nu
  * ```
  */
 export function levelAtReachEdge(parameters: readonly number[], start: Pick<StartingValues, "minValues" | "maxValues">, levelCount: number, settings = WHOLE_CURVE_RESTART_DEFAULTS): boolean {
-  for (let j = 0; j < levelCount; j++) {
-    const span = start.maxValues[j] - start.minValues[j];
-    if (parameters[j] - start.minValues[j] < settings.boundFraction * span || start.maxValues[j] - parameters[j] < settings.boundFraction * span) return true;
-  }
+  for (let j = 0; j < levelCount; j++) if (onBound(parameters, start, j, settings.boundFraction)) return true;
   return false;
 }
 
