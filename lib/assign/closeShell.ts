@@ -6,6 +6,7 @@ import type { Assignment } from "./assignSpectrum.ts";
 import type { Multiplet } from "./multiplets.ts";
 import { SHELLS } from "./shells.ts";
 import { spectrumEnergies } from "./energies.ts";
+import { spacingLessCharging } from "./quantities.ts";
 
 /** Defaults of {@link withoutCloseShellPeaks}. */
 export const CLOSE_SHELL_DEFAULTS = Object.freeze({
@@ -88,8 +89,8 @@ export function withoutCloseShellPeaks(a: Assignment): Assignment {
   const uncertainties = { ...a.uncertainties, levelSpacingPDV: null as number | null };
   if (p?.peaksV.length && d?.peaksV.length) {
     const k = p.peaksV.length - 1;
-    quantities.levelSpacingPDV = Math.abs(d.peaksV[0]) - Math.abs(p.peaksV[k]) - ecV;
-    uncertainties.levelSpacingPDV = Math.sqrt(d.peakUncertaintiesV[0] ** 2 + p.peakUncertaintiesV[k] ** 2 + (a.uncertainties.chargingEnergyV ?? 0) ** 2);
+    [quantities.levelSpacingPDV, uncertainties.levelSpacingPDV] = spacingLessCharging(
+      Math.abs(p.peaksV[k]), p.peakUncertaintiesV[k], Math.abs(d.peaksV[0]), d.peakUncertaintiesV[0], ecV, a.uncertainties.chargingEnergyV ?? 0);
   }
   return {
     ...a,

@@ -119,7 +119,7 @@ export function spectrumQuantities(inputs: QuantityInputs, warnings: string[]): 
     const upper = cbGroups[b]?.flat();
     if (!lower?.length || !upper?.length) return null;
     const last = lower[lower.length - 1], first = upper[0];
-    if (regime === "shell-filling") return [first.x - last.x - ec, Math.sqrt(sig(first) ** 2 + sig(last) ** 2 + ecVar)];
+    if (regime === "shell-filling") return spacingLessCharging(last.x, sig(last), first.x, sig(first), ec, ecSE ?? 0);
     return [first.x - lower[0].x, Math.hypot(sig(first), sig(lower[0]))];
   };
   const sp = shellSpacing(0, 1);
@@ -130,8 +130,32 @@ export function spectrumQuantities(inputs: QuantityInputs, warnings: string[]): 
     const last = vbGroups[i - 1][vbGroups[i - 1].length - 1];
     const first = vbGroups[i][0];
     const filling = regime === "shell-filling" && ecV !== null;
-    q.valenceSpacingsV.push(first.x - last.x - (filling ? ec : 0));
-    u.valenceSpacingsV.push(Math.sqrt(sig(first) ** 2 + sig(last) ** 2 + (filling ? ecVar : 0)));
+    const [spacingV, sigmaV] = spacingLessCharging(last.x, sig(last), first.x, sig(first), filling ? ec : 0, filling ? ecSE ?? 0 : 0);
+    q.valenceSpacingsV.push(spacingV);
+    u.valenceSpacingsV.push(sigmaV);
   }
   return { quantities: q, uncertainties: u };
+}
+
+/**
+ * The spacing of two peaks less the charging energy, with its 1σ uncertainty: (upper − lower) − Ec
+ * and √(σ_upper² + σ_lower² + σ_Ec²) (notes 3–5 of {@link spectrumQuantities}; Ec = 0 and σ_Ec = 0
+ * where no Ec is taken off).
+ *
+ * Parameters
+ * ----------
+ * lowerV, lowerSigmaV : number
+ *     |bias| of the lower peak and its 1σ, V.
+ * upperV, upperSigmaV : number
+ *     |bias| of the upper peak and its 1σ, V.
+ * ecV, ecSigmaV : number
+ *     Ec in bias and its standard error, V.
+ *
+ * Returns
+ * -------
+ * [number, number]
+ *     The spacing and its 1σ, V.
+ */
+export function spacingLessCharging(lowerV: number, lowerSigmaV: number, upperV: number, upperSigmaV: number, ecV: number, ecSigmaV: number): [number, number] {
+  return [upperV - lowerV - ecV, Math.sqrt(upperSigmaV ** 2 + lowerSigmaV ** 2 + ecSigmaV ** 2)];
 }
