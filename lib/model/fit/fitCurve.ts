@@ -32,6 +32,7 @@ import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blin
 import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import { wholeCurveSplits } from "./wholeCurveSplits.ts";
+import { structuredWholeSplit } from "./structuredWholeSplit.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -176,10 +177,8 @@ export interface FitOptions {
  *    own spacing, the CB side's × ½, ⅔, 3⁄2: a CB side that ends near the s doublet may fit a
  *    wrong ladder to the noise), and the best by BIC of those that reach wholeCurveChiSquare
  *    without residual structure and are plausible replaces it (a warning says so); where none does at η < 1, the best whole-curve fit so far with its
- *    p level split ({@link wholeCurveSplits}; the split grouping then fitted on the CB side from it) does, if it reaches the same bar; its whole-curve values stand unless their reduced χ² is
- *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals
- *    show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only
- *    outside the CB side's points while the CB side's show none (then the CB-side values, a
+ *    p level split ({@link wholeCurveSplits}; the split grouping then fitted on the CB side from it) does, if it reaches the same bar (and where the winner's whole-curve fit is within wholeCurveChiSquare but its residuals show structure, it is split likewise and the split replaces it at a lower whole-curve BIC, {@link structuredWholeSplit}); its whole-curve values stand unless their reduced χ² is
+ *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only outside the CB side's points while the CB side's show none (then the CB-side values, a
  *    warning says so: no reading of the VB peaks fits with them); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
  *    wholeCurveEcSigmas (1) combined standard errors from the CB side's and the CB side, its levels
  *    refitted with them held, rises by more than wholeCurveCbChiSquare (5.99, the 95 % point of χ²
@@ -418,6 +417,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     }
   }
 
+  // Within the χ² bar but with residual structure left: the winner's whole-curve fit with its p level split (note 5, {@link structuredWholeSplit}).
+  const resplit = whole && wholeFitOf && eta < 1 && winner.side === "CB" ? structuredWholeSplit({ whole, trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, structureZ: (t) => structureOf(t).largestZ, describes: (t) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, acceptable: (w, cb) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0, heldVb: winner.hypothesis.heldVb }) : null;
+  if (resplit) warnings.push(resplit.note), (blindWholeBic = new Map([...(blindWholeBic ?? [[winner, whole!.bic] as const]), [resplit.cb, resplit.whole.bic]])), ([winner, whole] = [resplit.cb, resplit.whole]), finalists.push(winner), plausible.push(winner), cbSideOf.set(whole, winner), wholeOf.set(winner, whole);
   let best = whole ?? winner;
   // The whole-curve fit's residual structure, computed once (a whole-curve evaluation) where it is read.
   let wholeStructure: ReturnType<typeof structureOf> | null = null;
