@@ -102,7 +102,9 @@ export interface Assignment {
  *    peak's resonance, `levelsAtDoubletResonance`) goes back to the ladder and steps 1–6 run
  *    again, if they still read shell filling. Shell tunnelling: one peak per level
  *    (`tunnelingShells`), an extra second CB peak that the regime rules read as no level set
- *    aside (`extraCbPeak`); where a gap-edge level shows its charging satellite
+ *    aside (`extraCbPeak`), and so is a first CB peak stepping less than half the next within
+ *    one FWHM of it (`leadingShoulder`: a fragment of that peak, no level; not with a regime
+ *    given); where a gap-edge level shows its charging satellite
  *    (`satelliteChargingEnergy`), their spacing is Ec and the CB peaks one Ec after the peak
  *    before them are charging peaks of that level (`levelChargingPeaks`).
  * 5. Valence groups (`valenceGroups`): charging multiplets within (1 ± `D.valenceChargingTolerance`)·Ec

@@ -18,6 +18,7 @@ import { isPlainPrediction, type SecondJunctionResonance } from "./secondJunctio
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { valenceEdgePartner, valenceGroups } from "./valenceGroups.ts";
 import { levelsAtDoubletResonance } from "./doubletResonance.ts";
+import { leadingShoulder, LEADING_SHOULDER_DEFAULTS } from "./leadingShoulder.ts";
 
 /**
  * The assignment with the given peaks set aside as second-junction resonances; in shell filling,
@@ -111,11 +112,19 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
       setAside = [...setAside, extra!];
       evidence.reasons.push(`CB peak at ${extra!.peak.biasV.toFixed(3)} V set aside: the extra peak between s and p, no level of the ladder`);
     }
+    // A weak first peak within a width of the next is a fragment of that peak, not s
+    // (`leadingShoulder`); not with a regime given, as for the extra peak.
     let levels = tip;
+    const shoulder = options.regime ? null : leadingShoulder(tip);
+    if (shoulder) {
+      levels = tip.filter((p) => p !== shoulder);
+      setAside = [...setAside, shoulder];
+      evidence.reasons.push(`CB peak at ${shoulder.peak.biasV.toFixed(3)} V set aside: a weak shoulder of the next CB peak (within one FWHM, below ${LEADING_SHOULDER_DEFAULTS.stepRatioMax} × its step), no level`);
+    }
     if (satelliteEc !== null) {
       ecV = satelliteEc.chargingEnergyV;
       ecSE = satelliteEc.sigmaV;
-      const split = levelChargingPeaks(tip, ecV);
+      const split = levelChargingPeaks(levels, ecV);
       if (split.charging.length) {
         levels = split.levels;
         setAside = [...setAside, ...split.charging];
