@@ -32,6 +32,7 @@ import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blin
 import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import { wholeCurveSplits } from "./wholeCurveSplits.ts";
+import { peakEcRefuted } from "./peakEcRefuted.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -81,7 +82,7 @@ export interface FitOptions {
  *     V, current in A, current noise in A), assignment and settings.
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
- *     maxEvaluations (default 15,000); timeLimitMs (ms, default none); maxPoints (default 800);
+ *     maxEvaluations (default 22,000); timeLimitMs (ms, default none); maxPoints (default 800);
  *     chargingEnergyGuessEV (eV, default 0.1); compareModels (default false: compare only where
  *     the rules are not decisive). Defaults in {@link FIT_DEFAULTS}.
  *
@@ -532,7 +533,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // not: it is not compared (the fit's own reading stands or falls by its residuals).
   const pSplit = seeds.filter((s) => s.band === "CB" && /^p/.test(s.label)).length > 1;
   const rulesEc = peakChargingEnergy(analysis, eta);
-  const peakEc = pSplit ? null : rulesEc;
+  const refuted = peakEcRefuted({ assignedReducedChiSquare: assignedTrial?.side === "both" ? reduced(assignedTrial) : null, fitReducedChiSquare: reducedChiSquare, fitIsAssigned: hypothesis.kind === "assigned" });
+  const peakEc = pSplit || refuted ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
@@ -549,8 +551,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   });
   if (rulesEc && verdict.regime === "shell-tunneling") {
     warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
-  } else if (rulesEc && pSplit) {
-    warnings.push(`the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's`);
+  } else if (rulesEc && (pSplit || refuted)) {
+    warnings.push(pSplit ? `the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's` : `the assignment's own grouping does not describe the curve (reduced χ² ${reduced(assignedTrial!).toPrecision(3)}): the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) it reads is not compared with the fit's (peakEcRefuted)`);
   }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
