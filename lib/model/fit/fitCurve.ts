@@ -33,11 +33,11 @@ import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestart
 import { startingValues } from "./startingValues.ts";
 import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
+import { peakEcRefuted } from "./peakEcRefuted.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
 export { FIT_DEFAULTS };
-
 export type { CurveFit, FitAlternative, FittedLevel, FittedValue, FitWork } from "./curveFit.ts";
 
 /** Options of {@link fitCurve}. */
@@ -49,10 +49,9 @@ export interface FitOptions {
   /** Most Levenberg–Marquardt iterations. Default: FIT_DEFAULTS.maxIterations (60). */
   maxIterations?: number;
   /**
-   * The work budget: most model evaluations of the whole fit (all starts and hypotheses); where it
-   * is reached the fit stops the same way on every machine, says so, and is at best poor. The
-   * budget's other part, FIT_DEFAULTS.maxEliminationSteps, weighs what the evaluations solve.
-   * Default: FIT_DEFAULTS.maxEvaluations.
+   * The work budget: most model evaluations of the whole fit (all starts and hypotheses); where it is reached the fit stops
+   * the same way on every machine, says so, and is at best poor. Its other part, FIT_DEFAULTS.maxEliminationSteps, weighs
+   * what the evaluations solve. Default: FIT_DEFAULTS.maxEvaluations.
    */
   maxEvaluations?: number;
   /** Opt-in wall-clock limit in ms: where it stops the fit depends on the machine and its load. Default: none. */
@@ -82,7 +81,7 @@ export interface FitOptions {
  *     V, current in A, current noise in A), assignment and settings.
  * options : FitOptions, optional
  *     eta (default the analysis' η); temperatureK (K, default 4.5); maxIterations (default 60);
- *     maxEvaluations (default 15,000); timeLimitMs (ms, default none); maxPoints (default 800);
+ *     maxEvaluations (default 22,000); timeLimitMs (ms, default none); maxPoints (default 800);
  *     chargingEnergyGuessEV (eV, default 0.1); compareModels (default false: compare only where
  *     the rules are not decisive). Defaults in {@link FIT_DEFAULTS}.
  *
@@ -534,7 +533,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // not: it is not compared (the fit's own reading stands or falls by its residuals).
   const pSplit = seeds.filter((s) => s.band === "CB" && /^p/.test(s.label)).length > 1;
   const rulesEc = peakChargingEnergy(analysis, eta);
-  const peakEc = pSplit ? null : rulesEc;
+  const refuted = peakEcRefuted({ assignedReducedChiSquare: assignedTrial?.side === "both" ? reduced(assignedTrial) : null, fitReducedChiSquare: reducedChiSquare, fitIsAssigned: hypothesis.kind === "assigned" });
+  const peakEc = pSplit || refuted ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
   if (verdict.warning) warnings.push(verdict.warning);
@@ -551,8 +551,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   });
   if (rulesEc && verdict.regime === "shell-tunneling") {
     warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
-  } else if (rulesEc && pSplit) {
-    warnings.push(`the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's`);
+  } else if (rulesEc && (pSplit || refuted)) {
+    warnings.push(pSplit ? `the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's` : `the assignment's own grouping does not describe the curve (reduced χ² ${reduced(assignedTrial!).toPrecision(3)}): the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) it reads is not compared with the fit's (peakEcRefuted)`);
   }
   const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
   const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];

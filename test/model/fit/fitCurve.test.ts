@@ -101,7 +101,7 @@ describe("fitCurve(analysis)", () => {
     expect(FIT_DEFAULTS).toEqual({
       temperatureK: 4.5,
       maxIterations: 60,
-      maxEvaluations: 15_000,
+      maxEvaluations: 22_000,
       maxEliminationSteps: 3e9,
       maxPoints: 800,
       chargingEnergyGuessEV: 0.1,
