@@ -32,7 +32,7 @@ function verdict(cbPeaks: Peak[], toV: number) {
 
 describe("rulesDecisive(input, options)", () => {
   it("RULES_DECISIVE_DEFAULTS are locked, frozen and match the documented defaults", () => {
-    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3, broadFwhmRatio: 2, dipStepRatio: 0.85, ladderSatelliteMin: 0.2, ladderSatelliteMax: 0.8 });
+    expect(RULES_DECISIVE_DEFAULTS).toEqual({ stepRatioMargin: 0.1, edgeFwhms: 1, ladderTolerance: 0.15, ladderSigmas: 3, broadFwhmRatio: 2, dipStepRatio: 0.85, ladderSatelliteMin: 0.2, ladderSatelliteMax: 0.8, chargingSpacingTolerance: 0.175, pairRiseRatio: 2 });
     expectDocumentedDefaults(new URL("../../lib/assign/rulesDecisive.ts", import.meta.url), "RulesDecisiveOptions", RULES_DECISIVE_DEFAULTS);
   });
 
@@ -220,6 +220,44 @@ describe("rulesDecisive(input, options)", () => {
     const weak = run(0.7);
     expect(weak.assignment.evidence.satellitePeaksV).toContain((0.8 + 1.5 * ec) / eta);
     expect(weak.result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("flags shell filling whose successive charging peaks of one sub-group lie 0.7 Ec apart (off 1 ± 0.175), and not 0.9 Ec", () => {
+    // One level's charging peaks sit at (ε_p + Ec(n + ½))/η (closed form), one Ec/η apart. p's second
+    // charging peak replaced by a peak f·Ec/η after its first (a resonance or another sub-level's
+    // peak in its place): f = 0.7 lies outside 1 ± 0.175 of the rules' Ec, f = 0.9 inside.
+    const withSecondAt = (f: number) => verdict([...sV, ...pV.map((v, k) => (k === 1 ? pV[0] + f * ecV : v))].map((v) => peak(v)), pV[5] + 0.3);
+    const off = withSecondAt(0.7);
+    expect(off.assignment.regime).toBe("shell-filling");
+    expect(off.result.decisive).toBe(false);
+    expect(off.result.codes).toEqual(["off-ladder-spacing"]);
+    const ruleEcV = off.assignment.quantities.chargingEnergyV!;
+    const gapV = pV[0] + 0.7 * ecV - pV[0];
+    expect(off.result.reasons[0]).toBe(
+      `shell filling with p's charging peaks at ${pV[0].toFixed(3)} and ${(pV[0] + 0.7 * ecV).toFixed(3)} V ${(gapV * 1e3).toFixed(0)} mV apart, ${(gapV / ruleEcV).toFixed(2)} × Ec (${(ruleEcV * 1e3).toFixed(0)} mV; outside 1 ± 0.175), whereas successive charging peaks of one level lie one Ec apart: one of them may be another level's peak or a resonance`,
+    );
+    expect(withSecondAt(0.9).result).toEqual({ decisive: true, reasons: [], codes: [] });
+  });
+
+  it("flags shell filling whose sub-group of two steps 2.2 × at its second charging peak (≥ 2), and not r/(1 + r) or 1.8 ×", () => {
+    // p split 2+2+2 (ε_p1 = 0.8, ε_p2 = 0.85, ε_p3 = 0.9 eV), its charging peaks at (ε_pk + Ec(n + ½))/η,
+    // n = 2 … 7 (closed form). A 2-state level filled from the tip at Γtip/Γsub = r steps r/(1 + r) ×
+    // its first at its second charging peak (closed form, as for the s doublet; secondToFirstStepRatio).
+    const r = 10;
+    const q = secondToFirstStepRatio(r);
+    const ps = [0.8, 0.8, 0.85, 0.85, 0.9, 0.9].map((e, k) => (e + ec * (k + 2 + 0.5)) / eta);
+    const withLast = (ratio: number) =>
+      verdict([...sV.map((v, i) => peak(v, [1, q][i] * 1e-11)), ...ps.map((v, i) => peak(v, [1, q, 1, q, 1, ratio][i] * 1e-11))], ps[5] + 0.3);
+    const level = withLast(q);
+    expect(level.assignment.regime).toBe("shell-filling");
+    expect(level.assignment.multiplets.find((m) => m.label === "p")!.subgroups).toEqual([2, 2, 2]);
+    expect(level.result).toEqual({ decisive: true, reasons: [], codes: [] });
+    const merged = withLast(2.2);
+    expect(merged.result.codes).toEqual(["pair-rise"]);
+    expect(merged.result.reasons).toEqual([
+      `shell filling with p's charging peak at ${ps[5].toFixed(3)} V stepping 2.20 × the one before it in a sub-group of two (≥ 2), whereas a 2-state level's second charging peak steps r/(1 + r) < 1 × its first: another peak (a resonance through the substrate junction) may be merged with it and pull its position`,
+    ]);
+    expect(withLast(1.8).result.decisive).toBe(true);
   });
 
   it("flags shell filling whose p reads in an odd sub-group (2+1+3), and not the true 2+2+2", () => {
