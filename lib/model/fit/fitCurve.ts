@@ -404,21 +404,21 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       whole = better;
     }
   }
-  // Still none at η < 1: the best whole-curve fit so far with its p level split (note 5, {@link wholeCurveSplits}).
-  if (whole && wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
-    const describes = (t: FitTrial) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ;
-    const found = wholeCurveSplits({ trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes, acceptable: (w, cb) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0, heldVb: winner.hypothesis.heldVb });
-    if (found) {
-      warnings.push(`no grouping's whole-curve fit from its CB side describes the curve; ${found.whole.hypothesis.label} does (reduced χ² ${reduced(found.whole).toPrecision(3)})`);
-      [winner, whole] = [found.cb, found.whole];
-      // Only its whole-curve fit describes the curve: it alone carries weight, as on a blind side.
-      finalists.push(winner), plausible.push(winner), cbSideOf.set(whole, winner), wholeOf.set(winner, whole), (blindWholeBic = new Map([[winner, whole.bic]]));
-    }
+  // At η < 1, p split on the whole curve (note 5): about the best whole-curve fit where none describes the curve ({@link wholeCurveSplits}), about the winner's where it does but leaves residual structure ({@link structuredWholeSplit}); a split found wins.
+  const split = { trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes: (t: FitTrial) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, acceptable: (w: FitTrial, cb: FitTrial) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0 };
+  const adoptSplit = (f: { cb: FitTrial; whole: FitTrial }) => (finalists.push(f.cb), plausible.push(f.cb), cbSideOf.set(f.whole, f.cb), wholeOf.set(f.cb, f.whole), [f.cb, f.whole] as const);
+  const found = whole && wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner) ? wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }) : null;
+  if (found) {
+    warnings.push(`no grouping's whole-curve fit from its CB side describes the curve; ${found.whole.hypothesis.label} does (reduced χ² ${reduced(found.whole).toPrecision(3)})`);
+    [winner, whole] = adoptSplit(found);
+    blindWholeBic = new Map([[winner, whole.bic]]); // only its whole-curve fit describes the curve: it alone carries weight, as on a blind side
   }
-
-  // Within the χ² bar but with residual structure left: the winner's whole-curve fit with its p level split (note 5, {@link structuredWholeSplit}).
-  const resplit = whole && wholeFitOf && eta < 1 && winner.side === "CB" ? structuredWholeSplit({ whole, trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, structureZ: (t) => structureOf(t).largestZ, describes: (t) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, acceptable: (w, cb) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0, heldVb: winner.hypothesis.heldVb }) : null;
-  if (resplit) warnings.push(resplit.note), (blindWholeBic = new Map([...(blindWholeBic ?? [[winner, whole!.bic] as const]), [resplit.cb, resplit.whole.bic]])), ([winner, whole] = [resplit.cb, resplit.whole]), finalists.push(winner), plausible.push(winner), cbSideOf.set(whole, winner), wholeOf.set(winner, whole);
+  const resplit = whole && wholeFitOf && eta < 1 && winner.side === "CB" ? structuredWholeSplit({ ...split, heldVb: winner.hypothesis.heldVb, whole, wholeCurveChiSquare: F.wholeCurveChiSquare, structureZ: (t) => structureOf(t).largestZ }) : null;
+  if (resplit) {
+    warnings.push(resplit.note);
+    blindWholeBic = new Map([...(blindWholeBic ?? [[winner, whole!.bic] as const]), [resplit.cb, resplit.whole.bic]]); // the split against the fit it replaced
+    [winner, whole] = adoptSplit(resplit);
+  }
   let best = whole ?? winner;
   // The whole-curve fit's residual structure, computed once (a whole-curve evaluation) where it is read.
   let wholeStructure: ReturnType<typeof structureOf> | null = null;

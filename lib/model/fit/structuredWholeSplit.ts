@@ -18,10 +18,8 @@ export const STRUCTURED_WHOLE_SPLIT_DEFAULTS = Object.freeze({
   minStructureZ: 4,
 });
 
-/** What {@link structuredWholeSplit} works with: the split's context without its trial list, and the whole-curve fit to split. */
-export interface StructuredWholeSplitContext extends Omit<WholeCurveSplitContext, "trials"> {
-  /** Every run so far; the split runs are added. */
-  trials: FitTrial[];
+/** What {@link structuredWholeSplit} works with: the split's context, the whole-curve fit to split and the tests. */
+export interface StructuredWholeSplitContext extends Omit<WholeCurveSplitContext, "from"> {
   /** The winning grouping's whole-curve fit. */
   whole: FitTrial;
   /** Reduced χ² at or below which a whole-curve fit describes the curve (FIT_DEFAULTS.wholeCurveChiSquare). */
@@ -81,10 +79,7 @@ export function structuredWholeSplit(context: StructuredWholeSplitContext, setti
   if (!(reduced(whole) <= context.wholeCurveChiSquare)) return null;
   const z = context.structureZ(whole);
   if (!(z > settings.minStructureZ)) return null;
-  // The split about this fit alone (wholeCurveSplits starts from the best whole-curve run it is given).
-  const tried: FitTrial[] = [whole];
-  const found = wholeCurveSplits({ ...context, trials: tried });
-  context.trials.push(...tried.slice(1));
+  const found = wholeCurveSplits({ ...context, from: whole });
   if (!found || !(found.whole.bic < whole.bic)) return null;
   const note = `the whole-curve fit of ${whole.hypothesis.label} (reduced χ² ${reduced(whole).toPrecision(3)}) leaves residual structure of ${z.toFixed(1)} σ (> ${settings.minStructureZ}); ${found.whole.hypothesis.label} describes the curve with a BIC lower by ${(whole.bic - found.whole.bic).toFixed(0)} (reduced χ² ${reduced(found.whole).toPrecision(3)})`;
   return { ...found, note };

@@ -44,6 +44,8 @@ export interface WholeCurveSplitContext {
   acceptable: (whole: FitTrial, cb: FitTrial) => boolean;
   /** The held VB levels of the CB-side hypotheses ({@link heldValenceLevels}), if any. */
   heldVb?: FitHypothesis["heldVb"];
+  /** The whole-curve run to split. Default: the one of `trials` with the lowest reduced χ². */
+  from?: FitTrial;
 }
 
 /**
@@ -52,7 +54,8 @@ export interface WholeCurveSplitContext {
  * Parameters
  * ----------
  * context : WholeCurveSplitContext
- *     The runs so far, the run function, the CB side, η, the iteration budgets and the tests.
+ *     The runs so far, the run function, the CB side, η, the iteration budgets, the tests and,
+ *     optionally, the whole-curve run to split (`from`; default the best of the runs so far).
  * settings : typeof WHOLE_CURVE_SPLIT_DEFAULTS, optional
  *     maxStartChiSquare and finishedStarts.
  *
@@ -88,7 +91,7 @@ export interface WholeCurveSplitContext {
  */
 export function wholeCurveSplits(context: WholeCurveSplitContext, settings = WHOLE_CURVE_SPLIT_DEFAULTS): { cb: FitTrial; whole: FitTrial } | null {
   const { trials, run, reduced } = context;
-  const wholes = trials.filter((t) => t.side === "both");
+  const wholes = context.from ? [context.from] : trials.filter((t) => t.side === "both");
   if (!wholes.length) return null;
   const top = wholes.reduce((x, y) => (reduced(y) < reduced(x) ? y : x));
   if (!(reduced(top) <= settings.maxStartChiSquare)) return null;
