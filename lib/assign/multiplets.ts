@@ -118,3 +118,24 @@ function multiplet(band: Band, label: string, degeneracy: number | null, list: r
     subgroups,
   };
 }
+
+/**
+ * The sub-groups of a multiplet in order, each with the offset of its first peak within the
+ * multiplet (an index into `peaksV`, `peakIndices`), its size and its peaks' indices into the
+ * peak list.
+ *
+ * Example
+ * -------
+ * ```ts
+ * subgroupSpans({ subgroups: [2, 4], peakIndices: [3, 4, 6, 7, 8, 9] }).map((g) => g.start);  // => [0, 2]
+ * ```
+ */
+export function subgroupSpans(m: Pick<Multiplet, "subgroups" | "peakIndices">): { start: number; size: number; indices: number[] }[] {
+  const spans: { start: number; size: number; indices: number[] }[] = [];
+  let start = 0;
+  for (const size of m.subgroups) {
+    spans.push({ start, size, indices: m.peakIndices.slice(start, start + size) });
+    start += size;
+  }
+  return spans;
+}

@@ -10,6 +10,7 @@ import type { Assignment } from "./assignSpectrum.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
 import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 import { stepsShortOfP } from "./shells.ts";
+import { subgroupSpans } from "./multiplets.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -376,9 +377,8 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     }
     // 9. A dip in the charging steps inside a sub-group.
     for (const m of cb) {
-      let start = 0;
-      for (const size of m.subgroups) {
-        const steps = m.peakIndices.slice(start, start + size).map((i) => peaks[i].stepA);
+      for (const { start, indices } of subgroupSpans(m)) {
+        const steps = indices.map((i) => peaks[i].stepA);
         const dips = new Set<number>();
         for (let j = 1; j < steps.length - 1; j++) {
           if (steps[j] < dipRatio * Math.min(steps[j - 1], steps[j + 1])) {
@@ -396,26 +396,22 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
             );
           }
         }
-        start += size;
       }
     }
     // 17. A sub-group of two whose second charging peak steps far more than its first.
     for (const m of cb) {
-      let start = 0;
-      for (const size of m.subgroups) {
-        const [first, second] = m.peakIndices.slice(start, start + size).map((i) => peaks[i].stepA);
+      for (const { start, size, indices } of subgroupSpans(m)) {
+        const [first, second] = indices.map((i) => peaks[i].stepA);
         if (size === 2 && first > 0 && second >= pairRise * first) {
           add("pair-rise",
             `shell filling with ${m.label}'s charging peak at ${m.peaksV[start + 1].toFixed(3)} V stepping ${(second / first).toFixed(2)} × the one before it in a sub-group of two (≥ ${pairRise}), whereas a 2-state level's second charging peak steps r/(1 + r) < 1 × its first: another peak (a resonance through the substrate junction) may be merged with it and pull its position`,
           );
         }
-        start += size;
       }
     }
     // 16. Successive charging peaks of a sub-group spaced far from Ec.
     for (const m of ecV !== null && ecV > 0 ? cb : []) {
-      let start = 0;
-      for (const size of m.subgroups) {
+      for (const { start, size } of subgroupSpans(m)) {
         for (let j = start + 1; j < start + size; j++) {
           const gapV = m.peaksV[j] - m.peaksV[j - 1];
           if (Math.abs(gapV - ecV!) > spacingTolerance * ecV!) {
@@ -424,7 +420,6 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
             );
           }
         }
-        start += size;
       }
     }
   }
