@@ -11,6 +11,7 @@
  *   npm run bench:accuracy -- --mix crossover --n 100 --method fast --compare-models
  *   npm run bench:accuracy -- --mix crossover --method fast --count-only   # which spectra it would fit
  *   npm run bench:accuracy -- --mix crossover --method fast --compare-models --ec-check   # each fit's Ec against the rules' in σ
+ *   npm run bench:accuracy -- --mix low-eta --method fast --compare-models --verbose --only 15,99   # only these draws (seeds), to follow a change on a few
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
@@ -72,6 +73,10 @@ const ecCheck = args.includes("--ec-check");
 // With --count-only: which spectra --compare-models would fit and why (the rules' answers, no fit).
 const countOnly = args.includes("--count-only");
 const firstSeed = Number(arg("seed", "1"));
+// With --only S1,S2,…: analyse only the draws with these seeds (the range still starts at --seed and runs --n); the totals then count those draws alone.
+const only = args.includes("--only") ? new Set(arg("only", "").split(",").map(Number)) : null;
+/** Spectra analysed per regime: --n, or those of --only inside the range. */
+const analysedPerRegime = only ? [...only].filter((s) => s >= firstSeed && s < firstSeed + perRegime).length : perRegime;
 // "current": differentiate the simulated current; "measured": analyse a simulated lock-in dI/dV column.
 const path = arg("path", "current") as "current" | "measured";
 const mix = arg("mix", "default") as "default" | "crossover" | "cut-window" | "low-eta";
@@ -253,6 +258,7 @@ if (mix === "crossover") {
   const tunnelingEc = { reported: 0, within10: 0 }; // Ec from a charging satellite, tunnelling side
   for (let k = 0; k < perRegime; k++) {
     const seed = firstSeed + k;
+    if (only && !only.has(seed)) continue;
     const { scenario, truth } = syntheticSpectrum(seed, "intermediate", ranges);
     const sim = simulateCurve(scenario, { method, conductance: path === "measured" });
     const curve = { biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: sim.didvS, meta: { source: `crossover-${seed}`, metadata: {} } };
@@ -308,6 +314,7 @@ for (const regime of regimes) {
   const reasons = new Map<string, number>();
   for (let k = 0; k < perRegime; k++) {
     const seed = firstSeed + k;
+    if (only && !only.has(seed)) continue;
     const drawn = syntheticSpectrum(seed, regime, ranges);
     const { scenario } = drawn;
     let { truth } = drawn;
@@ -352,10 +359,10 @@ for (const regime of regimes) {
     }
   }
   if (regime === "intermediate") {
-    lines.push(`intermediate     ${perRegime} spectra: undetermined ${undetermined}, a definite regime ${wrongDefinite}`);
+    lines.push(`intermediate     ${analysedPerRegime} spectra: undetermined ${undetermined}, a definite regime ${wrongDefinite}`);
   } else {
     lines.push(
-      `${regime.padEnd(16)} ${perRegime} spectra: all criteria ${passed} (${((100 * passed) / perRegime).toFixed(1)} %), regime right ${regimeRight} (${((100 * regimeRight) / perRegime).toFixed(1)} %)`,
+      `${regime.padEnd(16)} ${analysedPerRegime} spectra: all criteria ${passed} (${((100 * passed) / analysedPerRegime).toFixed(1)} %), regime right ${regimeRight} (${((100 * regimeRight) / analysedPerRegime).toFixed(1)} %)`,
     );
     if (reasons.size) lines.push("   first failure: " + [...reasons.entries()].sort((a, b) => b[1] - a[1]).map(([k, v]) => `${k} ×${v}`).join(", "));
   }
