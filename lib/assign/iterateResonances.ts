@@ -9,6 +9,7 @@ import { ladderPairs } from "./ladderPairs.ts";
 import { ladderResonances } from "./ladderResonances.ts";
 import type { SecondJunctionResonance } from "./secondJunction.ts";
 import { medianInPlace } from "../util/medianInPlace.ts";
+import { subgroupSpans } from "./multiplets.ts";
 
 /** Limits of {@link iterateResonances} (locked by test/assign/iterateResonances.test.ts). */
 export const ITERATE_RESONANCES_DEFAULTS = Object.freeze({
@@ -142,11 +143,9 @@ export function iterateResonances(
 export function medianSpacingV(peaks: readonly Peak[], a: Assignment): number | null {
   const spacings: number[] = [];
   for (const m of a.multiplets) {
-    let start = 0;
-    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
-      const xs = m.peakIndices.slice(start, start + size).map((i) => Math.abs(peaks[i].biasV));
+    for (const { indices } of subgroupSpans(m)) {
+      const xs = indices.map((i) => Math.abs(peaks[i].biasV));
       for (let k = 1; k < xs.length; k++) spacings.push(Math.abs(xs[k] - xs[k - 1]));
-      start += size;
     }
   }
   return spacings.length < 3 ? null : medianInPlace(Float64Array.from(spacings));

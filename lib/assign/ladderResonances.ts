@@ -4,7 +4,7 @@
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import { substrateToTipStepRatio } from "../model/regimeLimits.ts";
-import type { Multiplet } from "./multiplets.ts";
+import { subgroupSpans, type Multiplet } from "./multiplets.ts";
 import { SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
 
 /** Choice among the peaks at one prediction in {@link ladderResonances} (locked by test/assign/ladderResonances.test.ts). */
@@ -146,11 +146,7 @@ function levelFirstPeaks(multiplets: LadderResonanceInputs["multiplets"]): Set<n
   const out = new Set<number>();
   for (const m of multiplets) {
     const whole = m.band === "CB" && m.degeneracy !== null && m.subgroups.length <= 1;
-    let start = 0;
-    for (const size of whole || !m.subgroups.length ? [m.peakIndices.length] : m.subgroups) {
-      if (size > 0) out.add(m.peakIndices[start]);
-      start += size;
-    }
+    for (const { indices } of subgroupSpans(whole ? { peakIndices: m.peakIndices, subgroups: [] } : m)) if (indices.length) out.add(indices[0]);
   }
   return out;
 }
@@ -168,14 +164,12 @@ export function ladderPredictions(peaks: readonly Pick<Peak, "biasV">[], inputs:
   const predictions: LadderResonance[] = [];
   for (const m of inputs.multiplets) {
     const whole = m.band === "CB" && m.degeneracy !== null && m.subgroups.length <= 1;
-    let start = 0;
-    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
+    for (const { size, indices } of subgroupSpans(m)) {
       const n = below[m.band];
-      for (const source of m.peakIndices.slice(start, start + size)) {
+      for (const source of indices) {
         const v = peaks[source].biasV;
         predictions.push({ index: -1, sourceIndex: source, predictedV: -Math.sign(v) * gain * (Math.abs(v) - n * ecV), carriersBelow: n });
       }
-      start += size;
       below[m.band] += whole ? 0 : size;
     }
     if (whole) below[m.band] += m.degeneracy!;

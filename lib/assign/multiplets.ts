@@ -122,7 +122,8 @@ function multiplet(band: Band, label: string, degeneracy: number | null, list: r
 /**
  * The sub-groups of a multiplet in order, each with the offset of its first peak within the
  * multiplet (an index into `peaksV`, `peakIndices`), its size and its peaks' indices into the
- * peak list.
+ * peak list. A multiplet with no sub-group sizes (`subgroups` empty) is one sub-group of all its
+ * peaks.
  *
  * Example
  * -------
@@ -133,7 +134,7 @@ function multiplet(band: Band, label: string, degeneracy: number | null, list: r
 export function subgroupSpans(m: Pick<Multiplet, "subgroups" | "peakIndices">): { start: number; size: number; indices: number[] }[] {
   const spans: { start: number; size: number; indices: number[] }[] = [];
   let start = 0;
-  for (const size of m.subgroups) {
+  for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
     spans.push({ start, size, indices: m.peakIndices.slice(start, start + size) });
     start += size;
   }

@@ -7,6 +7,7 @@ import type { Peak } from "../peaks/findPeaks.ts";
 import { predictedStep } from "../peaks/predictedStep.ts";
 import type { Assignment } from "../assign/assignSpectrum.ts";
 import { stepPeak, type FlankCurve } from "./flankLevels.ts";
+import { subgroupSpans } from "../assign/multiplets.ts";
 
 /** Limits of {@link shortShellPredictions} and {@link shortShellSteps} (locked by test/pipeline/shortShells.test.ts). */
 export const SHORT_SHELL_DEFAULTS = Object.freeze({
@@ -107,10 +108,8 @@ export function shortShellPredictions(
     if (m.degeneracy === null || m.peakIndices.length >= m.degeneracy) return;
     const before = k > 0 ? Math.max(...shells[k - 1].peakIndices.map((i) => peaks[i].biasV)) : 0;
     const ends: [number, number][] = [];
-    let start = 0;
-    for (const size of m.subgroups.length ? m.subgroups : [xs.length]) {
-      const g = xs.slice(start, start + size);
-      start += size;
+    for (const { indices } of subgroupSpans(m)) {
+      const g = indices.map((i) => peaks[i].biasV);
       if (g.length) ends.push([Math.min(...g), Math.max(...g)]);
     }
     for (const [first, last] of ends) {

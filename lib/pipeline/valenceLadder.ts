@@ -10,6 +10,7 @@ import { bandLadders, currentSteps, fastCurrent, type CurrentStep, type DotModel
 import { rateRatioFromStepRatio, REGIME_LIMITS } from "../model/regimeLimits.ts";
 import { stateCount, type Level } from "../model/scenario.ts";
 import { GAUSSIAN_FWHM_PER_SIGMA } from "../util/constants.ts";
+import { subgroupSpans } from "../assign/multiplets.ts";
 
 /** Limits of {@link valenceLadderPrediction} (locked by test/pipeline/valenceLadder.test.ts). */
 export const VALENCE_LADDER_DEFAULTS = Object.freeze({
@@ -126,12 +127,7 @@ export function valenceLadderPrediction(
   const groups: number[][] = [];
   for (const m of assignment.multiplets) {
     if (m.band !== "VB") continue;
-    let start = 0;
-    for (const size of m.subgroups.length ? m.subgroups : [m.peakIndices.length]) {
-      const own = m.peakIndices.slice(start, start + size);
-      start += size;
-      if (own.length) groups.push(own);
-    }
+    for (const { indices } of subgroupSpans(m)) if (indices.length) groups.push(indices);
   }
   if (!groups.length || groups.some((g) => g.length % 2)) return null;
   let spanV = 0, gaps = 0;
