@@ -33,6 +33,15 @@ export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
    */
   companionSourceStepRatioMax: substrateToTipStepRatio(2, REGIME_LIMITS.tunnelingRateRatioMax),
   /**
+   * {@link substrateChargingPeaks} judged from the source (its note 4): the least a resonance
+   * alone steps over its source where the tip side tunnels, (g·r + 1)/(g + r) for g = 2 as
+   * r = Γtip/Γsub → 0 (`substrateToTipStepRatio`): 1/2. Closed form; its use (with
+   * `companionSourceStepRatioMax` as the other end, by `underResonances` only where the VB reads
+   * shell tunnelling) was chosen on the accuracy benchmark (low-η shell-tunnelling draws whose
+   * p or s lies under a VB level's resonance).
+   */
+  ownShareSourceStepRatioMin: substrateToTipStepRatio(2, 0),
+  /**
    * {@link overlappedResonances}: where the tip side is not shell filling, a resonance stepping at
    * least this multiple of its source's step holds a level too: (g·r + 1)/(g + r) < 1 for every
    * g ≥ 2 and r = Γtip/Γsub < 1 (`substrateToTipStepRatio` at r = 1 is 1 for every g).
@@ -181,6 +190,9 @@ export function isPlainPrediction(r: Pick<SecondJunctionResonance, "predictedV">
  * stepRatio : readonly [number, number]
  *     The range of the second step over the first that reads as a charging doublet
  *     (`ASSIGN_DEFAULTS.fillingStepRatio`).
+ * fromSource : boolean
+ *     Judge the companion against the resonance's own share of its source's step instead of the
+ *     resonance's measured step (note 4); default false.
  *
  * Returns
  * -------
@@ -204,6 +216,12 @@ export function isPlainPrediction(r: Pick<SecondJunctionResonance, "predictedV">
  * 3. Through the substrate junction of a shell-tunnelling dot the doublet's steps are alike: their
  *    ratio is r'/(1 + r') for r' = Γsub/Γtip ≫ 1 (the closed form of `secondToFirstStepRatio` with
  *    the junctions' roles swapped).
+ * 4. With `fromSource`, where a tip-side level lies under the resonance its merged step says
+ *    nothing of the resonance's, and the companion's step is compared with the resonance's own
+ *    share of its source's instead: (g·r + 1)/(g + r) for g = 2 and r = Γtip/Γsub from 0 to the
+ *    tunnelling limit 3/7, i.e. `SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin` (1/2) to
+ *    `companionSourceStepRatioMax` (13/17) of the source, widened by `stepRatio` at each end. The
+ *    measured step of the resonance is not bounded then (it holds the level too).
  *
  * References
  * ----------
@@ -221,7 +239,7 @@ export function isPlainPrediction(r: Pick<SecondJunctionResonance, "predictedV">
  * substrateChargingPeaks(peaks, secondJunctionResonances(peaks, 0.6), 0.6, [0.6, 1.3]).map((r) => r.index);  // => [4]
  * ```
  */
-export function substrateChargingPeaks(peaks: readonly Peak[], resonances: readonly SecondJunctionResonance[], eta: number, stepRatio: readonly [number, number]): SecondJunctionResonance[] {
+export function substrateChargingPeaks(peaks: readonly Peak[], resonances: readonly SecondJunctionResonance[], eta: number, stepRatio: readonly [number, number], fromSource = false): SecondJunctionResonance[] {
   if (!(eta > 0 && eta < 1)) return [];
   const taken = new Set(resonances.map((r) => r.index));
   const free = peaks.map((p, k) => ({ p, k })).filter(({ k }) => !taken.has(k));
@@ -233,11 +251,15 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
   for (const r of resonances) {
     const res = peaks[r.index];
     const source = r.sourceIndex === cb.k || r.sourceIndex === vb.k;
-    if (!source || res.stepA > SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax * peaks[r.sourceIndex].stepA) continue;
+    const sourceStepA = peaks[r.sourceIndex].stepA;
+    if (!source || (!fromSource && res.stepA > SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax * sourceStepA)) continue;
     const beyond = free
       .filter(({ p }) => Math.sign(p.biasV) === Math.sign(res.biasV) && Math.abs(p.biasV) > Math.abs(res.biasV))
       .sort((a, b) => Math.abs(a.p.biasV) - Math.abs(b.p.biasV));
-    const next = beyond.find(({ p }) => p.stepA >= stepRatio[0] * res.stepA && p.stepA <= stepRatio[1] * res.stepA);
+    const [lowA, highA] = fromSource
+      ? [stepRatio[0] * SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin * sourceStepA, stepRatio[1] * SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax * sourceStepA]
+      : [stepRatio[0] * res.stepA, stepRatio[1] * res.stepA];
+    const next = beyond.find(({ p }) => p.stepA >= lowA && p.stepA <= highA);
     if (!next) continue;
     const spacingV = Math.abs(next.p.biasV - res.biasV);
     if (spacingV <= SECOND_JUNCTION_DEFAULTS.companionSpacingFwhmMin * res.fwhmV || (1 - eta) * spacingV > SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax * gapEV) continue;

@@ -236,6 +236,12 @@ export function withoutExtraLevel(peaks: readonly Peak[], eta: number, etaGiven:
  * least `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × its first (its levels, untouched by the CB
  * resonances, say shell tunnelling too). A shared p peak set aside as a resonance leaves s and
  * an unpredicted resonance stepping in the intermediate band, so the first reading names none.
+ * Where the first reading was shell tunnelling and the released levels alone name another
+ * regime, the band-edge level's substrate-side second charging peak, judged against the
+ * resonance's own share of its source's step (`substrateChargingPeaks` note 4), is set aside
+ * too: the reading stands if it is shell tunnelling with the VB's second step at least
+ * `ASSIGN_DEFAULTS.tunnelingStepRatioMin` × its first (that peak, counted as a level, had taken
+ * the place of the one under the resonance).
  */
 export function underResonances(peaks: readonly Peak[], eta: number, etaGiven: boolean, first: Assignment, options: AssignOptions): Assignment {
   const set = first.evidence.secondJunction;
@@ -245,13 +251,18 @@ export function underResonances(peaks: readonly Peak[], eta: number, etaGiven: b
   const second = assignWith(peaks, eta, etaGiven, kept, options);
   // Where the first reading named no regime, shell tunnelling stands if the VB shows it too.
   const opened = first.regime === "undetermined" && second.regime === "shell-tunneling" && (second.evidence.valenceStepRatio ?? 0) >= ASSIGN_DEFAULTS.tunnelingStepRatioMin;
-  if (second.regime !== first.regime && !opened) return first;
+  const stands = second.regime === first.regime || opened;
   // With those levels back, a band-edge level's second charging peak through the substrate junction
   // goes too where the regime stays (set aside with every resonance, it left too few CB peaks to
-  // name one).
-  const companions = substrateChargingPeaks(peaks, set, eta, ASSIGN_DEFAULTS.fillingStepRatio).filter((c) => !set.some((r) => r.index === c.index));
+  // name one). Where the regime does not stay, a shell-tunnelling reading is kept if that peak,
+  // judged against the resonance's own share of its source's step (note 4 of
+  // `substrateChargingPeaks`: a level under the resonance inflates the merged step, and the
+  // companion was counted in the ladder), goes and the VB's levels read shell tunnelling too.
+  const companions = substrateChargingPeaks(peaks, set, eta, ASSIGN_DEFAULTS.fillingStepRatio, !stands).filter((c) => !set.some((r) => r.index === c.index));
   const third = companions.length ? assignWith(peaks, eta, etaGiven, [...kept, ...companions], options) : null;
-  const result = third && third.regime === second.regime ? third : second;
+  const tunnels = (x: Assignment) => first.regime === "shell-tunneling" && x.regime === "shell-tunneling" && (x.evidence.valenceStepRatio ?? 0) >= ASSIGN_DEFAULTS.tunnelingStepRatioMin;
+  if (!stands && !(third && tunnels(third))) return first;
+  const result = third && (!stands || third.regime === second.regime) ? third : second;
   result.evidence.reasons.unshift(
     ...(result === third ? companionReasons(peaks, companions) : []),
     ...under.map((r) =>

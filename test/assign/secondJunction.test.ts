@@ -53,7 +53,8 @@ describe("secondJunctionResonances(peaks, eta)", () => {
   });
 
   it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %; Ec at most a quarter of the gap; closed form 13/17 for the step ratio)", () => {
-    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number), deeperChargingMax: 2 });
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), ownShareSourceStepRatioMin: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number), deeperChargingMax: 2 });
+    expectClose(SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin, 1 / 2, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r → 0" });
     expectClose(SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax, 13 / 17, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r = 3/7" });
     expectClose(SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin, 1, { rtol: 1e-12, what: "closed form: (g·r + 1)/(g + r) at r = 1" });
   });
@@ -94,6 +95,45 @@ describe("substrateChargingPeaks(peaks, resonances, eta, stepRatio)", () => {
   it("finds none where the resonance is higher than its source (the substrate side of shell filling shows a level, ratio → 2)", () => {
     const peaks = [at(-1.0, 1e-12), at(0.9, 1e-12), at(1.5, 1.9e-12), at(1.75, 1.8e-12)];
     expect(substrateChargingPeaks(peaks, secondJunctionResonances(peaks, 0.6), 0.6, [0.6, 1.3])).toEqual([]);
+  });
+});
+
+describe("substrateChargingPeaks(…, fromSource = true): the companion judged against the resonance's own share of its source", () => {
+  // Shell tunnelling at η = 0.6 (gain 1.5): v1 at −1.0 V (2 pA), its resonance at 1.5 V with the
+  // s level under it, and the resonance's second charging peak at 1.5 + Ec/(1 − η) = 1.75 V for
+  // Ec = 0.1 eV (closed form). The resonance alone steps (g·r + 1)/(g + r) of its source, 1/2 to
+  // 13/17 for g = 2 and r = Γtip/Γsub from 0 to 3/7 (closed form), and the companion about as much.
+  const at = (biasV: number, stepA: number): Peak => ({ ...peak(biasV), stepA });
+  const peaks = [at(-1.0, 2e-12), at(1.5, 3e-12), at(1.75, 1.1e-12), at(2.3, 4e-12)];
+  const res = [{ index: 1, sourceIndex: 0, predictedV: 1.5 }];
+  it("finds the companion past a merged level + resonance peak that the plain test skips (it steps more than its source)", () => {
+    expect(substrateChargingPeaks(peaks, res, 0.6, [0.6, 1.3])).toEqual([]);
+    expect(substrateChargingPeaks(peaks, res, 0.6, [0.6, 1.3], true).map((r) => r.index)).toEqual([2]);
+  });
+  it("takes no peak stepping like a level of its own (above 1.3 × 13/17 of the source) or far below the least share (0.6 × 1/2)", () => {
+    const strong = [at(-1.0, 2e-12), at(1.5, 3e-12), at(1.75, 2.2e-12)];
+    expect(substrateChargingPeaks(strong, res, 0.6, [0.6, 1.3], true)).toEqual([]);
+    const weak = [at(-1.0, 2e-12), at(1.5, 3e-12), at(1.75, 0.5e-12)];
+    expect(substrateChargingPeaks(weak, res, 0.6, [0.6, 1.3], true)).toEqual([]);
+  });
+});
+
+describe("assignSpectrum: a p level under a VB level's resonance, the first level's substrate charging peak not counted in p", () => {
+  // Shell tunnelling at η = 0.56 (gain η/(1 − η) = 14/11): v1 at −1.5 V and v2 at −2.0 V through
+  // the tip; their resonances at 1.909 V and 2.545 V (−η·V/(1 − η), closed form); s at 2.06 V;
+  // v1's resonance's second charging peak at 1.909 + Ec/(1 − η) = 2.273 V for Ec = 0.16 eV
+  // (closed form); the p level lies under v2's resonance, so that peak steps p's share plus the
+  // resonance's (more than its source). The companion steps 0.8 × v1 (within 13/17 × 1.3 of it)
+  // but 1.33 × v1's resonance (above the doublet range 0.6–1.3 for measured steps).
+  const at = (biasV: number, stepA: number): Peak => ({ ...peak(biasV), fwhmV: 0.05, stepA });
+  const g = 0.56 / 0.44;
+  const peaks = [at(-2.0, 1.3e-12), at(-1.5, 0.75e-12), at(1.5 * g, 0.45e-12), at(2.06, 0.9e-12), at(1.5 * g + 0.16 / 0.44, 0.6e-12), at(2.0 * g, 2.4e-12)];
+  it("reads shell tunnelling with p at the peak under the resonance and the companion set aside", () => {
+    const a = assignSpectrum(peaks, { eta: 0.56 });
+    expect(a.regime).toBe("shell-tunneling");
+    expect(a.multiplets.find((m) => m.label === "s")?.peakIndices).toEqual([3]);
+    expect(a.multiplets.find((m) => m.label === "p")?.peakIndices).toEqual([5]);
+    expect(a.evidence.secondJunction.map((r) => r.index).sort()).toEqual([2, 4]);
   });
 });
 
