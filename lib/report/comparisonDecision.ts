@@ -118,6 +118,16 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  * 5. When all hold, the fit decides: where the rules were undetermined it gives the answer; where
  *    they agree it confirms them with its grouping (a shell the rules read short of its
  *    degeneracy is fitted whole); where they disagree it overrides them.
+ * 6. A weighted run's answer, for step 2, is also the one its own whole-curve fit gives
+ *    (`FitAlternative.wholeCurve`: the fit makes one from each CB-side finalist that carries
+ *    weight): where that fit describes the curve and lands on the fit's Ec (within
+ *    `sameAnswerEcFraction`) and regime (or within `sameAnswerRateSigmas` of its Γtip/Γsub), the
+ *    run gives the fit's answer however far its CB-side values lay. On the CB side a ladder
+ *    entered one carrier later, or p split where it is whole, can reach nearly the same χ² with Ec
+ *    5–15 % away; the VB levels and the gap on the whole curve pin Ec and Γtip/Γsub, and two
+ *    groupings whose whole-curve fits agree are not rival answers (low-η mix with the comparison,
+ *    seed 1001: spectra 1027, 1041, 1068 and 1162, intermediate, read right by a good fit whose
+ *    own grouping carried 0.33–0.81 of the weight).
  *
  * References
  * ----------
@@ -170,7 +180,14 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   // start, on the same points as it, whatever regime the whole curve then moved the fit into).
   const near = (x: number, ref: number) => rate !== null && rate !== undefined && rate.value > 0 && ref > 0 && x > 0 && Math.abs(Math.log(x / ref)) <= (sameRate * rate.standardError) / rate.value;
   const nearRate = (x: number) => near(x, rate?.value ?? NaN) || (own !== null && near(x, own.rateRatio));
-  const sameAnswer = m.alternatives.filter((a) => a === own || ((regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc));
+  // … or whose own whole-curve fit, started from its CB-side values, describes the curve and lands
+  // on the fit's answer (step 6): the whole curve, with the VB levels and the gap, does not tell
+  // them apart.
+  const sameWhole = (a: (typeof m.alternatives)[number]) => {
+    const w = a.wholeCurve;
+    return w !== undefined && w.describesCurve && fitEc !== null && (regimeOfRatio(w.rateRatio) === m.regime || near(w.rateRatio, rate?.value ?? NaN)) && Math.abs(w.chargingEnergyEV - fitEc) <= sameEc * fitEc;
+  };
+  const sameAnswer = m.alternatives.filter((a) => a === own || sameWhole(a) || ((regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc));
   const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
   if (weight < minWeight) {
     return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but the groupings that give its answer carry ${weight.toFixed(2)} of the BIC weight (< ${minWeight}): a grouping with another answer fits nearly as well` };

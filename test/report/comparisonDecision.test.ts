@@ -118,6 +118,27 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     expect(rival.decision).toContain("carry 0.50 of the BIC weight");
   });
 
+  it("counts a rival grouping whose own whole-curve fit describes the curve and lands on the fit's answer, however far its CB-side Ec lay", () => {
+    // The groupings were weighed on the CB side: the winner at Ec 140.7 meV (weight 0.65), a ladder
+    // entered one carrier later at 161.1 meV (14.5 % off, 0.35), both intermediate. The fit's whole
+    // curve: Ec 143.8 meV, Γtip/Γsub 0.571 ± 0.004. The rival's own whole-curve fit, started from its
+    // CB-side values, reaches 143.9 meV (0.07 % from the fit's, inside 3 %) and 0.572 (intermediate):
+    // the same answer, 0.65 + 0.35 (the documented rule, step 6).
+    const whole = { regime: "intermediate", hypothesis: "winner", rateRatio: { value: 0.571, standardError: 0.004 }, quantities: { gapEV: null, chargingEnergyEV: { value: 0.1438, standardError: 0.0003 }, levelSpacingSPEV: null } } as Partial<ModelComparisonJson>;
+    const undetermined = { regime: "undetermined", chargingEnergyEV: null };
+    const rivalWhole = (chargingEnergyEV: number, rateRatio: number, describesCurve: boolean): FitAlternative => ({ ...alt("rival", 0.617, 0.1611, 0.35), wholeCurve: { rateRatio, chargingEnergyEV, reducedChiSquare: describesCurve ? 0.93 : 4, describesCurve } });
+    const same = comparisonDecision(comparison([alt("winner", 0.561, 0.1407, 0.65), rivalWhole(0.1439, 0.572, true)], whole), undetermined);
+    expect(same.decides).toBe(true);
+    expect(same.decision).toContain("carry 1.00 of the BIC weight");
+    // Its whole-curve fit elsewhere (Ec 5 % off the fit's), in another regime (Γtip/Γsub 2, shell
+    // filling), or not describing the curve: another answer, 0.65 alone.
+    for (const rival of [rivalWhole(0.151, 0.572, true), rivalWhole(0.1439, 2, true), rivalWhole(0.1439, 0.572, false)]) {
+      const d = comparisonDecision(comparison([alt("winner", 0.561, 0.1407, 0.65), rival], whole), undetermined);
+      expect(d.decides).toBe(false);
+      expect(d.decision).toContain("carry 0.65 of the BIC weight");
+    }
+  });
+
   it("keeps the rules' reading of the same regime when the fit leaves a quantity undetermined (Δsp with a NaN error), and still answers where the rules are undetermined", () => {
     // The documented rule (step 4): a level beyond the points fitted is not determined; the rules place it.
     const blind = { quantities: { gapEV: null, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.6, standardError: NaN } } } as Partial<ModelComparisonJson>;

@@ -62,6 +62,12 @@ export interface FitAlternative {
    * compared, else the assignment's whole-curve fits): the relative weight of evidence; 0 for the rest.
    */
   weight: number;
+  /**
+   * The whole-curve fit started from this CB-side run ({@link weightedWholeFits}): its Γtip/Γsub,
+   * Ec (eV), reduced χ² and whether it describes the curve; set on the CB-side finalists that
+   * carry weight, absent elsewhere.
+   */
+  wholeCurve?: { rateRatio: number; chargingEnergyEV: number; reducedChiSquare: number; describesCurve: boolean };
 }
 
 /** The work a fit did and its limits ({@link fitCurve}). */

@@ -32,6 +32,7 @@ import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blin
 import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import { wholeCurveSplits } from "./wholeCurveSplits.ts";
+import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
 import { peakEcRefuted } from "./peakEcRefuted.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
@@ -191,7 +192,7 @@ export interface FitOptions {
  *    the accuracy bar that missed it free, and some that met it free miss it). An assignment with more than maxAssignedStates (100) charge
  *    states in a band is not fitted when groupings can be compared instead. Without a rival, the assignment alone
  *    is restarted from Γtip/Γsub = 0.01 … 100 (rateRatioStartsLog10) when it does not describe
- *    the curve.
+ *    the curve. Every other CB-side finalist that carries BIC weight is fitted to the whole curve too, for the answer it gives there ({@link weightedWholeFits}, `FitAlternative.wholeCurve`).
  * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
  *    filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5), shell tunnelling at ≤
  *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
@@ -345,8 +346,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
-  // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before
-  // the forced regimes before the ladders): readings that reach the same levels are one model.
+  // The lowest BIC; within bicTieMargin of it, the hypothesis listed first (the assignment before the forced regimes before the ladders): readings that reach the same levels are one model.
   const lowest = Math.min(...pool.map((t) => t.bic));
   // Retried and refined groupings come after every listed one.
   const order = (t: FitTrial) => {
@@ -380,8 +380,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
   let whole = wholeOf.get(winner);
   if (!whole && wholeFitOf && winner.side === "CB") {
-    // A tie went to a grouping whose whole-curve fit the search did not need (it stopped at a
-    // tied rival's): fit it now, so that the VB levels and the gap are not lost.
+    // A tie went to a grouping whose whole-curve fit the search did not need (it stopped at a tied rival's): fit it now, so that the VB levels and the gap are not lost.
     whole = wholeFitOf(winner);
     cbSideOf.set(whole, winner);
     wholeOf.set(winner, whole);
@@ -508,10 +507,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const at = parameterIndex(seeds.length);
   const { parameters: params, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
-  const { evaluations, stoppedBy, budgetPart } = work();
+  const { stoppedBy, budgetPart } = work();
   const budgetWords = budgetPart === "evaluations" ? `${maxEvaluations} model evaluations` : `${F.maxEliminationSteps.toExponential(1)} master-equation elimination steps`;
   const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${budgetWords} (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
   if (cutShort) warnings.push(cutShort);
+  const wholeAnswers = wholeFitOf ? weightedWholeFits({ finalists, weights, wholeOf, wholeFitOf, describes: split.describes, reduced }) : new Map(); // the weighted groupings' own whole-curve answers, after the fit's result (its work counted, the budget's stop not)
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
@@ -568,13 +568,13 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     converged,
     message,
     iterations,
-    work: { evaluations, maxEvaluations, timeLimitMs, stoppedBy },
+    work: { evaluations: work().evaluations, maxEvaluations, timeLimitMs, stoppedBy },
     eta,
     status: failed ? "failed" : status.status,
     statusReasons: status.reasons,
     hypothesis: hypothesis.name,
     evidence,
-    alternatives: trials.map((t) => (finalists.includes(t) ? fitAlternative(t, weights[finalists.indexOf(t)], implausibleOf(t)) : fitAlternative(t, 0, t.implausible))),
+    alternatives: trials.map((t) => (finalists.includes(t) ? fitAlternative(t, weights[finalists.indexOf(t)], implausibleOf(t), wholeAnswers.get(t)) : fitAlternative(t, 0, t.implausible))),
     levels: orderLevels(seeds.map((s, j) => ({
       band: s.band,
       label: s.label,

@@ -146,7 +146,7 @@ export function plausibilityInput(t: FitTrial): PlausibilityInput {
  * fitAlternative(trial, 1, []).weight; // => 1
  * ```
  */
-export function fitAlternative(t: FitTrial, weight: number, implausible: string[] | null): FitAlternative {
+export function fitAlternative(t: FitTrial, weight: number, implausible: string[] | null, wholeCurve?: FitAlternative["wholeCurve"]): FitAlternative {
   const at = parameterIndex(t.hypothesis.seeds.length);
   return {
     hypothesis: t.hypothesis.name,
@@ -162,5 +162,6 @@ export function fitAlternative(t: FitTrial, weight: number, implausible: string[
     finished: t.finished,
     implausible,
     weight,
+    ...(wholeCurve ? { wholeCurve } : {}),
   };
 }
