@@ -1,5 +1,5 @@
 /**
- * The p shell split about the best whole-curve fit: at low η the VB side fixes Ec and the VB
+ * The p shell split about the best whole-curve fit (then the next few, until one splits): at low η the VB side fixes Ec and the VB
  * levels, and the CB levels' substrate-junction steps among the VB peaks tell a split p shell
  * from a whole one where the CB side alone does not.
  */
@@ -9,6 +9,7 @@ import type { DataSet, FitTrial } from "./fitTrial.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { refinementStarts } from "./refinementStarts.ts";
 import { recentredSeeds } from "./wholeCurveRestarts.ts";
+import { sameFit } from "./sameFit.ts";
 
 /** Defaults of {@link wholeCurveSplits} (locked by test/model/fit/wholeCurveSplits.test.ts). */
 export const WHOLE_CURVE_SPLIT_DEFAULTS = Object.freeze({
@@ -20,6 +21,14 @@ export const WHOLE_CURVE_SPLIT_DEFAULTS = Object.freeze({
   maxStartChiSquare: 10,
   /** Explored split starts finished (the lowest BICs after their explore iterations). Chosen on the accuracy benchmark (low-η mix with the comparison). */
   finishedStarts: 2,
+  /**
+   * Whole-curve fits split in turn, the lowest reduced χ² first (one per distinct fit), until one
+   * gives a split that describes the curve: on a CB side that ends before p the best whole-curve
+   * fit may be a grouping whose p the split starts cannot reach (the rules' p one charging peak
+   * off) while the next one's split lands on the right sub-levels. Chosen on the accuracy
+   * benchmark (low-η mix with the comparison).
+   */
+  splitBases: 3,
 });
 
 /** What {@link wholeCurveSplits} works with. */
@@ -44,7 +53,7 @@ export interface WholeCurveSplitContext {
   acceptable: (whole: FitTrial, cb: FitTrial) => boolean;
   /** The held VB levels of the CB-side hypotheses ({@link heldValenceLevels}), if any. */
   heldVb?: FitHypothesis["heldVb"];
-  /** The whole-curve run to split. Default: the one of `trials` with the lowest reduced χ². */
+  /** The whole-curve run to split. Default: those of `trials` with the lowest reduced χ², in turn (notes 4). */
   from?: FitTrial;
 }
 
@@ -57,14 +66,14 @@ export interface WholeCurveSplitContext {
  *     The runs so far, the run function, the CB side, η, the iteration budgets, the tests and,
  *     optionally, the whole-curve run to split (`from`; default the best of the runs so far).
  * settings : typeof WHOLE_CURVE_SPLIT_DEFAULTS, optional
- *     maxStartChiSquare and finishedStarts.
+ *     maxStartChiSquare, finishedStarts and splitBases.
  *
  * Returns
  * -------
  * { cb: FitTrial; whole: FitTrial } | null
  *     The split whole-curve run with the lowest BIC that describes the curve and is acceptable,
- *     with its grouping fitted on the CB side from it; null when the best whole-curve run is above
- *     maxStartChiSquare, has no p level to split, or no split is acceptable.
+ *     with its grouping fitted on the CB side from it; null when no whole-curve run tried (notes 4)
+ *     is at most maxStartChiSquare with a p level to split and an acceptable split.
  *
  * Throws
  * ------
@@ -81,6 +90,13 @@ export interface WholeCurveSplitContext {
  *    with a VB reading that fits sets Ec and the levels to within a few per cent.
  * 3. The CB side of the chosen split is fitted from its whole-curve values, so that the
  *    comparison of the two sides' Ec and Γtip/Γsub (fitCurve) is made within one grouping.
+ * 4. Without `from`, the whole-curve runs of `trials` are tried in order of their reduced χ²,
+ *    skipping one at the same fit as a run already tried ({@link sameFit}), at most
+ *    splitBases of them, and the first that gives an acceptable split is returned (the first
+ *    tried is the best, as with one). At η 0.55–0.65 the CB side may end before p, and every
+ *    grouping's whole-curve fit from it misses: the best may hold the rules' p, one charging
+ *    peak off where the rules set p's first peak aside, and its splits keep that first level,
+ *    while a whole p read from the empty dot splits into the right sub-levels.
  *
  * Example
  * -------
@@ -90,10 +106,22 @@ export interface WholeCurveSplitContext {
  * ```
  */
 export function wholeCurveSplits(context: WholeCurveSplitContext, settings = WHOLE_CURVE_SPLIT_DEFAULTS): { cb: FitTrial; whole: FitTrial } | null {
+  if (context.from) return splitAbout(context.from, context, settings);
+  // The whole-curve runs in order of their reduced χ², one per fit, until one splits (notes 4).
+  const bases: FitTrial[] = [];
+  for (const t of context.trials.filter((x) => x.side === "both").sort((x, y) => context.reduced(x) - context.reduced(y))) {
+    if (bases.length === settings.splitBases) break;
+    if (bases.some((b) => sameFit(b, t))) continue;
+    bases.push(t);
+    const found = splitAbout(t, context, settings);
+    if (found) return found;
+  }
+  return null;
+}
+
+/** One whole-curve run's p split (notes 1–3). */
+function splitAbout(top: FitTrial, context: WholeCurveSplitContext, settings: typeof WHOLE_CURVE_SPLIT_DEFAULTS): { cb: FitTrial; whole: FitTrial } | null {
   const { trials, run, reduced } = context;
-  const wholes = context.from ? [context.from] : trials.filter((t) => t.side === "both");
-  if (!wholes.length) return null;
-  const top = wholes.reduce((x, y) => (reduced(y) < reduced(x) ? y : x));
   if (!(reduced(top) <= settings.maxStartChiSquare)) return null;
   const seeds = top.hypothesis.seeds;
   const ncb = seeds.filter((s) => s.band === "CB").length;

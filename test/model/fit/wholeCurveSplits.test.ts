@@ -49,7 +49,7 @@ function context(topChi: number, chiOf: (layout: string, iterations: number) => 
 
 describe("wholeCurveSplits(context)", () => {
   it("WHOLE_CURVE_SPLIT_DEFAULTS are locked", () => {
-    expect(WHOLE_CURVE_SPLIT_DEFAULTS).toEqual({ maxStartChiSquare: 10, finishedStarts: 2 });
+    expect(WHOLE_CURVE_SPLIT_DEFAULTS).toEqual({ maxStartChiSquare: 10, finishedStarts: 2, splitBases: 3 });
     expect(Object.isFrozen(WHOLE_CURVE_SPLIT_DEFAULTS)).toBe(true);
   });
 
@@ -79,6 +79,39 @@ describe("wholeCurveSplits(context)", () => {
     const cbRun = runs.find((r) => r.set === cbSide)!;
     expect(cbRun.seeds.every((s) => s.band === "CB")).toBe(true);
     expect(found?.cb.side).toBe("CB");
+  });
+
+  it("splits the next whole-curve fit when the best one's splits do not describe the curve, skipping one at the same fit (notes 4; common practice (no source))", () => {
+    // Splits keep the degeneracy-weighted mean of p (closed form), so a split's p levels tell its
+    // base apart: about p = 1.334 eV (the best fit, and a copy at the same fit) no split describes
+    // the curve; about p = 1.42 eV (the next, χ² 4.5) the 2+2+4 split does.
+    const { context: ctx, runs } = context(3.86, () => 4);
+    const next = [0.965, 1.42, 0.901, 1.189, 0.1075, -0.26, -2, 1, 0, 0, 0];
+    ctx.trials.push(trial(h, 3.9, [...topParameters], "both"), trial(h, 4.5, next, "both"), trial(h, 5, [0.965, 1.5, 0.901, 1.189, 0.1075, -0.26, -2, 1, 0, 0, 0], "both"));
+    const pMeanOf = (r: { from: number[]; seeds: LevelSeed[] }) => {
+      const ncb = r.seeds.filter((s) => s.band === "CB").length;
+      return r.from.slice(1, ncb).reduce((a, e, j) => a + e * r.seeds[j + 1].degeneracy, 0) / 6;
+    };
+    const run = ctx.run;
+    ctx.run = (hv, r0, iterations, from, set) => {
+      const t = run(hv, r0, iterations, from, set);
+      const layout = hv.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy).join("+");
+      if (!set && from && layout === "2+2+4" && Math.abs(pMeanOf({ from, seeds: hv.seeds }) - 1.42) < 1e-9) (t.loop as { chiSquare: number }).chiSquare = 1.08;
+      return t;
+    };
+    const found = wholeCurveSplits(ctx);
+    expect(found?.whole.loop.chiSquare).toBe(1.08);
+    const explored = runs.filter((r) => r.iterations === 8);
+    // about 1.334 eV once (the copy at the same fit is skipped), then about 1.42 eV; 1.5 eV not reached.
+    const means = [...new Set(explored.map((r) => pMeanOf(r).toFixed(6)))];
+    expect(means).toEqual(["1.334000", "1.420000"]);
+    const about = (v: string) => explored.filter((r) => pMeanOf(r).toFixed(6) === v).length;
+    expect(about("1.334000")).toBe(about("1.420000"));
+    // at most splitBases runs are split: with all four failing, three distinct fits are tried.
+    const none = context(3.86, () => 4);
+    none.context.trials.push(trial(h, 4.5, next, "both"), trial(h, 5, [0.965, 1.5, 0.901, 1.189, 0.1075, -0.26, -2, 1, 0, 0, 0], "both"), trial(h, 6, [0.965, 1.6, 0.901, 1.189, 0.1075, -0.26, -2, 1, 0, 0, 0], "both"));
+    expect(wholeCurveSplits(none.context)).toBeNull();
+    expect(new Set(none.runs.filter((r) => r.iterations === 8).map((r) => pMeanOf(r).toFixed(6))).size).toBe(WHOLE_CURVE_SPLIT_DEFAULTS.splitBases);
   });
 
   it("returns null when the best whole-curve fit is above maxStartChiSquare, or no split describes the curve", () => {
