@@ -19,9 +19,10 @@ export interface SetAsidePeakOptions {
    */
   missingPeakTolerance?: number;
   /**
-   * Shell filling: a peak set aside in a gap with room for one charging peak counts only when it
-   * steps at least this multiple of the lower of the two charging peaks around it; dimensionless.
-   * Default 1.
+   * Shell filling: a peak set aside before a short shell counts only when it steps at least this
+   * multiple of the shell's first charging peak, and one in a gap with room for one charging peak
+   * only when it steps at least this multiple of the lower of the two charging peaks around it;
+   * dimensionless. Default 1.
    */
   missingPeakStepMin?: number;
   /** Shell tunnelling: at least this many CB peaks beyond the last level left unread. Default 1. */
@@ -37,8 +38,12 @@ export const SET_ASIDE_PEAK_DEFAULTS = Object.freeze({
    */
   missingPeakTolerance: 0.175,
   /**
-   * A set-aside peak in such a gap steps at least this multiple of the lower charging peak around
-   * it (chosen on the accuracy benchmark, see note 19 of rulesDecisive).
+   * A set-aside peak before a short shell steps at least this multiple of the shell's first
+   * charging peak, one in such a gap at least this multiple of the lower charging peak around it:
+   * a charging peak steps like its level's others (merged with a resonance, more), whereas the
+   * charging satellite that a filling shell shows one Ec before its first peak (the level entered
+   * before the shell below is full) steps a fraction of them (chosen on the accuracy benchmark,
+   * see notes 18 and 19 of rulesDecisive).
    */
   missingPeakStepMin: 1,
   /** Unread CB peaks beyond the last tunnelling level that leave the reading open (chosen on the accuracy benchmark, see note 20 of rulesDecisive). */
@@ -95,9 +100,12 @@ export interface SetAsidePeakReason {
  * resonance through the substrate junction, or unassigned; `peakRoles`). One level's charging
  * peaks lie one Ec apart in bias, (ε + Ec(n + ½))/η, whatever the rates.
  * 1. (note 18) Shell filling with a shell after s short of its degeneracy while a set-aside peak
- *    lies within `missingPeakTolerance` × Ec of one Ec before its first charging peak (and after
- *    the previous shell's last): the shell's first charging peak may be that peak, set aside as a
- *    resonance or satellite it overlaps, and the shell read from its second.
+ *    stepping at least `missingPeakStepMin` × the shell's first charging peak lies within
+ *    `missingPeakTolerance` × Ec of one Ec before that peak (and after the previous shell's last):
+ *    the shell's first charging peak may be that peak, set aside as a resonance or satellite it
+ *    overlaps, and the shell read from its second. A weaker peak there is the shell's own charging
+ *    satellite (its level entered before the shell below is full), which lies one Ec before its
+ *    first charging peak on any filling curve that shows it.
  * 2. (note 19) Shell filling with two successive charging peaks of a shell (in one sub-group or
  *    across two) whose gap has room for one more, half of it within `missingPeakTolerance` × Ec of
  *    Ec, while a set-aside peak stepping at least `missingPeakStepMin` × the lower of the two lies
@@ -143,11 +151,11 @@ export function setAsidePeakReasons(
       // 1. A short shell whose first charging peak may have been set aside.
       if (k === 0 || m.degeneracy === null || m.found === 0 || m.found >= m.degeneracy) return;
       const before = cb[k - 1].peaksV;
-      const i = near(m.peaksV[0] - ecV, before.length ? before[before.length - 1] : 0, 0);
+      const i = near(m.peaksV[0] - ecV, before.length ? before[before.length - 1] : 0, stepMin * peaks[m.peakIndices[0]].stepA);
       if (i === undefined) return;
       out.push({
         code: "first-peak-set-aside",
-        text: `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, while the peak at ${peaks[i].biasV.toFixed(3)} V, ${((m.peaksV[0] - peaks[i].biasV) / ecV).toFixed(2)} × Ec (${(ecV * 1e3).toFixed(0)} mV) before its first, was set aside: ${m.label}'s first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
+        text: `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, while the peak at ${peaks[i].biasV.toFixed(3)} V, ${((m.peaksV[0] - peaks[i].biasV) / ecV).toFixed(2)} × Ec (${(ecV * 1e3).toFixed(0)} mV) before its first and stepping ${(peaks[i].stepA / peaks[m.peakIndices[0]].stepA).toFixed(2)} × it (≥ ${stepMin}), was set aside: ${m.label}'s first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
       });
     });
     for (const m of cb) {

@@ -50,14 +50,14 @@ describe("setAsidePeakReasons(peaks, assignment, options)", () => {
     expectDocumentedDefaults(new URL("../../lib/assign/setAsidePeaks.ts", import.meta.url), "SetAsidePeakOptions", SET_ASIDE_PEAK_DEFAULTS);
   });
 
-  it("note 18: flags a p read from its second charging peak while its first, one Ec before, was set aside; not when p is whole or the peak lies 0.7 Ec before", () => {
+  it("note 18: flags a p read from its second charging peak while its first, one Ec before, was set aside; not when p is whole, the peak lies 0.7 Ec before, or it steps like a charging satellite", () => {
     // p's six charging peaks (closed form); the first taken for a resonance it overlaps, so p reads 5.
     const peaks = [...sV, ...pV].map((v) => assignPeak(v));
     const short = reading(peaks, "shell-filling", [shell(peaks, "s", 2, [0, 1]), shell(peaks, "p", 6, [3, 4, 5, 6, 7])], { resonances: [2] });
     expect(setAsidePeakReasons(peaks, short)).toEqual([
       {
         code: "first-peak-set-aside",
-        text: `shell filling with 5 of the p multiplet's 6 charging peaks, while the peak at ${pV[0].toFixed(3)} V, 1.00 × Ec (125 mV) before its first, was set aside: p's first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
+        text: `shell filling with 5 of the p multiplet's 6 charging peaks, while the peak at ${pV[0].toFixed(3)} V, 1.00 × Ec (125 mV) before its first and stepping 1.00 × it (≥ 1), was set aside: p's first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
       },
     ]);
     // The same reason through rulesDecisive, the window ending before p's next charging peak (note 3 silent).
@@ -68,6 +68,14 @@ describe("setAsidePeakReasons(peaks, assignment, options)", () => {
     // The set-aside peak 0.7 Ec before p's first (outside 1 ± 0.175): not where the ladder puts a charging peak.
     const off = [...sV, pV[1] - 0.7 * ecV, ...pV.slice(1)].map((v) => assignPeak(v));
     expect(setAsidePeakReasons(off, reading(off, "shell-filling", [shell(off, "s", 2, [0, 1]), shell(off, "p", 6, [3, 4, 5, 6, 7])], { resonances: [2] }))).toEqual([]);
+    // p whole, read from its first charging peak, with the p level's charging satellite one Ec before
+    // it (p entered while s holds one electron: (ε_p + Ec·(1 + ½))/η, closed form) stepping a
+    // fraction (0.15) of p's peaks, set aside as a satellite: the shell's own satellite, not a
+    // missing charging peak (the window cuts p, so p is short). Common practice (no source) for
+    // the satellite's weak step; its place is the closed form's.
+    const satV = pV[0] - ecV;
+    const withSatellite = [...sV, satV, ...pV.slice(0, 3)].map((v) => assignPeak(v, v === satV ? 1.5e-12 : 1e-11));
+    expect(setAsidePeakReasons(withSatellite, reading(withSatellite, "shell-filling", [shell(withSatellite, "s", 2, [0, 1]), shell(withSatellite, "p", 6, [3, 4, 5])], { satellites: [2] }))).toEqual([]);
   });
 
   it("note 19: flags p's charging peaks two Ec apart with a peak as strong as theirs set aside at the middle; not a weaker one, nor one off the middle", () => {
