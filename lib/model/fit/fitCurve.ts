@@ -35,6 +35,7 @@ import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
 import { peakEcRefuted } from "./peakEcRefuted.ts";
+import { heldWholeValues } from "./heldWholeValues.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -183,7 +184,7 @@ export interface FitOptions {
  *    wholeCurveEcSigmas (1) combined standard errors from the CB side's and the CB side, its levels
  *    refitted with them held, rises by more than wholeCurveCbChiSquare (5.99, the 95 % point of χ²
  *    for two parameters; within it the two agree and the whole curve's values stand, said in a
- *    warning), the whole curve is also fitted with Ec and Γtip/Γsub held at the CB side's values.
+ *    warning), the whole curve is also fitted with Ec and Γtip/Γsub held at the CB side's values ({@link heldWholeValues}).
  *    The held fit stands (with the CB side's errors for the two, said in a warning and the
  *    evidence) only where the free whole-curve fit's residuals show structure (above
  *    poorResidualZ) that the held fit's do not: the free fit then missed a step the CB side's
@@ -443,62 +444,14 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
   // When the whole-curve fit moves Ec or Γtip/Γsub more than wholeCurveEcSigmas combined standard
   // errors from its CB side's and the CB side does not accept them, the whole curve is also fitted
-  // with the two held at the CB side's values (the VB levels and the gap kept); that fit stands
-  // only where it removes residual structure the free fit leaves.
+  // with the two held at the CB side's values ({@link heldWholeValues}); that fit stands only where
+  // it removes residual structure the free fit leaves.
   const currentOf = (t: FitTrial) => runner.currentOf(t.hypothesis);
   let errors = trialErrors(best, currentOf(best), noiseA, warnings);
   let heldNote: string | null = null;
   if (whole && best === whole) {
-    const atW = parameterIndex(whole.hypothesis.seeds.length);
-    const atC = parameterIndex(winner.hypothesis.seeds.length);
-    const ecW = whole.loop.parameters[atW.chargingEnergy];
-    const ecC = winner.loop.parameters[atC.chargingEnergy];
-    // Ec and log₁₀ Γtip/Γsub; the combined error is at least the whole curve's: within that, no CB-side errors are needed.
-    const pairs = [[atW.chargingEnergy, atC.chargingEnergy], [atW.logRateRatio, atC.logRateRatio]];
-    const shift = ([w, c]: number[]) => Math.abs(whole.loop.parameters[w] - winner.loop.parameters[c]);
-    const cb = pairs.some((q) => shift(q) > F.wholeCurveEcSigmas * errors.se[q[0]]) ? trialErrors(winner, currentOf(winner), noiseA, []) : null;
-    const z = pairs.map((q) => (cb ? shift(q) / Math.hypot(errors.se[q[0]], cb.se[q[1]]) : NaN)).map((v) => (Number.isFinite(v) ? v : 0));
-    // The CB side's own test of the whole curve's Ec and Γtip/Γsub: its levels refitted with them
-    // held. Where its χ² rises by at most wholeCurveCbChiSquare, the CB side agrees with them
-    // within its errors: the VB reading adds its information rather than pulling.
-    const cbAccepts = () => {
-      const fromC = [...winner.loop.parameters];
-      fromC[atC.chargingEnergy] = ecW;
-      fromC[atC.logRateRatio] = whole.loop.parameters[atW.logRateRatio];
-      const atWhole = run(winner.hypothesis, null, maxIterations, fromC, winner.set, [atC.chargingEnergy, atC.logRateRatio]);
-      return atWhole.loop.chiSquare - winner.loop.chiSquare;
-    };
-    const cbRise = cb && Math.max(...z) > F.wholeCurveEcSigmas ? cbAccepts() : Infinity;
-    if (cbRise <= F.wholeCurveCbChiSquare) {
-      warnings.push(`the whole-curve fit moved Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV and Γtip/Γsub from ${(10 ** winner.loop.parameters[atC.logRateRatio]).toPrecision(3)} to ${(10 ** whole.loop.parameters[atW.logRateRatio]).toPrecision(3)}, but the CB side refitted at them rises by χ² ${cbRise.toFixed(1)} only (≤ ${F.wholeCurveCbChiSquare}): the whole curve's values stand`);
-    } else if (cb && Math.max(...z) > F.wholeCurveEcSigmas) {
-      const from = [...whole.loop.parameters];
-      from[atW.chargingEnergy] = ecC;
-      from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
-      const held = { ...run(whole.hypothesis, null, maxIterations, from, all, [atW.chargingEnergy, atW.logRateRatio]), rateRatio0: whole.rateRatio0 };
-      trials.push(held);
-      const [rC, rW] = [10 ** winner.loop.parameters[atC.logRateRatio], 10 ** whole.loop.parameters[atW.logRateRatio]];
-      const moves = [`Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${z[0].toFixed(1)}`, `Γtip/Γsub from ${rC.toPrecision(3)} (CB side) to ${rW.toPrecision(3)}, ${z[1].toFixed(1)}`];
-      const moved = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas})`;
-      // The held fit stands only where it removes residual structure the free fit leaves (the
-      // free fit missed a step the CB side's values place); elsewhere, on the crossover's simulated
-      // curves, holding made no fit meet the accuracy bar that missed it free, and the whole
-      // curve's values stand.
-      const heldZ = structureOf(held).largestZ;
-      const freeZ = (wholeStructure ?? structureOf(whole)).largestZ;
-      const rejected = `${moved}, and the CB side refitted at them rises by χ² ${cbRise.toFixed(1)} (> ${F.wholeCurveCbChiSquare})`;
-      const limit = FIT_STATUS_DEFAULTS.poorResidualZ;
-      if (freeZ > limit && heldZ <= limit) {
-        best = held;
-        errors = trialErrors(held, currentOf(held), noiseA, warnings);
-        errors.se[atW.chargingEnergy] = cb.se[atC.chargingEnergy];
-        errors.se[atW.logRateRatio] = cb.se[atC.logRateRatio];
-        heldNote = `${rejected}; held at the CB side's values the whole curve leaves no structure in the residuals (${heldZ.toFixed(1)} σ ≤ ${limit}) where the free fit does (${freeZ.toFixed(1)} σ > ${limit})`;
-        warnings.push(`${heldNote}: Ec and Γtip/Γsub are the CB side's (with its errors), the levels are fitted to the whole curve with them held`);
-      } else {
-        warnings.push(`${rejected}, but held at the CB side's values the whole curve removes no residual structure (${heldZ.toFixed(1)} σ held, ${freeZ.toFixed(1)} σ free, limit ${limit}): the whole curve's values stand`);
-      }
-    }
+    const structureZ = (t: FitTrial) => (t === whole && wholeStructure ? wholeStructure : structureOf(t)).largestZ;
+    ({ best, errors, heldNote } = heldWholeValues({ whole, winner, errors, run, all, maxIterations, currentOf, noiseA, structureZ, limits: F, trials, warnings }));
   }
   // On a blind CB side the whole-curve BICs weigh the groupings (the CB side's differ by k·ln n alone).
   const weights = evidenceWeights(finalists.map((t) => (blindWholeBic ? (blindWholeBic.get(t) ?? Infinity) : implausibleOf(t).length ? Infinity : t.bic)));
