@@ -36,6 +36,7 @@ import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
 import { peakEcRefuted } from "./peakEcRefuted.ts";
 import { heldWholeValues } from "./heldWholeValues.ts";
+import { rateRatioLimit } from "./rateRatioLimit.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -489,7 +490,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const refuted = peakEcRefuted({ assignedReducedChiSquare: assignedTrial?.side === "both" ? reduced(assignedTrial) : null, fitReducedChiSquare: reducedChiSquare, fitIsAssigned: hypothesis.kind === "assigned" });
   const peakEc = pSplit || refuted ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
-  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
+  // Γtip/Γsub on a bound: the one-sided limit the curve sets on it (null off the bounds, or where none lies inside one regime).
+  const limit = rateRatioLimit({ trial: best, run, maxIterations, chiSquareRise: F.rateRatioLimitChiSquare, fromUpperLog10: F.rateRatioLimitFromUpperLog10, fromLowerLog10: F.rateRatioLimitFromLowerLog10 });
+  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio], limit);
   if (verdict.warning) warnings.push(verdict.warning);
   const status = fitStatus({
     reducedChiSquare,
@@ -501,6 +504,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     residualStructure: structure,
     peakChargingEnergy: peakEc,
     cutShort,
+    rateRatioLimit: limit,
   });
   if (rulesEc && verdict.regime === "shell-tunneling") {
     warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
@@ -538,6 +542,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergyEV: value(at.chargingEnergy),
     chargingEnergyV: { value: params[at.chargingEnergy] / eta, standardError: se[at.chargingEnergy] / eta },
     rateRatio: { value: ratio, standardError: ratioSE },
+    rateRatioLimit: limit,
     substrateRatePerS: { value: scaleRate, standardError: se[at.rateScale] },
     broadeningEV: { value: sigmaEV, standardError: Math.LN10 * sigmaEV * se[at.logBroadening] },
     offsetA: value(at.offset),
