@@ -39,7 +39,8 @@ export interface RateRatioLimitInput {
  * shell tunnelling the same holds below, towards r → 0. The limit is found by profiling: log₁₀ r
  * is held at `fromUpperLog10` (or `fromLowerLog10`), inward from the bound, with every other
  * parameter refitted, and the limit is where χ² has risen by `chiSquareRise` above the fit's,
- * interpolated linearly in the rise between the last held value below it and the first above.
+ * interpolated between the last held value below it and the first above linearly in √Δχ² (exact
+ * where the profile is a parabola in log₁₀ r about the bound).
  * Δχ² = 1.645² = 2.71, 1.645 the one-sided 95 % point of the normal distribution (closed form),
  * is the one-sided 95 % limit of one parameter.
  *
@@ -70,7 +71,8 @@ export function rateRatioLimit(input: RateRatioLimitInput): RateRatioLimit | nul
     const t = run(trial.hypothesis, null, maxIterations, held, trial.set, [at]);
     const rise = t.loop.chiSquare - trial.loop.chiSquare;
     if (rise > chiSquareRise) {
-      const log = prevLog + ((chiSquareRise - prevRise) / (rise - prevRise)) * (step - prevLog);
+      const [a, b, c] = [Math.sqrt(prevRise), Math.sqrt(rise), Math.sqrt(chiSquareRise)];
+      const log = prevLog + ((c - a) / (b - a)) * (step - prevLog);
       return { kind: sign > 0 ? "lower" : "upper", rateRatio: 10 ** log, chiSquareRise };
     }
     [prevLog, prevRise, from] = [step, Math.max(prevRise, rise), [...t.loop.parameters]];
