@@ -198,7 +198,11 @@ export interface FitOptions {
  * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
  *    filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5), shell tunnelling at ≤
  *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
- *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. A reduced
+ *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. Where
+ *    Γtip/Γsub ran onto a bound (10⁻⁴, 10⁴: deep in a regime the steps no longer change with it),
+ *    the one-sided 95 % limit the curve sets on it ({@link rateRatioLimit}, profiled from the
+ *    bound) reads the regime instead when it lies inside one, and is reported (`rateRatioLimit`);
+ *    Γtip/Γsub alone on a bound does not make a grouping implausible, with Ec too it does. A reduced
  *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
  *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
  *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
