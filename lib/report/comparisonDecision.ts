@@ -4,6 +4,7 @@
  */
 import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import type { ModelComparisonJson } from "./modelComparisonJson.ts";
+import type { FittedValue } from "../model/fit/curveFit.ts";
 
 /** The rules' answer a comparison is weighed against (from the analysis record). */
 export interface RulesAnswer {
@@ -109,9 +110,10 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  *    fit's regime over ± `rateRatioSigmas` standard errors (r·exp(± k·SE/r) against the
  *    boundaries 3/7 and 1.5 of `REGIME_LIMITS`): a fit near a boundary does not overturn a
  *    definite reading.
- * 4. Where the fit reads the rules' regime but leaves a quantity undetermined (a non-finite
- *    error: a level whose steps all lie beyond the points it was fitted to, as p on a CB side
- *    that ends after the s doublet at low η), the rules' reading stands: the fit cannot replace
+ * 4. Where the fit reads the rules' regime but leaves a quantity undetermined (an error that is
+ *    not finite or larger than the value itself, so that not even its size is known: a level
+ *    whose steps all lie beyond the points it was fitted to, as p on a CB side that ends after
+ *    the s doublet at low η, whose energy then carries an error of 10⁶ eV or a NaN), the rules' reading stands: the fit cannot replace
  *    the levels it does not see (low-η mix with the comparison, seed 1: spectra 48 and 192, shell
  *    filling, would take Δsp from such a p level, 40–280 % off). It still answers where the rules
  *    left the regime undetermined or read another regime, on Ec and Γtip/Γsub, which it determines.
@@ -163,10 +165,11 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
   const what = agreesWithRules ? "agrees with the rules" : sameRegime ? `agrees on the regime but not on Ec (${(fitEc! * 1e3).toFixed(1)} against ${(rules.chargingEnergyEV! * 1e3).toFixed(1)} meV)` : `reads ${m.regime} where the rules read ${rules.regime}`;
   if (m.status !== "good") return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but its status is ${m.status}` };
   // A fit that leaves a quantity undetermined (a level whose steps lie beyond the points it was
-  // fitted to) cannot replace the rules' reading of the same regime, which places every level.
-  const undetermined = (Object.entries(m.quantities) as [string, { standardError: number } | null][]).filter(([, q]) => q !== null && !Number.isFinite(q.standardError)).map(([name]) => name);
+  // fitted to: its error is not finite, or larger than the value itself) cannot replace the
+  // rules' reading of the same regime, which places every level.
+  const undetermined = (Object.entries(m.quantities) as [string, FittedValue | null][]).filter(([, q]) => q !== null && !(q.standardError <= Math.abs(q.value))).map(([name]) => name);
   if (sameRegime && undetermined.length) {
-    return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but leaves ${undetermined.join(", ")} undetermined (a level beyond the points it was fitted to), which the rules' reading places` };
+    return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what} but leaves ${undetermined.join(", ")} undetermined (an error that is not finite or exceeds the value: a level beyond the points it was fitted to), which the rules' reading places` };
   }
   // The weight of the fit's answer: every grouping that gives the same regime and Ec (the same
   // model reached from several starts splits the weight between them).

@@ -140,7 +140,7 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     }
   });
 
-  it("keeps the rules' reading of the same regime when the fit leaves a quantity undetermined (Δsp with a NaN error), and still answers where the rules are undetermined", () => {
+  it("keeps the rules' reading of the same regime when the fit leaves a quantity undetermined (Δsp with a NaN error, or one larger than Δsp), and still answers where the rules are undetermined", () => {
     // The documented rule (step 4): a level beyond the points fitted is not determined; the rules place it.
     const blind = { quantities: { gapEV: null, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.6, standardError: NaN } } } as Partial<ModelComparisonJson>;
     const runs = [alt("assigned", 3, 0.1, 1)];
@@ -148,6 +148,12 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     expect(same).toMatchObject({ decides: false, agreesWithRules: true });
     expect(same.decision).toContain("leaves levelSpacingSPEV undetermined");
     expect(comparisonDecision(comparison(runs, blind), { regime: "undetermined", chargingEnergyEV: null }).decides).toBe(true);
+    // A finite error larger than the value is no better: Δsp 0.6 ± 2×10⁶ eV does not know its own size.
+    const huge = { quantities: { gapEV: null, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.6, standardError: 2e6 } } } as Partial<ModelComparisonJson>;
+    expect(comparisonDecision(comparison(runs, huge), { regime: "shell-filling", chargingEnergyEV: 0.1 })).toMatchObject({ decides: false, agreesWithRules: true });
+    // An error below the value (0.6 ± 0.5 eV) is determined, if loosely: the fit confirms the rules.
+    const loose = { quantities: { gapEV: null, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.6, standardError: 0.5 } } } as Partial<ModelComparisonJson>;
+    expect(comparisonDecision(comparison(runs, loose), { regime: "shell-filling", chargingEnergyEV: 0.1 }).decides).toBe(true);
     // Every quantity determined: the same fit confirms the rules.
     expect(comparisonDecision(comparison(runs), { regime: "shell-filling", chargingEnergyEV: 0.1 }).decides).toBe(true);
   });
