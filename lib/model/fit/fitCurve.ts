@@ -494,8 +494,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const refuted = peakEcRefuted({ assignedReducedChiSquare: assignedTrial?.side === "both" ? reduced(assignedTrial) : null, fitReducedChiSquare: reducedChiSquare, fitIsAssigned: hypothesis.kind === "assigned" });
   const peakEc = pSplit || refuted ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
-  // Γtip/Γsub on a bound: the one-sided limit the curve sets on it (null off the bounds, or where none lies inside one regime).
-  const limit = rateRatioLimit({ trial: best, run, maxIterations, chiSquareRise: F.rateRatioLimitChiSquare, fromUpperLog10: F.rateRatioLimitFromUpperLog10, fromLowerLog10: F.rateRatioLimitFromLowerLog10 });
+  // Γtip/Γsub on a bound: the one-sided limit the curve sets on it (null off the bounds, or where
+  // none lies inside one regime), read only from a fit of the whole curve: values from the CB side
+  // alone already lack the VB reading that the whole curve rejected, and a ratio on a bound there
+  // leaves the fit without its second measure (on the low-η benchmark such CB-side fits were wrong groupings).
+  const limit = best.side === "CB" ? null : rateRatioLimit({ trial: best, run, maxIterations, chiSquareRise: F.rateRatioLimitChiSquare, fromUpperLog10: F.rateRatioLimitFromUpperLog10, fromLowerLog10: F.rateRatioLimitFromLowerLog10 });
   const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio], limit);
   if (verdict.warning) warnings.push(verdict.warning);
   const status = fitStatus({
