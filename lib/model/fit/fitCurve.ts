@@ -201,8 +201,11 @@ export interface FitOptions {
  *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. Where
  *    Γtip/Γsub ran onto a bound (10⁻⁴, 10⁴: deep in a regime the steps no longer change with it),
  *    the one-sided 95 % limit the curve sets on it ({@link rateRatioLimit}, profiled from the
- *    bound) reads the regime instead when it lies inside one, and is reported (`rateRatioLimit`);
- *    Γtip/Γsub alone on a bound does not make a grouping implausible, with Ec too it does. A reduced
+ *    bound, on whole-curve fits only) reads the regime instead when it lies inside one, and is
+ *    reported (`rateRatioLimit`). Γtip/Γsub alone on a bound does not make a whole-curve fit
+ *    implausible (with Ec too it does); on the CB side it does, unless the grouping's whole-curve
+ *    fit describes the curve and is plausible (on the low-η benchmark, CB-side fits on the bound
+ *    that the whole curve rejected were wrong groupings). A reduced
  *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
  *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
  *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
@@ -314,7 +317,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const cbSideOf = new Map<FitTrial, FitTrial>();
   /** Fits a CB-side finalist to the whole curve (set where groupings are compared). */
   let wholeFitOf: ((cbDone: FitTrial, ecStartEV?: number) => FitTrial) | null = null;
-  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
+  // Γtip/Γsub alone on a bound is deep in a regime on the whole curve (its limit read on the answer,
+  // rateRatioLimit); on the CB side it is a claim the whole curve must bear out (excused below).
+  const ratioBound = "Γtip/Γsub ended on a bound of the fit";
+  const ratioOnlyBound = (t: FitTrial) => plausibilityInput(t).atBound.join() === "Γtip/Γsub";
+  const plausibilityOf = (t: FitTrial) => (t.implausible ??= [...hypothesisPlausibility(plausibilityInput(t)), ...(t.side === "CB" && ratioOnlyBound(t) ? [ratioBound] : [])]);
   if (!compared && !decisive && assignedTrial) {
     // The assignment alone: restarts from the rate-ratio grid.
     const startLog0 = assignedTrial.start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
@@ -348,7 +355,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const implausibleOf = (t: FitTrial) => {
     const whole = wholeOf.get(t);
     const wholeReasons = whole ? wholePlausibility(whole, t) : [];
-    return [...plausibilityOf(t), ...(whole && !poor(whole) ? wholeReasons : [])];
+    // A CB side on the ratio's bound whose whole-curve fit describes the curve and is plausible: deep in the regime the whole curve reads.
+    const excused = whole && t.side === "CB" && ratioOnlyBound(t) && !wholeReasons.length && reduced(whole) <= F.wholeCurveChiSquare && structureOf(whole).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ;
+    return [...plausibilityOf(t).filter((r) => !excused || r !== ratioBound), ...(whole && !poor(whole) ? wholeReasons : [])];
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
@@ -470,6 +479,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${budgetWords} (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
   if (cutShort) warnings.push(cutShort);
   const wholeAnswers = wholeFitOf ? weightedWholeFits({ finalists, weights, wholeOf, wholeFitOf, describes: split.describes, reduced }) : new Map(); // the weighted groupings' own whole-curve answers, after the fit's result (its work counted, the budget's stop not)
+  // The winner's whole-curve fit may have been replaced since plausibility was first read (other Ec starts): a CB side on the ratio's bound is read again against it.
+  if (!plausible.includes(winner) && wholeOf.get(winner) === whole && ratioOnlyBound(winner) && implausibleOf(winner).length === 0) plausible.push(winner);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");

@@ -56,8 +56,9 @@ export interface PlausibilityInput {
  * -----
  * With D = PLAUSIBILITY_DEFAULTS:
  * 1. No key parameter (Ec, Γtip/Γsub) on a bound; Γtip/Γsub alone on one, with Ec inside its
- *    bounds, is deep in a regime rather than a collapse, and passes (the answer's one-sided limit
- *    is then checked by fitCurve, {@link rateRatioLimit}).
+ *    bounds, is deep in a regime rather than a collapse, and passes here (fitCurve holds a CB-side
+ *    fit's bound against it unless its whole-curve fit bears it out, and reads the answer's
+ *    one-sided limit, {@link rateRatioLimit}).
  * 2. Level order: the CB levels move away from the gap in the order seeded (ascending), and the
  *    lowest CB level lies above the highest VB level. The sub-levels of one split CB shell (p1,
  *    p2, …) may lie in either order (which one the shape lowers is not fixed); each must lie above
