@@ -94,6 +94,13 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * g/(2(1 + (2 + g)r)) × s: a 2-state sub-level at most 1, the whole p at least 1.59.
    */
   tunnelingDeepSatelliteMax: 0.1,
+  /**
+   * … counting only s's own charging satellite (between s and the next level): a deeper level's
+   * tip-side charging peak follows no r/(1 + r) of the s step (its second carrier may enter any
+   * level below it), and at Γtip/Γsub ≈ 0.02 one steps 0.2 × s. Chosen on the accuracy benchmark
+   * (low-η shell-tunnelling draws with p1's charging peak beyond p2).
+   */
+  tunnelingDeepSatelliteOfSOnly: true,
   /** … when p's first level steps at most this multiple of the s step: a 2-state sub-level (≤ 1), not the whole p (≥ 1.59 for r ≤ 1/9). */
   tunnelingSublevelFirstStepMax: 1.3,
   /**

@@ -131,9 +131,12 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
         evidence.reasons.push(`${split.charging.length} CB peak(s) one Ec (${ecV.toFixed(3)} V, from a charging satellite) after the peak before them set aside as charging peaks of that level`);
       }
     }
-    // Deep in the regime (no CB charging satellite of 0.1 × the s step: Γtip/Γsub ≤ 1/9) p's steps
-    // tell a split p from a whole one.
-    const deep = levels.length > 0 && !cbSplit.satellites.some((p) => p.peak.stepA >= D.tunnelingDeepSatelliteMax * levels[0].peak.stepA);
+    // Deep in the regime (no charging satellite of s of 0.1 × its step: Γtip/Γsub ≤ 1/9) p's steps
+    // tell a split p from a whole one. Only s's own satellite (before the next level) follows the
+    // closed form r/(1 + r): a deeper level's charging peak also takes the carrier of any level
+    // below it, and steps more.
+    const sSatelliteEndX = D.tunnelingDeepSatelliteOfSOnly ? (levels[1]?.x ?? Infinity) : Infinity;
+    const deep = levels.length > 0 && !cbSplit.satellites.some((p) => p.x < sSatelliteEndX && p.peak.stepA >= D.tunnelingDeepSatelliteMax * levels[0].peak.stepA);
     cbGroups.push(...tunnelingShells(levels, deep).map((shell) => shell.map((p) => [p])));
   }
   const satellites = [...setAside].sort((a, b) => a.peak.biasV - b.peak.biasV);

@@ -6,6 +6,7 @@
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import { REGIME_LIMITS, substrateToTipStepRatio } from "../model/regimeLimits.ts";
+import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
 
 /** Tolerances of {@link secondJunctionResonances} (locked by test/assign/secondJunction.test.ts). */
 export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
@@ -26,6 +27,21 @@ export const SECOND_JUNCTION_DEFAULTS = Object.freeze({
    * charging peak.
    */
   companionSpacingFwhmMin: 1,
+  /**
+   * {@link substrateChargingPeaks} note 5: where a level of the source's band shows its charging
+   * satellite (a peak beyond it stepping `satelliteStepFractionRange` of its step), Ec = η × their
+   * spacing (`satelliteChargingEV`), and the
+   * companion lies Ec/(1 − η) beyond its resonance (orthodox theory); a peak nearer than
+   * (1 − this) × Ec/(1 − η) is not it. Chosen on the accuracy benchmark (low-η shell-tunnelling
+   * draws whose p level lies between a resonance and its companion).
+   */
+  companionChargingSpacingTolerance: 0.3,
+  /**
+   * {@link substrateChargingPeaks} note 5: the range of a peak's step over the level's before
+   * it that reads as that level's charging satellite (`ASSIGN_DEFAULTS.satelliteEvidenceMin` and
+   * `satelliteStepRatioMax`: 0.1 to 0.5). Common practice (no source).
+   */
+  satelliteStepFractionRange: [ASSIGN_DEFAULTS.satelliteEvidenceMin, ASSIGN_DEFAULTS.satelliteStepRatioMax] as readonly [number, number],
   /**
    * {@link substrateChargingPeaks}: the resonance's step over its source's is at most this:
    * (g·r + 1)/(g + r) for g = 2 at the shell-tunnelling limit r = Γtip/Γsub = 3/7
@@ -222,6 +238,11 @@ export function isPlainPrediction(r: Pick<SecondJunctionResonance, "predictedV">
  *    tunnelling limit 3/7, i.e. `SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin` (1/2) to
  *    `companionSourceStepRatioMax` (13/17) of the source, widened by `stepRatio` at each end. The
  *    measured step of the resonance is not bounded then (it holds the level too).
+ * 5. Where the source's band shows a level's charging satellite, Ec = η × their spacing
+ *    (`satelliteChargingEV`), and the companion lies Ec/(1 − η) beyond the resonance; a first
+ *    matching peak nearer than (1 − `SECOND_JUNCTION_DEFAULTS.companionChargingSpacingTolerance`)
+ *    × Ec/(1 − η) is a level between them (its step alike by chance), not the companion, and none
+ *    is taken for that resonance (the companion then lies under a later level).
  *
  * References
  * ----------
@@ -263,10 +284,36 @@ export function substrateChargingPeaks(peaks: readonly Peak[], resonances: reado
     if (!next) continue;
     const spacingV = Math.abs(next.p.biasV - res.biasV);
     if (spacingV <= SECOND_JUNCTION_DEFAULTS.companionSpacingFwhmMin * res.fwhmV || (1 - eta) * spacingV > SECOND_JUNCTION_DEFAULTS.companionChargingFractionMax * gapEV) continue;
+    const ecEV = satelliteChargingEV(free.map(({ p }) => p), eta, Math.sign(peaks[r.sourceIndex].biasV));
+    if (ecEV !== null && (1 - eta) * spacingV < (1 - SECOND_JUNCTION_DEFAULTS.companionChargingSpacingTolerance) * ecEV) continue;
     if (out.some((o) => o.index === next.k)) continue;
     out.push({ index: next.k, sourceIndex: r.sourceIndex, predictedV: next.p.biasV });
   }
   return out;
+}
+
+/**
+ * The charging energy a level's charging satellite measures, eV: in the band of `sign` (+1 CB,
+ * −1 VB), the spacing of the first peak (from the gap edge outward) stepping
+ * `SECOND_JUNCTION_DEFAULTS.satelliteStepFractionRange` of the peak before it, × η (the tip
+ * junction's share of the bias: a level's tip-side charging peaks are Ec/η apart); null without one.
+ *
+ * Example
+ * -------
+ * ```ts
+ * // η = 0.5: v1 at −1.0 V, v2 at −1.3 V and its satellite (a fifth of its step) 0.2 V beyond it.
+ * const at = (biasV: number, stepA: number) => ({ biasV, stepA }) as Peak;
+ * satelliteChargingEV([at(-1.0, 5e-13), at(-1.3, 9e-13), at(-1.5, 1.8e-13)], 0.5, -1);  // => 0.1
+ * ```
+ */
+export function satelliteChargingEV(peaks: readonly Pick<Peak, "biasV" | "stepA">[], eta: number, sign: number): number | null {
+  const vb = peaks.filter((p) => Math.sign(p.biasV) === sign).sort((a, b) => Math.abs(a.biasV) - Math.abs(b.biasV));
+  const [lo, hi] = SECOND_JUNCTION_DEFAULTS.satelliteStepFractionRange;
+  for (let k = 1; k < vb.length; k++) {
+    const ratio = vb[k].stepA / vb[k - 1].stepA;
+    if (vb[k - 1].stepA > 0 && ratio >= lo && ratio <= hi) return eta * Math.abs(vb[k].biasV - vb[k - 1].biasV);
+  }
+  return null;
 }
 
 /**

@@ -244,13 +244,17 @@ export function stepsShortOfP(sStepA: number, pStepsA: readonly number[]): boole
  * 2. A main peak closer to the previous one than `ASSIGN_DEFAULTS.tunnelingSublevelFraction` ×
  *    the s→p distance is a sub-level of the same shell (a split p); otherwise it opens the next
  *    shell. Peaks beyond the last shell are left out.
- * 3. With `stepReach` (deep in shell tunnelling: the caller found no CB charging satellite of
- *    `tunnelingDeepSatelliteMax` × the s step, so Γtip/Γsub ≤ 1/9; not for the regime's own test),
+ * 3. With `stepReach` (deep in shell tunnelling: the caller found no charging satellite of s of
+ *    `tunnelingDeepSatelliteMax` × its step (note 4), so Γtip/Γsub ≤ 1/9; not for the regime's own test),
  *    in p the reach is `tunnelingSublevelStepFraction` (0.75) × the s→p distance while p's first
  *    level steps at most `tunnelingSublevelFirstStepMax` (1.3) × the s step and its levels so far
  *    at most `tunnelingSublevelStepMax` (2.5) × together: a level of g states after s steps
  *    g/(2(1 + (2 + g)r)) × s (2 states ≤ 1, the whole p ≥ 1.59 at r ≤ 1/9), so p is then short of
  *    its six states, and a d shell lies at least one s→p distance above p.
+ * 4. The caller counts only s's own charging satellite (between s and the next level,
+ *    `ASSIGN_DEFAULTS.tunnelingDeepSatelliteOfSOnly`) for that test: the closed form r/(1 + r) is
+ *    s's; a deeper level's tip-side charging peak (its second carrier may also enter a level
+ *    below it) steps more, and lies beyond the next sub-level where Ec/η exceeds their spacing.
  *
  * Example
  * -------

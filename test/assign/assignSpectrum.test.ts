@@ -124,6 +124,27 @@ describe("assignSpectrum: an extra peak before a split p gives no Ec", () => {
   });
 });
 
+describe("assignSpectrum: a deeper level's charging peak leaves the regime deep", () => {
+  // Deep in shell tunnelling (r = 0.02), η = 0.6, Ec = 0.25 eV, positions (ε + Ec/2)/η: s (0.5 eV)
+  // with no charging satellite (r/(1 + r) < 0.1 of its step: closed form), p split into doubly
+  // degenerate sub-levels at 0.8 and 0.99 eV, each stepping levelStepRatio(2, 2, r) = 1/(1 + 4r)
+  // × s (≤ 1.3: p short of its six states), 0.63 Δsp apart (within 0.75 Δsp). The first
+  // sub-level's tip-side charging peak lies one Ec/η after it, beyond the second, stepping a
+  // quarter of s (any value above 0.1 × s: its second carrier may enter s too, so no r/(1 + r)
+  // bounds it).
+  const r = 0.02, S = 1e-12, etaD = 0.6, ecD = 0.25;
+  const at = (e: number, n = 0) => (e + ecD * (n + 0.5)) / etaD;
+  const sub = levelStepRatio(2, 2, r) * S;
+  const peaks = [peak(-at(0.6), S), peak(at(0.5), S), peak(at(0.8), sub), peak(at(0.99), sub), peak(at(0.8, 1), 0.25 * S)];
+
+  it("reads both sub-levels as p (note: only s's own satellite tells the regime's depth)", () => {
+    expect(at(0.8, 1)).toBeGreaterThan(at(0.99));
+    const a = assignSpectrum(peaks, { eta: etaD, regime: "shell-tunneling", secondJunction: false });
+    expect(a.multiplets.find((m) => m.label === "p")!.peakIndices).toEqual([2, 3]);
+    expect(a.multiplets.some((m) => m.label === "d")).toBe(false);
+  });
+});
+
 describe("assignSpectrum(peaks, options): other cases", () => {
   it("says undetermined when the second CB step is neither alike nor much larger (intermediate rate ratio)", () => {
     const r = assignSpectrum([peak(0.7, 1e-11), peak(0.82, 0.45e-11), peak(1.3, 1e-11)]);
@@ -169,6 +190,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       tunnelingSublevelFraction: 0.5,
       tunnelingSublevelStepFraction: 0.75,
       tunnelingDeepSatelliteMax: 0.1,
+      tunnelingDeepSatelliteOfSOnly: true,
       tunnelingSublevelFirstStepMax: 1.3,
       tunnelingSublevelStepMax: 2.5,
       levelChargingTolerance: 0.15,

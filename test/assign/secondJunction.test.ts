@@ -5,7 +5,7 @@
 // = −η·V₁/(1 − η). The model check uses the project's master equation, whose closed-form plateaus
 // are tested in test/model/ladder.test.ts.
 import { describe, it, expect } from "vitest";
-import { crowdedResonances, deeperChargingResonances, overlappedResonances, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
+import { crowdedResonances, deeperChargingResonances, overlappedResonances, satelliteChargingEV, secondJunctionResonances, substrateChargingPeaks, SECOND_JUNCTION_DEFAULTS } from "../../lib/assign/secondJunction.ts";
 import { substrateToTipStepRatio } from "../../lib/model/regimeLimits.ts";
 import { analyzeCurve, assignSpectrum, analysisToJson, formatAnalysisText, loadCurveFigure, simulateCurve, SECOND_JUNCTION, type Peak } from "../../lib/index.ts";
 import { expectClose } from "../helpers/expectClose.ts";
@@ -53,7 +53,7 @@ describe("secondJunctionResonances(peaks, eta)", () => {
   });
 
   it("SECOND_JUNCTION_DEFAULTS are locked (common practice, no source: 3σ, or half the FWHM for an η known to a few %; Ec at most a quarter of the gap; closed form 13/17 for the step ratio)", () => {
-    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), ownShareSourceStepRatioMin: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number), deeperChargingMax: 2 });
+    expect(SECOND_JUNCTION_DEFAULTS).toEqual({ toleranceSigma: 3, toleranceFwhmFraction: 0.5, companionChargingFractionMax: 0.25, companionSpacingFwhmMin: 1, companionSourceStepRatioMax: expect.any(Number), ownShareSourceStepRatioMin: expect.any(Number), overlapSourceStepRatioMin: expect.any(Number), deeperChargingMax: 2, companionChargingSpacingTolerance: 0.3, satelliteStepFractionRange: [0.1, 0.5] });
     expectClose(SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin, 1 / 2, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r → 0" });
     expectClose(SECOND_JUNCTION_DEFAULTS.companionSourceStepRatioMax, 13 / 17, { rtol: 1e-12, what: "(g·r + 1)/(g + r) at g = 2, r = 3/7" });
     expectClose(SECOND_JUNCTION_DEFAULTS.overlapSourceStepRatioMin, 1, { rtol: 1e-12, what: "closed form: (g·r + 1)/(g + r) at r = 1" });
@@ -91,6 +91,19 @@ describe("substrateChargingPeaks(peaks, resonances, eta, stepRatio)", () => {
     expect(res.map((r) => r.index)).toEqual([2]);
     expect(Math.abs(peaks[3].biasV - peaks[2].biasV)).toBeLessThan(SECOND_JUNCTION_DEFAULTS.companionSpacingFwhmMin * peaks[2].fwhmV);
     expect(substrateChargingPeaks(peaks, res, 0.6, [0.6, 1.3]).map((r) => r.index)).not.toContain(3);
+  });
+  it("takes no peak much nearer than Ec/(1 − η) where a charging satellite measures Ec (note 5)", () => {
+    // v1 at −1.0 V and its tip-side charging satellite at −1.2 V (a fifth of its step): Ec = η × 0.2 V
+    // = 0.12 eV, so the companion lies Ec/(1 − η) = 0.3 V beyond the resonance at 1.5 V (closed
+    // form); the peak at 1.6 V, 0.1 V beyond and stepping like the resonance, is a level.
+    const withSatellite = [at(-1.0, 2e-12), at(-1.2, 4e-13), at(0.9, 2e-12), at(1.5, 1e-12), at(1.6, 0.95e-12)];
+    const withoutSatellite = withSatellite.filter((_, k) => k !== 1);
+    expect(satelliteChargingEV(withSatellite, 0.6, -1)).toBeCloseTo(0.12, 12);
+    expect(satelliteChargingEV(withoutSatellite, 0.6, -1)).toBeNull();
+    expect(substrateChargingPeaks(withoutSatellite, secondJunctionResonances(withoutSatellite, 0.6), 0.6, [0.6, 1.3]).map((r) => r.index)).toEqual([3]);
+    const res = secondJunctionResonances(withSatellite, 0.6);
+    expect(res.map((r) => r.index)).toEqual([3]);
+    expect(substrateChargingPeaks(withSatellite, res, 0.6, [0.6, 1.3])).toEqual([]);
   });
   it("finds none where the resonance is higher than its source (the substrate side of shell filling shows a level, ratio → 2)", () => {
     const peaks = [at(-1.0, 1e-12), at(0.9, 1e-12), at(1.5, 1.9e-12), at(1.75, 1.8e-12)];
