@@ -40,6 +40,8 @@ export interface FitJson {
   /** Γtip/Γsub. */
   rateRatio: number;
   rateRatioSE: number;
+  /** Where Γtip/Γsub ran onto a bound of the fit: the one-sided limit the curve sets on it (kind "lower": Γtip/Γsub ≥ rateRatio; "upper": ≤); null otherwise. */
+  rateRatioLimit: CurveFit["rateRatioLimit"];
   /** Regime implied by the fitted rate ratio and its error ("undetermined" when they cannot tell, or no fit). */
   regime: CurveFit["regime"];
   /** Why, in words. */
@@ -127,6 +129,7 @@ export function fitToJson(fit: CurveFit, peakBased: AnalysisJson): FitJson {
     chargingEnergyVSE: fit.chargingEnergyV.standardError,
     rateRatio: fit.rateRatio.value,
     rateRatioSE: fit.rateRatio.standardError,
+    rateRatioLimit: fit.rateRatioLimit,
     regime: fit.regime,
     regimeReason: fit.regimeReason,
     levelsV: { CB: band("CB"), VB: band("VB") },
@@ -211,7 +214,7 @@ export function formatFitText(fit: FitJson): string {
   lines.push(row("Δsp", fit.quantities.levelSpacingSPEV, pe.levelSpacingSPEV, pe.uncertainties.levelSpacingSPEV));
   lines.push("");
   lines.push(`  Ec                 = ${pm(fit.energies.chargingEnergyEV, 1000, 2)} meV   (${pm({ value: fit.chargingEnergyV, standardError: fit.chargingEnergyVSE }, 1000, 2)} mV of bias)`);
-  lines.push(`  Γtip/Γsub          = ${fit.rateRatio.toPrecision(3)} ± ${fit.rateRatioSE.toPrecision(2)}  →  ${fit.regime}`);
+  lines.push(`  Γtip/Γsub          ${ratioText(fit.rateRatio, fit.rateRatioSE, fit.rateRatioLimit)}  →  ${fit.regime}`);
   lines.push(`  Γsub               = ${fit.substrateRatePerS.value.toExponential(3)} ± ${Number.isFinite(fit.substrateRatePerS.standardError) ? fit.substrateRatePerS.standardError.toExponential(1) : "—"} /s`);
   lines.push(`  broadening σ       = ${pm(fit.energies.broadeningEV, 1000, 2)} meV`);
   lines.push(`  regime: ${fit.regimeReason}`);
@@ -226,4 +229,20 @@ export function formatFitText(fit: FitJson): string {
     for (const w of fit.warnings) lines.push(`    ! ${w}`);
   }
   return lines.join("\n") + "\n";
+}
+
+/**
+ * Γtip/Γsub as the text shows it: "= r ± σ", or where it ran onto a bound of the fit the
+ * one-sided limit the curve sets ("≥ 12.5 (one-sided 95 %, on the fit's bound)").
+ *
+ * Example
+ * -------
+ * ```ts
+ * ratioText(1e4, Infinity, { kind: "lower", rateRatio: 12.5, chiSquareRise: 2.71 }); // => "≥ 12.5 (one-sided 95 %; the fit ran onto its bound 1.0e+4)"
+ * ratioText(3.2, 0.15, null);                                                       // => "= 3.20 ± 0.15"
+ * ```
+ */
+export function ratioText(rateRatio: number, standardError: number, limit: FitJson["rateRatioLimit"]): string {
+  if (limit) return `${limit.kind === "lower" ? "≥" : "≤"} ${limit.rateRatio.toPrecision(3)} (one-sided 95 %; the fit ran onto its bound ${rateRatio.toExponential(1)})`;
+  return `= ${rateRatio.toPrecision(3)} ± ${standardError.toPrecision(2)}`;
 }

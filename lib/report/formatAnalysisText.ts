@@ -6,6 +6,7 @@ import type { AnalysisJson } from "./analysisJson.ts";
 import type { ModelComparisonJson } from "./modelComparisonJson.ts";
 import { NO_MULTIPLET, SECOND_JUNCTION } from "./multipletColor.ts";
 import { formatEta, formatUncertain } from "./formatUncertain.ts";
+import { ratioText } from "./fitJson.ts";
 
 /** Options of {@link formatAnalysisText}. */
 export interface FormatAnalysisTextOptions {
@@ -251,7 +252,7 @@ function modelComparisonLines(m: ModelComparisonJson, eta: string, I: string, bo
     return out;
   }
   out.push(`${I}${I}${REGIME_WORDS[m.regime as keyof typeof REGIME_WORDS] ?? m.regime}, fit ${m.status === "good" ? "good" : "POOR"} (reduced χ² ${m.reducedChiSquare?.toPrecision(3) ?? FORMAT_TEXT_DEFAULTS.missing}): ${m.regimeReason}`);
-  out.push(`${I}${I}Γtip/Γsub = ${pm(m.rateRatio, 1, "")}`.trimEnd() + `, Ec = ${pm(m.quantities.chargingEnergyEV, 1000, "meV")}, gap = ${pm(m.quantities.gapEV, 1000, "meV")}, Δsp = ${pm(m.quantities.levelSpacingSPEV, 1000, "meV")} (η = ${eta})`);
+  out.push((m.rateRatioLimit && m.rateRatio ? `${I}${I}Γtip/Γsub ${ratioText(m.rateRatio.value, m.rateRatio.standardError, m.rateRatioLimit)}` : `${I}${I}Γtip/Γsub = ${pm(m.rateRatio, 1, "")}`.trimEnd()) + `, Ec = ${pm(m.quantities.chargingEnergyEV, 1000, "meV")}, gap = ${pm(m.quantities.gapEV, 1000, "meV")}, Δsp = ${pm(m.quantities.levelSpacingSPEV, 1000, "meV")} (η = ${eta})`);
   const ranked = [...m.alternatives].sort((a, b) => b.weight - a.weight).slice(0, 3);
   if (ranked.length) out.push(faint(`${I}${I}best groupings: ${ranked.map((a) => `${a.hypothesis} (weight ${a.weight.toPrecision(2)})`).join(", ")}`));
   if (m.status === "poor") out.push(faint(`${I}${I}${m.statusReasons.join("; ")}`));

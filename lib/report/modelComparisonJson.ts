@@ -32,6 +32,8 @@ export interface ModelComparisonJson {
   quantities: { gapEV: FittedValue | null; chargingEnergyEV: FittedValue | null; levelSpacingSPEV: FittedValue | null };
   /** Γtip/Γsub with its standard error (null when the fit could not run). */
   rateRatio: FittedValue | null;
+  /** Where Γtip/Γsub ran onto a bound of the fit: the one-sided limit the curve sets on it (see `CurveFit.rateRatioLimit`); null otherwise. */
+  rateRatioLimit: FitJson["rateRatioLimit"];
   /** Reduced χ² of the fit (null when it could not run). */
   reducedChiSquare: number | null;
   /** The fit's work and its limits (FitJson.work: the budget `--replay` re-runs with); absent when the fit could not run, and in records written before this field existed. */
@@ -98,6 +100,7 @@ export function modelComparisonJson(fit: FitJson, scope: CompareModelsScope, con
     alternatives: fit.alternatives,
     quantities: fit.quantities,
     rateRatio: { value: fit.rateRatio, standardError: fit.rateRatioSE },
+    rateRatioLimit: fit.rateRatioLimit,
     reducedChiSquare: fit.reducedChiSquare,
     work: { ...fit.work },
     warnings: fit.warnings,
@@ -142,6 +145,7 @@ export function failedModelComparison(reason: string, scope: CompareModelsScope,
     alternatives: [],
     quantities: { gapEV: null, chargingEnergyEV: null, levelSpacingSPEV: null },
     rateRatio: null,
+    rateRatioLimit: null,
     reducedChiSquare: null,
     warnings: [],
   };

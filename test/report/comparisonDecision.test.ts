@@ -42,6 +42,7 @@ function comparison(alternatives: FitAlternative[], overrides: Partial<ModelComp
     alternatives,
     quantities: { gapEV: { value: 1.2, standardError: 0.001 }, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.3, standardError: 0.001 } },
     rateRatio: { value: 3, standardError: 0.3 },
+    rateRatioLimit: null,
     reducedChiSquare: 1,
     warnings: [],
     ...overrides,

@@ -2,6 +2,7 @@
  * The record {@link fitCurve} returns: every fitted value with its standard error, the levels,
  * the status, the hypothesis the values come from and every run tried.
  */
+import type { RateRatioLimit } from "./rateRatioLimit.ts";
 import type { FitStatus } from "./fitStatus.ts";
 import type { ResidualStructure } from "./residualStructure.ts";
 
@@ -113,6 +114,13 @@ export interface CurveFit {
   chargingEnergyV: FittedValue;
   /** Γtip/Γsub. */
   rateRatio: FittedValue;
+  /**
+   * Where Γtip/Γsub ran onto a bound of the fit (10⁻⁴ or 10⁴): the one-sided limit the curve sets
+   * on it inside one regime (`kind` "lower": Γtip/Γsub ≥ `rateRatio`, deep shell filling; "upper":
+   * ≤, deep shell tunnelling); null where it did not, or where the curve sets no limit inside one
+   * regime. `rateRatio` then holds the bound, with no finite error.
+   */
+  rateRatioLimit: RateRatioLimit | null;
   /** Γsub, 1/s (the overall rate scale). */
   substrateRatePerS: FittedValue;
   /** Gaussian level broadening, eV. */

@@ -37,6 +37,7 @@ import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
 import { peakEcRefuted } from "./peakEcRefuted.ts";
 import { heldWholeValues } from "./heldWholeValues.ts";
+import { rateRatioLimit } from "./rateRatioLimit.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -197,7 +198,14 @@ export interface FitOptions {
  * 6. Verdict ({@link fitVerdict}): the regime from the fitted Γtip/Γsub and its error: shell
  *    filling at ≥ FIT_DEFAULTS.fillingRatioMin (1.5), shell tunnelling at ≤
  *    FIT_DEFAULTS.tunnelingRatioMax (3/7), intermediate between ({@link REGIME_LIMITS});
- *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. A reduced
+ *    undetermined when the regimeSigmas (2) σ range reaches both, or there is no fit. Where
+ *    Γtip/Γsub ran onto a bound (10⁻⁴, 10⁴: deep in a regime the steps no longer change with it),
+ *    the one-sided 95 % limit the curve sets on it ({@link rateRatioLimit}, profiled from the
+ *    bound, on whole-curve fits only) reads the regime instead when it lies inside one, and is
+ *    reported (`rateRatioLimit`). Γtip/Γsub alone on a bound does not make a whole-curve fit
+ *    implausible (with Ec too it does); on the CB side it does, unless the grouping's whole-curve
+ *    fit describes the curve and is plausible (on the low-η benchmark, CB-side fits on the bound
+ *    that the whole curve rejected were wrong groupings). A reduced
  *    χ² above FIT_DEFAULTS.poorFitChiSquare (10) gives a warning; the status is
  *    {@link fitStatus}'s, "failed" also when no hypothesis is plausible. It looks beyond the
  *    reduced χ²: residuals with structure over a peak's width ({@link residualStructure}; a
@@ -309,7 +317,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const cbSideOf = new Map<FitTrial, FitTrial>();
   /** Fits a CB-side finalist to the whole curve (set where groupings are compared). */
   let wholeFitOf: ((cbDone: FitTrial, ecStartEV?: number) => FitTrial) | null = null;
-  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
+  // Γtip/Γsub alone on a bound is deep in a regime on the whole curve (its limit read on the answer,
+  // rateRatioLimit); on the CB side it is a claim the whole curve must bear out (excused below).
+  const ratioBound = "Γtip/Γsub ended on a bound of the fit";
+  const ratioOnlyBound = (t: FitTrial) => plausibilityInput(t).atBound.join() === "Γtip/Γsub";
+  const plausibilityOf = (t: FitTrial) => (t.implausible ??= [...hypothesisPlausibility(plausibilityInput(t)), ...(t.side === "CB" && ratioOnlyBound(t) ? [ratioBound] : [])]);
   if (!compared && !decisive && assignedTrial) {
     // The assignment alone: restarts from the rate-ratio grid.
     const startLog0 = assignedTrial.start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];
@@ -343,7 +355,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const implausibleOf = (t: FitTrial) => {
     const whole = wholeOf.get(t);
     const wholeReasons = whole ? wholePlausibility(whole, t) : [];
-    return [...plausibilityOf(t), ...(whole && !poor(whole) ? wholeReasons : [])];
+    // A CB side on the ratio's bound whose whole-curve fit describes the curve and is plausible: deep in the regime the whole curve reads.
+    const excused = whole && t.side === "CB" && ratioOnlyBound(t) && !wholeReasons.length && reduced(whole) <= F.wholeCurveChiSquare && structureOf(whole).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ;
+    return [...plausibilityOf(t).filter((r) => !excused || r !== ratioBound), ...(whole && !poor(whole) ? wholeReasons : [])];
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
   const pool = plausible.length ? plausible : finalists;
@@ -465,6 +479,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${budgetWords} (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
   if (cutShort) warnings.push(cutShort);
   const wholeAnswers = wholeFitOf ? weightedWholeFits({ finalists, weights, wholeOf, wholeFitOf, describes: split.describes, reduced }) : new Map(); // the weighted groupings' own whole-curve answers, after the fit's result (its work counted, the budget's stop not)
+  // The winner's whole-curve fit may have been replaced since plausibility was first read (other Ec starts): a CB side on the ratio's bound is read again against it.
+  if (!plausible.includes(winner) && wholeOf.get(winner) === whole && ratioOnlyBound(winner) && implausibleOf(winner).length === 0) plausible.push(winner);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
   if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
@@ -489,7 +505,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const refuted = peakEcRefuted({ assignedReducedChiSquare: assignedTrial?.side === "both" ? reduced(assignedTrial) : null, fitReducedChiSquare: reducedChiSquare, fitIsAssigned: hypothesis.kind === "assigned" });
   const peakEc = pSplit || refuted ? null : rulesEc;
   const ratio = 10 ** params[at.logRateRatio];
-  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio]);
+  // Γtip/Γsub on a bound: the one-sided limit the curve sets on it (null off the bounds, or where
+  // none lies inside one regime), read only from a fit of the whole curve: values from the CB side
+  // alone already lack the VB reading that the whole curve rejected, and a ratio on a bound there
+  // leaves the fit without its second measure (on the low-η benchmark such CB-side fits were wrong groupings).
+  const limit = best.side === "CB" ? null : rateRatioLimit({ trial: best, run, maxIterations, chiSquareRise: F.rateRatioLimitChiSquare, fromUpperLog10: F.rateRatioLimitFromUpperLog10, fromLowerLog10: F.rateRatioLimitFromLowerLog10 });
+  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio], limit);
   if (verdict.warning) warnings.push(verdict.warning);
   const status = fitStatus({
     reducedChiSquare,
@@ -501,6 +522,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     residualStructure: structure,
     peakChargingEnergy: peakEc,
     cutShort,
+    rateRatioLimit: limit,
   });
   if (rulesEc && verdict.regime === "shell-tunneling") {
     warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
@@ -538,6 +560,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergyEV: value(at.chargingEnergy),
     chargingEnergyV: { value: params[at.chargingEnergy] / eta, standardError: se[at.chargingEnergy] / eta },
     rateRatio: { value: ratio, standardError: ratioSE },
+    rateRatioLimit: limit,
     substrateRatePerS: { value: scaleRate, standardError: se[at.rateScale] },
     broadeningEV: { value: sigmaEV, standardError: Math.LN10 * sigmaEV * se[at.logBroadening] },
     offsetA: value(at.offset),

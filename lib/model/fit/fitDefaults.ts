@@ -76,6 +76,15 @@ export const FIT_DEFAULTS = Object.freeze({
   /** Standard errors either side of the fitted log₁₀ Γtip/Γsub that the regime must hold over (fitVerdict). */
   regimeSigmas: 2,
   /**
+   * χ² rise that sets the one-sided limit on Γtip/Γsub where the fit ran onto a bound of it
+   * ({@link rateRatioLimit}): 1.645² = 2.71, the one-sided 95 % point (closed form).
+   */
+  rateRatioLimitChiSquare: 2.71,
+  /** log₁₀ Γtip/Γsub held while profiling from the upper bound (10⁴) inward; the last is the shell-filling boundary. */
+  rateRatioLimitFromUpperLog10: Object.freeze([3, 2, 1.5, 1, 0.5, Math.log10(REGIME_LIMITS.fillingRateRatioMin)]),
+  /** The same from the lower bound (10⁻⁴); the last is the shell-tunnelling boundary. */
+  rateRatioLimitFromLowerLog10: Object.freeze([-3, -2, -1.5, -1, Math.log10(REGIME_LIMITS.tunnelingRateRatioMax)]),
+  /**
    * The assignment's fit settles the question (no other grouping is compared unless asked) when
    * the rules decided the regime and its reduced χ² is at most this: a model that reaches the noise
    * leaves nothing for another grouping to explain. Unless its residuals show structure or its Ec

@@ -2,9 +2,9 @@
  * The status of a model fit from what it achieved — the reduced χ² and the errors of the
  * parameters that matter — rather than from whether the optimiser stopped by its own test.
  */
-
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import type { ResidualStructure } from "./residualStructure.ts";
+import type { RateRatioLimit } from "./rateRatioLimit.ts";
 
 /** "good", "poor" or "failed" (no fit). */
 export type FitStatus = "good" | "poor" | "failed";
@@ -69,6 +69,12 @@ export interface FitStatusInput {
    * fit or hypothesis may have been missed.
    */
   cutShort?: string | null;
+  /**
+   * Where Γtip/Γsub ran onto a bound of the fit: the one-sided limit the curve sets on it inside one
+   * regime ({@link rateRatioLimit}); absent or null: none. The bound and the error of log₁₀
+   * Γtip/Γsub then do not count against the fit: deep in a regime the limit is the measurement.
+   */
+  rateRatioLimit?: RateRatioLimit | null;
 }
 
 /**
@@ -88,7 +94,9 @@ export interface FitStatusInput {
  * Notes
  * -----
  * 1. failed: reduced χ² > 100, or Ec undetermined (non-finite error, or an error above 100 % of
- *    Ec where the regime defines it), or Ec or the rate ratio on a bound.
+ *    Ec where the regime defines it), or Ec or the rate ratio on a bound (the rate ratio not where
+ *    the curve sets a one-sided limit on it inside one regime, `rateRatioLimit`: the good reason
+ *    then gives the limit).
  * 2. poor: reduced χ² > 3, or Ec's relative error > 25 % (filling, intermediate), or log₁₀ of
  *    the rate ratio uncertain by more than 0.3 (a factor 2), or residuals with structure (the
  *    largest |Σ r|/√w over a peak's width above poorResidualZ, 5), or, where the rules and the
@@ -119,7 +127,10 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
     if (!Number.isFinite(rel) || rel > D.failedRelativeError) failed.push(`Ec is not determined (${(input.chargingEnergyEV * 1000).toFixed(1)} ± ${Number.isFinite(input.chargingEnergySE) ? (input.chargingEnergySE * 1000).toFixed(1) : "∞"} meV)`);
     else if (rel > D.poorRelativeError) poor.push(`Ec is poorly determined (±${(100 * rel).toFixed(0)} %)`);
   }
-  if (!Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
+  const limit = input.rateRatioLimit ?? null;
+  if (limit) {
+    // On a bound, with a one-sided limit inside one regime: the limit is the measurement.
+  } else if (!Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
   else if (input.logRateRatioSE > D.poorLogRatioError) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
   const structure = input.residualStructure;
   if (structure && structure.largestZ > D.poorResidualZ) {
@@ -138,11 +149,12 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
     }
   }
   if (input.cutShort) poor.push(input.cutShort);
-  for (const name of input.atBound) failed.push(`${name} ended on a bound of the fit (a degenerate solution)`);
+  for (const name of input.atBound) if (!(limit && name === "Γtip/Γsub")) failed.push(`${name} ended on a bound of the fit (a degenerate solution)`);
   if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
   if (poor.length) return { status: "poor", reasons: poor };
   const clean = structure ? `, no structure in the residuals (largest run ${structure.largestZ.toFixed(1)} σ ≤ ${D.poorResidualZ})` : "";
-  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, Ec and Γtip/Γsub determined${clean}`] };
+  const ratioWords = limit ? `Ec determined, Γtip/Γsub ${limit.kind === "lower" ? "≥" : "≤"} ${limit.rateRatio.toPrecision(3)} (a one-sided limit: it ran onto a bound of the fit)` : "Ec and Γtip/Γsub determined";
+  return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, ${ratioWords}${clean}`] };
 }
 
 /**

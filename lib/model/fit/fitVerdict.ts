@@ -3,6 +3,8 @@
  * describes the curve at all.
  */
 
+import type { RateRatioLimit } from "./rateRatioLimit.ts";
+
 /** The limits {@link fitVerdict} applies (from FIT_DEFAULTS). */
 export interface FitVerdictLimits {
   /** Γtip/Γsub at or above which the curve is in shell filling. */
@@ -40,6 +42,8 @@ export interface FitVerdict {
  *     poorFitChiSquare and regimeSigmas.
  * logRateRatioSE : number, optional
  *     Standard error of log₁₀ Γtip/Γsub (default 0: the value alone decides).
+ * limit : RateRatioLimit | null, optional
+ *     The one-sided limit the curve sets where Γtip/Γsub ran onto a bound (default null).
  *
  * Returns
  * -------
@@ -58,7 +62,10 @@ export interface FitVerdict {
  * 2. Otherwise the value decides: shell filling at r ≥ fillingRatioMin, shell tunnelling at
  *    r ≤ tunnelingRatioMax, intermediate in between (the step-ratio reading of these boundaries
  *    is in {@link REGIME_LIMITS}).
- * 3. A reduced χ² above poorFitChiSquare says the model, as started from the assignment, leaves
+ * 3. Where Γtip/Γsub ran onto a bound of the fit and the curve sets a one-sided limit on it
+ *    ({@link rateRatioLimit}) inside one regime (≥ fillingRatioMin from the upper bound, ≤
+ *    tunnelingRatioMax from the lower), that regime: deep in it, the value is not measured.
+ * 4. A reduced χ² above poorFitChiSquare says the model, as started from the assignment, leaves
  *    residuals far above the noise: levels missing or mis-assigned.
  *
  * References
@@ -75,11 +82,17 @@ export interface FitVerdict {
  * fitVerdict(1, 1, limits, 0.3).regime;   // => "undetermined" (1 × 4.0^±1 spans 0.25 … 4)
  * ```
  */
-export function fitVerdict(rateRatio: number, reducedChiSquare: number, limits: FitVerdictLimits, logRateRatioSE = 0): FitVerdict {
+export function fitVerdict(rateRatio: number, reducedChiSquare: number, limits: FitVerdictLimits, logRateRatioSE = 0, limit: RateRatioLimit | null = null): FitVerdict {
   const warning =
     reducedChiSquare > limits.poorFitChiSquare
       ? `reduced χ² = ${reducedChiSquare.toFixed(1)}: the model started from this assignment does not describe the curve (levels missing or mis-assigned); treat the fitted values with suspicion`
       : null;
+  if (limit) {
+    const [sign, where] = limit.kind === "lower" ? ["≥", "upper"] : ["≤", "lower"];
+    const shown = `Γtip/Γsub ran onto the fit's ${where} bound (${rateRatio.toPrecision(2)}); the curve sets Γtip/Γsub ${sign} ${limit.rateRatio.toPrecision(3)} (one-sided 95 %, χ² +${limit.chiSquareRise})`;
+    if (limit.kind === "lower" && limit.rateRatio >= limits.fillingRatioMin) return { regime: "shell-filling", regimeReason: `${shown} ≥ ${limits.fillingRatioMin}: shell filling`, warning };
+    if (limit.kind === "upper" && limit.rateRatio <= limits.tunnelingRatioMax) return { regime: "shell-tunneling", regimeReason: `${shown} ≤ ${limits.tunnelingRatioMax.toPrecision(2)}: shell tunnelling`, warning };
+  }
   const factor = 10 ** (limits.regimeSigmas * logRateRatioSE);
   const shown = `Γtip/Γsub = ${rateRatio.toPrecision(3)}`;
   if (!Number.isFinite(factor)) {

@@ -55,7 +55,10 @@ export interface PlausibilityInput {
  * Notes
  * -----
  * With D = PLAUSIBILITY_DEFAULTS:
- * 1. No key parameter (Ec, Γtip/Γsub) on a bound.
+ * 1. No key parameter (Ec, Γtip/Γsub) on a bound; Γtip/Γsub alone on one, with Ec inside its
+ *    bounds, is deep in a regime rather than a collapse, and passes here (fitCurve holds a CB-side
+ *    fit's bound against it unless its whole-curve fit bears it out, and reads the answer's
+ *    one-sided limit, {@link rateRatioLimit}).
  * 2. Level order: the CB levels move away from the gap in the order seeded (ascending), and the
  *    lowest CB level lies above the highest VB level. The sub-levels of one split CB shell (p1,
  *    p2, …) may lie in either order (which one the shape lowers is not fixed); each must lie above
@@ -84,7 +87,9 @@ export interface PlausibilityInput {
 export function hypothesisPlausibility(input: PlausibilityInput): string[] {
   const D = PLAUSIBILITY_DEFAULTS;
   const reasons: string[] = [];
-  for (const name of input.atBound) reasons.push(`${name} ended on a bound of the fit`);
+  // Γtip/Γsub on a bound with Ec inside its own is deep in a regime, not a collapse: the curve sets
+  // a one-sided limit on it (checked on the answer, rateRatioLimit); with Ec on a bound too it is one.
+  for (const name of input.atBound) if (name !== "Γtip/Γsub" || input.atBound.includes("Ec")) reasons.push(`${name} ended on a bound of the fit`);
   const cb = input.levels.filter((l) => l.band === "CB");
   const vb = input.levels.filter((l) => l.band === "VB");
   // Between shells the order is fixed; the sub-levels of one split shell may lie either way round.

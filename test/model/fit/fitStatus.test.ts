@@ -35,6 +35,17 @@ describe("fitStatus(input)", () => {
     expect(fitStatus({ ...ok, logRateRatioSE: Infinity }).status).toBe("failed");
     expect(fitStatus({ ...ok, chargingEnergySE: NaN }).status).toBe("failed");
   });
+  it("lets the rate ratio on a bound pass where the curve sets a one-sided limit on it inside one regime, and says the limit", () => {
+    // Deep in shell filling the step ratio r/(1 + r) is within the noise of 1 (closed form), so the
+    // curve bounds r from below only: the limit is the measurement, not a degenerate solution.
+    const deep = { ...ok, logRateRatioSE: Infinity, atBound: ["Γtip/Γsub"], rateRatioLimit: { kind: "lower" as const, rateRatio: 917, chiSquareRise: 2.71 } };
+    const r = fitStatus(deep);
+    expect(r.status).toBe("good");
+    expect(r.reasons.join(" ")).toContain("Γtip/Γsub ≥ 917");
+    // Without the limit the same fit fails; Ec on a bound still fails with it (a collapse).
+    expect(fitStatus({ ...deep, rateRatioLimit: null }).status).toBe("failed");
+    expect(fitStatus({ ...deep, atBound: ["Ec", "Γtip/Γsub"] }).status).toBe("failed");
+  });
   it("does not judge Ec in shell tunnelling, where the ladder does not show it", () => {
     expect(fitStatus({ ...ok, regime: "shell-tunneling", chargingEnergySE: 0.5 }).status).toBe("good");
   });

@@ -6,6 +6,16 @@ import { fitVerdict } from "../../../lib/model/fit/fitVerdict.ts";
 import { FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
 
 describe("fitVerdict(rateRatio, reducedChiSquare, limits)", () => {
+  it("reads the regime from a one-sided limit where the rate ratio ran onto a bound, when the limit lies inside one regime", () => {
+    const lower = (rateRatio: number) => ({ kind: "lower" as const, rateRatio, chiSquareRise: 2.71 });
+    const upper = (rateRatio: number) => ({ kind: "upper" as const, rateRatio, chiSquareRise: 2.71 });
+    // r ≥ 917: every r allowed is ≥ 1.5, shell filling; r ≤ 1.6e-4: every r allowed is ≤ 3/7, shell tunnelling.
+    expect(fitVerdict(1e4, 1, FIT_DEFAULTS, Infinity, lower(917))).toMatchObject({ regime: "shell-filling" });
+    expect(fitVerdict(1e4, 1, FIT_DEFAULTS, Infinity, lower(917)).regimeReason).toContain("Γtip/Γsub ≥ 917");
+    expect(fitVerdict(1e-4, 1, FIT_DEFAULTS, Infinity, upper(1.6e-4)).regime).toBe("shell-tunneling");
+    // A limit that reaches past the boundary (r ≥ 1.2 allows intermediate) leaves the error to decide: none finite, undetermined.
+    expect(fitVerdict(1e4, 1, FIT_DEFAULTS, Infinity, lower(1.2)).regime).toBe("undetermined");
+  });
   it("calls shell filling where the second step is ≥ 60 % of the first (r ≥ 1.5, closed form 0.6/(1 − 0.6))", () => {
     // + 1e-12: 0.6/(1 − 0.6) rounds to 1.4999999999999998 in floating point.
     expect(fitVerdict(0.6 / (1 - 0.6) + 1e-12, 1, FIT_DEFAULTS).regime).toBe("shell-filling");

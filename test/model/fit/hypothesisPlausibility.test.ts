@@ -7,6 +7,11 @@ const level = (band: "CB" | "VB", label: string, degeneracy: number, energyEV: n
 const dot = [level("CB", "s", 2, 0.6), level("CB", "p", 6, 0.9), level("VB", "v1", 2, -1.2)];
 
 describe("hypothesisPlausibility(input)", () => {
+  it("passes Γtip/Γsub alone on a bound (deep in a regime), not together with Ec on one (a collapse)", () => {
+    expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.1, atBound: ["Γtip/Γsub"] })).toEqual([]);
+    expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.1, atBound: ["Ec"] })).toEqual(["Ec ended on a bound of the fit"]);
+    expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 1e-4, atBound: ["Ec", "Γtip/Γsub"] })).toEqual(["Ec ended on a bound of the fit", "Γtip/Γsub ended on a bound of the fit"]);
+  });
   it("passes an s doublet, a p sextet and a VB level with Ec well below half the 1.8 eV gap", () => {
     expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.1, atBound: [] })).toEqual([]);
   });
