@@ -7,6 +7,7 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { assignSpectrum } from "../../assign/assignSpectrum.ts";
 import { SCENARIO_DEFAULTS, stateCount } from "../scenario.ts";
 import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
+import { resonanceSuspects } from "./resonanceSuspects.ts";
 import type { heldValenceLevels } from "./heldValenceLevels.ts";
 
 /** How a hypothesis reads its peaks. */
@@ -70,6 +71,12 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
    * peak of a level is weak but real).
    */
   ladderNoiseRatio: 0.05,
+  /**
+   * Whether the ladders are also read with the CB peaks the VB peaks predict as their
+   * second-junction resonances set aside ({@link resonanceSuspects}, note 7; chosen on the low-η
+   * accuracy benchmark with the comparison).
+   */
+  resonanceFamily: true,
 });
 
 /**
@@ -119,6 +126,14 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
  *    shell). Admitted always, they won over the right grouping on some intermediate spectra (a
  *    ladder from the empty dot with the filling order's VB reading, poor but below the restarts'
  *    threshold), so only where the assignment would otherwise be fitted alone, or not at all.
+ * 7. At low η a VB peak at V_v < 0 has its substrate-junction resonance at η·|V_v|/(1 − η) > 0,
+ *    among the CB peaks; where the rules did not label it, a ladder may take it for a level and
+ *    fit well with a wrong Ec or Γtip/Γsub. When some CB peaks lie there
+ *    ({@link resonanceSuspects}), steps 3 and 4 are read again without them (names ending
+ *    "off-resonance"; D.resonanceFamily), and the two readings compete by BIC. A reading that
+ *    finds fewer CB levels of its layout without them than with them is not added (the window
+ *    then seems to cut the shell, and a shorter ladder fits the side's few peaks as well with a
+ *    wrong Ec). At the usual η the mirrors lie beyond the window and nothing is added.
  *
  * Example
  * -------
@@ -162,40 +177,52 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
 
   const peaksV = ladderPeaksV(analysis, "CB");
   if (peaksV.length < 2) return done();
-  const ec0 = eta * (peaksV[1] - peaksV[0]);
   // In filling order, the charging peaks the filling rules kept (peaks off the ladder set aside).
   const chargingPeaksV = filling.assignment.multiplets.filter((m) => m.band === "CB").flatMap((m) => m.peaksV).sort((a, b) => a - b);
   const vbFilling = levelsToFit(filling).filter((s) => s.band === "VB");
-  const vbEmpty = valenceLadderSeeds(ladderPeaksV(analysis, "VB"), ec0 / eta, D.ladderTolerance);
-  for (const pLayout of D.pLayouts) {
-    const layout = [2, ...pLayout];
-    const words = pLayout.length === 1 ? "p whole" : `p split ${pLayout.join("+")}`;
-    const inOrder = fillingOrderSeeds(chargingPeaksV, layout);
-    add({
-      name: `ladder-filling ${inOrder.map((s) => s.degeneracy).join("+")}`,
-      kind: "ladder-filling",
-      label: `charging ladder in filling order (s doublet, ${words}${inOrder.length < layout.length ? ", the window cuts the shell" : ""})`,
-      analysis: filling,
-      seeds: [...inOrder, ...vbFilling],
-      chargingEnergyStartEV: ec0,
-      rateRatioStartLog10: D.fillingStartLog10,
-    }, [vbEmpty]);
-    const fromEmpty = emptyDotSeeds(peaksV, layout, ec0 / eta, D.ladderTolerance);
-    for (const entry of D.emptyEntryElectrons) {
-      // The first p peak seen may be p entered with 0 or 1 electrons in s (the entry from the
-      // empty dot is weak near r ≈ 1 and may go unseen).
-      const seeds = fromEmpty.map((x) => (x.label === "s" ? x : { ...x, before: entry }));
-      add({
-        name: `ladder-empty${entry ? `-${entry}` : ""} ${fromEmpty.map((x) => x.degeneracy).join("+")}`,
-        kind: "ladder-empty",
-        label: `charging ladder read from the empty dot (s doublet, ${words}${entry ? `, the first p peak read as entered with ${entry} electron in s` : ""})`,
+  const vbPeaksV = ladderPeaksV(analysis, "VB");
+  // CB levels of each layout's reading with every peak (an off-resonance reading must keep as many, note 7).
+  const levelsRead = new Map<string, number>();
+  const ladders = (peaksV: readonly number[], chargingPeaksV: readonly number[], suffix: string) => {
+    const fewer = (key: string, n: number) => (suffix ? n < (levelsRead.get(key) ?? 0) : (levelsRead.set(key, n), false));
+    const ec0 = eta * (peaksV[1] - peaksV[0]);
+    const vbEmpty = valenceLadderSeeds(vbPeaksV, ec0 / eta, D.ladderTolerance);
+    for (const pLayout of D.pLayouts) {
+      const layout = [2, ...pLayout];
+      const words = pLayout.length === 1 ? "p whole" : `p split ${pLayout.join("+")}`;
+      const inOrder = fillingOrderSeeds(chargingPeaksV, layout);
+      if (!fewer(`filling ${layout}`, inOrder.length)) add({
+        name: `ladder-filling ${inOrder.map((s) => s.degeneracy).join("+")}${suffix}`,
+        kind: "ladder-filling",
+        label: `charging ladder in filling order (s doublet, ${words}${inOrder.length < layout.length ? ", the window cuts the shell" : ""})`,
         analysis: filling,
-        seeds: [...seeds, ...vbEmpty],
+        seeds: [...inOrder, ...vbFilling],
         chargingEnergyStartEV: ec0,
-        rateRatioStartLog10: D.emptyStartLog10,
-      }, [vbFilling]);
+        rateRatioStartLog10: D.fillingStartLog10,
+      }, [vbEmpty]);
+      const fromEmpty = emptyDotSeeds(peaksV, layout, ec0 / eta, D.ladderTolerance);
+      if (fewer(`empty ${layout}`, fromEmpty.length)) continue;
+      for (const entry of D.emptyEntryElectrons) {
+        // The first p peak seen may be p entered with 0 or 1 electrons in s (the entry from the
+        // empty dot is weak near r ≈ 1 and may go unseen).
+        const seeds = fromEmpty.map((x) => (x.label === "s" ? x : { ...x, before: entry }));
+        add({
+          name: `ladder-empty${entry ? `-${entry}` : ""} ${fromEmpty.map((x) => x.degeneracy).join("+")}${suffix}`,
+          kind: "ladder-empty",
+          label: `charging ladder read from the empty dot (s doublet, ${words}${entry ? `, the first p peak read as entered with ${entry} electron in s` : ""})`,
+          analysis: filling,
+          seeds: [...seeds, ...vbEmpty],
+          chargingEnergyStartEV: ec0,
+          rateRatioStartLog10: D.emptyStartLog10,
+        }, [vbFilling]);
+      }
     }
-  }
+  };
+  ladders(peaksV, chargingPeaksV, "");
+  // The same ladders with the CB peaks the VB peaks predict as their resonances set aside (note 7).
+  const suspects = D.resonanceFamily ? resonanceSuspects(analysis, eta) : new Set<number>();
+  const offV = peaksV.filter((v) => !suspects.has(v));
+  if (offV.length < peaksV.length && offV.length >= 2) ladders(offV, chargingPeaksV.filter((v) => !suspects.has(v)), " off-resonance");
   return done();
 }
 

@@ -1,5 +1,5 @@
 /**
- * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with
+ * The model fit, stage by stage: the levels from the assignment, the hypotheses compared (with the CB peaks that may be the VB peaks' resonances, and
  * their plausibility checks and information criterion), the starting values, the
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
  * scale, offset and background, the cost of one master-equation solve (what the work budget counts), the Levenberg–Marquardt loop and the runs built on it, the first hole's entry held on the CB side at low η, the comparison
@@ -14,6 +14,7 @@ export { fitHypotheses, FIT_HYPOTHESES_DEFAULTS, type FitHypothesis, type Hypoth
 export { hypothesisPlausibility, PLAUSIBILITY_DEFAULTS, type PlausibilityInput, type PlausibilityLevel } from "./hypothesisPlausibility.ts";
 export { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 export { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
+export { resonanceSuspects, RESONANCE_SUSPECT_DEFAULTS } from "./resonanceSuspects.ts";
 export { fitStart, type FitStart } from "./fitStart.ts";
 export { startingValues, type StartingValues } from "./startingValues.ts";
 export { parameterIndex, parameterModel, type ParameterIndex } from "./parameterModel.ts";

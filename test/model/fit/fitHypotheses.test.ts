@@ -40,6 +40,11 @@ describe("fitHypotheses(analysis, eta, all)", () => {
     expect(layouts.has("2+2+4")).toBe(true);
   });
 
+  it("at η = 0.85 no VB peak's substrate-junction mirror falls in the window: no off-resonance ladders", () => {
+    // The VB peak near −1.47 V mirrors to 0.85·1.47/0.15 ≈ 8.3 V, far beyond the CB side.
+    expect(fitHypotheses(analysis, eta, true).some((h) => h.name.endsWith("off-resonance"))).toBe(false);
+  });
+
   it("FIT_HYPOTHESES_DEFAULTS are locked", () => {
     expect(Object.isFrozen(FIT_HYPOTHESES_DEFAULTS)).toBe(true);
     expect(FIT_HYPOTHESES_DEFAULTS).toEqual({
@@ -50,6 +55,7 @@ describe("fitHypotheses(analysis, eta, all)", () => {
       emptyEntryElectrons: [0, 1],
       ladderTolerance: 0.25,
       ladderNoiseRatio: 0.05,
+      resonanceFamily: true,
     });
   });
 });
