@@ -48,7 +48,7 @@ export const SUMMARY_METADATA_PREFIX = "meta_";
 export type SummaryRow = Record<SummaryColumn, string | number | null> & { [metadata: `meta_${string}`]: string } & Partial<Record<ModelSummaryColumn, string | number | null>>;
 
 /** Columns of the model comparison (`analyze --compare-models`), present when some row has one. */
-export const MODEL_SUMMARY_COLUMNS = Object.freeze(["model_regime", "model_status", "model_Ec_eV", "model_Ec_sigma_eV", "model_rate_ratio", "model_rate_ratio_sigma", "model_decides"] as const);
+export const MODEL_SUMMARY_COLUMNS = Object.freeze(["model_regime", "model_status", "model_Ec_eV", "model_Ec_sigma_eV", "model_rate_ratio", "model_rate_ratio_sigma", "model_rate_ratio_limit", "model_decides"] as const);
 /** A column of {@link MODEL_SUMMARY_COLUMNS}. */
 export type ModelSummaryColumn = (typeof MODEL_SUMMARY_COLUMNS)[number];
 
@@ -197,8 +197,11 @@ function modelCells(m: AnalysisJson["modelComparison"]): Partial<Record<ModelSum
     model_status: m.status,
     model_Ec_eV: ok ? (m.quantities.chargingEnergyEV?.value ?? null) : null,
     model_Ec_sigma_eV: ok ? (m.quantities.chargingEnergyEV?.standardError ?? null) : null,
-    model_rate_ratio: ok ? (m.rateRatio?.value ?? null) : null,
-    model_rate_ratio_sigma: ok ? (m.rateRatio?.standardError ?? null) : null,
+    // Where Γtip/Γsub ran onto a bound of the fit, the one-sided limit the curve sets (model_rate_ratio_limit
+    // "lower": Γtip/Γsub ≥ model_rate_ratio; "upper": ≤), with no σ; empty otherwise.
+    model_rate_ratio: ok ? (m.rateRatioLimit?.rateRatio ?? m.rateRatio?.value ?? null) : null,
+    model_rate_ratio_sigma: ok && !m.rateRatioLimit ? (m.rateRatio?.standardError ?? null) : null,
+    model_rate_ratio_limit: ok ? (m.rateRatioLimit?.kind ?? null) : null,
     // "yes" where the record stands by the fit over the rules' reading (comparisonDecision), "no"
     // where it stands by the rules; empty for a comparison made without that weighing.
     model_decides: m.decides === undefined ? null : m.decides ? "yes" : "no",

@@ -10,6 +10,14 @@ describe("summaryRow(json)", () => {
   const json = analysisToJson(analysis);
   const row = summaryRow(json);
 
+  it("gives the fit's one-sided limit where Γtip/Γsub ran onto a bound: model_rate_ratio is the limit, no σ, model_rate_ratio_limit says which side", () => {
+    const fitted = { status: "good", regime: "shell-filling", quantities: { gapEV: null, chargingEnergyEV: { value: 0.12, standardError: 0.001 }, levelSpacingSPEV: null }, decides: true };
+    const bounded = summaryRow({ ...json, modelComparison: { ...fitted, rateRatio: { value: 1e4, standardError: Infinity }, rateRatioLimit: { kind: "lower", rateRatio: 917, chiSquareRise: 2.71 } } } as unknown as typeof json);
+    expect(bounded).toMatchObject({ model_rate_ratio: 917, model_rate_ratio_sigma: null, model_rate_ratio_limit: "lower", model_regime: "shell-filling" });
+    const measured = summaryRow({ ...json, modelComparison: { ...fitted, rateRatio: { value: 6.1, standardError: 0.3 }, rateRatioLimit: null } } as unknown as typeof json);
+    expect(measured).toMatchObject({ model_rate_ratio: 6.1, model_rate_ratio_sigma: 0.3, model_rate_ratio_limit: null });
+  });
+
   it("SUMMARY_COLUMNS are the columns of summary.csv, in order (the CLI specification of `analyze --out`)", () => {
     expect([...SUMMARY_COLUMNS]).toEqual([
       "source", "regime", "gap_V", "gap_sigma_V", "Ec_V", "Ec_sigma_V", "single_particle_gap_V", "dSP_V", "dSP_sigma_V",
