@@ -8,7 +8,7 @@
  */
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
-import type { WholeCurveSplitContext } from "./wholeCurveSplits.ts";
+import { finishBest, type WholeCurveSplitContext } from "./wholeCurveSplits.ts";
 import { stateCount } from "../scenario.ts";
 import { recentredSeeds } from "./wholeCurveRestarts.ts";
 
@@ -87,12 +87,7 @@ export function peakStartWholeFits(context: PeakStartWholeContext, settings = PE
       explored.push(t);
     }
   }
-  const finished: FitTrial[] = [];
-  for (const t of [...explored].sort((x, y) => x.bic - y.bic).slice(0, settings.finishedStarts)) {
-    const done = { ...run(t.hypothesis, null, context.maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
-    trials.push(done);
-    finished.push(done);
-  }
+  const finished = finishBest(explored, settings.finishedStarts, run, context.maxIterations, trials);
   for (const w of finished.filter(context.describes).sort((x, y) => x.bic - y.bic)) {
     const nw = w.hypothesis.seeds.filter((s) => s.band === "CB").length;
     const at = w.hypothesis.seeds.length;

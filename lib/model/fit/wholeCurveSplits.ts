@@ -139,12 +139,7 @@ function splitAbout(top: FitTrial, context: WholeCurveSplitContext, settings: ty
     trials.push(t);
     explored.push(t);
   }
-  const finished: FitTrial[] = [];
-  for (const t of [...explored].sort((x, y) => x.bic - y.bic).slice(0, settings.finishedStarts)) {
-    const done = { ...run(t.hypothesis, null, context.maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
-    trials.push(done);
-    finished.push(done);
-  }
+  const finished = finishBest(explored, settings.finishedStarts, run, context.maxIterations, trials);
   for (const w of finished.filter(context.describes).sort((x, y) => x.bic - y.bic)) {
     const nw = w.hypothesis.seeds.filter((s) => s.band === "CB").length;
     const atW = parameterIndex(w.hypothesis.seeds.length);
@@ -154,4 +149,20 @@ function splitAbout(top: FitTrial, context: WholeCurveSplitContext, settings: ty
     if (context.acceptable(w, cb)) return { cb, whole: w };
   }
   return null;
+}
+
+/**
+ * The `count` explored runs with the lowest BIC, each finished with `maxIterations` from where it
+ * stopped (its start's rate ratio kept); the finished runs are added to `trials` and returned,
+ * best explored first.
+ */
+export function finishBest(explored: readonly FitTrial[], count: number, run: FitRun, maxIterations: number, trials: FitTrial[]): FitTrial[] {
+  return [...explored]
+    .sort((x, y) => x.bic - y.bic)
+    .slice(0, count)
+    .map((t) => {
+      const done = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
+      trials.push(done);
+      return done;
+    });
 }
