@@ -6,8 +6,7 @@ import { describe, it, expect } from "vitest";
 import { ratioText, fitToJson, formatFitText } from "../../lib/report/fitJson.ts";
 import { analysisToJson } from "../../lib/report/analysisJson.ts";
 import { fitCurve } from "../../lib/model/fit/fitCurve.ts";
-import { simulateCurve } from "../../lib/model/simulate.ts";
-import { analyzeCurve } from "../../lib/pipeline/analyzeCurve.ts";
+import { twoShellAnalysis, substrateRatePerS } from "../helpers/twoShellDot.ts";
 
 describe("ratioText(rateRatio, standardError, limit)", () => {
   it("gives a value with its error, or a one-sided limit with the bound it ran onto", () => {
@@ -17,20 +16,7 @@ describe("ratioText(rateRatio, standardError, limit)", () => {
   });
 
   it("a deep shell-filling curve (Γtip/Γsub = 10⁵): the JSON carries the limit and the text gives it", () => {
-    const eta = 0.85;
-    const sim = simulateCurve({
-      cb: [{ energyEV: 0.45, degeneracy: 2 }, { energyEV: 0.78, degeneracy: 6 }],
-      vb: [{ energyEV: -0.62, degeneracy: 2 }, { energyEV: -0.85, degeneracy: 4 }],
-      chargingEnergyEV: 0.12,
-      eta,
-      tipRatePerS: 2e13,
-      substrateRatePerS: 2e8,
-      temperatureK: 4.5,
-      broadeningEV: 0.012,
-      bias: { fromV: -2.2, toV: 2.3, stepV: 0.0025 },
-      noise: { relative: 0.003, seed: 3 },
-    });
-    const analysis = analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
+    const analysis = twoShellAnalysis(1e5 * substrateRatePerS);
     const json = fitToJson(fitCurve(analysis), analysisToJson(analysis));
     expect(json.rateRatioLimit?.kind).toBe("lower");
     expect(json.rateRatioLimit!.rateRatio).toBeLessThan(1e5);

@@ -8,24 +8,9 @@ import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
 import { simulateCurve } from "../../../lib/model/simulate.ts";
 import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
 import { DotspecError } from "../../../lib/util/errors.ts";
+import { eta, twoShellAnalysis } from "../../helpers/twoShellDot.ts";
 
-const eta = 0.85;
-function analysisOf(tipRatePerS: number, extra: Record<string, unknown> = {}) {
-  const sim = simulateCurve({
-    cb: [{ energyEV: 0.45, degeneracy: 2 }, { energyEV: 0.78, degeneracy: 6 }],
-    vb: [{ energyEV: -0.62, degeneracy: 2 }, { energyEV: -0.85, degeneracy: 4 }],
-    chargingEnergyEV: 0.12,
-    eta,
-    tipRatePerS,
-    substrateRatePerS: 2e8,
-    temperatureK: 4.5,
-    broadeningEV: 0.012,
-    bias: { fromV: -2.2, toV: 2.3, stepV: 0.0025 },
-    noise: { relative: 0.003, seed: 3 },
-    ...extra,
-  });
-  return analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta });
-}
+const analysisOf = twoShellAnalysis;
 
 describe("fitCurve(analysis)", () => {
   for (const [name, rate, ratio] of [

@@ -5,27 +5,10 @@
 // truth is in; a ratio the curve does determine (r = 6) gets no limit.
 import { describe, it, expect } from "vitest";
 import { fitCurve, FIT_DEFAULTS } from "../../../lib/model/fit/fitCurve.ts";
-import { simulateCurve } from "../../../lib/model/simulate.ts";
-import { analyzeCurve } from "../../../lib/pipeline/analyzeCurve.ts";
+import { twoShellAnalysis, substrateRatePerS } from "../../helpers/twoShellDot.ts";
 import { REGIME_LIMITS } from "../../../lib/model/regimeLimits.ts";
 
-const eta = 0.85;
-function fitAt(rateRatio: number) {
-  const substrateRatePerS = 2e8;
-  const sim = simulateCurve({
-    cb: [{ energyEV: 0.45, degeneracy: 2 }, { energyEV: 0.78, degeneracy: 6 }],
-    vb: [{ energyEV: -0.62, degeneracy: 2 }, { energyEV: -0.85, degeneracy: 4 }],
-    chargingEnergyEV: 0.12,
-    eta,
-    tipRatePerS: rateRatio * substrateRatePerS,
-    substrateRatePerS,
-    temperatureK: 4.5,
-    broadeningEV: 0.012,
-    bias: { fromV: -2.2, toV: 2.3, stepV: 0.0025 },
-    noise: { relative: 0.003, seed: 3 },
-  });
-  return fitCurve(analyzeCurve({ biasV: sim.biasV, currentA: sim.currentA, sweeps: [sim.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta }));
-}
+const fitAt = (rateRatio: number) => fitCurve(twoShellAnalysis(rateRatio * substrateRatePerS));
 
 describe("rateRatioLimit (through fitCurve)", () => {
   it("deep shell filling (r = 10⁵): Γtip/Γsub on the upper bound, a lower limit between 1.5 and the truth, shell filling, good", () => {
