@@ -18,7 +18,7 @@ import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
 import { fitHypotheses, type HypothesisKind } from "./fitHypotheses.ts";
-import { hypothesisPlausibility } from "./hypothesisPlausibility.ts";
+import { boundReason, hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
 import { fitAlternative, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
@@ -319,9 +319,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   let wholeFitOf: ((cbDone: FitTrial, ecStartEV?: number) => FitTrial) | null = null;
   // Γtip/Γsub alone on a bound is deep in a regime on the whole curve (its limit read on the answer,
   // rateRatioLimit); on the CB side it is a claim the whole curve must bear out (excused below).
-  const ratioBound = "Γtip/Γsub ended on a bound of the fit";
+  const ratioBound = boundReason("Γtip/Γsub");
   const ratioOnlyBound = (t: FitTrial) => plausibilityInput(t).atBound.join() === "Γtip/Γsub";
-  const plausibilityOf = (t: FitTrial) => (t.implausible ??= [...hypothesisPlausibility(plausibilityInput(t)), ...(t.side === "CB" && ratioOnlyBound(t) ? [ratioBound] : [])]);
+  const plausibilityOf = (t: FitTrial) => (t.implausible ??= hypothesisPlausibility(plausibilityInput(t)));
   if (!compared && !decisive && assignedTrial) {
     // The assignment alone: restarts from the rate-ratio grid.
     const startLog0 = assignedTrial.start.initialValues[parameterIndex(hypotheses[0].seeds.length).logRateRatio];

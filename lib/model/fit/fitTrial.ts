@@ -118,6 +118,7 @@ export function plausibilityInput(t: FitTrial): PlausibilityInput {
     levels: t.hypothesis.seeds.map((s, j) => ({ band: s.band, label: s.label, degeneracy: s.degeneracy, energyEV: s.band === "CB" ? p[j] : -p[j] })),
     chargingEnergyEV: p[at.chargingEnergy],
     atBound,
+    cbSideOnly: t.side === "CB",
   };
 }
 

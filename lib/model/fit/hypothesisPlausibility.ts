@@ -32,6 +32,13 @@ export interface PlausibilityInput {
   chargingEnergyEV: number;
   /** Key parameters that ended on a bound of the fit (a degenerate solution). */
   atBound: readonly string[];
+  /** The fit covers the CB side alone: Γtip/Γsub alone on a bound then fails too (only a whole-curve fit bears a regime's limit out). Default false. */
+  cbSideOnly?: boolean;
+}
+
+/** The reason {@link hypothesisPlausibility} gives for a key parameter on a bound. */
+export function boundReason(name: string): string {
+  return `${name} ended on a bound of the fit`;
 }
 
 /**
@@ -56,9 +63,9 @@ export interface PlausibilityInput {
  * -----
  * With D = PLAUSIBILITY_DEFAULTS:
  * 1. No key parameter (Ec, Γtip/Γsub) on a bound; Γtip/Γsub alone on one, with Ec inside its
- *    bounds, is deep in a regime rather than a collapse, and passes here (fitCurve holds a CB-side
- *    fit's bound against it unless its whole-curve fit bears it out, and reads the answer's
- *    one-sided limit, {@link rateRatioLimit}).
+ *    bounds, is deep in a regime rather than a collapse, and passes, except on a fit of the CB
+ *    side alone (`cbSideOnly`: fitCurve excuses it there only where the grouping's whole-curve fit
+ *    describes the curve, and reads the answer's one-sided limit, {@link rateRatioLimit}).
  * 2. Level order: the CB levels move away from the gap in the order seeded (ascending), and the
  *    lowest CB level lies above the highest VB level. The sub-levels of one split CB shell (p1,
  *    p2, …) may lie in either order (which one the shape lowers is not fixed); each must lie above
@@ -88,8 +95,9 @@ export function hypothesisPlausibility(input: PlausibilityInput): string[] {
   const D = PLAUSIBILITY_DEFAULTS;
   const reasons: string[] = [];
   // Γtip/Γsub on a bound with Ec inside its own is deep in a regime, not a collapse: the curve sets
-  // a one-sided limit on it (checked on the answer, rateRatioLimit); with Ec on a bound too it is one.
-  for (const name of input.atBound) if (name !== "Γtip/Γsub" || input.atBound.includes("Ec")) reasons.push(`${name} ended on a bound of the fit`);
+  // a one-sided limit on it (checked on the answer, rateRatioLimit); with Ec on a bound too it is
+  // one, and on the CB side alone it is a claim the whole curve must bear out.
+  for (const name of input.atBound) if (name !== "Γtip/Γsub" || input.atBound.includes("Ec") || input.cbSideOnly) reasons.push(boundReason(name));
   const cb = input.levels.filter((l) => l.band === "CB");
   const vb = input.levels.filter((l) => l.band === "VB");
   // Between shells the order is fixed; the sub-levels of one split shell may lie either way round.

@@ -9,6 +9,8 @@ const dot = [level("CB", "s", 2, 0.6), level("CB", "p", 6, 0.9), level("VB", "v1
 describe("hypothesisPlausibility(input)", () => {
   it("passes Γtip/Γsub alone on a bound (deep in a regime), not together with Ec on one (a collapse)", () => {
     expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.1, atBound: ["Γtip/Γsub"] })).toEqual([]);
+    // On the CB side alone the bound still counts: only a whole-curve fit bears a regime's limit out.
+    expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.1, atBound: ["Γtip/Γsub"], cbSideOnly: true })).toEqual(["Γtip/Γsub ended on a bound of the fit"]);
     expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 0.1, atBound: ["Ec"] })).toEqual(["Ec ended on a bound of the fit"]);
     expect(hypothesisPlausibility({ levels: dot, chargingEnergyEV: 1e-4, atBound: ["Ec", "Γtip/Γsub"] })).toEqual(["Ec ended on a bound of the fit", "Γtip/Γsub ended on a bound of the fit"]);
   });
