@@ -127,11 +127,10 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
     if (!Number.isFinite(rel) || rel > D.failedRelativeError) failed.push(`Ec is not determined (${(input.chargingEnergyEV * 1000).toFixed(1)} ± ${Number.isFinite(input.chargingEnergySE) ? (input.chargingEnergySE * 1000).toFixed(1) : "∞"} meV)`);
     else if (rel > D.poorRelativeError) poor.push(`Ec is poorly determined (±${(100 * rel).toFixed(0)} %)`);
   }
+  // On a bound, with a one-sided limit inside one regime, the limit is the measurement: the ratio's error does not count.
   const limit = input.rateRatioLimit ?? null;
-  if (limit) {
-    // On a bound, with a one-sided limit inside one regime: the limit is the measurement.
-  } else if (!Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
-  else if (input.logRateRatioSE > D.poorLogRatioError) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
+  if (!limit && !Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
+  else if (!limit && input.logRateRatioSE > D.poorLogRatioError) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
   const structure = input.residualStructure;
   if (structure && structure.largestZ > D.poorResidualZ) {
     poor.push(
