@@ -101,6 +101,13 @@ export const ASSIGN_DEFAULTS = Object.freeze({
    * (low-η shell-tunnelling draws with p1's charging peak beyond p2).
    */
   tunnelingDeepSatelliteOfSOnly: true,
+  /**
+   * … and a level lying at a VB peak's plain second-junction resonance (a peak kept as a level
+   * there) is judged by its step less the least share a resonance takes of its source's
+   * (`SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin`, ½): the substrate side steps there too.
+   * Chosen on the accuracy benchmark (low-η shell-tunnelling draws whose p1 lies at a resonance).
+   */
+  tunnelingDeepLessResonanceShare: true,
   /** … when p's first level steps at most this multiple of the s step: a 2-state sub-level (≤ 1), not the whole p (≥ 1.59 for r ≤ 1/9). */
   tunnelingSublevelFirstStepMax: 1.3,
   /**

@@ -14,7 +14,7 @@ import { shellMultiplets, valenceMultiplets, type Multiplet } from "./multiplets
 import { spectrumQuantities } from "./quantities.ts";
 import { classifyRegime, extraCbPeak, regimeRatios, type Regime, type RegimeEvidence } from "./regime.ts";
 import { splitSatellites } from "./satellites.ts";
-import { isPlainPrediction, type SecondJunctionResonance } from "./secondJunction.ts";
+import { isPlainPrediction, secondJunctionResonances, SECOND_JUNCTION_DEFAULTS, type SecondJunctionResonance } from "./secondJunction.ts";
 import { completeShells, fillingShells, tunnelingShells } from "./shells.ts";
 import { valenceEdgePartner, valenceGroups } from "./valenceGroups.ts";
 import { levelsAtDoubletResonance } from "./doubletResonance.ts";
@@ -137,7 +137,14 @@ export function assignWith(peaks: readonly Peak[], eta: number, etaGiven: boolea
     // below it, and steps more.
     const sSatelliteEndX = D.tunnelingDeepSatelliteOfSOnly ? (levels[1]?.x ?? Infinity) : Infinity;
     const deep = levels.length > 0 && !cbSplit.satellites.some((p) => p.x < sSatelliteEndX && p.peak.stepA >= D.tunnelingDeepSatelliteMax * levels[0].peak.stepA);
-    cbGroups.push(...tunnelingShells(levels, deep).map((shell) => shell.map((p) => [p])));
+    // A level at a VB peak's plain resonance also holds a substrate-side step: p's steps are
+    // judged less the least share a resonance takes of its source's (note 5 of tunnelingShells).
+    const shared = deep && D.tunnelingDeepLessResonanceShare ? new Map(secondJunctionResonances(peaks, eta).map((r) => [r.index, r.sourceIndex])) : new Map<number, number>();
+    const ownStepA = (p: BandPeak) => {
+      const source = shared.get(p.index);
+      return source === undefined ? p.peak.stepA : Math.max(0, p.peak.stepA - SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin * Math.max(0, peaks[source].stepA));
+    };
+    cbGroups.push(...tunnelingShells(levels, deep, ownStepA).map((shell) => shell.map((p) => [p])));
   }
   const satellites = [...setAside].sort((a, b) => a.peak.biasV - b.peak.biasV);
   evidence.satellitePeaksV = satellites.map((p) => p.peak.biasV);

@@ -231,6 +231,8 @@ export function stepsShortOfP(sStepA: number, pStepsA: readonly number[]): boole
  * stepReach : boolean, optional
  *     Whether p reaches further while its steps say it is short of six states (note 3; deep in
  *     shell tunnelling only). Default false.
+ * ownStepA : (p: BandPeak) => number, optional
+ *     A level's own current step, A, for note 3's steps (note 5). Default its peak's `stepA`.
  *
  * Returns
  * -------
@@ -255,6 +257,13 @@ export function stepsShortOfP(sStepA: number, pStepsA: readonly number[]): boole
  *    `ASSIGN_DEFAULTS.tunnelingDeepSatelliteOfSOnly`) for that test: the closed form r/(1 + r) is
  *    s's; a deeper level's tip-side charging peak (its second carrier may also enter a level
  *    below it) steps more, and lies beyond the next sub-level where Ec/η exceeds their spacing.
+ * 5. With `ownStepA`, the steps of note 3 are a level's own: the caller
+ *    (`ASSIGN_DEFAULTS.tunnelingDeepLessResonanceShare`) takes from a level lying at a VB peak's
+ *    plain second-junction resonance the least share a resonance steps of its source's,
+ *    (g·r + 1)/(g + r) → ½ for g = 2 as r → 0 (`SECOND_JUNCTION_DEFAULTS.ownShareSourceStepRatioMin`):
+ *    the substrate side steps at that bias too (the resonance, or where the substrate side fills
+ *    the band's edge resonance's second charging peak), and the merged step would read a 2-state
+ *    sub-level as the whole p.
  *
  * Example
  * -------
@@ -264,7 +273,7 @@ export function stepsShortOfP(sStepA: number, pStepsA: readonly number[]): boole
  * tunnelingShells([0.6875, 1.0625, 1.1, 1.6].map(at)).map((s) => s.length);  // => [1, 2, 1]
  * ```
  */
-export function tunnelingShells(main: readonly BandPeak[], stepReach = false): BandPeak[][] {
+export function tunnelingShells(main: readonly BandPeak[], stepReach = false, ownStepA: (p: BandPeak) => number = (p) => p.peak.stepA): BandPeak[][] {
   if (main.length === 0) return [];
   const shells: BandPeak[][] = [[main[0]]];
   if (main.length < 2) return shells;
@@ -275,8 +284,8 @@ export function tunnelingShells(main: readonly BandPeak[], stepReach = false): B
     const shell = shells[shells.length - 1];
     // Deep in shell tunnelling, p not yet holding its six states by its steps (a level of g states
     // about g/2 × the s step): a closer peak is one more sub-level.
-    const sStep = main[0].peak.stepA;
-    const pShort = stepReach && shells.length === 2 && stepsShortOfP(sStep, shell.map((p) => p.peak.stepA));
+    const sStep = ownStepA(main[0]);
+    const pShort = stepReach && shells.length === 2 && stepsShortOfP(sStep, shell.map(ownStepA));
     const reach = pShort ? ASSIGN_DEFAULTS.tunnelingSublevelStepFraction : ASSIGN_DEFAULTS.tunnelingSublevelFraction;
     if (d < reach * sp && shells.length > 1) shell.push(main[i]);
     else if (shells.length < SHELLS.length) shells.push([main[i]]);

@@ -145,6 +145,30 @@ describe("assignSpectrum: a deeper level's charging peak leaves the regime deep"
   });
 });
 
+describe("assignSpectrum: a p sub-level at a VB level's resonance is judged by its own step", () => {
+  // Deep in shell tunnelling (r = 0.02), η = 0.6, Ec = 0.25 eV, positions (ε + Ec/2)/η: s (0.5 eV),
+  // p split into doubly degenerate sub-levels at 0.8 and 0.99 eV, each stepping
+  // levelStepRatio(2, 2, r) = 1/(1 + 4r) × s, 0.63 Δsp apart. v1 at −0.85 V and v2 at
+  // −1.5417/1.5 V; v2's resonance −η·V/(1 − η) = 1.5 × 1.0278 V lies on p's first sub-level and
+  // adds its share of v2's step, (g·r + 1)/(g + r) ≈ ½ for g = 2 (substrateToTipStepRatio): merged,
+  // the sub-level steps 1.4 × s, above the 1.3 × s a 2-state sub-level may step.
+  const r = 0.02, S = 1e-12, etaD = 0.6, ecD = 0.25;
+  const at = (e: number) => (e + ecD / 2) / etaD;
+  const sub = levelStepRatio(2, 2, r) * S;
+  const share = substrateToTipStepRatio(2, r) * S;
+  const v2V = -at(0.8) * (1 - etaD) / etaD;
+  const peaks = [peak(v2V, S), peak(-0.85, S), peak(at(0.5), S), peak(0.85 * 1.5, substrateToTipStepRatio(2, r) * S), peak(at(0.8), sub + share), peak(at(0.99), sub)];
+
+  it("reads both sub-levels as p (the resonance's least share, ½ of v2's step, taken from the merged step)", () => {
+    expect((sub + share) / S).toBeGreaterThan(ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax);
+    const a = assignSpectrum(peaks, { eta: etaD });
+    expect(a.regime).toBe("shell-tunneling");
+    expect(a.multiplets.find((m) => m.label === "s")!.peakIndices).toEqual([2]);
+    expect(a.multiplets.find((m) => m.label === "p")!.peakIndices).toEqual([4, 5]);
+    expect(a.multiplets.some((m) => m.label === "d")).toBe(false);
+  });
+});
+
 describe("assignSpectrum(peaks, options): other cases", () => {
   it("says undetermined when the second CB step is neither alike nor much larger (intermediate rate ratio)", () => {
     const r = assignSpectrum([peak(0.7, 1e-11), peak(0.82, 0.45e-11), peak(1.3, 1e-11)]);
@@ -191,6 +215,7 @@ describe("assignSpectrum(peaks, options): other cases", () => {
       tunnelingSublevelStepFraction: 0.75,
       tunnelingDeepSatelliteMax: 0.1,
       tunnelingDeepSatelliteOfSOnly: true,
+      tunnelingDeepLessResonanceShare: true,
       tunnelingSublevelFirstStepMax: 1.3,
       tunnelingSublevelStepMax: 2.5,
       levelChargingTolerance: 0.15,

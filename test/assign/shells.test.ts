@@ -181,4 +181,16 @@ describe("tunnelingShells(main)", () => {
     expect(stepsWhole[1] / stepsWhole[0]).toBeGreaterThan(2.5);
     expect(ids(tunnelingShells(xs.map((x, i) => at(x, i, stepsWhole[i])), true))).toEqual([[0], [1], [2]]);
   });
+
+  it("with ownStepA, a 2-state sub-level whose peak also holds a resonance's step is judged by its own step (note 5)", () => {
+    // s and p_a step alike (2 states each, deep in the regime); a resonance adds half a VB level's
+    // step (the least share, (g·r + 1)/(g + r) → ½ for g = 2 as r → 0) to p_a's peak: 1.5 × s
+    // merged, above the 1.3 × s a 2-state level may step, so p_b 0.6 × Δsp above opens d unless
+    // the share is taken off.
+    const xs = [V(0.5, 0), V(0.8, 0), V(0.98, 0)];
+    const peaks = xs.map((x, i) => at(x, i, i === 1 ? 1.5e-11 : 1e-11));
+    expect(ids(tunnelingShells(peaks, true))).toEqual([[0], [1], [2]]);
+    const own = (p: BandPeak) => (p.index === 1 ? p.peak.stepA - 0.5e-11 : p.peak.stepA);
+    expect(ids(tunnelingShells(peaks, true, own))).toEqual([[0], [1, 2]]);
+  });
 });
