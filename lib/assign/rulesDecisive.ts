@@ -299,7 +299,12 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    out on 3039 and the intermediate 4157) and 3 passing ones (none broken); on the default mix
  *    seeds 1 and 1001 and the crossover seed 1 they send none. Without 18's step test it also sent
  *    1168 (its set-aside peak steps 0.42 × p's first; the fit then right) and a clean filling curve
- *    whose p is cut by the window, for its p charging satellite stepping 0.15 × p's first.
+ *    whose p is cut by the window, for its p charging satellite stepping 0.15 × p's first. 18
+ *    therefore waives the step test only where a peak labelled a second-junction resonance lies
+ *    within (`overlapFwhms`) 1 FWHM of the set-aside peak: overlapping peaks share one step in the
+ *    peak list, so the set-aside peak's own step tells nothing (2026-12-05: it then sends 1168
+ *    alone of the 1000 low-η shell-filling draws of seeds 1 … 4001, the fit right on it, and none
+ *    on the default mix seeds 1 and 1001, the crossover seed 1 or the cut window seed 1).
  * 21–22. A shell-filling layout no dot has, `impossibleLayoutReasons` (impossibleLayout.ts, its
  *    defaults `IMPOSSIBLE_LAYOUT_DEFAULTS`). 21: Δsp (`quantities.levelSpacingSPV`) below zero, p
  *    below s; 22: Ec above (`maxChargingFractionOfGap`) 0.25 × the single-particle gap (common

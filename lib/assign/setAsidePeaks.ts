@@ -27,6 +27,12 @@ export interface SetAsidePeakOptions {
   missingPeakStepMin?: number;
   /** Shell tunnelling: at least this many CB peaks beyond the last level left unread. Default 1. */
   unreadPeaksMin?: number;
+  /**
+   * Shell filling: a peak set aside before a short shell overlaps a peak labelled a second-junction
+   * resonance when that one lies within this many of its FWHM; the step test (`missingPeakStepMin`)
+   * is then waived, in FWHM. Default 1.
+   */
+  overlapFwhms?: number;
 }
 
 /** Defaults of {@link setAsidePeakReasons} (locked by test/assign/setAsidePeaks.test.ts). */
@@ -48,6 +54,13 @@ export const SET_ASIDE_PEAK_DEFAULTS = Object.freeze({
   missingPeakStepMin: 1,
   /** Unread CB peaks beyond the last tunnelling level that leave the reading open (chosen on the accuracy benchmark, see note 20 of rulesDecisive). */
   unreadPeaksMin: 1,
+  /**
+   * A peak set aside before a short shell with a second-junction resonance within this many of its
+   * FWHM overlaps it: the two share one step between them in the peak list, so its own step does
+   * not tell a charging peak from a satellite and the step test is waived (chosen on the accuracy
+   * benchmark, see note 18 of rulesDecisive).
+   */
+  overlapFwhms: 1,
 });
 
 /** The codes of {@link setAsidePeakReasons}, by note of `rulesDecisive`: 18, 19, 20. */
@@ -76,13 +89,13 @@ export interface SetAsidePeakReason {
  *
  * Parameters
  * ----------
- * peaks : readonly Pick<Peak, "biasV" | "stepA">[]
- *     The peaks the assignment names by index (`biasV` in V, `stepA` in A).
+ * peaks : readonly Pick<Peak, "biasV" | "stepA" | "fwhmV">[]
+ *     The peaks the assignment names by index (`biasV` and `fwhmV` in V, `stepA` in A).
  * assignment : SetAsidePeakAssignment
  *     The rules' assignment of those peaks (regime, multiplets, Ec in bias, the peaks set aside).
  * options : SetAsidePeakOptions, optional
  *     `missingPeakTolerance` (default 0.175), `missingPeakStepMin` (default 1), both
- *     dimensionless, and `unreadPeaksMin` (peaks, default 1).
+ *     dimensionless, `unreadPeaksMin` (peaks, default 1) and `overlapFwhms` (FWHM, default 1).
  *
  * Returns
  * -------
@@ -105,7 +118,10 @@ export interface SetAsidePeakReason {
  *    the shell's first charging peak may be that peak, set aside as a resonance or satellite it
  *    overlaps, and the shell read from its second. A weaker peak there is the shell's own charging
  *    satellite (its level entered before the shell below is full), which lies one Ec before its
- *    first charging peak on any filling curve that shows it.
+ *    first charging peak on any filling curve that shows it, unless a peak labelled a
+ *    second-junction resonance lies within `overlapFwhms` of its FWHM: two peaks that close
+ *    overlap, and the peak list shares their combined step between them however it is split, so
+ *    the set-aside peak's own step tells nothing and the step test is waived.
  * 2. (note 19) Shell filling with two successive charging peaks of a shell (in one sub-group or
  *    across two) whose gap has room for one more, half of it within `missingPeakTolerance` × Ec of
  *    Ec, while a set-aside peak stepping at least `missingPeakStepMin` × the lower of the two lies
@@ -127,7 +143,7 @@ export interface SetAsidePeakReason {
  * ```
  */
 export function setAsidePeakReasons(
-  peaks: readonly Pick<Peak, "biasV" | "stepA">[],
+  peaks: readonly Pick<Peak, "biasV" | "stepA" | "fwhmV">[],
   assignment: SetAsidePeakAssignment,
   options: SetAsidePeakOptions = {},
 ): SetAsidePeakReason[] {
@@ -135,6 +151,7 @@ export function setAsidePeakReasons(
   const tolerance = checkRange("missingPeakTolerance", options.missingPeakTolerance ?? D.missingPeakTolerance, 0, 0.5);
   const stepMin = checkRange("missingPeakStepMin", options.missingPeakStepMin ?? D.missingPeakStepMin, 0, 100);
   const unreadMin = checkRange("unreadPeaksMin", options.unreadPeaksMin ?? D.unreadPeaksMin, 1, 1000);
+  const overlapFwhms = checkRange("overlapFwhms", options.overlapFwhms ?? D.overlapFwhms, 0, 100);
   const a = assignment;
   const out: SetAsidePeakReason[] = [];
   const roles = peakRoles(peaks.length, a);
@@ -142,20 +159,26 @@ export function setAsidePeakReasons(
   const cb = a.multiplets.filter((m) => m.band === "CB");
   const ecV = a.quantities.chargingEnergyV;
   if (a.regime === "shell-filling" && ecV !== null && ecV > 0) {
-    /** The set-aside peak nearest `atV` within the tolerance and stepping at least `minStepA`, or undefined. */
-    const near = (atV: number, fromV: number, minStepA: number) =>
+    /** Whether a peak labelled a second-junction resonance, other than peak `i`, overlaps it (within `overlapFwhms` of its FWHM). */
+    const overlapped = (i: number) => peaks.some((q, j) => j !== i && roles[j] === "second-junction" && Math.abs(q.biasV - peaks[i].biasV) <= overlapFwhms * peaks[i].fwhmV);
+    /** The set-aside peak nearest `atV` within the tolerance and stepping at least `minStepA` (any step when `waiveOverlapped` and it overlaps a resonance), or undefined. */
+    const near = (atV: number, fromV: number, minStepA: number, waiveOverlapped = false) =>
       setAside
-        .filter((i) => peaks[i].biasV > fromV && Math.abs(peaks[i].biasV - atV) <= tolerance * ecV && peaks[i].stepA >= minStepA)
+        .filter((i) => peaks[i].biasV > fromV && Math.abs(peaks[i].biasV - atV) <= tolerance * ecV && (peaks[i].stepA >= minStepA || (waiveOverlapped && overlapped(i))))
         .sort((x, y) => Math.abs(peaks[x].biasV - atV) - Math.abs(peaks[y].biasV - atV))[0];
     cb.forEach((m, k) => {
       // 1. A short shell whose first charging peak may have been set aside.
       if (k === 0 || m.degeneracy === null || m.found === 0 || m.found >= m.degeneracy) return;
       const before = cb[k - 1].peaksV;
-      const i = near(m.peaksV[0] - ecV, before.length ? before[before.length - 1] : 0, stepMin * peaks[m.peakIndices[0]].stepA);
+      const i = near(m.peaksV[0] - ecV, before.length ? before[before.length - 1] : 0, stepMin * peaks[m.peakIndices[0]].stepA, true);
       if (i === undefined) return;
+      const ratio = peaks[i].stepA / peaks[m.peakIndices[0]].stepA;
+      const stepText = ratio >= stepMin
+        ? `stepping ${ratio.toFixed(2)} × it (≥ ${stepMin})`
+        : `stepping ${ratio.toFixed(2)} × it but overlapping a peak labelled a second-junction resonance (within ${overlapFwhms} FWHM), which shares its step`;
       out.push({
         code: "first-peak-set-aside",
-        text: `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, while the peak at ${peaks[i].biasV.toFixed(3)} V, ${((m.peaksV[0] - peaks[i].biasV) / ecV).toFixed(2)} × Ec (${(ecV * 1e3).toFixed(0)} mV) before its first and stepping ${(peaks[i].stepA / peaks[m.peakIndices[0]].stepA).toFixed(2)} × it (≥ ${stepMin}), was set aside: ${m.label}'s first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
+        text: `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, while the peak at ${peaks[i].biasV.toFixed(3)} V, ${((m.peaksV[0] - peaks[i].biasV) / ecV).toFixed(2)} × Ec (${(ecV * 1e3).toFixed(0)} mV) before its first and ${stepText}, was set aside: ${m.label}'s first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
       });
     });
     for (const m of cb) {

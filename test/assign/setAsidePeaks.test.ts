@@ -46,7 +46,7 @@ function reading(
 
 describe("setAsidePeakReasons(peaks, assignment, options)", () => {
   it("SET_ASIDE_PEAK_DEFAULTS are locked, frozen and match the documented defaults", () => {
-    expect(SET_ASIDE_PEAK_DEFAULTS).toEqual({ missingPeakTolerance: 0.175, missingPeakStepMin: 1, unreadPeaksMin: 1 });
+    expect(SET_ASIDE_PEAK_DEFAULTS).toEqual({ missingPeakTolerance: 0.175, missingPeakStepMin: 1, unreadPeaksMin: 1, overlapFwhms: 1 });
     expectDocumentedDefaults(new URL("../../lib/assign/setAsidePeaks.ts", import.meta.url), "SetAsidePeakOptions", SET_ASIDE_PEAK_DEFAULTS);
   });
 
@@ -76,6 +76,29 @@ describe("setAsidePeakReasons(peaks, assignment, options)", () => {
     const satV = pV[0] - ecV;
     const withSatellite = [...sV, satV, ...pV.slice(0, 3)].map((v) => assignPeak(v, v === satV ? 1.5e-12 : 1e-11));
     expect(setAsidePeakReasons(withSatellite, reading(withSatellite, "shell-filling", [shell(withSatellite, "s", 2, [0, 1]), shell(withSatellite, "p", 6, [3, 4, 5])], { satellites: [2] }))).toEqual([]);
+  });
+
+  it("note 18: waives the step test for a set-aside peak that overlaps a peak labelled a resonance; not for a weak peak with the resonance two FWHM away", () => {
+    // p's first charging peak (closed form) overlapped by a second-junction resonance 15 mV after it
+    // (FWHM 40 mV): the peak list splits one step between the two (0.45 × and 0.55 × a charging
+    // step), both are set aside (the first as a satellite) and p is read from its second. Common
+    // practice (no source): two peaks closer than their FWHM share the step under them.
+    const build = (resonanceOffsetV: number) => {
+      const peaks = [...sV, pV[0], pV[0] + resonanceOffsetV, ...pV.slice(1)].map((v, i) => assignPeak(v, i === 2 ? 0.45e-11 : i === 3 ? 0.55e-11 : 1e-11));
+      return { peaks, assignment: reading(peaks, "shell-filling", [shell(peaks, "s", 2, [0, 1]), shell(peaks, "p", 6, [4, 5, 6, 7, 8])], { satellites: [2], resonances: [3] }) };
+    };
+    const overlapped = build(0.015);
+    expect(setAsidePeakReasons(overlapped.peaks, overlapped.assignment)).toEqual([
+      {
+        code: "first-peak-set-aside",
+        text: `shell filling with 5 of the p multiplet's 6 charging peaks, while the peak at ${pV[0].toFixed(3)} V, 1.00 × Ec (125 mV) before its first and stepping 0.45 × it but overlapping a peak labelled a second-junction resonance (within 1 FWHM), which shares its step, was set aside: p's first charging peak may be that one (overlapping a resonance or a satellite), and the shell read from its second`,
+      },
+    ]);
+    // The resonance 80 mV away (two FWHM): the peaks are apart, the weak step stands (p's own charging satellite's).
+    const apart = build(0.08);
+    expect(setAsidePeakReasons(apart.peaks, apart.assignment)).toEqual([]);
+    // The waiver off (overlapFwhms 0): the step test applies again.
+    expect(setAsidePeakReasons(overlapped.peaks, overlapped.assignment, { overlapFwhms: 0 })).toEqual([]);
   });
 
   it("note 19: flags p's charging peaks two Ec apart with a peak as strong as theirs set aside at the middle; not a weaker one, nor one off the middle", () => {
@@ -120,5 +143,6 @@ describe("setAsidePeakReasons(peaks, assignment, options)", () => {
     const empty = reading([], "shell-filling", []);
     expectError(() => setAsidePeakReasons([], empty, { missingPeakTolerance: -0.1 }), "options/out-of-range");
     expectError(() => setAsidePeakReasons([], empty, { unreadPeaksMin: 0 }), "options/out-of-range");
+    expectError(() => setAsidePeakReasons([], empty, { overlapFwhms: -1 }), "options/out-of-range");
   });
 });
