@@ -258,19 +258,21 @@ describe("fitCurve(analysis) on split p shells", () => {
     expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
   }, 60_000);
 
-  // Start 149: Γtip/Γsub 1.15, Ec 152 meV, p split 2+2+2 (sub-levels 96–97 meV apart). The fit
-  // reads p as 2+4: the reduced χ² stays below 3, which alone would pass, while the residuals keep
-  // a run of one sign above 5 σ inside p (near 2.47 V), where the model misplaces a step: the status
-  // says so instead of "good". (Until 2026-12-03, late, start 1083 served here: its whole-curve fit
-  // now stands where holding the CB side's values leaves structure, and it describes the curve.)
-  it("calls a fit with structured residuals poor and says where, although its reduced χ² is below 3", () => {
+  // Start 149: Γtip/Γsub 1.15, Ec 152 meV, p split 2+2+2 (sub-levels 96–97 meV apart, spanning
+  // more than the s–p distance). With split shells held to a span below their distance from s the
+  // fit read p as 2+4 (reduced χ² below 3 but a run of one sign above 5 σ inside p: poor); with the
+  // bound at 1.5 × the distance (harmonic confinement up to 2.5 : 1, hypothesisPlausibility) the
+  // 2+2+2 reading is admitted and describes the curve. (The status's structure check itself is
+  // tested on fitStatus.)
+  it("reads a 2+2+2 p shell that spans more than its distance from s, and recovers Ec within 3 % and Γtip/Γsub within × 1.5", () => {
     const { analysis, truth } = crossoverDraw(149);
     expect(truth.pSubgroups).toEqual([2, 2, 2]);
     const fit = fitCurve(analysis);
-    expect(fit.reducedChiSquare).toBeLessThan(3);
-    expect(fit.residualStructure.largestZ).toBeGreaterThan(5);
-    expect(fit.status).toBe("poor");
-    expect(fit.statusReasons.join(" ")).toMatch(/residuals show structure .* near \d\.\d{3} V/);
+    expect(fit.levels.filter((l) => l.band === "CB" && /^p/.test(l.label)).map((l) => l.degeneracy)).toEqual([2, 2, 2]);
+    expect(fit.residualStructure.largestZ).toBeLessThan(5);
+    expect(fit.status).toBe("good");
+    expectClose(fit.chargingEnergyEV.value, truth.chargingEnergyEV, { rtol: 0.03, what: "Ec (simulated)" });
+    expect(Math.abs(Math.log(fit.rateRatio.value / truth.rateRatio))).toBeLessThan(Math.log(1.5));
   }, 60_000);
 
   // Start 1204: Γtip/Γsub 0.538, Ec 177.3 meV, p split 2+2+2. The CB side's values are off (Ec 171.6

@@ -47,9 +47,16 @@ describe("hypothesisPlausibility(input)", () => {
     expect(hypothesisPlausibility({ levels: over, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/shell p holds 8 electrons, more than its 6/);
   });
 
-  it("rejects a split shell spanning more than its distance from the shell below (0.35 eV > 0.3 eV)", () => {
-    const wide = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.9), level("CB", "p2", 2, 1.05), level("CB", "p3", 2, 1.25)];
-    expect(hypothesisPlausibility({ levels: wide, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/spans 350 meV, more than its distance 300 meV/);
+  it("rejects a split shell spanning more than 1.5 × its distance from the shell below (0.5 eV > 1.5 × 0.3 eV)", () => {
+    // Harmonic confinement ħω = 0.3, 0.4, 0.8 eV above s (closed form: span/distance = ω_max/ω_min − 1 = 5/3 > 1.5).
+    const wide = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.9), level("CB", "p2", 2, 1.0), level("CB", "p3", 2, 1.4)];
+    expect(hypothesisPlausibility({ levels: wide, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/spans 500 meV, more than 1.5 × its distance 300 meV/);
+    // ħω = 0.3, 0.45, 0.65 eV: ratio 0.35/0.3 = ω_max/ω_min − 1 ≈ 1.17 (confinement 2.17 : 1) is accepted.
+    const anisotropic = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.9), level("CB", "p2", 2, 1.05), level("CB", "p3", 2, 1.25)];
+    expect(hypothesisPlausibility({ levels: anisotropic, chargingEnergyEV: 0.1, atBound: [] })).toEqual([]);
+    // The same span read as single levels (one electron each, not orbitals split by shape) is held to the distance itself.
+    const singles = [level("CB", "s", 2, 0.6), level("CB", "p1", 1, 0.9), level("CB", "p2", 1, 1.05), level("CB", "p3", 1, 1.25)];
+    expect(hypothesisPlausibility({ levels: singles, chargingEnergyEV: 0.1, atBound: [] }).join(" ")).toMatch(/spans 350 meV, more than its distance 300 meV/);
     const narrow = [level("CB", "s", 2, 0.6), level("CB", "p1", 2, 0.9), level("CB", "p2", 4, 0.95)];
     expect(hypothesisPlausibility({ levels: narrow, chargingEnergyEV: 0.1, atBound: [] })).toEqual([]);
   });
@@ -60,6 +67,6 @@ describe("hypothesisPlausibility(input)", () => {
 
   it("PLAUSIBILITY_DEFAULTS are locked", () => {
     expect(Object.isFrozen(PLAUSIBILITY_DEFAULTS)).toBe(true);
-    expect(PLAUSIBILITY_DEFAULTS).toEqual({ maxChargingFractionOfGap: 0.5, shellCapacity: { s: 2, p: 6, d: 10 } });
+    expect(PLAUSIBILITY_DEFAULTS).toEqual({ maxChargingFractionOfGap: 0.5, shellCapacity: { s: 2, p: 6, d: 10 }, maxSplitSpanOfDistance: 1.5 });
   });
 });
