@@ -422,7 +422,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // At η < 1, p split on the whole curve (note 5): about the best whole-curve fit where none describes the curve ({@link wholeCurveSplits}; else the VB level of four entered later, {@link laterEntryWholeFits}), about the winner's where it does but leaves residual structure ({@link structuredWholeSplit}); a split found wins.
   const split = { trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes: (t: FitTrial) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, acceptable: (w: FitTrial, cb: FitTrial) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0 };
   const adoptSplit = (f: { cb: FitTrial; whole: FitTrial }) => (finalists.push(f.cb), plausible.push(f.cb), cbSideOf.set(f.whole, f.cb), wholeOf.set(f.cb, f.whole), [f.cb, f.whole] as const);
-  const found = (whole && wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner) ? (wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }) ?? peakStartWholeFits({ ...split, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned) })) : null) ?? (whole && wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare ? laterEntryWholeFits({ ...split, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned), vbPeaksV: analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV) }) : null);
+  const poorWhole = !!whole && !!wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare;
+  const wholeContext = { ...split, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned) };
+  const found =
+    (poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? (wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }) ?? peakStartWholeFits(wholeContext)) : null) ??
+    (poorWhole ? laterEntryWholeFits({ ...wholeContext, vbPeaksV: analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV) }) : null);
   if (found) {
     warnings.push(`no grouping's whole-curve fit from its CB side describes the curve; ${found.whole.hypothesis.label} does (reduced χ² ${reduced(found.whole).toPrecision(3)})`);
     [winner, whole] = adoptSplit(found);
