@@ -14,7 +14,7 @@ import { sameFit } from "./sameFit.ts";
 import { shiftGrouping } from "./shiftGrouping.ts";
 import { laterEntryReadings } from "./laterEntryReadings.ts";
 import { hiddenEntryReading, inFillingOrder, shellValenceReading } from "./shellValenceReading.ts";
-import type { LevelSeed } from "./levelsToFit.ts";
+import { seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { heldShellLevels, heldValenceLevels } from "./heldValenceLevels.ts";
 import type { crossedCbSide } from "./blindCbSide.ts";
 import { heldHoleEntry } from "./cbSideEnd.ts";
@@ -338,10 +338,9 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
       const vbPeaksV = h.analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV);
       const reading = shellValenceReading(vbPeaksV, p[ncb] / eta);
       const hidden = hiddenEntryReading(reading, vbPeaksV);
-      const key = (r: readonly LevelSeed[]) => r.map((x) => `${x.degeneracy}@${x.firstPeakV}/${x.before}`).join(" ");
       const shellReadings = [reading, ...(hidden ? [hidden] : [])].filter((r) => r.length).flatMap((r) => [r, inFillingOrder(r)]);
       for (const vb of shellReadings) {
-        if (!h.vbReadings.some((r) => key(r) === key(vb))) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
+        if (!h.vbReadings.some((r) => seedKey(r) === seedKey(vb))) fitReading(vb, p[ncb], (t) => asCbSide(t) && plausibilityOf(t).length === 0);
       }
       // No reading could be solved at all (the first too large): the shell reading stands, or none.
       if (!bestFull) fitReading(shellReadings[0] ?? [], p[ncb]);

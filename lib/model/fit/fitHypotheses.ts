@@ -6,7 +6,7 @@
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import { assignSpectrum } from "../../assign/assignSpectrum.ts";
 import { SCENARIO_DEFAULTS, stateCount } from "../scenario.ts";
-import { levelsToFit, type LevelSeed } from "./levelsToFit.ts";
+import { levelsToFit, seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { resonanceSuspects } from "./resonanceSuspects.ts";
 import type { heldValenceLevels } from "./heldValenceLevels.ts";
 
@@ -224,11 +224,6 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   const offV = peaksV.filter((v) => !suspects.has(v));
   if (offV.length < peaksV.length && offV.length >= 2) ladders(offV, chargingPeaksV.filter((v) => !suspects.has(v)), " off-resonance");
   return done();
-}
-
-/** Identifies a list of seeds. */
-function seedKey(seeds: readonly LevelSeed[]): string {
-  return seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
 }
 
 /** A band's peaks that may be levels or charging peaks: no resonance, no noise-level step; from the gap outward. */

@@ -2,7 +2,7 @@
  * Further readings of the VB peaks: a level's first peak taken as its entry with one carrier in
  * the levels nearer the gap, and a long run of peaks split into a doublet and the rest.
  */
-import type { LevelSeed } from "./levelsToFit.ts";
+import { seedKey, type LevelSeed } from "./levelsToFit.ts";
 
 /** Relative tolerance on Ec/η of the spacing at which a level's first peak is read as the charging peak of the level before it (reading (c) of {@link laterEntryReadings}). */
 const SATELLITE_TOLERANCE = 0.15;
@@ -54,11 +54,10 @@ const SATELLITE_TOLERANCE = 0.15;
  * ```
  */
 export function laterEntryReadings(readings: readonly (readonly LevelSeed[])[], vbPeaksV: readonly number[], chargingEnergyV: number | null = null): LevelSeed[][] {
-  const key = (r: readonly LevelSeed[]) => r.map((s) => `${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
-  const seen = new Set(readings.map(key));
+  const seen = new Set(readings.map(seedKey));
   const out: LevelSeed[][] = [];
   const add = (r: LevelSeed[]) => {
-    const k = key(r);
+    const k = seedKey(r);
     if (seen.has(k)) return;
     seen.add(k);
     out.push(r);

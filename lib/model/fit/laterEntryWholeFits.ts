@@ -6,7 +6,7 @@
  */
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
-import type { LevelSeed } from "./levelsToFit.ts";
+import { seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { peakStartWholeFits, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
 import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 
@@ -115,11 +115,10 @@ export function laterFourEntryReadings(vbPeaksV: readonly number[], lastEntryPea
 export function laterEntryWholeFits(context: LaterEntryWholeContext, settings = LATER_ENTRY_WHOLE_DEFAULTS): { cb: FitTrial; whole: FitTrial } | null {
   const readings = laterFourEntryReadings(context.vbPeaksV, settings.lastEntryPeak);
   if (!readings.length) return null;
-  const key = (r: readonly LevelSeed[]) => r.map((s) => `${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
   const hypotheses: FitHypothesis[] = [];
   for (const h of context.hypotheses) {
-    const own = new Set(h.vbReadings.map(key));
-    const fresh = readings.filter((r) => !own.has(key(r)));
+    const own = new Set(h.vbReadings.map(seedKey));
+    const fresh = readings.filter((r) => !own.has(seedKey(r)));
     if (fresh.length) hypotheses.push({ ...h, name: `${h.name} (VB level of four entered later)`, vbReadings: fresh });
   }
   if (!hypotheses.length) return null;

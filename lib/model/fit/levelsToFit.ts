@@ -17,6 +17,14 @@ export interface LevelSeed {
 }
 
 /**
+ * Identifies a list of seeds (band, degeneracy, first peak to 10 µV, carriers before), so that the
+ * same reading reached by two paths is fitted once.
+ */
+export function seedKey(seeds: readonly LevelSeed[]): string {
+  return seeds.map((s) => `${s.band}${s.degeneracy}@${s.firstPeakV.toFixed(5)}/${s.before}`).join(" ");
+}
+
+/**
  * Levels to fit, from the assignment: one per multiplet sub-group (shell filling) or one per
  * peak (shell tunnelling and undetermined).
  *
