@@ -1,0 +1,87 @@
+// unseenSPeakWholeFits: the CB ladder in filling order read with one of s's two charging peaks
+// unseen. The peak lists are built from the closed form of the orthodox ladder in filling order
+// (level j's n-th charging peak at (ε_j + Ec·(N_j + n − ½))/η, N_j the electrons below it) with
+// one of s's peaks left out; the whole-curve stage is checked with a run function that stands in
+// for Levenberg–Marquardt (each start's reduced χ² set by hand).
+import { describe, it, expect } from "vitest";
+import { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
+import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
+import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
+
+// s at 0.9 eV, p (whole, 6) at 1.25 eV, Ec 0.15 eV, η 0.62 (closed form above).
+const eta = 0.62;
+const ecEV = 0.15;
+const peak = (epsEV: number, n: number) => (epsEV + ecEV * (n - 0.5)) / eta;
+const s = [peak(0.9, 1), peak(0.9, 2)];
+const p = [3, 4, 5, 6, 7, 8].map((n) => peak(1.25, n));
+const ecV = ecEV / eta;
+
+describe("unseenSPeakReadings(cbPeaksV, layout, chargingEnergyV)", () => {
+  it("UNSEEN_S_PEAK_DEFAULTS are locked", () => {
+    expect(UNSEEN_S_PEAK_DEFAULTS).toEqual({ pLayouts: [[6], [2, 4]], entryGap: 0.5, laterVbEntries: 2 });
+    expect(Object.isFrozen(UNSEEN_S_PEAK_DEFAULTS)).toBe(true);
+  });
+
+  it("reads s's first peak unseen: s enters one Ec below the first peak seen, and each start sits on its level (closed form, filling order)", () => {
+    const [firstUnseen] = unseenSPeakReadings([s[1], ...p], [2, 6], ecV);
+    expect(firstUnseen.map((x) => [x.label, x.degeneracy, x.before])).toEqual([["s", 2, 1], ["p", 6, 2]]);
+    expect(firstUnseen[0].firstPeakV).toBe(s[1]);
+    expect(firstUnseen[1].firstPeakV).toBe(p[0]);
+    // ε = η·V − Ec·(before + ½) gives back the levels.
+    for (const [x, epsEV] of [[firstUnseen[0], 0.9], [firstUnseen[1], 1.25]] as const) expect(eta * x.firstPeakV - ecEV * (x.before + 0.5)).toBeCloseTo(epsEV, 12);
+  });
+
+  it("reads s's second peak unseen: p's entry is the first peak past s's predicted second (closed form)", () => {
+    const [, secondUnseen] = unseenSPeakReadings([s[0], ...p], [2, 6], ecV);
+    expect(secondUnseen.map((x) => [x.firstPeakV, x.before])).toEqual([[s[0], 0], [p[0], 2]]);
+  });
+
+  it("a split p: the level of four enters past the doublet's second charging peak, a peak between them (a resonance) set aside", () => {
+    // p1 (2) at 1.25 eV, p2 (4) at 1.40 eV: p2 enters at (1.40 + 4.5·Ec)/η, after p1's two peaks.
+    const p1 = [3, 4].map((n) => peak(1.25, n));
+    const p2 = [5, 6, 7, 8].map((n) => peak(1.4, n));
+    const resonanceV = p1[0] + 0.4 * ecV;
+    const [firstUnseen] = unseenSPeakReadings([s[1], p1[0], resonanceV, ...p2], [2, 2, 4], ecV);
+    expect(firstUnseen.map((x) => [x.degeneracy, x.firstPeakV, x.before])).toEqual([[2, s[1], 1], [2, p1[0], 2], [4, p2[0], 4]]);
+  });
+
+  it("gives nothing without CB peaks or Ec", () => {
+    expect(unseenSPeakReadings([], [2, 6], ecV)).toEqual([]);
+    expect(unseenSPeakReadings(p, [2, 6], 0)).toEqual([]);
+  });
+});
+
+describe("unseenSPeakWholeFits(context)", () => {
+  const seen = [s[1], ...p];
+  const analysis = { peaks: seen.map((biasV) => ({ biasV })), assignment: { evidence: { secondJunction: [] } } };
+  const vb = [{ band: "VB", label: "v1", degeneracy: 2, firstPeakV: -1.4, before: 0 }];
+  const ladder = { name: "ladder-filling 2+6", kind: "ladder-filling", label: "ladder", analysis, seeds: [{ band: "CB", label: "s", degeneracy: 2, firstPeakV: s[1], before: 0 }, { band: "CB", label: "p", degeneracy: 6, firstPeakV: p[0], before: 2 }, ...vb], vbReadings: [vb], cbDegeneracies: [2, 6], states: 21, chargingEnergyStartEV: eta * (p[0] - s[1]), rateRatioStartLog10: 1 } as unknown as FitHypothesis;
+  const context = (chiOf: (h: FitHypothesis) => number) => ({
+    trials: [] as FitTrial[],
+    run: (h: FitHypothesis, _r: number | null, _iterations: number, from?: number[], set?: DataSet) => {
+      const chi = set ? 1.1 : chiOf(h);
+      return { hypothesis: h, bic: chi, side: set ? "CB" : "both", loop: { parameters: from ?? [...h.seeds.map(() => 1), ecEV, 1, -1.7], chiSquare: chi } } as unknown as FitTrial;
+    },
+    cbSide: { biasV: new Float64Array(0) } as unknown as DataSet,
+    eta,
+    exploreIterations: 8,
+    maxIterations: 60,
+    reduced: (t: FitTrial) => t.loop.chiSquare,
+    describes: (t: FitTrial) => t.loop.chiSquare <= 3,
+    acceptable: () => true,
+    hypotheses: [ladder],
+    // A VB doublet one Ec/η apart starts Ec.
+    vbPeaksV: [-1.4, -1.4 - ecV],
+  });
+
+  it("takes the reading with s's first peak unseen where it alone describes the curve", () => {
+    const found = unseenSPeakWholeFits(context((h) => (h.seeds[0].before === 1 && h.cbDegeneracies.length === 2 ? 1.0 : 12)));
+    expect(found?.whole.hypothesis.seeds[0]).toMatchObject({ firstPeakV: s[1], before: 1 });
+    expect(found?.whole.hypothesis.chargingEnergyStartEV).toBeCloseTo(ecEV, 12);
+  });
+
+  it("returns null where no reading describes the curve (the unseen peak's predicted step costs χ²), and without a filling ladder", () => {
+    expect(unseenSPeakWholeFits(context(() => 12))).toBeNull();
+    expect(unseenSPeakWholeFits({ ...context(() => 1), hypotheses: [] })).toBeNull();
+  });
+});
