@@ -8,6 +8,7 @@ import { assignSpectrum } from "../../assign/assignSpectrum.ts";
 import { SCENARIO_DEFAULTS, stateCount } from "../scenario.ts";
 import { levelsToFit, seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { resonanceSuspects } from "./resonanceSuspects.ts";
+import { resonanceLevels } from "./resonanceLevels.ts";
 import type { heldValenceLevels } from "./heldValenceLevels.ts";
 
 /** How a hypothesis reads its peaks. */
@@ -77,6 +78,12 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
    * accuracy benchmark with the comparison).
    */
   resonanceFamily: true,
+  /**
+   * Whether the ladders are also read with the CB resonances the rules labelled nearest the gap
+   * read as charging peaks as well ({@link resonanceLevels}, note 8; chosen on the low-η accuracy
+   * benchmark with the comparison).
+   */
+  resonanceLevelFamily: true,
 });
 
 /**
@@ -134,6 +141,16 @@ export const FIT_HYPOTHESES_DEFAULTS = Object.freeze({
  *    finds fewer CB levels of its layout without them than with them is not added (the window
  *    then seems to cut the shell, and a shorter ladder fits the side's few peaks as well with a
  *    wrong Ec). At the usual η the mirrors lie beyond the window and nothing is added.
+ * 8. The reverse: a level's charging peak within a FWHM of a VB peak's resonance merges with it
+ *    into one peak, which the rules label the resonance alone (s then seems to have one peak, or
+ *    takes its second from p). The labelled resonances among the CB peaks nearest the gap
+ *    ({@link resonanceLevels}) are put back and steps 3 and 4 read again with them, in filling
+ *    order over every CB peak (the filling rules' charging peaks lack the merged one; names
+ *    ending "on-resonance"; D.resonanceLevelFamily). The merged peak lies between the charging
+ *    peak and the resonance, so Ec₀ is read from the VB's first two peaks (η × their spacing, the
+ *    first VB level's charging doublet in filling order) rather than from s's. The model holds
+ *    the VB level's resonance either way, so the readings with and without the peak as a charging
+ *    peak compete by BIC.
  *
  * Example
  * -------
@@ -183,9 +200,9 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   const vbPeaksV = ladderPeaksV(analysis, "VB");
   // CB levels of each layout's reading with every peak (an off-resonance reading must keep as many, note 7).
   const levelsRead = new Map<string, number>();
-  const ladders = (peaksV: readonly number[], chargingPeaksV: readonly number[], suffix: string) => {
+  const ladders = (peaksV: readonly number[], chargingPeaksV: readonly number[], suffix: string, ecStartEV?: number) => {
     const fewer = (key: string, n: number) => (suffix ? n < (levelsRead.get(key) ?? 0) : (levelsRead.set(key, n), false));
-    const ec0 = eta * (peaksV[1] - peaksV[0]);
+    const ec0 = ecStartEV ?? eta * (peaksV[1] - peaksV[0]);
     const vbEmpty = valenceLadderSeeds(vbPeaksV, ec0 / eta, D.ladderTolerance);
     for (const pLayout of D.pLayouts) {
       const layout = [2, ...pLayout];
@@ -223,6 +240,13 @@ export function fitHypotheses(analysis: CurveAnalysis, eta: number, all: boolean
   const suspects = D.resonanceFamily ? resonanceSuspects(analysis, eta) : new Set<number>();
   const offV = peaksV.filter((v) => !suspects.has(v));
   if (offV.length < peaksV.length && offV.length >= 2) ladders(offV, chargingPeaksV.filter((v) => !suspects.has(v)), " off-resonance");
+  // The same ladders with the labelled resonances nearest the gap read as charging peaks too (note 8).
+  const merged = D.resonanceLevelFamily ? resonanceLevels(analysis, eta) : [];
+  const byBias = (a: number, b: number) => a - b;
+  const onV = [...peaksV, ...merged].sort(byBias);
+  // The merged peak lies between the charging peak and the resonance: Ec₀ from the VB's first two peaks instead.
+  const vbEc = vbPeaksV.length >= 2 ? eta * Math.abs(vbPeaksV[1] - vbPeaksV[0]) : undefined;
+  if (merged.length) ladders(onV, onV, " on-resonance", vbEc);
   return done();
 }
 

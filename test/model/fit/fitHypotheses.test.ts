@@ -45,6 +45,30 @@ describe("fitHypotheses(analysis, eta, all)", () => {
     expect(fitHypotheses(analysis, eta, true).some((h) => h.name.endsWith("off-resonance"))).toBe(false);
   });
 
+  it("at low η reads a labelled resonance merged with s's second peak as that charging peak too (on-resonance ladders)", () => {
+    // η = 0.6, ε_s = 1.075 eV, Ec = 0.1 eV: s opens at (ε_s + Ec/2)/η = 1.875 V and (ε_s + 3Ec/2)/η =
+    // 2.042 V; the VB level ε_v = −0.767 eV opens at −(|ε_v| + Ec/2)/η = −1.362 V through the tip and
+    // through the substrate at (|ε_v| + Ec/2)/(1 − η) = 2.042 V, on s's second peak. The rules
+    // reading that peak as the resonance alone is constructed by labelling it so.
+    const lowEta = 0.6;
+    const low = simulateCurve({ cb: [{ energyEV: 1.075, degeneracy: 2 }, { energyEV: 1.45, degeneracy: 6 }], vb: [{ energyEV: -0.767, degeneracy: 2 }, { energyEV: -1.1, degeneracy: 4 }], chargingEnergyEV: 0.1, eta: lowEta,
+      tipRatePerS: 5e8, substrateRatePerS: 5e7, temperatureK: 4.5, broadeningEV: 0.01, bias: { fromV: -3, toV: 3.3, stepV: 0.002 }, noise: { relative: 0.003, seed: 1 } }, { method: "fast" });
+    const a = analyzeCurve({ biasV: low.biasV, currentA: low.currentA, sweeps: [low.currentA], didvS: null, meta: { source: "sim", metadata: {} } }, { eta: lowEta });
+    const at = (v: number) => a.peaks.findIndex((p) => Math.abs(p.biasV - v) < 0.02);
+    const [merged, source] = [at(1.225 / 0.6), at(-0.817 / 0.6)];
+    expect(merged).toBeGreaterThanOrEqual(0);
+    expect(source).toBeGreaterThanOrEqual(0);
+    const ev = a.assignment.evidence;
+    const labelled = { ...a, assignment: { ...a.assignment, evidence: { ...ev, secondJunction: [...ev.secondJunction, { index: merged, sourceIndex: source, predictedV: 0.817 / 0.4 }] } } };
+    const on = fitHypotheses(labelled, lowEta, true).find((h) => h.name === "ladder-filling 2+6 on-resonance")!;
+    expect(on).toBeDefined();
+    expectClose(on.seeds[0].firstPeakV, 1.125 / 0.6, { atol: 0.01, what: "s at (ε_s + Ec/2)/η (closed form)" });
+    // The VB doublet opens at −(|ε_v| + Ec/2)/η and −(|ε_v| + 3Ec/2)/η: η × its spacing is Ec.
+    expectClose(on.chargingEnergyStartEV!, 0.1, { rtol: 0.05, what: "Ec₀ = η·(spacing of the VB's first two peaks)" });
+    // Without it, the rules' own reading has no such ladder.
+    expect(fitHypotheses(a, lowEta, true).some((h) => h.name.endsWith("on-resonance"))).toBe(ev.secondJunction.some((r) => r.index === merged));
+  });
+
   it("FIT_HYPOTHESES_DEFAULTS are locked", () => {
     expect(Object.isFrozen(FIT_HYPOTHESES_DEFAULTS)).toBe(true);
     expect(FIT_HYPOTHESES_DEFAULTS).toEqual({
@@ -56,6 +80,7 @@ describe("fitHypotheses(analysis, eta, all)", () => {
       ladderTolerance: 0.25,
       ladderNoiseRatio: 0.05,
       resonanceFamily: true,
+      resonanceLevelFamily: true,
     });
   });
 });
