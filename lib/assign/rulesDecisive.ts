@@ -13,6 +13,7 @@ import { stepsShortOfP } from "./shells.ts";
 import { subgroupSpans } from "./multiplets.ts";
 import { setAsidePeakReasons } from "./setAsidePeaks.ts";
 import { impossibleLayoutReasons } from "./impossibleLayout.ts";
+import { mergedStepReasons } from "./mergedSteps.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -100,7 +101,8 @@ export interface RulesDecisive {
  * 6 `sublevels-one-ec`, 7 `levels-over-pairs`, 8 `broad-satellite`, 9 `charging-dip`,
  * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`, 13 `odd-subgroup`, 14 `d-near-split-p`,
  * 15 `charging-rise`, 16 `off-ladder-spacing`, 17 `pair-rise`, 18 `first-peak-set-aside`,
- * 19 `gap-peak-set-aside`, 20 `unread-cb-peaks`, 21 `negative-sp-spacing`, 22 `ec-of-gap`.
+ * 19 `gap-peak-set-aside`, 20 `unread-cb-peaks`, 21 `negative-sp-spacing`, 22 `ec-of-gap`,
+ * 23 `subgroup-fall`, 24 `edge-peak-set-aside`.
  */
 export type RulesDecisiveCode =
   | "undetermined"
@@ -124,7 +126,9 @@ export type RulesDecisiveCode =
   | "gap-peak-set-aside"
   | "unread-cb-peaks"
   | "negative-sp-spacing"
-  | "ec-of-gap";
+  | "ec-of-gap"
+  | "subgroup-fall"
+  | "edge-peak-set-aside";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -316,6 +320,19 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    37 on seed 1 (22 alone), all failing readings the rules had called decisive; the fit then
  *    stays poor on all of them (unmodelled resonances, no grouping with s's first peak unseen) and
  *    the rules' reading stands. On the default mix, the cut window and the crossover they send none.
+ * 23–24. Shell filling with a step too large for the charging ladder, `mergedStepReasons`
+ *    (mergedSteps.ts, its defaults `MERGED_STEP_DEFAULTS`). 23: a CB sub-group whose second
+ *    charging step is below (`subgroupFallRatio`) 0.35 × its first (a level's is at least
+ *    r/(1 + r) ≥ 0.6 × in shell filling): the first peak carries a resonance's step, which pulls
+ *    its position, or is that resonance alone. 24: a peak set aside one Ec (± 0.175 × Ec) before
+ *    the first charging peak of s or of the VB, stepping at least (`edgePeakStepMin`) 2 × it: that
+ *    band's first charging peak merged with a resonance, set aside as it, the band read one off.
+ *    On the low-η benchmark (fast model, 200 spectra per regime, 2026-12-05) 23 sends 9, 6 and 6
+ *    shell-filling spectra the rules decided alone to the fit on seeds 1, 1001 and 2001, two of
+ *    them failing readings (29, 158: the fit then right on both) and no passing one broken; 24 sends
+ *    2134 and 2182 (seed 2001) alone, the fit right on 2182 and giving no answer on 2134. On the
+ *    default mix seed 1 and the crossover seed 1 they send none (23 sends 12 passing filling spectra
+ *    of the default mix seed 1001 and the crossover seeds 1001, 3001 and 4001: all kept right).
  *
  * References
  * ----------
@@ -547,6 +564,8 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
   for (const r of setAsidePeakReasons(peaks, a)) add(r.code, r.text);
   // 21–22. A shell-filling layout no dot has: p below s, or Ec a large part of the gap.
   for (const r of impossibleLayoutReasons(a)) add(r.code, r.text);
+  // 23–24. Steps too large for a charging ladder: a charging peak merged with another.
+  for (const r of mergedStepReasons(peaks, a)) add(r.code, r.text);
   return { decisive: reasons.length === 0, reasons, codes };
 }
 
