@@ -90,6 +90,15 @@ describe("structuredWholeSplit(context)", () => {
     expect(above.runs).toEqual([]);
   });
 
+  it("splits a fit whose residuals show little structure when a CB-side split of the winner ties with it (note 4), keeping it only at a lower BIC", () => {
+    const quiet = context(1.09, 789, 3.7, { chi: 1.0, bic: 700, z: 2.5 });
+    const found = structuredWholeSplit({ ...quiet.context, tied: quiet.whole });
+    expect(found?.whole.bic).toBe(700);
+    expect(found!.note).toMatch(/ties on the CB side .* BIC lower by 89/);
+    const worse = context(1.09, 789, 3.7, { chi: 1.0, bic: 795, z: 2.5 });
+    expect(structuredWholeSplit({ ...worse.context, tied: worse.whole })).toBeNull();
+  });
+
   it("keeps the whole p where the split does not lower the BIC, or does not describe the curve", () => {
     expect(structuredWholeSplit(context(1.15, 700, 4.5, { chi: 1.1, bic: 705, z: 3 }).context)).toBeNull();
     expect(structuredWholeSplit(context(1.15, 900, 6, { chi: 1.1, bic: 800, z: 5.5 }).context)).toBeNull();
