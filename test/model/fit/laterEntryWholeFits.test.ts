@@ -8,6 +8,7 @@ import { laterEntryWholeFits, laterFourEntryReadings, LATER_ENTRY_WHOLE_DEFAULTS
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
+import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 // A doublet at |ε₁| 0.85 eV and a level of four at |ε₂| 1.15 eV, Ec 0.15 eV, η 0.62 (closed form above).
 const eta = 0.62;
@@ -73,11 +74,7 @@ describe("laterEntryWholeFits(context)", () => {
         },
         cbSide,
         eta,
-        exploreIterations: 8,
-        maxIterations: 60,
-        reduced: (t: FitTrial) => t.loop.chiSquare,
-        describes: (t: FitTrial) => t.loop.chiSquare <= 3,
-        acceptable: () => true,
+        ...standInWholeFields(),
         hypotheses: [hypothesis],
         vbPeaksV,
       },

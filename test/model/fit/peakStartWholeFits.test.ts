@@ -8,6 +8,7 @@ import { peakStartWholeFits, PEAK_START_WHOLE_DEFAULTS } from "../../../lib/mode
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
+import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 const cb = (degeneracies: number[]): LevelSeed[] => degeneracies.map((g, j) => ({ band: "CB", label: j ? `p${j}` : "s", degeneracy: g, firstPeakV: 1.8 + 0.3 * j, before: 0 }));
 const vbShell: LevelSeed[] = [
@@ -37,10 +38,7 @@ function context(hypotheses: FitHypothesis[], chiOf: (layout: string, vb: string
       },
       cbSide,
       eta: 0.623,
-      exploreIterations: 8,
-      maxIterations: 60,
-      reduced: (t: FitTrial) => t.loop.chiSquare,
-      describes: (t: FitTrial) => t.loop.chiSquare <= 3,
+      ...standInWholeFields(),
       acceptable,
       hypotheses,
     },

@@ -11,6 +11,7 @@ import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
 import { fitCurve } from "../../../lib/model/fit/fitCurve.ts";
 import { lowEtaDraw } from "../../helpers/lowEtaDraw.ts";
+import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 const seeds: LevelSeed[] = [
   { band: "CB", label: "s", degeneracy: 2, firstPeakV: 1.83, before: 0 },
@@ -46,13 +47,10 @@ function context(wholeChi: number, wholeBic: number, wholeZ: number, split: { ch
       },
       cbSide,
       eta: 0.6,
-      exploreIterations: 8,
-      maxIterations: 60,
-      reduced: (t: FitTrial) => t.loop.chiSquare,
+      ...standInWholeFields(),
       wholeCurveChiSquare: 3,
       structureZ: z,
       describes: (t: FitTrial) => t.loop.chiSquare <= 3 && z(t) <= 5,
-      acceptable: () => true,
     },
   };
 }

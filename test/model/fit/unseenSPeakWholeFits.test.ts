@@ -7,6 +7,7 @@ import { describe, it, expect } from "vitest";
 import { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
+import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 // s at 0.9 eV, p (whole, 6) at 1.25 eV, Ec 0.15 eV, η 0.62 (closed form above).
 const eta = 0.62;
@@ -64,11 +65,7 @@ describe("unseenSPeakWholeFits(context)", () => {
     },
     cbSide: { biasV: new Float64Array(0) } as unknown as DataSet,
     eta,
-    exploreIterations: 8,
-    maxIterations: 60,
-    reduced: (t: FitTrial) => t.loop.chiSquare,
-    describes: (t: FitTrial) => t.loop.chiSquare <= 3,
-    acceptable: () => true,
+    ...standInWholeFields(),
     hypotheses: [ladder],
     // A VB doublet one Ec/η apart starts Ec.
     vbPeaksV: [-1.4, -1.4 - ecV],

@@ -10,6 +10,7 @@ import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
 import { fitCurve } from "../../../lib/model/fit/fitCurve.ts";
 import { lowEtaDraw } from "../../helpers/lowEtaDraw.ts";
+import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 const seeds: LevelSeed[] = [
   { band: "CB", label: "s", degeneracy: 2, firstPeakV: 1.83, before: 0 },
@@ -38,11 +39,7 @@ function context(topChi: number, chiOf: (layout: string, iterations: number) => 
       },
       cbSide,
       eta: 0.555,
-      exploreIterations: 8,
-      maxIterations: 60,
-      reduced: (t: FitTrial) => t.loop.chiSquare,
-      describes: (t: FitTrial) => t.loop.chiSquare <= 3,
-      acceptable: () => true,
+      ...standInWholeFields(),
     },
   };
 }
