@@ -5,15 +5,16 @@
  * curve) tell them apart.
  */
 import type { FitTrial } from "./fitTrial.ts";
+import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
 /** Defaults of {@link tiedSplitRefinement} (locked by test/model/fit/tiedSplitRefinement.test.ts). */
 export const TIED_SPLIT_REFINEMENT_DEFAULTS = Object.freeze({
   /**
    * A CB-side refinement of the winner with its p split ties with the winner when its BIC is above
-   * the winner's by less than this (FIT_DEFAULTS.bicTieMargin: a difference not worth more than a
+   * the winner's by less than this (the comparison's own FIT_DEFAULTS.bicTieMargin, 2: a difference not worth more than a
    * bare mention). Chosen on the accuracy benchmark (low-η mix with the comparison).
    */
-  tieMargin: 2,
+  tieMargin: FIT_DEFAULTS.bicTieMargin,
 });
 
 /** Number of CB p levels of a run's grouping (1: p whole). */

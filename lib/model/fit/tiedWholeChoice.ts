@@ -3,15 +3,16 @@
  * whole-curve fit that describes the curve and a grouping it tied with does, that grouping wins.
  */
 import type { FitTrial } from "./fitTrial.ts";
+import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
 /** Defaults of {@link tiedWholeChoice} (locked by test/model/fit/tiedWholeChoice.test.ts). */
 export const TIED_WHOLE_CHOICE_DEFAULTS = Object.freeze({
   /**
-   * CB-side BICs closer than this to the winner's tie with it (FIT_DEFAULTS.bicTieMargin: a
+   * CB-side BICs closer than this to the winner's tie with it (the comparison's own FIT_DEFAULTS.bicTieMargin, 2: a
    * difference not worth more than a bare mention). Chosen on the accuracy benchmark (low-η mix
    * with the comparison).
    */
-  tieMargin: 2,
+  tieMargin: FIT_DEFAULTS.bicTieMargin,
 });
 
 /** What {@link tiedWholeChoice} works with. */
