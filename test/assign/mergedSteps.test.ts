@@ -1,5 +1,6 @@
 // mergedStepReasons (notes 23 and 24 of rulesDecisive) on shell-filling peak lists built from the
-// closed-form positions and steps of orthodox theory: one level's charging peaks at
+// closed form of orthodox theory for the positions and steps (source: closed form; each expected
+// ratio below derived from it by hand): one level's charging peaks at
 // (ε + Ec·(n + ½))/η, one Ec/η apart in bias; a 2-state level filled from the tip at
 // Γtip/Γsub = r steps 2r/(1 + 2r) then 2r²/((1 + r)(1 + 2r)) (in units of e·Γsub), the second
 // r/(1 + r) × the first (detailed balance on each plateau). Two peaks merged into one step as much
@@ -56,7 +57,8 @@ describe("mergedStepReasons(peaks, assignment, options)", () => {
   });
 
   it("note 23: flags a sub-group whose first peak carries a resonance's step besides its own (second step 0.17 × the first); the ratio is an option", () => {
-    // The resonance steps 3e-11 A: the merged first peak steps 3.86e-11, the second 0.64e-11.
+    // The resonance steps 3e-11 A: the merged first peak steps 3.86e-11, the second 0.64e-11
+    // (derived: (9/14)/(6/7 + 3) = 0.17 × the first).
     const peaks = [assignPeak(sV[0], step1A + 3e-11), assignPeak(sV[1], step2A)];
     const a = reading([group(peaks, "CB", "s", [0, 1])]);
     expect(mergedStepReasons(peaks, a)).toEqual([
@@ -69,7 +71,8 @@ describe("mergedStepReasons(peaks, assignment, options)", () => {
   });
 
   it("note 24: flags s read from its second charging peak while its first, merged with a resonance one Ec before, was set aside; not a weak resonance there, nor one 0.7 Ec before", () => {
-    // The first charging peak with a resonance's 2e-11 A: 2.86e-11, 4.4 × the second's step.
+    // The first charging peak with a resonance's 2e-11 A: 2.86e-11, 4.4 × the second's step
+    // (derived: (6/7 + 2)/(9/14) = 4.44; the peak lies (derived) exactly one Ec/η = 125 mV before it).
     const peaks = [assignPeak(sV[0], step1A + 2e-11), assignPeak(sV[1], step2A), assignPeak(sV[1] + ecV, step1A)];
     const a = reading([group(peaks, "CB", "s", [1, 2])], [0]);
     expect(mergedStepReasons(peaks, a)).toEqual([
@@ -78,7 +81,7 @@ describe("mergedStepReasons(peaks, assignment, options)", () => {
         text: `shell filling with the peak at ${sV[0].toFixed(3)} V, 1.00 × Ec (125 mV) before s's first charging peak and stepping 4.44 × it (≥ 2), set aside: s's first charging peak may be that one, merged with a resonance, and s read from its second`,
       },
     ]);
-    // A lone resonance there stepping 1.5 × s's first: nothing.
+    // A lone resonance there stepping 1.5 × s's first: nothing (below the benchmark-chosen 2 ×).
     const weak = peaks.map((p, i) => (i === 0 ? assignPeak(p.biasV, 1.5 * step2A) : p));
     expect(mergedStepReasons(weak, a)).toEqual([]);
     // The strong peak 0.7 Ec before s's first: not where a charging peak lies.
