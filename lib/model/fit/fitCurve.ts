@@ -29,7 +29,7 @@ import { compareGroupings } from "./compareGroupings.ts";
 import { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
 import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
-import { wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
+import { ecRestartedWhole, wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 import { startingValues } from "./startingValues.ts";
 import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 import { peakStartWholeFits } from "./peakStartWholeFits.ts";
@@ -308,6 +308,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const model = projectorOf(t.set)(runner.currentOf(t.hypothesis)(t.loop.parameters, t.set.biasV)).out;
     return residualStructure(t.set.biasV, t.set.dataA.map((v, i) => v - model[i]), noiseA, analysis.settings.peakWidthMV / 1000);
   };
+  /** A whole-curve fit describes the curve: reduced χ² at most wholeCurveChiSquare and no residual structure. */
+  const describes = (t: FitTrial) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ;
   const hidden = (t: FitTrial) => {
     const z = structureOf(t).largestZ;
     const peakEc = peakChargingEnergy(analysis, eta);
@@ -360,7 +362,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const whole = wholeOf.get(t);
     const wholeReasons = whole ? wholePlausibility(whole, t) : [];
     // A CB side on the ratio's bound whose whole-curve fit describes the curve and is plausible: deep in the regime the whole curve reads.
-    const excused = whole && t.side === "CB" && ratioOnlyBound(t) && !wholeReasons.length && reduced(whole) <= F.wholeCurveChiSquare && structureOf(whole).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ;
+    const excused = whole && t.side === "CB" && ratioOnlyBound(t) && !wholeReasons.length && describes(whole);
     return [...plausibilityOf(t).filter((r) => !excused || r !== ratioBound), ...(whole && !poor(whole) ? wholeReasons : [])];
   };
   const plausible = finalists.filter((t) => implausibleOf(t).length === 0);
@@ -388,7 +390,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       return w;
     };
     const candidates = trials.filter((t) => t.side === "CB" && plausibilityOf(t).length === 0);
-    const choice = wholeCurveChoice(candidates, wholeFor, (w, cb) => reduced(w) <= F.wholeCurveChiSquare && wholePlausibility(w, cb).length === 0 && structureOf(w).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, F.blindSideGroupings);
+    const choice = wholeCurveChoice(candidates, wholeFor, (w, cb) => wholePlausibility(w, cb).length === 0 && describes(w), F.blindSideGroupings);
     if (choice.chosen) {
       winner = choice.chosen;
       blindWholeBic = choice.wholeBic;
@@ -404,36 +406,30 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     cbSideOf.set(whole, winner);
     wholeOf.set(winner, whole);
   }
-  // Where the CB side's Ec gives no whole-curve fit that describes the curve, the whole curve is
-  // fitted again from other Ec starts ({@link wholeCurveEcStarts}): one that describes it (reduced
-  // χ² at most wholeCurveChiSquare, no residual structure) and is plausible replaces it.
+  // Where the CB side's Ec gives no whole-curve fit that describes the curve, the whole curve is fitted again from other Ec starts ({@link ecRestartedWhole}).
   if (whole && wholeFitOf && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
-    const atC = parameterIndex(winner.hypothesis.seeds.length);
-    const vbPeaksV = analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
-    let better: FitTrial | null = null;
-    for (const ec of wholeCurveEcStarts(winner.loop.parameters[atC.chargingEnergy], peakChargingEnergy(analysis, eta)?.valueEV ?? null, vbPeaksV, eta)) {
-      const t = wholeFitOf(winner, ec);
-      if (reduced(t) <= F.wholeCurveChiSquare && wholePlausibility(t, winner).length === 0 && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ && (!better || t.bic < better.bic)) better = t;
-    }
+    const starts = wholeCurveEcStarts(winner.loop.parameters[parameterIndex(winner.hypothesis.seeds.length).chargingEnergy], peakChargingEnergy(analysis, eta)?.valueEV ?? null, analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV), eta);
+    const better = ecRestartedWhole(starts, (ec) => wholeFitOf!(winner, ec), (t) => wholePlausibility(t, winner).length === 0 && describes(t));
     if (better) {
       warnings.push(`the whole curve started from the CB side's Ec stayed at reduced χ² ${reduced(whole).toPrecision(3)}; started from another Ec it reaches ${reduced(better).toPrecision(3)} at Ec ${(better.loop.parameters[parameterIndex(better.hypothesis.seeds.length).chargingEnergy] * 1000).toFixed(1)} meV`);
-      cbSideOf.set(better, winner);
-      wholeOf.set(winner, better);
-      whole = better;
+      (cbSideOf.set(better, winner), wholeOf.set(winner, better), (whole = better));
     }
   }
   // A CB-side tie whose winner's whole-curve fit does not describe the curve goes to a tied grouping's that does ({@link tiedWholeChoice}).
-  const retied = whole && wholeFitOf && !blindWholeBic ? tiedWholeChoice({ winner, whole, plausible, wholeOf, cbSideOf, wholeFitOf, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, describes: (t) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, acceptable: (w, cb) => wholePlausibility(w, cb).length === 0 }) : null;
+  const retied = whole && wholeFitOf && !blindWholeBic ? tiedWholeChoice({ winner, whole, plausible, wholeOf, cbSideOf, wholeFitOf, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, describes, acceptable: (w, cb) => wholePlausibility(w, cb).length === 0 }) : null;
   if (retied) (warnings.push(retied.note), ([winner, whole] = [retied.cb, retied.whole]));
   // At η < 1, p split on the whole curve (note 5): about the best whole-curve fit where none describes the curve ({@link wholeCurveSplits}; else the VB level of four entered later, {@link laterEntryWholeFits}, or an s peak unseen, {@link unseenSPeakWholeFits}), about the winner's where it does but leaves residual structure ({@link structuredWholeSplit}); a split found wins.
-  const split = { trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes: (t: FitTrial) => reduced(t) <= F.wholeCurveChiSquare && structureOf(t).largestZ <= FIT_STATUS_DEFAULTS.poorResidualZ, acceptable: (w: FitTrial, cb: FitTrial) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0 };
+  const split = { trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes, acceptable: (w: FitTrial, cb: FitTrial) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0 };
   const adoptSplit = (f: { cb: FitTrial; whole: FitTrial }) => (finalists.push(f.cb), plausible.push(f.cb), cbSideOf.set(f.whole, f.cb), wholeOf.set(f.cb, f.whole), [f.cb, f.whole] as const);
   const poorWhole = !!whole && !!wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare;
   const wholeContext = { ...split, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned), vbPeaksV: analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV) };
-  const found =
-    (poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? (wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }) ?? peakStartWholeFits(wholeContext)) : null) ??
-    (poorWhole ? laterEntryWholeFits(wholeContext) : null) ??
-    (poorWhole ? unseenSPeakWholeFits(wholeContext) : null);
+  // The stages in order, each run only where every earlier one found nothing; the first found wins.
+  const wholeStages = [
+    ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
+    ...(poorWhole ? [() => laterEntryWholeFits(wholeContext), () => unseenSPeakWholeFits(wholeContext)] : []),
+  ];
+  let found: { cb: FitTrial; whole: FitTrial } | null = null;
+  for (const stage of wholeStages) if ((found = stage())) break;
   if (found) {
     warnings.push(`no grouping's whole-curve fit from its CB side describes the curve; ${found.whole.hypothesis.label} does (reduced χ² ${reduced(found.whole).toPrecision(3)})`);
     [winner, whole] = adoptSplit(found);

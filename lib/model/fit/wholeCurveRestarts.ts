@@ -5,7 +5,7 @@
  */
 import type { LevelSeed } from "./levelsToFit.ts";
 import type { StartingValues } from "./startingValues.ts";
-import { BOUND_FRACTION, onBound } from "./fitTrial.ts";
+import { BOUND_FRACTION, onBound, type FitTrial } from "./fitTrial.ts";
 
 /** Constants of {@link wholeCurveEcStarts}. */
 export const WHOLE_CURVE_RESTART_DEFAULTS = Object.freeze({
@@ -200,4 +200,36 @@ export function levelAtReachEdge(parameters: readonly number[], start: Pick<Star
  */
 export function recentredSeeds(seeds: readonly LevelSeed[], levelsEV: readonly number[], eta: number, chargingEnergyStartEV: number): LevelSeed[] {
   return seeds.map((s, j) => ({ ...s, firstPeakV: ((s.band === "CB" ? 1 : -1) * (Math.abs(levelsEV[j]) + chargingEnergyStartEV * (s.before + 0.5))) / eta }));
+}
+
+/**
+ * The whole curve fitted again from other Ec starts: the fit of lowest BIC among those the caller
+ * accepts (in fitCurve: plausible, and describing the curve: reduced χ² at most
+ * FIT_DEFAULTS.wholeCurveChiSquare and no residual structure).
+ *
+ * Parameters
+ * ----------
+ * startsEV : readonly number[]
+ *     Ec starts in eV ({@link wholeCurveEcStarts}), each fitted in turn.
+ * fitFrom : (ecStartEV: number) => FitTrial
+ *     Fits the whole curve from one Ec start.
+ * accepts : (t: FitTrial) => boolean
+ *     Whether a whole-curve fit may replace the one from the CB side's Ec.
+ *
+ * Returns
+ * -------
+ * FitTrial | null
+ *     The accepted fit of lowest BIC, or null when none is accepted (or there is no start).
+ *
+ * Examples
+ * --------
+ * ecRestartedWhole([], fit, () => true); // => null (nothing fitted)
+ */
+export function ecRestartedWhole(startsEV: readonly number[], fitFrom: (ecStartEV: number) => FitTrial, accepts: (t: FitTrial) => boolean): FitTrial | null {
+  let better: FitTrial | null = null;
+  for (const ec of startsEV) {
+    const t = fitFrom(ec);
+    if (accepts(t) && (!better || t.bic < better.bic)) better = t;
+  }
+  return better;
 }

@@ -3,10 +3,11 @@
 // read a wrong ladder. The quality bar is the accuracy benchmark's for intermediate spectra: Ec
 // within 3 % and Γtip/Γsub within × 1.5 (common practice, no source).
 import { describe, it, expect } from "vitest";
-import { levelAtReachEdge, recentredSeeds, valenceSpacingEcEV, wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "../../../lib/model/fit/wholeCurveRestarts.ts";
+import { ecRestartedWhole, levelAtReachEdge, recentredSeeds, valenceSpacingEcEV, wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } from "../../../lib/model/fit/wholeCurveRestarts.ts";
 import { startingValues } from "../../../lib/model/fit/startingValues.ts";
 import type { CurveAnalysis } from "../../../lib/pipeline/analyzeCurve.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
+import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import { fitCurve } from "../../../lib/model/fit/fitCurve.ts";
 import { syntheticSpectrum } from "../../../lib/model/syntheticSpectrum.ts";
 import { expectIntermediateTruth, lowEtaDraw } from "../../helpers/lowEtaDraw.ts";
@@ -24,6 +25,21 @@ describe("wholeCurveEcStarts", () => {
     expect(wholeCurveEcStarts(0.3, null, [-2], 0.5).map((v) => +v.toFixed(6))).toEqual([0.15, 0.2, 0.45]);
     expect(wholeCurveEcStarts(0.3, 0.31, [], 0.5).map((v) => +v.toFixed(6))).toEqual([0.15, 0.2, 0.45]);
     expect(wholeCurveEcStarts(0.3, 0.2, [], 0.5).map((v) => +v.toFixed(6))).toEqual([0.2, 0.15, 0.45]);
+  });
+});
+
+describe("ecRestartedWhole", () => {
+  // The information criterion's rule (Schwarz 1978): among the fits the caller accepts, the lowest BIC is kept.
+  const fitWith = (bic: number) => ({ bic }) as unknown as FitTrial;
+  it("keeps the accepted fit of lowest BIC, fitting every start once", () => {
+    const fitted: number[] = [];
+    const best = ecRestartedWhole([0.1, 0.2, 0.3], (ec) => (fitted.push(ec), fitWith(ec * 1000)), (t) => t.bic !== 100);
+    expect(fitted).toEqual([0.1, 0.2, 0.3]);
+    expect(best?.bic).toBe(200); // 100 is lower but not accepted
+  });
+  it("gives null where no start is accepted or there is none", () => {
+    expect(ecRestartedWhole([0.1, 0.2], (ec) => fitWith(ec), () => false)).toBeNull();
+    expect(ecRestartedWhole([], (ec) => fitWith(ec), () => true)).toBeNull();
   });
 });
 
