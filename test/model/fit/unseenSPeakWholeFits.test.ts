@@ -19,7 +19,7 @@ const ecV = ecEV / eta;
 
 describe("unseenSPeakReadings(cbPeaksV, layout, chargingEnergyV)", () => {
   it("UNSEEN_S_PEAK_DEFAULTS are locked", () => {
-    expect(UNSEEN_S_PEAK_DEFAULTS).toEqual({ pLayouts: [[6], [2, 4]], entryGap: 0.5, laterVbEntries: 2 });
+    expect(UNSEEN_S_PEAK_DEFAULTS).toEqual({ pLayouts: [[6], [2, 4]], entryGap: 0.5, laterVbEntries: 2, resonanceEntries: 3, minStepFraction: 0.01 });
     expect(Object.isFrozen(UNSEEN_S_PEAK_DEFAULTS)).toBe(true);
   });
 
@@ -44,6 +44,24 @@ describe("unseenSPeakReadings(cbPeaksV, layout, chargingEnergyV)", () => {
     const resonanceV = p1[0] + 0.4 * ecV;
     const [firstUnseen] = unseenSPeakReadings([s[1], p1[0], resonanceV, ...p2], [2, 2, 4], ecV);
     expect(firstUnseen.map((x) => [x.degeneracy, x.firstPeakV, x.before])).toEqual([[2, s[1], 1], [2, p1[0], 2], [4, p2[0], 4]]);
+  });
+
+  it("p's peaks all set aside as resonances: p enters at the chosen resonance beyond s, a resonance below s's reach never (closed form, filling order; second-junction resonance at −η·V_v/(1 − η))", () => {
+    // A VB peak at −1.3 V has its resonance at 0.62·1.3/0.38 = 2.121 V, between s's second peak and p.
+    const vbResonanceV = (eta * 1.3) / (1 - eta);
+    const resonancesV = [p[0], vbResonanceV, p[2], s[0] + 0.2 * ecV];
+    // Without them the ladder ends at s.
+    expect(unseenSPeakReadings(s, [2, 6], ecV)[1].map((x) => x.label)).toEqual(["s"]);
+    const readings = [0, 1, 2].map((k) => unseenSPeakReadings(s, [2, 6], ecV, resonancesV, k)[1]);
+    expect(readings.map((r) => r.map((x) => [x.label, x.firstPeakV, x.before]))).toEqual([
+      [["s", s[0], 0], ["p", vbResonanceV, 2]],
+      [["s", s[0], 0], ["p", p[0], 2]],
+      [["s", s[0], 0], ["p", p[2], 2]],
+    ]);
+    // Read from its true entry, p starts on its level: ε = η·V − Ec·(before + ½).
+    expect(eta * readings[1][1].firstPeakV - ecEV * 2.5).toBeCloseTo(1.25, 12);
+    // A peak seen beyond s wins over every resonance.
+    expect(unseenSPeakReadings([...s, p[1]], [2, 6], ecV, resonancesV, 1)[1][1].firstPeakV).toBe(p[1]);
   });
 
   it("gives nothing without CB peaks or Ec", () => {
@@ -74,6 +92,14 @@ describe("unseenSPeakWholeFits(context)", () => {
   it("takes the reading with s's first peak unseen where it alone describes the curve", () => {
     const found = unseenSPeakWholeFits(context((h) => (h.seeds[0].before === 1 && h.cbDegeneracies.length === 2 ? 1.0 : 12)));
     expect(found?.whole.hypothesis.seeds[0]).toMatchObject({ firstPeakV: s[1], before: 1 });
+    expect(found?.whole.hypothesis.chargingEnergyStartEV).toBeCloseTo(ecEV, 12);
+  });
+
+  it("a peak without a current step next to the first VB peak does not start Ec: the VB doublet's spacing does (closed form: its two peaks Ec/η apart; every charging peak carries a step)", () => {
+    const satelliteV = -1.409;
+    const withSatellite = { peaks: [...seen.map((biasV) => ({ biasV, stepA: 20e-12 })), { biasV: satelliteV, stepA: 0.001e-12 }], assignment: { evidence: { secondJunction: [] } } };
+    const base = context((h) => (h.seeds[0].before === 1 && h.cbDegeneracies.length === 2 ? 1.0 : 12));
+    const found = unseenSPeakWholeFits({ ...base, hypotheses: [{ ...ladder, analysis: withSatellite } as unknown as FitHypothesis], vbPeaksV: [-1.4, satelliteV, -1.4 - ecV] });
     expect(found?.whole.hypothesis.chargingEnergyStartEV).toBeCloseTo(ecEV, 12);
   });
 
