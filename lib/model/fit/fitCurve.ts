@@ -35,6 +35,7 @@ import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 import { peakStartWholeFits } from "./peakStartWholeFits.ts";
 import { laterEntryWholeFits } from "./laterEntryWholeFits.ts";
 import { unseenSPeakWholeFits } from "./unseenSPeakWholeFits.ts";
+import { droppedPeakWholeFits, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
 import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
 import { peakEcRefuted } from "./peakEcRefuted.ts";
@@ -183,7 +184,7 @@ export interface FitOptions {
  *    own spacing, the CB side's × ½, ⅔, 3⁄2: a CB side that ends near the s doublet may fit a
  *    wrong ladder to the noise), and the best by BIC of those that reach wholeCurveChiSquare
  *    without residual structure and are plausible replaces it (a warning says so); where none does at η < 1, the best whole-curve fit so far with its
- *    p level split ({@link wholeCurveSplits}; the split grouping then fitted on the CB side from it), or else each compared grouping fitted to the whole curve from its own peak-based starts ({@link peakStartWholeFits}), or else (wherever the whole curve's reduced χ² is above wholeCurveChiSquare) the same with the VB level of four entered at each later VB peak and the best such fit's p split ({@link laterEntryWholeFits}: a resonance or spurious peak taken for its entry), or else the filling-order ladder read with one of s's two charging peaks unseen ({@link unseenSPeakWholeFits}: a CB-edge peak missing from the peak list), does, if it reaches the same bar (and where the winner's whole-curve fit is within wholeCurveChiSquare but its residuals show structure, it is split likewise and the split replaces it at a lower whole-curve BIC, {@link structuredWholeSplit}, as also where a CB-side refinement of the winner with its p split ties with it, {@link tiedSplitRefinement}; before these, where the winner's whole-curve fit is within wholeCurveChiSquare with residual structure left and a CB-side finalist tied with it has a whole-curve fit that describes the curve, that finalist wins, {@link tiedWholeChoice}); its whole-curve values stand unless their reduced χ² is
+ *    p level split ({@link wholeCurveSplits}; the split grouping then fitted on the CB side from it), or else each compared grouping fitted to the whole curve from its own peak-based starts ({@link peakStartWholeFits}), or else (wherever the whole curve's reduced χ² is above wholeCurveChiSquare) the same with the VB level of four entered at each later VB peak and the best such fit's p split ({@link laterEntryWholeFits}: a resonance or spurious peak taken for its entry), or else the filling-order ladder read with one of s's two charging peaks unseen ({@link unseenSPeakWholeFits}: a CB-edge peak missing from the peak list), or else with one CB charging peak read as a VB level's unlabelled resonance ({@link droppedPeakWholeFits}), does, if it reaches the same bar (and where the winner's whole-curve fit is within wholeCurveChiSquare but its residuals show structure, it is split likewise and the split replaces it at a lower whole-curve BIC, {@link structuredWholeSplit}, as also where a CB-side refinement of the winner with its p split ties with it, {@link tiedSplitRefinement}; before these, where the winner's whole-curve fit is within wholeCurveChiSquare with residual structure left and a CB-side finalist tied with it has a whole-curve fit that describes the curve, that finalist wins, {@link tiedWholeChoice}); its whole-curve values stand unless their reduced χ² is
  *    above wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, or their residuals show structure ({@link residualStructure}, above FIT_STATUS_DEFAULTS.poorResidualZ, 5) only outside the CB side's points while the CB side's show none (then the CB-side values, a
  *    warning says so: no reading of the VB peaks fits with them); when the whole-curve Ec or log₁₀ Γtip/Γsub lies more than
  *    wholeCurveEcSigmas (1) combined standard errors from the CB side's and the CB side, its levels
@@ -275,6 +276,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // finished, fitted to the whole curve), solve it once.
   const runner = fitRunner(analysis, { eta, temperatureK, maxPoints, maxEvaluations, maxEliminationSteps: F.maxEliminationSteps, timeLimitMs, maxIterations, chargingEnergyGuessEV: guessEC, chunkIterations: F.chunkIterations, convergenceTolerance: F.convergenceTolerance, cbSideMarginFwhm: F.cbSideResonanceMarginFwhm, cbSideHeldHole: F.cbSideHeldHole });
   const { all, cbSide, noiseA, run, projectorOf, bandStore, reduced, work } = runner;
+  /** The larger part of the work budget spent so far (evaluations or elimination steps), 0–1. */
+  const budgetSpent = () => Math.max(work().evaluations / maxEvaluations, work().eliminationSteps / F.maxEliminationSteps);
 
   // 2. Starts. The assignment's hypothesis from its own rate ratio first. When that does not
   // describe the curve, or the rules left the regime undetermined (or when asked to compare),
@@ -418,7 +421,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // A CB-side tie whose winner's whole-curve fit does not describe the curve goes to a tied grouping's that does ({@link tiedWholeChoice}).
   const retied = whole && wholeFitOf && !blindWholeBic ? tiedWholeChoice({ winner, whole, plausible, wholeOf, cbSideOf, wholeFitOf, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, describes, acceptable: (w, cb) => wholePlausibility(w, cb).length === 0 }) : null;
   if (retied) (warnings.push(retied.note), ([winner, whole] = [retied.cb, retied.whole]));
-  // At η < 1, p split on the whole curve (note 5): about the best whole-curve fit where none describes the curve ({@link wholeCurveSplits}; else the VB level of four entered later, {@link laterEntryWholeFits}, or an s peak unseen, {@link unseenSPeakWholeFits}), about the winner's where it does but leaves residual structure ({@link structuredWholeSplit}); a split found wins.
+  // At η < 1, p split on the whole curve (note 5): about the best whole-curve fit where none describes the curve ({@link wholeCurveSplits}; else the VB level of four entered later, {@link laterEntryWholeFits}, or an s peak unseen, {@link unseenSPeakWholeFits}, or a CB peak a resonance, {@link droppedPeakWholeFits}, while at most maxBudgetSpent of the work budget is spent), about the winner's where it does but leaves residual structure ({@link structuredWholeSplit}); a split found wins.
   const split = { trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes, acceptable: (w: FitTrial, cb: FitTrial) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0 };
   const adoptSplit = (f: { cb: FitTrial; whole: FitTrial }) => (finalists.push(f.cb), plausible.push(f.cb), cbSideOf.set(f.whole, f.cb), wholeOf.set(f.cb, f.whole), [f.cb, f.whole] as const);
   const poorWhole = !!whole && !!wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare;
@@ -427,6 +430,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const wholeStages = [
     ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
     ...(poorWhole ? [() => laterEntryWholeFits(wholeContext), () => unseenSPeakWholeFits(wholeContext)] : []),
+    ...(poorWhole ? [() => (budgetSpent() <= DROPPED_PEAK_DEFAULTS.maxBudgetSpent ? droppedPeakWholeFits(wholeContext) : null)] : []),
   ];
   let found: { cb: FitTrial; whole: FitTrial } | null = null;
   for (const stage of wholeStages) if ((found = stage())) break;

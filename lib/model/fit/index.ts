@@ -41,6 +41,7 @@ export { valenceSpacingEcEV, wholeCurveEcStarts, WHOLE_CURVE_RESTART_DEFAULTS } 
 export { wholeCurveSplits, WHOLE_CURVE_SPLIT_DEFAULTS } from "./wholeCurveSplits.ts";
 export { peakStartWholeFits, PEAK_START_WHOLE_DEFAULTS, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
 export { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS, type UnseenSPeakContext } from "./unseenSPeakWholeFits.ts";
+export { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
 export { structuredWholeSplit, STRUCTURED_WHOLE_SPLIT_DEFAULTS, type StructuredWholeSplitContext } from "./structuredWholeSplit.ts";
 export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";
