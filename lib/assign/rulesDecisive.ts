@@ -14,6 +14,7 @@ import { subgroupSpans } from "./multiplets.ts";
 import { setAsidePeakReasons } from "./setAsidePeaks.ts";
 import { impossibleLayoutReasons } from "./impossibleLayout.ts";
 import { mergedStepReasons } from "./mergedSteps.ts";
+import { hiddenLadderReasons } from "./hiddenLadders.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -102,7 +103,7 @@ export interface RulesDecisive {
  * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`, 13 `odd-subgroup`, 14 `d-near-split-p`,
  * 15 `charging-rise`, 16 `off-ladder-spacing`, 17 `pair-rise`, 18 `first-peak-set-aside`,
  * 19 `gap-peak-set-aside`, 20 `unread-cb-peaks`, 21 `negative-sp-spacing`, 22 `ec-of-gap`,
- * 23 `subgroup-fall`, 24 `edge-peak-set-aside`.
+ * 23 `subgroup-fall`, 24 `edge-peak-set-aside`, 25 `pulled-charging-peak`, 26 `vb-charging-pairs`.
  */
 export type RulesDecisiveCode =
   | "undetermined"
@@ -128,7 +129,9 @@ export type RulesDecisiveCode =
   | "negative-sp-spacing"
   | "ec-of-gap"
   | "subgroup-fall"
-  | "edge-peak-set-aside";
+  | "edge-peak-set-aside"
+  | "pulled-charging-peak"
+  | "vb-charging-pairs";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -333,6 +336,9 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    2134 and 2182 (seed 2001) alone, the fit right on 2182 and giving no answer on 2134. On the
  *    default mix seed 1 and the crossover seed 1 they send none (23 sends 12 passing filling spectra
  *    of the default mix seed 1001 and the crossover seeds 1001, 3001 and 4001: all kept right).
+ * 25–26. A charging ladder bent or hidden, `hiddenLadderReasons` (hiddenLadders.ts, its defaults
+ *    `HIDDEN_LADDER_DEFAULTS`, its notes give the figures). 25: a CB charging peak kept under a
+ *    resonance, off its sub-group's ladder; 26: shell tunnelling with VB levels in charging pairs.
  *
  * References
  * ----------
@@ -566,6 +572,8 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
   for (const r of impossibleLayoutReasons(a)) add(r.code, r.text);
   // 23–24. Steps too large for a charging ladder: a charging peak merged with another.
   for (const r of mergedStepReasons(peaks, a)) add(r.code, r.text);
+  // 25–26. A charging ladder bent by a resonance, or read as single levels.
+  for (const r of hiddenLadderReasons(peaks, a)) add(r.code, r.text);
   return { decisive: reasons.length === 0, reasons, codes };
 }
 

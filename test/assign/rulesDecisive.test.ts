@@ -22,10 +22,13 @@ const ecV = ec / eta;
 const sV = [0.5 + 0.05, 0.5 + 0.15].map((e) => e / eta);
 const pV = [2, 3, 4, 5, 6, 7].map((n) => (0.8 + ec * (n + 0.5)) / eta);
 const vbV = [0.6 + 0.05, 0.6 + 0.15, ...[2, 3, 4, 5].map((n) => 0.8 + ec * (n + 0.5))].map((e) => -e / eta);
+// The same two VB levels deep in shell tunnelling: one peak each at (|ε| + Ec/2)/η (their charging
+// peaks unseen), so that the VB does not read as charging pairs (note 26).
+const vbTunnelingV = [0.6, 0.8].map((e) => -(e + ec / 2) / eta);
 
 /** The rules' assignment of these peaks and its verdict over a window [−2, toV] V. */
-function verdict(cbPeaks: Peak[], toV: number) {
-  const peaks = [...vbV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
+function verdict(cbPeaks: Peak[], toV: number, valenceV: readonly number[] = vbV) {
+  const peaks = [...valenceV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
   const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
   return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, toV] }) };
 }
@@ -85,11 +88,11 @@ describe("rulesDecisive(input, options)", () => {
   it("flags a shell-tunnelling ladder of alike spacings, and not one whose s→p jump differs", () => {
     // Levels s (g 2), p (g 6), d (g 10) deep in shell tunnelling: steps in proportion to g (r → 0,
     // levelStepRatio), one peak per level.
-    const even = verdict([0.75, 1.05, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2);
+    const even = verdict([0.75, 1.05, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2, vbTunnelingV);
     expect(even.assignment.regime).toBe("shell-tunneling");
     expect(even.result.decisive).toBe(false);
     expect(even.result.reasons[0]).toContain("3 CB peaks whose 2 spacings are alike (300, 300 mV");
-    const uneven = verdict([0.75, 1.15, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2);
+    const uneven = verdict([0.75, 1.15, 1.35].map((v, i) => peak(v, [1, 3, 5][i] * 1e-11)), 2, vbTunnelingV);
     expect(uneven.assignment.regime).toBe("shell-tunneling");
     expect(uneven.result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
@@ -154,7 +157,7 @@ describe("rulesDecisive(input, options)", () => {
     // Ec/η = 0.1 V; closed form); the rules read the first three as p's sub-levels (steps alike
     // the s step) and the fourth, 0.4 × the third, as a satellite.
     const ladder = [1.1, 1.2, 1.3, 1.4];
-    const strong = verdict([peak(0.75), ...ladder.map((v, i) => peak(v, (i < 3 ? 1 : 0.4) * 1e-11))], 2);
+    const strong = verdict([peak(0.75), ...ladder.map((v, i) => peak(v, (i < 3 ? 1 : 0.4) * 1e-11))], 2, vbTunnelingV);
     expect(strong.assignment.regime).toBe("shell-tunneling");
     expect(strong.assignment.multiplets.find((m) => m.label === "p")!.found).toBe(3);
     expect(strong.result.decisive).toBe(false);
@@ -163,7 +166,7 @@ describe("rulesDecisive(input, options)", () => {
       "shell tunnelling with p split into 3 sub-levels that, with the 1 peak(s) after them set aside as satellites (the first 0.40 × the step before it, within 0.2–0.8: a charging peak of Γtip/Γsub no longer small), form an even ladder (100, 100, 100 mV, each within 0.15 of their mean or 3σ): they may be one level's charging peaks",
     );
     // Without the satellite (sub-levels alike, deep in shell tunnelling) the reading stands.
-    const none = verdict([peak(0.75), ...ladder.slice(0, 3).map((v) => peak(v))], 2);
+    const none = verdict([peak(0.75), ...ladder.slice(0, 3).map((v) => peak(v))], 2, vbTunnelingV);
     expect(none.assignment.multiplets.find((m) => m.label === "p")!.found).toBe(3);
     expect(none.result).toEqual({ decisive: true, reasons: [], codes: [] });
   });
@@ -186,7 +189,7 @@ describe("rulesDecisive(input, options)", () => {
     // step (p holds 6 electrons, s 2); the satellite's step 0.25 × s (r/(1 + r) for r = 1/3).
     // stepRatioMargin 0 keeps 0.25 outside the crossover band (0.3–0.6), so only the width counts.
     const run = (fwhmV: number) => {
-      const peaks = [...vbV.map((v) => peak(v)), peak(0.75), { ...peak(0.85, 0.25e-11), fwhmV }, peak(1.1, 3e-11)].sort((a, b) => a.biasV - b.biasV);
+      const peaks = [...vbTunnelingV.map((v) => peak(v)), peak(0.75), { ...peak(0.85, 0.25e-11), fwhmV }, peak(1.1, 3e-11)].sort((a, b) => a.biasV - b.biasV);
       const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
       return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: 0 }) };
     };
@@ -206,7 +209,7 @@ describe("rulesDecisive(input, options)", () => {
     // outside the crossover band (0.3–0.6).
     const run = (chargingStep: number) => {
       const cbPeaks = [peak(sV[0]), peak(sV[1], 0.28e-11), peak((0.8 + ec / 2) / eta, 1.5e-11), peak((0.8 + 1.5 * ec) / eta, chargingStep * 1.5e-11)];
-      const peaks = [...vbV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
+      const peaks = [...vbTunnelingV.map((v) => peak(v)), ...cbPeaks].sort((a, b) => a.biasV - b.biasV);
       const assignment = assignSpectrum(peaks, { eta, secondJunction: false });
       return { assignment, result: rulesDecisive({ peaks, assignment, biasRangeV: [-2, 2] }, { stepRatioMargin: 0 }) };
     };
