@@ -22,7 +22,7 @@ const resonanceV = (s[1] + p1[0]) / 2;
 
 describe("fillingOrderReading(peaksV, layout, topV)", () => {
   it("DROPPED_PEAK_DEFAULTS are locked", () => {
-    expect(DROPPED_PEAK_DEFAULTS).toEqual({ pLayouts: [[6], [2, 4], [2, 2, 2]], maxDropped: 3 });
+    expect(DROPPED_PEAK_DEFAULTS).toEqual({ pLayouts: [[6], [2, 4], [2, 2, 2]], maxDropped: 3, maxBudgetSpent: 0.75 });
     expect(Object.isFrozen(DROPPED_PEAK_DEFAULTS)).toBe(true);
   });
 
