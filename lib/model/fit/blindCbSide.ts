@@ -135,6 +135,10 @@ export function crossedCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: Arra
  *     Whether a whole-curve fit may decide (plausible, or not describing the curve at all).
  * maxGroupings : number
  *     Most groupings fitted to the whole curve (FIT_DEFAULTS.blindSideGroupings).
+ * always : { cb: FitTrial; whole: FitTrial } | null
+ *     A CB-side fit looked at besides them, whatever its CB-side BIC and plausibility, with the
+ *     whole-curve fit that stands for it where it is not among them (the assignment's, note 3;
+ *     FIT_DEFAULTS.blindSideAssigned); null (default): none.
  *
  * Returns
  * -------
@@ -155,6 +159,14 @@ export function crossedCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: Arra
  *    is a candidate, not only the finalists.
  * 2. Every whole-curve fit covers the same points, so their BICs compare; p's peaks lie there,
  *    with the VB levels that the CB side leaves out.
+ * 3. `always` is looked at after them, with its given whole-curve fit, where it is not one of them. The CB side, blind to p, can
+ *    neither rank nor check a grouping by its p levels: those of a split p add k·ln n to its
+ *    CB-side BIC with no χ² to gain there, and they wander off the side unfitted (a split p
+ *    spanning more than its distance from s, implausible). So a split p that the rules read right
+ *    never reached the whole curve (low-η shell-filling draw 190: the assignment's s + p 2+2+2,
+ *    seventh by CB-side BIC and implausible on the CB side, fits the whole curve at reduced χ²
+ *    1.15 where the winner's p whole leaves 2.80 and residual structure of 16 σ). Its whole-curve
+ *    fit (the assignment's own run, already made) decides by the same bar as the others'.
  *
  * Example
  * -------
@@ -162,7 +174,7 @@ export function crossedCbSide(peaks: readonly BlindSidePeak[], cbSideBiasV: Arra
  * const { chosen } = wholeCurveChoice(plausibleCbRuns, (t) => wholeFitOf(t), (w) => plausibilityOf(w).length === 0, 8);
  * ```
  */
-export function wholeCurveChoice(candidates: readonly FitTrial[], wholeOf: (t: FitTrial) => FitTrial, acceptable: (whole: FitTrial, cb: FitTrial) => boolean, maxGroupings: number): { chosen: FitTrial | null; wholeBic: Map<FitTrial, number> } {
+export function wholeCurveChoice(candidates: readonly FitTrial[], wholeOf: (t: FitTrial) => FitTrial, acceptable: (whole: FitTrial, cb: FitTrial) => boolean, maxGroupings: number, always: { cb: FitTrial; whole: FitTrial } | null = null): { chosen: FitTrial | null; wholeBic: Map<FitTrial, number> } {
   const byGrouping = new Map<string, FitTrial>();
   for (const t of [...candidates].sort((x, y) => x.bic - y.bic)) {
     const key = t.hypothesis.seeds.map((s) => `${s.band}${s.degeneracy}/${s.before}`).join(" ");
@@ -170,8 +182,10 @@ export function wholeCurveChoice(candidates: readonly FitTrial[], wholeOf: (t: F
   }
   const wholeBic = new Map<FitTrial, number>();
   let chosen: FitTrial | null = null;
-  for (const cb of [...byGrouping.values()].slice(0, maxGroupings)) {
-    const whole = wholeOf(cb);
+  const tried = [...byGrouping.values()].slice(0, maxGroupings);
+  const extra = always && !tried.includes(always.cb) ? always : null;
+  for (const cb of extra ? [...tried, extra.cb] : tried) {
+    const whole = cb === extra?.cb ? extra.whole : wholeOf(cb);
     if (!acceptable(whole, cb)) continue;
     wholeBic.set(cb, whole.bic);
     if (!chosen || whole.bic < wholeBic.get(chosen)!) chosen = cb;

@@ -177,7 +177,7 @@ export interface FitOptions {
  *    ladders also started from the VB peaks' own spacing, {@link valenceSpacingEcEV}: so the
  *    best blindSideGroupings (5) groupings explored are fitted to the whole curve and the
  *    lowest whole-curve BIC among those that reach reduced χ² wholeCurveChiSquare (3) without
- *    residual structure and are plausible wins, their whole-curve BICs the weights,
+ *    residual structure and are plausible wins (the assignment's own whole-curve run looked at too, blindSideAssigned), their whole-curve BICs the weights,
  *    {@link wholeCurveChoice}); where the winner's whole-curve fit has reduced χ² above
  *    wholeCurveChiSquare (3) and wholeCurveRatio (2) times the CB side's, it is fitted again with
  *    every reading from other Ec starts ({@link wholeCurveEcStarts}: the rules' Ec, the VB peaks'
@@ -383,6 +383,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // whole-curve fits decide instead (the lowest whole-curve BIC).
   let blindWholeBic: Map<FitTrial, number> | null = null;
   if (wholeFitOf && (crossed || blindCbSide(analysis.peaks, cbSide.biasV, F.blindSidePeaks, curveTopV))) {
+    // The assignment's own whole-curve run (already made) is looked at too, for its CB side ({@link wholeCurveChoice}, note 3).
+    const assignedCb = F.blindSideAssigned && assignedTrial?.side === "both" ? trials.filter((t) => t.side === "CB" && t.hypothesis.kind === "assigned").reduce<FitTrial | null>((x, y) => (!x || y.bic < x.bic ? y : x), null) : null;
+    const always = assignedCb ? { cb: assignedCb, whole: wholeOf.get(assignedCb) ?? assignedTrial! } : null;
     const wholeFor = (t: FitTrial) => {
       let w = wholeOf.get(t);
       if (!w) {
@@ -393,7 +396,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
       return w;
     };
     const candidates = trials.filter((t) => t.side === "CB" && plausibilityOf(t).length === 0);
-    const choice = wholeCurveChoice(candidates, wholeFor, (w, cb) => wholePlausibility(w, cb).length === 0 && describes(w), F.blindSideGroupings);
+    const choice = wholeCurveChoice(candidates, wholeFor, (w, cb) => wholePlausibility(w, cb).length === 0 && describes(w), F.blindSideGroupings, always);
+    if (always && choice.wholeBic.has(always.cb) && !wholeOf.has(always.cb)) (cbSideOf.set(always.whole, always.cb), wholeOf.set(always.cb, always.whole));
     if (choice.chosen) {
       winner = choice.chosen;
       blindWholeBic = choice.wholeBic;

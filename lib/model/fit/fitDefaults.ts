@@ -187,4 +187,14 @@ export const FIT_DEFAULTS = Object.freeze({
    * grouping read from the empty dot, which the fewest levels push out of them on a blind side.
    */
   blindSideGroupings: 5,
+  /**
+   * Whether, on a blind CB side, the assignment's own whole-curve run also competes in
+   * {@link wholeCurveChoice} for its CB-side fit, whatever that fit's CB-side BIC and
+   * plausibility (its note 3: a split p adds parameters the blind side cannot use and wanders off
+   * it). Chosen on the low-η accuracy benchmark with the comparison: shell filling 194 → 195 of
+   * 200 (seeds 1–200, draw 190), 193 → 193 and 193 → 193 (1001–1200, 2001–2200); tunnelling and
+   * intermediate unchanged; the default and crossover mixes and `bench:fit` unchanged (no blind
+   * side there). It fits nothing more (the run is made anyway; one residual check).
+   */
+  blindSideAssigned: true,
 });

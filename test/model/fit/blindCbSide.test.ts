@@ -74,6 +74,23 @@ describe("wholeCurveChoice", () => {
     expect([...wholeBic.keys()]).toEqual([a1]);
     expect(wholeCurveChoice([b], (t) => ({ bic: wholeBics.get(t)! }) as FitTrial, () => false, 2).chosen).toBeNull();
   });
+  it("also looks at `always` with its given whole-curve fit, beyond maxGroupings and outside the candidates (note 3)", () => {
+    // By the definition: one grouping (a1, 900) fitted; `always` (d, not a candidate, CB-side BIC
+    // the worst) stands with its own whole-curve fit (400) and wins; its whole-curve fit is not asked for.
+    const d = trial(seeds([2, 0], [2, 2], [2, 4], [2, 6]), 112);
+    const asked: FitTrial[] = [];
+    const own = { bic: 400 } as FitTrial;
+    const { chosen, wholeBic } = wholeCurveChoice([a1, b, c], (t) => (asked.push(t), { bic: wholeBics.get(t)! }) as FitTrial, () => true, 1, { cb: d, whole: own });
+    expect(chosen).toBe(d);
+    expect(asked).toEqual([a1]);
+    expect([...wholeBic.entries()]).toEqual([[a1, 900], [d, 400]]);
+    // Not acceptable: it does not decide, and the best of the others stands.
+    expect(wholeCurveChoice([a1, b, c], (t) => ({ bic: wholeBics.get(t)! }) as FitTrial, (w) => w !== own, 1, { cb: d, whole: own }).chosen).toBe(a1);
+    // Already among the groupings fitted: its whole-curve fit is asked for as theirs are, once.
+    const again: FitTrial[] = [];
+    wholeCurveChoice([a1, b], (t) => (again.push(t), { bic: wholeBics.get(t)! }) as FitTrial, () => true, 2, { cb: b, whole: own });
+    expect(again).toEqual([a1, b]);
+  });
 });
 
 describe("fitCurve(analysis, { compareModels: true }) on a low-η spectrum whose CB side is blind to p", () => {

@@ -120,6 +120,7 @@ describe("fitCurve(analysis)", () => {
       refinementIterations: 4,
       blindSidePeaks: 2,
       blindSideGroupings: 5,
+      blindSideAssigned: true,
     });
   });
 });
