@@ -6,8 +6,8 @@
 import { describe, it, expect } from "vitest";
 import { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "../../../lib/model/fit/droppedPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
-import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
-import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
+import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
+import { standInRun, standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 // s at 1.0 eV, p split 2+2+2 at 1.3, 1.5, 1.7 eV, Ec 0.12 eV, η 0.55 (closed form above).
 const eta = 0.55;
@@ -57,11 +57,7 @@ describe("droppedPeakWholeFits(context)", () => {
   const ladder = { name: "ladder-filling 2+6", kind: "ladder-filling", label: "ladder", analysis, seeds: [{ band: "CB", label: "s", degeneracy: 2, firstPeakV: s[0], before: 0 }, { band: "CB", label: "p", degeneracy: 6, firstPeakV: resonanceV, before: 2 }, ...vb], vbReadings: [vb], cbDegeneracies: [2, 6], states: 21, chargingEnergyStartEV: eta * (s[1] - s[0]), rateRatioStartLog10: 1 } as unknown as FitHypothesis;
   const context = (chiOf: (h: FitHypothesis) => number) => ({
     trials: [] as FitTrial[],
-    run: (h: FitHypothesis, _r: number | null, _iterations: number, from?: number[], set?: DataSet) => {
-      const chi = set ? 1.1 : chiOf(h);
-      return { hypothesis: h, bic: chi, side: set ? "CB" : "both", loop: { parameters: from ?? [...h.seeds.map(() => 1), ecEV, 1, -1.7], chiSquare: chi } } as unknown as FitTrial;
-    },
-    cbSide: { biasV: new Float64Array(0) } as unknown as DataSet,
+    ...standInRun(chiOf, ecEV),
     eta,
     ...standInWholeFields(),
     hypotheses: [ladder],

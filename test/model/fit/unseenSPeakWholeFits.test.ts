@@ -6,8 +6,8 @@
 import { describe, it, expect } from "vitest";
 import { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
-import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
-import { standInWholeFields } from "../../helpers/standInWholeFit.ts";
+import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
+import { standInRun, standInWholeFields } from "../../helpers/standInWholeFit.ts";
 
 // s at 0.9 eV, p (whole, 6) at 1.25 eV, Ec 0.15 eV, η 0.62 (closed form above).
 const eta = 0.62;
@@ -77,11 +77,7 @@ describe("unseenSPeakWholeFits(context)", () => {
   const ladder = { name: "ladder-filling 2+6", kind: "ladder-filling", label: "ladder", analysis, seeds: [{ band: "CB", label: "s", degeneracy: 2, firstPeakV: s[1], before: 0 }, { band: "CB", label: "p", degeneracy: 6, firstPeakV: p[0], before: 2 }, ...vb], vbReadings: [vb], cbDegeneracies: [2, 6], states: 21, chargingEnergyStartEV: eta * (p[0] - s[1]), rateRatioStartLog10: 1 } as unknown as FitHypothesis;
   const context = (chiOf: (h: FitHypothesis) => number) => ({
     trials: [] as FitTrial[],
-    run: (h: FitHypothesis, _r: number | null, _iterations: number, from?: number[], set?: DataSet) => {
-      const chi = set ? 1.1 : chiOf(h);
-      return { hypothesis: h, bic: chi, side: set ? "CB" : "both", loop: { parameters: from ?? [...h.seeds.map(() => 1), ecEV, 1, -1.7], chiSquare: chi } } as unknown as FitTrial;
-    },
-    cbSide: { biasV: new Float64Array(0) } as unknown as DataSet,
+    ...standInRun(chiOf, ecEV),
     eta,
     ...standInWholeFields(),
     hypotheses: [ladder],
