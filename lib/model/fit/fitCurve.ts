@@ -534,6 +534,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     chargingEnergyEV: params[at.chargingEnergy],
     chargingEnergySE: se[at.chargingEnergy],
     logRateRatioSE: se[at.logRateRatio],
+    rateRatio: ratio,
     atBound: [...plausibilityInput(best).atBound],
     residualStructure: structure,
     peakChargingEnergy: peakEc,

@@ -5,6 +5,7 @@
 import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import type { ResidualStructure } from "./residualStructure.ts";
 import type { RateRatioLimit } from "./rateRatioLimit.ts";
+import { REGIME_LIMITS } from "../regimeLimits.ts";
 
 /** "good", "poor" or "failed" (no fit). */
 export type FitStatus = "good" | "poor" | "failed";
@@ -28,6 +29,15 @@ export const FIT_STATUS_DEFAULTS = Object.freeze({
   failedRelativeError: 1,
   /** Error of log₁₀ Γtip/Γsub above which the rate ratio is poorly determined (a factor 2). */
   poorLogRatioError: 0.3,
+  /**
+   * Standard errors of log₁₀ Γtip/Γsub on each side of the fitted value that must lie inside shell
+   * filling (≥ REGIME_LIMITS.fillingRateRatioMin) or shell tunnelling (≤ tunnelingRateRatioMax)
+   * for the ratio's error not to count against the fit (note 4): deep in a regime the steps barely
+   * change with the ratio (the first two CB steps' ratio r/(1 + r) is within the noise of 1 or of
+   * r), so the ratio is poorly determined by nature while the regime, Ec and the levels do not
+   * depend on it. The same 2 σ as the regime's own reading (FIT_DEFAULTS.regimeSigmas).
+   */
+  deepRatioSigmas: 2,
   /**
    * Largest |Σ r|/√w of the residuals over a peak's width ({@link residualStructure}) above which
    * they show structure the model does not explain: the fit is poor whatever its reduced χ².
@@ -75,6 +85,12 @@ export interface FitStatusInput {
    * Γtip/Γsub then do not count against the fit: deep in a regime the limit is the measurement.
    */
   rateRatioLimit?: RateRatioLimit | null;
+  /**
+   * Γtip/Γsub as fitted (its error is `logRateRatioSE`); absent: its error always counts. Where its
+   * deepRatioSigmas range lies inside the fitted regime, shell filling or shell tunnelling, its
+   * error does not count against the fit (note 4).
+   */
+  rateRatio?: number;
 }
 
 /**
@@ -107,6 +123,10 @@ export interface FitStatusInput {
  *    from the benchmark of simulated curves (see its doc comment), the residual limit from the
  *    normal tail (closed form), the others common practice (no source) for χ²-based acceptance
  *    with a model known to be approximate.
+ * 4. The rate ratio's error does not make the fit poor where the fitted regime is shell filling
+ *    or shell tunnelling and log₁₀ Γtip/Γsub ± deepRatioSigmas standard errors lies wholly inside
+ *    it: deep in a regime the ratio is poorly determined by nature, and the good reason says so
+ *    with the range.
  *
  * Example
  * -------
@@ -129,8 +149,12 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
   }
   // On a bound, with a one-sided limit inside one regime, the limit is the measurement: the ratio's error does not count.
   const limit = input.rateRatioLimit ?? null;
+  // Deep inside shell filling or shell tunnelling by deepRatioSigmas errors: the ratio's error does not count (note 4).
+  const r = input.rateRatio;
+  const [lowRatio, highRatio] = r === undefined ? [NaN, NaN] : [r / 10 ** (D.deepRatioSigmas * input.logRateRatioSE), r * 10 ** (D.deepRatioSigmas * input.logRateRatioSE)];
+  const deep = (input.regime === "shell-filling" && lowRatio >= REGIME_LIMITS.fillingRateRatioMin) || (input.regime === "shell-tunneling" && highRatio <= REGIME_LIMITS.tunnelingRateRatioMax);
   if (!limit && !Number.isFinite(input.logRateRatioSE)) failed.push("Γtip/Γsub is not determined");
-  else if (!limit && input.logRateRatioSE > D.poorLogRatioError) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
+  else if (!limit && input.logRateRatioSE > D.poorLogRatioError && !deep) poor.push(`Γtip/Γsub is uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)}`);
   const structure = input.residualStructure;
   if (structure && structure.largestZ > D.poorResidualZ) {
     poor.push(
@@ -152,7 +176,8 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
   if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
   if (poor.length) return { status: "poor", reasons: poor };
   const clean = structure ? `, no structure in the residuals (largest run ${structure.largestZ.toFixed(1)} σ ≤ ${D.poorResidualZ})` : "";
-  const ratioWords = limit ? `Ec determined, Γtip/Γsub ${limit.kind === "lower" ? "≥" : "≤"} ${limit.rateRatio.toPrecision(3)} (a one-sided limit: it ran onto a bound of the fit)` : "Ec and Γtip/Γsub determined";
+  const deepWords = deep && input.logRateRatioSE > D.poorLogRatioError ? `Ec determined, Γtip/Γsub uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)} but its ${D.deepRatioSigmas}σ range ${lowRatio.toPrecision(2)}–${highRatio.toPrecision(2)} lies inside ${input.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} (deep in a regime the ratio is not measured)` : null;
+  const ratioWords = limit ? `Ec determined, Γtip/Γsub ${limit.kind === "lower" ? "≥" : "≤"} ${limit.rateRatio.toPrecision(3)} (a one-sided limit: it ran onto a bound of the fit)` : (deepWords ?? "Ec and Γtip/Γsub determined");
   return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, ${ratioWords}${clean}`] };
 }
 
