@@ -10,7 +10,7 @@ const ok = { reducedChiSquare: 1.2, regime: "shell-filling" as const, chargingEn
 
 describe("fitStatus(input)", () => {
   it("FIT_STATUS_DEFAULTS are locked", () => {
-    expect(FIT_STATUS_DEFAULTS).toEqual({ poorChiSquare: 3, failedChiSquare: 100, poorRelativeError: 0.25, failedRelativeError: 1, poorLogRatioError: 0.3, poorResidualZ: 5, poorChargingSigmas: 5 });
+    expect(FIT_STATUS_DEFAULTS).toEqual({ poorChiSquare: 3, failedChiSquare: 100, poorRelativeError: 0.25, failedRelativeError: 1, poorLogRatioError: 0.3, deepRatioSigmas: 2, poorResidualZ: 5, poorChargingSigmas: 5 });
     expect(Object.isFrozen(FIT_STATUS_DEFAULTS)).toBe(true);
   });
   it("good when χ² is small and Ec and the rate ratio are determined", () => {
@@ -24,6 +24,20 @@ describe("fitStatus(input)", () => {
     expect(fitStatus({ ...ok, reducedChiSquare: 47 }).status).toBe("poor");
     expect(fitStatus({ ...ok, chargingEnergySE: 0.03 }).status).toBe("poor");
     expect(fitStatus({ ...ok, logRateRatioSE: 0.5 }).status).toBe("poor");
+  });
+  it("lets a rate ratio uncertain by more than a factor 2 pass where its 2σ range lies inside shell filling or shell tunnelling", () => {
+    // Closed form of the range: r ÷ 10^(2σ) … r × 10^(2σ). Regime limits 1.5 and 3/7 (REGIME_LIMITS,
+    // read from the step ratio r/(1 + r)).
+    // r = 36, σ(log₁₀ r) = 0.61 (×4.1): 36 / 10^1.22 = 2.17 ≥ 1.5, deep in shell filling.
+    const deep = fitStatus({ ...ok, rateRatio: 36, logRateRatioSE: 0.61 });
+    expect(deep.status).toBe("good");
+    expect(deep.reasons.join(" ")).toMatch(/factor 4\.1 but its 2σ range 2\.2–6\.0e\+2 lies inside shell filling/);
+    // r = 10 with the same error: 10 / 16.6 = 0.60 < 1.5, the range reaches intermediate: poor.
+    expect(fitStatus({ ...ok, rateRatio: 10, logRateRatioSE: 0.61 }).status).toBe("poor");
+    // r = 0.01, σ 0.5 (×3.2): 0.01 × 10 = 0.1 ≤ 3/7, deep in shell tunnelling.
+    expect(fitStatus({ ...ok, regime: "shell-tunneling", rateRatio: 0.01, logRateRatioSE: 0.5 }).status).toBe("good");
+    // Intermediate needs the ratio itself: its error always counts.
+    expect(fitStatus({ ...ok, regime: "intermediate", rateRatio: 1, logRateRatioSE: 0.5 }).status).toBe("poor");
   });
   it("failed for the collapse seen in the crossover: χ²_red 1326 and Ec 115 ± 134 meV", () => {
     const r = fitStatus({ ...ok, reducedChiSquare: 1326, chargingEnergyEV: 0.115, chargingEnergySE: 0.134 });
