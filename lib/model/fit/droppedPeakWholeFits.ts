@@ -4,10 +4,9 @@
  * set by the charge state it is crossed in (not only the mirror η·|V|/(1 − η) of its first peak),
  * and one the rules did not label is counted in p.
  */
-import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
-import { seedKey, type LevelSeed } from "./levelsToFit.ts";
-import { peakStartWholeFits, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
+import { distinctReadings, type LevelSeed } from "./levelsToFit.ts";
+import { ladderHypotheses, peakStartWholeFits, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
 import { inFillingOrder, shellValenceReading } from "./shellValenceReading.ts";
 
 /** Defaults of {@link droppedPeakWholeFits} (locked by test/model/fit/droppedPeakWholeFits.test.ts). */
@@ -136,33 +135,23 @@ export function droppedPeakWholeFits(context: PeakStartWholeContext, settings = 
   if (charging.length < 4 || ecEV === null || !(ecEV > 0)) return null;
   const bias = base.analysis.conductance.biasV;
   const topV = Math.max(bias[0], bias[bias.length - 1]);
-  const compared = new Set(context.hypotheses.map((h) => seedKey(h.seeds.filter((s) => s.band === "CB"))));
   // The VB peaks read as a doublet and a level of four in filling order first (note 3), then the ladders' readings.
   const vbPeaksV = base.analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
-  const vbReadings: LevelSeed[][] = [];
-  const seenVb = new Set<string>();
-  for (const r of [inFillingOrder(shellValenceReading(vbPeaksV, ecEV / context.eta)), ...ladders.flatMap((h) => h.vbReadings)]) if (r.length && !seenVb.has(seedKey(r))) (seenVb.add(seedKey(r)), vbReadings.push(r));
-  const hypotheses: FitHypothesis[] = [];
+  const vbReadings = distinctReadings([inFillingOrder(shellValenceReading(vbPeaksV, ecEV / context.eta)), ...ladders.flatMap((h) => h.vbReadings)].filter((r) => r.length));
   // s's second peak last: a reading reached both ways is named by the peak after s.
   const dropped: number[] = [];
   for (let k = 2; k <= settings.maxDropped && k < charging.length; k++) dropped.push(k);
   dropped.push(1);
-  for (const k of dropped) {
-    const kept = charging.filter((_, i) => i !== k);
-    for (const p of settings.pLayouts) {
-      const cb = fillingOrderReading(kept, [2, ...p], topV);
-      if (cb.length < 2 || compared.has(seedKey(cb))) continue;
-      compared.add(seedKey(cb));
-      hypotheses.push({
-        ...base,
+  const readings = dropped.flatMap((k) =>
+    settings.pLayouts.map((p) => {
+      const cb = fillingOrderReading(charging.filter((_, i) => i !== k), [2, ...p], topV);
+      return {
+        cb,
         name: `ladder-filling ${cb.map((s) => s.degeneracy).join("+")} (${charging[k].toFixed(3)} V a resonance)`,
         label: `charging ladder in filling order with the CB peak at ${charging[k].toFixed(3)} V read as a VB level's resonance`,
-        seeds: [...cb, ...(vbReadings[0] ?? [])],
-        vbReadings: vbReadings.length ? vbReadings : [[]],
-        cbDegeneracies: cb.map((s) => s.degeneracy),
-        chargingEnergyStartEV: ecEV,
-      });
-    }
-  }
+      };
+    }),
+  );
+  const hypotheses = ladderHypotheses(base, context.hypotheses, readings, vbReadings, ecEV);
   return hypotheses.length ? peakStartWholeFits({ ...context, hypotheses }) : null;
 }

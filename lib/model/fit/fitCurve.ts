@@ -433,8 +433,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // The stages in order, each run only where every earlier one found nothing; the first found wins.
   const wholeStages = [
     ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
-    ...(poorWhole ? [() => laterEntryWholeFits(wholeContext), () => unseenSPeakWholeFits(wholeContext)] : []),
-    ...(poorWhole ? [() => (budgetSpent() <= DROPPED_PEAK_DEFAULTS.maxBudgetSpent ? droppedPeakWholeFits(wholeContext) : null)] : []),
+    ...(poorWhole ? [() => laterEntryWholeFits(wholeContext), () => unseenSPeakWholeFits(wholeContext), () => (budgetSpent() <= DROPPED_PEAK_DEFAULTS.maxBudgetSpent ? droppedPeakWholeFits(wholeContext) : null)] : []),
   ];
   let found: { cb: FitTrial; whole: FitTrial } | null = null;
   for (const stage of wholeStages) if ((found = stage())) break;

@@ -25,6 +25,23 @@ export function seedKey(seeds: readonly LevelSeed[]): string {
 }
 
 /**
+ * The readings without repeats (the same {@link seedKey}), each kept where it first comes.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const v = { band: "VB" as const, label: "v1", degeneracy: 2, firstPeakV: -1.4, before: 0 };
+ * distinctReadings([[v], [], [v]]).length; // => 2
+ * ```
+ */
+export function distinctReadings(readings: Iterable<LevelSeed[]>): LevelSeed[][] {
+  const seen = new Set<string>();
+  const out: LevelSeed[][] = [];
+  for (const r of readings) if (!seen.has(seedKey(r))) (seen.add(seedKey(r)), out.push(r));
+  return out;
+}
+
+/**
  * Levels to fit, from the assignment: one per multiplet sub-group (shell filling) or one per
  * peak (shell tunnelling and undetermined).
  *

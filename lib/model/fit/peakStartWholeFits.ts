@@ -8,6 +8,7 @@
  */
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
+import { seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { finishBest, type WholeCurveSplitContext } from "./wholeCurveSplits.ts";
 import { stateCount } from "../scenario.ts";
 import { recentredSeeds } from "./wholeCurveRestarts.ts";
@@ -104,4 +105,61 @@ export function peakStartWholeFits(context: PeakStartWholeContext, settings = PE
     if (context.acceptable(w, cb)) return { cb, whole: w };
   }
   return null;
+}
+
+/** A CB reading offered to {@link ladderHypotheses}, with the hypothesis' name and label. */
+export interface LadderReading {
+  cb: LevelSeed[];
+  name: string;
+  label: string;
+}
+
+/**
+ * Filling-order ladder hypotheses for {@link peakStartWholeFits} from CB readings of the peaks:
+ * each reading of two or more levels whose CB grouping is not among `compared` (nor an earlier
+ * reading) becomes `base` with those CB levels, the VB readings (the first one held in its seeds)
+ * and the Ec start.
+ *
+ * Parameters
+ * ----------
+ * base : FitHypothesis
+ *     The ladder the readings vary (its analysis, rate-ratio start, held VB levels).
+ * compared : readonly FitHypothesis[]
+ *     The groupings already compared: a reading of the same CB levels is left out.
+ * readings : Iterable<LadderReading>
+ *     The CB readings, in the order they are to be fitted.
+ * vbReadings : LevelSeed[][]
+ *     The VB readings tried with each (none: the CB levels alone).
+ * chargingEnergyStartEV : number
+ *     Ec start, eV.
+ *
+ * Returns
+ * -------
+ * FitHypothesis[]
+ *     One per new reading, in order.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const hypotheses = ladderHypotheses(ladders[0], context.hypotheses, readings, vbReadings, ecEV);
+ * const found = hypotheses.length ? peakStartWholeFits({ ...context, hypotheses }) : null;
+ * ```
+ */
+export function ladderHypotheses(base: FitHypothesis, compared: readonly FitHypothesis[], readings: Iterable<LadderReading>, vbReadings: LevelSeed[][], chargingEnergyStartEV: number): FitHypothesis[] {
+  const seen = new Set(compared.map((h) => seedKey(h.seeds.filter((s) => s.band === "CB"))));
+  const out: FitHypothesis[] = [];
+  for (const { cb, name, label } of readings) {
+    if (cb.length < 2 || seen.has(seedKey(cb))) continue;
+    seen.add(seedKey(cb));
+    out.push({
+      ...base,
+      name,
+      label,
+      seeds: [...cb, ...(vbReadings[0] ?? [])],
+      vbReadings: vbReadings.length ? vbReadings : [[]],
+      cbDegeneracies: cb.map((s) => s.degeneracy),
+      chargingEnergyStartEV,
+    });
+  }
+  return out;
 }

@@ -3,11 +3,10 @@
  * noise-split dI/dV peak at the CB edge may be missing from the peak list, and every ladder then
  * starts s (and each level after it) one charging peak off.
  */
-import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
-import { seedKey, type LevelSeed } from "./levelsToFit.ts";
+import { distinctReadings, type LevelSeed } from "./levelsToFit.ts";
 import { laterFourEntryReadings } from "./laterEntryWholeFits.ts";
-import { peakStartWholeFits, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
+import { ladderHypotheses, peakStartWholeFits, type LadderReading, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
 import { valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 
 /** Defaults of {@link unseenSPeakWholeFits} (locked by test/model/fit/unseenSPeakWholeFits.test.ts). */
@@ -179,31 +178,23 @@ export function unseenSPeakWholeFits(context: UnseenSPeakContext, settings = UNS
   const cbPeaksV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && !resonant.has(i) && !stepless.has(x.biasV)).map((x) => x.biasV);
   const resonancesV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && resonant.has(i)).map((x) => x.biasV);
   const mainVbV = context.vbPeaksV.filter((v) => !stepless.has(v));
-  const compared = new Set(context.hypotheses.map((h) => seedKey(h.seeds.filter((s) => s.band === "CB"))));
-  const vbReadings: LevelSeed[][] = [];
-  const seenVb = new Set<string>();
   const later = laterFourEntryReadings(context.vbPeaksV, 2 + settings.laterVbEntries);
-  for (const r of [...ladders.flatMap((h) => h.vbReadings), ...later]) if (!seenVb.has(seedKey(r))) (seenVb.add(seedKey(r)), vbReadings.push(r));
+  const vbReadings = distinctReadings([...ladders.flatMap((h) => h.vbReadings), ...later]);
   const ecEV = valenceSpacingEcEV(mainVbV, context.eta) ?? base.chargingEnergyStartEV;
   if (ecEV === null || !(ecEV > 0)) return null;
-  const hypotheses: FitHypothesis[] = [];
+  const readings: LadderReading[] = [];
   for (const p of settings.pLayouts) {
     const layout = [2, ...p];
     for (let k = 0; k < Math.max(1, settings.resonanceEntries); k++)
       unseenSPeakReadings(cbPeaksV, layout, ecEV / context.eta, resonancesV, k).forEach((cb, i) => {
-        if (cb.length < 2 || compared.has(seedKey(cb))) return;
-        compared.add(seedKey(cb));
         const atResonance = cb.some((s) => resonancesV.includes(s.firstPeakV));
-        hypotheses.push({
-          ...base,
+        readings.push({
+          cb,
           name: `ladder-filling ${cb.map((s) => s.degeneracy).join("+")} (s ${i === 0 ? "first" : "second"} peak unseen${atResonance ? ", a level entered at a resonance" : ""})`,
           label: `charging ladder in filling order with s's ${i === 0 ? "first" : "second"} charging peak unseen`,
-          seeds: [...cb, ...(vbReadings[0] ?? [])],
-          vbReadings: vbReadings.length ? vbReadings : [[]],
-          cbDegeneracies: cb.map((s) => s.degeneracy),
-          chargingEnergyStartEV: ecEV,
         });
       });
   }
+  const hypotheses = ladderHypotheses(base, context.hypotheses, readings, vbReadings, ecEV);
   return hypotheses.length ? peakStartWholeFits({ ...context, hypotheses }) : null;
 }

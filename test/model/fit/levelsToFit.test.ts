@@ -4,7 +4,7 @@
 // spinPairShares: spin pairs shared by largest remainder (closed form: U·s_j/Σs with U = g/2).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
-import { levelsToFit, spinPairShares } from "../../../lib/model/fit/levelsToFit.ts";
+import { distinctReadings, levelsToFit, spinPairShares } from "../../../lib/model/fit/levelsToFit.ts";
 import { startingValues } from "../../../lib/model/fit/startingValues.ts";
 import { analysis, eta } from "../../helpers/fitDemo.ts";
 
@@ -50,5 +50,15 @@ describe("spinPairShares(degeneracy, steps)", () => {
   it("gives null for an odd degeneracy or more peaks than pairs", () => {
     expect(spinPairShares(6, [1, 1, 1, 1])).toBeNull();
     expect(spinPairShares(3, [1])).toBeNull();
+  });
+});
+
+describe("distinctReadings(readings)", () => {
+  // By the definition: readings with the same seedKey (band, degeneracy, first peak to 10 µV, carriers before) are one.
+  const v = (firstPeakV: number, before = 0) => ({ band: "VB" as const, label: "v1", degeneracy: 2, firstPeakV, before });
+  it("keeps each reading where it first comes", () => {
+    const a = [v(-1.4)];
+    const b = [v(-1.4, 1)];
+    expect(distinctReadings([a, [], [v(-1.400001)], b, []])).toEqual([a, [], b]);
   });
 });

@@ -4,7 +4,7 @@
 // sit where their first peaks give the whole curve's energies (closed form: first peak
 // (|ε| + Ec·(N + ½))/η).
 import { describe, it, expect } from "vitest";
-import { peakStartWholeFits, PEAK_START_WHOLE_DEFAULTS } from "../../../lib/model/fit/peakStartWholeFits.ts";
+import { ladderHypotheses, peakStartWholeFits, PEAK_START_WHOLE_DEFAULTS } from "../../../lib/model/fit/peakStartWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import type { DataSet, FitTrial } from "../../../lib/model/fit/fitTrial.ts";
 import type { LevelSeed } from "../../../lib/model/fit/levelsToFit.ts";
@@ -103,5 +103,25 @@ describe("peakStartWholeFits(context)", () => {
   it("returns null when no finished run describes the curve", () => {
     const { context: ctx } = context([whole, split], () => 12);
     expect(peakStartWholeFits(ctx)).toBeNull();
+  });
+});
+
+describe("ladderHypotheses(base, compared, readings, vbReadings, ecEV)", () => {
+  // By the definition: a reading is new when its CB levels (seedKey) are neither compared nor read
+  // before, and a ladder needs two levels at least.
+  const base = hypothesis("ladder-filling 2+6", cb([2, 6]), [vbShell]);
+  const reading = (degeneracies: number[], name: string) => ({ cb: cb(degeneracies), name, label: name });
+  it("keeps each new reading of two or more levels once, in order, with the first VB reading held", () => {
+    const out = ladderHypotheses(base, [base], [reading([2, 6], "same as compared"), reading([2], "s alone"), reading([2, 2, 4], "split"), reading([2, 2, 4], "split again")], [vbShell, vbSingles], 0.08);
+    expect(out.map((h) => h.name)).toEqual(["split"]);
+    expect(out[0].seeds).toEqual([...cb([2, 2, 4]), ...vbShell]);
+    expect(out[0].vbReadings).toEqual([vbShell, vbSingles]);
+    expect(out[0].cbDegeneracies).toEqual([2, 2, 4]);
+    expect(out[0].chargingEnergyStartEV).toBe(0.08);
+  });
+  it("holds no VB level where there is no VB reading", () => {
+    const [h] = ladderHypotheses(base, [], [reading([2, 6], "ladder")], [], 0.08);
+    expect(h.seeds).toEqual(cb([2, 6]));
+    expect(h.vbReadings).toEqual([[]]);
   });
 });
