@@ -5,6 +5,7 @@
  */
 import type { Peak } from "../peaks/findPeaks.ts";
 import { checkRange } from "../util/check.ts";
+import { medianInPlace } from "../util/medianInPlace.ts";
 import type { Assignment } from "./assignSpectrum.ts";
 import { subgroupSpans, type Multiplet } from "./multiplets.ts";
 
@@ -67,13 +68,6 @@ function keptUnderResonanceV(reasons: readonly string[]): number[] {
     if (m) out.push(Number(m[1]));
   }
   return out;
-}
-
-/** The median of a non-empty list. */
-function median(values: readonly number[]): number {
-  const s = [...values].sort((a, b) => a - b);
-  const n = s.length;
-  return n % 2 ? s[n >> 1] : (s[n / 2 - 1] + s[n / 2]) / 2;
 }
 
 /**
@@ -158,7 +152,7 @@ export function hiddenLadderReasons(
           const gaps: number[] = [];
           for (let k = start + 1; k < end; k++) if (k !== j && k !== j + 1) gaps.push(m.peaksV[k] - m.peaksV[k - 1]);
           if (gaps.length === 0) continue;
-          const spacingV = median(gaps);
+          const spacingV = medianInPlace(Float64Array.from(gaps));
           const expectedV = j + 1 < end ? m.peaksV[j + 1] - spacingV : m.peaksV[j - 1] + spacingV;
           const off = Math.abs(v - expectedV) / Math.abs(spacingV);
           if (!(off > pulled)) continue;
