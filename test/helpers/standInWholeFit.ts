@@ -20,16 +20,21 @@ export function standInWholeFields() {
 }
 
 /**
- * A stand-in `run` and CB side for the stages that only pick among readings: every CB-side run
- * reaches reduced χ² 1.1, a whole-curve run the χ² that `chiOf` gives its hypothesis; parameters
- * are the start given, else 1 per level, Ec `ecEV`, log₁₀ r 1 and log₁₀ σ −1.7.
+ * The stand-in context of the stages that only pick among readings of the peaks (unseen s peak,
+ * dropped peak): every CB-side run reaches reduced χ² 1.1, a whole-curve run the χ² that `chiOf`
+ * gives its hypothesis; parameters are the start given, else 1 per level, Ec `ecEV`, log₁₀ r 1 and
+ * log₁₀ σ −1.7; no runs before; the fixed fields of {@link standInWholeFields}.
  */
-export function standInRun(chiOf: (h: FitHypothesis) => number, ecEV: number) {
+export function standInPickingContext(chiOf: (h: FitHypothesis) => number, ecEV: number, eta: number, hypotheses: FitHypothesis[]) {
   return {
+    trials: [] as FitTrial[],
     run: (h: FitHypothesis, _r: number | null, _iterations: number, from?: number[], set?: DataSet) => {
       const chi = set ? 1.1 : chiOf(h);
       return { hypothesis: h, bic: chi, side: set ? "CB" : "both", loop: { parameters: from ?? [...h.seeds.map(() => 1), ecEV, 1, -1.7], chiSquare: chi } } as unknown as FitTrial;
     },
     cbSide: { biasV: new Float64Array(0) } as unknown as DataSet,
+    eta,
+    ...standInWholeFields(),
+    hypotheses,
   };
 }

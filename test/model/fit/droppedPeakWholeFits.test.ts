@@ -6,8 +6,7 @@
 import { describe, it, expect } from "vitest";
 import { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "../../../lib/model/fit/droppedPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
-import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
-import { standInRun, standInWholeFields } from "../../helpers/standInWholeFit.ts";
+import { standInPickingContext } from "../../helpers/standInWholeFit.ts";
 
 // s at 1.0 eV, p split 2+2+2 at 1.3, 1.5, 1.7 eV, Ec 0.12 eV, η 0.55 (closed form above).
 const eta = 0.55;
@@ -55,13 +54,7 @@ describe("droppedPeakWholeFits(context)", () => {
   };
   const vb = [{ band: "VB", label: "v1", degeneracy: 1, firstPeakV: -1.9, before: 0 }];
   const ladder = { name: "ladder-filling 2+6", kind: "ladder-filling", label: "ladder", analysis, seeds: [{ band: "CB", label: "s", degeneracy: 2, firstPeakV: s[0], before: 0 }, { band: "CB", label: "p", degeneracy: 6, firstPeakV: resonanceV, before: 2 }, ...vb], vbReadings: [vb], cbDegeneracies: [2, 6], states: 21, chargingEnergyStartEV: eta * (s[1] - s[0]), rateRatioStartLog10: 1 } as unknown as FitHypothesis;
-  const context = (chiOf: (h: FitHypothesis) => number) => ({
-    trials: [] as FitTrial[],
-    ...standInRun(chiOf, ecEV),
-    eta,
-    ...standInWholeFields(),
-    hypotheses: [ladder],
-  });
+  const context = (chiOf: (h: FitHypothesis) => number) => standInPickingContext(chiOf, ecEV, eta, [ladder]);
 
   it("takes the 2+2+2 reading without the resonance, the last sub-level placed past the peaks, where it alone describes the curve", () => {
     const right = (h: FitHypothesis) => h.seeds.filter((x) => x.band === "CB").map((x) => x.firstPeakV.toFixed(6)).join() === [s[0], p1[0], p2[0], p3[0]].map((v) => v.toFixed(6)).join();

@@ -6,8 +6,7 @@
 import { describe, it, expect } from "vitest";
 import { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
-import type { FitTrial } from "../../../lib/model/fit/fitTrial.ts";
-import { standInRun, standInWholeFields } from "../../helpers/standInWholeFit.ts";
+import { standInPickingContext } from "../../helpers/standInWholeFit.ts";
 
 // s at 0.9 eV, p (whole, 6) at 1.25 eV, Ec 0.15 eV, η 0.62 (closed form above).
 const eta = 0.62;
@@ -76,11 +75,7 @@ describe("unseenSPeakWholeFits(context)", () => {
   const vb = [{ band: "VB", label: "v1", degeneracy: 2, firstPeakV: -1.4, before: 0 }];
   const ladder = { name: "ladder-filling 2+6", kind: "ladder-filling", label: "ladder", analysis, seeds: [{ band: "CB", label: "s", degeneracy: 2, firstPeakV: s[1], before: 0 }, { band: "CB", label: "p", degeneracy: 6, firstPeakV: p[0], before: 2 }, ...vb], vbReadings: [vb], cbDegeneracies: [2, 6], states: 21, chargingEnergyStartEV: eta * (p[0] - s[1]), rateRatioStartLog10: 1 } as unknown as FitHypothesis;
   const context = (chiOf: (h: FitHypothesis) => number) => ({
-    trials: [] as FitTrial[],
-    ...standInRun(chiOf, ecEV),
-    eta,
-    ...standInWholeFields(),
-    hypotheses: [ladder],
+    ...standInPickingContext(chiOf, ecEV, eta, [ladder]),
     // A VB doublet one Ec/η apart starts Ec.
     vbPeaksV: [-1.4, -1.4 - ecV],
   });
