@@ -10,6 +10,7 @@
  *   npm run bench:accuracy -- --mix low-eta          # η 0.55–0.65 (the default mix otherwise)
  *   npm run bench:accuracy -- --mix crossover --n 100 --method fast --compare-models
  *   npm run bench:accuracy -- --mix crossover --method fast --count-only   # which spectra it would fit
+ *   npm run bench:accuracy -- --mix low-eta --method fast --compare-all   # fit every spectrum, as `analyze --compare-models all`
  *   npm run bench:accuracy -- --mix crossover --method fast --compare-models --ec-check   # each fit's Ec against the rules' in σ
  *   npm run bench:accuracy -- --mix low-eta --method fast --compare-models --verbose --only 15,99   # only these draws (seeds), to follow a change on a few
  *
@@ -67,7 +68,9 @@ const arg = (name: string, fallback: string) => {
 const perRegime = Number(arg("n", "200"));
 const method = arg("method", "exact") as "exact" | "fast";
 const verbose = args.includes("--verbose");
-const compareModels = args.includes("--compare-models") || args.includes("--count-only");
+// With --compare-all: every spectrum with levels is fitted, as `dotspec analyze --compare-models all` does (implies --compare-models).
+const compareAll = args.includes("--compare-all");
+const compareModels = args.includes("--compare-models") || args.includes("--count-only") || compareAll;
 // With --ec-check: for every comparison fit where the rules read shell filling and the fit a charging ladder, the fit's Ec from the peak-based one in combined σ, its CB layout, status and outcome.
 const ecCheck = args.includes("--ec-check");
 // With --count-only: which spectra --compare-models would fit and why (the rules' answers, no fit).
@@ -178,7 +181,7 @@ function compareWithModel(a: CurveAnalysis, t: SyntheticTruth, rulesPass: boolea
   if (json.noLevels !== null) return null;
   const bias = a.conductance.biasV;
   const verdict = rulesDecisive({ peaks: a.peaks, assignment: a.assignment, biasRangeV: [bias[0], bias[bias.length - 1]] });
-  if (verdict.decisive) return null;
+  if (verdict.decisive && !compareAll) return null;
   // Each rule once per spectrum, by its code (a rule can give several reasons on one spectrum).
   for (const code of new Set(verdict.codes)) reasonTally.set(code, (reasonTally.get(code) ?? 0) + 1);
   const tally = comparisonTally.get(t.regime) ?? { fitted: 0, undecided: 0, pass: 0, fail: 0, undetermined: 0, decides: 0, fixed: 0, broke: 0 };
@@ -195,7 +198,7 @@ function compareWithModel(a: CurveAnalysis, t: SyntheticTruth, rulesPass: boolea
   let result: Comparison;
   try {
     const fit = fitCurve(a, { compareModels: true });
-    const m = modelComparisonJson(fitToJson(fit, json), "undecided", { ranBecause: verdict.reasons, rules: { regime: json.regime, chargingEnergyEV: a.assignment.energies.chargingEnergyEV } });
+    const m = modelComparisonJson(fitToJson(fit, json), compareAll ? "all" : "undecided", { ranBecause: verdict.reasons, rules: { regime: json.regime, chargingEnergyEV: a.assignment.energies.chargingEnergyEV } });
     const sc = scoreFit(m, t);
     result = { ...sc, decides: m.decides === true, detail: `${sc.detail}; ${m.decision}`, reasons: verdict.reasons };
     if (ecCheck) {

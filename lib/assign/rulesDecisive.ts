@@ -15,13 +15,14 @@ import { setAsidePeakReasons } from "./setAsidePeaks.ts";
 import { impossibleLayoutReasons } from "./impossibleLayout.ts";
 import { mergedStepReasons } from "./mergedSteps.ts";
 import { hiddenLadderReasons } from "./hiddenLadders.ts";
+import { resonantWindowReasons } from "./resonantWindow.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
   /** The peaks the assignment names by index (`biasV`, `biasUncertaintyV`, `fwhmV` in V; `stepA` in A). */
   peaks: readonly Pick<Peak, "biasV" | "biasUncertaintyV" | "fwhmV" | "stepA">[];
   /** The rules' assignment of those peaks. */
-  assignment: Pick<Assignment, "regime" | "evidence" | "multiplets" | "quantities" | "uncertainties" | "noLevels">;
+  assignment: Pick<Assignment, "regime" | "evidence" | "multiplets" | "quantities" | "uncertainties" | "noLevels" | "energies">;
   /** The bias window of the curve, [lowest, highest], V. */
   biasRangeV: readonly [number, number];
 }
@@ -131,7 +132,8 @@ export type RulesDecisiveCode =
   | "subgroup-fall"
   | "edge-peak-set-aside"
   | "pulled-charging-peak"
-  | "vb-charging-pairs";
+  | "vb-charging-pairs"
+  | "resonant-window";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -339,6 +341,10 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * 25–26. A charging ladder bent or hidden, `hiddenLadderReasons` (hiddenLadders.ts, its defaults
  *    `HIDDEN_LADDER_DEFAULTS`, its notes give the figures). 25: a CB charging peak kept under a
  *    resonance, off its sub-group's ladder; 26: shell tunnelling with VB levels in charging pairs.
+ * 27. Shell filling read among second-junction resonances, `resonantWindowReasons`
+ *    (resonantWindow.ts): η given and below 1, and a peak set aside as a resonance or a multiplet
+ *    peak's resonance −η·V/(1 − η) inside the window. The rules' grouping of a charging ladder
+ *    there rests on which peaks they set aside; the model holds the resonances.
  *
  * References
  * ----------
@@ -574,6 +580,8 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
   for (const r of mergedStepReasons(peaks, a)) add(r.code, r.text);
   // 25–26. A charging ladder bent by a resonance, or read as single levels.
   for (const r of hiddenLadderReasons(peaks, a)) add(r.code, r.text);
+  // 27. Shell filling read among second-junction resonances.
+  for (const r of resonantWindowReasons(peaks, a, input.biasRangeV)) add(r.code, r.text);
   return { decisive: reasons.length === 0, reasons, codes };
 }
 
