@@ -128,7 +128,8 @@ export interface FitOptions {
  *    or when the fit's work budget (maxEvaluations model evaluations over all runs, or
  *    FIT_DEFAULTS.maxEliminationSteps master-equation elimination steps, {@link ladderSolveWork},
  *    whichever comes first) or the opt-in timeLimitMs is spent (then later runs keep their starts, `work.stoppedBy` says which, a
- *    warning says so and the status is at best poor).
+ *    warning says so and the status is at best poor). A late whole-curve stage's run (note 5) stopped by the
+ *    budget is not the fit's stop: that stage only searched for a better fit than the one found.
  * 4. Standard errors ({@link standardErrors}) from the Jacobian of all parameters at the optimum:
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
  *    reduced χ² when the model does not reach the noise); a parameter that does not move the
@@ -429,10 +430,12 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const split = { trials, run, cbSide, eta, exploreIterations: explore, maxIterations, reduced, describes, acceptable: (w: FitTrial, cb: FitTrial) => plausibilityOf(cb).length === 0 && wholePlausibility(w, cb).length === 0 };
   const adoptSplit = (f: { cb: FitTrial; whole: FitTrial }) => (finalists.push(f.cb), plausible.push(f.cb), cbSideOf.set(f.whole, f.cb), wholeOf.set(f.cb, f.whole), [f.cb, f.whole] as const);
   const poorWhole = !!whole && !!wholeFitOf && eta < 1 && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare;
-  const wholeContext = { ...split, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned), vbPeaksV: analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV) };
+  // The stages search for a better fit than the one found: one that finds none before the budget is spent has not cut the fit short ({@link fitRunner}'s search).
+  const stageSplit = { ...split, run: runner.search };
+  const wholeContext = { ...stageSplit, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned), vbPeaksV: analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV) };
   // The stages in order, each run only where every earlier one found nothing; the first found wins.
   const wholeStages = [
-    ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...split, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
+    ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...stageSplit, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
     ...(poorWhole ? [() => laterEntryWholeFits(wholeContext), () => unseenSPeakWholeFits(wholeContext), () => (budgetSpent() <= DROPPED_PEAK_DEFAULTS.maxBudgetSpent ? droppedPeakWholeFits(wholeContext) : null)] : []),
   ];
   let found: { cb: FitTrial; whole: FitTrial } | null = null;

@@ -64,6 +64,11 @@ export interface FitRunner {
   noiseA: number;
   /** One run (see {@link FitRun}). */
   run: FitRun;
+  /**
+   * A run of a search for a better fit (see {@link FitRun}, notes 6): as `run`, but its stop at
+   * the work budget is the search's and does not count as the fit's.
+   */
+  search: FitRun;
   /** The linear projection (scale, offset, background) onto a data set, formed once per set. */
   projectorOf: (set: DataSet) => ReturnType<typeof linearProjector>;
   /** Band solutions shared by every run. */
@@ -121,6 +126,10 @@ export interface FitRunner {
  *    spent (the one under way finishes). An evaluation whose plateaus are all stored costs
  *    none; one of a wide low-η window with both bands' ladders costs thousands of times more
  *    than one on the crossover's curves, so evaluations alone do not bound the time.
+ * 6. `search` runs as `run` does, on the same budget, but a stop at the budget leaves `work()`'s
+ *    stoppedBy as it was (its message says so): a stage that only looks for a better fit than
+ *    the one found, and finds none before the budget is spent, has not cut the fit short. Runs
+ *    after it find the budget spent and stop as any run does, setting stoppedBy.
  *
  * Example
  * -------
@@ -157,7 +166,7 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     const held = h.heldVb ?? [];
     return held.length ? (p: ArrayLike<number>, biasV: ArrayLike<number>) => memo(withHeldLevels(p, h.seeds.length, held, eta), biasV) : memo;
   };
-  const run: FitRun = (h, logRatio0, iterations, from, set = all, held = []) => {
+  const runCounted = (counted: boolean): FitRun => (h, logRatio0, iterations, from, set = all, held = []) => {
     const start = startingValues(h.analysis, h.seeds, eta, guessEC, { chargingEnergyEV: h.chargingEnergyStartEV, rateRatioLog10: h.rateRatioStartLog10 });
     const at = parameterIndex(h.seeds.length);
     const initialValues = from ? [...from] : [...start.initialValues];
@@ -197,11 +206,13 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
       convergenceTolerance: settings.convergenceTolerance,
     });
     evaluations += loop.evaluations;
-    if (loop.stoppedBy === "budget" || loop.stoppedBy === "time") stoppedBy ??= loop.stoppedBy;
+    // A search's stop at the budget is not the fit's (notes 6).
+    const searchStop = !counted && loop.stoppedBy === "budget";
+    if (loop.stoppedBy === "time" || (loop.stoppedBy === "budget" && !searchStop)) stoppedBy ??= loop.stoppedBy;
     if (loop.stoppedBy === "budget") {
       const part = evaluations >= maxEvaluations ? "evaluations" : "elimination-steps";
-      budgetPart ??= part;
-      loop.message = part === "evaluations" ? `stopped at the fit's work budget of ${maxEvaluations} model evaluations (all runs together)` : `stopped at the fit's work budget of ${maxSteps.toExponential(1)} master-equation elimination steps (all runs together)`;
+      if (!searchStop) budgetPart ??= part;
+      loop.message = (part === "evaluations" ? `stopped at the fit's work budget of ${maxEvaluations} model evaluations (all runs together)` : `stopped at the fit's work budget of ${maxSteps.toExponential(1)} master-equation elimination steps (all runs together)`) + (searchStop ? "; a search's run: not the fit's stop" : "");
     }
     if (loop.stoppedBy === "time") loop.message = `stopped at the fit's time limit of ${timeLimitMs} ms (all runs together)`;
     const parameters = expand(loop.parameters);
@@ -222,6 +233,8 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
       implausible: null,
     };
   };
+  const run = runCounted(true);
+  const search = runCounted(false);
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  return { all, cbSide, noiseA, run, projectorOf, bandStore, currentOf, reduced, work: () => ({ evaluations, eliminationSteps: bandStore.work.eliminationSteps, stoppedBy, budgetPart }) };
+  return { all, cbSide, noiseA, run, search, projectorOf, bandStore, currentOf, reduced, work: () => ({ evaluations, eliminationSteps: bandStore.work.eliminationSteps, stoppedBy, budgetPart }) };
 }

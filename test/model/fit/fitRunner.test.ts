@@ -2,7 +2,8 @@
 // simulation's own parameters: ε_s = 0.6, ε_p = 0.9, ε_v = −1.2 eV, Ec = 0.1 eV, Γtip/Γsub = 10,
 // η = 0.85); BIC = χ² + k·ln n (closed form, G. Schwarz, Ann. Stat. 6, 461 (1978)); a held
 // parameter stays at its start exactly (exact); the elimination-step budget stops a run before
-// any evaluation once the store's work reaches it, with the start returned unchanged (exact).
+// any evaluation once the store's work reaches it, with the start returned unchanged (exact); a
+// search's run stops at the budget (exact) without that stop counting as the fit's (exact).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
 import { fitRunner } from "../../../lib/model/fit/fitRunner.ts";
@@ -60,5 +61,18 @@ describe("fitRunner(analysis, settings)", () => {
     const free = fitRunner(analysis, settings).run(h, null, 60);
     expect(free.loop.evaluations).toBeGreaterThan(0);
     expect(free.loop.stoppedBy).not.toBe("budget");
+  });
+
+  it("stops a search's run at the budget without counting it as the fit's stop; a later run then stops and counts (exact)", () => {
+    const small = fitRunner(analysis, { ...settings, maxEvaluations: 20 });
+    const t = small.search(h, null, 60);
+    expect(t.loop.stoppedBy).toBe("budget");
+    expect(t.loop.evaluations).toBe(20);
+    expect(t.loop.message).toMatch(/a search's run: not the fit's stop/);
+    expect(small.work()).toMatchObject({ evaluations: 20, stoppedBy: null, budgetPart: null });
+    const after = small.run(h, null, 60);
+    expect(after.loop.evaluations).toBe(0);
+    expect(after.loop.stoppedBy).toBe("budget");
+    expect(small.work()).toMatchObject({ evaluations: 20, stoppedBy: "budget", budgetPart: "evaluations" });
   });
 });
