@@ -4,7 +4,7 @@ import type { FitHypothesis } from "../../lib/model/fit/fitHypotheses.ts";
 /**
  * The fixed fields of the stand-in contexts with which the tests of the whole-curve stages
  * (peakStartWholeFits, wholeCurveSplits, structuredWholeSplit, laterEntryWholeFits,
- * unseenSPeakWholeFits, droppedPeakWholeFits, mergedPeakWholeFits) drive them without the model: a stand-in run's χ² is its reduced χ²,
+ * unseenSPeakWholeFits, droppedPeakWholeFits, ecGridWholeFits, mergedPeakWholeFits) drive them without the model: a stand-in run's χ² is its reduced χ²,
  * reduced χ² ≤ 3 describes the curve (the fit's wholeCurveChiSquare), exploratory runs take 8
  * iterations and finishing runs 60, and every grouping is acceptable. Each test adds its own
  * `run`, `cbSide`, η and whatever it overrides.

@@ -42,6 +42,7 @@ export { wholeCurveSplits, WHOLE_CURVE_SPLIT_DEFAULTS } from "./wholeCurveSplits
 export { peakStartWholeFits, PEAK_START_WHOLE_DEFAULTS, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
 export { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS, type UnseenSPeakContext } from "./unseenSPeakWholeFits.ts";
 export { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
+export { ecGridStartsEV, ecGridWholeFits, ecValenceReadings, EC_GRID_DEFAULTS } from "./ecGridWholeFits.ts";
 export { matchedLadderReadings, mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
 export { structuredWholeSplit, STRUCTURED_WHOLE_SPLIT_DEFAULTS, type StructuredWholeSplitContext } from "./structuredWholeSplit.ts";
 export { orderLevels } from "./orderLevels.ts";
