@@ -91,11 +91,11 @@ function layoutOf(t: FitTrial): string {
  *    but does not describe the curve (residual structure left): where it describes it, the CB
  *    side's choice stands (and the smaller model with it); above the bar the whole-curve splits
  *    and later VB entries are tried instead (fitCurve note 5), and rivals fitted there first
- *    took work those stages need (low-η intermediate draw 1157, whole curve at reduced χ² 5.6:
- *    good without this stage, poor with it; no rival described the curve). Measured with the comparison on the low-η mix, seeds 1001–1200, before
+ *    took work those stages need (low-η intermediate draws 1107 and 1157, the latter's whole curve
+ *    at reduced χ² 5.6: good without this stage, poor with it; no rival described the curve). Measured with the comparison on the low-η mix, seeds 1001–1200, before
  *    that limit: shell filling 195 → 196 (1027: 2+2+4 on the CB side, its whole curve at reduced
  *    χ² 2.78 with structure; 2+2+2+2 χ² 0.4 behind there, 1.02 on the whole curve), intermediate
- *    one fewer (1157).
+ *    186 → 184 (1107, 1157). With the limit, filling 196 and the draws it touches otherwise as before.
  *
  * Example
  * -------
