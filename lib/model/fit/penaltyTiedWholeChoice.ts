@@ -6,6 +6,7 @@
  */
 import type { FitTrial } from "./fitTrial.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
+import type { WholeChoiceContext } from "./tiedWholeChoice.ts";
 
 /** Defaults of {@link penaltyTiedWholeChoice} (locked by test/model/fit/penaltyTiedWholeChoice.test.ts). */
 export const PENALTY_TIED_WHOLE_CHOICE_DEFAULTS = Object.freeze({
@@ -20,30 +21,13 @@ export const PENALTY_TIED_WHOLE_CHOICE_DEFAULTS = Object.freeze({
 });
 
 /** What {@link penaltyTiedWholeChoice} works with. */
-export interface PenaltyTiedWholeChoiceContext {
-  /** The CB-side winner and its whole-curve fit. */
-  winner: FitTrial;
-  whole: FitTrial;
+export interface PenaltyTiedWholeChoiceContext extends WholeChoiceContext {
   /** Every run so far (explored and finished, both sides). */
   trials: readonly FitTrial[];
   /** Finishes an explored CB-side run (the full iteration budget from its values); a finished run is returned as it is. */
   finish: (t: FitTrial) => FitTrial;
   /** Whether a CB-side run is plausible. */
   plausible: (cb: FitTrial) => boolean;
-  /** CB-side fit → its whole-curve fit, where one was made; one made here is added. */
-  wholeOf: Map<FitTrial, FitTrial>;
-  /** Whole-curve fit → its CB-side fit; one made here is added. */
-  cbSideOf: Map<FitTrial, FitTrial>;
-  /** Fits a CB-side run to the whole curve (each reading of its VB peaks, the best kept). */
-  wholeFitOf: (cb: FitTrial) => FitTrial;
-  /** Whether a whole-curve fit describes the curve (reduced χ² and residual structure within the fit's bars). */
-  describes: (whole: FitTrial) => boolean;
-  /** Whether a whole-curve fit and its CB-side fit are plausible together. */
-  acceptable: (whole: FitTrial, cb: FitTrial) => boolean;
-  /** Reduced χ² of a run. */
-  reduced: (t: FitTrial) => number;
-  /** Reduced χ² at or below which a whole-curve fit describes the curve (FIT_DEFAULTS.wholeCurveChiSquare). */
-  wholeCurveChiSquare: number;
 }
 
 /** The CB layout of a run: its CB levels' degeneracies from the gap outward. */

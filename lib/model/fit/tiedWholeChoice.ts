@@ -15,18 +15,16 @@ export const TIED_WHOLE_CHOICE_DEFAULTS = Object.freeze({
   tieMargin: FIT_DEFAULTS.bicTieMargin,
 });
 
-/** What {@link tiedWholeChoice} works with. */
-export interface TiedWholeChoiceContext {
+/** What the whole-curve choices between CB-side runs ({@link tiedWholeChoice}, `penaltyTiedWholeChoice`) share. */
+export interface WholeChoiceContext {
   /** The CB-side winner and its whole-curve fit. */
   winner: FitTrial;
   whole: FitTrial;
-  /** The CB-side finalists that are plausible (the winner among them or not). */
-  plausible: readonly FitTrial[];
   /** CB-side fit → its whole-curve fit, where one was made; one made here is added. */
   wholeOf: Map<FitTrial, FitTrial>;
   /** Whole-curve fit → its CB-side fit; one made here is added. */
   cbSideOf: Map<FitTrial, FitTrial>;
-  /** Fits a CB-side finalist to the whole curve (each reading of its VB peaks, the best kept). */
+  /** Fits a CB-side run to the whole curve (each reading of its VB peaks, the best kept). */
   wholeFitOf: (cb: FitTrial) => FitTrial;
   /** Whether a whole-curve fit describes the curve (reduced χ² and residual structure within the fit's bars). */
   describes: (whole: FitTrial) => boolean;
@@ -36,6 +34,12 @@ export interface TiedWholeChoiceContext {
   reduced: (t: FitTrial) => number;
   /** Reduced χ² at or below which a whole-curve fit describes the curve (FIT_DEFAULTS.wholeCurveChiSquare). */
   wholeCurveChiSquare: number;
+}
+
+/** What {@link tiedWholeChoice} works with. */
+export interface TiedWholeChoiceContext extends WholeChoiceContext {
+  /** The CB-side finalists that are plausible (the winner among them or not). */
+  plausible: readonly FitTrial[];
 }
 
 /**
