@@ -84,6 +84,7 @@ describe("hiddenLadderReasons(peaks, assignment, options)", () => {
       quantities: { chargingEnergyV: null, gapV: null, levelSpacingSPV: null },
       uncertainties: {},
       evidence: { secondToFirstStepRatio: null, reasons: [], satellitePeakIndices: [], secondJunction: [] },
+      energies: { eta, etaGiven: true },
     };
     const verdict = rulesDecisive({ peaks, assignment: assignment as never, biasRangeV: [-2, 2] });
     expect(verdict.codes).toEqual(["vb-charging-pairs"]);

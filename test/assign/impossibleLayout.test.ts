@@ -82,6 +82,8 @@ describe("impossibleLayoutReasons(assignment, options)", () => {
       quantities: q,
       uncertainties: {},
       evidence: { secondToFirstStepRatio: null, reasons: [], satellitePeakIndices: [], secondJunction: [] },
+      // η given: the peaks' second-junction resonances, −η·V/(1 − η) = −4·V, lie outside the window (note 27 silent).
+      energies: { eta, etaGiven: true },
     };
     // The window ends 0.5 Ec/η after p's last read peak: note 3 silent (the next one would lie outside).
     const verdict = rulesDecisive({ peaks, assignment: assignment as never, biasRangeV: [-2, pV[5] + 0.05] });

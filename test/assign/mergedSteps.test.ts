@@ -104,6 +104,8 @@ describe("mergedStepReasons(peaks, assignment, options)", () => {
       quantities: { chargingEnergyV: ecV, gapV: null, levelSpacingSPV: null },
       uncertainties: {},
       evidence: { secondToFirstStepRatio: null, reasons: [], satellitePeakIndices: [], secondJunction: [] },
+      // η given: the peaks' second-junction resonances, −η·V/(1 − η) = −4·V, lie outside the window (note 27 silent).
+      energies: { eta, etaGiven: true },
     };
     const verdict = rulesDecisive({ peaks, assignment: assignment as never, biasRangeV: [-2, sV[1] + 0.05] });
     expect(verdict.codes).toEqual(["subgroup-fall"]);

@@ -61,8 +61,9 @@ describe("setAsidePeakReasons(peaks, assignment, options)", () => {
       },
     ]);
     // The same reason through rulesDecisive, the window ending before p's next charging peak (note 3 silent).
-    const verdict = rulesDecisive({ peaks, assignment: { ...short, noLevels: null, evidence: { ...short.evidence, secondToFirstStepRatio: null, reasons: [] }, uncertainties: {} } as never, biasRangeV: [-2, pV[5] + 0.5 * ecV] });
-    expect(verdict.codes).toEqual(["first-peak-set-aside"]);
+    // η given (0.8): the peak set aside as a resonance also sends the shell-filling reading to the fit (note 27).
+    const verdict = rulesDecisive({ peaks, assignment: { ...short, noLevels: null, evidence: { ...short.evidence, secondToFirstStepRatio: null, reasons: [] }, uncertainties: {}, energies: { eta, etaGiven: true } } as never, biasRangeV: [-2, pV[5] + 0.5 * ecV] });
+    expect(verdict.codes).toEqual(["first-peak-set-aside", "resonant-window"]);
     // p whole: nothing is missing.
     expect(setAsidePeakReasons(peaks, reading(peaks, "shell-filling", [shell(peaks, "s", 2, [0, 1]), shell(peaks, "p", 6, [2, 3, 4, 5, 6, 7])]))).toEqual([]);
     // The set-aside peak 0.7 Ec before p's first (outside 1 ± 0.175): not where the ladder puts a charging peak.
