@@ -499,10 +499,11 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const at = parameterIndex(seeds.length);
   const { parameters: params, iterations, converged, message } = best.loop;
   if (!converged) warnings.push(`the fit did not converge (${message}); the values are the best found so far`);
-  const { stoppedBy, budgetPart } = work();
+  const { stoppedBy, budgetPart, searchStopped } = work();
   const budgetWords = budgetPart === "evaluations" ? `${maxEvaluations} model evaluations` : `${F.maxEliminationSteps.toExponential(1)} master-equation elimination steps`;
   const cutShort = stoppedBy && `the fit was cut short at its ${stoppedBy === "budget" ? `work budget of ${budgetWords} (the same on every machine)` : `time limit of ${timeLimitMs} ms (where depends on the machine and its load)`}: runs after that kept their starts, a better fit may have been missed`;
   if (cutShort) warnings.push(cutShort);
+  else if (searchStopped) warnings.push("a search for a better whole-curve reading stopped at the fit's work budget: the fit found stands, but a reading the search did not reach may describe the curve better");
   const wholeAnswers = wholeFitOf ? weightedWholeFits({ finalists, weights, wholeOf, wholeFitOf, describes: split.describes, reduced }) : new Map(); // the weighted groupings' own whole-curve answers, after the fit's result (its work counted, the budget's stop not)
   // The winner's whole-curve fit may have been replaced since plausibility was first read (other Ec starts): a CB side on the ratio's bound is read again against it.
   if (!plausible.includes(winner) && wholeOf.get(winner) === whole && ratioOnlyBound(winner) && implausibleOf(winner).length === 0) plausible.push(winner);

@@ -81,7 +81,7 @@ export interface FitRunner {
    * Model evaluations and master-equation elimination steps of all runs so far, what first cut a
    * run short (null: nothing yet) and, when it was the budget, which part of it.
    */
-  work: () => { evaluations: number; eliminationSteps: number; stoppedBy: "budget" | "time" | null; budgetPart: "evaluations" | "elimination-steps" | null };
+  work: () => { evaluations: number; eliminationSteps: number; stoppedBy: "budget" | "time" | null; budgetPart: "evaluations" | "elimination-steps" | null; searchStopped: boolean };
 }
 
 /**
@@ -127,9 +127,10 @@ export interface FitRunner {
  *    none; one of a wide low-η window with both bands' ladders costs thousands of times more
  *    than one on the crossover's curves, so evaluations alone do not bound the time.
  * 6. `search` runs as `run` does, on the same budget, but a stop at the budget leaves `work()`'s
- *    stoppedBy as it was (its message says so): a stage that only looks for a better fit than
- *    the one found, and finds none before the budget is spent, has not cut the fit short. Runs
- *    after it find the budget spent and stop as any run does, setting stoppedBy.
+ *    stoppedBy as it was (its message says so, and `work()`'s searchStopped turns true): a stage
+ *    that only looks for a better fit than the one found, and finds none before the budget is
+ *    spent, has not cut the fit short (the fit still says the search stopped). Runs after it find
+ *    the budget spent and stop as any run does, setting stoppedBy.
  *
  * Example
  * -------
@@ -156,6 +157,7 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
   let evaluations = 0;
   let stoppedBy: "budget" | "time" | null = null;
   let budgetPart: "evaluations" | "elimination-steps" | null = null;
+  let searchStopped = false;
   const projectors = new Map<DataSet, ReturnType<typeof linearProjector>>();
   const projectorOf = (set: DataSet) => (projectors.get(set) ?? projectors.set(set, linearProjector(set.biasV, set.v3, set.dataA)).get(set))!;
   const bandStore = bandStepsStore();
@@ -208,6 +210,7 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
     evaluations += loop.evaluations;
     // A search's stop at the budget is not the fit's (notes 6).
     const searchStop = !counted && loop.stoppedBy === "budget";
+    if (searchStop) searchStopped = true;
     if (loop.stoppedBy === "time" || (loop.stoppedBy === "budget" && !searchStop)) stoppedBy ??= loop.stoppedBy;
     if (loop.stoppedBy === "budget") {
       const part = evaluations >= maxEvaluations ? "evaluations" : "elimination-steps";
@@ -236,5 +239,5 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
   const run = runCounted(true);
   const search = runCounted(false);
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
-  return { all, cbSide, noiseA, run, search, projectorOf, bandStore, currentOf, reduced, work: () => ({ evaluations, eliminationSteps: bandStore.work.eliminationSteps, stoppedBy, budgetPart }) };
+  return { all, cbSide, noiseA, run, search, projectorOf, bandStore, currentOf, reduced, work: () => ({ evaluations, eliminationSteps: bandStore.work.eliminationSteps, stoppedBy, budgetPart, searchStopped }) };
 }

@@ -69,10 +69,16 @@ describe("fitRunner(analysis, settings)", () => {
     expect(t.loop.stoppedBy).toBe("budget");
     expect(t.loop.evaluations).toBe(20);
     expect(t.loop.message).toMatch(/a search's run: not the fit's stop/);
-    expect(small.work()).toMatchObject({ evaluations: 20, stoppedBy: null, budgetPart: null });
+    expect(small.work()).toMatchObject({ evaluations: 20, stoppedBy: null, budgetPart: null, searchStopped: true });
     const after = small.run(h, null, 60);
     expect(after.loop.evaluations).toBe(0);
     expect(after.loop.stoppedBy).toBe("budget");
-    expect(small.work()).toMatchObject({ evaluations: 20, stoppedBy: "budget", budgetPart: "evaluations" });
+    expect(small.work()).toMatchObject({ evaluations: 20, stoppedBy: "budget", budgetPart: "evaluations", searchStopped: true });
+  });
+
+  it("a run that stays within the budget leaves searchStopped false (exact)", () => {
+    const roomy = fitRunner(analysis, { ...settings, maxEvaluations: 10_000 });
+    roomy.search(h, null, 3);
+    expect(roomy.work().searchStopped).toBe(false);
   });
 });
