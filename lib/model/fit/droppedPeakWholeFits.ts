@@ -4,6 +4,7 @@
  * set by the charge state it is crossed in (not only the mirror η·|V|/(1 − η) of its first peak),
  * and one the rules did not label is counted in p.
  */
+import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
 import { distinctReadings, type LevelSeed } from "./levelsToFit.ts";
 import { ladderHypotheses, peakStartWholeFits, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
@@ -82,6 +83,17 @@ export function fillingOrderReading(peaksV: readonly number[], layout: readonly 
 }
 
 /**
+ * The VB readings the filling-order stages fit with a ladder: the VB peaks (second-junction
+ * resonances set aside) read as a doublet and a level of four in filling order at Ec/η first
+ * (note 3 of {@link droppedPeakWholeFits}), then the ladders' own readings, repeats and empty
+ * readings dropped. Shared by `droppedPeakWholeFits` and `mergedPeakWholeFits`.
+ */
+export function fillingOrderValenceReadings(ladders: readonly FitHypothesis[], chargingEnergyV: number): LevelSeed[][] {
+  const vbPeaksV = ladders[0].analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
+  return distinctReadings([inFillingOrder(shellValenceReading(vbPeaksV, chargingEnergyV)), ...ladders.flatMap((h) => h.vbReadings)].filter((r) => r.length));
+}
+
+/**
  * The filling-order ladders fitted to the whole curve with one CB charging peak left out as a VB
  * level's resonance (which the whole-curve model holds).
  *
@@ -136,8 +148,7 @@ export function droppedPeakWholeFits(context: PeakStartWholeContext, settings = 
   const bias = base.analysis.conductance.biasV;
   const topV = Math.max(bias[0], bias[bias.length - 1]);
   // The VB peaks read as a doublet and a level of four in filling order first (note 3), then the ladders' readings.
-  const vbPeaksV = base.analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
-  const vbReadings = distinctReadings([inFillingOrder(shellValenceReading(vbPeaksV, ecEV / context.eta)), ...ladders.flatMap((h) => h.vbReadings)].filter((r) => r.length));
+  const vbReadings = fillingOrderValenceReadings(ladders, ecEV / context.eta);
   // s's second peak last: a reading reached both ways is named by the peak after s.
   const dropped: number[] = [];
   for (let k = 2; k <= settings.maxDropped && k < charging.length; k++) dropped.push(k);

@@ -5,10 +5,10 @@
  * lie below s; the rules then take resonances for s or p and label a level's entry a resonance.
  */
 import type { FitTrial } from "./fitTrial.ts";
-import { distinctReadings, type LevelSeed } from "./levelsToFit.ts";
+import type { LevelSeed } from "./levelsToFit.ts";
+import { fillingOrderValenceReadings } from "./droppedPeakWholeFits.ts";
 import { ladderHypotheses, peakStartWholeFits, type LadderReading } from "./peakStartWholeFits.ts";
-import { inFillingOrder, shellValenceReading } from "./shellValenceReading.ts";
-import { UNSEEN_S_PEAK_DEFAULTS, type UnseenSPeakContext } from "./unseenSPeakWholeFits.ts";
+import { steplessPeaksV, UNSEEN_S_PEAK_DEFAULTS, type UnseenSPeakContext } from "./unseenSPeakWholeFits.ts";
 import { valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
 
 /** Defaults of {@link mergedPeakWholeFits} (locked by test/model/fit/mergedPeakWholeFits.test.ts). */
@@ -186,15 +186,13 @@ export function mergedPeakWholeFits(context: UnseenSPeakContext, settings = MERG
   if (!ladders.length) return null;
   const base = ladders[0];
   const peaks = base.analysis.peaks;
-  const largestStepA = Math.max(0, ...peaks.map((x) => x.stepA ?? 0));
-  const stepless = new Set(peaks.filter((x) => (x.stepA ?? largestStepA) < UNSEEN_S_PEAK_DEFAULTS.minStepFraction * largestStepA).map((x) => x.biasV));
+  const stepless = steplessPeaksV(peaks, UNSEEN_S_PEAK_DEFAULTS.minStepFraction);
   const cbPeaksV = peaks.filter((x) => x.biasV > 0 && !stepless.has(x.biasV)).map((x) => x.biasV);
   const ecEV = valenceSpacingEcEV(context.vbPeaksV.filter((v) => !stepless.has(v)), context.eta) ?? base.chargingEnergyStartEV;
   if (ecEV === null || !(ecEV > 0)) return null;
   const bias = base.analysis.conductance.biasV;
   const topV = Math.max(bias[0], bias[bias.length - 1]);
-  const vbMainV = peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
-  const vbReadings = distinctReadings([inFillingOrder(shellValenceReading(vbMainV, ecEV / context.eta)), ...ladders.flatMap((h) => h.vbReadings)].filter((r) => r.length));
+  const vbReadings = fillingOrderValenceReadings(ladders, ecEV / context.eta);
   const hypotheses = settings.pLayouts.flatMap((p) => {
     const readings: LadderReading[] = matchedLadderReadings(cbPeaksV, [2, ...p], ecEV / context.eta, topV, settings).map(({ cb, passed }) => ({
       cb,

@@ -117,6 +117,23 @@ export function unseenSPeakReadings(cbPeaksV: readonly number[], layout: readonl
 }
 
 /**
+ * The positions of the peaks that carry almost no current step: below `minStepFraction` of the
+ * largest peak's (a peak with no step measured counts as carrying the largest). Every charging
+ * peak carries a step, so such a peak is neither a level's entry nor one end of the VB spacing
+ * that starts Ec (note 4 of {@link unseenSPeakWholeFits}; also read by `mergedPeakWholeFits`).
+ *
+ * Example
+ * -------
+ * ```ts
+ * steplessPeaksV([{ biasV: 1, stepA: 1e-11 }, { biasV: 1.2, stepA: 5e-15 }], 0.01); // => Set {1.2}
+ * ```
+ */
+export function steplessPeaksV(peaks: readonly { biasV: number; stepA?: number | null }[], minStepFraction: number): Set<number> {
+  const largestStepA = Math.max(0, ...peaks.map((x) => x.stepA ?? 0));
+  return new Set(peaks.filter((x) => (x.stepA ?? largestStepA) < minStepFraction * largestStepA).map((x) => x.biasV));
+}
+
+/**
  * The filling-order ladders fitted to the whole curve with one of s's charging peaks unseen.
  *
  * Parameters
@@ -173,8 +190,7 @@ export function unseenSPeakWholeFits(context: UnseenSPeakContext, settings = UNS
   const base = ladders[0];
   const resonant = new Set(base.analysis.assignment.evidence.secondJunction.map((r) => r.index));
   // Peaks that carry almost no current step set aside (note 4): neither an entry nor a VB spacing.
-  const largestStepA = Math.max(0, ...base.analysis.peaks.map((x) => x.stepA ?? 0));
-  const stepless = new Set(base.analysis.peaks.filter((x) => (x.stepA ?? largestStepA) < settings.minStepFraction * largestStepA).map((x) => x.biasV));
+  const stepless = steplessPeaksV(base.analysis.peaks, settings.minStepFraction);
   const cbPeaksV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && !resonant.has(i) && !stepless.has(x.biasV)).map((x) => x.biasV);
   const resonancesV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && resonant.has(i)).map((x) => x.biasV);
   const mainVbV = context.vbPeaksV.filter((v) => !stepless.has(v));

@@ -4,7 +4,7 @@
 // one of s's peaks left out; the whole-curve stage is checked with a run function that stands in
 // for Levenberg–Marquardt (each start's reduced χ² set by hand).
 import { describe, it, expect } from "vitest";
-import { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
+import { steplessPeaksV, unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import { standInPickingContext } from "../../helpers/standInWholeFit.ts";
 
@@ -66,6 +66,17 @@ describe("unseenSPeakReadings(cbPeaksV, layout, chargingEnergyV)", () => {
   it("gives nothing without CB peaks or Ec", () => {
     expect(unseenSPeakReadings([], [2, 6], ecV)).toEqual([]);
     expect(unseenSPeakReadings(p, [2, 6], 0)).toEqual([]);
+  });
+});
+
+describe("steplessPeaksV(peaks, minStepFraction)", () => {
+  // Common practice (no source): every charging peak carries a current step, so a peak stepping
+  // under a hundredth of the largest is not a level's peak; the threshold is the option given.
+  it("sets aside the peaks stepping under the fraction of the largest step, and none without steps measured", () => {
+    const peaks = [{ biasV: 1.0, stepA: 2e-11 }, { biasV: 1.1, stepA: 1.9e-13 }, { biasV: 1.2, stepA: 2e-13 }, { biasV: -0.8, stepA: 1e-15 }];
+    expect([...steplessPeaksV(peaks, 0.01)].sort()).toEqual([-0.8, 1.1]);
+    expect([...steplessPeaksV(peaks, 0.001)]).toEqual([-0.8]);
+    expect(steplessPeaksV([{ biasV: 1.0 }, { biasV: 1.1, stepA: null }], 0.01).size).toBe(0);
   });
 });
 
