@@ -4,13 +4,14 @@
  * `dotspec analyze --compare-models` fits.
  */
 import type { Peak } from "../peaks/findPeaks.ts";
-import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import { checkFinite, checkRange } from "../util/check.ts";
 import type { Assignment } from "./assignSpectrum.ts";
-import { medianInPlace } from "../util/medianInPlace.ts";
-import { ASSIGN_DEFAULTS } from "./assignDefaults.ts";
-import { stepsShortOfP } from "./shells.ts";
-import { subgroupSpans } from "./multiplets.ts";
+import { chargingStepReasons, pairRiseReasons } from "./decisive/fillingSteps.ts";
+import { offLadderSpacingReasons, oddSubgroupReasons, shortShellReasons } from "./decisive/fillingShells.ts";
+import { stepRatioBandReasons, twoCbPeakReasons } from "./decisive/regimeEvidence.ts";
+import { ecSpacingReasons, evenLadderReasons, splitLadderReasons } from "./decisive/tunnelingLadders.ts";
+import { dNearSplitPReasons, levelsOverPairsReasons } from "./decisive/tunnelingLevels.ts";
+import { broadSatelliteReasons, strongSatelliteReasons } from "./decisive/tunnelingSatellites.ts";
 import { setAsidePeakReasons } from "./setAsidePeaks.ts";
 import { impossibleLayoutReasons } from "./impossibleLayout.ts";
 import { mergedStepReasons } from "./mergedSteps.ts";
@@ -195,100 +196,54 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *
  * Notes
  * -----
- * No fitting: a few comparisons on the peaks, microseconds per curve. Not decisive when any of:
+ * No fitting: a few comparisons on the peaks, microseconds per curve. Not decisive when any of
+ * the following holds. Each test is a function of a module in decisive/ (of this folder) or beside
+ * this one, whose notes give its reasoning and the benchmark figures that chose its limit.
  * 1. The regime is undetermined.
- * 2. The second CB step over the first (`evidence.secondToFirstStepRatio`) lies within the
- *    crossover band r/(1 + r) for Γtip/Γsub between 3/7 and 1.5 (0.3–0.6, `REGIME_LIMITS`)
- *    widened by `stepRatioMargin` on both sides, while the rules named a regime: the s doublet's
- *    second step (or the satellite) is close to a regime boundary.
- * 3. Shell filling with an s or p multiplet short of its degeneracy (fewer than 2 or 6 charging
- *    peaks) while the next charging peak, one Ec after its last, would lie at least `edgeFwhms`
- *    × the median FWHM of the shell's peaks inside the window (the median: one broad, merged
- *    peak does not push the edge out): near Γtip/Γsub = 1.5–4 the last charging steps of p carry a few per
- *    cent of the first and are missed, and the peaks found can be grouped more than one way.
- * 4. Shell tunnelling with at least three CB peaks (levels and charging satellites) whose
- *    successive spacings are all alike (each within `ladderTolerance` of their mean, or within
- *    `ladderSigmas` combined errors): an even ladder that a charging multiplet explains as well as
- *    a series of levels (Δsp ≈ Ec). Likewise at least four CB levels after s: near Γtip/Γsub
- *    = 0.3–0.4 a whole p level's charging peaks read as sub-levels and a d level while s's
- *    satellite, r/(1 + r) ≈ 0.25 of s, is not found (three alike remain a split p).
+ * 2. The s doublet's second CB step over its first (`evidence.secondToFirstStepRatio`) lies within
+ *    the crossover band r/(1 + r) for Γtip/Γsub between 3/7 and 1.5 (0.3–0.6, `REGIME_LIMITS`)
+ *    widened by `stepRatioMargin` on both sides, while the rules named a regime
+ *    (`stepRatioBandReasons`, decisive/regimeEvidence.ts).
+ * 3. Shell filling with an s or p multiplet short of its degeneracy while the next charging peak,
+ *    one Ec after its last, would lie at least `edgeFwhms` × the median FWHM of the shell's peaks
+ *    inside the window (`shortShellReasons`, decisive/fillingShells.ts).
+ * 4. Shell tunnelling with at least three CB peaks (levels and charging satellites), or at least
+ *    four CB levels after s, whose successive spacings are all alike (each within
+ *    `ladderTolerance` of their mean, or within `ladderSigmas` combined errors): an even ladder
+ *    that a charging multiplet explains as well (`evenLadderReasons`, decisive/tunnelingLadders.ts).
  * 5. Shell tunnelling with Ec measured from a charging satellite and Δsp within `ladderTolerance`
- *    × Ec of it: the satellite of s coincides with p.
+ *    × Ec of it: the satellite of s coincides with p (`ecSpacingReasons`, decisive/tunnelingLadders.ts).
  * 6. Shell tunnelling with a CB level split into sub-levels spaced within `ladderTolerance` × Ec
- *    of Ec: sub-levels one Ec apart can be that level's charging peaks.
+ *    of Ec: they can be that level's charging peaks (`ecSpacingReasons`).
  * 7. Shell tunnelling with more levels in a shell than its states make spin pairs (more than 3
- *    in p): the extra peaks are likely charging peaks of its levels (near Γtip/Γsub = 0.2–0.4 a
- *    level of g states charges with steps of order g·r).
+ *    in p) (`levelsOverPairsReasons`, decisive/tunnelingLevels.ts).
  * 8. Shell tunnelling with a CB peak set aside as a charging satellite, between the first and the
- *    last CB peak read, at least `broadFwhmRatio` × the median FWHM of those peaks wide:
- *    unresolved peaks (near Γtip/Γsub = 0.2–0.3 a split p's sub-level merged with a charging
- *    peak), among which a level may hide.
+ *    last CB peak read, at least `broadFwhmRatio` × the median FWHM of those peaks wide
+ *    (`broadSatelliteReasons`, decisive/tunnelingSatellites.ts).
  * 9. Shell filling with a dip inside a sub-group of a multiplet: a charging step below
- *    `dipStepRatio` × both its neighbours'. A level's charging steps fall one after another; a dip
- *    is a higher sub-level entered before the lower is full (near Γtip/Γsub = 2.5–3.5 in a p
- *    split 2+4 or 2+2+2), counted as a charging peak, which puts the rest of p one Ec low.
+ *    `dipStepRatio` × both its neighbours' (`chargingStepReasons`, decisive/fillingSteps.ts).
  * 10. Shell tunnelling with a shell split into sub-levels that, with the satellites after them,
  *    form an even ladder (as in 4), when the first satellite after the last sub-level steps
- *    `ladderSatelliteMin`–`ladderSatelliteMax` × the peak before it: charging peaks that strong
- *    mean Γtip/Γsub is no longer small, and one level's charging peaks read as sub-levels give
- *    just such a ladder (deep in shell tunnelling, sub-levels alike and no strong satellite: not
- *    flagged).
+ *    `ladderSatelliteMin`–`ladderSatelliteMax` × the peak before it (`splitLadderReasons`,
+ *    decisive/tunnelingLadders.ts).
  * 11. A regime read from two CB peaks alone, the VB deciding between an s doublet and the s
- *    level with a p sub-level (a merged p shows as one peak and may be taken for s's second).
+ *    level with a p sub-level (`twoCbPeakReasons`, decisive/regimeEvidence.ts).
  * 12. Shell tunnelling with a CB peak after the first set aside as a charging satellite although
- *    it steps at least `ladderSatelliteMax` × the CB peak before it: a level's charging peak
- *    steps less than the peak before it, so it may be a sub-level the rules did not count.
+ *    it steps at least `ladderSatelliteMax` × the CB peak before it (`strongSatelliteReasons`,
+ *    decisive/tunnelingSatellites.ts).
  * 13. Shell filling with a sub-group of a multiplet holding an odd number of charging peaks,
- *    other than a last sub-group the shell may still be short of: the sub-levels of a shell split
- *    by shape keep the spin degeneracy (Kramers), so each holds an even number of electrons and
- *    its sub-group counts an even number of charging peaks (p: 2+4 or 2+2+2). An odd one holds a
- *    peak that is not a charging peak of its sub-level (a higher sub-level entered early, taken
- *    for one) in place of one that is, and the peaks after it sit one charging peak off.
- * 14. Shell tunnelling with a level read as d within `ASSIGN_DEFAULTS.tunnelingSublevelStepFraction`
- *    (0.75) × the s→p distance of p's last level, p's first level stepping at most
- *    `ASSIGN_DEFAULTS.tunnelingSublevelFirstStepMax` (1.3) × the s level and p's levels together
- *    at most `tunnelingSublevelStepMax` (2.5) ×: a level of g states after s steps
- *    g/(2(1 + (2 + g)r)) × s, so p looks short of its six states (a 2-state sub-level steps at most
- *    1 ×; the whole p 3/(1 + 8r)), and d lies at least one s→p distance above p in the usual
- *    confinement potentials: the "d" may be p's other sub-level. The rules join it to p themselves
- *    only deep in the regime (no charging satellite); nearer the crossover the whole p steps as
- *    little and its charging peaks can sit as close.
+ *    other than a last sub-group the shell may still be short of (`oddSubgroupReasons`,
+ *    decisive/fillingShells.ts).
+ * 14. Shell tunnelling with a level read as d close after a p that steps like a 2-state sub-level
+ *    (`dNearSplitPReasons`, decisive/tunnelingLevels.ts).
  * 15. Shell filling with a rise inside a sub-group of three or more charging peaks: a step above
- *    1/`dipStepRatio` (1.18) × the step before it, other than the rise after a dip (told by 9).
- *    One level of g states filled from the tip has P(N) ∝ C(g, N)·r^N on each plateau (detailed
- *    balance of in at (g − N)·Γtip, out at N·Γsub), so the plateau currents
- *    I_k ∝ Σ_{N ≤ k} N·C(g, N)·r^N / Σ_{N ≤ k} C(g, N)·r^N rise by steps that fall one after another
- *    (g = 6: successive ratios 0.99, 0.99, 0.98, 0.94, 0.80 at r = 10; 0.97 … 0.52 at r = 3; g = 2:
- *    r/(1 + r)); the margin is the dip's (a measured step scatters by about ± 0.1). A rise puts a
- *    peak of another sub-level (its entry, or a channel) among the level's charging peaks, and the
- *    peaks after it one charging peak off. On the crossover benchmark (fast model, seeds 1, 1001,
- *    2001, 200 spectra each, 2026-12-03) it fired on 7, 6 and 8 spectra, every one a failing
- *    reading of the rules, 3 of them sent to the fit by no other reason (all three then right); on
- *    the default mix on 2, 1 and 3 intermediate spectra, all fitted already, and on no spectrum of
- *    the two regimes.
+ *    1/`dipStepRatio` (1.18) × the step before it, other than the rise after a dip (told by 9)
+ *    (`chargingStepReasons`, decisive/fillingSteps.ts).
  * 16. Shell filling with two successive charging peaks of one sub-group of a CB multiplet spaced
- *    more than `chargingSpacingTolerance` × Ec away from Ec (`quantities.chargingEnergyV`, in bias).
- *    One level's charging peaks sit at (ε + Ec(n + ½))/η, one Ec/η apart whatever the rates; a
- *    spacing far off it puts a peak of another sub-level or a resonance through the substrate
- *    junction in place of a charging peak (a charging peak merged with a resonance, or lost under
- *    it), and the rest of the shell may be read one peak off. On the low-η benchmark (fast model,
- *    seeds 1, 1001, 2001, 200 spectra each, 2026-12-05) the rules' passing shell-filling readings
- *    keep every such spacing within 0.18 × Ec of Ec (the default mix within 0.19); at 0.175 it sends
- *    5 shell-filling spectra the rules decided alone to the fit, 4 of them failing readings (the
- *    fit then right on 2, the rest still failing) and 1 passing (kept), and 1 passing spectrum each
- *    on the default mix seed 1 and the crossover seed 1 (the fit right on both). At 0.14 it sent
- *    17 passing low-η readings more and the fit broke one.
- * 17. Shell filling with a sub-group of two charging peaks (a 2-state level or sub-level) whose
- *    second steps at least `pairRiseRatio` × its first. Filled from the tip, a 2-state level's
- *    second charging step is r/(1 + r) × its first (< 1; as for the s doublet); one far larger
- *    carries the step of another peak merged with it (at low η a resonance through the substrate
- *    junction), whose position it pulls. Rule 15 leaves sub-groups of two alone: at low η such
- *    merged steps are common and mostly harmless. On the low-η benchmark (fast model, seeds 1,
- *    1001, 2001, 200 spectra each, 2026-12-05) it fired on 10, 15 and 12 shell-filling spectra the
- *    rules decided alone, 2, 1 and 1 of them failing readings: the fit then right on 2, 1 and 0 of
- *    those and none of the passing ones broken; on the default mix and crossover seeds 1 and 1001
- *    it sends none. With 16, on the held-out low-η seeds 3001 and 4001 the two send 13 and 14
- *    such spectra: the fit right on 1 and 4 failing readings, and wrong on 1 passing one.
+ *    more than `chargingSpacingTolerance` × Ec away from Ec (`offLadderSpacingReasons`,
+ *    decisive/fillingShells.ts).
+ * 17. Shell filling with a sub-group of two charging peaks whose second steps at least
+ *    `pairRiseRatio` × its first (`pairRiseReasons`, decisive/fillingSteps.ts).
  * 18–20. The peaks the rules set aside (in no multiplet) or left unread, `setAsidePeakReasons`
  *    (setAsidePeaks.ts, its defaults `SET_ASIDE_PEAK_DEFAULTS`; one level's charging peaks lie one
  *    Ec apart in bias). 18: shell filling with a shell after s short of its degeneracy while a
@@ -393,210 +348,30 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     add("undetermined", "the rules left the regime undetermined");
     return { decisive: false, reasons, codes };
   }
-  // 2. The s doublet's step ratio near a regime boundary.
-  const q = a.evidence.secondToFirstStepRatio;
-  const low = REGIME_LIMITS.tunnelingStepRatioMax - margin;
-  const high = REGIME_LIMITS.fillingStepRatioMin + margin;
-  if (q !== null && q >= low && q <= high) {
-    add("step-ratio-band", 
-      `the second CB step is ${q.toFixed(2)} × the first, within the crossover band ${low.toFixed(2)}–${high.toFixed(2)} (r/(1 + r) for Γtip/Γsub from 3/7 to 1.5, ± ${margin}): the rate ratio may be near a regime boundary`,
-    );
-  }
-  const cb = a.multiplets.filter((m) => m.band === "CB");
-  const ecV = a.quantities.chargingEnergyV;
-  if (a.regime === "shell-filling" && ecV !== null && ecV > 0) {
-    // 3. A shell short of its degeneracy whose next charging peak lies inside the window.
-    for (const m of cb) {
-      if ((m.label !== "s" && m.label !== "p") || m.degeneracy === null || m.found === 0 || m.found >= m.degeneracy) continue;
-      const lastV = m.peaksV[m.peaksV.length - 1];
-      // The shell's typical width: the median FWHM (a broad, merged peak would push the edge out).
-      const fwhmV = median(m.peakIndices.map((i) => peaks[i].fwhmV));
-      const nextV = lastV + ecV;
-      if (nextV + edgeFwhms * fwhmV <= toV) {
-        add("short-shell", 
-          `shell filling with ${m.found} of the ${m.label} multiplet's ${m.degeneracy} charging peaks, although the next one (near ${nextV.toFixed(3)} V, one Ec after the last) lies inside the window (to ${toV.toFixed(3)} V): a weak last charging step may be missed, or the peaks grouped another way`,
-        );
-      }
-    }
-  }
-  // 8. Shell tunnelling with a broad peak set aside as a satellite: unresolved peaks, among them
-  //    perhaps a level.
-  const cbIndices = cb.flatMap((m) => m.peakIndices);
-  if (a.regime === "shell-tunneling" && cbIndices.length >= 2) {
-    const cbV = cbIndices.map((i) => peaks[i].biasV);
-    const [firstV, lastV] = [Math.min(...cbV), Math.max(...cbV)];
-    const between = a.evidence.satellitePeakIndices.filter((i) => peaks[i].biasV > firstV && peaks[i].biasV < lastV);
-    const typicalV = median([...cbIndices, ...between].map((i) => peaks[i].fwhmV));
-    for (const i of between.filter((k) => peaks[k].fwhmV >= broadRatio * typicalV).sort((x, y) => peaks[x].biasV - peaks[y].biasV)) {
-      add("broad-satellite", 
-        `shell tunnelling with the CB peak at ${peaks[i].biasV.toFixed(3)} V set aside as a charging satellite although it is ${(peaks[i].fwhmV * 1e3).toFixed(0)} mV wide, ${(peaks[i].fwhmV / typicalV).toFixed(1)} × the median FWHM of the CB peaks read (${(typicalV * 1e3).toFixed(0)} mV; ≥ ${broadRatio}): unresolved peaks, among which a level (a sub-level of p merged with a charging peak) may hide`,
-      );
-    }
-  }
-  // 11. A regime read from two CB peaks alone, the VB deciding between a doublet and an s/p pair.
-  if (a.evidence.reasons.some((r) => r.includes("no third CB peak follows"))) {
-    add("two-cb-peaks", `${a.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} read from two CB peaks alone (no third follows), the VB deciding between an s doublet and the s level with a p sub-level: the CB side holds too few peaks for the rules to tell`);
-  }
-  if (a.regime === "shell-filling") {
-    // 13. A sub-group with an odd number of charging peaks (a sub-level holds an even number).
-    for (const m of cb) {
-      const complete = m.degeneracy !== null && m.found >= m.degeneracy;
-      const odd = m.subgroups.filter((size, k) => size % 2 === 1 && (k < m.subgroups.length - 1 || complete));
-      if (m.subgroups.length > 1 && odd.length) {
-        add("odd-subgroup", 
-          `shell filling with ${m.label} in sub-groups ${m.subgroups.join("+")}, ${odd.length === 1 ? "one" : odd.length} of them odd although each sub-level of a shell holds an even number of electrons (spin): a peak that is not a charging peak of its sub-level may stand in for one that is`,
-        );
-      }
-    }
-    // 9. A dip in the charging steps inside a sub-group.
-    for (const m of cb) {
-      for (const { start, indices } of subgroupSpans(m)) {
-        const steps = indices.map((i) => peaks[i].stepA);
-        const dips = new Set<number>();
-        for (let j = 1; j < steps.length - 1; j++) {
-          if (steps[j] < dipRatio * Math.min(steps[j - 1], steps[j + 1])) {
-            dips.add(j);
-            add("charging-dip", 
-              `shell filling with a dip in ${m.label}'s charging steps: the peak at ${m.peaksV[start + j].toFixed(3)} V steps ${(steps[j] / steps[j - 1]).toFixed(2)} × the one before and ${(steps[j] / steps[j + 1]).toFixed(2)} × the one after (both < ${dipRatio}), whereas a level's charging steps fall one after another: a higher sub-level entered before the lower is full, counted as a charging peak`,
-            );
-          }
-        }
-        // 15. A rise in the charging steps inside a sub-group of three or more (a dip's rise is told above).
-        for (let j = 1; steps.length >= 3 && j < steps.length; j++) {
-          if (!dips.has(j - 1) && steps[j - 1] < dipRatio * steps[j]) {
-            add("charging-rise",
-              `shell filling with a rise in ${m.label}'s charging steps: the peak at ${m.peaksV[start + j].toFixed(3)} V steps ${(steps[j] / steps[j - 1]).toFixed(2)} × the one before (> 1/${dipRatio}), whereas a level's charging steps fall one after another: the peaks of two sub-levels (or a channel) may be counted as one level's`,
-            );
-          }
-        }
-      }
-    }
-    // 17. A sub-group of two whose second charging peak steps far more than its first.
-    for (const m of cb) {
-      for (const { start, size, indices } of subgroupSpans(m)) {
-        const [first, second] = indices.map((i) => peaks[i].stepA);
-        if (size === 2 && first > 0 && second >= pairRise * first) {
-          add("pair-rise",
-            `shell filling with ${m.label}'s charging peak at ${m.peaksV[start + 1].toFixed(3)} V stepping ${(second / first).toFixed(2)} × the one before it in a sub-group of two (≥ ${pairRise}), whereas a 2-state level's second charging peak steps r/(1 + r) < 1 × its first: another peak (a resonance through the substrate junction) may be merged with it and pull its position`,
-          );
-        }
-      }
-    }
-    // 16. Successive charging peaks of a sub-group spaced far from Ec.
-    for (const m of ecV !== null && ecV > 0 ? cb : []) {
-      for (const { start, size } of subgroupSpans(m)) {
-        for (let j = start + 1; j < start + size; j++) {
-          const gapV = m.peaksV[j] - m.peaksV[j - 1];
-          if (Math.abs(gapV - ecV!) > spacingTolerance * ecV!) {
-            add("off-ladder-spacing",
-              `shell filling with ${m.label}'s charging peaks at ${m.peaksV[j - 1].toFixed(3)} and ${m.peaksV[j].toFixed(3)} V ${(gapV * 1e3).toFixed(0)} mV apart, ${(gapV / ecV!).toFixed(2)} × Ec (${(ecV! * 1e3).toFixed(0)} mV; outside 1 ± ${spacingTolerance}), whereas successive charging peaks of one level lie one Ec apart: one of them may be another level's peak or a resonance`,
-            );
-          }
-        }
-      }
-    }
-  }
-  if (a.regime === "shell-tunneling") {
-    // 4. An even ladder of CB peaks.
-    // The CB's levels and satellites (the set-aside peaks include the VB's).
-    const indices = [...new Set([...cbIndices, ...a.evidence.satellitePeakIndices])];
-    const cbPeaks = indices.map((i) => peaks[i]).filter((p) => p.biasV > 0).sort((x, y) => x.biasV - y.biasV);
-    const even = evenLadder(cbPeaks, tolerance, sigmas);
-    // … or the levels after s, at least four: the charging ladder of a p level, s's satellite unseen.
-    const afterS = cbIndices.map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV).slice(1);
-    const evenAfterS = even || afterS.length < 4 ? null : evenLadder(afterS, tolerance, sigmas);
-    if (even || evenAfterS) {
-      const [run, spacings] = even ? [cbPeaks, even] : [afterS, evenAfterS!];
-      add("even-ladder", 
-        `shell tunnelling read from ${run.length} CB peaks${even ? "" : " after s"} whose ${spacings.length} spacings are alike (${spacings.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): an even ladder that a charging multiplet fits as well as single levels`,
-      );
-    }
-    // 10. A split shell whose sub-levels, with the satellites after them, form an even ladder.
-    cb.forEach((m, k) => {
-      if (m.found < 2) return;
-      const endV = cb[k + 1]?.peaksV[0] ?? Infinity;
-      const after = a.evidence.satellitePeakIndices.filter((i) => peaks[i].biasV > m.peaksV[0] && peaks[i].biasV < endV);
-      const run = [...new Set([...m.peakIndices, ...after])].map((i) => peaks[i]).sort((x, y) => x.biasV - y.biasV);
-      const ladder = evenLadder(run, tolerance, sigmas);
-      // The first satellite after the last sub-level, over the step of the peak before it.
-      const lastSub = run.indexOf(peaks[m.peakIndices[m.peakIndices.length - 1]]);
-      const next = run[lastSub + 1];
-      const stepRatio = next ? next.stepA / run[lastSub].stepA : 0;
-      if (!ladder || stepRatio < satelliteMin || stepRatio > satelliteMax) return;
-      add("split-ladder", 
-        `shell tunnelling with ${m.label} split into ${m.found} sub-levels that, with the ${after.length} peak(s) after them set aside as satellites (the first ${stepRatio.toFixed(2)} × the step before it, within ${satelliteMin}–${satelliteMax}: a charging peak of Γtip/Γsub no longer small), form an even ladder (${ladder.map((d) => (d * 1e3).toFixed(0)).join(", ")} mV, each within ${tolerance} of their mean or ${sigmas}σ): they may be one level's charging peaks`,
-      );
-    });
-    // 12. A satellite stepping nearly as much as the peak before it: a level's charging peak steps
-    //     less than the peak before it (as in 10), so it may be a level the rules did not count.
-    const firstCbV = cbPeaks.length ? Math.min(...cbIndices.map((i) => peaks[i].biasV)) : Infinity;
-    cbPeaks.forEach((p, j) => {
-      const i = peaks.indexOf(p);
-      if (j === 0 || p.biasV <= firstCbV || !a.evidence.satellitePeakIndices.includes(i) || p.stepA < satelliteMax * cbPeaks[j - 1].stepA) return;
-      add("strong-satellite", 
-        `shell tunnelling with the CB peak at ${p.biasV.toFixed(3)} V set aside as a charging satellite although it steps ${(p.stepA / cbPeaks[j - 1].stepA).toFixed(2)} × the peak before it (≥ ${satelliteMax}; a level's charging peak steps less): it may be a sub-level the rules did not count`,
-      );
-    });
-    // 14. A d level close after a p that steps like a sub-level: p's other sub-level?
-    const [sM, pM, dM] = ["s", "p", "d"].map((label) => cb.find((m) => m.label === label));
-    if (sM && pM && dM && pM.found > 0 && dM.found > 0) {
-      const sStep = peaks[sM.peakIndices[0]].stepA;
-      const pSteps = pM.peakIndices.map((i) => peaks[i].stepA);
-      const spV = pM.peaksV[0] - sM.peaksV[0];
-      const gapV = dM.peaksV[0] - pM.peaksV[pM.peaksV.length - 1];
-      const A = ASSIGN_DEFAULTS;
-      if (sStep > 0 && stepsShortOfP(sStep, pSteps) && gapV < A.tunnelingSublevelStepFraction * spV) {
-        add("d-near-split-p", 
-          `shell tunnelling with a d level ${(gapV * 1e3).toFixed(0)} mV after p's last, ${(gapV / spV).toFixed(2)} × the s→p distance (< ${A.tunnelingSublevelStepFraction}), while p's first level steps ${(pSteps[0] / sStep).toFixed(2)} × s (≤ ${A.tunnelingSublevelFirstStepMax}; a 2-state sub-level steps at most 1 ×, the whole p more deep in the regime): d may be p's other sub-level`,
-        );
-      }
-    }
-    // 7. More levels in a shell than it has spin pairs.
-    for (const m of cb) {
-      if (m.degeneracy !== null && m.found > m.degeneracy / 2) {
-        add("levels-over-pairs", `shell tunnelling with ${m.found} levels in ${m.label}, more than its ${m.degeneracy} states hold in spin pairs (${m.degeneracy / 2}): some may be charging peaks`);
-      }
-    }
-    const spV = a.quantities.levelSpacingSPV;
-    if (ecV !== null && ecV > 0) {
-      // 5. Δsp ≈ Ec: the satellite of s coincides with p.
-      if (spV !== null && Math.abs(spV - ecV) <= tolerance * ecV) {
-        add("satellite-at-p", `shell tunnelling with Δsp ${(spV * 1e3).toFixed(0)} mV within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV, from a charging satellite): s's charging peak coincides with p`);
-      }
-      // 6. Sub-levels one Ec apart.
-      for (const m of cb) {
-        const gaps = m.peaksV.slice(1).map((v, i) => v - m.peaksV[i]);
-        if (gaps.length && gaps.some((g) => Math.abs(g - ecV) <= tolerance * ecV)) {
-          add("sublevels-one-ec", `shell tunnelling with ${m.label} split into ${m.found} sub-levels, ${gaps.map((g) => (g * 1e3).toFixed(0)).join(", ")} mV apart, within ${tolerance} × Ec (${(ecV * 1e3).toFixed(0)} mV) of Ec: they may be ${m.label}'s charging peaks`);
-        }
-      }
-    }
-  }
-  // 18–20. A missing charging peak's place held by a peak set aside; CB peaks left unread.
-  for (const r of setAsidePeakReasons(peaks, a)) add(r.code, r.text);
-  // 21–22. A shell-filling layout no dot has: p below s, or Ec a large part of the gap.
-  for (const r of impossibleLayoutReasons(a)) add(r.code, r.text);
-  // 23–24. Steps too large for a charging ladder: a charging peak merged with another.
-  for (const r of mergedStepReasons(peaks, a)) add(r.code, r.text);
-  // 25–26. A charging ladder bent by a resonance, or read as single levels.
-  for (const r of hiddenLadderReasons(peaks, a)) add(r.code, r.text);
-  // 27. Shell filling read among second-junction resonances.
-  for (const r of resonantWindowReasons(peaks, a, input.biasRangeV)) add(r.code, r.text);
+  // The reasons come in this order (the order of the calls, not of the notes).
+  const limits = { tolerance, sigmas };
+  const reasonLists = [
+    stepRatioBandReasons(a, margin), // 2
+    shortShellReasons(peaks, a, toV, edgeFwhms), // 3
+    broadSatelliteReasons(peaks, a, broadRatio), // 8
+    twoCbPeakReasons(a), // 11
+    oddSubgroupReasons(a), // 13
+    chargingStepReasons(peaks, a, dipRatio), // 9 and 15
+    pairRiseReasons(peaks, a, pairRise), // 17
+    offLadderSpacingReasons(a, spacingTolerance), // 16
+    evenLadderReasons(peaks, a, limits), // 4
+    splitLadderReasons(peaks, a, limits, satelliteMin, satelliteMax), // 10
+    strongSatelliteReasons(peaks, a, satelliteMax), // 12
+    dNearSplitPReasons(peaks, a), // 14
+    levelsOverPairsReasons(a), // 7
+    ecSpacingReasons(a, tolerance), // 5 and 6
+    setAsidePeakReasons(peaks, a), // 18–20
+    impossibleLayoutReasons(a), // 21–22
+    mergedStepReasons(peaks, a), // 23–24
+    hiddenLadderReasons(peaks, a), // 25–26
+    resonantWindowReasons(peaks, a, input.biasRangeV), // 27
+  ];
+  for (const list of reasonLists) for (const r of list) add(r.code, r.text);
   return { decisive: reasons.length === 0, reasons, codes };
 }
 
-/**
- * The spacings of peaks (sorted by bias, at least three) when they form an even ladder: every
- * spacing within `tolerance` × their mean or `sigmas` combined standard errors of it; else null.
- */
-function evenLadder(sorted: readonly Pick<Peak, "biasV" | "biasUncertaintyV">[], tolerance: number, sigmas: number): number[] | null {
-  if (sorted.length < 3) return null;
-  const spacings = sorted.slice(1).map((p, i) => ({ v: p.biasV - sorted[i].biasV, sigma: Math.hypot(p.biasUncertaintyV, sorted[i].biasUncertaintyV) }));
-  const mean = spacings.reduce((s, d) => s + d.v, 0) / spacings.length;
-  return spacings.every((d) => Math.abs(d.v - mean) <= Math.max(tolerance * mean, sigmas * d.sigma)) ? spacings.map((d) => d.v) : null;
-}
-
-/** The median of a non-empty list (the mean of the middle pair for an even count). */
-function median(values: readonly number[]): number {
-  return medianInPlace(Float64Array.from(values));
-}
