@@ -12,11 +12,11 @@ import { stepRatioBandReasons, twoCbPeakReasons } from "./decisive/regimeEvidenc
 import { ecSpacingReasons, evenLadderReasons, splitLadderReasons } from "./decisive/tunnelingLadders.ts";
 import { dNearSplitPReasons, levelsOverPairsReasons } from "./decisive/tunnelingLevels.ts";
 import { broadSatelliteReasons, strongSatelliteReasons } from "./decisive/tunnelingSatellites.ts";
-import { setAsidePeakReasons } from "./setAsidePeaks.ts";
-import { impossibleLayoutReasons } from "./impossibleLayout.ts";
-import { mergedStepReasons } from "./mergedSteps.ts";
-import { hiddenLadderReasons } from "./hiddenLadders.ts";
-import { resonantWindowReasons } from "./resonantWindow.ts";
+import { setAsidePeakReasons } from "./decisive/setAsidePeaks.ts";
+import { impossibleLayoutReasons } from "./decisive/impossibleLayout.ts";
+import { mergedStepReasons } from "./decisive/mergedSteps.ts";
+import { hiddenLadderReasons } from "./decisive/hiddenLadders.ts";
+import { resonantWindowReasons } from "./decisive/resonantWindow.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -197,8 +197,8 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * Notes
  * -----
  * No fitting: a few comparisons on the peaks, microseconds per curve. Not decisive when any of
- * the following holds. Each test is a function of a module in decisive/ (of this folder) or beside
- * this one, whose notes give its reasoning and the benchmark figures that chose its limit.
+ * the following holds. Each test is a function of a module in decisive/ (of this folder), whose
+ * notes give its reasoning and the benchmark figures that chose its limit.
  * 1. The regime is undetermined.
  * 2. The s doublet's second CB step over its first (`evidence.secondToFirstStepRatio`) lies within
  *    the crossover band r/(1 + r) for Γtip/Γsub between 3/7 and 1.5 (0.3–0.6, `REGIME_LIMITS`)
@@ -245,7 +245,7 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  * 17. Shell filling with a sub-group of two charging peaks whose second steps at least
  *    `pairRiseRatio` × its first (`pairRiseReasons`, decisive/fillingSteps.ts).
  * 18–20. The peaks the rules set aside (in no multiplet) or left unread, `setAsidePeakReasons`
- *    (setAsidePeaks.ts, its defaults `SET_ASIDE_PEAK_DEFAULTS`; one level's charging peaks lie one
+ *    (decisive/setAsidePeaks.ts, its defaults `SET_ASIDE_PEAK_DEFAULTS`; one level's charging peaks lie one
  *    Ec apart in bias). 18: shell filling with a shell after s short of its degeneracy while a
  *    set-aside peak stepping at least (`missingPeakStepMin`) 1 × its first charging peak lies one
  *    Ec (± `missingPeakTolerance` 0.175 × Ec) before that peak: that peak, taken for the resonance
@@ -269,7 +269,7 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    peak list, so the set-aside peak's own step tells nothing (2026-12-05: it then sends 1168
  *    alone of the 1000 low-η shell-filling draws of seeds 1 … 4001, the fit right on it, and none
  *    on the default mix seeds 1 and 1001, the crossover seed 1 or the cut window seed 1).
- * 21–22. A shell-filling layout no dot has, `impossibleLayoutReasons` (impossibleLayout.ts, its
+ * 21–22. A shell-filling layout no dot has, `impossibleLayoutReasons` (decisive/impossibleLayout.ts, its
  *    defaults `IMPOSSIBLE_LAYOUT_DEFAULTS`). 21: Δsp (`quantities.levelSpacingSPV`) below zero, p
  *    below s; 22: Ec above (`maxChargingFractionOfGap`) 0.25 × the single-particle gap (common
  *    practice, no source: Ec is a tenth of the gap or so). Both are what the rules give when s's
@@ -281,7 +281,7 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    stays poor on all of them (unmodelled resonances, no grouping with s's first peak unseen) and
  *    the rules' reading stands. On the default mix, the cut window and the crossover they send none.
  * 23–24. Shell filling with a step too large for the charging ladder, `mergedStepReasons`
- *    (mergedSteps.ts, its defaults `MERGED_STEP_DEFAULTS`). 23: a CB sub-group whose second
+ *    (decisive/mergedSteps.ts, its defaults `MERGED_STEP_DEFAULTS`). 23: a CB sub-group whose second
  *    charging step is below (`subgroupFallRatio`) 0.35 × its first (a level's is at least
  *    r/(1 + r) ≥ 0.6 × in shell filling): the first peak carries a resonance's step, which pulls
  *    its position, or is that resonance alone. 24: a peak set aside one Ec (± 0.175 × Ec) before
@@ -293,11 +293,11 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    2134 and 2182 (seed 2001) alone, the fit right on 2182 and giving no answer on 2134. On the
  *    default mix seed 1 and the crossover seed 1 they send none (23 sends 12 passing filling spectra
  *    of the default mix seed 1001 and the crossover seeds 1001, 3001 and 4001: all kept right).
- * 25–26. A charging ladder bent or hidden, `hiddenLadderReasons` (hiddenLadders.ts, its defaults
+ * 25–26. A charging ladder bent or hidden, `hiddenLadderReasons` (decisive/hiddenLadders.ts, its defaults
  *    `HIDDEN_LADDER_DEFAULTS`, its notes give the figures). 25: a CB charging peak kept under a
  *    resonance, off its sub-group's ladder; 26: shell tunnelling with VB levels in charging pairs.
  * 27. Shell filling read among second-junction resonances, `resonantWindowReasons`
- *    (resonantWindow.ts): η given and below 1, and a peak set aside as a resonance or a multiplet
+ *    (decisive/resonantWindow.ts): η given and below 1, and a peak set aside as a resonance or a multiplet
  *    peak's resonance −η·V/(1 − η) inside the window. The rules' grouping of a charging ladder
  *    there rests on which peaks they set aside; the model holds the resonances.
  *

@@ -2,10 +2,10 @@
  * A test of `rulesDecisive` (its note 27): a shell-filling reading made among second-junction
  * resonances, where the rules' grouping of charging peaks is never safe enough to stand unfitted.
  */
-import type { Peak } from "../peaks/findPeaks.ts";
-import { checkFinite, checkRange } from "../util/check.ts";
-import type { Assignment } from "./assignSpectrum.ts";
-import type { Multiplet } from "./multiplets.ts";
+import type { Peak } from "../../peaks/findPeaks.ts";
+import { checkFinite, checkRange } from "../../util/check.ts";
+import type { Assignment } from "../assignSpectrum.ts";
+import type { Multiplet } from "../multiplets.ts";
 
 /** The code of {@link resonantWindowReasons}, note 27 of `rulesDecisive`. */
 export type ResonantWindowCode = "resonant-window";

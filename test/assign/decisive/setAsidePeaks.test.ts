@@ -4,12 +4,12 @@
 // give: which peaks form which multiplet, which are set aside) so that each case isolates one
 // note; the thresholds are SET_ASIDE_PEAK_DEFAULTS (chosen on the accuracy benchmark).
 import { describe, expect, it } from "vitest";
-import { rulesDecisive } from "../../lib/assign/rulesDecisive.ts";
-import { setAsidePeakReasons, SET_ASIDE_PEAK_DEFAULTS, type SetAsidePeakAssignment } from "../../lib/assign/setAsidePeaks.ts";
-import type { Peak } from "../../lib/peaks/findPeaks.ts";
-import { assignPeak } from "../helpers/assignPeak.ts";
-import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
-import { expectError } from "../helpers/errors.ts";
+import { rulesDecisive } from "../../../lib/assign/rulesDecisive.ts";
+import { setAsidePeakReasons, SET_ASIDE_PEAK_DEFAULTS, type SetAsidePeakAssignment } from "../../../lib/assign/decisive/setAsidePeaks.ts";
+import type { Peak } from "../../../lib/peaks/findPeaks.ts";
+import { assignPeak } from "../../helpers/assignPeak.ts";
+import { expectDocumentedDefaults } from "../../helpers/documentedDefaults.ts";
+import { expectError } from "../../helpers/errors.ts";
 
 // ε_s = 0.5, ε_p = 0.8 eV (CB); Ec = 0.1 eV; η = 0.8: s at n = 0, 1, p at n = 2 … 7.
 const eta = 0.8, ec = 0.1;
@@ -47,7 +47,7 @@ function reading(
 describe("setAsidePeakReasons(peaks, assignment, options)", () => {
   it("SET_ASIDE_PEAK_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(SET_ASIDE_PEAK_DEFAULTS).toEqual({ missingPeakTolerance: 0.175, missingPeakStepMin: 1, unreadPeaksMin: 1, overlapFwhms: 1 });
-    expectDocumentedDefaults(new URL("../../lib/assign/setAsidePeaks.ts", import.meta.url), "SetAsidePeakOptions", SET_ASIDE_PEAK_DEFAULTS);
+    expectDocumentedDefaults(new URL("../../../lib/assign/decisive/setAsidePeaks.ts", import.meta.url), "SetAsidePeakOptions", SET_ASIDE_PEAK_DEFAULTS);
   });
 
   it("note 18: flags a p read from its second charging peak while its first, one Ec before, was set aside; not when p is whole, the peak lies 0.7 Ec before, or it steps like a charging satellite", () => {

@@ -3,8 +3,8 @@
 // junction, orthodox theory; D. V. Averin and K. K. Likharev, in Mesoscopic Phenomena in Solids,
 // Elsevier 1991). Each position below is derived from it by hand.
 import { describe, expect, it } from "vitest";
-import { resonantWindowReasons, type ResonantWindowAssignment } from "../../lib/assign/resonantWindow.ts";
-import { expectError } from "../helpers/errors.ts";
+import { resonantWindowReasons, type ResonantWindowAssignment } from "../../../lib/assign/decisive/resonantWindow.ts";
+import { expectError } from "../../helpers/errors.ts";
 
 /** A shell-filling reading of the given peaks (all in one multiplet), η given, nothing set aside. */
 const reading = (n: number, eta: number, over: Partial<ResonantWindowAssignment> = {}): ResonantWindowAssignment => ({

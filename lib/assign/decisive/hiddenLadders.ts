@@ -3,11 +3,11 @@
  * bends or hides: a charging peak kept under a resonance that lies off its sub-group's ladder, and
  * VB peaks read as single levels that come in charging pairs.
  */
-import type { Peak } from "../peaks/findPeaks.ts";
-import { checkRange } from "../util/check.ts";
-import { medianInPlace } from "../util/medianInPlace.ts";
-import type { Assignment } from "./assignSpectrum.ts";
-import { subgroupSpans, type Multiplet } from "./multiplets.ts";
+import type { Peak } from "../../peaks/findPeaks.ts";
+import { checkRange } from "../../util/check.ts";
+import { medianInPlace } from "../../util/medianInPlace.ts";
+import type { Assignment } from "../assignSpectrum.ts";
+import { subgroupSpans, type Multiplet } from "../multiplets.ts";
 
 /** Options of {@link hiddenLadderReasons}; every field optional (defaults in {@link HIDDEN_LADDER_DEFAULTS}). */
 export interface HiddenLadderOptions {
@@ -27,7 +27,7 @@ export interface HiddenLadderOptions {
   pairGapRatioMax?: number;
 }
 
-/** Defaults of {@link hiddenLadderReasons} (locked by test/assign/hiddenLadders.test.ts). */
+/** Defaults of {@link hiddenLadderReasons} (locked by test/assign/decisive/hiddenLadders.test.ts). */
 export const HIDDEN_LADDER_DEFAULTS = Object.freeze({
   /**
    * A kept charging peak further than this fraction of its sub-group's spacing from its place on

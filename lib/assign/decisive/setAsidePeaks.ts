@@ -3,11 +3,11 @@
  * unread: a filling shell whose missing charging peak would sit where the rules set a peak aside,
  * and a tunnelling reading that leaves CB peaks beyond its last level unread.
  */
-import type { Peak } from "../peaks/findPeaks.ts";
-import { checkRange } from "../util/check.ts";
-import type { Assignment } from "./assignSpectrum.ts";
-import type { Multiplet } from "./multiplets.ts";
-import { peakRoles } from "./peakMultiplets.ts";
+import type { Peak } from "../../peaks/findPeaks.ts";
+import { checkRange } from "../../util/check.ts";
+import type { Assignment } from "../assignSpectrum.ts";
+import type { Multiplet } from "../multiplets.ts";
+import { peakRoles } from "../peakMultiplets.ts";
 
 /** Options of {@link setAsidePeakReasons}; every field optional (defaults in {@link SET_ASIDE_PEAK_DEFAULTS}). */
 export interface SetAsidePeakOptions {
@@ -35,7 +35,7 @@ export interface SetAsidePeakOptions {
   overlapFwhms?: number;
 }
 
-/** Defaults of {@link setAsidePeakReasons} (locked by test/assign/setAsidePeaks.test.ts). */
+/** Defaults of {@link setAsidePeakReasons} (locked by test/assign/decisive/setAsidePeaks.test.ts). */
 export const SET_ASIDE_PEAK_DEFAULTS = Object.freeze({
   /**
    * A set-aside peak within this fraction of Ec of a missing charging peak's place lies there; a

@@ -3,11 +3,11 @@
  * charging ladder: a charging peak merged with another peak (its position pulled, or not the
  * level's at all), and a band's first charging peak merged with a resonance and set aside as it.
  */
-import type { Peak } from "../peaks/findPeaks.ts";
-import { checkRange } from "../util/check.ts";
-import type { Assignment } from "./assignSpectrum.ts";
-import { subgroupSpans, type Multiplet } from "./multiplets.ts";
-import { peakRoles } from "./peakMultiplets.ts";
+import type { Peak } from "../../peaks/findPeaks.ts";
+import { checkRange } from "../../util/check.ts";
+import type { Assignment } from "../assignSpectrum.ts";
+import { subgroupSpans, type Multiplet } from "../multiplets.ts";
+import { peakRoles } from "../peakMultiplets.ts";
 
 /** Options of {@link mergedStepReasons}; every field optional (defaults in {@link MERGED_STEP_DEFAULTS}). */
 export interface MergedStepOptions {
@@ -30,7 +30,7 @@ export interface MergedStepOptions {
   edgePeakStepMin?: number;
 }
 
-/** Defaults of {@link mergedStepReasons} (locked by test/assign/mergedSteps.test.ts). */
+/** Defaults of {@link mergedStepReasons} (locked by test/assign/decisive/mergedSteps.test.ts). */
 export const MERGED_STEP_DEFAULTS = Object.freeze({
   /**
    * A sub-group's second charging step below this fraction of its first: the first holds another

@@ -2,8 +2,8 @@
  * Two tests of `rulesDecisive` (its notes 21 and 22) on the layout a shell-filling reading
  * implies: an s–p spacing below zero, and a charging energy that is a large part of the gap.
  */
-import { checkRange } from "../util/check.ts";
-import type { Assignment } from "./assignSpectrum.ts";
+import { checkRange } from "../../util/check.ts";
+import type { Assignment } from "../assignSpectrum.ts";
 
 /** Options of {@link impossibleLayoutReasons}; every field optional (defaults in {@link IMPOSSIBLE_LAYOUT_DEFAULTS}). */
 export interface ImpossibleLayoutOptions {
@@ -14,7 +14,7 @@ export interface ImpossibleLayoutOptions {
   maxChargingFractionOfGap?: number;
 }
 
-/** Defaults of {@link impossibleLayoutReasons} (locked by test/assign/impossibleLayout.test.ts). */
+/** Defaults of {@link impossibleLayoutReasons} (locked by test/assign/decisive/impossibleLayout.test.ts). */
 export const IMPOSSIBLE_LAYOUT_DEFAULTS = Object.freeze({
   /**
    * Ec above this fraction of the single-particle gap is a layout no few-nm dot has (common

@@ -7,11 +7,11 @@
 // assignments are written out by hand (the reading the rules would give), so that each case isolates
 // one note; the thresholds are HIDDEN_LADDER_DEFAULTS (chosen on the accuracy benchmark).
 import { describe, expect, it } from "vitest";
-import { hiddenLadderReasons, HIDDEN_LADDER_DEFAULTS, type HiddenLadderAssignment } from "../../lib/assign/hiddenLadders.ts";
-import { rulesDecisive } from "../../lib/assign/rulesDecisive.ts";
-import { assignPeak } from "../helpers/assignPeak.ts";
-import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
-import { expectError } from "../helpers/errors.ts";
+import { hiddenLadderReasons, HIDDEN_LADDER_DEFAULTS, type HiddenLadderAssignment } from "../../../lib/assign/decisive/hiddenLadders.ts";
+import { rulesDecisive } from "../../../lib/assign/rulesDecisive.ts";
+import { assignPeak } from "../../helpers/assignPeak.ts";
+import { expectDocumentedDefaults } from "../../helpers/documentedDefaults.ts";
+import { expectError } from "../../helpers/errors.ts";
 
 // ε_p = 0.8 eV (one 6-state level), Ec = 0.1 eV, η = 0.8: p's charging peaks at (0.8 + 0.1(n + ½))/0.8,
 // n = 2 … 7 (s holds two), 0.125 V apart: 1.3125, 1.4375, …, 1.9375 V.
@@ -36,7 +36,7 @@ describe("hiddenLadderReasons(peaks, assignment, options)", () => {
   it("HIDDEN_LADDER_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(HIDDEN_LADDER_DEFAULTS).toEqual({ pulledPeakTolerance: 0.16, pairSpacingTolerance: 0.1, pairGapRatioMax: 0.6 });
     expect(Object.isFrozen(HIDDEN_LADDER_DEFAULTS)).toBe(true);
-    expectDocumentedDefaults(new URL("../../lib/assign/hiddenLadders.ts", import.meta.url), "HiddenLadderOptions", HIDDEN_LADDER_DEFAULTS);
+    expectDocumentedDefaults(new URL("../../../lib/assign/decisive/hiddenLadders.ts", import.meta.url), "HiddenLadderOptions", HIDDEN_LADDER_DEFAULTS);
   });
 
   it("note 25: flags p's first charging peak kept under a resonance and pulled 30 mV low (0.24 of the 125 mV spacing); not 10 mV (0.08), nor a pulled peak not kept under a resonance", () => {

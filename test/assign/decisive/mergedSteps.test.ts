@@ -8,12 +8,12 @@
 // each case isolates one note; the thresholds are MERGED_STEP_DEFAULTS (chosen on the accuracy
 // benchmark).
 import { describe, expect, it } from "vitest";
-import { mergedStepReasons, MERGED_STEP_DEFAULTS, type MergedStepAssignment } from "../../lib/assign/mergedSteps.ts";
-import { rulesDecisive } from "../../lib/assign/rulesDecisive.ts";
-import type { Peak } from "../../lib/peaks/findPeaks.ts";
-import { assignPeak } from "../helpers/assignPeak.ts";
-import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
-import { expectError } from "../helpers/errors.ts";
+import { mergedStepReasons, MERGED_STEP_DEFAULTS, type MergedStepAssignment } from "../../../lib/assign/decisive/mergedSteps.ts";
+import { rulesDecisive } from "../../../lib/assign/rulesDecisive.ts";
+import type { Peak } from "../../../lib/peaks/findPeaks.ts";
+import { assignPeak } from "../../helpers/assignPeak.ts";
+import { expectDocumentedDefaults } from "../../helpers/documentedDefaults.ts";
+import { expectError } from "../../helpers/errors.ts";
 
 // ε_s = 0.5, ε_v = −0.6 eV; Ec = 0.1 eV; η = 0.8: s at n = 0, 1; the VB's first level at n = 0, 1.
 const eta = 0.8, ec = 0.1;
@@ -45,7 +45,7 @@ describe("mergedStepReasons(peaks, assignment, options)", () => {
   it("MERGED_STEP_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(MERGED_STEP_DEFAULTS).toEqual({ subgroupFallRatio: 0.35, edgePeakTolerance: 0.175, edgePeakStepMin: 2 });
     expect(Object.isFrozen(MERGED_STEP_DEFAULTS)).toBe(true);
-    expectDocumentedDefaults(new URL("../../lib/assign/mergedSteps.ts", import.meta.url), "MergedStepOptions", MERGED_STEP_DEFAULTS);
+    expectDocumentedDefaults(new URL("../../../lib/assign/decisive/mergedSteps.ts", import.meta.url), "MergedStepOptions", MERGED_STEP_DEFAULTS);
   });
 
   it("says nothing of a clean 2-state level (second step r/(1 + r) = 0.75 × the first) nor of shell tunnelling", () => {

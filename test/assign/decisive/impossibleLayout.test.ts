@@ -6,13 +6,13 @@
 // first, Ec the mean spacing inside the multiplets). Note 21 follows from the level order (p above
 // s); note 22's limit, Ec ≤ 0.25 × the single-particle gap, is common practice (no source).
 import { describe, expect, it } from "vitest";
-import { impossibleLayoutReasons, IMPOSSIBLE_LAYOUT_DEFAULTS } from "../../lib/assign/impossibleLayout.ts";
-import { spectrumQuantities } from "../../lib/assign/quantities.ts";
-import { rulesDecisive } from "../../lib/assign/rulesDecisive.ts";
-import type { Peak } from "../../lib/peaks/findPeaks.ts";
-import { assignPeak } from "../helpers/assignPeak.ts";
-import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
-import { expectError } from "../helpers/errors.ts";
+import { impossibleLayoutReasons, IMPOSSIBLE_LAYOUT_DEFAULTS } from "../../../lib/assign/decisive/impossibleLayout.ts";
+import { spectrumQuantities } from "../../../lib/assign/quantities.ts";
+import { rulesDecisive } from "../../../lib/assign/rulesDecisive.ts";
+import type { Peak } from "../../../lib/peaks/findPeaks.ts";
+import { assignPeak } from "../../helpers/assignPeak.ts";
+import { expectDocumentedDefaults } from "../../helpers/documentedDefaults.ts";
+import { expectError } from "../../helpers/errors.ts";
 
 // ε_s = 0.5, ε_p = 0.8, ε_v = −0.6 eV; Ec = 0.1 eV; η = 0.8: s at n = 0, 1, p at n = 2 … 7, v at n = 0.
 const eta = 0.8, ec = 0.1;
@@ -33,7 +33,7 @@ describe("impossibleLayoutReasons(assignment, options)", () => {
   it("IMPOSSIBLE_LAYOUT_DEFAULTS are locked, frozen and match the documented defaults", () => {
     expect(IMPOSSIBLE_LAYOUT_DEFAULTS).toEqual({ maxChargingFractionOfGap: 0.25 });
     expect(Object.isFrozen(IMPOSSIBLE_LAYOUT_DEFAULTS)).toBe(true);
-    expectDocumentedDefaults(new URL("../../lib/assign/impossibleLayout.ts", import.meta.url), "ImpossibleLayoutOptions", IMPOSSIBLE_LAYOUT_DEFAULTS);
+    expectDocumentedDefaults(new URL("../../../lib/assign/decisive/impossibleLayout.ts", import.meta.url), "ImpossibleLayoutOptions", IMPOSSIBLE_LAYOUT_DEFAULTS);
   });
 
   it("says nothing of the right reading (Δsp 0.3 eV, Ec a tenth of the gap) nor of shell tunnelling", () => {
