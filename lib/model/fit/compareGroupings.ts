@@ -4,7 +4,7 @@
  * reading of the VB peaks until one is plausible.
  */
 import type { FitHypothesis } from "./fitHypotheses.ts";
-import type { FitRun } from "./fitRunner.ts";
+import { continueRun, type FitRun } from "./fitRunner.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
 import type { FIT_DEFAULTS } from "./fitDefaults.ts";
 import { startingValues } from "./startingValues.ts";
@@ -224,8 +224,8 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
     const bestHalf = Math.min(bestBefore, ...out.map(reduced));
     out.forEach((t, i) => {
       if (explore <= half || t.loop.converged || reduced(t) > F.exploreDropRatio * bestHalf) return;
-      const more = run(t.hypothesis, null, explore - half, t.loop.parameters, cbSide);
-      out[i] = { ...more, rateRatio0: t.rateRatio0, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
+      const more = continueRun(run, t, explore - half, cbSide);
+      out[i] = { ...more, loop: { ...more.loop, iterations: t.loop.iterations + more.loop.iterations } };
     });
     return out;
   };
@@ -256,7 +256,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
   }
   trials.push(...explored);
   const ranked = [...bestOf.values()].sort((x, y) => x.bic - y.bic).slice(0, F.finishedHypotheses);
-  const cbFinals = ranked.map((t) => ({ ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 }));
+  const cbFinals = ranked.map((t) => continueRun(run, t, maxIterations, cbSide));
   trials.push(...cbFinals);
   // A grouping that settles well above the noise may be one Ec off (its first charging peak
   // weak and unseen, or one too many): the same grouping from every CB start shifted by ∓Ec.
@@ -301,11 +301,11 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
       const hv: FitHypothesis = { ...h, seeds: [...cbDone.hypothesis.seeds, ...vb] };
       const vbStart = startingValues(hv.analysis, hv.seeds, eta, guessEC, { chargingEnergyEV, rateRatioLog10: h.rateRatioStartLog10 }).initialValues;
       const from = [...p.slice(0, ncb), ...vbStart.slice(ncb, ncb + vb.length), ...p.slice(ncb)];
-      let full = { ...run(hv, null, maxIterations, from), rateRatio0: cbDone.rateRatio0 };
+      let full = continueRun(run, cbDone, maxIterations, undefined, { hypothesis: hv, from });
       // From another Ec start, a level that ended on the edge of its reach runs on with the reach
       // centred on the fitted levels (note 7).
       for (let k = 0; ecStartEV !== undefined && k < WHOLE_CURVE_RESTART_DEFAULTS.reachRecentrings && reduced(full) <= F.poorFitChiSquare && levelAtReachEdge(full.loop.parameters, full.start, hv.seeds.length); k++) {
-        const on = { ...run({ ...hv, seeds: recentredSeeds(hv.seeds, full.loop.parameters.slice(0, hv.seeds.length), eta, ecStartEV) }, null, maxIterations, full.loop.parameters), rateRatio0: cbDone.rateRatio0 };
+        const on = continueRun(run, cbDone, maxIterations, undefined, { hypothesis: { ...hv, seeds: recentredSeeds(hv.seeds, full.loop.parameters.slice(0, hv.seeds.length), eta, ecStartEV) }, from: full.loop.parameters });
         if (!(on.loop.chiSquare < full.loop.chiSquare)) break;
         full = on;
       }
@@ -366,7 +366,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
     // None plausible on the CB side: the next groupings explored, finished, until one is (notes 6).
     const done = new Set(ranked.map((t) => t.hypothesis));
     for (const t of [...bestOf.values()].sort((x, y) => x.bic - y.bic).filter((x) => !done.has(x.hypothesis)).slice(0, F.finishedHypotheses)) {
-      const c = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 };
+      const c = continueRun(run, t, maxIterations, cbSide);
       trials.push(c);
       finals.push(c);
       if (decides(c)) break;

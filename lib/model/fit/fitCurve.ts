@@ -13,7 +13,7 @@ import type { bandStepsMemo } from "./bandStepsMemo.ts";
 import type { ladderSolveWork } from "./solveWork.ts";
 import type { heldShellLevels, heldValenceLevels } from "./heldValenceLevels.ts";
 import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
-import { fitRunner } from "./fitRunner.ts";
+import { continueRun, fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
 import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
@@ -341,7 +341,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     for (const logRatio of F.rateRatioStartsLog10.filter((l) => Math.abs(l - startLog0) >= 0.5)) trials.push(run(hypotheses[0], logRatio, explore));
     const bestStart = trials.reduce((x, y) => (y.bic < x.bic ? y : x));
     if (bestStart !== assignedTrial) {
-      const done = { ...run(hypotheses[0], null, maxIterations, bestStart.loop.parameters), rateRatio0: bestStart.rateRatio0 };
+      const done = continueRun(run, bestStart, maxIterations, undefined, { hypothesis: hypotheses[0] });
       trials.push(done);
       finals.push(done);
     }
@@ -430,7 +430,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const retied = whole && wholeFitOf && !blindWholeBic ? tiedWholeChoice({ winner, whole, plausible, wholeOf, cbSideOf, wholeFitOf, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, describes, acceptable: (w, cb) => wholePlausibility(w, cb).length === 0 }) : null;
   if (retied) (warnings.push(retied.note), ([winner, whole] = [retied.cb, retied.whole]));
   // A rival whose CB-side χ² ties with the winner's, behind by its parameter penalty alone, goes to the whole curve ({@link penaltyTiedWholeChoice}); the two then weighed by their whole-curve BICs.
-  const finish = (t: FitTrial) => (t.finished ? t : (trials.push((t = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters, cbSide), rateRatio0: t.rateRatio0 })), t));
+  const finish = (t: FitTrial) => (t.finished ? t : (trials.push((t = continueRun(run, t, maxIterations, cbSide))), t));
   const carried = whole && wholeFitOf && !blindWholeBic && !retied ? penaltyTiedWholeChoice({ winner, whole, trials, finish, plausible: (t) => plausibilityOf(t).length === 0, wholeOf, cbSideOf, wholeFitOf, describes, reduced, wholeCurveChiSquare: F.wholeCurveChiSquare, acceptable: (w, cb) => wholePlausibility(w, cb).length === 0 }) : null;
   if (carried) (warnings.push(carried.note), finalists.push(carried.cb), plausible.push(carried.cb), (blindWholeBic = new Map([[winner, whole!.bic], [carried.cb, carried.whole.bic]])), ([winner, whole] = [carried.cb, carried.whole]));
   // At η < 1, p split on the whole curve (note 5): about the best whole-curve fit where none describes the curve ({@link wholeCurveSplits}; else the VB level of four entered later, {@link laterEntryWholeFits}, or an s peak unseen, {@link unseenSPeakWholeFits}, or a CB peak a resonance, {@link droppedPeakWholeFits}, or an Ec start from a grid, {@link ecGridWholeFits}, or the ladders matched among resonances, {@link mergedPeakWholeFits}, each while at most its maxBudgetSpent of the work budget is spent), about the winner's where it does but leaves residual structure ({@link structuredWholeSplit}); a split found wins.

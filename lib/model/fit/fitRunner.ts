@@ -241,3 +241,55 @@ export function fitRunner(analysis: CurveAnalysis, settings: FitRunnerSettings):
   const reduced = (t: FitTrial) => t.loop.chiSquare / Math.max(1, t.n - t.k);
   return { all, cbSide, noiseA, run, search, projectorOf, bandStore, currentOf, reduced, work: () => ({ evaluations, eliminationSteps: bandStore.work.eliminationSteps, stoppedBy, budgetPart, searchStopped }) };
 }
+
+/** What {@link continueRun} changes of the run it continues; every field optional. */
+export interface ContinueRunChange {
+  /** The hypothesis to run (default the continued run's). */
+  hypothesis?: FitHypothesis;
+  /** The parameters to start from (default the continued run's fitted parameters). */
+  from?: number[];
+  /** Indices of parameters kept at their start (default none). */
+  held?: readonly number[];
+}
+
+/**
+ * Continues a run (an explored one, mostly, to the full iteration budget): a run from the
+ * continued run's fitted parameters (or from values made of them) that keeps its `rateRatio0`,
+ * the rate ratio the search started from, rather than the one it reached.
+ *
+ * Parameters
+ * ----------
+ * run : FitRun
+ *     The run function ({@link fitRunner}'s `run` or `search`).
+ * explored : FitTrial
+ *     The run continued: its hypothesis, fitted parameters and `rateRatio0`.
+ * iterations : number
+ *     Iterations of the new run.
+ * set : DataSet, optional
+ *     The points fitted (default the whole curve, as `run`'s).
+ * change : ContinueRunChange, optional
+ *     Another hypothesis, start or held parameters (defaults: the continued run's hypothesis and
+ *     fitted parameters, nothing held).
+ *
+ * Returns
+ * -------
+ * FitTrial
+ *     The new run, its `rateRatio0` that of `explored`.
+ *
+ * Notes
+ * -----
+ * A run from given parameters records the rate ratio of those parameters as its start
+ * (`rateRatio0`); the trial it continues started elsewhere, and the fit's record names the start
+ * of the search (`rateRatioStart`), so the continued run carries the first run's.
+ *
+ * Example
+ * -------
+ * ```ts
+ * const explored = run(hypothesis, -1, 20);
+ * continueRun(run, explored, 200).rateRatio0 === explored.rateRatio0; // => true
+ * ```
+ */
+export function continueRun(run: FitRun, explored: FitTrial, iterations: number, set?: DataSet, change: ContinueRunChange = {}): FitTrial {
+  const from = change.from ?? explored.loop.parameters;
+  return { ...run(change.hypothesis ?? explored.hypothesis, null, iterations, from, set, change.held), rateRatio0: explored.rateRatio0 };
+}

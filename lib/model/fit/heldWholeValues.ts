@@ -7,7 +7,7 @@
 import { parameterIndex } from "./parameterModel.ts";
 import { FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
 import { trialErrors, type TrialErrors } from "./trialErrors.ts";
-import type { FitRun } from "./fitRunner.ts";
+import { continueRun, type FitRun } from "./fitRunner.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
 import type { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -88,7 +88,7 @@ export function heldWholeValues(input: HeldWholeInput): HeldWholeResult {
   const from = [...whole.loop.parameters];
   from[atW.chargingEnergy] = ecC;
   from[atW.logRateRatio] = winner.loop.parameters[atC.logRateRatio];
-  const held = { ...run(whole.hypothesis, null, maxIterations, from, all, [atW.chargingEnergy, atW.logRateRatio]), rateRatio0: whole.rateRatio0 };
+  const held = continueRun(run, whole, maxIterations, all, { from, held: [atW.chargingEnergy, atW.logRateRatio] });
   trials.push(held);
   const moves = [`Ec from ${(ecC * 1000).toFixed(1)} meV (CB side) to ${(ecW * 1000).toFixed(1)} meV, ${z[0].toFixed(1)}`, `Γtip/Γsub from ${rC.toPrecision(3)} (CB side) to ${rW.toPrecision(3)}, ${z[1].toFixed(1)}`];
   const moved = `the whole-curve fit moved ${moves.filter((_, i) => z[i] > F.wholeCurveEcSigmas).join(" and ")} combined standard errors (> ${F.wholeCurveEcSigmas})`;

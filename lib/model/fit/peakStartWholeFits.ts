@@ -8,6 +8,7 @@
  */
 import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
+import { continueRun } from "./fitRunner.ts";
 import { seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { finishBest, type WholeCurveSplitContext } from "./wholeCurveSplits.ts";
 import { stateCount } from "../scenario.ts";
@@ -96,10 +97,10 @@ export function peakStartWholeFits(context: PeakStartWholeContext, settings = PE
     const heldVb = recentredSeeds(w.hypothesis.seeds.slice(nw), w.loop.parameters.slice(nw, at), context.eta, w.loop.parameters[at]);
     const hc: FitHypothesis = { ...w.hypothesis, seeds: w.hypothesis.seeds.slice(0, nw), vbReadings: [[]], heldVb };
     const from = [...w.loop.parameters.slice(0, nw), ...w.loop.parameters.slice(at, at + 3)];
-    const free = { ...run(hc, null, context.maxIterations, from, context.cbSide), rateRatio0: w.rateRatio0 };
+    const free = continueRun(run, w, context.maxIterations, context.cbSide, { hypothesis: hc, from });
     trials.push(free);
     // A CB side blind to p may run Γtip/Γsub onto a bound: Ec and Γtip/Γsub held at the whole curve's (note 2).
-    const cb = context.acceptable(w, free) ? free : { ...run(hc, null, context.maxIterations, from, context.cbSide, [nw, nw + 1]), rateRatio0: w.rateRatio0 };
+    const cb = context.acceptable(w, free) ? free : continueRun(run, w, context.maxIterations, context.cbSide, { hypothesis: hc, from, held: [nw, nw + 1] });
     if (cb !== free) trials.push(cb);
     if (cb !== free && !context.describes(cb)) continue;
     if (context.acceptable(w, cb)) return { cb, whole: w };

@@ -7,6 +7,7 @@ import type { FitTrial } from "./fitTrial.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { refinementStarts } from "./refinementStarts.ts";
 import { splitGridStarts } from "./splitGridStarts.ts";
+import { continueRun } from "./fitRunner.ts";
 
 /** Constants of {@link refineGrouping} (locked by test/model/fit/refineGrouping.test.ts). */
 export const REFINE_GROUPING_DEFAULTS = Object.freeze({
@@ -103,7 +104,7 @@ export function refineGrouping(top: FitTrial, context: RefineContext): FitTrial 
   // iterations may settle behind another), and the best finished one is kept if below top's.
   let best: FitTrial | null = null;
   for (const t of explored.filter((x) => x.bic < top.bic).sort((x, y) => x.bic - y.bic).slice(0, REFINE_GROUPING_DEFAULTS.finishedStarts)) {
-    const done = { ...context.run(t.hypothesis, context.maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
+    const done = continueRun((h, _logRatio0, iterations, from) => context.run(h, iterations, from), t, context.maxIterations);
     trials.push(done);
     if (!best || done.bic < best.bic) best = done;
   }

@@ -7,6 +7,7 @@ import type { FitTrial } from "./fitTrial.ts";
 import type { LevelSeed } from "./levelsToFit.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import type { RefineContext } from "./refineGrouping.ts";
+import { continueRun } from "./fitRunner.ts";
 
 /**
  * Retries one CB-side fit with every CB start shifted by −Ec and by +Ec.
@@ -58,7 +59,7 @@ export function shiftGrouping(t: FitTrial, context: RefineContext): FitTrial | n
     const explored = context.run(hc, context.exploreIterations);
     trials.push(explored);
     if (explored.bic >= (best ?? t).bic) continue;
-    const done = { ...context.run(hc, context.maxIterations, explored.loop.parameters), rateRatio0: explored.rateRatio0 };
+    const done = continueRun((h, _logRatio0, iterations, from) => context.run(h, iterations, from), explored, context.maxIterations);
     trials.push(done);
     if (done.bic < (best ?? t).bic) best = done;
   }

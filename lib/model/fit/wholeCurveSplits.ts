@@ -4,7 +4,7 @@
  * from a whole one where the CB side alone does not.
  */
 import type { FitHypothesis } from "./fitHypotheses.ts";
-import type { FitRun } from "./fitRunner.ts";
+import { continueRun, type FitRun } from "./fitRunner.ts";
 import type { DataSet, FitTrial } from "./fitTrial.ts";
 import { parameterIndex } from "./parameterModel.ts";
 import { refinementStarts } from "./refinementStarts.ts";
@@ -135,7 +135,7 @@ function splitAbout(top: FitTrial, context: WholeCurveSplitContext, settings: ty
   const explored: FitTrial[] = [];
   for (const r of starts) {
     const hv: FitHypothesis = { ...top.hypothesis, name: `${top.hypothesis.name.replace(/,.*$/, "")}, refined to ${r.layout} on the whole curve (${r.change})`, label: `${top.hypothesis.label}, ${r.change} on the whole curve`, seeds: recentredSeeds([...r.seeds, ...vbSeeds], [...r.parameters.slice(0, r.seeds.length), ...vbEnergies], context.eta, rest[0]), chargingEnergyStartEV: rest[0], cbDegeneracies: r.seeds.map((x) => x.degeneracy) };
-    const t = { ...run(hv, null, context.exploreIterations, [...r.parameters.slice(0, r.seeds.length), ...vbEnergies, ...rest]), rateRatio0: top.rateRatio0 };
+    const t = continueRun(run, top, context.exploreIterations, undefined, { hypothesis: hv, from: [...r.parameters.slice(0, r.seeds.length), ...vbEnergies, ...rest] });
     trials.push(t);
     explored.push(t);
   }
@@ -144,7 +144,7 @@ function splitAbout(top: FitTrial, context: WholeCurveSplitContext, settings: ty
     const nw = w.hypothesis.seeds.filter((s) => s.band === "CB").length;
     const atW = parameterIndex(w.hypothesis.seeds.length);
     const hc: FitHypothesis = { ...w.hypothesis, seeds: w.hypothesis.seeds.slice(0, nw), vbReadings: [[]], ...(context.heldVb ? { heldVb: context.heldVb } : {}) };
-    const cb = { ...run(hc, null, context.maxIterations, [...w.loop.parameters.slice(0, nw), ...w.loop.parameters.slice(atW.chargingEnergy, atW.rateScale)], context.cbSide), rateRatio0: w.rateRatio0 };
+    const cb = continueRun(run, w, context.maxIterations, context.cbSide, { hypothesis: hc, from: [...w.loop.parameters.slice(0, nw), ...w.loop.parameters.slice(atW.chargingEnergy, atW.rateScale)] });
     trials.push(cb);
     if (context.acceptable(w, cb)) return { cb, whole: w };
   }
@@ -161,7 +161,7 @@ export function finishBest(explored: readonly FitTrial[], count: number, run: Fi
     .sort((x, y) => x.bic - y.bic)
     .slice(0, count)
     .map((t) => {
-      const done = { ...run(t.hypothesis, null, maxIterations, t.loop.parameters), rateRatio0: t.rateRatio0 };
+      const done = continueRun(run, t, maxIterations);
       trials.push(done);
       return done;
     });

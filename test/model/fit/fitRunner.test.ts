@@ -6,7 +6,7 @@
 // search's run stops at the budget (exact) without that stop counting as the fit's (exact).
 import { describe, it, expect } from "vitest";
 import { expectClose } from "../../helpers/expectClose.ts";
-import { fitRunner } from "../../../lib/model/fit/fitRunner.ts";
+import { continueRun, fitRunner } from "../../../lib/model/fit/fitRunner.ts";
 import { fitHypotheses } from "../../../lib/model/fit/fitHypotheses.ts";
 import { parameterIndex } from "../../../lib/model/fit/parameterModel.ts";
 import { analysis, eta, settings } from "../../helpers/fitDemo.ts";
@@ -81,4 +81,37 @@ describe("fitRunner(analysis, settings)", () => {
     roomy.search(h, null, 3);
     expect(roomy.work().searchStopped).toBe(false);
   });
+});
+
+// continueRun: a run carried on from another's fitted parameters is the same Levenberg–Marquardt
+// run as `run` from those parameters (exact: the loop is deterministic) and keeps the first run's
+// starting rate ratio 10^logRatio0 (exact).
+describe("continueRun(run, explored, iterations, set, change)", () => {
+  const runner = fitRunner(analysis, settings);
+  const [h] = fitHypotheses(analysis, eta, false);
+  const at = parameterIndex(h.seeds.length);
+
+  it("runs from the explored run's parameters on the set given, keeping its rateRatio0 (10^−1 here) rather than the ratio it reached", () => {
+    const explored = runner.run(h, -1, 3, undefined, runner.cbSide);
+    expect(explored.rateRatio0).toBe(10 ** -1);
+    const done = continueRun(runner.run, explored, 20, runner.cbSide);
+    const plain = runner.run(h, null, 20, explored.loop.parameters, runner.cbSide);
+    expect(done.rateRatio0).toBe(explored.rateRatio0);
+    expect(plain.rateRatio0).toBe(10 ** explored.loop.parameters[at.logRateRatio]);
+    expect(plain.rateRatio0).not.toBe(explored.rateRatio0);
+    expect(done.loop.parameters).toEqual(plain.loop.parameters);
+    expect(done.side).toBe("CB");
+    expect(done.hypothesis).toBe(h);
+  }, 60_000);
+
+  it("takes another start and held parameters when given, and the whole curve by default", () => {
+    const explored = runner.run(h, null, 3);
+    const from = explored.loop.parameters.slice();
+    from[at.chargingEnergy] = 0.1;
+    const held = continueRun(runner.run, explored, 10, undefined, { from, held: [at.chargingEnergy] });
+    expect(held.side).toBe("both");
+    expect(held.loop.parameters[at.chargingEnergy]).toBe(0.1);
+    expect(held.k).toBe(held.loop.parameters.length - 1 + 4);
+    expect(held.rateRatio0).toBe(explored.rateRatio0);
+  }, 60_000);
 });
