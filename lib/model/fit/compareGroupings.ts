@@ -18,6 +18,7 @@ import { seedKey, type LevelSeed } from "./levelsToFit.ts";
 import { heldShellLevels, heldValenceLevels } from "./heldValenceLevels.ts";
 import type { crossedCbSide } from "./blindCbSide.ts";
 import { heldHoleEntry } from "./cbSideEnd.ts";
+import { valencePeaksV } from "./droppedPeakWholeFits.ts";
 import { levelAtReachEdge, recentredSeeds, valenceSpacingEcEV, WHOLE_CURVE_RESTART_DEFAULTS, type wholeCurveEcStarts } from "./wholeCurveRestarts.ts";
 
 /** Constants of {@link compareGroupings} (locked by test/model/fit/laterEntryReadings.test.ts). */
@@ -190,7 +191,7 @@ export function compareGroupings(stage: CompareContext): (cbDone: FitTrial, ecSt
   let topV = -Infinity;
   for (const v of cbSide.biasV) topV = Math.max(topV, v);
   const holeEntryV = heldHoleEntry(hypotheses[0].analysis.peaks, eta)?.entry.biasV ?? null;
-  const vbPeaksV = hypotheses[0].analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
+  const vbPeaksV = valencePeaksV(hypotheses[0].analysis.peaks);
   // On a crossed side the charging ladders are also started from the VB peaks' own spacing (notes 1).
   const vbEcEV = stage.crossedSide || stage.cutSide ? valenceSpacingEcEV(vbPeaksV, eta) : null;
   const gap = WHOLE_CURVE_RESTART_DEFAULTS.minRelativeGap;

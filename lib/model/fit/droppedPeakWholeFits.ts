@@ -83,13 +83,28 @@ export function fillingOrderReading(peaksV: readonly number[], layout: readonly 
 }
 
 /**
+ * The VB peaks a ladder's VB readings are made of: the peaks below zero bias, those labelled
+ * second-junction resonances (`role`) set aside; V, in the peaks' order. Shared by
+ * `fillingOrderValenceReadings`, `ecGridWholeFits` and `compareGroupings`.
+ *
+ * Example
+ * -------
+ * ```ts
+ * valencePeaksV([{ biasV: -1.2, role: "level" }, { biasV: -1.1, role: "second-junction" }, { biasV: 0.9, role: "level" }]); // => [-1.2]
+ * ```
+ */
+export function valencePeaksV(peaks: readonly { biasV: number; role: string }[]): number[] {
+  return peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
+}
+
+/**
  * The VB readings the filling-order stages fit with a ladder: the VB peaks (second-junction
  * resonances set aside) read as a doublet and a level of four in filling order at Ec/η first
  * (note 3 of {@link droppedPeakWholeFits}), then the ladders' own readings, repeats and empty
  * readings dropped. Shared by `droppedPeakWholeFits` and `mergedPeakWholeFits`.
  */
 export function fillingOrderValenceReadings(ladders: readonly FitHypothesis[], chargingEnergyV: number): LevelSeed[][] {
-  const vbPeaksV = ladders[0].analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
+  const vbPeaksV = valencePeaksV(ladders[0].analysis.peaks);
   return distinctReadings([inFillingOrder(shellValenceReading(vbPeaksV, chargingEnergyV)), ...ladders.flatMap((h) => h.vbReadings)].filter((r) => r.length));
 }
 

@@ -7,7 +7,8 @@ import type { FitHypothesis } from "./fitHypotheses.ts";
 import type { FitTrial } from "./fitTrial.ts";
 import { distinctReadings, type LevelSeed } from "./levelsToFit.ts";
 import { inFillingOrder, shellValenceReading } from "./shellValenceReading.ts";
-import { unseenSPeakReadings } from "./unseenSPeakWholeFits.ts";
+import { cbLadderPeaksV, unseenSPeakReadings } from "./unseenSPeakWholeFits.ts";
+import { valencePeaksV } from "./droppedPeakWholeFits.ts";
 import { peakStartWholeFits, type PeakStartWholeContext } from "./peakStartWholeFits.ts";
 import { stateCount } from "../scenario.ts";
 
@@ -181,10 +182,8 @@ export function ecGridWholeFits(context: PeakStartWholeContext, settings = EC_GR
   const base = context.hypotheses.find((h) => h.kind === "ladder-filling");
   if (!base) return null;
   const { eta, run, trials } = context;
-  const resonant = new Set(base.analysis.assignment.evidence.secondJunction.map((r) => r.index));
-  const cbPeaksV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && !resonant.has(i)).map((x) => x.biasV);
-  const resonancesV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && resonant.has(i)).map((x) => x.biasV);
-  const vbPeaksV = base.analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV);
+  const { cbPeaksV, resonancesV } = cbLadderPeaksV(base.analysis);
+  const vbPeaksV = valencePeaksV(base.analysis.peaks);
   const screened: { t: FitTrial; h: FitHypothesis }[] = [];
   for (const ecEV of ecGridStartsEV(cbPeaksV, vbPeaksV, eta, settings)) {
     const vbReadings = ecValenceReadings(vbPeaksV, ecEV / eta).filter((r) => stateCount(r) <= settings.maxReadingStates);

@@ -134,6 +134,42 @@ export function steplessPeaksV(peaks: readonly { biasV: number; stepA?: number |
 }
 
 /**
+ * The CB peaks a filling-order ladder is read from and the resonances it may enter at: the peaks
+ * above zero bias, those the rules labelled second-junction resonances
+ * (`assignment.evidence.secondJunction`) apart. Shared by `unseenSPeakWholeFits` and
+ * `ecGridWholeFits`.
+ *
+ * Parameters
+ * ----------
+ * analysis : { peaks, assignment }
+ *     The peaks (`biasV` in V) and the rules' second-junction resonances (indices into them).
+ * setAsideV : ReadonlySet<number>, optional
+ *     Positions (V) of peaks also left out of the ladder's peaks (not of the resonances), e.g.
+ *     {@link steplessPeaksV}'s; default none.
+ *
+ * Returns
+ * -------
+ * { cbPeaksV: number[]; resonancesV: number[] }
+ *     The ladder's CB peaks and the CB resonances, V, in the peaks' order.
+ *
+ * Example
+ * -------
+ * ```ts
+ * cbLadderPeaksV({ peaks: [{ biasV: -1 }, { biasV: 1 }, { biasV: 1.2 }], assignment: { evidence: { secondJunction: [{ index: 2 }] } } });
+ * // => { cbPeaksV: [1], resonancesV: [1.2] }
+ * ```
+ */
+export function cbLadderPeaksV(
+  analysis: { peaks: readonly { biasV: number }[]; assignment: { evidence: { secondJunction: readonly { index: number }[] } } },
+  setAsideV: ReadonlySet<number> = new Set(),
+): { cbPeaksV: number[]; resonancesV: number[] } {
+  const resonant = new Set(analysis.assignment.evidence.secondJunction.map((r) => r.index));
+  const cbPeaksV = analysis.peaks.filter((x, i) => x.biasV > 0 && !resonant.has(i) && !setAsideV.has(x.biasV)).map((x) => x.biasV);
+  const resonancesV = analysis.peaks.filter((x, i) => x.biasV > 0 && resonant.has(i)).map((x) => x.biasV);
+  return { cbPeaksV, resonancesV };
+}
+
+/**
  * The filling-order ladders fitted to the whole curve with one of s's charging peaks unseen.
  *
  * Parameters
@@ -188,11 +224,9 @@ export function unseenSPeakWholeFits(context: UnseenSPeakContext, settings = UNS
   const ladders = context.hypotheses.filter((h) => h.kind === "ladder-filling");
   if (!ladders.length) return null;
   const base = ladders[0];
-  const resonant = new Set(base.analysis.assignment.evidence.secondJunction.map((r) => r.index));
   // Peaks that carry almost no current step set aside (note 4): neither an entry nor a VB spacing.
   const stepless = steplessPeaksV(base.analysis.peaks, settings.minStepFraction);
-  const cbPeaksV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && !resonant.has(i) && !stepless.has(x.biasV)).map((x) => x.biasV);
-  const resonancesV = base.analysis.peaks.filter((x, i) => x.biasV > 0 && resonant.has(i)).map((x) => x.biasV);
+  const { cbPeaksV, resonancesV } = cbLadderPeaksV(base.analysis, stepless);
   const mainVbV = context.vbPeaksV.filter((v) => !stepless.has(v));
   const later = laterFourEntryReadings(context.vbPeaksV, 2 + settings.laterVbEntries);
   const vbReadings = distinctReadings([...ladders.flatMap((h) => h.vbReadings), ...later]);

@@ -4,7 +4,7 @@
 // N_j the electrons below it) with a resonance added among them; the whole-curve stage is checked
 // with a run function that stands in for Levenberg–Marquardt (each start's reduced χ² set by hand).
 import { describe, it, expect } from "vitest";
-import { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "../../../lib/model/fit/droppedPeakWholeFits.ts";
+import { droppedPeakWholeFits, fillingOrderReading, valencePeaksV, DROPPED_PEAK_DEFAULTS } from "../../../lib/model/fit/droppedPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import { standInPickingContext } from "../../helpers/standInWholeFit.ts";
 
@@ -67,5 +67,20 @@ describe("droppedPeakWholeFits(context)", () => {
   it("returns null where no reading describes the curve, and without a filling ladder", () => {
     expect(droppedPeakWholeFits(context(() => 12))).toBeNull();
     expect(droppedPeakWholeFits({ ...context(() => 1), hypotheses: [] })).toBeNull();
+  });
+});
+
+describe("valencePeaksV(peaks)", () => {
+  it("keeps the VB peaks below zero bias in their order, the second-junction resonances set aside (exact)", () => {
+    // VB charging peaks at −(0.6 + Ec(n − ½))/η, n = 1, 2, η 0.62, Ec 0.15 eV (closed form); a
+    // resonance among them and a CB level above zero bias.
+    const vb = [1, 2].map((n) => -(0.6 + 0.15 * (n - 0.5)) / 0.62);
+    const peaks = [
+      { biasV: vb[1], role: "level" },
+      { biasV: (vb[0] + vb[1]) / 2, role: "second-junction" },
+      { biasV: vb[0], role: "satellite" },
+      { biasV: 0.9, role: "level" },
+    ];
+    expect(valencePeaksV(peaks)).toEqual([vb[1], vb[0]]);
   });
 });

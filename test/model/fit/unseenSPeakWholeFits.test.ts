@@ -4,7 +4,7 @@
 // one of s's peaks left out; the whole-curve stage is checked with a run function that stands in
 // for Levenberg–Marquardt (each start's reduced χ² set by hand).
 import { describe, it, expect } from "vitest";
-import { steplessPeaksV, unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
+import { cbLadderPeaksV, steplessPeaksV, unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS } from "../../../lib/model/fit/unseenSPeakWholeFits.ts";
 import type { FitHypothesis } from "../../../lib/model/fit/fitHypotheses.ts";
 import { standInPickingContext } from "../../helpers/standInWholeFit.ts";
 
@@ -108,5 +108,25 @@ describe("unseenSPeakWholeFits(context)", () => {
   it("returns null where no reading describes the curve (the unseen peak's predicted step costs χ²), and without a filling ladder", () => {
     expect(unseenSPeakWholeFits(context(() => 12))).toBeNull();
     expect(unseenSPeakWholeFits({ ...context(() => 1), hypotheses: [] })).toBeNull();
+  });
+});
+
+describe("cbLadderPeaksV(analysis, setAsideV)", () => {
+  // The ladder above (s, p at their closed-form positions), a VB peak at −(0.6 + Ec/2)/η, and a
+  // second-junction resonance of a VB level at ε_v/(1 − η) = 0.6/0.38 V (the substrate junction
+  // takes 1 − η of the bias; closed form) among p's peaks.
+  const resonanceV = 0.6 / (1 - eta);
+  const vbV = -(0.6 + ecEV / 2) / eta;
+  const peaks = [vbV, ...s, ...p.slice(0, 2), resonanceV, ...p.slice(2)].map((biasV) => ({ biasV }));
+  const secondJunction = [{ index: 5 }];
+
+  it("gives the CB ladder's peaks without the labelled resonance, and the resonance apart (exact)", () => {
+    expect(peaks[5].biasV).toBe(resonanceV);
+    expect(cbLadderPeaksV({ peaks, assignment: { evidence: { secondJunction } } })).toEqual({ cbPeaksV: [...s, ...p], resonancesV: [resonanceV] });
+  });
+
+  it("leaves out the peaks set aside by position from the ladder's peaks, not from the resonances (exact)", () => {
+    const out = cbLadderPeaksV({ peaks, assignment: { evidence: { secondJunction } } }, new Set([s[1], resonanceV]));
+    expect(out).toEqual({ cbPeaksV: [s[0], ...p], resonancesV: [resonanceV] });
   });
 });
