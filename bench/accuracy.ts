@@ -13,6 +13,7 @@
  *   npm run bench:accuracy -- --mix low-eta --method fast --compare-all   # fit every spectrum, as `analyze --compare-models all`
  *   npm run bench:accuracy -- --mix crossover --method fast --compare-models --ec-check   # each fit's Ec against the rules' in σ
  *   npm run bench:accuracy -- --mix low-eta --method fast --compare-models --verbose --only 15,99   # only these draws (seeds), to follow a change on a few
+ *   npm run bench:accuracy -- --mix low-eta --method fast --compare-all --regime shell-tunneling   # only the spectra of one true regime
  *
  * A spectrum passes when: the regime is right; the s and p multiplets have the true number of
  * peaks, each within 25 % of Ec of the truth; the gap is within 2 %; Ec (shell filling) and Δsp
@@ -256,7 +257,9 @@ function tallyRules(regime: string, passed: boolean, cmp: Comparison | null): vo
 /** Time of each analyzeCurve call, ms (the first few include warm-up). */
 const analysisMs: number[] = [];
 
-const regimes: SyntheticRegime[] = mix === "crossover" ? [] : ["shell-filling", "shell-tunneling", "intermediate"];
+// With --regime R: only the spectra of that true regime (default mixes; the totals then count those alone).
+const onlyRegime = args.includes("--regime") ? (arg("regime", "") as SyntheticRegime) : null;
+const regimes: SyntheticRegime[] = mix === "crossover" ? [] : (["shell-filling", "shell-tunneling", "intermediate"] as SyntheticRegime[]).filter((r) => !onlyRegime || r === onlyRegime);
 const started = performance.now();
 const lines: string[] = [];
 if (mix === "crossover") {
