@@ -5,6 +5,7 @@
 import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import type { ModelComparisonJson } from "./modelComparisonJson.ts";
 import type { FittedValue } from "../model/fit/curveFit.ts";
+import type { ecProfile } from "../model/fit/ecProfile.ts";
 
 /** The rules' answer a comparison is weighed against (from the analysis record). */
 export interface RulesAnswer {
@@ -113,7 +114,8 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  * 4. Where the fit reads the rules' regime but leaves a quantity undetermined (an error that is
  *    not finite or larger than the value itself, so that not even its size is known: a level
  *    whose steps all lie beyond the points it was fitted to, as p on a CB side that ends after
- *    the s doublet at low η, whose energy then carries an error of 10⁶ eV or a NaN), the rules' reading stands: the fit cannot replace
+ *    the s doublet at low η, whose energy then carries an error of 10⁶ eV or a NaN; or a shell-tunnelling Ec whose χ² profile
+ *    stays flat, {@link ecProfile}, with the gap built on it), the rules' reading stands: the fit cannot replace
  *    the levels it does not see (low-η mix with the comparison, seed 1: spectra 48 and 192, shell
  *    filling, would take Δsp from such a p level, 40–280 % off). It still answers where the rules
  *    left the regime undetermined or read another regime, on Ec and Γtip/Γsub, which it determines.

@@ -182,4 +182,13 @@ describe("comparisonDecision(comparison, rules, options)", () => {
     expect(d.decides).toBe(true);
     expect(d.decision).toContain("not on Ec (100.0 against 115.0 meV)");
   });
+  it("a shell-tunnelling fit with Ec undetermined (error NaN, ecProfile): the rules' tunnelling reading stands; where the rules left the regime undetermined, or read filling, the fit still gives the regime (documented decision rule, note 4)", () => {
+    const tunnelling = { ...alt("a", 0.005, 0.17, 1), regime: "shell-tunneling" };
+    const undeterminedEc = { regime: "shell-tunneling" as const, rateRatio: { value: 0.005, standardError: 0.001 }, quantities: { gapEV: { value: 1.2, standardError: NaN }, chargingEnergyEV: { value: 0.17, standardError: NaN }, levelSpacingSPEV: { value: 0.3, standardError: 0.001 } } };
+    const same = comparisonDecision(comparison([tunnelling], undeterminedEc), { regime: "shell-tunneling", chargingEnergyEV: null });
+    expect(same).toMatchObject({ decides: false, agreesWithRules: true });
+    expect(same.decision).toMatch(/leaves gapEV, chargingEnergyEV undetermined/);
+    expect(comparisonDecision(comparison([tunnelling], undeterminedEc), { regime: "undetermined", chargingEnergyEV: null })).toMatchObject({ decides: true });
+    expect(comparisonDecision(comparison([tunnelling], undeterminedEc), { regime: "shell-filling", chargingEnergyEV: 0.1 })).toMatchObject({ decides: true, agreesWithRules: false });
+  });
 });

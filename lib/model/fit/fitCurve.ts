@@ -46,6 +46,7 @@ import { tiedSplitRefinement } from "./tiedSplitRefinement.ts";
 import { tiedWholeChoice } from "./tiedWholeChoice.ts";
 import { penaltyTiedWholeChoice } from "./penaltyTiedWholeChoice.ts";
 import { rateRatioLimit } from "./rateRatioLimit.ts";
+import { ecProfile } from "./ecProfile.ts";
 import type { CurveFit, FittedValue } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
@@ -137,7 +138,8 @@ export interface FitOptions {
  *    cov = (JᵀJ)⁻¹·max(1, χ²_red) on noise-scaled residuals (common practice: scale by the
  *    reduced χ² when the model does not reach the noise); a parameter that does not move the
  *    model on the points fitted (p beyond a CB side that ends after the s doublet) is reported
- *    undetermined (NaN) alone, the others' errors from the rest of JᵀJ.
+ *    undetermined (NaN) alone, the others' errors from the rest of JᵀJ. Where the satellite steps r/(1 + r) are at most 5 %, Ec's error comes
+ *    from a χ² profile over it ({@link ecProfile}): a lower χ² moves the fit, a flat profile leaves Ec undetermined (NaN, a warning in words).
  * 5. Comparison ({@link fitHypotheses}, {@link bayesianInformationCriterion},
  *    {@link hypothesisPlausibility}): when the rules left the regime undetermined, or the
  *    assignment's fit has a reduced χ² above FIT_DEFAULTS.decisiveChiSquare (2), structured
@@ -492,6 +494,9 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     const structureZ = (t: FitTrial) => (t === whole && wholeStructure ? wholeStructure : structureOf(t)).largestZ;
     ({ best, errors, heldNote } = heldWholeValues({ whole, winner, errors, run, all, maxIterations, currentOf, noiseA, structureZ, limits: F, trials, warnings }));
   }
+  // Where the satellite steps are small, Ec from a χ² profile over it: a lower χ² moves the fit, a flat one leaves Ec undetermined ({@link ecProfile}).
+  const fromCbSide = best === winner;
+  ({ trial: best, errors } = ecProfile({ trial: best, errors, run: runner.search, maxIterations, currentOf, noiseA, eta, peaksV: analysis.peaks.filter((x) => x.role !== "second-junction").map((x) => x.biasV), budgetSpent, trials, warnings }));
   // On a blind CB side the whole-curve BICs weigh the groupings (the CB side's differ by k·ln n alone).
   const weights = evidenceWeights(finalists.map((t) => (blindWholeBic ? (blindWholeBic.get(t) ?? Infinity) : implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;
@@ -509,7 +514,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   if (!plausible.includes(winner) && wholeOf.get(winner) === whole && ratioOnlyBound(winner) && implausibleOf(winner).length === 0) plausible.push(winner);
   if (!plausible.length) warnings.push(`no hypothesis tried is physically plausible (${implausibleOf(winner).join("; ")}); the values are those of the lowest BIC`);
   const evidence = fitEvidence(winner, finalists, assignedTrial, implausibleOf, compared, F.bicTieMargin);
-  if (best === winner && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
+  if (fromCbSide && whole) evidence.push("its values come from the CB side of the curve alone: no reading of the VB peaks fits together with them");
   if (heldNote) evidence.push(`its Ec and Γtip/Γsub come from the CB side of the curve: ${heldNote}`);
   if (hypothesis.kind !== "assigned" && (!assignedTrial || assignedTrial.side !== best.side || assignedTrial.bic - best.bic >= F.bicTieMargin)) {
     warnings.push(`${hypothesis.label} describes the curve better than the assignment it started from` + (assignedTrial ? ` (BIC lower by ${(assignedTrial.bic - best.bic).toFixed(0)})` : " (the assignment's single levels were too many to fit)"));

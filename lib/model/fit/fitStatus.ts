@@ -6,6 +6,7 @@ import type { CurveAnalysis } from "../../pipeline/analyzeCurve.ts";
 import type { ResidualStructure } from "./residualStructure.ts";
 import type { RateRatioLimit } from "./rateRatioLimit.ts";
 import { REGIME_LIMITS } from "../regimeLimits.ts";
+import type { ecProfile } from "./ecProfile.ts";
 
 /** "good", "poor" or "failed" (no fit). */
 export type FitStatus = "good" | "poor" | "failed";
@@ -127,6 +128,10 @@ export interface FitStatusInput {
  *    or shell tunnelling and log₁₀ Γtip/Γsub ± deepRatioSigmas standard errors lies wholly inside
  *    it: deep in a regime the ratio is poorly determined by nature, and the good reason says so
  *    with the range.
+ * 5. In shell tunnelling Ec does not count against the fit: each level's satellite (charging) step
+ *    is r/(1 + r) of its first, and at small r it may be at the noise ({@link ecProfile} then
+ *    reports Ec's error as NaN); the regime and the levels stand without it, and the good reason
+ *    says that Ec is not determined.
  *
  * Example
  * -------
@@ -176,8 +181,10 @@ export function fitStatus(input: FitStatusInput): { status: FitStatus; reasons: 
   if (failed.length) return { status: "failed", reasons: [...failed, ...poor] };
   if (poor.length) return { status: "poor", reasons: poor };
   const clean = structure ? `, no structure in the residuals (largest run ${structure.largestZ.toFixed(1)} σ ≤ ${D.poorResidualZ})` : "";
-  const deepWords = deep && input.logRateRatioSE > D.poorLogRatioError ? `Ec determined, Γtip/Γsub uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)} but its ${D.deepRatioSigmas}σ range ${lowRatio.toPrecision(2)}–${highRatio.toPrecision(2)} lies inside ${input.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} (deep in a regime the ratio is not measured)` : null;
-  const ratioWords = limit ? `Ec determined, Γtip/Γsub ${limit.kind === "lower" ? "≥" : "≤"} ${limit.rateRatio.toPrecision(3)} (a one-sided limit: it ran onto a bound of the fit)` : (deepWords ?? "Ec and Γtip/Γsub determined");
+  // In shell tunnelling an Ec left undetermined (note 5) is said, not held against the fit.
+  const ecWords = input.regime === "shell-tunneling" && !Number.isFinite(input.chargingEnergySE) ? "Ec not determined (shell tunnelling: the regime and the levels stand without it)" : "Ec determined";
+  const deepWords = deep && input.logRateRatioSE > D.poorLogRatioError ? `${ecWords}, Γtip/Γsub uncertain by a factor ${(10 ** input.logRateRatioSE).toFixed(1)} but its ${D.deepRatioSigmas}σ range ${lowRatio.toPrecision(2)}–${highRatio.toPrecision(2)} lies inside ${input.regime === "shell-filling" ? "shell filling" : "shell tunnelling"} (deep in a regime the ratio is not measured)` : null;
+  const ratioWords = limit ? `${ecWords}, Γtip/Γsub ${limit.kind === "lower" ? "≥" : "≤"} ${limit.rateRatio.toPrecision(3)} (a one-sided limit: it ran onto a bound of the fit)` : (deepWords ?? (ecWords === "Ec determined" ? "Ec and Γtip/Γsub determined" : `${ecWords}, Γtip/Γsub determined`));
   return { status: "good", reasons: [`reduced χ² ${chi.toPrecision(3)} ≤ ${D.poorChiSquare}, ${ratioWords}${clean}`] };
 }
 

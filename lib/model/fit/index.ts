@@ -4,7 +4,7 @@
  * parameter vector and its dot model, the model current at unit scale, the linear projection of
  * scale, offset and background, the cost of one master-equation solve (what the work budget counts), the Levenberg–Marquardt loop and the runs built on it, the first hole's entry held on the CB side at low η, the comparison
  * of the groupings (and the choice by the whole curve where the CB side is blind to p), the refinement starts about the best grouping (and at the p sub-level spacings
- * the peaks show), the further readings of the VB peaks (and the whole curve's further Ec starts), the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
+ * the peaks show), the further readings of the VB peaks (and the whole curve's further Ec starts), the χ² profile over Ec in shell tunnelling, the fitted levels in energy order, the standard errors, the residual structure, the status, the verdict, and
  * fitCurve, which composes them.
  */
 export { fitCurve, type FitOptions } from "./fitCurve.ts";
@@ -43,6 +43,7 @@ export { peakStartWholeFits, PEAK_START_WHOLE_DEFAULTS, type PeakStartWholeConte
 export { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS, type UnseenSPeakContext } from "./unseenSPeakWholeFits.ts";
 export { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
 export { ecGridStartsEV, ecGridWholeFits, ecValenceReadings, EC_GRID_DEFAULTS } from "./ecGridWholeFits.ts";
+export { ecProfile, profileReading, EC_PROFILE_DEFAULTS, type EcProfileInput, type ProfileReading } from "./ecProfile.ts";
 export { matchedLadderReadings, mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
 export { structuredWholeSplit, STRUCTURED_WHOLE_SPLIT_DEFAULTS, type StructuredWholeSplitContext } from "./structuredWholeSplit.ts";
 export { orderLevels } from "./orderLevels.ts";

@@ -63,6 +63,13 @@ describe("fitStatus(input)", () => {
   it("does not judge Ec in shell tunnelling, where the ladder does not show it", () => {
     expect(fitStatus({ ...ok, regime: "shell-tunneling", chargingEnergySE: 0.5 }).status).toBe("good");
   });
+  it("says so where a shell-tunnelling Ec is undetermined (error NaN, note 5) and keeps the fit good; in shell filling the same Ec fails it", () => {
+    const tunnelling = fitStatus({ ...ok, regime: "shell-tunneling", chargingEnergySE: NaN });
+    expect(tunnelling.status).toBe("good");
+    expect(tunnelling.reasons[0]).toMatch(/Ec not determined \(shell tunnelling: the regime and the levels stand without it\), Γtip\/Γsub determined/);
+    expect(fitStatus({ ...ok, regime: "shell-tunneling" }).reasons[0]).toMatch(/Ec and Γtip\/Γsub determined/);
+    expect(fitStatus({ ...ok, chargingEnergySE: NaN }).status).toBe("failed");
+  });
   it("poor, with where, when the residuals hold a run of one sign above 5 σ over a peak's width", () => {
     const structured = fitStatus({ ...ok, residualStructure: { largestZ: 6.2, atBiasV: 1.542, windowPoints: 4 } });
     expect(structured.status).toBe("poor");
