@@ -6,6 +6,7 @@ import { REGIME_LIMITS } from "../model/regimeLimits.ts";
 import type { ModelComparisonJson } from "./modelComparisonJson.ts";
 import type { FittedValue } from "../model/fit/curveFit.ts";
 import type { ecProfile } from "../model/fit/ecProfile.ts";
+import { wholeCurveRefuted } from "./wholeCurveRefuted.ts";
 
 /** The rules' answer a comparison is weighed against (from the analysis record). */
 export interface RulesAnswer {
@@ -132,6 +133,13 @@ export type ComparisonDecision = Required<Pick<ModelComparisonJson, "agreesWithR
  *    groupings whose whole-curve fits agree are not rival answers (low-η mix with the comparison,
  *    seed 1001: spectra 1027, 1041, 1068 and 1162, intermediate, read right by a good fit whose
  *    own grouping carried 0.33–0.81 of the weight).
+ * 7. Where the fit's answer is its own grouping's whole-curve fit, which describes the curve, a
+ *    rival run whose own whole-curve fit does not (reduced χ² also at least twice the fit's) is a
+ *    reading the whole curve refutes ({@link wholeCurveRefuted}): its weight is set aside and the
+ *    fit's answer weighed against the rivals left (low-η mix with the comparison: seed 1001 spectrum
+ *    1077, seed 2001 spectra 2048 and 2082, intermediate, and seed 5001 spectrum 5199, shell
+ *    filling, read right by a good fit whose own grouping carried 0.16–0.74 of the weight against
+ *    rivals 4–13 times above its reduced χ² on the whole curve).
  *
  * References
  * ----------
@@ -193,7 +201,10 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
     return w !== undefined && w.describesCurve && fitEc !== null && (regimeOfRatio(w.rateRatio) === m.regime || near(w.rateRatio, rate?.value ?? NaN)) && Math.abs(w.chargingEnergyEV - fitEc) <= sameEc * fitEc;
   };
   const sameAnswer = m.alternatives.filter((a) => a === own || sameWhole(a) || ((regimeOfRatio(a.rateRatio) === m.regime || nearRate(a.rateRatio)) && Math.abs(a.chargingEnergyEV - winnerEc) <= sameEc * winnerEc));
-  const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0));
+  // Rivals whose own whole-curve fits the curve refutes, where the fit's is its own grouping's (step 7), are set aside.
+  const refuted = wholeCurveRefuted({ rivals: m.alternatives.filter((a) => !sameAnswer.includes(a)), own, fitChargingEnergyEV: fitEc }, { sameEcFraction: sameEc });
+  const setAside = Math.min(1, refuted.reduce((sum, a) => sum + a.weight, 0));
+  const weight = Math.min(1, sameAnswer.reduce((sum, a) => sum + a.weight, 0) / (setAside < 1 ? 1 - setAside : 1));
   if (weight < minWeight) {
     return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but the groupings that give its answer carry ${weight.toFixed(2)} of the BIC weight (< ${minWeight}): a grouping with another answer fits nearly as well` };
   }
@@ -207,7 +218,8 @@ export function comparisonDecision(comparison: ModelComparisonJson, rules: Rules
       return { agreesWithRules, decides: false, decision: `the record stands by ${rulesWord}: the fit ${what}, but its Γtip/Γsub (${shown}) does not stay inside ${m.regime} over ± ${k} standard error${k === 1 ? "" : "s"}` };
     }
   }
-  const grouping = `the groupings that give its answer (best: ${m.hypothesis}) carry ${weight.toFixed(2)} of the BIC weight (≥ ${minWeight})`;
+  const aside = refuted.length ? ` once the rival groupings whose own whole-curve fits do not describe the curve (${setAside.toFixed(2)} of the weight) are set aside` : "";
+  const grouping = `the groupings that give its answer (best: ${m.hypothesis}) carry ${weight.toFixed(2)} of the BIC weight (≥ ${minWeight})${aside}`;
   const decision =
     rules.regime === "undetermined"
       ? `the record stands by the fit (${m.regime}): the rules left the regime undetermined, the fit is good and ${grouping}`
