@@ -16,17 +16,17 @@ import type { cbSideEndV, heldHoleEntry } from "./cbSideEnd.ts";
 import { continueRun, fitRunner } from "./fitRunner.ts";
 import { linearProjector, projectLinear } from "./projectLinear.ts";
 import { levenbergMarquardtLoop } from "./levenbergMarquardtLoop.ts";
-import { fitStatus, peakChargingEnergy, FIT_STATUS_DEFAULTS } from "./fitStatus.ts";
+import { peakChargingEnergy, FIT_STATUS_DEFAULTS, type fitStatus } from "./fitStatus.ts";
 import { fitHypotheses, type HypothesisKind } from "./fitHypotheses.ts";
 import { boundReason, hypothesisPlausibility } from "./hypothesisPlausibility.ts";
 import { bayesianInformationCriterion, evidenceWeights } from "./informationCriterion.ts";
-import { fitAlternative, plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
+import { plausibilityInput, type DataSet, type FitTrial } from "./fitTrial.ts";
 import { fitEvidence } from "./fitEvidence.ts";
 import { trialErrors } from "./trialErrors.ts";
 import { standardErrors } from "./standardErrors.ts";
-import { fitVerdict } from "./fitVerdict.ts";
+import type { fitVerdict } from "./fitVerdict.ts";
 import { compareGroupings } from "./compareGroupings.ts";
-import { orderLevels } from "./orderLevels.ts";
+import type { orderLevels } from "./orderLevels.ts";
 import { residualStructure } from "./residualStructure.ts";
 import { blindCbSide, cbSideTopV, crossedCbSide, wholeCurveChoice } from "./blindCbSide.ts";
 import { ecRestartedWhole, wholeCurveEcStarts, type valenceSpacingEcEV } from "./wholeCurveRestarts.ts";
@@ -40,14 +40,14 @@ import { mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits
 import { ecGridWholeFits, EC_GRID_DEFAULTS } from "./ecGridWholeFits.ts";
 import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
-import { peakEcRefuted } from "./peakEcRefuted.ts";
 import { heldWholeValues } from "./heldWholeValues.ts";
 import { tiedSplitRefinement } from "./tiedSplitRefinement.ts";
 import { tiedWholeChoice } from "./tiedWholeChoice.ts";
 import { penaltyTiedWholeChoice } from "./penaltyTiedWholeChoice.ts";
-import { rateRatioLimit } from "./rateRatioLimit.ts";
+import type { rateRatioLimit } from "./rateRatioLimit.ts";
 import { ecProfile } from "./ecProfile.ts";
-import type { CurveFit, FittedValue } from "./curveFit.ts";
+import { fitRecord } from "./fitRecord.ts";
+import type { CurveFit } from "./curveFit.ts";
 import { FIT_DEFAULTS } from "./fitDefaults.ts";
 
 export { FIT_DEFAULTS };
@@ -521,88 +521,6 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
   if (analysis.assignment.regime === "undetermined" && hypothesis.kind === "assigned") warnings.push("regime undetermined: the fit starts from single levels");
 
-  // 3. Final linear coefficients and standard errors from the full Jacobian, on the points the
-  // result was fitted to.
-  const { biasV, dataA } = best.set;
-  const { final, full, se, reducedChiSquare } = errors;
-
-  // 4. The verdict, the status and the result. The residuals are checked for structure over a
-  // peak's width, and Ec against the peak-based Ec where the rules read a charging ladder.
-  const structure = residualStructure(biasV, dataA.map((v, i) => v - final.out[i]), noiseA, analysis.settings.peakWidthMV / 1000);
-  // A fit with p split into sub-levels reads a ladder the peak-based Ec (one ladder over p) does
-  // not: it is not compared (the fit's own reading stands or falls by its residuals).
-  const pSplit = seeds.filter((s) => s.band === "CB" && /^p/.test(s.label)).length > 1;
-  const rulesEc = peakChargingEnergy(analysis, eta);
-  const refuted = peakEcRefuted({ assignedReducedChiSquare: assignedTrial?.side === "both" ? reduced(assignedTrial) : null, fitReducedChiSquare: reducedChiSquare, fitIsAssigned: hypothesis.kind === "assigned" });
-  const peakEc = pSplit || refuted ? null : rulesEc;
-  const ratio = 10 ** params[at.logRateRatio];
-  // Γtip/Γsub on a bound: the one-sided limit the curve sets on it (null off the bounds, or where
-  // none lies inside one regime), read only from a fit of the whole curve: values from the CB side
-  // alone already lack the VB reading that the whole curve rejected, and a ratio on a bound there
-  // leaves the fit without its second measure (on the low-η benchmark such CB-side fits were wrong groupings).
-  const limit = best.side === "CB" ? null : rateRatioLimit({ trial: best, run, maxIterations, chiSquareRise: F.rateRatioLimitChiSquare, fromUpperLog10: F.rateRatioLimitFromUpperLog10, fromLowerLog10: F.rateRatioLimitFromLowerLog10 });
-  const verdict = fitVerdict(ratio, reducedChiSquare, F, se[at.logRateRatio], limit);
-  if (verdict.warning) warnings.push(verdict.warning);
-  const status = fitStatus({
-    reducedChiSquare,
-    regime: verdict.regime,
-    chargingEnergyEV: params[at.chargingEnergy],
-    chargingEnergySE: se[at.chargingEnergy],
-    logRateRatioSE: se[at.logRateRatio],
-    rateRatio: ratio,
-    atBound: [...plausibilityInput(best).atBound],
-    residualStructure: structure,
-    peakChargingEnergy: peakEc,
-    cutShort,
-    rateRatioLimit: limit,
-  });
-  if (rulesEc && verdict.regime === "shell-tunneling") {
-    warnings.push(`the fit reads the peaks as shell tunnelling: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) assumes shell filling and does not apply`);
-  } else if (rulesEc && (pSplit || refuted)) {
-    warnings.push(pSplit ? `the fit splits p into sub-levels: the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) reads p as one charging ladder and is not compared with the fit's` : `the assignment's own grouping does not describe the curve (reduced χ² ${reduced(assignedTrial!).toPrecision(3)}): the peak-based Ec (${(rulesEc.valueEV * 1000).toFixed(1)} meV) it reads is not compared with the fit's (peakEcRefuted)`);
-  }
-  const value = (k: number): FittedValue => ({ value: full[k], standardError: se[k] });
-  const ratioSE = Math.LN10 * ratio * se[at.logRateRatio];
-  const sigmaEV = 10 ** params[at.logBroadening];
-  const scaleRate = final.coef[0];
-  const modelA = final.out;
-  if (!plausible.length) status.reasons.unshift("no hypothesis is physically plausible");
-  const failed = status.status === "failed" || !plausible.length;
-  const regime = failed ? "undetermined" : verdict.regime;
-  const regimeReason = failed ? `no fit: ${(plausible.length ? status.reasons : implausibleOf(winner)).join("; ")}` : verdict.regimeReason;
-  return {
-    source: analysis.source,
-    converged,
-    message,
-    iterations,
-    work: { evaluations: work().evaluations, maxEvaluations, timeLimitMs, stoppedBy },
-    eta,
-    status: failed ? "failed" : status.status,
-    statusReasons: status.reasons,
-    hypothesis: hypothesis.name,
-    evidence,
-    alternatives: trials.map((t) => (finalists.includes(t) ? fitAlternative(t, weights[finalists.indexOf(t)], implausibleOf(t), wholeAnswers.get(t)) : fitAlternative(t, 0, t.implausible))),
-    levels: orderLevels(seeds.map((s, j) => ({
-      band: s.band,
-      label: s.label,
-      degeneracy: s.degeneracy,
-      energyEV: { value: s.band === "CB" ? params[j] : -params[j], standardError: se[j] },
-      energyV: { value: (s.band === "CB" ? params[j] : -params[j]) / eta, standardError: se[j] / eta },
-    }))),
-    chargingEnergyEV: value(at.chargingEnergy),
-    chargingEnergyV: { value: params[at.chargingEnergy] / eta, standardError: se[at.chargingEnergy] / eta },
-    rateRatio: { value: ratio, standardError: ratioSE },
-    rateRatioLimit: limit,
-    substrateRatePerS: { value: scaleRate, standardError: se[at.rateScale] },
-    broadeningEV: { value: sigmaEV, standardError: Math.LN10 * sigmaEV * se[at.logBroadening] },
-    offsetA: value(at.offset),
-    backgroundLinearS: value(at.backgroundLinear),
-    backgroundCubicAPerV3: value(at.backgroundCubic),
-    reducedChiSquare,
-    regime,
-    regimeReason,
-    residuals: { biasV, currentA: dataA, modelA, residualA: dataA.map((v, i) => v - modelA[i]) },
-    residualStructure: structure,
-    warnings,
-  };
+  // 3–4. Final values, the verdict, the status and the record ({@link fitRecord}).
+  return fitRecord({ analysis, best, errors, eta, noiseA, assignedTrial, winner, plausible, implausibleOf, reduced, run, maxIterations, limits: F, cutShort: cutShort || null, evidence, warnings, trials, finalists, weights, wholeAnswers, work: () => ({ evaluations: work().evaluations, maxEvaluations, timeLimitMs, stoppedBy }) });
 }
