@@ -8,23 +8,10 @@ import { comparisonDecision, MODEL_DECISION_DEFAULTS } from "../../lib/report/co
 import { failedModelComparison, type ModelComparisonJson } from "../../lib/report/modelComparisonJson.ts";
 import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
 import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
+import { standInAlternative } from "../helpers/standInAlternative.ts";
 
 /** An alternative with the fields the decision reads; the rest neutral. */
-const alt = (hypothesis: string, rateRatio: number, chargingEnergyEV: number, weight: number): FitAlternative => ({
-  hypothesis,
-  regime: "shell-filling",
-  levels: 4,
-  cbDegeneracies: [2, 6],
-  rateRatioStart: rateRatio,
-  rateRatio,
-  chargingEnergyEV,
-  reducedChiSquare: 1,
-  side: "CB",
-  bic: 0,
-  finished: true,
-  implausible: [],
-  weight,
-});
+const alt = (hypothesis: string, rateRatio: number, chargingEnergyEV: number, weight: number): FitAlternative => standInAlternative(hypothesis, rateRatio, chargingEnergyEV, weight);
 
 /** Weights of two runs ΔBIC apart, exp(−ΔBIC/2) normalised (closed form). */
 const pair = (deltaBic: number): [number, number] => [1 / (1 + Math.exp(-deltaBic / 2)), Math.exp(-deltaBic / 2) / (1 + Math.exp(-deltaBic / 2))];

@@ -9,24 +9,11 @@ import { comparisonDecision } from "../../lib/report/comparisonDecision.ts";
 import type { ModelComparisonJson } from "../../lib/report/modelComparisonJson.ts";
 import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
 import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
+import { standInAlternative } from "../helpers/standInAlternative.ts";
 
 /** A CB-side run with its own whole-curve fit (or none). */
-const run = (hypothesis: string, weight: number, rateRatio: number, chargingEnergyEV: number, whole?: { rateRatio: number; chargingEnergyEV: number; reducedChiSquare: number; describesCurve: boolean }): FitAlternative => ({
-  hypothesis,
-  regime: "shell-filling",
-  levels: 4,
-  cbDegeneracies: [2, 6],
-  rateRatioStart: rateRatio,
-  rateRatio,
-  chargingEnergyEV,
-  reducedChiSquare: 0.89,
-  side: "CB",
-  bic: 0,
-  finished: true,
-  implausible: [],
-  weight,
-  ...(whole ? { wholeCurve: whole } : {}),
-});
+const run = (hypothesis: string, weight: number, rateRatio: number, chargingEnergyEV: number, whole?: NonNullable<FitAlternative["wholeCurve"]>): FitAlternative =>
+  standInAlternative(hypothesis, rateRatio, chargingEnergyEV, weight, { reducedChiSquare: 0.89, ...(whole ? { wholeCurve: whole } : {}) });
 
 // Shaped on the low-η benchmark's seed 5001 draw 5199 (shell filling, Ec 63.1 meV, Γtip/Γsub 21): the
 // winner weighs 0.743 on the CB side and its whole-curve fit describes the curve at reduced χ² 1.00
