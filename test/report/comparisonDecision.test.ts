@@ -8,7 +8,7 @@ import { comparisonDecision, MODEL_DECISION_DEFAULTS } from "../../lib/report/co
 import { failedModelComparison, type ModelComparisonJson } from "../../lib/report/modelComparisonJson.ts";
 import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
 import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
-import { standInAlternative } from "../helpers/standInAlternative.ts";
+import { standInAlternative, standInComparison } from "../helpers/standInAlternative.ts";
 
 /** An alternative with the fields the decision reads; the rest neutral. */
 const alt = (hypothesis: string, rateRatio: number, chargingEnergyEV: number, weight: number): FitAlternative => standInAlternative(hypothesis, rateRatio, chargingEnergyEV, weight);
@@ -17,24 +17,7 @@ const alt = (hypothesis: string, rateRatio: number, chargingEnergyEV: number, we
 const pair = (deltaBic: number): [number, number] => [1 / (1 + Math.exp(-deltaBic / 2)), Math.exp(-deltaBic / 2) / (1 + Math.exp(-deltaBic / 2))];
 
 /** A good shell-filling fit, Γtip/Γsub = 3 ± se, Ec = 0.1 eV, with these alternatives. */
-function comparison(alternatives: FitAlternative[], overrides: Partial<ModelComparisonJson> = {}): ModelComparisonJson {
-  return {
-    scope: "undecided",
-    status: "good",
-    statusReasons: [],
-    regime: "shell-filling",
-    regimeReason: "",
-    hypothesis: alternatives[0].hypothesis,
-    evidence: [],
-    alternatives,
-    quantities: { gapEV: { value: 1.2, standardError: 0.001 }, chargingEnergyEV: { value: 0.1, standardError: 0.001 }, levelSpacingSPEV: { value: 0.3, standardError: 0.001 } },
-    rateRatio: { value: 3, standardError: 0.3 },
-    rateRatioLimit: null,
-    reducedChiSquare: 1,
-    warnings: [],
-    ...overrides,
-  };
-}
+const comparison = standInComparison;
 
 describe("comparisonDecision(comparison, rules, options)", () => {
   it("MODEL_DECISION_DEFAULTS are locked, frozen and match the documented defaults", () => {

@@ -9,7 +9,7 @@ import { comparisonDecision } from "../../lib/report/comparisonDecision.ts";
 import type { ModelComparisonJson } from "../../lib/report/modelComparisonJson.ts";
 import type { FitAlternative } from "../../lib/model/fit/curveFit.ts";
 import { expectDocumentedDefaults } from "../helpers/documentedDefaults.ts";
-import { standInAlternative } from "../helpers/standInAlternative.ts";
+import { standInAlternative, standInComparison } from "../helpers/standInAlternative.ts";
 
 /** A CB-side run with its own whole-curve fit (or none). */
 const run = (hypothesis: string, weight: number, rateRatio: number, chargingEnergyEV: number, whole?: NonNullable<FitAlternative["wholeCurve"]>): FitAlternative =>
@@ -23,23 +23,12 @@ const rivalA = run("ladder-empty-1 2+2+4", 0.1285, 11.6, 0.0668, { rateRatio: 2.
 const rivalB = run("ladder-empty-1 2+2+2", 0.1285, 11.6, 0.0668, { rateRatio: 3.23, chargingEnergyEV: 0.0691, reducedChiSquare: 9.09, describesCurve: false });
 
 /** The fit's record: good, shell filling at the winner's whole-curve values. */
-function comparison(alternatives: FitAlternative[], ecEV = 0.064): ModelComparisonJson {
-  return {
-    scope: "undecided",
-    status: "good",
-    statusReasons: [],
-    regime: "shell-filling",
-    regimeReason: "",
+const comparison = (alternatives: FitAlternative[], ecEV = 0.064): ModelComparisonJson =>
+  standInComparison(alternatives, {
     hypothesis: "ladder-filling 2+6",
-    evidence: [],
-    alternatives,
     quantities: { gapEV: { value: 1.96, standardError: 0.001 }, chargingEnergyEV: { value: ecEV, standardError: 0.0004 }, levelSpacingSPEV: { value: 0.33, standardError: 0.002 } },
     rateRatio: { value: 18.9, standardError: 1.8 },
-    rateRatioLimit: null,
-    reducedChiSquare: 1.0,
-    warnings: [],
-  };
-}
+  });
 const rules = { regime: "shell-filling", chargingEnergyEV: 0.0627 };
 
 describe("wholeCurveRefuted(input, options)", () => {
