@@ -259,6 +259,7 @@ const analysisMs: number[] = [];
 
 // With --regime R: only the spectra of that true regime (default mixes; the totals then count those alone).
 const onlyRegime = args.includes("--regime") ? (arg("regime", "") as SyntheticRegime) : null;
+if (onlyRegime !== null && (mix === "crossover" || !["shell-filling", "shell-tunneling", "intermediate"].includes(onlyRegime))) throw new Error(`--regime must be shell-filling, shell-tunneling or intermediate, and is not for the crossover mix (its regimes come from the drawn ratio); got ${onlyRegime} with --mix ${mix}`);
 const regimes: SyntheticRegime[] = mix === "crossover" ? [] : (["shell-filling", "shell-tunneling", "intermediate"] as SyntheticRegime[]).filter((r) => !onlyRegime || r === onlyRegime);
 const started = performance.now();
 const lines: string[] = [];
