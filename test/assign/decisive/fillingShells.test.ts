@@ -1,5 +1,8 @@
 // The tests of notes 3, 13 and 16 of rulesDecisive on peak lists at the closed-form positions of
 // orthodox theory, (ε + Ec(n + ½))/η: one level's charging peaks lie one Ec/η apart.
+// Where the expected values come from: the peak positions and step ratios are closed form (above),
+// each verdict derived by hand from them against the limits of RULES_DECISIVE_DEFAULTS (common
+// practice (no source), as documented there).
 import { describe, expect, it } from "vitest";
 import { offLadderSpacingReasons, oddSubgroupReasons, shortShellReasons } from "../../../lib/assign/decisive/fillingShells.ts";
 import { assignPeak as peak } from "../../helpers/assignPeak.ts";

@@ -2,6 +2,9 @@
 // orthodox theory, (ε + Ec(n + ½))/η, with the closed-form charging steps of one level filled
 // from the tip (detailed balance of in at (g − N)·Γtip, out at N·Γsub: the steps fall one after
 // another; for g = 2 the second is r/(1 + r) × the first, see secondToFirstStepRatio).
+// Where the expected values come from: the peak positions and step ratios are closed form (above),
+// each verdict derived by hand from them against the limits of RULES_DECISIVE_DEFAULTS (common
+// practice (no source), as documented there).
 import { describe, expect, it } from "vitest";
 import { chargingStepReasons, pairRiseReasons } from "../../../lib/assign/decisive/fillingSteps.ts";
 import { secondToFirstStepRatio } from "../../../lib/model/regimeLimits.ts";

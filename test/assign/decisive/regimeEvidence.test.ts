@@ -2,6 +2,9 @@
 // orthodox theory, (ε + Ec(n + ½))/η, and the closed-form step ratio r/(1 + r) of the s doublet
 // (C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991); E. Bonet, M. M. Deshmukh and D. C. Ralph,
 // Phys. Rev. B 65, 045317 (2002); see secondToFirstStepRatio).
+// Where the expected values come from: the peak positions and step ratios are closed form (above),
+// each verdict derived by hand from them against the limits of RULES_DECISIVE_DEFAULTS (common
+// practice (no source), as documented there).
 import { describe, expect, it } from "vitest";
 import { stepRatioBandReasons, twoCbPeakReasons } from "../../../lib/assign/decisive/regimeEvidence.ts";
 import { secondToFirstStepRatio } from "../../../lib/model/regimeLimits.ts";

@@ -1,6 +1,9 @@
 // The tests of notes 4, 10, 5 and 6 of rulesDecisive on shell-tunnelling peak lists at the
 // closed-form positions of orthodox theory, (ε + Ec(n + ½))/η: one level's charging peaks form a
 // ladder one Ec/η apart; deep in shell tunnelling a level of g states steps in proportion to g.
+// Where the expected values come from: the peak positions and step ratios are closed form (above),
+// each verdict derived by hand from them against the limits of RULES_DECISIVE_DEFAULTS (common
+// practice (no source), as documented there).
 import { describe, expect, it } from "vitest";
 import { cbLadderPeaks, ecSpacingReasons, evenLadderReasons, splitLadderReasons } from "../../../lib/assign/decisive/tunnelingLadders.ts";
 import { assignPeak as peak } from "../../helpers/assignPeak.ts";

@@ -1,6 +1,9 @@
 // The tests of notes 8 and 12 of rulesDecisive on shell-tunnelling peak lists at the closed-form
 // positions of orthodox theory, (ε + Ec(n + ½))/η, a level's charging satellite stepping
 // r/(1 + r) × it (C. W. J. Beenakker, Phys. Rev. B 44, 1646 (1991); see secondToFirstStepRatio).
+// Where the expected values come from: the peak positions and step ratios are closed form (above),
+// each verdict derived by hand from them against the limits of RULES_DECISIVE_DEFAULTS (common
+// practice (no source), as documented there).
 import { describe, expect, it } from "vitest";
 import { broadSatelliteReasons, strongSatelliteReasons } from "../../../lib/assign/decisive/tunnelingSatellites.ts";
 import { assignPeak as peak } from "../../helpers/assignPeak.ts";
