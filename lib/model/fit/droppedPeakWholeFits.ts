@@ -85,7 +85,8 @@ export function fillingOrderReading(peaksV: readonly number[], layout: readonly 
 /**
  * The VB peaks a ladder's VB readings are made of: the peaks below zero bias, those labelled
  * second-junction resonances (`role`) set aside; V, in the peaks' order. Shared by
- * `fillingOrderValenceReadings`, `ecGridWholeFits` and `compareGroupings`.
+ * `fillingOrderValenceReadings`, `ecGridWholeFits`, `compareGroupings` and fitCurve's whole-curve Ec
+ * restarts.
  *
  * Example
  * -------

@@ -35,7 +35,7 @@ import { wholeCurveSplits } from "./wholeCurveSplits.ts";
 import { peakStartWholeFits } from "./peakStartWholeFits.ts";
 import { laterEntryWholeFits } from "./laterEntryWholeFits.ts";
 import { unseenSPeakWholeFits } from "./unseenSPeakWholeFits.ts";
-import { droppedPeakWholeFits, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
+import { droppedPeakWholeFits, DROPPED_PEAK_DEFAULTS, valencePeaksV } from "./droppedPeakWholeFits.ts";
 import { mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
 import { ecGridWholeFits, EC_GRID_DEFAULTS } from "./ecGridWholeFits.ts";
 import { tunnelingEcStarts, TUNNELING_EC_STARTS_DEFAULTS } from "./tunnelingEcStarts.ts";
@@ -422,7 +422,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
   // Where the CB side's Ec gives no whole-curve fit that describes the curve, the whole curve is fitted again from other Ec starts ({@link ecRestartedWhole}).
   if (whole && wholeFitOf && winner.side === "CB" && reduced(whole) > F.wholeCurveChiSquare && reduced(whole) > F.wholeCurveRatio * reduced(winner)) {
-    const starts = wholeCurveEcStarts(winner.loop.parameters[parameterIndex(winner.hypothesis.seeds.length).chargingEnergy], peakChargingEnergy(analysis, eta)?.valueEV ?? null, analysis.peaks.filter((x) => x.biasV < 0 && x.role !== "second-junction").map((x) => x.biasV), eta);
+    const starts = wholeCurveEcStarts(winner.loop.parameters[parameterIndex(winner.hypothesis.seeds.length).chargingEnergy], peakChargingEnergy(analysis, eta)?.valueEV ?? null, valencePeaksV(analysis.peaks), eta);
     const better = ecRestartedWhole(starts, (ec) => wholeFitOf!(winner, ec), (t) => wholePlausibility(t, winner).length === 0 && describes(t));
     if (better) {
       warnings.push(`the whole curve started from the CB side's Ec stayed at reduced χ² ${reduced(whole).toPrecision(3)}; started from another Ec it reaches ${reduced(better).toPrecision(3)} at Ec ${(better.loop.parameters[parameterIndex(better.hypothesis.seeds.length).chargingEnergy] * 1000).toFixed(1)} meV`);
