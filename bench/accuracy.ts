@@ -49,8 +49,11 @@
  * "intermediate" with Ec within 3 % and Γtip/Γsub within × 1.5 (the issue's bar). Per regime the
  * rules alone and the answer the record stands by are printed, with how many spectra were fitted,
  * what the fit made of them, how often it decided, fixed a failing answer or broke a passing
- * one, which reasons sent spectra to the fit, and the fits' time. --count-only lists which spectra
- * would be fitted and why without fitting them (seconds instead of minutes).
+ * one, which reasons sent spectra to the fit, and the fits' time, and, per regime, how the fitted
+ * Ec's errors cover the truth where the fit reads the true regime and determines Ec (the share
+ * within 1, 2 and 3 standard errors, against a normal distribution's 68 / 95 / 99.7 %).
+ * --count-only lists which spectra would be fitted and why without fitting them (seconds instead
+ * of minutes).
  */
 import { loadavg } from "node:os";
 import { simulateCurve } from "../lib/model/simulate.ts";
@@ -152,6 +155,13 @@ const comparisonMs: number[] = [];
  * (broke).
  */
 const comparisonTally = new Map<string, { fitted: number; undecided: number; pass: number; fail: number; undetermined: number; decides: number; fixed: number; broke: number }>();
+/**
+ * Per true regime: (fitted Ec − true Ec)/its standard error, over the fits that read the true regime
+ * and determine Ec (a finite error). For errors that are honest standard deviations of a normally
+ * distributed estimate, 68 / 95 / 99.7 % of these lie within 1 / 2 / 3 (the normal distribution's
+ * coverage; any statistics handbook).
+ */
+const ecCalibration = new Map<string, number[]>();
 /** How many spectra each rule of `rulesDecisive` (its code) sent to the fit. */
 const reasonTally = new Map<string, number>();
 
@@ -206,6 +216,12 @@ function compareWithModel(a: CurveAnalysis, t: SyntheticTruth, rulesPass: boolea
     const fit = fitCurve(a, { compareModels: true });
     const m = modelComparisonJson(fitToJson(fit, json), compareAll ? "all" : "undecided", { ranBecause: verdict.reasons, rules: { regime: json.regime, chargingEnergyEV: a.assignment.energies.chargingEnergyEV } });
     const sc = scoreFit(m, t);
+    const ecFit = m.quantities.chargingEnergyEV;
+    if (m.regime === t.regime && ecFit && Number.isFinite(ecFit.standardError) && ecFit.standardError > 0) {
+      const zs = ecCalibration.get(t.regime) ?? [];
+      ecCalibration.set(t.regime, zs);
+      zs.push((ecFit.value - t.chargingEnergyEV) / ecFit.standardError);
+    }
     result = { ...sc, decides: m.decides === true, detail: `${sc.detail}; ${m.decision}`, reasons: verdict.reasons };
     if (ecCheck) {
       // Where the rules read shell filling and the fit a charging ladder: how far the fit's Ec lies from the peak-based one, by layout and outcome.
@@ -401,7 +417,10 @@ if (compareModels) {
   const at = (p: number) => (ms.length ? ms[Math.min(ms.length - 1, Math.floor(p * ms.length))].toFixed(0) : "—");
   lines.push(`comparison fits ${ms.length}: median ${at(0.5)} ms, 90th percentile ${at(0.9)} ms, total ${(ms.reduce((x, y) => x + y, 0) / 1000).toFixed(1)} s; load average ${loadavg().map((x) => x.toFixed(1)).join(", ")}`);
 }
-const within = (k: number) => calibration.filter((z) => Math.abs(z) <= k).length / Math.max(calibration.length, 1);
+const coverage = (zs: readonly number[], k: number) => zs.filter((z) => Math.abs(z) <= k).length / Math.max(zs.length, 1);
+const within = (k: number) => coverage(calibration, k);
+for (const [regime, zs] of ecCalibration)
+  lines.push(`fitted Ec uncertainty calibration, ${regime} (${zs.length} fits reading the true regime with Ec determined): |error| ≤ 1σ ${(100 * coverage(zs, 1)).toFixed(0)} %, ≤ 2σ ${(100 * coverage(zs, 2)).toFixed(0)} %, ≤ 3σ ${(100 * coverage(zs, 3)).toFixed(0)} % (normal: 68/95/99.7)`);
 if (mix !== "crossover") lines.push(
   `peak-position uncertainty calibration over ${calibration.length} peaks: |error| ≤ 1σ ${(100 * within(1)).toFixed(0)} %, ≤ 2σ ${(100 * within(2)).toFixed(0)} %, ≤ 3σ ${(100 * within(3)).toFixed(0)} % (normal: 68/95/99.7)`,
 );
