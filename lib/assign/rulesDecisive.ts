@@ -17,6 +17,7 @@ import { impossibleLayoutReasons } from "./decisive/impossibleLayout.ts";
 import { mergedStepReasons } from "./decisive/mergedSteps.ts";
 import { hiddenLadderReasons } from "./decisive/hiddenLadders.ts";
 import { resonantWindowReasons } from "./decisive/resonantWindow.ts";
+import { tunnelingResonanceReasons } from "./decisive/tunnelingResonances.ts";
 
 /** What {@link rulesDecisive} reads: the peaks, their assignment and the bias window. */
 export interface RulesDecisiveInput {
@@ -105,7 +106,8 @@ export interface RulesDecisive {
  * 10 `split-ladder`, 11 `two-cb-peaks`, 12 `strong-satellite`, 13 `odd-subgroup`, 14 `d-near-split-p`,
  * 15 `charging-rise`, 16 `off-ladder-spacing`, 17 `pair-rise`, 18 `first-peak-set-aside`,
  * 19 `gap-peak-set-aside`, 20 `unread-cb-peaks`, 21 `negative-sp-spacing`, 22 `ec-of-gap`,
- * 23 `subgroup-fall`, 24 `edge-peak-set-aside`, 25 `pulled-charging-peak`, 26 `vb-charging-pairs`.
+ * 23 `subgroup-fall`, 24 `edge-peak-set-aside`, 25 `pulled-charging-peak`, 26 `vb-charging-pairs`,
+ * 27 `resonant-window`, 28 `resonance-held-level`, 29 `vb-beyond-resonance`.
  */
 export type RulesDecisiveCode =
   | "undetermined"
@@ -134,7 +136,9 @@ export type RulesDecisiveCode =
   | "edge-peak-set-aside"
   | "pulled-charging-peak"
   | "vb-charging-pairs"
-  | "resonant-window";
+  | "resonant-window"
+  | "resonance-held-level"
+  | "vb-beyond-resonance";
 
 /** Defaults of {@link rulesDecisive} (locked by test/assign/rulesDecisive.test.ts). */
 export const RULES_DECISIVE_DEFAULTS = Object.freeze({
@@ -300,6 +304,14 @@ export const RULES_DECISIVE_DEFAULTS = Object.freeze({
  *    (decisive/resonantWindow.ts): η given and below 1, and a peak set aside as a resonance or a multiplet
  *    peak's resonance −η·V/(1 − η) inside the window. The rules' grouping of a charging ladder
  *    there rests on which peaks they set aside; the model holds the resonances.
+ * 28–29. Shell tunnelling read among second-junction resonances, `tunnelingResonanceReasons`
+ *    (decisive/tunnelingResonances.ts, its defaults `TUNNELING_RESONANCE_DEFAULTS`, its notes give
+ *    the figures). 28: p read as fewer than three levels and a CB peak after s set aside as a
+ *    resonance that steps at least its source's step with no peak overlapping it, or that shares
+ *    one prediction with another set-aside peak: a p sub-level merged with the resonance. 29: a VB
+ *    level read beyond a peak set aside as a CB level's resonance, the VB reading three or more
+ *    levels: that level's next charging peak through the substrate junction, Ec/(1 − η) beyond its
+ *    resonance, read as a VB level.
  *
  * References
  * ----------
@@ -370,6 +382,7 @@ export function rulesDecisive(input: RulesDecisiveInput, options: RulesDecisiveO
     mergedStepReasons(peaks, a), // 23–24
     hiddenLadderReasons(peaks, a), // 25–26
     resonantWindowReasons(peaks, a, input.biasRangeV), // 27
+    tunnelingResonanceReasons(peaks, a), // 28–29
   ];
   for (const list of reasonLists) for (const r of list) add(r.code, r.text);
   return { decisive: reasons.length === 0, reasons, codes };
