@@ -38,6 +38,7 @@ import { unseenSPeakWholeFits } from "./unseenSPeakWholeFits.ts";
 import { droppedPeakWholeFits, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
 import { mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
 import { ecGridWholeFits, EC_GRID_DEFAULTS } from "./ecGridWholeFits.ts";
+import { cbSideEcLadderWholeFits, CB_SIDE_EC_LADDER_DEFAULTS } from "./cbSideEcLadderWholeFits.ts";
 import { tunnelingEcStarts, TUNNELING_EC_STARTS_DEFAULTS } from "./tunnelingEcStarts.ts";
 import { weightedWholeFits } from "./weightedWholeFits.ts";
 import { structuredWholeSplit } from "./structuredWholeSplit.ts";
@@ -447,6 +448,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   const wholeStages = [
     ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...stageSplit, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
     ...(poorWhole ? [() => laterEntryWholeFits(wholeContext), () => unseenSPeakWholeFits(wholeContext), () => (budgetSpent() <= DROPPED_PEAK_DEFAULTS.maxBudgetSpent ? droppedPeakWholeFits(wholeContext) : null), () => (budgetSpent() <= EC_GRID_DEFAULTS.maxBudgetSpent ? ecGridWholeFits(wholeContext) : null), () => (budgetSpent() <= MERGED_PEAK_DEFAULTS.maxBudgetSpent ? mergedPeakWholeFits(wholeContext) : null)] : []),
+    // The same ladders matched at the CB side's Ec, where the VB spacing gave another ({@link cbSideEcLadderWholeFits}).
+    ...(poorWhole ? [() => (budgetSpent() <= CB_SIDE_EC_LADDER_DEFAULTS.maxBudgetSpent ? cbSideEcLadderWholeFits({ ...wholeContext, cbSideEcEV: winner.loop.parameters[parameterIndex(winner.hypothesis.seeds.length).chargingEnergy] }) : null)] : []),
     // A tunnelling reading whose whole curve is not described: Ec starts from a grid, each level's first entry kept ({@link tunnelingEcStarts}).
     ...(whole && wholeFitOf && eta < 1 && winner.side === "CB" ? [() => (budgetSpent() <= TUNNELING_EC_STARTS_DEFAULTS.maxBudgetSpent ? tunnelingEcStarts({ ...stageSplit, whole: whole!, peaksV: analysis.peaks.filter((x) => x.role !== "second-junction").map((x) => x.biasV) }) : null)] : []),
   ];
