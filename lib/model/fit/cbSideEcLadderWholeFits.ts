@@ -37,6 +37,11 @@ export const CB_SIDE_EC_LADDER_DEFAULTS = Object.freeze({
 export interface CbSideEcLadderContext extends UnseenSPeakContext {
   /** The CB-side winner's fitted charging energy, eV. */
   cbSideEcEV: number;
+  /**
+   * The CB-side winner itself (its BIC on the CB side and its grouping): a reading found here with
+   * another CB layout replaces it only at a lower CB-side BIC (note 4). Absent: no such check.
+   */
+  cbSideWinner?: Pick<FitTrial, "bic" | "hypothesis">;
 }
 
 /**
@@ -54,7 +59,9 @@ export interface CbSideEcLadderContext extends UnseenSPeakContext {
  * { cb: FitTrial; whole: FitTrial } | null
  *     As {@link mergedPeakWholeFits}: the whole-curve run that describes the curve and is
  *     acceptable, with its grouping fitted on the CB side; null where the CB side's Ec is not
- *     positive, lies within sameEcFraction of the Ec mergedPeakWholeFits used, or no reading does.
+ *     positive, lies within sameEcFraction of the Ec mergedPeakWholeFits used, no reading does, or
+ *     the reading found lays out the CB levels otherwise than the CB-side winner without a lower
+ *     CB-side BIC (note 4).
  *
  * Throws
  * ------
@@ -73,6 +80,14 @@ export interface CbSideEcLadderContext extends UnseenSPeakContext {
  *    and −2.414 V): the CB side fitted Ec 196.5 meV, the VB spacing gave 111 meV, and every
  *    grouping's whole-curve fit stayed at reduced χ² 27 or more; matched at the CB side's Ec
  *    with p's entry at the labelled peak the 2+2+4 ladder describes the curve.
+ * 4. A whole-curve reading that describes the curve says nothing by itself about the CB layout
+ *    where the CB side already has a reading: a ladder with one more sub-level can fit the CB side
+ *    as well as the right one and then carry the whole curve too. So a reading whose CB
+ *    degeneracies differ from the CB-side winner's is kept only where its own CB-side fit has the
+ *    lower BIC (the comparison every grouping goes through, χ² + k·ln n). On the low-η benchmark:
+ *    5085's winner (2+6) fits its CB side at reduced χ² 3.36, the 2+2+4 reading at 0.97, kept;
+ *    seed 2001's 2027 (p whole) and 2052 had a right-sized 2+6 CB side at 0.95 and 0.92, and the
+ *    2+2+4 and 2+2+2+2 readings found here (0.97, 0.92 with one more level) are not kept.
  *
  * Example
  * -------
@@ -90,7 +105,15 @@ export function cbSideEcLadderWholeFits(context: CbSideEcLadderContext, settings
   if (!ladders.length) return null;
   const bias = ladders[0].analysis.conductance.biasV;
   const vb = [...matchedValenceReadings(ladders[0].analysis.peaks, cbSideEcEV / context.eta, Math.min(bias[0], bias[bias.length - 1]), settings), ...fillingOrderValenceReadings(ladders, cbSideEcEV / context.eta).slice(0, 1)];
-  return matchedLadderWholeFits(context, cbSideEcEV, MERGED_PEAK_DEFAULTS, distinctReadings(vb));
+  const found = matchedLadderWholeFits(context, cbSideEcEV, MERGED_PEAK_DEFAULTS, distinctReadings(vb));
+  const w = context.cbSideWinner;
+  if (found && w && cbLayout(found.cb.hypothesis) !== cbLayout(w.hypothesis) && !(found.cb.bic < w.bic)) return null;
+  return found;
+}
+
+/** A grouping's CB degeneracies from the gap outward, "2+2+4". */
+function cbLayout(h: Pick<FitTrial, "hypothesis">["hypothesis"]): string {
+  return h.seeds.filter((x) => x.band === "CB").map((x) => x.degeneracy).join("+");
 }
 
 /**

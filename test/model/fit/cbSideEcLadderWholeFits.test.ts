@@ -79,6 +79,20 @@ describe("cbSideEcLadderWholeFits(context) on low-η draw 5085", () => {
     expect(trials).toContain(found!.cb);
   }, 180_000);
 
+  // Note 4: another CB layout than the CB-side winner's replaces it only at a lower CB-side BIC
+  // (BIC = χ² + k·ln n, Schwarz 1978, Annals of Statistics 6, 461; the lower the better).
+  it("keeps a reading with another CB layout than the CB-side winner's only at a lower CB-side BIC", () => {
+    const { context } = setup();
+    const c = context(0.1965);
+    const found = cbSideEcLadderWholeFits(c)!;
+    const layout = (degeneracies: number[]) => ({ seeds: degeneracies.map((degeneracy) => ({ band: "CB", degeneracy })) }) as unknown as FitTrial["hypothesis"];
+    expect(found.cb.hypothesis.cbDegeneracies).toEqual([2, 2, 4]);
+    const withWinner = (degeneracies: number[], bic: number) => cbSideEcLadderWholeFits({ ...context(0.1965), cbSideWinner: { hypothesis: layout(degeneracies), bic } });
+    expect(withWinner([2, 6], found.cb.bic + 10)).not.toBeNull();
+    expect(withWinner([2, 6], found.cb.bic - 10)).toBeNull();
+    expect(withWinner([2, 2, 4], found.cb.bic - 10)).not.toBeNull();
+  }, 180_000);
+
   it("leaves the ladders alone where the CB side's Ec is the one already matched", () => {
     const { trials, context } = setup();
     const used = mergedPeakEcEV(context(1))!;
