@@ -44,7 +44,8 @@ export { unseenSPeakReadings, unseenSPeakWholeFits, UNSEEN_S_PEAK_DEFAULTS, type
 export { droppedPeakWholeFits, fillingOrderReading, DROPPED_PEAK_DEFAULTS } from "./droppedPeakWholeFits.ts";
 export { ecGridStartsEV, ecGridWholeFits, ecValenceReadings, EC_GRID_DEFAULTS } from "./ecGridWholeFits.ts";
 export { ecProfile, profileReading, EC_PROFILE_DEFAULTS, type EcProfileInput, type ProfileReading } from "./ecProfile.ts";
-export { matchedLadderReadings, mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
+export { matchedLadderReadings, matchedLadderWholeFits, mergedPeakEcEV, mergedPeakWholeFits, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
+export { cbSideEcLadderWholeFits, matchedValenceReadings, CB_SIDE_EC_LADDER_DEFAULTS, type CbSideEcLadderContext } from "./cbSideEcLadderWholeFits.ts";
 export { structuredWholeSplit, STRUCTURED_WHOLE_SPLIT_DEFAULTS, type StructuredWholeSplitContext } from "./structuredWholeSplit.ts";
 export { orderLevels } from "./orderLevels.ts";
 export { shiftGrouping } from "./shiftGrouping.ts";

@@ -182,17 +182,37 @@ export function matchedLadderReadings(cbPeaksV: readonly number[], layout: reado
  * ```
  */
 export function mergedPeakWholeFits(context: UnseenSPeakContext, settings = MERGED_PEAK_DEFAULTS): { cb: FitTrial; whole: FitTrial } | null {
+  const ecEV = mergedPeakEcEV(context);
+  return ecEV === null ? null : matchedLadderWholeFits(context, ecEV, settings);
+}
+
+/**
+ * The Ec (eV) {@link mergedPeakWholeFits} matches its ladders with: from the first VB spacing of
+ * the peaks that carry a step, else the first filling-order ladder's start; null where there is no
+ * filling-order ladder or no positive Ec.
+ */
+export function mergedPeakEcEV(context: UnseenSPeakContext): number | null {
+  const base = context.hypotheses.find((h) => h.kind === "ladder-filling");
+  if (!base) return null;
+  const stepless = steplessPeaksV(base.analysis.peaks, UNSEEN_S_PEAK_DEFAULTS.minStepFraction);
+  const ecEV = valenceSpacingEcEV(context.vbPeaksV.filter((v) => !stepless.has(v)), context.eta) ?? base.chargingEnergyStartEV;
+  return ecEV !== null && ecEV > 0 ? ecEV : null;
+}
+
+/**
+ * As {@link mergedPeakWholeFits}, with the ladders matched and started at a given Ec (eV), and
+ * with the given VB readings where they are given (else {@link fillingOrderValenceReadings} at that Ec).
+ */
+export function matchedLadderWholeFits(context: UnseenSPeakContext, ecEV: number, settings = MERGED_PEAK_DEFAULTS, vbReadingsGiven?: LevelSeed[][]): { cb: FitTrial; whole: FitTrial } | null {
   const ladders = context.hypotheses.filter((h) => h.kind === "ladder-filling");
-  if (!ladders.length) return null;
+  if (!ladders.length || !(ecEV > 0)) return null;
   const base = ladders[0];
   const peaks = base.analysis.peaks;
   const stepless = steplessPeaksV(peaks, UNSEEN_S_PEAK_DEFAULTS.minStepFraction);
   const cbPeaksV = peaks.filter((x) => x.biasV > 0 && !stepless.has(x.biasV)).map((x) => x.biasV);
-  const ecEV = valenceSpacingEcEV(context.vbPeaksV.filter((v) => !stepless.has(v)), context.eta) ?? base.chargingEnergyStartEV;
-  if (ecEV === null || !(ecEV > 0)) return null;
   const bias = base.analysis.conductance.biasV;
   const topV = Math.max(bias[0], bias[bias.length - 1]);
-  const vbReadings = fillingOrderValenceReadings(ladders, ecEV / context.eta);
+  const vbReadings = vbReadingsGiven ?? fillingOrderValenceReadings(ladders, ecEV / context.eta);
   const hypotheses = settings.pLayouts.flatMap((p) => {
     const readings: LadderReading[] = matchedLadderReadings(cbPeaksV, [2, ...p], ecEV / context.eta, topV, settings).map(({ cb, passed }) => ({
       cb,
