@@ -9,6 +9,7 @@ import { distinctReadings } from "./levelsToFit.ts";
 import { fillingOrderValenceReadings } from "./droppedPeakWholeFits.ts";
 import { matchedLadderReadings, matchedLadderWholeFits, mergedPeakEcEV, MERGED_PEAK_DEFAULTS } from "./mergedPeakWholeFits.ts";
 import { steplessPeaksV, UNSEEN_S_PEAK_DEFAULTS, type UnseenSPeakContext } from "./unseenSPeakWholeFits.ts";
+import { layoutOf } from "./penaltyTiedWholeChoice.ts";
 
 /** Defaults of {@link cbSideEcLadderWholeFits} (locked by test/model/fit/cbSideEcLadderWholeFits.test.ts). */
 export const CB_SIDE_EC_LADDER_DEFAULTS = Object.freeze({
@@ -107,14 +108,10 @@ export function cbSideEcLadderWholeFits(context: CbSideEcLadderContext, settings
   const vb = [...matchedValenceReadings(ladders[0].analysis.peaks, cbSideEcEV / context.eta, Math.min(bias[0], bias[bias.length - 1]), settings), ...fillingOrderValenceReadings(ladders, cbSideEcEV / context.eta).slice(0, 1)];
   const found = matchedLadderWholeFits(context, cbSideEcEV, MERGED_PEAK_DEFAULTS, distinctReadings(vb));
   const w = context.cbSideWinner;
-  if (found && w && cbLayout(found.cb.hypothesis) !== cbLayout(w.hypothesis) && !(found.cb.bic < w.bic)) return null;
+  if (found && w && layoutOf(found.cb) !== layoutOf(w) && !(found.cb.bic < w.bic)) return null;
   return found;
 }
 
-/** A grouping's CB degeneracies from the gap outward, "2+2+4". */
-function cbLayout(h: Pick<FitTrial, "hypothesis">["hypothesis"]): string {
-  return h.seeds.filter((x) => x.band === "CB").map((x) => x.degeneracy).join("+");
-}
 
 /**
  * The VB peaks read as charging ladders in filling order from the gap, matched as the CB peaks are

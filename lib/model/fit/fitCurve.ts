@@ -444,6 +444,8 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   // The stages search for a better fit than the one found: one that finds none before the budget is spent has not cut the fit short ({@link fitRunner}'s search).
   const stageSplit = { ...split, run: runner.search };
   const wholeContext = { ...stageSplit, heldVb: winner.hypothesis.heldVb, hypotheses: hypotheses.filter((h) => h.kind !== "assigned" || runAssigned), vbPeaksV: analysis.peaks.filter((x) => x.biasV < 0).map((x) => x.biasV) };
+  // The peaks' biases with the second-junction resonances left out: the gap the Ec grids of tunnelingEcStarts and ecProfile span.
+  const levelPeaksV = analysis.peaks.filter((x) => x.role !== "second-junction").map((x) => x.biasV);
   // The stages in order, each run only where every earlier one found nothing; the first found wins.
   const wholeStages = [
     ...(poorWhole && reduced(whole!) > F.wholeCurveRatio * reduced(winner) ? [() => wholeCurveSplits({ ...stageSplit, heldVb: winner.hypothesis.heldVb }), () => peakStartWholeFits(wholeContext)] : []),
@@ -451,7 +453,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
     // The same ladders matched at the CB side's Ec, where the VB spacing gave another ({@link cbSideEcLadderWholeFits}).
     ...(poorWhole ? [() => (budgetSpent() <= CB_SIDE_EC_LADDER_DEFAULTS.maxBudgetSpent ? cbSideEcLadderWholeFits({ ...wholeContext, cbSideEcEV: winner.loop.parameters[parameterIndex(winner.hypothesis.seeds.length).chargingEnergy], cbSideWinner: winner }) : null)] : []),
     // A tunnelling reading whose whole curve is not described: Ec starts from a grid, each level's first entry kept ({@link tunnelingEcStarts}).
-    ...(whole && wholeFitOf && eta < 1 && winner.side === "CB" ? [() => (budgetSpent() <= TUNNELING_EC_STARTS_DEFAULTS.maxBudgetSpent ? tunnelingEcStarts({ ...stageSplit, whole: whole!, peaksV: analysis.peaks.filter((x) => x.role !== "second-junction").map((x) => x.biasV) }) : null)] : []),
+    ...(whole && wholeFitOf && eta < 1 && winner.side === "CB" ? [() => (budgetSpent() <= TUNNELING_EC_STARTS_DEFAULTS.maxBudgetSpent ? tunnelingEcStarts({ ...stageSplit, whole: whole!, peaksV: levelPeaksV }) : null)] : []),
   ];
   let found: { cb: FitTrial; whole: FitTrial } | null = null;
   for (const stage of wholeStages) if ((found = stage())) break;
@@ -502,7 +504,7 @@ export function fitCurve(analysis: CurveAnalysis, options: FitOptions = {}): Cur
   }
   // Where the satellite steps are small, Ec from a χ² profile over it: a lower χ² moves the fit, a flat one leaves Ec undetermined ({@link ecProfile}).
   const fromCbSide = best === winner;
-  ({ trial: best, errors } = ecProfile({ trial: best, errors, run: runner.search, maxIterations, currentOf, noiseA, eta, peaksV: analysis.peaks.filter((x) => x.role !== "second-junction").map((x) => x.biasV), budgetSpent, trials, warnings }));
+  ({ trial: best, errors } = ecProfile({ trial: best, errors, run: runner.search, maxIterations, currentOf, noiseA, eta, peaksV: levelPeaksV, budgetSpent, trials, warnings }));
   // On a blind CB side the whole-curve BICs weigh the groupings (the CB side's differ by k·ln n alone).
   const weights = evidenceWeights(finalists.map((t) => (blindWholeBic ? (blindWholeBic.get(t) ?? Infinity) : implausibleOf(t).length ? Infinity : t.bic)));
   const { hypothesis } = best;

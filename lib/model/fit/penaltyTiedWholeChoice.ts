@@ -30,8 +30,11 @@ export interface PenaltyTiedWholeChoiceContext extends WholeChoiceContext {
   plausible: (cb: FitTrial) => boolean;
 }
 
-/** The CB layout of a run: its CB levels' degeneracies from the gap outward. */
-function layoutOf(t: FitTrial): string {
+/**
+ * The CB layout of a run: its CB levels' degeneracies from the gap outward ("2+2+4"). Shared with
+ * `cbSideEcLadderWholeFits`.
+ */
+export function layoutOf(t: Pick<FitTrial, "hypothesis">): string {
   return t.hypothesis.seeds.filter((s) => s.band === "CB").map((s) => s.degeneracy).join("+");
 }
 
